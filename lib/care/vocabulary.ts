@@ -1,0 +1,96 @@
+// The product's shared words (DESIGN.md §2–§3). Pure: no imports. The database schema, the
+// validation schemas and the care engine all take their enumerations from here.
+
+export const PIECE_KINDS = [
+  "dining_table",
+  "coffee_table",
+  "desk",
+  "bench",
+  "countertop",
+  "console",
+  "shelf",
+  "other",
+] as const;
+export type PieceKind = (typeof PIECE_KINDS)[number];
+
+export const FINISH_CLASSES = [
+  "hardwax_oil",
+  "ceramic_topcoat",
+  "paste_wax",
+  "film_finish",
+  "epoxy_surface",
+  "charred_oiled",
+] as const;
+export type FinishClass = (typeof FINISH_CLASSES)[number];
+
+/** heavy: dining/kitchen/commercial; moderate: coffee table/desk; light: console/decor. */
+export const USES = ["heavy", "moderate", "light", "outdoor_covered"] as const;
+export type Use = (typeof USES)[number];
+
+export const SUN_EXPOSURES = ["none", "indirect", "direct"] as const;
+export type SunExposure = (typeof SUN_EXPOSURES)[number];
+
+export const SURFACES = ["top", "base", "edges"] as const;
+export type Surface = (typeof SURFACES)[number];
+
+export const RESIN_KINDS = ["none", "deep_pour", "tabletop_coat"] as const;
+export type ResinKind = (typeof RESIN_KINDS)[number];
+
+export const SHAPE_KINDS = ["rectangle", "round", "oval", "measured"] as const;
+export type ShapeKind = (typeof SHAPE_KINDS)[number];
+
+export const CLAIM_CATEGORIES = [
+  "crack_gap",
+  "resin_clouding",
+  "finish_wear",
+  "finish_peeling",
+  "structural",
+  "scratch_dent",
+  "other",
+] as const;
+export type ClaimCategory = (typeof CLAIM_CATEGORIES)[number];
+
+export const STUDIO_ROLES = ["admin", "staff", "technician"] as const;
+export type StudioRole = (typeof STUDIO_ROLES)[number];
+
+export const FINISH_CLASS_LABELS: Record<FinishClass, string> = {
+  hardwax_oil: "Hardwax oil",
+  ceramic_topcoat: "Ceramic-type topcoat over oil",
+  paste_wax: "Paste wax",
+  film_finish: "Film finish (polyurethane, conversion varnish)",
+  epoxy_surface: "Epoxy surface",
+  charred_oiled: "Charred surface, oiled",
+};
+
+export const PIECE_KIND_LABELS: Record<PieceKind, string> = {
+  dining_table: "Dining table",
+  coffee_table: "Coffee table",
+  desk: "Desk",
+  bench: "Bench",
+  countertop: "Countertop",
+  console: "Console",
+  shelf: "Shelf",
+  other: "Other",
+};
+
+export const USE_LABELS: Record<Use, string> = {
+  heavy: "Heavy use (dining, kitchen, commercial)",
+  moderate: "Moderate use (coffee table, desk)",
+  light: "Light use (console, decor)",
+  outdoor_covered: "Outdoor, covered",
+};
+
+export const SUN_LABELS: Record<SunExposure, string> = {
+  none: "No sun",
+  indirect: "Indirect sun",
+  direct: "Direct sun",
+};
+
+export const RESIN_LABELS: Record<ResinKind, string> = {
+  none: "No resin",
+  deep_pour: "Deep-pour casting",
+  tabletop_coat: "Tabletop coat",
+};
+
+/** Classes that contain a drying oil: their rags can self-heat (NFPA tip sheet "Safety with oily rags"). */
+export const OIL_FINISH_CLASSES: readonly FinishClass[] = ["hardwax_oil", "ceramic_topcoat", "charred_oiled"];
