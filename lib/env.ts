@@ -1,0 +1,48 @@
+import { z } from "zod";
+
+// One schema for every setting the app, the scheduler and the scripts read. Defaults make the demo
+// run on a fresh clone; .env.example lists them. Parsed once, at first import.
+const port = z.coerce.number().int().min(0).max(65535);
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  APP_URL: z.url().default("http://localhost:3000"),
+  DATABASE_URL: z.string().min(1).default("./data/grainward.db"),
+  DATA_DIR: z.string().min(1).default("./data"),
+  APP_SECRET: z
+    .string()
+    .min(32, "APP_SECRET must be at least 32 characters")
+    .default("grainward-demo-secret-not-for-production-use"),
+  SMTP_HOST: z.string().min(1).default("127.0.0.1"),
+  SMTP_PORT: port.default(2525),
+  MAIL_FROM: z.string().min(3).default("Grainward <no-reply@grainward.example>"),
+  /** HTTP read API of the local SMTP sink; only the development outbox uses it. */
+  MAIL_SINK_URL: z.url().default("http://127.0.0.1:2526"),
+  /** Shows the outbox in production builds too (demo and tests run a production build). */
+  OUTBOX_ENABLED: z
+    .enum(["true", "false"])
+    .default("false")
+    .transform((v) => v === "true"),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+function parseEnv(): Env {
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new Error(`Grainward cannot start: invalid environment variables\n${lines.join("\n")}`);
+  }
+  const env = parsed.data;
+  const host = new URL(env.APP_URL).hostname;
+  const local = host === "localhost" || host === "127.0.0.1" || host === "::1";
+  if (!local && env.APP_SECRET === envSchema.shape.APP_SECRET.parse(undefined)) {
+    throw new Error("Grainward cannot start: set APP_SECRET (32+ random characters) when APP_URL is not localhost");
+  }
+  return env;
+}
+
+export const env = parseEnv();
+
+/** The outbox reads the local SMTP sink: in development, or when a demo/test build turns it on. */
+export const outboxEnabled = env.NODE_ENV !== "production" || env.OUTBOX_ENABLED;
