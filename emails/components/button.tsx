@@ -1,0 +1,40 @@
+import { Button as EmailButton, Link, Section } from "@react-email/components";
+import { Note } from "./layout";
+import { colors } from "./theme";
+
+/** The one call to action of a message: a large teal button. */
+export function ActionButton({ href, children }: { href: string; children: string }) {
+  return (
+    <Section style={{ margin: "8px 0 24px" }}>
+      <EmailButton
+        href={href}
+        style={{
+          backgroundColor: colors.accent,
+          color: colors.onAccent,
+          borderRadius: "6px",
+          fontSize: "16px",
+          fontWeight: 600,
+          textDecoration: "none",
+          padding: "14px 24px",
+          display: "inline-block",
+        }}
+      >
+        {children}
+      </EmailButton>
+    </Section>
+  );
+}
+
+/** The same link spelled out, for clients that hide buttons and for the plain-text part. */
+export function LinkFallback({ href }: { href: string }) {
+  return (
+    <Note>
+      If the button does not work, copy this link into your browser:{" "}
+      <Link href={href} style={{ color: colors.accent, wordBreak: "break-all" }}>
+        {href}
+      </Link>
+    </Note>
+  );
+}
+
+export default ActionButton;

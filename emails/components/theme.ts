@@ -1,0 +1,14 @@
+// The look of every Grainward e-mail: a calm, paper-like surface, ink-dark text, one accent colour.
+export const colors = {
+  paper: "#faf7f2",
+  card: "#ffffff",
+  ink: "#1f2328",
+  muted: "#5b6169",
+  rule: "#e6dfd3",
+  accent: "#0f5e5e",
+  onAccent: "#ffffff",
+} as const;
+
+export const fontStack =
+  '-apple-system, BlinkMacSystemFont, "Segoe UI", Roboto, "Helvetica Neue", Arial, sans-serif';
+export const serifStack = 'Georgia, "Times New Roman", serif';

@@ -1,0 +1,33 @@
+import { EmailLayout, Note, Paragraph } from "./components/layout";
+import { ActionButton, LinkFallback } from "./components/button";
+
+export type VerifyEmailProps = {
+  name: string;
+  /** Absolute URL of the verification link. */
+  url: string;
+};
+
+export const verifyEmailSubject = "Confirm your email address for Grainward";
+
+export function VerifyEmail({ name, url }: VerifyEmailProps) {
+  return (
+    <EmailLayout preview="One tap to confirm your email address." heading="Confirm your email address">
+      <Paragraph>Hi {name},</Paragraph>
+      <Paragraph>
+        Please confirm that this address is yours. Once it is, we can send you the care reminders for your pieces and
+        keep you posted on any claim or visit.
+      </Paragraph>
+      <ActionButton href={url}>Confirm email address</ActionButton>
+      <LinkFallback href={url} />
+      <Note>If you did not create a Grainward account, you can ignore this message; nothing will happen.</Note>
+    </EmailLayout>
+  );
+}
+
+// Invented example values for the React Email preview.
+VerifyEmail.PreviewProps = {
+  name: "Jonah Reyes",
+  url: "https://grainward.example/verify-email?token=example-verification-token",
+} satisfies VerifyEmailProps;
+
+export default VerifyEmail;
