@@ -234,6 +234,14 @@ function addresses(field: AddressObject | AddressObject[] | undefined): string[]
   return out;
 }
 
+/** `Name <address>` (unquoted, for reading) of each From address, comma-separated. */
+function formatFrom(field: AddressObject | undefined): string {
+  if (!field) return "";
+  return field.value
+    .map((e) => (e.name && e.address ? `${e.name} <${e.address}>` : (e.address ?? e.name)))
+    .join(", ");
+}
+
 function envelopeAddress(a: SMTPServerAddress | false): string {
   return a ? a.address : "";
 }
@@ -253,7 +261,7 @@ function toStored(parsed: ParsedMail, raw: Buffer, session: SMTPServerSession): 
       from: envelopeAddress(session.envelope.mailFrom),
       to: session.envelope.rcptTo.map((r) => r.address),
     },
-    from: parsed.from?.text ?? "",
+    from: formatFrom(parsed.from),
     to: [...addresses(parsed.to), ...addresses(parsed.cc)],
     subject: parsed.subject ?? "",
     text: parsed.text ?? "",
