@@ -94,3 +94,48 @@ export const RESIN_LABELS: Record<ResinKind, string> = {
 
 /** Classes that contain a drying oil: their rags can self-heat (NFPA tip sheet "Safety with oily rags"). */
 export const OIL_FINISH_CLASSES: readonly FinishClass[] = ["hardwax_oil", "ceramic_topcoat", "charred_oiled"];
+
+// ---- care engine additions (lib/care/schedule.ts) ----
+
+/** Care task kinds: one per finish class, plus the yearly whole-piece check. */
+export const CARE_TASK_KINDS = [
+  "reoil",
+  "topcoat_refresh",
+  "rewax",
+  "film_inspect",
+  "resin_polish",
+  "reoil_charred",
+  "annual_check",
+] as const;
+export type CareTaskKind = (typeof CARE_TASK_KINDS)[number];
+
+export const TASK_KIND_BY_FINISH_CLASS: Record<FinishClass, CareTaskKind> = {
+  hardwax_oil: "reoil",
+  ceramic_topcoat: "topcoat_refresh",
+  paste_wax: "rewax",
+  film_finish: "film_inspect",
+  epoxy_surface: "resin_polish",
+  charred_oiled: "reoil_charred",
+};
+
+export const CARE_TASK_LABELS: Record<CareTaskKind, string> = {
+  reoil: "Re-oil",
+  topcoat_refresh: "Topcoat refresh",
+  rewax: "Re-wax",
+  film_inspect: "Inspect film finish",
+  resin_polish: "Polish and inspect resin",
+  reoil_charred: "Re-oil charred surface",
+  annual_check: "Annual clean and check",
+};
+
+/** Tasks a paid refresh visit would do, so a refresh offer can be attached to their reminders. */
+export const REFRESH_TASK_KINDS: readonly CareTaskKind[] = ["reoil", "topcoat_refresh", "rewax", "resin_polish", "reoil_charred"];
+
+export const CLAIM_EXCLUSIONS = ["heat", "chemicals", "impact", "outdoor_use_of_indoor_piece", "direct_sun_on_indoor_resin"] as const;
+export type ClaimExclusion = (typeof CLAIM_EXCLUSIONS)[number];
+
+export const CARE_TASK_STATUSES = ["upcoming", "due", "overdue", "done"] as const;
+export type CareTaskStatus = (typeof CARE_TASK_STATUSES)[number];
+
+export const REMINDER_STEPS = ["before_14d", "due_day", "after_30d"] as const;
+export type ReminderStep = (typeof REMINDER_STEPS)[number];

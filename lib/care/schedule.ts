@@ -1,0 +1,355 @@
+import type { TopShape } from "./area";
+import { addDays, addMonths, assertTimeZone, diffDays, localDate, parseIsoDate, toEpochMs, type InstantInput, type IsoDate } from "./dates";
+import { CareInputError } from "./errors";
+import {
+  ANNUAL_CHECK_MONTHS,
+  DEFAULT_INTERVAL_SOURCE,
+  DEFAULT_WEAR_INTERVALS,
+  effectiveInterval,
+  useBand,
+  type EffectiveInterval,
+  type UseBand,
+  type WearIntervals,
+} from "./intervals";
+import {
+  CARE_TASK_LABELS,
+  FINISH_CLASSES,
+  REFRESH_TASK_KINDS,
+  TASK_KIND_BY_FINISH_CLASS,
+  type CareTaskKind,
+  type CareTaskStatus,
+  type FinishClass,
+  type PieceKind,
+  type ReminderStep,
+  type ResinKind,
+  type SunExposure,
+  type Surface,
+  type Use,
+} from "./vocabulary";
+
+/** What the care engine needs of a piece record (DESIGN.md §3). */
+export interface CarePiece {
+  id: string;
+  kind: PieceKind;
+  use: Use;
+  sun: SunExposure;
+  /** Delivery date, YYYY-MM-DD. */
+  deliveredOn: IsoDate;
+  resin: ResinKind;
+  shape?: TopShape;
+  /** Species id from lib/care/species.ts, for movement checks. */
+  primarySpeciesId?: string;
+  /** How the top's boards or slab were sawn; live-edge slabs are usually flat-sawn (the default). */
+  grain?: "flat" | "quarter";
+}
+
+/** One entry of the finish stack. */
+export interface CareFinishLayer {
+  id: string;
+  surface: Surface;
+  finishClass: FinishClass;
+  /** Catalog entry id of the product used, if known. */
+  productId?: string;
+  coats: number;
+  appliedOn: IsoDate;
+}
+
+/** Care done, self-logged by the owner or recorded at a visit. Without `surface` it counts for every surface. */
+export interface CareLogEntry {
+  taskKind: CareTaskKind;
+  doneOn: IsoDate;
+  surface?: Surface;
+}
+
+/** A finish product of the studio's catalog. */
+export interface CatalogEntry {
+  id: string;
+  name?: string;
+  finishClass: FinishClass;
+  /** Coverage of one coat, m² per litre. */
+  coverageM2PerL: number;
+  containerSizesMl: readonly number[];
+  /** Price of one container by its size in mL, minor units of the quote currency. */
+  containerPricesMinor?: Readonly<Record<number, number>>;
+  /** Overrides DESIGN.md §4's defaults, months. */
+  intervals?: Partial<WearIntervals>;
+  /** Coats a refresh applies (default 1). */
+  refreshCoats?: number;
+}
+
+/**
+ * Which surfaces carry a care clock:
+ * - "top": layers on the top and on its edges (edges are cared for with the top); interval by the piece's use.
+ * - "base": layers on the base; a base sees little wear, so it uses the light-use interval, except on
+ *   outdoor pieces (heavy). Direct sun shortens both.
+ * - "whole_piece": the yearly clean-and-check.
+ */
+export type TaskSurface = "top" | "base" | "whole_piece";
+
+export interface CareReminder {
+  step: ReminderStep;
+  on: IsoDate;
+}
+
+export interface CareTask {
+  /** Stable: pieceId + kind + surface. A send ledger is unique on (key, dueOn, step) — see reminderKey. */
+  key: string;
+  pieceId: string;
+  kind: CareTaskKind;
+  label: string;
+  surface: TaskSurface;
+  finishClass: FinishClass | null;
+  /** A paid refresh visit would do this task (refresh offers attach to it). */
+  isRefresh: boolean;
+  /** The layer or catalog product that set the clock. */
+  layerId: string | null;
+  productId: string | null;
+  interval: EffectiveInterval;
+  /** The date the clock runs from and why. */
+  clockFrom: IsoDate;
+  clockSource: "layer" | "care_log" | "delivery";
+  dueOn: IsoDate;
+  reminders: CareReminder[];
+  status: CareTaskStatus;
+  /** dueOn − today in days (negative when overdue). */
+  daysUntilDue: number;
+  reasons: string[];
+}
+
+export interface CareScheduleInput {
+  piece: CarePiece;
+  finishLayers: readonly CareFinishLayer[];
+  careLog: readonly CareLogEntry[];
+  catalog: readonly CatalogEntry[];
+  now: InstantInput;
+  /** The studio's IANA time zone; "today" is the date of `now` there. Default "UTC". */
+  timeZone?: string;
+}
+
+export interface CareSchedule {
+  pieceId: string;
+  today: IsoDate;
+  timeZone: string;
+  /** Sorted by due date, then kind. */
+  tasks: CareTask[];
+  /** Inputs that were ignored and why (e.g. care logged in the future). */
+  notes: string[];
+}
+
+/** Reminders go out 14 days before, on the day, and 30 days after (DESIGN.md §5). */
+export const REMINDER_OFFSETS_DAYS: Record<ReminderStep, number> = { before_14d: -14, due_day: 0, after_30d: 30 };
+
+export function taskKey(pieceId: string, kind: CareTaskKind, surface: TaskSurface): string {
+  return `${pieceId}:${kind}:${surface}`;
+}
+
+/** A unique key for one reminder e-mail of one cycle of a task. */
+export function reminderKey(task: Pick<CareTask, "key" | "dueOn">, step: ReminderStep): string {
+  return `${task.key}:${task.dueOn}:${step}`;
+}
+
+export function isRefreshTask(kind: CareTaskKind): boolean {
+  return REFRESH_TASK_KINDS.includes(kind);
+}
+
+const CLASS_NOUN: Record<FinishClass, string> = {
+  hardwax_oil: "oil coat",
+  ceramic_topcoat: "topcoat",
+  paste_wax: "wax coat",
+  film_finish: "film finish coat",
+  epoxy_surface: "resin surface",
+  charred_oiled: "oil coat on the charred surface",
+};
+
+const USE_PHRASE: Record<Use, string> = {
+  heavy: "heavy use",
+  moderate: "moderate use",
+  light: "light use",
+  outdoor_covered: "outdoor (covered), counted as heavy use",
+};
+
+const SUN_PHRASE: Record<SunExposure, string> = { none: "no sun", indirect: "indirect sun", direct: "direct sun" };
+
+let cachedToday: { ms: number; tz: string; date: IsoDate } | undefined;
+
+function todayIn(now: InstantInput, timeZone: string): IsoDate {
+  const ms = toEpochMs(now, "now");
+  if (cachedToday && cachedToday.ms === ms && cachedToday.tz === timeZone) return cachedToday.date;
+  const date = localDate(ms, timeZone);
+  cachedToday = { ms, tz: timeZone, date };
+  return date;
+}
+
+/**
+ * Status of a task relative to today:
+ * - overdue: today is after the due date;
+ * - due: today is inside the reminder window (from 14 days before the due date to the due date);
+ * - done: the current cycle was started by care (a care-log entry, or a layer applied after delivery —
+ *   a refresh) and the next cycle's window has not opened yet;
+ * - upcoming: otherwise.
+ */
+export function taskStatus(today: IsoDate, dueOn: IsoDate, startedByCare: boolean): CareTaskStatus {
+  const d = diffDays(today, dueOn);
+  if (d < 0) return "overdue";
+  if (d <= -REMINDER_OFFSETS_DAYS.before_14d) return "due";
+  return startedByCare ? "done" : "upcoming";
+}
+
+function validatePiece(piece: CarePiece): void {
+  if (!piece || typeof piece.id !== "string" || piece.id === "") throw new CareInputError("piece.id is required", "piece.id");
+  parseIsoDate(piece.deliveredOn, "piece.deliveredOn");
+  useBand(piece.use);
+  if (!(piece.sun in SUN_PHRASE)) throw new CareInputError(`unknown sun exposure ${JSON.stringify(piece.sun)}`, "piece.sun");
+}
+
+function surfaceGroup(surface: Surface): "top" | "base" {
+  return surface === "base" ? "base" : "top";
+}
+
+/** The care tasks of one piece from its finish stack, care log and the studio's catalog (DESIGN.md §4.2–4.3). */
+export function careSchedule(input: CareScheduleInput): CareSchedule {
+  const { piece, finishLayers, careLog, catalog } = input;
+  const timeZone = input.timeZone ?? "UTC";
+  assertTimeZone(timeZone);
+  validatePiece(piece);
+  const today = todayIn(input.now, timeZone);
+  const notes: string[] = [];
+
+  // Newest layer per (surface group, class); a later entry in the stack wins a same-day tie.
+  const newest = new Map<string, CareFinishLayer>();
+  finishLayers.forEach((layer, i) => {
+    if (!FINISH_CLASSES.includes(layer.finishClass)) {
+      throw new CareInputError(`finishLayers[${i}].finishClass is unknown: ${JSON.stringify(layer.finishClass)}`, "finishLayers.finishClass");
+    }
+    parseIsoDate(layer.appliedOn, `finishLayers[${i}].appliedOn`);
+    if (layer.appliedOn > today) {
+      notes.push(`layer ${layer.id} is dated ${layer.appliedOn}, after today (${today}); ignored`);
+      return;
+    }
+    const k = `${surfaceGroup(layer.surface)}|${layer.finishClass}`;
+    const prev = newest.get(k);
+    if (!prev || layer.appliedOn >= prev.appliedOn) newest.set(k, layer);
+  });
+
+  // Latest care-log date per (kind, surface group or "*").
+  const logged = new Map<string, IsoDate>();
+  careLog.forEach((entry, i) => {
+    parseIsoDate(entry.doneOn, `careLog[${i}].doneOn`);
+    if (entry.doneOn > today) {
+      notes.push(`care log entry ${entry.taskKind} on ${entry.doneOn} is after today (${today}); ignored`);
+      return;
+    }
+    const k = `${entry.taskKind}|${entry.surface ? surfaceGroup(entry.surface) : "*"}`;
+    for (const key of [k, `${entry.taskKind}|any`]) {
+      const prev = logged.get(key);
+      if (!prev || entry.doneOn > prev) logged.set(key, entry.doneOn);
+    }
+  });
+  const lastLogged = (kind: CareTaskKind, group: "top" | "base" | "any"): IsoDate | undefined => {
+    if (group === "any") return logged.get(`${kind}|any`);
+    const a = logged.get(`${kind}|${group}`);
+    const b = logged.get(`${kind}|*`);
+    return a === undefined ? b : b === undefined || a > b ? a : b;
+  };
+
+  const tasks: CareTask[] = [];
+  const band = useBand(piece.use);
+  for (const [k, layer] of newest) {
+    const group = k.slice(0, k.indexOf("|")) as "top" | "base";
+    const cls = layer.finishClass;
+    if (cls === "hardwax_oil") {
+      const top = newest.get(`${group}|ceramic_topcoat`);
+      if (top && top.appliedOn >= layer.appliedOn) continue; // cared for through the topcoat task
+    }
+    const kind = TASK_KIND_BY_FINISH_CLASS[cls];
+    const product = layer.productId === undefined ? undefined : catalog.find((c) => c.id === layer.productId);
+    const taskBand: UseBand = group === "base" && piece.use !== "outdoor_covered" ? "light" : band;
+    const catalogMonths = product && product.finishClass === cls ? product.intervals?.[taskBand] : undefined;
+    const intervals: WearIntervals = { ...DEFAULT_WEAR_INTERVALS[cls] };
+    if (catalogMonths !== undefined) intervals[taskBand] = catalogMonths;
+    const interval = effectiveInterval(intervals, taskBand, piece.sun);
+
+    const log = lastLogged(kind, group);
+    const byLog = log !== undefined && log >= layer.appliedOn;
+    const clockFrom = byLog ? log : layer.appliedOn;
+    const dueOn = addDays(addMonths(clockFrom, interval.months), interval.days);
+    const startedByCare = byLog || layer.appliedOn > piece.deliveredOn;
+
+    const label = CARE_TASK_LABELS[kind];
+    const since = byLog ? `last logged ${label.toLowerCase()} ${clockFrom}` : `last ${CLASS_NOUN[cls]} ${clockFrom}`;
+    const where = group === "base" ? "base" : "top";
+    const usePhrase = group === "base" && taskBand === "light" ? "base, light wear" : USE_PHRASE[piece.use];
+    const reasons = [`${label.toLowerCase()} (${where}) due ${dueOn}: ${since}, ${usePhrase}, ${SUN_PHRASE[piece.sun]} (${interval.text})`];
+    reasons.push(
+      catalogMonths !== undefined
+        ? `interval from catalog product ${product?.name ?? product?.id}`
+        : DEFAULT_INTERVAL_SOURCE[cls] + (layer.productId !== undefined && !product ? `; product ${layer.productId} is not in the catalog` : ""),
+    );
+    if (cls === "ceramic_topcoat" && newest.has(`${group}|hardwax_oil`)) {
+      reasons.push("the hardwax oil beneath is protected by the topcoat; refreshing the topcoat is its care");
+    }
+    tasks.push(
+      makeTask(piece.id, kind, group, cls, layer.id, layer.productId ?? null, interval, clockFrom, byLog ? "care_log" : "layer", dueOn, today, startedByCare, reasons),
+    );
+  }
+
+  // Yearly clean-and-check of the whole piece, from delivery or the last logged check.
+  const lastCheck = lastLogged("annual_check", "any");
+  const checkByLog = lastCheck !== undefined && lastCheck >= piece.deliveredOn;
+  const checkFrom = checkByLog ? lastCheck : piece.deliveredOn;
+  const checkInterval = effectiveInterval({ heavy: ANNUAL_CHECK_MONTHS, moderate: ANNUAL_CHECK_MONTHS, light: ANNUAL_CHECK_MONTHS }, band, "none");
+  const checkDue = addMonths(checkFrom, checkInterval.months);
+  tasks.push(
+    makeTask(piece.id, "annual_check", "whole_piece", null, null, null, checkInterval, checkFrom, checkByLog ? "care_log" : "delivery", checkDue, today, checkByLog, [
+      `annual clean and check due ${checkDue}: ${checkByLog ? `last logged check ${checkFrom}` : `delivered ${checkFrom}`} (every 12 mo)`,
+      "yearly check: from memory, common practice — no published source",
+    ]),
+  );
+
+  tasks.sort((a, b) => (a.dueOn < b.dueOn ? -1 : a.dueOn > b.dueOn ? 1 : a.kind < b.kind ? -1 : a.kind > b.kind ? 1 : 0));
+  return { pieceId: piece.id, today, timeZone, tasks, notes };
+}
+
+function makeTask(
+  pieceId: string,
+  kind: CareTaskKind,
+  surface: TaskSurface,
+  finishClass: FinishClass | null,
+  layerId: string | null,
+  productId: string | null,
+  interval: EffectiveInterval,
+  clockFrom: IsoDate,
+  clockSource: CareTask["clockSource"],
+  dueOn: IsoDate,
+  today: IsoDate,
+  startedByCare: boolean,
+  reasons: string[],
+): CareTask {
+  const status = taskStatus(today, dueOn, startedByCare);
+  const daysUntilDue = diffDays(today, dueOn);
+  if (status === "overdue") reasons.push(`overdue by ${-daysUntilDue} day${daysUntilDue === -1 ? "" : "s"} on ${today}`);
+  else if (status === "done") reasons.push(`done: ${clockSource === "care_log" ? "care logged" : "refreshed"} ${clockFrom}`);
+  return {
+    key: taskKey(pieceId, kind, surface),
+    pieceId,
+    kind,
+    label: CARE_TASK_LABELS[kind],
+    surface,
+    finishClass,
+    isRefresh: isRefreshTask(kind),
+    layerId,
+    productId,
+    interval,
+    clockFrom,
+    clockSource,
+    dueOn,
+    reminders: [
+      { step: "before_14d", on: addDays(dueOn, REMINDER_OFFSETS_DAYS.before_14d) },
+      { step: "due_day", on: dueOn },
+      { step: "after_30d", on: addDays(dueOn, REMINDER_OFFSETS_DAYS.after_30d) },
+    ],
+    status,
+    daysUntilDue,
+    reasons,
+  };
+}
