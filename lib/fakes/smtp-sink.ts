@@ -141,11 +141,7 @@ export async function startSmtpSink({
         if (Number.isNaN(t)) return send(res, 400, { error: "since must be an ISO date" });
         list = list.filter((m) => Date.parse(m.receivedAt) >= t);
       }
-      return send(
-        res,
-        200,
-        list.map(({ raw: _raw, ...summary }) => summary satisfies MessageSummary),
-      );
+      return send(res, 200, list.map(summarize));
     }
 
     if (method !== "GET") return send(res, 405, { error: "Method not allowed" });
@@ -207,6 +203,12 @@ export async function startSmtpSink({
       return closed;
     },
   };
+}
+
+function summarize(m: StoredMessage): MessageSummary {
+  const summary: Partial<StoredMessage> = { ...m };
+  delete summary.raw;
+  return summary as MessageSummary;
 }
 
 function send(res: http.ServerResponse, status: number, body: unknown) {
