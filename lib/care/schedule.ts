@@ -202,7 +202,30 @@ function validatePiece(piece: CarePiece): void {
   if (!(piece.sun in SUN_PHRASE)) throw new CareInputError(`unknown sun exposure ${JSON.stringify(piece.sun)}`, "piece.sun");
 }
 
-function surfaceGroup(surface: Surface): "top" | "base" {
+/**
+ * The wear interval a layer's clock runs on: the catalog product's months for the band if it has them,
+ * else DESIGN.md §4's default; the band is the piece's use (base: light unless outdoor); direct sun × 0.75.
+ */
+export function layerInterval(
+  piece: Pick<CarePiece, "use" | "sun">,
+  layer: Pick<CareFinishLayer, "surface" | "finishClass" | "productId">,
+  catalog: readonly CatalogEntry[],
+): { interval: EffectiveInterval; product: CatalogEntry | undefined; catalogMonths: number | undefined } {
+  const cls = layer.finishClass;
+  const product = layer.productId === undefined ? undefined : catalog.find((c) => c.id === layer.productId);
+  const band: UseBand = surfaceGroup(layer.surface) === "base" && piece.use !== "outdoor_covered" ? "light" : useBand(piece.use);
+  const catalogMonths = product && product.finishClass === cls ? product.intervals?.[band] : undefined;
+  const intervals: WearIntervals = { ...DEFAULT_WEAR_INTERVALS[cls] };
+  if (catalogMonths !== undefined) intervals[band] = catalogMonths;
+  return { interval: effectiveInterval(intervals, band, piece.sun), product, catalogMonths };
+}
+
+/** Due date of a clock started on `from`: whole months (clamped to month end), then the extra days. */
+export function dueDate(from: IsoDate, interval: Pick<EffectiveInterval, "months" | "days">): IsoDate {
+  return addDays(addMonths(from, interval.months), interval.days);
+}
+
+export function surfaceGroup(surface: Surface): "top" | "base" {
   return surface === "base" ? "base" : "top";
 }
 
@@ -262,17 +285,13 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
       if (top && top.appliedOn >= layer.appliedOn) continue; // cared for through the topcoat task
     }
     const kind = TASK_KIND_BY_FINISH_CLASS[cls];
-    const product = layer.productId === undefined ? undefined : catalog.find((c) => c.id === layer.productId);
-    const taskBand: UseBand = group === "base" && piece.use !== "outdoor_covered" ? "light" : band;
-    const catalogMonths = product && product.finishClass === cls ? product.intervals?.[taskBand] : undefined;
-    const intervals: WearIntervals = { ...DEFAULT_WEAR_INTERVALS[cls] };
-    if (catalogMonths !== undefined) intervals[taskBand] = catalogMonths;
-    const interval = effectiveInterval(intervals, taskBand, piece.sun);
+    const { interval, product, catalogMonths } = layerInterval(piece, layer, catalog);
+    const taskBand = interval.band;
 
     const log = lastLogged(kind, group);
     const byLog = log !== undefined && log >= layer.appliedOn;
     const clockFrom = byLog ? log : layer.appliedOn;
-    const dueOn = addDays(addMonths(clockFrom, interval.months), interval.days);
+    const dueOn = dueDate(clockFrom, interval);
     const startedByCare = byLog || layer.appliedOn > piece.deliveredOn;
 
     const label = CARE_TASK_LABELS[kind];

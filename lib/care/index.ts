@@ -1,0 +1,16 @@
+// The care engine's public API (DESIGN.md §4). Pure TypeScript: no framework, database or npm imports.
+export * from "./vocabulary";
+export * from "./errors";
+export * from "./units";
+export * from "./dates";
+export * from "./area";
+export * from "./moisture";
+export * from "./species";
+export * from "./movement";
+export * from "./quantity";
+export * from "./intervals";
+export * from "./schedule";
+export * from "./coverage";
+export * from "./quote";
+export * from "./slots";
+export * from "./registration-code";
