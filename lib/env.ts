@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { DEFAULT_DATABASE_URL } from "@/db/config";
 
 // One schema for every setting the app, the scheduler and the scripts read. Defaults make the demo
 // run on a fresh clone; .env.example lists them. Parsed once, at first import.
@@ -7,7 +8,7 @@ const port = z.coerce.number().int().min(0).max(65535);
 const envSchema = z.object({
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
   APP_URL: z.url().default("http://localhost:3000"),
-  DATABASE_URL: z.string().min(1).default("./data/grainward.db"),
+  DATABASE_URL: z.string().min(1).default(DEFAULT_DATABASE_URL),
   DATA_DIR: z.string().min(1).default("./data"),
   APP_SECRET: z
     .string()
@@ -18,6 +19,8 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default("Grainward <no-reply@grainward.example>"),
   /** HTTP read API of the local SMTP sink; only the development outbox uses it. */
   MAIL_SINK_URL: z.url().default("http://127.0.0.1:2526"),
+  /** Window of the sign-in, registration-code and reset rate limits, in seconds (tests shorten it). */
+  RATE_LIMIT_WINDOW_SEC: z.coerce.number().int().min(1).max(86_400).default(900),
   /** Shows the outbox in production builds too (demo and tests run a production build). */
   OUTBOX_ENABLED: z
     .enum(["true", "false"])

@@ -1,0 +1,11 @@
+"use server";
+
+import { requestPasswordReset } from "@/lib/auth/accounts";
+import { clientIp } from "@/lib/auth/session";
+import { validatedAction } from "@/lib/validation/action";
+import { forgotPasswordSchema } from "@/lib/validation/auth";
+
+export const forgotPasswordAction = validatedAction(forgotPasswordSchema, async (input) => {
+  await requestPasswordReset(input, await clientIp());
+  return { ok: true as const, data: undefined };
+});

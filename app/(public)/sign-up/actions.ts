@@ -1,0 +1,12 @@
+"use server";
+
+import { redirect } from "next/navigation";
+import { signUp } from "@/lib/auth/accounts";
+import { clientIp } from "@/lib/auth/session";
+import { validatedAction } from "@/lib/validation/action";
+import { safeNextPath, signUpSchema } from "@/lib/validation/auth";
+
+export const signUpAction = validatedAction(signUpSchema, async (input) => {
+  await signUp({ ...input, next: safeNextPath(input.next) }, await clientIp());
+  redirect(`/verify-email/sent${input.next ? `?next=${encodeURIComponent(input.next)}` : ""}`);
+});

@@ -1,0 +1,51 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useState } from "react";
+import { useForm, type DefaultValues, type FieldValues, type Path, type Resolver } from "react-hook-form";
+import { toast } from "sonner";
+import type { z } from "zod";
+import type { ActionResult } from "@/lib/validation/action";
+
+/**
+ * A react-hook-form form checked on the client by the same zod schema the server action parses
+ * with; the server's field errors land next to their fields, and nothing typed is lost.
+ */
+export function useActionForm<S extends z.ZodType<FieldValues, FieldValues>, T>({
+  schema,
+  action,
+  defaultValues,
+  onSuccess,
+  successMessage,
+}: {
+  schema: S;
+  action: (values: z.input<S>) => Promise<ActionResult<T>>;
+  defaultValues?: DefaultValues<z.input<S>>;
+  onSuccess?: (data: T) => void;
+  successMessage?: string;
+}) {
+  const form = useForm<z.input<S>, unknown, z.output<S>>({
+    resolver: zodResolver(schema as never) as unknown as Resolver<z.input<S>, unknown, z.output<S>>,
+    defaultValues,
+    mode: "onTouched",
+  });
+  const [formError, setFormError] = useState<string | null>(null);
+
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    const result = await action(values as z.input<S>);
+    if (!result) return; // the action redirected
+    if (result.ok) {
+      const message = result.message ?? successMessage;
+      if (message) toast.success(message);
+      onSuccess?.(result.data);
+      return;
+    }
+    setFormError(result.message);
+    for (const [field, messages] of Object.entries(result.fieldErrors ?? {})) {
+      if (messages?.[0]) form.setError(field as Path<z.input<S>>, { type: "server", message: messages[0] });
+    }
+  });
+
+  return { form, onSubmit, formError };
+}

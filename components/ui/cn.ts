@@ -1,0 +1,5 @@
+import { clsx, type ClassValue } from "clsx";
+
+export function cn(...values: ClassValue[]): string {
+  return clsx(values);
+}

@@ -1,0 +1,62 @@
+import { z } from "zod";
+
+// Shared by the forms (react-hook-form's zod resolver) and the server actions.
+
+export const emailField = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .min(1, "Enter your e-mail address.")
+  .max(254, "That e-mail address is too long.")
+  .pipe(z.email("Enter an e-mail address like name@example.com."));
+
+export const newPasswordField = z
+  .string()
+  .min(10, "Use at least 10 characters.")
+  .max(200, "Use at most 200 characters.");
+
+export const signInSchema = z.object({
+  email: emailField,
+  password: z.string().min(1, "Enter your password.").max(200, "That password is too long."),
+  next: z.string().max(500).optional(),
+});
+export type SignInInput = z.infer<typeof signInSchema>;
+
+export const signUpSchema = z.object({
+  name: z.string().trim().min(1, "Tell us your name.").max(120, "Use at most 120 characters."),
+  email: emailField,
+  password: newPasswordField,
+  next: z.string().max(500).optional(),
+});
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const forgotPasswordSchema = z.object({ email: emailField });
+export type ForgotPasswordInput = z.infer<typeof forgotPasswordSchema>;
+
+export const resetPasswordSchema = z
+  .object({
+    token: z.string().min(10, "This reset link is incomplete.").max(200),
+    password: newPasswordField,
+    confirm: z.string(),
+  })
+  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });
+export type ResetPasswordInput = z.infer<typeof resetPasswordSchema>;
+
+export const inviteSchema = z.object({
+  email: emailField,
+  role: z.enum(["admin", "staff", "technician"], { message: "Pick a role." }),
+});
+export type InviteInput = z.infer<typeof inviteSchema>;
+
+export const acceptInvitationSchema = z.object({
+  token: z.string().min(10).max(200),
+  name: z.string().trim().min(1, "Tell us your name.").max(120),
+  password: newPasswordField,
+});
+export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
+
+/** Only same-site paths are accepted as a place to go after signing in. */
+export function safeNextPath(next: string | undefined | null): string | undefined {
+  if (!next || !next.startsWith("/") || next.startsWith("//") || next.startsWith("/\\")) return undefined;
+  return next;
+}
