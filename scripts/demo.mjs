@@ -1,0 +1,31 @@
+// `npm run demo`: a fresh demo database with the invented studio, a production build, then the app,
+// the local SMTP sink (and the other local services as they arrive), until Ctrl-C.
+import { removeDatabase, runStep, supervise } from "./services.mjs";
+
+const port = process.env.PORT ?? "3000";
+const env = {
+  ...process.env,
+  NODE_ENV: "production",
+  NEXT_TELEMETRY_DISABLED: "1",
+  PORT: port,
+  DATABASE_URL: process.env.DATABASE_URL ?? "./data/demo.db",
+  APP_URL: process.env.APP_URL ?? `http://localhost:${port}`,
+  SMTP_PORT: process.env.SMTP_PORT ?? "2525",
+  MAIL_SINK_HTTP_PORT: process.env.MAIL_SINK_HTTP_PORT ?? "2526",
+  MAIL_SINK_URL: process.env.MAIL_SINK_URL ?? `http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? "2526"}`,
+  OUTBOX_ENABLED: "true",
+};
+
+removeDatabase(env.DATABASE_URL);
+runStep("Migrating a fresh demo database", "tsx", ["db/migrate.ts"], env);
+runStep("Seeding the invented demo studio", "tsx", ["db/seed/index.ts"], env);
+if (!process.env.SKIP_BUILD) runStep("Building the app", "next", ["build"], env);
+
+console.log(`\n▸ Starting Grainward on ${env.APP_URL} (outbox at ${env.APP_URL}/studio/outbox). Ctrl-C stops everything.\n`);
+supervise(
+  [
+    { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
+    { name: "app", cmd: "next", args: ["start", "-p", port] },
+  ],
+  env,
+);
