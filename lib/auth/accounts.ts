@@ -21,8 +21,10 @@ import type {
 import type { StudioContext } from "./guards";
 import { hashPassword, verifyAgainstDummy, verifyPassword } from "./password";
 import { consumeAttempt, resetAttempts } from "./rate-limit";
-import { endAllSessions, startSession } from "./session";
+import { endAllSessions } from "./session";
 
+// Account flows. They check, write and mail; the caller starts the session (lib/auth/session.ts),
+// so these run the same from a server action and from a test.
 const HOUR = 60 * 60 * 1000;
 export const RESET_TOKEN_TTL_MS = HOUR;
 export const VERIFY_TOKEN_TTL_MS = 48 * HOUR;
@@ -45,7 +47,6 @@ export async function signUp(input: SignUpInput, ip: string) {
     .returning()
     .get();
   await sendVerificationEmail(user.id, input.next);
-  await startSession(user.id);
   return user;
 }
 
@@ -59,7 +60,6 @@ export async function signIn(input: SignInInput, ip: string) {
   const ok = user ? await verifyPassword(user.passwordHash, input.password) : await verifyAgainstDummy(input.password);
   if (!user || !ok) throw unauthorized("That e-mail and password don't match an account.");
   await resetAttempts("signInAccount", input.email);
-  await startSession(user.id);
   return user;
 }
 
@@ -148,7 +148,6 @@ export async function resetPassword(input: ResetPasswordInput) {
     .where(eq(users.id, userId))
     .run();
   await endAllSessions(userId);
-  await startSession(userId);
   return userId;
 }
 
@@ -251,6 +250,5 @@ export async function acceptInvitation(input: AcceptInvitationInput, signedInUse
     });
     return user.id;
   });
-  if (!existing) await startSession(userId);
-  return userId;
+  return { userId, newAccount: !existing };
 }

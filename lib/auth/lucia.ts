@@ -4,13 +4,15 @@ import { getDb } from "@/db/client";
 import { sessions, users } from "@/db/schema";
 import { env } from "@/lib/env";
 
+export const SESSION_COOKIE = "gw_session";
+
 let instance: ReturnType<typeof createLucia> | undefined;
 
 function createLucia() {
   return new Lucia(new DrizzleSQLiteAdapter(getDb(), sessions, users), {
     sessionExpiresIn: new TimeSpan(30, "d"),
     sessionCookie: {
-      name: "gw_session",
+      name: SESSION_COOKIE,
       expires: true,
       // Secure whenever the app is served over https; http://localhost demos keep working.
       attributes: { secure: env.APP_URL.startsWith("https://"), sameSite: "lax" },

@@ -3,16 +3,17 @@ import { cookies, headers } from "next/headers";
 import { cache } from "react";
 import type { Session, User } from "lucia";
 import { sha256Hex, randomToken } from "@/lib/crypto";
-import { getLucia } from "./lucia";
+import { getLucia, SESSION_COOKIE } from "./lucia";
 
 export type SessionResult = { user: User; session: Session } | { user: null; session: null };
 
 // The cookie holds a random token; the session row's id is its SHA-256 (lucia accepts a given id).
 export const getCurrentSession = cache(async (): Promise<SessionResult> => {
-  const lucia = getLucia();
+  // cookies() first: it marks the page dynamic before anything opens the database at build time.
   const jar = await cookies();
-  const token = jar.get(lucia.sessionCookieName)?.value;
+  const token = jar.get(SESSION_COOKIE)?.value;
   if (!token || token.length > 100) return { user: null, session: null };
+  const lucia = getLucia();
   const result = await lucia.validateSession(sha256Hex(token));
   try {
     if (result.session?.fresh) setCookie(jar, lucia.createSessionCookie(token));

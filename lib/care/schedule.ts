@@ -170,13 +170,14 @@ const USE_PHRASE: Record<Use, string> = {
 
 const SUN_PHRASE: Record<SunExposure, string> = { none: "no sun", indirect: "indirect sun", direct: "direct sun" };
 
-let cachedToday: { ms: number; tz: string; date: IsoDate } | undefined;
+// One-entry cache: a reminder pass calls careSchedule for many pieces with the same now and zone.
+let cachedToday: { now: string | number; tz: string; date: IsoDate } | undefined;
 
 function todayIn(now: InstantInput, timeZone: string): IsoDate {
-  const ms = toEpochMs(now, "now");
-  if (cachedToday && cachedToday.ms === ms && cachedToday.tz === timeZone) return cachedToday.date;
-  const date = localDate(ms, timeZone);
-  cachedToday = { ms, tz: timeZone, date };
+  const key = now instanceof Date ? now.getTime() : now;
+  if (cachedToday && cachedToday.now === key && cachedToday.tz === timeZone) return cachedToday.date;
+  const date = localDate(toEpochMs(now, "now"), timeZone);
+  cachedToday = { now: key, tz: timeZone, date };
   return date;
 }
 

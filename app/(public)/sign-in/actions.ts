@@ -3,11 +3,12 @@
 import { redirect } from "next/navigation";
 import { signIn } from "@/lib/auth/accounts";
 import { homePathFor } from "@/lib/auth/guards";
-import { clientIp } from "@/lib/auth/session";
+import { clientIp, startSession } from "@/lib/auth/session";
 import { validatedAction } from "@/lib/validation/action";
 import { safeNextPath, signInSchema } from "@/lib/validation/auth";
 
 export const signInAction = validatedAction(signInSchema, async (input) => {
   const user = await signIn(input, await clientIp());
+  await startSession(user.id);
   redirect(safeNextPath(input.next) ?? (await homePathFor(user.id)));
 });

@@ -15,7 +15,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
   if (!found) {
     return (
       <AuthCard title="This invitation can't be used">
-        <Notice tone="error" title="Expired, withdrawn or already used">Ask the studio's admin to send a new one.</Notice>
+        <Notice tone="error" title="Expired, withdrawn or already used">Ask the studio&apos;s admin to send a new one.</Notice>
       </AuthCard>
     );
   }

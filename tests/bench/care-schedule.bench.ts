@@ -1,0 +1,61 @@
+// careSchedule over 100,000 synthetic pieces with 3 layers each (issue 3: target < 1.5 s on one core).
+// Run with `npm run bench` (tests/bench/run.ts) or `npx tsx tests/bench/care-schedule.bench.ts`. Data is synthetic.
+import { careSchedule, FINISH_CLASSES, SUN_EXPOSURES, USES, type CareFinishLayer, type CareLogEntry, type CarePiece, type CatalogEntry } from "../../lib/care/index";
+
+const PIECES = 100_000;
+const TARGET_MS = 1500;
+
+function pad(n: number): string {
+  return String(n).padStart(2, "0");
+}
+
+const catalog: CatalogEntry[] = FINISH_CLASSES.map((finishClass, i) => ({
+  id: `synthetic_${finishClass}`,
+  finishClass,
+  coverageM2PerL: 20 + i,
+  containerSizesMl: [250, 1000],
+  ...(i % 2 === 0 ? { intervals: { heavy: 10 + i } } : {}),
+}));
+
+const inputs = Array.from({ length: PIECES }, (_, i) => {
+  const year = 2018 + (i % 8);
+  const month = 1 + (i % 12);
+  const day = 1 + (i % 28);
+  const deliveredOn = `${year}-${pad(month)}-${pad(day)}`;
+  const piece: CarePiece = {
+    id: `synthetic_${i}`,
+    kind: "dining_table",
+    use: USES[i % USES.length]!,
+    sun: SUN_EXPOSURES[i % SUN_EXPOSURES.length]!,
+    deliveredOn,
+    resin: i % 3 === 0 ? "deep_pour" : "none",
+  };
+  const finishLayers: CareFinishLayer[] = [0, 1, 2].map((k) => ({
+    id: `l${i}_${k}`,
+    surface: k === 2 ? "base" : "top",
+    finishClass: FINISH_CLASSES[(i + k * 2) % FINISH_CLASSES.length]!,
+    productId: `synthetic_${FINISH_CLASSES[(i + k * 2) % FINISH_CLASSES.length]}`,
+    coats: 1 + k,
+    appliedOn: `${year + (k === 1 ? 1 : 0)}-${pad(month)}-${pad(day)}`,
+  }));
+  const careLog: CareLogEntry[] = i % 4 === 0 ? [{ taskKind: "annual_check", doneOn: `${year + 1}-${pad(month)}-${pad(day)}` }] : [];
+  return { piece, finishLayers, careLog };
+});
+
+const now = "2026-06-15T12:00:00Z";
+const run = () => {
+  let tasks = 0;
+  for (const input of inputs) tasks += careSchedule({ ...input, catalog, now, timeZone: "America/New_York" }).tasks.length;
+  return tasks;
+};
+
+run(); // warm-up (JIT), not timed
+const start = performance.now();
+const tasks = run();
+const elapsedMs = performance.now() - start;
+const perSecond = Math.round(PIECES / (elapsedMs / 1000));
+console.log(`careSchedule: ${PIECES} pieces × 3 layers → ${tasks} tasks in ${elapsedMs.toFixed(0)} ms (${perSecond.toLocaleString("en-US")} pieces/s; target < ${TARGET_MS} ms)`);
+if (elapsedMs >= TARGET_MS) {
+  console.error(`careSchedule benchmark over target: ${elapsedMs.toFixed(0)} ms ≥ ${TARGET_MS} ms`);
+  process.exit(1);
+}

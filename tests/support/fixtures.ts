@@ -1,0 +1,71 @@
+// Test data made through the same tables the product writes. Invented, like all test data.
+import type { User } from "lucia";
+import { getDb } from "@/db/client";
+import { finishLayers, memberships, pieces, studios, users, type Studio } from "@/db/schema";
+import type { StudioContext } from "@/lib/auth/guards";
+import { hashPassword } from "@/lib/auth/password";
+import type { StudioRole } from "@/lib/care/vocabulary";
+import { newRegistrationCode } from "@/lib/pieces/registration";
+
+let counter = 0;
+export const unique = (prefix: string) => `${prefix}-${process.pid}-${Date.now().toString(36)}-${++counter}`;
+
+export function createStudio(overrides: Partial<typeof studios.$inferInsert> = {}): Studio {
+  return getDb()
+    .insert(studios)
+    .values({ slug: unique("studio"), name: "Test Studio (invented)", timeZone: "America/New_York", ...overrides })
+    .returning()
+    .get();
+}
+
+export async function createUser(overrides: Partial<typeof users.$inferInsert> & { password?: string } = {}) {
+  const { password = "correct horse battery", ...rest } = overrides;
+  return getDb()
+    .insert(users)
+    .values({ email: `${unique("user")}@test.example`, name: "Test Person", passwordHash: await hashPassword(password), ...rest })
+    .returning()
+    .get();
+}
+
+/** A StudioContext as lib/auth's guards would return it, for calling lib/ functions directly. */
+export async function memberContext(studio: Studio, role: StudioRole): Promise<StudioContext> {
+  const user = await createUser();
+  getDb().insert(memberships).values({ studioId: studio.id, userId: user.id, role }).run();
+  const luciaUser: User = {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    emailVerifiedAt: user.emailVerifiedAt,
+    timeZone: user.timeZone,
+    unitSystem: user.unitSystem,
+    remindersEnabled: user.remindersEnabled,
+  };
+  return { user: luciaUser, studio, role };
+}
+
+export function createPiece(studio: Studio, overrides: Partial<typeof pieces.$inferInsert> = {}) {
+  const { code, hash, enc } = newRegistrationCode();
+  const piece = getDb()
+    .insert(pieces)
+    .values({
+      studioId: studio.id,
+      kind: "dining_table",
+      title: "Test table (invented)",
+      shapeKind: "rectangle",
+      lengthMm: 2000,
+      widthMm: 900,
+      primarySpeciesId: "black_walnut",
+      use: "heavy",
+      deliveredOn: "2025-06-01",
+      registrationCodeHash: hash,
+      registrationCodeEnc: enc,
+      ...overrides,
+    })
+    .returning()
+    .get();
+  getDb()
+    .insert(finishLayers)
+    .values({ studioId: studio.id, pieceId: piece.id, surface: "top", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn })
+    .run();
+  return { piece, code };
+}

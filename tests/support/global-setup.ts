@@ -1,0 +1,36 @@
+// Vitest global setup: one fresh, migrated SQLite file per run and the real SMTP sink on free ports.
+// Workers start after this and inherit the environment set here.
+import fs from "node:fs";
+import path from "node:path";
+import { openDatabase } from "@/db/client";
+import { applyMigrations } from "@/db/migrate";
+import { startSmtpSink, type SmtpSink } from "@/lib/fakes/smtp-sink";
+
+let sink: SmtpSink | undefined;
+let dir: string | undefined;
+
+export async function setup() {
+  dir = path.resolve("tests/.tmp", `vitest-${process.pid}-${Date.now()}`);
+  fs.mkdirSync(dir, { recursive: true });
+  const databaseUrl = path.join(dir, "test.db");
+  const db = openDatabase(databaseUrl);
+  applyMigrations(db);
+  db.$client.close();
+
+  sink = await startSmtpSink();
+  Object.assign(process.env, {
+    NODE_ENV: "test",
+    DATABASE_URL: databaseUrl,
+    DATA_DIR: dir,
+    APP_URL: "http://localhost:3999",
+    SMTP_HOST: "127.0.0.1",
+    SMTP_PORT: String(sink.smtpPort),
+    MAIL_SINK_URL: sink.url,
+    RATE_LIMIT_WINDOW_SEC: "2",
+  });
+}
+
+export async function teardown() {
+  await sink?.close();
+  if (dir) fs.rmSync(dir, { recursive: true, force: true });
+}
