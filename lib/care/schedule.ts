@@ -1,5 +1,5 @@
 import type { TopShape } from "./area";
-import { addDays, addMonths, assertTimeZone, diffDays, localDate, parseIsoDate, toEpochMs, type InstantInput, type IsoDate } from "./dates";
+import { addDays, addMonths, assertTimeZone, diffDays, fromDayNumber, localDate, toDayNumber, parseIsoDate, toEpochMs, type InstantInput, type IsoDate } from "./dates";
 import { CareInputError } from "./errors";
 import {
   ANNUAL_CHECK_MONTHS,
@@ -190,9 +190,12 @@ function todayIn(now: InstantInput, timeZone: string): IsoDate {
  * - upcoming: otherwise.
  */
 export function taskStatus(today: IsoDate, dueOn: IsoDate, startedByCare: boolean): CareTaskStatus {
-  const d = diffDays(today, dueOn);
-  if (d < 0) return "overdue";
-  if (d <= -REMINDER_OFFSETS_DAYS.before_14d) return "due";
+  return statusFromDays(diffDays(today, dueOn), startedByCare);
+}
+
+function statusFromDays(daysUntilDue: number, startedByCare: boolean): CareTaskStatus {
+  if (daysUntilDue < 0) return "overdue";
+  if (daysUntilDue <= -REMINDER_OFFSETS_DAYS.before_14d) return "due";
   return startedByCare ? "done" : "upcoming";
 }
 
@@ -345,8 +348,9 @@ function makeTask(
   startedByCare: boolean,
   reasons: string[],
 ): CareTask {
-  const status = taskStatus(today, dueOn, startedByCare);
-  const daysUntilDue = diffDays(today, dueOn);
+  const dueDay = toDayNumber(dueOn);
+  const daysUntilDue = dueDay - toDayNumber(today);
+  const status = statusFromDays(daysUntilDue, startedByCare);
   if (status === "overdue") reasons.push(`overdue by ${-daysUntilDue} day${daysUntilDue === -1 ? "" : "s"} on ${today}`);
   else if (status === "done") reasons.push(`done: ${clockSource === "care_log" ? "care logged" : "refreshed"} ${clockFrom}`);
   return {
@@ -364,9 +368,9 @@ function makeTask(
     clockSource,
     dueOn,
     reminders: [
-      { step: "before_14d", on: addDays(dueOn, REMINDER_OFFSETS_DAYS.before_14d) },
+      { step: "before_14d", on: fromDayNumber(dueDay + REMINDER_OFFSETS_DAYS.before_14d) },
       { step: "due_day", on: dueOn },
-      { step: "after_30d", on: addDays(dueOn, REMINDER_OFFSETS_DAYS.after_30d) },
+      { step: "after_30d", on: fromDayNumber(dueDay + REMINDER_OFFSETS_DAYS.after_30d) },
     ],
     status,
     daysUntilDue,
