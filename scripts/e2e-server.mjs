@@ -1,0 +1,29 @@
+// The server Playwright tests run against: a production build over a fresh, seeded database, with
+// the SMTP sink. Ports are fixed and differ from the demo's, so both can run at once.
+import { removeDatabase, runStep, supervise } from "./services.mjs";
+
+export const E2E = { appPort: "3100", smtpPort: "2625", sinkPort: "2626" };
+
+const env = {
+  ...process.env,
+  NODE_ENV: "production",
+  NEXT_TELEMETRY_DISABLED: "1",
+  DATABASE_URL: "tests/.tmp/e2e.db",
+  DATA_DIR: "tests/.tmp/e2e-data",
+  APP_URL: `http://localhost:${E2E.appPort}`,
+  SMTP_PORT: E2E.smtpPort,
+  MAIL_SINK_HTTP_PORT: E2E.sinkPort,
+  MAIL_SINK_URL: `http://127.0.0.1:${E2E.sinkPort}`,
+  OUTBOX_ENABLED: "true",
+};
+
+removeDatabase(env.DATABASE_URL);
+runStep("Migrating the e2e database", "tsx", ["db/migrate.ts"], env);
+runStep("Seeding the e2e database", "tsx", ["tests/support/seed-e2e.ts"], env);
+supervise(
+  [
+    { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
+    { name: "app", cmd: "next", args: ["start", "-p", E2E.appPort] },
+  ],
+  env,
+);

@@ -1,0 +1,27 @@
+import fs from "node:fs";
+import { expect, type Page } from "@playwright/test";
+
+export const SINK_URL = "http://127.0.0.1:2626";
+export const PASSWORD = "grainward-demo";
+
+export const ACCOUNTS = {
+  admin: "maren@larchmere.example",
+  staff: "teo@larchmere.example",
+  technician: "ines@larchmere.example",
+  owner: "holloway@owners.example",
+  otherOwner: "jonah@owners.example",
+  otherStudioStaff: "staff@other-studio.example",
+} as const;
+export type Role = keyof typeof ACCOUNTS;
+
+export function fixture(): { demoPieceId: string; otherPieceId: string } {
+  return JSON.parse(fs.readFileSync("tests/.tmp/e2e-fixture.json", "utf8"));
+}
+
+export async function signIn(page: Page, email: string, password = PASSWORD) {
+  await page.goto("/sign-in");
+  await page.getByLabel("Email").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).not.toHaveURL(/\/sign-in/);
+}
