@@ -41,7 +41,7 @@ export const DEFAULT_LABOUR: Record<CareTaskKind, LabourModel> = {
   annual_check: { baseHours: 0.5, hoursPerM2: 0 },
 };
 
-/** Labour is billed and booked in quarter hours, rounded up per task. */
+/** Labour is billed and booked in quarter hours, rounded up per task (our own billing rule, no external source). */
 export const LABOUR_INCREMENT_HOURS = 0.25;
 
 function labourModel(kind: CareTaskKind, overrides?: Partial<Record<CareTaskKind, LabourModel>>): LabourModel {
@@ -58,9 +58,14 @@ export function taskHours(kind: CareTaskKind, areaM2: number, overrides?: Partia
   return quarters * LABOUR_INCREMENT_HOURS;
 }
 
+/** A task given by its kind, or a care task (from careSchedule) that has one. */
+export type QuotedTask = CareTaskKind | { kind: CareTaskKind };
+
+const kindOf = (t: QuotedTask): CareTaskKind => (typeof t === "string" ? t : t?.kind);
+
 /** Minutes on site for a visit doing these tasks (the booking duration). */
-export function taskDurationMinutes(tasks: readonly CareTaskKind[], areaM2: number, overrides?: Partial<Record<CareTaskKind, LabourModel>>): number {
-  return tasks.reduce((t, k) => t + Math.round(taskHours(k, areaM2, overrides) * 60), 0);
+export function taskDurationMinutes(tasks: readonly QuotedTask[], areaM2: number, overrides?: Partial<Record<CareTaskKind, LabourModel>>): number {
+  return tasks.reduce((t, k) => t + Math.round(taskHours(kindOf(k), areaM2, overrides) * 60), 0);
 }
 
 export interface QuoteProduct {
@@ -75,7 +80,7 @@ export interface QuoteProduct {
 }
 
 export interface QuoteInput {
-  tasks: readonly CareTaskKind[];
+  tasks: readonly QuotedTask[];
   areaM2: number;
   rates: { labourPerHourMinor: number; labour?: Partial<Record<CareTaskKind, LabourModel>> };
   products: readonly QuoteProduct[];
@@ -151,7 +156,8 @@ export function quote(input: QuoteInput): Quote {
   const lines: QuoteLine[] = [];
   const reasons: string[] = [];
 
-  for (const kind of input.tasks) {
+  const kinds = input.tasks.map(kindOf);
+  for (const kind of kinds) {
     const hours = taskHours(kind, input.areaM2, input.rates.labour);
     const quarters = BigInt(Math.round(hours / LABOUR_INCREMENT_HOURS));
     lines.push({
@@ -168,7 +174,7 @@ export function quote(input: QuoteInput): Quote {
   }
 
   for (const [i, p] of input.products.entries()) {
-    if (!input.tasks.includes(p.taskKind)) {
+    if (!kinds.includes(p.taskKind)) {
       reasons.push(`product ${p.label} is for ${p.taskKind}, which is not quoted; left out`);
       continue;
     }

@@ -51,6 +51,10 @@ describe("quote", () => {
     expect(q.display.total).toBe("17944");
   });
 
+  it("accepts care tasks from careSchedule as well as kinds", () => {
+    expect(quote({ ...base, tasks: [{ kind: "reoil" }] }).totalMinor).toBe(quote(base).totalMinor);
+  });
+
   it("formats minor units in the currency's exponent", () => {
     expect(formatMinorUnits(5, "EUR")).toBe("0.05");
     expect(formatMinorUnits(-12345, "GBP")).toBe("-123.45");
