@@ -12,6 +12,7 @@ import {
   type WearIntervals,
 } from "./intervals";
 import {
+  CARE_TASK_KINDS,
   CARE_TASK_LABELS,
   FINISH_CLASSES,
   REFRESH_TASK_KINDS,
@@ -219,9 +220,23 @@ export function layerInterval(
   const product = layer.productId === undefined ? undefined : catalog.find((c) => c.id === layer.productId);
   const band: UseBand = surfaceGroup(layer.surface) === "base" && piece.use !== "outdoor_covered" ? "light" : useBand(piece.use);
   const catalogMonths = product && product.finishClass === cls ? product.intervals?.[band] : undefined;
-  const intervals: WearIntervals = { ...DEFAULT_WEAR_INTERVALS[cls] };
-  if (catalogMonths !== undefined) intervals[band] = catalogMonths;
-  return { interval: effectiveInterval(intervals, band, piece.sun), product, catalogMonths };
+  const months = catalogMonths ?? DEFAULT_WEAR_INTERVALS[cls][band];
+  return { interval: cachedInterval(months, band, piece.sun), product, catalogMonths };
+}
+
+const intervalCache = new Map<number, (EffectiveInterval | undefined)[]>();
+
+/** effectiveInterval, memoised by months, then band × sun (frozen: tasks share the object). */
+function cachedInterval(months: number, band: UseBand, sun: SunExposure): EffectiveInterval {
+  let row = intervalCache.get(months);
+  if (!row) {
+    row = new Array(9);
+    if (intervalCache.size < 1000) intervalCache.set(months, row);
+  }
+  const i = (band === "heavy" ? 0 : band === "moderate" ? 3 : 6) + (sun === "none" ? 0 : sun === "indirect" ? 1 : 2);
+  let hit = row[i];
+  if (!hit) hit = row[i] = Object.freeze(effectiveInterval({ heavy: months, moderate: months, light: months }, band, sun));
+  return hit;
 }
 
 /** Due date of a clock started on `from`: whole months (clamped to month end), then the extra days. */
@@ -233,6 +248,29 @@ export function surfaceGroup(surface: Surface): "top" | "base" {
   return surface === "base" ? "base" : "top";
 }
 
+const CLASS_COUNT = FINISH_CLASSES.length;
+const SLOTS = CLASS_COUNT * 2;
+const HARDWAX_INDEX = FINISH_CLASSES.indexOf("hardwax_oil");
+const CERAMIC_INDEX = FINISH_CLASSES.indexOf("ceramic_topcoat");
+const LOG_TOP = 0;
+const LOG_BASE = 1;
+const LOG_UNSPECIFIED = 2;
+const LOG_ANY = 3;
+
+/** The latest logged date of a kind for a surface group (entries without a surface count for every group). */
+function lastLogged(logged: readonly (IsoDate | undefined)[] | null, kind: CareTaskKind, group: number): IsoDate | undefined {
+  if (!logged) return undefined;
+  const k = CARE_TASK_KINDS.indexOf(kind) * 4;
+  if (group === LOG_ANY) return logged[k + LOG_ANY];
+  const a = logged[k + group];
+  const b = logged[k + LOG_UNSPECIFIED];
+  return a === undefined ? b : b === undefined || a > b ? a : b;
+}
+
+function byDueThenKind(a: CareTask, b: CareTask): number {
+  return a.dueOn < b.dueOn ? -1 : a.dueOn > b.dueOn ? 1 : a.kind < b.kind ? -1 : a.kind > b.kind ? 1 : 0;
+}
+
 /** The care tasks of one piece from its finish stack, care log and the studio's catalog (DESIGN.md §4.2–4.3). */
 export function careSchedule(input: CareScheduleInput): CareSchedule {
   const { piece, finishLayers, careLog, catalog } = input;
@@ -242,57 +280,57 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
   const today = todayIn(input.now, timeZone);
   const notes: string[] = [];
 
-  // Newest layer per (surface group, class); a later entry in the stack wins a same-day tie.
-  const newest = new Map<string, CareFinishLayer>();
-  finishLayers.forEach((layer, i) => {
-    if (!FINISH_CLASSES.includes(layer.finishClass)) {
-      throw new CareInputError(`finishLayers[${i}].finishClass is unknown: ${JSON.stringify(layer.finishClass)}`, "finishLayers.finishClass");
-    }
+  // Newest layer per (surface group, class) in fixed slots: top classes 0–5, base classes 6–11.
+  // A later entry in the stack wins a same-day tie.
+  const newest: (CareFinishLayer | undefined)[] = new Array(SLOTS);
+  for (let i = 0; i < finishLayers.length; i++) {
+    const layer = finishLayers[i]!;
+    const c = FINISH_CLASSES.indexOf(layer.finishClass);
+    if (c < 0) throw new CareInputError(`finishLayers[${i}].finishClass is unknown: ${JSON.stringify(layer.finishClass)}`, "finishLayers.finishClass");
     parseIsoDate(layer.appliedOn, `finishLayers[${i}].appliedOn`);
     if (layer.appliedOn > today) {
       notes.push(`layer ${layer.id} is dated ${layer.appliedOn}, after today (${today}); ignored`);
-      return;
+      continue;
     }
-    const k = `${surfaceGroup(layer.surface)}|${layer.finishClass}`;
-    const prev = newest.get(k);
-    if (!prev || layer.appliedOn >= prev.appliedOn) newest.set(k, layer);
-  });
+    const slot = (layer.surface === "base" ? CLASS_COUNT : 0) + c;
+    const prev = newest[slot];
+    if (!prev || layer.appliedOn >= prev.appliedOn) newest[slot] = layer;
+  }
 
-  // Latest care-log date per (kind, surface group or "*").
-  const logged = new Map<string, IsoDate>();
-  careLog.forEach((entry, i) => {
+  // Latest care-log date per kind × (top, base, no surface given, any).
+  const logged: (IsoDate | undefined)[] | null = careLog.length > 0 ? new Array(CARE_TASK_KINDS.length * 4) : null;
+  for (let i = 0; i < careLog.length; i++) {
+    const entry = careLog[i]!;
+    const k = CARE_TASK_KINDS.indexOf(entry.taskKind);
+    if (k < 0) throw new CareInputError(`careLog[${i}].taskKind is unknown: ${JSON.stringify(entry.taskKind)}`, "careLog.taskKind");
     parseIsoDate(entry.doneOn, `careLog[${i}].doneOn`);
     if (entry.doneOn > today) {
       notes.push(`care log entry ${entry.taskKind} on ${entry.doneOn} is after today (${today}); ignored`);
-      return;
+      continue;
     }
-    const k = `${entry.taskKind}|${entry.surface ? surfaceGroup(entry.surface) : "*"}`;
-    for (const key of [k, `${entry.taskKind}|any`]) {
-      const prev = logged.get(key);
-      if (!prev || entry.doneOn > prev) logged.set(key, entry.doneOn);
+    const g = entry.surface === undefined ? LOG_UNSPECIFIED : entry.surface === "base" ? LOG_BASE : LOG_TOP;
+    for (const idx of [k * 4 + g, k * 4 + LOG_ANY]) {
+      const prev = logged![idx];
+      if (prev === undefined || entry.doneOn > prev) logged![idx] = entry.doneOn;
     }
-  });
-  const lastLogged = (kind: CareTaskKind, group: "top" | "base" | "any"): IsoDate | undefined => {
-    if (group === "any") return logged.get(`${kind}|any`);
-    const a = logged.get(`${kind}|${group}`);
-    const b = logged.get(`${kind}|*`);
-    return a === undefined ? b : b === undefined || a > b ? a : b;
-  };
+  }
 
   const tasks: CareTask[] = [];
   const band = useBand(piece.use);
-  for (const [k, layer] of newest) {
-    const group = k.slice(0, k.indexOf("|")) as "top" | "base";
+  for (let slot = 0; slot < SLOTS; slot++) {
+    const layer = newest[slot];
+    if (!layer) continue;
+    const group = slot < CLASS_COUNT ? "top" : "base";
     const cls = layer.finishClass;
     if (cls === "hardwax_oil") {
-      const top = newest.get(`${group}|ceramic_topcoat`);
+      const top = newest[slot - HARDWAX_INDEX + CERAMIC_INDEX];
       if (top && top.appliedOn >= layer.appliedOn) continue; // cared for through the topcoat task
     }
     const kind = TASK_KIND_BY_FINISH_CLASS[cls];
     const { interval, product, catalogMonths } = layerInterval(piece, layer, catalog);
     const taskBand = interval.band;
 
-    const log = lastLogged(kind, group);
+    const log = lastLogged(logged, kind, group === "base" ? LOG_BASE : LOG_TOP);
     const byLog = log !== undefined && log >= layer.appliedOn;
     const clockFrom = byLog ? log : layer.appliedOn;
     const dueOn = dueDate(clockFrom, interval);
@@ -300,15 +338,14 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
 
     const label = CARE_TASK_LABELS[kind];
     const since = byLog ? `last logged ${label.toLowerCase()} ${clockFrom}` : `last ${CLASS_NOUN[cls]} ${clockFrom}`;
-    const where = group === "base" ? "base" : "top";
     const usePhrase = group === "base" && taskBand === "light" ? "base, light wear" : USE_PHRASE[piece.use];
-    const reasons = [`${label.toLowerCase()} (${where}) due ${dueOn}: ${since}, ${usePhrase}, ${SUN_PHRASE[piece.sun]} (${interval.text})`];
+    const reasons = [`${label.toLowerCase()} (${group}) due ${dueOn}: ${since}, ${usePhrase}, ${SUN_PHRASE[piece.sun]} (${interval.text})`];
     reasons.push(
       catalogMonths !== undefined
         ? `interval from catalog product ${product?.name ?? product?.id}`
         : DEFAULT_INTERVAL_SOURCE[cls] + (layer.productId !== undefined && !product ? `; product ${layer.productId} is not in the catalog` : ""),
     );
-    if (cls === "ceramic_topcoat" && newest.has(`${group}|hardwax_oil`)) {
+    if (cls === "ceramic_topcoat" && newest[slot - CERAMIC_INDEX + HARDWAX_INDEX]) {
       reasons.push("the hardwax oil beneath is protected by the topcoat; refreshing the topcoat is its care");
     }
     tasks.push(
@@ -317,10 +354,10 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
   }
 
   // Yearly clean-and-check of the whole piece, from delivery or the last logged check.
-  const lastCheck = lastLogged("annual_check", "any");
+  const lastCheck = lastLogged(logged, "annual_check", LOG_ANY);
   const checkByLog = lastCheck !== undefined && lastCheck >= piece.deliveredOn;
   const checkFrom = checkByLog ? lastCheck : piece.deliveredOn;
-  const checkInterval = effectiveInterval({ heavy: ANNUAL_CHECK_MONTHS, moderate: ANNUAL_CHECK_MONTHS, light: ANNUAL_CHECK_MONTHS }, band, "none");
+  const checkInterval = cachedInterval(ANNUAL_CHECK_MONTHS, band, "none");
   const checkDue = addMonths(checkFrom, checkInterval.months);
   tasks.push(
     makeTask(piece.id, "annual_check", "whole_piece", null, null, null, checkInterval, checkFrom, checkByLog ? "care_log" : "delivery", checkDue, today, checkByLog, [
@@ -329,7 +366,7 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
     ]),
   );
 
-  tasks.sort((a, b) => (a.dueOn < b.dueOn ? -1 : a.dueOn > b.dueOn ? 1 : a.kind < b.kind ? -1 : a.kind > b.kind ? 1 : 0));
+  tasks.sort(byDueThenKind);
   return { pieceId: piece.id, today, timeZone, tasks, notes };
 }
 

@@ -161,6 +161,7 @@ describe("careSchedule", () => {
     expect(() => careSchedule({ ...base, finishLayers: [{ ...oil, appliedOn: "March 2" }] })).toThrow(CareInputError);
     expect(() => careSchedule({ ...base, finishLayers: [{ ...oil, finishClass: "shellac" as never }] })).toThrow(/finishClass is unknown/);
     expect(() => careSchedule({ ...base, timeZone: "Mars/Olympus" })).toThrow(/unknown time zone/);
+    expect(() => careSchedule({ ...base, careLog: [{ taskKind: "sanding" as never, doneOn: "2025-05-01" }] })).toThrow(/taskKind is unknown/);
     expect(() => careSchedule({ ...base, now: "2025-06-01" })).toThrow(/now must be/);
     expect(() =>
       careSchedule({ ...base, finishLayers: [{ ...oil, productId: "x" }], catalog: [{ id: "x", finishClass: "hardwax_oil", coverageM2PerL: 1, containerSizesMl: [], intervals: { heavy: 0 } }] }),
