@@ -8,7 +8,7 @@ export default defineConfig({
   retries: 0,
   timeout: 60_000,
   expect: { timeout: 10_000 },
-  reporter: [["list"]],
+  reporter: [["list"], ["json"]],
   outputDir: "test-results",
   use: {
     baseURL: "http://localhost:3100",

@@ -22,12 +22,12 @@ export function removeDatabase(file) {
 }
 
 /**
- * Starts long-running processes, each in its own process group, prefixing their output; stops all of
- * them when one exits or on Ctrl-C / SIGTERM.
+ * Starts long-running processes in this script's process group (so whoever stops the group stops
+ * them all), prefixing their output; stops all of them when one exits or on Ctrl-C / SIGTERM.
  */
 export function supervise(services, env) {
   const children = services.map(({ name, cmd, args }) => {
-    const child = spawn(bin(cmd), args, { cwd: root, env, stdio: ["ignore", "pipe", "pipe"], detached: true });
+    const child = spawn(bin(cmd), args, { cwd: root, env, stdio: ["ignore", "pipe", "pipe"] });
     const prefix = (chunk) =>
       chunk
         .toString()
@@ -45,7 +45,7 @@ export function supervise(services, env) {
     stopping = true;
     for (const { child } of children) {
       try {
-        process.kill(-child.pid, "SIGTERM");
+        child.kill("SIGTERM");
       } catch {
         // already gone
       }

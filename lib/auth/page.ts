@@ -2,6 +2,8 @@ import "server-only";
 import { notFound, redirect } from "next/navigation";
 import { headers } from "next/headers";
 import { isAppError } from "@/lib/errors";
+import { homePathFor } from "./guards";
+import { getCurrentSession } from "./session";
 
 /**
  * Runs a lib/ call for a page and turns its access errors into navigation: not signed in → the
@@ -16,7 +18,10 @@ export async function forPage<T>(fn: () => Promise<T>): Promise<T> {
       const path = (await headers()).get("x-grainward-path") ?? "/";
       redirect(`/sign-in?next=${encodeURIComponent(path)}`);
     }
-    if (e.status === 403) redirect("/home?denied=1");
+    if (e.status === 403) {
+      const { user } = await getCurrentSession();
+      redirect(`${user ? await homePathFor(user.id) : "/"}?denied=1`);
+    }
     if (e.status === 404) notFound();
     throw e;
   }

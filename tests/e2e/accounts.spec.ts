@@ -73,7 +73,7 @@ test("an admin invites a technician, who joins from the e-mail", async ({ page, 
   await page.getByLabel("Role").selectOption("technician");
   await page.getByRole("button", { name: "Send invitation" }).click();
   await expect(page.getByText(`Invitation sent to ${email}.`)).toBeVisible();
-  await expect(page.getByRole("listitem").filter({ hasText: email })).toBeVisible();
+  await expect(page.getByRole("main").getByRole("listitem").filter({ hasText: email })).toBeVisible();
 
   const mail = await waitForMail({ to: email, subject: /invited you/i, sinkUrl: SINK_URL });
   const link = extractLinks(mail.text).find((l) => l.includes("/invite/"))!;
