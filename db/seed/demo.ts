@@ -196,7 +196,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
         if (a.role !== "owner") tx.insert(memberships).values({ studioId: studio.id, userId: user.id, role: a.role }).run();
         return [key, user];
       }),
-    ) as Record<keyof typeof DEMO_ACCOUNTS, { id: string }>;
+    ) as unknown as Record<keyof typeof DEMO_ACCOUNTS, { id: string }>;
 
     const productIds = Object.fromEntries(
       Object.entries(PRODUCTS).map(([key, p]) => [key, tx.insert(finishProducts).values({ ...p, studioId: studio.id }).returning().get().id]),
