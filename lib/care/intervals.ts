@@ -59,7 +59,7 @@ export interface EffectiveInterval {
 }
 
 /** DESIGN.md §3: outdoor covered pieces use the heavy interval. */
-export function useBand(use: Use): UseBand {
+export function bandForUse(use: Use): UseBand {
   switch (use) {
     case "heavy":
     case "outdoor_covered":

@@ -6,7 +6,7 @@ import {
   DEFAULT_INTERVAL_SOURCE,
   DEFAULT_WEAR_INTERVALS,
   effectiveInterval,
-  useBand,
+  bandForUse,
   type EffectiveInterval,
   type UseBand,
   type WearIntervals,
@@ -203,7 +203,7 @@ function statusFromDays(daysUntilDue: number, startedByCare: boolean): CareTaskS
 function validatePiece(piece: CarePiece): void {
   if (!piece || typeof piece.id !== "string" || piece.id === "") throw new CareInputError("piece.id is required", "piece.id");
   parseIsoDate(piece.deliveredOn, "piece.deliveredOn");
-  useBand(piece.use);
+  bandForUse(piece.use);
   if (!(piece.sun in SUN_PHRASE)) throw new CareInputError(`unknown sun exposure ${JSON.stringify(piece.sun)}`, "piece.sun");
 }
 
@@ -218,7 +218,7 @@ export function layerInterval(
 ): { interval: EffectiveInterval; product: CatalogEntry | undefined; catalogMonths: number | undefined } {
   const cls = layer.finishClass;
   const product = layer.productId === undefined ? undefined : catalog.find((c) => c.id === layer.productId);
-  const band: UseBand = surfaceGroup(layer.surface) === "base" && piece.use !== "outdoor_covered" ? "light" : useBand(piece.use);
+  const band: UseBand = surfaceGroup(layer.surface) === "base" && piece.use !== "outdoor_covered" ? "light" : bandForUse(piece.use);
   const catalogMonths = product && product.finishClass === cls ? product.intervals?.[band] : undefined;
   const months = catalogMonths ?? DEFAULT_WEAR_INTERVALS[cls][band];
   return { interval: cachedInterval(months, band, piece.sun), product, catalogMonths };
@@ -316,7 +316,7 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
   }
 
   const tasks: CareTask[] = [];
-  const band = useBand(piece.use);
+  const band = bandForUse(piece.use);
   for (let slot = 0; slot < SLOTS; slot++) {
     const layer = newest[slot];
     if (!layer) continue;
