@@ -1,10 +1,14 @@
 import { relations, sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import type { WarrantyPolicy } from "../lib/care/coverage";
 import {
+  CARE_TASK_KINDS,
+  CLAIM_CATEGORIES,
   FINISH_CLASSES,
   PIECE_KINDS,
   RESIN_KINDS,
   SHAPE_KINDS,
+  REMINDER_STEPS,
   STUDIO_ROLES,
   SUN_EXPOSURES,
   SURFACES,
@@ -184,6 +188,8 @@ export const pieces = sqliteTable(
     /** The code encrypted with AES-256-GCM under a key from APP_SECRET, so a card can be printed again. */
     registrationCodeEnc: text("registration_code_enc").notNull(),
     remindersPaused: integer("reminders_paused", { mode: "boolean" }).notNull().default(false),
+    /** The warranty policy version in force at delivery; the piece keeps it when the policy changes. */
+    warrantyPolicyId: text("warranty_policy_id").references(() => warrantyPolicies.id, { onDelete: "set null" }),
     archivedAt: integer("archived_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
     updatedAt: integer("updated_at", { mode: "timestamp_ms" })
@@ -237,6 +243,232 @@ export const auditLog = sqliteTable(
   (t) => [index("audit_log_studio_idx").on(t.studioId, t.createdAt), index("audit_log_subject_idx").on(t.subjectType, t.subjectId)],
 );
 
+/** Versions of a studio's warranty terms; a piece keeps the version in force at its delivery. */
+export const warrantyPolicies = sqliteTable(
+  "warranty_policies",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    version: integer("version").notNull(),
+    /** First delivery date (YYYY-MM-DD) this version applies to. */
+    effectiveFrom: text("effective_from").notNull(),
+    policy: text("policy", { mode: "json" }).$type<WarrantyPolicy>().notNull(),
+    createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("warranty_policies_studio_version_uq").on(t.studioId, t.version)],
+);
+
+export const OWNERSHIP_VIA = ["registration", "transfer"] as const;
+
+/** Who owned a piece when: registration starts an ownership, a release ends it. */
+export const ownerships = sqliteTable(
+  "ownerships",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    via: text("via", { enum: OWNERSHIP_VIA }).notNull(),
+    startedAt: integer("started_at", { mode: "timestamp_ms" }).notNull(),
+    endedAt: integer("ended_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [index("ownerships_piece_idx").on(t.pieceId), index("ownerships_user_idx").on(t.userId)],
+);
+
+export const FILE_PURPOSES = ["piece_photo", "claim_photo", "care_log_photo", "visit_photo"] as const;
+
+/** Uploaded images, re-encoded and stripped of metadata (lib/storage); served only through an authorized route. */
+export const files = sqliteTable(
+  "files",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    purpose: text("purpose", { enum: FILE_PURPOSES }).notNull(),
+    pieceId: text("piece_id").references(() => pieces.id, { onDelete: "cascade" }),
+    claimId: text("claim_id").references(() => claims.id, { onDelete: "cascade" }),
+    /** Paths under DATA_DIR, random names. */
+    storageKey: text("storage_key").notNull().unique(),
+    thumbKey: text("thumb_key").notNull(),
+    contentType: text("content_type").notNull(),
+    width: integer("width").notNull(),
+    height: integer("height").notNull(),
+    bytes: integer("bytes").notNull(),
+    uploadedById: text("uploaded_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("files_piece_idx").on(t.pieceId), index("files_claim_idx").on(t.claimId)],
+);
+
+export const CARE_LOG_SOURCES = ["owner", "visit", "studio"] as const;
+
+/** Care done on a piece: self-logged by its owner, or recorded at a visit. */
+export const careLogEntries = sqliteTable(
+  "care_log_entries",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    /** Who logged it (the owner at the time, or a studio member). */
+    userId: text("user_id").references(() => users.id, { onDelete: "set null" }),
+    source: text("source", { enum: CARE_LOG_SOURCES }).notNull(),
+    taskKind: text("task_kind", { enum: CARE_TASK_KINDS }).notNull(),
+    /** Null: counts for every surface. */
+    surface: text("surface", { enum: SURFACES }),
+    doneOn: text("done_on").notNull(),
+    productUsed: text("product_used").notNull().default(""),
+    notes: text("notes").notNull().default(""),
+    photoFileId: text("photo_file_id").references(() => files.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("care_log_piece_idx").on(t.pieceId, t.doneOn)],
+);
+
+export const SEND_STATUSES = ["queued", "sent", "failed", "skipped", "cancelled"] as const;
+
+/**
+ * The send ledger of care reminders: one row per reminder (task key + due date + step), claimed
+ * before the message goes out, so no reminder is ever sent twice.
+ */
+export const reminderSends = sqliteTable(
+  "reminder_sends",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    /** lib/care reminderKey(task, step). */
+    reminderKey: text("reminder_key").notNull().unique(),
+    taskKey: text("task_key").notNull(),
+    taskKind: text("task_kind", { enum: CARE_TASK_KINDS }).notNull(),
+    step: text("step", { enum: REMINDER_STEPS }).notNull(),
+    dueOn: text("due_on").notNull(),
+    status: text("status", { enum: SEND_STATUSES }).notNull(),
+    attempts: integer("attempts").notNull().default(0),
+    lastError: text("last_error"),
+    nextAttemptAt: integer("next_attempt_at", { mode: "timestamp_ms" }),
+    messageId: text("message_id"),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("reminder_sends_studio_idx").on(t.studioId, t.status, t.dueOn), index("reminder_sends_piece_idx").on(t.pieceId)],
+);
+
+export const OFFER_STATUSES = ["offered", "accepted", "declined", "expired"] as const;
+
+/** A priced offer of a refresh visit, sent with the first reminder of a refresh task. */
+export const refreshOffers = sqliteTable(
+  "refresh_offers",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    taskKey: text("task_key").notNull(),
+    dueOn: text("due_on").notNull(),
+    priceMinor: integer("price_minor").notNull(),
+    currency: text("currency").notNull(),
+    /** The quote the price came from (lib/care quote output). */
+    quote: text("quote", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    status: text("status", { enum: OFFER_STATUSES }).notNull().default("offered"),
+    reminderSendId: text("reminder_send_id").references(() => reminderSends.id, { onDelete: "set null" }),
+    acceptedAt: integer("accepted_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("refresh_offers_task_due_uq").on(t.taskKey, t.dueOn), index("refresh_offers_studio_idx").on(t.studioId, t.status)],
+);
+
+/** DESIGN.md §2: submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
+export const CLAIM_STATES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
+export const CLAIM_DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
+
+export const claims = sqliteTable(
+  "claims",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    ownerId: text("owner_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    category: text("category", { enum: CLAIM_CATEGORIES }).notNull(),
+    noticedOn: text("noticed_on").notNull(),
+    description: text("description").notNull(),
+    /** The owner's answers to the coverage questions and the room climate they reported. */
+    answers: text("answers", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    state: text("state", { enum: CLAIM_STATES }).notNull().default("submitted"),
+    decision: text("decision", { enum: CLAIM_DECISIONS }),
+    coveredPct: integer("covered_pct"),
+    decisionReason: text("decision_reason"),
+    /** The coverage check's suggestion at the time of the decision (lib/care checkCoverage output). */
+    suggestion: text("suggestion", { mode: "json" }).$type<Record<string, unknown>>(),
+    firstAnsweredAt: integer("first_answered_at", { mode: "timestamp_ms" }),
+    decidedAt: integer("decided_at", { mode: "timestamp_ms" }),
+    decidedById: text("decided_by_id").references(() => users.id, { onDelete: "set null" }),
+    /** Bumped on every state change; writers compare it to refuse a concurrent change. */
+    version: integer("version").notNull().default(0),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("claims_studio_idx").on(t.studioId, t.state, t.createdAt), index("claims_owner_idx").on(t.ownerId), index("claims_piece_idx").on(t.pieceId)],
+);
+
+export const claimMessages = sqliteTable(
+  "claim_messages",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    claimId: text("claim_id")
+      .notNull()
+      .references(() => claims.id, { onDelete: "cascade" }),
+    authorId: text("author_id").references(() => users.id, { onDelete: "set null" }),
+    fromStudio: integer("from_studio", { mode: "boolean" }).notNull(),
+    body: text("body").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("claim_messages_claim_idx").on(t.claimId, t.createdAt)],
+);
+
 export const studiosRelations = relations(studios, ({ many }) => ({
   memberships: many(memberships),
   pieces: many(pieces),
@@ -256,7 +488,34 @@ export const membershipsRelations = relations(memberships, ({ one }) => ({
 export const piecesRelations = relations(pieces, ({ one, many }) => ({
   studio: one(studios, { fields: [pieces.studioId], references: [studios.id] }),
   owner: one(users, { fields: [pieces.ownerId], references: [users.id] }),
+  warrantyPolicy: one(warrantyPolicies, { fields: [pieces.warrantyPolicyId], references: [warrantyPolicies.id] }),
   layers: many(finishLayers),
+  photos: many(files),
+  careLog: many(careLogEntries),
+  claims: many(claims),
+}));
+
+export const filesRelations = relations(files, ({ one }) => ({
+  piece: one(pieces, { fields: [files.pieceId], references: [pieces.id] }),
+  claim: one(claims, { fields: [files.claimId], references: [claims.id] }),
+}));
+
+export const careLogEntriesRelations = relations(careLogEntries, ({ one }) => ({
+  piece: one(pieces, { fields: [careLogEntries.pieceId], references: [pieces.id] }),
+  user: one(users, { fields: [careLogEntries.userId], references: [users.id] }),
+  photo: one(files, { fields: [careLogEntries.photoFileId], references: [files.id] }),
+}));
+
+export const claimsRelations = relations(claims, ({ one, many }) => ({
+  piece: one(pieces, { fields: [claims.pieceId], references: [pieces.id] }),
+  owner: one(users, { fields: [claims.ownerId], references: [users.id] }),
+  messages: many(claimMessages),
+  photos: many(files),
+}));
+
+export const claimMessagesRelations = relations(claimMessages, ({ one }) => ({
+  claim: one(claims, { fields: [claimMessages.claimId], references: [claims.id] }),
+  author: one(users, { fields: [claimMessages.authorId], references: [users.id] }),
 }));
 
 export const finishLayersRelations = relations(finishLayers, ({ one }) => ({
@@ -276,3 +535,11 @@ export type NewPiece = typeof pieces.$inferInsert;
 export type FinishLayer = typeof finishLayers.$inferSelect;
 export type NewFinishLayer = typeof finishLayers.$inferInsert;
 export type AuditEntry = typeof auditLog.$inferSelect;
+export type WarrantyPolicyRow = typeof warrantyPolicies.$inferSelect;
+export type Ownership = typeof ownerships.$inferSelect;
+export type StoredFile = typeof files.$inferSelect;
+export type CareLogRow = typeof careLogEntries.$inferSelect;
+export type ReminderSend = typeof reminderSends.$inferSelect;
+export type RefreshOffer = typeof refreshOffers.$inferSelect;
+export type Claim = typeof claims.$inferSelect;
+export type ClaimMessage = typeof claimMessages.$inferSelect;

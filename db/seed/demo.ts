@@ -5,7 +5,8 @@ import { hashPassword } from "@/lib/auth/password";
 import type { FinishClass, PieceKind, ResinKind, ShapeKind, SunExposure, Surface, Use } from "@/lib/care/vocabulary";
 import { newRegistrationCode } from "@/lib/pieces/registration";
 import type { Db } from "../client";
-import { finishLayers, finishProducts, memberships, pieces, studios, users, type ContainerSize } from "../schema";
+import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
+import { finishLayers, finishProducts, memberships, ownerships, pieces, studios, users, warrantyPolicies, type ContainerSize } from "../schema";
 
 export const DEMO_PASSWORD = "grainward-demo";
 export const DEMO_STUDIO_SLUG = "larchmere";
@@ -202,6 +203,13 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
       Object.entries(PRODUCTS).map(([key, p]) => [key, tx.insert(finishProducts).values({ ...p, studioId: studio.id }).returning().get().id]),
     ) as Record<ProductKey, string>;
 
+    // One policy version from before the oldest delivery, so every demo piece carries it.
+    const policy = tx
+      .insert(warrantyPolicies)
+      .values({ studioId: studio.id, version: 1, effectiveFrom: monthsBefore(today, 48), policy: DEFAULT_WARRANTY_POLICY, createdById: people.maren.id })
+      .returning()
+      .get();
+
     const codes: { title: string; code: string }[] = [];
     for (const spec of PIECES) {
       const { code, hash, enc } = newRegistrationCode();
@@ -235,9 +243,13 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
           registeredAt: spec.owner ? new Date(`${monthsBefore(today, Math.max(0, spec.deliveredMonthsAgo - 1))}T17:00:00Z`) : null,
           registrationCodeHash: hash,
           registrationCodeEnc: enc,
+          warrantyPolicyId: policy.id,
         })
         .returning()
         .get();
+      if (piece.ownerId && piece.registeredAt) {
+        tx.insert(ownerships).values({ studioId: studio.id, pieceId: piece.id, userId: piece.ownerId, via: "registration", startedAt: piece.registeredAt }).run();
+      }
       if (!spec.owner) codes.push({ title: spec.title, code });
       const positions: Partial<Record<Surface, number>> = {};
       for (const layer of spec.layers) {

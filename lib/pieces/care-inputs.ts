@@ -1,0 +1,84 @@
+// Maps database rows to the care engine's plain inputs — the one place this happens, so the studio
+// pages, the owner pages and the scheduler all compute the same schedule. No server-only import:
+// the scheduler process uses it too.
+import type { CareLogRow, FinishLayer, FinishProduct, Piece } from "@/db/schema";
+import type { TopShape } from "@/lib/care/area";
+import { careSchedule, type CareFinishLayer, type CareLogEntry, type CarePiece, type CareSchedule, type CatalogEntry } from "@/lib/care/schedule";
+
+type PieceShapeRow = Pick<Piece, "shapeKind" | "lengthMm" | "widthMm" | "diameterMm" | "measuredAreaM2">;
+
+/** The top's shape, or undefined when the record lacks the sizes its shape needs. */
+export function topShape(row: PieceShapeRow): TopShape | undefined {
+  switch (row.shapeKind) {
+    case "rectangle":
+    case "oval":
+      return row.lengthMm && row.widthMm ? { kind: row.shapeKind, lengthMm: row.lengthMm, widthMm: row.widthMm } : undefined;
+    case "round":
+      return row.diameterMm ? { kind: "round", diameterMm: row.diameterMm } : undefined;
+    case "measured":
+      return row.measuredAreaM2 ? { kind: "measured", areaM2: row.measuredAreaM2 } : undefined;
+  }
+}
+
+export function toCarePiece(row: Piece): CarePiece {
+  return {
+    id: row.id,
+    kind: row.kind,
+    use: row.use,
+    sun: row.sun,
+    deliveredOn: row.deliveredOn,
+    resin: row.resinKind,
+    shape: topShape(row),
+    primarySpeciesId: row.primarySpeciesId,
+  };
+}
+
+export function toCareLayers(rows: readonly FinishLayer[]): CareFinishLayer[] {
+  return rows.map((l) => ({
+    id: l.id,
+    surface: l.surface,
+    finishClass: l.finishClass,
+    productId: l.productId ?? undefined,
+    coats: l.coats,
+    appliedOn: l.appliedOn,
+  }));
+}
+
+export function toCareLog(rows: readonly Pick<CareLogRow, "taskKind" | "doneOn" | "surface">[]): CareLogEntry[] {
+  return rows.map((r) => ({ taskKind: r.taskKind, doneOn: r.doneOn, surface: r.surface ?? undefined }));
+}
+
+export function toCatalog(rows: readonly FinishProduct[]): CatalogEntry[] {
+  return rows.map((p) => ({
+    id: p.id,
+    name: p.name,
+    finishClass: p.finishClass,
+    coverageM2PerL: p.coverageM2PerL,
+    containerSizesMl: p.containers.map((c) => c.ml),
+    containerPricesMinor: Object.fromEntries(p.containers.map((c) => [c.ml, c.priceMinor])),
+    intervals: {
+      ...(p.intervalHeavyMonths != null ? { heavy: p.intervalHeavyMonths } : {}),
+      ...(p.intervalModerateMonths != null ? { moderate: p.intervalModerateMonths } : {}),
+      ...(p.intervalLightMonths != null ? { light: p.intervalLightMonths } : {}),
+    },
+  }));
+}
+
+/** The care schedule of one piece from its rows, in the studio's time zone. */
+export function scheduleFromRows(input: {
+  piece: Piece;
+  layers: readonly FinishLayer[];
+  careLog: readonly Pick<CareLogRow, "taskKind" | "doneOn" | "surface">[];
+  products: readonly FinishProduct[];
+  timeZone: string;
+  now: Date;
+}): CareSchedule {
+  return careSchedule({
+    piece: toCarePiece(input.piece),
+    finishLayers: toCareLayers(input.layers),
+    careLog: toCareLog(input.careLog),
+    catalog: toCatalog(input.products),
+    now: input.now,
+    timeZone: input.timeZone,
+  });
+}

@@ -1,0 +1,93 @@
+// The shared storage module for uploaded images (piece photos, claim photos, care-log and visit
+// photos). Every upload is checked by its content, never its name or declared type; decoded with a
+// pixel limit before any full decode; rotated by its orientation; re-encoded as JPEG, which drops
+// all metadata (EXIF, GPS, XMP, ICC); and stored under DATA_DIR with a random name, with a thumbnail.
+import fs from "node:fs/promises";
+import path from "node:path";
+import { randomBytes } from "node:crypto";
+import { fileTypeFromBuffer } from "file-type";
+import sharp, { type OutputInfo } from "sharp";
+import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
+
+export const MAX_UPLOAD_BYTES = 15 * 1024 * 1024;
+export const MAX_INPUT_PIXELS = 40_000_000;
+const ACCEPTED = new Set(["image/jpeg", "image/png", "image/webp"]);
+const FULL_MAX_EDGE = 4096;
+const THUMB_EDGE = 480;
+
+export type StoredImage = {
+  storageKey: string;
+  thumbKey: string;
+  contentType: "image/jpeg";
+  width: number;
+  height: number;
+  bytes: number;
+};
+
+const HOW_TO_SEND_JPEG =
+  "Send a JPEG, PNG or WebP photo instead. On an iPhone, set Settings → Camera → Formats → Most Compatible for new photos, or send a screenshot of the photo.";
+
+function describe(mime: string | undefined): string {
+  if (!mime) return "That file isn't an image we can read.";
+  if (mime === "image/heic" || mime === "image/heif" || mime === "image/avif") return "That photo is in the HEIC/HEIF format, which we can't accept.";
+  return `That file is ${mime}, not a photo we can accept.`;
+}
+
+/** Checks, cleans and stores one uploaded image. Throws a 413/415/422 AppError with a message a person can act on. */
+export async function storeImage(data: Uint8Array): Promise<StoredImage> {
+  if (data.byteLength > MAX_UPLOAD_BYTES) {
+    throw new AppError(413, "file_too_large", `That photo is ${(data.byteLength / 1024 / 1024).toFixed(1)} MB; the limit is 15 MB. Send a smaller one.`);
+  }
+  if (data.byteLength === 0) throw new AppError(422, "empty_file", "That file is empty.");
+  const type = await fileTypeFromBuffer(data);
+  if (!type || !ACCEPTED.has(type.mime)) {
+    throw new AppError(415, "unsupported_type", `${describe(type?.mime)} ${HOW_TO_SEND_JPEG}`);
+  }
+
+  let full: { data: Buffer; info: OutputInfo };
+  let thumb: Buffer;
+  try {
+    // limitInputPixels makes sharp refuse an oversized image from its header, before decoding it.
+    const input = () => sharp(data, { limitInputPixels: MAX_INPUT_PIXELS, failOn: "error", sequentialRead: true });
+    const meta = await input().metadata();
+    if (!meta.width || !meta.height) throw new Error("no dimensions");
+    full = await input()
+      .rotate()
+      .resize({ width: FULL_MAX_EDGE, height: FULL_MAX_EDGE, fit: "inside", withoutEnlargement: true })
+      .flatten({ background: "#ffffff" })
+      .jpeg({ quality: 85, mozjpeg: true })
+      .toBuffer({ resolveWithObject: true });
+    thumb = await sharp(full.data).resize({ width: THUMB_EDGE, height: THUMB_EDGE, fit: "inside", withoutEnlargement: true }).jpeg({ quality: 78 }).toBuffer();
+  } catch (e) {
+    const message = e instanceof Error ? e.message : "";
+    if (/pixel limit/i.test(message)) {
+      throw new AppError(422, "image_too_large", "That image has more than 40 megapixels. Send a smaller version of it (most phones' normal photos are fine).");
+    }
+    throw new AppError(422, "unreadable_image", `That image looks damaged or incomplete, so we couldn't read it. ${HOW_TO_SEND_JPEG}`);
+  }
+
+  const name = randomBytes(16).toString("hex");
+  const storageKey = path.posix.join("files", name.slice(0, 2), `${name}.jpg`);
+  const thumbKey = path.posix.join("files", name.slice(0, 2), `${name}.thumb.jpg`);
+  await fs.mkdir(path.dirname(absolutePath(storageKey)), { recursive: true });
+  await fs.writeFile(absolutePath(storageKey), full.data);
+  await fs.writeFile(absolutePath(thumbKey), thumb);
+  return { storageKey, thumbKey, contentType: "image/jpeg", width: full.info.width, height: full.info.height, bytes: full.data.byteLength };
+}
+
+function absolutePath(key: string): string {
+  const root = path.resolve(env.DATA_DIR);
+  const p = path.resolve(root, key);
+  if (!p.startsWith(root + path.sep)) throw new Error("storage key escapes DATA_DIR");
+  return p;
+}
+
+/** Reads a stored file; callers authorize the viewer first. */
+export function readStoredFile(key: string): Promise<Buffer> {
+  return fs.readFile(absolutePath(key));
+}
+
+export async function removeStoredFiles(...keys: string[]): Promise<void> {
+  await Promise.all(keys.map((k) => fs.rm(absolutePath(k), { force: true })));
+}
