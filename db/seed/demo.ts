@@ -210,7 +210,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
       .returning()
       .get();
 
-    const codes: { title: string; code: string }[] = [];
+    const codes: { pieceId: string; title: string; code: string }[] = [];
     for (const spec of PIECES) {
       const { code, hash, enc } = newRegistrationCode();
       const deliveredOn = monthsBefore(today, spec.deliveredMonthsAgo);
@@ -250,7 +250,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
       if (piece.ownerId && piece.registeredAt) {
         tx.insert(ownerships).values({ studioId: studio.id, pieceId: piece.id, userId: piece.ownerId, via: "registration", startedAt: piece.registeredAt }).run();
       }
-      if (!spec.owner) codes.push({ title: spec.title, code });
+      if (!spec.owner) codes.push({ pieceId: piece.id, title: spec.title, code });
       const positions: Partial<Record<Surface, number>> = {};
       for (const layer of spec.layers) {
         const position = positions[layer.surface] ?? 0;

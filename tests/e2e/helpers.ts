@@ -14,7 +14,8 @@ export const ACCOUNTS = {
 } as const;
 export type Role = keyof typeof ACCOUNTS;
 
-export function fixture(): { demoPieceId: string; otherPieceId: string } {
+/** Ids written by tests/support/seed-e2e.ts. `unregistered` are demo pieces no owner holds yet, with their codes. */
+export function fixture(): { demoPieceId: string; otherPieceId: string; unregistered: { pieceId: string; title: string; code: string }[] } {
   return JSON.parse(fs.readFileSync("tests/.tmp/e2e-fixture.json", "utf8"));
 }
 

@@ -9,7 +9,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { newRegistrationCode } from "@/lib/pieces/registration";
 
 const db = getDb();
-await seedDemo(db);
+const demoSeed = await seedDemo(db);
 const other = db.insert(studios).values({ slug: "other-studio", name: "Other Studio (invented)", timeZone: "Europe/Berlin" }).returning().get();
 const staff = db
   .insert(users)
@@ -38,5 +38,5 @@ const otherPiece = db
 const demo = db.select().from(studios).where(eq(studios.slug, DEMO_STUDIO_SLUG)).get()!;
 const demoPiece = db.select().from(pieces).where(eq(pieces.studioId, demo.id)).get()!;
 fs.mkdirSync("tests/.tmp", { recursive: true });
-fs.writeFileSync("tests/.tmp/e2e-fixture.json", JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id }, null, 2));
+fs.writeFileSync("tests/.tmp/e2e-fixture.json", JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes }, null, 2));
 console.log("Seeded the e2e database (invented data).");
