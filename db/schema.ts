@@ -469,6 +469,96 @@ export const claimMessages = sqliteTable(
   (t) => [index("claim_messages_claim_idx").on(t.claimId, t.createdAt)],
 );
 
+/** DESIGN.md §2: draft → quoted → approved → paid (or covered) → scheduled → done; cancelled from any open state. */
+export const JOB_STATES = ["draft", "quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"] as const;
+export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
+
+/** A quote line as the care engine's quote() produced it, kept with the job. */
+export type JobLine = { kind: string; label: string; quantity: number; unitMinor: number; amountMinor: number };
+
+export const repairJobs = sqliteTable(
+  "repair_jobs",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    ownerId: text("owner_id").references(() => users.id, { onDelete: "set null" }),
+    origin: text("origin", { enum: JOB_ORIGINS }).notNull(),
+    claimId: text("claim_id").references(() => claims.id, { onDelete: "set null" }),
+    refreshOfferId: text("refresh_offer_id").references(() => refreshOffers.id, { onDelete: "set null" }),
+    state: text("state", { enum: JOB_STATES }).notNull().default("draft"),
+    title: text("title").notNull(),
+    /** The quote's inputs (tasks, area, products, travel) as staff last edited them. */
+    quoteInput: text("quote_input", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    lines: text("lines", { mode: "json" }).$type<JobLine[]>().notNull(),
+    currency: text("currency").notNull(),
+    coveredPct: integer("covered_pct").notNull().default(0),
+    subtotalMinor: integer("subtotal_minor").notNull().default(0),
+    coveredMinor: integer("covered_minor").notNull().default(0),
+    taxMinor: integer("tax_minor").notNull().default(0),
+    totalMinor: integer("total_minor").notNull().default(0),
+    /** Raised each time the quote is sent; part of the checkout idempotency key. */
+    quoteVersion: integer("quote_version").notNull().default(0),
+    notes: text("notes").notNull().default(""),
+    quotedAt: integer("quoted_at", { mode: "timestamp_ms" }),
+    approvedAt: integer("approved_at", { mode: "timestamp_ms" }),
+    paidAt: integer("paid_at", { mode: "timestamp_ms" }),
+    doneAt: integer("done_at", { mode: "timestamp_ms" }),
+    cancelledAt: integer("cancelled_at", { mode: "timestamp_ms" }),
+    createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    version: integer("version").notNull().default(0),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("repair_jobs_studio_idx").on(t.studioId, t.state), index("repair_jobs_owner_idx").on(t.ownerId), index("repair_jobs_piece_idx").on(t.pieceId)],
+);
+
+export const PAYMENT_STATUSES = ["open", "paid", "expired", "refunded", "partially_refunded"] as const;
+
+/** One Stripe Checkout Session for a job's quote version, and what Stripe last reported about it. */
+export const payments = sqliteTable(
+  "payments",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    jobId: text("job_id")
+      .notNull()
+      .references(() => repairJobs.id, { onDelete: "cascade" }),
+    quoteVersion: integer("quote_version").notNull(),
+    checkoutSessionId: text("checkout_session_id").notNull().unique(),
+    checkoutUrl: text("checkout_url"),
+    amountMinor: integer("amount_minor").notNull(),
+    currency: text("currency").notNull(),
+    status: text("status", { enum: PAYMENT_STATUSES }).notNull().default("open"),
+    paymentIntentId: text("payment_intent_id"),
+    refundedMinor: integer("refunded_minor").notNull().default(0),
+    paidAt: integer("paid_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("payments_job_idx").on(t.jobId)],
+);
+
+/** Every Stripe webhook event recorded once by its id; a replay changes nothing. */
+export const stripeEvents = sqliteTable("stripe_events", {
+  id: text("id").primaryKey(),
+  type: text("type").notNull(),
+  objectId: text("object_id"),
+  receivedAt: integer("received_at", { mode: "timestamp_ms" })
+    .notNull()
+    .$defaultFn(() => new Date()),
+});
+
 export const studiosRelations = relations(studios, ({ many }) => ({
   memberships: many(memberships),
   pieces: many(pieces),
@@ -513,6 +603,17 @@ export const claimsRelations = relations(claims, ({ one, many }) => ({
   photos: many(files),
 }));
 
+export const repairJobsRelations = relations(repairJobs, ({ one, many }) => ({
+  piece: one(pieces, { fields: [repairJobs.pieceId], references: [pieces.id] }),
+  owner: one(users, { fields: [repairJobs.ownerId], references: [users.id] }),
+  claim: one(claims, { fields: [repairJobs.claimId], references: [claims.id] }),
+  payments: many(payments),
+}));
+
+export const paymentsRelations = relations(payments, ({ one }) => ({
+  job: one(repairJobs, { fields: [payments.jobId], references: [repairJobs.id] }),
+}));
+
 export const claimMessagesRelations = relations(claimMessages, ({ one }) => ({
   claim: one(claims, { fields: [claimMessages.claimId], references: [claims.id] }),
   author: one(users, { fields: [claimMessages.authorId], references: [users.id] }),
@@ -543,3 +644,5 @@ export type ReminderSend = typeof reminderSends.$inferSelect;
 export type RefreshOffer = typeof refreshOffers.$inferSelect;
 export type Claim = typeof claims.$inferSelect;
 export type ClaimMessage = typeof claimMessages.$inferSelect;
+export type RepairJob = typeof repairJobs.$inferSelect;
+export type Payment = typeof payments.$inferSelect;
