@@ -1,6 +1,7 @@
 import { relations, sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import type { WarrantyPolicy } from "../lib/care/coverage";
+import type { QuoteLine } from "../lib/care/quote";
 import {
   CARE_TASK_KINDS,
   CLAIM_CATEGORIES,
@@ -473,8 +474,6 @@ export const claimMessages = sqliteTable(
 export const JOB_STATES = ["draft", "quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"] as const;
 export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
 
-/** A quote line as the care engine's quote() produced it, kept with the job. */
-export type JobLine = { kind: string; label: string; quantity: number; unitMinor: number; amountMinor: number };
 
 export const repairJobs = sqliteTable(
   "repair_jobs",
@@ -494,7 +493,7 @@ export const repairJobs = sqliteTable(
     title: text("title").notNull(),
     /** The quote's inputs (tasks, area, products, travel) as staff last edited them. */
     quoteInput: text("quote_input", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
-    lines: text("lines", { mode: "json" }).$type<JobLine[]>().notNull(),
+    lines: text("lines", { mode: "json" }).$type<QuoteLine[]>().notNull(),
     currency: text("currency").notNull(),
     coveredPct: integer("covered_pct").notNull().default(0),
     subtotalMinor: integer("subtotal_minor").notNull().default(0),
