@@ -1,0 +1,83 @@
+import "server-only";
+import { and, eq, isNull } from "drizzle-orm";
+import type { User } from "lucia";
+import { getDb } from "@/db/client";
+import { memberships, ownerships, pieces, studios, users } from "@/db/schema";
+import { PieceReleasedEmail, pieceReleasedSubject } from "@/emails/piece-released";
+import { TransferCodeEmail, transferCodeSubject } from "@/emails/transfer-code";
+import { recordAudit } from "@/lib/audit";
+import { localDate } from "@/lib/care/dates";
+import { env } from "@/lib/env";
+import { notFound } from "@/lib/errors";
+import { sendMail } from "@/lib/mail";
+import { newRegistrationCode } from "@/lib/pieces/registration";
+import { releaseSchema } from "@/lib/validation/owner";
+import { formatDate } from "./format";
+import { getMyPiece } from "./pieces";
+
+const link = (path: string) => new URL(path, env.APP_URL).href;
+
+/**
+ * Releases a piece the owner holds, for a new owner: the piece loses its owner, gets a fresh
+ * registration code (the old card's code stops working), the ownership ends, and the fresh code is
+ * returned once and e-mailed to the releasing owner; the studio is told. Someone else's piece is a 404.
+ */
+export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "timeZone" | "unitSystem">, pieceId: string, raw: unknown, now = new Date()) {
+  releaseSchema.parse(raw);
+  // Read what the mail needs while the piece is still theirs (this also 404s a stranger).
+  const before = getMyPiece(user, pieceId, now);
+  const fresh = newRegistrationCode();
+  const db = getDb();
+  const studio = db.transaction((tx) => {
+    const released = tx
+      .update(pieces)
+      .set({ ownerId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
+      .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, user.id)))
+      .returning({ studioId: pieces.studioId })
+      .all();
+    if (released.length !== 1) throw notFound("No piece with that id among yours.");
+    const studioId = released[0]!.studioId;
+    tx.update(ownerships).set({ endedAt: now }).where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.userId, user.id), isNull(ownerships.endedAt))).run();
+    recordAudit(tx, { studioId, actorId: user.id, action: "piece.released", subjectType: "piece", subjectId: pieceId, data: {} });
+    return tx.select().from(studios).where(eq(studios.id, studioId)).get()!;
+  });
+
+  const transferring = before.warranty.lines.filter((l) => l.transfersToNewOwner && l.status !== "not_transferred").map((l) => l.label);
+  const staying = before.warranty.lines.filter((l) => !l.transfersToNewOwner).map((l) => l.label);
+  await sendMail({
+    to: user.email,
+    subject: transferCodeSubject({ pieceTitle: before.title }),
+    email: TransferCodeEmail({
+      name: user.name,
+      pieceTitle: before.title,
+      studioName: studio.name,
+      code: fresh.code,
+      url: link(`/r/${fresh.code}`),
+      transferring,
+      staying,
+    }),
+  });
+  const studioTo = studio.email
+    ? [studio.email]
+    : db
+        .select({ email: users.email })
+        .from(memberships)
+        .innerJoin(users, eq(users.id, memberships.userId))
+        .where(and(eq(memberships.studioId, studio.id), eq(memberships.role, "admin")))
+        .all()
+        .map((r) => r.email);
+  if (studioTo.length) {
+    await sendMail({
+      to: studioTo,
+      subject: pieceReleasedSubject({ pieceTitle: before.title }),
+      email: PieceReleasedEmail({
+        studioName: studio.name,
+        pieceTitle: before.title,
+        ownerName: user.name,
+        releasedOn: formatDate(localDate(now, studio.timeZone)),
+        url: link(`/studio/pieces/${pieceId}`),
+      }),
+    });
+  }
+  return { pieceId, code: fresh.code, transferring, staying };
+}
