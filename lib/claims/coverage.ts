@@ -1,0 +1,107 @@
+// The coverage check of a claim, from its rows: the one place claim rows become checkCoverage input.
+// Rows become care-engine inputs through lib/pieces/care-inputs (toCarePiece, toCareLayers …).
+import type { CareLogRow, Claim, FinishLayer, FinishProduct, Ownership, Piece, WarrantyPolicyRow } from "@/db/schema";
+import { checkCoverage, DEFAULT_WARRANTY_POLICY, type CoverageCheck, type OwnerAnswers, type RoomClimateReport, type WarrantyPolicy } from "@/lib/care/coverage";
+import { localDate } from "@/lib/care/dates";
+import { CareInputError } from "@/lib/care/errors";
+import { toCareLayers, toCareLog, toCarePiece, toCatalog } from "@/lib/pieces/care-inputs";
+import { claimAnswersSchema, type ClaimAnswers } from "@/lib/validation/claims";
+
+const fToC = (f: number) => ((f - 32) * 5) / 9;
+const round1 = (n: number) => Math.round(n * 10) / 10;
+
+/** The stored answers, read back through the same schema (rows written before a change fall back to "not sure"). */
+export function readAnswers(raw: unknown): ClaimAnswers {
+  const parsed = claimAnswersSchema.safeParse(raw);
+  if (parsed.success) return parsed.data;
+  return { heat: "unsure", chemicals: "unsure", impact: "unsure", usedOutdoors: "unsure", directSun: "unsure" };
+}
+
+export function ownerAnswers(a: ClaimAnswers): OwnerAnswers {
+  const b = (v: ClaimAnswers["heat"]) => (v === "yes" ? true : v === "no" ? false : undefined);
+  return { heat: b(a.heat), chemicals: b(a.chemicals), impact: b(a.impact), usedOutdoors: b(a.usedOutdoors), directSun: b(a.directSun) };
+}
+
+/** The owner's room readings in °C, or undefined unless all four were given. */
+export function roomClimate(a: ClaimAnswers): RoomClimateReport | undefined {
+  const r = a.room;
+  if (!r || r.driestTemp == null || r.driestRh == null || r.dampestTemp == null || r.dampestRh == null) return undefined;
+  const c = (t: number) => round1(r.unit === "F" ? fToC(t) : t);
+  return {
+    driest: { tempC: c(r.driestTemp), rhPct: r.driestRh },
+    dampest: { tempC: c(r.dampestTemp), rhPct: r.dampestRh },
+    ...(r.dailySwingPct != null ? { largestDailyRhChangePct: r.dailySwingPct } : {}),
+  };
+}
+
+export type ClaimCoverage = {
+  check: CoverageCheck | null;
+  /** Why the check could not run (bad piece record), shown instead of a suggestion. */
+  error: string | null;
+  policyVersion: string;
+  notes: string[];
+};
+
+export function claimCoverage(input: {
+  claim: Pick<Claim, "category" | "answers" | "createdAt" | "ownerId">;
+  piece: Piece;
+  layers: readonly FinishLayer[];
+  careLog: readonly CareLogRow[];
+  products: readonly FinishProduct[];
+  policyRow: Pick<WarrantyPolicyRow, "policy" | "version"> | null;
+  ownerships: readonly Pick<Ownership, "userId" | "startedAt">[];
+  timeZone: string;
+}): ClaimCoverage {
+  const notes: string[] = [];
+  let policy: WarrantyPolicy;
+  if (input.policyRow) policy = input.policyRow.policy;
+  else {
+    policy = DEFAULT_WARRANTY_POLICY;
+    notes.push(`The piece record names no warranty version; checked against the default terms (${DEFAULT_WARRANTY_POLICY.version}).`);
+  }
+  const first = [...input.ownerships].sort((a, b) => a.startedAt.getTime() - b.startedAt.getTime())[0];
+  const filedByOriginalOwner = first ? first.userId === input.claim.ownerId : true;
+  if (!first) notes.push("No ownership history recorded; treated as filed by the original owner.");
+  else if (!filedByOriginalOwner) notes.push("Filed by a later owner of the piece.");
+  const answers = readAnswers(input.claim.answers);
+  const roomClimateReport = roomClimate(answers);
+  try {
+    const check = checkCoverage({
+      claim: {
+        category: input.claim.category,
+        filedOn: localDate(input.claim.createdAt, input.timeZone),
+        answers: ownerAnswers(answers),
+        roomClimate: roomClimateReport,
+        filedByOriginalOwner,
+      },
+      piece: toCarePiece(input.piece),
+      policy,
+      careLog: toCareLog(input.careLog),
+      finishLayers: toCareLayers(input.layers),
+      catalog: toCatalog(input.products),
+      now: input.claim.createdAt,
+      timeZone: input.timeZone,
+    });
+    return { check, error: null, policyVersion: policy.version, notes };
+  } catch (e) {
+    if (e instanceof CareInputError) return { check: null, error: `The coverage check could not run: ${e.message}.`, policyVersion: policy.version, notes };
+    throw e;
+  }
+}
+
+/** What a decision records beside itself: the suggestion, its share and every reason. */
+export function suggestionRecord(c: ClaimCoverage): Record<string, unknown> {
+  if (!c.check) return { suggestion: null, error: c.error, policyVersion: c.policyVersion, notes: c.notes };
+  return {
+    suggestion: c.check.suggestion,
+    suggestedCoveredPct: c.check.suggestedCoveredPct,
+    line: c.check.line?.label ?? null,
+    termEndsOn: c.check.termEndsOn,
+    exclusionsTriggered: c.check.exclusionsTriggered,
+    careLogCondition: c.check.careLogCondition,
+    reasons: c.check.reasons,
+    questions: c.check.questions,
+    policyVersion: c.policyVersion,
+    notes: c.notes,
+  };
+}

@@ -1,0 +1,87 @@
+import "server-only";
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { memberships, users, type Claim, type Piece, type Studio } from "@/db/schema";
+import { ClaimDecisionEmail, claimDecisionSubject } from "@/emails/claim-decision";
+import { ClaimMessageEmail, claimMessageSubject } from "@/emails/claim-message";
+import { ClaimReceivedEmail, claimReceivedSubject } from "@/emails/claim-received";
+import { env } from "@/lib/env";
+import { sendMail, type SendMailInput } from "@/lib/mail";
+import { CLAIM_CATEGORY_LABELS } from "./labels";
+
+// Claim mail is transactional: it goes to the owner whatever their reminder preferences are.
+
+type Person = { name: string; email: string };
+
+const ownerUrl = (claimId: string) => new URL(`/claims/${claimId}`, env.APP_URL).toString();
+const staffUrl = (claimId: string) => new URL(`/studio/claims/${claimId}`, env.APP_URL).toString();
+
+/** The studio's side of claim mail: its own address, or its admins when it has none. */
+export function studioRecipients(studio: Pick<Studio, "id" | "email">): string[] {
+  if (studio.email.trim()) return [studio.email.trim()];
+  return getDb()
+    .select({ email: users.email })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.studioId, studio.id), eq(memberships.role, "admin")))
+    .all()
+    .map((r) => r.email);
+}
+
+/** A failed send must not undo the change it reports; it is logged for the outbox to show. */
+async function send(input: SendMailInput): Promise<void> {
+  const to = Array.isArray(input.to) ? input.to : [input.to];
+  if (to.length === 0) return;
+  try {
+    await sendMail(input);
+  } catch (e) {
+    console.error(`claim mail "${input.subject}" to ${to.join(", ")} failed`, e);
+  }
+}
+
+export async function mailClaimReceived({ claim, piece, studio, owner }: { claim: Claim; piece: Piece; studio: Studio; owner: Person }) {
+  const common = {
+    ownerName: owner.name,
+    studioName: studio.name,
+    pieceTitle: piece.title,
+    categoryLabel: CLAIM_CATEGORY_LABELS[claim.category],
+    noticedOn: claim.noticedOn,
+    description: claim.description,
+  };
+  await send({ to: owner.email, subject: claimReceivedSubject({ audience: "owner", ...common }), email: <ClaimReceivedEmail audience="owner" url={ownerUrl(claim.id)} {...common} /> });
+  await send({
+    to: studioRecipients(studio),
+    replyTo: owner.email,
+    subject: claimReceivedSubject({ audience: "studio", ...common }),
+    email: <ClaimReceivedEmail audience="studio" url={staffUrl(claim.id)} {...common} />,
+  });
+}
+
+export async function mailClaimMessage(p: { claim: Claim; piece: Piece; studio: Studio; owner: Person; fromStudio: boolean; authorName: string; body: string; requestInfo: boolean }) {
+  const audience = p.fromStudio ? "owner" : "studio";
+  const props = { audience, authorName: p.authorName, studioName: p.studio.name, pieceTitle: p.piece.title, body: p.body, requestInfo: p.requestInfo } as const;
+  await send({
+    to: p.fromStudio ? p.owner.email : studioRecipients(p.studio),
+    subject: claimMessageSubject(props),
+    email: <ClaimMessageEmail {...props} url={p.fromStudio ? ownerUrl(p.claim.id) : staffUrl(p.claim.id)} />,
+  });
+}
+
+export async function mailClaimDecision({ claim, piece, studio, owner }: { claim: Claim; piece: Piece; studio: Studio; owner: Person }) {
+  if (!claim.decision) return;
+  await send({
+    to: owner.email,
+    subject: claimDecisionSubject({ studioName: studio.name, pieceTitle: piece.title }),
+    email: (
+      <ClaimDecisionEmail
+        ownerName={owner.name}
+        studioName={studio.name}
+        pieceTitle={piece.title}
+        decision={claim.decision}
+        coveredPct={claim.coveredPct}
+        reason={claim.decisionReason}
+        url={ownerUrl(claim.id)}
+      />
+    ),
+  });
+}
