@@ -82,3 +82,53 @@ export function scheduleFromRows(input: {
     timeZone: input.timeZone,
   });
 }
+
+/** The columns of a piece row the care engine reads (bulk loaders select only these). */
+export type CarePieceColumns = Pick<
+  Piece,
+  "id" | "kind" | "use" | "sun" | "deliveredOn" | "resinKind" | "primarySpeciesId" | "shapeKind" | "lengthMm" | "widthMm" | "diameterMm" | "measuredAreaM2"
+>;
+export type CareLayerColumns = Pick<FinishLayer, "id" | "surface" | "finishClass" | "productId" | "coats" | "appliedOn">;
+
+/** toCarePiece for a row that carries only the columns the care engine reads. */
+export function toCarePieceFromColumns(row: CarePieceColumns): CarePiece {
+  return {
+    id: row.id,
+    kind: row.kind,
+    use: row.use,
+    sun: row.sun,
+    deliveredOn: row.deliveredOn,
+    resin: row.resinKind,
+    shape: topShape(row),
+    primarySpeciesId: row.primarySpeciesId,
+  };
+}
+
+/**
+ * scheduleFromRows for bulk callers (the reminder pass, the staff reminders view): the same mapping,
+ * from column subsets, with the studio's catalog already converted once by toCatalog.
+ */
+export function scheduleFromColumns(input: {
+  piece: CarePieceColumns;
+  layers: readonly CareLayerColumns[];
+  careLog: readonly Pick<CareLogRow, "taskKind" | "doneOn" | "surface">[];
+  catalog: readonly CatalogEntry[];
+  timeZone: string;
+  now: Date | number;
+}): CareSchedule {
+  return careSchedule({
+    piece: toCarePieceFromColumns(input.piece),
+    finishLayers: input.layers.map((l) => ({
+      id: l.id,
+      surface: l.surface,
+      finishClass: l.finishClass,
+      productId: l.productId ?? undefined,
+      coats: l.coats,
+      appliedOn: l.appliedOn,
+    })),
+    careLog: toCareLog(input.careLog),
+    catalog: input.catalog,
+    now: input.now,
+    timeZone: input.timeZone,
+  });
+}

@@ -1,0 +1,42 @@
+// `npm run jobs`: the scheduler process. node-cron runs the reminder pass at minute 5 of every hour
+// (and once at start), never two at once in this process; the ledger keeps passes in other processes
+// from sending anything twice. SIGTERM/SIGINT stop the schedule, let a running pass finish, and exit.
+import cron from "node-cron";
+import { getDb } from "@/db/client";
+import { closeMailTransport } from "@/lib/mail";
+import { describePass, remindersJob } from "./reminders";
+
+const log = (line: string) => console.log(`${new Date().toISOString()} ${line}`);
+
+let running: Promise<unknown> | undefined;
+async function tick(): Promise<void> {
+  if (running) return; // a pass is still going (the start-up pass and the first tick can meet)
+  const pass = remindersJob(new Date())
+    .then((r) => describePass(r).forEach(log))
+    .catch((e: unknown) => log(`reminder pass failed: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`))
+    .finally(() => {
+      running = undefined;
+    });
+  running = pass;
+  await pass;
+}
+
+getDb(); // refuses an unmigrated database before anything is scheduled
+const task = cron.schedule("5 * * * *", tick, { name: "care-reminders", noOverlap: true });
+log("scheduler: care reminders hourly at minute 5; running one pass now");
+void tick();
+
+let stopping = false;
+async function stop(signal: string): Promise<void> {
+  if (stopping) return;
+  stopping = true;
+  log(`scheduler: ${signal}, stopping`);
+  await task.stop();
+  await task.destroy();
+  await running;
+  closeMailTransport();
+  getDb().$client.close();
+  process.exit(0);
+}
+process.on("SIGTERM", () => void stop("SIGTERM"));
+process.on("SIGINT", () => void stop("SIGINT"));

@@ -1,0 +1,57 @@
+// Builds the message for one claimed reminder: subject, the React Email element, and its headers.
+import { createElement } from "react";
+import type { TopShape } from "@/lib/care/area";
+import type { Quote } from "@/lib/care/quote";
+import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
+import type { ReminderStep, SunExposure, Use } from "@/lib/care/vocabulary";
+import type { SendMailInput } from "@/lib/mail";
+import { CareReminder, type CareReminderProps } from "@/emails/care-reminder";
+import { cautionsFor, longDate, offerView, quantityText, stepHeadline, subjectFor, SURFACE_WORDS, TASK_STEPS, whyNow } from "./content";
+import { logCareUrl, offerUrl, pieceUrl, preferencesUrl, oneClickUnsubscribeUrl, unsubscribeHeaders } from "./tokens";
+
+export interface ReminderMail {
+  reminderKey: string;
+  step: ReminderStep;
+  task: CareTask;
+  owner: { id: string; email: string; name: string; unitSystem: "metric" | "imperial" };
+  piece: { id: string; title: string; use: Use; sun: SunExposure; shape: TopShape | undefined; hasResin: boolean };
+  studio: { name: string };
+  product: CatalogEntry | undefined;
+  offer?: { id: string; quote: Quote };
+}
+
+export function reminderProps(m: ReminderMail): CareReminderProps {
+  const { task, owner, piece } = m;
+  return {
+    ownerName: owner.name,
+    studioName: m.studio.name,
+    pieceTitle: piece.title,
+    step: m.step,
+    headline: stepHeadline(m.step, task.label, task.dueOn),
+    taskLabel: task.label,
+    surface: SURFACE_WORDS[task.surface],
+    dueOn: longDate(task.dueOn),
+    whyNow: whyNow(task, piece),
+    steps: TASK_STEPS[task.kind],
+    quantity: quantityText(task, piece.shape, m.product, owner.unitSystem),
+    cautions: cautionsFor(task, piece, m.product?.name),
+    pieceUrl: pieceUrl(piece.id),
+    logUrl: logCareUrl(piece.id, task.key),
+    preferencesUrl: preferencesUrl(owner.id),
+    unsubscribeUrl: oneClickUnsubscribeUrl(owner.id),
+    offer: m.offer ? offerView(m.offer.quote, offerUrl(m.offer.id)) : undefined,
+  };
+}
+
+export function composeReminder(m: ReminderMail): SendMailInput {
+  return {
+    to: m.owner.email,
+    subject: subjectFor(m.step, m.task.label, m.piece.title, m.task.dueOn),
+    email: createElement(CareReminder, reminderProps(m)),
+    headers: {
+      ...unsubscribeHeaders(m.owner.id),
+      "X-Grainward-Reminder": m.reminderKey,
+      ...(m.offer ? { "X-Grainward-Offer": m.offer.id } : {}),
+    },
+  };
+}

@@ -1,0 +1,168 @@
+// The words of care reminders and refresh offers, built from a care task (pure: no database, no React).
+// Templates in emails/ only lay these out. Safety copy follows DESIGN.md §8 and REFERENCES.md
+// ("Care and safety": NFPA tip sheet "Safety with oily rags").
+import { topArea, type TopShape } from "@/lib/care/area";
+import { productNeeded } from "@/lib/care/quantity";
+import { formatMinorUnits, type Quote } from "@/lib/care/quote";
+import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
+import { OIL_FINISH_CLASSES, type CareTaskKind, type ReminderStep } from "@/lib/care/vocabulary";
+
+const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
+
+/** "2 May 2026" — day, month name, year: read the same way everywhere. */
+export function longDate(iso: string): string {
+  const [y, m, d] = iso.split("-").map(Number);
+  return `${d} ${MONTHS[(m ?? 1) - 1]} ${y}`;
+}
+
+export const SURFACE_WORDS: Record<CareTask["surface"], string> = { top: "top", base: "base", whole_piece: "whole piece" };
+
+const USE_WORDS = { heavy: "heavy use", moderate: "moderate use", light: "light use", outdoor_covered: "outdoor use under cover" } as const;
+const SUN_WORDS = { none: "out of the sun", indirect: "in indirect sun", direct: "in direct sun" } as const;
+
+/** What to do, step by step, by task kind. Common practice, no published source; the product's label comes first. */
+export const TASK_STEPS: Record<CareTaskKind, string[]> = {
+  reoil: [
+    "Clean the surface with a little mild soap in water and let it dry completely.",
+    "Apply a thin coat of the oil with a lint-free cloth or pad, working along the grain.",
+    "After the waiting time on the label, wipe off every bit of oil that has not soaked in.",
+    "Keep cups and plates off it until it has cured as long as the label says.",
+  ],
+  topcoat_refresh: [
+    "Clean the surface with mild soap in water and let it dry completely.",
+    "Apply a very thin coat of the topcoat with the applicator the label names, one section at a time.",
+    "Buff off any excess within the time on the label, then leave it to cure before use.",
+  ],
+  rewax: [
+    "Dust the surface and wipe it with a barely damp cloth; let it dry.",
+    "Rub in a thin layer of paste wax with a soft cloth, a small area at a time.",
+    "Let it haze, then buff to a soft sheen with a clean cloth.",
+  ],
+  film_inspect: [
+    "Clean the surface with mild soap in water and dry it.",
+    "Look across it towards a window for worn-through patches, white rings, cracks or peeling.",
+    "Do not sand or recoat a film finish yourself: if you see wear, tell the studio.",
+  ],
+  resin_polish: [
+    "Clean the resin with mild soap in water and dry it with a soft cloth.",
+    "Look for fine scratches, clouding or yellowing, and for gaps where resin meets wood.",
+    "Polish light scratches by hand with the polishing compound and a soft cloth; tell the studio about anything deeper.",
+  ],
+  reoil_charred: [
+    "Brush off dust and cobwebs gently with a soft brush — do not scrub the char.",
+    "Apply a thin coat of the exterior oil with a cloth or brush and let it soak in.",
+    "Wipe off what has not soaked in after the time on the label, and let it cure before the piece gets wet.",
+  ],
+  annual_check: [
+    "Clean the whole piece with mild soap in water and dry it.",
+    "Check that the base stands firm and does not wobble; look for new cracks, gaps or loose joints.",
+    "If anything has moved or loosened, tell the studio rather than forcing it.",
+  ],
+};
+
+export const OILY_RAG_CAUTION =
+  "Oily rags can heat up and catch fire by themselves within hours. Never leave them in a pile: dry them spread flat outdoors, away from buildings, or keep them in a closed metal can filled with water, then ask your local waste service how to dispose of them (NFPA tip sheet \"Safety with oily rags\").";
+export const VENTILATE_CAUTION = "Open windows or work outdoors while you apply it, and keep children and pets away until it has dried.";
+export const SDS_CAUTION = "Follow the product's label and its safety data sheet.";
+export const HOT_COOKWARE_CAUTION = "Keep hot pans and dishes off the resin: use trivets.";
+export const HEAVY_TOP_CAUTION = "Tops are heavy: never lift or move the piece alone.";
+
+const APPLIES_PRODUCT: readonly CareTaskKind[] = ["reoil", "topcoat_refresh", "rewax", "resin_polish", "reoil_charred"];
+
+/** The cautions that apply to a task on this piece. */
+export function cautionsFor(task: Pick<CareTask, "kind" | "finishClass">, piece: { hasResin: boolean }, productName?: string): string[] {
+  const out: string[] = [];
+  const oil = task.finishClass !== null && OIL_FINISH_CLASSES.includes(task.finishClass) && APPLIES_PRODUCT.includes(task.kind);
+  if (oil) out.push(OILY_RAG_CAUTION);
+  if (APPLIES_PRODUCT.includes(task.kind)) {
+    out.push(VENTILATE_CAUTION);
+    out.push(productName ? `Follow the label and safety data sheet of ${productName}.` : SDS_CAUTION);
+  }
+  if (piece.hasResin) out.push(HOT_COOKWARE_CAUTION);
+  if (task.kind === "annual_check") out.push(HEAVY_TOP_CAUTION);
+  return out;
+}
+
+export function stepHeadline(step: ReminderStep, label: string, dueOn: string): string {
+  if (step === "before_14d") return `${label} coming due on ${longDate(dueOn)}`;
+  if (step === "due_day") return `${label} is due today`;
+  return `${label} is overdue`;
+}
+
+export function subjectFor(step: ReminderStep, label: string, pieceTitle: string, dueOn: string): string {
+  if (step === "before_14d") return `Coming due ${longDate(dueOn)}: ${label.toLowerCase()} for your ${pieceTitle}`;
+  if (step === "due_day") return `Due today: ${label.toLowerCase()} for your ${pieceTitle}`;
+  return `Overdue since ${longDate(dueOn)}: ${label.toLowerCase()} for your ${pieceTitle}`;
+}
+
+const SINCE_WORDS: Record<CareTaskKind, string> = {
+  reoil: "The last oil coat",
+  topcoat_refresh: "The last topcoat",
+  rewax: "The last wax coat",
+  film_inspect: "The finish",
+  resin_polish: "The resin surface",
+  reoil_charred: "The last oil coat on the charred surface",
+  annual_check: "",
+};
+
+function monthsText(months: number, days: number): string {
+  const m = months === 1 ? "1 month" : `${months} months`;
+  return days > 0 ? `${m} and ${days} days` : m;
+}
+
+/** Why this reminder comes now: when the clock started, the use and sun it was judged for, the interval. */
+export function whyNow(task: CareTask, piece: { use: keyof typeof USE_WORDS; sun: keyof typeof SUN_WORDS }): string[] {
+  const interval = monthsText(task.interval.months, task.interval.days);
+  const where = task.surface === "whole_piece" ? "" : ` on the ${SURFACE_WORDS[task.surface]}`;
+  if (task.kind === "annual_check") {
+    const from = task.clockSource === "care_log" ? `The last check you logged was on ${longDate(task.clockFrom)}` : `Your piece was delivered on ${longDate(task.clockFrom)}`;
+    return [`${from}; we suggest a clean and check every ${interval}, so the next one is due on ${longDate(task.dueOn)}.`];
+  }
+  const since =
+    task.clockSource === "care_log"
+      ? `You last logged this${where} on ${longDate(task.clockFrom)}.`
+      : `${SINCE_WORDS[task.kind]}${where} went on ${longDate(task.clockFrom)}.`;
+  const band = task.surface === "base" && task.interval.band === "light" ? "a base, which sees light wear" : USE_WORDS[piece.use];
+  return [
+    since,
+    `For ${band}, ${SUN_WORDS[piece.sun]}, this finish lasts about ${interval}, so it is due on ${longDate(task.dueOn)}.`,
+  ];
+}
+
+/** How much product a refresh of this top takes, in the owner's units first. */
+export function quantityText(
+  task: Pick<CareTask, "surface" | "kind">,
+  shape: TopShape | undefined,
+  product: CatalogEntry | undefined,
+  unitSystem: "metric" | "imperial",
+): string | undefined {
+  if (task.surface !== "top" || !shape || !product || !APPLIES_PRODUCT.includes(task.kind)) return undefined;
+  const area = topArea(shape);
+  const coats = product.refreshCoats ?? 1;
+  const need = productNeeded({ areaM2: area.m2, coats, coverageM2PerL: product.coverageM2PerL, containerSizesMl: product.containerSizesMl });
+  const amount = unitSystem === "imperial" ? `${need.flOz} US fl oz (${need.ml} mL)` : `${need.ml} mL (${need.flOz} US fl oz)`;
+  const size = unitSystem === "imperial" ? `${area.ft2.toFixed(1)} ft²` : `${area.m2.toFixed(2)} m²`;
+  const name = product.name ?? "the product";
+  const cans = need.containers.length > 0 ? ` — ${need.containers.map((c) => `${c.count} × ${c.sizeMl} mL`).join(" + ")} is enough` : "";
+  return `About ${amount} of ${name} for ${coats === 1 ? "one coat" : `${coats} coats`} on this top (${size})${cans}.`;
+}
+
+export type OfferView = {
+  total: string;
+  lines: { description: string; amount: string }[];
+  tax: string;
+  acceptUrl: string;
+};
+
+export function offerView(q: Quote, acceptUrl: string): OfferView {
+  const money = (minor: number) => `${formatMinorUnits(minor, q.currency)} ${q.currency}`;
+  return {
+    total: money(q.totalMinor),
+    lines: q.lines.map((l) => ({
+      description: l.unit === "h" ? `${l.description} (${l.quantity} h)` : l.unit === "container" ? `${l.description} × ${l.quantity}` : l.description,
+      amount: money(l.amountMinor),
+    })),
+    tax: `${money(q.taxMinor)} tax (${q.taxRatePct} %)`,
+    acceptUrl,
+  };
+}

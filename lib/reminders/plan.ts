@@ -1,0 +1,108 @@
+// What one pass does with one care task, given its ledger rows: pure, so the rules are easy to test.
+// The ledger protocol (see pass.ts for the full story):
+//   queued   — claimed by a pass; messageId holds that pass's claim token ("claim:<uuid>") and sentAt
+//              is null until the hand-off to SMTP begins (then sentAt = when it began, attempts + 1).
+//   sent     — accepted by the SMTP server; messageId is its Message-ID.
+//   failed   — the SMTP server refused or could not be reached; retried while nextAttemptAt is set
+//              (at most MAX_ATTEMPTS tries); nextAttemptAt null = no automatic retry.
+//   skipped  — a later step had come by the time this one could go (no bursts of stale mail).
+//   cancelled— the task's cycle moved on (care was logged, or the finish changed) before it went.
+import { localDateTime } from "@/lib/care/dates";
+import type { CareTask } from "@/lib/care/schedule";
+import { reminderKey } from "@/lib/care/schedule";
+import type { ReminderStep } from "@/lib/care/vocabulary";
+
+export const MAX_ATTEMPTS = 3;
+/** Reminders go out at or after this local time of the owner (DESIGN.md §5). */
+export const SEND_AFTER_MINUTES = 9 * 60;
+/** A queued row untouched for this long belongs to a pass that died (or hangs); see pass.ts. */
+export const STALE_QUEUED_MS = 15 * 60_000;
+/** Wait before retry n (after failed try n): 15 min, then 1 h. */
+export const RETRY_BACKOFF_MS = [15 * 60_000, 60 * 60_000] as const;
+
+export type LedgerStatus = "queued" | "sent" | "failed" | "skipped" | "cancelled";
+
+export interface LedgerRow {
+  id: string;
+  reminderKey: string;
+  taskKey: string;
+  dueOn: string;
+  step: ReminderStep;
+  status: LedgerStatus;
+  attempts: number;
+  nextAttemptAt: number | null;
+  messageId: string | null;
+  sentAt: number | null;
+  updatedAt: number;
+}
+
+/** The owner's wall clock at the pass's instant, cached per time zone for one pass. */
+export class OwnerClocks {
+  private readonly cache = new Map<string, { date: string; minutes: number }>();
+  constructor(readonly nowMs: number) {}
+  at(timeZone: string): { date: string; minutes: number } {
+    let c = this.cache.get(timeZone);
+    if (!c) {
+      const l = localDateTime(this.nowMs, timeZone);
+      c = {
+        date: `${String(l.year).padStart(4, "0")}-${String(l.month).padStart(2, "0")}-${String(l.day).padStart(2, "0")}`,
+        minutes: l.hour * 60 + l.minute,
+      };
+      this.cache.set(timeZone, c);
+    }
+    return c;
+  }
+  /** Has 09:00 on `date` in `timeZone` come? (Equivalent to now ≥ that local instant; 09:00 is never in a DST gap.) */
+  hasCome(date: string, timeZone: string): boolean {
+    const c = this.at(timeZone);
+    return date < c.date || (date === c.date && c.minutes >= SEND_AFTER_MINUTES);
+  }
+}
+
+export function retryable(row: LedgerRow, nowMs: number): boolean {
+  return row.status === "failed" && row.attempts < MAX_ATTEMPTS && row.nextAttemptAt !== null && row.nextAttemptAt <= nowMs;
+}
+
+export function pendingRetry(row: LedgerRow): boolean {
+  return row.status === "failed" && row.nextAttemptAt !== null;
+}
+
+export type TaskDecision = {
+  /** The step to send now and how to claim it, if any. */
+  send?: { step: ReminderStep; reminderKey: string; claim: "insert" | "retry"; row?: LedgerRow };
+  /** Earlier steps with no row: record as skipped. */
+  skipNew: { step: ReminderStep; reminderKey: string }[];
+  /** Earlier steps waiting for a retry: superseded by the step being sent. */
+  supersede: LedgerRow[];
+};
+
+/**
+ * For one task: the most recent reminder step whose date has come (09:00 in the owner's zone) is
+ * sent unless its ledger row exists (a failed row is retried when due); earlier steps never sent
+ * are recorded as skipped. `rows` are this piece's ledger rows by reminderKey, after stale-row recovery.
+ */
+export function decideTask(task: Pick<CareTask, "key" | "dueOn" | "reminders">, rows: ReadonlyMap<string, LedgerRow>, clocks: OwnerClocks, ownerTimeZone: string): TaskDecision {
+  const out: TaskDecision = { skipNew: [], supersede: [] };
+  let current = -1;
+  for (let i = task.reminders.length - 1; i >= 0; i--) {
+    if (clocks.hasCome(task.reminders[i]!.on, ownerTimeZone)) {
+      current = i;
+      break;
+    }
+  }
+  if (current < 0) return out;
+  const step = task.reminders[current]!.step;
+  const key = reminderKey(task, step);
+  const row = rows.get(key);
+  if (!row) out.send = { step, reminderKey: key, claim: "insert" };
+  else if (retryable(row, clocks.nowMs)) out.send = { step, reminderKey: key, claim: "retry", row };
+  const sendingOrSent = out.send !== undefined || (row !== undefined && (row.status === "sent" || row.status === "queued"));
+  for (let i = 0; i < current; i++) {
+    const s = task.reminders[i]!.step;
+    const k = reminderKey(task, s);
+    const r = rows.get(k);
+    if (!r) out.skipNew.push({ step: s, reminderKey: k });
+    else if (pendingRetry(r) && sendingOrSent) out.supersede.push(r);
+  }
+  return out;
+}
