@@ -19,6 +19,13 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default("Grainward <no-reply@grainward.example>"),
   /** HTTP read API of the local SMTP sink; only the development outbox uses it. */
   MAIL_SINK_URL: z.url().default("http://127.0.0.1:2526"),
+  /** Stripe: the real SDK; in development and tests it reaches the local fake (lib/fakes/stripe-fake.ts). */
+  STRIPE_SECRET_KEY: z.string().startsWith("sk_", "STRIPE_SECRET_KEY starts with sk_").default("sk_test_grainward_demo"),
+  STRIPE_WEBHOOK_SECRET: z.string().startsWith("whsec_", "STRIPE_WEBHOOK_SECRET starts with whsec_").default("whsec_grainward_demo"),
+  /** Empty host = Stripe's own API. */
+  STRIPE_API_HOST: z.string().default("127.0.0.1"),
+  STRIPE_API_PORT: port.default(12111),
+  STRIPE_API_PROTOCOL: z.enum(["http", "https"]).default("http"),
   /** Window of the sign-in, registration-code and reset rate limits, in seconds (tests shorten it). */
   RATE_LIMIT_WINDOW_SEC: z.coerce.number().int().min(1).max(86_400).default(900),
   /** Shows the outbox in production builds too (demo and tests run a production build). */

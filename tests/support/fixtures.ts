@@ -1,7 +1,7 @@
 // Test data made through the same tables the product writes. Invented, like all test data.
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { finishLayers, memberships, pieces, studios, users, type Studio } from "@/db/schema";
+import { claims, finishLayers, finishProducts, memberships, pieces, studios, users, type Studio } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { hashPassword } from "@/lib/auth/password";
 import type { StudioRole } from "@/lib/care/vocabulary";
@@ -68,4 +68,33 @@ export function createPiece(studio: Studio, overrides: Partial<typeof pieces.$in
     .values({ studioId: studio.id, pieceId: piece.id, surface: "top", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn })
     .run();
   return { piece, code };
+}
+
+/** An accepted claim, as the triage desk leaves it, for repair-job tests. */
+export function createAcceptedClaim(studio: Studio, pieceId: string, ownerId: string, decision: "covered" | "partly_covered" | "chargeable", coveredPct?: number) {
+  return getDb()
+    .insert(claims)
+    .values({
+      studioId: studio.id,
+      pieceId,
+      ownerId,
+      category: "finish_wear",
+      noticedOn: "2026-10-01",
+      description: "Rings from a vase (invented test claim).",
+      answers: {},
+      state: "accepted",
+      decision,
+      coveredPct: decision === "covered" ? 100 : decision === "partly_covered" ? (coveredPct ?? 50) : 0,
+      decidedAt: new Date(),
+    })
+    .returning()
+    .get();
+}
+
+export function createProduct(studio: Studio, overrides: Partial<typeof finishProducts.$inferInsert> = {}) {
+  return getDb()
+    .insert(finishProducts)
+    .values({ studioId: studio.id, name: "Test hardwax oil (invented)", finishClass: "hardwax_oil", coverageM2PerL: 24, containers: [{ ml: 125, priceMinor: 1900 }], ...overrides })
+    .returning()
+    .get();
 }

@@ -1,0 +1,416 @@
+// A local stand-in for the parts of Stripe's API Grainward uses, for development and tests only.
+// The app reaches it with the real `stripe` SDK (host/port/protocol settings), exactly as it would
+// reach Stripe: form-encoded requests with a bearer key, Idempotency-Key, Checkout Sessions, a hosted
+// payment page where the test card decides the outcome, refunds, events, and webhooks signed in
+// Stripe's `Stripe-Signature` scheme (t=…,v1=HMAC-SHA256(secret, "t.payload")) with retries.
+// Nothing here imports app code.
+import { createHmac, randomBytes } from "node:crypto";
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+
+export const SUCCESS_CARD = "4242424242424242";
+export const DECLINE_CARD = "4000000000000002";
+
+type Json = Record<string, unknown>;
+
+export type FakeSession = {
+  id: string;
+  object: "checkout.session";
+  mode: "payment";
+  status: "open" | "complete" | "expired";
+  payment_status: "unpaid" | "paid";
+  amount_total: number;
+  amount_subtotal: number;
+  currency: string;
+  line_items: { name: string; unit_amount: number; quantity: number }[];
+  metadata: Record<string, string>;
+  client_reference_id: string | null;
+  customer_email: string | null;
+  success_url: string;
+  cancel_url: string | null;
+  url: string | null;
+  payment_intent: string | null;
+  created: number;
+  expires_at: number;
+  livemode: false;
+};
+
+export type FakeEvent = { id: string; object: "event"; type: string; created: number; api_version: string; livemode: false; data: { object: Json }; pending_webhooks: number };
+export type Delivery = { eventId: string; type: string; attempt: number; status: number | null; at: string };
+
+export type StripeFakeOptions = {
+  host?: string;
+  port?: number;
+  secretKey: string;
+  webhookSecret: string;
+  /** Where events are posted; none → events are only recorded. */
+  webhookUrl?: string;
+  /** Waits between webhook attempts; the number of entries + 1 is the number of tries. */
+  retryDelaysMs?: number[];
+};
+
+export type StripeFake = {
+  port: number;
+  url: string;
+  sessions(): FakeSession[];
+  events(): FakeEvent[];
+  deliveries(): Delivery[];
+  /** Sends an event to the webhook again, as Stripe's "resend" does. */
+  redeliver(eventId: string): Promise<number | null>;
+  close(): Promise<void>;
+};
+
+class StripeError extends Error {
+  constructor(
+    readonly status: number,
+    readonly type: string,
+    message: string,
+    readonly param?: string,
+    readonly code?: string,
+  ) {
+    super(message);
+  }
+}
+
+// ISO 4217 minor units of the currencies the fake accepts (a subset; JPY has none).
+const ZERO_DECIMAL = new Set(["jpy", "krw", "vnd", "clp", "isk", "ugx"]);
+const CURRENCIES = new Set(["usd", "eur", "gbp", "cad", "aud", "chf", "sek", "nok", "dkk", "nzd", "jpy"]);
+
+/** Parses Stripe's form encoding (a[b][0][c]=v) into nested objects and arrays. */
+export function parseStripeForm(body: string): Json {
+  const out: Json = {};
+  for (const [rawKey, value] of new URLSearchParams(body)) {
+    const parts = rawKey.replace(/\]/g, "").split("[");
+    let node: Record<string, unknown> | unknown[] = out;
+    parts.forEach((part, i) => {
+      const last = i === parts.length - 1;
+      const nextIsIndex = !last && /^\d+$/.test(parts[i + 1]!);
+      const container = node as Record<string, unknown>;
+      if (last) {
+        container[part] = value;
+        return;
+      }
+      container[part] ??= nextIsIndex ? [] : {};
+      node = container[part] as Record<string, unknown>;
+    });
+  }
+  return out;
+}
+
+const id = (prefix: string) => `${prefix}_test_${randomBytes(12).toString("base64url").replace(/[-_]/g, "x")}`;
+const now = () => Math.floor(Date.now() / 1000);
+
+function requireString(obj: Json, key: string, where = key): string {
+  const v = obj[key];
+  if (typeof v !== "string" || v === "") throw new StripeError(400, "invalid_request_error", `Missing required param: ${where}.`, where, "parameter_missing");
+  return v;
+}
+
+function requireInteger(v: unknown, where: string): number {
+  if (typeof v !== "string" || !/^-?\d+$/.test(v)) throw new StripeError(400, "invalid_request_error", `Invalid integer: ${String(v)}`, where, "parameter_invalid_integer");
+  return Number(v);
+}
+
+function escapeHtml(s: string) {
+  return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+}
+
+function formatAmount(amount: number, currency: string) {
+  const digits = ZERO_DECIMAL.has(currency) ? 0 : 2;
+  return `${(amount / 10 ** digits).toFixed(digits)} ${currency.toUpperCase()}`;
+}
+
+export async function startStripeFake(options: StripeFakeOptions): Promise<StripeFake> {
+  const sessions = new Map<string, FakeSession>();
+  const events: FakeEvent[] = [];
+  const deliveries: Delivery[] = [];
+  const charges = new Map<string, { id: string; payment_intent: string; amount: number; amount_refunded: number; currency: string }>();
+  const idempotency = new Map<string, { body: string; status: number; response: Json }>();
+  const retryDelays = options.retryDelaysMs ?? [1000, 3000, 10000, 30000];
+  const timers = new Set<NodeJS.Timeout>();
+  let baseUrl = "";
+
+  function sign(payload: string): string {
+    const t = now();
+    const v1 = createHmac("sha256", options.webhookSecret).update(`${t}.${payload}`).digest("hex");
+    return `t=${t},v1=${v1}`;
+  }
+
+  async function deliverOnce(event: FakeEvent, attempt: number): Promise<number | null> {
+    if (!options.webhookUrl) return null;
+    const payload = JSON.stringify(event, null, 2);
+    let status: number | null = null;
+    try {
+      const res = await fetch(options.webhookUrl, {
+        method: "POST",
+        headers: { "content-type": "application/json", "stripe-signature": sign(payload), "user-agent": "Stripe/1.0 (+local fake)" },
+        body: payload,
+        signal: AbortSignal.timeout(10_000),
+      });
+      status = res.status;
+      await res.arrayBuffer();
+    } catch {
+      status = null;
+    }
+    deliveries.push({ eventId: event.id, type: event.type, attempt, status, at: new Date().toISOString() });
+    return status;
+  }
+
+  async function deliver(event: FakeEvent, attempt = 1) {
+    const status = await deliverOnce(event, attempt);
+    const ok = status !== null && status >= 200 && status < 300;
+    if (!ok && attempt <= retryDelays.length && options.webhookUrl) {
+      const timer = setTimeout(() => {
+        timers.delete(timer);
+        void deliver(event, attempt + 1);
+      }, retryDelays[attempt - 1]);
+      timers.add(timer);
+    }
+  }
+
+  function emit(type: string, object: Json) {
+    const event: FakeEvent = { id: id("evt"), object: "event", type, created: now(), api_version: "2025-01-01", livemode: false, data: { object: structuredClone(object) }, pending_webhooks: 1 };
+    events.push(event);
+    void deliver(event);
+    return event;
+  }
+
+  function createSession(params: Json): FakeSession {
+    const mode = requireString(params, "mode");
+    if (mode !== "payment") throw new StripeError(400, "invalid_request_error", "This fake supports mode=payment only.", "mode");
+    const successUrl = requireString(params, "success_url");
+    const items = params.line_items;
+    if (!Array.isArray(items) || items.length === 0) throw new StripeError(400, "invalid_request_error", "Missing required param: line_items.", "line_items", "parameter_missing");
+    let currency: string | undefined;
+    const lineItems = items.map((raw, i) => {
+      const item = raw as Json;
+      const price = item.price_data as Json | undefined;
+      if (!price) throw new StripeError(400, "invalid_request_error", `Missing required param: line_items[${i}][price_data].`, `line_items[${i}][price_data]`, "parameter_missing");
+      const c = requireString(price, "currency", `line_items[${i}][price_data][currency]`).toLowerCase();
+      if (!CURRENCIES.has(c)) throw new StripeError(400, "invalid_request_error", `Invalid currency: ${c}.`, `line_items[${i}][price_data][currency]`);
+      if (currency && c !== currency) throw new StripeError(400, "invalid_request_error", "All line items must use the same currency.", `line_items[${i}][price_data][currency]`);
+      currency = c;
+      const unitAmount = requireInteger(price.unit_amount, `line_items[${i}][price_data][unit_amount]`);
+      if (unitAmount < 0) throw new StripeError(400, "invalid_request_error", "unit_amount must be at least 0.", `line_items[${i}][price_data][unit_amount]`);
+      const product = price.product_data as Json | undefined;
+      const name = product ? requireString(product, "name", `line_items[${i}][price_data][product_data][name]`) : "";
+      if (!product) throw new StripeError(400, "invalid_request_error", `Missing required param: line_items[${i}][price_data][product_data].`, `line_items[${i}][price_data][product_data]`, "parameter_missing");
+      const quantity = requireInteger(item.quantity, `line_items[${i}][quantity]`);
+      if (quantity < 1) throw new StripeError(400, "invalid_request_error", "quantity must be at least 1.", `line_items[${i}][quantity]`);
+      return { name, unit_amount: unitAmount, quantity };
+    });
+    const total = lineItems.reduce((sum, l) => sum + l.unit_amount * l.quantity, 0);
+    // Stripe's minimum charge is about 0.50 USD; the fake only refuses a zero or negative total.
+    if (total <= 0) throw new StripeError(400, "invalid_request_error", "The Checkout Session's total amount due must be greater than zero.", "line_items", "amount_too_small");
+    const metadata = (params.metadata as Record<string, string> | undefined) ?? {};
+    const sessionId = id("cs");
+    const session: FakeSession = {
+      id: sessionId,
+      object: "checkout.session",
+      mode: "payment",
+      status: "open",
+      payment_status: "unpaid",
+      amount_total: total,
+      amount_subtotal: total,
+      currency: currency!,
+      line_items: lineItems,
+      metadata,
+      client_reference_id: typeof params.client_reference_id === "string" ? params.client_reference_id : null,
+      customer_email: typeof params.customer_email === "string" ? params.customer_email : null,
+      success_url: successUrl,
+      cancel_url: typeof params.cancel_url === "string" ? params.cancel_url : null,
+      url: `${baseUrl}/pay/${sessionId}`,
+      payment_intent: null,
+      created: now(),
+      expires_at: params.expires_at ? requireInteger(params.expires_at, "expires_at") : now() + 24 * 3600,
+      livemode: false,
+    };
+    sessions.set(session.id, session);
+    return session;
+  }
+
+  function publicSession(s: FakeSession): Json {
+    const { line_items: _items, ...rest } = s;
+    return rest;
+  }
+
+  function expire(s: FakeSession) {
+    if (s.status !== "open") throw new StripeError(400, "invalid_request_error", `Only Checkout Sessions with a status of open can be expired (this one is ${s.status}).`);
+    s.status = "expired";
+    s.url = null;
+    emit("checkout.session.expired", publicSession(s));
+  }
+
+  function pay(s: FakeSession) {
+    const pi = id("pi");
+    const charge = { id: id("ch"), payment_intent: pi, amount: s.amount_total, amount_refunded: 0, currency: s.currency };
+    charges.set(pi, charge);
+    s.status = "complete";
+    s.payment_status = "paid";
+    s.payment_intent = pi;
+    s.url = null;
+    emit("checkout.session.completed", publicSession(s));
+  }
+
+  function refund(params: Json): Json {
+    const pi = requireString(params, "payment_intent");
+    const charge = charges.get(pi);
+    if (!charge) throw new StripeError(404, "invalid_request_error", `No such payment_intent: '${pi}'`, "payment_intent", "resource_missing");
+    const remaining = charge.amount - charge.amount_refunded;
+    const amount = params.amount === undefined ? remaining : requireInteger(params.amount, "amount");
+    if (amount <= 0 || amount > remaining) {
+      throw new StripeError(400, "invalid_request_error", `Refund amount (${amount}) is greater than unrefunded amount on charge (${remaining}).`, "amount", "amount_too_large");
+    }
+    charge.amount_refunded += amount;
+    const refundObj = { id: id("re"), object: "refund", amount, currency: charge.currency, payment_intent: pi, charge: charge.id, status: "succeeded", created: now() };
+    emit("charge.refunded", { id: charge.id, object: "charge", amount: charge.amount, amount_refunded: charge.amount_refunded, currency: charge.currency, payment_intent: pi, refunded: charge.amount_refunded === charge.amount });
+    return refundObj;
+  }
+
+  function paymentPage(s: FakeSession, message?: string): string {
+    const lines = s.line_items.map((l) => `<tr><td>${escapeHtml(l.name)}${l.quantity > 1 ? ` × ${l.quantity}` : ""}</td><td style="text-align:right">${escapeHtml(formatAmount(l.unit_amount * l.quantity, s.currency))}</td></tr>`).join("");
+    return `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width,initial-scale=1"><title>Test payment</title>
+<style>body{font-family:system-ui,sans-serif;background:#f4f4f5;color:#18181b;margin:0;padding:24px}main{max-width:420px;margin:auto;background:#fff;border-radius:12px;padding:24px;box-shadow:0 1px 3px #0002}
+table{width:100%;border-collapse:collapse;margin:12px 0}td{padding:6px 0;border-bottom:1px solid #e4e4e7}label{display:block;font-weight:600;margin:16px 0 6px}input{width:100%;box-sizing:border-box;font-size:18px;padding:10px;border:1px solid #a1a1aa;border-radius:8px}
+button{width:100%;min-height:48px;margin-top:16px;font-size:16px;font-weight:600;border:0;border-radius:8px;background:#3f3f46;color:#fff}.err{background:#fee2e2;padding:10px;border-radius:8px}.note{font-size:13px;color:#52525b}a{color:#3f3f46}</style></head>
+<body><main><p class="note">Local payment test page — no real money moves.</p><h1>Pay ${escapeHtml(formatAmount(s.amount_total, s.currency))}</h1><table>${lines}</table>
+${message ? `<p class="err" role="alert">${escapeHtml(message)}</p>` : ""}
+<form method="post" action="/pay/${s.id}"><label for="card">Card number</label><input id="card" name="card" inputmode="numeric" autocomplete="off" placeholder="4242 4242 4242 4242">
+<p class="note">Test cards: 4242 4242 4242 4242 succeeds; 4000 0000 0000 0002 is declined.</p><button type="submit">Pay</button></form>
+${s.cancel_url ? `<form method="post" action="/pay/${s.id}/cancel"><button type="submit" style="background:#fff;color:#3f3f46;border:1px solid #a1a1aa">Cancel and go back</button></form>` : ""}
+</main></body></html>`;
+  }
+
+  async function readBody(req: http.IncomingMessage): Promise<string> {
+    const chunks: Buffer[] = [];
+    let size = 0;
+    for await (const chunk of req) {
+      size += (chunk as Buffer).length;
+      if (size > 1_000_000) throw new StripeError(413, "invalid_request_error", "Request body too large.");
+      chunks.push(chunk as Buffer);
+    }
+    return Buffer.concat(chunks).toString("utf8");
+  }
+
+  function sendJson(res: http.ServerResponse, status: number, body: Json) {
+    res.writeHead(status, { "content-type": "application/json", "request-id": id("req") });
+    res.end(JSON.stringify(body));
+  }
+
+  function checkKey(req: http.IncomingMessage) {
+    const auth = req.headers.authorization ?? "";
+    const key = auth.startsWith("Bearer ") ? auth.slice(7) : auth.startsWith("Basic ") ? Buffer.from(auth.slice(6), "base64").toString().split(":")[0] : "";
+    if (!key) throw new StripeError(401, "invalid_request_error", "You did not provide an API key.");
+    if (key !== options.secretKey) throw new StripeError(401, "invalid_request_error", `Invalid API Key provided: ${key.slice(0, 8)}…`);
+  }
+
+  function session(sessionId: string): FakeSession {
+    const s = sessions.get(sessionId);
+    if (!s) throw new StripeError(404, "invalid_request_error", `No such checkout.session: '${sessionId}'`, "id", "resource_missing");
+    if (s.status === "open" && s.expires_at <= now()) expire(s);
+    return s;
+  }
+
+  async function handleApi(req: http.IncomingMessage, res: http.ServerResponse, path: string[]) {
+    checkKey(req);
+    const body = req.method === "POST" ? await readBody(req) : "";
+    const key = req.headers["idempotency-key"];
+    const idemKey = typeof key === "string" ? `${path.join("/")}:${key}` : null;
+    if (idemKey) {
+      const seen = idempotency.get(idemKey);
+      if (seen) {
+        if (seen.body !== body) throw new StripeError(400, "idempotency_error", "Keys for idempotent requests can only be used with the same parameters they were first used with.");
+        res.setHeader("idempotent-replayed", "true");
+        return sendJson(res, seen.status, seen.response);
+      }
+    }
+    const params = parseStripeForm(body);
+    let out: Json;
+    const [resource, a, b] = path;
+    if (req.method === "POST" && resource === "checkout" && a === "sessions" && !b) out = publicSession(createSession(params));
+    else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b) out = publicSession(session(b));
+    else if (req.method === "POST" && resource === "checkout" && a === "sessions" && b && path[3] === "expire") {
+      const s = session(b);
+      expire(s);
+      out = publicSession(s);
+    } else if (req.method === "POST" && resource === "refunds" && !a) out = refund(params);
+    else if (req.method === "GET" && resource === "charges" && a) {
+      const charge = [...charges.values()].find((c) => c.id === a);
+      if (!charge) throw new StripeError(404, "invalid_request_error", `No such charge: '${a}'`, "id", "resource_missing");
+      out = { ...charge, object: "charge", refunded: charge.amount_refunded === charge.amount };
+    } else if (req.method === "GET" && resource === "events" && a) {
+      const e = events.find((x) => x.id === a);
+      if (!e) throw new StripeError(404, "invalid_request_error", `No such event: '${a}'`, "id", "resource_missing");
+      out = e as unknown as Json;
+    } else throw new StripeError(404, "invalid_request_error", `Unrecognized request URL (${req.method}: /v1/${path.join("/")}).`);
+    if (idemKey) idempotency.set(idemKey, { body, status: 200, response: out });
+    sendJson(res, 200, out);
+  }
+
+  const server = http.createServer(async (req, res) => {
+    const url = new URL(req.url ?? "/", "http://fake.local");
+    const path = url.pathname.split("/").filter(Boolean);
+    try {
+      if (path[0] === "v1") return await handleApi(req, res, path.slice(1));
+      if (path[0] === "pay" && path[1]) {
+        const s = session(path[1]);
+        if (req.method === "GET") {
+          res.writeHead(s.status === "open" ? 200 : 410, { "content-type": "text/html; charset=utf-8" });
+          return res.end(s.status === "open" ? paymentPage(s) : `<p>This checkout is ${s.status}.</p>`);
+        }
+        if (req.method === "POST" && path[2] === "cancel") {
+          if (s.status === "open") expire(s);
+          res.writeHead(303, { location: s.cancel_url ?? "/" });
+          return res.end();
+        }
+        if (req.method === "POST") {
+          const card = (new URLSearchParams(await readBody(req)).get("card") ?? "").replace(/\D/g, "");
+          if (s.status !== "open") throw new StripeError(400, "invalid_request_error", `This checkout is ${s.status}.`);
+          if (card === DECLINE_CARD) {
+            res.writeHead(402, { "content-type": "text/html; charset=utf-8" });
+            return res.end(paymentPage(s, "Your card was declined. Try another card, or cancel and go back."));
+          }
+          if (card !== SUCCESS_CARD) {
+            res.writeHead(400, { "content-type": "text/html; charset=utf-8" });
+            return res.end(paymentPage(s, "Use one of the test card numbers below."));
+          }
+          pay(s);
+          res.writeHead(303, { location: s.success_url.replace("{CHECKOUT_SESSION_ID}", s.id) });
+          return res.end();
+        }
+      }
+      if (path[0] === "health") return sendJson(res, 200, { ok: true });
+      throw new StripeError(404, "invalid_request_error", "Not found.");
+    } catch (e) {
+      const err = e instanceof StripeError ? e : new StripeError(500, "api_error", "The fake failed.");
+      if (!(e instanceof StripeError)) console.error(e);
+      sendJson(res, err.status, { error: { type: err.type, message: err.message, ...(err.param ? { param: err.param } : {}), ...(err.code ? { code: err.code } : {}) } });
+    }
+  });
+
+  await new Promise<void>((resolve, reject) => {
+    server.once("error", reject);
+    server.listen(options.port ?? 0, options.host ?? "127.0.0.1", () => resolve());
+  });
+  const port = (server.address() as AddressInfo).port;
+  baseUrl = `http://${options.host ?? "127.0.0.1"}:${port}`;
+
+  return {
+    port,
+    url: baseUrl,
+    sessions: () => [...sessions.values()],
+    events: () => [...events],
+    deliveries: () => [...deliveries],
+    redeliver: async (eventId) => {
+      const e = events.find((x) => x.id === eventId);
+      if (!e) throw new Error(`no event ${eventId}`);
+      return deliverOnce(e, 0);
+    },
+    close: () =>
+      new Promise<void>((resolve) => {
+        for (const t of timers) clearTimeout(t);
+        server.closeAllConnections();
+        server.close(() => resolve());
+      }),
+  };
+}

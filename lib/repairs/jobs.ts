@@ -1,0 +1,193 @@
+import "server-only";
+import { and, desc, eq, inArray, isNull, sql } from "drizzle-orm";
+import type { User } from "lucia";
+import { getDb } from "@/db/client";
+import { claims, finishProducts, payments, pieces, refreshOffers, repairJobs, studios, users, type RepairJob, type Studio } from "@/db/schema";
+import { recordAudit } from "@/lib/audit";
+import type { StudioContext } from "@/lib/auth/guards";
+import { topArea } from "@/lib/care/area";
+import { quote, quoteProductFromCatalog, type Quote } from "@/lib/care/quote";
+import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
+import { conflict, notFound } from "@/lib/errors";
+import { topShape, toCatalog } from "@/lib/pieces/care-inputs";
+import type { JobQuoteInput } from "@/lib/validation/jobs";
+import { assertMove } from "./states";
+
+type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
+
+/** Prices a job's quote input with the care engine, from the piece's top and the studio's rates. */
+export function priceJob(studio: Studio, piece: typeof pieces.$inferSelect, input: JobQuoteInput, products: (typeof finishProducts.$inferSelect)[]): Quote {
+  const shape = topShape(piece);
+  const areaM2 = shape ? topArea(shape).m2 : 0;
+  const chosen = toCatalog(products.filter((p) => input.productIds.includes(p.id)));
+  return quote({
+    tasks: input.tasks,
+    areaM2,
+    rates: { labourPerHourMinor: studio.labourRateMinor },
+    products: chosen.map((entry) => ({
+      ...quoteProductFromCatalog(entry, TASK_KIND_BY_FINISH_CLASS[entry.finishClass]),
+      coats: input.coats,
+    })),
+    travel: input.travel ? { flatMinor: studio.travelFeeMinor } : undefined,
+    taxRatePct: studio.taxRateBp / 100,
+    coveredPct: input.coveredPct,
+    currency: studio.currency,
+  });
+}
+
+function totals(q: Quote) {
+  return { lines: q.lines, subtotalMinor: q.subtotalMinor, coveredMinor: q.coveredMinor, taxMinor: q.taxMinor, totalMinor: q.totalMinor };
+}
+
+function studioProducts(studioId: string) {
+  return getDb().select().from(finishProducts).where(and(eq(finishProducts.studioId, studioId), isNull(finishProducts.archivedAt))).all();
+}
+
+/** A first quote for a task kind: the studio's products of that finish class, one coat, travel on. */
+function defaultQuoteInput(title: string, tasks: CareTaskKind[], products: (typeof finishProducts.$inferSelect)[], coveredPct: number): JobQuoteInput {
+  const wanted = new Set(tasks);
+  const productIds = products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1);
+  return { title, tasks, productIds, coats: 1, travel: true, coveredPct, notes: "" };
+}
+
+/** Accepted claims and accepted refresh offers of the studio that have no job yet. */
+export function jobsToCreate(ctx: StudioContext) {
+  const db = getDb();
+  const fromClaims = db
+    .select({ id: claims.id, category: claims.category, decision: claims.decision, coveredPct: claims.coveredPct, pieceTitle: pieces.title, ownerName: users.name, at: claims.decidedAt })
+    .from(claims)
+    .innerJoin(pieces, eq(pieces.id, claims.pieceId))
+    .innerJoin(users, eq(users.id, claims.ownerId))
+    .leftJoin(repairJobs, eq(repairJobs.claimId, claims.id))
+    .where(and(eq(claims.studioId, ctx.studio.id), eq(claims.state, "accepted"), isNull(repairJobs.id)))
+    .all();
+  const fromOffers = db
+    .select({ id: refreshOffers.id, taskKey: refreshOffers.taskKey, priceMinor: refreshOffers.priceMinor, currency: refreshOffers.currency, pieceTitle: pieces.title, ownerName: users.name, at: refreshOffers.acceptedAt })
+    .from(refreshOffers)
+    .innerJoin(pieces, eq(pieces.id, refreshOffers.pieceId))
+    .innerJoin(users, eq(users.id, refreshOffers.userId))
+    .leftJoin(repairJobs, eq(repairJobs.refreshOfferId, refreshOffers.id))
+    .where(and(eq(refreshOffers.studioId, ctx.studio.id), eq(refreshOffers.status, "accepted"), isNull(repairJobs.id)))
+    .all();
+  return { fromClaims, fromOffers };
+}
+
+const CLAIM_TASKS: Record<string, CareTaskKind[]> = {
+  finish_wear: ["reoil"],
+  finish_peeling: ["topcoat_refresh"],
+  resin_clouding: ["resin_polish"],
+  scratch_dent: ["reoil"],
+};
+
+export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", sourceId: string): RepairJob {
+  const db = getDb();
+  const products = studioProducts(ctx.studio.id);
+  return db.transaction((tx) => {
+    let values: typeof repairJobs.$inferInsert;
+    if (from === "claim") {
+      const claim = tx.select().from(claims).where(and(eq(claims.id, sourceId), eq(claims.studioId, ctx.studio.id))).get();
+      if (!claim) throw notFound("No such claim in this studio.");
+      if (claim.state !== "accepted") throw conflict("Only an accepted claim becomes a repair job.");
+      if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.claimId, claim.id)).get()) throw conflict("This claim already has a repair job.");
+      const piece = tx.select().from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
+      const coveredPct = claim.decision === "covered" ? 100 : claim.decision === "partly_covered" ? (claim.coveredPct ?? 0) : 0;
+      const input = defaultQuoteInput(`Repair: ${piece.title}`, CLAIM_TASKS[claim.category] ?? ["annual_check"], products, coveredPct);
+      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products)) };
+    } else {
+      const offer = tx.select().from(refreshOffers).where(and(eq(refreshOffers.id, sourceId), eq(refreshOffers.studioId, ctx.studio.id))).get();
+      if (!offer) throw notFound("No such refresh offer in this studio.");
+      if (offer.status !== "accepted") throw conflict("Only an accepted refresh offer becomes a repair job.");
+      if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.refreshOfferId, offer.id)).get()) throw conflict("This offer already has a repair job.");
+      const piece = tx.select().from(pieces).where(eq(pieces.id, offer.pieceId)).get()!;
+      const kind = offer.taskKey.split(":")[1] as CareTaskKind | undefined;
+      const input = defaultQuoteInput(`Refresh visit: ${piece.title}`, kind ? [kind] : ["annual_check"], products, 0);
+      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products)) };
+    }
+    const job = tx.insert(repairJobs).values(values).returning().get();
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.created", subjectType: "repair_job", subjectId: job.id, data: { from, sourceId } });
+    return job;
+  });
+}
+
+export function listStudioJobs(ctx: StudioContext, filter: { state?: RepairJob["state"] }) {
+  return getDb()
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, ownerName: users.name })
+    .from(repairJobs)
+    .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
+    .leftJoin(users, eq(users.id, repairJobs.ownerId))
+    .where(and(eq(repairJobs.studioId, ctx.studio.id), filter.state ? eq(repairJobs.state, filter.state) : undefined))
+    .orderBy(desc(repairJobs.updatedAt))
+    .limit(500)
+    .all();
+}
+
+export function listOwnerJobs(user: Pick<User, "id">, filter: { state?: RepairJob["state"] } = {}) {
+  return getDb()
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, totalMinor: repairJobs.totalMinor, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, studioName: studios.name })
+    .from(repairJobs)
+    .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
+    .innerJoin(studios, eq(studios.id, repairJobs.studioId))
+    .where(and(eq(repairJobs.ownerId, user.id), inArray(repairJobs.state, ["quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"]), filter.state ? eq(repairJobs.state, filter.state) : undefined))
+    .orderBy(desc(repairJobs.updatedAt))
+    .all();
+}
+
+function loadJob(where: ReturnType<typeof and>) {
+  const row = getDb()
+    .select({ job: repairJobs, piece: pieces, studio: studios, owner: { id: users.id, name: users.name, email: users.email } })
+    .from(repairJobs)
+    .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
+    .innerJoin(studios, eq(studios.id, repairJobs.studioId))
+    .leftJoin(users, eq(users.id, repairJobs.ownerId))
+    .where(where)
+    .get();
+  if (!row) throw notFound("No such repair job.");
+  const jobPayments = getDb().select().from(payments).where(eq(payments.jobId, row.job.id)).orderBy(desc(payments.createdAt)).all();
+  return { ...row, payments: jobPayments };
+}
+
+export type JobView = ReturnType<typeof loadJob>;
+
+export function getStudioJob(ctx: StudioContext, jobId: string) {
+  const view = loadJob(and(eq(repairJobs.id, jobId), eq(repairJobs.studioId, ctx.studio.id)));
+  return { ...view, products: studioProducts(ctx.studio.id) };
+}
+
+/** The owner's own job; drafts stay with the studio until a quote is sent. */
+export function getOwnerJob(user: Pick<User, "id">, jobId: string) {
+  const view = loadJob(and(eq(repairJobs.id, jobId), eq(repairJobs.ownerId, user.id)));
+  if (view.job.state === "draft" && view.job.quoteVersion === 0) throw notFound("No such repair job.");
+  return view;
+}
+
+/** Moves a job with a compare-and-set on its version, so two writers can't both win. */
+export function moveJob(tx: Tx, job: RepairJob, to: RepairJob["state"], set: Partial<typeof repairJobs.$inferInsert> = {}): RepairJob {
+  assertMove(job.state, to);
+  const updated = tx
+    .update(repairJobs)
+    .set({ ...set, state: to, version: sql`${repairJobs.version} + 1`, updatedAt: new Date() })
+    .where(and(eq(repairJobs.id, job.id), eq(repairJobs.version, job.version)))
+    .returning()
+    .get();
+  if (!updated) throw conflict("The job changed while you were working on it. Reload and try again.");
+  return updated;
+}
+
+export function updateJobQuote(ctx: StudioContext, jobId: string, input: JobQuoteInput): RepairJob {
+  const { job, piece, studio } = getStudioJob(ctx, jobId);
+  if (!["draft", "quoted", "approved"].includes(job.state)) throw conflict("This job's quote can no longer be changed.");
+  const products = studioProducts(ctx.studio.id);
+  const unknown = input.productIds.filter((p) => !products.some((x) => x.id === p));
+  if (unknown.length) throw notFound("One of those products is not in this studio's catalog.");
+  const priced = priceJob(studio, piece, input, products);
+  return getDb().transaction((tx) => {
+    const set = { title: input.title, quoteInput: input, coveredPct: input.coveredPct, notes: input.notes, ...totals(priced) };
+    const updated =
+      job.state === "draft"
+        ? tx.update(repairJobs).set({ ...set, version: sql`${repairJobs.version} + 1`, updatedAt: new Date() }).where(and(eq(repairJobs.id, job.id), eq(repairJobs.version, job.version))).returning().get()
+        : moveJob(tx, job, "draft", set);
+    if (!updated) throw conflict("The job changed while you were working on it. Reload and try again.");
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.quote_edited", subjectType: "repair_job", subjectId: job.id, data: { totalMinor: priced.totalMinor } });
+    return updated;
+  });
+}
