@@ -4,6 +4,7 @@
 import { hashPassword } from "@/lib/auth/password";
 import type { FinishClass, PieceKind, ResinKind, ShapeKind, SunExposure, Surface, Use } from "@/lib/care/vocabulary";
 import { newRegistrationCode } from "@/lib/pieces/registration";
+import { indexPiece } from "@/lib/pieces/search-index";
 import type { Db } from "../client";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { finishLayers, finishProducts, memberships, ownerships, pieces, studios, users, warrantyPolicies, type ContainerSize } from "../schema";
@@ -272,6 +273,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
           })
           .run();
       }
+      indexPiece(tx, piece.id);
     }
     return { studioId: studio.id, pieces: PIECES.length, codes };
   });

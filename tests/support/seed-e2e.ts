@@ -7,6 +7,7 @@ import { memberships, pieces, studios, users } from "@/db/schema";
 import { DEMO_PASSWORD, DEMO_STUDIO_SLUG, seedDemo } from "@/db/seed/demo";
 import { hashPassword } from "@/lib/auth/password";
 import { newRegistrationCode } from "@/lib/pieces/registration";
+import { indexPiece } from "@/lib/pieces/search-index";
 
 const db = getDb();
 const demoSeed = await seedDemo(db);
@@ -35,6 +36,7 @@ const otherPiece = db
   })
   .returning()
   .get();
+indexPiece(db, otherPiece.id);
 const demo = db.select().from(studios).where(eq(studios.slug, DEMO_STUDIO_SLUG)).get()!;
 const demoPiece = db.select().from(pieces).where(eq(pieces.studioId, demo.id)).get()!;
 fs.mkdirSync("tests/.tmp", { recursive: true });

@@ -1,0 +1,257 @@
+import "server-only";
+import Papa from "papaparse";
+import { getDb } from "@/db/client";
+import type { StudioContext } from "@/lib/auth/guards";
+import { recordAudit } from "@/lib/audit";
+import { findSpecies, getSpecies } from "@/lib/care/species";
+import {
+  FINISH_CLASSES,
+  FINISH_CLASS_LABELS,
+  PIECE_KINDS,
+  PIECE_KIND_LABELS,
+  RESIN_KINDS,
+  RESIN_LABELS,
+  SHAPE_KINDS,
+  SUN_EXPOSURES,
+  SURFACES,
+  USES,
+  type FinishClass,
+} from "@/lib/care/vocabulary";
+import { AppError } from "@/lib/errors";
+import { createPieceSchema, importSchema } from "@/lib/validation/pieces";
+import { insertPiece, queryRegistry, studioProducts } from "./registry";
+
+// CSV export of the registry's current filter, and import of earlier deliveries. The import checks
+// every row first and writes nothing unless the whole file is valid, then writes it in one transaction.
+// Columns are the same both ways, so an export can be edited and imported into another studio.
+// finish_stack: layers separated by ";", each surface:class:coats:YYYY-MM-DD[:product label].
+
+export const CSV_COLUMNS = [
+  "title",
+  "kind",
+  "shape",
+  "length_mm",
+  "width_mm",
+  "diameter_mm",
+  "area_m2",
+  "thickness_mm",
+  "primary_species",
+  "secondary_species",
+  "resin",
+  "resin_poured_on",
+  "resin_volume_ml",
+  "resin_tint",
+  "base_material",
+  "base_finish",
+  "use",
+  "sun",
+  "delivered_on",
+  "delivery_address",
+  "notes",
+  "finish_stack",
+] as const;
+const EXPORT_ONLY = ["id", "registered", "owner_name", "owner_email", "next_care", "next_care_due", "under_warranty"] as const;
+
+/** Spreadsheet formula injection: a cell starting with = + - @ (or tab/CR) is prefixed with '. */
+function cell(v: unknown): string {
+  const s = v == null ? "" : String(v);
+  return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
+}
+function uncell(s: string): string {
+  return /^'[=+\-@\t\r]/.test(s) ? s.slice(1) : s;
+}
+
+/** GET /api/pieces/export.csv with the same query as the registry table (every page). */
+export function exportPiecesCsv(ctx: StudioContext, raw: unknown, now = new Date()): string {
+  const { rows, loaded } = queryRegistry(ctx, raw, now, true);
+  const data = rows.map((r) => {
+    const l = loaded.get(r.id)!;
+    const p = l.piece;
+    const stack = l.layers.map((x) => [x.surface, x.finishClass, x.coats, x.appliedOn, x.productLabel].filter((v, i) => i < 4 || v).join(":")).join("; ");
+    const out: Record<string, string> = {
+      id: p.id,
+      title: p.title,
+      kind: p.kind,
+      shape: p.shapeKind,
+      length_mm: String(p.lengthMm ?? ""),
+      width_mm: String(p.widthMm ?? ""),
+      diameter_mm: String(p.diameterMm ?? ""),
+      area_m2: String(p.measuredAreaM2 ?? ""),
+      thickness_mm: String(p.thicknessMm ?? ""),
+      primary_species: p.primarySpeciesId,
+      secondary_species: p.secondarySpeciesId ?? "",
+      resin: p.resinKind,
+      resin_poured_on: p.resinPouredOn ?? "",
+      resin_volume_ml: String(p.resinVolumeMl ?? ""),
+      resin_tint: p.resinTint ?? "",
+      base_material: p.baseMaterial,
+      base_finish: p.baseFinish,
+      use: p.use,
+      sun: p.sun,
+      delivered_on: p.deliveredOn,
+      delivery_address: p.deliveryAddress,
+      notes: p.internalNotes,
+      finish_stack: stack,
+      registered: r.registered ? "yes" : "no",
+      owner_name: r.owner?.name ?? "",
+      owner_email: r.owner?.email ?? "",
+      next_care: r.nextCare?.label ?? "",
+      next_care_due: r.nextCare?.dueOn ?? "",
+      under_warranty: r.underWarranty ? "yes" : "no",
+    };
+    return Object.fromEntries(Object.entries(out).map(([k, v]) => [k, cell(v)]));
+  });
+  return Papa.unparse({ fields: ["id", ...CSV_COLUMNS, ...EXPORT_ONLY.filter((c) => c !== "id")], data: data.map((d) => ["id", ...CSV_COLUMNS, ...EXPORT_ONLY.filter((c) => c !== "id")].map((k) => d[k] ?? "")) });
+}
+
+export type ImportError = { row: number; field: string; message: string };
+export type ImportPreviewRow = { row: number; title: string; kind: string; primarySpecies: string; deliveredOn: string; layers: number; ok: boolean };
+export type ImportResult = { ok: boolean; committed: boolean; rows: ImportPreviewRow[]; errors: ImportError[]; created: number };
+
+const norm = (s: string) => s.trim().toLowerCase().replace(/[\s_-]+/g, " ");
+
+function enumValue<T extends string>(raw: string, values: readonly T[], labels?: Record<T, string>): T | string {
+  const k = norm(raw);
+  if (!k) return "";
+  return values.find((v) => norm(v) === k || (labels && norm(labels[v]) === k) || (labels && norm(labels[v]).startsWith(k + " ("))) ?? raw;
+}
+
+function num(raw: string | undefined): number | null | string {
+  const s = (raw ?? "").trim();
+  if (!s) return null;
+  const n = Number(s.replace(/,/g, ""));
+  return Number.isFinite(n) ? n : s;
+}
+
+const CLASS_LABELS_SHORT: Record<FinishClass, string> = FINISH_CLASS_LABELS;
+
+function parseStack(raw: string, products: { id: string; name: string; finishClass: FinishClass }[]): { layers: unknown[]; error?: string } {
+  const entries = raw.split(";").map((e) => e.trim()).filter(Boolean);
+  const layers: unknown[] = [];
+  for (const [i, e] of entries.entries()) {
+    const [surface = "", cls = "", coats = "", date = "", ...label] = e.split(":").map((x) => x.trim());
+    const finishClass = enumValue(cls, FINISH_CLASSES, CLASS_LABELS_SHORT);
+    const s = enumValue(surface, SURFACES);
+    if (!(SURFACES as readonly string[]).includes(s)) return { layers, error: `layer ${i + 1}: surface "${surface}" is not top, base or edges` };
+    if (!(FINISH_CLASSES as readonly string[]).includes(finishClass)) return { layers, error: `layer ${i + 1}: finish class "${cls}" is not one of ${FINISH_CLASSES.join(", ")}` };
+    const productLabel = label.join(":");
+    const product = productLabel ? products.find((p) => norm(p.name) === norm(productLabel) && p.finishClass === finishClass) : undefined;
+    layers.push({ surface: s, finishClass, coats: num(coats), appliedOn: date, productLabel, productId: product?.id ?? null });
+  }
+  return { layers };
+}
+
+function species(raw: string): string {
+  const s = raw.trim();
+  if (!s) return "";
+  return getSpecies(s)?.id ?? findSpecies(s)?.id ?? s;
+}
+
+const FIELD_TO_COLUMN: Record<string, string> = {
+  title: "title",
+  kind: "kind",
+  shapeKind: "shape",
+  lengthMm: "length_mm",
+  widthMm: "width_mm",
+  diameterMm: "diameter_mm",
+  measuredAreaM2: "area_m2",
+  thicknessMm: "thickness_mm",
+  primarySpeciesId: "primary_species",
+  secondarySpeciesId: "secondary_species",
+  resinKind: "resin",
+  resinPouredOn: "resin_poured_on",
+  resinVolumeMl: "resin_volume_ml",
+  resinTint: "resin_tint",
+  baseMaterial: "base_material",
+  baseFinish: "base_finish",
+  use: "use",
+  sun: "sun",
+  deliveredOn: "delivered_on",
+  deliveryAddress: "delivery_address",
+  internalNotes: "notes",
+  layers: "finish_stack",
+};
+
+const MAX_ROWS = 5000;
+
+/** POST /api/pieces/import: preview (commit false) or write (commit true) a CSV of earlier deliveries. */
+export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult {
+  const { csv, commit } = importSchema.parse(raw);
+  const parsed = Papa.parse<Record<string, string>>(csv.replace(/^\uFEFF/, ""), { header: true, skipEmptyLines: "greedy", transformHeader: (h) => norm(h).replace(/ /g, "_") });
+  const errors: ImportError[] = [];
+  for (const e of parsed.errors.slice(0, 20)) errors.push({ row: (e.row ?? 0) + 2, field: "file", message: e.message });
+  const headers = parsed.meta.fields ?? [];
+  for (const required of ["title", "kind", "shape", "primary_species", "use", "delivered_on"]) {
+    if (!headers.includes(required)) errors.push({ row: 1, field: required, message: `The header row has no "${required}" column.` });
+  }
+  if (parsed.data.length === 0 && errors.length === 0) errors.push({ row: 1, field: "file", message: "The file has a header but no rows." });
+  if (parsed.data.length > MAX_ROWS) throw new AppError(413, "too_many_rows", `The file has ${parsed.data.length} rows; import at most ${MAX_ROWS} at a time.`);
+
+  const products = studioProducts(ctx.studio.id).map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass }));
+  const inputs: unknown[] = [];
+  const rows: ImportPreviewRow[] = [];
+  if (errors.length === 0) {
+    parsed.data.forEach((r0, i) => {
+      const rowNo = i + 2;
+      const r = Object.fromEntries(Object.entries(r0).map(([k, v]) => [k, uncell(String(v ?? "")).trim()]));
+      const stack = parseStack(r.finish_stack ?? "", products);
+      const candidate = {
+        title: r.title ?? "",
+        kind: enumValue(r.kind ?? "", PIECE_KINDS, PIECE_KIND_LABELS),
+        shapeKind: enumValue(r.shape ?? "", SHAPE_KINDS),
+        lengthMm: num(r.length_mm),
+        widthMm: num(r.width_mm),
+        diameterMm: num(r.diameter_mm),
+        measuredAreaM2: num(r.area_m2),
+        thicknessMm: num(r.thickness_mm),
+        primarySpeciesId: species(r.primary_species ?? ""),
+        secondarySpeciesId: species(r.secondary_species ?? "") || null,
+        resinKind: enumValue(r.resin ?? "", RESIN_KINDS, RESIN_LABELS) || "none",
+        resinPouredOn: r.resin_poured_on || null,
+        resinVolumeMl: num(r.resin_volume_ml),
+        resinTint: r.resin_tint || null,
+        baseMaterial: r.base_material ?? "",
+        baseFinish: r.base_finish ?? "",
+        use: enumValue(r.use ?? "", USES),
+        sun: enumValue(r.sun ?? "", SUN_EXPOSURES) || "none",
+        deliveredOn: r.delivered_on ?? "",
+        deliveryAddress: r.delivery_address ?? "",
+        internalNotes: r.notes ?? "",
+        layers: stack.layers,
+      };
+      const result = createPieceSchema.safeParse(candidate);
+      const rowErrors: ImportError[] = [];
+      if (stack.error) rowErrors.push({ row: rowNo, field: "finish_stack", message: stack.error });
+      if (!result.success) {
+        for (const issue of result.error.issues) {
+          const [first, idx, sub] = issue.path.map(String);
+          const column = FIELD_TO_COLUMN[first ?? ""] ?? first ?? "row";
+          const where = first === "layers" && idx !== undefined ? ` (layer ${Number(idx) + 1}${sub ? `, ${sub}` : ""})` : "";
+          const given = first && first !== "layers" ? (candidate as Record<string, unknown>)[first] : undefined;
+          const shown = typeof given === "string" && given && issue.code !== "custom" ? ` — got "${given.slice(0, 40)}"` : "";
+          rowErrors.push({ row: rowNo, field: column, message: `${issue.message}${where}${shown}` });
+        }
+      }
+      errors.push(...rowErrors);
+      rows.push({ row: rowNo, title: candidate.title, kind: String(candidate.kind), primarySpecies: getSpecies(candidate.primarySpeciesId)?.commonName ?? candidate.primarySpeciesId, deliveredOn: candidate.deliveredOn, layers: stack.layers.length, ok: rowErrors.length === 0 });
+      inputs.push(candidate);
+    });
+  }
+  if (errors.length > 0 || !commit) return { ok: errors.length === 0, committed: false, rows, errors, created: 0 };
+
+  const db = getDb();
+  try {
+    db.transaction((tx) => {
+      inputs.forEach((input) => insertPiece(ctx, tx, input, "import"));
+      recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "pieces.imported", subjectType: "studio", subjectId: ctx.studio.id, data: { rows: inputs.length } });
+    });
+  } catch (e) {
+    // A row that passed the checks but failed on write (e.g. a product reference): nothing was written.
+    if (e instanceof AppError) {
+      const field = Object.keys(e.fieldErrors ?? {})[0] ?? "row";
+      return { ok: false, committed: false, rows, errors: [{ row: 0, field, message: e.message }], created: 0 };
+    }
+    throw e;
+  }
+  return { ok: true, committed: true, rows, errors: [], created: inputs.length };
+}

@@ -1,0 +1,564 @@
+import "server-only";
+import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { getDb, type Db } from "@/db/client";
+import {
+  careLogEntries,
+  claims,
+  files,
+  finishLayers,
+  finishProducts,
+  memberships,
+  pieces,
+  reminderSends,
+  users,
+  warrantyPolicies,
+  auditLog,
+  type FinishLayer,
+  type FinishProduct,
+  type Piece,
+} from "@/db/schema";
+import type { StudioContext } from "@/lib/auth/guards";
+import { recordAudit } from "@/lib/audit";
+import { topArea, type TopArea } from "@/lib/care/area";
+import { addMonths, localDate } from "@/lib/care/dates";
+import { isValidRegistrationCode } from "@/lib/care/registration-code";
+import type { CareSchedule, CareTask } from "@/lib/care/schedule";
+import { getSpecies } from "@/lib/care/species";
+import type { FinishClass } from "@/lib/care/vocabulary";
+import { badRequest, conflict, notFound } from "@/lib/errors";
+import { removeStoredFiles } from "@/lib/storage";
+import {
+  createPieceSchema,
+  pieceListQuerySchema,
+  piecePatchSchema,
+  pieceSchema,
+  type PieceListQuery,
+} from "@/lib/validation/pieces";
+import { scheduleFromRows, topShape } from "./care-inputs";
+import { insertLayers } from "./layers";
+import { hashTypedCode, newRegistrationCode, openRegistrationCode } from "./registration";
+import { ftsQuery, indexPiece, unindexPiece, type DbOrTx } from "./search-index";
+
+/** A piece as the API hands it out: never the registration code's hash or sealed copy. */
+export type PublicPiece = Omit<Piece, "registrationCodeHash" | "registrationCodeEnc">;
+
+export function publicPiece(p: Piece): PublicPiece {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  const { registrationCodeHash, registrationCodeEnc, ...rest } = p;
+  return rest;
+}
+
+function today(ctx: StudioContext, now = new Date()): string {
+  return localDate(now.getTime(), ctx.studio.timeZone);
+}
+
+/** The piece row of the caller's studio, or 404 (also for another studio's piece). */
+export function loadPiece(ctx: StudioContext, pieceId: string, db: DbOrTx = getDb()): Piece {
+  const row = db.select().from(pieces).where(and(eq(pieces.id, pieceId), eq(pieces.studioId, ctx.studio.id))).get();
+  if (!row) throw notFound("No piece with that id in this studio.");
+  return row;
+}
+
+export function studioProducts(studioId: string, db: DbOrTx = getDb()): FinishProduct[] {
+  return db.select().from(finishProducts).where(eq(finishProducts.studioId, studioId)).all();
+}
+
+/** The studio's members who can apply a finish (for "applied by"). */
+export function studioMembers(ctx: StudioContext) {
+  return getDb()
+    .select({ id: users.id, name: users.name, role: memberships.role })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(eq(memberships.studioId, ctx.studio.id))
+    .orderBy(asc(users.name))
+    .all();
+}
+
+// ---- warranty: a piece is under warranty while its policy's longest line runs (lib/care addMonths) ----
+
+const withFunctions = new WeakSet<object>();
+
+/** Registers gw_add_months (the care engine's clamping month arithmetic) on the connection, once. */
+function ensureSqlFunctions(db: Db): void {
+  const client = db.$client;
+  if (withFunctions.has(client)) return;
+  client.function("gw_add_months", { deterministic: true }, (date: unknown, months: unknown) =>
+    typeof date === "string" && typeof months === "number" ? addMonths(date, months) : null,
+  );
+  withFunctions.add(client);
+}
+
+function policyTerms(studioId: string): Map<string, number> {
+  const rows = getDb().select({ id: warrantyPolicies.id, policy: warrantyPolicies.policy }).from(warrantyPolicies).where(eq(warrantyPolicies.studioId, studioId)).all();
+  return new Map(rows.map((r) => [r.id, Math.max(0, ...Object.values(r.policy.lines ?? {}).map((l) => l?.termMonths ?? 0))]));
+}
+
+function warrantyEndsOn(piece: Pick<Piece, "warrantyPolicyId" | "deliveredOn">, terms: Map<string, number>): string | null {
+  const term = piece.warrantyPolicyId ? terms.get(piece.warrantyPolicyId) : undefined;
+  return term ? addMonths(piece.deliveredOn, term) : null;
+}
+
+// ---- the registry list ----
+
+export type RegistryRow = {
+  id: string;
+  title: string;
+  kind: Piece["kind"];
+  primarySpecies: string;
+  secondarySpecies: string | null;
+  deliveredOn: string;
+  owner: { name: string; email: string } | null;
+  registered: boolean;
+  archived: boolean;
+  finishClasses: FinishClass[];
+  nextCare: { label: string; dueOn: string; status: CareTask["status"] } | null;
+  warrantyEndsOn: string | null;
+  underWarranty: boolean;
+};
+
+export type RegistryPage = { rows: RegistryRow[]; total: number; page: number; pageSize: number; query: PieceListQuery; matchedBy: "code" | "text" | null };
+
+function speciesName(id: string | null): string | null {
+  if (!id) return null;
+  return getSpecies(id)?.commonName ?? id;
+}
+
+type Filter = { where: SQL; fts: string | null; codeHash: string | null };
+
+function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<string, number>, useCode: boolean): Filter {
+  const conds: SQL[] = [sql`p.studio_id = ${ctx.studio.id}`];
+  conds.push(q.archived === "only" ? sql`p.archived_at IS NOT NULL` : sql`p.archived_at IS NULL`);
+  if (q.kind) conds.push(sql`p.kind = ${q.kind}`);
+  if (q.species) conds.push(sql`(p.primary_species_id = ${q.species} OR p.secondary_species_id = ${q.species})`);
+  if (q.finishClass) conds.push(sql`EXISTS (SELECT 1 FROM finish_layers l WHERE l.piece_id = p.id AND l.finish_class = ${q.finishClass})`);
+  if (q.registered === "yes") conds.push(sql`p.owner_id IS NOT NULL`);
+  if (q.registered === "no") conds.push(sql`p.owner_id IS NULL`);
+  if (q.warranty) {
+    const t = today(ctx);
+    const cases = [...terms].filter(([, m]) => m > 0).map(([id, m]) => sql`WHEN ${id} THEN gw_add_months(p.delivered_on, ${m})`);
+    const ends = cases.length ? sql`(CASE p.warranty_policy_id ${sql.join(cases, sql` `)} END)` : sql`NULL`;
+    conds.push(q.warranty === "active" ? sql`${ends} >= ${t}` : sql`(${ends} IS NULL OR ${ends} < ${t})`);
+  }
+  let fts: string | null = null;
+  let codeHash: string | null = null;
+  const typed = q.q.trim();
+  if (typed) {
+    codeHash = useCode ? hashTypedCode(typed) : null;
+    if (codeHash) conds.push(sql`p.registration_code_hash = ${codeHash}`);
+    else {
+      fts = ftsQuery(typed);
+      // Nothing searchable (only punctuation): no piece matches.
+      conds.push(fts ? sql`pieces_fts MATCH ${fts} AND pieces_fts.piece_id = p.id` : sql`0`);
+    }
+  }
+  return { where: sql.join(conds, sql` AND `), fts, codeHash };
+}
+
+function orderBy(q: PieceListQuery, hasFts: boolean): SQL {
+  const sort = q.sort ?? (hasFts ? "relevance" : "delivered");
+  const dir = q.dir === "asc" ? sql`ASC` : q.dir === "desc" ? sql`DESC` : sort === "title" ? sql`ASC` : sql`DESC`;
+  switch (sort) {
+    case "relevance":
+      return hasFts ? sql`pieces_fts.rank ASC, p.delivered_on DESC, p.id` : sql`p.delivered_on DESC, p.id`;
+    case "title":
+      return sql`p.title COLLATE NOCASE ${dir}, p.id`;
+    case "created":
+      return sql`p.created_at ${dir}, p.id`;
+    default:
+      return sql`p.delivered_on ${dir}, p.created_at ${dir}, p.id`;
+  }
+}
+
+export type Loaded = { piece: Piece; owner: { name: string; email: string } | null; layers: FinishLayer[]; careLog: { taskKind: CareTask["kind"]; doneOn: string; surface: FinishLayer["surface"] | null }[] };
+
+function loadForRows(ids: string[]): Map<string, Loaded> {
+  const db = getDb();
+  const out = new Map<string, Loaded>();
+  for (let i = 0; i < ids.length; i += 500) {
+    const chunk = ids.slice(i, i + 500);
+    const rows = db
+      .select({ piece: pieces, ownerName: users.name, ownerEmail: users.email })
+      .from(pieces)
+      .leftJoin(users, eq(users.id, pieces.ownerId))
+      .where(inArray(pieces.id, chunk))
+      .all();
+    for (const r of rows) out.set(r.piece.id, { piece: r.piece, owner: r.ownerName != null ? { name: r.ownerName, email: r.ownerEmail ?? "" } : null, layers: [], careLog: [] });
+    for (const l of db.select().from(finishLayers).where(inArray(finishLayers.pieceId, chunk)).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).all()) out.get(l.pieceId)?.layers.push(l);
+    for (const c of db
+      .select({ pieceId: careLogEntries.pieceId, taskKind: careLogEntries.taskKind, doneOn: careLogEntries.doneOn, surface: careLogEntries.surface })
+      .from(careLogEntries)
+      .where(inArray(careLogEntries.pieceId, chunk))
+      .all())
+      out.get(c.pieceId)?.careLog.push(c);
+  }
+  return out;
+}
+
+function nextCareOf(schedule: CareSchedule | null): RegistryRow["nextCare"] {
+  const t = schedule?.tasks.find((x) => x.status !== "done") ?? schedule?.tasks[0];
+  return t ? { label: t.label, dueOn: t.dueOn, status: t.status } : null;
+}
+
+function safeSchedule(l: Loaded, products: FinishProduct[], timeZone: string, now: Date): CareSchedule | null {
+  try {
+    return scheduleFromRows({ piece: l.piece, layers: l.layers, careLog: l.careLog, products, timeZone, now });
+  } catch {
+    return null; // a record the care engine cannot use yet (e.g. a bad imported date) still lists
+  }
+}
+
+/** GET /api/pieces: search, filters, sorting and pagination of the studio's registry. */
+export function listPieces(ctx: StudioContext, raw: unknown, now = new Date()): RegistryPage {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  const { loaded, ...page } = queryRegistry(ctx, raw, now, false);
+  return page;
+}
+
+/** The registry query; `all` ignores pagination (CSV export of the current filter). */
+export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: boolean): RegistryPage & { loaded: Map<string, Loaded> } {
+  const q = pieceListQuerySchema.parse(raw);
+  const db = getDb();
+  ensureSqlFunctions(db);
+  const terms = policyTerms(ctx.studio.id);
+  const t = today(ctx, now);
+
+  const run = (useCode: boolean) => {
+    const f = buildFilter(ctx, q, terms, useCode);
+    const from = f.fts ? sql`pieces_fts JOIN pieces p ON p.rowid = pieces_fts.rowid` : sql`pieces p`;
+    const computed = q.sort === "next_due" || q.dueBefore !== undefined;
+    if (!computed) {
+      const offset = all ? 0 : (q.page - 1) * q.pageSize;
+      const ids = db.all<{ id: string; total: number }>(
+        sql`SELECT p.id AS id, count(*) OVER () AS total FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`,
+      );
+      const total = ids[0]?.total ?? (q.page > 1 ? (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM ${from} WHERE ${f.where}`)?.n ?? 0) : 0);
+      return { f, ids: ids.map((r) => r.id), total, loaded: null as Map<string, Loaded> | null, schedules: null as Map<string, CareSchedule | null> | null };
+    }
+    // Next care due is computed by the care engine, so filter and sort on it in memory.
+    const candidates = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
+    const loaded = loadForRows(candidates);
+    const products = studioProducts(ctx.studio.id);
+    const schedules = new Map(candidates.map((id) => [id, safeSchedule(loaded.get(id)!, products, ctx.studio.timeZone, now)]));
+    let ids = candidates;
+    const firstDue = (id: string) => schedules.get(id)?.tasks.find((x) => x.status !== "done")?.dueOn ?? schedules.get(id)?.tasks[0]?.dueOn ?? null;
+    if (q.dueBefore) ids = ids.filter((id) => {
+      const d = firstDue(id);
+      return d !== null && d <= q.dueBefore!;
+    });
+    if (q.sort === "next_due") {
+      const sign = q.dir === "desc" ? -1 : 1;
+      ids = [...ids].sort((a, b) => {
+        const da = firstDue(a) ?? "9999-12-31";
+        const dbb = firstDue(b) ?? "9999-12-31";
+        return da < dbb ? -sign : da > dbb ? sign : 0;
+      });
+    }
+    const start = all ? 0 : (q.page - 1) * q.pageSize;
+    return { f, ids: all ? ids : ids.slice(start, start + q.pageSize), total: ids.length, loaded, schedules };
+  };
+
+  let result = run(true);
+  let matchedBy: RegistryPage["matchedBy"] = result.f.codeHash ? "code" : result.f.fts ? "text" : null;
+  // Something shaped like a code that is not one of ours may still be a word: search the text too.
+  if (result.f.codeHash && result.total === 0) {
+    result = run(false);
+    matchedBy = result.f.fts ? "text" : null;
+  }
+
+  const loaded = result.loaded ?? loadForRows(result.ids);
+  const products = result.schedules ? [] : studioProducts(ctx.studio.id);
+  const rows: RegistryRow[] = [];
+  for (const id of result.ids) {
+    const l = loaded.get(id);
+    if (!l) continue;
+    const schedule = result.schedules ? (result.schedules.get(id) ?? null) : safeSchedule(l, products, ctx.studio.timeZone, now);
+    const ends = warrantyEndsOn(l.piece, terms);
+    rows.push({
+      id,
+      title: l.piece.title,
+      kind: l.piece.kind,
+      primarySpecies: speciesName(l.piece.primarySpeciesId)!,
+      secondarySpecies: speciesName(l.piece.secondarySpeciesId),
+      deliveredOn: l.piece.deliveredOn,
+      owner: l.owner,
+      registered: l.piece.ownerId !== null,
+      archived: l.piece.archivedAt !== null,
+      finishClasses: [...new Set(l.layers.map((x) => x.finishClass))],
+      nextCare: nextCareOf(schedule),
+      warrantyEndsOn: ends,
+      underWarranty: ends !== null && ends >= t,
+    });
+  }
+  return { rows, total: result.total, page: q.page, pageSize: q.pageSize, query: q, matchedBy, loaded };
+}
+
+// ---- create, edit, delete ----
+
+function checkLayerRefs(ctx: StudioContext, db: DbOrTx, layer: { productId?: string | null; appliedById?: string | null; finishClass: FinishClass }, field = ""): void {
+  if (layer.productId) {
+    const p = db.select().from(finishProducts).where(and(eq(finishProducts.id, layer.productId), eq(finishProducts.studioId, ctx.studio.id))).get();
+    if (!p) throw badRequest("That finish product is not in this studio's catalog.", { [`${field}productId`]: ["Pick a product from the catalog."] });
+    if (p.finishClass !== layer.finishClass) {
+      throw badRequest("The product's class and the layer's class differ.", { [`${field}finishClass`]: [`${p.name} is a different finish class; pick its class or another product.`] });
+    }
+  }
+  if (layer.appliedById) {
+    const m = db.select({ id: memberships.id }).from(memberships).where(and(eq(memberships.studioId, ctx.studio.id), eq(memberships.userId, layer.appliedById))).get();
+    if (!m) throw badRequest("Applied by must be a member of this studio.", { [`${field}appliedById`]: ["Pick a studio member."] });
+  }
+}
+
+export { checkLayerRefs };
+
+function pieceColumns(v: ReturnType<typeof pieceSchema.parse>) {
+  const resin = v.resinKind !== "none";
+  const shape = v.shapeKind;
+  return {
+    kind: v.kind,
+    title: v.title,
+    shapeKind: shape,
+    lengthMm: shape === "rectangle" || shape === "oval" ? (v.lengthMm ?? null) : null,
+    widthMm: shape === "rectangle" || shape === "oval" ? (v.widthMm ?? null) : null,
+    diameterMm: shape === "round" ? (v.diameterMm ?? null) : null,
+    measuredAreaM2: shape === "measured" ? (v.measuredAreaM2 ?? null) : null,
+    thicknessMm: v.thicknessMm ?? null,
+    primarySpeciesId: v.primarySpeciesId,
+    secondarySpeciesId: v.secondarySpeciesId || null,
+    resinKind: v.resinKind,
+    resinPouredOn: resin ? (v.resinPouredOn ?? null) : null,
+    resinVolumeMl: resin ? (v.resinVolumeMl ?? null) : null,
+    resinTint: resin ? v.resinTint || null : null,
+    baseMaterial: v.baseMaterial,
+    baseFinish: v.baseFinish,
+    use: v.use,
+    sun: v.sun,
+    deliveredOn: v.deliveredOn,
+    deliveryAddress: v.deliveryAddress,
+    internalNotes: v.internalNotes,
+  };
+}
+
+/** The warranty policy version in force at a delivery date: the newest whose effectiveFrom is on or before it. */
+function policyAt(db: DbOrTx, studioId: string, deliveredOn: string): string | null {
+  return (
+    db
+      .select({ id: warrantyPolicies.id })
+      .from(warrantyPolicies)
+      .where(and(eq(warrantyPolicies.studioId, studioId), sql`${warrantyPolicies.effectiveFrom} <= ${deliveredOn}`))
+      .orderBy(desc(warrantyPolicies.version))
+      .get()?.id ?? null
+  );
+}
+
+/** Inserts one piece (and its layers) inside a transaction: index row and audit entry included. */
+export function insertPiece(ctx: StudioContext, tx: DbOrTx, raw: unknown, via: "form" | "import" = "form"): { piece: Piece; code: string } {
+  const input = createPieceSchema.parse(raw);
+  const { code, hash, enc } = newRegistrationCode();
+  const piece = tx
+    .insert(pieces)
+    .values({
+      ...pieceColumns(input),
+      studioId: ctx.studio.id,
+      registrationCodeHash: hash,
+      registrationCodeEnc: enc,
+      warrantyPolicyId: policyAt(tx, ctx.studio.id, input.deliveredOn),
+    })
+    .returning()
+    .get();
+  if (input.layers?.length) {
+    input.layers.forEach((l, i) => checkLayerRefs(ctx, tx, l, `layers.${i}.`));
+    insertLayers(ctx, tx, piece.id, input.layers);
+  }
+  recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "piece.created", subjectType: "piece", subjectId: piece.id, data: { via, title: piece.title, layers: input.layers?.length ?? 0 } });
+  indexPiece(tx, piece.id);
+  return { piece, code };
+}
+
+/** POST /api/pieces: the new piece with its registration code (shown once here and on the drawer card). */
+export function createPiece(ctx: StudioContext, raw: unknown): { piece: PublicPiece; registrationCode: string } {
+  const { piece, code } = getDb().transaction((tx) => insertPiece(ctx, tx, raw));
+  return { piece: publicPiece(piece), registrationCode: code };
+}
+
+/** PATCH /api/pieces/[id]: merges the change into the record and checks the whole record again. */
+export function updatePiece(ctx: StudioContext, pieceId: string, raw: unknown): PublicPiece {
+  const patch = piecePatchSchema.parse(raw);
+  const db = getDb();
+  return db.transaction((tx) => {
+    const current = loadPiece(ctx, pieceId, tx);
+    const { archived, ...fields } = patch;
+    const merged = pieceSchema.parse({ ...current, ...Object.fromEntries(Object.entries(fields).filter(([, v]) => v !== undefined)) });
+    const columns = pieceColumns(merged);
+    const changed = Object.fromEntries(Object.entries(columns).filter(([k, v]) => (current as Record<string, unknown>)[k] !== v));
+    const archivedAt = archived === undefined ? current.archivedAt : archived ? (current.archivedAt ?? new Date()) : null;
+    if (Object.keys(changed).length === 0 && archivedAt === current.archivedAt) return publicPiece(current);
+    const updated = tx
+      .update(pieces)
+      .set({ ...columns, archivedAt, updatedAt: new Date() })
+      .where(and(eq(pieces.id, pieceId), eq(pieces.studioId, ctx.studio.id)))
+      .returning()
+      .get();
+    const before = Object.fromEntries(Object.keys(changed).map((k) => [k, (current as Record<string, unknown>)[k]]));
+    if (Object.keys(changed).length) recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "piece.updated", subjectType: "piece", subjectId: pieceId, data: { before, after: changed } });
+    if (archivedAt !== current.archivedAt) recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: archivedAt ? "piece.archived" : "piece.unarchived", subjectType: "piece", subjectId: pieceId });
+    indexPiece(tx, pieceId);
+    return publicPiece(updated);
+  });
+}
+
+/** DELETE /api/pieces/[id]: removes a piece nobody has registered; a registered piece is archived instead. */
+export async function deletePiece(ctx: StudioContext, pieceId: string): Promise<{ deleted: boolean; archived: boolean }> {
+  const db = getDb();
+  const outcome = db.transaction((tx) => {
+    const piece = loadPiece(ctx, pieceId, tx);
+    if (piece.ownerId !== null || piece.registeredAt !== null) {
+      if (!piece.archivedAt) {
+        tx.update(pieces).set({ archivedAt: new Date(), updatedAt: new Date() }).where(eq(pieces.id, pieceId)).run();
+        recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "piece.archived", subjectType: "piece", subjectId: pieceId, data: { reason: "delete requested; the piece is registered" } });
+      }
+      return { deleted: false, archived: true, keys: [] as string[] };
+    }
+    const claimCount = tx.select({ id: claims.id }).from(claims).where(eq(claims.pieceId, pieceId)).all().length;
+    if (claimCount > 0) throw conflict("This piece has claims on record; archive it instead.");
+    const keys = tx.select({ a: files.storageKey, b: files.thumbKey }).from(files).where(eq(files.pieceId, pieceId)).all().flatMap((f) => [f.a, f.b]);
+    unindexPiece(tx, pieceId);
+    tx.delete(pieces).where(and(eq(pieces.id, pieceId), eq(pieces.studioId, ctx.studio.id))).run();
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "piece.deleted", subjectType: "piece", subjectId: pieceId, data: { title: piece.title } });
+    return { deleted: true, archived: false, keys };
+  });
+  if (outcome.keys.length) await removeStoredFiles(...outcome.keys);
+  return { deleted: outcome.deleted, archived: outcome.archived };
+}
+
+/** POST /api/pieces/[id]/registration-code: a new code; the old one stops working at once. */
+export function reissueRegistrationCode(ctx: StudioContext, pieceId: string): { registrationCode: string } {
+  return getDb().transaction((tx) => {
+    loadPiece(ctx, pieceId, tx);
+    const { code, hash, enc } = newRegistrationCode();
+    tx.update(pieces).set({ registrationCodeHash: hash, registrationCodeEnc: enc, updatedAt: new Date() }).where(eq(pieces.id, pieceId)).run();
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "piece.code_reissued", subjectType: "piece", subjectId: pieceId });
+    return { registrationCode: code };
+  });
+}
+
+/** The piece's current registration code, for printing its drawer card (staff only). */
+export function revealRegistrationCode(ctx: StudioContext, pieceId: string): string {
+  return openRegistrationCode(loadPiece(ctx, pieceId).registrationCodeEnc);
+}
+
+/** Whether a typed code is the current code of one of this studio's pieces (compares hashes). */
+export function findByTypedCode(ctx: StudioContext, typed: string): string | null {
+  if (!isValidRegistrationCode(typed)) return null;
+  const hash = hashTypedCode(typed);
+  if (!hash) return null;
+  return getDb().select({ id: pieces.id }).from(pieces).where(and(eq(pieces.studioId, ctx.studio.id), eq(pieces.registrationCodeHash, hash))).get()?.id ?? null;
+}
+
+// ---- the piece page ----
+
+export type TimelineEvent = { on: string; at?: number; kind: "delivered" | "layer" | "care" | "reminder" | "claim" | "registered" | "record"; text: string };
+
+const AUDIT_TEXT: Record<string, string> = {
+  "piece.created": "Piece record created",
+  "piece.updated": "Piece record edited",
+  "piece.archived": "Piece archived",
+  "piece.unarchived": "Piece taken out of the archive",
+  "piece.code_reissued": "Registration code reissued; the old code stopped working",
+  "layer.added": "Finish layer added",
+  "layer.updated": "Finish layer edited",
+  "layer.moved": "Finish layer moved",
+  "layer.removed": "Finish layer removed",
+  "photo.added": "Photo added",
+};
+
+export function getPieceDetail(ctx: StudioContext, pieceId: string, now = new Date()) {
+  const db = getDb();
+  const piece = loadPiece(ctx, pieceId);
+  const owner = piece.ownerId ? (db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, piece.ownerId)).get() ?? null) : null;
+  const layers = db
+    .select({ layer: finishLayers, productName: finishProducts.name, appliedByName: users.name })
+    .from(finishLayers)
+    .leftJoin(finishProducts, eq(finishProducts.id, finishLayers.productId))
+    .leftJoin(users, eq(users.id, finishLayers.appliedById))
+    .where(and(eq(finishLayers.pieceId, pieceId), eq(finishLayers.studioId, ctx.studio.id)))
+    .orderBy(asc(finishLayers.surface), asc(finishLayers.position))
+    .all();
+  const careLog = db.select().from(careLogEntries).where(and(eq(careLogEntries.pieceId, pieceId), eq(careLogEntries.studioId, ctx.studio.id))).orderBy(asc(careLogEntries.doneOn)).all();
+  const products = studioProducts(ctx.studio.id);
+  let schedule: CareSchedule | null = null;
+  let scheduleError: string | null = null;
+  try {
+    schedule = scheduleFromRows({ piece, layers: layers.map((l) => l.layer), careLog, products, timeZone: ctx.studio.timeZone, now });
+  } catch (e) {
+    scheduleError = e instanceof Error ? e.message : "The care schedule could not be computed.";
+  }
+  const shape = topShape(piece);
+  let area: TopArea | null = null;
+  try {
+    area = shape ? topArea(shape) : null;
+  } catch {
+    area = null;
+  }
+  const photos = db
+    .select({ id: files.id, width: files.width, height: files.height, createdAt: files.createdAt })
+    .from(files)
+    .where(and(eq(files.pieceId, pieceId), eq(files.studioId, ctx.studio.id), eq(files.purpose, "piece_photo")))
+    .orderBy(asc(files.createdAt))
+    .all()
+    .map((f) => ({ ...f, url: `/api/files/${f.id}`, thumbUrl: `/api/files/${f.id}?thumb=1` }));
+
+  const tz = ctx.studio.timeZone;
+  const day = (d: Date) => localDate(d.getTime(), tz);
+  const timeline: TimelineEvent[] = [{ on: piece.deliveredOn, kind: "delivered", text: `Delivered${piece.deliveryAddress ? ` to ${piece.deliveryAddress}` : ""}` }];
+  for (const { layer, productName } of layers) {
+    timeline.push({ on: layer.appliedOn, kind: "layer", text: `${layer.surface}: ${productName ?? (layer.productLabel || layer.finishClass)} applied, ${layer.coats} coat${layer.coats === 1 ? "" : "s"}` });
+  }
+  for (const c of careLog) timeline.push({ on: c.doneOn, kind: "care", text: `Care logged (${c.source}): ${c.taskKind.replace(/_/g, " ")}${c.notes ? ` — ${c.notes}` : ""}` });
+  if (piece.registeredAt) timeline.push({ on: day(piece.registeredAt), at: piece.registeredAt.getTime(), kind: "registered", text: `Registered by ${owner?.name ?? "its owner"}` });
+  for (const r of db.select().from(reminderSends).where(and(eq(reminderSends.pieceId, pieceId), eq(reminderSends.studioId, ctx.studio.id), eq(reminderSends.status, "sent"))).all()) {
+    if (r.sentAt) timeline.push({ on: day(r.sentAt), at: r.sentAt.getTime(), kind: "reminder", text: `Care reminder sent: ${r.taskKind.replace(/_/g, " ")} (${r.step.replace(/_/g, " ")}), due ${r.dueOn}` });
+  }
+  for (const c of db.select().from(claims).where(and(eq(claims.pieceId, pieceId), eq(claims.studioId, ctx.studio.id))).all()) {
+    timeline.push({ on: day(c.createdAt), at: c.createdAt.getTime(), kind: "claim", text: `Claim filed: ${c.category.replace(/_/g, " ")} (now ${c.state.replace(/_/g, " ")})` });
+  }
+  for (const a of db
+    .select()
+    .from(auditLog)
+    .where(and(eq(auditLog.studioId, ctx.studio.id), eq(auditLog.subjectType, "piece"), eq(auditLog.subjectId, pieceId)))
+    .orderBy(asc(auditLog.createdAt))
+    .all()) {
+    if (a.action.startsWith("layer.") || a.action === "piece.created") continue; // layers are on the timeline by their date
+    timeline.push({ on: day(a.createdAt), at: a.createdAt.getTime(), kind: "record", text: AUDIT_TEXT[a.action] ?? a.action });
+  }
+  timeline.sort((a, b) => (a.on < b.on ? 1 : a.on > b.on ? -1 : (b.at ?? 0) - (a.at ?? 0)));
+
+  const terms = policyTerms(ctx.studio.id);
+  const ends = warrantyEndsOn(piece, terms);
+  return {
+    piece: publicPiece(piece),
+    owner,
+    layers: layers.map((l) => ({ ...l.layer, productName: l.productName, appliedByName: l.appliedByName })),
+    schedule,
+    scheduleError,
+    area,
+    photos,
+    timeline,
+    warrantyEndsOn: ends,
+    underWarranty: ends !== null && ends >= today(ctx, now),
+    members: studioMembers(ctx),
+    products: products.filter((p) => !p.archivedAt).map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass })),
+  };
+}
+export type PieceDetail = ReturnType<typeof getPieceDetail>;
+
+/** Stack history of a piece (the audit entries of its layers), newest first. */
+export function layerHistory(ctx: StudioContext, pieceId: string) {
+  loadPiece(ctx, pieceId);
+  return getDb()
+    .select({ action: auditLog.action, data: auditLog.data, createdAt: auditLog.createdAt, actorName: users.name })
+    .from(auditLog)
+    .leftJoin(users, eq(users.id, auditLog.actorId))
+    .where(and(eq(auditLog.studioId, ctx.studio.id), eq(auditLog.subjectType, "piece"), eq(auditLog.subjectId, pieceId), sql`${auditLog.action} LIKE 'layer.%'`))
+    .orderBy(desc(auditLog.createdAt))
+    .all();
+}

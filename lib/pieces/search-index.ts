@@ -1,0 +1,135 @@
+// The registry's full-text index (pieces_fts, SQLite FTS5; db/migrations/0002). One row per piece,
+// keyed by the piece's rowid, rewritten whenever the piece, its owner or its layers change. Species
+// names and aliases come from lib/care's species table, which SQL cannot see. No server-only import:
+// the seed scripts and the scheduler may reindex too.
+//
+// Anyone who changes a piece's owner (registration, transfer) calls indexPiece in the same transaction.
+import { sql } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { getSpecies } from "@/lib/care/species";
+import { FINISH_CLASS_LABELS, PIECE_KIND_LABELS, type FinishClass, type PieceKind } from "@/lib/care/vocabulary";
+
+export type DbOrTx = Db | Parameters<Parameters<Db["transaction"]>[0]>[0];
+
+export type SearchDocumentInput = {
+  title: string;
+  kind: PieceKind;
+  primarySpeciesId: string;
+  secondarySpeciesId: string | null;
+  internalNotes: string;
+  deliveryAddress: string;
+  baseMaterial: string;
+  baseFinish: string;
+  resinTint: string | null;
+  owner: { name: string; email: string } | null;
+  layers: { finishClass: FinishClass; productLabel: string; batchLot: string; notes: string }[];
+};
+
+function speciesText(id: string | null): string {
+  if (!id) return "";
+  const s = getSpecies(id);
+  return s ? [s.commonName, s.botanicalName, ...s.aliases].join(" ") : id;
+}
+
+/** The four indexed columns of one piece. */
+export function searchDocument(p: SearchDocumentInput): { title: string; species: string; owner: string; notes: string } {
+  return {
+    title: p.title,
+    species: [speciesText(p.primarySpeciesId), speciesText(p.secondarySpeciesId)].filter(Boolean).join(" "),
+    owner: p.owner ? `${p.owner.name} ${p.owner.email}` : "",
+    notes: [
+      PIECE_KIND_LABELS[p.kind],
+      p.internalNotes,
+      p.deliveryAddress,
+      p.baseMaterial,
+      p.baseFinish,
+      p.resinTint ?? "",
+      ...p.layers.flatMap((l) => [FINISH_CLASS_LABELS[l.finishClass], l.productLabel, l.batchLot, l.notes]),
+    ]
+      .filter((s) => s && s !== "—")
+      .join(" \n "),
+  };
+}
+
+type PieceRow = {
+  rowid: number;
+  id: string;
+  studio_id: string;
+  title: string;
+  kind: PieceKind;
+  primary_species_id: string;
+  secondary_species_id: string | null;
+  internal_notes: string;
+  delivery_address: string;
+  base_material: string;
+  base_finish: string;
+  resin_tint: string | null;
+  owner_name: string | null;
+  owner_email: string | null;
+};
+
+/** Rewrites the index row of one piece (or removes it when the piece is gone). Pass the transaction. */
+export function indexPiece(db: DbOrTx, pieceId: string): void {
+  const row = db.get<PieceRow | undefined>(sql`
+    SELECT p.rowid AS rowid, p.id, p.studio_id, p.title, p.kind, p.primary_species_id, p.secondary_species_id,
+           p.internal_notes, p.delivery_address, p.base_material, p.base_finish, p.resin_tint,
+           u.name AS owner_name, u.email AS owner_email
+    FROM pieces p LEFT JOIN users u ON u.id = p.owner_id WHERE p.id = ${pieceId}`);
+  if (!row) {
+    db.run(sql`DELETE FROM pieces_fts WHERE piece_id = ${pieceId}`);
+    return;
+  }
+  const layers = db.all<{ finish_class: FinishClass; product_label: string; batch_lot: string; notes: string }>(
+    sql`SELECT finish_class, product_label, batch_lot, notes FROM finish_layers WHERE piece_id = ${pieceId} ORDER BY surface, position`,
+  );
+  const doc = searchDocument({
+    title: row.title,
+    kind: row.kind,
+    primarySpeciesId: row.primary_species_id,
+    secondarySpeciesId: row.secondary_species_id,
+    internalNotes: row.internal_notes,
+    deliveryAddress: row.delivery_address,
+    baseMaterial: row.base_material,
+    baseFinish: row.base_finish,
+    resinTint: row.resin_tint,
+    owner: row.owner_name != null ? { name: row.owner_name, email: row.owner_email ?? "" } : null,
+    layers: layers.map((l) => ({ finishClass: l.finish_class, productLabel: l.product_label, batchLot: l.batch_lot, notes: l.notes })),
+  });
+  db.run(sql`DELETE FROM pieces_fts WHERE rowid = ${row.rowid}`);
+  db.run(sql`INSERT INTO pieces_fts (rowid, piece_id, studio_id, title, species, owner, notes)
+             VALUES (${row.rowid}, ${row.id}, ${row.studio_id}, ${doc.title}, ${doc.species}, ${doc.owner}, ${doc.notes})`);
+}
+
+/** Removes a piece's index row; call before deleting the piece (its rowid is needed). */
+export function unindexPiece(db: DbOrTx, pieceId: string): void {
+  db.run(sql`DELETE FROM pieces_fts WHERE rowid = (SELECT rowid FROM pieces WHERE id = ${pieceId})`);
+}
+
+/** Rebuilds the whole index (after a VACUUM, which may renumber the pieces' rowids, or a bulk load). */
+export function rebuildSearchIndex(db: Db, studioId?: string): number {
+  const ids = db.all<{ id: string }>(studioId ? sql`SELECT id FROM pieces WHERE studio_id = ${studioId}` : sql`SELECT id FROM pieces`);
+  db.transaction((tx) => {
+    if (studioId) tx.run(sql`DELETE FROM pieces_fts WHERE studio_id = ${studioId}`);
+    else tx.run(sql`DELETE FROM pieces_fts`);
+    for (const { id } of ids) indexPiece(tx, id);
+  });
+  return ids.length;
+}
+
+const MAX_TOKENS = 12;
+
+/**
+ * An FTS5 MATCH expression for what a person typed, or null when nothing searchable is left. Every
+ * whitespace-separated token becomes a quoted string (inner quotes doubled) with a prefix star, so
+ * FTS5 syntax — quotes, *, NEAR, AND/OR/NOT, -, ^, column filters, parentheses — is only ever text.
+ * Tokens are ANDed; tokens without a letter or digit are dropped.
+ */
+export function ftsQuery(input: string): string | null {
+  const tokens = input
+    .normalize("NFKC")
+    .split(/\s+/)
+    .filter((t) => /[\p{L}\p{N}]/u.test(t))
+    .slice(0, MAX_TOKENS);
+  if (tokens.length === 0) return null;
+  return tokens.map((t) => `"${t.replace(/"/g, '""')}"*`).join(" ");
+}
