@@ -5,6 +5,7 @@ import type { QuoteLine } from "../lib/care/quote";
 import {
   CARE_TASK_KINDS,
   CLAIM_CATEGORIES,
+  JOB_STATES,
   FINISH_CLASSES,
   PIECE_KINDS,
   RESIN_KINDS,
@@ -470,8 +471,6 @@ export const claimMessages = sqliteTable(
   (t) => [index("claim_messages_claim_idx").on(t.claimId, t.createdAt)],
 );
 
-/** DESIGN.md §2: draft → quoted → approved → paid (or covered) → scheduled → done; cancelled from any open state. */
-export const JOB_STATES = ["draft", "quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"] as const;
 export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
 
 

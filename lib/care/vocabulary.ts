@@ -139,3 +139,7 @@ export type CareTaskStatus = (typeof CARE_TASK_STATUSES)[number];
 
 export const REMINDER_STEPS = ["before_14d", "due_day", "after_30d"] as const;
 export type ReminderStep = (typeof REMINDER_STEPS)[number];
+
+/** Repair job states (DESIGN.md §2): draft → quoted → approved → paid (or covered) → scheduled → done; cancelled from any open state. */
+export const JOB_STATES = ["draft", "quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"] as const;
+export type JobState = (typeof JOB_STATES)[number];
