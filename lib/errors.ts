@@ -5,7 +5,7 @@ export type FieldErrors = Record<string, string[]>;
 
 export class AppError extends Error {
   constructor(
-    readonly status: 400 | 401 | 403 | 404 | 409 | 413 | 415 | 422 | 429,
+    readonly status: 400 | 401 | 403 | 404 | 409 | 413 | 415 | 422 | 429 | 503,
     readonly code: string,
     message: string,
     readonly fieldErrors?: FieldErrors,

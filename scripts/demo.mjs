@@ -14,6 +14,8 @@ const env = {
   MAIL_SINK_HTTP_PORT: process.env.MAIL_SINK_HTTP_PORT ?? "2526",
   MAIL_SINK_URL: process.env.MAIL_SINK_URL ?? `http://127.0.0.1:${process.env.MAIL_SINK_HTTP_PORT ?? "2526"}`,
   OUTBOX_ENABLED: "true",
+  STRIPE_API_HOST: "127.0.0.1",
+  STRIPE_API_PORT: process.env.STRIPE_API_PORT ?? "12111",
 };
 
 removeDatabase(env.DATABASE_URL);
@@ -25,6 +27,7 @@ console.log(`\n▸ Starting Grainward on ${env.APP_URL} (outbox at ${env.APP_URL
 supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
+    { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "app", cmd: "next", args: ["start", "-p", port] },
   ],
   env,

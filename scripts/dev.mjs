@@ -8,6 +8,7 @@ runStep("Applying migrations", "tsx", ["db/migrate.ts"], env);
 supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
+    { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "app", cmd: "next", args: ["dev", "-p", port] },
   ],
   env,

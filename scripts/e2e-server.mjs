@@ -2,7 +2,7 @@
 // the SMTP sink. Ports are fixed and differ from the demo's, so both can run at once.
 import { removeDatabase, runStep, supervise } from "./services.mjs";
 
-export const E2E = { appPort: "3100", smtpPort: "2625", sinkPort: "2626" };
+export const E2E = { appPort: "3100", smtpPort: "2625", sinkPort: "2626", stripePort: "12112" };
 
 const env = {
   ...process.env,
@@ -15,6 +15,8 @@ const env = {
   MAIL_SINK_HTTP_PORT: E2E.sinkPort,
   MAIL_SINK_URL: `http://127.0.0.1:${E2E.sinkPort}`,
   OUTBOX_ENABLED: "true",
+  STRIPE_API_HOST: "127.0.0.1",
+  STRIPE_API_PORT: E2E.stripePort,
 };
 
 removeDatabase(env.DATABASE_URL);
@@ -23,6 +25,7 @@ runStep("Seeding the e2e database", "tsx", ["tests/support/seed-e2e.ts"], env);
 supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
+    { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "app", cmd: "next", args: ["start", "-p", E2E.appPort] },
   ],
   env,

@@ -2,6 +2,7 @@
 // fake (lib/fakes/stripe-fake.ts); in production leave it empty to reach Stripe itself.
 import Stripe from "stripe";
 import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
 
 let client: Stripe | undefined;
 
@@ -13,6 +14,24 @@ export function getStripe(): Stripe {
     appInfo: { name: "Grainward" },
   });
   return client;
+}
+
+/**
+ * Runs a call to Stripe and turns its failures into answers a person can act on: a refusal is a 409
+ * with Stripe's message, an unreachable service a 503. Nothing of ours has changed at that point.
+ */
+export async function callStripe<T>(what: string, fn: (stripe: Stripe) => Promise<T>): Promise<T> {
+  try {
+    return await fn(getStripe());
+  } catch (e) {
+    if (e instanceof Stripe.errors.StripeConnectionError || e instanceof Stripe.errors.StripeAPIError) {
+      throw new AppError(503, "payment_service_unavailable", `The payment service can't be reached right now, so we couldn't ${what}. Nothing was charged; try again in a minute.`);
+    }
+    if (e instanceof Stripe.errors.StripeError) {
+      throw new AppError(409, "payment_service_refused", `The payment service refused to ${what}: ${e.message}`);
+    }
+    throw e;
+  }
 }
 
 export type { Stripe };

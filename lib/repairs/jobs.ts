@@ -2,42 +2,16 @@ import "server-only";
 import { and, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { claims, finishProducts, payments, pieces, refreshOffers, repairJobs, studios, users, type RepairJob, type Studio } from "@/db/schema";
+import { claims, finishProducts, payments, pieces, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
-import { topArea } from "@/lib/care/area";
-import { quote, quoteProductFromCatalog, type Quote } from "@/lib/care/quote";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
-import { topShape, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
+import { priceJob, totals } from "./pricing";
 import { assertMove } from "./states";
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
-
-/** Prices a job's quote input with the care engine, from the piece's top and the studio's rates. */
-export function priceJob(studio: Studio, piece: typeof pieces.$inferSelect, input: JobQuoteInput, products: (typeof finishProducts.$inferSelect)[]): Quote {
-  const shape = topShape(piece);
-  const areaM2 = shape ? topArea(shape).m2 : 0;
-  const chosen = toCatalog(products.filter((p) => input.productIds.includes(p.id)));
-  return quote({
-    tasks: input.tasks,
-    areaM2,
-    rates: { labourPerHourMinor: studio.labourRateMinor },
-    products: chosen.map((entry) => ({
-      ...quoteProductFromCatalog(entry, TASK_KIND_BY_FINISH_CLASS[entry.finishClass]),
-      coats: input.coats,
-    })),
-    travel: input.travel ? { flatMinor: studio.travelFeeMinor } : undefined,
-    taxRatePct: studio.taxRateBp / 100,
-    coveredPct: input.coveredPct,
-    currency: studio.currency,
-  });
-}
-
-function totals(q: Quote) {
-  return { lines: q.lines, subtotalMinor: q.subtotalMinor, coveredMinor: q.coveredMinor, taxMinor: q.taxMinor, totalMinor: q.totalMinor };
-}
 
 function studioProducts(studioId: string) {
   return getDb().select().from(finishProducts).where(and(eq(finishProducts.studioId, studioId), isNull(finishProducts.archivedAt))).all();

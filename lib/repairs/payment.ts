@@ -12,7 +12,7 @@ import { formatMinorUnits } from "@/lib/care/quote";
 import { env } from "@/lib/env";
 import { badRequest, conflict } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
-import { getStripe, type Stripe } from "@/lib/payments/stripe";
+import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
 import { getOwnerJob, getStudioJob, moveJob, type JobView } from "./jobs";
 
 export const money = (minor: number, currency: string) => `${formatMinorUnits(minor, currency)} ${currency}`;
@@ -62,12 +62,12 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
   }
   const open = view.payments.find((p) => p.quoteVersion === job.quoteVersion && p.status === "open");
   if (open?.checkoutUrl) {
-    const live = await getStripe().checkout.sessions.retrieve(open.checkoutSessionId);
+    const live = await callStripe("check the open payment", (s) => s.checkout.sessions.retrieve(open.checkoutSessionId));
     if (live.status === "open" && live.url) return { checkoutUrl: live.url, job };
     await applySession(live);
   }
   const attempt = view.payments.filter((p) => p.quoteVersion === job.quoteVersion).length + 1;
-  const session = await getStripe().checkout.sessions.create(
+  const session = await callStripe("start the payment", (stripe) => stripe.checkout.sessions.create(
     {
       mode: "payment",
       client_reference_id: job.id,
@@ -87,7 +87,7 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
       cancel_url: jobUrl(job.id, "?checkout=cancelled"),
     },
     { idempotencyKey: `job-${job.id}-v${job.quoteVersion}-a${attempt}` },
-  );
+  ));
   getDb()
     .insert(payments)
     .values({ studioId: job.studioId, jobId: job.id, quoteVersion: job.quoteVersion, checkoutSessionId: session.id, checkoutUrl: session.url, amountMinor: session.amount_total ?? job.totalMinor, currency: job.currency })
@@ -150,11 +150,11 @@ async function sendReceipt(sessionId: string) {
 export async function syncReturnedCheckout(user: Pick<User, "id">, jobId: string, sessionId: string): Promise<void> {
   const view = getOwnerJob(user, jobId);
   if (!view.payments.some((p) => p.checkoutSessionId === sessionId)) return;
-  await applySession(await getStripe().checkout.sessions.retrieve(sessionId));
+  await applySession(await callStripe("confirm the payment", (s) => s.checkout.sessions.retrieve(sessionId)));
 }
 
 async function applyRefund(chargeId: string) {
-  const charge = await getStripe().charges.retrieve(chargeId);
+  const charge = await callStripe("read the refunded charge", (s) => s.charges.retrieve(chargeId));
   const pi = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
   if (!pi) return;
   const db = getDb();
@@ -201,7 +201,7 @@ export async function handleStripeWebhook(rawBody: string, signature: string | n
   }
   const object = event.data.object as { id: string };
   if (event.type === "charge.refunded") await applyRefund(object.id);
-  else await applySession(await getStripe().checkout.sessions.retrieve(object.id));
+  else await applySession(await callStripe("read the checkout session", (s) => s.checkout.sessions.retrieve(object.id)));
   db.insert(stripeEvents).values({ id: event.id, type: event.type, objectId: object.id }).onConflictDoNothing().run();
   return { received: true };
 }
@@ -217,7 +217,7 @@ export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User,
     await getStripe().checkout.sessions.expire(p.checkoutSessionId).catch(() => undefined);
   }
   if (paid) {
-    await getStripe().refunds.create({ payment_intent: paid.paymentIntentId! }, { idempotencyKey: `refund-${paid.id}` });
+    await callStripe("refund the payment", (s) => s.refunds.create({ payment_intent: paid.paymentIntentId! }, { idempotencyKey: `refund-${paid.id}` }));
   }
   return getDb().transaction((tx) => {
     const cancelled = moveJob(tx, job, "cancelled", { cancelledAt: new Date() });

@@ -34,3 +34,14 @@ export function canMove(from: JobState, to: JobState): boolean {
 export function assertMove(from: JobState, to: JobState): void {
   if (!canMove(from, to)) throw conflict(`A job that is "${JOB_STATE_LABELS[from]}" can't become "${JOB_STATE_LABELS[to]}".`);
 }
+
+export const JOB_STATE_TONES: Record<JobState, "neutral" | "progress" | "waiting" | "ok" | "stopped"> = {
+  draft: "neutral",
+  quoted: "waiting",
+  approved: "waiting",
+  paid: "progress",
+  covered: "progress",
+  scheduled: "progress",
+  done: "ok",
+  cancelled: "stopped",
+};

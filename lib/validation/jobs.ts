@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { CARE_TASK_KINDS } from "@/lib/care/vocabulary";
-import { JOB_STATES } from "@/db/schema";
+import { JOB_STATES } from "@/lib/care/vocabulary";
 
 const id = z.string().min(1).max(64);
 

@@ -11,7 +11,7 @@ import { AppError } from "@/lib/errors";
 import { getStudioJob, createJob, updateJobQuote } from "@/lib/repairs/jobs";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote } from "@/lib/repairs/payment";
 import { getStripe } from "@/lib/payments/stripe";
-import { quote } from "@/lib/care/quote";
+import { currencyExponent, quote } from "@/lib/care/quote";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
 
@@ -174,13 +174,15 @@ describe("repair job payment through the Stripe fake", () => {
     ["USD", 2],
     ["EUR", 2],
     ["JPY", 0],
-  ] as const)("%s amounts reach the fake in minor units (ISO 4217 exponent %i) and match quote()", async (currency) => {
+  ] as const)("%s amounts reach the fake in minor units (ISO 4217 exponent %i) and match quote()", async (currency, exponent) => {
     const { owner, job, studio, product } = await quotedJob(currency, "partly_covered");
     const { checkoutUrl } = await approveJob(owner, job.id);
     const session = fake.sessions().find((s) => s.url === checkoutUrl)!;
     expect(session.currency).toBe(currency.toLowerCase());
     expect(session.amount_total).toBe(job.totalMinor);
     expect(Number.isInteger(session.amount_total)).toBe(true);
+    // ISO 4217: the product prices the studio keeps are in the same minor unit the session carries.
+    expect(currencyExponent(currency)).toBe(exponent);
     // Same inputs straight through the care engine: tax rounding and covered share agree to the minor unit.
     const expected = quote({
       tasks: ["reoil"],

@@ -1,0 +1,51 @@
+import type { Metadata } from "next";
+import { ApproveAndPay, OwnerCancelJob } from "@/components/jobs/job-actions";
+import { QuoteSummary } from "@/components/jobs/quote-summary";
+import { Card, PageHeader } from "@/components/ui/card";
+import { Notice } from "@/components/ui/notice";
+import { StatusBadge } from "@/components/ui/status";
+import { requireUser } from "@/lib/auth/guards";
+import { forPage } from "@/lib/auth/page";
+import { getOwnerJob } from "@/lib/repairs/jobs";
+import { syncReturnedCheckout } from "@/lib/repairs/payment";
+import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
+
+export const metadata: Metadata = { title: "Repair" };
+
+export default async function OwnerJobPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+  const { id } = await params;
+  const query = await searchParams;
+  const user = await forPage(requireUser);
+  // Back from the payment page: settle with Stripe now instead of waiting for the webhook.
+  if (query.checkout === "success" && query.session_id && query.session_id.length < 200) {
+    await syncReturnedCheckout(user, id, query.session_id).catch((e: unknown) => console.error("checkout sync failed", e));
+  }
+  const { job, piece, studio } = await forPage(async () => getOwnerJob(user, id));
+  return (
+    <>
+      <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />} />
+      <div className="space-y-4">
+        {query.checkout === "success" && job.state === "paid" ? (
+          <Notice tone="ok" title="Paid — thank you">Your receipt is on its way by e-mail. The studio will book your visit.</Notice>
+        ) : null}
+        {query.checkout === "success" && job.state !== "paid" ? (
+          <Notice tone="info" title="Confirming your payment">Stripe is still confirming the payment. Reload this page in a moment.</Notice>
+        ) : null}
+        {query.checkout === "cancelled" && job.state === "approved" ? (
+          <Notice tone="warn" title="Payment not completed">Your card was not charged. You can try again, with the same card or another one.</Notice>
+        ) : null}
+        {job.state === "covered" ? <Notice tone="ok" title="Covered by your warranty">There is nothing to pay. The studio will book your visit.</Notice> : null}
+        <Card>
+          <QuoteSummary lines={job.lines} currency={job.currency} subtotalMinor={job.subtotalMinor} coveredMinor={job.coveredMinor} coveredPct={job.coveredPct} taxMinor={job.taxMinor} totalMinor={job.totalMinor} />
+        </Card>
+        {job.state === "quoted" || job.state === "approved" ? (
+          <div className="flex flex-col gap-3 sm:flex-row">
+            <ApproveAndPay jobId={job.id} label={job.state === "quoted" ? "Approve and pay" : "Pay now"} />
+            <OwnerCancelJob jobId={job.id} />
+          </div>
+        ) : null}
+        <p className="text-sm text-muted">Payment is handled by Stripe; Grainward never sees your card number.</p>
+      </div>
+    </>
+  );
+}

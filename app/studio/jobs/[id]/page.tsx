@@ -1,0 +1,86 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { StaffJobActions } from "@/components/jobs/job-actions";
+import { JobQuoteEditor } from "@/components/jobs/job-quote-editor";
+import { QuoteSummary } from "@/components/jobs/quote-summary";
+import { Card, PageHeader } from "@/components/ui/card";
+import { Notice } from "@/components/ui/notice";
+import { StatusBadge } from "@/components/ui/status";
+import { requireStaff } from "@/lib/auth/guards";
+import { forPage } from "@/lib/auth/page";
+import { formatMinorUnits } from "@/lib/care/quote";
+import { FINISH_CLASS_LABELS } from "@/lib/care/vocabulary";
+import { getStudioJob } from "@/lib/repairs/jobs";
+import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
+import { jobQuoteSchema } from "@/lib/validation/jobs";
+
+export const metadata: Metadata = { title: "Repair job" };
+
+export default async function StudioJobPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const view = await forPage(async () => getStudioJob(await requireStaff(), id));
+  const { job, piece, owner, payments, products } = view;
+  const initial = jobQuoteSchema.parse(job.quoteInput);
+  const editable = ["draft", "quoted", "approved"].includes(job.state);
+  const paid = payments.some((p) => p.status === "paid");
+  return (
+    <>
+      <PageHeader
+        title={job.title}
+        lead={`${piece.title} · ${owner ? owner.name : "no registered owner"}`}
+        actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />}
+      />
+      <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
+        <Card className="space-y-4">
+          <h2 className="font-semibold">Quote</h2>
+          <JobQuoteEditor
+            jobId={job.id}
+            initial={initial}
+            editable={editable}
+            products={products.map((p) => ({ id: p.id, name: p.name, finishClassLabel: FINISH_CLASS_LABELS[p.finishClass] }))}
+          />
+          <Notice tone="warn" title="Work safely">
+            Ventilate while finishing and follow each product&apos;s safety data sheet. Spread oily rags flat outdoors to dry or keep them in a closed metal
+            can filled with water — they can self-heat and catch fire. Lift heavy tops with two people. Anything electrical in a piece is for a licensed
+            electrician, under local codes.
+          </Notice>
+        </Card>
+        <div className="space-y-6">
+          <Card className="space-y-4">
+            <QuoteSummary lines={job.lines} currency={job.currency} subtotalMinor={job.subtotalMinor} coveredMinor={job.coveredMinor} coveredPct={job.coveredPct} taxMinor={job.taxMinor} totalMinor={job.totalMinor} />
+            <StaffJobActions
+              jobId={job.id}
+              canSend={["draft", "quoted"].includes(job.state) && Boolean(owner)}
+              canCancel={!["done", "cancelled"].includes(job.state)}
+              paid={paid}
+            />
+            {job.quoteVersion ? <p className="text-sm text-muted">Quote sent {job.quoteVersion} time{job.quoteVersion === 1 ? "" : "s"}.</p> : null}
+          </Card>
+          <Card className="space-y-2">
+            <h2 className="font-semibold">Payments</h2>
+            {payments.length === 0 ? (
+              <p className="text-sm text-muted">No checkout started yet.</p>
+            ) : (
+              <ul className="space-y-1 text-sm">
+                {payments.map((p) => (
+                  <li key={p.id} className="flex justify-between gap-2">
+                    <span>
+                      {p.createdAt.toISOString().slice(0, 10)} · quote v{p.quoteVersion}
+                    </span>
+                    <span>
+                      {formatMinorUnits(p.amountMinor, p.currency)} {p.currency} · {p.status.replace("_", " ")}
+                      {p.refundedMinor ? ` (refunded ${formatMinorUnits(p.refundedMinor, p.currency)})` : ""}
+                    </span>
+                  </li>
+                ))}
+              </ul>
+            )}
+          </Card>
+          <p className="text-sm">
+            <Link className="text-resin underline" href={`/studio/pieces/${piece.id}`}>Open the piece record</Link>
+          </p>
+        </div>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,73 @@
+"use client";
+
+import { useQuery } from "@tanstack/react-query";
+import Link from "next/link";
+import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { StatusBadge } from "@/components/ui/status";
+import { Notice } from "@/components/ui/notice";
+import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
+import { JOB_STATES } from "@/lib/care/vocabulary";
+
+type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: string; totalMinor: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null };
+
+function money(minor: number, currency: string) {
+  return new Intl.NumberFormat("en-US", { style: "currency", currency }).format(minor / 10 ** (currency === "JPY" ? 0 : 2));
+}
+
+export function JobsTable() {
+  const params = useSearchParams();
+  const router = useRouter();
+  const pathname = usePathname();
+  const state = params.get("state") ?? "";
+  const query = useQuery({
+    queryKey: ["jobs", state],
+    queryFn: async (): Promise<JobRow[]> => {
+      const res = await fetch(`/api/jobs${state ? `?state=${state}` : ""}`);
+      if (!res.ok) throw new Error((await res.json()).error?.message ?? "Couldn't load the jobs.");
+      return (await res.json()).jobs;
+    },
+  });
+  return (
+    <div className="space-y-4">
+      <label className="flex max-w-xs flex-col gap-1.5 text-sm font-medium">
+        State
+        <select
+          className="min-h-11 rounded-lg border border-line bg-white px-3"
+          value={state}
+          onChange={(e) => router.replace(e.target.value ? `${pathname}?state=${e.target.value}` : pathname)}
+        >
+          <option value="">All states</option>
+          {JOB_STATES.map((s) => (
+            <option key={s} value={s}>
+              {JOB_STATE_LABELS[s]}
+            </option>
+          ))}
+        </select>
+      </label>
+      {query.isPending ? (
+        <p role="status" className="text-muted">Loading jobs…</p>
+      ) : query.isError ? (
+        <Notice tone="error" title="Couldn't load the jobs">{query.error.message}</Notice>
+      ) : query.data.length === 0 ? (
+        <p className="rounded-xl border border-line bg-card p-5 text-muted">No repair jobs {state ? "in this state" : "yet"}.</p>
+      ) : (
+        <ul className="divide-y divide-line overflow-hidden rounded-xl border border-line bg-card">
+          {query.data.map((j) => (
+            <li key={j.id}>
+              <Link href={`/studio/jobs/${j.id}`} className="grid gap-1 px-4 py-3 hover:bg-resin-soft sm:grid-cols-[1fr_auto_8rem] sm:items-center sm:gap-4">
+                <span>
+                  <span className="block font-medium">{j.title}</span>
+                  <span className="block text-sm text-muted">
+                    {j.pieceTitle} · {j.ownerName ?? "no owner"}
+                  </span>
+                </span>
+                <StatusBadge label={JOB_STATE_LABELS[j.state]} tone={JOB_STATE_TONES[j.state]} />
+                <span className="text-sm font-semibold sm:text-right">{money(j.totalMinor, j.currency)}</span>
+              </Link>
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
