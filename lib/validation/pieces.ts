@@ -34,6 +34,12 @@ const speciesId = z
   .min(1, "Pick a species.")
   .refine((id) => getSpecies(id) !== undefined, "Pick a species from the list.");
 
+/** The shape without its defaults, so a PATCH's absent fields stay absent (and keep their stored value). */
+type NoDefaults<T extends z.ZodRawShape> = { [K in keyof T]: T[K] extends z.ZodDefault<infer I> ? I : T[K] };
+function withoutDefaults<T extends z.ZodRawShape>(shape: T): NoDefaults<T> {
+  return Object.fromEntries(Object.entries(shape).map(([k, v]) => [k, v instanceof z.ZodDefault ? v.unwrap() : v])) as NoDefaults<T>;
+}
+
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
 
 export const pieceFields = z.object({
@@ -96,7 +102,7 @@ export type PieceInput = z.input<typeof pieceSchema>;
 export type PieceValues = z.output<typeof pieceSchema>;
 
 /** PATCH: any subset of the fields (the merged record is checked with pieceSchema), plus archiving. */
-export const piecePatchSchema = pieceFields.partial().extend({ archived: z.boolean().optional() });
+export const piecePatchSchema = z.object(withoutDefaults(pieceFields.shape)).partial().extend({ archived: z.boolean().optional() });
 export type PiecePatch = z.output<typeof piecePatchSchema>;
 
 export const layerFields = z.object({
@@ -115,7 +121,7 @@ export type LayerInput = z.input<typeof layerSchema>;
 export type LayerValues = z.output<typeof layerSchema>;
 
 /** PATCH of a layer: fields, and `position` to move it within its surface (0 = closest to the wood). */
-export const layerPatchSchema = layerFields.partial().extend({ position: z.number().int().min(0).max(200).optional() });
+export const layerPatchSchema = z.object(withoutDefaults(layerFields.shape)).partial().extend({ position: z.number().int().min(0).max(200).optional() });
 export type LayerPatch = z.output<typeof layerPatchSchema>;
 
 /** A new piece, optionally with its first finish layers (the CSV import and API clients use this). */
@@ -175,7 +181,7 @@ export const catalogProductSchema = z.object({
   safetyNotes: text(2000).default(""),
 });
 export type CatalogProductInput = z.input<typeof catalogProductSchema>;
-export const catalogPatchSchema = catalogProductSchema.partial().extend({ archived: z.boolean().optional() });
+export const catalogPatchSchema = z.object(withoutDefaults(catalogProductSchema.shape)).partial().extend({ archived: z.boolean().optional() });
 
 export const idParam = z.object({ id: z.string().min(1).max(64) });
 export const layerParams = z.object({ id: z.string().min(1).max(64), layerId: z.string().min(1).max(64) });
