@@ -1,0 +1,53 @@
+// The owner approves a quote and pays on the Stripe fake's hosted page with a test card.
+import { expect, test } from "@playwright/test";
+import { extractLinks, waitForMail } from "../support/mail";
+import { ACCOUNTS, SINK_URL, fixture, signIn } from "./helpers";
+
+test("owner approves a quote, pays with the success card, returns and sees the job paid", async ({ page }) => {
+  const jobId = fixture().jobs.quoted!;
+  await signIn(page, ACCOUNTS.otherOwner);
+  await page.goto("/jobs");
+  await page.getByRole("link", { name: /Re-wax the desk top/ }).click();
+  await expect(page.getByText("Quote sent")).toBeVisible();
+  await page.getByRole("button", { name: "Approve and pay" }).click();
+
+  await expect(page).toHaveURL(/127\.0\.0\.1:12112\/pay\/cs_test_/);
+  await expect(page.getByRole("heading", { name: /Pay .* USD/ })).toBeVisible();
+  // A declined card first: the page says so and the job stays unpaid.
+  await page.getByLabel("Card number").fill("4000 0000 0000 0002");
+  await page.getByRole("button", { name: "Pay", exact: true }).click();
+  await expect(page.getByRole("alert")).toContainText("Your card was declined.");
+
+  await page.getByLabel("Card number").fill("4242 4242 4242 4242");
+  await page.getByRole("button", { name: "Pay", exact: true }).click();
+  await expect(page).toHaveURL(new RegExp(`/jobs/${jobId}\\?checkout=success`));
+  await expect(page.getByText("Paid — thank you")).toBeVisible();
+  await expect(page.getByText("Paid", { exact: true })).toBeVisible();
+
+  const receipt = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /receipt/i, sinkUrl: SINK_URL });
+  expect(extractLinks(receipt.text).some((l) => l.includes(`/jobs/${jobId}`))).toBe(true);
+});
+
+test("cancelling on the payment page comes back with a clear message and nothing charged", async ({ page }) => {
+  const jobId = fixture().jobs.approved!;
+  await signIn(page, ACCOUNTS.otherOwner);
+  await page.goto(`/jobs/${jobId}`);
+  await page.getByRole("button", { name: "Pay now" }).click();
+  await expect(page).toHaveURL(/\/pay\/cs_test_/);
+  await page.getByRole("button", { name: "Cancel and go back" }).click();
+  await expect(page).toHaveURL(new RegExp(`/jobs/${jobId}\\?checkout=cancelled`));
+  await expect(page.getByText("Payment not completed")).toBeVisible();
+  await expect(page.getByText("Your card was not charged.")).toBeVisible();
+});
+
+test("staff see the studio's jobs by state and another owner cannot open a job", async ({ page, browser }) => {
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto("/studio/jobs?state=draft");
+  await expect(page.getByRole("link", { name: /Inspect the island's film finish/ })).toBeVisible();
+  await expect(page.getByRole("link", { name: /Re-wax the desk top/ })).toHaveCount(0);
+
+  const other = await (await browser.newContext()).newPage();
+  await signIn(other, ACCOUNTS.owner);
+  const res = await other.request.get(`/api/jobs/${fixture().jobs.quoted}`);
+  expect(res.status()).toBe(404);
+});
