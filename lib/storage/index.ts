@@ -6,7 +6,7 @@ import fs from "node:fs/promises";
 import path from "node:path";
 import { randomBytes } from "node:crypto";
 import { fileTypeFromBuffer } from "file-type";
-import sharp, { type OutputInfo } from "sharp";
+import sharp from "sharp";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 
@@ -34,6 +34,24 @@ function describe(mime: string | undefined): string {
   return `That file is ${mime}, not a photo we can accept.`;
 }
 
+// At most this many images are decoded at once, so a burst of uploads cannot stack up decoders'
+// memory (each may hold up to MAX_INPUT_PIXELS worth of rows in flight).
+const MAX_CONCURRENT = 2;
+let running = 0;
+const waiting: (() => void)[] = [];
+async function withSlot<T>(fn: () => Promise<T>): Promise<T> {
+  if (running >= MAX_CONCURRENT) await new Promise<void>((resolve) => waiting.push(resolve));
+  running++;
+  try {
+    return await fn();
+  } finally {
+    running--;
+    waiting.shift()?.();
+  }
+}
+
+const SHARP_FORMAT: Record<string, string> = { "image/jpeg": "jpeg", "image/png": "png", "image/webp": "webp" };
+
 /** Checks, cleans and stores one uploaded image. Throws a 413/415/422 AppError with a message a person can act on. */
 export async function storeImage(data: Uint8Array): Promise<StoredImage> {
   if (data.byteLength > MAX_UPLOAD_BYTES) {
@@ -45,34 +63,53 @@ export async function storeImage(data: Uint8Array): Promise<StoredImage> {
     throw new AppError(415, "unsupported_type", `${describe(type?.mime)} ${HOW_TO_SEND_JPEG}`);
   }
 
-  let full: { data: Buffer; info: OutputInfo };
-  let thumb: Buffer;
-  try {
-    // limitInputPixels makes sharp refuse an oversized image from its header, before decoding it.
-    const input = () => sharp(data, { limitInputPixels: MAX_INPUT_PIXELS, failOn: "error", sequentialRead: true });
-    const meta = await input().metadata();
-    if (!meta.width || !meta.height) throw new Error("no dimensions");
-    full = await input()
-      .rotate()
-      .resize({ width: FULL_MAX_EDGE, height: FULL_MAX_EDGE, fit: "inside", withoutEnlargement: true })
-      .flatten({ background: "#ffffff" })
-      .jpeg({ quality: 85, mozjpeg: true })
-      .toBuffer({ resolveWithObject: true });
-    thumb = await sharp(full.data).resize({ width: THUMB_EDGE, height: THUMB_EDGE, fit: "inside", withoutEnlargement: true }).jpeg({ quality: 78 }).toBuffer();
-  } catch (e) {
-    const message = e instanceof Error ? e.message : "";
-    if (/pixel limit/i.test(message)) {
-      throw new AppError(422, "image_too_large", "That image has more than 40 megapixels. Send a smaller version of it (most phones' normal photos are fine).");
+  const { full, thumb } = await withSlot(async () => {
+    try {
+      // limitInputPixels makes sharp refuse an oversized image from its header, before decoding it.
+      // Only the first frame of an animated image is read (sharp's default).
+      const input = () => sharp(data, { limitInputPixels: MAX_INPUT_PIXELS, failOn: "error", sequentialRead: true });
+      const meta = await input().metadata();
+      if (!meta.width || !meta.height) throw new Error("no dimensions");
+      if (meta.format !== SHARP_FORMAT[type.mime]) throw new Error(`content is ${meta.format}, header said ${type.mime}`);
+      if (meta.width * meta.height > MAX_INPUT_PIXELS) throw new Error("Input image exceeds pixel limit");
+      // Both outputs come from the source: the thumbnail uses JPEG shrink-on-load and runs alongside.
+      // No withMetadata(): the re-encoded files carry no EXIF, GPS, XMP or ICC.
+      const [fullOut, thumbOut] = await Promise.all([
+        input()
+          .rotate()
+          .resize({ width: FULL_MAX_EDGE, height: FULL_MAX_EDGE, fit: "inside", withoutEnlargement: true })
+          .flatten({ background: "#ffffff" })
+          .jpeg({ quality: 85 })
+          .toBuffer({ resolveWithObject: true }),
+        input()
+          .rotate()
+          .resize({ width: THUMB_EDGE, height: THUMB_EDGE, fit: "inside", withoutEnlargement: true })
+          .flatten({ background: "#ffffff" })
+          .jpeg({ quality: 78 })
+          .toBuffer(),
+      ]);
+      return { full: fullOut, thumb: thumbOut };
+    } catch (e) {
+      const message = e instanceof Error ? e.message : "";
+      if (/pixel limit/i.test(message)) {
+        throw new AppError(422, "image_too_large", "That image has more than 40 megapixels. Send a smaller version of it (most phones' normal photos are fine).");
+      }
+      throw new AppError(422, "unreadable_image", `That image looks damaged or incomplete, so we couldn't read it. ${HOW_TO_SEND_JPEG}`);
     }
-    throw new AppError(422, "unreadable_image", `That image looks damaged or incomplete, so we couldn't read it. ${HOW_TO_SEND_JPEG}`);
-  }
+  });
 
   const name = randomBytes(16).toString("hex");
   const storageKey = path.posix.join("files", name.slice(0, 2), `${name}.jpg`);
   const thumbKey = path.posix.join("files", name.slice(0, 2), `${name}.thumb.jpg`);
   await fs.mkdir(path.dirname(absolutePath(storageKey)), { recursive: true });
-  await fs.writeFile(absolutePath(storageKey), full.data);
-  await fs.writeFile(absolutePath(thumbKey), thumb);
+  try {
+    // "wx": a random name that already exists is never overwritten.
+    await fs.writeFile(absolutePath(storageKey), full.data, { flag: "wx" });
+    await fs.writeFile(absolutePath(thumbKey), thumb, { flag: "wx" });
+  } catch (e) {
+    await removeStoredFiles(storageKey, thumbKey);
+    throw e;
+  }
   return { storageKey, thumbKey, contentType: "image/jpeg", width: full.info.width, height: full.info.height, bytes: full.data.byteLength };
 }
 
