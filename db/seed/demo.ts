@@ -6,6 +6,7 @@ import type { FinishClass, PieceKind, ResinKind, ShapeKind, SunExposure, Surface
 import { newRegistrationCode } from "@/lib/pieces/registration";
 import { indexPiece } from "@/lib/pieces/search-index";
 import type { Db } from "../client";
+import { seedJobs } from "./jobs";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { finishLayers, finishProducts, memberships, ownerships, pieces, studios, users, warrantyPolicies, type ContainerSize } from "../schema";
 
@@ -170,7 +171,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
 
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const now = new Date();
-  return db.transaction((tx) => {
+  const result = db.transaction((tx) => {
     const studio = tx
       .insert(studios)
       .values({
@@ -277,4 +278,6 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
     }
     return { studioId: studio.id, pieces: PIECES.length, codes };
   });
+  const jobs = seedJobs(db, result.studioId, today);
+  return { ...result, jobs };
 }

@@ -15,7 +15,7 @@ export const ACCOUNTS = {
 export type Role = keyof typeof ACCOUNTS;
 
 /** Ids written by tests/support/seed-e2e.ts. `unregistered` are demo pieces no owner holds yet, with their codes. */
-export function fixture(): { demoPieceId: string; otherPieceId: string; unregistered: { pieceId: string; title: string; code: string }[] } {
+export function fixture(): { demoPieceId: string; otherPieceId: string; unregistered: { pieceId: string; title: string; code: string }[]; jobs: Record<string, string> } {
   return JSON.parse(fs.readFileSync("tests/.tmp/e2e-fixture.json", "utf8"));
 }
 

@@ -40,5 +40,5 @@ indexPiece(db, otherPiece.id);
 const demo = db.select().from(studios).where(eq(studios.slug, DEMO_STUDIO_SLUG)).get()!;
 const demoPiece = db.select().from(pieces).where(eq(pieces.studioId, demo.id)).get()!;
 fs.mkdirSync("tests/.tmp", { recursive: true });
-fs.writeFileSync("tests/.tmp/e2e-fixture.json", JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes }, null, 2));
+fs.writeFileSync("tests/.tmp/e2e-fixture.json", JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: demoSeed.jobs }, null, 2));
 console.log("Seeded the e2e database (invented data).");
