@@ -10,7 +10,11 @@ export default async function OwnerLayout({ children }: { children: ReactNode })
   const user = await forPage(requireUser);
   return (
     <>
-      <SiteHeader nav={[{ href: "/pieces", label: "My pieces" }]} userName={user.name} />
+      <SiteHeader nav={[
+          { href: "/pieces", label: "My pieces" },
+          { href: "/register", label: "Register a piece" },
+          { href: "/account", label: "Account" },
+        ]} userName={user.name} />
       <main className="mx-auto max-w-3xl px-4 py-6 sm:py-10">
         <Suspense>
           <DeniedNotice />

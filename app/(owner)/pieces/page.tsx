@@ -1,18 +1,30 @@
 import type { Metadata } from "next";
+import Link from "next/link";
+import { ChevronRight, Plus } from "lucide-react";
+import { TaskStatus } from "@/components/owner/task-status";
+import { ButtonLink } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
-import { PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { listOwnerPieces } from "@/lib/pieces/queries";
+import { formatDate, relativeDays } from "@/lib/owner/format";
+import { listMyPieces } from "@/lib/owner/pieces";
 
 export const metadata: Metadata = { title: "My pieces" };
 
 export default async function OwnerPiecesPage() {
-  const user = await forPage(requireUser);
-  const pieces = listOwnerPieces(user);
+  const pieces = await forPage(async () => listMyPieces(await requireUser()));
   return (
     <>
-      <PageHeader title="My pieces" lead="Everything you've registered, from every studio." />
+      <PageHeader
+        title="My pieces"
+        lead="Everything you've registered, from every studio, with the next care each one needs."
+        actions={
+          <ButtonLink href="/register" variant="secondary">
+            <Plus aria-hidden className="size-4" />
+            Register a piece
+          </ButtonLink>
+        }
+      />
       {pieces.length === 0 ? (
         <Card className="space-y-2">
           <p className="font-semibold">No pieces yet</p>
@@ -22,12 +34,27 @@ export default async function OwnerPiecesPage() {
         <ul className="space-y-3">
           {pieces.map((p) => (
             <li key={p.id}>
-              <Card className="flex flex-col gap-1">
-                <p className="font-display text-lg font-semibold">{p.title}</p>
-                <p className="text-sm text-muted">
-                  {PIECE_KIND_LABELS[p.kind]} · {p.studioName} · delivered {p.deliveredOn}
-                </p>
-              </Card>
+              <Link href={`/pieces/${p.id}`} className="group block rounded-xl border border-line bg-card p-4 shadow-[0_1px_0_#e4dccf] hover:border-resin">
+                <div className="flex items-start gap-3">
+                  <div className="min-w-0 flex-1">
+                    <p className="font-display text-lg font-semibold leading-snug group-hover:text-resin">{p.title}</p>
+                    <p className="text-sm text-muted">
+                      {p.kindLabel} · {p.studioName} · delivered {formatDate(p.deliveredOn, { short: true })}
+                    </p>
+                  </div>
+                  <ChevronRight aria-hidden className="mt-1 size-5 shrink-0 text-muted" />
+                </div>
+                {p.nextTask ? (
+                  <div className="mt-3 flex flex-wrap items-center gap-x-2 gap-y-1 border-t border-line pt-3 text-sm">
+                    <span className="text-muted">Next:</span>
+                    <span className="font-semibold">{p.nextTask.label}</span>
+                    <span className="text-muted">
+                      {formatDate(p.nextTask.dueOn, { short: true })} ({relativeDays(p.nextTask.daysUntilDue)})
+                    </span>
+                    <TaskStatus status={p.nextTask.status} />
+                  </div>
+                ) : null}
+              </Link>
             </li>
           ))}
         </ul>

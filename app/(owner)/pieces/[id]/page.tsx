@@ -1,0 +1,275 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { Suspense } from "react";
+import { ClipboardCheck, FileDown, Flame, Handshake, Pencil, ShieldCheck, ShieldOff, ShieldX, TriangleAlert, Wind } from "lucide-react";
+import { CareTimeline } from "@/components/owner/care-timeline";
+import { FinishStack } from "@/components/owner/finish-stack";
+import { FlashToast } from "@/components/owner/flash-toast";
+import { ButtonLink } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+import { requireUser } from "@/lib/auth/guards";
+import { forPage } from "@/lib/auth/page";
+import { formatDate, formatInstant, formatTimeLeft } from "@/lib/owner/format";
+import { getMyPiece } from "@/lib/owner/pieces";
+import { EXCLUSION_LABELS, WARRANTY_STATUS_LABELS, type WarrantyLineStatus } from "@/lib/owner/warranty";
+
+export const metadata: Metadata = { title: "Piece" };
+
+const WARRANTY_ICON: Record<WarrantyLineStatus, typeof ShieldCheck> = { active: ShieldCheck, ended: ShieldX, not_transferred: ShieldOff };
+const CAUTION_ICON = { oily_rags: Flame, ventilation: Wind, safety_data_sheet: TriangleAlert, hot_cookware: Flame, manufacturer: TriangleAlert } as const;
+
+function Section({ id, title, children }: { id: string; title: string; children: React.ReactNode }) {
+  return (
+    <section id={id} aria-labelledby={`${id}-title`} className="scroll-mt-4 space-y-3">
+      <h2 id={`${id}-title`} className="font-display text-2xl font-semibold">
+        {title}
+      </h2>
+      {children}
+    </section>
+  );
+}
+
+export default async function OwnerPiecePage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const piece = await forPage(async () => getMyPiece(await requireUser(), id));
+  const wood = piece.species.secondary ? `${piece.species.primary} and ${piece.species.secondary}` : piece.species.primary;
+  const facts: [string, string][] = [
+    ["Wood", wood],
+    ["Top", piece.size],
+    ...(piece.thickness ? ([["Thickness", piece.thickness]] as [string, string][]) : []),
+    ["Resin", piece.resin.kind === "none" ? "None" : `${piece.resin.label}${piece.resin.tint ? `, ${piece.resin.tint}` : ""}${piece.resin.pouredOn ? ` (poured ${formatDate(piece.resin.pouredOn)})` : ""}`],
+    ["Base", [piece.base.material, piece.base.finish].filter((x) => x && x !== "—").join(", ") || "—"],
+    ["Use", piece.use],
+    ["Sun", piece.sun],
+    ["Delivered", formatDate(piece.deliveredOn)],
+    ...(piece.registeredAt ? ([["Registered", formatInstant(piece.registeredAt, piece.timeZone)]] as [string, string][]) : []),
+  ];
+  return (
+    <article className="space-y-10">
+      <Suspense>
+        <FlashToast />
+      </Suspense>
+      <header className="space-y-3">
+        <p className="text-sm font-medium text-muted">
+          <Link href="/pieces" className="inline-flex min-h-11 items-center underline-offset-2 hover:underline">
+            ← My pieces
+          </Link>
+        </p>
+        <h1 className="font-display text-3xl font-semibold leading-tight tracking-tight">{piece.title}</h1>
+        <p className="text-muted">
+          {piece.kindLabel} · made by {piece.studio.name}
+        </p>
+        {/* Actions on this piece. The claims area adds its "Report damage" link here. */}
+        <div data-slot="piece-actions" className="grid grid-cols-1 gap-2 pt-1 sm:grid-cols-3">
+          <ButtonLink href={piece.schedule.tasks[0] ? piece.schedule.tasks.find((t) => t.status !== "done")?.logUrl ?? piece.schedule.tasks[0].logUrl : `/pieces/${piece.id}/log`}>
+            <ClipboardCheck aria-hidden className="size-4" />
+            Log care
+          </ButtonLink>
+          <a
+            href={piece.certificateUrl}
+            download
+            className="inline-flex min-h-11 items-center justify-center gap-2 rounded-lg border border-line bg-card px-4 py-2 text-sm font-semibold text-ink hover:border-resin hover:text-resin"
+          >
+            <FileDown aria-hidden className="size-4" />
+            Warranty certificate (PDF)
+          </a>
+          <ButtonLink href={`/pieces/${piece.id}/transfer`} variant="secondary">
+            <Handshake aria-hidden className="size-4" />
+            Selling or giving it away?
+          </ButtonLink>
+        </div>
+      </header>
+
+      <Section id="schedule" title="Care schedule">
+        <p className="text-sm text-muted">Today is {formatDate(piece.schedule.today)} where you are. Each date counts from the last care of that kind.</p>
+        <CareTimeline tasks={piece.schedule.tasks} />
+      </Section>
+
+      <Section id="made-of" title="What it's made of">
+        <Card className="p-0">
+          <dl className="divide-y divide-line">
+            {facts.map(([k, v]) => (
+              <div key={k} className="grid grid-cols-[7rem_1fr] gap-3 px-4 py-2.5 text-sm">
+                <dt className="text-muted">{k}</dt>
+                <dd className="min-w-0 break-words">{v}</dd>
+              </div>
+            ))}
+          </dl>
+        </Card>
+        <h3 className="pt-2 text-lg font-semibold">How it was finished</h3>
+        <FinishStack layers={piece.layers} wood={wood} />
+      </Section>
+
+      <Section id="guide" title="Care guide for this piece">
+        <div role="note" aria-label="Cautions" className="space-y-2 rounded-xl border border-warn/30 bg-warn-soft p-4">
+          <p className="flex items-center gap-2 font-semibold">
+            <TriangleAlert aria-hidden className="size-5 text-warn" /> Cautions
+          </p>
+          <ul className="space-y-3 text-sm">
+            {piece.guide.cautions.map((c) => {
+              const Icon = CAUTION_ICON[c.key];
+              return (
+                <li key={c.key} className="flex gap-2">
+                  <Icon aria-hidden className="mt-0.5 size-4 shrink-0 text-warn" />
+                  <span>
+                    <strong>{c.title}.</strong> {c.text}
+                  </span>
+                </li>
+              );
+            })}
+          </ul>
+        </div>
+        {piece.guide.sections.map((s) => (
+          <Card key={s.finishClass} className="space-y-3">
+            <div>
+              <h3 className="text-lg font-semibold">{s.title}</h3>
+              <p className="text-sm text-muted">
+                On the {s.surfaces.join(" and ")} · care task: {s.task.toLowerCase()}
+              </p>
+            </div>
+            <div>
+              <h4 className="text-sm font-semibold">Every day</h4>
+              <ul className="list-disc space-y-1 pl-5 text-sm">
+                {s.everyday.map((x) => (
+                  <li key={x}>{x}</li>
+                ))}
+              </ul>
+            </div>
+            <div>
+              <h4 className="text-sm font-semibold">When the {s.task.toLowerCase()} is due</h4>
+              <ol className="list-decimal space-y-1 pl-5 text-sm">
+                {s.steps.map((x) => (
+                  <li key={x}>{x}</li>
+                ))}
+              </ol>
+            </div>
+            <div>
+              <h4 className="text-sm font-semibold">What to use</h4>
+              <ul className="list-disc space-y-1 pl-5 text-sm">
+                {s.use.map((x) => (
+                  <li key={x}>{x}</li>
+                ))}
+              </ul>
+              <p className="mt-2 rounded-lg bg-resin-soft px-3 py-2 text-sm">
+                <strong>How much: </strong>
+                {s.quantity.text ?? s.quantity.why}
+              </p>
+            </div>
+            <div>
+              <h4 className="text-sm font-semibold">Avoid</h4>
+              <ul className="list-disc space-y-1 pl-5 text-sm">
+                {s.avoid.map((x) => (
+                  <li key={x}>{x}</li>
+                ))}
+              </ul>
+            </div>
+          </Card>
+        ))}
+        <Card className="space-y-2">
+          <h3 className="text-lg font-semibold">The yearly clean and check</h3>
+          <ol className="list-decimal space-y-1 pl-5 text-sm">
+            {piece.guide.annualCheck.map((x) => (
+              <li key={x}>{x}</li>
+            ))}
+          </ol>
+        </Card>
+      </Section>
+
+      <Section id="warranty" title="Warranty">
+        {piece.warranty.lines.length === 0 ? (
+          <Card>
+            <p>No warranty terms were recorded for this piece. Ask {piece.studio.name}{piece.studio.email ? ` (${piece.studio.email})` : ""}.</p>
+          </Card>
+        ) : (
+          <>
+            <p className="text-sm text-muted">
+              {piece.studio.name}&apos;s terms, version {piece.warranty.version}, as they stood when the piece was delivered. Terms run from the delivery date.
+              {piece.warranty.isOriginalOwner ? "" : " You are not the first owner: lines that don't pass to a new owner have ended for the piece."}
+            </p>
+            <ul className="space-y-3">
+              {piece.warranty.lines.map((l) => {
+                const Icon = WARRANTY_ICON[l.status];
+                const used = Math.min(100, Math.max(0, 100 - (l.daysLeft / (l.termMonths * 30.44)) * 100));
+                return (
+                  <li key={l.category} className="rounded-xl border border-line bg-card p-4">
+                    <div className="flex flex-wrap items-start gap-2">
+                      <h3 className="min-w-0 flex-1 font-semibold">{l.label}</h3>
+                      <span
+                        className={`inline-flex items-center gap-1 rounded-full border px-2 py-0.5 text-xs font-semibold ${l.status === "active" ? "border-ok/30 bg-ok-soft text-ok" : "border-line bg-paper text-muted"}`}
+                      >
+                        <Icon aria-hidden className="size-3.5" />
+                        {WARRANTY_STATUS_LABELS[l.status]}
+                      </span>
+                    </div>
+                    <p className="mt-1 text-sm">
+                      {l.status === "active" ? (
+                        <>
+                          <strong>{formatTimeLeft(l.daysLeft)} left</strong> · until {formatDate(l.endsOn)}
+                        </>
+                      ) : l.status === "ended" ? (
+                        <>Ended {formatDate(l.endsOn)}</>
+                      ) : (
+                        <>Covered the first owner until {formatDate(l.endsOn)}</>
+                      )}{" "}
+                      <span className="text-muted">({l.termMonths} months from delivery)</span>
+                    </p>
+                    {l.status === "active" ? (
+                      <div className="mt-2 h-2 overflow-hidden rounded-full bg-line" aria-hidden>
+                        <div className="h-full bg-resin" style={{ width: `${used.toFixed(0)}%` }} />
+                      </div>
+                    ) : null}
+                    <p className="mt-2 text-sm text-muted">
+                      {l.transfersToNewOwner ? "Passes to a new owner." : "Stays with the first owner."}
+                      {l.exclusions.length ? ` Not covered: ${l.exclusions.map((e) => EXCLUSION_LABELS[e] ?? e).join(", ")}.` : ""}
+                      {l.careLogRequired ? " Logging care when it falls due keeps this line whole." : ""}
+                    </p>
+                  </li>
+                );
+              })}
+            </ul>
+          </>
+        )}
+      </Section>
+
+      <Section id="care-log" title="Care log">
+        {piece.careLog.length === 0 ? (
+          <Card>
+            <p className="text-muted">Nothing logged yet. When you care for the piece, tap “I did this” on the task — its next date moves on.</p>
+          </Card>
+        ) : (
+          <ul className="space-y-2">
+            {piece.careLog.map((e) => (
+              <li key={e.id} className="flex items-start gap-3 rounded-xl border border-line bg-card p-3">
+                <div className="min-w-0 flex-1 text-sm">
+                  <p className="font-semibold">
+                    {e.label} <span className="font-normal text-muted">· {formatDate(e.doneOn)}</span>
+                  </p>
+                  <p className="text-muted">
+                    {e.byLabel}
+                    {e.surface ? ` · ${e.surface}` : ""}
+                    {e.productUsed ? ` · ${e.productUsed}` : ""}
+                  </p>
+                  {e.notes ? <p className="mt-1 break-words">{e.notes}</p> : null}
+                  {e.photoUrl ? (
+                    <a href={e.photoUrl} className="mt-1 inline-flex min-h-11 items-center text-resin underline underline-offset-2">
+                      View the photo
+                    </a>
+                  ) : null}
+                </div>
+                {e.mine ? (
+                  <Link
+                    href={`/pieces/${piece.id}/log/${e.id}`}
+                    className="inline-flex min-h-11 min-w-11 items-center justify-center gap-1 rounded-lg border border-line px-3 text-sm font-medium hover:border-resin hover:text-resin"
+                  >
+                    <Pencil aria-hidden className="size-4" />
+                    Edit<span className="sr-only"> the {e.label.toLowerCase()} entry of {formatDate(e.doneOn)}</span>
+                  </Link>
+                ) : null}
+              </li>
+            ))}
+          </ul>
+        )}
+      </Section>
+    </article>
+  );
+}

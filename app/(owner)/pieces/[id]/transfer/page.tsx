@@ -1,0 +1,47 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { ReleaseForm } from "@/components/owner/release-form";
+import { Card, PageHeader } from "@/components/ui/card";
+import { requireUser } from "@/lib/auth/guards";
+import { forPage } from "@/lib/auth/page";
+import { getMyPiece } from "@/lib/owner/pieces";
+import { releaseAction } from "./actions";
+
+export const metadata: Metadata = { title: "Hand a piece on" };
+
+export default async function TransferPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const piece = await forPage(async () => getMyPiece(await requireUser(), id));
+  const passes = piece.warranty.lines.filter((l) => l.transfersToNewOwner && l.status === "active");
+  const stays = piece.warranty.lines.filter((l) => !l.transfersToNewOwner);
+  const action = releaseAction.bind(null, piece.id);
+  return (
+    <>
+      <p className="text-sm font-medium text-muted">
+        <Link href={`/pieces/${piece.id}`} className="inline-flex min-h-11 items-center hover:underline">
+          ← {piece.title}
+        </Link>
+      </p>
+      <PageHeader title="Selling or giving it away?" lead={`Release the ${piece.title} so its next owner can register it.`} />
+      <Card className="mb-4 space-y-3 text-sm">
+        <h2 className="text-base font-semibold">What happens</h2>
+        <ol className="list-decimal space-y-1 pl-5">
+          <li>The piece leaves your account and its reminders stop.</li>
+          <li>You get a fresh registration code, shown once here and e-mailed to you. The code on the drawer card stops working.</li>
+          <li>Hand the code to the next owner; they register the piece with it. {piece.studio.name} is told the piece changed hands.</li>
+          <li>The care log stays with the piece, so the care you gave still counts. Your notes and photos are not shown to the next owner.</li>
+        </ol>
+        {piece.warranty.lines.length ? (
+          <>
+            <h2 className="pt-1 text-base font-semibold">The warranty</h2>
+            {passes.length ? <p>Passes to the next owner: {passes.map((l) => l.label).join("; ")}.</p> : null}
+            {stays.length ? <p>Ends when the piece changes hands: {stays.map((l) => l.label).join("; ")}.</p> : null}
+          </>
+        ) : null}
+      </Card>
+      <Card>
+        <ReleaseForm action={action} pieceTitle={piece.title} />
+      </Card>
+    </>
+  );
+}

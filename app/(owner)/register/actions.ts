@@ -1,0 +1,14 @@
+"use server";
+
+import { redirect } from "next/navigation";
+import { requireUser } from "@/lib/auth/guards";
+import { clientIp } from "@/lib/auth/session";
+import { registerPiece } from "@/lib/owner/registration";
+import { validatedAction } from "@/lib/validation/action";
+import { registrationSchema } from "@/lib/validation/owner";
+
+export const registerAction = validatedAction(registrationSchema, async (input) => {
+  const user = await requireUser();
+  const { pieceId } = await registerPiece(user, input, await clientIp());
+  redirect(`/pieces/${pieceId}?registered=1`);
+});

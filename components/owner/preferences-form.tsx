@@ -1,0 +1,82 @@
+"use client";
+
+import { useEffect, useSyncExternalStore } from "react";
+import { Button } from "@/components/ui/button";
+import { SelectField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import { useActionForm } from "@/components/forms/use-action-form";
+import type { ActionResult } from "@/lib/validation/action";
+import { preferencesSchema, type PreferencesInput } from "@/lib/validation/owner";
+
+const noSubscribe = () => () => {};
+const browserTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone || null;
+
+export function PreferencesForm({
+  action,
+  defaults,
+  zones,
+  zoneNeverSet,
+}: {
+  action: (v: PreferencesInput) => Promise<ActionResult<unknown>>;
+  defaults: PreferencesInput;
+  zones: string[];
+  /** The account still has the default zone: offer the browser's. */
+  zoneNeverSet: boolean;
+}) {
+  const { form, onSubmit, formError } = useActionForm({ schema: preferencesSchema, action, defaultValues: defaults, successMessage: "Preferences saved." });
+  const { register, formState, setValue } = form;
+  const browserZone = useSyncExternalStore(noSubscribe, browserTimeZone, () => null);
+  useEffect(() => {
+    if (zoneNeverSet && browserZone && zones.includes(browserZone) && browserZone !== defaults.timeZone) {
+      setValue("timeZone", browserZone, { shouldDirty: true });
+    }
+  }, [zoneNeverSet, browserZone, zones, defaults.timeZone, setValue]);
+  const fromBrowser = zoneNeverSet && browserZone !== null && browserZone !== defaults.timeZone && form.watch("timeZone") === browserZone;
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-6">
+      {formError ? (
+        <Notice tone="error" title="Not saved yet">
+          {formError}
+        </Notice>
+      ) : null}
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-medium">Care reminder e-mails</legend>
+        <label className="flex min-h-11 items-start gap-3 rounded-lg border border-line bg-white p-3">
+          <input type="checkbox" className="mt-0.5 size-5 shrink-0 accent-[#0f5e5e]" {...register("remindersEnabled")} />
+          <span className="text-sm">
+            <span className="block font-semibold">Send me care reminders</span>
+            <span className="text-muted">Two weeks before a care task is due, on the day, and a month after. Mail about your claims and visits always comes.</span>
+          </span>
+        </label>
+      </fieldset>
+      <SelectField
+        label="Time zone"
+        {...register("timeZone")}
+        error={formState.errors.timeZone?.message}
+        hint={fromBrowser ? "Filled in from this device — save to keep it." : "Dates and reminder times follow this zone."}
+      >
+        {zones.map((z) => (
+          <option key={z} value={z}>
+            {z.replace(/_/g, " ")}
+          </option>
+        ))}
+      </SelectField>
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-medium">Units</legend>
+        <div className="grid grid-cols-2 gap-2">
+          {(["metric", "imperial"] as const).map((u) => (
+            <label key={u} className="flex min-h-11 items-center gap-2 rounded-lg border border-line bg-white px-3 text-sm has-[:checked]:border-resin has-[:checked]:bg-resin-soft">
+              <input type="radio" value={u} className="size-5 accent-[#0f5e5e]" {...register("unitSystem")} />
+              {u === "metric" ? "Metric (mm, m², mL)" : "Imperial (in, ft², fl oz)"}
+            </label>
+          ))}
+        </div>
+        {formState.errors.unitSystem ? <p role="alert" className="text-sm font-medium text-danger">{formState.errors.unitSystem.message}</p> : null}
+      </fieldset>
+      <Button type="submit" className="w-full sm:w-auto" disabled={formState.isSubmitting}>
+        {formState.isSubmitting ? "Saving…" : "Save preferences"}
+      </Button>
+    </form>
+  );
+}
