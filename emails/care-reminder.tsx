@@ -14,6 +14,8 @@ export type CareReminderProps = {
   step: CareReminderStep;
   /** e.g. "Re-oil coming due on 2 May 2026" */
   headline: string;
+  /** The opening sentence, e.g. "Your … is due for care in 14 days, on 2 May 2026: re-oil (top)." */
+  lead: string;
   taskLabel: string;
   /** "top", "base" or "whole piece" */
   surface: string;
@@ -30,13 +32,6 @@ export type CareReminderProps = {
   offer?: Omit<RefreshOfferProps, "studioName" | "taskLabel">;
 };
 
-const LEAD: Record<CareReminderStep, (p: CareReminderProps) => string> = {
-  before_14d: (p) => `In two weeks, on ${p.dueOn}, your ${p.pieceTitle} is due for care: ${p.taskLabel.toLowerCase()} (${p.surface}).`,
-  due_day: (p) => `Today, ${p.dueOn}, your ${p.pieceTitle} is due for care: ${p.taskLabel.toLowerCase()} (${p.surface}).`,
-  after_30d: (p) =>
-    `Your ${p.pieceTitle} was due for care on ${p.dueOn}: ${p.taskLabel.toLowerCase()} (${p.surface}). If you have done it, log it and we will stop reminding you; this is the last reminder for this round.`,
-};
-
 export function CareReminder(p: CareReminderProps) {
   return (
     <EmailLayout
@@ -45,7 +40,7 @@ export function CareReminder(p: CareReminderProps) {
       footer={<CareFooter studioName={p.studioName} preferencesUrl={p.preferencesUrl} unsubscribeUrl={p.unsubscribeUrl} />}
     >
       <Paragraph>Hi {p.ownerName},</Paragraph>
-      <Paragraph>{LEAD[p.step](p)}</Paragraph>
+      <Paragraph>{p.lead}</Paragraph>
       <Text style={{ fontSize: "15px", fontWeight: 600, color: colors.ink, margin: "0 0 6px" }}>Why now</Text>
       {p.whyNow.map((w) => (
         <Note key={w}>{w}</Note>
@@ -90,6 +85,7 @@ CareReminder.PreviewProps = {
   pieceTitle: "Walnut river dining table",
   step: "before_14d",
   headline: "Re-oil coming due on 2 May 2026",
+  lead: "Your Walnut river dining table is due for care in 14 days, on 2 May 2026: re-oil (top).",
   taskLabel: "Re-oil",
   surface: "top",
   dueOn: "2 May 2026",

@@ -6,7 +6,7 @@ import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import type { ReminderStep, SunExposure, Use } from "@/lib/care/vocabulary";
 import type { SendMailInput } from "@/lib/mail";
 import { CareReminder, type CareReminderProps } from "@/emails/care-reminder";
-import { cautionsFor, longDate, offerView, quantityText, stepHeadline, subjectFor, SURFACE_WORDS, TASK_STEPS, whyNow } from "./content";
+import { cautionsFor, daysUntil, leadFor, longDate, offerView, quantityText, stepHeadline, subjectFor, SURFACE_WORDS, TASK_STEPS, whyNow } from "./content";
 import { logCareUrl, offerUrl, pieceUrl, preferencesUrl, oneClickUnsubscribeUrl, unsubscribeHeaders } from "./tokens";
 
 export interface ReminderMail {
@@ -18,18 +18,23 @@ export interface ReminderMail {
   studio: { name: string };
   product: CatalogEntry | undefined;
   offer?: { id: string; quote: Quote };
+  /** The owner's calendar date when the message goes out (reminders can go out late). */
+  ownerToday: string;
 }
 
 export function reminderProps(m: ReminderMail): CareReminderProps {
   const { task, owner, piece } = m;
+  const days = daysUntil(m.ownerToday, task.dueOn);
+  const surface = SURFACE_WORDS[task.surface];
   return {
     ownerName: owner.name,
     studioName: m.studio.name,
     pieceTitle: piece.title,
     step: m.step,
-    headline: stepHeadline(m.step, task.label, task.dueOn),
+    headline: stepHeadline(m.step, task.label, task.dueOn, days),
+    lead: leadFor(m.step, { pieceTitle: piece.title, taskLabel: task.label, surface, dueOn: task.dueOn }, days),
     taskLabel: task.label,
-    surface: SURFACE_WORDS[task.surface],
+    surface,
     dueOn: longDate(task.dueOn),
     whyNow: whyNow(task, piece),
     steps: TASK_STEPS[task.kind],
@@ -46,7 +51,7 @@ export function reminderProps(m: ReminderMail): CareReminderProps {
 export function composeReminder(m: ReminderMail): SendMailInput {
   return {
     to: m.owner.email,
-    subject: subjectFor(m.step, m.task.label, m.piece.title, m.task.dueOn),
+    subject: subjectFor(m.step, m.task.label, m.piece.title, m.task.dueOn, daysUntil(m.ownerToday, m.task.dueOn)),
     email: createElement(CareReminder, reminderProps(m)),
     headers: {
       ...unsubscribeHeaders(m.owner.id),

@@ -2,6 +2,7 @@
 // Templates in emails/ only lay these out. Safety copy follows DESIGN.md §8 and REFERENCES.md
 // ("Care and safety": NFPA tip sheet "Safety with oily rags").
 import { topArea, type TopShape } from "@/lib/care/area";
+import { diffDays } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";
 import { formatMinorUnits, type Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
@@ -83,16 +84,34 @@ export function cautionsFor(task: Pick<CareTask, "kind" | "finishClass">, piece:
   return out;
 }
 
-export function stepHeadline(step: ReminderStep, label: string, dueOn: string): string {
-  if (step === "before_14d") return `${label} coming due on ${longDate(dueOn)}`;
-  if (step === "due_day") return `${label} is due today`;
-  return `${label} is overdue`;
+/** Days from the owner's date to the due date (negative: overdue). Steps can go out late (first pass after registration or downtime). */
+export function daysUntil(ownerToday: string, dueOn: string): number {
+  return diffDays(ownerToday, dueOn);
 }
 
-export function subjectFor(step: ReminderStep, label: string, pieceTitle: string, dueOn: string): string {
-  if (step === "before_14d") return `Coming due ${longDate(dueOn)}: ${label.toLowerCase()} for your ${pieceTitle}`;
-  if (step === "due_day") return `Due today: ${label.toLowerCase()} for your ${pieceTitle}`;
-  return `Overdue since ${longDate(dueOn)}: ${label.toLowerCase()} for your ${pieceTitle}`;
+const inDays = (n: number) => (n === 1 ? "tomorrow" : `in ${n} days`);
+const daysAgo = (n: number) => (n === 1 ? "yesterday" : `${n} days ago`);
+
+export function stepHeadline(step: ReminderStep, label: string, dueOn: string, days: number): string {
+  if (days > 0) return `${label} coming due on ${longDate(dueOn)}`;
+  if (days === 0) return `${label} is due today`;
+  return step === "after_30d" ? `${label} is overdue` : `${label} was due on ${longDate(dueOn)}`;
+}
+
+export function subjectFor(step: ReminderStep, label: string, pieceTitle: string, dueOn: string, days: number): string {
+  const what = `${label.toLowerCase()} for your ${pieceTitle}`;
+  if (days > 0) return `Coming due ${longDate(dueOn)}: ${what}`;
+  if (days === 0) return `Due today: ${what}`;
+  return step === "after_30d" ? `Overdue since ${longDate(dueOn)}: ${what}` : `Due since ${longDate(dueOn)}: ${what}`;
+}
+
+/** The opening sentence: when, relative to the owner's today. */
+export function leadFor(step: ReminderStep, p: { pieceTitle: string; taskLabel: string; surface: string; dueOn: string }, days: number): string {
+  const what = `${p.taskLabel.toLowerCase()} (${p.surface})`;
+  if (days > 0) return `Your ${p.pieceTitle} is due for care ${inDays(days)}, on ${longDate(p.dueOn)}: ${what}.`;
+  if (days === 0) return `Your ${p.pieceTitle} is due for care today: ${what}.`;
+  const last = step === "after_30d" ? " This is the last reminder for this round." : "";
+  return `Your ${p.pieceTitle} was due for care on ${longDate(p.dueOn)}, ${daysAgo(-days)}: ${what}. If you have done it, log it and we will stop reminding you.${last}`;
 }
 
 const SINCE_WORDS: Record<CareTaskKind, string> = {

@@ -399,6 +399,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
                 studio: { name: studio.name },
                 product,
                 offer,
+                ownerToday: clocks.at(piece.ownerTimeZone).date,
               });
             }
           }
