@@ -16,7 +16,7 @@ let n = 0;
 export const uniq = (p: string) => `${p}-${process.pid}-${Date.now().toString(36)}-${++n}`;
 
 /** A fresh migrated database file for this test file; getDb() (and child processes given `env`) use it. */
-export function useOwnDatabase(name: string): string {
+export function ownDatabaseFile(name: string): string {
   const dir = path.resolve("tests/.tmp", `reminders-${name}-${process.pid}-${Date.now()}`);
   fs.mkdirSync(dir, { recursive: true });
   const file = path.join(dir, "reminders.db");

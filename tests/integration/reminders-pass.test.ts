@@ -9,9 +9,9 @@ import { careLogEntries, claims, refreshOffers, reminderSends, users } from "@/d
 import { reminderKey, taskKey } from "@/lib/care/schedule";
 import { runReminderPass } from "@/lib/reminders/pass";
 import { getMail, listMail } from "../support/mail";
-import { ledgerOf, runOnce, seedOwner, seedPiece, seedStudio, useOwnDatabase } from "./reminders-helpers";
+import { ledgerOf, runOnce, seedOwner, seedPiece, seedStudio, ownDatabaseFile } from "./reminders-helpers";
 
-useOwnDatabase("pass");
+ownDatabaseFile("pass");
 
 const TITLE = "Test walnut table (invented)";
 const keysOf = async (to: string) => {
