@@ -4,6 +4,7 @@
 import { hashPassword } from "@/lib/auth/password";
 import type { FinishClass, PieceKind, ResinKind, ShapeKind, SunExposure, Surface, Use } from "@/lib/care/vocabulary";
 import { newRegistrationCode } from "@/lib/pieces/registration";
+import { seedCareLog } from "./care-log";
 import { indexPiece } from "@/lib/pieces/search-index";
 import type { Db } from "../client";
 import { seedJobs } from "./jobs";
@@ -276,6 +277,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
       }
       indexPiece(tx, piece.id);
     }
+    seedCareLog(tx, studio.id, today);
     return { studioId: studio.id, pieces: PIECES.length, codes };
   });
   const jobs = seedJobs(db, result.studioId, today);
