@@ -45,6 +45,13 @@ export const studios = sqliteTable("studios", {
   /** Labour rate per hour, in the currency's minor units. */
   labourRateMinor: integer("labour_rate_minor").notNull().default(0),
   travelFeeMinor: integer("travel_fee_minor").notNull().default(0),
+  /** Local hour (0–23, the owner's time zone) at or after which care reminders go out. */
+  reminderSendHour: integer("reminder_send_hour").notNull().default(9),
+  /** Which reminder steps the studio sends (DESIGN.md §5: 14 days before, on the day, 30 days after). */
+  reminderSteps: text("reminder_steps", { mode: "json" })
+    .$type<(typeof REMINDER_STEPS)[number][]>()
+    .notNull()
+    .default(sql`'["before_14d","due_day","after_30d"]'`),
   createdAt: createdAt(),
 });
 

@@ -1,0 +1,2 @@
+ALTER TABLE `studios` ADD `reminder_send_hour` integer DEFAULT 9 NOT NULL;--> statement-breakpoint
+ALTER TABLE `studios` ADD `reminder_steps` text DEFAULT '["before_14d","due_day","after_30d"]' NOT NULL;
