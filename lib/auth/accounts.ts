@@ -12,6 +12,7 @@ import { badRequest, conflict, notFound, unauthorized } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import type {
   AcceptInvitationInput,
+  ChangePasswordInput,
   ForgotPasswordInput,
   InviteInput,
   ResetPasswordInput,
@@ -149,6 +150,17 @@ export async function resetPassword(input: ResetPasswordInput) {
     .run();
   await endAllSessions(userId);
   return userId;
+}
+
+/** Changes the password after checking the current one, and ends every session (the caller starts a fresh one). */
+export async function changePassword(userId: string, input: ChangePasswordInput, ip: string) {
+  await consumeAttempt([["signInAccount", `change:${userId}`], ["signInIp", ip]]);
+  const user = getDb().select().from(users).where(eq(users.id, userId)).get();
+  if (!user || !(await verifyPassword(user.passwordHash, input.current))) {
+    throw badRequest("That isn't your current password.", { current: ["That isn't your current password."] });
+  }
+  getDb().update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, userId)).run();
+  await endAllSessions(userId);
 }
 
 export async function inviteMember(ctx: StudioContext, input: InviteInput) {

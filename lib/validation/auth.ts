@@ -60,3 +60,13 @@ export function safeNextPath(next: string | undefined | null): string | undefine
   if (!next || !next.startsWith("/") || next.startsWith("//") || next.startsWith("/\\")) return undefined;
   return next;
 }
+
+export const changePasswordSchema = z
+  .object({
+    current: z.string().min(1, "Enter your current password.").max(200),
+    password: newPasswordField,
+    confirm: z.string(),
+  })
+  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." })
+  .refine((v) => v.password !== v.current, { path: ["password"], message: "Choose a password different from the current one." });
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;

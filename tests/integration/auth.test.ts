@@ -3,7 +3,7 @@ import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { sessions, userTokens, users } from "@/db/schema";
-import { requestPasswordReset, resetPassword, signIn, signUp, verifyEmail } from "@/lib/auth/accounts";
+import { changePassword, requestPasswordReset, resetPassword, signIn, signUp, verifyEmail } from "@/lib/auth/accounts";
 import { verifyPassword } from "@/lib/auth/password";
 import { getLucia } from "@/lib/auth/lucia";
 import { sha256Hex } from "@/lib/crypto";
@@ -117,5 +117,21 @@ describe("sign-in", () => {
     // RATE_LIMIT_WINDOW_SEC is 2 in tests (900 in the product).
     await new Promise((r) => setTimeout(r, 2200));
     await expect(signIn({ email: user.email, password: "right password here" }, "10.0.2.2")).resolves.toMatchObject({ id: user.id });
+  });
+});
+
+describe("password change", () => {
+  it("needs the current password and ends every session", async () => {
+    const user = await createUser({ password: "first password here" });
+    await getLucia().createSession(user.id, {}, { sessionId: sha256Hex("laptop") });
+    await getLucia().createSession(user.id, {}, { sessionId: sha256Hex("phone") });
+    const wrong = await expectAppError(changePassword(user.id, { current: "not it", password: "second password here", confirm: "second password here" }, "10.0.3.1"), 400);
+    expect(wrong.fieldErrors?.current).toBeDefined();
+    expect(getDb().select().from(sessions).where(eq(sessions.userId, user.id)).all()).toHaveLength(2);
+
+    await changePassword(user.id, { current: "first password here", password: "second password here", confirm: "second password here" }, "10.0.3.1");
+    expect(getDb().select().from(sessions).where(eq(sessions.userId, user.id)).all()).toHaveLength(0);
+    const row = getDb().select().from(users).where(eq(users.id, user.id)).get()!;
+    expect(await verifyPassword(row.passwordHash, "second password here")).toBe(true);
   });
 });
