@@ -15,6 +15,8 @@ import {
   SUN_EXPOSURES,
   SURFACES,
   USES,
+  VISIT_LOCATIONS,
+  VISIT_STATES,
 } from "../lib/care/vocabulary";
 
 // Every studio-owned table carries studioId and every query filters by it (DESIGN.md §1).
@@ -651,3 +653,177 @@ export type Claim = typeof claims.$inferSelect;
 export type ClaimMessage = typeof claimMessages.$inferSelect;
 export type RepairJob = typeof repairJobs.$inferSelect;
 export type Payment = typeof payments.$inferSelect;
+
+// ---- visits (issue #9): technician hours, time off, visits, their photos and the reminder ledger ----
+
+/** A technician's weekly working hours in the studio's time zone; several ranges per weekday allowed. */
+export const technicianHours = sqliteTable(
+  "technician_hours",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    /** ISO weekday, 1 = Monday … 7 = Sunday. */
+    weekday: integer("weekday").notNull(),
+    /** Local wall time "HH:MM". */
+    start: text("start").notNull(),
+    end: text("end").notNull(),
+  },
+  (t) => [index("technician_hours_studio_user_idx").on(t.studioId, t.userId)],
+);
+
+/** Days off and other exceptions: a whole local date, or a part of it (start/end local "HH:MM"). */
+export const technicianTimeOff = sqliteTable(
+  "technician_time_off",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    date: text("date").notNull(),
+    /** Both null: the whole day. */
+    start: text("start"),
+    end: text("end"),
+    note: text("note").notNull().default(""),
+    createdAt: createdAt(),
+  },
+  (t) => [index("technician_time_off_studio_user_idx").on(t.studioId, t.userId, t.date)],
+);
+
+/** The studio's booking rules; a studio without a row uses the defaults below. */
+export const visitRules = sqliteTable("visit_rules", {
+  studioId: text("studio_id")
+    .primaryKey()
+    .references(() => studios.id, { onDelete: "cascade" }),
+  travelBufferMin: integer("travel_buffer_min").notNull().default(30),
+  leadTimeHours: integer("lead_time_hours").notNull().default(48),
+  slotStepMin: integer("slot_step_min").notNull().default(30),
+  /** Owners may move or cancel until this many hours before the visit; staff until it starts. */
+  ownerChangeCutoffHours: integer("owner_change_cutoff_hours").notNull().default(24),
+});
+
+export const visits = sqliteTable(
+  "visits",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    jobId: text("job_id")
+      .notNull()
+      .references(() => repairJobs.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    technicianId: text("technician_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "restrict" }),
+    startAt: integer("start_at", { mode: "timestamp_ms" }).notNull(),
+    endAt: integer("end_at", { mode: "timestamp_ms" }).notNull(),
+    locationKind: text("location_kind", { enum: VISIT_LOCATIONS }).notNull(),
+    /** The address, as sent in LOCATION of the invite. */
+    location: text("location").notNull(),
+    /** RFC 5545 UID: stable for the life of the visit. */
+    icsUid: text("ics_uid").notNull().unique(),
+    /** RFC 5545 SEQUENCE: raised on every change that is sent (move, cancel). */
+    sequence: integer("sequence").notNull().default(0),
+    state: text("state", { enum: VISIT_STATES }).notNull().default("booked"),
+    /** The job's state before the visit was booked (paid or covered), restored when it is cancelled. */
+    jobStateBefore: text("job_state_before", { enum: JOB_STATES }).notNull(),
+    bookedById: text("booked_by_id").references(() => users.id, { onDelete: "set null" }),
+    cancelledAt: integer("cancelled_at", { mode: "timestamp_ms" }),
+    cancelledById: text("cancelled_by_id").references(() => users.id, { onDelete: "set null" }),
+    cancelReason: text("cancel_reason"),
+    reportWork: text("report_work"),
+    reportSignOffName: text("report_sign_off_name"),
+    reportLayerIds: text("report_layer_ids", { mode: "json" }).$type<string[]>(),
+    reportedAt: integer("reported_at", { mode: "timestamp_ms" }),
+    reportedById: text("reported_by_id").references(() => users.id, { onDelete: "set null" }),
+    /** When the latest invite (confirmation or change) went out; the reminder skips an invite sent within its window. */
+    lastInviteAt: integer("last_invite_at", { mode: "timestamp_ms" }),
+    version: integer("version").notNull().default(0),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [
+    index("visits_studio_tech_start_idx").on(t.studioId, t.technicianId, t.startAt),
+    index("visits_studio_start_idx").on(t.studioId, t.startAt),
+    index("visits_job_idx").on(t.jobId),
+    // At most one live visit per job.
+    uniqueIndex("visits_job_booked_uq").on(t.jobId).where(sql`state = 'booked'`),
+  ],
+);
+
+export const VISIT_PHOTO_KINDS = ["before", "after"] as const;
+
+/** Before/after photos of a visit (files rows with purpose "visit_photo" and the piece's id). */
+export const visitPhotos = sqliteTable(
+  "visit_photos",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    visitId: text("visit_id")
+      .notNull()
+      .references(() => visits.id, { onDelete: "cascade" }),
+    fileId: text("file_id")
+      .notNull()
+      .references(() => files.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: VISIT_PHOTO_KINDS }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("visit_photos_visit_idx").on(t.visitId)],
+);
+
+/** Send ledger of visit reminders: one row per visit, kind and SEQUENCE, claimed before the message goes out. */
+export const visitMailSends = sqliteTable(
+  "visit_mail_sends",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    visitId: text("visit_id")
+      .notNull()
+      .references(() => visits.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: ["reminder_24h"] }).notNull(),
+    sequence: integer("sequence").notNull(),
+    status: text("status", { enum: SEND_STATUSES }).notNull(),
+    attempts: integer("attempts").notNull().default(0),
+    lastError: text("last_error"),
+    claimedAt: integer("claimed_at", { mode: "timestamp_ms" }).notNull(),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" }),
+    messageId: text("message_id"),
+  },
+  (t) => [uniqueIndex("visit_mail_sends_uq").on(t.visitId, t.kind, t.sequence), index("visit_mail_sends_studio_idx").on(t.studioId, t.status)],
+);
+
+export const visitsRelations = relations(visits, ({ one, many }) => ({
+  job: one(repairJobs, { fields: [visits.jobId], references: [repairJobs.id] }),
+  piece: one(pieces, { fields: [visits.pieceId], references: [pieces.id] }),
+  technician: one(users, { fields: [visits.technicianId], references: [users.id] }),
+  photos: many(visitPhotos),
+}));
+
+export const visitPhotosRelations = relations(visitPhotos, ({ one }) => ({
+  visit: one(visits, { fields: [visitPhotos.visitId], references: [visits.id] }),
+  file: one(files, { fields: [visitPhotos.fileId], references: [files.id] }),
+}));
+
+export type TechnicianHoursRow = typeof technicianHours.$inferSelect;
+export type TechnicianTimeOffRow = typeof technicianTimeOff.$inferSelect;
+export type VisitRulesRow = typeof visitRules.$inferSelect;
+export type Visit = typeof visits.$inferSelect;
+export type NewVisit = typeof visits.$inferInsert;
+export type VisitPhoto = typeof visitPhotos.$inferSelect;
+export type VisitMailSend = typeof visitMailSends.$inferSelect;

@@ -143,3 +143,13 @@ export type ReminderStep = (typeof REMINDER_STEPS)[number];
 /** Repair job states (DESIGN.md §2): draft → quoted → approved → paid (or covered) → scheduled → done; cancelled from any open state. */
 export const JOB_STATES = ["draft", "quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"] as const;
 export type JobState = (typeof JOB_STATES)[number];
+
+/** Visit states (DESIGN.md §2 "visit"): booked → done, or booked → cancelled. A move keeps it booked and raises its SEQUENCE. */
+export const VISIT_STATES = ["booked", "cancelled", "done"] as const;
+export type VisitState = (typeof VISIT_STATES)[number];
+
+/** Where a visit happens: at the owner's place (the piece's address) or at the studio's shop. */
+export const VISIT_LOCATIONS = ["owner", "studio"] as const;
+export type VisitLocation = (typeof VISIT_LOCATIONS)[number];
+
+export const VISIT_STATE_LABELS: Record<VisitState, string> = { booked: "Booked", cancelled: "Cancelled", done: "Done" };
