@@ -1,0 +1,71 @@
+// Session cookies, security headers, cross-site writes and brute-force limits against the production build.
+import { expect, test } from "@playwright/test";
+import { generateRegistrationCode } from "@/lib/care/registration-code";
+import { ACCOUNTS, signIn } from "./helpers";
+
+test("the session cookie is HttpOnly and SameSite=Lax, and a new id is issued at every sign-in", async ({ browser }) => {
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await signIn(page, ACCOUNTS.otherOwner);
+  const first = (await context.cookies()).find((c) => c.name === "gw_session")!;
+  expect(first.httpOnly).toBe(true);
+  expect(first.sameSite).toBe("Lax");
+  // Secure is set whenever APP_URL is https (tests/unit/session-cookie.test.ts); this run is http://localhost.
+  await page.getByRole("button", { name: "Sign out" }).click();
+  await signIn(page, ACCOUNTS.otherOwner);
+  const second = (await context.cookies()).find((c) => c.name === "gw_session")!;
+  expect(second.value).not.toBe(first.value);
+  // The old token signs nobody in.
+  const stale = await browser.newContext();
+  await stale.addCookies([{ ...first, expires: -1 }]);
+  const res = await stale.request.get("/api/me");
+  expect(res.status()).toBe(401);
+  await Promise.all([context.close(), stale.close()]);
+});
+
+test("security headers on pages and API answers", async ({ request }) => {
+  for (const path of ["/", "/sign-in", "/api/health"]) {
+    const res = await request.get(path);
+    const h = res.headers();
+    const csp = h["content-security-policy"] ?? "";
+    expect(csp, path).toContain("frame-ancestors 'none'");
+    expect(csp, path).not.toContain("unsafe-eval");
+    expect(csp, path).toContain("object-src 'none'");
+    expect(h["x-content-type-options"], path).toBe("nosniff");
+    expect(h["referrer-policy"], path).toBe("strict-origin-when-cross-origin");
+    expect(h["x-powered-by"], path).toBeUndefined();
+  }
+});
+
+test("state-changing requests from another origin are refused", async ({ browser }) => {
+  const context = await browser.newContext();
+  await signIn(await context.newPage(), ACCOUNTS.owner);
+  const forged = await context.request.post("/api/registrations", { headers: { origin: "https://elsewhere.example", "content-type": "application/json" }, data: { code: "0000-0000-0000-0" } });
+  expect(forged.status()).toBe(403);
+  expect((await forged.json()).error.message).toMatch(/another site/);
+  const same = await context.request.post("/api/registrations", { headers: { origin: "http://localhost:3100", "content-type": "application/json" }, data: { code: "0000-0000-0000-0" } });
+  expect(same.status()).toBeLessThan(500);
+  expect(same.status()).not.toBe(403);
+  await context.close();
+});
+
+test("registration codes are rate-limited per account, and guessing one would take longer than the universe has existed", async ({ browser }) => {
+  const context = await browser.newContext();
+  await signIn(await context.newPage(), ACCOUNTS.owner);
+  const statuses: number[] = [];
+  for (let i = 0; i < 12; i++) {
+    // Well-formed random codes with a valid check symbol: they match no piece.
+    const res = await context.request.post("/api/registrations", { data: { code: generateRegistrationCode() } });
+    statuses.push(res.status());
+  }
+  expect(statuses).toContain(429);
+  const limited = statuses.indexOf(429);
+  expect(limited).toBeGreaterThan(0);
+  // 12 Crockford symbols = 60 bits; at 10 guesses per account per 15 minutes (lib/auth/rate-limit.ts):
+  const codes = 2 ** 60;
+  const perYear = (10 / (15 * 60)) * 3600 * 24 * 365;
+  const years = codes / 2 / perYear;
+  console.log(`Guessing a registration code at ${perYear.toFixed(0)} tries per year per account: ~${years.toExponential(2)} years on average`);
+  expect(years).toBeGreaterThan(1e12);
+  await context.close();
+});
