@@ -9,6 +9,7 @@ const STUDIO_NAV: Item[] = [
   { href: "/studio/today", label: "My day", roles: ["technician"] },
   { href: "/studio/pieces", label: "Pieces", roles: ["admin", "staff"] },
   { href: "/studio/jobs", label: "Repair jobs", roles: ["admin", "staff"] },
+  { href: "/studio/catalog", label: "Finish catalog", roles: ["admin"] },
   { href: "/studio/team", label: "Team", roles: ["admin"] },
   { href: "/studio/outbox", label: "Outbox", roles: ["admin"] },
 ];

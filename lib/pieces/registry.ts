@@ -17,7 +17,7 @@ import {
   type FinishProduct,
   type Piece,
 } from "@/db/schema";
-import type { StudioContext } from "@/lib/auth/guards";
+import { requireStaff, type StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
 import { topArea, type TopArea } from "@/lib/care/area";
 import { addMonths, localDate } from "@/lib/care/dates";
@@ -33,6 +33,7 @@ import {
   piecePatchSchema,
   pieceSchema,
   type PieceListQuery,
+  type PieceValues,
 } from "@/lib/validation/pieces";
 import { scheduleFromRows, topShape } from "./care-inputs";
 import { insertLayers } from "./layers";
@@ -561,4 +562,32 @@ export function layerHistory(ctx: StudioContext, pieceId: string) {
     .where(and(eq(auditLog.studioId, ctx.studio.id), eq(auditLog.subjectType, "piece"), eq(auditLog.subjectId, pieceId), sql`${auditLog.action} LIKE 'layer.%'`))
     .orderBy(desc(auditLog.createdAt))
     .all();
+}
+
+// ---- page loaders: one call per page, guard included ----
+
+/** The new/edit piece form's context: units, catalog, members, today, and the record when editing. */
+export async function pieceFormContext(pieceId?: string) {
+  const ctx = await requireStaff();
+  const piece = pieceId ? publicPiece(loadPiece(ctx, pieceId)) : null;
+  const initial = piece
+    ? (Object.fromEntries(
+        Object.keys(pieceSchema.shape).map((k) => [k, (piece as Record<string, unknown>)[k] ?? (k.endsWith("Mm") || k.endsWith("M2") || k.endsWith("Ml") || k.endsWith("On") || k === "resinTint" || k === "secondarySpeciesId" ? null : "")]),
+      ) as Partial<PieceValues>)
+    : undefined;
+  return {
+    piece,
+    initial,
+    unitSystem: ctx.studio.unitSystem,
+    today: today(ctx),
+    products: studioProducts(ctx.studio.id).filter((p) => !p.archivedAt).map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass })),
+    members: studioMembers(ctx).map((m) => ({ id: m.id, name: m.name })),
+  };
+}
+
+/** The piece page: the record, stack, schedule, timeline and stack history. */
+export async function piecePage(pieceId: string) {
+  const ctx = await requireStaff();
+  const detail = getPieceDetail(ctx, pieceId);
+  return { ...detail, history: layerHistory(ctx, pieceId), unitSystem: ctx.studio.unitSystem, today: today(ctx), studioName: ctx.studio.name };
 }

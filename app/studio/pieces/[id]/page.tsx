@@ -1,34 +1,194 @@
 import type { Metadata } from "next";
+import { Pencil } from "lucide-react";
+import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
+import { formatArea, formatLength, formatVolume } from "@/components/pieces/format";
+import { PhotoUploader, PieceActions } from "@/components/pieces/piece-actions";
+import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pieces/status";
+import { ButtonLink } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
-import { FINISH_CLASS_LABELS, PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
-import { requireStaff } from "@/lib/auth/guards";
+import { Notice } from "@/components/ui/notice";
 import { forPage } from "@/lib/auth/page";
-import { getStudioPiece } from "@/lib/pieces/queries";
+import { getSpecies } from "@/lib/care/species";
+import { PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
+import { careBasics } from "@/lib/pieces/care-basics";
+import { piecePage } from "@/lib/pieces/registry";
 
 export const metadata: Metadata = { title: "Piece" };
 
+const HISTORY_WORDS: Record<string, string> = { "layer.added": "Added", "layer.updated": "Edited", "layer.moved": "Moved", "layer.removed": "Removed" };
+
+function Row({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <div className="grid grid-cols-[9rem_1fr] gap-2 py-1.5 text-sm">
+      <dt className="text-muted">{label}</dt>
+      <dd>{children}</dd>
+    </div>
+  );
+}
+
 export default async function StudioPiecePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const piece = await forPage(async () => getStudioPiece(await requireStaff(), id));
+  const d = await forPage(() => piecePage(id));
+  const p = d.piece;
+  const u = d.unitSystem;
+  const species = [p.primarySpeciesId, p.secondarySpeciesId].filter(Boolean).map((s) => getSpecies(s!)?.commonName ?? s);
+  const basics = careBasics(d.layers.map((l) => l.finishClass), p.resinKind);
+  const size =
+    p.shapeKind === "round"
+      ? `Round, Ø ${formatLength(p.diameterMm, u)}`
+      : p.shapeKind === "measured"
+        ? "Irregular, measured area"
+        : `${p.shapeKind === "oval" ? "Oval" : "Rectangle"}, ${formatLength(p.lengthMm, u)} × ${formatLength(p.widthMm, u)}`;
+
   return (
     <>
-      <PageHeader title={piece.title} lead={`${PIECE_KIND_LABELS[piece.kind]} · delivered ${piece.deliveredOn}`} />
-      <div className="grid gap-4 md:grid-cols-2">
-        <Card className="space-y-2">
-          <h2 className="font-semibold">Owner</h2>
-          <p>{piece.owner ? `${piece.owner.name} (${piece.owner.email})` : "Not registered yet"}</p>
-        </Card>
-        <Card className="space-y-2">
-          <h2 className="font-semibold">Finish stack</h2>
-          <ol className="space-y-1 text-sm">
-            {piece.layers.map((l) => (
-              <li key={l.id}>
-                {l.surface}: {FINISH_CLASS_LABELS[l.finishClass]}
-                {l.productLabel ? ` — ${l.productLabel}` : ""}, {l.coats} coat{l.coats === 1 ? "" : "s"}, {l.appliedOn}
-              </li>
+      <PageHeader
+        title={p.title}
+        lead={`${PIECE_KIND_LABELS[p.kind]} · delivered ${p.deliveredOn}${p.archivedAt ? " · archived" : ""}`}
+        actions={
+          <ButtonLink href={`/studio/pieces/${p.id}/edit`} variant="secondary">
+            <Pencil aria-hidden className="size-4" /> Edit record
+          </ButtonLink>
+        }
+      />
+      <div className="grid gap-4 lg:grid-cols-3">
+        <div className="space-y-4 lg:col-span-2">
+          <Card>
+            <h2 className="mb-2 font-display text-xl font-semibold">Summary</h2>
+            <dl className="divide-y divide-line">
+              <Row label="Shape and size">{size}</Row>
+              <Row label="Top area">{formatArea(d.area, u)}</Row>
+              <Row label="Thickness">{formatLength(p.thicknessMm, u)}</Row>
+              <Row label="Species">{species.join(" + ")}</Row>
+              <Row label="Resin">
+                {RESIN_LABELS[p.resinKind]}
+                {p.resinKind !== "none" ? ` · poured ${p.resinPouredOn ?? "—"} · ${formatVolume(p.resinVolumeMl, u)}${p.resinTint ? ` · ${p.resinTint}` : ""}` : ""}
+              </Row>
+              <Row label="Base">{[p.baseMaterial, p.baseFinish].filter((x) => x && x !== "—").join(", ") || "—"}</Row>
+              <Row label="Use and sun">
+                {USE_LABELS[p.use]} · {SUN_LABELS[p.sun]}
+              </Row>
+              <Row label="Delivered">
+                {p.deliveredOn}
+                {p.deliveryAddress ? ` · ${p.deliveryAddress}` : ""}
+              </Row>
+              {p.internalNotes ? <Row label="Internal notes">{p.internalNotes}</Row> : null}
+            </dl>
+          </Card>
+
+          <Card>
+            <h2 className="mb-1 font-display text-xl font-semibold">Finish stack</h2>
+            <p className="mb-4 text-sm text-muted">Outermost layer on top, the wood at the bottom. Adding, moving or removing a layer recomputes the care schedule; the audit log keeps the stack&apos;s history.</p>
+            <FinishStackEditor pieceId={p.id} layers={d.layers} products={d.products} members={d.members} today={d.today} />
+            {d.history.length ? (
+              <details className="mt-4 text-sm">
+                <summary className="min-h-11 cursor-pointer py-2 font-semibold">Stack history ({d.history.length})</summary>
+                <ol className="space-y-1">
+                  {d.history.map((h, i) => {
+                    const after = (h.data.after ?? h.data.before) as { surface?: string; finishClass?: string; position?: number } | undefined;
+                    return (
+                      <li key={i} className="text-muted">
+                        {h.createdAt.toISOString().slice(0, 10)} · {HISTORY_WORDS[h.action] ?? h.action} {after?.finishClass?.replace(/_/g, " ")} on the {after?.surface}
+                        {h.action === "layer.moved" ? ` (to position ${(after?.position ?? 0) + 1})` : ""} · {h.actorName ?? "someone"}
+                      </li>
+                    );
+                  })}
+                </ol>
+              </details>
+            ) : null}
+          </Card>
+
+          <Card>
+            <h2 className="mb-3 font-display text-xl font-semibold">Care schedule</h2>
+            {d.scheduleError ? <Notice tone="warn">The care schedule could not be computed: {d.scheduleError}</Notice> : null}
+            {d.schedule ? (
+              <ol className="space-y-3">
+                {d.schedule.tasks.map((t) => (
+                  <li key={t.key} className="rounded-lg border border-line p-3">
+                    <div className="flex flex-wrap items-center justify-between gap-2">
+                      <p className="font-semibold">
+                        {t.label} <span className="font-normal text-muted">({t.surface === "whole_piece" ? "whole piece" : t.surface})</span>
+                      </p>
+                      <span className="flex items-center gap-3 text-sm">
+                        <CareStatus status={t.status} /> due {t.dueOn}
+                      </span>
+                    </div>
+                    <ul className="mt-1 list-disc pl-5 text-sm text-muted">
+                      {t.reasons.map((r, i) => (
+                        <li key={i}>{r}</li>
+                      ))}
+                    </ul>
+                  </li>
+                ))}
+              </ol>
+            ) : null}
+            {d.schedule?.notes.length ? <p className="mt-2 text-sm text-muted">{d.schedule.notes.join("; ")}</p> : null}
+          </Card>
+
+          <Card>
+            <h2 className="mb-3 font-display text-xl font-semibold">Timeline</h2>
+            <ol className="relative space-y-3 border-l-2 border-line pl-4">
+              {d.timeline.map((e, i) => (
+                <li key={i} className="text-sm">
+                  <span className="absolute -left-[7px] mt-1.5 size-3 rounded-full border-2 border-card bg-resin" aria-hidden />
+                  <span className="font-medium">{e.on}</span> · <span className="text-muted">{e.kind === "layer" ? "finish" : e.kind}</span> · {e.text}
+                </li>
+              ))}
+            </ol>
+          </Card>
+        </div>
+
+        <div className="space-y-4">
+          <Card className="space-y-3">
+            <h2 className="font-display text-xl font-semibold">Registration</h2>
+            <RegistrationStatus registered={!!d.owner} />
+            <p className="text-sm">
+              {d.owner ? (
+                <>
+                  {d.owner.name} · {d.owner.email}
+                  {p.registeredAt ? ` · since ${p.registeredAt.toISOString().slice(0, 10)}` : ""}
+                </>
+              ) : (
+                "Waiting for the owner to register with the code on the drawer card."
+              )}
+            </p>
+            <WarrantyStatus active={d.underWarranty} endsOn={d.warrantyEndsOn} />
+            <PieceActions pieceId={p.id} registered={!!d.owner || !!p.registeredAt} archived={!!p.archivedAt} />
+          </Card>
+
+          <Card className="space-y-3">
+            <h2 className="font-display text-xl font-semibold">Photos</h2>
+            {d.photos.length ? (
+              <ul className="grid grid-cols-2 gap-2">
+                {d.photos.map((ph) => (
+                  <li key={ph.id}>
+                    <a href={ph.url} target="_blank" rel="noopener">
+                      {/* eslint-disable-next-line @next/next/no-img-element -- served by our authorized file route */}
+                      <img src={ph.thumbUrl} alt={`Photo of ${p.title}`} width={ph.width} height={ph.height} className="aspect-square w-full rounded-lg border border-line object-cover" />
+                    </a>
+                  </li>
+                ))}
+              </ul>
+            ) : (
+              <p className="text-sm text-muted">No photos yet.</p>
+            )}
+            <PhotoUploader pieceId={p.id} />
+          </Card>
+
+          <Card className="space-y-2 text-sm">
+            <h2 className="font-display text-xl font-semibold">Care basics on the card</h2>
+            <ul className="list-disc space-y-1 pl-5">
+              {basics.basics.map((b, i) => (
+                <li key={i}>{b}</li>
+              ))}
+            </ul>
+            {basics.cautions.map((c, i) => (
+              <Notice key={i} tone="warn" title={i === 0 && basics.hasOil ? "Oily rags" : "Caution"}>
+                {c}
+              </Notice>
             ))}
-          </ol>
-        </Card>
+          </Card>
+        </div>
       </div>
     </>
   );

@@ -1,0 +1,226 @@
+"use client";
+
+import { Archive, ArchiveRestore, Pencil, Plus, Trash2 } from "lucide-react";
+import { useRouter } from "next/navigation";
+import { useId, useState } from "react";
+import { Controller, useFieldArray } from "react-hook-form";
+import { toast } from "sonner";
+import { useActionForm } from "@/components/forms/use-action-form";
+import { callApi, numberOrNull } from "@/components/pieces/api";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
+import { FINISH_CLASSES, FINISH_CLASS_LABELS, type FinishClass } from "@/lib/care/vocabulary";
+import { catalogProductSchema, type CatalogProductInput } from "@/lib/validation/pieces";
+
+export type CatalogRow = {
+  id: string;
+  name: string;
+  finishClass: FinishClass;
+  coverageM2PerL: number;
+  containers: { ml: number; priceMinor: number }[];
+  intervalHeavyMonths: number | null;
+  intervalModerateMonths: number | null;
+  intervalLightMonths: number | null;
+  safetyNotes: string;
+  archivedAt: string | Date | null;
+  defaults: { heavy: number; moderate: number; light: number };
+};
+
+function exponent(currency: string): number {
+  return new Intl.NumberFormat("en", { style: "currency", currency }).resolvedOptions().maximumFractionDigits ?? 2;
+}
+
+function money(minor: number, currency: string): string {
+  return new Intl.NumberFormat(undefined, { style: "currency", currency }).format(minor / 10 ** exponent(currency));
+}
+
+/** A price typed in the currency's major unit, kept in minor units. */
+function MoneyField({ label, currency, value, onChange, error }: { label: string; currency: string; value: number | undefined; onChange: (v: number) => void; error?: string }) {
+  const exp = exponent(currency);
+  const id = useId();
+  const [text, setText] = useState(value == null ? "" : (value / 10 ** exp).toFixed(exp));
+  return (
+    <div className="space-y-1.5">
+      <label htmlFor={id} className="block text-sm font-medium">
+        {label} <span className="font-normal text-muted">({currency})</span>
+      </label>
+      <input
+        id={id}
+        inputMode="decimal"
+        value={text}
+        aria-invalid={error ? true : undefined}
+        onChange={(e) => {
+          setText(e.target.value);
+          const n = Number(e.target.value.replace(",", "."));
+          onChange(e.target.value.trim() === "" ? Number.NaN : Math.round(n * 10 ** exp));
+        }}
+        className="block min-h-11 w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
+      />
+      {error ? <p className="text-sm font-medium text-danger">{error}</p> : null}
+    </div>
+  );
+}
+
+function ProductForm({ product, currency, onDone }: { product?: CatalogRow; currency: string; onDone: () => void }) {
+  const router = useRouter();
+  const { form, onSubmit, formError } = useActionForm({
+    schema: catalogProductSchema,
+    action: (v: CatalogProductInput) => (product ? callApi(`/api/catalog/${product.id}`, "PATCH", v) : callApi("/api/catalog", "POST", v)),
+    defaultValues: product
+      ? {
+          name: product.name,
+          finishClass: product.finishClass,
+          coverageM2PerL: product.coverageM2PerL,
+          containers: product.containers,
+          intervalHeavyMonths: product.intervalHeavyMonths ?? product.defaults.heavy,
+          intervalModerateMonths: product.intervalModerateMonths ?? product.defaults.moderate,
+          intervalLightMonths: product.intervalLightMonths ?? product.defaults.light,
+          safetyNotes: product.safetyNotes,
+        }
+      : { name: "", finishClass: "hardwax_oil", containers: [], safetyNotes: "", intervalHeavyMonths: null, intervalModerateMonths: null, intervalLightMonths: null },
+    successMessage: product ? "Finish product saved." : "Finish product added to the catalog.",
+    onSuccess: () => {
+      onDone();
+      router.refresh();
+    },
+  });
+  const { register, control, formState, watch } = form;
+  const e = formState.errors;
+  const containers = useFieldArray({ control, name: "containers" });
+  const cls = watch("finishClass") as FinishClass;
+  const d = DEFAULT_WEAR_INTERVALS[cls];
+  const defaults = d ? [d.heavy, d.moderate, d.light] : [];
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-4 rounded-xl border border-resin/40 bg-paper p-4" aria-label={product ? `Edit ${product.name}` : "New finish product"}>
+      {formError ? <Notice tone="error">{formError}</Notice> : null}
+      <div className="grid gap-3 sm:grid-cols-3">
+        <TextField label="Name" {...register("name")} error={e.name?.message} placeholder="An invented or generic name" />
+        <SelectField label="Finish class" {...register("finishClass")} error={e.finishClass?.message}>
+          {FINISH_CLASSES.map((c) => (
+            <option key={c} value={c}>
+              {FINISH_CLASS_LABELS[c]}
+            </option>
+          ))}
+        </SelectField>
+        <TextField label="Coverage per coat (m²/L)" inputMode="decimal" {...register("coverageM2PerL", { setValueAs: numberOrNull })} error={e.coverageM2PerL?.message} />
+      </div>
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-semibold">Wear intervals, months</legend>
+        <p className="text-sm text-muted">Defaults for this class (heavy / moderate / light use): {defaults.join(" / ")}. Leave empty or keep a default to follow it.</p>
+        <div className="grid gap-3 sm:grid-cols-3">
+          <TextField label="Heavy use" inputMode="numeric" placeholder={String(defaults[0] ?? "")} {...register("intervalHeavyMonths", { setValueAs: numberOrNull })} error={e.intervalHeavyMonths?.message} />
+          <TextField label="Moderate use" inputMode="numeric" placeholder={String(defaults[1] ?? "")} {...register("intervalModerateMonths", { setValueAs: numberOrNull })} error={e.intervalModerateMonths?.message} />
+          <TextField label="Light use" inputMode="numeric" placeholder={String(defaults[2] ?? "")} {...register("intervalLightMonths", { setValueAs: numberOrNull })} error={e.intervalLightMonths?.message} />
+        </div>
+      </fieldset>
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-semibold">Container sizes and unit prices</legend>
+        {containers.fields.map((f, i) => (
+          <div key={f.id} className="grid items-end gap-3 sm:grid-cols-[1fr_1fr_auto]">
+            <TextField label="Size (mL)" inputMode="numeric" {...register(`containers.${i}.ml`, { setValueAs: numberOrNull })} error={e.containers?.[i]?.ml?.message} />
+            <Controller control={control} name={`containers.${i}.priceMinor`} render={({ field }) => <MoneyField label="Price" currency={currency} value={field.value as number | undefined} onChange={field.onChange} error={e.containers?.[i]?.priceMinor?.message} />} />
+            <Button variant="ghost" onClick={() => containers.remove(i)} aria-label={`Remove container ${i + 1}`}>
+              <Trash2 aria-hidden className="size-4" /> Remove
+            </Button>
+          </div>
+        ))}
+        <Button variant="secondary" onClick={() => containers.append({ ml: 250, priceMinor: 0 })}>
+          <Plus aria-hidden className="size-4" /> Add a container size
+        </Button>
+      </fieldset>
+      <TextField label="Safety notes" {...register("safetyNotes")} error={e.safetyNotes?.message} placeholder="e.g. oily rags: dry flat outdoors or in a water-filled metal can" />
+      <div className="flex gap-2">
+        <Button type="submit" disabled={formState.isSubmitting}>
+          {product ? "Save product" : "Add product"}
+        </Button>
+        <Button variant="secondary" onClick={onDone}>
+          Cancel
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+export function CatalogManager({ products, currency }: { products: CatalogRow[]; currency: string }) {
+  const router = useRouter();
+  const [editing, setEditing] = useState<string | "new" | null>(null);
+  const [confirm, setConfirm] = useState<string | null>(null);
+  const setArchived = async (p: CatalogRow, archived: boolean) => {
+    const r = archived ? await callApi(`/api/catalog/${p.id}`, "DELETE") : await callApi(`/api/catalog/${p.id}`, "PATCH", { archived: false });
+    setConfirm(null);
+    if (!r.ok) return toast.error(r.message);
+    toast.success(archived ? `${p.name} archived; layers that used it keep its name.` : `${p.name} is back in the pickers.`);
+    router.refresh();
+  };
+  const months = (v: number | null, d: number) => (v == null ? `${d}` : <strong>{v}</strong>);
+  return (
+    <div className="space-y-4">
+      {editing === "new" ? (
+        <ProductForm currency={currency} onDone={() => setEditing(null)} />
+      ) : (
+        <Button onClick={() => setEditing("new")}>
+          <Plus aria-hidden className="size-4" /> New finish product
+        </Button>
+      )}
+      {products.length === 0 ? <p className="rounded-xl border border-dashed border-line bg-card p-6 text-center text-muted">No finish products yet. Add the products the studio finishes with.</p> : null}
+      <ul className="space-y-3">
+        {products.map((p) => (
+          <li key={p.id} className="rounded-xl border border-line bg-card p-4">
+            {editing === p.id ? (
+              <ProductForm product={p} currency={currency} onDone={() => setEditing(null)} />
+            ) : (
+              <div className="flex flex-wrap items-start justify-between gap-3">
+                <div className="min-w-0 space-y-1">
+                  <p className="font-semibold">
+                    {p.name}
+                    {p.archivedAt ? (
+                      <span className="ml-2 inline-flex items-center gap-1 text-sm font-normal text-muted">
+                        <Archive aria-hidden className="size-4" /> Archived
+                      </span>
+                    ) : null}
+                  </p>
+                  <p className="text-sm text-muted">
+                    {FINISH_CLASS_LABELS[p.finishClass]} · {p.coverageM2PerL} m²/L per coat
+                  </p>
+                  <p className="text-sm">
+                    Wear intervals (heavy / moderate / light): {months(p.intervalHeavyMonths, p.defaults.heavy)} / {months(p.intervalModerateMonths, p.defaults.moderate)} / {months(p.intervalLightMonths, p.defaults.light)} months
+                    {p.intervalHeavyMonths ?? p.intervalModerateMonths ?? p.intervalLightMonths ? <span className="text-muted"> (bold: the studio&apos;s own)</span> : <span className="text-muted"> (defaults)</span>}
+                  </p>
+                  <p className="text-sm">{p.containers.length ? p.containers.map((c) => `${c.ml} mL at ${money(c.priceMinor, currency)}`).join(" · ") : <span className="text-muted">No container sizes</span>}</p>
+                  {p.safetyNotes ? <p className="text-sm text-muted">Safety: {p.safetyNotes}</p> : null}
+                </div>
+                <div className="flex gap-2">
+                  <Button variant="secondary" onClick={() => setEditing(p.id)} aria-label={`Edit ${p.name}`}>
+                    <Pencil aria-hidden className="size-4" /> Edit
+                  </Button>
+                  {p.archivedAt ? (
+                    <Button variant="secondary" onClick={() => setArchived(p, false)}>
+                      <ArchiveRestore aria-hidden className="size-4" /> Restore
+                    </Button>
+                  ) : (
+                    <Button variant="secondary" onClick={() => setConfirm(p.id)}>
+                      <Archive aria-hidden className="size-4" /> Archive
+                    </Button>
+                  )}
+                </div>
+              </div>
+            )}
+            {confirm === p.id ? (
+              <div role="alertdialog" aria-label={`Archive ${p.name}?`} className="mt-3 flex flex-wrap items-center gap-2 rounded-lg bg-danger-soft p-3 text-sm">
+                <span className="font-semibold">Archive {p.name}? It leaves the layer pickers; recorded layers keep its name.</span>
+                <Button variant="danger" onClick={() => setArchived(p, true)}>
+                  Archive
+                </Button>
+                <Button variant="secondary" onClick={() => setConfirm(null)}>
+                  Cancel
+                </Button>
+              </div>
+            ) : null}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}

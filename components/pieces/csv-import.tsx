@@ -1,0 +1,146 @@
+"use client";
+
+import { CircleAlert, CircleCheck, Upload } from "lucide-react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { toast } from "sonner";
+import { Button } from "@/components/ui/button";
+import { Notice } from "@/components/ui/notice";
+import type { ImportResult } from "@/lib/pieces/csv";
+
+async function send(csv: string, commit: boolean): Promise<ImportResult | { message: string }> {
+  const res = await fetch("/api/pieces/import", { method: "POST", headers: { "Content-Type": "application/json" }, body: JSON.stringify({ csv, commit }) }).catch(() => null);
+  if (!res) return { message: "We couldn't reach the server." };
+  const j = await res.json().catch(() => ({}));
+  if ("rows" in j) return j as ImportResult;
+  return { message: j?.error?.message ?? `The server answered ${res.status}.` };
+}
+
+/** Import of earlier deliveries: preview first, per-row errors, and nothing written unless every row is valid. */
+export function CsvImport({ columns }: { columns: readonly string[] }) {
+  const router = useRouter();
+  const [csv, setCsv] = useState<string | null>(null);
+  const [name, setName] = useState("");
+  const [result, setResult] = useState<ImportResult | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState<null | "checking" | "importing">(null);
+
+  const pick = async (f: File | undefined) => {
+    if (!f) return;
+    setName(f.name);
+    setResult(null);
+    setError(null);
+    const text = await f.text();
+    setCsv(text);
+    setBusy("checking");
+    const r = await send(text, false);
+    setBusy(null);
+    if ("message" in r) setError(r.message);
+    else setResult(r);
+  };
+  const commit = async () => {
+    if (!csv) return;
+    setBusy("importing");
+    const r = await send(csv, true);
+    setBusy(null);
+    if ("message" in r) return setError(r.message);
+    setResult(r);
+    if (r.committed) {
+      toast.success(`${r.created} piece${r.created === 1 ? "" : "s"} imported.`);
+      router.push("/studio/pieces?sort=created");
+    }
+  };
+
+  const byRow = new Map<number, ImportResult["errors"]>();
+  for (const e of result?.errors ?? []) byRow.set(e.row, [...(byRow.get(e.row) ?? []), e]);
+
+  return (
+    <div className="space-y-4">
+      <div className="rounded-xl border border-line bg-card p-5 text-sm">
+        <p>
+          One piece per row, with a header row. Columns: <span className="font-mono text-xs">{columns.join(", ")}</span>. Lengths in mm, area in m², volume in mL, dates YYYY-MM-DD. Species by name or alias (“walnut”). The finish stack: layers separated by “;”, each{" "}
+          <span className="font-mono text-xs">surface:class:coats:date[:product]</span>, e.g. <span className="font-mono text-xs">top:hardwax_oil:2:2024-05-01</span>. An export from the registry has the same columns.
+        </p>
+        <label className="mt-4 inline-flex min-h-11 cursor-pointer items-center gap-2 rounded-lg bg-resin px-4 font-semibold text-white hover:bg-resin-dark">
+          <Upload aria-hidden className="size-4" /> Choose a CSV file
+          <input type="file" accept=".csv,text/csv" className="sr-only" onChange={(e) => pick(e.target.files?.[0])} />
+        </label>
+        {name ? <span className="ml-3 text-muted">{name}</span> : null}
+      </div>
+      {busy ? (
+        <p role="status" className="text-sm text-muted">
+          {busy === "checking" ? "Checking every row…" : "Importing in one transaction…"}
+        </p>
+      ) : null}
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      {result ? (
+        result.ok ? (
+          <Notice tone="ok" title={`All ${result.rows.length} rows are valid`}>
+            Nothing is written until you import.
+          </Notice>
+        ) : (
+          <Notice tone="error" title={`${result.errors.length} problem${result.errors.length === 1 ? "" : "s"} found — nothing will be imported`}>
+            Fix the rows below in the spreadsheet and choose the file again; no piece is written unless the whole file is valid.
+            {result.errors.filter((e) => e.row <= 1 || !result.rows.some((r) => r.row === e.row)).map((e, i) => (
+              <p key={i}>
+                {e.row <= 1 ? "Header" : `Row ${e.row}`}, {e.field}: {e.message}
+              </p>
+            ))}
+          </Notice>
+        )
+      ) : null}
+      {result && result.rows.length ? (
+        <div className="overflow-x-auto rounded-xl border border-line bg-card">
+          <table className="w-full text-left text-sm">
+            <thead>
+              <tr className="border-b border-line [&>th]:px-3 [&>th]:py-2">
+                <th scope="col">Row</th>
+                <th scope="col">Check</th>
+                <th scope="col">Title</th>
+                <th scope="col">Kind</th>
+                <th scope="col">Species</th>
+                <th scope="col">Delivered</th>
+                <th scope="col">Layers</th>
+              </tr>
+            </thead>
+            <tbody>
+              {result.rows.map((r) => (
+                <tr key={r.row} className="border-b border-line align-top last:border-b-0 [&>td]:px-3 [&>td]:py-2">
+                  <td>{r.row}</td>
+                  <td>
+                    {r.ok ? (
+                      <span className="inline-flex items-center gap-1 text-ok">
+                        <CircleCheck aria-hidden className="size-4" /> Valid
+                      </span>
+                    ) : (
+                      <div className="space-y-1 text-danger">
+                        <span className="inline-flex items-center gap-1 font-semibold">
+                          <CircleAlert aria-hidden className="size-4" /> Problem
+                        </span>
+                        {byRow.get(r.row)?.map((e, i) => (
+                          <p key={i}>
+                            {e.field}: {e.message}
+                          </p>
+                        ))}
+                      </div>
+                    )}
+                  </td>
+                  <td>{r.title}</td>
+                  <td>{r.kind}</td>
+                  <td>{r.primarySpecies}</td>
+                  <td>{r.deliveredOn}</td>
+                  <td>{r.layers}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : null}
+      {result?.ok && !result.committed ? (
+        <Button onClick={commit} disabled={busy !== null}>
+          Import {result.rows.length} piece{result.rows.length === 1 ? "" : "s"}
+        </Button>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,138 @@
+"use client";
+
+import { Archive, FileDown, ImagePlus, KeyRound, Trash2 } from "lucide-react";
+import { useRouter } from "next/navigation";
+import { useRef, useState } from "react";
+import { toast } from "sonner";
+import { Button } from "@/components/ui/button";
+import { callApi } from "./api";
+
+function Confirm({ text, action, onYes, onNo, busy }: { text: string; action: string; onYes: () => void; onNo: () => void; busy: boolean }) {
+  return (
+    <div role="alertdialog" aria-label={text} className="space-y-2 rounded-lg border border-danger/30 bg-danger-soft p-3 text-sm">
+      <p className="font-semibold">{text}</p>
+      <div className="flex flex-wrap gap-2">
+        <Button variant="danger" disabled={busy} onClick={onYes}>
+          {action}
+        </Button>
+        <Button variant="secondary" onClick={onNo}>
+          Cancel
+        </Button>
+      </div>
+    </div>
+  );
+}
+
+/** Drawer card links, code reissue and delete/archive, each destructive one asked first. */
+export function PieceActions({ pieceId, registered, archived }: { pieceId: string; registered: boolean; archived: boolean }) {
+  const router = useRouter();
+  const [ask, setAsk] = useState<null | "reissue" | "delete">(null);
+  const [busy, setBusy] = useState(false);
+  const [code, setCode] = useState<string | null>(null);
+
+  const reissue = async () => {
+    setBusy(true);
+    const r = await callApi<{ registrationCode: string }>(`/api/pieces/${pieceId}/registration-code`, "POST");
+    setBusy(false);
+    setAsk(null);
+    if (!r.ok) return toast.error(r.message);
+    setCode(r.data.registrationCode);
+    toast.success("New registration code issued; the old one no longer works. Print a new drawer card.");
+    router.refresh();
+  };
+  const remove = async () => {
+    setBusy(true);
+    const r = await callApi<{ deleted: boolean; archived: boolean }>(`/api/pieces/${pieceId}`, "DELETE");
+    setBusy(false);
+    setAsk(null);
+    if (!r.ok) return toast.error(r.message);
+    toast.success(r.data.deleted ? "Piece record deleted." : "The piece is registered, so it was archived instead of deleted.");
+    if (r.data.deleted) router.push("/studio/pieces");
+    else router.refresh();
+  };
+  const unarchive = async () => {
+    const r = await callApi(`/api/pieces/${pieceId}`, "PATCH", { archived: false });
+    if (!r.ok) return toast.error(r.message);
+    toast.success("Piece taken out of the archive.");
+    router.refresh();
+  };
+
+  return (
+    <div className="space-y-3">
+      <div className="flex flex-wrap gap-2">
+        <a href={`/api/pieces/${pieceId}/card.pdf`} target="_blank" rel="noopener" className="inline-flex min-h-11 items-center gap-2 rounded-lg bg-resin px-4 text-sm font-semibold text-white hover:bg-resin-dark">
+          <FileDown aria-hidden className="size-4" /> Drawer card (4×6 in)
+        </a>
+        <a href={`/api/pieces/${pieceId}/card.pdf?size=a6`} target="_blank" rel="noopener" className="inline-flex min-h-11 items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
+          <FileDown aria-hidden className="size-4" /> A6
+        </a>
+        <Button variant="secondary" onClick={() => setAsk("reissue")}>
+          <KeyRound aria-hidden className="size-4" /> Reissue code
+        </Button>
+        {archived ? (
+          <Button variant="secondary" onClick={unarchive}>
+            <Archive aria-hidden className="size-4" /> Take out of archive
+          </Button>
+        ) : (
+          <Button variant="secondary" onClick={() => setAsk("delete")}>
+            {registered ? <Archive aria-hidden className="size-4" /> : <Trash2 aria-hidden className="size-4" />} {registered ? "Archive" : "Delete"}
+          </Button>
+        )}
+      </div>
+      {ask === "reissue" ? (
+        <Confirm text="Issue a new registration code? The code on the printed card stops working at once." action="Issue a new code" busy={busy} onYes={reissue} onNo={() => setAsk(null)} />
+      ) : null}
+      {ask === "delete" ? (
+        <Confirm
+          text={registered ? "This piece is registered to its owner, so it will be archived (kept, hidden from the registry)." : "Delete this piece record, its finish stack and photos? This cannot be undone."}
+          action={registered ? "Archive piece" : "Delete piece"}
+          busy={busy}
+          onYes={remove}
+          onNo={() => setAsk(null)}
+        />
+      ) : null}
+      {code ? (
+        <p className="rounded-lg border border-line bg-paper p-3 text-sm" role="status">
+          New registration code: <span className="font-mono text-base font-semibold">{code}</span>
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** Photos of the finished piece: uploaded to POST /api/pieces/[id]/photos, served by /api/files. */
+export function PhotoUploader({ pieceId }: { pieceId: string }) {
+  const router = useRouter();
+  const input = useRef<HTMLInputElement>(null);
+  const [progress, setProgress] = useState<string | null>(null);
+  const upload = async (list: FileList | null) => {
+    if (!list?.length) return;
+    const all = [...list];
+    for (const [i, file] of all.entries()) {
+      setProgress(`Uploading ${i + 1} of ${all.length}: ${file.name}…`);
+      const body = new FormData();
+      body.set("file", file);
+      const res = await fetch(`/api/pieces/${pieceId}/photos`, { method: "POST", body }).catch(() => null);
+      if (!res?.ok) {
+        const j = await res?.json().catch(() => null);
+        toast.error(`${file.name}: ${j?.error?.message ?? "the upload failed."}`);
+      } else toast.success(`${file.name} added.`);
+    }
+    setProgress(null);
+    if (input.current) input.current.value = "";
+    router.refresh();
+  };
+  return (
+    <div className="space-y-2">
+      <label className="inline-flex min-h-11 cursor-pointer items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
+        <ImagePlus aria-hidden className="size-4" /> Add photos
+        <input ref={input} type="file" accept="image/jpeg,image/png,image/webp" multiple className="sr-only" onChange={(e) => upload(e.target.files)} disabled={progress !== null} />
+      </label>
+      {progress ? (
+        <p role="status" className="text-sm text-muted">
+          {progress}
+        </p>
+      ) : null}
+    </div>
+  );
+}
