@@ -1,0 +1,55 @@
+import "server-only";
+// The e-mail templates rendered with their invented PreviewProps (each template's example values),
+// for the settings page. Rendering is the same @react-email/render call lib/mail makes for real mail.
+import { render } from "@react-email/render";
+import type { ComponentType } from "react";
+import CareReminder from "@/emails/care-reminder";
+import ClaimDecisionEmail from "@/emails/claim-decision";
+import ClaimMessageEmail from "@/emails/claim-message";
+import ClaimReceivedEmail from "@/emails/claim-received";
+import JobQuoteEmail from "@/emails/job-quote";
+import PasswordResetEmail from "@/emails/password-reset";
+import PaymentReceiptEmail from "@/emails/payment-receipt";
+import PieceReleasedEmail from "@/emails/piece-released";
+import RefundIssuedEmail from "@/emails/refund-issued";
+import StaffInvitationEmail from "@/emails/staff-invitation";
+import TransferCodeEmail from "@/emails/transfer-code";
+import VerifyEmail from "@/emails/verify-email";
+import type { StudioContext } from "@/lib/auth/guards";
+import { notFound } from "@/lib/errors";
+import { assertAdmin } from "./index";
+
+type Template = ComponentType<never> & { PreviewProps?: Record<string, unknown> };
+
+const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "anyone"; when: string; component: Template }[] = [
+  { slug: "care-reminder", name: "Care reminder", audience: "owner", when: "Before, on and after a care task's due date (with a refresh offer on refresh tasks).", component: CareReminder as Template },
+  { slug: "claim-received", name: "Claim received", audience: "anyone", when: "When an owner files a claim (to the owner and to the studio).", component: ClaimReceivedEmail as Template },
+  { slug: "claim-message", name: "Claim message", audience: "anyone", when: "When the studio or the owner writes on a claim.", component: ClaimMessageEmail as Template },
+  { slug: "claim-decision", name: "Claim decision", audience: "owner", when: "When staff accept or decline a claim.", component: ClaimDecisionEmail as Template },
+  { slug: "job-quote", name: "Repair quote", audience: "owner", when: "When staff send a repair job's quote.", component: JobQuoteEmail as Template },
+  { slug: "payment-receipt", name: "Payment receipt", audience: "owner", when: "When a repair is paid online.", component: PaymentReceiptEmail as Template },
+  { slug: "refund-issued", name: "Refund issued", audience: "owner", when: "When the studio refunds a payment.", component: RefundIssuedEmail as Template },
+  { slug: "transfer-code", name: "Transfer code", audience: "owner", when: "When an owner passes a piece on.", component: TransferCodeEmail as Template },
+  { slug: "piece-released", name: "Piece released", audience: "owner", when: "When a piece leaves an owner's account.", component: PieceReleasedEmail as Template },
+  { slug: "staff-invitation", name: "Team invitation", audience: "staff", when: "When an admin invites someone to the studio.", component: StaffInvitationEmail as Template },
+  { slug: "verify-email", name: "Verify e-mail", audience: "anyone", when: "After sign-up, to confirm the address.", component: VerifyEmail as Template },
+  { slug: "password-reset", name: "Password reset", audience: "anyone", when: "When someone asks to reset their password.", component: PasswordResetEmail as Template },
+];
+
+export type EmailTemplateInfo = { slug: string; name: string; audience: string; when: string };
+
+export function listEmailTemplates(ctx: StudioContext): EmailTemplateInfo[] {
+  assertAdmin(ctx);
+  return TEMPLATES.map(({ slug, name, audience, when }) => ({ slug, name, audience, when }));
+}
+
+/** One template rendered with its PreviewProps: the HTML part and the plain-text part. */
+export async function renderEmailPreview(ctx: StudioContext, slug: string): Promise<EmailTemplateInfo & { html: string; text: string }> {
+  assertAdmin(ctx);
+  const t = TEMPLATES.find((x) => x.slug === slug);
+  if (!t) throw notFound("No e-mail template by that name.");
+  const Component = t.component as ComponentType<Record<string, unknown>>;
+  const element = <Component {...(t.component.PreviewProps ?? {})} />;
+  const [html, text] = await Promise.all([render(element), render(element, { plainText: true })]);
+  return { slug: t.slug, name: t.name, audience: t.audience, when: t.when, html, text };
+}
