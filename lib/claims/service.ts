@@ -299,7 +299,7 @@ function staffView(claim: Claim) {
   void _e;
   return {
     view: "staff" as const,
-    claim: { ...claimCore(claim), suggestion: claim.suggestion },
+    claim: { ...claimCore(claim), suggestion: claim.suggestion, waitMs: (claim.firstAnsweredAt?.getTime() ?? Date.now()) - claim.createdAt.getTime() },
     owner,
     studio: { id: studio.id, name: studio.name, timeZone: studio.timeZone, unitSystem: studio.unitSystem },
     piece: pieceRecord,
@@ -451,4 +451,30 @@ export async function decideClaim(ctx: StudioContext, claimId: string, raw: unkn
   const owner = getDb().select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, claim.ownerId)).get()!;
   await mailClaimDecision({ claim: updated, piece, studio, owner });
   return claimCore(updated);
+}
+
+// ---------------------------------------------------------------- owner pages
+
+/** The owner's claims, and their pieces to report damage on. */
+export function ownerClaimsOverview(user: Pick<User, "id">) {
+  const myPieces = getDb()
+    .select({ id: pieces.id, title: pieces.title, studioName: studios.name })
+    .from(pieces)
+    .innerJoin(studios, eq(studios.id, pieces.studioId))
+    .where(and(eq(pieces.ownerId, user.id), isNull(pieces.archivedAt)))
+    .orderBy(asc(pieces.title))
+    .all();
+  return { claims: listOwnerClaims(user), pieces: myPieces };
+}
+
+/** What the claim form needs about one of the owner's pieces; someone else's piece is a 404. */
+export function claimFormContext(user: Pick<User, "id" | "unitSystem">, pieceId: string) {
+  const row = getDb()
+    .select({ id: pieces.id, title: pieces.title, deliveredOn: pieces.deliveredOn, studioName: studios.name, timeZone: studios.timeZone })
+    .from(pieces)
+    .innerJoin(studios, eq(studios.id, pieces.studioId))
+    .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, user.id), isNull(pieces.archivedAt)))
+    .get();
+  if (!row) throw notFound("No piece of yours with that id.");
+  return { piece: row, today: localDate(Date.now(), row.timeZone), unit: user.unitSystem === "imperial" ? ("F" as const) : ("C" as const) };
 }

@@ -1,0 +1,73 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { MessageThread } from "@/components/claims/message-thread";
+import { OwnerAddPhotos } from "@/components/claims/owner-add-photos";
+import { PhotoGallery } from "@/components/claims/photo-gallery";
+import { StateBadge } from "@/components/claims/state-badge";
+import { Card } from "@/components/ui/card";
+import { Notice } from "@/components/ui/notice";
+import { requireUser } from "@/lib/auth/guards";
+import { forPage } from "@/lib/auth/page";
+import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
+import { getOwnerClaim } from "@/lib/claims/service";
+import { MAX_CLAIM_PHOTOS, OPEN_STATES } from "@/lib/claims/states";
+
+export const metadata: Metadata = { title: "Claim" };
+export const dynamic = "force-dynamic";
+
+const DECISION_WORDS = {
+  covered: "The repair is covered by your warranty.",
+  partly_covered: "The warranty covers part of the repair; the studio will quote you the rest.",
+  chargeable: "The repair isn't covered, but the studio can do it as a paid repair and will send a quote.",
+  declined: "The studio declined this claim.",
+} as const;
+
+export default async function OwnerClaimPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const { claim, piece, studio, photos, messages } = await forPage(async () => getOwnerClaim(await requireUser(), id));
+  const open = OPEN_STATES.includes(claim.state);
+  return (
+    <div className="space-y-6">
+      <p className="text-sm">
+        <Link href="/claims" className="inline-flex min-h-11 items-center text-resin underline">
+          ← My claims
+        </Link>
+      </p>
+      <header className="space-y-2">
+        <h1 className="font-display text-3xl font-semibold tracking-tight">{piece.title}</h1>
+        <div className="flex flex-wrap items-center gap-2">
+          <StateBadge state={claim.state} audience="owner" />
+          <span className="text-sm text-muted">
+            {CLAIM_CATEGORY_LABELS[claim.category]} · filed {claim.createdAt.slice(0, 10)} with {studio.name}
+          </span>
+        </div>
+      </header>
+      {claim.state === "awaiting_owner" ? (
+        <Notice tone="warn" title="The studio needs your reply">
+          Read their question below and answer with a message — add photos if they asked for them.
+        </Notice>
+      ) : null}
+      {claim.decision ? (
+        <Card className="space-y-1" aria-label="Decision">
+          <p className="font-display text-xl font-semibold">{decisionText(claim.decision, claim.coveredPct)}</p>
+          <p>{DECISION_WORDS[claim.decision]}</p>
+          {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
+          <p className="text-sm text-muted">Decided {claim.decidedAt?.slice(0, 10)}</p>
+        </Card>
+      ) : null}
+      <section className="space-y-3" aria-labelledby="photos-heading">
+        <h2 id="photos-heading" className="font-display text-xl font-semibold">
+          Photos
+        </h2>
+        <PhotoGallery photos={photos} />
+        {open && photos.length < MAX_CLAIM_PHOTOS ? <OwnerAddPhotos claimId={claim.id} existing={photos.length} /> : null}
+      </section>
+      <Card className="space-y-1">
+        <h2 className="font-semibold">What you reported</h2>
+        <p className="text-sm text-muted">Noticed {claim.noticedOn}</p>
+        <p className="whitespace-pre-wrap">{claim.description}</p>
+      </Card>
+      <MessageThread claimId={claim.id} messages={messages} audience="owner" studioName={studio.name} canWrite={claim.state !== "closed"} />
+    </div>
+  );
+}

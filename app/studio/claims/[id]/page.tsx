@@ -1,0 +1,183 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { CoveragePanel } from "@/components/claims/coverage-panel";
+import { MessageThread } from "@/components/claims/message-thread";
+import { PhotoGallery } from "@/components/claims/photo-gallery";
+import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
+import { StateBadge } from "@/components/claims/state-badge";
+import { Card } from "@/components/ui/card";
+import { Notice } from "@/components/ui/notice";
+import { requireStaff } from "@/lib/auth/guards";
+import { forPage } from "@/lib/auth/page";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
+import { getSpecies } from "@/lib/care/species";
+import { CLAIM_CATEGORY_LABELS, decisionText, formatWait } from "@/lib/claims/labels";
+import { getStaffClaim } from "@/lib/claims/service";
+
+export const metadata: Metadata = { title: "Claim" };
+export const dynamic = "force-dynamic";
+
+const ANSWER_WORD = { yes: "Yes", no: "No", unsure: "Not sure" } as const;
+const QUESTION_WORD = { heat: "Heat nearby", chemicals: "Spills or chemicals", impact: "Knock or impact", usedOutdoors: "Used outdoors", directSun: "Direct sun" } as const;
+
+function size(p: { shapeKind: string; lengthMm: number | null; widthMm: number | null; diameterMm: number | null; measuredAreaM2: number | null; thicknessMm: number | null }) {
+  const t = p.thicknessMm ? ` × ${p.thicknessMm} mm thick` : "";
+  if (p.shapeKind === "round") return `round, Ø ${p.diameterMm} mm${t}`;
+  if (p.shapeKind === "measured") return `measured top, ${p.measuredAreaM2} m²${t}`;
+  return `${p.shapeKind}, ${p.lengthMm} × ${p.widthMm} mm${t}`;
+}
+
+export default async function StudioClaimPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const v = await forPage(async () => getStaffClaim(await requireStaff(), id));
+  const { claim, piece, owner, coverage } = v;
+  const a = claim.answers;
+  const room = a.room;
+  const waited = claim.waitMs;
+  return (
+    <div className="space-y-6">
+      <p className="text-sm">
+        <Link href="/studio/claims" className="inline-flex min-h-11 items-center text-resin underline">
+          ← Claims
+        </Link>
+      </p>
+      <header className="flex flex-wrap items-start justify-between gap-3">
+        <div className="space-y-2">
+          <h1 className="font-display text-3xl font-semibold tracking-tight">
+            {CLAIM_CATEGORY_LABELS[claim.category]} · {piece.title}
+          </h1>
+          <p className="text-sm text-muted">
+            {owner.name} ({owner.email}) · filed {new Date(claim.createdAt).toLocaleString("en-US", { timeZone: v.studio.timeZone })} ·{" "}
+            {claim.firstAnsweredAt ? `first answer after ${formatWait(waited)}` : `waiting ${formatWait(waited)} for a first answer`}
+          </p>
+        </div>
+        <StateBadge state={claim.state} audience="staff" />
+      </header>
+
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <div className="space-y-6">
+          <section className="space-y-3" aria-labelledby="photos-heading">
+            <h2 id="photos-heading" className="font-display text-xl font-semibold">
+              Photos ({v.photos.length})
+            </h2>
+            <PhotoGallery photos={v.photos} />
+          </section>
+          <Card className="space-y-3">
+            <h2 className="font-semibold">The owner&apos;s report</h2>
+            <p className="text-sm text-muted">Noticed {claim.noticedOn}</p>
+            <p className="whitespace-pre-wrap">{claim.description}</p>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+              {(Object.keys(QUESTION_WORD) as (keyof typeof QUESTION_WORD)[]).map((k) => (
+                <div key={k} className="contents">
+                  <dt className="text-muted">{QUESTION_WORD[k]}</dt>
+                  <dd>{ANSWER_WORD[a[k]]}</dd>
+                </div>
+              ))}
+              <dt className="text-muted">Room</dt>
+              <dd>
+                {room && room.driestRh != null
+                  ? `driest ${room.driestTemp} °${room.unit} / ${room.driestRh} % RH, dampest ${room.dampestTemp} °${room.unit} / ${room.dampestRh} % RH${room.dailySwingPct != null ? `, up to ${room.dailySwingPct} % RH in a day` : ""}`
+                  : "not known"}
+              </dd>
+            </dl>
+          </Card>
+          <MessageThread claimId={claim.id} messages={v.messages} audience="staff" studioName={v.studio.name} canWrite={claim.state !== "closed"} canAskForInfo={claim.state === "in_review"} />
+        </div>
+
+        <div className="space-y-6">
+          <Card className="space-y-3" aria-labelledby="decide-heading">
+            <h2 id="decide-heading" className="font-display text-xl font-semibold">
+              {claim.decision ? "Decision" : "Next step"}
+            </h2>
+            {claim.decision ? (
+              <div className="space-y-1">
+                <p className="text-lg font-semibold">{decisionText(claim.decision, claim.coveredPct)}</p>
+                {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
+                <p className="text-sm text-muted">
+                  Decided {claim.decidedAt?.slice(0, 10)}; the check suggested {String((claim.suggestion as { suggestion?: string } | null)?.suggestion ?? "—").replace("_", " ")}.
+                </p>
+              </div>
+            ) : null}
+            {claim.state === "submitted" ? <p className="text-sm text-muted">Start the review to message the owner with questions or to decide.</p> : null}
+            {claim.state === "awaiting_owner" ? <p className="text-sm text-muted">Waiting for the owner&apos;s reply; their reply puts the claim back in review.</p> : null}
+            <ReviewButton claimId={claim.id} state={claim.state} version={claim.version} />
+            {claim.state === "in_review" ? (
+              <DecisionForm claimId={claim.id} version={claim.version} suggestion={coverage.check?.suggestion ?? null} suggestedPct={coverage.check?.suggestedCoveredPct ?? null} />
+            ) : null}
+          </Card>
+          <CoveragePanel coverage={coverage} />
+          <Card className="space-y-2">
+            <h2 className="font-display text-xl font-semibold">Piece record</h2>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+              <dt className="text-muted">Kind</dt>
+              <dd>{PIECE_KIND_LABELS[piece.kind]}</dd>
+              <dt className="text-muted">Size</dt>
+              <dd>{size(piece)}</dd>
+              <dt className="text-muted">Species</dt>
+              <dd>
+                {getSpecies(piece.primarySpeciesId)?.commonName ?? piece.primarySpeciesId}
+                {piece.secondarySpeciesId ? ` with ${getSpecies(piece.secondarySpeciesId)?.commonName ?? piece.secondarySpeciesId}` : ""}
+              </dd>
+              <dt className="text-muted">Resin</dt>
+              <dd>
+                {RESIN_LABELS[piece.resinKind]}
+                {piece.resinTint ? `, ${piece.resinTint}` : ""}
+                {piece.resinPouredOn ? `, poured ${piece.resinPouredOn}` : ""}
+              </dd>
+              <dt className="text-muted">Use</dt>
+              <dd>
+                {USE_LABELS[piece.use]} · {SUN_LABELS[piece.sun]}
+              </dd>
+              <dt className="text-muted">Delivered</dt>
+              <dd>{piece.deliveredOn}</dd>
+              {piece.internalNotes ? (
+                <>
+                  <dt className="text-muted">Notes</dt>
+                  <dd>{piece.internalNotes}</dd>
+                </>
+              ) : null}
+            </dl>
+            <Link href={`/studio/pieces/${piece.id}`} className="inline-flex min-h-11 items-center text-sm text-resin underline">
+              Open the piece record
+            </Link>
+          </Card>
+          <Card className="space-y-2">
+            <h2 className="font-display text-xl font-semibold">Finish stack</h2>
+            {v.layers.length === 0 ? (
+              <p className="text-sm text-muted">No finish layers recorded.</p>
+            ) : (
+              <ol className="space-y-1">
+                {[...v.layers].reverse().map((l) => (
+                  <li key={l.id} className="rounded-md border border-line bg-paper px-3 py-2 text-sm">
+                    <span className="font-medium">{FINISH_CLASS_LABELS[l.finishClass]}</span> · {l.surface} · {l.coats} coat{l.coats === 1 ? "" : "s"} · {l.appliedOn}
+                    {l.productLabel ? <span className="block text-muted">{l.productLabel}{l.batchLot ? `, lot ${l.batchLot}` : ""}</span> : null}
+                  </li>
+                ))}
+              </ol>
+            )}
+          </Card>
+          <Card className="space-y-2">
+            <h2 className="font-display text-xl font-semibold">Care log</h2>
+            {v.careLog.length === 0 ? (
+              <p className="text-sm text-muted">Nothing logged.</p>
+            ) : (
+              <ul className="space-y-1 text-sm">
+                {v.careLog.map((e) => (
+                  <li key={e.id}>
+                    {e.doneOn} · {CARE_TASK_LABELS[e.taskKind]}
+                    {e.surface ? ` (${e.surface})` : ""} · by {e.source}
+                    {e.productUsed ? ` · ${e.productUsed}` : ""}
+                  </li>
+                ))}
+              </ul>
+            )}
+          </Card>
+          <Notice tone="info" title="Before any repair">
+            Follow the finish manufacturers&apos; instructions and local codes; anything electrical in a piece (lights, motorised frames) is for a licensed
+            electrician. Heavy tops need two people to lift.
+          </Notice>
+        </div>
+      </div>
+    </div>
+  );
+}

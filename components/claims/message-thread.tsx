@@ -1,0 +1,95 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { toast } from "sonner";
+import type { z } from "zod";
+import { Button } from "@/components/ui/button";
+import { cn } from "@/components/ui/cn";
+import { claimMessageSchema } from "@/lib/validation/claims";
+import { ApiError, apiJson } from "./api";
+
+export type ThreadMessage = { id: string; body: string; fromStudio: boolean; createdAt: string; authorName: string };
+
+/** The claim's messages as a thread; each new message is e-mailed to the other side. */
+export function MessageThread({
+  claimId,
+  messages,
+  audience,
+  studioName,
+  canWrite,
+  canAskForInfo,
+}: {
+  claimId: string;
+  messages: ThreadMessage[];
+  audience: "owner" | "staff";
+  studioName: string;
+  canWrite: boolean;
+  canAskForInfo?: boolean;
+}) {
+  const router = useRouter();
+  const [askForInfo, setAskForInfo] = useState(false);
+  const form = useForm<z.input<typeof claimMessageSchema>>({ resolver: zodResolver(claimMessageSchema), defaultValues: { body: "" } });
+  const onSubmit = form.handleSubmit(async (values) => {
+    try {
+      await apiJson(`/api/claims/${claimId}/messages`, { method: "POST", body: JSON.stringify({ body: values.body, ...(askForInfo ? { requestInfo: true } : {}) }) });
+      form.reset({ body: "" });
+      setAskForInfo(false);
+      toast.success(askForInfo ? "Asked the owner; the claim now waits on their reply." : audience === "staff" ? "Message sent to the owner." : `Message sent to ${studioName}.`);
+      router.refresh();
+    } catch (e) {
+      form.setError("body", { type: "server", message: e instanceof ApiError ? e.message : "The message wasn't sent. Try again." });
+    }
+  });
+  const mine = (m: ThreadMessage) => (audience === "staff" ? m.fromStudio : !m.fromStudio);
+  return (
+    <section aria-labelledby="thread-heading" className="space-y-3">
+      <h2 id="thread-heading" className="font-display text-xl font-semibold">
+        Messages
+      </h2>
+      {messages.length === 0 ? <p className="text-sm text-muted">No messages yet.</p> : null}
+      <ol className="space-y-2">
+        {messages.map((m) => (
+          <li key={m.id} className={cn("max-w-[90%] rounded-xl border p-3", mine(m) ? "ml-auto border-resin/30 bg-resin-soft" : "border-line bg-card")}>
+            <p className="text-xs text-muted">
+              {m.fromStudio ? `${m.authorName} · ${studioName}` : `${m.authorName} · owner`} · {new Date(m.createdAt).toLocaleString()}
+            </p>
+            <p className="mt-1 whitespace-pre-wrap break-words">{m.body}</p>
+          </li>
+        ))}
+      </ol>
+      {canWrite ? (
+        <form onSubmit={onSubmit} noValidate className="space-y-2">
+          <label htmlFor="message-body" className="block text-sm font-medium">
+            {audience === "staff" ? "Message to the owner" : `Message to ${studioName}`}
+          </label>
+          <textarea
+            id="message-body"
+            rows={3}
+            aria-invalid={form.formState.errors.body ? true : undefined}
+            className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
+            {...form.register("body")}
+          />
+          {form.formState.errors.body ? (
+            <p role="alert" className="text-sm font-medium text-danger">
+              {form.formState.errors.body.message}
+            </p>
+          ) : null}
+          <div className="flex flex-wrap items-center gap-3">
+            {canAskForInfo ? (
+              <label className="flex min-h-11 items-center gap-2 text-sm">
+                <input type="checkbox" className="size-5" checked={askForInfo} onChange={(e) => setAskForInfo(e.target.checked)} />
+                Ask for more information (waits on the owner)
+              </label>
+            ) : null}
+            <Button type="submit" disabled={form.formState.isSubmitting}>
+              {form.formState.isSubmitting ? "Sending…" : askForInfo ? "Ask the owner" : "Send message"}
+            </Button>
+          </div>
+        </form>
+      ) : null}
+    </section>
+  );
+}

@@ -1,0 +1,126 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { Gavel, ScanSearch } from "lucide-react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm, useWatch, type FieldPath, type Resolver } from "react-hook-form";
+import { toast } from "sonner";
+import type { z } from "zod";
+import { Button } from "@/components/ui/button";
+import { TextField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import { CLAIM_DECISION_LABELS } from "@/lib/claims/labels";
+import type { ClaimState } from "@/lib/claims/states";
+import { claimDecisionSchema } from "@/lib/validation/claims";
+import { ApiError, apiJson } from "./api";
+
+type Values = z.input<typeof claimDecisionSchema>;
+const DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
+
+/** Start or resume the review of a claim (not a decision). */
+export function ReviewButton({ claimId, state, version }: { claimId: string; state: ClaimState; version: number }) {
+  const router = useRouter();
+  const [busy, setBusy] = useState(false);
+  if (state !== "submitted" && state !== "awaiting_owner") return null;
+  return (
+    <Button
+      disabled={busy}
+      onClick={async () => {
+        setBusy(true);
+        try {
+          await apiJson(`/api/claims/${claimId}/state`, { method: "POST", body: JSON.stringify({ to: "in_review", expectedVersion: version }) });
+          toast.success(state === "submitted" ? "Review started." : "Back in review.");
+          router.refresh();
+        } catch (e) {
+          toast.error(e instanceof Error ? e.message : "That didn't work.");
+        } finally {
+          setBusy(false);
+        }
+      }}
+    >
+      <ScanSearch aria-hidden className="size-5" /> {state === "submitted" ? "Start review" : "Resume review without waiting"}
+    </Button>
+  );
+}
+
+/** The decision: covered, partly covered (a share), chargeable, or declined with a reason the owner sees. */
+export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { claimId: string; version: number; suggestion: string | null; suggestedPct: number | null }) {
+  const router = useRouter();
+  const [formError, setFormError] = useState<string | null>(null);
+  const defaultDecision = suggestion === "covered" ? "covered" : suggestion === "partly_covered" ? "partly_covered" : undefined;
+  const form = useForm<Values, unknown, z.output<typeof claimDecisionSchema>>({
+    resolver: zodResolver(claimDecisionSchema) as unknown as Resolver<Values, unknown, z.output<typeof claimDecisionSchema>>,
+    defaultValues: { decision: defaultDecision, coveredPct: suggestion === "partly_covered" ? suggestedPct : null, reason: "", expectedVersion: version },
+  });
+  const decision = useWatch({ control: form.control, name: "decision" });
+  const errors = form.formState.errors;
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    const label = CLAIM_DECISION_LABELS[values.decision];
+    if (!window.confirm(`Decide this claim as “${label}”? The owner is e-mailed and the decision can't be changed here.`)) return;
+    try {
+      await apiJson(`/api/claims/${claimId}/decision`, { method: "POST", body: JSON.stringify({ ...values, expectedVersion: version }) });
+      toast.success(`Decided: ${label}. The owner has been e-mailed.`);
+      router.refresh();
+    } catch (e) {
+      if (e instanceof ApiError) {
+        setFormError(e.message);
+        for (const [f, m] of Object.entries(e.fieldErrors)) if (m[0]) form.setError(f as FieldPath<Values>, { type: "server", message: m[0] });
+      } else setFormError("The decision wasn't saved. Try again.");
+    }
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-4">
+      {formError ? <Notice tone="error" title="Not decided">{formError}</Notice> : null}
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-medium">Decision</legend>
+        <div className="grid grid-cols-2 gap-2">
+          {DECISIONS.map((d) => (
+            <label key={d} className="flex min-h-11 cursor-pointer items-center gap-2 rounded-lg border border-line bg-white px-3 text-sm has-[:checked]:border-resin has-[:checked]:bg-resin-soft has-[:checked]:font-semibold">
+              <input type="radio" value={d} className="size-4" {...form.register("decision")} />
+              {CLAIM_DECISION_LABELS[d]}
+            </label>
+          ))}
+        </div>
+        {errors.decision ? (
+          <p role="alert" className="text-sm font-medium text-danger">
+            {errors.decision.message}
+          </p>
+        ) : null}
+      </fieldset>
+      {decision === "partly_covered" ? (
+        <TextField
+          label="Covered share, %"
+          type="number"
+          inputMode="numeric"
+          min={1}
+          max={99}
+          error={errors.coveredPct?.message}
+          {...form.register("coveredPct", { setValueAs: (v) => (v === "" || v == null ? null : Number(v)) })}
+        />
+      ) : null}
+      <div className="space-y-1.5">
+        <label htmlFor="decision-reason" className="block text-sm font-medium">
+          {decision === "declined" ? "Reason (the owner sees this)" : "Note to the owner (they see this)"}
+        </label>
+        <textarea
+          id="decision-reason"
+          rows={3}
+          aria-invalid={errors.reason ? true : undefined}
+          className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
+          {...form.register("reason")}
+        />
+        {errors.reason ? (
+          <p role="alert" className="text-sm font-medium text-danger">
+            {errors.reason.message}
+          </p>
+        ) : null}
+      </div>
+      <Button type="submit" disabled={form.formState.isSubmitting}>
+        <Gavel aria-hidden className="size-5" /> {form.formState.isSubmitting ? "Saving…" : "Record the decision"}
+      </Button>
+      <p className="text-xs text-muted">The coverage check&apos;s suggestion is recorded beside your decision.</p>
+    </form>
+  );
+}
