@@ -1,0 +1,69 @@
+import { EmailLayout, Note, Paragraph } from "./components/layout";
+import { ActionButton, LinkFallback } from "./components/button";
+
+export type VisitInviteEmailProps = {
+  kind: "booked" | "moved" | "cancelled";
+  ownerName: string;
+  studioName: string;
+  pieceTitle: string;
+  jobTitle: string;
+  /** e.g. "Tuesday 8 December 2026, 09:00–10:30" in the studio's time zone */
+  when: string;
+  /** The time before a move, for "moved". */
+  previousWhen?: string;
+  timeZone: string;
+  location: string;
+  technicianName: string;
+  reason?: string;
+  url: string;
+};
+
+const HEADINGS = { booked: "Your visit is booked", moved: "Your visit has moved", cancelled: "Your visit is cancelled" } as const;
+
+export function VisitInviteEmail(p: VisitInviteEmailProps) {
+  return (
+    <EmailLayout preview={`${HEADINGS[p.kind]}: ${p.when}`} heading={HEADINGS[p.kind]}>
+      <Paragraph>Hi {p.ownerName},</Paragraph>
+      {p.kind === "cancelled" ? (
+        <Paragraph>
+          The visit for <strong>{p.jobTitle}</strong> on {p.pieceTitle}, planned for {p.when} ({p.timeZone}), is cancelled.
+          {p.reason ? ` Reason: ${p.reason}` : ""} You can book another time from your job page.
+        </Paragraph>
+      ) : (
+        <>
+          <Paragraph>
+            {p.kind === "moved" ? "The new time" : "The time"} for <strong>{p.jobTitle}</strong> on {p.pieceTitle}:
+          </Paragraph>
+          <Paragraph>
+            <strong>{p.when}</strong> ({p.timeZone})
+            {p.previousWhen ? <><br />instead of {p.previousWhen}</> : null}
+            <br />
+            At: {p.location}
+            <br />
+            Technician: {p.technicianName}
+          </Paragraph>
+          <Paragraph>The attached calendar file adds the visit to your calendar{p.kind === "moved" ? " and replaces the earlier time" : ""}.</Paragraph>
+          <Note>Please clear the top before the visit and keep pets and children away from fresh finish for the day. Lifting a heavy top takes two people; the technician will ask for help rather than lift it alone.</Note>
+        </>
+      )}
+      <ActionButton href={p.url}>{p.kind === "cancelled" ? "Book another time" : "See or change the visit"}</ActionButton>
+      <LinkFallback href={p.url} />
+      <Note>Sent by {p.studioName} through Grainward.</Note>
+    </EmailLayout>
+  );
+}
+
+VisitInviteEmail.PreviewProps = {
+  kind: "booked",
+  ownerName: "The Holloway household",
+  studioName: "Larchmere Slab & Resin (invented)",
+  pieceTitle: "Walnut river dining table",
+  jobTitle: "Topcoat refresh, dining table",
+  when: "Tuesday 8 December 2026, 09:00–10:30",
+  timeZone: "America/Los_Angeles",
+  location: "14 Quarry Lane, Port Alder",
+  technicianName: "Ines Varga",
+  url: "http://localhost:3000/jobs/example",
+} satisfies VisitInviteEmailProps;
+
+export default VisitInviteEmail;

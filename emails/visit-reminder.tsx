@@ -1,0 +1,47 @@
+import { EmailLayout, Note, Paragraph } from "./components/layout";
+import { ActionButton, LinkFallback } from "./components/button";
+
+export type VisitReminderEmailProps = {
+  ownerName: string;
+  studioName: string;
+  pieceTitle: string;
+  jobTitle: string;
+  when: string;
+  timeZone: string;
+  location: string;
+  technicianName: string;
+  url: string;
+};
+
+export function VisitReminderEmail(p: VisitReminderEmailProps) {
+  return (
+    <EmailLayout preview={`Tomorrow: ${p.when}`} heading="Your visit is tomorrow">
+      <Paragraph>Hi {p.ownerName},</Paragraph>
+      <Paragraph>
+        A reminder: {p.technicianName} from {p.studioName} comes for <strong>{p.jobTitle}</strong> on {p.pieceTitle}.
+      </Paragraph>
+      <Paragraph>
+        <strong>{p.when}</strong> ({p.timeZone})
+        <br />
+        At: {p.location}
+      </Paragraph>
+      <Note>Please clear the top and make room around the piece. Finishing needs fresh air: we will ask to open a window.</Note>
+      <ActionButton href={p.url}>See the visit</ActionButton>
+      <LinkFallback href={p.url} />
+    </EmailLayout>
+  );
+}
+
+VisitReminderEmail.PreviewProps = {
+  ownerName: "Jonah Reyes",
+  studioName: "Larchmere Slab & Resin (invented)",
+  pieceTitle: "Walnut and maple resin coffee table",
+  jobTitle: "Polish the resin river",
+  when: "Wednesday 9 December 2026, 13:00–14:30",
+  timeZone: "America/Los_Angeles",
+  location: "3 Ferry Row, Port Alder",
+  technicianName: "Sol Amberly",
+  url: "http://localhost:3000/jobs/example",
+} satisfies VisitReminderEmailProps;
+
+export default VisitReminderEmail;

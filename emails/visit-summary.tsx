@@ -1,0 +1,79 @@
+import { EmailLayout, Note, Paragraph } from "./components/layout";
+import { ActionButton, LinkFallback } from "./components/button";
+
+export type VisitSummaryEmailProps = {
+  ownerName: string;
+  studioName: string;
+  pieceTitle: string;
+  jobTitle: string;
+  when: string;
+  technicianName: string;
+  work: string;
+  layers: string[];
+  signOffName: string;
+  photoCount: number;
+  nextCare: { label: string; dueOn: string }[];
+  /** Oily-rag caution when the visit used an oil finish. */
+  cautions: string[];
+  url: string;
+};
+
+export function VisitSummaryEmail(p: VisitSummaryEmailProps) {
+  return (
+    <EmailLayout preview={`Visit report: ${p.pieceTitle}`} heading="Your visit report">
+      <Paragraph>Hi {p.ownerName},</Paragraph>
+      <Paragraph>
+        {p.technicianName} finished <strong>{p.jobTitle}</strong> on {p.pieceTitle} ({p.when}). Signed off by {p.signOffName}.
+      </Paragraph>
+      <Paragraph>
+        <strong>What was done</strong>
+        <br />
+        {p.work}
+      </Paragraph>
+      {p.layers.length ? (
+        <Paragraph>
+          <strong>New finish layers</strong>
+          {p.layers.map((l) => (
+            <span key={l}>
+              <br />• {l}
+            </span>
+          ))}
+        </Paragraph>
+      ) : null}
+      {p.photoCount ? <Paragraph>{p.photoCount} photo{p.photoCount === 1 ? "" : "s"} are on the piece&apos;s record.</Paragraph> : null}
+      {p.nextCare.length ? (
+        <Paragraph>
+          <strong>Next care</strong>
+          {p.nextCare.map((t) => (
+            <span key={t.label}>
+              <br />• {t.label}: {t.dueOn}
+            </span>
+          ))}
+        </Paragraph>
+      ) : null}
+      {p.cautions.map((c) => (
+        <Note key={c}>{c}</Note>
+      ))}
+      <ActionButton href={p.url}>Open the piece&apos;s care record</ActionButton>
+      <LinkFallback href={p.url} />
+    </EmailLayout>
+  );
+}
+
+VisitSummaryEmail.PreviewProps = {
+  ownerName: "The Holloway household",
+  studioName: "Larchmere Slab & Resin (invented)",
+  pieceTitle: "Walnut river dining table",
+  jobTitle: "Topcoat refresh, dining table",
+  when: "Tuesday 8 December 2026, 09:00–10:30",
+  technicianName: "Ines Varga",
+  work: "Cleaned, keyed the topcoat, one fresh coat of ceramic-type topcoat.",
+  layers: ["Top: Ceramic-type topcoat over oil — Ceramic-type topcoat, matte, 1 coat, 2026-12-08"],
+  signOffName: "R. Holloway",
+  photoCount: 2,
+  nextCare: [{ label: "Topcoat refresh (top)", dueOn: "2027-12-08" }],
+  cautions: [],
+  url: "http://localhost:3000/pieces/example",
+} satisfies VisitSummaryEmailProps;
+
+export default VisitSummaryEmail;

@@ -1,0 +1,15 @@
+import "server-only";
+import { requireStudioRole, requireUser, studioMemberships } from "@/lib/auth/guards";
+import type { VisitActor } from "./service";
+
+/**
+ * Staff (admin/staff) act on the studio's visits, technicians on their own, everyone else on the
+ * visits of their own jobs. A person with a studio membership acts in that role.
+ */
+export async function requireVisitActor(): Promise<VisitActor> {
+  const user = await requireUser();
+  const rows = await studioMemberships(user.id);
+  if (rows.length === 0) return { kind: "owner", user };
+  const ctx = await requireStudioRole(["admin", "staff", "technician"]);
+  return ctx.role === "technician" ? { kind: "technician", ctx } : { kind: "staff", ctx };
+}

@@ -1,0 +1,137 @@
+// Free visit time, from the studio's rules, a technician's weekly hours and time off, and the visits
+// already booked. The slot arithmetic itself is lib/care's availableSlots (DST-correct); this module
+// only loads its inputs. No server-only import: the booking core runs in the scheduler and in the
+// concurrency test's processes too.
+import { and, asc, eq, gt, lt, ne } from "drizzle-orm";
+import type { Db } from "@/db/client";
+import { memberships, technicianHours, technicianTimeOff, users, visitRules, visits, type Piece, type RepairJob, type Studio, type VisitRulesRow } from "@/db/schema";
+import { topArea } from "@/lib/care/area";
+import { addDays, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
+import { taskDurationMinutes, type QuotedTask } from "@/lib/care/quote";
+import { availableSlots, type BusyInterval, type Slot } from "@/lib/care/slots";
+import { topShape } from "@/lib/pieces/care-inputs";
+import type { DbOrTx } from "@/lib/pieces/search-index";
+
+export type { Db };
+
+/** Defaults when a studio has not set its own (issue #9: 48 h lead time; the rest our choice). */
+export const DEFAULT_VISIT_RULES: Omit<VisitRulesRow, "studioId"> = {
+  travelBufferMin: 30,
+  leadTimeHours: 48,
+  slotStepMin: 30,
+  ownerChangeCutoffHours: 24,
+};
+
+export function visitRulesFor(db: DbOrTx, studioId: string): Omit<VisitRulesRow, "studioId"> {
+  const row = db.select().from(visitRules).where(eq(visitRules.studioId, studioId)).get();
+  return row ?? DEFAULT_VISIT_RULES;
+}
+
+/** The studio's technicians (membership role "technician"), by name. */
+export function studioTechnicians(db: DbOrTx, studioId: string): { id: string; name: string; email: string }[] {
+  return db
+    .select({ id: users.id, name: users.name, email: users.email })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.studioId, studioId), eq(memberships.role, "technician")))
+    .orderBy(asc(users.name))
+    .all();
+}
+
+export function isStudioTechnician(db: DbOrTx, studioId: string, userId: string): boolean {
+  return !!db
+    .select({ id: memberships.id })
+    .from(memberships)
+    .where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId), eq(memberships.role, "technician")))
+    .get();
+}
+
+export function weeklyHours(db: DbOrTx, studioId: string, technicianId: string) {
+  return db
+    .select({ weekday: technicianHours.weekday, start: technicianHours.start, end: technicianHours.end })
+    .from(technicianHours)
+    .where(and(eq(technicianHours.studioId, studioId), eq(technicianHours.userId, technicianId)))
+    .orderBy(asc(technicianHours.weekday), asc(technicianHours.start))
+    .all();
+}
+
+export function timeOffRows(db: DbOrTx, studioId: string, technicianId: string) {
+  return db
+    .select()
+    .from(technicianTimeOff)
+    .where(and(eq(technicianTimeOff.studioId, studioId), eq(technicianTimeOff.userId, technicianId)))
+    .orderBy(asc(technicianTimeOff.date))
+    .all();
+}
+
+/** A day off (or part of one) as an interval of instants in the studio's time zone. */
+export function timeOffInterval(t: { date: string; start: string | null; end: string | null }, timeZone: string): { start: number; end: number } {
+  if (t.start == null || t.end == null) {
+    return { start: zonedTimeToEpochMs(t.date, 0, timeZone), end: zonedTimeToEpochMs(addDays(t.date, 1), 0, timeZone) };
+  }
+  return { start: zonedTimeToEpochMs(t.date, parseHhMm(t.start), timeZone), end: zonedTimeToEpochMs(t.date, parseHhMm(t.end), timeZone) };
+}
+
+/** Booked visits of a technician touching [fromMs, toMs], and their time off, as busy intervals. */
+export function busyIntervals(db: DbOrTx, studio: Pick<Studio, "id" | "timeZone">, technicianId: string, fromMs: number, toMs: number, excludeVisitId?: string): BusyInterval[] {
+  const day = 86_400_000;
+  const booked = db
+    .select({ start: visits.startAt, end: visits.endAt })
+    .from(visits)
+    .where(
+      and(
+        eq(visits.studioId, studio.id),
+        eq(visits.technicianId, technicianId),
+        eq(visits.state, "booked"),
+        lt(visits.startAt, new Date(toMs + day)),
+        gt(visits.endAt, new Date(fromMs - day)),
+        excludeVisitId ? ne(visits.id, excludeVisitId) : undefined,
+      ),
+    )
+    .all()
+    .map((v) => ({ start: v.start.getTime(), end: v.end.getTime() }));
+  const off = timeOffRows(db, studio.id, technicianId).map((t) => timeOffInterval(t, studio.timeZone));
+  return [...booked, ...off.filter((o) => o.end > fromMs - day && o.start < toMs + day)];
+}
+
+/** Minutes on site for a job: the quote's tasks on the piece's top (lib/care taskDurationMinutes). */
+export function jobDurationMin(job: Pick<RepairJob, "quoteInput">, piece: Piece): number {
+  const tasks = (Array.isArray(job.quoteInput.tasks) ? job.quoteInput.tasks : []) as QuotedTask[];
+  const shape = topShape(piece);
+  const areaM2 = shape ? topArea(shape).m2 : 0;
+  const minutes = tasks.length ? taskDurationMinutes(tasks, areaM2) : 60;
+  return Math.max(30, minutes);
+}
+
+export type TechnicianSlot = Slot & { technicianId: string };
+
+/** Free slots of one technician for a visit of `durationMin`. */
+export function technicianSlots(
+  db: DbOrTx,
+  args: {
+    studio: Pick<Studio, "id" | "timeZone">;
+    technicianId: string;
+    durationMin: number;
+    fromMs: number;
+    toMs: number;
+    leadTimeHours: number;
+    rules: Omit<VisitRulesRow, "studioId">;
+    excludeVisitId?: string;
+    now: number;
+  },
+): TechnicianSlot[] {
+  const hours = weeklyHours(db, args.studio.id, args.technicianId);
+  if (hours.length === 0) return [];
+  return availableSlots({
+    workingHours: hours,
+    timeZone: args.studio.timeZone,
+    existing: busyIntervals(db, args.studio, args.technicianId, args.fromMs, args.toMs, args.excludeVisitId),
+    durationMin: args.durationMin,
+    bufferMin: args.rules.travelBufferMin,
+    leadTimeHours: args.leadTimeHours,
+    from: args.fromMs,
+    to: args.toMs,
+    stepMin: args.rules.slotStepMin,
+    now: args.now,
+  }).map((s) => ({ ...s, technicianId: args.technicianId }));
+}

@@ -1,0 +1,107 @@
+// Visit mail: the confirmation, change and cancellation invites (each with its .ics), the 24 h
+// reminder and the report summary. No server-only import: the scheduler sends reminders with it.
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { pieces, repairJobs, studios, users, visits, type Visit } from "@/db/schema";
+import { VisitInviteEmail } from "@/emails/visit-invite";
+import { VisitReminderEmail } from "@/emails/visit-reminder";
+import { VisitSummaryEmail, type VisitSummaryEmailProps } from "@/emails/visit-summary";
+import { env } from "@/lib/env";
+import { sendMail } from "@/lib/mail";
+import { buildInvite, inviteAttachment } from "./ics";
+import { formatVisitWhen } from "./format";
+
+export function loadVisitMailView(visitId: string) {
+  const db = getDb();
+  const visit = db.select().from(visits).where(eq(visits.id, visitId)).get();
+  if (!visit) return null;
+  const job = db.select().from(repairJobs).where(eq(repairJobs.id, visit.jobId)).get()!;
+  const piece = db.select().from(pieces).where(eq(pieces.id, visit.pieceId)).get()!;
+  const studio = db.select().from(studios).where(eq(studios.id, visit.studioId)).get()!;
+  const technician = db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, visit.technicianId)).get()!;
+  const owner = job.ownerId ? (db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, job.ownerId)).get() ?? null) : null;
+  return { visit, job, piece, studio, technician, owner };
+}
+export type VisitMailView = NonNullable<ReturnType<typeof loadVisitMailView>>;
+
+export const jobUrl = (jobId: string) => new URL(`/jobs/${jobId}`, env.APP_URL).href;
+
+function organizerOf(v: VisitMailView) {
+  const address = /<([^>]+)>/.exec(env.MAIL_FROM)?.[1] ?? env.MAIL_FROM;
+  return { name: v.studio.name, email: v.studio.email || address };
+}
+
+/** The .ics for the visit as it now stands (REQUEST) or for its cancellation (CANCEL). */
+export function inviteFor(v: VisitMailView, method: "REQUEST" | "CANCEL", now = new Date()): string {
+  const { visit, job, piece, studio, technician, owner } = v;
+  return buildInvite({
+    method,
+    uid: visit.icsUid,
+    sequence: visit.sequence,
+    startMs: visit.startAt.getTime(),
+    endMs: visit.endAt.getTime(),
+    summary: `${studio.name}: ${job.title}`,
+    description: `Touch-up visit for ${piece.title} with ${technician.name}.\nSee or change it: ${jobUrl(job.id)}`,
+    location: visit.location,
+    organizer: organizerOf(v),
+    attendee: { name: owner?.name ?? "Owner", email: owner?.email ?? organizerOf(v).email },
+    now,
+  });
+}
+
+/** Sends the confirmation, change or cancellation to the job's owner with its invite. */
+export async function sendVisitInvite(visitId: string, kind: "booked" | "moved" | "cancelled", extra: { previous?: Pick<Visit, "startAt" | "endAt">; reason?: string } = {}): Promise<{ sent: boolean }> {
+  const v = loadVisitMailView(visitId);
+  if (!v?.owner) return { sent: false };
+  const method = kind === "cancelled" ? "CANCEL" : "REQUEST";
+  const now = new Date();
+  const ics = inviteFor(v, method, now);
+  const tz = v.studio.timeZone;
+  const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
+  const subject = kind === "booked" ? `Visit booked: ${when}` : kind === "moved" ? `Visit moved to ${when}` : `Visit cancelled: ${when}`;
+  await sendMail({
+    to: v.owner.email,
+    subject,
+    email: VisitInviteEmail({
+      kind,
+      ownerName: v.owner.name,
+      studioName: v.studio.name,
+      pieceTitle: v.piece.title,
+      jobTitle: v.job.title,
+      when,
+      previousWhen: extra.previous ? formatVisitWhen(extra.previous.startAt.getTime(), extra.previous.endAt.getTime(), tz) : undefined,
+      timeZone: tz,
+      location: v.visit.location,
+      technicianName: v.technician.name,
+      reason: extra.reason || undefined,
+      url: jobUrl(v.job.id),
+    }),
+    attachments: [inviteAttachment(ics, method)],
+  });
+  getDb().update(visits).set({ lastInviteAt: now }).where(eq(visits.id, visitId)).run();
+  return { sent: true };
+}
+
+export async function sendVisitReminder(v: VisitMailView): Promise<{ messageId: string }> {
+  const tz = v.studio.timeZone;
+  const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
+  return sendMail({
+    to: v.owner!.email,
+    subject: `Tomorrow: your visit, ${when}`,
+    email: VisitReminderEmail({
+      ownerName: v.owner!.name,
+      studioName: v.studio.name,
+      pieceTitle: v.piece.title,
+      jobTitle: v.job.title,
+      when,
+      timeZone: tz,
+      location: v.visit.location,
+      technicianName: v.technician.name,
+      url: jobUrl(v.job.id),
+    }),
+  });
+}
+
+export async function sendVisitSummary(to: string, props: VisitSummaryEmailProps) {
+  return sendMail({ to, subject: `Visit report: ${props.pieceTitle}`, email: VisitSummaryEmail(props) });
+}
