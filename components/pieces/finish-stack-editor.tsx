@@ -133,7 +133,7 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
               {[...stack].reverse().map((l) => (
                 <li key={l.id} className="border-b border-line last:border-b-0">
                   <div className={cn("flex flex-wrap items-center gap-x-4 gap-y-2 px-3 py-2", BAND[l.finishClass])}>
-                    <div className="min-w-0 flex-1">
+                    <div className="min-w-0 flex-1 basis-56">
                       <p className="font-semibold">
                         {FINISH_CLASS_LABELS[l.finishClass]}
                         <span className="font-normal"> · {l.productName ?? (l.productLabel || "unlabelled product")}</span>
