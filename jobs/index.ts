@@ -5,6 +5,7 @@ import cron from "node-cron";
 import { getDb } from "@/db/client";
 import { closeMailTransport } from "@/lib/mail";
 import { describePass, remindersJob } from "./reminders";
+import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 
 const log = (line: string) => console.log(`${new Date().toISOString()} ${line}`);
 
@@ -21,8 +22,24 @@ async function tick(): Promise<void> {
   await pass;
 }
 
+// Visit reminders (24 h before each booked visit): every 15 minutes, one pass at a time.
+let visitRunning: Promise<unknown> | undefined;
+async function visitTick(): Promise<void> {
+  if (visitRunning) return;
+  const pass = visitRemindersJob(new Date())
+    .then((r) => describeVisitPass(r).forEach(log))
+    .catch((e: unknown) => log(`visit reminder pass failed: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`))
+    .finally(() => {
+      visitRunning = undefined;
+    });
+  visitRunning = pass;
+  await pass;
+}
+
 getDb(); // refuses an unmigrated database before anything is scheduled
 const task = cron.schedule("5 * * * *", tick, { name: "care-reminders", noOverlap: true });
+const visitTask = cron.schedule("*/15 * * * *", visitTick, { name: "visit-reminders", noOverlap: true });
+void visitTick();
 log("scheduler: care reminders hourly at minute 5; running one pass now");
 void tick();
 
@@ -33,7 +50,10 @@ async function stop(signal: string): Promise<void> {
   log(`scheduler: ${signal}, stopping`);
   await task.stop();
   await task.destroy();
+  await visitTask.stop();
+  await visitTask.destroy();
   await running;
+  await visitRunning;
   closeMailTransport();
   getDb().$client.close();
   process.exit(0);

@@ -8,6 +8,7 @@ import { seedCareLog } from "./care-log";
 import { indexPiece } from "@/lib/pieces/search-index";
 import type { Db } from "../client";
 import { seedJobs } from "./jobs";
+import { seedVisits } from "./visits";
 import { seedClaims } from "./claims";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { finishLayers, finishProducts, memberships, ownerships, pieces, studios, users, warrantyPolicies, type ContainerSize } from "../schema";
@@ -282,6 +283,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
     return { studioId: studio.id, pieces: PIECES.length, codes };
   });
   const jobs = seedJobs(db, result.studioId, today);
+  await seedVisits(db, result.studioId, today, jobs.done);
   await seedClaims(db, result.studioId);
   return { ...result, jobs };
 }
