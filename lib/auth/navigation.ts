@@ -11,7 +11,10 @@ const STUDIO_NAV: Item[] = [
   { href: "/studio/claims", label: "Claims", roles: ["admin", "staff"] },
   { href: "/studio/jobs", label: "Repair jobs", roles: ["admin", "staff"] },
   { href: "/studio/catalog", label: "Finish catalog", roles: ["admin"] },
+  { href: "/studio/reports", label: "Reports", roles: ["admin", "staff"] },
+  { href: "/studio/audit", label: "Audit", roles: ["admin", "staff"] },
   { href: "/studio/team", label: "Team", roles: ["admin"] },
+  { href: "/studio/settings", label: "Settings", roles: ["admin"] },
   { href: "/studio/outbox", label: "Outbox", roles: ["admin"] },
 ];
 
