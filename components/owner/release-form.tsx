@@ -26,7 +26,7 @@ export function ReleaseForm({ action, pieceTitle }: { action: (v: ReleaseInput) 
       toast.success("Released. The new code is below and in your e-mail.");
     },
   });
-  const { register, formState, trigger } = form;
+  const { register, formState } = form;
 
   if (released) {
     return (
@@ -62,10 +62,7 @@ export function ReleaseForm({ action, pieceTitle }: { action: (v: ReleaseInput) 
 
   return (
     <form
-      onSubmit={async (e) => {
-        e.preventDefault();
-        if (await trigger()) setAsking(true);
-      }}
+      onSubmit={form.handleSubmit(() => setAsking(true))}
       noValidate
       className="space-y-4"
     >
