@@ -1,18 +1,13 @@
 import type { Metadata } from "next";
 import { InviteForm } from "@/components/team/invite-form";
+import { MemberList } from "@/components/team/member-list";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { listMembers, listOpenInvitations } from "@/lib/studio/team";
-import { inviteAction } from "./actions";
+import { changeRoleAction, inviteAction, removeMemberAction } from "./actions";
 
 export const metadata: Metadata = { title: "Team" };
-
-const ROLE_NOTES = {
-  admin: "everything, plus team and settings",
-  staff: "pieces, claims, quotes and bookings",
-  technician: "their visits and visit reports",
-} as const;
 
 export default async function TeamPage() {
   const ctx = await forPage(requireAdmin);
@@ -20,7 +15,7 @@ export default async function TeamPage() {
   const invites = listOpenInvitations(ctx);
   return (
     <>
-      <PageHeader title="Team" lead="Who works in this studio on Grainward, and what each role can do." />
+      <PageHeader title="Team" lead="Who works in this studio on Grainward, and what each role can do. A studio always keeps at least one admin." />
       <div className="space-y-6">
         <Card className="space-y-4">
           <h2 className="font-semibold">Invite someone</h2>
@@ -28,18 +23,12 @@ export default async function TeamPage() {
         </Card>
         <Card>
           <h2 className="mb-3 font-semibold">Members</h2>
-          <ul className="divide-y divide-line">
-            {members.map((m) => (
-              <li key={m.id} className="flex flex-col py-2 sm:flex-row sm:justify-between">
-                <span>
-                  {m.name} <span className="text-muted">· {m.email}</span>
-                </span>
-                <span className="text-sm">
-                  <strong className="capitalize">{m.role}</strong> <span className="text-muted">— {ROLE_NOTES[m.role]}</span>
-                </span>
-              </li>
-            ))}
-          </ul>
+          <MemberList
+            members={members.map((m) => ({ id: m.id, name: m.name, email: m.email, role: m.role, isYou: m.userId === ctx.user.id }))}
+            adminCount={members.filter((m) => m.role === "admin").length}
+            changeRole={changeRoleAction}
+            remove={removeMemberAction}
+          />
         </Card>
         {invites.length ? (
           <Card>

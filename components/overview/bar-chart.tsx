@@ -1,0 +1,82 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { Bar, BarChart, CartesianGrid, LabelList, Legend, pattern, patterns, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { formatMinorUnits } from "@/lib/care/quote";
+
+// Our palette (app/globals.css). Series are told apart by pattern and by their labels too, never by
+// colour alone; every bar carries its value as a label.
+const SERIES_LOOK = [
+  { color: "#0f5e5e", definition: undefined },
+  { color: "#8a4b00", definition: pattern(patterns.diagonal) },
+  { color: "#23633a", definition: pattern(patterns.dots) },
+] as const;
+
+export type BarDatum = { label: string; href?: string } & Record<string, string | number | undefined>;
+export type BarSeries = { key: string; name: string };
+
+type Props = {
+  data: BarDatum[];
+  series: BarSeries[];
+  /** "horizontal": one bar per row, labels on the left (long category names); "vertical": columns. */
+  layout?: "horizontal" | "vertical";
+  format?: "count" | "money";
+  currency?: string;
+  /** Accessible name of the chart image (the table below carries the numbers). */
+  title: string;
+  height?: number;
+};
+
+export function OverviewBarChart({ data, series, layout = "horizontal", format = "count", currency = "USD", title, height }: Props) {
+  const router = useRouter();
+  const fmt = (v: unknown) => {
+    const n = typeof v === "number" ? v : Number(v ?? 0);
+    return format === "money" ? formatMinorUnits(Math.round(n), currency) : String(n);
+  };
+  const rows = layout === "horizontal";
+  const h = height ?? (rows ? Math.max(120, data.length * (series.length > 1 ? 44 : 32) + 40) : 240);
+  const open = (d: unknown) => {
+    const href = (d as { payload?: BarDatum } | undefined)?.payload?.href;
+    if (href) router.push(href);
+  };
+  return (
+    <div role="img" aria-label={title} className="w-full" style={{ height: h }}>
+      <ResponsiveContainer width="100%" height="100%">
+        <BarChart data={data} layout={rows ? "vertical" : "horizontal"} margin={{ top: 8, right: 36, bottom: 4, left: 4 }} accessibilityLayer={false}>
+          <CartesianGrid stroke="#e4dccf" strokeDasharray="3 3" horizontal={!rows} vertical={rows} />
+          {rows ? (
+            <>
+              <XAxis type="number" allowDecimals={false} tick={{ fill: "#625b50", fontSize: 12 }} tickFormatter={fmt} />
+              <YAxis type="category" dataKey="label" width={128} tick={{ fill: "#1f2328", fontSize: 12 }} interval={0} />
+            </>
+          ) : (
+            <>
+              <XAxis dataKey="label" tick={{ fill: "#1f2328", fontSize: 12 }} interval="preserveStartEnd" />
+              <YAxis allowDecimals={false} width={format === "money" ? 64 : 32} tick={{ fill: "#625b50", fontSize: 12 }} tickFormatter={fmt} />
+            </>
+          )}
+          <Tooltip formatter={(v) => fmt(v)} cursor={{ fill: "#e3efed" }} />
+          {series.length > 1 ? <Legend wrapperStyle={{ fontSize: 12 }} /> : null}
+          {series.map((s, i) => {
+            const look = SERIES_LOOK[i % SERIES_LOOK.length]!;
+            return (
+              <Bar
+                key={s.key}
+                dataKey={s.key}
+                name={s.name}
+                fill={look.definition ? { color: look.color, definition: look.definition } : look.color}
+                stroke={look.color}
+                radius={rows ? [0, 4, 4, 0] : [4, 4, 0, 0]}
+                isAnimationActive={false}
+                onClick={open}
+                style={{ cursor: "pointer" }}
+              >
+                <LabelList dataKey={s.key} position={rows ? "right" : "top"} formatter={(v: unknown) => (format === "money" && !v ? "" : fmt(v))} style={{ fill: "#1f2328", fontSize: 12 }} />
+              </Bar>
+            );
+          })}
+        </BarChart>
+      </ResponsiveContainer>
+    </div>
+  );
+}

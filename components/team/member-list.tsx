@@ -1,0 +1,134 @@
+"use client";
+
+import { ShieldCheck, User, Wrench, type LucideIcon } from "lucide-react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { toast } from "sonner";
+import { Button } from "@/components/ui/button";
+import { Notice } from "@/components/ui/notice";
+import type { StudioRole } from "@/lib/care/vocabulary";
+import type { ActionResult } from "@/lib/validation/action";
+import type { ChangeRoleInput, RemoveMemberInput } from "@/lib/validation/settings";
+import { ConfirmDialog } from "./confirm-dialog";
+
+export type MemberView = { id: string; name: string; email: string; role: StudioRole; isYou: boolean };
+
+const ROLE_LOOK: Record<StudioRole, { label: string; Icon: LucideIcon; note: string }> = {
+  admin: { label: "Admin", Icon: ShieldCheck, note: "everything, plus team and settings" },
+  staff: { label: "Staff", Icon: User, note: "pieces, claims, quotes and bookings" },
+  technician: { label: "Technician", Icon: Wrench, note: "their visits and visit reports" },
+};
+const RANK: Record<StudioRole, number> = { admin: 3, staff: 2, technician: 1 };
+
+type Pending = { kind: "role"; member: MemberView; role: StudioRole } | { kind: "remove"; member: MemberView };
+
+export function MemberList({
+  members,
+  adminCount,
+  changeRole,
+  remove,
+}: {
+  members: MemberView[];
+  adminCount: number;
+  changeRole: (v: ChangeRoleInput) => Promise<ActionResult<unknown>>;
+  remove: (v: RemoveMemberInput) => Promise<ActionResult<unknown>>;
+}) {
+  const router = useRouter();
+  const [choice, setChoice] = useState<Record<string, StudioRole>>({});
+  const [pending, setPending] = useState<Pending | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<{ id: string; message: string } | null>(null);
+
+  async function run(p: Pending) {
+    setBusy(true);
+    setError(null);
+    const result = p.kind === "role" ? await changeRole({ membershipId: p.member.id, role: p.role }) : await remove({ membershipId: p.member.id });
+    setBusy(false);
+    setPending(null);
+    if (result.ok) {
+      toast.success(result.message ?? "Saved.");
+      router.refresh();
+    } else {
+      setError({ id: p.member.id, message: result.message });
+    }
+  }
+
+  function askRole(m: MemberView) {
+    const role = choice[m.id] ?? m.role;
+    if (role === m.role) return;
+    const p: Pending = { kind: "role", member: m, role };
+    // Taking rights away asks first; giving more does not.
+    if (RANK[role] < RANK[m.role]) setPending(p);
+    else void run(p);
+  }
+
+  return (
+    <>
+      <ul className="divide-y divide-line">
+        {members.map((m) => {
+          const look = ROLE_LOOK[m.role];
+          const lastAdmin = m.role === "admin" && adminCount <= 1;
+          const selected = choice[m.id] ?? m.role;
+          return (
+            <li key={m.id} className="flex flex-col gap-3 py-3 md:flex-row md:items-center md:justify-between">
+              <div>
+                <p className="font-medium">
+                  {m.name} {m.isYou ? <span className="text-sm font-normal text-muted">(you)</span> : null}
+                </p>
+                <p className="text-sm text-muted break-all">{m.email}</p>
+                <p className="mt-1 inline-flex items-center gap-1.5 text-sm">
+                  <look.Icon aria-hidden className="size-4 text-resin" />
+                  <strong>{look.label}</strong> <span className="text-muted">— {look.note}</span>
+                </p>
+                {lastAdmin ? <p className="text-sm text-muted">The studio&apos;s only admin: make someone else an admin before changing this role.</p> : null}
+                {error?.id === m.id ? (
+                  <Notice tone="error" className="mt-2">
+                    {error.message}
+                  </Notice>
+                ) : null}
+              </div>
+              <div className="flex flex-wrap items-end gap-2">
+                <label className="text-sm">
+                  <span className="sr-only">Role for {m.name}</span>
+                  <select
+                    className="min-h-11 rounded-lg border border-line bg-white px-3"
+                    value={selected}
+                    disabled={lastAdmin || busy}
+                    onChange={(e) => setChoice((c) => ({ ...c, [m.id]: e.target.value as StudioRole }))}
+                  >
+                    <option value="admin">Admin</option>
+                    <option value="staff">Staff</option>
+                    <option value="technician">Technician</option>
+                  </select>
+                </label>
+                <Button variant="secondary" disabled={selected === m.role || busy} onClick={() => askRole(m)}>
+                  Change role
+                </Button>
+                <Button variant="secondary" className="text-danger hover:border-danger hover:text-danger" disabled={lastAdmin || m.isYou || busy} onClick={() => setPending({ kind: "remove", member: m })}>
+                  Remove
+                </Button>
+              </div>
+            </li>
+          );
+        })}
+      </ul>
+      <ConfirmDialogFor pending={pending} busy={busy} onCancel={() => setPending(null)} onConfirm={() => pending && void run(pending)} />
+    </>
+  );
+}
+
+
+function ConfirmDialogFor({ pending, busy, onCancel, onConfirm }: { pending: Pending | null; busy: boolean; onCancel: () => void; onConfirm: () => void }) {
+  const title = pending?.kind === "remove" ? `Remove ${pending.member.name}?` : pending ? `Make ${pending.member.name} ${ROLE_LOOK[pending.role].label.toLowerCase()}?` : "";
+  return (
+    <ConfirmDialog open={pending !== null} title={title} confirmLabel={pending?.kind === "remove" ? "Remove from the studio" : "Change role"} busy={busy} onCancel={onCancel} onConfirm={onConfirm}>
+      {pending?.kind === "remove" ? (
+        <p>They lose access to this studio at once and are signed out on every device. Their past work stays in the records and the audit log.</p>
+      ) : pending ? (
+        <p>
+          They will be able to do only what a {ROLE_LOOK[pending.role].label.toLowerCase()} can: {ROLE_LOOK[pending.role].note}. This takes effect on their next page.
+        </p>
+      ) : null}
+    </ConfirmDialog>
+  );
+}
