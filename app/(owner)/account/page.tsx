@@ -1,3 +1,4 @@
+import Link from "next/link";
 import type { Metadata } from "next";
 import { PreferencesForm } from "@/components/owner/preferences-form";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -25,6 +26,15 @@ export default async function AccountPage() {
           zoneNeverSet={prefs.timeZone === "UTC"}
           defaults={{ remindersEnabled: prefs.remindersEnabled, timeZone: prefs.timeZone, unitSystem: prefs.unitSystem }}
         />
+      </Card>
+      <Card className="mt-6 flex flex-wrap items-center justify-between gap-3">
+        <div>
+          <h2 className="font-semibold">Password</h2>
+          <p className="text-sm text-muted">Changing it signs you out on every other device.</p>
+        </div>
+        <Link href="/account/password" className="flex min-h-11 items-center rounded-lg border border-line px-4 text-sm font-semibold text-resin hover:border-resin">
+          Change password
+        </Link>
       </Card>
     </>
   );
