@@ -57,7 +57,33 @@ export function buildInvite(input: InviteInput): string {
   };
   const { error, value } = createEvent(attrs);
   if (error || !value) throw new Error(`could not write the visit invite: ${error?.message ?? "no output"}`);
-  return value;
+  return refoldOctets(value);
+}
+
+/**
+ * The `ics` package folds at 75 characters; RFC 5545 §3.1 counts octets, so a line with non-ASCII
+ * text (an address like "Søndergade") would run over. Unfold, then fold again at 75 octets without
+ * splitting a UTF-8 sequence (a continuation line starts with one space, which counts).
+ */
+export function refoldOctets(text: string): string {
+  const lines = text.replace(/\r\n[ \t]/g, "").split("\r\n");
+  const out: string[] = [];
+  for (const line of lines) {
+    let current = "";
+    let octets = 0;
+    for (const ch of line) {
+      const n = Buffer.byteLength(ch, "utf8");
+      if (octets + n > 75) {
+        out.push(current);
+        current = " ";
+        octets = 1;
+      }
+      current += ch;
+      octets += n;
+    }
+    out.push(current);
+  }
+  return out.join("\r\n");
 }
 
 export function inviteAttachment(ics: string, method: InviteMethod) {

@@ -156,8 +156,7 @@ export function listJobSlots(actor: VisitActor, jobId: string, raw: unknown, now
 }
 
 /** What a 409 carries: fresh slots for the same technician around the time asked for. */
-function freshSlots(actor: VisitActor, job: RepairJob, piece: Piece, studio: Studio, aroundMs: number, excludeVisitId?: string): SlotView[] {
-  const now = Date.now();
+function freshSlots(actor: VisitActor, job: RepairJob, piece: Piece, studio: Studio, aroundMs: number, now: number, excludeVisitId?: string): SlotView[] {
   const fromMs = Math.max(now, aroundMs - DAY);
   return slotsFor(studio, job, piece, { fromMs, toMs: fromMs + 14 * DAY, leadTimeHours: leadFor(actor, studio.id), excludeVisitId, now }).slice(0, 60);
 }
@@ -211,7 +210,7 @@ export async function bookVisit(actor: VisitActor, raw: unknown, now = Date.now(
       now,
     });
   } catch (e) {
-    if (e instanceof SlotUnavailableError) throw new SlotTakenError(e.message, freshSlots(actor, job, piece, studio, Date.parse(input.start)));
+    if (e instanceof SlotUnavailableError) throw new SlotTakenError(e.message, freshSlots(actor, job, piece, studio, Date.parse(input.start), now));
     throw e;
   }
   await mailSafely("booked", () => sendVisitInvite(reserved.visit.id, "booked"));
@@ -254,7 +253,7 @@ export async function moveVisit(actor: VisitActor, visitId: string, raw: unknown
       visitVersion: visit.version,
     });
   } catch (e) {
-    if (e instanceof SlotUnavailableError) throw new SlotTakenError(e.message, freshSlots(actor, job, piece, studio, Date.parse(input.start), visit.id));
+    if (e instanceof SlotUnavailableError) throw new SlotTakenError(e.message, freshSlots(actor, job, piece, studio, Date.parse(input.start), now, visit.id));
     throw e;
   }
   const changed = reserved.visit.startAt.getTime() !== visit.startAt.getTime() || reserved.visit.technicianId !== visit.technicianId || reserved.visit.location !== visit.location;
