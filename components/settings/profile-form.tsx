@@ -1,0 +1,54 @@
+"use client";
+
+import { useActionForm } from "@/components/forms/use-action-form";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import type { ActionResult } from "@/lib/validation/action";
+import { CURRENCIES, profileSchema, type ProfileInput } from "@/lib/validation/settings";
+
+export function ProfileForm({ values, timeZones, action }: { values: ProfileInput; timeZones: string[]; action: (v: ProfileInput) => Promise<ActionResult<unknown>> }) {
+  const { form, onSubmit, formError } = useActionForm({ schema: profileSchema, action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
+  const { register, formState, watch } = form;
+  const e = formState.errors;
+  const currency = watch("currency");
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-6">
+      {formError ? <Notice tone="error">{formError}</Notice> : null}
+      <fieldset className="grid gap-4 sm:grid-cols-2">
+        <legend className="mb-2 font-semibold">The studio</legend>
+        <TextField label="Studio name" autoComplete="organization" {...register("name")} error={e.name?.message} />
+        <TextField label="Studio e-mail" type="email" autoComplete="email" {...register("email")} error={e.email?.message} hint="Shown to owners in e-mails; leave empty to use none." />
+        <div className="sm:col-span-2">
+          <TextField label="Address" autoComplete="street-address" {...register("address")} error={e.address?.message} />
+        </div>
+        <TextField label="Time zone" list="gw-time-zones" autoComplete="off" {...register("timeZone")} error={e.timeZone?.message} hint="Dates, the overview's months and visit hours follow it." />
+        <datalist id="gw-time-zones">
+          {timeZones.map((z) => (
+            <option key={z} value={z} />
+          ))}
+        </datalist>
+        <SelectField label="Measurements" {...register("unitSystem")} error={e.unitSystem?.message}>
+          <option value="metric">Metric (mm, m², mL)</option>
+          <option value="imperial">Imperial (in, ft², US fl oz)</option>
+        </SelectField>
+      </fieldset>
+      <fieldset className="grid gap-4 sm:grid-cols-2">
+        <legend className="mb-2 font-semibold">Money</legend>
+        <SelectField label="Currency" {...register("currency")} error={e.currency?.message} hint="New quotes use it; quotes and payments already made keep theirs.">
+          {CURRENCIES.map((c) => (
+            <option key={c} value={c}>
+              {c}
+            </option>
+          ))}
+        </SelectField>
+        <TextField label="Tax rate (%)" inputMode="decimal" {...register("taxRatePct")} error={e.taxRatePct?.message} hint="Added to quotes, e.g. 8.5" />
+        <TextField label={`Labour rate per hour (${currency})`} inputMode="decimal" {...register("labourRate")} error={e.labourRate?.message} />
+        <TextField label={`Travel fee per visit (${currency})`} inputMode="decimal" {...register("travelFee")} error={e.travelFee?.message} />
+      </fieldset>
+      <Button type="submit" disabled={formState.isSubmitting}>
+        {formState.isSubmitting ? "Saving…" : "Save profile and rates"}
+      </Button>
+    </form>
+  );
+}

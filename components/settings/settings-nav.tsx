@@ -1,0 +1,37 @@
+"use client";
+
+import { ExternalLink } from "lucide-react";
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+import { cn } from "@/components/ui/cn";
+
+const ITEMS = [
+  { href: "/studio/settings", label: "Profile and rates" },
+  { href: "/studio/settings/warranty", label: "Warranty policy" },
+  { href: "/studio/settings/reminders", label: "Reminder timing" },
+  { href: "/studio/settings/emails", label: "E-mail previews" },
+  { href: "/studio/catalog", label: "Finish catalog", away: true },
+  { href: "/studio/team", label: "Team", away: true },
+];
+
+export function SettingsNav() {
+  const path = usePathname();
+  return (
+    <nav aria-label="Settings" className="-mx-1 flex gap-1 overflow-x-auto lg:mx-0 lg:flex-col">
+      {ITEMS.map((i) => {
+        const active = i.href === "/studio/settings" ? path === i.href : path.startsWith(i.href);
+        return (
+          <Link
+            key={i.href}
+            href={i.href}
+            aria-current={active ? "page" : undefined}
+            className={cn("flex min-h-11 items-center gap-1.5 whitespace-nowrap rounded-lg px-3 text-sm font-medium", active ? "bg-resin-soft text-resin-dark" : "text-ink hover:bg-resin-soft/60")}
+          >
+            {i.label}
+            {i.away ? <ExternalLink aria-hidden className="size-3.5 text-muted" /> : null}
+          </Link>
+        );
+      })}
+    </nav>
+  );
+}
