@@ -162,8 +162,9 @@ export function getOverview(ctx: StudioContext, now: Date = new Date()): Overvie
       }
       throw e;
     }
+    // By due date alone: a cycle started by care shows status "done" until its window opens, but
+    // it still falls due on its date.
     for (const t of tasks) {
-      if (t.status === "done") continue;
       if (t.dueOn < today) {
         overdue++;
         piecesOverdue.add(p.id);

@@ -1,0 +1,132 @@
+// Studio settings: profile and rates in minor units, reminder timing, e-mail previews, the audit log.
+// All data invented.
+import { eq } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
+import { ZodError } from "zod";
+import { getDb } from "@/db/client";
+import { auditLog, memberships, studios } from "@/db/schema";
+import { AppError } from "@/lib/errors";
+import { profileFormValues, reminderTiming, toMinorUnits, updateProfile, updateReminderTiming } from "@/lib/settings";
+import { listEmailTemplates, renderEmailPreview } from "@/lib/settings/email-previews";
+import { listAudit } from "@/lib/studio/audit";
+import { changeMemberRole } from "@/lib/studio/team";
+import { createStudio, memberContext } from "../support/fixtures";
+
+const profile = {
+  name: "Settings Studio (invented)",
+  address: "1 Invented Lane",
+  email: "",
+  timeZone: "Europe/Berlin",
+  currency: "USD" as const,
+  unitSystem: "imperial" as const,
+  taxRatePct: "8.25",
+  labourRate: "85.5",
+  travelFee: "45",
+};
+
+function status(fn: () => unknown): number | string {
+  try {
+    fn();
+    return "no error";
+  } catch (e) {
+    return e instanceof AppError ? e.status : e instanceof ZodError ? "zod" : String(e);
+  }
+}
+
+describe("studio profile and rates", () => {
+  it("stores amounts in the currency's minor units and reads them back as typed", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    updateProfile(admin, profile);
+    const row = getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!;
+    expect([row.taxRateBp, row.labourRateMinor, row.travelFeeMinor, row.timeZone, row.unitSystem]).toEqual([825, 8550, 4500, "Europe/Berlin", "imperial"]);
+    expect(profileFormValues({ ...admin, studio: row })).toMatchObject({ taxRatePct: "8.25", labourRate: "85.50", travelFee: "45.00" });
+
+    updateProfile(admin, { ...profile, currency: "JPY", labourRate: "9000", travelFee: "0" });
+    const yen = getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!;
+    expect([yen.currency, yen.labourRateMinor]).toEqual(["JPY", 9000]);
+    const audit = getDb().select().from(auditLog).where(eq(auditLog.subjectId, studio.id)).all();
+    expect(audit.map((a) => a.action)).toEqual(["settings.profile_updated", "settings.profile_updated"]);
+    expect(audit[1]!.data).toMatchObject({ changed: { currency: { from: "USD", to: "JPY" } } });
+  });
+
+  it("refuses amounts the currency can't hold, bad zones and non-admins", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    const staff = await memberContext(studio, "staff");
+    expect(status(() => updateProfile(admin, { ...profile, currency: "JPY", labourRate: "12.5" }))).toBe("zod");
+    expect(status(() => updateProfile(admin, { ...profile, timeZone: "Mars/Olympus" }))).toBe("zod");
+    expect(status(() => updateProfile(admin, { ...profile, taxRatePct: "101" }))).toBe("zod");
+    expect(status(() => updateProfile(admin, { ...profile, labourRate: "$85" }))).toBe("zod");
+    expect(status(() => updateProfile(admin, { ...profile, currency: "XYZ" }))).toBe("zod");
+    expect(status(() => updateProfile(staff, profile))).toBe(403);
+    expect(getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!.name).toBe("Test Studio (invented)");
+    expect(toMinorUnits("0.05", "USD")).toBe(5);
+    expect(toMinorUnits("120", "USD")).toBe(12000);
+  });
+});
+
+describe("reminder timing", () => {
+  it("saves the hour and the steps in their order", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    expect(reminderTiming(admin)).toEqual({ sendHour: 9, steps: ["before_14d", "due_day", "after_30d"] });
+    updateReminderTiming(admin, { sendHour: 18, steps: ["after_30d", "before_14d"] });
+    expect(reminderTiming(admin)).toEqual({ sendHour: 18, steps: ["before_14d", "after_30d"] });
+    updateReminderTiming(admin, { sendHour: 7, steps: [] });
+    expect(reminderTiming(admin)).toEqual({ sendHour: 7, steps: [] });
+    expect(status(() => updateReminderTiming(admin, { sendHour: 24, steps: [] }))).toBe("zod");
+    expect(status(() => updateReminderTiming(admin, { sendHour: 9, steps: ["weekly"] }))).toBe("zod");
+    const tech = await memberContext(studio, "technician");
+    expect(status(() => updateReminderTiming(tech, { sendHour: 9, steps: [] }))).toBe(403);
+  });
+});
+
+describe("e-mail previews", () => {
+  it("renders every template with its invented example values, HTML and plain text", async () => {
+    const admin = await memberContext(createStudio(), "admin");
+    const templates = listEmailTemplates(admin);
+    expect(templates.length).toBeGreaterThanOrEqual(12);
+    for (const t of templates) {
+      const p = await renderEmailPreview(admin, t.slug);
+      expect(p.html, t.slug).toMatch(/<html/i);
+      expect(p.text.length, t.slug).toBeGreaterThan(40);
+    }
+    const reminder = await renderEmailPreview(admin, "care-reminder");
+    expect(reminder.text).toContain("Walnut river dining table");
+    await expect(renderEmailPreview(admin, "nope")).rejects.toMatchObject({ status: 404 });
+    const staff = await memberContext(createStudio(), "staff");
+    await expect(renderEmailPreview(staff, "care-reminder")).rejects.toMatchObject({ status: 403 });
+  });
+});
+
+describe("audit log", () => {
+  it("lists who did what, filters by kind and person, and stays inside the studio", async () => {
+    const studio = createStudio({ timeZone: "America/New_York" });
+    const admin = await memberContext(studio, "admin");
+    const staff = await memberContext(studio, "staff");
+    const m = getDb().select().from(memberships).where(eq(memberships.userId, staff.user.id)).get()!;
+    changeMemberRole(admin, { membershipId: m.id, role: "technician" });
+    updateReminderTiming(admin, { sendHour: 10, steps: ["due_day"] });
+    getDb().insert(auditLog).values({ studioId: studio.id, actorId: staff.user.id, action: "payment.refunded", subjectType: "payment", subjectId: "p1", data: { amountMinor: 500 }, createdAt: new Date("2026-03-04T19:05:00Z") }).run();
+
+    const all = listAudit(staff, {});
+    expect(all.total).toBe(3);
+    expect(all.rows.map((r) => r.label)).toEqual(["Reminder timing changed", "Role changed", "Refund issued"]);
+    expect(all.rows[1]!.details).toContain("staff → technician");
+    expect(all.rows[2]!.local).toBe("2026-03-04 14:05");
+
+    expect(listAudit(staff, { group: "team" }).rows.map((r) => r.action)).toEqual(["member.role_changed"]);
+    expect(listAudit(staff, { group: "payments" }).rows.map((r) => r.action)).toEqual(["payment.refunded"]);
+    expect(listAudit(staff, { actor: staff.user.id }).total).toBe(1);
+    expect(listAudit(staff, { from: "2026-03-04", to: "2026-03-04" }).total).toBe(1);
+    expect(listAudit(staff, { from: "2026-03-05", to: "2026-03-05" }).total).toBe(0);
+    expect(status(() => listAudit(staff, { from: "2026-03-05", to: "2026-03-01" }))).toBe("zod");
+    expect(status(() => listAudit(staff, { group: "everything" }))).toBe("zod");
+
+    const other = await memberContext(createStudio(), "admin");
+    expect(listAudit(other, {}).total).toBe(0);
+    const tech = await memberContext(studio, "technician");
+    expect(status(() => listAudit(tech, {}))).toBe(403);
+  });
+});
