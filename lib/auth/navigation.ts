@@ -10,6 +10,7 @@ const STUDIO_NAV: Item[] = [
   { href: "/studio/pieces", label: "Pieces", roles: ["admin", "staff"] },
   { href: "/studio/claims", label: "Claims", roles: ["admin", "staff"] },
   { href: "/studio/jobs", label: "Repair jobs", roles: ["admin", "staff"] },
+  { href: "/studio/visits", label: "Visits", roles: ["admin", "staff"] },
   { href: "/studio/catalog", label: "Finish catalog", roles: ["admin"] },
   { href: "/studio/reports", label: "Reports", roles: ["admin", "staff"] },
   { href: "/studio/audit", label: "Audit", roles: ["admin", "staff"] },

@@ -110,3 +110,11 @@ export type VisitReportValues = z.output<typeof visitReportSchema>;
 
 export const VISIT_PHOTO_KIND_VALUES = ["before", "after"] as const;
 export const visitPhotoKindSchema = z.enum(VISIT_PHOTO_KIND_VALUES, { error: "Say whether it is a before or an after photo." });
+
+/** The calendar's edit form: a local date and time in the studio's zone (turned into `start` for PATCH). */
+export const visitEditFormSchema = z.object({
+  date: isoDate,
+  time: hhmm,
+  technicianId: id,
+});
+export type VisitEditFormValues = z.output<typeof visitEditFormSchema>;

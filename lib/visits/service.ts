@@ -23,7 +23,7 @@ import {
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { topArea } from "@/lib/care/area";
-import { addDays, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
+import { addDays, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass } from "@/lib/care/vocabulary";
 import { AppError, badRequest, conflict, forbidden, notFound } from "@/lib/errors";
@@ -619,4 +619,10 @@ export function jobsAwaitingVisit(ctx: StudioContext) {
     .where(and(eq(repairJobs.studioId, ctx.studio.id), inArray(repairJobs.state, ["paid", "covered"])))
     .orderBy(asc(repairJobs.updatedAt))
     .all();
+}
+
+/** Today and this week's Monday in the studio's time zone, for the calendar's first view. */
+export function calendarWeek(ctx: StudioContext, now = Date.now()) {
+  const today = localDate(now, ctx.studio.timeZone);
+  return { today, monday: addDays(today, 1 - isoWeekday(today)) };
 }

@@ -9,6 +9,8 @@ import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
 import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
+import { ButtonLink } from "@/components/ui/button";
+import { visitOfJob } from "@/lib/visits/service";
 
 export const metadata: Metadata = { title: "Repair" };
 
@@ -21,12 +23,13 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
     await syncReturnedCheckout(user, id, query.session_id).catch((e: unknown) => console.error("checkout sync failed", e));
   }
   const { job, piece, studio } = await forPage(async () => getOwnerJob(user, id));
+  const { visit } = visitOfJob({ kind: "owner", user }, id);
   return (
     <>
       <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />} />
       <div className="space-y-4">
         {query.checkout === "success" && job.state === "paid" ? (
-          <Notice tone="ok" title="Paid — thank you">Your receipt is on its way by e-mail. The studio will book your visit.</Notice>
+          <Notice tone="ok" title="Paid — thank you">Your receipt is on its way by e-mail. You can book your visit below.</Notice>
         ) : null}
         {query.checkout === "success" && job.state !== "paid" ? (
           <Notice tone="info" title="Confirming your payment">Stripe is still confirming the payment. Reload this page in a moment.</Notice>
@@ -34,7 +37,27 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         {query.checkout === "cancelled" && job.state === "approved" ? (
           <Notice tone="warn" title="Payment not completed">Your card was not charged. You can try again, with the same card or another one.</Notice>
         ) : null}
-        {job.state === "covered" ? <Notice tone="ok" title="Covered by your warranty">There is nothing to pay. The studio will book your visit.</Notice> : null}
+        {job.state === "covered" ? <Notice tone="ok" title="Covered by your warranty">There is nothing to pay. You can book your visit below.</Notice> : null}
+        {job.state === "paid" || job.state === "covered" || job.state === "scheduled" || visit?.state === "done" ? (
+          <Card className="space-y-3">
+            <h2 className="font-semibold">Your visit</h2>
+            {visit && visit.state !== "cancelled" ? (
+              <p>
+                {visit.state === "done" ? "Done: " : ""}
+                <strong>{visit.when}</strong> with {visit.technicianName}
+                <br />
+                <span className="text-sm text-muted">{visit.location}</span>
+              </p>
+            ) : (
+              <p className="text-muted">No visit booked yet. Pick a time that suits you.</p>
+            )}
+            {job.state === "scheduled" ? (
+              <ButtonLink variant="secondary" href={`/jobs/${job.id}/book`}>Change or cancel the visit</ButtonLink>
+            ) : job.state === "paid" || job.state === "covered" ? (
+              <ButtonLink href={`/jobs/${job.id}/book`}>Book your visit</ButtonLink>
+            ) : null}
+          </Card>
+        ) : null}
         <Card>
           <QuoteSummary lines={job.lines} currency={job.currency} subtotalMinor={job.subtotalMinor} coveredMinor={job.coveredMinor} coveredPct={job.coveredPct} taxMinor={job.taxMinor} totalMinor={job.totalMinor} />
         </Card>

@@ -13,12 +13,16 @@ import { FINISH_CLASS_LABELS } from "@/lib/care/vocabulary";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
 import { jobQuoteSchema } from "@/lib/validation/jobs";
+import { ButtonLink } from "@/components/ui/button";
+import { visitOfJob } from "@/lib/visits/service";
 
 export const metadata: Metadata = { title: "Repair job" };
 
 export default async function StudioJobPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const view = await forPage(async () => getStudioJob(await requireStaff(), id));
+  const ctx = await forPage(requireStaff);
+  const view = await forPage(async () => getStudioJob(ctx, id));
+  const { visit } = visitOfJob({ kind: "staff", ctx }, id);
   const { job, piece, owner, payments, products } = view;
   const initial = jobQuoteSchema.parse(job.quoteInput);
   const editable = ["draft", "quoted", "approved"].includes(job.state);
@@ -56,6 +60,24 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             />
             {job.quoteVersion ? <p className="text-sm text-muted">Quote sent {job.quoteVersion} time{job.quoteVersion === 1 ? "" : "s"}.</p> : null}
           </Card>
+          {["paid", "covered", "scheduled"].includes(job.state) || visit ? (
+            <Card className="space-y-3">
+              <h2 className="font-semibold">Visit</h2>
+              {visit && visit.state !== "cancelled" ? (
+                <p className="text-sm">
+                  {visit.state === "done" ? "Done: " : ""}
+                  <strong>{visit.when}</strong> with {visit.technicianName} · {visit.location}
+                </p>
+              ) : (
+                <p className="text-sm text-muted">No visit booked.</p>
+              )}
+              {["paid", "covered", "scheduled"].includes(job.state) ? (
+                <ButtonLink variant={job.state === "scheduled" ? "secondary" : "primary"} href={`/studio/visits/book/${job.id}`}>
+                  {job.state === "scheduled" ? "Move or cancel the visit" : "Book a visit"}
+                </ButtonLink>
+              ) : null}
+            </Card>
+          ) : null}
           <Card className="space-y-2">
             <h2 className="font-semibold">Payments</h2>
             {payments.length === 0 ? (

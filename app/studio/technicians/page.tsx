@@ -1,0 +1,28 @@
+import type { Metadata } from "next";
+import { Card, PageHeader } from "@/components/ui/card";
+import { HoursEditor } from "@/components/visits/hours-editor";
+import { requireStaff } from "@/lib/auth/guards";
+import { forPage } from "@/lib/auth/page";
+import { listTechnicians } from "@/lib/visits/service";
+
+export const metadata: Metadata = { title: "Working hours" };
+export const dynamic = "force-dynamic";
+
+export default async function TechnicianHoursPage() {
+  const ctx = await forPage(requireStaff);
+  const techs = listTechnicians(ctx);
+  return (
+    <>
+      <PageHeader title="Working hours" lead={`Weekly hours and days off of each technician, in ${ctx.studio.timeZone.replace("_", " ")}. Free visit times come from these.`} />
+      <div className="space-y-6">
+        {techs.length === 0 ? <Card>No technicians in this studio yet. Invite one from Team.</Card> : null}
+        {techs.map((t) => (
+          <Card key={t.id} className="space-y-3">
+            <h2 className="font-semibold">{t.name}</h2>
+            <HoursEditor technicianId={t.id} name={t.name} initial={{ hours: t.hours, timeOff: t.timeOff }} editable />
+          </Card>
+        ))}
+      </div>
+    </>
+  );
+}

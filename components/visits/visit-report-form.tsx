@@ -1,0 +1,185 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { Camera, Plus, Trash2 } from "lucide-react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useFieldArray, useForm, useWatch, type Resolver } from "react-hook-form";
+import { toast } from "sonner";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
+import { visitReportSchema, type VisitReportInput, type VisitReportValues } from "@/lib/validation/visits";
+import { isApiError, visitApi } from "./api";
+
+type Product = { id: string; name: string; finishClass: FinishClass };
+type Photo = { id: string; kind: "before" | "after"; thumbUrl: string };
+
+const SURFACE_LABELS: Record<string, string> = { top: "Top", edges: "Edges", base: "Base" };
+
+function uploadPhoto(visitId: string, file: File, kind: "before" | "after", onProgress: (pct: number) => void): Promise<Photo> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open("POST", `/api/visits/${visitId}/photos`);
+    xhr.upload.onprogress = (e) => e.lengthComputable && onProgress(Math.round((e.loaded / e.total) * 100));
+    xhr.onload = () => {
+      const body = (() => {
+        try {
+          return JSON.parse(xhr.responseText);
+        } catch {
+          return {};
+        }
+      })();
+      if (xhr.status === 201) resolve({ id: body.id, kind, thumbUrl: body.thumbUrl });
+      else reject(new Error(body.error?.message ?? `Upload failed (${xhr.status}).`));
+    };
+    xhr.onerror = () => reject(new Error("The upload was interrupted. Check the connection and try again."));
+    const form = new FormData();
+    form.set("file", file);
+    form.set("kind", kind);
+    xhr.send(form);
+  });
+}
+
+/** The visit report: what was done, new finish layers, before/after photos, the owner's sign-off. */
+export function VisitReportForm({ visitId, products, today, defaultClass, initialPhotos }: { visitId: string; products: Product[]; today: string; defaultClass?: FinishClass; initialPhotos: Photo[] }) {
+  const router = useRouter();
+  const form = useForm<VisitReportInput, unknown, VisitReportValues>({
+    resolver: zodResolver(visitReportSchema) as unknown as Resolver<VisitReportInput, unknown, VisitReportValues>,
+    defaultValues: { work: "", signOffName: "", layers: defaultClass ? [{ surface: "top", finishClass: defaultClass, productId: products.find((p) => p.finishClass === defaultClass)?.id ?? "", coats: 1, appliedOn: today, productLabel: "", batchLot: "" }] : [] },
+    mode: "onTouched",
+  });
+  const layers = useFieldArray({ control: form.control, name: "layers" });
+  const layerValues = useWatch({ control: form.control, name: "layers" });
+  const [photos, setPhotos] = useState<Photo[]>(initialPhotos);
+  const [uploading, setUploading] = useState<{ name: string; pct: number } | null>(null);
+  const [formError, setFormError] = useState<string | null>(null);
+  const errors = form.formState.errors;
+
+  async function addPhotos(kind: "before" | "after", list: FileList | null) {
+    for (const file of Array.from(list ?? [])) {
+      setUploading({ name: file.name, pct: 0 });
+      try {
+        const p = await uploadPhoto(visitId, file, kind, (pct) => setUploading({ name: file.name, pct }));
+        setPhotos((x) => [...x, p]);
+        toast.success(`${kind === "before" ? "Before" : "After"} photo added.`);
+      } catch (e) {
+        toast.error(e instanceof Error ? e.message : "Upload failed.");
+      }
+    }
+    setUploading(null);
+  }
+
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      await visitApi(`/api/visits/${visitId}/report`, "POST", { ...values, layers: values.layers.map((l) => ({ ...l, productId: l.productId || null })) });
+      toast.success("Report filed. The owner gets a summary by e-mail.");
+      router.refresh();
+    } catch (e) {
+      if (!isApiError(e)) return setFormError("Something went wrong.");
+      setFormError(e.message);
+      for (const [field, messages] of Object.entries(e.fieldErrors ?? {})) {
+        if (messages?.[0]) form.setError(field as never, { type: "server", message: messages[0] });
+      }
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label="Visit report">
+      {formError ? <Notice tone="error" title="The report was not filed">{formError} Nothing you typed is lost.</Notice> : null}
+      <div className="space-y-1.5">
+        <label htmlFor={`work-${visitId}`} className="block text-sm font-medium">What was done</label>
+        <textarea
+          id={`work-${visitId}`}
+          rows={4}
+          aria-invalid={errors.work ? true : undefined}
+          className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base aria-[invalid=true]:border-danger"
+          {...form.register("work")}
+        />
+        {errors.work ? <p role="alert" className="text-sm font-medium text-danger">{errors.work.message}</p> : null}
+      </div>
+
+      <fieldset className="space-y-3">
+        <legend className="text-sm font-semibold">New finish layers</legend>
+        {layers.fields.length === 0 ? <p className="text-sm text-muted">None — an inspection or cleaning only.</p> : null}
+        {layers.fields.map((f, i) => {
+          const e = errors.layers?.[i];
+          const cls = layerValues?.[i]?.finishClass;
+          return (
+            <div key={f.id} className="space-y-3 rounded-lg border border-line bg-paper p-3">
+              <div className="flex items-center justify-between">
+                <p className="text-sm font-semibold">Layer {i + 1}</p>
+                <Button variant="ghost" aria-label={`Remove layer ${i + 1}`} onClick={() => layers.remove(i)}>
+                  <Trash2 aria-hidden className="size-4" /> Remove
+                </Button>
+              </div>
+              <div className="grid grid-cols-2 gap-3">
+                <SelectField label="Surface" error={e?.surface?.message} {...form.register(`layers.${i}.surface`)}>
+                  {SURFACES.map((s) => (
+                    <option key={s} value={s}>{SURFACE_LABELS[s]}</option>
+                  ))}
+                </SelectField>
+                <TextField label="Coats" type="number" inputMode="numeric" min={1} max={20} error={e?.coats?.message} {...form.register(`layers.${i}.coats`)} />
+              </div>
+              <SelectField label="Finish class" error={e?.finishClass?.message} {...form.register(`layers.${i}.finishClass`)}>
+                {FINISH_CLASSES.map((c) => (
+                  <option key={c} value={c}>{FINISH_CLASS_LABELS[c]}</option>
+                ))}
+              </SelectField>
+              <SelectField label="Product" error={e?.productId?.message} {...form.register(`layers.${i}.productId`)}>
+                <option value="">Not from the catalog</option>
+                {products.filter((p) => p.finishClass === cls).map((p) => (
+                  <option key={p.id} value={p.id}>{p.name}</option>
+                ))}
+              </SelectField>
+              <div className="grid grid-cols-2 gap-3">
+                <TextField label="Date applied" type="date" max={today} error={e?.appliedOn?.message} {...form.register(`layers.${i}.appliedOn`)} />
+                <TextField label="Batch / lot" error={e?.batchLot?.message} {...form.register(`layers.${i}.batchLot`)} />
+              </div>
+            </div>
+          );
+        })}
+        <Button variant="secondary" onClick={() => layers.append({ surface: "top", finishClass: defaultClass ?? "hardwax_oil", productId: "", coats: 1, appliedOn: today, productLabel: "", batchLot: "" })}>
+          <Plus aria-hidden className="size-4" /> Add a layer
+        </Button>
+      </fieldset>
+
+      <fieldset className="space-y-3">
+        <legend className="text-sm font-semibold">Photos</legend>
+        <div className="grid grid-cols-2 gap-2">
+          {(["before", "after"] as const).map((kind) => (
+            <label key={kind} className="flex min-h-11 cursor-pointer items-center justify-center gap-2 rounded-lg border border-line bg-card px-3 text-sm font-semibold text-resin hover:border-resin">
+              <Camera aria-hidden className="size-4" /> {kind === "before" ? "Before photo" : "After photo"}
+              <input type="file" accept="image/jpeg,image/png,image/webp" capture="environment" multiple className="sr-only" onChange={(e) => void addPhotos(kind, e.target.files)} disabled={uploading !== null} />
+            </label>
+          ))}
+        </div>
+        {uploading ? (
+          <div role="status" className="text-sm">
+            Uploading {uploading.name}… {uploading.pct} %
+            <progress className="mt-1 block h-2 w-full" max={100} value={uploading.pct} />
+          </div>
+        ) : null}
+        {photos.length ? (
+          <ul className="grid grid-cols-3 gap-2">
+            {photos.map((p) => (
+              <li key={p.id} className="relative">
+                {/* eslint-disable-next-line @next/next/no-img-element -- authorized, private thumbnails */}
+                <img src={p.thumbUrl} alt={`${p.kind} photo`} className="aspect-square w-full rounded-lg object-cover" />
+                <span className="absolute bottom-1 left-1 rounded bg-black/60 px-1.5 text-xs text-white">{p.kind}</span>
+              </li>
+            ))}
+          </ul>
+        ) : null}
+      </fieldset>
+
+      <TextField label="Owner's sign-off name" autoComplete="off" hint="Ask the owner to check the work and give their name." error={errors.signOffName?.message} {...form.register("signOffName")} />
+
+      <Button type="submit" className="w-full" disabled={form.formState.isSubmitting || uploading !== null}>
+        {form.formState.isSubmitting ? "Filing the report…" : "File the report and close the job"}
+      </Button>
+    </form>
+  );
+}

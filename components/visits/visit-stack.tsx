@@ -1,0 +1,43 @@
+const CLASS_FILL: Record<string, string> = {
+  hardwax_oil: "bg-[#e9dcc3]",
+  ceramic_topcoat: "bg-[#dfe9e7]",
+  paste_wax: "bg-[#f1e6cf]",
+  film_finish: "bg-[#e6e3dc]",
+  epoxy_surface: "bg-[#d5e7ea]",
+  charred_oiled: "bg-[#d6d0c8]",
+};
+const SURFACE_TITLES: Record<string, string> = { top: "Top", edges: "Edges", base: "Base" };
+
+export type StackLayer = { id: string; surface: string; position: number; finishClass: string; classLabel: string; productLabel: string; coats: number; appliedOn: string };
+
+/** A piece's finish stack drawn as layers, outermost on top and the wood at the bottom, per surface. */
+export function VisitStack({ layers, wood }: { layers: StackLayer[]; wood: string }) {
+  const surfaces = ["top", "edges", "base"].filter((s) => layers.some((l) => l.surface === s));
+  if (surfaces.length === 0) return <p className="text-sm text-muted">No finish stack on record — look before you start.</p>;
+  return (
+    <div className="grid gap-3 sm:grid-cols-2">
+      {surfaces.map((s) => {
+        const stack = layers.filter((l) => l.surface === s).sort((a, b) => b.position - a.position);
+        return (
+          <figure key={s}>
+            <figcaption className="mb-1 text-sm font-semibold">{SURFACE_TITLES[s]}</figcaption>
+            <ol className="overflow-hidden rounded-lg border border-line" aria-label={`${SURFACE_TITLES[s]} finish layers, outermost first`}>
+              {stack.map((l) => (
+                <li key={l.id} className={`${CLASS_FILL[l.finishClass] ?? "bg-card"} border-b border-line/80 px-3 py-2 text-sm`}>
+                  <span className="font-semibold">{l.classLabel}</span>
+                  <span className="block text-ink/80">
+                    {l.productLabel ? `${l.productLabel} · ` : ""}
+                    {l.coats} coat{l.coats === 1 ? "" : "s"} · {l.appliedOn}
+                  </span>
+                </li>
+              ))}
+              <li className="bg-[repeating-linear-gradient(90deg,#7a5532_0_6px,#86603b_6px_14px)] px-3 py-1.5 text-sm font-semibold text-white">
+                <span className="rounded bg-black/35 px-1">{wood}</span>
+              </li>
+            </ol>
+          </figure>
+        );
+      })}
+    </div>
+  );
+}
