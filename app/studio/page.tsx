@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { OverviewBarChart } from "@/components/overview/bar-chart";
 import { ChartPanel, Figure, FigureTable } from "@/components/overview/panel";
-import { Card, PageHeader } from "@/components/ui/card";
+import { PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
@@ -19,6 +19,13 @@ function monthLabel(month: string, long = false): string {
   const [y, m] = month.split("-").map(Number) as [number, number];
   const name = new Date(Date.UTC(y, m - 1, 1)).toLocaleString("en-US", { month: long ? "long" : "short", timeZone: "UTC" });
   return long ? `${name} ${y}` : `${name} ’${String(y).slice(2)}`;
+}
+
+function dayLabel(date: string, short = false): string {
+  const [y, m, d] = date.split("-").map(Number) as [number, number, number];
+  const dt = new Date(Date.UTC(y, m - 1, d));
+  const wd = dt.toLocaleString("en-US", { weekday: "short", timeZone: "UTC" });
+  return short ? `${wd} ${d}` : `${wd} ${date}`;
 }
 
 function pct(part: number, whole: number): string {
@@ -240,12 +247,34 @@ export default async function StudioOverviewPage() {
           />
         </ChartPanel>
 
-        <Card className="space-y-2">
-          <h2 className="font-semibold">Visits this week</h2>
-          <Notice tone="info" title="Not shown yet">
-            Visits are not recorded in Grainward yet; this figure appears once booking visits is part of the studio console.
-          </Notice>
-        </Card>
+        <ChartPanel
+          title="Visits this week"
+          lead={
+            <>
+              <Link className="text-resin underline-offset-2 hover:underline" href="/studio/visits">
+                {o.visits.total} visit{o.visits.total === 1 ? "" : "s"}
+              </Link>{" "}
+              from {o.visits.weekFrom} to {o.visits.weekTo}: {o.visits.done} done, {o.visits.booked} booked (cancelled ones left out).
+            </>
+          }
+          table={
+            <FigureTable
+              caption="Visits this week by day"
+              columns={["Day", "Booked", "Done"]}
+              rows={o.visits.byDay.map((d) => ({ label: dayLabel(d.date), href: "/studio/visits", cells: [d.booked, d.done] }))}
+            />
+          }
+        >
+          <OverviewBarChart
+            title="Visits this week by day"
+            layout="vertical"
+            data={o.visits.byDay.map((d) => ({ label: dayLabel(d.date, true), booked: d.booked, done: d.done, href: "/studio/visits" }))}
+            series={[
+              { key: "booked", name: "Booked" },
+              { key: "done", name: "Done" },
+            ]}
+          />
+        </ChartPanel>
       </div>
     </>
   );

@@ -2,12 +2,12 @@ import "server-only";
 // The studio's overview (issue 10): every figure computed from the studio's own rows, scoped by the
 // caller's studio, in the studio's time zone. One query per table; care tasks come from the care
 // engine (careSchedule through lib/pieces/care-inputs), computed in bulk for all pieces at once.
-import { and, eq, gte, inArray, isNotNull, isNull } from "drizzle-orm";
+import { and, eq, gte, inArray, isNotNull, isNull, lt, ne } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { careLogEntries, claims, finishLayers, finishProducts, payments, pieces, refreshOffers, reminderSends, warrantyPolicies, CLAIM_STATES, OFFER_STATUSES } from "@/db/schema";
+import { careLogEntries, claims, finishLayers, finishProducts, payments, pieces, refreshOffers, reminderSends, visits, warrantyPolicies, CLAIM_STATES, OFFER_STATUSES } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { CareInputError } from "@/lib/care/errors";
-import { addDays, addMonths, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
+import { addDays, addMonths, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS, CLAIM_CATEGORIES, REMINDER_STEPS, type CareTaskKind, type ClaimCategory, type ReminderStep } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
@@ -40,6 +40,8 @@ export type Overview = {
   firstAnswer: { answered: number; medianMs: number | null; waiting: number };
   offers: { sent: number; accepted: number; byStatus: { status: (typeof OFFER_STATUSES)[number]; count: number }[] };
   revenue: { currency: string; months: { month: string; paidMinor: number; refundedMinor: number; netMinor: number }[]; totalNetMinor: number; otherCurrencies: string[] };
+  /** Monday to Sunday of the current week in the studio's time zone; cancelled visits left out. */
+  visits: { weekFrom: string; weekTo: string; total: number; booked: number; done: number; byDay: { date: string; booked: number; done: number }[] };
 };
 
 const OPEN_CLAIM_STATES: readonly ClaimState[] = ["submitted", "in_review", "awaiting_owner"];
@@ -249,6 +251,20 @@ export function getOverview(ctx: StudioContext, now: Date = new Date()): Overvie
     m.netMinor += p.amountMinor - p.refundedMinor;
   }
 
+  // ---- visits this week (Monday–Sunday, studio time zone), not cancelled ----
+  const weekFrom = addDays(today, 1 - isoWeekday(today));
+  const weekTo = addDays(weekFrom, 6);
+  const visitRows = db
+    .select({ startAt: visits.startAt, state: visits.state })
+    .from(visits)
+    .where(and(eq(visits.studioId, studioId), ne(visits.state, "cancelled"), gte(visits.startAt, new Date(zonedTimeToEpochMs(weekFrom, 0, tz))), lt(visits.startAt, new Date(zonedTimeToEpochMs(addDays(weekTo, 1), 0, tz)))))
+    .all();
+  const byDay = Array.from({ length: 7 }, (_, i) => ({ date: addDays(weekFrom, i), booked: 0, done: 0 }));
+  for (const v of visitRows) {
+    const d = byDay.find((x) => x.date === localDate(v.startAt, tz));
+    if (d) d[v.state === "done" ? "done" : "booked"]++;
+  }
+
   return {
     today,
     timeZone: tz,
@@ -286,6 +302,14 @@ export function getOverview(ctx: StudioContext, now: Date = new Date()): Overvie
       byStatus: OFFER_STATUSES.map((s) => ({ status: s, count: offerCount.get(s) ?? 0 })),
     },
     revenue: { currency: ctx.studio.currency, months, totalNetMinor: months.reduce((a, m) => a + m.netMinor, 0), otherCurrencies: [...otherCurrencies] },
+    visits: {
+      weekFrom,
+      weekTo,
+      total: visitRows.length,
+      booked: byDay.reduce((a, d) => a + d.booked, 0),
+      done: byDay.reduce((a, d) => a + d.done, 0),
+      byDay,
+    },
   };
 }
 

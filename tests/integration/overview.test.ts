@@ -4,7 +4,7 @@
 // (00:00 EDT = 04:00 UTC). All data invented.
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { careLogEntries, claims, payments, pieces, refreshOffers, reminderSends, repairJobs, warrantyPolicies, type Studio } from "@/db/schema";
+import { careLogEntries, claims, payments, pieces, refreshOffers, reminderSends, repairJobs, visits, warrantyPolicies, type Studio } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import type { CareTaskKind, ClaimCategory, ReminderStep } from "@/lib/care/vocabulary";
@@ -55,6 +55,15 @@ function payment(s: Studio, jobId: string, p: { amount: number; refunded?: numbe
   getDb()
     .insert(payments)
     .values({ studioId: s.id, jobId, quoteVersion: 1, checkoutSessionId: unique("cs"), amountMinor: p.amount, refundedMinor: p.refunded ?? 0, currency: p.currency ?? "USD", status: p.status, paidAt: p.paidAt ? new Date(p.paidAt) : null })
+    .run();
+}
+
+function visit(s: Studio, pieceId: string, technicianId: string, startAt: string, state: "booked" | "done" | "cancelled") {
+  const start = new Date(startAt);
+  const jobId = job(s, pieceId).id; // one visit per job
+  getDb()
+    .insert(visits)
+    .values({ studioId: s.id, jobId, pieceId, technicianId, startAt: start, endAt: new Date(start.getTime() + 2 * H), locationKind: "studio", location: "The shop (invented)", icsUid: unique("uid"), state, jobStateBefore: "paid" })
     .run();
 }
 
@@ -130,13 +139,23 @@ beforeAll(async () => {
   payment(studio, j1.id, { amount: 3000, status: "paid", paidAt: "2026-06-05T15:00:00Z", currency: "EUR" }); // Pay6: another currency
   payment(studio, j1.id, { amount: 4000, status: "expired" }); // Pay7: never paid
 
+  // Visits V1–V5. 2026-06-15 is a Monday: the week runs to Sunday 2026-06-21 (EDT).
+  const tech = await memberContext(studio, "technician");
+  visit(studio, p1.id, tech.user.id, "2026-06-15T13:00:00Z", "booked"); // V1 Mon, booked
+  visit(studio, p2.id, tech.user.id, "2026-06-17T18:00:00Z", "done"); // V2 Wed, done
+  visit(studio, p2.id, tech.user.id, "2026-06-18T15:00:00Z", "cancelled"); // V3 cancelled: left out
+  visit(studio, p1.id, tech.user.id, "2026-06-22T03:30:00Z", "booked"); // V4 Sun 21st 23:30 EDT: in
+  visit(studio, p1.id, tech.user.id, "2026-06-15T03:30:00Z", "booked"); // V5 Sun 14th 23:30 EDT: last week
+
   // Another studio with one of everything: none of it may show up above.
   const other = createStudio({ name: "Elsewhere (invented)", timeZone: "America/New_York" });
   const op = createPiece(other, { deliveredOn: "2025-07-01", ownerId: ownerA.id }).piece;
   ledger(other, { pieceId: op.id, userId: ownerA.id, kind: "reoil", surface: "top", step: "due_day", sentAt: "2026-05-01T13:00:00Z" });
   claim(other, op.id, ownerA.id, "crack_gap", "submitted", "2026-06-01T12:00:00Z");
   offer(other, op.id, ownerA.id, "accepted", "2026-05-01T13:00:00Z");
-  payment(other, job(other, op.id).id, { amount: 99900, status: "paid", paidAt: "2026-06-02T15:00:00Z" });
+  const oj = job(other, op.id);
+  payment(other, oj.id, { amount: 99900, status: "paid", paidAt: "2026-06-02T15:00:00Z" });
+  visit(other, op.id, tech.user.id, "2026-06-16T15:00:00Z", "booked");
 
   o = getOverview(staff, NOW);
 });
@@ -224,6 +243,19 @@ describe("overview figures (hand-counted)", () => {
   });
 });
 
+describe("visits this week (hand-counted)", () => {
+  it("Monday to Sunday in the studio's time zone, cancelled ones left out", () => {
+    // V1 Mon booked, V2 Wed done, V4 Sun booked = 3 (V3 cancelled, V5 the week before, the other studio's not ours).
+    expect([o.visits.weekFrom, o.visits.weekTo]).toEqual(["2026-06-15", "2026-06-21"]);
+    expect([o.visits.total, o.visits.booked, o.visits.done]).toEqual([3, 2, 1]);
+    expect(o.visits.byDay.filter((d) => d.booked || d.done)).toEqual([
+      { date: "2026-06-15", booked: 1, done: 0 },
+      { date: "2026-06-17", booked: 0, done: 1 },
+      { date: "2026-06-21", booked: 1, done: 0 },
+    ]);
+  });
+});
+
 describe("overview access and helpers", () => {
   it("another studio's staff see only their own studio", async () => {
     const lonely = createStudio({ name: "Empty (invented)" });
@@ -234,6 +266,7 @@ describe("overview access and helpers", () => {
     expect(e.offers.sent).toBe(0);
     expect(e.revenue.totalNetMinor).toBe(0);
     expect(e.firstAnswer.medianMs).toBeNull();
+    expect(e.visits.total).toBe(0);
   });
 
   it("a technician is refused", async () => {
