@@ -30,7 +30,7 @@ import { topArea } from "@/lib/care/area";
 import { scheduleFromColumns, toCatalog, topShape, type CareLayerColumns, type CarePieceColumns } from "@/lib/pieces/care-inputs";
 import { sendMail } from "@/lib/mail";
 import { composeReminder, type ReminderMail } from "./compose";
-import { decideTask, MAX_ATTEMPTS, OwnerClocks, pendingRetry, RETRY_BACKOFF_MS, STALE_QUEUED_MS, type LedgerRow } from "./plan";
+import { currentStepIndex, decideTask, MAX_ATTEMPTS, OwnerClocks, pendingRetry, RETRY_BACKOFF_MS, STALE_QUEUED_MS, type LedgerRow } from "./plan";
 
 export type ReminderPieceRow = CarePieceColumns & {
   title: string;
@@ -77,6 +77,8 @@ export interface PassReport {
   /** Pieces whose records the care engine could not use (and why). */
   errors: { pieceId: string; message: string }[];
   ms: number;
+  /** Where the time went: reading rows, the care engine, the claim transactions, SMTP. */
+  phases: { readMs: number; computeMs: number; claimMs: number; deliverMs: number };
 }
 
 export interface PassOptions {
@@ -90,11 +92,15 @@ export interface PassOptions {
 }
 
 type Claim = ReminderMail & { rowId: string; token: string };
+type OfferRow = { pieceId: string; id: string; taskKey: string; dueOn: string; status: string; reminderSendId: string | null; sendStatus: string | null };
 
 // Column lists shared by the bulk statements. Pieces are read in id order, in chunks; layers, the care
+// Pieces of every studio are read in one id order, so each chunk is one contiguous key range.
 // log and the ledger are read for the same id range with one SELECT each.
-const PIECE_FILTER = `p.studio_id = ? AND p.owner_id IS NOT NULL AND p.archived_at IS NULL AND p.reminders_paused = 0`;
+const PIECE_FILTER = `p.owner_id IS NOT NULL AND p.archived_at IS NULL AND p.reminders_paused = 0`;
 const RANGE = `p.id > ? AND p.id <= ?`;
+const LEDGER_COLUMNS = `r.piece_id AS pieceId, r.id, r.reminder_key AS reminderKey, r.task_key AS taskKey, r.due_on AS dueOn, r.step, r.status, r.attempts,
+       r.next_attempt_at AS nextAttemptAt, r.message_id AS messageId, r.sent_at AS sentAt, r.updated_at AS updatedAt`;
 
 function statements(sqlite: Database.Database) {
   return {
@@ -118,10 +124,13 @@ function statements(sqlite: Database.Database) {
       `SELECT c.piece_id AS pieceId, c.task_kind AS taskKind, c.done_on AS doneOn, c.surface
          FROM pieces p JOIN care_log_entries c ON c.piece_id = p.id WHERE ${PIECE_FILTER} AND ${RANGE}`,
     ),
-    ledger: sqlite.prepare(
-      `SELECT r.piece_id AS pieceId, r.id, r.reminder_key AS reminderKey, r.task_key AS taskKey, r.due_on AS dueOn, r.step, r.status, r.attempts,
-              r.next_attempt_at AS nextAttemptAt, r.message_id AS messageId, r.sent_at AS sentAt, r.updated_at AS updatedAt
-         FROM pieces p JOIN reminder_sends r ON r.piece_id = p.id WHERE ${PIECE_FILTER} AND ${RANGE}`,
+    // What a chunk needs of the ledger: which reminder keys exist (an index-only range scan: keys
+    // start with the piece id, like task keys below), and the full rows of pending ones. Settled rows
+    // (sent, skipped, cancelled) of earlier steps and past cycles are never read in full.
+    ledgerKeys: sqlite.prepare(`SELECT reminder_key FROM reminder_sends WHERE reminder_key >= ? AND reminder_key < ?`).pluck(),
+    ledgerPending: sqlite.prepare(
+      `SELECT ${LEDGER_COLUMNS} FROM reminder_sends r
+        WHERE r.studio_id IN (SELECT id FROM studios) AND r.status IN ('queued', 'failed') AND r.piece_id > ? AND r.piece_id <= ?`,
     ),
     insertRow: sqlite.prepare(
       `INSERT INTO reminder_sends (id, studio_id, piece_id, user_id, reminder_key, task_key, task_kind, step, due_on, status, attempts, message_id, last_error, created_at, updated_at)
@@ -147,18 +156,18 @@ function statements(sqlite: Database.Database) {
       `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = NULL, last_error = ?, updated_at = ?
         WHERE id = ? AND status = 'queued' AND sent_at IS NOT NULL AND updated_at <= ?`,
     ),
-    offerFor: sqlite.prepare(
-      `SELECT o.id, o.status, o.quote, o.reminder_send_id AS reminderSendId, r.status AS sendStatus
-         FROM refresh_offers o LEFT JOIN reminder_sends r ON r.id = o.reminder_send_id WHERE o.task_key = ? AND o.due_on = ?`,
+    // Task keys start with the piece id, so the pieces (lo, hi] own exactly the task keys in [lo;, hi;)
+    // (":" sorts just before ";") — a range on the unique (task_key, due_on) index.
+    offers: sqlite.prepare(
+      `SELECT o.piece_id AS pieceId, o.id, o.task_key AS taskKey, o.due_on AS dueOn, o.status, o.reminder_send_id AS reminderSendId, r.status AS sendStatus
+         FROM refresh_offers o LEFT JOIN reminder_sends r ON r.id = o.reminder_send_id WHERE o.task_key >= ? AND o.task_key < ?`,
     ),
     insertOffer: sqlite.prepare(
       `INSERT INTO refresh_offers (id, studio_id, piece_id, user_id, task_key, due_on, price_minor, currency, quote, status, reminder_send_id, created_at)
        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, 'offered', ?, ?) ON CONFLICT(task_key, due_on) DO NOTHING`,
     ),
-    relinkOffer: sqlite.prepare(`UPDATE refresh_offers SET reminder_send_id = ? WHERE id = ? AND status = 'offered'`),
-    expireOffers: sqlite.prepare(
-      `UPDATE refresh_offers SET status = 'expired' WHERE piece_id = ? AND task_key = ? AND due_on <> ? AND status = 'offered'`,
-    ),
+    relinkOffer: sqlite.prepare(`UPDATE refresh_offers SET reminder_send_id = ? WHERE id = ? AND status = 'offered' RETURNING quote`),
+    expireOffer: sqlite.prepare(`UPDATE refresh_offers SET status = 'expired' WHERE id = ? AND status = 'offered'`),
     handoff: sqlite.prepare(
       `UPDATE reminder_sends SET attempts = attempts + 1, sent_at = ?, updated_at = ? WHERE id = ? AND status = 'queued' AND message_id = ?`,
     ),
@@ -262,7 +271,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
   const s = stmtsFor(sqlite);
   const nowMs = options.now.getTime();
   if (!Number.isFinite(nowMs)) throw new Error("runReminderPass: now is not a valid date");
-  const chunkSize = options.chunkSize ?? 2000;
+  const chunkSize = options.chunkSize ?? Number(process.env.GW_PASS_CHUNK ?? 1000);
   const deliver = options.deliver ?? true;
   const clocks = new OwnerClocks(nowMs);
   const report: PassReport = {
@@ -281,33 +290,46 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
     lost: 0,
     errors: [],
     ms: 0,
+    phases: { readMs: 0, computeMs: 0, claimMs: 0, deliverMs: 0 },
+  };
+  const ph = report.phases;
+  let mark = performance.now();
+  const lap = (k: keyof PassReport["phases"]) => {
+    const t = performance.now();
+    ph[k] += t - mark;
+    mark = t;
   };
   const staleBefore = nowMs - STALE_QUEUED_MS;
   const recoverNote = `recovered: claimed by a pass that stopped before handing it to SMTP (certainly not sent); retrying`;
   const interruptNote = (at: number | null) =>
     `interrupted while handing to SMTP${at ? ` at ${new Date(at).toISOString()}` : ""}: delivery unknown, so it is not retried automatically — check the outbox, then resend it if it did not arrive`;
 
-  for (const studio of s.studios.all() as StudioRow[]) {
-    report.studios++;
-    const { catalog, byId } = catalogFor(db, studio.id);
+  const studioById = new Map<string, StudioRow & ReturnType<typeof catalogFor>>();
+  for (const st of s.studios.all() as StudioRow[]) studioById.set(st.id, { ...st, ...catalogFor(db, st.id) });
+  report.studios = studioById.size;
+  {
     let after = "";
     for (;;) {
-      const pieces = s.pieces.all(studio.id, after, chunkSize) as ReminderPieceRow[];
+      const pieces = s.pieces.all(after, chunkSize) as ReminderPieceRow[];
       if (pieces.length === 0) break;
       const lo = after;
       const hi = pieces[pieces.length - 1]!.id;
       after = hi;
       report.pieces += pieces.length;
-      const layers = groupBy(s.layers.all(studio.id, lo, hi) as (CareLayerColumns & { pieceId: string })[]);
-      const logs = groupBy(s.careLog.all(studio.id, lo, hi) as (Pick<CareLogRow, "taskKind" | "doneOn" | "surface"> & { pieceId: string })[]);
+      const layers = groupBy(s.layers.all(lo, hi) as (CareLayerColumns & { pieceId: string })[]);
+      const logs = groupBy(s.careLog.all(lo, hi) as (Pick<CareLogRow, "taskKind" | "doneOn" | "surface"> & { pieceId: string })[]);
+      lap("readMs");
 
       // The care engine, outside the write transaction.
-      const schedules: { piece: ReminderPieceRow; tasks: CareTask[] }[] = [];
+      const schedules: { piece: ReminderPieceRow; tasks: CareTask[]; current: number[] }[] = [];
       for (const piece of pieces) {
+        const studio = studioById.get(piece.studioId)!;
+        const catalog = studio.catalog;
         try {
           clocks.at(piece.ownerTimeZone);
           const schedule = scheduleFromColumns({ piece, layers: layers.get(piece.id) ?? [], careLog: logs.get(piece.id) ?? [], catalog, timeZone: studio.timeZone, now: nowMs });
-          schedules.push({ piece, tasks: schedule.tasks });
+          const current = schedule.tasks.map((t) => currentStepIndex(t, clocks, piece.ownerTimeZone));
+          schedules.push({ piece, tasks: schedule.tasks, current });
           report.tasks += schedule.tasks.length;
         } catch (e) {
           if (!(e instanceof CareInputError)) throw e;
@@ -315,14 +337,21 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
         }
       }
 
+      lap("computeMs");
+
       // Claims, in one IMMEDIATE transaction per chunk, against ledger rows read inside it.
       const claims: Claim[] = [];
       sqlite
         .transaction(() => {
-          const ledger = groupBy(s.ledger.all(studio.id, lo, hi) as (LedgerRow & { pieceId: string })[]);
-          for (const { piece, tasks } of schedules) {
+          const existing = new Set(s.ledgerKeys.all(lo === "" ? "" : `${lo};`, `${hi};`) as string[]);
+          const ledger = groupBy(s.ledgerPending.all(lo, hi) as (LedgerRow & { pieceId: string })[]);
+          const offersByPiece = groupBy(s.offers.all(lo === "" ? "" : `${lo};`, `${hi};`) as OfferRow[]);
+          for (const { piece, tasks, current } of schedules) {
+            const studio = studioById.get(piece.studioId)!;
+            const byId = studio.byId;
             const rows = ledger.get(piece.id) ?? [];
             const byKey = new Map<string, LedgerRow>();
+            const view = { pending: (k: string) => byKey.get(k), exists: (k: string) => existing.has(k) };
             for (const r of rows) {
               if (r.status === "queued" && r.updatedAt <= staleBefore) {
                 if (r.sentAt === null) {
@@ -337,15 +366,17 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
               }
               byKey.set(r.reminderKey, r);
             }
-            const current = new Set(tasks.map((t) => `${t.key}|${t.dueOn}`));
+            const cycles = new Set(tasks.map((t) => `${t.key}|${t.dueOn}`));
             for (const r of rows) {
-              if (pendingRetry(r) && !current.has(`${r.taskKey}|${r.dueOn}`) && s.cancel.run(nowMs, r.id).changes > 0) {
+              if (pendingRetry(r) && !cycles.has(`${r.taskKey}|${r.dueOn}`) && s.cancel.run(nowMs, r.id).changes > 0) {
                 r.status = "cancelled";
+                byKey.delete(r.reminderKey);
                 report.cancelled++;
               }
             }
-            for (const task of tasks) {
-              const d = decideTask(task, byKey, clocks, piece.ownerTimeZone);
+            for (let ti = 0; ti < tasks.length; ti++) {
+              const task = tasks[ti]!;
+              const d = decideTask(task, view, clocks, piece.ownerTimeZone, current[ti]);
               for (const k of d.skipNew) {
                 report.skipped += s.insertRow.run({
                   id: randomUUID(), studioId: studio.id, pieceId: piece.id, userId: piece.ownerId, reminderKey: k.reminderKey, taskKey: task.key,
@@ -371,8 +402,9 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
               const product = task.productId ? byId.get(task.productId) : undefined;
               let offer: Claim["offer"];
               if (task.isRefresh) {
-                s.expireOffers.run(piece.id, task.key, task.dueOn);
-                const existing = s.offerFor.get(task.key, task.dueOn) as { id: string; status: string; quote: string; reminderSendId: string | null; sendStatus: string | null } | undefined;
+                const ofTask = (offersByPiece.get(piece.id) ?? []).filter((o) => o.taskKey === task.key);
+                for (const o of ofTask) if (o.dueOn !== task.dueOn && o.status === "offered") s.expireOffer.run(o.id);
+                const existing = ofTask.find((o) => o.dueOn === task.dueOn);
                 if (!existing) {
                   const q = refreshQuote(task, piece, studio, product);
                   if (q) {
@@ -383,8 +415,8 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
                     }
                   }
                 } else if (existing.status === "offered" && (existing.reminderSendId === rowId || existing.sendStatus !== "sent")) {
-                  s.relinkOffer.run(rowId, existing.id);
-                  offer = { id: existing.id, quote: JSON.parse(existing.quote) as Quote };
+                  const relinked = s.relinkOffer.get(rowId, existing.id) as { quote: string } | undefined;
+                  if (relinked) offer = { id: existing.id, quote: JSON.parse(relinked.quote) as Quote };
                 }
               }
               if (!deliver) continue;
@@ -405,6 +437,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
           }
         })
         .immediate();
+      lap("claimMs");
 
       for (const claim of claims) {
         const r = await deliverClaim(db, claim, nowMs);
@@ -414,6 +447,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
         } else if (r.kind === "failed") report.failed.push(r.item);
         else report.lost++;
       }
+      lap("deliverMs");
     }
   }
   report.ms = performance.now() - started;

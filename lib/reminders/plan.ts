@@ -70,39 +70,53 @@ export function pendingRetry(row: LedgerRow): boolean {
 export type TaskDecision = {
   /** The step to send now and how to claim it, if any. */
   send?: { step: ReminderStep; reminderKey: string; claim: "insert" | "retry"; row?: LedgerRow };
-  /** Earlier steps with no row: record as skipped. */
+  /** Earlier steps to record as skipped (INSERT … DO NOTHING: a step that has a row keeps it). */
   skipNew: { step: ReminderStep; reminderKey: string }[];
   /** Earlier steps waiting for a retry: superseded by the step being sent. */
   supersede: LedgerRow[];
 };
 
+/** Index of the most recent reminder step whose 09:00 (owner's zone) has come, or -1. */
+export function currentStepIndex(task: Pick<CareTask, "reminders">, clocks: OwnerClocks, ownerTimeZone: string): number {
+  for (let i = task.reminders.length - 1; i >= 0; i--) if (clocks.hasCome(task.reminders[i]!.on, ownerTimeZone)) return i;
+  return -1;
+}
+
 /**
  * For one task: the most recent reminder step whose date has come (09:00 in the owner's zone) is
- * sent unless its ledger row exists (a failed row is retried when due); earlier steps never sent
- * are recorded as skipped. `rows` are this piece's ledger rows by reminderKey, after stale-row recovery.
+ * sent unless its ledger row exists (a failed row is retried when due); when it is first claimed, the
+ * earlier steps never sent are recorded as skipped.
  */
-export function decideTask(task: Pick<CareTask, "key" | "dueOn" | "reminders">, rows: ReadonlyMap<string, LedgerRow>, clocks: OwnerClocks, ownerTimeZone: string): TaskDecision {
+/** What a chunk knows of the ledger: the full rows that are pending, and which keys exist at all. */
+export interface LedgerView {
+  /** A pending (queued/failed) row, or undefined. */
+  pending(key: string): LedgerRow | undefined;
+  /** Whether any row (of any status) has this key. */
+  exists(key: string): boolean;
+}
+
+export function decideTask(
+  task: Pick<CareTask, "key" | "dueOn" | "reminders">,
+  rows: LedgerView,
+  clocks: OwnerClocks,
+  ownerTimeZone: string,
+  current = currentStepIndex(task, clocks, ownerTimeZone),
+): TaskDecision {
   const out: TaskDecision = { skipNew: [], supersede: [] };
-  let current = -1;
-  for (let i = task.reminders.length - 1; i >= 0; i--) {
-    if (clocks.hasCome(task.reminders[i]!.on, ownerTimeZone)) {
-      current = i;
-      break;
-    }
-  }
   if (current < 0) return out;
   const step = task.reminders[current]!.step;
   const key = reminderKey(task, step);
-  const row = rows.get(key);
-  if (!row) out.send = { step, reminderKey: key, claim: "insert" };
-  else if (retryable(row, clocks.nowMs)) out.send = { step, reminderKey: key, claim: "retry", row };
-  const sendingOrSent = out.send !== undefined || (row !== undefined && (row.status === "sent" || row.status === "queued"));
+  const row = rows.pending(key);
+  if (!row && !rows.exists(key)) out.send = { step, reminderKey: key, claim: "insert" };
+  else if (row && retryable(row, clocks.nowMs)) out.send = { step, reminderKey: key, claim: "retry", row };
+  if (!out.send) return out;
   for (let i = 0; i < current; i++) {
     const s = task.reminders[i]!.step;
     const k = reminderKey(task, s);
-    const r = rows.get(k);
-    if (!r) out.skipNew.push({ step: s, reminderKey: k });
-    else if (pendingRetry(r) && sendingOrSent) out.supersede.push(r);
+    const r = rows.pending(k);
+    if (r) {
+      if (pendingRetry(r)) out.supersede.push(r);
+    } else if (out.send.claim === "insert" && !rows.exists(k)) out.skipNew.push({ step: s, reminderKey: k });
   }
   return out;
 }
