@@ -258,10 +258,10 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
           ))}
         </fieldset>
         <div className="grid grid-cols-2 gap-3">
-          <TextField label="Driest: temperature" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestTemp?.message} {...register("answers.room.driestTemp", num)} />
-          <TextField label="Driest: humidity % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestRh?.message} {...register("answers.room.driestRh", num)} />
-          <TextField label="Dampest: temperature" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestTemp?.message} {...register("answers.room.dampestTemp", num)} />
-          <TextField label="Dampest: humidity % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestRh?.message} {...register("answers.room.dampestRh", num)} />
+          <TextField label="Driest: temp." inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestTemp?.message} {...register("answers.room.driestTemp", num)} />
+          <TextField label="Driest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestRh?.message} {...register("answers.room.driestRh", num)} />
+          <TextField label="Dampest: temp." inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestTemp?.message} {...register("answers.room.dampestTemp", num)} />
+          <TextField label="Dampest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestRh?.message} {...register("answers.room.dampestRh", num)} />
         </div>
         <TextField
           label="Largest change within one day, % RH (optional)"

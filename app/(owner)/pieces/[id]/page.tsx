@@ -77,6 +77,9 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             <Handshake aria-hidden className="size-4" />
             Selling or giving it away?
           </ButtonLink>
+          <ButtonLink href={`/pieces/${piece.id}/claim/new`} variant="secondary">
+            Report damage
+          </ButtonLink>
         </div>
       </header>
 
