@@ -80,24 +80,27 @@ export default async function StudioOverviewPage() {
 
       <div className="grid gap-6 lg:grid-cols-2">
         <ChartPanel
-          title={`Care tasks due in the next ${o.care.days} days, by task`}
-          lead={<>From each piece&apos;s finish stack and care log, up to {o.care.until}.</>}
+          title="Care coming due and overdue, by task"
+          lead={<>From each piece&apos;s finish stack and care log: due from today to {o.care.until}, and past due.</>}
           table={
             <FigureTable
-              caption="Care tasks due, by task"
-              columns={["Task", "Due"]}
-              rows={o.care.byKind.map((k) => ({ label: k.label, href: `/studio/pieces?dueBefore=${o.care.until}&sort=next_due`, cells: [k.count] }))}
+              caption="Care tasks due in the next 30 days and overdue, by task"
+              columns={["Task", `Due by ${o.care.until}`, "Overdue"]}
+              rows={o.care.byKind.map((k) => ({ label: k.label, href: `/studio/pieces?dueBefore=${o.care.until}&sort=next_due`, cells: [k.count, k.overdue] }))}
             />
           }
         >
           {o.care.byKind.length ? (
             <OverviewBarChart
-              title={`Care tasks due in the next ${o.care.days} days, by task`}
-              data={o.care.byKind.map((k) => ({ label: k.label, count: k.count, href: `/studio/pieces?dueBefore=${o.care.until}&sort=next_due` }))}
-              series={[{ key: "count", name: "Tasks due" }]}
+              title="Care tasks due in the next 30 days and overdue, by task"
+              data={o.care.byKind.map((k) => ({ label: k.label, due: k.count, overdue: k.overdue, href: `/studio/pieces?dueBefore=${o.care.until}&sort=next_due` }))}
+              series={[
+                { key: "due", name: `Due in the next ${o.care.days} days` },
+                { key: "overdue", name: "Overdue" },
+              ]}
             />
           ) : (
-            <p className="text-sm text-muted">Nothing falls due in the next {o.care.days} days.</p>
+            <p className="text-sm text-muted">No care is due in the next {o.care.days} days and none is overdue.</p>
           )}
         </ChartPanel>
 

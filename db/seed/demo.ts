@@ -10,6 +10,7 @@ import type { Db } from "../client";
 import { seedJobs } from "./jobs";
 import { seedVisits } from "./visits";
 import { seedClaims } from "./claims";
+import { seedAftercareHistory } from "./aftercare-history";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { finishLayers, finishProducts, memberships, ownerships, pieces, studios, users, warrantyPolicies, type ContainerSize } from "../schema";
 
@@ -285,5 +286,6 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
   const jobs = seedJobs(db, result.studioId, today);
   await seedVisits(db, result.studioId, today, jobs.done);
   await seedClaims(db, result.studioId);
+  seedAftercareHistory(db, result.studioId, today);
   return { ...result, jobs };
 }

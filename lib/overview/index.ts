@@ -34,7 +34,7 @@ export type Overview = {
   /** First day of the window the flows cover (YYYY-MM-DD, studio time zone). */
   since: string;
   pieces: { delivered: number; underWarranty: number; registered: number };
-  care: { days: number; until: string; due: number; piecesDue: number; overdue: number; piecesOverdue: number; byKind: { kind: CareTaskKind; label: string; count: number }[]; skipped: number };
+  care: { days: number; until: string; due: number; piecesDue: number; overdue: number; piecesOverdue: number; byKind: { kind: CareTaskKind; label: string; count: number; overdue: number }[]; skipped: number };
   reminders: { withinDays: number; sent: number; acted: number; owners: number; ownersActed: number; byStep: { step: ReminderStep; label: string; sent: number; acted: number }[] };
   claims: { total: number; open: number; byState: { state: ClaimState; label: string; count: number }[]; byCategory: { category: ClaimCategory; label: string; count: number }[] };
   firstAnswer: { answered: number; medianMs: number | null; waiting: number };
@@ -141,6 +141,7 @@ export function getOverview(ctx: StudioContext, now: Date = new Date()): Overvie
   const logBy = groupBy(logRows, (l) => l.pieceId);
   const until = addDays(today, CARE_DUE_DAYS);
   const byKind = new Map<CareTaskKind, number>();
+  const overdueByKind = new Map<CareTaskKind, number>();
   let due = 0;
   let overdue = 0;
   let skipped = 0;
@@ -170,6 +171,7 @@ export function getOverview(ctx: StudioContext, now: Date = new Date()): Overvie
       if (t.dueOn < today) {
         overdue++;
         piecesOverdue.add(p.id);
+        overdueByKind.set(t.kind, (overdueByKind.get(t.kind) ?? 0) + 1);
       } else if (t.dueOn <= until) {
         due++;
         piecesDue.add(p.id);
@@ -278,7 +280,7 @@ export function getOverview(ctx: StudioContext, now: Date = new Date()): Overvie
       piecesDue: piecesDue.size,
       overdue,
       piecesOverdue: piecesOverdue.size,
-      byKind: CARE_TASK_KINDS.filter((k) => byKind.has(k)).map((k) => ({ kind: k, label: CARE_TASK_LABELS[k], count: byKind.get(k)! })),
+      byKind: CARE_TASK_KINDS.filter((k) => byKind.has(k) || overdueByKind.has(k)).map((k) => ({ kind: k, label: CARE_TASK_LABELS[k], count: byKind.get(k) ?? 0, overdue: overdueByKind.get(k) ?? 0 })),
       skipped,
     },
     reminders: {

@@ -181,8 +181,8 @@ describe("overview figures (hand-counted)", () => {
     expect(o.care.due).toBe(7);
     expect(o.care.piecesDue).toBe(4);
     expect(o.care.byKind).toEqual([
-      { kind: "reoil", label: "Re-oil", count: 4 },
-      { kind: "annual_check", label: "Annual clean and check", count: 3 },
+      { kind: "reoil", label: "Re-oil", count: 4, overdue: 1 },
+      { kind: "annual_check", label: "Annual clean and check", count: 3, overdue: 0 },
     ]);
     expect(o.care.overdue).toBe(1);
     expect(o.care.piecesOverdue).toBe(1);
