@@ -1,0 +1,220 @@
+"use client";
+
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { Ban, CircleAlert, CircleCheck, Clock, Hourglass, PauseCircle, PlayCircle, RotateCw, SkipForward, UserX } from "lucide-react";
+import { useState, type ComponentType } from "react";
+import { toast } from "sonner";
+import { Button } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+import { cn } from "@/components/ui/cn";
+import { Notice } from "@/components/ui/notice";
+import type { LedgerListRow, UpcomingRow } from "@/lib/reminders/staff";
+
+type View = "upcoming" | "ledger";
+type Filters = { status: string; kind: string; step: string; q: string };
+
+const KINDS: [string, string][] = [
+  ["reoil", "Re-oil"],
+  ["topcoat_refresh", "Topcoat refresh"],
+  ["rewax", "Re-wax"],
+  ["film_inspect", "Inspect film finish"],
+  ["resin_polish", "Polish and inspect resin"],
+  ["reoil_charred", "Re-oil charred surface"],
+  ["annual_check", "Annual clean and check"],
+];
+const STEPS: [string, string][] = [
+  ["before_14d", "14 days before"],
+  ["due_day", "On the due date"],
+  ["after_30d", "30 days after"],
+];
+const STEP_WORDS = Object.fromEntries(STEPS) as Record<string, string>;
+
+type Badge = { Icon: ComponentType<{ className?: string; "aria-hidden"?: boolean }>; word: string; tone: string };
+const STATUS: Record<string, Badge> = {
+  queued: { Icon: Hourglass, word: "Sending", tone: "text-resin" },
+  sent: { Icon: CircleCheck, word: "Sent", tone: "text-ok" },
+  failed: { Icon: CircleAlert, word: "Failed", tone: "text-danger" },
+  skipped: { Icon: SkipForward, word: "Skipped", tone: "text-muted" },
+  cancelled: { Icon: Ban, word: "Cancelled", tone: "text-muted" },
+  scheduled: { Icon: Clock, word: "Scheduled", tone: "text-resin" },
+  piece_paused: { Icon: PauseCircle, word: "Paused for this piece", tone: "text-warn" },
+  owner_unsubscribed: { Icon: UserX, word: "Owner unsubscribed", tone: "text-warn" },
+  address_unconfirmed: { Icon: UserX, word: "Address not confirmed", tone: "text-warn" },
+};
+
+function StatusBadge({ status }: { status: string }) {
+  const b = STATUS[status] ?? { Icon: Clock, word: status, tone: "text-ink" };
+  return (
+    <span className={cn("inline-flex items-center gap-1.5 text-sm font-medium", b.tone)}>
+      <b.Icon aria-hidden className="size-4" />
+      {b.word}
+    </span>
+  );
+}
+
+async function getJson<T>(url: string, init?: RequestInit): Promise<T> {
+  const res = await fetch(url, { ...init, headers: { "content-type": "application/json", ...init?.headers } });
+  const body = await res.json().catch(() => ({}));
+  if (!res.ok && !(res.status === 502 && body?.status === "failed")) throw new Error(body?.error?.message ?? `Request failed (${res.status})`);
+  return body as T;
+}
+
+const when = (ms: string | number | Date | null) => (ms ? new Date(ms).toLocaleString() : "—");
+
+export function RemindersBoard() {
+  const [view, setView] = useState<View>("upcoming");
+  const [filters, setFilters] = useState<Filters>({ status: "", kind: "", step: "", q: "" });
+  const qc = useQueryClient();
+  const params = new URLSearchParams({ view, ...Object.fromEntries(Object.entries(filters).filter(([k, v]) => v && (view === "ledger" || k !== "status"))) });
+  const query = useQuery({
+    queryKey: ["reminders", view, filters],
+    queryFn: () => getJson<{ rows: (UpcomingRow | LedgerListRow)[] }>(`/api/reminders?${params}`),
+  });
+  const pause = useMutation({
+    mutationFn: (v: { pieceId: string; paused: boolean }) => getJson<{ remindersPaused: boolean }>("/api/reminders/pause", { method: "POST", body: JSON.stringify(v) }),
+    onSuccess: (r) => {
+      toast.success(r.remindersPaused ? "Reminders paused for this piece." : "Reminders resumed for this piece.");
+      void qc.invalidateQueries({ queryKey: ["reminders"] });
+    },
+    onError: (e) => toast.error(e.message),
+  });
+  const resend = useMutation({
+    mutationFn: (id: string) => getJson<{ status: string; error?: string }>(`/api/reminders/${id}/resend`, { method: "POST" }),
+    onSuccess: (r) => {
+      if (r.status === "sent") toast.success("Sent again.");
+      else toast.error(`Still failing: ${r.error}`);
+      void qc.invalidateQueries({ queryKey: ["reminders"] });
+    },
+    onError: (e) => toast.error(e.message),
+  });
+  const set = (k: keyof Filters) => (e: { target: { value: string } }) => setFilters((f) => ({ ...f, [k]: e.target.value }));
+  const select = "min-h-11 rounded-lg border border-line bg-white px-3 text-sm";
+
+  return (
+    <div className="space-y-4">
+      <div role="tablist" aria-label="Reminders" className="flex gap-2">
+        {(
+          [
+            ["upcoming", "Next 30 days"],
+            ["ledger", "Sent, failed and skipped"],
+          ] as const
+        ).map(([v, label]) => (
+          <button key={v} type="button" role="tab" aria-selected={view === v} onClick={() => setView(v)} className={cn("min-h-11 rounded-md px-3 text-sm font-medium", view === v ? "bg-resin text-white" : "border border-line bg-card")}>
+            {label}
+          </button>
+        ))}
+      </div>
+      <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Filters">
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Search</span>
+          <input type="search" value={filters.q} onChange={set("q")} placeholder="Piece or owner" className={cn(select, "w-56")} />
+        </label>
+        {view === "ledger" ? (
+          <label className="space-y-1 text-sm">
+            <span className="block font-medium">Status</span>
+            <select value={filters.status} onChange={set("status")} className={select}>
+              <option value="">Any</option>
+              {["sent", "failed", "skipped", "cancelled", "queued"].map((s) => (
+                <option key={s} value={s}>{STATUS[s]!.word}</option>
+              ))}
+            </select>
+          </label>
+        ) : null}
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Task</span>
+          <select value={filters.kind} onChange={set("kind")} className={select}>
+            <option value="">Any</option>
+            {KINDS.map(([v, l]) => (
+              <option key={v} value={v}>{l}</option>
+            ))}
+          </select>
+        </label>
+        <label className="space-y-1 text-sm">
+          <span className="block font-medium">Reminder</span>
+          <select value={filters.step} onChange={set("step")} className={select}>
+            <option value="">Any</option>
+            {STEPS.map(([v, l]) => (
+              <option key={v} value={v}>{l}</option>
+            ))}
+          </select>
+        </label>
+      </form>
+
+      {query.isError ? <Notice tone="error" title="Couldn't load reminders">{query.error.message}</Notice> : null}
+      {query.isPending ? <Card aria-busy="true">Loading…</Card> : null}
+      {query.data && query.data.rows.length === 0 ? <Card>{view === "upcoming" ? "Nothing goes out in the next 30 days." : "No reminders match."}</Card> : null}
+      {query.data && query.data.rows.length > 0 ? (
+        <div className="overflow-x-auto rounded-xl border border-line bg-card">
+          <table className="w-full min-w-[48rem] text-left text-sm">
+            <thead className="border-b border-line text-muted">
+              <tr>
+                <th scope="col" className="px-3 py-2 font-medium">{view === "upcoming" ? "Goes out" : "Updated"}</th>
+                <th scope="col" className="px-3 py-2 font-medium">Piece · owner</th>
+                <th scope="col" className="px-3 py-2 font-medium">Task</th>
+                <th scope="col" className="px-3 py-2 font-medium">Reminder</th>
+                <th scope="col" className="px-3 py-2 font-medium">Status</th>
+                <th scope="col" className="px-3 py-2 font-medium"><span className="sr-only">Actions</span></th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-line">
+              {view === "upcoming"
+                ? (query.data.rows as UpcomingRow[]).map((r) => (
+                    <tr key={`${r.taskKey}:${r.step}`}>
+                      <td className="px-3 py-2 tabular-nums">{r.on}</td>
+                      <td className="px-3 py-2">
+                        <span className="font-medium">{r.pieceTitle}</span>
+                        <span className="block text-muted">{r.ownerName}</span>
+                      </td>
+                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {r.dueOn}</span></td>
+                      <td className="px-3 py-2">{STEP_WORDS[r.step]}</td>
+                      <td className="px-3 py-2"><StatusBadge status={r.state} /></td>
+                      <td className="px-3 py-2 text-right">
+                        <PauseButton paused={r.remindersPaused} busy={pause.isPending} onClick={() => pause.mutate({ pieceId: r.pieceId, paused: !r.remindersPaused })} />
+                      </td>
+                    </tr>
+                  ))
+                : (query.data.rows as LedgerListRow[]).map((r) => (
+                    <tr key={r.id}>
+                      <td className="px-3 py-2 tabular-nums">{when(r.updatedAt)}</td>
+                      <td className="px-3 py-2">
+                        <span className="font-medium">{r.pieceTitle}</span>
+                        <span className="block text-muted">{r.ownerName} · {r.ownerEmail}</span>
+                      </td>
+                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {r.dueOn}</span></td>
+                      <td className="px-3 py-2">{STEP_WORDS[r.step]}</td>
+                      <td className="px-3 py-2">
+                        <StatusBadge status={r.status} />
+                        {r.status === "failed" ? (
+                          <span className="block max-w-xs text-xs text-muted">
+                            {r.lastError}
+                            {r.nextAttemptAt ? ` Next try ${when(r.nextAttemptAt)}.` : " No automatic retry."}
+                          </span>
+                        ) : null}
+                        {r.status === "sent" ? <span className="block text-xs text-muted">{when(r.sentAt)}</span> : null}
+                      </td>
+                      <td className="space-y-1 px-3 py-2 text-right">
+                        {r.status === "failed" ? (
+                          <Button variant="secondary" disabled={resend.isPending} onClick={() => resend.mutate(r.id)}>
+                            <RotateCw aria-hidden className="size-4" /> Resend
+                          </Button>
+                        ) : null}
+                        <PauseButton paused={r.remindersPaused} busy={pause.isPending} onClick={() => pause.mutate({ pieceId: r.pieceId, paused: !r.remindersPaused })} />
+                      </td>
+                    </tr>
+                  ))}
+            </tbody>
+          </table>
+        </div>
+      ) : null}
+    </div>
+  );
+}
+
+function PauseButton({ paused, busy, onClick }: { paused: boolean; busy: boolean; onClick: () => void }) {
+  return (
+    <Button variant="ghost" disabled={busy} onClick={onClick}>
+      {paused ? <PlayCircle aria-hidden className="size-4" /> : <PauseCircle aria-hidden className="size-4" />}
+      {paused ? "Resume reminders" : "Pause reminders"}
+    </Button>
+  );
+}
