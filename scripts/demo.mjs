@@ -1,5 +1,5 @@
 // `npm run demo`: a fresh demo database with the invented studio, a production build, then the app,
-// the local SMTP sink (and the other local services as they arrive), until Ctrl-C.
+// the local SMTP sink, the scheduler (care reminders, hourly) and the other local services, until Ctrl-C.
 import { removeDatabase, runStep, supervise } from "./services.mjs";
 
 const port = process.env.PORT ?? "3000";
@@ -29,6 +29,7 @@ supervise(
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
     { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "app", cmd: "next", args: ["start", "-p", port] },
+    { name: "jobs", cmd: "tsx", args: ["jobs/index.ts"] },
   ],
   env,
 );
