@@ -51,7 +51,7 @@ export function reminderProps(m: ReminderMail): CareReminderProps {
 export function composeReminder(m: ReminderMail): SendMailInput {
   return {
     to: m.owner.email,
-    subject: subjectFor(m.step, m.task.label, m.piece.title, m.task.dueOn, daysUntil(m.ownerToday, m.task.dueOn)),
+    subject: subjectFor(m.step, m.task.label, m.piece.title, m.task.dueOn, daysUntil(m.ownerToday, m.task.dueOn), m.task.surface),
     email: createElement(CareReminder, reminderProps(m)),
     headers: {
       ...unsubscribeHeaders(m.owner.id),

@@ -98,8 +98,9 @@ export function stepHeadline(step: ReminderStep, label: string, dueOn: string, d
   return step === "after_30d" ? `${label} is overdue` : `${label} was due on ${longDate(dueOn)}`;
 }
 
-export function subjectFor(step: ReminderStep, label: string, pieceTitle: string, dueOn: string, days: number): string {
-  const what = `${label.toLowerCase()} for your ${pieceTitle}`;
+export function subjectFor(step: ReminderStep, label: string, pieceTitle: string, dueOn: string, days: number, surface: CareTask["surface"] = "top"): string {
+  // A piece can have the same task on its top and its base; the base one says so.
+  const what = `${label.toLowerCase()}${surface === "base" ? " of the base" : ""} for your ${pieceTitle}`;
   if (days > 0) return `Coming due ${longDate(dueOn)}: ${what}`;
   if (days === 0) return `Due today: ${what}`;
   return step === "after_30d" ? `Overdue since ${longDate(dueOn)}: ${what}` : `Due since ${longDate(dueOn)}: ${what}`;
