@@ -622,7 +622,8 @@ export function jobsAwaitingVisit(ctx: StudioContext) {
 }
 
 /** Today and this week's Monday in the studio's time zone, for the calendar's first view. */
-export function calendarWeek(ctx: StudioContext, now = Date.now()) {
+export function calendarWeek(ctx: StudioContext, week?: string, now = Date.now()) {
   const today = localDate(now, ctx.studio.timeZone);
-  return { today, monday: addDays(today, 1 - isoWeekday(today)) };
+  const base = week && /^\d{4}-\d{2}-\d{2}$/.test(week) && !Number.isNaN(Date.parse(`${week}T00:00:00Z`)) && new Date(`${week}T00:00:00Z`).toISOString().startsWith(week) ? week : today;
+  return { today, monday: addDays(base, 1 - isoWeekday(base)) };
 }

@@ -11,9 +11,10 @@ import { calendarWeek, jobsAwaitingVisit, listTechnicians } from "@/lib/visits/s
 export const metadata: Metadata = { title: "Visits" };
 export const dynamic = "force-dynamic";
 
-export default async function StudioVisitsPage() {
+export default async function StudioVisitsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
+  const { week } = await searchParams;
   const ctx = await forPage(requireStaff);
-  const { today, monday } = calendarWeek(ctx);
+  const { today, monday } = calendarWeek(ctx, week);
   const technicians = listTechnicians(ctx).map(({ id, name }) => ({ id, name }));
   const waiting = jobsAwaitingVisit(ctx);
   return (

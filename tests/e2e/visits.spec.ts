@@ -1,0 +1,169 @@
+// Visits in Chromium against the production build: ten simultaneous bookings of one slot over HTTP,
+// an owner booking in the browser, the technician's day at 375×812 with the report filed, the owner's
+// summary at the SMTP sink, and staff moving and cancelling a visit in the week calendar.
+import ICAL from "ical.js";
+import sharp from "sharp";
+import { expect, test, type Page } from "@playwright/test";
+import { getMail, waitForMail } from "../support/mail";
+import { ACCOUNTS, SINK_URL, fixture, signIn } from "./helpers";
+
+const SOL = "sol@larchmere.example";
+type Slot = { technicianId: string; technicianName: string; start: string; localDate: string; localStart: string };
+type Visit = { id: string; jobId: string; start: string; end: string; technicianId: string; technicianName: string; jobTitle: string; state: string; icsUid: string };
+
+async function noHorizontalScroll(page: Page) {
+  const { scroll, width } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, width: window.innerWidth }));
+  expect(scroll).toBeLessThanOrEqual(width);
+}
+
+test("10 simultaneous bookings of one slot → one 201, nine 409 with fresh slots", async ({ page }) => {
+  const jobId = fixture().jobs.covered!;
+  await signIn(page, ACCOUNTS.otherOwner);
+  const slotsRes = await page.request.get(`/api/jobs/${jobId}/slots`);
+  expect(slotsRes.status()).toBe(200);
+  const { slots } = (await slotsRes.json()) as { slots: Slot[] };
+  expect(slots.length).toBeGreaterThan(0);
+  for (const s of slots) expect(Date.parse(s.start)).toBeGreaterThanOrEqual(Date.now() + 47.9 * 3_600_000);
+  const slot = slots[0]!;
+  const answers = await Promise.all(
+    Array.from({ length: 10 }, () => page.request.post("/api/visits", { data: { jobId, technicianId: slot.technicianId, start: slot.start } })),
+  );
+  const codes = answers.map((r) => r.status()).sort();
+  expect(codes).toEqual([201, ...Array(9).fill(409)]);
+  const loser = answers.find((r) => r.status() === 409)!;
+  const body = await loser.json();
+  expect(body.error.message).toBeTruthy();
+  expect(Array.isArray(body.slots)).toBe(true);
+  const winner = (await answers.find((r) => r.status() === 201)!.json()).visit as Visit;
+  // Leave the job as we found it, for anyone else who books it.
+  expect((await page.request.post(`/api/visits/${winner.id}/cancel`, { data: {} })).status()).toBe(200);
+  // Bad input is a 400, never a 500.
+  expect((await page.request.post("/api/visits", { data: { jobId, technicianId: slot.technicianId, start: "soon" } })).status()).toBe(400);
+  expect((await page.request.get(`/api/jobs/${jobId}/slots?from=yesterday`)).status()).toBe(400);
+});
+
+test("owner books a slot; the technician files the report on a phone; the owner gets the summary", async ({ browser }) => {
+  const jobId = fixture().jobs.paid!;
+  const owner = await browser.newPage();
+  await signIn(owner, ACCOUNTS.owner);
+  await owner.goto(`/jobs/${jobId}`);
+  await owner.getByRole("link", { name: "Book your visit" }).click();
+  await expect(owner).toHaveURL(new RegExp(`/jobs/${jobId}/book`));
+  const first = owner.getByRole("button", { name: /with Ines Varga/ }).first();
+  await expect(first).toBeVisible();
+  await first.click();
+  const since = Date.now();
+  await owner.getByRole("button", { name: /^Book / }).click();
+  await expect(owner).toHaveURL(new RegExp(`/jobs/${jobId}$`));
+  await expect(owner.getByText("Your visit")).toBeVisible();
+  await expect(owner.getByText(/with Ines Varga/)).toBeVisible();
+
+  const invite = await waitForMail({ to: ACCOUNTS.owner, subject: /^Visit booked/, since, sinkUrl: SINK_URL });
+  const full = await getMail(invite.id, { sinkUrl: SINK_URL });
+  const ics = Buffer.from(full.attachments.find((a) => a.contentType.startsWith("text/calendar"))!.contentBase64, "base64").toString("utf8");
+  const cal = new ICAL.Component(ICAL.parse(ics));
+  expect(cal.getFirstPropertyValue("method")).toBe("REQUEST"); // RFC 5546
+  expect(cal.getFirstPropertyValue("version")).toBe("2.0"); // RFC 5545 §3.7.4
+  const ev = cal.getFirstSubcomponent("vevent")!;
+  expect(ev.getFirstPropertyValue("location")).toBe("14 Quarry Lane, Port Alder"); // §3.8.1.7
+
+  const list = await owner.request.get(`/api/visits?from=${encodeURIComponent(new Date().toISOString())}&to=${encodeURIComponent(new Date(Date.now() + 40 * 86_400_000).toISOString())}`);
+  const visit = ((await list.json()).visits as Visit[]).find((v) => v.jobId === jobId && v.state === "booked")!;
+  expect(ev.getFirstPropertyValue("uid")).toBe(visit.icsUid);
+  const date = new Intl.DateTimeFormat("en-CA", { timeZone: "America/Los_Angeles" }).format(new Date(visit.start));
+
+  const ctx = await browser.newContext({ viewport: { width: 375, height: 812 }, hasTouch: true, isMobile: true });
+  const tech = await ctx.newPage();
+  await signIn(tech, ACCOUNTS.technician);
+  await tech.goto(`/studio/today?date=${date}`);
+  const card = tech.getByRole("listitem").filter({ has: tech.getByRole("heading", { name: "Walnut river dining table" }) }).filter({ hasText: "Topcoat refresh, dining table" });
+  await expect(card).toBeVisible();
+  await expect(card.getByText("14 Quarry Lane, Port Alder")).toBeVisible();
+  await expect(card.getByRole("list", { name: /Top finish layers/ })).toBeVisible();
+  await expect(card.getByText(/Ceramic-type topcoat, matte/).first()).toBeVisible();
+  await expect(card.getByText(/mL \(.* US fl oz\) for 1 coat on this top/)).toBeVisible();
+  await expect(card.getByText(/closed metal can filled with water/)).toBeVisible();
+  await expect(card.getByText(/licensed electrician/)).toBeVisible();
+  await noHorizontalScroll(tech);
+
+  await card.getByLabel("What was done").fill("Cleaned the top, keyed the old topcoat, one fresh coat of ceramic-type topcoat (e2e).");
+  const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: "#86603b" } }).jpeg().toBuffer();
+  await card.locator('input[type="file"]').nth(1).setInputFiles({ name: "after.jpg", mimeType: "image/jpeg", buffer: photo });
+  await expect(card.getByRole("img", { name: "after photo" })).toBeVisible();
+  await card.getByLabel("Owner's sign-off name").fill("R. Holloway");
+  const submit = card.getByRole("button", { name: "File the report and close the job" });
+  for (const b of [submit, card.getByRole("button", { name: "Add a layer" }), tech.getByRole("link", { name: /Next day/ })]) {
+    const box = await b.boundingBox();
+    expect(box!.height).toBeGreaterThanOrEqual(44);
+  }
+  const sent = Date.now();
+  await submit.click();
+  await expect(card.getByRole("status").getByText("Report filed")).toBeVisible();
+  await noHorizontalScroll(tech);
+
+  const summary = await waitForMail({ to: ACCOUNTS.owner, subject: "Visit report: Walnut river dining table", since: sent, sinkUrl: SINK_URL });
+  expect(summary.text).toContain("one fresh coat of ceramic-type topcoat (e2e)");
+  expect(summary.text).toContain("R. Holloway");
+  expect(summary.text).toMatch(/Ceramic-type topcoat over oil/);
+  await owner.goto(`/jobs/${jobId}`);
+  await expect(owner.getByText("Done", { exact: true }).first()).toBeVisible();
+  await ctx.close();
+});
+
+test("staff move a visit with the edit form and by dragging, then cancel it after confirming", async ({ page }) => {
+  await signIn(page, ACCOUNTS.staff);
+  const now = Date.now();
+  const res = await page.request.get(`/api/visits?from=${encodeURIComponent(new Date(now).toISOString())}&to=${encodeURIComponent(new Date(now + 20 * 86_400_000).toISOString())}`);
+  const visit = ((await res.json()).visits as Visit[]).find((v) => v.jobTitle === "Polish a scuff in the blue resin" && v.state === "booked")!;
+  expect(visit).toBeTruthy();
+  const date = new Intl.DateTimeFormat("en-CA", { timeZone: "America/Los_Angeles" }).format(new Date(visit.start));
+  await page.goto(`/studio/visits?week=${date}`);
+  const block = page.getByRole("button", { name: /^Polish a scuff in the blue resin, 14:00, Sol Amberly/ });
+  await expect(block).toBeVisible();
+  await block.click();
+  const edit = page.getByRole("region", { name: "Edit visit" });
+  await edit.getByLabel("Start time").fill("15:30");
+  await edit.getByRole("button", { name: "Move the visit" }).click();
+  await expect(page.getByText("Visit moved; the owner gets the updated invite.").first()).toBeVisible();
+  await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 15:30/ })).toBeVisible();
+  const moved = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /^Visit moved/, since: now, sinkUrl: SINK_URL });
+  expect(moved.subject).toContain("15:30");
+
+  // Drag it to 10:00 the same day (Sol works 09:00–12:00 there).
+  const target = page.locator(`[data-cell="${date}|600"]`);
+  await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 15:30/ }).dragTo(target);
+  await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ })).toBeVisible();
+  // Dropped on a time outside Sol's hours (07:00): refused, the visit stays.
+  await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ }).dragTo(page.locator(`[data-cell="${date}|420"]`));
+  await expect(page.getByText(/no longer free/).first()).toBeVisible();
+  await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ })).toBeVisible();
+
+  await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ }).click();
+  await page.getByRole("region", { name: "Edit visit" }).getByRole("button", { name: "Cancel the visit" }).click();
+  const dialog = page.getByRole("dialog", { name: "Cancel this visit?" });
+  await expect(dialog).toBeVisible();
+  await dialog.getByRole("button", { name: "Cancel the visit" }).click();
+  await expect(page.getByText("Visit cancelled; the owner gets the cancellation.").first()).toBeVisible();
+  await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin/ })).toHaveCount(0);
+  const cancelled = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /^Visit cancelled/, since: now, sinkUrl: SINK_URL });
+  const full = await getMail(cancelled.id, { sinkUrl: SINK_URL });
+  const ics = Buffer.from(full.attachments.find((a) => a.contentType.startsWith("text/calendar"))!.contentBase64, "base64").toString("utf8");
+  const cal = new ICAL.Component(ICAL.parse(ics));
+  expect(cal.getFirstPropertyValue("method")).toBe("CANCEL");
+  expect(cal.getFirstSubcomponent("vevent")!.getFirstPropertyValue("sequence")).toBe(3);
+});
+
+test("technicians see only their own day; another studio's staff get 404 for visits", async ({ browser }) => {
+  const sol = await browser.newPage();
+  await signIn(sol, SOL);
+  await expect(sol).toHaveURL(/\/studio\/today/);
+  const mine = await sol.request.get(`/api/visits?from=${encodeURIComponent(new Date().toISOString())}&to=${encodeURIComponent(new Date(Date.now() + 20 * 86_400_000).toISOString())}`);
+  const visits = (await mine.json()).visits as Visit[];
+  expect(visits.length).toBeGreaterThan(0);
+  expect(visits.every((v) => v.technicianName === "Sol Amberly")).toBe(true);
+  const other = await browser.newPage();
+  await signIn(other, ACCOUNTS.otherStudioStaff);
+  expect((await other.request.get(`/api/jobs/${fixture().jobs.covered}/slots`)).status()).toBe(404);
+  expect((await other.request.post(`/api/visits/${visits[0]!.id}/cancel`, { data: {} })).status()).toBe(404);
+  expect((await other.request.patch(`/api/visits/${visits[0]!.id}`, { data: { start: visits[0]!.start } })).status()).toBe(404);
+});
