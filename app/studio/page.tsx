@@ -134,15 +134,15 @@ export default async function StudioOverviewPage() {
             ]}
           />
           <p className="text-sm">
-            <Link className="text-resin underline-offset-2 hover:underline" href="/studio/reports/reminders?acted=yes">
+            <Link className="text-resin underline underline-offset-2" href="/studio/reports/reminders?acted=yes">
               Reminders followed by care
             </Link>{" "}
             ·{" "}
-            <Link className="text-resin underline-offset-2 hover:underline" href="/studio/reports/reminders?acted=no">
+            <Link className="text-resin underline underline-offset-2" href="/studio/reports/reminders?acted=no">
               not followed
             </Link>{" "}
             ·{" "}
-            <Link className="text-resin underline-offset-2 hover:underline" href="/studio/reminders?view=ledger&status=sent">
+            <Link className="text-resin underline underline-offset-2" href="/studio/reminders?view=ledger&status=sent">
               send ledger
             </Link>
           </p>
@@ -152,7 +152,7 @@ export default async function StudioOverviewPage() {
           title="Claims by state"
           lead={
             <>
-              {o.claims.total} claim{o.claims.total === 1 ? "" : "s"} in all, <Link className="text-resin underline-offset-2 hover:underline" href="/studio/claims?state=open">{o.claims.open} open</Link>.
+              {o.claims.total} claim{o.claims.total === 1 ? "" : "s"} in all, <Link className="text-resin underline underline-offset-2" href="/studio/claims?state=open">{o.claims.open} open</Link>.
             </>
           }
           table={
@@ -168,7 +168,7 @@ export default async function StudioOverviewPage() {
 
         <ChartPanel
           title="Claims by kind of damage"
-          lead={<>Every claim filed, by the category the owner chose. The <Link className="text-resin underline-offset-2 hover:underline" href="/studio/reports">claims report</Link> relates them to species, finish and resin.</>}
+          lead={<>Every claim filed, by the category the owner chose. The <Link className="text-resin underline underline-offset-2" href="/studio/reports">claims report</Link> relates them to species, finish and resin.</>}
           table={
             <FigureTable
               caption="Claims by kind of damage"
@@ -254,7 +254,7 @@ export default async function StudioOverviewPage() {
           title="Visits this week"
           lead={
             <>
-              <Link className="text-resin underline-offset-2 hover:underline" href="/studio/visits">
+              <Link className="text-resin underline underline-offset-2" href="/studio/visits">
                 {o.visits.total} visit{o.visits.total === 1 ? "" : "s"}
               </Link>{" "}
               from {o.visits.weekFrom} to {o.visits.weekTo}: {o.visits.done} done, {o.visits.booked} booked (cancelled ones left out).

@@ -22,10 +22,13 @@ export function Figure({ label, value, href, note, className }: { label: string;
 
 /** A chart with its numbers as a table underneath (open the details), for screen readers and for reading exact values. */
 export function ChartPanel({ title, lead, children, table, className, id }: { title: string; lead?: ReactNode; children: ReactNode; table: ReactNode; className?: string; id?: string }) {
+  const headingId = `${id ?? title.toLowerCase().replace(/[^a-z0-9]+/g, "-")}-title`;
   return (
-    <Card className={cn("flex flex-col gap-3", className)} id={id}>
+    <Card className={cn("flex flex-col gap-3", className)} id={id} role="region" aria-labelledby={headingId}>
       <div>
-        <h2 className="font-semibold">{title}</h2>
+        <h2 id={headingId} className="font-semibold">
+          {title}
+        </h2>
         {lead ? <p className="text-sm text-muted">{lead}</p> : null}
       </div>
       {children}
@@ -61,7 +64,7 @@ export function FigureTable({ caption, columns, rows }: { caption: string; colum
         {rows.map((r, i) => (
           <tr key={i} className="border-b border-line/60 last:border-0">
             <th scope="row" className="py-1.5 pr-2 font-normal">
-              <Link href={r.href} className="text-resin underline-offset-2 hover:underline">
+              <Link href={r.href} className="text-resin underline underline-offset-2">
                 {r.label}
               </Link>
             </th>

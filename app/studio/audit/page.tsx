@@ -79,7 +79,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
                     {r.href ? (
                       <>
                         {" · "}
-                        <Link href={r.href} className="text-resin underline-offset-2 hover:underline">
+                        <Link href={r.href} className="text-resin underline underline-offset-2">
                           open the {r.subjectType.replace("_", " ")}
                         </Link>
                       </>
@@ -103,8 +103,8 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         )}
         {pages > 1 ? (
           <nav aria-label="Pages" className="mt-4 flex justify-between text-sm">
-            {q.page > 1 ? <Link className="inline-flex min-h-11 items-center text-resin hover:underline" href={pageHref(q.page - 1)}>← Newer</Link> : <span />}
-            {q.page < pages ? <Link className="inline-flex min-h-11 items-center text-resin hover:underline" href={pageHref(q.page + 1)}>Older →</Link> : <span />}
+            {q.page > 1 ? <Link className="inline-flex min-h-11 items-center text-resin underline underline-offset-2" href={pageHref(q.page - 1)}>← Newer</Link> : <span />}
+            {q.page < pages ? <Link className="inline-flex min-h-11 items-center text-resin underline underline-offset-2" href={pageHref(q.page + 1)}>Older →</Link> : <span />}
           </nav>
         ) : null}
       </Card>

@@ -92,7 +92,7 @@ export default async function ReportsPage({ searchParams }: { searchParams: Sear
                   id: x.key,
                   cells: {
                     group: d.href ? (
-                      <Link className="text-resin underline-offset-2 hover:underline" href={d.href(x.key)}>
+                      <Link className="text-resin underline underline-offset-2" href={d.href(x.key)}>
                         {x.label}
                       </Link>
                     ) : (
@@ -122,10 +122,10 @@ export default async function ReportsPage({ searchParams }: { searchParams: Sear
       <Card className="mt-6">
         <h2 className="mb-2 font-semibold">The lists behind the overview</h2>
         <ul className="grid gap-1 text-sm sm:grid-cols-2">
-          <li><Link className="text-resin hover:underline" href="/studio/reports/reminders">Reminders sent and the care that followed</Link></li>
-          <li><Link className="text-resin hover:underline" href="/studio/reports/answers">Claims and the time to their first answer</Link></li>
-          <li><Link className="text-resin hover:underline" href="/studio/reports/offers">Refresh offers and their outcome</Link></li>
-          <li><Link className="text-resin hover:underline" href="/studio/reports/revenue">Repair payments and refunds</Link></li>
+          <li><Link className="text-resin underline underline-offset-2" href="/studio/reports/reminders">Reminders sent and the care that followed</Link></li>
+          <li><Link className="text-resin underline underline-offset-2" href="/studio/reports/answers">Claims and the time to their first answer</Link></li>
+          <li><Link className="text-resin underline underline-offset-2" href="/studio/reports/offers">Refresh offers and their outcome</Link></li>
+          <li><Link className="text-resin underline underline-offset-2" href="/studio/reports/revenue">Repair payments and refunds</Link></li>
         </ul>
       </Card>
     </>

@@ -66,7 +66,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
   const t = TITLES[list as ReportList];
   const money = (m: number, c: string) => `${formatMinorUnits(m, c)} ${c}`;
   const pieceLink = (id: string, title: string) => (
-    <Link className="text-resin underline-offset-2 hover:underline" href={`/studio/pieces/${id}`}>
+    <Link className="text-resin underline underline-offset-2" href={`/studio/pieces/${id}`}>
       {title}
     </Link>
   );
@@ -135,7 +135,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
       const month = "month" in q ? q.month : undefined;
       filters = month ? (
         <p className="mb-4 text-sm">
-          Paid in {month}. <Link className="text-resin hover:underline" href="/studio/reports/revenue">Show every month</Link>
+          Paid in {month}. <Link className="text-resin underline underline-offset-2" href="/studio/reports/revenue">Show every month</Link>
         </p>
       ) : null;
       columns = [
@@ -149,7 +149,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
         id: r.id,
         cells: {
           job: (
-            <Link className="text-resin underline-offset-2 hover:underline" href={`/studio/jobs/${r.jobId}`}>
+            <Link className="text-resin underline underline-offset-2" href={`/studio/jobs/${r.jobId}`}>
               {r.jobTitle} <span className="text-muted">· {r.pieceTitle}</span>
             </Link>
           ),
@@ -177,7 +177,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
         id: r.id,
         cells: {
           claim: (
-            <Link className="text-resin underline-offset-2 hover:underline" href={`/studio/claims/${r.id}`}>
+            <Link className="text-resin underline underline-offset-2" href={`/studio/claims/${r.id}`}>
               {r.category} <span className="text-muted">· {r.pieceTitle}</span>
             </Link>
           ),
@@ -196,11 +196,11 @@ export default async function ReportListPage({ params, searchParams }: { params:
     <>
       <PageHeader title={t.title} lead={`${t.lead} Since ${result.since}.`} />
       <p className="mb-4 text-sm">
-        <Link className="text-resin hover:underline" href="/studio">
+        <Link className="text-resin underline underline-offset-2" href="/studio">
           ← Overview
         </Link>{" "}
         ·{" "}
-        <Link className="text-resin hover:underline" href="/studio/reports">
+        <Link className="text-resin underline underline-offset-2" href="/studio/reports">
           Reports
         </Link>
       </p>

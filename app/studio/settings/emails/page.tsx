@@ -21,7 +21,7 @@ export default async function EmailPreviewsPage() {
       <ul className="divide-y divide-line">
         {templates.map((t) => (
           <li key={t.slug} className="py-3">
-            <Link href={`/studio/settings/emails/${t.slug}`} className="font-medium text-resin underline-offset-2 hover:underline">
+            <Link href={`/studio/settings/emails/${t.slug}`} className="font-medium text-resin underline underline-offset-2">
               {t.name}
             </Link>
             <p className="text-sm text-muted">

@@ -13,7 +13,7 @@ export default async function EmailPreviewPage({ params }: { params: Promise<{ t
   return (
     <div className="space-y-4">
       <p className="text-sm">
-        <Link href="/studio/settings/emails" className="text-resin hover:underline">
+        <Link href="/studio/settings/emails" className="text-resin underline underline-offset-2">
           ← All e-mails
         </Link>
       </p>
