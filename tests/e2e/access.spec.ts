@@ -47,7 +47,8 @@ for (const who of WHO) {
       const outcome = entry.expect[who];
       await page.goto(entry.path);
       // Redirects from inside a streamed page finish on the client; let them settle.
-      await page.waitForLoadState("networkidle");
+      await page.waitForLoadState("load");
+      await page.waitForTimeout(300);
       if (outcome === "denied") await expect(page).toHaveURL(/denied=1/);
       const url = new URL(page.url());
       const where = `${who} → ${entry.path} (ended at ${url.pathname}${url.search})`;

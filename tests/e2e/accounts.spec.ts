@@ -69,8 +69,8 @@ test("an admin invites a technician, who joins from the e-mail", async ({ page, 
   const email = `tech-${Date.now()}@larchmere.example`;
   await signIn(page, ACCOUNTS.admin);
   await page.goto("/studio/team");
-  await page.getByLabel("Email").fill(email);
-  await page.getByLabel("Role").selectOption("technician");
+  await page.getByLabel("Email", { exact: true }).fill(email);
+  await page.getByLabel("Role", { exact: true }).selectOption("technician");
   await page.getByRole("button", { name: "Send invitation" }).click();
   await expect(page.getByText(`Invitation sent to ${email}.`)).toBeVisible();
   await expect(page.getByRole("main").getByRole("listitem").filter({ hasText: email })).toBeVisible();
