@@ -65,7 +65,7 @@ export function RegistryTable() {
 
   const v = (k: Key) => params.get(k) ?? "";
   const data = query.data;
-  const sort = v("sort") || (v("q") ? "relevance" : "delivered");
+  const sort = v("sort") || (v("q") ? "created" : "delivered");
   const dir = v("dir") || (sort === "title" || sort === "next_due" ? "asc" : "desc");
   const filtersOn = FILTER_KEYS.some((k) => !["sort", "dir", "page", "pageSize"].includes(k) && params.get(k));
   const exportQs = new URLSearchParams(qs);
@@ -159,7 +159,7 @@ export function RegistryTable() {
             <option value="delivered">Delivery date</option>
             <option value="title">Title</option>
             <option value="next_due">Next care due</option>
-            <option value="created">Recorded</option>
+            <option value="created">Newest recorded</option>
           </Filter>
         </div>
         <div className="flex flex-wrap items-center gap-2">
@@ -175,7 +175,7 @@ export function RegistryTable() {
       </form>
 
       <div aria-live="polite" className="text-sm text-muted">
-        {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? "No pieces match." : `${from}–${to} of ${data.total} piece${data.total === 1 ? "" : "s"}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
+        {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? "No pieces match." : `${from}–${to} of ${data.totalIsCapped ? `more than ${data.total.toLocaleString()}` : data.total.toLocaleString()} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
       </div>
 

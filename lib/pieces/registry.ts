@@ -79,10 +79,18 @@ export function studioMembers(ctx: StudioContext) {
 
 const withFunctions = new WeakSet<object>();
 
-/** Registers gw_add_months (the care engine's clamping month arithmetic) on the connection, once. */
+/**
+ * Once per connection: registers gw_add_months (the care engine's clamping month arithmetic), and lets
+ * SQLite memory-map the file and keep a larger page cache, since a registry search touches pages all
+ * over the pieces table (random ids). Both only change speed, never results.
+ */
 function ensureSqlFunctions(db: Db): void {
   const client = db.$client;
   if (withFunctions.has(client)) return;
+  if (client.name !== ":memory:") {
+    client.pragma("mmap_size = 268435456");
+    client.pragma("cache_size = -65536");
+  }
   client.function("gw_add_months", { deterministic: true }, (date: unknown, months: unknown) =>
     typeof date === "string" && typeof months === "number" ? addMonths(date, months) : null,
   );
@@ -117,14 +125,15 @@ export type RegistryRow = {
   underWarranty: boolean;
 };
 
-export type RegistryPage = { rows: RegistryRow[]; total: number; page: number; pageSize: number; query: PieceListQuery; matchedBy: "code" | "text" | null };
+export type RegistryPage = { rows: RegistryRow[]; total: number; /** true: at least `total` matches (SEARCH_COUNT_CAP). */ totalIsCapped: boolean; page: number; pageSize: number; query: PieceListQuery; matchedBy: "code" | "text" | null };
 
 function speciesName(id: string | null): string | null {
   if (!id) return null;
   return getSpecies(id)?.commonName ?? id;
 }
 
-type Filter = { where: SQL; fts: string | null; codeHash: string | null };
+/** `where` checks each FTS row's piece id too (safe even if a VACUUM renumbered rowids before a reindex); `count` skips that read. */
+type Filter = { where: SQL; count: SQL; fts: string | null; codeHash: string | null };
 
 function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<string, number>, useCode: boolean): Filter {
   const conds: SQL[] = [sql`p.studio_id = ${ctx.studio.id}`];
@@ -149,26 +158,35 @@ function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<string, n
     else {
       fts = ftsQuery(typed);
       // Nothing searchable (only punctuation): no piece matches.
-      conds.push(fts ? sql`pieces_fts MATCH ${fts} AND pieces_fts.piece_id = p.id` : sql`0`);
+      conds.push(fts ? sql`pieces_fts MATCH ${fts}` : sql`0`);
     }
   }
-  return { where: sql.join(conds, sql` AND `), fts, codeHash };
+  const count = sql.join(conds, sql` AND `);
+  return { where: fts ? sql`${count} AND pieces_fts.piece_id = p.id` : count, count, fts, codeHash };
 }
 
+// Ties break on rowid (insertion order), which the (studio_id, delivered_on) index carries, so the
+// default orders read straight off an index; with a search, "newest recorded" reads the FTS index
+// backwards and stops at the page (bm25 relevance ranks every match, so it is a choice, not the default).
 function orderBy(q: PieceListQuery, hasFts: boolean): SQL {
-  const sort = q.sort ?? (hasFts ? "relevance" : "delivered");
+  const sort = q.sort ?? (hasFts ? "created" : "delivered");
   const dir = q.dir === "asc" ? sql`ASC` : q.dir === "desc" ? sql`DESC` : sort === "title" ? sql`ASC` : sql`DESC`;
   switch (sort) {
     case "relevance":
-      return hasFts ? sql`pieces_fts.rank ASC, p.delivered_on DESC, p.id` : sql`p.delivered_on DESC, p.id`;
+      return hasFts ? sql`pieces_fts.rank ASC, p.rowid DESC` : sql`p.delivered_on DESC, p.rowid DESC`;
     case "title":
-      return sql`p.title COLLATE NOCASE ${dir}, p.id`;
+      return sql`p.title COLLATE NOCASE ${dir}, p.rowid ${dir}`;
     case "created":
-      return sql`p.created_at ${dir}, p.id`;
+      return hasFts ? sql`pieces_fts.rowid ${dir}` : sql`p.rowid ${dir}`;
     default:
-      return sql`p.delivered_on ${dir}, p.created_at ${dir}, p.id`;
+      return sql`p.delivered_on ${dir}, p.rowid ${dir}`;
   }
 }
+
+/** A text search counts its matches up to this many ("1,000+"); counting further would read every match. */
+export const SEARCH_COUNT_CAP = 500;
+/** Without a text search, counts stop here ("10,000+"). */
+export const LIST_COUNT_CAP = 10_000;
 
 export type Loaded = { piece: Piece; owner: { name: string; email: string } | null; layers: FinishLayer[]; careLog: { taskKind: CareTask["kind"]; doneOn: string; surface: FinishLayer["surface"] | null }[] };
 
@@ -225,15 +243,16 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
 
   const run = (useCode: boolean) => {
     const f = buildFilter(ctx, q, terms, useCode);
-    const from = f.fts ? sql`pieces_fts JOIN pieces p ON p.rowid = pieces_fts.rowid` : sql`pieces p`;
+    const from = f.fts ? sql`pieces_fts CROSS JOIN pieces p ON p.rowid = pieces_fts.rowid` : sql`pieces p`;
     const computed = q.sort === "next_due" || q.dueBefore !== undefined;
     if (!computed) {
       const offset = all ? 0 : (q.page - 1) * q.pageSize;
-      const ids = db.all<{ id: string; total: number }>(
-        sql`SELECT p.id AS id, count(*) OVER () AS total FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`,
-      );
-      const total = ids[0]?.total ?? (q.page > 1 ? (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM ${from} WHERE ${f.where}`)?.n ?? 0) : 0);
-      return { f, ids: ids.map((r) => r.id), total, loaded: null as Map<string, Loaded> | null, schedules: null as Map<string, CareSchedule | null> | null };
+      const ids = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
+      const limit = f.fts ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
+      // A page that is not full tells the total without counting.
+      const n = all || (ids.length < q.pageSize && (ids.length > 0 || q.page === 1)) ? offset + ids.length : (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
+      const capped = !all && n > limit;
+      return { f, ids: ids.map((r) => r.id), total: capped ? limit : n, capped, loaded: null as Map<string, Loaded> | null, schedules: null as Map<string, CareSchedule | null> | null };
     }
     // Next care due is computed by the care engine, so filter and sort on it in memory.
     const candidates = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
@@ -255,7 +274,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
       });
     }
     const start = all ? 0 : (q.page - 1) * q.pageSize;
-    return { f, ids: all ? ids : ids.slice(start, start + q.pageSize), total: ids.length, loaded, schedules };
+    return { f, ids: all ? ids : ids.slice(start, start + q.pageSize), total: ids.length, capped: false, loaded, schedules };
   };
 
   let result = run(true);
@@ -290,7 +309,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
       underWarranty: ends !== null && ends >= t,
     });
   }
-  return { rows, total: result.total, page: q.page, pageSize: q.pageSize, query: q, matchedBy, loaded };
+  return { rows, total: result.total, totalIsCapped: result.capped, page: q.page, pageSize: q.pageSize, query: q, matchedBy, loaded };
 }
 
 // ---- create, edit, delete ----
