@@ -1,0 +1,63 @@
+// Care reminders in the browser: the staff view, and RFC 8058 one-click unsubscribe over real HTTP with
+// no cookies (then back on through the page, so other specs see the demo owner as seeded).
+import Database from "better-sqlite3";
+import { expect, test } from "@playwright/test";
+import { ACCOUNTS, signIn } from "./helpers";
+import { oneClickUnsubscribeUrl, preferencesUrl } from "../../lib/reminders/tokens";
+
+function ownerId(email: string): string {
+  const db = new Database("tests/.tmp/e2e.db", { readonly: true, fileMustExist: true });
+  try {
+    return (db.prepare("SELECT id FROM users WHERE email = ?").get(email) as { id: string }).id;
+  } finally {
+    db.close();
+  }
+}
+// The tokens module builds links from APP_URL; the e2e server's is http://localhost:3100.
+const onServer = (url: string) => url.replace(/^https?:\/\/[^/]+/, "");
+
+test("staff see upcoming reminders and the ledger, filter them, and pause and resume a piece", async ({ page }) => {
+  await signIn(page, ACCOUNTS.staff);
+  await page.getByRole("link", { name: "Reminders" }).first().click();
+  await expect(page.getByRole("heading", { name: "Care reminders" })).toBeVisible();
+  await expect(page.getByRole("tab", { name: "Next 30 days" })).toHaveAttribute("aria-selected", "true");
+  await page.getByRole("tab", { name: "Sent, failed and skipped" }).click();
+  await expect(page.getByLabel("Status")).toBeVisible();
+  await page.getByLabel("Status").selectOption("sent");
+  await expect(page.getByRole("table").or(page.getByText("No reminders match."))).toBeVisible();
+  const pause = page.getByRole("button", { name: "Pause reminders" }).first();
+  if (await pause.isVisible()) {
+    await pause.click();
+    await expect(page.getByText("Reminders paused for this piece.")).toBeVisible();
+    await page.getByRole("button", { name: "Resume reminders" }).first().click();
+    await expect(page.getByText("Reminders resumed for this piece.")).toBeVisible();
+  }
+});
+
+test("owners are refused the staff reminders API", async ({ page }) => {
+  await signIn(page, ACCOUNTS.owner);
+  expect((await page.request.get("/api/reminders?view=ledger")).status()).toBe(403);
+  expect((await page.request.get("/api/reminders?view=nonsense")).status()).toBe(400);
+});
+
+test("one-click unsubscribe: POST without cookies → 200, no redirect; the page turns reminders back on", async ({ playwright, page }) => {
+  const id = ownerId(ACCOUNTS.otherOwner);
+  const api = await playwright.request.newContext({ baseURL: "http://localhost:3100" });
+  try {
+    const url = onServer(oneClickUnsubscribeUrl(id));
+    expect((await api.post(url, { form: { "List-Unsubscribe": "Nope" } })).status()).toBe(400);
+    expect((await api.post(url.replace(/\.[^.]+$/, ".forgedtoken000"), { form: { "List-Unsubscribe": "One-Click" } })).status()).toBe(404);
+    const res = await api.post(url, { form: { "List-Unsubscribe": "One-Click" }, maxRedirects: 0, headers: { origin: "https://mail.example" } });
+    expect(res.status()).toBe(200);
+    expect(await res.text()).toMatch(/Unsubscribed/);
+  } finally {
+    await api.dispose();
+  }
+  await page.goto(onServer(preferencesUrl(id)));
+  await expect(page.getByText(/Care reminders for .* are off/)).toBeVisible();
+  await page.getByRole("button", { name: "Turn care reminders back on" }).click();
+  await expect(page.getByText("Reminders are back on")).toBeVisible();
+  await expect(page.getByRole("button", { name: "Unsubscribe from care reminders" })).toBeVisible();
+  await page.goto("/unsubscribe?t=not-a-real-token-at-all");
+  await expect(page.getByText("This link doesn't work")).toBeVisible();
+});
