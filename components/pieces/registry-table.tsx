@@ -268,7 +268,7 @@ export function RegistryTable() {
               </li>
             ))}
           </ul>
-          <nav aria-label="Pages" className="flex items-center justify-between gap-2">
+          <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-2">
             <Button variant="secondary" disabled={data.page <= 1} onClick={() => set({ page: String(data.page - 1) }, false)}>
               <ChevronLeft aria-hidden className="size-4" /> Previous
             </Button>
