@@ -1,7 +1,7 @@
 import "server-only";
 // The studio's audit log (issue 10): who did what and when, newest first, filterable by kind of
 // change, person and period. Staff and admins read it; rows are the studio's own.
-import { and, count, desc, eq, gte, like, lt, or, type SQL } from "drizzle-orm";
+import { and, count, desc, eq, gte, like, lt, or, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditLog, memberships, users } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
@@ -113,7 +113,8 @@ export function listAudit(ctx: StudioContext, raw: unknown) {
     .from(auditLog)
     .leftJoin(users, eq(users.id, auditLog.actorId))
     .where(where)
-    .orderBy(desc(auditLog.createdAt), desc(auditLog.id))
+    // rowid breaks ties between rows written in the same millisecond: newest written first.
+    .orderBy(desc(auditLog.createdAt), desc(sql`${auditLog}.rowid`))
     .limit(AUDIT_PAGE_SIZE)
     .offset((q.page - 1) * AUDIT_PAGE_SIZE)
     .all()
