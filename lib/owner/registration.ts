@@ -1,4 +1,5 @@
 import "server-only";
+import { indexPiece } from "@/lib/pieces/search-index";
 import { and, eq, isNull } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
@@ -107,6 +108,8 @@ export async function registerPiece(user: Pick<User, "id" | "emailVerifiedAt">, 
     const via = before ? "transfer" : "registration";
     tx.insert(ownerships).values({ studioId: piece.studioId, pieceId: piece.id, userId: user.id, via, startedAt: now }).run();
     recordAudit(tx, { studioId: piece.studioId, actorId: user.id, action: "piece.registered", subjectType: "piece", subjectId: piece.id, data: { via } });
+    // The registry searches by owner name and e-mail.
+    indexPiece(tx, piece.id);
     return { pieceId: piece.id };
   });
   if (result instanceof AppError) throw result;

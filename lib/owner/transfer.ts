@@ -1,4 +1,5 @@
 import "server-only";
+import { indexPiece } from "@/lib/pieces/search-index";
 import { and, eq, isNull } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
@@ -39,6 +40,7 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
     const studioId = released[0]!.studioId;
     tx.update(ownerships).set({ endedAt: now }).where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.userId, user.id), isNull(ownerships.endedAt))).run();
     recordAudit(tx, { studioId, actorId: user.id, action: "piece.released", subjectType: "piece", subjectId: pieceId, data: {} });
+    indexPiece(tx, pieceId);
     return tx.select().from(studios).where(eq(studios.id, studioId)).get()!;
   });
 

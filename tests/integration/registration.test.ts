@@ -5,11 +5,12 @@ import { NextRequest } from "next/server";
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { ownerships, pieces } from "@/db/schema";
+import { ownerships, pieces, users } from "@/db/schema";
 import { rateLimits } from "@/lib/auth/rate-limit";
 import { CROCKFORD_CHECK_ALPHABET, generateRegistrationCode } from "@/lib/care/registration-code";
 import { parseJson, route } from "@/lib/http/route";
 import { lookupCard, registerPiece } from "@/lib/owner/registration";
+import { releasePiece } from "@/lib/owner/transfer";
 import { CODE_TYPO_MESSAGE } from "@/lib/validation/owner";
 import { createPiece, createStudio, createUser, unique } from "../support/fixtures";
 
@@ -181,6 +182,19 @@ describe("drawer-card landing lookup", () => {
     expect(await lookupCard(code, freshIp(), owner)).toMatchObject({ pieceId: piece.id });
     const stranger = await lookupCard(code, freshIp(), await verifiedUser());
     expect(stranger).toMatchObject({ state: "registered", pieceId: null });
+  });
+
+  it("registering and releasing keep the registry's owner search up to date", async () => {
+    const studio = createStudio();
+    const { piece, code } = createPiece(studio);
+    const owner = await verifiedUser();
+    getDb().update(users).set({ name: "Marisol Quenby (invented)" }).where(eq(users.id, owner.id)).run();
+    await registerPiece(owner, { code }, freshIp());
+    const ownerText = () => (getDb().$client.prepare("SELECT owner FROM pieces_fts WHERE piece_id = ?").get(piece.id) as { owner: string } | undefined)?.owner ?? "";
+    expect(ownerText()).toContain("Marisol Quenby");
+    const full = getDb().select().from(users).where(eq(users.id, owner.id)).get()!;
+    await releasePiece(full, piece.id, { confirm: true });
+    expect(ownerText()).not.toContain("Marisol Quenby");
   });
 
   it("tells a typo from an unknown code, and rate-limits misses per IP", async () => {
