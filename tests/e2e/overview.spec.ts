@@ -157,7 +157,7 @@ test("settings: profile, warranty versions (a date before today is refused next 
   const frame = page.frameLocator('iframe[title="Care reminder, HTML version"]');
   await expect(frame.getByText("Walnut river dining table").filter({ visible: true }).first()).toBeVisible();
   // No axe run here: the preview is a sandboxed frame without scripts, which axe cannot enter.
-  await expect(page.getByRole("link", { name: "Finish catalog" })).toHaveAttribute("href", "/studio/catalog");
+  await expect(page.getByRole("navigation", { name: "Settings" }).getByRole("link", { name: "Finish catalog" })).toHaveAttribute("href", "/studio/catalog");
   expect(errors).toEqual([]);
 });
 
