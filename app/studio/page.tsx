@@ -55,7 +55,7 @@ export default async function StudioOverviewPage() {
         <h2 id="pieces-h" className="sr-only">
           Pieces and care
         </h2>
-        <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
+        <div className="grid grid-cols-2 gap-3 sm:gap-4 lg:grid-cols-4">
           <Figure label="Pieces delivered" value={o.pieces.delivered} href="/studio/pieces?sort=delivered&dir=desc" note={`${o.pieces.registered} registered by their owners`} />
           <Figure label="Under warranty today" value={o.pieces.underWarranty} href="/studio/pieces?warranty=active" note={`of ${o.pieces.delivered} delivered`} />
           <Figure
@@ -189,7 +189,7 @@ export default async function StudioOverviewPage() {
         <h2 id="flows-h" className="sr-only">
           Answers and offers
         </h2>
-        <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
+        <div className="grid grid-cols-2 gap-3 sm:gap-4 lg:grid-cols-4">
           <Figure
             label="Median time to first answer"
             value={o.firstAnswer.medianMs === null ? "—" : formatWait(o.firstAnswer.medianMs)}

@@ -10,7 +10,7 @@ export function Figure({ label, value, href, note, className }: { label: string;
     <Link href={href} className={cn("group block rounded-xl focus-visible:outline-offset-4", className)}>
       <Card className="h-full transition-colors group-hover:border-resin">
         <p className="text-sm text-muted">{label}</p>
-        <p className="mt-1 flex items-baseline gap-1 font-display text-4xl font-semibold">
+        <p className="mt-1 flex items-baseline gap-1 font-display text-3xl font-semibold sm:text-4xl">
           {value}
           <ChevronRight aria-hidden className="size-5 self-center text-muted group-hover:text-resin" />
         </p>

@@ -4,7 +4,7 @@ import Link from "next/link";
 import { OverviewBarChart } from "@/components/overview/bar-chart";
 import { ChartPanel } from "@/components/overview/panel";
 import { DataTable } from "@/components/reports/data-table";
-import { ButtonLink, Button } from "@/components/ui/button";
+import { Button } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
@@ -42,9 +42,10 @@ export default async function ReportsPage({ searchParams }: { searchParams: Sear
         title="Reports"
         lead="Claims per 100 pieces: what the studio's own claims say about species, finishes and resin. Pieces delivered by the end of the period count; claims by the day they were filed."
         actions={
-          <ButtonLink href={csvHref} variant="secondary" download>
+          // A plain link: a file download is not a page for the router to prefetch.
+          <a href={csvHref} download className="inline-flex min-h-11 items-center justify-center gap-2 rounded-lg border border-line bg-card px-4 py-2 text-sm font-semibold text-ink hover:border-resin hover:text-resin">
             <Download aria-hidden className="size-4" /> Download CSV
-          </ButtonLink>
+          </a>
         }
       />
       <Card className="mb-6">
