@@ -34,7 +34,7 @@ export function OverviewBarChart({ data, series, layout = "horizontal", format =
     return format === "money" ? formatMinorUnits(Math.round(n), currency) : String(n);
   };
   const rows = layout === "horizontal";
-  const h = height ?? (rows ? Math.max(120, data.length * (series.length > 1 ? 44 : 32) + 40) : 240);
+  const h = height ?? (rows ? Math.max(120, data.length * (series.length > 1 ? 48 : 40) + 40) : 240);
   const open = (d: unknown) => {
     const href = (d as { payload?: BarDatum } | undefined)?.payload?.href;
     if (href) router.push(href);
