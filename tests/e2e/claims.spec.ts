@@ -152,7 +152,8 @@ test("the photo route refuses an oversize body with 413 and a non-image with 415
     data: {
       pieceId,
       category: "other",
-      noticedOn: new Date().toISOString().slice(0, 10),
+      // Three days back: "today" in UTC can still be tomorrow in the studio's time zone.
+      noticedOn: new Date(Date.now() - 3 * 86_400_000).toISOString().slice(0, 10),
       description: "Upload limits check from the e2e suite (invented).",
       answers: { heat: "no", chemicals: "no", impact: "no", usedOutdoors: "no", directSun: "no" },
     },

@@ -50,7 +50,8 @@ const ownerCookies = await Promise.all(owners.map(cookieFor));
 const staffCookie = await cookieFor(DEMO_ACCOUNTS.teo.email);
 const ownedPieces = owners.map((e) => db.select({ id: schema.pieces.id }).from(schema.pieces).where(and(eq(schema.pieces.ownerId, userId(e)), isNotNull(schema.pieces.ownerId))).all().map((p) => p.id));
 const allPieces = db.select({ id: schema.pieces.id }).from(schema.pieces).all().map((p) => p.id);
-const today = new Date().toISOString().slice(0, 10);
+// Three days back: "today" in UTC can be tomorrow in the studio's or owner's time zone.
+const today = new Date(Date.now() - 3 * 86_400_000).toISOString().slice(0, 10);
 
 type Ack = { kind: "claim" | "care" | "layer"; id: string };
 let failures = 0;
