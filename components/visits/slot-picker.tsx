@@ -43,6 +43,7 @@ export function SlotPicker(p: Props) {
   const [busy, setBusy] = useState(false);
   const [confirmCancel, setConfirmCancel] = useState(false);
   const [fresh, setFresh] = useState<string | null>(null);
+  const [day, setDay] = useState<string | null>(null);
   const [base] = useState(() => Date.now());
   const from = new Date(base + page * 14 * DAY).toISOString();
   const to = new Date(base + (page + 1) * 14 * DAY).toISOString();
@@ -56,6 +57,7 @@ export function SlotPicker(p: Props) {
     for (const s of slots.data ?? []) m.set(s.localDate, [...(m.get(s.localDate) ?? []), s]);
     return [...m.entries()];
   }, [slots.data]);
+  const shownDay = byDay.find(([d]) => d === day) ?? byDay[0];
 
   async function confirm() {
     if (!chosen) return;
@@ -150,9 +152,23 @@ export function SlotPicker(p: Props) {
       ) : byDay.length === 0 ? (
         <Notice tone="info" title="No free times in these two weeks">Try later dates{p.audience === "owner" ? `; visits are booked at least ${p.leadTimeHours} hours ahead` : ""}.</Notice>
       ) : (
-        <div className="space-y-4" aria-label="Free times">
-          {byDay.map(([date, list]) => (
-            <section key={date} className="space-y-2">
+        <div className="space-y-4">
+          <div role="group" aria-label="Days with free times" className="flex flex-wrap gap-2">
+            {byDay.map(([date, list]) => (
+              <button
+                key={date}
+                type="button"
+                aria-pressed={shownDay?.[0] === date}
+                onClick={() => setDay(date)}
+                className={cn("min-h-11 rounded-lg border px-3 py-1 text-sm", shownDay?.[0] === date ? "border-resin bg-resin-soft font-semibold text-resin-dark" : "border-line bg-card hover:border-resin")}
+              >
+                {new Intl.DateTimeFormat("en-GB", { weekday: "short", day: "numeric", month: "short", timeZone: "UTC" }).format(new Date(`${date}T12:00:00Z`))}
+                <span className="block text-xs text-muted">{list.length} free</span>
+              </button>
+            ))}
+          </div>
+          {[shownDay!].map(([date, list]) => (
+            <section key={date} className="space-y-2" aria-label="Free times">
               <h3 className="font-semibold">{dayHeading(date)}</h3>
               <ul className="grid grid-cols-2 gap-2 sm:grid-cols-4">
                 {list.map((s) => {

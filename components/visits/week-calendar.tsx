@@ -22,7 +22,7 @@ type Tech = { id: string; name: string };
 const DAY_START = 7 * 60;
 const DAY_END = 19 * 60;
 const STEP = 30;
-const ROW_PX = 26;
+const ROW_PX = 30;
 const ROWS = (DAY_END - DAY_START) / STEP;
 const TECH_STYLES = ["border-resin bg-resin-soft", "border-warn bg-warn-soft", "border-ok bg-ok-soft", "border-ink/40 bg-card"];
 
@@ -171,12 +171,15 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
                       style={{ top, height }}
                       aria-label={`${v.jobTitle}, ${hm(p.startMin)}, ${v.technicianName}${v.state === "done" ? ", done" : ""}. Open to move or cancel.`}
                     >
-                      <span className="flex items-center gap-1 font-semibold">
+                      <span className="flex min-w-0 items-center gap-1">
                         {movable ? <GripVertical aria-hidden className="size-3 shrink-0" /> : null}
-                        {hm(p.startMin)} {initials(v.technicianName)}
-                        {v.state === "done" ? " · done" : ""}
+                        <span className="shrink-0 font-semibold">
+                          {hm(p.startMin)} {initials(v.technicianName)}
+                          {v.state === "done" ? " · done" : ""}
+                        </span>
+                        {p.len < 60 ? <span className="truncate">{v.pieceTitle}</span> : null}
                       </span>
-                      <span className="block truncate">{v.pieceTitle}</span>
+                      {p.len >= 60 ? <span className="block truncate">{v.pieceTitle}</span> : null}
                     </button>
                   );
                 })}
