@@ -138,9 +138,11 @@ test("staff move a visit with the edit form and by dragging, then cancel it afte
   const target = page.locator(`[data-cell="${date}|600"]`);
   await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 15:30/ }).dragTo(target);
   await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ })).toBeVisible();
-  // Dropped on a time outside Sol's hours (07:00): refused, the visit stays.
+  // Dropped on a time outside Sol's hours (07:00): refused with a 409 (an error toast), the visit stays.
+  const refused = page.waitForResponse((r) => r.url().includes(`/api/visits/${visit.id}`) && r.request().method() === "PATCH");
   await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ }).dragTo(page.locator(`[data-cell="${date}|420"]`));
-  await expect(page.getByText(/no longer free/).first()).toBeVisible();
+  expect((await refused).status()).toBe(409);
+  await expect(page.locator('[data-sonner-toast][data-type="error"]').first()).toBeVisible();
   await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ })).toBeVisible();
 
   await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ }).click();
