@@ -101,8 +101,15 @@ async function burst(url: string, seconds: number, acks: Ack[], statuses: Map<nu
       const text = await res.text().catch(() => "");
       if (/SQLITE_BUSY|database is locked/i.test(text)) busyLeaks++;
       if (res.ok) {
-        const body = JSON.parse(text);
-        const id = body.claim?.id ?? body.entry?.id ?? body.layer?.id ?? body.id;
+        // A response cut off by the kill is no acknowledgement: the client never saw the id.
+        let body: Record<string, { id?: string } | string | undefined>;
+        try {
+          body = JSON.parse(text);
+        } catch {
+          continue;
+        }
+        const pick = (k: string) => (typeof body[k] === "object" ? (body[k] as { id?: string }).id : undefined);
+        const id = pick("claim") ?? pick("entry") ?? pick("layer");
         if (id) acks.push({ kind, id });
       }
     }
