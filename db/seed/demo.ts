@@ -99,7 +99,7 @@ const PIECES: PieceSpec[] = [
     ],
   },
   {
-    title: "Buckeye burl console", kind: "console", shape: { kind: "rectangle", lengthMm: 1400, widthMm: 380 }, thicknessMm: 38, primary: "yellow_buckeye",
+    title: "Burl-top buckeye console", kind: "console", shape: { kind: "rectangle", lengthMm: 1400, widthMm: 380 }, thicknessMm: 38, primary: "yellow_buckeye",
     resin: { kind: "tabletop_coat", volumeMl: 1200, tint: "clear" }, base: ["steel hairpin legs", "clear lacquer"], use: "light", sun: "indirect", deliveredMonthsAgo: 4,
     address: "88 Harbour Road, Port Alder",
     layers: [{ surface: "top", product: "epoxyPolish", coats: 1, monthsAgo: 4, by: "teo", notes: "Flood coat polished to satin." }],

@@ -82,8 +82,8 @@ export const SPECIES: readonly Species[] = [
     coefficientFromMemory: true,
   }),
   row("yellow_buckeye", "Yellow buckeye", "Aesculus flava (A. octandra)", [0.00123, 0.00285], [3.6, 8.1, 12.5], {
-    aliases: ["buckeye", "buckeye burl"],
-    note: "used for buckeye burl tops; burl grain is irregular, so the flat-sawn (tangential) figure is an upper estimate",
+    aliases: ["burl of buckeye", "buckeye"],
+    note: "used for burl tops of buckeye, whose grain is irregular, so the flat-sawn (tangential) figure is an upper estimate",
   }),
   row("western_redcedar", "Western redcedar", "Thuja plicata", [0.00111, 0.00234], [2.4, 5.0, 6.8], {
     aliases: ["cedar", "red cedar"],

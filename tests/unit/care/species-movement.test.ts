@@ -6,7 +6,7 @@ describe("species table", () => {
     expect(new Set(SPECIES.map((s) => s.id)).size).toBe(SPECIES.length);
     expect(findSpecies("hard maple")?.id).toBe("sugar_maple");
     expect(findSpecies("Spalted Maple")?.id).toBe("red_maple");
-    expect(findSpecies("buckeye burl")?.id).toBe("yellow_buckeye");
+    expect(findSpecies("burl of buckeye")?.id).toBe("yellow_buckeye");
     expect(findSpecies("cedar")?.id).toBe("western_redcedar");
     expect(findSpecies("black-walnut")?.id).toBe("black_walnut");
   });
