@@ -32,7 +32,7 @@ export function SiteHeader({ nav, userName, context, children }: { nav: NavItem[
         </nav>
         <div className="ml-auto flex items-center gap-2">
           {children}
-          <span className="hidden text-sm text-muted md:inline">{userName}</span>
+          <span className="hidden text-sm text-muted 2xl:inline">{userName}</span>
           <form action={signOutAction}>
             <button type="submit" className="min-h-11 rounded-md px-3 text-sm font-medium text-resin hover:bg-resin-soft">
               Sign out
