@@ -1,8 +1,11 @@
 // The reminder pass (DESIGN.md §5, issue 6). For every registered piece with reminders on, compute its
 // care tasks (lib/care via lib/pieces/care-inputs, studio time zone), and for each task send the most
-// recent reminder step whose date has come at 09:00 in the owner's zone, unless the send ledger already
-// has it. Runs from the scheduler (jobs/index.ts, hourly), from `npm run jobs:run-once -- --now <ISO>`,
-// and in tests. No server-only or next/* imports: it runs under tsx outside Next.js.
+// recent reminder step whose date has come at the studio's send hour (default 09:00) in the owner's
+// zone, unless the send ledger already has it. Only the steps the studio sends count (settings →
+// reminder timing, read afresh by every pass): the others are dropped from the task before anything
+// is decided, and a row of one waiting for a retry is cancelled. Runs from the scheduler (jobs/index.ts,
+// hourly), from `npm run jobs:run-once -- --now <ISO>`, and in tests. No server-only or next/* imports:
+// it runs under tsx outside Next.js.
 //
 // Never twice — the ledger protocol:
 // 1. Claim: in an IMMEDIATE transaction a pass inserts the row (status queued) with
@@ -30,7 +33,19 @@ import { topArea } from "@/lib/care/area";
 import { scheduleFromColumns, toCatalog, topShape, type CareLayerColumns, type CarePieceColumns } from "@/lib/pieces/care-inputs";
 import { sendMail } from "@/lib/mail";
 import { composeReminder, type ReminderMail } from "./compose";
-import { currentStepIndex, decideTask, MAX_ATTEMPTS, OwnerClocks, pendingRetry, RETRY_BACKOFF_MS, STALE_QUEUED_MS, type LedgerRow } from "./plan";
+import {
+  currentStepIndex,
+  decideTask,
+  MAX_ATTEMPTS,
+  OwnerClocks,
+  pendingRetry,
+  RETRY_BACKOFF_MS,
+  STALE_QUEUED_MS,
+  timingFromColumns,
+  withEnabledSteps,
+  type LedgerRow,
+  type SendTiming,
+} from "./plan";
 
 export type ReminderPieceRow = CarePieceColumns & {
   title: string;
@@ -50,6 +65,14 @@ export type StudioRow = {
   taxRateBp: number;
   labourRateMinor: number;
   travelFeeMinor: number;
+};
+
+/** The studio's reminder timing columns as the studios query reads them. */
+type StudioTimingColumns = {
+  /** studios.reminder_send_hour (0–23, owner's local time). */
+  reminderSendHour: number;
+  /** studios.reminder_steps as stored (JSON text). */
+  reminderSteps: string;
 };
 
 export type SentItem = { reminderKey: string; to: string; subject: string; messageId: string; offerId?: string };
@@ -105,7 +128,8 @@ const LEDGER_COLUMNS = `r.piece_id AS pieceId, r.id, r.reminder_key AS reminderK
 function statements(sqlite: Database.Database) {
   return {
     studios: sqlite.prepare(
-      `SELECT id, name, time_zone AS timeZone, currency, tax_rate_bp AS taxRateBp, labour_rate_minor AS labourRateMinor, travel_fee_minor AS travelFeeMinor FROM studios ORDER BY id`,
+      `SELECT id, name, time_zone AS timeZone, currency, tax_rate_bp AS taxRateBp, labour_rate_minor AS labourRateMinor, travel_fee_minor AS travelFeeMinor,
+              reminder_send_hour AS reminderSendHour, reminder_steps AS reminderSteps FROM studios ORDER BY id`,
     ),
     pieces: sqlite.prepare(
       `SELECT p.id, p.studio_id AS studioId, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
@@ -147,6 +171,10 @@ function statements(sqlite: Database.Database) {
     ),
     cancel: sqlite.prepare(
       `UPDATE reminder_sends SET status = 'cancelled', next_attempt_at = NULL, updated_at = ? WHERE id = ? AND status = 'failed' AND next_attempt_at IS NOT NULL`,
+    ),
+    cancelStepOff: sqlite.prepare(
+      `UPDATE reminder_sends SET status = 'cancelled', next_attempt_at = NULL, last_error = COALESCE(last_error || ' — ', '') || ?, updated_at = ?
+        WHERE id = ? AND status = 'failed' AND next_attempt_at IS NOT NULL`,
     ),
     recover: sqlite.prepare(
       `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = ?, last_error = ?, updated_at = ?
@@ -304,8 +332,11 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
   const interruptNote = (at: number | null) =>
     `interrupted while handing to SMTP${at ? ` at ${new Date(at).toISOString()}` : ""}: delivery unknown, so it is not retried automatically — check the outbox, then resend it if it did not arrive`;
 
-  const studioById = new Map<string, StudioRow & ReturnType<typeof catalogFor>>();
-  for (const st of s.studios.all() as StudioRow[]) studioById.set(st.id, { ...st, ...catalogFor(db, st.id) });
+  const stepOffNote = "not sent: the studio turned this reminder step off";
+  const studioById = new Map<string, StudioRow & ReturnType<typeof catalogFor> & { timing: SendTiming }>();
+  for (const { reminderSendHour, reminderSteps, ...st } of s.studios.all() as (StudioRow & StudioTimingColumns)[]) {
+    studioById.set(st.id, { ...st, ...catalogFor(db, st.id), timing: timingFromColumns(reminderSendHour, reminderSteps) });
+  }
   report.studios = studioById.size;
   {
     let after = "";
@@ -321,15 +352,18 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
       lap("readMs");
 
       // The care engine, outside the write transaction.
+      // Each task keeps only the steps its studio sends, before the current step is found.
       const schedules: { piece: ReminderPieceRow; tasks: CareTask[]; current: number[] }[] = [];
       for (const piece of pieces) {
         const studio = studioById.get(piece.studioId)!;
         const catalog = studio.catalog;
+        const { steps, sendAfterMinutes } = studio.timing;
         try {
           clocks.at(piece.ownerTimeZone);
           const schedule = scheduleFromColumns({ piece, layers: layers.get(piece.id) ?? [], careLog: logs.get(piece.id) ?? [], catalog, timeZone: studio.timeZone, now: nowMs });
-          const current = schedule.tasks.map((t) => currentStepIndex(t, clocks, piece.ownerTimeZone));
-          schedules.push({ piece, tasks: schedule.tasks, current });
+          const tasks = schedule.tasks.map((t) => withEnabledSteps(t, steps));
+          const current = tasks.map((t) => currentStepIndex(t, clocks, piece.ownerTimeZone, sendAfterMinutes));
+          schedules.push({ piece, tasks, current });
           report.tasks += schedule.tasks.length;
         } catch (e) {
           if (!(e instanceof CareInputError)) throw e;
@@ -368,7 +402,11 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
             }
             const cycles = new Set(tasks.map((t) => `${t.key}|${t.dueOn}`));
             for (const r of rows) {
-              if (pendingRetry(r) && !cycles.has(`${r.taskKey}|${r.dueOn}`) && s.cancel.run(nowMs, r.id).changes > 0) {
+              if (!pendingRetry(r)) continue;
+              const cancelled = !cycles.has(`${r.taskKey}|${r.dueOn}`)
+                ? s.cancel.run(nowMs, r.id).changes > 0
+                : !studio.timing.steps.includes(r.step) && s.cancelStepOff.run(stepOffNote, nowMs, r.id).changes > 0;
+              if (cancelled) {
                 r.status = "cancelled";
                 byKey.delete(r.reminderKey);
                 report.cancelled++;

@@ -6,15 +6,19 @@
 //   failed   — the SMTP server refused or could not be reached; retried while nextAttemptAt is set
 //              (at most MAX_ATTEMPTS tries); nextAttemptAt null = no automatic retry.
 //   skipped  — a later step had come by the time this one could go (no bursts of stale mail).
-//   cancelled— the task's cycle moved on (care was logged, or the finish changed) before it went.
+//   cancelled— the task's cycle moved on (care was logged, or the finish changed) before it went, or
+//              the studio turned its step off while it waited for a retry.
 import { localDateTime } from "@/lib/care/dates";
 import type { CareTask } from "@/lib/care/schedule";
 import { reminderKey } from "@/lib/care/schedule";
-import type { ReminderStep } from "@/lib/care/vocabulary";
+import { REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
 
 export const MAX_ATTEMPTS = 3;
-/** Reminders go out at or after this local time of the owner (DESIGN.md §5). */
-export const SEND_AFTER_MINUTES = 9 * 60;
+/**
+ * Reminders go out at or after this local time of the owner unless the studio chose another hour
+ * (DESIGN.md §5: 09:00; studios.reminder_send_hour, settings → reminder timing).
+ */
+export const DEFAULT_SEND_AFTER_MINUTES = 9 * 60;
 /** A queued row untouched for this long belongs to a pass that died (or hangs); see pass.ts. */
 export const STALE_QUEUED_MS = 15 * 60_000;
 /** Wait before retry n (after failed try n): 15 min, then 1 h. */
@@ -52,11 +56,53 @@ export class OwnerClocks {
     }
     return c;
   }
-  /** Has 09:00 on `date` in `timeZone` come? (Equivalent to now ≥ that local instant; 09:00 is never in a DST gap.) */
-  hasCome(date: string, timeZone: string): boolean {
+  /**
+   * Has the send time (`sendAfterMinutes` after local midnight, e.g. the studio's hour × 60) on `date`
+   * in `timeZone` come? Compared on the owner's wall clock, not as an instant: a send time that does
+   * not exist that day (inside a spring-forward gap, e.g. 02:00 in New York on 14 March 2027) has come
+   * from the first instant after the gap (03:00 EDT), so the reminder still goes out that day. A wall
+   * time that occurs twice (clocks go back) has come from its first occurrence; the ledger row claimed
+   * then keeps the second one from sending again.
+   */
+  hasCome(date: string, timeZone: string, sendAfterMinutes: number): boolean {
     const c = this.at(timeZone);
-    return date < c.date || (date === c.date && c.minutes >= SEND_AFTER_MINUTES);
+    return date < c.date || (date === c.date && c.minutes >= sendAfterMinutes);
   }
+}
+
+/** A studio's reminder timing as the pass uses it. */
+export interface SendTiming {
+  /** Minutes after the owner's local midnight at or after which a step may go (hour × 60). */
+  sendAfterMinutes: number;
+  /** The steps the studio sends, in REMINDER_STEPS order. */
+  steps: readonly ReminderStep[];
+}
+
+/**
+ * The timing from the studios row's columns (reminder_send_hour, reminder_steps as stored JSON text).
+ * The settings page only ever writes valid values; anything else found there falls back to the column
+ * defaults (09:00, every step) rather than stopping the pass for every studio.
+ */
+export function timingFromColumns(sendHour: unknown, stepsJson: unknown): SendTiming {
+  const hour = typeof sendHour === "number" && Number.isInteger(sendHour) && sendHour >= 0 && sendHour <= 23 ? sendHour : DEFAULT_SEND_AFTER_MINUTES / 60;
+  let steps: readonly ReminderStep[] = REMINDER_STEPS;
+  try {
+    const parsed: unknown = typeof stepsJson === "string" ? JSON.parse(stepsJson) : stepsJson;
+    if (Array.isArray(parsed)) steps = REMINDER_STEPS.filter((s) => parsed.includes(s));
+  } catch {
+    // not JSON: keep the default
+  }
+  return { sendAfterMinutes: hour * 60, steps };
+}
+
+/**
+ * The task with only the steps the studio sends. Dropped steps are never sent and never recorded as
+ * skipped; whatever rode on the first reminder (a refresh offer) rides on the first step left.
+ * Returns the same object when every step is on.
+ */
+export function withEnabledSteps<T extends Pick<CareTask, "reminders">>(task: T, steps: readonly ReminderStep[]): T {
+  if (task.reminders.every((r) => steps.includes(r.step))) return task;
+  return { ...task, reminders: task.reminders.filter((r) => steps.includes(r.step)) };
 }
 
 export function retryable(row: LedgerRow, nowMs: number): boolean {
@@ -76,17 +122,17 @@ export type TaskDecision = {
   supersede: LedgerRow[];
 };
 
-/** Index of the most recent reminder step whose 09:00 (owner's zone) has come, or -1. */
-export function currentStepIndex(task: Pick<CareTask, "reminders">, clocks: OwnerClocks, ownerTimeZone: string): number {
-  for (let i = task.reminders.length - 1; i >= 0; i--) if (clocks.hasCome(task.reminders[i]!.on, ownerTimeZone)) return i;
+/** Index of the most recent reminder step whose send time (owner's zone) has come, or -1. */
+export function currentStepIndex(
+  task: Pick<CareTask, "reminders">,
+  clocks: OwnerClocks,
+  ownerTimeZone: string,
+  sendAfterMinutes: number = DEFAULT_SEND_AFTER_MINUTES,
+): number {
+  for (let i = task.reminders.length - 1; i >= 0; i--) if (clocks.hasCome(task.reminders[i]!.on, ownerTimeZone, sendAfterMinutes)) return i;
   return -1;
 }
 
-/**
- * For one task: the most recent reminder step whose date has come (09:00 in the owner's zone) is
- * sent unless its ledger row exists (a failed row is retried when due); when it is first claimed, the
- * earlier steps never sent are recorded as skipped.
- */
 /** What a chunk knows of the ledger: the full rows that are pending, and which keys exist at all. */
 export interface LedgerView {
   /** A pending (queued/failed) row, or undefined. */
@@ -95,6 +141,12 @@ export interface LedgerView {
   exists(key: string): boolean;
 }
 
+/**
+ * For one task (its reminders already cut to the studio's steps, see withEnabledSteps): the most
+ * recent reminder step whose send time has come in the owner's zone is sent unless its ledger row
+ * exists (a failed row is retried when due); when it is first claimed, the earlier steps never sent
+ * are recorded as skipped.
+ */
 export function decideTask(
   task: Pick<CareTask, "key" | "dueOn" | "reminders">,
   rows: LedgerView,
