@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
-import { getDb, type Db } from "@/db/client";
+import { cachedAll, cachedGet, getDb, type Db } from "@/db/client";
 import {
   careLogEntries,
   claims,
@@ -61,6 +61,7 @@ export function loadPiece(ctx: StudioContext, pieceId: string, db: DbOrTx = getD
 }
 
 export function studioProducts(studioId: string, db: DbOrTx = getDb()): FinishProduct[] {
+  if (db === getDb()) return statements(db as Db).products.all({ studioId });
   return db.select().from(finishProducts).where(eq(finishProducts.studioId, studioId)).all();
 }
 
@@ -79,26 +80,47 @@ export function studioMembers(ctx: StudioContext) {
 
 const withFunctions = new WeakSet<object>();
 
-/**
- * Once per connection: registers gw_add_months (the care engine's clamping month arithmetic), and lets
- * SQLite memory-map the file and keep a larger page cache, since a registry search touches pages all
- * over the pieces table (random ids). Both only change speed, never results.
- */
+/** Once per connection: registers gw_add_months (the care engine's clamping month arithmetic). */
 function ensureSqlFunctions(db: Db): void {
   const client = db.$client;
   if (withFunctions.has(client)) return;
-  if (client.name !== ":memory:") {
-    client.pragma("mmap_size = 268435456");
-    client.pragma("cache_size = -65536");
-  }
   client.function("gw_add_months", { deterministic: true }, (date: unknown, months: unknown) =>
     typeof date === "string" && typeof months === "number" ? addMonths(date, months) : null,
   );
   withFunctions.add(client);
 }
 
+// The registry's fixed-shape reads, prepared once per connection: a list page runs them on every
+// request, and building and parsing them each time cost more than running them. Id lists travel as
+// one JSON array (json_each), so the statement text never changes with the page size.
+function prepareStatements(db: Db) {
+  const ids = sql`(SELECT value FROM json_each(${sql.placeholder("ids")}))`;
+  return {
+    pieces: db
+      .select({ piece: pieces, ownerName: users.name, ownerEmail: users.email })
+      .from(pieces)
+      .leftJoin(users, eq(users.id, pieces.ownerId))
+      .where(sql`${pieces.id} IN ${ids}`)
+      .prepare(),
+    layers: db.select().from(finishLayers).where(sql`${finishLayers.pieceId} IN ${ids}`).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).prepare(),
+    careLog: db
+      .select({ pieceId: careLogEntries.pieceId, taskKind: careLogEntries.taskKind, doneOn: careLogEntries.doneOn, surface: careLogEntries.surface })
+      .from(careLogEntries)
+      .where(sql`${careLogEntries.pieceId} IN ${ids}`)
+      .prepare(),
+    products: db.select().from(finishProducts).where(eq(finishProducts.studioId, sql.placeholder("studioId"))).prepare(),
+    policies: db.select({ id: warrantyPolicies.id, policy: warrantyPolicies.policy }).from(warrantyPolicies).where(eq(warrantyPolicies.studioId, sql.placeholder("studioId"))).prepare(),
+  };
+}
+const prepared = new WeakMap<object, ReturnType<typeof prepareStatements>>();
+function statements(db: Db): ReturnType<typeof prepareStatements> {
+  let s = prepared.get(db.$client);
+  if (!s) prepared.set(db.$client, (s = prepareStatements(db)));
+  return s;
+}
+
 function policyTerms(studioId: string): Map<string, number> {
-  const rows = getDb().select({ id: warrantyPolicies.id, policy: warrantyPolicies.policy }).from(warrantyPolicies).where(eq(warrantyPolicies.studioId, studioId)).all();
+  const rows = statements(getDb()).policies.all({ studioId });
   return new Map(rows.map((r) => [r.id, Math.max(0, ...Object.values(r.policy.lines ?? {}).map((l) => l?.termMonths ?? 0))]));
 }
 
@@ -191,24 +213,13 @@ export const LIST_COUNT_CAP = 10_000;
 export type Loaded = { piece: Piece; owner: { name: string; email: string } | null; layers: FinishLayer[]; careLog: { taskKind: CareTask["kind"]; doneOn: string; surface: FinishLayer["surface"] | null }[] };
 
 function loadForRows(ids: string[]): Map<string, Loaded> {
-  const db = getDb();
+  const st = statements(getDb());
   const out = new Map<string, Loaded>();
   for (let i = 0; i < ids.length; i += 500) {
-    const chunk = ids.slice(i, i + 500);
-    const rows = db
-      .select({ piece: pieces, ownerName: users.name, ownerEmail: users.email })
-      .from(pieces)
-      .leftJoin(users, eq(users.id, pieces.ownerId))
-      .where(inArray(pieces.id, chunk))
-      .all();
-    for (const r of rows) out.set(r.piece.id, { piece: r.piece, owner: r.ownerName != null ? { name: r.ownerName, email: r.ownerEmail ?? "" } : null, layers: [], careLog: [] });
-    for (const l of db.select().from(finishLayers).where(inArray(finishLayers.pieceId, chunk)).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).all()) out.get(l.pieceId)?.layers.push(l);
-    for (const c of db
-      .select({ pieceId: careLogEntries.pieceId, taskKind: careLogEntries.taskKind, doneOn: careLogEntries.doneOn, surface: careLogEntries.surface })
-      .from(careLogEntries)
-      .where(inArray(careLogEntries.pieceId, chunk))
-      .all())
-      out.get(c.pieceId)?.careLog.push(c);
+    const chunk = { ids: JSON.stringify(ids.slice(i, i + 500)) };
+    for (const r of st.pieces.all(chunk)) out.set(r.piece.id, { piece: r.piece, owner: r.ownerName != null ? { name: r.ownerName, email: r.ownerEmail ?? "" } : null, layers: [], careLog: [] });
+    for (const l of st.layers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
+    for (const c of st.careLog.all(chunk)) out.get(c.pieceId)?.careLog.push(c);
   }
   return out;
 }
@@ -247,15 +258,15 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
     const computed = q.sort === "next_due" || q.dueBefore !== undefined;
     if (!computed) {
       const offset = all ? 0 : (q.page - 1) * q.pageSize;
-      const ids = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
+      const ids = cachedAll<{ id: string }>(db, sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
       const limit = f.fts ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
       // A page that is not full tells the total without counting.
-      const n = all || (ids.length < q.pageSize && (ids.length > 0 || q.page === 1)) ? offset + ids.length : (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
+      const n = all || (ids.length < q.pageSize && (ids.length > 0 || q.page === 1)) ? offset + ids.length : (cachedGet<{ n: number }>(db, sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
       const capped = !all && n > limit;
       return { f, ids: ids.map((r) => r.id), total: capped ? limit : n, capped, loaded: null as Map<string, Loaded> | null, schedules: null as Map<string, CareSchedule | null> | null };
     }
     // Next care due is computed by the care engine, so filter and sort on it in memory.
-    const candidates = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
+    const candidates = cachedAll<{ id: string }>(db, sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
     const loaded = loadForRows(candidates);
     const products = studioProducts(ctx.studio.id);
     const schedules = new Map(candidates.map((id) => [id, safeSchedule(loaded.get(id)!, products, ctx.studio.timeZone, now)]));
