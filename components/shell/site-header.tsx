@@ -1,8 +1,10 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { signOutAction } from "@/app/actions/session";
+import { MainNav } from "./main-nav";
+import type { NavItem } from "./nav-groups";
 
-export type NavItem = { href: string; label: string };
+export type { NavItem };
 
 export function Wordmark() {
   return (
@@ -16,20 +18,17 @@ export function Wordmark() {
   );
 }
 
-/** The header of the signed-in areas; `nav` is already filtered to what the person's role may open. */
+/**
+ * The header of the signed-in areas; `nav` is already filtered to what the person's role may open.
+ * A long list keeps its everyday pages in the bar and the rest under "More" (see nav-groups.ts).
+ */
 export function SiteHeader({ nav, userName, context, children }: { nav: NavItem[]; userName: string; context?: string; children?: ReactNode }) {
   return (
     <header className="border-b border-line bg-card/80">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
         <Wordmark />
         {context ? <span className="hidden text-sm text-muted sm:inline">{context}</span> : null}
-        <nav aria-label="Main" className="order-last -mx-2 flex w-full gap-1 overflow-x-auto sm:order-none sm:w-auto sm:flex-1">
-          {nav.map((item) => (
-            <Link key={item.href} href={item.href} className="flex min-h-11 items-center whitespace-nowrap rounded-md px-3 text-sm font-medium text-ink hover:bg-resin-soft">
-              {item.label}
-            </Link>
-          ))}
-        </nav>
+        <MainNav items={nav} />
         <div className="ml-auto flex items-center gap-2">
           {children}
           <span className="hidden text-sm text-muted 2xl:inline">{userName}</span>

@@ -107,6 +107,7 @@ test("reports: claims per 100 pieces for a period, CSV export, bad periods are a
 test("roles: staff get reports and audit but not settings or team; a technician gets none", async ({ page }) => {
   await signIn(page, ACCOUNTS.staff);
   const nav = page.getByRole("navigation", { name: "Main" });
+  await nav.locator("summary", { hasText: "More" }).click();
   await expect(nav.getByRole("link", { name: "Reports" })).toBeVisible();
   await expect(nav.getByRole("link", { name: "Audit" })).toBeVisible();
   await expect(nav.getByRole("link", { name: "Settings" })).toHaveCount(0);

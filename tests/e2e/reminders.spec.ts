@@ -18,7 +18,9 @@ const onServer = (url: string) => url.replace(/^https?:\/\/[^/]+/, "");
 
 test("staff see upcoming reminders and the ledger, filter them, and pause and resume a piece", async ({ page }) => {
   await signIn(page, ACCOUNTS.staff);
-  await page.getByRole("link", { name: "Reminders" }).first().click();
+  const nav = page.getByRole("navigation", { name: "Main" });
+  await nav.locator("summary", { hasText: "More" }).click();
+  await nav.getByRole("link", { name: "Reminders", exact: true }).click();
   await expect(page.getByRole("heading", { name: "Care reminders" })).toBeVisible();
   await expect(page.getByRole("tab", { name: "Next 30 days" })).toHaveAttribute("aria-selected", "true");
   await page.getByRole("tab", { name: "Sent, failed and skipped" }).click();
