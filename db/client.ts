@@ -1,9 +1,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import Database from "better-sqlite3";
-import type { SQL } from "drizzle-orm";
 import { drizzle, type BetterSQLite3Database } from "drizzle-orm/better-sqlite3";
-import { SQLiteSyncDialect } from "drizzle-orm/sqlite-core";
 import { DEFAULT_DATABASE_URL } from "./config";
 import journal from "./migrations/meta/_journal.json";
 import * as schema from "./schema";
@@ -25,38 +23,34 @@ export function openDatabase(file: string): Db {
     sqlite.pragma("mmap_size = 268435456");
     sqlite.pragma("cache_size = -65536");
   }
+  cacheStatements(sqlite);
   return drizzle(sqlite, { schema });
 }
 
-// ---- statements prepared once per connection, for hot read paths ----
+const STATEMENT_CACHE_SIZE = 500;
 
-const dialect = new SQLiteSyncDialect();
-const statementCaches = new WeakMap<Database.Database, Map<string, Database.Statement>>();
-const STATEMENT_CACHE_SIZE = 256;
-
-function cachedStatement(db: Db, query: SQL): { stmt: Database.Statement; params: unknown[] } {
-  const { sql: text, params } = dialect.sqlToQuery(query);
-  let cache = statementCaches.get(db.$client);
-  if (!cache) statementCaches.set(db.$client, (cache = new Map()));
-  let stmt = cache.get(text);
-  if (!stmt) {
-    if (cache.size >= STATEMENT_CACHE_SIZE) cache.clear();
-    stmt = db.$client.prepare(text);
-    cache.set(text, stmt);
-  }
-  return { stmt, params };
-}
-
-/** Like `db.all(query)`, but SQLite parses each distinct query text once per connection. */
-export function cachedAll<T>(db: Db, query: SQL): T[] {
-  const { stmt, params } = cachedStatement(db, query);
-  return stmt.all(...params) as T[];
-}
-
-/** Like `db.get(query)`, with the statement cached as in cachedAll. */
-export function cachedGet<T>(db: Db, query: SQL): T | undefined {
-  const { stmt, params } = cachedStatement(db, query);
-  return stmt.get(...params) as T | undefined;
+/**
+ * Drizzle prepares every query it runs; parsing the SQL again each time cost more than running most of
+ * our queries. This keeps the most recent statements per connection by their text and hands one out
+ * again unless it is still being iterated, switched back out of raw mode (drizzle turns it on for
+ * the queries that need it).
+ */
+function cacheStatements(sqlite: Database.Database): void {
+  const cache = new Map<string, Database.Statement>();
+  const prepare = sqlite.prepare.bind(sqlite);
+  sqlite.prepare = ((source: string) => {
+    const hit = cache.get(source);
+    if (hit && !hit.busy) {
+      if (hit.reader) hit.raw(false);
+      return hit;
+    }
+    const stmt = prepare(source);
+    if (!hit) {
+      if (cache.size >= STATEMENT_CACHE_SIZE) cache.delete(cache.keys().next().value!);
+      cache.set(source, stmt);
+    }
+    return stmt;
+  }) as typeof sqlite.prepare;
 }
 
 export class UnmigratedDatabaseError extends Error {

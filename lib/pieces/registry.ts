@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
-import { cachedAll, cachedGet, getDb, type Db } from "@/db/client";
+import { getDb, type Db } from "@/db/client";
 import {
   careLogEntries,
   claims,
@@ -258,15 +258,15 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
     const computed = q.sort === "next_due" || q.dueBefore !== undefined;
     if (!computed) {
       const offset = all ? 0 : (q.page - 1) * q.pageSize;
-      const ids = cachedAll<{ id: string }>(db, sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
+      const ids = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
       const limit = f.fts ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
       // A page that is not full tells the total without counting.
-      const n = all || (ids.length < q.pageSize && (ids.length > 0 || q.page === 1)) ? offset + ids.length : (cachedGet<{ n: number }>(db, sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
+      const n = all || (ids.length < q.pageSize && (ids.length > 0 || q.page === 1)) ? offset + ids.length : (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
       const capped = !all && n > limit;
       return { f, ids: ids.map((r) => r.id), total: capped ? limit : n, capped, loaded: null as Map<string, Loaded> | null, schedules: null as Map<string, CareSchedule | null> | null };
     }
     // Next care due is computed by the care engine, so filter and sort on it in memory.
-    const candidates = cachedAll<{ id: string }>(db, sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
+    const candidates = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
     const loaded = loadForRows(candidates);
     const products = studioProducts(ctx.studio.id);
     const schedules = new Map(candidates.map((id) => [id, safeSchedule(loaded.get(id)!, products, ctx.studio.timeZone, now)]));

@@ -1,6 +1,7 @@
 // careSchedule over 100,000 synthetic pieces with 3 layers each (issue 3: target < 1.5 s on one core).
 // Run with `npm run bench` (tests/bench/run.ts) or `npx tsx tests/bench/care-schedule.bench.ts`. Data is synthetic.
 import { careSchedule, FINISH_CLASSES, SUN_EXPOSURES, USES, type CareFinishLayer, type CareLogEntry, type CarePiece, type CatalogEntry } from "../../lib/care/index";
+import { result } from "./result";
 
 const PIECES = 100_000;
 const TARGET_MS = 1500;
@@ -64,6 +65,7 @@ console.log(
   `careSchedule: ${PIECES} pieces × 3 layers → ${tasks} tasks; best of 3: ${elapsedMs.toFixed(0)} ms ` +
     `(${perSecond.toLocaleString("en-US")} pieces/s; runs ${timings.map((t) => t.toFixed(0)).join(", ")} ms; target < ${TARGET_MS} ms)`,
 );
+result({ figure: `careSchedule over ${PIECES.toLocaleString("en-US")} pieces × 3 layers (best of 3)`, target: `< ${TARGET_MS} ms`, measured: `${elapsedMs.toFixed(0)} ms`, floor: "—", ratio: null, ok: elapsedMs < TARGET_MS });
 if (elapsedMs >= TARGET_MS) {
   console.error(`careSchedule benchmark over target: ${elapsedMs.toFixed(0)} ms ≥ ${TARGET_MS} ms`);
   process.exit(1);

@@ -1,6 +1,7 @@
 // The connection settings every process relies on, and the refusal to run on an unmigrated file.
 import fs from "node:fs";
 import path from "node:path";
+import { sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb, migrationStatus, openDatabase, UnmigratedDatabaseError } from "@/db/client";
 import { applyMigrations } from "@/db/migrate";
@@ -12,6 +13,31 @@ describe("database connection", () => {
     expect(sqlite.pragma("journal_mode", { simple: true })).toBe("wal");
     expect(sqlite.pragma("foreign_keys", { simple: true })).toBe(1);
     expect(sqlite.pragma("busy_timeout", { simple: true })).toBe(5000);
+  });
+
+  it("reuses prepared statements safely: the same text gives the same statement, raw mode is reset, a statement being iterated is not handed out", () => {
+    const dir = fs.mkdtempSync(path.join(process.env.DATA_DIR!, "stmt-"));
+    const db = openDatabase(path.join(dir, "s.db"));
+    const c = db.$client;
+    c.exec("CREATE TABLE t (a INTEGER, b TEXT); INSERT INTO t VALUES (1, 'x'), (2, 'y');");
+    const text = "SELECT a, b FROM t ORDER BY a";
+    const first = c.prepare(text);
+    expect(c.prepare(text)).toBe(first);
+    expect(first.raw().all()).toEqual([[1, "x"], [2, "y"]]);
+    // The next user of the same text gets objects again, not the raw arrays left switched on above.
+    expect(c.prepare(text).all()).toEqual([{ a: 1, b: "x" }, { a: 2, b: "y" }]);
+    const seen: unknown[] = [];
+    for (const row of c.prepare(text).iterate()) {
+      // While the cached statement is busy iterating, the same text is prepared afresh.
+      const inner = c.prepare(text);
+      expect(inner).not.toBe(first);
+      seen.push([row, inner.all().length]);
+    }
+    expect(seen).toEqual([[{ a: 1, b: "x" }, 2], [{ a: 2, b: "y" }, 2]]);
+    // Drizzle's own queries go through the same cache and still map their rows.
+    expect(db.all<{ n: number }>(sql`SELECT count(*) AS n FROM t`)).toEqual([{ n: 2 }]);
+    expect(db.all<{ n: number }>(sql`SELECT count(*) AS n FROM t`)).toEqual([{ n: 2 }]);
+    c.close();
   });
 
   it("counts migrations against the committed journal", () => {
