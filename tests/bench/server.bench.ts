@@ -17,7 +17,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { gzipSync } from "node:zlib";
 import Database from "better-sqlite3";
-import { benchDir, buildOnce, fmt, holdBuildLock, load, PIECES, seededCopy, sessionCookie, startServer, watchMemory } from "./server-harness";
+import { benchDir, root, buildOnce, fmt, holdBuildLock, load, PIECES, seededCopy, sessionCookie, startServer, watchMemory } from "./server-harness";
 import { result } from "./result";
 
 holdBuildLock(fileURLToPath(import.meta.url));
@@ -36,7 +36,8 @@ async function scriptBytes(base: string, pagePath: string, cookie: string): Prom
   const res = await fetch(`${base}${pagePath}`, { headers: { cookie }, redirect: "manual" });
   if (res.status !== 200) throw new Error(`${pagePath} answered ${res.status}`);
   const html = await res.text();
-  const srcs = [...new Set([...html.matchAll(/<script[^>]*\ssrc="([^"]+)"/g)].map((m) => m[1]!))];
+  // Scripts a current browser runs: not the `nomodule` polyfills only old browsers load.
+  const srcs = [...new Set([...html.matchAll(/<script([^>]*)\ssrc="([^"]+)"/g)].filter((m) => !/\bnomodule\b/.test(m[1]!)).map((m) => m[2]!))];
   let raw = 0;
   let gzip = 0;
   for (const src of srcs) {
@@ -45,6 +46,24 @@ async function scriptBytes(base: string, pagePath: string, cookie: string): Prom
     gzip += gzipSync(body, { level: 9 }).length;
   }
   return { raw, gzip, scripts: srcs.length };
+}
+
+/** The owner area's pages from the file system: those without parameters, and a piece's own pages. */
+function ownerPages(): string[] {
+  const base = path.join(root, "app/(owner)");
+  const out: string[] = [];
+  const walk = (dir: string) => {
+    for (const e of fs.readdirSync(dir, { withFileTypes: true })) {
+      if (e.isDirectory()) walk(path.join(dir, e.name));
+      else if (e.name === "page.tsx") {
+        const route = "/" + path.relative(base, dir).split(path.sep).filter((x) => x && !/^\(.*\)$/.test(x)).join("/");
+        const params = route.match(/\[[^\]]+\]/g) ?? [];
+        if (params.length === 0 || (params.length === 1 && route.startsWith("/pieces/[id]"))) out.push(route);
+      }
+    }
+  };
+  walk(base);
+  return out.sort();
 }
 
 async function main() {
@@ -92,8 +111,7 @@ async function main() {
 
     const floorJs = await scriptBytes(server.base, "/sign-in", "");
     console.log(`floor /sign-in: ${floorJs.scripts} scripts, ${(floorJs.gzip / 1024).toFixed(1)} kB gzip (${(floorJs.raw / 1024).toFixed(0)} kB raw)`);
-    const ownerPages = ["/pieces", `/pieces/${piece.id}`, `/pieces/${piece.id}/log`, `/pieces/${piece.id}/claim`, "/claims", "/jobs", "/register", "/account"];
-    for (const p of ownerPages) {
+    for (const p of ownerPages().map((x) => x.replace("[id]", piece.id))) {
       const js = await scriptBytes(server.base, p, owner);
       const label = p.replace(piece.id, "[id]");
       console.log(`${label}: ${js.scripts} scripts, ${(js.gzip / 1024).toFixed(1)} kB gzip (${(js.raw / 1024).toFixed(0)} kB raw)`);
