@@ -2,7 +2,7 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { and, desc, eq, inArray, isNotNull, isNull, like, or, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { careLogEntries, finishLayers, finishProducts, pieces, refreshOffers, reminderSends, users } from "@/db/schema";
+import { careLogEntries, finishLayers, finishProducts, pieces, refreshOffers, reminderSends, studios, users } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { addDays, localDate } from "@/lib/care/dates";
 import type { Quote } from "@/lib/care/quote";
@@ -10,7 +10,7 @@ import { CARE_TASK_LABELS, type ReminderStep } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
 import { scheduleFromColumns, toCatalog, topShape } from "@/lib/pieces/care-inputs";
 import { ledgerIdSchema, pauseSchema, remindersQuerySchema } from "@/lib/validation/reminders";
-import { currentStepIndex, OwnerClocks } from "./plan";
+import { currentStepIndex, OwnerClocks, timingFromColumns, withEnabledSteps, type SendTiming } from "./plan";
 import { CLAIM_PREFIX, deliverClaim } from "./pass";
 
 // The studio's view of care reminders (/studio/reminders): what goes out in the next days (computed
@@ -36,6 +36,12 @@ function studioCatalog(studioId: string) {
   const rows = getDb().select().from(finishProducts).where(eq(finishProducts.studioId, studioId)).all();
   const catalog = toCatalog(rows);
   return { catalog, byId: new Map(catalog.map((c) => [c.id, c])) };
+}
+
+/** The studio's reminder timing as stored now (not as it was when the request's context was read). */
+function studioTiming(studioId: string): SendTiming {
+  const row = getDb().select({ hour: studios.reminderSendHour, steps: studios.reminderSteps }).from(studios).where(eq(studios.id, studioId)).get();
+  return timingFromColumns(row?.hour, row?.steps);
 }
 
 function groupByPiece<T extends { pieceId: string }>(rows: T[]) {
@@ -150,7 +156,8 @@ export function setPiecePaused(ctx: StudioContext, raw: unknown): { pieceId: str
 
 /**
  * Sends a failed reminder again now, through the same claim and hand-off as the pass. Only a failed
- * row of the task's current cycle and step: an older one would be stale news for the owner.
+ * row of the task's current cycle and step (as the pass finds it: the studio's steps, at its send hour);
+ * an older one would be stale news for the owner, and a step the studio turned off is not sent.
  */
 export async function resendReminder(ctx: StudioContext, rawId: unknown, now = new Date()) {
   const { id } = ledgerIdSchema.parse({ id: rawId });
@@ -176,9 +183,13 @@ export async function resendReminder(ctx: StudioContext, rawId: unknown, now = n
     timeZone: ctx.studio.timeZone,
     now,
   });
-  const task = schedule.tasks.find((t) => t.key === row.taskKey && t.dueOn === row.dueOn);
+  // The current step as the pass finds it: only the steps the studio sends, at its send hour.
+  const timing = studioTiming(ctx.studio.id);
+  if (!timing.steps.includes(row.step)) throw conflict("The studio has turned this reminder step off (settings → reminder timing); it is not sent again.");
+  const cycle = schedule.tasks.find((t) => t.key === row.taskKey && t.dueOn === row.dueOn);
+  const task = cycle && withEnabledSteps(cycle, timing.steps);
   const clocks = new OwnerClocks(now.getTime());
-  const current = task ? task.reminders[currentStepIndex(task, clocks, owner.timeZone)]?.step : undefined;
+  const current = task ? task.reminders[currentStepIndex(task, clocks, owner.timeZone, timing.sendAfterMinutes)]?.step : undefined;
   if (!task || current !== row.step) throw conflict("This reminder's care task has moved on since; the next reminder will go out on its own.");
   const token = `${CLAIM_PREFIX}${randomUUID()}`;
   const claimed = db

@@ -3,7 +3,7 @@
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { pieces, reminderSends } from "@/db/schema";
+import { pieces, reminderSends, studios } from "@/db/schema";
 import { runReminderPass } from "@/lib/reminders/pass";
 import { listLedger, listUpcoming, resendReminder, setPiecePaused } from "@/lib/reminders/staff";
 import { memberContext } from "../support/fixtures";
@@ -59,5 +59,62 @@ describe("staff reminders view", () => {
     const pass = await runReminderPass({ now: new Date("2026-04-01T17:00:00Z") });
     expect(pass.sent.filter((s) => s.to === owner.email)).toHaveLength(0);
     expect(() => listLedger(staff, { view: "ledger", status: "nonsense" })).toThrow();
+  });
+});
+
+// A resend is checked against the studio's own reminder timing (settings → reminder timing), read
+// afresh from the database like the pass does: a failed reminder is still current while the next
+// step the studio actually sends has not come at its send hour in the owner's zone.
+describe("resend follows the studio's reminder timing", () => {
+  /** Sends a piece's first reminders with a pass at `sendAt`, then marks its re-oil one failed for good. */
+  async function failedReoil(studioOverrides: Parameters<typeof seedStudio>[0], oiledOn: string, sendAt: string) {
+    const { studio, products } = seedStudio(studioOverrides);
+    const staff = await memberContext(studio, "staff");
+    const owner = seedOwner({ timeZone: "America/Los_Angeles" });
+    const piece = seedPiece(studio, owner.id, { deliveredOn: oiledOn, layers: [{ surface: "top", finishClass: "hardwax_oil", productId: products.oil, appliedOn: oiledOn }] });
+    const pass = await runReminderPass({ now: new Date(sendAt) });
+    expect(pass.sent.filter((s) => s.to === owner.email)).toHaveLength(2);
+    const row = getDb().select().from(reminderSends).where(eq(reminderSends.pieceId, piece.id)).all().find((r) => r.taskKind === "reoil")!;
+    expect(row.step).toBe("before_14d");
+    getDb().update(reminderSends).set({ status: "failed", attempts: 3, nextAttemptAt: null, lastError: "try 3 of 3: 451 try later (simulated)", messageId: null }).where(eq(reminderSends.id, row.id)).run();
+    return { studio, staff, owner, row };
+  }
+
+  it("with the due-day step off, a failed 14-days-before reminder can still be resent after the due date", async () => {
+    // Oiled 2025-06-01, heavy use: re-oil due 2026-06-01 (DESIGN.md §4, 12 months); its 14-days-before
+    // reminder is on 2026-05-18, the 30-days-after one on 2026-07-01. 17:00Z is 10:00 in Los Angeles.
+    const { staff, owner, row } = await failedReoil({ reminderSteps: ["before_14d", "after_30d"] }, "2025-06-01", "2026-05-18T17:00:00Z");
+    const before = (await listMail({ to: owner.email })).length;
+    // 2026-06-05: past the due day (turned off), before the 30-days-after step — the failed one is current.
+    const r = await resendReminder(staff, row.id, new Date("2026-06-05T17:00:00Z"));
+    expect(r.status).toBe("sent");
+    const mail = await listMail({ to: owner.email });
+    expect(mail).toHaveLength(before + 1);
+    expect(mail[0]!.headers["x-grainward-reminder"]).toBe(row.reminderKey);
+    // Once the 30-days-after step has come, the 14-days-before one is stale even with due-day off.
+    const { staff: staff2, row: row2 } = await failedReoil({ reminderSteps: ["before_14d", "after_30d"] }, "2025-06-02", "2026-05-19T17:00:00Z");
+    await expect(resendReminder(staff2, row2.id, new Date("2026-07-02T17:00:00Z"))).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/moved on/) });
+  });
+
+  it("with a 07:00 send hour, a reminder that failed at 07:30 can be resent at 08:00 the same day", async () => {
+    // Oiled 2025-08-01: due 2026-08-01, first reminder 2026-07-18. 14:30Z is 07:30 PDT.
+    const { staff, owner, row } = await failedReoil({ reminderSendHour: 7 }, "2025-08-01", "2026-07-18T14:30:00Z");
+    const r = await resendReminder(staff, row.id, new Date("2026-07-18T15:00:00Z"));
+    expect(r.status).toBe("sent");
+    expect((await listMail({ to: owner.email })).filter((m) => m.headers["x-grainward-reminder"] === row.reminderKey)).toHaveLength(2);
+  });
+
+  it("with an 18:00 send hour, a failed reminder stays current on the next step's day until 18:00", async () => {
+    // Oiled 2025-10-01: due 2026-10-01, first reminder 2026-09-17 (18:00 PDT = 01:00Z next day).
+    const { staff, row } = await failedReoil({ reminderSendHour: 18 }, "2025-10-01", "2026-09-18T01:00:00Z");
+    // 2026-10-01 at 10:00 PDT: the due-day reminder goes at 18:00, so the first one is still current.
+    expect((await resendReminder(staff, row.id, new Date("2026-10-01T17:00:00Z"))).status).toBe("sent");
+  });
+
+  it("a failed reminder of a step the studio has since turned off is refused with that reason", async () => {
+    const { staff, studio, row } = await failedReoil({}, "2025-12-01", "2026-11-17T17:00:00Z");
+    getDb().update(studios).set({ reminderSteps: ["due_day", "after_30d"] }).where(eq(studios.id, studio.id)).run();
+    await expect(resendReminder(staff, row.id, new Date("2026-11-18T17:00:00Z"))).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/turned .*off/) });
+    expect(getDb().select().from(reminderSends).where(eq(reminderSends.id, row.id)).get()?.status).toBe("failed");
   });
 });
