@@ -14,7 +14,7 @@ import { currentStepIndex, OwnerClocks, timingFromColumns, withEnabledSteps, typ
 import { CLAIM_PREFIX, deliverClaim } from "./pass";
 
 // The studio's view of care reminders (/studio/reminders): what goes out in the next days (computed
-// with the same care engine as the pass) and what went out (the send ledger); resend a failed one;
+// with the same care engine and the studio's same steps as the pass) and what went out (the send ledger); resend a failed one;
 // pause a piece's reminders. Every query is scoped by the caller's studio.
 
 export type UpcomingRow = {
@@ -69,6 +69,8 @@ export function listUpcoming(ctx: StudioContext, raw: unknown, now = new Date())
     db.select({ k: reminderSends.reminderKey }).from(reminderSends).where(and(eq(reminderSends.studioId, studioId), inArray(reminderSends.pieceId, ids))).all().map((r) => r.k),
   );
   const { catalog } = studioCatalog(studioId);
+  // Only the steps the studio sends (settings → reminder timing), as the pass sees them.
+  const { steps } = studioTiming(studioId);
   const today = localDate(now, ctx.studio.timeZone);
   const until = addDays(today, q.days);
   const out: UpcomingRow[] = [];
@@ -76,7 +78,7 @@ export function listUpcoming(ctx: StudioContext, raw: unknown, now = new Date())
   for (const r of rows) {
     if (needle && !r.piece.title.toLowerCase().includes(needle) && !r.ownerName.toLowerCase().includes(needle)) continue;
     const schedule = scheduleFromColumns({ piece: r.piece, layers: layers.get(r.piece.id) ?? [], careLog: logs.get(r.piece.id) ?? [], catalog, timeZone: ctx.studio.timeZone, now });
-    for (const task of schedule.tasks) {
+    for (const task of schedule.tasks.map((t) => withEnabledSteps(t, steps))) {
       if (q.kind && task.kind !== q.kind) continue;
       for (const rem of task.reminders) {
         if (q.step && rem.step !== q.step) continue;

@@ -118,3 +118,26 @@ describe("resend follows the studio's reminder timing", () => {
     expect(getDb().select().from(reminderSends).where(eq(reminderSends.id, row.id)).get()?.status).toBe("failed");
   });
 });
+
+describe("the upcoming list and the studio's steps", () => {
+  it("lists only the steps the studio sends; a step turned off is not shown as going out", async () => {
+    const { studio, products } = seedStudio({ reminderSteps: ["before_14d", "after_30d"] });
+    const staff = await memberContext(studio, "staff");
+    const owner = seedOwner({ name: "Steps-off Owner (invented)" });
+    // Oiled 2027-04-01, heavy use: re-oil and the yearly check due 2028-04-01; reminders 2028-03-18,
+    // 2028-04-01 (turned off) and 2028-05-01.
+    seedPiece(studio, owner.id, { deliveredOn: "2027-04-01", title: "Ash sideboard (invented)", layers: [{ surface: "top", finishClass: "hardwax_oil", productId: products.oil, appliedOn: "2027-04-01" }] });
+    const now = new Date("2028-03-10T20:00:00Z");
+    const rows = (q: Record<string, unknown>) => listUpcoming(staff, { view: "upcoming", ...q }, now).map((u) => `${u.taskKind}:${u.step}:${u.on}`).sort();
+    expect(rows({ days: 60 })).toEqual([
+      "annual_check:after_30d:2028-05-01",
+      "annual_check:before_14d:2028-03-18",
+      "reoil:after_30d:2028-05-01",
+      "reoil:before_14d:2028-03-18",
+    ]);
+    expect(rows({ step: "due_day", days: 60 })).toEqual([]);
+    // Turned back on, it is listed again (read afresh, not from the context).
+    getDb().update(studios).set({ reminderSteps: ["before_14d", "due_day", "after_30d"] }).where(eq(studios.id, studio.id)).run();
+    expect(rows({ step: "due_day", days: 60 })).toEqual(["annual_check:due_day:2028-04-01", "reoil:due_day:2028-04-01"]);
+  });
+});
