@@ -14,8 +14,9 @@ import { currentStepIndex, OwnerClocks, timingFromColumns, withEnabledSteps, typ
 import { CLAIM_PREFIX, deliverClaim } from "./pass";
 
 // The studio's view of care reminders (/studio/reminders): what goes out in the next days (computed
-// with the same care engine and the studio's same steps as the pass) and what went out (the send ledger); resend a failed one;
-// pause a piece's reminders. Every query is scoped by the caller's studio.
+// with the same care engine as the pass, and only the steps the studio sends) and what went out (the
+// send ledger); resend a failed one; pause a piece's reminders. Every query is scoped by the caller's
+// studio.
 
 export type UpcomingRow = {
   pieceId: string;
