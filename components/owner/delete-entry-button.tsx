@@ -6,7 +6,7 @@ import { useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { callApi } from "./api-action";
-import { ConfirmDialog } from "./confirm-dialog";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 
 export function DeleteEntryButton({ pieceId, entryId }: { pieceId: string; entryId: string }) {
   const router = useRouter();

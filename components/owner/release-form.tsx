@@ -9,7 +9,7 @@ import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
 import { releaseSchema, type ReleaseInput } from "@/lib/validation/owner";
-import { ConfirmDialog } from "./confirm-dialog";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 
 type Released = { code: string; pieceId: string };
 

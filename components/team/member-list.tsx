@@ -9,7 +9,7 @@ import { Notice } from "@/components/ui/notice";
 import type { StudioRole } from "@/lib/care/vocabulary";
 import type { ActionResult } from "@/lib/validation/action";
 import type { ChangeRoleInput, RemoveMemberInput } from "@/lib/validation/settings";
-import { ConfirmDialog } from "./confirm-dialog";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 
 export type MemberView = { id: string; name: string; email: string; role: StudioRole; isYou: boolean };
 

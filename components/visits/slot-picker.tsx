@@ -5,7 +5,7 @@ import { CalendarCheck, ChevronLeft, ChevronRight, MapPin } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { toast } from "sonner";
-import { ConfirmDialog } from "@/components/owner/confirm-dialog";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { cn } from "@/components/ui/cn";

@@ -5,7 +5,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { StatusBadge } from "@/components/ui/status";
 import { VisitReportForm } from "@/components/visits/visit-report-form";
-import { VisitStack } from "@/components/visits/visit-stack";
+import { FinishStack } from "@/components/ui/finish-stack";
 import { requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
@@ -81,7 +81,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
 
                   <section className="space-y-2">
                     <h3 className="font-semibold">Finish stack</h3>
-                    <VisitStack layers={item.layers} wood={wood} />
+                    <FinishStack layers={item.layers} wood={wood} compact empty="No finish stack on record — look before you start." />
                   </section>
 
                   <section className="space-y-2">

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { Suspense } from "react";
 import { ClipboardCheck, FileDown, Flame, Handshake, Pencil, ShieldCheck, ShieldOff, ShieldX, TriangleAlert, Wind } from "lucide-react";
 import { CareTimeline } from "@/components/owner/care-timeline";
-import { FinishStack } from "@/components/owner/finish-stack";
+import { FinishStack } from "@/components/ui/finish-stack";
 import { FlashToast } from "@/components/owner/flash-toast";
 import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
@@ -100,7 +100,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
           </dl>
         </Card>
         <h3 className="pt-2 text-lg font-semibold">How it was finished</h3>
-        <FinishStack layers={piece.layers} wood={wood} />
+        <FinishStack layers={piece.layers} wood={wood} empty="The studio has not recorded a finish stack for this piece." />
       </Section>
 
       <Section id="guide" title="Care guide for this piece">
