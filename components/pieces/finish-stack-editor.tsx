@@ -40,53 +40,30 @@ const BAND: Record<FinishClass, string> = {
   charred_oiled: "bg-[#3b3430] text-white [background-image:repeating-linear-gradient(0deg,transparent_0_4px,rgba(255,255,255,.06)_4px_5px)]",
 };
 
-function AddLayerForm({ pieceId, products, members, today, surface, onDone }: { pieceId: string; products: ProductOption[]; members: MemberOption[]; today: string; surface: Surface; onDone: () => void }) {
+/** Adds a layer to `surface`, or edits `layer` when one is given. */
+function LayerForm({ pieceId, products, members, onDone, ...target }: { pieceId: string; products: ProductOption[]; members: MemberOption[]; onDone: () => void } & ({ layer: StackLayer } | { layer?: undefined; surface: Surface; today: string })) {
   const router = useRouter();
+  const layer = target.layer;
   const { form, onSubmit, formError } = useActionForm({
     schema: layerSchema,
-    action: (v: LayerInput) => callApi(`/api/pieces/${pieceId}/layers`, "POST", v),
-    defaultValues: { surface, finishClass: "hardwax_oil", productId: null, productLabel: "", coats: 1, appliedOn: today, appliedById: null, batchLot: "", notes: "" },
-    successMessage: "Finish layer added; the care schedule is recomputed.",
+    action: (v: LayerInput) => (layer ? callApi(`/api/pieces/${pieceId}/layers/${layer.id}`, "PATCH", v) : callApi(`/api/pieces/${pieceId}/layers`, "POST", v)),
+    defaultValues: layer
+      ? { surface: layer.surface, finishClass: layer.finishClass, productId: layer.productId, productLabel: layer.productLabel, coats: layer.coats, appliedOn: layer.appliedOn, appliedById: layer.appliedById, batchLot: layer.batchLot, notes: layer.notes }
+      : { surface: target.surface, finishClass: "hardwax_oil", productId: null, productLabel: "", coats: 1, appliedOn: target.today, appliedById: null, batchLot: "", notes: "" },
+    successMessage: layer ? "Finish layer saved." : "Finish layer added; the care schedule is recomputed.",
     onSuccess: () => {
       onDone();
       router.refresh();
     },
   });
+  const submitting = form.formState.isSubmitting;
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-3 rounded-lg border border-resin/40 bg-paper p-4" aria-label="Add a finish layer">
+    <form onSubmit={onSubmit} noValidate className="space-y-3 rounded-lg border border-resin/40 bg-paper p-4" aria-label={layer ? "Edit finish layer" : "Add a finish layer"}>
       {formError ? <Notice tone="error">{formError}</Notice> : null}
       <LayerFields prefix="" register={form.register as unknown as UseFormRegister<FieldValues>} setValue={form.setValue as unknown as UseFormSetValue<FieldValues>} errors={form.formState.errors} products={products} members={members} />
       <div className="flex gap-2">
-        <Button type="submit" disabled={form.formState.isSubmitting}>
-          {form.formState.isSubmitting ? "Adding…" : "Add layer"}
-        </Button>
-        <Button variant="secondary" onClick={onDone}>
-          Cancel
-        </Button>
-      </div>
-    </form>
-  );
-}
-
-function EditLayerForm({ pieceId, layer, products, members, onDone }: { pieceId: string; layer: StackLayer; products: ProductOption[]; members: MemberOption[]; onDone: () => void }) {
-  const router = useRouter();
-  const { form, onSubmit, formError } = useActionForm({
-    schema: layerSchema,
-    action: (v: LayerInput) => callApi(`/api/pieces/${pieceId}/layers/${layer.id}`, "PATCH", v),
-    defaultValues: { surface: layer.surface, finishClass: layer.finishClass, productId: layer.productId, productLabel: layer.productLabel, coats: layer.coats, appliedOn: layer.appliedOn, appliedById: layer.appliedById, batchLot: layer.batchLot, notes: layer.notes },
-    successMessage: "Finish layer saved.",
-    onSuccess: () => {
-      onDone();
-      router.refresh();
-    },
-  });
-  return (
-    <form onSubmit={onSubmit} noValidate className="space-y-3 rounded-lg border border-resin/40 bg-paper p-4" aria-label="Edit finish layer">
-      {formError ? <Notice tone="error">{formError}</Notice> : null}
-      <LayerFields prefix="" register={form.register as unknown as UseFormRegister<FieldValues>} setValue={form.setValue as unknown as UseFormSetValue<FieldValues>} errors={form.formState.errors} products={products} members={members} />
-      <div className="flex gap-2">
-        <Button type="submit" disabled={form.formState.isSubmitting}>
-          Save layer
+        <Button type="submit" disabled={submitting}>
+          {layer ? "Save layer" : submitting ? "Adding…" : "Add layer"}
         </Button>
         <Button variant="secondary" onClick={onDone}>
           Cancel
@@ -127,7 +104,7 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                 <Plus aria-hidden className="size-4" /> Add layer to the {surface}
               </Button>
             </div>
-            {adding === surface ? <AddLayerForm pieceId={pieceId} products={products} members={members} today={today} surface={surface} onDone={() => setAdding(null)} /> : null}
+            {adding === surface ? <LayerForm pieceId={pieceId} products={products} members={members} today={today} surface={surface} onDone={() => setAdding(null)} /> : null}
             {stack.length === 0 ? <p className="text-sm text-muted">No layers recorded on the {surface}.</p> : null}
             <ol reversed aria-label={`${SURFACE_LABELS[surface]} finish stack, outermost first`} className="overflow-hidden rounded-lg border border-line">
               {[...stack].reverse().map((l) => (
@@ -173,7 +150,7 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                   ) : null}
                   {editing === l.id ? (
                     <div className="p-3">
-                      <EditLayerForm pieceId={pieceId} layer={l} products={products} members={members} onDone={() => setEditing(null)} />
+                      <LayerForm pieceId={pieceId} layer={l} products={products} members={members} onDone={() => setEditing(null)} />
                     </div>
                   ) : null}
                 </li>
