@@ -14,6 +14,7 @@ import { badRequest, conflict } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
 import { getOwnerJob, getStudioJob, moveJob, type JobView } from "./jobs";
+import { assertMove } from "./states";
 
 export const money = (minor: number, currency: string) => `${formatMinorUnits(minor, currency)} ${currency}`;
 const jobUrl = (jobId: string, query = "") => new URL(`/jobs/${jobId}${query}`, env.APP_URL).href;
@@ -211,6 +212,8 @@ export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User,
   const view: JobView = actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner!, jobId);
   const { job } = view;
   if (actor.owner && !["quoted", "approved"].includes(job.state)) throw conflict("Ask the studio to cancel a job that is already paid or booked.");
+  // Refuse a job that can't be cancelled (done, already cancelled) before any checkout is closed or payment refunded.
+  assertMove(job.state, "cancelled");
   const paid = view.payments.find((p) => p.status === "paid" && p.paymentIntentId);
   // Close open checkouts first, so a cancelled job can't be paid.
   for (const p of view.payments.filter((x) => x.status === "open")) {
