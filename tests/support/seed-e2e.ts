@@ -1,9 +1,10 @@
 // Seeds the e2e database: the demo studio plus a second, invented studio whose staff must never see
 // the demo studio's data. Writes the ids the specs need to tests/.tmp/e2e-fixture.json.
 import fs from "node:fs";
-import { eq } from "drizzle-orm";
+import path from "node:path";
+import { and, eq, isNotNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { memberships, pieces, studios, users } from "@/db/schema";
+import { careLogEntries, claims, files, memberships, pieces, reminderSends, repairJobs, studios, users, visits } from "@/db/schema";
 import { DEMO_PASSWORD, DEMO_STUDIO_SLUG, seedDemo } from "@/db/seed/demo";
 import { hashPassword } from "@/lib/auth/password";
 import { newRegistrationCode } from "@/lib/pieces/registration";
@@ -39,6 +40,75 @@ const otherPiece = db
 indexPiece(db, otherPiece.id);
 const demo = db.select().from(studios).where(eq(studios.slug, DEMO_STUDIO_SLUG)).get()!;
 const demoPiece = db.select().from(pieces).where(eq(pieces.studioId, demo.id)).get()!;
-fs.mkdirSync("tests/.tmp", { recursive: true });
-fs.writeFileSync("tests/.tmp/e2e-fixture.json", JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: demoSeed.jobs }, null, 2));
+
+// For the authorization matrix (tests/e2e/authz-matrix.spec.ts): an admin of the other studio, a spare
+// unowned piece there that the matrix registers and releases again, and the ids of the demo rows the
+// matrix aims at (the owner's claim, photo, care-log entry, visits, a sent reminder, memberships).
+const otherAdmin = db
+  .insert(users)
+  .values({ email: "admin@other-studio.example", name: "Other Admin", passwordHash: await hashPassword(DEMO_PASSWORD), emailVerifiedAt: new Date() })
+  .returning()
+  .get();
+db.insert(memberships).values({ studioId: other.id, userId: otherAdmin.id, role: "admin" }).run();
+const spareCode = newRegistrationCode();
+const spare = db
+  .insert(pieces)
+  .values({
+    studioId: other.id,
+    kind: "shelf",
+    title: "Other studio's spare shelf (invented, for the authorization matrix)",
+    shapeKind: "rectangle",
+    lengthMm: 900,
+    widthMm: 250,
+    primarySpeciesId: "red_oak",
+    use: "light",
+    deliveredOn: "2026-01-20",
+    registrationCodeHash: spareCode.hash,
+    registrationCodeEnc: spareCode.enc,
+  })
+  .returning()
+  .get();
+indexPiece(db, spare.id);
+const userId = (email: string) => db.select({ id: users.id }).from(users).where(eq(users.email, email)).get()!.id;
+const holloway = userId("holloway@owners.example");
+const ownerPiece = db.select().from(pieces).where(and(eq(pieces.studioId, demo.id), eq(pieces.ownerId, holloway), eq(pieces.title, "Walnut river dining table"))).get()!;
+const demoClaims = db.select({ id: claims.id, state: claims.state, ownerId: claims.ownerId }).from(claims).where(eq(claims.studioId, demo.id)).all();
+const ownerClaim = demoClaims.find((c) => c.ownerId === holloway && c.state === "declined")!;
+const ownerClaimPhoto = db.select({ id: files.id }).from(files).where(and(eq(files.claimId, ownerClaim.id), eq(files.purpose, "claim_photo"))).get()!;
+const ownerCareLogEntry = db
+  .select({ id: careLogEntries.id })
+  .from(careLogEntries)
+  .where(and(eq(careLogEntries.pieceId, ownerPiece.id), eq(careLogEntries.userId, holloway), eq(careLogEntries.source, "owner")))
+  .get()!;
+const demoVisits = db
+  .select({ id: visits.id, state: visits.state, technicianId: visits.technicianId, ownerId: repairJobs.ownerId })
+  .from(visits)
+  .innerJoin(repairJobs, eq(repairJobs.id, visits.jobId))
+  .where(eq(visits.studioId, demo.id))
+  .all();
+const ines = userId("ines@larchmere.example");
+const sol = userId("sol@larchmere.example");
+const membershipOf = (uid: string) => db.select({ id: memberships.id }).from(memberships).where(and(eq(memberships.studioId, demo.id), eq(memberships.userId, uid))).get()!.id;
+const sentReminder = db.select({ id: reminderSends.id }).from(reminderSends).where(and(eq(reminderSends.studioId, demo.id), eq(reminderSends.status, "sent"), isNotNull(reminderSends.sentAt))).get()!;
+const matrix = {
+  demoStudioId: demo.id,
+  otherStudioId: other.id,
+  ownerPieceId: ownerPiece.id,
+  ownerPieceDeliveredOn: ownerPiece.deliveredOn,
+  ownerPiecePaused: ownerPiece.remindersPaused,
+  ownerClaimId: ownerClaim.id,
+  ownerClaimPhotoId: ownerClaimPhoto.id,
+  ownerCareLogEntryId: ownerCareLogEntry.id,
+  doneVisitId: demoVisits.find((v) => v.state === "done" && v.technicianId === ines && v.ownerId === holloway)!.id,
+  solBookedVisitId: demoVisits.find((v) => v.state === "booked" && v.technicianId === sol && v.ownerId === holloway)!.id,
+  inesId: ines,
+  solId: sol,
+  adminMembershipId: membershipOf(userId("maren@larchmere.example")),
+  technicianMembershipId: membershipOf(ines),
+  sentReminderId: sentReminder.id,
+  spare: { pieceId: spare.id, code: spareCode.code },
+};
+const fixtureFile = process.env.E2E_FIXTURE_FILE ?? "tests/.tmp/e2e-fixture.json";
+fs.mkdirSync(path.dirname(fixtureFile), { recursive: true });
+fs.writeFileSync(fixtureFile, JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: demoSeed.jobs, matrix }, null, 2));
 console.log("Seeded the e2e database (invented data).");

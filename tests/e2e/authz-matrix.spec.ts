@@ -1,0 +1,719 @@
+// The authorization matrix: every route handler and every server action of the app, enumerated from
+// the file system (and the build's server-reference manifest), × every role, against the production
+// build. A route, method or action without a row here fails the first test by name.
+//
+// Each row sends one request per role and names the answer expected for each. Roles that are refused
+// must be refused before anything happens (401 not signed in, 403 wrong role, 404 someone else's
+// object or another studio's, so its existence is not revealed); roles that are allowed must get past
+// authorization: a 2xx, or a 400/409/422 from a harmless request (an invalid body, or a state change
+// the object's state forbids). Writes that do happen land on throwaway rows made here, or are no-ops
+// (the values already stored), so the shared fixture stays as the other specs expect it.
+import fs from "node:fs";
+import { expect, test, type APIRequestContext, type APIResponse } from "@playwright/test";
+import { generateRegistrationCode } from "@/lib/care/registration-code";
+import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
+import { ACCOUNTS, PASSWORD } from "./helpers";
+import { appRoutes, fill, manifestActions, pagePattern, serverActions, type ManifestAction } from "./routes";
+
+// ---------------------------------------------------------------- roles and fixture
+
+const WHO = ["anonymous", "owner", "otherOwner", "technician", "staff", "admin", "otherStudioStaff", "otherStudioAdmin"] as const;
+type Who = (typeof WHO)[number];
+type SignedIn = Exclude<Who, "anonymous">;
+
+/** helpers.ACCOUNTS plus the other studio's admin that tests/support/seed-e2e.ts adds for this spec. */
+const EMAIL: Record<SignedIn, string> = { ...ACCOUNTS, otherStudioAdmin: "admin@other-studio.example" };
+
+// Requests go out in this order, so a role that may change something comes after every role refused.
+const RUN_ORDER: Who[] = ["anonymous", "otherOwner", "otherStudioStaff", "otherStudioAdmin", "technician", "owner", "staff", "admin"];
+
+type Fixture = {
+  demoPieceId: string;
+  otherPieceId: string;
+  jobs: Record<"quoted" | "approved" | "draft" | "paid" | "covered" | "done", string>;
+  matrix: {
+    demoStudioId: string;
+    otherStudioId: string;
+    ownerPieceId: string;
+    ownerPieceDeliveredOn: string;
+    ownerPiecePaused: boolean;
+    ownerClaimId: string;
+    ownerClaimPhotoId: string;
+    ownerCareLogEntryId: string;
+    doneVisitId: string;
+    solBookedVisitId: string;
+    inesId: string;
+    solId: string;
+    adminMembershipId: string;
+    technicianMembershipId: string;
+    sentReminderId: string;
+    spare: { pieceId: string; code: string };
+  };
+};
+const F: Fixture = JSON.parse(fs.readFileSync(process.env.E2E_FIXTURE_FILE ?? "tests/.tmp/e2e-fixture.json", "utf8"));
+const X = F.matrix;
+const J = F.jobs;
+
+// The owner's (holloway) declined claim, its photo, the paid and the done job, the done visit (Ines's)
+// are the owner's; the paid job has no visit yet. Sol's booked visit is not Ines's.
+const DAY = 86_400_000;
+const future = (days: number) => new Date(Date.now() + days * DAY).toISOString();
+
+/** What a role must never read in a 2xx answer: ids and names of rows that are not theirs. */
+const OWNER_ROWS = [X.ownerPieceId, X.ownerClaimId, X.ownerClaimPhotoId, X.ownerCareLogEntryId, J.paid, J.done, J.draft, X.doneVisitId];
+const DEMO_STUDIO_ROWS = [X.demoStudioId, F.demoPieceId, ...OWNER_ROWS, ...Object.values(J), X.solBookedVisitId, X.inesId, X.solId, X.sentReminderId, "Walnut river dining table", "Larchmere Slab & Resin"];
+const SECRETS: Record<Who, string[]> = {
+  anonymous: [...DEMO_STUDIO_ROWS, F.otherPieceId, X.otherStudioId],
+  owner: [],
+  otherOwner: OWNER_ROWS,
+  technician: [X.ownerClaimId, X.ownerClaimPhotoId],
+  staff: [F.otherPieceId, X.otherStudioId],
+  admin: [F.otherPieceId, X.otherStudioId],
+  otherStudioStaff: DEMO_STUDIO_ROWS,
+  otherStudioAdmin: DEMO_STUDIO_ROWS,
+};
+
+/** An 8-column row, in WHO order. */
+function parseRow(expect: string, where: string): Record<Who, string> {
+  const cells = expect.trim().split(/\s+/);
+  if (cells.length !== WHO.length) throw new Error(`${where}: ${cells.length} cells, want ${WHO.length} (${WHO.join(" ")})`);
+  return Object.fromEntries(WHO.map((w, i) => [w, cells[i]!])) as Record<Who, string>;
+}
+
+// ---------------------------------------------------------------- per-run state
+
+type Api = Record<Who, APIRequestContext>;
+type State = {
+  api: Api;
+  product: { id: string; name: string };
+  piece: { id: string; title: string };
+  layerId: string;
+  layerToDelete: Record<"staff" | "admin", string>;
+  pieceToDelete: Record<"staff" | "admin", string>;
+  careEntryToDelete: string;
+  prefs: Record<Who, unknown>;
+  studio: Record<"admin" | "otherStudioAdmin", { profile: unknown; reminders: unknown }>;
+  inesHours: unknown;
+};
+let S: State;
+const contexts: APIRequestContext[] = [];
+
+/**
+ * A request context of its own per role, signed in through the sign-in form's server action (no
+ * page needed: the matrix only speaks HTTP). `next` points at a cheap answer, so the action's
+ * redirect does not render a whole start page.
+ */
+async function contextFor(newContext: () => Promise<APIRequestContext>, who: Who, baseURL: string): Promise<APIRequestContext> {
+  const api = await newContext();
+  contexts.push(api);
+  if (who === "anonymous") return api;
+  const signInAction = manifestActions().find((a) => a.file === "app/(public)/sign-in/actions.ts" && a.name === "signInAction")!;
+  const out = await callAction(api, signInAction, { json: [{ email: EMAIL[who], password: PASSWORD, next: "/api/health" }] }, baseURL);
+  expect(out.redirect, `signing in as ${who}: ${out.raw.slice(0, 200)}`).toBe("/api/health");
+  expect((await api.get("/api/me")).status(), `${who}'s session`).toBe(200);
+  return api;
+}
+
+async function json<T = Record<string, unknown>>(res: APIResponse, what: string, status?: number): Promise<T> {
+  if (status !== undefined) expect(res.status(), `${what}: ${await res.text()}`).toBe(status);
+  return (await res.json()) as T;
+}
+
+/**
+ * Registers the spare piece (the other studio's, seeded unowned for this spec) to the owner, for a
+ * release row: its studio issues a fresh code, the owner registers with it.
+ */
+async function registerSpare(): Promise<void> {
+  const issued = await json<{ registrationCode: string }>(await S.api.otherStudioStaff.post(`/api/pieces/${X.spare.pieceId}/registration-code`), "a fresh code for the spare piece", 200);
+  const res = await S.api.owner.post("/api/registrations", { data: { code: issued.registrationCode } });
+  expect((await json<{ pieceId: string }>(res, "registering the spare piece", 201)).pieceId).toBe(X.spare.pieceId);
+}
+
+/** Throwaway rows of the demo studio for the registry and catalog rows, made once, on first use. */
+async function throwaways(): Promise<void> {
+  if (S.piece) return;
+  const { staff, admin } = S.api;
+  const title = "Matrix throwaway shelf (invented, authorization matrix)";
+  const newPiece = async () => {
+    const res = await staff.post("/api/pieces", {
+      data: { kind: "shelf", title, shapeKind: "rectangle", lengthMm: 900, widthMm: 250, primarySpeciesId: "red_oak", use: "light", deliveredOn: "2026-02-01", layers: [validLayer] },
+    });
+    return (await json<{ piece: { id: string } }>(res, "creating a throwaway piece", 201)).piece.id;
+  };
+  S.piece = { id: await newPiece(), title };
+  S.pieceToDelete = { staff: await newPiece(), admin: await newPiece() };
+  const detail = await json<{ layers: { id: string }[] }>(await staff.get(`/api/pieces/${S.piece.id}`), "reading the throwaway piece", 200);
+  S.layerId = detail.layers[0]!.id;
+  const newLayer = async () => (await json<{ layer: { id: string } }>(await staff.post(`/api/pieces/${S.piece.id}/layers`, { data: validLayer }), "adding a throwaway layer", 201)).layer.id;
+  S.layerToDelete = { staff: await newLayer(), admin: await newLayer() };
+  // Its class and name sort it after the demo products.
+  const product = await admin.post("/api/catalog", { data: { name: "Matrix throwaway paste wax (invented)", finishClass: "paste_wax", coverageM2PerL: 20 } });
+  S.product = (await json<{ product: { id: string; name: string } }>(product, "creating a throwaway product", 201)).product;
+}
+
+/** A care-log entry of the owner's dated on the delivery day: older than the real history, so no schedule moves. */
+async function throwawayCareEntry(): Promise<void> {
+  const res = await S.api.owner.post(`/api/me/pieces/${X.ownerPieceId}/care-log`, {
+    data: { taskKind: "annual_check", surface: "whole_piece", doneOn: X.ownerPieceDeliveredOn, notes: "Matrix throwaway entry (invented)." },
+  });
+  S.careEntryToDelete = (await json<{ entry: { id: string } }>(res, "logging a throwaway care entry", 201)).entry.id;
+}
+
+// ---------------------------------------------------------------- route handlers
+
+/** An APIRequestContext that never follows redirects: a 303 is an answer to check, not to follow. */
+type Req = Pick<APIRequestContext, "get" | "post" | "put" | "patch" | "delete">;
+function noFollow(api: APIRequestContext): Req {
+  type Options = Parameters<APIRequestContext["get"]>[1];
+  const wrap = (f: (url: string, o?: Options) => Promise<APIResponse>) => (url: string, o?: Options) => f.call(api, url, { maxRedirects: 0, ...o });
+  return { get: wrap(api.get), post: wrap(api.post), put: wrap(api.put), patch: wrap(api.patch), delete: wrap(api.delete) };
+}
+type RouteCall = { who: Who; api: Req };
+type RouteRow = {
+  route: string;
+  expect: string;
+  send: (c: RouteCall) => Promise<APIResponse>;
+  before?: () => Promise<void>;
+  /** For cells with this status, the error message must match (when the status alone could come from elsewhere). */
+  messages?: Partial<Record<string, RegExp>>;
+};
+
+const png = { name: "matrix.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a", "hex") };
+const validLayer = { surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2026-02-02" };
+const jobQuote = { title: "Matrix check (never saved)", tasks: ["reoil"], productIds: [], coats: 1, travel: false, coveredPct: 0 };
+const noCoverPolicy = {
+  effectiveFrom: "2000-01-01",
+  lines: Object.fromEntries(
+    CLAIM_CATEGORIES.map((c) => [c, { covered: false, label: "", termMonths: 12, exclusions: [], careLogRequired: false, graceDays: 0, onMissed: "not_covered", climateCheck: false, partlyCoveredPct: 50, transfersToNewOwner: false }]),
+  ),
+};
+const visitWindow = () => `from=${encodeURIComponent(future(-20))}&to=${encodeURIComponent(future(20))}`;
+
+// Columns:                                  anon  owner oOwner tech staff admin oStaff oAdmin
+const ROUTES: RouteRow[] = [
+  // Public: the same answer for everyone.
+  { route: "GET /verify-email", expect: "303:/verify-email/sent ".repeat(8), send: ({ api }) => api.get("/verify-email?token=matrix-not-a-real-token") },
+  { route: "GET /home", expect: "303:/sign-in 303:/pieces 303:/pieces 303:/studio/today 303:/studio 303:/studio 303:/studio 303:/studio", send: ({ api }) => api.get("/home") },
+  { route: "GET /api/health", expect: "200 ".repeat(8), send: ({ api }) => api.get("/api/health") },
+  // Exists only during a benchmark run (GRAINWARD_BENCH_JSON), never in the e2e server.
+  { route: "GET /api/bench/same-json", expect: "404 ".repeat(8), send: ({ api }) => api.get("/api/bench/same-json") },
+  { route: "GET /api/unsubscribe", expect: "303:/unsubscribe ".repeat(8), send: ({ api }) => api.get("/api/unsubscribe?t=matrix-not-a-real-token") },
+  // The signed token is the only authority; a made-up one is refused for everyone alike.
+  {
+    route: "POST /api/unsubscribe",
+    expect: "404 ".repeat(8),
+    send: ({ api }) => api.post("/api/unsubscribe?t=matrix-not-a-real-token", { form: { "List-Unsubscribe": "One-Click" } }),
+  },
+  { route: "POST /api/webhooks/stripe", expect: "400 ".repeat(8), send: ({ api }) => api.post("/api/webhooks/stripe", { data: { id: "evt_matrix" }, headers: { "stripe-signature": "t=1,v1=00" } }) },
+
+  // The signed-in person's own data.
+  { route: "GET /api/me", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/me") },
+  { route: "GET /api/me/preferences", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/me/preferences") },
+  { route: "PATCH /api/me/preferences", expect: "401 400 400 400 400 400 400 400", send: ({ api }) => api.patch("/api/me/preferences", { data: {} }) },
+  { route: "GET /api/me/pieces", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/me/pieces") },
+  { route: "GET /api/me/pieces/[id]", expect: "401 200 404 404 404 404 404 404", send: ({ api }) => api.get(`/api/me/pieces/${X.ownerPieceId}`) },
+  { route: "GET /api/me/pieces/[id]/certificate", expect: "401 200 404 404 404 404 404 404", send: ({ api }) => api.get(`/api/me/pieces/${X.ownerPieceId}/certificate`) },
+  // A well-formed entry dated before the delivery: the owner gets past the ownership check to the date check (400).
+  {
+    route: "POST /api/me/pieces/[id]/care-log",
+    expect: "401 400 404 404 404 404 404 404",
+    send: ({ api }) => api.post(`/api/me/pieces/${X.ownerPieceId}/care-log`, { data: { taskKind: "annual_check", surface: "whole_piece", doneOn: "1990-01-01" } }),
+  },
+  {
+    route: "PATCH /api/me/pieces/[id]/care-log/[entryId]",
+    expect: "401 400 404 404 404 404 404 404",
+    send: ({ api }) => api.patch(`/api/me/pieces/${X.ownerPieceId}/care-log/${X.ownerCareLogEntryId}`, { data: { doneOn: "1990-01-01" } }),
+  },
+  {
+    route: "DELETE /api/me/pieces/[id]/care-log/[entryId]",
+    expect: "401 200 404 404 404 404 404 404",
+    before: throwawayCareEntry,
+    send: ({ api }) => api.delete(`/api/me/pieces/${X.ownerPieceId}/care-log/${S.careEntryToDelete}`),
+  },
+  // The spare piece is registered to the owner just before, and released by the owner (last).
+  {
+    route: "POST /api/me/pieces/[id]/release",
+    expect: "401 200 404 404 404 404 404 404",
+    before: registerSpare,
+    send: ({ api }) => api.post(`/api/me/pieces/${X.spare.pieceId}/release`, { data: { confirm: true } }),
+  },
+  // A malformed code is refused before any lookup or rate limit, for any signed-in person.
+  { route: "POST /api/registrations", expect: "401 400 400 400 400 400 400 400", send: ({ api }) => api.post("/api/registrations", { data: { code: "not-a-code" } }) },
+
+  // Claims: the owner who filed it and the studio's staff; nobody else learns it exists.
+  { route: "GET /api/claims", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/claims") },
+  {
+    route: "POST /api/claims",
+    // A claim noticed in the future: the owner's piece is found (422 on the date), nobody else's is.
+    expect: "401 422 404 404 404 404 404 404",
+    send: ({ api }) =>
+      api.post("/api/claims", {
+        data: {
+          pieceId: X.ownerPieceId,
+          category: "crack_gap",
+          noticedOn: "2999-01-01",
+          description: "Matrix check: this claim is never filed.",
+          answers: { heat: "no", chemicals: "no", impact: "no", usedOutdoors: "no", directSun: "no" },
+        },
+      }),
+  },
+  { route: "GET /api/claims/[id]", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/claims/${X.ownerClaimId}`) },
+  // The claim is declined: a decision or a state change is a 409 for its studio's staff.
+  {
+    route: "POST /api/claims/[id]/decision",
+    expect: "401 403 403 403 409 409 404 404",
+    send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/decision`, { data: { decision: "declined", reason: "Matrix check, never applied." } }),
+  },
+  { route: "POST /api/claims/[id]/state", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/state`, { data: { to: "accepted" } }) },
+  // requestInfo: the owner may see the claim but not ask for information (403); staff can't reopen a declined claim (409).
+  {
+    route: "POST /api/claims/[id]/messages",
+    expect: "401 403 404 404 409 409 404 404",
+    send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/messages`, { data: { body: "Matrix check (never sent).", requestInfo: true } }),
+  },
+  // Photos: only the owner adds or removes them, and only while the claim is open (409 on a declined one).
+  { route: "POST /api/claims/[id]/photos", expect: "401 409 404 404 403 403 404 404", send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/photos`, { multipart: { file: png } }) },
+  { route: "DELETE /api/claims/[id]/photos/[fileId]", expect: "401 409 404 404 403 403 404 404", send: ({ api }) => api.delete(`/api/claims/${X.ownerClaimId}/photos/${X.ownerClaimPhotoId}`) },
+  // A claim photo: its owner and the studio's staff (not technicians).
+  { route: "GET /api/files/[fileId]", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/files/${X.ownerClaimPhotoId}`) },
+
+  // Repair jobs: the studio's staff, and the job's owner once quoted.
+  { route: "GET /api/jobs", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/jobs") },
+  { route: "POST /api/jobs", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post("/api/jobs", { data: { from: "claim", id: X.ownerClaimId } }) },
+  { route: "GET /api/jobs/[id]", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/jobs/${J.paid}`) },
+  { route: "PATCH /api/jobs/[id]", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.patch(`/api/jobs/${J.done}`, { data: jobQuote }) },
+  { route: "POST /api/jobs/[id]/approve", expect: "401 409 404 404 404 404 404 404", send: ({ api }) => api.post(`/api/jobs/${J.paid}/approve`) },
+  // A done job can't be cancelled, by its owner or by staff, and the refusal comes before any refund is asked for.
+  {
+    route: "POST /api/jobs/[id]/cancel",
+    expect: "401 409 404 404 409 409 404 404",
+    messages: { "409": /^(A job that is "Done" can't become "Cancelled"\.|Ask the studio to cancel a job that is already paid or booked\.)$/ },
+    send: ({ api }) => api.post(`/api/jobs/${J.done}/cancel`),
+  },
+  { route: "POST /api/jobs/[id]/quote", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post(`/api/jobs/${J.done}/quote`) },
+  { route: "GET /api/jobs/[id]/slots", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/jobs/${J.paid}/slots`) },
+
+  // Visits: staff, the visit's technician, the job's owner. The done visit is Ines's, on the owner's done job.
+  { route: "GET /api/visits", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get(`/api/visits?${visitWindow()}`) },
+  {
+    // Allowed roles send an empty body (400), the others a well-formed booking of the owner's paid job (404).
+    route: "POST /api/visits",
+    expect: "401 400 404 404 400 400 404 404",
+    send: ({ who, api }) =>
+      api.post("/api/visits", { data: ["owner", "staff", "admin"].includes(who) ? {} : { jobId: J.paid, technicianId: X.inesId, start: future(10) } }),
+  },
+  { route: "PATCH /api/visits/[id]", expect: "401 409 404 409 409 409 404 404", send: ({ api }) => api.patch(`/api/visits/${X.doneVisitId}`, { data: { start: future(10) } }) },
+  { route: "PATCH /api/visits/[id]", expect: "401 - 404 404 - - 404 404", send: ({ api }) => api.patch(`/api/visits/${X.solBookedVisitId}`, { data: { start: future(10) } }) },
+  { route: "POST /api/visits/[id]/cancel", expect: "401 409 404 409 409 409 404 404", send: ({ api }) => api.post(`/api/visits/${X.doneVisitId}/cancel`, { data: {} }) },
+  { route: "POST /api/visits/[id]/cancel", expect: "401 - 404 404 - - 404 404", send: ({ api }) => api.post(`/api/visits/${X.solBookedVisitId}/cancel`, { data: {} }) },
+  { route: "POST /api/visits/[id]/photos", expect: "401 403 403 400 400 400 404 404", send: ({ api }) => api.post(`/api/visits/${X.doneVisitId}/photos`, { multipart: { kind: "before" } }) },
+  { route: "POST /api/visits/[id]/photos", expect: "401 403 403 404 400 400 404 404", send: ({ api }) => api.post(`/api/visits/${X.solBookedVisitId}/photos`, { multipart: { kind: "before" } }) },
+  {
+    route: "POST /api/visits/[id]/report",
+    expect: "401 403 403 409 409 409 404 404",
+    send: ({ api }) => api.post(`/api/visits/${X.doneVisitId}/report`, { data: { work: "Matrix check (never filed).", layers: [], signOffName: "Nobody" } }),
+  },
+  {
+    route: "POST /api/visits/[id]/report",
+    expect: "401 403 403 404 - - 404 404",
+    send: ({ api }) => api.post(`/api/visits/${X.solBookedVisitId}/report`, { data: { work: "Matrix check (never filed).", layers: [], signOffName: "Nobody" } }),
+  },
+  { route: "GET /api/technicians/[id]/hours", expect: "401 403 403 200 200 200 404 404", send: ({ api }) => api.get(`/api/technicians/${X.inesId}/hours`) },
+  { route: "GET /api/technicians/[id]/hours", expect: "401 403 403 404 200 200 404 404", send: ({ api }) => api.get(`/api/technicians/${X.solId}/hours`) },
+  // Ines's current hours, sent back unchanged: staff may set them, the technician may not.
+  { route: "PUT /api/technicians/[id]/hours", expect: "401 403 403 403 200 200 404 404", send: ({ api }) => api.put(`/api/technicians/${X.inesId}/hours`, { data: S.inesHours }) },
+  { route: "PUT /api/technicians/[id]/hours", expect: "401 403 403 404 - - 404 404", send: ({ api }) => api.put(`/api/technicians/${X.solId}/hours`, { data: S.inesHours }) },
+
+  // The registry: admin and staff of the piece's studio. T is a throwaway piece made in beforeAll.
+  { route: "GET /api/pieces", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/pieces") },
+  { route: "POST /api/pieces", expect: "401 403 403 403 400 400 400 400", send: ({ api }) => api.post("/api/pieces", { data: {} }) },
+  { route: "GET /api/pieces/export.csv", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/pieces/export.csv") },
+  { route: "POST /api/pieces/import", expect: "401 403 403 403 400 400 400 400", send: ({ api }) => api.post("/api/pieces/import", { data: {} }) },
+  { route: "GET /api/pieces/[id]", expect: "401 403 403 403 200 200 404 404", send: ({ api }) => api.get(`/api/pieces/${F.demoPieceId}`) },
+  { route: "GET /api/pieces/[id]", expect: "401 403 403 403 404 404 200 200", send: ({ api }) => api.get(`/api/pieces/${F.otherPieceId}`) },
+  { route: "PATCH /api/pieces/[id]", expect: "401 403 403 403 200 200 404 404", before: throwaways, send: ({ api }) => api.patch(`/api/pieces/${S.piece.id}`, { data: { title: S.piece.title } }) },
+  {
+    route: "DELETE /api/pieces/[id]",
+    expect: "401 403 403 403 200 200 404 404", before: throwaways,
+    send: ({ who, api }) => api.delete(`/api/pieces/${who === "admin" ? S.pieceToDelete.admin : S.pieceToDelete.staff}`),
+  },
+  { route: "GET /api/pieces/[id]/card.pdf", expect: "401 403 403 403 200 200 404 404", send: ({ api }) => api.get(`/api/pieces/${F.demoPieceId}/card.pdf`) },
+  { route: "POST /api/pieces/[id]/layers", expect: "401 403 403 403 201 201 404 404", before: throwaways, send: ({ api }) => api.post(`/api/pieces/${S.piece.id}/layers`, { data: validLayer }) },
+  { route: "PATCH /api/pieces/[id]/layers/[layerId]", expect: "401 403 403 403 200 200 404 404", before: throwaways, send: ({ api }) => api.patch(`/api/pieces/${S.piece.id}/layers/${S.layerId}`, { data: { coats: 2 } }) },
+  {
+    route: "DELETE /api/pieces/[id]/layers/[layerId]",
+    expect: "401 403 403 403 200 200 404 404", before: throwaways,
+    send: ({ who, api }) => api.delete(`/api/pieces/${S.piece.id}/layers/${who === "admin" ? S.layerToDelete.admin : S.layerToDelete.staff}`),
+  },
+  // No file in the form: staff of the piece's studio reach the file check (400).
+  { route: "POST /api/pieces/[id]/photos", expect: "401 403 403 403 400 400 404 404", before: throwaways, send: ({ api }) => api.post(`/api/pieces/${S.piece.id}/photos`, { multipart: { note: "no file" } }) },
+  { route: "POST /api/pieces/[id]/registration-code", expect: "401 403 403 403 200 200 404 404", before: throwaways, send: ({ api }) => api.post(`/api/pieces/${S.piece.id}/registration-code`) },
+
+  // The finish catalog: staff read it, admins change it. P is a throwaway product made in beforeAll.
+  { route: "GET /api/catalog", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/catalog") },
+  { route: "POST /api/catalog", expect: "401 403 403 403 403 400 403 400", send: ({ api }) => api.post("/api/catalog", { data: {} }) },
+  { route: "PATCH /api/catalog/[id]", expect: "401 403 403 403 403 200 403 404", before: throwaways, send: ({ api }) => api.patch(`/api/catalog/${S.product.id}`, { data: { name: S.product.name } }) },
+  { route: "DELETE /api/catalog/[id]", expect: "401 403 403 403 403 200 403 404", before: throwaways, send: ({ api }) => api.delete(`/api/catalog/${S.product.id}`) },
+
+  // Reminders (staff). The reminder was sent, so resending is a 409; pausing sets the value it already has.
+  { route: "GET /api/reminders", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/reminders") },
+  { route: "POST /api/reminders/[id]/resend", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post(`/api/reminders/${X.sentReminderId}/resend`) },
+  {
+    route: "POST /api/reminders/pause",
+    expect: "401 403 403 403 200 200 404 404",
+    send: ({ api }) => api.post("/api/reminders/pause", { data: { pieceId: X.ownerPieceId, paused: X.ownerPiecePaused } }),
+  },
+
+  // The studio's figures (staff) and settings (admins); each acts on the caller's own studio.
+  { route: "GET /api/studio/overview", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/studio/overview") },
+  { route: "GET /api/studio/reports/claims.csv", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/studio/reports/claims.csv") },
+  { route: "GET /api/studio/policy", expect: "401 403 403 403 403 200 403 200", send: ({ api }) => api.get("/api/studio/policy") },
+  // A version that covers nothing is refused after the admin check (400), so no version is written.
+  { route: "POST /api/studio/policy", expect: "401 403 403 403 403 400 403 400", send: ({ api }) => api.post("/api/studio/policy", { data: noCoverPolicy }) },
+  { route: "GET /api/studio/settings", expect: "401 403 403 403 403 200 403 200", send: ({ api }) => api.get("/api/studio/settings") },
+  { route: "PATCH /api/studio/settings", expect: "401 403 403 403 403 200 403 200", before: throwaways, send: ({ api }) => api.patch("/api/studio/settings", { data: {} }) },
+];
+
+async function checkRouteAnswer(row: RouteRow, who: Who, cell: string, res: APIResponse): Promise<string | null> {
+  const [want, where] = cell.split(":");
+  const status = res.status();
+  const text = await res.text().catch(() => "");
+  if (String(status) !== want) return `got ${status} (${text.slice(0, 160).replace(/\s+/g, " ")})`;
+  if (where) {
+    const location = res.headers()["location"] ?? "";
+    const path = new URL(location, "http://x").pathname;
+    if (path !== where) return `redirected to ${location}, want ${where}`;
+  }
+  if (status >= 400) {
+    let code: unknown;
+    try {
+      code = (JSON.parse(text) as { error?: { code?: unknown } }).error?.code;
+    } catch {
+      code = undefined;
+    }
+    if (typeof code !== "string") return `a ${status} without a JSON error body: ${text.slice(0, 120)}`;
+    const pattern = row.messages?.[want!];
+    const message = (JSON.parse(text) as { error: { message?: string } }).error.message ?? "";
+    if (pattern && !pattern.test(message)) return `a ${status} saying "${message}", want ${pattern}`;
+  }
+  if (status < 300 && /json|text|csv/.test(res.headers()["content-type"] ?? "")) {
+    const leaked = SECRETS[who].filter((s) => text.includes(s));
+    if (leaked.length) return `answer ${status} contains rows that are not theirs: ${leaked.join(", ")}`;
+  }
+  return null;
+}
+
+// ---------------------------------------------------------------- server actions
+
+type ActionArgs = { json: unknown[] } | { form: Record<string, string> };
+type ActionRow = {
+  /** "file#export", as on disk. */
+  action: string;
+  expect: string;
+  args: (who: Who) => ActionArgs;
+  /** The message an allowed role gets for the 400/404/409/422 cells of this row. */
+  messages?: Partial<Record<string, RegExp>>;
+  before?: () => Promise<void>;
+  /** Run after every other row (sign-out ends the sessions the other rows use). */
+  last?: boolean;
+};
+type ActionOutcome = { status: number; redirect?: string; result?: { ok: boolean; message?: string; data?: unknown; fieldErrors?: Record<string, string[]> }; raw: string };
+
+// lib/auth/guards.ts and lib/errors.ts: the words of the refusals every guarded action returns.
+const ACTION_MESSAGES: Record<string, RegExp> = {
+  "401": /^Sign in to continue\.$/,
+  "403": /^(This area is for studio members\.|Your role in this studio doesn't include this\.)$/,
+  "404": /^No (such|piece|claim|finish product|reminder) |^We don't know that code|has expired, was withdrawn/,
+};
+
+const anyPrefs = { remindersEnabled: true, timeZone: "UTC", unitSystem: "metric" };
+const newPassword = "matrix-new-password-1";
+
+const ACTIONS: ActionRow[] = [
+  // Public forms: no session needed and none used; invalid or made-up input, the same answer for all.
+  { action: "app/(public)/sign-in/actions.ts#signInAction", expect: "400 ".repeat(8), args: () => ({ json: [{ email: "", password: "" }] }) },
+  { action: "app/(public)/sign-up/actions.ts#signUpAction", expect: "400 ".repeat(8), args: () => ({ json: [{ name: "", email: "not-an-email", password: "short" }] }) },
+  { action: "app/(public)/forgot-password/actions.ts#forgotPasswordAction", expect: "400 ".repeat(8), args: () => ({ json: [{ email: "not-an-email" }] }) },
+  {
+    action: "app/(public)/reset-password/actions.ts#resetPasswordAction",
+    expect: "400 ".repeat(8),
+    messages: { "400": /^This reset link has expired or was already used/ },
+    args: () => ({ json: [{ token: "matrix-not-a-real-reset-token", password: newPassword, confirm: newPassword }] }),
+  },
+  {
+    action: "app/(public)/invite/[token]/actions.ts#acceptInvitationAction",
+    expect: "404 ".repeat(8),
+    args: () => ({ json: [{ token: "matrix-not-a-real-invitation", name: "Nobody (invented)", password: newPassword }] }),
+  },
+  { action: "app/(public)/offers/[token]/actions.ts#acceptOfferAction", expect: "→/offers/* ".repeat(8), args: () => ({ form: { token: "matrix-not-a-real-offer-token" } }) },
+  { action: "app/(public)/unsubscribe/actions.ts#setRemindersAction", expect: "→/unsubscribe ".repeat(8), args: () => ({ form: { t: "short" } }) },
+
+  // Signed-in person's own account.
+  { action: "app/(owner)/account/actions.ts#savePreferencesAction", expect: "401 ok ok ok ok ok ok ok", args: (who) => ({ json: [S.prefs[who] ?? anyPrefs] }) },
+  {
+    action: "app/(owner)/account/password/actions.ts#changePasswordAction",
+    expect: "401 400 400 400 400 400 400 400",
+    messages: { "400": /^That isn't your current password\.$/ },
+    args: () => ({ json: [{ current: "matrix-wrong-password", password: newPassword, confirm: newPassword }] }),
+  },
+  { action: "app/(public)/verify-email/sent/actions.ts#resendVerificationAction", expect: "401 ok ok ok ok ok ok ok", args: () => ({ json: [{}] }) },
+  // A well-formed code that matches no piece: the signed-in get past the guard to the lookup.
+  { action: "app/(owner)/register/actions.ts#registerAction", expect: "401 404 404 404 404 404 404 404", args: () => ({ json: [{ code: generateRegistrationCode() }] }) },
+  {
+    action: "app/(owner)/pieces/[id]/transfer/actions.ts#releaseAction",
+    expect: "401 ok 404 404 404 404 404 404",
+    before: registerSpare,
+    args: () => ({ json: [X.spare.pieceId, { confirm: true }] }),
+  },
+
+  // The studio console.
+  {
+    action: "app/studio/jobs/actions.ts#createJobAction",
+    expect: "401 403 403 403 409 409 404 404",
+    messages: { "409": /^Only an accepted claim becomes a repair job\.$/ },
+    args: () => ({ json: [{ from: "claim", id: X.ownerClaimId }] }),
+  },
+  // Admins save the values their studio already has.
+  {
+    action: "app/studio/settings/actions.ts#saveProfileAction",
+    expect: "401 403 403 403 403 ok 403 ok",
+    args: (who) => ({ json: [(who === "otherStudioAdmin" ? S.studio.otherStudioAdmin : S.studio.admin).profile] }),
+  },
+  {
+    action: "app/studio/settings/actions.ts#saveReminderTimingAction",
+    expect: "401 403 403 403 403 ok 403 ok",
+    args: (who) => ({ json: [(who === "otherStudioAdmin" ? S.studio.otherStudioAdmin : S.studio.admin).reminders] }),
+  },
+  {
+    action: "app/studio/settings/actions.ts#createPolicyVersionAction",
+    expect: "401 403 403 403 403 400 403 400",
+    messages: { "400": /^Cover at least one kind of claim\.$/ },
+    args: () => ({ json: [noCoverPolicy] }),
+  },
+  // Inviting someone who is already a member of the admin's own studio: 409, and no invitation goes out.
+  {
+    action: "app/studio/team/actions.ts#inviteAction",
+    expect: "401 403 403 403 403 409 403 409",
+    messages: { "409": /^That person is already a member of this studio\.$/ },
+    args: (who) => ({ json: [{ email: who === "otherStudioAdmin" ? EMAIL.otherStudioStaff : EMAIL.technician, role: "technician" }] }),
+  },
+  // The technician's role set to the role they have: a no-op for the demo admin, another studio's member for the other.
+  {
+    action: "app/studio/team/actions.ts#changeRoleAction",
+    expect: "401 403 403 403 403 ok 403 404",
+    args: () => ({ json: [{ membershipId: X.technicianMembershipId, role: "technician" }] }),
+  },
+  // The demo admin removing themself is refused (409); the other studio's admin can't see the membership.
+  {
+    action: "app/studio/team/actions.ts#removeMemberAction",
+    expect: "401 403 403 403 403 409 403 404",
+    messages: { "409": /^You can't remove yourself/ },
+    args: () => ({ json: [{ membershipId: X.adminMembershipId }] }),
+  },
+
+  // Last: signing out ends each of this spec's sessions (checked with /api/me afterwards).
+  { action: "app/actions/session.ts#signOutAction", expect: "→/ ".repeat(8), args: () => ({ json: [] }), last: true },
+];
+
+const SIGNED_IN_AREAS = ["/studio", "/pieces", "/account"]; // proxy.ts
+/**
+ * Anonymous with a made-up session cookie, sent as a header on each call (the app clears a bad cookie,
+ * which would empty a cookie jar): it passes proxy.ts's cookie-presence check, so the action's own guard answers.
+ */
+const FORGED_COOKIE = "gw_session=matrix-forged-session-token";
+
+function pagePathFor(action: ManifestAction): string {
+  // Any page that carries the action can receive it; prefer one without [params].
+  const pages = action.pages.map(pagePattern).sort((a, b) => (a.match(/\[/g)?.length ?? 0) - (b.match(/\[/g)?.length ?? 0));
+  return fill(pages[0] ?? "/", (name) => (name === "id" ? X.spare.pieceId : `matrix-not-a-real-${name}`));
+}
+
+/** Flight rows "id:json"; row 0 names the action's result row ("a": "$@1"). */
+function flightResult(text: string): ActionOutcome["result"] {
+  const rows = new Map<string, string>();
+  for (const line of text.split("\n")) {
+    const m = /^([0-9a-f]+):(.*)$/.exec(line);
+    if (m) rows.set(m[1]!, m[2]!);
+  }
+  const root = rows.get("0");
+  if (!root) return undefined;
+  const ref = /^\$@([0-9a-f]+)$/.exec((JSON.parse(root) as { a?: string }).a ?? "");
+  const row = ref ? rows.get(ref[1]!) : undefined;
+  return row ? JSON.parse(row) : undefined;
+}
+
+/** The root row "0" goes last, as encodeReply sends it: the server resolves "$K1" from the fields read before it. */
+function replyForm(fields: Record<string, string>): FormData {
+  const form = new FormData();
+  for (const [k, v] of Object.entries(fields)) form.append(`_1_${k}`, v);
+  form.append("0", JSON.stringify(["$K1"]));
+  return form;
+}
+
+async function callAction(api: APIRequestContext, action: ManifestAction, args: ActionArgs, baseURL: string, cookie?: string): Promise<ActionOutcome> {
+  const headers: Record<string, string> = { "Next-Action": action.id, Accept: "text/x-component", Origin: new URL(baseURL).origin, ...(cookie ? { Cookie: cookie } : {}) };
+  const url = pagePathFor(action);
+  // React's encodeReply: plain values are one JSON text; a FormData argument becomes fields "_1_<name>" and root ["$K1"].
+  const res =
+    "json" in args
+      ? await api.post(url, { headers: { ...headers, "Content-Type": "text/plain;charset=UTF-8" }, data: JSON.stringify(args.json), maxRedirects: 0 })
+      : await api.post(url, { headers, multipart: replyForm(args.form), maxRedirects: 0 });
+  const raw = await res.text();
+  const redirect = res.headers()["x-action-redirect"]?.split(";")[0] ?? (res.status() >= 300 && res.status() < 400 ? res.headers()["location"] : undefined);
+  let result: ActionOutcome["result"];
+  try {
+    result = redirect ? undefined : flightResult(raw);
+  } catch {
+    result = undefined;
+  }
+  return { status: res.status(), redirect, result, raw };
+}
+
+function checkActionOutcome(row: ActionRow, cell: string, o: ActionOutcome): string | null {
+  const shown = o.result ? JSON.stringify(o.result) : o.redirect ? `redirect to ${o.redirect}` : `${o.status} ${o.raw.slice(0, 160)}`;
+  if (o.status !== 200 && !o.redirect) return `HTTP ${o.status}: ${shown}`;
+  if (cell.startsWith("→")) {
+    const want = cell.slice(1);
+    const path = o.redirect ? new URL(o.redirect, "http://x").pathname : null;
+    const hit = path !== null && (want.endsWith("*") ? path.startsWith(want.slice(0, -1)) : path === want);
+    return hit ? null : `got ${shown}, want a redirect to ${want}`;
+  }
+  if (!o.result) return `no action result: ${shown}`;
+  if (cell === "ok") return o.result.ok ? null : `got ${shown}, want ok`;
+  if (o.result.ok) return `got ok (${JSON.stringify(o.result.data ?? null)}), want ${cell}`;
+  const pattern = row.messages?.[cell] ?? ACTION_MESSAGES[cell];
+  if (pattern) return pattern.test(o.result.message ?? "") ? null : `got "${o.result.message}", want ${cell} ${pattern}`;
+  if (cell === "400") return Object.keys(o.result.fieldErrors ?? {}).length > 0 ? null : `got "${o.result.message}" without field errors, want 400`;
+  return `no message pattern for cell ${cell}`;
+}
+
+// ---------------------------------------------------------------- setup and teardown
+
+test.beforeAll(async ({ playwright, baseURL }) => {
+  test.setTimeout(120_000);
+  const api = {} as Api;
+  const newContext = () => playwright.request.newContext({ baseURL });
+  for (const who of WHO) api[who] = await contextFor(newContext, who, baseURL!);
+  S = { api } as State;
+
+  // The values already stored, for the rows that save them back.
+  S.prefs = {} as Record<Who, unknown>;
+  for (const who of WHO.filter((w) => w !== "anonymous")) {
+    const p = (await json<{ preferences: { remindersEnabled: boolean; timeZone: string; unitSystem: string } }>(await api[who].get("/api/me/preferences"), `${who}'s preferences`, 200)).preferences;
+    S.prefs[who] = { remindersEnabled: p.remindersEnabled, timeZone: p.timeZone, unitSystem: p.unitSystem };
+  }
+  S.studio = {
+    admin: await json(await api.admin.get("/api/studio/settings"), "the demo studio's settings", 200),
+    otherStudioAdmin: await json(await api.otherStudioAdmin.get("/api/studio/settings"), "the other studio's settings", 200),
+  } as State["studio"];
+  const hours = await json<{ hours: unknown[]; timeOff: unknown[] }>(await api.staff.get(`/api/technicians/${X.inesId}/hours`), "Ines's hours", 200);
+  S.inesHours = { hours: hours.hours, timeOff: hours.timeOff };
+});
+
+test.afterAll(async ({ playwright, baseURL }) => {
+  // This spec's sessions may be signed out by now: clean up from fresh ones.
+  const fresh = (who: SignedIn) => contextFor(() => playwright.request.newContext({ baseURL }), who, baseURL!);
+  if (S?.piece) {
+    await (await fresh("staff")).delete(`/api/pieces/${S.piece.id}`);
+    await (await fresh("admin")).delete(`/api/catalog/${S.product.id}`);
+  }
+  // A run stopped between registering and releasing the spare piece: hand it back.
+  const owner = await fresh("owner");
+  if ((await owner.get(`/api/me/pieces/${X.spare.pieceId}`)).ok()) await owner.post(`/api/me/pieces/${X.spare.pieceId}/release`, { data: { confirm: true } });
+  await Promise.all(contexts.map((c) => c.dispose()));
+});
+
+// ---------------------------------------------------------------- the tests
+
+test("every route handler, method and server action on disk has a row, and every action is in the build", () => {
+  const missing: string[] = [];
+  const onDisk = new Set<string>();
+  for (const r of appRoutes()) {
+    if (r.methods.length === 0) missing.push(`${r.file} exports no HTTP method the matrix knows`);
+    for (const m of r.methods) onDisk.add(`${m} ${r.pattern}`);
+  }
+  for (const key of onDisk) {
+    const rows = ROUTES.filter((row) => row.route === key);
+    if (rows.length === 0) missing.push(`route ${key} has no row in ROUTES`);
+    else if (!rows.some((row) => !row.expect.split(/\s+/).includes("-"))) missing.push(`route ${key} has no row with an answer for every role`);
+  }
+  for (const row of ROUTES) {
+    if (!onDisk.has(row.route)) missing.push(`ROUTES row "${row.route}" names no route on disk`);
+    parseRow(row.expect, row.route);
+  }
+
+  const built = manifestActions();
+  const actionsOnDisk = serverActions().map((a) => `${a.file}#${a.name}`);
+  for (const key of actionsOnDisk) {
+    if (!ACTIONS.some((row) => row.action === key)) missing.push(`server action ${key} has no row in ACTIONS`);
+    if (!built.some((b) => `${b.file}#${b.name}` === key)) missing.push(`server action ${key} is not in .next/server/server-reference-manifest.json (rebuild?)`);
+  }
+  for (const b of built) if (!actionsOnDisk.includes(`${b.file}#${b.name}`)) missing.push(`the build has server action ${b.file}#${b.name} (an inline "use server"?) that no actions file on disk exports`);
+  for (const row of ACTIONS) {
+    if (!actionsOnDisk.includes(row.action)) missing.push(`ACTIONS row "${row.action}" names no server action on disk`);
+    const cells = parseRow(row.expect, row.action);
+    if (Object.values(cells).includes("-")) missing.push(`ACTIONS row "${row.action}" must answer for every role`);
+  }
+  expect(missing, missing.join("\n")).toEqual([]);
+  expect(onDisk.size).toBeGreaterThan(50);
+  expect(actionsOnDisk.length).toBeGreaterThanOrEqual(20);
+});
+
+test("route handlers × roles", async () => {
+  test.setTimeout(120_000);
+  const failures: string[] = [];
+  let sent = 0;
+  for (const row of ROUTES) {
+    const cells = parseRow(row.expect, row.route);
+    await row.before?.();
+    for (const who of RUN_ORDER) {
+      const cell = cells[who];
+      if (cell === "-") continue;
+      const res = await row.send({ who, api: noFollow(S.api[who]) });
+      sent++;
+      const problem = await checkRouteAnswer(row, who, cell, res);
+      if (problem) failures.push(`${row.route} as ${who}: ${problem} (want ${cell})`);
+    }
+  }
+  expect(failures, `${failures.length} of ${sent} answers differ:\n${failures.join("\n")}`).toEqual([]);
+});
+
+test("server actions × roles", async ({ baseURL }) => {
+  test.setTimeout(120_000);
+  const built = manifestActions();
+  const failures: string[] = [];
+  const rows = [...ACTIONS.filter((r) => !r.last), ...ACTIONS.filter((r) => r.last)];
+  for (const row of rows) {
+    const action = built.find((b) => `${b.file}#${b.name}` === row.action);
+    if (!action) {
+      failures.push(`${row.action}: not in the build`);
+      continue;
+    }
+    const cells = parseRow(row.expect, row.action);
+    const path = pagePathFor(action);
+    await row.before?.();
+    for (const who of RUN_ORDER) {
+      const cell = cells[who]!;
+      if (who === "anonymous") {
+        // Without any cookie, proxy.ts sends the signed-in areas to sign-in before the action runs.
+        const bare = await callAction(S.api.anonymous, action, row.args(who), baseURL!);
+        const gated = SIGNED_IN_AREAS.some((p) => path === p || path.startsWith(`${p}/`));
+        const problem = gated
+          ? bare.status === 307 && bare.redirect?.startsWith("/sign-in")
+            ? null
+            : `without a cookie: ${bare.status} ${bare.redirect ?? bare.raw.slice(0, 120)}, want proxy.ts's redirect to /sign-in`
+          : checkActionOutcome(row, cell, bare);
+        if (problem) failures.push(`${row.action} (on ${path}) as anonymous: ${problem}`);
+      }
+      const outcome = await callAction(S.api[who], action, row.args(who), baseURL!, who === "anonymous" ? FORGED_COOKIE : undefined);
+      const problem = checkActionOutcome(row, cell, outcome);
+      if (problem) failures.push(`${row.action} (on ${path}) as ${who}${who === "anonymous" ? " (forged cookie)" : ""}: ${problem}`);
+    }
+  }
+  // Signed out: each of this spec's sessions is over.
+  for (const who of WHO.filter((w) => w !== "anonymous")) {
+    const status = (await S.api[who].get("/api/me")).status();
+    if (status !== 401) failures.push(`after signOutAction, ${who}'s session still answers ${status} on /api/me`);
+  }
+  expect(failures, failures.join("\n")).toEqual([]);
+});
