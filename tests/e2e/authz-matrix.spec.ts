@@ -54,8 +54,9 @@ const F: Fixture = JSON.parse(fs.readFileSync(process.env.E2E_FIXTURE_FILE ?? "t
 const X = F.matrix;
 const J = F.jobs;
 
-// The owner's (holloway) declined claim, its photo, the paid and the done job, the done visit (Ines's)
-// are the owner's; the paid job has no visit yet. Sol's booked visit is not Ines's.
+// The rows aimed at (tests/support/seed-e2e.ts): the owner's piece, declined claim and its photo, a
+// care-log entry; the owner's paid job (no visit yet) and done job, whose visit was Ines's; a booked
+// visit of Sol's on the owner's job. The quoted, approved and covered jobs are the other owner's.
 const DAY = 86_400_000;
 const future = (days: number) => new Date(Date.now() + days * DAY).toISOString();
 
@@ -64,9 +65,9 @@ const OWNER_ROWS = [X.ownerPieceId, X.ownerClaimId, X.ownerClaimPhotoId, X.owner
 const DEMO_STUDIO_ROWS = [X.demoStudioId, F.demoPieceId, ...OWNER_ROWS, ...Object.values(J), X.solBookedVisitId, X.inesId, X.solId, X.sentReminderId, "Walnut river dining table", "Larchmere Slab & Resin"];
 const SECRETS: Record<Who, string[]> = {
   anonymous: [...DEMO_STUDIO_ROWS, F.otherPieceId, X.otherStudioId],
-  owner: [],
+  owner: [J.quoted, J.approved, J.covered, F.otherPieceId, X.otherStudioId],
   otherOwner: OWNER_ROWS,
-  technician: [X.ownerClaimId, X.ownerClaimPhotoId],
+  technician: [X.ownerClaimId, X.ownerClaimPhotoId, F.otherPieceId, X.otherStudioId],
   staff: [F.otherPieceId, X.otherStudioId],
   admin: [F.otherPieceId, X.otherStudioId],
   otherStudioStaff: DEMO_STUDIO_ROWS,
@@ -189,7 +190,9 @@ const noCoverPolicy = {
 };
 const visitWindow = () => `from=${encodeURIComponent(future(-20))}&to=${encodeURIComponent(future(20))}`;
 
-// Columns:                                  anon  owner oOwner tech staff admin oStaff oAdmin
+// `expect` cells, in WHO order: anonymous owner otherOwner technician staff admin otherStudioStaff
+// otherStudioAdmin. A status; "303:/x" a redirect to /x; "-" not sent (only in extra rows of a route
+// that already has a full row, where the request would change something for that role).
 const ROUTES: RouteRow[] = [
   // Public: the same answer for everyone.
   { route: "GET /verify-email", expect: "303:/verify-email/sent ".repeat(8), send: ({ api }) => api.get("/verify-email?token=matrix-not-a-real-token") },
@@ -429,6 +432,8 @@ const ACTION_MESSAGES: Record<string, RegExp> = {
 const anyPrefs = { remindersEnabled: true, timeZone: "UTC", unitSystem: "metric" };
 const newPassword = "matrix-new-password-1";
 
+// `expect` cells, in WHO order: "ok" ({ ok: true }); "401"/"403"/"404" the refusal messages above; another
+// status the row's `messages` pattern (or, for "400", field errors); "→/x" a redirect to /x ("/x*": a prefix).
 const ACTIONS: ActionRow[] = [
   // Public forms: no session needed and none used; invalid or made-up input, the same answer for all.
   { action: "app/(public)/sign-in/actions.ts#signInAction", expect: "400 ".repeat(8), args: () => ({ json: [{ email: "", password: "" }] }) },
