@@ -1,6 +1,8 @@
 // `npm run jobs`: the scheduler process. node-cron runs the reminder pass at minute 5 of every hour
 // (and once at start), never two at once in this process; the ledger keeps passes in other processes
-// from sending anything twice. SIGTERM/SIGINT stop the schedule, let a running pass finish, and exit.
+// from sending anything twice. SIGTERM/SIGINT stop the schedule and abort the running passes: each
+// finishes the message in hand, puts back what it had claimed but not sent, and returns at once (see
+// "Stopping" in lib/reminders/pass.ts); then the process exits 0 and the next pass does the rest.
 import cron from "node-cron";
 import { getDb } from "@/db/client";
 import { closeMailTransport } from "@/lib/mail";
@@ -9,10 +11,13 @@ import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 
 const log = (line: string) => console.log(`${new Date().toISOString()} ${line}`);
 
+/** Aborted on SIGTERM/SIGINT; every pass this process starts gets its signal. */
+const shutdown = new AbortController();
+
 let running: Promise<unknown> | undefined;
 async function tick(): Promise<void> {
-  if (running) return; // a pass is still going (the start-up pass and the first tick can meet)
-  const pass = remindersJob(new Date())
+  if (running || shutdown.signal.aborted) return; // a pass is still going (the start-up pass and the first tick can meet)
+  const pass = remindersJob(new Date(), shutdown.signal)
     .then((r) => describePass(r).forEach(log))
     .catch((e: unknown) => log(`reminder pass failed: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`))
     .finally(() => {
@@ -25,8 +30,8 @@ async function tick(): Promise<void> {
 // Visit reminders (24 h before each booked visit): every 15 minutes, one pass at a time.
 let visitRunning: Promise<unknown> | undefined;
 async function visitTick(): Promise<void> {
-  if (visitRunning) return;
-  const pass = visitRemindersJob(new Date())
+  if (visitRunning || shutdown.signal.aborted) return;
+  const pass = visitRemindersJob(new Date(), shutdown.signal)
     .then((r) => describeVisitPass(r).forEach(log))
     .catch((e: unknown) => log(`visit reminder pass failed: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`))
     .finally(() => {
@@ -47,7 +52,8 @@ let stopping = false;
 async function stop(signal: string): Promise<void> {
   if (stopping) return;
   stopping = true;
-  log(`scheduler: ${signal}, stopping`);
+  log(`scheduler: ${signal}, stopping${running || visitRunning ? " (the running pass stops after the message in hand)" : ""}`);
+  shutdown.abort();
   await task.stop();
   await task.destroy();
   await visitTask.stop();
@@ -56,6 +62,7 @@ async function stop(signal: string): Promise<void> {
   await visitRunning;
   closeMailTransport();
   getDb().$client.close();
+  log("scheduler: stopped");
   process.exit(0);
 }
 process.on("SIGTERM", () => void stop("SIGTERM"));

@@ -1,8 +1,9 @@
 // The reminder job: one pass of lib/reminders at an instant, with a printable summary.
 import { runReminderPass, type PassReport } from "@/lib/reminders/pass";
 
-export async function remindersJob(now: Date): Promise<PassReport> {
-  return runReminderPass({ now });
+/** `signal`: aborting it stops the pass cleanly (lib/reminders/pass.ts, "Stopping"). */
+export async function remindersJob(now: Date, signal?: AbortSignal): Promise<PassReport> {
+  return runReminderPass({ now, signal });
 }
 
 export function describePass(r: PassReport): string[] {
@@ -11,7 +12,8 @@ export function describePass(r: PassReport): string[] {
   for (const e of r.errors) lines.push(`error    piece ${e.pieceId}: ${e.message}`);
   lines.push(
     `reminder pass at ${r.now}: ${r.pieces} pieces, ${r.tasks} tasks — sent ${r.sent.length}, skipped ${r.skipped}, failed ${r.failed.length}, ` +
-      `cancelled ${r.cancelled}, offers ${r.offers}, recovered ${r.recovered}, interrupted ${r.interrupted}, lost ${r.lost} (${Math.round(r.ms)} ms)`,
+      `cancelled ${r.cancelled}, offers ${r.offers}, recovered ${r.recovered}, interrupted ${r.interrupted}, lost ${r.lost} (${Math.round(r.ms)} ms)` +
+      (r.stopped ? ` — stopped before the end; ${r.released} claimed reminders put back for the next pass` : ""),
   );
   return lines;
 }

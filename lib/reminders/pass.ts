@@ -22,6 +22,13 @@
 // have accepted it; we cannot ask, so it is marked failed with no automatic retry and an error that
 // says so — staff can look in the outbox (or the relay's logs) and resend it. Never sending twice
 // wins over never missing one.
+//
+// Stopping (PassOptions.signal, aborted by the scheduler on SIGTERM/SIGINT): the pass looks at the
+// signal before each chunk, after the care engine, and before each message. The message being handed
+// to SMTP when the signal comes is finished (sent or failed, as usual); after that nothing new is
+// claimed or sent, and the rows this pass claimed but had not yet handed off are released at once —
+// put back as failed rows due for retry now, as the stale recovery above would do 15 minutes later —
+// so no row is left queued. The next pass sends them. The report says `stopped`.
 import { randomUUID } from "node:crypto";
 import type Database from "better-sqlite3";
 import { getDb, type Db } from "@/db/client";
@@ -97,6 +104,10 @@ export interface PassReport {
   interrupted: number;
   /** Claims another pass took over before this one handed them off. */
   lost: number;
+  /** The signal stopped this pass before it was done (the next pass finishes the work). */
+  stopped: boolean;
+  /** Rows this pass claimed, then put back for retry unsent because it was stopped. */
+  released: number;
   /** Pieces whose records the care engine could not use (and why). */
   errors: { pieceId: string; message: string }[];
   ms: number;
@@ -112,6 +123,8 @@ export interface PassOptions {
   chunkSize?: number;
   /** Called after each message is sent (tests stop the SMTP sink here). */
   onSent?: (item: SentItem) => void | Promise<void>;
+  /** Aborting it stops the pass cleanly (see "Stopping" above); the report comes back with stopped: true. */
+  signal?: AbortSignal;
 }
 
 type Claim = ReminderMail & { rowId: string; token: string };
@@ -179,6 +192,10 @@ function statements(sqlite: Database.Database) {
     recover: sqlite.prepare(
       `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = ?, last_error = ?, updated_at = ?
         WHERE id = ? AND status = 'queued' AND sent_at IS NULL AND message_id IS ? AND updated_at <= ?`,
+    ),
+    release: sqlite.prepare(
+      `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = ?, last_error = COALESCE(last_error || ' — ', '') || ?, updated_at = ?
+        WHERE id = ? AND status = 'queued' AND message_id = ? AND sent_at IS NULL`,
     ),
     interrupt: sqlite.prepare(
       `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = NULL, last_error = ?, updated_at = ?
@@ -316,6 +333,8 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
     recovered: 0,
     interrupted: 0,
     lost: 0,
+    stopped: false,
+    released: 0,
     errors: [],
     ms: 0,
     phases: { readMs: 0, computeMs: 0, claimMs: 0, deliverMs: 0 },
@@ -333,6 +352,14 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
     `interrupted while handing to SMTP${at ? ` at ${new Date(at).toISOString()}` : ""}: delivery unknown, so it is not retried automatically — check the outbox, then resend it if it did not arrive`;
 
   const stepOffNote = "not sent: the studio turned this reminder step off";
+  const releaseNote = "released: the pass was stopped before handing it to SMTP (certainly not sent); the next pass sends it";
+  const signal = options.signal;
+  /** Lets a signal's abort event run (the pass is otherwise synchronous between messages), then reads it. */
+  const stopRequested = async (): Promise<boolean> => {
+    if (!signal) return false;
+    await new Promise<void>((resolve) => setImmediate(resolve));
+    return signal.aborted;
+  };
   const studioById = new Map<string, StudioRow & ReturnType<typeof catalogFor> & { timing: SendTiming }>();
   for (const { reminderSendHour, reminderSteps, ...st } of s.studios.all() as (StudioRow & StudioTimingColumns)[]) {
     studioById.set(st.id, { ...st, ...catalogFor(db, st.id), timing: timingFromColumns(reminderSendHour, reminderSteps) });
@@ -341,6 +368,10 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
   {
     let after = "";
     for (;;) {
+      if (await stopRequested()) {
+        report.stopped = true;
+        break;
+      }
       const pieces = s.pieces.all(after, chunkSize) as ReminderPieceRow[];
       if (pieces.length === 0) break;
       const lo = after;
@@ -372,6 +403,10 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
       }
 
       lap("computeMs");
+      if (await stopRequested()) {
+        report.stopped = true;
+        break;
+      }
 
       // Claims, in one IMMEDIATE transaction per chunk, against ledger rows read inside it.
       const claims: Claim[] = [];
@@ -477,7 +512,16 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
         .immediate();
       lap("claimMs");
 
-      for (const claim of claims) {
+      for (let i = 0; i < claims.length; i++) {
+        if (signal?.aborted) {
+          // Nothing of these has reached SMTP: put them back, due now, in one transaction.
+          sqlite.transaction(() => {
+            for (const c of claims.slice(i)) report.released += s.release.run(nowMs, releaseNote, nowMs, c.rowId, c.token).changes;
+          })();
+          report.stopped = true;
+          break;
+        }
+        const claim = claims[i]!;
         const r = await deliverClaim(db, claim, nowMs);
         if (r.kind === "sent") {
           report.sent.push(r.item);
@@ -486,6 +530,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
         else report.lost++;
       }
       lap("deliverMs");
+      if (report.stopped) break;
     }
   }
   report.ms = performance.now() - started;

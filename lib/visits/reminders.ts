@@ -12,7 +12,14 @@ const MAX_ATTEMPTS = 3;
 /** A claim older than this with no outcome belongs to a pass that died; it may be claimed again. */
 const STALE_CLAIM_MS = 15 * 60_000;
 
-export type VisitReminderReport = { now: string; sent: { visitId: string; to: string; sequence: number }[]; skipped: number; failed: { visitId: string; error: string }[] };
+export type VisitReminderReport = {
+  now: string;
+  sent: { visitId: string; to: string; sequence: number }[];
+  skipped: number;
+  failed: { visitId: string; error: string }[];
+  /** The signal stopped the pass before every due visit was looked at (the next pass does the rest). */
+  stopped: boolean;
+};
 
 function claim(visit: { id: string; studioId: string; sequence: number }, now: number): boolean {
   const db = getDb();
@@ -47,16 +54,24 @@ function settle(visitId: string, sequence: number, set: Partial<typeof visitMail
     .run();
 }
 
-/** Sends the reminder for every booked visit starting within the next 24 h (as of `now`). */
-export async function runVisitReminderPass({ now = new Date() }: { now?: Date } = {}): Promise<VisitReminderReport> {
+/**
+ * Sends the reminder for every booked visit starting within the next 24 h (as of `now`). An aborted
+ * `signal` stops it before the next visit is claimed; the message in hand is finished and settled, so
+ * no claim is left queued.
+ */
+export async function runVisitReminderPass({ now = new Date(), signal }: { now?: Date; signal?: AbortSignal } = {}): Promise<VisitReminderReport> {
   const t = now.getTime();
   const due = getDb()
     .select({ id: visits.id, studioId: visits.studioId, sequence: visits.sequence, startAt: visits.startAt, lastInviteAt: visits.lastInviteAt })
     .from(visits)
     .where(and(eq(visits.state, "booked"), gt(visits.startAt, now), lte(visits.startAt, new Date(t + REMINDER_LEAD_MS))))
     .all();
-  const report: VisitReminderReport = { now: now.toISOString(), sent: [], skipped: 0, failed: [] };
+  const report: VisitReminderReport = { now: now.toISOString(), sent: [], skipped: 0, failed: [], stopped: false };
   for (const v of due) {
+    if (signal?.aborted) {
+      report.stopped = true;
+      break;
+    }
     if (!claim(v, t)) {
       report.skipped++;
       continue;
