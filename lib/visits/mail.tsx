@@ -49,12 +49,21 @@ export function inviteFor(v: VisitMailView, method: "REQUEST" | "CANCEL", now = 
   });
 }
 
-/** Sends the confirmation, change or cancellation to the job's owner with its invite. */
-export async function sendVisitInvite(visitId: string, kind: "booked" | "moved" | "cancelled", extra: { previous?: Pick<Visit, "startAt" | "endAt">; reason?: string } = {}): Promise<{ sent: boolean }> {
+/**
+ * Sends the confirmation, change or cancellation to the job's owner with its invite. `now` is the
+ * booking's (or move's, cancellation's) instant: the invite's DTSTAMP and the visit's lastInviteAt,
+ * which the 24 h reminder pass compares with the visit's start.
+ */
+export async function sendVisitInvite(
+  visitId: string,
+  kind: "booked" | "moved" | "cancelled",
+  extra: { previous?: Pick<Visit, "startAt" | "endAt">; reason?: string } = {},
+  nowMs: number = Date.now(),
+): Promise<{ sent: boolean }> {
   const v = loadVisitMailView(visitId);
   if (!v?.owner) return { sent: false };
   const method = kind === "cancelled" ? "CANCEL" : "REQUEST";
-  const now = new Date();
+  const now = new Date(nowMs);
   const ics = inviteFor(v, method, now);
   const tz = v.studio.timeZone;
   const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);

@@ -85,7 +85,7 @@ export async function runVisitReminderPass({ now = new Date(), signal }: { now?:
     }
     try {
       const { messageId } = await sendVisitReminder(view);
-      settle(v.id, v.sequence, { status: "sent", sentAt: new Date(), messageId });
+      settle(v.id, v.sequence, { status: "sent", sentAt: now, messageId });
       report.sent.push({ visitId: v.id, to: view.owner.email, sequence: v.sequence });
     } catch (e) {
       const error = e instanceof Error ? e.message : String(e);

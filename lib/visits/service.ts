@@ -213,7 +213,7 @@ export async function bookVisit(actor: VisitActor, raw: unknown, now = Date.now(
     if (e instanceof SlotUnavailableError) throw new SlotTakenError(e.message, freshSlots(actor, job, piece, studio, Date.parse(input.start), now));
     throw e;
   }
-  await mailSafely("booked", () => sendVisitInvite(reserved.visit.id, "booked"));
+  await mailSafely("booked", () => sendVisitInvite(reserved.visit.id, "booked", {}, now));
   return visitJson(reserved.visit);
 }
 
@@ -257,7 +257,7 @@ export async function moveVisit(actor: VisitActor, visitId: string, raw: unknown
     throw e;
   }
   const changed = reserved.visit.startAt.getTime() !== visit.startAt.getTime() || reserved.visit.technicianId !== visit.technicianId || reserved.visit.location !== visit.location;
-  if (changed) await mailSafely("moved", () => sendVisitInvite(reserved.visit.id, "moved", { previous: visit }));
+  if (changed) await mailSafely("moved", () => sendVisitInvite(reserved.visit.id, "moved", { previous: visit }, now));
   return visitJson(reserved.visit);
 }
 
@@ -282,7 +282,7 @@ export async function cancelVisit(actor: VisitActor, visitId: string, raw: unkno
     },
     { behavior: "immediate" },
   );
-  await mailSafely("cancelled", () => sendVisitInvite(updated.id, "cancelled", { reason }));
+  await mailSafely("cancelled", () => sendVisitInvite(updated.id, "cancelled", { reason }, now));
   return visitJson(updated);
 }
 

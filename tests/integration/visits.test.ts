@@ -288,7 +288,10 @@ describe("the 24 h reminder", () => {
     const w = await visitWorld();
     const slots = listJobSlots(ownerActor(w.owner), w.job.id, { from: "2027-05-10T00:00:00Z", to: "2027-05-14T00:00:00Z" }, NOW).slots;
     const v = await bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: slots[0]!.technicianId, start: slots[0]!.start }, NOW);
-    // The booking mail went out "now" (real time, long before 2027), so it is not inside the window.
+    // The booking mail is stamped with the booking's instant (NOW, a week before the visit), not the
+    // real clock, so it is not inside the reminder window whatever the real date is.
+    const lastInviteAt = () => getDb().select({ at: visits.lastInviteAt }).from(visits).where(eq(visits.id, v.id)).get()!.at?.getTime();
+    expect(lastInviteAt()).toBe(NOW);
     const start = Date.parse(v.start);
     const mine = (r: Awaited<ReturnType<typeof runVisitReminderPass>>) => r.sent.filter((s) => s.visitId === v.id);
     expect(mine(await runVisitReminderPass({ now: new Date(start - 30 * HOUR) }))).toHaveLength(0);
@@ -300,12 +303,14 @@ describe("the 24 h reminder", () => {
 
     const target = slots.find((s) => Date.parse(s.start) > start + 26 * HOUR)!;
     await moveVisit(staffActor(w.staff), v.id, { start: target.start }, start - 23 * HOUR);
-    getDb().update(visits).set({ lastInviteAt: new Date(NOW) }).where(eq(visits.id, v.id)).run();
+    // The change went out at the move's instant, more than a day before the new time: a reminder still goes.
+    expect(lastInviteAt()).toBe(start - 23 * HOUR);
     const moved = await runVisitReminderPass({ now: new Date(Date.parse(target.start) - 20 * HOUR) });
     expect(moved.sent.filter((s) => s.visitId === v.id).map((s) => s.sequence)).toEqual([1]);
     expect(getDb().select().from(visitMailSends).where(eq(visitMailSends.visitId, v.id)).all().map((r) => [r.sequence, r.status]).sort()).toEqual([[0, "sent"], [1, "sent"]]);
 
-    await cancelVisit(staffActor(w.staff), v.id, {}, NOW);
+    await cancelVisit(staffActor(w.staff), v.id, {}, Date.parse(target.start) - 20 * HOUR);
+    expect(lastInviteAt()).toBe(Date.parse(target.start) - 20 * HOUR);
     expect(mine(await runVisitReminderPass({ now: new Date(Date.parse(target.start) - HOUR) }))).toHaveLength(0);
   });
 
