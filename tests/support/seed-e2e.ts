@@ -108,6 +108,7 @@ const matrix = {
   sentReminderId: sentReminder.id,
   spare: { pieceId: spare.id, code: spareCode.code },
 };
+// E2E_FIXTURE_FILE: another place for the ids, for a second e2e server on other ports and its own database.
 const fixtureFile = process.env.E2E_FIXTURE_FILE ?? "tests/.tmp/e2e-fixture.json";
 fs.mkdirSync(path.dirname(fixtureFile), { recursive: true });
 fs.writeFileSync(fixtureFile, JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: demoSeed.jobs, matrix }, null, 2));
