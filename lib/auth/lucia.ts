@@ -1,6 +1,7 @@
 import { DrizzleSQLiteAdapter } from "@lucia-auth/adapter-drizzle";
-import { Lucia, TimeSpan } from "lucia";
-import { getDb } from "@/db/client";
+import { eq, sql } from "drizzle-orm";
+import { Lucia, TimeSpan, type DatabaseSession, type DatabaseUser } from "lucia";
+import { getDb, type Db } from "@/db/client";
 import { sessions, users } from "@/db/schema";
 import { env } from "@/lib/env";
 
@@ -8,8 +9,30 @@ export const SESSION_COOKIE = "gw_session";
 
 let instance: ReturnType<typeof createLucia> | undefined;
 
+/**
+ * The package's adapter, except that the lookup every signed-in request makes is one prepared join
+ * instead of two queries built afresh each time (that building cost more than the reads).
+ */
+class SessionAdapter extends DrizzleSQLiteAdapter {
+  private readonly lookup;
+  constructor(db: Db) {
+    super(db, sessions, users);
+    this.lookup = db.select({ session: sessions, user: users }).from(sessions).innerJoin(users, eq(users.id, sessions.userId)).where(eq(sessions.id, sql.placeholder("id"))).prepare();
+  }
+  override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
+    const row = this.lookup.get({ id: sessionId });
+    if (!row) return [null, null];
+    const { id, userId, expiresAt, ...sessionAttributes } = row.session;
+    const { id: uid, ...userAttributes } = row.user;
+    return [
+      { id, userId, expiresAt: new Date(expiresAt * 1000), attributes: sessionAttributes },
+      { id: uid, attributes: userAttributes as unknown as DatabaseUser["attributes"] },
+    ];
+  }
+}
+
 function createLucia() {
-  return new Lucia(new DrizzleSQLiteAdapter(getDb(), sessions, users), {
+  return new Lucia(new SessionAdapter(getDb()), {
     sessionExpiresIn: new TimeSpan(30, "d"),
     sessionCookie: {
       name: SESSION_COOKIE,
