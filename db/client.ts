@@ -17,12 +17,6 @@ export function openDatabase(file: string): Db {
   // Writers wait for each other instead of failing with SQLITE_BUSY.
   sqlite.pragma("busy_timeout = 5000");
   sqlite.pragma("synchronous = NORMAL");
-  if (file !== ":memory:") {
-    // Registry searches read pages all over the pieces table; mapping the file and a 64 MiB page
-    // cache keep them in memory. Both change only speed, never results.
-    sqlite.pragma("mmap_size = 268435456");
-    sqlite.pragma("cache_size = -65536");
-  }
   cacheStatements(sqlite);
   return drizzle(sqlite, { schema });
 }

@@ -80,10 +80,20 @@ export function studioMembers(ctx: StudioContext) {
 
 const withFunctions = new WeakSet<object>();
 
-/** Once per connection: registers gw_add_months (the care engine's clamping month arithmetic). */
+/**
+ * Once per connection: registers gw_add_months (the care engine's clamping month arithmetic), and lets
+ * SQLite memory-map the file and keep a larger page cache, since a registry search touches pages all
+ * over the pieces table (random ids). Only the app's connection, and only once the registry is used:
+ * the scheduler reads every row once per pass, where both would only add resident memory. Neither
+ * changes results.
+ */
 function ensureSqlFunctions(db: Db): void {
   const client = db.$client;
   if (withFunctions.has(client)) return;
+  if (client.name !== ":memory:") {
+    client.pragma("mmap_size = 268435456");
+    client.pragma("cache_size = -65536");
+  }
   client.function("gw_add_months", { deterministic: true }, (date: unknown, months: unknown) =>
     typeof date === "string" && typeof months === "number" ? addMonths(date, months) : null,
   );

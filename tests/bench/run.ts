@@ -4,6 +4,7 @@
 // if any figure missed its target. `npm run bench -- server` runs only the files whose names match
 // (and leaves REPORT.md alone).
 import { spawnSync } from "node:child_process";
+import { createHash } from "node:crypto";
 import { readdirSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -19,7 +20,21 @@ const files = readdirSync(dir)
   .filter((f) => f.endsWith(".bench.ts") && (only.length === 0 || only.some((o) => f.includes(o))))
   .sort();
 
+// How fast this machine is today, so that runs on different machines can be compared: SHA-256 over
+// 256 MiB (native code) and a fixed JavaScript loop (the engine), each the best of 3.
+function calibrate(): string {
+  const buf = Buffer.alloc(256 * 2 ** 20, 7);
+  const best = (f: () => void) => Math.min(...[0, 1, 2].map(() => { const t = performance.now(); f(); return performance.now() - t; }));
+  const hashMs = best(() => createHash("sha256").update(buf).digest());
+  let x = 0;
+  const loopMs = best(() => { for (let i = 0; i < 50_000_000; i++) x = (x * 31 + i) % 1_000_003; });
+  (globalThis as { benchSink?: number }).benchSink = x; // keeps the loop's result alive
+  return `SHA-256 ${(256 / (hashMs / 1000)).toFixed(0)} MiB/s; a 50M-step JavaScript loop ${loopMs.toFixed(0)} ms`;
+}
+
 const started = Date.now();
+const speed = calibrate();
+console.log(`machine speed: ${speed}`);
 buildOnce();
 
 type Row = { file: string; status: number | null; seconds: number; output: string; results: BenchResult[] };
@@ -44,6 +59,7 @@ const report = [
   "# Benchmark report",
   "",
   `Written by \`npm run bench\` on ${new Date().toISOString()}: ${machine}; ${PIECES.toLocaleString("en-US")} synthetic pieces; a production build; load average ${os.loadavg().map((l) => l.toFixed(1)).join(" / ")} at the end; ${((Date.now() - started) / 1000).toFixed(0)} s in all.`,
+  `Machine speed at the start (for comparing runs on different machines): ${speed}.`,
   "Each benchmark file says where its target comes from; the floor is what the figure is compared with in the same run (ratio = measured ÷ floor, except throughput, where it is measured ÷ bare route).",
   "",
   "| figure | target | measured | floor | ratio | verdict |",
