@@ -104,9 +104,9 @@ export function percentile(sorted: number[], p: number): number {
 
 export type Load = { p50: number; p95: number; p99: number; requests: number; perSecond: number; bad: number };
 
-/** autocannon for `seconds` after a 2 s warm-up, with percentiles from every response's own latency. */
+/** autocannon for `seconds` after a 4 s warm-up (the JIT settles), with percentiles from every response's own latency. */
 export async function load(url: string, opts: { connections: number; seconds: number; headers?: Record<string, string> }): Promise<Load> {
-  await autocannon({ url, connections: opts.connections, duration: 2, headers: opts.headers });
+  await autocannon({ url, connections: opts.connections, duration: 4, headers: opts.headers });
   const lat: number[] = [];
   const inst = autocannon({ url, connections: opts.connections, duration: opts.seconds, headers: opts.headers });
   inst.on("response", (_c: unknown, _s: number, _b: number, ms: number) => lat.push(ms));

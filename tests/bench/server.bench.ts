@@ -37,7 +37,8 @@ async function scriptBytes(base: string, pagePath: string, cookie: string): Prom
   if (res.status !== 200) throw new Error(`${pagePath} answered ${res.status}`);
   const html = await res.text();
   // Scripts a current browser runs: not the `nomodule` polyfills only old browsers load.
-  const srcs = [...new Set([...html.matchAll(/<script([^>]*)\ssrc="([^"]+)"/g)].filter((m) => !/\bnomodule\b/.test(m[1]!)).map((m) => m[2]!))];
+  const tags = [...html.matchAll(/<script\b([^>]*)>/gi)].map((m) => m[1]!).filter((attrs) => !/\bnomodule\b/i.test(attrs));
+  const srcs = [...new Set(tags.map((attrs) => /\ssrc="([^"]+)"/.exec(attrs)?.[1]).filter((src): src is string => !!src))];
   let raw = 0;
   let gzip = 0;
   for (const src of srcs) {
