@@ -91,7 +91,11 @@ async function main() {
     fs.writeFileSync(bareJson, body);
     console.log(`GET /api/pieces?q=walnut → ${(JSON.parse(body) as { rows: unknown[] }).rows.length} rows of ${PIECES.toLocaleString("en")} pieces, ${body.length.toLocaleString("en")} bytes`);
 
-    const me = await load(`${server.base}/api/me`, { connections: CONNECTIONS, seconds: 3, headers: { cookie: staff } });
+    // Warm the whole server first: the JIT needs several seconds of every path before figures settle.
+    for (const [url, cookie] of [["/api/me", staff], ["/api/pieces?q=walnut", staff], ["/api/bench/same-json", ""], [`/pieces/${piece.id}`, owner]] as const) {
+      await load(`${server.base}${url}`, { connections: CONNECTIONS, seconds: 4, headers: cookie ? { cookie } : {} });
+    }
+    const me = await load(`${server.base}/api/me`, { connections: CONNECTIONS, seconds: 5, headers: { cookie: staff } });
     console.log(`floor GET /api/me (session check only): ${fmt(me)}`);
     for (const word of WORDS) {
       const l = await load(`${server.base}/api/pieces?q=${encodeURIComponent(word)}`, { connections: CONNECTIONS, seconds: SECONDS, headers: { cookie: staff } });
