@@ -47,6 +47,19 @@ function cacheStatements(sqlite: Database.Database): void {
   }) as typeof sqlite.prepare;
 }
 
+/**
+ * A value built once per connection and kept as long as it lives: the prepared queries of the paths
+ * every request takes (building a drizzle query costs more than running most of ours).
+ */
+export function perConnection<T>(build: (db: Db) => T): (db: Db) => T {
+  const built = new WeakMap<Database.Database, T>();
+  return (db) => {
+    let value = built.get(db.$client);
+    if (value === undefined) built.set(db.$client, (value = build(db)));
+    return value;
+  };
+}
+
 export class UnmigratedDatabaseError extends Error {
   constructor(file: string, applied: number, expected: number) {
     super(

@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
 import { cookies } from "next/headers";
 import type { User } from "lucia";
-import { getDb, type Db } from "@/db/client";
+import { getDb, perConnection } from "@/db/client";
 import { memberships, studios, type Studio } from "@/db/schema";
 import type { StudioRole } from "@/lib/care/vocabulary";
 import { forbidden, unauthorized } from "@/lib/errors";
@@ -21,23 +21,19 @@ export type StudioContext = { user: User; studio: Studio; role: StudioRole };
 
 export const STUDIO_COOKIE = "gw_studio";
 
-// Every studio request runs this; prepared once per connection rather than built each time.
-const membershipQueries = new WeakMap<object, ReturnType<typeof prepareMemberships>>();
-function prepareMemberships(db: Db) {
-  return db
+// Every studio request runs this.
+const membershipsQuery = perConnection((db) =>
+  db
     .select({ role: memberships.role, studio: studios })
     .from(memberships)
     .innerJoin(studios, eq(studios.id, memberships.studioId))
     .where(eq(memberships.userId, sql.placeholder("userId")))
     .orderBy(asc(memberships.createdAt))
-    .prepare();
-}
+    .prepare(),
+);
 
 export async function studioMemberships(userId: string) {
-  const db = getDb();
-  let q = membershipQueries.get(db.$client);
-  if (!q) membershipQueries.set(db.$client, (q = prepareMemberships(db)));
-  return q.all({ userId });
+  return membershipsQuery(getDb()).all({ userId });
 }
 
 /** The signed-in user as a member of their current studio with one of `roles`. */

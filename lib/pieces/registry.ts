@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, sql, type SQL } from "drizzle-orm";
-import { getDb, type Db } from "@/db/client";
+import { getDb, perConnection, type Db } from "@/db/client";
 import {
   careLogEntries,
   claims,
@@ -103,7 +103,7 @@ function ensureSqlFunctions(db: Db): void {
 // The registry's fixed-shape reads, prepared once per connection: a list page runs them on every
 // request, and building and parsing them each time cost more than running them. Id lists travel as
 // one JSON array (json_each), so the statement text never changes with the page size.
-function prepareStatements(db: Db) {
+const statements = perConnection((db) => {
   const ids = sql`(SELECT value FROM json_each(${sql.placeholder("ids")}))`;
   return {
     pieces: db
@@ -121,13 +121,7 @@ function prepareStatements(db: Db) {
     products: db.select().from(finishProducts).where(eq(finishProducts.studioId, sql.placeholder("studioId"))).prepare(),
     policies: db.select({ id: warrantyPolicies.id, policy: warrantyPolicies.policy }).from(warrantyPolicies).where(eq(warrantyPolicies.studioId, sql.placeholder("studioId"))).prepare(),
   };
-}
-const prepared = new WeakMap<object, ReturnType<typeof prepareStatements>>();
-function statements(db: Db): ReturnType<typeof prepareStatements> {
-  let s = prepared.get(db.$client);
-  if (!s) prepared.set(db.$client, (s = prepareStatements(db)));
-  return s;
-}
+});
 
 function policyTerms(studioId: string): Map<string, number> {
   const rows = statements(getDb()).policies.all({ studioId });
