@@ -19,7 +19,7 @@ import {
 } from "@/lib/care/vocabulary";
 import { AppError } from "@/lib/errors";
 import { createPieceSchema, importSchema } from "@/lib/validation/pieces";
-import { insertPiece, queryRegistry, studioProducts } from "./registry";
+import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./registry";
 
 // CSV export of the registry's current filter, and import of earlier deliveries. The import checks
 // every row first and writes nothing unless the whole file is valid, then writes it in one transaction.
@@ -63,9 +63,10 @@ function uncell(s: string): string {
 
 /** GET /api/pieces/export.csv with the same query as the registry table (every page). */
 export function exportPiecesCsv(ctx: StudioContext, raw: unknown, now = new Date()): string {
-  const { rows, loaded } = queryRegistry(ctx, raw, now, true);
+  const { rows } = queryRegistry(ctx, raw, now, true);
+  const full = loadFullPieces(rows.map((r) => r.id));
   const data = rows.map((r) => {
-    const l = loaded.get(r.id)!;
+    const l = full.get(r.id)!;
     const p = l.piece;
     const stack = l.layers.map((x) => [x.surface, x.finishClass, x.coats, x.appliedOn, x.productLabel].filter((v, i) => i < 4 || v).join(":")).join("; ");
     const out: Record<string, string> = {

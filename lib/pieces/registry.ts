@@ -13,6 +13,7 @@ import {
   users,
   warrantyPolicies,
   auditLog,
+  type CareLogRow,
   type FinishLayer,
   type FinishProduct,
   type Piece,
@@ -22,7 +23,7 @@ import { recordAudit } from "@/lib/audit";
 import { topArea, type TopArea } from "@/lib/care/area";
 import { addMonths, localDate } from "@/lib/care/dates";
 import { isValidRegistrationCode } from "@/lib/care/registration-code";
-import type { CareSchedule, CareTask } from "@/lib/care/schedule";
+import type { CareSchedule, CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { getSpecies } from "@/lib/care/species";
 import type { FinishClass } from "@/lib/care/vocabulary";
 import { badRequest, conflict, notFound } from "@/lib/errors";
@@ -35,7 +36,7 @@ import {
   type PieceListQuery,
   type PieceValues,
 } from "@/lib/validation/pieces";
-import { scheduleFromRows, topShape } from "./care-inputs";
+import { scheduleFromColumns, scheduleFromRows, toCatalog, topShape, type CareLayerColumns, type CarePieceColumns } from "./care-inputs";
 import { insertLayers } from "./layers";
 import { hashTypedCode, newRegistrationCode, openRegistrationCode } from "./registration";
 import { ftsQuery, indexPiece, unindexPiece, type DbOrTx } from "./search-index";
@@ -102,22 +103,31 @@ function ensureSqlFunctions(db: Db): void {
 
 // The registry's fixed-shape reads, prepared once per connection: a list page runs them on every
 // request, and building and parsing them each time cost more than running them. Id lists travel as
-// one JSON array (json_each), so the statement text never changes with the page size.
+// one JSON array (json_each), so the statement text never changes with the page size. The list's own
+// reads are plain better-sqlite3 statements with only the columns a row shows and the care engine
+// reads (like the reminder pass's bulk reads): mapping whole drizzle rows cost more than the query.
+const IDS = `(SELECT value FROM json_each(?))`;
 const statements = perConnection((db) => {
   const ids = sql`(SELECT value FROM json_each(${sql.placeholder("ids")}))`;
+  const sqlite = db.$client;
   return {
-    pieces: db
-      .select({ piece: pieces, ownerName: users.name, ownerEmail: users.email })
-      .from(pieces)
-      .leftJoin(users, eq(users.id, pieces.ownerId))
-      .where(sql`${pieces.id} IN ${ids}`)
-      .prepare(),
-    layers: db.select().from(finishLayers).where(sql`${finishLayers.pieceId} IN ${ids}`).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).prepare(),
-    careLog: db
-      .select({ pieceId: careLogEntries.pieceId, taskKind: careLogEntries.taskKind, doneOn: careLogEntries.doneOn, surface: careLogEntries.surface })
-      .from(careLogEntries)
-      .where(sql`${careLogEntries.pieceId} IN ${ids}`)
-      .prepare(),
+    listPieces: sqlite.prepare<[string], ListPieceRow>(
+      `SELECT p.id, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
+              p.primary_species_id AS primarySpeciesId, p.secondary_species_id AS secondarySpeciesId, p.shape_kind AS shapeKind,
+              p.length_mm AS lengthMm, p.width_mm AS widthMm, p.diameter_mm AS diameterMm, p.measured_area_m2 AS measuredAreaM2,
+              p.owner_id AS ownerId, p.archived_at AS archivedAt, p.warranty_policy_id AS warrantyPolicyId,
+              u.name AS ownerName, u.email AS ownerEmail
+         FROM pieces p LEFT JOIN users u ON u.id = p.owner_id WHERE p.id IN ${IDS}`,
+    ),
+    listLayers: sqlite.prepare<[string], CareLayerColumns & { pieceId: string }>(
+      `SELECT piece_id AS pieceId, id, surface, finish_class AS finishClass, product_id AS productId, coats, applied_on AS appliedOn
+         FROM finish_layers WHERE piece_id IN ${IDS} ORDER BY surface, position`,
+    ),
+    careLog: sqlite.prepare<[string], CareLogColumns & { pieceId: string }>(
+      `SELECT piece_id AS pieceId, task_kind AS taskKind, done_on AS doneOn, surface FROM care_log_entries WHERE piece_id IN ${IDS}`,
+    ),
+    fullPieces: db.select().from(pieces).where(sql`${pieces.id} IN ${ids}`).prepare(),
+    fullLayers: db.select().from(finishLayers).where(sql`${finishLayers.pieceId} IN ${ids}`).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).prepare(),
     products: db.select().from(finishProducts).where(eq(finishProducts.studioId, sql.placeholder("studioId"))).prepare(),
     policies: db.select({ id: warrantyPolicies.id, policy: warrantyPolicies.policy }).from(warrantyPolicies).where(eq(warrantyPolicies.studioId, sql.placeholder("studioId"))).prepare(),
   };
@@ -214,16 +224,34 @@ export const SEARCH_COUNT_CAP = 500;
 /** Without a text search, counts stop here ("10,000+"). */
 export const LIST_COUNT_CAP = 10_000;
 
-export type Loaded = { piece: Piece; owner: { name: string; email: string } | null; layers: FinishLayer[]; careLog: { taskKind: CareTask["kind"]; doneOn: string; surface: FinishLayer["surface"] | null }[] };
+type CareLogColumns = Pick<CareLogRow, "taskKind" | "doneOn" | "surface">;
+
+/** What a registry row needs of a piece: what the row shows, and the columns the care engine reads. */
+type ListPieceRow = CarePieceColumns &
+  Pick<Piece, "title" | "secondarySpeciesId" | "ownerId" | "warrantyPolicyId"> & { archivedAt: number | null; ownerName: string | null; ownerEmail: string | null };
+
+type Loaded = { piece: ListPieceRow; layers: CareLayerColumns[]; careLog: CareLogColumns[] };
 
 function loadForRows(ids: string[]): Map<string, Loaded> {
   const st = statements(getDb());
   const out = new Map<string, Loaded>();
   for (let i = 0; i < ids.length; i += 500) {
-    const chunk = { ids: JSON.stringify(ids.slice(i, i + 500)) };
-    for (const r of st.pieces.all(chunk)) out.set(r.piece.id, { piece: r.piece, owner: r.ownerName != null ? { name: r.ownerName, email: r.ownerEmail ?? "" } : null, layers: [], careLog: [] });
-    for (const l of st.layers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
+    const chunk = JSON.stringify(ids.slice(i, i + 500));
+    for (const piece of st.listPieces.all(chunk)) out.set(piece.id, { piece, layers: [], careLog: [] });
+    for (const l of st.listLayers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
     for (const c of st.careLog.all(chunk)) out.get(c.pieceId)?.careLog.push(c);
+  }
+  return out;
+}
+
+/** Whole piece rows and their layers, for the CSV export of the registry's current filter. */
+export function loadFullPieces(ids: string[]): Map<string, { piece: Piece; layers: FinishLayer[] }> {
+  const st = statements(getDb());
+  const out = new Map<string, { piece: Piece; layers: FinishLayer[] }>();
+  for (let i = 0; i < ids.length; i += 500) {
+    const chunk = { ids: JSON.stringify(ids.slice(i, i + 500)) };
+    for (const piece of st.fullPieces.all(chunk)) out.set(piece.id, { piece, layers: [] });
+    for (const l of st.fullLayers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
   }
   return out;
 }
@@ -233,9 +261,9 @@ function nextCareOf(schedule: CareSchedule | null): RegistryRow["nextCare"] {
   return t ? { label: t.label, dueOn: t.dueOn, status: t.status } : null;
 }
 
-function safeSchedule(l: Loaded, products: FinishProduct[], timeZone: string, now: Date): CareSchedule | null {
+function safeSchedule(l: Loaded, catalog: CatalogEntry[], timeZone: string, now: Date): CareSchedule | null {
   try {
-    return scheduleFromRows({ piece: l.piece, layers: l.layers, careLog: l.careLog, products, timeZone, now });
+    return scheduleFromColumns({ piece: l.piece, layers: l.layers, careLog: l.careLog, catalog, timeZone, now });
   } catch {
     return null; // a record the care engine cannot use yet (e.g. a bad imported date) still lists
   }
@@ -243,18 +271,18 @@ function safeSchedule(l: Loaded, products: FinishProduct[], timeZone: string, no
 
 /** GET /api/pieces: search, filters, sorting and pagination of the studio's registry. */
 export function listPieces(ctx: StudioContext, raw: unknown, now = new Date()): RegistryPage {
-  // eslint-disable-next-line @typescript-eslint/no-unused-vars
-  const { loaded, ...page } = queryRegistry(ctx, raw, now, false);
-  return page;
+  return queryRegistry(ctx, raw, now, false);
 }
 
 /** The registry query; `all` ignores pagination (CSV export of the current filter). */
-export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: boolean): RegistryPage & { loaded: Map<string, Loaded> } {
+export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: boolean): RegistryPage {
   const q = pieceListQuerySchema.parse(raw);
   const db = getDb();
   ensureSqlFunctions(db);
   const terms = policyTerms(ctx.studio.id);
   const t = today(ctx, now);
+  let catalog: CatalogEntry[] | null = null;
+  const studioCatalog = () => (catalog ??= toCatalog(studioProducts(ctx.studio.id)));
 
   const run = (useCode: boolean) => {
     const f = buildFilter(ctx, q, terms, useCode);
@@ -262,8 +290,8 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
     const computed = q.sort === "next_due" || q.dueBefore !== undefined;
     if (!computed) {
       const offset = all ? 0 : (q.page - 1) * q.pageSize;
-      const ids = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
       const limit = f.fts ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
+      const ids = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
       // A page that is not full tells the total without counting.
       const n = all || (ids.length < q.pageSize && (ids.length > 0 || q.page === 1)) ? offset + ids.length : (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
       const capped = !all && n > limit;
@@ -272,8 +300,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
     // Next care due is computed by the care engine, so filter and sort on it in memory.
     const candidates = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
     const loaded = loadForRows(candidates);
-    const products = studioProducts(ctx.studio.id);
-    const schedules = new Map(candidates.map((id) => [id, safeSchedule(loaded.get(id)!, products, ctx.studio.timeZone, now)]));
+    const schedules = new Map(candidates.map((id) => [id, safeSchedule(loaded.get(id)!, studioCatalog(), ctx.studio.timeZone, now)]));
     let ids = candidates;
     const firstDue = (id: string) => schedules.get(id)?.tasks.find((x) => x.status !== "done")?.dueOn ?? schedules.get(id)?.tasks[0]?.dueOn ?? null;
     if (q.dueBefore) ids = ids.filter((id) => {
@@ -301,12 +328,11 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
   }
 
   const loaded = result.loaded ?? loadForRows(result.ids);
-  const products = result.schedules ? [] : studioProducts(ctx.studio.id);
   const rows: RegistryRow[] = [];
   for (const id of result.ids) {
     const l = loaded.get(id);
     if (!l) continue;
-    const schedule = result.schedules ? (result.schedules.get(id) ?? null) : safeSchedule(l, products, ctx.studio.timeZone, now);
+    const schedule = result.schedules ? (result.schedules.get(id) ?? null) : safeSchedule(l, studioCatalog(), ctx.studio.timeZone, now);
     const ends = warrantyEndsOn(l.piece, terms);
     rows.push({
       id,
@@ -315,7 +341,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
       primarySpecies: speciesName(l.piece.primarySpeciesId)!,
       secondarySpecies: speciesName(l.piece.secondarySpeciesId),
       deliveredOn: l.piece.deliveredOn,
-      owner: l.owner,
+      owner: l.piece.ownerName != null ? { name: l.piece.ownerName, email: l.piece.ownerEmail ?? "" } : null,
       registered: l.piece.ownerId !== null,
       archived: l.piece.archivedAt !== null,
       finishClasses: [...new Set(l.layers.map((x) => x.finishClass))],
@@ -324,7 +350,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
       underWarranty: ends !== null && ends >= t,
     });
   }
-  return { rows, total: result.total, totalIsCapped: result.capped, page: q.page, pageSize: q.pageSize, query: q, matchedBy, loaded };
+  return { rows, total: result.total, totalIsCapped: result.capped, page: q.page, pageSize: q.pageSize, query: q, matchedBy };
 }
 
 // ---- create, edit, delete ----

@@ -4,6 +4,7 @@ import path from "node:path";
 import { sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb, migrationStatus, openDatabase, UnmigratedDatabaseError } from "@/db/client";
+import { migrate } from "drizzle-orm/better-sqlite3/migrator";
 import { applyMigrations } from "@/db/migrate";
 import journal from "@/db/migrations/meta/_journal.json";
 
@@ -65,5 +66,35 @@ describe("database connection", () => {
     }
     expect(out).toContain("npm run db:migrate");
     expect(UnmigratedDatabaseError.name).toBe("UnmigratedDatabaseError");
+  });
+});
+
+describe("migration 0006: prefix indexes for the registry search", () => {
+  it("keeps every index row with its rowid, and prefix searches give the same rows before and after", () => {
+    const dir = fs.mkdtempSync(path.join(process.env.DATA_DIR!, "fts-"));
+    // The migrations up to 0005, then rows in the old index, then the rest.
+    const upTo = path.join(dir, "migrations");
+    fs.cpSync(path.join(import.meta.dirname, "../../db/migrations"), upTo, { recursive: true });
+    const j = structuredClone(journal);
+    const at = j.entries.findIndex((e) => e.tag.startsWith("0006_"));
+    expect(at).toBeGreaterThan(0);
+    j.entries = j.entries.slice(0, at);
+    fs.writeFileSync(path.join(upTo, "meta/_journal.json"), JSON.stringify(j));
+    const db = openDatabase(path.join(dir, "m.db"));
+    migrate(db, { migrationsFolder: upTo });
+    const c = db.$client;
+    const words = ["walnut", "walnuts", "burl", "wallaby", "oak"];
+    const ins = c.prepare("INSERT INTO pieces_fts (rowid, piece_id, studio_id, title, species, owner, notes) VALUES (?, ?, 's1', ?, '', '', '')");
+    for (let i = 1; i <= 300; i++) ins.run(i * 7, `p${i}`, `${words[i % words.length]} table ${i}`);
+    const search = (q: string) => c.prepare("SELECT rowid, piece_id AS id FROM pieces_fts WHERE pieces_fts MATCH ? ORDER BY rowid DESC").all(q);
+    const queries = ['"wal"*', '"walnut"*', '"walnuts"*', '"bu"*', '"o"*', '"table"* "wall"*', '"wallabies"*'];
+    const before = queries.map(search);
+    applyMigrations(db);
+    expect(queries.map(search)).toEqual(before);
+    expect(before[1]).toHaveLength(120);
+    expect((c.prepare("SELECT count(*) AS n FROM pieces_fts").get() as { n: number }).n).toBe(300);
+    expect((c.prepare("SELECT sql FROM sqlite_master WHERE name = 'pieces_fts'").get() as { sql: string }).sql).toContain("prefix = '2 3 4 5 6 7 8'");
+    expect(c.pragma("integrity_check", { simple: true })).toBe("ok");
+    c.close();
   });
 });

@@ -7,7 +7,7 @@ import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { AppError } from "@/lib/errors";
 import { importPiecesCsv, exportPiecesCsv } from "@/lib/pieces/csv";
 import { addLayer, removeLayer, updateLayer } from "@/lib/pieces/layers";
-import { createPiece, deletePiece, findByTypedCode, getPieceDetail, layerHistory, listPieces, reissueRegistrationCode, updatePiece } from "@/lib/pieces/registry";
+import { createPiece, deletePiece, findByTypedCode, getPieceDetail, layerHistory, listPieces, reissueRegistrationCode, SEARCH_COUNT_CAP, updatePiece } from "@/lib/pieces/registry";
 import { ftsQuery, indexPiece } from "@/lib/pieces/search-index";
 import type { CreatePieceInput } from "@/lib/validation/pieces";
 import { createStudio, createUser, memberContext, unique } from "../support/fixtures";
@@ -262,6 +262,32 @@ describe("registry search", () => {
     const row = listPieces(ctx, { kind: "bench" }, now).rows[0]!;
     expect(row.nextCare).toMatchObject({ status: "overdue" });
     expect(row.underWarranty).toBe(false);
+  });
+
+  it("a text search counts its matches up to the cap and pages through every one of them", async () => {
+    const studio = createStudio({ timeZone: "UTC" });
+    const ctx = await memberContext(studio, "staff");
+    const made: string[] = [];
+    getDb().transaction(() => {
+      for (let i = 0; i < SEARCH_COUNT_CAP + 10; i++) made.push(createPiece(ctx, base({ title: `Quillback stool ${i}`, kind: "other", resinKind: "none", resinPouredOn: null, resinVolumeMl: null, resinTint: null })).piece.id);
+    });
+    for (let i = 0; i < 130; i++) createPiece(ctx, base({ title: `Fernlight shelf ${i}`, kind: "other", resinKind: "none", resinPouredOn: null, resinVolumeMl: null, resinTint: null }));
+    const seen: string[] = [];
+    for (let page = 1; page <= 6; page++) {
+      const res = listPieces(ctx, { q: "quillback", pageSize: "100", page: String(page) });
+      expect(res.total).toBe(SEARCH_COUNT_CAP);
+      expect(res.totalIsCapped).toBe(true);
+      seen.push(...res.rows.map((r) => r.id));
+    }
+    // Newest recorded first, every match once, the last page partly full.
+    expect(seen).toEqual([...made].reverse());
+    expect(listPieces(ctx, { q: "quillback", pageSize: "100", page: "7" }).rows).toEqual([]);
+    // Under the cap the count is exact on every page, full or not.
+    for (const page of ["1", "2"]) {
+      const res = listPieces(ctx, { q: "fernlight", pageSize: "100", page });
+      expect([res.total, res.totalIsCapped, res.rows.length]).toEqual([130, false, page === "1" ? 100 : 30]);
+    }
+    expect(listPieces(ctx, { q: "fernlight quillback" }).total).toBe(0);
   });
 });
 
