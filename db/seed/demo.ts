@@ -52,6 +52,8 @@ type PieceSpec = {
   use: Use;
   sun: SunExposure;
   deliveredMonthsAgo: number;
+  /** Moves the delivery and every layer this many days earlier, so some care falls due within weeks. */
+  daysEarlier?: number;
   owner?: "holloway" | "jonah";
   address: string;
   notes?: string;
@@ -111,7 +113,7 @@ const PIECES: PieceSpec[] = [
   },
   {
     title: "Ash standing desk top", kind: "desk", shape: { kind: "rectangle", lengthMm: 1600, widthMm: 800 }, thicknessMm: 30, primary: "white_ash",
-    base: ["motorised frame by others", "—"], use: "moderate", sun: "indirect", deliveredMonthsAgo: 11, address: "21 Pier Street, Port Alder",
+    base: ["motorised frame by others", "—"], use: "moderate", sun: "indirect", deliveredMonthsAgo: 11, daysEarlier: 12, address: "21 Pier Street, Port Alder",
     layers: [{ surface: "top", product: "oil", coats: 1, monthsAgo: 11, by: "teo" }, { surface: "top", product: "ceramic", coats: 1, monthsAgo: 11, by: "teo" }],
   },
   {
@@ -148,7 +150,7 @@ const PIECES: PieceSpec[] = [
   },
   {
     title: "Beech children's desk", kind: "desk", shape: { kind: "rectangle", lengthMm: 1000, widthMm: 600 }, thicknessMm: 28, primary: "american_beech",
-    base: ["beech legs", "hardwax oil"], use: "heavy", sun: "indirect", deliveredMonthsAgo: 23, address: "6 School Lane, Port Alder",
+    base: ["beech legs", "hardwax oil"], use: "heavy", sun: "indirect", deliveredMonthsAgo: 23, daysEarlier: 9, address: "6 School Lane, Port Alder",
     layers: [
       { surface: "top", product: "oil", coats: 2, monthsAgo: 23, by: "teo" },
       { surface: "top", product: "oil", coats: 1, monthsAgo: 11, by: "ines", notes: "Felt-tip marks sanded back locally before re-oiling." },
@@ -165,6 +167,10 @@ export function monthsBefore(today: Date, months: number): string {
   const last = new Date(Date.UTC(first.getUTCFullYear(), first.getUTCMonth() + 1, 0)).getUTCDate();
   const d = Math.min(today.getUTCDate(), last);
   return new Date(Date.UTC(first.getUTCFullYear(), first.getUTCMonth(), d)).toISOString().slice(0, 10);
+}
+
+function daysBefore(day: string, days: number): string {
+  return days ? new Date(Date.parse(`${day}T00:00:00Z`) - days * 86_400_000).toISOString().slice(0, 10) : day;
 }
 
 export class AlreadySeededError extends Error {}
@@ -219,7 +225,8 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
     const codes: { pieceId: string; title: string; code: string }[] = [];
     for (const spec of PIECES) {
       const { code, hash, enc } = newRegistrationCode();
-      const deliveredOn = monthsBefore(today, spec.deliveredMonthsAgo);
+      const ago = (months: number) => daysBefore(monthsBefore(today, months), spec.daysEarlier ?? 0);
+      const deliveredOn = ago(spec.deliveredMonthsAgo);
       const piece = tx
         .insert(pieces)
         .values({
@@ -235,7 +242,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
           primarySpeciesId: spec.primary,
           secondarySpeciesId: spec.secondary ?? null,
           resinKind: spec.resin?.kind ?? "none",
-          resinPouredOn: spec.resin ? monthsBefore(today, spec.deliveredMonthsAgo + 1) : null,
+          resinPouredOn: spec.resin ? ago(spec.deliveredMonthsAgo + 1) : null,
           resinVolumeMl: spec.resin?.volumeMl ?? null,
           resinTint: spec.resin?.tint ?? null,
           baseMaterial: spec.base[0],
@@ -246,7 +253,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
           deliveryAddress: spec.address,
           internalNotes: spec.notes ?? "",
           ownerId: spec.owner ? people[spec.owner].id : null,
-          registeredAt: spec.owner ? new Date(`${monthsBefore(today, Math.max(0, spec.deliveredMonthsAgo - 1))}T17:00:00Z`) : null,
+          registeredAt: spec.owner ? new Date(`${ago(Math.max(0, spec.deliveredMonthsAgo - 1))}T17:00:00Z`) : null,
           registrationCodeHash: hash,
           registrationCodeEnc: enc,
           warrantyPolicyId: policy.id,
@@ -271,7 +278,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
             productId: productIds[layer.product],
             productLabel: PRODUCTS[layer.product].name,
             coats: layer.coats,
-            appliedOn: monthsBefore(today, layer.monthsAgo),
+            appliedOn: ago(layer.monthsAgo),
             appliedById: layer.by ? people[layer.by].id : null,
             batchLot: layer.lot ?? "",
             notes: layer.notes ?? "",
