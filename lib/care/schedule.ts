@@ -171,14 +171,17 @@ const USE_PHRASE: Record<Use, string> = {
 
 const SUN_PHRASE: Record<SunExposure, string> = { none: "no sun", indirect: "indirect sun", direct: "direct sun" };
 
-// One-entry cache: a reminder pass calls careSchedule for many pieces with the same now and zone.
-let cachedToday: { now: string | number; tz: string; date: IsoDate } | undefined;
+// A reminder pass calls careSchedule for many pieces with the same now, in a few studios' zones
+// that alternate from piece to piece: one entry per zone, for the last instant asked.
+const cachedToday = new Map<string, { now: string | number; date: IsoDate }>();
 
 function todayIn(now: InstantInput, timeZone: string): IsoDate {
   const key = now instanceof Date ? now.getTime() : now;
-  if (cachedToday && cachedToday.now === key && cachedToday.tz === timeZone) return cachedToday.date;
+  const hit = cachedToday.get(timeZone);
+  if (hit && hit.now === key) return hit.date;
   const date = localDate(toEpochMs(now, "now"), timeZone);
-  cachedToday = { now: key, tz: timeZone, date };
+  if (cachedToday.size > 64) cachedToday.clear();
+  cachedToday.set(timeZone, { now: key, date });
   return date;
 }
 

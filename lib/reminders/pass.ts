@@ -414,7 +414,15 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
         .transaction(() => {
           const existing = new Set(s.ledgerKeys.all(lo === "" ? "" : `${lo};`, `${hi};`) as string[]);
           const ledger = groupBy(s.ledgerPending.all(lo, hi) as (LedgerRow & { pieceId: string })[]);
-          const offersByPiece = groupBy(s.offers.all(lo === "" ? "" : `${lo};`, `${hi};`) as OfferRow[]);
+          // Offers matter only for a refresh task being claimed now (a few pieces a pass), so they are
+          // read per piece on first need rather than for the whole chunk (~1 offer per piece on record).
+          const offersByPiece = new Map<string, OfferRow[]>();
+          const offersOf = (pieceId: string) => {
+            let rows = offersByPiece.get(pieceId);
+            // Task keys start with "<piece id>:" (taskKey in lib/care); ";" is the character after ":".
+            if (!rows) offersByPiece.set(pieceId, (rows = s.offers.all(`${pieceId}:`, `${pieceId};`) as OfferRow[]));
+            return rows;
+          };
           for (const { piece, tasks, current } of schedules) {
             const studio = studioById.get(piece.studioId)!;
             const byId = studio.byId;
@@ -475,7 +483,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
               const product = task.productId ? byId.get(task.productId) : undefined;
               let offer: Claim["offer"];
               if (task.isRefresh) {
-                const ofTask = (offersByPiece.get(piece.id) ?? []).filter((o) => o.taskKey === task.key);
+                const ofTask = offersOf(piece.id).filter((o) => o.taskKey === task.key);
                 for (const o of ofTask) if (o.dueOn !== task.dueOn && o.status === "offered") s.expireOffer.run(o.id);
                 const existing = ofTask.find((o) => o.dueOn === task.dueOn);
                 if (!existing) {
