@@ -107,18 +107,16 @@ function ensureSqlFunctions(db: Db): void {
 // reads are plain better-sqlite3 statements with only the columns a row shows and the care engine
 // reads (like the reminder pass's bulk reads): mapping whole drizzle rows cost more than the query.
 const IDS = `(SELECT value FROM json_each(?))`;
+// A registry row's piece columns, read by the list query itself (joined with users as u).
+const LIST_COLUMNS = sql.raw(`p.id, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
+  p.primary_species_id AS primarySpeciesId, p.secondary_species_id AS secondarySpeciesId, p.shape_kind AS shapeKind,
+  p.length_mm AS lengthMm, p.width_mm AS widthMm, p.diameter_mm AS diameterMm, p.measured_area_m2 AS measuredAreaM2,
+  p.owner_id AS ownerId, p.archived_at AS archivedAt, p.warranty_policy_id AS warrantyPolicyId,
+  u.name AS ownerName, u.email AS ownerEmail`);
 const statements = perConnection((db) => {
   const ids = sql`(SELECT value FROM json_each(${sql.placeholder("ids")}))`;
   const sqlite = db.$client;
   return {
-    listPieces: sqlite.prepare<[string], ListPieceRow>(
-      `SELECT p.id, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
-              p.primary_species_id AS primarySpeciesId, p.secondary_species_id AS secondarySpeciesId, p.shape_kind AS shapeKind,
-              p.length_mm AS lengthMm, p.width_mm AS widthMm, p.diameter_mm AS diameterMm, p.measured_area_m2 AS measuredAreaM2,
-              p.owner_id AS ownerId, p.archived_at AS archivedAt, p.warranty_policy_id AS warrantyPolicyId,
-              u.name AS ownerName, u.email AS ownerEmail
-         FROM pieces p LEFT JOIN users u ON u.id = p.owner_id WHERE p.id IN ${IDS}`,
-    ),
     listLayers: sqlite.prepare<[string], CareLayerColumns & { pieceId: string }>(
       `SELECT piece_id AS pieceId, id, surface, finish_class AS finishClass, product_id AS productId, coats, applied_on AS appliedOn
          FROM finish_layers WHERE piece_id IN ${IDS} ORDER BY surface, position`,
@@ -232,12 +230,11 @@ type ListPieceRow = CarePieceColumns &
 
 type Loaded = { piece: ListPieceRow; layers: CareLayerColumns[]; careLog: CareLogColumns[] };
 
-function loadForRows(ids: string[]): Map<string, Loaded> {
+function loadForRows(pieces: ListPieceRow[]): Map<string, Loaded> {
   const st = statements(getDb());
-  const out = new Map<string, Loaded>();
-  for (let i = 0; i < ids.length; i += 500) {
-    const chunk = JSON.stringify(ids.slice(i, i + 500));
-    for (const piece of st.listPieces.all(chunk)) out.set(piece.id, { piece, layers: [], careLog: [] });
+  const out = new Map<string, Loaded>(pieces.map((piece) => [piece.id, { piece, layers: [], careLog: [] }]));
+  for (let i = 0; i < pieces.length; i += 500) {
+    const chunk = JSON.stringify(pieces.slice(i, i + 500).map((p) => p.id));
     for (const l of st.listLayers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
     for (const c of st.careLog.all(chunk)) out.get(c.pieceId)?.careLog.push(c);
   }
@@ -291,15 +288,16 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
     if (!computed) {
       const offset = all ? 0 : (q.page - 1) * q.pageSize;
       const limit = f.fts ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
-      const ids = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
+      const page = db.all<ListPieceRow>(sql`SELECT ${LIST_COLUMNS} FROM ${from} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${all ? -1 : q.pageSize} OFFSET ${offset}`);
       // A page that is not full tells the total without counting.
-      const n = all || (ids.length < q.pageSize && (ids.length > 0 || q.page === 1)) ? offset + ids.length : (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
+      const n = all || (page.length < q.pageSize && (page.length > 0 || q.page === 1)) ? offset + page.length : (db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${from} WHERE ${f.count} LIMIT ${limit + 1})`)?.n ?? 0);
       const capped = !all && n > limit;
-      return { f, ids: ids.map((r) => r.id), total: capped ? limit : n, capped, loaded: null as Map<string, Loaded> | null, schedules: null as Map<string, CareSchedule | null> | null };
+      return { f, ids: page.map((r) => r.id), total: capped ? limit : n, capped, loaded: loadForRows(page), schedules: null as Map<string, CareSchedule | null> | null };
     }
     // Next care due is computed by the care engine, so filter and sort on it in memory.
-    const candidates = db.all<{ id: string }>(sql`SELECT p.id AS id FROM ${from} WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`).map((r) => r.id);
-    const loaded = loadForRows(candidates);
+    const rows = db.all<ListPieceRow>(sql`SELECT ${LIST_COLUMNS} FROM ${from} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)}`);
+    const candidates = rows.map((r) => r.id);
+    const loaded = loadForRows(rows);
     const schedules = new Map(candidates.map((id) => [id, safeSchedule(loaded.get(id)!, studioCatalog(), ctx.studio.timeZone, now)]));
     let ids = candidates;
     const firstDue = (id: string) => schedules.get(id)?.tasks.find((x) => x.status !== "done")?.dueOn ?? schedules.get(id)?.tasks[0]?.dueOn ?? null;
@@ -327,7 +325,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
     matchedBy = result.f.fts ? "text" : null;
   }
 
-  const loaded = result.loaded ?? loadForRows(result.ids);
+  const loaded = result.loaded;
   const rows: RegistryRow[] = [];
   for (const id of result.ids) {
     const l = loaded.get(id);
