@@ -4,7 +4,7 @@ import "server-only";
 // staff member or technician calling it directly is refused too.
 import { asc, desc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { studios, users, warrantyPolicies, type Studio } from "@/db/schema";
+import { studios, users, visitRules as visitRulesTable, warrantyPolicies, type Studio } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
@@ -15,10 +15,13 @@ import {
   policyVersionSchema,
   profileSchema,
   reminderTimingSchema,
+  visitRulesSchema,
   type ProfileInput,
   type PolicyVersionInput,
   type ReminderTimingInput,
+  type VisitRulesInput,
 } from "@/lib/validation/settings";
+import { visitRulesFor } from "@/lib/visits/availability";
 import { describePolicyChanges, formToPolicy, policyToForm } from "./policy";
 
 export { policyInForce } from "./policy";
@@ -134,6 +137,32 @@ export function updateReminderTiming(ctx: StudioContext, raw: unknown): Reminder
 }
 
 export type ReminderTimingFormInput = ReminderTimingInput;
+
+// ---- visit booking rules ----
+
+export type VisitRules = Required<VisitRulesInput>;
+
+/** The studio's visit booking rules (the defaults until an admin saves its own). */
+export function visitRules(ctx: StudioContext): VisitRules {
+  assertAdmin(ctx);
+  return rulesOf(visitRulesFor(getDb(), ctx.studio.id));
+}
+
+function rulesOf(r: VisitRules): VisitRules {
+  return { travelBufferMin: r.travelBufferMin, leadTimeHours: r.leadTimeHours, slotStepMin: r.slotStepMin, ownerChangeCutoffHours: r.ownerChangeCutoffHours };
+}
+
+/** Saves the rules; slots offered from then on follow them. Visits already booked stay as they are. */
+export function updateVisitRules(ctx: StudioContext, raw: unknown): VisitRules {
+  assertAdmin(ctx);
+  const v = visitRulesSchema.parse(raw);
+  return getDb().transaction((tx) => {
+    const before = rulesOf(visitRulesFor(tx, ctx.studio.id));
+    tx.insert(visitRulesTable).values({ studioId: ctx.studio.id, ...v }).onConflictDoUpdate({ target: visitRulesTable.studioId, set: v }).run();
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "settings.visit_rules_updated", subjectType: "studio", subjectId: ctx.studio.id, data: { from: before, to: v } });
+    return v;
+  });
+}
 
 // ---- warranty policy versions ----
 

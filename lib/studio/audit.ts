@@ -48,6 +48,7 @@ const ACTION_LABELS: Record<string, string> = {
   "member.removed": "Removed from the team",
   "settings.profile_updated": "Studio profile or rates changed",
   "settings.reminder_timing_updated": "Reminder timing changed",
+  "settings.visit_rules_updated": "Visit booking rules changed",
   "policy.version_created": "New warranty policy version",
   "finish_product.created": "Finish product added",
   "finish_product.updated": "Finish product edited",

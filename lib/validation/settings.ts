@@ -89,6 +89,24 @@ export const reminderTimingSchema = z.object({
 });
 export type ReminderTimingInput = z.input<typeof reminderTimingSchema>;
 
+const wholeNumber = (what: string, min: number, max: number, unit: string) =>
+  z
+    .number({ error: `Enter the ${what} as a whole number.` })
+    .int(`Enter the ${what} as a whole number.`)
+    .min(min, `The ${what} is ${min} to ${max} ${unit}.`)
+    .max(max, `The ${what} is ${min} to ${max} ${unit}.`);
+
+/** SLOT_STEPS: how far apart offered visit start times are. */
+export const SLOT_STEPS = [15, 30, 60] as const;
+
+export const visitRulesSchema = z.object({
+  travelBufferMin: wholeNumber("travel buffer", 0, 240, "minutes"),
+  leadTimeHours: wholeNumber("booking notice", 0, 336, "hours"),
+  slotStepMin: z.number({ error: "Pick a spacing." }).refine((n) => (SLOT_STEPS as readonly number[]).includes(n), "Pick 15, 30 or 60 minutes."),
+  ownerChangeCutoffHours: wholeNumber("change cut-off", 0, 168, "hours"),
+});
+export type VisitRulesInput = z.input<typeof visitRulesSchema>;
+
 const membershipId = z.string({ error: "Pick a member." }).trim().min(1, "Pick a member.").max(64);
 export const changeRoleSchema = z.object({ membershipId, role: z.enum(STUDIO_ROLES, { error: "Pick a role." }) });
 export type ChangeRoleInput = z.input<typeof changeRoleSchema>;

@@ -93,7 +93,7 @@ type State = {
   pieceToDelete: Record<"staff" | "admin", string>;
   careEntryToDelete: string;
   prefs: Record<Who, unknown>;
-  studio: Record<"admin" | "otherStudioAdmin", { profile: unknown; reminders: unknown }>;
+  studio: Record<"admin" | "otherStudioAdmin", { profile: unknown; reminders: unknown; visits: unknown }>;
   inesHours: unknown;
 };
 let S: State;
@@ -488,6 +488,11 @@ const ACTIONS: ActionRow[] = [
     action: "app/studio/settings/actions.ts#saveReminderTimingAction",
     expect: "401 403 403 403 403 ok 403 ok",
     args: (who) => ({ json: [(who === "otherStudioAdmin" ? S.studio.otherStudioAdmin : S.studio.admin).reminders] }),
+  },
+  {
+    action: "app/studio/settings/actions.ts#saveVisitRulesAction",
+    expect: "401 403 403 403 403 ok 403 ok",
+    args: (who) => ({ json: [(who === "otherStudioAdmin" ? S.studio.otherStudioAdmin : S.studio.admin).visits] }),
   },
   {
     action: "app/studio/settings/actions.ts#createPolicyVersionAction",

@@ -152,6 +152,26 @@ test("settings: profile, warranty versions (a date before today is refused next 
   await expect(page.getByLabel("Send at (owner's local time)")).toHaveValue("9");
   await noSeriousAxe(page, "reminder timing");
 
+  // Visit booking rules: a bad value is refused next to its field, a good one is kept, then put back.
+  await page.getByRole("navigation", { name: "Settings" }).getByRole("link", { name: "Visit booking" }).click();
+  const notice = page.getByLabel("Booking notice for owners (hours)");
+  await expect(notice).toHaveValue("48");
+  await notice.fill("500");
+  await page.getByRole("button", { name: "Save visit rules" }).click();
+  await expect(page.getByText("The booking notice is 0 to 336 hours.")).toBeVisible();
+  await notice.fill("72");
+  await page.getByLabel("Offer start times every").selectOption("60");
+  await page.getByRole("button", { name: "Save visit rules" }).click();
+  await expect(page.getByText(/Visit booking rules saved/)).toBeVisible();
+  await page.reload();
+  await expect(notice).toHaveValue("72");
+  await expect(page.getByLabel("Offer start times every")).toHaveValue("60");
+  await noSeriousAxe(page, "visit booking rules");
+  await notice.fill("48");
+  await page.getByLabel("Offer start times every").selectOption("30");
+  await page.getByRole("button", { name: "Save visit rules" }).click();
+  await expect(page.getByText(/Visit booking rules saved/)).toBeVisible();
+
   await page.goto("/studio/settings/emails");
   await noSeriousAxe(page, "e-mail list");
   await page.getByRole("link", { name: "Care reminder" }).click();

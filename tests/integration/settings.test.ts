@@ -1,4 +1,5 @@
-// Studio settings: profile and rates in minor units, reminder timing, e-mail previews, the audit log.
+// Studio settings: profile and rates in minor units, reminder timing, visit booking rules, e-mail
+// previews, the audit log.
 // All data invented.
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
@@ -6,11 +7,13 @@ import { ZodError } from "zod";
 import { getDb } from "@/db/client";
 import { auditLog, memberships, studios } from "@/db/schema";
 import { AppError } from "@/lib/errors";
-import { profileFormValues, reminderTiming, toMinorUnits, updateProfile, updateReminderTiming } from "@/lib/settings";
+import { profileFormValues, reminderTiming, toMinorUnits, updateProfile, updateReminderTiming, updateVisitRules, visitRules } from "@/lib/settings";
 import { listEmailTemplates, renderEmailPreview } from "@/lib/settings/email-previews";
 import { listAudit } from "@/lib/studio/audit";
 import { changeMemberRole } from "@/lib/studio/team";
+import { bookVisit, listJobSlots } from "@/lib/visits/service";
 import { createStudio, memberContext } from "../support/fixtures";
+import { addJob, ownerActor, staffActor, visitWorld } from "./visits-helpers";
 
 const profile = {
   name: "Settings Studio (invented)",
@@ -79,6 +82,68 @@ describe("reminder timing", () => {
     expect(status(() => updateReminderTiming(admin, { sendHour: 9, steps: ["weekly"] }))).toBe("zod");
     const tech = await memberContext(studio, "technician");
     expect(status(() => updateReminderTiming(tech, { sendHour: 9, steps: [] }))).toBe(403);
+  });
+});
+
+describe("visit booking rules", () => {
+  const DEFAULTS = { travelBufferMin: 30, leadTimeHours: 48, slotStepMin: 30, ownerChangeCutoffHours: 24 };
+
+  it("start from the defaults, save as typed, are checked, audited and admin-only", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    expect(visitRules(admin)).toEqual(DEFAULTS);
+    const mine = { travelBufferMin: 45, leadTimeHours: 24, slotStepMin: 60, ownerChangeCutoffHours: 12 };
+    expect(updateVisitRules(admin, mine)).toEqual(mine);
+    expect(visitRules(admin)).toEqual(mine);
+    const other = await memberContext(createStudio(), "admin");
+    expect(visitRules(other)).toEqual(DEFAULTS); // one studio's rules are its own
+    for (const bad of [{ leadTimeHours: 337 }, { leadTimeHours: -1 }, { travelBufferMin: 241 }, { travelBufferMin: 1.5 }, { slotStepMin: 20 }, { ownerChangeCutoffHours: 169 }, { leadTimeHours: "48" }]) {
+      expect(status(() => updateVisitRules(admin, { ...mine, ...bad })), JSON.stringify(bad)).toBe("zod");
+    }
+    expect(visitRules(admin)).toEqual(mine); // a refused change leaves the saved rules alone
+    for (const role of ["staff", "technician"] as const) {
+      const ctx = await memberContext(studio, role);
+      expect(status(() => updateVisitRules(ctx, mine))).toBe(403);
+    }
+    const audit = getDb().select().from(auditLog).where(eq(auditLog.studioId, studio.id)).all().filter((a) => a.action === "settings.visit_rules_updated");
+    expect(audit).toHaveLength(1);
+    expect(audit[0]!.data).toEqual({ from: DEFAULTS, to: mine });
+  });
+
+  it("shape the slots offered: the owner's notice, the spacing of start times and the buffer around a booked visit", async () => {
+    // Monday 2027-05-10 08:00 in New York; the technician works weekdays 09:00–17:00 there.
+    const NOW = Date.parse("2027-05-10T12:00:00Z");
+    const w = await visitWorld();
+    const admin = await memberContext(w.studio, "admin");
+    const window = { from: "2027-05-10T00:00:00Z", to: "2027-05-15T00:00:00Z" };
+    const slots = (actor = ownerActor(w.owner)) => listJobSlots(actor, w.job.id, window, NOW).slots;
+    const set = (over: Partial<typeof DEFAULTS>) => updateVisitRules(admin, { ...DEFAULTS, ...over });
+
+    expect(slots()[0]!.start).toBe("2027-05-12T13:00:00.000Z"); // 48 h notice: Wednesday 09:00 EDT
+    set({ leadTimeHours: 72 });
+    expect(slots()[0]!.start).toBe("2027-05-13T13:00:00.000Z"); // Thursday 09:00 EDT
+    expect(slots(staffActor(w.staff))[0]!.start).toBe("2027-05-10T13:00:00.000Z"); // staff are not held to the owners' notice
+    set({ leadTimeHours: 0 });
+    expect(slots()[0]!.start).toBe("2027-05-10T13:00:00.000Z");
+
+    const minutes = (list: { start: string }[]) => new Set(list.map((s) => new Date(s.start).getUTCMinutes()));
+    expect([...minutes(slots())].sort((a, b) => a - b)).toEqual([0, 30]);
+    set({ leadTimeHours: 0, slotStepMin: 60 });
+    expect([...minutes(slots())]).toEqual([0]);
+    set({ leadTimeHours: 0, slotStepMin: 15 });
+    expect([...minutes(slots())].sort((a, b) => a - b)).toEqual([0, 15, 30, 45]);
+
+    // One visit booked first thing Monday; the next slot that day leaves the buffer clear after it.
+    const first = slots()[0]!;
+    const booked = await bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: first.technicianId, start: first.start }, NOW);
+    const end = Date.parse(booked.end);
+    const w2 = addJob(w.studio, w.piece.id, w.owner.id, w.product.id);
+    const nextAfter = (buffer: number) => {
+      set({ leadTimeHours: 0, slotStepMin: 15, travelBufferMin: buffer });
+      return listJobSlots(ownerActor(w.owner), w2.id, window, NOW).slots.find((s) => Date.parse(s.start) >= end)!.start;
+    };
+    expect(Date.parse(nextAfter(0)) - end).toBe(0);
+    expect(Date.parse(nextAfter(60)) - end).toBe(60 * 60_000);
   });
 });
 

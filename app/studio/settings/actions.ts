@@ -2,9 +2,9 @@
 
 import { revalidatePath } from "next/cache";
 import { requireAdmin } from "@/lib/auth/guards";
-import { createPolicyVersion, updateProfile, updateReminderTiming } from "@/lib/settings";
+import { createPolicyVersion, updateProfile, updateReminderTiming, updateVisitRules } from "@/lib/settings";
 import { validatedAction } from "@/lib/validation/action";
-import { policyVersionSchema, profileSchema, reminderTimingSchema } from "@/lib/validation/settings";
+import { policyVersionSchema, profileSchema, reminderTimingSchema, visitRulesSchema } from "@/lib/validation/settings";
 
 export const saveProfileAction = validatedAction(profileSchema, async (input) => {
   const ctx = await requireAdmin();
@@ -25,4 +25,11 @@ export const createPolicyVersionAction = validatedAction(policyVersionSchema, as
   const row = createPolicyVersion(ctx, input);
   revalidatePath("/studio/settings/warranty");
   return { ok: true as const, data: { version: row.version }, message: `Version ${row.version} saved; it applies to pieces delivered from ${row.effectiveFrom}.` };
+});
+
+export const saveVisitRulesAction = validatedAction(visitRulesSchema, async (input) => {
+  const ctx = await requireAdmin();
+  updateVisitRules(ctx, input);
+  revalidatePath("/studio/settings/visits");
+  return { ok: true as const, data: undefined, message: "Visit booking rules saved. New bookings follow them; visits already booked stay as they are." };
 });
