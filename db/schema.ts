@@ -827,3 +827,34 @@ export type Visit = typeof visits.$inferSelect;
 export type NewVisit = typeof visits.$inferInsert;
 export type VisitPhoto = typeof visitPhotos.$inferSelect;
 export type VisitMailSend = typeof visitMailSends.$inferSelect;
+
+/**
+ * Mail that could not be handed to SMTP when it was sent (lib/mail sendMail), kept as rendered so the
+ * scheduler can try again with a back-off. Reminders and visit reminders keep their own ledgers and
+ * never come here.
+ */
+export const MAIL_QUEUE_STATUSES = ["waiting", "sending", "sent", "gave_up"] as const;
+export type QueuedAttachment = { filename: string; contentBase64: string; contentType?: string; contentDisposition?: "attachment" | "inline"; cid?: string };
+export const mailQueue = sqliteTable(
+  "mail_queue",
+  {
+    id: id(),
+    to: text("to", { mode: "json" }).$type<string[]>().notNull(),
+    subject: text("subject").notNull(),
+    html: text("html").notNull(),
+    text: text("text").notNull(),
+    headers: text("headers", { mode: "json" }).$type<Record<string, string>>(),
+    replyTo: text("reply_to"),
+    attachments: text("attachments", { mode: "json" }).$type<QueuedAttachment[]>(),
+    status: text("status", { enum: MAIL_QUEUE_STATUSES }).notNull(),
+    attempts: integer("attempts").notNull(),
+    nextAttemptAt: integer("next_attempt_at", { mode: "timestamp_ms" }),
+    lastError: text("last_error"),
+    messageId: text("message_id"),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" }).notNull(),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [index("mail_queue_due_idx").on(t.status, t.nextAttemptAt)],
+);
+export type QueuedMail = typeof mailQueue.$inferSelect;

@@ -1,11 +1,12 @@
 // `npm run jobs`: the scheduler process. node-cron runs the reminder pass at minute 5 of every hour
-// (and once at start), never two at once in this process; the ledger keeps passes in other processes
+// (and once at start), visit reminders every 15 minutes and the retry of queued mail every minute,
+// never two of a kind at once in this process; the ledger keeps passes in other processes
 // from sending anything twice. SIGTERM/SIGINT stop the schedule and abort the running passes: each
 // finishes the message in hand, puts back what it had claimed but not sent, and returns at once (see
 // "Stopping" in lib/reminders/pass.ts); then the process exits 0 and the next pass does the rest.
 import cron from "node-cron";
 import { getDb } from "@/db/client";
-import { closeMailTransport } from "@/lib/mail";
+import { closeMailTransport, retryQueuedMail } from "@/lib/mail";
 import { describePass, remindersJob } from "./reminders";
 import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 
@@ -41,9 +42,26 @@ async function visitTick(): Promise<void> {
   await pass;
 }
 
+// Mail SMTP refused when it was sent (lib/mail sendMail): every minute, what is due.
+let mailRunning: Promise<unknown> | undefined;
+async function mailTick(): Promise<void> {
+  if (mailRunning || shutdown.signal.aborted) return;
+  const pass = retryQueuedMail({ signal: shutdown.signal })
+    .then((r) => {
+      if (r.sent + r.failed + r.gaveUp + r.stale > 0) log(`mail retry: sent ${r.sent}, failed again ${r.failed}, given up ${r.gaveUp}, cut-off tries taken up again ${r.stale}`);
+    })
+    .catch((e: unknown) => log(`mail retry failed: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`))
+    .finally(() => {
+      mailRunning = undefined;
+    });
+  mailRunning = pass;
+  await pass;
+}
+
 getDb(); // refuses an unmigrated database before anything is scheduled
 const task = cron.schedule("5 * * * *", tick, { name: "care-reminders", noOverlap: true });
 const visitTask = cron.schedule("*/15 * * * *", visitTick, { name: "visit-reminders", noOverlap: true });
+const mailTask = cron.schedule("* * * * *", mailTick, { name: "mail-retry", noOverlap: true });
 void visitTick();
 log("scheduler: care reminders hourly at minute 5; running one pass now");
 void tick();
@@ -52,14 +70,17 @@ let stopping = false;
 async function stop(signal: string): Promise<void> {
   if (stopping) return;
   stopping = true;
-  log(`scheduler: ${signal}, stopping${running || visitRunning ? " (the running pass stops after the message in hand)" : ""}`);
+  log(`scheduler: ${signal}, stopping${running || visitRunning || mailRunning ? " (the running pass stops after the message in hand)" : ""}`);
   shutdown.abort();
   await task.stop();
   await task.destroy();
   await visitTask.stop();
   await visitTask.destroy();
+  await mailTask.stop();
+  await mailTask.destroy();
   await running;
   await visitRunning;
+  await mailRunning;
   closeMailTransport();
   getDb().$client.close();
   log("scheduler: stopped");

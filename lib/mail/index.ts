@@ -1,7 +1,12 @@
 // The one mail path of the product: every message (verification, reset, invitations, care reminders,
-// refresh offers, claim and visit mail) goes through sendMail, rendered from a React Email template
-// into an HTML part and a plain-text part, and handed to whatever SMTP server SMTP_HOST/SMTP_PORT
-// name (the local sink in development and tests, a real relay in production).
+// refresh offers, claim and visit mail) is rendered from a React Email template into an HTML part and
+// a plain-text part, and handed to whatever SMTP server SMTP_HOST/SMTP_PORT name (the local sink in
+// development and tests, a real relay in production).
+//
+// sendMail is for mail that must not be lost when SMTP is down for a while: a message SMTP refuses is
+// kept, rendered, in mail_queue and tried again by the scheduler (retryQueuedMail) with a back-off,
+// and the caller goes on as if it had been sent. sendMailNow throws instead; it is for the senders
+// that keep their own ledger and retries (care reminders, visit reminders).
 //
 // No `import "server-only"` here on purpose: the scheduler (jobs/) runs under tsx outside Next.js,
 // where that package throws on import. Nothing in here is safe to bundle for the browser anyway
@@ -10,6 +15,9 @@ import type { ReactElement } from "react";
 import nodemailer, { type Transporter } from "nodemailer";
 import type SMTPTransport from "nodemailer/lib/smtp-transport";
 import { render } from "@react-email/render";
+import { and, asc, eq, lte, sql } from "drizzle-orm";
+import { getDb, type Db } from "@/db/client";
+import { mailQueue, type QueuedAttachment, type QueuedMail } from "@/db/schema";
 import { env } from "@/lib/env";
 
 export type MailAttachment = {
@@ -47,29 +55,138 @@ function getTransport(): Transporter<SMTPTransport.SentMessageInfo> {
   return transport;
 }
 
-export async function sendMail(input: SendMailInput): Promise<{ messageId: string }> {
+type Rendered = { to: string[]; subject: string; html: string; text: string; headers?: Record<string, string>; replyTo?: string; attachments?: QueuedAttachment[] };
+
+async function renderMessage(input: SendMailInput): Promise<Rendered> {
   const html = await render(input.email);
   const rendered = (await render(input.email, { plainText: true })).trim();
-  // Every message carries a text part, even if a template were to render no text at all.
-  const text = rendered.length > 0 ? rendered : input.subject;
-
-  const info = await getTransport().sendMail({
-    from: env.MAIL_FROM,
-    to: input.to,
+  return {
+    to: Array.isArray(input.to) ? input.to : [input.to],
     subject: input.subject,
     html,
-    text,
+    // Every message carries a text part, even if a template were to render no text at all.
+    text: rendered.length > 0 ? rendered : input.subject,
     headers: input.headers,
     replyTo: input.replyTo,
     attachments: input.attachments?.map((a) => ({
       filename: a.filename,
-      content: a.content instanceof Uint8Array && !Buffer.isBuffer(a.content) ? Buffer.from(a.content) : a.content,
+      contentBase64: Buffer.from(typeof a.content === "string" ? Buffer.from(a.content, "utf8") : a.content).toString("base64"),
+      contentType: a.contentType,
+      contentDisposition: a.contentDisposition,
+      cid: a.cid,
+    })),
+  };
+}
+
+async function deliver(m: Rendered): Promise<string> {
+  const info = await getTransport().sendMail({
+    from: env.MAIL_FROM,
+    to: m.to,
+    subject: m.subject,
+    html: m.html,
+    text: m.text,
+    headers: m.headers ?? undefined,
+    replyTo: m.replyTo ?? undefined,
+    attachments: m.attachments?.map((a) => ({
+      filename: a.filename,
+      content: Buffer.from(a.contentBase64, "base64"),
       contentType: a.contentType,
       contentDisposition: a.contentDisposition,
       cid: a.cid,
     })),
   });
-  return { messageId: info.messageId };
+  return info.messageId;
+}
+
+const errorText = (e: unknown) => (e instanceof Error ? e.message : String(e)).slice(0, 500);
+
+/** Renders and hands the message to SMTP; throws when SMTP refuses it. For senders with their own retries. */
+export async function sendMailNow(input: SendMailInput): Promise<{ messageId: string }> {
+  return { messageId: await deliver(await renderMessage(input)) };
+}
+
+/**
+ * Renders and hands the message to SMTP. When SMTP refuses it, the rendered message is queued for the
+ * scheduler to try again (`queued: true`); it never throws for that, so the change the mail reports
+ * stands. A template that fails to render still throws: that is a bug, not an outage.
+ */
+export async function sendMail(input: SendMailInput, db: Db = getDb()): Promise<{ messageId: string | null; queued: boolean }> {
+  const m = await renderMessage(input);
+  try {
+    return { messageId: await deliver(m), queued: false };
+  } catch (e) {
+    const now = Date.now();
+    db.insert(mailQueue)
+      .values({ ...m, headers: m.headers ?? null, replyTo: m.replyTo ?? null, attachments: m.attachments ?? null, status: "waiting", attempts: 1, nextAttemptAt: new Date(now + MAIL_RETRY_BACKOFF_MIN[0]! * 60_000), lastError: `try 1: ${errorText(e)}`, updatedAt: new Date(now) })
+      .run();
+    console.error(`mail "${m.subject}" to ${m.to.join(", ")} could not be handed to SMTP (${errorText(e)}); queued for another try`);
+    return { messageId: null, queued: true };
+  }
+}
+
+/** Minutes to wait after try 1, 2, …; after the last, the message is given up (about a day in all). */
+export const MAIL_RETRY_BACKOFF_MIN = [1, 5, 15, 60, 240, 720] as const;
+export const MAIL_MAX_ATTEMPTS = MAIL_RETRY_BACKOFF_MIN.length + 1;
+/** A try that started this long ago and never finished (the process died mid-send) is made again. */
+const STALE_SENDING_MS = 15 * 60_000;
+
+export type MailRetryReport = { sent: number; failed: number; gaveUp: number; stale: number };
+
+/** The scheduler's retry of queued mail: every message due by `now`, each taken by one process only. */
+export async function retryQueuedMail(opts: { now?: Date; db?: Db; limit?: number; signal?: AbortSignal } = {}): Promise<MailRetryReport> {
+  const db = opts.db ?? getDb();
+  const nowMs = (opts.now ?? new Date()).getTime();
+  const report: MailRetryReport = { sent: 0, failed: 0, gaveUp: 0, stale: 0 };
+  // A send that was cut off may or may not have gone out; sending it again risks a duplicate, which
+  // for these messages (links, receipts, notices) is better than losing one.
+  report.stale = db
+    .update(mailQueue)
+    .set({ status: "waiting", updatedAt: new Date(nowMs), lastError: sql`COALESCE(${mailQueue.lastError} || ' — ', '') || 'a try was cut off; trying again'` })
+    .where(and(eq(mailQueue.status, "sending"), lte(mailQueue.updatedAt, new Date(nowMs - STALE_SENDING_MS))))
+    .run().changes;
+  const due = db
+    .select()
+    .from(mailQueue)
+    .where(and(eq(mailQueue.status, "waiting"), lte(mailQueue.nextAttemptAt, new Date(nowMs))))
+    .orderBy(asc(mailQueue.nextAttemptAt))
+    .limit(opts.limit ?? 200)
+    .all();
+  for (const row of due) {
+    if (opts.signal?.aborted) break;
+    const taken = db
+      .update(mailQueue)
+      .set({ status: "sending", updatedAt: new Date(nowMs) })
+      .where(and(eq(mailQueue.id, row.id), eq(mailQueue.status, "waiting"), eq(mailQueue.attempts, row.attempts)))
+      .run().changes;
+    if (taken === 0) continue; // another process has it
+    const attempt = row.attempts + 1;
+    try {
+      const messageId = await deliver(fromRow(row));
+      db.update(mailQueue).set({ status: "sent", attempts: attempt, messageId, sentAt: new Date(nowMs), nextAttemptAt: null, updatedAt: new Date(nowMs) }).where(eq(mailQueue.id, row.id)).run();
+      report.sent++;
+    } catch (e) {
+      const last = attempt >= MAIL_MAX_ATTEMPTS;
+      db.update(mailQueue)
+        .set({
+          status: last ? "gave_up" : "waiting",
+          attempts: attempt,
+          nextAttemptAt: last ? null : new Date(nowMs + MAIL_RETRY_BACKOFF_MIN[attempt - 1]! * 60_000),
+          lastError: `try ${attempt}: ${errorText(e)}`,
+          updatedAt: new Date(nowMs),
+        })
+        .where(eq(mailQueue.id, row.id))
+        .run();
+      if (last) {
+        report.gaveUp++;
+        console.error(`mail "${row.subject}" to ${row.to.join(", ")} given up after ${attempt} tries`);
+      } else report.failed++;
+    }
+  }
+  return report;
+}
+
+function fromRow(r: QueuedMail): Rendered {
+  return { to: r.to, subject: r.subject, html: r.html, text: r.text, headers: r.headers ?? undefined, replyTo: r.replyTo ?? undefined, attachments: r.attachments ?? undefined };
 }
 
 /** Drops the transport (next send creates a new one). For tests and clean shutdown of scripts. */

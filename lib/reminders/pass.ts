@@ -38,7 +38,7 @@ import { quote, quoteProductFromCatalog, type Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { topArea } from "@/lib/care/area";
 import { scheduleFromColumns, toCatalog, topShape, type CareLayerColumns, type CarePieceColumns } from "@/lib/pieces/care-inputs";
-import { sendMail } from "@/lib/mail";
+import { sendMailNow } from "@/lib/mail";
 import { composeReminder, type ReminderMail } from "./compose";
 import {
   currentStepIndex,
@@ -296,7 +296,7 @@ export async function deliverClaim(
   let mail;
   try {
     mail = composeReminder(claim);
-    const { messageId } = await sendMail(mail);
+    const { messageId } = await sendMailNow(mail);
     s.markSent.run(messageId, nowMs, nowMs, claim.rowId);
     return { kind: "sent", item: { reminderKey: claim.reminderKey, to: claim.owner.email, subject: mail.subject, messageId, offerId: claim.offer?.id } };
   } catch (e) {

@@ -7,7 +7,7 @@ import { VisitInviteEmail } from "@/emails/visit-invite";
 import { VisitReminderEmail } from "@/emails/visit-reminder";
 import { VisitSummaryEmail, type VisitSummaryEmailProps } from "@/emails/visit-summary";
 import { env } from "@/lib/env";
-import { sendMail } from "@/lib/mail";
+import { sendMail, sendMailNow } from "@/lib/mail";
 import { buildInvite, inviteAttachment } from "./ics";
 import { formatVisitWhen } from "./format";
 
@@ -91,10 +91,11 @@ export async function sendVisitInvite(
   return { sent: true };
 }
 
+/** The 24-hour reminder: throws when SMTP refuses it (the visit reminder ledger retries it). */
 export async function sendVisitReminder(v: VisitMailView): Promise<{ messageId: string }> {
   const tz = v.studio.timeZone;
   const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
-  return sendMail({
+  return sendMailNow({
     to: v.owner!.email,
     subject: `Tomorrow: your visit, ${when}`,
     email: VisitReminderEmail({
