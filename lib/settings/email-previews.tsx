@@ -14,7 +14,11 @@ import PieceReleasedEmail from "@/emails/piece-released";
 import RefundIssuedEmail from "@/emails/refund-issued";
 import StaffInvitationEmail from "@/emails/staff-invitation";
 import TransferCodeEmail from "@/emails/transfer-code";
+import TechnicianVisitEmail from "@/emails/technician-visit";
 import VerifyEmail from "@/emails/verify-email";
+import VisitInviteEmail from "@/emails/visit-invite";
+import VisitReminderEmail from "@/emails/visit-reminder";
+import VisitSummaryEmail from "@/emails/visit-summary";
 import type { StudioContext } from "@/lib/auth/guards";
 import { notFound } from "@/lib/errors";
 import { assertAdmin } from "./index";
@@ -31,6 +35,10 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "refund-issued", name: "Refund issued", audience: "owner", when: "When the studio refunds a payment.", component: RefundIssuedEmail as Template },
   { slug: "transfer-code", name: "Transfer code", audience: "owner", when: "When an owner passes a piece on.", component: TransferCodeEmail as Template },
   { slug: "piece-released", name: "Piece released", audience: "owner", when: "When a piece leaves an owner's account.", component: PieceReleasedEmail as Template },
+  { slug: "visit-invite", name: "Visit booked, moved or cancelled", audience: "owner", when: "When a visit is booked, moved or cancelled (with a calendar file).", component: VisitInviteEmail as Template },
+  { slug: "visit-reminder", name: "Visit tomorrow", audience: "owner", when: "About 24 hours before a booked visit.", component: VisitReminderEmail as Template },
+  { slug: "visit-summary", name: "Visit report", audience: "owner", when: "When the technician files the visit's report.", component: VisitSummaryEmail as Template },
+  { slug: "technician-visit", name: "Technician's visit", audience: "staff", when: "To the technician when a visit is booked, moved, handed to them or taken off their calendar (with a calendar file).", component: TechnicianVisitEmail as Template },
   { slug: "staff-invitation", name: "Team invitation", audience: "staff", when: "When an admin invites someone to the studio.", component: StaffInvitationEmail as Template },
   { slug: "verify-email", name: "Verify e-mail", audience: "anyone", when: "After sign-up, to confirm the address.", component: VerifyEmail as Template },
   { slug: "password-reset", name: "Password reset", audience: "anyone", when: "When someone asks to reset their password.", component: PasswordResetEmail as Template },

@@ -3,9 +3,11 @@
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { pieces, repairJobs, studios, users, visits, type Visit } from "@/db/schema";
+import { TechnicianVisitEmail } from "@/emails/technician-visit";
 import { VisitInviteEmail } from "@/emails/visit-invite";
 import { VisitReminderEmail } from "@/emails/visit-reminder";
 import { VisitSummaryEmail, type VisitSummaryEmailProps } from "@/emails/visit-summary";
+import { localDate } from "@/lib/care/dates";
 import { env } from "@/lib/env";
 import { sendMail, sendMailNow } from "@/lib/mail";
 import { buildInvite, inviteAttachment } from "./ics";
@@ -31,8 +33,8 @@ function organizerOf(v: VisitMailView) {
   return { name: v.studio.name, email: v.studio.email || address };
 }
 
-/** The .ics for the visit as it now stands (REQUEST) or for its cancellation (CANCEL). */
-export function inviteFor(v: VisitMailView, method: "REQUEST" | "CANCEL", now = new Date()): string {
+/** The .ics for the visit as it now stands (REQUEST) or for its cancellation (CANCEL), for the owner or another attendee. */
+export function inviteFor(v: VisitMailView, method: "REQUEST" | "CANCEL", now = new Date(), attendee?: { name: string; email: string }): string {
   const { visit, job, piece, studio, technician, owner } = v;
   return buildInvite({
     method,
@@ -44,24 +46,27 @@ export function inviteFor(v: VisitMailView, method: "REQUEST" | "CANCEL", now = 
     description: `Touch-up visit for ${piece.title} with ${technician.name}.\nSee or change it: ${jobUrl(job.id)}`,
     location: visit.location,
     organizer: organizerOf(v),
-    attendee: { name: owner?.name ?? "Owner", email: owner?.email ?? organizerOf(v).email },
+    attendee: attendee ?? { name: owner?.name ?? "Owner", email: owner?.email ?? organizerOf(v).email },
     now,
   });
 }
 
 /**
- * Sends the confirmation, change or cancellation to the job's owner with its invite. `now` is the
- * booking's (or move's, cancellation's) instant: the invite's DTSTAMP and the visit's lastInviteAt,
- * which the 24 h reminder pass compares with the visit's start.
+ * Sends the confirmation, change or cancellation to the job's owner with its invite, and the
+ * technician's own copy (see sendTechnicianInvites). `now` is the booking's (or move's,
+ * cancellation's) instant: the invite's DTSTAMP and the visit's lastInviteAt, which the 24 h reminder
+ * pass compares with the visit's start.
  */
 export async function sendVisitInvite(
   visitId: string,
   kind: "booked" | "moved" | "cancelled",
-  extra: { previous?: Pick<Visit, "startAt" | "endAt">; reason?: string } = {},
+  extra: { previous?: Pick<Visit, "startAt" | "endAt" | "technicianId">; reason?: string } = {},
   nowMs: number = Date.now(),
 ): Promise<{ sent: boolean }> {
   const v = loadVisitMailView(visitId);
-  if (!v?.owner) return { sent: false };
+  if (!v) return { sent: false };
+  await sendTechnicianInvites(v, kind, extra, new Date(nowMs));
+  if (!v.owner) return { sent: false };
   const method = kind === "cancelled" ? "CANCEL" : "REQUEST";
   const now = new Date(nowMs);
   const ics = inviteFor(v, method, now);
@@ -92,6 +97,49 @@ export async function sendVisitInvite(
 }
 
 /** The 24-hour reminder: throws when SMTP refuses it (the visit reminder ledger retries it). */
+/**
+ * The technician's copy, with an invite that names them as the attendee (same UID and SEQUENCE as the
+ * owner's). A visit moved to another technician is a new visit for the new one and a cancellation for
+ * the one it was taken from.
+ */
+async function sendTechnicianInvites(v: VisitMailView, kind: "booked" | "moved" | "cancelled", extra: { previous?: Pick<Visit, "startAt" | "endAt" | "technicianId">; reason?: string }, now: Date) {
+  const tz = v.studio.timeZone;
+  const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
+  const previousWhen = extra.previous ? formatVisitWhen(extra.previous.startAt.getTime(), extra.previous.endAt.getTime(), tz) : undefined;
+  const dayUrl = (ms: number) => new URL(`/studio/today?date=${localDate(ms, tz)}`, env.APP_URL).href;
+  const send = async (to: { name: string; email: string }, k: "booked" | "moved" | "cancelled", props: { previousWhen?: string; reason?: string; dayMs: number }) => {
+    const method = k === "cancelled" ? "CANCEL" : "REQUEST";
+    const subject = k === "booked" ? `New visit: ${when}` : k === "moved" ? `Visit moved to ${when}` : `Visit off your calendar: ${props.previousWhen ?? when}`;
+    await sendMail({
+      to: to.email,
+      subject,
+      email: TechnicianVisitEmail({
+        kind: k,
+        technicianName: to.name,
+        studioName: v.studio.name,
+        ownerName: v.owner?.name ?? "the owner",
+        pieceTitle: v.piece.title,
+        jobTitle: v.job.title,
+        when: k === "cancelled" ? (props.previousWhen ?? when) : when,
+        previousWhen: k === "moved" ? props.previousWhen : undefined,
+        timeZone: tz,
+        location: v.visit.location,
+        reason: props.reason,
+        url: dayUrl(props.dayMs),
+      }),
+      attachments: [inviteAttachment(inviteFor(v, method, now, to), method)],
+    });
+  };
+  const handedOver = kind === "moved" && extra.previous && extra.previous.technicianId !== v.visit.technicianId;
+  if (handedOver) {
+    const from = getDb().select({ name: users.name, email: users.email }).from(users).where(eq(users.id, extra.previous!.technicianId)).get();
+    if (from) await send(from, "cancelled", { previousWhen, reason: `It has gone to ${v.technician.name}.`, dayMs: extra.previous!.startAt.getTime() });
+    await send(v.technician, "booked", { dayMs: v.visit.startAt.getTime() });
+    return;
+  }
+  await send(v.technician, kind, { previousWhen, reason: kind === "cancelled" && extra.reason ? `Reason: ${extra.reason}` : undefined, dayMs: v.visit.startAt.getTime() });
+}
+
 export async function sendVisitReminder(v: VisitMailView): Promise<{ messageId: string }> {
   const tz = v.studio.timeZone;
   const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);

@@ -1,11 +1,12 @@
-// Every .ics the product sends (booking, move, cancellation) read back from the real SMTP sink and
+// Every .ics the product sends (booking, move, cancellation; the owner's and the technician's) read back from the real SMTP sink and
 // parsed with ical.js, a general-purpose reference parser, then checked against RFC 5545 / RFC 5546.
 import ICAL from "ical.js";
 import { describe, expect, it } from "vitest";
-import { bookVisit, cancelVisit, listJobSlots, moveVisit } from "@/lib/visits/service";
 import { buildInvite } from "@/lib/visits/ics";
+import { bookVisit, cancelVisit, listJobSlots, moveVisit, putTechnicianHours } from "@/lib/visits/service";
+import { memberContext } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
-import { ownerActor, staffActor, visitWorld } from "./visits-helpers";
+import { ownerActor, staffActor, visitWorld, WEEKDAYS_9_TO_5 } from "./visits-helpers";
 
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // a Monday
 
@@ -88,6 +89,46 @@ describe("visit invites (.ics)", () => {
     expect(c.ev.getFirstPropertyValue("uid")).toBe(booked.icsUid);
     expect(c.ev.getFirstPropertyValue("sequence")).toBe(2);
     expect(c.ev.getFirstPropertyValue("status")).toBe("CANCELLED"); // §3.8.1.11
+  });
+
+  it("the technician gets their own copy naming them; a visit handed to another technician is a cancellation for one and an invite for the other", async () => {
+    const w = await visitWorld();
+    const other = await memberContext(w.studio, "technician");
+    putTechnicianHours(w.staff, other.user.id, { hours: WEEKDAYS_9_TO_5, timeOff: [] });
+    const { slots } = listJobSlots(staffActor(w.staff), w.job.id, { from: "2027-05-10T00:00:00Z", to: "2027-05-15T00:00:00Z" }, NOW);
+    const mine = slots.find((s) => s.technicianId === w.tech.user.id)!;
+    const since = Date.now();
+    const booked = await bookVisit(staffActor(w.staff), { jobId: w.job.id, technicianId: mine.technicianId, start: mine.start }, NOW);
+
+    const tech = w.tech.user.email;
+    const first = await inviteOf(tech, /^New visit: /, since);
+    const a = checkRequired(first.text);
+    expect(a.cal.getFirstPropertyValue("method")).toBe("REQUEST");
+    expect(a.ev.getFirstPropertyValue("uid")).toBe(booked.icsUid); // the same event as the owner's (RFC 5545 §3.8.4.7)
+    expect(String(a.ev.getFirstPropertyValue("attendee")).toLowerCase()).toBe(`mailto:${tech}`);
+    expect(first.mail.text).toContain("oily rags");
+    expect(first.mail.text).toMatch(/\/studio\/today\?date=2027-05-10/);
+
+    // Staff hand the visit to the other technician at the same time.
+    const since2 = Date.now();
+    await moveVisit(staffActor(w.staff), booked.id, { start: mine.start, technicianId: other.user.id }, NOW);
+    const off = await inviteOf(tech, /^Visit off your calendar/, since2);
+    const b = checkRequired(off.text);
+    expect(b.cal.getFirstPropertyValue("method")).toBe("CANCEL"); // RFC 5546 §3.2.5
+    expect(b.ev.getFirstPropertyValue("uid")).toBe(booked.icsUid);
+    expect(b.ev.getFirstPropertyValue("sequence")).toBe(1);
+    expect(off.mail.text).toContain(`It has gone to ${other.user.name}.`);
+    const on = await inviteOf(other.user.email, /^New visit: /, since2);
+    const c = checkRequired(on.text);
+    expect(c.cal.getFirstPropertyValue("method")).toBe("REQUEST");
+    expect(c.ev.getFirstPropertyValue("sequence")).toBe(1);
+    expect(String(c.ev.getFirstPropertyValue("attendee")).toLowerCase()).toBe(`mailto:${other.user.email}`);
+
+    const since3 = Date.now();
+    await cancelVisit(ownerActor(w.owner), booked.id, { reason: "Away that week" }, NOW);
+    const gone = await inviteOf(other.user.email, /^Visit off your calendar/, since3);
+    expect(checkRequired(gone.text).cal.getFirstPropertyValue("method")).toBe("CANCEL");
+    expect(gone.mail.text).toContain("Reason: Away that week");
   });
 
   it("long addresses and non-ASCII text fold at 75 octets and read back unchanged", () => {
