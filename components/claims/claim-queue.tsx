@@ -1,10 +1,12 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
-import { Camera, Clock } from "lucide-react";
+import { Camera, Clock, Search } from "lucide-react";
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { SelectField } from "@/components/ui/field";
+import { useEffect, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF, formatWait } from "@/lib/claims/labels";
@@ -24,10 +26,10 @@ type Row = {
   waitMs: number;
   answered: boolean;
 };
-type List = { claims: Row[]; pieces: { id: string; title: string }[]; now: string };
+type List = { claims: Row[]; total: number; page: number; pageSize: number; pieces: { id: string; title: string }[]; now: string };
 
 const STATES: ClaimState[] = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"];
-const FILTERS = ["state", "category", "age", "pieceId", "sort"] as const;
+const FILTERS = ["q", "state", "category", "age", "pieceId", "sort", "page"] as const;
 
 /** The triage queue: filters live in the URL, the list comes from GET /api/claims through TanStack Query. */
 export function ClaimQueue() {
@@ -41,15 +43,32 @@ export function ClaimQueue() {
   }
   const key = qs.toString();
   const { data, isPending, isError, error } = useQuery({ queryKey: ["claims", key], queryFn: () => apiJson<List>(`/api/claims?${key}`), refetchInterval: 60_000 });
+  /** Changing a filter or the search goes back to the first page. */
   const set = (name: (typeof FILTERS)[number], value: string) => {
     const next = new URLSearchParams(qs);
     if (value) next.set(name, value);
     else next.delete(name);
+    if (name !== "page") next.delete("page");
     router.replace(`${pathname}?${next.toString()}`, { scroll: false });
   };
+  const [typed, setTyped] = useState(params.get("q") ?? "");
+  const urlQ = params.get("q") ?? "";
+  useEffect(() => {
+    if (typed.trim() === urlQ) return;
+    const t = setTimeout(() => set("q", typed.trim()), 300);
+    return () => clearTimeout(t);
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only the typed text schedules a URL change
+  }, [typed]);
   const now = data ? Date.parse(data.now) : 0;
+  const lastPage = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
+  const from = data && data.total > 0 ? (data.page - 1) * data.pageSize + 1 : 0;
+  const to = data ? Math.min(data.total, data.page * data.pageSize) : 0;
   return (
     <div className="space-y-4">
+      <div className="relative">
+        <TextField label="Search claims" placeholder="Piece title, owner name or e-mail" value={typed} onChange={(e) => setTyped(e.target.value)} className="pl-10" type="search" maxLength={100} />
+        <Search aria-hidden className="pointer-events-none absolute bottom-3 left-3 size-5 text-muted" />
+      </div>
       <div className="grid grid-cols-2 gap-3 md:grid-cols-5">
         <SelectField label="State" value={params.get("state") ?? "open"} onChange={(e) => set("state", e.target.value === "open" ? "" : e.target.value)}>
           <option value="open">Open (new, reviewing, waiting)</option>
@@ -89,7 +108,12 @@ export function ClaimQueue() {
       </div>
       {isPending ? <p className="text-muted">Loading claims…</p> : null}
       {isError ? <Notice tone="error" title="The queue didn't load">{error.message}</Notice> : null}
-      {data && data.claims.length === 0 ? <p className="rounded-xl border border-line bg-card p-5 text-muted">No claims match these filters.</p> : null}
+      {data ? (
+        <p className="text-sm text-muted" aria-live="polite">
+          {data.total === 0 ? "" : `${from}–${to} of ${data.total.toLocaleString()} claim${data.total === 1 ? "" : "s"}`}
+        </p>
+      ) : null}
+      {data && data.claims.length === 0 ? <p className="rounded-xl border border-line bg-card p-5 text-muted">{urlQ ? `No claims match “${urlQ}” with these filters.` : "No claims match these filters."}</p> : null}
       {data && data.claims.length > 0 ? (
         <ul className="divide-y divide-line overflow-hidden rounded-xl border border-line bg-card" aria-label="Claims">
           {data.claims.map((c) => (
@@ -112,6 +136,19 @@ export function ClaimQueue() {
             </li>
           ))}
         </ul>
+      ) : null}
+      {data && lastPage > 1 ? (
+        <nav aria-label="Pages of claims" className="flex items-center justify-between gap-3">
+          <Button variant="secondary" disabled={data.page <= 1} onClick={() => set("page", data.page - 1 > 1 ? String(data.page - 1) : "")}>
+            Previous
+          </Button>
+          <span className="text-sm text-muted">
+            Page {data.page} of {lastPage}
+          </span>
+          <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set("page", String(data.page + 1))}>
+            Next
+          </Button>
+        </nav>
       ) : null}
     </div>
   );

@@ -21,6 +21,7 @@ import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { AppError, conflict, forbidden, notFound } from "@/lib/errors";
+import { containsText } from "@/lib/text-match";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
 import {
   claimDecisionSchema,
@@ -179,7 +180,9 @@ export function listOwnerClaims(user: Pick<User, "id">) {
 }
 export type OwnerClaimRow = ReturnType<typeof listOwnerClaims>[number];
 
-/** The studio's triage queue, filtered and sorted by age; `now` is the server's clock for wait times. */
+export const CLAIM_PAGE_SIZE = 50;
+
+/** The studio's triage queue, filtered, searched and sorted by age, a page at a time; `now` is the server's clock for wait times. */
 export function listStudioClaims(ctx: StudioContext, rawQuery: unknown, now = Date.now()) {
   const q: ClaimListQuery = claimListQuerySchema.parse(rawQuery ?? {});
   const where: SQL[] = [eq(claims.studioId, ctx.studio.id)];
@@ -191,6 +194,15 @@ export function listStudioClaims(ctx: StudioContext, rawQuery: unknown, now = Da
   if (q.age === "under_2d") where.push(gte(claims.createdAt, at(2)));
   if (q.age === "2_to_7d") where.push(and(lt(claims.createdAt, at(2)), gte(claims.createdAt, at(7)))!);
   if (q.age === "over_7d") where.push(lt(claims.createdAt, at(7)));
+  if (q.q) where.push(containsText(q.q, pieces.title, users.name, users.email));
+  const total =
+    getDb()
+      .select({ n: count() })
+      .from(claims)
+      .innerJoin(pieces, eq(pieces.id, claims.pieceId))
+      .innerJoin(users, eq(users.id, claims.ownerId))
+      .where(and(...where))
+      .get()?.n ?? 0;
   const rows = getDb()
     .select({
       id: claims.id,
@@ -209,8 +221,9 @@ export function listStudioClaims(ctx: StudioContext, rawQuery: unknown, now = Da
     .innerJoin(pieces, eq(pieces.id, claims.pieceId))
     .innerJoin(users, eq(users.id, claims.ownerId))
     .where(and(...where))
-    .orderBy(q.sort === "oldest" ? asc(claims.createdAt) : desc(claims.createdAt))
-    .limit(500)
+    .orderBy(q.sort === "oldest" ? asc(claims.createdAt) : desc(claims.createdAt), asc(claims.id))
+    .limit(CLAIM_PAGE_SIZE)
+    .offset((q.page - 1) * CLAIM_PAGE_SIZE)
     .all()
     .map((r) => ({
       ...r,
@@ -227,7 +240,7 @@ export function listStudioClaims(ctx: StudioContext, rawQuery: unknown, now = Da
     .where(eq(claims.studioId, ctx.studio.id))
     .orderBy(asc(pieces.title))
     .all();
-  return { claims: rows, pieces: piecesWithClaims, query: q, now: new Date(now).toISOString() };
+  return { claims: rows, total, page: q.page, pageSize: CLAIM_PAGE_SIZE, pieces: piecesWithClaims, query: q, now: new Date(now).toISOString() };
 }
 export type StudioClaimList = ReturnType<typeof listStudioClaims>;
 

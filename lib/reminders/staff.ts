@@ -1,6 +1,6 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
-import { and, desc, eq, inArray, isNotNull, isNull, like, or, type SQL } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull, isNull, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { careLogEntries, finishLayers, finishProducts, pieces, refreshOffers, reminderSends, studios, users } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
@@ -8,6 +8,7 @@ import { addDays, localDate } from "@/lib/care/dates";
 import type { Quote } from "@/lib/care/quote";
 import { CARE_TASK_LABELS, type ReminderStep } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
+import { containsText } from "@/lib/text-match";
 import { scheduleFromColumns, toCatalog, topShape } from "@/lib/pieces/care-inputs";
 import { ledgerIdSchema, pauseSchema, remindersQuerySchema } from "@/lib/validation/reminders";
 import { currentStepIndex, OwnerClocks, timingFromColumns, withEnabledSteps, type SendTiming } from "./plan";
@@ -112,8 +113,7 @@ export function listLedger(ctx: StudioContext, raw: unknown) {
   if (q.kind) where.push(eq(reminderSends.taskKind, q.kind));
   if (q.step) where.push(eq(reminderSends.step, q.step));
   if (q.q) {
-    const pattern = `%${q.q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
-    where.push(or(like(pieces.title, pattern), like(users.name, pattern), like(users.email, pattern))!);
+    where.push(containsText(q.q, pieces.title, users.name, users.email));
   }
   return getDb()
     .select({

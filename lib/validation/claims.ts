@@ -111,6 +111,9 @@ export const claimListQuerySchema = z.object({
   age: z.enum(CLAIM_AGE_FILTERS).default("any"),
   pieceId: z.string().max(64).optional().transform((v) => (v ? v : undefined)),
   sort: z.enum(["oldest", "newest"]).default("oldest"),
+  /** Words from the piece's title, the owner's name or e-mail. */
+  q: z.string().trim().max(100, "Search with at most 100 characters.").default(""),
+  page: z.coerce.number({ error: "Page must be a number." }).int("Page must be a whole number.").min(1, "Pages start at 1.").max(100_000).default(1),
 });
 export type ClaimListQuery = z.output<typeof claimListQuerySchema>;
 

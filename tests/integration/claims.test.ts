@@ -345,6 +345,42 @@ describe("the triage queue", () => {
   });
 });
 
+describe("searching and paging the triage queue", () => {
+  it("finds by piece title, owner name or e-mail, takes % and _ literally, pages 50 at a time, and stays inside the studio", async () => {
+    const w = await claimWorld({ piece: { title: "100% walnut console (invented)" } });
+    const { piece: underscored } = createPiece(w.studio, { ownerId: w.owner.id, title: "Oak_bench for the hall (invented)" });
+    const { piece: plain } = createPiece(w.studio, { ownerId: w.owner.id, title: "Oak bench 1000 (invented)" });
+    const a = await fileClaim(w.ownerV, w.piece.id);
+    const b = await fileClaim(w.ownerV, underscored.id);
+    const c = await fileClaim(w.ownerV, plain.id);
+    const ids = (q: Record<string, string>) => listStudioClaims(w.staffCtx, { state: "all", ...q }).claims.map((r) => r.id).sort();
+    expect(ids({ q: "WALNUT" })).toEqual([a.id]);
+    expect(ids({ q: "%" })).toEqual([a.id]); // not "anything"
+    expect(ids({ q: "oak_" })).toEqual([b.id]); // not "oak" and any one character
+    expect(ids({ q: "oak" })).toEqual([b.id, c.id].sort());
+    expect(ids({ q: "Test Owner" })).toHaveLength(3);
+    expect(ids({ q: w.owner.email.toUpperCase() })).toHaveLength(3);
+    expect(ids({ q: "nothing like this" })).toEqual([]);
+    const rival = await claimWorld();
+    expect(listStudioClaims(rival.staffCtx, { state: "all", q: "walnut" }).claims).toEqual([]);
+    expect(listStudioClaims(rival.staffCtx, { state: "all", q: w.owner.email }).claims).toEqual([]);
+
+    // 53 more claims: 56 in all, two pages, every claim once, oldest first.
+    const base = getDb().select().from(claims).where(eq(claims.id, c.id)).get()!;
+    const t0 = Date.now() - 60 * 86_400_000;
+    for (let i = 0; i < 53; i++) getDb().insert(claims).values({ ...base, id: `bulk-${i}-${c.id}`, createdAt: new Date(t0 + i * 60_000) }).run();
+    const p1 = listStudioClaims(w.staffCtx, { state: "all" });
+    const p2 = listStudioClaims(w.staffCtx, { state: "all", page: "2" });
+    expect([p1.total, p1.claims.length, p2.total, p2.claims.length, p2.pageSize]).toEqual([56, 50, 56, 6, 50]);
+    expect(new Set([...p1.claims, ...p2.claims].map((r) => r.id)).size).toBe(56);
+    expect(p1.claims[0]!.id).toBe("bulk-0-" + c.id);
+    expect(listStudioClaims(w.staffCtx, { state: "all", page: "3" }).claims).toEqual([]);
+    expect(listStudioClaims(w.staffCtx, { state: "all", q: "oak", page: "2" })).toMatchObject({ total: 55, claims: expect.any(Array) as unknown });
+    expect(await status(() => listStudioClaims(w.staffCtx, { page: "0" }))).toBe(400);
+    expect(await status(() => listStudioClaims(w.staffCtx, { q: "x".repeat(101) }))).toBe(400);
+  });
+});
+
 describe("claim mail", () => {
   it("received (owner and studio), new message both ways, decision — even for an owner who turned reminders off", async () => {
     const w = await claimWorld();
