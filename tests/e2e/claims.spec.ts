@@ -85,6 +85,12 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   const staff = await phone(browser, ACCOUNTS.staff);
   const desk = await staff.newPage();
   await desk.goto("/studio/claims?sort=newest");
+  // The search narrows the queue (and lands in the URL); a miss says so.
+  await desk.getByLabel("Search claims").fill("no such piece here");
+  await expect(desk.getByText("No claims match “no such piece here” with these filters.")).toBeVisible();
+  await desk.getByLabel("Search claims").fill("charred cedar");
+  await expect(desk).toHaveURL(/[?&]q=charred\+cedar/);
+  await expect(desk.getByText(/^1–\d+ of \d+ claims?$/)).toBeVisible();
   await desk.getByRole("link", { name: new RegExp(`Structural, loose or wobbly · ${PIECE}`) }).first().click();
   await expect(desk).toHaveURL(new RegExp(`/studio/claims/${claimId}$`));
   await expect(desk.getByRole("heading", { name: "Coverage check" })).toBeVisible();
