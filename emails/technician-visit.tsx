@@ -1,5 +1,6 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { ActionButton, LinkFallback } from "./components/button";
+import { VisitTime } from "./components/visit-time";
 
 export type TechnicianVisitEmailProps = {
   /** "booked": new on their calendar (booked, or moved to them); "moved": their visit has a new time or place; "cancelled": off their calendar (cancelled, or given to someone else). */
@@ -34,12 +35,7 @@ export function TechnicianVisitEmail(p: TechnicianVisitEmailProps) {
           <Paragraph>
             <strong>{p.jobTitle}</strong> on {p.pieceTitle} for {p.ownerName}:
           </Paragraph>
-          <Paragraph>
-            <strong>{p.when}</strong> ({p.timeZone})
-            {p.previousWhen ? <><br />instead of {p.previousWhen}</> : null}
-            <br />
-            At: {p.location}
-          </Paragraph>
+          <VisitTime when={p.when} previousWhen={p.previousWhen} timeZone={p.timeZone} location={p.location} />
           <Paragraph>The attached calendar file puts the visit on your calendar{p.kind === "moved" ? " and replaces the earlier time" : ""}.</Paragraph>
           <Note>
             Follow the finish maker&apos;s instructions, keep the room aired while you work, and leave oily rags flat to dry outdoors or in a closed metal can with water — they can catch

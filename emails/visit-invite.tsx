@@ -1,5 +1,6 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { ActionButton, LinkFallback } from "./components/button";
+import { VisitTime } from "./components/visit-time";
 
 export type VisitInviteEmailProps = {
   kind: "booked" | "moved" | "cancelled";
@@ -34,14 +35,7 @@ export function VisitInviteEmail(p: VisitInviteEmailProps) {
           <Paragraph>
             {p.kind === "moved" ? "The new time" : "The time"} for <strong>{p.jobTitle}</strong> on {p.pieceTitle}:
           </Paragraph>
-          <Paragraph>
-            <strong>{p.when}</strong> ({p.timeZone})
-            {p.previousWhen ? <><br />instead of {p.previousWhen}</> : null}
-            <br />
-            At: {p.location}
-            <br />
-            Technician: {p.technicianName}
-          </Paragraph>
+          <VisitTime when={p.when} previousWhen={p.previousWhen} timeZone={p.timeZone} location={p.location} technicianName={p.technicianName} />
           <Paragraph>The attached calendar file adds the visit to your calendar{p.kind === "moved" ? " and replaces the earlier time" : ""}.</Paragraph>
           <Note>Please clear the top before the visit and keep pets and children away from fresh finish for the day. Lifting a heavy top takes two people; the technician will ask for help rather than lift it alone.</Note>
         </>
