@@ -230,11 +230,11 @@ type ListPieceRow = CarePieceColumns &
 
 type Loaded = { piece: ListPieceRow; layers: CareLayerColumns[]; careLog: CareLogColumns[] };
 
-function loadForRows(pieces: ListPieceRow[]): Map<string, Loaded> {
+function loadForRows(rows: ListPieceRow[]): Map<string, Loaded> {
   const st = statements(getDb());
-  const out = new Map<string, Loaded>(pieces.map((piece) => [piece.id, { piece, layers: [], careLog: [] }]));
-  for (let i = 0; i < pieces.length; i += 500) {
-    const chunk = JSON.stringify(pieces.slice(i, i + 500).map((p) => p.id));
+  const out = new Map<string, Loaded>(rows.map((piece) => [piece.id, { piece, layers: [], careLog: [] }]));
+  for (let i = 0; i < rows.length; i += 500) {
+    const chunk = JSON.stringify(rows.slice(i, i + 500).map((p) => p.id));
     for (const l of st.listLayers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
     for (const c of st.careLog.all(chunk)) out.get(c.pieceId)?.careLog.push(c);
   }
