@@ -13,7 +13,7 @@
 // (nodemailer needs node:net), so a client import would still fail loudly at build time.
 import type { ReactElement } from "react";
 import nodemailer, { type Transporter } from "nodemailer";
-import type SMTPTransport from "nodemailer/lib/smtp-transport";
+import type SMTPPool from "nodemailer/lib/smtp-pool";
 import { render } from "@react-email/render";
 import { and, asc, eq, lte, sql } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
@@ -41,16 +41,21 @@ export type SendMailInput = {
   replyTo?: string;
 };
 
-let transport: Transporter<SMTPTransport.SentMessageInfo> | undefined;
+let transport: Transporter<SMTPPool.SentMessageInfo> | undefined;
 
 // Created at first send, not at import: `env` is parsed once when lib/env is first imported, so a
 // test that starts its own sink must set process.env.SMTP_PORT before it imports this module.
-function getTransport(): Transporter<SMTPTransport.SentMessageInfo> {
+function getTransport(): Transporter<SMTPPool.SentMessageInfo> {
   transport ??= nodemailer.createTransport({
     host: env.SMTP_HOST,
     port: env.SMTP_PORT,
     secure: false,
     ignoreTLS: true,
+    // Reused connections: a new one per message (greeting, EHLO) cost ~100 ms against the local sink,
+    // a pooled one ~5 ms. An idle connection closes after 2 s, so scripts that send exit promptly.
+    pool: true,
+    maxConnections: 2,
+    idleTimeout: 2_000,
   });
   return transport;
 }
