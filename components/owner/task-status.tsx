@@ -6,7 +6,7 @@ const STATUS = {
   overdue: { word: "Overdue", Icon: TriangleAlert, cls: "border-danger/30 bg-danger-soft text-danger" },
   due: { word: "Due soon", Icon: BellRing, cls: "border-warn/30 bg-warn-soft text-warn" },
   upcoming: { word: "Upcoming", Icon: CalendarClock, cls: "border-line bg-paper text-ink" },
-  done: { word: "Done", Icon: CircleCheck, cls: "border-ok/30 bg-ok-soft text-ok" },
+  done: { word: "Up to date", Icon: CircleCheck, cls: "border-ok/30 bg-ok-soft text-ok" },
 } as const;
 
 /** A care task's state as a word and an icon, never colour alone (DESIGN.md §10). */

@@ -8,7 +8,7 @@ const CARE: Record<CareTaskStatus, { word: string; Icon: typeof Clock; cls: stri
   upcoming: { word: "Upcoming", Icon: Clock, cls: "text-muted" },
   due: { word: "Due soon", Icon: AlarmClock, cls: "text-warn" },
   overdue: { word: "Overdue", Icon: TriangleAlert, cls: "text-danger" },
-  done: { word: "Done", Icon: CircleCheck, cls: "text-ok" },
+  done: { word: "Up to date", Icon: CircleCheck, cls: "text-ok" },
 };
 
 export function CareStatus({ status, className }: { status: CareTaskStatus; className?: string }) {

@@ -120,7 +120,7 @@ test("scan a drawer card, sign up, confirm by e-mail, register, log care and dow
   await expect(logged).toContainText(firstTask);
   await expect(logged).toContainText("Polished the top in small circles");
   const item = timeline.getByRole("listitem").filter({ has: page.getByRole("heading", { level: 3, name: firstTask, exact: true }) });
-  await expect(item.first()).toContainText("Done");
+  await expect(item.first()).toContainText("Up to date");
   await shot(page, "07-after-logging");
 
   const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: /Warranty certificate/ }).click()]);
