@@ -5,7 +5,7 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { acceptInvitationSchema, type AcceptInvitationInput } from "@/lib/validation/auth";
+import type { AcceptInvitationInput } from "@/lib/validation/auth";
 
 export function AcceptInvitationForm({
   action,
@@ -20,7 +20,7 @@ export function AcceptInvitationForm({
 }) {
   // A signed-in invitee only confirms; the name and password fields are placeholders the schema accepts.
   const { form, onSubmit, formError } = useActionForm({
-    schema: acceptInvitationSchema,
+    schema: () => import("@/lib/validation/auth").then((m) => m.acceptInvitationSchema),
     action,
     defaultValues: hasAccount ? { token, name: "member", password: "unused-password" } : { token, name: "", password: "" },
   });

@@ -5,11 +5,11 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { changePasswordSchema, type ChangePasswordInput } from "@/lib/validation/auth";
+import type { ChangePasswordInput } from "@/lib/validation/auth";
 
 export function ChangePasswordForm({ action }: { action: (v: ChangePasswordInput) => Promise<ActionResult<unknown>> }) {
   const { form, onSubmit, formError } = useActionForm({
-    schema: changePasswordSchema,
+    schema: () => import("@/lib/validation/auth").then((m) => m.changePasswordSchema),
     action,
     defaultValues: { current: "", password: "", confirm: "" },
     onSuccess: () => form.reset({ current: "", password: "", confirm: "" }),

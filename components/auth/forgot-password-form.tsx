@@ -6,12 +6,12 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { forgotPasswordSchema, type ForgotPasswordInput } from "@/lib/validation/auth";
+import type { ForgotPasswordInput } from "@/lib/validation/auth";
 
 export function ForgotPasswordForm({ action }: { action: (v: ForgotPasswordInput) => Promise<ActionResult<unknown>> }) {
   const [sentTo, setSentTo] = useState<string | null>(null);
   const { form, onSubmit, formError } = useActionForm({
-    schema: forgotPasswordSchema,
+    schema: () => import("@/lib/validation/auth").then((m) => m.forgotPasswordSchema),
     action,
     defaultValues: { email: "" },
     onSuccess: () => setSentTo(form.getValues("email")),

@@ -6,11 +6,11 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { resetPasswordSchema, type ResetPasswordInput } from "@/lib/validation/auth";
+import type { ResetPasswordInput } from "@/lib/validation/auth";
 
 export function ResetPasswordForm({ action, token }: { action: (v: ResetPasswordInput) => Promise<ActionResult<unknown>>; token: string }) {
   const { form, onSubmit, formError } = useActionForm({
-    schema: resetPasswordSchema,
+    schema: () => import("@/lib/validation/auth").then((m) => m.resetPasswordSchema),
     action,
     defaultValues: { token, password: "", confirm: "" },
   });

@@ -6,10 +6,10 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { signInSchema, type SignInInput } from "@/lib/validation/auth";
+import type { SignInInput } from "@/lib/validation/auth";
 
 export function SignInForm({ action, next }: { action: (v: SignInInput) => Promise<ActionResult<unknown>>; next?: string }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: signInSchema, action, defaultValues: { email: "", password: "", next } });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/auth").then((m) => m.signInSchema), action, defaultValues: { email: "", password: "", next } });
   const { register, formState } = form;
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">

@@ -6,11 +6,11 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { signUpSchema, type SignUpInput } from "@/lib/validation/auth";
+import type { SignUpInput } from "@/lib/validation/auth";
 
 export function SignUpForm({ action, next }: { action: (v: SignUpInput) => Promise<ActionResult<unknown>>; next?: string }) {
   const { form, onSubmit, formError } = useActionForm({
-    schema: signUpSchema,
+    schema: () => import("@/lib/validation/auth").then((m) => m.signUpSchema),
     action,
     defaultValues: { name: "", email: "", password: "", next },
   });

@@ -12,7 +12,7 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, type FinishClass } from "@/lib/care/vocabulary";
-import { catalogProductSchema, type CatalogProductInput } from "@/lib/validation/pieces";
+import type { CatalogProductInput } from "@/lib/validation/pieces";
 
 export type CatalogRow = {
   id: string;
@@ -66,7 +66,7 @@ function MoneyField({ label, currency, value, onChange, error }: { label: string
 function ProductForm({ product, currency, onDone }: { product?: CatalogRow; currency: string; onDone: () => void }) {
   const router = useRouter();
   const { form, onSubmit, formError } = useActionForm({
-    schema: catalogProductSchema,
+    schema: () => import("@/lib/validation/pieces").then((m) => m.catalogProductSchema),
     action: (v: CatalogProductInput) => (product ? callApi(`/api/catalog/${product.id}`, "PATCH", v) : callApi("/api/catalog", "POST", v)),
     defaultValues: product
       ? {

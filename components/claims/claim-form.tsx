@@ -1,10 +1,9 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { Send } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
-import { useForm, type FieldPath, type Resolver } from "react-hook-form";
+import { useForm, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button, ButtonLink } from "@/components/ui/button";
@@ -12,7 +11,8 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
-import { createClaimSchema, type CreateClaimInput } from "@/lib/validation/claims";
+import type { createClaimSchema, CreateClaimInput } from "@/lib/validation/claims";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { ApiError, apiJson } from "./api";
 import { clearDraftPhotos, PhotoPicker, PhotoQueueList, usePhotoQueue } from "./photo-queue";
 
@@ -39,7 +39,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
   const [busy, setBusy] = useState(false);
   const queue = usePhotoQueue(draftKey);
   const form = useForm<Values, unknown, z.output<typeof createClaimSchema>>({
-    resolver: zodResolver(createClaimSchema) as unknown as Resolver<Values, unknown, z.output<typeof createClaimSchema>>,
+    resolver: useLazyZodResolver<typeof createClaimSchema, Values, z.output<typeof createClaimSchema>>(() => import("@/lib/validation/claims").then((m) => m.createClaimSchema)),
     mode: "onTouched",
     defaultValues: {
       pieceId,

@@ -1,6 +1,5 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
@@ -8,7 +7,8 @@ import { toast } from "sonner";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
-import { claimMessageSchema } from "@/lib/validation/claims";
+import type { claimMessageSchema } from "@/lib/validation/claims";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { ApiError, apiJson } from "./api";
 
 export type ThreadMessage = { id: string; body: string; fromStudio: boolean; createdAt: string; authorName: string };
@@ -31,7 +31,7 @@ export function MessageThread({
 }) {
   const router = useRouter();
   const [askForInfo, setAskForInfo] = useState(false);
-  const form = useForm<z.input<typeof claimMessageSchema>>({ resolver: zodResolver(claimMessageSchema), defaultValues: { body: "" } });
+  const form = useForm<z.input<typeof claimMessageSchema>>({ resolver: useLazyZodResolver(() => import("@/lib/validation/claims").then((m) => m.claimMessageSchema)), defaultValues: { body: "" } });
   const onSubmit = form.handleSubmit(async (values) => {
     try {
       await apiJson(`/api/claims/${claimId}/messages`, { method: "POST", body: JSON.stringify({ body: values.body, ...(askForInfo ? { requestInfo: true } : {}) }) });

@@ -1,10 +1,9 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { Gavel, ScanSearch } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useForm, useWatch, type FieldPath, type Resolver } from "react-hook-form";
+import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
@@ -12,7 +11,8 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { CLAIM_DECISION_LABELS } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
-import { claimDecisionSchema } from "@/lib/validation/claims";
+import type { claimDecisionSchema } from "@/lib/validation/claims";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { ApiError, apiJson } from "./api";
 
 type Values = z.input<typeof claimDecisionSchema>;
@@ -50,7 +50,7 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
   const [formError, setFormError] = useState<string | null>(null);
   const defaultDecision = suggestion === "covered" ? "covered" : suggestion === "partly_covered" ? "partly_covered" : undefined;
   const form = useForm<Values, unknown, z.output<typeof claimDecisionSchema>>({
-    resolver: zodResolver(claimDecisionSchema) as unknown as Resolver<Values, unknown, z.output<typeof claimDecisionSchema>>,
+    resolver: useLazyZodResolver<typeof claimDecisionSchema, Values, z.output<typeof claimDecisionSchema>>(() => import("@/lib/validation/claims").then((m) => m.claimDecisionSchema)),
     defaultValues: { decision: defaultDecision, coveredPct: suggestion === "partly_covered" ? suggestedPct : null, reason: "", expectedVersion: version },
   });
   const decision = useWatch({ control: form.control, name: "decision" });

@@ -1,15 +1,16 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
-import { useForm, type DefaultValues, type FieldValues, type Path, type Resolver } from "react-hook-form";
+import { useForm, type DefaultValues, type FieldValues, type Path } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import type { ActionResult } from "@/lib/validation/action";
+import { useLazyZodResolver, type SchemaLoader } from "./lazy-zod-resolver";
 
 /**
  * A react-hook-form form checked on the client by the same zod schema the server action parses
- * with; the server's field errors land next to their fields, and nothing typed is lost.
+ * with (loaded when the form mounts, see useLazyZodResolver); the server's field errors land next to
+ * their fields, and nothing typed is lost.
  */
 export function useActionForm<S extends z.ZodType<FieldValues, FieldValues>, T>({
   schema,
@@ -18,14 +19,14 @@ export function useActionForm<S extends z.ZodType<FieldValues, FieldValues>, T>(
   onSuccess,
   successMessage,
 }: {
-  schema: S;
+  schema: SchemaLoader<S>;
   action: (values: z.input<S>) => Promise<ActionResult<T>>;
   defaultValues?: DefaultValues<z.input<S>>;
   onSuccess?: (data: T) => void;
   successMessage?: string;
 }) {
   const form = useForm<z.input<S>, unknown, z.output<S>>({
-    resolver: zodResolver(schema as never) as unknown as Resolver<z.input<S>, unknown, z.output<S>>,
+    resolver: useLazyZodResolver<S, z.input<S>, z.output<S>>(schema),
     defaultValues,
     mode: "onTouched",
   });

@@ -1,16 +1,16 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useForm, type Resolver } from "react-hook-form";
+import { useForm } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS } from "@/lib/care/vocabulary";
-import { jobQuoteSchema, type JobQuoteInput } from "@/lib/validation/jobs";
+import type { jobQuoteSchema, JobQuoteInput } from "@/lib/validation/jobs";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 
 type Product = { id: string; name: string; finishClassLabel: string };
 
@@ -18,7 +18,7 @@ export function JobQuoteEditor({ jobId, initial, products, editable }: { jobId: 
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<z.input<typeof jobQuoteSchema>, unknown, JobQuoteInput>({
-    resolver: zodResolver(jobQuoteSchema) as unknown as Resolver<z.input<typeof jobQuoteSchema>, unknown, JobQuoteInput>,
+    resolver: useLazyZodResolver<typeof jobQuoteSchema, z.input<typeof jobQuoteSchema>, JobQuoteInput>(() => import("@/lib/validation/jobs").then((m) => m.jobQuoteSchema)),
     defaultValues: initial,
   });
   const { register, formState, handleSubmit, setError } = form;

@@ -10,7 +10,7 @@ import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { formatDate } from "@/lib/owner/format";
 import type { TaskView } from "@/lib/owner/pieces";
-import { careLogSchema, type CareLogInput } from "@/lib/validation/owner";
+import type { CareLogInput } from "@/lib/validation/owner";
 import { callApi } from "./api-action";
 import { DeleteEntryButton } from "./delete-entry-button";
 
@@ -34,7 +34,7 @@ export function CareLogForm({
   const [photo, setPhoto] = useState<File | null>(null);
   const photoId = useId();
   const { form, onSubmit, formError } = useActionForm({
-    schema: careLogSchema,
+    schema: () => import("@/lib/validation/owner").then((m) => m.careLogSchema),
     defaultValues: defaults,
     action: async (values) => {
       if (entryId) {

@@ -6,7 +6,7 @@ import { SelectField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { preferencesSchema, type PreferencesInput } from "@/lib/validation/owner";
+import type { PreferencesInput } from "@/lib/validation/owner";
 
 const noSubscribe = () => () => {};
 const browserTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone || null;
@@ -23,7 +23,7 @@ export function PreferencesForm({
   /** The account still has the default zone: offer the browser's. */
   zoneNeverSet: boolean;
 }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: preferencesSchema, action, defaultValues: defaults, successMessage: "Preferences saved." });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/owner").then((m) => m.preferencesSchema), action, defaultValues: defaults, successMessage: "Preferences saved." });
   const { register, formState, setValue } = form;
   const browserZone = useSyncExternalStore(noSubscribe, browserTimeZone, () => null);
   useEffect(() => {

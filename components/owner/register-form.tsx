@@ -6,11 +6,11 @@ import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { registrationSchema, type RegistrationInput } from "@/lib/validation/owner";
+import type { RegistrationInput } from "@/lib/validation/owner";
 
 /** Manual entry of a registration code; the check symbol is verified here before anything is sent. */
 export function RegisterForm({ action, code }: { action: (v: RegistrationInput) => Promise<ActionResult<unknown>>; code?: string }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: registrationSchema, action, defaultValues: { code: code ?? "" } });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/owner").then((m) => m.registrationSchema), action, defaultValues: { code: code ?? "" } });
   const { register, formState } = form;
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
@@ -40,7 +40,7 @@ export function RegisterForm({ action, code }: { action: (v: RegistrationInput) 
 
 /** One tap on the card landing: the code is already known. */
 export function RegisterButton({ action, code }: { action: (v: RegistrationInput) => Promise<ActionResult<unknown>>; code: string }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: registrationSchema, action, defaultValues: { code } });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/owner").then((m) => m.registrationSchema), action, defaultValues: { code } });
   return (
     <form onSubmit={onSubmit} className="space-y-3">
       {formError ? (

@@ -8,7 +8,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { releaseSchema, type ReleaseInput } from "@/lib/validation/owner";
+import type { ReleaseInput } from "@/lib/validation/owner";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 
 type Released = { code: string; pieceId: string };
@@ -17,7 +17,7 @@ export function ReleaseForm({ action, pieceTitle }: { action: (v: ReleaseInput) 
   const [asking, setAsking] = useState(false);
   const [released, setReleased] = useState<Released | null>(null);
   const { form, onSubmit, formError } = useActionForm({
-    schema: releaseSchema,
+    schema: () => import("@/lib/validation/owner").then((m) => m.releaseSchema),
     action,
     defaultValues: { confirm: false as unknown as true },
     onSuccess: (data) => {

@@ -10,7 +10,7 @@ import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
 import { FINISH_CLASS_LABELS, SURFACES, type FinishClass, type Surface } from "@/lib/care/vocabulary";
-import { layerSchema, type LayerInput } from "@/lib/validation/pieces";
+import type { LayerInput } from "@/lib/validation/pieces";
 import { callApi } from "./api";
 import { LayerFields, SURFACE_LABELS, type MemberOption, type ProductOption } from "./layer-fields";
 
@@ -45,7 +45,7 @@ function LayerForm({ pieceId, products, members, onDone, ...target }: { pieceId:
   const router = useRouter();
   const layer = target.layer;
   const { form, onSubmit, formError } = useActionForm({
-    schema: layerSchema,
+    schema: () => import("@/lib/validation/pieces").then((m) => m.layerSchema),
     action: (v: LayerInput) => (layer ? callApi(`/api/pieces/${pieceId}/layers/${layer.id}`, "PATCH", v) : callApi(`/api/pieces/${pieceId}/layers`, "POST", v)),
     defaultValues: layer
       ? { surface: layer.surface, finishClass: layer.finishClass, productId: layer.productId, productLabel: layer.productLabel, coats: layer.coats, appliedOn: layer.appliedOn, appliedById: layer.appliedById, batchLot: layer.batchLot, notes: layer.notes }

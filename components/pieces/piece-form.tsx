@@ -10,7 +10,7 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { PIECE_KINDS, PIECE_KIND_LABELS, RESIN_KINDS, RESIN_LABELS, SHAPE_KINDS, SUN_EXPOSURES, SUN_LABELS, USES, USE_LABELS } from "@/lib/care/vocabulary";
-import { createPieceSchema, pieceSchema, type CreatePieceInput } from "@/lib/validation/pieces";
+import type { CreatePieceInput } from "@/lib/validation/pieces";
 import { callApi, emptyToNull } from "./api";
 import { LayerFields, type MemberOption, type ProductOption } from "./layer-fields";
 import { SpeciesPicker } from "./species-picker";
@@ -52,9 +52,8 @@ export function PieceForm({
 }) {
   const router = useRouter();
   const [system, setSystem] = useState<UnitSystem>(unitSystem);
-  const schema = mode === "create" ? createPieceSchema : pieceSchema;
   const { form, onSubmit, formError } = useActionForm({
-    schema,
+    schema: () => import("@/lib/validation/pieces").then((m) => (mode === "create" ? m.createPieceSchema : m.pieceSchema)),
     action: (values) => (mode === "create" ? callApi<Created>("/api/pieces", "POST", values) : callApi<Created>(`/api/pieces/${pieceId}`, "PATCH", values)),
     defaultValues: {
       kind: "dining_table",

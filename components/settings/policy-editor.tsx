@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { CLAIM_CATEGORIES, CLAIM_EXCLUSIONS, type ClaimCategory, type ClaimExclusion } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import type { ActionResult } from "@/lib/validation/action";
-import { policyVersionSchema, type PolicyVersionInput } from "@/lib/validation/settings";
+import type { PolicyVersionInput } from "@/lib/validation/settings";
 
 const EXCLUSION_WORDS: Record<ClaimExclusion, string> = {
   heat: "Heat (hot cookware, heaters, fireplaces)",
@@ -20,7 +20,7 @@ const EXCLUSION_WORDS: Record<ClaimExclusion, string> = {
 
 export function PolicyEditor({ values, earliest, latestVersion, action }: { values: PolicyVersionInput; earliest: string; latestVersion: number | null; action: (v: PolicyVersionInput) => Promise<ActionResult<unknown>> }) {
   const router = useRouter();
-  const { form, onSubmit, formError } = useActionForm({ schema: policyVersionSchema, action, defaultValues: values, onSuccess: () => router.refresh() });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/settings").then((m) => m.policyVersionSchema), action, defaultValues: values, onSuccess: () => router.refresh() });
   const { register, formState, watch } = form;
   const lines = watch("lines");
   const effectiveFrom = watch("effectiveFrom");

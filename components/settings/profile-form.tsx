@@ -5,10 +5,11 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import type { ActionResult } from "@/lib/validation/action";
-import { CURRENCIES, profileSchema, type ProfileInput } from "@/lib/validation/settings";
+import { CURRENCIES } from "@/lib/care/quote";
+import type { ProfileInput } from "@/lib/validation/settings";
 
 export function ProfileForm({ values, timeZones, action }: { values: ProfileInput; timeZones: string[]; action: (v: ProfileInput) => Promise<ActionResult<unknown>> }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: profileSchema, action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/settings").then((m) => m.profileSchema), action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
   const { register, formState, watch } = form;
   const e = formState.errors;
   const currency = watch("currency");

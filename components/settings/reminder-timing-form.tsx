@@ -6,7 +6,7 @@ import { SelectField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
 import type { ActionResult } from "@/lib/validation/action";
-import { reminderTimingSchema, type ReminderTimingInput } from "@/lib/validation/settings";
+import type { ReminderTimingInput } from "@/lib/validation/settings";
 
 const STEP_WORDS: Record<ReminderStep, { label: string; hint: string }> = {
   before_14d: { label: "14 days before the due date", hint: "Time to buy product or book a refresh visit; refresh offers go with the first reminder sent." },
@@ -15,7 +15,7 @@ const STEP_WORDS: Record<ReminderStep, { label: string; hint: string }> = {
 };
 
 export function ReminderTimingForm({ values, action }: { values: ReminderTimingInput; action: (v: ReminderTimingInput) => Promise<ActionResult<unknown>> }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: reminderTimingSchema, action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/settings").then((m) => m.reminderTimingSchema), action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
   const { register, formState, watch } = form;
   const steps = watch("steps") ?? [];
   return (

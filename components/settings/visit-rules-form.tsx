@@ -5,10 +5,11 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import type { ActionResult } from "@/lib/validation/action";
-import { SLOT_STEPS, visitRulesSchema, type VisitRulesInput } from "@/lib/validation/settings";
+import { SLOT_STEPS } from "@/lib/care/vocabulary";
+import type { VisitRulesInput } from "@/lib/validation/settings";
 
 export function VisitRulesForm({ values, action }: { values: VisitRulesInput; action: (v: VisitRulesInput) => Promise<ActionResult<unknown>> }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: visitRulesSchema, action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/settings").then((m) => m.visitRulesSchema), action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
   const { register, formState } = form;
   const e = formState.errors;
   return (

@@ -5,11 +5,11 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
-import { inviteSchema, type InviteInput } from "@/lib/validation/auth";
+import type { InviteInput } from "@/lib/validation/auth";
 
 export function InviteForm({ action }: { action: (v: InviteInput) => Promise<ActionResult<unknown>> }) {
   const { form, onSubmit, formError } = useActionForm({
-    schema: inviteSchema,
+    schema: () => import("@/lib/validation/auth").then((m) => m.inviteSchema),
     action,
     defaultValues: { email: "", role: "staff" },
     onSuccess: () => form.reset({ email: "", role: "staff" }),

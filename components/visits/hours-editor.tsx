@@ -1,14 +1,14 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { Plus, Trash2 } from "lucide-react";
 import { useState } from "react";
-import { useFieldArray, useForm, type Resolver } from "react-hook-form";
+import { useFieldArray, useForm } from "react-hook-form";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { technicianHoursSchema, type TechnicianHoursInput } from "@/lib/validation/visits";
+import type { technicianHoursSchema, TechnicianHoursInput } from "@/lib/validation/visits";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { isApiError, visitApi } from "./api";
 
 const WEEKDAYS = ["Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday"];
@@ -17,7 +17,7 @@ type Values = { hours: { weekday: number; start: string; end: string }[]; timeOf
 /** One technician's weekly hours and time off, saved together (PUT /api/technicians/[id]/hours). */
 export function HoursEditor({ technicianId, name, initial, editable }: { technicianId: string; name: string; initial: Values; editable: boolean }) {
   const form = useForm<TechnicianHoursInput, unknown, Values>({
-    resolver: zodResolver(technicianHoursSchema) as unknown as Resolver<TechnicianHoursInput, unknown, Values>,
+    resolver: useLazyZodResolver<typeof technicianHoursSchema, TechnicianHoursInput, Values>(() => import("@/lib/validation/visits").then((m) => m.technicianHoursSchema)),
     defaultValues: { hours: initial.hours, timeOff: initial.timeOff.map((t) => ({ ...t, start: t.start ?? "", end: t.end ?? "" })) },
     mode: "onTouched",
   });

@@ -1,16 +1,16 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { Camera, Plus, Trash2 } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useFieldArray, useForm, useWatch, type Resolver } from "react-hook-form";
+import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
-import { visitReportSchema, type VisitReportInput, type VisitReportValues } from "@/lib/validation/visits";
+import type { visitReportSchema, VisitReportInput, VisitReportValues } from "@/lib/validation/visits";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { isApiError, visitApi } from "./api";
 
 type Product = { id: string; name: string; finishClass: FinishClass };
@@ -46,7 +46,7 @@ function uploadPhoto(visitId: string, file: File, kind: "before" | "after", onPr
 export function VisitReportForm({ visitId, products, today, defaultClass, initialPhotos }: { visitId: string; products: Product[]; today: string; defaultClass?: FinishClass; initialPhotos: Photo[] }) {
   const router = useRouter();
   const form = useForm<VisitReportInput, unknown, VisitReportValues>({
-    resolver: zodResolver(visitReportSchema) as unknown as Resolver<VisitReportInput, unknown, VisitReportValues>,
+    resolver: useLazyZodResolver<typeof visitReportSchema, VisitReportInput, VisitReportValues>(() => import("@/lib/validation/visits").then((m) => m.visitReportSchema)),
     defaultValues: { work: "", signOffName: "", layers: defaultClass ? [{ surface: "top", finishClass: defaultClass, productId: products.find((p) => p.finishClass === defaultClass)?.id ?? "", coats: 1, appliedOn: today, productLabel: "", batchLot: "" }] : [] },
     mode: "onTouched",
   });

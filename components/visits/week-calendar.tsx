@@ -1,6 +1,5 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { ChevronLeft, ChevronRight, GripVertical } from "lucide-react";
 import Link from "next/link";
@@ -13,7 +12,8 @@ import { cn } from "@/components/ui/cn";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { addDays, localDateTime, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
-import { visitEditFormSchema, type VisitEditFormValues } from "@/lib/validation/visits";
+import type { VisitEditFormValues } from "@/lib/validation/visits";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { isApiError, visitApi } from "./api";
 
 type CalVisit = { id: string; jobId: string; technicianId: string; technicianName: string; start: string; end: string; state: "booked" | "done" | "cancelled"; jobTitle: string; pieceTitle: string; ownerName: string | null; location: string; version: number };
@@ -199,7 +199,7 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
 function EditVisit({ visit, technicians, timeZone, onClose, onCancel, onMoved }: { visit: CalVisit; technicians: Tech[]; timeZone: string; onClose: () => void; onCancel: () => void; onMoved: () => void }) {
   const s = localDateTime(Date.parse(visit.start), timeZone);
   const form = useForm<VisitEditFormValues>({
-    resolver: zodResolver(visitEditFormSchema),
+    resolver: useLazyZodResolver(() => import("@/lib/validation/visits").then((m) => m.visitEditFormSchema)),
     defaultValues: { date: `${s.year}-${pad(s.month)}-${pad(s.day)}`, time: `${pad(s.hour)}:${pad(s.minute)}`, technicianId: visit.technicianId },
     mode: "onTouched",
   });

@@ -4,6 +4,7 @@ import { CARE_TASK_KINDS, CARE_TASK_LABELS, type CareTaskKind } from "./vocabula
 
 /** ISO 4217 minor units (decimal places): USD, EUR, GBP, CAD 2; JPY 0 (ISO 4217 list one, via REFERENCES.md). */
 export const CURRENCY_EXPONENTS = { USD: 2, EUR: 2, GBP: 2, CAD: 2, JPY: 0 } as const;
+export const CURRENCIES = Object.keys(CURRENCY_EXPONENTS) as (keyof typeof CURRENCY_EXPONENTS)[];
 export type CurrencyCode = keyof typeof CURRENCY_EXPONENTS;
 
 export function currencyExponent(currency: string): number {

@@ -153,3 +153,6 @@ export const VISIT_LOCATIONS = ["owner", "studio"] as const;
 export type VisitLocation = (typeof VISIT_LOCATIONS)[number];
 
 export const VISIT_STATE_LABELS: Record<VisitState, string> = { booked: "Booked", cancelled: "Cancelled", done: "Done" };
+
+/** How far apart offered visit start times can be, in minutes (a studio setting). */
+export const SLOT_STEPS = [15, 30, 60] as const;

@@ -2,8 +2,8 @@
 // shared by the forms (react-hook-form's zod resolver), the server actions and the route handlers.
 // No transforms, so a value the form has parsed parses again on the server unchanged.
 import { z } from "zod";
-import { CURRENCY_EXPONENTS } from "@/lib/care/quote";
-import { CLAIM_CATEGORIES, CLAIM_EXCLUSIONS, REMINDER_STEPS, STUDIO_ROLES } from "@/lib/care/vocabulary";
+import { CURRENCIES, CURRENCY_EXPONENTS } from "@/lib/care/quote";
+import { CLAIM_CATEGORIES, CLAIM_EXCLUSIONS, REMINDER_STEPS, SLOT_STEPS, STUDIO_ROLES } from "@/lib/care/vocabulary";
 
 export const UNIT_SYSTEM_CHOICES = ["metric", "imperial"] as const;
 
@@ -24,7 +24,6 @@ export function isTimeZone(tz: string): boolean {
   }
 }
 
-export const CURRENCIES = Object.keys(CURRENCY_EXPONENTS) as (keyof typeof CURRENCY_EXPONENTS)[];
 
 /** "85", "85.5", "85.50": an amount in major units as typed; the currency decides how many decimals. */
 const AMOUNT_RE = /^\d{1,9}(\.\d{1,3})?$/;
@@ -96,8 +95,6 @@ const wholeNumber = (what: string, min: number, max: number, unit: string) =>
     .min(min, `The ${what} is ${min} to ${max} ${unit}.`)
     .max(max, `The ${what} is ${min} to ${max} ${unit}.`);
 
-/** SLOT_STEPS: how far apart offered visit start times are. */
-export const SLOT_STEPS = [15, 30, 60] as const;
 
 export const visitRulesSchema = z.object({
   travelBufferMin: wholeNumber("travel buffer", 0, 240, "minutes"),

@@ -40,3 +40,18 @@ test("signing out ends the session", async ({ page }) => {
   await page.goto("/pieces");
   await expect(page).toHaveURL(/\/sign-in\?next=%2Fpieces/);
 });
+
+test("the form checks on the client once its schema has loaded: a malformed e-mail is flagged on leaving the field, before any submit", async ({ page }) => {
+  const posts: string[] = [];
+  page.on("request", (r) => {
+    if (r.method() === "POST") posts.push(r.url());
+  });
+  await page.goto("/sign-in");
+  await page.getByLabel("Email").fill("not-an-address");
+  await page.getByLabel("Password").focus();
+  await expect(page.getByText("Enter an e-mail address like name@example.com.")).toBeVisible();
+  expect(posts).toEqual([]); // the schema came with the page's lazily loaded chunk; nothing was sent
+  await page.getByLabel("Email").fill(ACCOUNTS.owner);
+  await page.getByLabel("Password").focus();
+  await expect(page.getByText("Enter an e-mail address like name@example.com.")).toBeHidden();
+});
