@@ -28,7 +28,7 @@ export function studioRecipients(studio: Pick<Studio, "id" | "email">): string[]
     .map((r) => r.email);
 }
 
-/** A failed send must not undo the change it reports; it is logged for the outbox to show. */
+/** Mail must not undo the change it reports: sendMail queues what SMTP refuses, and anything else it throws is logged. */
 async function send(input: SendMailInput): Promise<void> {
   const to = Array.isArray(input.to) ? input.to : [input.to];
   if (to.length === 0) return;

@@ -115,13 +115,14 @@ export async function sendMailNow(input: SendMailInput): Promise<{ messageId: st
  * scheduler to try again (`queued: true`); it never throws for that, so the change the mail reports
  * stands. A template that fails to render still throws: that is a bug, not an outage.
  */
-export async function sendMail(input: SendMailInput, db: Db = getDb()): Promise<{ messageId: string | null; queued: boolean }> {
+export async function sendMail(input: SendMailInput): Promise<{ messageId: string | null; queued: boolean }> {
   const m = await renderMessage(input);
   try {
     return { messageId: await deliver(m), queued: false };
   } catch (e) {
     const now = Date.now();
-    db.insert(mailQueue)
+    getDb()
+      .insert(mailQueue)
       .values({ ...m, headers: m.headers ?? null, replyTo: m.replyTo ?? null, attachments: m.attachments ?? null, status: "waiting", attempts: 1, nextAttemptAt: new Date(now + MAIL_RETRY_BACKOFF_MIN[0]! * 60_000), lastError: `try 1: ${errorText(e)}`, updatedAt: new Date(now) })
       .run();
     console.error(`mail "${m.subject}" to ${m.to.join(", ")} could not be handed to SMTP (${errorText(e)}); queued for another try`);
