@@ -158,6 +158,9 @@ export const finishProducts = sqliteTable(
     intervalModerateMonths: integer("interval_moderate_months"),
     intervalLightMonths: integer("interval_light_months"),
     safetyNotes: text("safety_notes").notNull().default(""),
+    /** Cure time from the product label: hours until light use, days until full use; null keeps the class default (lib/care/cure.ts). */
+    cureLightUseHours: integer("cure_light_use_hours"),
+    cureFullDays: integer("cure_full_days"),
     archivedAt: integer("archived_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
   },
