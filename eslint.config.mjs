@@ -1,10 +1,40 @@
 import next from "eslint-config-next/core-web-vitals";
 import nextTs from "eslint-config-next/typescript";
 
+// The directions imports may run (DEVELOPERS.md, "Imports run one way"). A new crossing fails
+// `npm run lint`, and so CI. tests/unit/import-rules.test.ts checks that each rule bites.
+const restrict = (...patterns) => ({ "no-restricted-imports": ["error", { patterns }] });
+
+const noDb = { group: ["@/db", "@/db/**"], message: "Only lib/ (and jobs, seeds, tests) reach the database: call a function in lib/<area>." };
+const noApp = { group: ["@/app", "@/app/**"], message: "lib/, db/, jobs/ and emails/ never import app/." };
+const noFakes = { group: ["@/lib/fakes", "@/lib/fakes/**", "**/fakes/*"], message: "The local fakes are reached over the network; only tests and scripts import lib/fakes." };
+// Modules that a client component may import as values: pure ones without `server-only`.
+const serverLib = {
+  regex: "^@/lib/(?!care/|validation/|claims/labels$|claims/states$|repairs/states$|owner/format$)",
+  allowTypeImports: true,
+  message: "components/ import server modules as types only (`import type`); pure helpers live in lib/care or the allowed list in eslint.config.mjs.",
+};
+
+
 const config = [
   ...next,
   ...nextTs,
   { ignores: [".next/**", "node_modules/**", "data/**", "test-results/**", "playwright-report/**", "tests/.tmp/**", "next-env.d.ts"] },
+  { files: ["app/**"], rules: restrict(noDb, noFakes) },
+  {
+    files: ["components/**"],
+    rules: restrict(noDb, noFakes, serverLib, {
+      regex: "^@/app/(?!actions/|.*/actions$)",
+      message: "components/ may import server actions from app/, nothing else there.",
+    }),
+  },
+  { files: ["emails/**"], rules: restrict(noDb, noApp, noFakes) },
+  { files: ["lib/**", "db/**", "jobs/**"], ignores: ["lib/fakes/**", "db/seed/**"], rules: restrict(noApp, noFakes) },
+  { files: ["db/seed/**"], rules: restrict(noApp, noFakes) },
+  {
+    files: ["lib/care/**"],
+    rules: restrict({ regex: "^(?!\\./)", message: "lib/care is pure: it imports nothing but its own files (./x)." }),
+  },
 ];
 
 export default config;

@@ -1,9 +1,8 @@
 import { NextResponse } from "next/server";
-import { getDb } from "@/db/client";
+import { checkHealth } from "@/lib/health";
 
 export const dynamic = "force-dynamic";
 
 export function GET() {
-  getDb().$client.prepare("SELECT 1").get();
-  return NextResponse.json({ ok: true });
+  return NextResponse.json(checkHealth());
 }

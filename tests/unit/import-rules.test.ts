@@ -1,0 +1,42 @@
+// The import directions of DEVELOPERS.md are enforced by ESLint (eslint.config.mjs). Each case lints
+// a one-line module as if it stood at the given path, with the project's real configuration.
+import path from "node:path";
+import { ESLint } from "eslint";
+import { beforeAll, describe, expect, it } from "vitest";
+
+let eslint: ESLint;
+beforeAll(() => {
+  eslint = new ESLint({ cwd: path.resolve(import.meta.dirname, "../..") });
+});
+
+async function restricted(filePath: string, code: string): Promise<boolean> {
+  const [result] = await eslint.lintText(code, { filePath });
+  return result.messages.some((m) => m.ruleId === "no-restricted-imports");
+}
+
+describe("import directions", () => {
+  it.each([
+    ["app never imports db", "app/studio/x/page.tsx", 'import { getDb } from "@/db/client";\nexport const x = getDb;\n'],
+    ["components never import db", "components/x/y.tsx", 'import { pieces } from "@/db/schema";\nexport const x = pieces;\n'],
+    ["components never import a server module as a value", "components/x/y.tsx", 'import { listClaims } from "@/lib/claims/service";\nexport const x = listClaims;\n'],
+    ["components never import app pages", "components/x/y.tsx", 'import Page from "@/app/studio/page";\nexport const x = Page;\n'],
+    ["lib/care imports nothing outside itself", "lib/care/x.ts", 'import { env } from "@/lib/env";\nexport const x = env;\n'],
+    ["lib/care imports no package", "lib/care/x.ts", 'import { z } from "zod";\nexport const x = z;\n'],
+    ["lib never imports app", "lib/x/y.ts", 'import { signOutAction } from "@/app/actions/session";\nexport const x = signOutAction;\n'],
+    ["emails never import db", "emails/x.tsx", 'import { getDb } from "@/db/client";\nexport const x = getDb;\n'],
+    ["the product never imports lib/fakes", "lib/payments/x.ts", 'import { startStripeFake } from "@/lib/fakes/stripe-fake";\nexport const x = startStripeFake;\n'],
+    ["jobs never import lib/fakes", "jobs/x.ts", 'import { startSmtpSink } from "@/lib/fakes/smtp-sink";\nexport const x = startSmtpSink;\n'],
+  ])("%s", async (_rule, filePath, code) => {
+    expect(await restricted(filePath, code)).toBe(true);
+  });
+
+  it.each([
+    ["components import server modules as types", "components/x/y.tsx", 'import type { ClaimCoverage } from "@/lib/claims/coverage";\nexport type X = ClaimCoverage;\n'],
+    ["components import pure lib/care values", "components/x/y.tsx", 'import { SPECIES } from "@/lib/care/species";\nexport const x = SPECIES;\n'],
+    ["components import server actions", "components/x/y.tsx", 'import { signOutAction } from "@/app/actions/session";\nexport const x = signOutAction;\n'],
+    ["lib/care imports its own files", "lib/care/x.ts", 'import { SPECIES } from "./species";\nexport const x = SPECIES;\n'],
+    ["tests import lib/fakes", "tests/integration/x.test.ts", 'import { startSmtpSink } from "@/lib/fakes/smtp-sink";\nexport const x = startSmtpSink;\n'],
+  ])("allowed: %s", async (_rule, filePath, code) => {
+    expect(await restricted(filePath, code)).toBe(false);
+  });
+});
