@@ -7,6 +7,9 @@ import "./globals.css";
 export const metadata: Metadata = {
   title: { default: "Grainward", template: "%s · Grainward" },
   description: "Aftercare for one-off furniture: piece records, care plans, reminders, claims and touch-up visits.",
+  // public/: the web app manifest lets an owner add their pieces to a phone's home screen.
+  manifest: "/manifest.webmanifest",
+  icons: { apple: "/apple-touch-icon.png" },
 };
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#faf7f2" };
