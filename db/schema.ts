@@ -530,6 +530,11 @@ export const repairJobs = sqliteTable(
 );
 
 export const PAYMENT_STATUSES = ["open", "paid", "expired", "refunded", "partially_refunded"] as const;
+/**
+ * Why a captured payment is (being) given back in full: the first three the product decides on its
+ * own (the payment does not count toward its job), the last is a cancelled job.
+ */
+export const PAYMENT_REFUND_REASONS = ["older_quote", "already_paid", "not_awaiting_payment", "job_cancelled"] as const;
 
 /** One Stripe Checkout Session for a job's quote version, and what Stripe last reported about it. */
 export const payments = sqliteTable(
@@ -550,6 +555,10 @@ export const payments = sqliteTable(
     status: text("status", { enum: PAYMENT_STATUSES }).notNull().default("open"),
     paymentIntentId: text("payment_intent_id"),
     refundedMinor: integer("refunded_minor").notNull().default(0),
+    /** Set when this payment is to be refunded in full; null while it counts (or is still open). */
+    refundReason: text("refund_reason", { enum: PAYMENT_REFUND_REASONS }),
+    /** When the refund was asked of Stripe; a reason without this is a refund still to ask for. */
+    refundRequestedAt: integer("refund_requested_at", { mode: "timestamp_ms" }),
     paidAt: integer("paid_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
     updatedAt: integer("updated_at", { mode: "timestamp_ms" })
