@@ -2,7 +2,8 @@ import "server-only";
 import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import { env } from "@/lib/env";
-import { AppError, badRequest, forbidden, isAppError } from "@/lib/errors";
+import { AppError, badRequest, forbidden } from "@/lib/errors";
+import { asAppError } from "@/lib/validation/care-input";
 
 export type ErrorBody = { error: { code: string; message: string; fieldErrors?: Record<string, string[]> } };
 
@@ -38,7 +39,8 @@ export function route<P = Record<string, never>>(handler: Handler<P>) {
       checkOrigin(req);
       return await handler(req, { params: await ctx.params });
     } catch (e) {
-      if (isAppError(e)) return errorResponse(e);
+      const known = asAppError(e);
+      if (known) return errorResponse(known);
       if (e instanceof z.ZodError) {
         const flat = z.flattenError(e);
         return errorResponse(badRequest(flat.formErrors[0] ?? "Some fields need a second look.", flat.fieldErrors as Record<string, string[]>));

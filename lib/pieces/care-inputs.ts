@@ -4,6 +4,10 @@
 import type { CareLogRow, FinishLayer, FinishProduct, Piece } from "@/db/schema";
 import type { TopShape } from "@/lib/care/area";
 import { careSchedule, type CareFinishLayer, type CareLogEntry, type CarePiece, type CareSchedule, type CatalogEntry } from "@/lib/care/schedule";
+import { clampStoredDate } from "@/lib/validation/dates";
+
+// Dates are read back within 1900–2199 (clampStoredDate): a row written before the input ranges
+// existed (9999-12-31) would otherwise take the engine past year 9999 and break every page listing it.
 
 type PieceShapeRow = Pick<Piece, "shapeKind" | "lengthMm" | "widthMm" | "diameterMm" | "measuredAreaM2">;
 
@@ -26,7 +30,7 @@ export function toCarePiece(row: Piece): CarePiece {
     kind: row.kind,
     use: row.use,
     sun: row.sun,
-    deliveredOn: row.deliveredOn,
+    deliveredOn: clampStoredDate(row.deliveredOn),
     resin: row.resinKind,
     shape: topShape(row),
     primarySpeciesId: row.primarySpeciesId,
@@ -40,12 +44,12 @@ export function toCareLayers(rows: readonly FinishLayer[]): CareFinishLayer[] {
     finishClass: l.finishClass,
     productId: l.productId ?? undefined,
     coats: l.coats,
-    appliedOn: l.appliedOn,
+    appliedOn: clampStoredDate(l.appliedOn),
   }));
 }
 
 export function toCareLog(rows: readonly Pick<CareLogRow, "taskKind" | "doneOn" | "surface">[]): CareLogEntry[] {
-  return rows.map((r) => ({ taskKind: r.taskKind, doneOn: r.doneOn, surface: r.surface ?? undefined }));
+  return rows.map((r) => ({ taskKind: r.taskKind, doneOn: clampStoredDate(r.doneOn), surface: r.surface ?? undefined }));
 }
 
 export function toCatalog(rows: readonly FinishProduct[]): CatalogEntry[] {
@@ -97,7 +101,7 @@ export function toCarePieceFromColumns(row: CarePieceColumns): CarePiece {
     kind: row.kind,
     use: row.use,
     sun: row.sun,
-    deliveredOn: row.deliveredOn,
+    deliveredOn: clampStoredDate(row.deliveredOn),
     resin: row.resinKind,
     shape: topShape(row),
     primarySpeciesId: row.primarySpeciesId,
@@ -124,7 +128,7 @@ export function scheduleFromColumns(input: {
       finishClass: l.finishClass,
       productId: l.productId ?? undefined,
       coats: l.coats,
-      appliedOn: l.appliedOn,
+      appliedOn: clampStoredDate(l.appliedOn),
     })),
     careLog: toCareLog(input.careLog),
     catalog: input.catalog,

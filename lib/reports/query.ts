@@ -2,7 +2,7 @@
 // with a blank field gives the default.
 import { z } from "zod";
 import { CLAIM_CATEGORIES, REMINDER_STEPS } from "@/lib/care/vocabulary";
-import { settingsDate } from "@/lib/validation/settings";
+import { filterDate } from "@/lib/validation/dates";
 
 const dropEmpty = (raw: unknown) => (raw && typeof raw === "object" ? Object.fromEntries(Object.entries(raw).filter(([, v]) => v !== "" && v != null)) : raw);
 
@@ -10,8 +10,8 @@ export const claimRatesQuerySchema = z.preprocess(
   dropEmpty,
   z
     .object({
-      from: settingsDate.optional(),
-      to: settingsDate.optional(),
+      from: filterDate().optional(),
+      to: filterDate().optional(),
       category: z.enum([...CLAIM_CATEGORIES, "all"], { error: "Pick a kind of claim from the list." }).default("all"),
     })
     .refine((q) => !q.from || !q.to || q.from <= q.to, { message: "The period must start on or before its end.", path: ["to"] }),

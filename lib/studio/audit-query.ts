@@ -1,6 +1,6 @@
 // The audit log's filters: also its URL's query string. Pure, for the page and the route.
 import { z } from "zod";
-import { settingsDate } from "@/lib/validation/settings";
+import { filterDate } from "@/lib/validation/dates";
 
 /** Filter groups and the action prefixes each covers. */
 export const AUDIT_GROUPS = {
@@ -21,8 +21,8 @@ export const auditQuerySchema = z.preprocess(
     .object({
       group: z.enum(Object.keys(AUDIT_GROUPS) as [AuditGroup, ...AuditGroup[]], { error: "Pick a kind of change from the list." }).optional(),
       actor: z.string().trim().max(64).optional(),
-      from: settingsDate.optional(),
-      to: settingsDate.optional(),
+      from: filterDate().optional(),
+      to: filterDate().optional(),
       page: z.coerce.number({ error: "Page must be a number." }).int().min(1).max(10_000).default(1),
     })
     .refine((q) => !q.from || !q.to || q.from <= q.to, { message: "The period must start on or before its end.", path: ["to"] }),

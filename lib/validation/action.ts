@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { isAppError, type FieldErrors } from "@/lib/errors";
+import type { FieldErrors } from "@/lib/errors";
+import { asAppError } from "./care-input";
 
 /** What every server action returns to its form: the result, or every field's error and a message. */
 export type ActionResult<T = undefined> =
@@ -36,7 +37,8 @@ export function validatedAction<S extends z.ZodType, T>(
       return { ok: true, data: out as T };
     } catch (e) {
       if (isNextControlFlow(e)) throw e;
-      if (isAppError(e)) return { ok: false, message: e.message, fieldErrors: e.fieldErrors };
+      const known = asAppError(e);
+      if (known) return { ok: false, message: known.message, fieldErrors: known.fieldErrors };
       console.error(e);
       return { ok: false, message: "Something went wrong on our side. Please try again in a moment." };
     }

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
+import { pastDate } from "./dates";
 
 // Shared by the claim forms (react-hook-form's zod resolver) and the claim route handlers.
 
@@ -9,10 +10,6 @@ const CLAIM_DECISION_VALUES = ["covered", "partly_covered", "chargeable", "decli
 export const ANSWER_VALUES = ["yes", "no", "unsure"] as const;
 const answer = z.enum(ANSWER_VALUES, "Choose yes, no or not sure.");
 
-const isoDate = z
-  .string()
-  .regex(/^\d{4}-\d{2}-\d{2}$/, "Enter a date like 2026-03-14.")
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), "That date doesn't exist.");
 
 const optionalNumber = (min: number, max: number, what: string) =>
   z
@@ -67,7 +64,7 @@ export type ClaimAnswers = z.output<typeof claimAnswersSchema>;
 export const createClaimSchema = z.object({
   pieceId: z.string().trim().min(1, "Choose the piece.").max(64),
   category: z.enum(CLAIM_CATEGORIES, "Choose what kind of damage it is."),
-  noticedOn: isoDate,
+  noticedOn: pastDate("Enter the date you noticed it, like 2026-03-14."),
   description: z
     .string()
     .trim()

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { isValidRegistrationCode, normalizeRegistrationCode } from "@/lib/care/registration-code";
 import { CARE_TASK_KINDS, SURFACES } from "@/lib/care/vocabulary";
+import { pastDate } from "./dates";
+import { patchOf } from "./patch";
 
 // The owner's side: shared by the forms (react-hook-form's zod resolver), the server actions and the
 // route handlers, so a form and its API answer with the same words.
@@ -27,10 +29,6 @@ export const registrationCodeField = z
 export const registrationSchema = z.object({ code: registrationCodeField });
 export type RegistrationInput = z.input<typeof registrationSchema>;
 
-const isoDate = z
-  .string({ message: "Pick the date you did it." })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, "Pick the date you did it.")
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), "That date doesn't exist.");
 
 /** "top" and "base" for a surface's task, "whole_piece" (stored as no surface) for the annual check. */
 export const CARE_LOG_SURFACES = [...SURFACES, "whole_piece"] as const;
@@ -38,14 +36,14 @@ export const CARE_LOG_SURFACES = [...SURFACES, "whole_piece"] as const;
 export const careLogSchema = z.object({
   taskKind: z.enum(CARE_TASK_KINDS, { message: "Pick what you did." }),
   surface: z.enum(CARE_LOG_SURFACES, { message: "Pick the part of the piece." }),
-  doneOn: isoDate,
+  doneOn: pastDate("Pick the date you did it."),
   notes: z.string().trim().max(1000, "Keep it under 1,000 characters.").default(""),
   productUsed: z.string().trim().max(200, "Keep it under 200 characters.").default(""),
 });
 export type CareLogInput = z.input<typeof careLogSchema>;
 export type CareLogValues = z.output<typeof careLogSchema>;
 
-export const careLogPatchSchema = careLogSchema.partial().refine((v) => Object.keys(v).length > 0, "Nothing to change.");
+export const careLogPatchSchema = patchOf(careLogSchema).refine((v) => Object.keys(v).length > 0, "Nothing to change.");
 export type CareLogPatch = z.output<typeof careLogPatchSchema>;
 
 function isTimeZone(tz: string): boolean {
@@ -62,7 +60,7 @@ export const preferencesSchema = z.object({
   timeZone: z.string().trim().min(1, "Pick your time zone.").max(64).refine(isTimeZone, "That isn't a time zone we know — pick one from the list."),
   unitSystem: z.enum(["metric", "imperial"], { message: "Pick metric or imperial." }),
 });
-export const preferencesPatchSchema = preferencesSchema.partial().refine((v) => Object.keys(v).length > 0, "Nothing to change.");
+export const preferencesPatchSchema = patchOf(preferencesSchema).refine((v) => Object.keys(v).length > 0, "Nothing to change.");
 export type PreferencesInput = z.input<typeof preferencesSchema>;
 export type PreferencesPatch = z.output<typeof preferencesPatchSchema>;
 

@@ -3,21 +3,12 @@
 import { z } from "zod";
 import { getSpecies } from "@/lib/care/species";
 import { FINISH_CLASSES, PIECE_KINDS, RESIN_KINDS, SHAPE_KINDS, SUN_EXPOSURES, SURFACES, USES } from "@/lib/care/vocabulary";
+import { filterDate, pastDate } from "./dates";
+import { patchOf } from "./patch";
 
-const DATE_RE = /^\d{4}-\d{2}-\d{2}$/;
-
-function isRealDate(s: string): boolean {
-  if (!DATE_RE.test(s)) return false;
-  const d = new Date(`${s}T00:00:00Z`);
-  return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
-}
-
-export const isoDate = z
-  .string({ error: "Enter a date." })
-  .trim()
-  .refine(isRealDate, "Use a real date, YYYY-MM-DD.");
-
-const optionalDate = isoDate.nullable().optional();
+/** A delivery, pour or finish-layer date: it has happened (1900 to tomorrow). */
+const pastOn = pastDate();
+const optionalDate = pastOn.nullable().optional();
 
 const lengthMm = (label: string, max = 20_000) =>
   z
@@ -33,12 +24,6 @@ const speciesId = z
   .trim()
   .min(1, "Pick a species.")
   .refine((id) => getSpecies(id) !== undefined, "Pick a species from the list.");
-
-/** The shape without its defaults, so a PATCH's absent fields stay absent (and keep their stored value). */
-type NoDefaults<T extends z.ZodRawShape> = { [K in keyof T]: T[K] extends z.ZodDefault<infer I> ? I : T[K] };
-function withoutDefaults<T extends z.ZodRawShape>(shape: T): NoDefaults<T> {
-  return Object.fromEntries(Object.entries(shape).map(([k, v]) => [k, v instanceof z.ZodDefault ? v.unwrap() : v])) as NoDefaults<T>;
-}
 
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters.`);
 
@@ -72,7 +57,7 @@ export const pieceFields = z.object({
   baseFinish: text(200).default(""),
   use: z.enum(USES, { error: "Pick how the piece is used." }),
   sun: z.enum(SUN_EXPOSURES).default("none"),
-  deliveredOn: isoDate,
+  deliveredOn: pastOn,
   deliveryAddress: text(500).default(""),
   internalNotes: text(5000).default(""),
 });
@@ -102,7 +87,7 @@ export type PieceInput = z.input<typeof pieceSchema>;
 export type PieceValues = z.output<typeof pieceSchema>;
 
 /** PATCH: any subset of the fields (the merged record is checked with pieceSchema), plus archiving. */
-export const piecePatchSchema = z.object(withoutDefaults(pieceFields.shape)).partial().extend({ archived: z.boolean().optional() });
+export const piecePatchSchema = patchOf(pieceFields).extend({ archived: z.boolean().optional() });
 export type PiecePatch = z.output<typeof piecePatchSchema>;
 
 export const layerFields = z.object({
@@ -111,7 +96,7 @@ export const layerFields = z.object({
   productId: z.string().trim().max(64).nullable().optional(),
   productLabel: text(200).default(""),
   coats: z.number({ error: "Coats must be a number." }).int("Whole coats.").min(1, "At least one coat.").max(20, "At most 20 coats."),
-  appliedOn: isoDate,
+  appliedOn: pastOn,
   appliedById: z.string().trim().max(64).nullable().optional(),
   batchLot: text(100).default(""),
   notes: text(2000).default(""),
@@ -121,7 +106,7 @@ export type LayerInput = z.input<typeof layerSchema>;
 export type LayerValues = z.output<typeof layerSchema>;
 
 /** PATCH of a layer: fields, and `position` to move it within its surface (0 = closest to the wood). */
-export const layerPatchSchema = z.object(withoutDefaults(layerFields.shape)).partial().extend({ position: z.number().int().min(0).max(200).optional() });
+export const layerPatchSchema = patchOf(layerFields).extend({ position: z.number().int().min(0).max(200).optional() });
 export type LayerPatch = z.output<typeof layerPatchSchema>;
 
 /** A new piece, optionally with its first finish layers (the CSV import and API clients use this). */
@@ -142,7 +127,7 @@ export const pieceListQuerySchema = z.preprocess(
     species: speciesId.optional(),
     finishClass: z.enum(FINISH_CLASSES).optional(),
     registered: z.enum(["yes", "no"]).optional(),
-    dueBefore: isoDate.optional(),
+    dueBefore: filterDate().optional(),
     warranty: z.enum(["active", "ended"]).optional(),
     archived: z.enum(["hide", "only"]).default("hide"),
     sort: z.enum(SORTS).optional(),
@@ -181,7 +166,7 @@ export const catalogProductSchema = z.object({
   safetyNotes: text(2000).default(""),
 });
 export type CatalogProductInput = z.input<typeof catalogProductSchema>;
-export const catalogPatchSchema = z.object(withoutDefaults(catalogProductSchema.shape)).partial().extend({ archived: z.boolean().optional() });
+export const catalogPatchSchema = patchOf(catalogProductSchema).extend({ archived: z.boolean().optional() });
 
 export const idParam = z.object({ id: z.string().min(1).max(64) });
 export const layerParams = z.object({ id: z.string().min(1).max(64), layerId: z.string().min(1).max(64) });

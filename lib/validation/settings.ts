@@ -4,16 +4,10 @@
 import { z } from "zod";
 import { CURRENCIES, CURRENCY_EXPONENTS } from "@/lib/care/quote";
 import { CLAIM_CATEGORIES, CLAIM_EXCLUSIONS, REMINDER_STEPS, SLOT_STEPS, STUDIO_ROLES } from "@/lib/care/vocabulary";
+import { policyDate } from "./dates";
 
 export const UNIT_SYSTEM_CHOICES = ["metric", "imperial"] as const;
 
-const DATE_RE = /^\d{4}-\d{2}-\d{2}$/;
-function isRealDate(s: string): boolean {
-  if (!DATE_RE.test(s)) return false;
-  const d = new Date(`${s}T00:00:00Z`);
-  return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
-}
-export const settingsDate = z.string({ error: "Enter a date." }).trim().refine(isRealDate, "Use a real date, YYYY-MM-DD.");
 
 export function isTimeZone(tz: string): boolean {
   try {
@@ -77,7 +71,7 @@ export const policyLineSchema = z
 export type PolicyLineInput = z.input<typeof policyLineSchema>;
 
 export const policyVersionSchema = z.object({
-  effectiveFrom: settingsDate,
+  effectiveFrom: policyDate(),
   lines: z.object(Object.fromEntries(CLAIM_CATEGORIES.map((c) => [c, policyLineSchema])) as Record<(typeof CLAIM_CATEGORIES)[number], typeof policyLineSchema>),
 });
 export type PolicyVersionInput = z.input<typeof policyVersionSchema>;

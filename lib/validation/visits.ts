@@ -3,11 +3,20 @@
 // an offset (or Z); local times "HH:MM" in the studio's time zone; dates "YYYY-MM-DD".
 import { z } from "zod";
 import { FINISH_CLASSES, SURFACES, VISIT_LOCATIONS } from "@/lib/care/vocabulary";
-import { isoDate } from "@/lib/validation/pieces";
+import { utcToday, visitDay, visitRecordDate, VISIT_YEARS_AHEAD } from "@/lib/validation/dates";
+import { addMonths } from "@/lib/care/dates";
 
 const id = z.string().trim().min(1).max(64);
 
-export const instant = z.iso.datetime({ offset: true, error: "Use an ISO 8601 instant, e.g. 2026-12-08T17:00:00Z." });
+/** An instant in the visit calendar's window (a year back to two years ahead), e.g. 2026-12-08T17:00:00Z. */
+export const instant = z.iso.datetime({ offset: true, error: "Use an ISO 8601 instant, e.g. 2026-12-08T17:00:00Z." }).superRefine((s, ctx) => {
+  const ms = Date.parse(s);
+  if (Number.isNaN(ms)) return; // the format check above has said so
+  const day = new Date(ms).toISOString().slice(0, 10);
+  const today = utcToday();
+  if (day < addMonths(today, -12)) ctx.addIssue({ code: "custom", message: "That is more than a year ago; check the date." });
+  else if (day > addMonths(today, 12 * VISIT_YEARS_AHEAD)) ctx.addIssue({ code: "custom", message: `Visits are planned up to ${VISIT_YEARS_AHEAD} years ahead; pick an earlier date.` });
+});
 
 const HHMM = /^([01]\d|2[0-3]):[0-5]\d$|^24:00$/;
 export const hhmm = z.string().trim().regex(HHMM, "Use a time like 09:00.");
@@ -62,7 +71,7 @@ const hoursRange = z
 
 const timeOff = z
   .object({
-    date: isoDate,
+    date: visitDay(),
     start: hhmm.nullable().optional(),
     end: hhmm.nullable().optional(),
     note: z.string().trim().max(200, "Keep the note under 200 characters.").default(""),
@@ -95,7 +104,7 @@ export const reportLayerSchema = z.object({
   productId: z.string().trim().max(64).nullable().optional(),
   productLabel: z.string().trim().max(200).default(""),
   coats: z.coerce.number({ error: "Coats must be a number." }).int("Whole coats.").min(1, "At least one coat.").max(20, "At most 20 coats."),
-  appliedOn: isoDate,
+  appliedOn: visitRecordDate(),
   batchLot: z.string().trim().max(100).default(""),
 });
 
@@ -113,7 +122,7 @@ export const visitPhotoKindSchema = z.enum(VISIT_PHOTO_KIND_VALUES, { error: "Sa
 
 /** The calendar's edit form: a local date and time in the studio's zone (turned into `start` for PATCH). */
 export const visitEditFormSchema = z.object({
-  date: isoDate,
+  date: visitDay(),
   time: hhmm,
   technicianId: id,
 });

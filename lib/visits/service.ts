@@ -34,6 +34,7 @@ import { checkLayerRefs, studioProducts } from "@/lib/pieces/registry";
 import { indexPiece } from "@/lib/pieces/search-index";
 import { moveJob } from "@/lib/repairs/jobs";
 import { MAX_UPLOAD_BYTES, removeStoredFiles, storeImage } from "@/lib/storage";
+import { visitDay } from "@/lib/validation/dates";
 import {
   bookVisitSchema,
   cancelVisitSchema,
@@ -401,7 +402,7 @@ function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[]): B
 export function technicianDay(ctx: StudioContext, opts: { date?: string; technicianId?: string } = {}, now = Date.now()) {
   const db = getDb();
   const tz = ctx.studio.timeZone;
-  const date = opts.date && /^\d{4}-\d{2}-\d{2}$/.test(opts.date) ? opts.date : localDate(now, tz);
+  const date = visitDay().safeParse(opts.date).data ?? localDate(now, tz);
   const technicianId = ctx.role === "technician" ? ctx.user.id : (opts.technicianId ?? ctx.user.id);
   if (ctx.role !== "technician" && opts.technicianId && !isStudioTechnician(db, ctx.studio.id, opts.technicianId)) throw notFound("No such technician.");
   const from = new Date(zonedTimeToEpochMs(date, 0, tz));
@@ -624,6 +625,6 @@ export function jobsAwaitingVisit(ctx: StudioContext) {
 /** Today and this week's Monday in the studio's time zone, for the calendar's first view. */
 export function calendarWeek(ctx: StudioContext, week?: string, now = Date.now()) {
   const today = localDate(now, ctx.studio.timeZone);
-  const base = week && /^\d{4}-\d{2}-\d{2}$/.test(week) && !Number.isNaN(Date.parse(`${week}T00:00:00Z`)) && new Date(`${week}T00:00:00Z`).toISOString().startsWith(week) ? week : today;
+  const base = visitDay().safeParse(week).data ?? today;
   return { today, monday: addDays(base, 1 - isoWeekday(base)) };
 }

@@ -160,6 +160,17 @@ describe("care log", () => {
     expect(getDb().select().from(careLogEntries).where(eq(careLogEntries.pieceId, piece.id)).all()).toHaveLength(0);
   });
 
+  it("a correction changes only the fields it sends: the notes and product stay when only the date is sent", async () => {
+    const { me, piece } = await ownedPiece();
+    const r = await addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-10", productUsed: "Hardwax oil", notes: "Two thin coats" }, null, NOW);
+    const fixed = await updateCareLogEntry(me, piece.id, r.entry.id, { doneOn: "2026-03-08" }, NOW);
+    expect(fixed.entry).toMatchObject({ doneOn: "2026-03-08", productUsed: "Hardwax oil", notes: "Two thin coats" });
+    const stored = getDb().select().from(careLogEntries).where(eq(careLogEntries.id, r.entry.id)).get()!;
+    expect(stored).toMatchObject({ doneOn: "2026-03-08", productUsed: "Hardwax oil", notes: "Two thin coats" });
+    // Sending a field empty on purpose still clears it.
+    expect((await updateCareLogEntry(me, piece.id, r.entry.id, { notes: "" }, NOW)).entry).toMatchObject({ notes: "", productUsed: "Hardwax oil" });
+  });
+
   it("stores an optional photo as a care_log_photo file, linked to the file route, and removes it with the entry", async () => {
     const { me, piece } = await ownedPiece();
     const png = await sharp({ create: { width: 64, height: 48, channels: 3, background: "#8a6a4a" } }).png().toBuffer();

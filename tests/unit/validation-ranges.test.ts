@@ -1,0 +1,87 @@
+// The shared date helper (lib/validation/dates.ts) in every schema that takes a date a person enters,
+// and the PATCH pattern (lib/validation/patch.ts): a field a PATCH does not send stays absent.
+import { describe, expect, it } from "vitest";
+import type { z } from "zod";
+import { CareInputError } from "@/lib/care/errors";
+import { addDays } from "@/lib/care/dates";
+import { claimRatesQuerySchema } from "@/lib/reports/query";
+import { auditQuerySchema } from "@/lib/studio/audit-query";
+import { asAppError } from "@/lib/validation/care-input";
+import * as claimsSchemas from "@/lib/validation/claims";
+import { filterDate, pastDate, policyDate, utcToday, visitDay } from "@/lib/validation/dates";
+import * as jobsSchemas from "@/lib/validation/jobs";
+import * as ownerSchemas from "@/lib/validation/owner";
+import * as piecesSchemas from "@/lib/validation/pieces";
+import * as remindersSchemas from "@/lib/validation/reminders";
+import * as settingsSchemas from "@/lib/validation/settings";
+import * as visitsSchemas from "@/lib/validation/visits";
+
+const issues = (r: { success: boolean; error?: z.ZodError }) => (r.success ? [] : r.error!.issues.map((i) => `${i.path.join(".")}: ${i.message}`));
+
+describe("date ranges", () => {
+  it("a past date (delivery, care, notice) is 1900 to tomorrow", () => {
+    const past = pastDate();
+    expect(past.safeParse("2020-02-29").success).toBe(true);
+    expect(past.safeParse("1900-01-01").success).toBe(true);
+    expect(past.safeParse(addDays(utcToday(), 1)).success).toBe(true);
+    expect(issues(past.safeParse(addDays(utcToday(), 2)))[0]).toMatch(/future/);
+    expect(issues(past.safeParse("9999-12-31"))[0]).toMatch(/future/);
+    expect(issues(past.safeParse("1899-12-31"))[0]).toMatch(/1900/);
+    expect(issues(past.safeParse("0001-01-01"))[0]).toMatch(/1900/);
+    expect(issues(past.safeParse("2021-02-29"))[0]).toMatch(/doesn't exist/);
+  });
+
+  it("a policy date is within ten years back and two ahead; a visit day within a year back and two ahead; a filter date 1900-2199", () => {
+    expect(policyDate().safeParse(utcToday()).success).toBe(true);
+    expect(policyDate().safeParse("9999-12-31").success).toBe(false);
+    expect(policyDate().safeParse("1990-01-01").success).toBe(false);
+    expect(visitDay().safeParse(addDays(utcToday(), 30)).success).toBe(true);
+    expect(visitDay().safeParse("9999-12-31").success).toBe(false);
+    expect(filterDate().safeParse("2150-06-01").success).toBe(true);
+    expect(filterDate().safeParse("9999-12-31").success).toBe(false);
+  });
+
+  it("every schema that takes a date refuses 9999-12-31 with a field error", () => {
+    const piece = { kind: "dining_table", title: "Invented table", shapeKind: "rectangle", lengthMm: 2000, widthMm: 900, primarySpeciesId: "black_walnut", use: "heavy", deliveredOn: "9999-12-31" };
+    expect(issues(piecesSchemas.pieceSchema.safeParse(piece))).toEqual([expect.stringMatching(/^deliveredOn: .*future/)]);
+    expect(issues(piecesSchemas.piecePatchSchema.safeParse({ resinPouredOn: "9999-12-31" }))).toEqual([expect.stringMatching(/^resinPouredOn:/)]);
+    expect(issues(piecesSchemas.layerSchema.safeParse({ surface: "top", finishClass: "hardwax_oil", coats: 1, appliedOn: "9999-12-31" }))).toEqual([expect.stringMatching(/^appliedOn:/)]);
+    expect(issues(ownerSchemas.careLogSchema.safeParse({ taskKind: "reoil", surface: "top", doneOn: "9999-12-31" }))).toEqual([expect.stringMatching(/^doneOn:/)]);
+    expect(issues(claimsSchemas.createClaimSchema.safeParse({ noticedOn: "9999-12-31" })).some((i) => i.startsWith("noticedOn:"))).toBe(true);
+    expect(issues(settingsSchemas.policyVersionSchema.safeParse({ effectiveFrom: "9999-12-31", lines: {} })).some((i) => i.startsWith("effectiveFrom:"))).toBe(true);
+    expect(issues(visitsSchemas.technicianHoursSchema.safeParse({ hours: [], timeOff: [{ date: "9999-12-31" }] }))).toEqual([expect.stringMatching(/^timeOff\.0\.date:/)]);
+    expect(issues(visitsSchemas.bookVisitSchema.safeParse({ jobId: "j", technicianId: "t", start: "9999-12-31T10:00:00Z" }))).toEqual([expect.stringMatching(/^start:/)]);
+    expect(issues(visitsSchemas.listVisitsQuerySchema.safeParse({ from: "9999-12-20T00:00:00Z", to: "9999-12-31T00:00:00Z" })).some((i) => i.startsWith("from:"))).toBe(true);
+    expect(issues(visitsSchemas.visitReportSchema.safeParse({ work: "Oiled", signOffName: "Invented Owner", layers: [{ finishClass: "hardwax_oil", coats: 1, appliedOn: "9999-12-31" }] }))).toEqual([expect.stringMatching(/^layers\.0\.appliedOn:/)]);
+    expect(issues(auditQuerySchema.safeParse({ to: "9999-12-31" }))).toEqual([expect.stringMatching(/^to:/)]);
+    expect(issues(claimRatesQuerySchema.safeParse({ to: "9999-12-31" }))).toEqual([expect.stringMatching(/^to:/)]);
+  });
+
+  it("the care engine's own input error is a 400 with plain words, never a 500", () => {
+    const e = asAppError(new CareInputError('date must be a date like 2025-03-02, got "10000-01-01"', "date"));
+    expect(e?.status).toBe(400);
+    expect(e?.code).toBe("out_of_range");
+    expect(e?.message).not.toMatch(/10000|must be/);
+    expect(asAppError(new Error("boom"))).toBeUndefined();
+  });
+});
+
+describe("PATCH schemas", () => {
+  const modules = { claimsSchemas, jobsSchemas, ownerSchemas, piecesSchemas, remindersSchemas, settingsSchemas, visitsSchemas };
+  const patches = Object.values(modules).flatMap((m) => Object.entries(m).filter(([name]) => /PatchSchema$/.test(name))) as [string, z.ZodType][];
+
+  it("finds the PATCH schemas", () => {
+    expect(patches.map(([n]) => n).sort()).toEqual(expect.arrayContaining(["careLogPatchSchema", "catalogPatchSchema", "layerPatchSchema", "piecePatchSchema", "preferencesPatchSchema"]));
+  });
+
+  it.each(patches)("%s fills in nothing that was not sent", (_name, schema) => {
+    const r = schema.safeParse({});
+    // Either "nothing to change", or nothing at all: never a default standing in for an absent field.
+    if (r.success) expect(r.data).toEqual({});
+  });
+
+  it("a care-log PATCH of the date alone is the date alone", () => {
+    expect(ownerSchemas.careLogPatchSchema.parse({ doneOn: "2026-03-08" })).toEqual({ doneOn: "2026-03-08" });
+    expect(ownerSchemas.preferencesPatchSchema.parse({ unitSystem: "imperial" })).toEqual({ unitSystem: "imperial" });
+  });
+});
