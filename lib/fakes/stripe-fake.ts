@@ -35,6 +35,7 @@ export type FakeSession = {
   livemode: false;
 };
 
+export type FakeCharge = { id: string; payment_intent: string; amount: number; amount_refunded: number; currency: string };
 export type FakeEvent = { id: string; object: "event"; type: string; created: number; api_version: string; livemode: false; data: { object: Json }; pending_webhooks: number };
 export type Delivery = { eventId: string; type: string; attempt: number; status: number | null; at: string };
 
@@ -53,6 +54,8 @@ export type StripeFake = {
   port: number;
   url: string;
   sessions(): FakeSession[];
+  /** Every captured charge with what has been refunded of it: the money that really moved. */
+  charges(): FakeCharge[];
   events(): FakeEvent[];
   deliveries(): Delivery[];
   /** Sends an event to the webhook again, as Stripe's "resend" does. */
@@ -124,7 +127,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   const sessions = new Map<string, FakeSession>();
   const events: FakeEvent[] = [];
   const deliveries: Delivery[] = [];
-  const charges = new Map<string, { id: string; payment_intent: string; amount: number; amount_refunded: number; currency: string }>();
+  const charges = new Map<string, FakeCharge>();
   const idempotency = new Map<string, { body: string; status: number; response: Json }>();
   const retryDelays = options.retryDelaysMs ?? [1000, 3000, 10000, 30000];
   const timers = new Set<NodeJS.Timeout>();
@@ -399,6 +402,7 @@ ${s.cancel_url ? `<form method="post" action="/pay/${s.id}/cancel"><button type=
     port,
     url: baseUrl,
     sessions: () => [...sessions.values()],
+    charges: () => [...charges.values()].map((c) => ({ ...c })),
     events: () => [...events],
     deliveries: () => [...deliveries],
     redeliver: async (eventId) => {

@@ -34,4 +34,20 @@ export async function callStripe<T>(what: string, fn: (stripe: Stripe) => Promis
   }
 }
 
+/**
+ * Expires an open Checkout Session so it can no longer take a payment, and returns the session as
+ * Stripe then holds it: expired, or (when the owner finished paying first) complete. Expiring a
+ * session that is no longer open is refused by Stripe; the session is read back instead.
+ */
+export async function expireCheckoutSession(sessionId: string): Promise<Stripe.Checkout.Session> {
+  return callStripe("close the open payment page", async (stripe) => {
+    try {
+      return await stripe.checkout.sessions.expire(sessionId);
+    } catch (e) {
+      if (e instanceof Stripe.errors.StripeInvalidRequestError && e.statusCode === 400) return stripe.checkout.sessions.retrieve(sessionId);
+      throw e;
+    }
+  });
+}
+
 export type { Stripe };

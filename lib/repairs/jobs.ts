@@ -146,22 +146,3 @@ export function moveJob(tx: Tx, job: RepairJob, to: RepairJob["state"], set: Par
   if (!updated) throw conflict("The job changed while you were working on it. Reload and try again.");
   return updated;
 }
-
-export function updateJobQuote(ctx: StudioContext, jobId: string, input: JobQuoteInput): RepairJob {
-  const { job, piece, studio } = getStudioJob(ctx, jobId);
-  if (!["draft", "quoted", "approved"].includes(job.state)) throw conflict("This job's quote can no longer be changed.");
-  const products = studioProducts(ctx.studio.id);
-  const unknown = input.productIds.filter((p) => !products.some((x) => x.id === p));
-  if (unknown.length) throw notFound("One of those products is not in this studio's catalog.");
-  const priced = priceJob(studio, piece, input, products);
-  return getDb().transaction((tx) => {
-    const set = { title: input.title, quoteInput: input, coveredPct: input.coveredPct, notes: input.notes, ...totals(priced) };
-    const updated =
-      job.state === "draft"
-        ? tx.update(repairJobs).set({ ...set, version: sql`${repairJobs.version} + 1`, updatedAt: new Date() }).where(and(eq(repairJobs.id, job.id), eq(repairJobs.version, job.version))).returning().get()
-        : moveJob(tx, job, "draft", set);
-    if (!updated) throw conflict("The job changed while you were working on it. Reload and try again.");
-    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.quote_edited", subjectType: "repair_job", subjectId: job.id, data: { totalMinor: priced.totalMinor } });
-    return updated;
-  });
-}

@@ -1,26 +1,54 @@
 import "server-only";
-import { and, eq } from "drizzle-orm";
+import { and, eq, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { payments, repairJobs, stripeEvents, type Payment, type RepairJob } from "@/db/schema";
+import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
 import { JobQuoteEmail } from "@/emails/job-quote";
-import { PaymentReceiptEmail } from "@/emails/payment-receipt";
-import { RefundIssuedEmail } from "@/emails/refund-issued";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
-import { formatMinorUnits } from "@/lib/care/quote";
 import { env } from "@/lib/env";
-import { badRequest, conflict } from "@/lib/errors";
+import { badRequest, conflict, notFound } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
-import { getOwnerJob, getStudioJob, moveJob, type JobView } from "./jobs";
-import { assertMove } from "./states";
+import type { JobQuoteInput } from "@/lib/validation/jobs";
+import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
+import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
+import { jobUrl, money } from "./mail";
+import { priceJob, totals } from "./pricing";
+import { assertMove, AWAITING_PAYMENT, OWNER_CAN_DECLINE, paymentCounts, QUOTE_EDITABLE } from "./states";
 
-export const money = (minor: number, currency: string) => `${formatMinorUnits(minor, currency)} ${currency}`;
-const jobUrl = (jobId: string, query = "") => new URL(`/jobs/${jobId}${query}`, env.APP_URL).href;
+const jobRow = (jobId: string) => getDb().select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
+
+/**
+ * Staff change the quote; a quoted or approved job goes back to draft until it is sent again. The
+ * checkout of the quote being replaced is closed at Stripe first, so it can't take the old amount.
+ */
+export async function updateJobQuote(ctx: StudioContext, jobId: string, input: JobQuoteInput): Promise<RepairJob> {
+  const { job, piece, studio, products } = getStudioJob(ctx, jobId);
+  if (!QUOTE_EDITABLE.includes(job.state)) throw conflict("This job's quote can no longer be changed.");
+  const unknown = input.productIds.filter((p) => !products.some((x) => x.id === p));
+  if (unknown.length) throw notFound("One of those products is not in this studio's catalog.");
+  const priced = priceJob(studio, piece, input, products);
+  await closeOpenCheckouts(job.id);
+  // The owner may have finished paying the old quote a moment ago: that payment stands.
+  const fresh = getStudioJob(ctx, jobId).job;
+  if (!QUOTE_EDITABLE.includes(fresh.state)) throw conflict(fresh.state === "paid" ? "The owner has just paid this quote, so it can no longer be changed." : "This job's quote can no longer be changed.");
+  return getDb().transaction((tx) => {
+    const set = { title: input.title, quoteInput: input, coveredPct: input.coveredPct, notes: input.notes, ...totals(priced) };
+    const updated =
+      fresh.state === "draft"
+        ? tx.update(repairJobs).set({ ...set, version: sql`${repairJobs.version} + 1`, updatedAt: new Date() }).where(and(eq(repairJobs.id, fresh.id), eq(repairJobs.version, fresh.version))).returning().get()
+        : moveJob(tx, fresh, "draft", set);
+    if (!updated) throw conflict("The job changed while you were working on it. Reload and try again.");
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.quote_edited", subjectType: "repair_job", subjectId: job.id, data: { totalMinor: priced.totalMinor } });
+    return updated;
+  });
+}
 
 /** Sends the quote to the owner. A job with nothing to pay becomes covered at once. */
 export async function sendQuote(ctx: StudioContext, jobId: string): Promise<RepairJob> {
+  // A new quote version: no checkout of an earlier one may stay open (closed when the quote was edited; again here in case).
+  await closeOpenCheckouts(jobId);
   const view = getStudioJob(ctx, jobId);
   const { job } = view;
   if (!view.owner) throw conflict("This piece has no registered owner to send the quote to.");
@@ -50,22 +78,24 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
 
 /**
  * The owner approves the quote. A chargeable job gets a Checkout Session (one per job, quote version
- * and attempt, so retries of the same click reuse it) and the owner is sent to its URL.
+ * and attempt, so retries of the same click reuse it), opened for the job's current quote version and
+ * amount, and the owner is sent to its URL.
  */
 export async function approveJob(user: Pick<User, "id" | "email">, jobId: string): Promise<{ checkoutUrl: string | null; job: RepairJob }> {
   const view = getOwnerJob(user, jobId);
   let { job } = view;
   if (job.totalMinor === 0) throw conflict("This job is fully covered: there is nothing to pay.");
   if (job.state === "quoted") {
-    job = getDb().transaction((tx) => moveJob(tx, job, "approved", { approvedAt: new Date() }));
-  } else if (job.state !== "approved") {
+    job = getDb().transaction((tx) => moveJob(tx, job, AWAITING_PAYMENT, { approvedAt: new Date() }));
+  } else if (job.state !== AWAITING_PAYMENT) {
     throw conflict(job.state === "paid" ? "This job is already paid." : "This quote can't be approved now.");
   }
-  const open = view.payments.find((p) => p.quoteVersion === job.quoteVersion && p.status === "open");
+  const open = view.payments.find((p) => p.quoteVersion === job.quoteVersion && p.amountMinor === job.totalMinor && p.status === "open");
   if (open?.checkoutUrl) {
     const live = await callStripe("check the open payment", (s) => s.checkout.sessions.retrieve(open.checkoutSessionId));
     if (live.status === "open" && live.url) return { checkoutUrl: live.url, job };
     await applySession(live);
+    if (jobRow(job.id).state !== AWAITING_PAYMENT) throw conflict("This job is already paid.");
   }
   const attempt = view.payments.filter((p) => p.quoteVersion === job.quoteVersion).length + 1;
   const session = await callStripe("start the payment", (stripe) => stripe.checkout.sessions.create(
@@ -94,57 +124,14 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
     .values({ studioId: job.studioId, jobId: job.id, quoteVersion: job.quoteVersion, checkoutSessionId: session.id, checkoutUrl: session.url, amountMinor: session.amount_total ?? job.totalMinor, currency: job.currency })
     .onConflictDoNothing()
     .run();
+  // The quote may have changed (or the job been paid or cancelled) while the session was being opened:
+  // then the new session is closed before anyone can pay it.
+  const now = jobRow(job.id);
+  if (now.state !== AWAITING_PAYMENT || now.quoteVersion !== job.quoteVersion || now.totalMinor !== job.totalMinor) {
+    await closeOpenCheckouts(job.id);
+    throw conflict(now.state === "paid" ? "This job is already paid." : "The quote changed while the payment page was opening. Reload the page to see the current quote.");
+  }
   return { checkoutUrl: session.url, job };
-}
-
-/** Brings our payment and job to what Stripe says of the session; safe to call any number of times. */
-export async function applySession(session: Stripe.Checkout.Session): Promise<{ paidNow: boolean }> {
-  const db = getDb();
-  const paidNow = db.transaction((tx) => {
-    const payment = tx.select().from(payments).where(eq(payments.checkoutSessionId, session.id)).get();
-    if (!payment) return false;
-    if (session.payment_status === "paid" && payment.status === "open") {
-      tx.update(payments)
-        .set({ status: "paid", paymentIntentId: typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null), paidAt: new Date(), updatedAt: new Date() })
-        .where(eq(payments.id, payment.id))
-        .run();
-      const job = tx.select().from(repairJobs).where(eq(repairJobs.id, payment.jobId)).get()!;
-      if (job.state === "approved" || job.state === "quoted") {
-        const paid = job.state === "quoted" ? moveJob(tx, moveJob(tx, job, "approved"), "paid", { paidAt: new Date() }) : moveJob(tx, job, "paid", { paidAt: new Date() });
-        recordAudit(tx, { studioId: job.studioId, actorId: null, action: "job.paid", subjectType: "repair_job", subjectId: paid.id, data: { checkoutSessionId: session.id, amountMinor: payment.amountMinor } });
-      }
-      return true;
-    }
-    if (session.status === "expired" && payment.status === "open") {
-      tx.update(payments).set({ status: "expired", updatedAt: new Date() }).where(eq(payments.id, payment.id)).run();
-    }
-    return false;
-  });
-  if (paidNow) await sendReceipt(session.id);
-  return { paidNow };
-}
-
-async function sendReceipt(sessionId: string) {
-  const db = getDb();
-  const payment = db.select().from(payments).where(eq(payments.checkoutSessionId, sessionId)).get();
-  if (!payment) return;
-  const job = db.select().from(repairJobs).where(eq(repairJobs.id, payment.jobId)).get();
-  if (!job?.ownerId) return;
-  const view = getOwnerJob({ id: job.ownerId }, job.id);
-  if (!view.owner) return;
-  await sendMail({
-    to: view.owner.email,
-    subject: `Receipt from ${view.studio.name}: ${money(payment.amountMinor, payment.currency)}`,
-    email: PaymentReceiptEmail({
-      ownerName: view.owner.name,
-      studioName: view.studio.name,
-      pieceTitle: view.piece.title,
-      amount: money(payment.amountMinor, payment.currency),
-      paidOn: new Date().toISOString().slice(0, 10),
-      reference: payment.paymentIntentId ?? payment.checkoutSessionId,
-      url: jobUrl(job.id),
-    }),
-  });
 }
 
 /** The owner came back from checkout: converge now rather than wait for the webhook. */
@@ -152,32 +139,6 @@ export async function syncReturnedCheckout(user: Pick<User, "id">, jobId: string
   const view = getOwnerJob(user, jobId);
   if (!view.payments.some((p) => p.checkoutSessionId === sessionId)) return;
   await applySession(await callStripe("confirm the payment", (s) => s.checkout.sessions.retrieve(sessionId)));
-}
-
-async function applyRefund(chargeId: string) {
-  const charge = await callStripe("read the refunded charge", (s) => s.charges.retrieve(chargeId));
-  const pi = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
-  if (!pi) return;
-  const db = getDb();
-  const refundedNow = db.transaction((tx) => {
-    const payment = tx.select().from(payments).where(eq(payments.paymentIntentId, pi)).get();
-    if (!payment || charge.amount_refunded <= payment.refundedMinor) return null;
-    const status: Payment["status"] = charge.amount_refunded >= payment.amountMinor ? "refunded" : "partially_refunded";
-    tx.update(payments).set({ refundedMinor: charge.amount_refunded, status, updatedAt: new Date() }).where(eq(payments.id, payment.id)).run();
-    recordAudit(tx, { studioId: payment.studioId, actorId: null, action: "payment.refunded", subjectType: "payment", subjectId: payment.id, data: { refundedMinor: charge.amount_refunded } });
-    return { payment, amount: charge.amount_refunded - payment.refundedMinor };
-  });
-  if (!refundedNow) return;
-  const job = db.select().from(repairJobs).where(eq(repairJobs.id, refundedNow.payment.jobId)).get();
-  if (!job?.ownerId) return;
-  const view = getOwnerJob({ id: job.ownerId }, job.id);
-  if (view.owner) {
-    await sendMail({
-      to: view.owner.email,
-      subject: `Refund from ${view.studio.name}`,
-      email: RefundIssuedEmail({ ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, amount: money(refundedNow.amount, refundedNow.payment.currency) }),
-    });
-  }
 }
 
 const HANDLED = new Set(["checkout.session.completed", "checkout.session.expired", "checkout.session.async_payment_succeeded", "charge.refunded"]);
@@ -207,28 +168,35 @@ export async function handleStripeWebhook(rawBody: string, signature: string | n
   return { received: true };
 }
 
-/** Cancels a job; a paid one is refunded through Stripe (the payment shows it when charge.refunded arrives). */
+/**
+ * Cancels a job. Open checkouts are closed at Stripe first (one the owner completed meanwhile is
+ * settled as Stripe reports it), then the job is cancelled and every payment that counted is marked to
+ * be refunded in the same transaction, and the refunds are asked of Stripe. If Stripe can't be reached
+ * for a refund, cancelling the (already cancelled) job again asks for what is still owed.
+ */
 export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User, "id"> }, jobId: string): Promise<RepairJob> {
-  const view: JobView = actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner!, jobId);
-  const { job } = view;
-  if (actor.owner && !["quoted", "approved"].includes(job.state)) throw conflict("Ask the studio to cancel a job that is already paid or booked.");
-  // Refuse a job that can't be cancelled (done, already cancelled) before any checkout is closed or payment refunded.
-  assertMove(job.state, "cancelled");
-  const paid = view.payments.find((p) => p.status === "paid" && p.paymentIntentId);
-  // Close open checkouts first, so a cancelled job can't be paid.
-  for (const p of view.payments.filter((x) => x.status === "open")) {
-    await getStripe().checkout.sessions.expire(p.checkoutSessionId).catch(() => undefined);
+  const load = () => (actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner!, jobId));
+  const check = (job: RepairJob) => {
+    if (actor.owner && !OWNER_CAN_DECLINE.includes(job.state)) throw conflict("Ask the studio to cancel a job that is already paid or booked.");
+    // Refuse a job that can't be cancelled (done, already cancelled) before any checkout is closed or payment refunded.
+    assertMove(job.state, "cancelled");
+  };
+  const before = load();
+  if (before.job.state === "cancelled" && actor.ctx && before.payments.some((p) => p.refundReason && !p.refundRequestedAt && p.status !== "refunded")) {
+    await settleRefunds(jobId);
+    return before.job;
   }
-  if (paid) {
-    await callStripe("refund the payment", (s) => s.refunds.create({ payment_intent: paid.paymentIntentId! }, { idempotencyKey: `refund-${paid.id}` }));
-  }
-  return getDb().transaction((tx) => {
-    const cancelled = moveJob(tx, job, "cancelled", { cancelledAt: new Date() });
-    for (const p of view.payments.filter((x) => x.status === "open")) {
-      tx.update(payments).set({ status: "expired", updatedAt: new Date() }).where(and(eq(payments.id, p.id), eq(payments.status, "open"))).run();
-    }
-    recordAudit(tx, { studioId: job.studioId, actorId: actor.ctx?.user.id ?? actor.owner?.id ?? null, action: "job.cancelled", subjectType: "repair_job", subjectId: job.id, data: { refunded: Boolean(paid) } });
-    return cancelled;
+  check(before.job);
+  await closeOpenCheckouts(jobId);
+  const { job, payments: jobPayments } = load();
+  check(job);
+  const toRefund = jobPayments.filter((p) => paymentCounts(p) && p.paymentIntentId);
+  const cancelled = getDb().transaction((tx) => {
+    const next = moveJob(tx, job, "cancelled", { cancelledAt: new Date() });
+    for (const p of toRefund) tx.update(payments).set({ refundReason: "job_cancelled", updatedAt: new Date() }).where(and(eq(payments.id, p.id), isNull(payments.refundReason))).run();
+    recordAudit(tx, { studioId: job.studioId, actorId: actor.ctx?.user.id ?? actor.owner?.id ?? null, action: "job.cancelled", subjectType: "repair_job", subjectId: job.id, data: { refunded: toRefund.length } });
+    return next;
   });
+  await settleRefunds(jobId);
+  return cancelled;
 }
-

@@ -1,4 +1,4 @@
-import type { RepairJob } from "@/db/schema";
+import type { Payment, RepairJob } from "@/db/schema";
 import { conflict } from "@/lib/errors";
 
 type JobState = RepairJob["state"];
@@ -27,6 +27,13 @@ export const JOB_STATE_LABELS: Record<JobState, string> = {
   cancelled: "Cancelled",
 };
 
+/** The one state in which a payment counts toward the job; leaving it closes the job's open checkouts. */
+export const AWAITING_PAYMENT = "approved" satisfies JobState;
+/** Staff may still change the quote (the change takes the job back to draft). */
+export const QUOTE_EDITABLE: readonly JobState[] = ["draft", "quoted", "approved"];
+/** The owner may decline these themselves; anything later is cancelled by the studio. */
+export const OWNER_CAN_DECLINE: readonly JobState[] = ["quoted", "approved"];
+
 export function canMove(from: JobState, to: JobState): boolean {
   return NEXT[from].includes(to);
 }
@@ -45,3 +52,33 @@ export const JOB_STATE_TONES: Record<JobState, "neutral" | "progress" | "waiting
   done: "ok",
   cancelled: "stopped",
 };
+
+type PaymentStatus = Payment["status"];
+export type RefundReason = NonNullable<Payment["refundReason"]>;
+
+/** Money taken and not (fully) given back: the statuses a payment can count toward its job in. */
+export const CAPTURED: readonly PaymentStatus[] = ["paid", "partially_refunded"];
+
+/** A captured payment that pays for the job: not set aside to be refunded. */
+export function paymentCounts(p: Pick<Payment, "status" | "refundReason">): boolean {
+  return CAPTURED.includes(p.status) && p.refundReason === null;
+}
+
+export const PAYMENT_STATUS_LABELS: Record<PaymentStatus, string> = {
+  open: "Payment page open",
+  paid: "Paid",
+  expired: "Payment page closed",
+  refunded: "Refunded",
+  partially_refunded: "Partly refunded",
+};
+
+/** Why a payment was given back, for staff (the owner's words are in the refund mail and on their page). */
+export const REFUND_REASON_LABELS: Record<RefundReason, string> = {
+  older_quote: "paid for an older quote",
+  already_paid: "the job was already paid",
+  not_awaiting_payment: "paid after the job stopped waiting for payment",
+  job_cancelled: "the job was cancelled",
+};
+
+/** The product refunds these on its own; staff see a flag on the job. */
+export const isAutomaticRefund = (reason: Payment["refundReason"]): reason is Exclude<RefundReason, "job_cancelled"> => reason !== null && reason !== "job_cancelled";

@@ -5,24 +5,37 @@ import type { AddressInfo } from "node:net";
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { payments, repairJobs, stripeEvents } from "@/db/schema";
+import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
 import { DECLINE_CARD, startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { AppError } from "@/lib/errors";
-import { getStudioJob, createJob, updateJobQuote } from "@/lib/repairs/jobs";
-import { approveJob, cancelJob, handleStripeWebhook, sendQuote } from "@/lib/repairs/payment";
+import { getStudioJob, createJob } from "@/lib/repairs/jobs";
+import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { getStripe } from "@/lib/payments/stripe";
 import { currencyExponent, quote } from "@/lib/care/quote";
-import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext } from "../support/fixtures";
+import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
 
 let fake: StripeFake;
 let receiver: http.Server;
 const webhookAnswers: number[] = [];
+// While held, deliveries wait at the receiver (the fake waits up to 10 s for an answer): the app has
+// not yet heard of payments the fake has already taken, as when webhooks are slow or out of order.
+let held: Promise<void> | null = null;
+let release = () => {};
+function holdWebhooks() {
+  held = new Promise<void>((r) => {
+    release = () => {
+      held = null;
+      r();
+    };
+  });
+}
 
 beforeAll(async () => {
   receiver = http.createServer(async (req, res) => {
     const chunks: Buffer[] = [];
     for await (const c of req) chunks.push(c as Buffer);
+    if (held) await held;
     try {
       await handleStripeWebhook(Buffer.concat(chunks).toString("utf8"), (req.headers["stripe-signature"] as string) ?? null);
       res.writeHead(200).end("{}");
@@ -64,14 +77,14 @@ async function payOnPage(url: string, card: string) {
 }
 
 async function quotedJob(currency = "USD", decision: "chargeable" | "partly_covered" | "covered" = "chargeable") {
-  const studio = createStudio({ currency, labourRateMinor: currency === "JPY" ? 9000 : 8500, travelFeeMinor: currency === "JPY" ? 3000 : 4500, taxRateBp: 825 });
+  const studio = createStudio({ email: `${unique("studio")}@test.example`, currency, labourRateMinor: currency === "JPY" ? 9000 : 8500, travelFeeMinor: currency === "JPY" ? 3000 : 4500, taxRateBp: 825 });
   const staff = await memberContext(studio, "staff");
   const owner = await createUser();
   const { piece } = createPiece(studio, { ownerId: owner.id });
   const product = createProduct(studio, { containers: [{ ml: 125, priceMinor: currency === "JPY" ? 2500 : 1900 }] });
   const claim = createAcceptedClaim(studio, piece.id, owner.id, decision, 40);
   const job = createJob(staff, "claim", claim.id);
-  updateJobQuote(staff, job.id, { title: "Refresh the top", tasks: ["reoil"], productIds: [product.id], coats: 1, travel: true, coveredPct: job.coveredPct, notes: "" });
+  await updateJobQuote(staff, job.id, { title: "Refresh the top", tasks: ["reoil"], productIds: [product.id], coats: 1, travel: true, coveredPct: job.coveredPct, notes: "" });
   await sendQuote(staff, job.id);
   return { studio, staff, owner, piece, product, job: getStudioJob(staff, job.id).job };
 }
@@ -204,5 +217,156 @@ describe("repair job payment through the Stripe fake", () => {
     await expect(approveJob(covered.owner, covered.job.id)).rejects.toMatchObject({ status: 409 });
     const other = await createUser();
     await expect(approveJob(other, covered.job.id)).rejects.toMatchObject({ status: 404 });
+  });
+});
+
+const jobRow = (jobId: string) => getDb().select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
+const paymentRows = (jobId: string) => getDb().select().from(payments).where(eq(payments.jobId, jobId)).all();
+const sessionOf = (url: string | null) => fake.sessions().find((s) => s.url === url)!;
+
+/** What the owner's card really paid for this job, net of refunds, as the fake holds it. */
+function netCharged(jobId: string) {
+  const intents = new Set(fake.sessions().filter((s) => s.client_reference_id === jobId && s.payment_intent).map((s) => s.payment_intent));
+  const charges = fake.charges().filter((c) => intents.has(c.payment_intent));
+  return { count: charges.length, net: charges.reduce((sum, c) => sum + c.amount - c.amount_refunded, 0), refunded: charges.filter((c) => c.amount_refunded === c.amount).length };
+}
+
+/** Staff re-price the job (two coats instead of one) and send the new quote. */
+async function requote(staff: Awaited<ReturnType<typeof quotedJob>>["staff"], jobId: string, productId: string) {
+  const before = getStudioJob(staff, jobId).job;
+  await updateJobQuote(staff, jobId, { title: "Refresh the top", tasks: ["reoil"], productIds: [productId], coats: 2, travel: true, coveredPct: before.coveredPct, notes: "" });
+  await sendQuote(staff, jobId);
+  return getStudioJob(staff, jobId).job;
+}
+
+/**
+ * A second Checkout Session for the job, opened through the SDK with the metadata and payments row an
+ * approval writes: what a checkout opened in the instant a quote changed (or on a second device at
+ * once) leaves behind, so that two completed payments can reach the app.
+ */
+async function extraCheckout(job: RepairJob, quoteVersion: number, amountMinor: number) {
+  const session = await getStripe().checkout.sessions.create({
+    mode: "payment",
+    client_reference_id: job.id,
+    metadata: { jobId: job.id, studioId: job.studioId, quoteVersion: String(quoteVersion) },
+    line_items: [{ quantity: 1, price_data: { currency: job.currency.toLowerCase(), unit_amount: amountMinor, product_data: { name: job.title } } }],
+    success_url: `http://localhost:3999/jobs/${job.id}?checkout=success&session_id={CHECKOUT_SESSION_ID}`,
+    cancel_url: `http://localhost:3999/jobs/${job.id}?checkout=cancelled`,
+  });
+  getDb().insert(payments).values({ studioId: job.studioId, jobId: job.id, quoteVersion, checkoutSessionId: session.id, checkoutUrl: session.url, amountMinor, currency: job.currency }).run();
+  return session;
+}
+
+describe("a checkout that no longer matches its job never pays it", () => {
+  it("stale session: after the quote changes and is sent again, the old checkout is closed and can't be paid; the new amount is what is charged", async () => {
+    const { owner, staff, job, product } = await quotedJob();
+    const first = await approveJob(owner, job.id);
+    const oldSession = sessionOf(first.checkoutUrl);
+
+    const requoted = await requote(staff, job.id, product.id);
+    expect(requoted.totalMinor).toBeGreaterThan(job.totalMinor);
+    expect(requoted.quoteVersion).toBe(job.quoteVersion + 1);
+    // Closed through the SDK when the quote changed: the payment service itself refuses it now.
+    expect(fake.sessions().find((s) => s.id === oldSession.id)!.status).toBe("expired");
+    const refused = await payOnPage(first.checkoutUrl!, SUCCESS_CARD);
+    expect(refused.status).toBeGreaterThanOrEqual(400);
+    await new Promise((r) => setTimeout(r, 300));
+    expect(jobRow(job.id).state).toBe("quoted");
+    expect(netCharged(job.id).count).toBe(0);
+    expect(paymentRows(job.id).find((p) => p.checkoutSessionId === oldSession.id)!.status).toBe("expired");
+
+    const second = await approveJob(owner, job.id);
+    const newSession = sessionOf(second.checkoutUrl);
+    expect(newSession.metadata.quoteVersion).toBe(String(requoted.quoteVersion));
+    expect(newSession.amount_total).toBe(requoted.totalMinor);
+    expect((await payOnPage(second.checkoutUrl!, SUCCESS_CARD)).status).toBe(303);
+    await until(() => jobRow(job.id).state === "paid");
+    expect(paymentRows(job.id).find((p) => p.checkoutSessionId === newSession.id)).toMatchObject({ status: "paid", quoteVersion: requoted.quoteVersion, amountMinor: requoted.totalMinor, refundReason: null });
+    expect(netCharged(job.id)).toMatchObject({ count: 1, net: requoted.totalMinor });
+  });
+
+  it("stale session: a checkout for the old quote that completes anyway is refunded automatically, the job is not paid at the old amount, and both sides are told", async () => {
+    const { owner, staff, studio, job, product } = await quotedJob();
+    await approveJob(owner, job.id);
+    const requoted = await requote(staff, job.id, product.id);
+    await approveJob(owner, job.id);
+    const stale = await extraCheckout(requoted, job.quoteVersion, job.totalMinor);
+
+    const since = new Date();
+    expect((await payOnPage(stale.url!, SUCCESS_CARD)).status).toBe(303);
+    const row = await until(() => paymentRows(job.id).find((p) => p.checkoutSessionId === stale.id && p.status === "refunded"));
+    expect(row).toMatchObject({ refundReason: "older_quote", refundedMinor: job.totalMinor, quoteVersion: job.quoteVersion });
+    expect(jobRow(job.id)).toMatchObject({ state: "approved", paidAt: null, totalMinor: requoted.totalMinor });
+    expect(netCharged(job.id)).toMatchObject({ count: 1, net: 0, refunded: 1 });
+
+    const amount = `${(job.totalMinor / 100).toFixed(2)} USD`;
+    const toOwner = await waitForMail({ to: owner.email, subject: /refund/i, since });
+    expect(toOwner.text).toContain(amount);
+    expect(toOwner.text).toMatch(/earlier version of the quote/i);
+    const toStudio = await waitForMail({ to: studio.email, subject: /refunded automatically/i, since });
+    expect(toStudio.text).toContain(amount);
+    expect((await listMail({ to: owner.email })).filter((m) => /receipt/i.test(m.subject))).toHaveLength(0);
+  });
+
+  it("double pay: two checkouts for one job both completed → the first counts, the second is refunded; cancelling then refunds the first too", async () => {
+    const { owner, staff, studio, job } = await quotedJob();
+    const first = await approveJob(owner, job.id);
+    const approved = jobRow(job.id);
+    const extra = await extraCheckout(approved, approved.quoteVersion, approved.totalMinor);
+
+    const since = new Date();
+    holdWebhooks();
+    expect((await payOnPage(first.checkoutUrl!, SUCCESS_CARD)).status).toBe(303);
+    expect((await payOnPage(extra.url!, SUCCESS_CARD)).status).toBe(303);
+    expect(netCharged(job.id)).toMatchObject({ count: 2, net: 2 * job.totalMinor });
+    release();
+
+    await until(() => paymentRows(job.id).some((p) => p.status === "refunded") && jobRow(job.id).state === "paid");
+    const rows = paymentRows(job.id);
+    expect(rows.filter((p) => p.status === "paid" && p.refundReason === null)).toHaveLength(1);
+    expect(rows.filter((p) => p.status === "refunded" && p.refundReason === "already_paid")).toHaveLength(1);
+    expect(netCharged(job.id)).toMatchObject({ count: 2, net: job.totalMinor, refunded: 1 });
+    await waitForMail({ to: owner.email, subject: /refund/i, since });
+    await waitForMail({ to: studio.email, subject: /refunded automatically/i, since });
+
+    const cancelled = await cancelJob({ ctx: staff }, job.id);
+    expect(cancelled.state).toBe("cancelled");
+    await until(() => paymentRows(job.id).every((p) => p.status === "refunded"));
+    expect(netCharged(job.id)).toMatchObject({ count: 2, net: 0, refunded: 2 });
+  });
+
+  it("cancel after two payments whose webhooks have not arrived yet: both are refunded, and replaying every event in reverse changes nothing", async () => {
+    const { owner, staff, job } = await quotedJob();
+    const first = await approveJob(owner, job.id);
+    const approved = jobRow(job.id);
+    const extra = await extraCheckout(approved, approved.quoteVersion, approved.totalMinor);
+
+    holdWebhooks();
+    await payOnPage(first.checkoutUrl!, SUCCESS_CARD);
+    await payOnPage(extra.url!, SUCCESS_CARD);
+    const cancelled = await cancelJob({ ctx: staff }, job.id);
+    expect(cancelled.state).toBe("cancelled");
+    release();
+
+    await until(() => paymentRows(job.id).every((p) => p.status === "refunded"));
+    expect(netCharged(job.id)).toMatchObject({ count: 2, net: 0, refunded: 2 });
+    expect(jobRow(job.id).state).toBe("cancelled");
+    await new Promise((r) => setTimeout(r, 300));
+    const settled = () => paymentRows(job.id).map((p) => ({ ...p, updatedAt: null }));
+    const rowsBefore = settled();
+    const mailBefore = (await listMail({ to: owner.email })).length;
+
+    const intents = new Set(fake.sessions().filter((s) => s.client_reference_id === job.id).map((s) => s.payment_intent));
+    const mine = fake.events().filter((e) => {
+      const o = e.data.object as { client_reference_id?: string; payment_intent?: string };
+      return o.client_reference_id === job.id || (o.payment_intent && intents.has(o.payment_intent));
+    });
+    expect(mine.length).toBeGreaterThanOrEqual(4);
+    for (const e of [...mine].reverse()) expect(await fake.redeliver(e.id)).toBe(200);
+    await new Promise((r) => setTimeout(r, 300));
+    expect(settled()).toEqual(rowsBefore);
+    expect(jobRow(job.id).state).toBe("cancelled");
+    expect(netCharged(job.id)).toMatchObject({ count: 2, net: 0, refunded: 2 });
+    expect((await listMail({ to: owner.email })).length).toBe(mailBefore);
   });
 });

@@ -2,7 +2,8 @@ import { NextResponse } from "next/server";
 import { requireStaff } from "@/lib/auth/guards";
 import { parseJson, route } from "@/lib/http/route";
 import { requireJobActor } from "@/lib/repairs/access";
-import { getOwnerJob, getStudioJob, updateJobQuote } from "@/lib/repairs/jobs";
+import { getOwnerJob, getStudioJob } from "@/lib/repairs/jobs";
+import { updateJobQuote } from "@/lib/repairs/payment";
 import { jobIdParams, jobQuoteSchema } from "@/lib/validation/jobs";
 
 export const GET = route<{ id: string }>(async (_req, { params }) => {
@@ -16,5 +17,5 @@ export const PATCH = route<{ id: string }>(async (req, { params }) => {
   const { id } = jobIdParams.parse(params);
   const ctx = await requireStaff();
   const input = await parseJson(req, jobQuoteSchema);
-  return NextResponse.json({ job: updateJobQuote(ctx, id, input) });
+  return NextResponse.json({ job: await updateJobQuote(ctx, id, input) });
 });
