@@ -28,6 +28,11 @@ const envSchema = z.object({
   STRIPE_API_PROTOCOL: z.enum(["http", "https"]).default("http"),
   /** Window of the sign-in, registration-code and reset rate limits, in seconds (tests shorten it). */
   RATE_LIMIT_WINDOW_SEC: z.coerce.number().int().min(1).max(86_400).default(900),
+  /**
+   * How many proxies in front of the app to believe in X-Forwarded-For (0: none, the socket's peer is
+   * the client). Set it to the number of reverse proxies that append to the header, no more.
+   */
+  TRUST_PROXY: z.coerce.number().int().min(0).max(10).default(0),
   /** Shows the outbox in production builds too (demo and tests run a production build). */
   OUTBOX_ENABLED: z
     .enum(["true", "false"])

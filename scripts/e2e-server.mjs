@@ -17,6 +17,9 @@ const env = {
   OUTBOX_ENABLED: "true",
   // Short rate-limit windows, so specs that trip a limit don't starve the ones after them.
   RATE_LIMIT_WINDOW_SEC: "20",
+  // Playwright stands in for one proxy: specs name the client's address in X-Forwarded-For (its
+  // rightmost entry) so that each gets rate-limit buckets of its own.
+  TRUST_PROXY: "1",
   STRIPE_API_HOST: "127.0.0.1",
   STRIPE_API_PORT: E2E.stripePort,
 };

@@ -1,8 +1,9 @@
 import "server-only";
 import { and, eq, gt, isNull } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Db } from "@/db/client";
 import { invitations, memberships, studios, userTokens, users } from "@/db/schema";
 import { PasswordResetEmail } from "@/emails/password-reset";
+import { SignUpAttemptEmail, signUpAttemptSubject } from "@/emails/sign-up-attempt";
 import { StaffInvitationEmail } from "@/emails/staff-invitation";
 import { VerifyEmail } from "@/emails/verify-email";
 import { recordAudit } from "@/lib/audit";
@@ -21,7 +22,8 @@ import type {
 } from "@/lib/validation/auth";
 import type { StudioContext } from "./guards";
 import { hashPassword, verifyAgainstDummy, verifyPassword } from "./password";
-import { consumeAttempt, resetAttempts } from "./rate-limit";
+import { afterAnswer } from "./after-answer";
+import { checkSignInAllowed, consumeAttempt, recordSignInFailure, recordSignInSuccess } from "./rate-limit";
 import { endAllSessions } from "./session";
 
 // Account flows. They check, write and mail; the caller starts the session (lib/auth/session.ts),
@@ -33,38 +35,56 @@ export const INVITATION_TTL_MS = 7 * 24 * HOUR;
 
 const link = (path: string) => new URL(path, env.APP_URL).href;
 
-export async function signUp(input: SignUpInput, ip: string) {
+/**
+ * Creates the account and mails its confirmation link, or, when the address already has an account,
+ * mails its owner instead. The caller's answer is the same either way ("check your inbox"), after the
+ * same work: the password is hashed in both cases and the mail goes out after the answer.
+ */
+export async function signUp(input: SignUpInput, ip: string): Promise<void> {
   await consumeAttempt([["signUpIp", ip]]);
-  const db = getDb();
-  const existing = db.select({ id: users.id }).from(users).where(eq(users.email, input.email)).get();
-  if (existing) {
-    throw badRequest("An account with this e-mail already exists.", {
-      email: ["An account with this e-mail already exists — sign in, or reset your password."],
-    });
-  }
-  const user = db
+  const passwordHash = await hashPassword(input.password);
+  const created = getDb()
     .insert(users)
-    .values({ email: input.email, name: input.name, passwordHash: await hashPassword(input.password) })
-    .returning()
+    .values({ email: input.email, name: input.name, passwordHash })
+    .onConflictDoNothing({ target: users.email })
+    .returning({ id: users.id })
     .get();
-  await sendVerificationEmail(user.id, input.next);
-  return user;
+  afterAnswer(() => (created ? sendVerificationEmail(created.id, input.next) : sendSignUpAttemptEmail(input.email, input.next)));
 }
 
-/** A wrong password and an unknown e-mail get the same answer, after the same work. */
+async function sendSignUpAttemptEmail(email: string, next?: string) {
+  const user = getDb().select().from(users).where(eq(users.email, email)).get();
+  if (!user) return;
+  await sendMail({
+    to: user.email,
+    subject: signUpAttemptSubject,
+    email: SignUpAttemptEmail({
+      name: user.name,
+      signInUrl: link(next ? `/sign-in?${new URLSearchParams({ next })}` : "/sign-in"),
+      resetUrl: link("/forgot-password"),
+    }),
+  });
+}
+
+/**
+ * A wrong password and an unknown e-mail get the same answer, after the same work. Failures slow the
+ * address that made them (lib/auth/rate-limit.ts); they never lock the account's owner out.
+ */
 export async function signIn(input: SignInInput, ip: string) {
-  await consumeAttempt([
-    ["signInIp", ip],
-    ["signInAccount", input.email],
-  ]);
+  await checkSignInAllowed(input.email, ip);
   const user = getDb().select().from(users).where(eq(users.email, input.email)).get();
   const ok = user ? await verifyPassword(user.passwordHash, input.password) : await verifyAgainstDummy(input.password);
-  if (!user || !ok) throw unauthorized("That e-mail and password don't match an account.");
-  await resetAttempts("signInAccount", input.email);
+  if (!user || !ok) {
+    await recordSignInFailure(input.email, ip);
+    throw unauthorized("That e-mail and password don't match an account.");
+  }
+  await recordSignInSuccess(input.email, ip);
   return user;
 }
 
-function issueToken(userId: string, purpose: "verify_email" | "password_reset", ttlMs: number): string {
+type TokenPurpose = "verify_email" | "password_reset";
+
+function issueToken(userId: string, purpose: TokenPurpose, ttlMs: number): string {
   const token = randomToken();
   getDb()
     .insert(userTokens)
@@ -73,25 +93,27 @@ function issueToken(userId: string, purpose: "verify_email" | "password_reset", 
   return token;
 }
 
+const usable = (token: string, purpose: TokenPurpose) =>
+  and(eq(userTokens.tokenHash, sha256Hex(token)), eq(userTokens.purpose, purpose), isNull(userTokens.usedAt), gt(userTokens.expiresAt, new Date()));
+
 /** Takes a single-use token: it must exist for this purpose, be unused and unexpired. */
-function takeToken(token: string, purpose: "verify_email" | "password_reset"): string | null {
-  const db = getDb();
-  return db.transaction((tx) => {
-    const row = tx
-      .update(userTokens)
-      .set({ usedAt: new Date() })
-      .where(
-        and(
-          eq(userTokens.tokenHash, sha256Hex(token)),
-          eq(userTokens.purpose, purpose),
-          isNull(userTokens.usedAt),
-          gt(userTokens.expiresAt, new Date()),
-        ),
-      )
-      .returning({ userId: userTokens.userId })
-      .get();
-    return row?.userId ?? null;
-  });
+function takeToken(token: string, purpose: TokenPurpose): string | null {
+  const row = getDb().update(userTokens).set({ usedAt: new Date() }).where(usable(token, purpose)).returning({ userId: userTokens.userId }).get();
+  return row?.userId ?? null;
+}
+
+/** Whether a token could be taken now, without taking it: a link's page shows its form or says it has expired. */
+export function isTokenUsable(token: string, purpose: TokenPurpose): boolean {
+  if (token.length < 10 || token.length > 200) return false;
+  return getDb().select({ id: userTokens.id }).from(userTokens).where(usable(token, purpose)).get() !== undefined;
+}
+
+/** After a reset or a password change, no reset link sent before it works any more. */
+function retireResetLinks(tx: Pick<Db, "update">, userId: string) {
+  tx.update(userTokens)
+    .set({ usedAt: new Date() })
+    .where(and(eq(userTokens.userId, userId), eq(userTokens.purpose, "password_reset"), isNull(userTokens.usedAt)))
+    .run();
 }
 
 export async function sendVerificationEmail(userId: string, next?: string) {
@@ -114,13 +136,20 @@ export function verifyEmail(token: string): string | null {
   return userId;
 }
 
-/** Always answers the same way, whether or not the address has an account. */
-export async function requestPasswordReset(input: ForgotPasswordInput, ip: string) {
+/**
+ * Always answers the same way, whether or not the address has an account, after the same work: the
+ * lookup, the link and the mail happen after the answer has gone.
+ */
+export async function requestPasswordReset(input: ForgotPasswordInput, ip: string): Promise<void> {
   await consumeAttempt([
     ["resetIp", ip],
     ["resetAccount", input.email],
   ]);
-  const user = getDb().select().from(users).where(eq(users.email, input.email)).get();
+  afterAnswer(() => sendPasswordResetEmail(input.email));
+}
+
+async function sendPasswordResetEmail(email: string) {
+  const user = getDb().select().from(users).where(eq(users.email, email)).get();
   if (!user) return;
   const token = issueToken(user.id, "password_reset", RESET_TOKEN_TTL_MS);
   await sendMail({
@@ -135,31 +164,36 @@ export async function requestPasswordReset(input: ForgotPasswordInput, ip: strin
 }
 
 export async function resetPassword(input: ResetPasswordInput) {
-  const userId = takeToken(input.token, "password_reset");
+  const passwordHash = await hashPassword(input.password);
+  const userId = getDb().transaction((tx) => {
+    const row = tx.update(userTokens).set({ usedAt: new Date() }).where(usable(input.token, "password_reset")).returning({ userId: userTokens.userId }).get();
+    if (!row) return null;
+    retireResetLinks(tx, row.userId);
+    // Following the link proves the address, so it also counts as verified.
+    tx.update(users).set({ passwordHash, emailVerifiedAt: new Date() }).where(eq(users.id, row.userId)).run();
+    return row.userId;
+  });
   if (!userId) {
     throw badRequest("This reset link has expired or was already used. Ask for a new one.", {
       token: ["This reset link has expired or was already used."],
     });
   }
-  const passwordHash = await hashPassword(input.password);
-  // Following the link proves the address, so it also counts as verified.
-  getDb()
-    .update(users)
-    .set({ passwordHash, emailVerifiedAt: new Date() })
-    .where(eq(users.id, userId))
-    .run();
   await endAllSessions(userId);
   return userId;
 }
 
 /** Changes the password after checking the current one, and ends every session (the caller starts a fresh one). */
 export async function changePassword(userId: string, input: ChangePasswordInput, ip: string) {
-  await consumeAttempt([["signInAccount", `change:${userId}`], ["signInIp", ip]]);
+  await consumeAttempt([["changePassword", userId], ["signInIp", ip]]);
   const user = getDb().select().from(users).where(eq(users.id, userId)).get();
   if (!user || !(await verifyPassword(user.passwordHash, input.current))) {
     throw badRequest("That isn't your current password.", { current: ["That isn't your current password."] });
   }
-  getDb().update(users).set({ passwordHash: await hashPassword(input.password) }).where(eq(users.id, userId)).run();
+  const passwordHash = await hashPassword(input.password);
+  getDb().transaction((tx) => {
+    tx.update(users).set({ passwordHash }).where(eq(users.id, userId)).run();
+    retireResetLinks(tx, userId);
+  });
   await endAllSessions(userId);
 }
 
@@ -228,26 +262,38 @@ export function findOpenInvitation(token: string) {
   );
 }
 
-/** Accepting creates the account when the invited address has none; the link proves the address. */
+/**
+ * Accepting creates the account when the invited address has none; the link proves the address.
+ * The invitation is taken by compare-and-set inside the transaction, so of two accepts at once (or an
+ * accept racing a withdrawal) exactly one makes a membership and the other is told it was used.
+ */
 export async function acceptInvitation(input: AcceptInvitationInput, signedInUserId: string | null) {
   const found = findOpenInvitation(input.token);
-  if (!found) throw notFound("This invitation has expired, was withdrawn, or was already used.");
+  if (!found) throw invitationGone();
   const { invitation } = found;
   const db = getDb();
   const existing = db.select().from(users).where(eq(users.email, invitation.email)).get();
-  if (existing && existing.id !== signedInUserId) {
-    throw badRequest("Sign in as the invited address first, then open the invitation again.");
-  }
+  if (existing && existing.id !== signedInUserId) throw signInFirst();
   const passwordHash = existing ? null : await hashPassword(input.password);
-  const userId = db.transaction((tx) => {
+  const result = db.transaction((tx) => {
+    const now = new Date();
+    const taken = tx
+      .update(invitations)
+      .set({ acceptedAt: now })
+      .where(and(eq(invitations.id, invitation.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, now)))
+      .returning({ id: invitations.id })
+      .get();
+    if (!taken) return null;
+    const current = tx.select().from(users).where(eq(users.email, invitation.email)).get();
+    // An account for the address appeared since the check above (rolls the transaction back).
+    if (current && current.id !== signedInUserId) throw signInFirst();
     const user =
-      existing ??
+      current ??
       tx
         .insert(users)
-        .values({ email: invitation.email, name: input.name, passwordHash: passwordHash!, emailVerifiedAt: new Date() })
+        .values({ email: invitation.email, name: input.name, passwordHash: passwordHash!, emailVerifiedAt: now })
         .returning()
         .get();
-    tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, invitation.id)).run();
     tx.insert(memberships)
       .values({ studioId: invitation.studioId, userId: user.id, role: invitation.role })
       .onConflictDoNothing()
@@ -260,7 +306,11 @@ export async function acceptInvitation(input: AcceptInvitationInput, signedInUse
       subjectId: user.id,
       data: { role: invitation.role },
     });
-    return user.id;
+    return { userId: user.id, newAccount: !current };
   });
-  return { userId, newAccount: !existing };
+  if (!result) throw invitationGone();
+  return result;
 }
+
+const invitationGone = () => notFound("This invitation has expired, was withdrawn, or was already used.");
+const signInFirst = () => badRequest("Sign in as the invited address first, then open the invitation again.");

@@ -3,14 +3,15 @@ import { env } from "@/lib/env";
 import { tooManyRequests } from "@/lib/errors";
 
 // In-memory limiters: the app is one Node.js process next to one SQLite file.
+const window = env.RATE_LIMIT_WINDOW_SEC;
 const limiters = {
-  signInAccount: new RateLimiterMemory({ keyPrefix: "signin-acct", points: 5, duration: env.RATE_LIMIT_WINDOW_SEC }),
-  signInIp: new RateLimiterMemory({ keyPrefix: "signin-ip", points: 100, duration: env.RATE_LIMIT_WINDOW_SEC }),
-  resetAccount: new RateLimiterMemory({ keyPrefix: "reset-acct", points: 3, duration: env.RATE_LIMIT_WINDOW_SEC }),
-  resetIp: new RateLimiterMemory({ keyPrefix: "reset-ip", points: 10, duration: env.RATE_LIMIT_WINDOW_SEC }),
-  signUpIp: new RateLimiterMemory({ keyPrefix: "signup-ip", points: 30, duration: env.RATE_LIMIT_WINDOW_SEC }),
-  codeAccount: new RateLimiterMemory({ keyPrefix: "code-acct", points: 10, duration: env.RATE_LIMIT_WINDOW_SEC }),
-  codeIp: new RateLimiterMemory({ keyPrefix: "code-ip", points: 20, duration: env.RATE_LIMIT_WINDOW_SEC }),
+  signInIp: new RateLimiterMemory({ keyPrefix: "signin-ip", points: 100, duration: window }),
+  changePassword: new RateLimiterMemory({ keyPrefix: "change-pw", points: 5, duration: window }),
+  resetAccount: new RateLimiterMemory({ keyPrefix: "reset-acct", points: 3, duration: window }),
+  resetIp: new RateLimiterMemory({ keyPrefix: "reset-ip", points: 10, duration: window }),
+  signUpIp: new RateLimiterMemory({ keyPrefix: "signup-ip", points: 30, duration: window }),
+  codeAccount: new RateLimiterMemory({ keyPrefix: "code-acct", points: 10, duration: window }),
+  codeIp: new RateLimiterMemory({ keyPrefix: "code-ip", points: 20, duration: window }),
 } as const;
 
 export type LimiterName = keyof typeof limiters;
@@ -33,4 +34,46 @@ export async function consumeAttempt(buckets: [LimiterName, string][]): Promise<
 
 export async function resetAttempts(name: LimiterName, key: string): Promise<void> {
   await limiters[name].delete(key);
+}
+
+// ---- sign-in ----
+// Wrong passwords must stay slow to guess without letting anyone lock an account by guessing badly
+// on purpose. Only failures count, and they count in two places:
+// - per account and address: after SIGN_IN_LIMITS.pairFailures wrong passwords, that address waits
+//   out the window for that account (and only that account);
+// - per account, from every address: past SIGN_IN_LIMITS.accountFailuresFree, each further failure
+//   makes every address that has already failed on the account wait twice as long as the last
+//   (1 s, 2 s, 4 s … up to the window) before its next try.
+// An address with no failure on the account is never held back for it, so the owner's own device
+// signs in with the right password while someone elsewhere is guessing.
+export const SIGN_IN_LIMITS = { pairFailures: 5, accountFailuresFree: 10, windowSec: window } as const;
+
+const signInPair = new RateLimiterMemory({ keyPrefix: "signin-pair", points: SIGN_IN_LIMITS.pairFailures, duration: window });
+const signInAccount = new RateLimiterMemory({ keyPrefix: "signin-acct", points: SIGN_IN_LIMITS.accountFailuresFree, duration: window });
+/** Blocked (by block()) while the account's addresses that have failed must wait. */
+const signInAccountWait = new RateLimiterMemory({ keyPrefix: "signin-wait", points: 1, duration: window });
+
+const pairKey = (account: string, ip: string) => JSON.stringify([account, ip]);
+const blocked = (res: RateLimiterRes | null, points: number) => res !== null && res.consumedPoints > points && res.msBeforeNext > 0;
+
+/** Before a password is checked: throws a 429 when this address must wait for this account. */
+export async function checkSignInAllowed(account: string, ip: string): Promise<void> {
+  await consumeAttempt([["signInIp", ip]]);
+  const pair = await signInPair.get(pairKey(account, ip));
+  if (!pair || pair.consumedPoints === 0) return;
+  if (pair.consumedPoints >= SIGN_IN_LIMITS.pairFailures) throw tooManyRequests(pair.msBeforeNext / 1000);
+  const wait = await signInAccountWait.get(account);
+  if (blocked(wait, 1)) throw tooManyRequests(wait!.msBeforeNext / 1000);
+}
+
+export async function recordSignInFailure(account: string, ip: string): Promise<void> {
+  await signInPair.penalty(pairKey(account, ip));
+  const { consumedPoints } = await signInAccount.penalty(account);
+  const over = consumedPoints - SIGN_IN_LIMITS.accountFailuresFree;
+  if (over > 0) await signInAccountWait.block(account, Math.min(2 ** (over - 1), window));
+}
+
+/** A right password clears this address's failures on the account (the account's own count stays). */
+export async function recordSignInSuccess(account: string, ip: string): Promise<void> {
+  await signInPair.delete(pairKey(account, ip));
 }

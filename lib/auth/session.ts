@@ -3,6 +3,7 @@ import { cookies, headers } from "next/headers";
 import { cache } from "react";
 import type { Session, User } from "lucia";
 import { sha256Hex, randomToken } from "@/lib/crypto";
+import { CLIENT_ADDRESS_HEADER, clientAddressFromHeader } from "./client-address";
 import { getLucia, SESSION_COOKIE } from "./lucia";
 
 export type SessionResult = { user: User; session: Session } | { user: null; session: null };
@@ -49,8 +50,7 @@ export async function endAllSessions(userId: string): Promise<void> {
   await getLucia().invalidateUserSessions(userId);
 }
 
-/** The caller's address as the proxy in front of the app reports it, for rate limits. */
+/** The caller's address for per-address rate limits (see lib/auth/client-address.ts and TRUST_PROXY). */
 export async function clientIp(): Promise<string> {
-  const h = await headers();
-  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
+  return clientAddressFromHeader((await headers()).get(CLIENT_ADDRESS_HEADER));
 }

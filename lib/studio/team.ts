@@ -6,6 +6,7 @@ import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { endAllSessions } from "@/lib/auth/session";
 import { conflict, forbidden, notFound } from "@/lib/errors";
+import { revokeInvitationSchema } from "@/lib/validation/auth";
 import { changeRoleSchema, removeMemberSchema } from "@/lib/validation/settings";
 
 export function listMembers(ctx: StudioContext) {
@@ -18,18 +19,15 @@ export function listMembers(ctx: StudioContext) {
     .all();
 }
 
+/** Invitations of the studio that can still be accepted. */
+const pending = (studioId: string) =>
+  and(eq(invitations.studioId, studioId), isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date()));
+
 export function listOpenInvitations(ctx: StudioContext) {
   return getDb()
-    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt })
+    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, createdAt: invitations.createdAt })
     .from(invitations)
-    .where(
-      and(
-        eq(invitations.studioId, ctx.studio.id),
-        isNull(invitations.acceptedAt),
-        isNull(invitations.revokedAt),
-        gt(invitations.expiresAt, new Date()),
-      ),
-    )
+    .where(pending(ctx.studio.id))
     .orderBy(desc(invitations.createdAt))
     .all();
 }
@@ -81,11 +79,42 @@ export async function removeMember(ctx: StudioContext, raw: unknown) {
     if (m.userId === ctx.user.id) throw conflict("You can't remove yourself; another admin can.");
     if (m.role === "admin" && adminCount(tx, ctx.studio.id) <= 1) throw conflict(`${m.name} is the studio's only admin and can't be removed.`);
     tx.delete(memberships).where(eq(memberships.id, m.id)).run();
-    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "member.removed", subjectType: "user", subjectId: m.userId, data: { name: m.name, email: m.email, role: m.role } });
+    // Any invitation still waiting for the address would let them straight back in.
+    const revoked = tx
+      .update(invitations)
+      .set({ revokedAt: new Date() })
+      .where(and(pending(ctx.studio.id), eq(invitations.email, m.email)))
+      .returning({ id: invitations.id })
+      .all();
+    recordAudit(tx, {
+      studioId: ctx.studio.id,
+      actorId: ctx.user.id,
+      action: "member.removed",
+      subjectType: "user",
+      subjectId: m.userId,
+      data: { name: m.name, email: m.email, role: m.role, invitationsWithdrawn: revoked.length },
+    });
     return m;
   });
   // Sessions are not per studio: ending them all signs the person out everywhere, which is what a
   // removal must do for this studio (they can sign in again as an owner, or for another studio).
   await endAllSessions(removed.userId);
   return removed;
+}
+
+/** Withdraws a pending invitation: its link stops working at once. Another studio's invitation is a 404. */
+export function revokeInvitation(ctx: StudioContext, raw: unknown) {
+  assertAdminRole(ctx);
+  const { invitationId } = revokeInvitationSchema.parse(raw);
+  return getDb().transaction((tx) => {
+    const row = tx
+      .update(invitations)
+      .set({ revokedAt: new Date() })
+      .where(and(eq(invitations.id, invitationId), pending(ctx.studio.id)))
+      .returning({ id: invitations.id, email: invitations.email, role: invitations.role })
+      .get();
+    if (!row) throw notFound("No such invitation waiting in this studio; it may have been used or withdrawn already.");
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "member.invitation_withdrawn", subjectType: "invitation", subjectId: row.id, data: { email: row.email, role: row.role } });
+    return row;
+  });
 }

@@ -48,18 +48,15 @@ export const inviteSchema = z.object({
 });
 export type InviteInput = z.infer<typeof inviteSchema>;
 
+export const revokeInvitationSchema = z.object({ invitationId: z.string({ error: "Pick an invitation." }).trim().min(1, "Pick an invitation.").max(64) });
+export type RevokeInvitationInput = z.input<typeof revokeInvitationSchema>;
+
 export const acceptInvitationSchema = z.object({
   token: z.string().min(10).max(200),
   name: z.string().trim().min(1, "Tell us your name.").max(120),
   password: newPasswordField,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
-
-/** Only same-site paths are accepted as a place to go after signing in. */
-export function safeNextPath(next: string | undefined | null): string | undefined {
-  if (!next || !next.startsWith("/") || next.startsWith("//") || next.startsWith("/\\")) return undefined;
-  return next;
-}
 
 export const changePasswordSchema = z
   .object({

@@ -1,19 +1,33 @@
-import { expect, test } from "@playwright/test";
+import { expect, test, type Page } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
 import { ACCOUNTS, SINK_URL, signIn } from "./helpers";
 
-test("sign up, verify through the e-mail at the sink, land verified", async ({ page }) => {
-  const email = `new-${Date.now()}@owners.example`;
+async function signUp(page: Page, email: string, name = "Avery Test (invented)") {
   await page.goto("/sign-up");
-  await page.getByLabel("Your name").fill("Avery Test (invented)");
+  await page.getByLabel("Your name").fill(name);
   await page.getByLabel("Email").fill(email);
   await page.getByLabel("Password").fill("a sentence for a password");
   await page.getByRole("button", { name: "Create account" }).click();
   await expect(page).toHaveURL(/\/verify-email\/sent/);
   await expect(page.getByText(email)).toBeVisible();
+}
+
+test("sign up, verify through the e-mail at the sink, land verified; a plain GET of the link (a mail scanner) uses nothing up", async ({ page, playwright }) => {
+  const email = `new-${Date.now()}@owners.example`;
+  await signUp(page, email);
 
   const mail = await waitForMail({ to: email, subject: /confirm/i, sinkUrl: SINK_URL });
   const link = extractLinks(mail.text).find((l) => l.includes("/verify-email?"))!;
+
+  // A scanner fetches the link, follows what it is sent to, and runs no script.
+  const scanner = await playwright.request.newContext();
+  for (let i = 0; i < 2; i++) {
+    const res = await scanner.get(link);
+    expect(res.status()).toBe(200);
+    expect(await res.text()).toContain("Confirm my e-mail address");
+  }
+  await scanner.dispose();
+
   await page.goto(link);
   await expect(page).toHaveURL(/\/pieces\?verified=1/);
   await expect(page.getByText("E-mail confirmed")).toBeVisible();
@@ -21,6 +35,41 @@ test("sign up, verify through the e-mail at the sink, land verified", async ({ p
   // The link is single-use.
   await page.goto(link);
   await expect(page.getByText("That link has expired or was already used")).toBeVisible();
+});
+
+test("without JavaScript, the button on the link's page confirms the address", async ({ page, browser }) => {
+  const email = `nojs-${Date.now()}@owners.example`;
+  await signUp(page, email);
+  const mail = await waitForMail({ to: email, subject: /confirm/i, sinkUrl: SINK_URL });
+  const link = extractLinks(mail.text).find((l) => l.includes("/verify-email?"))!;
+
+  const context = await browser.newContext({ javaScriptEnabled: false });
+  const noScript = await context.newPage();
+  await noScript.goto(link);
+  await expect(noScript).toHaveURL(/\/verify-email\?/);
+  await noScript.getByRole("button", { name: "Confirm my e-mail address" }).click();
+  await expect(noScript).toHaveURL(/\/pieces\?verified=1/);
+  await expect(noScript.getByText("E-mail confirmed")).toBeVisible();
+  await context.close();
+});
+
+test("signing up with an address that has an account answers exactly as for a new one; the owner is told by mail", async ({ page }) => {
+  const fresh = `fresh-${Date.now()}@owners.example`;
+  await signUp(page, fresh);
+  const newAnswer = (await page.getByRole("main").innerText()).replace(fresh, "<address>");
+  const newUrl = page.url().replace(encodeURIComponent(fresh), "<address>");
+  await page.context().clearCookies();
+
+  const since = new Date().toISOString();
+  await signUp(page, ACCOUNTS.otherOwner, "Someone Else (invented)");
+  expect((await page.getByRole("main").innerText()).replace(ACCOUNTS.otherOwner, "<address>")).toBe(newAnswer);
+  expect(page.url().replace(encodeURIComponent(ACCOUNTS.otherOwner), "<address>")).toBe(newUrl);
+
+  const mail = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /tried to create/i, sinkUrl: SINK_URL, since });
+  expect(mail.text).toMatch(/already has an account/);
+  // Nothing changed: the owner still signs in with their own password.
+  await signIn(page, ACCOUNTS.otherOwner);
+  await expect(page).toHaveURL(/\/pieces$/);
 });
 
 test("sign-up form errors show next to their fields and keep what was typed", async ({ page }) => {
@@ -83,4 +132,28 @@ test("an admin invites a technician, who joins from the e-mail", async ({ page, 
   await invitee.getByLabel("Password").fill("a long technician password");
   await invitee.getByRole("button", { name: "Join the studio" }).click();
   await expect(invitee).toHaveURL(/\/studio\/today$/);
+});
+
+test("an admin withdraws a pending invitation; its link no longer works", async ({ page, browser }) => {
+  const email = `withdrawn-${Date.now()}@larchmere.example`;
+  await signIn(page, ACCOUNTS.admin);
+  await page.goto("/studio/team");
+  await page.getByLabel("Email", { exact: true }).fill(email);
+  await page.getByLabel("Role", { exact: true }).selectOption("admin");
+  await page.getByRole("button", { name: "Send invitation" }).click();
+  await expect(page.getByText(`Invitation sent to ${email}.`)).toBeVisible();
+  const mail = await waitForMail({ to: email, subject: /invited you/i, sinkUrl: SINK_URL });
+  const link = extractLinks(mail.text).find((l) => l.includes("/invite/"))!;
+
+  const waiting = page.getByRole("list", { name: "Invitations waiting" }).getByRole("listitem").filter({ hasText: email });
+  await expect(waiting).toContainText("Admin");
+  await waiting.getByRole("button", { name: /Withdraw/ }).click();
+  await page.getByRole("dialog").getByRole("button", { name: "Withdraw the invitation" }).click();
+  await expect(page.getByText(`The invitation for ${email} was withdrawn.`)).toBeVisible();
+  await expect(waiting).toHaveCount(0);
+
+  const invitee = await (await browser.newContext()).newPage();
+  await invitee.goto(link);
+  await expect(invitee.getByText("Expired, withdrawn or already used")).toBeVisible();
+  await expect(invitee.getByRole("button", { name: "Join the studio" })).toHaveCount(0);
 });

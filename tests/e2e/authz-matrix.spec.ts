@@ -195,7 +195,6 @@ const visitWindow = () => `from=${encodeURIComponent(future(-20))}&to=${encodeUR
 // that already has a full row, where the request would change something for that role).
 const ROUTES: RouteRow[] = [
   // Public: the same answer for everyone.
-  { route: "GET /verify-email", expect: "303:/verify-email/sent ".repeat(8), send: ({ api }) => api.get("/verify-email?token=matrix-not-a-real-token") },
   { route: "GET /home", expect: "303:/sign-in 303:/pieces 303:/pieces 303:/studio/today 303:/studio 303:/studio 303:/studio 303:/studio", send: ({ api }) => api.get("/home") },
   { route: "GET /api/health", expect: "200 ".repeat(8), send: ({ api }) => api.get("/api/health") },
   // Exists only during a benchmark run (GRAINWARD_BENCH_JSON), never in the e2e server.
@@ -450,6 +449,8 @@ const ACTIONS: ActionRow[] = [
     expect: "404 ".repeat(8),
     args: () => ({ json: [{ token: "matrix-not-a-real-invitation", name: "Nobody (invented)", password: newPassword }] }),
   },
+  // The verification link's page posts this; a made-up token confirms nothing, for anyone.
+  { action: "app/(public)/verify-email/actions.ts#confirmEmailAction", expect: "→/verify-email/sent ".repeat(8), args: () => ({ form: { token: "matrix-not-a-real-verification-token" } }) },
   { action: "app/(public)/offers/[token]/actions.ts#acceptOfferAction", expect: "→/offers/* ".repeat(8), args: () => ({ form: { token: "matrix-not-a-real-offer-token" } }) },
   { action: "app/(public)/unsubscribe/actions.ts#setRemindersAction", expect: "→/unsubscribe ".repeat(8), args: () => ({ form: { t: "short" } }) },
 
@@ -519,6 +520,13 @@ const ACTIONS: ActionRow[] = [
     expect: "401 403 403 403 403 409 403 404",
     messages: { "409": /^You can't remove yourself/ },
     args: () => ({ json: [{ membershipId: X.adminMembershipId }] }),
+  },
+
+  // An invitation id that names nothing: admins get past the guard to the lookup (404), so does the other studio's admin.
+  {
+    action: "app/studio/team/actions.ts#revokeInvitationAction",
+    expect: "401 403 403 403 403 404 403 404",
+    args: () => ({ json: [{ invitationId: "matrix-not-a-real-invitation" }] }),
   },
 
   // Last: signing out ends each of this spec's sessions (checked with /api/me afterwards).

@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test, type Page } from "@playwright/test";
 import { ACCOUNTS, PASSWORD, signIn } from "./helpers";
 
 const HOMES = [
@@ -54,4 +54,64 @@ test("the form checks on the client once its schema has loaded: a malformed e-ma
   await page.getByLabel("Email").fill(ACCOUNTS.owner);
   await page.getByLabel("Password").focus();
   await expect(page.getByText("Enter an e-mail address like name@example.com.")).toBeHidden();
+});
+
+// ---- where sign-in sends you next (issue 16, item 4) ----
+// Chromium drops tabs and newlines from a URL and reads "\" as "/": "/\t/evil.example" is
+// "//evil.example" to it, another host. evil.example is answered here by a stub so a wrong turn shows.
+
+async function signInWithNext(page: Page, next: string) {
+  await page.route(/^https?:\/\/evil\.example\//, (route) => route.fulfill({ status: 200, contentType: "text/html", body: "<h1>another site</h1>" }));
+  const landing = await page.goto(`/sign-in?next=${encodeURIComponent(next)}`);
+  expect(landing?.status()).toBe(200);
+  await page.getByLabel("Email").fill(ACCOUNTS.otherOwner);
+  await page.getByLabel("Password").fill(PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).not.toHaveURL(/\/sign-in/);
+  await page.waitForLoadState();
+  return new URL(page.url());
+}
+
+for (const [what, next] of [
+  ["a tab", "/\t/evil.example"],
+  ["a newline", "/\n/evil.example"],
+  ["a backslash", "/\\evil.example"],
+  ["dot segments", "/..//evil.example"],
+] as const) {
+  test(`a return path with ${what} that a browser would read as another site leads home instead`, async ({ page }) => {
+    const errors: number[] = [];
+    page.on("response", (r) => {
+      if (r.status() >= 500) errors.push(r.status());
+    });
+    const url = await signInWithNext(page, next);
+    expect(url.host).toBe("localhost:3100");
+    expect(url.pathname).toBe("/pieces");
+    await expect(page.getByRole("heading", { level: 1, name: "My pieces" })).toBeVisible();
+    expect(errors).toEqual([]);
+  });
+}
+
+test("a same-site return path is kept", async ({ page }) => {
+  const url = await signInWithNext(page, "/account");
+  expect(`${url.host}${url.pathname}`).toBe("localhost:3100/account");
+});
+
+// ---- per-address limits believe only the proxies they are told to (issue 16, item 6) ----
+// The e2e server runs with TRUST_PROXY=1, Playwright standing in for that one proxy: the rightmost
+// X-Forwarded-For entry is the address it was reached from; whatever a client wrote to its left is not.
+test("a made-up X-Forwarded-For entry does not get round the per-address limit on reset links", async ({ page, context }) => {
+  const address = `203.0.113.${(Date.now() % 200) + 20}`;
+  let limited = false;
+  for (let i = 0; i < 12 && !limited; i++) {
+    await context.setExtraHTTPHeaders({ "x-forwarded-for": `198.51.100.${i + 1}, ${address}` });
+    await page.goto("/forgot-password");
+    await page.getByLabel("Email").fill(`nobody-${Date.now()}-${i}@owners.example`);
+    await page.getByRole("button", { name: "Send me a reset link" }).click();
+    const outcome = page.getByText("Check your inbox").or(page.getByText(/^Too many attempts/));
+    await expect(outcome).toBeVisible();
+    limited = await page.getByText(/^Too many attempts/).isVisible();
+    // The limit is 10 a window per address: the first 10 go through.
+    if (i < 10) expect(limited, `request ${i + 1}`).toBe(false);
+  }
+  expect(limited).toBe(true);
 });

@@ -18,6 +18,7 @@ const { mailQueue } = await import("@/db/schema");
 const { startSmtpSink } = await import("@/lib/fakes/smtp-sink");
 const { MAIL_MAX_ATTEMPTS, MAIL_RETRY_BACKOFF_MIN, retryQueuedMail, sendMail, sendMailNow } = await import("@/lib/mail");
 const { requestPasswordReset, resetPassword } = await import("@/lib/auth/accounts");
+const { settleAfterAnswer } = await import("@/lib/auth/after-answer");
 const { ownDatabaseFile } = await import("./reminders-helpers");
 const { createUser } = await import("../support/fixtures");
 
@@ -43,6 +44,7 @@ describe("mail SMTP refuses", () => {
     await down();
     const t0 = Date.now();
     await expect(requestPasswordReset({ email: user.email }, "10.0.0.1")).resolves.toBeUndefined();
+    await settleAfterAnswer(); // the link and its mail are made after the answer has gone
     const [row] = queued();
     expect(row).toMatchObject({ status: "waiting", attempts: 1, to: [user.email], subject: "Reset your Grainward password" });
     expect(row!.lastError).toMatch(/^try 1: .*ECONNREFUSED/);

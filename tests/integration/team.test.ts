@@ -3,13 +3,15 @@
 import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, memberships, sessions, type Studio } from "@/db/schema";
+import { auditLog, invitations, memberships, sessions, users, type Studio } from "@/db/schema";
+import { acceptInvitation, inviteMember } from "@/lib/auth/accounts";
 import type { StudioContext } from "@/lib/auth/guards";
 import { getLucia } from "@/lib/auth/lucia";
 import { sha256Hex } from "@/lib/crypto";
 import { AppError } from "@/lib/errors";
-import { changeMemberRole, listMembers, removeMember } from "@/lib/studio/team";
-import { createStudio, memberContext } from "../support/fixtures";
+import { changeMemberRole, listMembers, listOpenInvitations, removeMember, revokeInvitation } from "@/lib/studio/team";
+import { extractLinks, waitForMail } from "../support/mail";
+import { createStudio, memberContext, unique } from "../support/fixtures";
 
 function membershipOf(studio: Studio, ctx: StudioContext) {
   return getDb().select().from(memberships).where(and(eq(memberships.studioId, studio.id), eq(memberships.userId, ctx.user.id))).get()!;
@@ -95,5 +97,92 @@ describe("team changes", () => {
     // Promoting is fine, and so is demoting an admin while another remains.
     expect(changeMemberRole(admin, { membershipId: membershipOf(studio, staff).id, role: "admin" }).role).toBe("admin");
     expect(changeMemberRole(admin, { membershipId: membershipOf(studio, admin).id, role: "technician" }).role).toBe("technician");
+  });
+});
+
+/** Sends an invitation and returns it with the token from the link in its e-mail (read at the sink). */
+async function invite(admin: StudioContext, email: string, role: "admin" | "staff" | "technician") {
+  const since = new Date();
+  const invitation = await inviteMember(admin, { email, role });
+  const mail = await waitForMail({ to: email, subject: /invited you/i, since });
+  const link = extractLinks(mail.text).find((l) => l.includes("/invite/"))!;
+  return { invitation, token: decodeURIComponent(new URL(link).pathname.split("/").pop()!) };
+}
+
+const membershipsOf = (studio: Studio, email: string) =>
+  getDb()
+    .select({ role: memberships.role })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.studioId, studio.id), eq(users.email, email)))
+    .all();
+
+describe("invitations", () => {
+  it("an admin sees a pending invitation and withdraws it; its link stops working", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    const email = `${unique("invitee")}@test.example`;
+    const { invitation, token } = await invite(admin, email, "staff");
+    expect(listOpenInvitations(admin).map((i) => i.id)).toEqual([invitation.id]);
+
+    const withdrawn = revokeInvitation(admin, { invitationId: invitation.id });
+    expect(withdrawn.email).toBe(email);
+    expect(listOpenInvitations(admin)).toHaveLength(0);
+    await expectStatus(() => acceptInvitation({ token, name: "Too Late (invented)", password: "a long enough password" }, null), 404);
+    expect(membershipsOf(studio, email)).toHaveLength(0);
+    // Withdrawing it again: it is no longer waiting.
+    await expectStatus(() => revokeInvitation(admin, { invitationId: invitation.id }), 404);
+    const audit = getDb().select().from(auditLog).where(and(eq(auditLog.studioId, studio.id), eq(auditLog.action, "member.invitation_withdrawn"))).all();
+    expect(audit.map((a) => a.subjectId)).toEqual([invitation.id]);
+  });
+
+  it("only the studio's admins withdraw its invitations; another studio's admin gets a 404", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    const staff = await memberContext(studio, "staff");
+    const otherAdmin = await memberContext(createStudio(), "admin");
+    const { invitation } = await invite(admin, `${unique("invitee")}@test.example`, "technician");
+    await expectStatus(() => revokeInvitation(staff, { invitationId: invitation.id }), 403);
+    await expectStatus(() => revokeInvitation(otherAdmin, { invitationId: invitation.id }), 404);
+    expect(listOpenInvitations(otherAdmin)).toHaveLength(0);
+    expect(listOpenInvitations(admin).map((i) => i.id)).toEqual([invitation.id]);
+  });
+
+  it("removing a member withdraws every invitation still waiting for their address, so they can't come back in with one", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    const email = `${unique("former")}@test.example`;
+    // They joined as staff, and had also been sent an admin invitation they never used.
+    const joined = await invite(admin, email, "staff");
+    const spare = await invite(admin, email, "admin");
+    const { userId } = await acceptInvitation({ token: joined.token, name: "Former Staff (invented)", password: "a long enough password" }, null);
+    const other = createStudio();
+    const otherAdmin = await memberContext(other, "admin");
+    const elsewhere = await invite(otherAdmin, email, "technician");
+
+    const membershipId = getDb().select().from(memberships).where(and(eq(memberships.studioId, studio.id), eq(memberships.userId, userId))).get()!.id;
+    await removeMember(admin, { membershipId });
+    expect(getDb().select().from(invitations).where(eq(invitations.id, spare.invitation.id)).get()!.revokedAt).toBeInstanceOf(Date);
+    await expectStatus(() => acceptInvitation({ token: spare.token, name: "x", password: "a long enough password" }, userId), 404);
+    expect(membershipsOf(studio, email)).toHaveLength(0);
+    // Another studio's invitation to the same address is that studio's business.
+    expect(listOpenInvitations(otherAdmin).map((i) => i.id)).toEqual([elsewhere.invitation.id]);
+  });
+
+  it("an invitation accepted twice at once makes one account and one membership; the other accept is told it was used", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    const email = `${unique("double")}@test.example`;
+    const { token } = await invite(admin, email, "technician");
+    const accept = () => acceptInvitation({ token, name: "Double Click (invented)", password: "a long enough password" }, null);
+    const results = await Promise.allSettled([accept(), accept()]);
+    const fulfilled = results.filter((r) => r.status === "fulfilled");
+    const rejected = results.filter((r): r is PromiseRejectedResult => r.status === "rejected");
+    expect(fulfilled).toHaveLength(1);
+    expect(rejected).toHaveLength(1);
+    expect(rejected[0]!.reason).toBeInstanceOf(AppError);
+    expect((rejected[0]!.reason as AppError).status).toBe(404);
+    expect(getDb().select().from(users).where(eq(users.email, email)).all()).toHaveLength(1);
+    expect(membershipsOf(studio, email)).toEqual([{ role: "technician" }]);
   });
 });

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { AuthCard } from "@/components/auth/auth-card";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { Notice } from "@/components/ui/notice";
-import { safeNextPath } from "@/lib/validation/auth";
+import { safeNextPath } from "@/lib/auth/next-path";
 import { signInAction } from "./actions";
 
 export const metadata: Metadata = { title: "Sign in" };

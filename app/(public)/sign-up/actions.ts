@@ -2,12 +2,15 @@
 
 import { redirect } from "next/navigation";
 import { signUp } from "@/lib/auth/accounts";
-import { clientIp, startSession } from "@/lib/auth/session";
+import { safeNextPath } from "@/lib/auth/next-path";
+import { clientIp } from "@/lib/auth/session";
 import { validatedAction } from "@/lib/validation/action";
-import { safeNextPath, signUpSchema } from "@/lib/validation/auth";
+import { signUpSchema } from "@/lib/validation/auth";
 
+// The same answer whether or not the address already has an account (its owner gets a mail instead),
+// so no session starts here: the confirmation link signs the new owner in.
 export const signUpAction = validatedAction(signUpSchema, async (input) => {
-  const user = await signUp({ ...input, next: safeNextPath(input.next) }, await clientIp());
-  await startSession(user.id);
-  redirect(`/verify-email/sent${input.next ? `?next=${encodeURIComponent(input.next)}` : ""}`);
+  const next = safeNextPath(input.next);
+  await signUp({ ...input, next }, await clientIp());
+  redirect(`/verify-email/sent?${new URLSearchParams({ to: input.email, ...(next ? { next } : {}) })}`);
 });

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { AuthCard } from "@/components/auth/auth-card";
 import { SignUpForm } from "@/components/auth/sign-up-form";
-import { safeNextPath } from "@/lib/validation/auth";
+import { safeNextPath } from "@/lib/auth/next-path";
 import { signUpAction } from "./actions";
 
 export const metadata: Metadata = { title: "Create an account" };

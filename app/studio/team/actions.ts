@@ -3,9 +3,9 @@
 import { revalidatePath } from "next/cache";
 import { inviteMember } from "@/lib/auth/accounts";
 import { requireAdmin } from "@/lib/auth/guards";
-import { changeMemberRole, removeMember } from "@/lib/studio/team";
+import { changeMemberRole, removeMember, revokeInvitation } from "@/lib/studio/team";
 import { validatedAction } from "@/lib/validation/action";
-import { inviteSchema } from "@/lib/validation/auth";
+import { inviteSchema, revokeInvitationSchema } from "@/lib/validation/auth";
 import { changeRoleSchema, removeMemberSchema } from "@/lib/validation/settings";
 
 export const inviteAction = validatedAction(inviteSchema, async (input) => {
@@ -27,4 +27,11 @@ export const removeMemberAction = validatedAction(removeMemberSchema, async (inp
   const m = await removeMember(ctx, input);
   revalidatePath("/studio/team");
   return { ok: true as const, data: undefined, message: `${m.name} was removed and signed out.` };
+});
+
+export const revokeInvitationAction = validatedAction(revokeInvitationSchema, async (input) => {
+  const ctx = await requireAdmin();
+  const invitation = revokeInvitation(ctx, input);
+  revalidatePath("/studio/team");
+  return { ok: true as const, data: undefined, message: `The invitation for ${invitation.email} was withdrawn.` };
 });

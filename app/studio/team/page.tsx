@@ -1,11 +1,14 @@
 import type { Metadata } from "next";
+import { InvitationList } from "@/components/team/invitation-list";
 import { InviteForm } from "@/components/team/invite-form";
 import { MemberList } from "@/components/team/member-list";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { listMembers, listOpenInvitations } from "@/lib/studio/team";
-import { changeRoleAction, inviteAction, removeMemberAction } from "./actions";
+import { changeRoleAction, inviteAction, removeMemberAction, revokeInvitationAction } from "./actions";
+
+const ROLE_LABEL = { admin: "Admin", staff: "Staff", technician: "Technician" } as const;
 
 export const metadata: Metadata = { title: "Team" };
 
@@ -13,6 +16,7 @@ export default async function TeamPage() {
   const ctx = await forPage(requireAdmin);
   const members = listMembers(ctx);
   const invites = listOpenInvitations(ctx);
+  const until = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: ctx.studio.timeZone, timeZoneName: "short" });
   return (
     <>
       <PageHeader title="Team" lead="Who works in this studio on Grainward, and what each role can do. A studio always keeps at least one admin." />
@@ -33,14 +37,10 @@ export default async function TeamPage() {
         {invites.length ? (
           <Card>
             <h2 className="mb-3 font-semibold">Waiting to join</h2>
-            <ul className="divide-y divide-line text-sm">
-              {invites.map((i) => (
-                <li key={i.id} className="flex justify-between py-2">
-                  <span>{i.email}</span>
-                  <span className="capitalize text-muted">{i.role} · until {i.expiresAt.toISOString().slice(0, 10)}</span>
-                </li>
-              ))}
-            </ul>
+            <InvitationList
+              invitations={invites.map((i) => ({ id: i.id, email: i.email, roleLabel: ROLE_LABEL[i.role], until: until.format(i.expiresAt) }))}
+              revoke={revokeInvitationAction}
+            />
           </Card>
         ) : null}
       </div>

@@ -36,7 +36,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
       )}
       {!user ? (
         <p className="text-sm text-muted">
-          Already have a Grainward account with this address? <Link className="text-resin underline" href={`/sign-in?next=/invite/${token}`}>Sign in first</Link>.
+          Already have a Grainward account with this address? <Link className="text-resin underline" href={`/sign-in?${new URLSearchParams({ next: `/invite/${encodeURIComponent(token)}` })}`}>Sign in first</Link>.
         </p>
       ) : null}
     </AuthCard>
