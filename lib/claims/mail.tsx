@@ -48,8 +48,9 @@ export async function mailClaimReceived({ claim, piece, studio, owner }: { claim
     noticedOn: claim.noticedOn,
     description: claim.description,
   };
-  await send({ to: owner.email, subject: claimReceivedSubject({ audience: "owner", ...common }), email: <ClaimReceivedEmail audience="owner" url={ownerUrl(claim.id)} {...common} /> });
+  await send({ studioId: claim.studioId, to: owner.email, subject: claimReceivedSubject({ audience: "owner", ...common }), email: <ClaimReceivedEmail audience="owner" url={ownerUrl(claim.id)} {...common} /> });
   await send({
+    studioId: claim.studioId,
     to: studioRecipients(studio),
     replyTo: owner.email,
     subject: claimReceivedSubject({ audience: "studio", ...common }),
@@ -61,6 +62,7 @@ export async function mailClaimMessage(p: { claim: Claim; piece: Piece; studio: 
   const audience = p.fromStudio ? "owner" : "studio";
   const props = { audience, authorName: p.authorName, studioName: p.studio.name, pieceTitle: p.piece.title, body: p.body, requestInfo: p.requestInfo } as const;
   await send({
+    studioId: p.claim.studioId,
     to: p.fromStudio ? p.owner.email : studioRecipients(p.studio),
     subject: claimMessageSubject(props),
     email: <ClaimMessageEmail {...props} url={p.fromStudio ? ownerUrl(p.claim.id) : staffUrl(p.claim.id)} />,
@@ -70,6 +72,7 @@ export async function mailClaimMessage(p: { claim: Claim; piece: Piece; studio: 
 export async function mailClaimDecision({ claim, piece, studio, owner }: { claim: Claim; piece: Piece; studio: Studio; owner: Person }) {
   if (!claim.decision) return;
   await send({
+    studioId: claim.studioId,
     to: owner.email,
     subject: claimDecisionSubject({ studioName: studio.name, pieceTitle: piece.title }),
     email: (

@@ -39,7 +39,17 @@ export type SendMailInput = {
   headers?: Record<string, string>;
   attachments?: MailAttachment[];
   replyTo?: string;
+  /**
+   * The studio the message is sent for (a claim, a visit, a quote, a reminder, an invitation). It
+   * travels as the X-Grainward-Studio header, and the development outbox shows a studio's admins only
+   * their own studio's mail. Account mail (e-mail confirmation, password reset) belongs to no studio:
+   * leave it out, and no outbox shows the message.
+   */
+  studioId?: string;
 };
+
+/** Names the studio a message was sent for; read by the development outbox (lib/mail/outbox.ts). */
+export const STUDIO_HEADER = "X-Grainward-Studio";
 
 let transport: Transporter<SMTPPool.SentMessageInfo> | undefined;
 
@@ -71,7 +81,7 @@ async function renderMessage(input: SendMailInput): Promise<Rendered> {
     html,
     // Every message carries a text part, even if a template were to render no text at all.
     text: rendered.length > 0 ? rendered : input.subject,
-    headers: input.headers,
+    headers: input.studioId ? { ...input.headers, [STUDIO_HEADER]: input.studioId } : input.headers,
     replyTo: input.replyTo,
     attachments: input.attachments?.map((a) => ({
       filename: a.filename,

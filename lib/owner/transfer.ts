@@ -47,6 +47,7 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
   const transferring = before.warranty.lines.filter((l) => l.transfersToNewOwner && l.status !== "not_transferred").map((l) => l.label);
   const staying = before.warranty.lines.filter((l) => !l.transfersToNewOwner).map((l) => l.label);
   await sendMail({
+    studioId: studio.id,
     to: user.email,
     subject: transferCodeSubject({ pieceTitle: before.title }),
     email: TransferCodeEmail({
@@ -70,6 +71,7 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
         .map((r) => r.email);
   if (studioTo.length) {
     await sendMail({
+      studioId: studio.id,
       to: studioTo,
       subject: pieceReleasedSubject({ pieceTitle: before.title }),
       email: PieceReleasedEmail({

@@ -15,7 +15,8 @@ export interface ReminderMail {
   task: CareTask;
   owner: { id: string; email: string; name: string; unitSystem: "metric" | "imperial" };
   piece: { id: string; title: string; use: Use; sun: SunExposure; shape: TopShape | undefined; hasResin: boolean };
-  studio: { name: string };
+  /** id: the studio the reminder is sent for (sendMail studioId). */
+  studio: { id?: string; name: string };
   product: CatalogEntry | undefined;
   offer?: { id: string; quote: Quote };
   /** The owner's calendar date when the message goes out (reminders can go out late). */
@@ -53,6 +54,7 @@ export function composeReminder(m: ReminderMail): SendMailInput {
     to: m.owner.email,
     subject: subjectFor(m.step, m.task.label, m.piece.title, m.task.dueOn, daysUntil(m.ownerToday, m.task.dueOn), m.task.surface),
     email: createElement(CareReminder, reminderProps(m)),
+    studioId: m.studio.id,
     headers: {
       ...unsubscribeHeaders(m.owner.id),
       "X-Grainward-Reminder": m.reminderKey,

@@ -509,7 +509,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
                 task,
                 owner: { id: piece.ownerId, email: piece.ownerEmail, name: piece.ownerName, unitSystem: piece.ownerUnitSystem },
                 piece: { id: piece.id, title: piece.title, use: piece.use, sun: piece.sun, shape: topShape(piece), hasResin: piece.resinKind !== "none" },
-                studio: { name: studio.name },
+                studio: { id: studio.id, name: studio.name },
                 product,
                 offer,
                 ownerToday: clocks.at(piece.ownerTimeZone).date,

@@ -74,6 +74,7 @@ export async function sendVisitInvite(
   const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
   const subject = kind === "booked" ? `Visit booked: ${when}` : kind === "moved" ? `Visit moved to ${when}` : `Visit cancelled: ${when}`;
   await sendMail({
+    studioId: v.studio.id,
     to: v.owner.email,
     subject,
     email: VisitInviteEmail({
@@ -111,6 +112,7 @@ async function sendTechnicianInvites(v: VisitMailView, kind: "booked" | "moved" 
     const method = k === "cancelled" ? "CANCEL" : "REQUEST";
     const subject = k === "booked" ? `New visit: ${when}` : k === "moved" ? `Visit moved to ${when}` : `Visit off your calendar: ${props.previousWhen ?? when}`;
     await sendMail({
+      studioId: v.studio.id,
       to: to.email,
       subject,
       email: TechnicianVisitEmail({
@@ -144,6 +146,7 @@ export async function sendVisitReminder(v: VisitMailView): Promise<{ messageId: 
   const tz = v.studio.timeZone;
   const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
   return sendMailNow({
+    studioId: v.studio.id,
     to: v.owner!.email,
     subject: `Tomorrow: your visit, ${when}`,
     email: VisitReminderEmail({
@@ -160,6 +163,6 @@ export async function sendVisitReminder(v: VisitMailView): Promise<{ messageId: 
   });
 }
 
-export async function sendVisitSummary(to: string, props: VisitSummaryEmailProps) {
-  return sendMail({ to, subject: `Visit report: ${props.pieceTitle}`, email: VisitSummaryEmail(props) });
+export async function sendVisitSummary(studioId: string, to: string, props: VisitSummaryEmailProps) {
+  return sendMail({ studioId, to, subject: `Visit report: ${props.pieceTitle}`, email: VisitSummaryEmail(props) });
 }

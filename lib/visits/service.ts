@@ -544,7 +544,7 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
   if (owner) {
     const hasOil = result.added.some((l) => ["hardwax_oil", "ceramic_topcoat", "charred_oiled"].includes(l.finishClass));
     await mailSafely("summary", () =>
-      sendVisitSummary(owner.email, {
+      sendVisitSummary(studio.id, owner.email, {
         ownerName: owner.name,
         studioName: studio.name,
         pieceTitle: piece.title,

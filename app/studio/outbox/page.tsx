@@ -10,17 +10,20 @@ export const metadata: Metadata = { title: "Outbox" };
 export const dynamic = "force-dynamic";
 
 export default async function OutboxPage() {
-  const { messages, reachable } = await forPage(async () => {
-    await requireAdmin();
-    return listOutbox();
+  const { messages, reachable, studioName } = await forPage(async () => {
+    const ctx = await requireAdmin();
+    return { ...(await listOutbox(ctx)), studioName: ctx.studio.name };
   });
   return (
     <>
-      <PageHeader title="Outbox" lead="Every e-mail the app sent, as the local mail sink received it. Development and demo only." />
+      <PageHeader
+        title="Outbox"
+        lead={`The e-mail sent for ${studioName}, as the local mail sink received it. Development and demo only. Account e-mail (address confirmations, password resets) is never shown here.`}
+      />
       {!reachable ? (
         <Notice tone="warn" title="The mail sink isn't answering">Start it with <code>npm run sink</code> (the demo starts it for you).</Notice>
       ) : messages.length === 0 ? (
-        <Card>No e-mail sent yet.</Card>
+        <Card>No e-mail sent for this studio yet.</Card>
       ) : (
         <OutboxList messages={messages} />
       )}
