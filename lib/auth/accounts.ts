@@ -231,6 +231,7 @@ export async function inviteMember(ctx: StudioContext, input: InviteInput) {
     return row;
   });
   await sendMail({
+    studioId: ctx.studio.id,
     to: input.email,
     subject: `${ctx.user.name} invited you to ${ctx.studio.name} on Grainward`,
     email: StaffInvitationEmail({

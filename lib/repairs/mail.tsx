@@ -30,6 +30,7 @@ export async function mailReceipt(paymentId: string) {
   const view = payment && ownerView(payment.jobId);
   if (!payment || !view) return;
   await sendMail({
+    studioId: view.studio.id,
     to: view.owner.email,
     subject: `Receipt from ${view.studio.name}: ${money(payment.amountMinor, payment.currency)}`,
     email: PaymentReceiptEmail({
@@ -49,6 +50,7 @@ export async function mailRefundIssued(payment: Payment, amountMinor: number) {
   const view = ownerView(payment.jobId);
   if (!view) return;
   await sendMail({
+    studioId: view.studio.id,
     to: view.owner.email,
     subject: `Refund from ${view.studio.name}`,
     email: RefundIssuedEmail({ ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, amount: money(amountMinor, payment.currency) }),
@@ -61,6 +63,7 @@ export async function mailAutomaticRefund(payment: Payment, reason: AutomaticRef
   if (!view) return;
   const common = { ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, jobTitle: view.job.title, amount: money(payment.amountMinor - payment.refundedMinor, payment.currency), reason };
   await sendMail({
+    studioId: view.studio.id,
     to: view.owner.email,
     subject: paymentRefundedAutomaticallySubject({ audience: "owner", ...common }),
     email: <PaymentRefundedAutomaticallyEmail audience="owner" url={jobUrl(payment.jobId)} {...common} />,
@@ -68,6 +71,7 @@ export async function mailAutomaticRefund(payment: Payment, reason: AutomaticRef
   const studio = studioRecipients(view.studio);
   if (studio.length === 0) return;
   await sendMail({
+    studioId: view.studio.id,
     to: studio,
     replyTo: view.owner.email,
     subject: paymentRefundedAutomaticallySubject({ audience: "studio", ...common }),

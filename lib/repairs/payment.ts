@@ -59,6 +59,7 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
     return next;
   });
   await sendMail({
+    studioId: view.studio.id,
     to: view.owner.email,
     subject: fullyCovered ? `Your repair is covered — ${view.piece.title}` : `Your repair quote from ${view.studio.name}`,
     email: JobQuoteEmail({
