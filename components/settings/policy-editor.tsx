@@ -5,18 +5,11 @@ import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { CLAIM_CATEGORIES, CLAIM_EXCLUSIONS, type ClaimCategory, type ClaimExclusion } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORIES, CLAIM_EXCLUSION_LABELS, CLAIM_EXCLUSIONS, type ClaimCategory } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import type { ActionResult } from "@/lib/validation/action";
 import type { PolicyVersionInput } from "@/lib/validation/settings";
 
-const EXCLUSION_WORDS: Record<ClaimExclusion, string> = {
-  heat: "Heat (hot cookware, heaters, fireplaces)",
-  chemicals: "Solvents, cleaners, alcohol spills",
-  impact: "Knocks and drops",
-  outdoor_use_of_indoor_piece: "Outdoor use of an indoor piece",
-  direct_sun_on_indoor_resin: "Direct sun on indoor resin",
-};
 
 export function PolicyEditor({ values, earliest, latestVersion, action }: { values: PolicyVersionInput; earliest: string; latestVersion: number | null; action: (v: PolicyVersionInput) => Promise<ActionResult<unknown>> }) {
   const router = useRouter();
@@ -59,7 +52,7 @@ export function PolicyEditor({ values, earliest, latestVersion, action }: { valu
                     {CLAIM_EXCLUSIONS.map((x) => (
                       <label key={x} className="flex min-h-11 items-center gap-3 text-sm">
                         <input type="checkbox" className="size-5 accent-resin" value={x} {...register(`${p}.exclusions`)} />
-                        {EXCLUSION_WORDS[x]}
+                        {CLAIM_EXCLUSION_LABELS[x]}
                       </label>
                     ))}
                   </div>

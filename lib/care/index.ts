@@ -5,6 +5,7 @@ export * from "./units";
 export * from "./dates";
 export * from "./area";
 export * from "./moisture";
+export * from "./shrinkage";
 export * from "./species";
 export * from "./movement";
 export * from "./quantity";

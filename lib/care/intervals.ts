@@ -12,14 +12,15 @@ export type UseBand = keyof WearIntervals;
 /**
  * Default wear intervals, months (DESIGN.md §4). From memory, common practice of makers who finish
  * with these classes — no published source — except paste wax: US National Park Service,
- * *Conserve O Gram* 7/2 (rewax furnished-room furniture every one to four years) and a Minnesota
- * Historical Society conservator's note (heavily used tables about every six months). No published
+ * *Conserve O Gram* 7/2 (rewax furnished-room furniture every one to four years; published), and the
+ * six-month figure for heavily used tables, which is a conservator's post to a mailing list (a
+ * Minnesota Historical Society conservator), not a publication of the society. No published
  * renewal interval exists for oil finishes (REFERENCES.md). Every studio overrides these in its catalog.
  */
 export const DEFAULT_WEAR_INTERVALS: Record<FinishClass, WearIntervals> = {
   hardwax_oil: { heavy: 12, moderate: 24, light: 36 }, // from memory, common practice — no published source
   ceramic_topcoat: { heavy: 12, moderate: 18, light: 24 }, // from memory, common practice — no published source
-  paste_wax: { heavy: 6, moderate: 12, light: 12 }, // NPS Conserve O Gram 7/2; Minnesota Historical Society note
+  paste_wax: { heavy: 6, moderate: 12, light: 12 }, // 12: within NPS Conserve O Gram 7/2's 1–4 years; 6 (heavy): a conservator's list post
   film_finish: { heavy: 24, moderate: 36, light: 60 }, // from memory, common practice — no published source
   epoxy_surface: { heavy: 24, moderate: 36, light: 48 }, // from memory, common practice — no published source
   charred_oiled: { heavy: 12, moderate: 36, light: 36 }, // from memory, common practice — no published source
@@ -28,7 +29,7 @@ export const DEFAULT_WEAR_INTERVALS: Record<FinishClass, WearIntervals> = {
 export const DEFAULT_INTERVAL_SOURCE: Record<FinishClass, string> = {
   hardwax_oil: "default interval, from memory, common practice — no published source",
   ceramic_topcoat: "default interval, from memory, common practice — no published source",
-  paste_wax: "default interval after NPS Conserve O Gram 7/2 and a Minnesota Historical Society note",
+  paste_wax: "default interval after NPS Conserve O Gram 7/2 (one to four years) and, for heavy use, a conservator's list post (six months)",
   film_finish: "default interval, from memory, common practice — no published source",
   epoxy_surface: "default interval, from memory, common practice — no published source",
   charred_oiled: "default interval, from memory, common practice — no published source",

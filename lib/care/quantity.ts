@@ -16,9 +16,13 @@ export interface ContainerCount {
 }
 
 export interface ProductNeeded {
-  /** Product needed, whole mL rounded up. */
+  /** Product needed, mL, exact (area × coats ÷ coverage): what the engine computes with. */
+  exactMl: number;
+  /** The same in US fluid ounces, exact (1 US fl oz = 29.5735295625 mL, NIST HB 44 App. C / SP 811 App. B). */
+  exactFlOz: number;
+  /** For display only: exactMl rounded up once, to a whole mL (displayMl). */
   ml: number;
-  /** The same in US fluid ounces (1 US fl oz = 29.5735295625 mL, NIST HB 44 App. C), to 0.01 rounded up. */
+  /** For display only: exactFlOz rounded up once, to 0.1 US fl oz (displayFlOz) — from the exact amount, not from `ml`. */
   flOz: number;
   /** Containers to open: the combination of sizes with the least total volume that holds `ml` (ties: fewer containers). */
   containers: ContainerCount[];
@@ -32,34 +36,54 @@ export interface ProductNeeded {
  */
 export const CERAMIC_TOPCOAT_COVERAGE_M2_PER_L = 2 * M2_PER_FT2 * 1000;
 
-/** Product for a refresh: area × coats ÷ coverage (DESIGN.md §4.4), rounded up to whole containers. */
+/**
+ * Float noise allowed when rounding up: 100.00000000000001 mL is 100 mL, not 101. Far below any real
+ * amount (1e-9 mL), so it never hides a genuine excess.
+ */
+const NOISE = 1e-9;
+const ceilTo = (value: number, step: number) => Math.ceil(value / step - NOISE) * step;
+
+/** An exact amount in mL as shown to people: rounded up, once, to a whole mL. */
+export function displayMl(exactMl: number): number {
+  return ceilTo(exactMl, 1);
+}
+
+/** An exact amount in mL as US fl oz for display: converted exactly, then rounded up, once, to 0.1 fl oz. */
+export function displayFlOz(exactMl: number): number {
+  return Math.round(ceilTo(exactMl / ML_PER_US_FL_OZ, 0.1) * 10) / 10;
+}
+
+/**
+ * Product for a refresh: area × coats ÷ coverage (DESIGN.md §4.4), kept exact; the containers to buy
+ * are the whole containers that hold the exact amount; `ml` and `flOz` are its display roundings.
+ */
 export function productNeeded({ areaM2, coats, coverageM2PerL, containerSizesMl }: ProductNeededInput): ProductNeeded {
   requirePositive(areaM2, "areaM2");
   requirePositive(coverageM2PerL, "coverageM2PerL");
   if (!Number.isInteger(coats) || coats < 1) throw new CareInputError(`coats must be a whole number ≥ 1, got ${coats}`, "coats");
-  // Round to 1e-6 mL first so float noise (e.g. 100.00000000000001) does not add a millilitre.
-  const exactMl = Math.round(((areaM2 * coats) / coverageM2PerL) * 1000 * 1e6) / 1e6;
-  const ml = Math.ceil(exactMl);
-  const flOz = Math.ceil(Math.round((ml / ML_PER_US_FL_OZ) * 1e6) / 1e4) / 100;
-  const reasons = [`${areaM2.toFixed(2)} m² × ${coats} coat${coats === 1 ? "" : "s"} ÷ ${coverageM2PerL} m²/L = ${ml} mL (${flOz} US fl oz)`];
+  const exactMl = ((areaM2 * coats) / coverageM2PerL) * 1000;
+  const exactFlOz = exactMl / ML_PER_US_FL_OZ;
+  const ml = displayMl(exactMl);
+  const flOz = displayFlOz(exactMl);
+  const reasons = [`${areaM2.toFixed(2)} m² × ${coats} coat${coats === 1 ? "" : "s"} ÷ ${coverageM2PerL} m²/L = about ${ml} mL (${flOz} US fl oz)`];
   let containers: ContainerCount[] = [];
   if (containerSizesMl && containerSizesMl.length > 0) {
     containerSizesMl.forEach((s, i) => {
       if (!Number.isInteger(s) || s <= 0) throw new CareInputError(`containerSizesMl[${i}] must be a whole number of mL > 0, got ${s}`, "containerSizesMl");
     });
-    containers = cheapestCover(ml, [...new Set(containerSizesMl)].sort((a, b) => b - a));
+    containers = cheapestCover(exactMl, [...new Set(containerSizesMl)].sort((a, b) => b - a));
     reasons.push(`containers: ${containers.map((c) => `${c.count} × ${c.sizeMl} mL`).join(" + ")}`);
   }
-  return { ml, flOz, containers, containersMl: containers.reduce((t, c) => t + c.count * c.sizeMl, 0), reasons };
+  return { exactMl, exactFlOz, ml, flOz, containers, containersMl: containers.reduce((t, c) => t + c.count * c.sizeMl, 0), reasons };
 }
 
 const gcd = (a: number, b: number): number => (b === 0 ? a : gcd(b, a % b));
 
-/** Least total volume ≥ need from the given sizes (unbounded knapsack over multiples of their gcd). */
-function cheapestCover(needMl: number, sizesDesc: number[]): ContainerCount[] {
+/** Least total volume ≥ the exact need from the given sizes (unbounded knapsack over multiples of their gcd). */
+function cheapestCover(exactNeedMl: number, sizesDesc: number[]): ContainerCount[] {
   const unit = sizesDesc.reduce(gcd);
   const sizes = sizesDesc.map((s) => s / unit);
-  const need = Math.ceil(needMl / unit);
+  const need = Math.max(1, Math.ceil(exactNeedMl / unit - NOISE));
   const largest = sizes[0] ?? 1;
   const limit = need + largest;
   // best[v] = fewest containers summing to exactly v units, or Infinity.

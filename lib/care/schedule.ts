@@ -242,6 +242,35 @@ function cachedInterval(months: number, band: UseBand, sun: SunExposure): Effect
   return hit;
 }
 
+/**
+ * Stacked layers (the rule, also in SOURCES.md): a hardwax-oil layer under a ceramic-type topcoat
+ * applied the same day or later on the same surface group has no clock of its own — the topcoat task
+ * cares for the stack — and that task runs on the longer of the topcoat's and the oil's intervals:
+ * a topcoat protects what is under it, so it never brings the care of the oil forward. (Reasoning
+ * from how the layers wear, common practice, no published source.) Oil applied after the topcoat
+ * (the topcoat worn away and the surface re-oiled) keeps its own clock.
+ */
+export function protectedByTopcoat(oil: Pick<CareFinishLayer, "appliedOn">, topcoat: Pick<CareFinishLayer, "appliedOn"> | undefined): boolean {
+  return topcoat !== undefined && topcoat.appliedOn >= oil.appliedOn;
+}
+
+/**
+ * The interval a layer's clock runs on, with the stacked-layer rule: for a topcoat over oil (`beneath`,
+ * protected per protectedByTopcoat), the longer of the two layers' intervals.
+ */
+export function stackedLayerInterval(
+  piece: Pick<CarePiece, "use" | "sun">,
+  layer: Pick<CareFinishLayer, "surface" | "finishClass" | "productId">,
+  beneath: Pick<CareFinishLayer, "surface" | "finishClass" | "productId"> | undefined,
+  catalog: readonly CatalogEntry[],
+): ReturnType<typeof layerInterval> & { setBy: "layer" | "beneath"; beneathInterval?: EffectiveInterval } {
+  const own = layerInterval(piece, layer, catalog);
+  if (!beneath) return { ...own, setBy: "layer" };
+  const under = layerInterval(piece, beneath, catalog);
+  const longer = under.interval.months > own.interval.months || (under.interval.months === own.interval.months && under.interval.days > own.interval.days);
+  return longer ? { ...under, setBy: "beneath", beneathInterval: under.interval } : { ...own, setBy: "layer", beneathInterval: under.interval };
+}
+
 /** Due date of a clock started on `from`: whole months (clamped to month end), then the extra days. */
 export function dueDate(from: IsoDate, interval: Pick<EffectiveInterval, "months" | "days">): IsoDate {
   return addDays(addMonths(from, interval.months), interval.days);
@@ -325,12 +354,12 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
     if (!layer) continue;
     const group = slot < CLASS_COUNT ? "top" : "base";
     const cls = layer.finishClass;
-    if (cls === "hardwax_oil") {
-      const top = newest[slot - HARDWAX_INDEX + CERAMIC_INDEX];
-      if (top && top.appliedOn >= layer.appliedOn) continue; // cared for through the topcoat task
-    }
+    if (cls === "hardwax_oil" && protectedByTopcoat(layer, newest[slot - HARDWAX_INDEX + CERAMIC_INDEX])) continue; // cared for through the topcoat task
+    const oilBeneath = cls === "ceramic_topcoat" ? newest[slot - CERAMIC_INDEX + HARDWAX_INDEX] : undefined;
+    const beneath = oilBeneath && protectedByTopcoat(oilBeneath, layer) ? oilBeneath : undefined;
     const kind = TASK_KIND_BY_FINISH_CLASS[cls];
-    const { interval, product, catalogMonths } = layerInterval(piece, layer, catalog);
+    const { interval, product, catalogMonths, setBy, beneathInterval } = stackedLayerInterval(piece, layer, beneath, catalog);
+    const intervalClass = setBy === "beneath" ? beneath!.finishClass : cls;
     const taskBand = interval.band;
 
     const log = lastLogged(logged, kind, group === "base" ? LOG_BASE : LOG_TOP);
@@ -343,13 +372,17 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
     const since = byLog ? `last logged ${label.toLowerCase()} ${clockFrom}` : `last ${CLASS_NOUN[cls]} ${clockFrom}`;
     const usePhrase = group === "base" && taskBand === "light" ? "base, light wear" : USE_PHRASE[piece.use];
     const reasons = [`${label.toLowerCase()} (${group}) due ${dueOn}: ${since}, ${usePhrase}, ${SUN_PHRASE[piece.sun]} (${interval.text})`];
+    const intervalLayer = setBy === "beneath" ? beneath! : layer;
     reasons.push(
       catalogMonths !== undefined
         ? `interval from catalog product ${product?.name ?? product?.id}`
-        : DEFAULT_INTERVAL_SOURCE[cls] + (layer.productId !== undefined && !product ? `; product ${layer.productId} is not in the catalog` : ""),
+        : DEFAULT_INTERVAL_SOURCE[intervalClass] + (intervalLayer.productId !== undefined && !product ? `; product ${intervalLayer.productId} is not in the catalog` : ""),
     );
-    if (cls === "ceramic_topcoat" && newest[slot - CERAMIC_INDEX + HARDWAX_INDEX]) {
-      reasons.push("the hardwax oil beneath is protected by the topcoat; refreshing the topcoat is its care");
+    if (beneath) {
+      reasons.push(
+        `the hardwax oil beneath is protected by the topcoat; refreshing the topcoat is its care, on the longer of the two intervals ` +
+          `(topcoat alone ${layerInterval(piece, layer, catalog).interval.text}, oil alone ${beneathInterval!.text})`,
+      );
     }
     tasks.push(
       makeTask(piece.id, kind, group, cls, layer.id, layer.productId ?? null, interval, clockFrom, byLog ? "care_log" : "layer", dueOn, today, startedByCare, reasons),

@@ -1,5 +1,6 @@
 // Exact unit definitions. Sources: NIST Handbook 44 (current edition), Appendix C, "General Tables of
-// Units of Measurement"; NIST SP 811 (2008), Appendix B; 16 CFR 500.19 (conversion of SI units).
+// Units of Measurement"; NIST SP 811 (2008), Appendix B. 16 CFR 500.19 (conversion of SI units) agrees for
+// the inch and foot; for the fluid ounce it prints a rounded value, so the exact figure is cited to NIST.
 
 /** 1 in = 25.4 mm exactly (international inch, 1959). NIST HB 44 App. C; NIST SP 811 App. B.8. */
 export const MM_PER_INCH = 25.4;
@@ -11,7 +12,10 @@ export const M2_PER_FT2 = 0.09290304;
 export const IN3_PER_US_GALLON = 231;
 /** 1 US gallon = 3.785411784 L exactly (231 × 25.4³ mm³). NIST HB 44 App. C; NIST SP 811 App. B.8. */
 export const L_PER_US_GALLON = 3.785411784;
-/** 1 US fluid ounce = 1/128 US gallon = 29.5735295625 mL exactly. NIST HB 44 App. C; 16 CFR 500.19. */
+/**
+ * 1 US fluid ounce = 1/128 US gallon = 29.5735295625 mL exactly. NIST HB 44 App. C; NIST SP 811 App. B.
+ * (16 CFR 500.19 gives a rounded figure for labels; the exact value is NIST's.)
+ */
 export const ML_PER_US_FL_OZ = 29.5735295625;
 
 export const mmToInches = (mm: number): number => mm / MM_PER_INCH;

@@ -131,8 +131,23 @@ export const CARE_TASK_LABELS: Record<CareTaskKind, string> = {
 /** Tasks a paid refresh visit would do, so a refresh offer can be attached to their reminders. */
 export const REFRESH_TASK_KINDS: readonly CareTaskKind[] = ["reoil", "topcoat_refresh", "rewax", "resin_polish", "reoil_charred"];
 
-export const CLAIM_EXCLUSIONS = ["heat", "chemicals", "impact", "outdoor_use_of_indoor_piece", "direct_sun_on_indoor_resin"] as const;
+/**
+ * Exclusions a warranty line can name. sun_on_resin: resin exposed to daylight — the piece is kept
+ * outdoors, or sun falls directly on it (epoxy yellows under UV whatever the owner does).
+ * direct_sun_on_indoor_resin is the older, narrower term (indoor pieces only), kept for stored terms.
+ */
+export const CLAIM_EXCLUSIONS = ["heat", "chemicals", "impact", "outdoor_use_of_indoor_piece", "direct_sun_on_indoor_resin", "sun_on_resin"] as const;
 export type ClaimExclusion = (typeof CLAIM_EXCLUSIONS)[number];
+
+/** The exclusions in words for studio staff (the terms editor and its change list). */
+export const CLAIM_EXCLUSION_LABELS: Record<ClaimExclusion, string> = {
+  heat: "Heat (hot cookware, heaters, fireplaces)",
+  chemicals: "Solvents, cleaners, alcohol spills",
+  impact: "Knocks and drops",
+  outdoor_use_of_indoor_piece: "Outdoor use of an indoor piece",
+  direct_sun_on_indoor_resin: "Direct sun on indoor resin (older terms; indoor pieces only)",
+  sun_on_resin: "Sun on resin, indoors or out (resin yellows in daylight)",
+};
 
 export const CARE_TASK_STATUSES = ["upcoming", "due", "overdue", "done"] as const;
 export type CareTaskStatus = (typeof CARE_TASK_STATUSES)[number];

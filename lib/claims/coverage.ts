@@ -31,6 +31,8 @@ export function roomClimate(a: ClaimAnswers): RoomClimateReport | undefined {
     driest: { tempC: c(r.driestTemp), rhPct: r.driestRh },
     dampest: { tempC: c(r.dampestTemp), rhPct: r.dampestRh },
     ...(r.dailySwingPct != null ? { largestDailyRhChangePct: r.dailySwingPct } : {}),
+    // A change, not a reading: °F differences convert by 5/9 alone (no 32 offset).
+    ...(r.dailyTempSwing != null ? { largestDailyTempChangeC: round1(r.unit === "F" ? (r.dailyTempSwing * 5) / 9 : r.dailyTempSwing) } : {}),
   };
 }
 

@@ -8,7 +8,7 @@ import { and, desc, eq, lte } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
 import { warrantyPolicies, type WarrantyPolicyRow } from "@/db/schema";
 import type { WarrantyLine, WarrantyPolicy } from "@/lib/care/coverage";
-import { CLAIM_CATEGORIES, type ClaimCategory } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORIES, CLAIM_EXCLUSION_LABELS, type ClaimCategory, type ClaimExclusion } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import type { PolicyLineInput, PolicyVersionInput } from "@/lib/validation/settings";
 
@@ -110,9 +110,11 @@ export function describePolicyChanges(before: WarrantyPolicy | null, after: Warr
     if (!a || !b) continue;
     if (a.termMonths !== b.termMonths) out.push(`${name}: term ${a.termMonths} → ${b.termMonths} months.`);
     if (a.label !== b.label) out.push(`${name}: renamed “${a.label}” → “${b.label}”.`);
-    const ea = [...a.exclusions].sort().join(",");
-    const eb = [...b.exclusions].sort().join(",");
-    if (ea !== eb) out.push(`${name}: exclusions changed.`);
+    const added = b.exclusions.filter((x) => !a.exclusions.includes(x));
+    const removed = a.exclusions.filter((x) => !b.exclusions.includes(x));
+    const words = (xs: readonly ClaimExclusion[]) => xs.map((x) => CLAIM_EXCLUSION_LABELS[x]?.toLowerCase() ?? x).join("; ");
+    if (added.length) out.push(`${name}: now excludes ${words(added)}.`);
+    if (removed.length) out.push(`${name}: no longer excludes ${words(removed)}.`);
     if (Boolean(a.careLog) !== Boolean(b.careLog)) out.push(`${name}: care-log condition ${b.careLog ? "added" : "removed"}.`);
     else if (a.careLog && b.careLog && (a.careLog.graceDays !== b.careLog.graceDays || a.careLog.onMissed !== b.careLog.onMissed)) out.push(`${name}: care-log condition changed.`);
     if (Boolean(a.climateCheck) !== Boolean(b.climateCheck)) out.push(`${name}: climate check ${b.climateCheck ? "added" : "removed"}.`);

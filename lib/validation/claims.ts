@@ -31,6 +31,8 @@ export const roomClimateSchema = z
     dampestTemp: optionalNumber(-20, 122, "the temperature"),
     dampestRh: optionalNumber(0, 100, "the humidity"),
     dailySwingPct: optionalNumber(0, 100, "the daily change"),
+    /** Largest temperature change within a day, in `unit` degrees (a difference), if the owner knows it. */
+    dailyTempSwing: optionalNumber(0, 90, "the daily temperature change"),
   })
   .superRefine((r, ctx) => {
     const readings = { driestTemp: r.driestTemp, driestRh: r.driestRh, dampestTemp: r.dampestTemp, dampestRh: r.dampestRh };

@@ -53,7 +53,7 @@ describe("claims per 100 pieces", () => {
     expect([r.totalPieces, r.totalClaims]).toEqual([4, 3]);
     // Walnut A1 A2: 2 claims / 2 pieces = 100.0; white oak A3 A6: 1 / 2 = 50.0.
     expect(byKey(r.bySpecies)).toEqual({ black_walnut: [2, 2, 100], white_oak: [2, 1, 50] });
-    expect(r.bySpecies.map((x) => x.label)).toEqual(["Black walnut", "White oak (commercial)"]);
+    expect(r.bySpecies.map((x) => x.label)).toEqual(["Black walnut", "White oak"]);
     // Hardwax oil all 4: 3 / 4 = 75.0; ceramic A1: 2 / 1 = 200.0; film A3: 1 / 1 = 100.0.
     expect(byKey(r.byFinishClass)).toEqual({ hardwax_oil: [4, 3, 75], ceramic_topcoat: [1, 2, 200], film_finish: [1, 1, 100] });
     // Deep pour A1: 2 / 1 = 200.0; none A2 A3 A6: 1 / 3 = 33.3; tabletop coat only on A4 (after the period): no row.

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { CareInputError, productNeeded, topArea } from "@/lib/care";
+import { CareInputError, displayFlOz, displayMl, productNeeded, topArea } from "@/lib/care";
 
 const mmArb = fc.double({ min: 100, max: 5000, noNaN: true });
 
@@ -47,6 +47,7 @@ describe("productNeeded", () => {
         expect(moreCoats.containersMl).toBeGreaterThanOrEqual(base.containersMl);
         expect(base.containersMl).toBeGreaterThanOrEqual(base.ml);
         expect(base.ml).toBeGreaterThanOrEqual((a * coats * 1000) / cov - 1e-6);
+        expect(base.containersMl).toBeGreaterThanOrEqual(base.exactMl - 1e-9);
       }),
     );
   });
@@ -60,11 +61,32 @@ describe("productNeeded", () => {
     ]);
   });
 
-  it("2 coats on 2.4 m² at 30 m²/L = 160 mL, 5.42 US fl oz (1 fl oz = 29.5735295625 mL)", () => {
+  it("2 coats on 2.4 m² at 30 m²/L = 160 mL exactly = 5.410244 US fl oz (1 fl oz = 29.5735295625 mL); shown 160 mL, 5.5 fl oz", () => {
     const r = productNeeded({ areaM2: 2.4, coats: 2, coverageM2PerL: 30 });
+    expect(r.exactMl).toBeCloseTo(160, 9);
+    expect(r.exactFlOz).toBeCloseTo(5.410244, 6);
     expect(r.ml).toBe(160);
-    expect(r.flOz).toBe(5.42);
+    expect(r.flOz).toBe(5.5);
     expect(r.containers).toEqual([]);
+  });
+
+  it("keeps quantities exact and rounds once, for display: 29.1 mL is 0.98399 fl oz, shown 1 fl oz (not via 30 mL → 1.02)", () => {
+    // 0.97 m² × 1 coat ÷ 33.333… m²/L = 29.1 mL; 29.1 ÷ 29.5735295625 = 0.983988 fl oz.
+    const r = productNeeded({ areaM2: 0.97, coats: 1, coverageM2PerL: 100 / 3, containerSizesMl: [30] });
+    expect(r.exactMl).toBeCloseTo(29.1, 9);
+    expect(r.exactFlOz).toBeCloseTo(0.983988, 6);
+    expect(r.ml).toBe(30);
+    expect(r.flOz).toBe(1);
+    expect(r.containers).toEqual([{ sizeMl: 30, count: 1 }]);
+    expect(displayMl(100.00000000000001)).toBe(100);
+    expect(displayFlOz(29.5735295625)).toBe(1);
+  });
+
+  it("buys whole containers for the exact amount: 50.2 mL needs more than one 50 mL container", () => {
+    const r = productNeeded({ areaM2: 0.502, coats: 1, coverageM2PerL: 10, containerSizesMl: [50, 250] });
+    expect(r.exactMl).toBeCloseTo(50.2, 9);
+    expect(r.containersMl).toBeGreaterThanOrEqual(50.2);
+    expect(r.containers).toEqual([{ sizeMl: 50, count: 2 }]);
   });
 
   it("rejects fractional coats, zero coverage and bad container sizes", () => {

@@ -123,6 +123,40 @@ describe("careSchedule", () => {
     expect(r.tasks.map((t) => t.kind).sort()).toEqual(["annual_check", "topcoat_refresh"]);
   });
 
+  // The stacked-layer rule (lib/care/schedule.ts, protectedByTopcoat): a topcoat protects the oil under it,
+  // so the stack's one task runs on the longer of the two intervals. Defaults (DESIGN.md §4, common
+  // practice): moderate use, no sun — hardwax oil 24 months, ceramic topcoat 18 months → 24 months.
+  it("oil under a ceramic topcoat is never due sooner than bare oil: moderate use, 2025-03-02 + 24 months = 2027-03-02", () => {
+    const topcoat: CareFinishLayer = { id: "c", surface: "top", finishClass: "ceramic_topcoat", coats: 1, appliedOn: "2025-03-02" };
+    const stack = careSchedule({ piece: { ...piece, use: "moderate", sun: "none" }, finishLayers: [oil, topcoat], careLog: [], catalog: [], now: "2025-04-01T00:00:00Z" });
+    const bare = careSchedule({ piece: { ...piece, use: "moderate", sun: "none" }, finishLayers: [oil], careLog: [], catalog: [], now: "2025-04-01T00:00:00Z" });
+    expect(find(bare, "reoil").dueOn).toBe("2027-03-02");
+    const t = find(stack, "topcoat_refresh");
+    expect(t.dueOn).toBe("2027-03-02"); // was 2026-09-02 (18 months), sooner than bare oil
+    expect(t.reasons.join("\n")).toMatch(/longer of the two intervals \(topcoat alone 18 mo, oil alone 24 mo\)/);
+    // a catalog topcoat rated longer than the oil keeps its own interval
+    const long = careSchedule({
+      piece: { ...piece, use: "moderate", sun: "none" },
+      finishLayers: [oil, { ...topcoat, productId: "cer" }],
+      careLog: [],
+      catalog: [{ id: "cer", finishClass: "ceramic_topcoat", coverageM2PerL: 186, containerSizesMl: [50], intervals: { moderate: 30 } }],
+      now: "2025-04-01T00:00:00Z",
+    });
+    expect(find(long, "topcoat_refresh").dueOn).toBe("2027-09-02");
+  });
+
+  it("oil applied after the topcoat (worn through and re-oiled) keeps its own clock beside the topcoat's", () => {
+    const r = careSchedule({
+      piece: { ...piece, use: "moderate", sun: "none" },
+      finishLayers: [{ id: "c", surface: "top", finishClass: "ceramic_topcoat", coats: 1, appliedOn: "2025-03-02" }, { ...oil, appliedOn: "2025-03-10" }],
+      careLog: [],
+      catalog: [],
+      now: "2025-04-01T00:00:00Z",
+    });
+    expect(find(r, "reoil").dueOn).toBe("2027-03-10");
+    expect(find(r, "topcoat_refresh").dueOn).toBe("2026-09-02");
+  });
+
   it("edges count with the top; the base runs on the light-use interval", () => {
     const r = careSchedule({
       piece: { ...piece, sun: "none" },

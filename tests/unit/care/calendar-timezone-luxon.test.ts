@@ -3,7 +3,7 @@ import { DateTime } from "luxon";
 import { describe, expect, it } from "vitest";
 import { addMonths, addDays, diffDays, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care";
 
-// Reference library: Luxon 3.7 (npm "luxon"), a general-purpose date library backed by the IANA time
+// Not a reference test (no published values): a differential check against Luxon 3.7 (npm "luxon"), a general-purpose date library backed by the IANA time
 // zone data of the runtime. lib/care uses Intl only; these checks compare the two on generated inputs.
 const ZONES = ["America/New_York", "Europe/Berlin", "UTC", "Asia/Tokyo", "Australia/Sydney"] as const;
 
