@@ -11,18 +11,19 @@ async function post(url: string): Promise<{ ok: boolean; message?: string; body?
   return res.ok ? { ok: true, body } : { ok: false, message: body.error?.message ?? "Something went wrong." };
 }
 
-/** Staff actions on a job: send the quote, cancel (asks first; a paid job is refunded). */
-export function StaffJobActions({ jobId, canSend, canCancel, paid }: { jobId: string; canSend: boolean; canCancel: boolean; paid: boolean }) {
+/** Staff actions on a job: send the quote, cancel (asks first; a paid job is refunded), send a refund that didn't go through. */
+export function StaffJobActions({ jobId, canSend, canCancel, paid, refundOwed = false }: { jobId: string; canSend: boolean; canCancel: boolean; paid: boolean; refundOwed?: boolean }) {
   const router = useRouter();
   const [busy, setBusy] = useState<string | null>(null);
   async function run(kind: "quote" | "cancel") {
-    if (kind === "cancel" && !window.confirm(paid ? "Cancel this job and refund the owner's payment in full?" : "Cancel this job? The owner will no longer be able to approve it.")) return;
+    if (kind === "cancel" && !refundOwed && !window.confirm(paid ? "Cancel this job and refund the owner's payment in full?" : "Cancel this job? The owner will no longer be able to approve it.")) return;
     setBusy(kind);
     const r = await post(`/api/jobs/${jobId}/${kind}`);
     setBusy(null);
-    if (!r.ok) return void toast.error(r.message);
-    toast.success(kind === "quote" ? "Quote sent to the owner." : paid ? "Job cancelled; the refund is on its way." : "Job cancelled.");
+    // A cancel can stand even when its refund did not go through: the page shows what happened.
     router.refresh();
+    if (!r.ok) return void toast.error(r.message);
+    toast.success(kind === "quote" ? "Quote sent to the owner." : refundOwed ? "The refund is on its way." : paid ? "Job cancelled; the refund is on its way." : "Job cancelled.");
   }
   return (
     <div className="flex flex-wrap gap-2">
@@ -34,6 +35,11 @@ export function StaffJobActions({ jobId, canSend, canCancel, paid }: { jobId: st
       {canCancel ? (
         <Button variant="secondary" onClick={() => run("cancel")} disabled={busy !== null}>
           {busy === "cancel" ? "Cancelling…" : paid ? "Cancel and refund" : "Cancel job"}
+        </Button>
+      ) : null}
+      {refundOwed ? (
+        <Button onClick={() => run("cancel")} disabled={busy !== null}>
+          {busy === "cancel" ? "Sending…" : "Send the refund again"}
         </Button>
       ) : null}
     </div>

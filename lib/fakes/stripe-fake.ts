@@ -284,6 +284,13 @@ ${s.cancel_url ? `<form method="post" action="/pay/${s.id}/cancel"><button type=
 </main></body></html>`;
   }
 
+  function closedPage(s: FakeSession): string {
+    const what = s.status === "expired" ? "This payment page has expired" : "This payment is already complete";
+    return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>Test payment</title></head><body style="font-family:system-ui,sans-serif;padding:24px">
+<p>Local payment test page — no real money moves.</p><h1>${what}</h1><p>Nothing was charged on this page.</p>
+${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""}</body></html>`;
+  }
+
   async function readBody(req: http.IncomingMessage): Promise<string> {
     const chunks: Buffer[] = [];
     let size = 0;
@@ -357,18 +364,22 @@ ${s.cancel_url ? `<form method="post" action="/pay/${s.id}/cancel"><button type=
       if (path[0] === "v1") return await handleApi(req, res, path.slice(1));
       if (path[0] === "pay" && path[1]) {
         const s = session(path[1]);
-        if (req.method === "GET") {
-          res.writeHead(s.status === "open" ? 200 : 410, { "content-type": "text/html; charset=utf-8" });
-          return res.end(s.status === "open" ? paymentPage(s) : `<p>This checkout is ${s.status}.</p>`);
-        }
         if (req.method === "POST" && path[2] === "cancel") {
           if (s.status === "open") expire(s);
           res.writeHead(303, { location: s.cancel_url ?? "/" });
           return res.end();
         }
+        // As Stripe does: a session that expired (or was paid already) takes no payment; its page says so.
+        if (s.status !== "open") {
+          res.writeHead(410, { "content-type": "text/html; charset=utf-8" });
+          return res.end(closedPage(s));
+        }
+        if (req.method === "GET") {
+          res.writeHead(200, { "content-type": "text/html; charset=utf-8" });
+          return res.end(paymentPage(s));
+        }
         if (req.method === "POST") {
           const card = (new URLSearchParams(await readBody(req)).get("card") ?? "").replace(/\D/g, "");
-          if (s.status !== "open") throw new StripeError(400, "invalid_request_error", `This checkout is ${s.status}.`);
           if (card === DECLINE_CARD) {
             res.writeHead(402, { "content-type": "text/html; charset=utf-8" });
             return res.end(paymentPage(s, "Your card was declined. Try another card, or cancel and go back."));

@@ -7,7 +7,7 @@ import { JobQuoteEmail } from "@/emails/job-quote";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { env } from "@/lib/env";
-import { badRequest, conflict, notFound } from "@/lib/errors";
+import { AppError, badRequest, conflict, notFound } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
@@ -184,7 +184,7 @@ export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User,
   };
   const before = load();
   if (before.job.state === "cancelled" && actor.ctx && before.payments.some((p) => p.refundReason && !p.refundRequestedAt && p.status !== "refunded")) {
-    await settleRefunds(jobId);
+    await settleRefundsOf(jobId, "The job stays cancelled, but");
     return before.job;
   }
   check(before.job);
@@ -198,6 +198,16 @@ export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User,
     recordAudit(tx, { studioId: job.studioId, actorId: actor.ctx?.user.id ?? actor.owner?.id ?? null, action: "job.cancelled", subjectType: "repair_job", subjectId: job.id, data: { refunded: toRefund.length } });
     return next;
   });
-  await settleRefunds(jobId);
+  await settleRefundsOf(jobId, "The job is cancelled, but");
   return cancelled;
+}
+
+/** Asks for the refunds a cancelled job owes; a refusal or outage says the job stands and how to try again. */
+async function settleRefundsOf(jobId: string, lead: string) {
+  try {
+    await settleRefunds(jobId);
+  } catch (e) {
+    if (!(e instanceof AppError)) throw e;
+    throw new AppError(e.status, e.code, `${lead} its refund has not gone through yet. ${e.message} Try “Send the refund again” on the job page in a little while.`);
+  }
 }

@@ -53,7 +53,7 @@ export const JOB_STATE_TONES: Record<JobState, "neutral" | "progress" | "waiting
   cancelled: "stopped",
 };
 
-type PaymentStatus = Payment["status"];
+export type PaymentStatus = Payment["status"];
 export type RefundReason = NonNullable<Payment["refundReason"]>;
 
 /** Money taken and not (fully) given back: the statuses a payment can count toward its job in. */
@@ -77,6 +77,14 @@ export const REFUND_REASON_LABELS: Record<RefundReason, string> = {
   older_quote: "paid for an older quote",
   already_paid: "the job was already paid",
   not_awaiting_payment: "paid after the job stopped waiting for payment",
+  job_cancelled: "the job was cancelled",
+};
+
+/** The same, in the owner's words, completing "We refunded your payment of 12.00 USD: …". */
+export const OWNER_REFUND_REASON_LABELS: Record<RefundReason, string> = {
+  older_quote: "it was for an earlier version of the quote, which the studio has changed since",
+  already_paid: "the work had already been paid by another payment of yours",
+  not_awaiting_payment: "it came in after the job had stopped waiting for payment",
   job_cancelled: "the job was cancelled",
 };
 

@@ -3,7 +3,10 @@
 import http from "node:http";
 import type { AddressInfo } from "node:net";
 import { eq } from "drizzle-orm";
+import { createElement } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { JobPayments } from "@/components/jobs/job-payments";
 import { getDb } from "@/db/client";
 import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
 import { DECLINE_CARD, startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
@@ -223,6 +226,9 @@ describe("repair job payment through the Stripe fake", () => {
 const jobRow = (jobId: string) => getDb().select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
 const paymentRows = (jobId: string) => getDb().select().from(payments).where(eq(payments.jobId, jobId)).all();
 const sessionOf = (url: string | null) => fake.sessions().find((s) => s.url === url)!;
+/** The payments list of the staff's job page, rendered from the job's rows as the page renders it. */
+const staffPaymentsHtml = (jobId: string) =>
+  renderToStaticMarkup(createElement(JobPayments, { currentQuoteVersion: jobRow(jobId).quoteVersion, payments: paymentRows(jobId).map((p) => ({ ...p, openedOn: "2 December 2026" })) }));
 
 /** What the owner's card really paid for this job, net of refunds, as the fake holds it. */
 function netCharged(jobId: string) {
@@ -269,7 +275,7 @@ describe("a checkout that no longer matches its job never pays it", () => {
     // Closed through the SDK when the quote changed: the payment service itself refuses it now.
     expect(fake.sessions().find((s) => s.id === oldSession.id)!.status).toBe("expired");
     const refused = await payOnPage(first.checkoutUrl!, SUCCESS_CARD);
-    expect(refused.status).toBeGreaterThanOrEqual(400);
+    expect(refused.status).toBe(410);
     await new Promise((r) => setTimeout(r, 300));
     expect(jobRow(job.id).state).toBe("quoted");
     expect(netCharged(job.id).count).toBe(0);
@@ -306,9 +312,10 @@ describe("a checkout that no longer matches its job never pays it", () => {
     const toStudio = await waitForMail({ to: studio.email, subject: /refunded automatically/i, since });
     expect(toStudio.text).toContain(amount);
     expect((await listMail({ to: owner.email })).filter((m) => /receipt/i.test(m.subject))).toHaveLength(0);
+    expect(staffPaymentsHtml(job.id)).toContain("Refunded automatically: paid for an older quote");
   });
 
-  it("double pay: two checkouts for one job both completed → the first counts, the second is refunded; cancelling then refunds the first too", async () => {
+  it("double pay: two checkouts for one job both completed → one counts, the other is refunded; cancelling then refunds the one that counted too", async () => {
     const { owner, staff, studio, job } = await quotedJob();
     const first = await approveJob(owner, job.id);
     const approved = jobRow(job.id);
@@ -328,6 +335,7 @@ describe("a checkout that no longer matches its job never pays it", () => {
     expect(netCharged(job.id)).toMatchObject({ count: 2, net: job.totalMinor, refunded: 1 });
     await waitForMail({ to: owner.email, subject: /refund/i, since });
     await waitForMail({ to: studio.email, subject: /refunded automatically/i, since });
+    expect(staffPaymentsHtml(job.id)).toContain("Refunded automatically: the job was already paid");
 
     const cancelled = await cancelJob({ ctx: staff }, job.id);
     expect(cancelled.state).toBe("cancelled");
@@ -368,5 +376,21 @@ describe("a checkout that no longer matches its job never pays it", () => {
     expect(jobRow(job.id).state).toBe("cancelled");
     expect(netCharged(job.id)).toMatchObject({ count: 2, net: 0, refunded: 2 });
     expect((await listMail({ to: owner.email })).length).toBe(mailBefore);
+  });
+
+  it("a cancel whose refund the payment service refuses still cancels, keeps the refund owed and flagged, and says how to try again", async () => {
+    const { job, staff } = await quotedJob();
+    // A paid job whose payment the payment service does not know (as the demo's seeded payments).
+    getDb().update(repairJobs).set({ state: "paid", paidAt: new Date() }).where(eq(repairJobs.id, job.id)).run();
+    getDb()
+      .insert(payments)
+      .values({ studioId: job.studioId, jobId: job.id, quoteVersion: job.quoteVersion, checkoutSessionId: `cs_test_unknown_${job.id}`, amountMinor: job.totalMinor, currency: job.currency, status: "paid", paymentIntentId: `pi_test_unknown_${job.id}`, paidAt: new Date() })
+      .run();
+    await expect(cancelJob({ ctx: staff }, job.id)).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^The job is cancelled, but its refund has not gone through yet\. .*Send the refund again/) });
+    expect(jobRow(job.id).state).toBe("cancelled");
+    expect(paymentRows(job.id)[0]).toMatchObject({ status: "paid", refundReason: "job_cancelled", refundRequestedAt: null });
+    expect(staffPaymentsHtml(job.id)).toContain("Refund not sent yet");
+    // Asking again goes to the payment service again (still refused here), rather than "can't cancel a cancelled job".
+    await expect(cancelJob({ ctx: staff }, job.id)).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^The job stays cancelled, but/) });
   });
 });

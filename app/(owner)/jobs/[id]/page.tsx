@@ -8,7 +8,8 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
-import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
+import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS } from "@/lib/repairs/states";
+import { formatMinorUnits } from "@/lib/care/quote";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/service";
 
@@ -22,8 +23,10 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   if (query.checkout === "success" && query.session_id && query.session_id.length < 200) {
     await syncReturnedCheckout(user, id, query.session_id).catch((e: unknown) => console.error("checkout sync failed", e));
   }
-  const { job, piece, studio } = await forPage(async () => getOwnerJob(user, id));
+  const { job, piece, studio, payments } = await forPage(async () => getOwnerJob(user, id));
   const { visit } = visitOfJob({ kind: "owner", user }, id);
+  const autoRefunded = payments.flatMap((p) => (isAutomaticRefund(p.refundReason) ? [{ ...p, reason: p.refundReason }] : []));
+  const returnedRefunded = autoRefunded.some((p) => p.checkoutSessionId === query.session_id);
   return (
     <>
       <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />} />
@@ -31,7 +34,13 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         {query.checkout === "success" && job.state === "paid" ? (
           <Notice tone="ok" title="Paid — thank you">Your receipt is on its way by e-mail. You can book your visit below.</Notice>
         ) : null}
-        {query.checkout === "success" && job.state !== "paid" ? (
+        {autoRefunded.map((p) => (
+          <Notice key={p.id} tone="info" title="Payment refunded">
+            We refunded your payment of {formatMinorUnits(p.amountMinor, p.currency)} {p.currency} in full: {OWNER_REFUND_REASON_LABELS[p.reason]}. Refunds usually show on
+            your statement within 5–10 business days.
+          </Notice>
+        ))}
+        {query.checkout === "success" && job.state !== "paid" && !returnedRefunded ? (
           <Notice tone="info" title="Confirming your payment">Stripe is still confirming the payment. Reload this page in a moment.</Notice>
         ) : null}
         {query.checkout === "cancelled" && job.state === "approved" ? (
@@ -61,7 +70,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         <Card>
           <QuoteSummary lines={job.lines} currency={job.currency} subtotalMinor={job.subtotalMinor} coveredMinor={job.coveredMinor} coveredPct={job.coveredPct} taxMinor={job.taxMinor} totalMinor={job.totalMinor} />
         </Card>
-        {job.state === "quoted" || job.state === "approved" ? (
+        {OWNER_CAN_DECLINE.includes(job.state) ? (
           <div className="flex flex-col gap-3 sm:flex-row">
             <ApproveAndPay jobId={job.id} label={job.state === "quoted" ? "Approve and pay" : "Pay now"} />
             <OwnerCancelJob jobId={job.id} />

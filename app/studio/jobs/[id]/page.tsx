@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { StaffJobActions } from "@/components/jobs/job-actions";
+import { JobPayments } from "@/components/jobs/job-payments";
 import { JobQuoteEditor } from "@/components/jobs/job-quote-editor";
 import { QuoteSummary } from "@/components/jobs/quote-summary";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -8,10 +9,10 @@ import { Notice } from "@/components/ui/notice";
 import { StatusBadge } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { formatInstant } from "@/lib/owner/format";
 import { FINISH_CLASS_LABELS } from "@/lib/care/vocabulary";
 import { getStudioJob } from "@/lib/repairs/jobs";
-import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
+import { canMove, JOB_STATE_LABELS, JOB_STATE_TONES, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
 import { jobQuoteSchema } from "@/lib/validation/jobs";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/service";
@@ -23,10 +24,12 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const ctx = await forPage(requireStaff);
   const view = await forPage(async () => getStudioJob(ctx, id));
   const { visit } = visitOfJob({ kind: "staff", ctx }, id);
-  const { job, piece, owner, payments, products } = view;
+  const { job, piece, owner, payments, products, studio } = view;
   const initial = jobQuoteSchema.parse(job.quoteInput);
-  const editable = ["draft", "quoted", "approved"].includes(job.state);
-  const paid = payments.some((p) => p.status === "paid");
+  const editable = QUOTE_EDITABLE.includes(job.state);
+  const paid = payments.some(paymentCounts);
+  // A refund marked but not yet taken by the payment service (it could not be reached): staff can ask again.
+  const refundOwed = job.state === "cancelled" && payments.some((p) => p.refundReason && !p.refundRequestedAt && p.status !== "refunded");
   return (
     <>
       <PageHeader
@@ -55,8 +58,9 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             <StaffJobActions
               jobId={job.id}
               canSend={["draft", "quoted"].includes(job.state) && Boolean(owner)}
-              canCancel={!["done", "cancelled"].includes(job.state)}
+              canCancel={canMove(job.state, "cancelled")}
               paid={paid}
+              refundOwed={refundOwed}
             />
             {job.quoteVersion ? <p className="text-sm text-muted">Quote sent {job.quoteVersion} time{job.quoteVersion === 1 ? "" : "s"}.</p> : null}
           </Card>
@@ -80,23 +84,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
           ) : null}
           <Card className="space-y-2">
             <h2 className="font-semibold">Payments</h2>
-            {payments.length === 0 ? (
-              <p className="text-sm text-muted">No checkout started yet.</p>
-            ) : (
-              <ul className="space-y-1 text-sm">
-                {payments.map((p) => (
-                  <li key={p.id} className="flex justify-between gap-2">
-                    <span>
-                      {p.createdAt.toISOString().slice(0, 10)} · quote v{p.quoteVersion}
-                    </span>
-                    <span>
-                      {formatMinorUnits(p.amountMinor, p.currency)} {p.currency} · {p.status.replace("_", " ")}
-                      {p.refundedMinor ? ` (refunded ${formatMinorUnits(p.refundedMinor, p.currency)})` : ""}
-                    </span>
-                  </li>
-                ))}
-              </ul>
-            )}
+            <JobPayments currentQuoteVersion={job.quoteVersion} payments={payments.map((p) => ({ ...p, openedOn: formatInstant(p.createdAt, studio.timeZone) }))} />
           </Card>
           <p className="text-sm">
             <Link className="text-resin underline" href={`/studio/pieces/${piece.id}`}>Open the piece record</Link>
