@@ -8,6 +8,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
+import { ownerJobWhere, type OwnerReach } from "./owner-reach";
 import { priceJob, totals } from "./pricing";
 import { assertMove } from "./states";
 
@@ -101,7 +102,7 @@ export function listOwnerJobs(user: Pick<User, "id">, filter: { state?: RepairJo
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .innerJoin(studios, eq(studios.id, repairJobs.studioId))
-    .where(and(eq(repairJobs.ownerId, user.id), inArray(repairJobs.state, ["quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"]), filter.state ? eq(repairJobs.state, filter.state) : undefined))
+    .where(and(ownerJobWhere(user.id, "history"), inArray(repairJobs.state, ["quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"]), filter.state ? eq(repairJobs.state, filter.state) : undefined))
     .orderBy(desc(repairJobs.updatedAt))
     .all();
 }
@@ -127,11 +128,16 @@ export function getStudioJob(ctx: StudioContext, jobId: string) {
   return { ...view, products: studioProducts(ctx.studio.id) };
 }
 
-/** The owner's own job; drafts stay with the studio until a quote is sent. */
-export function getOwnerJob(user: Pick<User, "id">, jobId: string) {
-  const view = loadJob(and(eq(repairJobs.id, jobId), eq(repairJobs.ownerId, user.id)));
+/**
+ * The owner's own job; drafts stay with the studio until a quote is sent. "history" (reading) also
+ * reaches a job they paid for on a piece they have since handed on; "act" (approve, pay, cancel) only
+ * a job on a piece they hold (lib/repairs/owner-reach).
+ */
+export function getOwnerJob(user: Pick<User, "id">, jobId: string, reach: OwnerReach = "history") {
+  const view = loadJob(and(eq(repairJobs.id, jobId), ownerJobWhere(user.id, reach)));
   if (view.job.state === "draft" && view.job.quoteVersion === 0) throw notFound("No such repair job.");
-  return view;
+  // A former owner's history never carries the piece's address: it may be the new owner's.
+  return view.piece.ownerId === user.id ? view : { ...view, piece: { ...view.piece, deliveryAddress: "" } };
 }
 
 /** Moves a job with a compare-and-set on its version, so two writers can't both win. */

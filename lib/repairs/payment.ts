@@ -83,7 +83,7 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
  * amount, and the owner is sent to its URL.
  */
 export async function approveJob(user: Pick<User, "id" | "email">, jobId: string): Promise<{ checkoutUrl: string | null; job: RepairJob }> {
-  const view = getOwnerJob(user, jobId);
+  const view = getOwnerJob(user, jobId, "act");
   let { job } = view;
   if (job.totalMinor === 0) throw conflict("This job is fully covered: there is nothing to pay.");
   if (job.state === "quoted") {
@@ -176,7 +176,7 @@ export async function handleStripeWebhook(rawBody: string, signature: string | n
  * for a refund, cancelling the (already cancelled) job again asks for what is still owed.
  */
 export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User, "id"> }, jobId: string): Promise<RepairJob> {
-  const load = () => (actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner!, jobId));
+  const load = () => (actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner!, jobId, "act"));
   const check = (job: RepairJob) => {
     if (actor.owner && !OWNER_CAN_DECLINE.includes(job.state)) throw conflict("Ask the studio to cancel a job that is already paid or booked.");
     // Refuse a job that can't be cancelled (done, already cancelled) before any checkout is closed or payment refunded.

@@ -1,5 +1,7 @@
 import "server-only";
+import type { SQL } from "drizzle-orm";
 import { requireStudioRole, requireUser, studioMemberships } from "@/lib/auth/guards";
+import { ownerJobWhere } from "@/lib/repairs/owner-reach";
 import type { VisitActor } from "./service";
 
 /**
@@ -12,4 +14,12 @@ export async function requireVisitActor(): Promise<VisitActor> {
   if (rows.length === 0) return { kind: "owner", user };
   const ctx = await requireStudioRole(["admin", "staff", "technician"]);
   return ctx.role === "technician" ? { kind: "technician", ctx } : { kind: "staff", ctx };
+}
+
+/**
+ * The visits an owner sees, books, moves and cancels: those of the jobs they act on (a WHERE over
+ * repair_jobs, lib/repairs/owner-reach) — never a former owner's, once the piece has been handed on.
+ */
+export function ownerVisitWhere(userId: string): SQL {
+  return ownerJobWhere(userId, "act");
 }

@@ -10,6 +10,7 @@ import { VisitSummaryEmail, type VisitSummaryEmailProps } from "@/emails/visit-s
 import { localDate } from "@/lib/care/dates";
 import { env } from "@/lib/env";
 import { sendMail, sendMailNow } from "@/lib/mail";
+import { ownerActsOnJob } from "@/lib/repairs/owner-reach";
 import { buildInvite, inviteAttachment } from "./ics";
 import { formatVisitWhen } from "./format";
 
@@ -21,7 +22,8 @@ export function loadVisitMailView(visitId: string) {
   const piece = db.select().from(pieces).where(eq(pieces.id, visit.pieceId)).get()!;
   const studio = db.select().from(studios).where(eq(studios.id, visit.studioId)).get()!;
   const technician = db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, visit.technicianId)).get()!;
-  const owner = job.ownerId ? (db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, job.ownerId)).get() ?? null) : null;
+  // Visit mail goes to the job's owner only while they hold the piece (lib/repairs/owner-reach).
+  const owner = ownerActsOnJob(job, piece) ? (db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, job.ownerId!)).get() ?? null) : null;
   return { visit, job, piece, studio, technician, owner };
 }
 export type VisitMailView = NonNullable<ReturnType<typeof loadVisitMailView>>;
