@@ -12,8 +12,11 @@ export type VisitSummaryEmailProps = {
   layers: string[];
   signOffName: string;
   photoCount: number;
+  /** Next care tasks; dueOn already written out ("8 December 2027"). */
   nextCare: { label: string; dueOn: string }[];
-  /** Oily-rag caution when the visit used an oil finish. */
+  /** The new layers' cure time: until when to go gently, from when full use is fine; null when nothing is curing. */
+  curing: { title: string; lines: string[]; closing: string } | null;
+  /** Cautions for living with the piece (heat on resin). */
   cautions: string[];
   url: string;
 };
@@ -38,6 +41,18 @@ export function VisitSummaryEmail(p: VisitSummaryEmailProps) {
               <br />• {l}
             </span>
           ))}
+        </Paragraph>
+      ) : null}
+      {p.curing ? (
+        <Paragraph>
+          <strong>{p.curing.title}</strong>
+          {p.curing.lines.map((l) => (
+            <span key={l}>
+              <br />• {l}
+            </span>
+          ))}
+          <br />
+          {p.curing.closing}
         </Paragraph>
       ) : null}
       {p.photoCount ? <Paragraph>{p.photoCount} photo{p.photoCount === 1 ? "" : "s"} are on the piece&apos;s record.</Paragraph> : null}
@@ -68,10 +83,17 @@ VisitSummaryEmail.PreviewProps = {
   when: "Tuesday 8 December 2026, 09:00–10:30",
   technicianName: "Ines Varga",
   work: "Cleaned, keyed the topcoat, one fresh coat of ceramic-type topcoat.",
-  layers: ["Top: Ceramic-type topcoat over oil — Ceramic-type topcoat, matte, 1 coat, 2026-12-08"],
+  layers: ["Top: Ceramic-type topcoat over oil — Ceramic-type topcoat, matte, 1 coat, 8 December 2026"],
   signOffName: "R. Holloway",
   photoCount: 2,
-  nextCare: [{ label: "Topcoat refresh (top)", dueOn: "2027-12-08" }],
+  nextCare: [{ label: "Topcoat refresh (top)", dueOn: "8 December 2027" }],
+  curing: {
+    title: "The new finish is still curing: full use from 15 December 2026",
+    lines: [
+      "Ceramic-type topcoat over oil (Ceramic-type topcoat, matte), put on 8 December 2026: keep water, mats, cloths and objects off it until 9 December 2026; from then light use is fine — set things down gently and wipe with a dry cloth. From 15 December 2026 it is fully cured: children, heavy dishes, and wiping with water and mild soap are all fine.",
+    ],
+    closing: "A slightly tacky feel in the first days is normal while the finish hardens. If it still feels tacky after 15 December 2026, tell the studio.",
+  },
   cautions: [],
   url: "http://localhost:3000/pieces/example",
 } satisfies VisitSummaryEmailProps;

@@ -10,6 +10,7 @@ import { callApi, numberOrNull } from "@/components/pieces/api";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, type FinishClass } from "@/lib/care/vocabulary";
 import type { CatalogProductInput } from "@/lib/validation/pieces";
@@ -24,8 +25,11 @@ export type CatalogRow = {
   intervalModerateMonths: number | null;
   intervalLightMonths: number | null;
   safetyNotes: string;
+  cureLightUseHours: number | null;
+  cureFullDays: number | null;
   archivedAt: string | Date | null;
   defaults: { heavy: number; moderate: number; light: number };
+  cureDefaults: { lightUseHours: number; fullCureDays: number };
 };
 
 function exponent(currency: string): number {
@@ -78,8 +82,10 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
           intervalModerateMonths: product.intervalModerateMonths ?? product.defaults.moderate,
           intervalLightMonths: product.intervalLightMonths ?? product.defaults.light,
           safetyNotes: product.safetyNotes,
+          cureLightUseHours: product.cureLightUseHours,
+          cureFullDays: product.cureFullDays,
         }
-      : { name: "", finishClass: "hardwax_oil", containers: [], safetyNotes: "", intervalHeavyMonths: null, intervalModerateMonths: null, intervalLightMonths: null },
+      : { name: "", finishClass: "hardwax_oil", containers: [], safetyNotes: "", intervalHeavyMonths: null, intervalModerateMonths: null, intervalLightMonths: null, cureLightUseHours: null, cureFullDays: null },
     successMessage: product ? "Finish product saved." : "Finish product added to the catalog.",
     onSuccess: () => {
       onDone();
@@ -92,6 +98,7 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
   const cls = watch("finishClass") as FinishClass;
   const d = DEFAULT_WEAR_INTERVALS[cls];
   const defaults = d ? [d.heavy, d.moderate, d.light] : [];
+  const cure = DEFAULT_CURE_TIMES[cls] ?? DEFAULT_CURE_TIMES.hardwax_oil;
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4 rounded-xl border border-resin/40 bg-paper p-4" aria-label={product ? `Edit ${product.name}` : "New finish product"}>
       {formError ? <Notice tone="error">{formError}</Notice> : null}
@@ -113,6 +120,16 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
           <TextField label="Heavy use" inputMode="numeric" placeholder={String(defaults[0] ?? "")} {...register("intervalHeavyMonths", { setValueAs: numberOrNull })} error={e.intervalHeavyMonths?.message} />
           <TextField label="Moderate use" inputMode="numeric" placeholder={String(defaults[1] ?? "")} {...register("intervalModerateMonths", { setValueAs: numberOrNull })} error={e.intervalModerateMonths?.message} />
           <TextField label="Light use" inputMode="numeric" placeholder={String(defaults[2] ?? "")} {...register("intervalLightMonths", { setValueAs: numberOrNull })} error={e.intervalLightMonths?.message} />
+        </div>
+      </fieldset>
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-semibold">Cure time, from the product&apos;s label</legend>
+        <p className="text-sm text-muted">
+          Owners are told how long to keep water and objects off a fresh coat, and when full use is fine. Leave empty to use this class&apos;s usual times ({cure.lightUseHours} hours to light use, {cure.fullCureDays} days to full use).
+        </p>
+        <div className="grid gap-3 sm:grid-cols-2">
+          <TextField label="Hours until light use" inputMode="numeric" placeholder={String(cure.lightUseHours)} {...register("cureLightUseHours", { setValueAs: numberOrNull })} error={e.cureLightUseHours?.message} />
+          <TextField label="Days until full use" inputMode="numeric" placeholder={String(cure.fullCureDays)} {...register("cureFullDays", { setValueAs: numberOrNull })} error={e.cureFullDays?.message} />
         </div>
       </fieldset>
       <fieldset className="space-y-2">
@@ -189,6 +206,10 @@ export function CatalogManager({ products, currency }: { products: CatalogRow[];
                     {p.intervalHeavyMonths ?? p.intervalModerateMonths ?? p.intervalLightMonths ? <span className="text-muted"> (bold: the studio&apos;s own)</span> : <span className="text-muted"> (defaults)</span>}
                   </p>
                   <p className="text-sm">{p.containers.length ? p.containers.map((c) => `${c.ml} mL at ${money(c.priceMinor, currency)}`).join(" · ") : <span className="text-muted">No container sizes</span>}</p>
+                  <p className="text-sm">
+                    Cure: {p.cureLightUseHours ?? p.cureDefaults.lightUseHours} hours to light use, {p.cureFullDays ?? p.cureDefaults.fullCureDays} days to full use
+                    <span className="text-muted">{p.cureLightUseHours != null || p.cureFullDays != null ? " (from the label)" : " (usual for the class)"}</span>
+                  </p>
                   {p.safetyNotes ? <p className="text-sm text-muted">Safety: {p.safetyNotes}</p> : null}
                 </div>
                 <div className="flex gap-2">

@@ -134,7 +134,8 @@ export function VisitReportForm({ visitId, products, today, defaultClass, initia
                   <option key={p.id} value={p.id}>{p.name}</option>
                 ))}
               </SelectField>
-              <div className="grid grid-cols-2 gap-3">
+              {/* One column on a phone: a date field in half of a 375 px screen clips its year. */}
+              <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
                 <TextField label="Date applied" type="date" max={today} error={e?.appliedOn?.message} {...form.register(`layers.${i}.appliedOn`)} />
                 <TextField label="Batch / lot" error={e?.batchLot?.message} {...form.register(`layers.${i}.batchLot`)} />
               </div>

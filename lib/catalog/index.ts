@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { finishProducts, type FinishProduct } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
+import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { notFound } from "@/lib/errors";
 import { catalogPatchSchema, catalogProductSchema } from "@/lib/validation/pieces";
@@ -26,7 +27,7 @@ function intervalsFor(cls: FinishProduct["finishClass"], v: Partial<Record<keyof
 
 export function listCatalog(ctx: StudioContext, { includeArchived = true } = {}) {
   const rows = getDb().select().from(finishProducts).where(eq(finishProducts.studioId, ctx.studio.id)).orderBy(asc(finishProducts.finishClass), asc(finishProducts.name)).all();
-  return (includeArchived ? rows : rows.filter((r) => !r.archivedAt)).map((p) => ({ ...p, defaults: DEFAULT_WEAR_INTERVALS[p.finishClass] }));
+  return (includeArchived ? rows : rows.filter((r) => !r.archivedAt)).map((p) => ({ ...p, defaults: DEFAULT_WEAR_INTERVALS[p.finishClass], cureDefaults: DEFAULT_CURE_TIMES[p.finishClass] }));
 }
 
 function load(ctx: StudioContext, id: string): FinishProduct {
@@ -44,7 +45,7 @@ export function createCatalogProduct(ctx: StudioContext, raw: unknown): FinishPr
   return getDb().transaction((tx) => {
     const row = tx
       .insert(finishProducts)
-      .values({ studioId: ctx.studio.id, name: v.name, finishClass: v.finishClass, coverageM2PerL: v.coverageM2PerL, containers: v.containers, safetyNotes: v.safetyNotes, ...intervalsFor(v.finishClass, v) })
+      .values({ studioId: ctx.studio.id, name: v.name, finishClass: v.finishClass, coverageM2PerL: v.coverageM2PerL, containers: v.containers, safetyNotes: v.safetyNotes, cureLightUseHours: v.cureLightUseHours ?? null, cureFullDays: v.cureFullDays ?? null, ...intervalsFor(v.finishClass, v) })
       .returning()
       .get();
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "finish_product.created", subjectType: "finish_product", subjectId: row.id, data: { name: row.name } });
@@ -64,7 +65,7 @@ export function updateCatalogProduct(ctx: StudioContext, id: string, raw: unknow
     const archivedAt = archived === undefined ? current.archivedAt : archived ? (current.archivedAt ?? new Date()) : null;
     const row = tx
       .update(finishProducts)
-      .set({ name: merged.name, finishClass: merged.finishClass, coverageM2PerL: merged.coverageM2PerL, containers: merged.containers, safetyNotes: merged.safetyNotes, ...intervalsFor(merged.finishClass, merged), archivedAt })
+      .set({ name: merged.name, finishClass: merged.finishClass, coverageM2PerL: merged.coverageM2PerL, containers: merged.containers, safetyNotes: merged.safetyNotes, cureLightUseHours: merged.cureLightUseHours ?? null, cureFullDays: merged.cureFullDays ?? null, ...intervalsFor(merged.finishClass, merged), archivedAt })
       .where(and(eq(finishProducts.id, id), eq(finishProducts.studioId, ctx.studio.id)))
       .returning()
       .get();

@@ -1,21 +1,23 @@
-// The care guide an owner reads for one piece: written for the classes in its finish stack, with the
-// product quantity for this top from the care engine (productNeeded) and the cautions that apply.
+// The care guide an owner reads for one piece: written for the classes in its finish stack and for
+// where the piece stands (indoors or outdoors), with the product quantity for this top from the care
+// engine (productNeeded), the cautions that fit its care (lib/care/cautions) and, while a fresh layer
+// cures, until when to go gently (lib/care/cure).
 // Pure: no database, no server-only import (the certificate PDF and tests use it too).
 import { topArea, type TopShape } from "@/lib/care/area";
 import { CARE_GUIDE_CLIMATE } from "@/lib/care/coverage";
 import { CareInputError } from "@/lib/care/errors";
 import { productNeeded } from "@/lib/care/quantity";
 import type { CatalogEntry } from "@/lib/care/schedule";
-import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, OIL_FINISH_CLASSES, TASK_KIND_BY_FINISH_CLASS, type FinishClass, type ResinKind, type Surface } from "@/lib/care/vocabulary";
-import { formatArea, formatVolume, type UnitSystem } from "./format";
+import { cautionsFor, type Caution } from "@/lib/care/cautions";
+import { curingLayers, type CureProduct, type CureWindow } from "@/lib/care/cure";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type FinishClass, type ResinKind, type Surface, type Use } from "@/lib/care/vocabulary";
+import { formatArea, formatDate, formatVolume, type UnitSystem } from "./format";
 
 type ClassGuide = {
   everyday: string[];
   steps: string[];
   use: string[];
   avoid: string[];
-  /** Whether an owner applies a product at home for this class (ventilation and label cautions apply). */
-  appliedAtHome: boolean;
 };
 
 // Written by us for Grainward; each step defers to the product's own label where it gives times.
@@ -34,7 +36,6 @@ const GUIDES: Record<FinishClass, ClassGuide> = {
     ],
     use: ["The same hardwax oil as the layer below (named in the finish stack)", "Lint-free cotton cloths", "A fine non-woven pad"],
     avoid: ["Silicone or wax furniture sprays", "Cleaners with ammonia, bleach or solvents", "Thick coats (they stay tacky)", "Water left standing on the top"],
-    appliedAtHome: true,
   },
   ceramic_topcoat: {
     everyday: ["Wipe with a damp cloth; for grease use a pH-neutral cleaner.", "Dry the surface after cleaning."],
@@ -46,7 +47,6 @@ const GUIDES: Record<FinishClass, ClassGuide> = {
     ],
     use: ["The same ceramic-type topcoat as the layer in the finish stack", "Its applicator and clean, lint-free cloths"],
     avoid: ["Scouring pads and abrasive creams", "Oil soaps, waxes and silicone polishes (the topcoat will not bond over them)", "Hot pans and dishes straight on the top"],
-    appliedAtHome: true,
   },
   paste_wax: {
     everyday: ["Dust with a soft, dry cloth.", "Wipe marks with a barely damp cloth and dry straight away."],
@@ -58,7 +58,6 @@ const GUIDES: Record<FinishClass, ClassGuide> = {
     ],
     use: ["Clear paste wax (as in the finish stack)", "Two soft cotton cloths: one to apply, one to buff"],
     avoid: ["Alcohol and hand sanitiser (they dissolve wax)", "Hot mugs and dishes without a mat (white rings)", "Silicone sprays", "Standing water"],
-    appliedAtHome: true,
   },
   film_finish: {
     everyday: ["Wipe with a damp cloth and a little mild soap; dry afterwards.", "Use boards for cutting and mats under hot things."],
@@ -69,7 +68,6 @@ const GUIDES: Record<FinishClass, ClassGuide> = {
     ],
     use: ["A soft cloth and mild soap", "A torch or a low lamp to look across the surface"],
     avoid: ["Abrasive cleaners and scouring pads", "Ammonia-based glass cleaners", "Cutting straight on the surface", "Water left at seams and cut-outs"],
-    appliedAtHome: false,
   },
   epoxy_surface: {
     everyday: ["Wipe with a soft, damp cloth; mild soap for grease.", "Dry it so water spots do not form."],
@@ -81,7 +79,6 @@ const GUIDES: Record<FinishClass, ClassGuide> = {
     ],
     use: ["The resin polishing compound named in the finish stack", "Soft foam or microfibre pads"],
     avoid: ["Hot pots, pans and dishes on the resin (use trivets)", "Solvents such as acetone", "Abrasive pads", "Long hours of direct sun on the resin"],
-    appliedAtHome: true,
   },
   charred_oiled: {
     everyday: ["Brush off dust and leaves with a soft brush.", "Rinse with plain water only if it needs it; do not scrub the char."],
@@ -93,7 +90,6 @@ const GUIDES: Record<FinishClass, ClassGuide> = {
     ],
     use: ["The exterior oil named in the finish stack", "A soft brush", "Lint-free cloths"],
     avoid: ["Pressure washers and wire brushes (they strip the char)", "Standing it on grass or in puddles", "Stiff scrubbing"],
-    appliedAtHome: true,
   },
 };
 
@@ -110,47 +106,62 @@ export type GuideSection = {
   quantity: { text: string; reasons: string[] } | { text: null; why: string };
 };
 
-export type Caution = { key: "oily_rags" | "ventilation" | "safety_data_sheet" | "hot_cookware" | "manufacturer"; title: string; text: string };
+export type { Caution } from "@/lib/care/cautions";
 
-export type CareGuide = { sections: GuideSection[]; annualCheck: string[]; cautions: Caution[] };
+export type CareGuide = {
+  sections: GuideSection[];
+  /** Outdoor pieces get outdoor care; indoor pieces the room-climate advice. */
+  outdoor: boolean;
+  /** Everyday care for the whole piece where it stands (indoors: room climate; outdoors: rain, ground, winter). */
+  placement: string[];
+  annualCheck: string[];
+  cautions: Caution[];
+  /** Layers still curing today, in owner words; null when nothing is curing. */
+  curing: CureAdvice | null;
+};
 
 export type GuideLayer = { surface: Surface; finishClass: FinishClass; productId: string | null; productLabel: string; appliedOn: string };
 
-export const CAUTION_TEXT: Record<Caution["key"], Omit<Caution, "key">> = {
-  oily_rags: {
-    title: "Oily rags can catch fire by themselves",
-    text:
-      "Cloths and pads soaked with oil heat up as the oil dries and can ignite on their own within hours. Never pile them up or drop them in a bin. " +
-      "Dry them spread out flat outdoors, away from the house, or keep them in a closed metal can filled with water — then ask your local waste service how to get rid of them. " +
-      "(NFPA tip sheet “Safety with oily rags”.)",
-  },
-  ventilation: {
-    title: "Ventilate while you work",
-    text: "Open windows and keep air moving while you apply a finish and while it cures. Keep flames, heaters and sparks away from the products and the rags.",
-  },
-  safety_data_sheet: {
-    title: "Read the label and safety data sheet first",
-    text: "Follow the product's label and its safety data sheet, including the gloves and eye protection they call for. Keep products away from children and pets.",
-  },
-  hot_cookware: {
-    title: "Keep hot cookware off the resin",
-    text: "Resin can soften, mark or cloud with heat. Put hot pots, pans and dishes on trivets or mats, never straight on the top.",
-  },
-  manufacturer: {
-    title: "The manufacturer's instructions come first",
-    text: "Where this guide and a product's own instructions differ, follow the manufacturer. If you are unsure, ask the studio before you start.",
-  },
+/** Indoor pieces: where the piece stands (DESIGN.md §4.6: the care guide's climate range). */
+export const INDOOR_PLACEMENT = [
+  `Keep the room between about ${CARE_GUIDE_CLIMATE.rhMinPct} and ${CARE_GUIDE_CLIMATE.rhMaxPct} % relative humidity, away from radiators, heater vents and fireplaces.`,
+  "Use coasters and trivets; lift objects rather than sliding them.",
+];
+
+/** Outdoor pieces (covered): rain, ground, winter. Common practice, no published source. */
+export const OUTDOOR_PLACEMENT = [
+  "Keep it under its cover or roof, with its feet off wet grass and out of puddles; pads or blocks under the feet let the ends dry.",
+  "After rain or a hosing, wipe off standing water and let it dry in the air.",
+  "In winter, don't let snow or ice sit on it; a breathable cover is better than plastic sheeting.",
+];
+
+/** Lines of the class guides that only make sense indoors, with their outdoor replacement (or none). */
+const OUTDOOR_SWAPS: Record<string, string | null> = {
+  "Use boards for cutting and mats under hot things.": "Use boards for cutting and a mat under hot dishes from the grill.",
+  "Hot mugs and dishes without a mat (white rings)": "Hot dishes without a mat (white rings)",
+  "Ammonia-based glass cleaners": null,
 };
+
+function forPlace(lines: readonly string[], outdoor: boolean): string[] {
+  if (!outdoor) return [...lines];
+  return lines.flatMap((l) => (l in OUTDOOR_SWAPS ? (OUTDOOR_SWAPS[l] === null ? [] : [OUTDOOR_SWAPS[l]!]) : [l]));
+}
 
 /** The care guide of one piece from its finish stack (newest layer per surface group and class). */
 export function buildCareGuide(input: {
   layers: readonly GuideLayer[];
   shape: TopShape | undefined;
   resin: ResinKind;
+  use: Use;
   catalog: readonly CatalogEntry[];
+  /** The studio's products with their label cure times (catalog rows). */
+  cureProducts?: readonly CureProduct[];
+  /** The owner's today, YYYY-MM-DD: layers applied within their cure time are still curing. */
+  today: string;
   units: UnitSystem;
 }): CareGuide {
   const { layers, shape, resin, catalog, units } = input;
+  const outdoor = input.use === "outdoor_covered";
   const classes = new Map<FinishClass, GuideLayer[]>();
   for (const l of layers) classes.set(l.finishClass, [...(classes.get(l.finishClass) ?? []), l]);
   // Oil under a ceramic-type topcoat on the same surface is cared for through the topcoat.
@@ -167,32 +178,65 @@ export function buildCareGuide(input: {
       title: FINISH_CLASS_LABELS[finishClass],
       surfaces,
       task: CARE_TASK_LABELS[TASK_KIND_BY_FINISH_CLASS[finishClass]],
-      everyday: g.everyday,
+      everyday: forPlace(g.everyday, outdoor),
       steps: g.steps,
       use: g.use.map((u) => (shown[0]?.productLabel && u.includes("named in the finish stack") ? `${u}: ${shown[0].productLabel}` : u)),
-      avoid: g.avoid,
+      avoid: forPlace(g.avoid, outdoor),
       quantity: quantityFor(finishClass, onTop[0], shape, catalog, units),
     });
   }
   const order = ["hardwax_oil", "ceramic_topcoat", "paste_wax", "film_finish", "epoxy_surface", "charred_oiled"];
   sections.sort((a, b) => order.indexOf(a.finishClass) - order.indexOf(b.finishClass));
 
+  const hasResin = resin !== "none" || classes.has("epoxy_surface");
   const annualCheck = [
     "Clean the whole piece, then look over the top, edges and base in good light.",
     "Check that the base and its fixings are tight and the piece stands without rocking.",
-    "Look for new cracks, open gaps along the grain, and — on resin pieces — any gap where resin meets wood.",
-    `Check the room's humidity if you can: wood is happiest at ${CARE_GUIDE_CLIMATE.rhMinPct}–${CARE_GUIDE_CLIMATE.rhMaxPct} % relative humidity, changing no more than about ${CARE_GUIDE_CLIMATE.maxDailyRhChangePct} % in a day.`,
+    hasResin
+      ? "Look for new cracks, open gaps along the grain, and any gap where resin meets wood."
+      : "Look for new cracks and open gaps along the grain.",
+    outdoor
+      ? "Look under the top and at the feet for grey, soft or dark wood where water has sat, and for loose fixings after the winter."
+      : `Check the room's humidity if you can: wood is happiest at ${CARE_GUIDE_CLIMATE.rhMinPct}–${CARE_GUIDE_CLIMATE.rhMaxPct} % relative humidity, changing no more than about ${CARE_GUIDE_CLIMATE.maxDailyRhChangePct} % in a day.`,
     "Log the check here — it restarts the yearly clock — and tell the studio about anything that worries you.",
   ];
 
-  const cautions: Caution[] = [];
-  const classList = [...classes.keys()];
-  if (classList.some((c) => OIL_FINISH_CLASSES.includes(c))) cautions.push({ key: "oily_rags", ...CAUTION_TEXT.oily_rags });
-  if (classList.some((c) => GUIDES[c].appliedAtHome)) cautions.push({ key: "ventilation", ...CAUTION_TEXT.ventilation });
-  cautions.push({ key: "safety_data_sheet", ...CAUTION_TEXT.safety_data_sheet });
-  if (resin !== "none" || classList.includes("epoxy_surface")) cautions.push({ key: "hot_cookware", ...CAUTION_TEXT.hot_cookware });
-  cautions.push({ key: "manufacturer", ...CAUTION_TEXT.manufacturer });
-  return { sections, annualCheck, cautions };
+  const tasks = [...[...classes.keys()].map((c) => TASK_KIND_BY_FINISH_CLASS[c]), "annual_check" as const];
+  const cautions = cautionsFor({ tasks, hasResin, audience: "owner" });
+  const curing = cureAdvice(curingLayers(layers, input.cureProducts ?? [], input.today), input.today);
+  return { sections, outdoor, placement: outdoor ? OUTDOOR_PLACEMENT : INDOOR_PLACEMENT, annualCheck, cautions, curing };
+}
+
+export type CureAdvice = {
+  title: string;
+  /** One line per curing finish, with its dates. */
+  lines: string[];
+  /** The date everything is fully cured. */
+  fullUseOn: string;
+  closing: string;
+};
+
+/**
+ * A fresh layer in owner words: until when water and objects stay off, from when light use is fine,
+ * from when the whole family can use it. Answers "it still feels tacky — when can the kids use it?".
+ */
+export function cureAdvice(windows: readonly CureWindow[], today: string): CureAdvice | null {
+  if (windows.length === 0) return null;
+  const lines = windows.map((w) => {
+    const what = `${FINISH_CLASS_LABELS[w.finishClass]}${w.productName ? ` (${w.productName})` : ""}, put on ${formatDate(w.appliedOn)}`;
+    const light =
+      w.lightUseOn > today
+        ? `keep water, mats, cloths and objects off it until ${formatDate(w.lightUseOn)}; from then light use is fine — set things down gently and wipe with a dry cloth`
+        : "light use is fine now — set things down gently and wipe with a dry cloth";
+    return `${what}: ${light}. From ${formatDate(w.fullUseOn)} it is fully cured: children, heavy dishes, and wiping with water and mild soap are all fine.`;
+  });
+  const fullUseOn = windows.map((w) => w.fullUseOn).sort().at(-1)!;
+  return {
+    title: `The new finish is still curing: full use from ${formatDate(fullUseOn)}`,
+    lines,
+    fullUseOn,
+    closing: `A slightly tacky feel in the first days is normal while the finish hardens. If it still feels tacky after ${formatDate(fullUseOn)}, tell the studio.`,
+  };
 }
 
 function group(s: Surface): "top" | "base" {

@@ -3,7 +3,7 @@ import { Document, Page, StyleSheet, Text, View, renderToBuffer } from "@react-p
 import type { User } from "lucia";
 import { formatDate, formatInstant, formatTimeLeft } from "./format";
 import { getMyPiece, type PieceDetail } from "./pieces";
-import { EXCLUSION_LABELS, WARRANTY_STATUS_LABELS } from "./warranty";
+import { exclusionLabel, WARRANTY_STATUS_LABELS } from "./warranty";
 
 // The warranty certificate of one piece, for its current owner: what the piece is, who made it,
 // when it was delivered and registered, and each warranty line with its term and time left.
@@ -67,7 +67,7 @@ export function CertificateDocument({ piece, ownerName, issuedAt }: { piece: Pie
             </Text>
             <Text style={s.small}>
               {l.transfersToNewOwner ? "Passes to a new owner if the piece changes hands." : "Stays with the first owner; it ends if the piece changes hands."}
-              {l.exclusions.length ? ` Not covered: ${l.exclusions.map((e) => EXCLUSION_LABELS[e] ?? e).join(", ")}.` : ""}
+              {l.exclusions.length ? ` Not covered: ${l.exclusions.map((e) => exclusionLabel(e)).join(", ")}.` : ""}
               {l.careLogRequired ? " Keep the care log up to date: this line expects care to be done when it falls due." : ""}
             </Text>
           </View>

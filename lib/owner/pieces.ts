@@ -32,6 +32,7 @@ import {
 } from "@/lib/care/vocabulary";
 import { notFound } from "@/lib/errors";
 import { scheduleFromRows, topShape, toCatalog } from "@/lib/pieces/care-inputs";
+import { monthsText, whyNow } from "@/lib/reminders/content";
 import { buildCareGuide, type CareGuide } from "./care-guide";
 import { formatLength, formatSize, type UnitSystem } from "./format";
 import { warrantyLinesFor, type OwnerWarrantyLine } from "./warranty";
@@ -101,8 +102,8 @@ export function taskView(pieceId: string, t: CareTask): TaskView {
     status: t.status,
     clockFrom: t.clockFrom,
     clockSource: t.clockSource,
-    interval: t.interval.text,
-    reasons: t.reasons,
+    interval: monthsText(t.interval.months, t.interval.days),
+    reasons: whyNow(t),
     logUrl: logTaskUrl(pieceId, t.key),
   };
 }
@@ -314,14 +315,19 @@ export function getMyPiece(owner: Owner, pieceId: string, now = new Date()): Pie
       layers: layers.map((l) => ({ surface: l.surface, finishClass: l.finishClass, productId: l.productId, productLabel: l.productLabel, appliedOn: l.appliedOn })),
       shape: topShape(piece),
       resin: piece.resinKind,
+      use: piece.use,
       catalog: toCatalog(products),
+      cureProducts: products,
+      today: schedule.today,
       units,
     }),
     warranty: {
       version: policy?.version ?? null,
       policyName: policy?.policy.version ?? null,
       isOriginalOwner: original,
-      lines: policy ? warrantyLinesFor(policy.policy, piece.deliveredOn, schedule.today, original) : [],
+      lines: policy
+        ? warrantyLinesFor(policy.policy, piece.deliveredOn, schedule.today, original, { resin: piece.resinKind, use: piece.use, hasEpoxyLayer: layers.some((l) => l.finishClass === "epoxy_surface") })
+        : [],
     },
     certificateUrl: `/api/me/pieces/${piece.id}/certificate`,
   };

@@ -1,12 +1,13 @@
 // The words of care reminders and refresh offers, built from a care task (pure: no database, no React).
-// Templates in emails/ only lay these out. Safety copy follows DESIGN.md §8 and REFERENCES.md
-// ("Care and safety": NFPA tip sheet "Safety with oily rags").
+// Templates in emails/ only lay these out. Safety copy comes from lib/care/cautions (DESIGN.md §8).
 import { topArea, type TopShape } from "@/lib/care/area";
 import { diffDays } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";
 import { formatMinorUnits, type Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
-import { OIL_FINISH_CLASSES, type CareTaskKind, type ReminderStep } from "@/lib/care/vocabulary";
+import { cautionLine, cautionsFor as catalogueCautions } from "@/lib/care/cautions";
+import { formatArea, formatVolume } from "@/lib/owner/format";
+import type { CareTaskKind, ReminderStep } from "@/lib/care/vocabulary";
 
 const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
 
@@ -61,27 +62,13 @@ export const TASK_STEPS: Record<CareTaskKind, string[]> = {
   ],
 };
 
-export const OILY_RAG_CAUTION =
-  "Oily rags can heat up and catch fire by themselves within hours. Never leave them in a pile: dry them spread flat outdoors, away from buildings, or keep them in a closed metal can filled with water, then ask your local waste service how to dispose of them (NFPA tip sheet \"Safety with oily rags\").";
-export const VENTILATE_CAUTION = "Open windows or work outdoors while you apply it, and keep children and pets away until it has dried.";
-export const SDS_CAUTION = "Follow the product's label and its safety data sheet.";
-export const HOT_COOKWARE_CAUTION = "Keep hot pans and dishes off the resin: use trivets.";
-export const HEAVY_TOP_CAUTION = "Tops are heavy: never lift or move the piece alone.";
-
 const APPLIES_PRODUCT: readonly CareTaskKind[] = ["reoil", "topcoat_refresh", "rewax", "resin_polish", "reoil_charred"];
 
-/** The cautions that apply to a task on this piece. */
+/** The cautions that apply to a task on this piece, from the one catalogue (lib/care/cautions). */
 export function cautionsFor(task: Pick<CareTask, "kind" | "finishClass">, piece: { hasResin: boolean }, productName?: string): string[] {
-  const out: string[] = [];
-  const oil = task.finishClass !== null && OIL_FINISH_CLASSES.includes(task.finishClass) && APPLIES_PRODUCT.includes(task.kind);
-  if (oil) out.push(OILY_RAG_CAUTION);
-  if (APPLIES_PRODUCT.includes(task.kind)) {
-    out.push(VENTILATE_CAUTION);
-    out.push(productName ? `Follow the label and safety data sheet of ${productName}.` : SDS_CAUTION);
-  }
-  if (piece.hasResin) out.push(HOT_COOKWARE_CAUTION);
-  if (task.kind === "annual_check") out.push(HEAVY_TOP_CAUTION);
-  return out;
+  return catalogueCautions({ tasks: [task.kind], hasResin: piece.hasResin, audience: "owner" }).map((c) =>
+    c.key === "product_label" && productName ? `Read the label and safety data sheet of ${productName} first, and follow them, including the gloves and eye protection they ask for.` : cautionLine(c),
+  );
 }
 
 /** Days from the owner's date to the due date (negative: overdue). Steps can go out late (first pass after registration or downtime). */
@@ -125,28 +112,34 @@ const SINCE_WORDS: Record<CareTaskKind, string> = {
   annual_check: "",
 };
 
-function monthsText(months: number, days: number): string {
+/** "12 months", "13 months and 15 days": an interval in words. */
+export function monthsText(months: number, days: number): string {
   const m = months === 1 ? "1 month" : `${months} months`;
   return days > 0 ? `${m} and ${days} days` : m;
 }
 
-/** Why this reminder comes now: when the clock started, the use and sun it was judged for, the interval. */
-export function whyNow(task: CareTask, piece: { use: keyof typeof USE_WORDS; sun: keyof typeof SUN_WORDS }): string[] {
+const BAND_WORDS = { heavy: "heavy use", moderate: "moderate use", light: "light use" } as const;
+
+/**
+ * Why a task falls when it does, in owner words: when its clock started, the use and sun it was
+ * judged for, the interval. With the piece, its use and sun are named; without it, the task's own
+ * interval says the band and whether direct sun shortened it.
+ */
+export function whyNow(task: CareTask, piece?: { use: keyof typeof USE_WORDS; sun: keyof typeof SUN_WORDS }): string[] {
   const interval = monthsText(task.interval.months, task.interval.days);
   const where = task.surface === "whole_piece" ? "" : ` on the ${SURFACE_WORDS[task.surface]}`;
   if (task.kind === "annual_check") {
-    const from = task.clockSource === "care_log" ? `The last check you logged was on ${longDate(task.clockFrom)}` : `Your piece was delivered on ${longDate(task.clockFrom)}`;
+    const from = task.clockSource === "care_log" ? `The last check was on ${longDate(task.clockFrom)}` : `Your piece was delivered on ${longDate(task.clockFrom)}`;
     return [`${from}; we suggest a clean and check every ${interval}, so the next one is due on ${longDate(task.dueOn)}.`];
   }
   const since =
     task.clockSource === "care_log"
-      ? `You last logged this${where} on ${longDate(task.clockFrom)}.`
+      ? `This was last done${where} on ${longDate(task.clockFrom)}, as the care log shows.`
       : `${SINCE_WORDS[task.kind]}${where} went on ${longDate(task.clockFrom)}.`;
-  const band = task.surface === "base" && task.interval.band === "light" ? "a base, which sees light wear" : USE_WORDS[piece.use];
-  return [
-    since,
-    `For ${band}, ${SUN_WORDS[piece.sun]}, this finish lasts about ${interval}, so it is due on ${longDate(task.dueOn)}.`,
-  ];
+  const useWords = piece ? USE_WORDS[piece.use] : BAND_WORDS[task.interval.band];
+  const sunWords = piece ? `, ${SUN_WORDS[piece.sun]}` : task.interval.factor !== 1 ? ", in direct sun" : "";
+  const band = task.surface === "base" && task.interval.band === "light" ? "a base, which sees light wear" : useWords;
+  return [since, `For ${band}${sunWords}, this finish lasts about ${interval}, so it is due on ${longDate(task.dueOn)}.`];
 }
 
 /** How much product a refresh of this top takes, in the owner's units first. */
@@ -160,10 +153,10 @@ export function quantityText(
   const area = topArea(shape);
   const coats = product.refreshCoats ?? 1;
   const need = productNeeded({ areaM2: area.m2, coats, coverageM2PerL: product.coverageM2PerL, containerSizesMl: product.containerSizesMl });
-  const amount = unitSystem === "imperial" ? `${need.flOz} US fl oz (${need.ml} mL)` : `${need.ml} mL (${need.flOz} US fl oz)`;
-  const size = unitSystem === "imperial" ? `${area.ft2.toFixed(1)} ft²` : `${area.m2.toFixed(2)} m²`;
+  const amount = formatVolume(need.ml, unitSystem);
+  const size = formatArea(area.m2, unitSystem);
   const name = product.name ?? "the product";
-  const cans = need.containers.length > 0 ? ` — ${need.containers.map((c) => `${c.count} × ${c.sizeMl} mL`).join(" + ")} is enough` : "";
+  const cans = need.containers.length > 0 ? ` — ${need.containers.map((c) => `${c.count} × ${formatVolume(c.sizeMl, unitSystem)}`).join(" + ")} is enough` : "";
   return `About ${amount} of ${name} for ${coats === 1 ? "one coat" : `${coats} coats`} on this top (${size})${cans}.`;
 }
 

@@ -164,6 +164,9 @@ export const catalogProductSchema = z.object({
   intervalModerateMonths: z.number().int("Whole months.").min(1, "At least 1 month.").max(240).nullable().optional(),
   intervalLightMonths: z.number().int("Whole months.").min(1, "At least 1 month.").max(240).nullable().optional(),
   safetyNotes: text(2000).default(""),
+  /** From the product's label; empty keeps the finish class's default (lib/care/cure.ts). */
+  cureLightUseHours: z.number({ error: "Hours must be a number." }).int("Whole hours.").min(1, "At least 1 hour.").max(24 * 60, "At most 60 days in hours.").nullable().optional(),
+  cureFullDays: z.number({ error: "Days must be a number." }).int("Whole days.").min(1, "At least 1 day.").max(365, "At most 365 days.").nullable().optional(),
 });
 export type CatalogProductInput = z.input<typeof catalogProductSchema>;
 export const catalogPatchSchema = patchOf(catalogProductSchema).extend({ archived: z.boolean().optional() });

@@ -24,16 +24,19 @@ import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { topArea } from "@/lib/care/area";
 import { addDays, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
+import { cautionLine, cautionsFor } from "@/lib/care/cautions";
+import { curingLayers } from "@/lib/care/cure";
 import { productNeeded } from "@/lib/care/quantity";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass } from "@/lib/care/vocabulary";
 import { AppError, badRequest, conflict, forbidden, notFound } from "@/lib/errors";
-import { careBasics, OILY_RAG_CAUTION } from "@/lib/pieces/care-basics";
+import { cureAdvice } from "@/lib/owner/care-guide";
+import { formatDate } from "@/lib/owner/format";
 import { scheduleFromRows, topShape } from "@/lib/pieces/care-inputs";
 import { insertLayers } from "@/lib/pieces/layers";
 import { checkLayerRefs, studioProducts } from "@/lib/pieces/registry";
 import { indexPiece } from "@/lib/pieces/search-index";
 import { moveJob } from "@/lib/repairs/jobs";
-import { MAX_UPLOAD_BYTES, removeStoredFiles, storeImage } from "@/lib/storage";
+import { removeStoredFiles, storeImage } from "@/lib/storage";
 import { visitDay } from "@/lib/validation/dates";
 import {
   bookVisitSchema,
@@ -374,12 +377,6 @@ export function bookingContext(actor: VisitActor, jobId: string) {
 
 // ---- the technician's day ----
 
-const FIELD_CAUTIONS = [
-  "Ventilate while you work and follow each product's safety data sheet and the manufacturer's instructions.",
-  "Heavy tops need two people to lift — ask for help rather than lift alone.",
-  "Anything electrical in a piece (lights, motorised frames, charging points) is for a licensed electrician, under local codes.",
-];
-
 export type BringItem = { product: string; finishClass: FinishClass; classLabel: string; coats: number; ml: number; flOz: number; containers: string };
 
 function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[]): BringItem[] {
@@ -427,11 +424,16 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
   const items = rows.map(({ visit, job, piece, ownerName }) => {
     const layers = db.select().from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).all();
     const bring = whatToBring(job, piece, products);
-    const classes = [...layers.map((l) => l.finishClass), ...bring.map((b) => b.finishClass)];
-    const basics = careBasics(classes, piece.resinKind);
-    const cautions = [...new Set([...(bring.some((b) => ["hardwax_oil", "ceramic_topcoat", "charred_oiled"].includes(b.finishClass)) ? [OILY_RAG_CAUTION] : []), ...basics.cautions, ...FIELD_CAUTIONS])];
+    const jobTasks = (job.quoteInput as { tasks?: CareTaskKind[] }).tasks ?? [];
+    // The cautions for this visit's tasks and the products brought, once each (lib/care/cautions).
+    const cautions = cautionsFor({
+      tasks: jobTasks,
+      applying: bring.map((b) => b.finishClass),
+      hasResin: piece.resinKind !== "none" || layers.some((l) => l.finishClass === "epoxy_surface"),
+      audience: "technician",
+    });
     const photos = db.select({ id: visitPhotos.fileId, kind: visitPhotos.kind }).from(visitPhotos).where(eq(visitPhotos.visitId, visit.id)).all();
-    const tasks = ((job.quoteInput as { tasks?: CareTaskKind[] }).tasks ?? []).map((k) => CARE_TASK_LABELS[k] ?? k);
+    const tasks = jobTasks.map((k) => CARE_TASK_LABELS[k] ?? k);
     return {
       visit: visitJson(visit, { when: formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), tz) }),
       job: { id: job.id, title: job.title, tasks, notes: job.notes },
@@ -457,15 +459,17 @@ export type TechnicianDay = ReturnType<typeof technicianDay>;
 
 // ---- photos and the report ----
 
-/** POST /api/visits/[id]/photos (multipart: file, kind): a before or after photo, through lib/storage. */
-export async function addVisitPhoto(ctx: StudioContext, visitId: string, upload: unknown, rawKind: unknown) {
-  const kind = visitPhotoKindSchema.parse(rawKind);
+/**
+ * POST /api/visits/[id]/photos (multipart: file, kind): a before or after photo, through lib/storage.
+ * `read` (the bounded upload reader) is called only once the visit is known to be the actor's.
+ */
+export async function addVisitPhoto(ctx: StudioContext, visitId: string, read: () => Promise<{ data: Uint8Array; fields: Record<string, string> }>) {
   const actor: VisitActor = ctx.role === "technician" ? { kind: "technician", ctx } : { kind: "staff", ctx };
   const { visit } = visitForActor(actor, visitId);
   if (visit.state === "cancelled") throw conflict("This visit was cancelled.");
-  if (!(upload instanceof Blob)) throw badRequest('Attach the photo in the form field "file".', { file: ["Choose a photo."] });
-  if (upload.size > MAX_UPLOAD_BYTES) throw new AppError(413, "file_too_large", `That photo is ${(upload.size / 1024 / 1024).toFixed(1)} MB; the limit is 15 MB. Send a smaller one.`);
-  const stored = await storeImage(new Uint8Array(await upload.arrayBuffer()));
+  const upload = await read();
+  const kind = visitPhotoKindSchema.parse(upload.fields.kind);
+  const stored = await storeImage(upload.data, ctx.user.id);
   try {
     const file = getDb().transaction((tx) => {
       const f = tx.insert(files).values({ studioId: visit.studioId, purpose: "visit_photo", pieceId: visit.pieceId, ...stored, uploadedById: ctx.user.id }).returning().get();
@@ -549,7 +553,9 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
   const technician = db.select({ name: users.name }).from(users).where(eq(users.id, visit.technicianId)).get();
   const photoCount = db.select({ n: sql<number>`count(*)` }).from(visitPhotos).where(eq(visitPhotos.visitId, visit.id)).get()?.n ?? 0;
   if (owner) {
-    const hasOil = result.added.some((l) => ["hardwax_oil", "ceramic_topcoat", "charred_oiled"].includes(l.finishClass));
+    const hasResin = piece.resinKind !== "none" || layers.some((l) => l.finishClass === "epoxy_surface");
+    const products = studioProducts(studio.id);
+    const SURFACE_WORDS = { top: "top", base: "base", edges: "edges", whole_piece: "whole piece" } as const;
     await mailSafely("summary", () =>
       sendVisitSummary(studio.id, owner.email, {
         ownerName: owner.name,
@@ -559,11 +565,12 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
         when: formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), studio.timeZone),
         technicianName: technician?.name ?? "Your technician",
         work: input.work,
-        layers: result.added.map((l) => `${l.surface[0]!.toUpperCase()}${l.surface.slice(1)}: ${FINISH_CLASS_LABELS[l.finishClass]}${l.productLabel ? ` — ${l.productLabel}` : ""}, ${l.coats} coat${l.coats === 1 ? "" : "s"}, ${l.appliedOn}`),
+        layers: result.added.map((l) => `${l.surface[0]!.toUpperCase()}${l.surface.slice(1)}: ${FINISH_CLASS_LABELS[l.finishClass]}${l.productLabel ? ` — ${l.productLabel}` : ""}, ${l.coats} coat${l.coats === 1 ? "" : "s"}, ${formatDate(l.appliedOn)}`),
         signOffName: input.signOffName,
         photoCount,
-        nextCare: schedule.tasks.slice(0, 3).map((t) => ({ label: `${t.label} (${t.surface})`, dueOn: t.dueOn })),
-        cautions: hasOil ? [OILY_RAG_CAUTION] : [],
+        nextCare: schedule.tasks.slice(0, 3).map((t) => ({ label: `${t.label} (${SURFACE_WORDS[t.surface]})`, dueOn: formatDate(t.dueOn) })),
+        curing: cureAdvice(curingLayers(result.added, products, schedule.today), schedule.today),
+        cautions: cautionsFor({ hasResin, audience: "owner" }).map(cautionLine),
         url: new URL(`/pieces/${piece.id}`, jobUrl(result.job.id)).href,
       }),
     );

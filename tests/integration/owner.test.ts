@@ -83,14 +83,15 @@ describe("owner pieces", () => {
     expect(view.layers[0]).toMatchObject({ classLabel: "Hardwax oil", appliedOn: "2025-06-01", productLabel: "Test hardwax oil (invented)" });
     expect(view.size).toBe("79 × 35 in");
     const reoil = view.schedule.tasks.find((t) => t.kind === "reoil")!;
-    expect(reoil.reasons[0]).toContain("last oil coat 2025-06-01");
+    expect(reoil.reasons[0]).toBe("The last oil coat on the top went on 1 June 2025.");
 
     const oil = view.guide.sections.find((s) => s.finishClass === "hardwax_oil")!;
     const need = productNeeded({ areaM2: topArea({ kind: "rectangle", lengthMm: 2000, widthMm: 900 }).m2, coats: 1, coverageM2PerL: 24, containerSizesMl: [125, 750] });
     expect(oil.quantity.text).toContain(`${need.ml} mL`);
     expect(oil.quantity.text).toContain("US fl oz");
-    expect(view.guide.cautions.map((c) => c.key)).toEqual(["oily_rags", "ventilation", "safety_data_sheet", "hot_cookware", "manufacturer"]);
-    expect(view.guide.cautions[0]!.text).toMatch(/closed metal can filled with water/);
+    // Re-oil and the yearly check on a resin piece (lib/care/cautions): no dust or epoxy cautions for these tasks.
+    expect(view.guide.cautions.map((c) => c.key)).toEqual(["oily_rags", "heat_on_resin", "ventilation", "product_label", "heavy_top"]);
+    expect(view.guide.cautions[0]!.text).toMatch(/metal can, cover them with water and a squirt of washing-up detergent/);
 
     expect(view.warranty.version).toBe(3);
     const structural = view.warranty.lines.find((l) => l.category === "structural")!;
@@ -120,7 +121,7 @@ describe("care log", () => {
     expect(r.task).toMatchObject({ dueOn: expected.dueOn, status: expected.status, clockSource: "care_log" });
     expect(r.task!.dueOn).toBe("2027-03-10");
     expect(r.task!.status).toBe("done");
-    expect(r.task!.reasons[0]).toContain("last logged re-oil 2026-03-10");
+    expect(r.task!.reasons[0]).toBe("This was last done on the top on 10 March 2026, as the care log shows.");
     expect(getMyPiece(me, piece.id, NOW).careLog[0]).toMatchObject({ label: "Re-oil", doneOn: "2026-03-10", mine: true, notes: "Two thin coats" });
   });
 

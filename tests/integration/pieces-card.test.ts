@@ -55,16 +55,18 @@ describe("drawer card", () => {
     const { pdf, filename } = await renderDrawerCard(ctx, piece.id);
     expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
     expect(filename).toBe("drawer-card-oiled-elm-table-invented.pdf");
-    const { text, size } = await pdfText(pdf);
+    const { text, size, pages } = await pdfText(pdf);
     expect(size).toEqual([288, 432]); // 4 × 6 in
     expect(text).toContain(registrationCode);
     expect(registrationCode).toMatch(/^.{4}-.{4}-.{4}-.$/);
     expect(text).toContain("Card Test Studio (invented)".toUpperCase());
     expect(text).toContain("Oiled elm table (invented)");
-    expect(text).toMatch(/Oily rags can heat up and catch fire/);
-    expect(text).toMatch(/closed metal can filled with water/);
-    expect(text).toMatch(/hot cookware off the resin/);
+    expect(text).toMatch(/Oily rags can catch fire by themselves/);
+    expect(text).toMatch(/closed metal can of water with a little detergent/);
+    expect(pages).toBe(1);
+    expect(text).toMatch(/Keep hot mugs, pans, laptops and heaters off and away from the resin/);
     expect(text).toMatch(/safety data sheet/);
+    expect(text).toMatch(/relative humidity/); // an indoor piece keeps its room-climate line
 
     const expected = `${APP_URL}/r/${registrationCode}`;
     const dataUrl = await qrDataUrl(registrationCode);
@@ -89,7 +91,7 @@ describe("drawer card", () => {
     expect(again.text).not.toContain(registrationCode);
   });
 
-  it("leaves the oily-rag caution off a stack without oil", async () => {
+  it("leaves the oily-rag and product cautions off a stack without oil that an owner never recoats", async () => {
     const ctx = await memberContext(createStudio(), "staff");
     const { piece, registrationCode } = createPiece(ctx, {
       kind: "countertop",
@@ -105,6 +107,8 @@ describe("drawer card", () => {
     const { text } = await pdfText((await renderDrawerCard(ctx, piece.id)).pdf);
     expect(text).toContain(registrationCode);
     expect(text).not.toMatch(/Oily rags/);
-    expect(text).toMatch(/safety data sheet/);
+    // A film finish is inspected, not recoated at home: no product goes on, so no label caution either.
+    expect(text).not.toMatch(/safety data sheet/);
+    expect(text).toMatch(/lift with two people/);
   });
 });

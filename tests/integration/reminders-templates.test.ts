@@ -63,7 +63,7 @@ describe("care reminder templates", () => {
         expect(input.headers?.["List-Unsubscribe-Post"]).toBe("List-Unsubscribe=One-Click");
         expect(text).toContain("/unsubscribe?t=");
         const oil = ["reoil", "topcoat_refresh", "reoil_charred"].includes(kind);
-        expect(text.includes("Oily rags can heat up")).toBe(oil);
+        expect(text.includes("Oily rags can catch fire by themselves")).toBe(oil);
         expect(text.includes("Accept the refresh offer")).toBe(q !== undefined);
         if (["reoil", "topcoat_refresh", "rewax", "resin_polish", "reoil_charred"].includes(kind)) expect(text).toMatch(/How much: About/);
         expect(`Subject: ${input.subject}\n\n${text.replace(/t=[A-Za-z0-9_-]+\.[A-Za-z0-9_-]+/g, "t=TOKEN")}`).toMatchSnapshot();

@@ -231,11 +231,11 @@ describe("the visit report", () => {
     expect(day.items.map((i) => i.visit.id)).toEqual([v.id]);
     expect(day.items[0]!.bring[0]).toMatchObject({ product: w.product.name, coats: 1 });
     expect(day.items[0]!.bring[0]!.ml).toBe(Math.ceil(((2 * 0.9 * 1) / 24) * 1000)); // 1.8 m² × 1 coat ÷ 24 m²/L
-    expect(day.items[0]!.cautions.join(" ")).toMatch(/metal can filled with water/);
-    expect(day.items[0]!.cautions.join(" ")).toMatch(/licensed electrician/);
+    expect(day.items[0]!.cautions.map((c) => c.text).join(" ")).toMatch(/metal can, cover them with water/);
+    expect(day.items[0]!.cautions.map((c) => c.text).join(" ")).toMatch(/licensed electrician/);
 
     const photo = await sharp({ create: { width: 64, height: 48, channels: 3, background: "#7a5532" } }).jpeg().toBuffer();
-    const up = await addVisitPhoto(w.tech, v.id, new Blob([new Uint8Array(photo)], { type: "image/jpeg" }), "after");
+    const up = await addVisitPhoto(w.tech, v.id, async () => ({ data: new Uint8Array(photo), fields: { kind: "after" } }));
     const file = db.select().from(files).where(eq(files.id, up.id)).get()!;
     expect(file.purpose).toBe("visit_photo");
     expect(canViewFile(w.owner.id, file)).toBe(true);
@@ -260,8 +260,8 @@ describe("the visit report", () => {
     const mail = await waitForMail({ to: w.owner.email, subject: /^Visit report/, since });
     expect(mail.text).toContain("Cleaned, keyed, one coat of oil on the top.");
     expect(mail.text).toContain("T. Owner");
-    expect(mail.text).toContain(after.dueOn);
-    expect(mail.text).toMatch(/metal can filled with water/);
+    expect(mail.text).toContain(DateTime.fromISO(after.dueOn).setLocale("en-GB").toFormat("d LLLL yyyy"));
+    expect(mail.text).toMatch(/still curing/);
     expect(await statusOf(submitReport(w.tech, v.id, { work: "again", layers: [], signOffName: "x" }))).toBe(409);
   });
 

@@ -51,7 +51,7 @@ export default async function OwnerPiecesPage() {
                     <span className="text-muted">
                       {formatDate(p.nextTask.dueOn, { short: true })} ({relativeDays(p.nextTask.daysUntilDue)})
                     </span>
-                    <TaskStatus status={p.nextTask.status} />
+                    <TaskStatus status={p.nextTask.status} daysUntilDue={p.nextTask.daysUntilDue} />
                   </div>
                 ) : null}
               </Link>

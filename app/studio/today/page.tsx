@@ -108,7 +108,9 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                     </h3>
                     <ul className="list-disc space-y-1 pl-5 text-sm">
                       {item.cautions.map((c) => (
-                        <li key={c}>{c}</li>
+                        <li key={c.key}>
+                          <strong>{c.title}.</strong> {c.text}
+                        </li>
                       ))}
                     </ul>
                   </section>

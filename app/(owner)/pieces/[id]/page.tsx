@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { Suspense } from "react";
-import { ClipboardCheck, FileDown, Flame, Handshake, Pencil, ShieldCheck, ShieldOff, ShieldX, TriangleAlert, Wind } from "lucide-react";
+import { ClipboardCheck, Droplets, FileDown, Flame, Hand, Handshake, HardHat, Hourglass, Pencil, ShieldCheck, ShieldOff, ShieldX, ThermometerSun, TriangleAlert, Wind, Zap } from "lucide-react";
 import { CareTimeline } from "@/components/owner/care-timeline";
 import { FinishStack } from "@/components/ui/finish-stack";
 import { FlashToast } from "@/components/owner/flash-toast";
@@ -11,12 +11,24 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatDate, formatInstant, formatTimeLeft } from "@/lib/owner/format";
 import { getMyPiece } from "@/lib/owner/pieces";
-import { EXCLUSION_LABELS, WARRANTY_STATUS_LABELS, type WarrantyLineStatus } from "@/lib/owner/warranty";
+import type { CautionKey } from "@/lib/care/cautions";
+import { exclusionLabel, WARRANTY_STATUS_LABELS, type WarrantyLineStatus } from "@/lib/owner/warranty";
 
 export const metadata: Metadata = { title: "Piece" };
 
 const WARRANTY_ICON: Record<WarrantyLineStatus, typeof ShieldCheck> = { active: ShieldCheck, ended: ShieldX, not_transferred: ShieldOff };
-const CAUTION_ICON = { oily_rags: Flame, ventilation: Wind, safety_data_sheet: TriangleAlert, hot_cookware: Flame, manufacturer: TriangleAlert } as const;
+const CAUTION_ICON: Record<CautionKey, typeof Flame> = {
+  oily_rags: Flame,
+  fine_dust: Wind,
+  epoxy_skin: Hand,
+  polishing_heat: ThermometerSun,
+  heat_on_resin: ThermometerSun,
+  ventilation: Wind,
+  product_label: TriangleAlert,
+  heavy_top: HardHat,
+  electrics: Zap,
+};
+const SURFACE_WORDS: Record<string, string> = { top: "top", base: "base", edges: "edges", whole_piece: "whole piece" };
 
 function Section({ id, title, children }: { id: string; title: string; children: React.ReactNode }) {
   return (
@@ -37,7 +49,9 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
     ["Wood", wood],
     ["Top", piece.size],
     ...(piece.thickness ? ([["Thickness", piece.thickness]] as [string, string][]) : []),
-    ["Resin", piece.resin.kind === "none" ? "None" : `${piece.resin.label}${piece.resin.tint ? `, ${piece.resin.tint}` : ""}${piece.resin.pouredOn ? ` (poured ${formatDate(piece.resin.pouredOn)})` : ""}`],
+    ...(piece.resin.kind === "none"
+      ? []
+      : ([["Resin", `${piece.resin.label}${piece.resin.tint ? `, ${piece.resin.tint}` : ""}${piece.resin.pouredOn ? ` (poured ${formatDate(piece.resin.pouredOn)})` : ""}`]] as [string, string][])),
     ["Base", [piece.base.material, piece.base.finish].filter((x) => x && x !== "—").join(", ") || "—"],
     ["Use", piece.use],
     ["Sun", piece.sun],
@@ -83,9 +97,23 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
         </div>
       </header>
 
+      {piece.guide.curing ? (
+        <section role="status" aria-label="Curing" className="space-y-2 rounded-xl border border-resin/30 bg-resin-soft p-4">
+          <p className="flex items-center gap-2 font-semibold">
+            <Hourglass aria-hidden className="size-5 shrink-0 text-resin" /> {piece.guide.curing.title}
+          </p>
+          <ul className="list-disc space-y-1 pl-5 text-sm">
+            {piece.guide.curing.lines.map((l) => (
+              <li key={l}>{l}</li>
+            ))}
+          </ul>
+          <p className="text-sm text-muted">{piece.guide.curing.closing}</p>
+        </section>
+      ) : null}
+
       <Section id="schedule" title="Care schedule">
         <p className="text-sm text-muted">Today is {formatDate(piece.schedule.today)} where you are. Each date counts from the last care of that kind.</p>
-        <CareTimeline tasks={piece.schedule.tasks} />
+        <CareTimeline tasks={piece.schedule.tasks} careLog={piece.careLog} />
       </Section>
 
       <Section id="made-of" title="What it's made of">
@@ -122,6 +150,17 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             })}
           </ul>
         </div>
+        <Card className="space-y-2">
+          <h3 className="flex items-center gap-2 text-lg font-semibold">
+            <Droplets aria-hidden className="size-5 text-resin" />
+            {piece.guide.outdoor ? "Outdoors, day to day" : "Where it stands"}
+          </h3>
+          <ul className="list-disc space-y-1 pl-5 text-sm">
+            {piece.guide.placement.map((x) => (
+              <li key={x}>{x}</li>
+            ))}
+          </ul>
+        </Card>
         {piece.guide.sections.map((s) => (
           <Card key={s.finishClass} className="space-y-3">
             <div>
@@ -192,7 +231,6 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             <ul className="space-y-3">
               {piece.warranty.lines.map((l) => {
                 const Icon = WARRANTY_ICON[l.status];
-                const used = Math.min(100, Math.max(0, 100 - (l.daysLeft / (l.termMonths * 30.44)) * 100));
                 return (
                   <li key={l.category} className="rounded-xl border border-line bg-card p-4">
                     <div className="flex flex-wrap items-start gap-2">
@@ -217,13 +255,22 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                       <span className="text-muted">({l.termMonths} months from delivery)</span>
                     </p>
                     {l.status === "active" ? (
-                      <div className="mt-2 h-2 overflow-hidden rounded-full bg-line" aria-hidden>
-                        <div className="h-full bg-resin" style={{ width: `${used.toFixed(0)}%` }} />
+                      <div
+                        className="mt-2 h-2 overflow-hidden rounded-full bg-line"
+                        role="meter"
+                        aria-label={`Time left on ${l.label}`}
+                        aria-valuemin={0}
+                        aria-valuemax={100}
+                        aria-valuenow={l.timeLeftPct}
+                        aria-valuetext={`${formatTimeLeft(l.daysLeft)} left`}
+                        data-time-left-pct={l.timeLeftPct}
+                      >
+                        <div className="h-full bg-resin" style={{ width: `${l.timeLeftPct}%` }} />
                       </div>
                     ) : null}
                     <p className="mt-2 text-sm text-muted">
                       {l.transfersToNewOwner ? "Passes to a new owner." : "Stays with the first owner."}
-                      {l.exclusions.length ? ` Not covered: ${l.exclusions.map((e) => EXCLUSION_LABELS[e] ?? e).join(", ")}.` : ""}
+                      {l.exclusions.length ? ` Not covered: ${l.exclusions.map(exclusionLabel).join(", ")}.` : ""}
                       {l.careLogRequired ? " Logging care when it falls due keeps this line whole." : ""}
                     </p>
                   </li>
@@ -249,7 +296,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                   </p>
                   <p className="text-muted">
                     {e.byLabel}
-                    {e.surface ? ` · ${e.surface}` : ""}
+                    {e.surface ? ` · ${SURFACE_WORDS[e.surface] ?? e.surface}` : ""}
                     {e.productUsed ? ` · ${e.productUsed}` : ""}
                   </p>
                   {e.notes ? <p className="mt-1 break-words">{e.notes}</p> : null}

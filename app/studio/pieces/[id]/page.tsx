@@ -32,7 +32,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
   const p = d.piece;
   const u = d.unitSystem;
   const species = [p.primarySpeciesId, p.secondarySpeciesId].filter(Boolean).map((s) => getSpecies(s!)?.commonName ?? s);
-  const basics = careBasics(d.layers.map((l) => l.finishClass), p.resinKind);
+  const basics = careBasics(d.layers.map((l) => l.finishClass), p.resinKind, p.use);
   const size =
     p.shapeKind === "round"
       ? `Round, Ø ${formatLength(p.diameterMm, u)}`

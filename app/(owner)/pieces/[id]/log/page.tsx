@@ -30,7 +30,7 @@ export default async function LogCarePage({ params, searchParams }: { params: Pr
             <span className="font-semibold">
               {chosen.label} — {chosen.surfaceLabel.toLowerCase()}
             </span>
-            <TaskStatus status={chosen.status} />
+            <TaskStatus status={chosen.status} daysUntilDue={chosen.daysUntilDue} />
           </div>
           <p className="text-muted">
             {chosen.status === "overdue" ? "Was due" : "Due"} {formatDate(chosen.dueOn)}. {chosen.reasons[0]}
