@@ -9,7 +9,7 @@ import { recordAudit } from "@/lib/audit";
 import { callStripe, expireCheckoutSession, type Stripe } from "@/lib/payments/stripe";
 import { moveJob } from "./jobs";
 import { mailAutomaticRefund, mailReceipt, mailRefundIssued } from "./mail";
-import { AWAITING_PAYMENT, CAPTURED, isAutomaticRefund, paymentCounts, type RefundReason } from "./states";
+import { AWAITING_PAYMENT, CAPTURED, isAutomaticRefund, paymentCounts, REFUND_REASON_LABELS, type RefundReason } from "./states";
 
 const intentOf = (session: Stripe.Checkout.Session) => (typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null));
 
@@ -60,7 +60,8 @@ export async function applySession(session: Stripe.Checkout.Session): Promise<{ 
         action: "payment.refund_due",
         subjectType: "payment",
         subjectId: payment.id,
-        data: { reason, quoteVersion: payment.quoteVersion, amountMinor: payment.amountMinor, jobQuoteVersion: job.quoteVersion, jobTotalMinor: job.totalMinor, jobState: job.state },
+        // The audit page shows "reason" as written: plain words, the code beside it for queries.
+        data: { reason: REFUND_REASON_LABELS[reason], reasonCode: reason, quoteVersion: payment.quoteVersion, amountMinor: payment.amountMinor, jobQuoteVersion: job.quoteVersion, jobTotalMinor: job.totalMinor, jobState: job.state },
       });
       return { jobId: job.id, counted: false };
     }
@@ -125,7 +126,7 @@ export async function applyRefund(chargeId: string): Promise<void> {
     if (!payment || charge.amount_refunded <= payment.refundedMinor) return null;
     const status: Payment["status"] = charge.amount_refunded >= payment.amountMinor ? "refunded" : "partially_refunded";
     tx.update(payments).set({ refundedMinor: charge.amount_refunded, status, updatedAt: new Date() }).where(eq(payments.id, payment.id)).run();
-    recordAudit(tx, { studioId: payment.studioId, actorId: null, action: "payment.refunded", subjectType: "payment", subjectId: payment.id, data: { refundedMinor: charge.amount_refunded, reason: payment.refundReason } });
+    recordAudit(tx, { studioId: payment.studioId, actorId: null, action: "payment.refunded", subjectType: "payment", subjectId: payment.id, data: { refundedMinor: charge.amount_refunded, ...(payment.refundReason ? { reason: REFUND_REASON_LABELS[payment.refundReason], reasonCode: payment.refundReason } : {}) } });
     return { payment, amount: charge.amount_refunded - payment.refundedMinor };
   });
   // An automatic refund was announced when it was asked for; this mail is for cancellations and refunds made by hand.
