@@ -10,6 +10,7 @@ import { StatusBadge } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatInstant } from "@/lib/owner/format";
+import { cautionsFor } from "@/lib/care/cautions";
 import { FINISH_CLASS_LABELS } from "@/lib/care/vocabulary";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { canMove, JOB_STATE_LABELS, JOB_STATE_TONES, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
@@ -47,9 +48,18 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             products={products.map((p) => ({ id: p.id, name: p.name, finishClassLabel: FINISH_CLASS_LABELS[p.finishClass] }))}
           />
           <Notice tone="warn" title="Work safely">
-            Ventilate while finishing and follow each product&apos;s safety data sheet. Spread oily rags flat outdoors to dry or keep them in a closed metal
-            can filled with water — they can self-heat and catch fire. Lift heavy tops with two people. Anything electrical in a piece is for a licensed
-            electrician, under local codes.
+            <ul className="space-y-1">
+              {cautionsFor({
+                tasks: initial.tasks,
+                applying: products.filter((p) => initial.productIds.includes(p.id)).map((p) => p.finishClass),
+                hasResin: piece.resinKind !== "none",
+                audience: "technician",
+              }).map((c) => (
+                <li key={c.key}>
+                  <strong>{c.title}.</strong> {c.text}
+                </li>
+              ))}
+            </ul>
           </Notice>
         </Card>
         <div className="space-y-6">
