@@ -1,5 +1,5 @@
 import { relations, sql } from "drizzle-orm";
-import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { index, integer, real, sqliteTable, text, uniqueIndex, type AnySQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { WarrantyPolicy } from "../lib/care/coverage";
 import type { QuoteLine } from "../lib/care/quote";
 import {
@@ -40,6 +40,8 @@ export const studios = sqliteTable("studios", {
   address: text("address").notNull().default(""),
   email: text("email").notNull().default(""),
   timeZone: text("time_zone").notNull().default("UTC"),
+  /** ISO 3166-1 alpha-2: phone numbers typed without a +country code are read, and shown, as this country's. */
+  country: text("country").notNull().default("US"),
   currency: text("currency").notNull().default("USD"),
   unitSystem: text("unit_system", { enum: UNIT_SYSTEMS }).notNull().default("metric"),
   /** Tax rate in basis points (8.25 % = 825). */
@@ -196,6 +198,8 @@ export const pieces = sqliteTable(
     deliveryAddress: text("delivery_address").notNull().default(""),
     internalNotes: text("internal_notes").notNull().default(""),
     ownerId: text("owner_id").references(() => users.id, { onDelete: "set null" }),
+    /** The studio's record of the buyer or current owner (lib/clients); null when nobody is known. */
+    clientId: text("client_id").references((): AnySQLiteColumn => clients.id, { onDelete: "set null" }),
     registeredAt: integer("registered_at", { mode: "timestamp_ms" }),
     /** HMAC-SHA-256 of the normalized registration code, keyed by APP_SECRET: lookups compare this. */
     registrationCodeHash: text("registration_code_hash").notNull().unique(),
@@ -213,6 +217,7 @@ export const pieces = sqliteTable(
   (t) => [
     index("pieces_studio_idx").on(t.studioId, t.deliveredOn),
     index("pieces_owner_idx").on(t.ownerId),
+    index("pieces_client_idx").on(t.clientId),
   ],
 );
 
@@ -870,3 +875,86 @@ export const mailQueue = sqliteTable(
   (t) => [index("mail_queue_due_idx").on(t.status, t.nextAttemptAt)],
 );
 export type QueuedMail = typeof mailQueue.$inferSelect;
+
+// ---- clients (issue #19): the studio's record of the people it sold to or serves ----
+
+export const CONTACT_METHODS = ["email", "phone", "post"] as const;
+/** Service mail: care reminders and visit mail. Offers: refresh offers. */
+export const CONSENT_KINDS = ["service", "offers"] as const;
+/** How a consent was given or withdrawn. */
+export const CONSENT_SOURCES = ["in_person", "phone", "email", "paper", "account", "imported"] as const;
+
+/**
+ * A person or household the studio sold to or serves. Not an account: a client may never sign in;
+ * when one does (same e-mail, confirmed), userId links the two. E-mail lower-cased, unique per
+ * studio; phone in E.164 (lib/clients/phone.ts). The current consent is on the row, its history in
+ * client_consents.
+ */
+export const clients = sqliteTable(
+  "clients",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    email: text("email"),
+    phone: text("phone"),
+    address: text("address").notNull().default(""),
+    preferredContact: text("preferred_contact", { enum: CONTACT_METHODS }).notNull().default("email"),
+    /** IANA zone; null: the studio's. */
+    timeZone: text("time_zone"),
+    notes: text("notes").notNull().default(""),
+    consentService: integer("consent_service", { mode: "boolean" }).notNull().default(false),
+    consentOffers: integer("consent_offers", { mode: "boolean" }).notNull().default(false),
+    userId: text("user_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [
+    index("clients_studio_name_idx").on(t.studioId, t.name),
+    index("clients_studio_phone_idx").on(t.studioId, t.phone),
+    uniqueIndex("clients_studio_email_uq").on(t.studioId, t.email).where(sql`email IS NOT NULL`),
+    uniqueIndex("clients_studio_user_uq").on(t.studioId, t.userId).where(sql`user_id IS NOT NULL`),
+    index("clients_user_idx").on(t.userId),
+  ],
+);
+
+/** Every change of a client's consent: what, given or withdrawn, when and how. Never edited. */
+export const clientConsents = sqliteTable(
+  "client_consents",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    clientId: text("client_id")
+      .notNull()
+      .references(() => clients.id, { onDelete: "cascade" }),
+    kind: text("kind", { enum: CONSENT_KINDS }).notNull(),
+    granted: integer("granted", { mode: "boolean" }).notNull(),
+    /** When the person gave or withdrew it (may be before it was recorded). */
+    givenAt: integer("given_at", { mode: "timestamp_ms" }).notNull(),
+    source: text("source", { enum: CONSENT_SOURCES }).notNull(),
+    note: text("note").notNull().default(""),
+    recordedById: text("recorded_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("client_consents_studio_client_idx").on(t.studioId, t.clientId, t.givenAt)],
+);
+
+export const clientsRelations = relations(clients, ({ one, many }) => ({
+  studio: one(studios, { fields: [clients.studioId], references: [studios.id] }),
+  user: one(users, { fields: [clients.userId], references: [users.id] }),
+  consents: many(clientConsents),
+}));
+
+export const clientConsentsRelations = relations(clientConsents, ({ one }) => ({
+  client: one(clients, { fields: [clientConsents.clientId], references: [clients.id] }),
+}));
+
+export type Client = typeof clients.$inferSelect;
+export type NewClient = typeof clients.$inferInsert;
+export type ClientConsent = typeof clientConsents.$inferSelect;
