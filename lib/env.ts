@@ -49,12 +49,33 @@ function parseEnv(): Env {
     throw new Error(`Grainward cannot start: invalid environment variables\n${lines.join("\n")}`);
   }
   const env = parsed.data;
-  const host = new URL(env.APP_URL).hostname;
-  const local = host === "localhost" || host === "127.0.0.1" || host === "::1";
-  if (!local && env.APP_SECRET === envSchema.shape.APP_SECRET.parse(undefined)) {
-    throw new Error("Grainward cannot start: set APP_SECRET (32+ random characters) when APP_URL is not localhost");
+  const problems = isLocalHost(new URL(env.APP_URL).hostname) ? [] : demoSettingsInUse(env);
+  if (problems.length) {
+    throw new Error(`Grainward cannot start: APP_URL (${env.APP_URL}) is not localhost, but these are the demo's settings:\n${problems.map((p) => `  ${p}`).join("\n")}`);
   }
   return env;
+}
+
+/** localhost, 127.0.0.0/8, ::1 (URL hostnames keep IPv6 in brackets). */
+function isLocalHost(host: string): boolean {
+  const h = host.replace(/^\[|\]$/g, "").toLowerCase();
+  return h === "localhost" || h.endsWith(".localhost") || h === "::1" || /^127(\.\d{1,3}){3}$/.test(h);
+}
+
+/**
+ * What a deployment off localhost must not keep from the demo: the published secrets, and the Stripe
+ * client pointed at the local fake. Each line says what to set instead.
+ */
+function demoSettingsInUse(env: Env): string[] {
+  const demo = (key: "APP_SECRET" | "STRIPE_SECRET_KEY" | "STRIPE_WEBHOOK_SECRET") => env[key] === envSchema.shape[key].parse(undefined);
+  const out: string[] = [];
+  if (demo("APP_SECRET")) out.push("APP_SECRET is the demo secret: set APP_SECRET to 32 or more random characters (for example the output of `openssl rand -base64 48`).");
+  if (demo("STRIPE_SECRET_KEY")) out.push("STRIPE_SECRET_KEY is the demo key: set it to your Stripe account's secret key (sk_live_… or sk_test_…).");
+  if (demo("STRIPE_WEBHOOK_SECRET")) out.push("STRIPE_WEBHOOK_SECRET is the demo secret: set it to the signing secret of your Stripe webhook endpoint (whsec_…).");
+  if (env.STRIPE_API_HOST && isLocalHost(env.STRIPE_API_HOST)) {
+    out.push(`STRIPE_API_HOST points at the local Stripe fake (${env.STRIPE_API_HOST}): set STRIPE_API_HOST to an empty value to reach Stripe's own API.`);
+  }
+  return out;
 }
 
 export const env = parseEnv();

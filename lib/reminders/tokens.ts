@@ -46,16 +46,13 @@ export const pieceUrl = (pieceId: string) => appUrl(`/pieces/${encodeURIComponen
 export const logCareUrl = (pieceId: string, taskKey: string) =>
   appUrl(`/pieces/${encodeURIComponent(pieceId)}/log?task=${encodeURIComponent(taskKey)}`);
 
-/** mailto: form of unsubscribe, at the domain of MAIL_FROM. */
-export function mailtoUnsubscribe(userId: string): string {
-  const domain = /@([^>\s]+)>?\s*$/.exec(env.MAIL_FROM)?.[1] ?? "grainward.example";
-  return `mailto:unsubscribe@${domain}?subject=${encodeURIComponent(`unsubscribe ${unsubscribeToken(userId)}`)}`;
-}
-
-/** The RFC 2369 / RFC 8058 headers every care reminder and offer carries. */
+/**
+ * The RFC 2369 / RFC 8058 headers every care reminder and offer carries: the one-click https address
+ * only. No mailto: address is advertised, because nothing reads mail sent back to the app.
+ */
 export function unsubscribeHeaders(userId: string): Record<string, string> {
   return {
-    "List-Unsubscribe": `<${oneClickUnsubscribeUrl(userId)}>, <${mailtoUnsubscribe(userId)}>`,
+    "List-Unsubscribe": `<${oneClickUnsubscribeUrl(userId)}>`,
     "List-Unsubscribe-Post": "List-Unsubscribe=One-Click",
   };
 }
