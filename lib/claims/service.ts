@@ -20,7 +20,7 @@ import {
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
-import { AppError, conflict, forbidden, notFound } from "@/lib/errors";
+import { conflict, forbidden, notFound, unprocessable } from "@/lib/errors";
 import { containsText } from "@/lib/text-match";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
 import {
@@ -76,10 +76,10 @@ export async function createClaim(viewer: ClaimViewer, raw: unknown) {
   if (!piece) throw notFound("No piece of yours with that id.");
   const studio = studioOf(piece.studioId);
   const today = localDate(Date.now(), studio.timeZone);
-  if (input.noticedOn > today) throw new AppError(422, "invalid_date", "That date is in the future.", { noticedOn: ["That date is in the future."] });
+  if (input.noticedOn > today) throw unprocessable("invalid_date", "That date is in the future.", { noticedOn: ["That date is in the future."] });
   if (input.noticedOn < piece.deliveredOn) {
     const msg = `The piece was delivered on ${piece.deliveredOn}; pick a date after that.`;
-    throw new AppError(422, "invalid_date", msg, { noticedOn: [msg] });
+    throw unprocessable("invalid_date", msg, { noticedOn: [msg] });
   }
   const claim = db.transaction((tx) => {
     const row = tx
@@ -118,7 +118,7 @@ export async function addClaimPhoto(viewer: ClaimViewer, claimId: string, read: 
   if (claim.ownerId !== viewer.user.id) throw forbidden("Only the owner who filed the claim adds photos to it.");
   if (!OPEN_STATES.includes(claim.state)) throw conflict("This claim has been decided; photos can no longer be added. Send the studio a message instead.");
   if (photoCount(claim.id) >= MAX_CLAIM_PHOTOS) throw conflict(`A claim holds at most ${MAX_CLAIM_PHOTOS} photos. Remove one to add another.`);
-  const stored = await storeImage(await read());
+  const stored = await storeImage(await read(), viewer.user.id);
   try {
     return getDb().transaction((tx) => {
       const n = tx.select({ n: count() }).from(files).where(and(eq(files.claimId, claim.id), eq(files.purpose, "claim_photo"))).get()?.n ?? 0;

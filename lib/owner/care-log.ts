@@ -60,7 +60,7 @@ export async function addCareLogEntry(owner: Owner, pieceId: string, raw: unknow
   const values = careLogSchema.parse(raw);
   const piece = ownedPieceRow(owner, pieceId);
   const { surface } = checkAgainstPiece(owner, piece, values, now);
-  const stored = photo && photo.byteLength > 0 ? await storeImage(photo) : null;
+  const stored = photo && photo.byteLength > 0 ? await storeImage(photo, owner.id) : null;
   const db = getDb();
   let entry: CareLogResult["entry"];
   try {

@@ -1,31 +1,17 @@
 import "server-only";
 import { z } from "zod";
-import { AppError, badRequest } from "@/lib/errors";
-import { MAX_UPLOAD_BYTES } from "@/lib/storage";
+import { badRequest } from "@/lib/errors";
+import { isForm } from "@/lib/http/body";
 import { parseJson } from "@/lib/http/route";
+import { readUpload } from "@/lib/files/upload";
 
-/** A care-log request body: JSON, or multipart form data with an optional `photo` file. */
+/** A care-log request body: JSON, or multipart form data with an optional `photo` file (both read through lib/http/body.ts). */
 export async function readCareLogBody(req: Request): Promise<{ fields: Record<string, unknown>; photo: Uint8Array | null }> {
-  const type = req.headers.get("content-type") ?? "";
-  if (!type.startsWith("multipart/form-data")) {
+  if (!isForm(req)) {
     const body = await parseJson(req, z.unknown());
     if (!body || typeof body !== "object" || Array.isArray(body)) throw badRequest("The request body must be a JSON object.");
     return { fields: body as Record<string, unknown>, photo: null };
   }
-  const length = Number(req.headers.get("content-length") ?? "0");
-  if (length > MAX_UPLOAD_BYTES + 64 * 1024) throw new AppError(413, "file_too_large", "That photo is over the 15 MB limit. Send a smaller one.");
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw badRequest("The form data could not be read.");
-  }
-  const fields: Record<string, unknown> = {};
-  let photo: Uint8Array | null = null;
-  for (const [key, value] of form.entries()) {
-    if (key === "photo") {
-      if (typeof value !== "string" && value.size > 0) photo = new Uint8Array(await value.arrayBuffer());
-    } else if (typeof value === "string") fields[key] = value;
-  }
-  return { fields, photo };
+  const { data, fields } = await readUpload(req, "photo", { optional: true });
+  return { fields, photo: data.byteLength > 0 ? data : null };
 }

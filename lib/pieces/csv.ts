@@ -17,7 +17,7 @@ import {
   USES,
   type FinishClass,
 } from "@/lib/care/vocabulary";
-import { AppError } from "@/lib/errors";
+import { AppError, unprocessable } from "@/lib/errors";
 import { createPieceSchema, importSchema } from "@/lib/validation/pieces";
 import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./registry";
 
@@ -186,7 +186,7 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
     if (!headers.includes(required)) errors.push({ row: 1, field: required, message: `The header row has no "${required}" column.` });
   }
   if (parsed.data.length === 0 && errors.length === 0) errors.push({ row: 1, field: "file", message: "The file has a header but no rows." });
-  if (parsed.data.length > MAX_ROWS) throw new AppError(413, "too_many_rows", `The file has ${parsed.data.length} rows; import at most ${MAX_ROWS} at a time.`);
+  if (parsed.data.length > MAX_ROWS) throw unprocessable("too_many_rows", `The file has ${parsed.data.length} rows; import at most ${MAX_ROWS} at a time.`);
 
   const products = studioProducts(ctx.studio.id).map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass }));
   const inputs: unknown[] = [];

@@ -3,16 +3,17 @@ import { getDb } from "@/db/client";
 import { files } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
-import { AppError, badRequest } from "@/lib/errors";
-import { MAX_UPLOAD_BYTES, removeStoredFiles, storeImage } from "@/lib/storage";
+import { removeStoredFiles, storeImage } from "@/lib/storage";
 import { loadPiece } from "./registry";
 
-/** POST /api/pieces/[id]/photos: one photo of the finished piece, checked and re-encoded by lib/storage. */
-export async function addPiecePhoto(ctx: StudioContext, pieceId: string, upload: unknown) {
+/**
+ * POST /api/pieces/[id]/photos: one photo of the finished piece, checked and re-encoded by
+ * lib/storage. `read` (the bounded upload reader) is called only once the piece is known to be the
+ * studio's, so a stranger's upload is never read.
+ */
+export async function addPiecePhoto(ctx: StudioContext, pieceId: string, read: () => Promise<Uint8Array>) {
   loadPiece(ctx, pieceId);
-  if (!(upload instanceof Blob)) throw badRequest("Attach the photo in the form field \"file\".", { file: ["Choose a photo."] });
-  if (upload.size > MAX_UPLOAD_BYTES) throw new AppError(413, "file_too_large", `That photo is ${(upload.size / 1024 / 1024).toFixed(1)} MB; the limit is 15 MB. Send a smaller one.`);
-  const stored = await storeImage(new Uint8Array(await upload.arrayBuffer()));
+  const stored = await storeImage(await read(), ctx.user.id);
   try {
     const row = getDb().transaction((tx) => {
       loadPiece(ctx, pieceId, tx);

@@ -10,7 +10,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { CURRENCY_EXPONENTS, formatMinorUnits } from "@/lib/care/quote";
 import { CLAIM_CATEGORIES, REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
-import { AppError, badRequest, forbidden } from "@/lib/errors";
+import { badRequest, forbidden, unprocessable } from "@/lib/errors";
 import {
   policyVersionSchema,
   profileSchema,
@@ -232,7 +232,7 @@ export function createPolicyVersion(ctx: StudioContext, raw: unknown, now: Date 
     if (latest) {
       const earliest = latest.effectiveFrom > today ? latest.effectiveFrom : today;
       if (v.effectiveFrom < earliest) {
-        throw new AppError(422, "effective_too_early", "A new version can't start before today or before the newest version.", {
+        throw unprocessable("effective_too_early", "A new version can't start before today or before the newest version.", {
           effectiveFrom: [
             latest.effectiveFrom > today
               ? `Version ${latest.version} starts ${latest.effectiveFrom}; start this one on that day or later.`

@@ -1,6 +1,7 @@
 // The shared storage module for uploaded images (piece photos, claim photos, care-log and visit
 // photos). Every upload is checked by its content, never its name or declared type; decoded with a
-// pixel limit before any full decode; rotated by its orientation; re-encoded as JPEG, which drops
+// pixel limit read from its header before any decode; decoded in turn with other accounts' uploads
+// (./image-queue.ts); rotated by its orientation; re-encoded as JPEG, which drops
 // all metadata (EXIF, GPS, XMP, ICC); and stored under DATA_DIR with a random name, with a thumbnail.
 import fs from "node:fs/promises";
 import path from "node:path";
@@ -8,10 +9,15 @@ import { randomBytes } from "node:crypto";
 import { fileTypeFromBuffer } from "file-type";
 import sharp from "sharp";
 import { env } from "@/lib/env";
-import { AppError } from "@/lib/errors";
+import { payloadTooLarge, unprocessable, unsupportedMediaType } from "@/lib/errors";
+import { withImageSlot } from "./image-queue";
 
 export const MAX_UPLOAD_BYTES = 15 * 1024 * 1024;
-export const MAX_INPUT_PIXELS = 40_000_000;
+/**
+ * 25 megapixels: above a 24 MP camera's 6000 × 4000 and a phone's usual 12 MP; a larger image costs
+ * seconds of CPU to decode (a 39 MP PNG of a few kilobytes took ~2 s). Common practice, no published source.
+ */
+export const MAX_INPUT_PIXELS = 25_000_000;
 const ACCEPTED = new Set(["image/jpeg", "image/png", "image/webp"]);
 const FULL_MAX_EDGE = 4096;
 const THUMB_EDGE = 480;
@@ -34,44 +40,38 @@ function describe(mime: string | undefined): string {
   return `That file is ${mime}, not a photo we can accept.`;
 }
 
-// At most this many images are decoded at once, so a burst of uploads cannot stack up decoders'
-// memory (each may hold up to MAX_INPUT_PIXELS worth of rows in flight).
-const MAX_CONCURRENT = 2;
-let running = 0;
-const waiting: (() => void)[] = [];
-async function withSlot<T>(fn: () => Promise<T>): Promise<T> {
-  if (running >= MAX_CONCURRENT) await new Promise<void>((resolve) => waiting.push(resolve));
-  running++;
-  try {
-    return await fn();
-  } finally {
-    running--;
-    waiting.shift()?.();
-  }
-}
-
 const SHARP_FORMAT: Record<string, string> = { "image/jpeg": "jpeg", "image/png": "png", "image/webp": "webp" };
 
-/** Checks, cleans and stores one uploaded image. Throws a 413/415/422 AppError with a message a person can act on. */
-export async function storeImage(data: Uint8Array): Promise<StoredImage> {
-  if (data.byteLength > MAX_UPLOAD_BYTES) {
-    throw new AppError(413, "file_too_large", `That photo is ${(data.byteLength / 1024 / 1024).toFixed(1)} MB; the limit is 15 MB. Send a smaller one.`);
-  }
-  if (data.byteLength === 0) throw new AppError(422, "empty_file", "That file is empty.");
+const unreadable = () => unprocessable("unreadable_image", `That image looks damaged or incomplete, so we couldn't read it. ${HOW_TO_SEND_JPEG}`);
+
+/**
+ * Checks, cleans and stores one image uploaded by `account` (the uploader's user id, whose uploads
+ * are queued together). Throws a 413/415/422/429 AppError with a message a person can act on.
+ */
+export async function storeImage(data: Uint8Array, account: string): Promise<StoredImage> {
+  if (data.byteLength > MAX_UPLOAD_BYTES) throw payloadTooLarge(MAX_UPLOAD_BYTES);
+  if (data.byteLength === 0) throw unprocessable("empty_file", "That file is empty.");
   const type = await fileTypeFromBuffer(data);
-  if (!type || !ACCEPTED.has(type.mime)) {
-    throw new AppError(415, "unsupported_type", `${describe(type?.mime)} ${HOW_TO_SEND_JPEG}`);
+  if (!type || !ACCEPTED.has(type.mime)) throw unsupportedMediaType(`${describe(type?.mime)} ${HOW_TO_SEND_JPEG}`);
+
+  // The header alone (no pixels decoded) says how large the image is: refuse a large one before it
+  // waits in the queue or costs any decoding.
+  const meta = await sharp(data, { limitInputPixels: false })
+    .metadata()
+    .catch(() => null);
+  if (!meta?.width || !meta.height || meta.format !== SHARP_FORMAT[type.mime]) throw unreadable();
+  if (meta.width * meta.height > MAX_INPUT_PIXELS) {
+    throw unprocessable(
+      "image_too_large",
+      `That image has more than ${MAX_INPUT_PIXELS / 1_000_000} megapixels. Send a smaller version of it (most phones' normal photos are fine).`,
+    );
   }
 
-  const { full, thumb } = await withSlot(async () => {
+  const { full, thumb } = await withImageSlot(account, async () => {
+    // limitInputPixels again, in case a decoder finds more pixels than the header said.
+    const input = () => sharp(data, { limitInputPixels: MAX_INPUT_PIXELS, failOn: "error", sequentialRead: true });
     try {
-      // limitInputPixels makes sharp refuse an oversized image from its header, before decoding it.
       // Only the first frame of an animated image is read (sharp's default).
-      const input = () => sharp(data, { limitInputPixels: MAX_INPUT_PIXELS, failOn: "error", sequentialRead: true });
-      const meta = await input().metadata();
-      if (!meta.width || !meta.height) throw new Error("no dimensions");
-      if (meta.format !== SHARP_FORMAT[type.mime]) throw new Error(`content is ${meta.format}, header said ${type.mime}`);
-      if (meta.width * meta.height > MAX_INPUT_PIXELS) throw new Error("Input image exceeds pixel limit");
       // Both outputs come from the source: the thumbnail uses JPEG shrink-on-load and runs alongside.
       // No withMetadata(): the re-encoded files carry no EXIF, GPS, XMP or ICC.
       const [fullOut, thumbOut] = await Promise.all([
@@ -89,12 +89,8 @@ export async function storeImage(data: Uint8Array): Promise<StoredImage> {
           .toBuffer(),
       ]);
       return { full: fullOut, thumb: thumbOut };
-    } catch (e) {
-      const message = e instanceof Error ? e.message : "";
-      if (/pixel limit/i.test(message)) {
-        throw new AppError(422, "image_too_large", "That image has more than 40 megapixels. Send a smaller version of it (most phones' normal photos are fine).");
-      }
-      throw new AppError(422, "unreadable_image", `That image looks damaged or incomplete, so we couldn't read it. ${HOW_TO_SEND_JPEG}`);
+    } catch {
+      throw unreadable();
     }
   });
 

@@ -176,9 +176,9 @@ describe("claim authorization", () => {
 
   it("piece and care-log photos: the studio's staff and the piece's current owner only", async () => {
     const w = await claimWorld();
-    const stored = await storeImage(await photoJpeg({ width: 100, height: 100 }));
+    const stored = await storeImage(await photoJpeg({ width: 100, height: 100 }), w.staff.user.id);
     const piecePhoto = getDb().insert(files).values({ studioId: w.studio.id, purpose: "piece_photo", pieceId: w.piece.id, ...stored }).returning().get();
-    const careStored = await storeImage(await photoJpeg({ width: 100, height: 100 }));
+    const careStored = await storeImage(await photoJpeg({ width: 100, height: 100 }), w.staff.user.id);
     const carePhoto = getDb().insert(files).values({ studioId: w.studio.id, purpose: "care_log_photo", pieceId: w.piece.id, ...careStored }).returning().get();
     const stranger = await otherOwner();
     const rival = await otherStudioStaff();

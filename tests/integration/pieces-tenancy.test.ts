@@ -43,7 +43,7 @@ describe("registry tenancy", () => {
     });
     const layer = getDb().select().from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).get()!;
     const product = getDb().insert(finishProducts).values({ studioId: a.id, name: "A's wax (invented)", finishClass: "paste_wax", coverageM2PerL: 20 }).returning().get();
-    const photo = new Blob([new Uint8Array(await sharp({ create: { width: 8, height: 8, channels: 3, background: "#806040" } }).png().toBuffer())]);
+    const photo = new Uint8Array(await sharp({ create: { width: 8, height: 8, channels: 3, background: "#806040" } }).png().toBuffer());
     const checks: [string, () => unknown][] = [
       ["getPieceDetail", () => getPieceDetail(adminB, piece.id)],
       ["updatePiece", () => updatePiece(adminB, piece.id, { title: "taken" })],
@@ -55,14 +55,14 @@ describe("registry tenancy", () => {
       ["reissueRegistrationCode", () => reissueRegistrationCode(adminB, piece.id)],
       ["revealRegistrationCode", () => revealRegistrationCode(adminB, piece.id)],
       ["renderDrawerCard", () => renderDrawerCard(adminB, piece.id)],
-      ["addPiecePhoto", () => addPiecePhoto(adminB, piece.id, photo)],
+      ["addPiecePhoto", () => addPiecePhoto(adminB, piece.id, async () => photo)],
       ["getCatalogProduct", () => getCatalogProduct(adminB, product.id)],
       ["updateCatalogProduct", () => updateCatalogProduct(adminB, product.id, { name: "taken" })],
       ["archiveCatalogProduct", () => archiveCatalogProduct(adminB, product.id)],
     ];
     for (const [name, fn] of checks) expect(await status(fn), name).toBe(404);
     // Own studio still works: the refusals above were about tenancy, not broken calls.
-    expect(await status(() => addPiecePhoto(staffA, piece.id, photo))).toBe("ok");
+    expect(await status(() => addPiecePhoto(staffA, piece.id, async () => photo))).toBe("ok");
     expect(await status(() => updateLayer(staffA, piece.id, layer.id, { coats: 3 }))).toBe("ok");
 
     // A layer id of studio A's piece used under B's own piece is a 404 too.

@@ -1,5 +1,6 @@
-// Claim photo uploads through the real multipart reader (lib/files/upload), the shared storage module
-// (lib/storage: file-type, sharp) and the database, with real image decoding. Images are generated.
+// Photo uploads through the real multipart reader (lib/files/upload), the shared storage module
+// (lib/storage: file-type, sharp, the per-account decode queue) and the database, with real image
+// decoding. Images are generated.
 import fs from "node:fs/promises";
 import path from "node:path";
 import exifr from "exifr";
@@ -9,8 +10,9 @@ import { getDb } from "@/db/client";
 import { files } from "@/db/schema";
 import { addClaimPhoto, getClaim, removeClaimPhoto } from "@/lib/claims/service";
 import { AppError } from "@/lib/errors";
-import { MAX_UPLOAD_REQUEST_BYTES, readSingleFile } from "@/lib/files/upload";
-import { MAX_UPLOAD_BYTES, readStoredFile, storeImage } from "@/lib/storage";
+import { MAX_UPLOAD_REQUEST_BYTES, readUpload } from "@/lib/files/upload";
+import { MAX_INPUT_PIXELS, MAX_UPLOAD_BYTES, readStoredFile, storeImage } from "@/lib/storage";
+import { IMAGE_QUEUE } from "@/lib/storage/image-queue";
 import { claimWorld, fileClaim, forceState, hugeBlankPng, photoJpeg } from "./claims-helpers";
 
 function multipart(bytes: Uint8Array, name = "photo.jpg", type = "image/jpeg", field = "file"): Request {
@@ -32,7 +34,7 @@ async function caught(p: Promise<unknown>): Promise<AppError> {
 async function uploadVia(req: Request) {
   const w = await claimWorld();
   const claim = await fileClaim(w.ownerV, w.piece.id);
-  return { w, claim, result: addClaimPhoto(w.ownerV, claim.id, async () => (await readSingleFile(req)).data) };
+  return { w, claim, result: addClaimPhoto(w.ownerV, claim.id, async () => (await readUpload(req)).data) };
 }
 
 describe("claim photo uploads: refused content", () => {
@@ -77,13 +79,13 @@ describe("claim photo uploads: refused content", () => {
 
   it("a request that is not multipart → 415; no file in the field → 400; two files → 400", async () => {
     const notMultipart = new Request("http://localhost/x", { method: "POST", body: "hello", headers: { "content-type": "image/jpeg" } });
-    expect((await caught(readSingleFile(notMultipart))).status).toBe(415);
+    expect((await caught(readUpload(notMultipart))).status).toBe(415);
     const wrongField = multipart(await photoJpeg({ width: 50, height: 50 }), "a.jpg", "image/jpeg", "photo");
-    expect((await caught(readSingleFile(wrongField))).status).toBe(400);
+    expect((await caught(readUpload(wrongField))).status).toBe(400);
     const two = new FormData();
     two.append("file", new File([new Uint8Array(4)], "a.jpg"));
     two.append("file", new File([new Uint8Array(4)], "b.jpg"));
-    expect((await caught(readSingleFile(new Request("http://localhost/x", { method: "POST", body: two })))).status).toBe(400);
+    expect((await caught(readUpload(new Request("http://localhost/x", { method: "POST", body: two })))).status).toBe(400);
   });
 });
 
@@ -91,11 +93,12 @@ describe("claim photo uploads: size limits", () => {
   it("a 16 MB file → 413 (storage module and multipart reader)", async () => {
     const big = new Uint8Array(16 * 1024 * 1024);
     big.set(await photoJpeg({ width: 64, height: 64 }));
-    expect((await caught(storeImage(big))).status).toBe(413);
+    expect((await caught(storeImage(big, "account-a"))).status).toBe(413);
     const { result } = await uploadVia(multipart(big));
     const e = await caught(result);
     expect(e.status).toBe(413);
-    expect(e.message).toMatch(/15 MB/);
+    expect(e.code).toBe("payload_too_large");
+    expect(e.message).toBe("That is too large: we take up to 15 MB at a time. Send a smaller one.");
   });
 
   it("a declared Content-Length over the cap is refused before any of the body is read", async () => {
@@ -112,7 +115,7 @@ describe("claim photo uploads: size limits", () => {
       duplex: "half",
       headers: { "content-type": "multipart/form-data; boundary=x", "content-length": String(16 * 1024 * 1024) },
     } as RequestInit);
-    expect((await caught(readSingleFile(req))).status).toBe(413);
+    expect((await caught(readUpload(req))).status).toBe(413);
     expect(pulled).toBeLessThanOrEqual(1); // a stream may pre-pull one chunk; nothing more is read
   });
 
@@ -125,7 +128,7 @@ describe("claim photo uploads: size limits", () => {
       },
     });
     const req = new Request("http://localhost/x", { method: "POST", body, duplex: "half", headers: { "content-type": "multipart/form-data; boundary=x" } } as RequestInit);
-    expect((await caught(readSingleFile(req))).status).toBe(413);
+    expect((await caught(readUpload(req))).status).toBe(413);
     expect(sent).toBeLessThan(MAX_UPLOAD_REQUEST_BYTES + 3 * 256 * 1024);
     expect(MAX_UPLOAD_REQUEST_BYTES).toBeLessThan(MAX_UPLOAD_BYTES + 1024 * 1024);
   });
@@ -141,7 +144,7 @@ describe("claim photo uploads: size limits", () => {
     const e = await caught(result);
     const grew = process.memoryUsage().rss - before;
     expect(e.status).toBe(422);
-    expect(e.message).toMatch(/40 megapixels/);
+    expect(e.message).toMatch(/25 megapixels/);
     // A full decode would need 400 MB even at one byte per pixel.
     expect(grew).toBeLessThan(150 * 1024 * 1024);
   });
@@ -177,7 +180,7 @@ describe("claim photo uploads: accepted photos are cleaned", () => {
   it("rotates by the EXIF orientation before dropping it", async () => {
     const rotated = await photoJpeg({ width: 400, height: 200, orientation: 6 }); // 6 = rotate 90° clockwise to view
     expect((await sharp(rotated).metadata()).orientation).toBe(6);
-    const stored = await storeImage(rotated);
+    const stored = await storeImage(rotated, "account-a");
     expect([stored.width, stored.height]).toEqual([200, 400]);
   });
 
@@ -185,7 +188,7 @@ describe("claim photo uploads: accepted photos are cleaned", () => {
     const png = await sharp({ create: { width: 300, height: 200, channels: 4, background: { r: 10, g: 90, b: 90, alpha: 0.5 } } }).png().toBuffer();
     const webp = await sharp({ create: { width: 300, height: 200, channels: 3, background: "#336699" } }).webp().toBuffer();
     for (const b of [png, webp]) {
-      const s = await storeImage(new Uint8Array(b));
+      const s = await storeImage(new Uint8Array(b), "account-a");
       expect(s.contentType).toBe("image/jpeg");
       expect((await sharp(await readStoredFile(s.storageKey)).metadata()).format).toBe("jpeg");
     }
@@ -216,5 +219,49 @@ describe("claim photo uploads: accepted photos are cleaned", () => {
     expect(read).toBe(false);
     forceState(claim.id, "accepted");
     expect((await caught(addClaimPhoto(w.ownerV, claim.id, async () => jpeg))).status).toBe(409);
+  });
+});
+
+describe("expensive images", () => {
+  it("a 5 kB PNG declaring 39 megapixels is refused from its header, quickly, even while the queue is full", async () => {
+    const png = hugeBlankPng(6250, 6240); // 39.0 MP of 1-bit grey: a few kilobytes, ~2 s of CPU to decode
+    expect(png.byteLength).toBeLessThan(10_000);
+    // Fill the uploader's own queue with slow images first: the refusal must not wait behind them.
+    const slow = hugeBlankPng(5000, 4900); // 24.5 MP, accepted
+    const busy = Array.from({ length: IMAGE_QUEUE.PER_ACCOUNT }, () => storeImage(slow, "flooder-39").catch((e: unknown) => e));
+    const t = performance.now();
+    const e = await caught(storeImage(png, "flooder-39"));
+    const ms = performance.now() - t;
+    expect(e.status).toBe(422);
+    expect(e.code).toBe("image_too_large");
+    expect(e.message).toMatch(/more than 25 megapixels/);
+    expect(ms).toBeLessThan(500);
+    expect(6250 * 6240).toBeGreaterThan(MAX_INPUT_PIXELS);
+    await Promise.all(busy);
+  });
+
+  it("one account flooding uploads gets 429 with Retry-After, and another account's upload goes ahead of the flood", async () => {
+    const slow = hugeBlankPng(5000, 4900); // 24.5 MP: under the limit, and each costs a real decode
+    const small = await photoJpeg({ width: 200, height: 150 });
+    const done: string[] = [];
+    const flood = Array.from({ length: 10 }, (_, i) =>
+      storeImage(slow, "flooder").then(
+        () => (done.push(`flood ${i}`), "stored"),
+        (e: unknown) => e,
+      ),
+    );
+    const other = storeImage(small, "someone-else").then(() => (done.push("other"), "stored"));
+    const results = await Promise.all(flood);
+    expect(await other).toBe("stored");
+    const refused = results.filter((r): r is AppError => r instanceof AppError);
+    expect(results.filter((r) => r === "stored")).toHaveLength(IMAGE_QUEUE.PER_ACCOUNT);
+    expect(refused).toHaveLength(10 - IMAGE_QUEUE.PER_ACCOUNT);
+    for (const e of refused) {
+      expect(e.status).toBe(429);
+      expect(e.retryAfterSec).toBe(IMAGE_QUEUE.RETRY_AFTER_SEC);
+      expect(e.message).toMatch(/earlier photos/);
+    }
+    // The other account did not wait behind the flood: it finished before the flood's first photo did.
+    expect(done[0]).toBe("other");
   });
 });

@@ -1,7 +1,8 @@
 import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import { errorResponse } from "@/lib/http/route";
-import { AppError, badRequest, isAppError } from "@/lib/errors";
+import { badRequest, isAppError } from "@/lib/errors";
+import { BODY_LIMITS, readForm } from "@/lib/http/body";
 import { setRemindersByToken } from "@/lib/reminders/unsubscribe";
 import { linkTokenField, oneClickBodySchema } from "@/lib/validation/reminders";
 
@@ -12,22 +13,14 @@ import { linkTokenField, oneClickBodySchema } from "@/lib/validation/reminders";
 // GET (someone opened the URL): the confirmation page, where a button does it.
 
 async function formBody(req: NextRequest): Promise<Record<string, string>> {
-  const type = req.headers.get("content-type") ?? "";
-  if (!type.startsWith("application/x-www-form-urlencoded") && !type.startsWith("multipart/form-data")) {
-    throw new AppError(415, "unsupported_media_type", "Send the one-click body as application/x-www-form-urlencoded or multipart/form-data.");
-  }
-  try {
-    const form = await req.formData();
-    return Object.fromEntries([...form.entries()].map(([k, v]) => [k, typeof v === "string" ? v : ""]));
-  } catch {
-    throw badRequest("The request body could not be read as a form.");
-  }
+  const form = await readForm(req, BODY_LIMITS.form, ["urlencoded", "multipart"]);
+  return Object.fromEntries([...form.entries()].map(([k, v]) => [k, typeof v === "string" ? v : ""]));
 }
 
 export async function POST(req: NextRequest): Promise<Response> {
   try {
-    const token = linkTokenField.parse(req.nextUrl.searchParams.get("t") ?? "");
     oneClickBodySchema.parse(await formBody(req));
+    const token = linkTokenField.parse(req.nextUrl.searchParams.get("t") ?? "");
     setRemindersByToken(token, false, "one_click");
     return new NextResponse("Unsubscribed: no more care reminders or refresh offers will be sent to this address.\n", {
       status: 200,
