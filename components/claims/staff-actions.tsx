@@ -7,9 +7,10 @@ import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { CLAIM_DECISION_LABELS } from "@/lib/claims/labels";
+import { CLAIM_DECISION_LABELS, decisionText } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
 import type { claimDecisionSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
@@ -55,10 +56,16 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
   });
   const decision = useWatch({ control: form.control, name: "decision" });
   const errors = form.formState.errors;
-  const onSubmit = form.handleSubmit(async (values) => {
+  // The app's own dialog asks before the decision goes out (DESIGN.md §10), not the browser's confirm().
+  const [pending, setPending] = useState<z.output<typeof claimDecisionSchema> | null>(null);
+  const [sending, setSending] = useState(false);
+  const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
+    setPending(values);
+  });
+  const send = async (values: z.output<typeof claimDecisionSchema>) => {
     const label = CLAIM_DECISION_LABELS[values.decision];
-    if (!window.confirm(`Decide this claim as “${label}”? The owner is e-mailed and the decision can't be changed here.`)) return;
+    setSending(true);
     try {
       await apiJson(`/api/claims/${claimId}/decision`, { method: "POST", body: JSON.stringify({ ...values, expectedVersion: version }) });
       toast.success(`Decided: ${label}. The owner has been e-mailed.`);
@@ -68,10 +75,24 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
         setFormError(e.message);
         for (const [f, m] of Object.entries(e.fieldErrors)) if (m[0]) form.setError(f as FieldPath<Values>, { type: "server", message: m[0] });
       } else setFormError("The decision wasn't saved. Try again.");
+    } finally {
+      setSending(false);
+      setPending(null);
     }
-  });
+  };
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
+      <ConfirmDialog
+        open={pending !== null}
+        title={pending ? `Decide: ${decisionText(pending.decision, pending.coveredPct ?? null)}?` : "Decide this claim?"}
+        confirmLabel="Send the decision"
+        busy={sending}
+        onConfirm={() => pending && void send(pending)}
+        onCancel={() => setPending(null)}
+      >
+        <p>The owner is e-mailed straight away, and the decision can&apos;t be changed here afterwards.</p>
+        {pending?.reason ? <p className="break-words text-muted">Your note: “{pending.reason}”</p> : null}
+      </ConfirmDialog>
       {formError ? <Notice tone="error" title="Not decided">{formError}</Notice> : null}
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium">Decision</legend>

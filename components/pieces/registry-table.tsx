@@ -13,6 +13,15 @@ import { FINISH_CLASSES, FINISH_CLASS_LABELS, PIECE_KINDS, PIECE_KIND_LABELS } f
 import type { RegistryPage, RegistryRow } from "@/lib/pieces/registry";
 import { CareStatus, RegistrationStatus } from "./status";
 
+class RegistryError extends Error {
+  constructor(
+    readonly status: number,
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
 type Key = (typeof FILTER_KEYS)[number];
 
@@ -57,7 +66,11 @@ export function RegistryTable() {
     queryFn: async ({ signal }): Promise<RegistryPage> => {
       const res = await fetch(`/api/pieces${qs ? `?${qs}` : ""}`, { signal });
       const body = await res.json().catch(() => ({}));
-      if (!res.ok) throw new Error(body?.error?.message ?? `The server answered ${res.status}.`);
+      if (!res.ok) {
+        // Say what is wrong (e.g. "Search for at most 200 characters."), not only that something is.
+        const fields = Object.values((body?.error?.fieldErrors ?? {}) as Record<string, string[]>).flat();
+        throw new RegistryError(res.status, fields.length ? fields.join(" ") : (body?.error?.message ?? `The server answered ${res.status}.`));
+      }
       return body as RegistryPage;
     },
     placeholderData: keepPreviousData,
@@ -180,7 +193,7 @@ export function RegistryTable() {
       </div>
 
       {query.isError ? (
-        <Notice tone="error" title="The registry could not be loaded">
+        <Notice tone="error" title={query.error instanceof RegistryError && query.error.status === 400 ? "Check the search" : "The registry could not be loaded"}>
           <p>{query.error.message}</p>
           <Button variant="secondary" className="mt-2" onClick={() => query.refetch()}>
             Try again

@@ -107,11 +107,20 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   await expect(desk.getByText("Message sent to the owner.")).toBeVisible();
   await waitForMail({ to: ACCOUNTS.owner, subject: /New message from Larchmere Slab & Resin/, since, sinkUrl: SINK_URL });
 
-  desk.once("dialog", (d) => void d.accept());
+  // The decision is confirmed in the app's own dialog; a browser confirm() box would fail the test.
+  let browserDialog = "";
+  desk.once("dialog", (d) => {
+    browserDialog = d.message();
+    void d.dismiss();
+  });
   await desk.getByText("Partly covered", { exact: true }).click();
   await desk.getByLabel("Covered share, %").fill("60");
   await desk.getByLabel("Note to the owner (they see this)").fill("The joint is covered; the patio wear on the feet is not. (e2e)");
   await desk.getByRole("button", { name: "Record the decision" }).click();
+  const confirm = desk.getByRole("dialog", { name: "Decide: Partly covered (60 %)?" });
+  await expect(confirm).toBeVisible();
+  expect(browserDialog).toBe("");
+  await confirm.getByRole("button", { name: "Send the decision" }).click();
   await expect(desk.getByText("Decided: Partly covered.", { exact: false })).toBeVisible();
   await expect(desk.getByText("Partly covered (60 %)")).toBeVisible();
 

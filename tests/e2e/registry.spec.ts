@@ -79,6 +79,11 @@ test("staff record a piece with three layers, find it by search and by code, and
   await expect(page.getByLabel("Search pieces")).toHaveValue(word.slice(0, 12).toLowerCase());
   await expect(page.getByRole("link", { name: `${word} river table (e2e)` }).first()).toBeVisible();
 
+  // A search too long says what is wrong, not only that something is.
+  await page.getByLabel("Search pieces").fill("walnut ".repeat(43));
+  await expect(page.getByText("Search for at most 200 characters.")).toBeVisible();
+  await expect(page.getByText("Some fields need a second look")).toHaveCount(0);
+
   await page.getByLabel("Search pieces").fill(code.toLowerCase().replace(/-/g, " "));
   await expect(page.getByText(/found by registration code/)).toBeVisible();
   await page.getByRole("link", { name: `${word} river table (e2e)` }).first().click();
@@ -93,7 +98,7 @@ test("staff record a piece with three layers, find it by search and by code, and
   const text = await pdfText(await res.body());
   expect(text).toContain(code);
   expect(text).toContain(`${word} river table (e2e)`);
-  expect(text).toMatch(/Oily rags can heat up/);
+  expect(text).toMatch(/Oily rags can catch fire by themselves/);
 });
 
 test("the URL holds filters and sorting, and the CSV export follows them", async ({ page }) => {
