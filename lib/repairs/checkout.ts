@@ -33,7 +33,7 @@ function refundReasonFor(job: RepairJob, payment: Payment, session: Stripe.Check
 
 /** Brings our payment and job to what Stripe says of the session; safe to call any number of times. */
 export async function applySession(session: Stripe.Checkout.Session): Promise<{ paidNow: boolean }> {
-  const outcome = getDb().transaction((tx) => {
+  const outcome = getDb().transaction((tx): { jobId: string; countedPaymentId?: string } | null => {
     const payment = tx.select().from(payments).where(eq(payments.checkoutSessionId, session.id)).get();
     if (!payment) return null;
     // "expired" too: our row may say so before Stripe does (a close that raced the owner's payment).
@@ -44,14 +44,14 @@ export async function applySession(session: Stripe.Checkout.Session): Promise<{ 
         .set({ status: "paid", paymentIntentId: intentOf(session), paidAt: now, updatedAt: now })
         .where(and(eq(payments.id, payment.id), eq(payments.status, payment.status)))
         .run().changes;
-      if (taken === 0) return { jobId: payment.jobId, counted: false };
+      if (taken === 0) return { jobId: payment.jobId };
       const job = tx.select().from(repairJobs).where(eq(repairJobs.id, payment.jobId)).get()!;
       const others = tx.select().from(payments).where(and(eq(payments.jobId, job.id), ne(payments.id, payment.id))).all();
       const reason = refundReasonFor(job, payment, session, others);
       if (reason === null) {
         moveJob(tx, job, "paid", { paidAt: now });
         recordAudit(tx, { studioId: job.studioId, actorId: null, action: "job.paid", subjectType: "repair_job", subjectId: job.id, data: { checkoutSessionId: session.id, amountMinor: payment.amountMinor, quoteVersion: payment.quoteVersion } });
-        return { jobId: job.id, counted: true, paymentId: payment.id };
+        return { jobId: job.id, countedPaymentId: payment.id };
       }
       tx.update(payments).set({ refundReason: reason }).where(eq(payments.id, payment.id)).run();
       recordAudit(tx, {
@@ -63,21 +63,21 @@ export async function applySession(session: Stripe.Checkout.Session): Promise<{ 
         // The audit page shows "reason" as written: plain words, the code beside it for queries.
         data: { reason: REFUND_REASON_LABELS[reason], reasonCode: reason, quoteVersion: payment.quoteVersion, amountMinor: payment.amountMinor, jobQuoteVersion: job.quoteVersion, jobTotalMinor: job.totalMinor, jobState: job.state },
       });
-      return { jobId: job.id, counted: false };
+      return { jobId: job.id };
     }
     if (session.status === "expired" && payment.status === "open") {
       tx.update(payments).set({ status: "expired", updatedAt: new Date() }).where(and(eq(payments.id, payment.id), eq(payments.status, "open"))).run();
     }
-    return { jobId: payment.jobId, counted: false };
+    return { jobId: payment.jobId };
   });
   if (!outcome) return { paidNow: false };
-  if (outcome.paymentId) await mailReceipt(outcome.paymentId);
+  if (outcome.countedPaymentId) await mailReceipt(outcome.countedPaymentId);
   const job = getDb().select({ state: repairJobs.state }).from(repairJobs).where(eq(repairJobs.id, outcome.jobId)).get();
   // A job that no longer awaits payment keeps no open checkout (done here again on every replay, so
   // a close that failed once is tried again when Stripe retries the event).
   if (job && job.state !== AWAITING_PAYMENT) await closeOpenCheckouts(outcome.jobId);
   await settleRefunds(outcome.jobId);
-  return { paidNow: Boolean(outcome.paymentId) };
+  return { paidNow: Boolean(outcome.countedPaymentId) };
 }
 
 /**
