@@ -1,27 +1,6 @@
+import { securityHeaders } from "./lib/http/security-headers.mjs";
+
 const dev = process.env.NODE_ENV !== "production";
-
-// Baseline headers for every response. Next.js inlines small scripts, hence 'unsafe-inline' for
-// scripts; 'unsafe-eval' is only needed by the development server's fast refresh.
-const csp = [
-  "default-src 'self'",
-  `script-src 'self' 'unsafe-inline'${dev ? " 'unsafe-eval'" : ""}`,
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "connect-src 'self'",
-  "frame-src 'self'",
-  "frame-ancestors 'none'",
-  "base-uri 'self'",
-  "object-src 'none'",
-].join("; ");
-
-const securityHeaders = [
-  { key: "Content-Security-Policy", value: csp },
-  { key: "X-Content-Type-Options", value: "nosniff" },
-  { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
-  { key: "X-Frame-Options", value: "DENY" },
-  { key: "Permissions-Policy", value: "camera=(self), microphone=(), geolocation=()" },
-];
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
@@ -29,8 +8,17 @@ const nextConfig = {
   poweredByHeader: false,
   // Native modules stay outside the server bundle.
   serverExternalPackages: ["better-sqlite3", "@node-rs/argon2", "sharp", "@react-email/render", "@react-email/components", "nodemailer"],
+  experimental: {
+    // Server actions here take short forms (no files: uploads go to the API routes, read by
+    // lib/http/body.ts), so a body over 256 kB is refused with a 413. The proxy's copy of a page
+    // request's body must stay above it: a body cut off at the proxy's limit would reach the action
+    // truncated instead of refused.
+    serverActions: { bodySizeLimit: "256kb" },
+    proxyClientMaxBodySize: "512kb",
+  },
   async headers() {
-    return [{ source: "/:path*", headers: securityHeaders }];
+    // APP_URL as the build sees it decides HSTS; build with the same APP_URL the server runs with.
+    return [{ source: "/:path*", headers: securityHeaders({ appUrl: process.env.APP_URL, dev }) }];
   },
 };
 
