@@ -18,6 +18,7 @@ import {
   VISIT_LOCATIONS,
   VISIT_STATES,
 } from "../lib/care/vocabulary";
+import { CONSENT_KINDS, CONSENT_SOURCES, CONTACT_METHODS } from "../lib/clients/vocabulary";
 
 // Every studio-owned table carries studioId and every query filters by it (DESIGN.md §1).
 // Timestamps are epoch milliseconds (Date in TypeScript); calendar dates are "YYYY-MM-DD" text.
@@ -878,11 +879,6 @@ export type QueuedMail = typeof mailQueue.$inferSelect;
 
 // ---- clients (issue #19): the studio's record of the people it sold to or serves ----
 
-export const CONTACT_METHODS = ["email", "phone", "post"] as const;
-/** Service mail: care reminders and visit mail. Offers: refresh offers. */
-export const CONSENT_KINDS = ["service", "offers"] as const;
-/** How a consent was given or withdrawn. */
-export const CONSENT_SOURCES = ["in_person", "phone", "email", "paper", "account", "imported"] as const;
 
 /**
  * A person or household the studio sold to or serves. Not an account: a client may never sign in;
