@@ -3,13 +3,35 @@
 // summary at the SMTP sink, and staff moving and cancelling a visit in the week calendar.
 import ICAL from "ical.js";
 import sharp from "sharp";
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test, type Locator, type Page } from "@playwright/test";
 import { getMail, waitForMail } from "../support/mail";
 import { ACCOUNTS, SINK_URL, fixture, signIn } from "./helpers";
 
 const SOL = "sol@larchmere.example";
 type Slot = { technicianId: string; technicianName: string; start: string; localDate: string; localStart: string };
 type Visit = { id: string; jobId: string; start: string; end: string; technicianId: string; technicianName: string; jobTitle: string; state: string; icsUid: string };
+
+const STUDIO_TZ = "America/Los_Angeles"; // the demo studio's zone (db/seed/demo.ts)
+const studioDate = (iso: string) => new Intl.DateTimeFormat("en-CA", { timeZone: STUDIO_TZ }).format(new Date(iso));
+const studioTime = (iso: string) => new Intl.DateTimeFormat("en-GB", { timeZone: STUDIO_TZ, hour: "2-digit", minute: "2-digit", hourCycle: "h23" }).format(new Date(iso));
+
+/** The week grid's cell for a local date and "HH:MM". */
+function cellAt(page: Page, date: string, time: string): Locator {
+  const [h, m] = time.split(":").map(Number) as [number, number];
+  return page.locator(`[data-cell="${date}|${h * 60 + m}"]`);
+}
+
+/** The first of `times` whose cell takes the pointer at its centre (no visit block drawn over it), or null. */
+async function firstOpenCell(page: Page, date: string, times: string[]): Promise<string | null> {
+  for (const time of times) {
+    const cell = cellAt(page, date, time);
+    await cell.scrollIntoViewIfNeeded();
+    const box = (await cell.boundingBox())!;
+    const hit = await page.evaluate(([x, y]) => document.elementFromPoint(x!, y!)?.getAttribute("data-cell") ?? null, [box.x + box.width / 2, box.y + box.height / 2]);
+    if (hit === (await cell.getAttribute("data-cell"))) return time;
+  }
+  return null;
+}
 
 async function noHorizontalScroll(page: Page) {
   const { scroll, width } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, width: window.innerWidth }));
@@ -73,7 +95,7 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   const list = await owner.request.get(`/api/visits?from=${encodeURIComponent(new Date().toISOString())}&to=${encodeURIComponent(new Date(Date.now() + 40 * 86_400_000).toISOString())}`);
   const visit = ((await list.json()).visits as Visit[]).find((v) => v.jobId === jobId && v.state === "booked")!;
   expect(ev.getFirstPropertyValue("uid")).toBe(visit.icsUid);
-  const date = new Intl.DateTimeFormat("en-CA", { timeZone: "America/Los_Angeles" }).format(new Date(visit.start));
+  const date = studioDate(visit.start);
 
   const ctx = await browser.newContext({ viewport: { width: 375, height: 812 }, hasTouch: true, isMobile: true });
   const tech = await ctx.newPage();
@@ -121,31 +143,53 @@ test("staff move a visit with the edit form and by dragging, then cancel it afte
   const res = await page.request.get(`/api/visits?from=${encodeURIComponent(new Date(now).toISOString())}&to=${encodeURIComponent(new Date(now + 20 * 86_400_000).toISOString())}`);
   const visit = ((await res.json()).visits as Visit[]).find((v) => v.jobTitle === "Polish a scuff in the blue resin" && v.state === "booked")!;
   expect(visit).toBeTruthy();
-  const date = new Intl.DateTimeFormat("en-CA", { timeZone: "America/Los_Angeles" }).format(new Date(visit.start));
+  const date = studioDate(visit.start);
+  const seededAt = studioTime(visit.start);
+  // Where it can go: the job's free slots with the same technician that day (the visit itself left
+  // out), as the server works them out. The seed and the specs before this one put other visits on
+  // days and hours that follow the day and hour the suite runs, so no target time is fixed here.
+  const slotsRes = await page.request.get(`/api/jobs/${visit.jobId}/slots?from=${encodeURIComponent(new Date(now).toISOString())}&to=${encodeURIComponent(new Date(now + 20 * 86_400_000).toISOString())}`);
+  expect(slotsRes.status()).toBe(200);
+  const free = ((await slotsRes.json()).slots as Slot[])
+    .filter((s) => s.technicianId === visit.technicianId && s.localDate === date && /:(00|30)$/.test(s.localStart) && s.localStart !== seededAt)
+    .map((s) => s.localStart);
+  // Sol works 09:00–12:00 and 13:00–17:00 there: one time is picked in the afternoon for the form, and
+  // the drag goes to a morning time.
+  const afternoon = free.includes("15:30") ? "15:30" : free.find((t) => t >= "13:00");
+  const mornings = free.filter((t) => t < "12:00");
+  expect(afternoon, `a free afternoon time for ${visit.technicianName} on ${date}`).toBeTruthy();
+  expect(mornings.length, `free morning times for ${visit.technicianName} on ${date}`).toBeGreaterThan(0);
+
   await page.goto(`/studio/visits?week=${date}`);
-  const block = page.getByRole("button", { name: /^Polish a scuff in the blue resin, 14:00, Sol Amberly/ });
+  const block = page.getByRole("button", { name: new RegExp(`^Polish a scuff in the blue resin, ${seededAt}, Sol Amberly`) });
   await expect(block).toBeVisible();
   await block.click();
   const edit = page.getByRole("region", { name: "Edit visit" });
-  await edit.getByLabel("Start time").fill("15:30");
+  await edit.getByLabel("Start time").fill(afternoon!);
   await edit.getByRole("button", { name: "Move the visit" }).click();
   await expect(page.getByText("Visit moved; the owner gets the updated invite.").first()).toBeVisible();
-  await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 15:30/ })).toBeVisible();
+  const blockAt = (time: string) => page.getByRole("button", { name: new RegExp(`^Polish a scuff in the blue resin, ${time}`) });
+  await expect(blockAt(afternoon!)).toBeVisible();
   const moved = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /^Visit moved/, since: now, sinkUrl: SINK_URL });
-  expect(moved.subject).toContain("15:30");
+  expect(moved.subject).toContain(afternoon!);
 
-  // Drag it to 10:00 the same day (Sol works 09:00–12:00 there).
-  const target = page.locator(`[data-cell="${date}|600"]`);
-  await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 15:30/ }).dragTo(target);
-  await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ })).toBeVisible();
-  // Dropped on a time outside Sol's hours (07:00): refused with a 409 (an error toast), the visit stays.
+  // Drag it to a free morning time the same day, onto a cell no other visit (another technician's, or
+  // one cancelled earlier) is drawn over.
+  const morning = await firstOpenCell(page, date, mornings);
+  expect(morning, `an open cell among ${mornings.join(", ")} on ${date}`).toBeTruthy();
+  await blockAt(afternoon!).dragTo(cellAt(page, date, morning!));
+  await expect(blockAt(morning!)).toBeVisible();
+  // Dropped on a time outside Sol's hours (before 09:00, or from 17:00): refused with a 409 (an error
+  // toast), and the visit stays.
+  const outside = await firstOpenCell(page, date, ["07:00", "07:30", "08:00", "08:30", "17:00", "17:30", "18:00", "18:30"]);
+  expect(outside, `an open cell outside Sol's hours on ${date}`).toBeTruthy();
   const refused = page.waitForResponse((r) => r.url().includes(`/api/visits/${visit.id}`) && r.request().method() === "PATCH");
-  await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ }).dragTo(page.locator(`[data-cell="${date}|420"]`));
+  await blockAt(morning!).dragTo(cellAt(page, date, outside!));
   expect((await refused).status()).toBe(409);
   await expect(page.locator('[data-sonner-toast][data-type="error"]').first()).toBeVisible();
-  await expect(page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ })).toBeVisible();
+  await expect(blockAt(morning!)).toBeVisible();
 
-  await page.getByRole("button", { name: /^Polish a scuff in the blue resin, 10:00/ }).click();
+  await blockAt(morning!).click();
   await page.getByRole("region", { name: "Edit visit" }).getByRole("button", { name: "Cancel the visit" }).click();
   const dialog = page.getByRole("dialog", { name: "Cancel this visit?" });
   await expect(dialog).toBeVisible();
