@@ -1,4 +1,10 @@
 import { defineConfig } from "@playwright/test";
+import { shiftBrowserClocks, withoutFaketime } from "./tests/support/browser-clock";
+
+// Set by scripts/e2e-week.mjs, which runs this suite under libfaketime: Chromium is kept off it and its
+// contexts get the shifted time from Playwright's clock API instead (tests/support/browser-clock.ts).
+const shiftedClock = process.env.E2E_SHIFTED_CLOCK === "1";
+if (shiftedClock) shiftBrowserClocks();
 
 // End-to-end tests in Debian's Chromium (never a downloaded browser) against a production build.
 export default defineConfig({
@@ -17,6 +23,7 @@ export default defineConfig({
     launchOptions: {
       executablePath: "/usr/bin/chromium",
       args: ["--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run", "--disable-quic"],
+      ...(shiftedClock ? { env: withoutFaketime(process.env) } : {}),
     },
   },
   projects: [{ name: "chromium", use: { browserName: "chromium" } }],

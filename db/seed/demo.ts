@@ -292,7 +292,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
   });
   const jobs = seedJobs(db, result.studioId, today);
   await seedVisits(db, result.studioId, today, jobs.done);
-  await seedClaims(db, result.studioId);
+  await seedClaims(db, result.studioId, today);
   seedAftercareHistory(db, result.studioId, today);
   return { ...result, jobs };
 }
