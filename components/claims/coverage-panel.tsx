@@ -1,15 +1,22 @@
 import { CircleCheck, CircleHelp, CircleMinus, CircleX, type LucideIcon } from "lucide-react";
 import type { ClaimCoverage } from "@/lib/claims/coverage";
+import { CARE_LOG_CONDITION_LABELS, coverageSummary, SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
+import { formatDate, formatTimeLeft } from "@/lib/owner/format";
+import { exclusionLabel } from "@/lib/owner/warranty";
 import { Card } from "@/components/ui/card";
 
-const SUGGESTION: Record<string, { label: string; Icon: LucideIcon; tone: string }> = {
-  covered: { label: "Covered", Icon: CircleCheck, tone: "text-ok" },
-  partly_covered: { label: "Partly covered", Icon: CircleMinus, tone: "text-warn" },
-  not_covered: { label: "Not covered", Icon: CircleX, tone: "text-danger" },
-  needs_info: { label: "Needs more information", Icon: CircleHelp, tone: "text-resin" },
+const SUGGESTION_LOOK: Record<string, { Icon: LucideIcon; tone: string }> = {
+  covered: { Icon: CircleCheck, tone: "text-ok" },
+  partly_covered: { Icon: CircleMinus, tone: "text-warn" },
+  not_covered: { Icon: CircleX, tone: "text-danger" },
+  needs_info: { Icon: CircleHelp, tone: "text-resin" },
 };
 
-/** The coverage check with every reason; staff decide, the suggestion is only a suggestion. */
+/**
+ * The coverage check: a one-line summary a front desk can read aloud, the findings as labels, the
+ * questions still to ask, and every reason of the engine (with its sources) in "How this was worked
+ * out". Staff decide; the suggestion is only a suggestion.
+ */
 export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
   const c = coverage.check;
   return (
@@ -22,53 +29,46 @@ export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
       ) : (
         <>
           {(() => {
-            const s = SUGGESTION[c.suggestion]!;
+            const look = SUGGESTION_LOOK[c.suggestion]!;
             return (
-              <p className={`flex items-center gap-2 text-lg font-semibold ${s.tone}`}>
-                <s.Icon aria-hidden className="size-6" />
-                Suggests: {s.label}
-                {c.suggestedCoveredPct !== null ? <span className="text-base font-normal text-ink">({c.suggestedCoveredPct} % covered)</span> : null}
+              <p className={`flex items-center gap-2 text-lg font-semibold ${look.tone}`}>
+                <look.Icon aria-hidden className="size-6 shrink-0" />
+                Suggests: {SUGGESTION_LABELS[c.suggestion]}
+                {c.suggestedCoveredPct !== null && c.suggestion === "partly_covered" ? <span className="text-base font-normal text-ink">({c.suggestedCoveredPct} % covered)</span> : null}
               </p>
             );
           })()}
+          <p data-testid="coverage-summary" className="text-base">
+            {coverageSummary(c)}
+          </p>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
-            <dt className="text-muted">Warranty</dt>
+            <dt className="text-muted">Warranty terms</dt>
             <dd>{coverage.policyVersion}</dd>
             <dt className="text-muted">Line</dt>
-            <dd>{c.line ? `${c.line.label} (${c.line.termMonths} months)` : "none for this category"}</dd>
+            <dd>{c.line ? `${c.line.label} (${c.line.termMonths} months from delivery)` : "None for this kind of damage"}</dd>
             {c.termEndsOn ? (
               <>
                 <dt className="text-muted">Term</dt>
                 <dd>
-                  ends {c.termEndsOn} · {c.daysLeft! >= 0 ? `${c.daysLeft} days left at filing` : `expired ${-c.daysLeft!} days before filing`}
+                  Ends {formatDate(c.termEndsOn)} · {c.daysLeft! >= 0 ? `${formatTimeLeft(c.daysLeft!)} left when filed` : `ended ${formatTimeLeft(-c.daysLeft!)} before it was filed`}
                 </dd>
               </>
             ) : null}
+            {c.exclusionsTriggered.length ? (
+              <>
+                <dt className="text-muted">Excluded</dt>
+                <dd>{c.exclusionsTriggered.map(exclusionLabel).join(", ")}</dd>
+              </>
+            ) : null}
             <dt className="text-muted">Care log</dt>
-            <dd>{c.careLogCondition.replace("_", " ")}</dd>
+            <dd>{CARE_LOG_CONDITION_LABELS[c.careLogCondition]}</dd>
+            {c.climate ? (
+              <>
+                <dt className="text-muted">Room climate</dt>
+                <dd>{c.climate.insideCareGuide ? "Inside the care guide's range" : "Outside the care guide's range"}</dd>
+              </>
+            ) : null}
           </dl>
-          {c.climate?.reported ? (
-            <div className="rounded-lg border border-line bg-paper p-3 text-sm">
-              <p className="font-semibold">Seasonal movement of this slab</p>
-              <p>
-                {Math.abs(c.climate.reported.changeMm).toFixed(1)} mm ({Math.abs(c.climate.reported.changeIn).toFixed(2)} in) between the owner&apos;s driest and dampest readings;{" "}
-                {c.climate.careGuide ? `${Math.abs(c.climate.careGuide.changeMm).toFixed(1)} mm across the care guide's 40–60 % RH.` : null}
-              </p>
-              <ul className="mt-1 list-disc pl-5 text-muted">
-                {c.climate.reported.reasons.map((r) => (
-                  <li key={r}>{r}</li>
-                ))}
-              </ul>
-            </div>
-          ) : null}
-          <div>
-            <p className="text-sm font-semibold">Every reason</p>
-            <ol className="list-decimal space-y-1 pl-5 text-sm">
-              {c.reasons.map((r, i) => (
-                <li key={i}>{r}</li>
-              ))}
-            </ol>
-          </div>
           {c.questions.length ? (
             <div>
               <p className="text-sm font-semibold">Still to ask the owner</p>
@@ -79,6 +79,29 @@ export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
               </ul>
             </div>
           ) : null}
+          <details className="rounded-lg border border-line bg-paper p-3 text-sm">
+            <summary className="flex min-h-11 cursor-pointer items-center font-medium text-resin">How this was worked out</summary>
+            {c.climate?.reported ? (
+              <div className="mt-2 space-y-1">
+                <p className="font-semibold">Seasonal movement of this slab</p>
+                <p>
+                  {Math.abs(c.climate.reported.changeMm).toFixed(1)} mm ({Math.abs(c.climate.reported.changeIn).toFixed(2)} in) between the owner&apos;s driest and dampest readings
+                  {c.climate.careGuide ? `; ${Math.abs(c.climate.careGuide.changeMm).toFixed(1)} mm across the care guide's range.` : "."}
+                </p>
+                <ul className="list-disc pl-5 text-muted">
+                  {c.climate.reported.reasons.map((r) => (
+                    <li key={r}>{r}</li>
+                  ))}
+                </ul>
+              </div>
+            ) : null}
+            <p className="mt-2 font-semibold">Every reason</p>
+            <ol className="list-decimal space-y-1 pl-5">
+              {c.reasons.map((r, i) => (
+                <li key={i}>{r}</li>
+              ))}
+            </ol>
+          </details>
         </>
       )}
       {coverage.notes.map((n) => (

@@ -85,4 +85,5 @@ export const EXCLUSION_LABELS: Record<string, string> = {
   impact: "knocks and drops",
   outdoor_use_of_indoor_piece: "outdoor use of an indoor piece",
   direct_sun_on_indoor_resin: "direct sun on indoor resin",
+  sun_on_resin: "sun on the resin (resin yellows in daylight)",
 };

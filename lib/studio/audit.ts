@@ -6,6 +6,12 @@ import { getDb } from "@/db/client";
 import { auditLog, memberships, users } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { addDays, localDateTime, zonedTimeToEpochMs } from "@/lib/care/dates";
+import { formatMinorUnits } from "@/lib/care/quote";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
+import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
+import { CLAIM_CATEGORY_LABELS, CLAIM_DECISION_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
+import { formatDate } from "@/lib/owner/format";
+import { JOB_STATE_LABELS } from "@/lib/repairs/states";
 import { forbidden } from "@/lib/errors";
 import { AUDIT_GROUPS, auditQuerySchema, type AuditQuery } from "./audit-query";
 
@@ -78,17 +84,100 @@ export type AuditRow = {
   details: string[];
 };
 
-/** A few readable lines from an entry's data (the keys most entries carry). */
-function describe(data: Record<string, unknown>): string[] {
-  const out: string[] = [];
-  const str = (v: unknown) => (typeof v === "string" || typeof v === "number" || typeof v === "boolean" ? String(v) : v == null ? "—" : JSON.stringify(v));
-  if ("from" in data && "to" in data && typeof data.from !== "object") out.push(`${str(data.from)} → ${str(data.to)}`);
-  for (const key of ["name", "title", "email", "role", "decision", "reason", "amount", "amountMinor", "version", "effectiveFrom", "via"]) {
-    if (key in data && data[key] != null && typeof data[key] !== "object") out.push(`${key}: ${str(data[key])}`);
+const KEY_WORDS: Record<string, string> = {
+  name: "Name",
+  title: "Title",
+  email: "E-mail",
+  role: "Role",
+  decision: "Decision",
+  coveredPct: "Covered share",
+  reason: "Reason",
+  amount: "Amount",
+  amountMinor: "Amount",
+  totalMinor: "Total",
+  refundedMinor: "Refunded",
+  priceMinor: "Price",
+  version: "Version",
+  quoteVersion: "Quote version",
+  effectiveFrom: "In force from",
+  via: "Via",
+  suggestion: "Coverage check suggested",
+  category: "Kind of damage",
+  taskKind: "Care task",
+  doneOn: "Done on",
+  finishClass: "Finish class",
+  kind: "Kind",
+  use: "Use",
+  sun: "Sun",
+  resinKind: "Resin",
+  surface: "Surface",
+  coats: "Coats",
+  appliedOn: "Applied on",
+  deliveredOn: "Delivered on",
+  signOffName: "Signed off by",
+};
+
+const ROLE_WORDS: Record<string, string> = { admin: "Admin", staff: "Staff", technician: "Technician", owner: "Owner" };
+const SURFACE_WORDS: Record<string, string> = { top: "Top", base: "Base", edges: "Edges", whole_piece: "Whole piece" };
+
+/** One label map per enumeration: a stored value as the words the screens use for it. */
+const VALUE_WORDS: Record<string, Record<string, string>> = {
+  role: ROLE_WORDS,
+  decision: CLAIM_DECISION_LABELS,
+  suggestion: SUGGESTION_LABELS,
+  category: CLAIM_CATEGORY_LABELS,
+  taskKind: CARE_TASK_LABELS,
+  finishClass: FINISH_CLASS_LABELS,
+  kind: PIECE_KIND_LABELS,
+  use: USE_LABELS,
+  sun: SUN_LABELS,
+  resinKind: RESIN_LABELS,
+  surface: SURFACE_WORDS,
+};
+
+const MONEY_KEYS = new Set(["amountMinor", "totalMinor", "refundedMinor", "priceMinor"]);
+const DATE_KEYS = new Set(["effectiveFrom", "doneOn", "appliedOn", "deliveredOn"]);
+
+/** A key as words: a known label, else its camelCase or snake_case split ("reasonCode" → "Reason code"). */
+function keyWords(key: string): string {
+  if (KEY_WORDS[key]) return KEY_WORDS[key];
+  const s = key.replace(/([a-z])([A-Z])/g, "$1 $2").replace(/[._]/g, " ").toLowerCase();
+  return s.charAt(0).toUpperCase() + s.slice(1);
+}
+
+/** A value as words: enumerations through their label maps, money in the studio's currency, dates written out. */
+function valueWords(key: string, v: unknown, currency: string, action = ""): string {
+  if (v == null) return "—";
+  if (typeof v === "boolean") return v ? "yes" : "no";
+  if (typeof v === "number" && MONEY_KEYS.has(key)) {
+    try {
+      return `${formatMinorUnits(v, currency)} ${currency}`;
+    } catch {
+      return String(v);
+    }
   }
-  if (Array.isArray(data.changes)) out.push(...(data.changes as unknown[]).slice(0, 6).map(str));
+  if (typeof v === "number" && key === "coveredPct") return `${v} %`;
+  if (typeof v !== "string") return typeof v === "number" ? String(v) : JSON.stringify(v);
+  if (DATE_KEYS.has(key) && /^\d{4}-\d{2}-\d{2}$/.test(v)) return formatDate(v);
+  if ((key === "from" || key === "to") && action.startsWith("claim.")) return CLAIM_STATE_LABELS_STAFF[v as keyof typeof CLAIM_STATE_LABELS_STAFF] ?? v.replace(/_/g, " ");
+  if ((key === "from" || key === "to") && (action.startsWith("job.") || action.startsWith("repair_job."))) return JOB_STATE_LABELS[v as keyof typeof JOB_STATE_LABELS] ?? v.replace(/_/g, " ");
+  const map = VALUE_WORDS[key];
+  if (map) return map[v] ?? v.replace(/_/g, " ");
+  return v;
+}
+
+/** A few readable lines from an entry's data (the keys most entries carry), in words, never raw enum values. */
+export function describe(data: Record<string, unknown>, currency = "USD", action = ""): string[] {
+  const out: string[] = [];
+  if ("from" in data && "to" in data && typeof data.from !== "object") out.push(`${valueWords("from", data.from, currency, action)} → ${valueWords("to", data.to, currency, action)}`);
+  for (const key of ["name", "title", "email", "role", "decision", "coveredPct", "suggestion", "category", "taskKind", "reason", "amount", "amountMinor", "totalMinor", "refundedMinor", "version", "quoteVersion", "effectiveFrom", "via"]) {
+    if (key in data && data[key] != null && typeof data[key] !== "object") out.push(`${keyWords(key)}: ${valueWords(key, data[key], currency, action)}`);
+  }
+  if (Array.isArray(data.changes)) out.push(...(data.changes as unknown[]).slice(0, 6).map((c) => (typeof c === "string" ? c : JSON.stringify(c))));
   if (data.changed && typeof data.changed === "object") {
-    for (const [k, v] of Object.entries(data.changed as Record<string, { from: unknown; to: unknown }>).slice(0, 8)) out.push(`${k}: ${str(v?.from)} → ${str(v?.to)}`);
+    for (const [k, v] of Object.entries(data.changed as Record<string, { from: unknown; to: unknown }>).slice(0, 8)) {
+      out.push(`${keyWords(k)}: ${valueWords(k, v?.from, currency, action)} → ${valueWords(k, v?.to, currency, action)}`);
+    }
   }
   return out;
 }
@@ -132,7 +221,7 @@ export function listAudit(ctx: StudioContext, raw: unknown) {
         subjectType: e.subjectType,
         subjectId: e.subjectId,
         href: base ? base + e.subjectId : null,
-        details: describe(e.data ?? {}),
+        details: describe(e.data ?? {}, ctx.studio.currency, e.action),
       };
     });
   // People to filter by: the studio's members, and anyone else who appears in its log (owners, former staff).

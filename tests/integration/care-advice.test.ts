@@ -8,7 +8,10 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { finishLayers, warrantyPolicies } from "@/db/schema";
-import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
+import { recordAudit } from "@/lib/audit";
+import { checkCoverage, DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
+import { coverageSummary } from "@/lib/claims/coverage-words";
+import { listAudit } from "@/lib/studio/audit";
 import { careSchedule } from "@/lib/care/schedule";
 import { certificatePdf } from "@/lib/owner/certificate";
 import { getMyPiece } from "@/lib/owner/pieces";
@@ -209,5 +212,45 @@ describe("words for people (item 11)", () => {
     const reoil = view.schedule.tasks.find((t) => t.kind === "reoil")!;
     expect(reoil.interval).toBe("9 months"); // 12 months × 0.75 for direct sun (DESIGN.md §4)
     expect(reoil.reasons.join(" ")).toMatch(/in direct sun/);
+  });
+});
+
+describe("the coverage check and the audit log in words (item 11)", () => {
+  it("opens with one sentence a front desk can read aloud: no enum values, equations or sources", () => {
+    const piece = { id: "p", kind: "dining_table", use: "heavy", sun: "none", deliveredOn: "2025-06-01", resin: "deep_pour", primarySpeciesId: "black_walnut", shape: { kind: "rectangle", lengthMm: 2000, widthMm: 1000 } } as const;
+    const noAnswers = { heat: false, chemicals: false, impact: false, usedOutdoors: false, directSun: false };
+    const crack = checkCoverage({
+      claim: { category: "crack_gap", filedOn: "2026-03-01", answers: noAnswers, roomClimate: { driest: { tempC: 21, rhPct: 42 }, dampest: { tempC: 23, rhPct: 58 }, largestDailyRhChangePct: 4 } },
+      piece,
+      policy: DEFAULT_WARRANTY_POLICY,
+      careLog: [],
+      now: "2026-03-01T12:00:00Z",
+    });
+    const heat = checkCoverage({ claim: { category: "finish_wear", filedOn: "2026-03-01", answers: { ...noAnswers, heat: true } }, piece, policy: DEFAULT_WARRANTY_POLICY, careLog: [], now: "2026-03-01T12:00:00Z" });
+    for (const c of [crack, heat]) {
+      const line = coverageSummary(c);
+      expect(line).toMatch(/^Suggested: /);
+      expect(line).not.toMatch(/_|Eq\.|Table|from memory|common practice|\d{4}-\d{2}-\d{2}/);
+    }
+    expect(heat.suggestion).toBe("not_covered");
+    expect(coverageSummary(heat)).toContain("excludes heat damage");
+  });
+
+  it("the audit log shows decisions, roles and amounts as words, not partly_covered or amountMinor: 10389", async () => {
+    const studio = createStudio({ currency: "USD" });
+    const staff = await memberContext(studio, "staff");
+    getDb().transaction((tx) => {
+      recordAudit(tx, { studioId: studio.id, actorId: staff.user.id, action: "claim.decided", subjectType: "claim", subjectId: "c1", data: { from: "in_review", to: "accepted", decision: "partly_covered", coveredPct: 60, suggestion: "partly_covered" } });
+      recordAudit(tx, { studioId: studio.id, actorId: null, action: "job.paid", subjectType: "repair_job", subjectId: "j1", data: { amountMinor: 10389, quoteVersion: 1 } });
+      recordAudit(tx, { studioId: studio.id, actorId: staff.user.id, action: "member.role_changed", subjectType: "user", subjectId: "u1", data: { from: "staff", to: "admin", role: "admin" } });
+      recordAudit(tx, { studioId: studio.id, actorId: staff.user.id, action: "piece.registered", subjectType: "piece", subjectId: "p1", data: {} });
+    });
+    const log = listAudit(staff, {});
+    const text = log.rows.map((r) => [r.label, ...r.details].join(" | ")).join("\n");
+    expect(text).toContain("Decision: Partly covered");
+    expect(text).toContain("Reviewing → Accepted");
+    expect(text).toContain("Amount: 103.89 USD");
+    expect(text).toContain("Piece registered by its owner");
+    expect(text).not.toMatch(/partly_covered|in_review|amountMinor|10389|piece\.registered|coveredPct/);
   });
 });
