@@ -11,7 +11,8 @@ export function Providers({ children }: { children: ReactNode }) {
   return (
     <QueryClientProvider client={client}>
       {children}
-      <Toaster position="top-center" richColors closeButton />
+      {/* Bottom of the screen: at the top, a toast covered the site menu. */}
+      <Toaster position="bottom-center" richColors closeButton />
     </QueryClientProvider>
   );
 }

@@ -49,11 +49,11 @@ export default async function CardLandingPage({ params }: { params: Promise<{ co
               </div>
             ) : !user.emailVerifiedAt ? (
               <Notice tone="warn" title="Confirm your e-mail first">
-                Open the link we sent to {user.email}; it brings you back here to register. <Link className="underline" href={`/verify-email/sent?next=${encodeURIComponent(here)}`}>Need a new link?</Link>
+                Open the link we sent to <span className="break-all">{user.email}</span>; it brings you back here to register. <Link className="underline" href={`/verify-email/sent?next=${encodeURIComponent(here)}`}>Need a new link?</Link>
               </Notice>
             ) : (
               <div className="space-y-3">
-                <p>Signed in as {user.email}. One tap puts this piece on your account.</p>
+                <p>Signed in as <span className="break-all">{user.email}</span>. One tap puts this piece on your account.</p>
                 <RegisterButton action={registerAction} code={card.code} />
               </div>
             )
