@@ -145,7 +145,7 @@ export async function seedClaims(db: Db, studioId: string, now = new Date()): Pr
     if (!piece || !owner || piece.ownerId !== owner.id) continue;
     const createdAt = new Date(now.getTime() - spec.hoursAgo * HOUR);
     const noticedOn = new Date(now.getTime() - spec.noticedDaysAgo * 24 * HOUR).toISOString().slice(0, 10);
-    const stored = await Promise.all(spec.photos.map(async (p, i) => storeImage(await drawnPhoto(p.hue, p.mark, i + 1))));
+    const stored = await Promise.all(spec.photos.map(async (p, i) => storeImage(await drawnPhoto(p.hue, p.mark, i + 1), owner.id)));
     const draft = { category: spec.category, answers: spec.answers, createdAt, ownerId: owner.id };
     const suggestion = spec.decision
       ? (() => {
