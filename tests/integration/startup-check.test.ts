@@ -8,7 +8,7 @@ import { describe, expect, it } from "vitest";
 const root = path.resolve(import.meta.dirname, "../..");
 
 function start(extra: Record<string, string>) {
-  const env: Record<string, string> = {
+  const env: NodeJS.ProcessEnv = {
     PATH: process.env.PATH ?? "",
     HOME: process.env.HOME ?? "",
     NODE_ENV: "production",
