@@ -16,7 +16,9 @@ import {
   SURFACES,
   USES,
   type FinishClass,
+  type PieceKind,
 } from "@/lib/care/vocabulary";
+import { ft2ToM2, inchesToMm } from "@/lib/care/units";
 import { AppError, unprocessable } from "@/lib/errors";
 import { createPieceSchema, importSchema } from "@/lib/validation/pieces";
 import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./registry";
@@ -25,6 +27,8 @@ import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./re
 // every row first and writes nothing unless the whole file is valid, then writes it in one transaction.
 // Columns are the same both ways, so an export can be edited and imported into another studio.
 // finish_stack: layers separated by ";", each surface:class:coats:YYYY-MM-DD[:product label].
+// Sizes may come in inches instead (length_in, width_in, diameter_in, thickness_in: 96, 37.5 or
+// 37 5/8) and a measured area in ft² (area_ft2); sizes implausible for the piece's kind are refused.
 
 export const CSV_COLUMNS = [
   "title",
@@ -126,6 +130,76 @@ function num(raw: string | undefined): number | null | string {
 
 const CLASS_LABELS_SHORT: Record<FinishClass, string> = FINISH_CLASS_LABELS;
 
+/** Inches as a woodworker writes them: "96", "37.5", "37 5/8", "5/8" (a trailing in or " is allowed). */
+export function parseInches(raw: string | undefined): number | null | string {
+  const s = (raw ?? "").trim().replace(/\s*(in|inch|inches|")$/i, "");
+  if (!s) return null;
+  const m = /^(?:(\d+(?:\.\d+)?)(?:[\s-]+(\d+)\/(\d+))?|(\d+)\/(\d+))$/.exec(s.replace(/,/g, ""));
+  if (!m) return raw!.trim();
+  if (m[4] !== undefined) return Number(m[5]) === 0 ? raw!.trim() : Number(m[4]) / Number(m[5]);
+  const whole = Number(m[1]);
+  if (m[2] === undefined) return whole;
+  return Number(m[3]) === 0 ? raw!.trim() : whole + Number(m[2]) / Number(m[3]);
+}
+
+/** Lengths the import accepts in inches beside millimetres (1 in = 25.4 mm exactly, lib/care/units). */
+const INCH_COLUMNS = { length_mm: "length_in", width_mm: "width_in", diameter_mm: "diameter_in", thickness_mm: "thickness_in" } as const;
+
+/**
+ * A length from its mm column or its inch column (converted, rounded to the millimetre). Both given
+ * and more than 2 mm apart: an error naming both. Returns the value for the schema, or an error.
+ */
+function lengthFrom(r: Record<string, string>, mmColumn: keyof typeof INCH_COLUMNS): { value: number | null | string; error?: string } {
+  const mm = num(r[mmColumn]);
+  const inColumn = INCH_COLUMNS[mmColumn];
+  const inches = parseInches(r[inColumn]);
+  if (typeof inches === "string") return { value: mm, error: `${inColumn} "${inches.slice(0, 20)}" is not a number of inches (write 96, 37.5 or 37 5/8)` };
+  if (inches === null) return { value: mm };
+  const converted = Math.round(inchesToMm(inches));
+  if (typeof mm === "number" && Math.abs(mm - converted) > 2) return { value: mm, error: `${mmColumn} (${mm}) and ${inColumn} (${r[inColumn]!.trim()} = ${converted} mm) disagree; keep one of them` };
+  return { value: typeof mm === "number" ? mm : converted };
+}
+
+/**
+ * Sizes a piece of each kind plausibly has, in mm (top length or diameter, width, thickness). A value
+ * outside them is refused: most often inches typed into a mm column. Our own bounds, generous on
+ * purpose — common practice, no published source.
+ */
+export const PLAUSIBLE_MM: Record<PieceKind, { length: [number, number]; width: [number, number]; thickness: [number, number] }> = {
+  dining_table: { length: [600, 6000], width: [500, 2000], thickness: [15, 200] },
+  coffee_table: { length: [350, 3000], width: [300, 1800], thickness: [15, 200] },
+  desk: { length: [600, 4000], width: [350, 1500], thickness: [15, 150] },
+  bench: { length: [400, 6000], width: [200, 1000], thickness: [20, 250] },
+  countertop: { length: [300, 8000], width: [250, 1800], thickness: [10, 200] },
+  console: { length: [400, 4000], width: [150, 900], thickness: [15, 150] },
+  shelf: { length: [150, 4000], width: [80, 700], thickness: [10, 120] },
+  other: { length: [50, 10000], width: [30, 5000], thickness: [5, 500] },
+};
+
+const DIMENSION_OF = { lengthMm: "length", diameterMm: "length", widthMm: "width", thicknessMm: "thickness" } as const;
+const DIMENSION_WORDS = { lengthMm: "long", diameterMm: "across", widthMm: "wide", thicknessMm: "thick" } as const;
+
+/** Per-row messages for sizes implausible for the kind, with the likely cause when inches were typed as mm. */
+function implausibleSizes(kind: string, sizes: Partial<Record<keyof typeof DIMENSION_OF, unknown>>): { field: string; message: string }[] {
+  const bounds = (PLAUSIBLE_MM as Record<string, (typeof PLAUSIBLE_MM)[PieceKind]>)[kind];
+  const out: { field: string; message: string }[] = [];
+  if (!bounds) return out;
+  for (const [field, v] of Object.entries(sizes) as [keyof typeof DIMENSION_OF, unknown][]) {
+    if (typeof v !== "number" || !Number.isFinite(v) || v <= 0) continue;
+    const [min, max] = bounds[DIMENSION_OF[field]];
+    if (v >= min && v <= max) continue;
+    const column = FIELD_TO_COLUMN[field]!;
+    const what = PIECE_KIND_LABELS[kind as PieceKind].toLowerCase();
+    const asInches = Math.round(inchesToMm(v));
+    const hint =
+      v < min && asInches >= min && asInches <= max
+        ? ` If you measured in inches, put ${v} in the ${INCH_COLUMNS[column as keyof typeof INCH_COLUMNS]} column instead (${v} in = ${asInches.toLocaleString("en-US")} mm).`
+        : ` Check the number and its unit (millimetres).`;
+    out.push({ field: column, message: `A ${what} ${v.toLocaleString("en-US")} mm ${DIMENSION_WORDS[field]} is ${v < min ? "too small" : "too large"} to be right (expected ${min.toLocaleString("en-US")}–${max.toLocaleString("en-US")} mm).${hint}` });
+  }
+  return out;
+}
+
 function parseStack(raw: string, products: { id: string; name: string; finishClass: FinishClass }[]): { layers: unknown[]; error?: string } {
   const entries = raw.split(";").map((e) => e.trim()).filter(Boolean);
   const layers: unknown[] = [];
@@ -140,6 +214,12 @@ function parseStack(raw: string, products: { id: string; name: string; finishCla
     layers.push({ surface: s, finishClass, coats: num(coats), appliedOn: date, productLabel, productId: product?.id ?? null });
   }
   return { layers };
+}
+
+/** A measured area given in ft² (area_ft2), as m² for the record; text that is not a number is passed on for the schema to refuse. */
+function ft2Area(raw: string | undefined): number | null | string {
+  const v = num(raw);
+  return typeof v === "number" ? Math.round(ft2ToM2(v) * 1e4) / 1e4 : v;
 }
 
 function species(raw: string): string {
@@ -196,15 +276,19 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
       const rowNo = i + 2;
       const r = Object.fromEntries(Object.entries(r0).map(([k, v]) => [k, uncell(String(v ?? "")).trim()]));
       const stack = parseStack(r.finish_stack ?? "", products);
+      const length = lengthFrom(r, "length_mm");
+      const width = lengthFrom(r, "width_mm");
+      const diameter = lengthFrom(r, "diameter_mm");
+      const thickness = lengthFrom(r, "thickness_mm");
       const candidate = {
         title: r.title ?? "",
         kind: enumValue(r.kind ?? "", PIECE_KINDS, PIECE_KIND_LABELS),
         shapeKind: enumValue(r.shape ?? "", SHAPE_KINDS),
-        lengthMm: num(r.length_mm),
-        widthMm: num(r.width_mm),
-        diameterMm: num(r.diameter_mm),
-        measuredAreaM2: num(r.area_m2),
-        thicknessMm: num(r.thickness_mm),
+        lengthMm: length.value,
+        widthMm: width.value,
+        diameterMm: diameter.value,
+        measuredAreaM2: num(r.area_m2) ?? ft2Area(r.area_ft2),
+        thicknessMm: thickness.value,
         primarySpeciesId: species(r.primary_species ?? ""),
         secondarySpeciesId: species(r.secondary_species ?? "") || null,
         resinKind: enumValue(r.resin ?? "", RESIN_KINDS, RESIN_LABELS) || "none",
@@ -223,6 +307,12 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
       const result = createPieceSchema.safeParse(candidate);
       const rowErrors: ImportError[] = [];
       if (stack.error) rowErrors.push({ row: rowNo, field: "finish_stack", message: stack.error });
+      for (const [column, l] of [["length_mm", length], ["width_mm", width], ["diameter_mm", diameter], ["thickness_mm", thickness]] as const) {
+        if (l.error) rowErrors.push({ row: rowNo, field: column, message: l.error });
+      }
+      for (const e of implausibleSizes(String(candidate.kind), { lengthMm: candidate.lengthMm, widthMm: candidate.widthMm, diameterMm: candidate.diameterMm, thicknessMm: candidate.thicknessMm })) {
+        rowErrors.push({ row: rowNo, ...e });
+      }
       if (!result.success) {
         for (const issue of result.error.issues) {
           const [first, idx, sub] = issue.path.map(String);
