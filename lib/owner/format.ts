@@ -1,6 +1,6 @@
 // How the owner's side writes dates, lengths, areas and volumes: in the owner's time zone and unit
 // system. Pure (no server-only import): the PDF, the e-mails and the client components use it too.
-import { M2_PER_FT2, MM_PER_INCH, ML_PER_US_FL_OZ } from "@/lib/care/units";
+import { L_PER_US_GALLON, M2_PER_FT2, MM_PER_INCH, ML_PER_US_FL_OZ } from "@/lib/care/units";
 
 export type UnitSystem = "metric" | "imperial";
 
@@ -56,23 +56,73 @@ export function formatTimeLeft(days: number): string {
   return parts.join(" ");
 }
 
-/** A length in mm as the owner reads it: "2,440 mm" or "96 in". */
+/**
+ * Inches as a woodworker's tape reads them: whole inches and a fraction to 1/16 in, reduced
+ * ("37 5/8 in", "96 in", "5/16 in"). 1 in = 25.4 mm exactly (lib/care/units).
+ */
+export function formatInchesTape(mm: number): string {
+  const sixteenths = Math.round((mm / MM_PER_INCH) * 16);
+  const whole = Math.floor(sixteenths / 16);
+  let num = sixteenths % 16;
+  let den = 16;
+  while (num > 0 && num % 2 === 0) {
+    num /= 2;
+    den /= 2;
+  }
+  const frac = num === 0 ? "" : `${num}/${den}`;
+  if (whole === 0 && frac) return `${frac} in`;
+  return `${whole.toLocaleString("en-US")}${frac ? ` ${frac}` : ""} in`;
+}
+
+/** A length in mm as the reader's unit system writes it: "2,440 mm" or "96 1/16 in". */
 export function formatLength(mm: number, units: UnitSystem): string {
   if (units === "metric") return `${mm.toLocaleString("en-US")} mm`;
+  return formatInchesTape(mm);
+}
+
+/**
+ * A board's thickness: in imperial, inches and — where it is a whole number of quarter inches from
+ * 4/4 to 16/4 within 1/32 in — the lumber trade's quarters ("2 in (8/4)"). Metric: "51 mm".
+ */
+export function formatThickness(mm: number, units: UnitSystem): string {
+  if (units === "metric") return formatLength(mm, units);
   const inches = mm / MM_PER_INCH;
-  const rounded = inches >= 24 ? Math.round(inches) : Math.round(inches * 4) / 4;
-  return `${rounded.toLocaleString("en-US")} in`;
+  const quarters = Math.round(inches * 4);
+  const fits = quarters >= 4 && quarters <= 16 && Math.abs(inches - quarters / 4) <= 1 / 32;
+  return fits ? `${formatInchesTape((quarters / 4) * MM_PER_INCH)} (${quarters}/4)` : formatInchesTape(mm);
+}
+
+/** For staff records: the studio's unit first, the other in brackets ("2,438 mm (96 in)"). */
+export function formatLengthBoth(mm: number | null | undefined, units: UnitSystem): string {
+  if (mm == null) return "—";
+  const other: UnitSystem = units === "metric" ? "imperial" : "metric";
+  return `${formatLength(mm, units)} (${formatLength(mm, other)})`;
 }
 
 export function formatArea(m2: number, units: UnitSystem): string {
   return units === "metric" ? `${m2.toFixed(2)} m²` : `${(m2 / M2_PER_FT2).toFixed(1)} ft²`;
 }
 
-/** Product volume: mL, or US fl oz (with mL in brackets, as labels print both). */
+/** For staff records: an area in the studio's unit first, the other in brackets. */
+export function formatAreaBoth(m2: number | null | undefined, units: UnitSystem): string {
+  if (m2 == null) return "—";
+  const other: UnitSystem = units === "metric" ? "imperial" : "metric";
+  return `${formatArea(m2, units)} (${formatArea(m2, other)})`;
+}
+
+/** Product volume: mL, or US fl oz (with mL in brackets, as labels print both); rounded up, once, for display. */
 export function formatVolume(ml: number, units: UnitSystem): string {
   if (units === "metric") return `${ml.toLocaleString("en-US")} mL`;
   const oz = Math.ceil((ml / ML_PER_US_FL_OZ) * 10) / 10;
   return `${oz} US fl oz (${ml.toLocaleString("en-US")} mL)`;
+}
+
+/** A large volume (resin pours) for staff records: litres or US gallons, the other in brackets. */
+export function formatLargeVolume(ml: number | null | undefined, units: UnitSystem): string {
+  if (ml == null) return "—";
+  const l = `${Number((ml / 1000).toFixed(2))} L`;
+  const gal = `${Number((ml / 1000 / L_PER_US_GALLON).toFixed(2))} US gal`;
+  return units === "imperial" ? `${gal} (${l})` : `${l} (${gal})`;
 }
 
 /** A top's size: "2,440 × 1,020 mm", "Ø 900 mm", or a measured area. */
@@ -82,6 +132,7 @@ export function formatSize(
 ): string {
   const unit = units === "metric" ? " mm" : " in";
   const n = (mm: number) => formatLength(mm, units).replace(/ (mm|in)$/, "");
+  // "96 × 37 5/8 in" reads well; "Ø 36 in" too.
   if ((shape.shapeKind === "rectangle" || shape.shapeKind === "oval") && shape.lengthMm && shape.widthMm) {
     return `${shape.shapeKind === "oval" ? "Oval, " : ""}${n(shape.lengthMm)} × ${n(shape.widthMm)}${unit}`;
   }

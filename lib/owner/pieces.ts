@@ -34,7 +34,7 @@ import { notFound } from "@/lib/errors";
 import { scheduleFromRows, topShape, toCatalog } from "@/lib/pieces/care-inputs";
 import { monthsText, whyNow } from "@/lib/reminders/content";
 import { buildCareGuide, type CareGuide } from "./care-guide";
-import { formatLength, formatSize, type UnitSystem } from "./format";
+import { formatSize, formatThickness, type UnitSystem } from "./format";
 import { warrantyLinesFor, type OwnerWarrantyLine } from "./warranty";
 
 // The owner's reads. Every query filters by the signed-in owner's id; someone else's piece is a 404
@@ -297,7 +297,7 @@ export function getMyPiece(owner: Owner, pieceId: string, now = new Date()): Pie
     deliveredOn: piece.deliveredOn,
     registeredAt: piece.registeredAt ? piece.registeredAt.getTime() : null,
     size: formatSize(piece, units),
-    thickness: piece.thicknessMm ? formatLength(piece.thicknessMm, units) : null,
+    thickness: piece.thicknessMm ? formatThickness(piece.thicknessMm, units) : null,
     species: {
       primary: primary?.commonName ?? piece.primarySpeciesId.replace(/_/g, " "),
       secondary: piece.secondarySpeciesId ? (secondary?.commonName ?? piece.secondarySpeciesId.replace(/_/g, " ")) : null,

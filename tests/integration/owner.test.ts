@@ -81,7 +81,7 @@ describe("owner pieces", () => {
     const view = getMyPiece(me, piece.id, NOW);
     expect(view.layers).toHaveLength(1);
     expect(view.layers[0]).toMatchObject({ classLabel: "Hardwax oil", appliedOn: "2025-06-01", productLabel: "Test hardwax oil (invented)" });
-    expect(view.size).toBe("79 × 35 in");
+    expect(view.size).toBe("78 3/4 × 35 7/16 in"); // 2000 mm = 78.74 in, 900 mm = 35.43 in, to the nearest 1/16 in
     const reoil = view.schedule.tasks.find((t) => t.kind === "reoil")!;
     expect(reoil.reasons[0]).toBe("The last oil coat on the top went on 1 June 2025.");
 

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { Pencil } from "lucide-react";
 import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
-import { formatArea, formatLength, formatVolume } from "@/components/pieces/format";
+import { formatAreaBoth, formatLargeVolume, formatLengthBoth } from "@/lib/owner/format";
 import { PhotoUploader, PieceActions } from "@/components/pieces/piece-actions";
 import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pieces/status";
 import { ButtonLink } from "@/components/ui/button";
@@ -35,10 +35,10 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
   const basics = careBasics(d.layers.map((l) => l.finishClass), p.resinKind, p.use);
   const size =
     p.shapeKind === "round"
-      ? `Round, Ø ${formatLength(p.diameterMm, u)}`
+      ? `Round, Ø ${formatLengthBoth(p.diameterMm, u)}`
       : p.shapeKind === "measured"
         ? "Irregular, measured area"
-        : `${p.shapeKind === "oval" ? "Oval" : "Rectangle"}, ${formatLength(p.lengthMm, u)} × ${formatLength(p.widthMm, u)}`;
+        : `${p.shapeKind === "oval" ? "Oval" : "Rectangle"}, ${formatLengthBoth(p.lengthMm, u)} × ${formatLengthBoth(p.widthMm, u)}`;
 
   return (
     <>
@@ -57,12 +57,12 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
             <h2 className="mb-2 font-display text-xl font-semibold">Summary</h2>
             <dl className="divide-y divide-line">
               <Row label="Shape and size">{size}</Row>
-              <Row label="Top area">{formatArea(d.area, u)}</Row>
-              <Row label="Thickness">{formatLength(p.thicknessMm, u)}</Row>
+              <Row label="Top area">{formatAreaBoth(d.area?.m2, u)}</Row>
+              <Row label="Thickness">{formatLengthBoth(p.thicknessMm, u)}</Row>
               <Row label="Species">{species.join(" + ")}</Row>
               <Row label="Resin">
                 {RESIN_LABELS[p.resinKind]}
-                {p.resinKind !== "none" ? ` · poured ${p.resinPouredOn ?? "—"} · ${formatVolume(p.resinVolumeMl, u)}${p.resinTint ? ` · ${p.resinTint}` : ""}` : ""}
+                {p.resinKind !== "none" ? ` · poured ${p.resinPouredOn ?? "—"} · ${formatLargeVolume(p.resinVolumeMl, u)}${p.resinTint ? ` · ${p.resinTint}` : ""}` : ""}
               </Row>
               <Row label="Base">{[p.baseMaterial, p.baseFinish].filter((x) => x && x !== "—").join(", ") || "—"}</Row>
               <Row label="Use and sun">

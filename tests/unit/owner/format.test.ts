@@ -1,0 +1,30 @@
+// The one formatter's imperial lengths read like a woodworker's tape (issue 17 item 12).
+// 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C); each expected value is worked by hand.
+import { describe, expect, it } from "vitest";
+import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness } from "@/lib/owner/format";
+
+describe("imperial lengths", () => {
+  it("round to the nearest 1/16 in and reduce the fraction", () => {
+    expect(formatInchesTape(2438.4)).toBe("96 in"); // 96 × 25.4
+    expect(formatInchesTape(955.675)).toBe("37 5/8 in"); // 37.625 × 25.4
+    expect(formatInchesTape(900)).toBe("35 7/16 in"); // 35.433 in; × 16 = 566.9 → 567/16
+    expect(formatInchesTape(7.9375)).toBe("5/16 in"); // 0.3125 × 25.4
+    expect(formatInchesTape(2000)).toBe("78 3/4 in"); // 78.740 in; × 16 = 1259.8 → 1260/16
+    expect(formatLength(2440, "metric")).toBe("2,440 mm");
+  });
+
+  it("give board thickness in quarters where it is a whole number of quarter inches", () => {
+    expect(formatThickness(50.8, "imperial")).toBe("2 in (8/4)"); // 2 in = 8/4
+    expect(formatThickness(44.45, "imperial")).toBe("1 3/4 in (7/4)");
+    expect(formatThickness(51, "imperial")).toBe("2 in (8/4)"); // 2.008 in: within 1/32 in of 2
+    expect(formatThickness(30, "imperial")).toBe("1 3/16 in"); // 1.181 in: 0.069 in from 1 1/4, not a quarter
+    expect(formatThickness(12.7, "imperial")).toBe("1/2 in"); // below 4/4: no quarters
+    expect(formatThickness(51, "metric")).toBe("51 mm");
+  });
+
+  it("sizes and staff records use the same words", () => {
+    expect(formatSize({ shapeKind: "rectangle", lengthMm: 2438, widthMm: 956, diameterMm: null, measuredAreaM2: null }, "imperial")).toBe("96 × 37 5/8 in");
+    expect(formatLengthBoth(2438, "metric")).toBe("2,438 mm (96 in)");
+    expect(formatLengthBoth(null, "metric")).toBe("—");
+  });
+});
