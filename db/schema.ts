@@ -69,6 +69,8 @@ export const users = sqliteTable("users", {
   emailVerifiedAt: integer("email_verified_at", { mode: "timestamp_ms" }),
   timeZone: text("time_zone").notNull().default("UTC"),
   unitSystem: text("unit_system", { enum: UNIT_SYSTEMS }).notNull().default("metric"),
+  /** When the person chose their units themselves; until then the first studio they register a piece from sets them (lib/owner/preferences). */
+  unitSystemChosenAt: integer("unit_system_chosen_at", { mode: "timestamp_ms" }),
   remindersEnabled: integer("reminders_enabled", { mode: "boolean" }).notNull().default(true),
   createdAt: createdAt(),
 });

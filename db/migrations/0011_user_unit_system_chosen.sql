@@ -1,0 +1,1 @@
+ALTER TABLE `users` ADD `unit_system_chosen_at` integer;
