@@ -7,6 +7,7 @@ import { SignUpAttemptEmail, signUpAttemptSubject } from "@/emails/sign-up-attem
 import { StaffInvitationEmail } from "@/emails/staff-invitation";
 import { VerifyEmail } from "@/emails/verify-email";
 import { recordAudit } from "@/lib/audit";
+import { linkAccountToClients } from "@/lib/clients/link";
 import { randomToken, sha256Hex } from "@/lib/crypto";
 import { env } from "@/lib/env";
 import { badRequest, conflict, notFound, unauthorized } from "@/lib/errors";
@@ -23,7 +24,7 @@ import type {
 import type { StudioContext } from "./guards";
 import { hashPassword, verifyAgainstDummy, verifyPassword } from "./password";
 import { afterAnswer } from "./after-answer";
-import { checkSignInAllowed, consumeAttempt, recordSignInFailure, recordSignInSuccess } from "./rate-limit";
+import { checkSignInAllowed, consumeAttempt, recordSignInFailure, recordSignInSuccess, tryAttempt } from "./rate-limit";
 import { endAllSessions } from "./session";
 
 // Account flows. They check, write and mail; the caller starts the session (lib/auth/session.ts),
@@ -54,7 +55,7 @@ export async function signUp(input: SignUpInput, ip: string): Promise<void> {
 
 async function sendSignUpAttemptEmail(email: string, next?: string) {
   const user = getDb().select().from(users).where(eq(users.email, email)).get();
-  if (!user) return;
+  if (!user || !(await tryAttempt("signUpNotice", user.email))) return;
   await sendMail({
     to: user.email,
     subject: signUpAttemptSubject,
@@ -133,6 +134,8 @@ export function verifyEmail(token: string): string | null {
   const userId = takeToken(token, "verify_email");
   if (!userId) return null;
   getDb().update(users).set({ emailVerifiedAt: new Date() }).where(eq(users.id, userId)).run();
+  // Clients of any studio with this (now confirmed) address are linked to the account.
+  linkAccountToClients(userId);
   return userId;
 }
 

@@ -10,6 +10,8 @@ const limiters = {
   resetAccount: new RateLimiterMemory({ keyPrefix: "reset-acct", points: 3, duration: window }),
   resetIp: new RateLimiterMemory({ keyPrefix: "reset-ip", points: 10, duration: window }),
   signUpIp: new RateLimiterMemory({ keyPrefix: "signup-ip", points: 30, duration: window }),
+  /** "Someone tried to sign up with your address" mails, per address: one a window is enough. */
+  signUpNotice: new RateLimiterMemory({ keyPrefix: "signup-notice", points: 1, duration: window }),
   codeAccount: new RateLimiterMemory({ keyPrefix: "code-acct", points: 10, duration: window }),
   codeIp: new RateLimiterMemory({ keyPrefix: "code-ip", points: 20, duration: window }),
 } as const;
@@ -29,6 +31,17 @@ export async function consumeAttempt(buckets: [LimiterName, string][]): Promise<
       if (e instanceof RateLimiterRes) throw tooManyRequests(e.msBeforeNext / 1000);
       throw e;
     }
+  }
+}
+
+/** Takes one attempt when there is one left; false (and nothing thrown) when the bucket is empty. */
+export async function tryAttempt(name: LimiterName, key: string): Promise<boolean> {
+  try {
+    await limiters[name].consume(key);
+    return true;
+  } catch (e) {
+    if (e instanceof RateLimiterRes) return false;
+    throw e;
   }
 }
 

@@ -79,6 +79,11 @@ describe("sign up and e-mail verification", () => {
     expect(rows[0]!.name).toBe("Existing Owner (invented)");
     expect(await verifyPassword(rows[0]!.passwordHash, "the owner's own password")).toBe(true);
     await waitForMail({ to: fresh, subject: /confirm your e-mail/i, since });
+
+    // Sign-ups for the address can't be used to flood its owner: one such mail a window.
+    for (let i = 0; i < 3; i++) await signUp({ name: "Again", email: existing.email, password: "a long enough password" }, freshIp());
+    await settleAfterAnswer();
+    expect((await listMail({ to: existing.email })).filter((m) => /tried to create/i.test(m.subject))).toHaveLength(1);
   });
 
   it("stores only the hash of the verification token", async () => {
