@@ -9,9 +9,11 @@ import { consumeAttempt, resetAttempts } from "@/lib/auth/rate-limit";
 import { isValidRegistrationCode, normalizeRegistrationCode } from "@/lib/care/registration-code";
 import { PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import { AppError, conflict, forbidden, isAppError, notFound } from "@/lib/errors";
+import { linkPieceToOwner } from "@/lib/clients/link";
 import { hashTypedCode } from "@/lib/pieces/registration";
 import { registrationSchema } from "@/lib/validation/owner";
 import { formatMonth } from "./format";
+import { adoptStudioUnits } from "./preferences";
 
 // Registering a piece from its drawer card. Codes are compared by their keyed hash only; attempts
 // are rate-limited per IP and per account; exactly one owner wins a code, even under concurrency.
@@ -107,6 +109,9 @@ export async function registerPiece(user: Pick<User, "id" | "emailVerifiedAt">, 
     const before = tx.select({ id: ownerships.id }).from(ownerships).where(eq(ownerships.pieceId, piece.id)).get();
     const via = before ? "transfer" : "registration";
     tx.insert(ownerships).values({ studioId: piece.studioId, pieceId: piece.id, userId: user.id, via, startedAt: now }).run();
+    // The piece's client is now its owner's client in the studio (made if missing).
+    linkPieceToOwner(tx, piece, user.id, now);
+    adoptStudioUnits(tx, user.id, piece.studioId, piece.id);
     recordAudit(tx, { studioId: piece.studioId, actorId: user.id, action: "piece.registered", subjectType: "piece", subjectId: piece.id, data: { via } });
     // The registry searches by owner name and e-mail.
     indexPiece(tx, piece.id);

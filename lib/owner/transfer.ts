@@ -32,7 +32,7 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
   const studio = db.transaction((tx) => {
     const released = tx
       .update(pieces)
-      .set({ ownerId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
+      .set({ ownerId: null, clientId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
       .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, user.id)))
       .returning({ studioId: pieces.studioId })
       .all();

@@ -1,0 +1,23 @@
+import "server-only";
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { clients, type Client } from "@/db/schema";
+import type { StudioContext } from "@/lib/auth/guards";
+import { notFound } from "@/lib/errors";
+import type { DbOrTx } from "@/lib/pieces/search-index";
+
+// Who reads and writes clients: the studio's staff and admins (route handlers and pages call
+// requireStaff). Technicians see an owner's name and address on the job they visit, not this record.
+
+/** The client row of the caller's studio, or 404 (also for another studio's client). */
+export function loadClient(ctx: StudioContext, clientId: string, db: DbOrTx = getDb()): Client {
+  const row = db.select().from(clients).where(and(eq(clients.id, clientId), eq(clients.studioId, ctx.studio.id))).get();
+  if (!row) throw notFound("No client with that id in this studio.");
+  return row;
+}
+
+/** A stored e-mail is unique per studio: this one's taken by another client of the studio. */
+export function emailTaken(studioId: string, email: string, exceptId: string | null, db: DbOrTx = getDb()): boolean {
+  const row = db.select({ id: clients.id }).from(clients).where(and(eq(clients.studioId, studioId), eq(clients.email, email))).get();
+  return !!row && row.id !== exceptId;
+}

@@ -1,0 +1,88 @@
+import "server-only";
+import { sql, type SQL } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import type { StudioContext } from "@/lib/auth/guards";
+import { OPEN_STATES } from "@/lib/claims/states";
+import { CLIENT_PAGE_SIZE, type ClientListQuery } from "@/lib/validation/clients";
+import { displayPhone, phoneSearchKeys } from "./phone";
+
+export type ClientRow = {
+  id: string;
+  name: string;
+  email: string;
+  phoneDisplay: string;
+  hasAccount: boolean;
+  pieces: number;
+  /** Of those, pieces nobody has registered yet. */
+  unregistered: number;
+  openClaims: number;
+  updatedAt: string;
+};
+export type ClientPage = { rows: ClientRow[]; total: number; page: number; pageSize: number };
+
+const likeEscape = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+const OPEN = sql.raw(OPEN_STATES.map((s) => `'${s}'`).join(", "));
+
+/** Every word must match the name, the e-mail, the phone (by digits) or one of their pieces' titles. */
+function searchWhere(q: string, country: string): SQL | undefined {
+  const words = q.split(/\s+/).filter(Boolean).slice(0, 8);
+  if (!words.length) return undefined;
+  const phone = phoneSearchKeys(q, country);
+  const perWord = words.map((w) => {
+    const like = `%${likeEscape(w.toLowerCase())}%`;
+    const digits = w.replace(/\D/g, "");
+    return sql`(lower(c.name) LIKE ${like} ESCAPE '\\' OR c.email LIKE ${like} ESCAPE '\\'
+      ${digits.length >= 3 ? sql`OR c.phone LIKE ${`%${digits}%`}` : sql``}
+      OR EXISTS (SELECT 1 FROM pieces p WHERE p.client_id = c.id AND lower(p.title) LIKE ${like} ESCAPE '\\'))`;
+  });
+  const allWords = sql.join(perWord, sql` AND `);
+  // A whole number typed with spaces or a trunk prefix ("0412 555 019") matches by its E.164 or its digits.
+  const whole = phone.e164 ? sql` OR c.phone = ${phone.e164}` : phone.digits.length >= 6 && words.length > 1 ? sql` OR c.phone LIKE ${`%${phone.digits}%`}` : sql``;
+  return sql`((${allWords})${whole})`;
+}
+
+const FILTERS: Record<NonNullable<ClientListQuery["filter"]>, SQL> = {
+  account: sql`c.user_id IS NOT NULL`,
+  unregistered: sql`EXISTS (SELECT 1 FROM pieces p WHERE p.client_id = c.id AND p.owner_id IS NULL AND p.archived_at IS NULL)`,
+  open_claims: sql`c.user_id IS NOT NULL AND EXISTS (SELECT 1 FROM claims k WHERE k.owner_id = c.user_id AND k.studio_id = c.studio_id AND k.state IN (${OPEN}))`,
+};
+
+const ORDER: Record<ClientListQuery["sort"], { column: SQL; dir: "asc" | "desc" }> = {
+  name: { column: sql`c.name COLLATE NOCASE`, dir: "asc" },
+  newest: { column: sql`c.created_at`, dir: "desc" },
+  updated: { column: sql`c.updated_at`, dir: "desc" },
+};
+
+/** One page (50) of the caller's studio's clients, searched, filtered and sorted, with the total. */
+export function listClients(ctx: StudioContext, query: ClientListQuery): ClientPage {
+  const db = getDb();
+  const conditions = [sql`c.studio_id = ${ctx.studio.id}`, searchWhere(query.q, ctx.studio.country), query.filter ? FILTERS[query.filter] : undefined].filter(Boolean) as SQL[];
+  const where = sql.join(conditions, sql` AND `);
+  const order = ORDER[query.sort];
+  const dir = sql.raw((query.dir ?? order.dir) === "asc" ? "ASC" : "DESC");
+  const total = db.get<{ n: number }>(sql`SELECT count(*) AS n FROM clients c WHERE ${where}`)!.n;
+  const rows = db.all<{ id: string; name: string; email: string | null; phone: string | null; userId: string | null; updatedAt: number; pieces: number; unregistered: number; openClaims: number }>(sql`
+    SELECT c.id, c.name, c.email, c.phone, c.user_id AS userId, c.updated_at AS updatedAt,
+      (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL) AS pieces,
+      (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL AND p.owner_id IS NULL) AS unregistered,
+      CASE WHEN c.user_id IS NULL THEN 0 ELSE (SELECT count(*) FROM claims k WHERE k.owner_id = c.user_id AND k.studio_id = c.studio_id AND k.state IN (${OPEN})) END AS openClaims
+    FROM clients c WHERE ${where}
+    ORDER BY ${order.column} ${dir}, c.id ${dir}
+    LIMIT ${CLIENT_PAGE_SIZE} OFFSET ${(query.page - 1) * CLIENT_PAGE_SIZE}`);
+  return {
+    rows: rows.map((r) => ({
+      id: r.id,
+      name: r.name,
+      email: r.email ?? "",
+      phoneDisplay: displayPhone(r.phone, ctx.studio.country),
+      hasAccount: !!r.userId,
+      pieces: r.pieces,
+      unregistered: r.unregistered,
+      openClaims: r.openClaims,
+      updatedAt: new Date(r.updatedAt).toISOString(),
+    })),
+    total,
+    page: query.page,
+    pageSize: CLIENT_PAGE_SIZE,
+  };
+}
