@@ -40,7 +40,8 @@ function Row({ k, v }: { k: string; v: string }) {
 export function CertificateDocument({ piece, ownerName, issuedAt }: { piece: PieceDetail; ownerName: string; issuedAt: Date }) {
   return (
     <Document title={`Warranty certificate — ${piece.title}`} author="Grainward" subject="Warranty certificate">
-      <Page size="A4" style={s.page}>
+      {/* Paper follows the owner's units: US Letter for imperial (US and Canadian readers), A4 otherwise. */}
+      <Page size={piece.units === "imperial" ? "LETTER" : "A4"} style={s.page}>
         <Text style={s.brand}>Grainward</Text>
         <Text style={s.title}>Warranty certificate</Text>
         <Text style={s.lead}>

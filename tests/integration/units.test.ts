@@ -1,11 +1,17 @@
-// CSV import in inches beside millimetres, and sizes implausible for the piece's kind (issue 17 item 12).
+// Units follow the reader (issue 17 item 12): CSV import in inches beside millimetres and sizes
+// implausible for the piece's kind; the owner's units default from their first studio; paper size.
 // 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C). Against a real SQLite file.
+import path from "node:path";
 import { eq } from "drizzle-orm";
+import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { pieces } from "@/db/schema";
+import { pieces, users } from "@/db/schema";
+import { certificatePdf } from "@/lib/owner/certificate";
+import { updatePreferences } from "@/lib/owner/preferences";
+import { registerPiece } from "@/lib/owner/registration";
 import { importPiecesCsv, parseInches } from "@/lib/pieces/csv";
-import { createStudio, memberContext } from "../support/fixtures";
+import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
 
 const HEADER = "title,kind,shape,length_mm,width_mm,length_in,width_in,thickness_in,diameter_mm,area_ft2,primary_species,use,delivered_on,finish_stack";
 
@@ -60,5 +66,37 @@ describe("CSV import units", () => {
     expect(byRow(4)).toEqual([expect.objectContaining({ field: "length_mm", message: expect.stringContaining("length_mm (1500) and length_in (70 = 1778 mm) disagree") })]);
     expect(byRow(5)).toEqual([expect.objectContaining({ field: "length_mm", message: expect.stringContaining("too large") })]);
     expect(getDb().select().from(pieces).where(eq(pieces.studioId, studio.id)).all()).toHaveLength(0);
+  });
+});
+
+describe("the owner's units (item 12)", () => {
+  it("default from the studio of the first piece registered, until the owner chooses; a later studio doesn't change them", async () => {
+    const us = createStudio({ unitSystem: "imperial" });
+    const eu = createStudio({ unitSystem: "metric" });
+    const owner = await createUser({ emailVerifiedAt: new Date(), unitSystem: "metric" });
+    const first = createPiece(us, {});
+    await registerPiece(owner, { code: first.code }, "203.0.113.51");
+    const units = () => getDb().select({ u: users.unitSystem }).from(users).where(eq(users.id, owner.id)).get()!.u;
+    expect(units()).toBe("imperial");
+    const second = createPiece(eu, {});
+    await registerPiece(owner, { code: second.code }, "203.0.113.52");
+    expect(units()).toBe("imperial");
+
+    const chooser = await createUser({ emailVerifiedAt: new Date(), unitSystem: "metric" });
+    updatePreferences(chooser, { unitSystem: "metric" });
+    await registerPiece(chooser, { code: createPiece(us, {}).code }, "203.0.113.53");
+    expect(getDb().select({ u: users.unitSystem }).from(users).where(eq(users.id, chooser.id)).get()!.u).toBe("metric");
+  });
+
+  it("the certificate is US Letter for imperial readers and A4 for metric ones", async () => {
+    const studio = createStudio();
+    for (const [unitSystem, size] of [["imperial", [612, 792]], ["metric", [595, 842]]] as const) {
+      const me = await createUser({ emailVerifiedAt: new Date(), unitSystem });
+      const { piece } = createPiece(studio, { ownerId: me.id });
+      const { buffer } = await certificatePdf({ id: me.id, name: me.name, timeZone: "UTC", unitSystem }, piece.id, new Date("2026-03-15T12:00:00Z"));
+      const doc = await getDocument({ data: new Uint8Array(buffer), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl: path.resolve("node_modules/pdfjs-dist/standard_fonts") + "/" }).promise;
+      const [, , w, h] = (await doc.getPage(1)).view;
+      expect([Math.round(w!), Math.round(h!)]).toEqual(size);
+    }
   });
 });
