@@ -11,6 +11,7 @@ import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import type { FinishClass } from "@/lib/care/vocabulary";
+import { formatVolume } from "@/lib/owner/format";
 import { formatClock } from "@/lib/visits/format";
 import { technicianDay } from "@/lib/visits/service";
 
@@ -92,7 +93,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                       <ul className="space-y-1 text-sm">
                         {item.bring.map((b) => (
                           <li key={b.product} className="rounded-lg bg-paper px-3 py-2">
-                            <span className="font-semibold">{b.product}</span> ({b.classLabel}) — {b.ml} mL ({b.flOz} US fl oz) for {b.coats} coat{b.coats === 1 ? "" : "s"} on this top
+                            <span className="font-semibold">{b.product}</span> ({b.classLabel}) — {formatVolume(b.ml, ctx.studio.unitSystem)} for {b.coats} coat{b.coats === 1 ? "" : "s"} on this top
                             {b.containers ? <span className="block text-muted">Open: {b.containers}</span> : null}
                           </li>
                         ))}
