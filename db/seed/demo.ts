@@ -12,6 +12,7 @@ import { seedVisits } from "./visits";
 import { seedClaims } from "./claims";
 import { seedAftercareHistory } from "./aftercare-history";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
+import { linkOwnersToClients } from "@/lib/clients/link";
 import { finishLayers, finishProducts, memberships, ownerships, pieces, studios, users, warrantyPolicies, type ContainerSize } from "../schema";
 
 export const DEMO_PASSWORD = "grainward-demo";
@@ -294,5 +295,7 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
   await seedVisits(db, result.studioId, today, jobs.done);
   await seedClaims(db, result.studioId, today);
   seedAftercareHistory(db, result.studioId, today);
+  // The studio's people as clients, as the migration that introduced clients did for existing data.
+  linkOwnersToClients(db, result.studioId);
   return { ...result, jobs };
 }
