@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
 import { Pencil } from "lucide-react";
 import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
-import { formatAreaBoth, formatLargeVolume, formatLengthBoth } from "@/lib/owner/format";
+import { formatAreaBoth, formatDate, formatLargeVolume, formatLengthBoth } from "@/lib/owner/format";
+import { whyNow } from "@/lib/reminders/content";
 import { PhotoUploader, PieceActions } from "@/components/pieces/piece-actions";
 import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pieces/status";
 import { ButtonLink } from "@/components/ui/button";
@@ -110,14 +111,22 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                         {t.label} <span className="font-normal text-muted">({t.surface === "whole_piece" ? "whole piece" : t.surface})</span>
                       </p>
                       <span className="flex items-center gap-3 text-sm">
-                        <CareStatus status={t.status} /> due {t.dueOn}
+                        <CareStatus status={t.status} /> due {formatDate(t.dueOn)}
                       </span>
                     </div>
                     <ul className="mt-1 list-disc pl-5 text-sm text-muted">
-                      {t.reasons.map((r, i) => (
-                        <li key={i}>{r}</li>
+                      {whyNow(t, { use: p.use, sun: p.sun }).map((r) => (
+                        <li key={r}>{r}</li>
                       ))}
                     </ul>
+                    <details className="mt-1 text-sm">
+                      <summary className="flex min-h-11 cursor-pointer items-center font-medium text-resin">How this was worked out</summary>
+                      <ul className="list-disc pl-5 text-muted">
+                        {t.reasons.map((r, i) => (
+                          <li key={i}>{r}</li>
+                        ))}
+                      </ul>
+                    </details>
                   </li>
                 ))}
               </ol>
