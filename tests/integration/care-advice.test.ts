@@ -7,13 +7,14 @@ import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { finishLayers, warrantyPolicies } from "@/db/schema";
+import { careLogEntries, finishLayers, warrantyPolicies } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import { checkCoverage, DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { coverageSummary } from "@/lib/claims/coverage-words";
 import { listAudit } from "@/lib/studio/audit";
 import { careSchedule } from "@/lib/care/schedule";
 import { certificatePdf } from "@/lib/owner/certificate";
+import { OWNER_TASK_STATE_WORDS, ownerTaskState } from "@/lib/owner/format";
 import { getMyPiece } from "@/lib/owner/pieces";
 import { renderDrawerCard } from "@/lib/pieces/card";
 import { composeReminder } from "@/lib/reminders/compose";
@@ -252,5 +253,36 @@ describe("the coverage check and the audit log in words (item 11)", () => {
     expect(text).toContain("Amount: 103.89 USD");
     expect(text).toContain("Piece registered by its owner");
     expect(text).not.toMatch(/partly_covered|in_review|amountMinor|10389|piece\.registered|coveredPct/);
+  });
+});
+
+describe("details an owner notices (item 13)", () => {
+  it("task states say what to do: due in 22 days is 'Coming up', 13 months out is 'Nothing to do yet', whoever started the clock", () => {
+    // The engine calls a cycle started by care "done" and one started by delivery "upcoming".
+    expect(OWNER_TASK_STATE_WORDS[ownerTaskState("done", 22)]).toBe("Coming up: plan for it");
+    expect(OWNER_TASK_STATE_WORDS[ownerTaskState("upcoming", 22)]).toBe("Coming up: plan for it");
+    expect(OWNER_TASK_STATE_WORDS[ownerTaskState("upcoming", 395)]).toBe("Nothing to do yet");
+    expect(OWNER_TASK_STATE_WORDS[ownerTaskState("done", 395)]).toBe("Nothing to do yet");
+    expect(OWNER_TASK_STATE_WORDS[ownerTaskState("due", 10)]).toBe("Due: do it soon");
+    expect(OWNER_TASK_STATE_WORDS[ownerTaskState("overdue", -3)]).toBe("Overdue: do it now");
+  });
+
+  it("the warranty bar shows the time left: it empties as the term runs out", async () => {
+    const { me, piece } = await ownerWith({ deliveredOn: "2025-06-01" });
+    const pct = (at: string) => getMyPiece(me, piece.id, new Date(at)).warranty.lines.find((l) => l.category === "structural")!.timeLeftPct;
+    // Structure: 60 months from 2025-06-01 to 2030-06-01 (1826 days).
+    expect(pct("2025-06-02T18:00:00Z")).toBe(100);
+    expect(pct("2027-12-01T18:00:00Z")).toBe(50); // 913 of 1826 days left
+    expect(pct("2030-05-01T18:00:00Z")).toBe(2); // 31 days left
+  });
+
+  it("care a technician did is counted from the studio visit, not 'your care log'", async () => {
+    const { me, piece, studio } = await ownerWith({ deliveredOn: "2025-06-01" });
+    getDb().insert(careLogEntries).values({ studioId: studio.id, pieceId: piece.id, userId: null, source: "visit", taskKind: "reoil", surface: "top", doneOn: "2026-02-01", notes: "" }).run();
+    const view = getMyPiece(me, piece.id, NOW);
+    const reoil = view.schedule.tasks.find((t) => t.kind === "reoil")!;
+    expect(reoil.clockSource).toBe("care_log");
+    expect(view.careLog[0]!.byLabel).toBe("At a studio visit");
+    expect(reoil.reasons.join(" ")).not.toMatch(/You last logged/);
   });
 });
