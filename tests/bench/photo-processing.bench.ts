@@ -23,11 +23,11 @@ const photo = new Uint8Array(
     .toBuffer(),
 );
 
-await storeImage(photo); // warm-up: loads libvips codecs
+await storeImage(photo, "bench"); // warm-up: loads libvips codecs
 const times: number[] = [];
 for (let i = 0; i < RUNS; i++) {
   const t = performance.now();
-  const stored = await storeImage(photo);
+  const stored = await storeImage(photo, "bench");
   times.push(performance.now() - t);
   if (stored.width !== 4032 || stored.height !== 3024) throw new Error(`unexpected output size ${stored.width}×${stored.height}`);
 }

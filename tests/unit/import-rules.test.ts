@@ -11,7 +11,7 @@ beforeAll(() => {
 
 async function restricted(filePath: string, code: string): Promise<boolean> {
   const [result] = await eslint.lintText(code, { filePath });
-  return result.messages.some((m) => m.ruleId === "no-restricted-imports");
+  return result!.messages.some((m) => m.ruleId === "no-restricted-imports");
 }
 
 describe("import directions", () => {
