@@ -246,14 +246,15 @@ const ROUTES: RouteRow[] = [
   { route: "GET /api/claims", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/claims") },
   {
     route: "POST /api/claims",
-    // A claim noticed in the future: the owner's piece is found (422 on the date), nobody else's is.
+    // A claim noticed before its piece was delivered: the owner's piece is found (422 on the date),
+    // nobody else's is. (A date past tomorrow is refused for everyone before any lookup, as a 400.)
     expect: "401 422 404 404 404 404 404 404",
     send: ({ api }) =>
       api.post("/api/claims", {
         data: {
           pieceId: X.ownerPieceId,
           category: "crack_gap",
-          noticedOn: "2999-01-01",
+          noticedOn: "1990-01-01",
           description: "Matrix check: this claim is never filed.",
           answers: { heat: "no", chemicals: "no", impact: "no", usedOutdoors: "no", directSun: "no" },
         },
