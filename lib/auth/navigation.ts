@@ -8,6 +8,7 @@ const STUDIO_NAV: Item[] = [
   { href: "/studio", label: "Overview", roles: ["admin", "staff"] },
   { href: "/studio/today", label: "My day", roles: ["technician"] },
   { href: "/studio/pieces", label: "Pieces", roles: ["admin", "staff"] },
+  { href: "/studio/clients", label: "Clients", roles: ["admin", "staff"] },
   { href: "/studio/reminders", label: "Reminders", roles: ["admin", "staff"] },
   { href: "/studio/claims", label: "Claims", roles: ["admin", "staff"] },
   { href: "/studio/jobs", label: "Repair jobs", roles: ["admin", "staff"] },

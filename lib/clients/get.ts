@@ -3,6 +3,7 @@ import { and, asc, desc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { clientConsents, clients, pieces, users, type Client } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
+import { localDate } from "@/lib/care/dates";
 import type { PieceKind } from "@/lib/care/vocabulary";
 import { loadClient } from "./access";
 import { displayPhone } from "./phone";
@@ -32,7 +33,7 @@ export type ConsentEntry = { id: string; kind: ConsentKind; granted: boolean; gi
 
 export type ClientPiece = { id: string; title: string; kind: PieceKind; deliveredOn: string; registered: boolean; archived: boolean };
 
-export type ClientDetail = { client: ClientView; consentHistory: ConsentEntry[]; pieces: ClientPiece[] };
+export type ClientDetail = { client: ClientView; consentHistory: ConsentEntry[]; pieces: ClientPiece[]; /** Today in the studio's zone (the consent form's latest date). */ studioToday: string };
 
 export function clientView(ctx: StudioContext, c: Client, account: { name: string; email: string } | null): ClientView {
   return {
@@ -54,7 +55,7 @@ export function clientView(ctx: StudioContext, c: Client, account: { name: strin
 }
 
 /** One client of the caller's studio with its consent history (newest first) and pieces; 404 for anyone else's. */
-export function getClient(ctx: StudioContext, clientId: string): ClientDetail {
+export function getClient(ctx: StudioContext, clientId: string, now = new Date()): ClientDetail {
   const db = getDb();
   const c = loadClient(ctx, clientId);
   const account = c.userId ? (db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, c.userId)).get() ?? null) : null;
@@ -81,7 +82,7 @@ export function getClient(ctx: StudioContext, clientId: string): ClientDetail {
     .orderBy(desc(pieces.deliveredOn), asc(pieces.title))
     .all()
     .map((p) => ({ id: p.id, title: p.title, kind: p.kind, deliveredOn: p.deliveredOn, registered: !!p.ownerId, archived: !!p.archivedAt }));
-  return { client: clientView(ctx, c, account), consentHistory, pieces: owned };
+  return { client: clientView(ctx, c, account), consentHistory, pieces: owned, studioToday: localDate(now.getTime(), ctx.studio.timeZone) };
 }
 
 /** The client linked to an account in this studio (for linking an owner's name to the client page), or null. */

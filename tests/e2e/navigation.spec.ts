@@ -23,6 +23,7 @@ const ROLES = {
     home: "/studio",
     bar: BAR,
     more: [
+      ["Clients", "/studio/clients"],
       ["Reminders", "/studio/reminders"],
       ["Finish catalog", "/studio/catalog"],
       ["Reports", "/studio/reports"],
@@ -36,6 +37,7 @@ const ROLES = {
     home: "/studio",
     bar: BAR,
     more: [
+      ["Clients", "/studio/clients"],
       ["Reminders", "/studio/reminders"],
       ["Reports", "/studio/reports"],
       ["Audit", "/studio/audit"],

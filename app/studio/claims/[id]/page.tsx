@@ -13,6 +13,7 @@ import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS,
 import { getSpecies } from "@/lib/care/species";
 import { CLAIM_CATEGORY_LABELS, decisionText, formatWait } from "@/lib/claims/labels";
 import { getStaffClaim } from "@/lib/claims/service";
+import { clientIdForOwner } from "@/lib/clients/get";
 
 export const metadata: Metadata = { title: "Claim" };
 export const dynamic = "force-dynamic";
@@ -29,7 +30,11 @@ function size(p: { shapeKind: string; lengthMm: number | null; widthMm: number |
 
 export default async function StudioClaimPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const v = await forPage(async () => getStaffClaim(await requireStaff(), id));
+  const v = await forPage(async () => {
+    const ctx = await requireStaff();
+    const found = getStaffClaim(ctx, id);
+    return { ...found, ownerClientId: clientIdForOwner(ctx, found.owner.id) };
+  });
   const { claim, piece, owner, coverage } = v;
   const a = claim.answers;
   const room = a.room;
@@ -47,7 +52,14 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
             {CLAIM_CATEGORY_LABELS[claim.category]} · {piece.title}
           </h1>
           <p className="text-sm text-muted">
-            {owner.name} ({owner.email}) · filed {new Date(claim.createdAt).toLocaleString("en-US", { timeZone: v.studio.timeZone })} ·{" "}
+            {v.ownerClientId ? (
+              <Link href={`/studio/clients/${v.ownerClientId}`} className="text-resin underline">
+                {owner.name}
+              </Link>
+            ) : (
+              owner.name
+            )}{" "}
+            ({owner.email}) · filed {new Date(claim.createdAt).toLocaleString("en-US", { timeZone: v.studio.timeZone })} ·{" "}
             {claim.firstAnsweredAt ? `first answer after ${formatWait(waited)}` : `waiting ${formatWait(waited)} for a first answer`}
           </p>
         </div>

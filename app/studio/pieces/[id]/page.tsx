@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { Pencil } from "lucide-react";
+import Link from "next/link";
 import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
 import { formatAreaBoth, formatDate, formatLargeVolume, formatLengthBoth } from "@/lib/owner/format";
 import { whyNow } from "@/lib/reminders/content";
@@ -154,7 +155,14 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
             <p className="text-sm">
               {d.owner ? (
                 <>
-                  {d.owner.name} · {d.owner.email}
+                  {p.clientId ? (
+                    <Link href={`/studio/clients/${p.clientId}`} className="text-resin underline">
+                      {d.owner.name}
+                    </Link>
+                  ) : (
+                    d.owner.name
+                  )}{" "}
+                  · {d.owner.email}
                   {p.registeredAt ? ` · since ${p.registeredAt.toISOString().slice(0, 10)}` : ""}
                 </>
               ) : (

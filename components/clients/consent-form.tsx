@@ -1,0 +1,66 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useForm } from "react-hook-form";
+import { toast } from "sonner";
+import { ApiError, apiJson } from "@/components/claims/api";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { CONSENT_KIND_LABELS, CONSENT_KINDS, CONSENT_SOURCE_LABELS, CONSENT_SOURCES, type ConsentKind, type ConsentSource } from "@/lib/clients/vocabulary";
+
+type Values = { kind: ConsentKind; granted: "yes" | "no"; givenOn: string; source: ConsentSource; note: string };
+
+/** Records that the client gave or withdrew one consent, when and how (PATCH …/clients/[id] with consent). */
+export function ConsentForm({ clientId, current, today }: { clientId: string; current: Record<ConsentKind, boolean>; today: string }) {
+  const router = useRouter();
+  const form = useForm<Values>({ defaultValues: { kind: "service", granted: current.service ? "no" : "yes", givenOn: today, source: "in_person", note: "" } });
+  const errors = form.formState.errors;
+  const onSubmit = form.handleSubmit(async (v) => {
+    const granted = v.granted === "yes";
+    if (granted === current[v.kind]) return void form.setError("granted", { type: "manual", message: granted ? "They have already agreed to this." : "They haven't agreed to this." });
+    try {
+      await apiJson(`/api/clients/${clientId}`, { method: "PATCH", body: JSON.stringify({ consent: { [v.kind]: { granted, givenOn: v.givenOn || undefined, source: v.source, note: v.note } } }) });
+      toast.success(granted ? "Consent recorded." : "Withdrawal recorded.");
+      form.reset({ ...v, granted: granted ? "no" : "yes", note: "" });
+      router.refresh();
+    } catch (e) {
+      const fe = e instanceof ApiError ? e.fieldErrors : {};
+      const field = Object.keys(fe).find((k) => k.startsWith("consent"));
+      form.setError("root", { type: "server", message: (field && fe[field]?.[0]) || (e instanceof Error ? e.message : "Not saved. Try again.") });
+    }
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label="Record a consent change">
+      <div className="grid gap-3 md:grid-cols-2">
+        <SelectField label="Which" {...form.register("kind")}>
+          {CONSENT_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {CONSENT_KIND_LABELS[k]}
+            </option>
+          ))}
+        </SelectField>
+        <SelectField label="They say" error={errors.granted?.message} {...form.register("granted")}>
+          <option value="yes">Yes, they agree</option>
+          <option value="no">No, they withdraw</option>
+        </SelectField>
+        <TextField label="On" type="date" max={today} {...form.register("givenOn")} />
+        <SelectField label="How they told you" {...form.register("source")}>
+          {CONSENT_SOURCES.filter((s) => s !== "account" && s !== "imported").map((s) => (
+            <option key={s} value={s}>
+              {CONSENT_SOURCE_LABELS[s]}
+            </option>
+          ))}
+        </SelectField>
+      </div>
+      <TextField label="Note (optional)" maxLength={500} {...form.register("note")} />
+      {errors.root ? (
+        <p role="alert" className="text-sm font-medium text-danger">
+          {errors.root.message}
+        </p>
+      ) : null}
+      <Button type="submit" variant="secondary" disabled={form.formState.isSubmitting}>
+        Record
+      </Button>
+    </form>
+  );
+}
