@@ -31,7 +31,13 @@ export function coverageSummary(c: CoverageCheck): string {
     case "covered":
       return `Suggested: covered in full under ${line}${term}.`;
     case "partly_covered":
-      return `Suggested: partly covered (${c.suggestedCoveredPct} %) under ${line}${term}${c.careLogCondition === "missed" ? ", because care was not logged when it fell due" : ""}.`;
+    {
+      const why = [
+        ...(c.careLogCondition === "missed" ? ["care was not logged when it fell due"] : []),
+        ...(c.climate && !c.climate.insideCareGuide ? ["the room's climate was outside the care guide's range"] : []),
+      ];
+      return `Suggested: partly covered (${c.suggestedCoveredPct} %) under ${line}${term}${why.length ? `, because ${list(why)}` : ""}.`;
+    }
     case "needs_info":
       return `Suggested: ask the owner ${c.questions.length === 1 ? "one question" : `${c.questions.length} questions`} before deciding${line ? ` (${line})` : ""}.`;
     case "not_covered": {

@@ -233,6 +233,15 @@ describe("the coverage check and the audit log in words (item 11)", () => {
       expect(line).toMatch(/^Suggested: /);
       expect(line).not.toMatch(/_|Eq\.|Table|from memory|common practice|\d{4}-\d{2}-\d{2}/);
     }
+    const dry = checkCoverage({
+      claim: { category: "crack_gap", filedOn: "2026-03-01", answers: noAnswers, roomClimate: { driest: { tempC: 22, rhPct: 20 }, dampest: { tempC: 24, rhPct: 65 } } },
+      piece,
+      policy: DEFAULT_WARRANTY_POLICY,
+      careLog: [],
+      now: "2026-03-01T12:00:00Z",
+    });
+    expect(dry.suggestion).toBe("partly_covered");
+    expect(coverageSummary(dry)).toMatch(/^Suggested: partly covered \(\d+ %\) under the “Cracks, gaps and resin separation” line, with .* left when the claim was filed, because the room's climate was outside the care guide's range\.$/);
     expect(heat.suggestion).toBe("not_covered");
     expect(coverageSummary(heat)).toContain("excludes heat damage");
   });
