@@ -95,6 +95,7 @@ type State = {
   prefs: Record<Who, unknown>;
   studio: Record<"admin" | "otherStudioAdmin", { profile: unknown; reminders: unknown; visits: unknown }>;
   inesHours: unknown;
+  clients: { demo: { id: string; name: string }; other: { id: string; name: string } };
 };
 let S: State;
 const contexts: APIRequestContext[] = [];
@@ -153,6 +154,17 @@ async function throwaways(): Promise<void> {
 }
 
 /** A care-log entry of the owner's dated on the delivery day: older than the real history, so no schedule moves. */
+/** The owner's client in the demo studio, and a client of the other studio (made once, found after). */
+async function clientRows(): Promise<void> {
+  if (S.clients) return;
+  type Page = { rows: { id: string; name: string }[] };
+  const demo = (await json<Page>(await S.api.staff.get(`/api/clients?q=${encodeURIComponent(ACCOUNTS.owner)}`), "the owner's client", 200)).rows[0]!;
+  const name = "Matrix Client (invented, authorization matrix)";
+  const found = (await json<Page>(await S.api.otherStudioStaff.get(`/api/clients?q=${encodeURIComponent("Matrix Client")}`), "the other studio's clients", 200)).rows[0];
+  const other = found ?? (await json<{ client: { id: string; name: string } }>(await S.api.otherStudioStaff.post("/api/clients", { data: { name } }), "a client of the other studio", 201)).client;
+  S.clients = { demo: { id: demo.id, name: demo.name }, other: { id: other.id, name: other.name } };
+}
+
 async function throwawayCareEntry(): Promise<void> {
   const res = await S.api.owner.post(`/api/me/pieces/${X.ownerPieceId}/care-log`, {
     data: { taskKind: "annual_check", surface: "whole_piece", doneOn: X.ownerPieceDeliveredOn, notes: "Matrix throwaway entry (invented)." },
@@ -241,6 +253,15 @@ const ROUTES: RouteRow[] = [
   },
   // A malformed code is refused before any lookup or rate limit, for any signed-in person.
   { route: "POST /api/registrations", expect: "401 400 400 400 400 400 400 400", send: ({ api }) => api.post("/api/registrations", { data: { code: "not-a-code" } }) },
+
+  // Clients: the studio's staff and admins; another studio's client is a 404, owners and technicians are refused.
+  { route: "GET /api/clients", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/clients?q=walnut&filter=account&sort=updated&page=1") },
+  { route: "POST /api/clients", expect: "401 403 403 403 400 400 400 400", send: ({ api }) => api.post("/api/clients", { data: {} }) },
+  { route: "GET /api/clients/[id]", expect: "401 403 403 403 200 200 404 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}`) },
+  { route: "GET /api/clients/[id]", expect: "401 403 403 403 404 404 200 200", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.other.id}`) },
+  // Saves the name it already has: changes nothing for the roles that may.
+  { route: "PATCH /api/clients/[id]", expect: "401 403 403 403 200 200 404 404", before: clientRows, send: ({ api }) => api.patch(`/api/clients/${S.clients.demo.id}`, { data: { name: S.clients.demo.name } }) },
+  { route: "GET /api/clients/[id]/timeline", expect: "401 403 403 403 200 200 404 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}/timeline?limit=5`) },
 
   // Claims: the owner who filed it and the studio's staff; nobody else learns it exists.
   { route: "GET /api/claims", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/claims") },
