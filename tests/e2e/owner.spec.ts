@@ -149,8 +149,9 @@ test("the demo owner sees their pieces with schedules, a lived-in care log and t
 
   await walnut.click();
   await expect(page.getByRole("list", { name: /Top finish layers/ })).toContainText("Ceramic-type topcoat");
-  await expect(page.getByRole("note", { name: "Cautions" })).toContainText("closed metal can filled with water");
-  await expect(page.getByRole("note", { name: "Cautions" })).toContainText("Keep hot cookware off the resin");
+  await expect(page.getByRole("note", { name: "Cautions" })).toContainText("metal can, cover them with water and a squirt of washing-up detergent");
+  await expect(page.getByRole("note", { name: "Cautions" })).toContainText("Keep heat off the resin");
+  await expect(page.getByRole("note", { name: "Cautions" })).toContainText("laptop");
   await expect(page.locator("#guide")).toContainText("How much:");
   await expect(page.locator("#guide")).toContainText("US fl oz");
   await expect(page.locator("#warranty")).toContainText("left");

@@ -106,8 +106,8 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   await expect(card.getByText("14 Quarry Lane, Port Alder")).toBeVisible();
   await expect(card.getByRole("list", { name: /Top finish layers/ })).toBeVisible();
   await expect(card.getByText(/Ceramic-type topcoat, matte/).first()).toBeVisible();
-  await expect(card.getByText(/mL \(.* US fl oz\) for 1 coat on this top/)).toBeVisible();
-  await expect(card.getByText(/closed metal can filled with water/)).toBeVisible();
+  await expect(card.getByText(/US fl oz \(.* mL\) for 1 coat on this top/)).toBeVisible(); // the studio's units (imperial)
+  await expect(card.getByText(/metal can, cover them with water/)).toBeVisible();
   await expect(card.getByText(/licensed electrician/)).toBeVisible();
   await noHorizontalScroll(tech);
 
