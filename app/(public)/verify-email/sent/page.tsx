@@ -21,7 +21,7 @@ export default async function VerifySentPage({ searchParams }: { searchParams: P
         <Notice tone="error" title="That link has expired or was already used">Ask for a fresh one below.</Notice>
       ) : (
         <Notice tone="info" title="Check your inbox">
-          We sent a link to {to ? <strong>{to}</strong> : "your address"}. Open it to confirm the address and carry on.
+          We sent a link to {to ? <strong className="break-all">{to}</strong> : "your address"}. Open it to confirm the address and carry on.
         </Notice>
       )}
       {user ? (
