@@ -98,12 +98,15 @@ export const policyDate = () =>
 
 /** How far ahead visits, days off and the calendar go. */
 export const VISIT_YEARS_AHEAD = 2;
-/** A day in the visit calendar (days off, the technician's day, a calendar week): a year back to two ahead. */
+/**
+ * A day in the visit calendar (days off, the technician's day, a calendar week): from 1900 (past
+ * weeks stay readable; booking in the past is refused by lib/visits) to two years ahead.
+ */
 export const visitDay = () =>
   dateField({
-    min: () => addMonths(utcToday(), -12),
+    min: EARLIEST_DATE,
     max: () => addMonths(utcToday(), 12 * VISIT_YEARS_AHEAD),
-    tooEarly: (min) => `Pick ${spoken(min)} or later.`,
+    tooEarly: () => "That date is before 1900; check the year.",
     tooLate: (max) => `Visits are planned up to ${spoken(max)}; pick an earlier day.`,
   });
 

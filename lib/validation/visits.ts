@@ -3,18 +3,18 @@
 // an offset (or Z); local times "HH:MM" in the studio's time zone; dates "YYYY-MM-DD".
 import { z } from "zod";
 import { FINISH_CLASSES, SURFACES, VISIT_LOCATIONS } from "@/lib/care/vocabulary";
-import { utcToday, visitDay, visitRecordDate, VISIT_YEARS_AHEAD } from "@/lib/validation/dates";
+import { EARLIEST_DATE, utcToday, visitDay, visitRecordDate, VISIT_YEARS_AHEAD } from "@/lib/validation/dates";
 import { addMonths } from "@/lib/care/dates";
 
 const id = z.string().trim().min(1).max(64);
 
-/** An instant in the visit calendar's window (a year back to two years ahead), e.g. 2026-12-08T17:00:00Z. */
+/** An instant in the visit calendar's window (1900 to two years ahead), e.g. 2026-12-08T17:00:00Z. */
 export const instant = z.iso.datetime({ offset: true, error: "Use an ISO 8601 instant, e.g. 2026-12-08T17:00:00Z." }).superRefine((s, ctx) => {
   const ms = Date.parse(s);
   if (Number.isNaN(ms)) return; // the format check above has said so
   const day = new Date(ms).toISOString().slice(0, 10);
   const today = utcToday();
-  if (day < addMonths(today, -12)) ctx.addIssue({ code: "custom", message: "That is more than a year ago; check the date." });
+  if (day < EARLIEST_DATE) ctx.addIssue({ code: "custom", message: "That date is before 1900; check the year." });
   else if (day > addMonths(today, 12 * VISIT_YEARS_AHEAD)) ctx.addIssue({ code: "custom", message: `Visits are planned up to ${VISIT_YEARS_AHEAD} years ahead; pick an earlier date.` });
 });
 
