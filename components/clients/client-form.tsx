@@ -1,5 +1,6 @@
 "use client";
 
+import { useQueryClient } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
@@ -17,6 +18,7 @@ const textarea = "block w-full rounded-lg border border-line bg-white px-3 py-2 
 /** A client's contact details: a new client (POST) or changes to one (PATCH). The schema loads while the form is filled in. */
 export function ClientForm({ client, studioZone, zones }: { client?: ClientDetail["client"]; studioZone: string; zones: string[] }) {
   const router = useRouter();
+  const queries = useQueryClient();
   const form = useForm<ClientFormInput>({
     resolver: useLazyZodResolver(() => import("@/lib/validation/clients").then((m) => m.clientFormSchema)),
     defaultValues: {
@@ -38,6 +40,7 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
         const saved = await apiJson<ClientDetail>(`/api/clients/${client.id}`, { method: "PATCH", body: JSON.stringify(dirty) });
         form.reset({ ...values, phone: saved.client.phoneDisplay, email: saved.client.email });
         toast.success("Contact details saved.");
+        void queries.invalidateQueries({ queryKey: ["client-timeline", client.id] });
         router.refresh();
       } else {
         const { client: created } = await apiJson<{ client: { id: string } }>("/api/clients", { method: "POST", body: JSON.stringify(values) });

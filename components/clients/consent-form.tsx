@@ -1,5 +1,6 @@
 "use client";
 
+import { useQueryClient } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
@@ -13,6 +14,7 @@ type Values = { kind: ConsentKind; granted: "yes" | "no"; givenOn: string; sourc
 /** Records that the client gave or withdrew one consent, when and how (PATCH …/clients/[id] with consent). */
 export function ConsentForm({ clientId, current, today }: { clientId: string; current: Record<ConsentKind, boolean>; today: string }) {
   const router = useRouter();
+  const queries = useQueryClient();
   const form = useForm<Values>({ defaultValues: { kind: "service", granted: current.service ? "no" : "yes", givenOn: today, source: "in_person", note: "" } });
   const errors = form.formState.errors;
   const onSubmit = form.handleSubmit(async (v) => {
@@ -21,6 +23,7 @@ export function ConsentForm({ clientId, current, today }: { clientId: string; cu
     try {
       await apiJson(`/api/clients/${clientId}`, { method: "PATCH", body: JSON.stringify({ consent: { [v.kind]: { granted, givenOn: v.givenOn || undefined, source: v.source, note: v.note } } }) });
       toast.success(granted ? "Consent recorded." : "Withdrawal recorded.");
+      void queries.invalidateQueries({ queryKey: ["client-timeline", clientId] });
       form.reset({ ...v, granted: granted ? "no" : "yes", note: "" });
       router.refresh();
     } catch (e) {
