@@ -30,9 +30,9 @@ const RUNS = [
   { label: "fri", at: "2026-12-04T21:30:00-08:00" },
   { label: "sat", at: "2026-12-05T06:15:00-08:00" },
   { label: "sun", at: "2026-12-06T23:40:00-08:00" },
-  // 01:50 PST on the night the US clocks go from 02:00 to 03:00: the run crosses the change, and the
-  // seed's relative dates (days and months back, the week ahead) straddle it.
-  { label: "dst", at: "2027-03-14T01:50:00-08:00" },
+  // 01:57 PST on the night the US clocks go from 02:00 to 03:00: the change comes a few minutes into
+  // the run, and the seed's relative dates (days and months back, the week ahead) straddle it.
+  { label: "dst", at: "2027-03-14T01:57:00-08:00" },
 ];
 
 const LIBS = ["/usr/lib/x86_64-linux-gnu/faketime/libfaketime.so.1", "/usr/lib/aarch64-linux-gnu/faketime/libfaketime.so.1", "/usr/lib/faketime/libfaketime.so.1"];
