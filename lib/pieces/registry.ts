@@ -45,7 +45,6 @@ import { ftsQuery, indexPiece, unindexPiece, type DbOrTx } from "./search-index"
 export type PublicPiece = Omit<Piece, "registrationCodeHash" | "registrationCodeEnc">;
 
 export function publicPiece(p: Piece): PublicPiece {
-  // eslint-disable-next-line @typescript-eslint/no-unused-vars
   const { registrationCodeHash, registrationCodeEnc, ...rest } = p;
   return rest;
 }
