@@ -126,10 +126,12 @@ describe("finish stack", () => {
     const first = addLayer(ctx, piece.id, { surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-04-28", batchLot: "LOT-1" });
     expect(first.schedule!.tasks.map((t) => t.kind)).toContain("reoil");
     const second = addLayer(ctx, piece.id, { surface: "top", finishClass: "ceramic_topcoat", productId: product.id, coats: 1, appliedOn: "2025-04-30", appliedById: ctx.user.id });
-    // The topcoat takes over the oil's care, with the catalog's 7-month interval.
+    // The topcoat takes over the oil's care. Its clock runs on the longer of its catalog's 7 months and
+    // the oil's own 12 (hardwax oil, heavy use): a topcoat never shortens the care of what it covers
+    // (stackedLayerInterval in lib/care/schedule.ts). 2025-04-30 + 12 months.
     const topcoat = second.schedule!.tasks.find((t) => t.kind === "topcoat_refresh")!;
     expect(second.schedule!.tasks.map((t) => t.kind)).not.toContain("reoil");
-    expect(topcoat.dueOn).toBe("2025-11-30");
+    expect(topcoat.dueOn).toBe("2026-04-30");
     expect(second.layer.productLabel).toBe("Test topcoat (invented)");
     const third = addLayer(ctx, piece.id, { surface: "base", finishClass: "hardwax_oil", coats: 1, appliedOn: "2025-04-28" });
     const fourth = addLayer(ctx, piece.id, { surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2025-04-30" });

@@ -27,7 +27,9 @@ ownDatabaseFile("timing");
 /** The fixed instant the dates of the first tests are counted from (a Monday). */
 const NOW = DateTime.fromISO("2026-09-14T12:00:00Z", { zone: "utc" });
 /** A fixed instant for booking a visit (see the every-step-off test). */
-const VISIT_NOW = DateTime.fromISO("2031-05-05T12:00:00Z", { zone: "utc" });
+// A Monday at least 60 days ahead, 12:00 UTC: clear of every other fixture and inside the visit
+// calendar (two years ahead of today) whatever day the suite runs.
+const VISIT_NOW = DateTime.utc().plus({ days: 60 }).startOf("week").plus({ weeks: 1 }).set({ hour: 12, minute: 0, second: 0, millisecond: 0 });
 const ALL: ReminderStep[] = ["before_14d", "due_day", "after_30d"];
 
 /** The calendar date of NOW in a zone, plus `days`. */

@@ -80,7 +80,8 @@ describe("a reminder pass stopped by its signal", () => {
 describe("a visit reminder pass stopped by its signal", () => {
   it("claims nothing once aborted; the next pass sends the reminder", async () => {
     const w = await visitWorld();
-    const bookAt = Date.parse("2031-06-02T12:00:00Z");
+    // A Monday at least 60 days ahead, 12:00 UTC (inside the visit calendar whatever day the suite runs).
+    const bookAt = DateTime.utc().plus({ days: 60 }).startOf("week").plus({ weeks: 1 }).set({ hour: 12, minute: 0, second: 0, millisecond: 0 }).toMillis();
     const slot = listJobSlots(ownerActor(w.owner), w.job.id, { from: new Date(bookAt + 2 * 86_400_000).toISOString(), to: new Date(bookAt + 9 * 86_400_000).toISOString() }, bookAt).slots[0]!;
     const v = await bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, bookAt);
     const at = new Date(Date.parse(v.start) - 23 * 3_600_000);

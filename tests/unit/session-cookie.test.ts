@@ -7,7 +7,7 @@ function cookieAttributes(appUrl: string) {
   const out = execFileSync(
     process.execPath,
     ["--import", "tsx", "-e", `import("./lib/auth/lucia.ts").then(m => console.log(JSON.stringify(m.getLucia().createSessionCookie("token").attributes)))`],
-    { env: { ...process.env, APP_URL: appUrl, APP_SECRET: "a".repeat(40) }, encoding: "utf8" },
+    { env: { ...process.env, APP_URL: appUrl, APP_SECRET: "a".repeat(40), STRIPE_API_HOST: "", STRIPE_SECRET_KEY: "sk_test_" + "b".repeat(24) }, encoding: "utf8" },
   );
   return JSON.parse(out.trim().split("\n").pop()!);
 }
