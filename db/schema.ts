@@ -762,10 +762,18 @@ export const visits = sqliteTable(
     cancelledById: text("cancelled_by_id").references(() => users.id, { onDelete: "set null" }),
     cancelReason: text("cancel_reason"),
     reportWork: text("report_work"),
+    /** A name the technician typed at the visit (older reports only; the sign-off is now the owner's own, below). */
     reportSignOffName: text("report_sign_off_name"),
     reportLayerIds: text("report_layer_ids", { mode: "json" }).$type<string[]>(),
     reportedAt: integer("reported_at", { mode: "timestamp_ms" }),
     reportedById: text("reported_by_id").references(() => users.id, { onDelete: "set null" }),
+    /** Why staff filed the report before the visit's start (null: filed after it started). */
+    reportEarlyReason: text("report_early_reason"),
+    /** The owner's sign-off: a single-use link in the visit-done mail (only its SHA-256 kept), confirmed by a POST. */
+    signOffTokenHash: text("sign_off_token_hash").unique(),
+    signOffExpiresAt: integer("sign_off_expires_at", { mode: "timestamp_ms" }),
+    signedOffAt: integer("signed_off_at", { mode: "timestamp_ms" }),
+    signedOffById: text("signed_off_by_id").references(() => users.id, { onDelete: "set null" }),
     /** When the latest invite (confirmation or change) went out; the reminder skips an invite sent within its window. */
     lastInviteAt: integer("last_invite_at", { mode: "timestamp_ms" }),
     version: integer("version").notNull().default(0),
