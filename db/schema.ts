@@ -964,3 +964,96 @@ export const clientConsentsRelations = relations(clientConsents, ({ one }) => ({
 export type Client = typeof clients.$inferSelect;
 export type NewClient = typeof clients.$inferInsert;
 export type ClientConsent = typeof clientConsents.$inferSelect;
+
+// ---- conversations (issue #19): one thread per claim, repair job or visit; the studio's inbox ----
+
+export const THREAD_SUBJECTS = ["claim", "job", "visit"] as const;
+/** The inbox state of a thread: unread until a staff member opens it, done when handled. */
+export const THREAD_STATES = ["unread", "open", "done"] as const;
+export const MESSAGE_AUTHORS = ["owner", "staff"] as const;
+export const MESSAGE_SOURCES = ["web", "email"] as const;
+export const UNMATCHED_REASONS = ["no_token", "bad_token", "wrong_sender", "closed"] as const;
+
+/** A conversation between a studio and the owner about one claim, repair job or visit (and so one piece). */
+export const threads = sqliteTable(
+  "threads",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    subject: text("subject", { enum: THREAD_SUBJECTS }).notNull(),
+    claimId: text("claim_id").references(() => claims.id, { onDelete: "cascade" }),
+    jobId: text("job_id").references(() => repairJobs.id, { onDelete: "cascade" }),
+    visitId: text("visit_id").references(() => visits.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    /** The owner the studio talks with (the claim's or job's owner). */
+    ownerId: text("owner_id").references(() => users.id, { onDelete: "set null" }),
+    state: text("state", { enum: THREAD_STATES }).notNull().default("open"),
+    assignedToId: text("assigned_to_id").references(() => users.id, { onDelete: "set null" }),
+    /** When the oldest owner message not yet answered arrived; null when nothing waits on the studio. */
+    waitingSince: integer("waiting_since", { mode: "timestamp_ms" }),
+    lastMessageAt: integer("last_message_at", { mode: "timestamp_ms" }).notNull(),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [
+    index("threads_studio_state_idx").on(t.studioId, t.state, t.lastMessageAt),
+    index("threads_piece_idx").on(t.pieceId),
+    uniqueIndex("threads_claim_uq").on(t.claimId),
+    uniqueIndex("threads_job_uq").on(t.jobId),
+    uniqueIndex("threads_visit_uq").on(t.visitId),
+  ],
+);
+
+export const threadMessages = sqliteTable(
+  "thread_messages",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    threadId: text("thread_id")
+      .notNull()
+      .references(() => threads.id, { onDelete: "cascade" }),
+    author: text("author", { enum: MESSAGE_AUTHORS }).notNull(),
+    authorId: text("author_id").references(() => users.id, { onDelete: "set null" }),
+    source: text("source", { enum: MESSAGE_SOURCES }).notNull().default("web"),
+    /** The sender's address of a message that came in by e-mail. */
+    fromEmail: text("from_email"),
+    /** Message-ID of an e-mailed message: the same mail delivered twice is added once. */
+    emailMessageId: text("email_message_id").unique(),
+    body: text("body").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("thread_messages_thread_idx").on(t.threadId, t.createdAt)],
+);
+
+/** Inbound mail that could not be added to a thread: kept for the studio's staff, never dropped. */
+export const unmatchedMail = sqliteTable(
+  "unmatched_mail",
+  {
+    id: id(),
+    /** The studio it was probably meant for (null: no studio could be told). */
+    studioId: text("studio_id").references(() => studios.id, { onDelete: "cascade" }),
+    threadId: text("thread_id").references(() => threads.id, { onDelete: "set null" }),
+    reason: text("reason", { enum: UNMATCHED_REASONS }).notNull(),
+    emailMessageId: text("email_message_id").unique(),
+    fromEmail: text("from_email").notNull(),
+    toEmail: text("to_email").notNull(),
+    subject: text("subject").notNull(),
+    body: text("body").notNull(),
+    receivedAt: integer("received_at", { mode: "timestamp_ms" }).notNull(),
+    resolvedAt: integer("resolved_at", { mode: "timestamp_ms" }),
+    resolvedById: text("resolved_by_id").references(() => users.id, { onDelete: "set null" }),
+  },
+  (t) => [index("unmatched_mail_studio_idx").on(t.studioId, t.receivedAt)],
+);
+
+export type Thread = typeof threads.$inferSelect;
+export type ThreadMessage = typeof threadMessages.$inferSelect;
+export type UnmatchedMail = typeof unmatchedMail.$inferSelect;
