@@ -1,7 +1,7 @@
 import { relations, sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex, type AnySQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { WarrantyPolicy } from "../lib/care/coverage";
-import type { QuoteLine } from "../lib/care/quote";
+import type { JobLine, PriceListEntry, PricingRules, RoundingRule, TaxMode, LineKind } from "../lib/repairs/lines";
 import {
   CARE_TASK_KINDS,
   CLAIM_CATEGORIES,
@@ -45,8 +45,19 @@ export const studios = sqliteTable("studios", {
   country: text("country").notNull().default("US"),
   currency: text("currency").notNull().default("USD"),
   unitSystem: text("unit_system", { enum: UNIT_SYSTEMS }).notNull().default("metric"),
-  /** Tax rate in basis points (8.25 % = 825). */
+  /** Tax rate in basis points (8.25 % = 825): the one rate when taxMode is "single". */
   taxRateBp: integer("tax_rate_bp").notNull().default(0),
+  /** none, one rate, or a rate per line kind (taxRatesBp). */
+  taxMode: text("tax_mode").$type<TaxMode>().notNull().default("single"),
+  /** Prices include tax (true) or tax is added on top (false). */
+  taxInclusive: integer("tax_inclusive", { mode: "boolean" }).notNull().default(false),
+  taxRatesBp: text("tax_rates_bp", { mode: "json" }).$type<Partial<Record<LineKind, number>>>().notNull().default(sql`'{}'`),
+  /** Printed on quotes and receipts (VAT, GST or sales-tax registration). */
+  taxNumber: text("tax_number").notNull().default(""),
+  /** How quote lines are rounded: to the cent, whole units, or to 5/10. */
+  roundingRule: text("rounding_rule").$type<RoundingRule>().notNull().default("cent"),
+  /** The studio's repair tasks and default prices; empty means the built-in list (lib/repairs/price-list). */
+  repairPriceList: text("repair_price_list", { mode: "json" }).$type<PriceListEntry[]>().notNull().default(sql`'[]'`),
   /** Labour rate per hour, in the currency's minor units. */
   labourRateMinor: integer("labour_rate_minor").notNull().default(0),
   travelFeeMinor: integer("travel_fee_minor").notNull().default(0),
@@ -512,11 +523,17 @@ export const repairJobs = sqliteTable(
     title: text("title").notNull(),
     /** The quote's inputs (tasks, area, products, travel) as staff last edited them. */
     quoteInput: text("quote_input", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
-    lines: text("lines", { mode: "json" }).$type<QuoteLine[]>().notNull(),
+    lines: text("lines", { mode: "json" }).$type<JobLine[]>().notNull(),
+    /** What the care engine and the price list proposed when the quote was last priced, beside what was sent (lines). */
+    proposedLines: text("proposed_lines", { mode: "json" }).$type<JobLine[]>().notNull().default(sql`'[]'`),
+    /** Rounding and tax rules the lines were priced by. */
+    pricingRules: text("pricing_rules", { mode: "json" }).$type<PricingRules | Record<string, never>>().notNull().default(sql`'{}'`),
     currency: text("currency").notNull(),
     coveredPct: integer("covered_pct").notNull().default(0),
     subtotalMinor: integer("subtotal_minor").notNull().default(0),
     coveredMinor: integer("covered_minor").notNull().default(0),
+    /** The owner's part before tax (subtotal − covered, less the tax it holds when prices include tax). */
+    netMinor: integer("net_minor").notNull().default(0),
     taxMinor: integer("tax_minor").notNull().default(0),
     totalMinor: integer("total_minor").notNull().default(0),
     /** Raised each time the quote is sent; part of the checkout idempotency key. */
