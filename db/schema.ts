@@ -1074,3 +1074,42 @@ export const unmatchedMail = sqliteTable(
 export type Thread = typeof threads.$inferSelect;
 export type ThreadMessage = typeof threadMessages.$inferSelect;
 export type UnmatchedMail = typeof unmatchedMail.$inferSelect;
+
+// ---- hand-over mail (issue #19): the mail a buyer gets at delivery, and its one-tap registration link ----
+
+/**
+ * The hand-over mail of one piece to its buyer (a client of the studio): where it went, when it was
+ * sent (again), when its link was opened and when the piece was registered through it. The link
+ * carries a random token; only its SHA-256 is kept, bound to the piece and the address it was sent
+ * to. A resend replaces the token; registering takes it (single use).
+ */
+export const pieceHandovers = sqliteTable(
+  "piece_handovers",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    clientId: text("client_id").references(() => clients.id, { onDelete: "set null" }),
+    /** The address the link is bound to (lower-cased); null once the client is erased. */
+    email: text("email"),
+    tokenHash: text("token_hash").unique(),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }),
+    firstSentAt: integer("first_sent_at", { mode: "timestamp_ms" }),
+    lastSentAt: integer("last_sent_at", { mode: "timestamp_ms" }),
+    sendCount: integer("send_count").notNull().default(0),
+    openedAt: integer("opened_at", { mode: "timestamp_ms" }),
+    registeredAt: integer("registered_at", { mode: "timestamp_ms" }),
+    usedAt: integer("used_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [uniqueIndex("piece_handovers_piece_uq").on(t.pieceId), index("piece_handovers_studio_client_idx").on(t.studioId, t.clientId)],
+);
+
+export type PieceHandover = typeof pieceHandovers.$inferSelect;
