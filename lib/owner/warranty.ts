@@ -3,7 +3,7 @@
 // Pure: used by the piece page, the API and the certificate PDF.
 import type { WarrantyPolicy } from "@/lib/care/coverage";
 import { addMonths, diffDays, type IsoDate } from "@/lib/care/dates";
-import { CLAIM_CATEGORIES, type ClaimCategory, type ResinKind, type Use } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORIES, type ClaimCategory, type ClaimExclusion, type ResinKind, type Use } from "@/lib/care/vocabulary";
 
 export type WarrantyLineStatus = "active" | "ended" | "not_transferred";
 
@@ -74,12 +74,13 @@ export const WARRANTY_STATUS_LABELS: Record<WarrantyLineStatus, string> = {
   not_transferred: "Stayed with the first owner",
 };
 
-/** An exclusion in owner words; one the label map does not know yet reads as words, never as its key. */
+/** An exclusion in owner words; a stored key the vocabulary no longer knows reads as words, never as its key. */
 export function exclusionLabel(e: string): string {
-  return EXCLUSION_LABELS[e] ?? e.replace(/_/g, " ");
+  return (EXCLUSION_LABELS as Record<string, string>)[e] ?? e.replace(/_/g, " ");
 }
 
-export const EXCLUSION_LABELS: Record<string, string> = {
+/** Every exclusion of the vocabulary in owner words (typed by it, so a new exclusion cannot ship without words). */
+export const EXCLUSION_LABELS: Record<ClaimExclusion, string> = {
   heat: "heat damage",
   chemicals: "chemical damage",
   impact: "knocks and drops",
