@@ -1,6 +1,7 @@
 // How the owner's side writes dates, lengths, areas and volumes: in the owner's time zone and unit
 // system. Pure (no server-only import): the PDF, the e-mails and the client components use it too.
-import { L_PER_US_GALLON, M2_PER_FT2, MM_PER_INCH, ML_PER_US_FL_OZ } from "@/lib/care/units";
+import { displayFlOz, displayMl } from "@/lib/care/quantity";
+import { L_PER_US_GALLON, M2_PER_FT2, MM_PER_INCH } from "@/lib/care/units";
 
 export type UnitSystem = "metric" | "imperial";
 
@@ -110,11 +111,15 @@ export function formatAreaBoth(m2: number | null | undefined, units: UnitSystem)
   return `${formatArea(m2, units)} (${formatArea(m2, other)})`;
 }
 
-/** Product volume: mL, or US fl oz (with mL in brackets, as labels print both); rounded up, once, for display. */
-export function formatVolume(ml: number, units: UnitSystem): string {
-  if (units === "metric") return `${ml.toLocaleString("en-US")} mL`;
-  const oz = Math.ceil((ml / ML_PER_US_FL_OZ) * 10) / 10;
-  return `${oz} US fl oz (${ml.toLocaleString("en-US")} mL)`;
+/**
+ * Product volume from the engine's exact mL (productNeeded().exactMl, or a container's size): mL, or
+ * US fl oz with mL in brackets, as labels print both. Each figure is rounded up once, from the exact
+ * amount (displayMl, displayFlOz), never from an already rounded one.
+ */
+export function formatVolume(exactMl: number, units: UnitSystem): string {
+  const ml = displayMl(exactMl).toLocaleString("en-US");
+  if (units === "metric") return `${ml} mL`;
+  return `${displayFlOz(exactMl)} US fl oz (${ml} mL)`;
 }
 
 /** A large volume (resin pours) for staff records: litres or US gallons, the other in brackets. */
@@ -165,4 +170,27 @@ export function ownerTaskState(status: "upcoming" | "due" | "overdue" | "done", 
   if (status === "overdue" || daysUntilDue < 0) return "now";
   if (status === "due") return "soon";
   return daysUntilDue <= PLAN_AHEAD_DAYS ? "plan" : "later";
+}
+
+/** The locale money is written in for a studio's country (ISO 3166-1 alpha-2): "US" → "en-US", "DE" → "de-DE". */
+export function moneyLocale(country: string): string {
+  try {
+    const l = new Intl.Locale("und", { region: country }).maximize();
+    return `${l.language}-${l.region}`;
+  } catch {
+    return "en-US";
+  }
+}
+
+/**
+ * Money from integer minor units, the one way it is written everywhere (pages, e-mails, PDFs, CSV):
+ * by Intl for the studio's country — "$85.00" (US), "85,00 €" (DE), "￥1,235" (JP). The amount goes to
+ * Intl as an exact decimal string, never as minor ÷ 100 in floating point.
+ */
+export function formatMoney(minor: number, currency: string, country = "US"): string {
+  const exp = new Intl.NumberFormat("en", { style: "currency", currency }).resolvedOptions().maximumFractionDigits ?? 2;
+  const sign = minor < 0 ? "-" : "";
+  const digits = String(Math.abs(Math.trunc(minor))).padStart(exp + 1, "0");
+  const decimal = exp === 0 ? digits : `${digits.slice(0, -exp)}.${digits.slice(-exp)}`;
+  return new Intl.NumberFormat(moneyLocale(country), { style: "currency", currency }).format(`${sign}${decimal}` as `${number}`);
 }
