@@ -263,7 +263,7 @@ function quantityFor(
       ? `; that is ${need.containers.map((c) => `${c.count} × ${formatVolume(c.sizeMl, units)}`).join(" + ")} container${need.containers.reduce((n, c) => n + c.count, 0) === 1 ? "" : "s"}`
       : "";
     return {
-      text: `About ${formatVolume(need.ml, units)} for ${coats} coat${coats === 1 ? "" : "s"} on this ${formatArea(area.m2, units)} top${containers}.`,
+      text: `About ${formatVolume(need.exactMl, units)} for ${coats} coat${coats === 1 ? "" : "s"} on this ${formatArea(area.m2, units)} top${containers}.`,
       reasons: need.reasons,
     };
   } catch (e) {

@@ -153,7 +153,7 @@ export function quantityText(
   const area = topArea(shape);
   const coats = product.refreshCoats ?? 1;
   const need = productNeeded({ areaM2: area.m2, coats, coverageM2PerL: product.coverageM2PerL, containerSizesMl: product.containerSizesMl });
-  const amount = formatVolume(need.ml, unitSystem);
+  const amount = formatVolume(need.exactMl, unitSystem);
   const size = formatArea(area.m2, unitSystem);
   const name = product.name ?? "the product";
   const cans = need.containers.length > 0 ? ` — ${need.containers.map((c) => `${c.count} × ${formatVolume(c.sizeMl, unitSystem)}`).join(" + ")} is enough` : "";

@@ -1,7 +1,7 @@
 // The one formatter's imperial lengths read like a woodworker's tape (issue 17 item 12).
 // 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C); each expected value is worked by hand.
 import { describe, expect, it } from "vitest";
-import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness } from "@/lib/owner/format";
+import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness, formatVolume } from "@/lib/owner/format";
 
 describe("imperial lengths", () => {
   it("round to the nearest 1/16 in and reduce the fraction", () => {
@@ -26,5 +26,28 @@ describe("imperial lengths", () => {
     expect(formatSize({ shapeKind: "rectangle", lengthMm: 2438, widthMm: 956, diameterMm: null, measuredAreaM2: null }, "imperial")).toBe("96 × 37 5/8 in");
     expect(formatLengthBoth(2438, "metric")).toBe("2,438 mm (96 in)");
     expect(formatLengthBoth(null, "metric")).toBe("—");
+  });
+});
+
+// Volumes (issue 17 item 7): the engine's exact mL goes in; each figure is rounded up once, from the
+// exact amount. 1 US fl oz = 29.5735295625 mL exactly (NIST Handbook 44, 2024, Appendix C).
+describe("volumes", () => {
+  it("round the exact amount up once, for display", () => {
+    // 160 mL = 160 / 29.5735295625 = 5.41024 fl oz → 5.5.
+    expect(formatVolume(160, "imperial")).toBe("5.5 US fl oz (160 mL)");
+    expect(formatVolume(160, "metric")).toBe("160 mL");
+    // 1 L = 33.8140 fl oz → 33.9.
+    expect(formatVolume(1000, "imperial")).toBe("33.9 US fl oz (1,000 mL)");
+    // 12.91669 mL → 13 mL; 0.43676 fl oz → 0.5.
+    expect(formatVolume(12.91669, "imperial")).toBe("0.5 US fl oz (13 mL)");
+    // Float noise is not an extra millilitre: 100.00000000000001 mL reads 100 mL.
+    expect(formatVolume(100.00000000000001, "metric")).toBe("100 mL");
+  });
+
+  it("take fl oz from the exact amount, not from the rounded mL", () => {
+    // 29.1 mL exact = 0.98399 fl oz → 1 fl oz; the mL figure rounds up to 30 mL. Converting the
+    // rounded 30 mL instead (1.01442 fl oz) would round up again, to 1.1 fl oz.
+    expect(formatVolume(29.1, "imperial")).toBe("1 US fl oz (30 mL)");
+    expect(formatVolume(29.1, "metric")).toBe("30 mL");
   });
 });
