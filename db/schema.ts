@@ -989,7 +989,7 @@ export const THREAD_SUBJECTS = ["claim", "job", "visit"] as const;
 export const THREAD_STATES = ["unread", "open", "done"] as const;
 export const MESSAGE_AUTHORS = ["owner", "staff"] as const;
 export const MESSAGE_SOURCES = ["web", "email"] as const;
-export const UNMATCHED_REASONS = ["no_token", "bad_token", "wrong_sender", "closed"] as const;
+export const UNMATCHED_REASONS = ["no_token", "bad_token", "wrong_sender", "closed", "empty"] as const;
 
 /** A conversation between a studio and the owner about one claim, repair job or visit (and so one piece). */
 export const threads = sqliteTable(
