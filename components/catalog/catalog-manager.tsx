@@ -6,7 +6,8 @@ import { useId, useState } from "react";
 import { Controller, useFieldArray } from "react-hook-form";
 import { toast } from "sonner";
 import { useActionForm } from "@/components/forms/use-action-form";
-import { callApi, numberOrNull } from "@/components/pieces/api";
+import { callApi } from "@/components/api-client";
+import { numberOrNull } from "@/components/forms/field-values";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
@@ -71,7 +72,7 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
   const router = useRouter();
   const { form, onSubmit, formError } = useActionForm({
     schema: () => import("@/lib/validation/pieces").then((m) => m.catalogProductSchema),
-    action: (v: CatalogProductInput) => (product ? callApi(`/api/catalog/${product.id}`, "PATCH", v) : callApi("/api/catalog", "POST", v)),
+    action: (v: CatalogProductInput) => (product ? callApi(`/api/catalog/${product.id}`, { method: "PATCH", json: v }) : callApi("/api/catalog", { method: "POST", json: v })),
     defaultValues: product
       ? {
           name: product.name,
@@ -165,7 +166,7 @@ export function CatalogManager({ products, currency }: { products: CatalogRow[];
   const [editing, setEditing] = useState<string | "new" | null>(null);
   const [confirm, setConfirm] = useState<string | null>(null);
   const setArchived = async (p: CatalogRow, archived: boolean) => {
-    const r = archived ? await callApi(`/api/catalog/${p.id}`, "DELETE") : await callApi(`/api/catalog/${p.id}`, "PATCH", { archived: false });
+    const r = archived ? await callApi(`/api/catalog/${p.id}`, { method: "DELETE" }) : await callApi(`/api/catalog/${p.id}`, { method: "PATCH", json: { archived: false } });
     setConfirm(null);
     if (!r.ok) return toast.error(r.message);
     toast.success(archived ? `${p.name} archived; layers that used it keep its name.` : `${p.name} is back in the pickers.`);

@@ -13,7 +13,7 @@ import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import type { createClaimSchema, CreateClaimInput } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { ApiError, apiJson } from "./api";
+import { ApiError, apiJson } from "@/components/api-client";
 import { clearDraftPhotos, PhotoPicker, PhotoQueueList, usePhotoQueue } from "./photo-queue";
 
 type Values = z.input<typeof createClaimSchema>;

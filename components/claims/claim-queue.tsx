@@ -11,7 +11,7 @@ import { Notice } from "@/components/ui/notice";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF, formatWait } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
-import { apiJson } from "./api";
+import { apiJson } from "@/components/api-client";
 import { StateBadge } from "./state-badge";
 
 type Row = {

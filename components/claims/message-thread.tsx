@@ -9,7 +9,7 @@ import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import type { claimMessageSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { ApiError, apiJson } from "./api";
+import { ApiError, apiJson } from "@/components/api-client";
 
 export type ThreadMessage = { id: string; body: string; fromStudio: boolean; createdAt: string; authorName: string };
 

@@ -5,7 +5,9 @@ import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
-import { ApiError, apiJson, uploadPhoto, type UploadedPhoto } from "./api";
+import { ApiError, apiJson, uploadForm } from "@/components/api-client";
+
+type UploadedPhoto = { id: string; url: string; thumbUrl: string; width: number; height: number };
 
 // Photos picked for a claim, each uploaded in its own request with a progress bar, retry and remove.
 // Until a photo is uploaded its bytes wait in IndexedDB under the draft's key, so a reload keeps them.
@@ -125,7 +127,9 @@ export function usePhotoQueue(draftKey: string) {
     async (item: QueueItem, claimId: string): Promise<boolean> => {
       patch(item.key, { status: "uploading", progress: 0, error: undefined });
       try {
-        const photo = await uploadPhoto(claimId, item.blob, item.name, (f) => patch(item.key, { progress: f }));
+        const form = new FormData();
+        form.append("file", item.blob, item.name);
+        const { photo } = await uploadForm<{ photo: UploadedPhoto }>(`/api/claims/${claimId}/photos`, form, (f) => patch(item.key, { progress: f }));
         patch(item.key, { status: "done", progress: 1, photo });
         void idbSafe(() => idb("readwrite", (s) => s.put({ key: item.key, draftKey, name: item.name, blob: item.blob, photo, order: Date.now() } satisfies StoredPhoto)));
         return true;

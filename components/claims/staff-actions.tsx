@@ -14,7 +14,7 @@ import { CLAIM_DECISION_LABELS, decisionText } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
 import type { claimDecisionSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { ApiError, apiJson } from "./api";
+import { ApiError, apiJson } from "@/components/api-client";
 
 type Values = z.input<typeof claimDecisionSchema>;
 const DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;

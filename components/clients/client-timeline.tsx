@@ -3,7 +3,7 @@
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useState } from "react";
-import { apiJson } from "@/components/claims/api";
+import { apiJson } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import type { Timeline } from "@/lib/clients/timeline";

@@ -4,7 +4,7 @@ import { useQueryClient } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
-import { ApiError, apiJson } from "@/components/claims/api";
+import { ApiError, apiJson } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { CONSENT_KIND_LABELS, CONSENT_KINDS, CONSENT_SOURCE_LABELS, CONSENT_SOURCES, type ConsentKind, type ConsentSource } from "@/lib/clients/vocabulary";

@@ -3,13 +3,10 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
+import { callApi } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 
-async function post(url: string): Promise<{ ok: boolean; message?: string; body?: Record<string, unknown> }> {
-  const res = await fetch(url, { method: "POST", headers: { "content-type": "application/json" } });
-  const body = await res.json().catch(() => ({}));
-  return res.ok ? { ok: true, body } : { ok: false, message: body.error?.message ?? "Something went wrong." };
-}
+const post = (url: string) => callApi<{ checkoutUrl?: string }>(url, { method: "POST" });
 
 /** Staff actions on a job: send the quote, cancel (asks first; a paid job is refunded), send a refund that didn't go through. */
 export function StaffJobActions({ jobId, canSend, canCancel, paid, refundOwed = false }: { jobId: string; canSend: boolean; canCancel: boolean; paid: boolean; refundOwed?: boolean }) {
@@ -60,7 +57,7 @@ export function ApproveAndPay({ jobId, label }: { jobId: string; label: string }
           setBusy(false);
           return void toast.error(r.message);
         }
-        window.location.assign(String(r.body?.checkoutUrl));
+        window.location.assign(String(r.data.checkoutUrl));
       }}
     >
       {busy ? "Opening the payment page…" : label}

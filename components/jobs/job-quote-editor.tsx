@@ -5,6 +5,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
+import { apiJson, isApiError } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
@@ -24,11 +25,12 @@ export function JobQuoteEditor({ jobId, initial, products, editable }: { jobId: 
   const { register, formState, handleSubmit, setError } = form;
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
-    const res = await fetch(`/api/jobs/${jobId}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify(values) });
-    const body = await res.json().catch(() => ({}));
-    if (!res.ok) {
-      setFormError(body.error?.message ?? "Couldn't save the quote.");
-      for (const [field, msgs] of Object.entries((body.error?.fieldErrors ?? {}) as Record<string, string[]>)) {
+    try {
+      await apiJson(`/api/jobs/${jobId}`, { method: "PATCH", json: values });
+    } catch (e) {
+      if (!isApiError(e)) return setFormError("Couldn't save the quote.");
+      setFormError(e.message);
+      for (const [field, msgs] of Object.entries(e.fieldErrors)) {
         if (msgs[0]) setError(field as keyof JobQuoteInput, { message: msgs[0] });
       }
       return;

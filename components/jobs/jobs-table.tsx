@@ -3,6 +3,7 @@
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { apiJson } from "@/components/api-client";
 import { StatusBadge } from "@/components/ui/status";
 import { Notice } from "@/components/ui/notice";
 import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
@@ -21,11 +22,7 @@ export function JobsTable() {
   const state = params.get("state") ?? "";
   const query = useQuery({
     queryKey: ["jobs", state],
-    queryFn: async (): Promise<JobRow[]> => {
-      const res = await fetch(`/api/jobs${state ? `?state=${state}` : ""}`);
-      if (!res.ok) throw new Error((await res.json()).error?.message ?? "Couldn't load the jobs.");
-      return (await res.json()).jobs;
-    },
+    queryFn: async ({ signal }): Promise<JobRow[]> => (await apiJson<{ jobs: JobRow[] }>(`/api/jobs${state ? `?state=${state}` : ""}`, { signal })).jobs,
   });
   return (
     <div className="space-y-4">

@@ -11,7 +11,7 @@ import { useActionForm } from "@/components/forms/use-action-form";
 import { formatDate } from "@/lib/owner/format";
 import type { TaskView } from "@/lib/owner/pieces";
 import type { CareLogInput } from "@/lib/validation/owner";
-import { callApi } from "./api-action";
+import { callApi } from "@/components/api-client";
 import { DeleteEntryButton } from "./delete-entry-button";
 
 type Result = { task: TaskView | null };
@@ -38,11 +38,7 @@ export function CareLogForm({
     defaultValues: defaults,
     action: async (values) => {
       if (entryId) {
-        return callApi<Result>(`/api/me/pieces/${pieceId}/care-log/${entryId}`, {
-          method: "PATCH",
-          headers: { "Content-Type": "application/json" },
-          body: JSON.stringify(values),
-        });
+        return callApi<Result>(`/api/me/pieces/${pieceId}/care-log/${entryId}`, { method: "PATCH", json: values });
       }
       const body = new FormData();
       for (const [k, v] of Object.entries(values)) if (v !== undefined) body.set(k, String(v));

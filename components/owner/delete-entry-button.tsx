@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
-import { callApi } from "./api-action";
+import { callApi } from "@/components/api-client";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 
 export function DeleteEntryButton({ pieceId, entryId }: { pieceId: string; entryId: string }) {

@@ -4,16 +4,20 @@ import { CircleAlert, CircleCheck, Upload } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
+import { apiJson, isApiError } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import type { ImportResult } from "@/lib/pieces/csv";
 
 async function send(csv: string, commit: boolean): Promise<ImportResult | { message: string }> {
-  const res = await fetch("/api/pieces/import", { method: "POST", headers: { "Content-Type": "application/json" }, body: JSON.stringify({ csv, commit }) }).catch(() => null);
-  if (!res) return { message: "We couldn't reach the server." };
-  const j = await res.json().catch(() => ({}));
-  if ("rows" in j) return j as ImportResult;
-  return { message: j?.error?.message ?? `The server answered ${res.status}.` };
+  try {
+    return await apiJson<ImportResult>("/api/pieces/import", { method: "POST", json: { csv, commit } });
+  } catch (e) {
+    if (!isApiError(e)) throw e;
+    // Rows with problems come back with a 4xx and the checked rows, shown row by row.
+    if ("rows" in e.body) return e.body as ImportResult;
+    return { message: e.message };
+  }
 }
 
 /** Import of earlier deliveries: preview first, per-row errors, and nothing written unless every row is valid. */

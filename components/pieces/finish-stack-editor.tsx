@@ -11,7 +11,7 @@ import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
 import { FINISH_CLASS_LABELS, SURFACES, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import type { LayerInput } from "@/lib/validation/pieces";
-import { callApi } from "./api";
+import { callApi } from "@/components/api-client";
 import { LayerFields, SURFACE_LABELS, type MemberOption, type ProductOption } from "./layer-fields";
 
 export type StackLayer = {
@@ -46,7 +46,7 @@ function LayerForm({ pieceId, products, members, onDone, ...target }: { pieceId:
   const layer = target.layer;
   const { form, onSubmit, formError } = useActionForm({
     schema: () => import("@/lib/validation/pieces").then((m) => m.layerSchema),
-    action: (v: LayerInput) => (layer ? callApi(`/api/pieces/${pieceId}/layers/${layer.id}`, "PATCH", v) : callApi(`/api/pieces/${pieceId}/layers`, "POST", v)),
+    action: (v: LayerInput) => (layer ? callApi(`/api/pieces/${pieceId}/layers/${layer.id}`, { method: "PATCH", json: v }) : callApi(`/api/pieces/${pieceId}/layers`, { method: "POST", json: v })),
     defaultValues: layer
       ? { surface: layer.surface, finishClass: layer.finishClass, productId: layer.productId, productLabel: layer.productLabel, coats: layer.coats, appliedOn: layer.appliedOn, appliedById: layer.appliedById, batchLot: layer.batchLot, notes: layer.notes }
       : { surface: target.surface, finishClass: "hardwax_oil", productId: null, productLabel: "", coats: 1, appliedOn: target.today, appliedById: null, batchLot: "", notes: "" },
@@ -123,10 +123,10 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                       </p>
                     </div>
                     <div className="flex flex-wrap gap-1">
-                      <button type="button" disabled={busy || l.position === stack.length - 1} onClick={() => act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, "PATCH", { position: l.position + 1 }), "Layer moved outward.")} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer outward`}>
+                      <button type="button" disabled={busy || l.position === stack.length - 1} onClick={() => act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, { method: "PATCH", json: { position: l.position + 1 } }), "Layer moved outward.")} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer outward`}>
                         <ArrowUp aria-hidden className="size-4" />
                       </button>
-                      <button type="button" disabled={busy || l.position === 0} onClick={() => act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, "PATCH", { position: l.position - 1 }), "Layer moved toward the wood.")} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer toward the wood`}>
+                      <button type="button" disabled={busy || l.position === 0} onClick={() => act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, { method: "PATCH", json: { position: l.position - 1 } }), "Layer moved toward the wood.")} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer toward the wood`}>
                         <ArrowDown aria-hidden className="size-4" />
                       </button>
                       <button type="button" onClick={() => setEditing(editing === l.id ? null : l.id)} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white" aria-label={`Edit ${FINISH_CLASS_LABELS[l.finishClass]} layer`}>
@@ -140,7 +140,7 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                   {confirming === l.id ? (
                     <div role="alertdialog" aria-label="Remove this layer?" className="flex flex-wrap items-center gap-2 bg-danger-soft px-3 py-2 text-sm">
                       <span className="font-semibold">Remove this layer? The care schedule will be recomputed; the audit log keeps a record.</span>
-                      <Button variant="danger" disabled={busy} onClick={() => (setConfirming(null), act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, "DELETE"), "Finish layer removed."))}>
+                      <Button variant="danger" disabled={busy} onClick={() => (setConfirming(null), act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, { method: "DELETE" }), "Finish layer removed."))}>
                         Remove layer
                       </Button>
                       <Button variant="secondary" onClick={() => setConfirming(null)}>

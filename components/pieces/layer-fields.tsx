@@ -3,7 +3,7 @@
 import type { FieldErrors, FieldValues, UseFormRegister, UseFormSetValue } from "react-hook-form";
 import { SelectField, TextField } from "@/components/ui/field";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
-import { emptyToNull, numberOrNull } from "./api";
+import { emptyToNull, numberOrNull } from "@/components/forms/field-values";
 
 export type ProductOption = { id: string; name: string; finishClass: FinishClass };
 export type MemberOption = { id: string; name: string };

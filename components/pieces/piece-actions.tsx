@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
-import { callApi } from "./api";
+import { apiJson, callApi, isApiError } from "@/components/api-client";
 
 function Confirm({ text, action, onYes, onNo, busy }: { text: string; action: string; onYes: () => void; onNo: () => void; busy: boolean }) {
   return (
@@ -32,7 +32,7 @@ export function PieceActions({ pieceId, registered, archived }: { pieceId: strin
 
   const reissue = async () => {
     setBusy(true);
-    const r = await callApi<{ registrationCode: string }>(`/api/pieces/${pieceId}/registration-code`, "POST");
+    const r = await callApi<{ registrationCode: string }>(`/api/pieces/${pieceId}/registration-code`, { method: "POST" });
     setBusy(false);
     setAsk(null);
     if (!r.ok) return toast.error(r.message);
@@ -42,7 +42,7 @@ export function PieceActions({ pieceId, registered, archived }: { pieceId: strin
   };
   const remove = async () => {
     setBusy(true);
-    const r = await callApi<{ deleted: boolean; archived: boolean }>(`/api/pieces/${pieceId}`, "DELETE");
+    const r = await callApi<{ deleted: boolean; archived: boolean }>(`/api/pieces/${pieceId}`, { method: "DELETE" });
     setBusy(false);
     setAsk(null);
     if (!r.ok) return toast.error(r.message);
@@ -51,7 +51,7 @@ export function PieceActions({ pieceId, registered, archived }: { pieceId: strin
     else router.refresh();
   };
   const unarchive = async () => {
-    const r = await callApi(`/api/pieces/${pieceId}`, "PATCH", { archived: false });
+    const r = await callApi(`/api/pieces/${pieceId}`, { method: "PATCH", json: { archived: false } });
     if (!r.ok) return toast.error(r.message);
     toast.success("Piece taken out of the archive.");
     router.refresh();
@@ -112,11 +112,12 @@ export function PhotoUploader({ pieceId }: { pieceId: string }) {
       setProgress(`Uploading ${i + 1} of ${all.length}: ${file.name}…`);
       const body = new FormData();
       body.set("file", file);
-      const res = await fetch(`/api/pieces/${pieceId}/photos`, { method: "POST", body }).catch(() => null);
-      if (!res?.ok) {
-        const j = await res?.json().catch(() => null);
-        toast.error(`${file.name}: ${j?.error?.message ?? "the upload failed."}`);
-      } else toast.success(`${file.name} added.`);
+      try {
+        await apiJson(`/api/pieces/${pieceId}/photos`, { method: "POST", body });
+        toast.success(`${file.name} added.`);
+      } catch (e) {
+        toast.error(`${file.name}: ${isApiError(e) ? e.message : "the upload failed."}`);
+      }
     }
     setProgress(null);
     if (input.current) input.current.value = "";

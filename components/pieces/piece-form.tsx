@@ -11,7 +11,8 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { PIECE_KINDS, PIECE_KIND_LABELS, RESIN_KINDS, RESIN_LABELS, SHAPE_KINDS, SUN_EXPOSURES, SUN_LABELS, USES, USE_LABELS } from "@/lib/care/vocabulary";
 import type { CreatePieceInput } from "@/lib/validation/pieces";
-import { callApi, emptyToNull } from "./api";
+import { callApi } from "@/components/api-client";
+import { emptyToNull } from "@/components/forms/field-values";
 import { LayerFields, type MemberOption, type ProductOption } from "./layer-fields";
 import { SpeciesPicker } from "./species-picker";
 import { UnitNumberField, UnitToggle, type UnitSystem } from "./unit-fields";
@@ -54,7 +55,7 @@ export function PieceForm({
   const [system, setSystem] = useState<UnitSystem>(unitSystem);
   const { form, onSubmit, formError } = useActionForm({
     schema: () => import("@/lib/validation/pieces").then((m) => (mode === "create" ? m.createPieceSchema : m.pieceSchema)),
-    action: (values) => (mode === "create" ? callApi<Created>("/api/pieces", "POST", values) : callApi<Created>(`/api/pieces/${pieceId}`, "PATCH", values)),
+    action: (values) => (mode === "create" ? callApi<Created>("/api/pieces", { method: "POST", json: values }) : callApi<Created>(`/api/pieces/${pieceId}`, { method: "PATCH", json: values })),
     defaultValues: {
       kind: "dining_table",
       shapeKind: "rectangle",

@@ -5,6 +5,7 @@ import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight, Download, Search, X } fr
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useEffect, useMemo, useState } from "react";
+import { ApiError, apiJson, isApiError } from "@/components/api-client";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
@@ -12,15 +13,6 @@ import { SPECIES } from "@/lib/care/species";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, PIECE_KINDS, PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import type { RegistryPage, RegistryRow } from "@/lib/pieces/registry";
 import { CareStatus, RegistrationStatus } from "./status";
-
-class RegistryError extends Error {
-  constructor(
-    readonly status: number,
-    message: string,
-  ) {
-    super(message);
-  }
-}
 
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
 type Key = (typeof FILTER_KEYS)[number];
@@ -64,14 +56,14 @@ export function RegistryTable() {
   const query = useQuery({
     queryKey: ["pieces", qs],
     queryFn: async ({ signal }): Promise<RegistryPage> => {
-      const res = await fetch(`/api/pieces${qs ? `?${qs}` : ""}`, { signal });
-      const body = await res.json().catch(() => ({}));
-      if (!res.ok) {
+      try {
+        return await apiJson<RegistryPage>(`/api/pieces${qs ? `?${qs}` : ""}`, { signal });
+      } catch (e) {
         // Say what is wrong (e.g. "Search for at most 200 characters."), not only that something is.
-        const fields = Object.values((body?.error?.fieldErrors ?? {}) as Record<string, string[]>).flat();
-        throw new RegistryError(res.status, fields.length ? fields.join(" ") : (body?.error?.message ?? `The server answered ${res.status}.`));
+        const fields = isApiError(e) ? Object.values(e.fieldErrors).flat() : [];
+        if (isApiError(e) && fields.length) throw new ApiError(e.status, fields.join(" "), e.code, e.fieldErrors, e.body);
+        throw e;
       }
-      return body as RegistryPage;
     },
     placeholderData: keepPreviousData,
   });
@@ -193,7 +185,7 @@ export function RegistryTable() {
       </div>
 
       {query.isError ? (
-        <Notice tone="error" title={query.error instanceof RegistryError && query.error.status === 400 ? "Check the search" : "The registry could not be loaded"}>
+        <Notice tone="error" title={isApiError(query.error) && query.error.status === 400 ? "Check the search" : "The registry could not be loaded"}>
           <p>{query.error.message}</p>
           <Button variant="secondary" className="mt-2" onClick={() => query.refetch()}>
             Try again

@@ -4,6 +4,7 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { Ban, CircleAlert, CircleCheck, Clock, Hourglass, PauseCircle, PlayCircle, RotateCw, SkipForward, UserX } from "lucide-react";
 import { useState, type ComponentType } from "react";
 import { toast } from "sonner";
+import { apiJson, isApiError } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { cn } from "@/components/ui/cn";
@@ -52,12 +53,14 @@ function StatusBadge({ status }: { status: string }) {
   );
 }
 
-async function getJson<T>(url: string, init?: RequestInit): Promise<T> {
-  const res = await fetch(url, { ...init, headers: { "content-type": "application/json", ...init?.headers } });
-  const body = await res.json().catch(() => ({}));
-  if (!res.ok && !(res.status === 502 && body?.status === "failed")) throw new Error(body?.error?.message ?? `Request failed (${res.status})`);
-  return body as T;
-}
+type Resent = { status: string; error?: string };
+
+/** A resend that the mail server refused again answers 502 with what it said: shown, not thrown. */
+const resendReminder = (id: string) =>
+  apiJson<Resent>(`/api/reminders/${id}/resend`, { method: "POST" }).catch((e: unknown) => {
+    if (isApiError(e) && e.status === 502 && e.body.status === "failed") return e.body as Resent;
+    throw e;
+  });
 
 const when = (ms: string | number | Date | null) => (ms ? new Date(ms).toLocaleString() : "—");
 
@@ -68,10 +71,10 @@ export function RemindersBoard() {
   const params = new URLSearchParams({ view, ...Object.fromEntries(Object.entries(filters).filter(([k, v]) => v && (view === "ledger" || k !== "status"))) });
   const query = useQuery({
     queryKey: ["reminders", view, filters],
-    queryFn: () => getJson<{ rows: (UpcomingRow | LedgerListRow)[] }>(`/api/reminders?${params}`),
+    queryFn: ({ signal }) => apiJson<{ rows: (UpcomingRow | LedgerListRow)[] }>(`/api/reminders?${params}`, { signal }),
   });
   const pause = useMutation({
-    mutationFn: (v: { pieceId: string; paused: boolean }) => getJson<{ remindersPaused: boolean }>("/api/reminders/pause", { method: "POST", body: JSON.stringify(v) }),
+    mutationFn: (v: { pieceId: string; paused: boolean }) => apiJson<{ remindersPaused: boolean }>("/api/reminders/pause", { method: "POST", json: v }),
     onSuccess: (r) => {
       toast.success(r.remindersPaused ? "Reminders paused for this piece." : "Reminders resumed for this piece.");
       void qc.invalidateQueries({ queryKey: ["reminders"] });
@@ -79,7 +82,7 @@ export function RemindersBoard() {
     onError: (e) => toast.error(e.message),
   });
   const resend = useMutation({
-    mutationFn: (id: string) => getJson<{ status: string; error?: string }>(`/api/reminders/${id}/resend`, { method: "POST" }),
+    mutationFn: resendReminder,
     onSuccess: (r) => {
       if (r.status === "sent") toast.success("Sent again.");
       else toast.error(`Still failing: ${r.error}`);

@@ -9,7 +9,7 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import type { technicianHoursSchema, TechnicianHoursInput } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { isApiError, visitApi } from "./api";
+import { apiJson, isApiError } from "@/components/api-client";
 
 const WEEKDAYS = ["Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday"];
 type Values = { hours: { weekday: number; start: string; end: string }[]; timeOff: { date: string; start?: string | null; end?: string | null; note: string }[] };
@@ -28,7 +28,7 @@ export function HoursEditor({ technicianId, name, initial, editable }: { technic
   const submit = form.handleSubmit(async (v) => {
     setError(null);
     try {
-      await visitApi(`/api/technicians/${technicianId}/hours`, "PUT", v);
+      await apiJson(`/api/technicians/${technicianId}/hours`, { method: "PUT", json: v });
       toast.success(`Hours saved for ${name}.`);
     } catch (err) {
       setError(isApiError(err) ? err.message : "Couldn't save.");

@@ -9,7 +9,8 @@ import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { cn } from "@/components/ui/cn";
-import { isApiError, visitApi, type SlotView } from "./api";
+import { apiJson, isApiError } from "@/components/api-client";
+import type { SlotView } from "@/lib/visits/service";
 
 type Props = {
   jobId: string;
@@ -50,7 +51,7 @@ export function SlotPicker(p: Props) {
   const key = ["slots", p.jobId, from, to];
   const slots = useQuery({
     queryKey: key,
-    queryFn: () => visitApi<{ slots: SlotView[] }>(`/api/jobs/${p.jobId}/slots?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`, "GET").then((r) => r.slots),
+    queryFn: () => apiJson<{ slots: SlotView[] }>(`/api/jobs/${p.jobId}/slots?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`).then((r) => r.slots),
   });
   const byDay = useMemo(() => {
     const m = new Map<string, SlotView[]>();
@@ -63,16 +64,18 @@ export function SlotPicker(p: Props) {
     if (!chosen) return;
     setBusy(true);
     try {
-      if (p.visit) await visitApi(`/api/visits/${p.visit.id}`, "PATCH", { start: chosen.start, technicianId: chosen.technicianId, location });
-      else await visitApi("/api/visits", "POST", { jobId: p.jobId, technicianId: chosen.technicianId, start: chosen.start, location });
+      if (p.visit) await apiJson(`/api/visits/${p.visit.id}`, { method: "PATCH", json: { start: chosen.start, technicianId: chosen.technicianId, location } });
+      else await apiJson("/api/visits", { method: "POST", json: { jobId: p.jobId, technicianId: chosen.technicianId, start: chosen.start, location } });
       toast.success(p.visit ? "Visit moved. The updated invite is on its way by e-mail." : "Visit booked. The invite is on its way by e-mail.");
       router.push(p.doneHref);
       router.refresh();
     } catch (e) {
       setBusy(false);
-      if (isApiError(e) && e.status === 409 && e.slots) {
+      // A 409 carries the times that are free now.
+      const freshSlots = isApiError(e) && e.status === 409 ? (e.body.slots as SlotView[] | undefined) : undefined;
+      if (isApiError(e) && freshSlots) {
         // Someone else took the time: show what is free now.
-        client.setQueryData(key, e.slots.filter((s) => s.start >= from && s.start < to));
+        client.setQueryData(key, freshSlots.filter((s) => s.start >= from && s.start < to));
         setChosen(null);
         setFresh(e.message);
         toast.error(e.message);
@@ -86,7 +89,7 @@ export function SlotPicker(p: Props) {
     if (!p.visit) return;
     setBusy(true);
     try {
-      await visitApi(`/api/visits/${p.visit.id}/cancel`, "POST", {});
+      await apiJson(`/api/visits/${p.visit.id}/cancel`, { method: "POST", json: {} });
       toast.success("Visit cancelled. The cancellation is on its way by e-mail.");
       setConfirmCancel(false);
       router.push(p.doneHref);

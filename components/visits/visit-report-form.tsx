@@ -11,35 +11,20 @@ import { Notice } from "@/components/ui/notice";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
 import type { visitReportSchema, VisitReportInput, VisitReportValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { isApiError, visitApi } from "./api";
+import { apiJson, isApiError, uploadForm } from "@/components/api-client";
 
 type Product = { id: string; name: string; finishClass: FinishClass };
 type Photo = { id: string; kind: "before" | "after"; thumbUrl: string };
 
 const SURFACE_LABELS: Record<string, string> = { top: "Top", edges: "Edges", base: "Base" };
 
-function uploadPhoto(visitId: string, file: File, kind: "before" | "after", onProgress: (pct: number) => void): Promise<Photo> {
-  return new Promise((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open("POST", `/api/visits/${visitId}/photos`);
-    xhr.upload.onprogress = (e) => e.lengthComputable && onProgress(Math.round((e.loaded / e.total) * 100));
-    xhr.onload = () => {
-      const body = (() => {
-        try {
-          return JSON.parse(xhr.responseText);
-        } catch {
-          return {};
-        }
-      })();
-      if (xhr.status === 201) resolve({ id: body.id, kind, thumbUrl: body.thumbUrl });
-      else reject(new Error(body.error?.message ?? `Upload failed (${xhr.status}).`));
-    };
-    xhr.onerror = () => reject(new Error("The upload was interrupted. Check the connection and try again."));
-    const form = new FormData();
-    form.set("file", file);
-    form.set("kind", kind);
-    xhr.send(form);
-  });
+/** Uploads one before/after photo; `onProgress` gets whole percent. */
+async function uploadPhoto(visitId: string, file: File, kind: "before" | "after", onProgress: (pct: number) => void): Promise<Photo> {
+  const form = new FormData();
+  form.set("file", file);
+  form.set("kind", kind);
+  const body = await uploadForm<{ id: string; thumbUrl: string }>(`/api/visits/${visitId}/photos`, form, (f) => onProgress(Math.round(f * 100)));
+  return { id: body.id, kind, thumbUrl: body.thumbUrl };
 }
 
 /** The visit report: what was done, new finish layers, before/after photos, the owner's sign-off. */
@@ -74,7 +59,7 @@ export function VisitReportForm({ visitId, products, today, defaultClass, initia
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     try {
-      await visitApi(`/api/visits/${visitId}/report`, "POST", { ...values, layers: values.layers.map((l) => ({ ...l, productId: l.productId || null })) });
+      await apiJson(`/api/visits/${visitId}/report`, { method: "POST", json: { ...values, layers: values.layers.map((l) => ({ ...l, productId: l.productId || null })) } });
       toast.success("Report filed. The owner gets a summary by e-mail.");
       router.refresh();
     } catch (e) {

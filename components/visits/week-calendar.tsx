@@ -14,7 +14,7 @@ import { Notice } from "@/components/ui/notice";
 import { addDays, localDateTime, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
 import type { VisitEditFormValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { isApiError, visitApi } from "./api";
+import { apiJson, isApiError } from "@/components/api-client";
 
 type CalVisit = { id: string; jobId: string; technicianId: string; technicianName: string; start: string; end: string; state: "booked" | "done" | "cancelled"; jobTitle: string; pieceTitle: string; ownerName: string | null; location: string; version: number };
 type Tech = { id: string; name: string };
@@ -47,18 +47,18 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
   const key = ["visits", tech, from, to];
   const visits = useQuery({
     queryKey: key,
-    queryFn: () => visitApi<{ visits: CalVisit[] }>(`/api/visits?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}${tech ? `&technician=${tech}` : ""}`, "GET").then((r) => r.visits),
+    queryFn: () => apiJson<{ visits: CalVisit[] }>(`/api/visits?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}${tech ? `&technician=${tech}` : ""}`).then((r) => r.visits),
   });
   const techIndex = new Map(technicians.map((t, i) => [t.id, i]));
 
   const move = useMutation({
-    mutationFn: (v: { id: string; start: string; technicianId?: string }) => visitApi<{ visit: CalVisit }>(`/api/visits/${v.id}`, "PATCH", { start: v.start, technicianId: v.technicianId }),
+    mutationFn: (v: { id: string; start: string; technicianId?: string }) => apiJson<{ visit: CalVisit }>(`/api/visits/${v.id}`, { method: "PATCH", json: { start: v.start, technicianId: v.technicianId } }),
     onSuccess: () => toast.success("Visit moved; the owner gets the updated invite."),
     onError: (e) => toast.error(isApiError(e) ? e.message : "Couldn't move the visit."),
     onSettled: () => client.invalidateQueries({ queryKey: ["visits"] }),
   });
   const cancel = useMutation({
-    mutationFn: (id: string) => visitApi(`/api/visits/${id}/cancel`, "POST", {}),
+    mutationFn: (id: string) => apiJson(`/api/visits/${id}/cancel`, { method: "POST", json: {} }),
     onSuccess: () => {
       toast.success("Visit cancelled; the owner gets the cancellation.");
       setCancelling(null);
@@ -209,7 +209,7 @@ function EditVisit({ visit, technicians, timeZone, onClose, onCancel, onMoved }:
     setError(null);
     try {
       const start = new Date(zonedTimeToEpochMs(v.date, parseHhMm(v.time), timeZone)).toISOString();
-      await visitApi(`/api/visits/${visit.id}`, "PATCH", { start, technicianId: v.technicianId });
+      await apiJson(`/api/visits/${visit.id}`, { method: "PATCH", json: { start, technicianId: v.technicianId } });
       toast.success("Visit moved; the owner gets the updated invite.");
       onMoved();
       onClose();
