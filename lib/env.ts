@@ -19,6 +19,10 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default("Grainward <no-reply@grainward.example>"),
   /** HTTP read API of the local SMTP sink; only the development outbox uses it. */
   MAIL_SINK_URL: z.url().default("http://127.0.0.1:2526"),
+  /** Owners' e-mailed replies: the inbound SMTP listener (lib/mail/inbound.ts) and the domain of the reply addresses. */
+  INBOUND_SMTP_HOST: z.string().min(1).default("127.0.0.1"),
+  INBOUND_SMTP_PORT: port.default(2527),
+  INBOUND_MAIL_DOMAIN: z.string().min(3).default("reply.grainward.localhost"),
   /** Stripe: the real SDK; in development and tests it reaches the local fake (lib/fakes/stripe-fake.ts). */
   STRIPE_SECRET_KEY: z.string().startsWith("sk_", "STRIPE_SECRET_KEY starts with sk_").default("sk_test_grainward_demo"),
   STRIPE_WEBHOOK_SECRET: z.string().startsWith("whsec_", "STRIPE_WEBHOOK_SECRET starts with whsec_").default("whsec_grainward_demo"),
