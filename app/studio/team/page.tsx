@@ -5,6 +5,7 @@ import { MemberList } from "@/components/team/member-list";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
+import { formatInstant } from "@/lib/owner/format";
 import { listMembers, listOpenInvitations } from "@/lib/studio/team";
 import { changeRoleAction, inviteAction, removeMemberAction, revokeInvitationAction } from "./actions";
 
@@ -16,7 +17,6 @@ export default async function TeamPage() {
   const ctx = await forPage(requireAdmin);
   const members = listMembers(ctx);
   const invites = listOpenInvitations(ctx);
-  const until = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: ctx.studio.timeZone, timeZoneName: "short" });
   return (
     <>
       <PageHeader title="Team" lead="Who works in this studio on Grainward, and what each role can do. A studio always keeps at least one admin." />
@@ -38,7 +38,7 @@ export default async function TeamPage() {
           <Card>
             <h2 className="mb-3 font-semibold">Waiting to join</h2>
             <InvitationList
-              invitations={invites.map((i) => ({ id: i.id, email: i.email, roleLabel: ROLE_LABEL[i.role], until: until.format(i.expiresAt) }))}
+              invitations={invites.map((i) => ({ id: i.id, email: i.email, roleLabel: ROLE_LABEL[i.role], until: formatInstant(i.expiresAt, ctx.studio.timeZone, { time: true }) }))}
               revoke={revokeInvitationAction}
             />
           </Card>
