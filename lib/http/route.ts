@@ -10,7 +10,7 @@ export type ErrorBody = { error: { code: string; message: string; fieldErrors?: 
 
 export function errorResponse(e: AppError): NextResponse<ErrorBody> {
   const res = NextResponse.json(
-    { error: { code: e.code, message: e.message, ...(e.fieldErrors ? { fieldErrors: e.fieldErrors } : {}) } },
+    { ...e.extra, error: { code: e.code, message: e.message, ...(e.fieldErrors ? { fieldErrors: e.fieldErrors } : {}) } },
     { status: e.status },
   );
   if (e.retryAfterSec) res.headers.set("Retry-After", String(Math.ceil(e.retryAfterSec)));

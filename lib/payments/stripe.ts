@@ -2,7 +2,7 @@
 // fake (lib/fakes/stripe-fake.ts); in production leave it empty to reach Stripe itself.
 import Stripe from "stripe";
 import { env } from "@/lib/env";
-import { AppError } from "@/lib/errors";
+import { conflict, serviceUnavailable } from "@/lib/errors";
 
 let client: Stripe | undefined;
 
@@ -25,10 +25,10 @@ export async function callStripe<T>(what: string, fn: (stripe: Stripe) => Promis
     return await fn(getStripe());
   } catch (e) {
     if (e instanceof Stripe.errors.StripeConnectionError || e instanceof Stripe.errors.StripeAPIError) {
-      throw new AppError(503, "payment_service_unavailable", `The payment service can't be reached right now, so we couldn't ${what}. Nothing was charged; try again in a minute.`);
+      throw serviceUnavailable("payment_service_unavailable", `The payment service can't be reached right now, so we couldn't ${what}. Nothing was charged; try again in a minute.`);
     }
     if (e instanceof Stripe.errors.StripeError) {
-      throw new AppError(409, "payment_service_refused", `The payment service refused to ${what}: ${e.message}`);
+      throw conflict(`The payment service refused to ${what}: ${e.message}`, { code: "payment_service_refused" });
     }
     throw e;
   }

@@ -2,7 +2,7 @@
 // (a date past year 9999, a size of 0). Reaching it is a gap in a zod schema, not a server fault: the
 // route wrapper and validatedAction answer it as a 400 through this one mapping.
 import { CareInputError } from "@/lib/care/errors";
-import { AppError, isAppError } from "@/lib/errors";
+import { badRequest, isAppError, type AppError } from "@/lib/errors";
 
 const FIELD_WORDS: Record<string, string> = {
   date: "a date",
@@ -16,7 +16,7 @@ export function asAppError(e: unknown): AppError | undefined {
   if (isAppError(e)) return e;
   if (e instanceof CareInputError) {
     const what = (e.field && FIELD_WORDS[e.field.split(".").pop() ?? ""]) || "a value";
-    return new AppError(400, "out_of_range", `We can't work with ${what} that far out. Check the dates and sizes and try again.`);
+    return badRequest(`We can't work with ${what} that far out. Check the dates and sizes and try again.`, undefined, "out_of_range");
   }
   return undefined;
 }
