@@ -141,13 +141,23 @@ export function getSpecies(id: string): Species | undefined {
 }
 
 /**
+ * `readAs`: read as that species, saying so in `note`; where a form can ask instead (a CSV row, which
+ * cannot show a note), `pick` names the choices and the question. `ask`: the user must pick.
+ */
+type TradeName = { readAs: string; note: string; pick?: { choices: readonly string[]; question: string } } | { ask: readonly string[]; question: string };
+
+/**
  * Trade names that hide a bigger-moving wood. Either the name is read as the larger-moving species and
  * the result says so (`readAs` + `note`), or the user must pick (`ask`). Words for staff; no sources.
  */
-export const TRADE_NAMES: Readonly<Record<string, { readAs: string; note: string } | { ask: readonly string[]; question: string }>> = {
+export const TRADE_NAMES: Readonly<Record<string, TradeName>> = {
   hickory: {
     readAs: "true_hickory",
     note: "“Hickory” was read as true hickory, which moves about 30 % more across the grain than pecan hickory. Pick pecan hickory if the wood is pecan.",
+    pick: {
+      choices: ["true_hickory", "pecan_hickory"],
+      question: "“Hickory” can mean a true hickory (shagbark, shellbark, mockernut, pignut) or pecan hickory; true hickories move about 30 % more across the grain. Which one is it?",
+    },
   },
   "northern red oak": {
     readAs: "red_oak",
@@ -178,7 +188,7 @@ export const TRADE_NAMES: Readonly<Record<string, { readAs: string; note: string
 };
 
 export type SpeciesMatch =
-  | { status: "found"; species: Species; note?: string }
+  | { status: "found"; species: Species; note?: string; pick?: { candidates: Species[]; question: string } }
   | { status: "ambiguous"; candidates: Species[]; question: string }
   | { status: "unknown" };
 
@@ -195,7 +205,10 @@ export function resolveSpecies(nameOrId: string): SpeciesMatch {
   if (direct) return { status: "found", species: direct };
   const trade = TRADE_BY_KEY.get(k);
   if (!trade) return { status: "unknown" };
-  if ("readAs" in trade) return { status: "found", species: BY_ID.get(trade.readAs)!, note: trade.note };
+  if ("readAs" in trade) {
+    const pick = trade.pick ? { candidates: trade.pick.choices.map((id) => BY_ID.get(id)!), question: trade.pick.question } : undefined;
+    return { status: "found", species: BY_ID.get(trade.readAs)!, note: trade.note, ...(pick ? { pick } : {}) };
+  }
   return { status: "ambiguous", candidates: trade.ask.map((id) => BY_ID.get(id)!), question: trade.question };
 }
 

@@ -3,7 +3,7 @@ import Papa from "papaparse";
 import { getDb } from "@/db/client";
 import type { StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
-import { findSpecies, getSpecies } from "@/lib/care/species";
+import { getSpecies, resolveSpecies } from "@/lib/care/species";
 import {
   FINISH_CLASSES,
   FINISH_CLASS_LABELS,
@@ -222,10 +222,21 @@ function ft2Area(raw: string | undefined): number | null | string {
   return typeof v === "number" ? Math.round(ft2ToM2(v) * 1e4) / 1e4 : v;
 }
 
-function species(raw: string): string {
-  const s = raw.trim();
-  if (!s) return "";
-  return getSpecies(s)?.id ?? findSpecies(s)?.id ?? s;
+/**
+ * A species column: an id, common name or alias (resolveSpecies). A trade name that can mean more than
+ * one wood ("hickory", "red cedar", "poplar", "tulipwood") is never mapped silently: the row is refused
+ * with the question and the values to write instead. An unknown name is passed on for the schema to refuse.
+ */
+function speciesCell(raw: string | undefined, column: string): { value: string; error?: string } {
+  const s = (raw ?? "").trim();
+  if (!s) return { value: "" };
+  const m = resolveSpecies(s);
+  if (m.status === "unknown") return { value: s };
+  if (m.status === "found" && !m.pick) return { value: m.species.id };
+  const pick = m.status === "ambiguous" ? { candidates: m.candidates, question: m.question } : m.pick!;
+  const choices = pick.candidates.map((c) => `${c.id} (${c.commonName})`);
+  const write = choices.length === 1 ? `If it is, write ${choices[0]} in ${column}.` : `Write one of these in ${column}: ${choices.slice(0, -1).join(", ")} or ${choices.at(-1)}.`;
+  return { value: s, error: `${pick.question} ${write}` };
 }
 
 const FIELD_TO_COLUMN: Record<string, string> = {
@@ -280,6 +291,8 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
       const width = lengthFrom(r, "width_mm");
       const diameter = lengthFrom(r, "diameter_mm");
       const thickness = lengthFrom(r, "thickness_mm");
+      const primary = speciesCell(r.primary_species, "primary_species");
+      const secondary = speciesCell(r.secondary_species, "secondary_species");
       const candidate = {
         title: r.title ?? "",
         kind: enumValue(r.kind ?? "", PIECE_KINDS, PIECE_KIND_LABELS),
@@ -289,8 +302,8 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
         diameterMm: diameter.value,
         measuredAreaM2: num(r.area_m2) ?? ft2Area(r.area_ft2),
         thicknessMm: thickness.value,
-        primarySpeciesId: species(r.primary_species ?? ""),
-        secondarySpeciesId: species(r.secondary_species ?? "") || null,
+        primarySpeciesId: primary.value,
+        secondarySpeciesId: secondary.value || null,
         resinKind: enumValue(r.resin ?? "", RESIN_KINDS, RESIN_LABELS) || "none",
         resinPouredOn: r.resin_poured_on || null,
         resinVolumeMl: num(r.resin_volume_ml),
@@ -307,7 +320,7 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
       const result = createPieceSchema.safeParse(candidate);
       const rowErrors: ImportError[] = [];
       if (stack.error) rowErrors.push({ row: rowNo, field: "finish_stack", message: stack.error });
-      for (const [column, l] of [["length_mm", length], ["width_mm", width], ["diameter_mm", diameter], ["thickness_mm", thickness]] as const) {
+      for (const [column, l] of [["length_mm", length], ["width_mm", width], ["diameter_mm", diameter], ["thickness_mm", thickness], ["primary_species", primary], ["secondary_species", secondary]] as const) {
         if (l.error) rowErrors.push({ row: rowNo, field: column, message: l.error });
       }
       for (const e of implausibleSizes(String(candidate.kind), { lengthMm: candidate.lengthMm, widthMm: candidate.widthMm, diameterMm: candidate.diameterMm, thicknessMm: candidate.thicknessMm })) {
@@ -317,6 +330,7 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
         for (const issue of result.error.issues) {
           const [first, idx, sub] = issue.path.map(String);
           const column = FIELD_TO_COLUMN[first ?? ""] ?? first ?? "row";
+          if (column.endsWith("_species") && rowErrors.some((e) => e.field === column)) continue; // already asked which wood
           const where = first === "layers" && idx !== undefined ? ` (layer ${Number(idx) + 1}${sub ? `, ${sub}` : ""})` : "";
           const given = first && first !== "layers" ? (candidate as Record<string, unknown>)[first] : undefined;
           const shown = typeof given === "string" && given && issue.code !== "custom" ? ` — got "${given.slice(0, 40)}"` : "";

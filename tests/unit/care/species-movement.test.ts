@@ -40,6 +40,9 @@ describe("trade names that hide bigger movement", () => {
     const pecan = getSpecies("pecan_hickory")!;
     expect(m.species.tangentialCoefficient / pecan.tangentialCoefficient).toBeGreaterThan(1.25);
     expect(findSpecies("pecan")?.id).toBe("pecan_hickory");
+    // Where a form can ask instead (a CSV row), the choices and the question come with it.
+    expect(m.pick?.candidates.map((s) => s.id)).toEqual(["true_hickory", "pecan_hickory"]);
+    expect(m.pick?.question).toMatch(/Which one is it\?$/);
   });
 
   it.each(["red cedar", "cedar", "poplar", "tulipwood"])("“%s” asks the user to pick", (name) => {
