@@ -195,7 +195,8 @@ const png = { name: "matrix.png", mimeType: "image/png", buffer: Buffer.from("89
 const validLayer = { surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2026-02-02" };
 const jobQuote = { title: "Matrix check (never saved)", tasks: ["reoil"], productIds: [], coats: 1, travel: false, coveredPct: 0 };
 const noCoverPolicy = {
-  effectiveFrom: "2000-01-01",
+  // A year back: inside the policy date range (ten years back to two ahead), whatever day the suite runs.
+  effectiveFrom: new Date(Date.now() - 365 * 86_400_000).toISOString().slice(0, 10),
   lines: Object.fromEntries(
     CLAIM_CATEGORIES.map((c) => [c, { covered: false, label: "", termMonths: 12, exclusions: [], careLogRequired: false, graceDays: 0, onMissed: "not_covered", climateCheck: false, partlyCoveredPct: 50, transfersToNewOwner: false }]),
   ),
@@ -289,6 +290,13 @@ const ROUTES: RouteRow[] = [
     send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/decision`, { data: { decision: "declined", reason: "Matrix check, never applied." } }),
   },
   { route: "POST /api/claims/[id]/state", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/state`, { data: { to: "accepted" } }) },
+  // The claim is declined, so its studio's staff get past the guard to the refusal: no job is made.
+  {
+    route: "POST /api/claims/[id]/job",
+    expect: "401 403 403 403 409 409 404 404",
+    messages: { "409": /^Only an accepted claim becomes a repair job\.$/ },
+    send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/job`),
+  },
   // requestInfo: the owner may see the claim but not ask for information (403); staff can't reopen a declined claim (409).
   {
     route: "POST /api/claims/[id]/messages",
