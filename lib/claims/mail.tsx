@@ -7,6 +7,7 @@ import { ClaimMessageEmail, claimMessageSubject } from "@/emails/claim-message";
 import { ClaimReceivedEmail, claimReceivedSubject } from "@/emails/claim-received";
 import { env } from "@/lib/env";
 import { sendMail, type SendMailInput } from "@/lib/mail";
+import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { CLAIM_CATEGORY_LABELS } from "./labels";
 
 // Claim mail is transactional: it goes to the owner whatever their reminder preferences are.
@@ -28,15 +29,11 @@ export function studioRecipients(studio: Pick<Studio, "id" | "email">): string[]
     .map((r) => r.email);
 }
 
-/** Mail must not undo the change it reports: sendMail queues what SMTP refuses, and anything else it throws is logged. */
+/** Sent after the claim change is committed (lib/mail/after-commit.ts); no recipients, no mail. */
 async function send(input: SendMailInput): Promise<void> {
   const to = Array.isArray(input.to) ? input.to : [input.to];
   if (to.length === 0) return;
-  try {
-    await sendMail(input);
-  } catch (e) {
-    console.error(`claim mail "${input.subject}" to ${to.join(", ")} failed`, e);
-  }
+  await mailAfterCommit(`claim mail "${input.subject}" to ${to.join(", ")}`, () => sendMail(input));
 }
 
 export async function mailClaimReceived({ claim, piece, studio, owner }: { claim: Claim; piece: Piece; studio: Studio; owner: Person }) {

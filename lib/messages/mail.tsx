@@ -4,6 +4,7 @@ import type { Studio } from "@/db/schema";
 import { studioRecipients } from "@/lib/claims/mail";
 import { env } from "@/lib/env";
 import { sendMail } from "@/lib/mail";
+import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { replyAddress } from "./reply-address";
 
 // Mail about repair-job and visit threads (claim threads mail through lib/claims/mail.tsx). It goes
@@ -14,18 +15,10 @@ const ABOUT = { job: "repair job", visit: "visit" } as const;
 
 export type ThreadMailFacts = { threadId: string; kind: "job" | "visit"; jobId: string; studio: Pick<Studio, "id" | "name" | "email">; pieceTitle: string; owner: { name: string; email: string } };
 
-export async function mailSafely(what: string, send: () => Promise<unknown>): Promise<void> {
-  try {
-    await send();
-  } catch (e) {
-    console.error(`thread mail (${what}) failed`, e);
-  }
-}
-
 /** A staff message to the owner, with the thread's own Reply-To so that an answer by e-mail lands in the thread. */
 export async function mailOwner(f: ThreadMailFacts, authorName: string, body: string): Promise<void> {
   const props = { audience: "owner", authorName, studioName: f.studio.name, pieceTitle: f.pieceTitle, about: ABOUT[f.kind], body } as const;
-  await mailSafely("to the owner", () =>
+  await mailAfterCommit("thread message to the owner", () =>
     sendMail({
       studioId: f.studio.id,
       to: f.owner.email,
@@ -41,7 +34,7 @@ export async function mailStudio(f: ThreadMailFacts, body: string): Promise<void
   const to = studioRecipients(f.studio);
   if (to.length === 0) return;
   const props = { audience: "studio", authorName: f.owner.name, studioName: f.studio.name, pieceTitle: f.pieceTitle, about: ABOUT[f.kind], body } as const;
-  await mailSafely("to the studio", () =>
+  await mailAfterCommit("thread message to the studio", () =>
     sendMail({
       studioId: f.studio.id,
       to,
