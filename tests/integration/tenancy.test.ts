@@ -1,57 +1,81 @@
-// Studio scoping of the lib/ queries: another studio's piece is a 404, never a leak; the outbox shows
-// a studio only its own mail.
+// Studio scoping of the live queries behind the registry, the piece page, the overview and the
+// owner's list: another studio's piece is a 404 and never turns up in a list, a search or a count;
+// the outbox shows a studio only its own mail.
 import { describe, expect, it } from "vitest";
 import { requestPasswordReset } from "@/lib/auth/accounts";
 import { AppError } from "@/lib/errors";
 import { listOutbox } from "@/lib/mail/outbox";
+import { getOverview } from "@/lib/overview";
+import { getMyPiece, listMyPieces } from "@/lib/owner/pieces";
 import { releasePiece } from "@/lib/owner/transfer";
-import { getStudioPiece, listOwnerPieces, listStudioPieces, studioCounts } from "@/lib/pieces/queries";
+import { createPiece as recordPiece, getPieceDetail, listPieces } from "@/lib/pieces/registry";
 import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
 
+function statusOf(fn: () => unknown): number | "ok" {
+  try {
+    fn();
+    return "ok";
+  } catch (e) {
+    if (e instanceof AppError) return e.status;
+    throw e;
+  }
+}
+
+// A fixed instant: the pieces are delivered in 2025, the overview counts every delivered piece.
+const NOW = new Date("2026-03-02T12:00:00Z");
+
 describe("studio scoping", () => {
-  it("staff of one studio cannot read another studio's piece by id", async () => {
+  it("staff of one studio cannot read another studio's piece by id, find it by title or code, or count it", async () => {
     const a = createStudio({ name: "Studio A (invented)" });
     const b = createStudio({ name: "Studio B (invented)" });
-    const { piece } = createPiece(a);
     const staffA = await memberContext(a, "staff");
     const staffB = await memberContext(b, "staff");
+    // Recorded the way staff record a piece, so it is in the search index too.
+    const record = (ctx: typeof staffA, title: string) =>
+      recordPiece(ctx, { kind: "console", title, shapeKind: "rectangle", lengthMm: 1800, widthMm: 450, primarySpeciesId: "black_cherry", use: "moderate", deliveredOn: "2025-02-01", layers: [{ surface: "top", finishClass: "paste_wax", coats: 2, appliedOn: "2025-01-30" }] });
+    const { piece, registrationCode: code } = record(staffA, "Quillfern sideboard (invented)");
+    record(staffB, "Studio B bench (invented)");
 
-    expect(getStudioPiece(staffA, piece.id).id).toBe(piece.id);
-    let caught: unknown;
-    try {
-      getStudioPiece(staffB, piece.id);
-    } catch (e) {
-      caught = e;
+    expect(getPieceDetail(staffA, piece.id, NOW).piece.id).toBe(piece.id);
+    expect(statusOf(() => getPieceDetail(staffB, piece.id, NOW))).toBe(404);
+
+    // The registry: the plain list, the full-text search, the typed registration code.
+    for (const q of ["", "Quillfern", code]) {
+      expect(listPieces(staffA, { q }, NOW).rows.map((r) => r.id)).toContain(piece.id);
+      expect(listPieces(staffB, { q }, NOW).rows.map((r) => r.id)).not.toContain(piece.id);
     }
-    expect(caught).toBeInstanceOf(AppError);
-    expect((caught as AppError).status).toBe(404);
+    expect(listPieces(staffB, { q: "Quillfern" }, NOW).total).toBe(0);
 
-    expect(listStudioPieces(staffB).map((p) => p.id)).not.toContain(piece.id);
-    expect(studioCounts(staffB).delivered).toBe(0);
-    expect(studioCounts(staffA).delivered).toBe(1);
+    expect(getOverview(staffA, NOW).pieces.delivered).toBe(1);
+    expect(getOverview(staffB, NOW).pieces.delivered).toBe(1);
   });
 
   it("never hands out the registration code's hash or sealed copy with a piece", async () => {
     const a = createStudio();
     const { piece, code } = createPiece(a);
     const staff = await memberContext(a, "admin");
-    const read = getStudioPiece(staff, piece.id);
-    expect(JSON.stringify(read)).not.toContain(piece.registrationCodeHash);
-    expect(JSON.stringify(read)).not.toContain(code);
-    expect(read).not.toHaveProperty("registrationCodeEnc");
+    const read = JSON.stringify(getPieceDetail(staff, piece.id, NOW));
+    expect(read).not.toContain(piece.registrationCodeHash);
+    expect(read).not.toContain(piece.registrationCodeEnc);
+    expect(read).not.toContain(code);
+    const listed = JSON.stringify(listPieces(staff, {}, NOW));
+    expect(listed).not.toContain(piece.registrationCodeHash);
+    expect(listed).not.toContain(code);
   });
 
-  it("an owner sees only their own pieces, from every studio", async () => {
+  it("an owner sees only their own pieces, from every studio; another owner's piece is a 404", async () => {
     const a = createStudio();
     const b = createStudio();
-    const owner = await createUser();
-    const other = await createUser();
+    const owner = await createUser({ timeZone: "UTC" });
+    const other = await createUser({ timeZone: "UTC" });
     const mine1 = createPiece(a, { ownerId: owner.id }).piece;
     const mine2 = createPiece(b, { ownerId: owner.id }).piece;
-    createPiece(a, { ownerId: other.id });
-    const ids = listOwnerPieces({ id: owner.id } as never).map((p) => p.id).sort();
+    const theirs = createPiece(a, { ownerId: other.id }).piece;
+    const ids = listMyPieces(owner, NOW).map((p) => p.id).sort();
     expect(ids).toEqual([mine1.id, mine2.id].sort());
+    expect(statusOf(() => getMyPiece(owner, mine1.id, NOW))).toBe("ok");
+    expect(statusOf(() => getMyPiece(owner, theirs.id, NOW))).toBe(404);
   });
 });
 
