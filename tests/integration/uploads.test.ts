@@ -228,14 +228,14 @@ describe("expensive images", () => {
     expect(png.byteLength).toBeLessThan(10_000);
     // Fill the uploader's own queue with slow images first: the refusal must not wait behind them.
     const slow = hugeBlankPng(5000, 4900); // 24.5 MP, accepted
-    const busy = Array.from({ length: IMAGE_QUEUE.PER_ACCOUNT }, () => storeImage(slow, "flooder-39").catch((e: unknown) => e));
-    const t = performance.now();
+    let settled = 0;
+    const busy = Array.from({ length: IMAGE_QUEUE.PER_ACCOUNT }, () => storeImage(slow, "flooder-39").catch((e: unknown) => e).finally(() => settled++));
     const e = await caught(storeImage(png, "flooder-39"));
-    const ms = performance.now() - t;
     expect(e.status).toBe(422);
     expect(e.code).toBe("image_too_large");
     expect(e.message).toMatch(/more than 25 megapixels/);
-    expect(ms).toBeLessThan(500);
+    // Refused from the header: the answer came before any of the slow decodes queued ahead of it ended.
+    expect(settled).toBe(0);
     expect(6250 * 6240).toBeGreaterThan(MAX_INPUT_PIXELS);
     await Promise.all(busy);
   });
