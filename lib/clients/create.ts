@@ -6,6 +6,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
 import { AppError } from "@/lib/errors";
 import type { CreateClientValues } from "@/lib/validation/clients";
+import type { DbOrTx } from "@/lib/pieces/search-index";
 import { emailTaken } from "./access";
 import { applyConsentChanges } from "./consent";
 import { toE164 } from "./phone";
@@ -18,50 +19,53 @@ export const emailTakenError = () =>
  * here yet, the two are linked, and the account's pieces of this studio point at the new client.
  */
 export function createClient(ctx: StudioContext, values: CreateClientValues, now = new Date()): Client {
+  return getDb().transaction((tx) => insertClient(ctx, tx, values, now));
+}
+
+/** createClient inside the caller's transaction (a piece recorded with a new buyer). */
+export function insertClient(ctx: StudioContext, tx: DbOrTx, values: CreateClientValues, now = new Date()): Client {
   const phone = toE164(values.phone, ctx.studio.country);
   const email = values.email || null;
-  return getDb().transaction((tx) => {
-    if (email && emailTaken(ctx.studio.id, email, null, tx)) throw emailTakenError();
-    const account = email
-      ? tx
-          .select({ id: users.id })
-          .from(users)
-          .where(and(eq(users.email, email), isNotNull(users.emailVerifiedAt)))
-          .get()
-      : undefined;
-    const accountFree = account && !tx.select({ id: clients.id }).from(clients).where(and(eq(clients.studioId, ctx.studio.id), eq(clients.userId, account.id))).get();
-    const created = tx
-      .insert(clients)
-      .values({
-        studioId: ctx.studio.id,
-        name: values.name,
-        email,
-        phone,
-        address: values.address,
-        preferredContact: values.preferredContact,
-        timeZone: values.timeZone || null,
-        notes: values.notes,
-        userId: accountFree ? account.id : null,
-        createdAt: now,
-        updatedAt: now,
-      })
-      .returning()
-      .get();
-    if (created.userId) {
-      tx.update(pieces)
-        .set({ clientId: created.id })
-        .where(and(eq(pieces.studioId, ctx.studio.id), eq(pieces.ownerId, created.userId), isNull(pieces.clientId)))
-        .run();
-    }
-    const consent = applyConsentChanges(tx, created, values.consent, { userId: ctx.user.id, timeZone: ctx.studio.timeZone, now });
-    recordAudit(tx, {
+  if (email && emailTaken(ctx.studio.id, email, null, tx)) throw emailTakenError();
+  const account = email
+    ? tx
+        .select({ id: users.id })
+        .from(users)
+        .where(and(eq(users.email, email), isNotNull(users.emailVerifiedAt)))
+        .get()
+    : undefined;
+  const accountFree = account && !tx.select({ id: clients.id }).from(clients).where(and(eq(clients.studioId, ctx.studio.id), eq(clients.userId, account.id))).get();
+  const created = tx
+    .insert(clients)
+    .values({
       studioId: ctx.studio.id,
-      actorId: ctx.user.id,
-      action: "client.created",
-      subjectType: "client",
-      subjectId: created.id,
-      data: { linkedAccount: !!created.userId, consent },
-    });
-    return tx.select().from(clients).where(eq(clients.id, created.id)).get()!;
+      name: values.name,
+      email,
+      phone,
+      address: values.address,
+      preferredContact: values.preferredContact,
+      timeZone: values.timeZone || null,
+      notes: values.notes,
+      userId: accountFree ? account.id : null,
+      createdAt: now,
+      updatedAt: now,
+    })
+    .returning()
+    .get();
+  if (created.userId) {
+    tx.update(pieces)
+      .set({ clientId: created.id })
+      .where(and(eq(pieces.studioId, ctx.studio.id), eq(pieces.ownerId, created.userId), isNull(pieces.clientId)))
+      .run();
+  }
+  const consent = applyConsentChanges(tx, created, values.consent, { userId: ctx.user.id, timeZone: ctx.studio.timeZone, now });
+  recordAudit(tx, {
+    studioId: ctx.studio.id,
+    actorId: ctx.user.id,
+    action: "client.created",
+    subjectType: "client",
+    subjectId: created.id,
+    data: { linkedAccount: !!created.userId, consent },
   });
+  return tx.select().from(clients).where(eq(clients.id, created.id)).get()!;
 }

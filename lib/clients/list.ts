@@ -44,6 +44,12 @@ function searchWhere(q: string, country: string): SQL | undefined {
 const FILTERS: Record<NonNullable<ClientListQuery["filter"]>, SQL> = {
   account: sql`c.user_id IS NOT NULL`,
   unregistered: sql`EXISTS (SELECT 1 FROM pieces p WHERE p.client_id = c.id AND p.owner_id IS NULL AND p.archived_at IS NULL)`,
+  // The hand-over mail went out for a piece of theirs that nobody has registered yet.
+  invited: sql`EXISTS (SELECT 1 FROM piece_handovers h JOIN pieces p ON p.id = h.piece_id
+    WHERE h.studio_id = c.studio_id AND h.client_id = c.id AND h.last_sent_at IS NOT NULL AND p.owner_id IS NULL AND p.archived_at IS NULL)`,
+  // Care reminders are paused on a piece of theirs, or switched off in their account.
+  paused: sql`(EXISTS (SELECT 1 FROM pieces p WHERE p.client_id = c.id AND p.reminders_paused = 1 AND p.archived_at IS NULL)
+    OR EXISTS (SELECT 1 FROM users u WHERE u.id = c.user_id AND u.reminders_enabled = 0))`,
   open_claims: sql`c.user_id IS NOT NULL AND EXISTS (SELECT 1 FROM claims k WHERE k.owner_id = c.user_id AND k.studio_id = c.studio_id AND k.state IN (${OPEN}))`,
 };
 

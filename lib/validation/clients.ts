@@ -4,6 +4,7 @@
 import { z } from "zod";
 import { CONSENT_SOURCES, CONTACT_METHODS } from "@/lib/clients/vocabulary";
 import { pastDate } from "./dates";
+import { createPieceSchema } from "./pieces";
 import { patchOf } from "./patch";
 
 function isTimeZone(tz: string): boolean {
@@ -68,7 +69,7 @@ export type ClientPatch = z.output<typeof clientPatchSchema>;
 export const clientFormSchema = clientFields;
 export type ClientFormInput = z.input<typeof clientFormSchema>;
 
-export const CLIENT_FILTERS = ["account", "unregistered", "open_claims"] as const;
+export const CLIENT_FILTERS = ["account", "invited", "unregistered", "open_claims", "paused"] as const;
 export const CLIENT_SORTS = ["name", "newest", "updated"] as const;
 export const CLIENT_PAGE_SIZE = 50;
 
@@ -92,3 +93,36 @@ export const timelineQuerySchema = z.object({
 });
 
 export const clientIdParam = z.object({ id: z.string().min(1).max(64) });
+
+// ---- the buyer of a piece at delivery, and the hand-over mail ----
+
+export const BUYER_MODES = ["none", "existing", "new"] as const;
+
+/**
+ * The buyer fields of the new-piece form: nobody yet, a client of the studio, or a new client typed
+ * in the same form (their service-mail consent recorded as given in person). The hand-over mail goes
+ * out when asked and when the buyer has an e-mail and agreed to service mail.
+ */
+export const buyerFields = z
+  .object({
+    buyer: z.enum(BUYER_MODES, { message: "Pick who bought the piece." }).default("none"),
+    buyerClientId: z.string().trim().max(64).default(""),
+    buyerName: z.string().trim().max(200, "Keep the name under 200 characters.").default(""),
+    buyerEmail: clientFields.shape.email,
+    buyerPhone: clientFields.shape.phone,
+    buyerServiceMail: z.boolean().default(false),
+    sendHandover: z.boolean().default(true),
+  })
+  .superRefine((v, ctx) => {
+    if (v.buyer === "existing" && !v.buyerClientId) ctx.addIssue({ code: "custom", path: ["buyerClientId"], message: "Pick the client who bought it." });
+    if (v.buyer === "new" && !v.buyerName) ctx.addIssue({ code: "custom", path: ["buyerName"], message: "Enter the buyer's name." });
+  });
+export type BuyerValues = z.output<typeof buyerFields>;
+
+/** POST /api/pieces and the new-piece form: the piece, its first layers, and its buyer. */
+export const deliverPieceSchema = z.intersection(createPieceSchema, buyerFields);
+export type DeliverPieceInput = z.input<typeof deliverPieceSchema>;
+export type DeliverPieceValues = z.output<typeof deliverPieceSchema>;
+
+/** The hand-over link's token, as it arrives in the URL. */
+export const handoverTokenSchema = z.object({ token: z.string().trim().min(20, "That link is incomplete.").max(100, "That link is incomplete.") });

@@ -379,6 +379,9 @@ const ROUTES: RouteRow[] = [
   },
   // No file in the form: staff of the piece's studio reach the file check (400).
   { route: "POST /api/pieces/[id]/photos", expect: "401 403 403 403 400 400 404 404", before: throwaways, send: ({ api }) => api.post(`/api/pieces/${S.piece.id}/photos`, { multipart: { note: "no file" } }) },
+  // The hand-over mail: staff and admins of the piece's studio. The matrix's piece has no buyer, so sending is a 422.
+  { route: "GET /api/pieces/[id]/handover", expect: "401 403 403 403 200 200 404 404", before: throwaways, send: ({ api }) => api.get(`/api/pieces/${S.piece.id}/handover`) },
+  { route: "POST /api/pieces/[id]/handover", expect: "401 403 403 403 422 422 404 404", before: throwaways, send: ({ api }) => api.post(`/api/pieces/${S.piece.id}/handover`) },
   { route: "POST /api/pieces/[id]/registration-code", expect: "401 403 403 403 200 200 404 404", before: throwaways, send: ({ api }) => api.post(`/api/pieces/${S.piece.id}/registration-code`) },
 
   // The finish catalog: staff read it, admins change it. P is a throwaway product made in beforeAll.
@@ -495,6 +498,8 @@ const ACTIONS: ActionRow[] = [
   { action: "app/(public)/verify-email/sent/actions.ts#resendVerificationAction", expect: "401 ok ok ok ok ok ok ok", args: () => ({ json: [{}] }) },
   // A well-formed code that matches no piece: the signed-in get past the guard to the lookup.
   { action: "app/(owner)/register/actions.ts#registerAction", expect: "401 404 404 404 404 404 404 404", args: () => ({ json: [{ code: generateRegistrationCode() }] }) },
+  // A hand-over link nobody was sent: the signed-in get past the guard to the lookup.
+  { action: "app/(public)/hand-over/[token]/actions.ts#registerByHandoverAction", expect: "401 404 404 404 404 404 404 404", args: () => ({ json: [{ token: "matrix-not-a-real-hand-over-token" }] }) },
   {
     action: "app/(owner)/pieces/[id]/transfer/actions.ts#releaseAction",
     expect: "401 ok 404 404 404 404 404 404",

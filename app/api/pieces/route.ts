@@ -1,8 +1,9 @@
 import { NextResponse } from "next/server";
 import { requireStaff } from "@/lib/auth/guards";
 import { parseJson, route } from "@/lib/http/route";
-import { createPiece, listPieces } from "@/lib/pieces/registry";
-import { createPieceSchema } from "@/lib/validation/pieces";
+import { deliverPiece } from "@/lib/pieces/handover-delivery";
+import { listPieces } from "@/lib/pieces/registry";
+import { deliverPieceSchema } from "@/lib/validation/clients";
 
 export const GET = route(async (req) => {
   const ctx = await requireStaff();
@@ -11,6 +12,6 @@ export const GET = route(async (req) => {
 
 export const POST = route(async (req) => {
   const ctx = await requireStaff();
-  const body = await parseJson(req, createPieceSchema);
-  return NextResponse.json(createPiece(ctx, body), { status: 201 });
+  const body = await parseJson(req, deliverPieceSchema);
+  return NextResponse.json(await deliverPiece(ctx, body), { status: 201 });
 });
