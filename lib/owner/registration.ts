@@ -77,7 +77,14 @@ export async function lookupCard(typed: string, ip: string, viewer: Viewer): Pro
  * confirmed, 429 when rate-limited, 404 unknown, 409 already registered. One transaction: a
  * conditional update (`owner_id IS NULL`) whose changed-row count decides the winner.
  */
-export async function registerPiece(user: Pick<User, "id" | "emailVerifiedAt">, raw: unknown, ip: string, now = new Date()): Promise<{ pieceId: string }> {
+export async function registerPiece(
+  user: Pick<User, "id" | "emailVerifiedAt">,
+  raw: unknown,
+  ip: string,
+  now = new Date(),
+  /** The request's Accept-Language: an owner who has not chosen units gets them from its region (lib/owner/preferences). */
+  { acceptLanguage }: { acceptLanguage?: string | null } = {},
+): Promise<{ pieceId: string }> {
   const { code } = registrationSchema.parse(raw);
   if (!user.emailVerifiedAt) throw forbidden("Confirm your e-mail address first — open the link we sent you, then register the piece.");
   await consumeAttempt([
@@ -111,7 +118,7 @@ export async function registerPiece(user: Pick<User, "id" | "emailVerifiedAt">, 
     tx.insert(ownerships).values({ studioId: piece.studioId, pieceId: piece.id, userId: user.id, via, startedAt: now }).run();
     // The piece's client is now its owner's client in the studio (made if missing).
     linkPieceToOwner(tx, piece, user.id, now);
-    adoptStudioUnits(tx, user.id, piece.studioId, piece.id);
+    adoptStudioUnits(tx, user.id, piece.studioId, piece.id, acceptLanguage);
     recordAudit(tx, { studioId: piece.studioId, actorId: user.id, action: "piece.registered", subjectType: "piece", subjectId: piece.id, data: { via } });
     // The registry searches by owner name and e-mail.
     indexPiece(tx, piece.id);

@@ -9,6 +9,6 @@ import { registerPiece } from "@/lib/owner/registration";
 export const POST = route(async (req) => {
   const user = await requireUser();
   const body = await parseJson(req, z.unknown());
-  const result = await registerPiece(user, body, await clientIp());
+  const result = await registerPiece(user, body, await clientIp(), new Date(), { acceptLanguage: req.headers.get("accept-language") });
   return NextResponse.json(result, { status: 201 });
 });
