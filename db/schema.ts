@@ -484,24 +484,6 @@ export const claims = sqliteTable(
   (t) => [index("claims_studio_idx").on(t.studioId, t.state, t.createdAt), index("claims_owner_idx").on(t.ownerId), index("claims_piece_idx").on(t.pieceId)],
 );
 
-export const claimMessages = sqliteTable(
-  "claim_messages",
-  {
-    id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
-    claimId: text("claim_id")
-      .notNull()
-      .references(() => claims.id, { onDelete: "cascade" }),
-    authorId: text("author_id").references(() => users.id, { onDelete: "set null" }),
-    fromStudio: integer("from_studio", { mode: "boolean" }).notNull(),
-    body: text("body").notNull(),
-    createdAt: createdAt(),
-  },
-  (t) => [index("claim_messages_claim_idx").on(t.claimId, t.createdAt)],
-);
-
 export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
 
 
@@ -643,7 +625,6 @@ export const careLogEntriesRelations = relations(careLogEntries, ({ one }) => ({
 export const claimsRelations = relations(claims, ({ one, many }) => ({
   piece: one(pieces, { fields: [claims.pieceId], references: [pieces.id] }),
   owner: one(users, { fields: [claims.ownerId], references: [users.id] }),
-  messages: many(claimMessages),
   photos: many(files),
 }));
 
@@ -656,11 +637,6 @@ export const repairJobsRelations = relations(repairJobs, ({ one, many }) => ({
 
 export const paymentsRelations = relations(payments, ({ one }) => ({
   job: one(repairJobs, { fields: [payments.jobId], references: [repairJobs.id] }),
-}));
-
-export const claimMessagesRelations = relations(claimMessages, ({ one }) => ({
-  claim: one(claims, { fields: [claimMessages.claimId], references: [claims.id] }),
-  author: one(users, { fields: [claimMessages.authorId], references: [users.id] }),
 }));
 
 export const finishLayersRelations = relations(finishLayers, ({ one }) => ({
@@ -687,7 +663,6 @@ export type CareLogRow = typeof careLogEntries.$inferSelect;
 export type ReminderSend = typeof reminderSends.$inferSelect;
 export type RefreshOffer = typeof refreshOffers.$inferSelect;
 export type Claim = typeof claims.$inferSelect;
-export type ClaimMessage = typeof claimMessages.$inferSelect;
 export type RepairJob = typeof repairJobs.$inferSelect;
 export type Payment = typeof payments.$inferSelect;
 

@@ -4,12 +4,12 @@
 import { and, eq } from "drizzle-orm";
 import sharp from "sharp";
 import { claimCoverage } from "@/lib/claims/coverage";
+import { appendMessage, threadFor } from "@/lib/messages/store";
 import { storeImage } from "@/lib/storage";
 import type { Db } from "../client";
 import {
   auditLog,
   careLogEntries,
-  claimMessages,
   claims,
   files,
   finishLayers,
@@ -190,10 +190,9 @@ export async function seedClaims(db: Db, studioId: string, now = new Date()): Pr
         .returning()
         .get();
       for (const s of stored) tx.insert(files).values({ studioId, purpose: "claim_photo", pieceId: piece.id, claimId: claim.id, uploadedById: owner.id, createdAt, ...s }).run();
-      for (const m of spec.thread) {
-        tx.insert(claimMessages)
-          .values({ studioId, claimId: claim.id, authorId: m.fromStudio ? (staff?.id ?? null) : owner.id, fromStudio: m.fromStudio, body: m.body, createdAt: new Date(now.getTime() - m.hoursAgo * HOUR) })
-          .run();
+      for (const m of [...spec.thread].sort((a, b) => b.hoursAgo - a.hoursAgo)) {
+        const at = new Date(now.getTime() - m.hoursAgo * HOUR);
+        appendMessage(tx, threadFor(tx, { kind: "claim", id: claim.id }, at), { author: m.fromStudio ? "staff" : "owner", authorId: m.fromStudio ? (staff?.id ?? null) : owner.id, body: m.body, now: at });
       }
       tx.insert(auditLog).values({ studioId, actorId: owner.id, action: "claim.submitted", subjectType: "claim", subjectId: claim.id, data: { seeded: true }, createdAt }).run();
       if (spec.decision) {

@@ -7,6 +7,7 @@ import { ClaimMessageEmail, claimMessageSubject } from "@/emails/claim-message";
 import { ClaimReceivedEmail, claimReceivedSubject } from "@/emails/claim-received";
 import { env } from "@/lib/env";
 import { sendMail, type SendMailInput } from "@/lib/mail";
+import { replyToFor } from "@/lib/messages/store";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { CLAIM_CATEGORY_LABELS } from "./labels";
 
@@ -36,6 +37,9 @@ async function send(input: SendMailInput): Promise<void> {
   await mailAfterCommit(`claim mail "${input.subject}" to ${to.join(", ")}`, () => sendMail(input));
 }
 
+/** The owner's answer by e-mail lands in the claim's conversation (lib/messages, lib/mail/inbound.ts). */
+const threadReplyTo = (claim: Claim) => replyToFor(getDb(), { kind: "claim", id: claim.id });
+
 export async function mailClaimReceived({ claim, piece, studio, owner }: { claim: Claim; piece: Piece; studio: Studio; owner: Person }) {
   const common = {
     ownerName: owner.name,
@@ -45,7 +49,13 @@ export async function mailClaimReceived({ claim, piece, studio, owner }: { claim
     noticedOn: claim.noticedOn,
     description: claim.description,
   };
-  await send({ studioId: claim.studioId, to: owner.email, subject: claimReceivedSubject({ audience: "owner", ...common }), email: <ClaimReceivedEmail audience="owner" url={ownerUrl(claim.id)} {...common} /> });
+  await send({
+    studioId: claim.studioId,
+    to: owner.email,
+    replyTo: threadReplyTo(claim),
+    subject: claimReceivedSubject({ audience: "owner", ...common }),
+    email: <ClaimReceivedEmail audience="owner" url={ownerUrl(claim.id)} {...common} />,
+  });
   await send({
     studioId: claim.studioId,
     to: studioRecipients(studio),
@@ -61,6 +71,7 @@ export async function mailClaimMessage(p: { claim: Claim; piece: Piece; studio: 
   await send({
     studioId: p.claim.studioId,
     to: p.fromStudio ? p.owner.email : studioRecipients(p.studio),
+    replyTo: p.fromStudio ? threadReplyTo(p.claim) : p.owner.email,
     subject: claimMessageSubject(props),
     email: <ClaimMessageEmail {...props} url={p.fromStudio ? ownerUrl(p.claim.id) : staffUrl(p.claim.id)} />,
   });
@@ -71,6 +82,7 @@ export async function mailClaimDecision({ claim, piece, studio, owner }: { claim
   await send({
     studioId: claim.studioId,
     to: owner.email,
+    replyTo: threadReplyTo(claim),
     subject: claimDecisionSubject({ studioName: studio.name, pieceTitle: piece.title }),
     email: (
       <ClaimDecisionEmail

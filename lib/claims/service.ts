@@ -2,9 +2,9 @@ import "server-only";
 import { and, asc, count, desc, eq, gte, inArray, isNull, lt, sql, type SQL } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
+import { appendMessage, ownerMayWrite, subjectMessages, threadFor } from "@/lib/messages/store";
 import {
   careLogEntries,
-  claimMessages,
   claims,
   files,
   finishLayers,
@@ -246,15 +246,9 @@ export type StudioClaimList = ReturnType<typeof listStudioClaims>;
 
 // ---------------------------------------------------------------- one claim
 
+/** The claim's conversation (lib/messages: one thread per claim, also fed by e-mailed replies). */
 function messagesOf(claimId: string) {
-  return getDb()
-    .select({ id: claimMessages.id, body: claimMessages.body, fromStudio: claimMessages.fromStudio, createdAt: claimMessages.createdAt, authorName: users.name })
-    .from(claimMessages)
-    .leftJoin(users, eq(users.id, claimMessages.authorId))
-    .where(eq(claimMessages.claimId, claimId))
-    .orderBy(asc(claimMessages.createdAt))
-    .all()
-    .map((m) => ({ ...m, createdAt: m.createdAt.toISOString(), authorName: m.authorName ?? "" }));
+  return subjectMessages(getDb(), { kind: "claim", id: claimId }).map((m) => ({ id: m.id, body: m.body, fromStudio: m.author === "staff", createdAt: m.createdAt, authorName: m.authorName }));
 }
 
 function photosOf(claimId: string) {
@@ -390,6 +384,7 @@ export async function postClaimMessage(viewer: ClaimViewer, claimId: string, raw
   const input = claimMessageSchema.parse(raw);
   const { claim, asStaff } = loadVisibleClaim(viewer, claimId);
   if (claim.state === "closed") throw conflict("This claim is closed. Start a new claim if something else needs the studio's attention.");
+  if (!asStaff && !ownerMayWrite(getDb(), viewer.user.id, { kind: "claim", id: claim.id })) throw forbidden("The piece has a new owner now, so this claim takes no more messages from you.");
   if (input.requestInfo && !asStaff) throw forbidden("Only the studio asks for more information.");
   const now = new Date();
   const result = getDb().transaction((tx) => {
@@ -399,7 +394,8 @@ export async function postClaimMessage(viewer: ClaimViewer, claimId: string, raw
     else if (asStaff && !claim.firstAnsweredAt) {
       tx.update(claims).set({ firstAnsweredAt: now, updatedAt: now }).where(and(eq(claims.id, claim.id), isNull(claims.firstAnsweredAt))).run();
     }
-    const message = tx.insert(claimMessages).values({ studioId: claim.studioId, claimId: claim.id, authorId: viewer.user.id, fromStudio: asStaff, body: input.body, createdAt: now }).returning().get();
+    const added = appendMessage(tx, threadFor(tx, { kind: "claim", id: claim.id }, now), { author: asStaff ? "staff" : "owner", authorId: viewer.user.id, body: input.body, now })!;
+    const message = { ...added, body: input.body, fromStudio: asStaff };
     recordAudit(tx, {
       studioId: claim.studioId,
       actorId: viewer.user.id,

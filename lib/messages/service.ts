@@ -86,6 +86,14 @@ export function ownerConversations(user: Pick<User, "id">, where: { pieceId: str
   });
 }
 
+/** What the owner's job page shows: the messages about the job and its visits, and whether they may write. */
+export function ownerJobConversation(user: Pick<User, "id">, jobId: string) {
+  const messages = ownerConversations(user, { jobId })
+    .flatMap((c) => c.messages)
+    .sort((a, b) => a.createdAt.localeCompare(b.createdAt));
+  return { canWrite: ownerMayWrite(getDb(), user.id, { kind: "job", id: jobId }), messages };
+}
+
 // ---------------------------------------------------------------- the studio's inbox
 
 function studioThread(ctx: StudioContext, threadId: string): Thread {
@@ -110,6 +118,8 @@ export type InboxRow = {
   assignedToId: string | null;
   assignedToName: string | null;
   waitingSince: string | null;
+  /** How long the oldest unanswered owner message has waited, in ms (null: nothing waits). */
+  waitedMs: number | null;
   lastMessageAt: string;
   preview: string;
 };
@@ -119,7 +129,7 @@ export type UnmatchedRow = { id: string; reason: (typeof unmatchedMail.$inferSel
 const lastBody = sql<string>`(select ${threadMessages.body} from ${threadMessages} where ${threadMessages.threadId} = ${threads.id} order by ${threadMessages.createdAt} desc limit 1)`;
 
 /** The inbox: open threads (oldest waiting first), mine, all, done, or the e-mail that matched no thread. */
-export function listInbox(ctx: StudioContext, raw: unknown = {}) {
+export function listInbox(ctx: StudioContext, raw: unknown = {}, now = Date.now()) {
   const { view } = inboxQuerySchema.parse(raw);
   const db = getDb();
   const base = { studioId: ctx.studio.id, timeZone: ctx.studio.timeZone, view, unread: unreadCount(ctx), staff: studioStaff(ctx) };
@@ -142,7 +152,7 @@ export function listInbox(ctx: StudioContext, raw: unknown = {}) {
     .from(threads)
     .innerJoin(pieces, eq(pieces.id, threads.pieceId))
     .leftJoin(owner, eq(owner.id, threads.ownerId))
-    .where(and(eq(threads.studioId, ctx.studio.id), filter))
+    .where(and(eq(threads.studioId, ctx.studio.id), filter, exists(db.select({ one: sql`1` }).from(threadMessages).where(eq(threadMessages.threadId, threads.id)))))
     .orderBy(sql`${threads.waitingSince} IS NULL`, asc(threads.waitingSince), desc(threads.lastMessageAt))
     .limit(200)
     .all();
@@ -158,6 +168,7 @@ export function listInbox(ctx: StudioContext, raw: unknown = {}) {
     assignedToId: t.assignedToId,
     assignedToName: t.assignedToId ? (names.get(t.assignedToId) ?? null) : null,
     waitingSince: t.waitingSince?.toISOString() ?? null,
+    waitedMs: t.waitingSince ? now - t.waitingSince.getTime() : null,
     lastMessageAt: t.lastMessageAt.toISOString(),
     preview: (preview ?? "").slice(0, 160),
   }));
@@ -189,7 +200,15 @@ export function getThread(ctx: StudioContext, threadId: string, { markRead = fal
   const visitJobId = thread.visitId ? db.select({ jobId: visits.jobId }).from(visits).where(eq(visits.id, thread.visitId)).get()?.jobId : undefined;
   const subjectHref = thread.claimId ? `/studio/claims/${thread.claimId}` : `/studio/jobs/${thread.jobId ?? visitJobId}`;
   return {
-    thread: { id: thread.id, state: thread.state, about: thread.subject, assignedToId: thread.assignedToId, waitingSince: thread.waitingSince?.toISOString() ?? null, lastMessageAt: thread.lastMessageAt.toISOString() },
+    thread: {
+      id: thread.id,
+      state: thread.state,
+      about: thread.subject,
+      assignedToId: thread.assignedToId,
+      waitingSince: thread.waitingSince?.toISOString() ?? null,
+      waitedMs: thread.waitingSince ? Date.now() - thread.waitingSince.getTime() : null,
+      lastMessageAt: thread.lastMessageAt.toISOString(),
+    },
     piece,
     owner: owner ?? null,
     subjectHref,

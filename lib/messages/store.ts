@@ -8,6 +8,7 @@ import { and, asc, eq, ne, or, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { claims, pieces, repairJobs, threadMessages, threads, users, visits, type Thread, type THREAD_SUBJECTS } from "@/db/schema";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
+import { replyAddress } from "./reply-address";
 
 export type ThreadSubject = (typeof THREAD_SUBJECTS)[number];
 export type SubjectRef = { kind: ThreadSubject; id: string };
@@ -83,6 +84,14 @@ export function threadFor(tx: Tx, ref: SubjectRef, now: Date): Thread {
     .onConflictDoNothing()
     .run();
   return findThread(tx, ref)!;
+}
+
+/**
+ * The Reply-To for mail to the owner about a claim, job or visit: its thread's own address (the
+ * thread is made now if it has no messages yet; the inbox lists only threads with a message).
+ */
+export function replyToFor(tx: Tx, ref: SubjectRef): string {
+  return replyAddress(threadFor(tx, ref, new Date()).id);
 }
 
 export type NewMessage = {
