@@ -1,34 +1,25 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { ActionButton, LinkFallback } from "./components/button";
+import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
 
-export type JobQuoteEmailProps = {
+export type JobQuoteEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
   ownerName: string;
   studioName: string;
   pieceTitle: string;
-  lines: { description: string; amount: string }[];
-  covered: string | null;
-  tax: string;
-  total: string;
   fullyCovered: boolean;
   url: string;
 };
 
-export function JobQuoteEmail({ ownerName, studioName, pieceTitle, lines, covered, tax, total, fullyCovered, url }: JobQuoteEmailProps) {
+export function JobQuoteEmail({ ownerName, studioName, pieceTitle, fullyCovered, url, ...money }: JobQuoteEmailProps) {
   return (
-    <EmailLayout preview={fullyCovered ? `Your repair is covered: ${pieceTitle}` : `Your quote from ${studioName}: ${total}`} heading={fullyCovered ? "Your repair is covered" : "Your repair quote"}>
+    <EmailLayout preview={fullyCovered ? `Your repair is covered: ${pieceTitle}` : `Your quote from ${studioName}: ${money.total}`} heading={fullyCovered ? "Your repair is covered" : "Your repair quote"}>
       <Paragraph>Hi {ownerName},</Paragraph>
       <Paragraph>
         {studioName} has priced the work on <strong>{pieceTitle}</strong>:
       </Paragraph>
-      {lines.map((l) => (
-        <Paragraph key={l.description}>
-          {l.description}: {l.amount}
-        </Paragraph>
-      ))}
-      {covered ? <Paragraph>Covered by your warranty: −{covered}</Paragraph> : null}
-      <Paragraph>Tax: {tax}</Paragraph>
+      <MoneyLines {...money} totalLabel="To pay" />
       <Paragraph>
-        <strong>{fullyCovered ? "You pay nothing." : `To pay: ${total}`}</strong>
+        <strong>{fullyCovered ? "You pay nothing." : `To pay: ${money.total}`}</strong>
       </Paragraph>
       <ActionButton href={url}>{fullyCovered ? "See the job and book a visit" : "Review, approve and pay"}</ActionButton>
       <LinkFallback href={url} />
@@ -41,10 +32,15 @@ JobQuoteEmail.PreviewProps = {
   ownerName: "Jonah Reyes",
   studioName: "Larchmere Slab & Resin (invented)",
   pieceTitle: "Cherry writing desk",
-  lines: [{ description: "Re-wax — labour", amount: "85.00 USD" }],
+  lines: [{ description: "Crack or check fill", detail: "1 h × $85.00", amount: "$85.00" }],
+  subtotal: "$85.00",
   covered: null,
-  tax: "7.23 USD",
-  total: "92.23 USD",
+  net: "$85.00",
+  taxLabel: "Tax (8.5 %)",
+  tax: "$7.23",
+  total: "$92.23",
+  roundingNote: "Amounts are exact to the cent.",
+  taxNumber: null,
   fullyCovered: false,
   url: "http://localhost:3000/jobs/example",
 } satisfies JobQuoteEmailProps;

@@ -1,18 +1,35 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton } from "./components/button";
+import { ActionButton, LinkFallback } from "./components/button";
+import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
 
-export type PaymentReceiptEmailProps = { ownerName: string; studioName: string; pieceTitle: string; amount: string; paidOn: string; reference: string; url: string };
+export type PaymentReceiptEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
+  ownerName: string;
+  studioName: string;
+  studioAddress: string;
+  pieceTitle: string;
+  amount: string;
+  paidOn: string;
+  reference: string;
+  url: string;
+  pdfUrl: string;
+};
 
-export function PaymentReceiptEmail({ ownerName, studioName, pieceTitle, amount, paidOn, reference, url }: PaymentReceiptEmailProps) {
+export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, pieceTitle, amount, paidOn, reference, url, pdfUrl, ...money }: PaymentReceiptEmailProps) {
   return (
     <EmailLayout preview={`Receipt: ${amount} paid to ${studioName}`} heading="Payment received">
       <Paragraph>Hi {ownerName},</Paragraph>
       <Paragraph>
         Thank you — {studioName} received <strong>{amount}</strong> on {paidOn} for the work on <strong>{pieceTitle}</strong>.
       </Paragraph>
+      <MoneyLines {...money} totalLabel="Paid" />
       <Paragraph>Payment reference: {reference}</Paragraph>
+      <Note>
+        {studioName}
+        {studioAddress ? `, ${studioAddress}` : ""}
+      </Note>
       <ActionButton href={url}>Book your visit</ActionButton>
-      <Note>Keep this e-mail as your receipt.</Note>
+      <LinkFallback href={url} />
+      <Note>Keep this e-mail as your receipt. A PDF copy is on your job page (sign in first): {pdfUrl}</Note>
     </EmailLayout>
   );
 }
@@ -20,11 +37,22 @@ export function PaymentReceiptEmail({ ownerName, studioName, pieceTitle, amount,
 PaymentReceiptEmail.PreviewProps = {
   ownerName: "Jonah Reyes",
   studioName: "Larchmere Slab & Resin (invented)",
+  studioAddress: "12 Invented Lane, Portland OR",
   pieceTitle: "Cherry writing desk",
-  amount: "92.23 USD",
-  paidOn: "2026-12-01",
+  amount: "$92.23",
+  paidOn: "1 December 2026",
   reference: "pi_test_example",
+  lines: [{ description: "Crack or check fill", detail: "1 h × $85.00", amount: "$85.00" }],
+  subtotal: "$85.00",
+  covered: null,
+  net: "$85.00",
+  taxLabel: "Tax (8.5 %)",
+  tax: "$7.23",
+  total: "$92.23",
+  roundingNote: null,
+  taxNumber: "US-TAX-000 (invented)",
   url: "http://localhost:3000/jobs/example",
+  pdfUrl: "http://localhost:3000/api/jobs/example/receipt",
 } satisfies PaymentReceiptEmailProps;
 
 export default PaymentReceiptEmail;

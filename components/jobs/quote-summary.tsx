@@ -1,51 +1,57 @@
-import type { QuoteLine } from "@/lib/care/quote";
+import type { JobFigures } from "@/lib/repairs/figures";
 
-const fmt = (minor: number, currency: string) => new Intl.NumberFormat("en-US", { style: "currency", currency }).format(minor / 10 ** (currency === "JPY" ? 0 : 2));
-
-/** The quote's lines and totals, as the care engine computed them. */
-export function QuoteSummary({ lines, currency, subtotalMinor, coveredMinor, coveredPct, taxMinor, totalMinor }: { lines: QuoteLine[]; currency: string; subtotalMinor: number; coveredMinor: number; coveredPct: number; taxMinor: number; totalMinor: number }) {
+/** The quote's lines and totals as stored on the job (lib/repairs/figures writes the amounts). */
+export function QuoteSummary({ figures, totalLabel = "To pay", showProposed = false }: { figures: JobFigures; totalLabel?: string; showProposed?: boolean }) {
+  const f = figures;
   return (
-    <table className="w-full text-sm">
-      <caption className="sr-only">Quote lines and totals</caption>
-      <thead>
-        <tr className="border-b border-line text-left text-muted">
-          <th className="py-2 font-medium">Item</th>
-          <th className="py-2 text-right font-medium">Amount</th>
-        </tr>
-      </thead>
-      <tbody>
-        {lines.map((l, i) => (
-          <tr key={i} className="border-b border-line/60">
-            <td className="py-2">
-              {l.description}
-              <span className="block text-xs text-muted">
-                {l.quantity} {l.unit} × {fmt(l.unitPriceMinor, currency)}
-              </span>
-            </td>
-            <td className="py-2 text-right tabular-nums">{fmt(l.amountMinor, currency)}</td>
+    <div className="space-y-2">
+      <table className="w-full text-sm">
+        <caption className="sr-only">Quote lines and totals</caption>
+        <thead>
+          <tr className="border-b border-line text-left text-muted">
+            <th className="py-2 font-medium">Item</th>
+            <th className="py-2 text-right font-medium">Amount</th>
           </tr>
-        ))}
-      </tbody>
-      <tfoot>
-        <tr>
-          <td className="pt-3">Subtotal</td>
-          <td className="pt-3 text-right tabular-nums">{fmt(subtotalMinor, currency)}</td>
-        </tr>
-        {coveredMinor ? (
+        </thead>
+        <tbody>
+          {f.lines.map((l, i) => (
+            <tr key={i} className="border-b border-line/60">
+              <td className="py-2">
+                {l.description}
+                <span className="block text-xs text-muted">{l.quantityText}</span>
+                {showProposed && l.proposedText ? <span className="block text-xs text-muted">Changed from the {l.proposedText}</span> : null}
+              </td>
+              <td className="py-2 text-right tabular-nums">{l.amount}</td>
+            </tr>
+          ))}
+        </tbody>
+        <tfoot>
           <tr>
-            <td>Covered by the warranty ({coveredPct} %)</td>
-            <td className="text-right tabular-nums">−{fmt(coveredMinor, currency)}</td>
+            <td className="pt-3">Subtotal</td>
+            <td className="pt-3 text-right tabular-nums">{f.text.subtotal}</td>
           </tr>
-        ) : null}
-        <tr>
-          <td>Tax</td>
-          <td className="text-right tabular-nums">{fmt(taxMinor, currency)}</td>
-        </tr>
-        <tr className="text-base font-semibold">
-          <td className="pt-2">To pay</td>
-          <td className="pt-2 text-right tabular-nums">{fmt(totalMinor, currency)}</td>
-        </tr>
-      </tfoot>
-    </table>
+          {f.text.covered ? (
+            <tr>
+              <td>{f.coveredLabel}</td>
+              <td className="text-right tabular-nums">{f.text.covered}</td>
+            </tr>
+          ) : null}
+          <tr>
+            <td>Net</td>
+            <td className="text-right tabular-nums">{f.text.net}</td>
+          </tr>
+          <tr>
+            <td>{f.taxLabel}</td>
+            <td className="text-right tabular-nums">{f.text.tax}</td>
+          </tr>
+          <tr className="text-base font-semibold">
+            <td className="pt-2">{totalLabel}</td>
+            <td className="pt-2 text-right tabular-nums">{f.text.total}</td>
+          </tr>
+        </tfoot>
+      </table>
+      {f.roundingNote ? <p className="text-xs text-muted">{f.roundingNote}</p> : null}
+      {f.taxNumber ? <p className="text-xs text-muted">Tax number: {f.taxNumber}</p> : null}
+    </div>
   );
 }

@@ -10,6 +10,7 @@ const ITEMS = [
   { href: "/studio/settings/warranty", label: "Warranty policy" },
   { href: "/studio/settings/reminders", label: "Reminder timing" },
   { href: "/studio/settings/visits", label: "Visit booking" },
+  { href: "/studio/settings/repairs", label: "Repair prices and tax" },
   { href: "/studio/settings/emails", label: "E-mail previews" },
   { href: "/studio/catalog", label: "Finish catalog", away: true },
   { href: "/studio/team", label: "Team", away: true },

@@ -9,6 +9,7 @@ import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabul
 import { conflict, notFound } from "@/lib/errors";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { ownerJobWhere, type OwnerReach } from "./owner-reach";
+import { readLines } from "./lines";
 import { priceJob, totals } from "./pricing";
 import { assertMove } from "./states";
 
@@ -18,11 +19,11 @@ function studioProducts(studioId: string) {
   return getDb().select().from(finishProducts).where(and(eq(finishProducts.studioId, studioId), isNull(finishProducts.archivedAt))).all();
 }
 
-/** A first quote for a task kind: the studio's products of that finish class, one coat, travel on. */
-function defaultQuoteInput(title: string, tasks: CareTaskKind[], products: (typeof finishProducts.$inferSelect)[], coveredPct: number): JobQuoteInput {
-  const wanted = new Set(tasks);
+/** A first quote: maintenance tasks with the studio's products of their finish class, repairs from the price list, one coat, travel on. */
+function defaultQuoteInput(title: string, work: { tasks: CareTaskKind[]; repairs?: string[] }, products: (typeof finishProducts.$inferSelect)[], coveredPct: number): JobQuoteInput {
+  const wanted = new Set(work.tasks);
   const productIds = products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1);
-  return { title, tasks, productIds, coats: 1, travel: true, coveredPct, notes: "" };
+  return { title, tasks: work.tasks, repairs: work.repairs ?? [], productIds, coats: 1, travel: true, coveredPct, notes: "" };
 }
 
 /** Accepted claims and accepted refresh offers of the studio that have no job yet. */
@@ -47,11 +48,14 @@ export function jobsToCreate(ctx: StudioContext) {
   return { fromClaims, fromOffers };
 }
 
-const CLAIM_TASKS: Record<string, CareTaskKind[]> = {
-  finish_wear: ["reoil"],
-  finish_peeling: ["topcoat_refresh"],
-  resin_clouding: ["resin_polish"],
-  scratch_dent: ["reoil"],
+/** The work a claim's first quote proposes, by the claim's category (staff change it on the quote). */
+const CLAIM_WORK: Record<string, { tasks: CareTaskKind[]; repairs?: string[] }> = {
+  crack_gap: { tasks: [], repairs: ["crack_fill"] },
+  resin_clouding: { tasks: ["resin_polish"] },
+  finish_wear: { tasks: ["reoil"] },
+  finish_peeling: { tasks: ["topcoat_refresh"], repairs: ["spot_refinish"] },
+  structural: { tasks: [], repairs: ["base_fix"] },
+  scratch_dent: { tasks: ["reoil"], repairs: ["spot_refinish"] },
 };
 
 export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", sourceId: string): RepairJob {
@@ -66,7 +70,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.claimId, claim.id)).get()) throw conflict("This claim already has a repair job.");
       const piece = tx.select().from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
       const coveredPct = claim.decision === "covered" ? 100 : claim.decision === "partly_covered" ? (claim.coveredPct ?? 0) : 0;
-      const input = defaultQuoteInput(`Repair: ${piece.title}`, CLAIM_TASKS[claim.category] ?? ["annual_check"], products, coveredPct);
+      const input = defaultQuoteInput(`Repair: ${piece.title}`, CLAIM_WORK[claim.category] ?? { tasks: ["annual_check"] }, products, coveredPct);
       values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products)) };
     } else {
       const offer = tx.select().from(refreshOffers).where(and(eq(refreshOffers.id, sourceId), eq(refreshOffers.studioId, ctx.studio.id))).get();
@@ -75,7 +79,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.refreshOfferId, offer.id)).get()) throw conflict("This offer already has a repair job.");
       const piece = tx.select().from(pieces).where(eq(pieces.id, offer.pieceId)).get()!;
       const kind = offer.taskKey.split(":")[1] as CareTaskKind | undefined;
-      const input = defaultQuoteInput(`Refresh visit: ${piece.title}`, kind ? [kind] : ["annual_check"], products, 0);
+      const input = defaultQuoteInput(`Refresh visit: ${piece.title}`, { tasks: kind ? [kind] : ["annual_check"] }, products, 0);
       values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products)) };
     }
     const job = tx.insert(repairJobs).values(values).returning().get();
@@ -109,7 +113,7 @@ export function listOwnerJobs(user: Pick<User, "id">, filter: { state?: RepairJo
 
 function loadJob(where: ReturnType<typeof and>) {
   const row = getDb()
-    .select({ job: repairJobs, piece: pieces, studio: studios, owner: { id: users.id, name: users.name, email: users.email } })
+    .select({ job: repairJobs, piece: pieces, studio: studios, owner: { id: users.id, name: users.name, email: users.email, timeZone: users.timeZone } })
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .innerJoin(studios, eq(studios.id, repairJobs.studioId))
@@ -117,6 +121,7 @@ function loadJob(where: ReturnType<typeof and>) {
     .where(where)
     .get();
   if (!row) throw notFound("No such repair job.");
+  row.job = { ...row.job, lines: readLines(row.job.lines), proposedLines: readLines(row.job.proposedLines) };
   const jobPayments = getDb().select().from(payments).where(eq(payments.jobId, row.job.id)).orderBy(desc(payments.createdAt)).all();
   return { ...row, payments: jobPayments };
 }

@@ -169,3 +169,13 @@ export interface PriceListEntry {
   /** null: an hourly task priced at the studio's labour rate. */
   unitPriceMinor: number | null;
 }
+
+/** "85.5" typed in a currency with `exponent` decimals → 8550; null when it is not an amount. String math, no float. */
+export function parseMajorAmount(text: string, exponent: number): number | null {
+  const m = /^\s*(\d{1,9})(?:[.,](\d*))?\s*$/.exec(text);
+  if (!m) return null;
+  const frac = m[2] ?? "";
+  if (frac.length > exponent) return null;
+  return Number(m[1]) * 10 ** exponent + Number(frac.padEnd(exponent, "0") || "0");
+}
+

@@ -5,16 +5,33 @@ import { payments, repairJobs, type Payment } from "@/db/schema";
 import { PaymentReceiptEmail } from "@/emails/payment-receipt";
 import { PaymentRefundedAutomaticallyEmail, paymentRefundedAutomaticallySubject, type AutomaticRefundReason } from "@/emails/payment-refunded-automatically";
 import { RefundIssuedEmail } from "@/emails/refund-issued";
-import { formatMinorUnits } from "@/lib/care/quote";
 import { studioRecipients } from "@/lib/claims/mail";
 import { env } from "@/lib/env";
 import { sendMail } from "@/lib/mail";
-import { getOwnerJob } from "./jobs";
+import { formatInstant, formatMoney } from "@/lib/owner/format";
+import { jobFigures } from "./figures";
+import { getOwnerJob, type JobView } from "./jobs";
 
 // Payment mail is sent after the change it reports is committed; sendMail queues what SMTP refuses.
 
-export const money = (minor: number, currency: string) => `${formatMinorUnits(minor, currency)} ${currency}`;
 export const jobUrl = (jobId: string, query = "") => new URL(`/jobs/${jobId}${query}`, env.APP_URL).href;
+export const receiptUrl = (jobId: string) => new URL(`/api/jobs/${jobId}/receipt`, env.APP_URL).href;
+
+/** The quote's lines and totals as the quote mail prints them. */
+export function quoteFigures(job: JobView["job"], studio: JobView["studio"]) {
+  const f = jobFigures(job, studio);
+  return {
+    lines: f.lines.map((l) => ({ description: l.description, detail: l.quantityText, amount: l.amount })),
+    subtotal: f.text.subtotal,
+    covered: f.text.covered ? { label: f.coveredLabel, amount: f.text.covered } : null,
+    net: f.text.net,
+    taxLabel: f.taxLabel,
+    tax: f.text.tax,
+    total: f.text.total,
+    roundingNote: f.roundingNote,
+    taxNumber: f.taxNumber,
+  };
+}
 const staffJobUrl = (jobId: string) => new URL(`/studio/jobs/${jobId}`, env.APP_URL).href;
 
 /** The job as its owner sees it, or null when the piece has no registered owner any more. */
@@ -29,18 +46,23 @@ export async function mailReceipt(paymentId: string) {
   const payment = getDb().select().from(payments).where(eq(payments.id, paymentId)).get();
   const view = payment && ownerView(payment.jobId);
   if (!payment || !view) return;
+  const money = (minor: number) => formatMoney(minor, payment.currency, view.studio.country);
   await sendMail({
     studioId: view.studio.id,
     to: view.owner.email,
-    subject: `Receipt from ${view.studio.name}: ${money(payment.amountMinor, payment.currency)}`,
+    subject: `Receipt from ${view.studio.name}: ${money(payment.amountMinor)}`,
     email: PaymentReceiptEmail({
       ownerName: view.owner.name,
       studioName: view.studio.name,
+      studioAddress: view.studio.address,
       pieceTitle: view.piece.title,
-      amount: money(payment.amountMinor, payment.currency),
-      paidOn: (payment.paidAt ?? new Date()).toISOString().slice(0, 10),
+      amount: money(payment.amountMinor),
+      // The day in the owner's own zone, written out.
+      paidOn: formatInstant(payment.paidAt ?? new Date(), view.owner.timeZone),
       reference: payment.paymentIntentId ?? payment.checkoutSessionId,
+      ...quoteFigures(view.job, view.studio),
       url: jobUrl(payment.jobId),
+      pdfUrl: receiptUrl(payment.jobId),
     }),
   });
 }
@@ -53,7 +75,7 @@ export async function mailRefundIssued(payment: Payment, amountMinor: number) {
     studioId: view.studio.id,
     to: view.owner.email,
     subject: `Refund from ${view.studio.name}`,
-    email: RefundIssuedEmail({ ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, amount: money(amountMinor, payment.currency) }),
+    email: RefundIssuedEmail({ ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, amount: formatMoney(amountMinor, payment.currency, view.studio.country) }),
   });
 }
 
@@ -61,7 +83,7 @@ export async function mailRefundIssued(payment: Payment, amountMinor: number) {
 export async function mailAutomaticRefund(payment: Payment, reason: AutomaticRefundReason) {
   const view = ownerView(payment.jobId);
   if (!view) return;
-  const common = { ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, jobTitle: view.job.title, amount: money(payment.amountMinor - payment.refundedMinor, payment.currency), reason };
+  const common = { ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, jobTitle: view.job.title, amount: formatMoney(payment.amountMinor - payment.refundedMinor, payment.currency, view.studio.country), reason };
   await sendMail({
     studioId: view.studio.id,
     to: view.owner.email,

@@ -13,7 +13,8 @@ import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
 import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
-import { jobUrl, money } from "./mail";
+import { jobUrl, quoteFigures } from "./mail";
+import { checkoutLineItems } from "./figures";
 import { priceJob, totals } from "./pricing";
 import { assertMove, AWAITING_PAYMENT, OWNER_CAN_DECLINE, paymentCounts, QUOTE_EDITABLE } from "./states";
 
@@ -28,13 +29,16 @@ export async function updateJobQuote(ctx: StudioContext, jobId: string, input: J
   if (!QUOTE_EDITABLE.includes(job.state)) throw conflict("This job's quote can no longer be changed.");
   const unknown = input.productIds.filter((p) => !products.some((x) => x.id === p));
   if (unknown.length) throw notFound("One of those products is not in this studio's catalog.");
-  const priced = priceJob(studio, piece, input, products);
+  const priced = priceJob(studio, piece, input, products, job.lines);
+  if (priced.lines.length === 0) throw badRequest("A quote needs at least one line.", { lines: ["Add a line, or pick a task to propose lines from."] });
   await closeOpenCheckouts(job.id);
   // The owner may have finished paying the old quote a moment ago: that payment stands.
   const fresh = getStudioJob(ctx, jobId).job;
   if (!QUOTE_EDITABLE.includes(fresh.state)) throw conflict(fresh.state === "paid" ? "The owner has just paid this quote, so it can no longer be changed." : "This job's quote can no longer be changed.");
   return getDb().transaction((tx) => {
-    const set = { title: input.title, quoteInput: input, coveredPct: input.coveredPct, notes: input.notes, ...totals(priced) };
+    // What the proposal is made from is kept; the lines as sent live in their own column.
+    const { lines: _sent, ...proposalInput } = input;
+    const set = { title: input.title, quoteInput: proposalInput, coveredPct: input.coveredPct, notes: input.notes, ...totals(priced) };
     const updated =
       fresh.state === "draft"
         ? tx.update(repairJobs).set({ ...set, version: sql`${repairJobs.version} + 1`, updatedAt: new Date() }).where(and(eq(repairJobs.id, fresh.id), eq(repairJobs.version, fresh.version))).returning().get()
@@ -66,10 +70,7 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
       ownerName: view.owner.name,
       studioName: view.studio.name,
       pieceTitle: view.piece.title,
-      lines: job.lines.map((l) => ({ description: l.description, amount: money(l.amountMinor, job.currency) })),
-      covered: job.coveredMinor ? money(job.coveredMinor, job.currency) : null,
-      tax: money(job.taxMinor, job.currency),
-      total: money(job.totalMinor, job.currency),
+      ...quoteFigures(job, view.studio),
       fullyCovered,
       url: jobUrl(job.id),
     }),
@@ -105,16 +106,7 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
       client_reference_id: job.id,
       customer_email: user.email,
       metadata: { jobId: job.id, studioId: job.studioId, quoteVersion: String(job.quoteVersion) },
-      line_items: [
-        {
-          quantity: 1,
-          price_data: {
-            currency: job.currency.toLowerCase(),
-            unit_amount: job.totalMinor,
-            product_data: { name: `${job.title} (after warranty share, tax included)` },
-          },
-        },
-      ],
+      line_items: checkoutLineItems(job),
       success_url: jobUrl(job.id, "?checkout=success&session_id={CHECKOUT_SESSION_ID}"),
       cancel_url: jobUrl(job.id, "?checkout=cancelled"),
     },

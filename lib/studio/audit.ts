@@ -55,6 +55,7 @@ const ACTION_LABELS: Record<string, string> = {
   "settings.profile_updated": "Studio profile or rates changed",
   "settings.reminder_timing_updated": "Reminder timing changed",
   "settings.visit_rules_updated": "Visit booking rules changed",
+  "settings.repair_prices_updated": "Repair prices, rounding or tax changed",
   "policy.version_created": "New warranty policy version",
   "finish_product.created": "Finish product added",
   "finish_product.updated": "Finish product edited",

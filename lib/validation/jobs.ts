@@ -1,20 +1,49 @@
 import { z } from "zod";
 import { CARE_TASK_KINDS } from "@/lib/care/vocabulary";
 import { JOB_STATES } from "@/lib/care/vocabulary";
+import { LINE_KINDS, LINE_SOURCES, LINE_UNITS } from "@/lib/repairs/lines";
 
 const id = z.string().min(1).max(64);
 
-/** What staff edit on a job's quote; the totals are always recomputed by lib/care quote(). */
-export const jobQuoteSchema = z.object({
-  title: z.string().trim().min(1, "Give the job a title.").max(160),
-  tasks: z.array(z.enum(CARE_TASK_KINDS)).min(1, "Pick at least one task.").max(10),
-  productIds: z.array(id).max(10, "At most 10 products."),
-  coats: z.coerce.number().int().min(1, "At least one coat.").max(6, "At most six coats."),
-  travel: z.boolean(),
-  coveredPct: z.coerce.number().int().min(0).max(100),
-  notes: z.string().max(4000, "Keep notes under 4,000 characters.").default(""),
+/** Up to three decimals: 0.75 h, 1.5 m², 120 mL. */
+const quantity = z.coerce
+  .number({ message: "Enter a quantity." })
+  .positive("The quantity must be more than 0.")
+  .max(100_000, "That quantity is too large.")
+  .refine((q) => Math.abs(Math.round(q * 1000) - q * 1000) < 1e-6, "Use at most three decimals.");
+
+/** One quote line as staff send it; its money is always recomputed (lib/repairs/lines priceLines). */
+export const quoteLineSchema = z.object({
+  kind: z.enum(LINE_KINDS),
+  source: z.enum(LINE_SOURCES),
+  ref: z.string().max(120).optional(),
+  description: z.string().trim().min(1, "Describe the line.").max(200, "Keep the description under 200 characters."),
+  quantity,
+  unit: z.enum(LINE_UNITS),
+  unitPriceMinor: z.coerce.number({ message: "Enter a price." }).int("Whole minor units (cents).").min(0, "A price can't be negative.").max(100_000_000, "That price is too large."),
 });
+
+/**
+ * What staff edit on a job's quote. The tasks, repairs, products, coats and travel are what the care
+ * engine and the price list propose from; `lines` are the lines as sent (edited hours and quantities,
+ * typed lines). Without `lines`, the proposal becomes the lines (typed lines already on the job stay).
+ */
+export const jobQuoteSchema = z
+  .object({
+    title: z.string().trim().min(1, "Give the job a title.").max(160),
+    tasks: z.array(z.enum(CARE_TASK_KINDS)).max(10),
+    /** Keys of the studio's repair price list. */
+    repairs: z.array(z.string().min(1).max(64)).max(20).optional(),
+    productIds: z.array(id).max(10, "At most 10 products."),
+    coats: z.coerce.number().int().min(1, "At least one coat.").max(6, "At most six coats."),
+    travel: z.boolean(),
+    coveredPct: z.coerce.number().int().min(0).max(100),
+    notes: z.string().max(4000, "Keep notes under 4,000 characters.").default(""),
+    lines: z.array(quoteLineSchema).max(40, "At most 40 lines.").optional(),
+  })
+  .refine((v) => v.tasks.length + (v.repairs?.length ?? 0) + (v.lines?.length ?? 0) > 0, { message: "Pick at least one task or add a line.", path: ["tasks"] });
 export type JobQuoteInput = z.infer<typeof jobQuoteSchema>;
+export type QuoteLineInput = z.infer<typeof quoteLineSchema>;
 
 export const createJobSchema = z.object({
   from: z.enum(["claim", "refresh_offer"]),

@@ -14,6 +14,7 @@ import { AppError } from "@/lib/errors";
 import { getStudioJob, createJob } from "@/lib/repairs/jobs";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { getStripe } from "@/lib/payments/stripe";
+import { formatMoney } from "@/lib/owner/format";
 import { currencyExponent, quote } from "@/lib/care/quote";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
@@ -115,7 +116,9 @@ describe("repair job payment through the Stripe fake", () => {
     expect(rows[0]).toMatchObject({ status: "paid", amountMinor: job.totalMinor });
     expect(rows[0]!.paymentIntentId).toMatch(/^pi_test_/);
     const receipt = await waitForMail({ to: owner.email, subject: /receipt/i });
-    expect(receipt.text).toContain(`${(job.totalMinor / 100).toFixed(2)} USD`);
+    // Money reads one way (lib/owner/format formatMoney): "$207.30" for a US studio, never "207.30 USD".
+    expect(receipt.text).toContain(formatMoney(job.totalMinor, "USD", "US"));
+    expect(receipt.text).not.toMatch(/\d USD/);
     expect(getStudioJob(staff, job.id).job.paidAt).toBeInstanceOf(Date);
   });
 
@@ -305,7 +308,7 @@ describe("a checkout that no longer matches its job never pays it", () => {
     expect(jobRow(job.id)).toMatchObject({ state: "approved", paidAt: null, totalMinor: requoted.totalMinor });
     expect(netCharged(job.id)).toMatchObject({ count: 1, net: 0, refunded: 1 });
 
-    const amount = `${(job.totalMinor / 100).toFixed(2)} USD`;
+    const amount = formatMoney(job.totalMinor, "USD", "US");
     const toOwner = await waitForMail({ to: owner.email, subject: /refund/i, since });
     expect(toOwner.text).toContain(amount);
     expect(toOwner.text).toMatch(/earlier version of the quote/i);

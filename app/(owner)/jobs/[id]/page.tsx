@@ -8,8 +8,9 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
-import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS } from "@/lib/repairs/states";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, paymentCounts } from "@/lib/repairs/states";
+import { formatMoney } from "@/lib/owner/format";
+import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/service";
 
@@ -25,6 +26,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   }
   const { job, piece, studio, payments } = await forPage(async () => getOwnerJob(user, id));
   const { visit } = visitOfJob({ kind: "owner", user }, id);
+  const paid = payments.some(paymentCounts);
   const autoRefunded = payments.flatMap((p) => (isAutomaticRefund(p.refundReason) ? [{ ...p, reason: p.refundReason }] : []));
   const returnedRefunded = autoRefunded.some((p) => p.checkoutSessionId === query.session_id);
   return (
@@ -36,7 +38,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         ) : null}
         {autoRefunded.map((p) => (
           <Notice key={p.id} tone="info" title="Payment refunded">
-            We refunded your payment of {formatMinorUnits(p.amountMinor, p.currency)} {p.currency} in full: {OWNER_REFUND_REASON_LABELS[p.reason]}. Refunds usually show on
+            We refunded your payment of {formatMoney(p.amountMinor, p.currency, studio.country)} in full: {OWNER_REFUND_REASON_LABELS[p.reason]}. Refunds usually show on
             your statement within 5–10 business days.
           </Notice>
         ))}
@@ -67,8 +69,13 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
             ) : null}
           </Card>
         ) : null}
-        <Card>
-          <QuoteSummary lines={job.lines} currency={job.currency} subtotalMinor={job.subtotalMinor} coveredMinor={job.coveredMinor} coveredPct={job.coveredPct} taxMinor={job.taxMinor} totalMinor={job.totalMinor} />
+        <Card className="space-y-3">
+          <QuoteSummary figures={jobFigures(job, studio)} totalLabel={paid ? "Paid" : "To pay"} />
+          {paid ? (
+            <a className="inline-block text-sm text-resin underline" href={`/api/jobs/${job.id}/receipt`}>
+              Download your receipt (PDF)
+            </a>
+          ) : null}
         </Card>
         {OWNER_CAN_DECLINE.includes(job.state) ? (
           <div className="flex flex-col gap-3 sm:flex-row">

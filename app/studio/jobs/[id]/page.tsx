@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { StaffJobActions } from "@/components/jobs/job-actions";
 import { JobPayments } from "@/components/jobs/job-payments";
-import { JobQuoteEditor } from "@/components/jobs/job-quote-editor";
+import { QuoteBuilder } from "@/components/jobs/quote-builder";
 import { QuoteSummary } from "@/components/jobs/quote-summary";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
@@ -11,10 +11,12 @@ import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatInstant } from "@/lib/owner/format";
 import { cautionsFor } from "@/lib/care/cautions";
-import { FINISH_CLASS_LABELS } from "@/lib/care/vocabulary";
+import { FINISH_CLASS_LABELS, type CareTaskKind } from "@/lib/care/vocabulary";
+import { currencyExponent } from "@/lib/care/quote";
+import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
+import { priceListOf } from "@/lib/repairs/price-list";
 import { canMove, JOB_STATE_LABELS, JOB_STATE_TONES, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
-import { jobQuoteSchema } from "@/lib/validation/jobs";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/service";
 
@@ -26,7 +28,9 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const view = await forPage(async () => getStudioJob(ctx, id));
   const { visit } = visitOfJob({ kind: "staff", ctx }, id);
   const { job, piece, owner, payments, products, studio } = view;
-  const initial = jobQuoteSchema.parse(job.quoteInput);
+  const q = job.quoteInput as { title?: string; tasks?: string[]; repairs?: string[]; productIds?: string[]; coats?: number; travel?: boolean; coveredPct?: number; notes?: string };
+  const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes };
+  const figures = jobFigures(job, studio);
   const editable = QUOTE_EDITABLE.includes(job.state);
   const paid = payments.some(paymentCounts);
   // A refund marked but not yet taken by the payment service (it could not be reached): staff can ask again.
@@ -41,16 +45,20 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
       <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
         <Card className="space-y-4">
           <h2 className="font-semibold">Quote</h2>
-          <JobQuoteEditor
+          <QuoteBuilder
             jobId={job.id}
             initial={initial}
+            lines={job.lines.map(({ kind, source, ref, description, quantity, unit, unitPriceMinor, proposed }) => ({ kind, source, ...(ref ? { ref } : {}), description, quantity, unit, unitPriceMinor, proposed }))}
             editable={editable}
+            currency={job.currency}
+            exponent={currencyExponent(job.currency)}
+            repairs={priceListOf(studio).map((r) => ({ key: r.key, label: r.label }))}
             products={products.map((p) => ({ id: p.id, name: p.name, finishClassLabel: FINISH_CLASS_LABELS[p.finishClass] }))}
           />
           <Notice tone="warn" title="Work safely">
             <ul className="space-y-1">
               {cautionsFor({
-                tasks: initial.tasks,
+                tasks: initial.tasks as CareTaskKind[],
                 applying: products.filter((p) => initial.productIds.includes(p.id)).map((p) => p.finishClass),
                 hasResin: piece.resinKind !== "none",
                 audience: "technician",
@@ -64,7 +72,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
         </Card>
         <div className="space-y-6">
           <Card className="space-y-4">
-            <QuoteSummary lines={job.lines} currency={job.currency} subtotalMinor={job.subtotalMinor} coveredMinor={job.coveredMinor} coveredPct={job.coveredPct} taxMinor={job.taxMinor} totalMinor={job.totalMinor} />
+            <QuoteSummary figures={figures} showProposed />
             <StaffJobActions
               jobId={job.id}
               canSend={["draft", "quoted"].includes(job.state) && Boolean(owner)}
@@ -73,6 +81,11 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
               refundOwed={refundOwed}
             />
             {job.quoteVersion ? <p className="text-sm text-muted">Quote sent {job.quoteVersion} time{job.quoteVersion === 1 ? "" : "s"}.</p> : null}
+            {paid ? (
+              <a className="text-sm text-resin underline" href={`/api/jobs/${job.id}/receipt`}>
+                Download the receipt (PDF)
+              </a>
+            ) : null}
           </Card>
           {["paid", "covered", "scheduled"].includes(job.state) || visit ? (
             <Card className="space-y-3">

@@ -1,0 +1,210 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useFieldArray, useForm } from "react-hook-form";
+import { toast } from "sonner";
+import { apiJson, isApiError } from "@/components/api-client";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import { formatMinorUnits } from "@/lib/care/quote";
+import { CARE_TASK_KINDS, CARE_TASK_LABELS } from "@/lib/care/vocabulary";
+import { LINE_KIND_LABELS, LINE_KINDS, LINE_SOURCE_LABELS, LINE_UNIT_LABELS, LINE_UNITS, parseMajorAmount, type LineDraft } from "@/lib/repairs/lines";
+
+type Product = { id: string; name: string; finishClassLabel: string };
+type Repair = { key: string; label: string };
+export type BuilderLine = LineDraft & { proposed: { quantity: number; unitPriceMinor: number } | null };
+export type BuilderInitial = { title: string; tasks: string[]; repairs: string[]; productIds: string[]; coats: number; travel: boolean; coveredPct: number; notes: string };
+
+const QUANTITY = /^\s*\d{1,6}(\.\d{1,3})?\s*$/;
+/** A checkbox group reads as a list whether one box or several exist. */
+const list = (x: unknown): string[] => (Array.isArray(x) ? x : typeof x === "string" ? [x] : []);
+
+type FormLine = Omit<BuilderLine, "quantity" | "unitPriceMinor"> & { quantity: string; unitPrice: string };
+type FormValues = Omit<BuilderInitial, "coats" | "coveredPct"> & { coats: string; coveredPct: string; lines: FormLine[] };
+
+/**
+ * The quote builder: maintenance tasks and repairs the care engine and the price list propose lines
+ * from ("Propose lines"), then every line's description, quantity and unit price editable, typed lines
+ * added ("Save the quote"). The server prices what is saved; totals are never computed here.
+ */
+export function QuoteBuilder({
+  jobId,
+  initial,
+  lines,
+  products,
+  repairs,
+  currency,
+  exponent,
+  editable,
+}: {
+  jobId: string;
+  initial: BuilderInitial;
+  lines: BuilderLine[];
+  products: Product[];
+  repairs: Repair[];
+  currency: string;
+  exponent: number;
+  editable: boolean;
+}) {
+  const router = useRouter();
+  const [formError, setFormError] = useState<string | null>(null);
+  const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
+  const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm) } });
+  const { register, handleSubmit, formState, control, setError } = form;
+  const fields = useFieldArray({ control, name: "lines" });
+
+  const submit = (withLines: boolean) =>
+    handleSubmit(async (v) => {
+      setFormError(null);
+      let bad = false;
+      const sent = v.lines.map((l, i) => {
+        const unitPriceMinor = parseMajorAmount(l.unitPrice, exponent);
+        if (unitPriceMinor === null) setError(`lines.${i}.unitPrice`, { message: `Enter a price like ${formatMinorUnits(8550, currency)}.` });
+        if (!QUANTITY.test(l.quantity) || Number(l.quantity) <= 0) setError(`lines.${i}.quantity`, { message: "A number above 0, at most three decimals (0.75)." });
+        if (!l.description.trim()) setError(`lines.${i}.description`, { message: "Describe the line." });
+        bad ||= unitPriceMinor === null || !QUANTITY.test(l.quantity) || Number(l.quantity) <= 0 || !l.description.trim();
+        const { unitPrice: _p, proposed: _x, ...rest } = l;
+        return { ...rest, quantity: l.quantity.trim(), unitPriceMinor: unitPriceMinor ?? 0 };
+      });
+      if (withLines && bad) return;
+      const body = { title: v.title, notes: v.notes, tasks: list(v.tasks), repairs: list(v.repairs), productIds: list(v.productIds), coats: v.coats, travel: v.travel, coveredPct: v.coveredPct, ...(withLines ? { lines: sent } : {}) };
+      try {
+        const { job } = await apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body });
+        form.reset({ ...v, lines: job.lines.map(toForm) });
+        toast.success(withLines ? "Quote saved." : "Lines proposed from the tasks. Change hours or quantities, then save.");
+        router.refresh();
+      } catch (e) {
+        if (!isApiError(e)) return setFormError("Couldn't save the quote.");
+        const lineMessages = e.fieldErrors.lines ?? [];
+        setFormError([e.message, ...lineMessages].join(" "));
+        for (const [field, msgs] of Object.entries(e.fieldErrors)) {
+          if (field !== "lines" && msgs[0] && field in v) setError(field as keyof FormValues, { message: msgs[0] });
+        }
+      }
+    });
+
+  const lineErrors = formState.errors.lines;
+  return (
+    <form onSubmit={submit(true)} noValidate className="space-y-5">
+      {formError ? <Notice tone="error">{formError}</Notice> : null}
+      <fieldset disabled={!editable || formState.isSubmitting} className="space-y-5">
+        <TextField label="Job title" {...register("title")} error={formState.errors.title?.message} />
+
+        <details className="rounded-lg border border-line bg-white p-3" open={lines.length === 0}>
+          <summary className="cursor-pointer font-medium">What the lines are proposed from</summary>
+          <div className="mt-3 space-y-4">
+            <fieldset className="space-y-2">
+              <legend className="text-sm font-medium">Repairs (from your price list)</legend>
+              <div className="grid gap-2 sm:grid-cols-2">
+                {repairs.map((r) => (
+                  <label key={r.key} className="flex min-h-11 items-center gap-2 rounded-lg border border-line bg-white px-3">
+                    <input type="checkbox" value={r.key} {...register("repairs")} className="size-4" />
+                    {r.label}
+                  </label>
+                ))}
+              </div>
+            </fieldset>
+            <fieldset className="space-y-2">
+              <legend className="text-sm font-medium">Maintenance</legend>
+              <div className="grid gap-2 sm:grid-cols-2">
+                {CARE_TASK_KINDS.map((k) => (
+                  <label key={k} className="flex min-h-11 items-center gap-2 rounded-lg border border-line bg-white px-3">
+                    <input type="checkbox" value={k} {...register("tasks")} className="size-4" />
+                    {CARE_TASK_LABELS[k]}
+                  </label>
+                ))}
+              </div>
+              {formState.errors.tasks ? <p role="alert" className="text-sm text-danger">{formState.errors.tasks.message}</p> : null}
+            </fieldset>
+            <fieldset className="space-y-2">
+              <legend className="text-sm font-medium">Products from the catalog</legend>
+              {products.length === 0 ? <p className="text-sm text-muted">The catalog has no products yet.</p> : null}
+              <div className="grid gap-2 sm:grid-cols-2">
+                {products.map((p) => (
+                  <label key={p.id} className="flex min-h-11 items-center gap-2 rounded-lg border border-line bg-white px-3">
+                    <input type="checkbox" value={p.id} {...register("productIds")} className="size-4" />
+                    <span>
+                      {p.name} <span className="text-sm text-muted">· {p.finishClassLabel}</span>
+                    </span>
+                  </label>
+                ))}
+              </div>
+            </fieldset>
+            <div className="grid gap-4 sm:grid-cols-2">
+              <TextField label="Coats" type="number" min={1} max={6} {...register("coats")} error={formState.errors.coats?.message} />
+              <label className="flex min-h-11 items-center gap-2 self-end rounded-lg border border-line bg-white px-3">
+                <input type="checkbox" {...register("travel")} className="size-4" />
+                Charge the travel fee
+              </label>
+            </div>
+            <Button type="button" variant="secondary" disabled={formState.isSubmitting} onClick={submit(false)}>
+              Propose lines
+            </Button>
+            <p className="text-sm text-muted">Proposing replaces the proposed lines with fresh ones; lines you typed yourself stay.</p>
+          </div>
+        </details>
+
+        <fieldset className="space-y-3">
+          <legend className="text-sm font-medium">Lines</legend>
+          {fields.fields.length === 0 ? <p className="text-sm text-muted">No lines yet. Propose them from the work above, or add a line.</p> : null}
+          <ol className="space-y-3">
+            {fields.fields.map((f, i) => (
+              <li key={f.id} className="space-y-3 rounded-lg border border-line bg-white p-3">
+                <div className="flex flex-wrap items-center justify-between gap-2 text-xs text-muted">
+                  <span>
+                    {LINE_SOURCE_LABELS[f.source]}
+                    {f.proposed ? ` · proposed ${f.proposed.quantity} ${LINE_UNIT_LABELS[f.unit]} at ${formatMinorUnits(f.proposed.unitPriceMinor, currency)} ${currency}` : ""}
+                  </span>
+                  <Button type="button" variant="secondary" onClick={() => fields.remove(i)} aria-label={`Remove line ${i + 1}`}>
+                    Remove
+                  </Button>
+                </div>
+                <TextField label={`Line ${i + 1}: description`} {...register(`lines.${i}.description`)} error={lineErrors?.[i]?.description?.message} />
+                <div className="grid gap-3 sm:grid-cols-4">
+                  <TextField label="Quantity" inputMode="decimal" {...register(`lines.${i}.quantity`)} error={lineErrors?.[i]?.quantity?.message} />
+                  <SelectField label="Unit" {...register(`lines.${i}.unit`)}>
+                    {LINE_UNITS.map((u) => (
+                      <option key={u} value={u}>
+                        {LINE_UNIT_LABELS[u]}
+                      </option>
+                    ))}
+                  </SelectField>
+                  <TextField label={`Unit price (${currency})`} inputMode="decimal" {...register(`lines.${i}.unitPrice`)} error={lineErrors?.[i]?.unitPrice?.message} />
+                  <SelectField label="Kind (for tax)" {...register(`lines.${i}.kind`)}>
+                    {LINE_KINDS.map((k) => (
+                      <option key={k} value={k}>
+                        {LINE_KIND_LABELS[k]}
+                      </option>
+                    ))}
+                  </SelectField>
+                </div>
+              </li>
+            ))}
+          </ol>
+          <Button
+            type="button"
+            variant="secondary"
+            onClick={() => fields.append({ kind: "other", source: "typed", description: "", quantity: "1", unit: "each", unitPrice: "", proposed: null })}
+          >
+            Add a typed line
+          </Button>
+        </fieldset>
+
+        <TextField label="Warranty share (%)" type="number" min={0} max={100} {...register("coveredPct")} error={formState.errors.coveredPct?.message} />
+        <label className="block space-y-1.5">
+          <span className="text-sm font-medium">Notes for the technician</span>
+          <textarea rows={3} {...register("notes")} className="block w-full rounded-lg border border-line bg-white px-3 py-2" />
+        </label>
+        {editable ? (
+          <Button type="submit" disabled={formState.isSubmitting}>
+            {formState.isSubmitting ? "Saving…" : "Save the quote"}
+          </Button>
+        ) : (
+          <p className="text-sm text-muted">This quote can no longer be changed.</p>
+        )}
+      </fieldset>
+    </form>
+  );
+}

@@ -1,0 +1,109 @@
+"use client";
+
+import { useFieldArray } from "react-hook-form";
+import { useActionForm } from "@/components/forms/use-action-form";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import type { ActionResult } from "@/lib/validation/action";
+import { LINE_KIND_LABELS, LINE_KINDS, LINE_UNIT_LABELS, LINE_UNITS } from "@/lib/repairs/lines";
+import type { RepairSettingsInput } from "@/lib/validation/repair-settings";
+
+const ROUNDING_WORDS = { cent: "To the cent (exact)", whole: "To whole amounts", five: "To the nearest 5", ten: "To the nearest 10" } as const;
+const TAX_MODE_WORDS = { none: "No tax", single: "One rate for everything", per_kind: "A rate per kind of line" } as const;
+
+export function RepairSettingsForm({
+  values,
+  singleRatePct,
+  currency,
+  action,
+}: {
+  values: RepairSettingsInput;
+  singleRatePct: string;
+  currency: string;
+  action: (v: RepairSettingsInput) => Promise<ActionResult<unknown>>;
+}) {
+  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/repair-settings").then((m) => m.repairSettingsSchema), action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
+  const { register, formState, control, watch } = form;
+  const list = useFieldArray({ control, name: "priceList" });
+  const e = formState.errors;
+  const mode = watch("taxMode");
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-6">
+      {formError ? <Notice tone="error">{formError}</Notice> : null}
+      <fieldset className="space-y-3">
+        <legend className="font-semibold">Rounding</legend>
+        <SelectField label="Round each quote line" hint="One rule for every quote; it is printed on the quote." {...register("roundingRule")} error={e.roundingRule?.message}>
+          {(Object.keys(ROUNDING_WORDS) as (keyof typeof ROUNDING_WORDS)[]).map((r) => (
+            <option key={r} value={r}>
+              {ROUNDING_WORDS[r]}
+            </option>
+          ))}
+        </SelectField>
+      </fieldset>
+
+      <fieldset className="space-y-3">
+        <legend className="font-semibold">Tax</legend>
+        <SelectField label="How tax is charged" {...register("taxMode")} error={e.taxMode?.message}>
+          {(Object.keys(TAX_MODE_WORDS) as (keyof typeof TAX_MODE_WORDS)[]).map((m) => (
+            <option key={m} value={m}>
+              {TAX_MODE_WORDS[m]}
+            </option>
+          ))}
+        </SelectField>
+        {mode === "single" ? <p className="text-sm text-muted">The one rate is {singleRatePct} %, set under Profile and rates.</p> : null}
+        {mode === "per_kind" ? (
+          <div className="grid gap-3 sm:grid-cols-2">
+            {LINE_KINDS.map((k) => (
+              <TextField key={k} label={`${LINE_KIND_LABELS[k]} (%)`} inputMode="decimal" {...register(`taxRates.${k}`)} error={e.taxRates?.[k]?.message} />
+            ))}
+          </div>
+        ) : null}
+        <label className="flex min-h-11 items-center gap-2 rounded-lg border border-line bg-white px-3">
+          <input type="checkbox" {...register("taxInclusive")} className="size-4" />
+          Prices include tax (the tax is shown as the part of the price it is)
+        </label>
+        <TextField label="Tax number" hint="Printed on quotes and receipts. Leave empty if you have none." {...register("taxNumber")} error={e.taxNumber?.message} />
+      </fieldset>
+
+      <fieldset className="space-y-3">
+        <legend className="font-semibold">Repair price list</legend>
+        <p className="text-sm text-muted">Default prices in {currency}. Leave the price of an hourly task empty to charge your labour rate.</p>
+        {e.priceList?.message ? <p role="alert" className="text-sm text-danger">{e.priceList.message}</p> : null}
+        <ol className="space-y-3">
+          {list.fields.map((f, i) => (
+            <li key={f.id} className="grid gap-3 rounded-lg border border-line bg-white p-3 sm:grid-cols-[2fr_1fr_1fr_1fr_auto] sm:items-end">
+              <input type="hidden" {...register(`priceList.${i}.key`)} />
+              <TextField label="Task" {...register(`priceList.${i}.label`)} error={e.priceList?.[i]?.label?.message} />
+              <SelectField label="Kind (for tax)" {...register(`priceList.${i}.kind`)}>
+                {LINE_KINDS.map((k) => (
+                  <option key={k} value={k}>
+                    {LINE_KIND_LABELS[k]}
+                  </option>
+                ))}
+              </SelectField>
+              <SelectField label="Unit" {...register(`priceList.${i}.unit`)}>
+                {LINE_UNITS.map((u) => (
+                  <option key={u} value={u}>
+                    {LINE_UNIT_LABELS[u]}
+                  </option>
+                ))}
+              </SelectField>
+              <TextField label={`Price (${currency})`} inputMode="decimal" {...register(`priceList.${i}.price`)} error={e.priceList?.[i]?.price?.message} />
+              <Button type="button" variant="secondary" onClick={() => list.remove(i)} aria-label={`Remove ${f.label || `task ${i + 1}`}`}>
+                Remove
+              </Button>
+            </li>
+          ))}
+        </ol>
+        <Button type="button" variant="secondary" onClick={() => list.append({ key: "", label: "", kind: "labour", unit: "h", price: "" })}>
+          Add a task
+        </Button>
+      </fieldset>
+
+      <Button type="submit" disabled={formState.isSubmitting}>
+        {formState.isSubmitting ? "Saving…" : "Save repair prices and tax"}
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,128 @@
+import "server-only";
+import { Document, Page, StyleSheet, Text, View, renderToBuffer } from "@react-pdf/renderer";
+import { conflict } from "@/lib/errors";
+import { formatInstant } from "@/lib/owner/format";
+import type { JobActor } from "./access";
+import { jobFigures, type JobFigures } from "./figures";
+import { getOwnerJob, getStudioJob, type JobView } from "./jobs";
+import { paymentCounts } from "./states";
+
+// A repair job's receipt as a PDF, for the job's owner and the studio's staff: the studio's name,
+// address and tax number, the lines, the warranty's share, tax, the total paid and the payment
+// reference — the same figures the quote and the checkout carry (lib/repairs/figures).
+
+const ink = "#1f2328";
+const muted = "#625b50";
+const rule = "#e4dccf";
+const resin = "#0f5e5e";
+
+const s = StyleSheet.create({
+  page: { padding: 48, fontSize: 10, color: ink, fontFamily: "Helvetica", backgroundColor: "#fffdf9" },
+  studio: { fontSize: 14, fontFamily: "Helvetica-Bold", color: resin },
+  small: { fontSize: 9, color: muted, marginTop: 2 },
+  title: { fontSize: 20, fontFamily: "Times-Bold", marginTop: 22, marginBottom: 10 },
+  row: { flexDirection: "row", borderBottomWidth: 1, borderBottomColor: rule, paddingVertical: 5 },
+  key: { width: 130, color: muted },
+  val: { flex: 1 },
+  line: { flexDirection: "row", borderBottomWidth: 1, borderBottomColor: rule, paddingVertical: 5 },
+  desc: { flex: 1 },
+  amount: { width: 110, textAlign: "right" },
+  total: { flexDirection: "row", paddingVertical: 3 },
+  strong: { fontFamily: "Helvetica-Bold" },
+  h2: { fontSize: 12, fontFamily: "Times-Bold", marginTop: 16, marginBottom: 6 },
+});
+
+export type ReceiptData = {
+  studio: { name: string; address: string };
+  ownerName: string;
+  pieceTitle: string;
+  jobTitle: string;
+  paidOn: string;
+  reference: string;
+  figures: JobFigures;
+  letter: boolean;
+};
+
+function Total({ label, amount, strong = false }: { label: string; amount: string; strong?: boolean }) {
+  return (
+    <View style={s.total}>
+      <Text style={[s.desc, strong ? s.strong : {}]}>{label}</Text>
+      <Text style={[s.amount, strong ? s.strong : {}]}>{amount}</Text>
+    </View>
+  );
+}
+
+export function ReceiptDocument({ d }: { d: ReceiptData }) {
+  const f = d.figures;
+  return (
+    <Document title={`Receipt — ${d.jobTitle}`} author={d.studio.name} subject="Receipt">
+      <Page size={d.letter ? "LETTER" : "A4"} style={s.page}>
+        <Text style={s.studio}>{d.studio.name}</Text>
+        {d.studio.address ? <Text style={s.small}>{d.studio.address}</Text> : null}
+        {f.taxNumber ? <Text style={s.small}>Tax number: {f.taxNumber}</Text> : null}
+        <Text style={s.title}>Receipt</Text>
+        <View style={s.row}>
+          <Text style={s.key}>Received from</Text>
+          <Text style={s.val}>{d.ownerName}</Text>
+        </View>
+        <View style={s.row}>
+          <Text style={s.key}>For</Text>
+          <Text style={s.val}>
+            {d.jobTitle} · {d.pieceTitle}
+          </Text>
+        </View>
+        <View style={s.row}>
+          <Text style={s.key}>Paid on</Text>
+          <Text style={s.val}>{d.paidOn}</Text>
+        </View>
+        <View style={s.row}>
+          <Text style={s.key}>Payment reference</Text>
+          <Text style={s.val}>{d.reference}</Text>
+        </View>
+        <Text style={s.h2}>Lines</Text>
+        {f.lines.map((l, i) => (
+          <View key={i} style={s.line} wrap={false}>
+            <View style={s.desc}>
+              <Text>{l.description}</Text>
+              <Text style={s.small}>{l.quantityText}</Text>
+            </View>
+            <Text style={s.amount}>{l.amount}</Text>
+          </View>
+        ))}
+        <View style={{ marginTop: 8 }}>
+          <Total label="Subtotal" amount={f.text.subtotal} />
+          {f.text.covered ? <Total label={f.coveredLabel} amount={f.text.covered} /> : null}
+          <Total label="Net" amount={f.text.net} />
+          <Total label={f.taxLabel} amount={f.text.tax} />
+          <Total label="Total paid" amount={f.text.total} strong />
+        </View>
+        {f.roundingNote ? <Text style={s.small}>{f.roundingNote}</Text> : null}
+      </Page>
+    </Document>
+  );
+}
+
+/** The receipt's data for a job the actor reaches; 409 while nothing has been paid that counts. */
+export function receiptData(actor: JobActor, jobId: string): ReceiptData {
+  const view: JobView = actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner, jobId);
+  const payment = view.payments.find(paymentCounts);
+  if (!payment) throw conflict("This job has no payment yet, so there is no receipt.");
+  // Staff read the time in the studio's zone, the owner in theirs; the zone is printed beside it.
+  const tz = actor.ctx || !view.owner ? view.studio.timeZone : view.owner.timeZone;
+  return {
+    studio: { name: view.studio.name, address: view.studio.address },
+    ownerName: view.owner?.name ?? "—",
+    pieceTitle: view.piece.title,
+    jobTitle: view.job.title,
+    paidOn: formatInstant(payment.paidAt ?? payment.updatedAt, tz, { time: true }),
+    reference: payment.paymentIntentId ?? payment.checkoutSessionId,
+    figures: jobFigures(view.job, view.studio),
+    letter: view.studio.unitSystem === "imperial",
+  };
+}
+
+export async function receiptPdf(actor: JobActor, jobId: string): Promise<{ buffer: Buffer; filename: string; data: ReceiptData }> {
+  const data = receiptData(actor, jobId);
+  const buffer = await renderToBuffer(<ReceiptDocument d={data} />);
+  return { buffer, filename: `receipt-${jobId.slice(0, 8)}.pdf`, data };
+}
