@@ -91,7 +91,8 @@ CareReminder.PreviewProps = {
   dueOn: "2 May 2026",
   whyNow: ["The last oil coat on the top went on 2 May 2025.", "For heavy use, in indirect sun, this finish lasts about 12 months, so it is due on 2 May 2026."],
   steps: ["Clean the surface with a little mild soap in water and let it dry completely."],
-  quantity: "About 3.55 US fl oz (105 mL) of Studio hardwax oil, satin for one coat on this top (26.8 ft²) — 1 × 125 mL is enough.",
+  // As lib/owner/format writes it for an imperial reader: 105 mL = 3.55 fl oz → 3.6; 125 mL = 4.23 fl oz → 4.3.
+  quantity: "About 3.6 US fl oz (105 mL) of Studio hardwax oil, satin for one coat on this top (26.8 ft²) — 1 × 4.3 US fl oz (125 mL) is enough.",
   cautions: ["Oily rags can heat up and catch fire by themselves within hours."],
   pieceUrl: "https://grainward.example/pieces/example",
   logUrl: "https://grainward.example/pieces/example/log?task=example",

@@ -101,6 +101,9 @@ export interface QuoteLine {
   unit: "h" | "container" | "km" | "trip";
   unitPriceMinor: number;
   amountMinor: number;
+  /** Materials: the product and its container size (mL), so a reader's page can write the size in their units. */
+  product?: string;
+  sizeMl?: number;
 }
 
 export interface Quote {
@@ -188,6 +191,8 @@ export function quote(input: QuoteInput): Quote {
       lines.push({
         kind: "materials",
         description: `${p.label}, ${c.sizeMl} mL`,
+        product: p.label,
+        sizeMl: c.sizeMl,
         taskKind: p.taskKind,
         quantity: c.count,
         unit: "container",

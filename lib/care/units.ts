@@ -17,6 +17,8 @@ export const L_PER_US_GALLON = 3.785411784;
  * (16 CFR 500.19 gives a rounded figure for labels; the exact value is NIST's.)
  */
 export const ML_PER_US_FL_OZ = 29.5735295625;
+/** 1 mile (international) = 5280 ft = 1.609344 km exactly (5280 × 0.3048 m). NIST HB 44 App. C; NIST SP 811 App. B.8. */
+export const KM_PER_MILE = 1.609344;
 
 export const mmToInches = (mm: number): number => mm / MM_PER_INCH;
 export const inchesToMm = (inches: number): number => inches * MM_PER_INCH;

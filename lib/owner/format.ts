@@ -1,7 +1,7 @@
 // How the owner's side writes dates, lengths, areas and volumes: in the owner's time zone and unit
 // system. Pure (no server-only import): the PDF, the e-mails and the client components use it too.
 import { displayFlOz, displayMl } from "@/lib/care/quantity";
-import { L_PER_US_GALLON, M2_PER_FT2, MM_PER_INCH } from "@/lib/care/units";
+import { KM_PER_MILE, L_PER_US_GALLON, M2_PER_FT2, MM_PER_INCH } from "@/lib/care/units";
 
 export type UnitSystem = "metric" | "imperial";
 
@@ -120,6 +120,12 @@ export function formatVolume(exactMl: number, units: UnitSystem): string {
   const ml = displayMl(exactMl).toLocaleString("en-US");
   if (units === "metric") return `${ml} mL`;
   return `${displayFlOz(exactMl)} US fl oz (${ml} mL)`;
+}
+
+/** A road distance (travel on a quote): "12 km", or miles to 0.1 ("7.5 mi"). */
+export function formatDistance(km: number, units: UnitSystem): string {
+  if (units === "metric") return `${Number(km.toFixed(1)).toLocaleString("en-US")} km`;
+  return `${Number((km / KM_PER_MILE).toFixed(1)).toLocaleString("en-US")} mi`;
 }
 
 /** A large volume (resin pours) for staff records: litres or US gallons, the other in brackets. */

@@ -45,7 +45,7 @@ export function reminderProps(m: ReminderMail): CareReminderProps {
     logUrl: logCareUrl(piece.id, task.key),
     preferencesUrl: preferencesUrl(owner.id),
     unsubscribeUrl: oneClickUnsubscribeUrl(owner.id),
-    offer: m.offer ? offerView(m.offer.quote, offerUrl(m.offer.id)) : undefined,
+    offer: m.offer ? offerView(m.offer.quote, offerUrl(m.offer.id), owner.unitSystem) : undefined,
   };
 }
 

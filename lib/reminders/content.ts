@@ -6,7 +6,7 @@ import { productNeeded } from "@/lib/care/quantity";
 import { formatMinorUnits, type Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { cautionLine, cautionsFor as catalogueCautions } from "@/lib/care/cautions";
-import { formatArea, formatVolume } from "@/lib/owner/format";
+import { formatArea, formatDistance, formatVolume, type UnitSystem } from "@/lib/owner/format";
 import type { CareTaskKind, ReminderStep } from "@/lib/care/vocabulary";
 
 const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
@@ -167,12 +167,20 @@ export type OfferView = {
   acceptUrl: string;
 };
 
-export function offerView(q: Quote, acceptUrl: string): OfferView {
+/** A stored quote's line in the reader's units (container sizes, travel distance); offers stored before sizes were kept read as written. */
+function lineWords(l: Quote["lines"][number], units: UnitSystem): string {
+  if (l.unit === "h") return `${l.description} (${l.quantity} h)`;
+  if (l.unit === "container") return `${l.product && l.sizeMl ? `${l.product}, ${formatVolume(l.sizeMl, units)}` : l.description} × ${l.quantity}`;
+  if (l.unit === "km") return `Travel, ${formatDistance(l.quantity, units)}`;
+  return l.description;
+}
+
+export function offerView(q: Quote, acceptUrl: string, units: UnitSystem): OfferView {
   const money = (minor: number) => `${formatMinorUnits(minor, q.currency)} ${q.currency}`;
   return {
     total: money(q.totalMinor),
     lines: q.lines.map((l) => ({
-      description: l.unit === "h" ? `${l.description} (${l.quantity} h)` : l.unit === "container" ? `${l.description} × ${l.quantity}` : l.description,
+      description: lineWords(l, units),
       amount: money(l.amountMinor),
     })),
     tax: `${money(q.taxMinor)} tax (${q.taxRatePct} %)`,

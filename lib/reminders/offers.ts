@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { pieces, refreshOffers, studios } from "@/db/schema";
+import { pieces, refreshOffers, studios, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import { CARE_TASK_LABELS, CARE_TASK_KINDS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
@@ -28,10 +28,11 @@ function offerRow(token: unknown) {
   const id = parsed.success ? readOfferToken(parsed.data) : null;
   if (!id) throw notFound("This offer link is not valid. Use the link in the care e-mail.");
   const row = getDb()
-    .select({ offer: refreshOffers, pieceTitle: pieces.title, studioName: studios.name, studioEmail: studios.email })
+    .select({ offer: refreshOffers, pieceTitle: pieces.title, studioName: studios.name, studioEmail: studios.email, unitSystem: users.unitSystem })
     .from(refreshOffers)
     .innerJoin(pieces, eq(pieces.id, refreshOffers.pieceId))
     .innerJoin(studios, eq(studios.id, refreshOffers.studioId))
+    .innerJoin(users, eq(users.id, refreshOffers.userId))
     .where(eq(refreshOffers.id, id))
     .get();
   if (!row) throw notFound("This offer link is not valid. Use the link in the care e-mail.");
@@ -44,10 +45,10 @@ function kindOfTaskKey(taskKey: string): CareTaskKind | undefined {
 }
 
 export function getOfferByToken(token: unknown): OfferPage {
-  const { offer, pieceTitle, studioName, studioEmail } = offerRow(token);
+  const { offer, pieceTitle, studioName, studioEmail, unitSystem } = offerRow(token);
   const kind = kindOfTaskKey(offer.taskKey);
   return {
-    ...offerView(offer.quote as unknown as Quote, offerUrl(offer.id)),
+    ...offerView(offer.quote as unknown as Quote, offerUrl(offer.id), unitSystem),
     status: offer.status,
     pieceTitle,
     studioName,

@@ -1,7 +1,7 @@
 // The one formatter's imperial lengths read like a woodworker's tape (issue 17 item 12).
 // 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C); each expected value is worked by hand.
 import { describe, expect, it } from "vitest";
-import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness, formatVolume } from "@/lib/owner/format";
+import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness, formatVolume, formatDistance } from "@/lib/owner/format";
 
 describe("imperial lengths", () => {
   it("round to the nearest 1/16 in and reduce the fraction", () => {
@@ -49,5 +49,15 @@ describe("volumes", () => {
     // rounded 30 mL instead (1.01442 fl oz) would round up again, to 1.1 fl oz.
     expect(formatVolume(29.1, "imperial")).toBe("1 US fl oz (30 mL)");
     expect(formatVolume(29.1, "metric")).toBe("30 mL");
+  });
+});
+
+// Distances (travel on a quote): 1 mile = 1.609344 km exactly (NIST Handbook 44, Appendix C).
+describe("distances", () => {
+  it("km, or miles to 0.1", () => {
+    expect(formatDistance(12, "metric")).toBe("12 km");
+    expect(formatDistance(12, "imperial")).toBe("7.5 mi"); // 12 / 1.609344 = 7.4565
+    expect(formatDistance(1.609344, "imperial")).toBe("1 mi");
+    expect(formatDistance(2500, "metric")).toBe("2,500 km");
   });
 });
