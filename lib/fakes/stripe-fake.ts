@@ -237,6 +237,21 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     return rest;
   }
 
+  /** GET /v1/checkout/sessions/:id/line_items, as Stripe lists them (one page). */
+  function lineItemList(s: FakeSession): Json {
+    const data = s.line_items.map((l, i) => ({
+      id: `li_${s.id.slice(-12)}_${i}`,
+      object: "item",
+      description: l.name,
+      quantity: l.quantity,
+      currency: s.currency,
+      amount_subtotal: l.unit_amount * l.quantity,
+      amount_total: l.unit_amount * l.quantity,
+      price: { object: "price", currency: s.currency, unit_amount: l.unit_amount },
+    }));
+    return { object: "list", data, has_more: false, url: `/v1/checkout/sessions/${s.id}/line_items` };
+  }
+
   function expire(s: FakeSession) {
     if (s.status !== "open") throw new StripeError(400, "invalid_request_error", `Only Checkout Sessions with a status of open can be expired (this one is ${s.status}).`);
     s.status = "expired";
@@ -338,7 +353,8 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
     let out: Json;
     const [resource, a, b] = path;
     if (req.method === "POST" && resource === "checkout" && a === "sessions" && !b) out = publicSession(createSession(params));
-    else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b) out = publicSession(session(b));
+    else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b && path[3] === "line_items") out = lineItemList(session(b));
+    else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b && !path[3]) out = publicSession(session(b));
     else if (req.method === "POST" && resource === "checkout" && a === "sessions" && b && path[3] === "expire") {
       const s = session(b);
       expire(s);
