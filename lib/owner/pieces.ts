@@ -162,7 +162,6 @@ export function listMyPieces(owner: Owner, now = new Date()) {
   });
 }
 
-export type MyPieceListItem = ReturnType<typeof listMyPieces>[number];
 
 /** The policy version the piece carries, else the studio's version in force at delivery, else none. */
 function policyFor(piece: Piece): { version: number | null; policy: WarrantyPolicy } | null {

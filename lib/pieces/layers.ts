@@ -163,11 +163,3 @@ export function removeLayer(ctx: StudioContext, pieceId: string, layerId: string
   });
   return { removed: true, schedule: scheduleOf(ctx, pieceId) };
 }
-
-/** The stack of one piece, per surface in order. */
-export function pieceStack(ctx: StudioContext, pieceId: string): Record<Surface, FinishLayer[]> {
-  const db = getDb();
-  loadPiece(ctx, pieceId);
-  const all = db.select().from(finishLayers).where(and(eq(finishLayers.pieceId, pieceId), eq(finishLayers.studioId, ctx.studio.id))).orderBy(asc(finishLayers.position)).all();
-  return { top: all.filter((l) => l.surface === "top"), edges: all.filter((l) => l.surface === "edges"), base: all.filter((l) => l.surface === "base") };
-}

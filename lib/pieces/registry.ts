@@ -607,7 +607,6 @@ export function getPieceDetail(ctx: StudioContext, pieceId: string, now = new Da
     products: products.filter((p) => !p.archivedAt).map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass })),
   };
 }
-export type PieceDetail = ReturnType<typeof getPieceDetail>;
 
 /** Stack history of a piece (the audit entries of its layers), newest first. */
 export function layerHistory(ctx: StudioContext, pieceId: string) {

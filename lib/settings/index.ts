@@ -18,7 +18,6 @@ import {
   visitRulesSchema,
   type ProfileInput,
   type PolicyVersionInput,
-  type ReminderTimingInput,
   type VisitRulesInput,
 } from "@/lib/validation/settings";
 import { visitRulesFor } from "@/lib/visits/availability";
@@ -136,7 +135,6 @@ export function updateReminderTiming(ctx: StudioContext, raw: unknown): Reminder
   });
 }
 
-export type ReminderTimingFormInput = ReminderTimingInput;
 
 // ---- visit booking rules ----
 
