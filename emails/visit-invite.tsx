@@ -13,6 +13,8 @@ export type VisitInviteEmailProps = {
   /** The time before a move, for "moved". */
   previousWhen?: string;
   timeZone: string;
+  /** "today", "tomorrow" or "on Friday 4 June 2027", by the owner's calendar day (not for a cancellation). */
+  dayWord?: string;
   location: string;
   technicianName: string;
   reason?: string;
@@ -33,7 +35,7 @@ export function VisitInviteEmail(p: VisitInviteEmailProps) {
       ) : (
         <>
           <Paragraph>
-            {p.kind === "moved" ? "The new time" : "The time"} for <strong>{p.jobTitle}</strong> on {p.pieceTitle}:
+            {p.kind === "moved" ? "The new time" : "The time"} for <strong>{p.jobTitle}</strong> on {p.pieceTitle}{p.dayWord ? <> is {p.dayWord}</> : null}:
           </Paragraph>
           <VisitTime when={p.when} previousWhen={p.previousWhen} timeZone={p.timeZone} location={p.location} technicianName={p.technicianName} />
           <Paragraph>The attached calendar file adds the visit to your calendar{p.kind === "moved" ? " and replaces the earlier time" : ""}.</Paragraph>
@@ -55,6 +57,7 @@ VisitInviteEmail.PreviewProps = {
   jobTitle: "Topcoat refresh, dining table",
   when: "Tuesday 8 December 2026, 09:00–10:30",
   timeZone: "America/Los_Angeles",
+  dayWord: "on Tuesday 8 December 2026",
   location: "14 Quarry Lane, Port Alder",
   technicianName: "Ines Varga",
   url: "http://localhost:3000/jobs/example",

@@ -2,6 +2,8 @@ import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { ActionButton, LinkFallback } from "./components/button";
 
 export type VisitReminderEmailProps = {
+  /** "today", "tomorrow" or "on Friday 4 June 2027", by the owner's calendar day. */
+  dayWord: string;
   ownerName: string;
   studioName: string;
   pieceTitle: string;
@@ -15,7 +17,7 @@ export type VisitReminderEmailProps = {
 
 export function VisitReminderEmail(p: VisitReminderEmailProps) {
   return (
-    <EmailLayout preview={`Tomorrow: ${p.when}`} heading="Your visit is tomorrow">
+    <EmailLayout preview={`Your visit ${p.dayWord}: ${p.when}`} heading={`Your visit is ${p.dayWord}`}>
       <Paragraph>Hi {p.ownerName},</Paragraph>
       <Paragraph>
         A reminder: {p.technicianName} from {p.studioName} comes for <strong>{p.jobTitle}</strong> on {p.pieceTitle}.
@@ -33,6 +35,7 @@ export function VisitReminderEmail(p: VisitReminderEmailProps) {
 }
 
 VisitReminderEmail.PreviewProps = {
+  dayWord: "tomorrow",
   ownerName: "Jonah Reyes",
   studioName: "Larchmere Slab & Resin (invented)",
   pieceTitle: "Walnut and maple resin coffee table",

@@ -10,7 +10,8 @@ export type VisitSummaryEmailProps = {
   technicianName: string;
   work: string;
   layers: string[];
-  signOffName: string;
+  /** The owner's single-use sign-off link (the owner signs off; the technician never does it for them). */
+  signOffUrl: string;
   photoCount: number;
   /** Next care tasks; dueOn already written out ("8 December 2027"). */
   nextCare: { label: string; dueOn: string }[];
@@ -26,7 +27,7 @@ export function VisitSummaryEmail(p: VisitSummaryEmailProps) {
     <EmailLayout preview={`Visit report: ${p.pieceTitle}`} heading="Your visit report">
       <Paragraph>Hi {p.ownerName},</Paragraph>
       <Paragraph>
-        {p.technicianName} finished <strong>{p.jobTitle}</strong> on {p.pieceTitle} ({p.when}). Signed off by {p.signOffName}.
+        {p.technicianName} finished <strong>{p.jobTitle}</strong> on {p.pieceTitle} ({p.when}).
       </Paragraph>
       <Paragraph>
         <strong>What was done</strong>
@@ -69,8 +70,14 @@ export function VisitSummaryEmail(p: VisitSummaryEmailProps) {
       {p.cautions.map((c) => (
         <Note key={c}>{c}</Note>
       ))}
-      <ActionButton href={p.url}>Open the piece&apos;s care record</ActionButton>
-      <LinkFallback href={p.url} />
+      <Paragraph>
+        <strong>Happy with the work?</strong> Sign it off: the link opens a page with a button, and works once.
+      </Paragraph>
+      <ActionButton href={p.signOffUrl}>Sign off the work</ActionButton>
+      <LinkFallback href={p.signOffUrl} />
+      <Paragraph>
+        Not happy with it? Don&apos;t sign off; write to the studio. The piece&apos;s care record: <a href={p.url}>{p.url}</a>
+      </Paragraph>
     </EmailLayout>
   );
 }
@@ -84,7 +91,7 @@ VisitSummaryEmail.PreviewProps = {
   technicianName: "Ines Varga",
   work: "Cleaned, keyed the topcoat, one fresh coat of ceramic-type topcoat.",
   layers: ["Top: Ceramic-type topcoat over oil — Ceramic-type topcoat, matte, 1 coat, 8 December 2026"],
-  signOffName: "R. Holloway",
+  signOffUrl: "http://localhost:3000/visit-sign-off?token=example",
   photoCount: 2,
   nextCare: [{ label: "Topcoat refresh (top)", dueOn: "8 December 2027" }],
   curing: {

@@ -12,6 +12,7 @@ export default async function OwnerLayout({ children }: { children: ReactNode })
     <>
       <SiteHeader nav={[
           { href: "/pieces", label: "My pieces" },
+          { href: "/claims", label: "Claims" },
           { href: "/jobs", label: "Repairs" },
           { href: "/register", label: "Register a piece" },
           { href: "/account", label: "Account" },

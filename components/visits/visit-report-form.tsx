@@ -27,12 +27,19 @@ async function uploadPhoto(visitId: string, file: File, kind: "before" | "after"
   return { id: body.id, kind, thumbUrl: body.thumbUrl };
 }
 
-/** The visit report: what was done, new finish layers, before/after photos, the owner's sign-off. */
-export function VisitReportForm({ visitId, products, today, defaultClass, initialPhotos }: { visitId: string; products: Product[]; today: string; defaultClass?: FinishClass; initialPhotos: Photo[] }) {
+type DefaultLayer = { finishClass: FinishClass; productId: string; coats: number };
+
+/**
+ * The visit report: what was done, new finish layers (proposed from the quote's products and coats),
+ * before/after photos. The owner signs off themselves, from the report mail. Before the visit's start
+ * (`early`), staff give a reason to file it anyway; a technician waits until it has started.
+ */
+export function VisitReportForm({ visitId, products, today, defaultLayers, initialPhotos, early }: { visitId: string; products: Product[]; today: string; defaultLayers: DefaultLayer[]; initialPhotos: Photo[]; early: { startsAt: string; asStaff: boolean } | null }) {
   const router = useRouter();
+  const defaultClass = defaultLayers[0]?.finishClass;
   const form = useForm<VisitReportInput, unknown, VisitReportValues>({
     resolver: useLazyZodResolver<typeof visitReportSchema, VisitReportInput, VisitReportValues>(() => import("@/lib/validation/visits").then((m) => m.visitReportSchema)),
-    defaultValues: { work: "", signOffName: "", layers: defaultClass ? [{ surface: "top", finishClass: defaultClass, productId: products.find((p) => p.finishClass === defaultClass)?.id ?? "", coats: 1, appliedOn: today, productLabel: "", batchLot: "" }] : [] },
+    defaultValues: { work: "", earlyReason: "", layers: defaultLayers.map((l) => ({ surface: "top", finishClass: l.finishClass, productId: l.productId, coats: l.coats, appliedOn: today, productLabel: "", batchLot: "" })) },
     mode: "onTouched",
   });
   const layers = useFieldArray({ control: form.control, name: "layers" });
@@ -161,7 +168,23 @@ export function VisitReportForm({ visitId, products, today, defaultClass, initia
         ) : null}
       </fieldset>
 
-      <TextField label="Owner's sign-off name" autoComplete="off" hint="Ask the owner to check the work and give their name." error={errors.signOffName?.message} {...form.register("signOffName")} />
+      <p className="text-sm text-muted">The owner signs off the work themselves: the report mail gives them a link to confirm it.</p>
+
+      {early ? (
+        early.asStaff ? (
+          <TextField
+            label="Why file it before the visit starts?"
+            autoComplete="off"
+            hint={`The visit starts ${early.startsAt}. The reason goes in the audit log.`}
+            error={errors.earlyReason?.message}
+            {...form.register("earlyReason")}
+          />
+        ) : (
+          <Notice tone="info" title="Not started yet">
+            The visit starts {early.startsAt}. File the report once it has started; the studio office can file it early.
+          </Notice>
+        )
+      ) : null}
 
       <Button type="submit" className="w-full" disabled={form.formState.isSubmitting || uploading !== null}>
         {form.formState.isSubmitting ? "Filing the report…" : "File the report and close the job"}

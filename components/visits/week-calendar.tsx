@@ -16,7 +16,7 @@ import type { VisitEditFormValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError } from "@/components/api-client";
 
-type CalVisit = { id: string; jobId: string; technicianId: string; technicianName: string; start: string; end: string; state: "booked" | "done" | "cancelled"; jobTitle: string; pieceTitle: string; ownerName: string | null; location: string; version: number };
+type CalVisit = { id: string; jobId: string; technicianId: string; technicianName: string; start: string; end: string; state: "booked" | "done" | "cancelled"; jobTitle: string; pieceTitle: string; ownerName: string | null; location: string; version: number; claimId?: string | null };
 type Tech = { id: string; name: string };
 
 const DAY_START = 7 * 60;
@@ -227,9 +227,16 @@ function EditVisit({ visit, technicians, timeZone, onClose, onCancel, onMoved }:
             {visit.pieceTitle} · {visit.ownerName ?? "no owner"} · {visit.location}
           </p>
         </div>
-        <Link className="inline-flex min-h-11 items-center text-sm text-resin underline" href={`/studio/jobs/${visit.jobId}`}>
-          Open the job
-        </Link>
+        <span className="flex flex-wrap gap-x-4">
+          <Link className="inline-flex min-h-11 items-center text-sm text-resin underline" href={`/studio/jobs/${visit.jobId}`}>
+            Open the job
+          </Link>
+          {visit.claimId ? (
+            <Link className="inline-flex min-h-11 items-center text-sm text-resin underline" href={`/studio/claims/${visit.claimId}`}>
+              Open the claim
+            </Link>
+          ) : null}
+        </span>
       </div>
       {visit.state !== "booked" ? (
         <p className="text-sm">This visit is {visit.state}; it can&apos;t be moved.</p>

@@ -11,8 +11,10 @@ import {
   finishProducts,
   ownerships,
   pieces,
+  repairJobs,
   studios,
   users,
+  visits,
   warrantyPolicies,
   type Claim,
   type Studio,
@@ -22,7 +24,11 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { conflict, forbidden, notFound, unprocessable } from "@/lib/errors";
 import { containsText } from "@/lib/text-match";
+import { formatDate } from "@/lib/owner/format";
+import { createJob } from "@/lib/repairs/jobs";
+import { JOB_STATE_LABELS } from "@/lib/repairs/states";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
+import { formatVisitWhen } from "@/lib/visits/format";
 import {
   claimDecisionSchema,
   claimListQuerySchema,
@@ -289,11 +295,66 @@ function claimCore(claim: Claim) {
   };
 }
 
-/** The claim as its owner sees it: state, photos, messages, decision and the reason. */
+// ---------------------------------------------------------------- where the repair stands
+
+/** The repair job made from the claim (at most one) and its latest booked or done visit. */
+function jobOfClaim(claimId: string) {
+  const db = getDb();
+  const job = db
+    .select({ id: repairJobs.id, state: repairJobs.state, title: repairJobs.title, quoteVersion: repairJobs.quoteVersion, doneAt: repairJobs.doneAt })
+    .from(repairJobs)
+    .where(eq(repairJobs.claimId, claimId))
+    .orderBy(desc(repairJobs.createdAt))
+    .get();
+  if (!job) return null;
+  const visit = db
+    .select({ id: visits.id, state: visits.state, startAt: visits.startAt, endAt: visits.endAt })
+    .from(visits)
+    .where(and(eq(visits.jobId, job.id), inArray(visits.state, ["booked", "done"])))
+    .orderBy(desc(visits.startAt))
+    .get();
+  return { ...job, visit: visit ?? null };
+}
+
+/** Where the repair stands, in the owner's words; the job's page is theirs to open once a quote was sent. */
+function ownerRepair(claimId: string, timeZone: string) {
+  const job = jobOfClaim(claimId);
+  if (!job) return null;
+  const when = job.visit ? `${formatVisitWhen(job.visit.startAt.getTime(), job.visit.endAt.getTime(), timeZone)} (${timeZone})` : "";
+  const STAGE: Record<typeof job.state, string> = {
+    draft: job.quoteVersion === 0 ? "The studio is pricing the repair. You get the quote by e-mail." : "The studio is revising the quote.",
+    quoted: "Your repair quote is ready: look it over and approve it.",
+    approved: "You approved the quote; the repair is waiting for your payment.",
+    paid: "Paid. Pick a time for the repair visit.",
+    covered: "Covered by your warranty. Pick a time for the repair visit.",
+    scheduled: `Repair visit booked: ${when}.`,
+    done: `The repair is done${job.doneAt ? `, ${formatDate(localDate(job.doneAt.getTime(), timeZone))}` : ""}.`,
+    cancelled: "The repair job was cancelled. Write to the studio if that is unexpected.",
+  };
+  const visible = !(job.state === "draft" && job.quoteVersion === 0);
+  return { jobId: visible ? job.id : null, state: job.state, stage: STAGE[job.state] };
+}
+
+/** The repair job of the claim as staff see it: its state in the studio's words and its visit. */
+function staffRepair(claimId: string, timeZone: string) {
+  const job = jobOfClaim(claimId);
+  if (!job) return null;
+  return {
+    jobId: job.id,
+    title: job.title,
+    state: job.state,
+    stateLabel: JOB_STATE_LABELS[job.state],
+    visit: job.visit ? { id: job.visit.id, state: job.visit.state, when: formatVisitWhen(job.visit.startAt.getTime(), job.visit.endAt.getTime(), timeZone) } : null,
+  };
+}
+
+/** The claim as its owner sees it: state, photos, messages, decision and the reason, and where the repair stands. */
 function ownerView(claim: Claim) {
   const piece = getDb().select({ id: pieces.id, title: pieces.title }).from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
   const studio = studioOf(claim.studioId);
-  return { view: "owner" as const, claim: claimCore(claim), piece, studio: { name: studio.name }, photos: photosOf(claim.id), messages: messagesOf(claim.id) };
+  const owner = getDb().select({ timeZone: users.timeZone }).from(users).where(eq(users.id, claim.ownerId)).get();
+  const repair = ownerRepair(claim.id, owner?.timeZone ?? studio.timeZone);
+  return { view: "owner" as const, claim: { ...claimCore(claim), jobId: repair?.jobId ?? null }, repair, piece, studio: { name: studio.name }, photos: photosOf(claim.id), messages: messagesOf(claim.id) };
 }
 
 /** The claim as staff see it: all of the owner's view plus the piece record, care log and coverage check. */
@@ -304,9 +365,11 @@ function staffView(claim: Claim) {
   const { registrationCodeHash: _h, registrationCodeEnc: _e, ...pieceRecord } = piece;
   void _h;
   void _e;
+  const repair = staffRepair(claim.id, studio.timeZone);
   return {
     view: "staff" as const,
-    claim: { ...claimCore(claim), suggestion: claim.suggestion, waitMs: (claim.firstAnsweredAt?.getTime() ?? Date.now()) - claim.createdAt.getTime() },
+    claim: { ...claimCore(claim), jobId: repair?.jobId ?? null, suggestion: claim.suggestion, waitMs: (claim.firstAnsweredAt?.getTime() ?? Date.now()) - claim.createdAt.getTime() },
+    repair,
     owner,
     studio: { id: studio.id, name: studio.name, timeZone: studio.timeZone, unitSystem: studio.unitSystem },
     piece: pieceRecord,
@@ -376,6 +439,44 @@ export function transitionClaim(ctx: StudioContext, claimId: string, raw: { to: 
     recordAudit(tx, { studioId: claim.studioId, actorId: ctx.user.id, action: `claim.${raw.to}`, subjectType: "claim", subjectId: claim.id, data: { from: claim.state, to: raw.to, ...(raw.data ?? {}) } });
     return claimCore(updated);
   });
+}
+
+// ---------------------------------------------------------------- the repair thread
+
+/**
+ * POST /api/claims/[id]/job: staff open the repair job of an accepted claim of their studio, through
+ * lib/repairs (which refuses a claim that is not accepted or already has its job).
+ */
+export function createJobFromClaim(ctx: StudioContext, claimId: string) {
+  const claim = getDb().select({ id: claims.id }).from(claims).where(and(eq(claims.id, claimId), eq(claims.studioId, ctx.studio.id))).get();
+  if (!claim) throw notFound("No claim with that id in this studio.");
+  const job = createJob(ctx, "claim", claim.id);
+  return { id: job.id, state: job.state, claimId: job.claimId, title: job.title };
+}
+
+const FOLLOW: Record<"visit_booked" | "visit_cancelled" | "job_done", ClaimState[]> = {
+  // accepted → repair booked when the job's visit is booked; back to accepted when it is cancelled;
+  // closed when the job is done (through repair booked if it never got there).
+  visit_booked: ["repair_booked"],
+  visit_cancelled: ["accepted"],
+  job_done: ["repair_booked", "closed"],
+};
+
+/**
+ * Moves the claim a repair job was made from along with the work, inside the caller's transaction.
+ * A job without a claim, or a claim already past the step, is left as it is.
+ */
+export function followJob(tx: Tx, jobId: string, event: keyof typeof FOLLOW, actorId: string | null): ClaimState | null {
+  const row = tx.select({ claim: claims }).from(repairJobs).innerJoin(claims, eq(claims.id, repairJobs.claimId)).where(eq(repairJobs.id, jobId)).get();
+  if (!row) return null;
+  let claim = row.claim;
+  for (const to of FOLLOW[event]) {
+    if (!canTransition(claim.state, to)) continue;
+    const from = claim.state;
+    claim = moveState(tx, claim, to, undefined);
+    recordAudit(tx, { studioId: claim.studioId, actorId, action: `claim.${to}`, subjectType: "claim", subjectId: claim.id, data: { from, to, jobId, by: event } });
+  }
+  return claim.state;
 }
 
 // ---------------------------------------------------------------- messages

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq, inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { claims, files, memberships, pieces, type StoredFile } from "@/db/schema";
+import { claims, files, memberships, pieces, repairJobs, visits, type StoredFile } from "@/db/schema";
 import type { StudioRole } from "@/lib/care/vocabulary";
 import { notFound } from "@/lib/errors";
 import { readStoredFile } from "@/lib/storage";
@@ -24,14 +24,21 @@ function isStudioMember(userId: string, studioId: string, roles: readonly Studio
     .get();
 }
 
-/** Whether `userId` may see `file`: the studio's staff, the claim's owner (claim photos), or the piece's current owner. */
+/** Whether `userId` may see `file`: the studio's staff, the claim's owner and the repair visit's technician (claim photos), or the piece's current owner. */
 export function canViewFile(userId: string, file: Pick<StoredFile, "purpose" | "studioId" | "pieceId" | "claimId">): boolean {
   if (isStudioMember(userId, file.studioId, STUDIO_ROLES_BY_PURPOSE[file.purpose])) return true;
   const db = getDb();
   if (file.purpose === "claim_photo") {
     if (!file.claimId) return false;
     const claim = db.select({ ownerId: claims.ownerId }).from(claims).where(and(eq(claims.id, file.claimId), eq(claims.studioId, file.studioId))).get();
-    return claim?.ownerId === userId;
+    if (claim?.ownerId === userId) return true;
+    // A technician of the studio with a visit for the claim's repair job sees what the owner reported.
+    return isStudioMember(userId, file.studioId, ["technician"]) && !!db
+      .select({ id: visits.id })
+      .from(visits)
+      .innerJoin(repairJobs, eq(repairJobs.id, visits.jobId))
+      .where(and(eq(repairJobs.claimId, file.claimId), eq(visits.studioId, file.studioId), eq(visits.technicianId, userId), inArray(visits.state, ["booked", "done"])))
+      .get();
   }
   if (!file.pieceId) return false;
   const piece = db.select({ ownerId: pieces.ownerId }).from(pieces).where(and(eq(pieces.id, file.pieceId), eq(pieces.studioId, file.studioId))).get();

@@ -112,7 +112,8 @@ export const reportLayerSchema = z.object({
 export const visitReportSchema = z.object({
   work: z.string().trim().min(1, "Say what was done.").max(4000, "Keep it under 4,000 characters."),
   layers: z.array(reportLayerSchema).max(10, "At most 10 layers in one report."),
-  signOffName: z.string().trim().min(1, "The owner's name, as they sign off the work.").max(120, "At most 120 characters."),
+  /** Staff only: why the report is filed before the visit's start (recorded in the audit log). */
+  earlyReason: z.string().trim().max(500, "Keep the reason under 500 characters.").default(""),
 });
 export type VisitReportInput = z.input<typeof visitReportSchema>;
 export type VisitReportValues = z.output<typeof visitReportSchema>;

@@ -6,6 +6,7 @@ import { and, eq, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { pieces, repairJobs, studios, visits, type Visit, type VisitRulesRow } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
+import { followJob } from "@/lib/claims/service";
 import type { VisitLocation } from "@/lib/care/vocabulary";
 import { AppError, badRequest, conflict, notFound } from "@/lib/errors";
 import { moveJob } from "@/lib/repairs/jobs";
@@ -122,6 +123,7 @@ export function reserveVisit(db: Db, input: ReserveInput): Reserved {
           .returning()
           .get();
         moveJob(tx, job, "scheduled");
+        followJob(tx, job.id, "visit_booked", input.actorId);
         recordAudit(tx, { studioId: studio.id, actorId: input.actorId, action: "visit.booked", subjectType: "visit", subjectId: visit.id, data: { jobId: job.id, start: visit.startAt.toISOString(), technicianId: visit.technicianId } });
       }
       return { visit, previous, rules };

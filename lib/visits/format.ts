@@ -1,4 +1,6 @@
-// Visit times as people read them, in the studio's time zone. Pure: client components use it too.
+// Visit times as people read them, in the studio's (or, in an owner's mail, the owner's) time zone.
+// Pure: client components use it too.
+import { addDays, localDate } from "@/lib/care/dates";
 
 export function formatVisitWhen(startMs: number, endMs: number, timeZone: string): string {
   const day = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long", year: "numeric", timeZone }).format(startMs);
@@ -17,4 +19,16 @@ export function formatDuration(min: number): string {
   const h = Math.floor(min / 60);
   const m = min % 60;
   return h ? `${h} h${m ? ` ${m} min` : ""}` : `${m} min`;
+}
+
+/**
+ * "today", "tomorrow" or "on Friday 4 June 2027": the visit's day as the reader's own calendar in
+ * `timeZone` sees it at `nowMs` — not "within 24 hours", which reads 09:00 today as tomorrow at 08:42.
+ */
+export function visitDayWord(startMs: number, nowMs: number, timeZone: string): string {
+  const day = localDate(startMs, timeZone);
+  const today = localDate(nowMs, timeZone);
+  if (day === today) return "today";
+  if (day === addDays(today, 1)) return "tomorrow";
+  return `on ${new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long", year: "numeric", timeZone }).format(startMs)}`;
 }

@@ -12,7 +12,7 @@ import { env } from "@/lib/env";
 import { sendMail, sendMailNow } from "@/lib/mail";
 import { ownerActsOnJob } from "@/lib/repairs/owner-reach";
 import { buildInvite, inviteAttachment } from "./ics";
-import { formatVisitWhen } from "./format";
+import { formatVisitWhen, visitDayWord } from "./format";
 
 export function loadVisitMailView(visitId: string) {
   const db = getDb();
@@ -23,7 +23,7 @@ export function loadVisitMailView(visitId: string) {
   const studio = db.select().from(studios).where(eq(studios.id, visit.studioId)).get()!;
   const technician = db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, visit.technicianId)).get()!;
   // Visit mail goes to the job's owner only while they hold the piece (lib/repairs/owner-reach).
-  const owner = ownerActsOnJob(job, piece) ? (db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, job.ownerId!)).get() ?? null) : null;
+  const owner = ownerActsOnJob(job, piece) ? (db.select({ id: users.id, name: users.name, email: users.email, timeZone: users.timeZone }).from(users).where(eq(users.id, job.ownerId!)).get() ?? null) : null;
   return { visit, job, piece, studio, technician, owner };
 }
 export type VisitMailView = NonNullable<ReturnType<typeof loadVisitMailView>>;
@@ -72,7 +72,8 @@ export async function sendVisitInvite(
   const method = kind === "cancelled" ? "CANCEL" : "REQUEST";
   const now = new Date(nowMs);
   const ics = inviteFor(v, method, now);
-  const tz = v.studio.timeZone;
+  // The owner reads the time, and which day it is, on their own calendar.
+  const tz = v.owner.timeZone;
   const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
   const subject = kind === "booked" ? `Visit booked: ${when}` : kind === "moved" ? `Visit moved to ${when}` : `Visit cancelled: ${when}`;
   await sendMail({
@@ -88,6 +89,7 @@ export async function sendVisitInvite(
       when,
       previousWhen: extra.previous ? formatVisitWhen(extra.previous.startAt.getTime(), extra.previous.endAt.getTime(), tz) : undefined,
       timeZone: tz,
+      dayWord: kind === "cancelled" ? undefined : visitDayWord(v.visit.startAt.getTime(), nowMs, tz),
       location: v.visit.location,
       technicianName: v.technician.name,
       reason: extra.reason || undefined,
@@ -99,7 +101,6 @@ export async function sendVisitInvite(
   return { sent: true };
 }
 
-/** The 24-hour reminder: throws when SMTP refuses it (the visit reminder ledger retries it). */
 /**
  * The technician's copy, with an invite that names them as the attendee (same UID and SEQUENCE as the
  * owner's). A visit moved to another technician is a new visit for the new one and a cancellation for
@@ -144,14 +145,17 @@ async function sendTechnicianInvites(v: VisitMailView, kind: "booked" | "moved" 
   await send(v.technician, kind, { previousWhen, reason: kind === "cancelled" && extra.reason ? `Reason: ${extra.reason}` : undefined, dayMs: v.visit.startAt.getTime() });
 }
 
-export async function sendVisitReminder(v: VisitMailView): Promise<{ messageId: string }> {
-  const tz = v.studio.timeZone;
+/** The reminder: "today", "tomorrow" or the date by the owner's calendar day in their zone at `nowMs`. Throws when SMTP refuses it (the visit reminder ledger retries it). */
+export async function sendVisitReminder(v: VisitMailView, nowMs: number): Promise<{ messageId: string }> {
+  const tz = v.owner!.timeZone;
   const when = formatVisitWhen(v.visit.startAt.getTime(), v.visit.endAt.getTime(), tz);
+  const dayWord = visitDayWord(v.visit.startAt.getTime(), nowMs, tz);
   return sendMailNow({
     studioId: v.studio.id,
     to: v.owner!.email,
-    subject: `Tomorrow: your visit, ${when}`,
+    subject: `${dayWord[0]!.toUpperCase()}${dayWord.slice(1)}: your visit, ${when}`,
     email: VisitReminderEmail({
+      dayWord,
       ownerName: v.owner!.name,
       studioName: v.studio.name,
       pieceTitle: v.piece.title,

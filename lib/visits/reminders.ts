@@ -78,13 +78,20 @@ export async function runVisitReminderPass({ now = new Date(), signal }: { now?:
     }
     const view = loadVisitMailView(v.id);
     // No owner to write to, or the invite for this time went out inside the reminder window already.
-    if (!view?.owner || (v.lastInviteAt && v.lastInviteAt.getTime() > v.startAt.getTime() - REMINDER_LEAD_MS) || view.visit.sequence !== v.sequence || view.visit.state !== "booked") {
+    // Nor for a visit that has started (or passed) by now: a reminder is for a visit still to come.
+    if (
+      !view?.owner ||
+      (v.lastInviteAt && v.lastInviteAt.getTime() > v.startAt.getTime() - REMINDER_LEAD_MS) ||
+      view.visit.sequence !== v.sequence ||
+      view.visit.state !== "booked" ||
+      view.visit.startAt.getTime() <= t
+    ) {
       settle(v.id, v.sequence, { status: "skipped" });
       report.skipped++;
       continue;
     }
     try {
-      const { messageId } = await sendVisitReminder(view);
+      const { messageId } = await sendVisitReminder(view, t);
       settle(v.id, v.sequence, { status: "sent", sentAt: now, messageId });
       report.sent.push({ visitId: v.id, to: view.owner.email, sequence: v.sequence });
     } catch (e) {

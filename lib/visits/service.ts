@@ -4,6 +4,8 @@ import type { User } from "lucia";
 import { getDb } from "@/db/client";
 import {
   careLogEntries,
+  claims,
+  clients,
   files,
   finishLayers,
   pieces,
@@ -22,13 +24,16 @@ import {
 } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
+import { fileUrl, followJob } from "@/lib/claims/service";
+import { displayPhone } from "@/lib/clients/phone";
 import { topArea } from "@/lib/care/area";
 import { addDays, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { cautionLine, cautionsFor } from "@/lib/care/cautions";
-import { curingLayers } from "@/lib/care/cure";
+import { cureWindow, curingLayers } from "@/lib/care/cure";
 import { productNeeded } from "@/lib/care/quantity";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass } from "@/lib/care/vocabulary";
-import { AppError, badRequest, conflict, forbidden, notFound } from "@/lib/errors";
+import { randomToken, sha256Hex } from "@/lib/crypto";
+import { AppError, badRequest, conflict, forbidden, notFound, unprocessable } from "@/lib/errors";
 import { cureAdvice } from "@/lib/owner/care-guide";
 import { formatDate } from "@/lib/owner/format";
 import { scheduleFromRows, topShape } from "@/lib/pieces/care-inputs";
@@ -53,6 +58,7 @@ import { reserveVisit, SlotUnavailableError } from "./core";
 import { formatVisitWhen } from "./format";
 import { ownerVisitWhere } from "./access";
 import { jobUrl, sendVisitInvite, sendVisitSummary } from "./mail";
+import { SIGN_OFF_TTL_MS, signOffUrl } from "./sign-off";
 
 /** Who is acting on visits: studio staff (admin/staff), a technician, or an owner of their own jobs. */
 export type VisitActor = { kind: "staff"; ctx: StudioContext } | { kind: "technician"; ctx: StudioContext } | { kind: "owner"; user: User };
@@ -177,7 +183,7 @@ export class SlotTakenError extends AppError {
 
 // ---- public shape of a visit ----
 
-export function visitJson(v: Visit, extra: Record<string, unknown> = {}) {
+export function visitJson<E extends Record<string, unknown> = Record<never, never>>(v: Visit, extra: E = {} as E) {
   return {
     id: v.id,
     jobId: v.jobId,
@@ -282,6 +288,7 @@ export async function cancelVisit(actor: VisitActor, visitId: string, raw: unkno
       if (!v) throw conflict("The visit changed while you were working on it. Reload and try again.");
       const freshJob = tx.select().from(repairJobs).where(eq(repairJobs.id, job.id)).get()!;
       if (freshJob.state === "scheduled") moveJob(tx, freshJob, visit.jobStateBefore);
+      followJob(tx, job.id, "visit_cancelled", actorId(actor));
       recordAudit(tx, { studioId: studio.id, actorId: actorId(actor), action: "visit.cancelled", subjectType: "visit", subjectId: visit.id, data: { reason, by: actor.kind } });
       return v;
     },
@@ -303,7 +310,7 @@ export function listVisits(actor: VisitActor, raw: unknown) {
   const technician = actor.kind === "technician" ? actor.ctx.user.id : q.technician;
   if (actor.kind === "staff" && technician && !isStudioTechnician(db, actor.ctx.studio.id, technician)) throw notFound("No such technician.");
   const rows = db
-    .select({ visit: visits, jobTitle: repairJobs.title, jobState: repairJobs.state, pieceTitle: pieces.title, ownerName: users.name, studioTz: studios.timeZone })
+    .select({ visit: visits, jobTitle: repairJobs.title, jobState: repairJobs.state, claimId: repairJobs.claimId, pieceTitle: pieces.title, ownerName: users.name, studioTz: studios.timeZone })
     .from(visits)
     .innerJoin(repairJobs, eq(repairJobs.id, visits.jobId))
     .innerJoin(pieces, eq(pieces.id, visits.pieceId))
@@ -332,6 +339,7 @@ export function listVisits(actor: VisitActor, raw: unknown) {
         jobState: r.jobState,
         pieceTitle: r.pieceTitle,
         ownerName: actor.kind === "owner" ? undefined : (r.ownerName ?? null),
+        claimId: actor.kind === "staff" ? r.claimId : undefined,
         technicianName: names.get(r.visit.technicianId) ?? "",
       }),
     ),
@@ -355,8 +363,48 @@ export function visitOfJob(actor: VisitActor, jobId: string) {
   return {
     job,
     studio,
-    visit: { ...visitJson(v), technicianName: tech?.name ?? "", when: formatVisitWhen(v.startAt.getTime(), v.endAt.getTime(), studio.timeZone), ownerCutoffHours: rules.ownerChangeCutoffHours },
+    visit: {
+      ...visitJson(v),
+      technicianName: tech?.name ?? "",
+      when: formatVisitWhen(v.startAt.getTime(), v.endAt.getTime(), studio.timeZone),
+      ownerCutoffHours: rules.ownerChangeCutoffHours,
+      signedOffAt: v.signedOffAt ? iso(v.signedOffAt) : null,
+      photos: visitPhotosOf(actor, { jobId: job.id }),
+    },
   };
+}
+
+export type VisitPhotoView = { id: string; url: string; thumbUrl: string; kind: "before" | "after"; visitId: string; label: string };
+
+/**
+ * The photos taken at the visits of one job or one piece, oldest first. Staff and technicians see their
+ * studio's; an owner sees those of a piece they hold now (a former owner none: the photos may show
+ * the new owner's home), the same rule as the file route (lib/files/access).
+ */
+export function visitPhotosOf(actor: VisitActor, of: { jobId: string } | { pieceId: string }): VisitPhotoView[] {
+  const rows = getDb()
+    .select({ id: visitPhotos.fileId, kind: visitPhotos.kind, visitId: visits.id, startAt: visits.startAt, timeZone: studios.timeZone })
+    .from(visitPhotos)
+    .innerJoin(visits, eq(visits.id, visitPhotos.visitId))
+    .innerJoin(pieces, eq(pieces.id, visits.pieceId))
+    .innerJoin(studios, eq(studios.id, visits.studioId))
+    .where(
+      and(
+        "jobId" in of ? eq(visits.jobId, of.jobId) : eq(visits.pieceId, of.pieceId),
+        eq(visitPhotos.studioId, visits.studioId),
+        actor.kind === "owner" ? eq(pieces.ownerId, actor.user.id) : eq(visits.studioId, actor.ctx.studio.id),
+      ),
+    )
+    .orderBy(asc(visits.startAt), asc(visitPhotos.createdAt))
+    .all();
+  return rows.map((r) => ({
+    id: r.id,
+    url: fileUrl(r.id),
+    thumbUrl: fileUrl(r.id, true),
+    kind: r.kind,
+    visitId: r.visitId,
+    label: `${r.kind === "before" ? "Before" : "After"}, ${formatDate(localDate(r.startAt.getTime(), r.timeZone), { short: true })}`,
+  }));
 }
 
 /** The booking page's data: the job, its duration, where the visit can be, the live visit if any. */
@@ -377,9 +425,20 @@ export function bookingContext(actor: VisitActor, jobId: string) {
 
 // ---- the technician's day ----
 
-export type BringItem = { product: string; finishClass: FinishClass; classLabel: string; coats: number; ml: number; flOz: number; containers: string };
+export type BringItem = {
+  productId: string;
+  product: string;
+  finishClass: FinishClass;
+  classLabel: string;
+  coats: number;
+  ml: number;
+  flOz: number;
+  containers: string;
+  /** How long what she applies keeps water and objects off, and until full use (lib/care/cure). */
+  cure: { lightUseHours: number; fullCureDays: number };
+};
 
-function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[]): BringItem[] {
+function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], appliedOn: string): BringItem[] {
   const shape = topShape(piece);
   const areaM2 = shape ? topArea(shape).m2 : 0;
   if (!areaM2) return [];
@@ -390,7 +449,9 @@ function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[]): B
   const list = chosen.length ? chosen : products.filter((p) => tasks.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).slice(0, 1);
   return list.map((p) => {
     const need = productNeeded({ areaM2, coats, coverageM2PerL: p.coverageM2PerL, containerSizesMl: p.containers.map((c) => c.ml) });
+    const cure = cureWindow({ finishClass: p.finishClass, appliedOn, productId: p.id }, products);
     return {
+      productId: p.id,
       product: p.name,
       finishClass: p.finishClass,
       classLabel: FINISH_CLASS_LABELS[p.finishClass],
@@ -398,11 +459,29 @@ function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[]): B
       ml: need.ml,
       flOz: need.flOz,
       containers: need.containers.map((c) => `${c.count} × ${c.sizeMl} mL`).join(" + "),
+      cure: { lightUseHours: cure.lightUseHours, fullCureDays: cure.fullCureDays },
     };
   });
 }
 
-/** The visits of one technician on one local date (default today), in order, with what each needs. */
+/** Rows grouped by a key (rows without one are dropped): one query serves a whole day's visits. */
+function groupBy<T, K extends string>(rows: T[], key: (r: T) => K | null): Map<K, T[]> {
+  const out = new Map<K, T[]>();
+  for (const r of rows) {
+    const k = key(r);
+    if (k !== null) out.set(k, [...(out.get(k) ?? []), r]);
+  }
+  return out;
+}
+
+const mapsUrl = (address: string) => `https://www.openstreetmap.org/search?${new URLSearchParams({ query: address })}`;
+
+/**
+ * The visits of one technician on one local date (default today), in order, with what each needs: the
+ * job's notes, the claim it repairs (description, photos), the finish stack, the owner's name and
+ * phone (the studio's client record), the address with a map link, what to bring with its cure times,
+ * and the cautions. A fixed number of queries for the whole day.
+ */
 export function technicianDay(ctx: StudioContext, opts: { date?: string; technicianId?: string } = {}, now = Date.now()) {
   const db = getDb();
   const tz = ctx.studio.timeZone;
@@ -412,18 +491,33 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
   const from = new Date(zonedTimeToEpochMs(date, 0, tz));
   const to = new Date(zonedTimeToEpochMs(addDays(date, 1), 0, tz));
   const rows = db
-    .select({ visit: visits, job: repairJobs, piece: pieces, ownerName: users.name })
+    .select({ visit: visits, job: repairJobs, piece: pieces, ownerName: users.name, ownerPhone: clients.phone, claim: { id: claims.id, description: claims.description, category: claims.category, noticedOn: claims.noticedOn } })
     .from(visits)
     .innerJoin(repairJobs, eq(repairJobs.id, visits.jobId))
     .innerJoin(pieces, eq(pieces.id, visits.pieceId))
     .leftJoin(users, eq(users.id, repairJobs.ownerId))
+    .leftJoin(clients, and(eq(clients.studioId, visits.studioId), eq(clients.userId, repairJobs.ownerId)))
+    .leftJoin(claims, and(eq(claims.id, repairJobs.claimId), eq(claims.studioId, visits.studioId)))
     .where(and(eq(visits.studioId, ctx.studio.id), eq(visits.technicianId, technicianId), inArray(visits.state, ["booked", "done"]), gte(visits.startAt, from), lt(visits.startAt, to)))
     .orderBy(asc(visits.startAt))
     .all();
   const products = studioProducts(ctx.studio.id);
-  const items = rows.map(({ visit, job, piece, ownerName }) => {
-    const layers = db.select().from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).all();
-    const bring = whatToBring(job, piece, products);
+  const ids = (xs: (string | null | undefined)[]) => [...new Set(xs.filter((x): x is string => !!x)), "-"];
+  const layersByPiece = groupBy(
+    db.select().from(finishLayers).where(inArray(finishLayers.pieceId, ids(rows.map((r) => r.piece.id)))).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).all(),
+    (l) => l.pieceId,
+  );
+  const photosByVisit = groupBy(
+    db.select({ id: visitPhotos.fileId, kind: visitPhotos.kind, visitId: visitPhotos.visitId }).from(visitPhotos).where(inArray(visitPhotos.visitId, ids(rows.map((r) => r.visit.id)))).orderBy(asc(visitPhotos.createdAt)).all(),
+    (p) => p.visitId,
+  );
+  const claimPhotosByClaim = groupBy(
+    db.select({ id: files.id, claimId: files.claimId }).from(files).where(and(inArray(files.claimId, ids(rows.map((r) => r.claim?.id))), eq(files.purpose, "claim_photo"), eq(files.studioId, ctx.studio.id))).orderBy(asc(files.createdAt)).all(),
+    (f) => f.claimId,
+  );
+  const items = rows.map(({ visit, job, piece, ownerName, ownerPhone, claim }) => {
+    const layers = layersByPiece.get(piece.id) ?? [];
+    const bring = whatToBring(job, piece, products, localDate(visit.startAt.getTime(), tz));
     const jobTasks = (job.quoteInput as { tasks?: CareTaskKind[] }).tasks ?? [];
     // The cautions for this visit's tasks and the products brought, once each (lib/care/cautions).
     const cautions = cautionsFor({
@@ -432,18 +526,26 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
       hasResin: piece.resinKind !== "none" || layers.some((l) => l.finishClass === "epoxy_surface"),
       audience: "technician",
     });
-    const photos = db.select({ id: visitPhotos.fileId, kind: visitPhotos.kind }).from(visitPhotos).where(eq(visitPhotos.visitId, visit.id)).all();
+    const photos = (photosByVisit.get(visit.id) ?? []).map(({ id, kind }) => ({ id, kind }));
     const tasks = jobTasks.map((k) => CARE_TASK_LABELS[k] ?? k);
     return {
-      visit: visitJson(visit, { when: formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), tz) }),
+      visit: visitJson(visit, { when: formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), tz), mapsUrl: mapsUrl(visit.location), started: visit.startAt.getTime() <= now }),
       job: { id: job.id, title: job.title, tasks, notes: job.notes },
+      claim: claim?.id
+        ? { id: claim.id, description: claim.description, category: claim.category, noticedOn: claim.noticedOn, photos: (claimPhotosByClaim.get(claim.id) ?? []).map((f) => ({ id: f.id, url: fileUrl(f.id), thumbUrl: fileUrl(f.id, true) })) }
+        : null,
       piece: { id: piece.id, title: piece.title, resinKind: piece.resinKind, primarySpeciesId: piece.primarySpeciesId, deliveredOn: piece.deliveredOn, internalNotes: piece.internalNotes },
       ownerName: ownerName ?? null,
+      ownerPhone: ownerPhone ? { tel: ownerPhone, display: displayPhone(ownerPhone, ctx.studio.country) } : null,
       layers: layers.map((l) => ({ id: l.id, surface: l.surface, position: l.position, finishClass: l.finishClass, classLabel: FINISH_CLASS_LABELS[l.finishClass], productLabel: l.productLabel, coats: l.coats, appliedOn: l.appliedOn, notes: l.notes })),
       bring,
+      /** The report's proposed layers: the quote's products and coats. */
+      defaultLayers: bring.map((b) => ({ finishClass: b.finishClass, productId: b.productId, coats: b.coats })),
       cautions,
       photos,
-      report: visit.reportedAt ? { work: visit.reportWork ?? "", signOffName: visit.reportSignOffName ?? "", at: iso(visit.reportedAt) } : null,
+      report: visit.reportedAt
+        ? { work: visit.reportWork ?? "", at: iso(visit.reportedAt), earlyReason: visit.reportEarlyReason, signedOffAt: visit.signedOffAt ? iso(visit.signedOffAt) : null, typedName: visit.reportSignOffName }
+        : null,
     };
   });
   return {
@@ -495,6 +597,15 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
   const { visit, studio } = visitForActor(actor, visitId);
   if (visit.state === "done") throw conflict("This visit's report is already filed.");
   if (visit.state === "cancelled") throw conflict("This visit was cancelled.");
+  const early = now.getTime() < visit.startAt.getTime();
+  if (early) {
+    const starts = `${formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), studio.timeZone)} (${studio.timeZone})`;
+    if (actor.kind === "technician") throw conflict(`This visit starts ${starts}. File the report once it has started; the studio office can file it early with a reason.`);
+    if (!input.earlyReason) {
+      const msg = "The visit hasn't started yet. Say why the report is filed early; the reason goes in the audit log.";
+      throw unprocessable("report_before_visit", msg, { earlyReason: [msg] });
+    }
+  }
   const today = localDate(now.getTime(), studio.timeZone);
   const db = getDb();
   const piece = db.select().from(pieces).where(eq(pieces.id, visit.pieceId)).get()!;
@@ -505,6 +616,7 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
   });
   if (Object.keys(fieldErrors).length) throw badRequest("Check the layer dates.", fieldErrors);
 
+  const signOffToken = randomToken();
   const result = db.transaction(
     (tx) => {
       const fresh = tx.select().from(visits).where(eq(visits.id, visit.id)).get()!;
@@ -532,15 +644,33 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
       }
       const done = tx
         .update(visits)
-        .set({ state: "done", reportWork: input.work, reportSignOffName: input.signOffName, reportLayerIds: added.map((l) => l.id), reportedAt: now, reportedById: ctx.user.id, version: sql`${visits.version} + 1`, updatedAt: now })
+        .set({
+          state: "done",
+          reportWork: input.work,
+          reportLayerIds: added.map((l) => l.id),
+          reportedAt: now,
+          reportedById: ctx.user.id,
+          reportEarlyReason: early ? input.earlyReason : null,
+          ...(job.ownerId ? { signOffTokenHash: sha256Hex(signOffToken), signOffExpiresAt: new Date(now.getTime() + SIGN_OFF_TTL_MS) } : {}),
+          version: sql`${visits.version} + 1`,
+          updatedAt: now,
+        })
         .where(and(eq(visits.id, visit.id), eq(visits.version, visit.version)))
         .returning()
         .get();
       if (!done) throw conflict("The visit changed while you were working on it. Reload and try again.");
       if (job.state === "scheduled") moveJob(tx, job, "done", { doneAt: now });
+      followJob(tx, job.id, "job_done", ctx.user.id);
       tx.update(pieces).set({ updatedAt: now }).where(eq(pieces.id, piece.id)).run();
       indexPiece(tx, piece.id);
-      recordAudit(tx, { studioId: studio.id, actorId: ctx.user.id, action: "visit.reported", subjectType: "visit", subjectId: visit.id, data: { layerIds: added.map((l) => l.id), signOffName: input.signOffName } });
+      recordAudit(tx, {
+        studioId: studio.id,
+        actorId: ctx.user.id,
+        action: "visit.reported",
+        subjectType: "visit",
+        subjectId: visit.id,
+        data: { layerIds: added.map((l) => l.id), ...(early ? { beforeStart: true, start: visit.startAt.toISOString(), reason: input.earlyReason } : {}) },
+      });
       return { visit: done, added, job };
     },
     { behavior: "immediate" },
@@ -566,7 +696,7 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
         technicianName: technician?.name ?? "Your technician",
         work: input.work,
         layers: result.added.map((l) => `${l.surface[0]!.toUpperCase()}${l.surface.slice(1)}: ${FINISH_CLASS_LABELS[l.finishClass]}${l.productLabel ? ` — ${l.productLabel}` : ""}, ${l.coats} coat${l.coats === 1 ? "" : "s"}, ${formatDate(l.appliedOn)}`),
-        signOffName: input.signOffName,
+        signOffUrl: signOffUrl(signOffToken),
         photoCount,
         nextCare: schedule.tasks.slice(0, 3).map((t) => ({ label: `${t.label} (${SURFACE_WORDS[t.surface]})`, dueOn: formatDate(t.dueOn) })),
         curing: cureAdvice(curingLayers(result.added, products, schedule.today), schedule.today),

@@ -210,8 +210,6 @@ const ROUTES: RouteRow[] = [
   // Public: the same answer for everyone.
   { route: "GET /home", expect: "303:/sign-in 303:/pieces 303:/pieces 303:/studio/today 303:/studio 303:/studio 303:/studio 303:/studio", send: ({ api }) => api.get("/home") },
   { route: "GET /api/health", expect: "200 ".repeat(8), send: ({ api }) => api.get("/api/health") },
-  // Exists only during a benchmark run (GRAINWARD_BENCH_JSON), never in the e2e server.
-  { route: "GET /api/bench/same-json", expect: "404 ".repeat(8), send: ({ api }) => api.get("/api/bench/same-json") },
   { route: "GET /api/unsubscribe", expect: "303:/unsubscribe ".repeat(8), send: ({ api }) => api.get("/api/unsubscribe?t=matrix-not-a-real-token") },
   // The signed token is the only authority; a made-up one is refused for everyone alike.
   {
@@ -343,12 +341,12 @@ const ROUTES: RouteRow[] = [
   {
     route: "POST /api/visits/[id]/report",
     expect: "401 403 403 409 409 409 404 404",
-    send: ({ api }) => api.post(`/api/visits/${X.doneVisitId}/report`, { data: { work: "Matrix check (never filed).", layers: [], signOffName: "Nobody" } }),
+    send: ({ api }) => api.post(`/api/visits/${X.doneVisitId}/report`, { data: { work: "Matrix check (never filed).", layers: [] } }),
   },
   {
     route: "POST /api/visits/[id]/report",
     expect: "401 403 403 404 - - 404 404",
-    send: ({ api }) => api.post(`/api/visits/${X.solBookedVisitId}/report`, { data: { work: "Matrix check (never filed).", layers: [], signOffName: "Nobody" } }),
+    send: ({ api }) => api.post(`/api/visits/${X.solBookedVisitId}/report`, { data: { work: "Matrix check (never filed).", layers: [] } }),
   },
   { route: "GET /api/technicians/[id]/hours", expect: "401 403 403 200 200 200 404 404", send: ({ api }) => api.get(`/api/technicians/${X.inesId}/hours`) },
   { route: "GET /api/technicians/[id]/hours", expect: "401 403 403 404 200 200 404 404", send: ({ api }) => api.get(`/api/technicians/${X.solId}/hours`) },
@@ -484,6 +482,8 @@ const ACTIONS: ActionRow[] = [
   },
   // The verification link's page posts this; a made-up token confirms nothing, for anyone.
   { action: "app/(public)/verify-email/actions.ts#confirmEmailAction", expect: "→/verify-email/sent ".repeat(8), args: () => ({ form: { token: "matrix-not-a-real-verification-token" } }) },
+  // The sign-off link's page posts this; a made-up token signs off nothing, for anyone.
+  { action: "app/(public)/visit-sign-off/actions.ts#confirmSignOffAction", expect: "→/visit-sign-off ".repeat(8), args: () => ({ form: { token: "matrix-not-a-real-sign-off-token" } }) },
   { action: "app/(public)/offers/[token]/actions.ts#acceptOfferAction", expect: "→/offers/* ".repeat(8), args: () => ({ form: { token: "matrix-not-a-real-offer-token" } }) },
   { action: "app/(public)/unsubscribe/actions.ts#setRemindersAction", expect: "→/unsubscribe ".repeat(8), args: () => ({ form: { t: "short" } }) },
 

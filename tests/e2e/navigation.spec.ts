@@ -48,6 +48,7 @@ const ROLES = {
     home: "/pieces",
     bar: [
       ["My pieces", "/pieces"],
+      ["Claims", "/claims"],
       ["Repairs", "/jobs"],
       ["Register a piece", "/register"],
       ["Account", "/account"],

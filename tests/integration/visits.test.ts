@@ -184,8 +184,8 @@ describe("tenancy and roles", () => {
     }
     expect(await statusOf(bookVisit(strangerStaff, { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW))).toBe(404);
     expect(await statusOf(() => listJobSlots(techActor(w.tech), w.job.id, {}, NOW))).toBe(404);
-    expect(await statusOf(submitReport(otherTech, v.id, { work: "x", layers: [], signOffName: "x" }))).toBe(404);
-    expect(await statusOf(submitReport(await memberContext(elsewhere, "technician"), v.id, { work: "x", layers: [], signOffName: "x" }))).toBe(404);
+    expect(await statusOf(submitReport(otherTech, v.id, { work: "x", layers: [] }))).toBe(404);
+    expect(await statusOf(submitReport(await memberContext(elsewhere, "technician"), v.id, { work: "x", layers: [] }))).toBe(404);
     expect(listVisits(techActor(otherTech), range).visits).toHaveLength(0);
     expect(listVisits(techActor(w.tech), range).visits.map((x) => x.id)).toEqual([v.id]);
     expect(await statusOf(() => listVisits(techActor(otherTech), { ...range, technician: w.tech.user.id }))).toBe(404);
@@ -245,7 +245,7 @@ describe("the visit report", () => {
 
     const applied = slot.localDate;
     const since = Date.now();
-    const r = await submitReport(w.tech, v.id, { work: "Cleaned, keyed, one coat of oil on the top.", layers: [{ surface: "top", finishClass: "hardwax_oil", productId: w.product.id, coats: 1, appliedOn: applied }], signOffName: "T. Owner" }, reportDay);
+    const r = await submitReport(w.tech, v.id, { work: "Cleaned, keyed, one coat of oil on the top.", layers: [{ surface: "top", finishClass: "hardwax_oil", productId: w.product.id, coats: 1, appliedOn: applied }] }, reportDay);
     expect(r.visit.state).toBe("done");
     const stack = db.select().from(finishLayers).where(and(eq(finishLayers.pieceId, w.piece.id), eq(finishLayers.surface, "top"))).all();
     expect(stack).toHaveLength(2);
@@ -259,10 +259,11 @@ describe("the visit report", () => {
 
     const mail = await waitForMail({ to: w.owner.email, subject: /^Visit report/, since });
     expect(mail.text).toContain("Cleaned, keyed, one coat of oil on the top.");
-    expect(mail.text).toContain("T. Owner");
+    // The owner signs off themselves: the mail carries their single-use link, no name typed for them.
+    expect(mail.text).toMatch(/\/visit-sign-off\?token=[A-Za-z0-9_-]{20,}/);
     expect(mail.text).toContain(DateTime.fromISO(after.dueOn).setLocale("en-GB").toFormat("d LLLL yyyy"));
     expect(mail.text).toMatch(/still curing/);
-    expect(await statusOf(submitReport(w.tech, v.id, { work: "again", layers: [], signOffName: "x" }))).toBe(409);
+    expect(await statusOf(submitReport(w.tech, v.id, { work: "again", layers: [] }))).toBe(409);
   });
 
   it("refuses layers dated in the future or before delivery, and a product of another class, keeping the field paths", async () => {
@@ -270,14 +271,14 @@ describe("the visit report", () => {
     const slot = listJobSlots(staffActor(w.staff), w.job.id, { from: "2027-05-03T12:00:00Z", to: "2027-05-05T00:00:00Z" }, NOW).slots[0]!;
     const v = await bookVisit(staffActor(w.staff), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW);
     const at = new Date(NOW + 24 * HOUR);
-    const errOf = (layers: unknown[]) => submitReport(w.tech, v.id, { work: "x", layers, signOffName: "x" }, at).then(
+    const errOf = (layers: unknown[]) => submitReport(w.tech, v.id, { work: "x", layers }, at).then(
         () => ({ fieldErrors: undefined }),
         (e: AppError) => e,
       );
     expect((await errOf([{ finishClass: "hardwax_oil", coats: 1, appliedOn: "2027-06-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
     expect((await errOf([{ finishClass: "hardwax_oil", coats: 1, appliedOn: "2020-01-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
     expect((await errOf([{ finishClass: "paste_wax", productId: w.product.id, coats: 1, appliedOn: "2027-05-04" }])).fieldErrors).toHaveProperty(["layers.0.finishClass"]);
-    expect(await statusOf(submitReport(w.tech, v.id, { work: "", layers: [], signOffName: "" }, at))).toBe(400);
+    expect(await statusOf(submitReport(w.tech, v.id, { work: "", layers: [] }, at))).toBe(400);
     expect(getDb().select().from(visits).where(eq(visits.id, v.id)).get()!.state).toBe("booked");
     expect(getDb().select().from(finishLayers).where(eq(finishLayers.pieceId, w.piece.id)).all()).toHaveLength(1);
   });

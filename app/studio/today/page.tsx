@@ -1,16 +1,18 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { ChevronLeft, ChevronRight, Clock, MapPin, PackageCheck, TriangleAlert } from "lucide-react";
+import { ChevronLeft, ChevronRight, Clock, MapPin, PackageCheck, Phone, TriangleAlert } from "lucide-react";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { StatusBadge } from "@/components/ui/status";
+import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import { VisitReportForm } from "@/components/visits/visit-report-form";
 import { FinishStack } from "@/components/ui/finish-stack";
 import { requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
-import type { FinishClass } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
+import { formatDate } from "@/lib/owner/format";
 import { formatVolume } from "@/lib/owner/format";
 import { formatClock } from "@/lib/visits/format";
 import { technicianDay } from "@/lib/visits/service";
@@ -27,6 +29,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
   const ctx = await forPage(requireStudioMember);
   const day = await forPage(async () => technicianDay(ctx, { date: q.date, technicianId: q.technician }));
   const tz = day.timeZone;
+  const staff = ctx.role !== "technician";
   const nav = (date: string) => `/studio/today?date=${date}${q.technician ? `&technician=${q.technician}` : ""}`;
   return (
     <div className="mx-auto max-w-2xl">
@@ -53,7 +56,6 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
         <ol className="space-y-6">
           {day.items.map((item, i) => {
             const wood = getSpecies(item.piece.primarySpeciesId)?.commonName ?? "Wood";
-            const firstBring = item.bring[0]?.finishClass as FinishClass | undefined;
             return (
               <li key={item.visit.id}>
                 <Card className="space-y-4 p-4">
@@ -65,8 +67,21 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                       </p>
                       <h2 className="font-display text-xl font-semibold">{item.piece.title}</h2>
                       <p className="text-sm text-muted">
-                        {item.job.title}
-                        {item.ownerName ? ` · ${item.ownerName}` : ""}
+                        {staff ? (
+                          <Link href={`/studio/jobs/${item.job.id}`} className="text-resin underline">
+                            {item.job.title}
+                          </Link>
+                        ) : (
+                          item.job.title
+                        )}
+                        {item.claim && staff ? (
+                          <>
+                            {" · "}
+                            <Link href={`/studio/claims/${item.claim.id}`} className="text-resin underline">
+                              the claim
+                            </Link>
+                          </>
+                        ) : null}
                       </p>
                     </div>
                     <StatusBadge label={item.visit.state === "done" ? "Report filed" : "To do"} tone={item.visit.state === "done" ? "ok" : "progress"} />
@@ -75,10 +90,42 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                     <MapPin aria-hidden className="mt-0.5 size-5 shrink-0 text-resin" />
                     <span>
                       <span className="font-semibold">{item.visit.locationKind === "studio" ? "At the studio: " : ""}</span>
-                      {item.visit.location}
+                      <a href={item.visit.mapsUrl} className="text-resin underline" target="_blank" rel="noopener noreferrer">
+                        {item.visit.location}
+                      </a>
+                      <span className="block text-sm text-muted">Opens the address in a map.</span>
                     </span>
                   </p>
+                  {item.ownerName ? (
+                    <p className="flex flex-wrap items-center gap-x-2 gap-y-1">
+                      <Phone aria-hidden className="size-5 shrink-0 text-resin" />
+                      <span className="font-semibold">{item.ownerName}</span>
+                      {item.ownerPhone ? (
+                        <a href={`tel:${item.ownerPhone.tel}`} className="inline-flex min-h-11 items-center text-resin underline" aria-label={`Call ${item.ownerName}, ${item.ownerPhone.display}`}>
+                          {item.ownerPhone.display}
+                        </a>
+                      ) : (
+                        <span className="text-sm text-muted">No phone number on record; the studio office has their e-mail.</span>
+                      )}
+                    </p>
+                  ) : null}
                   {item.job.tasks.length ? <p className="text-sm">Tasks: {item.job.tasks.join(", ")}</p> : null}
+                  {item.job.notes ? (
+                    <section className="space-y-1">
+                      <h3 className="font-semibold">Notes for you</h3>
+                      <p className="whitespace-pre-wrap rounded-lg bg-paper px-3 py-2 text-sm">{item.job.notes}</p>
+                    </section>
+                  ) : null}
+                  {item.claim ? (
+                    <section className="space-y-2">
+                      <h3 className="font-semibold">What the owner reported</h3>
+                      <p className="text-sm text-muted">
+                        {CLAIM_CATEGORY_LABELS[item.claim.category]} · noticed {formatDate(item.claim.noticedOn)}
+                      </p>
+                      <p className="whitespace-pre-wrap text-sm">{item.claim.description}</p>
+                      {item.claim.photos.length ? <VisitPhotoGrid photos={item.claim.photos.map((p) => ({ id: p.id, thumbUrl: p.thumbUrl, url: p.url, label: "Owner's photo" }))} /> : null}
+                    </section>
+                  ) : null}
 
                   <section className="space-y-2">
                     <h3 className="font-semibold">Finish stack</h3>
@@ -95,6 +142,9 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                           <li key={b.product} className="rounded-lg bg-paper px-3 py-2">
                             <span className="font-semibold">{b.product}</span> ({b.classLabel}) — {formatVolume(b.ml, ctx.studio.unitSystem)} for {b.coats} coat{b.coats === 1 ? "" : "s"} on this top
                             {b.containers ? <span className="block text-muted">Open: {b.containers}</span> : null}
+                            <span className="block text-muted">
+                              Cure: light use after {b.cure.lightUseHours} h, full use after {b.cure.fullCureDays} days. Tell the owner.
+                            </span>
                           </li>
                         ))}
                       </ul>
@@ -122,11 +172,29 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                       <Notice tone="ok" title="Report filed">
                         {item.report.work}
                         <br />
-                        Signed off by {item.report.signOffName}.
+                        {item.report.signedOffAt
+                          ? "The owner signed off the work."
+                          : item.report.typedName
+                            ? `Name noted at the visit: ${item.report.typedName}.`
+                            : "Waiting for the owner to sign off from the report mail."}
+                        {item.report.earlyReason ? (
+                          <>
+                            <br />
+                            Filed before the start: {item.report.earlyReason}
+                          </>
+                        ) : null}
                       </Notice>
                     ) : item.visit.state === "booked" ? (
-                      <VisitReportForm visitId={item.visit.id} products={day.products} today={day.today} defaultClass={firstBring} initialPhotos={item.photos.map((p) => ({ id: p.id, kind: p.kind, thumbUrl: `/api/files/${p.id}?thumb=1` }))} />
+                      <VisitReportForm
+                        visitId={item.visit.id}
+                        products={day.products}
+                        today={day.today}
+                        defaultLayers={item.defaultLayers}
+                        early={item.visit.started ? null : { startsAt: `${item.visit.when} (${tz})`, asStaff: staff }}
+                        initialPhotos={item.photos.map((p) => ({ id: p.id, kind: p.kind, thumbUrl: `/api/files/${p.id}?thumb=1` }))}
+                      />
                     ) : null}
+                    {item.report && item.photos.length ? <VisitPhotoGrid photos={item.photos.map((p) => ({ id: p.id, thumbUrl: `/api/files/${p.id}?thumb=1`, url: `/api/files/${p.id}`, label: p.kind === "before" ? "Before" : "After" }))} /> : null}
                   </section>
                 </Card>
               </li>

@@ -24,7 +24,7 @@ const DECISION_WORDS = {
 
 export default async function OwnerClaimPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const { claim, piece, studio, photos, messages } = await forPage(async () => getOwnerClaim(await requireUser(), id));
+  const { claim, piece, studio, photos, messages, repair } = await forPage(async () => getOwnerClaim(await requireUser(), id));
   const open = OPEN_STATES.includes(claim.state);
   return (
     <div className="space-y-6">
@@ -53,6 +53,19 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
           <p>{DECISION_WORDS[claim.decision]}</p>
           {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
           <p className="text-sm text-muted">Decided {claim.decidedAt?.slice(0, 10)}</p>
+        </Card>
+      ) : null}
+      {repair ? (
+        <Card className="space-y-2" aria-labelledby="repair-heading">
+          <h2 id="repair-heading" className="font-display text-xl font-semibold">
+            The repair
+          </h2>
+          <p>{repair.stage}</p>
+          {repair.jobId ? (
+            <Link href={`/jobs/${repair.jobId}`} className="inline-flex min-h-11 items-center text-resin underline">
+              Open the repair
+            </Link>
+          ) : null}
         </Card>
       ) : null}
       <section className="space-y-3" aria-labelledby="photos-heading">

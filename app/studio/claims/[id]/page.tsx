@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { CoveragePanel } from "@/components/claims/coverage-panel";
+import { CreateRepairJobButton } from "@/components/claims/create-job-button";
 import { MessageThread } from "@/components/claims/message-thread";
 import { PhotoGallery } from "@/components/claims/photo-gallery";
 import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
@@ -117,6 +118,33 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               <DecisionForm claimId={claim.id} version={claim.version} suggestion={coverage.check?.suggestion ?? null} suggestedPct={coverage.check?.suggestedCoveredPct ?? null} />
             ) : null}
           </Card>
+          {claim.state !== "declined" && (claim.decision || v.repair) ? (
+            <Card className="space-y-2" aria-labelledby="repair-heading">
+              <h2 id="repair-heading" className="font-display text-xl font-semibold">
+                Repair
+              </h2>
+              {v.repair ? (
+                <>
+                  <p>
+                    <Link href={`/studio/jobs/${v.repair.jobId}`} className="font-medium text-resin underline">
+                      {v.repair.title}
+                    </Link>{" "}
+                    · {v.repair.stateLabel}
+                  </p>
+                  {v.repair.visit ? (
+                    <p className="text-sm text-muted">
+                      {v.repair.visit.state === "done" ? "Visit done" : "Visit booked"}: {v.repair.visit.when} ({v.studio.timeZone})
+                    </p>
+                  ) : null}
+                </>
+              ) : claim.state === "accepted" ? (
+                <>
+                  <p className="text-sm text-muted">Open the repair job to price the work and send the owner a quote.</p>
+                  <CreateRepairJobButton claimId={claim.id} />
+                </>
+              ) : null}
+            </Card>
+          ) : null}
           <CoveragePanel coverage={coverage} />
           <Card className="space-y-2">
             <h2 className="font-display text-xl font-semibold">Piece record</h2>

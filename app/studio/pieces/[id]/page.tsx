@@ -9,11 +9,14 @@ import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pie
 import { ButtonLink } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
+import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
+import { requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getSpecies } from "@/lib/care/species";
 import { PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { careBasics } from "@/lib/pieces/care-basics";
 import { piecePage } from "@/lib/pieces/registry";
+import { visitPhotosOf } from "@/lib/visits/service";
 
 export const metadata: Metadata = { title: "Piece" };
 
@@ -31,6 +34,7 @@ function Row({ label, children }: { label: string; children: React.ReactNode }) 
 export default async function StudioPiecePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const d = await forPage(() => piecePage(id));
+  const visitPhotos = await forPage(async () => visitPhotosOf({ kind: "staff", ctx: await requireStudioMember() }, { pieceId: id }));
   const p = d.piece;
   const u = d.unitSystem;
   const species = [p.primarySpeciesId, p.secondarySpeciesId].filter(Boolean).map((s) => getSpecies(s!)?.commonName ?? s);
@@ -191,6 +195,13 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
             )}
             <PhotoUploader pieceId={p.id} />
           </Card>
+
+          {visitPhotos.length ? (
+            <Card className="space-y-3">
+              <h2 className="font-display text-xl font-semibold">Visit photos</h2>
+              <VisitPhotoGrid photos={visitPhotos} label="Photos taken at visits" />
+            </Card>
+          ) : null}
 
           <Card className="space-y-2 text-sm">
             <h2 className="font-display text-xl font-semibold">Care basics on the card</h2>
