@@ -45,7 +45,7 @@ export function ClaimReceivedEmail(p: ClaimReceivedEmailProps) {
   );
 }
 
-// Invented example values (the demo studio of DESIGN.md §9) for the React Email preview.
+// Invented example values (the demo studio of db/seed/demo.ts) for the React Email preview.
 ClaimReceivedEmail.PreviewProps = {
   audience: "owner",
   ownerName: "Jonah Reyes",

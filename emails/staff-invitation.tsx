@@ -50,7 +50,7 @@ export function StaffInvitationEmail({ studioName, role, inviterName, url, expir
   );
 }
 
-// Invented example values (the demo studio of DESIGN.md §9) for the React Email preview.
+// Invented example values (the demo studio of db/seed/demo.ts) for the React Email preview.
 StaffInvitationEmail.PreviewProps = {
   studioName: "Larchmere Slab & Resin",
   role: "technician",

@@ -56,7 +56,7 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
   });
   const decision = useWatch({ control: form.control, name: "decision" });
   const errors = form.formState.errors;
-  // The app's own dialog asks before the decision goes out (DESIGN.md §10), not the browser's confirm().
+  // The app's own dialog asks before the decision goes out, not the browser's confirm().
   const [pending, setPending] = useState<z.output<typeof claimDecisionSchema> | null>(null);
   const [sending, setSending] = useState(false);
   const onSubmit = form.handleSubmit((values) => {

@@ -10,7 +10,7 @@ const LOOK: Record<OwnerTaskState, { Icon: typeof CircleCheck; cls: string; dot:
   later: { Icon: CircleCheck, cls: "border-ok/30 bg-ok-soft text-ok", dot: "bg-ok" },
 };
 
-/** A care task's state as words saying what to do and an icon, never colour alone (DESIGN.md §10). */
+/** A care task's state as words saying what to do and an icon, never colour alone. */
 export function TaskStatus({ status, daysUntilDue, className }: { status: CareTaskStatus; daysUntilDue: number; className?: string }) {
   const state = ownerTaskState(status, daysUntilDue);
   const { Icon, cls } = LOOK[state];

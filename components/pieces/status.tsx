@@ -2,7 +2,7 @@ import { AlarmClock, CircleCheck, Clock, ShieldCheck, ShieldOff, TriangleAlert, 
 import type { CareTaskStatus } from "@/lib/care/vocabulary";
 import { cn } from "@/components/ui/cn";
 
-// States are a word and an icon, never colour alone (DESIGN.md §10).
+// States are a word and an icon, never colour alone.
 
 const CARE: Record<CareTaskStatus, { word: string; Icon: typeof Clock; cls: string }> = {
   upcoming: { word: "Upcoming", Icon: Clock, cls: "text-muted" },

@@ -3,7 +3,7 @@
 import { useEffect, useId, useRef, type ReactNode } from "react";
 import { Button } from "@/components/ui/button";
 
-/** Asks before a destructive change (DESIGN.md §10), with the consequence spelled out. */
+/** Asks before a destructive change, with the consequence spelled out. */
 export function ConfirmDialog({ open, title, children, confirmLabel, busy, onConfirm, onCancel }: { open: boolean; title: string; children: ReactNode; confirmLabel: string; busy?: boolean; onConfirm: () => void; onCancel: () => void }) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();

@@ -9,7 +9,7 @@ const tones = {
   error: { box: "border-danger/30 bg-danger-soft text-ink", Icon: CircleAlert, label: "Problem" },
 } as const;
 
-/** A message with an icon and a word, never colour alone (DESIGN.md §10). */
+/** A message with an icon and a word, never colour alone. */
 export function Notice({ tone = "info", title, children, className }: { tone?: keyof typeof tones; title?: string; children?: ReactNode; className?: string }) {
   const { box, Icon, label } = tones[tone];
   return (

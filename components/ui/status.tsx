@@ -11,7 +11,7 @@ const TONES: Record<StatusTone, { className: string; Icon: LucideIcon }> = {
   stopped: { className: "border-line bg-paper text-muted", Icon: CircleSlash },
 };
 
-/** A state as a word with an icon, never a colour alone (DESIGN.md §10). */
+/** A state as a word with an icon, never a colour alone. */
 export function StatusBadge({ label, tone }: { label: string; tone: StatusTone }) {
   const { className, Icon } = TONES[tone];
   return (

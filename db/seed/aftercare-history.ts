@@ -1,4 +1,4 @@
-// Invented history of care reminders and refresh offers for the demo studio (DESIGN.md §9), so its
+// Invented history of care reminders and refresh offers for the demo studio (db/seed/demo.ts), so its
 // overview has a year of reminders, care logged in return, and offers with outcomes. Derived from
 // the demo's own rows: each care-log entry an owner made in the last year was preceded by the
 // reminders the pass would have sent for it, and each task that is overdue today got its reminders

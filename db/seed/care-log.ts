@@ -1,4 +1,4 @@
-// Invented care-log history for the demo owners (DESIGN.md §9), so their schedules look lived-in:
+// Invented care-log history for the demo owners (db/seed/demo.ts), so their schedules look lived-in:
 // some care logged on time, a correction here and there, and a task or two left to fall due.
 // Everything here is invented. Dates are relative to the seed day, like the rest of the demo.
 import { and, eq, isNotNull } from "drizzle-orm";

@@ -1,4 +1,4 @@
-// Invented demo claims (DESIGN.md §9) in different states, with generated photos stored through the
+// Invented demo claims (the demo studio of db/seed/demo.ts) in different states, with generated photos stored through the
 // shared storage module (so they are re-encoded, stripped and served like real uploads). Everything
 // here is invented: the damage, the words, the pictures (drawn by sharp, not photographed).
 import { and, eq } from "drizzle-orm";

@@ -1,4 +1,4 @@
-// The demo studio of DESIGN.md §9. Everything here is invented: the studio, the town, the people,
+// The demo studio. Everything here is invented: the studio, the town, the people,
 // the pieces and the product names. Dates are relative to the day the seed runs, so the demo always
 // has care coming due.
 import { hashPassword } from "@/lib/auth/password";

@@ -8,7 +8,7 @@ import type { StudioRole } from "@/lib/care/vocabulary";
 import { forbidden, unauthorized } from "@/lib/errors";
 import { getCurrentSession } from "./session";
 
-// One helper per rule (DESIGN.md §7). Pages, route handlers and server actions call these; the
+// One helper per rule. Pages, route handlers and server actions call these; the
 // queries in lib/ then filter by the studio or owner these return.
 
 export async function requireUser(): Promise<User> {

@@ -1,4 +1,4 @@
-// The one catalogue of safety cautions (DESIGN.md §8) and the selector that picks those that fit a
+// The one catalogue of safety cautions and the selector that picks those that fit a
 // piece of work: the care tasks done, the finish classes applied, whether the piece has resin, and
 // who reads (an owner at home, or a technician on a visit). Pure data: the owner's guide, the drawer
 // card, care reminders, the technician's day, the job page and the visit mails all read it.
@@ -36,7 +36,7 @@ export interface Caution {
  * - polishing_heat, heat_on_resin: cured epoxy softens as it nears its heat-deflection temperature,
  *   which makers of tabletop resins print on their data sheets; common practice, no published source
  *   for the everyday examples.
- * - heavy_top, electrics: DESIGN.md §8 (two people to lift; licensed trades and local codes).
+ * - heavy_top, electrics: two people to lift; licensed trades and local codes (common practice, no published source).
  */
 export const CAUTIONS: Record<CautionKey, Omit<Caution, "key">> = {
   oily_rags: {

@@ -244,7 +244,7 @@ function firstMissedCare(
 
 const mm = (n: number) => `${Math.abs(n).toFixed(1)} mm`;
 
-/** The suggested coverage of a claim, with every reason (DESIGN.md §4.6). Staff decide. */
+/** The suggested coverage of a claim, with every reason. Staff decide. */
 export function checkCoverage(input: CoverageInput): CoverageCheck {
   const { claim, piece, policy, careLog } = input;
   const timeZone = input.timeZone ?? "UTC";

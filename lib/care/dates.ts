@@ -101,7 +101,7 @@ export function diffDays(a: IsoDate, b: IsoDate): number {
 }
 
 /**
- * Calendar-month addition that clamps to the end of the target month (DESIGN.md §4):
+ * Calendar-month addition that clamps to the end of the target month:
  * 2025-01-31 + 1 month = 2025-02-28, 2024-01-31 + 1 month = 2024-02-29. Same rule as Luxon's plus({ months }).
  */
 export function addMonths(date: IsoDate, months: number, field?: string): IsoDate {

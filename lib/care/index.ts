@@ -1,4 +1,4 @@
-// The care engine's public API (DESIGN.md §4). Pure TypeScript: no framework, database or npm imports.
+// The care engine's public API (sources of its figures: lib/care/SOURCES.md). Pure TypeScript: no framework, database or npm imports.
 export * from "./vocabulary";
 export * from "./errors";
 export * from "./units";

@@ -10,7 +10,7 @@ export interface WearIntervals {
 export type UseBand = keyof WearIntervals;
 
 /**
- * Default wear intervals, months (DESIGN.md §4). From memory, common practice of makers who finish
+ * Default wear intervals, months. From memory, common practice of makers who finish
  * with these classes — no published source — except paste wax: US National Park Service,
  * *Conserve O Gram* 7/2 (rewax furnished-room furniture every one to four years; published), and the
  * six-month figure for heavily used tables, which is a conservator's post to a mailing list (a
@@ -38,7 +38,7 @@ export const DEFAULT_INTERVAL_SOURCE: Record<FinishClass, string> = {
 /** Yearly clean-and-check of the whole piece: from memory, common practice — no published source. */
 export const ANNUAL_CHECK_MONTHS = 12;
 
-/** Direct sun shortens wear intervals to three quarters (DESIGN.md §4; from memory, common practice). */
+/** Direct sun shortens wear intervals to three quarters (from memory, common practice). */
 export const DIRECT_SUN_FACTOR = 0.75;
 
 /**
@@ -59,7 +59,7 @@ export interface EffectiveInterval {
   text: string;
 }
 
-/** DESIGN.md §3: outdoor covered pieces use the heavy interval. */
+/** Outdoor covered pieces use the heavy interval. */
 export function bandForUse(use: Use): UseBand {
   switch (use) {
     case "heavy":

@@ -54,7 +54,7 @@ export function displayFlOz(exactMl: number): number {
 }
 
 /**
- * Product for a refresh: area × coats ÷ coverage (DESIGN.md §4.4), kept exact; the containers to buy
+ * Product for a refresh: area × coats ÷ coverage (lib/care/SOURCES.md), kept exact; the containers to buy
  * are the whole containers that hold the exact amount; `ml` and `flOz` are its display roundings.
  */
 export function productNeeded({ areaM2, coats, coverageM2PerL, containerSizesMl }: ProductNeededInput): ProductNeeded {

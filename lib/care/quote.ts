@@ -145,7 +145,7 @@ function requireMinor(n: number, field: string): number {
 }
 
 /**
- * A repair or refresh quote (DESIGN.md §4.7), in integer minor units. Rounding: each line is rounded
+ * A repair or refresh quote, in integer minor units. Rounding: each line is rounded
  * once (half up); the covered share and the tax are each computed once on the totals and rounded half up.
  * Order: subtotal = labour + materials + travel; covered = subtotal × coveredPct; tax on (subtotal − covered).
  */

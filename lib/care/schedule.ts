@@ -28,7 +28,7 @@ import {
   type Use,
 } from "./vocabulary";
 
-/** What the care engine needs of a piece record (DESIGN.md §3). */
+/** What the care engine needs of a piece record. */
 export interface CarePiece {
   id: string;
   kind: PieceKind;
@@ -72,7 +72,7 @@ export interface CatalogEntry {
   containerSizesMl: readonly number[];
   /** Price of one container by its size in mL, minor units of the quote currency. */
   containerPricesMinor?: Readonly<Record<number, number>>;
-  /** Overrides DESIGN.md §4's defaults, months. */
+  /** Overrides the default wear intervals (DEFAULT_WEAR_INTERVALS in ./intervals.ts), months. */
   intervals?: Partial<WearIntervals>;
   /** Coats a refresh applies (default 1). */
   refreshCoats?: number;
@@ -137,7 +137,7 @@ export interface CareSchedule {
   notes: string[];
 }
 
-/** Reminders go out 14 days before, on the day, and 30 days after (DESIGN.md §5). */
+/** Reminders go out 14 days before, on the day, and 30 days after. */
 export const REMINDER_OFFSETS_DAYS: Record<ReminderStep, number> = { before_14d: -14, due_day: 0, after_30d: 30 };
 
 export function taskKey(pieceId: string, kind: CareTaskKind, surface: TaskSurface): string {
@@ -212,7 +212,7 @@ function validatePiece(piece: CarePiece): void {
 
 /**
  * The wear interval a layer's clock runs on: the catalog product's months for the band if it has them,
- * else DESIGN.md §4's default; the band is the piece's use (base: light unless outdoor); direct sun × 0.75.
+ * else the default in ./intervals.ts; the band is the piece's use (base: light unless outdoor); direct sun × 0.75.
  */
 export function layerInterval(
   piece: Pick<CarePiece, "use" | "sun">,
@@ -303,7 +303,7 @@ function byDueThenKind(a: CareTask, b: CareTask): number {
   return a.dueOn < b.dueOn ? -1 : a.dueOn > b.dueOn ? 1 : a.kind < b.kind ? -1 : a.kind > b.kind ? 1 : 0;
 }
 
-/** The care tasks of one piece from its finish stack, care log and the studio's catalog (DESIGN.md §4.2–4.3). */
+/** The care tasks of one piece from its finish stack, care log and the studio's catalog. */
 export function careSchedule(input: CareScheduleInput): CareSchedule {
   const { piece, finishLayers, careLog, catalog } = input;
   const timeZone = input.timeZone ?? "UTC";

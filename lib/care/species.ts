@@ -6,7 +6,7 @@
 // The engine moves wood with ONE figure per direction, the shrinkage S (Eq. 13-3, lib/care/shrinkage.ts);
 // the coefficient it reports is the slope of Eq. 13-3 at 10 % MC, which is how Table 13-5 follows from
 // Table 4-3. Per row:
-//   - Table 4-3 printed (../shared/REFERENCES.md): S is that row; the printed Table 13-5 row is kept
+//   - Table 4-3 as printed: S is that row; the printed Table 13-5 row is kept
 //     beside it as a cross-check (tests/reference/movement-wood-handbook.test.ts).
 //   - only Table 13-5 printed: S is derived from the printed coefficients, S = 3000·C / (1 + 20·C).
 //   - a value not in REFERENCES.md is marked "from memory" here, in SOURCES.md and in the test.

@@ -1,4 +1,4 @@
-// The product's shared words (DESIGN.md §2–§3). Pure: no imports. The database schema, the
+// The product's shared words. Pure: no imports. The database schema, the
 // validation schemas and the care engine all take their enumerations from here.
 
 export const PIECE_KINDS = [
@@ -155,11 +155,11 @@ export type CareTaskStatus = (typeof CARE_TASK_STATUSES)[number];
 export const REMINDER_STEPS = ["before_14d", "due_day", "after_30d"] as const;
 export type ReminderStep = (typeof REMINDER_STEPS)[number];
 
-/** Repair job states (DESIGN.md §2): draft → quoted → approved → paid (or covered) → scheduled → done; cancelled from any open state. */
+/** Repair job states: draft → quoted → approved → paid (or covered) → scheduled → done; cancelled from any open state. */
 export const JOB_STATES = ["draft", "quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"] as const;
 export type JobState = (typeof JOB_STATES)[number];
 
-/** Visit states (DESIGN.md §2 "visit"): booked → done, or booked → cancelled. A move keeps it booked and raises its SEQUENCE. */
+/** Visit states: booked → done, or booked → cancelled. A move keeps it booked and raises its SEQUENCE. */
 export const VISIT_STATES = ["booked", "cancelled", "done"] as const;
 export type VisitState = (typeof VISIT_STATES)[number];
 

@@ -10,7 +10,7 @@ import { notFound } from "@/lib/errors";
 import { catalogPatchSchema, catalogProductSchema } from "@/lib/validation/pieces";
 
 // The studio's finish catalog (admin). Wear intervals left empty — or equal to the care engine's
-// default for the class — are stored as null, so the care engine's default (DESIGN.md §4) applies and
+// default for the class — are stored as null, so the care engine's default (lib/care/intervals.ts) applies and
 // the schedule's reasons say so.
 
 type Intervals = Pick<FinishProduct, "intervalHeavyMonths" | "intervalModerateMonths" | "intervalLightMonths">;

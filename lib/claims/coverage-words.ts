@@ -1,4 +1,4 @@
-// The coverage check in words a front desk can read aloud (issue 17 item 11): one summary line first,
+// The coverage check in words a front desk can read aloud: one summary line first,
 // then each finding as a label; the engine's own reasons (equations, tables, sources) stay for the
 // "How this was worked out" disclosure. Pure: the staff claim page and tests use it.
 import type { CoverageCheck, CoverageSuggestion } from "@/lib/care/coverage";

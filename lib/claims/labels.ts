@@ -1,4 +1,4 @@
-// Our own words for claim states, categories and decisions (DESIGN.md §2). Pure, safe for client
+// Our own words for claim states, categories and decisions (lib/care/vocabulary.ts). Pure, safe for client
 // components. Screens pair each state word with an icon (components/claims/state-badge.tsx).
 import type { ClaimCategory } from "@/lib/care/vocabulary";
 import type { ClaimDecision, ClaimState } from "./states";

@@ -1,4 +1,4 @@
-// The claim state machine of DESIGN.md §2, as a table. Pure (type-only import of the schema), so
+// The claim state machine (states in lib/care/vocabulary.ts), as a table. Pure (type-only import of the schema), so
 // client components, the API and the tests read the same rules.
 import type { CLAIM_DECISIONS, CLAIM_STATES } from "@/db/schema";
 

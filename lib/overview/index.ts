@@ -1,5 +1,5 @@
 import "server-only";
-// The studio's overview (issue 10): every figure computed from the studio's own rows, scoped by the
+// The studio's overview: every figure computed from the studio's own rows, scoped by the
 // caller's studio, in the studio's time zone. One query per table; care tasks come from the care
 // engine (careSchedule through lib/pieces/care-inputs), computed in bulk for all pieces at once.
 import { and, eq, gte, inArray, isNotNull, isNull, lt, ne } from "drizzle-orm";

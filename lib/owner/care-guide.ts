@@ -122,7 +122,7 @@ export type CareGuide = {
 
 export type GuideLayer = { surface: Surface; finishClass: FinishClass; productId: string | null; productLabel: string; appliedOn: string };
 
-/** Indoor pieces: where the piece stands (DESIGN.md §4.6: the care guide's climate range). */
+/** Indoor pieces: where the piece stands (the care guide's climate range). */
 export const INDOOR_PLACEMENT = [
   `Keep the room between about ${CARE_GUIDE_CLIMATE.rhMinPct} and ${CARE_GUIDE_CLIMATE.rhMaxPct} % relative humidity, away from radiators, heater vents and fireplaces.`,
   "Use coasters and trivets; lift objects rather than sliding them.",

@@ -14,7 +14,7 @@ import { scheduleFromRows } from "./care-inputs";
 import { loadPiece, studioProducts } from "./registry";
 import { openRegistrationCode } from "./registration";
 
-// The drawer card: a printable card that travels in the piece's drawer (DESIGN.md §2). 4 × 6 in by
+// The drawer card: a printable card that travels in the piece's drawer. 4 × 6 in by
 // default (288 × 432 pt), or A6. Text is real PDF text (Helvetica/Courier), so it can be searched
 // and read by assistive tools; the QR code is a PNG of APP_URL/r/<code>.
 

@@ -1,4 +1,4 @@
-// Registration codes are never stored in plain text (DESIGN.md §2): a keyed hash to find a piece by
+// Registration codes are never stored in plain text: a keyed hash to find a piece by
 // its code, and the code sealed with AES-256-GCM so a card can be printed again. A copy of the
 // database without APP_SECRET lets nobody register a piece. Used by the seed script too, so no
 // server-only import here.

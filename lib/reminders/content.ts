@@ -1,5 +1,5 @@
 // The words of care reminders and refresh offers, built from a care task (pure: no database, no React).
-// Templates in emails/ only lay these out. Safety copy comes from lib/care/cautions (DESIGN.md §8).
+// Templates in emails/ only lay these out. Safety copy comes from lib/care/cautions.ts.
 import { topArea, type TopShape } from "@/lib/care/area";
 import { diffDays } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";

@@ -1,4 +1,4 @@
-// The reminder pass (DESIGN.md §5, issue 6). For every registered piece with reminders on, compute its
+// The reminder pass (steps and send hour: lib/reminders/plan.ts). For every registered piece with reminders on, compute its
 // care tasks (lib/care via lib/pieces/care-inputs, studio time zone), and for each task send the most
 // recent reminder step whose date has come at the studio's send hour (default 09:00) in the owner's
 // zone, unless the send ledger already has it. Only the steps the studio sends count (settings →

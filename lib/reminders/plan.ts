@@ -16,7 +16,7 @@ import { REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
 export const MAX_ATTEMPTS = 3;
 /**
  * Reminders go out at or after this local time of the owner unless the studio chose another hour
- * (DESIGN.md §5: 09:00; studios.reminder_send_hour, settings → reminder timing).
+ * (09:00 unless the studio sets studios.reminder_send_hour in settings → reminder timing).
  */
 export const DEFAULT_SEND_AFTER_MINUTES = 9 * 60;
 /** A queued row untouched for this long belongs to a pass that died (or hangs); see pass.ts. */

@@ -3,7 +3,7 @@ import { conflict } from "@/lib/errors";
 
 type JobState = RepairJob["state"];
 
-// DESIGN.md §2: draft → quoted → approved → paid (or covered) → scheduled → done. Editing a quoted
+// Repair job states (lib/care/vocabulary.ts): draft → quoted → approved → paid (or covered) → scheduled → done. Editing a quoted
 // job takes it back to draft; any open job can be cancelled.
 const NEXT: Record<JobState, readonly JobState[]> = {
   draft: ["quoted", "covered", "cancelled"],

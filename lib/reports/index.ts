@@ -1,5 +1,5 @@
 import "server-only";
-// Reports (issue 10): claims per 100 pieces by species, by finish class and by resin type over a
+// Reports: claims per 100 pieces by species, by finish class and by resin type over a
 // chosen period, with CSV export; and the lists behind the overview's figures that have no list page
 // of their own (reminders and what followed, refresh offers, repair revenue, time to first answer).
 import { and, desc, eq, gte, inArray, isNotNull, isNull, lte } from "drizzle-orm";

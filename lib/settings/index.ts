@@ -1,5 +1,5 @@
 import "server-only";
-// The studio's settings (issue 10): profile and rates, warranty policy versions, reminder timing.
+// The studio's settings: profile and rates, warranty policy versions, reminder timing.
 // Every function takes the caller's StudioContext (from requireAdmin) and checks the role again, so a
 // staff member or technician calling it directly is refused too.
 import { asc, desc, eq } from "drizzle-orm";

@@ -1,4 +1,4 @@
-// Warranty policy versions (issue 10). A version applies to pieces delivered on or after its
+// Warranty policy versions. A version applies to pieces delivered on or after its
 // effectiveFrom date; a piece keeps the version in force at its delivery (pieces.warrantyPolicyId is
 // stamped when the piece is recorded). Versions only move forward: a new one starts no earlier than
 // the newest one and no earlier than today, so "the newest version whose effectiveFrom ≤ delivery"

@@ -1,5 +1,5 @@
 import "server-only";
-// The studio's audit log (issue 10): who did what and when, newest first, filterable by kind of
+// The studio's audit log: who did what and when, newest first, filterable by kind of
 // change, person and period. Staff and admins read it; rows are the studio's own.
 import { and, count, desc, eq, gte, like, lt, or, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";

@@ -32,7 +32,7 @@ export function listOpenInvitations(ctx: StudioContext) {
     .all();
 }
 
-// ---- role changes and removal (issue 10) ----
+// ---- role changes and removal ----
 // The rule: a studio always keeps at least one admin. The count and the change happen in one
 // transaction (SQLite serializes writers), so two admins demoting each other at once cannot both win.
 

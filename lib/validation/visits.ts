@@ -1,4 +1,4 @@
-// Schemas of the visit API and forms (issue #9): booking, moving, cancelling, the week view's query,
+// Schemas of the visit API and forms: booking, moving, cancelling, the week view's query,
 // technician hours and time off, and the technician's visit report. Instants are ISO 8601 strings with
 // an offset (or Z); local times "HH:MM" in the studio's time zone; dates "YYYY-MM-DD".
 import { z } from "zod";

@@ -14,7 +14,7 @@ import type { DbOrTx } from "@/lib/pieces/search-index";
 
 export type { Db };
 
-/** Defaults when a studio has not set its own (issue #9: 48 h lead time; the rest our choice). */
+/** Defaults when a studio has not set its own (48 h lead time and the rest: our choice). */
 export const DEFAULT_VISIT_RULES: Omit<VisitRulesRow, "studioId"> = {
   travelBufferMin: 30,
   leadTimeHours: 48,
