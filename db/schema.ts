@@ -20,7 +20,7 @@ import {
 } from "../lib/care/vocabulary";
 import { CONSENT_KINDS, CONSENT_SOURCES, CONTACT_METHODS } from "../lib/clients/vocabulary";
 
-// Every studio-owned table carries studioId and every query filters by it (DESIGN.md §1).
+// Every studio-owned table carries studioId and every query filters by it.
 // Timestamps are epoch milliseconds (Date in TypeScript); calendar dates are "YYYY-MM-DD" text.
 
 const id = () =>
@@ -63,7 +63,7 @@ export const studios = sqliteTable("studios", {
   travelFeeMinor: integer("travel_fee_minor").notNull().default(0),
   /** Local hour (0–23, the owner's time zone) at or after which care reminders go out. */
   reminderSendHour: integer("reminder_send_hour").notNull().default(9),
-  /** Which reminder steps the studio sends (DESIGN.md §5: 14 days before, on the day, 30 days after). */
+  /** Which reminder steps the studio sends (14 days before, on the day, 30 days after). */
   reminderSteps: text("reminder_steps", { mode: "json" })
     .$type<(typeof REMINDER_STEPS)[number][]>()
     .notNull()
@@ -443,7 +443,7 @@ export const refreshOffers = sqliteTable(
   (t) => [uniqueIndex("refresh_offers_task_due_uq").on(t.taskKey, t.dueOn), index("refresh_offers_studio_idx").on(t.studioId, t.status)],
 );
 
-/** DESIGN.md §2: submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
+/** Claim states (lib/claims/states.ts): submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
 export const CLAIM_STATES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
 export const CLAIM_DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
 
@@ -666,7 +666,7 @@ export type Claim = typeof claims.$inferSelect;
 export type RepairJob = typeof repairJobs.$inferSelect;
 export type Payment = typeof payments.$inferSelect;
 
-// ---- visits (issue #9): technician hours, time off, visits, their photos and the reminder ledger ----
+// ---- visits: technician hours, time off, visits, their photos and the reminder ledger ----
 
 /** A technician's weekly working hours in the studio's time zone; several ranges per weekday allowed. */
 export const technicianHours = sqliteTable(
@@ -879,7 +879,7 @@ export const mailQueue = sqliteTable(
 );
 export type QueuedMail = typeof mailQueue.$inferSelect;
 
-// ---- clients (issue #19): the studio's record of the people it sold to or serves ----
+// ---- clients: the studio's record of the people it sold to or serves ----
 
 
 /**
@@ -957,7 +957,7 @@ export type Client = typeof clients.$inferSelect;
 export type NewClient = typeof clients.$inferInsert;
 export type ClientConsent = typeof clientConsents.$inferSelect;
 
-// ---- conversations (issue #19): one thread per claim, repair job or visit; the studio's inbox ----
+// ---- conversations: one thread per claim, repair job or visit; the studio's inbox ----
 
 export const THREAD_SUBJECTS = ["claim", "job", "visit"] as const;
 /** The inbox state of a thread: unread until a staff member opens it, done when handled. */
@@ -1050,7 +1050,7 @@ export type Thread = typeof threads.$inferSelect;
 export type ThreadMessage = typeof threadMessages.$inferSelect;
 export type UnmatchedMail = typeof unmatchedMail.$inferSelect;
 
-// ---- hand-over mail (issue #19): the mail a buyer gets at delivery, and its one-tap registration link ----
+// ---- hand-over mail: the mail a buyer gets at delivery, and its one-tap registration link ----
 
 /**
  * The hand-over mail of one piece to its buyer (a client of the studio): where it went, when it was
