@@ -1,4 +1,4 @@
-// careSchedule over 100,000 synthetic pieces with 3 layers each (issue 3: target < 1.5 s on one core).
+// careSchedule over 100,000 synthetic pieces with 3 layers each (target < 1.5 s on one core).
 // Run with `npm run bench` (tests/bench/run.ts) or `npx tsx tests/bench/care-schedule.bench.ts`. Data is synthetic.
 import { careSchedule, FINISH_CLASSES, SUN_EXPOSURES, USES, type CareFinishLayer, type CareLogEntry, type CarePiece, type CatalogEntry } from "../../lib/care/index";
 import { result } from "./result";

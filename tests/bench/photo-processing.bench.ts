@@ -1,5 +1,5 @@
 // A 12-megapixel phone photo (4032 × 3024 JPEG) through the shared storage module: content check,
-// header check, rotate, re-encode without metadata, thumbnail, write (issue 7: target < 800 ms).
+// header check, rotate, re-encode without metadata, thumbnail, write (target < 800 ms).
 // Prints the median of 10 runs. Run with `npm run bench` or `npx tsx tests/bench/photo-processing.bench.ts`.
 // The photo is synthetic: blurred noise, which compresses worse than most real photos.
 import fs from "node:fs";

@@ -1,4 +1,4 @@
-// The reminder pass over 100,000 registered pieces with 300,000 finish layers (issue 6: < 5 s and
+// The reminder pass over 100,000 registered pieces with 300,000 finish layers (targets: < 5 s and
 // < 400 MB peak). It finds the due reminders and writes their ledger rows (claims, skipped steps,
 // refresh offers) with sending turned off; sending is timed separately on a small set, to a local SMTP
 // sink on a free port. Seeds its own database in the OS temp dir. Synthetic, invented data.

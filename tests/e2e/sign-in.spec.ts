@@ -56,7 +56,7 @@ test("the form checks on the client once its schema has loaded: a malformed e-ma
   await expect(page.getByText("Enter an e-mail address like name@example.com.")).toBeHidden();
 });
 
-// ---- where sign-in sends you next (issue 16, item 4) ----
+// ---- where sign-in sends you next ----
 // Chromium drops tabs and newlines from a URL and reads "\" as "/": "/\t/evil.example" is
 // "//evil.example" to it, another host. evil.example is answered here by a stub so a wrong turn shows.
 
@@ -96,7 +96,7 @@ test("a same-site return path is kept", async ({ page }) => {
   expect(`${url.host}${url.pathname}`).toBe("localhost:3100/account");
 });
 
-// ---- per-address limits believe only the proxies they are told to (issue 16, item 6) ----
+// ---- per-address limits believe only the proxies they are told to ----
 // The e2e server runs with TRUST_PROXY=1, Playwright standing in for that one proxy: the rightmost
 // X-Forwarded-For entry is the address it was reached from; whatever a client wrote to its left is not.
 test("a made-up X-Forwarded-For entry does not get round the per-address limit on reset links", async ({ page, context }) => {

@@ -1,4 +1,4 @@
-// Advice that fits the piece (issue 17, items 8–11 and 13): outdoor pieces get outdoor care, lines that
+// Advice that fits the piece: outdoor pieces get outdoor care, lines that
 // cannot apply are not shown, a fresh layer says when it can be used, cautions fit the work, and owners
 // read words rather than the engine's notation. Against a real SQLite file and the real SMTP sink.
 import { eq } from "drizzle-orm";
@@ -211,7 +211,7 @@ describe("words for people (item 11)", () => {
     const words = JSON.stringify(view.schedule.tasks.map((t) => [t.interval, ...t.reasons]));
     expect(words).not.toMatch(/\bmo\b|from memory|common practice|no published source|Eq\.|whole_piece|\d{4}-\d{2}-\d{2}|×/);
     const reoil = view.schedule.tasks.find((t) => t.kind === "reoil")!;
-    expect(reoil.interval).toBe("9 months"); // 12 months × 0.75 for direct sun (DESIGN.md §4)
+    expect(reoil.interval).toBe("9 months"); // 12 months × 0.75 for direct sun (lib/care/intervals.ts)
     expect(reoil.reasons.join(" ")).toMatch(/in direct sun/);
   });
 });

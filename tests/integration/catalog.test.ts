@@ -1,4 +1,4 @@
-// The finish catalog: defaults from DESIGN.md §4 stay null (the care engine's defaults apply), edited
+// The finish catalog: defaults from lib/care/intervals.ts stay null (the care engine's defaults apply), edited
 // intervals drive the care schedule, archiving keeps layers' labels.
 import { describe, expect, it } from "vitest";
 import { archiveCatalogProduct, createCatalogProduct, listCatalog, updateCatalogProduct } from "@/lib/catalog";

@@ -33,7 +33,7 @@ async function status(p: Promise<unknown> | (() => unknown)): Promise<number> {
 const monthsAgo = (n: number) => addMonths(todayUtc(), -n);
 
 describe("claim state machine", () => {
-  it("the table is DESIGN.md §2 exactly, over every state of the schema", () => {
+  it("the table is exactly the transitions below, over every state of the schema", () => {
     expect(Object.keys(CLAIM_TRANSITIONS).sort()).toEqual([...CLAIM_STATES].sort());
     const legal = allStatePairs().filter((p) => p.legal).map((p) => `${p.from}→${p.to}`).sort();
     expect(legal).toEqual(

@@ -1,4 +1,4 @@
-// CSV import and ambiguous wood names (issue 17 item 3): a trade name that can mean more than one wood
+// CSV import and ambiguous wood names: a trade name that can mean more than one wood
 // is never mapped silently; its row is refused with the question and the values to write instead.
 // Against a real SQLite file.
 import { eq } from "drizzle-orm";

@@ -1,4 +1,4 @@
-// E-mails write lengths, areas, volumes and distances in the recipient's units (issue 17 item 12)
+// E-mails write lengths, areas, volumes and distances in the recipient's units
 // through lib/owner/format. The care reminder is the mail that shows them (how much product, the top's
 // area, a refresh offer's containers and travel); rendered here for a metric and an imperial owner.
 // Exact factors: 1 US fl oz = 29.5735295625 mL; 1 ft² = 0.09290304 m²; 1 mi = 1.609344 km

@@ -1,4 +1,4 @@
-// The owner's units default from their browser's locale, else the studio (issue 17 item 12), through
+// The owner's units default from their browser's locale, else the studio, through
 // what the pages use: registerPiece (the register page's action and POST /api/registrations pass the
 // request's Accept-Language), the signed-in user as the session gives it to a page, getMyPiece (the
 // piece page) and claimFormContext (the claim form's °F/°C). Real SQLite file. 1 in = 25.4 mm (NIST HB 44, App. C).

@@ -181,7 +181,7 @@ describe("a crack claim's repair quote, checkout and receipt", () => {
   it("proposes product in whole containers from area × coats ÷ coverage", async () => {
     const { staff, studio, job } = await crackJob();
     const product = createProduct(studio, { containers: [{ ml: 125, priceMinor: 1900 }] });
-    // Top 2000 × 900 mm = 1.8 m²; 2 coats ÷ 24 m²/L = 0.15 L = 150 mL → two 125 mL containers (DESIGN.md §4.4).
+    // Top 2000 × 900 mm = 1.8 m²; 2 coats ÷ 24 m²/L = 0.15 L = 150 mL → two 125 mL containers (lib/care/quantity.ts).
     const input = jobQuoteSchema.parse({ title: "Re-oil", tasks: ["reoil"], productIds: [product.id], coats: 2, travel: false, coveredPct: 0, notes: "" });
     const updated = await updateJobQuote(staff, job.id, input);
     const materials = updated.lines.find((l) => l.kind === "materials")!;

@@ -38,7 +38,7 @@ const dayOf = (zone: string, days = 0) => NOW.setZone(zone).plus({ days }).toISO
 const at = (zone: string, date: string, hhmm: string) => DateTime.fromISO(`${date}T${hhmm}`, { zone }).toJSDate();
 
 /**
- * A hardwax-oiled dining table (heavy use: re-oil and the yearly check both every 12 months, DESIGN.md §4)
+ * A hardwax-oiled dining table (heavy use: re-oil and the yearly check both every 12 months, lib/care/intervals.ts)
  * delivered and oiled so that both tasks are due 14 days after `firstStepOn`: their 14-days-before
  * reminder is on `firstStepOn`, the due-day one 14 days later and the last one 30 days after that.
  */

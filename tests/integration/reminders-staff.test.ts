@@ -81,7 +81,7 @@ describe("resend follows the studio's reminder timing", () => {
   }
 
   it("with the due-day step off, a failed 14-days-before reminder can still be resent after the due date", async () => {
-    // Oiled 2025-06-01, heavy use: re-oil due 2026-06-01 (DESIGN.md §4, 12 months); its 14-days-before
+    // Oiled 2025-06-01, heavy use: re-oil due 2026-06-01 (12 months, lib/care/intervals.ts); its 14-days-before
     // reminder is on 2026-05-18, the 30-days-after one on 2026-07-01. 17:00Z is 10:00 in Los Angeles.
     const { staff, owner, row } = await failedReoil({ reminderSteps: ["before_14d", "after_30d"] }, "2025-06-01", "2026-05-18T17:00:00Z");
     const before = (await listMail({ to: owner.email })).length;

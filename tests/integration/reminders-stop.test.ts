@@ -23,7 +23,7 @@ const NOW = new Date("2030-05-06T17:00:00Z");
 describe("a reminder pass stopped by its signal", () => {
   it("finishes the message in hand, puts back the chunk's other claims, and the next pass sends the rest once", async () => {
     const { studio, products } = seedStudio();
-    // Due 2030-05-20 (hardwax oil, heavy use: 12 months, DESIGN.md §4): first reminder 2030-05-06.
+    // Due 2030-05-20 (hardwax oil, heavy use: 12 months, lib/care/intervals.ts): first reminder 2030-05-06.
     const oiled = DateTime.fromISO("2030-05-20").minus({ months: 12 }).toISODate()!;
     const owners = Array.from({ length: 10 }, (_, i) => seedOwner({ name: `Stop Owner ${i} (invented)` }));
     for (const o of owners) seedPiece(studio, o.id, { deliveredOn: oiled, layers: [{ surface: "top", finishClass: "hardwax_oil", productId: products.oil, appliedOn: oiled, coats: 2 }] });

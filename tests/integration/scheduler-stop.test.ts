@@ -1,5 +1,5 @@
 // The scheduler stops cleanly on SIGTERM in the middle of a reminder pass, and the next pass finishes
-// the work without sending anything twice (issue 11, reliability). For real: this file's own freshly
+// the work without sending anything twice. For real: this file's own freshly
 // migrated SQLite file, its own SMTP sink (the real one, so the counts are this file's alone), the real
 // scheduler process (`tsx jobs/index.ts`, which runs a pass at start-up on the real clock) and then the
 // real `jobs/run-once.ts`. Invented studio, owners and pieces.
@@ -24,7 +24,7 @@ const dbFile = ownDatabaseFile("scheduler-stop");
 const PIECES = 100;
 /**
  * Reminders due: a hardwax-oiled top in heavy use has two care tasks, re-oil (every 12 months) and the
- * yearly clean and check (DESIGN.md §4), each with its first reminder due now.
+ * yearly clean and check (lib/care/intervals.ts), each with its first reminder due now.
  */
 const DUE = PIECES * 2;
 const ZONES = ["America/Los_Angeles", "America/New_York", "Europe/Berlin", "Asia/Tokyo", "Pacific/Auckland"];

@@ -1,4 +1,4 @@
-// Units follow the reader (issue 17 item 12): CSV import in inches beside millimetres and sizes
+// Units follow the reader: CSV import in inches beside millimetres and sizes
 // implausible for the piece's kind; the owner's units default from their first studio; paper size.
 // 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C). Against a real SQLite file.
 import path from "node:path";

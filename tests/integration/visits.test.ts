@@ -225,7 +225,7 @@ describe("the visit report", () => {
       scheduleFromRows({ piece: w.piece, layers: db.select().from(finishLayers).where(eq(finishLayers.pieceId, w.piece.id)).all(), careLog: db.select().from(careLogEntries).where(eq(careLogEntries.pieceId, w.piece.id)).all(), products: studioProducts(w.studio.id), timeZone: w.studio.timeZone, now: at });
     const reportDay = new Date(Date.parse(slot.start) + HOUR);
     const before = scheduleNow(reportDay).tasks.find((t) => t.kind === "reoil" && t.surface === "top")!;
-    expect(before.dueOn).toBe("2026-06-01"); // oil applied 2025-06-01, heavy use: 12 months (DESIGN.md §4)
+    expect(before.dueOn).toBe("2026-06-01"); // oil applied 2025-06-01, heavy use: 12 months (lib/care/intervals.ts)
 
     const day = technicianDay(w.tech, { date: slot.localDate }, NOW);
     expect(day.items.map((i) => i.visit.id)).toEqual([v.id]);

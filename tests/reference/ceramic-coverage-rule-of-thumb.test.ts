@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { CERAMIC_TOPCOAT_COVERAGE_M2_PER_L, ft2ToM2, productNeeded } from "@/lib/care";
 
 // Common practice, no published source: a ceramic-type topcoat covers about 2 ft² per mL, so 100 mL
-// does about 200 ft² (../shared/REFERENCES.md, "Rules of the trade without a published source").
+// does about 200 ft² (lib/care/SOURCES.md lists it with the other rules of the trade).
 // Fluid ounces: 1 US fl oz = 29.5735295625 mL exactly (NIST HB 44 App. C / NIST SP 811 App. B).
 describe("ceramic-type topcoat coverage — common practice, no published source (worked by hand)", () => {
   it("200 ft², one coat, at 2 ft²/mL needs exactly 100 mL = 3.381402 US fl oz (shown as 100 mL, 3.4 fl oz)", () => {

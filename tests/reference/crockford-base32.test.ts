@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { decodeCrockford, encodeCrockford, isValidRegistrationCode, normalizeRegistrationCode } from "@/lib/care";
 
-// Source: Douglas Crockford, "Base 32", crockford.com/base32.html (via ../shared/REFERENCES.md):
+// Source: Douglas Crockford, "Base 32", crockford.com/base32.html:
 // 1 → "1" (with check "11"); 194 → "62" ("629"); 398373 → "C515" ("C515Z").
 const VECTORS: ReadonlyArray<[number, string, string]> = [
   [1, "1", "11"],

@@ -5,7 +5,7 @@ const fToC = (f: number) => ((f - 32) * 5) / 9;
 
 // Source: USDA Forest Products Laboratory, Wood Handbook, FPL-GTR-282 (2021), ch. 4, Table 4-2,
 // "Moisture content of wood in equilibrium with stated temperature and relative humidity", the 70 °F
-// (21.1 °C) column, as printed (via ../shared/REFERENCES.md). The table is computed from Eq. 4-5
+// (21.1 °C) column, as printed. The table is computed from Eq. 4-5
 // (Simpson 1973) and printed to 0.1 %, so ±0.1 holds.
 const TABLE_4_2_AT_70_F: ReadonlyArray<[rhPct: number, mcPct: number]> = [
   [10, 2.5],

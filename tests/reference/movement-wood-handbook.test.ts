@@ -3,7 +3,7 @@ import { coefficientFromShrinkage, getSpecies, slabMovement, widthChangeFromShri
 
 // Source: USDA FPL, Wood Handbook, FPL-GTR-190 (2010): Table 4-3 (shrinkage green to oven-dry, radial /
 // tangential / volumetric %), Table 13-5 (dimensional-change coefficients per 1 % MC, 6–14 % MC, radial /
-// tangential), Eq. 13-2 and Eq. 13-3 (ch. 13). Values as printed, via ../shared/REFERENCES.md.
+// tangential), Eq. 13-2 and Eq. 13-3 (ch. 13). Values as printed.
 
 // Table 4-3 rows printed in REFERENCES.md: [id, radial, tangential, volumetric].
 const TABLE_4_3: ReadonlyArray<[string, number, number, number]> = [

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { ft2ToM2, inchesToMm, m2ToFt2, mlToUsFlOz, mmToInches, topArea, usFlOzToMl } from "@/lib/care";
 
 // Source: NIST Handbook 44, Appendix C "General Tables of Units of Measurement", and NIST SP 811 (2008),
-// Appendix B (values via ../shared/REFERENCES.md): 1 in = 25.4 mm; 1 ft = 0.3048 m; 1 ft² = 0.09290304 m²;
+// Appendix B: 1 in = 25.4 mm; 1 ft = 0.3048 m; 1 ft² = 0.09290304 m²;
 // 1 US gallon = 231 in³ = 3.785411784 L; 1 US fl oz = 1/128 gallon = 29.5735295625 mL (exact; 16 CFR
 // 500.19 prints a rounded figure for labels, so the exact one is cited to NIST).
 describe("unit conversions against NIST HB 44 App. C / NIST SP 811 App. B", () => {

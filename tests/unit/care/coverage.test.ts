@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { CareInputError, checkCoverage, DEFAULT_WARRANTY_POLICY, type CareFinishLayer, type CarePiece, type CoverageClaim } from "@/lib/care";
 
-// Invented demo pieces (DESIGN.md §9).
+// Invented demo pieces.
 const table: CarePiece = {
   id: "pc_walnut",
   kind: "dining_table",

@@ -16,7 +16,7 @@ import {
   type CatalogEntry,
 } from "@/lib/care";
 
-// Invented demo piece: a walnut river dining table (DESIGN.md §9).
+// Invented demo piece: a walnut river dining table.
 const piece: CarePiece = { id: "pc_demo_1", kind: "dining_table", use: "heavy", sun: "direct", deliveredOn: "2025-03-02", resin: "deep_pour" };
 const oil: CareFinishLayer = { id: "fl1", surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-03-02" };
 
@@ -124,7 +124,7 @@ describe("careSchedule", () => {
   });
 
   // The stacked-layer rule (lib/care/schedule.ts, protectedByTopcoat): a topcoat protects the oil under it,
-  // so the stack's one task runs on the longer of the two intervals. Defaults (DESIGN.md §4, common
+  // so the stack's one task runs on the longer of the two intervals. Defaults (lib/care/intervals.ts, common
   // practice): moderate use, no sun — hardwax oil 24 months, ceramic topcoat 18 months → 24 months.
   it("oil under a ceramic topcoat is never due sooner than bare oil: moderate use, 2025-03-02 + 24 months = 2027-03-02", () => {
     const topcoat: CareFinishLayer = { id: "c", surface: "top", finishClass: "ceramic_topcoat", coats: 1, appliedOn: "2025-03-02" };

@@ -1,4 +1,4 @@
-// The one formatter's imperial lengths read like a woodworker's tape (issue 17 item 12).
+// The one formatter's imperial lengths read like a woodworker's tape.
 // 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C); each expected value is worked by hand.
 import { describe, expect, it } from "vitest";
 import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness, formatVolume, formatDistance } from "@/lib/owner/format";
@@ -29,7 +29,7 @@ describe("imperial lengths", () => {
   });
 });
 
-// Volumes (issue 17 item 7): the engine's exact mL goes in; each figure is rounded up once, from the
+// Volumes: the engine's exact mL goes in; each figure is rounded up once, from the
 // exact amount. 1 US fl oz = 29.5735295625 mL exactly (NIST Handbook 44, 2024, Appendix C).
 describe("volumes", () => {
   it("round the exact amount up once, for display", () => {

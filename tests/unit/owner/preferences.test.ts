@@ -1,4 +1,4 @@
-// The owner's unit default (issue 17 item 12): their browser's region when its most preferred language
+// The owner's unit default: their browser's region when its most preferred language
 // names one, else the studio's unit system. Accept-Language syntax: RFC 9110 §12.5.4 (language ranges
 // with q weights); language tags: BCP 47 (RFC 5646), region = ISO 3166-1 alpha-2 or UN M.49 digits.
 import { describe, expect, it } from "vitest";

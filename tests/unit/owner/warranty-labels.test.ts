@@ -1,4 +1,4 @@
-// Words for people (issue 17 items 4 and 11): every exclusion a warranty line can name has words for
+// Words for people: every exclusion a warranty line can name has words for
 // owners (lib/owner/warranty EXCLUSION_LABELS) and for staff (CLAIM_EXCLUSION_LABELS); no raw key
 // such as sun_on_resin reaches a page, the certificate or the coverage summary.
 import { describe, expect, it } from "vitest";
