@@ -9,7 +9,7 @@ import { postClaimMessage } from "@/lib/claims/service";
 import { ownerViewer, staffViewer } from "@/lib/claims/viewer";
 import { notFound, unprocessable } from "@/lib/errors";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
-import { inboxQuerySchema, messageFormSchema, ownerMessageSchema, threadUpdateSchema } from "@/lib/validation/messages";
+import { inboxQuerySchema, messageFormSchema, messageSubjectSchema, threadUpdateSchema } from "@/lib/validation/messages";
 import { mailOwner, mailStudio, type ThreadMailFacts } from "./mail";
 import { appendMessage, findThread, ownerMayWrite, subjectOf, threadFor, threadMessagesOf, type MessageView, type SubjectRef } from "./store";
 
@@ -36,9 +36,10 @@ function mailFacts(thread: Thread): ThreadMailFacts {
 
 /** An owner writes to the studio about a claim, repair job or visit of theirs (decided or not). */
 export async function postOwnerMessage(user: Pick<User, "id" | "name" | "email">, raw: unknown): Promise<{ threadId: string; message: MessageView }> {
-  const input = ownerMessageSchema.parse(raw);
-  const ref: SubjectRef = { kind: input.about, id: input.id };
+  const subject = messageSubjectSchema.parse(raw);
+  const ref: SubjectRef = { kind: subject.about, id: subject.id };
   ownerSubject(user, ref);
+  const input = messageFormSchema.parse(raw);
   if (ref.kind === "claim") {
     const out = await postClaimMessage(ownerViewer(user), ref.id, { body: input.body });
     const thread = findThread(getDb(), ref)!;
@@ -221,8 +222,8 @@ export type StaffThread = ReturnType<typeof getThread>;
 
 /** Assign a thread to a staff member (or nobody), mark it done, or open it again. */
 export function updateThread(ctx: StudioContext, threadId: string, raw: unknown) {
-  const input = threadUpdateSchema.parse(raw);
   const thread = studioThread(ctx, threadId);
+  const input = threadUpdateSchema.parse(raw);
   if (input.assignedToId && !studioStaff(ctx).some((s) => s.id === input.assignedToId)) {
     throw unprocessable("not_staff", "Pick someone on the studio's staff.", { assignedToId: ["Pick someone on the studio's staff."] });
   }
@@ -243,8 +244,8 @@ export function updateThread(ctx: StudioContext, threadId: string, raw: unknown)
 
 /** A staff reply on the same thread; the owner gets it by e-mail with the thread's Reply-To. */
 export async function replyToThread(ctx: StudioContext, threadId: string, raw: unknown) {
-  const { body } = messageFormSchema.parse(raw);
   const thread = studioThread(ctx, threadId);
+  const { body } = messageFormSchema.parse(raw);
   if (thread.claimId) {
     await postClaimMessage(staffViewer(ctx), thread.claimId, { body });
     return getThread(ctx, threadId);

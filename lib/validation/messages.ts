@@ -9,10 +9,10 @@ export const messageBody = z.string().trim().min(1, "Write a message first.").ma
 export const messageFormSchema = z.object({ body: messageBody });
 export type MessageFormInput = z.input<typeof messageFormSchema>;
 
-export const ownerMessageSchema = z.object({
+/** What an owner's message is about; the body is read after the owner is found to be allowed. */
+export const messageSubjectSchema = z.object({
   about: z.enum(["claim", "job", "visit"], "Say what the message is about."),
   id: z.string().min(1).max(64),
-  body: messageBody,
 });
 
 export const threadIdParam = z.object({ id: z.string().min(1).max(64) });
