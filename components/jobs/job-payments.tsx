@@ -1,5 +1,5 @@
 import { Notice } from "@/components/ui/notice";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { formatMoney } from "@/lib/owner/format";
 import { isAutomaticRefund, PAYMENT_STATUS_LABELS, REFUND_REASON_LABELS, type PaymentStatus, type RefundReason } from "@/lib/repairs/states";
 
 export type JobPaymentRow = {
@@ -16,7 +16,7 @@ export type JobPaymentRow = {
 };
 
 /** The staff's list of a job's checkouts and payments, with a flag on each one refunded automatically. */
-export function JobPayments({ payments, currentQuoteVersion }: { payments: JobPaymentRow[]; currentQuoteVersion: number }) {
+export function JobPayments({ payments, currentQuoteVersion, country = "US" }: { payments: JobPaymentRow[]; currentQuoteVersion: number; country?: string }) {
   if (payments.length === 0) return <p className="text-sm text-muted">No checkout started yet.</p>;
   return (
     <ul className="space-y-3 text-sm">
@@ -28,8 +28,8 @@ export function JobPayments({ payments, currentQuoteVersion }: { payments: JobPa
               {p.quoteVersion !== currentQuoteVersion ? " (an earlier one)" : ""}
             </span>
             <span>
-              {formatMinorUnits(p.amountMinor, p.currency)} {p.currency} · {PAYMENT_STATUS_LABELS[p.status]}
-              {p.status === "partially_refunded" ? ` (${formatMinorUnits(p.refundedMinor, p.currency)} refunded)` : ""}
+              {formatMoney(p.amountMinor, p.currency, country)} · {PAYMENT_STATUS_LABELS[p.status]}
+              {p.status === "partially_refunded" ? ` (${formatMoney(p.refundedMinor, p.currency, country)} refunded)` : ""}
             </span>
           </div>
           {isAutomaticRefund(p.refundReason) ? (

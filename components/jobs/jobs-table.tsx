@@ -8,14 +8,11 @@ import { StatusBadge } from "@/components/ui/status";
 import { Notice } from "@/components/ui/notice";
 import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
 import { JOB_STATES } from "@/lib/care/vocabulary";
+import { formatMoney } from "@/lib/owner/format";
 
 type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: string; totalMinor: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null };
 
-function money(minor: number, currency: string) {
-  return new Intl.NumberFormat("en-US", { style: "currency", currency }).format(minor / 10 ** (currency === "JPY" ? 0 : 2));
-}
-
-export function JobsTable() {
+export function JobsTable({ country }: { country: string }) {
   const params = useSearchParams();
   const router = useRouter();
   const pathname = usePathname();
@@ -59,7 +56,7 @@ export function JobsTable() {
                   </span>
                 </span>
                 <StatusBadge label={JOB_STATE_LABELS[j.state]} tone={JOB_STATE_TONES[j.state]} />
-                <span className="text-sm font-semibold sm:text-right">{money(j.totalMinor, j.currency)}</span>
+                <span className="text-sm font-semibold sm:text-right">{formatMoney(j.totalMinor, j.currency, country)}</span>
               </Link>
             </li>
           ))}

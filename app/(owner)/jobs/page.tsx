@@ -4,7 +4,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { formatMoney } from "@/lib/owner/format";
 import { listOwnerJobs } from "@/lib/repairs/jobs";
 import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
 
@@ -27,7 +27,7 @@ export default async function OwnerJobsPage() {
                   <StatusBadge label={JOB_STATE_LABELS[j.state]} tone={JOB_STATE_TONES[j.state]} />
                 </span>
                 <span className="mt-1 block text-sm text-muted">
-                  {j.studioName} · {formatMinorUnits(j.totalMinor, j.currency)} {j.currency}
+                  {j.studioName} · {formatMoney(j.totalMinor, j.currency, j.studioCountry)}
                 </span>
               </Link>
             </li>

@@ -5,7 +5,7 @@ import { JobsTable } from "@/components/jobs/jobs-table";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { formatMoney } from "@/lib/owner/format";
 import { jobsToCreate } from "@/lib/repairs/jobs";
 import { createJobAction } from "./actions";
 
@@ -40,7 +40,7 @@ export default async function JobsPage() {
                 <span>
                   <span className="block font-medium">Refresh offer accepted: {o.pieceTitle}</span>
                   <span className="text-sm text-muted">
-                    {o.ownerName} · offered at {formatMinorUnits(o.priceMinor, o.currency)} {o.currency}
+                    {o.ownerName} · offered at {formatMoney(o.priceMinor, o.currency, ctx.studio.country)}
                   </span>
                 </span>
                 <CreateJobButton action={createJobAction} from="refresh_offer" id={o.id} />
@@ -50,7 +50,7 @@ export default async function JobsPage() {
         </Card>
       ) : null}
       <Suspense>
-        <JobsTable />
+        <JobsTable country={ctx.studio.country} />
       </Suspense>
     </>
   );

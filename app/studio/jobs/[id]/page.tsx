@@ -72,7 +72,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
         </Card>
         <div className="space-y-6">
           <Card className="space-y-4">
-            <QuoteSummary figures={figures} showProposed />
+            <QuoteSummary figures={figures} showProposed totalLabel={paid ? "Paid" : "To pay"} />
             <StaffJobActions
               jobId={job.id}
               canSend={["draft", "quoted"].includes(job.state) && Boolean(owner)}
@@ -107,7 +107,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
           ) : null}
           <Card className="space-y-2">
             <h2 className="font-semibold">Payments</h2>
-            <JobPayments currentQuoteVersion={job.quoteVersion} payments={payments.map((p) => ({ ...p, openedOn: formatInstant(p.createdAt, studio.timeZone) }))} />
+            <JobPayments currentQuoteVersion={job.quoteVersion} country={studio.country} payments={payments.map((p) => ({ ...p, openedOn: formatInstant(p.createdAt, studio.timeZone) }))} />
           </Card>
           <p className="text-sm">
             <Link className="text-resin underline" href={`/studio/pieces/${piece.id}`}>Open the piece record</Link>
