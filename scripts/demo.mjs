@@ -28,6 +28,7 @@ supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
     { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
+    { name: "inbound", cmd: "tsx", args: ["lib/mail/inbound-cli.ts"] },
     { name: "app", cmd: "next", args: ["start", "-p", port] },
     { name: "jobs", cmd: "tsx", args: ["jobs/index.ts"] },
   ],

@@ -2,7 +2,7 @@
 // the SMTP sink. Ports are fixed and differ from the demo's, so both can run at once.
 import { removeDatabase, runStep, supervise } from "./services.mjs";
 
-export const E2E = { appPort: "3100", smtpPort: "2625", sinkPort: "2626", stripePort: "12112" };
+export const E2E = { appPort: "3100", smtpPort: "2625", sinkPort: "2626", stripePort: "12112", inboundPort: "2627" };
 
 const env = {
   ...process.env,
@@ -22,6 +22,7 @@ const env = {
   TRUST_PROXY: "1",
   STRIPE_API_HOST: "127.0.0.1",
   STRIPE_API_PORT: E2E.stripePort,
+  INBOUND_SMTP_PORT: E2E.inboundPort,
 };
 
 removeDatabase(env.DATABASE_URL);
@@ -31,6 +32,7 @@ supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
     { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
+    { name: "inbound", cmd: "tsx", args: ["lib/mail/inbound-cli.ts"] },
     { name: "app", cmd: "next", args: ["start", "-p", E2E.appPort] },
   ],
   env,

@@ -112,6 +112,8 @@ export type InboxRow = {
   id: string;
   state: Thread["state"];
   about: Thread["subject"];
+  /** The claim, job or visit it is about. */
+  subjectId: string;
   ownerName: string;
   ownerEmail: string;
   pieceId: string;
@@ -162,6 +164,7 @@ export function listInbox(ctx: StudioContext, raw: unknown = {}, now = Date.now(
     id: t.id,
     state: t.state,
     about: t.subject,
+    subjectId: subjectOf(t).id,
     ownerName: ownerName ?? "Former owner",
     ownerEmail: ownerEmail ?? "",
     pieceId: t.pieceId,

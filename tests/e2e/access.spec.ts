@@ -16,6 +16,7 @@ function pages(): { path: string; expect: Record<Who, PageOutcome> }[] {
     { path: "/studio", expect: staffOnly },
     { path: "/studio/pieces", expect: staffOnly },
     { path: "/studio/clients", expect: staffOnly },
+    { path: "/studio/inbox", expect: staffOnly },
     { path: `/studio/pieces/${demoPieceId}`, expect: { ...staffOnly, otherStudioStaff: "404" } },
     { path: "/studio/today", expect: { ...staffOnly, technician: "ok" } },
     { path: "/studio/team", expect: { ...staffOnly, staff: "denied", otherStudioStaff: "denied" } },

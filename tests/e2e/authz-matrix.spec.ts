@@ -96,6 +96,8 @@ type State = {
   studio: Record<"admin" | "otherStudioAdmin", { profile: unknown; reminders: unknown; visits: unknown }>;
   inesHours: unknown;
   clients: { demo: { id: string; name: string }; other: { id: string; name: string } };
+  /** The conversation on the owner's declined claim (the seed's owner message). */
+  threadId: string;
 };
 let S: State;
 const contexts: APIRequestContext[] = [];
@@ -155,6 +157,13 @@ async function throwaways(): Promise<void> {
 
 /** A care-log entry of the owner's dated on the delivery day: older than the real history, so no schedule moves. */
 /** The owner's client in the demo studio, and a client of the other studio (made once, found after). */
+/** The demo studio's conversation about the owner's claim, found in the inbox once. */
+async function threadRow(): Promise<void> {
+  if (S.threadId) return;
+  const inbox = await json<{ threads: { id: string; subjectId: string }[] }>(await S.api.staff.get("/api/threads?view=all"), "the demo studio's inbox", 200);
+  S.threadId = inbox.threads.find((t) => t.subjectId === X.ownerClaimId)!.id;
+}
+
 async function clientRows(): Promise<void> {
   if (S.clients) return;
   type Page = { rows: { id: string; name: string }[] };
@@ -302,6 +311,14 @@ const ROUTES: RouteRow[] = [
     send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/messages`, { data: { body: "Matrix check (never sent).", requestInfo: true } }),
   },
   // Photos: only the owner adds or removes them, and only while the claim is open (409 on a declined one).
+  // Conversations: owners write on their own claims, jobs and visits (others get 404 before the
+  // message is read, so a blank one is the owner's 400); the inbox is the studio's staff's alone.
+  { route: "GET /api/threads", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/threads?view=all") },
+  { route: "POST /api/threads", expect: "401 400 404 404 404 404 404 404", send: ({ api }) => api.post("/api/threads", { data: { about: "claim", id: X.ownerClaimId, body: "" } }) },
+  { route: "GET /api/threads/[id]", expect: "401 403 403 403 200 200 404 404", before: threadRow, send: ({ api }) => api.get(`/api/threads/${S.threadId}`) },
+  { route: "PATCH /api/threads/[id]", expect: "401 403 403 403 200 200 404 404", before: threadRow, send: ({ api }) => api.patch(`/api/threads/${S.threadId}`, { data: { assignedToId: null } }) },
+  { route: "POST /api/threads/[id]/messages", expect: "401 403 403 403 400 400 404 404", before: threadRow, send: ({ api }) => api.post(`/api/threads/${S.threadId}/messages`, { data: { body: "" } }) },
+  { route: "POST /api/threads/unmatched/[id]/resolve", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/threads/unmatched/not-a-kept-mail/resolve") },
   { route: "POST /api/claims/[id]/photos", expect: "401 409 404 404 403 403 404 404", send: ({ api }) => api.post(`/api/claims/${X.ownerClaimId}/photos`, { multipart: { file: png } }) },
   { route: "DELETE /api/claims/[id]/photos/[fileId]", expect: "401 409 404 404 403 403 404 404", send: ({ api }) => api.delete(`/api/claims/${X.ownerClaimId}/photos/${X.ownerClaimPhotoId}`) },
   // A claim photo: its owner and the studio's staff (not technicians).

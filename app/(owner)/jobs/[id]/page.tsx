@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { JobConversation } from "@/app/(owner)/_conversations/owner-conversations";
 import { ApproveAndPay, OwnerCancelJob } from "@/components/jobs/job-actions";
 import { QuoteSummary } from "@/components/jobs/quote-summary";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -84,6 +85,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
           </div>
         ) : null}
         <p className="text-sm text-muted">Payment is handled by Stripe; Grainward never sees your card number.</p>
+        <JobConversation jobId={job.id} studioName={studio.name} />
       </div>
     </>
   );

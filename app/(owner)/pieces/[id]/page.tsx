@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { Suspense } from "react";
 import { ClipboardCheck, Droplets, FileDown, Flame, Hand, Handshake, HardHat, Hourglass, Pencil, ShieldCheck, ShieldOff, ShieldX, ThermometerSun, TriangleAlert, Wind, Zap } from "lucide-react";
+import { PieceConversations } from "@/app/(owner)/_conversations/owner-conversations";
 import { CareTimeline } from "@/components/owner/care-timeline";
 import { FinishStack } from "@/components/ui/finish-stack";
 import { FlashToast } from "@/components/owner/flash-toast";
@@ -320,6 +321,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
           </ul>
         )}
       </Section>
+      <PieceConversations pieceId={piece.id} studioName={piece.studio.name} />
     </article>
   );
 }

@@ -1,0 +1,55 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useId } from "react";
+import { useForm } from "react-hook-form";
+import { toast } from "sonner";
+import type { MessageFormInput } from "@/lib/validation/messages";
+import { ApiError, apiJson } from "@/components/api-client";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
+import { Button } from "@/components/ui/button";
+
+/**
+ * Writes one message: an owner's about their claim, job or visit (`/api/threads` with `about`), or a
+ * staff reply on a thread (`/api/threads/[id]/messages`). What was typed stays when sending fails.
+ */
+export function MessageForm({ endpoint, extra, label, sentText, submitText = "Send message" }: { endpoint: string; extra?: Record<string, string>; label: string; sentText: string; submitText?: string }) {
+  const router = useRouter();
+  const id = useId();
+  const form = useForm<MessageFormInput>({ resolver: useLazyZodResolver(() => import("@/lib/validation/messages").then((m) => m.messageFormSchema)), defaultValues: { body: "" } });
+  const error = form.formState.errors.body;
+  const onSubmit = form.handleSubmit(async (values) => {
+    try {
+      await apiJson(endpoint, { method: "POST", json: { ...extra, body: values.body } });
+      form.reset({ body: "" });
+      toast.success(sentText);
+      router.refresh();
+    } catch (e) {
+      form.setError("body", { type: "server", message: e instanceof ApiError ? e.message : "The message wasn't sent. Try again." });
+    }
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-2">
+      <label htmlFor={`${id}-body`} className="block text-sm font-medium">
+        {label}
+      </label>
+      <textarea
+        id={`${id}-body`}
+        rows={4}
+        maxLength={4000}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-error` : undefined}
+        className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
+        {...form.register("body")}
+      />
+      {error ? (
+        <p id={`${id}-error`} role="alert" className="text-sm font-medium text-danger">
+          {error.message}
+        </p>
+      ) : null}
+      <Button type="submit" disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Sending…" : submitText}
+      </Button>
+    </form>
+  );
+}
