@@ -7,7 +7,7 @@ import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { formatMoney } from "@/lib/owner/format";
 import { formatWait } from "@/lib/claims/labels";
 import { getOverview } from "@/lib/overview";
 
@@ -35,7 +35,7 @@ function pct(part: number, whole: number): string {
 export default async function StudioOverviewPage() {
   const ctx = await forPage(requireStaff);
   const o = getOverview(ctx);
-  const money = (minor: number) => `${formatMinorUnits(minor, o.revenue.currency)} ${o.revenue.currency}`;
+  const money = (minor: number) => formatMoney(minor, o.revenue.currency, ctx.studio.country);
   const sinceWords = `since ${o.since}`;
   const yesterday = addDays(o.today, -1);
 

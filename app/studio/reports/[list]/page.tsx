@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { StatusBadge, type StatusTone } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { formatMoney } from "@/lib/owner/format";
 import { REMINDER_STEPS } from "@/lib/care/vocabulary";
 import { formatWait } from "@/lib/claims/labels";
 import { ACTED_WITHIN_DAYS, REMINDER_STEP_LABELS } from "@/lib/overview";
@@ -64,7 +64,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
   const q = parsed.success ? parsed.data : {};
   const result = reportList(ctx, list, q);
   const t = TITLES[list as ReportList];
-  const money = (m: number, c: string) => `${formatMinorUnits(m, c)} ${c}`;
+  const money = (m: number, c: string) => formatMoney(m, c, ctx.studio.country);
   const pieceLink = (id: string, title: string) => (
     <Link className="text-resin underline underline-offset-2" href={`/studio/pieces/${id}`}>
       {title}
