@@ -4,15 +4,15 @@ import { getDb } from "@/db/client";
 import { clients, pieces, users, type Client } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
-import { AppError } from "@/lib/errors";
+import { conflict } from "@/lib/errors";
 import type { CreateClientValues } from "@/lib/validation/clients";
 import type { DbOrTx } from "@/lib/pieces/search-index";
 import { emailTaken } from "./access";
 import { applyConsentChanges } from "./consent";
 import { toE164 } from "./phone";
 
-export const emailTakenError = () =>
-  new AppError(409, "conflict", "Another client of this studio has that e-mail address.", { email: ["Another client of this studio has that e-mail address."] });
+const EMAIL_TAKEN = "Another client of this studio has that e-mail address.";
+export const emailTakenError = () => conflict(EMAIL_TAKEN, { fieldErrors: { email: [EMAIL_TAKEN] } });
 
 /**
  * A new client of the caller's studio. When a confirmed account has the same e-mail and no client

@@ -5,7 +5,7 @@ import { pieces } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { loadClient } from "@/lib/clients/access";
 import { insertClient } from "@/lib/clients/create";
-import { AppError } from "@/lib/errors";
+import { AppError, rephrased } from "@/lib/errors";
 import type { DeliverPieceValues } from "@/lib/validation/clients";
 import { handoverAtDelivery } from "./handover";
 import { insertPiece, publicPiece, type PublicPiece } from "./registry";
@@ -29,7 +29,7 @@ function asBuyerFieldError(e: unknown): unknown {
   const fieldErrors = Object.fromEntries(Object.entries(e.fieldErrors).map(([k, v]) => [map[k] ?? k, v]));
   const message = e.status === 409 ? "A client of this studio already has that e-mail address: pick them from your clients instead." : e.message;
   if (e.status === 409) fieldErrors.buyerEmail = [message];
-  return new AppError(e.status, e.code, message, fieldErrors);
+  return rephrased(e, message, fieldErrors);
 }
 
 /** POST /api/pieces: the piece, its first layers and its buyer; then the hand-over mail if asked for. */

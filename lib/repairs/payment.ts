@@ -7,7 +7,7 @@ import { JobQuoteEmail } from "@/emails/job-quote";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { env } from "@/lib/env";
-import { AppError, badRequest, conflict, notFound } from "@/lib/errors";
+import { AppError, badRequest, conflict, notFound, rephrased } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
@@ -200,6 +200,6 @@ async function settleRefundsOf(jobId: string, lead: string) {
     await settleRefunds(jobId);
   } catch (e) {
     if (!(e instanceof AppError)) throw e;
-    throw new AppError(e.status, e.code, `${lead} its refund has not gone through yet. ${e.message} Try “Send the refund again” on the job page in a little while.`);
+    throw rephrased(e, `${lead} its refund has not gone through yet. ${e.message} Try “Send the refund again” on the job page in a little while.`);
   }
 }
