@@ -6,7 +6,7 @@ import { studios, type Studio } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { formatMinorUnits } from "@/lib/care/quote";
-import { badRequest } from "@/lib/errors";
+import { AppError, badRequest } from "@/lib/errors";
 import { assertAdmin, formatBasisPoints, toBasisPoints, toMinorUnits } from "@/lib/settings";
 import { repairSettingsSchema, type RepairSettingsInput } from "@/lib/validation/repair-settings";
 import { LINE_KINDS, type PriceListEntry } from "./lines";
@@ -53,8 +53,9 @@ export function updateRepairSettings(ctx: StudioContext, raw: RepairSettingsInpu
     if (e.price !== "") {
       try {
         unitPriceMinor = toMinorUnits(e.price, s.currency);
-      } catch {
-        throw badRequest(`${e.label}: ${s.currency} has fewer decimals than that price.`, { priceList: [`${e.label}: use at most the currency's decimals.`] });
+      } catch (err) {
+        const why = err instanceof AppError ? err.message : "that is not a price.";
+        throw badRequest(`${e.label}: ${why}`, { priceList: [`${e.label}: ${why}`] });
       }
     }
     return { key, label: e.label, kind: e.kind, unit: e.unit, unitPriceMinor };

@@ -203,6 +203,14 @@ type RouteRow = {
 const png = { name: "matrix.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a", "hex") };
 const validLayer = { surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2026-02-02" };
 const jobQuote = { title: "Matrix check (never saved)", tasks: ["reoil"], productIds: [], coats: 1, travel: false, coveredPct: 0 };
+const tooPreciseRepairSettings = {
+  roundingRule: "cent",
+  taxMode: "single",
+  taxInclusive: false,
+  taxRates: { labour: "0", materials: "0", travel: "0", other: "0" },
+  taxNumber: "",
+  priceList: [{ key: "", label: "Matrix task (never saved)", kind: "other", unit: "each", price: "1.005" }],
+};
 const noCoverPolicy = {
   // A year back: inside the policy date range (ten years back to two ahead), whatever day the suite runs.
   effectiveFrom: new Date(Date.now() - 365 * 86_400_000).toISOString().slice(0, 10),
@@ -338,6 +346,8 @@ const ROUTES: RouteRow[] = [
     send: ({ api }) => api.post(`/api/jobs/${J.done}/cancel`),
   },
   { route: "POST /api/jobs/[id]/quote", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post(`/api/jobs/${J.done}/quote`) },
+  // The receipt PDF of the owner's paid job: its owner and the studio's staff; a technician is neither.
+  { route: "GET /api/jobs/[id]/receipt", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/jobs/${J.paid}/receipt`) },
   { route: "GET /api/jobs/[id]/slots", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/jobs/${J.paid}/slots`) },
 
   // Visits: staff, the visit's technician, the job's owner. The done visit is Ines's, on the owner's done job.
@@ -546,6 +556,13 @@ const ACTIONS: ActionRow[] = [
     action: "app/studio/settings/actions.ts#saveVisitRulesAction",
     expect: "401 403 403 403 403 ok 403 ok",
     args: (who) => ({ json: [(who === "otherStudioAdmin" ? S.studio.otherStudioAdmin : S.studio.admin).visits] }),
+  },
+  // A price with more decimals than the currency has: refused after the admin check, nothing saved.
+  {
+    action: "app/studio/settings/repairs/actions.ts#saveRepairSettingsAction",
+    expect: "401 403 403 403 403 400 403 400",
+    messages: { "400": /^Matrix task \(never saved\): [A-Z]{3} has \d decimals at most\.$/ },
+    args: () => ({ json: [tooPreciseRepairSettings] }),
   },
   {
     action: "app/studio/settings/actions.ts#createPolicyVersionAction",

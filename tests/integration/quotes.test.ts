@@ -165,6 +165,17 @@ describe("a crack claim's repair quote, checkout and receipt", () => {
     expect(() => updateRepairSettings(staff, SETTINGS_BASE)).toThrow(expect.objectContaining({ status: 403 }));
   });
 
+  it("refuses a price list price with more decimals than the currency has, and keeps the saved list", async () => {
+    const { admin, studio } = await crackJob();
+    const bad = { ...SETTINGS_BASE, priceList: [{ key: "", label: "Leg re-glue (invented)", kind: "labour" as const, unit: "each" as const, price: "12.505" }] };
+    expect(() => updateRepairSettings(admin, bad)).toThrow(expect.objectContaining({ status: 400, message: "Leg re-glue (invented): USD has 2 decimals at most." }));
+    const kept = getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!;
+    expect(kept.repairPriceList.map((e) => e.key)).toEqual(["crack_fill", "butterfly_key", "resin_fill"]);
+    // A new task gets a key from its name; an hourly task without a price follows the labour rate.
+    const saved = updateRepairSettings(admin, { ...SETTINGS_BASE, priceList: [...SETTINGS_BASE.priceList, { key: "", label: "Leg re-glue (invented)", kind: "labour", unit: "h", price: "" }] });
+    expect(saved.repairPriceList.at(-1)).toEqual({ key: "leg_re_glue_invented", label: "Leg re-glue (invented)", kind: "labour", unit: "h", unitPriceMinor: null });
+  });
+
   it("refuses a line it can't price, with the field named and the saved quote unchanged", async () => {
     const { staff, job } = await crackJob();
     const before = getStudioJob(staff, job.id).job;
