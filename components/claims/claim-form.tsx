@@ -3,7 +3,7 @@
 import { Send } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
-import { useForm, type FieldPath } from "react-hook-form";
+import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button, ButtonLink } from "@/components/ui/button";
@@ -51,6 +51,8 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
   });
   const { register, formState } = form;
   const errors = formState.errors;
+  // The unit the owner types temperatures in (their preference by default); stored in °C by the schema.
+  const roomUnit = useWatch({ control: form.control, name: "answers.room.unit" }) ?? unit;
 
   // Restore the draft, then keep saving it as the owner types.
   useEffect(() => {
@@ -258,9 +260,9 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
           ))}
         </fieldset>
         <div className="grid grid-cols-2 gap-3">
-          <TextField label="Driest: temp." inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestTemp?.message} {...register("answers.room.driestTemp", num)} />
+          <TextField label={`Driest: temp. (°${roomUnit})`} inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestTemp?.message} {...register("answers.room.driestTemp", num)} />
           <TextField label="Driest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestRh?.message} {...register("answers.room.driestRh", num)} />
-          <TextField label="Dampest: temp." inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestTemp?.message} {...register("answers.room.dampestTemp", num)} />
+          <TextField label={`Dampest: temp. (°${roomUnit})`} inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestTemp?.message} {...register("answers.room.dampestTemp", num)} />
           <TextField label="Dampest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestRh?.message} {...register("answers.room.dampestRh", num)} />
         </div>
         <TextField
@@ -270,6 +272,16 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
           step="any"
           error={errors.answers?.room?.dailySwingPct?.message}
           {...register("answers.room.dailySwingPct", num)}
+        />
+        <TextField
+          label={`Largest temperature change within one day, °${roomUnit} (optional)`}
+          hint={roomUnit === "F" ? "For example 68 °F in the morning and 77 °F by the evening is a change of 9 °F." : "For example 20 °C in the morning and 25 °C by the evening is a change of 5 °C."}
+          inputMode="decimal"
+          type="number"
+          step="any"
+          min={0}
+          error={errors.answers?.room?.dailyTempSwing?.message}
+          {...register("answers.room.dailyTempSwing", num)}
         />
       </section>
 

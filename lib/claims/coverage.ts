@@ -7,9 +7,6 @@ import { CareInputError } from "@/lib/care/errors";
 import { toCareLayers, toCareLog, toCarePiece, toCatalog } from "@/lib/pieces/care-inputs";
 import { claimAnswersSchema, type ClaimAnswers } from "@/lib/validation/claims";
 
-const fToC = (f: number) => ((f - 32) * 5) / 9;
-const round1 = (n: number) => Math.round(n * 10) / 10;
-
 /** The stored answers, read back through the same schema (rows written before a change fall back to "not sure"). */
 export function readAnswers(raw: unknown): ClaimAnswers {
   const parsed = claimAnswersSchema.safeParse(raw);
@@ -22,17 +19,15 @@ export function ownerAnswers(a: ClaimAnswers): OwnerAnswers {
   return { heat: b(a.heat), chemicals: b(a.chemicals), impact: b(a.impact), usedOutdoors: b(a.usedOutdoors), directSun: b(a.directSun) };
 }
 
-/** The owner's room readings in °C, or undefined unless all four were given. */
+/** The owner's room readings (in °C: the answers schema stores them so), or undefined unless all four were given. */
 export function roomClimate(a: ClaimAnswers): RoomClimateReport | undefined {
   const r = a.room;
   if (!r || r.driestTemp == null || r.driestRh == null || r.dampestTemp == null || r.dampestRh == null) return undefined;
-  const c = (t: number) => round1(r.unit === "F" ? fToC(t) : t);
   return {
-    driest: { tempC: c(r.driestTemp), rhPct: r.driestRh },
-    dampest: { tempC: c(r.dampestTemp), rhPct: r.dampestRh },
+    driest: { tempC: r.driestTemp, rhPct: r.driestRh },
+    dampest: { tempC: r.dampestTemp, rhPct: r.dampestRh },
     ...(r.dailySwingPct != null ? { largestDailyRhChangePct: r.dailySwingPct } : {}),
-    // A change, not a reading: °F differences convert by 5/9 alone (no 32 offset).
-    ...(r.dailyTempSwing != null ? { largestDailyTempChangeC: round1(r.unit === "F" ? (r.dailyTempSwing * 5) / 9 : r.dailyTempSwing) } : {}),
+    ...(r.dailyTempSwing != null ? { largestDailyTempChangeC: r.dailyTempSwing } : {}),
   };
 }
 

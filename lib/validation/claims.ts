@@ -19,9 +19,18 @@ const optionalNumber = (min: number, max: number, what: string) =>
     .max(max, `${what[0]!.toUpperCase()}${what.slice(1)} must be at most ${max}.`)
     .nullish();
 
+const fToC = (f: number) => ((f - 32) * 5) / 9;
+const round1 = (n: number) => Math.round(n * 10) / 10;
+
+/** The largest temperature change within a day an owner can report, by unit: 40 °C = 72 °F (a difference: × 9/5). */
+export const MAX_DAILY_TEMP_CHANGE = { C: 40, F: 72 } as const;
+
 /**
- * The room's driest and dampest conditions, as the owner read them. Either all four readings or
- * none; temperatures in the unit the owner chose (converted to °C for the coverage check).
+ * The room's driest and dampest conditions, as the owner read them, and the largest change within a
+ * day (% RH, and degrees). Either all four readings or none. The owner types temperatures in the unit
+ * they chose (their preference by default); they are stored in °C, to 0.1 °C: a reading converts
+ * as (°F − 32) × 5/9, a change within a day as °F × 5/9 (no offset). Parsing stored answers again
+ * leaves them as they are.
  */
 export const roomClimateSchema = z
   .object({
@@ -32,7 +41,7 @@ export const roomClimateSchema = z
     dampestRh: optionalNumber(0, 100, "the humidity"),
     dailySwingPct: optionalNumber(0, 100, "the daily change"),
     /** Largest temperature change within a day, in `unit` degrees (a difference), if the owner knows it. */
-    dailyTempSwing: optionalNumber(0, 90, "the daily temperature change"),
+    dailyTempSwing: optionalNumber(0, 1000, "the daily temperature change"), // the limit by unit is checked below
   })
   .superRefine((r, ctx) => {
     const readings = { driestTemp: r.driestTemp, driestRh: r.driestRh, dampestTemp: r.dampestTemp, dampestRh: r.dampestRh };
@@ -50,6 +59,21 @@ export const roomClimateSchema = z
       const t = r[k];
       if (t != null && (t < lo || t > hi)) ctx.addIssue({ code: "custom", path: [k], message: `Enter a room temperature between ${lo} and ${hi} °${r.unit}.` });
     }
+    const maxChange = MAX_DAILY_TEMP_CHANGE[r.unit];
+    if (r.dailyTempSwing != null && r.dailyTempSwing > maxChange) {
+      ctx.addIssue({ code: "custom", path: ["dailyTempSwing"], message: `Enter a change within a day between 0 and ${maxChange} °${r.unit}.` });
+    }
+  })
+  .transform((r) => {
+    if (r.unit === "C") return { ...r, unit: "C" as const };
+    const reading = (t: number | null | undefined) => (t == null ? t : round1(fToC(t)));
+    return {
+      ...r,
+      unit: "C" as const,
+      driestTemp: reading(r.driestTemp),
+      dampestTemp: reading(r.dampestTemp),
+      dailyTempSwing: r.dailyTempSwing == null ? r.dailyTempSwing : round1((r.dailyTempSwing * 5) / 9),
+    };
   });
 
 export const claimAnswersSchema = z.object({
