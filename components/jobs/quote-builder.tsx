@@ -9,6 +9,7 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { formatMinorUnits } from "@/lib/care/quote";
+import { formatMoney } from "@/lib/owner/format";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS } from "@/lib/care/vocabulary";
 import { LINE_KIND_LABELS, LINE_KINDS, LINE_SOURCE_LABELS, LINE_UNIT_LABELS, LINE_UNITS, parseMajorAmount, type LineDraft } from "@/lib/repairs/lines";
 
@@ -36,6 +37,7 @@ export function QuoteBuilder({
   products,
   repairs,
   currency,
+  country,
   exponent,
   editable,
 }: {
@@ -45,6 +47,7 @@ export function QuoteBuilder({
   products: Product[];
   repairs: Repair[];
   currency: string;
+  country: string;
   exponent: number;
   editable: boolean;
 }) {
@@ -155,7 +158,7 @@ export function QuoteBuilder({
                 <div className="flex flex-wrap items-center justify-between gap-2 text-xs text-muted">
                   <span>
                     {LINE_SOURCE_LABELS[f.source]}
-                    {f.proposed ? ` · proposed ${f.proposed.quantity} ${LINE_UNIT_LABELS[f.unit]} at ${formatMinorUnits(f.proposed.unitPriceMinor, currency)} ${currency}` : ""}
+                    {f.proposed ? ` · proposed ${f.proposed.quantity} ${LINE_UNIT_LABELS[f.unit]} at ${formatMoney(f.proposed.unitPriceMinor, currency, country)}` : ""}
                   </span>
                   <Button type="button" variant="secondary" onClick={() => fields.remove(i)} aria-label={`Remove line ${i + 1}`}>
                     Remove

@@ -51,6 +51,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             lines={job.lines.map(({ kind, source, ref, description, quantity, unit, unitPriceMinor, proposed }) => ({ kind, source, ...(ref ? { ref } : {}), description, quantity, unit, unitPriceMinor, proposed }))}
             editable={editable}
             currency={job.currency}
+            country={studio.country}
             exponent={currencyExponent(job.currency)}
             repairs={priceListOf(studio).map((r) => ({ key: r.key, label: r.label }))}
             products={products.map((p) => ({ id: p.id, name: p.name, finishClassLabel: FINISH_CLASS_LABELS[p.finishClass] }))}

@@ -1,0 +1,76 @@
+// The quote builder at 1280 px as staff: repair lines proposed from the price list, hours edited, a
+// typed line added, the totals priced by the server and shown with what was proposed; axe on the job
+// page and the repair price settings.
+import AxeBuilder from "@axe-core/playwright";
+import { expect, test, type Page } from "@playwright/test";
+import { ACCOUNTS, fixture, signIn } from "./helpers";
+
+test.use({ viewport: { width: 1280, height: 900 } });
+
+const usd = (minor: number) => new Intl.NumberFormat("en-US", { style: "currency", currency: "USD" }).format(minor / 100);
+
+/** The line item (li) whose description field reads `text`. */
+async function lineWith(page: Page, text: string) {
+  const descriptions = page.getByLabel(/^Line \d+: description$/);
+  const n = await descriptions.count();
+  for (let i = 0; i < n; i++) if ((await descriptions.nth(i).inputValue()) === text) return page.getByRole("listitem").filter({ has: descriptions.nth(i) });
+  throw new Error(`no line "${text}"`);
+}
+
+test("staff propose a crack fill, change its hours, add a typed line and save; the totals are the API's", async ({ page }) => {
+  const jobId = fixture().jobs.draft!;
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto(`/studio/jobs/${jobId}`);
+  await expect(page.getByRole("heading", { name: "Inspect the island's film finish", level: 1 })).toBeVisible();
+
+  await page.getByText("What the lines are proposed from").click();
+  await page.getByLabel("Crack or check fill").check();
+  await page.getByRole("button", { name: "Propose lines" }).click();
+  await expect(page.getByText(/Lines proposed from the tasks/)).toBeVisible();
+  const crack = await lineWith(page, "Crack or check fill");
+  await expect(crack.getByText("Labour rate · proposed 1 h at $85.00")).toBeVisible();
+
+  // Hours edited; a bad quantity is refused on the spot and nothing is sent.
+  await crack.getByLabel("Quantity").fill("1.0005");
+  await page.getByRole("button", { name: "Save the quote" }).click();
+  await expect(crack.getByText("A number above 0, at most three decimals (0.75).")).toBeVisible();
+  await crack.getByLabel("Quantity").fill("1.5");
+
+  await page.getByRole("button", { name: "Add a typed line" }).click();
+  const typed = page.getByRole("listitem").filter({ has: page.getByText("Typed", { exact: true }) }).last();
+  await typed.getByLabel(/^Line \d+: description$/).fill("Colour-match the fill (invented)");
+  await typed.getByLabel("Unit price (USD)").fill("12.50");
+  await page.getByRole("button", { name: "Save the quote" }).click();
+  await expect(page.getByText("Quote saved.")).toBeVisible();
+
+  // The summary shows the sent hours beside the proposed ones, and the server's totals.
+  const summary = page.getByRole("table", { name: "Quote lines and totals" });
+  await expect(summary.getByText("1.5 h × $85.00")).toBeVisible();
+  await expect(summary.getByText("Changed from the proposed 1 h × $85.00")).toBeVisible();
+  await expect(summary.getByText("Colour-match the fill (invented)")).toBeVisible();
+  await expect(summary.getByText("$127.50")).toBeVisible(); // 1.5 h × 85.00
+
+  const res = await page.request.get(`/api/jobs/${jobId}`);
+  expect(res.status()).toBe(200);
+  const { job } = (await res.json()) as { job: { lines: { description: string; lineTotalMinor: number; taxMinor: number }[]; totals: { netMinor: number; taxMinor: number; totalMinor: number } } };
+  expect(job.lines.map((l) => l.description)).toEqual(expect.arrayContaining(["Crack or check fill", "Colour-match the fill (invented)"]));
+  expect(job.lines.reduce((s, l) => s + l.lineTotalMinor, 0)).toBe(job.totals.totalMinor);
+  expect(job.totals.netMinor + job.totals.taxMinor).toBe(job.totals.totalMinor);
+  await expect(summary.getByRole("row", { name: new RegExp(`To pay ${usd(job.totals.totalMinor).replace(/[$.]/g, "\\$&")}`) })).toBeVisible();
+  await expect(page.getByText("Amounts are exact to the cent.")).toBeVisible();
+
+  const axe = await new AxeBuilder({ page }).analyze();
+  expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
+});
+
+test("admins read the repair price list, rounding and tax settings", async ({ page }) => {
+  await signIn(page, ACCOUNTS.admin);
+  await page.goto("/studio/settings/repairs");
+  await expect(page.getByRole("heading", { name: "Repair prices and tax" })).toBeVisible();
+  await expect(page.getByLabel("Round each quote line")).toHaveValue("cent");
+  await expect(page.getByRole("textbox", { name: "Task" }).first()).toHaveValue("Crack or check fill");
+  await page.getByLabel("How tax is charged").selectOption("per_kind");
+  await expect(page.getByLabel("Materials (%)")).toBeVisible();
+  const axe = await new AxeBuilder({ page }).analyze();
+  expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
+});
