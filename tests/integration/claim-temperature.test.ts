@@ -2,7 +2,7 @@
 // lib/claims as the owner's form posts it, stored in °C, read back by the staff claim page's coverage
 // check, named in its reasons. The care guide's limit of about 4 °C in 24 h is the Western Australian
 // Museum's (Conservation and Care of Collections, 2017) as recalled — from memory (lib/care/SOURCES.md).
-// °F changes convert as a difference: × 5/9 (NIST SP 811, 2008, App. B.9). Real SQLite file and SMTP sink.
+// °F changes convert as a difference: × 5/9 (NIST SP 811, 2008, App. B, from memory). Real SQLite file and SMTP sink.
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";

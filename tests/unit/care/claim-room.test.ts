@@ -1,7 +1,7 @@
 // The claim form's room readings → the coverage check's input, through the answers schema that stores
 // them (lib/validation/claims): temperatures in °C. °F readings convert as (°F − 32) × 5/9; a change
-// within a day as a difference, °F × 5/9 with no offset (NIST SP 811, 2008, App. B.9 and §B.8 note on
-// temperature intervals: 1 °F interval = 5/9 K). Worked by hand beside each value.
+// within a day as a difference, °F × 5/9 with no offset (a 1 °F interval = 5/9 K: NIST SP 811, 2008,
+// App. B, from memory). Worked by hand beside each value.
 import { describe, expect, it } from "vitest";
 import { roomClimate } from "@/lib/claims/coverage";
 import { claimAnswersSchema } from "@/lib/validation/claims";
