@@ -411,6 +411,11 @@ type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
  */
 function moveState(tx: Tx, claim: Claim, to: ClaimState, expectedVersion: number | undefined, extra: Partial<typeof claims.$inferInsert> = {}): Claim {
   if (!canTransition(claim.state, to)) throw conflict(`A claim that is ${claim.state.replace("_", " ")} cannot move to ${to.replace("_", " ")}.`);
+  return writeState(tx, claim, to, expectedVersion, extra);
+}
+
+/** The conditional UPDATE of moveState, for a move the caller has already checked. */
+function writeState(tx: Tx, claim: Claim, to: ClaimState, expectedVersion: number | undefined, extra: Partial<typeof claims.$inferInsert> = {}): Claim {
   const version = expectedVersion ?? claim.version;
   const updated = tx
     .update(claims)
@@ -454,27 +459,28 @@ export function createJobFromClaim(ctx: StudioContext, claimId: string) {
   return { id: job.id, state: job.state, claimId: job.claimId, title: job.title };
 }
 
-const FOLLOW: Record<"visit_booked" | "visit_cancelled" | "job_done", ClaimState[]> = {
-  // accepted → repair booked when the job's visit is booked; back to accepted when it is cancelled;
-  // closed when the job is done (through repair booked if it never got there).
-  visit_booked: ["repair_booked"],
-  visit_cancelled: ["accepted"],
-  job_done: ["repair_booked", "closed"],
-};
-
 /**
- * Moves the claim a repair job was made from along with the work, inside the caller's transaction.
+ * Moves the claim a repair job was made from along with the work, inside the caller's transaction:
+ * accepted → repair booked when the job's visit is booked; closed when the job is done (through
+ * repair booked if it never got there). A cancelled visit undoes the booking: repair booked → accepted,
+ * a step outside the state table, which staff can't take by hand (it would skip the decision form).
  * A job without a claim, or a claim already past the step, is left as it is.
  */
-export function followJob(tx: Tx, jobId: string, event: keyof typeof FOLLOW, actorId: string | null): ClaimState | null {
+export function followJob(tx: Tx, jobId: string, event: "visit_booked" | "visit_cancelled" | "job_done", actorId: string | null): ClaimState | null {
   const row = tx.select({ claim: claims }).from(repairJobs).innerJoin(claims, eq(claims.id, repairJobs.claimId)).where(eq(repairJobs.id, jobId)).get();
   if (!row) return null;
   let claim = row.claim;
-  for (const to of FOLLOW[event]) {
-    if (!canTransition(claim.state, to)) continue;
+  const step = (to: ClaimState, move: typeof moveState) => {
     const from = claim.state;
-    claim = moveState(tx, claim, to, undefined);
+    claim = move(tx, claim, to, undefined);
     recordAudit(tx, { studioId: claim.studioId, actorId, action: `claim.${to}`, subjectType: "claim", subjectId: claim.id, data: { from, to, jobId, by: event } });
+  };
+  if (event === "visit_cancelled") {
+    if (claim.state === "repair_booked") step("accepted", writeState);
+    return claim.state;
+  }
+  for (const to of event === "visit_booked" ? (["repair_booked"] as const) : (["repair_booked", "closed"] as const)) {
+    if (canTransition(claim.state, to)) step(to, moveState);
   }
   return claim.state;
 }

@@ -1,0 +1,118 @@
+// The claim → repair thread against a real SQLite file: staff open the repair job of an accepted
+// claim (the function behind POST /api/claims/[id]/job), the claim and the job name each other, and
+// the claim moves on with the work — repair booked when the visit is booked, accepted again when it is
+// cancelled, closed when the report is filed — each step in the audit log. The quote, approval and
+// payment are stood in for by setting the job covered (their own tests are the repair job tests).
+import { and, asc, eq } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
+import { ZodError } from "zod";
+import { getDb } from "@/db/client";
+import { auditLog, claims, repairJobs, users } from "@/db/schema";
+import { createJobFromClaim, getClaim } from "@/lib/claims/service";
+import { ownerViewer, staffViewer } from "@/lib/claims/viewer";
+import { AppError } from "@/lib/errors";
+import { bookVisit, cancelVisit, listJobSlots, submitReport } from "@/lib/visits/service";
+import { createAcceptedClaim, createStudio, memberContext } from "../support/fixtures";
+import { staffActor, visitWorld } from "./visits-helpers";
+
+const HOUR = 3_600_000;
+const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
+
+async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
+  try {
+    await (typeof p === "function" ? p() : p);
+    return 200;
+  } catch (e) {
+    if (e instanceof AppError) return e.status;
+    if (e instanceof ZodError) return 400;
+    throw e;
+  }
+}
+
+/** A visit world whose piece has an accepted (covered) claim. */
+async function claimThreadWorld() {
+  const w = await visitWorld();
+  const claim = createAcceptedClaim(w.studio, w.piece.id, w.owner.id, "covered");
+  return { ...w, claim };
+}
+
+const claimState = (id: string) => getDb().select({ state: claims.state }).from(claims).where(eq(claims.id, id)).get()!.state;
+const claimAudit = (id: string) =>
+  getDb()
+    .select({ action: auditLog.action, data: auditLog.data })
+    .from(auditLog)
+    .where(and(eq(auditLog.subjectType, "claim"), eq(auditLog.subjectId, id)))
+    .orderBy(asc(auditLog.createdAt))
+    .all();
+
+describe("POST /api/claims/[id]/job: the repair job of an accepted claim", () => {
+  it("opens one job that names the claim; the claim answers with its jobId; a second job, a claim not accepted and another studio are refused", async () => {
+    const w = await claimThreadWorld();
+    const job = createJobFromClaim(w.staff, w.claim.id);
+    expect(job).toMatchObject({ claimId: w.claim.id, state: "draft" });
+    expect(getDb().select().from(repairJobs).where(eq(repairJobs.id, job.id)).get()).toMatchObject({ claimId: w.claim.id, pieceId: w.piece.id, ownerId: w.owner.id, origin: "claim" });
+
+    const asStaff = getClaim(staffViewer(w.staff), w.claim.id);
+    expect(asStaff.claim.jobId).toBe(job.id);
+    expect(asStaff.view === "staff" && asStaff.repair).toMatchObject({ jobId: job.id, stateLabel: "Being priced", visit: null });
+    // The owner hears about the job once the studio has priced it; until then the claim says so.
+    const asOwner = getClaim(ownerViewer(w.owner), w.claim.id);
+    expect(asOwner.claim.jobId).toBeNull();
+    expect(asOwner.view === "owner" && asOwner.repair?.stage).toMatch(/pricing the repair/);
+
+    expect(await statusOf(() => createJobFromClaim(w.staff, w.claim.id))).toBe(409);
+    const open = createAcceptedClaim(w.studio, w.piece.id, w.owner.id, "chargeable");
+    getDb().update(claims).set({ state: "in_review" }).where(eq(claims.id, open.id)).run();
+    expect(await statusOf(() => createJobFromClaim(w.staff, open.id))).toBe(409);
+    const stranger = await memberContext(createStudio({ name: "Another studio (invented)" }), "admin");
+    expect(await statusOf(() => createJobFromClaim(stranger, w.claim.id))).toBe(404);
+    expect(await statusOf(() => createJobFromClaim(w.staff, "no-such-claim"))).toBe(404);
+    expect(getDb().select().from(repairJobs).where(eq(repairJobs.claimId, open.id)).all()).toHaveLength(0);
+  });
+});
+
+describe("the claim follows the work", () => {
+  it("repair booked when its job's visit is booked, accepted again when the visit is cancelled, closed when the report is filed; each step audited; the owner's page says where the repair stands", async () => {
+    const w = await claimThreadWorld();
+    getDb().update(users).set({ timeZone: "Europe/Berlin" }).where(eq(users.id, w.owner.id)).run();
+    const { id: jobId } = createJobFromClaim(w.staff, w.claim.id);
+    // Quote, approval and payment stood in for: the job is covered by the warranty.
+    getDb().update(repairJobs).set({ state: "covered" }).where(eq(repairJobs.id, jobId)).run();
+    expect(claimState(w.claim.id)).toBe("accepted");
+    expect((getClaim(ownerViewer(w.owner), w.claim.id) as { repair: { stage: string; jobId: string | null } }).repair).toMatchObject({ jobId, stage: expect.stringMatching(/Pick a time/) });
+
+    const slots = listJobSlots(staffActor(w.staff), jobId, { from: "2027-05-04T12:00:00Z", to: "2027-05-07T00:00:00Z" }, NOW).slots;
+    const first = await bookVisit(staffActor(w.staff), { jobId, technicianId: slots[0]!.technicianId, start: slots[0]!.start }, NOW);
+    expect(claimState(w.claim.id)).toBe("repair_booked");
+    const owned = getClaim(ownerViewer(w.owner), w.claim.id) as { repair: { stage: string } };
+    // 09:00 in New York, read on the owner's own clock and named: Europe/Berlin.
+    expect(owned.repair.stage).toBe("Repair visit booked: Tuesday, 4 May 2027, 15:00–16:30 (Europe/Berlin).");
+    const staffView = getClaim(staffViewer(w.staff), w.claim.id);
+    expect(staffView.view === "staff" && staffView.repair?.visit).toMatchObject({ id: first.id, state: "booked" });
+
+    await cancelVisit(staffActor(w.staff), first.id, { reason: "Owner away (invented)" }, NOW + HOUR);
+    expect(claimState(w.claim.id)).toBe("accepted");
+
+    const second = await bookVisit(staffActor(w.staff), { jobId, technicianId: slots[1]!.technicianId, start: slots[1]!.start }, NOW + 2 * HOUR);
+    expect(claimState(w.claim.id)).toBe("repair_booked");
+    await submitReport(w.tech, second.id, { work: "Cleaned and re-oiled the ring marks (invented).", layers: [] }, new Date(Date.parse(second.start) + HOUR));
+    expect(claimState(w.claim.id)).toBe("closed");
+    expect((getClaim(ownerViewer(w.owner), w.claim.id) as { repair: { stage: string } }).repair.stage).toMatch(/^The repair is done, \d+ May 2027\.$/);
+
+    expect(claimAudit(w.claim.id).map((a) => [a.action, a.data.from, a.data.to, a.data.jobId])).toEqual([
+      ["claim.repair_booked", "accepted", "repair_booked", jobId],
+      ["claim.accepted", "repair_booked", "accepted", jobId],
+      ["claim.repair_booked", "accepted", "repair_booked", jobId],
+      ["claim.closed", "repair_booked", "closed", jobId],
+    ]);
+  });
+
+  it("a job that did not come from a claim moves no claim", async () => {
+    const w = await claimThreadWorld();
+    const slot = listJobSlots(staffActor(w.staff), w.job.id, { from: "2027-05-04T12:00:00Z", to: "2027-05-07T00:00:00Z" }, NOW).slots[0]!;
+    const v = await bookVisit(staffActor(w.staff), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW);
+    await submitReport(w.tech, v.id, { work: "Re-oiled (invented).", layers: [] }, new Date(Date.parse(v.start) + HOUR));
+    expect(claimState(w.claim.id)).toBe("accepted");
+    expect(claimAudit(w.claim.id)).toHaveLength(0);
+  });
+});
