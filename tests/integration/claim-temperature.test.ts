@@ -1,4 +1,4 @@
-// The claim form's daily temperature change (issue 17 item 6) reaches the coverage check: filed through
+// The claim form's daily temperature change reaches the coverage check: filed through
 // lib/claims as the owner's form posts it, stored in °C, read back by the staff claim page's coverage
 // check, named in its reasons. The care guide's limit of about 4 °C in 24 h is the Western Australian
 // Museum's (Conservation and Care of Collections, 2017) as recalled — from memory (lib/care/SOURCES.md).
