@@ -6,7 +6,6 @@
 import { and, eq } from "drizzle-orm";
 import sharp from "sharp";
 import { describe, expect, it } from "vitest";
-import { ZodError } from "zod";
 import { getDb } from "@/db/client";
 import { auditLog, clients, files, pieces, repairJobs, users, visits } from "@/db/schema";
 import { createJobFromClaim } from "@/lib/claims/service";
@@ -22,17 +21,6 @@ import { luciaUser, ownerActor, staffActor, visitWorld } from "./visits-helpers"
 
 const HOUR = 3_600_000;
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
-
-async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
-  try {
-    await (typeof p === "function" ? p() : p);
-    return 200;
-  } catch (e) {
-    if (e instanceof AppError) return e.status;
-    if (e instanceof ZodError) return 400;
-    throw e;
-  }
-}
 
 async function errorOf(p: Promise<unknown>): Promise<AppError> {
   return p.then(
