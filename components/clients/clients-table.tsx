@@ -1,7 +1,7 @@
 "use client";
 
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight, Search, X } from "lucide-react";
+import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight, Download, Search, X } from "lucide-react";
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useEffect, useMemo, useState } from "react";
@@ -54,6 +54,11 @@ export function ClientsTable() {
   const filtersOn = !!(params.get("q") || params.get("filter"));
   const from = data && data.total ? (data.page - 1) * data.pageSize + 1 : 0;
   const to = data ? from + data.rows.length - 1 : 0;
+  const exportQs = useMemo(() => {
+    const p = new URLSearchParams(qs);
+    p.delete("page");
+    return p.toString();
+  }, [qs]);
   const lastPage = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
 
   const sortButton = (key: string, label: string) => {
@@ -94,14 +99,22 @@ export function ClientsTable() {
           <SelectField label="Show" value={params.get("filter") ?? ""} onChange={(e) => set({ filter: e.target.value || null })}>
             <option value="">Everyone</option>
             <option value="account">With a Grainward account</option>
+            <option value="invited">Sent the hand-over mail, not registered yet</option>
             <option value="unregistered">With a piece nobody has registered</option>
             <option value="open_claims">With an open claim</option>
+            <option value="paused">Care reminders paused</option>
           </SelectField>
           <SelectField label="Sort by" value={sort} onChange={(e) => set({ sort: e.target.value === "name" ? null : e.target.value, dir: null })}>
             <option value="name">Name</option>
             <option value="newest">Newest client</option>
             <option value="updated">Last changed</option>
           </SelectField>
+          <div className="flex items-end">
+            {/* The export takes the search and filter, not the page: every client they find. */}
+            <a href={`/api/clients/export.csv${exportQs ? `?${exportQs}` : ""}`} className="inline-flex min-h-11 items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
+              <Download aria-hidden className="size-4" /> Export these as CSV
+            </a>
+          </div>
           {filtersOn ? (
             <div className="flex items-end">
               <Button variant="ghost" onClick={() => (setTyped(""), router.replace(pathname, { scroll: false }))}>

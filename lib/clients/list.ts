@@ -2,7 +2,10 @@ import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import type { StudioContext } from "@/lib/auth/guards";
+import Papa from "papaparse";
+import { localDate } from "@/lib/care/dates";
 import { OPEN_STATES } from "@/lib/claims/states";
+import { cell } from "@/lib/pieces/csv";
 import { CLIENT_PAGE_SIZE, type ClientListQuery } from "@/lib/validation/clients";
 import { displayPhone, phoneSearchKeys } from "./phone";
 
@@ -59,22 +62,44 @@ const ORDER: Record<ClientListQuery["sort"], { column: SQL; dir: "asc" | "desc" 
   updated: { column: sql`c.updated_at`, dir: "desc" },
 };
 
-/** One page (50) of the caller's studio's clients, searched, filtered and sorted, with the total. */
-export function listClients(ctx: StudioContext, query: ClientListQuery): ClientPage {
-  const db = getDb();
+type ListedRow = {
+  id: string;
+  name: string;
+  email: string | null;
+  phone: string | null;
+  address: string;
+  consentService: number;
+  consentOffers: number;
+  userId: string | null;
+  createdAt: number;
+  updatedAt: number;
+  pieces: number;
+  unregistered: number;
+  openClaims: number;
+};
+
+/** The caller's studio's clients, searched, filtered and sorted: one page, or every row (the CSV export). */
+function queryClients(ctx: StudioContext, query: ClientListQuery, page: { limit: number; offset: number } | "all"): { rows: ListedRow[]; where: SQL } {
   const conditions = [sql`c.studio_id = ${ctx.studio.id}`, searchWhere(query.q, ctx.studio.country), query.filter ? FILTERS[query.filter] : undefined].filter(Boolean) as SQL[];
   const where = sql.join(conditions, sql` AND `);
   const order = ORDER[query.sort];
   const dir = sql.raw((query.dir ?? order.dir) === "asc" ? "ASC" : "DESC");
-  const total = db.get<{ n: number }>(sql`SELECT count(*) AS n FROM clients c WHERE ${where}`)!.n;
-  const rows = db.all<{ id: string; name: string; email: string | null; phone: string | null; userId: string | null; updatedAt: number; pieces: number; unregistered: number; openClaims: number }>(sql`
-    SELECT c.id, c.name, c.email, c.phone, c.user_id AS userId, c.updated_at AS updatedAt,
+  const rows = getDb().all<ListedRow>(sql`
+    SELECT c.id, c.name, c.email, c.phone, c.address, c.consent_service AS consentService, c.consent_offers AS consentOffers,
+      c.user_id AS userId, c.created_at AS createdAt, c.updated_at AS updatedAt,
       (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL) AS pieces,
       (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL AND p.owner_id IS NULL) AS unregistered,
       CASE WHEN c.user_id IS NULL THEN 0 ELSE (SELECT count(*) FROM claims k WHERE k.owner_id = c.user_id AND k.studio_id = c.studio_id AND k.state IN (${OPEN})) END AS openClaims
     FROM clients c WHERE ${where}
     ORDER BY ${order.column} ${dir}, c.id ${dir}
-    LIMIT ${CLIENT_PAGE_SIZE} OFFSET ${(query.page - 1) * CLIENT_PAGE_SIZE}`);
+    ${page === "all" ? sql`` : sql`LIMIT ${page.limit} OFFSET ${page.offset}`}`);
+  return { rows, where };
+}
+
+/** One page (50) of the caller's studio's clients, searched, filtered and sorted, with the total. */
+export function listClients(ctx: StudioContext, query: ClientListQuery): ClientPage {
+  const { rows, where } = queryClients(ctx, query, { limit: CLIENT_PAGE_SIZE, offset: (query.page - 1) * CLIENT_PAGE_SIZE });
+  const total = getDb().get<{ n: number }>(sql`SELECT count(*) AS n FROM clients c WHERE ${where}`)!.n;
   return {
     rows: rows.map((r) => ({
       id: r.id,
@@ -91,4 +116,20 @@ export function listClients(ctx: StudioContext, query: ClientListQuery): ClientP
     page: query.page,
     pageSize: CLIENT_PAGE_SIZE,
   };
+}
+
+export const CLIENT_CSV_COLUMNS = ["name", "email", "phone", "address", "service_mail", "offers", "has_account", "pieces", "unregistered", "open_claims", "created_on", "updated_on"] as const;
+
+/**
+ * GET /api/clients/export.csv: every client the list's current search and filter find (all pages),
+ * one row each. Cells that a spreadsheet would read as a formula are prefixed with ' (lib/pieces/csv).
+ */
+export function exportClientsCsv(ctx: StudioContext, query: ClientListQuery): string {
+  const { rows } = queryClients(ctx, query, "all");
+  const day = (ms: number) => localDate(ms, ctx.studio.timeZone);
+  const yesNo = (b: unknown) => (b ? "yes" : "no");
+  const data = rows.map((r) =>
+    [r.name, r.email ?? "", displayPhone(r.phone, ctx.studio.country), r.address, yesNo(r.consentService), yesNo(r.consentOffers), yesNo(r.userId), r.pieces, r.unregistered, r.openClaims, day(r.createdAt), day(r.updatedAt)].map(cell),
+  );
+  return Papa.unparse({ fields: [...CLIENT_CSV_COLUMNS], data });
 }

@@ -148,6 +148,8 @@ const CARE_SOURCE_WORDS: Record<string, string> = { owner: "by the owner", visit
 const NOTE_WORDS: Record<string, string> = {
   "client.created": "Client record created",
   "client.updated": "Client record changed",
+  "client.exported": "Everything held about them downloaded",
+  "client.erased": "Erased at their request",
 };
 
 function noteTitle(r: Row): string {

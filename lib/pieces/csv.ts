@@ -19,6 +19,7 @@ import {
   type PieceKind,
 } from "@/lib/care/vocabulary";
 import { ft2ToM2, inchesToMm } from "@/lib/care/units";
+import { attachImportedBuyer, newBuyerTally, readBuyerColumns, type ImportBuyer } from "@/lib/clients/import-buyers";
 import { AppError, unprocessable } from "@/lib/errors";
 import { createPieceSchema, importSchema } from "@/lib/validation/pieces";
 import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./registry";
@@ -29,6 +30,7 @@ import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./re
 // finish_stack: layers separated by ";", each surface:class:coats:YYYY-MM-DD[:product label].
 // Sizes may come in inches instead (length_in, width_in, diameter_in, thickness_in: 96, 37.5 or
 // 37 5/8) and a measured area in ft² (area_ft2); sizes implausible for the piece's kind are refused.
+// Optional buyer columns (buyer_name, buyer_email, buyer_phone) match or make the piece's client.
 
 export const CSV_COLUMNS = [
   "title",
@@ -57,7 +59,7 @@ export const CSV_COLUMNS = [
 const EXPORT_ONLY = ["id", "registered", "owner_name", "owner_email", "next_care", "next_care_due", "under_warranty"] as const;
 
 /** Spreadsheet formula injection: a cell starting with = + - @ (or tab/CR) is prefixed with '. */
-function cell(v: unknown): string {
+export function cell(v: unknown): string {
   const s = v == null ? "" : String(v);
   return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
 }
@@ -111,7 +113,15 @@ export function exportPiecesCsv(ctx: StudioContext, raw: unknown, now = new Date
 
 export type ImportError = { row: number; field: string; message: string };
 export type ImportPreviewRow = { row: number; title: string; kind: string; primarySpecies: string; deliveredOn: string; layers: number; ok: boolean };
-export type ImportResult = { ok: boolean; committed: boolean; rows: ImportPreviewRow[]; errors: ImportError[]; created: number };
+export type ImportResult = {
+  ok: boolean;
+  committed: boolean;
+  rows: ImportPreviewRow[];
+  errors: ImportError[];
+  created: number;
+  /** Buyers of the written rows: matched to clients on record, or new clients (lib/clients/import-buyers). */
+  buyers?: { matched: number; created: number };
+};
 
 const norm = (s: string) => s.trim().toLowerCase().replace(/[\s_-]+/g, " ");
 
@@ -281,6 +291,7 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
 
   const products = studioProducts(ctx.studio.id).map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass }));
   const inputs: unknown[] = [];
+  const buyers: (ImportBuyer | null)[] = [];
   const rows: ImportPreviewRow[] = [];
   if (errors.length === 0) {
     parsed.data.forEach((r0, i) => {
@@ -320,6 +331,9 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
       const result = createPieceSchema.safeParse(candidate);
       const rowErrors: ImportError[] = [];
       if (stack.error) rowErrors.push({ row: rowNo, field: "finish_stack", message: stack.error });
+      const buyer = readBuyerColumns(r, ctx.studio.country);
+      for (const e of buyer.errors) rowErrors.push({ row: rowNo, ...e });
+      buyers.push(buyer.buyer);
       for (const [column, l] of [["length_mm", length], ["width_mm", width], ["diameter_mm", diameter], ["thickness_mm", thickness], ["primary_species", primary], ["secondary_species", secondary]] as const) {
         if (l.error) rowErrors.push({ row: rowNo, field: column, message: l.error });
       }
@@ -345,9 +359,13 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
   if (errors.length > 0 || !commit) return { ok: errors.length === 0, committed: false, rows, errors, created: 0 };
 
   const db = getDb();
+  const tally = newBuyerTally();
   try {
     db.transaction((tx) => {
-      inputs.forEach((input) => insertPiece(ctx, tx, input, "import"));
+      inputs.forEach((input, i) => {
+        const { piece } = insertPiece(ctx, tx, input, "import");
+        if (buyers[i]) attachImportedBuyer(ctx, tx, piece.id, buyers[i], tally);
+      });
       recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "pieces.imported", subjectType: "studio", subjectId: ctx.studio.id, data: { rows: inputs.length } });
     });
   } catch (e) {
@@ -358,5 +376,5 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
     }
     throw e;
   }
-  return { ok: true, committed: true, rows, errors: [], created: inputs.length };
+  return { ok: true, committed: true, rows, errors: [], created: inputs.length, buyers: { matched: tally.matched, created: tally.created } };
 }

@@ -126,3 +126,8 @@ export type DeliverPieceValues = z.output<typeof deliverPieceSchema>;
 
 /** The hand-over link's token, as it arrives in the URL. */
 export const handoverTokenSchema = z.object({ token: z.string().trim().min(20, "That link is incomplete.").max(100, "That link is incomplete.") });
+
+/** Erasing a client asks for a ticked confirmation: it can't be undone. */
+export const eraseClientSchema = z.object({
+  confirm: z.literal(true, { message: "Tick the box to confirm: erasing can't be undone." }),
+});

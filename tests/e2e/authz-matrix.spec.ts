@@ -96,6 +96,8 @@ type State = {
   studio: Record<"admin" | "otherStudioAdmin", { profile: unknown; reminders: unknown; visits: unknown }>;
   inesHours: unknown;
   clients: { demo: { id: string; name: string }; other: { id: string; name: string } };
+  /** A throwaway client of the demo studio for the erase row. */
+  erasable: string;
   /** The conversation on the owner's declined claim (the seed's owner message). */
   threadId: string;
 };
@@ -156,6 +158,13 @@ async function throwaways(): Promise<void> {
 }
 
 /** A care-log entry of the owner's dated on the delivery day: older than the real history, so no schedule moves. */
+/** A client of the demo studio made for the erase row (once per run). */
+async function erasableClient(): Promise<void> {
+  if (S.erasable) return;
+  const made = await json<{ client: { id: string } }>(await S.api.staff.post("/api/clients", { data: { name: "Matrix erasable client (invented)" } }), "a client to erase", 201);
+  S.erasable = made.client.id;
+}
+
 /** The owner's client in the demo studio, and a client of the other studio (made once, found after). */
 /** The demo studio's conversation about the owner's claim, found in the inbox once. */
 async function threadRow(): Promise<void> {
@@ -278,6 +287,10 @@ const ROUTES: RouteRow[] = [
   // Saves the name it already has: changes nothing for the roles that may.
   { route: "PATCH /api/clients/[id]", expect: "401 403 403 403 200 200 404 404", before: clientRows, send: ({ api }) => api.patch(`/api/clients/${S.clients.demo.id}`, { data: { name: S.clients.demo.name } }) },
   { route: "GET /api/clients/[id]/timeline", expect: "401 403 403 403 200 200 404 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}/timeline?limit=5`) },
+  { route: "GET /api/clients/export.csv", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/clients/export.csv?q=a&filter=invited") },
+  // Personal data: admins only; another studio's client is a 404. Erasing takes a throwaway client made just before.
+  { route: "GET /api/clients/[id]/personal-data", expect: "401 403 403 403 403 200 404 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}/personal-data`) },
+  { route: "POST /api/clients/[id]/erase", expect: "401 403 403 403 403 200 404 404", before: erasableClient, send: ({ api }) => api.post(`/api/clients/${S.erasable}/erase`, { data: { confirm: true } }) },
 
   // Claims: the owner who filed it and the studio's staff; nobody else learns it exists.
   { route: "GET /api/claims", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/claims") },

@@ -3,12 +3,14 @@ import Link from "next/link";
 import { ClientForm } from "@/components/clients/client-form";
 import { ClientTimeline } from "@/components/clients/client-timeline";
 import { ConsentForm } from "@/components/clients/consent-form";
+import { PersonalDataCard } from "@/components/clients/personal-data-card";
 import { formatAt } from "@/components/clients/format";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import { getClient } from "@/lib/clients/get";
+import { ERASED_NAME } from "@/lib/clients/personal-data";
 import { CONSENT_KIND_LABELS, CONSENT_SOURCE_LABELS, CONTACT_METHOD_LABELS } from "@/lib/clients/vocabulary";
 
 export const metadata: Metadata = { title: "Client" };
@@ -99,6 +101,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
               <ConsentForm clientId={client.id} current={{ service: client.consentService, offers: client.consentOffers }} today={detail.studioToday} />
             </div>
           </Card>
+          {ctx.role === "admin" ? <PersonalDataCard clientId={client.id} name={client.name} erased={client.name === ERASED_NAME && !client.email && !client.phone} /> : null}
         </div>
       </div>
     </div>

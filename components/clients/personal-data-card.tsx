@@ -1,0 +1,63 @@
+"use client";
+
+import { Download, Trash2 } from "lucide-react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { toast } from "sonner";
+import { ApiError, apiJson } from "@/components/api-client";
+import { Button } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+
+type Erased = { erased: { pieces: number; photos: number; claims: number; messages: number } };
+
+/** Admins: download everything held about the client, or erase them on their request (POST …/erase). */
+export function PersonalDataCard({ clientId, name, erased }: { clientId: string; name: string; erased: boolean }) {
+  const router = useRouter();
+  const [confirm, setConfirm] = useState(false);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  const erase = async () => {
+    setError(null);
+    setBusy(true);
+    try {
+      const { erased: r } = await apiJson<Erased>(`/api/clients/${clientId}/erase`, { method: "POST", body: JSON.stringify({ confirm }) });
+      toast.success(`Erased. ${r.pieces} piece${r.pieces === 1 ? "" : "s"} kept for the warranty record without them; ${r.photos} photo${r.photos === 1 ? "" : "s"} deleted.`);
+      setConfirm(false);
+      router.refresh();
+    } catch (e) {
+      setError((e instanceof ApiError && e.fieldErrors.confirm?.[0]) || (e instanceof Error ? e.message : "Not erased. Try again."));
+    } finally {
+      setBusy(false);
+    }
+  };
+  return (
+    <Card className="space-y-3">
+      <h2 className="font-display text-xl font-semibold">Personal data</h2>
+      <p className="text-sm text-muted">When someone asks what you hold about them, or asks you to forget them.</p>
+      <a href={`/api/clients/${clientId}/personal-data`} className="inline-flex min-h-11 items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
+        <Download aria-hidden className="size-4" /> Download everything we hold (zip)
+      </a>
+      {erased ? (
+        <p className="text-sm">This client has been erased. Their pieces stay on record without them.</p>
+      ) : (
+        <div className="space-y-2 border-t border-line pt-3">
+          <p className="text-sm">
+            Erasing removes {name}&apos;s contact details, notes, consent history, addresses, what they wrote and their photos. Their pieces stay, without them, for your warranty record. It can&apos;t be undone.
+          </p>
+          <label className="flex min-h-11 items-center gap-2 text-sm">
+            <input type="checkbox" checked={confirm} onChange={(e) => setConfirm(e.target.checked)} className="size-5" />
+            They asked to be erased, and I understand this can&apos;t be undone
+          </label>
+          {error ? (
+            <p role="alert" className="text-sm font-medium text-danger">
+              {error}
+            </p>
+          ) : null}
+          <Button variant="danger" onClick={erase} disabled={busy}>
+            <Trash2 aria-hidden className="size-4" /> {busy ? "Erasing…" : "Erase this client"}
+          </Button>
+        </div>
+      )}
+    </Card>
+  );
+}
