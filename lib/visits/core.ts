@@ -8,17 +8,14 @@ import { pieces, repairJobs, studios, visits, type Visit, type VisitRulesRow } f
 import { recordAudit } from "@/lib/audit";
 import { followJob } from "@/lib/claims/service";
 import type { VisitLocation } from "@/lib/care/vocabulary";
-import { AppError, badRequest, conflict, notFound } from "@/lib/errors";
+import { badRequest, conflict, notFound } from "@/lib/errors";
 import { moveJob } from "@/lib/repairs/jobs";
 import { isStudioTechnician, jobDurationMin, technicianSlots, visitRulesFor } from "./availability";
 import { visitUid } from "./ics";
 
-/** 409 for a time that is taken or not offered; the route answers with fresh slots beside it. */
-export class SlotUnavailableError extends AppError {
-  constructor(message: string) {
-    super(409, "slot_unavailable", message);
-  }
-}
+/** The code of a 409 for a time that is taken or not offered; lib/visits/service.ts adds fresh slots to it. */
+export const SLOT_UNAVAILABLE = "slot_unavailable";
+const slotUnavailable = (message: string) => conflict(message, { code: SLOT_UNAVAILABLE });
 
 export type ReserveInput = {
   studioId: string;
@@ -57,7 +54,7 @@ export function reserveVisit(db: Db, input: ReserveInput): Reserved {
         if (previous.state !== "booked") throw conflict(previous.state === "done" ? "This visit is done and can't be moved." : "This visit was cancelled.");
         if (input.visitVersion !== undefined && previous.version !== input.visitVersion) throw conflict("The visit changed while you were working on it. Reload and try again.");
       } else if (job.state === "scheduled") {
-        throw new SlotUnavailableError("This job already has a visit booked. Move that visit instead.");
+        throw slotUnavailable("This job already has a visit booked. Move that visit instead.");
       } else if (job.state !== "paid" && job.state !== "covered") {
         throw conflict(job.state === "done" ? "This job is done." : "A visit can be booked once the job is paid or covered.");
       }
@@ -71,11 +68,11 @@ export function reserveVisit(db: Db, input: ReserveInput): Reserved {
       const rules = visitRulesFor(tx, studio.id);
       const durationMin = jobDurationMin(job, piece);
       const endMs = input.startMs + durationMin * 60_000;
-      if (input.startMs <= input.now) throw new SlotUnavailableError("That time has passed. Pick one of the free slots.");
+      if (input.startMs <= input.now) throw slotUnavailable("That time has passed. Pick one of the free slots.");
       const args = { studio, technicianId: input.technicianId, durationMin, fromMs: input.startMs, toMs: endMs, leadTimeHours: input.leadTimeHours, rules, excludeVisitId: previous?.id, now: input.now };
       const free = technicianSlots(tx, args).some((s) => s.startMs === input.startMs);
       if (!free) {
-        throw new SlotUnavailableError("That time is no longer free. Pick one of the slots below.");
+        throw slotUnavailable("That time is no longer free. Pick one of the slots below.");
       }
 
       let visit: Visit;

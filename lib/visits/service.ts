@@ -33,7 +33,7 @@ import { cureWindow, curingLayers } from "@/lib/care/cure";
 import { productNeeded } from "@/lib/care/quantity";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass } from "@/lib/care/vocabulary";
 import { randomToken, sha256Hex } from "@/lib/crypto";
-import { AppError, badRequest, conflict, forbidden, notFound, unprocessable } from "@/lib/errors";
+import { badRequest, conflict, forbidden, isAppError, notFound, unprocessable } from "@/lib/errors";
 import { cureAdvice } from "@/lib/owner/care-guide";
 import { formatDate } from "@/lib/owner/format";
 import { scheduleFromRows, topShape } from "@/lib/pieces/care-inputs";
@@ -54,7 +54,7 @@ import {
   visitReportSchema,
 } from "@/lib/validation/visits";
 import { isStudioTechnician, jobDurationMin, studioTechnicians, technicianSlots, timeOffRows, visitRulesFor, weeklyHours } from "./availability";
-import { reserveVisit, SlotUnavailableError } from "./core";
+import { reserveVisit, SLOT_UNAVAILABLE } from "./core";
 import { formatVisitWhen } from "./format";
 import { ownerVisitWhere } from "./access";
 import { jobUrl, sendVisitInvite, sendVisitSummary } from "./mail";
@@ -172,13 +172,9 @@ function freshSlots(actor: VisitActor, job: RepairJob, piece: Piece, studio: Stu
   return slotsFor(studio, job, piece, { fromMs, toMs: fromMs + 14 * DAY, leadTimeHours: leadFor(actor, studio.id), excludeVisitId, now }).slice(0, 60);
 }
 
-export class SlotTakenError extends AppError {
-  constructor(
-    message: string,
-    readonly slots: SlotView[],
-  ) {
-    super(409, "slot_unavailable", message);
-  }
+/** A refused time as the 409 the caller sees: the same words, with what is free now beside the error (`slots`). */
+function withFreshSlots(e: unknown, slots: () => SlotView[]): unknown {
+  return isAppError(e) && e.code === SLOT_UNAVAILABLE ? conflict(e.message, { code: SLOT_UNAVAILABLE, extra: { slots: slots() } }) : e;
 }
 
 // ---- public shape of a visit ----
@@ -221,8 +217,7 @@ export async function bookVisit(actor: VisitActor, raw: unknown, now = Date.now(
       now,
     });
   } catch (e) {
-    if (e instanceof SlotUnavailableError) throw new SlotTakenError(e.message, freshSlots(actor, job, piece, studio, Date.parse(input.start), now));
-    throw e;
+    throw withFreshSlots(e, () => freshSlots(actor, job, piece, studio, Date.parse(input.start), now));
   }
   await mailSafely("booked", () => sendVisitInvite(reserved.visit.id, "booked", {}, now));
   return visitJson(reserved.visit);
@@ -264,8 +259,7 @@ export async function moveVisit(actor: VisitActor, visitId: string, raw: unknown
       visitVersion: visit.version,
     });
   } catch (e) {
-    if (e instanceof SlotUnavailableError) throw new SlotTakenError(e.message, freshSlots(actor, job, piece, studio, Date.parse(input.start), now, visit.id));
-    throw e;
+    throw withFreshSlots(e, () => freshSlots(actor, job, piece, studio, Date.parse(input.start), now, visit.id));
   }
   const changed = reserved.visit.startAt.getTime() !== visit.startAt.getTime() || reserved.visit.technicianId !== visit.technicianId || reserved.visit.location !== visit.location;
   if (changed) await mailSafely("moved", () => sendVisitInvite(reserved.visit.id, "moved", { previous: visit }, now));

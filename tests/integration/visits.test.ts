@@ -13,7 +13,7 @@ import { canViewFile } from "@/lib/files/access";
 import { scheduleFromRows } from "@/lib/pieces/care-inputs";
 import { studioProducts } from "@/lib/pieces/registry";
 import { runVisitReminderPass } from "@/lib/visits/reminders";
-import { addVisitPhoto, bookVisit, cancelVisit, getTechnicianHours, listJobSlots, listVisits, moveVisit, putTechnicianHours, SlotTakenError, submitReport, technicianDay } from "@/lib/visits/service";
+import { addVisitPhoto, bookVisit, cancelVisit, getTechnicianHours, listJobSlots, listVisits, moveVisit, putTechnicianHours, submitReport, technicianDay } from "@/lib/visits/service";
 import { createStudio, createUser, memberContext } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
 import { addJob, luciaUser, ownerActor, staffActor, techActor, visitWorld } from "./visits-helpers";
@@ -113,17 +113,18 @@ describe("booking", () => {
     await bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW);
     const other = addJob(w.studio, w.piece.id, w.owner.id, w.product.id, "paid");
     const err = await bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: slot.start }, NOW).catch((e) => e);
-    expect(err).toBeInstanceOf(SlotTakenError);
-    expect(err.status).toBe(409);
-    expect(err.slots.length).toBeGreaterThan(0);
-    expect(err.slots.some((s: { start: string }) => s.start === slot.start)).toBe(false);
-    expect(await statusOf(bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: slot.technicianId, start: err.slots[0].start }, NOW))).toBe(409);
+    expect(err).toBeInstanceOf(AppError);
+    expect([err.status, err.code]).toEqual([409, "slot_unavailable"]);
+    const fresh = err.extra.slots as { start: string }[];
+    expect(fresh.length).toBeGreaterThan(0);
+    expect(fresh.some((s) => s.start === slot.start)).toBe(false);
+    expect(await statusOf(bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: slot.technicianId, start: fresh[0]!.start }, NOW))).toBe(409);
     // Off the grid, outside hours, in the past: all 409, never a 500.
-    const offGrid = new Date(Date.parse(err.slots[0].start) + 7 * 60_000).toISOString();
+    const offGrid = new Date(Date.parse(fresh[0]!.start) + 7 * 60_000).toISOString();
     expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: offGrid }, NOW))).toBe(409);
     expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: "2027-05-10T03:00:00Z" }, NOW))).toBe(409);
     expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: "2027-04-01T14:00:00Z" }, NOW))).toBe(409);
-    expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: w.staff.user.id, start: err.slots[0].start }, NOW))).toBe(400);
+    expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: w.staff.user.id, start: fresh[0]!.start }, NOW))).toBe(400);
     expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: "next tuesday" }, NOW))).toBe(400);
   });
 
