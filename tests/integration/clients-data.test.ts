@@ -30,7 +30,6 @@ import {
   visits,
   warrantyPolicies,
 } from "@/db/schema";
-import type { StudioContext } from "@/lib/auth/guards";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { createClient } from "@/lib/clients/create";
 import { exportClientsCsv, listClients } from "@/lib/clients/list";
