@@ -34,6 +34,7 @@ import { productNeeded } from "@/lib/care/quantity";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass } from "@/lib/care/vocabulary";
 import { randomToken, sha256Hex } from "@/lib/crypto";
 import { badRequest, conflict, forbidden, isAppError, notFound, unprocessable } from "@/lib/errors";
+import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { cureAdvice } from "@/lib/owner/care-guide";
 import { formatDate } from "@/lib/owner/format";
 import { scheduleFromRows, topShape } from "@/lib/pieces/care-inputs";
@@ -70,14 +71,6 @@ function iso(d: Date | number) {
   return new Date(d).toISOString();
 }
 
-/** Mail goes out after the change is committed; a failed send is logged and never undoes the booking. */
-async function mailSafely(what: string, send: () => Promise<unknown>) {
-  try {
-    await send();
-  } catch (e) {
-    console.error(`visit mail (${what}) failed`, e);
-  }
-}
 
 // ---- jobs and visits an actor may see ----
 
@@ -219,7 +212,7 @@ export async function bookVisit(actor: VisitActor, raw: unknown, now = Date.now(
   } catch (e) {
     throw withFreshSlots(e, () => freshSlots(actor, job, piece, studio, Date.parse(input.start), now));
   }
-  await mailSafely("booked", () => sendVisitInvite(reserved.visit.id, "booked", {}, now));
+  await mailAfterCommit("visit booked", () => sendVisitInvite(reserved.visit.id, "booked", {}, now));
   return visitJson(reserved.visit);
 }
 
@@ -262,7 +255,7 @@ export async function moveVisit(actor: VisitActor, visitId: string, raw: unknown
     throw withFreshSlots(e, () => freshSlots(actor, job, piece, studio, Date.parse(input.start), now, visit.id));
   }
   const changed = reserved.visit.startAt.getTime() !== visit.startAt.getTime() || reserved.visit.technicianId !== visit.technicianId || reserved.visit.location !== visit.location;
-  if (changed) await mailSafely("moved", () => sendVisitInvite(reserved.visit.id, "moved", { previous: visit }, now));
+  if (changed) await mailAfterCommit("visit moved", () => sendVisitInvite(reserved.visit.id, "moved", { previous: visit }, now));
   return visitJson(reserved.visit);
 }
 
@@ -288,7 +281,7 @@ export async function cancelVisit(actor: VisitActor, visitId: string, raw: unkno
     },
     { behavior: "immediate" },
   );
-  await mailSafely("cancelled", () => sendVisitInvite(updated.id, "cancelled", { reason }, now));
+  await mailAfterCommit("visit cancelled", () => sendVisitInvite(updated.id, "cancelled", { reason }, now));
   return visitJson(updated);
 }
 
@@ -680,7 +673,7 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
     const hasResin = piece.resinKind !== "none" || layers.some((l) => l.finishClass === "epoxy_surface");
     const products = studioProducts(studio.id);
     const SURFACE_WORDS = { top: "top", base: "base", edges: "edges", whole_piece: "whole piece" } as const;
-    await mailSafely("summary", () =>
+    await mailAfterCommit("visit summary", () =>
       sendVisitSummary(studio.id, owner.email, {
         ownerName: owner.name,
         studioName: studio.name,
