@@ -10,6 +10,7 @@ import { addDays, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { taskDurationMinutes, type QuotedTask } from "@/lib/care/quote";
 import { availableSlots, type BusyInterval, type Slot } from "@/lib/care/slots";
 import { topShape } from "@/lib/pieces/care-inputs";
+import { readLines } from "@/lib/repairs/lines";
 import type { DbOrTx } from "@/lib/pieces/search-index";
 
 export type { Db };
@@ -94,12 +95,16 @@ export function busyIntervals(db: DbOrTx, studio: Pick<Studio, "id" | "timeZone"
   return [...booked, ...off.filter((o) => o.end > fromMs - day && o.start < toMs + day)];
 }
 
-/** Minutes on site for a job: the quote's tasks on the piece's top (lib/care taskDurationMinutes). */
-export function jobDurationMin(job: Pick<RepairJob, "quoteInput">, piece: Piece): number {
+/**
+ * Minutes on site for a job: the quote's hours as sent (edited hours and repair lines included), else
+ * the quote's tasks on the piece's top (lib/care taskDurationMinutes).
+ */
+export function jobDurationMin(job: Pick<RepairJob, "quoteInput" | "lines">, piece: Piece): number {
+  const quotedHours = readLines(job.lines).reduce((h, l) => h + (l.unit === "h" ? l.quantity : 0), 0);
   const tasks = (Array.isArray(job.quoteInput.tasks) ? job.quoteInput.tasks : []) as QuotedTask[];
   const shape = topShape(piece);
   const areaM2 = shape ? topArea(shape).m2 : 0;
-  const minutes = tasks.length ? taskDurationMinutes(tasks, areaM2) : 60;
+  const minutes = quotedHours > 0 ? Math.round(quotedHours * 60) : tasks.length ? taskDurationMinutes(tasks, areaM2) : 60;
   return Math.max(30, minutes);
 }
 

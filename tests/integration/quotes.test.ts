@@ -16,6 +16,7 @@ import { lineAmount, priceLines, roundingStep, type LineDraft, type StudioTax } 
 import { approveJob, sendQuote, syncReturnedCheckout, updateJobQuote } from "@/lib/repairs/payment";
 import { receiptPdf } from "@/lib/repairs/receipt";
 import { updateRepairSettings } from "@/lib/repairs/settings";
+import { jobDurationMin } from "@/lib/visits/availability";
 import { jobQuoteSchema, type QuoteLineInput } from "@/lib/validation/jobs";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
@@ -62,7 +63,7 @@ async function crackJob() {
 
 describe("a crack claim's repair quote, checkout and receipt", () => {
   it("proposes the crack fill, keeps the proposal beside the edited lines, charges the quote's total line by line, and the receipt carries lines and tax", async () => {
-    const { staff, owner, claim, job } = await crackJob();
+    const { staff, owner, claim, job, piece } = await crackJob();
     // The claim's job: a crack fill at the labour rate (1 h proposed) and travel, linked to its claim.
     expect(job.claimId).toBe(claim.id);
     expect(job.lines.map((l) => [l.description, l.quantity, l.unit, l.unitPriceMinor, l.source])).toEqual([
@@ -93,6 +94,8 @@ describe("a crack claim's repair quote, checkout and receipt", () => {
     expect(edited.lines[0]!.proposed).toEqual({ quantity: 1, unitPriceMinor: 8500 });
     expect(edited.lines[2]!.proposed).toBeNull();
     expect(edited.proposedLines.find((l) => l.ref === "list:crack_fill")).toMatchObject({ quantity: 1, amountMinor: 8500 });
+    // The visit is booked for the hours quoted (1.5 h of crack fill = 90 minutes), not a maintenance default.
+    expect(jobDurationMin(edited, piece)).toBe(90);
 
     await sendQuote(staff, job.id);
     const quoteMail = await waitForMail({ to: owner.email, subject: /quote/i });
