@@ -18,17 +18,18 @@ export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "
 export const bin = (n: string) => path.join(root, "node_modules", ".bin", n);
 export const PIECES = Number(process.env.BENCH_PIECES ?? 100_000);
 
-/** Re-runs the calling benchmark file under the shared build lock (once; children inherit it). */
+/** Re-runs the calling benchmark file, with its arguments, under the shared build lock (once; children inherit it). */
 export function holdBuildLock(file: string): void {
   if (process.env.GW_BENCH_LOCKED) return;
-  const r = spawnSync("flock", ["/tmp/gw-e2e.lock", bin("tsx"), file], { cwd: root, stdio: "inherit", env: { ...process.env, GW_BENCH_LOCKED: "1" } });
+  const r = spawnSync("flock", ["/tmp/gw-e2e.lock", bin("tsx"), file, ...process.argv.slice(2)], { cwd: root, stdio: "inherit", env: { ...process.env, GW_BENCH_LOCKED: "1" } });
   process.exit(r.status ?? 1);
 }
 
 export function buildOnce(): void {
   if (process.env.BENCH_SKIP_BUILD) return;
   const t = performance.now();
-  const b = spawnSync(bin("next"), ["build"], { cwd: root, env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", NODE_ENV: "production" }, stdio: ["ignore", "ignore", "inherit"] });
+  // GRAINWARD_BENCH_BUILD adds the bench-only floor route (app/api/bench/same-json/route.bench.ts).
+  const b = spawnSync(bin("next"), ["build"], { cwd: root, env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", NODE_ENV: "production", GRAINWARD_BENCH_BUILD: "1" }, stdio: ["ignore", "ignore", "inherit"] });
   if (b.status !== 0) throw new Error("next build failed");
   console.log(`built in ${((performance.now() - t) / 1000).toFixed(0)} s`);
 }

@@ -1,15 +1,14 @@
 // The production server over 100,000 synthetic pieces (autocannon, 16 concurrent connections):
-//   - registry search: GET /api/pieces?q=<word> p95 < 50 ms (issue 4), beside GET /api/me (session check
-//     only) as the floor;
+//   - registry search: GET /api/pieces?q=<word> p95 < 50 ms, beside GET /api/me (session check only) as
+//     the floor;
 //   - throughput of GET /api/pieces?q=walnut as a ratio to a bare route handler that serializes the same
-//     JSON (app/api/bench/same-json), measured in the same run: at least 0.4 (issue 11);
-//   - the owner's piece page /pieces/[id], server-rendered for a signed-in owner: p95 < 200 ms (no earlier
-//     issue names one; 200 ms is the server response time PageSpeed guidance long asked for — from memory);
+//     JSON (app/api/bench/same-json/route.bench.ts, in bench builds only), measured in the same run: at least 0.4;
+//   - the owner's piece page /pieces/[id], server-rendered for a signed-in owner: p95 < 200 ms (200 ms is
+//     the server response time PageSpeed guidance long asked for — from memory);
 //   - first-load JavaScript of the owner pages: the scripts each page's HTML loads, gzip-compressed, at most
 //     170 kB (a common performance budget for a phone on a slow network, Alex Russell, "Can You Afford It?",
 //     2017 — from memory), with /sign-in's scripts as the floor (the framework and shared layout);
-//   - the app's peak resident memory through all of the above: under 512 MB (our choice; no earlier issue
-//     names one).
+//   - the app's peak resident memory through all of the above: under 512 MB (our choice).
 // Prints one RESULT line per figure for tests/bench/run.ts's report.
 // Standalone: npx tsx tests/bench/server.bench.ts   (BENCH_SKIP_BUILD=1 reuses .next)
 import fs from "node:fs";
@@ -89,6 +88,8 @@ async function main() {
     if (!probe.ok) throw new Error(`GET /api/pieces answered ${probe.status}: ${await probe.text()}`);
     const body = await probe.text();
     fs.writeFileSync(bareJson, body);
+    const floorProbe = await fetch(`${server.base}/api/bench/same-json`);
+    if (!floorProbe.ok) throw new Error(`the bare-route floor answered ${floorProbe.status}: this build has no bench route; build with GRAINWARD_BENCH_BUILD=1 (npm run bench does)`);
     console.log(`GET /api/pieces?q=walnut → ${(JSON.parse(body) as { rows: unknown[] }).rows.length} rows of ${PIECES.toLocaleString("en")} pieces, ${body.length.toLocaleString("en")} bytes`);
 
     // Warm the whole server first: the JIT needs several seconds of every path before figures settle.
