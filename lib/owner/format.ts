@@ -122,6 +122,18 @@ export function formatVolume(exactMl: number, units: UnitSystem): string {
   return `${displayFlOz(exactMl)} US fl oz (${ml} mL)`;
 }
 
+const oneDecimal = (n: number) => Number(n.toFixed(1)).toLocaleString("en-US");
+
+/** A temperature reading stored in °C, in the reader's units to 0.1: "21.1 °C" or "70 °F" ((°C × 9/5) + 32). */
+export function formatTemperature(c: number, units: UnitSystem): string {
+  return units === "metric" ? `${oneDecimal(c)} °C` : `${oneDecimal((c * 9) / 5 + 32)} °F`;
+}
+
+/** A temperature change (a difference, no offset) stored in °C: "5 °C" or "9 °F" (°C × 9/5). */
+export function formatTemperatureChange(c: number, units: UnitSystem): string {
+  return units === "metric" ? `${oneDecimal(c)} °C` : `${oneDecimal((c * 9) / 5)} °F`;
+}
+
 /** A road distance (travel on a quote): "12 km", or miles to 0.1 ("7.5 mi"). */
 export function formatDistance(km: number, units: UnitSystem): string {
   if (units === "metric") return `${Number(km.toFixed(1)).toLocaleString("en-US")} km`;

@@ -1,7 +1,7 @@
 // The one formatter's imperial lengths read like a woodworker's tape.
 // 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C); each expected value is worked by hand.
 import { describe, expect, it } from "vitest";
-import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness, formatVolume, formatDistance } from "@/lib/owner/format";
+import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness, formatVolume, formatDistance, formatTemperature, formatTemperatureChange } from "@/lib/owner/format";
 
 describe("imperial lengths", () => {
   it("round to the nearest 1/16 in and reduce the fraction", () => {
@@ -59,5 +59,17 @@ describe("distances", () => {
     expect(formatDistance(12, "imperial")).toBe("7.5 mi"); // 12 / 1.609344 = 7.4565
     expect(formatDistance(1.609344, "imperial")).toBe("1 mi");
     expect(formatDistance(2500, "metric")).toBe("2,500 km");
+  });
+});
+
+// Temperatures stored in °C: a reading converts as °C × 9/5 + 32, a change as °C × 9/5 (no offset).
+describe("temperatures", () => {
+  it("readings and changes in the reader's units, to 0.1", () => {
+    expect(formatTemperature(20, "imperial")).toBe("68 °F"); // 20 × 1.8 + 32
+    expect(formatTemperature(22.2, "imperial")).toBe("72 °F"); // 71.96
+    expect(formatTemperature(-5, "imperial")).toBe("23 °F");
+    expect(formatTemperature(21.1, "metric")).toBe("21.1 °C");
+    expect(formatTemperatureChange(5, "imperial")).toBe("9 °F"); // a difference: 5 × 1.8
+    expect(formatTemperatureChange(3.9, "metric")).toBe("3.9 °C");
   });
 });

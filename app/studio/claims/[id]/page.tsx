@@ -119,31 +119,33 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
             ) : null}
           </Card>
           {claim.state !== "declined" && (claim.decision || v.repair) ? (
-            <Card className="space-y-2" aria-labelledby="repair-heading">
-              <h2 id="repair-heading" className="font-display text-xl font-semibold">
-                Repair
-              </h2>
-              {v.repair ? (
-                <>
-                  <p>
-                    <Link href={`/studio/jobs/${v.repair.jobId}`} className="font-medium text-resin underline">
-                      {v.repair.title}
-                    </Link>{" "}
-                    · {v.repair.stateLabel}
-                  </p>
-                  {v.repair.visit ? (
-                    <p className="text-sm text-muted">
-                      {v.repair.visit.state === "done" ? "Visit done" : "Visit booked"}: {v.repair.visit.when} ({v.studio.timeZone})
+            <section aria-labelledby="repair-heading">
+            <Card className="space-y-2">
+                <h2 id="repair-heading" className="font-display text-xl font-semibold">
+                  Repair
+                </h2>
+                {v.repair ? (
+                  <>
+                    <p>
+                      <Link href={`/studio/jobs/${v.repair.jobId}`} className="font-medium text-resin underline">
+                        {v.repair.title}
+                      </Link>{" "}
+                      · {v.repair.stateLabel}
                     </p>
-                  ) : null}
-                </>
-              ) : claim.state === "accepted" ? (
-                <>
-                  <p className="text-sm text-muted">Open the repair job to price the work and send the owner a quote.</p>
-                  <CreateRepairJobButton claimId={claim.id} />
-                </>
-              ) : null}
-            </Card>
+                    {v.repair.visit ? (
+                      <p className="text-sm text-muted">
+                        {v.repair.visit.state === "done" ? "Visit done" : "Visit booked"}: {v.repair.visit.when} ({v.studio.timeZone})
+                      </p>
+                    ) : null}
+                  </>
+                ) : claim.state === "accepted" ? (
+                  <>
+                    <p className="text-sm text-muted">Open the repair job to price the work and send the owner a quote.</p>
+                    <CreateRepairJobButton claimId={claim.id} />
+                  </>
+                ) : null}
+              </Card>
+          </section>
           ) : null}
           <CoveragePanel coverage={coverage} />
           <Card className="space-y-2">
