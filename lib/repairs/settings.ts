@@ -7,14 +7,10 @@ import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { formatMinorUnits } from "@/lib/care/quote";
 import { AppError, badRequest } from "@/lib/errors";
-import { assertAdmin, formatBasisPoints, toBasisPoints, toMinorUnits } from "@/lib/settings";
+import { assertAdmin, formatBasisPoints, freshStudio, toBasisPoints, toMinorUnits } from "@/lib/settings";
 import { repairSettingsSchema, type RepairSettingsInput } from "@/lib/validation/repair-settings";
 import { LINE_KINDS, type PriceListEntry } from "./lines";
 import { priceListOf } from "./price-list";
-
-function freshStudio(ctx: StudioContext): Studio {
-  return getDb().select().from(studios).where(eq(studios.id, ctx.studio.id)).get() ?? ctx.studio;
-}
 
 /** The form's values from what the studio has saved. */
 export function repairSettingsValues(ctx: StudioContext): RepairSettingsInput & { singleRatePct: string; currency: string } {

@@ -49,7 +49,7 @@ export function formatBasisPoints(bp: number): string {
   return s.replace(/\.?0+$/, "") || "0";
 }
 
-function freshStudio(ctx: StudioContext): Studio {
+export function freshStudio(ctx: StudioContext): Studio {
   return getDb().select().from(studios).where(eq(studios.id, ctx.studio.id)).get() ?? ctx.studio;
 }
 
