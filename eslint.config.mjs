@@ -36,6 +36,30 @@ const config = [
     files: ["lib/care/**"],
     rules: restrict({ regex: "^(?!\\./)", message: "lib/care is pure: it imports nothing but its own files (./x)." }),
   },
+  // One way for each chore (DEVELOPERS.md, "Rules of the house"): errors are made with the constructors
+  // in lib/errors.ts, and the browser calls our routes through components/api-client.ts only.
+  {
+    files: ["app/**", "components/**", "lib/**", "db/**", "jobs/**", "emails/**"],
+    ignores: ["lib/errors.ts"],
+    rules: {
+      "no-restricted-syntax": [
+        "error",
+        { selector: "NewExpression[callee.name='AppError']", message: "Use a constructor from lib/errors.ts (add one there if none fits)." },
+        { selector: "ClassDeclaration[superClass.name='AppError']", message: "Use a constructor from lib/errors.ts; fields beside the error go in its `extra`." },
+      ],
+    },
+  },
+  {
+    files: ["components/**", "app/**/*.tsx"],
+    ignores: ["components/api-client.ts"],
+    rules: {
+      "no-restricted-globals": [
+        "error",
+        { name: "fetch", message: "Call routes through components/api-client.ts (apiJson, callApi)." },
+        { name: "XMLHttpRequest", message: "Upload through components/api-client.ts (uploadForm)." },
+      ],
+    },
+  },
 ];
 
 export default config;

@@ -40,3 +40,28 @@ describe("import directions", () => {
     expect(await restricted(filePath, code)).toBe(false);
   });
 });
+
+// The same configuration checks two chores that have one way each (DEVELOPERS.md).
+async function ruleHits(filePath: string, code: string, rule: string): Promise<boolean> {
+  const [result] = await eslint.lintText(code, { filePath });
+  return result!.messages.some((m) => m.ruleId === rule);
+}
+
+describe("one way for each chore", () => {
+  it.each([
+    ["an AppError made outside lib/errors.ts", "lib/x/y.ts", 'import { AppError } from "@/lib/errors";\nexport const e = new AppError(409, "conflict", "Taken.");\n', "no-restricted-syntax"],
+    ["a subclass of AppError", "lib/x/y.ts", 'import { AppError } from "@/lib/errors";\nexport class TakenError extends AppError {}\n', "no-restricted-syntax"],
+    ["fetch in a component", "components/x/y.tsx", 'export const load = () => fetch("/api/pieces");\n', "no-restricted-globals"],
+    ["XMLHttpRequest in a component", "components/x/y.tsx", "export const xhr = () => new XMLHttpRequest();\n", "no-restricted-globals"],
+  ])("refused: %s", async (_what, filePath, code, rule) => {
+    expect(await ruleHits(filePath, code, rule)).toBe(true);
+  });
+
+  it.each([
+    ["lib/errors.ts makes AppErrors", "lib/errors.ts", 'export class AppError extends Error {}\nexport const e = new AppError();\n', "no-restricted-syntax"],
+    ["the client API module calls fetch", "components/api-client.ts", 'export const load = () => fetch("/api/pieces");\n', "no-restricted-globals"],
+    ["tests make AppErrors", "tests/unit/x.test.ts", 'import { AppError } from "@/lib/errors";\nexport const e = new AppError(409, "conflict", "Taken.");\n', "no-restricted-syntax"],
+  ])("allowed: %s", async (_what, filePath, code, rule) => {
+    expect(await ruleHits(filePath, code, rule)).toBe(false);
+  });
+});
