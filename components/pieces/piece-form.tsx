@@ -5,6 +5,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Controller, useFieldArray, type FieldValues, type UseFormRegister, type UseFormSetValue } from "react-hook-form";
 import { toast } from "sonner";
+import { BuyerFields } from "@/components/clients/buyer-fields";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -19,7 +20,7 @@ import { UnitNumberField, UnitToggle, type UnitSystem } from "./unit-fields";
 
 const SHAPE_LABELS = { rectangle: "Rectangle", round: "Round", oval: "Oval", measured: "Irregular (measured area)" } as const;
 
-type Created = { piece: { id: string; title: string }; registrationCode: string };
+type Created = { piece: { id: string; title: string }; registrationCode: string; handover?: { sent: boolean; reason: string | null } };
 
 function Section({ title, children, aside }: { title: string; children: React.ReactNode; aside?: React.ReactNode }) {
   return (
@@ -54,7 +55,8 @@ export function PieceForm({
   const router = useRouter();
   const [system, setSystem] = useState<UnitSystem>(unitSystem);
   const { form, onSubmit, formError } = useActionForm({
-    schema: () => import("@/lib/validation/pieces").then((m) => (mode === "create" ? m.createPieceSchema : m.pieceSchema)),
+    // lib/validation/clients imports lib/validation/pieces: one chunk either way.
+    schema: () => import("@/lib/validation/clients").then((m) => (mode === "create" ? m.deliverPieceSchema : m.pieceEditSchema)),
     action: (values) => (mode === "create" ? callApi<Created>("/api/pieces", { method: "POST", json: values }) : callApi<Created>(`/api/pieces/${pieceId}`, { method: "PATCH", json: values })),
     defaultValues: {
       kind: "dining_table",
@@ -68,12 +70,13 @@ export function PieceForm({
       baseFinish: "",
       deliveryAddress: "",
       internalNotes: "",
-      ...(mode === "create" ? { layers: [] } : {}),
+      ...(mode === "create" ? { layers: [], buyer: "none", buyerClientId: "", buyerName: "", buyerEmail: "", buyerPhone: "", buyerServiceMail: false, sendHandover: true } : {}),
       ...initial,
     } as never,
     onSuccess: (data) => {
       if (mode === "create") {
-        toast.success(`Piece recorded. Registration code ${data.registrationCode} — print its drawer card.`);
+        toast.success(`Piece recorded. Registration code ${data.registrationCode} — print its drawer card.${data.handover?.sent ? " The hand-over mail is on its way to the buyer." : ""}`);
+        if (data.handover?.reason) toast.info(`No hand-over mail: ${data.handover.reason}`);
         router.push(`/studio/pieces/${data.piece.id}`);
       } else {
         toast.success("Piece record saved.");
@@ -213,6 +216,12 @@ export function PieceForm({
               </li>
             ))}
           </ol>
+        </Section>
+      ) : null}
+
+      {mode === "create" ? (
+        <Section title="Buyer">
+          <BuyerFields register={reg} setValue={setValue as unknown as UseFormSetValue<FieldValues>} watch={(name) => watch(name as never)} errors={errors} />
         </Section>
       ) : null}
 

@@ -527,6 +527,8 @@ const AUDIT_TEXT: Record<string, string> = {
   "layer.moved": "Finish layer moved",
   "layer.removed": "Finish layer removed",
   "photo.added": "Photo added",
+  "piece.handover_sent": "Hand-over mail sent to the buyer",
+  "piece.handover_resent": "Hand-over mail sent again, with a fresh link",
 };
 
 export function getPieceDetail(ctx: StudioContext, pieceId: string, now = new Date()) {

@@ -131,3 +131,6 @@ export const handoverTokenSchema = z.object({ token: z.string().trim().min(20, "
 export const eraseClientSchema = z.object({
   confirm: z.literal(true, { message: "Tick the box to confirm: erasing can't be undone." }),
 });
+
+/** The piece form's schema when editing (no buyer fields), re-exported so the form loads one module. */
+export { pieceSchema as pieceEditSchema } from "./pieces";

@@ -7,14 +7,16 @@ import { whyNow } from "@/lib/reminders/content";
 import { PhotoUploader, PieceActions } from "@/components/pieces/piece-actions";
 import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pieces/status";
 import { ButtonLink } from "@/components/ui/button";
+import { HandoverCard } from "@/components/clients/handover-card";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
-import { requireStudioMember } from "@/lib/auth/guards";
+import { requireStaff, requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getSpecies } from "@/lib/care/species";
 import { PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { careBasics } from "@/lib/pieces/care-basics";
+import { handoverStatus } from "@/lib/pieces/handover";
 import { piecePage } from "@/lib/pieces/registry";
 import { visitPhotosOf } from "@/lib/visits/service";
 
@@ -35,6 +37,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
   const { id } = await params;
   const d = await forPage(() => piecePage(id));
   const visitPhotos = await forPage(async () => visitPhotosOf({ kind: "staff", ctx: await requireStudioMember() }, { pieceId: id }));
+  const handover = await forPage(async () => handoverStatus(await requireStaff(), id));
   const p = d.piece;
   const u = d.unitSystem;
   const species = [p.primarySpeciesId, p.secondarySpeciesId].filter(Boolean).map((s) => getSpecies(s!)?.commonName ?? s);
@@ -176,6 +179,8 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
             <WarrantyStatus active={d.underWarranty} endsOn={d.warrantyEndsOn} />
             <PieceActions pieceId={p.id} registered={!!d.owner || !!p.registeredAt} archived={!!p.archivedAt} />
           </Card>
+
+          <HandoverCard pieceId={p.id} status={handover} />
 
           <Card className="space-y-3">
             <h2 className="font-display text-xl font-semibold">Photos</h2>

@@ -1,0 +1,81 @@
+"use client";
+
+import { Mail } from "lucide-react";
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { toast } from "sonner";
+import { apiJson } from "@/components/api-client";
+import { Button } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+import type { HandoverStatus } from "@/lib/pieces/handover";
+import { formatAt } from "./format";
+
+/** The piece page's hand-over mail: to whom, sent when (and how often), link opened, registered; send or resend. */
+export function HandoverCard({ pieceId, status }: { pieceId: string; status: HandoverStatus }) {
+  const router = useRouter();
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  // Always with the zone's name: staff may read this from anywhere.
+  const at = (iso: string) => formatAt(iso, status.timeZone, "");
+  const send = async () => {
+    setBusy(true);
+    setError(null);
+    try {
+      await apiJson(`/api/pieces/${pieceId}/handover`, { method: "POST" });
+      toast.success(status.sendCount ? "Sent again, with a fresh link. The earlier link no longer works." : "Hand-over mail sent.");
+      router.refresh();
+    } catch (e) {
+      setError(e instanceof Error ? e.message : "Not sent. Try again.");
+    } finally {
+      setBusy(false);
+    }
+  };
+  const steps: [string, string | null][] = [
+    ["Sent", status.lastSentAt ? `${at(status.lastSentAt)}${status.sendCount > 1 ? ` (sent ${status.sendCount} times, first ${at(status.firstSentAt!)})` : ""}` : null],
+    ["Link opened", status.openedAt ? at(status.openedAt) : null],
+    ["Registered through the link", status.registeredAt ? at(status.registeredAt) : null],
+  ];
+  return (
+    <Card className="space-y-3">
+      <h2 className="font-display text-xl font-semibold">Hand-over mail</h2>
+      <p className="text-sm">
+        {status.client ? (
+          <>
+            Buyer:{" "}
+            <Link href={`/studio/clients/${status.client.id}`} className="text-resin underline">
+              {status.client.name}
+            </Link>
+            {status.client.email ? <span className="break-all"> · {status.client.email}</span> : null}
+          </>
+        ) : (
+          "No buyer recorded."
+        )}
+      </p>
+      {status.sendCount ? (
+        <dl className="space-y-1 text-sm" aria-label="Hand-over mail">
+          {steps.map(([label, value]) => (
+            <div key={label} className="flex justify-between gap-3">
+              <dt className="text-muted">{label}</dt>
+              <dd className="text-right font-medium">{value ?? "Not yet"}</dd>
+            </div>
+          ))}
+        </dl>
+      ) : (
+        <p className="text-sm text-muted">Not sent.</p>
+      )}
+      {status.blockMessage ? <p className="text-sm text-muted">{status.blockMessage}</p> : null}
+      {error ? (
+        <p role="alert" className="text-sm font-medium text-danger">
+          {error}
+        </p>
+      ) : null}
+      {!status.block ? (
+        <Button variant="secondary" onClick={send} disabled={busy}>
+          <Mail aria-hidden className="size-4" /> {busy ? "Sending…" : status.sendCount ? "Send it again" : "Send the hand-over mail"}
+        </Button>
+      ) : null}
+      <p className="text-xs text-muted">The drawer card keeps its code for whoever owns the piece later.</p>
+    </Card>
+  );
+}
