@@ -24,6 +24,7 @@ export const TIMELINE_KINDS = [
   "visit_reminder",
   "claim_filed",
   "claim_decided",
+  "message",
   "job_quoted",
   "job_paid",
   "job_done",
@@ -84,6 +85,9 @@ SELECT * FROM (
   UNION ALL
   SELECT 'claim_decided', k.decided_at, k.id, p.title, k.decision, NULL, k.covered_pct, NULL
     FROM claims k JOIN pieces p ON p.id = k.piece_id WHERE k.owner_id = :user AND k.studio_id = :studio AND k.decided_at IS NOT NULL AND k.decision IS NOT NULL
+  UNION ALL
+  SELECT 'message', m.created_at, t.id, p.title, m.author, m.source, NULL, t.subject
+    FROM threads t JOIN thread_messages m ON m.thread_id = t.id JOIN pieces p ON p.id = t.piece_id WHERE t.owner_id = :user AND t.studio_id = :studio
   UNION ALL
   SELECT 'job_quoted', j.quoted_at, j.id, j.title, NULL, NULL, j.total_minor, j.currency FROM repair_jobs j WHERE j.owner_id = :user AND j.studio_id = :studio AND j.quoted_at IS NOT NULL
   UNION ALL
@@ -196,6 +200,8 @@ function titleOf(r: Row, tz: string): string {
       return `Claim filed: ${(CLAIM_CATEGORY_LABELS[r.a as ClaimCategory] ?? "damage").toLowerCase()} on ${q(r.title)}`;
     case "claim_decided":
       return `Claim on ${q(r.title)} decided: ${decisionText(r.a as ClaimDecision, r.n).toLowerCase()}`;
+    case "message":
+      return `${r.a === "staff" ? "The studio wrote to them" : "They wrote to the studio"}${r.b === "email" ? " by e-mail" : ""} about ${r.cur === "claim" ? "the claim on" : r.cur === "visit" ? "a visit for" : "a repair job on"} ${q(r.title)}`;
     case "job_quoted":
       return `Quote sent for “${r.title}”: ${money(r.n, r.cur)}`;
     case "job_paid":
@@ -231,6 +237,8 @@ function hrefOf(r: Row): string | null {
       return `/studio/claims/${r.ref}`;
     case "note":
       return null;
+    case "message":
+      return `/studio/inbox/${r.ref}`;
     default:
       return `/studio/jobs/${r.ref}`;
   }

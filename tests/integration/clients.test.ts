@@ -20,6 +20,8 @@ import {
   pieces,
   reminderSends,
   repairJobs,
+  threadMessages,
+  threads,
   users,
   visitMailSends,
   visits,
@@ -233,6 +235,8 @@ describe("the timeline", () => {
     db.insert(careLogEntries).values({ studioId: studio.id, pieceId: piece.id, userId: owner.id, source: "owner", taskKind: "reoil", doneOn: "2026-01-03", createdAt: t(4) }).run();
     db.insert(reminderSends).values({ studioId: studio.id, pieceId: piece.id, userId: owner.id, reminderKey: unique("rk"), taskKey: "k", taskKind: "reoil", step: "due_day", dueOn: "2026-01-05", status: "sent", sentAt: t(5) }).run();
     const claim = db.insert(claims).values({ studioId: studio.id, pieceId: piece.id, ownerId: owner.id, category: "finish_wear", noticedOn: "2026-01-05", description: "Invented.", answers: {}, state: "accepted", decision: "partly_covered", coveredPct: 50, createdAt: t(6), decidedAt: t(7) }).returning().get();
+    const thread = db.insert(threads).values({ studioId: studio.id, subject: "claim", claimId: claim.id, pieceId: piece.id, ownerId: owner.id, lastMessageAt: t(7, 15) }).returning().get();
+    db.insert(threadMessages).values({ studioId: studio.id, threadId: thread.id, author: "owner", authorId: owner.id, body: "Invented.", createdAt: t(7, 15) }).run();
     const job = db
       .insert(repairJobs)
       .values({ studioId: studio.id, pieceId: piece.id, ownerId: owner.id, origin: "claim", claimId: claim.id, state: "done", title: "Re-oil the top (invented)", quoteInput: {}, lines: [], currency: "USD", totalMinor: 12_500, quotedAt: t(8), paidAt: t(9), doneAt: t(13) })
@@ -279,6 +283,7 @@ describe("the timeline", () => {
       "visit_booked",
       "job_paid",
       "job_quoted",
+      "message",
       "claim_decided",
       "claim_filed",
       "reminder",

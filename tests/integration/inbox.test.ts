@@ -8,7 +8,8 @@ import nodemailer from "nodemailer";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { ZodError } from "zod";
 import { getDb } from "@/db/client";
-import { pieces, repairJobs, threadMessages, threads, unmatchedMail } from "@/db/schema";
+import { clients, pieces, repairJobs, threadMessages, threads, unmatchedMail } from "@/db/schema";
+import { clientTimeline } from "@/lib/clients/timeline";
 import { decideClaim, getOwnerClaim, transitionClaim } from "@/lib/claims/service";
 import { AppError } from "@/lib/errors";
 import { startInboundListener, replyText, type InboundListener } from "@/lib/mail/inbound";
@@ -140,6 +141,18 @@ describe("owner messages and the inbox", () => {
     expect(listInbox(w.staffCtx, { view: "done" }).threads.map((t) => t.id)).toEqual([threadId]);
     await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "One more thing (invented)." });
     expect(getThread(w.staffCtx, threadId).thread.state).toBe("unread");
+  });
+
+  it("the client's timeline shows the messages, linking to the conversation", async () => {
+    const w = await jobWorld();
+    const client = getDb().insert(clients).values({ studioId: w.studio.id, name: w.owner.name, email: w.owner.email, userId: w.owner.id }).returning().get();
+    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });
+    await replyToThread(w.staffCtx, threadId, { body: "Hello back (invented)." });
+    const entries = clientTimeline(w.staffCtx, client.id, 20).entries.filter((e) => e.kind === "message");
+    expect(entries.map((e) => [e.title, e.href])).toEqual([
+      [`The studio wrote to them about a repair job on “${w.piece.title}”`, `/studio/inbox/${threadId}`],
+      [`They wrote to the studio about a repair job on “${w.piece.title}”`, `/studio/inbox/${threadId}`],
+    ]);
   });
 
   it("another studio's staff get 404s; a stranger or a former owner cannot post", async () => {
