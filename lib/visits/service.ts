@@ -36,7 +36,7 @@ import { randomToken, sha256Hex } from "@/lib/crypto";
 import { badRequest, conflict, forbidden, isAppError, notFound, unprocessable } from "@/lib/errors";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { cureAdvice } from "@/lib/owner/care-guide";
-import { formatDate } from "@/lib/owner/format";
+import { formatDate, formatVolume, type UnitSystem } from "@/lib/owner/format";
 import { scheduleFromRows, topShape } from "@/lib/pieces/care-inputs";
 import { insertLayers } from "@/lib/pieces/layers";
 import { checkLayerRefs, studioProducts } from "@/lib/pieces/registry";
@@ -418,14 +418,16 @@ export type BringItem = {
   finishClass: FinishClass;
   classLabel: string;
   coats: number;
+  /** The engine's exact amount (formatVolume rounds it once, for display); `ml` is that rounding in mL. */
+  exactMl: number;
   ml: number;
-  flOz: number;
+  /** Containers to open, their sizes in the studio's units ("2 × 3.4 US fl oz (100 mL)"). */
   containers: string;
   /** How long what she applies keeps water and objects off, and until full use (lib/care/cure). */
   cure: { lightUseHours: number; fullCureDays: number };
 };
 
-function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], appliedOn: string): BringItem[] {
+function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], appliedOn: string, units: UnitSystem): BringItem[] {
   const shape = topShape(piece);
   const areaM2 = shape ? topArea(shape).m2 : 0;
   if (!areaM2) return [];
@@ -443,9 +445,9 @@ function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], ap
       finishClass: p.finishClass,
       classLabel: FINISH_CLASS_LABELS[p.finishClass],
       coats,
+      exactMl: need.exactMl,
       ml: need.ml,
-      flOz: need.flOz,
-      containers: need.containers.map((c) => `${c.count} × ${c.sizeMl} mL`).join(" + "),
+      containers: need.containers.map((c) => `${c.count} × ${formatVolume(c.sizeMl, units)}`).join(" + "),
       cure: { lightUseHours: cure.lightUseHours, fullCureDays: cure.fullCureDays },
     };
   });
@@ -504,7 +506,7 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
   );
   const items = rows.map(({ visit, job, piece, ownerName, ownerPhone, claim }) => {
     const layers = layersByPiece.get(piece.id) ?? [];
-    const bring = whatToBring(job, piece, products, localDate(visit.startAt.getTime(), tz));
+    const bring = whatToBring(job, piece, products, localDate(visit.startAt.getTime(), tz), ctx.studio.unitSystem);
     const jobTasks = (job.quoteInput as { tasks?: CareTaskKind[] }).tasks ?? [];
     // The cautions for this visit's tasks and the products brought, once each (lib/care/cautions).
     const cautions = cautionsFor({

@@ -140,7 +140,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                       <ul className="space-y-1 text-sm">
                         {item.bring.map((b) => (
                           <li key={b.product} className="rounded-lg bg-paper px-3 py-2">
-                            <span className="font-semibold">{b.product}</span> ({b.classLabel}) — {formatVolume(b.ml, ctx.studio.unitSystem)} for {b.coats} coat{b.coats === 1 ? "" : "s"} on this top
+                            <span className="font-semibold">{b.product}</span> ({b.classLabel}) — {formatVolume(b.exactMl, ctx.studio.unitSystem)} for {b.coats} coat{b.coats === 1 ? "" : "s"} on this top
                             {b.containers ? <span className="block text-muted">Open: {b.containers}</span> : null}
                             <span className="block text-muted">
                               Cure: light use after {b.cure.lightUseHours} h, full use after {b.cure.fullCureDays} days. Tell the owner.
