@@ -9,6 +9,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { env } from "@/lib/env";
 import { AppError, badRequest, conflict, notFound, rephrased } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
+import { replyToFor } from "@/lib/messages/store";
 import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
@@ -65,6 +66,8 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
   await sendMail({
     studioId: view.studio.id,
     to: view.owner.email,
+    // An answer by e-mail lands in the job's conversation (lib/messages).
+    replyTo: replyToFor(getDb(), { kind: "job", id: job.id }),
     subject: fullyCovered ? `Your repair is covered — ${view.piece.title}` : `Your repair quote from ${view.studio.name}`,
     email: JobQuoteEmail({
       ownerName: view.owner.name,

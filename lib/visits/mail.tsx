@@ -10,6 +10,7 @@ import { VisitSummaryEmail, type VisitSummaryEmailProps } from "@/emails/visit-s
 import { localDate } from "@/lib/care/dates";
 import { env } from "@/lib/env";
 import { sendMail, sendMailNow } from "@/lib/mail";
+import { replyToFor } from "@/lib/messages/store";
 import { ownerActsOnJob } from "@/lib/repairs/owner-reach";
 import { buildInvite, inviteAttachment } from "./ics";
 import { formatVisitWhen, visitDayWord } from "./format";
@@ -79,6 +80,8 @@ export async function sendVisitInvite(
   await sendMail({
     studioId: v.studio.id,
     to: v.owner.email,
+    // An answer by e-mail lands in the visit's conversation (lib/messages).
+    replyTo: replyToFor(getDb(), { kind: "visit", id: v.visit.id }),
     subject,
     email: VisitInviteEmail({
       kind,

@@ -14,10 +14,13 @@ import { decideClaim, getOwnerClaim, transitionClaim } from "@/lib/claims/servic
 import { AppError } from "@/lib/errors";
 import { startInboundListener, replyText, type InboundListener } from "@/lib/mail/inbound";
 import { checkReplyAddress, replyAddress } from "@/lib/messages/reply-address";
+import { findThread } from "@/lib/messages/store";
 import { getThread, listInbox, ownerConversations, postOwnerMessage, replyToThread, unreadCount, updateThread } from "@/lib/messages/service";
 import { createUser } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
+import { bookVisit, listJobSlots } from "@/lib/visits/service";
 import { claimWorld, fileClaim, otherStudioStaff } from "./claims-helpers";
+import { ownerActor, visitWorld } from "./visits-helpers";
 
 let listener: InboundListener;
 beforeAll(async () => {
@@ -178,6 +181,19 @@ describe("owner messages and the inbox", () => {
 });
 
 describe("replies by e-mail through the inbound listener", () => {
+  it("the visit invite carries the visit thread's Reply-To, and the answer lands there", async () => {
+    const NOW = Date.parse("2027-05-03T12:00:00Z"); // a Monday, as in visits.test.ts
+    const w = await visitWorld();
+    const slot = listJobSlots(ownerActor(w.owner), w.job.id, { from: "2027-05-05T00:00:00Z", to: "2027-05-08T00:00:00Z" }, NOW).slots[0]!;
+    const since = new Date();
+    const visit = await bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW);
+    const invite = await waitForMail({ to: w.owner.email, since, subject: /^Visit booked/ });
+    const threadId = findThread(getDb(), { kind: "visit", id: visit.id })!.id;
+    expect(invite.headers["reply-to"]).toContain(replyAddress(threadId));
+    await sendToListener({ from: w.owner.email, to: replyAddress(threadId), text: "The side gate will be open. (invented)" });
+    expect(messagesIn(threadId).map((m) => [m.author, m.source, m.body])).toEqual([["owner", "email", "The side gate will be open. (invented)"]]);
+  });
+
   it("lands in the thread and the inbox exactly once, quotes stripped (sent twice: once)", async () => {
     const w = await jobWorld();
     const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "When can you come?" });

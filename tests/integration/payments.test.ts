@@ -17,6 +17,8 @@ import { getStripe } from "@/lib/payments/stripe";
 import { formatMoney } from "@/lib/owner/format";
 import { currencyExponent, quote } from "@/lib/care/quote";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { replyAddress } from "@/lib/messages/reply-address";
+import { findThread } from "@/lib/messages/store";
 import { listMail, waitForMail } from "../support/mail";
 
 let fake: StripeFake;
@@ -98,6 +100,8 @@ describe("repair job payment through the Stripe fake", () => {
     const { owner, job, staff } = await quotedJob();
     const quoteMail = await waitForMail({ to: owner.email, subject: /quote/i });
     expect(quoteMail.text).toContain("To pay:");
+    // Answering the quote mail reaches the job's conversation (lib/messages).
+    expect(quoteMail.headers["reply-to"]).toContain(replyAddress(findThread(getDb(), { kind: "job", id: job.id })!.id));
 
     const { checkoutUrl } = await approveJob(owner, job.id);
     expect(checkoutUrl).toMatch(new RegExp(`^${fake.url}/pay/cs_test_`));
