@@ -13,6 +13,7 @@ import { simpleParser, type AddressObject, type ParsedMail } from "mailparser";
 import { SMTPServer } from "smtp-server";
 import { getDb, type Db } from "@/db/client";
 import { studios, threads, unmatchedMail, users, type UNMATCHED_REASONS } from "@/db/schema";
+import { env } from "@/lib/env";
 import { checkReplyAddress } from "@/lib/messages/reply-address";
 import { appendMessage, ownerMayWrite, subjectOf } from "@/lib/messages/store";
 import { MAX_MESSAGE_CHARS } from "@/lib/validation/messages";
@@ -94,6 +95,12 @@ function studioByAddress(db: Db, recipients: string[]): string | null {
   return null;
 }
 
+/** Whether the listener takes mail for this address: any at the reply domain, or a studio's own address. */
+export function acceptsRecipient(db: Db, address: string): boolean {
+  const domain = address.slice(address.lastIndexOf("@") + 1);
+  return lower(domain) === lower(env.INBOUND_MAIL_DOMAIN) || studioByAddress(db, [address]) !== null;
+}
+
 function addresses(field: AddressObject | AddressObject[] | undefined): string[] {
   const list = Array.isArray(field) ? field : field ? [field] : [];
   return list.flatMap((a) => a.value.map((v) => v.address ?? "")).filter(Boolean);
@@ -120,6 +127,12 @@ export async function startInboundListener({ host = "127.0.0.1", port = 0, db }:
     logger: false,
     banner: "Grainward inbound mail",
     closeTimeout: 2_000,
+    // Only mail for us: the reply domain, or a studio's own address routed here. Anything else is
+    // refused while the sender is still connected (they get a bounce; nothing is taken and lost).
+    onRcptTo(address, _session, callback) {
+      if (acceptsRecipient(db ?? getDb(), address.address)) return callback();
+      callback(Object.assign(new Error("No such recipient here"), { responseCode: 550 }));
+    },
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];
       stream.on("data", (chunk: Buffer) => chunks.push(chunk));

@@ -195,7 +195,8 @@ export function studioStaff(ctx: StudioContext): { id: string; name: string }[] 
 export function getThread(ctx: StudioContext, threadId: string, { markRead = false }: { markRead?: boolean } = {}) {
   let thread = studioThread(ctx, threadId);
   const db = getDb();
-  if (markRead && thread.state === "unread") {
+  const wasUnread = thread.state === "unread";
+  if (markRead && wasUnread) {
     db.update(threads).set({ state: "open", updatedAt: new Date() }).where(and(eq(threads.id, thread.id), eq(threads.state, "unread"))).run();
     thread = studioThread(ctx, threadId);
   }
@@ -219,6 +220,8 @@ export function getThread(ctx: StudioContext, threadId: string, { markRead = fal
     messages: threadMessagesOf(db, thread.id),
     staff: studioStaff(ctx),
     timeZone: ctx.studio.timeZone,
+    /** It was unread until this call opened it (the header's count has changed). */
+    openedNow: markRead && wasUnread,
   };
 }
 export type StaffThread = ReturnType<typeof getThread>;

@@ -62,9 +62,14 @@ test("an owner's message reaches the inbox; the answer goes back on the same thr
   await expect(row.getByText(/Repair job · waiting \d+ (min|h), since .*(GMT|UTC|PST|PDT)/)).toBeVisible();
   await axe(desk, "inbox");
 
+  // Opening it takes it out of unread, and the header's count follows.
+  const header = desk.getByRole("banner").getByRole("link", { name: /^Inbox/ });
+  const unreadBefore = Number((await header.textContent())?.match(/\d+/)?.[0] ?? "0");
+  expect(unreadBefore).toBeGreaterThan(0);
   await row.getByRole("link").click();
   await expect(desk.getByRole("heading", { level: 1 })).toContainText("The Holloway household");
   await expect(desk.getByText("Open", { exact: true })).toBeVisible();
+  await expect(header).toHaveText(unreadBefore === 1 ? "Inbox" : `Inbox${unreadBefore - 1} unread`);
   await desk.getByLabel("Assigned to").selectOption({ label: "Teo Lindqvist" });
   await expect(desk.getByText("Assigned to Teo Lindqvist.")).toBeVisible();
   const since = Date.now() - 1000;

@@ -256,6 +256,14 @@ describe("replies by e-mail through the inbound listener", () => {
     expect(getDb().select().from(unmatchedMail).where(eq(unmatchedMail.threadId, threadId)).all().map((k) => k.reason)).toEqual(["closed"]);
   });
 
+  it("takes mail only for the reply domain and studios' own addresses; a studio's address is kept for that studio", async () => {
+    const w = await jobWorld();
+    await expect(sendToListener({ from: w.owner.email, to: "someone@elsewhere.test.example", text: "Not for us." })).rejects.toThrow(/550|recipient/i);
+    const messageId = `<to-studio-${w.studio.id}@test.example>`;
+    await sendToListener({ from: w.owner.email, to: w.studio.email, text: "Written to the studio's address (invented).", messageId });
+    expect(getDb().select().from(unmatchedMail).where(eq(unmatchedMail.emailMessageId, messageId)).get()).toMatchObject({ studioId: w.studio.id, reason: "no_token" });
+  });
+
   it("refuses a message over the size limit at the SMTP level", async () => {
     const w = await jobWorld();
     const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });

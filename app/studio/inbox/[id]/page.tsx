@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { MessageForm } from "@/components/inbox/message-form";
 import { MessageList } from "@/components/inbox/message-list";
+import { RefreshOnce } from "@/components/inbox/refresh-once";
 import { ThreadControls } from "@/components/inbox/thread-controls";
 import { Card } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
@@ -23,6 +24,7 @@ export default async function InboxThreadPage({ params }: { params: Promise<{ id
   const ownerName = t.owner?.name ?? "Former owner";
   return (
     <div className="space-y-6">
+      {t.openedNow ? <RefreshOnce /> : null}
       <p className="text-sm">
         <Link href="/studio/inbox" className="inline-flex min-h-11 items-center text-resin underline">
           ← Inbox
