@@ -47,6 +47,25 @@ const ACTION_LABELS: Record<string, string> = {
   "job.paid": "Repair paid",
   "job.cancelled": "Repair job cancelled",
   "payment.refunded": "Refund issued",
+  "payment.refund_due": "Refund owed: the payment service refused it",
+  "claim.submitted": "Claim filed",
+  "claim.decided": "Claim decided",
+  "claim.photo_added": "Photo added to a claim",
+  "claim.photo_removed": "Photo removed from a claim",
+  "client.created": "Client added",
+  "client.updated": "Client details changed",
+  "client.exported": "Client's data exported",
+  "client.erased": "Client erased on request",
+  "member.invitation_withdrawn": "Invitation withdrawn",
+  "technician.hours_set": "Technician's hours changed",
+  "thread.message": "Message on a conversation",
+  "thread.updated": "Conversation assigned or closed",
+  "visit.booked": "Visit booked",
+  "visit.moved": "Visit moved",
+  "visit.cancelled": "Visit cancelled",
+  "visit.photo_added": "Photo added to a visit report",
+  "visit.reported": "Visit report filed",
+  "visit.signed_off": "Visit signed off by the owner",
   "refresh_offer.accepted": "Refresh offer accepted",
   "member.invited": "Invitation sent",
   "member.joined": "Joined the team",
@@ -62,9 +81,13 @@ const ACTION_LABELS: Record<string, string> = {
   "finish_product.archived": "Finish product archived",
 };
 
+/** Every action written with a fixed name has a label here (tests/unit/audit-labels.test.ts). */
+export const AUDIT_ACTION_LABELS: Readonly<Record<string, string>> = ACTION_LABELS;
+
 export function actionLabel(action: string): string {
   if (ACTION_LABELS[action]) return ACTION_LABELS[action];
-  if (action.startsWith("claim.")) return `Claim moved to ${action.slice(6).replace(/_/g, " ")}`;
+  const claimState = action.startsWith("claim.") ? CLAIM_STATE_LABELS_STAFF[action.slice(6) as keyof typeof CLAIM_STATE_LABELS_STAFF] : undefined;
+  if (claimState) return `Claim moved to “${claimState}”`;
   const s = action.replace(/[._]/g, " ");
   return s.charAt(0).toUpperCase() + s.slice(1);
 }
