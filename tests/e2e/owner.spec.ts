@@ -115,8 +115,16 @@ test("scan a drawer card, sign up, confirm by e-mail, register, log care and dow
   await shot(page, "06-log-form");
   await checkPhoneLayout(page, "log form");
   await axe(page, "log form");
+  // The date field is wide enough on a phone for its whole value and picker (Chromium's "mm/dd/yyyy"
+  // at 16 px and the calendar button take about 140 px; the year was clipped once in a narrow column).
+  expect((await page.getByLabel("When").boundingBox())!.width).toBeGreaterThanOrEqual(150);
   await page.getByRole("button", { name: "Log it" }).click();
   await expect(page.getByText("Logged — thank you.")).toBeVisible();
+  // The success toast sits at the bottom, clear of the header and its menu.
+  const toastBox = (await page.locator("[data-sonner-toast]").first().boundingBox())!;
+  const headerBox = (await page.locator("header").first().boundingBox())!;
+  expect(toastBox.y, "toast below the header").toBeGreaterThanOrEqual(headerBox.y + headerBox.height);
+  expect(toastBox.y + toastBox.height).toBeLessThanOrEqual(812);
   await expect(page).toHaveURL(new RegExp(`/pieces/${card.pieceId}#schedule`));
   const logged = page.locator("#care-log");
   await expect(logged).toContainText(firstTask);
