@@ -21,7 +21,7 @@ export function OutboxList({ messages }: { messages: OutboxMessage[] }) {
             >
               <span className="block truncate font-medium">{m.subject}</span>
               <span className="block truncate text-sm text-muted">
-                {m.to.join(", ")} · {new Date(m.receivedAt).toLocaleString()}
+                {m.to.join(", ")} · {new Date(m.receivedAt).toISOString().slice(0, 16).replace("T", " ")} UTC
               </span>
             </button>
           </li>

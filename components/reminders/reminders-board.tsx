@@ -10,6 +10,7 @@ import { Card } from "@/components/ui/card";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
 import type { LedgerListRow, UpcomingRow } from "@/lib/reminders/staff";
+import { formatInstant } from "@/lib/owner/format";
 
 type View = "upcoming" | "ledger";
 type Filters = { status: string; kind: string; step: string; q: string };
@@ -62,9 +63,10 @@ const resendReminder = (id: string) =>
     throw e;
   });
 
-const when = (ms: string | number | Date | null) => (ms ? new Date(ms).toLocaleString() : "—");
 
-export function RemindersBoard() {
+/** Send times in the studio's zone, named ("3 December 2026, 09:00 PST"). */
+export function RemindersBoard({ timeZone }: { timeZone: string }) {
+  const when = (ms: string | number | Date | null) => (ms ? formatInstant(new Date(ms), timeZone, { time: true }) : "—");
   const [view, setView] = useState<View>("upcoming");
   const [filters, setFilters] = useState<Filters>({ status: "", kind: "", step: "", q: "" });
   const qc = useQueryClient();

@@ -15,7 +15,7 @@ export default async function RemindersPage() {
         title="Care reminders"
         lead={`What goes out to owners in the coming days, and what went out. Reminders leave at ${String(ctx.studio.reminderSendHour).padStart(2, "0")}:00 in each owner's time zone; dates are in the studio's (${ctx.studio.timeZone}). Steps turned off in settings → reminder timing are not listed.`}
       />
-      <RemindersBoard />
+      <RemindersBoard timeZone={ctx.studio.timeZone} />
     </>
   );
 }

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { CoveragePanel } from "@/components/claims/coverage-panel";
 import { CreateRepairJobButton } from "@/components/claims/create-job-button";
 import { MessageThread } from "@/components/claims/message-thread";
+import { formatInstant } from "@/lib/owner/format";
 import { PhotoGallery } from "@/components/claims/photo-gallery";
 import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
 import { StateBadge } from "@/components/claims/state-badge";
@@ -60,7 +61,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
             ) : (
               owner.name
             )}{" "}
-            ({owner.email}) · filed {new Date(claim.createdAt).toLocaleString("en-US", { timeZone: v.studio.timeZone })} ·{" "}
+            ({owner.email}) · filed {formatInstant(new Date(claim.createdAt), v.studio.timeZone, { time: true })} ·{" "}
             {claim.firstAnsweredAt ? `first answer after ${formatWait(waited)}` : `waiting ${formatWait(waited)} for a first answer`}
           </p>
         </div>
