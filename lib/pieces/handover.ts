@@ -172,7 +172,9 @@ export async function sendHandover(ctx: StudioContext, pieceId: string, now = ne
         },
       })
       .run();
-    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: before?.sendCount ? "piece.handover_resent" : "piece.handover_sent", subjectType: "piece", subjectId: piece.id, data: { clientId: client.id } });
+    const audit = { studioId: ctx.studio.id, actorId: ctx.user.id, subjectType: "piece", subjectId: piece.id, data: { clientId: client.id } };
+    if (before?.sendCount) recordAudit(tx, { ...audit, action: "piece.handover_resent" });
+    else recordAudit(tx, { ...audit, action: "piece.handover_sent" });
   });
   await sendMail({ to: client.email, subject: handOverSubject({ pieceTitle: piece.title, studioName: ctx.studio.name }), email, replyTo: ctx.studio.email || undefined, studioId: ctx.studio.id });
   return handoverStatus(ctx, piece.id);

@@ -36,6 +36,8 @@ const ACTION_LABELS: Record<string, string> = {
   "piece.registered": "Piece registered by its owner",
   "piece.released": "Piece released by its owner",
   "piece.code_reissued": "Registration code reissued",
+  "piece.handover_sent": "Hand-over mail sent to the buyer",
+  "piece.handover_resent": "Hand-over mail sent again, with a fresh link",
   "pieces.imported": "Pieces imported",
   "photo.added": "Photo added to a piece",
   "care_log.added": "Care logged",
