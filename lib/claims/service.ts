@@ -184,7 +184,6 @@ export function listOwnerClaims(user: Pick<User, "id">) {
     .all()
     .map((r) => ({ ...r, createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt.toISOString() }));
 }
-export type OwnerClaimRow = ReturnType<typeof listOwnerClaims>[number];
 
 export const CLAIM_PAGE_SIZE = 50;
 
@@ -248,7 +247,6 @@ export function listStudioClaims(ctx: StudioContext, rawQuery: unknown, now = Da
     .all();
   return { claims: rows, total, page: q.page, pageSize: CLAIM_PAGE_SIZE, pieces: piecesWithClaims, query: q, now: new Date(now).toISOString() };
 }
-export type StudioClaimList = ReturnType<typeof listStudioClaims>;
 
 // ---------------------------------------------------------------- one claim
 

@@ -178,7 +178,6 @@ export function listInbox(ctx: StudioContext, raw: unknown = {}, now = Date.now(
   }));
   return { ...base, threads: out, unmatched: [] as UnmatchedRow[] };
 }
-export type Inbox = ReturnType<typeof listInbox>;
 
 /** Who a thread can be assigned to: the studio's admins and staff. */
 export function studioStaff(ctx: StudioContext): { id: string; name: string }[] {
@@ -224,7 +223,6 @@ export function getThread(ctx: StudioContext, threadId: string, { markRead = fal
     openedNow: markRead && wasUnread,
   };
 }
-export type StaffThread = ReturnType<typeof getThread>;
 
 /** Assign a thread to a staff member (or nobody), mark it done, or open it again. */
 export function updateThread(ctx: StudioContext, threadId: string, raw: unknown) {

@@ -11,16 +11,6 @@ export function formatClock(ms: number, timeZone: string): string {
   return new Intl.DateTimeFormat("en-GB", { hour: "2-digit", minute: "2-digit", hourCycle: "h23", timeZone }).format(ms);
 }
 
-export function formatDay(ms: number, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-GB", { weekday: "short", day: "numeric", month: "short", timeZone }).format(ms);
-}
-
-export function formatDuration(min: number): string {
-  const h = Math.floor(min / 60);
-  const m = min % 60;
-  return h ? `${h} h${m ? ` ${m} min` : ""}` : `${m} min`;
-}
-
 /**
  * "today", "tomorrow" or "on Friday 4 June 2027": the visit's day as the reader's own calendar in
  * `timeZone` sees it at `nowMs` — not "within 24 hours", which reads 09:00 today as tomorrow at 08:42.

@@ -546,7 +546,6 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
     products: products.map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass })),
   };
 }
-export type TechnicianDay = ReturnType<typeof technicianDay>;
 
 // ---- photos and the report ----
 
