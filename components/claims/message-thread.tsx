@@ -10,6 +10,7 @@ import { cn } from "@/components/ui/cn";
 import type { claimMessageSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { ApiError, apiJson } from "@/components/api-client";
+import { formatInstant } from "@/lib/owner/format";
 
 export type ThreadMessage = { id: string; body: string; fromStudio: boolean; createdAt: string; authorName: string };
 
@@ -21,6 +22,7 @@ export function MessageThread({
   studioName,
   canWrite,
   canAskForInfo,
+  timeZone,
 }: {
   claimId: string;
   messages: ThreadMessage[];
@@ -28,6 +30,8 @@ export function MessageThread({
   studioName: string;
   canWrite: boolean;
   canAskForInfo?: boolean;
+  /** The reader's zone (the studio's for staff, the owner's for owners); times name it. */
+  timeZone?: string;
 }) {
   const router = useRouter();
   const [askForInfo, setAskForInfo] = useState(false);
@@ -54,7 +58,7 @@ export function MessageThread({
         {messages.map((m) => (
           <li key={m.id} className={cn("max-w-[90%] rounded-xl border p-3", mine(m) ? "ml-auto border-resin/30 bg-resin-soft" : "border-line bg-card")}>
             <p className="text-xs text-muted">
-              {m.fromStudio ? `${m.authorName} · ${studioName}` : `${m.authorName} · owner`} · {new Date(m.createdAt).toLocaleString()}
+              {m.fromStudio ? `${m.authorName} · ${studioName}` : `${m.authorName} · owner`} · {formatInstant(new Date(m.createdAt), timeZone ?? "UTC", { time: true })}
             </p>
             <p className="mt-1 whitespace-pre-wrap break-words">{m.body}</p>
           </li>

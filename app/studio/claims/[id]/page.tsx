@@ -95,7 +95,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               </dd>
             </dl>
           </Card>
-          <MessageThread claimId={claim.id} messages={v.messages} audience="staff" studioName={v.studio.name} canWrite={claim.state !== "closed"} canAskForInfo={claim.state === "in_review"} />
+          <MessageThread claimId={claim.id} messages={v.messages} audience="staff" studioName={v.studio.name} timeZone={v.studio.timeZone} canWrite={claim.state !== "closed"} canAskForInfo={claim.state === "in_review"} />
         </div>
 
         <div className="space-y-6">
@@ -121,7 +121,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
           </Card>
           {claim.state !== "declined" && (claim.decision || v.repair) ? (
             <section aria-labelledby="repair-heading">
-            <Card className="space-y-2">
+              <Card className="space-y-2">
                 <h2 id="repair-heading" className="font-display text-xl font-semibold">
                   Repair
                 </h2>
@@ -146,7 +146,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                   </>
                 ) : null}
               </Card>
-          </section>
+            </section>
           ) : null}
           <CoveragePanel coverage={coverage} />
           <Card className="space-y-2">
