@@ -9,11 +9,14 @@ test.use({ viewport: { width: 1280, height: 900 } });
 
 const usd = (minor: number) => new Intl.NumberFormat("en-US", { style: "currency", currency: "USD" }).format(minor / 100);
 
-/** The line item (li) whose description field reads `text`. */
+/** The quote's line items, in order (one description field each). */
+const quoteLines = (page: Page) => page.locator("form ol > li");
+
+/** The line item whose description field reads `text`. */
 async function lineWith(page: Page, text: string) {
   const descriptions = page.getByLabel(/^Line \d+: description$/);
   const n = await descriptions.count();
-  for (let i = 0; i < n; i++) if ((await descriptions.nth(i).inputValue()) === text) return page.getByRole("listitem").filter({ has: descriptions.nth(i) });
+  for (let i = 0; i < n; i++) if ((await descriptions.nth(i).inputValue()) === text) return quoteLines(page).nth(i);
   throw new Error(`no line "${text}"`);
 }
 
@@ -37,7 +40,8 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   await crack.getByLabel("Quantity").fill("1.5");
 
   await page.getByRole("button", { name: "Add a typed line" }).click();
-  const typed = page.getByRole("listitem").filter({ has: page.getByText("Typed", { exact: true }) }).last();
+  const typed = quoteLines(page).last();
+  await expect(typed.getByText("Typed", { exact: true })).toBeVisible();
   await typed.getByLabel(/^Line \d+: description$/).fill("Colour-match the fill (invented)");
   await typed.getByLabel("Unit price (USD)").fill("12.50");
   await page.getByRole("button", { name: "Save the quote" }).click();
