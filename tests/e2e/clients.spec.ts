@@ -1,8 +1,11 @@
 // The front desk finds a client, opens their page, corrects the phone and reads what happened with
-// them — at 1280 px as staff, with axe on the list and the client page.
+// them — at 1280 px as staff, with axe on the list and the client page. Then a piece recorded with a
+// new buyer: the hand-over mail, the clients CSV export of those invited, and the buyer's one tap
+// (sign-up with the address the mail went to, at 375 px) that registers the piece.
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { extractLinks, waitForMail } from "../support/mail";
+import { ACCOUNTS, SINK_URL, signIn } from "./helpers";
 
 test.use({ viewport: { width: 1280, height: 900 } });
 
@@ -51,4 +54,91 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   await expect(timeline.first()).toBeVisible();
   const pageAxe = await new AxeBuilder({ page }).analyze();
   expect(pageAxe.violations, JSON.stringify(pageAxe.violations, null, 2)).toEqual([]);
+});
+
+test("a piece recorded with a new buyer sends the hand-over mail; the export lists them; one tap registers it", async ({ page, browser }) => {
+  const word = `Quill${Date.now().toString(36)}`;
+  const title = `${word} hall bench (e2e)`;
+  const buyer = `Tamsin ${word} (invented)`;
+  const email = `${word.toLowerCase()}@buyer.example`;
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto("/studio/pieces/new");
+  await page.getByLabel("Title").fill(title);
+  await page.getByLabel("Kind").selectOption("bench");
+  // The demo studio works in inches.
+  await page.getByLabel("Length").fill("55");
+  await page.getByLabel("Width").fill("14");
+  await page.getByRole("combobox", { name: "Primary species" }).fill("juglans");
+  await page.getByRole("option", { name: /Black walnut/ }).click();
+  await page.getByRole("button", { name: "Add a layer" }).click();
+  await page.getByRole("radio", { name: /A new client/ }).check();
+  // The buyer's name is asked for, beside its field, and nothing typed is lost.
+  await page.getByRole("button", { name: "Record piece" }).click();
+  await expect(page.getByText("Enter the buyer's name.")).toBeVisible();
+  await expect(page.getByLabel("Title")).toHaveValue(title);
+  await page.getByLabel("Buyer's name").fill(buyer);
+  await page.getByLabel("Buyer's e-mail").fill(email);
+  await page.getByLabel("Buyer's phone").fill("(415) 555-0163");
+  await page.getByLabel(/They agreed to service mail/).check();
+  await expect(page.getByLabel(/Send them the hand-over mail now/)).toBeChecked();
+  const formAxe = await new AxeBuilder({ page }).analyze();
+  expect(formAxe.violations, JSON.stringify(formAxe.violations, null, 2)).toEqual([]);
+  await page.getByRole("button", { name: "Record piece" }).click();
+  await expect(page.getByText(/The hand-over mail is on its way to the buyer/)).toBeVisible();
+  await expect(page).toHaveURL(/\/studio\/pieces\/[0-9a-f-]{36}$/);
+  const pieceId = page.url().split("/").pop()!;
+
+  const card = page.getByRole("heading", { name: "Hand-over mail" }).locator("..");
+  await expect(card.getByRole("link", { name: buyer })).toBeVisible();
+  await expect(card.getByRole("definition").first()).toContainText(/\d{4}.* \d{2}:\d{2} \S+/); // sent, with its zone
+  await expect(card.getByText("Not yet")).toHaveCount(2);
+  const pieceAxe = await new AxeBuilder({ page }).analyze();
+  expect(pieceAxe.violations, JSON.stringify(pieceAxe.violations, null, 2)).toEqual([]);
+
+  // The clients list: invited, exported as CSV with the filter.
+  await page.goto("/studio/clients?filter=invited");
+  await expect(page.getByRole("link", { name: buyer })).toBeVisible();
+  const download = page.waitForEvent("download");
+  await page.getByRole("link", { name: "Export these as CSV" }).click();
+  const csv = await (await download).createReadStream().then(async (stream) => {
+    const chunks: Buffer[] = [];
+    for await (const c of stream) chunks.push(c as Buffer);
+    return Buffer.concat(chunks).toString("utf8");
+  });
+  expect(csv).toContain(buyer);
+  expect(csv).toContain(email);
+  expect(csv).not.toContain("Jonah Reyes"); // registered owners are not "invited"
+
+  // The buyer, on a phone: the mail's link, sign-up with that address, confirm, one tap.
+  const mail = await waitForMail({ to: email, subject: /its care and warranty/, sinkUrl: SINK_URL });
+  expect(mail.text).toContain(title);
+  const link = extractLinks(mail.text).find((l) => l.includes("/hand-over/"))!;
+  const phone = await browser.newContext({ viewport: { width: 375, height: 812 }, baseURL: new URL(page.url()).origin });
+  const owner = await phone.newPage();
+  const path = new URL(link).pathname;
+  await owner.goto(path);
+  await expect(owner.getByRole("heading", { name: title })).toBeVisible();
+  await expect(owner.getByText(email)).toBeVisible();
+  const landingAxe = await new AxeBuilder({ page: owner }).analyze();
+  expect(landingAxe.violations, JSON.stringify(landingAxe.violations, null, 2)).toEqual([]);
+  await owner.getByRole("link", { name: "Create an account and register" }).click();
+  await owner.getByLabel("Your name").fill(buyer);
+  await owner.getByLabel("Email").fill(email);
+  await owner.getByLabel("Password").fill("a sentence for a password");
+  await owner.getByRole("button", { name: "Create account" }).click();
+  await expect(owner).toHaveURL(/\/verify-email\/sent/);
+  const confirm = await waitForMail({ to: email, subject: /confirm/i, sinkUrl: SINK_URL });
+  const confirmLink = extractLinks(confirm.text).find((l) => l.includes("/verify-email?"))!;
+  await owner.goto(new URL(confirmLink).pathname + new URL(confirmLink).search);
+  await expect(owner).toHaveURL(new RegExp(`${path}$`));
+  await owner.getByRole("button", { name: "Register this piece to my account" }).click();
+  await expect(owner).toHaveURL(new RegExp(`/pieces/${pieceId}`));
+  await expect(owner.getByRole("heading", { level: 1, name: title })).toBeVisible();
+  await phone.close();
+
+  // The studio sees it registered through the link, and the buyer's client has the account.
+  await page.goto(`/studio/pieces/${pieceId}`);
+  await expect(page.getByRole("heading", { name: "Hand-over mail" }).locator("..").getByText("Not yet")).toHaveCount(0);
+  await page.getByRole("link", { name: buyer }).first().click();
+  await expect(page.getByText(/has a Grainward account/)).toBeVisible();
 });
