@@ -56,17 +56,19 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
         </Card>
       ) : null}
       {repair ? (
-        <Card className="space-y-2" aria-labelledby="repair-heading">
-          <h2 id="repair-heading" className="font-display text-xl font-semibold">
-            The repair
-          </h2>
-          <p>{repair.stage}</p>
-          {repair.jobId ? (
-            <Link href={`/jobs/${repair.jobId}`} className="inline-flex min-h-11 items-center text-resin underline">
-              Open the repair
-            </Link>
-          ) : null}
-        </Card>
+        <section aria-labelledby="repair-heading">
+          <Card className="space-y-2">
+            <h2 id="repair-heading" className="font-display text-xl font-semibold">
+              The repair
+            </h2>
+            <p>{repair.stage}</p>
+            {repair.jobId ? (
+              <Link href={`/jobs/${repair.jobId}`} className="inline-flex min-h-11 items-center text-resin underline">
+                Open the repair
+              </Link>
+            ) : null}
+          </Card>
+        </section>
       ) : null}
       <section className="space-y-3" aria-labelledby="photos-heading">
         <h2 id="photos-heading" className="font-display text-xl font-semibold">

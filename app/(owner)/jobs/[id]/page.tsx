@@ -14,6 +14,8 @@ import { formatMoney } from "@/lib/owner/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/service";
+import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
+import Link from "next/link";
 
 export const metadata: Metadata = { title: "Repair" };
 
@@ -34,6 +36,11 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
     <>
       <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />} />
       <div className="space-y-4">
+        {job.claimId ? (
+          <Link href={`/claims/${job.claimId}`} className="inline-flex min-h-11 items-center text-resin underline">
+            The claim this repair is for
+          </Link>
+        ) : null}
         {query.checkout === "success" && job.state === "paid" ? (
           <Notice tone="ok" title="Paid — thank you">Your receipt is on its way by e-mail. You can book your visit below.</Notice>
         ) : null}
@@ -63,6 +70,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
             ) : (
               <p className="text-muted">No visit booked yet. Pick a time that suits you.</p>
             )}
+            {visit?.photos.length ? <VisitPhotoGrid photos={visit.photos} label="Photos from the visit" /> : null}
             {job.state === "scheduled" ? (
               <ButtonLink variant="secondary" href={`/jobs/${job.id}/book`}>Change or cancel the visit</ButtonLink>
             ) : job.state === "paid" || job.state === "covered" ? (

@@ -19,6 +19,7 @@ import { priceListOf } from "@/lib/repairs/price-list";
 import { canMove, JOB_STATE_LABELS, JOB_STATE_TONES, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/service";
+import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 
 export const metadata: Metadata = { title: "Repair job" };
 
@@ -42,6 +43,13 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
         lead={`${piece.title} · ${owner ? owner.name : "no registered owner"}`}
         actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />}
       />
+      {job.claimId ? (
+        <p className="-mt-4 mb-4 text-sm">
+          <Link href={`/studio/claims/${job.claimId}`} className="inline-flex min-h-11 items-center text-resin underline">
+            The claim this repair is for
+          </Link>
+        </p>
+      ) : null}
       <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
         <Card className="space-y-4">
           <h2 className="font-semibold">Quote</h2>
@@ -99,6 +107,8 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
               ) : (
                 <p className="text-sm text-muted">No visit booked.</p>
               )}
+              {visit?.state === "done" ? <p className="text-sm text-muted">{visit.signedOffAt ? "The owner signed off the work." : "Waiting for the owner's sign-off (a link in the report mail)."}</p> : null}
+              {visit?.photos.length ? <VisitPhotoGrid photos={visit.photos} label="Photos from the visit" /> : null}
               {["paid", "covered", "scheduled"].includes(job.state) ? (
                 <ButtonLink variant={job.state === "scheduled" ? "secondary" : "primary"} href={`/studio/visits/book/${job.id}`}>
                   {job.state === "scheduled" ? "Move or cancel the visit" : "Book a visit"}
