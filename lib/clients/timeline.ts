@@ -9,7 +9,7 @@ import { loadClient } from "./access";
 import { CONSENT_KIND_LABELS, type ConsentKind } from "./vocabulary";
 
 // One list of everything that happened with a client, newest first, read from the tables that
-// record it: their pieces' deliveries, registrations and hand-overs, care logged, reminders sent
+// record it: their pieces' deliveries, registrations and hand-overs, hand-over mail sent, care logged, reminders sent
 // (both send ledgers), claims filed and decided, repair jobs quoted, paid, done, cancelled and
 // refunded, visits booked, done and cancelled, and the changes to the client record itself. One
 // UNION ALL query ordered and limited by SQLite, so a long history costs only the page asked for.
@@ -19,6 +19,7 @@ export const TIMELINE_KINDS = [
   "registered",
   "took_over",
   "released",
+  "handover",
   "care",
   "reminder",
   "visit_reminder",
@@ -63,6 +64,8 @@ SELECT * FROM (
   SELECT 'released', o.ended_at, o.piece_id, p.title, NULL, NULL, NULL, NULL
     FROM ownerships o JOIN pieces p ON p.id = o.piece_id WHERE o.user_id = :user AND o.studio_id = :studio AND o.ended_at IS NOT NULL
   UNION ALL
+  SELECT 'handover', h.last_sent_at, h.piece_id, p.title, NULL, NULL, h.send_count, NULL
+    FROM piece_handovers h JOIN pieces p ON p.id = h.piece_id WHERE h.client_id = :client AND h.studio_id = :studio AND h.last_sent_at IS NOT NULL  UNION ALL
   SELECT 'care', e.created_at, e.piece_id, p.title, e.task_kind, e.done_on, NULL, e.source
     FROM pieces p JOIN care_log_entries e ON e.piece_id = p.id WHERE p.client_id = :client AND p.studio_id = :studio
   UNION ALL
@@ -190,6 +193,8 @@ function titleOf(r: Row, tz: string): string {
       return `Took over ${q(r.title)} from its previous owner`;
     case "released":
       return `Handed ${q(r.title)} on to a new owner`;
+    case "handover":
+      return `Hand-over mail sent for ${q(r.title)}${r.n && r.n > 1 ? ` (${r.n} times)` : ""}`;
     case "care":
       return `${CARE_TASK_LABELS[r.a as CareTaskKind] ?? "Care"} on ${q(r.title)}, done ${day(r.b)}, logged ${CARE_SOURCE_WORDS[r.cur ?? ""] ?? ""}`.trim();
     case "reminder":
@@ -229,6 +234,7 @@ function hrefOf(r: Row): string | null {
     case "registered":
     case "took_over":
     case "released":
+    case "handover":
     case "care":
     case "reminder":
       return `/studio/pieces/${r.ref}`;

@@ -17,6 +17,7 @@ import {
   clients,
   ownerships,
   payments,
+  pieceHandovers,
   pieces,
   reminderSends,
   repairJobs,
@@ -232,6 +233,7 @@ describe("the timeline", () => {
     const { piece: former } = createPiece(studio, { title: "Handed-on bench (invented)", deliveredOn: "2025-12-01" });
     db.insert(ownerships).values({ studioId: studio.id, pieceId: piece.id, userId: owner.id, via: "registration", startedAt: t(2) }).run();
     db.insert(ownerships).values({ studioId: studio.id, pieceId: former.id, userId: owner.id, via: "transfer", startedAt: t(1, 9), endedAt: t(3) }).run();
+    db.insert(pieceHandovers).values({ studioId: studio.id, pieceId: piece.id, clientId: c.id, email: owner.email, firstSentAt: t(1, 11), lastSentAt: t(1, 12), sendCount: 2 }).run();
     db.insert(careLogEntries).values({ studioId: studio.id, pieceId: piece.id, userId: owner.id, source: "owner", taskKind: "reoil", doneOn: "2026-01-03", createdAt: t(4) }).run();
     db.insert(reminderSends).values({ studioId: studio.id, pieceId: piece.id, userId: owner.id, reminderKey: unique("rk"), taskKey: "k", taskKind: "reoil", step: "due_day", dueOn: "2026-01-05", status: "sent", sentAt: t(5) }).run();
     const claim = db.insert(claims).values({ studioId: studio.id, pieceId: piece.id, ownerId: owner.id, category: "finish_wear", noticedOn: "2026-01-05", description: "Invented.", answers: {}, state: "accepted", decision: "partly_covered", coveredPct: 50, createdAt: t(6), decidedAt: t(7) }).returning().get();
@@ -290,11 +292,13 @@ describe("the timeline", () => {
       "care",
       "released",
       "registered",
+      "handover", // sent twice, last on the 1st at 12:00
       "took_over",
       "delivered", // only the client's own piece: the bench they handed on is not theirs now
     ]);
     const byKind = (k: string) => all.entries.find((e) => e.kind === k)!;
     expect(byKind("refund").title).toBe("Refund of $40.00 for “Second look (invented)”");
+    expect(byKind("handover")).toMatchObject({ title: "Hand-over mail sent for “Timeline table (invented)” (2 times)", href: `/studio/pieces/${piece.id}` });
     expect(byKind("job_quoted")).toMatchObject({ title: "Quote sent for “Re-oil the top (invented)”: $125.00", href: `/studio/jobs/${job.id}` });
     expect(byKind("claim_decided")).toMatchObject({ title: "Claim on “Timeline table (invented)” decided: partly covered (50 %)", href: `/studio/claims/${claim.id}` });
     expect(byKind("visit_done").title).toBe("Visit of 12 January 2026 at 09:00 GMT-8 done (Re-oil the top (invented))");
