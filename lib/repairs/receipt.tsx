@@ -52,8 +52,22 @@ function Total({ label, amount, strong = false }: { label: string; amount: strin
   );
 }
 
+/**
+ * The PDF's built-in Helvetica has only the WinAnsi characters: Intl's minus sign (U+2212), fullwidth
+ * yen (U+FFE5) and narrow no-break space (U+202F, French grouping) are written with their WinAnsi twins.
+ */
+const winAnsi = (text: string) => text.replace(/\u2212/g, "-").replace(/\uFFE5/g, "\u00A5").replace(/\u202F/g, "\u00A0");
+
+function pdfFigures(f: JobFigures): JobFigures {
+  return {
+    ...f,
+    lines: f.lines.map((l) => ({ ...l, amount: winAnsi(l.amount), quantityText: winAnsi(l.quantityText) })),
+    text: { subtotal: winAnsi(f.text.subtotal), covered: f.text.covered && winAnsi(f.text.covered), net: winAnsi(f.text.net), tax: winAnsi(f.text.tax), total: winAnsi(f.text.total) },
+  };
+}
+
 export function ReceiptDocument({ d }: { d: ReceiptData }) {
-  const f = d.figures;
+  const f = pdfFigures(d.figures);
   return (
     <Document title={`Receipt — ${d.jobTitle}`} author={d.studio.name} subject="Receipt">
       <Page size={d.letter ? "LETTER" : "A4"} style={s.page}>
