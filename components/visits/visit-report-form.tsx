@@ -34,7 +34,24 @@ type DefaultLayer = { finishClass: FinishClass; productId: string; coats: number
  * before/after photos. The owner signs off themselves, from the report mail. Before the visit's start
  * (`early`), staff give a reason to file it anyway; a technician waits until it has started.
  */
-export function VisitReportForm({ visitId, products, today, defaultLayers, initialPhotos, early }: { visitId: string; products: Product[]; today: string; defaultLayers: DefaultLayer[]; initialPhotos: Photo[]; early: { startsAt: string; asStaff: boolean } | null }) {
+export function VisitReportForm({
+  visitId,
+  name,
+  products,
+  today,
+  defaultLayers,
+  initialPhotos,
+  early,
+}: {
+  visitId: string;
+  /** Which visit, for the form's accessible name (a day has several reports). */
+  name: string;
+  products: Product[];
+  today: string;
+  defaultLayers: DefaultLayer[];
+  initialPhotos: Photo[];
+  early: { startsAt: string; asStaff: boolean } | null;
+}) {
   const router = useRouter();
   const defaultClass = defaultLayers[0]?.finishClass;
   const form = useForm<VisitReportInput, unknown, VisitReportValues>({
@@ -79,7 +96,7 @@ export function VisitReportForm({ visitId, products, today, defaultLayers, initi
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label="Visit report">
+    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label={`Visit report: ${name}`}>
       {formError ? <Notice tone="error" title="The report was not filed">{formError} Nothing you typed is lost.</Notice> : null}
       <div className="space-y-1.5">
         <label htmlFor={`work-${visitId}`} className="block text-sm font-medium">What was done</label>

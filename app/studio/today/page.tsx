@@ -187,6 +187,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                     ) : item.visit.state === "booked" ? (
                       <VisitReportForm
                         visitId={item.visit.id}
+                        name={`${item.piece.title}, ${formatClock(Date.parse(item.visit.start), tz)}`}
                         products={day.products}
                         today={day.today}
                         defaultLayers={item.defaultLayers}
