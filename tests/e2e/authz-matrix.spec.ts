@@ -288,9 +288,9 @@ const ROUTES: RouteRow[] = [
   { route: "PATCH /api/clients/[id]", expect: "401 403 403 403 200 200 404 404", before: clientRows, send: ({ api }) => api.patch(`/api/clients/${S.clients.demo.id}`, { data: { name: S.clients.demo.name } }) },
   { route: "GET /api/clients/[id]/timeline", expect: "401 403 403 403 200 200 404 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}/timeline?limit=5`) },
   { route: "GET /api/clients/export.csv", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/clients/export.csv?q=a&filter=invited") },
-  // Personal data: admins only; another studio's client is a 404. Erasing takes a throwaway client made just before.
-  { route: "GET /api/clients/[id]/personal-data", expect: "401 403 403 403 403 200 404 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}/personal-data`) },
-  { route: "POST /api/clients/[id]/erase", expect: "401 403 403 403 403 200 404 404", before: erasableClient, send: ({ api }) => api.post(`/api/clients/${S.erasable}/erase`, { data: { confirm: true } }) },
+  // Personal data: admins only (another studio's staff are refused by role first); another studio's client is a 404 to its admin. Erasing takes a throwaway client made just before.
+  { route: "GET /api/clients/[id]/personal-data", expect: "401 403 403 403 403 200 403 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}/personal-data`) },
+  { route: "POST /api/clients/[id]/erase", expect: "401 403 403 403 403 200 403 404", before: erasableClient, send: ({ api }) => api.post(`/api/clients/${S.erasable}/erase`, { data: { confirm: true } }) },
 
   // Claims: the owner who filed it and the studio's staff; nobody else learns it exists.
   { route: "GET /api/claims", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/claims") },
@@ -539,7 +539,11 @@ const ACTIONS: ActionRow[] = [
   // A well-formed code that matches no piece: the signed-in get past the guard to the lookup.
   { action: "app/(owner)/register/actions.ts#registerAction", expect: "401 404 404 404 404 404 404 404", args: () => ({ json: [{ code: generateRegistrationCode() }] }) },
   // A hand-over link nobody was sent: the signed-in get past the guard to the lookup.
-  { action: "app/(public)/hand-over/[token]/actions.ts#registerByHandoverAction", expect: "401 404 404 404 404 404 404 404", args: () => ({ json: [{ token: "matrix-not-a-real-hand-over-token" }] }) },
+  {
+    action: "app/(public)/hand-over/[token]/actions.ts#registerByHandoverAction",
+    expect: "401 404 404 404 404 404 404 404",
+    messages: { "404": /^We don't know that link\./ },
+    args: () => ({ json: [{ token: "matrix-not-a-real-hand-over-token" }] }) },
   {
     action: "app/(owner)/pieces/[id]/transfer/actions.ts#releaseAction",
     expect: "401 ok 404 404 404 404 404 404",
