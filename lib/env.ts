@@ -37,6 +37,12 @@ const envSchema = z.object({
    * the client). Set it to the number of reverse proxies that append to the header, no more.
    */
   TRUST_PROXY: z.coerce.number().int().min(0).max(10).default(0),
+  /**
+   * Who may start a new studio at /start: anyone with an account (open), holders of an operator's
+   * signed invite link (invite, see scripts/studio-invite.ts), or nobody (closed). On an install with
+   * no studio at all the first visitor may always start one.
+   */
+  STUDIO_SIGNUP: z.enum(["open", "invite", "closed"]).default("closed"),
   /** Shows the outbox in production builds too (demo and tests run a production build). */
   OUTBOX_ENABLED: z
     .enum(["true", "false"])

@@ -23,6 +23,7 @@ const env = {
   STRIPE_API_HOST: "127.0.0.1",
   STRIPE_API_PORT: E2E.stripePort,
   INBOUND_SMTP_PORT: E2E.inboundPort,
+  STUDIO_SIGNUP: "open",
 };
 
 removeDatabase(env.DATABASE_URL);

@@ -21,6 +21,7 @@ export default function LandingPage() {
           <div className="flex flex-wrap gap-3">
             <ButtonLink href="/sign-in">Sign in</ButtonLink>
             <ButtonLink href="/sign-up" variant="secondary">I own a piece</ButtonLink>
+            <ButtonLink href="/start" variant="ghost">Start a studio</ButtonLink>
           </div>
         </div>
         <div aria-hidden className="rounded-2xl border border-line bg-card p-6">

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { OverviewBarChart } from "@/components/overview/bar-chart";
 import { ChartPanel, Figure, FigureTable } from "@/components/overview/panel";
+import { SetupChecklist } from "@/components/setup/setup-checklist";
 import { PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
@@ -10,6 +11,7 @@ import { addDays } from "@/lib/care/dates";
 import { formatMoney } from "@/lib/owner/format";
 import { formatWait } from "@/lib/claims/labels";
 import { getOverview } from "@/lib/overview";
+import { setupChecklist } from "@/lib/studio/setup";
 
 export const metadata: Metadata = { title: "Studio overview" };
 
@@ -50,6 +52,7 @@ export default async function StudioOverviewPage() {
           </Link>
         }
       />
+      <SetupChecklist items={setupChecklist(ctx)} />
 
       <section aria-labelledby="pieces-h" className="mb-8">
         <h2 id="pieces-h" className="sr-only">

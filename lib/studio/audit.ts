@@ -69,6 +69,7 @@ const ACTION_LABELS: Record<string, string> = {
   "member.joined": "Joined the team",
   "member.role_changed": "Role changed",
   "member.removed": "Removed from the team",
+  "studio.created": "Studio started",
   "settings.profile_updated": "Studio profile or rates changed",
   "settings.reminder_timing_updated": "Reminder timing changed",
   "settings.visit_rules_updated": "Visit booking rules changed",

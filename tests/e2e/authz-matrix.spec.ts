@@ -508,6 +508,8 @@ const ACTIONS: ActionRow[] = [
   // Public forms: no session needed and none used; invalid or made-up input, the same answer for all.
   { action: "app/(public)/sign-in/actions.ts#signInAction", expect: "400 ".repeat(8), args: () => ({ json: [{ email: "", password: "" }] }) },
   { action: "app/(public)/sign-up/actions.ts#signUpAction", expect: "400 ".repeat(8), args: () => ({ json: [{ name: "", email: "not-an-email", password: "short" }] }) },
+  // Valid input would start a studio for every signed-in role (the e2e server runs with STUDIO_SIGNUP=open); tests/integration/studio-start.test.ts covers who may.
+  { action: "app/(public)/start/actions.ts#startStudioAction", expect: "400 ".repeat(8), args: () => ({ json: [{ name: "", timeZone: "Mars/Olympus", currency: "XYZ", unitSystem: "metric" }] }) },
   { action: "app/(public)/forgot-password/actions.ts#forgotPasswordAction", expect: "400 ".repeat(8), args: () => ({ json: [{ email: "not-an-email" }] }) },
   {
     action: "app/(public)/reset-password/actions.ts#resetPasswordAction",
