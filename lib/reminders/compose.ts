@@ -16,7 +16,8 @@ export interface ReminderMail {
   owner: { id: string; email: string; name: string; unitSystem: "metric" | "imperial" };
   piece: { id: string; title: string; use: Use; sun: SunExposure; shape: TopShape | undefined; hasResin: boolean };
   /** id: the studio the reminder is sent for (sendMail studioId). */
-  studio: { id?: string; name: string };
+  /** country: ISO 3166-1 alpha-2, how money is written. */
+  studio: { id?: string; name: string; country: string };
   product: CatalogEntry | undefined;
   offer?: { id: string; quote: Quote };
   /** The owner's calendar date when the message goes out (reminders can go out late). */
@@ -45,7 +46,7 @@ export function reminderProps(m: ReminderMail): CareReminderProps {
     logUrl: logCareUrl(piece.id, task.key),
     preferencesUrl: preferencesUrl(owner.id),
     unsubscribeUrl: oneClickUnsubscribeUrl(owner.id),
-    offer: m.offer ? offerView(m.offer.quote, offerUrl(m.offer.id), owner.unitSystem) : undefined,
+    offer: m.offer ? offerView(m.offer.quote, offerUrl(m.offer.id), owner.unitSystem, m.studio.country) : undefined,
   };
 }
 

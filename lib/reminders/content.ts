@@ -3,10 +3,10 @@
 import { topArea, type TopShape } from "@/lib/care/area";
 import { diffDays } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";
-import { formatMinorUnits, type Quote } from "@/lib/care/quote";
+import type { Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { cautionLine, cautionsFor as catalogueCautions } from "@/lib/care/cautions";
-import { formatArea, formatDistance, formatVolume, type UnitSystem } from "@/lib/owner/format";
+import { formatArea, formatDistance, formatMoney, formatVolume, type UnitSystem } from "@/lib/owner/format";
 import type { CareTaskKind, ReminderStep } from "@/lib/care/vocabulary";
 
 const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
@@ -175,8 +175,8 @@ function lineWords(l: Quote["lines"][number], units: UnitSystem): string {
   return l.description;
 }
 
-export function offerView(q: Quote, acceptUrl: string, units: UnitSystem): OfferView {
-  const money = (minor: number) => `${formatMinorUnits(minor, q.currency)} ${q.currency}`;
+export function offerView(q: Quote, acceptUrl: string, units: UnitSystem, country: string): OfferView {
+  const money = (minor: number) => formatMoney(minor, q.currency, country);
   return {
     total: money(q.totalMinor),
     lines: q.lines.map((l) => ({

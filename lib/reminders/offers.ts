@@ -28,7 +28,7 @@ function offerRow(token: unknown) {
   const id = parsed.success ? readOfferToken(parsed.data) : null;
   if (!id) throw notFound("This offer link is not valid. Use the link in the care e-mail.");
   const row = getDb()
-    .select({ offer: refreshOffers, pieceTitle: pieces.title, studioName: studios.name, studioEmail: studios.email, unitSystem: users.unitSystem })
+    .select({ offer: refreshOffers, pieceTitle: pieces.title, studioName: studios.name, studioEmail: studios.email, country: studios.country, unitSystem: users.unitSystem })
     .from(refreshOffers)
     .innerJoin(pieces, eq(pieces.id, refreshOffers.pieceId))
     .innerJoin(studios, eq(studios.id, refreshOffers.studioId))
@@ -45,10 +45,10 @@ function kindOfTaskKey(taskKey: string): CareTaskKind | undefined {
 }
 
 export function getOfferByToken(token: unknown): OfferPage {
-  const { offer, pieceTitle, studioName, studioEmail, unitSystem } = offerRow(token);
+  const { offer, pieceTitle, studioName, studioEmail, country, unitSystem } = offerRow(token);
   const kind = kindOfTaskKey(offer.taskKey);
   return {
-    ...offerView(offer.quote as unknown as Quote, offerUrl(offer.id), unitSystem),
+    ...offerView(offer.quote as unknown as Quote, offerUrl(offer.id), unitSystem, country),
     status: offer.status,
     pieceTitle,
     studioName,

@@ -69,6 +69,8 @@ export type StudioRow = {
   name: string;
   timeZone: string;
   currency: string;
+  /** ISO 3166-1 alpha-2: money is written in this country's way. */
+  country: string;
   taxRateBp: number;
   labourRateMinor: number;
   travelFeeMinor: number;
@@ -141,7 +143,7 @@ const LEDGER_COLUMNS = `r.piece_id AS pieceId, r.id, r.reminder_key AS reminderK
 function statements(sqlite: Database.Database) {
   return {
     studios: sqlite.prepare(
-      `SELECT id, name, time_zone AS timeZone, currency, tax_rate_bp AS taxRateBp, labour_rate_minor AS labourRateMinor, travel_fee_minor AS travelFeeMinor,
+      `SELECT id, name, time_zone AS timeZone, currency, country, tax_rate_bp AS taxRateBp, labour_rate_minor AS labourRateMinor, travel_fee_minor AS travelFeeMinor,
               reminder_send_hour AS reminderSendHour, reminder_steps AS reminderSteps FROM studios ORDER BY id`,
     ),
     pieces: sqlite.prepare(
@@ -509,7 +511,7 @@ export async function runReminderPass(options: PassOptions): Promise<PassReport>
                 task,
                 owner: { id: piece.ownerId, email: piece.ownerEmail, name: piece.ownerName, unitSystem: piece.ownerUnitSystem },
                 piece: { id: piece.id, title: piece.title, use: piece.use, sun: piece.sun, shape: topShape(piece), hasResin: piece.resinKind !== "none" },
-                studio: { id: studio.id, name: studio.name },
+                studio: { id: studio.id, name: studio.name, country: studio.country },
                 product,
                 offer,
                 ownerToday: clocks.at(piece.ownerTimeZone).date,

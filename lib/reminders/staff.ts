@@ -212,7 +212,7 @@ export async function resendReminder(ctx: StudioContext, rawId: unknown, now = n
       task,
       owner: { id: owner.id, email: owner.email, name: owner.name, unitSystem: owner.unitSystem },
       piece: { id: piece.id, title: piece.title, use: piece.use, sun: piece.sun, shape: topShape(piece), hasResin: piece.resinKind !== "none" },
-      studio: { id: ctx.studio.id, name: ctx.studio.name },
+      studio: { id: ctx.studio.id, name: ctx.studio.name, country: ctx.studio.country },
       product: task.productId ? byId.get(task.productId) : undefined,
       offer: offerRow ? { id: offerRow.id, quote: offerRow.quote as unknown as Quote } : undefined,
       ownerToday: clocks.at(owner.timeZone).date,

@@ -6,11 +6,10 @@ import { getDb } from "@/db/client";
 import { auditLog, memberships, users } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { addDays, localDateTime, zonedTimeToEpochMs } from "@/lib/care/dates";
-import { formatMinorUnits } from "@/lib/care/quote";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, CLAIM_DECISION_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
-import { formatDate } from "@/lib/owner/format";
+import { formatDate, formatMoney } from "@/lib/owner/format";
 import { JOB_STATE_LABELS } from "@/lib/repairs/states";
 import { forbidden } from "@/lib/errors";
 import { AUDIT_GROUPS, auditQuerySchema, type AuditQuery } from "./audit-query";
@@ -169,12 +168,12 @@ function keyWords(key: string): string {
 }
 
 /** A value as words: enumerations through their label maps, money in the studio's currency, dates written out. */
-function valueWords(key: string, v: unknown, currency: string, action = ""): string {
+function valueWords(key: string, v: unknown, currency: string, action = "", country = "US"): string {
   if (v == null) return "—";
   if (typeof v === "boolean") return v ? "yes" : "no";
   if (typeof v === "number" && MONEY_KEYS.has(key)) {
     try {
-      return `${formatMinorUnits(v, currency)} ${currency}`;
+      return formatMoney(v, currency, country);
     } catch {
       return String(v);
     }
@@ -190,16 +189,16 @@ function valueWords(key: string, v: unknown, currency: string, action = ""): str
 }
 
 /** A few readable lines from an entry's data (the keys most entries carry), in words, never raw enum values. */
-export function describe(data: Record<string, unknown>, currency = "USD", action = ""): string[] {
+export function describe(data: Record<string, unknown>, currency = "USD", action = "", country = "US"): string[] {
   const out: string[] = [];
-  if ("from" in data && "to" in data && typeof data.from !== "object") out.push(`${valueWords("from", data.from, currency, action)} → ${valueWords("to", data.to, currency, action)}`);
+  if ("from" in data && "to" in data && typeof data.from !== "object") out.push(`${valueWords("from", data.from, currency, action, country)} → ${valueWords("to", data.to, currency, action, country)}`);
   for (const key of ["name", "title", "email", "role", "decision", "coveredPct", "suggestion", "category", "taskKind", "reason", "amount", "amountMinor", "totalMinor", "refundedMinor", "version", "quoteVersion", "effectiveFrom", "via"]) {
-    if (key in data && data[key] != null && typeof data[key] !== "object") out.push(`${keyWords(key)}: ${valueWords(key, data[key], currency, action)}`);
+    if (key in data && data[key] != null && typeof data[key] !== "object") out.push(`${keyWords(key)}: ${valueWords(key, data[key], currency, action, country)}`);
   }
   if (Array.isArray(data.changes)) out.push(...(data.changes as unknown[]).slice(0, 6).map((c) => (typeof c === "string" ? c : JSON.stringify(c))));
   if (data.changed && typeof data.changed === "object") {
     for (const [k, v] of Object.entries(data.changed as Record<string, { from: unknown; to: unknown }>).slice(0, 8)) {
-      out.push(`${keyWords(k)}: ${valueWords(k, v?.from, currency, action)} → ${valueWords(k, v?.to, currency, action)}`);
+      out.push(`${keyWords(k)}: ${valueWords(k, v?.from, currency, action, country)} → ${valueWords(k, v?.to, currency, action, country)}`);
     }
   }
   return out;
@@ -244,7 +243,7 @@ export function listAudit(ctx: StudioContext, raw: unknown) {
         subjectType: e.subjectType,
         subjectId: e.subjectId,
         href: base ? base + e.subjectId : null,
-        details: describe(e.data ?? {}, ctx.studio.currency, e.action),
+        details: describe(e.data ?? {}, ctx.studio.currency, e.action, ctx.studio.country),
       };
     });
   // People to filter by: the studio's members, and anyone else who appears in its log (owners, former staff).

@@ -77,7 +77,7 @@ describe("an outdoor piece gets outdoor care (item 8)", () => {
         task,
         owner: { id: me.id, email: me.email, name: me.name, unitSystem: "metric" },
         piece: { id: piece.id, title: piece.title, use: "outdoor_covered", sun: "none", shape: undefined, hasResin: false },
-        studio: { name: studio.name },
+        studio: { name: studio.name, country: studio.country },
         product: undefined,
         ownerToday: task.dueOn,
       });
@@ -259,7 +259,7 @@ describe("the coverage check and the audit log in words (item 11)", () => {
     const text = log.rows.map((r) => [r.label, ...r.details].join(" | ")).join("\n");
     expect(text).toContain("Decision: Partly covered");
     expect(text).toContain("Reviewing → Accepted");
-    expect(text).toContain("Amount: 103.89 USD");
+    expect(text).toContain("Amount: $103.89");
     expect(text).toContain("Piece registered by its owner");
     expect(text).not.toMatch(/partly_covered|in_review|amountMinor|10389|piece\.registered|coveredPct/);
   });

@@ -47,7 +47,7 @@ async function reminderText(unitSystem: "metric" | "imperial") {
     task,
     owner: { id: "owner-1", email: "owner@owners.example", name: "Robin Example", unitSystem },
     piece: { id: "piece-1", title: "Oak table (invented)", use: "heavy", sun: "indirect", shape, hasResin: false },
-    studio: { name: "Example Studio (invented)" },
+    studio: { name: "Example Studio (invented)", country: "US" },
     product: oil,
     offer: { id: "offer-1", quote: offerQuote },
     ownerToday: "2025-06-01",
@@ -78,6 +78,6 @@ describe("care reminder mail in the owner's units", () => {
 
   it("an offer stored before container sizes were kept reads as it was written", () => {
     const old = { ...offerQuote, lines: offerQuote.lines.map(({ product: _p, sizeMl: _s, ...l }) => l) };
-    expect(offerView(old, "https://example.test/o", "imperial").lines.map((l) => l.description)).toContain("Example hardwax oil (invented), 100 mL × 2");
+    expect(offerView(old, "https://example.test/o", "imperial", "US").lines.map((l) => l.description)).toContain("Example hardwax oil (invented), 100 mL × 2");
   });
 });

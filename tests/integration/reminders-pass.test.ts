@@ -64,7 +64,7 @@ describe("reminder pass: which messages at which instant (jobs:run-once)", () =>
     const reoilMail = mails.find((m) => m.subject.includes("re-oil"))!;
     // Labour 0.5 h + 0.5 h/m² × 2 m² = 1.5 h × 80.00 = 120.00; 84 mL → one 125 mL can 19.00; travel 40.00;
     // subtotal 179.00; tax 8.25 % = 14.77 (half up); total 193.77.
-    expect(reoilMail.text).toContain("193.77 USD");
+    expect(reoilMail.text).toContain("$193.77");
     expect(reoilMail.text).toContain("Accept the refresh offer");
     expect(reoilMail.text).toMatch(/Oily rags can catch fire by themselves/);
     expect(reoilMail.text).toMatch(/catch fire on their own within hours/);

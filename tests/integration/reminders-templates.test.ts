@@ -23,7 +23,7 @@ const catalog: CatalogEntry[] = Object.values(CLASS_FOR).map((finishClass) => ({
   containerSizesMl: [100, 500],
   containerPricesMinor: { 100: 1500, 500: 4500 },
 }));
-const studio = { id: "s", name: "Example Studio (invented)", timeZone: "America/Los_Angeles", currency: "USD", taxRateBp: 850, labourRateMinor: 8500, travelFeeMinor: 4500 };
+const studio = { id: "s", name: "Example Studio (invented)", timeZone: "America/Los_Angeles", currency: "USD", country: "US", taxRateBp: 850, labourRateMinor: 8500, travelFeeMinor: 4500 };
 const pieceCols = {
   id: "piece-1", kind: "dining_table", use: "heavy", sun: "indirect", deliveredOn: "2025-03-02", resinKind: "deep_pour", primarySpeciesId: "black_walnut",
   shapeKind: "rectangle", lengthMm: 2200, widthMm: 1000, diameterMm: null, measuredAreaM2: null,
@@ -51,7 +51,7 @@ describe("care reminder templates", () => {
           task,
           owner: { id: "owner-1", email: "owner@owners.example", name: "Robin Example", unitSystem: kind === "rewax" ? "metric" : "imperial" },
           piece: { id: "piece-1", title: "Walnut river table (invented)", use: "heavy", sun: "indirect", shape: { kind: "rectangle", lengthMm: 2200, widthMm: 1000 }, hasResin: true },
-          studio: { name: studio.name },
+          studio: { name: studio.name, country: studio.country },
           product,
           offer: q ? { id: "offer-1", quote: q } : undefined,
           ownerToday: shift(task.dueOn, OWNER_TODAY[step]),
