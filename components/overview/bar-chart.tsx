@@ -27,6 +27,11 @@ type Props = {
   height?: number;
 };
 
+/** Whether any bar would be drawn: a chart of nothing but zeros says so in words instead (a new studio's overview). */
+export function hasBars(data: readonly BarDatum[], series: readonly BarSeries[]): boolean {
+  return data.some((d) => series.some((s) => Number(d[s.key] ?? 0) !== 0));
+}
+
 export function OverviewBarChart({ data, series, layout = "horizontal", format = "count", currency = "USD", title, height }: Props) {
   const router = useRouter();
   const fmt = (v: unknown) => {
@@ -39,6 +44,7 @@ export function OverviewBarChart({ data, series, layout = "horizontal", format =
     const href = (d as { payload?: BarDatum } | undefined)?.payload?.href;
     if (href) router.push(href);
   };
+  if (!hasBars(data, series)) return <p className="text-sm text-muted">Nothing to draw yet: every figure here is 0.</p>;
   return (
     <div role="img" aria-label={title} className="w-full" style={{ height: h }}>
       <ResponsiveContainer width="100%" height="100%">

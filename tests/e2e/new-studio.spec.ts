@@ -3,7 +3,7 @@
 // sink, comes back to /start, and starts the studio with the time zone guessed from the browser.
 // The overview opens with the set-up checklist; then every studio page in the header and in the
 // checklist is opened at 1280 px while the studio is empty: no error page, no 4xx/5xx, no console
-// error, and words on each page. Last, the same account starts a second studio and works in it.
+// error, words on each page, no empty table and no chart without bars. Last, the same account starts a second studio and works in it.
 // All names invented.
 import { expect, test, type Page } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
@@ -83,6 +83,12 @@ test("a new account starts a studio at /start; every studio page works while it 
     expect(text, `${path} shows the error page`).not.toMatch(/Something went wrong|We couldn.t find that page/);
     expect(text, `${path} shows a raw value`).not.toMatch(/\bundefined\b|\bNaN\b|\[object Object\]|Invalid Date/);
     expect(text.split(/\s+/).filter((w) => /[a-z]{2,}/i.test(w)).length, `${path} says what will appear there`).toBeGreaterThanOrEqual(12);
+    // A table shown with no rows says nothing: an empty page says so in words instead.
+    const emptyTables = await main.locator("table:visible").evaluateAll((tables) => tables.filter((t) => t.querySelectorAll("tbody tr").length === 0).length);
+    expect(emptyTables, `${path} shows a table with no rows`).toBe(0);
+    // Nor a chart of nothing but zeros (components/overview/bar-chart.tsx says so in words).
+    await expect(main.locator(".recharts-surface"), `${path} draws an empty chart`).toHaveCount(0);
+    await page.screenshot({ path: `test-results/new-studio/${path.slice(1).replace(/\//g, "-")}.png`, fullPage: true });
   }
   expect(problems, problems.join("\n")).toEqual([]);
 
