@@ -9,9 +9,9 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import type { ImportResult } from "@/lib/pieces/csv";
 
-async function send(csv: string, commit: boolean): Promise<ImportResult | { message: string }> {
+async function send(csv: string, commit: boolean, sendHandover = false): Promise<ImportResult | { message: string }> {
   try {
-    return await apiJson<ImportResult>("/api/pieces/import", { method: "POST", json: { csv, commit } });
+    return await apiJson<ImportResult>("/api/pieces/import", { method: "POST", json: { csv, commit, sendHandover } });
   } catch (e) {
     if (!isApiError(e)) throw e;
     // Rows with problems come back with a 4xx and the checked rows, shown row by row.
@@ -28,6 +28,7 @@ export function CsvImport({ columns }: { columns: readonly string[] }) {
   const [result, setResult] = useState<ImportResult | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState<null | "checking" | "importing">(null);
+  const [mailBuyers, setMailBuyers] = useState(false);
 
   const pick = async (f: File | undefined) => {
     if (!f) return;
@@ -45,12 +46,14 @@ export function CsvImport({ columns }: { columns: readonly string[] }) {
   const commit = async () => {
     if (!csv) return;
     setBusy("importing");
-    const r = await send(csv, true);
+    const r = await send(csv, true, mailBuyers);
     setBusy(null);
     if ("message" in r) return setError(r.message);
     setResult(r);
     if (r.committed) {
-      toast.success(`${r.created} piece${r.created === 1 ? "" : "s"} imported.`);
+      toast.success(
+        `${r.created} piece${r.created === 1 ? "" : "s"} imported.${r.handover ? ` Hand-over mail sent to ${r.handover.sent} buyer${r.handover.sent === 1 ? "" : "s"}${r.handover.notSent ? `; ${r.handover.notSent} without an e-mail or consent to service mail got none` : ""}.` : ""}`,
+      );
       router.push("/studio/pieces?sort=created");
     }
   };
@@ -64,6 +67,9 @@ export function CsvImport({ columns }: { columns: readonly string[] }) {
         <p>
           One piece per row, with a header row. Columns: <span className="font-mono text-xs">{columns.join(", ")}</span>. Lengths in mm, area in m², volume in mL, dates YYYY-MM-DD. Species by name or alias (“walnut”). The finish stack: layers separated by “;”, each{" "}
           <span className="font-mono text-xs">surface:class:coats:date[:product]</span>, e.g. <span className="font-mono text-xs">top:hardwax_oil:2:2024-05-01</span>. An export from the registry has the same columns.
+        </p>
+        <p className="mt-2">
+          Buyers (optional): <span className="font-mono text-xs">buyer_name, buyer_email, buyer_phone, buyer_service_mail_on</span> (the day they agreed to service mail). A buyer already among your clients is matched by e-mail, then phone; nobody is added twice.
         </p>
         <label className="mt-4 inline-flex min-h-11 cursor-pointer items-center gap-2 rounded-lg bg-resin px-4 font-semibold text-white hover:bg-resin-dark">
           <Upload aria-hidden className="size-4" /> Choose a CSV file
@@ -139,6 +145,12 @@ export function CsvImport({ columns }: { columns: readonly string[] }) {
             </tbody>
           </table>
         </div>
+      ) : null}
+      {result?.ok && !result.committed ? (
+        <label className="flex min-h-11 items-center gap-2 text-sm">
+          <input type="checkbox" checked={mailBuyers} onChange={(e) => setMailBuyers(e.target.checked)} className="size-4" />
+          Send the buyers their hand-over mail now (those with an e-mail who agreed to service mail). Leave it, and send it later from each piece&apos;s page — or never.
+        </label>
       ) : null}
       {result?.ok && !result.committed ? (
         <Button onClick={commit} disabled={busy !== null}>

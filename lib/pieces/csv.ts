@@ -120,7 +120,9 @@ export type ImportResult = {
   errors: ImportError[];
   created: number;
   /** Buyers of the written rows: matched to clients on record, or new clients (lib/clients/import-buyers). */
-  buyers?: { matched: number; created: number };
+  buyers?: { matched: number; created: number; pieceIds: string[] };
+  /** Hand-over mail to the imported buyers, when asked for: sent, and not sent (no e-mail or no consent). */
+  handover?: { sent: number; notSent: number };
 };
 
 const norm = (s: string) => s.trim().toLowerCase().replace(/[\s_-]+/g, " ");
@@ -376,5 +378,5 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
     }
     throw e;
   }
-  return { ok: true, committed: true, rows, errors: [], created: inputs.length, buyers: { matched: tally.matched, created: tally.created } };
+  return { ok: true, committed: true, rows, errors: [], created: inputs.length, buyers: { matched: tally.matched, created: tally.created, pieceIds: tally.pieceIds } };
 }

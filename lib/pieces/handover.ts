@@ -191,6 +191,13 @@ export async function handoverAtDelivery(ctx: StudioContext, pieceId: string, no
   }
 }
 
+/** After an import, when staff asked for it: the hand-over mail to each imported piece's buyer who can get it. */
+export async function handoversAfterImport(ctx: StudioContext, pieceIds: readonly string[], now = new Date()): Promise<{ sent: number; notSent: number }> {
+  let sent = 0;
+  for (const id of pieceIds) if ((await handoverAtDelivery(ctx, id, now)).sent) sent++;
+  return { sent, notSent: pieceIds.length - sent };
+}
+
 // ---- the link, as the buyer meets it ----
 
 export type HandoverLanding =

@@ -145,6 +145,8 @@ export type PieceListQuery = z.output<typeof pieceListQuerySchema>;
 export const importSchema = z.object({
   csv: z.string().min(1, "The file is empty.").max(2_000_000, "The file is larger than 2 MB; split it."),
   commit: z.boolean().default(false),
+  /** Send the imported buyers their hand-over mail once the rows are written (those who can get it). */
+  sendHandover: z.boolean().default(false),
 });
 
 export const catalogProductSchema = z.object({

@@ -39,10 +39,11 @@ import { AppError } from "@/lib/errors";
 import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { importPiecesCsv } from "@/lib/pieces/csv";
-import { sendHandover } from "@/lib/pieces/handover";
+import { handoversAfterImport, sendHandover } from "@/lib/pieces/handover";
 import { storeImage } from "@/lib/storage";
 import { clientListQuerySchema, createClientSchema } from "@/lib/validation/clients";
 import { createAcceptedClaim, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { listMail, waitForMail } from "../support/mail";
 
 const NOW = new Date("2026-11-20T18:00:00Z");
 let ipSeq = 0;
@@ -271,18 +272,43 @@ describe("the piece CSV import's buyer columns", () => {
     // Importing the same buyers again makes no new client.
     const again = importPiecesCsv(staff, { csv, commit: true });
     // (each client counted once per file: Ada, Bo, Cy)
-    expect(again.buyers).toEqual({ matched: 3, created: 0 });
+    expect(again.buyers).toMatchObject({ matched: 3, created: 0 });
+    expect(again.buyers!.pieceIds).toHaveLength(4); // every row with a buyer
     expect(countClients()).toBe(before + 1);
+  });
+
+  it("records a new buyer's service-mail consent from its column, and mails the hand-over to those who can get it when asked", async () => {
+    const { staff } = await studioWith();
+    const yes = `${unique("yes")}@test.example`;
+    const no = `${unique("no")}@test.example`;
+    const csv = [
+      "title,kind,shape,length_mm,width_mm,primary_species,use,delivered_on,finish_stack,buyer_name,buyer_email,buyer_phone,buyer_service_mail_on",
+      `Consented table (invented),dining_table,rectangle,2000,900,black_walnut,heavy,2025-03-01,top:hardwax_oil:2:2025-03-01,Gil Yes (invented),${yes},,2025-03-01`,
+      `Quiet table (invented),dining_table,rectangle,2000,900,black_walnut,heavy,2025-03-01,top:hardwax_oil:2:2025-03-01,Hal No (invented),${no},,`,
+    ].join("\n");
+    const out = importPiecesCsv(staff, { csv, commit: true });
+    expect(out.buyers).toMatchObject({ matched: 0, created: 2 });
+    const gil = getDb().select().from(clients).where(and(eq(clients.studioId, staff.studio.id), eq(clients.email, yes))).get()!;
+    expect(gil.consentService).toBe(true);
+    // Noon of that day in the studio's zone (America/Los_Angeles, PST in March before the change: UTC−8).
+    expect(getDb().select().from(clientConsents).where(eq(clientConsents.clientId, gil.id)).all()).toEqual([
+      expect.objectContaining({ kind: "service", granted: true, source: "imported", givenAt: new Date("2025-03-01T20:00:00Z") }),
+    ]);
+    const before = new Date();
+    expect(await handoversAfterImport(staff, out.buyers!.pieceIds, NOW)).toEqual({ sent: 1, notSent: 1 });
+    await waitForMail({ to: yes, subject: /its care and warranty/, since: before });
+    expect(await listMail({ to: no })).toHaveLength(0);
   });
 
   it("refuses a row whose buyer e-mail or phone can't be read, naming the column, and writes nothing", async () => {
     const { staff } = await studioWith();
-    const csv = [header, row("Bad buyer A (invented)", "Dee,not-an-email,"), row("Bad buyer B (invented)", "Eli,,12")].join("\n");
+    const csv = [`${header},buyer_service_mail_on`, `${row("Bad buyer A (invented)", "Dee,not-an-email,")},`, `${row("Bad buyer B (invented)", "Eli,,12")},`, `${row("Bad buyer C (invented)", "Flo,,")},last spring`].join("\n");
     const out = importPiecesCsv(staff, { csv, commit: true });
     expect(out.committed).toBe(false);
     expect(out.errors.map((e) => [e.row, e.field])).toEqual([
       [2, "buyer_email"],
       [3, "buyer_phone"],
+      [4, "buyer_service_mail_on"],
     ]);
     expect(getDb().select().from(pieces).where(and(eq(pieces.studioId, staff.studio.id))).all()).toHaveLength(0);
   });
