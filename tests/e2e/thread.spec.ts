@@ -90,6 +90,7 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   await repair.getByRole("button", { name: "Create repair job" }).click();
   await expect(desk).toHaveURL(/\/studio\/jobs\/[0-9a-f-]{36}$/);
   const jobId = desk.url().split("/").pop()!;
+  await expect(desk.getByRole("link", { name: "The claim this repair is for" })).toHaveAttribute("href", `/studio/claims/${claimId}`);
   const api = (await (await desk.request.get(`/api/claims/${claimId}`)).json()) as { claim: { jobId: string | null } };
   expect(api.claim.jobId).toBe(jobId);
   // A second job for the same claim is refused.
@@ -183,6 +184,11 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   // The owner: the claim says the repair is done.
   await owner.goto(`/claims/${claimId}`);
   await expect(owner.getByRole("region", { name: "The repair" }).getByText(/^The repair is done, /)).toBeVisible();
+  // Its job page links back to the claim and shows the photo taken at the visit.
+  await owner.getByRole("region", { name: "The repair" }).getByRole("link", { name: "Open the repair" }).click();
+  await expect(owner).toHaveURL(new RegExp(`/jobs/${jobId}$`));
+  await expect(owner.getByRole("link", { name: "The claim this repair is for" })).toHaveAttribute("href", `/claims/${claimId}`);
+  await expect(owner.getByRole("list", { name: "Photos from the visit" }).getByRole("img")).toHaveCount(1);
 
   // The sign-off is the owner's own: the link in the report mail, a page with a button, once.
   const mail = await waitForMail({
