@@ -12,6 +12,8 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatDate, formatInstant, formatTimeLeft } from "@/lib/owner/format";
 import { getMyPiece } from "@/lib/owner/pieces";
+import { visitPhotosOf } from "@/lib/visits/service";
+import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import type { CautionKey } from "@/lib/care/cautions";
 import { exclusionLabel, WARRANTY_STATUS_LABELS, type WarrantyLineStatus } from "@/lib/owner/warranty";
 
@@ -45,6 +47,7 @@ function Section({ id, title, children }: { id: string; title: string; children:
 export default async function OwnerPiecePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const piece = await forPage(async () => getMyPiece(await requireUser(), id));
+  const visitPhotos = visitPhotosOf({ kind: "owner", user: await forPage(requireUser) }, { pieceId: id });
   const wood = piece.species.secondary ? `${piece.species.primary} and ${piece.species.secondary}` : piece.species.primary;
   const facts: [string, string][] = [
     ["Wood", wood],
@@ -281,6 +284,12 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
           </>
         )}
       </Section>
+
+      {visitPhotos.length ? (
+        <Section id="visit-photos" title="Photos from studio visits">
+          <VisitPhotoGrid photos={visitPhotos} label="Photos taken at studio visits" />
+        </Section>
+      ) : null}
 
       <Section id="care-log" title="Care log">
         {piece.careLog.length === 0 ? (
