@@ -5,29 +5,16 @@
 // payment are stood in for by setting the job covered (their own tests are the repair job tests).
 import { and, asc, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
-import { ZodError } from "zod";
 import { getDb } from "@/db/client";
 import { auditLog, claims, repairJobs, users } from "@/db/schema";
 import { createJobFromClaim, getClaim } from "@/lib/claims/service";
 import { ownerViewer, staffViewer } from "@/lib/claims/viewer";
-import { AppError } from "@/lib/errors";
 import { bookVisit, cancelVisit, listJobSlots, submitReport } from "@/lib/visits/service";
 import { createAcceptedClaim, createStudio, memberContext } from "../support/fixtures";
-import { staffActor, visitWorld } from "./visits-helpers";
+import { staffActor, statusOf, visitWorld } from "./visits-helpers";
 
 const HOUR = 3_600_000;
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
-
-async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
-  try {
-    await (typeof p === "function" ? p() : p);
-    return 200;
-  } catch (e) {
-    if (e instanceof AppError) return e.status;
-    if (e instanceof ZodError) return 400;
-    throw e;
-  }
-}
 
 /** A visit world whose piece has an accepted (covered) claim. */
 async function claimThreadWorld() {

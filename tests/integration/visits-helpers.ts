@@ -1,9 +1,11 @@
 // Shared set-up for the visit tests: a studio in America/New_York with a technician, hours, an owner
 // and a paid (or covered) repair job on their piece. Invented, like all test data.
 import type { User } from "lucia";
+import { ZodError } from "zod";
 import { getDb } from "@/db/client";
 import { repairJobs, users, type Studio } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
+import { AppError } from "@/lib/errors";
 import type { VisitActor } from "@/lib/visits/service";
 import { putTechnicianHours } from "@/lib/visits/service";
 import { createPiece, createProduct, createStudio, createUser, memberContext } from "../support/fixtures";
@@ -48,4 +50,16 @@ export async function visitWorld(opts: { timeZone?: string; state?: "paid" | "co
   const job = addJob(studio, piece.id, owner.id, product.id, opts.state ?? "paid");
   putTechnicianHours(staff, tech.user.id, { hours: opts.hours ?? WEEKDAYS_9_TO_5, timeOff: [] });
   return { studio, staff, tech, owner, piece, product, job };
+}
+
+/** The HTTP status a call ends in: 200, an AppError's status, or 400 for a ZodError (what lib/http/route answers for it). */
+export async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
+  try {
+    await (typeof p === "function" ? p() : p);
+    return 200;
+  } catch (e) {
+    if (e instanceof AppError) return e.status;
+    if (e instanceof ZodError) return 400;
+    throw e;
+  }
 }

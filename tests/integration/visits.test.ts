@@ -16,21 +16,10 @@ import { runVisitReminderPass } from "@/lib/visits/reminders";
 import { addVisitPhoto, bookVisit, cancelVisit, getTechnicianHours, listJobSlots, listVisits, moveVisit, putTechnicianHours, submitReport, technicianDay } from "@/lib/visits/service";
 import { createStudio, createUser, memberContext } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
-import { addJob, luciaUser, ownerActor, staffActor, techActor, visitWorld } from "./visits-helpers";
+import { addJob, luciaUser, ownerActor, staffActor, statusOf, techActor, visitWorld } from "./visits-helpers";
 
 const HOUR = 3_600_000;
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
-
-async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
-  try {
-    await (typeof p === "function" ? p() : p);
-    return 200;
-  } catch (e) {
-    if (e instanceof AppError) return e.status;
-    if (e instanceof ZodError) return 400; // what lib/http/route answers for it
-    throw e;
-  }
-}
 
 function local(iso: string, zone = "America/New_York") {
   return DateTime.fromISO(iso, { zone });
