@@ -180,6 +180,8 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   await expect(desk.getByText("Closed").first()).toBeVisible();
   await expect(desk.getByRole("region", { name: "Repair" }).getByText(/Visit done/)).toBeVisible();
   await axe(desk, "staff claim page, closed");
+  await desk.goto(`/studio/pieces/${pieceId}`);
+  await expect(desk.getByRole("list", { name: "Photos taken at visits" }).getByRole("img").first()).toBeVisible();
 
   // The owner: the claim says the repair is done.
   await owner.goto(`/claims/${claimId}`);
@@ -189,6 +191,9 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   await expect(owner).toHaveURL(new RegExp(`/jobs/${jobId}$`));
   await expect(owner.getByRole("link", { name: "The claim this repair is for" })).toHaveAttribute("href", `/claims/${claimId}`);
   await expect(owner.getByRole("list", { name: "Photos from the visit" }).getByRole("img")).toHaveCount(1);
+  // And so does the piece's own page.
+  await owner.goto(`/pieces/${pieceId}`);
+  await expect(owner.getByRole("list", { name: "Photos taken at studio visits" }).getByRole("img").first()).toBeVisible();
 
   // The sign-off is the owner's own: the link in the report mail, a page with a button, once.
   const mail = await waitForMail({
