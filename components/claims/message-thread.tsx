@@ -31,7 +31,7 @@ export function MessageThread({
   canWrite: boolean;
   canAskForInfo?: boolean;
   /** The reader's zone (the studio's for staff, the owner's for owners); times name it. */
-  timeZone?: string;
+  timeZone: string;
 }) {
   const router = useRouter();
   const [askForInfo, setAskForInfo] = useState(false);
@@ -58,7 +58,7 @@ export function MessageThread({
         {messages.map((m) => (
           <li key={m.id} className={cn("max-w-[90%] rounded-xl border p-3", mine(m) ? "ml-auto border-resin/30 bg-resin-soft" : "border-line bg-card")}>
             <p className="text-xs text-muted">
-              {m.fromStudio ? `${m.authorName} · ${studioName}` : `${m.authorName} · owner`} · {formatInstant(new Date(m.createdAt), timeZone ?? "UTC", { time: true })}
+              {m.fromStudio ? `${m.authorName} · ${studioName}` : `${m.authorName} · owner`} · {formatInstant(new Date(m.createdAt), timeZone, { time: true })}
             </p>
             <p className="mt-1 whitespace-pre-wrap break-words">{m.body}</p>
           </li>

@@ -24,7 +24,8 @@ const DECISION_WORDS = {
 
 export default async function OwnerClaimPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const { claim, piece, studio, photos, messages, repair } = await forPage(async () => getOwnerClaim(await requireUser(), id));
+  const user = await forPage(requireUser);
+  const { claim, piece, studio, photos, messages, repair } = await forPage(async () => getOwnerClaim(user, id));
   const open = OPEN_STATES.includes(claim.state);
   return (
     <div className="space-y-6">
@@ -82,7 +83,7 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
         <p className="text-sm text-muted">Noticed {claim.noticedOn}</p>
         <p className="whitespace-pre-wrap">{claim.description}</p>
       </Card>
-      <MessageThread claimId={claim.id} messages={messages} audience="owner" studioName={studio.name} canWrite={claim.state !== "closed"} />
+      <MessageThread claimId={claim.id} messages={messages} audience="owner" studioName={studio.name} timeZone={user.timeZone} canWrite={claim.state !== "closed"} />
     </div>
   );
 }
