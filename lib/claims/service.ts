@@ -6,6 +6,7 @@ import { appendMessage, ownerMayWrite, subjectMessages, threadFor } from "@/lib/
 import {
   careLogEntries,
   claims,
+  clients,
   files,
   finishLayers,
   finishProducts,
@@ -28,7 +29,7 @@ import { formatDate } from "@/lib/owner/format";
 import { createJob } from "@/lib/repairs/jobs";
 import { JOB_STATE_LABELS } from "@/lib/repairs/states";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
-import { formatVisitWhen } from "@/lib/visits/format";
+import { formatVisitWhen, ownerTimeZone } from "@/lib/visits/format";
 import {
   claimDecisionSchema,
   claimListQuerySchema,
@@ -350,8 +351,13 @@ function staffRepair(claimId: string, timeZone: string) {
 function ownerView(claim: Claim) {
   const piece = getDb().select({ id: pieces.id, title: pieces.title }).from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
   const studio = studioOf(claim.studioId);
-  const owner = getDb().select({ timeZone: users.timeZone }).from(users).where(eq(users.id, claim.ownerId)).get();
-  const repair = ownerRepair(claim.id, owner?.timeZone ?? studio.timeZone);
+  const owner = getDb()
+    .select({ timeZone: users.timeZone, clientZone: clients.timeZone })
+    .from(users)
+    .leftJoin(clients, and(eq(clients.userId, users.id), eq(clients.studioId, claim.studioId)))
+    .where(eq(users.id, claim.ownerId))
+    .get();
+  const repair = ownerRepair(claim.id, ownerTimeZone(owner?.timeZone ?? "UTC", owner?.clientZone, studio.timeZone));
   return { view: "owner" as const, claim: { ...claimCore(claim), jobId: repair?.jobId ?? null }, repair, piece, studio: { name: studio.name }, photos: photosOf(claim.id), messages: messagesOf(claim.id) };
 }
 

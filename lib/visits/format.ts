@@ -22,3 +22,12 @@ export function visitDayWord(startMs: number, nowMs: number, timeZone: string): 
   if (day === addDays(today, 1)) return "tomorrow";
   return `on ${new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long", year: "numeric", timeZone }).format(startMs)}`;
 }
+
+/**
+ * The zone an owner reads visit times in: their account's; while they have never set one (still
+ * "UTC", the sign-up default, as the account page reads it), the studio's client record of them, else
+ * the studio's own.
+ */
+export function ownerTimeZone(account: string, client: string | null | undefined, studio: string): string {
+  return account !== "UTC" ? account : (client ?? studio);
+}

@@ -1,8 +1,8 @@
 // Visit mail: the confirmation, change and cancellation invites (each with its .ics), the 24 h
 // reminder and the report summary. No server-only import: the scheduler sends reminders with it.
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { pieces, repairJobs, studios, users, visits, type Visit } from "@/db/schema";
+import { clients, pieces, repairJobs, studios, users, visits, type Visit } from "@/db/schema";
 import { TechnicianVisitEmail } from "@/emails/technician-visit";
 import { VisitInviteEmail } from "@/emails/visit-invite";
 import { VisitReminderEmail } from "@/emails/visit-reminder";
@@ -13,7 +13,7 @@ import { sendMail, sendMailNow } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
 import { ownerActsOnJob } from "@/lib/repairs/owner-reach";
 import { buildInvite, inviteAttachment } from "./ics";
-import { formatVisitWhen, visitDayWord } from "./format";
+import { formatVisitWhen, ownerTimeZone, visitDayWord } from "./format";
 
 export function loadVisitMailView(visitId: string) {
   const db = getDb();
@@ -24,7 +24,15 @@ export function loadVisitMailView(visitId: string) {
   const studio = db.select().from(studios).where(eq(studios.id, visit.studioId)).get()!;
   const technician = db.select({ name: users.name, email: users.email }).from(users).where(eq(users.id, visit.technicianId)).get()!;
   // Visit mail goes to the job's owner only while they hold the piece (lib/repairs/owner-reach).
-  const owner = ownerActsOnJob(job, piece) ? (db.select({ id: users.id, name: users.name, email: users.email, timeZone: users.timeZone }).from(users).where(eq(users.id, job.ownerId!)).get() ?? null) : null;
+  const ownerRow = ownerActsOnJob(job, piece)
+    ? db
+        .select({ id: users.id, name: users.name, email: users.email, timeZone: users.timeZone, clientZone: clients.timeZone })
+        .from(users)
+        .leftJoin(clients, and(eq(clients.userId, users.id), eq(clients.studioId, visit.studioId)))
+        .where(eq(users.id, job.ownerId!))
+        .get()
+    : undefined;
+  const owner = ownerRow ? { id: ownerRow.id, name: ownerRow.name, email: ownerRow.email, timeZone: ownerTimeZone(ownerRow.timeZone, ownerRow.clientZone, studio.timeZone) } : null;
   return { visit, job, piece, studio, technician, owner };
 }
 export type VisitMailView = NonNullable<ReturnType<typeof loadVisitMailView>>;

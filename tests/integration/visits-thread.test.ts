@@ -215,6 +215,16 @@ describe("today, tomorrow or the date, by the owner's own calendar day", () => {
     expect(body.text).toMatch(/your visit is today/i);
     expect(body.text).toContain("(Asia/Tokyo)");
 
+    // An owner who never set a zone (still the sign-up default, UTC) reads the studio's zone, or the
+    // zone on the studio's client record of them.
+    const unset = await bookedThread({ from: "2027-03-14T05:00:00Z", hours, bookAt });
+    const chicago = await bookedThread({ from: "2027-03-14T05:00:00Z", hours, bookAt });
+    getDb().insert(clients).values({ studioId: chicago.studio.id, name: chicago.owner.name, email: chicago.owner.email, userId: chicago.owner.id, timeZone: "America/Chicago" }).run();
+    const sentToo = (await runVisitReminderPass({ now: new Date(dayBefore) })).sent.map((x) => x.visitId);
+    expect(sentToo).toEqual(expect.arrayContaining([unset.visit.id, chicago.visit.id]));
+    expect(await subjects(unset.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 10:00–11:30"]);
+    expect(await subjects(chicago.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 09:00–10:30"]);
+
     // A visit already under way gets no reminder.
     const started = await bookedThread({ from: "2027-03-14T05:00:00Z", hours, bookAt });
     expect(await pass(started, Date.parse(started.visit.start) + 10 * 60_000)).toHaveLength(0);
