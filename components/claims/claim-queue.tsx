@@ -113,7 +113,15 @@ export function ClaimQueue() {
           {data.total === 0 ? "" : `${from}–${to} of ${data.total.toLocaleString()} claim${data.total === 1 ? "" : "s"}`}
         </p>
       ) : null}
-      {data && data.claims.length === 0 ? <p className="rounded-xl border border-line bg-card p-5 text-muted">{urlQ ? `No claims match “${urlQ}” with these filters.` : "No claims match these filters."}</p> : null}
+      {data && data.claims.length === 0 ? (
+        <p className="rounded-xl border border-line bg-card p-5 text-muted">
+          {urlQ
+            ? `No claims match “${urlQ}” with these filters.`
+            : [...params.keys()].some((k) => k !== "sort")
+              ? "No claims match these filters."
+              : "No open claims. When an owner reports damage on one of the studio's pieces, the claim appears here with its photos and a coverage check."}
+        </p>
+      ) : null}
       {data && data.claims.length > 0 ? (
         <ul className="divide-y divide-line overflow-hidden rounded-xl border border-line bg-card" aria-label="Claims">
           {data.claims.map((c) => (

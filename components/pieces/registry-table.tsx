@@ -180,7 +180,7 @@ export function RegistryTable() {
       </form>
 
       <div aria-live="polite" className="text-sm text-muted">
-        {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? "No pieces match." : `${from}–${to} of ${data.totalIsCapped ? `more than ${data.total.toLocaleString()}` : data.total.toLocaleString()} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
+        {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? (filtersOn ? "No pieces match." : null) : `${from}–${to} of ${data.totalIsCapped ? `more than ${data.total.toLocaleString()}` : data.total.toLocaleString()} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
       </div>
 
