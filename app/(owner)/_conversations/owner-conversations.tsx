@@ -53,7 +53,7 @@ export async function PieceConversations({ pieceId, studioName }: { pieceId: str
           return (
             <li key={c.threadId}>
               <Card className="space-y-1">
-                <Link href={c.href} className="font-semibold text-resin underline">
+                <Link href={c.href} className="inline-flex min-h-11 items-center font-semibold text-resin underline">
                   {c.title}
                 </Link>
                 {last ? (
