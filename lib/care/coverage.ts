@@ -17,8 +17,8 @@ import {
 /**
  * The care guide's indoor climate for wooden objects: RH 40–60 %, changing at most about 5 % in 24 h,
  * 15–25 °C (Western Australian Museum, *Conservation and Care of Collections*, 2017, "Wood — preventive
- * conservation", via REFERENCES.md). The temperature change of at most about 4 °C in 24 h is the same
- * source's figure from memory: REFERENCES.md gives only the 15–25 °C range.
+ * conservation", listed in lib/care/SOURCES.md). The temperature change of at most about 4 °C in 24 h is the same
+ * source's figure from memory: the printed excerpt we hold gives only the 15–25 °C range (lib/care/SOURCES.md).
  */
 export const CARE_GUIDE_CLIMATE = { rhMinPct: 40, rhMaxPct: 60, maxDailyRhChangePct: 5, tempMinC: 15, tempMaxC: 25, maxDailyTempChangeC: 4 } as const;
 

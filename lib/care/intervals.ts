@@ -15,7 +15,7 @@ export type UseBand = keyof WearIntervals;
  * *Conserve O Gram* 7/2 (rewax furnished-room furniture every one to four years; published), and the
  * six-month figure for heavily used tables, which is a conservator's post to a mailing list (a
  * Minnesota Historical Society conservator), not a publication of the society. No published
- * renewal interval exists for oil finishes (REFERENCES.md). Every studio overrides these in its catalog.
+ * renewal interval exists for oil finishes (lib/care/SOURCES.md). Every studio overrides these in its catalog.
  */
 export const DEFAULT_WEAR_INTERVALS: Record<FinishClass, WearIntervals> = {
   hardwax_oil: { heavy: 12, moderate: 24, light: 36 }, // from memory, common practice — no published source

@@ -2,7 +2,7 @@ import { CareInputError, requireNonNegative, requirePositive } from "./errors";
 import { productNeeded } from "./quantity";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS, type CareTaskKind } from "./vocabulary";
 
-/** ISO 4217 minor units (decimal places): USD, EUR, GBP, CAD 2; JPY 0 (ISO 4217 list one, via REFERENCES.md). */
+/** ISO 4217 minor units (decimal places): USD, EUR, GBP, CAD 2; JPY 0 (ISO 4217 list one; lib/care/SOURCES.md). */
 export const CURRENCY_EXPONENTS = { USD: 2, EUR: 2, GBP: 2, CAD: 2, JPY: 0 } as const;
 export const CURRENCIES = Object.keys(CURRENCY_EXPONENTS) as (keyof typeof CURRENCY_EXPONENTS)[];
 export type CurrencyCode = keyof typeof CURRENCY_EXPONENTS;

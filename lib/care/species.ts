@@ -9,7 +9,7 @@
 //   - Table 4-3 as printed: S is that row; the printed Table 13-5 row is kept
 //     beside it as a cross-check (tests/reference/movement-wood-handbook.test.ts).
 //   - only Table 13-5 printed: S is derived from the printed coefficients, S = 3000·C / (1 + 20·C).
-//   - a value not in REFERENCES.md is marked "from memory" here, in SOURCES.md and in the test.
+//   - a value not among the printed sources in lib/care/SOURCES.md is marked "from memory" here, in SOURCES.md and in the test.
 // Where the two printed rows describe different woods (the oaks), the larger-moving one is used.
 import { coefficientFromShrinkage, shrinkageFromCoefficient } from "./shrinkage";
 
@@ -125,12 +125,12 @@ export const SPECIES: readonly Species[] = [
   fromTable43("western_redcedar", "Western redcedar", "Thuja plicata", [2.4, 5.0, 6.8], null, {
     aliases: ["western red cedar"],
     fromMemory: true,
-    note: "for outdoor benches; not in REFERENCES.md, so this row is from memory",
+    note: "for outdoor benches; not among the sources listed in lib/care/SOURCES.md, so this row is from memory",
   }),
   fromTable43("eastern_redcedar", "Eastern redcedar", "Juniperus virginiana", [3.1, 4.7, 7.8], null, {
     aliases: ["eastern red cedar", "aromatic cedar"],
     fromMemory: true,
-    note: "not in REFERENCES.md, so this row is from memory",
+    note: "not among the sources listed in lib/care/SOURCES.md, so this row is from memory",
   }),
 ];
 

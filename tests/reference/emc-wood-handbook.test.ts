@@ -25,7 +25,7 @@ describe("EMC against Wood Handbook FPL-GTR-282 (2021) Table 4-2, 70 °F column 
   });
 });
 
-// Table 4-2's other temperature rows (30 °F to 270 °F) are not transcribed in REFERENCES.md, so these
+// Table 4-2's other temperature rows (30 °F to 270 °F) are not in the printed excerpts we hold (lib/care/SOURCES.md), so these
 // cells are Eq. 4-5 worked by hand (FPL-GTR-282, 2021, ch. 4, Eq. 4-5, Simpson 1973), °C form, h = RH/100:
 //   W = 349 + 1.29T + 0.0135T², K = 0.805 + 0.000736T − 0.00000273T²,
 //   K1 = 6.27 − 0.00938T − 0.000303T², K2 = 1.91 + 0.0407T − 0.000293T²,

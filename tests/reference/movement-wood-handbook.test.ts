@@ -5,7 +5,7 @@ import { coefficientFromShrinkage, getSpecies, slabMovement, widthChangeFromShri
 // tangential / volumetric %), Table 13-5 (dimensional-change coefficients per 1 % MC, 6–14 % MC, radial /
 // tangential), Eq. 13-2 and Eq. 13-3 (ch. 13). Values as printed.
 
-// Table 4-3 rows printed in REFERENCES.md: [id, radial, tangential, volumetric].
+// Table 4-3 rows as printed (excerpts listed in lib/care/SOURCES.md): [id, radial, tangential, volumetric].
 const TABLE_4_3: ReadonlyArray<[string, number, number, number]> = [
   ["black_walnut", 5.5, 7.8, 12.8],
   ["black_cherry", 3.7, 7.1, 11.5],
@@ -24,7 +24,7 @@ const TABLE_4_3: ReadonlyArray<[string, number, number, number]> = [
   ["red_alder", 4.4, 7.3, 12.6],
 ];
 
-// Table 13-5 rows printed in REFERENCES.md: [id, C_R, C_T].
+// Table 13-5 rows as printed (excerpts listed in lib/care/SOURCES.md): [id, C_R, C_T].
 const TABLE_13_5: ReadonlyArray<[string, number, number]> = [
   ["black_walnut", 0.0019, 0.00274],
   ["red_oak", 0.00158, 0.00369], // red oak (commercial)
@@ -64,7 +64,7 @@ describe("species rows against the printed tables", () => {
     expect(s.table13_5).toMatchObject({ radial: cr, tangential: ct });
   });
 
-  // Species with no Table 4-3 row in REFERENCES.md move with the shrinkage that gives back the printed
+  // Species with no Table 4-3 row in the printed excerpts we hold move with the shrinkage that gives back the printed
   // coefficient exactly: red oak C_T 0.00369 → S = 3000 × 0.00369 / (1 + 20 × 0.00369) = 11.07 / 1.0738 = 10.309 %.
   it.each(TABLE_13_5.filter(([id]) => !PRINTED_43.has(id)))("%s: moves with Table 13-5's printed %f / %f", (id, cr, ct) => {
     const s = getSpecies(id)!;
