@@ -5,6 +5,7 @@ import type { finishProducts, pieces, Studio } from "@/db/schema";
 import { topArea } from "@/lib/care/area";
 import { quote, quoteProductFromCatalog } from "@/lib/care/quote";
 import { TASK_KIND_BY_FINISH_CLASS } from "@/lib/care/vocabulary";
+import { formatVolume } from "@/lib/owner/format";
 import { topShape, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { priceLines, type JobLine, type LineDraft, type PricedLines, type PricingRules, type StudioTax } from "./lines";
@@ -48,7 +49,9 @@ export function proposeLines(studio: Studio, piece: typeof pieces.$inferSelect, 
         const productId = l.description.slice(0, cut);
         const size = l.description.slice(cut + 2);
         const name = products.find((p) => p.id === productId)?.name ?? productId;
-        out.push({ kind: "materials", source: "catalog", ref: `product:${productId}:${size.replace(" mL", "")}`, description: `${name}, ${size}`, quantity: l.quantity, unit: "container", unitPriceMinor: l.unitPriceMinor });
+        const sizeMl = Number(size.replace(" mL", ""));
+        // The container size in the studio's units (the quote is the studio's document): "4.3 US fl oz (125 mL)".
+        out.push({ kind: "materials", source: "catalog", ref: `product:${productId}:${sizeMl}`, description: `${name}, ${formatVolume(sizeMl, studio.unitSystem)}`, quantity: l.quantity, unit: "container", unitPriceMinor: l.unitPriceMinor });
       }
     }
   }

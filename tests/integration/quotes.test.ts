@@ -201,6 +201,11 @@ describe("a crack claim's repair quote, checkout and receipt", () => {
     const materials = updated.lines.find((l) => l.kind === "materials")!;
     expect(materials).toMatchObject({ source: "catalog", quantity: 2, unit: "container", unitPriceMinor: 1900, amountMinor: 3800 });
     expect(materials.description).toBe("Test hardwax oil (invented), 125 mL");
+    // A studio that works in inches writes the container in US fl oz first: 125 mL ÷ 29.5735295625 mL/fl oz
+    // (NIST Handbook 44, Appendix C) = 4.227 fl oz, shown to 0.1 rounded up.
+    getDb().update(studios).set({ unitSystem: "imperial" }).where(eq(studios.id, studio.id)).run();
+    const imperial = await updateJobQuote({ ...staff, studio: { ...staff.studio, unitSystem: "imperial" } }, job.id, input);
+    expect(imperial.lines.find((l) => l.kind === "materials")!.description).toBe("Test hardwax oil (invented), 4.3 US fl oz (125 mL)");
     // Labour: re-oil 0.5 h + 0.5 h/m² × 1.8 m² = 1.4 h → 1.5 h at 85.00 = 127.50 (lib/care/quote DEFAULT_LABOUR, common practice).
     expect(updated.lines.find((l) => l.kind === "labour")).toMatchObject({ quantity: 1.5, amountMinor: 12750, source: "labour_rate" });
   });
