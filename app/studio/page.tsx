@@ -227,6 +227,7 @@ export default async function StudioOverviewPage() {
             layout="vertical"
             format="money"
             currency={o.revenue.currency}
+            country={ctx.studio.country}
             data={o.revenue.months.map((m) => ({ label: monthLabel(m.month), net: m.netMinor, href: `/studio/reports/revenue?month=${m.month}` }))}
             series={[{ key: "net", name: `Net revenue (${o.revenue.currency})` }]}
           />

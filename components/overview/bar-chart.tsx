@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { Bar, BarChart, CartesianGrid, LabelList, Legend, pattern, patterns, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { formatMinorUnits } from "@/lib/care/quote";
+import { formatMoney } from "@/lib/owner/format";
 
 // Our palette (app/globals.css). Series are told apart by pattern and by their labels too, never by
 // colour alone; every bar carries its value as a label.
@@ -22,6 +22,8 @@ type Props = {
   layout?: "horizontal" | "vertical";
   format?: "count" | "money";
   currency?: string;
+  /** ISO 3166-1 alpha-2 of the studio: money is written its way. */
+  country?: string;
   /** Accessible name of the chart image (the table below carries the numbers). */
   title: string;
   height?: number;
@@ -32,11 +34,11 @@ export function hasBars(data: readonly BarDatum[], series: readonly BarSeries[])
   return data.some((d) => series.some((s) => Number(d[s.key] ?? 0) !== 0));
 }
 
-export function OverviewBarChart({ data, series, layout = "horizontal", format = "count", currency = "USD", title, height }: Props) {
+export function OverviewBarChart({ data, series, layout = "horizontal", format = "count", currency = "USD", country = "US", title, height }: Props) {
   const router = useRouter();
   const fmt = (v: unknown) => {
     const n = typeof v === "number" ? v : Number(v ?? 0);
-    return format === "money" ? formatMinorUnits(Math.round(n), currency) : String(n);
+    return format === "money" ? formatMoney(Math.round(n), currency, country) : String(n);
   };
   const rows = layout === "horizontal";
   const h = height ?? (rows ? Math.max(120, data.length * (series.length > 1 ? 48 : 40) + 40) : 240);

@@ -27,7 +27,7 @@ export function SiteHeader({ nav, userName, context, children }: { nav: NavItem[
     <header className="border-b border-line bg-card/80">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
         <Wordmark />
-        {context ? <span className="hidden text-sm text-muted sm:inline">{context}</span> : null}
+        {context ? <span className="hidden max-w-56 truncate align-middle text-sm text-muted sm:inline-block" title={context}>{context}</span> : null}
         <MainNav items={nav} />
         <div className="ml-auto flex items-center gap-2">
           {children}
