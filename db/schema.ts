@@ -68,6 +68,10 @@ export const studios = sqliteTable("studios", {
     .$type<(typeof REMINDER_STEPS)[number][]>()
     .notNull()
     .default(sql`'["before_14d","due_day","after_30d"]'`),
+  /** Storage key of the studio's logo (re-encoded PNG, lib/storage); null shows the studio's name only. */
+  logoKey: text("logo_key"),
+  /** One of the accent colours in lib/studio/brand.ts (each keeps AA contrast); "default" is Grainward's own. */
+  accent: text("accent").notNull().default("default"),
   createdAt: createdAt(),
 });
 
