@@ -72,6 +72,16 @@ export const studios = sqliteTable("studios", {
   logoKey: text("logo_key"),
   /** One of the accent colours in lib/studio/brand.ts (each keeps AA contrast); "default" is Grainward's own. */
   accent: text("accent").notNull().default("default"),
+  /** The studio's phone number as typed (printed on receipts and in e-mails). */
+  phone: text("phone").notNull().default(""),
+  /** The sender name on the studio's e-mails; empty uses the studio's name. */
+  mailSenderName: text("mail_sender_name").notNull().default(""),
+  /** The studio's own Stripe secret key, sealed with lib/crypto.ts encrypt("stripe-key"); null uses the install's key. */
+  stripeSecretSealed: text("stripe_secret_sealed"),
+  /** When that key last answered a check call (lib/studio/payments.ts). */
+  stripeCheckedAt: integer("stripe_checked_at", { mode: "timestamp_ms" }),
+  /** Set-up steps saved at least once (lib/studio/setup.ts); a skipped step stays out until saved. */
+  setupDone: text("setup_done", { mode: "json" }).$type<string[]>().notNull().default(sql`'[]'`),
   createdAt: createdAt(),
 });
 
