@@ -19,6 +19,8 @@ import {
   VISIT_STATES,
 } from "../lib/care/vocabulary";
 import { CONSENT_KINDS, CONSENT_SOURCES, CONTACT_METHODS } from "../lib/clients/vocabulary";
+import { PLAN_STATES } from "../lib/plans/states";
+import { PLAN_INTERVALS, PLAN_PAID_BY, PLAN_REFUND_RULES, type PlanFit, type PlanIncluded } from "../lib/plans/terms";
 
 // Every studio-owned table carries studioId and every query filters by it.
 // Timestamps are epoch milliseconds (Date in TypeScript); calendar dates are "YYYY-MM-DD" text.
@@ -1102,3 +1104,127 @@ export const pieceHandovers = sqliteTable(
 );
 
 export type PieceHandover = typeof pieceHandovers.$inferSelect;
+
+/**
+ * A care plan a studio sells: one row per version. Changing a template inserts the next version with
+ * the same lineageId and marks the old one superseded; a running plan keeps the version it was bought under.
+ */
+export const planTemplates = sqliteTable(
+  "plan_templates",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    /** Shared by every version of one template (the first version's id). */
+    lineageId: text("lineage_id").notNull(),
+    version: integer("version").notNull().default(1),
+    name: text("name").notNull(),
+    summary: text("summary").notNull().default(""),
+    included: text("included", { mode: "json" }).$type<PlanIncluded>().notNull(),
+    fits: text("fits", { mode: "json" }).$type<PlanFit>().notNull(),
+    /** Price per interval before tax (or including it when the studio's prices include tax), minor units. */
+    priceMinor: integer("price_minor").notNull(),
+    interval: text("interval", { enum: PLAN_INTERVALS }).notNull().default("year"),
+    currency: text("currency").notNull(),
+    refundRule: text("refund_rule", { enum: PLAN_REFUND_RULES }).notNull().default("none"),
+    /** Whether the plan moves with the piece when it changes hands. */
+    transfers: integer("transfers", { mode: "boolean" }).notNull().default(false),
+    /** Offered to owners; a withdrawn template keeps its running plans. */
+    offered: integer("offered", { mode: "boolean" }).notNull().default(true),
+    supersededAt: integer("superseded_at", { mode: "timestamp_ms" }),
+    createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("plan_templates_lineage_version_uq").on(t.lineageId, t.version), index("plan_templates_studio_idx").on(t.studioId)],
+);
+
+/** One piece under one plan template version, for one owner; its state lives in lib/plans/states.ts. */
+export const planSubscriptions = sqliteTable(
+  "plan_subscriptions",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    templateId: text("template_id")
+      .notNull()
+      .references(() => planTemplates.id),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    ownerId: text("owner_id").references(() => users.id, { onDelete: "set null" }),
+    state: text("state", { enum: PLAN_STATES }).notNull().default("awaiting_payment"),
+    paidBy: text("paid_by", { enum: PLAN_PAID_BY }).notNull().default("card"),
+    /** What a staff-started plan was paid with ("bank transfer", "cash at the studio"). */
+    paidByNote: text("paid_by_note").notNull().default(""),
+    stripeCustomerId: text("stripe_customer_id"),
+    stripeSubscriptionId: text("stripe_subscription_id").unique(),
+    checkoutSessionId: text("checkout_session_id").unique(),
+    checkoutUrl: text("checkout_url"),
+    /** Gross amount per interval the plan was bought at (tax as the studio set it then). */
+    amountMinor: integer("amount_minor").notNull(),
+    currency: text("currency").notNull(),
+    periodStart: integer("period_start", { mode: "timestamp_ms" }),
+    periodEnd: integer("period_end", { mode: "timestamp_ms" }),
+    graceEndsAt: integer("grace_ends_at", { mode: "timestamp_ms" }),
+    startedAt: integer("started_at", { mode: "timestamp_ms" }),
+    lapsedAt: integer("lapsed_at", { mode: "timestamp_ms" }),
+    endedAt: integer("ended_at", { mode: "timestamp_ms" }),
+    createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    version: integer("version").notNull().default(0),
+    createdAt: createdAt(),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("plan_subscriptions_studio_idx").on(t.studioId, t.state), index("plan_subscriptions_piece_idx").on(t.pieceId), index("plan_subscriptions_owner_idx").on(t.ownerId)],
+);
+
+/** A plan period's payment (a Stripe invoice, or a staff-recorded payment by other means). */
+export const planInvoices = sqliteTable(
+  "plan_invoices",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    subscriptionId: text("subscription_id")
+      .notNull()
+      .references(() => planSubscriptions.id, { onDelete: "cascade" }),
+    stripeInvoiceId: text("stripe_invoice_id").unique(),
+    status: text("status", { enum: ["paid", "failed"] }).notNull(),
+    amountMinor: integer("amount_minor").notNull(),
+    taxMinor: integer("tax_minor").notNull().default(0),
+    currency: text("currency").notNull(),
+    /** false when the amount or the template version is not the plan's current one (kept, not counted). */
+    counts: integer("counts", { mode: "boolean" }).notNull().default(true),
+    periodStart: integer("period_start", { mode: "timestamp_ms" }),
+    periodEnd: integer("period_end", { mode: "timestamp_ms" }),
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("plan_invoices_studio_idx").on(t.studioId, t.at), index("plan_invoices_subscription_idx").on(t.subscriptionId)],
+);
+
+/** An included visit the scheduler turned into studio work: one per plan and due date. */
+export const planVisits = sqliteTable(
+  "plan_visits",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    subscriptionId: text("subscription_id")
+      .notNull()
+      .references(() => planSubscriptions.id, { onDelete: "cascade" }),
+    dueOn: text("due_on").notNull(),
+    jobId: text("job_id").references(() => repairJobs.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("plan_visits_subscription_due_uq").on(t.subscriptionId, t.dueOn), index("plan_visits_studio_idx").on(t.studioId)],
+);
+
+export type PlanTemplate = typeof planTemplates.$inferSelect;
+export type PlanSubscription = typeof planSubscriptions.$inferSelect;
+export type PlanInvoice = typeof planInvoices.$inferSelect;
