@@ -368,7 +368,8 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
       const e = events.find((x) => x.id === a);
       if (!e) throw new StripeError(404, "invalid_request_error", `No such event: '${a}'`, "id", "resource_missing");
       out = e as unknown as Json;
-    } else throw new StripeError(404, "invalid_request_error", `Unrecognized request URL (${req.method}: /v1/${path.join("/")}).`);
+    } else if (req.method === "GET" && resource === "balance" && !a) out = { object: "balance", livemode: false, available: [], pending: [] };
+    else throw new StripeError(404, "invalid_request_error", `Unrecognized request URL (${req.method}: /v1/${path.join("/")}).`);
     if (idemKey) idempotency.set(idemKey, { body, status: 200, response: out });
     sendJson(res, 200, out);
   }
