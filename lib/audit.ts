@@ -1,4 +1,4 @@
-import "server-only";
+// No server-only import: the inbound mail listener (lib/mail/inbound.ts) runs under tsx and records owners' e-mailed answers.
 import { auditLog } from "@/db/schema";
 import type { Db } from "@/db/client";
 

@@ -12,7 +12,9 @@ import { eq, sql } from "drizzle-orm";
 import { simpleParser, type AddressObject, type ParsedMail } from "mailparser";
 import { SMTPServer } from "smtp-server";
 import { getDb, type Db } from "@/db/client";
-import { studios, threads, unmatchedMail, users, type UNMATCHED_REASONS } from "@/db/schema";
+import { claims, studios, threads, unmatchedMail, users, type UNMATCHED_REASONS } from "@/db/schema";
+import { recordAudit } from "@/lib/audit";
+import { ownerAnswered } from "@/lib/claims/owner-answer";
 import { env } from "@/lib/env";
 import { checkReplyAddress } from "@/lib/messages/reply-address";
 import { appendMessage, ownerMayWrite, subjectOf } from "@/lib/messages/store";
@@ -77,7 +79,18 @@ export function receiveInboundMail(mail: InboundMail, db: Db = getDb()): Inbound
   if (!ownerMayWrite(db, owner.id, subjectOf(thread)) || closedClaim(db, thread.claimId)) return keep("closed", thread.studioId);
   const body = replyText(mail.text);
   if (!body) return keep("empty", thread.studioId);
-  const added = db.transaction((tx) => appendMessage(tx, thread, { author: "owner", authorId: owner.id, body, source: "email", fromEmail: mail.senders.find((s) => lower(s) === lower(owner.email)), emailMessageId: mail.messageId, now: mail.receivedAt }));
+  const added = db.transaction((tx) => {
+    const message = appendMessage(tx, thread, { author: "owner", authorId: owner.id, body, source: "email", fromEmail: mail.senders.find((s) => lower(s) === lower(owner.email)), emailMessageId: mail.messageId, now: mail.receivedAt });
+    if (!message) return null; // the same mail delivered again: nothing more happens
+    // As on the owner's web page (lib/claims/service postClaimMessage): an answer to a claim waiting on
+    // the owner takes it back to the studio's review, recorded the same way.
+    const claim = thread.claimId ? tx.select().from(claims).where(eq(claims.id, thread.claimId)).get() : undefined;
+    const after = claim ? ownerAnswered(tx, claim) : undefined;
+    const moved = claim && after && after.state !== claim.state ? { from: claim.state, to: after.state } : {};
+    const ref = subjectOf(thread);
+    recordAudit(tx, claim ? { studioId: thread.studioId, actorId: owner.id, action: "claim.message", subjectType: "claim", subjectId: claim.id, data: { messageId: message.id, fromStudio: false, via: "email", ...moved } } : { studioId: thread.studioId, actorId: owner.id, action: "thread.message", subjectType: ref.kind, subjectId: ref.id, data: { threadId: thread.id, messageId: message.id, fromStudio: false, via: "email" } });
+    return message;
+  });
   return added ? { kind: "added", threadId: thread.id, messageId: added.id } : { kind: "duplicate", threadId: thread.id };
 }
 

@@ -3,14 +3,14 @@
 // reply mails the owner with the thread's own Reply-To; the owner's e-mailed answer lands in the
 // thread once however often it is delivered; mail that matches no thread is kept; other studios and
 // former owners get 404s. All data is invented.
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import nodemailer from "nodemailer";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { ZodError } from "zod";
 import { getDb } from "@/db/client";
-import { clients, pieces, repairJobs, threadMessages, threads, unmatchedMail } from "@/db/schema";
+import { auditLog, claims, clients, pieces, repairJobs, threadMessages, threads, unmatchedMail } from "@/db/schema";
 import { clientTimeline } from "@/lib/clients/timeline";
-import { decideClaim, getOwnerClaim, transitionClaim } from "@/lib/claims/service";
+import { decideClaim, getOwnerClaim, postClaimMessage, transitionClaim } from "@/lib/claims/service";
 import { AppError } from "@/lib/errors";
 import { startInboundListener, replyText, type InboundListener } from "@/lib/mail/inbound";
 import { checkReplyAddress, replyAddress } from "@/lib/messages/reply-address";
@@ -216,6 +216,32 @@ describe("replies by e-mail through the inbound listener", () => {
     expect(t.thread.state).toBe("unread");
     expect(t.messages.at(-1)).toMatchObject({ author: "owner", source: "email", body: "Thursday at nine is perfect." });
     expect(unreadCount(w.staffCtx)).toBe(1);
+  });
+
+  it("an owner's e-mailed answer to a claim waiting on them takes it back to review, as the web page does; delivered twice, once", async () => {
+    const w = await claimWorld();
+    const claim = await fileClaim(w.ownerV, w.piece.id);
+    transitionClaim(w.staffCtx, claim.id, { to: "in_review" });
+    const since = new Date();
+    const asked = await postClaimMessage(w.staff, claim.id, { body: "Could you send a photo of the glue line in daylight?", requestInfo: true });
+    expect(asked.state).toBe("awaiting_owner");
+    const request = await waitForMail({ to: w.owner.email, since, subject: /needs a little more/ });
+    const replyTo = request.headers["reply-to"]!.match(/reply\+[^>\s,]+/)![0];
+    const version = getDb().select().from(claims).where(eq(claims.id, claim.id)).get()!.version;
+
+    const reply = { from: w.owner.email, to: replyTo, text: "It opened a little more; photo to follow. (invented)\n\n> Could you send a photo?", messageId: `<answer-${claim.id}@owner-mail.test.example>` };
+    await sendToListener(reply);
+    await sendToListener(reply);
+    const after = getDb().select().from(claims).where(eq(claims.id, claim.id)).get()!;
+    expect(after.state).toBe("in_review");
+    expect(after.version).toBe(version + 1); // one move, not two
+    expect(getOwnerClaim(w.owner, claim.id).messages.filter((m) => m.body === "It opened a little more; photo to follow. (invented)")).toHaveLength(1);
+    const audits = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, claim.id), eq(auditLog.action, "claim.message"))).all().filter((a) => (a.data as { via?: string }).via === "email");
+    expect(audits).toHaveLength(1);
+    expect(audits[0]!.data).toMatchObject({ from: "awaiting_owner", to: "in_review", fromStudio: false });
+    // The same move the web page makes: staff can decide it now, and a second e-mail moves nothing.
+    await sendToListener({ ...reply, text: "One more thing (invented).", messageId: `<answer2-${claim.id}@owner-mail.test.example>` });
+    expect(getDb().select().from(claims).where(eq(claims.id, claim.id)).get()!).toMatchObject({ state: "in_review", version: version + 1 });
   });
 
   it("the reply to the mail the owner actually received lands in its thread", async () => {
