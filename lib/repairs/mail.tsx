@@ -8,6 +8,7 @@ import { RefundIssuedEmail } from "@/emails/refund-issued";
 import { studioRecipients } from "@/lib/claims/mail";
 import { env } from "@/lib/env";
 import { sendMail } from "@/lib/mail";
+import { replyToFor } from "@/lib/messages/store";
 import { formatInstant, formatMoney } from "@/lib/owner/format";
 import { jobFigures } from "./figures";
 import { getOwnerJob, type JobView } from "./jobs";
@@ -32,6 +33,8 @@ export function quoteFigures(job: JobView["job"], studio: JobView["studio"]) {
     taxNumber: f.taxNumber,
   };
 }
+/** An owner's answer by e-mail lands in the job's conversation (lib/messages, lib/mail/inbound.ts). */
+const jobReplyTo = (jobId: string) => replyToFor(getDb(), { kind: "job", id: jobId });
 const staffJobUrl = (jobId: string) => new URL(`/studio/jobs/${jobId}`, env.APP_URL).href;
 
 /** The job as its owner sees it, or null when the piece has no registered owner any more. */
@@ -50,6 +53,7 @@ export async function mailReceipt(paymentId: string) {
   await sendMail({
     studioId: view.studio.id,
     to: view.owner.email,
+    replyTo: jobReplyTo(payment.jobId),
     subject: `Receipt from ${view.studio.name}: ${money(payment.amountMinor)}`,
     email: PaymentReceiptEmail({
       ownerName: view.owner.name,
@@ -74,6 +78,7 @@ export async function mailRefundIssued(payment: Payment, amountMinor: number) {
   await sendMail({
     studioId: view.studio.id,
     to: view.owner.email,
+    replyTo: jobReplyTo(payment.jobId),
     subject: `Refund from ${view.studio.name}`,
     email: RefundIssuedEmail({ ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, amount: formatMoney(amountMinor, payment.currency, view.studio.country) }),
   });
@@ -87,6 +92,7 @@ export async function mailAutomaticRefund(payment: Payment, reason: AutomaticRef
   await sendMail({
     studioId: view.studio.id,
     to: view.owner.email,
+    replyTo: jobReplyTo(payment.jobId),
     subject: paymentRefundedAutomaticallySubject({ audience: "owner", ...common }),
     email: <PaymentRefundedAutomaticallyEmail audience="owner" url={jobUrl(payment.jobId)} {...common} />,
   });

@@ -164,6 +164,7 @@ export async function sendVisitReminder(v: VisitMailView, nowMs: number): Promis
   return sendMailNow({
     studioId: v.studio.id,
     to: v.owner!.email,
+    replyTo: replyToFor(getDb(), { kind: "visit", id: v.visit.id }),
     subject: `${dayWord[0]!.toUpperCase()}${dayWord.slice(1)}: your visit, ${when}`,
     email: VisitReminderEmail({
       dayWord,
@@ -180,6 +181,6 @@ export async function sendVisitReminder(v: VisitMailView, nowMs: number): Promis
   });
 }
 
-export async function sendVisitSummary(studioId: string, to: string, props: VisitSummaryEmailProps) {
-  return sendMail({ studioId, to, subject: `Visit report: ${props.pieceTitle}`, email: VisitSummaryEmail(props) });
+export async function sendVisitSummary({ studioId, visitId }: { studioId: string; visitId: string }, to: string, props: VisitSummaryEmailProps) {
+  return sendMail({ studioId, to, replyTo: replyToFor(getDb(), { kind: "visit", id: visitId }), subject: `Visit report: ${props.pieceTitle}`, email: VisitSummaryEmail(props) });
 }

@@ -675,7 +675,7 @@ export async function submitReport(ctx: StudioContext, visitId: string, raw: unk
     const products = studioProducts(studio.id);
     const SURFACE_WORDS = { top: "top", base: "base", edges: "edges", whole_piece: "whole piece" } as const;
     await mailAfterCommit("visit summary", () =>
-      sendVisitSummary(studio.id, owner.email, {
+      sendVisitSummary({ studioId: studio.id, visitId: visit.id }, owner.email, {
         ownerName: owner.name,
         studioName: studio.name,
         pieceTitle: piece.title,
