@@ -7,6 +7,7 @@
 import { createHmac, randomBytes } from "node:crypto";
 import http from "node:http";
 import type { AddressInfo } from "node:net";
+import { createSubscriptionBilling, type FakeInvoice, type FakeSubscription } from "./stripe-fake-subscriptions";
 
 export const SUCCESS_CARD = "4242424242424242";
 export const DECLINE_CARD = "4000000000000002";
@@ -16,13 +17,13 @@ type Json = Record<string, unknown>;
 export type FakeSession = {
   id: string;
   object: "checkout.session";
-  mode: "payment";
+  mode: "payment" | "subscription";
   status: "open" | "complete" | "expired";
   payment_status: "unpaid" | "paid";
   amount_total: number;
   amount_subtotal: number;
   currency: string;
-  line_items: { name: string; unit_amount: number; quantity: number }[];
+  line_items: { name: string; unit_amount: number; quantity: number; price?: string }[];
   metadata: Record<string, string>;
   client_reference_id: string | null;
   customer_email: string | null;
@@ -30,6 +31,10 @@ export type FakeSession = {
   cancel_url: string | null;
   url: string | null;
   payment_intent: string | null;
+  /** Subscription mode: the customer and subscription made when the session is paid. */
+  customer: string | null;
+  subscription: string | null;
+  subscription_data: Json;
   created: number;
   expires_at: number;
   livemode: false;
@@ -57,6 +62,8 @@ export type StripeFake = {
   /** Every captured charge with what has been refunded of it: the money that really moved. */
   charges(): FakeCharge[];
   events(): FakeEvent[];
+  subscriptions(): FakeSubscription[];
+  invoices(): FakeInvoice[];
   deliveries(): Delivery[];
   /** Sends an event to the webhook again, as Stripe's "resend" does. */
   redeliver(eventId: string): Promise<number | null>;
@@ -178,14 +185,25 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     return event;
   }
 
+  const billing = createSubscriptionBilling({
+    id,
+    now,
+    emit,
+    fail: (status, message, param) => {
+      throw new StripeError(status, "invalid_request_error", message, param, status === 404 ? "resource_missing" : undefined);
+    },
+  });
+
   function createSession(params: Json): FakeSession {
     const mode = requireString(params, "mode");
-    if (mode !== "payment") throw new StripeError(400, "invalid_request_error", "This fake supports mode=payment only.", "mode");
+    if (mode !== "payment" && mode !== "subscription") throw new StripeError(400, "invalid_request_error", "This fake supports mode=payment and mode=subscription.", "mode");
     const successUrl = requireString(params, "success_url");
     const items = params.line_items;
     if (!Array.isArray(items) || items.length === 0) throw new StripeError(400, "invalid_request_error", "Missing required param: line_items.", "line_items", "parameter_missing");
     let currency: string | undefined;
-    const lineItems = items.map((raw, i) => {
+    const recurring = mode === "subscription" ? billing.sessionLines(items) : null;
+    if (recurring) currency = recurring.currency;
+    const lineItems = recurring ? recurring.lines : items.map((raw, i) => {
       const item = raw as Json;
       const price = item.price_data as Json | undefined;
       if (!price) throw new StripeError(400, "invalid_request_error", `Missing required param: line_items[${i}][price_data].`, `line_items[${i}][price_data]`, "parameter_missing");
@@ -210,7 +228,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     const session: FakeSession = {
       id: sessionId,
       object: "checkout.session",
-      mode: "payment",
+      mode,
       status: "open",
       payment_status: "unpaid",
       amount_total: total,
@@ -224,6 +242,9 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
       cancel_url: typeof params.cancel_url === "string" ? params.cancel_url : null,
       url: `${baseUrl}/pay/${sessionId}`,
       payment_intent: null,
+      customer: typeof params.customer === "string" ? params.customer : null,
+      subscription: null,
+      subscription_data: (params.subscription_data as Json | undefined) ?? {},
       created: now(),
       expires_at: params.expires_at ? requireInteger(params.expires_at, "expires_at") : now() + 24 * 3600,
       livemode: false,
@@ -233,7 +254,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   }
 
   function publicSession(s: FakeSession): Json {
-    const { line_items: _items, ...rest } = s;
+    const { line_items: _items, subscription_data: _data, ...rest } = s;
     return rest;
   }
 
@@ -260,6 +281,16 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   }
 
   function pay(s: FakeSession) {
+    if (s.mode === "subscription") {
+      const started = billing.startFromSession(s);
+      s.customer = started.customer;
+      s.subscription = started.subscription;
+      s.status = "complete";
+      s.payment_status = "paid";
+      s.url = null;
+      emit("checkout.session.completed", publicSession(s));
+      return;
+    }
     const pi = id("pi");
     const charge = { id: id("ch"), payment_intent: pi, amount: s.amount_total, amount_refunded: 0, currency: s.currency };
     charges.set(pi, charge);
@@ -338,7 +369,7 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
 
   async function handleApi(req: http.IncomingMessage, res: http.ServerResponse, path: string[]) {
     checkKey(req);
-    const body = req.method === "POST" ? await readBody(req) : "";
+    const body = req.method === "POST" || req.method === "DELETE" ? await readBody(req) : "";
     const key = req.headers["idempotency-key"];
     const idemKey = typeof key === "string" ? `${path.join("/")}:${key}` : null;
     if (idemKey) {
@@ -369,7 +400,11 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
       if (!e) throw new StripeError(404, "invalid_request_error", `No such event: '${a}'`, "id", "resource_missing");
       out = e as unknown as Json;
     } else if (req.method === "GET" && resource === "balance" && !a) out = { object: "balance", livemode: false, available: [], pending: [] };
-    else throw new StripeError(404, "invalid_request_error", `Unrecognized request URL (${req.method}: /v1/${path.join("/")}).`);
+    else {
+      const recurring = billing.handle(req.method ?? "GET", path, params);
+      if (!recurring) throw new StripeError(404, "invalid_request_error", `Unrecognized request URL (${req.method}: /v1/${path.join("/")}).`);
+      out = recurring;
+    }
     if (idemKey) idempotency.set(idemKey, { body, status: 200, response: out });
     sendJson(res, 200, out);
   }
@@ -379,6 +414,11 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
     const path = url.pathname.split("/").filter(Boolean);
     try {
       if (path[0] === "v1") return await handleApi(req, res, path.slice(1));
+      // Fake-only test knob (no such endpoint at Stripe): renew, settle or lapse a subscription.
+      if (path[0] === "_test" && req.method === "POST") {
+        checkKey(req);
+        return sendJson(res, 200, billing.knob(path.slice(1), parseStripeForm(await readBody(req))));
+      }
       if (path[0] === "pay" && path[1]) {
         const s = session(path[1]);
         if (req.method === "POST" && path[2] === "cancel") {
@@ -432,6 +472,8 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
     sessions: () => [...sessions.values()],
     charges: () => [...charges.values()].map((c) => ({ ...c })),
     events: () => [...events],
+    subscriptions: () => billing.subscriptions(),
+    invoices: () => billing.invoices(),
     deliveries: () => [...deliveries],
     redeliver: async (eventId) => {
       const e = events.find((x) => x.id === eventId);
