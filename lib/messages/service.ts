@@ -5,7 +5,7 @@ import { getDb } from "@/db/client";
 import { claims, memberships, pieces, repairJobs, studios, threadMessages, threads, unmatchedMail, users, visits, type Thread } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
-import { postClaimMessage } from "@/lib/claims/service";
+import { postClaimMessage } from "@/lib/claims/reply";
 import { ownerViewer, staffViewer } from "@/lib/claims/viewer";
 import { notFound, unprocessable } from "@/lib/errors";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";

@@ -6,7 +6,7 @@ import { and, eq, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { pieces, repairJobs, studios, visits, type Visit, type VisitRulesRow } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
-import { followJob } from "@/lib/claims/service";
+import { followJob } from "@/lib/claims/follow-job";
 import type { VisitLocation } from "@/lib/care/vocabulary";
 import { badRequest, conflict, notFound } from "@/lib/errors";
 import { moveJob } from "@/lib/repairs/jobs";

@@ -7,7 +7,7 @@ import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { claims } from "@/db/schema";
-import { getStaffClaim } from "@/lib/claims/service";
+import { getStaffClaim } from "@/lib/claims/view-claim";
 import { claimWorld, fileClaim, NO_ANSWERS, todayUtc } from "./claims-helpers";
 
 const daysAgo = (n: number) => new Date(Date.parse(`${todayUtc()}T00:00:00Z`) - n * 86_400_000).toISOString().slice(0, 10);

@@ -5,10 +5,13 @@ import sharp from "sharp";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { claims, memberships, ownerships, type Piece, type Studio } from "@/db/schema";
-import { createClaim } from "@/lib/claims/service";
+import { createClaim } from "@/lib/claims/file-claim";
 import { ownerViewer, staffViewer, type ClaimViewer } from "@/lib/claims/viewer";
 import type { ClaimState } from "@/lib/claims/states";
-import type { CreateClaimInput } from "@/lib/validation/claims";
+import { decideClaim } from "@/lib/claims/decide-claim";
+import { listStudioClaims } from "@/lib/claims/list";
+import type { StudioContext } from "@/lib/auth/guards";
+import { claimDecisionSchema, claimListQuerySchema, createClaimSchema, type ClaimDecisionInput, type CreateClaimInput } from "@/lib/validation/claims";
 import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
 
 export const NO_ANSWERS: CreateClaimInput["answers"] = { heat: "no", chemicals: "no", impact: "no", usedOutdoors: "no", directSun: "no" };
@@ -29,7 +32,8 @@ export async function claimWorld(opts: { piece?: Partial<Piece>; studio?: Partia
 }
 
 export async function fileClaim(viewer: ClaimViewer, pieceId: string, over: Partial<CreateClaimInput> = {}) {
-  return createClaim(viewer, {
+  // As POST /api/claims does: the form's values parsed once by the route's schema (°F readings become °C).
+  const input = createClaimSchema.parse({
     pieceId,
     category: "crack_gap",
     noticedOn: todayUtc(),
@@ -37,6 +41,17 @@ export async function fileClaim(viewer: ClaimViewer, pieceId: string, over: Part
     answers: { ...NO_ANSWERS, room: { unit: "C", driestTemp: 20, driestRh: 45, dampestTemp: 22, dampestRh: 55 } },
     ...over,
   });
+  return createClaim(viewer, input);
+}
+
+/** As POST /api/claims/[id]/decision does: the body parsed by the route's schema, then the decision. */
+export async function decide(ctx: StudioContext, claimId: string, body: ClaimDecisionInput) {
+  return decideClaim(ctx, claimId, claimDecisionSchema.parse(body));
+}
+
+/** As GET /api/claims does for staff: the query string parsed by the route's schema, then the queue. */
+export function listQueue(ctx: StudioContext, query: Record<string, string>, now?: number) {
+  return listStudioClaims(ctx, claimListQuerySchema.parse(query), now);
 }
 
 /** Puts a claim into a state directly, as if it had got there by the legal path. */

@@ -9,7 +9,11 @@ import { auditLog, careLogEntries, claims, files, finishLayers, ownerships, user
 import { checkCoverage, DEFAULT_WARRANTY_POLICY, type WarrantyPolicy } from "@/lib/care/coverage";
 import { addMonths } from "@/lib/care/dates";
 import { CLAIM_STATES } from "@/db/schema";
-import { addClaimPhoto, decideClaim, getClaim, getOwnerClaim, getStaffClaim, listOwnerClaims, listStudioClaims, postClaimMessage, transitionClaim, type StaffClaimView } from "@/lib/claims/service";
+import { addClaimPhoto } from "@/lib/claims/photos";
+import { getClaim, getOwnerClaim, getStaffClaim, type StaffClaimView } from "@/lib/claims/view-claim";
+import { listOwnerClaims } from "@/lib/claims/list";
+import { postClaimMessage } from "@/lib/claims/reply";
+import { transitionClaim } from "@/lib/claims/transition";
 import { allStatePairs, CLAIM_TRANSITIONS, type ClaimState } from "@/lib/claims/states";
 import { ownerViewer } from "@/lib/claims/viewer";
 import { AppError } from "@/lib/errors";
@@ -17,7 +21,7 @@ import { canViewFile, getFileForViewer } from "@/lib/files/access";
 import { storeImage } from "@/lib/storage";
 import { createPiece, createUser } from "../support/fixtures";
 import { extractLinks, getMail, waitForMail } from "../support/mail";
-import { addMember, claimWorld, fileClaim, forceState, NO_ANSWERS, otherOwner, otherStudioStaff, photoJpeg, todayUtc } from "./claims-helpers";
+import { addMember, claimWorld, decide, fileClaim, listQueue, forceState, NO_ANSWERS, otherOwner, otherStudioStaff, photoJpeg, todayUtc } from "./claims-helpers";
 
 async function status(p: Promise<unknown> | (() => unknown)): Promise<number> {
   try {
@@ -44,8 +48,8 @@ describe("claim state machine", () => {
 
   /** Drives one (from → to) through the function the product uses for it. */
   async function attempt(w: Awaited<ReturnType<typeof claimWorld>>, claimId: string, to: ClaimState) {
-    if (to === "accepted") return decideClaim(w.staffCtx, claimId, { decision: "covered", reason: "" });
-    if (to === "declined") return decideClaim(w.staffCtx, claimId, { decision: "declined", reason: "Heat marks are not covered (test)." });
+    if (to === "accepted") return decide(w.staffCtx, claimId, { decision: "covered", reason: "" });
+    if (to === "declined") return decide(w.staffCtx, claimId, { decision: "declined", reason: "Heat marks are not covered (test)." });
     if (to === "awaiting_owner") return postClaimMessage(w.staff, claimId, { body: "Could you send a photo of the underside?", requestInfo: true });
     return transitionClaim(w.staffCtx, claimId, { to });
   }
@@ -90,8 +94,8 @@ describe("claim state machine", () => {
     const claim = await fileClaim(w.ownerV, w.piece.id);
     const started = transitionClaim(w.staffCtx, claim.id, { to: "in_review" });
     const results = await Promise.allSettled([
-      decideClaim(w.staffCtx, claim.id, { decision: "covered", reason: "", expectedVersion: started.version }),
-      decideClaim(second, claim.id, { decision: "declined", reason: "Impact damage (test).", expectedVersion: started.version }),
+      decide(w.staffCtx, claim.id, { decision: "covered", reason: "", expectedVersion: started.version }),
+      decide(second, claim.id, { decision: "declined", reason: "Impact damage (test).", expectedVersion: started.version }),
     ]);
     expect(results.filter((r) => r.status === "fulfilled")).toHaveLength(1);
     const rejected = results.filter((r): r is PromiseRejectedResult => r.status === "rejected");
@@ -109,16 +113,16 @@ describe("claim state machine", () => {
     const v1 = transitionClaim(w.staffCtx, claim.id, { to: "in_review" }).version;
     await postClaimMessage(w.staff, claim.id, { body: "A question", requestInfo: true });
     transitionClaim(w.staffCtx, claim.id, { to: "in_review" });
-    expect(await status(decideClaim(w.staffCtx, claim.id, { decision: "covered", reason: "", expectedVersion: v1 }))).toBe(409);
+    expect(await status(decide(w.staffCtx, claim.id, { decision: "covered", reason: "", expectedVersion: v1 }))).toBe(409);
   });
 
   it("decision input is checked: partly covered needs a share, declined needs a reason", async () => {
     const w = await claimWorld();
     const claim = await fileClaim(w.ownerV, w.piece.id);
     transitionClaim(w.staffCtx, claim.id, { to: "in_review" });
-    await expect(decideClaim(w.staffCtx, claim.id, { decision: "partly_covered", reason: "" })).rejects.toThrow();
-    await expect(decideClaim(w.staffCtx, claim.id, { decision: "declined", reason: "" })).rejects.toThrow();
-    const ok = await decideClaim(w.staffCtx, claim.id, { decision: "partly_covered", coveredPct: 60, reason: "Room was dry." });
+    await expect(decide(w.staffCtx, claim.id, { decision: "partly_covered", reason: "" })).rejects.toThrow();
+    await expect(decide(w.staffCtx, claim.id, { decision: "declined", reason: "" })).rejects.toThrow();
+    const ok = await decide(w.staffCtx, claim.id, { decision: "partly_covered", coveredPct: 60, reason: "Room was dry." });
     expect(ok).toMatchObject({ state: "accepted", decision: "partly_covered", coveredPct: 60 });
   });
 });
@@ -146,9 +150,9 @@ describe("claim authorization", () => {
       }
     }
     expect(await status(() => getStaffClaim(rival.staff!, claim.id))).toBe(404);
-    expect(await status(decideClaim(rival.staff!, claim.id, { decision: "covered", reason: "" }))).toBe(404);
+    expect(await status(decide(rival.staff!, claim.id, { decision: "covered", reason: "" }))).toBe(404);
     expect(await status(() => transitionClaim(rival.staff!, claim.id, { to: "in_review" }))).toBe(404);
-    expect(listStudioClaims(rival.staff!, {}).claims.map((c) => c.id)).not.toContain(claim.id);
+    expect(listQueue(rival.staff!, {}).claims.map((c) => c.id)).not.toContain(claim.id);
     expect(listOwnerClaims(stranger.user).map((c) => c.id)).not.toContain(claim.id);
     // The owner and the studio's staff do see them.
     expect(getClaim(w.ownerV, claim.id).view).toBe("owner");
@@ -300,7 +304,7 @@ describe("the coverage check beside each claim", () => {
     const w = await claimWorld({ piece: { deliveredOn: monthsAgo(30) } });
     const claim = await fileClaim(w.ownerV, w.piece.id);
     transitionClaim(w.staffCtx, claim.id, { to: "in_review" });
-    await decideClaim(w.staffCtx, claim.id, { decision: "chargeable", reason: "Outside the term; we can repair it at cost." });
+    await decide(w.staffCtx, claim.id, { decision: "chargeable", reason: "Outside the term; we can repair it at cost." });
     const row = getDb().select().from(claims).where(eq(claims.id, claim.id)).get()!;
     expect(row).toMatchObject({ state: "accepted", decision: "chargeable", coveredPct: 0, decidedById: w.staffCtx.user.id });
     expect(row.suggestion).toMatchObject({ suggestion: "not_covered", suggestedCoveredPct: 0 });
@@ -325,7 +329,7 @@ describe("the triage queue", () => {
     set(c.id, 0.5);
     transitionClaim(w.staffCtx, b.id, { to: "in_review" });
     await postClaimMessage(w.staff, b.id, { body: "Thanks, looking at it." });
-    const ids = (q: Record<string, string>) => listStudioClaims(w.staffCtx, q, now).claims.map((r) => r.id);
+    const ids = (q: Record<string, string>) => listQueue(w.staffCtx, q, now).claims.map((r) => r.id);
     expect(ids({})).toEqual([a.id, b.id, c.id]);
     expect(ids({ sort: "newest" })).toEqual([c.id, b.id, a.id]);
     expect(ids({ state: "in_review" })).toEqual([b.id]);
@@ -334,14 +338,14 @@ describe("the triage queue", () => {
     expect(ids({ age: "2_to_7d" })).toEqual([b.id]);
     expect(ids({ age: "under_2d" })).toEqual([c.id]);
     expect(ids({ pieceId: second.id })).toEqual([b.id]);
-    const rows = listStudioClaims(w.staffCtx, {}, now).claims;
+    const rows = listQueue(w.staffCtx, {}, now).claims;
     const rowA = rows.find((r) => r.id === a.id)!;
     expect(rowA.answered).toBe(false);
     expect(Math.round(rowA.waitMs / 86_400_000)).toBe(10);
     const rowB = rows.find((r) => r.id === b.id)!;
     expect(rowB.answered).toBe(true);
     expect(rowB.waitMs).toBeGreaterThan(2.9 * 86_400_000);
-    expect(await status(() => listStudioClaims(w.staffCtx, { state: "nonsense" }))).toBe(400);
+    expect(await status(() => listQueue(w.staffCtx, { state: "nonsense" }))).toBe(400);
   });
 });
 
@@ -353,7 +357,7 @@ describe("searching and paging the triage queue", () => {
     const a = await fileClaim(w.ownerV, w.piece.id);
     const b = await fileClaim(w.ownerV, underscored.id);
     const c = await fileClaim(w.ownerV, plain.id);
-    const ids = (q: Record<string, string>) => listStudioClaims(w.staffCtx, { state: "all", ...q }).claims.map((r) => r.id).sort();
+    const ids = (q: Record<string, string>) => listQueue(w.staffCtx, { state: "all", ...q }).claims.map((r) => r.id).sort();
     expect(ids({ q: "WALNUT" })).toEqual([a.id]);
     expect(ids({ q: "%" })).toEqual([a.id]); // not "anything"
     expect(ids({ q: "oak_" })).toEqual([b.id]); // not "oak" and any one character
@@ -362,22 +366,22 @@ describe("searching and paging the triage queue", () => {
     expect(ids({ q: w.owner.email.toUpperCase() })).toHaveLength(3);
     expect(ids({ q: "nothing like this" })).toEqual([]);
     const rival = await claimWorld();
-    expect(listStudioClaims(rival.staffCtx, { state: "all", q: "walnut" }).claims).toEqual([]);
-    expect(listStudioClaims(rival.staffCtx, { state: "all", q: w.owner.email }).claims).toEqual([]);
+    expect(listQueue(rival.staffCtx, { state: "all", q: "walnut" }).claims).toEqual([]);
+    expect(listQueue(rival.staffCtx, { state: "all", q: w.owner.email }).claims).toEqual([]);
 
     // 53 more claims: 56 in all, two pages, every claim once, oldest first.
     const base = getDb().select().from(claims).where(eq(claims.id, c.id)).get()!;
     const t0 = Date.now() - 60 * 86_400_000;
     for (let i = 0; i < 53; i++) getDb().insert(claims).values({ ...base, id: `bulk-${i}-${c.id}`, createdAt: new Date(t0 + i * 60_000) }).run();
-    const p1 = listStudioClaims(w.staffCtx, { state: "all" });
-    const p2 = listStudioClaims(w.staffCtx, { state: "all", page: "2" });
+    const p1 = listQueue(w.staffCtx, { state: "all" });
+    const p2 = listQueue(w.staffCtx, { state: "all", page: "2" });
     expect([p1.total, p1.claims.length, p2.total, p2.claims.length, p2.pageSize]).toEqual([56, 50, 56, 6, 50]);
     expect(new Set([...p1.claims, ...p2.claims].map((r) => r.id)).size).toBe(56);
     expect(p1.claims[0]!.id).toBe("bulk-0-" + c.id);
-    expect(listStudioClaims(w.staffCtx, { state: "all", page: "3" }).claims).toEqual([]);
-    expect(listStudioClaims(w.staffCtx, { state: "all", q: "oak", page: "2" })).toMatchObject({ total: 55, claims: expect.any(Array) as unknown });
-    expect(await status(() => listStudioClaims(w.staffCtx, { page: "0" }))).toBe(400);
-    expect(await status(() => listStudioClaims(w.staffCtx, { q: "x".repeat(101) }))).toBe(400);
+    expect(listQueue(w.staffCtx, { state: "all", page: "3" }).claims).toEqual([]);
+    expect(listQueue(w.staffCtx, { state: "all", q: "oak", page: "2" })).toMatchObject({ total: 55, claims: expect.any(Array) as unknown });
+    expect(await status(() => listQueue(w.staffCtx, { page: "0" }))).toBe(400);
+    expect(await status(() => listQueue(w.staffCtx, { q: "x".repeat(101) }))).toBe(400);
   });
 });
 
@@ -400,7 +404,7 @@ describe("claim mail", () => {
     const reply = await waitForMail({ to: w.studio.email, subject: /^Reply from/, since });
     expect(reply.text).toContain("as wide as a coin edge");
 
-    await decideClaim(w.staffCtx, claim.id, { decision: "partly_covered", coveredPct: 50, reason: "The room ran dry in winter." });
+    await decide(w.staffCtx, claim.id, { decision: "partly_covered", coveredPct: 50, reason: "The room ran dry in winter." });
     const decision = await waitForMail({ to: w.owner.email, subject: /has decided your claim/, since });
     expect(decision.text).toContain("50 %");
     expect(decision.text).toContain("The room ran dry in winter.");

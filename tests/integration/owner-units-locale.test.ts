@@ -4,7 +4,7 @@
 // piece page) and claimFormContext (the claim form's °F/°C). Real SQLite file. 1 in = 25.4 mm (NIST HB 44, App. C).
 import { describe, expect, it } from "vitest";
 import { getLucia } from "@/lib/auth/lucia";
-import { claimFormContext } from "@/lib/claims/service";
+import { claimFormContext } from "@/lib/claims/file-claim";
 import { getMyPiece } from "@/lib/owner/pieces";
 import { updatePreferences } from "@/lib/owner/preferences";
 import { registerPiece } from "@/lib/owner/registration";

@@ -5,7 +5,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
-import { ownerClaimsOverview } from "@/lib/claims/service";
+import { ownerClaimsOverview } from "@/lib/claims/list";
 
 export const metadata: Metadata = { title: "My claims" };
 export const dynamic = "force-dynamic";

@@ -9,7 +9,7 @@ import { Notice } from "@/components/ui/notice";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
-import { getOwnerClaim } from "@/lib/claims/service";
+import { getOwnerClaim } from "@/lib/claims/view-claim";
 import { MAX_CLAIM_PHOTOS, OPEN_STATES } from "@/lib/claims/states";
 
 export const metadata: Metadata = { title: "Claim" };

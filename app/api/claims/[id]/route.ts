@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { getClaim } from "@/lib/claims/service";
+import { getClaim } from "@/lib/claims/view-claim";
 import { currentViewer } from "@/lib/claims/viewer";
 import { route } from "@/lib/http/route";
 import { idParam } from "@/lib/validation/claims";

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { requireStaff } from "@/lib/auth/guards";
-import { createJobFromClaim } from "@/lib/claims/service";
+import { createJobFromClaim } from "@/lib/claims/open-job";
 import { route } from "@/lib/http/route";
 import { idParam } from "@/lib/validation/claims";
 

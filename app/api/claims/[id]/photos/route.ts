@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { addClaimPhoto } from "@/lib/claims/service";
+import { addClaimPhoto } from "@/lib/claims/photos";
 import { currentViewer } from "@/lib/claims/viewer";
 import { readUpload } from "@/lib/files/upload";
 import { route } from "@/lib/http/route";

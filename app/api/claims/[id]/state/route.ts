@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { requireStaff } from "@/lib/auth/guards";
-import { transitionClaim } from "@/lib/claims/service";
+import { transitionClaim } from "@/lib/claims/transition";
 import { parseJson, route } from "@/lib/http/route";
 import { claimStateSchema, idParam } from "@/lib/validation/claims";
 

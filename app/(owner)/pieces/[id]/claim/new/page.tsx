@@ -4,7 +4,7 @@ import { ClaimForm } from "@/components/claims/claim-form";
 import { PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { claimFormContext } from "@/lib/claims/service";
+import { claimFormContext } from "@/lib/claims/file-claim";
 
 export const metadata: Metadata = { title: "Report damage" };
 export const dynamic = "force-dynamic";

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { removeClaimPhoto } from "@/lib/claims/service";
+import { removeClaimPhoto } from "@/lib/claims/photos";
 import { currentViewer } from "@/lib/claims/viewer";
 import { route } from "@/lib/http/route";
 
