@@ -8,6 +8,30 @@ const port = z.coerce.number().int().min(0).max(65535);
 const envSchema = z.object({
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
   APP_URL: z.url().default("http://localhost:3000"),
+  /**
+   * Other addresses this install answers at (a second domain name, its address on the studio's own
+   * network), comma-separated origins such as `https://care.example.com,http://192.168.1.20:3000`.
+   * Forms and API calls from pages at APP_URL or one of these are accepted; others are refused with
+   * a message naming APP_URL. next.config.mjs gives the same list to Next.js for server actions.
+   */
+  ALLOWED_ORIGINS: z
+    .string()
+    .default("")
+    .transform((v, ctx) => {
+      const out: string[] = [];
+      for (const item of v.split(",").map((s) => s.trim()).filter(Boolean)) {
+        let url: URL | undefined;
+        try {
+          url = new URL(item);
+        } catch {}
+        if (!url || !/^https?:$/.test(url.protocol) || url.origin !== item.replace(/\/$/, "")) {
+          ctx.addIssue({ code: "custom", message: `"${item}" is not an origin: write it as https://name[:port], without a path` });
+          return z.NEVER;
+        }
+        out.push(url.origin);
+      }
+      return out;
+    }),
   DATABASE_URL: z.string().min(1).default(DEFAULT_DATABASE_URL),
   DATA_DIR: z.string().min(1).default("./data"),
   APP_SECRET: z

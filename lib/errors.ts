@@ -1,5 +1,5 @@
 // Errors that lib/ raises for a person to act on. Route handlers and server actions turn them into
-// answers (lib/http/route.ts, lib/validation/action.ts); anything else is a bug and a 500.
+// answers (lib/http/route.ts, lib/http/action.ts); anything else is a bug and a 500.
 
 export type FieldErrors = Record<string, string[]>;
 

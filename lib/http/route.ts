@@ -1,10 +1,20 @@
 import "server-only";
 import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
-import { env } from "@/lib/env";
-import { AppError, badRequest, forbidden } from "@/lib/errors";
+import { requireActor, type ActorFor, type ActorRole } from "@/lib/auth/actor";
+import { AppError, badRequest } from "@/lib/errors";
 import { asAppError } from "@/lib/validation/care-input";
-import { readJson } from "./body";
+import { BODY_LIMITS, readJson } from "./body";
+import { checkOrigin } from "./origin";
+
+// The one request boundary of the JSON API. A route names who may call it and what its input is, as
+// data; the wrapper refuses other sites' writes, resolves the actor (lib/auth/actor.ts), parses the
+// params, query and body once with their zod schemas, and answers every refusal in one JSON shape:
+//
+//   export const PATCH = route({ roles: ["admin"], params: idParams, body: productPatch }, ({ actor, params, body }) =>
+//     ({ product: updateCatalogProduct(actor, params.id, body) }));
+//
+// A handler returns a Response, or a value answered as JSON (with `status`, 200 unless given).
 
 export type ErrorBody = { error: { code: string; message: string; fieldErrors?: Record<string, string[]> } };
 
@@ -17,41 +27,84 @@ export function errorResponse(e: AppError): NextResponse<ErrorBody> {
   return res;
 }
 
-const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+type AnySchema = z.ZodType;
+type Out<S> = S extends AnySchema ? z.output<S> : undefined;
 
-/** State-changing requests must come from our own pages (or from a client that sends no Origin). */
-function checkOrigin(req: NextRequest): void {
-  if (SAFE_METHODS.has(req.method)) return;
-  const origin = req.headers.get("origin");
-  if (!origin) return;
-  const allowed = new Set([new URL(env.APP_URL).origin, req.nextUrl.origin]);
-  if (!allowed.has(origin)) throw forbidden("Requests from another site are refused.");
-}
+export type RouteSpec<R extends ActorRole, P, Q, B> = {
+  /** Who may call: studio roles and/or "owner" (every signed-in person, on their own things). Omitted: anyone, no actor. */
+  roles?: readonly R[];
+  params?: P;
+  query?: Q;
+  /** A JSON body's schema; read through lib/http/body.ts (at most `bodyLimit`, 1 MB unless given). */
+  body?: B;
+  bodyLimit?: number;
+  /** An empty body reaches the schema as `undefined` instead of being a 400. */
+  optionalBody?: boolean;
+  /** The status of a value answered as JSON. */
+  status?: number;
+};
 
-type Handler<P> = (req: NextRequest, ctx: { params: P }) => Promise<Response>;
+export type RouteInput<R extends ActorRole, P, Q, B> = {
+  req: NextRequest;
+  actor: [R] extends [never] ? null : ActorFor<R>;
+  params: Out<P>;
+  query: Out<Q>;
+  body: Out<B>;
+};
 
-/**
- * Wraps a route handler: refuses cross-site writes, and answers AppErrors and zod errors with a JSON
- * error and their 4xx status. Anything else is a bug: logged, and a plain 500 without details.
- */
-export function route<P = Record<string, never>>(handler: Handler<P>) {
-  return async (req: NextRequest, ctx: { params: Promise<P> }): Promise<Response> => privateJson(await answer(req, ctx, handler));
-}
+type NextContext = { params: Promise<unknown> };
+type LegacyHandler<P> = (req: NextRequest, ctx: { params: P }) => Promise<Response>;
 
-async function answer<P>(req: NextRequest, ctx: { params: Promise<P> }, handler: Handler<P>): Promise<Response> {
-  try {
-    checkOrigin(req);
-    return await handler(req, { params: await ctx.params });
-  } catch (e) {
-    const known = asAppError(e);
-    if (known) return errorResponse(known);
-    if (e instanceof z.ZodError) {
-      const flat = z.flattenError(e);
-      return errorResponse(badRequest(flat.formErrors[0] ?? "Some fields need a second look.", flat.fieldErrors as Record<string, string[]>));
+export function route<R extends ActorRole = never, P extends AnySchema | undefined = undefined, Q extends AnySchema | undefined = undefined, B extends AnySchema | undefined = undefined>(
+  spec: RouteSpec<R, P, Q, B>,
+  handler: (input: RouteInput<R, P, Q, B>) => Promise<unknown> | unknown,
+): (req: NextRequest, ctx: NextContext) => Promise<Response>;
+/** @deprecated The older form: the handler reads and checks everything itself. Name roles and schemas instead. */
+export function route<P = Record<string, never>>(handler: LegacyHandler<P>): (req: NextRequest, ctx: NextContext) => Promise<Response>;
+export function route(
+  specOrHandler: RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined> | LegacyHandler<unknown>,
+  handler?: (input: RouteInput<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>) => unknown,
+) {
+  const run =
+    typeof specOrHandler === "function"
+      ? async (req: NextRequest, params: unknown) => specOrHandler(req, { params })
+      : async (req: NextRequest, params: unknown) => answerValue(await handler!(await parseInput(specOrHandler, req, params)), specOrHandler.status);
+  return async (req: NextRequest, ctx: NextContext): Promise<Response> => {
+    try {
+      checkOrigin(req, req.nextUrl.origin);
+      return privateJson(await run(req, await ctx.params));
+    } catch (e) {
+      return privateJson(errorAnswer(e));
     }
-    console.error(e);
-    return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
-  }
+  };
+}
+
+/** Actor first (401/403 before anything about the input), then params, query and body, each parsed once. */
+async function parseInput(spec: RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>, req: NextRequest, rawParams: unknown) {
+  const actor = spec.roles ? await requireActor(spec.roles) : null;
+  const params = spec.params ? spec.params.parse(rawParams) : undefined;
+  const query = spec.query ? spec.query.parse(Object.fromEntries(req.nextUrl.searchParams)) : undefined;
+  const body = spec.body ? spec.body.parse(await readJson(req, { limit: spec.bodyLimit ?? BODY_LIMITS.json, optional: spec.optionalBody })) : undefined;
+  return { req, actor, params, query, body } as RouteInput<ActorRole, AnySchema, AnySchema, AnySchema>;
+}
+
+function answerValue(value: unknown, status = 200): Response {
+  return value instanceof Response ? value : NextResponse.json(value ?? null, { status });
+}
+
+/** AppErrors and zod errors → their 4xx in the one JSON shape; anything else is a bug: logged, a plain 500. */
+export function errorAnswer(e: unknown): Response {
+  const known = asAppError(e);
+  if (known) return errorResponse(known);
+  if (e instanceof z.ZodError) return errorResponse(zodError(e));
+  console.error(e);
+  return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side." } }, { status: 500 });
+}
+
+/** Every field's message, and the first form-level one (or a general one) as the message. */
+export function zodError(e: z.ZodError): AppError {
+  const flat = z.flattenError(e);
+  return badRequest(flat.formErrors[0] ?? "Some fields need a second look.", flat.fieldErrors as Record<string, string[]>);
 }
 
 /**
@@ -68,8 +121,8 @@ function privateJson(res: Response): Response {
 }
 
 /**
- * Parses a JSON body with a zod schema. The body is read through lib/http/body.ts: at most `limit`
- * bytes (1 MB unless the route says), else a 413; not JSON is a 400; `optional`: empty is undefined.
+ * Parses a JSON body with a zod schema (for the older route form; name `body` in the spec instead).
+ * Read through lib/http/body.ts: at most `limit` bytes (1 MB unless given), else a 413; not JSON is a 400.
  */
 export async function parseJson<S extends z.ZodType>(req: Request, schema: S, opts?: { limit?: number; optional?: boolean }): Promise<z.output<S>> {
   return schema.parse(await readJson(req, opts));

@@ -42,7 +42,10 @@ test("state-changing requests from another origin are refused", async ({ browser
   await signIn(await context.newPage(), ACCOUNTS.owner);
   const forged = await context.request.post("/api/registrations", { headers: { origin: "https://elsewhere.example", "content-type": "application/json" }, data: { code: "0000-0000-0000-0" } });
   expect(forged.status()).toBe(403);
-  expect((await forged.json()).error.message).toMatch(/another site/);
+  // The refusal names the address to use (APP_URL), not just "another site".
+  expect((await forged.json()).error.message).toBe(
+    "This was sent from a page at https://elsewhere.example, which isn't an address of this Grainward. Open http://localhost:3100 and try again there.",
+  );
   const same = await context.request.post("/api/registrations", { headers: { origin: "http://localhost:3100", "content-type": "application/json" }, data: { code: "0000-0000-0000-0" } });
   expect(same.status()).toBeLessThan(500);
   expect(same.status()).not.toBe(403);
