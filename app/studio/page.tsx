@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { formatWait } from "@/lib/claims/labels";
 import { getOverview } from "@/lib/overview";
 import { setupChecklist } from "@/lib/studio/setup";

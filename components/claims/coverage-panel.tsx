@@ -1,7 +1,7 @@
 import { CircleCheck, CircleHelp, CircleMinus, CircleX, type LucideIcon } from "lucide-react";
 import type { ClaimCoverage } from "@/lib/claims/coverage";
 import { CARE_LOG_CONDITION_LABELS, coverageSummary, SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
-import { formatDate, formatTimeLeft } from "@/lib/owner/format";
+import { formatDate, formatTimeLeft } from "@/lib/format";
 import { exclusionLabel } from "@/lib/owner/warranty";
 import { Card } from "@/components/ui/card";
 

@@ -10,7 +10,7 @@ import { cn } from "@/components/ui/cn";
 import type { claimMessageSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { ApiError, apiJson } from "@/components/api-client";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 
 export type ThreadMessage = { id: string; body: string; fromStudio: boolean; createdAt: string; authorName: string };
 

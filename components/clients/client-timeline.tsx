@@ -7,7 +7,7 @@ import { apiJson } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import type { Timeline } from "@/lib/clients/timeline";
-import { formatAt } from "./format";
+import { formatInstant } from "@/lib/format";
 
 const PAGE = 50;
 
@@ -33,7 +33,7 @@ export function ClientTimeline({ clientId, viewerZone }: { clientId: string; vie
           {data.entries.map((e) => (
             <li key={e.key} className="grid gap-1 px-4 py-3 md:grid-cols-[14rem_1fr]">
               <time dateTime={e.at} className="text-sm text-muted">
-                {formatAt(e.at, e.allDay ? "UTC" : data.timeZone, e.allDay ? "UTC" : viewerZone, { time: !e.allDay })}
+                {formatInstant(e.at, e.allDay ? "UTC" : data.timeZone, { time: !e.allDay, viewerZone: e.allDay ? "UTC" : viewerZone })}
               </time>
               {e.href ? (
                 <Link href={e.href} className="text-ink underline-offset-2 hover:text-resin hover:underline">

@@ -9,7 +9,7 @@ import { apiJson } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import type { HandoverStatus } from "@/lib/pieces/handover";
-import { formatAt } from "./format";
+import { formatInstant } from "@/lib/format";
 
 /** The piece page's hand-over mail: to whom, sent when (and how often), link opened, registered; send or resend. */
 export function HandoverCard({ pieceId, status }: { pieceId: string; status: HandoverStatus }) {
@@ -17,7 +17,7 @@ export function HandoverCard({ pieceId, status }: { pieceId: string; status: Han
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   // Always with the zone's name: staff may read this from anywhere.
-  const at = (iso: string) => formatAt(iso, status.timeZone, "");
+  const at = (iso: string) => formatInstant(iso, status.timeZone, { time: true });
   const send = async () => {
     setBusy(true);
     setError(null);

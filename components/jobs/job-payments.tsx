@@ -1,5 +1,5 @@
 import { Notice } from "@/components/ui/notice";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { isAutomaticRefund, PAYMENT_STATUS_LABELS, REFUND_REASON_LABELS, type PaymentStatus, type RefundReason } from "@/lib/repairs/states";
 
 export type JobPaymentRow = {

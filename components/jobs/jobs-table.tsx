@@ -8,7 +8,7 @@ import { StatusBadge } from "@/components/ui/status";
 import { Notice } from "@/components/ui/notice";
 import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
 import { JOB_STATES } from "@/lib/care/vocabulary";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 
 type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: string; totalMinor: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null };
 

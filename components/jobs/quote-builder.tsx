@@ -9,7 +9,7 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { formatMinorUnits } from "@/lib/care/quote";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS } from "@/lib/care/vocabulary";
 import { LINE_KIND_LABELS, LINE_KINDS, LINE_SOURCE_LABELS, LINE_UNIT_LABELS, LINE_UNITS, parseMajorAmount, type LineDraft } from "@/lib/repairs/lines";
 

@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { Bar, BarChart, CartesianGrid, LabelList, Legend, pattern, patterns, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 
 // Our palette (app/globals.css). Series are told apart by pattern and by their labels too, never by
 // colour alone; every bar carries its value as a label.

@@ -8,7 +8,7 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
-import { formatDate } from "@/lib/owner/format";
+import { formatDate } from "@/lib/format";
 import type { TaskView } from "@/lib/owner/pieces";
 import type { CareLogInput } from "@/lib/validation/owner";
 import { callApi } from "@/components/api-client";

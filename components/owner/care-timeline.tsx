@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { ClipboardCheck } from "lucide-react";
 import { cn } from "@/components/ui/cn";
-import { formatDate, relativeDays } from "@/lib/owner/format";
+import { formatDate, relativeDays } from "@/lib/format";
 import type { CareLogView, TaskView } from "@/lib/owner/pieces";
 import { TaskStatus, statusDotClass } from "./task-status";
 

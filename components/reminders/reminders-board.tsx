@@ -10,7 +10,7 @@ import { Card } from "@/components/ui/card";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
 import type { LedgerListRow, UpcomingRow } from "@/lib/reminders/staff";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 
 type View = "upcoming" | "ledger";
 type Filters = { status: string; kind: string; step: string; q: string };

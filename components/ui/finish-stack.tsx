@@ -1,4 +1,4 @@
-import { formatDate } from "@/lib/owner/format";
+import { formatDate } from "@/lib/format";
 
 const CLASS_FILL: Record<string, string> = {
   hardwax_oil: "bg-[#e9dcc3]",

@@ -2,7 +2,7 @@
 // then each finding as a label; the engine's own reasons (equations, tables, sources) stay for the
 // "How this was worked out" disclosure. Pure: the staff claim page and tests use it.
 import type { CoverageCheck, CoverageSuggestion } from "@/lib/care/coverage";
-import { formatDate, formatTimeLeft } from "@/lib/owner/format";
+import { formatDate, formatTimeLeft } from "@/lib/format";
 import { exclusionLabel } from "@/lib/owner/warranty";
 
 export const SUGGESTION_LABELS: Record<CoverageSuggestion, string> = {

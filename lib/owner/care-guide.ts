@@ -11,7 +11,7 @@ import type { CatalogEntry } from "@/lib/care/schedule";
 import { cautionsFor, type Caution } from "@/lib/care/cautions";
 import { curingLayers, type CureProduct, type CureWindow } from "@/lib/care/cure";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type FinishClass, type ResinKind, type Surface, type Use } from "@/lib/care/vocabulary";
-import { formatArea, formatDate, formatVolume, type UnitSystem } from "./format";
+import { formatArea, formatDate, formatVolume, type UnitSystem } from "@/lib/format";
 
 type ClassGuide = {
   everyday: string[];

@@ -9,7 +9,7 @@ import { CARE_TASK_LABELS, type CareTaskKind, type Surface } from "@/lib/care/vo
 import { badRequest, notFound } from "@/lib/errors";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
 import { careLogPatchSchema, careLogSchema, type CareLogValues } from "@/lib/validation/owner";
-import { formatDate } from "./format";
+import { formatDate } from "@/lib/format";
 import { myPieceSchedule, ownedPieceRow, ownerToday, taskView, type TaskView } from "./pieces";
 
 // "I did this": the owner logs care done on a piece they hold; the care engine then restarts that

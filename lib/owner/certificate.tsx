@@ -1,7 +1,7 @@
 import "server-only";
 import { Document, Page, StyleSheet, Text, View, renderToBuffer } from "@react-pdf/renderer";
 import type { User } from "lucia";
-import { formatDate, formatInstant, formatTimeLeft } from "./format";
+import { formatDate, formatInstant, formatTimeLeft } from "@/lib/format";
 import { getMyPiece, type PieceDetail } from "./pieces";
 import { exclusionLabel, WARRANTY_STATUS_LABELS } from "./warranty";
 

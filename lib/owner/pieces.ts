@@ -34,7 +34,7 @@ import { notFound } from "@/lib/errors";
 import { scheduleFromRows, topShape, toCatalog } from "@/lib/pieces/care-inputs";
 import { monthsText, whyNow } from "@/lib/reminders/content";
 import { buildCareGuide, type CareGuide } from "./care-guide";
-import { formatSize, formatThickness, type UnitSystem } from "./format";
+import { formatSize, formatThickness, type UnitSystem } from "@/lib/format";
 import { warrantyLinesFor, type OwnerWarrantyLine } from "./warranty";
 
 // The owner's reads. Every query filters by the signed-in owner's id; someone else's piece is a 404

@@ -3,7 +3,7 @@ import { and, eq, isNull, ne } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
 import { ownerships, studios, users } from "@/db/schema";
-import type { UnitSystem } from "@/lib/owner/format";
+import { type UnitSystem } from "@/lib/format";
 import { preferencesPatchSchema } from "@/lib/validation/owner";
 
 // The owner's preferences: care reminder e-mails on or off, time zone, metric or imperial. Until the

@@ -12,7 +12,7 @@ import { AppError, conflict, forbidden, isAppError, notFound } from "@/lib/error
 import { linkPieceToOwner } from "@/lib/clients/link";
 import { hashTypedCode } from "@/lib/pieces/registration";
 import { registrationSchema } from "@/lib/validation/owner";
-import { formatMonth } from "./format";
+import { formatMonth } from "@/lib/format";
 import { adoptStudioUnits } from "./preferences";
 
 // Registering a piece from its drawer card. Codes are compared by their keyed hash only; attempts

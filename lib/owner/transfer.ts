@@ -13,7 +13,7 @@ import { notFound } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { newRegistrationCode } from "@/lib/pieces/registration";
 import { releaseSchema } from "@/lib/validation/owner";
-import { formatDate } from "./format";
+import { formatDate } from "@/lib/format";
 import { getMyPiece } from "./pieces";
 
 const link = (path: string) => new URL(path, env.APP_URL).href;

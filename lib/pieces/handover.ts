@@ -12,7 +12,7 @@ import { randomToken, sha256Hex } from "@/lib/crypto";
 import { env } from "@/lib/env";
 import { AppError, conflict, forbidden, notFound, unprocessable } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
-import { formatDate, formatInstant, formatMonth } from "@/lib/owner/format";
+import { formatDate, formatInstant, formatMonth } from "@/lib/format";
 import { registerPiece } from "@/lib/owner/registration";
 import { warrantyLinesFor } from "@/lib/owner/warranty";
 import { drawerCardData } from "./card";

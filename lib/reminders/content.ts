@@ -6,7 +6,7 @@ import { productNeeded } from "@/lib/care/quantity";
 import type { Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { cautionLine, cautionsFor as catalogueCautions } from "@/lib/care/cautions";
-import { formatArea, formatDistance, formatMoney, formatVolume, type UnitSystem } from "@/lib/owner/format";
+import { formatArea, formatDistance, formatMoney, formatVolume, type UnitSystem } from "@/lib/format";
 import type { CareTaskKind, ReminderStep } from "@/lib/care/vocabulary";
 
 const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];

@@ -2,7 +2,7 @@
 // the JSON API and the checkout's line items — from the same stored lines, so they cannot disagree.
 // Pure: components and e-mails take its output.
 import type { RepairJob, Studio } from "@/db/schema";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { LINE_UNIT_LABELS, readLines, roundingWords, type JobLine, type PricingRules } from "./lines";
 
 type JobMoney = Pick<RepairJob, "currency" | "coveredPct" | "subtotalMinor" | "coveredMinor" | "netMinor" | "taxMinor" | "totalMinor" | "title"> & { lines: unknown; pricingRules: RepairJob["pricingRules"] };

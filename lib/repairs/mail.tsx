@@ -9,7 +9,7 @@ import { studioRecipients } from "@/lib/claims/mail";
 import { env } from "@/lib/env";
 import { sendMail } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
-import { formatInstant, formatMoney } from "@/lib/owner/format";
+import { formatInstant, formatMoney } from "@/lib/format";
 import { jobFigures } from "./figures";
 import { getOwnerJob, type JobView } from "./jobs";
 

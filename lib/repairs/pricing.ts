@@ -5,7 +5,7 @@ import type { finishProducts, pieces, Studio } from "@/db/schema";
 import { topArea } from "@/lib/care/area";
 import { quote, quoteProductFromCatalog } from "@/lib/care/quote";
 import { TASK_KIND_BY_FINISH_CLASS } from "@/lib/care/vocabulary";
-import { formatVolume } from "@/lib/owner/format";
+import { formatVolume } from "@/lib/format";
 import { topShape, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { priceLines, type JobLine, type LineDraft, type PricedLines, type PricingRules, type StudioTax } from "./lines";

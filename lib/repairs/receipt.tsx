@@ -1,7 +1,7 @@
 import "server-only";
 import { Document, Page, StyleSheet, Text, View, renderToBuffer } from "@react-pdf/renderer";
 import { conflict } from "@/lib/errors";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 import type { JobActor } from "./access";
 import { jobFigures, type JobFigures } from "./figures";
 import { getOwnerJob, getStudioJob, type JobView } from "./jobs";

@@ -9,7 +9,7 @@ import { addDays, localDateTime, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, CLAIM_DECISION_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
-import { formatDate, formatMoney } from "@/lib/owner/format";
+import { formatDate, formatMoney } from "@/lib/format";
 import { JOB_STATE_LABELS } from "@/lib/repairs/states";
 import { forbidden } from "@/lib/errors";
 import { AUDIT_GROUPS, auditQuerySchema, type AuditQuery } from "./audit-query";

@@ -13,7 +13,7 @@ import { sendMail, sendMailNow } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
 import { ownerActsOnJob } from "@/lib/repairs/owner-reach";
 import { buildInvite, inviteAttachment } from "./ics";
-import { formatVisitWhen, ownerTimeZone, visitDayWord } from "./format";
+import { formatVisitWhen, ownerTimeZone, visitDayWord } from "@/lib/format";
 
 export function loadVisitMailView(visitId: string) {
   const db = getDb();

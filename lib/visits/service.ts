@@ -36,7 +36,7 @@ import { randomToken, sha256Hex } from "@/lib/crypto";
 import { badRequest, conflict, forbidden, isAppError, notFound, unprocessable } from "@/lib/errors";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { cureAdvice } from "@/lib/owner/care-guide";
-import { formatDate, formatVolume, type UnitSystem } from "@/lib/owner/format";
+import { formatDate, formatVolume, type UnitSystem } from "@/lib/format";
 import { scheduleFromRows, topShape } from "@/lib/pieces/care-inputs";
 import { insertLayers } from "@/lib/pieces/layers";
 import { checkLayerRefs, studioProducts } from "@/lib/pieces/registry";

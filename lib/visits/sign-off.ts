@@ -8,7 +8,7 @@ import { pieces, repairJobs, studios, visits } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import { sha256Hex } from "@/lib/crypto";
 import { env } from "@/lib/env";
-import { formatVisitWhen } from "./format";
+import { formatVisitWhen } from "@/lib/format";
 
 export const SIGN_OFF_TTL_MS = 30 * 86_400_000;
 

@@ -14,7 +14,7 @@ import { AppError } from "@/lib/errors";
 import { getStudioJob, createJob } from "@/lib/repairs/jobs";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { getStripe } from "@/lib/payments/stripe";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { currencyExponent, quote } from "@/lib/care/quote";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { replyAddress } from "@/lib/messages/reply-address";

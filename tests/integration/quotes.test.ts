@@ -8,7 +8,7 @@ import { getDb } from "@/db/client";
 import { claims, repairJobs, studios } from "@/db/schema";
 import { env } from "@/lib/env";
 import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { getStripe } from "@/lib/payments/stripe";
 import { checkoutLineItems, jobApiMoney } from "@/lib/repairs/figures";
 import { createJob, getOwnerJob, getStudioJob } from "@/lib/repairs/jobs";

@@ -6,7 +6,7 @@ import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { finishProducts, studios } from "@/db/schema";
-import { formatVolume } from "@/lib/owner/format";
+import { formatVolume } from "@/lib/format";
 import { bookVisit, listJobSlots, technicianDay } from "@/lib/visits/service";
 import { staffActor, visitWorld } from "./visits-helpers";
 

@@ -11,7 +11,7 @@ import { auditLog, clients, files, pieces, repairJobs, users, visits } from "@/d
 import { createJobFromClaim } from "@/lib/claims/service";
 import { AppError } from "@/lib/errors";
 import { canViewFile } from "@/lib/files/access";
-import { visitDayWord } from "@/lib/visits/format";
+import { visitDayWord } from "@/lib/format";
 import { runVisitReminderPass } from "@/lib/visits/reminders";
 import { addVisitPhoto, bookVisit, listJobSlots, submitReport, technicianDay, visitOfJob, visitPhotosOf } from "@/lib/visits/service";
 import { confirmSignOff, signOffPreview } from "@/lib/visits/sign-off";

@@ -5,7 +5,7 @@ import { Card } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { ownerConversations, ownerJobConversation } from "@/lib/messages/service";
 import type { MessageView } from "@/lib/messages/store";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 
 // The owner's side of conversations, included once on the job page and once on the piece page.
 // (The claim page has its own, lib/claims; the messages are the same thread.)

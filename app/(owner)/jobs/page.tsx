@@ -4,7 +4,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { listOwnerJobs } from "@/lib/repairs/jobs";
 import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
 

@@ -6,7 +6,7 @@ import { ButtonLink } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatDate, relativeDays } from "@/lib/owner/format";
+import { formatDate, relativeDays } from "@/lib/format";
 import { listMyPieces } from "@/lib/owner/pieces";
 
 export const metadata: Metadata = { title: "My pieces" };

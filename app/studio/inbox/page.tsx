@@ -9,7 +9,7 @@ import { forPage } from "@/lib/auth/page";
 import { formatWait } from "@/lib/claims/labels";
 import { listInbox } from "@/lib/messages/service";
 import { ABOUT_LABELS, THREAD_STATE_WORDS, UNMATCHED_WORDS } from "@/lib/messages/words";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 import { INBOX_VIEWS } from "@/lib/validation/messages";
 
 export const metadata: Metadata = { title: "Inbox" };

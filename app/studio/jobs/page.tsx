@@ -5,7 +5,7 @@ import { JobsTable } from "@/components/jobs/jobs-table";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { jobsToCreate } from "@/lib/repairs/jobs";
 import { createJobAction } from "./actions";
 

@@ -5,7 +5,7 @@ import { MemberList } from "@/components/team/member-list";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 import { listMembers, listOpenInvitations } from "@/lib/studio/team";
 import { changeRoleAction, inviteAction, removeMemberAction, revokeInvitationAction } from "./actions";
 

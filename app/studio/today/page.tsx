@@ -12,9 +12,7 @@ import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
-import { formatDate } from "@/lib/owner/format";
-import { formatVolume } from "@/lib/owner/format";
-import { formatClock } from "@/lib/visits/format";
+import { formatClock, formatDate, formatVolume } from "@/lib/format";
 import { technicianDay } from "@/lib/visits/service";
 
 export const metadata: Metadata = { title: "My day" };

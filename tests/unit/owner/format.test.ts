@@ -1,7 +1,7 @@
 // The one formatter's imperial lengths read like a woodworker's tape.
 // 1 in = 25.4 mm exactly (NIST Handbook 44, Appendix C); each expected value is worked by hand.
 import { describe, expect, it } from "vitest";
-import { formatInchesTape, formatLength, formatLengthBoth, formatSize, formatThickness, formatVolume, formatDistance, formatTemperature, formatTemperatureChange } from "@/lib/owner/format";
+import { formatDistance, formatInchesTape, formatLength, formatLengthBoth, formatSize, formatTemperature, formatTemperatureChange, formatThickness, formatVolume } from "@/lib/format";
 
 describe("imperial lengths", () => {
   it("round to the nearest 1/16 in and reduce the fraction", () => {

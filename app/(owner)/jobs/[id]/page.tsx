@@ -10,7 +10,7 @@ import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
 import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, paymentCounts } from "@/lib/repairs/states";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/service";

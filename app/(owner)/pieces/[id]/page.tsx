@@ -10,7 +10,7 @@ import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatDate, formatInstant, formatTimeLeft } from "@/lib/owner/format";
+import { formatDate, formatInstant, formatTimeLeft } from "@/lib/format";
 import { getMyPiece } from "@/lib/owner/pieces";
 import { visitPhotosOf } from "@/lib/visits/service";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { CoveragePanel } from "@/components/claims/coverage-panel";
 import { CreateRepairJobButton } from "@/components/claims/create-job-button";
 import { MessageThread } from "@/components/claims/message-thread";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 import { PhotoGallery } from "@/components/claims/photo-gallery";
 import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
 import { StateBadge } from "@/components/claims/state-badge";

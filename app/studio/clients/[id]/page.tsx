@@ -4,7 +4,7 @@ import { ClientForm } from "@/components/clients/client-form";
 import { ClientTimeline } from "@/components/clients/client-timeline";
 import { ConsentForm } from "@/components/clients/consent-form";
 import { PersonalDataCard } from "@/components/clients/personal-data-card";
-import { formatAt } from "@/components/clients/format";
+import { formatDate, formatInstant } from "@/lib/format";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
@@ -58,7 +58,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
                       {p.title}
                     </Link>
                     <p className="text-sm text-muted">
-                      {PIECE_KIND_LABELS[p.kind]} · delivered {formatAt(`${p.deliveredOn}T12:00:00Z`, "UTC", "UTC", { time: false })} · {p.registered ? "registered" : "not registered yet"}
+                      {PIECE_KIND_LABELS[p.kind]} · delivered {formatDate(p.deliveredOn)} · {p.registered ? "registered" : "not registered yet"}
                       {p.archived ? " · archived" : ""}
                     </p>
                   </li>
@@ -82,7 +82,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
                   <li key={h.id}>
                     <p>
                       <span className="font-medium">{h.granted ? "Agreed to" : "Withdrew"}</span> {CONSENT_KIND_LABELS[h.kind].split(" (")[0]!.toLowerCase()} —{" "}
-                      {CONSENT_SOURCE_LABELS[h.source].toLowerCase()}, {formatAt(h.givenAt, studioZone, viewerZone)}
+                      {CONSENT_SOURCE_LABELS[h.source].toLowerCase()}, {formatInstant(h.givenAt, studioZone, { time: true, viewerZone })}
                     </p>
                     {h.note || h.recordedBy ? (
                       <p className="text-muted">

@@ -11,7 +11,7 @@ import { forPage } from "@/lib/auth/page";
 import { formatWait } from "@/lib/claims/labels";
 import { getThread } from "@/lib/messages/service";
 import { ABOUT_LABELS, THREAD_STATE_WORDS } from "@/lib/messages/words";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Conversation" };
 export const dynamic = "force-dynamic";

@@ -9,7 +9,7 @@ import { Notice } from "@/components/ui/notice";
 import { StatusBadge } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 import { cautionsFor } from "@/lib/care/cautions";
 import { FINISH_CLASS_LABELS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { currencyExponent } from "@/lib/care/quote";

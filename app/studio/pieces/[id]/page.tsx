@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { Pencil } from "lucide-react";
 import Link from "next/link";
 import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
-import { formatAreaBoth, formatDate, formatLargeVolume, formatLengthBoth } from "@/lib/owner/format";
+import { formatAreaBoth, formatDate, formatLargeVolume, formatLengthBoth } from "@/lib/format";
 import { whyNow } from "@/lib/reminders/content";
 import { PhotoUploader, PieceActions } from "@/components/pieces/piece-actions";
 import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pieces/status";

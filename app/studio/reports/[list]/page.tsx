@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { StatusBadge, type StatusTone } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMoney } from "@/lib/owner/format";
+import { formatMoney } from "@/lib/format";
 import { REMINDER_STEPS } from "@/lib/care/vocabulary";
 import { formatWait } from "@/lib/claims/labels";
 import { ACTED_WITHIN_DAYS, REMINDER_STEP_LABELS } from "@/lib/overview";

@@ -6,7 +6,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getLogForm } from "@/lib/owner/care-log";
-import { formatDate } from "@/lib/owner/format";
+import { formatDate } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Log care" };
 

@@ -1,0 +1,137 @@
+// Dates and times, the one way they are written on pages, in e-mails, PDFs and the audit log.
+// One form for every studio and owner: English words, day before month ("3 December 2026"), as the
+// product's words are English; times on the 24-hour clock ("09:00"). Intl (ECMA-402 DateTimeFormat)
+// with the "en-GB" locale gives that form from Unicode CLDR. Instants are written in a named IANA zone
+// (the studio's for staff, the owner's for owners) and name it when the viewer's zone differs — or
+// always, where a page has no way to know the viewer's zone.
+import { addDays, localDate } from "@/lib/care/dates";
+
+const DATE_LOCALE = "en-GB";
+
+type DateOpts = Intl.DateTimeFormatOptions;
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+/** The one DateTimeFormat, cached by its options. */
+function dtf(options: DateOpts): Intl.DateTimeFormat {
+  const key = JSON.stringify(options);
+  let f = formatters.get(key);
+  if (!f) {
+    f = new Intl.DateTimeFormat(DATE_LOCALE, options);
+    formatters.set(key, f);
+  }
+  return f;
+}
+
+const noonUtc = (iso: string): number | null => {
+  const [y, m, d] = iso.split("-").map(Number);
+  return y && m && d ? Date.UTC(y, m - 1, d, 12) : null;
+};
+
+export type CalendarDateOptions = { short?: boolean; weekday?: "long" | "short"; year?: boolean };
+
+/**
+ * A calendar date YYYY-MM-DD: "3 December 2026"; short "3 Dec 2026"; with a weekday "Thursday,
+ * 3 December 2026" or "Thu 3 Dec". A calendar date has no zone: it is the same day everywhere.
+ */
+export function formatDate(iso: string, { short = false, weekday, year = true }: CalendarDateOptions = {}): string {
+  const ms = noonUtc(iso);
+  if (ms === null) return iso;
+  return dtf({ timeZone: "UTC", day: "numeric", month: short ? "short" : "long", ...(year ? { year: "numeric" } : {}), ...(weekday ? { weekday } : {}) }).format(ms);
+}
+
+/** "March 2026" for YYYY-MM or YYYY-MM-DD; short "Mar ’26" for chart axes. */
+export function formatMonth(iso: string, { short = false }: { short?: boolean } = {}): string {
+  const [y, m] = iso.split("-").map(Number);
+  if (!y || !m) return iso;
+  const name = dtf({ timeZone: "UTC", month: short ? "short" : "long" }).format(Date.UTC(y, m - 1, 15));
+  return short ? `${name} ’${String(y).slice(2)}` : `${name} ${y}`;
+}
+
+export type InstantOptions = { time?: boolean; viewerZone?: string };
+
+/**
+ * An instant as a date (and time) in `timeZone`: "3 December 2026" or "3 December 2026 at 09:00 CET".
+ * With a time the zone is named, unless `viewerZone` is given and is the same zone.
+ */
+export function formatInstant(at: Date | number | string, timeZone: string, { time = false, viewerZone }: InstantOptions = {}): string {
+  const ms = typeof at === "string" ? Date.parse(at) : typeof at === "number" ? at : at.getTime();
+  const named = time && viewerZone !== timeZone;
+  return dtf({
+    timeZone,
+    day: "numeric",
+    month: "long",
+    year: "numeric",
+    ...(time ? { hour: "2-digit", minute: "2-digit" } : {}),
+    ...(named ? { timeZoneName: "short" } : {}),
+  }).format(ms);
+}
+
+/** A time of day on the 24-hour clock in `timeZone`: "09:00"; with `named`, "09:00 CET". */
+export function formatClock(ms: number, timeZone: string, { named = false }: { named?: boolean } = {}): string {
+  return dtf({ hour: "2-digit", minute: "2-digit", hourCycle: "h23", timeZone, ...(named ? { timeZoneName: "short" } : {}) }).format(ms);
+}
+
+/** A visit's slot: "Thursday, 3 December 2026, 09:00–11:00" in `timeZone`. */
+export function formatVisitWhen(startMs: number, endMs: number, timeZone: string): string {
+  const day = dtf({ weekday: "long", day: "numeric", month: "long", year: "numeric", timeZone }).format(startMs);
+  return `${day}, ${formatClock(startMs, timeZone)}–${formatClock(endMs, timeZone)}`;
+}
+
+/**
+ * "today", "tomorrow" or "on Friday, 4 June 2027": the visit's day as the reader's own calendar in
+ * `timeZone` sees it at `nowMs` — not "within 24 hours", which reads 09:00 today as tomorrow at 08:42.
+ */
+export function visitDayWord(startMs: number, nowMs: number, timeZone: string): string {
+  const day = localDate(startMs, timeZone);
+  const today = localDate(nowMs, timeZone);
+  if (day === today) return "today";
+  if (day === addDays(today, 1)) return "tomorrow";
+  return `on ${dtf({ weekday: "long", day: "numeric", month: "long", year: "numeric", timeZone }).format(startMs)}`;
+}
+
+/**
+ * The zone an owner reads visit times in: their account's; while they have never set one (still
+ * "UTC", the sign-up default, as the account page reads it), the studio's client record of them, else
+ * the studio's own.
+ */
+export function ownerTimeZone(account: string, client: string | null | undefined, studio: string): string {
+  return account !== "UTC" ? account : (client ?? studio);
+}
+
+/** "in 12 days", "today", "3 days ago". */
+export function relativeDays(days: number): string {
+  if (days === 0) return "today";
+  if (days === 1) return "tomorrow";
+  if (days === -1) return "yesterday";
+  if (days > 0) return days < 60 ? `in ${days} days` : `in about ${Math.round(days / 30.44)} months`;
+  const ago = -days;
+  return ago < 60 ? `${ago} days ago` : `about ${Math.round(ago / 30.44)} months ago`;
+}
+
+/** Time left on a warranty line: "1 year 3 months", "24 days", or "ended". */
+export function formatTimeLeft(days: number): string {
+  if (days < 0) return "ended";
+  if (days < 60) return `${days} day${days === 1 ? "" : "s"}`;
+  const months = Math.floor(days / 30.44);
+  const years = Math.floor(months / 12);
+  const rest = months % 12;
+  const parts = [];
+  if (years) parts.push(`${years} year${years === 1 ? "" : "s"}`);
+  if (rest) parts.push(`${rest} month${rest === 1 ? "" : "s"}`);
+  return parts.join(" ");
+}
+
+/** Whether `timeZone` is an IANA zone this runtime knows ("Europe/Berlin"). */
+export function isTimeZone(timeZone: string): boolean {
+  try {
+    new Intl.DateTimeFormat("en-US", { timeZone });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+/** The browser's (or server's) own zone, or null where the runtime does not say. */
+export function runtimeTimeZone(): string | null {
+  return Intl.DateTimeFormat().resolvedOptions().timeZone || null;
+}
