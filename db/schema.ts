@@ -18,7 +18,7 @@ import {
   VISIT_LOCATIONS,
   VISIT_STATES,
 } from "../lib/care/vocabulary";
-import { CONSENT_KINDS, CONSENT_SOURCES, CONTACT_METHODS } from "../lib/clients/vocabulary";
+import { CONSENT_KINDS, CONSENT_SOURCES, CONTACT_METHODS, HANDOVER_BATCH_SOURCES, HANDOVER_BATCH_STATES, HANDOVER_ITEM_OUTCOMES } from "../lib/clients/vocabulary";
 import { PLAN_STATES } from "../lib/plans/states";
 import { PLAN_INTERVALS, PLAN_PAID_BY, PLAN_REFUND_RULES, type PlanFit, type PlanIncluded } from "../lib/plans/terms";
 
@@ -1104,6 +1104,54 @@ export const pieceHandovers = sqliteTable(
 );
 
 export type PieceHandover = typeof pieceHandovers.$inferSelect;
+
+/**
+ * A bulk hand-over mailing (staff's pick of pieces, or a CSV import's "send now"): sent outside the
+ * request by lib/pieces/handover-batch.ts, one item per piece, each mailed at most once.
+ */
+export const handoverBatches = sqliteTable(
+  "handover_batches",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    source: text("source", { enum: HANDOVER_BATCH_SOURCES }).notNull(),
+    state: text("state", { enum: HANDOVER_BATCH_STATES }).notNull().default("queued"),
+    createdAt: createdAt(),
+    startedAt: integer("started_at", { mode: "timestamp_ms" }),
+    finishedAt: integer("finished_at", { mode: "timestamp_ms" }),
+    /** Touched as the runner goes: a running batch not touched for a while is taken up again. */
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("handover_batches_studio_idx").on(t.studioId, t.createdAt)],
+);
+
+export const handoverBatchItems = sqliteTable(
+  "handover_batch_items",
+  {
+    id: id(),
+    batchId: text("batch_id")
+      .notNull()
+      .references(() => handoverBatches.id, { onDelete: "cascade" }),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    pieceId: text("piece_id")
+      .notNull()
+      .references(() => pieces.id, { onDelete: "cascade" }),
+    outcome: text("outcome", { enum: HANDOVER_ITEM_OUTCOMES }).notNull().default("pending"),
+    /** Why it was skipped (a HandoverBlock or "already_sent") or failed (the error, in words). */
+    reason: text("reason"),
+    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [uniqueIndex("handover_batch_items_piece_uq").on(t.batchId, t.pieceId), index("handover_batch_items_outcome_idx").on(t.batchId, t.outcome)],
+);
 
 /**
  * A care plan a studio sells: one row per version. Changing a template inserts the next version with

@@ -22,3 +22,12 @@ export const CONSENT_SOURCE_LABELS: Record<ConsentSource, string> = {
   account: "In their Grainward account",
   imported: "From imported records",
 };
+
+/** A bulk hand-over mailing: waiting for the runner, being sent, finished. */
+export const HANDOVER_BATCH_STATES = ["queued", "running", "done"] as const;
+export type HandoverBatchState = (typeof HANDOVER_BATCH_STATES)[number];
+/** Where a bulk hand-over mailing came from: staff picking pieces, or a CSV import's "send now". */
+export const HANDOVER_BATCH_SOURCES = ["staff", "import"] as const;
+/** One piece of a mailing: still to do, being sent, and how it ended. */
+export const HANDOVER_ITEM_OUTCOMES = ["pending", "sending", "sent", "skipped", "failed"] as const;
+export type HandoverItemOutcome = (typeof HANDOVER_ITEM_OUTCOMES)[number];
