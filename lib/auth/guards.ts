@@ -4,6 +4,7 @@ import type { User } from "lucia";
 import { getDb } from "@/db/client";
 import { memberships } from "@/db/schema";
 import type { StudioRole } from "@/lib/care/vocabulary";
+import { forbidden } from "@/lib/errors";
 import { requireActor, STAFF_ROLES, ALL_STUDIO_ROLES, type StudioActor } from "./actor";
 
 // One helper per rule, all answered from the request's one Actor (lib/auth/actor.ts). Route handlers
@@ -32,6 +33,14 @@ export function requireAdmin() {
 }
 export function requireStudioMember() {
   return requireActor(ALL_STUDIO_ROLES);
+}
+
+/**
+ * The role rule of a lib/ function that takes an actor, for rules that hold wherever it is called
+ * from (a page, a route, an action, a job): the actor's role is one of `roles`, else a 403 saying who may.
+ */
+export function assertRole<R extends StudioRole>(actor: StudioActor, roles: readonly R[], message: string): asserts actor is StudioActor & { role: R } {
+  if (!(roles as readonly StudioRole[]).includes(actor.role)) throw forbidden(message);
 }
 
 /** Where a signed-in person starts: studio members in the studio area, owners with their pieces. */

@@ -2,14 +2,14 @@ import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { finishProducts, type FinishProduct } from "@/db/schema";
-import type { StudioContext } from "@/lib/auth/guards";
+import { assertRole, type StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
 import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { notFound } from "@/lib/errors";
-import { catalogPatchSchema, catalogProductSchema } from "@/lib/validation/pieces";
+import { catalogProductSchema, type CatalogPatch, type CatalogProductInput } from "@/lib/validation/pieces";
 
-// The studio's finish catalog (admin). Wear intervals left empty — or equal to the care engine's
+// The studio's finish catalog: staff read it (layer pickers), admins change it. Wear intervals left empty — or equal to the care engine's
 // default for the class — are stored as null, so the care engine's default (lib/care/intervals.ts) applies and
 // the schedule's reasons say so.
 
@@ -40,12 +40,14 @@ export function getCatalogProduct(ctx: StudioContext, id: string) {
   return load(ctx, id);
 }
 
-export function createCatalogProduct(ctx: StudioContext, raw: unknown): FinishProduct {
-  const v = catalogProductSchema.parse(raw);
+const ADMINS_ONLY = "Only the studio's admins can change the finish catalog.";
+
+export function createCatalogProduct(ctx: StudioContext, v: CatalogProductInput): FinishProduct {
+  assertRole(ctx, ["admin"], ADMINS_ONLY);
   return getDb().transaction((tx) => {
     const row = tx
       .insert(finishProducts)
-      .values({ studioId: ctx.studio.id, name: v.name, finishClass: v.finishClass, coverageM2PerL: v.coverageM2PerL, containers: v.containers, safetyNotes: v.safetyNotes, cureLightUseHours: v.cureLightUseHours ?? null, cureFullDays: v.cureFullDays ?? null, ...intervalsFor(v.finishClass, v) })
+      .values({ studioId: ctx.studio.id, name: v.name, finishClass: v.finishClass, coverageM2PerL: v.coverageM2PerL, containers: v.containers ?? [], safetyNotes: v.safetyNotes ?? "", cureLightUseHours: v.cureLightUseHours ?? null, cureFullDays: v.cureFullDays ?? null, ...intervalsFor(v.finishClass, v) })
       .returning()
       .get();
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "finish_product.created", subjectType: "finish_product", subjectId: row.id, data: { name: row.name } });
@@ -53,8 +55,8 @@ export function createCatalogProduct(ctx: StudioContext, raw: unknown): FinishPr
   });
 }
 
-export function updateCatalogProduct(ctx: StudioContext, id: string, raw: unknown): FinishProduct {
-  const patch = catalogPatchSchema.parse(raw);
+export function updateCatalogProduct(ctx: StudioContext, id: string, patch: CatalogPatch): FinishProduct {
+  assertRole(ctx, ["admin"], ADMINS_ONLY);
   return getDb().transaction((tx) => {
     const current = load(ctx, id);
     const { archived, ...fields } = patch;

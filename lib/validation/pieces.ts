@@ -172,6 +172,7 @@ export const catalogProductSchema = z.object({
 });
 export type CatalogProductInput = z.input<typeof catalogProductSchema>;
 export const catalogPatchSchema = patchOf(catalogProductSchema).extend({ archived: z.boolean().optional() });
+export type CatalogPatch = z.output<typeof catalogPatchSchema>;
 
 export const idParam = z.object({ id: z.string().min(1).max(64) });
 export const layerParams = z.object({ id: z.string().min(1).max(64), layerId: z.string().min(1).max(64) });

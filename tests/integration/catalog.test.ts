@@ -2,6 +2,7 @@
 // intervals drive the care schedule, archiving keeps layers' labels.
 import { describe, expect, it } from "vitest";
 import { archiveCatalogProduct, createCatalogProduct, listCatalog, updateCatalogProduct } from "@/lib/catalog";
+import { catalogProductSchema } from "@/lib/validation/pieces";
 import { addLayer } from "@/lib/pieces/layers";
 import { createPiece, getPieceDetail } from "@/lib/pieces/registry";
 import { createStudio, memberContext } from "../support/fixtures";
@@ -27,14 +28,19 @@ describe("finish catalog", () => {
     expect(getPieceDetail(admin, piece.id).layers[0]!.productLabel).toBe("Test oil (invented)");
   });
 
-  it("rejects bad numbers field by field", async () => {
-    const admin = await memberContext(createStudio(), "admin");
-    let caught: { issues: { path: (string | number)[] }[] } | undefined;
-    try {
-      createCatalogProduct(admin, { name: "", finishClass: "hardwax_oil", coverageM2PerL: -1, containers: [{ ml: 0, priceMinor: 1.5 }] });
-    } catch (e) {
-      caught = e as never;
-    }
-    expect(caught!.issues.map((i) => i.path.join("."))).toEqual(expect.arrayContaining(["name", "coverageM2PerL", "containers.0.ml", "containers.0.priceMinor"]));
+  it("rejects bad numbers field by field (the schema app/api/catalog's routes parse with, once)", () => {
+    const parsed = catalogProductSchema.safeParse({ name: "", finishClass: "hardwax_oil", coverageM2PerL: -1, containers: [{ ml: 0, priceMinor: 1.5 }] });
+    expect(parsed.success).toBe(false);
+    expect(parsed.error!.issues.map((i) => i.path.join("."))).toEqual(expect.arrayContaining(["name", "coverageM2PerL", "containers.0.ml", "containers.0.priceMinor"]));
+  });
+
+  it("staff read the catalog but only admins change it, wherever it is called from", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    const staff = await memberContext(studio, "staff");
+    const p = createCatalogProduct(admin, { name: "Test wax (invented)", finishClass: "hardwax_oil", coverageM2PerL: 20, containers: [] });
+    expect(listCatalog(staff).map((r) => r.id)).toContain(p.id);
+    const refusals = [() => createCatalogProduct(staff, { name: "Other (invented)", finishClass: "hardwax_oil", coverageM2PerL: 20, containers: [] }), () => updateCatalogProduct(staff, p.id, { name: "renamed" }), () => archiveCatalogProduct(staff, p.id)];
+    for (const refused of refusals) expect(refused).toThrow(expect.objectContaining({ status: 403, message: "Only the studio's admins can change the finish catalog." }));
   });
 });

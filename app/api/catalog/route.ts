@@ -1,14 +1,8 @@
-import { NextResponse } from "next/server";
-import { requireAdmin, requireStaff } from "@/lib/auth/guards";
 import { createCatalogProduct, listCatalog } from "@/lib/catalog";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { catalogProductSchema } from "@/lib/validation/pieces";
 
-/** Staff read the catalog (layer pickers); admins change it. */
-export const GET = route(async () => NextResponse.json({ products: listCatalog(await requireStaff()) }));
+/** Staff read the catalog (layer pickers); admins change it (lib/catalog says so too). */
+export const GET = route({ roles: ["admin", "staff"] }, ({ actor }) => ({ products: listCatalog(actor) }));
 
-export const POST = route(async (req) => {
-  const ctx = await requireAdmin();
-  const body = await parseJson(req, catalogProductSchema);
-  return NextResponse.json({ product: createCatalogProduct(ctx, body) }, { status: 201 });
-});
+export const POST = route({ roles: ["admin"], body: catalogProductSchema, status: 201 }, ({ actor, body }) => ({ product: createCatalogProduct(actor, body) }));
