@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
-import { formatMoney } from "@/lib/format";
+import { formatDate, formatMoney, formatMonth } from "@/lib/format";
 import { formatWait } from "@/lib/claims/labels";
 import { getOverview } from "@/lib/overview";
 import { setupChecklist } from "@/lib/studio/setup";
@@ -16,19 +16,6 @@ import { setupChecklist } from "@/lib/studio/setup";
 export const metadata: Metadata = { title: "Studio overview" };
 
 const OFFER_WORDS = { offered: "Waiting for an answer", accepted: "Accepted", declined: "Declined", expired: "Expired" } as const;
-
-function monthLabel(month: string, long = false): string {
-  const [y, m] = month.split("-").map(Number) as [number, number];
-  const name = new Date(Date.UTC(y, m - 1, 1)).toLocaleString("en-US", { month: long ? "long" : "short", timeZone: "UTC" });
-  return long ? `${name} ${y}` : `${name} ’${String(y).slice(2)}`;
-}
-
-function dayLabel(date: string, short = false): string {
-  const [y, m, d] = date.split("-").map(Number) as [number, number, number];
-  const dt = new Date(Date.UTC(y, m - 1, d));
-  const wd = dt.toLocaleString("en-US", { weekday: "short", timeZone: "UTC" });
-  return short ? `${wd} ${d}` : `${wd} ${date}`;
-}
 
 function pct(part: number, whole: number): string {
   return whole ? `${Math.round((part / whole) * 100)} %` : "—";
@@ -38,14 +25,14 @@ export default async function StudioOverviewPage() {
   const ctx = await forPage(requireStaff);
   const o = getOverview(ctx);
   const money = (minor: number) => formatMoney(minor, o.revenue.currency, ctx.studio.country);
-  const sinceWords = `since ${o.since}`;
+  const sinceWords = `since ${formatDate(o.since)}`;
   const yesterday = addDays(o.today, -1);
 
   return (
     <>
       <PageHeader
         title={ctx.studio.name}
-        lead={`Your studio's aftercare at a glance. Today is ${o.today} (${o.timeZone}); flows cover the last 12 months, ${sinceWords}.`}
+        lead={`Your studio's aftercare at a glance. Today is ${formatDate(o.today, { weekday: "long" })} (${o.timeZone}); flows cover the last 12 months, ${sinceWords}.`}
         actions={
           <Link href="/studio/reports" className="inline-flex min-h-11 items-center rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
             Reports
@@ -65,7 +52,7 @@ export default async function StudioOverviewPage() {
             label={`Care tasks due in the next ${o.care.days} days`}
             value={o.care.due}
             href={`/studio/pieces?dueBefore=${o.care.until}&sort=next_due`}
-            note={`on ${o.care.piecesDue} piece${o.care.piecesDue === 1 ? "" : "s"}, up to ${o.care.until}`}
+            note={`on ${o.care.piecesDue} piece${o.care.piecesDue === 1 ? "" : "s"}, up to ${formatDate(o.care.until)}`}
           />
           <Figure
             label="Care overdue"
@@ -84,11 +71,11 @@ export default async function StudioOverviewPage() {
       <div className="grid gap-6 lg:grid-cols-2">
         <ChartPanel
           title="Care coming due and overdue, by task"
-          lead={<>From each piece&apos;s finish stack and care log: due from today to {o.care.until}, and past due.</>}
+          lead={<>From each piece&apos;s finish stack and care log: due from today to {formatDate(o.care.until)}, and past due.</>}
           table={
             <FigureTable
               caption="Care tasks due in the next 30 days and overdue, by task"
-              columns={["Task", `Due by ${o.care.until}`, "Overdue"]}
+              columns={["Task", `Due by ${formatDate(o.care.until, { short: true })}`, "Overdue"]}
               rows={o.care.byKind.map((k) => ({ label: k.label, href: `/studio/pieces?dueBefore=${o.care.until}&sort=next_due`, cells: [k.count, k.overdue] }))}
             />
           }
@@ -218,7 +205,7 @@ export default async function StudioOverviewPage() {
             <FigureTable
               caption="Repair revenue by month"
               columns={["Month", "Paid", "Refunded", "Net"]}
-              rows={o.revenue.months.map((m) => ({ label: monthLabel(m.month, true), href: `/studio/reports/revenue?month=${m.month}`, cells: [money(m.paidMinor), money(m.refundedMinor), money(m.netMinor)] }))}
+              rows={o.revenue.months.map((m) => ({ label: formatMonth(m.month), href: `/studio/reports/revenue?month=${m.month}`, cells: [money(m.paidMinor), money(m.refundedMinor), money(m.netMinor)] }))}
             />
           }
         >
@@ -228,7 +215,7 @@ export default async function StudioOverviewPage() {
             format="money"
             currency={o.revenue.currency}
             country={ctx.studio.country}
-            data={o.revenue.months.map((m) => ({ label: monthLabel(m.month), net: m.netMinor, href: `/studio/reports/revenue?month=${m.month}` }))}
+            data={o.revenue.months.map((m) => ({ label: formatMonth(m.month, { short: true }), net: m.netMinor, href: `/studio/reports/revenue?month=${m.month}` }))}
             series={[{ key: "net", name: `Net revenue (${o.revenue.currency})` }]}
           />
           {o.revenue.otherCurrencies.length ? (
@@ -261,21 +248,21 @@ export default async function StudioOverviewPage() {
               <Link className="text-resin underline underline-offset-2" href="/studio/visits">
                 {o.visits.total} visit{o.visits.total === 1 ? "" : "s"}
               </Link>{" "}
-              from {o.visits.weekFrom} to {o.visits.weekTo}: {o.visits.done} done, {o.visits.booked} booked (cancelled ones left out).
+              from {formatDate(o.visits.weekFrom, { weekday: "short", short: true, year: false })} to {formatDate(o.visits.weekTo, { weekday: "short", short: true })}: {o.visits.done} done, {o.visits.booked} booked (cancelled ones left out).
             </>
           }
           table={
             <FigureTable
               caption="Visits this week by day"
               columns={["Day", "Booked", "Done"]}
-              rows={o.visits.byDay.map((d) => ({ label: dayLabel(d.date), href: "/studio/visits", cells: [d.booked, d.done] }))}
+              rows={o.visits.byDay.map((d) => ({ label: formatDate(d.date, { weekday: "short", short: true }), href: "/studio/visits", cells: [d.booked, d.done] }))}
             />
           }
         >
           <OverviewBarChart
             title="Visits this week by day"
             layout="vertical"
-            data={o.visits.byDay.map((d) => ({ label: dayLabel(d.date, true), booked: d.booked, done: d.done, href: "/studio/visits" }))}
+            data={o.visits.byDay.map((d) => ({ label: formatDate(d.date, { weekday: "short", short: true, year: false }), booked: d.booked, done: d.done, href: "/studio/visits" }))}
             series={[
               { key: "booked", name: "Booked" },
               { key: "done", name: "Done" },
