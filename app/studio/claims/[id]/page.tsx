@@ -3,7 +3,7 @@ import Link from "next/link";
 import { CoveragePanel } from "@/components/claims/coverage-panel";
 import { CreateRepairJobButton } from "@/components/claims/create-job-button";
 import { MessageThread } from "@/components/claims/message-thread";
-import { formatInstant } from "@/lib/format";
+import { formatInstant, formatSize, formatThickness, type TopShape, type UnitSystem } from "@/lib/format";
 import { PhotoGallery } from "@/components/claims/photo-gallery";
 import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
 import { StateBadge } from "@/components/claims/state-badge";
@@ -23,11 +23,13 @@ export const dynamic = "force-dynamic";
 const ANSWER_WORD = { yes: "Yes", no: "No", unsure: "Not sure" } as const;
 const QUESTION_WORD = { heat: "Heat nearby", chemicals: "Spills or chemicals", impact: "Knock or impact", usedOutdoors: "Used outdoors", directSun: "Direct sun" } as const;
 
-function size(p: { shapeKind: string; lengthMm: number | null; widthMm: number | null; diameterMm: number | null; measuredAreaM2: number | null; thicknessMm: number | null }) {
-  const t = p.thicknessMm ? ` × ${p.thicknessMm} mm thick` : "";
-  if (p.shapeKind === "round") return `round, Ø ${p.diameterMm} mm${t}`;
-  if (p.shapeKind === "measured") return `measured top, ${p.measuredAreaM2} m²${t}`;
-  return `${p.shapeKind}, ${p.lengthMm} × ${p.widthMm} mm${t}`;
+/** The piece record's size for staff: the studio's units first, the other in brackets, then the thickness. */
+function size(p: TopShape & { thicknessMm: number | null }, units: UnitSystem) {
+  const other: UnitSystem = units === "metric" ? "imperial" : "metric";
+  const mine = formatSize(p, units);
+  const known = mine !== formatSize({ ...p, shapeKind: "" }, units);
+  const top = known && p.shapeKind !== "measured" ? `${mine} (${formatSize(p, other).replace(/^(Round|Oval), /, "")})` : mine;
+  return p.thicknessMm ? `${top}, ${formatThickness(p.thicknessMm, units)} thick` : top;
 }
 
 export default async function StudioClaimPage({ params }: { params: Promise<{ id: string }> }) {
@@ -108,7 +110,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                 <p className="text-lg font-semibold">{decisionText(claim.decision, claim.coveredPct)}</p>
                 {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
                 <p className="text-sm text-muted">
-                  Decided {claim.decidedAt?.slice(0, 10)}; the check suggested {String((claim.suggestion as { suggestion?: string } | null)?.suggestion ?? "—").replace("_", " ")}.
+                  Decided {claim.decidedAt ? formatInstant(claim.decidedAt, v.studio.timeZone) : "—"}; the check suggested {String((claim.suggestion as { suggestion?: string } | null)?.suggestion ?? "—").replace("_", " ")}.
                 </p>
               </div>
             ) : null}
@@ -155,7 +157,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               <dt className="text-muted">Kind</dt>
               <dd>{PIECE_KIND_LABELS[piece.kind]}</dd>
               <dt className="text-muted">Size</dt>
-              <dd>{size(piece)}</dd>
+              <dd>{size(piece, v.studio.unitSystem)}</dd>
               <dt className="text-muted">Species</dt>
               <dd>
                 {getSpecies(piece.primarySpeciesId)?.commonName ?? piece.primarySpeciesId}
