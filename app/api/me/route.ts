@@ -1,9 +1,7 @@
-import { NextResponse } from "next/server";
-import { requireUser, studioMemberships } from "@/lib/auth/guards";
+import { studioMemberships } from "@/lib/auth/actor";
 import { route } from "@/lib/http/route";
 
-export const GET = route(async () => {
-  const user = await requireUser();
+export const GET = route({ roles: ["owner"] }, async ({ actor: { user } }) => {
   const studios = (await studioMemberships(user.id)).map((m) => ({ id: m.studio.id, name: m.studio.name, role: m.role }));
-  return NextResponse.json({ user: { id: user.id, email: user.email, name: user.name, emailVerified: Boolean(user.emailVerifiedAt) }, studios });
+  return { user: { id: user.id, email: user.email, name: user.name, emailVerified: Boolean(user.emailVerifiedAt) }, studios };
 });

@@ -1,17 +1,9 @@
-import { NextResponse } from "next/server";
-import { requireStaff } from "@/lib/auth/guards";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { deliverPiece } from "@/lib/pieces/handover-delivery";
 import { listPieces } from "@/lib/pieces/registry";
 import { deliverPieceSchema } from "@/lib/validation/clients";
 
-export const GET = route(async (req) => {
-  const ctx = await requireStaff();
-  return NextResponse.json(listPieces(ctx, Object.fromEntries(req.nextUrl.searchParams)));
-});
+/** The registry's page for the query string (parsed by lib/pieces/registry-list.ts). */
+export const GET = route({ roles: ["admin", "staff"] }, ({ req, actor }) => listPieces(actor, Object.fromEntries(req.nextUrl.searchParams)));
 
-export const POST = route(async (req) => {
-  const ctx = await requireStaff();
-  const body = await parseJson(req, deliverPieceSchema);
-  return NextResponse.json(await deliverPiece(ctx, body), { status: 201 });
-});
+export const POST = route({ roles: ["admin", "staff"], body: deliverPieceSchema, status: 201 }, ({ actor, body }) => deliverPiece(actor, body));

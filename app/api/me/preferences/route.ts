@@ -1,16 +1,8 @@
-import { NextResponse } from "next/server";
 import { z } from "zod";
-import { requireUser } from "@/lib/auth/guards";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { getPreferences, updatePreferences } from "@/lib/owner/preferences";
 
-export const GET = route(async () => {
-  const user = await requireUser();
-  return NextResponse.json({ preferences: getPreferences(user) });
-});
+export const GET = route({ roles: ["owner"] }, ({ actor }) => ({ preferences: getPreferences(actor.user) }));
 
-export const PATCH = route(async (req) => {
-  const user = await requireUser();
-  const body = await parseJson(req, z.unknown());
-  return NextResponse.json({ preferences: updatePreferences(user, body) });
-});
+// lib/owner/preferences.ts parses the patch (preferencesPatchSchema).
+export const PATCH = route({ roles: ["owner"], body: z.unknown() }, ({ actor, body }) => ({ preferences: updatePreferences(actor.user, body) }));

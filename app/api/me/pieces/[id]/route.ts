@@ -1,9 +1,5 @@
-import { NextResponse } from "next/server";
-import { requireUser } from "@/lib/auth/guards";
 import { route } from "@/lib/http/route";
 import { getMyPiece } from "@/lib/owner/pieces";
+import { idParam } from "@/lib/validation/pieces";
 
-export const GET = route<{ id: string }>(async (_req, { params }) => {
-  const user = await requireUser();
-  return NextResponse.json({ piece: getMyPiece(user, params.id) });
-});
+export const GET = route({ roles: ["owner"], params: idParam }, ({ actor, params }) => ({ piece: getMyPiece(actor.user, params.id) }));

@@ -1,12 +1,5 @@
-import { NextResponse } from "next/server";
-import { requireStaff } from "@/lib/auth/guards";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { addLayer } from "@/lib/pieces/layers";
 import { idParam, layerSchema } from "@/lib/validation/pieces";
 
-export const POST = route<{ id: string }>(async (req, ctx) => {
-  const { id } = idParam.parse(ctx.params);
-  const studio = await requireStaff();
-  const body = await parseJson(req, layerSchema);
-  return NextResponse.json(addLayer(studio, id, body), { status: 201 });
-});
+export const POST = route({ roles: ["admin", "staff"], params: idParam, body: layerSchema, status: 201 }, ({ actor, params, body }) => addLayer(actor, params.id, body));

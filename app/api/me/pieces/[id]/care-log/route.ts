@@ -1,12 +1,10 @@
-import { NextResponse } from "next/server";
-import { requireUser } from "@/lib/auth/guards";
 import { route } from "@/lib/http/route";
 import { addCareLogEntry } from "@/lib/owner/care-log";
 import { readCareLogBody } from "@/lib/owner/http";
+import { idParam } from "@/lib/validation/pieces";
 
 // JSON { taskKind, surface, doneOn, productUsed?, notes? }, or the same as multipart with an optional `photo`.
-export const POST = route<{ id: string }>(async (req, { params }) => {
-  const user = await requireUser();
+export const POST = route({ roles: ["owner"], params: idParam, status: 201 }, async ({ req, actor, params }) => {
   const { fields, photo } = await readCareLogBody(req);
-  return NextResponse.json(await addCareLogEntry(user, params.id, fields, photo), { status: 201 });
+  return addCareLogEntry(actor.user, params.id, fields, photo);
 });

@@ -1,10 +1,9 @@
-import { requireUser } from "@/lib/auth/guards";
 import { route } from "@/lib/http/route";
 import { certificatePdf } from "@/lib/owner/certificate";
+import { idParam } from "@/lib/validation/pieces";
 
-export const GET = route<{ id: string }>(async (_req, { params }) => {
-  const user = await requireUser();
-  const { buffer, filename } = await certificatePdf(user, params.id);
+export const GET = route({ roles: ["owner"], params: idParam }, async ({ actor, params }) => {
+  const { buffer, filename } = await certificatePdf(actor.user, params.id);
   return new Response(new Uint8Array(buffer), {
     headers: {
       "Content-Type": "application/pdf",

@@ -1,17 +1,7 @@
-import { NextResponse } from "next/server";
-import { requireStaff } from "@/lib/auth/guards";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { removeLayer, updateLayer } from "@/lib/pieces/layers";
 import { layerParams, layerPatchSchema } from "@/lib/validation/pieces";
 
-export const PATCH = route<{ id: string; layerId: string }>(async (req, ctx) => {
-  const { id, layerId } = layerParams.parse(ctx.params);
-  const studio = await requireStaff();
-  const body = await parseJson(req, layerPatchSchema);
-  return NextResponse.json(updateLayer(studio, id, layerId, body));
-});
+export const PATCH = route({ roles: ["admin", "staff"], params: layerParams, body: layerPatchSchema }, ({ actor, params, body }) => updateLayer(actor, params.id, params.layerId, body));
 
-export const DELETE = route<{ id: string; layerId: string }>(async (_req, ctx) => {
-  const { id, layerId } = layerParams.parse(ctx.params);
-  return NextResponse.json(removeLayer(await requireStaff(), id, layerId));
-});
+export const DELETE = route({ roles: ["admin", "staff"], params: layerParams }, ({ actor, params }) => removeLayer(actor, params.id, params.layerId));

@@ -1,18 +1,10 @@
-import { NextResponse } from "next/server";
 import { z } from "zod";
-import { requireUser } from "@/lib/auth/guards";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { deleteCareLogEntry, updateCareLogEntry } from "@/lib/owner/care-log";
 
-type Params = { id: string; entryId: string };
+const params = z.object({ id: z.string().min(1).max(64), entryId: z.string().min(1).max(64) });
 
-export const PATCH = route<Params>(async (req, { params }) => {
-  const user = await requireUser();
-  const body = await parseJson(req, z.unknown());
-  return NextResponse.json(await updateCareLogEntry(user, params.id, params.entryId, body));
-});
+// lib/owner/care-log.ts parses the entry (careLogPatchSchema).
+export const PATCH = route({ roles: ["owner"], params, body: z.unknown() }, ({ actor, params, body }) => updateCareLogEntry(actor.user, params.id, params.entryId, body));
 
-export const DELETE = route<Params>(async (_req, { params }) => {
-  const user = await requireUser();
-  return NextResponse.json(await deleteCareLogEntry(user, params.id, params.entryId));
-});
+export const DELETE = route({ roles: ["owner"], params }, ({ actor, params }) => deleteCareLogEntry(actor.user, params.id, params.entryId));
