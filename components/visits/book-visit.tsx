@@ -2,7 +2,7 @@ import Link from "next/link";
 import { PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { SlotPicker } from "@/components/visits/slot-picker";
-import type { bookingContext } from "@/lib/visits/service";
+import type { bookingContext } from "@/lib/visits/job-visit";
 
 const WORDS = {
   owner: { book: "Book your visit", change: "Change your visit", none: ["Nothing to book yet", "A visit can be booked once the job is paid or covered."] },

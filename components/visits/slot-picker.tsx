@@ -10,7 +10,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { cn } from "@/components/ui/cn";
 import { apiJson, isApiError } from "@/components/api-client";
-import type { SlotView } from "@/lib/visits/service";
+import type { SlotView } from "@/lib/visits/slots";
 
 type Props = {
   jobId: string;

@@ -2,7 +2,7 @@ import "server-only";
 import type { SQL } from "drizzle-orm";
 import { requireStudioRole, requireUser, studioMemberships } from "@/lib/auth/guards";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
-import type { VisitActor } from "./service";
+import type { VisitActor } from "./visit-row";
 
 /**
  * Staff (admin/staff) act on the studio's visits, technicians on their own, everyone else on the

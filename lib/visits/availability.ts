@@ -2,9 +2,9 @@
 // already booked. The slot arithmetic itself is lib/care's availableSlots (DST-correct); this module
 // only loads its inputs. No server-only import: the booking core runs in the scheduler and in the
 // concurrency test's processes too.
-import { and, asc, eq, gt, lt, ne } from "drizzle-orm";
+import { and, asc, eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { memberships, technicianHours, technicianTimeOff, users, visitRules, visits, type Piece, type RepairJob, type Studio, type VisitRulesRow } from "@/db/schema";
+import { memberships, users, visitRules, type Piece, type RepairJob, type Studio, type TechnicianTimeOffRow, type VisitRulesRow } from "@/db/schema";
 import { topArea } from "@/lib/care/area";
 import { addDays, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { taskDurationMinutes, type QuotedTask } from "@/lib/care/quote";
@@ -12,6 +12,7 @@ import { availableSlots, type BusyInterval, type Slot } from "@/lib/care/slots";
 import { topShape } from "@/lib/pieces/care-inputs";
 import { readLines } from "@/lib/repairs/lines";
 import type { DbOrTx } from "@/lib/pieces/search-index";
+import { bookedByTechnician, hoursByTechnician, timeOffByTechnician, type WeeklyRange } from "./visits-sql";
 
 export type { Db };
 
@@ -47,22 +48,12 @@ export function isStudioTechnician(db: DbOrTx, studioId: string, userId: string)
     .get();
 }
 
-export function weeklyHours(db: DbOrTx, studioId: string, technicianId: string) {
-  return db
-    .select({ weekday: technicianHours.weekday, start: technicianHours.start, end: technicianHours.end })
-    .from(technicianHours)
-    .where(and(eq(technicianHours.studioId, studioId), eq(technicianHours.userId, technicianId)))
-    .orderBy(asc(technicianHours.weekday), asc(technicianHours.start))
-    .all();
+export function weeklyHours(db: DbOrTx, studioId: string, technicianId: string): WeeklyRange[] {
+  return hoursByTechnician(db, studioId, [technicianId]).get(technicianId) ?? [];
 }
 
-export function timeOffRows(db: DbOrTx, studioId: string, technicianId: string) {
-  return db
-    .select()
-    .from(technicianTimeOff)
-    .where(and(eq(technicianTimeOff.studioId, studioId), eq(technicianTimeOff.userId, technicianId)))
-    .orderBy(asc(technicianTimeOff.date))
-    .all();
+export function timeOffRows(db: DbOrTx, studioId: string, technicianId: string): TechnicianTimeOffRow[] {
+  return timeOffByTechnician(db, studioId, [technicianId]).get(technicianId) ?? [];
 }
 
 /** A day off (or part of one) as an interval of instants in the studio's time zone. */
@@ -71,28 +62,6 @@ export function timeOffInterval(t: { date: string; start: string | null; end: st
     return { start: zonedTimeToEpochMs(t.date, 0, timeZone), end: zonedTimeToEpochMs(addDays(t.date, 1), 0, timeZone) };
   }
   return { start: zonedTimeToEpochMs(t.date, parseHhMm(t.start), timeZone), end: zonedTimeToEpochMs(t.date, parseHhMm(t.end), timeZone) };
-}
-
-/** Booked visits of a technician touching [fromMs, toMs], and their time off, as busy intervals. */
-export function busyIntervals(db: DbOrTx, studio: Pick<Studio, "id" | "timeZone">, technicianId: string, fromMs: number, toMs: number, excludeVisitId?: string): BusyInterval[] {
-  const day = 86_400_000;
-  const booked = db
-    .select({ start: visits.startAt, end: visits.endAt })
-    .from(visits)
-    .where(
-      and(
-        eq(visits.studioId, studio.id),
-        eq(visits.technicianId, technicianId),
-        eq(visits.state, "booked"),
-        lt(visits.startAt, new Date(toMs + day)),
-        gt(visits.endAt, new Date(fromMs - day)),
-        excludeVisitId ? ne(visits.id, excludeVisitId) : undefined,
-      ),
-    )
-    .all()
-    .map((v) => ({ start: v.start.getTime(), end: v.end.getTime() }));
-  const off = timeOffRows(db, studio.id, technicianId).map((t) => timeOffInterval(t, studio.timeZone));
-  return [...booked, ...off.filter((o) => o.end > fromMs - day && o.start < toMs + day)];
 }
 
 /**
@@ -110,33 +79,53 @@ export function jobDurationMin(job: Pick<RepairJob, "quoteInput" | "lines">, pie
 
 export type TechnicianSlot = Slot & { technicianId: string };
 
-/** Free slots of one technician for a visit of `durationMin`. */
-export function technicianSlots(
-  db: DbOrTx,
-  args: {
-    studio: Pick<Studio, "id" | "timeZone">;
-    technicianId: string;
-    durationMin: number;
-    fromMs: number;
-    toMs: number;
-    leadTimeHours: number;
-    rules: Omit<VisitRulesRow, "studioId">;
-    excludeVisitId?: string;
-    now: number;
-  },
-): TechnicianSlot[] {
-  const hours = weeklyHours(db, args.studio.id, args.technicianId);
-  if (hours.length === 0) return [];
-  return availableSlots({
-    workingHours: hours,
-    timeZone: args.studio.timeZone,
-    existing: busyIntervals(db, args.studio, args.technicianId, args.fromMs, args.toMs, args.excludeVisitId),
-    durationMin: args.durationMin,
-    bufferMin: args.rules.travelBufferMin,
-    leadTimeHours: args.leadTimeHours,
-    from: args.fromMs,
-    to: args.toMs,
-    stepMin: args.rules.slotStepMin,
-    now: args.now,
-  }).map((s) => ({ ...s, technicianId: args.technicianId }));
+type SlotArgs = {
+  studio: Pick<Studio, "id" | "timeZone">;
+  durationMin: number;
+  fromMs: number;
+  toMs: number;
+  leadTimeHours: number;
+  rules: Omit<VisitRulesRow, "studioId">;
+  excludeVisitId?: string;
+  now: number;
+};
+
+/**
+ * Free slots of each of these technicians for a visit of `durationMin`, by technician. Three statements
+ * for the whole team (weekly hours, then booked visits and time off of those who have hours), a day
+ * either side of the window so a visit or day off across its edges still blocks.
+ */
+export function teamSlots(db: DbOrTx, args: SlotArgs & { technicianIds: string[] }): Map<string, TechnicianSlot[]> {
+  const day = 86_400_000;
+  const out = new Map<string, TechnicianSlot[]>();
+  const hours = hoursByTechnician(db, args.studio.id, args.technicianIds);
+  const working = args.technicianIds.filter((t) => hours.has(t));
+  if (working.length === 0) return out;
+  const booked = bookedByTechnician(db, args.studio.id, working, args.fromMs - day, args.toMs + day, args.excludeVisitId);
+  const off = timeOffByTechnician(db, args.studio.id, working);
+  for (const technicianId of working) {
+    const busy: BusyInterval[] = [
+      ...(booked.get(technicianId) ?? []),
+      ...(off.get(technicianId) ?? []).map((t) => timeOffInterval(t, args.studio.timeZone)).filter((o) => o.end > args.fromMs - day && o.start < args.toMs + day),
+    ];
+    const slots = availableSlots({
+      workingHours: hours.get(technicianId)!,
+      timeZone: args.studio.timeZone,
+      existing: busy,
+      durationMin: args.durationMin,
+      bufferMin: args.rules.travelBufferMin,
+      leadTimeHours: args.leadTimeHours,
+      from: args.fromMs,
+      to: args.toMs,
+      stepMin: args.rules.slotStepMin,
+      now: args.now,
+    });
+    out.set(technicianId, slots.map((s) => ({ ...s, technicianId })));
+  }
+  return out;
+}
+
+/** Free slots of one technician for a visit of `durationMin` (the booking core's check). */
+export function technicianSlots(db: DbOrTx, args: SlotArgs & { technicianId: string }): TechnicianSlot[] {
+  return teamSlots(db, { ...args, technicianIds: [args.technicianId] }).get(args.technicianId) ?? [];
 }

@@ -18,10 +18,13 @@ import { OWNER_TASK_STATE_WORDS, ownerTaskState } from "@/lib/owner/format";
 import { getMyPiece } from "@/lib/owner/pieces";
 import { renderDrawerCard } from "@/lib/pieces/card";
 import { composeReminder } from "@/lib/reminders/compose";
-import { bookVisit, listJobSlots, submitReport, technicianDay } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { listJobSlots } from "@/lib/visits/slots";
+import { submitReport } from "@/lib/visits/report";
+import { technicianDay } from "@/lib/visits/technician-day";
 import { waitForMail } from "../support/mail";
 import { createPiece, createProduct, createStudio, createUser, memberContext } from "../support/fixtures";
-import { staffActor, visitWorld } from "./visits-helpers";
+import { reportInput, staffActor, visitWorld } from "./visits-helpers";
 
 const NOW = new Date("2026-03-15T18:00:00Z"); // 2026-03-15 in New York
 const INDOOR_WORDS = /humidity|radiator|heater vent|coaster/i;
@@ -153,7 +156,7 @@ describe("cure times after a new layer (item 9)", () => {
     const slot = listJobSlots(staffActor(w.staff), w.job.id, { from: "2027-05-03T12:00:00Z", to: "2027-05-05T00:00:00Z" }, Date.parse("2027-04-26T12:00:00Z")).slots[0]!;
     const v = await bookVisit(staffActor(w.staff), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, Date.parse("2027-04-26T12:00:00Z"));
     const since = Date.now();
-    await submitReport(w.tech, v.id, { work: "One coat of oil on the top.", layers: [{ surface: "top", finishClass: "hardwax_oil", productId: w.product.id, coats: 1, appliedOn: slot.localDate }], signOffName: "T. Owner" }, new Date(Date.parse(slot.start) + 3_600_000));
+    await submitReport(w.tech, v.id, reportInput({ work: "One coat of oil on the top.", layers: [{ surface: "top", finishClass: "hardwax_oil", productId: w.product.id, coats: 1, appliedOn: slot.localDate }], signOffName: "T. Owner" }), new Date(Date.parse(slot.start) + 3_600_000));
     const mail = await waitForMail({ to: w.owner.email, subject: /^Visit report/, since });
     expect(mail.text).toMatch(/still curing/);
     expect(mail.text).toMatch(/keep water, mats, cloths and objects off it until/);

@@ -10,9 +10,12 @@ import { auditLog, claims, repairJobs, users } from "@/db/schema";
 import { createJobFromClaim } from "@/lib/claims/open-job";
 import { getClaim } from "@/lib/claims/view-claim";
 import { ownerViewer, staffViewer } from "@/lib/claims/viewer";
-import { bookVisit, cancelVisit, listJobSlots, submitReport } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { cancelVisit } from "@/lib/visits/cancel";
+import { listJobSlots } from "@/lib/visits/slots";
+import { submitReport } from "@/lib/visits/report";
 import { createAcceptedClaim, createStudio, memberContext } from "../support/fixtures";
-import { staffActor, statusOf, visitWorld } from "./visits-helpers";
+import { reportInput, staffActor, statusOf, visitWorld } from "./visits-helpers";
 
 const HOUR = 3_600_000;
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
@@ -83,7 +86,7 @@ describe("the claim follows the work", () => {
 
     const second = await bookVisit(staffActor(w.staff), { jobId, technicianId: slots[1]!.technicianId, start: slots[1]!.start }, NOW + 2 * HOUR);
     expect(claimState(w.claim.id)).toBe("repair_booked");
-    await submitReport(w.tech, second.id, { work: "Cleaned and re-oiled the ring marks (invented).", layers: [] }, new Date(Date.parse(second.start) + HOUR));
+    await submitReport(w.tech, second.id, reportInput({ work: "Cleaned and re-oiled the ring marks (invented).", layers: [] }), new Date(Date.parse(second.start) + HOUR));
     expect(claimState(w.claim.id)).toBe("closed");
     expect((getClaim(ownerViewer(w.owner), w.claim.id) as { repair: { stage: string } }).repair.stage).toMatch(/^The repair is done, \d+ May 2027\.$/);
 
@@ -99,7 +102,7 @@ describe("the claim follows the work", () => {
     const w = await claimThreadWorld();
     const slot = listJobSlots(staffActor(w.staff), w.job.id, { from: "2027-05-04T12:00:00Z", to: "2027-05-07T00:00:00Z" }, NOW).slots[0]!;
     const v = await bookVisit(staffActor(w.staff), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW);
-    await submitReport(w.tech, v.id, { work: "Re-oiled (invented).", layers: [] }, new Date(Date.parse(v.start) + HOUR));
+    await submitReport(w.tech, v.id, reportInput({ work: "Re-oiled (invented).", layers: [] }), new Date(Date.parse(v.start) + HOUR));
     expect(claimState(w.claim.id)).toBe("accepted");
     expect(claimAudit(w.claim.id)).toHaveLength(0);
   });

@@ -7,7 +7,8 @@ import { listMyPieces } from "@/lib/owner/pieces";
 import { listUpcoming } from "@/lib/reminders/staff";
 import { claimRatesCsv } from "@/lib/reports";
 import { listAudit } from "@/lib/studio/audit";
-import { calendarWeek, technicianDay } from "@/lib/visits/service";
+import { calendarWeek } from "@/lib/visits/list";
+import { technicianDay } from "@/lib/visits/technician-day";
 import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
 
 const NOW = new Date("2026-12-02T15:00:00Z");

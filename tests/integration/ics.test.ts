@@ -3,7 +3,11 @@
 import ICAL from "ical.js";
 import { describe, expect, it } from "vitest";
 import { buildInvite } from "@/lib/visits/ics";
-import { bookVisit, cancelVisit, listJobSlots, moveVisit, putTechnicianHours } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { cancelVisit } from "@/lib/visits/cancel";
+import { listJobSlots } from "@/lib/visits/slots";
+import { moveVisit } from "@/lib/visits/reschedule";
+import { putTechnicianHours } from "@/lib/visits/technicians";
 import { memberContext } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
 import { ownerActor, staffActor, visitWorld, WEEKDAYS_9_TO_5 } from "./visits-helpers";

@@ -18,11 +18,13 @@ import { mailAutomaticRefund, mailReceipt, mailRefundIssued } from "@/lib/repair
 import { sendQuote } from "@/lib/repairs/payment";
 import { deliverPieceSchema } from "@/lib/validation/clients";
 import { loadVisitMailView, sendVisitReminder } from "@/lib/visits/mail";
-import { bookVisit, listJobSlots, submitReport } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { listJobSlots } from "@/lib/visits/slots";
+import { submitReport } from "@/lib/visits/report";
 import { createAcceptedClaim, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
 import { claimWorld } from "./claims-helpers";
-import { ownerActor, visitWorld } from "./visits-helpers";
+import { ownerActor, reportInput, visitWorld } from "./visits-helpers";
 
 let listener: InboundListener;
 beforeAll(async () => {
@@ -128,7 +130,7 @@ const CASES: Case[] = [
     kind: "visit summary",
     send: async () => {
       const w = await bookedVisit();
-      await submitReport(w.tech, w.visit.id, { work: "Re-oiled the top (invented).", layers: [] }, new Date(Date.parse(w.slot.start) + 3_600_000));
+      await submitReport(w.tech, w.visit.id, reportInput({ work: "Re-oiled the top (invented).", layers: [] }), new Date(Date.parse(w.slot.start) + 3_600_000));
       return { to: w.owner.email, subject: /^Visit report/, lands: { kind: "visit", id: w.visit.id } };
     },
   },

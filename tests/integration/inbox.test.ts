@@ -21,7 +21,8 @@ import { findThread } from "@/lib/messages/store";
 import { getThread, listInbox, ownerConversations, postOwnerMessage, replyToThread, unreadCount, updateThread } from "@/lib/messages/service";
 import { createUser } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
-import { bookVisit, listJobSlots } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { listJobSlots } from "@/lib/visits/slots";
 import { claimWorld, fileClaim, otherStudioStaff } from "./claims-helpers";
 import { ownerActor, visitWorld } from "./visits-helpers";
 

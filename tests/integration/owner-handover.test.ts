@@ -10,7 +10,12 @@ import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { getOwnerJob, listOwnerJobs } from "@/lib/repairs/jobs";
 import { loadVisitMailView } from "@/lib/visits/mail";
-import { bookingContext, bookVisit, cancelVisit, listJobSlots, listVisits, moveVisit, visitOfJob } from "@/lib/visits/service";
+import { bookingContext, visitOfJob } from "@/lib/visits/job-visit";
+import { bookVisit } from "@/lib/visits/book";
+import { cancelVisit } from "@/lib/visits/cancel";
+import { listJobSlots } from "@/lib/visits/slots";
+import { listVisits } from "@/lib/visits/list";
+import { moveVisit } from "@/lib/visits/reschedule";
 import { createUser } from "../support/fixtures";
 import { addJob, luciaUser, ownerActor, staffActor, visitWorld } from "./visits-helpers";
 
@@ -70,7 +75,7 @@ describe("handing a piece on", () => {
     expect(visitOfJob(me, w.job.id).visit).toBeNull();
     expect404(() => bookingContext(me, w.job.id));
     await expect404Async(moveVisit(me, visit.id, { start: slot2.start }));
-    await expect404Async(cancelVisit(me, visit.id, {}));
+    await expect404Async(cancelVisit(me, visit.id));
     // Visit mail (changes, reminders) no longer goes to them.
     expect(loadVisitMailView(visit.id)!.owner).toBeNull();
     // Nothing they can still read carries the new address.

@@ -11,7 +11,8 @@ import { profileFormValues, reminderTiming, toMinorUnits, updateProfile, updateR
 import { listEmailTemplates, renderEmailPreview } from "@/lib/settings/email-previews";
 import { listAudit } from "@/lib/studio/audit";
 import { changeMemberRole } from "@/lib/studio/team";
-import { bookVisit, listJobSlots } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { listJobSlots } from "@/lib/visits/slots";
 import { createStudio, memberContext } from "../support/fixtures";
 import { addJob, ownerActor, staffActor, visitWorld } from "./visits-helpers";
 

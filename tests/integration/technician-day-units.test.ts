@@ -7,7 +7,9 @@ import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { finishProducts, studios } from "@/db/schema";
 import { formatVolume } from "@/lib/format";
-import { bookVisit, listJobSlots, technicianDay } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { listJobSlots } from "@/lib/visits/slots";
+import { technicianDay } from "@/lib/visits/technician-day";
 import { staffActor, visitWorld } from "./visits-helpers";
 
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York

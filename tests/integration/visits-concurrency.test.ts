@@ -7,7 +7,7 @@ import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { repairJobs, visits } from "@/db/schema";
-import { listJobSlots } from "@/lib/visits/service";
+import { listJobSlots } from "@/lib/visits/slots";
 import { addJob, staffActor, visitWorld } from "./visits-helpers";
 
 const run = promisify(execFile);

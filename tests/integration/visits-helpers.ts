@@ -6,8 +6,9 @@ import { getDb } from "@/db/client";
 import { repairJobs, users, type Studio } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { AppError } from "@/lib/errors";
-import type { VisitActor } from "@/lib/visits/service";
-import { putTechnicianHours } from "@/lib/visits/service";
+import type { VisitActor } from "@/lib/visits/visit-row";
+import { putTechnicianHours } from "@/lib/visits/technicians";
+import { visitReportSchema, type VisitReportInput } from "@/lib/validation/visits";
 import { createPiece, createProduct, createStudio, createUser, memberContext } from "../support/fixtures";
 
 export function luciaUser(u: typeof users.$inferSelect): User {
@@ -62,4 +63,9 @@ export async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<n
     if (e instanceof ZodError) return 400;
     throw e;
   }
+}
+
+/** A visit report as POST /api/visits/[id]/report parses it (defaults filled, unknown fields dropped), for submitReport. */
+export function reportInput(body: VisitReportInput & Record<string, unknown>) {
+  return visitReportSchema.parse(body);
 }

@@ -8,16 +8,21 @@ import sharp from "sharp";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { auditLog, clients, files, pieces, repairJobs, users, visits } from "@/db/schema";
-import { createJobFromClaim } from "@/lib/claims/service";
+import { createJobFromClaim } from "@/lib/claims/open-job";
 import { AppError } from "@/lib/errors";
 import { canViewFile } from "@/lib/files/access";
 import { visitDayWord } from "@/lib/format";
 import { runVisitReminderPass } from "@/lib/visits/reminders";
-import { addVisitPhoto, bookVisit, listJobSlots, submitReport, technicianDay, visitOfJob, visitPhotosOf } from "@/lib/visits/service";
+import { addVisitPhoto, visitPhotosOf } from "@/lib/visits/photos";
+import { bookVisit } from "@/lib/visits/book";
+import { listJobSlots } from "@/lib/visits/slots";
+import { submitReport } from "@/lib/visits/report";
+import { technicianDay } from "@/lib/visits/technician-day";
+import { visitOfJob } from "@/lib/visits/job-visit";
 import { confirmSignOff, signOffPreview } from "@/lib/visits/sign-off";
 import { createAcceptedClaim, createStudio, createUser, memberContext } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
-import { luciaUser, ownerActor, staffActor, visitWorld } from "./visits-helpers";
+import { luciaUser, ownerActor, reportInput, staffActor, visitWorld } from "./visits-helpers";
 
 const HOUR = 3_600_000;
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
@@ -79,15 +84,15 @@ describe("a report before the visit's start", () => {
     const w = await bookedThread();
     const before = new Date(Date.parse(w.visit.start) - 5 * HOUR);
     const report = { work: "Re-oiled the ring marks (invented).", layers: [] };
-    const byTech = await errorOf(submitReport(w.tech, w.visit.id, report, before));
+    const byTech = await errorOf(submitReport(w.tech, w.visit.id, reportInput(report), before));
     expect(byTech.status).toBe(409);
     expect(byTech.message).toMatch(/^This visit starts Tuesday, 4 May 2027, 09:00–10:30 \(America\/New_York\)\. File the report once it has started/);
-    const noReason = await errorOf(submitReport(w.staff, w.visit.id, report, before));
+    const noReason = await errorOf(submitReport(w.staff, w.visit.id, reportInput(report), before));
     expect(noReason.status).toBe(422);
     expect(noReason.fieldErrors).toHaveProperty("earlyReason");
     expect(getDb().select().from(visits).where(eq(visits.id, w.visit.id)).get()!.state).toBe("booked");
 
-    await submitReport(w.staff, w.visit.id, { ...report, earlyReason: "Owner called: done at the shop the evening before (invented)." }, before);
+    await submitReport(w.staff, w.visit.id, reportInput({ ...report, earlyReason: "Owner called: done at the shop the evening before (invented)." }), before);
     expect(getDb().select().from(visits).where(eq(visits.id, w.visit.id)).get()).toMatchObject({ state: "done", reportEarlyReason: "Owner called: done at the shop the evening before (invented)." });
     const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, w.visit.id), eq(auditLog.action, "visit.reported"))).get()!;
     expect(audit.actorId).toBe(w.staff.user.id);
@@ -96,7 +101,7 @@ describe("a report before the visit's start", () => {
 
   it("the technician files once the visit has started, with no reason asked", async () => {
     const w = await bookedThread();
-    await submitReport(w.tech, w.visit.id, { work: "Done (invented).", layers: [] }, new Date(Date.parse(w.visit.start) + 60_000));
+    await submitReport(w.tech, w.visit.id, reportInput({ work: "Done (invented).", layers: [] }), new Date(Date.parse(w.visit.start) + 60_000));
     expect(getDb().select().from(visits).where(eq(visits.id, w.visit.id)).get()).toMatchObject({ state: "done", reportEarlyReason: null });
   });
 });
@@ -105,7 +110,7 @@ describe("the owner's sign-off", () => {
   it("is the owner's own act: a single-use link in the report mail, confirmed once; no name typed for them", async () => {
     const w = await bookedThread();
     const since = Date.now();
-    await submitReport(w.tech, w.visit.id, { work: "Re-oiled the top (invented).", layers: [], signOffName: "Typed by someone else" }, new Date(Date.parse(w.visit.start) + HOUR));
+    await submitReport(w.tech, w.visit.id, reportInput({ work: "Re-oiled the top (invented).", layers: [], signOffName: "Typed by someone else" }), new Date(Date.parse(w.visit.start) + HOUR));
     const mail = await waitForMail({ to: w.owner.email, subject: /^Visit report/, since });
     expect(mail.text).not.toContain("Typed by someone else");
     expect(mail.text).not.toMatch(/Signed off by/);
@@ -129,7 +134,7 @@ describe("the owner's sign-off", () => {
     const w = await bookedThread();
     const since = Date.now();
     const reportedAt = new Date(Date.parse(w.visit.start) + HOUR);
-    await submitReport(w.tech, w.visit.id, { work: "Re-oiled (invented).", layers: [] }, reportedAt);
+    await submitReport(w.tech, w.visit.id, reportInput({ work: "Re-oiled (invented).", layers: [] }), reportedAt);
     const mail = await waitForMail({ to: w.owner.email, subject: /^Visit report/, since });
     const token = new URL(/https?:\/\/\S+\/visit-sign-off\?token=[A-Za-z0-9_-]+/.exec(mail.text)![0]).searchParams.get("token")!;
     expect(confirmSignOff(token, new Date(reportedAt.getTime() + 31 * 86_400_000))).toBeNull();
@@ -141,7 +146,7 @@ describe("visit photos", () => {
   it("are stored with the visit and shown to the studio and to the piece's owner — not to another owner, another studio, or a former owner", async () => {
     const w = await bookedThread();
     const up = await addVisitPhoto(w.tech, w.visit.id, async () => ({ data: new Uint8Array(await jpeg()), fields: { kind: "after" } }));
-    await submitReport(w.tech, w.visit.id, { work: "Re-oiled (invented).", layers: [] }, new Date(Date.parse(w.visit.start) + HOUR));
+    await submitReport(w.tech, w.visit.id, reportInput({ work: "Re-oiled (invented).", layers: [] }), new Date(Date.parse(w.visit.start) + HOUR));
     const ids = (xs: { id: string }[]) => xs.map((x) => x.id);
 
     expect(ids(visitPhotosOf(staffActor(w.staff), { jobId: w.jobId }))).toEqual([up.id]);

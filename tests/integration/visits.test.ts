@@ -9,14 +9,23 @@ import { ZodError } from "zod";
 import { getDb } from "@/db/client";
 import { careLogEntries, files, finishLayers, repairJobs, visitMailSends, visitRules, visits } from "@/db/schema";
 import { AppError } from "@/lib/errors";
+import { bookVisitSchema, technicianHoursSchema, visitReportSchema } from "@/lib/validation/visits";
 import { canViewFile } from "@/lib/files/access";
 import { scheduleFromRows } from "@/lib/pieces/care-inputs";
 import { studioProducts } from "@/lib/pieces/registry";
 import { runVisitReminderPass } from "@/lib/visits/reminders";
-import { addVisitPhoto, bookVisit, cancelVisit, getTechnicianHours, listJobSlots, listVisits, moveVisit, putTechnicianHours, submitReport, technicianDay } from "@/lib/visits/service";
+import { addVisitPhoto } from "@/lib/visits/photos";
+import { bookVisit } from "@/lib/visits/book";
+import { cancelVisit } from "@/lib/visits/cancel";
+import { getTechnicianHours, putTechnicianHours } from "@/lib/visits/technicians";
+import { listJobSlots } from "@/lib/visits/slots";
+import { listVisits } from "@/lib/visits/list";
+import { moveVisit } from "@/lib/visits/reschedule";
+import { submitReport } from "@/lib/visits/report";
+import { technicianDay } from "@/lib/visits/technician-day";
 import { createStudio, createUser, memberContext } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
-import { addJob, luciaUser, ownerActor, staffActor, statusOf, techActor, visitWorld } from "./visits-helpers";
+import { addJob, luciaUser, ownerActor, reportInput, staffActor, statusOf, techActor, visitWorld } from "./visits-helpers";
 
 const HOUR = 3_600_000;
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
@@ -114,7 +123,7 @@ describe("booking", () => {
     expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: "2027-05-10T03:00:00Z" }, NOW))).toBe(409);
     expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: "2027-04-01T14:00:00Z" }, NOW))).toBe(409);
     expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: w.staff.user.id, start: fresh[0]!.start }, NOW))).toBe(400);
-    expect(await statusOf(bookVisit(staffActor(w.staff), { jobId: other.id, technicianId: slot.technicianId, start: "next tuesday" }, NOW))).toBe(400);
+    expect(await statusOf(async () => bookVisit(staffActor(w.staff), bookVisitSchema.parse({ jobId: other.id, technicianId: slot.technicianId, start: "next tuesday" }), NOW))).toBe(400);
   });
 
   it("jobs that are not paid or covered can't get a visit", async () => {
@@ -134,7 +143,7 @@ describe("moving and cancelling", () => {
     const target = slots.find((s) => s.localDate !== slots[0]!.localDate)!;
     const lateNow = start - 20 * HOUR;
     expect(await statusOf(moveVisit(ownerActor(w.owner), v.id, { start: target.start }, lateNow))).toBe(409);
-    expect(await statusOf(cancelVisit(ownerActor(w.owner), v.id, {}, lateNow))).toBe(409);
+    expect(await statusOf(cancelVisit(ownerActor(w.owner), v.id, undefined, lateNow))).toBe(409);
     expect(await statusOf(moveVisit(techActor(w.tech), v.id, { start: target.start }, NOW))).toBe(403);
     // The studio changes its rule to 12 h; now the owner may.
     getDb().insert(visitRules).values({ studioId: w.studio.id, ownerChangeCutoffHours: 12, leadTimeHours: 0 }).run();
@@ -148,7 +157,7 @@ describe("moving and cancelling", () => {
     expect(cancelled.state).toBe("cancelled");
     expect(cancelled.sequence).toBe(2);
     expect(getDb().select().from(repairJobs).where(eq(repairJobs.id, w.job.id)).get()!.state).toBe("covered");
-    expect(await statusOf(cancelVisit(staffActor(w.staff), v.id, {}, NOW))).toBe(409);
+    expect(await statusOf(cancelVisit(staffActor(w.staff), v.id, undefined, NOW))).toBe(409);
     // The job can be booked again.
     const again = await bookVisit(ownerActor(w.owner), { jobId: w.job.id, technicianId: target.technicianId, start: target.start }, NOW);
     expect(again.icsUid).not.toBe(v.icsUid);
@@ -169,13 +178,13 @@ describe("tenancy and roles", () => {
     for (const actor of [strangerStaff, strangerOwner]) {
       expect(await statusOf(() => listJobSlots(actor, w.job.id, {}, NOW))).toBe(404);
       expect(await statusOf(moveVisit(actor, v.id, { start: slot.start }, NOW))).toBe(404);
-      expect(await statusOf(cancelVisit(actor, v.id, {}, NOW))).toBe(404);
+      expect(await statusOf(cancelVisit(actor, v.id, undefined, NOW))).toBe(404);
       expect(listVisits(actor, range).visits.some((x) => x.id === v.id)).toBe(false);
     }
     expect(await statusOf(bookVisit(strangerStaff, { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW))).toBe(404);
     expect(await statusOf(() => listJobSlots(techActor(w.tech), w.job.id, {}, NOW))).toBe(404);
-    expect(await statusOf(submitReport(otherTech, v.id, { work: "x", layers: [] }))).toBe(404);
-    expect(await statusOf(submitReport(await memberContext(elsewhere, "technician"), v.id, { work: "x", layers: [] }))).toBe(404);
+    expect(await statusOf(submitReport(otherTech, v.id, reportInput({ work: "x", layers: [] })))).toBe(404);
+    expect(await statusOf(submitReport(await memberContext(elsewhere, "technician"), v.id, reportInput({ work: "x", layers: [] })))).toBe(404);
     expect(listVisits(techActor(otherTech), range).visits).toHaveLength(0);
     expect(listVisits(techActor(w.tech), range).visits.map((x) => x.id)).toEqual([v.id]);
     expect(await statusOf(() => listVisits(techActor(otherTech), { ...range, technician: w.tech.user.id }))).toBe(404);
@@ -190,7 +199,7 @@ describe("tenancy and roles", () => {
     const w = await visitWorld();
     const bad = async (input: unknown) => {
       try {
-        putTechnicianHours(w.staff, w.tech.user.id, input);
+        putTechnicianHours(w.staff, w.tech.user.id, technicianHoursSchema.parse(input));
       } catch (e) {
         expect(e).toBeInstanceOf(ZodError);
         return (e as ZodError).issues.map((i) => i.path.join("."));
@@ -235,7 +244,7 @@ describe("the visit report", () => {
 
     const applied = slot.localDate;
     const since = Date.now();
-    const r = await submitReport(w.tech, v.id, { work: "Cleaned, keyed, one coat of oil on the top.", layers: [{ surface: "top", finishClass: "hardwax_oil", productId: w.product.id, coats: 1, appliedOn: applied }] }, reportDay);
+    const r = await submitReport(w.tech, v.id, reportInput({ work: "Cleaned, keyed, one coat of oil on the top.", layers: [{ surface: "top", finishClass: "hardwax_oil", productId: w.product.id, coats: 1, appliedOn: applied }] }), reportDay);
     expect(r.visit.state).toBe("done");
     const stack = db.select().from(finishLayers).where(and(eq(finishLayers.pieceId, w.piece.id), eq(finishLayers.surface, "top"))).all();
     expect(stack).toHaveLength(2);
@@ -253,7 +262,7 @@ describe("the visit report", () => {
     expect(mail.text).toMatch(/\/visit-sign-off\?token=[A-Za-z0-9_-]{20,}/);
     expect(mail.text).toContain(DateTime.fromISO(after.dueOn).setLocale("en-GB").toFormat("d LLLL yyyy"));
     expect(mail.text).toMatch(/still curing/);
-    expect(await statusOf(submitReport(w.tech, v.id, { work: "again", layers: [] }))).toBe(409);
+    expect(await statusOf(submitReport(w.tech, v.id, reportInput({ work: "again", layers: [] })))).toBe(409);
   });
 
   it("refuses layers dated in the future or before delivery, and a product of another class, keeping the field paths", async () => {
@@ -261,14 +270,14 @@ describe("the visit report", () => {
     const slot = listJobSlots(staffActor(w.staff), w.job.id, { from: "2027-05-03T12:00:00Z", to: "2027-05-05T00:00:00Z" }, NOW).slots[0]!;
     const v = await bookVisit(staffActor(w.staff), { jobId: w.job.id, technicianId: slot.technicianId, start: slot.start }, NOW);
     const at = new Date(NOW + 24 * HOUR);
-    const errOf = (layers: unknown[]) => submitReport(w.tech, v.id, { work: "x", layers }, at).then(
+    const errOf = (layers: unknown[]) => submitReport(w.tech, v.id, visitReportSchema.parse({ work: "x", layers }), at).then(
         () => ({ fieldErrors: undefined }),
         (e: AppError) => e,
       );
     expect((await errOf([{ finishClass: "hardwax_oil", coats: 1, appliedOn: "2027-06-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
     expect((await errOf([{ finishClass: "hardwax_oil", coats: 1, appliedOn: "2020-01-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
     expect((await errOf([{ finishClass: "paste_wax", productId: w.product.id, coats: 1, appliedOn: "2027-05-04" }])).fieldErrors).toHaveProperty(["layers.0.finishClass"]);
-    expect(await statusOf(submitReport(w.tech, v.id, { work: "", layers: [] }, at))).toBe(400);
+    expect(await statusOf(async () => submitReport(w.tech, v.id, visitReportSchema.parse({ work: "", layers: [] }), at))).toBe(400);
     expect(getDb().select().from(visits).where(eq(visits.id, v.id)).get()!.state).toBe("booked");
     expect(getDb().select().from(finishLayers).where(eq(finishLayers.pieceId, w.piece.id)).all()).toHaveLength(1);
   });
@@ -300,7 +309,7 @@ describe("the 24 h reminder", () => {
     expect(moved.sent.filter((s) => s.visitId === v.id).map((s) => s.sequence)).toEqual([1]);
     expect(getDb().select().from(visitMailSends).where(eq(visitMailSends.visitId, v.id)).all().map((r) => [r.sequence, r.status]).sort()).toEqual([[0, "sent"], [1, "sent"]]);
 
-    await cancelVisit(staffActor(w.staff), v.id, {}, Date.parse(target.start) - 20 * HOUR);
+    await cancelVisit(staffActor(w.staff), v.id, undefined, Date.parse(target.start) - 20 * HOUR);
     expect(lastInviteAt()).toBe(Date.parse(target.start) - 20 * HOUR);
     expect(mine(await runVisitReminderPass({ now: new Date(Date.parse(target.start) - HOUR) }))).toHaveLength(0);
   });

@@ -2,7 +2,8 @@ import { NextResponse } from "next/server";
 import { parseJson, parseQuery, route } from "@/lib/http/route";
 import { requireVisitActor } from "@/lib/visits/access";
 import { withFreshSlots } from "@/lib/visits/http";
-import { bookVisit, listVisits } from "@/lib/visits/service";
+import { bookVisit } from "@/lib/visits/book";
+import { listVisits } from "@/lib/visits/list";
 import { bookVisitSchema, listVisitsQuerySchema } from "@/lib/validation/visits";
 
 export const dynamic = "force-dynamic";

@@ -3,7 +3,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { HoursEditor } from "@/components/visits/hours-editor";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { listTechnicians } from "@/lib/visits/service";
+import { listTechnicians } from "@/lib/visits/technicians";
 
 export const metadata: Metadata = { title: "Working hours" };
 export const dynamic = "force-dynamic";

@@ -13,7 +13,7 @@ import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { formatClock, formatDate, formatVolume } from "@/lib/format";
-import { technicianDay } from "@/lib/visits/service";
+import { technicianDay } from "@/lib/visits/technician-day";
 
 export const metadata: Metadata = { title: "My day" };
 export const dynamic = "force-dynamic";

@@ -6,7 +6,8 @@ import { WeekCalendar } from "@/components/visits/week-calendar";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { JOB_STATE_LABELS } from "@/lib/repairs/states";
-import { calendarWeek, jobsAwaitingVisit, listTechnicians } from "@/lib/visits/service";
+import { calendarWeek, jobsAwaitingVisit } from "@/lib/visits/list";
+import { listTechnicians } from "@/lib/visits/technicians";
 
 export const metadata: Metadata = { title: "Visits" };
 export const dynamic = "force-dynamic";

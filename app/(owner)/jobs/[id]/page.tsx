@@ -13,7 +13,7 @@ import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE
 import { formatMoney } from "@/lib/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
-import { visitOfJob } from "@/lib/visits/service";
+import { visitOfJob } from "@/lib/visits/job-visit";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import Link from "next/link";
 

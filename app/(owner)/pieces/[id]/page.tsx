@@ -12,7 +12,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatDate, formatInstant, formatTimeLeft } from "@/lib/format";
 import { getMyPiece } from "@/lib/owner/pieces";
-import { visitPhotosOf } from "@/lib/visits/service";
+import { visitPhotosOf } from "@/lib/visits/photos";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import type { CautionKey } from "@/lib/care/cautions";
 import { exclusionLabel, WARRANTY_STATUS_LABELS, type WarrantyLineStatus } from "@/lib/owner/warranty";

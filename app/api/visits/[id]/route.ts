@@ -1,7 +1,7 @@
 import { parseJson, route } from "@/lib/http/route";
 import { requireVisitActor } from "@/lib/visits/access";
 import { withFreshSlots } from "@/lib/visits/http";
-import { moveVisit } from "@/lib/visits/service";
+import { moveVisit } from "@/lib/visits/reschedule";
 import { moveVisitSchema, visitIdParams } from "@/lib/validation/visits";
 
 /** PATCH /api/visits/[id] { start, technicianId?, location? }: moves the visit (same checks as booking). */

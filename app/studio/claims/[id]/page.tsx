@@ -14,7 +14,7 @@ import { forPage } from "@/lib/auth/page";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { getSpecies } from "@/lib/care/species";
 import { CLAIM_CATEGORY_LABELS, decisionText, formatWait } from "@/lib/claims/labels";
-import { getStaffClaim } from "@/lib/claims/service";
+import { getStaffClaim } from "@/lib/claims/view-claim";
 import { clientIdForOwner } from "@/lib/clients/get";
 
 export const metadata: Metadata = { title: "Claim" };

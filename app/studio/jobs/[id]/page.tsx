@@ -18,7 +18,7 @@ import { getStudioJob } from "@/lib/repairs/jobs";
 import { priceListOf } from "@/lib/repairs/price-list";
 import { canMove, JOB_STATE_LABELS, JOB_STATE_TONES, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
-import { visitOfJob } from "@/lib/visits/service";
+import { visitOfJob } from "@/lib/visits/job-visit";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 
 export const metadata: Metadata = { title: "Repair job" };

@@ -18,7 +18,7 @@ import { PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/c
 import { careBasics } from "@/lib/pieces/care-basics";
 import { handoverStatus } from "@/lib/pieces/handover";
 import { piecePage } from "@/lib/pieces/registry";
-import { visitPhotosOf } from "@/lib/visits/service";
+import { visitPhotosOf } from "@/lib/visits/photos";
 
 export const metadata: Metadata = { title: "Piece" };
 

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { parseQuery, route } from "@/lib/http/route";
 import { requireVisitActor } from "@/lib/visits/access";
-import { listJobSlots } from "@/lib/visits/service";
+import { listJobSlots } from "@/lib/visits/slots";
 import { slotsQuerySchema, visitIdParams } from "@/lib/validation/visits";
 
 export const dynamic = "force-dynamic";

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { requireStudioMember } from "@/lib/auth/guards";
 import { parseJson, route } from "@/lib/http/route";
-import { getTechnicianHours, putTechnicianHours } from "@/lib/visits/service";
+import { getTechnicianHours, putTechnicianHours } from "@/lib/visits/technicians";
 import { technicianHoursSchema, visitIdParams } from "@/lib/validation/visits";
 
 export const dynamic = "force-dynamic";

@@ -2,7 +2,7 @@ import { NextResponse } from "next/server";
 import { requireStudioMember } from "@/lib/auth/guards";
 import { readUpload } from "@/lib/files/upload";
 import { route } from "@/lib/http/route";
-import { addVisitPhoto } from "@/lib/visits/service";
+import { addVisitPhoto } from "@/lib/visits/photos";
 import { visitIdParams } from "@/lib/validation/visits";
 
 /** POST /api/visits/[id]/photos (multipart/form-data: file, kind=before|after) */

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { requireStudioMember } from "@/lib/auth/guards";
 import { parseJson, route } from "@/lib/http/route";
-import { submitReport } from "@/lib/visits/service";
+import { submitReport } from "@/lib/visits/report";
 import { visitIdParams, visitReportSchema } from "@/lib/validation/visits";
 
 /** POST /api/visits/[id]/report: the visit's technician (or staff) files what was done. */

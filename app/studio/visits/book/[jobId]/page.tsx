@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { BookVisit } from "@/components/visits/book-visit";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { bookingContext } from "@/lib/visits/service";
+import { bookingContext } from "@/lib/visits/job-visit";
 
 export const metadata: Metadata = { title: "Book a visit" };
 

@@ -1,0 +1,81 @@
+import "server-only";
+import { and, asc, eq, gte, inArray, lt } from "drizzle-orm";
+import type { z } from "zod";
+import { getDb } from "@/db/client";
+import { pieces, repairJobs, studios, users, visits } from "@/db/schema";
+import type { StudioContext } from "@/lib/auth/guards";
+import { addDays, isoWeekday, localDate } from "@/lib/care/dates";
+import { notFound } from "@/lib/errors";
+import { visitDay } from "@/lib/validation/dates";
+import type { listVisitsQuerySchema } from "@/lib/validation/visits";
+import { ownerVisitWhere } from "./access";
+import { isStudioTechnician, studioTechnicians } from "./availability";
+import { visitJson, type VisitActor } from "./visit-row";
+
+// The calendar's lists: the visits of a range (the week view), the jobs waiting for a visit, the week to open on.
+
+export type ListVisitsQuery = z.output<typeof listVisitsQuerySchema>;
+
+/** GET /api/visits?technician&from&to: staff see the team (or one technician), a technician their own, an owner theirs. */
+export function listVisits(actor: VisitActor, q: ListVisitsQuery) {
+  const db = getDb();
+  const from = new Date(q.from);
+  const to = new Date(q.to);
+  if (actor.kind === "technician" && q.technician && q.technician !== actor.ctx.user.id) throw notFound("No such technician.");
+  const technician = actor.kind === "technician" ? actor.ctx.user.id : q.technician;
+  if (actor.kind === "staff" && technician && !isStudioTechnician(db, actor.ctx.studio.id, technician)) throw notFound("No such technician.");
+  const rows = db
+    .select({ visit: visits, jobTitle: repairJobs.title, jobState: repairJobs.state, claimId: repairJobs.claimId, pieceTitle: pieces.title, ownerName: users.name, studioTz: studios.timeZone })
+    .from(visits)
+    .innerJoin(repairJobs, eq(repairJobs.id, visits.jobId))
+    .innerJoin(pieces, eq(pieces.id, visits.pieceId))
+    .innerJoin(studios, eq(studios.id, visits.studioId))
+    .leftJoin(users, eq(users.id, repairJobs.ownerId))
+    .where(
+      and(
+        actor.kind === "owner" ? ownerVisitWhere(actor.user.id) : eq(visits.studioId, actor.ctx.studio.id),
+        technician ? eq(visits.technicianId, technician) : undefined,
+        lt(visits.startAt, to),
+        gte(visits.endAt, from),
+        q.includeCancelled === "1" ? undefined : inArray(visits.state, ["booked", "done"]),
+      ),
+    )
+    .orderBy(asc(visits.startAt))
+    .limit(1000)
+    .all();
+  const techs = actor.kind === "owner" ? [] : studioTechnicians(db, actor.ctx.studio.id);
+  const names = new Map(db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, [...new Set(rows.map((r) => r.visit.technicianId)), "-"])).all().map((u) => [u.id, u.name]));
+  return {
+    timeZone: actor.kind === "owner" ? (rows[0]?.studioTz ?? "UTC") : actor.ctx.studio.timeZone,
+    technicians: actor.kind === "technician" ? techs.filter((t) => t.id === actor.ctx.user.id).map(({ id, name }) => ({ id, name })) : techs.map(({ id, name }) => ({ id, name })),
+    visits: rows.map((r) =>
+      visitJson(r.visit, {
+        jobTitle: r.jobTitle,
+        jobState: r.jobState,
+        pieceTitle: r.pieceTitle,
+        ownerName: actor.kind === "owner" ? undefined : (r.ownerName ?? null),
+        claimId: actor.kind === "staff" ? r.claimId : undefined,
+        technicianName: names.get(r.visit.technicianId) ?? "",
+      }),
+    ),
+  };
+}
+
+/** Jobs waiting for a visit (paid or covered, none booked), for staff booking from the calendar. */
+export function jobsAwaitingVisit(ctx: StudioContext) {
+  return getDb()
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, pieceTitle: pieces.title, ownerName: users.name })
+    .from(repairJobs)
+    .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
+    .leftJoin(users, eq(users.id, repairJobs.ownerId))
+    .where(and(eq(repairJobs.studioId, ctx.studio.id), inArray(repairJobs.state, ["paid", "covered"])))
+    .orderBy(asc(repairJobs.updatedAt))
+    .all();
+}
+
+/** Today and this week's Monday in the studio's time zone, for the calendar's first view. */
+export function calendarWeek(ctx: StudioContext, week?: string, now = Date.now()) {
+  const today = localDate(now, ctx.studio.timeZone);
+  const base = visitDay().safeParse(week).data ?? today;
+  return { today, monday: addDays(base, 1 - isoWeekday(base)) };
+}

@@ -1,0 +1,140 @@
+import "server-only";
+import { and, asc, eq, gte, inArray, lt } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { claims, clients, pieces, repairJobs, users, visits, type FinishProduct, type Piece, type RepairJob } from "@/db/schema";
+import type { StudioContext } from "@/lib/auth/guards";
+import { topArea } from "@/lib/care/area";
+import { cautionsFor } from "@/lib/care/cautions";
+import { cureWindow } from "@/lib/care/cure";
+import { addDays, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
+import { productNeeded } from "@/lib/care/quantity";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass } from "@/lib/care/vocabulary";
+import { fileUrl } from "@/lib/claims/claim-row";
+import { displayPhone } from "@/lib/clients/phone";
+import { notFound } from "@/lib/errors";
+import { formatVolume, type UnitSystem } from "@/lib/format";
+import { topShape } from "@/lib/pieces/care-inputs";
+import { studioProducts } from "@/lib/pieces/registry";
+import { visitDay } from "@/lib/validation/dates";
+import { isStudioTechnician } from "./availability";
+import { formatVisitWhen } from "@/lib/format";
+import { claimPhotosByClaim, layersByPiece, photosByVisit } from "./visits-sql";
+import { iso, visitJson } from "./visit-row";
+
+// The technician's day: each visit of one technician on one local date with what it needs.
+
+export type BringItem = {
+  productId: string;
+  product: string;
+  finishClass: FinishClass;
+  classLabel: string;
+  coats: number;
+  /** The engine's exact amount (formatVolume rounds it once, for display); `ml` is that rounding in mL. */
+  exactMl: number;
+  ml: number;
+  /** Containers to open, their sizes in the studio's units ("2 × 3.4 US fl oz (100 mL)"). */
+  containers: string;
+  /** How long what she applies keeps water and objects off, and until full use (lib/care/cure). */
+  cure: { lightUseHours: number; fullCureDays: number };
+};
+
+function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], appliedOn: string, units: UnitSystem): BringItem[] {
+  const shape = topShape(piece);
+  const areaM2 = shape ? topArea(shape).m2 : 0;
+  if (!areaM2) return [];
+  const input = job.quoteInput as { tasks?: CareTaskKind[]; productIds?: string[]; coats?: number };
+  const coats = Math.max(1, Number(input.coats) || 1);
+  const tasks = new Set(input.tasks ?? []);
+  const chosen = products.filter((p) => (input.productIds ?? []).includes(p.id));
+  const list = chosen.length ? chosen : products.filter((p) => tasks.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).slice(0, 1);
+  return list.map((p) => {
+    const need = productNeeded({ areaM2, coats, coverageM2PerL: p.coverageM2PerL, containerSizesMl: p.containers.map((c) => c.ml) });
+    const cure = cureWindow({ finishClass: p.finishClass, appliedOn, productId: p.id }, products);
+    return {
+      productId: p.id,
+      product: p.name,
+      finishClass: p.finishClass,
+      classLabel: FINISH_CLASS_LABELS[p.finishClass],
+      coats,
+      exactMl: need.exactMl,
+      ml: need.ml,
+      containers: need.containers.map((c) => `${c.count} × ${formatVolume(c.sizeMl, units)}`).join(" + "),
+      cure: { lightUseHours: cure.lightUseHours, fullCureDays: cure.fullCureDays },
+    };
+  });
+}
+
+const mapsUrl = (address: string) => `https://www.openstreetmap.org/search?${new URLSearchParams({ query: address })}`;
+
+/**
+ * The visits of one technician on one local date (default today), in order, with what each needs: the
+ * job's notes, the claim it repairs (description, photos), the finish stack, the owner's name and
+ * phone (the studio's client record), the address with a map link, what to bring with its cure times,
+ * and the cautions. A fixed number of queries for the whole day.
+ */
+export function technicianDay(ctx: StudioContext, opts: { date?: string; technicianId?: string } = {}, now = Date.now()) {
+  const db = getDb();
+  const tz = ctx.studio.timeZone;
+  const date = visitDay().safeParse(opts.date).data ?? localDate(now, tz);
+  const technicianId = ctx.role === "technician" ? ctx.user.id : (opts.technicianId ?? ctx.user.id);
+  if (ctx.role !== "technician" && opts.technicianId && !isStudioTechnician(db, ctx.studio.id, opts.technicianId)) throw notFound("No such technician.");
+  const from = new Date(zonedTimeToEpochMs(date, 0, tz));
+  const to = new Date(zonedTimeToEpochMs(addDays(date, 1), 0, tz));
+  const rows = db
+    .select({ visit: visits, job: repairJobs, piece: pieces, ownerName: users.name, ownerPhone: clients.phone, claim: { id: claims.id, description: claims.description, category: claims.category, noticedOn: claims.noticedOn } })
+    .from(visits)
+    .innerJoin(repairJobs, eq(repairJobs.id, visits.jobId))
+    .innerJoin(pieces, eq(pieces.id, visits.pieceId))
+    .leftJoin(users, eq(users.id, repairJobs.ownerId))
+    .leftJoin(clients, and(eq(clients.studioId, visits.studioId), eq(clients.userId, repairJobs.ownerId)))
+    .leftJoin(claims, and(eq(claims.id, repairJobs.claimId), eq(claims.studioId, visits.studioId)))
+    .where(and(eq(visits.studioId, ctx.studio.id), eq(visits.technicianId, technicianId), inArray(visits.state, ["booked", "done"]), gte(visits.startAt, from), lt(visits.startAt, to)))
+    .orderBy(asc(visits.startAt))
+    .all();
+  const products = studioProducts(ctx.studio.id);
+  const layersOf = layersByPiece(db, rows.map((r) => r.piece.id));
+  const photosOf = photosByVisit(db, rows.map((r) => r.visit.id));
+  const claimPhotosOf = claimPhotosByClaim(db, ctx.studio.id, rows.map((r) => r.claim?.id));
+  const items = rows.map(({ visit, job, piece, ownerName, ownerPhone, claim }) => {
+    const layers = layersOf.get(piece.id) ?? [];
+    const bring = whatToBring(job, piece, products, localDate(visit.startAt.getTime(), tz), ctx.studio.unitSystem);
+    const jobTasks = (job.quoteInput as { tasks?: CareTaskKind[] }).tasks ?? [];
+    // The cautions for this visit's tasks and the products brought, once each (lib/care/cautions).
+    const cautions = cautionsFor({
+      tasks: jobTasks,
+      applying: bring.map((b) => b.finishClass),
+      hasResin: piece.resinKind !== "none" || layers.some((l) => l.finishClass === "epoxy_surface"),
+      audience: "technician",
+    });
+    const photos = (photosOf.get(visit.id) ?? []).map(({ id, kind }) => ({ id, kind }));
+    const tasks = jobTasks.map((k) => CARE_TASK_LABELS[k] ?? k);
+    return {
+      visit: visitJson(visit, { when: formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), tz), mapsUrl: mapsUrl(visit.location), started: visit.startAt.getTime() <= now }),
+      job: { id: job.id, title: job.title, tasks, notes: job.notes },
+      claim: claim?.id
+        ? { id: claim.id, description: claim.description, category: claim.category, noticedOn: claim.noticedOn, photos: (claimPhotosOf.get(claim.id) ?? []).map((f) => ({ id: f.id, url: fileUrl(f.id), thumbUrl: fileUrl(f.id, true) })) }
+        : null,
+      piece: { id: piece.id, title: piece.title, resinKind: piece.resinKind, primarySpeciesId: piece.primarySpeciesId, deliveredOn: piece.deliveredOn, internalNotes: piece.internalNotes },
+      ownerName: ownerName ?? null,
+      ownerPhone: ownerPhone ? { tel: ownerPhone, display: displayPhone(ownerPhone, ctx.studio.country) } : null,
+      layers: layers.map((l) => ({ id: l.id, surface: l.surface, position: l.position, finishClass: l.finishClass, classLabel: FINISH_CLASS_LABELS[l.finishClass], productLabel: l.productLabel, coats: l.coats, appliedOn: l.appliedOn, notes: l.notes })),
+      bring,
+      /** The report's proposed layers: the quote's products and coats. */
+      defaultLayers: bring.map((b) => ({ finishClass: b.finishClass, productId: b.productId, coats: b.coats })),
+      cautions,
+      photos,
+      report: visit.reportedAt
+        ? { work: visit.reportWork ?? "", at: iso(visit.reportedAt), earlyReason: visit.reportEarlyReason, signedOffAt: visit.signedOffAt ? iso(visit.signedOffAt) : null, typedName: visit.reportSignOffName }
+        : null,
+    };
+  });
+  return {
+    date,
+    today: localDate(now, tz),
+    timeZone: tz,
+    technicianId,
+    items,
+    products: products.map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass })),
+  };
+}
+
