@@ -52,9 +52,9 @@ export function CsvImport({ columns }: { columns: readonly string[] }) {
     setResult(r);
     if (r.committed) {
       toast.success(
-        `${r.created} piece${r.created === 1 ? "" : "s"} imported.${r.handover ? ` Hand-over mail sent to ${r.handover.sent} buyer${r.handover.sent === 1 ? "" : "s"}${r.handover.notSent ? `; ${r.handover.notSent} without an e-mail or consent to service mail got none` : ""}.` : ""}`,
+        `${r.created} piece${r.created === 1 ? "" : "s"} imported.${r.handover ? ` Hand-over mail is going out to ${r.handover.total} buyer${r.handover.total === 1 ? "" : "s"}.` : ""}`,
       );
-      router.push("/studio/pieces?sort=created");
+      router.push(r.handover ? `/studio/clients/hand-over?batch=${r.handover.batchId}` : "/studio/pieces?sort=created");
     }
   };
 

@@ -122,7 +122,8 @@ export type ImportResult = {
   /** Buyers of the written rows: matched to clients on record, or new clients (lib/clients/import-buyers). */
   buyers?: { matched: number; created: number; pieceIds: string[] };
   /** Hand-over mail to the imported buyers, when asked for: sent, and not sent (no e-mail or no consent). */
-  handover?: { sent: number; notSent: number };
+  /** The hand-over mailing to the imported buyers (sent after the answer; its progress at /studio/clients/hand-over). */
+  handover?: { batchId: string; total: number };
 };
 
 const norm = (s: string) => s.trim().toLowerCase().replace(/[\s_-]+/g, " ");

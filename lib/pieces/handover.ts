@@ -75,6 +75,11 @@ function buyerOf(ctx: StudioContext, piece: Piece): Client | null {
   return getDb().select().from(clients).where(and(eq(clients.id, piece.clientId), eq(clients.studioId, ctx.studio.id))).get() ?? null;
 }
 
+/** Why this piece's hand-over mail can't go out now; null when it can. */
+export function handoverBlockOf(ctx: StudioContext, piece: Piece): HandoverBlock | null {
+  return blockFor(piece, buyerOf(ctx, piece), everRegistered(getDb(), piece.id));
+}
+
 /** What the studio's piece page shows about the hand-over mail (404 for another studio's piece). */
 export function handoverStatus(ctx: StudioContext, pieceId: string): HandoverStatus {
   const db = getDb();
@@ -144,6 +149,16 @@ export const handoverUrl = (token: string) => new URL(`/hand-over/${token}`, env
  * registered; 422 without a buyer, an e-mail or their consent to service mail.
  */
 export async function sendHandover(ctx: StudioContext, pieceId: string, now = new Date()): Promise<HandoverStatus> {
+  await mailHandover(ctx, pieceId, now);
+  return handoverStatus(ctx, pieceId);
+}
+
+/**
+ * The hand-over mail of one piece, refused as sendHandover says. With `firstOnly` (the bulk mailing,
+ * lib/pieces/handover-batch.ts) only if it never went out: decided in the transaction that records
+ * the sending, so two mailings never send it twice ("already_sent"); a resend stays a single action.
+ */
+export async function mailHandover(ctx: StudioContext, pieceId: string, now = new Date(), { firstOnly = false } = {}): Promise<"sent" | "already_sent"> {
   const db = getDb();
   const piece = loadPiece(ctx, pieceId);
   const client = buyerOf(ctx, piece);
@@ -153,8 +168,9 @@ export async function sendHandover(ctx: StudioContext, pieceId: string, now = ne
   const token = randomToken();
   const expiresAt = new Date(now.getTime() + HANDOVER_LINK_DAYS * 24 * 60 * 60 * 1000);
   const email = await composeHandover(ctx, piece, client, handoverUrl(token), expiresAt, now);
-  db.transaction((tx) => {
+  const recorded = db.transaction((tx) => {
     const before = tx.select({ id: pieceHandovers.id, sendCount: pieceHandovers.sendCount }).from(pieceHandovers).where(eq(pieceHandovers.pieceId, piece.id)).get();
+    if (firstOnly && before?.sendCount) return false;
     tx.insert(pieceHandovers)
       .values({ studioId: ctx.studio.id, pieceId: piece.id, clientId: client.id, email: client.email, tokenHash: sha256Hex(token), expiresAt, firstSentAt: now, lastSentAt: now, sendCount: 1, createdAt: now, updatedAt: now })
       .onConflictDoUpdate({
@@ -175,9 +191,11 @@ export async function sendHandover(ctx: StudioContext, pieceId: string, now = ne
     const audit = { studioId: ctx.studio.id, actorId: ctx.user.id, subjectType: "piece", subjectId: piece.id, data: { clientId: client.id } };
     if (before?.sendCount) recordAudit(tx, { ...audit, action: "piece.handover_resent" });
     else recordAudit(tx, { ...audit, action: "piece.handover_sent" });
+    return true;
   });
+  if (!recorded) return "already_sent";
   await sendMail({ to: client.email, subject: handOverSubject({ pieceTitle: piece.title, studioName: ctx.studio.name }), email, replyTo: ctx.studio.email || undefined, studioId: ctx.studio.id });
-  return handoverStatus(ctx, piece.id);
+  return "sent";
 }
 
 /** At delivery: the mail goes out when it can; otherwise the reason it didn't, in words for staff. */
@@ -189,13 +207,6 @@ export async function handoverAtDelivery(ctx: StudioContext, pieceId: string, no
     if (e instanceof AppError && (e.status === 409 || e.status === 422)) return { sent: false, reason: e.message };
     throw e;
   }
-}
-
-/** After an import, when staff asked for it: the hand-over mail to each imported piece's buyer who can get it. */
-export async function handoversAfterImport(ctx: StudioContext, pieceIds: readonly string[], now = new Date()): Promise<{ sent: number; notSent: number }> {
-  let sent = 0;
-  for (const id of pieceIds) if ((await handoverAtDelivery(ctx, id, now)).sent) sent++;
-  return { sent, notSent: pieceIds.length - sent };
 }
 
 // ---- the link, as the buyer meets it ----

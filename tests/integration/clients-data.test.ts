@@ -39,7 +39,8 @@ import { AppError } from "@/lib/errors";
 import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { importPiecesCsv } from "@/lib/pieces/csv";
-import { handoversAfterImport, sendHandover } from "@/lib/pieces/handover";
+import { sendHandover } from "@/lib/pieces/handover";
+import { createHandoverBatch, handoverBatchProgress, runHandoverBatch } from "@/lib/pieces/handover-batch";
 import { storeImage } from "@/lib/storage";
 import { clientListQuerySchema, createClientSchema } from "@/lib/validation/clients";
 import { createAcceptedClaim, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
@@ -295,7 +296,10 @@ describe("the piece CSV import's buyer columns", () => {
       expect.objectContaining({ kind: "service", granted: true, source: "imported", givenAt: new Date("2025-03-01T20:00:00Z") }),
     ]);
     const before = new Date();
-    expect(await handoversAfterImport(staff, out.buyers!.pieceIds, NOW)).toEqual({ sent: 1, notSent: 1 });
+    // "Send now": the same mailing as the hand-over page's (lib/pieces/handover-batch.ts), run after the answer.
+    const batch = createHandoverBatch(staff, { pieceIds: out.buyers!.pieceIds }, "import");
+    await runHandoverBatch(batch.id);
+    expect(handoverBatchProgress(staff, batch.id)).toMatchObject({ state: "done", total: 2, sent: 1, skipped: [{ reason: "no_consent", count: 1 }], failed: [] });
     await waitForMail({ to: yes, subject: /its care and warranty/, since: before });
     expect(await listMail({ to: no })).toHaveLength(0);
   });
