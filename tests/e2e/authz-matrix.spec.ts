@@ -291,6 +291,10 @@ const ROUTES: RouteRow[] = [
   // Personal data: admins only (another studio's staff are refused by role first); another studio's client is a 404 to its admin. Erasing takes a throwaway client made just before.
   { route: "GET /api/clients/[id]/personal-data", expect: "401 403 403 403 403 200 403 404", before: clientRows, send: ({ api }) => api.get(`/api/clients/${S.clients.demo.id}/personal-data`) },
   { route: "POST /api/clients/[id]/erase", expect: "401 403 403 403 403 200 403 404", before: erasableClient, send: ({ api }) => api.post(`/api/clients/${S.erasable}/erase`, { data: { confirm: true } }) },
+  // Bulk hand-over mail: staff and admins; an empty pick is a 400 before anything is written; an unknown mailing a 404.
+  { route: "GET /api/clients/handover-batches", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/clients/handover-batches") },
+  { route: "POST /api/clients/handover-batches", expect: "401 403 403 403 400 400 400 400", send: ({ api }) => api.post("/api/clients/handover-batches", { data: { pieceIds: [] } }) },
+  { route: "GET /api/clients/handover-batches/[id]", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.get("/api/clients/handover-batches/00000000-0000-4000-8000-000000000000") },
 
   // Claims: the owner who filed it and the studio's staff; nobody else learns it exists.
   { route: "GET /api/claims", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/claims") },
