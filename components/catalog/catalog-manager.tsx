@@ -14,6 +14,7 @@ import { Notice } from "@/components/ui/notice";
 import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, type FinishClass } from "@/lib/care/vocabulary";
+import { currencyDigits, formatMoney } from "@/lib/format";
 import type { CatalogProductInput } from "@/lib/validation/pieces";
 
 export type CatalogRow = {
@@ -33,17 +34,9 @@ export type CatalogRow = {
   cureDefaults: { lightUseHours: number; fullCureDays: number };
 };
 
-function exponent(currency: string): number {
-  return new Intl.NumberFormat("en", { style: "currency", currency }).resolvedOptions().maximumFractionDigits ?? 2;
-}
-
-function money(minor: number, currency: string): string {
-  return new Intl.NumberFormat(undefined, { style: "currency", currency }).format(minor / 10 ** exponent(currency));
-}
-
 /** A price typed in the currency's major unit, kept in minor units. */
 function MoneyField({ label, currency, value, onChange, error }: { label: string; currency: string; value: number | undefined; onChange: (v: number) => void; error?: string }) {
-  const exp = exponent(currency);
+  const exp = currencyDigits(currency);
   const id = useId();
   const [text, setText] = useState(value == null ? "" : (value / 10 ** exp).toFixed(exp));
   return (
@@ -161,7 +154,7 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
   );
 }
 
-export function CatalogManager({ products, currency }: { products: CatalogRow[]; currency: string }) {
+export function CatalogManager({ products, currency, country }: { products: CatalogRow[]; currency: string; country: string }) {
   const router = useRouter();
   const [editing, setEditing] = useState<string | "new" | null>(null);
   const [confirm, setConfirm] = useState<string | null>(null);
@@ -206,7 +199,7 @@ export function CatalogManager({ products, currency }: { products: CatalogRow[];
                     Wear intervals (heavy / moderate / light): {months(p.intervalHeavyMonths, p.defaults.heavy)} / {months(p.intervalModerateMonths, p.defaults.moderate)} / {months(p.intervalLightMonths, p.defaults.light)} months
                     {p.intervalHeavyMonths ?? p.intervalModerateMonths ?? p.intervalLightMonths ? <span className="text-muted"> (bold: the studio&apos;s own)</span> : <span className="text-muted"> (defaults)</span>}
                   </p>
-                  <p className="text-sm">{p.containers.length ? p.containers.map((c) => `${c.ml} mL at ${money(c.priceMinor, currency)}`).join(" · ") : <span className="text-muted">No container sizes</span>}</p>
+                  <p className="text-sm">{p.containers.length ? p.containers.map((c) => `${c.ml} mL at ${formatMoney(c.priceMinor, currency, country)}`).join(" · ") : <span className="text-muted">No container sizes</span>}</p>
                   <p className="text-sm">
                     Cure: {p.cureLightUseHours ?? p.cureDefaults.lightUseHours} hours to light use, {p.cureFullDays ?? p.cureDefaults.fullCureDays} days to full use
                     <span className="text-muted">{p.cureLightUseHours != null || p.cureFullDays != null ? " (from the label)" : " (usual for the class)"}</span>

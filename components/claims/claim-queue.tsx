@@ -13,6 +13,7 @@ import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF, formatWait } from "@/l
 import type { ClaimState } from "@/lib/claims/states";
 import { apiJson } from "@/components/api-client";
 import { StateBadge } from "./state-badge";
+import { formatCount } from "@/lib/format";
 
 type Row = {
   id: string;
@@ -110,7 +111,7 @@ export function ClaimQueue() {
       {isError ? <Notice tone="error" title="The queue didn't load">{error.message}</Notice> : null}
       {data ? (
         <p className="text-sm text-muted" aria-live="polite">
-          {data.total === 0 ? "" : `${from}–${to} of ${data.total.toLocaleString()} claim${data.total === 1 ? "" : "s"}`}
+          {data.total === 0 ? "" : `${from}–${to} of ${formatCount(data.total)} claim${data.total === 1 ? "" : "s"}`}
         </p>
       ) : null}
       {data && data.claims.length === 0 ? (

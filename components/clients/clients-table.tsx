@@ -11,12 +11,14 @@ import { cn } from "@/components/ui/cn";
 import { SelectField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import type { ClientPage } from "@/lib/clients/list";
+import { formatCount, formatInstant } from "@/lib/format";
 
 const KEYS = ["q", "filter", "sort", "dir", "page"] as const;
 type Key = (typeof KEYS)[number];
 
 /** The studio's clients: search, filters, sort and page live in the URL; rows come from GET /api/clients. */
-export function ClientsTable() {
+/** `timeZone`: the studio's, in which the last-change dates are read. */
+export function ClientsTable({ timeZone }: { timeZone: string }) {
   const params = useSearchParams();
   const router = useRouter();
   const pathname = usePathname();
@@ -126,7 +128,7 @@ export function ClientsTable() {
       </form>
 
       <div aria-live="polite" className="text-sm text-muted">
-        {query.isPending ? "Loading clients…" : data && data.total > 0 ? `${from}–${to} of ${data.total.toLocaleString()} client${data.total === 1 ? "" : "s"}` : null}
+        {query.isPending ? "Loading clients…" : data && data.total > 0 ? `${from}–${to} of ${formatCount(data.total)} client${data.total === 1 ? "" : "s"}` : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
       </div>
 
@@ -191,7 +193,7 @@ export function ClientsTable() {
                     {r.unregistered ? <span className="text-muted"> · {r.unregistered} not registered</span> : null}
                   </td>
                   <td className="text-sm">{r.openClaims || <span className="text-muted">—</span>}</td>
-                  <td className="text-sm whitespace-nowrap">{new Date(r.updatedAt).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric" })}</td>
+                  <td className="text-sm whitespace-nowrap">{formatInstant(r.updatedAt, timeZone)}</td>
                 </tr>
               ))}
             </tbody>

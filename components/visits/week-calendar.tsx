@@ -15,6 +15,7 @@ import { addDays, localDateTime, parseHhMm, zonedTimeToEpochMs } from "@/lib/car
 import type { VisitEditFormValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError } from "@/components/api-client";
+import { formatDate } from "@/lib/format";
 
 type CalVisit = { id: string; jobId: string; technicianId: string; technicianName: string; start: string; end: string; state: "booked" | "done" | "cancelled"; jobTitle: string; pieceTitle: string; ownerName: string | null; location: string; version: number; claimId?: string | null };
 type Tech = { id: string; name: string };
@@ -26,9 +27,7 @@ const ROW_PX = 30;
 const ROWS = (DAY_END - DAY_START) / STEP;
 const TECH_STYLES = ["border-resin bg-resin-soft", "border-warn bg-warn-soft", "border-ok bg-ok-soft", "border-ink/40 bg-card"];
 
-function weekdayLabel(date: string) {
-  return new Intl.DateTimeFormat("en-GB", { weekday: "short", day: "numeric", month: "short", timeZone: "UTC" }).format(new Date(`${date}T12:00:00Z`));
-}
+const weekdayLabel = (date: string) => formatDate(date, { weekday: "short", short: true, year: false });
 const pad = (n: number) => String(n).padStart(2, "0");
 const hm = (min: number) => `${pad(Math.floor(min / 60))}:${pad(min % 60)}`;
 const initials = (name: string) => name.split(/\s+/).map((w) => w[0]).join("").slice(0, 2).toUpperCase();

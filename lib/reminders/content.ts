@@ -6,16 +6,11 @@ import { productNeeded } from "@/lib/care/quantity";
 import type { Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { cautionLine, cautionsFor as catalogueCautions } from "@/lib/care/cautions";
-import { formatArea, formatDistance, formatMoney, formatVolume, type UnitSystem } from "@/lib/format";
+import { formatArea, formatDate, formatDistance, formatMoney, formatVolume, type UnitSystem } from "@/lib/format";
 import type { CareTaskKind, ReminderStep } from "@/lib/care/vocabulary";
 
-const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
-
-/** "2 May 2026" — day, month name, year: read the same way everywhere. */
-export function longDate(iso: string): string {
-  const [y, m, d] = iso.split("-").map(Number);
-  return `${d} ${MONTHS[(m ?? 1) - 1]} ${y}`;
-}
+/** "2 May 2026": lib/format's date, under the name lib/reminders/compose.ts imports. */
+export const longDate = (iso: string) => formatDate(iso);
 
 export const SURFACE_WORDS: Record<CareTask["surface"], string> = { top: "top", base: "base", whole_piece: "whole piece" };
 
@@ -80,26 +75,26 @@ const inDays = (n: number) => (n === 1 ? "tomorrow" : `in ${n} days`);
 const daysAgo = (n: number) => (n === 1 ? "yesterday" : `${n} days ago`);
 
 export function stepHeadline(step: ReminderStep, label: string, dueOn: string, days: number): string {
-  if (days > 0) return `${label} coming due on ${longDate(dueOn)}`;
+  if (days > 0) return `${label} coming due on ${formatDate(dueOn)}`;
   if (days === 0) return `${label} is due today`;
-  return step === "after_30d" ? `${label} is overdue` : `${label} was due on ${longDate(dueOn)}`;
+  return step === "after_30d" ? `${label} is overdue` : `${label} was due on ${formatDate(dueOn)}`;
 }
 
 export function subjectFor(step: ReminderStep, label: string, pieceTitle: string, dueOn: string, days: number, surface: CareTask["surface"] = "top"): string {
   // A piece can have the same task on its top and its base; the base one says so.
   const what = `${label.toLowerCase()}${surface === "base" ? " of the base" : ""} for your ${pieceTitle}`;
-  if (days > 0) return `Coming due ${longDate(dueOn)}: ${what}`;
+  if (days > 0) return `Coming due ${formatDate(dueOn)}: ${what}`;
   if (days === 0) return `Due today: ${what}`;
-  return step === "after_30d" ? `Overdue since ${longDate(dueOn)}: ${what}` : `Due since ${longDate(dueOn)}: ${what}`;
+  return step === "after_30d" ? `Overdue since ${formatDate(dueOn)}: ${what}` : `Due since ${formatDate(dueOn)}: ${what}`;
 }
 
 /** The opening sentence: when, relative to the owner's today. */
 export function leadFor(step: ReminderStep, p: { pieceTitle: string; taskLabel: string; surface: string; dueOn: string }, days: number): string {
   const what = `${p.taskLabel.toLowerCase()} (${p.surface})`;
-  if (days > 0) return `Your ${p.pieceTitle} is due for care ${inDays(days)}, on ${longDate(p.dueOn)}: ${what}.`;
+  if (days > 0) return `Your ${p.pieceTitle} is due for care ${inDays(days)}, on ${formatDate(p.dueOn)}: ${what}.`;
   if (days === 0) return `Your ${p.pieceTitle} is due for care today: ${what}.`;
   const last = step === "after_30d" ? " This is the last reminder for this round." : "";
-  return `Your ${p.pieceTitle} was due for care on ${longDate(p.dueOn)}, ${daysAgo(-days)}: ${what}. If you have done it, log it and we will stop reminding you.${last}`;
+  return `Your ${p.pieceTitle} was due for care on ${formatDate(p.dueOn)}, ${daysAgo(-days)}: ${what}. If you have done it, log it and we will stop reminding you.${last}`;
 }
 
 const SINCE_WORDS: Record<CareTaskKind, string> = {
@@ -129,17 +124,17 @@ export function whyNow(task: CareTask, piece?: { use: keyof typeof USE_WORDS; su
   const interval = monthsText(task.interval.months, task.interval.days);
   const where = task.surface === "whole_piece" ? "" : ` on the ${SURFACE_WORDS[task.surface]}`;
   if (task.kind === "annual_check") {
-    const from = task.clockSource === "care_log" ? `The last check was on ${longDate(task.clockFrom)}` : `Your piece was delivered on ${longDate(task.clockFrom)}`;
-    return [`${from}; we suggest a clean and check every ${interval}, so the next one is due on ${longDate(task.dueOn)}.`];
+    const from = task.clockSource === "care_log" ? `The last check was on ${formatDate(task.clockFrom)}` : `Your piece was delivered on ${formatDate(task.clockFrom)}`;
+    return [`${from}; we suggest a clean and check every ${interval}, so the next one is due on ${formatDate(task.dueOn)}.`];
   }
   const since =
     task.clockSource === "care_log"
-      ? `This was last done${where} on ${longDate(task.clockFrom)}, as the care log shows.`
-      : `${SINCE_WORDS[task.kind]}${where} went on ${longDate(task.clockFrom)}.`;
+      ? `This was last done${where} on ${formatDate(task.clockFrom)}, as the care log shows.`
+      : `${SINCE_WORDS[task.kind]}${where} went on ${formatDate(task.clockFrom)}.`;
   const useWords = piece ? USE_WORDS[piece.use] : BAND_WORDS[task.interval.band];
   const sunWords = piece ? `, ${SUN_WORDS[piece.sun]}` : task.interval.factor !== 1 ? ", in direct sun" : "";
   const band = task.surface === "base" && task.interval.band === "light" ? "a base, which sees light wear" : useWords;
-  return [since, `For ${band}${sunWords}, this finish lasts about ${interval}, so it is due on ${longDate(task.dueOn)}.`];
+  return [since, `For ${band}${sunWords}, this finish lasts about ${interval}, so it is due on ${formatDate(task.dueOn)}.`];
 }
 
 /** How much product a refresh of this top takes, in the owner's units first. */

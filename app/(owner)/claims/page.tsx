@@ -5,13 +5,17 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
+import { formatInstant } from "@/lib/format";
 import { ownerClaimsOverview } from "@/lib/claims/list";
 
 export const metadata: Metadata = { title: "My claims" };
 export const dynamic = "force-dynamic";
 
 export default async function OwnerClaimsPage() {
-  const { claims, pieces } = await forPage(async () => ownerClaimsOverview(await requireUser()));
+  const { claims, pieces, timeZone } = await forPage(async () => {
+    const user = await requireUser();
+    return { ...ownerClaimsOverview(user), timeZone: user.timeZone };
+  });
   return (
     <>
       <PageHeader title="My claims" lead="Damage or a defect you reported to a studio, and where each report stands." />
@@ -27,7 +31,7 @@ export default async function OwnerClaimsPage() {
                   <StateBadge state={c.state} audience="owner" />
                 </div>
                 <p className="mt-1 text-sm text-muted">
-                  {CLAIM_CATEGORY_LABELS[c.category]} · {c.studioName} · filed {c.createdAt.slice(0, 10)} · {c.photos} photo{c.photos === 1 ? "" : "s"}
+                  {CLAIM_CATEGORY_LABELS[c.category]} · {c.studioName} · filed {formatInstant(c.createdAt, timeZone)} · {c.photos} photo{c.photos === 1 ? "" : "s"}
                   {c.decision ? ` · ${decisionText(c.decision, c.coveredPct)}` : ""}
                 </p>
               </Link>

@@ -10,7 +10,7 @@ export const metadata: Metadata = { title: "Clients" };
 export const dynamic = "force-dynamic";
 
 export default async function StudioClientsPage() {
-  await forPage(requireStaff);
+  const ctx = await forPage(requireStaff);
   return (
     <>
       <PageHeader

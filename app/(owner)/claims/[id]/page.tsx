@@ -9,6 +9,7 @@ import { Notice } from "@/components/ui/notice";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
+import { formatInstant } from "@/lib/format";
 import { getOwnerClaim } from "@/lib/claims/view-claim";
 import { MAX_CLAIM_PHOTOS, OPEN_STATES } from "@/lib/claims/states";
 
@@ -39,7 +40,7 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
         <div className="flex flex-wrap items-center gap-2">
           <StateBadge state={claim.state} audience="owner" />
           <span className="text-sm text-muted">
-            {CLAIM_CATEGORY_LABELS[claim.category]} · filed {claim.createdAt.slice(0, 10)} with {studio.name}
+            {CLAIM_CATEGORY_LABELS[claim.category]} · filed {formatInstant(claim.createdAt, user.timeZone)} with {studio.name}
           </span>
         </div>
       </header>
@@ -53,7 +54,7 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
           <p className="font-display text-xl font-semibold">{decisionText(claim.decision, claim.coveredPct)}</p>
           <p>{DECISION_WORDS[claim.decision]}</p>
           {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
-          <p className="text-sm text-muted">Decided {claim.decidedAt?.slice(0, 10)}</p>
+          <p className="text-sm text-muted">Decided {claim.decidedAt ? formatInstant(claim.decidedAt, user.timeZone) : "—"}</p>
         </Card>
       ) : null}
       {repair ? (

@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { StatusBadge, type StatusTone } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMoney } from "@/lib/format";
+import { formatInstant, formatMoney } from "@/lib/format";
 import { REMINDER_STEPS } from "@/lib/care/vocabulary";
 import { formatWait } from "@/lib/claims/labels";
 import { ACTED_WITHIN_DAYS, REMINDER_STEP_LABELS } from "@/lib/overview";
@@ -183,7 +183,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
           ),
           owner: r.ownerName,
           state: r.state,
-          filed: r.filedAt.toISOString().slice(0, 10),
+          filed: formatInstant(r.filedAt, ctx.studio.timeZone),
           wait: r.answeredAt ? formatWait(r.waitMs) : <StatusBadge tone="waiting" label={`Waiting ${formatWait(r.waitMs)}`} />,
         },
       }));

@@ -4,6 +4,7 @@ import { Card } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
+import { formatInstant } from "@/lib/format";
 import { listPolicyVersions, policyEditorValues } from "@/lib/settings";
 import { createPolicyVersionAction } from "../actions";
 
@@ -36,7 +37,7 @@ export default async function WarrantySettingsPage() {
                   {v.current ? <StatusBadge tone="ok" label="In force for new deliveries" /> : v.upcoming ? <StatusBadge tone="waiting" label="Starts later" /> : <StatusBadge tone="stopped" label="Earlier deliveries" />}
                 </p>
                 <p className="text-sm text-muted">
-                  {v.lineCount} line{v.lineCount === 1 ? "" : "s"} · saved {v.createdAt.toISOString().slice(0, 10)}
+                  {v.lineCount} line{v.lineCount === 1 ? "" : "s"} · saved {formatInstant(v.createdAt, ctx.studio.timeZone)}
                   {v.createdBy ? ` by ${v.createdBy}` : ""}
                 </p>
                 <ul className="mt-1 list-disc pl-5 text-sm">
