@@ -1,12 +1,32 @@
 import "server-only";
+import { and, eq, type SQL } from "drizzle-orm";
 import type { User } from "lucia";
-import { requireStaff, requireUser, studioMemberships, type StudioContext } from "@/lib/auth/guards";
+import { repairJobs } from "@/db/schema";
+import type { Actor, ActorRole } from "@/lib/auth/actor";
+import type { StudioContext } from "@/lib/auth/guards";
+import { ownerJobWhere, type OwnerReach } from "./owner-reach";
 
+/** The job functions' view of an Actor: staff act on the studio's jobs; everyone else on their own. */
 export type JobActor = { ctx: StudioContext; owner?: undefined } | { ctx?: undefined; owner: User };
 
-/** Staff act on the studio's jobs; everyone else on their own. */
-export async function requireJobActor(): Promise<JobActor> {
-  const user = await requireUser();
-  const staff = (await studioMemberships(user.id)).some((m) => m.role === "admin" || m.role === "staff");
-  return staff ? { ctx: await requireStaff() } : { owner: user };
+/** Routes name roles ["admin", "staff", "owner"]: a technician then acts as an owner (lib/auth/actor.ts). */
+export function jobActorOf(actor: Actor): JobActor {
+  return actor.role === "owner" ? { owner: actor.user } : { ctx: actor };
+}
+
+/**
+ * The repair jobs an actor sees, written once as a WHERE over repair_jobs: staff and technicians
+ * their studio's, an owner those they reach (lib/repairs/owner-reach.ts; `reach` "history" adds a
+ * former owner's paid jobs, read-only).
+ */
+export function jobVisibleTo(actor: ActorRef, reach: OwnerReach = "act"): SQL {
+  return actor.role === "owner" || !actor.studio ? ownerJobWhere(actor.user.id, reach) : eq(repairJobs.studioId, actor.studio.id);
+}
+
+/** What a where-builder reads of an Actor (lib/ functions that hold only a user id pass { role: "owner", user, studio: null }). */
+export type ActorRef = { role: ActorRole; user: { id: string }; studio: { id: string } | null };
+
+/** One job of the actor's, by id. */
+export function jobWhere(actor: ActorRef, jobId: string, reach: OwnerReach = "act"): SQL {
+  return and(eq(repairJobs.id, jobId), jobVisibleTo(actor, reach))!;
 }

@@ -8,7 +8,8 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
-import { ownerJobWhere, type OwnerReach } from "./owner-reach";
+import { jobVisibleTo, jobWhere } from "./access";
+import type { OwnerReach } from "./owner-reach";
 import { readLines } from "./lines";
 import { priceJob, totals } from "./pricing";
 import { assertMove } from "./states";
@@ -94,7 +95,7 @@ export function listStudioJobs(ctx: StudioContext, filter: { state?: RepairJob["
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .leftJoin(users, eq(users.id, repairJobs.ownerId))
-    .where(and(eq(repairJobs.studioId, ctx.studio.id), filter.state ? eq(repairJobs.state, filter.state) : undefined))
+    .where(and(jobVisibleTo(ctx), filter.state ? eq(repairJobs.state, filter.state) : undefined))
     .orderBy(desc(repairJobs.updatedAt))
     .limit(500)
     .all();
@@ -106,7 +107,7 @@ export function listOwnerJobs(user: Pick<User, "id">, filter: { state?: RepairJo
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .innerJoin(studios, eq(studios.id, repairJobs.studioId))
-    .where(and(ownerJobWhere(user.id, "history"), inArray(repairJobs.state, ["quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"]), filter.state ? eq(repairJobs.state, filter.state) : undefined))
+    .where(and(jobVisibleTo({ role: "owner", user, studio: null }, "history"), inArray(repairJobs.state, ["quoted", "approved", "paid", "covered", "scheduled", "done", "cancelled"]), filter.state ? eq(repairJobs.state, filter.state) : undefined))
     .orderBy(desc(repairJobs.updatedAt))
     .all();
 }
@@ -129,7 +130,7 @@ function loadJob(where: ReturnType<typeof and>) {
 export type JobView = ReturnType<typeof loadJob>;
 
 export function getStudioJob(ctx: StudioContext, jobId: string) {
-  const view = loadJob(and(eq(repairJobs.id, jobId), eq(repairJobs.studioId, ctx.studio.id)));
+  const view = loadJob(jobWhere(ctx, jobId));
   return { ...view, products: studioProducts(ctx.studio.id) };
 }
 
@@ -139,7 +140,7 @@ export function getStudioJob(ctx: StudioContext, jobId: string) {
  * a job on a piece they hold (lib/repairs/owner-reach).
  */
 export function getOwnerJob(user: Pick<User, "id">, jobId: string, reach: OwnerReach = "history") {
-  const view = loadJob(and(eq(repairJobs.id, jobId), ownerJobWhere(user.id, reach)));
+  const view = loadJob(jobWhere({ role: "owner", user, studio: null }, jobId, reach));
   if (view.job.state === "draft" && view.job.quoteVersion === 0) throw notFound("No such repair job.");
   // A former owner's history never carries the piece's address: it may be the new owner's.
   return view.piece.ownerId === user.id ? view : { ...view, piece: { ...view.piece, deliveryAddress: "" } };

@@ -1,19 +1,10 @@
-import { NextResponse } from "next/server";
-import { requireStaff } from "@/lib/auth/guards";
-import { parseJson, parseQuery, route } from "@/lib/http/route";
-import { requireJobActor } from "@/lib/repairs/access";
+import { route } from "@/lib/http/route";
 import { createJob, listOwnerJobs, listStudioJobs } from "@/lib/repairs/jobs";
 import { createJobSchema, jobListQuerySchema } from "@/lib/validation/jobs";
 
-export const GET = route(async (req) => {
-  const filter = parseQuery(req, jobListQuerySchema);
-  const actor = await requireJobActor();
-  const jobs = actor.ctx ? listStudioJobs(actor.ctx, filter) : listOwnerJobs(actor.owner, filter);
-  return NextResponse.json({ jobs });
-});
+/** Staff list the studio's jobs; an owner their own (a technician acts as an owner here). */
+export const GET = route({ roles: ["admin", "staff", "owner"], query: jobListQuerySchema }, ({ actor, query }) => ({
+  jobs: actor.role === "owner" ? listOwnerJobs(actor.user, query) : listStudioJobs(actor, query),
+}));
 
-export const POST = route(async (req) => {
-  const ctx = await requireStaff();
-  const { from, id } = await parseJson(req, createJobSchema);
-  return NextResponse.json({ job: createJob(ctx, from, id) }, { status: 201 });
-});
+export const POST = route({ roles: ["admin", "staff"], body: createJobSchema, status: 201 }, ({ actor, body }) => ({ job: createJob(actor, body.from, body.id) }));

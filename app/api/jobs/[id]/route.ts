@@ -1,7 +1,4 @@
-import { NextResponse } from "next/server";
-import { requireStaff } from "@/lib/auth/guards";
-import { parseJson, route } from "@/lib/http/route";
-import { requireJobActor } from "@/lib/repairs/access";
+import { route } from "@/lib/http/route";
 import { jobApiMoney } from "@/lib/repairs/figures";
 import { getOwnerJob, getStudioJob, type JobView } from "@/lib/repairs/jobs";
 import { updateJobQuote } from "@/lib/repairs/payment";
@@ -13,17 +10,12 @@ function jobAnswer(job: JobView["job"]) {
   return { ...rest, claimId: job.claimId, ...jobApiMoney(job) };
 }
 
-export const GET = route<{ id: string }>(async (_req, { params }) => {
-  const { id } = jobIdParams.parse(params);
-  const actor = await requireJobActor();
-  const view = actor.ctx ? getStudioJob(actor.ctx, id) : getOwnerJob(actor.owner, id);
-  return NextResponse.json({ job: jobAnswer(view.job), piece: { id: view.piece.id, title: view.piece.title }, payments: view.payments.map(({ checkoutUrl: _u, ...p }) => p) });
+/** Staff read the studio's jobs; an owner their own (a technician acts as an owner here). */
+export const GET = route({ roles: ["admin", "staff", "owner"], params: jobIdParams }, ({ actor, params }) => {
+  const view = actor.role === "owner" ? getOwnerJob(actor.user, params.id) : getStudioJob(actor, params.id);
+  return { job: jobAnswer(view.job), piece: { id: view.piece.id, title: view.piece.title }, payments: view.payments.map(({ checkoutUrl: _u, ...p }) => p) };
 });
 
-export const PATCH = route<{ id: string }>(async (req, { params }) => {
-  const { id } = jobIdParams.parse(params);
-  const ctx = await requireStaff();
-  const input = await parseJson(req, jobQuoteSchema);
-  const job = await updateJobQuote(ctx, id, input);
-  return NextResponse.json({ job: jobAnswer(job) });
-});
+export const PATCH = route({ roles: ["admin", "staff"], params: jobIdParams, body: jobQuoteSchema }, async ({ actor, params, body }) => ({
+  job: jobAnswer(await updateJobQuote(actor, params.id, body)),
+}));

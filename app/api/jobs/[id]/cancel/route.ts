@@ -1,10 +1,7 @@
-import { NextResponse } from "next/server";
 import { route } from "@/lib/http/route";
-import { requireJobActor } from "@/lib/repairs/access";
+import { jobActorOf } from "@/lib/repairs/access";
 import { cancelJob } from "@/lib/repairs/payment";
 import { jobIdParams } from "@/lib/validation/jobs";
 
-export const POST = route<{ id: string }>(async (_req, { params }) => {
-  const { id } = jobIdParams.parse(params);
-  return NextResponse.json({ job: await cancelJob(await requireJobActor(), id) });
-});
+/** Staff cancel the studio's jobs; an owner their own (a technician acts as an owner here). */
+export const POST = route({ roles: ["admin", "staff", "owner"], params: jobIdParams }, async ({ actor, params }) => ({ job: await cancelJob(jobActorOf(actor), params.id) }));
