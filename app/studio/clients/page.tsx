@@ -19,7 +19,7 @@ export default async function StudioClientsPage() {
         actions={<ButtonLink href="/studio/clients/new">Add a client</ButtonLink>}
       />
       <Suspense fallback={<p className="text-muted">Loading clients…</p>}>
-        <ClientsTable />
+        <ClientsTable timeZone={ctx.studio.timeZone} />
       </Suspense>
     </>
   );
