@@ -1,5 +1,6 @@
 "use client";
 
+import { useEffect } from "react";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -8,9 +9,35 @@ import type { ActionResult } from "@/lib/validation/action";
 import { CURRENCIES } from "@/lib/care/quote";
 import type { ProfileInput } from "@/lib/validation/settings";
 
-export function ProfileForm({ values, timeZones, action }: { values: ProfileInput; timeZones: string[]; action: (v: ProfileInput) => Promise<ActionResult<unknown>> }) {
-  const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/settings").then((m) => m.profileSchema), action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
-  const { register, formState, watch } = form;
+/**
+ * The studio's profile and rates (settings and the set-up's first step). With `guessTimeZone`, a studio
+ * still on UTC gets the browser's zone filled in (editable) until it is saved.
+ */
+export function ProfileForm({
+  values,
+  timeZones,
+  action,
+  guessTimeZone = false,
+  submitLabel = "Save profile and rates",
+}: {
+  values: ProfileInput;
+  timeZones: string[];
+  action: (v: ProfileInput) => Promise<ActionResult<unknown>>;
+  guessTimeZone?: boolean;
+  submitLabel?: string;
+}) {
+  const { form, onSubmit, formError } = useActionForm({
+    schema: () => import("@/lib/validation/settings").then((m) => m.profileSchema),
+    action,
+    defaultValues: values,
+    onSuccess: () => form.reset(form.getValues()),
+  });
+  const { register, formState, watch, setValue } = form;
+  useEffect(() => {
+    if (!guessTimeZone || values.timeZone !== "UTC") return;
+    const guess = Intl.DateTimeFormat().resolvedOptions().timeZone;
+    if (guess && guess !== "UTC") setValue("timeZone", guess, { shouldDirty: true });
+  }, [guessTimeZone, values.timeZone, setValue]);
   const e = formState.errors;
   const currency = watch("currency");
   return (
@@ -23,6 +50,7 @@ export function ProfileForm({ values, timeZones, action }: { values: ProfileInpu
         <div className="sm:col-span-2">
           <TextField label="Address" autoComplete="street-address" {...register("address")} error={e.address?.message} />
         </div>
+        <TextField label="Phone" type="tel" autoComplete="tel" {...register("phone")} error={e.phone?.message} hint="Printed on receipts; optional." />
         <TextField label="Time zone" list="gw-time-zones" autoComplete="off" {...register("timeZone")} error={e.timeZone?.message} hint="Dates, the overview's months and visit hours follow it." />
         <datalist id="gw-time-zones">
           {timeZones.map((z) => (
@@ -48,7 +76,7 @@ export function ProfileForm({ values, timeZones, action }: { values: ProfileInpu
         <TextField label={`Travel fee per visit (${currency})`} inputMode="decimal" {...register("travelFee")} error={e.travelFee?.message} />
       </fieldset>
       <Button type="submit" disabled={formState.isSubmitting}>
-        {formState.isSubmitting ? "Saving…" : "Save profile and rates"}
+        {formState.isSubmitting ? "Saving…" : submitLabel}
       </Button>
     </form>
   );

@@ -1,12 +1,14 @@
 import { Circle, CircleCheck } from "lucide-react";
 import Link from "next/link";
+import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import type { SetupItem } from "@/lib/studio/setup";
 
-/** The overview's "what is left to set up" (lib/studio/setup.ts), until every item is done. */
+/** The overview's "what is left to set up" (lib/studio/setup.ts), until every item is done; each item links to its step. */
 export function SetupChecklist({ items }: { items: SetupItem[] }) {
   const done = items.filter((i) => i.done).length;
-  if (done === items.length) return null;
+  const next = items.find((i) => !i.done);
+  if (!next) return null;
   return (
     <section aria-labelledby="setup-h" className="mb-8">
       <Card className="space-y-3">
@@ -15,9 +17,10 @@ export function SetupChecklist({ items }: { items: SetupItem[] }) {
             Finish setting up your studio
           </h2>
           <p className="text-sm text-muted">
-            {done} of {items.length} done. Each step saves on its own page; come back to this list any time.
+            {done} of {items.length} done. Each step saves on its own; skip any and come back to it from this list.
           </p>
         </div>
+        <ButtonLink href={next.href}>{done === 0 ? "Start the set-up" : `Continue the set-up: ${next.label}`}</ButtonLink>
         <ul className="divide-y divide-line">
           {items.map((i) => (
             <li key={i.key} className="flex items-start gap-3 py-2">

@@ -196,6 +196,8 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
         taxRateBp: 850,
         labourRateMinor: 8500,
         travelFeeMinor: 4500,
+        // The demo studio opens set up (lib/studio/setup.ts SETUP_STEPS), as it always has.
+        setupDone: ["details", "brand", "warranty", "catalog", "reminders", "visits", "team", "payments", "mail"],
       })
       .returning()
       .get();

@@ -1,15 +1,15 @@
 import { Button as EmailButton, Link, Section } from "@react-email/components";
 import { Note } from "./layout";
-import { colors } from "./theme";
+import { accentColor, colors } from "./theme";
 
-/** The one call to action of a message: a large teal button. */
+/** The one call to action of a message: a large button in the accent colour. */
 export function ActionButton({ href, children }: { href: string; children: string }) {
   return (
     <Section style={{ margin: "8px 0 24px" }}>
       <EmailButton
         href={href}
         style={{
-          backgroundColor: colors.accent,
+          backgroundColor: accentColor(),
           color: colors.onAccent,
           borderRadius: "6px",
           fontSize: "16px",
@@ -30,7 +30,7 @@ export function LinkFallback({ href }: { href: string }) {
   return (
     <Note>
       If the button does not work, copy this link into your browser:{" "}
-      <Link href={href} style={{ color: colors.accent, wordBreak: "break-all" }}>
+      <Link href={href} style={{ color: accentColor(), wordBreak: "break-all" }}>
         {href}
       </Link>
     </Note>

@@ -1,4 +1,7 @@
-// The look of every Grainward e-mail: a calm, paper-like surface, ink-dark text, one accent colour.
+// The look of every Grainward e-mail: a calm, paper-like surface, ink-dark text, one accent colour
+// (the studio's own when the message is sent for a studio: ./brand.ts).
+import { emailBrand } from "./brand";
+
 export const colors = {
   paper: "#faf7f2",
   card: "#ffffff",
@@ -12,3 +15,8 @@ export const colors = {
 export const fontStack =
   '-apple-system, BlinkMacSystemFont, "Segoe UI", Roboto, "Helvetica Neue", Arial, sans-serif';
 export const serifStack = 'Georgia, "Times New Roman", serif';
+
+/** The accent of the message being rendered: the studio's, else Grainward's own. */
+export function accentColor(): string {
+  return emailBrand()?.accent ?? colors.accent;
+}

@@ -19,6 +19,8 @@ import { and, asc, eq, lte, sql } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
 import { mailQueue, type QueuedAttachment, type QueuedMail } from "@/db/schema";
 import { env } from "@/lib/env";
+import { withEmailBrand } from "@/emails/components/brand";
+import { emailBrandFor, senderNameFor } from "@/lib/studio/mail-brand";
 
 export type MailAttachment = {
   filename: string;
@@ -73,8 +75,10 @@ function getTransport(): Transporter<SMTPPool.SentMessageInfo> {
 type Rendered = { to: string[]; subject: string; html: string; text: string; headers?: Record<string, string>; replyTo?: string; attachments?: QueuedAttachment[] };
 
 async function renderMessage(input: SendMailInput): Promise<Rendered> {
-  const html = await render(input.email);
-  const rendered = (await render(input.email, { plainText: true })).trim();
+  // Mail sent for a studio carries its name, logo and accent (emails/components/layout.tsx).
+  const brand = input.studioId ? emailBrandFor(input.studioId) : null;
+  const html = await withEmailBrand(brand, () => render(input.email));
+  const rendered = (await withEmailBrand(brand, () => render(input.email, { plainText: true }))).trim();
   return {
     to: Array.isArray(input.to) ? input.to : [input.to],
     subject: input.subject,
@@ -93,9 +97,17 @@ async function renderMessage(input: SendMailInput): Promise<Rendered> {
   };
 }
 
+/** MAIL_FROM's address under the studio's sender name for mail sent for a studio (read from its header, so queued mail too). */
+function fromFor(m: Rendered): string | { name: string; address: string } {
+  const studioId = m.headers?.[STUDIO_HEADER];
+  const name = studioId ? senderNameFor(studioId) : null;
+  if (!name) return env.MAIL_FROM;
+  return { name, address: /<([^>]+)>/.exec(env.MAIL_FROM)?.[1] ?? env.MAIL_FROM };
+}
+
 async function deliver(m: Rendered): Promise<string> {
   const info = await getTransport().sendMail({
-    from: env.MAIL_FROM,
+    from: fromFor(m),
     to: m.to,
     subject: m.subject,
     html: m.html,

@@ -20,6 +20,7 @@ import {
   type PolicyVersionInput,
   type VisitRulesInput,
 } from "@/lib/validation/settings";
+import { markSetupStep } from "@/lib/studio/setup";
 import { visitRulesFor } from "@/lib/visits/availability";
 import { describePolicyChanges, formToPolicy, policyToForm } from "./policy";
 
@@ -67,6 +68,7 @@ export function profileFormValues(ctx: StudioContext): ProfileInput {
     name: s.name,
     address: s.address,
     email: s.email,
+    phone: s.phone,
     timeZone: s.timeZone,
     currency: s.currency as ProfileInput["currency"],
     unitSystem: s.unitSystem,
@@ -87,6 +89,7 @@ export function updateProfile(ctx: StudioContext, raw: unknown): Studio {
       name: v.name,
       address: v.address,
       email: v.email,
+      phone: v.phone ?? before.phone,
       timeZone: v.timeZone,
       currency: v.currency,
       unitSystem: v.unitSystem,
@@ -99,7 +102,9 @@ export function updateProfile(ctx: StudioContext, raw: unknown): Studio {
         .filter(([k, val]) => before[k as keyof typeof next] !== val)
         .map(([k, val]) => [k, { from: before[k as keyof typeof next], to: val }]),
     );
-    const row = tx.update(studios).set(next).where(eq(studios.id, ctx.studio.id)).returning().get();
+    tx.update(studios).set(next).where(eq(studios.id, ctx.studio.id)).run();
+    markSetupStep(tx, ctx.studio.id, "details");
+    const row = tx.select().from(studios).where(eq(studios.id, ctx.studio.id)).get()!;
     if (Object.keys(changed).length) {
       recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "settings.profile_updated", subjectType: "studio", subjectId: ctx.studio.id, data: { changed } });
     }
@@ -123,6 +128,7 @@ export function updateReminderTiming(ctx: StudioContext, raw: unknown): Reminder
   return getDb().transaction((tx) => {
     const before = tx.select({ h: studios.reminderSendHour, s: studios.reminderSteps }).from(studios).where(eq(studios.id, ctx.studio.id)).get()!;
     tx.update(studios).set({ reminderSendHour: v.sendHour, reminderSteps: steps }).where(eq(studios.id, ctx.studio.id)).run();
+    markSetupStep(tx, ctx.studio.id, "reminders");
     recordAudit(tx, {
       studioId: ctx.studio.id,
       actorId: ctx.user.id,
@@ -157,6 +163,7 @@ export function updateVisitRules(ctx: StudioContext, raw: unknown): VisitRules {
   return getDb().transaction((tx) => {
     const before = rulesOf(visitRulesFor(tx, ctx.studio.id));
     tx.insert(visitRulesTable).values({ studioId: ctx.studio.id, ...v }).onConflictDoUpdate({ target: visitRulesTable.studioId, set: v }).run();
+    markSetupStep(tx, ctx.studio.id, "visits");
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "settings.visit_rules_updated", subjectType: "studio", subjectId: ctx.studio.id, data: { from: before, to: v } });
     return v;
   });

@@ -449,6 +449,16 @@ const ROUTES: RouteRow[] = [
   { route: "POST /api/studio/policy", expect: "401 403 403 403 403 400 403 400", send: ({ api }) => api.post("/api/studio/policy", { data: noCoverPolicy }) },
   { route: "GET /api/studio/settings", expect: "401 403 403 403 403 200 403 200", send: ({ api }) => api.get("/api/studio/settings") },
   { route: "PATCH /api/studio/settings", expect: "401 403 403 403 403 200 403 200", before: throwaways, send: ({ api }) => api.patch("/api/studio/settings", { data: {} }) },
+  // The studio's logo (set-up, admins): a form without a file is refused after the admin check; removing none is a no-op.
+  {
+    route: "POST /api/studio/logo",
+    expect: "401 403 403 403 403 400 403 400",
+    messages: { "400": /^Attach a photo/ },
+    send: ({ api }) => api.post("/api/studio/logo", { multipart: { note: "no file" } }),
+  },
+  { route: "DELETE /api/studio/logo", expect: "401 403 403 403 403 204 403 204", send: ({ api }) => api.delete("/api/studio/logo") },
+  // Public (logos are on e-mails and owners' pages); the seeded studios have none.
+  { route: "GET /api/studio-logo/[studioId]", expect: "404 ".repeat(8), send: ({ api }) => api.get(`/api/studio-logo/${X.demoStudioId}`) },
 ];
 
 async function checkRouteAnswer(row: RouteRow, who: Who, cell: string, res: APIResponse): Promise<string | null> {
@@ -593,6 +603,36 @@ const ACTIONS: ActionRow[] = [
     messages: { "400": /^Cover at least one kind of claim\.$/ },
     args: () => ({ json: [noCoverPolicy] }),
   },
+  // The set-up's own steps (app/studio/setup/actions.ts). Admins save the colour their studio has (the default).
+  { action: "app/studio/setup/actions.ts#saveAccentAction", expect: "401 403 403 403 403 ok 403 ok", args: () => ({ json: [{ accent: "default" }] }) },
+  // Both studios' catalogs have entries (made here for the other studio if it has none): 409, nothing added.
+  {
+    action: "app/studio/setup/actions.ts#startCatalogAction",
+    expect: "401 403 403 403 403 409 403 409",
+    messages: { "409": /^Your catalog already has entries/ },
+    before: async () => {
+      const other = await json<{ products: unknown[] }>(await S.api.otherStudioAdmin.get("/api/catalog"), "the other studio's catalog", 200);
+      if (other.products.length === 0) await json(await S.api.otherStudioAdmin.post("/api/catalog", { data: { name: "Matrix oil (invented)", finishClass: "hardwax_oil", coverageM2PerL: 20 } }), "a product for the other studio", 201);
+    },
+    args: () => ({ json: [{}] }),
+  },
+  // A well-formed key the Stripe fake does not know: refused by Stripe after the admin check, nothing kept.
+  {
+    action: "app/studio/setup/actions.ts#saveStripeKeyAction",
+    expect: "401 403 403 403 403 422 403 422",
+    messages: { "422": /^Stripe did not accept that key/ },
+    args: () => ({ json: [{ secretKey: "sk_test_matrix_not_the_fakes_key" }] }),
+  },
+  // Admins save their studio's name as the sender and the reply address it has.
+  {
+    action: "app/studio/setup/actions.ts#saveMailSenderAction",
+    expect: "401 403 403 403 403 ok 403 ok",
+    args: (who) => {
+      const p = (who === "otherStudioAdmin" ? S.studio.otherStudioAdmin : S.studio.admin).profile as { name: string; email: string };
+      return { json: [{ senderName: p.name, replyTo: p.email }] };
+    },
+  },
+  { action: "app/studio/setup/actions.ts#sendTestMessageAction", expect: "401 403 403 403 403 ok 403 ok", args: () => ({ json: [{}] }) },
   // Inviting someone who is already a member of the admin's own studio: 409, and no invitation goes out.
   {
     action: "app/studio/team/actions.ts#inviteAction",

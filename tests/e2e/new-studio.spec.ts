@@ -63,8 +63,8 @@ test("a new account starts a studio at /start; every studio page works while it 
   const checklist = page.getByRole("region", {
     name: "Finish setting up your studio",
   });
-  await expect(checklist.getByText("0 of 6 done.")).toBeVisible();
-  const steps = ["Studio details", "Warranty terms", "Finish catalog", "Team invitations", "Repair prices for online payment", "Reply address for e-mails"];
+  await expect(checklist.getByText("0 of 9 done.", { exact: false })).toBeVisible();
+  const steps = ["Studio details", "Logo and colour", "Warranty terms", "Finish catalog", "Reminder timing", "Visits and technicians' hours", "Team invitations", "Online payments", "E-mail sender"];
   for (const s of steps) await expect(checklist.getByRole("link", { name: s })).toBeVisible();
   const checklistPages = await checklist.getByRole("link").evaluateAll((links) => links.map((l) => l.getAttribute("href")!));
 

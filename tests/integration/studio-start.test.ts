@@ -173,7 +173,7 @@ describe("STUDIO_SIGNUP", () => {
 });
 
 describe("set-up checklist", () => {
-  it("lists all six steps as left for a new studio and ticks each off from the data", () => {
+  it("lists all nine steps as left for a new studio and ticks each off from the data", () => {
     const db = freshDb();
     const wren = person(db);
     const studio = createStudio(wren.id, input, { db, mode: "open" });
@@ -181,15 +181,8 @@ describe("set-up checklist", () => {
       setupChecklist({ studio, role: "admin" }, db)
         .filter((i) => !i.done)
         .map((i) => i.key);
-    expect(left()).toEqual(["details", "warranty", "catalog", "team", "payments", "mail"]);
-    expect(setupChecklist({ studio, role: "admin" }, db).map((i) => i.href)).toEqual([
-      "/studio/settings",
-      "/studio/settings/warranty",
-      "/studio/catalog",
-      "/studio/team",
-      "/studio/settings/repairs",
-      "/studio/settings",
-    ]);
+    expect(left()).toEqual(["details", "brand", "warranty", "catalog", "reminders", "visits", "team", "payments", "mail"]);
+    expect(setupChecklist({ studio, role: "admin" }, db).map((i) => i.href)).toEqual(left().map((k) => `/studio/setup/${k}`));
 
     db.update(studios).set({ address: "2 Invented Row" }).where(eq(studios.id, studio.id)).run();
     db.insert(warrantyPolicies)
@@ -200,7 +193,7 @@ describe("set-up checklist", () => {
         policy: DEFAULT_WARRANTY_POLICY,
       })
       .run();
-    expect(left()).toEqual(["catalog", "team", "payments", "mail"]);
+    expect(left()).toEqual(["brand", "catalog", "reminders", "visits", "team", "payments", "mail"]);
 
     // An archived product is not a catalog.
     const product = db
@@ -229,9 +222,12 @@ describe("set-up checklist", () => {
       })
       .returning()
       .get();
-    expect(left()).toEqual(["team", "payments", "mail"]);
+    expect(left()).toEqual(["brand", "reminders", "visits", "team", "payments", "mail"]);
     db.update(invitations).set({ revokedAt: null }).where(eq(invitations.id, inv.id)).run();
-    db.update(studios).set({ labourRateMinor: 7000, email: "desk@hollowbrook.example" }).where(eq(studios.id, studio.id)).run();
+    // A colour or logo is a brand; a checked Stripe key is payments; a sender name with a reply address is mail.
+    db.update(studios).set({ accent: "walnut", stripeCheckedAt: new Date(), email: "desk@hollowbrook.example" }).where(eq(studios.id, studio.id)).run();
+    expect(left()).toEqual(["reminders", "visits", "mail"]);
+    db.update(studios).set({ mailSenderName: "Hollowbrook desk", setupDone: ["reminders", "visits"] }).where(eq(studios.id, studio.id)).run();
     expect(left()).toEqual([]);
   });
 
