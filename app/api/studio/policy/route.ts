@@ -1,19 +1,12 @@
-import { NextResponse } from "next/server";
-import { requireAdmin } from "@/lib/auth/guards";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { createPolicyVersion, listPolicyVersions } from "@/lib/settings";
 import { policyVersionSchema } from "@/lib/validation/settings";
 
 /** Warranty policy versions, newest first (admins). */
-export const GET = route(async () => {
-  const ctx = await requireAdmin();
-  return NextResponse.json({ versions: listPolicyVersions(ctx) });
-});
+export const GET = route({ roles: ["admin"] }, ({ actor }) => ({ versions: listPolicyVersions(actor) }));
 
 /** A new version effective from a date; earlier versions and the pieces stamped with them stay as they are. */
-export const POST = route(async (req) => {
-  const ctx = await requireAdmin();
-  const body = await parseJson(req, policyVersionSchema);
-  const row = createPolicyVersion(ctx, body);
-  return NextResponse.json({ id: row.id, version: row.version, effectiveFrom: row.effectiveFrom }, { status: 201 });
+export const POST = route({ roles: ["admin"], body: policyVersionSchema, status: 201 }, ({ actor, body }) => {
+  const row = createPolicyVersion(actor, body);
+  return { id: row.id, version: row.version, effectiveFrom: row.effectiveFrom };
 });
