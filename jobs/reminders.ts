@@ -13,7 +13,7 @@ export function describePass(r: PassReport): string[] {
   lines.push(
     `reminder pass at ${r.now}: ${r.pieces} pieces, ${r.tasks} tasks — sent ${r.sent.length}, skipped ${r.skipped}, failed ${r.failed.length}, ` +
       `cancelled ${r.cancelled}, offers ${r.offers}, recovered ${r.recovered}, interrupted ${r.interrupted}, lost ${r.lost} (${Math.round(r.ms)} ms)` +
-      (r.stopped ? ` — stopped before the end; ${r.released} claimed reminders put back for the next pass` : ""),
+      (r.stopped ? ` — stopped before the end; ${r.released} reminders it held for sending put back for the next pass` : ""),
   );
   return lines;
 }

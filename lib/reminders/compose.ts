@@ -1,4 +1,4 @@
-// Builds the message for one claimed reminder: subject, the React Email element, and its headers.
+// Builds the message for one leased reminder: subject, the React Email element, and its headers.
 import { createElement } from "react";
 import type { TopShape } from "@/lib/care/area";
 import type { Quote } from "@/lib/care/quote";

@@ -4,14 +4,16 @@
 // zone, unless the send ledger already has it. Only the steps the studio sends count (settings →
 // reminder timing, read afresh by every pass): the others are dropped from the task before anything
 // is decided, and a row of one waiting for a retry is cancelled. Runs from the scheduler (jobs/index.ts,
-// hourly), from `npm run jobs:run-once -- --now <ISO>`, and in tests. No server-only or next/* imports:
+// hourly), from `npm run jobs:run-once -- --now <ISO>`, and in tests. Its SQL is in pass-sql.ts; the
+// hand-off to SMTP in deliver.ts. No server-only or next/* imports:
 // it runs under tsx outside Next.js.
 //
 // Never twice — the ledger protocol:
-// 1. Claim: in an IMMEDIATE transaction a pass inserts the row (status queued) with
+// 1. Lease: in an IMMEDIATE transaction a pass inserts the row (status queued) with
 //    INSERT … ON CONFLICT(reminder_key) DO NOTHING, or flips a due failed row back to queued with a
-//    conditional UPDATE. Only the pass whose statement changed a row owns it; it writes its own claim
-//    token into messageId ("claim:<uuid>").
+//    conditional UPDATE. Only the pass whose statement changed a row holds it; it writes its own lease
+//    token into messageId ("lease:<uuid>"; rows leased before the word changed carry "claim:<uuid>",
+//    which every statement treats alike: only equality with the holder's token counts).
 // 2. Hand-off: just before SMTP, `attempts + 1, sentAt = now WHERE status = 'queued' AND messageId =
 //    <its token>`. If that changes nothing, another pass took the row over; this one does not send.
 // 3. Result: sent + the SMTP Message-ID, or failed + error + nextAttemptAt (15 min, then 1 h; at most
@@ -26,7 +28,7 @@
 // Stopping (PassOptions.signal, aborted by the scheduler on SIGTERM/SIGINT): the pass looks at the
 // signal before each chunk, after the care engine, and before each message. The message being handed
 // to SMTP when the signal comes is finished (sent or failed, as usual); after that nothing new is
-// claimed or sent, and the rows this pass claimed but had not yet handed off are released at once —
+// leased or sent, and the rows this pass leased but had not yet handed off are released at once —
 // put back as failed rows due for retry now, as the stale recovery above would do 15 minutes later —
 // so no row is left queued. The next pass sends them. The report says `stopped`.
 import { randomUUID } from "node:crypto";
@@ -38,21 +40,22 @@ import { quote, quoteProductFromCatalog, type Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { topArea } from "@/lib/care/area";
 import { scheduleFromColumns, toCatalog, topShape, type CareLayerColumns, type CarePieceColumns } from "@/lib/pieces/care-inputs";
-import { sendMailNow } from "@/lib/mail";
-import { composeReminder, type ReminderMail } from "./compose";
+import { deliverLease, LEASE_PREFIX, type FailedItem, type Lease, type SentItem } from "./deliver";
+import { passStatements, type PassStatements } from "./pass-sql";
 import {
   currentStepIndex,
   decideTask,
-  MAX_ATTEMPTS,
   OwnerClocks,
   pendingRetry,
-  RETRY_BACKOFF_MS,
   STALE_QUEUED_MS,
   timingFromColumns,
   withEnabledSteps,
   type LedgerRow,
   type SendTiming,
+  type TaskDecision,
 } from "./plan";
+
+export type { FailedItem, SentItem } from "./deliver";
 
 export type ReminderPieceRow = CarePieceColumns & {
   title: string;
@@ -84,16 +87,13 @@ type StudioTimingColumns = {
   reminderSteps: string;
 };
 
-export type SentItem = { reminderKey: string; to: string; subject: string; messageId: string; offerId?: string };
-export type FailedItem = { reminderKey: string; to: string; error: string; willRetry: boolean };
-
 export interface PassReport {
   now: string;
   studios: number;
   pieces: number;
   tasks: number;
-  /** Rows this pass claimed to send (new and retries). */
-  claimed: number;
+  /** Ledger rows this pass leased to send (new and retries). */
+  leased: number;
   sent: SentItem[];
   failed: FailedItem[];
   /** Earlier steps recorded as skipped (new rows) or superseded (pending retries). */
@@ -104,17 +104,17 @@ export interface PassReport {
   recovered: number;
   /** Stale queued rows whose hand-off began: marked failed, not retried automatically. */
   interrupted: number;
-  /** Claims another pass took over before this one handed them off. */
+  /** Leases another pass took over before this one handed them off. */
   lost: number;
   /** The signal stopped this pass before it was done (the next pass finishes the work). */
   stopped: boolean;
-  /** Rows this pass claimed, then put back for retry unsent because it was stopped. */
+  /** Rows this pass leased, then put back for retry unsent because it was stopped. */
   released: number;
   /** Pieces whose records the care engine could not use (and why). */
   errors: { pieceId: string; message: string }[];
   ms: number;
-  /** Where the time went: reading rows, the care engine, the claim transactions, SMTP. */
-  phases: { readMs: number; computeMs: number; claimMs: number; deliverMs: number };
+  /** Where the time went: reading rows, the care engine, the lease transactions, SMTP. */
+  phases: { readMs: number; computeMs: number; leaseMs: number; deliverMs: number };
 }
 
 export interface PassOptions {
@@ -129,135 +129,322 @@ export interface PassOptions {
   signal?: AbortSignal;
 }
 
-type Claim = ReminderMail & { rowId: string; token: string };
 type OfferRow = { pieceId: string; id: string; taskKey: string; dueOn: string; status: string; reminderSendId: string | null; sendStatus: string | null };
+type Studio = StudioRow & { catalog: CatalogEntry[]; byId: Map<string, CatalogEntry>; timing: SendTiming };
+type Chunk = { lo: string; hi: string; pieces: ReminderPieceRow[]; layers: Map<string, CareLayerColumns[]>; logs: Map<string, Pick<CareLogRow, "taskKind" | "doneOn" | "surface">[]> };
+type Scheduled = { piece: ReminderPieceRow; tasks: CareTask[]; current: number[] };
 
-// Column lists shared by the bulk statements. Pieces are read in id order, in chunks; layers, the care
-// Pieces of every studio are read in one id order, so each chunk is one contiguous key range.
-// log and the ledger are read for the same id range with one SELECT each.
-const PIECE_FILTER = `p.owner_id IS NOT NULL AND p.archived_at IS NULL AND p.reminders_paused = 0`;
-const RANGE = `p.id > ? AND p.id <= ?`;
-const LEDGER_COLUMNS = `r.piece_id AS pieceId, r.id, r.reminder_key AS reminderKey, r.task_key AS taskKey, r.due_on AS dueOn, r.step, r.status, r.attempts,
-       r.next_attempt_at AS nextAttemptAt, r.message_id AS messageId, r.sent_at AS sentAt, r.updated_at AS updatedAt`;
+const RECOVER_NOTE = "recovered: leased by a pass that stopped before handing it to SMTP (certainly not sent); retrying";
+const STEP_OFF_NOTE = "not sent: the studio turned this reminder step off";
+const RELEASE_NOTE = "released: the pass was stopped before handing it to SMTP (certainly not sent); the next pass sends it";
+const interruptNote = (at: number | null) =>
+  `interrupted while handing to SMTP${at ? ` at ${new Date(at).toISOString()}` : ""}: delivery unknown, so it is not retried automatically — check the outbox, then resend it if it did not arrive`;
 
-function statements(sqlite: Database.Database) {
+/** What one pass carries from step to step. */
+class Pass {
+  readonly db: Db;
+  readonly sqlite: Database.Database;
+  readonly s: PassStatements;
+  readonly nowMs: number;
+  readonly staleBefore: number;
+  readonly chunkSize: number;
+  readonly deliver: boolean;
+  readonly clocks: OwnerClocks;
+  readonly report: PassReport;
+  private mark = performance.now();
+
+  constructor(readonly options: PassOptions) {
+    this.db = options.db ?? getDb();
+    this.sqlite = this.db.$client;
+    this.s = passStatements(this.sqlite);
+    this.nowMs = options.now.getTime();
+    if (!Number.isFinite(this.nowMs)) throw new Error("runReminderPass: now is not a valid date");
+    this.staleBefore = this.nowMs - STALE_QUEUED_MS;
+    this.chunkSize = options.chunkSize ?? Number(process.env.GW_PASS_CHUNK ?? 1000);
+    this.deliver = options.deliver ?? true;
+    this.clocks = new OwnerClocks(this.nowMs);
+    this.report = {
+      now: options.now.toISOString(),
+      studios: 0,
+      pieces: 0,
+      tasks: 0,
+      leased: 0,
+      sent: [],
+      failed: [],
+      skipped: 0,
+      cancelled: 0,
+      offers: 0,
+      recovered: 0,
+      interrupted: 0,
+      lost: 0,
+      stopped: false,
+      released: 0,
+      errors: [],
+      ms: 0,
+      phases: { readMs: 0, computeMs: 0, leaseMs: 0, deliverMs: 0 },
+    };
+  }
+
+  /** Adds the time since the last lap to one phase. */
+  lap(phase: keyof PassReport["phases"]): void {
+    const t = performance.now();
+    this.report.phases[phase] += t - this.mark;
+    this.mark = t;
+  }
+
+  /** Lets a signal's abort event run (the pass is otherwise synchronous between messages), then reads it. */
+  async stopRequested(): Promise<boolean> {
+    if (!this.options.signal) return false;
+    await new Promise<void>((resolve) => setImmediate(resolve));
+    if (this.options.signal.aborted) this.report.stopped = true;
+    return this.options.signal.aborted;
+  }
+}
+
+export async function runReminderPass(options: PassOptions): Promise<PassReport> {
+  const started = performance.now();
+  const pass = new Pass(options);
+  const studios = loadStudios(pass);
+  for (let after = ""; ; ) {
+    if (await pass.stopRequested()) break;
+    const chunk = readChunk(pass, after);
+    if (!chunk) break;
+    after = chunk.hi;
+    const scheduled = computeSchedules(pass, studios, chunk);
+    if (await pass.stopRequested()) break;
+    const leases = leaseChunk(pass, studios, chunk, scheduled);
+    await deliverLeases(pass, leases);
+    if (pass.report.stopped) break;
+  }
+  pass.report.ms = performance.now() - started;
+  return pass.report;
+}
+
+/** Step 1: every studio with its catalog and its reminder timing (read afresh by every pass). */
+function loadStudios(pass: Pass): Map<string, Studio> {
+  const studios = new Map<string, Studio>();
+  for (const { reminderSendHour, reminderSteps, ...st } of pass.s.studios.all() as (StudioRow & StudioTimingColumns)[]) {
+    studios.set(st.id, { ...st, ...catalogFor(pass.s, st.id), timing: timingFromColumns(reminderSendHour, reminderSteps) });
+  }
+  pass.report.studios = studios.size;
+  return studios;
+}
+
+function catalogFor(s: PassStatements, studioId: string): { catalog: CatalogEntry[]; byId: Map<string, CatalogEntry> } {
+  const rows = s.products.all(studioId) as (Omit<FinishProduct, "containers"> & { containers: string })[];
+  const catalog = toCatalog(rows.map((r) => ({ ...r, containers: JSON.parse(r.containers) as FinishProduct["containers"] })) as FinishProduct[]);
+  return { catalog, byId: new Map(catalog.map((c) => [c.id, c])) };
+}
+
+/** Step 2: the next chunk of pieces after `after` (id order), with their layers and care log; null at the end. */
+function readChunk(pass: Pass, after: string): Chunk | null {
+  const pieces = pass.s.pieces.all(after, pass.chunkSize) as ReminderPieceRow[];
+  if (pieces.length === 0) return null;
+  const lo = after;
+  const hi = pieces[pieces.length - 1]!.id;
+  pass.report.pieces += pieces.length;
+  const layers = groupBy(pass.s.layers.all(lo, hi) as (CareLayerColumns & { pieceId: string })[]);
+  const logs = groupBy(pass.s.careLog.all(lo, hi) as (Pick<CareLogRow, "taskKind" | "doneOn" | "surface"> & { pieceId: string })[]);
+  pass.lap("readMs");
+  return { lo, hi, pieces, layers, logs };
+}
+
+/**
+ * Step 3: the care engine, outside the write transaction. Each task keeps only the steps its studio
+ * sends, before its current step is found.
+ */
+function computeSchedules(pass: Pass, studios: Map<string, Studio>, chunk: Chunk): Scheduled[] {
+  const out: Scheduled[] = [];
+  for (const piece of chunk.pieces) {
+    const studio = studios.get(piece.studioId)!;
+    const { steps, sendAfterMinutes } = studio.timing;
+    try {
+      pass.clocks.at(piece.ownerTimeZone);
+      const schedule = scheduleFromColumns({
+        piece,
+        layers: chunk.layers.get(piece.id) ?? [],
+        careLog: chunk.logs.get(piece.id) ?? [],
+        catalog: studio.catalog,
+        timeZone: studio.timeZone,
+        now: pass.nowMs,
+      });
+      const tasks = schedule.tasks.map((t) => withEnabledSteps(t, steps));
+      const current = tasks.map((t) => currentStepIndex(t, pass.clocks, piece.ownerTimeZone, sendAfterMinutes));
+      out.push({ piece, tasks, current });
+      pass.report.tasks += schedule.tasks.length;
+    } catch (e) {
+      if (!(e instanceof CareInputError)) throw e;
+      pass.report.errors.push({ pieceId: piece.id, message: e.message });
+    }
+  }
+  pass.lap("computeMs");
+  return out;
+}
+
+/**
+ * Step 4: in one IMMEDIATE transaction per chunk, against the ledger rows read inside it: recover
+ * stale rows, cancel retries whose cycle or step is gone, then lease what is due (with its refresh
+ * offer). Returns the leases to hand to SMTP (none when the pass does not deliver).
+ */
+function leaseChunk(pass: Pass, studios: Map<string, Studio>, chunk: Chunk, scheduled: Scheduled[]): Lease[] {
+  const leases: Lease[] = [];
+  pass.sqlite
+    .transaction(() => {
+      const s = pass.s;
+      const existing = new Set(s.ledgerKeys.all(chunk.lo === "" ? "" : `${chunk.lo};`, `${chunk.hi};`) as string[]);
+      const ledger = groupBy(s.ledgerPending.all(chunk.lo, chunk.hi) as (LedgerRow & { pieceId: string })[]);
+      const offers = new OffersOf(s);
+      for (const { piece, tasks, current } of scheduled) {
+        const studio = studios.get(piece.studioId)!;
+        const rows = ledger.get(piece.id) ?? [];
+        const byKey = recoverStale(pass, rows);
+        cancelGoneRetries(pass, studio, tasks, rows, byKey);
+        const view = { pending: (k: string) => byKey.get(k), exists: (k: string) => existing.has(k) };
+        for (let ti = 0; ti < tasks.length; ti++) {
+          const task = tasks[ti]!;
+          const lease = leaseTask(pass, studio, piece, task, decideTask(task, view, pass.clocks, piece.ownerTimeZone, current[ti]), offers);
+          if (lease && pass.deliver) leases.push(lease);
+        }
+      }
+    })
+    .immediate();
+  pass.lap("leaseMs");
+  return leases;
+}
+
+/** Queued rows older than STALE_QUEUED_MS: put back for retry (never handed off) or marked interrupted. Returns the rows by key. */
+function recoverStale(pass: Pass, rows: LedgerRow[]): Map<string, LedgerRow> {
+  const { s, nowMs, staleBefore, report } = pass;
+  const byKey = new Map<string, LedgerRow>();
+  for (const r of rows) {
+    if (r.status === "queued" && r.updatedAt <= staleBefore) {
+      if (r.sentAt === null) {
+        if (s.recover.run(nowMs, RECOVER_NOTE, nowMs, r.id, r.messageId, staleBefore).changes > 0) {
+          Object.assign(r, { status: "failed", messageId: null, nextAttemptAt: nowMs });
+          report.recovered++;
+        }
+      } else if (s.interrupt.run(interruptNote(r.sentAt), nowMs, r.id, staleBefore).changes > 0) {
+        Object.assign(r, { status: "failed", messageId: null, nextAttemptAt: null });
+        report.interrupted++;
+      }
+    }
+    byKey.set(r.reminderKey, r);
+  }
+  return byKey;
+}
+
+/** Rows waiting for a retry whose care cycle moved on, or whose step the studio turned off, are cancelled. */
+function cancelGoneRetries(pass: Pass, studio: Studio, tasks: CareTask[], rows: LedgerRow[], byKey: Map<string, LedgerRow>): void {
+  const { s, nowMs, report } = pass;
+  const cycles = new Set(tasks.map((t) => `${t.key}|${t.dueOn}`));
+  for (const r of rows) {
+    if (!pendingRetry(r)) continue;
+    const cancelled = !cycles.has(`${r.taskKey}|${r.dueOn}`)
+      ? s.cancel.run(nowMs, r.id).changes > 0
+      : !studio.timing.steps.includes(r.step) && s.cancelStepOff.run(STEP_OFF_NOTE, nowMs, r.id).changes > 0;
+    if (cancelled) {
+      r.status = "cancelled";
+      byKey.delete(r.reminderKey);
+      report.cancelled++;
+    }
+  }
+}
+
+/** Records the skipped and superseded steps of one task and leases its step to send, if any. */
+function leaseTask(pass: Pass, studio: Studio, piece: ReminderPieceRow, task: CareTask, d: TaskDecision, offers: OffersOf): Lease | null {
+  const { s, nowMs, report } = pass;
+  const row = (reminderKey: string, step: string, status: "queued" | "skipped", id: string, messageId: string | null) => ({
+    id, studioId: studio.id, pieceId: piece.id, userId: piece.ownerId, reminderKey, taskKey: task.key,
+    taskKind: task.kind, step, dueOn: task.dueOn, status, messageId, lastError: null, now: nowMs,
+  });
+  for (const k of d.skipNew) report.skipped += s.insertRow.run(row(k.reminderKey, k.step, "skipped", randomUUID(), null)).changes;
+  if (!d.send) return null;
+  for (const r of d.supersede) report.skipped += s.supersede.run(`superseded by ${d.send.step}`, nowMs, r.id).changes;
+  const token = `${LEASE_PREFIX}${randomUUID()}`;
+  let rowId: string;
+  if (d.send.lease === "insert") {
+    rowId = randomUUID();
+    if (s.insertRow.run(row(d.send.reminderKey, d.send.step, "queued", rowId, token)).changes === 0) return null;
+  } else {
+    rowId = d.send.row!.id;
+    if (s.leaseRetry.run(token, nowMs, rowId, nowMs).changes === 0) return null;
+  }
+  report.leased++;
+  const product = task.productId ? studio.byId.get(task.productId) : undefined;
+  const offer = task.isRefresh ? refreshOfferFor(pass, studio, piece, task, product, rowId, offers) : undefined;
   return {
-    studios: sqlite.prepare(
-      `SELECT id, name, time_zone AS timeZone, currency, country, tax_rate_bp AS taxRateBp, labour_rate_minor AS labourRateMinor, travel_fee_minor AS travelFeeMinor,
-              reminder_send_hour AS reminderSendHour, reminder_steps AS reminderSteps FROM studios ORDER BY id`,
-    ),
-    pieces: sqlite.prepare(
-      `SELECT p.id, p.studio_id AS studioId, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
-              p.primary_species_id AS primarySpeciesId, p.shape_kind AS shapeKind, p.length_mm AS lengthMm, p.width_mm AS widthMm,
-              p.diameter_mm AS diameterMm, p.measured_area_m2 AS measuredAreaM2,
-              u.id AS ownerId, u.email AS ownerEmail, u.name AS ownerName, u.time_zone AS ownerTimeZone, u.unit_system AS ownerUnitSystem
-         FROM pieces p JOIN users u ON u.id = p.owner_id
-        WHERE ${PIECE_FILTER} AND p.id > ? AND u.reminders_enabled = 1 AND u.email_verified_at IS NOT NULL
-        ORDER BY p.id LIMIT ?`,
-    ),
-    layers: sqlite.prepare(
-      `SELECT l.piece_id AS pieceId, l.id, l.surface, l.finish_class AS finishClass, l.product_id AS productId, l.coats, l.applied_on AS appliedOn
-         FROM pieces p JOIN finish_layers l ON l.piece_id = p.id WHERE ${PIECE_FILTER} AND ${RANGE}`,
-    ),
-    careLog: sqlite.prepare(
-      `SELECT c.piece_id AS pieceId, c.task_kind AS taskKind, c.done_on AS doneOn, c.surface
-         FROM pieces p JOIN care_log_entries c ON c.piece_id = p.id WHERE ${PIECE_FILTER} AND ${RANGE}`,
-    ),
-    // What a chunk needs of the ledger: which reminder keys exist (an index-only range scan: keys
-    // start with the piece id, like task keys below), and the full rows of pending ones. Settled rows
-    // (sent, skipped, cancelled) of earlier steps and past cycles are never read in full.
-    ledgerKeys: sqlite.prepare(`SELECT reminder_key FROM reminder_sends WHERE reminder_key >= ? AND reminder_key < ?`).pluck(),
-    ledgerPending: sqlite.prepare(
-      `SELECT ${LEDGER_COLUMNS} FROM reminder_sends r
-        WHERE r.studio_id IN (SELECT id FROM studios) AND r.status IN ('queued', 'failed') AND r.piece_id > ? AND r.piece_id <= ?`,
-    ),
-    insertRow: sqlite.prepare(
-      `INSERT INTO reminder_sends (id, studio_id, piece_id, user_id, reminder_key, task_key, task_kind, step, due_on, status, attempts, message_id, last_error, created_at, updated_at)
-       VALUES (@id, @studioId, @pieceId, @userId, @reminderKey, @taskKey, @taskKind, @step, @dueOn, @status, 0, @messageId, @lastError, @now, @now)
-       ON CONFLICT(reminder_key) DO NOTHING`,
-    ),
-    claimRetry: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'queued', message_id = ?, sent_at = NULL, updated_at = ?
-        WHERE id = ? AND status = 'failed' AND next_attempt_at IS NOT NULL AND next_attempt_at <= ? AND attempts < ${MAX_ATTEMPTS}`,
-    ),
-    supersede: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'skipped', next_attempt_at = NULL, last_error = COALESCE(last_error || ' — ', '') || ?, updated_at = ?
-        WHERE id = ? AND status = 'failed' AND next_attempt_at IS NOT NULL`,
-    ),
-    cancel: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'cancelled', next_attempt_at = NULL, updated_at = ? WHERE id = ? AND status = 'failed' AND next_attempt_at IS NOT NULL`,
-    ),
-    cancelStepOff: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'cancelled', next_attempt_at = NULL, last_error = COALESCE(last_error || ' — ', '') || ?, updated_at = ?
-        WHERE id = ? AND status = 'failed' AND next_attempt_at IS NOT NULL`,
-    ),
-    recover: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = ?, last_error = ?, updated_at = ?
-        WHERE id = ? AND status = 'queued' AND sent_at IS NULL AND message_id IS ? AND updated_at <= ?`,
-    ),
-    release: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = ?, last_error = COALESCE(last_error || ' — ', '') || ?, updated_at = ?
-        WHERE id = ? AND status = 'queued' AND message_id = ? AND sent_at IS NULL`,
-    ),
-    interrupt: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'failed', message_id = NULL, next_attempt_at = NULL, last_error = ?, updated_at = ?
-        WHERE id = ? AND status = 'queued' AND sent_at IS NOT NULL AND updated_at <= ?`,
-    ),
-    // Task keys start with the piece id, so the pieces (lo, hi] own exactly the task keys in [lo;, hi;)
-    // (":" sorts just before ";") — a range on the unique (task_key, due_on) index.
-    offers: sqlite.prepare(
-      `SELECT o.piece_id AS pieceId, o.id, o.task_key AS taskKey, o.due_on AS dueOn, o.status, o.reminder_send_id AS reminderSendId, r.status AS sendStatus
-         FROM refresh_offers o LEFT JOIN reminder_sends r ON r.id = o.reminder_send_id WHERE o.task_key >= ? AND o.task_key < ?`,
-    ),
-    insertOffer: sqlite.prepare(
-      `INSERT INTO refresh_offers (id, studio_id, piece_id, user_id, task_key, due_on, price_minor, currency, quote, status, reminder_send_id, created_at)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, 'offered', ?, ?) ON CONFLICT(task_key, due_on) DO NOTHING`,
-    ),
-    relinkOffer: sqlite.prepare(`UPDATE refresh_offers SET reminder_send_id = ? WHERE id = ? AND status = 'offered' RETURNING quote`),
-    expireOffer: sqlite.prepare(`UPDATE refresh_offers SET status = 'expired' WHERE id = ? AND status = 'offered'`),
-    handoff: sqlite.prepare(
-      `UPDATE reminder_sends SET attempts = attempts + 1, sent_at = ?, updated_at = ? WHERE id = ? AND status = 'queued' AND message_id = ?`,
-    ),
-    markSent: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'sent', message_id = ?, sent_at = ?, last_error = NULL, next_attempt_at = NULL, updated_at = ? WHERE id = ?`,
-    ),
-    attemptsOf: sqlite.prepare(`SELECT attempts FROM reminder_sends WHERE id = ?`),
-    markFailed: sqlite.prepare(
-      `UPDATE reminder_sends SET status = 'failed', message_id = NULL, sent_at = NULL, last_error = ?, next_attempt_at = ?, updated_at = ?
-        WHERE id = ? AND status = 'queued' AND message_id = ?`,
-    ),
+    rowId,
+    token,
+    reminderKey: d.send.reminderKey,
+    step: d.send.step,
+    task,
+    owner: { id: piece.ownerId, email: piece.ownerEmail, name: piece.ownerName, unitSystem: piece.ownerUnitSystem },
+    piece: { id: piece.id, title: piece.title, use: piece.use, sun: piece.sun, shape: topShape(piece), hasResin: piece.resinKind !== "none" },
+    studio: { id: studio.id, name: studio.name, country: studio.country },
+    product,
+    offer,
+    ownerToday: pass.clocks.at(piece.ownerTimeZone).date,
   };
 }
 
-type Stmts = ReturnType<typeof statements>;
-const stmtCache = new WeakMap<Database.Database, Stmts>();
-function stmtsFor(sqlite: Database.Database): Stmts {
-  let s = stmtCache.get(sqlite);
-  if (!s) stmtCache.set(sqlite, (s = statements(sqlite)));
-  return s;
-}
-
-function groupBy<T extends { pieceId: string }>(rows: T[]): Map<string, T[]> {
-  const m = new Map<string, T[]>();
-  for (const r of rows) {
-    const list = m.get(r.pieceId);
-    if (list) list.push(r);
-    else m.set(r.pieceId, [r]);
+/**
+ * A piece's refresh offers, read on first need: they matter only for a refresh task being leased now
+ * (a few pieces a pass), rather than for the whole chunk (~1 offer per piece on record).
+ */
+class OffersOf {
+  private readonly byPiece = new Map<string, OfferRow[]>();
+  constructor(private readonly s: PassStatements) {}
+  get(pieceId: string): OfferRow[] {
+    let rows = this.byPiece.get(pieceId);
+    // Task keys start with "<piece id>:" (taskKey in lib/care); ";" is the character after ":".
+    if (!rows) this.byPiece.set(pieceId, (rows = this.s.offers.all(`${pieceId}:`, `${pieceId};`) as OfferRow[]));
+    return rows;
   }
-  return m;
 }
 
-function catalogFor(db: Db, studioId: string): { catalog: CatalogEntry[]; byId: Map<string, CatalogEntry> } {
-  const rows = db.$client
-    .prepare(
-      `SELECT id, studio_id AS studioId, name, finish_class AS finishClass, coverage_m2_per_l AS coverageM2PerL, containers,
-              interval_heavy_months AS intervalHeavyMonths, interval_moderate_months AS intervalModerateMonths, interval_light_months AS intervalLightMonths,
-              safety_notes AS safetyNotes, archived_at AS archivedAt, created_at AS createdAt
-         FROM finish_products WHERE studio_id = ?`,
-    )
-    .all(studioId) as (Omit<FinishProduct, "containers"> & { containers: string })[];
-  const catalog = toCatalog(rows.map((r) => ({ ...r, containers: JSON.parse(r.containers) as FinishProduct["containers"] })) as FinishProduct[]);
-  return { catalog, byId: new Map(catalog.map((c) => [c.id, c])) };
+/** The refresh offer that rides on a refresh task's reminder: a new one, or the cycle's own one relinked to this row. */
+function refreshOfferFor(pass: Pass, studio: Studio, piece: ReminderPieceRow, task: CareTask, product: CatalogEntry | undefined, rowId: string, offers: OffersOf): Lease["offer"] {
+  const { s, nowMs, report } = pass;
+  const ofTask = offers.get(piece.id).filter((o) => o.taskKey === task.key);
+  for (const o of ofTask) if (o.dueOn !== task.dueOn && o.status === "offered") s.expireOffer.run(o.id);
+  const existing = ofTask.find((o) => o.dueOn === task.dueOn);
+  if (!existing) {
+    const q = refreshQuote(task, piece, studio, product);
+    if (!q) return undefined;
+    const offerId = randomUUID();
+    if (s.insertOffer.run(offerId, studio.id, piece.id, piece.ownerId, task.key, task.dueOn, q.totalMinor, q.currency, JSON.stringify(q), rowId, nowMs).changes === 0) return undefined;
+    report.offers++;
+    return { id: offerId, quote: q };
+  }
+  if (existing.status === "offered" && (existing.reminderSendId === rowId || existing.sendStatus !== "sent")) {
+    const relinked = s.relinkOffer.get(rowId, existing.id) as { quote: string } | undefined;
+    if (relinked) return { id: existing.id, quote: JSON.parse(relinked.quote) as Quote };
+  }
+  return undefined;
+}
+
+/**
+ * Step 5: hands the chunk's leases to SMTP one by one. When the signal comes, the ones not yet handed
+ * off are put back, due now, in one transaction.
+ */
+async function deliverLeases(pass: Pass, leases: Lease[]): Promise<void> {
+  const { s, nowMs, report } = pass;
+  for (let i = 0; i < leases.length; i++) {
+    if (pass.options.signal?.aborted) {
+      pass.sqlite.transaction(() => {
+        for (const l of leases.slice(i)) report.released += s.release.run(nowMs, RELEASE_NOTE, nowMs, l.rowId, l.token).changes;
+      })();
+      report.stopped = true;
+      break;
+    }
+    const r = await deliverLease(pass.db, leases[i]!, nowMs);
+    if (r.kind === "sent") {
+      report.sent.push(r.item);
+      await pass.options.onSent?.(r.item);
+    } else if (r.kind === "failed") report.failed.push(r.item);
+    else report.lost++;
+  }
+  pass.lap("deliverMs");
 }
 
 /** The price of a refresh visit for this task, or undefined when the record lacks what a price needs. */
@@ -282,267 +469,12 @@ export function refreshQuote(task: CareTask, piece: CarePieceColumns, studio: St
   }
 }
 
-export const CLAIM_PREFIX = "claim:";
-
-/**
- * Hands one claimed reminder to SMTP and records the outcome. Exported for the staff "resend" action,
- * which claims a row the same way.
- */
-export async function deliverClaim(
-  db: Db,
-  claim: Claim,
-  nowMs: number,
-): Promise<{ kind: "sent"; item: SentItem } | { kind: "failed"; item: FailedItem } | { kind: "lost" }> {
-  const s = stmtsFor(db.$client);
-  if (s.handoff.run(nowMs, nowMs, claim.rowId, claim.token).changes === 0) return { kind: "lost" };
-  let mail;
-  try {
-    mail = composeReminder(claim);
-    const { messageId } = await sendMailNow(mail);
-    s.markSent.run(messageId, nowMs, nowMs, claim.rowId);
-    return { kind: "sent", item: { reminderKey: claim.reminderKey, to: claim.owner.email, subject: mail.subject, messageId, offerId: claim.offer?.id } };
-  } catch (e) {
-    const attempts = (s.attemptsOf.get(claim.rowId) as { attempts: number } | undefined)?.attempts ?? MAX_ATTEMPTS;
-    const willRetry = attempts < MAX_ATTEMPTS;
-    const next = willRetry ? nowMs + RETRY_BACKOFF_MS[Math.min(attempts, RETRY_BACKOFF_MS.length) - 1]! : null;
-    const error = `try ${attempts} of ${MAX_ATTEMPTS}: ${e instanceof Error ? e.message : String(e)}`.slice(0, 500);
-    s.markFailed.run(error, next, nowMs, claim.rowId, claim.token);
-    return { kind: "failed", item: { reminderKey: claim.reminderKey, to: claim.owner.email, error, willRetry } };
+function groupBy<T extends { pieceId: string }>(rows: T[]): Map<string, T[]> {
+  const m = new Map<string, T[]>();
+  for (const r of rows) {
+    const list = m.get(r.pieceId);
+    if (list) list.push(r);
+    else m.set(r.pieceId, [r]);
   }
-}
-
-export async function runReminderPass(options: PassOptions): Promise<PassReport> {
-  const started = performance.now();
-  const db = options.db ?? getDb();
-  const sqlite = db.$client;
-  const s = stmtsFor(sqlite);
-  const nowMs = options.now.getTime();
-  if (!Number.isFinite(nowMs)) throw new Error("runReminderPass: now is not a valid date");
-  const chunkSize = options.chunkSize ?? Number(process.env.GW_PASS_CHUNK ?? 1000);
-  const deliver = options.deliver ?? true;
-  const clocks = new OwnerClocks(nowMs);
-  const report: PassReport = {
-    now: options.now.toISOString(),
-    studios: 0,
-    pieces: 0,
-    tasks: 0,
-    claimed: 0,
-    sent: [],
-    failed: [],
-    skipped: 0,
-    cancelled: 0,
-    offers: 0,
-    recovered: 0,
-    interrupted: 0,
-    lost: 0,
-    stopped: false,
-    released: 0,
-    errors: [],
-    ms: 0,
-    phases: { readMs: 0, computeMs: 0, claimMs: 0, deliverMs: 0 },
-  };
-  const ph = report.phases;
-  let mark = performance.now();
-  const lap = (k: keyof PassReport["phases"]) => {
-    const t = performance.now();
-    ph[k] += t - mark;
-    mark = t;
-  };
-  const staleBefore = nowMs - STALE_QUEUED_MS;
-  const recoverNote = `recovered: claimed by a pass that stopped before handing it to SMTP (certainly not sent); retrying`;
-  const interruptNote = (at: number | null) =>
-    `interrupted while handing to SMTP${at ? ` at ${new Date(at).toISOString()}` : ""}: delivery unknown, so it is not retried automatically — check the outbox, then resend it if it did not arrive`;
-
-  const stepOffNote = "not sent: the studio turned this reminder step off";
-  const releaseNote = "released: the pass was stopped before handing it to SMTP (certainly not sent); the next pass sends it";
-  const signal = options.signal;
-  /** Lets a signal's abort event run (the pass is otherwise synchronous between messages), then reads it. */
-  const stopRequested = async (): Promise<boolean> => {
-    if (!signal) return false;
-    await new Promise<void>((resolve) => setImmediate(resolve));
-    return signal.aborted;
-  };
-  const studioById = new Map<string, StudioRow & ReturnType<typeof catalogFor> & { timing: SendTiming }>();
-  for (const { reminderSendHour, reminderSteps, ...st } of s.studios.all() as (StudioRow & StudioTimingColumns)[]) {
-    studioById.set(st.id, { ...st, ...catalogFor(db, st.id), timing: timingFromColumns(reminderSendHour, reminderSteps) });
-  }
-  report.studios = studioById.size;
-  {
-    let after = "";
-    for (;;) {
-      if (await stopRequested()) {
-        report.stopped = true;
-        break;
-      }
-      const pieces = s.pieces.all(after, chunkSize) as ReminderPieceRow[];
-      if (pieces.length === 0) break;
-      const lo = after;
-      const hi = pieces[pieces.length - 1]!.id;
-      after = hi;
-      report.pieces += pieces.length;
-      const layers = groupBy(s.layers.all(lo, hi) as (CareLayerColumns & { pieceId: string })[]);
-      const logs = groupBy(s.careLog.all(lo, hi) as (Pick<CareLogRow, "taskKind" | "doneOn" | "surface"> & { pieceId: string })[]);
-      lap("readMs");
-
-      // The care engine, outside the write transaction.
-      // Each task keeps only the steps its studio sends, before the current step is found.
-      const schedules: { piece: ReminderPieceRow; tasks: CareTask[]; current: number[] }[] = [];
-      for (const piece of pieces) {
-        const studio = studioById.get(piece.studioId)!;
-        const catalog = studio.catalog;
-        const { steps, sendAfterMinutes } = studio.timing;
-        try {
-          clocks.at(piece.ownerTimeZone);
-          const schedule = scheduleFromColumns({ piece, layers: layers.get(piece.id) ?? [], careLog: logs.get(piece.id) ?? [], catalog, timeZone: studio.timeZone, now: nowMs });
-          const tasks = schedule.tasks.map((t) => withEnabledSteps(t, steps));
-          const current = tasks.map((t) => currentStepIndex(t, clocks, piece.ownerTimeZone, sendAfterMinutes));
-          schedules.push({ piece, tasks, current });
-          report.tasks += schedule.tasks.length;
-        } catch (e) {
-          if (!(e instanceof CareInputError)) throw e;
-          report.errors.push({ pieceId: piece.id, message: e.message });
-        }
-      }
-
-      lap("computeMs");
-      if (await stopRequested()) {
-        report.stopped = true;
-        break;
-      }
-
-      // Claims, in one IMMEDIATE transaction per chunk, against ledger rows read inside it.
-      const claims: Claim[] = [];
-      sqlite
-        .transaction(() => {
-          const existing = new Set(s.ledgerKeys.all(lo === "" ? "" : `${lo};`, `${hi};`) as string[]);
-          const ledger = groupBy(s.ledgerPending.all(lo, hi) as (LedgerRow & { pieceId: string })[]);
-          // Offers matter only for a refresh task being claimed now (a few pieces a pass), so they are
-          // read per piece on first need rather than for the whole chunk (~1 offer per piece on record).
-          const offersByPiece = new Map<string, OfferRow[]>();
-          const offersOf = (pieceId: string) => {
-            let rows = offersByPiece.get(pieceId);
-            // Task keys start with "<piece id>:" (taskKey in lib/care); ";" is the character after ":".
-            if (!rows) offersByPiece.set(pieceId, (rows = s.offers.all(`${pieceId}:`, `${pieceId};`) as OfferRow[]));
-            return rows;
-          };
-          for (const { piece, tasks, current } of schedules) {
-            const studio = studioById.get(piece.studioId)!;
-            const byId = studio.byId;
-            const rows = ledger.get(piece.id) ?? [];
-            const byKey = new Map<string, LedgerRow>();
-            const view = { pending: (k: string) => byKey.get(k), exists: (k: string) => existing.has(k) };
-            for (const r of rows) {
-              if (r.status === "queued" && r.updatedAt <= staleBefore) {
-                if (r.sentAt === null) {
-                  if (s.recover.run(nowMs, recoverNote, nowMs, r.id, r.messageId, staleBefore).changes > 0) {
-                    Object.assign(r, { status: "failed", messageId: null, nextAttemptAt: nowMs });
-                    report.recovered++;
-                  }
-                } else if (s.interrupt.run(interruptNote(r.sentAt), nowMs, r.id, staleBefore).changes > 0) {
-                  Object.assign(r, { status: "failed", messageId: null, nextAttemptAt: null });
-                  report.interrupted++;
-                }
-              }
-              byKey.set(r.reminderKey, r);
-            }
-            const cycles = new Set(tasks.map((t) => `${t.key}|${t.dueOn}`));
-            for (const r of rows) {
-              if (!pendingRetry(r)) continue;
-              const cancelled = !cycles.has(`${r.taskKey}|${r.dueOn}`)
-                ? s.cancel.run(nowMs, r.id).changes > 0
-                : !studio.timing.steps.includes(r.step) && s.cancelStepOff.run(stepOffNote, nowMs, r.id).changes > 0;
-              if (cancelled) {
-                r.status = "cancelled";
-                byKey.delete(r.reminderKey);
-                report.cancelled++;
-              }
-            }
-            for (let ti = 0; ti < tasks.length; ti++) {
-              const task = tasks[ti]!;
-              const d = decideTask(task, view, clocks, piece.ownerTimeZone, current[ti]);
-              for (const k of d.skipNew) {
-                report.skipped += s.insertRow.run({
-                  id: randomUUID(), studioId: studio.id, pieceId: piece.id, userId: piece.ownerId, reminderKey: k.reminderKey, taskKey: task.key,
-                  taskKind: task.kind, step: k.step, dueOn: task.dueOn, status: "skipped", messageId: null, lastError: null, now: nowMs,
-                }).changes;
-              }
-              if (!d.send) continue;
-              for (const r of d.supersede) report.skipped += s.supersede.run(`superseded by ${d.send.step}`, nowMs, r.id).changes;
-              const token = `${CLAIM_PREFIX}${randomUUID()}`;
-              let rowId: string;
-              if (d.send.claim === "insert") {
-                rowId = randomUUID();
-                const changed = s.insertRow.run({
-                  id: rowId, studioId: studio.id, pieceId: piece.id, userId: piece.ownerId, reminderKey: d.send.reminderKey, taskKey: task.key,
-                  taskKind: task.kind, step: d.send.step, dueOn: task.dueOn, status: "queued", messageId: token, lastError: null, now: nowMs,
-                }).changes;
-                if (changed === 0) continue;
-              } else {
-                rowId = d.send.row!.id;
-                if (s.claimRetry.run(token, nowMs, rowId, nowMs).changes === 0) continue;
-              }
-              report.claimed++;
-              const product = task.productId ? byId.get(task.productId) : undefined;
-              let offer: Claim["offer"];
-              if (task.isRefresh) {
-                const ofTask = offersOf(piece.id).filter((o) => o.taskKey === task.key);
-                for (const o of ofTask) if (o.dueOn !== task.dueOn && o.status === "offered") s.expireOffer.run(o.id);
-                const existing = ofTask.find((o) => o.dueOn === task.dueOn);
-                if (!existing) {
-                  const q = refreshQuote(task, piece, studio, product);
-                  if (q) {
-                    const offerId = randomUUID();
-                    if (s.insertOffer.run(offerId, studio.id, piece.id, piece.ownerId, task.key, task.dueOn, q.totalMinor, q.currency, JSON.stringify(q), rowId, nowMs).changes > 0) {
-                      offer = { id: offerId, quote: q };
-                      report.offers++;
-                    }
-                  }
-                } else if (existing.status === "offered" && (existing.reminderSendId === rowId || existing.sendStatus !== "sent")) {
-                  const relinked = s.relinkOffer.get(rowId, existing.id) as { quote: string } | undefined;
-                  if (relinked) offer = { id: existing.id, quote: JSON.parse(relinked.quote) as Quote };
-                }
-              }
-              if (!deliver) continue;
-              claims.push({
-                rowId,
-                token,
-                reminderKey: d.send.reminderKey,
-                step: d.send.step,
-                task,
-                owner: { id: piece.ownerId, email: piece.ownerEmail, name: piece.ownerName, unitSystem: piece.ownerUnitSystem },
-                piece: { id: piece.id, title: piece.title, use: piece.use, sun: piece.sun, shape: topShape(piece), hasResin: piece.resinKind !== "none" },
-                studio: { id: studio.id, name: studio.name, country: studio.country },
-                product,
-                offer,
-                ownerToday: clocks.at(piece.ownerTimeZone).date,
-              });
-            }
-          }
-        })
-        .immediate();
-      lap("claimMs");
-
-      for (let i = 0; i < claims.length; i++) {
-        if (signal?.aborted) {
-          // Nothing of these has reached SMTP: put them back, due now, in one transaction.
-          sqlite.transaction(() => {
-            for (const c of claims.slice(i)) report.released += s.release.run(nowMs, releaseNote, nowMs, c.rowId, c.token).changes;
-          })();
-          report.stopped = true;
-          break;
-        }
-        const claim = claims[i]!;
-        const r = await deliverClaim(db, claim, nowMs);
-        if (r.kind === "sent") {
-          report.sent.push(r.item);
-          await options.onSent?.(r.item);
-        } else if (r.kind === "failed") report.failed.push(r.item);
-        else report.lost++;
-      }
-      lap("deliverMs");
-      if (report.stopped) break;
-    }
-  }
-  report.ms = performance.now() - started;
-  return report;
+  return m;
 }

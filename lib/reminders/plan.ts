@@ -1,6 +1,6 @@
 // What one pass does with one care task, given its ledger rows: pure, so the rules are easy to test.
 // The ledger protocol (see pass.ts for the full story):
-//   queued   — claimed by a pass; messageId holds that pass's claim token ("claim:<uuid>") and sentAt
+//   queued   — leased by a pass; messageId holds that pass's lease token ("lease:<uuid>") and sentAt
 //              is null until the hand-off to SMTP begins (then sentAt = when it began, attempts + 1).
 //   sent     — accepted by the SMTP server; messageId is its Message-ID.
 //   failed   — the SMTP server refused or could not be reached; retried while nextAttemptAt is set
@@ -61,7 +61,7 @@ export class OwnerClocks {
    * in `timeZone` come? Compared on the owner's wall clock, not as an instant: a send time that does
    * not exist that day (inside a spring-forward gap, e.g. 02:00 in New York on 14 March 2027) has come
    * from the first instant after the gap (03:00 EDT), so the reminder still goes out that day. A wall
-   * time that occurs twice (clocks go back) has come from its first occurrence; the ledger row claimed
+   * time that occurs twice (clocks go back) has come from its first occurrence; the ledger row leased
    * then keeps the second one from sending again.
    */
   hasCome(date: string, timeZone: string, sendAfterMinutes: number): boolean {
@@ -114,8 +114,8 @@ export function pendingRetry(row: LedgerRow): boolean {
 }
 
 export type TaskDecision = {
-  /** The step to send now and how to claim it, if any. */
-  send?: { step: ReminderStep; reminderKey: string; claim: "insert" | "retry"; row?: LedgerRow };
+  /** The step to send now and how to lease its ledger row (a new row, or a failed one retried), if any. */
+  send?: { step: ReminderStep; reminderKey: string; lease: "insert" | "retry"; row?: LedgerRow };
   /** Earlier steps to record as skipped (INSERT … DO NOTHING: a step that has a row keeps it). */
   skipNew: { step: ReminderStep; reminderKey: string }[];
   /** Earlier steps waiting for a retry: superseded by the step being sent. */
@@ -144,7 +144,7 @@ export interface LedgerView {
 /**
  * For one task (its reminders already cut to the studio's steps, see withEnabledSteps): the most
  * recent reminder step whose send time has come in the owner's zone is sent unless its ledger row
- * exists (a failed row is retried when due); when it is first claimed, the earlier steps never sent
+ * exists (a failed row is retried when due); when it is first leased, the earlier steps never sent
  * are recorded as skipped.
  */
 export function decideTask(
@@ -159,8 +159,8 @@ export function decideTask(
   const step = task.reminders[current]!.step;
   const key = reminderKey(task, step);
   const row = rows.pending(key);
-  if (!row && !rows.exists(key)) out.send = { step, reminderKey: key, claim: "insert" };
-  else if (row && retryable(row, clocks.nowMs)) out.send = { step, reminderKey: key, claim: "retry", row };
+  if (!row && !rows.exists(key)) out.send = { step, reminderKey: key, lease: "insert" };
+  else if (row && retryable(row, clocks.nowMs)) out.send = { step, reminderKey: key, lease: "retry", row };
   if (!out.send) return out;
   for (let i = 0; i < current; i++) {
     const s = task.reminders[i]!.step;
@@ -168,7 +168,7 @@ export function decideTask(
     const r = rows.pending(k);
     if (r) {
       if (pendingRetry(r)) out.supersede.push(r);
-    } else if (out.send.claim === "insert" && !rows.exists(k)) out.skipNew.push({ step: s, reminderKey: k });
+    } else if (out.send.lease === "insert" && !rows.exists(k)) out.skipNew.push({ step: s, reminderKey: k });
   }
   return out;
 }

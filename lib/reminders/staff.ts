@@ -12,7 +12,7 @@ import { containsText } from "@/lib/text-match";
 import { scheduleFromColumns, toCatalog, topShape } from "@/lib/pieces/care-inputs";
 import { ledgerIdSchema, pauseSchema, remindersQuerySchema } from "@/lib/validation/reminders";
 import { currentStepIndex, OwnerClocks, timingFromColumns, withEnabledSteps, type SendTiming } from "./plan";
-import { CLAIM_PREFIX, deliverClaim } from "./pass";
+import { deliverLease, LEASE_PREFIX } from "./deliver";
 
 // The studio's view of care reminders (/studio/reminders): what goes out in the next days (computed
 // with the same care engine as the pass, and only the steps the studio sends) and what went out (the
@@ -158,7 +158,7 @@ export function setPiecePaused(ctx: StudioContext, raw: unknown): { pieceId: str
 }
 
 /**
- * Sends a failed reminder again now, through the same claim and hand-off as the pass. Only a failed
+ * Sends a failed reminder again now, through the same lease and hand-off as the pass. Only a failed
  * row of the task's current cycle and step (as the pass finds it: the studio's steps, at its send hour);
  * an older one would be stale news for the owner, and a step the studio turned off is not sent.
  */
@@ -194,15 +194,15 @@ export async function resendReminder(ctx: StudioContext, rawId: unknown, now = n
   const clocks = new OwnerClocks(now.getTime());
   const current = task ? task.reminders[currentStepIndex(task, clocks, owner.timeZone, timing.sendAfterMinutes)]?.step : undefined;
   if (!task || current !== row.step) throw conflict("This reminder's care task has moved on since; the next reminder will go out on its own.");
-  const token = `${CLAIM_PREFIX}${randomUUID()}`;
-  const claimed = db
+  const token = `${LEASE_PREFIX}${randomUUID()}`;
+  const leased = db
     .update(reminderSends)
     .set({ status: "queued", messageId: token, sentAt: null, nextAttemptAt: null, updatedAt: now })
     .where(and(eq(reminderSends.id, row.id), eq(reminderSends.status, "failed")))
     .run().changes;
-  if (claimed === 0) throw conflict("Someone else is already sending this reminder.");
+  if (leased === 0) throw conflict("Someone else is already sending this reminder.");
   const offerRow = db.select().from(refreshOffers).where(and(eq(refreshOffers.reminderSendId, row.id), eq(refreshOffers.status, "offered"))).get();
-  const result = await deliverClaim(
+  const result = await deliverLease(
     db,
     {
       rowId: row.id,

@@ -1,23 +1,26 @@
-// The reminder pass over 100,000 registered pieces with 300,000 finish layers (targets: < 5 s and
-// < 400 MB peak). It finds the due reminders and writes their ledger rows (claims, skipped steps,
-// refresh offers) with sending turned off; sending is timed separately on a small set, to a local SMTP
+// The reminder pass over 10,000 and 100,000 registered pieces (1,000,000 with `npm run bench -- --large`),
+// 3 finish layers each, each size judged against its own bare-SELECT floor. It finds the due reminders
+// and writes their ledger rows (leases, skipped steps, refresh offers) with sending turned off; sending is timed separately on a small set, to a local SMTP
 // sink on a free port. Seeds its own database in the OS temp dir. Synthetic, invented data.
 //
 // The judged pass is the scheduler's steady state after a week without passes: the seed runs the real
-// pass a week before NOW (its claims then marked sent, as if they had gone out), so the timed pass
-// finds a week's worth of newly due steps among all 100,000 pieces. BENCH_COLD=1 also times the very
+// pass a week before NOW (its leased rows then marked sent, as if they had gone out), so the timed pass
+// finds a week's worth of newly due steps among all the pieces. BENCH_COLD=1 also times the very
 // first pass over an empty ledger, where every overdue task writes its steps at once (reported, not judged).
-// `npm run bench` or `npx tsx tests/bench/reminder-pass.bench.ts`.
-import { execFileSync } from "node:child_process";
+// `npm run bench` or `npx tsx tests/bench/reminder-pass.bench.ts` (BENCH_PIECES=n: that one size).
+import { execFileSync, spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { result } from "./result";
 
-const PIECES = Number(process.env.BENCH_PIECES ?? 100_000);
-const TARGET_MS = 5000;
-const TARGET_MB = 400;
+// Verdicts are ratios to floors measured in the same run (absolute figures move with the machine):
+// the pass may take at most 3× a bare SELECT that steps the same rows (it was 1.97–2.04× when the
+// targets were absolute, 5 s and 400 MB on these machines), and its peak memory at most 3× the
+// process's resident memory after that SELECT (our choice: 1.2× at 2,000 pieces in a trial run).
+const RATIO_MAX = 3;
+const MEMORY_RATIO_MAX = 3;
 const NOW = new Date("2026-06-15T18:00:00Z");
 const HISTORY = new Date(NOW.getTime() - 7 * 86_400_000);
 const SEND_SAMPLE = 200;
@@ -31,7 +34,7 @@ if (process.argv[2] === "--seed") {
   process.exit(0);
 }
 if (process.argv[2] === "--history") {
-  // The ledger as a running scheduler leaves it: a pass a week ago, its claims sent.
+  // The ledger as a running scheduler leaves it: a pass a week ago, its leased rows sent.
   const { openDatabase } = await import("../../db/client");
   const { runReminderPass } = await import("../../lib/reminders/pass");
   const db = openDatabase(process.argv[3]!);
@@ -39,113 +42,136 @@ if (process.argv[2] === "--history") {
   db.$client.prepare(`UPDATE reminder_sends SET status = 'sent', attempts = 1, message_id = '<history@bench.example>', sent_at = ? WHERE status = 'queued'`).run(HISTORY.getTime());
   db.$client.pragma("wal_checkpoint(TRUNCATE)");
   db.$client.close();
-  console.log(`history: a pass at ${HISTORY.toISOString()} wrote ${(r.claimed + r.skipped).toLocaleString("en-US")} ledger rows (cold start, ${(r.ms / 1000).toFixed(1)} s)`);
+  console.log(`history: a pass at ${HISTORY.toISOString()} wrote ${(r.leased + r.skipped).toLocaleString("en-US")} ledger rows (cold start, ${(r.ms / 1000).toFixed(1)} s)`);
   process.exit(0);
 }
 
-const dir = fs.mkdtempSync(path.join(os.tmpdir(), "gw-reminder-bench-"));
-const big = path.join(dir, "bench.db");
-const small = path.join(dir, "send.db");
-try {
-  // Seeded in a child process so this process's peak memory is the pass's own.
-  const t = performance.now();
-  execFileSync(tsx, [self, "--seed", big, String(PIECES)], { cwd: root, stdio: "inherit" });
-  const cold = path.join(dir, "cold.db");
-  if (process.env.BENCH_COLD === "1") fs.copyFileSync(big, cold);
-  execFileSync(tsx, [self, "--history", big], { cwd: root, stdio: "inherit" });
-  execFileSync(tsx, [self, "--seed", small, String(SEND_SAMPLE)], { cwd: root, stdio: "inherit" });
-  console.log(`seeded ${PIECES} pieces in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+const LARGE = process.env.BENCH_LARGE === "1";
+// The size sweep: how the pass's cost grows with the registry. 1,000,000 only with `npm run bench -- --large`.
+const SIZES = process.env.BENCH_PIECES ? [Number(process.env.BENCH_PIECES)] : [10_000, 100_000, ...(LARGE ? [1_000_000] : [])];
 
-  const { startSmtpSink } = await import("../../lib/fakes/smtp-sink");
-  const sink = await startSmtpSink();
-  process.env.SMTP_PORT = String(sink.smtpPort);
-  const { openDatabase } = await import("../../db/client");
-  const { runReminderPass } = await import("../../lib/reminders/pass");
-  const { closeMailTransport } = await import("../../lib/mail");
-
-  // The floor: the same rows the pass reads, selected and nothing else.
-  const floorDb = openDatabase(big);
-  const count = (q: string) => {
-    let n = 0;
-    for (const row of floorDb.$client.prepare(q).raw().iterate()) if (row) n++;
-    return n;
-  };
-  const f0 = performance.now();
-  const pieceRows = count(
-    `SELECT p.id, p.studio_id, p.title, p.kind, p.use, p.sun, p.delivered_on, p.resin_kind, p.primary_species_id, p.shape_kind, p.length_mm, p.width_mm,
-            p.diameter_mm, p.measured_area_m2, u.id, u.email, u.name, u.time_zone, u.unit_system
-       FROM pieces p JOIN users u ON u.id = p.owner_id WHERE p.owner_id IS NOT NULL AND p.archived_at IS NULL AND p.reminders_paused = 0 AND u.reminders_enabled = 1`,
-  );
-  const layerRows = count(`SELECT piece_id, id, surface, finish_class, product_id, coats, applied_on FROM finish_layers`);
-  const ledgerRows = count(`SELECT piece_id, id, reminder_key, task_key, due_on, step, status, attempts, next_attempt_at, message_id, sent_at, updated_at FROM reminder_sends`);
-  const floorMs = performance.now() - f0;
-  floorDb.$client.close();
-
-  // Three runs, each on a fresh copy (a pass writes the ledger, so a second one over the same file has
-  // nothing left to claim); the best is judged, as other processes on a shared machine only add time.
-  const timings: number[] = [];
-  let report: Awaited<ReturnType<typeof runReminderPass>> | undefined;
-  for (let run = 0; run < 3; run++) {
-    const copy = path.join(dir, `run-${run}.db`);
-    fs.copyFileSync(big, copy);
-    const db = openDatabase(copy);
-    const start = performance.now();
-    report = await runReminderPass({ now: NOW, db, deliver: false });
-    timings.push(performance.now() - start);
-    db.$client.close();
-    fs.rmSync(copy, { force: true });
-  }
-  const peakMb = process.resourceUsage().maxRSS / 1024;
-  let coldLine = "";
-  if (process.env.BENCH_COLD === "1") {
-    const db = openDatabase(cold);
-    const c = await runReminderPass({ now: NOW, db, deliver: false });
-    db.$client.close();
-    coldLine =
-      `  cold start (empty ledger, reported, not judged): ${(c.ms / 1000).toFixed(1)} s, ${(c.claimed + c.skipped + c.offers).toLocaleString("en-US")} rows written ` +
-      `(claimed ${c.claimed.toLocaleString("en-US")}, skipped ${c.skipped.toLocaleString("en-US")}, offers ${c.offers.toLocaleString("en-US")}); phases ${phases(c.phases)}`;
-  }
-
-  // Sending, separately: a pass with delivery on over a small set, to the local sink.
-  const sendDb = openDatabase(small);
-  const s0 = performance.now();
-  const sendReport = await runReminderPass({ now: NOW, db: sendDb });
-  const sendMs = performance.now() - s0;
-  sendDb.$client.close();
-  closeMailTransport();
-  await sink.close();
-
-  const best = Math.min(...timings);
-  const r = report!;
-  console.log(
-    `reminder pass: ${r.pieces.toLocaleString("en-US")} pieces, ${layerRows.toLocaleString("en-US")} layers → ${r.tasks.toLocaleString("en-US")} tasks; ` +
-      `claimed ${r.claimed.toLocaleString("en-US")}, skipped ${r.skipped.toLocaleString("en-US")}, offers ${r.offers.toLocaleString("en-US")} (ledger rows written, no mail)`,
-  );
-  console.log(
-    `  best of 3: ${best.toFixed(0)} ms (${Math.round(r.pieces / (best / 1000)).toLocaleString("en-US")} pieces/s; runs ${timings.map((x) => x.toFixed(0)).join(", ")} ms; target < ${TARGET_MS} ms)`,
-  );
-  console.log(`  phases of the last run: ${phases(r.phases)}`);
-  console.log(
-    `  floor: bare SELECT stepping the same ${pieceRows.toLocaleString("en-US")} piece+owner rows, ${layerRows.toLocaleString("en-US")} layer rows and ${ledgerRows.toLocaleString("en-US")} ledger rows: ${floorMs.toFixed(0)} ms`,
-  );
-  if (coldLine) console.log(coldLine);
-  console.log(`  peak memory (max RSS of this process): ${peakMb.toFixed(0)} MB (target < ${TARGET_MB} MB)`);
-  console.log(
-    `  sending, counted separately: ${sendReport.sent.length} messages rendered and sent to the local sink in ${sendMs.toFixed(0)} ms (${Math.round(sendReport.sent.length / (sendMs / 1000))} messages/s)`,
-  );
-  if (sendReport.failed.length > 0) console.error(`  ${sendReport.failed.length} sends failed: ${sendReport.failed[0]?.error}`);
-  result({ figure: `reminder pass over ${r.pieces.toLocaleString("en-US")} pieces (ledger rows, no mail)`, target: `< ${TARGET_MS} ms`, measured: `${best.toFixed(0)} ms`, floor: `bare SELECT ${floorMs.toFixed(0)} ms`, ratio: best / floorMs, ok: best < TARGET_MS && r.claimed > 0 });
-  result({ figure: "reminder pass peak memory", target: `< ${TARGET_MB} MB`, measured: `${peakMb.toFixed(0)} MB`, floor: "—", ratio: null, ok: peakMb < TARGET_MB });
-  if (best >= TARGET_MS || peakMb >= TARGET_MB || r.claimed === 0) {
-    console.error(`reminder pass benchmark over target (or found nothing due): ${best.toFixed(0)} ms, ${peakMb.toFixed(0)} MB`);
-    process.exit(1);
-  }
-} finally {
-  fs.rmSync(dir, { recursive: true, force: true });
+if (process.argv[2] === "--size") {
+  await measureSize(Number(process.argv[3]));
+  process.exit(process.exitCode ?? 0);
 }
 
-function phases(p: { readMs: number; computeMs: number; claimMs: number; deliverMs: number }): string {
-  return `read ${p.readMs.toFixed(0)} ms, care engine ${p.computeMs.toFixed(0)} ms, claims ${p.claimMs.toFixed(0)} ms`;
+// Each size runs in its own child process, so its peak memory is its own.
+for (const size of SIZES) {
+  const child = spawnSync(tsx, [self, "--size", String(size)], { cwd: root, stdio: "inherit" });
+  if (child.status !== 0) process.exitCode = 1;
+}
+await measureSending();
+
+/** Seeds `size` pieces and a week-old ledger, steps the floor, then times the pass (best of 3; 1 run at 1M). */
+async function measureSize(size: number) {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "gw-reminder-bench-"));
+  const big = path.join(dir, "bench.db");
+  try {
+    // Seeded in child processes so this process's peak memory is the pass's own.
+    const t = performance.now();
+    execFileSync(tsx, [self, "--seed", big, String(size)], { cwd: root, stdio: "inherit" });
+    const cold = path.join(dir, "cold.db");
+    if (process.env.BENCH_COLD === "1") fs.copyFileSync(big, cold);
+    execFileSync(tsx, [self, "--history", big], { cwd: root, stdio: "inherit" });
+    console.log(`seeded ${size.toLocaleString("en-US")} pieces in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+    const { openDatabase } = await import("../../db/client");
+    const { runReminderPass } = await import("../../lib/reminders/pass");
+
+    // The floor: the same rows the pass reads, selected and stepped, nothing else.
+    const floorDb = openDatabase(big);
+    const count = (q: string) => {
+      let n = 0;
+      for (const row of floorDb.$client.prepare(q).raw().iterate()) if (row) n++;
+      return n;
+    };
+    const f0 = performance.now();
+    const pieceRows = count(
+      `SELECT p.id, p.studio_id, p.title, p.kind, p.use, p.sun, p.delivered_on, p.resin_kind, p.primary_species_id, p.shape_kind, p.length_mm, p.width_mm,
+              p.diameter_mm, p.measured_area_m2, u.id, u.email, u.name, u.time_zone, u.unit_system
+         FROM pieces p JOIN users u ON u.id = p.owner_id WHERE p.owner_id IS NOT NULL AND p.archived_at IS NULL AND p.reminders_paused = 0 AND u.reminders_enabled = 1`,
+    );
+    const layerRows = count(`SELECT piece_id, id, surface, finish_class, product_id, coats, applied_on FROM finish_layers`);
+    const ledgerRows = count(`SELECT piece_id, id, reminder_key, task_key, due_on, step, status, attempts, next_attempt_at, message_id, sent_at, updated_at FROM reminder_sends`);
+    const floorMs = performance.now() - f0;
+    floorDb.$client.close();
+    // The memory floor: this process once it has loaded the pass's modules and stepped the same rows.
+    const floorRssMb = process.memoryUsage().rss / 2 ** 20;
+
+    // Runs on fresh copies (a pass writes the ledger, so a second one over the same file has nothing
+    // left to lease); the best is judged, as other processes on a shared machine only add time.
+    const timings: number[] = [];
+    let report: Awaited<ReturnType<typeof runReminderPass>> | undefined;
+    for (let run = 0; run < (size > 200_000 ? 1 : 3); run++) {
+      const copy = path.join(dir, `run-${run}.db`);
+      fs.copyFileSync(big, copy);
+      const db = openDatabase(copy);
+      const start = performance.now();
+      report = await runReminderPass({ now: NOW, db, deliver: false });
+      timings.push(performance.now() - start);
+      db.$client.close();
+      fs.rmSync(copy, { force: true });
+    }
+    const peakMb = process.resourceUsage().maxRSS / 1024;
+    if (process.env.BENCH_COLD === "1") {
+      const db = openDatabase(cold);
+      const c = await runReminderPass({ now: NOW, db, deliver: false });
+      db.$client.close();
+      console.log(
+        `  cold start (empty ledger, reported, not judged): ${(c.ms / 1000).toFixed(1)} s, ${(c.leased + c.skipped + c.offers).toLocaleString("en-US")} rows written ` +
+          `(leased ${c.leased.toLocaleString("en-US")}, skipped ${c.skipped.toLocaleString("en-US")}, offers ${c.offers.toLocaleString("en-US")}); phases ${phases(c.phases)}`,
+      );
+    }
+    const best = Math.min(...timings);
+    const r = report!;
+    const ratio = best / floorMs;
+    console.log(
+      `reminder pass: ${r.pieces.toLocaleString("en-US")} pieces, ${layerRows.toLocaleString("en-US")} layers → ${r.tasks.toLocaleString("en-US")} tasks; ` +
+        `leased ${r.leased.toLocaleString("en-US")}, skipped ${r.skipped.toLocaleString("en-US")}, offers ${r.offers.toLocaleString("en-US")} (ledger rows written, no mail)`,
+    );
+    console.log(`  best of ${timings.length}: ${best.toFixed(0)} ms (${Math.round(r.pieces / (best / 1000)).toLocaleString("en-US")} pieces/s; runs ${timings.map((x) => x.toFixed(0)).join(", ")} ms)`);
+    console.log(`  phases of the last run: ${phases(r.phases)}`);
+    console.log(
+      `  floor: bare SELECT stepping the same ${pieceRows.toLocaleString("en-US")} piece+owner rows, ${layerRows.toLocaleString("en-US")} layer rows and ${ledgerRows.toLocaleString("en-US")} ledger rows: ${floorMs.toFixed(0)} ms`,
+    );
+    console.log(`  peak memory (max RSS of this process): ${peakMb.toFixed(0)} MB; after the floor: ${floorRssMb.toFixed(0)} MB`);
+    const n = size.toLocaleString("en-US");
+    result({ figure: `reminder pass over ${n} pieces (ledger rows, no mail)`, target: `≤ ${RATIO_MAX}× floor`, measured: `${best.toFixed(0)} ms`, floor: `bare SELECT ${floorMs.toFixed(0)} ms`, ratio, ok: ratio <= RATIO_MAX && r.leased > 0 });
+    result({ figure: `reminder pass peak memory, ${n} pieces`, target: `≤ ${MEMORY_RATIO_MAX}× floor`, measured: `${peakMb.toFixed(0)} MB`, floor: `RSS after the bare SELECT ${floorRssMb.toFixed(0)} MB`, ratio: peakMb / floorRssMb, ok: peakMb / floorRssMb <= MEMORY_RATIO_MAX });
+    if (r.leased === 0) console.error(`the pass over ${n} pieces found nothing due`);
+  } finally {
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+/** Sending, counted separately and not judged: a pass with delivery on over a small set, to a local SMTP sink. */
+async function measureSending() {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "gw-reminder-send-"));
+  const small = path.join(dir, "send.db");
+  try {
+    execFileSync(tsx, [self, "--seed", small, String(SEND_SAMPLE)], { cwd: root, stdio: "inherit" });
+    process.env.DATABASE_URL = small; // what the mail path reads (the studio's brand) comes from the same database
+    const { startSmtpSink } = await import("../../lib/fakes/smtp-sink");
+    const sink = await startSmtpSink();
+    process.env.SMTP_PORT = String(sink.smtpPort);
+    const { openDatabase } = await import("../../db/client");
+    const { runReminderPass } = await import("../../lib/reminders/pass");
+    const { closeMailTransport } = await import("../../lib/mail");
+    const sendDb = openDatabase(small);
+    const s0 = performance.now();
+    const sendReport = await runReminderPass({ now: NOW, db: sendDb });
+    const sendMs = performance.now() - s0;
+    sendDb.$client.close();
+    closeMailTransport();
+    await sink.close();
+    console.log(`sending, counted separately: ${sendReport.sent.length} messages rendered and sent to the local sink in ${sendMs.toFixed(0)} ms (${Math.round(sendReport.sent.length / (sendMs / 1000))} messages/s)`);
+    if (sendReport.failed.length > 0) console.error(`  ${sendReport.failed.length} sends failed: ${sendReport.failed[0]?.error}`);
+  } finally {
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function phases(p: { readMs: number; computeMs: number; leaseMs: number; deliverMs: number }): string {
+  return `read ${p.readMs.toFixed(0)} ms, care engine ${p.computeMs.toFixed(0)} ms, leases ${p.leaseMs.toFixed(0)} ms`;
 }
 
 async function seed(file: string, count: number) {

@@ -21,7 +21,7 @@ ownDatabaseFile("stop");
 const NOW = new Date("2030-05-06T17:00:00Z");
 
 describe("a reminder pass stopped by its signal", () => {
-  it("finishes the message in hand, puts back the chunk's other claims, and the next pass sends the rest once", async () => {
+  it("finishes the message in hand, puts back the chunk's other leases, and the next pass sends the rest once", async () => {
     const { studio, products } = seedStudio();
     // Due 2030-05-20 (hardwax oil, heavy use: 12 months, lib/care/intervals.ts): first reminder 2030-05-06.
     const oiled = DateTime.fromISO("2030-05-20").minus({ months: 12 }).toISODate()!;
@@ -29,9 +29,9 @@ describe("a reminder pass stopped by its signal", () => {
     for (const o of owners) seedPiece(studio, o.id, { deliveredOn: oiled, layers: [{ surface: "top", finishClass: "hardwax_oil", productId: products.oil, appliedOn: oiled, coats: 2 }] });
     const rows = () => getDb().select().from(reminderSends).where(eq(reminderSends.studioId, studio.id)).all();
 
-    // Already aborted: nothing is read or claimed.
+    // Already aborted: nothing is read or leased.
     const before = await runReminderPass({ now: NOW, signal: AbortSignal.abort() });
-    expect(before).toMatchObject({ stopped: true, pieces: 0, claimed: 0, released: 0 });
+    expect(before).toMatchObject({ stopped: true, pieces: 0, leased: 0, released: 0 });
     expect(rows()).toHaveLength(0);
 
     // Chunks of 4 pieces (8 reminders); stop once the third message has gone.
@@ -45,7 +45,7 @@ describe("a reminder pass stopped by its signal", () => {
         if (++sentSoFar === 3) ctl.abort();
       },
     });
-    expect(first).toMatchObject({ stopped: true, pieces: 4, claimed: 8, released: 5 });
+    expect(first).toMatchObject({ stopped: true, pieces: 4, leased: 8, released: 5 });
     expect(first.sent).toHaveLength(3);
     const after1 = rows();
     expect(after1.map((r) => r.status).sort()).toEqual(["failed", "failed", "failed", "failed", "failed", "sent", "sent", "sent"]);
@@ -57,9 +57,9 @@ describe("a reminder pass stopped by its signal", () => {
     for (const o of owners) mailed += (await listMail({ to: o.email })).length;
     expect(mailed).toBe(3);
 
-    // The next pass at the same instant: the 5 put back (retries due now) and the 12 never claimed.
+    // The next pass at the same instant: the 5 put back (retries due now) and the 12 never leased.
     const second = await runReminderPass({ now: NOW, chunkSize: 4 });
-    expect(second).toMatchObject({ stopped: false, released: 0, claimed: 17, failed: [] });
+    expect(second).toMatchObject({ stopped: false, released: 0, leased: 17, failed: [] });
     expect(second.sent).toHaveLength(17);
     const after2 = rows();
     expect(after2).toHaveLength(20);
@@ -78,7 +78,7 @@ describe("a reminder pass stopped by its signal", () => {
 });
 
 describe("a visit reminder pass stopped by its signal", () => {
-  it("claims nothing once aborted; the next pass sends the reminder", async () => {
+  it("leases nothing once aborted; the next pass sends the reminder", async () => {
     const w = await visitWorld();
     // A Monday at least 60 days ahead, 12:00 UTC (inside the visit calendar whatever day the suite runs).
     const bookAt = DateTime.utc().plus({ days: 60 }).startOf("week").plus({ weeks: 1 }).set({ hour: 12, minute: 0, second: 0, millisecond: 0 }).toMillis();

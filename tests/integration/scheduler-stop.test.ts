@@ -95,7 +95,7 @@ describe("the scheduler on SIGTERM in the middle of a pass", () => {
       expect(exit!.code, s.output()).toBe(0);
       expect(exit!.at - killedAt, "seconds from SIGTERM to exit").toBeLessThan(5_000);
       expect(s.output()).toMatch(/scheduler: SIGTERM, stopping/);
-      expect(s.output()).toMatch(/stopped before the end; \d+ claimed reminders put back for the next pass/);
+      expect(s.output()).toMatch(/stopped before the end; \d+ reminders it held for sending put back for the next pass/);
       expect(s.output()).toMatch(/scheduler: stopped/);
     } finally {
       if (s.child.exitCode === null && s.child.signalCode === null) s.child.kill("SIGKILL");
