@@ -12,6 +12,7 @@ import { Notice } from "@/components/ui/notice";
 import { SPECIES } from "@/lib/care/species";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, PIECE_KINDS, PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import type { RegistryPage, RegistryRow } from "@/lib/pieces/registry";
+import { CardPrintBar } from "./card-print-bar";
 import { CareStatus, RegistrationStatus } from "./status";
 
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
@@ -43,6 +44,18 @@ export function RegistryTable() {
     const s = p.toString();
     router.replace(s ? `${pathname}?${s}` : pathname, { scroll: false });
   };
+
+  // Pieces ticked for printing their drawer cards; kept across pages and filters until cleared.
+  const [chosen, setChosen] = useState<ReadonlySet<string>>(new Set());
+  const toggle = (ids: string[], on: boolean) =>
+    setChosen((prev) => {
+      const next = new Set(prev);
+      for (const id of ids) {
+        if (on) next.add(id);
+        else next.delete(id);
+      }
+      return next;
+    });
 
   const [typed, setTyped] = useState(params.get("q") ?? "");
   const urlQ = params.get("q") ?? "";
@@ -179,6 +192,8 @@ export function RegistryTable() {
         </div>
       </form>
 
+      <CardPrintBar selected={[...chosen]} onClear={() => setChosen(new Set())} />
+
       <div aria-live="polite" className="text-sm text-muted">
         {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? (filtersOn ? "No pieces match." : null) : `${from}–${to} of ${data.totalIsCapped ? `more than ${data.total.toLocaleString()}` : data.total.toLocaleString()} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
@@ -222,6 +237,13 @@ export function RegistryTable() {
           <table className="hidden w-full border-separate border-spacing-0 overflow-hidden rounded-xl border border-line bg-card text-left md:table">
             <thead className="text-sm">
               <tr className="[&>th]:border-b [&>th]:border-line [&>th]:px-4 [&>th]:py-1">
+                <th scope="col" className="w-12">
+                  <Tick
+                    label="Choose every piece on this page"
+                    checked={data.rows.length > 0 && data.rows.every((r) => chosen.has(r.id))}
+                    onChange={(on) => toggle(data.rows.map((r) => r.id), on)}
+                  />
+                </th>
                 <th scope="col">{sortButton("title", "Piece")}</th>
                 <th scope="col">Species and finish</th>
                 <th scope="col">{sortButton("delivered", "Delivered")}</th>
@@ -232,6 +254,9 @@ export function RegistryTable() {
             <tbody>
               {data.rows.map((r) => (
                 <tr key={r.id} className="align-top hover:bg-resin-soft/60 [&>td]:border-b [&>td]:border-line [&>td]:px-4 [&>td]:py-3">
+                  <td className="!py-1">
+                    <Tick label={`Choose ${r.title}`} checked={chosen.has(r.id)} onChange={(on) => toggle([r.id], on)} />
+                  </td>
                   <td>
                     <Link href={`/studio/pieces/${r.id}`} className="font-semibold text-ink underline-offset-2 hover:text-resin hover:underline">
                       {r.title}
@@ -259,8 +284,9 @@ export function RegistryTable() {
           </table>
           <ul className="space-y-3 md:hidden">
             {data.rows.map((r) => (
-              <li key={r.id}>
-                <Link href={`/studio/pieces/${r.id}`} className="block rounded-xl border border-line bg-card p-4 hover:border-resin">
+              <li key={r.id} className="flex items-start gap-2">
+                <Tick label={`Choose ${r.title}`} checked={chosen.has(r.id)} onChange={(on) => toggle([r.id], on)} />
+                <Link href={`/studio/pieces/${r.id}`} className="block flex-1 rounded-xl border border-line bg-card p-4 hover:border-resin">
                   <p className="font-semibold">{r.title}</p>
                   <p className="text-sm text-muted">
                     {PIECE_KIND_LABELS[r.kind]} · {r.primarySpecies} · delivered {r.deliveredOn}
@@ -299,6 +325,15 @@ export function RegistryTable() {
         </>
       ) : null}
     </div>
+  );
+}
+
+/** A 44 px tap target around a checkbox, named for the piece it chooses. */
+function Tick({ label, checked, onChange }: { label: string; checked: boolean; onChange: (on: boolean) => void }) {
+  return (
+    <label className="inline-flex size-11 cursor-pointer items-center justify-center">
+      <input type="checkbox" aria-label={label} checked={checked} onChange={(e) => onChange(e.target.checked)} className="size-5 accent-resin" />
+    </label>
   );
 }
 
