@@ -9,7 +9,7 @@ export type PaymentRefundedAutomaticallyEmailProps = {
   studioName: string;
   pieceTitle: string;
   jobTitle: string;
-  /** The refunded amount with its currency, e.g. "92.23 USD". */
+  /** The refunded amount with its currency, as lib/format writes it, e.g. "$92.23" or "92,23 €". */
   amount: string;
   reason: AutomaticRefundReason;
   /** Absolute URL of the job page for this audience. */
@@ -72,7 +72,7 @@ PaymentRefundedAutomaticallyEmail.PreviewProps = {
   studioName: "Larchmere Slab & Resin (invented)",
   pieceTitle: "Cherry writing desk",
   jobTitle: "Re-oil the desk top",
-  amount: "92.23 USD",
+  amount: "$92.23",
   reason: "older_quote",
   url: "http://localhost:3000/jobs/example",
 } satisfies PaymentRefundedAutomaticallyEmailProps;

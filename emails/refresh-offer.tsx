@@ -6,7 +6,7 @@ import { colors, serifStack } from "./components/theme";
 export type RefreshOfferProps = {
   studioName: string;
   taskLabel: string;
-  /** e.g. "412.55 USD" */
+  /** As lib/format writes it, e.g. "$412.55" or "412,55 €". */
   total: string;
   lines: { description: string; amount: string }[];
   tax: string;

@@ -14,6 +14,6 @@ export function RefundIssuedEmail({ ownerName, studioName, pieceTitle, amount }:
   );
 }
 
-RefundIssuedEmail.PreviewProps = { ownerName: "Jonah Reyes", studioName: "Larchmere Slab & Resin (invented)", pieceTitle: "Cherry writing desk", amount: "92.23 USD" } satisfies RefundIssuedEmailProps;
+RefundIssuedEmail.PreviewProps = { ownerName: "Jonah Reyes", studioName: "Larchmere Slab & Resin (invented)", pieceTitle: "Cherry writing desk", amount: "$92.23" } satisfies RefundIssuedEmailProps;
 
 export default RefundIssuedEmail;

@@ -7,9 +7,9 @@ import { Notice } from "@/components/ui/notice";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
 import type { PreferencesInput } from "@/lib/validation/owner";
+import { runtimeTimeZone } from "@/lib/format";
 
 const noSubscribe = () => () => {};
-const browserTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone || null;
 
 export function PreferencesForm({
   action,
@@ -25,7 +25,7 @@ export function PreferencesForm({
 }) {
   const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/owner").then((m) => m.preferencesSchema), action, defaultValues: defaults, successMessage: "Preferences saved." });
   const { register, formState, setValue } = form;
-  const browserZone = useSyncExternalStore(noSubscribe, browserTimeZone, () => null);
+  const browserZone = useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null);
   useEffect(() => {
     if (zoneNeverSet && browserZone && zones.includes(browserZone) && browserZone !== defaults.timeZone) {
       setValue("timeZone", browserZone, { shouldDirty: true });

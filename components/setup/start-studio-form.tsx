@@ -8,6 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { CURRENCIES } from "@/lib/care/quote";
 import type { StartStudioInput } from "@/lib/studio/create-schema";
 import type { ActionResult } from "@/lib/validation/action";
+import { runtimeTimeZone } from "@/lib/format";
 
 /** Name, time zone (guessed from this browser until changed), currency and measurements of a new studio. */
 export function StartStudioForm({
@@ -34,7 +35,7 @@ export function StartStudioForm({
   const e = formState.errors;
 
   useEffect(() => {
-    const guess = Intl.DateTimeFormat().resolvedOptions().timeZone;
+    const guess = runtimeTimeZone();
     if (guess && !getFieldState("timeZone").isDirty) setValue("timeZone", guess);
   }, [getFieldState, setValue]);
 

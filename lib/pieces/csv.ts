@@ -23,6 +23,7 @@ import { attachImportedBuyer, newBuyerTally, readBuyerColumns, type ImportBuyer 
 import { AppError, unprocessable } from "@/lib/errors";
 import { createPieceSchema, importSchema } from "@/lib/validation/pieces";
 import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./registry";
+import { formatCount } from "@/lib/format";
 
 // CSV export of the registry's current filter, and import of earlier deliveries. The import checks
 // every row first and writes nothing unless the whole file is valid, then writes it in one transaction.
@@ -206,9 +207,9 @@ function implausibleSizes(kind: string, sizes: Partial<Record<keyof typeof DIMEN
     const asInches = Math.round(inchesToMm(v));
     const hint =
       v < min && asInches >= min && asInches <= max
-        ? ` If you measured in inches, put ${v} in the ${INCH_COLUMNS[column as keyof typeof INCH_COLUMNS]} column instead (${v} in = ${asInches.toLocaleString("en-US")} mm).`
+        ? ` If you measured in inches, put ${v} in the ${INCH_COLUMNS[column as keyof typeof INCH_COLUMNS]} column instead (${v} in = ${formatCount(asInches)} mm).`
         : ` Check the number and its unit (millimetres).`;
-    out.push({ field: column, message: `A ${what} ${v.toLocaleString("en-US")} mm ${DIMENSION_WORDS[field]} is ${v < min ? "too small" : "too large"} to be right (expected ${min.toLocaleString("en-US")}–${max.toLocaleString("en-US")} mm).${hint}` });
+    out.push({ field: column, message: `A ${what} ${formatCount(v)} mm ${DIMENSION_WORDS[field]} is ${v < min ? "too small" : "too large"} to be right (expected ${formatCount(min)}–${formatCount(max)} mm).${hint}` });
   }
   return out;
 }

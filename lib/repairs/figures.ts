@@ -2,15 +2,10 @@
 // the JSON API and the checkout's line items — from the same stored lines, so they cannot disagree.
 // Pure: components and e-mails take its output.
 import type { RepairJob, Studio } from "@/db/schema";
-import { formatMoney } from "@/lib/format";
+import { formatMoney, formatPercentBp } from "@/lib/format";
 import { LINE_UNIT_LABELS, readLines, roundingWords, type JobLine, type PricingRules } from "./lines";
 
 type JobMoney = Pick<RepairJob, "currency" | "coveredPct" | "subtotalMinor" | "coveredMinor" | "netMinor" | "taxMinor" | "totalMinor" | "title"> & { lines: unknown; pricingRules: RepairJob["pricingRules"] };
-
-/** "8.25 %" from basis points. */
-export function percentWords(bp: number): string {
-  return `${(bp / 100).toFixed(2).replace(/\.?0+$/, "")} %`;
-}
 
 function rulesOf(job: JobMoney): PricingRules | null {
   const r = job.pricingRules as Partial<PricingRules>;
@@ -20,7 +15,7 @@ function rulesOf(job: JobMoney): PricingRules | null {
 /** The tax in words for the totals: "Tax (8.25 %)", "Tax included (20 %)", "Tax (by line)". */
 function taxLabel(lines: JobLine[], rules: PricingRules | null): string {
   const rates = [...new Set(lines.filter((l) => l.amountMinor > 0).map((l) => l.taxRateBp))];
-  const rate = rates.length === 1 ? ` (${percentWords(rates[0]!)})` : rates.length > 1 ? " (rates by line)" : "";
+  const rate = rates.length === 1 ? ` (${formatPercentBp(rates[0]!)})` : rates.length > 1 ? " (rates by line)" : "";
   return rules?.taxInclusive ? `Tax included${rate}` : `Tax${rate}`;
 }
 

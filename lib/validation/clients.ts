@@ -6,15 +6,7 @@ import { CONSENT_SOURCES, CONTACT_METHODS } from "@/lib/clients/vocabulary";
 import { pastDate } from "./dates";
 import { createPieceSchema } from "./pieces";
 import { patchOf } from "./patch";
-
-function isTimeZone(tz: string): boolean {
-  try {
-    new Intl.DateTimeFormat("en-US", { timeZone: tz });
-    return true;
-  } catch {
-    return false;
-  }
-}
+import { isTimeZone } from "@/lib/format";
 
 const optionalText = (max: number, tooLong: string) => z.string().trim().max(max, tooLong);
 

@@ -8,6 +8,7 @@
 // the checks that need a person's own today (the care log, a visit report) stay in lib/.
 import { z } from "zod";
 import { addDays, addMonths } from "@/lib/care/dates";
+import { formatDate } from "@/lib/format";
 
 const DATE_RE = /^\d{4}-\d{2}-\d{2}$/;
 
@@ -34,9 +35,7 @@ export function clampStoredDate(s: string): string {
 
 /** "2 Dec 2026" in messages (UTC calendar date, no zone involved). */
 function spoken(iso: string): string {
-  const [y, m, d] = iso.split("-").map(Number) as [number, number, number];
-  const month = new Date(Date.UTC(2000, m - 1, 1)).toLocaleString("en-GB", { month: "short", timeZone: "UTC" });
-  return `${d} ${month} ${y}`;
+  return formatDate(iso, { short: true });
 }
 
 type Bound = string | (() => string);

@@ -3,6 +3,7 @@ import { isValidRegistrationCode, normalizeRegistrationCode } from "@/lib/care/r
 import { CARE_TASK_KINDS, SURFACES } from "@/lib/care/vocabulary";
 import { pastDate } from "./dates";
 import { patchOf } from "./patch";
+import { isTimeZone } from "@/lib/format";
 
 // The owner's side: shared by the forms (react-hook-form's zod resolver), the server actions and the
 // route handlers, so a form and its API answer with the same words.
@@ -45,15 +46,6 @@ export type CareLogValues = z.output<typeof careLogSchema>;
 
 export const careLogPatchSchema = patchOf(careLogSchema).refine((v) => Object.keys(v).length > 0, "Nothing to change.");
 export type CareLogPatch = z.output<typeof careLogPatchSchema>;
-
-function isTimeZone(tz: string): boolean {
-  try {
-    new Intl.DateTimeFormat("en-US", { timeZone: tz });
-    return true;
-  } catch {
-    return false;
-  }
-}
 
 export const preferencesSchema = z.object({
   remindersEnabled: z.boolean({ message: "Choose whether to get care reminders." }),
