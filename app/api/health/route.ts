@@ -1,8 +1,6 @@
-import { NextResponse } from "next/server";
 import { checkHealth } from "@/lib/health";
+import { route } from "@/lib/http/route";
 
 export const dynamic = "force-dynamic";
 
-export function GET() {
-  return NextResponse.json(checkHealth());
-}
+export const GET = route({}, () => checkHealth());
