@@ -5,6 +5,7 @@ import { checkCoverage, DEFAULT_WARRANTY_POLICY, type CoverageCheck, type OwnerA
 import { localDate } from "@/lib/care/dates";
 import { CareInputError } from "@/lib/care/errors";
 import { toCareLayers, toCareLog, toCarePiece, toCatalog } from "@/lib/pieces/care-inputs";
+import { planOnDay, withPlanTerms, type PlanOnDay } from "@/lib/plans/coverage-terms";
 import { claimAnswersSchema, type ClaimAnswers } from "@/lib/validation/claims";
 
 /** The stored answers, read back through the same schema (rows written before a change fall back to "not sure"). */
@@ -48,6 +49,8 @@ export function claimCoverage(input: {
   policyRow: Pick<WarrantyPolicyRow, "policy" | "version"> | null;
   ownerships: readonly Pick<Ownership, "userId" | "startedAt">[];
   timeZone: string;
+  /** The care plan on the claim's day; read from the piece's plans when left out. */
+  plan?: PlanOnDay | null;
 }): ClaimCoverage {
   const notes: string[] = [];
   let policy: WarrantyPolicy;
@@ -56,6 +59,10 @@ export function claimCoverage(input: {
     policy = DEFAULT_WARRANTY_POLICY;
     notes.push(`The piece record names no warranty version; checked against the default terms (${DEFAULT_WARRANTY_POLICY.version}).`);
   }
+  // A running care plan lengthens (or adds) warranty lines; from the day it lapsed or ended, the base terms apply.
+  const plan = input.plan !== undefined ? input.plan : planOnDay(input.piece.id, input.claim.createdAt);
+  const planTerms = plan ? withPlanTerms(policy, plan) : null;
+  if (planTerms) policy = planTerms.policy;
   const first = [...input.ownerships].sort((a, b) => a.startedAt.getTime() - b.startedAt.getTime())[0];
   const filedByOriginalOwner = first ? first.userId === input.claim.ownerId : true;
   if (!first) notes.push("No ownership history recorded; treated as filed by the original owner.");
@@ -79,6 +86,7 @@ export function claimCoverage(input: {
       now: input.claim.createdAt,
       timeZone: input.timeZone,
     });
+    if (planTerms) check.reasons.unshift(...planTerms.reasons);
     return { check, error: null, policyVersion: policy.version, notes };
   } catch (e) {
     if (e instanceof CareInputError) return { check: null, error: `The coverage check could not run: ${e.message}.`, policyVersion: policy.version, notes };

@@ -1,0 +1,55 @@
+import { EmailLayout, Note, Paragraph } from "./components/layout";
+import { ActionButton, LinkFallback } from "./components/button";
+
+export type PlanVisitEmailProps = {
+  ownerName: string;
+  studioName: string;
+  planName: string;
+  pieceTitle: string;
+  /** The visit's due date, written out ("3 June 2027"). */
+  dueOn: string;
+  /** What the owner pays for it, written out ("Included in your plan" or "$40.00"). */
+  price: string;
+  /** Free times the studio proposes, written out with their zone. */
+  slots: string[];
+  /** The job page, where the owner picks a time. */
+  url: string;
+};
+
+export function planVisitSubject({ pieceTitle }: Pick<PlanVisitEmailProps, "pieceTitle">): string {
+  return `Time for your care plan visit — ${pieceTitle}`;
+}
+
+export function PlanVisitEmail({ ownerName, studioName, planName, pieceTitle, dueOn, price, slots, url }: PlanVisitEmailProps) {
+  return (
+    <EmailLayout preview={`${studioName} will look after your ${pieceTitle} around ${dueOn}.`} heading="Your care plan visit is coming up">
+      <Paragraph>
+        Hello {ownerName}, your {planName} plan includes a visit from {studioName} for your {pieceTitle}, due around {dueOn}. {price}.
+      </Paragraph>
+      {slots.length > 0 ? (
+        <Paragraph>
+          Times that are free now: {slots.join("; ")}. Pick one (or another) on the visit page.
+        </Paragraph>
+      ) : (
+        <Paragraph>Pick a time that suits you on the visit page.</Paragraph>
+      )}
+      <ActionButton href={url}>Choose a time</ActionButton>
+      <LinkFallback href={url} />
+      <Note>The studio does the plan&apos;s care tasks at this visit, so you won&apos;t get reminders for them.</Note>
+    </EmailLayout>
+  );
+}
+
+// Invented example values for the React Email preview.
+PlanVisitEmail.PreviewProps = {
+  ownerName: "Jonah Reyes",
+  studioName: "Larchmere Slab & Resin",
+  planName: "Yearly finish keeping",
+  pieceTitle: "Cherry writing desk",
+  dueOn: "3 June 2027",
+  price: "Included in your plan",
+  slots: ["Tuesday 1 June 2027 at 09:00 BST", "Wednesday 2 June 2027 at 13:00 BST"],
+  url: "https://grainward.example/jobs/00000000-0000-4000-8000-000000000000",
+} satisfies PlanVisitEmailProps;
+
+export default PlanVisitEmail;

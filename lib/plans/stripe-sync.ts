@@ -1,0 +1,190 @@
+// Plan subscriptions as Stripe reports them. A webhook event only says "look again": the subscription
+// (and the invoice) are re-read from Stripe and written, one subscription at a time, so replayed and
+// out-of-order events end in the one state Stripe holds. Event ids are recorded as the payments code does.
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { planInvoices, planSubscriptions, pieces, studios, stripeEvents, users, type PlanSubscription } from "@/db/schema";
+import { PlanGraceEmail, planGraceSubject } from "@/emails/plan-grace";
+import { env } from "@/lib/env";
+import { badRequest } from "@/lib/errors";
+import { formatInstant } from "@/lib/format/dates";
+import { formatMoney } from "@/lib/format/money";
+import { sendMail } from "@/lib/mail";
+import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
+import { PLAN_FINAL, type PlanState } from "./states";
+import { moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
+import { planPrice, templateOf } from "./templates";
+
+const PLAN_EVENTS = new Set(["customer.subscription.created", "customer.subscription.updated", "customer.subscription.deleted", "invoice.paid", "invoice.payment_failed", "checkout.session.completed"]);
+const STRIPE = { actorId: null, source: "stripe" } as const;
+const DAY_MS = 86_400_000;
+
+// One sync per Stripe subscription at a time in this process: each reads Stripe after the one before
+// it has written, so an older answer can never be written over a newer one.
+const queues = new Map<string, Promise<unknown>>();
+function serial<T>(key: string, fn: () => Promise<T>): Promise<T> {
+  const run = (queues.get(key) ?? Promise.resolve()).then(fn, fn);
+  const settled = run.catch(() => undefined);
+  queues.set(key, settled);
+  void settled.then(() => {
+    if (queues.get(key) === settled) queues.delete(key);
+  });
+  return run;
+}
+
+const ms = (sec: number | null | undefined) => (sec == null ? null : new Date(sec * 1000));
+
+/** The state Stripe's subscription stands for. */
+function stateOf(s: Stripe.Subscription): PlanState {
+  switch (s.status) {
+    case "active":
+    case "trialing":
+      return s.cancel_at_period_end ? "ending" : "running";
+    case "past_due":
+    case "unpaid":
+      return "grace";
+    case "canceled":
+      return s.cancellation_details?.reason === "payment_failed" ? "lapsed" : "ended";
+    case "incomplete_expired":
+      return "ended";
+    default:
+      return "awaiting_payment";
+  }
+}
+
+function findRow(s: Stripe.Subscription): PlanSubscription | undefined {
+  const db = getDb();
+  const byId = db.select().from(planSubscriptions).where(eq(planSubscriptions.stripeSubscriptionId, s.id)).get();
+  if (byId) return byId;
+  const { planSubscriptionId, studioId } = s.metadata ?? {};
+  if (!planSubscriptionId || !studioId) return undefined;
+  return db.select().from(planSubscriptions).where(and(eq(planSubscriptions.id, planSubscriptionId), eq(planSubscriptions.studioId, studioId))).get();
+}
+
+/** Writes one Stripe invoice of the plan: paid or failed, and whether it counts (the plan's amount and template version). */
+function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
+  const paid = inv.status === "paid";
+  const meta = inv.parent?.subscription_details?.metadata ?? {};
+  const counts = paid && inv.amount_paid === sub.amountMinor && meta.templateId === sub.templateId && inv.currency.toUpperCase() === sub.currency.toUpperCase();
+  const template = templateOf(sub.studioId, sub.templateId);
+  const studio = getDb().select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
+  const price = planPrice(studio, template);
+  const taxMinor = counts && price.totalMinor === inv.amount_paid ? price.taxMinor : 0;
+  const values = {
+    studioId: sub.studioId,
+    subscriptionId: sub.id,
+    stripeInvoiceId: inv.id!,
+    status: paid ? ("paid" as const) : ("failed" as const),
+    amountMinor: paid ? inv.amount_paid : inv.amount_due,
+    taxMinor,
+    currency: inv.currency.toUpperCase(),
+    counts,
+    periodStart: ms(inv.lines?.data?.[0]?.period?.start ?? inv.period_start),
+    periodEnd: ms(inv.lines?.data?.[0]?.period?.end ?? inv.period_end),
+    at: ms(inv.status_transitions?.paid_at ?? inv.created)!,
+  };
+  getDb()
+    .insert(planInvoices)
+    .values(values)
+    .onConflictDoUpdate({ target: planInvoices.stripeInvoiceId, set: { status: values.status, amountMinor: values.amountMinor, taxMinor, counts, at: values.at } })
+    .run();
+}
+
+/**
+ * Re-reads a Stripe subscription (and, when given, one of its invoices) and writes what it says: the
+ * plan's state and period, the invoice, and the grace mail when the plan has just entered grace.
+ */
+export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: string): Promise<PlanSubscription | null> {
+  return serial(stripeSubscriptionId, async () => {
+    const s = await callStripe("read the plan's subscription", (stripe) => stripe.subscriptions.retrieve(stripeSubscriptionId));
+    const row = findRow(s);
+    if (!row) return null;
+    const invoice = invoiceId ? await callStripe("read the plan's invoice", (stripe) => stripe.invoices.retrieve(invoiceId)) : null;
+    const overdue = stateOf(s) === "grace" && s.latest_invoice ? await callStripe("read the overdue invoice", (stripe) => stripe.invoices.retrieve(typeof s.latest_invoice === "string" ? s.latest_invoice : s.latest_invoice!.id!)) : null;
+    const item = s.items.data[0];
+    const target = stateOf(s);
+    const db = getDb();
+    const { before, after } = db.transaction((tx) => {
+      const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, row.id)).get()!;
+      const set: Partial<PlanSubscription> = {
+        stripeSubscriptionId: s.id,
+        stripeCustomerId: typeof s.customer === "string" ? s.customer : s.customer.id,
+        periodStart: ms(item?.current_period_start),
+        periodEnd: ms(item?.current_period_end),
+      };
+      if (target === "lapsed") set.lapsedAt = ms(s.ended_at ?? s.canceled_at);
+      if (target === "ended") set.endedAt = ms(s.ended_at ?? s.canceled_at);
+      if (target === "grace") set.graceEndsAt = new Date((overdue?.created ?? Math.floor(Date.now() / 1000)) * 1000 + PLAN_GRACE_DAYS * DAY_MS);
+      if (target === "running" || target === "ending") set.graceEndsAt = null;
+      if (!fresh.startedAt && target !== "awaiting_payment") set.startedAt = ms(s.start_date);
+      // A final plan stays as it is: Stripe can't bring back a lapsed or ended plan.
+      if (PLAN_FINAL.includes(fresh.state)) return { before: fresh, after: fresh };
+      return { before: fresh, after: moveSubscription(tx, fresh, target, set, STRIPE) };
+    });
+    if (invoice) recordInvoice(after, invoice);
+    if (before.state !== "grace" && after.state === "grace") await mailGrace(after);
+    return after;
+  });
+}
+
+async function mailGrace(sub: PlanSubscription) {
+  const db = getDb();
+  const owner = sub.ownerId ? db.select().from(users).where(eq(users.id, sub.ownerId)).get() : undefined;
+  if (!owner) return;
+  const piece = db.select().from(pieces).where(eq(pieces.id, sub.pieceId)).get()!;
+  const studio = db.select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
+  const template = templateOf(sub.studioId, sub.templateId);
+  await sendMail({
+    studioId: sub.studioId,
+    to: owner.email,
+    subject: planGraceSubject({ planName: template.name }),
+    email: PlanGraceEmail({
+      ownerName: owner.name,
+      studioName: studio.name,
+      planName: template.name,
+      pieceTitle: piece.title,
+      amount: formatMoney(sub.amountMinor, sub.currency, studio.country),
+      graceEndsOn: formatInstant(sub.graceEndsAt ?? new Date(), owner.timeZone || studio.timeZone),
+      url: pieceUrl(piece.id),
+    }),
+  });
+}
+
+type EventObject = { id: string; object?: string; mode?: string; subscription?: string | { id: string } | null; parent?: { subscription_details?: { subscription?: string | { id: string } } | null } | null };
+
+/** The Stripe subscription an event is about, or null when the event is not a plan's. */
+function subscriptionOfEvent(event: Stripe.Event): { subscriptionId: string; invoiceId?: string } | null {
+  if (!PLAN_EVENTS.has(event.type)) return null;
+  const o = event.data.object as unknown as EventObject;
+  const idOf = (v: string | { id: string } | null | undefined) => (typeof v === "string" ? v : (v?.id ?? null));
+  if (event.type.startsWith("customer.subscription.")) return { subscriptionId: o.id };
+  if (event.type.startsWith("invoice.")) {
+    const sid = idOf(o.parent?.subscription_details?.subscription);
+    return sid ? { subscriptionId: sid, invoiceId: o.id } : null;
+  }
+  if (event.type === "checkout.session.completed" && o.mode === "subscription") {
+    const sid = idOf(o.subscription);
+    return sid ? { subscriptionId: sid } : null;
+  }
+  return null;
+}
+
+/**
+ * A Stripe webhook for plans: verified on the raw body like every event; null when it is not a plan's
+ * event (the payments code handles it then). Each event id is recorded once.
+ */
+export async function handlePlanWebhook(rawBody: string, signature: string | null): Promise<{ received: true; duplicate?: boolean } | null> {
+  let event: Stripe.Event;
+  try {
+    event = getStripe().webhooks.constructEvent(rawBody, signature ?? "", env.STRIPE_WEBHOOK_SECRET);
+  } catch {
+    throw badRequest("The Stripe-Signature header doesn't match this payload.");
+  }
+  const about = subscriptionOfEvent(event);
+  if (!about) return null;
+  const db = getDb();
+  if (db.select({ id: stripeEvents.id }).from(stripeEvents).where(eq(stripeEvents.id, event.id)).get()) return { received: true, duplicate: true };
+  await syncPlanSubscription(about.subscriptionId, about.invoiceId);
+  db.insert(stripeEvents).values({ id: event.id, type: event.type, objectId: about.invoiceId ?? about.subscriptionId }).onConflictDoNothing().run();
+  return { received: true };
+}

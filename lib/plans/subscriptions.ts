@@ -1,0 +1,147 @@
+// Plan subscriptions: starting one (Checkout in subscription mode, or by staff for a client who paid
+// by other means), cancelling at the period's end, and the one function every state move goes through.
+import { and, desc, eq, inArray } from "drizzle-orm";
+import type { User } from "lucia";
+import { getDb, type Db } from "@/db/client";
+import { planInvoices, planSubscriptions, pieces, studios, type PlanSubscription, type PlanTemplate } from "@/db/schema";
+import { recordAudit } from "@/lib/audit";
+import type { StudioActor } from "@/lib/auth/actor";
+import { env } from "@/lib/env";
+import { conflict, notFound } from "@/lib/errors";
+import { ownedPieceRow } from "@/lib/owner/pieces";
+import { callStripe } from "@/lib/payments/stripe";
+import { assertPlanMove, PLAN_COVERS, type PlanState } from "./states";
+import { addPeriod } from "./periods";
+import { planPrice, templateOf, templatesFitting } from "./templates";
+
+type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+
+/** Days a plan keeps covering after a failed renewal (the owner is mailed the last day). Common practice, no published source. */
+export const PLAN_GRACE_DAYS = 14;
+
+/** Who moved a plan: a staff member, or Stripe (a verified event), or the scheduler at a period's end. */
+export type PlanMover = { actorId: string | null; source: "staff" | "stripe" | "scheduler" | "owner" };
+
+/**
+ * The one place a plan changes state: checks the move (lib/plans/states.ts), writes it with the
+ * fields that go with it only if nobody moved the row meanwhile (version), and audits it.
+ */
+export function moveSubscription(tx: Tx, sub: PlanSubscription, to: PlanState, set: Partial<PlanSubscription>, by: PlanMover): PlanSubscription {
+  if (sub.state !== to) assertPlanMove(sub.state, to);
+  else if (Object.entries(set).every(([k, v]) => same(sub[k as keyof PlanSubscription], v))) return sub; // nothing new: no write
+  const next = tx
+    .update(planSubscriptions)
+    .set({ ...set, state: to, version: sub.version + 1, updatedAt: new Date() })
+    .where(and(eq(planSubscriptions.id, sub.id), eq(planSubscriptions.version, sub.version)))
+    .returning()
+    .get();
+  if (!next) throw conflict("The plan changed while this was being saved. Reload and try again.");
+  if (sub.state !== to) {
+    recordAudit(tx, { studioId: sub.studioId, actorId: by.actorId, action: `plan.${to}`, subjectType: "plan_subscription", subjectId: sub.id, data: { from: sub.state, to, source: by.source } });
+  }
+  return next;
+}
+
+function same(a: unknown, b: unknown): boolean {
+  if (a instanceof Date || b instanceof Date) return a instanceof Date && b instanceof Date && a.getTime() === b.getTime();
+  return a === b;
+}
+
+const LIVE: PlanState[] = [...PLAN_COVERS];
+
+/** The plan a piece is under now (running, in grace, or ending), with its template version; null if none. */
+export function livePlanOfPiece(pieceId: string): { sub: PlanSubscription; template: PlanTemplate } | null {
+  const db = getDb();
+  const sub = db.select().from(planSubscriptions).where(and(eq(planSubscriptions.pieceId, pieceId), inArray(planSubscriptions.state, LIVE))).orderBy(desc(planSubscriptions.createdAt)).get();
+  if (!sub) return null;
+  return { sub, template: templateOf(sub.studioId, sub.templateId) };
+}
+
+export const pieceUrl = (pieceId: string, query = "") => new URL(`/pieces/${pieceId}${query}`, env.APP_URL).href;
+
+function refuseIfCovered(pieceId: string) {
+  if (livePlanOfPiece(pieceId)) throw conflict("This piece is already under a care plan.");
+}
+
+/**
+ * The owner buys a plan for one of their pieces: a plan row waiting for payment, a Stripe Price and
+ * Customer, and a Checkout Session in subscription mode carrying the plan's id, template version and
+ * amount. An open checkout for the same plan version is reused.
+ */
+export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name">, pieceId: string, templateId: string): Promise<{ checkoutUrl: string; subscriptionId: string }> {
+  const piece = ownedPieceRow(user, pieceId);
+  const template = templatesFitting(piece).find((t) => t.id === templateId);
+  if (!template) throw notFound("That plan isn't offered for this piece. Reload to see the current plans.");
+  refuseIfCovered(piece.id);
+  const studio = getDb().select().from(studios).where(eq(studios.id, piece.studioId)).get()!;
+  const { totalMinor } = planPrice(studio, template);
+  const db = getDb();
+  const waiting = db
+    .select()
+    .from(planSubscriptions)
+    .where(and(eq(planSubscriptions.pieceId, piece.id), eq(planSubscriptions.ownerId, user.id), eq(planSubscriptions.templateId, template.id), eq(planSubscriptions.amountMinor, totalMinor), eq(planSubscriptions.state, "awaiting_payment")))
+    .get();
+  if (waiting?.checkoutSessionId) {
+    const live = await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!));
+    if (live.status === "open" && live.url) return { checkoutUrl: live.url, subscriptionId: waiting.id };
+  }
+  const sub =
+    waiting ??
+    db.transaction((tx) => {
+      const row = tx.insert(planSubscriptions).values({ studioId: piece.studioId, templateId: template.id, pieceId: piece.id, ownerId: user.id, amountMinor: totalMinor, currency: template.currency, paidBy: "card" }).returning().get();
+      recordAudit(tx, { studioId: piece.studioId, actorId: user.id, action: "plan.checkout_started", subjectType: "plan_subscription", subjectId: row.id, data: { templateId: template.id, version: template.version, amountMinor: totalMinor } });
+      return row;
+    });
+  const metadata = { planSubscriptionId: sub.id, studioId: piece.studioId, templateId: template.id, amountMinor: String(totalMinor) };
+  const session = await callStripe("start the payment", async (stripe) => {
+    const price = await stripe.prices.create(
+      { currency: template.currency.toLowerCase(), unit_amount: totalMinor, recurring: { interval: template.interval }, product_data: { name: `${template.name} (care plan)` }, metadata: { templateId: template.id } },
+      { idempotencyKey: `plan-price-${template.id}-${totalMinor}` },
+    );
+    const customer = await stripe.customers.create({ email: user.email, name: user.name, metadata: { userId: user.id } }, { idempotencyKey: `plan-customer-${user.id}-${piece.studioId}` });
+    return stripe.checkout.sessions.create(
+      {
+        mode: "subscription",
+        customer: customer.id,
+        client_reference_id: sub.id,
+        line_items: [{ price: price.id, quantity: 1 }],
+        metadata,
+        subscription_data: { metadata },
+        success_url: pieceUrl(piece.id, "?plan=started&session_id={CHECKOUT_SESSION_ID}"),
+        cancel_url: pieceUrl(piece.id, "?plan=cancelled"),
+      },
+      { idempotencyKey: `plan-checkout-${sub.id}-${sub.version}-${Date.now()}` },
+    );
+  });
+  db.update(planSubscriptions).set({ checkoutSessionId: session.id, checkoutUrl: session.url, stripeCustomerId: typeof session.customer === "string" ? session.customer : null, updatedAt: new Date() }).where(eq(planSubscriptions.id, sub.id)).run();
+  return { checkoutUrl: session.url!, subscriptionId: sub.id };
+}
+
+/** Staff start a plan for a client who paid by other means: running at once for one period, recorded as such. */
+export function startPlanByOtherMeans(ctx: StudioActor, input: { pieceId: string; templateId: string; paidByNote: string }, now = new Date()): PlanSubscription {
+  const db = getDb();
+  const piece = db.select().from(pieces).where(and(eq(pieces.id, input.pieceId), eq(pieces.studioId, ctx.studio.id))).get();
+  if (!piece) throw notFound("No such piece in this studio.");
+  if (!piece.ownerId) throw conflict("This piece has no registered owner to start a plan for.");
+  const template = templateOf(ctx.studio.id, input.templateId);
+  if (!templatesFitting(piece).some((t) => t.id === template.id)) throw conflict(template.supersededAt || !template.offered ? "That plan version is no longer offered. Reload to see the current plans." : "That plan doesn't fit this piece.");
+  refuseIfCovered(piece.id);
+  const { totalMinor, taxMinor } = planPrice(ctx.studio, template);
+  const periodEnd = addPeriod(now, template.interval);
+  return db.transaction((tx) => {
+    const sub = tx
+      .insert(planSubscriptions)
+      .values({ studioId: ctx.studio.id, templateId: template.id, pieceId: piece.id, ownerId: piece.ownerId, amountMinor: totalMinor, currency: template.currency, paidBy: "other", paidByNote: input.paidByNote, createdById: ctx.user.id })
+      .returning()
+      .get();
+    tx.insert(planInvoices).values({ studioId: ctx.studio.id, subscriptionId: sub.id, status: "paid", amountMinor: totalMinor, taxMinor, currency: template.currency, periodStart: now, periodEnd, at: now }).run();
+    return moveSubscription(tx, sub, "running", { periodStart: now, periodEnd, startedAt: now }, { actorId: ctx.user.id, source: "staff" });
+  });
+}
+
+/** A studio's plan by id, or a 404. */
+export function studioSubscription(studioId: string, subId: string): PlanSubscription {
+  const sub = getDb().select().from(planSubscriptions).where(and(eq(planSubscriptions.id, subId), eq(planSubscriptions.studioId, studioId))).get();
+  if (!sub) throw notFound("No such plan in this studio.");
+  return sub;
+}

@@ -1,0 +1,305 @@
+// Care plans through the real stripe SDK against the local Stripe fake over HTTP: the fake's signed
+// webhooks arrive at a small receiver here that hands the raw body to the webhook route's handlers
+// (plans first, then repair payments, as app/api/webhooks/stripe/route.ts does).
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+import { and, eq } from "drizzle-orm";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { auditLog, planInvoices, planSubscriptions, planVisits, repairJobs, stripeEvents, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
+import { addDays, localDate } from "@/lib/care/dates";
+import { claimCoverage } from "@/lib/claims/coverage";
+import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
+import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import { cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
+import { canMovePlan, PLAN_STATES } from "@/lib/plans/states";
+import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
+import { livePlanOfPiece, startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
+import { createTemplate, planPrice, templatesFitting, updateTemplate } from "@/lib/plans/templates";
+import { planTemplateSchema } from "@/lib/plans/validation";
+import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/visits";
+import { handleStripeWebhook } from "@/lib/repairs/payment";
+import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { waitForMail } from "../support/mail";
+
+let fake: StripeFake;
+let receiver: http.Server;
+const DAY = 86_400_000;
+
+beforeAll(async () => {
+  receiver = http.createServer(async (req, res) => {
+    const chunks: Buffer[] = [];
+    for await (const c of req) chunks.push(c as Buffer);
+    const raw = Buffer.concat(chunks).toString("utf8");
+    const sig = (req.headers["stripe-signature"] as string) ?? null;
+    try {
+      const out = (await handlePlanWebhook(raw, sig)) ?? (await handleStripeWebhook(raw, sig));
+      res.writeHead(200).end(JSON.stringify(out));
+    } catch (e) {
+      res.writeHead(e instanceof AppError ? e.status : 500).end();
+    }
+  });
+  await new Promise<void>((r) => receiver.listen(0, "127.0.0.1", () => r()));
+  fake = await startStripeFake({ port: 0, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET, webhookUrl: `http://127.0.0.1:${(receiver.address() as AddressInfo).port}/`, retryDelaysMs: [200, 400] });
+  env.STRIPE_API_PORT = fake.port;
+});
+
+afterAll(async () => {
+  await fake.close();
+  await new Promise((r) => receiver.close(r));
+});
+
+async function until<T>(fn: () => T | undefined | null | false, ms = 8000): Promise<T> {
+  const end = Date.now() + ms;
+  for (;;) {
+    const v = fn();
+    if (v) return v;
+    if (Date.now() > end) throw new Error("timed out waiting");
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
+const subRow = (id: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, id)).get()!;
+const knob = (subId: string, action: string, body = "") =>
+  fetch(`${fake.url}/_test/subscriptions/${subId}/${action}`, { method: "POST", headers: { authorization: `Bearer ${env.STRIPE_SECRET_KEY}`, "content-type": "application/x-www-form-urlencoded" }, body });
+
+const template = (over: Partial<Record<string, unknown>> = {}) =>
+  planTemplateSchema.parse({
+    name: "Yearly finish keeping (test)",
+    included: { tasks: ["reoil"], visitsPerYear: 1, visitSharePct: 0, extendedLines: [{ category: "crack_gap", extraMonths: 36 }], repairDiscountPct: 10 },
+    fits: { finishClasses: ["hardwax_oil"], pieceKinds: ["dining_table"], minTopAreaM2: 0.5, maxTopAreaM2: 4 },
+    priceMinor: 12_000,
+    interval: "year",
+    ...over,
+  });
+
+/** A studio with 8.25 % tax on top, a plan, and an owner's piece delivered three years before today (so the base crack line of 24 months has run out). */
+async function setup(studioOver: Partial<Studio> = {}) {
+  const studio = createStudio({ email: `${unique("studio")}@test.example`, taxMode: "single", taxRateBp: 825, taxInclusive: false, labourRateMinor: 8500, travelFeeMinor: 4500, ...studioOver });
+  const admin = await memberContext(studio, "admin");
+  const owner = await createUser();
+  const deliveredOn = addDays(localDate(new Date(), "UTC"), -3 * 365);
+  const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn });
+  const plan = createTemplate(admin, template());
+  return { studio, admin, owner, piece, plan };
+}
+
+async function buy(owner: Awaited<ReturnType<typeof createUser>>, piece: Piece, templateId: string): Promise<PlanSubscription> {
+  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, templateId);
+  const paid = await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
+  expect(paid.status).toBe(303);
+  return until(() => {
+    const s = subRow(subscriptionId);
+    return s.state === "running" && getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, s.id)).all().length === 1 && s;
+  });
+}
+
+function coverageOn(piece: Piece, ownerId: string, at: Date) {
+  return claimCoverage({
+    claim: { category: "crack_gap", answers: {}, createdAt: at, ownerId },
+    piece,
+    layers: [],
+    careLog: [],
+    products: [],
+    policyRow: null,
+    ownerships: [],
+    timeZone: "UTC",
+  });
+}
+
+describe("plan templates", () => {
+  it("a change makes a new version; the running plan keeps the version it was bought under", async () => {
+    const { admin, owner, piece, plan } = await setup();
+    const sub = await buy(owner, piece, plan.id);
+    const v2 = updateTemplate(admin, plan.id, template({ priceMinor: 15_000 }));
+    expect(v2).toMatchObject({ lineageId: plan.lineageId, version: 2, priceMinor: 15_000 });
+    expect(subRow(sub.id).templateId).toBe(plan.id);
+    expect(() => updateTemplate(admin, plan.id, template())).toThrow(/changed meanwhile/);
+    // The owner is now offered the new version only.
+    expect(templatesFitting(piece).map((t) => t.id)).toEqual([v2.id]);
+  });
+
+  it("fits pieces by kind, finish class and top area", async () => {
+    const { studio, admin, owner } = await setup();
+    const big = createTemplate(admin, template({ name: "Large tops", fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: 3, maxTopAreaM2: null } }));
+    const { piece } = createPiece(studio, { ownerId: owner.id, lengthMm: 2000, widthMm: 900 }); // 1.8 m²
+    expect(templatesFitting(piece).some((t) => t.id === big.id)).toBe(false);
+    const { piece: wide } = createPiece(studio, { ownerId: owner.id, lengthMm: 3000, widthMm: 1100 }); // 3.3 m²
+    expect(templatesFitting(wide).some((t) => t.id === big.id)).toBe(true);
+    const { piece: bench } = createPiece(studio, { ownerId: owner.id, kind: "bench" });
+    expect(templatesFitting(bench)).toEqual([]);
+  });
+
+  it("the state machine: final states stay final; every state is reachable from awaiting payment", () => {
+    for (const s of PLAN_STATES) {
+      expect(canMovePlan("lapsed", s)).toBe(false);
+      expect(canMovePlan("ended", s)).toBe(false);
+    }
+    expect(canMovePlan("awaiting_payment", "running")).toBe(true);
+    expect(canMovePlan("running", "awaiting_payment")).toBe(false);
+  });
+});
+
+describe("buying and running a plan through the Stripe fake", () => {
+  it("buy → running at the template's price with the studio's tax → included visit job ahead of its due date at zero → coverage cites the plan", async () => {
+    const { studio, owner, piece, plan } = await setup();
+    const sub = await buy(owner, piece, plan.id);
+    // 120.00 + 8.25 % = 129.90 (tax on top, lib/repairs priceLines).
+    expect(planPrice(studio, plan)).toEqual({ totalMinor: 12_990, taxMinor: 990, netMinor: 12_000 });
+    expect(sub).toMatchObject({ amountMinor: 12_990, paidBy: "card", templateId: plan.id });
+    expect(sub.stripeSubscriptionId).toMatch(/^sub_test_/);
+    const invoice = getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).get()!;
+    expect(invoice).toMatchObject({ status: "paid", amountMinor: 12_990, taxMinor: 990, counts: true });
+    expect(livePlanOfPiece(piece.id)?.sub.id).toBe(sub.id);
+    const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, sub.id), eq(auditLog.action, "plan.running"))).all();
+    expect(audit).toHaveLength(1);
+    expect(audit[0]!.data).toMatchObject({ from: "awaiting_payment", source: "stripe" });
+
+    // One visit a year, due half a year after the start; nothing is made before the lead time.
+    const [due] = visitDueDates(sub.startedAt!, 1, new Date(sub.startedAt!.getTime() + 365 * DAY), studio.timeZone);
+    const dueMs = Date.parse(`${due}T12:00:00Z`);
+    expect((await runPlanVisits(new Date(dueMs - (PLAN_VISIT_LEAD_DAYS + 2) * DAY))).jobs.filter((j) => jobOf(j).pieceId === piece.id)).toHaveLength(0);
+    const ahead = await runPlanVisits(new Date(dueMs - 10 * DAY));
+    const mine = ahead.jobs.filter((j) => jobOf(j).pieceId === piece.id);
+    expect(mine).toHaveLength(1);
+    expect(jobOf(mine[0]!)).toMatchObject({ state: "covered", totalMinor: 0, coveredPct: 100, origin: "studio", ownerId: owner.id });
+    // A second pass makes no second job for the same visit.
+    expect((await runPlanVisits(new Date(dueMs - 9 * DAY))).jobs.filter((j) => jobOf(j).pieceId === piece.id)).toHaveLength(0);
+    expect(getDb().select().from(planVisits).where(eq(planVisits.subscriptionId, sub.id)).all()).toHaveLength(1);
+    await waitForMail({ to: owner.email, subject: /care plan visit/i });
+
+    const c = coverageOn(piece, owner.id, new Date());
+    expect(c.check!.termEndsOn).toBe(addMonthsIso(piece.deliveredOn, 24 + 36));
+    expect(c.check!.reasons[0]).toMatch(/care plan “Yearly finish keeping \(test\)” \(version 1\) is running: .* lengthened by 36 months/);
+  });
+
+  it("a plan with an owner's share prices the visit job at that share", async () => {
+    const { admin, owner, studio } = await setup();
+    const shared = createTemplate(admin, template({ name: "Shared visits", included: { tasks: [], visitsPerYear: 2, visitSharePct: 40, extendedLines: [], repairDiscountPct: 0 } }));
+    const { piece } = createPiece(studio, { ownerId: owner.id });
+    const sub = await buy(owner, piece, shared.id);
+    const [due] = visitDueDates(sub.startedAt!, 2, new Date(sub.startedAt!.getTime() + 365 * DAY), studio.timeZone);
+    const jobs = (await runPlanVisits(new Date(Date.parse(`${due}T12:00:00Z`) - 5 * DAY))).jobs.map(jobOf).filter((j) => j.pieceId === piece.id);
+    expect(jobs).toHaveLength(1);
+    expect(jobs[0]).toMatchObject({ coveredPct: 60, state: "quoted" });
+    expect(jobs[0]!.coveredMinor).toBe(Math.round((jobs[0]!.subtotalMinor * 60) / 100));
+  });
+
+  it("renewal paid: a new period and a second counted invoice; the plan keeps running", async () => {
+    const { owner, piece, plan } = await setup();
+    const sub = await buy(owner, piece, plan.id);
+    const firstEnd = sub.periodEnd!.getTime();
+    expect((await knob(sub.stripeSubscriptionId!, "renew", "outcome=pay")).status).toBe(200);
+    const renewed = await until(() => {
+      const s = subRow(sub.id);
+      return s.periodStart?.getTime() === firstEnd && getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).all().length === 2 && s;
+    });
+    expect(renewed.state).toBe("running");
+    expect(getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).all().every((i) => i.counts && i.status === "paid")).toBe(true);
+  });
+
+  it("renewal failed → grace with a mail to the owner → lapse → coverage back to the base terms from the lapse date", async () => {
+    const { owner, piece, plan } = await setup();
+    const sub = await buy(owner, piece, plan.id);
+    await knob(sub.stripeSubscriptionId!, "renew", "outcome=fail");
+    const grace = await until(() => subRow(sub.id).state === "grace" && subRow(sub.id));
+    expect(grace.graceEndsAt!.getTime()).toBeGreaterThan(Date.now() + 13 * DAY);
+    const mail = await waitForMail({ to: owner.email, subject: /payment didn't go through/i });
+    expect(mail.text).toContain("$129.90");
+    expect(mail.text).toContain("Yearly finish keeping (test)");
+    const failed = await until(() => getDb().select().from(planInvoices).where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.status, "failed"))).get());
+    expect(failed.counts).toBe(false);
+    // Still covered during grace.
+    expect(coverageOn(piece, owner.id, new Date()).check!.termEndsOn).toBe(addMonthsIso(piece.deliveredOn, 60));
+
+    await knob(sub.stripeSubscriptionId!, "lapse");
+    const lapsed = await until(() => subRow(sub.id).state === "lapsed" && subRow(sub.id));
+    const lapsedAt = lapsed.lapsedAt!.getTime();
+    // A claim the day after the lapse: base terms (24 months from delivery, run out), the plan named as lapsed.
+    const after = coverageOn(piece, owner.id, new Date(lapsedAt + DAY));
+    expect(after.check!.termEndsOn).toBe(addMonthsIso(piece.deliveredOn, 24));
+    expect(after.check!.suggestion).toBe("not_covered");
+    expect(after.check!.reasons[0]).toMatch(/lapsed on .*; the base terms apply from that day/);
+    // Included visits stop.
+    expect(livePlanOfPiece(piece.id)).toBeNull();
+  });
+
+  it("cancel at period end: ending until the period is over, then ended", async () => {
+    const { admin, owner, piece, plan } = await setup();
+    const sub = await buy(owner, piece, plan.id);
+    const ending = await cancelPlanAtPeriodEnd(admin, sub.id);
+    expect(ending.state).toBe("ending");
+    expect(livePlanOfPiece(piece.id)?.sub.id).toBe(sub.id);
+    await knob(sub.stripeSubscriptionId!, "renew", "outcome=pay");
+    const ended = await until(() => subRow(sub.id).state === "ended" && subRow(sub.id));
+    expect(ended.endedAt!.getTime()).toBe(sub.periodEnd!.getTime());
+    // No invoice for a period that never started.
+    expect(getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).all()).toHaveLength(1);
+    // Another studio's staff can't cancel it.
+    const other = await memberContext(createStudio({ email: `${unique("s")}@test.example` }), "admin");
+    await expect(cancelPlanAtPeriodEnd(other, sub.id)).rejects.toMatchObject({ status: 404 });
+  });
+
+  it("replayed and out-of-order events leave one state", async () => {
+    const { owner, piece, plan } = await setup();
+    const sub = await buy(owner, piece, plan.id);
+    await knob(sub.stripeSubscriptionId!, "renew", "outcome=fail");
+    await until(() => subRow(sub.id).state === "grace");
+    await knob(sub.stripeSubscriptionId!, "settle");
+    await until(() => subRow(sub.id).state === "running");
+    const settled = subRow(sub.id);
+    const events = fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!));
+    expect(events.map((e) => e.type)).toContain("invoice.payment_failed");
+    // Every event again, oldest last (out of order), each twice.
+    for (const e of [...events].reverse()) {
+      expect(await fake.redeliver(e.id)).toBe(200);
+      expect(await fake.redeliver(e.id)).toBe(200);
+    }
+    const after = subRow(sub.id);
+    expect(after).toMatchObject({ state: "running", version: settled.version, periodEnd: settled.periodEnd });
+    // An old event with a new id (as if Stripe had sent it late) re-reads Stripe and changes nothing either.
+    const failed = events.find((e) => e.type === "invoice.payment_failed")!;
+    const payload = JSON.stringify({ ...failed, id: `evt_late_${sub.id}` });
+    const header = (await import("@/lib/payments/stripe")).getStripe().webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
+    expect(await handlePlanWebhook(payload, header)).toEqual({ received: true });
+    expect(subRow(sub.id)).toMatchObject({ state: "running", version: settled.version });
+    expect(getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).all()).toHaveLength(2);
+    expect(getDb().select().from(stripeEvents).where(eq(stripeEvents.id, `evt_late_${sub.id}`)).all()).toHaveLength(1);
+    // One grace mail for the one failed renewal.
+    const grace = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, sub.id), eq(auditLog.action, "plan.grace"))).all();
+    expect(grace).toHaveLength(1);
+  });
+
+  it("a forged signature is refused with 400 and changes nothing", async () => {
+    const payload = JSON.stringify({ id: "evt_forged_plan", object: "event", type: "customer.subscription.deleted", data: { object: { id: "sub_x" } } });
+    const forged = (await import("@/lib/payments/stripe")).getStripe().webhooks.generateTestHeaderString({ payload, secret: "whsec_someone_else" });
+    await expect(handlePlanWebhook(payload, forged)).rejects.toMatchObject({ status: 400 });
+    expect(getDb().select().from(stripeEvents).where(eq(stripeEvents.id, "evt_forged_plan")).all()).toHaveLength(0);
+  });
+
+  it("staff start a plan for a client who paid by other means; another owner can't buy a plan for someone else's piece", async () => {
+    const { admin, owner, piece, plan } = await setup();
+    const stranger = await createUser();
+    await expect(startPlanCheckout(stranger, piece.id, plan.id)).rejects.toMatchObject({ status: 404 });
+    const sub = startPlanByOtherMeans(admin, { pieceId: piece.id, templateId: plan.id, paidByNote: "Bank transfer" });
+    expect(sub).toMatchObject({ state: "running", paidBy: "other", paidByNote: "Bank transfer", ownerId: owner.id });
+    expect(getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).get()).toMatchObject({ amountMinor: 12_990, stripeInvoiceId: null, counts: true });
+    expect(() => startPlanByOtherMeans(admin, { pieceId: piece.id, templateId: plan.id, paidByNote: "Cash" })).toThrow(/already under a care plan/);
+    await expect(startPlanCheckout(owner, piece.id, plan.id)).rejects.toMatchObject({ status: 409 });
+    // Its period over and not renewed, the scheduler lets it lapse.
+    await runPlanVisits(new Date(sub.periodEnd!.getTime() + DAY));
+    expect(subRow(sub.id).state).toBe("lapsed");
+  });
+});
+
+function jobOf(id: string) {
+  return getDb().select().from(repairJobs).where(eq(repairJobs.id, id)).get()!;
+}
+
+function addMonthsIso(iso: string, months: number): string {
+  const [y, m, d] = iso.split("-").map(Number);
+  const t = new Date(Date.UTC(y!, m! - 1 + months, 1));
+  const last = new Date(Date.UTC(t.getUTCFullYear(), t.getUTCMonth() + 1, 0)).getUTCDate();
+  return `${t.getUTCFullYear()}-${String(t.getUTCMonth() + 1).padStart(2, "0")}-${String(Math.min(d!, last)).padStart(2, "0")}`;
+}
