@@ -1,6 +1,9 @@
 import { relations, sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex, type AnySQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { WarrantyPolicy } from "../lib/care/coverage";
+import type { Quote } from "../lib/care/quote";
+import type { ClaimAnswers } from "../lib/validation/claims";
+import type { JobQuoteInput } from "../lib/validation/jobs";
 import type { JobLine, PriceListEntry, PricingRules, RoundingRule, TaxMode, LineKind } from "../lib/repairs/lines";
 import {
   CARE_TASK_KINDS,
@@ -22,6 +25,11 @@ import { CONSENT_KINDS, CONSENT_SOURCES, CONTACT_METHODS, HANDOVER_BATCH_SOURCES
 import { PLAN_STATES } from "../lib/plans/states";
 import { PLAN_INTERVALS, PLAN_PAID_BY, PLAN_REFUND_RULES, type PlanFit, type PlanIncluded } from "../lib/plans/terms";
 
+/** A claim's answers as filed (createClaimSchema); a row from before a question was added lacks it (read through lib/claims/coverage readAnswers). */
+export type StoredClaimAnswers = Partial<ClaimAnswers>;
+/** What a job's quote is proposed from (jobQuoteSchema without the lines as sent, which have their own column); a job made outside the quote form may hold less. */
+export type StoredJobQuote = Partial<Omit<JobQuoteInput, "lines">>;
+
 // Every studio-owned table carries studioId and every query filters by it.
 // Timestamps are epoch milliseconds (Date in TypeScript); calendar dates are "YYYY-MM-DD" text.
 
@@ -33,6 +41,16 @@ const createdAt = () =>
   integer("created_at", { mode: "timestamp_ms" })
     .notNull()
     .$defaultFn(() => new Date());
+/** When the row last changed (epoch ms): set on insert here, and by every writer on UPDATE. */
+const updatedAt = () =>
+  integer("updated_at", { mode: "timestamp_ms" })
+    .notNull()
+    .$defaultFn(() => new Date());
+/** The studio that owns the row (every query filters by it); the row goes with the studio. */
+const studioRef = () =>
+  text("studio_id")
+    .notNull()
+    .references((): AnySQLiteColumn => studios.id, { onDelete: "cascade" });
 
 export const UNIT_SYSTEMS = ["metric", "imperial"] as const;
 
@@ -87,6 +105,12 @@ export const studios = sqliteTable("studios", {
   createdAt: createdAt(),
 });
 
+export const studiosRelations = relations(studios, ({ many }) => ({
+  memberships: many(memberships),
+  pieces: many(pieces),
+  finishProducts: many(finishProducts),
+}));
+
 export const users = sqliteTable("users", {
   id: id(),
   /** Stored lower-cased and trimmed. */
@@ -102,6 +126,11 @@ export const users = sqliteTable("users", {
   createdAt: createdAt(),
 });
 
+export const usersRelations = relations(users, ({ many }) => ({
+  memberships: many(memberships),
+  pieces: many(pieces),
+}));
+
 /** Lucia sessions. The id is the SHA-256 of the token in the cookie, so a copy of the table signs nobody in. */
 export const sessions = sqliteTable(
   "sessions",
@@ -116,13 +145,15 @@ export const sessions = sqliteTable(
   (t) => [index("sessions_user_idx").on(t.userId)],
 );
 
+export const sessionsRelations = relations(sessions, ({ one }) => ({
+  user: one(users, { fields: [sessions.userId], references: [users.id] }),
+}));
+
 export const memberships = sqliteTable(
   "memberships",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     userId: text("user_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
@@ -131,6 +162,11 @@ export const memberships = sqliteTable(
   },
   (t) => [uniqueIndex("memberships_studio_user_uq").on(t.studioId, t.userId), index("memberships_user_idx").on(t.userId)],
 );
+
+export const membershipsRelations = relations(memberships, ({ one }) => ({
+  studio: one(studios, { fields: [memberships.studioId], references: [studios.id] }),
+  user: one(users, { fields: [memberships.userId], references: [users.id] }),
+}));
 
 export const TOKEN_PURPOSES = ["verify_email", "password_reset"] as const;
 
@@ -151,13 +187,15 @@ export const userTokens = sqliteTable(
   (t) => [index("user_tokens_user_idx").on(t.userId, t.purpose)],
 );
 
+export const userTokensRelations = relations(userTokens, ({ one }) => ({
+  user: one(users, { fields: [userTokens.userId], references: [users.id] }),
+}));
+
 export const invitations = sqliteTable(
   "invitations",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     email: text("email").notNull(),
     role: text("role", { enum: STUDIO_ROLES }).notNull(),
     tokenHash: text("token_hash").notNull().unique(),
@@ -170,6 +208,11 @@ export const invitations = sqliteTable(
   (t) => [index("invitations_studio_idx").on(t.studioId)],
 );
 
+export const invitationsRelations = relations(invitations, ({ one }) => ({
+  studio: one(studios, { fields: [invitations.studioId], references: [studios.id] }),
+  invitedBy: one(users, { fields: [invitations.invitedById], references: [users.id] }),
+}));
+
 /** A container a finish product is sold in, with its price in the studio's minor units. */
 export type ContainerSize = { ml: number; priceMinor: number };
 
@@ -177,9 +220,7 @@ export const finishProducts = sqliteTable(
   "finish_products",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     name: text("name").notNull(),
     finishClass: text("finish_class", { enum: FINISH_CLASSES }).notNull(),
     /** Coverage of one coat, m² per litre. */
@@ -199,13 +240,15 @@ export const finishProducts = sqliteTable(
   (t) => [index("finish_products_studio_idx").on(t.studioId)],
 );
 
+export const finishProductsRelations = relations(finishProducts, ({ one }) => ({
+  studio: one(studios, { fields: [finishProducts.studioId], references: [studios.id] }),
+}));
+
 export const pieces = sqliteTable(
   "pieces",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     kind: text("kind", { enum: PIECE_KINDS }).notNull(),
     title: text("title").notNull(),
     shapeKind: text("shape_kind", { enum: SHAPE_KINDS }).notNull(),
@@ -240,9 +283,7 @@ export const pieces = sqliteTable(
     warrantyPolicyId: text("warranty_policy_id").references(() => warrantyPolicies.id, { onDelete: "set null" }),
     archivedAt: integer("archived_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [
     index("pieces_studio_idx").on(t.studioId, t.deliveredOn),
@@ -251,13 +292,21 @@ export const pieces = sqliteTable(
   ],
 );
 
+export const piecesRelations = relations(pieces, ({ one, many }) => ({
+  studio: one(studios, { fields: [pieces.studioId], references: [studios.id] }),
+  owner: one(users, { fields: [pieces.ownerId], references: [users.id] }),
+  warrantyPolicy: one(warrantyPolicies, { fields: [pieces.warrantyPolicyId], references: [warrantyPolicies.id] }),
+  layers: many(finishLayers),
+  photos: many(files),
+  careLog: many(careLogEntries),
+  claims: many(claims),
+}));
+
 export const finishLayers = sqliteTable(
   "finish_layers",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -277,6 +326,12 @@ export const finishLayers = sqliteTable(
   (t) => [index("finish_layers_piece_idx").on(t.pieceId, t.surface, t.position)],
 );
 
+export const finishLayersRelations = relations(finishLayers, ({ one }) => ({
+  piece: one(pieces, { fields: [finishLayers.pieceId], references: [pieces.id] }),
+  product: one(finishProducts, { fields: [finishLayers.productId], references: [finishProducts.id] }),
+  appliedBy: one(users, { fields: [finishLayers.appliedById], references: [users.id] }),
+}));
+
 export const auditLog = sqliteTable(
   "audit_log",
   {
@@ -292,14 +347,17 @@ export const auditLog = sqliteTable(
   (t) => [index("audit_log_studio_idx").on(t.studioId, t.createdAt), index("audit_log_subject_idx").on(t.subjectType, t.subjectId)],
 );
 
+export const auditLogRelations = relations(auditLog, ({ one }) => ({
+  studio: one(studios, { fields: [auditLog.studioId], references: [studios.id] }),
+  actor: one(users, { fields: [auditLog.actorId], references: [users.id] }),
+}));
+
 /** Versions of a studio's warranty terms; a piece keeps the version in force at its delivery. */
 export const warrantyPolicies = sqliteTable(
   "warranty_policies",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     version: integer("version").notNull(),
     /** First delivery date (YYYY-MM-DD) this version applies to. */
     effectiveFrom: text("effective_from").notNull(),
@@ -310,6 +368,11 @@ export const warrantyPolicies = sqliteTable(
   (t) => [uniqueIndex("warranty_policies_studio_version_uq").on(t.studioId, t.version)],
 );
 
+export const warrantyPoliciesRelations = relations(warrantyPolicies, ({ one }) => ({
+  studio: one(studios, { fields: [warrantyPolicies.studioId], references: [studios.id] }),
+  createdBy: one(users, { fields: [warrantyPolicies.createdById], references: [users.id] }),
+}));
+
 export const OWNERSHIP_VIA = ["registration", "transfer"] as const;
 
 /** Who owned a piece when: registration starts an ownership, a release ends it. */
@@ -317,9 +380,7 @@ export const ownerships = sqliteTable(
   "ownerships",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -333,6 +394,12 @@ export const ownerships = sqliteTable(
   (t) => [index("ownerships_piece_idx").on(t.pieceId), index("ownerships_user_idx").on(t.userId)],
 );
 
+export const ownershipsRelations = relations(ownerships, ({ one }) => ({
+  studio: one(studios, { fields: [ownerships.studioId], references: [studios.id] }),
+  piece: one(pieces, { fields: [ownerships.pieceId], references: [pieces.id] }),
+  user: one(users, { fields: [ownerships.userId], references: [users.id] }),
+}));
+
 export const FILE_PURPOSES = ["piece_photo", "claim_photo", "care_log_photo", "visit_photo"] as const;
 
 /** Uploaded images, re-encoded and stripped of metadata (lib/storage); served only through an authorized route. */
@@ -340,9 +407,7 @@ export const files = sqliteTable(
   "files",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     purpose: text("purpose", { enum: FILE_PURPOSES }).notNull(),
     pieceId: text("piece_id").references(() => pieces.id, { onDelete: "cascade" }),
     claimId: text("claim_id").references(() => claims.id, { onDelete: "cascade" }),
@@ -359,6 +424,11 @@ export const files = sqliteTable(
   (t) => [index("files_piece_idx").on(t.pieceId), index("files_claim_idx").on(t.claimId)],
 );
 
+export const filesRelations = relations(files, ({ one }) => ({
+  piece: one(pieces, { fields: [files.pieceId], references: [pieces.id] }),
+  claim: one(claims, { fields: [files.claimId], references: [claims.id] }),
+}));
+
 export const CARE_LOG_SOURCES = ["owner", "visit", "studio"] as const;
 
 /** Care done on a piece: self-logged by its owner, or recorded at a visit. */
@@ -366,9 +436,7 @@ export const careLogEntries = sqliteTable(
   "care_log_entries",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -383,12 +451,16 @@ export const careLogEntries = sqliteTable(
     notes: text("notes").notNull().default(""),
     photoFileId: text("photo_file_id").references(() => files.id, { onDelete: "set null" }),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [index("care_log_piece_idx").on(t.pieceId, t.doneOn)],
 );
+
+export const careLogEntriesRelations = relations(careLogEntries, ({ one }) => ({
+  piece: one(pieces, { fields: [careLogEntries.pieceId], references: [pieces.id] }),
+  user: one(users, { fields: [careLogEntries.userId], references: [users.id] }),
+  photo: one(files, { fields: [careLogEntries.photoFileId], references: [files.id] }),
+}));
 
 export const SEND_STATUSES = ["queued", "sent", "failed", "skipped", "cancelled"] as const;
 
@@ -400,9 +472,7 @@ export const reminderSends = sqliteTable(
   "reminder_sends",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -422,12 +492,16 @@ export const reminderSends = sqliteTable(
     messageId: text("message_id"),
     sentAt: integer("sent_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [index("reminder_sends_studio_idx").on(t.studioId, t.status, t.dueOn), index("reminder_sends_piece_idx").on(t.pieceId)],
 );
+
+export const reminderSendsRelations = relations(reminderSends, ({ one }) => ({
+  studio: one(studios, { fields: [reminderSends.studioId], references: [studios.id] }),
+  piece: one(pieces, { fields: [reminderSends.pieceId], references: [pieces.id] }),
+  user: one(users, { fields: [reminderSends.userId], references: [users.id] }),
+}));
 
 export const OFFER_STATUSES = ["offered", "accepted", "declined", "expired"] as const;
 
@@ -436,9 +510,7 @@ export const refreshOffers = sqliteTable(
   "refresh_offers",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -450,7 +522,7 @@ export const refreshOffers = sqliteTable(
     priceMinor: integer("price_minor").notNull(),
     currency: text("currency").notNull(),
     /** The quote the price came from (lib/care quote output). */
-    quote: text("quote", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    quote: text("quote", { mode: "json" }).$type<Quote>().notNull(),
     status: text("status", { enum: OFFER_STATUSES }).notNull().default("offered"),
     reminderSendId: text("reminder_send_id").references(() => reminderSends.id, { onDelete: "set null" }),
     acceptedAt: integer("accepted_at", { mode: "timestamp_ms" }),
@@ -458,6 +530,13 @@ export const refreshOffers = sqliteTable(
   },
   (t) => [uniqueIndex("refresh_offers_task_due_uq").on(t.taskKey, t.dueOn), index("refresh_offers_studio_idx").on(t.studioId, t.status)],
 );
+
+export const refreshOffersRelations = relations(refreshOffers, ({ one }) => ({
+  studio: one(studios, { fields: [refreshOffers.studioId], references: [studios.id] }),
+  piece: one(pieces, { fields: [refreshOffers.pieceId], references: [pieces.id] }),
+  user: one(users, { fields: [refreshOffers.userId], references: [users.id] }),
+  reminderSend: one(reminderSends, { fields: [refreshOffers.reminderSendId], references: [reminderSends.id] }),
+}));
 
 /** Claim states (lib/claims/states.ts): submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
 export const CLAIM_STATES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
@@ -467,9 +546,7 @@ export const claims = sqliteTable(
   "claims",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -480,7 +557,7 @@ export const claims = sqliteTable(
     noticedOn: text("noticed_on").notNull(),
     description: text("description").notNull(),
     /** The owner's answers to the coverage questions and the room climate they reported. */
-    answers: text("answers", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    answers: text("answers", { mode: "json" }).$type<StoredClaimAnswers>().notNull(),
     state: text("state", { enum: CLAIM_STATES }).notNull().default("submitted"),
     decision: text("decision", { enum: CLAIM_DECISIONS }),
     coveredPct: integer("covered_pct"),
@@ -493,23 +570,24 @@ export const claims = sqliteTable(
     /** Bumped on every state change; writers compare it to refuse a concurrent change. */
     version: integer("version").notNull().default(0),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [index("claims_studio_idx").on(t.studioId, t.state, t.createdAt), index("claims_owner_idx").on(t.ownerId), index("claims_piece_idx").on(t.pieceId)],
 );
 
-export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
+export const claimsRelations = relations(claims, ({ one, many }) => ({
+  piece: one(pieces, { fields: [claims.pieceId], references: [pieces.id] }),
+  owner: one(users, { fields: [claims.ownerId], references: [users.id] }),
+  photos: many(files),
+}));
 
+export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
 
 export const repairJobs = sqliteTable(
   "repair_jobs",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -520,7 +598,7 @@ export const repairJobs = sqliteTable(
     state: text("state", { enum: JOB_STATES }).notNull().default("draft"),
     title: text("title").notNull(),
     /** The quote's inputs (tasks, area, products, travel) as staff last edited them. */
-    quoteInput: text("quote_input", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    quoteInput: text("quote_input", { mode: "json" }).$type<StoredJobQuote>().notNull(),
     lines: text("lines", { mode: "json" }).$type<JobLine[]>().notNull(),
     /** What the care engine and the price list proposed when the quote was last priced, beside what was sent (lines). */
     proposedLines: text("proposed_lines", { mode: "json" }).$type<JobLine[]>().notNull().default(sql`'[]'`),
@@ -545,12 +623,17 @@ export const repairJobs = sqliteTable(
     createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
     version: integer("version").notNull().default(0),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [index("repair_jobs_studio_idx").on(t.studioId, t.state), index("repair_jobs_owner_idx").on(t.ownerId), index("repair_jobs_piece_idx").on(t.pieceId)],
 );
+
+export const repairJobsRelations = relations(repairJobs, ({ one, many }) => ({
+  piece: one(pieces, { fields: [repairJobs.pieceId], references: [pieces.id] }),
+  owner: one(users, { fields: [repairJobs.ownerId], references: [users.id] }),
+  claim: one(claims, { fields: [repairJobs.claimId], references: [claims.id] }),
+  payments: many(payments),
+}));
 
 export const PAYMENT_STATUSES = ["open", "paid", "expired", "refunded", "partially_refunded"] as const;
 /**
@@ -564,9 +647,7 @@ export const payments = sqliteTable(
   "payments",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     jobId: text("job_id")
       .notNull()
       .references(() => repairJobs.id, { onDelete: "cascade" }),
@@ -584,12 +665,14 @@ export const payments = sqliteTable(
     refundRequestedAt: integer("refund_requested_at", { mode: "timestamp_ms" }),
     paidAt: integer("paid_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [index("payments_job_idx").on(t.jobId)],
 );
+
+export const paymentsRelations = relations(payments, ({ one }) => ({
+  job: one(repairJobs, { fields: [payments.jobId], references: [repairJobs.id] }),
+}));
 
 /** Every Stripe webhook event recorded once by its id; a replay changes nothing. */
 export const stripeEvents = sqliteTable("stripe_events", {
@@ -600,66 +683,6 @@ export const stripeEvents = sqliteTable("stripe_events", {
     .notNull()
     .$defaultFn(() => new Date()),
 });
-
-export const studiosRelations = relations(studios, ({ many }) => ({
-  memberships: many(memberships),
-  pieces: many(pieces),
-  finishProducts: many(finishProducts),
-}));
-
-export const usersRelations = relations(users, ({ many }) => ({
-  memberships: many(memberships),
-  pieces: many(pieces),
-}));
-
-export const membershipsRelations = relations(memberships, ({ one }) => ({
-  studio: one(studios, { fields: [memberships.studioId], references: [studios.id] }),
-  user: one(users, { fields: [memberships.userId], references: [users.id] }),
-}));
-
-export const piecesRelations = relations(pieces, ({ one, many }) => ({
-  studio: one(studios, { fields: [pieces.studioId], references: [studios.id] }),
-  owner: one(users, { fields: [pieces.ownerId], references: [users.id] }),
-  warrantyPolicy: one(warrantyPolicies, { fields: [pieces.warrantyPolicyId], references: [warrantyPolicies.id] }),
-  layers: many(finishLayers),
-  photos: many(files),
-  careLog: many(careLogEntries),
-  claims: many(claims),
-}));
-
-export const filesRelations = relations(files, ({ one }) => ({
-  piece: one(pieces, { fields: [files.pieceId], references: [pieces.id] }),
-  claim: one(claims, { fields: [files.claimId], references: [claims.id] }),
-}));
-
-export const careLogEntriesRelations = relations(careLogEntries, ({ one }) => ({
-  piece: one(pieces, { fields: [careLogEntries.pieceId], references: [pieces.id] }),
-  user: one(users, { fields: [careLogEntries.userId], references: [users.id] }),
-  photo: one(files, { fields: [careLogEntries.photoFileId], references: [files.id] }),
-}));
-
-export const claimsRelations = relations(claims, ({ one, many }) => ({
-  piece: one(pieces, { fields: [claims.pieceId], references: [pieces.id] }),
-  owner: one(users, { fields: [claims.ownerId], references: [users.id] }),
-  photos: many(files),
-}));
-
-export const repairJobsRelations = relations(repairJobs, ({ one, many }) => ({
-  piece: one(pieces, { fields: [repairJobs.pieceId], references: [pieces.id] }),
-  owner: one(users, { fields: [repairJobs.ownerId], references: [users.id] }),
-  claim: one(claims, { fields: [repairJobs.claimId], references: [claims.id] }),
-  payments: many(payments),
-}));
-
-export const paymentsRelations = relations(payments, ({ one }) => ({
-  job: one(repairJobs, { fields: [payments.jobId], references: [repairJobs.id] }),
-}));
-
-export const finishLayersRelations = relations(finishLayers, ({ one }) => ({
-  piece: one(pieces, { fields: [finishLayers.pieceId], references: [pieces.id] }),
-  product: one(finishProducts, { fields: [finishLayers.productId], references: [finishProducts.id] }),
-  appliedBy: one(users, { fields: [finishLayers.appliedById], references: [users.id] }),
-}));
 
 export type Studio = typeof studios.$inferSelect;
 export type User = typeof users.$inferSelect;
@@ -689,9 +712,7 @@ export const technicianHours = sqliteTable(
   "technician_hours",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     userId: text("user_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
@@ -704,14 +725,17 @@ export const technicianHours = sqliteTable(
   (t) => [index("technician_hours_studio_user_idx").on(t.studioId, t.userId)],
 );
 
+export const technicianHoursRelations = relations(technicianHours, ({ one }) => ({
+  studio: one(studios, { fields: [technicianHours.studioId], references: [studios.id] }),
+  user: one(users, { fields: [technicianHours.userId], references: [users.id] }),
+}));
+
 /** Days off and other exceptions: a whole local date, or a part of it (start/end local "HH:MM"). */
 export const technicianTimeOff = sqliteTable(
   "technician_time_off",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     userId: text("user_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
@@ -725,6 +749,11 @@ export const technicianTimeOff = sqliteTable(
   (t) => [index("technician_time_off_studio_user_idx").on(t.studioId, t.userId, t.date)],
 );
 
+export const technicianTimeOffRelations = relations(technicianTimeOff, ({ one }) => ({
+  studio: one(studios, { fields: [technicianTimeOff.studioId], references: [studios.id] }),
+  user: one(users, { fields: [technicianTimeOff.userId], references: [users.id] }),
+}));
+
 /** The studio's booking rules; a studio without a row uses the defaults below. */
 export const visitRules = sqliteTable("visit_rules", {
   studioId: text("studio_id")
@@ -737,13 +766,15 @@ export const visitRules = sqliteTable("visit_rules", {
   ownerChangeCutoffHours: integer("owner_change_cutoff_hours").notNull().default(24),
 });
 
+export const visitRulesRelations = relations(visitRules, ({ one }) => ({
+  studio: one(studios, { fields: [visitRules.studioId], references: [studios.id] }),
+}));
+
 export const visits = sqliteTable(
   "visits",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     jobId: text("job_id")
       .notNull()
       .references(() => repairJobs.id, { onDelete: "cascade" }),
@@ -786,9 +817,7 @@ export const visits = sqliteTable(
     lastInviteAt: integer("last_invite_at", { mode: "timestamp_ms" }),
     version: integer("version").notNull().default(0),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [
     index("visits_studio_tech_start_idx").on(t.studioId, t.technicianId, t.startAt),
@@ -799,6 +828,13 @@ export const visits = sqliteTable(
   ],
 );
 
+export const visitsRelations = relations(visits, ({ one, many }) => ({
+  job: one(repairJobs, { fields: [visits.jobId], references: [repairJobs.id] }),
+  piece: one(pieces, { fields: [visits.pieceId], references: [pieces.id] }),
+  technician: one(users, { fields: [visits.technicianId], references: [users.id] }),
+  photos: many(visitPhotos),
+}));
+
 export const VISIT_PHOTO_KINDS = ["before", "after"] as const;
 
 /** Before/after photos of a visit (files rows with purpose "visit_photo" and the piece's id). */
@@ -806,9 +842,7 @@ export const visitPhotos = sqliteTable(
   "visit_photos",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     visitId: text("visit_id")
       .notNull()
       .references(() => visits.id, { onDelete: "cascade" }),
@@ -821,14 +855,17 @@ export const visitPhotos = sqliteTable(
   (t) => [index("visit_photos_visit_idx").on(t.visitId)],
 );
 
+export const visitPhotosRelations = relations(visitPhotos, ({ one }) => ({
+  visit: one(visits, { fields: [visitPhotos.visitId], references: [visits.id] }),
+  file: one(files, { fields: [visitPhotos.fileId], references: [files.id] }),
+}));
+
 /** Send ledger of visit reminders: one row per visit, kind and SEQUENCE, claimed before the message goes out. */
 export const visitMailSends = sqliteTable(
   "visit_mail_sends",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     visitId: text("visit_id")
       .notNull()
       .references(() => visits.id, { onDelete: "cascade" }),
@@ -844,16 +881,9 @@ export const visitMailSends = sqliteTable(
   (t) => [uniqueIndex("visit_mail_sends_uq").on(t.visitId, t.kind, t.sequence), index("visit_mail_sends_studio_idx").on(t.studioId, t.status)],
 );
 
-export const visitsRelations = relations(visits, ({ one, many }) => ({
-  job: one(repairJobs, { fields: [visits.jobId], references: [repairJobs.id] }),
-  piece: one(pieces, { fields: [visits.pieceId], references: [pieces.id] }),
-  technician: one(users, { fields: [visits.technicianId], references: [users.id] }),
-  photos: many(visitPhotos),
-}));
-
-export const visitPhotosRelations = relations(visitPhotos, ({ one }) => ({
-  visit: one(visits, { fields: [visitPhotos.visitId], references: [visits.id] }),
-  file: one(files, { fields: [visitPhotos.fileId], references: [files.id] }),
+export const visitMailSendsRelations = relations(visitMailSends, ({ one }) => ({
+  studio: one(studios, { fields: [visitMailSends.studioId], references: [studios.id] }),
+  visit: one(visits, { fields: [visitMailSends.visitId], references: [visits.id] }),
 }));
 
 export type TechnicianHoursRow = typeof technicianHours.$inferSelect;
@@ -897,7 +927,6 @@ export type QueuedMail = typeof mailQueue.$inferSelect;
 
 // ---- clients: the studio's record of the people it sold to or serves ----
 
-
 /**
  * A person or household the studio sold to or serves. Not an account: a client may never sign in;
  * when one does (same e-mail, confirmed), userId links the two. E-mail lower-cased, unique per
@@ -908,9 +937,7 @@ export const clients = sqliteTable(
   "clients",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     name: text("name").notNull(),
     email: text("email"),
     phone: text("phone"),
@@ -923,9 +950,7 @@ export const clients = sqliteTable(
     consentOffers: integer("consent_offers", { mode: "boolean" }).notNull().default(false),
     userId: text("user_id").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [
     index("clients_studio_name_idx").on(t.studioId, t.name),
@@ -936,14 +961,18 @@ export const clients = sqliteTable(
   ],
 );
 
+export const clientsRelations = relations(clients, ({ one, many }) => ({
+  studio: one(studios, { fields: [clients.studioId], references: [studios.id] }),
+  user: one(users, { fields: [clients.userId], references: [users.id] }),
+  consents: many(clientConsents),
+}));
+
 /** Every change of a client's consent: what, given or withdrawn, when and how. Never edited. */
 export const clientConsents = sqliteTable(
   "client_consents",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     clientId: text("client_id")
       .notNull()
       .references(() => clients.id, { onDelete: "cascade" }),
@@ -958,12 +987,6 @@ export const clientConsents = sqliteTable(
   },
   (t) => [index("client_consents_studio_client_idx").on(t.studioId, t.clientId, t.givenAt)],
 );
-
-export const clientsRelations = relations(clients, ({ one, many }) => ({
-  studio: one(studios, { fields: [clients.studioId], references: [studios.id] }),
-  user: one(users, { fields: [clients.userId], references: [users.id] }),
-  consents: many(clientConsents),
-}));
 
 export const clientConsentsRelations = relations(clientConsents, ({ one }) => ({
   client: one(clients, { fields: [clientConsents.clientId], references: [clients.id] }),
@@ -987,9 +1010,7 @@ export const threads = sqliteTable(
   "threads",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     subject: text("subject", { enum: THREAD_SUBJECTS }).notNull(),
     claimId: text("claim_id").references(() => claims.id, { onDelete: "cascade" }),
     jobId: text("job_id").references(() => repairJobs.id, { onDelete: "cascade" }),
@@ -1005,9 +1026,7 @@ export const threads = sqliteTable(
     waitingSince: integer("waiting_since", { mode: "timestamp_ms" }),
     lastMessageAt: integer("last_message_at", { mode: "timestamp_ms" }).notNull(),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [
     index("threads_studio_state_idx").on(t.studioId, t.state, t.lastMessageAt),
@@ -1018,13 +1037,21 @@ export const threads = sqliteTable(
   ],
 );
 
+export const threadsRelations = relations(threads, ({ one }) => ({
+  studio: one(studios, { fields: [threads.studioId], references: [studios.id] }),
+  claim: one(claims, { fields: [threads.claimId], references: [claims.id] }),
+  job: one(repairJobs, { fields: [threads.jobId], references: [repairJobs.id] }),
+  visit: one(visits, { fields: [threads.visitId], references: [visits.id] }),
+  piece: one(pieces, { fields: [threads.pieceId], references: [pieces.id] }),
+  owner: one(users, { fields: [threads.ownerId], references: [users.id] }),
+  assignedTo: one(users, { fields: [threads.assignedToId], references: [users.id] }),
+}));
+
 export const threadMessages = sqliteTable(
   "thread_messages",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     threadId: text("thread_id")
       .notNull()
       .references(() => threads.id, { onDelete: "cascade" }),
@@ -1040,6 +1067,12 @@ export const threadMessages = sqliteTable(
   },
   (t) => [index("thread_messages_thread_idx").on(t.threadId, t.createdAt)],
 );
+
+export const threadMessagesRelations = relations(threadMessages, ({ one }) => ({
+  studio: one(studios, { fields: [threadMessages.studioId], references: [studios.id] }),
+  thread: one(threads, { fields: [threadMessages.threadId], references: [threads.id] }),
+  author: one(users, { fields: [threadMessages.authorId], references: [users.id] }),
+}));
 
 /** Inbound mail that could not be added to a thread: kept for the studio's staff, never dropped. */
 export const unmatchedMail = sqliteTable(
@@ -1062,6 +1095,12 @@ export const unmatchedMail = sqliteTable(
   (t) => [index("unmatched_mail_studio_idx").on(t.studioId, t.receivedAt)],
 );
 
+export const unmatchedMailRelations = relations(unmatchedMail, ({ one }) => ({
+  studio: one(studios, { fields: [unmatchedMail.studioId], references: [studios.id] }),
+  thread: one(threads, { fields: [unmatchedMail.threadId], references: [threads.id] }),
+  resolvedBy: one(users, { fields: [unmatchedMail.resolvedById], references: [users.id] }),
+}));
+
 export type Thread = typeof threads.$inferSelect;
 export type ThreadMessage = typeof threadMessages.$inferSelect;
 export type UnmatchedMail = typeof unmatchedMail.$inferSelect;
@@ -1078,9 +1117,7 @@ export const pieceHandovers = sqliteTable(
   "piece_handovers",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
@@ -1096,12 +1133,16 @@ export const pieceHandovers = sqliteTable(
     registeredAt: integer("registered_at", { mode: "timestamp_ms" }),
     usedAt: integer("used_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [uniqueIndex("piece_handovers_piece_uq").on(t.pieceId), index("piece_handovers_studio_client_idx").on(t.studioId, t.clientId)],
 );
+
+export const pieceHandoversRelations = relations(pieceHandovers, ({ one }) => ({
+  studio: one(studios, { fields: [pieceHandovers.studioId], references: [studios.id] }),
+  piece: one(pieces, { fields: [pieceHandovers.pieceId], references: [pieces.id] }),
+  client: one(clients, { fields: [pieceHandovers.clientId], references: [clients.id] }),
+}));
 
 export type PieceHandover = typeof pieceHandovers.$inferSelect;
 
@@ -1113,9 +1154,7 @@ export const handoverBatches = sqliteTable(
   "handover_batches",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
     source: text("source", { enum: HANDOVER_BATCH_SOURCES }).notNull(),
     state: text("state", { enum: HANDOVER_BATCH_STATES }).notNull().default("queued"),
@@ -1123,12 +1162,15 @@ export const handoverBatches = sqliteTable(
     startedAt: integer("started_at", { mode: "timestamp_ms" }),
     finishedAt: integer("finished_at", { mode: "timestamp_ms" }),
     /** Touched as the runner goes: a running batch not touched for a while is taken up again. */
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [index("handover_batches_studio_idx").on(t.studioId, t.createdAt)],
 );
+
+export const handoverBatchesRelations = relations(handoverBatches, ({ one }) => ({
+  studio: one(studios, { fields: [handoverBatches.studioId], references: [studios.id] }),
+  createdBy: one(users, { fields: [handoverBatches.createdById], references: [users.id] }),
+}));
 
 export const handoverBatchItems = sqliteTable(
   "handover_batch_items",
@@ -1137,21 +1179,23 @@ export const handoverBatchItems = sqliteTable(
     batchId: text("batch_id")
       .notNull()
       .references(() => handoverBatches.id, { onDelete: "cascade" }),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     pieceId: text("piece_id")
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
     outcome: text("outcome", { enum: HANDOVER_ITEM_OUTCOMES }).notNull().default("pending"),
     /** Why it was skipped (a HandoverBlock or "already_sent") or failed (the error, in words). */
     reason: text("reason"),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [uniqueIndex("handover_batch_items_piece_uq").on(t.batchId, t.pieceId), index("handover_batch_items_outcome_idx").on(t.batchId, t.outcome)],
 );
+
+export const handoverBatchItemsRelations = relations(handoverBatchItems, ({ one }) => ({
+  batch: one(handoverBatches, { fields: [handoverBatchItems.batchId], references: [handoverBatches.id] }),
+  studio: one(studios, { fields: [handoverBatchItems.studioId], references: [studios.id] }),
+  piece: one(pieces, { fields: [handoverBatchItems.pieceId], references: [pieces.id] }),
+}));
 
 /**
  * A care plan a studio sells: one row per version. Changing a template inserts the next version with
@@ -1161,9 +1205,7 @@ export const planTemplates = sqliteTable(
   "plan_templates",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     /** Shared by every version of one template (the first version's id). */
     lineageId: text("lineage_id").notNull(),
     version: integer("version").notNull().default(1),
@@ -1187,14 +1229,17 @@ export const planTemplates = sqliteTable(
   (t) => [uniqueIndex("plan_templates_lineage_version_uq").on(t.lineageId, t.version), index("plan_templates_studio_idx").on(t.studioId)],
 );
 
+export const planTemplatesRelations = relations(planTemplates, ({ one }) => ({
+  studio: one(studios, { fields: [planTemplates.studioId], references: [studios.id] }),
+  createdBy: one(users, { fields: [planTemplates.createdById], references: [users.id] }),
+}));
+
 /** One piece under one plan template version, for one owner; its state lives in lib/plans/states.ts. */
 export const planSubscriptions = sqliteTable(
   "plan_subscriptions",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     templateId: text("template_id")
       .notNull()
       .references(() => planTemplates.id),
@@ -1222,21 +1267,25 @@ export const planSubscriptions = sqliteTable(
     createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
     version: integer("version").notNull().default(0),
     createdAt: createdAt(),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: updatedAt(),
   },
   (t) => [index("plan_subscriptions_studio_idx").on(t.studioId, t.state), index("plan_subscriptions_piece_idx").on(t.pieceId), index("plan_subscriptions_owner_idx").on(t.ownerId)],
 );
+
+export const planSubscriptionsRelations = relations(planSubscriptions, ({ one }) => ({
+  studio: one(studios, { fields: [planSubscriptions.studioId], references: [studios.id] }),
+  template: one(planTemplates, { fields: [planSubscriptions.templateId], references: [planTemplates.id] }),
+  piece: one(pieces, { fields: [planSubscriptions.pieceId], references: [pieces.id] }),
+  owner: one(users, { fields: [planSubscriptions.ownerId], references: [users.id] }),
+  createdBy: one(users, { fields: [planSubscriptions.createdById], references: [users.id] }),
+}));
 
 /** A plan period's payment (a Stripe invoice, or a staff-recorded payment by other means). */
 export const planInvoices = sqliteTable(
   "plan_invoices",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     subscriptionId: text("subscription_id")
       .notNull()
       .references(() => planSubscriptions.id, { onDelete: "cascade" }),
@@ -1255,14 +1304,17 @@ export const planInvoices = sqliteTable(
   (t) => [index("plan_invoices_studio_idx").on(t.studioId, t.at), index("plan_invoices_subscription_idx").on(t.subscriptionId)],
 );
 
+export const planInvoicesRelations = relations(planInvoices, ({ one }) => ({
+  studio: one(studios, { fields: [planInvoices.studioId], references: [studios.id] }),
+  subscription: one(planSubscriptions, { fields: [planInvoices.subscriptionId], references: [planSubscriptions.id] }),
+}));
+
 /** An included visit the scheduler turned into studio work: one per plan and due date. */
 export const planVisits = sqliteTable(
   "plan_visits",
   {
     id: id(),
-    studioId: text("studio_id")
-      .notNull()
-      .references(() => studios.id, { onDelete: "cascade" }),
+    studioId: studioRef(),
     subscriptionId: text("subscription_id")
       .notNull()
       .references(() => planSubscriptions.id, { onDelete: "cascade" }),
@@ -1272,6 +1324,12 @@ export const planVisits = sqliteTable(
   },
   (t) => [uniqueIndex("plan_visits_subscription_due_uq").on(t.subscriptionId, t.dueOn), index("plan_visits_studio_idx").on(t.studioId)],
 );
+
+export const planVisitsRelations = relations(planVisits, ({ one }) => ({
+  studio: one(studios, { fields: [planVisits.studioId], references: [studios.id] }),
+  subscription: one(planSubscriptions, { fields: [planVisits.subscriptionId], references: [planSubscriptions.id] }),
+  job: one(repairJobs, { fields: [planVisits.jobId], references: [repairJobs.id] }),
+}));
 
 export type PlanTemplate = typeof planTemplates.$inferSelect;
 export type PlanSubscription = typeof planSubscriptions.$inferSelect;

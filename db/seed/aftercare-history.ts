@@ -76,7 +76,7 @@ export function seedAftercareHistory(db: Db, studioId: string, now: Date = new D
             dueOn,
             priceMinor: q.totalMinor,
             currency: q.currency,
-            quote: q as unknown as Record<string, unknown>,
+            quote: q,
             status: offerStatus,
             reminderSendId: row.id,
             acceptedAt: offerStatus === "accepted" ? new Date(sentAt.getTime() + 2 * 86_400_000) : null,

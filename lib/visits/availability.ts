@@ -70,7 +70,7 @@ export function timeOffInterval(t: { date: string; start: string | null; end: st
  */
 export function jobDurationMin(job: Pick<RepairJob, "quoteInput" | "lines">, piece: Piece): number {
   const quotedHours = readLines(job.lines).reduce((h, l) => h + (l.unit === "h" ? l.quantity : 0), 0);
-  const tasks = (Array.isArray(job.quoteInput.tasks) ? job.quoteInput.tasks : []) as QuotedTask[];
+  const tasks: readonly QuotedTask[] = job.quoteInput.tasks ?? [];
   const shape = topShape(piece);
   const areaM2 = shape ? topArea(shape).m2 : 0;
   const minutes = quotedHours > 0 ? Math.round(quotedHours * 60) : tasks.length ? taskDurationMinutes(tasks, areaM2) : 60;

@@ -7,7 +7,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { cautionLine, cautionsFor } from "@/lib/care/cautions";
 import { curingLayers } from "@/lib/care/cure";
 import { localDate } from "@/lib/care/dates";
-import { FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
+import { FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS } from "@/lib/care/vocabulary";
 import { followJob } from "@/lib/claims/follow-job";
 import { randomToken, sha256Hex } from "@/lib/crypto";
 import { badRequest, conflict, unprocessable } from "@/lib/errors";
@@ -76,7 +76,7 @@ export async function submitReport(ctx: StudioContext, visitId: string, input: V
         logged.add(key);
         tx.insert(careLogEntries).values({ studioId: studio.id, pieceId: piece.id, userId: ctx.user.id, source: "visit", taskKind: kind, surface: l.surface, doneOn: l.appliedOn, productUsed: l.productLabel, notes: input.work.slice(0, 1000) }).run();
       }
-      const jobTasks = ((job.quoteInput as { tasks?: CareTaskKind[] }).tasks ?? []).filter((k) => ![...logged].some((x) => x.startsWith(`${k}:`)));
+      const jobTasks = (job.quoteInput.tasks ?? []).filter((k) => ![...logged].some((x) => x.startsWith(`${k}:`)));
       for (const kind of new Set(jobTasks)) {
         tx.insert(careLogEntries).values({ studioId: studio.id, pieceId: piece.id, userId: ctx.user.id, source: "visit", taskKind: kind, surface: null, doneOn: today, notes: input.work.slice(0, 1000) }).run();
       }

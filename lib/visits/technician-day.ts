@@ -8,7 +8,7 @@ import { cautionsFor } from "@/lib/care/cautions";
 import { cureWindow } from "@/lib/care/cure";
 import { addDays, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";
-import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass } from "@/lib/care/vocabulary";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type FinishClass } from "@/lib/care/vocabulary";
 import { fileUrl } from "@/lib/claims/claim-row";
 import { displayPhone } from "@/lib/clients/phone";
 import { notFound } from "@/lib/errors";
@@ -42,7 +42,7 @@ function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], ap
   const shape = topShape(piece);
   const areaM2 = shape ? topArea(shape).m2 : 0;
   if (!areaM2) return [];
-  const input = job.quoteInput as { tasks?: CareTaskKind[]; productIds?: string[]; coats?: number };
+  const input = job.quoteInput;
   const coats = Math.max(1, Number(input.coats) || 1);
   const tasks = new Set(input.tasks ?? []);
   const chosen = products.filter((p) => (input.productIds ?? []).includes(p.id));
@@ -98,7 +98,7 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
   const items = rows.map(({ visit, job, piece, ownerName, ownerPhone, claim }) => {
     const layers = layersOf.get(piece.id) ?? [];
     const bring = whatToBring(job, piece, products, localDate(visit.startAt.getTime(), tz), ctx.studio.unitSystem);
-    const jobTasks = (job.quoteInput as { tasks?: CareTaskKind[] }).tasks ?? [];
+    const jobTasks = job.quoteInput.tasks ?? [];
     // The cautions for this visit's tasks and the products brought, once each (lib/care/cautions).
     const cautions = cautionsFor({
       tasks: jobTasks,

@@ -80,7 +80,7 @@ describe("warranty policy versions", () => {
     // Finish wear noticed ten months after delivery: inside v1's 12 months.
     const claim = getDb()
       .insert(claims)
-      .values({ studioId: studio.id, pieceId: piece.id, ownerId: owner.id, category: "finish_wear", noticedOn: "2026-03-20", description: "Dull patch (invented).", answers: { heat: false, chemicals: false, impact: false, usedOutdoors: false }, createdAt: new Date("2026-04-01T15:00:00Z") })
+      .values({ studioId: studio.id, pieceId: piece.id, ownerId: owner.id, category: "finish_wear", noticedOn: "2026-03-20", description: "Dull patch (invented).", answers: { heat: "no", chemicals: "no", impact: "no", usedOutdoors: "no" }, createdAt: new Date("2026-04-01T15:00:00Z") })
       .returning()
       .get();
     const before = coverageFor(piece.id, claim.id);

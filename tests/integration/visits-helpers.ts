@@ -5,6 +5,7 @@ import { ZodError } from "zod";
 import { getDb } from "@/db/client";
 import { repairJobs, users, type Studio } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
+import type { CareTaskKind } from "@/lib/care/vocabulary";
 import { AppError } from "@/lib/errors";
 import type { VisitActor } from "@/lib/visits/visit-row";
 import { putTechnicianHours } from "@/lib/visits/technicians";
@@ -21,7 +22,7 @@ export const ownerActor = (u: User): VisitActor => ({ kind: "owner", user: u });
 
 export const WEEKDAYS_9_TO_5 = [1, 2, 3, 4, 5].map((weekday) => ({ weekday, start: "09:00", end: "17:00" }));
 
-export function addJob(studio: Studio, pieceId: string, ownerId: string, productId: string, state: "paid" | "covered" = "paid", tasks: string[] = ["reoil"]) {
+export function addJob(studio: Studio, pieceId: string, ownerId: string, productId: string, state: "paid" | "covered" = "paid", tasks: CareTaskKind[] = ["reoil"]) {
   return getDb()
     .insert(repairJobs)
     .values({

@@ -29,7 +29,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const view = await forPage(async () => getStudioJob(ctx, id));
   const { visit } = visitOfJob({ kind: "staff", ctx }, id);
   const { job, piece, owner, payments, products, studio } = view;
-  const q = job.quoteInput as { title?: string; tasks?: string[]; repairs?: string[]; productIds?: string[]; coats?: number; travel?: boolean; coveredPct?: number; notes?: string };
+  const q = job.quoteInput;
   const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes };
   const figures = jobFigures(job, studio);
   const editable = QUOTE_EDITABLE.includes(job.state);
