@@ -1,13 +1,12 @@
 import "server-only";
-import { and, asc, desc, eq, inArray, isNull, lte } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
-import { getDb } from "@/db/client";
+import { getDb, perConnection } from "@/db/client";
 import {
   careLogEntries,
   files,
   finishLayers,
   finishProducts,
-  ownerships,
   pieces,
   studios,
   warrantyPolicies,
@@ -16,7 +15,7 @@ import {
   type FinishProduct,
   type Piece,
 } from "@/db/schema";
-import { DEFAULT_WARRANTY_POLICY, type WarrantyPolicy } from "@/lib/care/coverage";
+import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { localDate } from "@/lib/care/dates";
 import type { CareTask } from "@/lib/care/schedule";
 import { getSpecies } from "@/lib/care/species";
@@ -63,13 +62,21 @@ export function ownerToday(owner: Pick<User, "timeZone">, now: Date): string {
   }
 }
 
+const zoneChecked = new Map<string, string>();
+
+/** The zone if the runtime knows it, else UTC; remembered per process (building a formatter to ask costs ~0.1 ms). */
 function safeZone(tz: string): string {
-  try {
-    new Intl.DateTimeFormat("en-US", { timeZone: tz });
-    return tz;
-  } catch {
-    return "UTC";
+  let zone = zoneChecked.get(tz);
+  if (zone === undefined) {
+    try {
+      new Intl.DateTimeFormat("en-US", { timeZone: tz });
+      zone = tz;
+    } catch {
+      zone = "UTC";
+    }
+    if (zoneChecked.size < 1000) zoneChecked.set(tz, zone);
   }
+  return zone;
 }
 
 export type TaskView = {
@@ -163,27 +170,6 @@ export function listMyPieces(owner: Owner, now = new Date()) {
 }
 
 
-/** The policy version the piece carries, else the studio's version in force at delivery, else none. */
-function policyFor(piece: Piece): { version: number | null; policy: WarrantyPolicy } | null {
-  const db = getDb();
-  const row = piece.warrantyPolicyId
-    ? db.select().from(warrantyPolicies).where(and(eq(warrantyPolicies.id, piece.warrantyPolicyId), eq(warrantyPolicies.studioId, piece.studioId))).get()
-    : db
-        .select()
-        .from(warrantyPolicies)
-        .where(and(eq(warrantyPolicies.studioId, piece.studioId), lte(warrantyPolicies.effectiveFrom, piece.deliveredOn)))
-        .orderBy(desc(warrantyPolicies.version))
-        .get();
-  if (!row) return null;
-  return { version: row.version, policy: row.policy ?? DEFAULT_WARRANTY_POLICY };
-}
-
-/** Whether `owner` is the piece's first owner (the warranty lines that do not transfer stay with them). */
-export function isOriginalOwner(pieceId: string, ownerId: string): boolean {
-  const first = getDb().select({ userId: ownerships.userId }).from(ownerships).where(eq(ownerships.pieceId, pieceId)).orderBy(asc(ownerships.startedAt)).get();
-  return !first || first.userId === ownerId;
-}
-
 export type CareLogView = {
   id: string;
   taskKind: CareTaskKind;
@@ -260,31 +246,78 @@ export type PieceDetail = {
   certificateUrl: string;
 };
 
+// The piece page's reads, built and prepared once per connection (the page owners open most: building
+// a drizzle query costs about as much as running it). Four reads: the piece with its studio, its
+// warranty policy and its first owner; its layers; its care log; the studio's catalog.
+const pageReads = perConnection((db) => {
+  const id = sql.placeholder("pieceId");
+  const policyId = sql`coalesce(${pieces.warrantyPolicyId}, (SELECT wp.id FROM warranty_policies wp WHERE wp.studio_id = ${pieces.studioId} AND wp.effective_from <= ${pieces.deliveredOn} ORDER BY wp.version DESC LIMIT 1))`;
+  return {
+    piece: db
+      .select({
+        piece: pieces,
+        studioName: studios.name,
+        studioEmail: studios.email,
+        policyVersion: warrantyPolicies.version,
+        policy: warrantyPolicies.policy,
+        firstOwnerId: sql<string | null>`(SELECT o.user_id FROM ownerships o WHERE o.piece_id = ${pieces.id} ORDER BY o.started_at LIMIT 1)`,
+      })
+      .from(pieces)
+      .innerJoin(studios, eq(studios.id, pieces.studioId))
+      .leftJoin(warrantyPolicies, and(eq(warrantyPolicies.id, policyId), eq(warrantyPolicies.studioId, pieces.studioId)))
+      .where(and(eq(pieces.id, id), eq(pieces.ownerId, sql.placeholder("ownerId")), isNull(pieces.archivedAt)))
+      .prepare(),
+    layers: db.select().from(finishLayers).where(eq(finishLayers.pieceId, id)).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).prepare(),
+    careLog: db
+      .select({ entry: careLogEntries, photoId: files.id })
+      .from(careLogEntries)
+      .leftJoin(files, eq(files.id, careLogEntries.photoFileId))
+      .where(eq(careLogEntries.pieceId, id))
+      .orderBy(desc(careLogEntries.doneOn), desc(careLogEntries.createdAt))
+      .prepare(),
+    products: db.select().from(finishProducts).where(eq(finishProducts.studioId, sql.placeholder("studioId"))).prepare(),
+  };
+});
+
 function loadPieceParts(piece: Piece) {
-  const db = getDb();
-  const layers = db.select().from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).all();
-  const log = db
-    .select({ entry: careLogEntries, photoId: files.id })
-    .from(careLogEntries)
-    .leftJoin(files, eq(files.id, careLogEntries.photoFileId))
-    .where(eq(careLogEntries.pieceId, piece.id))
-    .orderBy(desc(careLogEntries.doneOn), desc(careLogEntries.createdAt))
-    .all()
-    .map((r) => ({ ...r.entry, photoId: r.photoId }));
-  const products: FinishProduct[] = db.select().from(finishProducts).where(eq(finishProducts.studioId, piece.studioId)).all();
-  const studio = db.select({ name: studios.name, email: studios.email }).from(studios).where(eq(studios.id, piece.studioId)).get()!;
-  return { layers, log, products, studio };
+  const reads = pageReads(getDb());
+  const layers = reads.layers.all({ pieceId: piece.id });
+  const log = reads.careLog.all({ pieceId: piece.id }).map((r) => ({ ...r.entry, photoId: r.photoId }));
+  const products: FinishProduct[] = reads.products.all({ studioId: piece.studioId });
+  return { layers, log, products };
+}
+
+// The care guide depends only on what it is given: the same inputs give the same guide for this
+// process's life, so the last 500 are kept by their inputs (the page owners open most builds it once).
+const guides = new Map<string, CareGuide>();
+function careGuideFor(input: Parameters<typeof buildCareGuide>[0]): CareGuide {
+  const key = JSON.stringify(input);
+  let guide = guides.get(key);
+  if (guide) {
+    guides.delete(key); // most recently used last
+  } else {
+    guide = buildCareGuide(input);
+    if (guides.size >= 500) guides.delete(guides.keys().next().value!);
+  }
+  guides.set(key, guide);
+  return guide;
 }
 
 /** Everything the owner's piece page shows, for a piece `owner` holds (else 404). */
 export function getMyPiece(owner: Owner, pieceId: string, now = new Date()): PieceDetail {
-  const piece = ownedPieceRow(owner, pieceId);
-  const { layers, log, products, studio } = loadPieceParts(piece);
+  if (typeof pieceId !== "string" || pieceId.length === 0 || pieceId.length > 64) throw notFound("No piece with that id among yours.");
+  const row = pageReads(getDb()).piece.get({ pieceId, ownerId: owner.id });
+  if (!row) throw notFound("No piece with that id among yours.");
+  const { piece } = row;
+  const { layers, log, products } = loadPieceParts(piece);
+  const studio = { name: row.studioName, email: row.studioEmail };
   const units: UnitSystem = owner.unitSystem === "imperial" ? "imperial" : "metric";
   const timeZone = safeZone(owner.timeZone);
   const schedule = scheduleFromRows({ piece, layers, careLog: log, products, timeZone, now });
-  const policy = policyFor(piece);
-  const original = isOriginalOwner(piece.id, owner.id);
+  // The policy version the piece carries, else the studio's version in force at delivery, else none.
+  const policy = row.policyVersion !== null ? { version: row.policyVersion, policy: row.policy ?? DEFAULT_WARRANTY_POLICY } : null;
+  // The first owner keeps the warranty lines that do not pass to a new owner.
+  const original = row.firstOwnerId === null || row.firstOwnerId === owner.id;
   const primary = getSpecies(piece.primarySpeciesId);
   const secondary = piece.secondarySpeciesId ? getSpecies(piece.secondarySpeciesId) : undefined;
   return {
@@ -310,7 +343,7 @@ export function getMyPiece(owner: Owner, pieceId: string, now = new Date()): Pie
     layers: layers.map(layerView),
     schedule: { today: schedule.today, tasks: schedule.tasks.map((t) => taskView(piece.id, t)), notes: schedule.notes },
     careLog: careLogView(log, owner.id),
-    guide: buildCareGuide({
+    guide: careGuideFor({
       layers: layers.map((l) => ({ surface: l.surface, finishClass: l.finishClass, productId: l.productId, productLabel: l.productLabel, appliedOn: l.appliedOn })),
       shape: topShape(piece),
       resin: piece.resinKind,
