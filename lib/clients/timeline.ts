@@ -1,12 +1,12 @@
 import "server-only";
 import { getDb, perConnection } from "@/db/client";
 import type { StudioContext } from "@/lib/auth/guards";
-import { currencyExponent } from "@/lib/care/quote";
 import { CARE_TASK_LABELS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import type { ClaimDecision } from "@/lib/claims/states";
 import { loadClient } from "./access";
 import { CONSENT_KIND_LABELS, type ConsentKind } from "./vocabulary";
+import { formatDate, formatInstant, formatMoney } from "@/lib/format";
 
 // One list of everything that happened with a client, newest first, read from the tables that
 // record it: their pieces' deliveries, registrations and hand-overs, hand-over mail sent, care logged, reminders sent
@@ -126,7 +126,7 @@ export function clientTimeline(ctx: StudioContext, clientId: string, limit: numb
     kind: r.kind,
     at: new Date(r.at).toISOString(),
     allDay: r.kind === "delivered",
-    title: titleOf(r, tz),
+    title: titleOf(r, tz, ctx.studio.country),
     href: hrefOf(r),
   }));
   return { entries, hasMore: rows.length > limit, timeZone: tz };
@@ -134,21 +134,9 @@ export function clientTimeline(ctx: StudioContext, clientId: string, limit: numb
 
 const q = (title: string | null) => `“${title ?? "a piece"}”`;
 
-function money(minor: number | null, currency: string | null): string {
-  if (minor == null || !currency) return "";
-  return new Intl.NumberFormat("en-US", { style: "currency", currency }).format(minor / 10 ** currencyExponent(currency));
-}
-
-function when(ms: number | null, timeZone: string): string {
-  if (ms == null) return "";
-  return new Intl.DateTimeFormat("en-GB", { timeZone, day: "numeric", month: "long", year: "numeric", hour: "2-digit", minute: "2-digit", timeZoneName: "short" }).format(ms);
-}
-
-function day(iso: string | null): string {
-  if (!iso) return "";
-  const [y, m, d] = iso.split("-").map(Number) as [number, number, number];
-  return new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", day: "numeric", month: "long", year: "numeric" }).format(Date.UTC(y, m - 1, d));
-}
+const money = (minor: number | null, currency: string | null, country: string) => (minor == null || !currency ? "" : formatMoney(minor, currency, country));
+const when = (ms: number | null, timeZone: string) => (ms == null ? "" : formatInstant(ms, timeZone, { time: true }));
+const day = (iso: string | null) => (iso ? formatDate(iso) : "");
 
 const CARE_SOURCE_WORDS: Record<string, string> = { owner: "by the owner", visit: "at a visit", studio: "by the studio" };
 
@@ -183,7 +171,7 @@ const FIELD_WORDS: Record<string, string> = {
   notes: "notes",
 };
 
-function titleOf(r: Row, tz: string): string {
+function titleOf(r: Row, tz: string, country: string): string {
   switch (r.kind) {
     case "delivered":
       return `Delivered ${q(r.title)}`;
@@ -208,15 +196,15 @@ function titleOf(r: Row, tz: string): string {
     case "message":
       return `${r.a === "staff" ? "The studio wrote to them" : "They wrote to the studio"}${r.b === "email" ? " by e-mail" : ""} about ${r.cur === "claim" ? "the claim on" : r.cur === "visit" ? "a visit for" : "a repair job on"} ${q(r.title)}`;
     case "job_quoted":
-      return `Quote sent for “${r.title}”: ${money(r.n, r.cur)}`;
+      return `Quote sent for “${r.title}”: ${money(r.n, r.cur, country)}`;
     case "job_paid":
-      return `Paid ${money(r.n, r.cur)} for “${r.title}”`;
+      return `Paid ${money(r.n, r.cur, country)} for “${r.title}”`;
     case "job_done":
       return `Repair job “${r.title}” done`;
     case "job_cancelled":
       return `Repair job “${r.title}” cancelled`;
     case "refund":
-      return `Refund of ${money(r.n, r.cur)} for “${r.title}”`;
+      return `Refund of ${money(r.n, r.cur, country)} for “${r.title}”`;
     case "visit_booked":
       return `Visit booked for ${when(r.n, tz)} (${r.title})`;
     case "visit_done":
