@@ -210,3 +210,32 @@ describe("drawer-card landing lookup", () => {
     expect((await lookupCard(code, ip, null)).state).toBe("available");
   });
 });
+
+describe("the studio's view of the card's code (staff piece page)", () => {
+  it("shows the current code; after a release it says the old card's code is dead until someone registers with the new one", async () => {
+    const { cardCodeStatus } = await import("@/lib/pieces/card-status");
+    const { memberContext } = await import("../support/fixtures");
+    const studio = createStudio({ name: "Code Desk (invented)" });
+    const staff = await memberContext(studio, "staff");
+    const { piece, code } = createPiece(studio, { title: `Code desk table ${unique("t")}` });
+    expect(cardCodeStatus(staff, piece.id)).toEqual({ code, releasedAt: null });
+
+    const first = await verifiedUser();
+    await registerPiece(first, { code }, freshIp());
+    expect(cardCodeStatus(staff, piece.id)).toEqual({ code, releasedAt: null });
+
+    const releasedAt = new Date("2026-06-01T10:00:00Z");
+    const { code: fresh } = await releasePiece({ ...first, timeZone: "UTC", unitSystem: "metric" }, piece.id, { confirm: true }, releasedAt);
+    expect(fresh).not.toBe(code);
+    expect(cardCodeStatus(staff, piece.id)).toEqual({ code: fresh, releasedAt });
+    expect((await lookupCard(code, freshIp(), null)).state).toBe("unknown");
+
+    const second = await verifiedUser();
+    await registerPiece(second, { code: fresh }, freshIp());
+    expect(cardCodeStatus(staff, piece.id)).toEqual({ code: fresh, releasedAt: null });
+
+    // Another studio's staff: a 404, no code.
+    const stranger = await memberContext(createStudio(), "staff");
+    expect(() => cardCodeStatus(stranger, piece.id)).toThrow(expect.objectContaining({ status: 404 }));
+  });
+});

@@ -15,7 +15,9 @@ import { requireStaff, requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getSpecies } from "@/lib/care/species";
 import { PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
+import { localDate } from "@/lib/care/dates";
 import { careBasics } from "@/lib/pieces/care-basics";
+import { cardCodeStatus } from "@/lib/pieces/card-status";
 import { handoverStatus } from "@/lib/pieces/handover";
 import { piecePage } from "@/lib/pieces/registry";
 import { visitPhotosOf } from "@/lib/visits/photos";
@@ -38,6 +40,10 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
   const d = await forPage(() => piecePage(id));
   const visitPhotos = await forPage(async () => visitPhotosOf({ kind: "staff", ctx: await requireStudioMember() }, { pieceId: id }));
   const handover = await forPage(async () => handoverStatus(await requireStaff(), id));
+  const card = await forPage(async () => {
+    const ctx = await requireStaff();
+    return { ...cardCodeStatus(ctx, id), timeZone: ctx.studio.timeZone };
+  });
   const p = d.piece;
   const u = d.unitSystem;
   const species = [p.primarySpeciesId, p.secondarySpeciesId].filter(Boolean).map((s) => getSpecies(s!)?.commonName ?? s);
@@ -176,6 +182,21 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                 "Waiting for the owner to register with the code on the drawer card."
               )}
             </p>
+            <div className="rounded-lg border border-line bg-paper p-3 text-sm">
+              <p className="text-muted">Current registration code</p>
+              <p className="font-mono text-lg font-semibold tracking-wider" aria-label="Current registration code">
+                {card.code}
+              </p>
+              <p className="text-muted">{d.owner ? "Already used by its owner." : "Read it to a caller who can't find the card; they type it on the Register a piece page."}</p>
+            </div>
+            {card.releasedAt ? (
+              <Notice tone="warn" title={`Released by its owner on ${formatDate(localDate(card.releasedAt, card.timeZone))}`}>
+                <p>The code on the old drawer card no longer works. The next owner registers with the new code above — print a new card to go with the piece.</p>
+                <a href={`/api/pieces/${p.id}/card.pdf`} target="_blank" rel="noopener" className="mt-2 inline-flex min-h-11 items-center gap-2 font-semibold text-resin underline">
+                  New drawer card with the new code (PDF)
+                </a>
+              </Notice>
+            ) : null}
             <WarrantyStatus active={d.underWarranty} endsOn={d.warrantyEndsOn} />
             <PieceActions pieceId={p.id} registered={!!d.owner || !!p.registeredAt} archived={!!p.archivedAt} />
           </Card>
