@@ -25,7 +25,7 @@ import { ACCENT_NAMES, ACCENTS, logoPath } from "@/lib/studio/brand";
 import { SETUP_STEP_WORDS, isSetupStep, setupChecklist, type SetupStep } from "@/lib/studio/setup";
 import { mailSenderValues, stripeKeyStatus, warrantyStartValues } from "@/lib/studio/setup-steps";
 import { listMembers, listOpenInvitations } from "@/lib/studio/team";
-import { listTechnicians } from "@/lib/visits/service";
+import { listTechnicians } from "@/lib/visits/technicians";
 import { createPolicyVersionAction, saveProfileAction, saveReminderTimingAction, saveVisitRulesAction } from "../../settings/actions";
 import { inviteAction } from "../../team/actions";
 import { saveAccentAction, saveMailSenderAction, saveStripeKeyAction, sendTestMessageAction, startCatalogAction } from "../actions";
