@@ -1,5 +1,5 @@
 // An owner's answer to a claim that waits on them (awaiting_owner) takes it back to the studio's
-// review, however it came: written on the claim page (lib/claims/service postClaimMessage) or sent
+// review, however it came: written on the claim page (lib/claims/reply.ts postClaimMessage) or sent
 // as an e-mail reply (lib/mail/inbound.ts). Call it in the transaction that adds the message, after
 // the message was added (a reply delivered twice is added once, so it moves the claim once).
 // No server-only import: the inbound listener runs under tsx, outside Next.js.

@@ -8,7 +8,7 @@ export type ClaimDecision = (typeof CLAIM_DECISIONS)[number];
 /**
  * submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined;
  * accepted → repair_booked → closed. Every pair not listed here is illegal (409). The repair job
- * moves the last two steps (lib/claims/service followJob), and a cancelled visit takes repair_booked
+ * moves the last two steps (lib/claims/follow-job.ts), and a cancelled visit takes repair_booked
  * back to accepted there — not a move staff make by hand.
  */
 export const CLAIM_TRANSITIONS: Readonly<Record<ClaimState, readonly ClaimState[]>> = {

@@ -82,7 +82,7 @@ export function receiveInboundMail(mail: InboundMail, db: Db = getDb()): Inbound
   const added = db.transaction((tx) => {
     const message = appendMessage(tx, thread, { author: "owner", authorId: owner.id, body, source: "email", fromEmail: mail.senders.find((s) => lower(s) === lower(owner.email)), emailMessageId: mail.messageId, now: mail.receivedAt });
     if (!message) return null; // the same mail delivered again: nothing more happens
-    // As on the owner's web page (lib/claims/service postClaimMessage): an answer to a claim waiting on
+    // As on the owner's web page (lib/claims/reply.ts postClaimMessage): an answer to a claim waiting on
     // the owner takes it back to the studio's review, recorded the same way.
     const claim = thread.claimId ? tx.select().from(claims).where(eq(claims.id, thread.claimId)).get() : undefined;
     const after = claim ? ownerAnswered(tx, claim) : undefined;

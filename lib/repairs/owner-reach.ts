@@ -1,5 +1,5 @@
 // Who among owners reaches a repair job, written once and used by every owner query of jobs and visits
-// (lib/repairs/jobs.ts, lib/visits/service.ts, lib/visits/mail.tsx). No server-only import: the
+// (lib/repairs/jobs.ts, lib/visits/visit-row.ts, lib/visits/mail.tsx). No server-only import: the
 // scheduler's visit mail uses it too.
 //
 // An owner reaches a job of theirs (repair_jobs.owner_id) fully — sees it, approves, pays, books and

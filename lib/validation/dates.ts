@@ -111,7 +111,7 @@ export const visitDay = () =>
 
 /**
  * A layer recorded in a visit report: from 1900 to the end of the visit calendar. The report itself
- * checks it against the studio's today (lib/visits/service.ts submitReport) with the visit's clock.
+ * checks it against the studio's today (lib/visits/report.ts submitReport) with the visit's clock.
  */
 export const visitRecordDate = () =>
   dateField({ min: EARLIEST_DATE, max: () => addMonths(utcToday(), 12 * VISIT_YEARS_AHEAD), tooEarly: () => "That date is before 1900; check the year." });

@@ -13,7 +13,7 @@ import { moveJob } from "@/lib/repairs/jobs";
 import { isStudioTechnician, jobDurationMin, technicianSlots, visitRulesFor } from "./availability";
 import { visitUid } from "./ics";
 
-/** The code of a 409 for a time that is taken or not offered; lib/visits/service.ts adds fresh slots to it. */
+/** The code of a 409 for a time that is taken or not offered; lib/visits/slots.ts refusedWithSlots adds fresh slots to it. */
 export const SLOT_UNAVAILABLE = "slot_unavailable";
 const slotUnavailable = (message: string) => conflict(message, { code: SLOT_UNAVAILABLE });
 
