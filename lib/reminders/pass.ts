@@ -40,6 +40,7 @@ import { quote, quoteProductFromCatalog, type Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { topArea } from "@/lib/care/area";
 import { scheduleFromColumns, toCatalog, topShape, type CareLayerColumns, type CarePieceColumns } from "@/lib/pieces/care-inputs";
+import { planIncludedTasks } from "@/lib/plans/reminders";
 import { deliverLease, LEASE_PREFIX, type FailedItem, type Lease, type SentItem } from "./deliver";
 import { passStatements, type PassStatements } from "./pass-sql";
 import {
@@ -255,6 +256,7 @@ function readChunk(pass: Pass, after: string): Chunk | null {
  */
 function computeSchedules(pass: Pass, studios: Map<string, Studio>, chunk: Chunk): Scheduled[] {
   const out: Scheduled[] = [];
+  const byPlan = planIncludedTasks(chunk.pieces.map((p) => p.id)); // a care plan's included tasks are the studio's work
   for (const piece of chunk.pieces) {
     const studio = studios.get(piece.studioId)!;
     const { steps, sendAfterMinutes } = studio.timing;
@@ -268,7 +270,7 @@ function computeSchedules(pass: Pass, studios: Map<string, Studio>, chunk: Chunk
         timeZone: studio.timeZone,
         now: pass.nowMs,
       });
-      const tasks = schedule.tasks.map((t) => withEnabledSteps(t, steps));
+      const tasks = schedule.tasks.filter((t) => !byPlan.get(piece.id)?.has(t.kind)).map((t) => withEnabledSteps(t, steps));
       const current = tasks.map((t) => currentStepIndex(t, pass.clocks, piece.ownerTimeZone, sendAfterMinutes));
       out.push({ piece, tasks, current });
       pass.report.tasks += schedule.tasks.length;

@@ -6,7 +6,7 @@ import type { AddressInfo } from "node:net";
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, planInvoices, planSubscriptions, planVisits, repairJobs, stripeEvents, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
+import { auditLog, reminderSends, planInvoices, planSubscriptions, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { claimCoverage } from "@/lib/claims/coverage";
 import { env } from "@/lib/env";
@@ -19,6 +19,7 @@ import { livePlanOfPiece, startPlanByOtherMeans, startPlanCheckout } from "@/lib
 import { createTemplate, planPrice, templatesFitting, updateTemplate } from "@/lib/plans/templates";
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/visits";
+import { runReminderPass } from "@/lib/reminders/pass";
 import { handleStripeWebhook } from "@/lib/repairs/payment";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
@@ -303,3 +304,17 @@ function addMonthsIso(iso: string, months: number): string {
   const last = new Date(Date.UTC(t.getUTCFullYear(), t.getUTCMonth() + 1, 0)).getUTCDate();
   return `${t.getUTCFullYear()}-${String(t.getUTCMonth() + 1).padStart(2, "0")}-${String(Math.min(d!, last)).padStart(2, "0")}`;
 }
+
+describe("included tasks are the studio's work", () => {
+  it("the reminder pass leaves out the tasks a running plan includes, and reminds as before without a plan", async () => {
+    const { studio, owner, piece, plan } = await setup();
+    getDb().update(usersTable).set({ emailVerifiedAt: new Date() }).where(eq(usersTable.id, owner.id)).run();
+    const { piece: bare } = createPiece(studio, { ownerId: owner.id, deliveredOn: piece.deliveredOn });
+    startPlanByOtherMeans((await memberContext(studio, "admin")), { pieceId: piece.id, templateId: plan.id, paidByNote: "Cash at the studio" });
+    await runReminderPass({ now: new Date(), deliver: false });
+    const keys = (pieceId: string) => getDb().select().from(reminderSends).where(eq(reminderSends.pieceId, pieceId)).all().map((r) => r.taskKey);
+    // The oiled top (hard-wax oil, delivered three years ago) is overdue for re-oiling on both pieces.
+    expect(keys(bare.id).some((k) => k.includes("reoil"))).toBe(true);
+    expect(keys(piece.id).some((k) => k.includes("reoil"))).toBe(false);
+  });
+});
