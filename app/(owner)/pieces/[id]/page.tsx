@@ -46,8 +46,9 @@ function Section({ id, title, children }: { id: string; title: string; children:
 
 export default async function OwnerPiecePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const piece = await forPage(async () => getMyPiece(await requireUser(), id));
-  const visitPhotos = visitPhotosOf({ kind: "owner", user: await forPage(requireUser) }, { pieceId: id });
+  const user = await forPage(requireUser);
+  const piece = await forPage(async () => getMyPiece(user, id));
+  const visitPhotos = visitPhotosOf({ kind: "owner", user }, { pieceId: id });
   const wood = piece.species.secondary ? `${piece.species.primary} and ${piece.species.secondary}` : piece.species.primary;
   const facts: [string, string][] = [
     ["Wood", wood],
