@@ -954,6 +954,8 @@ export const clients = sqliteTable(
   },
   (t) => [
     index("clients_studio_name_idx").on(t.studioId, t.name),
+    // The clients list reads a page in name order (lib/clients/list.ts) and stops there.
+    index("clients_studio_name_nocase_idx").on(t.studioId, sql`${t.name} COLLATE NOCASE`, t.id),
     index("clients_studio_phone_idx").on(t.studioId, t.phone),
     uniqueIndex("clients_studio_email_uq").on(t.studioId, t.email).where(sql`email IS NOT NULL`),
     uniqueIndex("clients_studio_user_uq").on(t.studioId, t.userId).where(sql`user_id IS NOT NULL`),
@@ -1031,6 +1033,8 @@ export const threads = sqliteTable(
   (t) => [
     index("threads_studio_state_idx").on(t.studioId, t.state, t.lastMessageAt),
     index("threads_piece_idx").on(t.pieceId),
+    // A client's timeline reads the messages of their threads (lib/clients/timeline.ts).
+    index("threads_owner_idx").on(t.ownerId, t.studioId),
     uniqueIndex("threads_claim_uq").on(t.claimId),
     uniqueIndex("threads_job_uq").on(t.jobId),
     uniqueIndex("threads_visit_uq").on(t.visitId),
