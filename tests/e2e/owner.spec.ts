@@ -177,7 +177,7 @@ test("the demo owner sees their pieces with schedules, a lived-in care log and t
 
   await page.goto("/register");
   await page.getByLabel("Registration code").fill("ABCD-EFGH-JKMN-0");
-  await page.getByRole("button", { name: "Register this piece" }).click();
+  await page.getByRole("button", { name: "Find the piece" }).click();
   await expect(page.getByText(/that code has a typo — check the card/i)).toBeVisible();
   await expect(page.getByLabel("Registration code")).toHaveValue("ABCD-EFGH-JKMN-0");
   await shot(page, "13-register-typo");
@@ -223,7 +223,10 @@ test("an owner hands a piece on: release with a fresh code, and a second owner r
   await signIn(next, ACCOUNTS.owner);
   await next.goto("/register");
   await next.getByLabel("Registration code").fill(fresh.toLowerCase().replace(/-/g, " "));
-  await next.getByRole("button", { name: "Register this piece" }).click();
+  await next.getByRole("button", { name: "Find the piece" }).click();
+  // A typed code shows which piece it is, and asks, as the card's QR code does.
+  await expect(next.getByRole("heading", { name: card.title })).toBeVisible();
+  await next.getByRole("button", { name: "Register this piece to my account" }).click();
   await expect(next).toHaveURL(new RegExp(`/pieces/${card.pieceId}`));
   await expect(next.locator("#warranty")).toContainText("Stayed with the first owner");
   await shot(next, "22-second-owner");

@@ -5,6 +5,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getMyPiece } from "@/lib/owner/pieces";
+import { CODE_WHEN_PIECE_CHANGES_HANDS } from "@/lib/pieces/card-words";
 import { releaseAction } from "./actions";
 
 export const metadata: Metadata = { title: "Hand a piece on" };
@@ -25,9 +26,11 @@ export default async function TransferPage({ params }: { params: Promise<{ id: s
       <PageHeader title="Selling or giving it away?" lead={`Release the ${piece.title} so its next owner can register it.`} />
       <Card className="mb-4 space-y-3 text-sm">
         <h2 className="text-base font-semibold">What happens</h2>
+        {/* The same sentence is printed on the drawer card. */}
+        <p>{CODE_WHEN_PIECE_CHANGES_HANDS}</p>
         <ol className="list-decimal space-y-1 pl-5">
           <li>The piece leaves your account and its reminders stop.</li>
-          <li>You get a fresh registration code, shown once here and e-mailed to you. The code on the drawer card stops working.</li>
+          <li>You get the new registration code, shown once here and e-mailed to you. The code on the drawer card stops working.</li>
           <li>Hand the code to the next owner; they register the piece with it. {piece.studio.name} is told the piece changed hands.</li>
           <li>The care log stays with the piece, so the care you gave still counts. Your notes and photos are not shown to the next owner.</li>
         </ol>
