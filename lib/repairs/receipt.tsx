@@ -1,7 +1,9 @@
 import "server-only";
-import { Document, Page, StyleSheet, Text, View, renderToBuffer } from "@react-pdf/renderer";
+import { Document, Image, Page, StyleSheet, Text, View, renderToBuffer } from "@react-pdf/renderer";
 import { conflict } from "@/lib/errors";
 import { formatInstant } from "@/lib/format";
+import { readStoredFile } from "@/lib/storage";
+import { accentOf } from "@/lib/studio/brand";
 import type { JobActor } from "./access";
 import { jobFigures, type JobFigures } from "./figures";
 import { getOwnerJob, getStudioJob, type JobView } from "./jobs";
@@ -14,11 +16,10 @@ import { paymentCounts } from "./states";
 const ink = "#1f2328";
 const muted = "#625b50";
 const rule = "#e4dccf";
-const resin = "#0f5e5e";
 
 const s = StyleSheet.create({
   page: { padding: 48, fontSize: 10, color: ink, fontFamily: "Helvetica", backgroundColor: "#fffdf9" },
-  studio: { fontSize: 14, fontFamily: "Helvetica-Bold", color: resin },
+  studio: { fontSize: 14, fontFamily: "Helvetica-Bold" },
   small: { fontSize: 9, color: muted, marginTop: 2 },
   title: { fontSize: 20, fontFamily: "Times-Bold", marginTop: 22, marginBottom: 10 },
   row: { flexDirection: "row", borderBottomWidth: 1, borderBottomColor: rule, paddingVertical: 5 },
@@ -33,7 +34,8 @@ const s = StyleSheet.create({
 });
 
 export type ReceiptData = {
-  studio: { name: string; address: string };
+  /** The studio's brand: its name in its accent (4.5:1 or more on the page, lib/studio/brand.ts) and its logo. */
+  studio: { name: string; address: string; phone: string; accent: string; logoKey: string | null };
   ownerName: string;
   pieceTitle: string;
   jobTitle: string;
@@ -66,13 +68,16 @@ function pdfFigures(f: JobFigures): JobFigures {
   };
 }
 
-export function ReceiptDocument({ d }: { d: ReceiptData }) {
+export function ReceiptDocument({ d, logo = null }: { d: ReceiptData; logo?: Buffer | null }) {
   const f = pdfFigures(d.figures);
   return (
     <Document title={`Receipt — ${d.jobTitle}`} author={d.studio.name} subject="Receipt">
       <Page size={d.letter ? "LETTER" : "A4"} style={s.page}>
-        <Text style={s.studio}>{d.studio.name}</Text>
+        {/* eslint-disable-next-line jsx-a11y/alt-text -- react-pdf's Image, which has no alt; the studio's name follows in text */}
+        {logo ? <Image src={{ data: logo, format: "jpg" }} style={{ height: 40, objectFit: "contain", alignSelf: "flex-start", marginBottom: 6 }} /> : null}
+        <Text style={[s.studio, { color: d.studio.accent }]}>{d.studio.name}</Text>
         {d.studio.address ? <Text style={s.small}>{d.studio.address}</Text> : null}
+        {d.studio.phone ? <Text style={s.small}>{d.studio.phone}</Text> : null}
         {f.taxNumber ? <Text style={s.small}>Tax number: {f.taxNumber}</Text> : null}
         <Text style={s.title}>Receipt</Text>
         <View style={s.row}>
@@ -111,6 +116,7 @@ export function ReceiptDocument({ d }: { d: ReceiptData }) {
           <Total label="Total paid" amount={f.text.total} strong />
         </View>
         {f.roundingNote ? <Text style={s.small}>{f.roundingNote}</Text> : null}
+        <Text style={[s.small, { marginTop: 24, fontSize: 7 }]}>care records by Grainward</Text>
       </Page>
     </Document>
   );
@@ -124,7 +130,7 @@ export function receiptData(actor: JobActor, jobId: string): ReceiptData {
   // Staff read the time in the studio's zone, the owner in theirs; the zone is printed beside it.
   const tz = actor.ctx || !view.owner ? view.studio.timeZone : view.owner.timeZone;
   return {
-    studio: { name: view.studio.name, address: view.studio.address },
+    studio: { name: view.studio.name, address: view.studio.address, phone: view.studio.phone, accent: accentOf(view.studio.accent).hex, logoKey: view.studio.logoKey },
     ownerName: view.owner?.name ?? "—",
     pieceTitle: view.piece.title,
     jobTitle: view.job.title,
@@ -137,6 +143,7 @@ export function receiptData(actor: JobActor, jobId: string): ReceiptData {
 
 export async function receiptPdf(actor: JobActor, jobId: string): Promise<{ buffer: Buffer; filename: string; data: ReceiptData }> {
   const data = receiptData(actor, jobId);
-  const buffer = await renderToBuffer(<ReceiptDocument d={data} />);
+  const logo = data.studio.logoKey ? await readStoredFile(data.studio.logoKey).catch(() => null) : null;
+  const buffer = await renderToBuffer(<ReceiptDocument d={data} logo={logo} />);
   return { buffer, filename: `receipt-${jobId.slice(0, 8)}.pdf`, data };
 }

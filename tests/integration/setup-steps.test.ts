@@ -5,6 +5,9 @@
 // message read back from the real SMTP sink, with the studio's brand in it. All data invented.
 import fs from "node:fs";
 import path from "node:path";
+import { createElement } from "react";
+import { renderToBuffer } from "@react-pdf/renderer";
+import { getDocument, OPS } from "pdfjs-dist/legacy/build/pdf.mjs";
 import { eq } from "drizzle-orm";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -16,6 +19,8 @@ import { decrypt } from "@/lib/crypto";
 import { env } from "@/lib/env";
 import { startStripeFake, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { AppError } from "@/lib/errors";
+import { jobFigures } from "@/lib/repairs/figures";
+import { ReceiptDocument, type ReceiptData } from "@/lib/repairs/receipt";
 import {
   createPolicyVersion,
   updateProfile,
@@ -341,5 +346,33 @@ describe("set-up steps", () => {
       `${env.APP_URL.replace(/\/$/, "")}/api/studio-logo/${studio.id}?v=`,
     );
     expect(m.text).toContain("care records by Grainward");
+  });
+
+  it("prints the studio's logo, name, phone and Grainward's small line on the receipt", async () => {
+    const logo = await sharp({ create: { width: 200, height: 80, channels: 3, background: "#6a3462" } }).jpeg().toBuffer();
+    const figures = jobFigures({ currency: "USD", lines: [], subtotalMinor: 0, coveredMinor: 0, coveredPct: 0, netMinor: 0, taxMinor: 0, totalMinor: 0, pricingRules: {} } as never, { country: "US", taxNumber: "" });
+    const d: ReceiptData = {
+      studio: { name: "Brackenfold Tables (invented)", address: "9 Invented Lane", phone: "+1 555 0142", accent: ACCENTS.plum.hex, logoKey: "files/xx/unused.jpg" },
+      ownerName: "An Owner (invented)",
+      pieceTitle: "Invented table",
+      jobTitle: "Invented repair",
+      paidOn: "2026-06-01 10:00 EDT",
+      reference: "pi_test_invented",
+      figures,
+      letter: true,
+    };
+    const render = (receipt: ReceiptData, withLogo: Buffer | null) => renderToBuffer(createElement(ReceiptDocument, { d: receipt, logo: withLogo }) as Parameters<typeof renderToBuffer>[0]);
+    const read = async (buffer: Buffer) => {
+      const doc = await getDocument({ data: new Uint8Array(buffer), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl: path.resolve("node_modules/pdfjs-dist/standard_fonts") + "/" }).promise;
+      const page = await doc.getPage(1);
+      const text = (await page.getTextContent()).items.map((it) => ("str" in it ? it.str : "")).join(" ");
+      const ops = (await page.getOperatorList()).fnArray;
+      return { text, images: ops.filter((op) => op === OPS.paintImageXObject).length };
+    };
+    const withLogo = await read(await render(d, logo));
+    for (const words of ["Brackenfold Tables (invented)", "+1 555 0142", "care records by Grainward"]) expect(withLogo.text).toContain(words);
+    expect(withLogo.images).toBe(1);
+    const without = await read(await render({ ...d, studio: { ...d.studio, logoKey: null } }, null));
+    expect(without.images).toBe(0);
   });
 });
