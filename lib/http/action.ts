@@ -62,7 +62,3 @@ function isNextControlFlow(e: unknown): boolean {
   return typeof digest === "string" && (digest.startsWith("NEXT_REDIRECT") || digest.startsWith("NEXT_HTTP_ERROR"));
 }
 
-/** @deprecated The older form, until every action names its roles: `action({ schema }, fn)`. */
-export function validatedAction<S extends z.ZodType, T>(schema: S, fn: (input: z.output<S>) => Promise<T | ActionResult<T>>) {
-  return action({ schema }, (input) => fn(input as z.output<S>));
-}

@@ -8,6 +8,3 @@ import type { FieldErrors } from "@/lib/errors";
 export type ActionResult<T = undefined> =
   | { ok: true; data: T; message?: string }
   | { ok: false; message: string; fieldErrors?: FieldErrors };
-
-/** @deprecated Moved to lib/http/action.ts as action({ roles, schema }, fn). */
-export { validatedAction } from "@/lib/http/action";

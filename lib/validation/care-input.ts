@@ -1,6 +1,6 @@
 // The care engine (lib/care) throws CareInputError when it is handed a value it cannot compute with
 // (a date past year 9999, a size of 0). Reaching it is a gap in a zod schema, not a server fault: the
-// route wrapper and validatedAction answer it as a 400 through this one mapping.
+// route() and action() wrappers (lib/http) answer it as a 400 through this one mapping.
 import { CareInputError } from "@/lib/care/errors";
 import { badRequest, isAppError, type AppError } from "@/lib/errors";
 

@@ -1,13 +1,12 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { requireUser } from "@/lib/auth/guards";
+import { action } from "@/lib/http/action";
 import { updatePreferences } from "@/lib/owner/preferences";
-import { validatedAction } from "@/lib/validation/action";
 import { preferencesSchema } from "@/lib/validation/owner";
 
-export const savePreferencesAction = validatedAction(preferencesSchema, async (input) => {
-  const saved = updatePreferences(await requireUser(), input);
+export const savePreferencesAction = action({ roles: ["owner"], schema: preferencesSchema }, (input, actor) => {
+  const saved = updatePreferences(actor.user, input);
   revalidatePath("/", "layout");
   return saved;
 });

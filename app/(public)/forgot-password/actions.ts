@@ -2,10 +2,10 @@
 
 import { requestPasswordReset } from "@/lib/auth/accounts";
 import { clientIp } from "@/lib/auth/session";
-import { validatedAction } from "@/lib/validation/action";
+import { action } from "@/lib/http/action";
 import { forgotPasswordSchema } from "@/lib/validation/auth";
 
-export const forgotPasswordAction = validatedAction(forgotPasswordSchema, async (input) => {
+export const forgotPasswordAction = action({ schema: forgotPasswordSchema }, async (input) => {
   await requestPasswordReset(input, await clientIp());
   return { ok: true as const, data: undefined };
 });

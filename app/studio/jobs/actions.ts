@@ -1,12 +1,11 @@
 "use server";
 
 import { redirect } from "next/navigation";
-import { requireStaff } from "@/lib/auth/guards";
+import { action } from "@/lib/http/action";
 import { createJob } from "@/lib/repairs/jobs";
-import { validatedAction } from "@/lib/validation/action";
 import { createJobSchema } from "@/lib/validation/jobs";
 
-export const createJobAction = validatedAction(createJobSchema, async ({ from, id }) => {
-  const job = createJob(await requireStaff(), from, id);
+export const createJobAction = action({ roles: ["admin", "staff"], schema: createJobSchema }, async ({ from, id }, actor) => {
+  const job = createJob(actor, from, id);
   redirect(`/studio/jobs/${job.id}`);
 });

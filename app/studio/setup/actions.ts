@@ -1,47 +1,41 @@
 "use server";
 
+import { action } from "@/lib/http/action";
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
-import { requireAdmin } from "@/lib/auth/guards";
 import { accentSchema, mailSenderSchema, stripeKeySchema } from "@/lib/studio/setup-schema";
 import { saveAccent, saveMailSender, saveStripeKey, sendTestMessage, startCatalog } from "@/lib/studio/setup-steps";
 import { ACCENTS, type AccentName } from "@/lib/studio/brand";
-import { validatedAction } from "@/lib/validation/action";
 
 // The set-up's own steps; the others reuse the settings, catalog and team actions.
 
 const nothing = z.object({}).strict();
 
-export const saveAccentAction = validatedAction(accentSchema, async (input) => {
-  const ctx = await requireAdmin();
+export const saveAccentAction = action({ roles: ["admin"], schema: accentSchema }, async (input, ctx) => {
   const accent = saveAccent(ctx, input) as AccentName;
   revalidatePath("/studio", "layout");
   return { ok: true as const, data: undefined, message: `${ACCENTS[accent].label} saved as your colour.` };
 });
 
-export const startCatalogAction = validatedAction(nothing, async () => {
-  const ctx = await requireAdmin();
+export const startCatalogAction = action({ roles: ["admin"], schema: nothing }, async (_input, ctx) => {
   const n = startCatalog(ctx);
   revalidatePath("/studio/setup/catalog");
   return { ok: true as const, data: undefined, message: `${n} starting entries added, one per finish class. Check each against the maker's data sheet.` };
 });
 
-export const saveStripeKeyAction = validatedAction(stripeKeySchema, async (input) => {
-  const ctx = await requireAdmin();
+export const saveStripeKeyAction = action({ roles: ["admin"], schema: stripeKeySchema }, async (input, ctx) => {
   await saveStripeKey(ctx, input);
   revalidatePath("/studio/setup/payments");
   return { ok: true as const, data: undefined, message: "Stripe accepted the key; it is saved." };
 });
 
-export const saveMailSenderAction = validatedAction(mailSenderSchema, async (input) => {
-  const ctx = await requireAdmin();
+export const saveMailSenderAction = action({ roles: ["admin"], schema: mailSenderSchema }, async (input, ctx) => {
   saveMailSender(ctx, input);
   revalidatePath("/studio/setup/mail");
   return { ok: true as const, data: undefined, message: "Sender name and reply address saved." };
 });
 
-export const sendTestMessageAction = validatedAction(nothing, async () => {
-  const ctx = await requireAdmin();
+export const sendTestMessageAction = action({ roles: ["admin"], schema: nothing }, async (_input, ctx) => {
   const r = await sendTestMessage(ctx);
   return { ok: true as const, data: undefined, message: r.queued ? `The mail server is not answering; the test message to ${r.to} will be sent when it is.` : `Test message sent to ${r.to}.` };
 });

@@ -1,13 +1,12 @@
 "use server";
 
-import { requireUser } from "@/lib/auth/guards";
+import { action } from "@/lib/http/action";
 import { releasePiece } from "@/lib/owner/transfer";
-import { validatedAction } from "@/lib/validation/action";
 import { releaseSchema } from "@/lib/validation/owner";
 
 export async function releaseAction(pieceId: string, input: unknown) {
-  return validatedAction(releaseSchema, async (values) => {
-    const { code, pieceId: id } = await releasePiece(await requireUser(), pieceId, values);
+  return action({ roles: ["owner"], schema: releaseSchema }, async (values, actor) => {
+    const { code, pieceId: id } = await releasePiece(actor.user, pieceId, values);
     return { code, pieceId: id };
   })(input as never);
 }
