@@ -2,6 +2,7 @@ import { relations, sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex, type AnySQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { WarrantyPolicy } from "../lib/care/coverage";
 import type { Quote } from "../lib/care/quote";
+import type { ClaimSuggestion } from "../lib/claims/suggestion";
 import type { ClaimAnswers } from "../lib/validation/claims";
 import type { JobQuoteInput } from "../lib/validation/jobs";
 import type { JobLine, PriceListEntry, PricingRules, RoundingRule, TaxMode, LineKind } from "../lib/repairs/lines";
@@ -563,7 +564,7 @@ export const claims = sqliteTable(
     coveredPct: integer("covered_pct"),
     decisionReason: text("decision_reason"),
     /** The coverage check's suggestion at the time of the decision (lib/care checkCoverage output). */
-    suggestion: text("suggestion", { mode: "json" }).$type<Record<string, unknown>>(),
+    suggestion: text("suggestion", { mode: "json" }).$type<ClaimSuggestion>(),
     firstAnsweredAt: integer("first_answered_at", { mode: "timestamp_ms" }),
     decidedAt: integer("decided_at", { mode: "timestamp_ms" }),
     decidedById: text("decided_by_id").references(() => users.id, { onDelete: "set null" }),

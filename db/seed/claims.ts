@@ -3,7 +3,7 @@
 // here is invented: the damage, the words, the pictures (drawn by sharp, not photographed).
 import { and, eq } from "drizzle-orm";
 import sharp from "sharp";
-import { claimCoverage } from "@/lib/claims/coverage";
+import { claimCoverage, suggestionRecord } from "@/lib/claims/coverage";
 import { appendMessage, threadFor } from "@/lib/messages/store";
 import { storeImage } from "@/lib/storage";
 import type { Db } from "../client";
@@ -159,7 +159,7 @@ export async function seedClaims(db: Db, studioId: string, now = new Date()): Pr
             ownerships: db.select().from(ownerships).where(eq(ownerships.pieceId, piece.id)).all(),
             timeZone: studio.timeZone,
           });
-          return { suggestion: c.check?.suggestion ?? null, suggestedCoveredPct: c.check?.suggestedCoveredPct ?? null, reasons: c.check?.reasons ?? [], policyVersion: c.policyVersion };
+          return suggestionRecord(c);
         })()
       : null;
     const firstStaff = spec.thread.find((m) => m.fromStudio);

@@ -7,6 +7,7 @@ import { CareInputError } from "@/lib/care/errors";
 import { toCareLayers, toCareLog, toCarePiece, toCatalog } from "@/lib/pieces/care-inputs";
 import { planOnDay, withPlanTerms, type PlanOnDay } from "@/lib/plans/coverage-terms";
 import { claimAnswersSchema, type ClaimAnswers } from "@/lib/validation/claims";
+import type { ClaimSuggestion } from "./suggestion";
 
 /** The stored answers, read back through the same schema (rows written before a change fall back to "not sure"). */
 export function readAnswers(raw: unknown): ClaimAnswers {
@@ -95,7 +96,7 @@ export function claimCoverage(input: {
 }
 
 /** What a decision records beside itself: the suggestion, its share and every reason. */
-export function suggestionRecord(c: ClaimCoverage): Record<string, unknown> {
+export function suggestionRecord(c: ClaimCoverage): ClaimSuggestion {
   if (!c.check) return { suggestion: null, error: c.error, policyVersion: c.policyVersion, notes: c.notes };
   return {
     suggestion: c.check.suggestion,

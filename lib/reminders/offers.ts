@@ -7,7 +7,6 @@ import { CARE_TASK_LABELS, CARE_TASK_KINDS, type CareTaskKind } from "@/lib/care
 import { conflict, notFound } from "@/lib/errors";
 import { offerAcceptSchema } from "@/lib/validation/reminders";
 import { offerView, type OfferView } from "./content";
-import type { Quote } from "@/lib/care/quote";
 import { offerUrl, readOfferToken } from "./tokens";
 
 // A refresh offer opened from its e-mail link. The signed token is the authority (no sign-in needed,
@@ -48,7 +47,7 @@ export function getOfferByToken(token: unknown): OfferPage {
   const { offer, pieceTitle, studioName, studioEmail, country, unitSystem } = offerRow(token);
   const kind = kindOfTaskKey(offer.taskKey);
   return {
-    ...offerView(offer.quote as unknown as Quote, offerUrl(offer.id), unitSystem, country),
+    ...offerView(offer.quote, offerUrl(offer.id), unitSystem, country),
     status: offer.status,
     pieceTitle,
     studioName,

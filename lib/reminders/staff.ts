@@ -5,7 +5,6 @@ import { getDb } from "@/db/client";
 import { careLogEntries, finishLayers, finishProducts, pieces, refreshOffers, reminderSends, studios, users } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { addDays, localDate } from "@/lib/care/dates";
-import type { Quote } from "@/lib/care/quote";
 import { CARE_TASK_LABELS, type ReminderStep } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
 import { containsText } from "@/lib/text-match";
@@ -214,7 +213,7 @@ export async function resendReminder(ctx: StudioContext, rawId: unknown, now = n
       piece: { id: piece.id, title: piece.title, use: piece.use, sun: piece.sun, shape: topShape(piece), hasResin: piece.resinKind !== "none" },
       studio: { id: ctx.studio.id, name: ctx.studio.name, country: ctx.studio.country },
       product: task.productId ? byId.get(task.productId) : undefined,
-      offer: offerRow ? { id: offerRow.id, quote: offerRow.quote as unknown as Quote } : undefined,
+      offer: offerRow ? { id: offerRow.id, quote: offerRow.quote } : undefined,
       ownerToday: clocks.at(owner.timeZone).date,
     },
     now.getTime(),

@@ -110,7 +110,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                 <p className="text-lg font-semibold">{decisionText(claim.decision, claim.coveredPct)}</p>
                 {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
                 <p className="text-sm text-muted">
-                  Decided {claim.decidedAt ? formatInstant(claim.decidedAt, v.studio.timeZone) : "—"}; the check suggested {String((claim.suggestion as { suggestion?: string } | null)?.suggestion ?? "—").replace("_", " ")}.
+                  Decided {claim.decidedAt ? formatInstant(claim.decidedAt, v.studio.timeZone) : "—"}; the check suggested {(claim.suggestion?.suggestion ?? "—").replace("_", " ")}.
                 </p>
               </div>
             ) : null}
