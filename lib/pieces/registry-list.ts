@@ -14,6 +14,7 @@ import { studioProducts, today } from "./registry-common";
 import {
   buildFilter,
   countMatches,
+  databaseVersion,
   ensureSqlFunctions,
   LIST_COUNT_CAP,
   loadForRows,
@@ -52,12 +53,33 @@ function nextCareOf(schedule: CareSchedule | null): RegistryRow["nextCare"] {
   return t ? { label: t.label, dueOn: t.dueOn, status: t.status } : null;
 }
 
+// A row's next care depends only on the piece's record, the studio's catalog and the day: kept per
+// process for the last 10,000 rows shown, each with the database version it was computed at (taken
+// before the request read anything), so any change anywhere recomputes it.
+const nextCares = new Map<string, { version: string; nextCare: RegistryRow["nextCare"] }>();
+
+function nextCareFor(pieceId: string, timeZone: string, day: string, version: string, schedule: () => CareSchedule | null): RegistryRow["nextCare"] {
+  const key = `${pieceId}|${timeZone}|${day}`;
+  const hit = nextCares.get(key);
+  if (hit && hit.version === version) return hit.nextCare;
+  const nextCare = nextCareOf(schedule());
+  if (nextCares.size >= 10_000) nextCares.delete(nextCares.keys().next().value!);
+  nextCares.set(key, { version, nextCare });
+  return nextCare;
+}
+
 function safeSchedule(l: Loaded, catalog: CatalogEntry[], timeZone: string, now: Date): CareSchedule | null {
   try {
     return scheduleFromColumns({ piece: l.piece, layers: l.layers, careLog: l.careLog, catalog, timeZone, now });
   } catch {
     return null; // a record the care engine cannot use yet (e.g. a bad imported date) still lists
   }
+}
+
+/** What the count of a filter depends on: the studio, the filters and search (not the page or order), the day. */
+function filterKey(ctx: StudioContext, q: PieceListQuery, useCode: boolean, t: string): string {
+  const { page: _page, pageSize: _pageSize, sort: _sort, dir: _dir, ...filters } = q;
+  return JSON.stringify([ctx.studio.id, t, useCode, filters]);
 }
 
 /** GET /api/pieces: search, filters, sorting and pagination of the studio's registry. */
@@ -68,7 +90,9 @@ export function listPieces(ctx: StudioContext, raw: unknown, now = new Date()): 
 /** The registry query; `all` ignores pagination (CSV export of the current filter). */
 export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: boolean): RegistryPage {
   const q = pieceListQuerySchema.parse(raw);
-  ensureSqlFunctions(getDb());
+  const db = getDb();
+  ensureSqlFunctions(db);
+  const version = databaseVersion(db); // before any read: see nextCareFor
   const terms = policyTerms(ctx.studio.id);
   const t = today(ctx, now);
   let catalog: CatalogEntry[] | null = null;
@@ -82,7 +106,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
       const limit = f.fts ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
       const page = selectListRows(f, q, all ? -1 : q.pageSize, offset);
       // A page that is not full tells the total without counting.
-      const n = all || (page.length < q.pageSize && (page.length > 0 || q.page === 1)) ? offset + page.length : countMatches(f, limit + 1);
+      const n = all || (page.length < q.pageSize && (page.length > 0 || q.page === 1)) ? offset + page.length : countMatches(f, limit + 1, filterKey(ctx, q, useCode, t));
       const capped = !all && n > limit;
       return { f, ids: page.map((r) => r.id), total: capped ? limit : n, capped, loaded: loadForRows(page), schedules: null as Map<string, CareSchedule | null> | null };
     }
@@ -122,7 +146,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
   for (const id of result.ids) {
     const l = loaded.get(id);
     if (!l) continue;
-    const schedule = result.schedules ? (result.schedules.get(id) ?? null) : safeSchedule(l, studioCatalog(), ctx.studio.timeZone, now);
+    const nextCare = result.schedules ? nextCareOf(result.schedules.get(id) ?? null) : nextCareFor(id, ctx.studio.timeZone, t, version, () => safeSchedule(l, studioCatalog(), ctx.studio.timeZone, now));
     const ends = warrantyEndsOn(l.piece, terms);
     rows.push({
       id,
@@ -135,7 +159,7 @@ export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: 
       registered: l.piece.ownerId !== null,
       archived: l.piece.archivedAt !== null,
       finishClasses: [...new Set(l.layers.map((x) => x.finishClass))],
-      nextCare: nextCareOf(schedule),
+      nextCare,
       warrantyEndsOn: ends,
       underWarranty: ends !== null && ends >= t,
     });

@@ -135,9 +135,36 @@ export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offs
   return getDb().all<ListPieceRow>(sql`SELECT ${LIST_COLUMNS} FROM ${fromClause(f)} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${limit} OFFSET ${offset}`);
 }
 
-/** How many pieces match the filter, counting no further than `upTo`. */
-export function countMatches(f: Filter, upTo: number): number {
-  return getDb().get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.count} LIMIT ${upTo})`)?.n ?? 0;
+/**
+ * How many pieces match the filter, counting no further than `upTo`. Counting walks up to `upTo`
+ * matches (the most expensive read of a search page), and the pager asks again for every page and
+ * every repeat of a search, so counts are kept per process until the database changes: `key` names
+ * the filter, and the database's version (PRAGMA data_version moves when another connection commits;
+ * total_changes() when this one writes) must be the one the count was taken at.
+ */
+export function countMatches(f: Filter, upTo: number, key: string): number {
+  const db = getDb();
+  const version = databaseVersion(db);
+  const cacheKey = `${upTo}|${key}`;
+  const hit = counts.get(cacheKey);
+  if (hit && hit.version === version) return hit.n;
+  const n = db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.count} LIMIT ${upTo})`)?.n ?? 0;
+  if (counts.size >= 1000) counts.delete(counts.keys().next().value!);
+  counts.set(cacheKey, { version, n });
+  return n;
+}
+
+const counts = new Map<string, { version: string; n: number }>();
+
+const versionStatements = perConnection((db) => ({
+  dataVersion: db.$client.prepare("PRAGMA data_version").pluck(),
+  totalChanges: db.$client.prepare("SELECT total_changes()").pluck(),
+}));
+
+/** Changes whenever anything in the database changed since it was last asked (any connection, this one included). */
+export function databaseVersion(db: Db): string {
+  const st = versionStatements(db);
+  return `${db.$client.name}|${st.dataVersion.get() as number}|${st.totalChanges.get() as number}`;
 }
 
 /** A text search counts its matches up to this many ("1,000+"); counting further would read every match. */
