@@ -1,8 +1,10 @@
-// `npm run bench`: builds the app once, then runs every tests/bench/*.bench.ts in turn, each in its own
+// `npm run bench`: builds the app once, then runs every tests/bench/*.bench.ts in turn (any file of that
+// name is picked up: a script that prints its figures with result() from ./result), each in its own
 // `tsx` child process, holding the shared build lock throughout; writes tests/bench/REPORT.md with one
-// row per figure (target, measured, ratio to its floor) and each benchmark's output, and exits non-zero
-// if any figure missed its target. `npm run bench -- server` runs only the files whose names match
-// (and leaves REPORT.md alone).
+// row per figure (target, measured, floor, ratio to the floor) and each benchmark's output, and exits
+// non-zero if any figure missed its target. `npm run bench -- server` runs only the files whose names
+// match (and leaves REPORT.md alone); `npm run bench -- --large` adds the sweep's largest sizes
+// (BENCH_LARGE=1 in each benchmark: 1,000,000 pieces).
 import { spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
 import { readdirSync, writeFileSync } from "node:fs";
@@ -15,7 +17,9 @@ import { bin, buildOnce, holdBuildLock, PIECES, root } from "./server-harness";
 holdBuildLock(fileURLToPath(import.meta.url));
 
 const dir = path.dirname(fileURLToPath(import.meta.url));
-const only = process.argv.slice(2);
+const args = process.argv.slice(2);
+const large = args.includes("--large");
+const only = args.filter((a) => !a.startsWith("--"));
 const files = readdirSync(dir)
   .filter((f) => f.endsWith(".bench.ts") && (only.length === 0 || only.some((o) => f.includes(o))))
   .sort();
@@ -42,7 +46,7 @@ const rows: Row[] = [];
 for (const file of files) {
   console.log(`\n▶ ${file}`);
   const t0 = Date.now();
-  const r = spawnSync(bin("tsx"), [path.join(dir, file)], { cwd: root, encoding: "utf8", maxBuffer: 64 * 1024 * 1024, env: { ...process.env, BENCH_SKIP_BUILD: "1" } });
+  const r = spawnSync(bin("tsx"), [path.join(dir, file)], { cwd: root, encoding: "utf8", maxBuffer: 64 * 1024 * 1024, env: { ...process.env, BENCH_SKIP_BUILD: "1", ...(large ? { BENCH_LARGE: "1" } : {}) } });
   const output = `${r.stdout ?? ""}${r.stderr ?? ""}`;
   process.stdout.write(output);
   const results = output
@@ -60,12 +64,13 @@ const report = [
   "",
   `Written by \`npm run bench\` on ${new Date().toISOString()}: ${machine}; ${PIECES.toLocaleString("en-US")} synthetic pieces; a production build; load average ${os.loadavg().map((l) => l.toFixed(1)).join(" / ")} at the end; ${((Date.now() - started) / 1000).toFixed(0)} s in all.`,
   `Machine speed at the start (for comparing runs on different machines): ${speed}.`,
-  "Each benchmark file says where its target comes from; the floor is what the figure is compared with in the same run (ratio = measured ÷ floor, except throughput, where it is measured ÷ bare route).",
+  "Each benchmark file says where its target comes from; the floor is what the figure is compared with in the same run (ratio = measured ÷ floor, except throughput, where it is measured ÷ bare route). A figure without a floor is marked so.",
   "",
   "| figure | target | measured | floor | ratio | verdict |",
   "|---|---|---|---|---|---|",
-  ...all.map((x) => `| ${cell(x.figure)} | ${cell(x.target)} | ${cell(x.measured)} | ${cell(x.floor)} | ${x.ratio === null ? "—" : x.ratio.toFixed(2)} | ${x.ok ? "met" : "**missed**"} |`),
+  ...all.map((x) => `| ${cell(x.figure)} | ${cell(x.target)} | ${cell(x.measured)} | ${cell(x.floor)} | ${x.ratio === null ? "no floor" : x.ratio.toFixed(2)} | ${x.ok ? "met" : "**missed**"} |`),
   ...rows.filter((r) => r.status !== 0 && r.results.every((x) => x.ok)).map((r) => `| ${r.file} | runs to the end | exit ${r.status} | — | — | **failed** |`),
+  ...rows.filter((r) => r.status === 0 && r.results.length === 0).map((r) => `| ${r.file} | prints its figures with result() | no figures | — | — | **no figures** |`),
   "",
   ...rows.flatMap((r) => [`## ${r.file} (${r.seconds.toFixed(0)} s)`, "", "```", r.output.split("\n").filter((l) => !l.startsWith("RESULT ")).join("\n").trim().split("\n").slice(-30).join("\n"), "```", ""]),
 ].join("\n");

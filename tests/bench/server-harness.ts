@@ -12,6 +12,8 @@ import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
 import Database from "better-sqlite3";
 import journal from "../../db/migrations/meta/_journal.json";
+import { openDatabase } from "../../db/client";
+import { applyMigrations } from "../../db/migrate";
 import { seedRegistry } from "./seed-registry";
 
 export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
@@ -37,18 +39,35 @@ export function buildOnce(): void {
 export type Seeded = { studioId: string; staffUserId: string; pieces: number; owners: number };
 
 /** A fresh copy of the seeded registry in `dir`; the seed itself is made once per migration set and size. */
-export function seededCopy(dir: string): { dbFile: string; seeded: Seeded } {
+export function seededCopy(dir: string, size = PIECES): { dbFile: string; seeded: Seeded } {
   const cacheDir = path.join(root, "tests/.tmp");
-  const cache = path.join(cacheDir, `bench-seed-${PIECES}-m${journal.entries.length}.db`);
+  const cache = path.join(cacheDir, `bench-seed-${size}-m${journal.entries.length}.db`);
   if (!fs.existsSync(`${cache}.json`)) {
     fs.mkdirSync(cacheDir, { recursive: true });
     for (const f of [cache, `${cache}-wal`, `${cache}-shm`]) fs.rmSync(f, { force: true });
     const t = performance.now();
-    const s = seedRegistry(cache, PIECES);
-    fs.writeFileSync(`${cache}.json`, JSON.stringify(s));
-    console.log(`seeded ${s.pieces.toLocaleString("en")} pieces (${s.owners} owners) in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+    // A seed made before the newest migrations is brought forward (much faster than seeding again).
+    const older = fs
+      .readdirSync(cacheDir)
+      .map((f) => new RegExp(`^bench-seed-${size}-m(\\d+)\\.db\\.json$`).exec(f))
+      .filter((m): m is RegExpExecArray => !!m && Number(m[1]) < journal.entries.length)
+      .sort((a, b) => Number(b[1]) - Number(a[1]))[0];
+    if (older) {
+      const from = path.join(cacheDir, older[0].replace(/\.json$/, ""));
+      fs.copyFileSync(from, cache);
+      const db = openDatabase(cache);
+      applyMigrations(db);
+      db.$client.pragma("wal_checkpoint(TRUNCATE)");
+      db.$client.close();
+      fs.copyFileSync(`${from}.json`, `${cache}.json`);
+      console.log(`brought the ${size.toLocaleString("en")}-piece seed from migration ${older[1]} to ${journal.entries.length} in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+    } else {
+      const s = seedRegistry(cache, size);
+      fs.writeFileSync(`${cache}.json`, JSON.stringify(s));
+      console.log(`seeded ${s.pieces.toLocaleString("en")} pieces (${s.owners} owners) in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+    }
   }
-  const dbFile = path.join(dir, "bench.db");
+  const dbFile = path.join(dir, `bench-${size}.db`);
   fs.copyFileSync(cache, dbFile);
   return { dbFile, seeded: JSON.parse(fs.readFileSync(`${cache}.json`, "utf8")) as Seeded };
 }
@@ -116,6 +135,36 @@ export async function load(url: string, opts: { connections: number; seconds: nu
   return { p50: percentile(lat, 50), p95: percentile(lat, 95), p99: percentile(lat, 99), requests: lat.length, perSecond: lat.length / opts.seconds, bad: r.non2xx + r.errors + r.timeouts };
 }
 
+/**
+ * A figure and its floor measured in alternating rounds (floor, figure, floor, figure, …), so that both
+ * see the same load from the rest of the machine; the latencies of each side's rounds are pooled.
+ */
+export async function paired(
+  floor: { url: string; headers?: Record<string, string> },
+  figure: { url: string; headers?: Record<string, string> },
+  opts: { connections: number; rounds: number; seconds: number },
+): Promise<{ floor: Load; figure: Load }> {
+  const side = () => ({ lat: [] as number[], bad: 0 });
+  const f = side();
+  const m = side();
+  const run = async (t: { url: string; headers?: Record<string, string> }, into: ReturnType<typeof side>) => {
+    const inst = autocannon({ url: t.url, connections: opts.connections, duration: opts.seconds, headers: t.headers });
+    inst.on("response", (_c: unknown, _s: number, _b: number, ms: number) => into.lat.push(ms));
+    const r = await inst;
+    into.bad += r.non2xx + r.errors + r.timeouts;
+  };
+  for (let i = 0; i < opts.rounds; i++) {
+    await run(floor, f);
+    await run(figure, m);
+  }
+  const done = (x: ReturnType<typeof side>): Load => {
+    x.lat.sort((a, b) => a - b);
+    const secs = opts.rounds * opts.seconds;
+    return { p50: percentile(x.lat, 50), p95: percentile(x.lat, 95), p99: percentile(x.lat, 99), requests: x.lat.length, perSecond: x.lat.length / secs, bad: x.bad };
+  };
+  return { floor: done(f), figure: done(m) };
+}
+
 export const fmt = (l: Load) => `p50 ${l.p50.toFixed(1)} ms, p95 ${l.p95.toFixed(1)} ms, p99 ${l.p99.toFixed(1)} ms, ${l.perSecond.toFixed(0)} req/s (${l.requests} requests, ${l.bad} non-2xx/errors)`;
 
 /** Resident memory of a process and its descendants, in bytes (Linux /proc). */
@@ -144,6 +193,11 @@ function treeRss(pid: number): number {
     stack.push(...(children.get(p) ?? []));
   }
   return total;
+}
+
+/** The server's resident memory now (with its child processes), in bytes. */
+export function residentMemory(pid: number): number {
+  return treeRss(pid);
 }
 
 /** Samples the server's resident memory every 100 ms until stopped; returns the peak. */

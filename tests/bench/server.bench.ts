@@ -1,14 +1,17 @@
-// The production server over 100,000 synthetic pieces (autocannon, 16 concurrent connections):
-//   - registry search: GET /api/pieces?q=<word> p95 < 50 ms, beside GET /api/me (session check only) as
-//     the floor;
-//   - throughput of GET /api/pieces?q=walnut as a ratio to a bare route handler that serializes the same
-//     JSON (app/api/bench/same-json/route.bench.ts, in bench builds only), measured in the same run: at least 0.4;
-//   - the owner's piece page /pieces/[id], server-rendered for a signed-in owner: p95 < 200 ms (200 ms is
-//     the server response time PageSpeed guidance long asked for — from memory);
-//   - first-load JavaScript of the owner pages: the scripts each page's HTML loads, gzip-compressed, at most
-//     170 kB (a common performance budget for a phone on a slow network, Alex Russell, "Can You Afford It?",
-//     2017 — from memory), with /sign-in's scripts as the floor (the framework and shared layout);
-//   - the app's peak resident memory through all of the above: under 512 MB (our choice).
+// The production server over 100,000 synthetic pieces (autocannon, 16 concurrent connections). Every verdict
+// is a ratio to a floor measured in the same run, each pair in alternating rounds (floor, figure, floor, …)
+// so that both see the same load from the rest of the machine; the absolute figures stand beside them.
+//   - registry search: GET /api/pieces?q=<word> p95 at most 1.5× GET /api/me's (the bare signed-in route:
+//     the session check only);
+//   - its throughput: GET /api/pieces?q=walnut at least 0.5 of a bare route handler that serializes the
+//     same JSON (app/api/bench/same-json/route.bench.ts, in bench builds only);
+//   - the owner's piece page /pieces/[id], server-rendered for a signed-in owner: p95 at most 3× GET /api/me's;
+//   - first-load JavaScript of the owner pages (the scripts each page's HTML loads, gzip-compressed) at most
+//     1.25× a blank page of the same build (app/bench/blank/page.bench.ts: the framework and root layout);
+//   - the app's peak resident memory through all of the above at most 5× its memory once started and idle.
+//   - size sweep: the registry search at 10,000 pieces (and 1,000,000 with `npm run bench -- --large`),
+//     against /api/me on the same server.
+// The ratio targets are our choices (issue-stated where the issue gives them: 3×, 1.5×, 0.5).
 // Prints one RESULT line per figure for tests/bench/run.ts's report.
 // Standalone: npx tsx tests/bench/server.bench.ts   (BENCH_SKIP_BUILD=1 reuses .next)
 import fs from "node:fs";
@@ -16,20 +19,22 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { gzipSync } from "node:zlib";
 import Database from "better-sqlite3";
-import { benchDir, root, buildOnce, fmt, holdBuildLock, load, PIECES, seededCopy, sessionCookie, startServer, watchMemory } from "./server-harness";
+import { benchDir, root, buildOnce, fmt, holdBuildLock, load, paired, PIECES, residentMemory, seededCopy, sessionCookie, startServer, watchMemory } from "./server-harness";
 import { result } from "./result";
 
 holdBuildLock(fileURLToPath(import.meta.url));
 
 const CONNECTIONS = 16;
-const SECONDS = 10;
+const ROUNDS = 3;
+const SECONDS = 3;
 // A species word (about 1 in 20 pieces), a title word (1 in 12), and an owner surname (rare).
 const WORDS = ["walnut", "burl", "Thornwood"];
-const SEARCH_P95_MS = 50;
-const RATIO_MIN = 0.4;
-const PAGE_P95_MS = 200;
-const JS_BUDGET_KB = 170;
-const MEMORY_MB = 512;
+const SEARCH_RATIO_MAX = 1.5;
+const THROUGHPUT_MIN = 0.5;
+const PAGE_RATIO_MAX = 3;
+const JS_RATIO_MAX = 1.25;
+const MEMORY_RATIO_MAX = 5;
+const SWEEP = [10_000, ...(process.env.BENCH_LARGE === "1" ? [1_000_000] : [])];
 
 async function scriptBytes(base: string, pagePath: string, cookie: string): Promise<{ raw: number; gzip: number; scripts: number }> {
   const res = await fetch(`${base}${pagePath}`, { headers: { cookie }, redirect: "manual" });
@@ -82,7 +87,10 @@ async function main() {
   buildOnce();
   const bareJson = path.join(dir, "same.json");
   const server = await startServer(dbFile, dir, { GRAINWARD_BENCH_JSON: bareJson });
+  const idleRss = residentMemory(server.pid);
   const memory = watchMemory(server.pid);
+  const opts = { connections: CONNECTIONS, rounds: ROUNDS, seconds: SECONDS };
+  const me = { url: `${server.base}/api/me`, headers: { cookie: staff } };
   try {
     const probe = await fetch(`${server.base}/api/pieces?q=walnut`, { headers: { cookie: staff } });
     if (!probe.ok) throw new Error(`GET /api/pieces answered ${probe.status}: ${await probe.text()}`);
@@ -96,38 +104,62 @@ async function main() {
     for (const [url, cookie] of [["/api/me", staff], ["/api/pieces?q=walnut", staff], ["/api/bench/same-json", ""], [`/pieces/${piece.id}`, owner]] as const) {
       await load(`${server.base}${url}`, { connections: CONNECTIONS, seconds: 4, headers: cookie ? { cookie } : {} });
     }
-    const me = await load(`${server.base}/api/me`, { connections: CONNECTIONS, seconds: 5, headers: { cookie: staff } });
-    console.log(`floor GET /api/me (session check only): ${fmt(me)}`);
     for (const word of WORDS) {
-      const l = await load(`${server.base}/api/pieces?q=${encodeURIComponent(word)}`, { connections: CONNECTIONS, seconds: SECONDS, headers: { cookie: staff } });
-      console.log(`q=${word} (${matched[word]!.toLocaleString("en")} matching of ${PIECES.toLocaleString("en")}): ${fmt(l)}`);
-      result({ figure: `registry search p95, q=${word}, ${CONNECTIONS} connections`, target: `< ${SEARCH_P95_MS} ms`, measured: `${l.p95.toFixed(1)} ms`, floor: `GET /api/me p95 ${me.p95.toFixed(1)} ms`, ratio: l.p95 / me.p95, ok: l.p95 < SEARCH_P95_MS && l.bad === 0 });
+      const p = await paired(me, { url: `${server.base}/api/pieces?q=${encodeURIComponent(word)}`, headers: { cookie: staff } }, opts);
+      console.log(`q=${word} (${matched[word]!.toLocaleString("en")} matching of ${PIECES.toLocaleString("en")}): ${fmt(p.figure)}; GET /api/me beside it: ${fmt(p.floor)}`);
+      const ratio = p.figure.p95 / p.floor.p95;
+      result({ figure: `registry search p95, q=${word}, ${PIECES.toLocaleString("en-US")} pieces`, target: `≤ ${SEARCH_RATIO_MAX}× floor`, measured: `${p.figure.p95.toFixed(1)} ms`, floor: `GET /api/me p95 ${p.floor.p95.toFixed(1)} ms`, ratio, ok: ratio <= SEARCH_RATIO_MAX && p.figure.bad === 0 });
     }
 
-    const bare = await load(`${server.base}/api/bench/same-json`, { connections: CONNECTIONS, seconds: SECONDS });
-    const real = await load(`${server.base}/api/pieces?q=walnut`, { connections: CONNECTIONS, seconds: SECONDS, headers: { cookie: staff } });
-    console.log(`bare route, same JSON: ${fmt(bare)}`);
-    console.log(`GET /api/pieces?q=walnut: ${fmt(real)}`);
-    const ratio = real.perSecond / bare.perSecond;
-    result({ figure: "GET /api/pieces?q=walnut throughput vs a bare route with the same JSON", target: `≥ ${RATIO_MIN}`, measured: `${real.perSecond.toFixed(0)} req/s`, floor: `bare ${bare.perSecond.toFixed(0)} req/s`, ratio, ok: ratio >= RATIO_MIN && real.bad === 0 && bare.bad === 0 });
+    const t = await paired({ url: `${server.base}/api/bench/same-json` }, { url: `${server.base}/api/pieces?q=walnut`, headers: { cookie: staff } }, opts);
+    console.log(`bare route, same JSON: ${fmt(t.floor)}`);
+    console.log(`GET /api/pieces?q=walnut: ${fmt(t.figure)}`);
+    const ratio = t.figure.perSecond / t.floor.perSecond;
+    result({ figure: "GET /api/pieces?q=walnut throughput vs a bare route with the same JSON", target: `≥ ${THROUGHPUT_MIN}`, measured: `${t.figure.perSecond.toFixed(0)} req/s`, floor: `bare ${t.floor.perSecond.toFixed(0)} req/s`, ratio, ok: ratio >= THROUGHPUT_MIN && t.figure.bad === 0 && t.floor.bad === 0 });
 
-    const page = await load(`${server.base}/pieces/${piece.id}`, { connections: CONNECTIONS, seconds: SECONDS, headers: { cookie: owner } });
-    console.log(`owner piece page /pieces/[id] (owner of ${ownerPieces} pieces): ${fmt(page)}`);
-    result({ figure: `owner piece page p95, ${CONNECTIONS} connections`, target: `< ${PAGE_P95_MS} ms`, measured: `${page.p95.toFixed(1)} ms`, floor: `GET /api/me p95 ${me.p95.toFixed(1)} ms`, ratio: page.p95 / me.p95, ok: page.p95 < PAGE_P95_MS && page.bad === 0 });
+    const pg = await paired(me, { url: `${server.base}/pieces/${piece.id}`, headers: { cookie: owner } }, opts);
+    console.log(`owner piece page /pieces/[id] (owner of ${ownerPieces} pieces): ${fmt(pg.figure)}; GET /api/me beside it: ${fmt(pg.floor)}`);
+    const pageRatio = pg.figure.p95 / pg.floor.p95;
+    result({ figure: "owner piece page p95", target: `≤ ${PAGE_RATIO_MAX}× floor`, measured: `${pg.figure.p95.toFixed(1)} ms`, floor: `GET /api/me p95 ${pg.floor.p95.toFixed(1)} ms`, ratio: pageRatio, ok: pageRatio <= PAGE_RATIO_MAX && pg.figure.bad === 0 });
 
-    const floorJs = await scriptBytes(server.base, "/sign-in", "");
-    console.log(`floor /sign-in: ${floorJs.scripts} scripts, ${(floorJs.gzip / 1024).toFixed(1)} kB gzip (${(floorJs.raw / 1024).toFixed(0)} kB raw)`);
+    const floorJs = await scriptBytes(server.base, "/bench/blank", "");
+    console.log(`floor, a blank page of this build: ${floorJs.scripts} scripts, ${(floorJs.gzip / 1024).toFixed(1)} kB gzip (${(floorJs.raw / 1024).toFixed(0)} kB raw)`);
     for (const p of ownerPages().map((x) => x.replace("[id]", piece.id))) {
       const js = await scriptBytes(server.base, p, owner);
       const label = p.replace(piece.id, "[id]");
       console.log(`${label}: ${js.scripts} scripts, ${(js.gzip / 1024).toFixed(1)} kB gzip (${(js.raw / 1024).toFixed(0)} kB raw)`);
-      result({ figure: `first-load JS ${label}`, target: `≤ ${JS_BUDGET_KB} kB gzip`, measured: `${(js.gzip / 1024).toFixed(1)} kB`, floor: `/sign-in ${(floorJs.gzip / 1024).toFixed(1)} kB`, ratio: js.gzip / floorJs.gzip, ok: js.gzip <= JS_BUDGET_KB * 1024 });
+      const jsRatio = js.gzip / floorJs.gzip;
+      result({ figure: `first-load JS ${label}`, target: `≤ ${JS_RATIO_MAX}× floor`, measured: `${(js.gzip / 1024).toFixed(1)} kB`, floor: `blank page ${(floorJs.gzip / 1024).toFixed(1)} kB`, ratio: jsRatio, ok: jsRatio <= JS_RATIO_MAX });
     }
   } finally {
     const peak = memory.stop();
     await server.stop();
-    console.log(`app peak resident memory: ${(peak / 2 ** 20).toFixed(0)} MB`);
-    result({ figure: "app peak resident memory under the loads above", target: `< ${MEMORY_MB} MB`, measured: `${(peak / 2 ** 20).toFixed(0)} MB`, floor: "—", ratio: null, ok: peak < MEMORY_MB * 2 ** 20 });
+    console.log(`app peak resident memory: ${(peak / 2 ** 20).toFixed(0)} MB (idle after start: ${(idleRss / 2 ** 20).toFixed(0)} MB)`);
+    result({ figure: "app peak resident memory under the loads above", target: `≤ ${MEMORY_RATIO_MAX}× floor`, measured: `${(peak / 2 ** 20).toFixed(0)} MB`, floor: `idle after start ${(idleRss / 2 ** 20).toFixed(0)} MB`, ratio: peak / idleRss, ok: peak / idleRss <= MEMORY_RATIO_MAX });
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+  for (const size of SWEEP) await sweepPoint(size);
+}
+
+/** One more size of the sweep: its own seeded registry and server, the search against /api/me beside it. */
+async function sweepPoint(size: number) {
+  const dir = benchDir(`server-${size}`);
+  try {
+    const { dbFile, seeded } = seededCopy(dir, size);
+    const staff = sessionCookie(dbFile, seeded.staffUserId);
+    const server = await startServer(dbFile, dir);
+    try {
+      const me = { url: `${server.base}/api/me`, headers: { cookie: staff } };
+      const search = { url: `${server.base}/api/pieces?q=walnut`, headers: { cookie: staff } };
+      for (const t of [me, search]) await load(t.url, { connections: CONNECTIONS, seconds: 4, headers: t.headers });
+      const p = await paired(me, search, { connections: CONNECTIONS, rounds: ROUNDS, seconds: SECONDS });
+      console.log(`${size.toLocaleString("en")} pieces, q=walnut: ${fmt(p.figure)}; GET /api/me beside it: ${fmt(p.floor)}`);
+      const ratio = p.figure.p95 / p.floor.p95;
+      result({ figure: `registry search p95, q=walnut, ${size.toLocaleString("en-US")} pieces`, target: `≤ ${SEARCH_RATIO_MAX}× floor`, measured: `${p.figure.p95.toFixed(1)} ms`, floor: `GET /api/me p95 ${p.floor.p95.toFixed(1)} ms`, ratio, ok: ratio <= SEARCH_RATIO_MAX && p.figure.bad === 0 });
+    } finally {
+      await server.stop();
+    }
+  } finally {
     fs.rmSync(dir, { recursive: true, force: true });
   }
 }
