@@ -6,6 +6,7 @@ import Papa from "papaparse";
 import { localDate } from "@/lib/care/dates";
 import { OPEN_STATES } from "@/lib/claims/states";
 import { cell } from "@/lib/pieces/csv";
+import { ftsQuery } from "@/lib/pieces/search-index";
 import { CLIENT_PAGE_SIZE, type ClientListQuery } from "@/lib/validation/clients";
 import { displayPhone, phoneSearchKeys } from "./phone";
 
@@ -26,17 +27,23 @@ export type ClientPage = { rows: ClientRow[]; total: number; page: number; pageS
 const likeEscape = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 const OPEN = sql.raw(OPEN_STATES.map((s) => `'${s}'`).join(", "));
 
-/** Every word must match the name, the e-mail, the phone (by digits) or one of their pieces' titles. */
-function searchWhere(q: string, country: string): SQL | undefined {
+/**
+ * Every word must match the name, the e-mail, the phone (by digits) or one of their pieces' titles.
+ * Name and e-mail match anywhere (LIKE is case-blind for ASCII, as lower() is); a title matches by
+ * the start of one of its words, through the registry's full-text index (lib/pieces/search-index.ts):
+ * the pieces a word finds are looked up once, not once per client.
+ */
+function searchWhere(q: string, country: string, studioId: string): SQL | undefined {
   const words = q.split(/\s+/).filter(Boolean).slice(0, 8);
   if (!words.length) return undefined;
   const phone = phoneSearchKeys(q, country);
   const perWord = words.map((w) => {
-    const like = `%${likeEscape(w.toLowerCase())}%`;
+    const like = `%${likeEscape(w)}%`;
     const digits = w.replace(/\D/g, "");
-    return sql`(lower(c.name) LIKE ${like} ESCAPE '\\' OR c.email LIKE ${like} ESCAPE '\\'
+    const fts = ftsQuery(w);
+    return sql`(c.name LIKE ${like} ESCAPE '\\' OR c.email LIKE ${like} ESCAPE '\\'
       ${digits.length >= 3 ? sql`OR c.phone LIKE ${`%${digits}%`}` : sql``}
-      OR EXISTS (SELECT 1 FROM pieces p WHERE p.client_id = c.id AND lower(p.title) LIKE ${like} ESCAPE '\\'))`;
+      ${fts ? sql`OR c.id IN (SELECT p.client_id FROM pieces_fts f JOIN pieces p ON p.rowid = f.rowid WHERE pieces_fts MATCH ${`title : ${fts}`} AND p.studio_id = ${studioId} AND p.client_id IS NOT NULL)` : sql``})`;
   });
   const allWords = sql.join(perWord, sql` AND `);
   // A whole number typed with spaces or a trunk prefix ("0412 555 019") matches by its E.164 or its digits.
@@ -80,19 +87,22 @@ type ListedRow = {
 
 /** The caller's studio's clients, searched, filtered and sorted: one page, or every row (the CSV export). */
 function queryClients(ctx: StudioContext, query: ClientListQuery, page: { limit: number; offset: number } | "all"): { rows: ListedRow[]; where: SQL } {
-  const conditions = [sql`c.studio_id = ${ctx.studio.id}`, searchWhere(query.q, ctx.studio.country), query.filter ? FILTERS[query.filter] : undefined].filter(Boolean) as SQL[];
+  const conditions = [sql`c.studio_id = ${ctx.studio.id}`, searchWhere(query.q, ctx.studio.country, ctx.studio.id), query.filter ? FILTERS[query.filter] : undefined].filter(Boolean) as SQL[];
   const where = sql.join(conditions, sql` AND `);
   const order = ORDER[query.sort];
   const dir = sql.raw((query.dir ?? order.dir) === "asc" ? "ASC" : "DESC");
+  // The page's clients first (read in the order of clients_studio_name_nocase_idx, so a search stops at
+  // the page), then the counts for those rows only.
   const rows = getDb().all<ListedRow>(sql`
     SELECT c.id, c.name, c.email, c.phone, c.address, c.consent_service AS consentService, c.consent_offers AS consentOffers,
       c.user_id AS userId, c.created_at AS createdAt, c.updated_at AS updatedAt,
       (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL) AS pieces,
       (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL AND p.owner_id IS NULL) AS unregistered,
       CASE WHEN c.user_id IS NULL THEN 0 ELSE (SELECT count(*) FROM claims k WHERE k.owner_id = c.user_id AND k.studio_id = c.studio_id AND k.state IN (${OPEN})) END AS openClaims
-    FROM clients c WHERE ${where}
-    ORDER BY ${order.column} ${dir}, c.id ${dir}
-    ${page === "all" ? sql`` : sql`LIMIT ${page.limit} OFFSET ${page.offset}`}`);
+    FROM (SELECT c.* FROM clients c WHERE ${where}
+      ORDER BY ${order.column} ${dir}, c.id ${dir}
+      ${page === "all" ? sql`` : sql`LIMIT ${page.limit} OFFSET ${page.offset}`}) c
+    ORDER BY ${order.column} ${dir}, c.id ${dir}`);
   return { rows, where };
 }
 
