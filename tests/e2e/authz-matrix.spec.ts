@@ -431,6 +431,13 @@ const ROUTES: RouteRow[] = [
   { route: "POST /api/catalog", expect: "401 403 403 403 403 400 403 400", send: ({ api }) => api.post("/api/catalog", { data: {} }) },
   { route: "PATCH /api/catalog/[id]", expect: "401 403 403 403 403 200 403 404", before: throwaways, send: ({ api }) => api.patch(`/api/catalog/${S.product.id}`, { data: { name: S.product.name } }) },
   { route: "DELETE /api/catalog/[id]", expect: "401 403 403 403 403 200 403 404", before: throwaways, send: ({ api }) => api.delete(`/api/catalog/${S.product.id}`) },
+  // Care plans (lib/plans): staff read the studio's templates, an owner the plans that fit their own piece.
+  { route: "GET /api/plans", expect: "401 200 404 404 200 200 200 200", send: ({ api }) => api.get(`/api/plans?pieceId=${X.ownerPieceId}`) },
+  { route: "POST /api/plans", expect: "401 403 403 403 403 400 403 400", send: ({ api }) => api.post("/api/plans", { data: {} }) },
+  { route: "PUT /api/plans/[id]", expect: "401 403 403 403 403 400 403 400", send: ({ api }) => api.put("/api/plans/missing", { data: {} }) },
+  { route: "POST /api/plans/checkout", expect: "401 404 404 404 404 404 404 404", send: ({ api }) => api.post("/api/plans/checkout", { data: { pieceId: X.ownerPieceId, templateId: "missing" } }) },
+  { route: "POST /api/plans/subscriptions", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions", { data: { pieceId: X.ownerPieceId, templateId: "missing", paidByNote: "Matrix check" } }) },
+  { route: "POST /api/plans/subscriptions/[id]/cancel", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/cancel") },
 
   // Reminders (staff). The reminder was sent, so resending is a 409; pausing sets the value it already has.
   { route: "GET /api/reminders", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/reminders") },

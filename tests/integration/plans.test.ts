@@ -6,7 +6,7 @@ import type { AddressInfo } from "node:net";
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, reminderSends, planInvoices, planSubscriptions, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
+import { auditLog, careLogEntries, reminderSends, planInvoices, planSubscriptions, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { claimCoverage } from "@/lib/claims/coverage";
 import { env } from "@/lib/env";
@@ -15,6 +15,7 @@ import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stri
 import { cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
 import { canMovePlan, PLAN_STATES } from "@/lib/plans/states";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
+import { plansForMyPiece } from "@/lib/plans/offers";
 import { livePlanOfPiece, startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
 import { createTemplate, planPrice, templatesFitting, updateTemplate } from "@/lib/plans/templates";
 import { planTemplateSchema } from "@/lib/plans/validation";
@@ -316,5 +317,27 @@ describe("included tasks are the studio's work", () => {
     // The oiled top (hard-wax oil, delivered three years ago) is overdue for re-oiling on both pieces.
     expect(keys(bare.id).some((k) => k.includes("reoil"))).toBe(true);
     expect(keys(piece.id).some((k) => k.includes("reoil"))).toBe(false);
+  });
+});
+
+describe("what the owner is offered", () => {
+  it("fitting plans with the price and what the plan would have saved over their last year of care; the plan it is under once bought; another owner's piece is a 404", async () => {
+    const { owner, piece, plan } = await setup();
+    const today = localDate(new Date(), "UTC");
+    for (const [doneOn, taskKind] of [[addDays(today, -100), "reoil"], [addDays(today, -200), "reoil"], [addDays(today, -400), "reoil"], [addDays(today, -50), "annual_check"]] as const) {
+      getDb().insert(careLogEntries).values({ studioId: piece.studioId, pieceId: piece.id, userId: owner.id, source: "owner", taskKind, doneOn }).run();
+    }
+    const { current, offers } = plansForMyPiece(owner, piece.id);
+    expect(current).toBeNull();
+    const offer = offers.find((o) => o.id === plan.id)!;
+    expect(offer).toMatchObject({ priceMinor: 12_990, taxMinor: 990, interval: "year" });
+    // Two re-oilings inside the last 365 days count (the one 400 days ago and the inspection, not included, don't).
+    expect(offer.lastYear!.entries).toBe(2);
+    expect(offer.lastYear!.wouldHaveCostMinor).toBeGreaterThan(0);
+    expect(offer.lastYear!.savedMinor).toBe(offer.lastYear!.wouldHaveCostMinor - 12_990);
+    const stranger = await createUser();
+    expect(() => plansForMyPiece(stranger, piece.id)).toThrow(expect.objectContaining({ status: 404 }));
+    await buy(owner, piece, plan.id);
+    expect(plansForMyPiece(owner, piece.id)).toMatchObject({ current: { name: plan.name, state: "running", stateLabel: "Running", paidBy: "card" }, offers: [] });
   });
 });
