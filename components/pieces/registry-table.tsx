@@ -14,6 +14,7 @@ import { FINISH_CLASSES, FINISH_CLASS_LABELS, PIECE_KINDS, PIECE_KIND_LABELS } f
 import type { RegistryPage, RegistryRow } from "@/lib/pieces/registry";
 import { CardPrintBar } from "./card-print-bar";
 import { CareStatus, RegistrationStatus } from "./status";
+import { formatCount } from "@/lib/format";
 
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
 type Key = (typeof FILTER_KEYS)[number];
@@ -195,7 +196,7 @@ export function RegistryTable() {
       <CardPrintBar selected={[...chosen]} onClear={() => setChosen(new Set())} />
 
       <div aria-live="polite" className="text-sm text-muted">
-        {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? (filtersOn ? "No pieces match." : null) : `${from}–${to} of ${data.totalIsCapped ? `more than ${data.total.toLocaleString()}` : data.total.toLocaleString()} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
+        {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? (filtersOn ? "No pieces match." : null) : `${from}–${to} of ${data.totalIsCapped ? `more than ${formatCount(data.total)}` : formatCount(data.total)} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
       </div>
 

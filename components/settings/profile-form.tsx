@@ -8,6 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import type { ActionResult } from "@/lib/validation/action";
 import { CURRENCIES } from "@/lib/care/quote";
 import type { ProfileInput } from "@/lib/validation/settings";
+import { runtimeTimeZone } from "@/lib/format";
 
 /**
  * The studio's profile and rates (settings and the set-up's first step). With `guessTimeZone`, a studio
@@ -35,7 +36,7 @@ export function ProfileForm({
   const { register, formState, watch, setValue } = form;
   useEffect(() => {
     if (!guessTimeZone || values.timeZone !== "UTC") return;
-    const guess = Intl.DateTimeFormat().resolvedOptions().timeZone;
+    const guess = runtimeTimeZone();
     if (guess && guess !== "UTC") setValue("timeZone", guess, { shouldDirty: true });
   }, [guessTimeZone, values.timeZone, setValue]);
   const e = formState.errors;

@@ -11,6 +11,7 @@ import { Notice } from "@/components/ui/notice";
 import { cn } from "@/components/ui/cn";
 import { apiJson, isApiError } from "@/components/api-client";
 import type { SlotView } from "@/lib/visits/slots";
+import { formatDate } from "@/lib/format";
 
 type Props = {
   jobId: string;
@@ -30,9 +31,7 @@ type Props = {
 
 const DAY = 86_400_000;
 
-function dayHeading(date: string) {
-  return new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long", timeZone: "UTC" }).format(new Date(`${date}T12:00:00Z`));
-}
+const dayHeading = (date: string) => formatDate(date, { weekday: "long", year: false });
 
 /** Free times for a job's visit, day by day, two weeks at a time; book (or move) with one tap. */
 export function SlotPicker(p: Props) {
@@ -165,7 +164,7 @@ export function SlotPicker(p: Props) {
                 onClick={() => setDay(date)}
                 className={cn("min-h-11 rounded-lg border px-3 py-1 text-sm", shownDay?.[0] === date ? "border-resin bg-resin-soft font-semibold text-resin-dark" : "border-line bg-card hover:border-resin")}
               >
-                {new Intl.DateTimeFormat("en-GB", { weekday: "short", day: "numeric", month: "short", timeZone: "UTC" }).format(new Date(`${date}T12:00:00Z`))}
+                {formatDate(date, { weekday: "short", short: true, year: false })}
                 <span className="block text-xs text-muted">{list.length} free</span>
               </button>
             ))}

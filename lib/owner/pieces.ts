@@ -33,7 +33,7 @@ import { notFound } from "@/lib/errors";
 import { scheduleFromRows, topShape, toCatalog } from "@/lib/pieces/care-inputs";
 import { monthsText, whyNow } from "@/lib/reminders/content";
 import { buildCareGuide, type CareGuide } from "./care-guide";
-import { formatSize, formatThickness, type UnitSystem } from "@/lib/format";
+import { formatSize, formatThickness, isTimeZone, type UnitSystem } from "@/lib/format";
 import { warrantyLinesFor, type OwnerWarrantyLine } from "./warranty";
 
 // The owner's reads. Every query filters by the signed-in owner's id; someone else's piece is a 404
@@ -68,12 +68,7 @@ const zoneChecked = new Map<string, string>();
 function safeZone(tz: string): string {
   let zone = zoneChecked.get(tz);
   if (zone === undefined) {
-    try {
-      new Intl.DateTimeFormat("en-US", { timeZone: tz });
-      zone = tz;
-    } catch {
-      zone = "UTC";
-    }
+    zone = isTimeZone(tz) ? tz : "UTC";
     if (zoneChecked.size < 1000) zoneChecked.set(tz, zone);
   }
   return zone;

@@ -8,6 +8,7 @@ import type { HandoverItemOutcome } from "@/lib/clients/vocabulary";
 import { notFound, unprocessable } from "@/lib/errors";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { HANDOVER_BLOCK_MESSAGES, handoverBlockOf, mailHandover, type HandoverBlock } from "./handover";
+import { formatCount } from "@/lib/format";
 
 // Bulk hand-over mail: staff pick pieces whose buyer never had the hand-over mail (or all of them),
 // or a CSV import asks to mail its buyers now. The request only writes the mailing (one item per
@@ -72,7 +73,7 @@ export function createHandoverBatch(ctx: StudioContext, pick: { pieceIds: readon
     if (found.length !== ids.length) throw notFound("No piece with that id in this studio.");
   }
   if (ids.length === 0) throw unprocessable("nothing_to_send", "No pieces are waiting for their hand-over mail.");
-  if (ids.length > MAX_BATCH_PIECES) throw unprocessable("too_many", `Send at most ${MAX_BATCH_PIECES.toLocaleString("en-US")} pieces at a time.`);
+  if (ids.length > MAX_BATCH_PIECES) throw unprocessable("too_many", `Send at most ${formatCount(MAX_BATCH_PIECES)} pieces at a time.`);
   const now = new Date();
   return db.transaction((tx) => {
     const batch = tx.insert(handoverBatches).values({ studioId: ctx.studio.id, createdById: ctx.user.id, source, state: "queued", createdAt: now, updatedAt: now }).returning({ id: handoverBatches.id }).get();

@@ -4,19 +4,14 @@
 import { z } from "zod";
 import { CURRENCIES, CURRENCY_EXPONENTS } from "@/lib/care/quote";
 import { CLAIM_CATEGORIES, CLAIM_EXCLUSIONS, REMINDER_STEPS, SLOT_STEPS, STUDIO_ROLES } from "@/lib/care/vocabulary";
+import { isTimeZone } from "@/lib/format";
 import { policyDate } from "./dates";
 
 export const UNIT_SYSTEM_CHOICES = ["metric", "imperial"] as const;
 
 
-export function isTimeZone(tz: string): boolean {
-  try {
-    new Intl.DateTimeFormat("en-US", { timeZone: tz });
-    return tz.includes("/") || tz === "UTC";
-  } catch {
-    return false;
-  }
-}
+/** A studio's zone: one the runtime knows, written as an IANA Area/Location name (or UTC), not an abbreviation. */
+const isStudioZone = (tz: string) => isTimeZone(tz) && (tz.includes("/") || tz === "UTC");
 
 
 /** "85", "85.5", "85.50": an amount in major units as typed; the currency decides how many decimals. */
@@ -30,7 +25,7 @@ export const profileSchema = z
     email: z.union([z.literal(""), z.email("Enter an e-mail address like studio@example.com.").max(200)]),
     /** Optional so callers that predate it keep the stored number. */
     phone: z.string().trim().max(40, "Use at most 40 characters.").regex(/^[0-9+()./\- ]*(ext\.? ?\d+)?$/i, "A phone number: digits, spaces and + ( ) - . only.").optional(),
-    timeZone: z.string({ error: "Enter a time zone." }).trim().refine(isTimeZone, "Use a time zone name like America/Los_Angeles or Europe/Berlin."),
+    timeZone: z.string({ error: "Enter a time zone." }).trim().refine(isStudioZone, "Use a time zone name like America/Los_Angeles or Europe/Berlin."),
     currency: z.enum(CURRENCIES, { error: "Pick a currency." }),
     unitSystem: z.enum(UNIT_SYSTEM_CHOICES, { error: "Pick metric or imperial." }),
     /** Percent as typed, e.g. "8.5". */

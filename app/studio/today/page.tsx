@@ -18,9 +18,7 @@ import { technicianDay } from "@/lib/visits/technician-day";
 export const metadata: Metadata = { title: "My day" };
 export const dynamic = "force-dynamic";
 
-function dayTitle(date: string) {
-  return new Intl.DateTimeFormat("en-GB", { dateStyle: "full", timeZone: "UTC" }).format(new Date(`${date}T12:00:00Z`));
-}
+const dayTitle = (date: string) => formatDate(date, { weekday: "long" });
 
 export default async function TechnicianDayPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const q = await searchParams;

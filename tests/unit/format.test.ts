@@ -1,0 +1,137 @@
+// lib/format, the one formatter. Money and dates are Intl output (ECMA-402, 11th edition (2024):
+// §15 NumberFormat with style "currency", §11 DateTimeFormat) over Unicode CLDR locale data (v46+,
+// as Node's ICU carries it): the expected strings are CLDR's patterns, noted beside each check.
+// Calendar dates and instants are fixed; nothing reads the real clock. ESLint keeps Intl and
+// toLocale*String inside lib/format (and lib/care): the last block lints one-line modules with the
+// project's real configuration.
+import path from "node:path";
+import { ESLint } from "eslint";
+import { describe, expect, it } from "vitest";
+import {
+  formatCount,
+  formatDate,
+  formatInstant,
+  formatMoney,
+  formatMonth,
+  formatPercentBp,
+  formatVisitWhen,
+  isTimeZone,
+  moneyLocale,
+  visitDayWord,
+} from "@/lib/format";
+
+const NBSP = "\u00a0";
+const NNBSP = "\u202f";
+
+describe("money from minor units", () => {
+  it("writes each country's form, from the exact decimal", () => {
+    // CLDR en-US currency pattern "¤#,##0.00": symbol before, no space.
+    expect(formatMoney(8500, "USD", "US")).toBe("$85.00");
+    expect(formatMoney(123456789, "USD", "US")).toBe("$1,234,567.89");
+    // CLDR de currency pattern "#,##0.00 ¤": decimal comma, grouping dot, no-break space, symbol after.
+    expect(formatMoney(8500, "EUR", "DE")).toBe(`85,00${NBSP}€`);
+    expect(formatMoney(123450, "EUR", "DE")).toBe(`1.234,50${NBSP}€`);
+    // CLDR fr: grouping by narrow no-break space, decimal comma, symbol after.
+    expect(formatMoney(123450, "EUR", "FR")).toBe(`1${NNBSP}234,50${NBSP}€`);
+    // ISO 4217: JPY has no minor unit, so 1235 minor units are ¥1,235 (CLDR ja uses the fullwidth yen sign).
+    expect(formatMoney(1235, "JPY", "JP")).toBe("￥1,235");
+    // A negative amount keeps its sign; 1 cent is not rounded away.
+    expect(formatMoney(-1, "USD", "US")).toBe("-$0.01");
+    // 2^53 + 1 minor units would lose its last digit as minor ÷ 100 in floating point.
+    expect(formatMoney(900719925474099, "USD", "US")).toBe("$9,007,199,254,740.99");
+  });
+
+  it("never writes a currency code after the amount", () => {
+    for (const [currency, country] of [["USD", "US"], ["EUR", "DE"], ["EUR", "FR"], ["GBP", "GB"], ["CAD", "CA"]] as const) {
+      expect(formatMoney(8500, currency, country)).not.toMatch(/[A-Z]{3}$/);
+    }
+  });
+
+  it("reads the locale from the studio's country (CLDR likely subtags)", () => {
+    expect(moneyLocale("US")).toBe("en-US");
+    expect(moneyLocale("DE")).toBe("de-DE");
+    expect(moneyLocale("FR")).toBe("fr-FR");
+    expect(moneyLocale("not a region")).toBe("en-US");
+  });
+
+  it("writes rates and counts", () => {
+    expect(formatPercentBp(825)).toBe("8.25 %");
+    expect(formatPercentBp(2000)).toBe("20 %");
+    expect(formatPercentBp(0)).toBe("0 %");
+    expect(formatCount(12345)).toBe("12,345");
+  });
+});
+
+describe("dates and times", () => {
+  it("writes a calendar date one way, with or without a weekday (CLDR en-GB: d MMMM y, EEEE, d MMMM y)", () => {
+    expect(formatDate("2026-12-03")).toBe("3 December 2026");
+    expect(formatDate("2026-12-03", { short: true })).toBe("3 Dec 2026");
+    expect(formatDate("2026-12-03", { weekday: "long" })).toBe("Thursday, 3 December 2026");
+    expect(formatDate("2026-12-03", { weekday: "short", short: true, year: false })).toBe("Thu 3 Dec");
+    expect(formatMonth("2026-03")).toBe("March 2026");
+    expect(formatMonth("2026-03", { short: true })).toBe("Mar ’26");
+    // A calendar date is the same day in every zone: 1 January stays 1 January.
+    expect(formatDate("2027-01-01")).toBe("1 January 2027");
+    expect(formatDate("not a date")).toBe("not a date");
+  });
+
+  it("writes an instant in its zone and names the zone unless the viewer is in it", () => {
+    const at = Date.parse("2026-12-03T23:30:00Z");
+    // 23:30 UTC is 00:30 on 4 December in Berlin (CET, UTC+1) and 18:30 on 3 December in New York (UTC−5).
+    expect(formatInstant(at, "Europe/Berlin")).toBe("4 December 2026");
+    expect(formatInstant(at, "America/New_York")).toBe("3 December 2026");
+    expect(formatInstant(at, "Europe/Berlin", { time: true })).toBe("4 December 2026 at 00:30 CET");
+    expect(formatInstant(at, "Europe/Berlin", { time: true, viewerZone: "Europe/Berlin" })).toBe("4 December 2026 at 00:30");
+    expect(formatInstant(at, "Europe/Berlin", { time: true, viewerZone: "America/New_York" })).toBe("4 December 2026 at 00:30 CET");
+    // CLDR en-GB carries short names for the European metazones only; elsewhere it writes the offset.
+    expect(formatInstant(new Date(at).toISOString(), "America/New_York", { time: true })).toBe("3 December 2026 at 18:30 GMT-5");
+  });
+
+  it("writes a visit's slot on the 24-hour clock", () => {
+    expect(formatVisitWhen(Date.parse("2026-12-03T14:00:00Z"), Date.parse("2026-12-03T16:00:00Z"), "America/New_York")).toBe("Thursday, 3 December 2026, 09:00–11:00");
+  });
+
+  it("knows IANA zones", () => {
+    expect(isTimeZone("Europe/Berlin")).toBe(true);
+    expect(isTimeZone("Mars/Olympus_Mons")).toBe(false);
+  });
+});
+
+describe("today and tomorrow by the reader's own calendar", () => {
+  it("counts calendar days in the reader's zone, not 24-hour spans", () => {
+    const nine = Date.parse("2026-12-03T14:00:00Z"); // 09:00 in New York
+    expect(visitDayWord(nine, Date.parse("2026-12-03T13:42:00Z"), "America/New_York")).toBe("today"); // 08:42 that day
+    expect(visitDayWord(nine, Date.parse("2026-12-02T14:30:00Z"), "America/New_York")).toBe("tomorrow"); // 09:30 the day before: under 24 h
+    expect(visitDayWord(nine, Date.parse("2026-12-01T23:00:00Z"), "America/New_York")).toBe("on Thursday, 3 December 2026");
+  });
+});
+
+describe("the lint rule keeps formatting in lib/format", () => {
+  const eslint = new ESLint({ cwd: path.resolve(import.meta.dirname, "../..") });
+  async function flagged(filePath: string, code: string): Promise<boolean> {
+    const [result] = await eslint.lintText(code, { filePath });
+    return result!.messages.some((m) => m.ruleId === "no-restricted-syntax" && m.message.includes("lib/format"));
+  }
+
+  it.each([
+    ["a page building a NumberFormat", "app/studio/x/page.tsx", 'export const x = new Intl.NumberFormat("en-US").format(1);\n'],
+    ["a component building a DateTimeFormat", "components/x/y.tsx", 'export const x = new Intl.DateTimeFormat("en-GB").format(0);\n'],
+    ["a lib module calling toLocaleString", "lib/x/y.ts", "export const x = (1234).toLocaleString();\n"],
+    ["an e-mail calling toLocaleDateString", "emails/x.tsx", "export const x = new Date(0).toLocaleDateString();\n"],
+    ["Intl.DateTimeFormat called without new", "components/x/y.tsx", "export const x = Intl.DateTimeFormat().resolvedOptions().timeZone;\n"],
+  ])("flags %s", async (_what, filePath, code) => {
+    expect(await flagged(filePath, code)).toBe(true);
+  });
+
+  it.each([
+    ["lib/format itself", "lib/format/x.ts", 'export const x = new Intl.NumberFormat("en-US").format(1);\n'],
+    ["lib/care's zone arithmetic", "lib/care/x.ts", 'export const x = new Intl.DateTimeFormat("en-US", { timeZone: "UTC" });\n'],
+  ])("allows %s", async (_what, filePath, code) => {
+    expect(await flagged(filePath, code)).toBe(false);
+  });
+
+  it("still flags a hand-made AppError beside the formatter rule", async () => {
+    const [result] = await eslint.lintText('import { AppError } from "@/lib/errors";\nexport const e = new AppError(400, "x", "y");\n', { filePath: "lib/x/y.ts" });
+    expect(result!.messages.some((m) => m.ruleId === "no-restricted-syntax" && m.message.includes("lib/errors.ts"))).toBe(true);
+  });
+});
