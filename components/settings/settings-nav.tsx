@@ -12,6 +12,9 @@ const ITEMS = [
   { href: "/studio/settings/visits", label: "Visit booking" },
   { href: "/studio/settings/repairs", label: "Repair prices and tax" },
   { href: "/studio/settings/emails", label: "E-mail previews" },
+  { href: "/studio/setup/brand", label: "Logo and colour", away: true },
+  { href: "/studio/setup/mail", label: "E-mail sender", away: true },
+  { href: "/studio/setup/payments", label: "Online payments", away: true },
   { href: "/studio/catalog", label: "Finish catalog", away: true },
   { href: "/studio/team", label: "Team", away: true },
 ];
