@@ -7,19 +7,38 @@ import type { ClaimAnswers } from "../lib/validation/claims";
 import type { JobQuoteInput } from "../lib/validation/jobs";
 import type { JobLine, PriceListEntry, PricingRules, RoundingRule, TaxMode, LineKind } from "../lib/repairs/lines";
 import {
+  CARE_LOG_SOURCES,
   CARE_TASK_KINDS,
   CLAIM_CATEGORIES,
-  JOB_STATES,
+  CLAIM_DECISIONS,
+  CLAIM_STATES,
+  FILE_PURPOSES,
   FINISH_CLASSES,
+  JOB_ORIGINS,
+  JOB_STATES,
+  MAIL_QUEUE_STATUSES,
+  MESSAGE_AUTHORS,
+  MESSAGE_SOURCES,
+  OFFER_STATUSES,
+  OWNERSHIP_VIA,
+  PAYMENT_REFUND_REASONS,
+  PAYMENT_STATUSES,
   PIECE_KINDS,
-  RESIN_KINDS,
-  SHAPE_KINDS,
   REMINDER_STEPS,
+  RESIN_KINDS,
+  SEND_STATUSES,
+  SHAPE_KINDS,
   STUDIO_ROLES,
   SUN_EXPOSURES,
   SURFACES,
+  THREAD_STATES,
+  THREAD_SUBJECTS,
+  TOKEN_PURPOSES,
+  UNIT_SYSTEMS,
+  UNMATCHED_REASONS,
   USES,
   VISIT_LOCATIONS,
+  VISIT_PHOTO_KINDS,
   VISIT_STATES,
 } from "../lib/care/vocabulary";
 import { CONSENT_KINDS, CONSENT_SOURCES, CONTACT_METHODS, HANDOVER_BATCH_SOURCES, HANDOVER_BATCH_STATES, HANDOVER_ITEM_OUTCOMES } from "../lib/clients/vocabulary";
@@ -52,8 +71,6 @@ const studioRef = () =>
   text("studio_id")
     .notNull()
     .references((): AnySQLiteColumn => studios.id, { onDelete: "cascade" });
-
-export const UNIT_SYSTEMS = ["metric", "imperial"] as const;
 
 export const studios = sqliteTable("studios", {
   id: id(),
@@ -168,8 +185,6 @@ export const membershipsRelations = relations(memberships, ({ one }) => ({
   studio: one(studios, { fields: [memberships.studioId], references: [studios.id] }),
   user: one(users, { fields: [memberships.userId], references: [users.id] }),
 }));
-
-export const TOKEN_PURPOSES = ["verify_email", "password_reset"] as const;
 
 /** Single-use e-mail tokens; only their SHA-256 is kept. */
 export const userTokens = sqliteTable(
@@ -374,8 +389,6 @@ export const warrantyPoliciesRelations = relations(warrantyPolicies, ({ one }) =
   createdBy: one(users, { fields: [warrantyPolicies.createdById], references: [users.id] }),
 }));
 
-export const OWNERSHIP_VIA = ["registration", "transfer"] as const;
-
 /** Who owned a piece when: registration starts an ownership, a release ends it. */
 export const ownerships = sqliteTable(
   "ownerships",
@@ -400,8 +413,6 @@ export const ownershipsRelations = relations(ownerships, ({ one }) => ({
   piece: one(pieces, { fields: [ownerships.pieceId], references: [pieces.id] }),
   user: one(users, { fields: [ownerships.userId], references: [users.id] }),
 }));
-
-export const FILE_PURPOSES = ["piece_photo", "claim_photo", "care_log_photo", "visit_photo"] as const;
 
 /** Uploaded images, re-encoded and stripped of metadata (lib/storage); served only through an authorized route. */
 export const files = sqliteTable(
@@ -429,8 +440,6 @@ export const filesRelations = relations(files, ({ one }) => ({
   piece: one(pieces, { fields: [files.pieceId], references: [pieces.id] }),
   claim: one(claims, { fields: [files.claimId], references: [claims.id] }),
 }));
-
-export const CARE_LOG_SOURCES = ["owner", "visit", "studio"] as const;
 
 /** Care done on a piece: self-logged by its owner, or recorded at a visit. */
 export const careLogEntries = sqliteTable(
@@ -462,8 +471,6 @@ export const careLogEntriesRelations = relations(careLogEntries, ({ one }) => ({
   user: one(users, { fields: [careLogEntries.userId], references: [users.id] }),
   photo: one(files, { fields: [careLogEntries.photoFileId], references: [files.id] }),
 }));
-
-export const SEND_STATUSES = ["queued", "sent", "failed", "skipped", "cancelled"] as const;
 
 /**
  * The send ledger of care reminders: one row per reminder (task key + due date + step), claimed
@@ -504,8 +511,6 @@ export const reminderSendsRelations = relations(reminderSends, ({ one }) => ({
   user: one(users, { fields: [reminderSends.userId], references: [users.id] }),
 }));
 
-export const OFFER_STATUSES = ["offered", "accepted", "declined", "expired"] as const;
-
 /** A priced offer of a refresh visit, sent with the first reminder of a refresh task. */
 export const refreshOffers = sqliteTable(
   "refresh_offers",
@@ -538,10 +543,6 @@ export const refreshOffersRelations = relations(refreshOffers, ({ one }) => ({
   user: one(users, { fields: [refreshOffers.userId], references: [users.id] }),
   reminderSend: one(reminderSends, { fields: [refreshOffers.reminderSendId], references: [reminderSends.id] }),
 }));
-
-/** Claim states (lib/claims/states.ts): submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
-export const CLAIM_STATES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
-export const CLAIM_DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
 
 export const claims = sqliteTable(
   "claims",
@@ -581,8 +582,6 @@ export const claimsRelations = relations(claims, ({ one, many }) => ({
   owner: one(users, { fields: [claims.ownerId], references: [users.id] }),
   photos: many(files),
 }));
-
-export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
 
 export const repairJobs = sqliteTable(
   "repair_jobs",
@@ -635,13 +634,6 @@ export const repairJobsRelations = relations(repairJobs, ({ one, many }) => ({
   claim: one(claims, { fields: [repairJobs.claimId], references: [claims.id] }),
   payments: many(payments),
 }));
-
-export const PAYMENT_STATUSES = ["open", "paid", "expired", "refunded", "partially_refunded"] as const;
-/**
- * Why a captured payment is (being) given back in full: the first three the product decides on its
- * own (the payment does not count toward its job), the last is a cancelled job.
- */
-export const PAYMENT_REFUND_REASONS = ["older_quote", "already_paid", "not_awaiting_payment", "job_cancelled"] as const;
 
 /** One Stripe Checkout Session for a job's quote version, and what Stripe last reported about it. */
 export const payments = sqliteTable(
@@ -836,8 +828,6 @@ export const visitsRelations = relations(visits, ({ one, many }) => ({
   photos: many(visitPhotos),
 }));
 
-export const VISIT_PHOTO_KINDS = ["before", "after"] as const;
-
 /** Before/after photos of a visit (files rows with purpose "visit_photo" and the piece's id). */
 export const visitPhotos = sqliteTable(
   "visit_photos",
@@ -895,12 +885,6 @@ export type NewVisit = typeof visits.$inferInsert;
 export type VisitPhoto = typeof visitPhotos.$inferSelect;
 export type VisitMailSend = typeof visitMailSends.$inferSelect;
 
-/**
- * Mail that could not be handed to SMTP when it was sent (lib/mail sendMail), kept as rendered so the
- * scheduler can try again with a back-off. Reminders and visit reminders keep their own ledgers and
- * never come here.
- */
-export const MAIL_QUEUE_STATUSES = ["waiting", "sending", "sent", "gave_up"] as const;
 export type QueuedAttachment = { filename: string; contentBase64: string; contentType?: string; contentDisposition?: "attachment" | "inline"; cid?: string };
 export const mailQueue = sqliteTable(
   "mail_queue",
@@ -1000,13 +984,6 @@ export type NewClient = typeof clients.$inferInsert;
 export type ClientConsent = typeof clientConsents.$inferSelect;
 
 // ---- conversations: one thread per claim, repair job or visit; the studio's inbox ----
-
-export const THREAD_SUBJECTS = ["claim", "job", "visit"] as const;
-/** The inbox state of a thread: unread until a staff member opens it, done when handled. */
-export const THREAD_STATES = ["unread", "open", "done"] as const;
-export const MESSAGE_AUTHORS = ["owner", "staff"] as const;
-export const MESSAGE_SOURCES = ["web", "email"] as const;
-export const UNMATCHED_REASONS = ["no_token", "bad_token", "wrong_sender", "closed", "empty"] as const;
 
 /** A conversation between a studio and the owner about one claim, repair job or visit (and so one piece). */
 export const threads = sqliteTable(

@@ -171,3 +171,36 @@ export const VISIT_STATE_LABELS: Record<VisitState, string> = { booked: "Booked"
 
 /** How far apart offered visit start times can be, in minutes (a studio setting). */
 export const SLOT_STEPS = [15, 30, 60] as const;
+
+// ---- values the records store (db/schema.ts columns) ----
+
+export const UNIT_SYSTEMS = ["metric", "imperial"] as const;
+export const TOKEN_PURPOSES = ["verify_email", "password_reset"] as const;
+export const OWNERSHIP_VIA = ["registration", "transfer"] as const;
+export const FILE_PURPOSES = ["piece_photo", "claim_photo", "care_log_photo", "visit_photo"] as const;
+export const CARE_LOG_SOURCES = ["owner", "visit", "studio"] as const;
+export const SEND_STATUSES = ["queued", "sent", "failed", "skipped", "cancelled"] as const;
+export const OFFER_STATUSES = ["offered", "accepted", "declined", "expired"] as const;
+/** Claim states (lib/claims/states.ts): submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
+export const CLAIM_STATES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
+export const CLAIM_DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
+export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
+export const PAYMENT_STATUSES = ["open", "paid", "expired", "refunded", "partially_refunded"] as const;
+/**
+ * Why a captured payment is (being) given back in full: the first three the product decides on its
+ * own (the payment does not count toward its job), the last is a cancelled job.
+ */
+export const PAYMENT_REFUND_REASONS = ["older_quote", "already_paid", "not_awaiting_payment", "job_cancelled"] as const;
+export const VISIT_PHOTO_KINDS = ["before", "after"] as const;
+/**
+ * Mail that could not be handed to SMTP when it was sent (lib/mail sendMail), kept as rendered so the
+ * scheduler can try again with a back-off. Reminders and visit reminders keep their own ledgers and
+ * never come here.
+ */
+export const MAIL_QUEUE_STATUSES = ["waiting", "sending", "sent", "gave_up"] as const;
+export const THREAD_SUBJECTS = ["claim", "job", "visit"] as const;
+/** The inbox state of a thread: unread until a staff member opens it, done when handled. */
+export const THREAD_STATES = ["unread", "open", "done"] as const;
+export const MESSAGE_AUTHORS = ["owner", "staff"] as const;
+export const MESSAGE_SOURCES = ["web", "email"] as const;
+export const UNMATCHED_REASONS = ["no_token", "bad_token", "wrong_sender", "closed", "empty"] as const;

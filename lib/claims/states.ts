@@ -1,6 +1,6 @@
-// The claim state machine (states in lib/care/vocabulary.ts), as a table. Pure (type-only import of the schema), so
+// The claim state machine (states in lib/care/vocabulary.ts), as a table. Pure (type-only import of the vocabulary), so
 // client components, the API and the tests read the same rules.
-import type { CLAIM_DECISIONS, CLAIM_STATES } from "@/db/schema";
+import type { CLAIM_DECISIONS, CLAIM_STATES } from "@/lib/care/vocabulary";
 
 export type ClaimState = (typeof CLAIM_STATES)[number];
 export type ClaimDecision = (typeof CLAIM_DECISIONS)[number];

@@ -6,7 +6,8 @@
 // No server-only import: the inbound e-mail listener (lib/mail/inbound.ts) runs under tsx.
 import { and, asc, eq, ne, or, sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { claims, pieces, repairJobs, threadMessages, threads, users, visits, type Thread, type THREAD_SUBJECTS } from "@/db/schema";
+import { claims, pieces, repairJobs, threadMessages, threads, users, visits, type Thread } from "@/db/schema";
+import type { THREAD_SUBJECTS } from "@/lib/care/vocabulary";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
 import { replyAddress } from "./reply-address";
 

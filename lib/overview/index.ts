@@ -4,7 +4,8 @@ import "server-only";
 // engine (careSchedule through lib/pieces/care-inputs), computed in bulk for all pieces at once.
 import { and, eq, gte, inArray, isNotNull, isNull, lt, ne } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { careLogEntries, claims, finishLayers, finishProducts, payments, pieces, refreshOffers, reminderSends, visits, warrantyPolicies, CLAIM_STATES, OFFER_STATUSES } from "@/db/schema";
+import { careLogEntries, claims, finishLayers, finishProducts, payments, pieces, refreshOffers, reminderSends, visits, warrantyPolicies } from "@/db/schema";
+import { CLAIM_STATES, OFFER_STATUSES } from "@/lib/care/vocabulary";
 import type { StudioContext } from "@/lib/auth/guards";
 import { CareInputError } from "@/lib/care/errors";
 import { addDays, addMonths, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";

@@ -1,11 +1,9 @@
 import { z } from "zod";
-import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORIES, CLAIM_DECISIONS, CLAIM_STATES } from "@/lib/care/vocabulary";
 import { pastDate } from "./dates";
 
 // Shared by the claim forms (react-hook-form's zod resolver) and the claim route handlers.
 
-const CLAIM_STATE_VALUES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
-const CLAIM_DECISION_VALUES = ["covered", "partly_covered", "chargeable", "declined"] as const;
 
 export const ANSWER_VALUES = ["yes", "no", "unsure"] as const;
 const answer = z.enum(ANSWER_VALUES, "Choose yes, no or not sure.");
@@ -109,7 +107,7 @@ export type ClaimMessageInput = z.input<typeof claimMessageSchema>;
 
 export const claimDecisionSchema = z
   .object({
-    decision: z.enum(CLAIM_DECISION_VALUES, "Choose a decision."),
+    decision: z.enum(CLAIM_DECISIONS, "Choose a decision."),
     coveredPct: z.number().int("Use a whole percentage.").min(1, "Between 1 and 99 %.").max(99, "Between 1 and 99 %.").nullish(),
     reason: z.string().trim().max(2000, "Use at most 2,000 characters.").default(""),
     /** The claim version the decider saw; a newer version answers 409. */
@@ -122,14 +120,14 @@ export const claimDecisionSchema = z
 export type ClaimDecisionInput = z.input<typeof claimDecisionSchema>;
 
 export const claimStateSchema = z.object({
-  to: z.enum(CLAIM_STATE_VALUES, "Unknown state."),
+  to: z.enum(CLAIM_STATES, "Unknown state."),
   expectedVersion: z.number().int().min(0).optional(),
 });
 
 export const CLAIM_AGE_FILTERS = ["any", "under_2d", "2_to_7d", "over_7d"] as const;
 
 export const claimListQuerySchema = z.object({
-  state: z.enum([...CLAIM_STATE_VALUES, "open", "all"]).default("open"),
+  state: z.enum([...CLAIM_STATES, "open", "all"]).default("open"),
   category: z.enum([...CLAIM_CATEGORIES, "all"]).default("all"),
   age: z.enum(CLAIM_AGE_FILTERS).default("any"),
   pieceId: z.string().max(64).optional().transform((v) => (v ? v : undefined)),

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { isValidRegistrationCode, normalizeRegistrationCode } from "@/lib/care/registration-code";
-import { CARE_TASK_KINDS, SURFACES } from "@/lib/care/vocabulary";
+import { CARE_TASK_KINDS, SURFACES, UNIT_SYSTEMS } from "@/lib/care/vocabulary";
 import { pastDate } from "./dates";
 import { patchOf } from "./patch";
 import { isTimeZone } from "@/lib/format";
@@ -50,7 +50,7 @@ export type CareLogPatch = z.output<typeof careLogPatchSchema>;
 export const preferencesSchema = z.object({
   remindersEnabled: z.boolean({ message: "Choose whether to get care reminders." }),
   timeZone: z.string().trim().min(1, "Pick your time zone.").max(64).refine(isTimeZone, "That isn't a time zone we know — pick one from the list."),
-  unitSystem: z.enum(["metric", "imperial"], { message: "Pick metric or imperial." }),
+  unitSystem: z.enum(UNIT_SYSTEMS, { message: "Pick metric or imperial." }),
 });
 export const preferencesPatchSchema = patchOf(preferencesSchema).refine((v) => Object.keys(v).length > 0, "Nothing to change.");
 export type PreferencesInput = z.input<typeof preferencesSchema>;

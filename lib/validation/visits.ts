@@ -2,7 +2,7 @@
 // technician hours and time off, and the technician's visit report. Instants are ISO 8601 strings with
 // an offset (or Z); local times "HH:MM" in the studio's time zone; dates "YYYY-MM-DD".
 import { z } from "zod";
-import { FINISH_CLASSES, SURFACES, VISIT_LOCATIONS } from "@/lib/care/vocabulary";
+import { FINISH_CLASSES, SURFACES, VISIT_LOCATIONS, VISIT_PHOTO_KINDS } from "@/lib/care/vocabulary";
 import { EARLIEST_DATE, utcToday, visitDay, visitRecordDate, VISIT_YEARS_AHEAD } from "@/lib/validation/dates";
 import { addMonths } from "@/lib/care/dates";
 
@@ -118,8 +118,7 @@ export const visitReportSchema = z.object({
 export type VisitReportInput = z.input<typeof visitReportSchema>;
 export type VisitReportValues = z.output<typeof visitReportSchema>;
 
-export const VISIT_PHOTO_KIND_VALUES = ["before", "after"] as const;
-export const visitPhotoKindSchema = z.enum(VISIT_PHOTO_KIND_VALUES, { error: "Say whether it is a before or an after photo." });
+export const visitPhotoKindSchema = z.enum(VISIT_PHOTO_KINDS, { error: "Say whether it is a before or an after photo." });
 
 /** The calendar's edit form: a local date and time in the studio's zone (turned into `start` for PATCH). */
 export const visitEditFormSchema = z.object({

@@ -8,7 +8,7 @@ import { getDb } from "@/db/client";
 import { auditLog, careLogEntries, claims, files, finishLayers, ownerships, users, warrantyPolicies } from "@/db/schema";
 import { checkCoverage, DEFAULT_WARRANTY_POLICY, type WarrantyPolicy } from "@/lib/care/coverage";
 import { addMonths } from "@/lib/care/dates";
-import { CLAIM_STATES } from "@/db/schema";
+import { CLAIM_STATES } from "@/lib/care/vocabulary";
 import { addClaimPhoto } from "@/lib/claims/photos";
 import { getClaim, getOwnerClaim, getStaffClaim, type StaffClaimView } from "@/lib/claims/view-claim";
 import { listOwnerClaims } from "@/lib/claims/list";
