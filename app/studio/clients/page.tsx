@@ -16,7 +16,14 @@ export default async function StudioClientsPage() {
       <PageHeader
         title="Clients"
         lead="The people you sold to or serve: how to reach them, what they agreed to hear from you, their pieces and everything that happened with them."
-        actions={<ButtonLink href="/studio/clients/new">Add a client</ButtonLink>}
+        actions={
+          <>
+            <ButtonLink variant="secondary" href="/studio/clients/hand-over">
+              Hand-over mail
+            </ButtonLink>
+            <ButtonLink href="/studio/clients/new">Add a client</ButtonLink>
+          </>
+        }
       />
       <Suspense fallback={<p className="text-muted">Loading clients…</p>}>
         <ClientsTable timeZone={ctx.studio.timeZone} />
