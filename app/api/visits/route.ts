@@ -1,22 +1,16 @@
-import { NextResponse } from "next/server";
-import { parseJson, parseQuery, route } from "@/lib/http/route";
-import { requireVisitActor } from "@/lib/visits/access";
-import { withFreshSlots } from "@/lib/visits/http";
+import { route } from "@/lib/http/route";
 import { bookVisit } from "@/lib/visits/book";
+import { withFreshSlots } from "@/lib/visits/http";
 import { listVisits } from "@/lib/visits/list";
+import { visitActorOf } from "@/lib/visits/visible";
 import { bookVisitSchema, listVisitsQuerySchema } from "@/lib/validation/visits";
 
 export const dynamic = "force-dynamic";
 
+const EVERYONE = ["admin", "staff", "technician", "owner"] as const;
+
 /** GET /api/visits?technician&from&to */
-export const GET = route(async (req) => {
-  const q = parseQuery(req, listVisitsQuerySchema);
-  return NextResponse.json(listVisits(await requireVisitActor(), q));
-});
+export const GET = route({ roles: EVERYONE, query: listVisitsQuerySchema }, ({ actor, query }) => listVisits(visitActorOf(actor), query));
 
 /** POST /api/visits { jobId, technicianId, start, location? } → 201 with the visit, 409 with fresh slots. */
-export const POST = route(async (req) => {
-  const actor = await requireVisitActor();
-  const input = await parseJson(req, bookVisitSchema);
-  return withFreshSlots(() => bookVisit(actor, input), 201);
-});
+export const POST = route({ roles: EVERYONE, body: bookVisitSchema }, ({ actor, body }) => withFreshSlots(() => bookVisit(visitActorOf(actor), body), 201));

@@ -1,13 +1,10 @@
-import { parseJson, route } from "@/lib/http/route";
-import { requireVisitActor } from "@/lib/visits/access";
+import { route } from "@/lib/http/route";
 import { withFreshSlots } from "@/lib/visits/http";
 import { moveVisit } from "@/lib/visits/reschedule";
+import { visitActorOf } from "@/lib/visits/visible";
 import { moveVisitSchema, visitIdParams } from "@/lib/validation/visits";
 
 /** PATCH /api/visits/[id] { start, technicianId?, location? }: moves the visit (same checks as booking). */
-export const PATCH = route<{ id: string }>(async (req, { params }) => {
-  const { id } = visitIdParams.parse(params);
-  const actor = await requireVisitActor();
-  const input = await parseJson(req, moveVisitSchema);
-  return withFreshSlots(() => moveVisit(actor, id, input));
-});
+export const PATCH = route({ roles: ["admin", "staff", "technician", "owner"], params: visitIdParams, body: moveVisitSchema }, ({ actor, params, body }) =>
+  withFreshSlots(() => moveVisit(visitActorOf(actor), params.id, body)),
+);

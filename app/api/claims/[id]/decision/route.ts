@@ -1,13 +1,6 @@
-import { NextResponse } from "next/server";
-import { requireStaff } from "@/lib/auth/guards";
 import { decideClaim } from "@/lib/claims/decide-claim";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { claimDecisionSchema, idParam } from "@/lib/validation/claims";
 
 /** `{ decision, coveredPct?, reason, expectedVersion? }`. Illegal from the claim's state → 409. */
-export const POST = route<{ id: string }>(async (req, ctx) => {
-  const { id } = idParam.parse(ctx.params);
-  const staff = await requireStaff();
-  const claim = await decideClaim(staff, id, await parseJson(req, claimDecisionSchema));
-  return NextResponse.json({ claim });
-});
+export const POST = route({ roles: ["admin", "staff"], params: idParam, body: claimDecisionSchema }, async ({ actor, params, body }) => ({ claim: await decideClaim(actor, params.id, body) }));

@@ -1,13 +1,6 @@
-import { NextResponse } from "next/server";
-import { requireStaff } from "@/lib/auth/guards";
 import { transitionClaim } from "@/lib/claims/transition";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { claimStateSchema, idParam } from "@/lib/validation/claims";
 
 /** `{ to, expectedVersion? }`: start review, resume review, repair booked, closed. Illegal → 409. */
-export const POST = route<{ id: string }>(async (req, ctx) => {
-  const { id } = idParam.parse(ctx.params);
-  const staff = await requireStaff();
-  const input = await parseJson(req, claimStateSchema);
-  return NextResponse.json({ claim: transitionClaim(staff, id, input) });
-});
+export const POST = route({ roles: ["admin", "staff"], params: idParam, body: claimStateSchema }, ({ actor, params, body }) => ({ claim: transitionClaim(actor, params.id, body) }));

@@ -1,13 +1,9 @@
-import { NextResponse } from "next/server";
-import { parseJson, route } from "@/lib/http/route";
-import { requireVisitActor } from "@/lib/visits/access";
+import { route } from "@/lib/http/route";
 import { cancelVisit } from "@/lib/visits/cancel";
+import { visitActorOf } from "@/lib/visits/visible";
 import { cancelVisitSchema, visitIdParams } from "@/lib/validation/visits";
 
-/** POST /api/visits/[id]/cancel { reason? } */
-export const POST = route<{ id: string }>(async (req, { params }) => {
-  const { id } = visitIdParams.parse(params);
-  const actor = await requireVisitActor();
-  const body = await parseJson(req, cancelVisitSchema.optional(), { optional: true });
-  return NextResponse.json({ visit: await cancelVisit(actor, id, body) });
-});
+/** POST /api/visits/[id]/cancel { reason? } (an empty body too). */
+export const POST = route({ roles: ["admin", "staff", "technician", "owner"], params: visitIdParams, body: cancelVisitSchema.optional(), optionalBody: true }, async ({ actor, params, body }) => ({
+  visit: await cancelVisit(visitActorOf(actor), params.id, body),
+}));
