@@ -1,5 +1,5 @@
 import "server-only";
-import { Document, Font, Page, Path, Rect, StyleSheet, Svg, Text, View, renderToBuffer } from "@react-pdf/renderer";
+import { Canvas, Document, Font, Page, Path, StyleSheet, Svg, Text, View, renderToBuffer } from "@react-pdf/renderer";
 import { and, eq, inArray, isNull } from "drizzle-orm";
 import QRCode from "qrcode";
 import { getDb } from "@/db/client";
@@ -20,13 +20,13 @@ import { openRegistrationCode } from "./registration";
 // The drawer card: a printable card that travels in the piece's drawer, 4 × 6 in (288 × 432 pt) or
 // A6 (105 × 148 mm), one per page for a card printer or several per Letter / A4 sheet with cut marks.
 // Text is real PDF text (Helvetica/Courier), so it can be searched and read by assistive tools; the
-// QR code of APP_URL/r/<code> is drawn as vector squares (no image to encode or decode).
+// QR code of APP_URL/r/<code> is painted as vector squares (no image to encode or decode).
 //
 // Fitting: the header (brand, a title of at most two lines, one subtitle line) and the code box have
 // fixed heights, so only the body (curing, care basics, coming up, caution) varies. A body is tried
 // on a page of the card's size at the largest type first; while it runs onto a second page, the next
-// tighter level is tried. The level found is kept per body and size for the process, so a batch of
-// cards with the same finishes measures once.
+// tighter level is tried (the last level is the floor). The level found is kept per body and size for
+// the process, dates written as the widest date, so a batch of cards with the same finishes measures once.
 
 // Whole words only: hyphenated "some- where" reads badly on a small card.
 Font.registerHyphenationCallback((word) => [word]);
@@ -103,12 +103,12 @@ const s = StyleSheet.create({
   by: { fontSize: 5.5, color: "#857d70", marginTop: 1 },
 });
 
-/** The QR code as one vector path of dark squares on white, with a two-module quiet zone. */
+/** The QR code as vector squares (one rectangle per run of dark modules) on white, with a two-module quiet zone. */
 function QrCode({ url, size }: { url: string; size: number }) {
   const { modules } = QRCode.create(url, { errorCorrectionLevel: "M" });
   const n = modules.size;
   const q = 2;
-  let d = "";
+  const runs: [number, number, number][] = [];
   for (let r = 0; r < n; r++) {
     for (let c = 0; c < n; ) {
       if (!modules.get(r, c)) {
@@ -117,16 +117,19 @@ function QrCode({ url, size }: { url: string; size: number }) {
       }
       let run = 1;
       while (c + run < n && modules.get(r, c + run)) run++;
-      d += `M${c + q} ${r + q}h${run}v1h-${run}z`;
+      runs.push([c + q, r + q, run]);
       c += run;
     }
   }
-  return (
-    <Svg viewBox={`0 0 ${n + 2 * q} ${n + 2 * q}`} style={{ width: size, height: size }}>
-      <Rect x={0} y={0} width={n + 2 * q} height={n + 2 * q} fill="#ffffff" />
-      <Path d={d} fill="#000000" />
-    </Svg>
-  );
+  // Painted straight onto the page (react-pdf's Canvas), with no SVG path to parse.
+  const paint = (p: { rect: (x: number, y: number, w: number, h: number) => typeof p; fill: (c: string) => typeof p }, w: number) => {
+    const m = w / (n + 2 * q);
+    p.rect(0, 0, w, w).fill("#ffffff");
+    for (const [x, y, len] of runs) p.rect(x * m, y * m, len * m, m);
+    p.fill("#000000");
+    return null;
+  };
+  return <Canvas style={{ width: size, height: size }} paint={paint} />;
 }
 
 /** A long address in lines of at most `max` characters, broken after a "/" or "." where it can be. */
@@ -292,29 +295,37 @@ function pageCount(pdf: Buffer): number {
 const FIT_CACHE_MAX = 500;
 const fitCache = new Map<string, number>();
 
+const A_DATE = /\b\d{1,2} (January|February|March|April|May|June|July|August|September|October|November|December) \d{4}\b/g;
+
+/**
+ * The card as it is measured: every date written as the widest one ("28 September 2027"), so that one
+ * measurement holds for every piece with the same finishes and the same kind of schedule, whatever
+ * its dates (a shorter date never needs more lines).
+ */
+function measuredBody(card: CardData): CardData {
+  const widest = (s: string) => s.replace(A_DATE, "28 September 2027");
+  return { ...card, curing: card.curing && widest(card.curing), schedule: card.schedule.map(widest) };
+}
+
 function fitKey(card: CardData, size: CardSize, brand: PdfBrand): string {
   // Everything but the title (two fixed lines) and the code (fixed width in Courier) decides the height.
   return JSON.stringify([size, !!brand.logo, card.curing, card.basics, card.schedule, card.cautions, card.hasOil]);
 }
 
-/**
- * The loosest level at which the card fits one page of `size`, and that one-page PDF when it was
- * rendered on the way (a single card uses it as it is).
- */
-async function fitCard(card: CardData, brand: PdfBrand, size: CardSize): Promise<{ level: number; pdf: Buffer | null }> {
-  const key = fitKey(card, size, brand);
+/** The loosest level at which the card fits one page of `size` (measured once per body and size). */
+async function fitLevel(card: CardData, brand: PdfBrand, size: CardSize): Promise<number> {
+  const body = measuredBody(card);
+  const key = fitKey(body, size, brand);
   const known = fitCache.get(key);
-  if (known !== undefined) return { level: known, pdf: null };
+  if (known !== undefined) return known;
   let level = 0;
-  let pdf: Buffer | null = null;
-  for (; level < LEVELS.length; level++) {
-    pdf = await renderToBuffer(<CardPages cards={[card]} brand={brand} size={size} levels={[LEVELS[level]!]} />);
+  for (; level < LEVELS.length - 1; level++) {
+    const pdf = await renderToBuffer(<CardPages cards={[body]} brand={brand} size={size} levels={[LEVELS[level]!]} />);
     if (pageCount(pdf) === 1) break;
   }
-  level = Math.min(level, LEVELS.length - 1);
   if (fitCache.size >= FIT_CACHE_MAX) fitCache.delete(fitCache.keys().next().value!);
   fitCache.set(key, level);
-  return { level, pdf };
+  return level;
 }
 
 // ---- data ----
@@ -375,8 +386,8 @@ function fileSlug(title: string): string {
 /** GET /api/pieces/[id]/card.pdf: one card on one page of its size. */
 export async function renderDrawerCard(ctx: StudioContext, pieceId: string, size: CardSize = "4x6", now = new Date()): Promise<{ pdf: Buffer; filename: string }> {
   const [data, brand] = await Promise.all([drawerCardData(ctx, pieceId, now), pdfBrandOf(ctx.studio)]);
-  const fit = await fitCard(data, brand, size);
-  const pdf = fit.pdf ?? (await renderToBuffer(<CardPages cards={[data]} brand={brand} size={size} levels={[LEVELS[fit.level]!]} />));
+  const level = await fitLevel(data, brand, size);
+  const pdf = await renderToBuffer(<CardPages cards={[data]} brand={brand} size={size} levels={[LEVELS[level]!]} />);
   return { pdf, filename: `drawer-card-${fileSlug(data.title)}${size === "a6" ? "-a6" : ""}.pdf` };
 }
 
@@ -417,7 +428,7 @@ export async function renderDrawerCards(ctx: StudioContext, selection: CardSelec
   const cards = chosen.map((piece) => cardData(ctx, { piece, products, now }));
   const size: CardSize = layout === "letter" || layout === "a4" ? SHEETS[layout].card : layout;
   const levels: Level[] = [];
-  for (const card of cards) levels.push(LEVELS[(await fitCard(card, brand, size)).level]!);
+  for (const card of cards) levels.push(LEVELS[await fitLevel(card, brand, size)]!);
   const doc = layout === "letter" || layout === "a4" ? <CardSheets cards={cards} brand={brand} sheet={SHEETS[layout]} levels={levels} /> : <CardPages cards={cards} brand={brand} size={layout} levels={levels} />;
   const pdf = await renderToBuffer(doc);
   const what = layout === "letter" ? "letter-sheets" : layout === "a4" ? "a4-sheets" : layout;
