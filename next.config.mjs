@@ -1,3 +1,4 @@
+import { actionOrigins } from "./lib/http/action-origins.mjs";
 import { securityHeaders } from "./lib/http/security-headers.mjs";
 
 const dev = process.env.NODE_ENV !== "production";
@@ -5,24 +6,6 @@ const dev = process.env.NODE_ENV !== "production";
 // (the benchmark's bare-route floor, app/api/bench/same-json/route.bench.ts); every other build leaves
 // them out. "bench.ts" comes first so that it, not "ts", is the extension of route.bench.ts.
 const pageExtensions = process.env.GRAINWARD_BENCH_BUILD === "1" ? ["bench.ts", "tsx", "ts", "jsx", "js"] : ["tsx", "ts", "jsx", "js"];
-
-/**
- * The hosts (name[:port]) whose pages may call server actions besides the host a request was sent
- * to: APP_URL's and ALLOWED_ORIGINS' (comma-separated origins, lib/env.ts), the same addresses route
- * handlers accept (lib/http/origin.ts). Read when the server starts: set ALLOWED_ORIGINS there.
- */
-export function actionOrigins(env = process.env) {
-  const origins = [env.APP_URL, ...(env.ALLOWED_ORIGINS ?? "").split(",")].map((s) => s?.trim()).filter(Boolean);
-  const hosts = [];
-  for (const origin of origins) {
-    try {
-      hosts.push(new URL(origin).host);
-    } catch {
-      // lib/env.ts refuses it at start-up with a message saying how to write it.
-    }
-  }
-  return [...new Set(hosts)];
-}
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {

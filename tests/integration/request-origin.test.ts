@@ -54,7 +54,7 @@ describe("origins", () => {
   });
 
   it("server actions accept the same addresses (next.config.mjs gives Next.js their hosts)", async () => {
-    const { actionOrigins } = await import("@/next.config.mjs");
+    const { actionOrigins } = await import("@/lib/http/action-origins.mjs");
     expect(actionOrigins({ APP_URL: "http://localhost:3999", ALLOWED_ORIGINS: ` ${SECOND} , ${THIRD}/ ` })).toEqual(["localhost:3999", "192.168.1.20:3000", "care.studio.example"]);
     expect(actionOrigins({ APP_URL: "https://care.studio.example" })).toEqual(["care.studio.example"]);
   });

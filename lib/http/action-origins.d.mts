@@ -1,0 +1,1 @@
+export function actionOrigins(env?: { APP_URL?: string; ALLOWED_ORIGINS?: string }): string[];
