@@ -63,14 +63,14 @@ export function piecePlan(pieceId: string): PiecePlan | null {
 }
 
 /** For the owner's own piece (else 404): the plan it is under, and the plans that fit it. */
-export function plansForMyPiece(owner: Pick<User, "id">, pieceId: string, now = new Date()): { current: PiecePlan | null; offers: PlanOffer[] } {
+export function plansForMyPiece(owner: Pick<User, "id">, pieceId: string, now = new Date()): { current: PiecePlan | null; offers: PlanOffer[]; country: string } {
   const piece = ownedPieceRow(owner, pieceId);
-  const current = piecePlan(piece.id);
-  if (current) return { current, offers: [] };
   const studio = getDb().select().from(studios).where(eq(studios.id, piece.studioId)).get()!;
+  const current = piecePlan(piece.id);
+  if (current) return { current, offers: [], country: studio.country };
   const offers = templatesFitting(piece).map((t): PlanOffer => {
     const price = planPrice(studio, t);
     return { id: t.id, name: t.name, summary: t.summary, version: t.version, interval: t.interval, currency: t.currency, priceMinor: price.totalMinor, taxMinor: price.taxMinor, included: t.included, lastYear: lastYearOf(studio, piece, t, owner.id, now) };
   });
-  return { current, offers };
+  return { current, offers, country: studio.country };
 }

@@ -8,6 +8,7 @@ import { FinishStack } from "@/components/ui/finish-stack";
 import { FlashToast } from "@/components/owner/flash-toast";
 import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
+import { CarePlanSection } from "./care-plan-section";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatDate, formatInstant, formatTimeLeft } from "@/lib/format";
@@ -285,6 +286,8 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
           </>
         )}
       </Section>
+
+      <CarePlanSection user={user} pieceId={piece.id} timeZone={piece.timeZone} />
 
       {visitPhotos.length ? (
         <Section id="visit-photos" title="Photos from studio visits">

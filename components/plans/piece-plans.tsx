@@ -1,0 +1,70 @@
+// The owner's piece page (data from lib/plans/offers plansForMyPiece, loaded by care-plan-section.tsx): the care plan the piece is under, or the plans that fit it with what each
+// would have saved over their last year of care (computed from their log and the studio's prices).
+import { Card } from "@/components/ui/card";
+import { CARE_TASK_LABELS } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
+import { formatInstant, formatMoney } from "@/lib/format";
+import type { PiecePlan, PlanOffer } from "@/lib/plans/offers";
+import { BuyPlanButton } from "./buy-plan-button";
+
+const per = (o: Pick<PlanOffer, "interval">) => (o.interval === "year" ? "a year" : "a month");
+
+function included(o: PlanOffer): string[] {
+  const out: string[] = [];
+  if (o.included.visitsPerYear > 0) {
+    const visits = o.included.visitsPerYear === 1 ? "One studio visit a year" : `${o.included.visitsPerYear} studio visits a year`;
+    out.push(o.included.visitSharePct === 0 ? `${visits}, included` : `${visits}, you pay ${o.included.visitSharePct} % of each`);
+  }
+  if (o.included.tasks.length) out.push(`Done for you: ${o.included.tasks.map((t) => CARE_TASK_LABELS[t].toLowerCase()).join(", ")}`);
+  for (const l of o.included.extendedLines) out.push(`${CLAIM_CATEGORY_LABELS[l.category]}: warranty ${l.extraMonths} months longer while the plan runs`);
+  if (o.included.repairDiscountPct > 0) out.push(`${o.included.repairDiscountPct} % off paid repairs`);
+  return out;
+}
+
+export function PiecePlans({ pieceId, timeZone, current, offers, country }: { pieceId: string; timeZone: string; current: PiecePlan | null; offers: PlanOffer[]; country: string }) {
+  if (!current && offers.length === 0) return null;
+  return (
+    <section id="care-plan" aria-labelledby="care-plan-title" className="scroll-mt-4 space-y-3">
+      <h2 id="care-plan-title" className="font-display text-2xl font-semibold">
+        Care plan
+      </h2>
+      {current ? (
+        <Card className="space-y-1 p-4">
+          <p className="font-semibold">{current.name}</p>
+          <p>
+            {current.stateLabel}
+            {current.periodEnd ? ` · ${current.state === "ending" ? "ends" : "renews"} on ${formatInstant(current.periodEnd, timeZone)}` : ""}
+          </p>
+        </Card>
+      ) : (
+        <ul className="space-y-3">
+          {offers.map((o) => (
+            <li key={o.id}>
+              <Card className="space-y-2 p-4">
+                <p className="font-semibold">{o.name}</p>
+                <p>
+                  {formatMoney(o.priceMinor, o.currency, country)} {per(o)}
+                  {o.taxMinor > 0 ? ` (including ${formatMoney(o.taxMinor, o.currency, country)} tax)` : ""}
+                </p>
+                {o.summary ? <p className="text-sm text-muted">{o.summary}</p> : null}
+                <ul className="list-disc space-y-1 pl-5 text-sm">
+                  {included(o).map((line) => (
+                    <li key={line}>{line}</li>
+                  ))}
+                </ul>
+                {o.lastYear ? (
+                  <p className="text-sm">
+                    Over the last year you logged {o.lastYear.entries === 1 ? "one task" : `${o.lastYear.entries} tasks`} this plan includes. As studio visits
+                    they would have cost {formatMoney(o.lastYear.wouldHaveCostMinor, o.currency, country)}; a year of the plan is {formatMoney(o.lastYear.planYearMinor, o.currency, country)}
+                    {o.lastYear.savedMinor > 0 ? `, so it would have saved you ${formatMoney(o.lastYear.savedMinor, o.currency, country)}.` : ", so it would not have saved you money on that care alone."}
+                  </p>
+                ) : null}
+                <BuyPlanButton pieceId={pieceId} templateId={o.id} planName={o.name} />
+              </Card>
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
