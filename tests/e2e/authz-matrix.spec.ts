@@ -412,6 +412,8 @@ const ROUTES: RouteRow[] = [
     send: ({ who, api }) => api.delete(`/api/pieces/${who === "admin" ? S.pieceToDelete.admin : S.pieceToDelete.staff}`),
   },
   { route: "GET /api/pieces/[id]/card.pdf", expect: "401 403 403 403 200 200 404 404", send: ({ api }) => api.get(`/api/pieces/${F.demoPieceId}/card.pdf`) },
+  // Drawer cards in bulk: the demo studio's piece prints for its staff; for the other studio's it is one of someone else's ids, a 404.
+  { route: "GET /api/pieces/cards", expect: "401 403 403 403 200 200 404 404", send: ({ api }) => api.get(`/api/pieces/cards?layout=letter&ids=${F.demoPieceId}`) },
   { route: "POST /api/pieces/[id]/layers", expect: "401 403 403 403 201 201 404 404", before: throwaways, send: ({ api }) => api.post(`/api/pieces/${S.piece.id}/layers`, { data: validLayer }) },
   { route: "PATCH /api/pieces/[id]/layers/[layerId]", expect: "401 403 403 403 200 200 404 404", before: throwaways, send: ({ api }) => api.patch(`/api/pieces/${S.piece.id}/layers/${S.layerId}`, { data: { coats: 2 } }) },
   {
