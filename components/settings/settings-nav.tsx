@@ -8,6 +8,7 @@ import { cn } from "@/components/ui/cn";
 const ITEMS = [
   { href: "/studio/settings", label: "Profile and rates" },
   { href: "/studio/settings/warranty", label: "Warranty policy" },
+  { href: "/studio/settings/plans", label: "Care plans" },
   { href: "/studio/settings/reminders", label: "Reminder timing" },
   { href: "/studio/settings/visits", label: "Visit booking" },
   { href: "/studio/settings/repairs", label: "Repair prices and tax" },
