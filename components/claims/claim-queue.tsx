@@ -3,8 +3,6 @@
 import { useQuery } from "@tanstack/react-query";
 import { Camera, Clock, Search } from "lucide-react";
 import Link from "next/link";
-import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
@@ -12,6 +10,7 @@ import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF, formatWait } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
 import { apiJson } from "@/components/api-client";
+import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { StateBadge } from "./state-badge";
 import { formatCount } from "@/lib/format";
 
@@ -34,32 +33,8 @@ const FILTERS = ["q", "state", "category", "age", "pieceId", "sort", "page"] as 
 
 /** The triage queue: filters live in the URL, the list comes from GET /api/claims through TanStack Query. */
 export function ClaimQueue() {
-  const params = useSearchParams();
-  const router = useRouter();
-  const pathname = usePathname();
-  const qs = new URLSearchParams();
-  for (const f of FILTERS) {
-    const v = params.get(f);
-    if (v) qs.set(f, v);
-  }
-  const key = qs.toString();
+  const { qs: key, get, set, anySetBut, typed, setTyped } = useUrlFilters(FILTERS);
   const { data, isPending, isError, error } = useQuery({ queryKey: ["claims", key], queryFn: () => apiJson<List>(`/api/claims?${key}`), refetchInterval: 60_000 });
-  /** Changing a filter or the search goes back to the first page. */
-  const set = (name: (typeof FILTERS)[number], value: string) => {
-    const next = new URLSearchParams(qs);
-    if (value) next.set(name, value);
-    else next.delete(name);
-    if (name !== "page") next.delete("page");
-    router.replace(`${pathname}?${next.toString()}`, { scroll: false });
-  };
-  const [typed, setTyped] = useState(params.get("q") ?? "");
-  const urlQ = params.get("q") ?? "";
-  useEffect(() => {
-    if (typed.trim() === urlQ) return;
-    const t = setTimeout(() => set("q", typed.trim()), 300);
-    return () => clearTimeout(t);
-    // eslint-disable-next-line react-hooks/exhaustive-deps -- only the typed text schedules a URL change
-  }, [typed]);
   const now = data ? Date.parse(data.now) : 0;
   const lastPage = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
   const from = data && data.total > 0 ? (data.page - 1) * data.pageSize + 1 : 0;
@@ -71,7 +46,7 @@ export function ClaimQueue() {
         <Search aria-hidden className="pointer-events-none absolute bottom-3 left-3 size-5 text-muted" />
       </div>
       <div className="grid grid-cols-2 gap-3 md:grid-cols-5">
-        <SelectField label="State" value={params.get("state") ?? "open"} onChange={(e) => set("state", e.target.value === "open" ? "" : e.target.value)}>
+        <SelectField label="State" value={get("state") || "open"} onChange={(e) => set({ state: e.target.value === "open" ? "" : e.target.value })}>
           <option value="open">Open (new, reviewing, waiting)</option>
           <option value="all">All states</option>
           {STATES.map((s) => (
@@ -80,7 +55,7 @@ export function ClaimQueue() {
             </option>
           ))}
         </SelectField>
-        <SelectField label="Category" value={params.get("category") ?? "all"} onChange={(e) => set("category", e.target.value === "all" ? "" : e.target.value)}>
+        <SelectField label="Category" value={get("category") || "all"} onChange={(e) => set({ category: e.target.value === "all" ? "" : e.target.value })}>
           <option value="all">All categories</option>
           {CLAIM_CATEGORIES.map((c) => (
             <option key={c} value={c}>
@@ -88,13 +63,13 @@ export function ClaimQueue() {
             </option>
           ))}
         </SelectField>
-        <SelectField label="Filed" value={params.get("age") ?? "any"} onChange={(e) => set("age", e.target.value === "any" ? "" : e.target.value)}>
+        <SelectField label="Filed" value={get("age") || "any"} onChange={(e) => set({ age: e.target.value === "any" ? "" : e.target.value })}>
           <option value="any">Any time</option>
           <option value="under_2d">In the last 2 days</option>
           <option value="2_to_7d">2–7 days ago</option>
           <option value="over_7d">Over 7 days ago</option>
         </SelectField>
-        <SelectField label="Piece" value={params.get("pieceId") ?? ""} onChange={(e) => set("pieceId", e.target.value)}>
+        <SelectField label="Piece" value={get("pieceId")} onChange={(e) => set({ pieceId: e.target.value })}>
           <option value="">All pieces</option>
           {data?.pieces.map((p) => (
             <option key={p.id} value={p.id}>
@@ -102,7 +77,7 @@ export function ClaimQueue() {
             </option>
           ))}
         </SelectField>
-        <SelectField label="Sort" value={params.get("sort") ?? "oldest"} onChange={(e) => set("sort", e.target.value === "oldest" ? "" : e.target.value)}>
+        <SelectField label="Sort" value={get("sort") || "oldest"} onChange={(e) => set({ sort: e.target.value === "oldest" ? "" : e.target.value })}>
           <option value="oldest">Oldest first</option>
           <option value="newest">Newest first</option>
         </SelectField>
@@ -116,9 +91,9 @@ export function ClaimQueue() {
       ) : null}
       {data && data.claims.length === 0 ? (
         <p className="rounded-xl border border-line bg-card p-5 text-muted">
-          {urlQ
-            ? `No claims match “${urlQ}” with these filters.`
-            : [...params.keys()].some((k) => k !== "sort")
+          {get("q")
+            ? `No claims match “${get("q")}” with these filters.`
+            : anySetBut(["sort"])
               ? "No claims match these filters."
               : "No open claims. When an owner reports damage on one of the studio's pieces, the claim appears here with its photos and a coverage check."}
         </p>
@@ -148,13 +123,13 @@ export function ClaimQueue() {
       ) : null}
       {data && lastPage > 1 ? (
         <nav aria-label="Pages of claims" className="flex items-center justify-between gap-3">
-          <Button variant="secondary" disabled={data.page <= 1} onClick={() => set("page", data.page - 1 > 1 ? String(data.page - 1) : "")}>
+          <Button variant="secondary" disabled={data.page <= 1} onClick={() => set({ page: data.page - 1 > 1 ? String(data.page - 1) : "" })}>
             Previous
           </Button>
           <span className="text-sm text-muted">
             Page {data.page} of {lastPage}
           </span>
-          <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set("page", String(data.page + 1))}>
+          <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set({ page: String(data.page + 1) })}>
             Next
           </Button>
         </nav>

@@ -3,9 +3,9 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight, Download, Search, X } from "lucide-react";
 import Link from "next/link";
-import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { useEffect, useMemo, useState } from "react";
+import { useMemo } from "react";
 import { apiJson } from "@/components/api-client";
+import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { SelectField } from "@/components/ui/field";
@@ -14,46 +14,17 @@ import type { ClientPage } from "@/lib/clients/list";
 import { formatCount, formatInstant } from "@/lib/format";
 
 const KEYS = ["q", "filter", "sort", "dir", "page"] as const;
-type Key = (typeof KEYS)[number];
 
 /** The studio's clients: search, filters, sort and page live in the URL; rows come from GET /api/clients. */
 /** `timeZone`: the studio's, in which the last-change dates are read. */
 export function ClientsTable({ timeZone }: { timeZone: string }) {
-  const params = useSearchParams();
-  const router = useRouter();
-  const pathname = usePathname();
-  const qs = useMemo(() => {
-    const p = new URLSearchParams();
-    for (const k of KEYS) {
-      const v = params.get(k);
-      if (v) p.set(k, v);
-    }
-    return p.toString();
-  }, [params]);
-  const set = (changes: Partial<Record<Key, string | null>>) => {
-    const p = new URLSearchParams(qs);
-    for (const [k, v] of Object.entries(changes)) {
-      if (v) p.set(k, v);
-      else p.delete(k);
-    }
-    if (!("page" in changes)) p.delete("page");
-    const s = p.toString();
-    router.replace(s ? `${pathname}?${s}` : pathname, { scroll: false });
-  };
-  const [typed, setTyped] = useState(params.get("q") ?? "");
-  const urlQ = params.get("q") ?? "";
-  useEffect(() => {
-    if (typed.trim() === urlQ) return;
-    const t = setTimeout(() => set({ q: typed.trim() || null }), 300);
-    return () => clearTimeout(t);
-    // eslint-disable-next-line react-hooks/exhaustive-deps -- only the typed text schedules a URL change
-  }, [typed]);
+  const { qs, get, set, clear, typed, setTyped } = useUrlFilters(KEYS);
 
   const query = useQuery({ queryKey: ["clients", qs], queryFn: () => apiJson<ClientPage>(`/api/clients${qs ? `?${qs}` : ""}`), placeholderData: keepPreviousData });
   const data = query.data;
-  const sort = params.get("sort") ?? "name";
-  const dir = params.get("dir") ?? (sort === "name" ? "asc" : "desc");
-  const filtersOn = !!(params.get("q") || params.get("filter"));
+  const sort = get("sort") || "name";
+  const dir = get("dir") || (sort === "name" ? "asc" : "desc");
+  const filtersOn = !!(get("q") || get("filter"));
   const from = data && data.total ? (data.page - 1) * data.pageSize + 1 : 0;
   const to = data ? from + data.rows.length - 1 : 0;
   const exportQs = useMemo(() => {
@@ -98,7 +69,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
           />
         </div>
         <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-3">
-          <SelectField label="Show" value={params.get("filter") ?? ""} onChange={(e) => set({ filter: e.target.value || null })}>
+          <SelectField label="Show" value={get("filter")} onChange={(e) => set({ filter: e.target.value || null })}>
             <option value="">Everyone</option>
             <option value="account">With a Grainward account</option>
             <option value="invited">Sent the hand-over mail, not registered yet</option>
@@ -119,7 +90,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
           </div>
           {filtersOn ? (
             <div className="flex items-end">
-              <Button variant="ghost" onClick={() => (setTyped(""), router.replace(pathname, { scroll: false }))}>
+              <Button variant="ghost" onClick={clear}>
                 <X aria-hidden className="size-4" /> Clear search and filter
               </Button>
             </div>

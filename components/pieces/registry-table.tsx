@@ -3,9 +3,9 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight, Download, Search, X } from "lucide-react";
 import Link from "next/link";
-import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import { useEffect, useMemo, useState } from "react";
+import { useState } from "react";
 import { ApiError, apiJson, isApiError } from "@/components/api-client";
+import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
@@ -17,34 +17,12 @@ import { CareStatus, RegistrationStatus } from "./status";
 import { formatCount } from "@/lib/format";
 
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
-type Key = (typeof FILTER_KEYS)[number];
 
 const selectCls = "min-h-11 rounded-lg border border-line bg-white px-3 py-2 text-sm text-ink focus:border-resin";
 
 /** The registry: all table state lives in the URL, so a view can be shared and survives a reload. */
 export function RegistryTable() {
-  const params = useSearchParams();
-  const router = useRouter();
-  const pathname = usePathname();
-  const qs = useMemo(() => {
-    const p = new URLSearchParams();
-    for (const k of FILTER_KEYS) {
-      const v = params.get(k);
-      if (v) p.set(k, v);
-    }
-    return p.toString();
-  }, [params]);
-
-  const set = (changes: Partial<Record<Key, string | null>>, resetPage = true) => {
-    const p = new URLSearchParams(qs);
-    for (const [k, v] of Object.entries(changes)) {
-      if (v) p.set(k, v);
-      else p.delete(k);
-    }
-    if (resetPage && !("page" in changes)) p.delete("page");
-    const s = p.toString();
-    router.replace(s ? `${pathname}?${s}` : pathname, { scroll: false });
-  };
+  const { qs, get: v, set, clear, anySetBut, typed, setTyped } = useUrlFilters(FILTER_KEYS);
 
   // Pieces ticked for printing their drawer cards; kept across pages and filters until cleared.
   const [chosen, setChosen] = useState<ReadonlySet<string>>(new Set());
@@ -58,14 +36,6 @@ export function RegistryTable() {
       return next;
     });
 
-  const [typed, setTyped] = useState(params.get("q") ?? "");
-  const urlQ = params.get("q") ?? "";
-  useEffect(() => {
-    if (typed === urlQ) return;
-    const t = setTimeout(() => set({ q: typed.trim() ? typed : null }), 300);
-    return () => clearTimeout(t);
-    // eslint-disable-next-line react-hooks/exhaustive-deps -- only the typed text schedules a URL change
-  }, [typed]);
 
   const query = useQuery({
     queryKey: ["pieces", qs],
@@ -82,11 +52,10 @@ export function RegistryTable() {
     placeholderData: keepPreviousData,
   });
 
-  const v = (k: Key) => params.get(k) ?? "";
   const data = query.data;
   const sort = v("sort") || (v("q") ? "created" : "delivered");
   const dir = v("dir") || (sort === "title" || sort === "next_due" ? "asc" : "desc");
-  const filtersOn = FILTER_KEYS.some((k) => !["sort", "dir", "page", "pageSize"].includes(k) && params.get(k));
+  const filtersOn = anySetBut(["sort", "dir", "page", "pageSize"]);
   const exportQs = new URLSearchParams(qs);
   exportQs.delete("page");
   exportQs.delete("pageSize");
@@ -113,7 +82,7 @@ export function RegistryTable() {
 
   return (
     <div className="space-y-4">
-      <form role="search" onSubmit={(e) => (e.preventDefault(), set({ q: typed.trim() ? typed : null }))} className="space-y-3 rounded-xl border border-line bg-card p-4">
+      <form role="search" onSubmit={(e) => (e.preventDefault(), set({ q: typed.trim() || null }))} className="space-y-3 rounded-xl border border-line bg-card p-4">
         <label htmlFor="registry-search" className="block text-sm font-medium">
           Search pieces
         </label>
@@ -183,7 +152,7 @@ export function RegistryTable() {
         </div>
         <div className="flex flex-wrap items-center gap-2">
           {filtersOn ? (
-            <Button variant="ghost" onClick={() => (setTyped(""), router.replace(pathname, { scroll: false }))}>
+            <Button variant="ghost" onClick={clear}>
               <X aria-hidden className="size-4" /> Clear search and filters
             </Button>
           ) : null}
@@ -301,7 +270,7 @@ export function RegistryTable() {
             ))}
           </ul>
           <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-2">
-            <Button variant="secondary" disabled={data.page <= 1} onClick={() => set({ page: String(data.page - 1) }, false)}>
+            <Button variant="secondary" disabled={data.page <= 1} onClick={() => set({ page: String(data.page - 1) })}>
               <ChevronLeft aria-hidden className="size-4" /> Previous
             </Button>
             <span className="text-sm text-muted">
@@ -318,7 +287,7 @@ export function RegistryTable() {
                   </option>
                 ))}
               </select>
-              <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set({ page: String(data.page + 1) }, false)}>
+              <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set({ page: String(data.page + 1) })}>
                 Next <ChevronRight aria-hidden className="size-4" />
               </Button>
             </div>
