@@ -12,6 +12,7 @@ import { PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import { getClient } from "@/lib/clients/get";
 import { ERASED_NAME } from "@/lib/clients/personal-data";
 import { CONSENT_KIND_LABELS, CONSENT_SOURCE_LABELS, CONTACT_METHOD_LABELS } from "@/lib/clients/vocabulary";
+import { ClientPlansSection } from "@/app/studio/plans/client-plans-section";
 
 export const metadata: Metadata = { title: "Client" };
 export const dynamic = "force-dynamic";
@@ -66,6 +67,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
               </ul>
             )}
           </Card>
+          <ClientPlansSection ctx={ctx} pieceIds={pieces.map((p) => p.id)} />
           <Card className="space-y-3">
             <h2 className="font-display text-xl font-semibold">Consent</h2>
             <dl className="space-y-1 text-sm">
