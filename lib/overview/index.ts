@@ -6,13 +6,12 @@ import { and, eq, gte, inArray, isNotNull, isNull, lt, ne } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { careLogEntries, claims, finishLayers, finishProducts, payments, pieces, refreshOffers, reminderSends, visits, warrantyPolicies } from "@/db/schema";
 import { CLAIM_STATES, OFFER_STATUSES } from "@/lib/care/vocabulary";
-import type { StudioContext } from "@/lib/auth/guards";
+import { assertRole, STAFF_ROLES, type StudioContext } from "@/lib/auth/guards";
 import { CareInputError } from "@/lib/care/errors";
 import { addDays, addMonths, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS, CLAIM_CATEGORIES, REMINDER_STEPS, type CareTaskKind, type ClaimCategory, type ReminderStep } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
-import { forbidden } from "@/lib/errors";
 import { scheduleFromColumns, toCatalog, type CareLayerColumns, type CarePieceColumns } from "@/lib/pieces/care-inputs";
 
 /** Care logged by the owner within this many days after a reminder counts as acting on it. */
@@ -48,7 +47,7 @@ export type Overview = {
 const OPEN_CLAIM_STATES: readonly ClaimState[] = ["submitted", "in_review", "awaiting_owner"];
 
 function assertStaff(ctx: StudioContext) {
-  if (ctx.role !== "admin" && ctx.role !== "staff") throw forbidden("The overview is for the studio's admins and staff.");
+  assertRole(ctx, STAFF_ROLES, "The overview is for the studio's admins and staff.");
 }
 
 /** YYYY-MM-01 of the month `monthsBack` months before the month of `today`. */

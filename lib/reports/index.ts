@@ -6,17 +6,17 @@ import { and, desc, eq, gte, inArray, isNotNull, isNull, lte } from "drizzle-orm
 import Papa from "papaparse";
 import { getDb } from "@/db/client";
 import { careLogEntries, claims, finishLayers, payments, pieces, refreshOffers, reminderSends, repairJobs, users } from "@/db/schema";
-import type { StudioContext } from "@/lib/auth/guards";
+import { assertRole, STAFF_ROLES, type StudioContext } from "@/lib/auth/guards";
 import { addDays, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, FINISH_CLASSES, RESIN_KINDS, RESIN_LABELS, type ClaimCategory, type FinishClass, type ResinKind } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
-import { forbidden, notFound } from "@/lib/errors";
+import { notFound } from "@/lib/errors";
 import { careLoggedAfter, monthStart, REMINDER_STEP_LABELS, WINDOW_MONTHS } from "@/lib/overview";
 import { claimRatesQuerySchema, reportListQuerySchema, type ClaimRatesQuery, type ReportListQuery } from "./query";
 
 function assertStaff(ctx: StudioContext) {
-  if (ctx.role !== "admin" && ctx.role !== "staff") throw forbidden("Reports are for the studio's admins and staff.");
+  assertRole(ctx, STAFF_ROLES, "Reports are for the studio's admins and staff.");
 }
 
 export type RateRow = { key: string; label: string; pieces: number; claims: number; per100: number | null };

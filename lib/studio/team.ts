@@ -3,9 +3,9 @@ import { and, asc, count, desc, eq, gt, isNull } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
 import { invitations, memberships, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
-import type { StudioContext } from "@/lib/auth/guards";
+import { assertRole, type StudioContext } from "@/lib/auth/guards";
 import { endAllSessions } from "@/lib/auth/session";
-import { conflict, forbidden, notFound } from "@/lib/errors";
+import { conflict, notFound } from "@/lib/errors";
 import { revokeInvitationSchema } from "@/lib/validation/auth";
 import { changeRoleSchema, removeMemberSchema } from "@/lib/validation/settings";
 
@@ -37,7 +37,7 @@ export function listOpenInvitations(ctx: StudioContext) {
 // transaction (SQLite serializes writers), so two admins demoting each other at once cannot both win.
 
 function assertAdminRole(ctx: StudioContext) {
-  if (ctx.role !== "admin") throw forbidden("Only the studio's admins can change the team.");
+  assertRole(ctx, ["admin"], "Only the studio's admins can change the team.");
 }
 
 function memberOf(tx: Pick<Db, "select">, ctx: StudioContext, membershipId: string) {
