@@ -25,7 +25,3 @@ export function ownerTaskState(status: "upcoming" | "due" | "overdue" | "done", 
   if (status === "due") return "soon";
   return daysUntilDue <= PLAN_AHEAD_DAYS ? "plan" : "later";
 }
-
-// Moved to lib/format (the one formatter); re-exported only while files other sessions have open
-// still import them from here.
-export * from "@/lib/format";

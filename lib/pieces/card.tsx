@@ -9,7 +9,7 @@ import { curingLayers } from "@/lib/care/cure";
 import { PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import { env } from "@/lib/env";
 import { notFound, unprocessable } from "@/lib/errors";
-import { formatDate } from "@/lib/owner/format";
+import { formatDate } from "@/lib/format";
 import { careBasics } from "./care-basics";
 import { pdfBrandOf, PdfBrandHeader, type PdfBrand } from "./card-brand";
 import { CARE_RECORDS_BY, CODE_WHEN_PIECE_CHANGES_HANDS } from "./card-words";

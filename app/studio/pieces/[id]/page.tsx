@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { Pencil } from "lucide-react";
 import Link from "next/link";
 import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
-import { formatAreaBoth, formatDate, formatLargeVolume, formatLengthBoth } from "@/lib/format";
+import { formatAreaBoth, formatDate, formatInstant, formatLargeVolume, formatLengthBoth } from "@/lib/format";
 import { whyNow } from "@/lib/reminders/content";
 import { PhotoUploader, PieceActions } from "@/components/pieces/piece-actions";
 import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pieces/status";
@@ -103,7 +103,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                     const after = (h.data.after ?? h.data.before) as { surface?: string; finishClass?: string; position?: number } | undefined;
                     return (
                       <li key={i} className="text-muted">
-                        {h.createdAt.toISOString().slice(0, 10)} · {HISTORY_WORDS[h.action] ?? h.action} {after?.finishClass?.replace(/_/g, " ")} on the {after?.surface}
+                        {formatInstant(h.createdAt, card.timeZone)} · {HISTORY_WORDS[h.action] ?? h.action} {after?.finishClass?.replace(/_/g, " ")} on the {after?.surface}
                         {h.action === "layer.moved" ? ` (to position ${(after?.position ?? 0) + 1})` : ""} · {h.actorName ?? "someone"}
                       </li>
                     );
@@ -176,7 +176,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                     d.owner.name
                   )}{" "}
                   · {d.owner.email}
-                  {p.registeredAt ? ` · since ${p.registeredAt.toISOString().slice(0, 10)}` : ""}
+                  {p.registeredAt ? ` · since ${formatInstant(p.registeredAt, card.timeZone)}` : ""}
                 </>
               ) : (
                 "Waiting for the owner to register with the code on the drawer card."

@@ -19,7 +19,7 @@ import { HoursEditor } from "@/components/visits/hours-editor";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { listCatalog } from "@/lib/catalog";
-import { formatInstant } from "@/lib/owner/format";
+import { formatInstant } from "@/lib/format";
 import { freshStudio, policyEditorValues, profileFormValues, reminderTiming, visitRules } from "@/lib/settings";
 import { ACCENT_NAMES, ACCENTS, logoPath } from "@/lib/studio/brand";
 import { SETUP_STEP_WORDS, isSetupStep, setupChecklist, type SetupStep } from "@/lib/studio/setup";
