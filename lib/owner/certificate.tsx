@@ -1,6 +1,11 @@
 import "server-only";
 import { Document, Page, StyleSheet, Text, View, renderToBuffer } from "@react-pdf/renderer";
+import { eq } from "drizzle-orm";
 import type { User } from "lucia";
+import { getDb } from "@/db/client";
+import { pieces, studios } from "@/db/schema";
+import { pdfBrandOf, PdfBrandHeader, type PdfBrand } from "@/lib/pieces/card-brand";
+import { CARE_RECORDS_BY } from "@/lib/pieces/card-words";
 import { formatDate, formatInstant, formatTimeLeft } from "@/lib/format";
 import { getMyPiece, type PieceDetail } from "./pieces";
 import { exclusionLabel, WARRANTY_STATUS_LABELS } from "./warranty";
@@ -11,11 +16,10 @@ import { exclusionLabel, WARRANTY_STATUS_LABELS } from "./warranty";
 const ink = "#1f2328";
 const muted = "#625b50";
 const line = "#e4dccf";
-const resin = "#0f5e5e";
 
 const s = StyleSheet.create({
   page: { padding: 48, fontSize: 10, color: ink, fontFamily: "Helvetica", backgroundColor: "#fffdf9" },
-  brand: { fontSize: 12, color: resin, fontFamily: "Helvetica-Bold", marginBottom: 18 },
+  brand: { marginBottom: 18 },
   title: { fontSize: 22, fontFamily: "Times-Bold", marginBottom: 4 },
   lead: { fontSize: 11, color: muted, marginBottom: 18 },
   h2: { fontSize: 13, fontFamily: "Times-Bold", marginTop: 16, marginBottom: 6 },
@@ -37,12 +41,16 @@ function Row({ k, v }: { k: string; v: string }) {
   );
 }
 
-export function CertificateDocument({ piece, ownerName, issuedAt }: { piece: PieceDetail; ownerName: string; issuedAt: Date }) {
+export function CertificateDocument({ piece, ownerName, issuedAt, brand }: { piece: PieceDetail; ownerName: string; issuedAt: Date; brand: PdfBrand }) {
   return (
-    <Document title={`Warranty certificate — ${piece.title}`} author="Grainward" subject="Warranty certificate">
+    <Document title={`Warranty certificate — ${piece.title}`} author={brand.name} subject="Warranty certificate" creator="Grainward" producer="Grainward">
       {/* Paper follows the owner's units: US Letter for imperial (US and Canadian readers), A4 otherwise. */}
       <Page size={piece.units === "imperial" ? "LETTER" : "A4"} style={s.page}>
-        <Text style={s.brand}>Grainward</Text>
+        {/* The studio's brand; Grainward's own name stays small, under it. */}
+        <View style={s.brand}>
+          <PdfBrandHeader brand={brand} fontSize={12} logoHeight={28} />
+          <Text style={{ fontSize: 7.5, color: muted, marginTop: 2 }}>{CARE_RECORDS_BY}</Text>
+        </View>
         <Text style={s.title}>Warranty certificate</Text>
         <Text style={s.lead}>
           {piece.title} · made by {piece.studio.name}
@@ -85,7 +93,8 @@ export function CertificateDocument({ piece, ownerName, issuedAt }: { piece: Pie
 /** The certificate PDF of a piece `owner` holds (else 404). */
 export async function certificatePdf(owner: Pick<User, "id" | "name" | "timeZone" | "unitSystem">, pieceId: string, now = new Date()) {
   const piece = getMyPiece(owner, pieceId, now);
-  const buffer = await renderToBuffer(<CertificateDocument piece={piece} ownerName={owner.name} issuedAt={now} />);
+  const studio = getDb().select({ name: studios.name, logoKey: studios.logoKey, accent: studios.accent }).from(pieces).innerJoin(studios, eq(studios.id, pieces.studioId)).where(eq(pieces.id, piece.id)).get()!;
+  const buffer = await renderToBuffer(<CertificateDocument piece={piece} ownerName={owner.name} issuedAt={now} brand={await pdfBrandOf(studio)} />);
   const slug = piece.title.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 60) || "piece";
   return { buffer, filename: `warranty-certificate-${slug}.pdf` };
 }

@@ -17,6 +17,7 @@ import { afterAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { pieces, studios } from "@/db/schema";
 import { localDate } from "@/lib/care/dates";
+import { certificatePdf } from "@/lib/owner/certificate";
 import { renderDrawerCard, renderDrawerCards, type CardLayout } from "@/lib/pieces/card";
 import { CARE_RECORDS_BY, CODE_WHEN_PIECE_CHANGES_HANDS } from "@/lib/pieces/card-words";
 import { createPiece, reissueRegistrationCode } from "@/lib/pieces/registry";
@@ -214,6 +215,27 @@ it("leaves the oily-rag and product cautions off a stack without oil that an own
   // A film finish is inspected, not recoated at home: no product goes on, so no label caution either.
   expect(text).not.toMatch(/safety data sheet/);
   expect(text).toMatch(/lift with two people/);
+});
+
+it("the warranty certificate carries the studio's logo and name on top, and Grainward's name small", async () => {
+  const { studio, ctx } = await studioWithStaff("Certificate Shop (invented)");
+  const { piece } = plainPiece(ctx, "Certified table (invented)");
+  const owner = await createUser({ name: "Cert Owner (invented)" });
+  getDb().update(pieces).set({ ownerId: owner.id, registeredAt: PRINTED }).where(eq(pieces.id, piece.id)).run();
+  const me = { id: owner.id, name: owner.name, timeZone: "UTC", unitSystem: "metric" as const };
+  const bare = (await certificatePdf(me, piece.id, PRINTED)).buffer;
+  expect(bare.toString("latin1")).not.toMatch(/\/Subtype\s*\/Image/);
+  const logo = await sharp({ create: { width: 300, height: 90, channels: 3, background: "#3d5c2a" } }).jpeg().toBuffer();
+  const stored = await storeImage(new Uint8Array(logo), ctx.user.id);
+  getDb().update(studios).set({ logoKey: stored.storageKey }).where(eq(studios.id, studio.id)).run();
+  const branded = await certificatePdf(me, piece.id, PRINTED);
+  expect(branded.buffer.toString("latin1")).toMatch(/\/Subtype\s*\/Image/);
+  const { pages } = readPdf(branded.buffer);
+  const top = [...pages[0]!.words].sort((a, b) => a.yMin - b.yMin);
+  expect(top.slice(0, 2).map((w) => w.text)).toEqual(["Certificate", "Shop"]);
+  const name = top[0]!;
+  const small = pages[0]!.words.find((w) => w.text === "Grainward")!;
+  expect(small.yMax - small.yMin).toBeLessThan(name.yMax - name.yMin);
 });
 
 describe("drawer cards in bulk", () => {
