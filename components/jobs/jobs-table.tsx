@@ -2,7 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { apiJson } from "@/components/api-client";
 import { StatusBadge } from "@/components/ui/status";
 import { Notice } from "@/components/ui/notice";
@@ -13,10 +13,8 @@ import { formatMoney } from "@/lib/format";
 type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: string; totalMinor: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null };
 
 export function JobsTable({ country }: { country: string }) {
-  const params = useSearchParams();
-  const router = useRouter();
-  const pathname = usePathname();
-  const state = params.get("state") ?? "";
+  const { get, set } = useUrlFilters(["state"]);
+  const state = get("state");
   const query = useQuery({
     queryKey: ["jobs", state],
     queryFn: async ({ signal }): Promise<JobRow[]> => (await apiJson<{ jobs: JobRow[] }>(`/api/jobs${state ? `?state=${state}` : ""}`, { signal })).jobs,
@@ -28,7 +26,7 @@ export function JobsTable({ country }: { country: string }) {
         <select
           className="min-h-11 rounded-lg border border-line bg-white px-3"
           value={state}
-          onChange={(e) => router.replace(e.target.value ? `${pathname}?state=${e.target.value}` : pathname)}
+          onChange={(e) => set({ state: e.target.value })}
         >
           <option value="">All states</option>
           {JOB_STATES.map((s) => (
