@@ -12,6 +12,7 @@ import { formatDate, formatMoney, formatMonth } from "@/lib/format";
 import { formatWait } from "@/lib/claims/labels";
 import { getOverview } from "@/lib/overview";
 import { setupChecklist } from "@/lib/studio/setup";
+import { PlanOverviewSection } from "./plans/overview-section";
 
 export const metadata: Metadata = { title: "Studio overview" };
 
@@ -174,6 +175,8 @@ export default async function StudioOverviewPage() {
           />
         </ChartPanel>
       </div>
+
+      <PlanOverviewSection ctx={ctx} />
 
       <section aria-labelledby="flows-h" className="my-8">
         <h2 id="flows-h" className="sr-only">

@@ -16,6 +16,7 @@ import { cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
 import { canMovePlan, PLAN_STATES } from "@/lib/plans/states";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
 import { plansForMyPiece } from "@/lib/plans/offers";
+import { listStudioPlans, planOverview } from "@/lib/plans/overview";
 import { livePlanOfPiece, startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
 import { createTemplate, planPrice, templatesFitting, updateTemplate } from "@/lib/plans/templates";
 import { planTemplateSchema } from "@/lib/plans/validation";
@@ -339,5 +340,23 @@ describe("what the owner is offered", () => {
     expect(() => plansForMyPiece(stranger, piece.id)).toThrow(expect.objectContaining({ status: 404 }));
     await buy(owner, piece, plan.id);
     expect(plansForMyPiece(owner, piece.id)).toMatchObject({ current: { name: plan.name, state: "running", stateLabel: "Running", paidBy: "card" }, offers: [] });
+  });
+});
+
+describe("the overview's plan figures", () => {
+  it("counts plans running, renewals due, lapsed, and revenue by the month paid (counted payments only)", async () => {
+    const { studio, admin, owner, piece, plan } = await setup();
+    const sub = await buy(owner, piece, plan.id);
+    const { piece: second } = createPiece(studio, { ownerId: owner.id });
+    startPlanByOtherMeans(admin, { pieceId: second.id, templateId: plan.id, paidByNote: "Bank transfer" });
+    const o = planOverview(admin);
+    expect(o).toMatchObject({ running: 2, renewalsDue: 0, lapsed: 0, inGrace: 0, totalMinor: 2 * 12_990 });
+    expect(o.revenue.at(-1)).toEqual({ month: localDate(new Date(), studio.timeZone).slice(0, 7), amountMinor: 2 * 12_990 });
+    // Renewals due in the next 30 days, as of a day 20 days before the period ends.
+    expect(planOverview(admin, new Date(sub.periodEnd!.getTime() - 20 * DAY)).renewalsDue).toBe(2);
+    expect(listStudioPlans(admin).map((p) => p.pieceTitle)).toHaveLength(2);
+    // Another studio sees none of them.
+    const other = await memberContext(createStudio({ email: `${unique("s")}@test.example` }), "admin");
+    expect(planOverview(other)).toMatchObject({ running: 0, totalMinor: 0 });
   });
 });
