@@ -21,6 +21,9 @@ export type OwnerActor = { role: "owner"; user: User; studio: null };
 export type Actor = StudioActor | OwnerActor;
 export type ActorRole = Actor["role"];
 
+/** What a where-builder (claimVisibleTo, jobVisibleTo, …) reads of an Actor; lib/ functions that hold only a user id pass { role: "owner", user, studio: null }. */
+export type ActorRef = { role: ActorRole; user: { id: string }; studio: { id: string } | null };
+
 /** The actor a list of roles lets in: only studio roles → a studio actor; "owner" among them → either. */
 export type ActorFor<R extends ActorRole> = [Exclude<R, "owner">] extends [never] ? OwnerActor : "owner" extends R ? Actor : StudioActor;
 

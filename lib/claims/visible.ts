@@ -1,8 +1,7 @@
 import "server-only";
 import { eq, type SQL } from "drizzle-orm";
 import { claims } from "@/db/schema";
-import type { Actor } from "@/lib/auth/actor";
-import type { ActorRef } from "@/lib/repairs/access";
+import type { Actor, ActorRef } from "@/lib/auth/actor";
 import { ownerViewer, staffViewer, type ClaimViewer } from "./viewer";
 
 /**

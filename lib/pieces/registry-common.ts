@@ -1,7 +1,7 @@
 // What every registry operation shares: the piece as the API hands it out, the studio-scoped piece
 // read (someone else's piece is a 404), the studio's catalog and members, and the studio's "today".
 import "server-only";
-import { and, asc, eq } from "drizzle-orm";
+import { asc, eq } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
 import { finishProducts, memberships, pieces, users, type FinishProduct, type Piece } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
@@ -9,6 +9,7 @@ import { localDate } from "@/lib/care/dates";
 import { notFound } from "@/lib/errors";
 import { registryStatements } from "./registry-sql";
 import type { DbOrTx } from "./search-index";
+import { pieceWhere } from "./access";
 
 /** A piece as the API hands it out: never the registration code's hash or sealed copy. */
 export type PublicPiece = Omit<Piece, "registrationCodeHash" | "registrationCodeEnc">;
@@ -24,7 +25,7 @@ export function today(ctx: StudioContext, now = new Date()): string {
 
 /** The piece row of the caller's studio, or 404 (also for another studio's piece). */
 export function loadPiece(ctx: StudioContext, pieceId: string, db: DbOrTx = getDb()): Piece {
-  const row = db.select().from(pieces).where(and(eq(pieces.id, pieceId), eq(pieces.studioId, ctx.studio.id))).get();
+  const row = db.select().from(pieces).where(pieceWhere(ctx, pieceId)).get();
   if (!row) throw notFound("No piece with that id in this studio.");
   return row;
 }

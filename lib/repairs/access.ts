@@ -2,7 +2,7 @@ import "server-only";
 import { and, eq, type SQL } from "drizzle-orm";
 import type { User } from "lucia";
 import { repairJobs } from "@/db/schema";
-import type { Actor, ActorRole } from "@/lib/auth/actor";
+import type { Actor, ActorRef } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { ownerJobWhere, type OwnerReach } from "./owner-reach";
 
@@ -22,9 +22,6 @@ export function jobActorOf(actor: Actor): JobActor {
 export function jobVisibleTo(actor: ActorRef, reach: OwnerReach = "act"): SQL {
   return actor.role === "owner" || !actor.studio ? ownerJobWhere(actor.user.id, reach) : eq(repairJobs.studioId, actor.studio.id);
 }
-
-/** What a where-builder reads of an Actor (lib/ functions that hold only a user id pass { role: "owner", user, studio: null }). */
-export type ActorRef = { role: ActorRole; user: { id: string }; studio: { id: string } | null };
 
 /** One job of the actor's, by id. */
 export function jobWhere(actor: ActorRef, jobId: string, reach: OwnerReach = "act"): SQL {

@@ -1,8 +1,7 @@
 import "server-only";
 import { eq, type SQL } from "drizzle-orm";
 import { repairJobs } from "@/db/schema";
-import type { Actor } from "@/lib/auth/actor";
-import type { ActorRef } from "@/lib/repairs/access";
+import type { Actor, ActorRef } from "@/lib/auth/actor";
 import { ownerVisitWhere } from "./access";
 import type { VisitActor } from "./visit-row";
 
