@@ -12,6 +12,7 @@ import { ownerJobWhere } from "@/lib/repairs/owner-reach";
 import { inboxQuerySchema, messageFormSchema, messageSubjectSchema, threadUpdateSchema } from "@/lib/validation/messages";
 import { mailOwner, mailStudio, type ThreadMailFacts } from "./mail";
 import { appendMessage, findThread, ownerMayWrite, subjectOf, threadFor, threadMessagesOf, type MessageView, type SubjectRef } from "./store";
+import { threadVisibleTo } from "./access";
 
 // Conversations between a studio and its owners, and the studio's inbox. Owners write on their own
 // claims, repair jobs and visits, and only while they hold the piece (a former owner reads their
@@ -98,14 +99,14 @@ export function ownerJobConversation(user: Pick<User, "id">, jobId: string) {
 // ---------------------------------------------------------------- the studio's inbox
 
 function studioThread(ctx: StudioContext, threadId: string): Thread {
-  const thread = getDb().select().from(threads).where(and(eq(threads.id, threadId), eq(threads.studioId, ctx.studio.id))).get();
+  const thread = getDb().select().from(threads).where(and(eq(threads.id, threadId), threadVisibleTo(ctx))).get();
   if (!thread) throw notFound("No conversation with that id in this studio.");
   return thread;
 }
 
 /** Threads with an owner message nobody in the studio has opened yet: the number in the header. */
 export function unreadCount(ctx: StudioContext): number {
-  return getDb().select({ n: sql<number>`count(*)` }).from(threads).where(and(eq(threads.studioId, ctx.studio.id), eq(threads.state, "unread"))).get()?.n ?? 0;
+  return getDb().select({ n: sql<number>`count(*)` }).from(threads).where(and(threadVisibleTo(ctx), eq(threads.state, "unread"))).get()?.n ?? 0;
 }
 
 export type InboxRow = {
@@ -155,7 +156,7 @@ export function listInbox(ctx: StudioContext, raw: unknown = {}, now = Date.now(
     .from(threads)
     .innerJoin(pieces, eq(pieces.id, threads.pieceId))
     .leftJoin(owner, eq(owner.id, threads.ownerId))
-    .where(and(eq(threads.studioId, ctx.studio.id), filter, exists(db.select({ one: sql`1` }).from(threadMessages).where(eq(threadMessages.threadId, threads.id)))))
+    .where(and(threadVisibleTo(ctx), filter, exists(db.select({ one: sql`1` }).from(threadMessages).where(eq(threadMessages.threadId, threads.id)))))
     .orderBy(sql`${threads.waitingSince} IS NULL`, asc(threads.waitingSince), desc(threads.lastMessageAt))
     .limit(200)
     .all();
