@@ -51,7 +51,7 @@ async function world(kind: keyof typeof STUDIOS) {
 async function renderPage(staff: StudioContext, page: () => Promise<React.ReactElement>): Promise<string> {
   asStaff = staff;
   // Client components on the page (charts, the message form) ask for the App Router; none navigates here.
-  const router = { back() {}, forward() {}, refresh() {}, push() {}, replace() {}, prefetch() {} };
+  const router = { back() {}, forward() {}, refresh() {}, push() {}, replace() {}, prefetch() {}, bfcacheId: "test" };
   return renderToStaticMarkup(createElement(AppRouterContext.Provider, { value: router }, await page())).replace(/<[^>]+>/g, " ").replace(/&amp;/g, "&").replace(/&#x27;|&#39;/g, "'").replace(/\s+/g, " ");
 }
 
