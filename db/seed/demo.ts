@@ -14,6 +14,7 @@ import { seedAftercareHistory } from "./aftercare-history";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { linkOwnersToClients } from "@/lib/clients/link";
 import { finishLayers, finishProducts, memberships, ownerships, pieces, studios, users, warrantyPolicies, type ContainerSize } from "../schema";
+import { seedPlans } from "./plans";
 
 export const DEMO_PASSWORD = "grainward-demo";
 export const DEMO_STUDIO_SLUG = "larchmere";
@@ -299,5 +300,6 @@ export async function seedDemo(db: Db, { today = new Date() }: { today?: Date } 
   seedAftercareHistory(db, result.studioId, today);
   // The studio's people as clients, as the migration that introduced clients did for existing data.
   linkOwnersToClients(db, result.studioId);
+  seedPlans(db, result.studioId, today);
   return { ...result, jobs };
 }

@@ -11,7 +11,8 @@ import { ownedPieceRow } from "@/lib/owner/pieces";
 import { priceJob } from "@/lib/repairs/pricing";
 import { PLAN_STATE_LABELS, type PlanState } from "./states";
 import { livePlanOfPiece } from "./subscriptions";
-import { planPrice, templatesFitting } from "./templates";
+import { planPrice } from "./price";
+import { templatesFitting } from "./templates";
 import type { PlanIncluded, PlanInterval } from "./terms";
 
 export type PlanOffer = {

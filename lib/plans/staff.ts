@@ -5,7 +5,8 @@ import { getDb } from "@/db/client";
 import { pieces } from "@/db/schema";
 import type { StudioActor } from "@/lib/auth/actor";
 import { piecePlan, type PiecePlan } from "./offers";
-import { planPrice, templatesFitting } from "./templates";
+import { planPrice } from "./price";
+import { templatesFitting } from "./templates";
 
 export type ClientPiecePlans = { pieceId: string; title: string; hasOwner: boolean; plan: PiecePlan | null; fitting: { id: string; name: string; priceMinor: number; interval: "year" | "month"; currency: string }[] };
 

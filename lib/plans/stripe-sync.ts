@@ -13,7 +13,8 @@ import { sendMail } from "@/lib/mail";
 import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
-import { planPrice, templateOf } from "./templates";
+import { planPrice } from "./price";
+import { templateOf } from "./templates";
 
 const PLAN_EVENTS = new Set(["customer.subscription.created", "customer.subscription.updated", "customer.subscription.deleted", "invoice.paid", "invoice.payment_failed", "checkout.session.completed"]);
 const STRIPE = { actorId: null, source: "stripe" } as const;

@@ -12,7 +12,8 @@ import { ownedPieceRow } from "@/lib/owner/pieces";
 import { callStripe } from "@/lib/payments/stripe";
 import { assertPlanMove, PLAN_COVERS, type PlanState } from "./states";
 import { addPeriod } from "./periods";
-import { planPrice, templateOf, templatesFitting } from "./templates";
+import { planPrice } from "./price";
+import { templateOf, templatesFitting } from "./templates";
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 

@@ -1,14 +1,12 @@
 // Plan templates: versions, the price with the studio's tax, and which pieces a template fits.
 import { and, desc, eq, isNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { finishLayers, planTemplates, type Piece, type PlanTemplate, type Studio } from "@/db/schema";
+import { finishLayers, planTemplates, type Piece, type PlanTemplate } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioActor } from "@/lib/auth/actor";
 import { topArea } from "@/lib/care/area";
 import { conflict, notFound } from "@/lib/errors";
 import { toCarePiece } from "@/lib/pieces/care-inputs";
-import { priceLines } from "@/lib/repairs/lines";
-import { studioTax } from "@/lib/repairs/pricing";
 import type { PlanTemplateInput } from "./validation";
 
 /** The current version of every template of the studio (withdrawn ones too, for staff), newest first. */
@@ -48,17 +46,6 @@ export function updateTemplate(ctx: StudioActor, templateId: string, input: Plan
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "plan_template.changed", subjectType: "plan_template", subjectId: row.id, data: { lineageId: row.lineageId, from: current.version, to: row.version } });
     return row;
   });
-}
-
-/** What one interval of the plan costs the owner, with the studio's tax (lib/repairs lines: one "other" line). */
-export function planPrice(studio: Pick<Studio, "taxMode" | "taxInclusive" | "taxRateBp" | "taxRatesBp" | "taxNumber">, t: Pick<PlanTemplate, "name" | "priceMinor" | "currency">) {
-  const priced = priceLines([{ kind: "other", source: "typed", description: t.name, quantity: 1, unit: "each", unitPriceMinor: t.priceMinor }], {
-    currency: t.currency,
-    rounding: "cent",
-    tax: studioTax(studio),
-    coveredPct: 0,
-  });
-  return { totalMinor: priced.totalMinor, taxMinor: priced.taxMinor, netMinor: priced.netMinor };
 }
 
 /** The piece's top area in m², or null when its record gives no top. */

@@ -7,7 +7,8 @@ import { currencyExponent } from "@/lib/care/quote";
 import { CARE_TASK_LABELS } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { formatInstant, formatMoney } from "@/lib/format";
-import { listTemplates, planPrice } from "@/lib/plans/templates";
+import { planPrice } from "@/lib/plans/price";
+import { listTemplates } from "@/lib/plans/templates";
 
 export const metadata: Metadata = { title: "Care plans" };
 
