@@ -8,6 +8,7 @@ import { containsText } from "@/lib/text-match";
 import type { ClaimListQuery } from "@/lib/validation/claims";
 import { photoCountSql } from "./claims-sql";
 import { OPEN_STATES } from "./states";
+import { claimVisibleTo } from "./visible";
 
 // Lists of claims: the owner's own, and the studio's triage queue.
 
@@ -31,7 +32,7 @@ export function listOwnerClaims(user: Pick<User, "id">) {
     .from(claims)
     .innerJoin(pieces, eq(pieces.id, claims.pieceId))
     .innerJoin(studios, eq(studios.id, claims.studioId))
-    .where(eq(claims.ownerId, user.id))
+    .where(claimVisibleTo({ role: "owner", user, studio: null }))
     .orderBy(desc(claims.createdAt))
     .all()
     .map((r) => ({ ...r, createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt.toISOString() }));
@@ -53,7 +54,7 @@ export const CLAIM_PAGE_SIZE = 50;
 
 /** The studio's triage queue, filtered, searched and sorted by age, a page at a time; `now` is the server's clock for wait times. */
 export function listStudioClaims(ctx: StudioContext, q: ClaimListQuery, now = Date.now()) {
-  const where: SQL[] = [eq(claims.studioId, ctx.studio.id)];
+  const where: SQL[] = [claimVisibleTo(ctx)];
   if (q.state === "open") where.push(inArray(claims.state, [...OPEN_STATES]));
   else if (q.state !== "all") where.push(eq(claims.state, q.state));
   if (q.category !== "all") where.push(eq(claims.category, q.category));
@@ -105,7 +106,7 @@ export function listStudioClaims(ctx: StudioContext, q: ClaimListQuery, now = Da
     .selectDistinct({ id: pieces.id, title: pieces.title })
     .from(claims)
     .innerJoin(pieces, eq(pieces.id, claims.pieceId))
-    .where(eq(claims.studioId, ctx.studio.id))
+    .where(claimVisibleTo(ctx))
     .orderBy(asc(pieces.title))
     .all();
   return { claims: rows, total, page: q.page, pageSize: CLAIM_PAGE_SIZE, pieces: piecesWithClaims, query: q, now: new Date(now).toISOString() };
