@@ -44,7 +44,7 @@ export function fill(pattern: string, values: Record<string, string> | ((name: s
 
 export type ServerActionExport = { file: string; name: string };
 
-// `export async function x(` or `export const x = ...` (validatedAction wrappers).
+// `export async function x(` or `export const x = ...` (action() wrappers, lib/http/action.ts).
 const ACTION_EXPORT = /^export\s+(?:async\s+function\s+([A-Za-z_$][\w$]*)|const\s+([A-Za-z_$][\w$]*)\s*=)/gm;
 
 /** The exports of every module under app/ that starts with the "use server" directive. */

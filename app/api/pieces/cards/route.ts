@@ -1,6 +1,5 @@
 import { z } from "zod";
-import { requireStaff } from "@/lib/auth/guards";
-import { parseQuery, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { CARD_LAYOUTS, MAX_CARDS_PER_PDF, renderDrawerCards } from "@/lib/pieces/card";
 
 // GET /api/pieces/cards?ids=a,b,c&layout=letter  or  ?all=unregistered&layout=4x6
@@ -20,10 +19,8 @@ const query = z
   })
   .refine((q) => !!q.ids?.length !== !!q.all, { message: "Choose some pieces, or all pieces not yet registered." });
 
-export const GET = route(async (req) => {
-  const ctx = await requireStaff();
-  const q = parseQuery(req, query);
-  const { pdf, filename } = await renderDrawerCards(ctx, q.all ? { unregistered: true } : { ids: q.ids! }, q.layout);
+export const GET = route({ roles: ["admin", "staff"], query }, async ({ actor, query: q }) => {
+  const { pdf, filename } = await renderDrawerCards(actor, q.all ? { unregistered: true } : { ids: q.ids! }, q.layout);
   return new Response(new Uint8Array(pdf), {
     headers: {
       "Content-Type": "application/pdf",

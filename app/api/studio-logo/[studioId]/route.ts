@@ -8,9 +8,8 @@ export const dynamic = "force-dynamic";
 const params = z.object({ studioId: z.string().min(1).max(64) });
 
 /** GET /api/studio-logo/[studioId]: a studio's logo, public (it is on its e-mails and owners' pages); 404 without one. */
-export const GET = route<{ studioId: string }>(async (_req, ctx) => {
-  const { studioId } = params.parse(ctx.params);
-  const data = await studioLogo(studioId);
+export const GET = route({ params }, async ({ params }) => {
+  const data = await studioLogo(params.studioId);
   if (!data) throw notFound("This studio has no logo.");
   return new Response(new Uint8Array(data), {
     headers: { "Content-Type": "image/jpeg", "Content-Length": String(data.byteLength), "X-Content-Type-Options": "nosniff", "Content-Disposition": "inline", "Cache-Control": "public, max-age=86400" },
