@@ -15,6 +15,14 @@ const serverLib = {
   message: "components/ import server modules as types only (`import type`); pure helpers live in lib/care or the allowed list in eslint.config.mjs.",
 };
 
+const GUARD_MESSAGE = "Name the roles in route({ roles }) or action({ roles }) (lib/http); the handler gets the request's actor.";
+const guardCalls = [
+  { group: ["@/lib/auth/guards"], importNames: ["requireUser", "requireStaff", "requireAdmin", "requireStudioMember", "requireStudioRole"], message: GUARD_MESSAGE },
+  { group: ["@/lib/auth/session"], importNames: ["getCurrentSession"], message: GUARD_MESSAGE },
+  { group: ["@/lib/claims/viewer"], importNames: ["currentViewer"], message: GUARD_MESSAGE },
+  { group: ["@/lib/visits/access"], importNames: ["requireVisitActor"], message: GUARD_MESSAGE },
+];
+
 const oneAppError = [
   { selector: "NewExpression[callee.name='AppError']", message: "Use a constructor from lib/errors.ts (add one there if none fits)." },
   { selector: "ClassDeclaration[superClass.name='AppError']", message: "Use a constructor from lib/errors.ts; fields beside the error go in its `extra`." },
@@ -32,6 +40,9 @@ const config = [
   { rules: { "@typescript-eslint/no-unused-vars": ["warn", { argsIgnorePattern: "^_", varsIgnorePattern: "^_", ignoreRestSiblings: true }] } },
   { ignores: [".next/**", "node_modules/**", "data/**", "test-results/**", "playwright-report/**", "tests/.tmp/**", "next-env.d.ts"] },
   { files: ["app/**"], rules: restrict(noDb, noFakes) },
+  // Route handlers and server actions name their roles in route({ roles }) / action({ roles })
+  // (lib/http), which resolve the request's Actor once; they never call a guard themselves.
+  { files: ["app/**/route.ts", "app/**/actions.ts"], rules: restrict(noDb, noFakes, ...guardCalls) },
   {
     files: ["components/**"],
     rules: restrict(noDb, noFakes, serverLib, {

@@ -26,6 +26,10 @@ describe("import directions", () => {
     ["emails never import db", "emails/x.tsx", 'import { getDb } from "@/db/client";\nexport const x = getDb;\n'],
     ["the product never imports lib/fakes", "lib/payments/x.ts", 'import { startStripeFake } from "@/lib/fakes/stripe-fake";\nexport const x = startStripeFake;\n'],
     ["jobs never import lib/fakes", "jobs/x.ts", 'import { startSmtpSink } from "@/lib/fakes/smtp-sink";\nexport const x = startSmtpSink;\n'],
+    ["a route handler never calls a guard (it names roles in route())", "app/api/x/route.ts", 'import { requireStaff } from "@/lib/auth/guards";\nexport const x = requireStaff;\n'],
+    ["a server action never reads the session itself (it names roles in action())", "app/x/actions.ts", 'import { getCurrentSession } from "@/lib/auth/session";\nexport const x = getCurrentSession;\n'],
+    ["a route handler never works out the claim viewer itself", "app/api/x/route.ts", 'import { currentViewer } from "@/lib/claims/viewer";\nexport const x = currentViewer;\n'],
+    ["route handlers still never import db", "app/api/x/route.ts", 'import { getDb } from "@/db/client";\nexport const x = getDb;\n'],
   ])("%s", async (_rule, filePath, code) => {
     expect(await restricted(filePath, code)).toBe(true);
   });
@@ -35,6 +39,8 @@ describe("import directions", () => {
     ["components import pure lib/care values", "components/x/y.tsx", 'import { SPECIES } from "@/lib/care/species";\nexport const x = SPECIES;\n'],
     ["components import server actions", "components/x/y.tsx", 'import { signOutAction } from "@/app/actions/session";\nexport const x = signOutAction;\n'],
     ["lib/care imports its own files", "lib/care/x.ts", 'import { SPECIES } from "./species";\nexport const x = SPECIES;\n'],
+    ["a route handler imports the wrappers and guards' helpers", "app/api/x/route.ts", 'import { homePathFor } from "@/lib/auth/guards";\nimport { route } from "@/lib/http/route";\nexport const x = [homePathFor, route];\n'],
+    ["a page still calls a guard", "app/studio/x/page.tsx", 'import { requireStaff } from "@/lib/auth/guards";\nexport const x = requireStaff;\n'],
     ["tests import lib/fakes", "tests/integration/x.test.ts", 'import { startSmtpSink } from "@/lib/fakes/smtp-sink";\nexport const x = startSmtpSink;\n'],
   ])("allowed: %s", async (_rule, filePath, code) => {
     expect(await restricted(filePath, code)).toBe(false);
