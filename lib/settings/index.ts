@@ -6,11 +6,11 @@ import { asc, desc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { studios, users, visitRules as visitRulesTable, warrantyPolicies, type Studio } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
-import type { StudioContext } from "@/lib/auth/guards";
+import { assertRole, type StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { CURRENCY_EXPONENTS, formatMinorUnits } from "@/lib/care/quote";
 import { CLAIM_CATEGORIES, REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
-import { badRequest, forbidden, unprocessable } from "@/lib/errors";
+import { badRequest, unprocessable } from "@/lib/errors";
 import {
   policyVersionSchema,
   profileSchema,
@@ -27,7 +27,7 @@ import { describePolicyChanges, formToPolicy, policyToForm } from "./policy";
 export { policyInForce } from "./policy";
 
 export function assertAdmin(ctx: StudioContext): void {
-  if (ctx.role !== "admin") throw forbidden("Only the studio's admins can change its settings.");
+  assertRole(ctx, ["admin"], "Only the studio's admins can change its settings.");
 }
 
 /** "85.50" in a currency with `exp` decimals → 8550. The schema has already checked the shape. */

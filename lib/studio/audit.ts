@@ -4,14 +4,13 @@ import "server-only";
 import { and, count, desc, eq, gte, like, lt, or, sql, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditLog, memberships, users } from "@/db/schema";
-import type { StudioContext } from "@/lib/auth/guards";
+import { assertRole, STAFF_ROLES, type StudioContext } from "@/lib/auth/guards";
 import { addDays, localDateTime, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, CLAIM_DECISION_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import { formatDate, formatMoney } from "@/lib/format";
 import { JOB_STATE_LABELS } from "@/lib/repairs/states";
-import { forbidden } from "@/lib/errors";
 import { AUDIT_GROUPS, auditQuerySchema, type AuditQuery } from "./audit-query";
 
 export const AUDIT_PAGE_SIZE = 50;
@@ -213,7 +212,7 @@ function pad(n: number) {
 }
 
 export function listAudit(ctx: StudioContext, raw: unknown) {
-  if (ctx.role !== "admin" && ctx.role !== "staff") throw forbidden("The audit log is for the studio's admins and staff.");
+  assertRole(ctx, STAFF_ROLES, "The audit log is for the studio's admins and staff.");
   const q: AuditQuery = auditQuerySchema.parse(raw ?? {});
   const tz = ctx.studio.timeZone;
   const conds: (SQL | undefined)[] = [eq(auditLog.studioId, ctx.studio.id)];
