@@ -35,6 +35,7 @@ if (process.argv[2] === "--seed") {
 }
 if (process.argv[2] === "--history") {
   // The ledger as a running scheduler leaves it: a pass a week ago, its leased rows sent.
+  process.env.DATABASE_URL = process.argv[3]!; // what the pass reads through getDb() (care plans) comes from the same database
   const { openDatabase } = await import("../../db/client");
   const { runReminderPass } = await import("../../lib/reminders/pass");
   const db = openDatabase(process.argv[3]!);
@@ -74,6 +75,7 @@ async function measureSize(size: number) {
     if (process.env.BENCH_COLD === "1") fs.copyFileSync(big, cold);
     execFileSync(tsx, [self, "--history", big], { cwd: root, stdio: "inherit" });
     console.log(`seeded ${size.toLocaleString("en-US")} pieces in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+    process.env.DATABASE_URL = big; // as above: the runs' copies hold the same rows
     const { openDatabase } = await import("../../db/client");
     const { runReminderPass } = await import("../../lib/reminders/pass");
 
