@@ -2,6 +2,10 @@
 // the SMTP sink. Ports are fixed and differ from the demo's, so both can run at once.
 import { removeDatabase, runStep, supervise } from "./services.mjs";
 
+// E2E_EMPTY_DATABASE=1: no seed, and STUDIO_SIGNUP closed, so only the first-studio rule lets a stranger
+// start one (tests/e2e/studio-setup.spec.ts: E2E_EMPTY_DATABASE=1 npx playwright test tests/e2e/studio-setup.spec.ts).
+const emptyDatabase = process.env.E2E_EMPTY_DATABASE === "1";
+
 export const E2E = { appPort: "3100", smtpPort: "2625", sinkPort: "2626", stripePort: "12112", inboundPort: "2627" };
 
 const env = {
@@ -23,12 +27,12 @@ const env = {
   STRIPE_API_HOST: "127.0.0.1",
   STRIPE_API_PORT: E2E.stripePort,
   INBOUND_SMTP_PORT: E2E.inboundPort,
-  STUDIO_SIGNUP: "open",
+  STUDIO_SIGNUP: emptyDatabase ? "closed" : "open",
 };
 
 removeDatabase(env.DATABASE_URL);
 runStep("Migrating the e2e database", "tsx", ["db/migrate.ts"], env);
-runStep("Seeding the e2e database", "tsx", ["tests/support/seed-e2e.ts"], env);
+if (!emptyDatabase) runStep("Seeding the e2e database", "tsx", ["tests/support/seed-e2e.ts"], env);
 supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
