@@ -1,0 +1,72 @@
+// Care plans end to end: an owner at 375 px buys a plan for a piece through the Stripe fake's hosted
+// checkout (subscription mode); the signed webhook makes the plan run; staff then see it on the
+// client's page and on the overview. Axe checks each page.
+import AxeBuilder from "@axe-core/playwright";
+import { expect, test, type Page } from "@playwright/test";
+import { ACCOUNTS, signIn } from "./helpers";
+
+async function noAxeViolations(page: Page) {
+  const axe = await new AxeBuilder({ page }).analyze();
+  expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
+}
+
+test.describe("care plans", () => {
+  test.describe.configure({ mode: "serial" });
+  let pieceTitle = "";
+
+  test("an owner buys a plan for a piece at 375 px through the fake's checkout page", async ({ browser }) => {
+    const context = await browser.newContext({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
+    const page = await context.newPage();
+    await signIn(page, ACCOUNTS.owner);
+    // A piece of theirs that plans fit and that runs under none yet.
+    const { pieces } = (await (await page.request.get("/api/me/pieces")).json()) as { pieces: { id: string; title: string }[] };
+    let target: { id: string; title: string; plan: string } | null = null;
+    for (const p of pieces) {
+      const res = (await (await page.request.get(`/api/plans?pieceId=${p.id}`)).json()) as { current: unknown; offers: { name: string }[] };
+      if (!res.current && res.offers.length) {
+        target = { id: p.id, title: p.title, plan: res.offers[0]!.name };
+        break;
+      }
+    }
+    expect(target, "an owner's piece with a fitting plan").not.toBeNull();
+    pieceTitle = target!.title;
+    await page.goto(`/pieces/${target!.id}`);
+    const section = page.getByRole("region", { name: "Care plan" });
+    await expect(section.getByText(target!.plan).first()).toBeVisible();
+    await noAxeViolations(page);
+    await section.getByRole("button", { name: `Start ${target!.plan}` }).click();
+
+    await expect(page).toHaveURL(/127\.0\.0\.1:12112\/pay\/cs_test_/);
+    await page.getByLabel("Card number").fill("4242 4242 4242 4242");
+    await page.getByRole("button", { name: "Pay", exact: true }).click();
+    await expect(page).toHaveURL(new RegExp(`/pieces/${target!.id}\\?plan=started`));
+    // The webhook makes it run; the page says so once it has arrived.
+    await expect(async () => {
+      await page.reload();
+      await expect(page.getByRole("region", { name: "Care plan" }).getByText("Running")).toBeVisible({ timeout: 1000 });
+    }).toPass({ timeout: 20_000 });
+    const me = (await (await page.request.get(`/api/me/pieces/${target!.id}`)).json()) as { plan: { name: string; state: string } | null };
+    expect(me.plan).toMatchObject({ name: target!.plan, state: "running" });
+    await noAxeViolations(page);
+    await context.close();
+  });
+
+  test("staff see the plan on the client's page and on the overview", async ({ page }) => {
+    await signIn(page, ACCOUNTS.staff);
+    const list = (await (await page.request.get(`/api/clients?q=${encodeURIComponent(ACCOUNTS.owner)}`)).json()) as { rows: { id: string }[] };
+    expect(list.rows.length).toBeGreaterThan(0);
+    await page.goto(`/studio/clients/${list.rows[0]!.id}`);
+    const card = page.getByRole("heading", { name: "Care plans" }).locator("xpath=..");
+    await expect(card.getByText(pieceTitle)).toBeVisible();
+    await expect(card.getByText(/Running · paid to .* · paid by card/)).toBeVisible();
+    await noAxeViolations(page);
+
+    await page.goto("/studio");
+    const plans = page.getByRole("region", { name: "Care plans" });
+    await expect(plans.getByText("Plans running")).toBeVisible();
+    // The demo plan and the one just bought.
+    const running = Number(await plans.getByRole("link", { name: /Plans running/ }).locator("p").nth(1).innerText());
+    expect(running).toBeGreaterThanOrEqual(2);
+    await noAxeViolations(page);
+  });
+});
