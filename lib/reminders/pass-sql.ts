@@ -6,6 +6,7 @@
 // piece id, so a piece range is a key range too. The ledger protocol these statements carry out is
 // described in pass.ts.
 import type Database from "better-sqlite3";
+import { PLAN_COVERS } from "@/lib/plans/states";
 import { MAX_ATTEMPTS } from "./plan";
 
 const PIECE_FILTER = `p.owner_id IS NOT NULL AND p.archived_at IS NULL AND p.reminders_paused = 0`;
@@ -41,6 +42,11 @@ function statements(sqlite: Database.Database) {
     careLog: sqlite.prepare(
       `SELECT c.piece_id AS pieceId, c.task_kind AS taskKind, c.done_on AS doneOn, c.surface
          FROM pieces p JOIN care_log_entries c ON c.piece_id = p.id WHERE ${PIECE_FILTER} AND ${RANGE}`,
+    ),
+    // The tasks a care plan that covers now includes, for the chunk's pieces (lib/plans: the studio's work, not the owner's).
+    planTasks: sqlite.prepare(
+      `SELECT s.piece_id AS pieceId, t.included FROM plan_subscriptions s JOIN plan_templates t ON t.id = s.template_id
+        WHERE s.piece_id > ? AND s.piece_id <= ? AND s.state IN (${PLAN_COVERS.map((x) => `'${x}'`).join(", ")})`,
     ),
     // What a chunk needs of the ledger: which reminder keys exist (an index-only range scan: keys
     // start with the piece id, like task keys below), and the full rows of pending ones. Settled rows

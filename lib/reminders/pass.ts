@@ -39,8 +39,8 @@ import { CareInputError } from "@/lib/care/errors";
 import { quote, quoteProductFromCatalog, type Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { topArea } from "@/lib/care/area";
+import type { PlanIncluded } from "@/lib/plans/terms";
 import { scheduleFromColumns, toCatalog, topShape, type CareLayerColumns, type CarePieceColumns } from "@/lib/pieces/care-inputs";
-import { planIncludedTasks } from "@/lib/plans/reminders";
 import { deliverLease, LEASE_PREFIX, type FailedItem, type Lease, type SentItem } from "./deliver";
 import { passStatements, type PassStatements } from "./pass-sql";
 import {
@@ -132,7 +132,15 @@ export interface PassOptions {
 
 type OfferRow = { pieceId: string; id: string; taskKey: string; dueOn: string; status: string; reminderSendId: string | null; sendStatus: string | null };
 type Studio = StudioRow & { catalog: CatalogEntry[]; byId: Map<string, CatalogEntry>; timing: SendTiming };
-type Chunk = { lo: string; hi: string; pieces: ReminderPieceRow[]; layers: Map<string, CareLayerColumns[]>; logs: Map<string, Pick<CareLogRow, "taskKind" | "doneOn" | "surface">[]> };
+type Chunk = {
+  lo: string;
+  hi: string;
+  pieces: ReminderPieceRow[];
+  layers: Map<string, CareLayerColumns[]>;
+  logs: Map<string, Pick<CareLogRow, "taskKind" | "doneOn" | "surface">[]>;
+  /** The care tasks a running plan includes, by piece: the studio's work, so no reminder (lib/plans). */
+  planTasks: Map<string, Set<string>>;
+};
 type Scheduled = { piece: ReminderPieceRow; tasks: CareTask[]; current: number[] };
 
 const RECOVER_NOTE = "recovered: leased by a pass that stopped before handing it to SMTP (certainly not sent); retrying";
@@ -246,8 +254,13 @@ function readChunk(pass: Pass, after: string): Chunk | null {
   pass.report.pieces += pieces.length;
   const layers = groupBy(pass.s.layers.all(lo, hi) as (CareLayerColumns & { pieceId: string })[]);
   const logs = groupBy(pass.s.careLog.all(lo, hi) as (Pick<CareLogRow, "taskKind" | "doneOn" | "surface"> & { pieceId: string })[]);
+  const planTasks = new Map<string, Set<string>>();
+  for (const r of pass.s.planTasks.all(lo, hi) as { pieceId: string; included: string }[]) {
+    const tasks = (JSON.parse(r.included) as PlanIncluded).tasks;
+    planTasks.set(r.pieceId, new Set([...(planTasks.get(r.pieceId) ?? []), ...tasks]));
+  }
   pass.lap("readMs");
-  return { lo, hi, pieces, layers, logs };
+  return { lo, hi, pieces, layers, logs, planTasks };
 }
 
 /**
@@ -256,7 +269,6 @@ function readChunk(pass: Pass, after: string): Chunk | null {
  */
 function computeSchedules(pass: Pass, studios: Map<string, Studio>, chunk: Chunk): Scheduled[] {
   const out: Scheduled[] = [];
-  const byPlan = planIncludedTasks(chunk.pieces.map((p) => p.id)); // a care plan's included tasks are the studio's work
   for (const piece of chunk.pieces) {
     const studio = studios.get(piece.studioId)!;
     const { steps, sendAfterMinutes } = studio.timing;
@@ -270,7 +282,7 @@ function computeSchedules(pass: Pass, studios: Map<string, Studio>, chunk: Chunk
         timeZone: studio.timeZone,
         now: pass.nowMs,
       });
-      const tasks = schedule.tasks.filter((t) => !byPlan.get(piece.id)?.has(t.kind)).map((t) => withEnabledSteps(t, steps));
+      const tasks = schedule.tasks.filter((t) => !chunk.planTasks.get(piece.id)?.has(t.kind)).map((t) => withEnabledSteps(t, steps));
       const current = tasks.map((t) => currentStepIndex(t, pass.clocks, piece.ownerTimeZone, sendAfterMinutes));
       out.push({ piece, tasks, current });
       pass.report.tasks += schedule.tasks.length;
