@@ -1,7 +1,8 @@
 // The front desk finds a client, opens their page, corrects the phone and reads what happened with
 // them — at 1280 px as staff, with axe on the list and the client page. Then a piece recorded with a
 // new buyer: the hand-over mail, the clients CSV export of those invited, and the buyer's one tap
-// (sign-up with the address the mail went to, at 375 px) that registers the piece.
+// (sign-up with the address the mail went to, at 375 px, with axe) that registers the piece. Last,
+// the bulk hand-over mailing of imported pieces: progress, then what was sent and skipped.
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
@@ -134,6 +135,8 @@ test("a piece recorded with a new buyer sends the hand-over mail; the export lis
   await owner.getByRole("button", { name: "Register this piece to my account" }).click();
   await expect(owner).toHaveURL(new RegExp(`/pieces/${pieceId}`));
   await expect(owner.getByRole("heading", { level: 1, name: title })).toBeVisible();
+  const ownerAxe = await new AxeBuilder({ page: owner }).analyze();
+  expect(ownerAxe.violations, JSON.stringify(ownerAxe.violations, null, 2)).toEqual([]);
   await phone.close();
 
   // The studio sees it registered through the link, and the buyer's client has the account.
@@ -141,4 +144,44 @@ test("a piece recorded with a new buyer sends the hand-over mail; the export lis
   await expect(page.getByRole("heading", { name: "Hand-over mail" }).locator("..").getByText("Not yet")).toHaveCount(0);
   await page.getByRole("link", { name: buyer }).first().click();
   await expect(page.getByText(/has a Grainward account/)).toBeVisible();
+});
+
+test("bulk hand-over mail: staff pick imported pieces, follow the mailing, and read what was sent and skipped", async ({ page }) => {
+  const word = `Sorrel${Date.now().toString(36)}`;
+  const yes = `${word.toLowerCase()}-yes@buyer.example`;
+  const no = `${word.toLowerCase()}-no@buyer.example`;
+  await signIn(page, ACCOUNTS.staff);
+  // Two past deliveries imported with their buyers, no mail yet: one agreed to service mail, one did not.
+  const csv = [
+    "title,kind,shape,length_mm,width_mm,primary_species,use,delivered_on,finish_stack,buyer_name,buyer_email,buyer_phone,buyer_service_mail_on",
+    `${word} settle (e2e),bench,rectangle,1400,400,black_walnut,moderate,2025-03-01,top:hardwax_oil:2:2025-03-01,Ada ${word} (invented),${yes},,2025-03-01`,
+    `${word} stool (e2e),bench,rectangle,500,300,black_walnut,moderate,2025-03-01,top:hardwax_oil:2:2025-03-01,Bo ${word} (invented),${no},,`,
+  ].join("\n");
+  const imported = await page.request.post("/api/pieces/import", { data: { csv, commit: true, sendHandover: false } });
+  expect(imported.status()).toBe(201);
+
+  await page.goto("/studio/clients");
+  await page.getByRole("link", { name: "Hand-over mail" }).click();
+  await expect(page.getByRole("heading", { name: "Hand-over mail", level: 1 })).toBeVisible();
+  await expect(page.getByRole("row", { name: new RegExp(`${word} stool`) })).toContainText("No consent to service mail");
+  const listAxe = await new AxeBuilder({ page }).analyze();
+  expect(listAxe.violations, JSON.stringify(listAxe.violations, null, 2)).toEqual([]);
+
+  await page.getByRole("checkbox", { name: `Pick ${word} settle (e2e)` }).check();
+  await page.getByRole("checkbox", { name: `Pick ${word} stool (e2e)` }).check();
+  await page.getByRole("button", { name: "Send to the 2 picked" }).click();
+  await expect(page.getByRole("heading", { name: "Mailing finished" })).toBeVisible({ timeout: 20_000 });
+  await expect(page.getByTestId("mailing-count")).toHaveText("2 of 2 done");
+  await expect(page.getByRole("progressbar", { name: "Hand-over mail sent so far" })).toBeVisible();
+  await expect(page.getByTestId("mailing-sent")).toHaveText("1");
+  await expect(page.getByTestId("mailing-skipped")).toContainText("No consent to service mail: 1");
+  await expect(page.getByTestId("mailing-failed")).toHaveText("0");
+  const doneAxe = await new AxeBuilder({ page }).analyze();
+  expect(doneAxe.violations, JSON.stringify(doneAxe.violations, null, 2)).toEqual([]);
+
+  const mail = await waitForMail({ to: yes, subject: /its care and warranty/, sinkUrl: SINK_URL });
+  expect(mail.text).toContain(`${word} settle (e2e)`);
+  // The sent piece leaves the list; the one without consent stays until it can get the mail.
+  await expect(page.getByRole("row", { name: new RegExp(`${word} settle`) })).toHaveCount(0);
+  await expect(page.getByRole("row", { name: new RegExp(`${word} stool`) })).toBeVisible();
 });
