@@ -11,6 +11,7 @@ import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, CLAIM_DECISION_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import { formatDate, formatMoney } from "@/lib/format";
 import { JOB_STATE_LABELS } from "@/lib/repairs/states";
+import { PLAN_STATE_LABELS, type PlanState } from "@/lib/plans/states";
 import { AUDIT_GROUPS, auditQuerySchema, type AuditQuery } from "./audit-query";
 
 export const AUDIT_PAGE_SIZE = 50;
@@ -80,6 +81,10 @@ const ACTION_LABELS: Record<string, string> = {
   "finish_product.created": "Finish product added",
   "finish_product.updated": "Finish product edited",
   "finish_product.archived": "Finish product archived",
+  "handover_batch.created": "Hand-over mailing started",
+  "plan.checkout_started": "Care plan checkout started by the owner",
+  "plan_template.created": "Care plan added",
+  "plan_template.changed": "Care plan changed (new version)",
 };
 
 /** Every action written with a fixed name has a label here (tests/unit/audit-labels.test.ts). */
@@ -89,6 +94,8 @@ export function actionLabel(action: string): string {
   if (ACTION_LABELS[action]) return ACTION_LABELS[action];
   const claimState = action.startsWith("claim.") ? CLAIM_STATE_LABELS_STAFF[action.slice(6) as keyof typeof CLAIM_STATE_LABELS_STAFF] : undefined;
   if (claimState) return `Claim moved to “${claimState}”`;
+  const planState = action.startsWith("plan.") ? PLAN_STATE_LABELS[action.slice(5) as PlanState] : undefined;
+  if (planState) return `Care plan moved to “${planState}”`;
   const s = action.replace(/[._]/g, " ");
   return s.charAt(0).toUpperCase() + s.slice(1);
 }

@@ -96,6 +96,6 @@ test("a new account starts a studio at /start; every studio page works while it 
   await page.goto("/start");
   await expect(page.getByText(`You're already in ${studioName}`)).toBeVisible();
   await startStudio(page, `Second Bench ${stamp} (invented)`, "EUR", "metric");
-  await expect(page.getByRole("region", { name: "Finish setting up your studio" }).getByText("0 of 6 done.")).toBeVisible();
+  await expect(page.getByRole("region", { name: "Finish setting up your studio" }).getByText("0 of 9 done.")).toBeVisible();
   expect(problems, problems.join("\n")).toEqual([]);
 });
