@@ -111,10 +111,10 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
       </ul>
       {visits.isError ? <Notice tone="error" title="Couldn't load the visits">{isApiError(visits.error) ? visits.error.message : ""}</Notice> : null}
       <div className="overflow-x-auto rounded-xl border border-line bg-card">
-        <div className="grid min-w-[760px]" style={{ gridTemplateColumns: `3.5rem repeat(7, minmax(0, 1fr))` }} role="grid" aria-label="Week of visits" aria-busy={visits.isPending}>
+        <div className="grid min-w-[760px]" style={{ gridTemplateColumns: `3.5rem repeat(7, minmax(0, 1fr))` }} role="group" aria-label="Week of visits" aria-busy={visits.isPending}>
           <div />
           {days.map((d) => (
-            <div key={d} role="columnheader" className={cn("border-b border-l border-line px-2 py-2 text-sm font-semibold", d === today && "bg-resin-soft")}>
+            <div key={d} className={cn("border-b border-l border-line px-2 py-2 text-sm font-semibold", d === today && "bg-resin-soft")}>
               {weekdayLabel(d)}
             </div>
           ))}
@@ -133,7 +133,7 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
                   <div
                     key={r}
                     data-cell={cell}
-                    aria-label={`${weekdayLabel(d)} ${hm(DAY_START + r * STEP)}`}
+                    title={`${weekdayLabel(d)} ${hm(DAY_START + r * STEP)}`}
                     className={cn("absolute inset-x-0 border-t", r % 2 ? "border-line/40" : "border-line", dragOver === cell && "bg-resin/15")}
                     style={{ top: r * ROW_PX, height: ROW_PX }}
                     onDragOver={(e) => {
