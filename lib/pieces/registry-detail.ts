@@ -7,6 +7,7 @@ import { auditLog, careLogEntries, claims, files, finishLayers, finishProducts, 
 import { requireStaff, type StudioContext } from "@/lib/auth/guards";
 import { topArea, type TopArea } from "@/lib/care/area";
 import { localDate } from "@/lib/care/dates";
+import { CARE_TASK_LABELS } from "@/lib/care/vocabulary";
 import type { CareSchedule } from "@/lib/care/schedule";
 import { scheduleFromRows, topShape } from "./care-inputs";
 import { loadPiece, publicPiece, studioMembers, studioProducts, today } from "./registry-common";
@@ -71,7 +72,7 @@ export function getPieceDetail(ctx: StudioContext, pieceId: string, now = new Da
   for (const { layer, productName } of layers) {
     timeline.push({ on: layer.appliedOn, kind: "layer", text: `${layer.surface}: ${productName ?? (layer.productLabel || layer.finishClass)} applied, ${layer.coats} coat${layer.coats === 1 ? "" : "s"}` });
   }
-  for (const c of careLog) timeline.push({ on: c.doneOn, kind: "care", text: `Care logged (${c.source}): ${c.taskKind.replace(/_/g, " ")}${c.notes ? ` — ${c.notes}` : ""}` });
+  for (const c of careLog) timeline.push({ on: c.doneOn, kind: "care", text: `Care logged (${c.source}): ${CARE_TASK_LABELS[c.taskKind as keyof typeof CARE_TASK_LABELS] ?? c.taskKind}${c.notes ? ` — ${c.notes}` : ""}` });
   if (piece.registeredAt) timeline.push({ on: day(piece.registeredAt), at: piece.registeredAt.getTime(), kind: "registered", text: `Registered by ${owner?.name ?? "its owner"}` });
   for (const r of db.select().from(reminderSends).where(and(eq(reminderSends.pieceId, pieceId), eq(reminderSends.studioId, ctx.studio.id), eq(reminderSends.status, "sent"))).all()) {
     if (r.sentAt) timeline.push({ on: day(r.sentAt), at: r.sentAt.getTime(), kind: "reminder", text: `Care reminder sent: ${r.taskKind.replace(/_/g, " ")} (${r.step.replace(/_/g, " ")}), due ${r.dueOn}` });

@@ -13,6 +13,7 @@ import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { getSpecies } from "@/lib/care/species";
+import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, decisionText, formatWait } from "@/lib/claims/labels";
 import { getStaffClaim } from "@/lib/claims/view-claim";
 import { clientIdForOwner } from "@/lib/clients/get";
@@ -110,7 +111,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                 <p className="text-lg font-semibold">{decisionText(claim.decision, claim.coveredPct)}</p>
                 {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
                 <p className="text-sm text-muted">
-                  Decided {claim.decidedAt ? formatInstant(claim.decidedAt, v.studio.timeZone) : "—"}; the check suggested {(claim.suggestion?.suggestion ?? "—").replace("_", " ")}.
+                  Decided {claim.decidedAt ? formatInstant(claim.decidedAt, v.studio.timeZone) : "—"}; the check suggested “{claim.suggestion?.suggestion ? SUGGESTION_LABELS[claim.suggestion.suggestion] : "—"}”.
                 </p>
               </div>
             ) : null}

@@ -14,7 +14,7 @@ import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import { requireStaff, requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getSpecies } from "@/lib/care/species";
-import { PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
+import { FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { localDate } from "@/lib/care/dates";
 import { careBasics } from "@/lib/pieces/care-basics";
 import { cardCodeStatus } from "@/lib/pieces/card-status";
@@ -103,7 +103,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                     const after = (h.data.after ?? h.data.before) as { surface?: string; finishClass?: string; position?: number } | undefined;
                     return (
                       <li key={i} className="text-muted">
-                        {formatInstant(h.createdAt, card.timeZone)} · {HISTORY_WORDS[h.action] ?? h.action} {after?.finishClass?.replace(/_/g, " ")} on the {after?.surface}
+                        {formatInstant(h.createdAt, card.timeZone)} · {HISTORY_WORDS[h.action] ?? h.action} {after?.finishClass ? (FINISH_CLASS_LABELS[after.finishClass as keyof typeof FINISH_CLASS_LABELS] ?? after.finishClass).toLowerCase() : null} on the {after?.surface}
                         {h.action === "layer.moved" ? ` (to position ${(after?.position ?? 0) + 1})` : ""} · {h.actorName ?? "someone"}
                       </li>
                     );
