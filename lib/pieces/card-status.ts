@@ -11,7 +11,8 @@ import { openRegistrationCode } from "./registration";
 // drawer carries a code that no longer works and a new card is due.
 
 export type CardCodeStatus = {
-  code: string;
+  /** Null when the stored code can't be opened (a row written by hand, or under another key): staff reissue it. */
+  code: string | null;
   /** When the last owner released the piece and nobody has registered it since; else null. */
   releasedAt: Date | null;
 };
@@ -24,5 +25,11 @@ export function cardCodeStatus(ctx: StudioContext, pieceId: string): CardCodeSta
     .where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.studioId, ctx.studio.id)))
     .orderBy(desc(ownerships.startedAt))
     .get();
-  return { code: openRegistrationCode(piece.registrationCodeEnc), releasedAt: !piece.ownerId && last?.endedAt ? last.endedAt : null };
+  let code: string | null = null;
+  try {
+    code = openRegistrationCode(piece.registrationCodeEnc);
+  } catch {
+    code = null;
+  }
+  return { code, releasedAt: !piece.ownerId && last?.endedAt ? last.endedAt : null };
 }

@@ -185,7 +185,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
             <div className="rounded-lg border border-line bg-paper p-3 text-sm">
               <p className="text-muted">Current registration code</p>
               <p className="font-mono text-lg font-semibold tracking-wider" aria-label="Current registration code">
-                {card.code}
+                {card.code ?? "Can't be read — reissue the code to get a new one"}
               </p>
               <p className="text-muted">{d.owner ? "Already used by its owner." : "Read it to a caller who can't find the card; they type it on the Register a piece page."}</p>
             </div>
