@@ -8,6 +8,7 @@ import cron from "node-cron";
 import { getDb } from "@/db/client";
 import { closeMailTransport, retryQueuedMail } from "@/lib/mail";
 import { describePass, remindersJob } from "./reminders";
+import { planVisitsJob } from "./plan-visits";
 import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 
 const log = (line: string) => console.log(`${new Date().toISOString()} ${line}`);
@@ -62,10 +63,8 @@ getDb(); // refuses an unmigrated database before anything is scheduled
 const task = cron.schedule("5 * * * *", tick, { name: "care-reminders", noOverlap: true });
 const visitTask = cron.schedule("*/15 * * * *", visitTick, { name: "visit-reminders", noOverlap: true });
 const mailTask = cron.schedule("* * * * *", mailTick, { name: "mail-retry", noOverlap: true });
-// Care plans: included visits become jobs ahead of their due date, hourly at minute 25. Loaded when the
-// pass runs: its modules still import "server-only", which throws under plain tsx, and must not stop the
-// reminder passes (the pass logs that failure until those imports are sorted out).
-const planTask = cron.schedule("25 * * * *", () => import("./plan-visits").then((m) => m.planVisitsJob(new Date())).then((lines) => lines.forEach(log), (e: unknown) => log(`plan visit pass failed: ${e instanceof Error ? e.message : String(e)}`)), { name: "plan-visits", noOverlap: true });
+// Care plans: included visits become jobs ahead of their due date, hourly at minute 25.
+const planTask = cron.schedule("25 * * * *", () => planVisitsJob(new Date()).then((lines) => lines.forEach(log), (e: unknown) => log(`plan visit pass failed: ${e instanceof Error ? e.message : String(e)}`)), { name: "plan-visits", noOverlap: true });
 void visitTick();
 log("scheduler: care reminders hourly at minute 5; running one pass now");
 void tick();

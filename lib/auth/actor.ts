@@ -1,4 +1,3 @@
-import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
 import { cookies } from "next/headers";
 import { cache } from "react";

@@ -1,4 +1,3 @@
-import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";

@@ -1,4 +1,3 @@
-import "server-only";
 import { cookies, headers } from "next/headers";
 import { cache } from "react";
 import type { Session, User } from "lucia";

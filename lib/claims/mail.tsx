@@ -1,4 +1,3 @@
-import "server-only";
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { memberships, users, type Claim, type Piece, type Studio } from "@/db/schema";

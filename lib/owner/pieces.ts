@@ -1,4 +1,3 @@
-import "server-only";
 import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb, perConnection } from "@/db/client";

@@ -1,4 +1,3 @@
-import "server-only";
 import { and, eq, type SQL } from "drizzle-orm";
 import type { User } from "lucia";
 import { repairJobs } from "@/db/schema";

@@ -1,4 +1,3 @@
-import "server-only";
 import type { SQL } from "drizzle-orm";
 import { requireStudioRole, requireUser, studioMemberships } from "@/lib/auth/guards";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";

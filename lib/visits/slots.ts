@@ -1,4 +1,3 @@
-import "server-only";
 import type { z } from "zod";
 import { getDb } from "@/db/client";
 import type { Piece, RepairJob, Studio, VisitRulesRow } from "@/db/schema";
