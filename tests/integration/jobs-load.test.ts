@@ -20,7 +20,7 @@ describe("the scheduler's modules under plain tsx", () => {
   it.each(modules)("jobs/%s loads with a clean environment", (file) => {
     const r = spawnSync(path.resolve("node_modules/.bin/tsx"), ["--eval", `import("./jobs/${file}").then(() => console.log("loaded"))`], {
       cwd: path.resolve("."),
-      env: { PATH: process.env.PATH ?? "", HOME: process.env.HOME ?? "", DATABASE_URL: dbFile },
+      env: { PATH: process.env.PATH ?? "", HOME: process.env.HOME ?? "", DATABASE_URL: dbFile, NODE_ENV: "production" },
       encoding: "utf8",
       timeout: 60_000,
     });
