@@ -62,7 +62,7 @@ export function claimCoverage(input: {
   }
   // A running care plan lengthens (or adds) warranty lines; from the day it lapsed or ended, the base terms apply.
   const plan = input.plan !== undefined ? input.plan : planOnDay(input.piece.id, input.claim.createdAt);
-  const planTerms = plan ? withPlanTerms(policy, plan) : null;
+  const planTerms = plan ? withPlanTerms(policy, plan, input.timeZone) : null;
   if (planTerms) policy = planTerms.policy;
   const first = [...input.ownerships].sort((a, b) => a.startedAt.getTime() - b.startedAt.getTime())[0];
   const filedByOriginalOwner = first ? first.userId === input.claim.ownerId : true;

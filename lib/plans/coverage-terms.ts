@@ -5,6 +5,7 @@ import { getDb } from "@/db/client";
 import { planSubscriptions, planTemplates, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import type { WarrantyPolicy } from "@/lib/care/coverage";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
+import { formatInstant } from "@/lib/format";
 
 export type PlanOnDay = { sub: PlanSubscription; template: PlanTemplate; covers: boolean; endedAt: Date | null };
 
@@ -29,13 +30,14 @@ export function planOnDay(pieceId: string, at: Date): PlanOnDay | null {
 
 /**
  * The base policy with the plan's extended lines: a line's term is lengthened by the plan's months;
- * a category the base terms lack gets a line of the plan's months from delivery. Reasons say so.
+ * a category the base terms lack gets a line of the plan's months from delivery. Reasons say so, with
+ * the day a plan lapsed or ended written in words in `timeZone` (the studio's).
  */
-export function withPlanTerms(policy: WarrantyPolicy, plan: PlanOnDay): { policy: WarrantyPolicy; reasons: string[] } {
+export function withPlanTerms(policy: WarrantyPolicy, plan: PlanOnDay, timeZone: string): { policy: WarrantyPolicy; reasons: string[] } {
   const name = `the care plan “${plan.template.name}” (version ${plan.template.version})`;
   if (!plan.covers) {
     const how = plan.sub.state === "lapsed" ? "lapsed" : "ended";
-    return { policy, reasons: [`${name} ${how} on ${plan.endedAt!.toISOString().slice(0, 10)}; the base terms apply from that day`] };
+    return { policy, reasons: [`${name} ${how} on ${formatInstant(plan.endedAt!, timeZone)}; the base terms apply from that day`] };
   }
   const lines = { ...policy.lines };
   const reasons: string[] = [];
