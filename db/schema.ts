@@ -118,6 +118,8 @@ export const studios = sqliteTable("studios", {
   stripeSecretSealed: text("stripe_secret_sealed"),
   /** When that key last answered a check call (lib/studio/payments.ts). */
   stripeCheckedAt: integer("stripe_checked_at", { mode: "timestamp_ms" }),
+  /** The signing secret of the studio's own webhook endpoint (/api/webhooks/stripe/studio/:id), sealed with encrypt("stripe-webhook-secret"); null: that endpoint refuses every event. */
+  stripeWebhookSecretSealed: text("stripe_webhook_secret_sealed"),
   /** Set-up steps saved at least once (lib/studio/setup.ts); a skipped step stays out until saved. */
   setupDone: text("setup_done", { mode: "json" }).$type<string[]>().notNull().default(sql`'[]'`),
   createdAt: createdAt(),

@@ -1,0 +1,1 @@
+ALTER TABLE `studios` ADD `stripe_webhook_secret_sealed` text;
