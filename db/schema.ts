@@ -1248,6 +1248,8 @@ export const planSubscriptions = sqliteTable(
     startedAt: integer("started_at", { mode: "timestamp_ms" }),
     lapsedAt: integer("lapsed_at", { mode: "timestamp_ms" }),
     endedAt: integer("ended_at", { mode: "timestamp_ms" }),
+    /** When a cancelled plan stops covering (the period's end, or the end of the plan month under a pro-rata refund rule). */
+    endsAt: integer("ends_at", { mode: "timestamp_ms" }),
     createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
     version: integer("version").notNull().default(0),
     createdAt: createdAt(),
@@ -1292,6 +1294,39 @@ export const planInvoicesRelations = relations(planInvoices, ({ one }) => ({
   studio: one(studios, { fields: [planInvoices.studioId], references: [studios.id] }),
   subscription: one(planSubscriptions, { fields: [planInvoices.subscriptionId], references: [planSubscriptions.id] }),
 }));
+
+/**
+ * Money given back when a plan ends early, by the template's refund rule (lib/plans/refund.ts). One per
+ * plan: the row is claimed (requested) in the same transaction that checks the plan's version, before
+ * any money moves, so two cancellations at once can't both refund.
+ */
+export const planRefunds = sqliteTable(
+  "plan_refunds",
+  {
+    id: id(),
+    studioId: studioRef(),
+    subscriptionId: text("subscription_id")
+      .notNull()
+      .unique()
+      .references(() => planSubscriptions.id, { onDelete: "cascade" }),
+    /** The plan's version the refund was asked against. */
+    subscriptionVersion: integer("subscription_version").notNull(),
+    amountMinor: integer("amount_minor").notNull(),
+    currency: text("currency").notNull(),
+    /** Whole unused months refunded, of monthsInPeriod. */
+    months: integer("months").notNull(),
+    reason: text("reason", { enum: ["cancelled", "changed_hands"] }).notNull(),
+    /** requested: claimed, not yet confirmed by Stripe; refunded: Stripe confirmed; other_means: a plan paid by other means, paid back by the studio. */
+    status: text("status", { enum: ["requested", "refunded", "other_means"] }).notNull().default("requested"),
+    stripeRefundId: text("stripe_refund_id"),
+    requestedById: text("requested_by_id").references(() => users.id, { onDelete: "set null" }),
+    refundedAt: integer("refunded_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("plan_refunds_studio_idx").on(t.studioId)],
+);
+
+export type PlanRefund = typeof planRefunds.$inferSelect;
 
 /** An included visit the scheduler turned into studio work: one per plan and due date. */
 export const planVisits = sqliteTable(
