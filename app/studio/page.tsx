@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
-import { formatDate, formatMoney, formatMonth } from "@/lib/format";
+import { formatDate, formatMoney, formatMonth, formatZone } from "@/lib/format";
 import { formatWait } from "@/lib/claims/labels";
 import { getOverview } from "@/lib/overview";
 import { setupChecklist } from "@/lib/studio/setup";
@@ -33,7 +33,7 @@ export default async function StudioOverviewPage() {
     <>
       <PageHeader
         title={ctx.studio.name}
-        lead={`Your studio's aftercare at a glance. Today is ${formatDate(o.today, { weekday: "long" })} (${o.timeZone}); flows cover the last 12 months, ${sinceWords}.`}
+        lead={`Your studio's aftercare at a glance. Today is ${formatDate(o.today, { weekday: "long" })} (${formatZone(o.timeZone)}); flows cover the last 12 months, ${sinceWords}.`}
         actions={
           <Link href="/studio/reports" className="inline-flex min-h-11 items-center rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
             Reports
@@ -200,7 +200,7 @@ export default async function StudioOverviewPage() {
           title="Repair revenue by month"
           lead={
             <>
-              Paid online minus refunds, by the month paid ({o.timeZone}): <strong className="text-ink">{money(o.revenue.totalNetMinor)}</strong> {sinceWords}.
+              Paid online minus refunds, by the month paid ({formatZone(o.timeZone)}): <strong className="text-ink">{money(o.revenue.totalNetMinor)}</strong> {sinceWords}.
             </>
           }
           className="lg:col-span-2"

@@ -15,6 +15,7 @@ import {
   formatMonth,
   formatPercentBp,
   formatVisitWhen,
+  formatZone,
   isTimeZone,
   moneyLocale,
   visitDayWord,
@@ -94,6 +95,15 @@ describe("dates and times", () => {
   it("knows IANA zones", () => {
     expect(isTimeZone("Europe/Berlin")).toBe(true);
     expect(isTimeZone("Mars/Olympus_Mons")).toBe(false);
+  });
+
+  it("names a zone as people say it, never as its IANA identifier", () => {
+    // Generic zone names from Unicode CLDR through ECMA-402 (timeZoneName: "longGeneric").
+    expect(formatZone("America/Los_Angeles")).toBe("Pacific Time (Los Angeles)");
+    expect(formatZone("America/New_York")).toBe("Eastern Time (New York)");
+    expect(formatZone("Europe/Berlin")).toBe("Central European Time (Berlin)");
+    expect(formatZone("UTC")).toBe("UTC");
+    for (const z of ["America/Los_Angeles", "America/Argentina/Buenos_Aires", "Pacific/Auckland"]) expect(formatZone(z)).not.toMatch(/[_/]/);
   });
 });
 

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { formatZone } from "@/lib/format";
 import Link from "next/link";
 import { z } from "zod";
 import { Button } from "@/components/ui/button";
@@ -28,7 +29,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
   };
   return (
     <>
-      <PageHeader title="Audit log" lead={`Who did what and when in ${ctx.studio.name}: decisions, finish-layer edits, role changes, refunds and settings. Times in ${ctx.studio.timeZone}.`} />
+      <PageHeader title="Audit log" lead={`Who did what and when in ${ctx.studio.name}: decisions, finish-layer edits, role changes, refunds and settings. Times in ${formatZone(ctx.studio.timeZone)}.`} />
       <Card className="mb-6">
         <form method="get" className="grid gap-4 sm:grid-cols-2 lg:grid-cols-[1.3fr_1.3fr_1fr_1fr_auto] lg:items-start">
           <SelectField label="Kind of change" name="group" defaultValue={parsed.success ? (q.group ?? "") : ""} error={errors?.group?.[0]}>

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { formatZone } from "@/lib/format";
 import { RemindersBoard } from "@/components/reminders/reminders-board";
 import { PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
@@ -13,7 +14,7 @@ export default async function RemindersPage() {
     <>
       <PageHeader
         title="Care reminders"
-        lead={`What goes out to owners in the coming days, and what went out. Reminders leave at ${String(ctx.studio.reminderSendHour).padStart(2, "0")}:00 in each owner's time zone; dates are in the studio's (${ctx.studio.timeZone}). Steps turned off in settings → reminder timing are not listed.`}
+        lead={`What goes out to owners in the coming days, and what went out. Reminders leave at ${String(ctx.studio.reminderSendHour).padStart(2, "0")}:00 in each owner's time zone; dates are in the studio's (${formatZone(ctx.studio.timeZone)}). Steps turned off in settings → reminder timing are not listed.`}
       />
       <RemindersBoard timeZone={ctx.studio.timeZone} />
     </>

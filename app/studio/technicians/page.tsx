@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { formatZone } from "@/lib/format";
 import { Card, PageHeader } from "@/components/ui/card";
 import { HoursEditor } from "@/components/visits/hours-editor";
 import { requireStaff } from "@/lib/auth/guards";
@@ -13,7 +14,7 @@ export default async function TechnicianHoursPage() {
   const techs = listTechnicians(ctx);
   return (
     <>
-      <PageHeader title="Working hours" lead={`Weekly hours and days off of each technician, in ${ctx.studio.timeZone.replace("_", " ")}. Free visit times come from these.`} />
+      <PageHeader title="Working hours" lead={`Weekly hours and days off of each technician, in ${formatZone(ctx.studio.timeZone)}. Free visit times come from these.`} />
       <div className="space-y-6">
         {techs.length === 0 ? <Card>No technicians in this studio yet. Invite one from Team.</Card> : null}
         {techs.map((t) => (

@@ -12,7 +12,7 @@ import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
-import { formatClock, formatDate, formatVolume } from "@/lib/format";
+import { formatClock, formatDate, formatVolume, formatZone } from "@/lib/format";
 import { technicianDay } from "@/lib/visits/technician-day";
 
 export const metadata: Metadata = { title: "My day" };
@@ -187,7 +187,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                         products={day.products}
                         today={day.today}
                         defaultLayers={item.defaultLayers}
-                        early={item.visit.started ? null : { startsAt: `${item.visit.when} (${tz})`, asStaff: staff }}
+                        early={item.visit.started ? null : { startsAt: `${item.visit.when} (${formatZone(tz)})`, asStaff: staff }}
                         initialPhotos={item.photos.map((p) => ({ id: p.id, kind: p.kind, thumbUrl: `/api/files/${p.id}?thumb=1` }))}
                       />
                     ) : null}
