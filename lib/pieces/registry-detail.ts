@@ -7,13 +7,19 @@ import { auditLog, careLogEntries, claims, files, finishLayers, finishProducts, 
 import { requireStaff, type StudioContext } from "@/lib/auth/guards";
 import { topArea, type TopArea } from "@/lib/care/area";
 import { localDate } from "@/lib/care/dates";
-import { CARE_TASK_LABELS } from "@/lib/care/vocabulary";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, type CARE_LOG_SOURCES, type Surface } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
+import { formatDate } from "@/lib/format";
+import { REMINDER_STEP_LABELS } from "@/lib/overview";
 import type { CareSchedule } from "@/lib/care/schedule";
 import { scheduleFromRows, topShape } from "./care-inputs";
 import { loadPiece, publicPiece, studioMembers, studioProducts, today } from "./registry-common";
 import { policyTerms, warrantyEndsOn } from "./registry-sql";
 
 export type TimelineEvent = { on: string; at?: number; kind: "delivered" | "layer" | "care" | "reminder" | "claim" | "registered" | "record"; text: string };
+
+const SURFACE_WORDS: Record<Surface, string> = { top: "Top", base: "Base", edges: "Edges" };
+const CARE_SOURCE_WORDS: Record<(typeof CARE_LOG_SOURCES)[number], string> = { owner: "by the owner", visit: "at a visit", studio: "by the studio" };
 
 const AUDIT_TEXT: Record<string, string> = {
   "piece.created": "Piece record created",
@@ -70,15 +76,15 @@ export function getPieceDetail(ctx: StudioContext, pieceId: string, now = new Da
   const day = (d: Date) => localDate(d.getTime(), tz);
   const timeline: TimelineEvent[] = [{ on: piece.deliveredOn, kind: "delivered", text: `Delivered${piece.deliveryAddress ? ` to ${piece.deliveryAddress}` : ""}` }];
   for (const { layer, productName } of layers) {
-    timeline.push({ on: layer.appliedOn, kind: "layer", text: `${layer.surface}: ${productName ?? (layer.productLabel || layer.finishClass)} applied, ${layer.coats} coat${layer.coats === 1 ? "" : "s"}` });
+    timeline.push({ on: layer.appliedOn, kind: "layer", text: `${SURFACE_WORDS[layer.surface]}: ${productName ?? (layer.productLabel || FINISH_CLASS_LABELS[layer.finishClass])} applied, ${layer.coats} coat${layer.coats === 1 ? "" : "s"}` });
   }
-  for (const c of careLog) timeline.push({ on: c.doneOn, kind: "care", text: `Care logged (${c.source}): ${CARE_TASK_LABELS[c.taskKind as keyof typeof CARE_TASK_LABELS] ?? c.taskKind}${c.notes ? ` — ${c.notes}` : ""}` });
+  for (const c of careLog) timeline.push({ on: c.doneOn, kind: "care", text: `Care logged ${CARE_SOURCE_WORDS[c.source]}: ${CARE_TASK_LABELS[c.taskKind as keyof typeof CARE_TASK_LABELS] ?? c.taskKind}${c.notes ? ` — ${c.notes}` : ""}` });
   if (piece.registeredAt) timeline.push({ on: day(piece.registeredAt), at: piece.registeredAt.getTime(), kind: "registered", text: `Registered by ${owner?.name ?? "its owner"}` });
   for (const r of db.select().from(reminderSends).where(and(eq(reminderSends.pieceId, pieceId), eq(reminderSends.studioId, ctx.studio.id), eq(reminderSends.status, "sent"))).all()) {
-    if (r.sentAt) timeline.push({ on: day(r.sentAt), at: r.sentAt.getTime(), kind: "reminder", text: `Care reminder sent: ${r.taskKind.replace(/_/g, " ")} (${r.step.replace(/_/g, " ")}), due ${r.dueOn}` });
+    if (r.sentAt) timeline.push({ on: day(r.sentAt), at: r.sentAt.getTime(), kind: "reminder", text: `Care reminder sent: ${CARE_TASK_LABELS[r.taskKind as keyof typeof CARE_TASK_LABELS] ?? r.taskKind} (${REMINDER_STEP_LABELS[r.step].toLowerCase()}), due ${formatDate(r.dueOn)}` });
   }
   for (const c of db.select().from(claims).where(and(eq(claims.pieceId, pieceId), eq(claims.studioId, ctx.studio.id))).all()) {
-    timeline.push({ on: day(c.createdAt), at: c.createdAt.getTime(), kind: "claim", text: `Claim filed: ${c.category.replace(/_/g, " ")} (now ${c.state.replace(/_/g, " ")})` });
+    timeline.push({ on: day(c.createdAt), at: c.createdAt.getTime(), kind: "claim", text: `Claim filed: ${CLAIM_CATEGORY_LABELS[c.category]} (now ${CLAIM_STATE_LABELS_STAFF[c.state].toLowerCase()})` });
   }
   for (const a of db
     .select()

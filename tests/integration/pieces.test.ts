@@ -70,6 +70,11 @@ describe("piece records", () => {
     expect(detail.schedule!.tasks.map((t) => t.kind)).toContain("topcoat_refresh");
     expect(detail.schedule!.tasks.find((t) => t.kind === "topcoat_refresh")!.reasons[0]).toContain("2025-04-30");
     expect(detail.timeline.some((e) => e.kind === "delivered" && e.on === "2025-05-01")).toBe(true);
+    // The timeline is read by people: surfaces and finish classes in words, no enum value.
+    const layerTexts = detail.timeline.filter((e) => e.kind === "layer").map((e) => e.text);
+    expect(layerTexts).toHaveLength(2);
+    for (const t of layerTexts) expect(t).toMatch(/^Top: /);
+    for (const e of detail.timeline) expect(e.text).not.toMatch(/_|\btop:/);
   });
 
   it("rejects a record whose shape lacks its sizes, and an unknown species, field by field", async () => {
