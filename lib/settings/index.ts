@@ -11,14 +11,14 @@ import { localDate } from "@/lib/care/dates";
 import { CURRENCY_EXPONENTS, formatMinorUnits } from "@/lib/care/quote";
 import { CLAIM_CATEGORIES, REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
 import { badRequest, unprocessable } from "@/lib/errors";
-import {
-  policyVersionSchema,
-  profileSchema,
-  reminderTimingSchema,
-  visitRulesSchema,
-  type ProfileInput,
-  type PolicyVersionInput,
-  type VisitRulesInput,
+import type {
+  ProfileInput,
+  ProfileValues,
+  PolicyVersionInput,
+  PolicyVersionValues,
+  ReminderTimingValues,
+  VisitRulesInput,
+  VisitRulesValues,
 } from "@/lib/validation/settings";
 import { markSetupStep } from "@/lib/studio/setup";
 import { visitRulesFor } from "@/lib/visits/availability";
@@ -79,9 +79,8 @@ export function profileFormValues(ctx: StudioContext): ProfileInput {
 }
 
 /** Saves the profile and rates; amounts arrive in major units as typed and are stored in minor units. */
-export function updateProfile(ctx: StudioContext, raw: unknown): Studio {
+export function updateProfile(ctx: StudioContext, v: ProfileValues): Studio {
   assertAdmin(ctx);
-  const v = profileSchema.parse(raw);
   const db = getDb();
   return db.transaction((tx) => {
     const before = tx.select().from(studios).where(eq(studios.id, ctx.studio.id)).get()!;
@@ -121,9 +120,8 @@ export function reminderTiming(ctx: StudioContext): ReminderTiming {
   return { sendHour: s.reminderSendHour, steps: REMINDER_STEPS.filter((st) => s.reminderSteps.includes(st)) };
 }
 
-export function updateReminderTiming(ctx: StudioContext, raw: unknown): ReminderTiming {
+export function updateReminderTiming(ctx: StudioContext, v: ReminderTimingValues): ReminderTiming {
   assertAdmin(ctx);
-  const v = reminderTimingSchema.parse(raw);
   const steps = REMINDER_STEPS.filter((s) => v.steps.includes(s));
   return getDb().transaction((tx) => {
     const before = tx.select({ h: studios.reminderSendHour, s: studios.reminderSteps }).from(studios).where(eq(studios.id, ctx.studio.id)).get()!;
@@ -157,9 +155,8 @@ function rulesOf(r: VisitRules): VisitRules {
 }
 
 /** Saves the rules; slots offered from then on follow them. Visits already booked stay as they are. */
-export function updateVisitRules(ctx: StudioContext, raw: unknown): VisitRules {
+export function updateVisitRules(ctx: StudioContext, v: VisitRulesValues): VisitRules {
   assertAdmin(ctx);
-  const v = visitRulesSchema.parse(raw);
   return getDb().transaction((tx) => {
     const before = rulesOf(visitRulesFor(tx, ctx.studio.id));
     tx.insert(visitRulesTable).values({ studioId: ctx.studio.id, ...v }).onConflictDoUpdate({ target: visitRulesTable.studioId, set: v }).run();
@@ -227,9 +224,8 @@ export function policyEditorValues(ctx: StudioContext, now: Date = new Date()): 
  * Saves the editor's terms as a new version effective from the given date. Earlier versions are
  * never changed, so every piece keeps the version it was stamped with at delivery.
  */
-export function createPolicyVersion(ctx: StudioContext, raw: unknown, now: Date = new Date()) {
+export function createPolicyVersion(ctx: StudioContext, v: PolicyVersionValues, now: Date = new Date()) {
   assertAdmin(ctx);
-  const v = policyVersionSchema.parse(raw);
   if (!CLAIM_CATEGORIES.some((c) => v.lines[c].covered)) throw badRequest("Cover at least one kind of claim.");
   const today = studioToday(ctx, now);
   return getDb().transaction((tx) => {

@@ -13,3 +13,4 @@ export const startStudioSchema = z.object({
   invite: z.string().max(300).optional(),
 });
 export type StartStudioInput = z.input<typeof startStudioSchema>;
+export type StartStudioValues = z.output<typeof startStudioSchema>;

@@ -8,7 +8,7 @@ import { recordAudit } from "@/lib/audit";
 import { forbidden } from "@/lib/errors";
 import { env, type Env } from "@/lib/env";
 import { readStudioInvite } from "./create-invite";
-import { startStudioSchema } from "./create-schema";
+import type { StartStudioValues } from "./create-schema";
 
 type Tx = Pick<Db, "select">;
 export type SignupMode = Env["STUDIO_SIGNUP"];
@@ -58,8 +58,7 @@ export function startGate({
  * Makes a studio with `userId` as its admin. The gate is checked again inside one immediate
  * transaction, so two visitors racing for an empty install make one studio, and an invite link one.
  */
-export function createStudio(userId: string, raw: unknown, { db = getDb(), ...opts }: { mode?: SignupMode; now?: Date; db?: Db } = {}): Studio {
-  const v = startStudioSchema.parse(raw);
+export function createStudio(userId: string, v: StartStudioValues, { db = getDb(), ...opts }: { mode?: SignupMode; now?: Date; db?: Db } = {}): Studio {
   return db.transaction(
     (tx) => {
       const gate = startGate({ invite: v.invite, ...opts, db: tx });

@@ -7,6 +7,7 @@ export const accentSchema = z.object({
   accent: z.enum(ACCENT_NAMES as [string, ...string[]], { error: "Pick one of the colours." }),
 });
 export type AccentInput = z.input<typeof accentSchema>;
+export type AccentValues = z.output<typeof accentSchema>;
 
 export const stripeKeySchema = z.object({
   secretKey: z
@@ -17,6 +18,7 @@ export const stripeKeySchema = z.object({
     .regex(/^(sk|rk)_(test|live)_[A-Za-z0-9_]+$/, "A Stripe secret key starts with sk_live_ or sk_test_ (a restricted key with rk_)."),
 });
 export type StripeKeyInput = z.input<typeof stripeKeySchema>;
+export type StripeKeyValues = z.output<typeof stripeKeySchema>;
 
 export const mailSenderSchema = z.object({
   senderName: z
@@ -28,3 +30,4 @@ export const mailSenderSchema = z.object({
   replyTo: z.union([z.literal(""), z.email("Enter an e-mail address like studio@example.com.").max(200)]),
 });
 export type MailSenderInput = z.input<typeof mailSenderSchema>;
+export type MailSenderValues = z.output<typeof mailSenderSchema>;

@@ -20,7 +20,7 @@ import { readStoredFile, removeStoredFiles, storeImage } from "@/lib/storage";
 import type { PolicyVersionInput } from "@/lib/validation/settings";
 import StudioTestMessage from "@/emails/studio-test-message";
 import { markSetupStep } from "./setup";
-import { accentSchema, mailSenderSchema, stripeKeySchema } from "./setup-schema";
+import type { AccentValues, MailSenderValues, StripeKeyValues } from "./setup-schema";
 import { CATALOG_STARTERS, STARTER_NOTE, WARRANTY_TEMPLATE } from "./starters";
 
 // ---- logo and accent ----
@@ -68,9 +68,8 @@ export async function studioLogo(studioId: string): Promise<Buffer | null> {
   return readStoredFile(row.k).catch(() => null);
 }
 
-export function saveAccent(ctx: StudioContext, raw: unknown): string {
+export function saveAccent(ctx: StudioContext, { accent }: AccentValues): string {
   assertAdmin(ctx);
-  const { accent } = accentSchema.parse(raw);
   getDb().transaction((tx) => {
     const before = tx.select({ a: studios.accent }).from(studios).where(eq(studios.id, ctx.studio.id)).get()?.a;
     tx.update(studios).set({ accent }).where(eq(studios.id, ctx.studio.id)).run();
@@ -105,9 +104,8 @@ export function startCatalog(ctx: StudioContext): number {
  * talks to (the local fake when STRIPE_API_HOST is set; `api` names another, for tests), then keeps it sealed (lib/crypto.ts). A key
  * Stripe refuses is not kept (422); an unreachable service keeps nothing either (503).
  */
-export async function saveStripeKey(ctx: StudioContext, raw: unknown, opts: { now?: Date; api?: { host: string; port: number; protocol: "http" | "https" } } = {}): Promise<void> {
+export async function saveStripeKey(ctx: StudioContext, { secretKey }: StripeKeyValues, opts: { now?: Date; api?: { host: string; port: number; protocol: "http" | "https" } } = {}): Promise<void> {
   assertAdmin(ctx);
-  const { secretKey } = stripeKeySchema.parse(raw);
   const now = opts.now ?? new Date();
   const api = opts.api ?? (env.STRIPE_API_HOST ? { host: env.STRIPE_API_HOST, port: env.STRIPE_API_PORT, protocol: env.STRIPE_API_PROTOCOL } : null);
   const stripe = new Stripe(secretKey, {
@@ -150,9 +148,8 @@ export function mailSenderValues(ctx: StudioContext): { senderName: string; repl
 }
 
 /** The sender name and the Reply-To address (studios.email, which the studio's mail already answers to). */
-export function saveMailSender(ctx: StudioContext, raw: unknown): void {
+export function saveMailSender(ctx: StudioContext, v: MailSenderValues): void {
   assertAdmin(ctx);
-  const v = mailSenderSchema.parse(raw);
   getDb().transaction((tx) => {
     const before = tx.select({ n: studios.mailSenderName, e: studios.email }).from(studios).where(eq(studios.id, ctx.studio.id)).get();
     tx.update(studios).set({ mailSenderName: v.senderName, email: v.replyTo }).where(eq(studios.id, ctx.studio.id)).run();

@@ -6,8 +6,8 @@ import { recordAudit } from "@/lib/audit";
 import { assertRole, type StudioContext } from "@/lib/auth/guards";
 import { endAllSessions } from "@/lib/auth/session";
 import { conflict, notFound } from "@/lib/errors";
-import { revokeInvitationSchema } from "@/lib/validation/auth";
-import { changeRoleSchema, removeMemberSchema } from "@/lib/validation/settings";
+import type { RevokeInvitationValues } from "@/lib/validation/auth";
+import type { ChangeRoleValues, RemoveMemberValues } from "@/lib/validation/settings";
 
 export function listMembers(ctx: StudioContext) {
   return getDb()
@@ -55,9 +55,8 @@ function adminCount(tx: Pick<Db, "select">, studioId: string): number {
   return tx.select({ n: count() }).from(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.role, "admin"))).get()?.n ?? 0;
 }
 
-export function changeMemberRole(ctx: StudioContext, raw: unknown) {
+export function changeMemberRole(ctx: StudioContext, { membershipId, role }: ChangeRoleValues) {
   assertAdminRole(ctx);
-  const { membershipId, role } = changeRoleSchema.parse(raw);
   return getDb().transaction((tx) => {
     const m = memberOf(tx, ctx, membershipId);
     if (m.role === role) return { ...m, changed: false };
@@ -71,9 +70,8 @@ export function changeMemberRole(ctx: StudioContext, raw: unknown) {
 }
 
 /** Removes a member from the studio and ends every session of theirs at once. */
-export async function removeMember(ctx: StudioContext, raw: unknown) {
+export async function removeMember(ctx: StudioContext, { membershipId }: RemoveMemberValues) {
   assertAdminRole(ctx);
-  const { membershipId } = removeMemberSchema.parse(raw);
   const removed = getDb().transaction((tx) => {
     const m = memberOf(tx, ctx, membershipId);
     if (m.userId === ctx.user.id) throw conflict("You can't remove yourself; another admin can.");
@@ -103,9 +101,8 @@ export async function removeMember(ctx: StudioContext, raw: unknown) {
 }
 
 /** Withdraws a pending invitation: its link stops working at once. Another studio's invitation is a 404. */
-export function revokeInvitation(ctx: StudioContext, raw: unknown) {
+export function revokeInvitation(ctx: StudioContext, { invitationId }: RevokeInvitationValues) {
   assertAdminRole(ctx);
-  const { invitationId } = revokeInvitationSchema.parse(raw);
   return getDb().transaction((tx) => {
     const row = tx
       .update(invitations)

@@ -50,6 +50,7 @@ export type InviteInput = z.infer<typeof inviteSchema>;
 
 export const revokeInvitationSchema = z.object({ invitationId: z.string({ error: "Pick an invitation." }).trim().min(1, "Pick an invitation.").max(64) });
 export type RevokeInvitationInput = z.input<typeof revokeInvitationSchema>;
+export type RevokeInvitationValues = z.output<typeof revokeInvitationSchema>;
 
 export const acceptInvitationSchema = z.object({
   token: z.string().min(10).max(200),

@@ -48,6 +48,7 @@ export const profileSchema = z
     }
   });
 export type ProfileInput = z.input<typeof profileSchema>;
+export type ProfileValues = z.output<typeof profileSchema>;
 
 export const policyLineSchema = z
   .object({
@@ -72,12 +73,14 @@ export const policyVersionSchema = z.object({
   lines: z.object(Object.fromEntries(CLAIM_CATEGORIES.map((c) => [c, policyLineSchema])) as Record<(typeof CLAIM_CATEGORIES)[number], typeof policyLineSchema>),
 });
 export type PolicyVersionInput = z.input<typeof policyVersionSchema>;
+export type PolicyVersionValues = z.output<typeof policyVersionSchema>;
 
 export const reminderTimingSchema = z.object({
   sendHour: z.number({ error: "Pick an hour." }).int("Pick an hour.").min(0, "Pick an hour from 00 to 23.").max(23, "Pick an hour from 00 to 23."),
   steps: z.array(z.enum(REMINDER_STEPS)).max(REMINDER_STEPS.length),
 });
 export type ReminderTimingInput = z.input<typeof reminderTimingSchema>;
+export type ReminderTimingValues = z.output<typeof reminderTimingSchema>;
 
 const wholeNumber = (what: string, min: number, max: number, unit: string) =>
   z
@@ -94,9 +97,12 @@ export const visitRulesSchema = z.object({
   ownerChangeCutoffHours: wholeNumber("change cut-off", 0, 168, "hours"),
 });
 export type VisitRulesInput = z.input<typeof visitRulesSchema>;
+export type VisitRulesValues = z.output<typeof visitRulesSchema>;
 
 const membershipId = z.string({ error: "Pick a member." }).trim().min(1, "Pick a member.").max(64);
 export const changeRoleSchema = z.object({ membershipId, role: z.enum(STUDIO_ROLES, { error: "Pick a role." }) });
 export type ChangeRoleInput = z.input<typeof changeRoleSchema>;
+export type ChangeRoleValues = z.output<typeof changeRoleSchema>;
 export const removeMemberSchema = z.object({ membershipId });
 export type RemoveMemberInput = z.input<typeof removeMemberSchema>;
+export type RemoveMemberValues = z.output<typeof removeMemberSchema>;

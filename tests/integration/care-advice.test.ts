@@ -12,6 +12,7 @@ import { recordAudit } from "@/lib/audit";
 import { checkCoverage, DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { coverageSummary } from "@/lib/claims/coverage-words";
 import { listAudit } from "@/lib/studio/audit";
+import { auditQuerySchema } from "@/lib/studio/audit-query";
 import { careSchedule } from "@/lib/care/schedule";
 import { certificatePdf } from "@/lib/owner/certificate";
 import { OWNER_TASK_STATE_WORDS, ownerTaskState } from "@/lib/owner/format";
@@ -258,7 +259,7 @@ describe("the coverage check and the audit log in words (item 11)", () => {
       recordAudit(tx, { studioId: studio.id, actorId: staff.user.id, action: "member.role_changed", subjectType: "user", subjectId: "u1", data: { from: "staff", to: "admin", role: "admin" } });
       recordAudit(tx, { studioId: studio.id, actorId: staff.user.id, action: "piece.registered", subjectType: "piece", subjectId: "p1", data: {} });
     });
-    const log = listAudit(staff, {});
+    const log = listAudit(staff, auditQuerySchema.parse({}));
     const text = log.rows.map((r) => [r.label, ...r.details].join(" | ")).join("\n");
     expect(text).toContain("Decision: Partly covered");
     expect(text).toContain("Reviewing → Accepted");

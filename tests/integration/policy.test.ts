@@ -11,7 +11,7 @@ import { AppError } from "@/lib/errors";
 import { createPiece as registryCreatePiece } from "@/lib/pieces/registry";
 import { createPolicyVersion, listPolicyVersions, policyEditorValues, policyInForce } from "@/lib/settings";
 import { blankLine, describePolicyChanges, formToPolicy, policyToForm } from "@/lib/settings/policy";
-import type { PolicyVersionInput } from "@/lib/validation/settings";
+import { policyVersionSchema, type PolicyVersionInput } from "@/lib/validation/settings";
 import { createStudio, createUser, memberContext } from "../support/fixtures";
 
 function terms(effectiveFrom: string, finishWearMonths: number): PolicyVersionInput {
@@ -141,8 +141,8 @@ describe("warranty policy versions", () => {
     none.lines.finish_wear.covered = false;
     none.lines.structural.covered = false;
     expectAppError(() => createPolicyVersion(admin, none, now), 400);
-    expect(() => createPolicyVersion(admin, { ...terms("2026-07-01", 0) }, now)).toThrow(ZodError);
-    expect(() => createPolicyVersion(admin, { effectiveFrom: "2026-02-30", lines: terms("x", 12).lines }, now)).toThrow(ZodError);
+    expect(() => createPolicyVersion(admin, policyVersionSchema.parse(terms("2026-07-01", 0)), now)).toThrow(ZodError);
+    expect(() => createPolicyVersion(admin, policyVersionSchema.parse({ effectiveFrom: "2026-02-30", lines: terms("x", 12).lines }), now)).toThrow(ZodError);
 
     // Another studio neither sees nor gets these versions.
     expect(policyInForce(createStudio().id, "2027-01-01")).toBeNull();

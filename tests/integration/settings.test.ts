@@ -10,8 +10,10 @@ import { AppError } from "@/lib/errors";
 import { profileFormValues, reminderTiming, toMinorUnits, updateProfile, updateReminderTiming, updateVisitRules, visitRules } from "@/lib/settings";
 import { listEmailTemplates, renderEmailPreview } from "@/lib/settings/email-previews";
 import { listAudit } from "@/lib/studio/audit";
+import { auditQuerySchema } from "@/lib/studio/audit-query";
 import { changeMemberRole } from "@/lib/studio/team";
 import { bookVisit } from "@/lib/visits/book";
+import { profileSchema, reminderTimingSchema, visitRulesSchema } from "@/lib/validation/settings";
 import { listJobSlots } from "@/lib/visits/slots";
 import { createStudio, memberContext } from "../support/fixtures";
 import { addJob, ownerActor, staffActor, visitWorld } from "./visits-helpers";
@@ -58,11 +60,11 @@ describe("studio profile and rates", () => {
     const studio = createStudio();
     const admin = await memberContext(studio, "admin");
     const staff = await memberContext(studio, "staff");
-    expect(status(() => updateProfile(admin, { ...profile, currency: "JPY", labourRate: "12.5" }))).toBe("zod");
-    expect(status(() => updateProfile(admin, { ...profile, timeZone: "Mars/Olympus" }))).toBe("zod");
-    expect(status(() => updateProfile(admin, { ...profile, taxRatePct: "101" }))).toBe("zod");
-    expect(status(() => updateProfile(admin, { ...profile, labourRate: "$85" }))).toBe("zod");
-    expect(status(() => updateProfile(admin, { ...profile, currency: "XYZ" }))).toBe("zod");
+    expect(status(() => updateProfile(admin, profileSchema.parse({ ...profile, currency: "JPY", labourRate: "12.5" })))).toBe("zod");
+    expect(status(() => updateProfile(admin, profileSchema.parse({ ...profile, timeZone: "Mars/Olympus" })))).toBe("zod");
+    expect(status(() => updateProfile(admin, profileSchema.parse({ ...profile, taxRatePct: "101" })))).toBe("zod");
+    expect(status(() => updateProfile(admin, profileSchema.parse({ ...profile, labourRate: "$85" })))).toBe("zod");
+    expect(status(() => updateProfile(admin, profileSchema.parse({ ...profile, currency: "XYZ" })))).toBe("zod");
     expect(status(() => updateProfile(staff, profile))).toBe(403);
     expect(getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!.name).toBe("Test Studio (invented)");
     expect(toMinorUnits("0.05", "USD")).toBe(5);
@@ -79,8 +81,8 @@ describe("reminder timing", () => {
     expect(reminderTiming(admin)).toEqual({ sendHour: 18, steps: ["before_14d", "after_30d"] });
     updateReminderTiming(admin, { sendHour: 7, steps: [] });
     expect(reminderTiming(admin)).toEqual({ sendHour: 7, steps: [] });
-    expect(status(() => updateReminderTiming(admin, { sendHour: 24, steps: [] }))).toBe("zod");
-    expect(status(() => updateReminderTiming(admin, { sendHour: 9, steps: ["weekly"] }))).toBe("zod");
+    expect(status(() => updateReminderTiming(admin, reminderTimingSchema.parse({ sendHour: 24, steps: [] })))).toBe("zod");
+    expect(status(() => updateReminderTiming(admin, reminderTimingSchema.parse({ sendHour: 9, steps: ["weekly"] })))).toBe("zod");
     const tech = await memberContext(studio, "technician");
     expect(status(() => updateReminderTiming(tech, { sendHour: 9, steps: [] }))).toBe(403);
   });
@@ -99,7 +101,7 @@ describe("visit booking rules", () => {
     const other = await memberContext(createStudio(), "admin");
     expect(visitRules(other)).toEqual(DEFAULTS); // one studio's rules are its own
     for (const bad of [{ leadTimeHours: 337 }, { leadTimeHours: -1 }, { travelBufferMin: 241 }, { travelBufferMin: 1.5 }, { slotStepMin: 20 }, { ownerChangeCutoffHours: 169 }, { leadTimeHours: "48" }]) {
-      expect(status(() => updateVisitRules(admin, { ...mine, ...bad })), JSON.stringify(bad)).toBe("zod");
+      expect(status(() => updateVisitRules(admin, visitRulesSchema.parse({ ...mine, ...bad }))), JSON.stringify(bad)).toBe("zod");
     }
     expect(visitRules(admin)).toEqual(mine); // a refused change leaves the saved rules alone
     for (const role of ["staff", "technician"] as const) {
@@ -177,23 +179,23 @@ describe("audit log", () => {
     updateReminderTiming(admin, { sendHour: 10, steps: ["due_day"] });
     getDb().insert(auditLog).values({ studioId: studio.id, actorId: staff.user.id, action: "payment.refunded", subjectType: "payment", subjectId: "p1", data: { amountMinor: 500 }, createdAt: new Date("2026-03-04T19:05:00Z") }).run();
 
-    const all = listAudit(staff, {});
+    const all = listAudit(staff, auditQuerySchema.parse({}));
     expect(all.total).toBe(3);
     expect(all.rows.map((r) => r.label)).toEqual(["Reminder timing changed", "Role changed", "Refund issued"]);
     expect(all.rows[1]!.details).toContain("staff → technician");
     expect(all.rows[2]!.local).toBe("2026-03-04 14:05");
 
-    expect(listAudit(staff, { group: "team" }).rows.map((r) => r.action)).toEqual(["member.role_changed"]);
-    expect(listAudit(staff, { group: "payments" }).rows.map((r) => r.action)).toEqual(["payment.refunded"]);
-    expect(listAudit(staff, { actor: staff.user.id }).total).toBe(1);
-    expect(listAudit(staff, { from: "2026-03-04", to: "2026-03-04" }).total).toBe(1);
-    expect(listAudit(staff, { from: "2026-03-05", to: "2026-03-05" }).total).toBe(0);
-    expect(status(() => listAudit(staff, { from: "2026-03-05", to: "2026-03-01" }))).toBe("zod");
-    expect(status(() => listAudit(staff, { group: "everything" }))).toBe("zod");
+    expect(listAudit(staff, auditQuerySchema.parse({ group: "team" })).rows.map((r) => r.action)).toEqual(["member.role_changed"]);
+    expect(listAudit(staff, auditQuerySchema.parse({ group: "payments" })).rows.map((r) => r.action)).toEqual(["payment.refunded"]);
+    expect(listAudit(staff, auditQuerySchema.parse({ actor: staff.user.id })).total).toBe(1);
+    expect(listAudit(staff, auditQuerySchema.parse({ from: "2026-03-04", to: "2026-03-04" })).total).toBe(1);
+    expect(listAudit(staff, auditQuerySchema.parse({ from: "2026-03-05", to: "2026-03-05" })).total).toBe(0);
+    expect(status(() => listAudit(staff, auditQuerySchema.parse({ from: "2026-03-05", to: "2026-03-01" })))).toBe("zod");
+    expect(status(() => listAudit(staff, auditQuerySchema.parse({ group: "everything" })))).toBe("zod");
 
     const other = await memberContext(createStudio(), "admin");
-    expect(listAudit(other, {}).total).toBe(0);
+    expect(listAudit(other, auditQuerySchema.parse({})).total).toBe(0);
     const tech = await memberContext(studio, "technician");
-    expect(status(() => listAudit(tech, {}))).toBe(403);
+    expect(status(() => listAudit(tech, auditQuerySchema.parse({})))).toBe(403);
   });
 });

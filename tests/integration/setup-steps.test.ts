@@ -26,7 +26,9 @@ import {
   updateProfile,
   updateReminderTiming,
 } from "@/lib/settings";
+import { profileSchema } from "@/lib/validation/settings";
 import { ACCENTS } from "@/lib/studio/brand";
+import { accentSchema, mailSenderSchema, stripeKeySchema } from "@/lib/studio/setup-schema";
 import { firstUnfinishedStep, setupChecklist } from "@/lib/studio/setup";
 import {
   mailSenderValues,
@@ -118,7 +120,7 @@ describe("set-up steps", () => {
     expect(row(studio.id).phone).toBe("+1 555 0100");
     expect(
       await failure(() =>
-        updateProfile(admin, { ...profile, phone: "call me <b>" }),
+        updateProfile(admin, profileSchema.parse({ ...profile, phone: "call me <b>" })),
       ),
     ).toBe("zod");
   });
@@ -177,7 +179,7 @@ describe("set-up steps", () => {
     const studio = createStudio();
     const admin = await memberContext(studio, "admin");
     const staff = await memberContext(studio, "staff");
-    expect(await failure(() => saveAccent(admin, { accent: "neon" }))).toBe(
+    expect(await failure(() => saveAccent(admin, accentSchema.parse({ accent: "neon" })))).toBe(
       "zod",
     );
     expect(await failure(() => saveAccent(staff, { accent: "moss" }))).toBe(
@@ -256,7 +258,7 @@ describe("set-up steps", () => {
       const admin = await memberContext(studio, "admin");
       expect(
         await failure(() =>
-          saveStripeKey(admin, { secretKey: "pk_test_public" }, { api: api() }),
+          saveStripeKey(admin, stripeKeySchema.parse({ secretKey: "pk_test_public" }), { api: api() }),
         ),
       ).toBe("zod");
       expect(
@@ -311,7 +313,7 @@ describe("set-up steps", () => {
     });
     expect(
       await failure(() =>
-        saveMailSender(admin, { senderName: 'Evil "Name" <x@y>', replyTo: "" }),
+        saveMailSender(admin, mailSenderSchema.parse({ senderName: 'Evil "Name" <x@y>', replyTo: "" })),
       ),
     ).toBe("zod");
     saveMailSender(admin, {

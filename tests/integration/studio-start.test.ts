@@ -15,6 +15,7 @@ import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { AppError } from "@/lib/errors";
 import { env } from "@/lib/env";
 import { REFUSALS, createStudio, type SignupMode } from "@/lib/studio/create";
+import { startStudioSchema } from "@/lib/studio/create-schema";
 import { studioInviteLink, studioInviteToken } from "@/lib/studio/create-invite";
 import { setupChecklist } from "@/lib/studio/setup";
 
@@ -161,10 +162,10 @@ describe("STUDIO_SIGNUP", () => {
     const db = freshDb();
     const user = person(db).id;
     for (const bad of [{ timeZone: "Mars/Olympus" }, { currency: "XYZ" }, { name: "  " }]) {
-      expect(() => createStudio(user, { ...input, ...bad }, { db, mode: "open" })).toThrow(ZodError);
+      expect(() => createStudio(user, startStudioSchema.parse({ ...input, ...bad }), { db, mode: "open" })).toThrow(ZodError);
     }
     try {
-      createStudio(user, { ...input, timeZone: "Mars/Olympus" }, { db, mode: "open" });
+      createStudio(user, startStudioSchema.parse({ ...input, timeZone: "Mars/Olympus" }), { db, mode: "open" });
     } catch (e) {
       expect((e as ZodError).issues[0]!.message).toBe("Use a time zone name like America/Los_Angeles or Europe/Berlin.");
     }

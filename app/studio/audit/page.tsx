@@ -18,7 +18,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
   const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v]));
   const parsed = auditQuerySchema.safeParse(raw);
   const errors = parsed.success ? null : z.flattenError(parsed.error).fieldErrors;
-  const log = listAudit(ctx, parsed.success ? parsed.data : {});
+  const log = listAudit(ctx, parsed.success ? parsed.data : auditQuerySchema.parse({}));
   const q = log.query;
   const pages = Math.max(1, Math.ceil(log.total / log.pageSize));
   const pageHref = (page: number) => {

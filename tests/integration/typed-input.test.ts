@@ -1,0 +1,150 @@
+// lib functions take parsed, typed input; the zod schemas run once, at the request boundary
+// (route()'s `body`/`query` in lib/http/route.ts, action()'s `schema` in lib/http/action.ts).
+// Each area's routes and actions are called here as Next.js calls them, with a real signed-in
+// session (a lucia session row in the test database, its token in the cookie jar next/headers
+// hands out): bad input is refused at the boundary with its field errors in the one JSON shape
+// (or the form's ActionResult), and nothing is saved.
+// All data invented.
+import { eq } from "drizzle-orm";
+import { NextRequest } from "next/server";
+import { beforeEach, describe, expect, it, vi } from "vitest";
+import { getDb } from "@/db/client";
+import { memberships, studios } from "@/db/schema";
+import type { StudioRole } from "@/lib/care/vocabulary";
+import { sha256Hex, randomToken } from "@/lib/crypto";
+import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
+import { createStudio, createUser } from "../support/fixtures";
+
+// next/headers outside a Next.js request: the cookie jar holds the session token of whoever the
+// test signed in; headers are empty (no client address, no Accept-Language).
+const jar = vi.hoisted(() => new Map<string, string>());
+vi.mock("next/headers", () => ({
+  cookies: async () => ({
+    get: (name: string) => (jar.has(name) ? { name, value: jar.get(name)! } : undefined),
+    set: () => undefined,
+  }),
+  headers: async () => new Headers(),
+}));
+
+beforeEach(() => jar.clear());
+
+async function signIn(userId: string) {
+  const token = randomToken(24);
+  await getLucia().createSession(userId, {}, { sessionId: sha256Hex(token) });
+  jar.set(SESSION_COOKIE, token);
+}
+
+async function signInMember(role: StudioRole, studio = createStudio()) {
+  const user = await createUser();
+  getDb().insert(memberships).values({ studioId: studio.id, userId: user.id, role }).run();
+  await signIn(user.id);
+  return { user, studio };
+}
+
+type Handler = (req: NextRequest, ctx: { params: Promise<unknown> }) => Promise<Response>;
+
+/** Calls a route handler as Next.js does; the answer's status and JSON. */
+async function call(handler: Handler, method: string, path: string, { body, params = {} }: { body?: unknown; params?: Record<string, string> } = {}) {
+  const req = new NextRequest(`http://localhost:3999${path}`, {
+    method,
+    ...(body === undefined ? {} : { body: JSON.stringify(body), headers: { "content-type": "application/json" } }),
+  });
+  const res = await handler(req, { params: Promise.resolve(params) });
+  const text = await res.text();
+  return { status: res.status, json: text.startsWith("{") ? (JSON.parse(text) as { error?: { code: string; message: string; fieldErrors?: Record<string, string[]> } }) : null };
+}
+
+describe("settings: the profile, reminder timing, visit rules and warranty versions are parsed at the boundary", () => {
+  it("PATCH /api/studio/settings: a currency we don't know is a 400 naming the field; nothing is saved", async () => {
+    const { PATCH } = await import("@/app/api/studio/settings/route");
+    const { studio } = await signInMember("admin");
+    const profile = { name: "Typed Studio (invented)", address: "", email: "", timeZone: "Europe/Berlin", currency: "XYZ", unitSystem: "metric", taxRatePct: "0", labourRate: "80", travelFee: "0" };
+    const r = await call(PATCH, "PATCH", "/api/studio/settings", { body: { profile, reminders: { sendHour: 24, steps: [] } } });
+    expect(r.status).toBe(400);
+    expect(r.json?.error?.code).toBe("bad_request");
+    expect(Object.keys(r.json?.error?.fieldErrors ?? {}).sort()).toEqual(["profile", "reminders"]);
+    expect(getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!.name).toBe("Test Studio (invented)");
+  });
+
+  it("POST /api/studio/policy: a date that doesn't exist is a 400 with the field's words", async () => {
+    const { POST } = await import("@/app/api/studio/policy/route");
+    await signInMember("admin");
+    const r = await call(POST, "POST", "/api/studio/policy", { body: { effectiveFrom: "2026-02-30", lines: {} } });
+    expect(r.status).toBe(400);
+    expect(r.json?.error?.fieldErrors?.effectiveFrom?.length).toBeGreaterThan(0);
+  });
+
+  it("the settings actions answer the form's field errors without saving", async () => {
+    const { saveProfileAction, saveReminderTimingAction, saveVisitRulesAction } = await import("@/app/studio/settings/actions");
+    const { studio } = await signInMember("admin");
+    const profile = await saveProfileAction({ name: "Typed Studio (invented)", address: "", email: "", timeZone: "Mars/Olympus", currency: "EUR", unitSystem: "metric", taxRatePct: "0", labourRate: "80", travelFee: "0" });
+    expect(profile).toMatchObject({ ok: false, fieldErrors: { timeZone: ["Use a time zone name like America/Los_Angeles or Europe/Berlin."] } });
+    expect(await saveReminderTimingAction({ sendHour: 24, steps: [] })).toMatchObject({ ok: false, fieldErrors: { sendHour: ["Pick an hour from 00 to 23."] } });
+    expect(await saveVisitRulesAction({ travelBufferMin: 30, leadTimeHours: 337, slotStepMin: 30, ownerChangeCutoffHours: 24 })).toMatchObject({
+      ok: false,
+      fieldErrors: { leadTimeHours: ["The booking notice is 0 to 336 hours."] },
+    });
+    const row = getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!;
+    expect([row.timeZone, row.reminderSendHour]).toEqual([studio.timeZone, studio.reminderSendHour]);
+  });
+});
+
+describe("studio: set-up steps, team and starting a studio are parsed at the boundary", () => {
+  it("the set-up actions refuse an accent outside the set, a publishable Stripe key and a sender name with markup", async () => {
+    const { saveAccentAction, saveStripeKeyAction, saveMailSenderAction } = await import("@/app/studio/setup/actions");
+    const { studio } = await signInMember("admin");
+    const accent = await saveAccentAction({ accent: "neon" as never });
+    expect(accent.ok).toBe(false);
+    expect(Object.keys(accent.ok ? {} : (accent.fieldErrors ?? {}))).toEqual(["accent"]);
+    const key = await saveStripeKeyAction({ secretKey: "pk_test_public" });
+    expect(Object.keys(key.ok ? {} : (key.fieldErrors ?? {}))).toEqual(["secretKey"]);
+    const sender = await saveMailSenderAction({ senderName: 'Evil "Name" <x@y>', replyTo: "" });
+    expect(Object.keys(sender.ok ? {} : (sender.fieldErrors ?? {}))).toEqual(["senderName"]);
+    const row = getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!;
+    expect([row.accent, row.stripeSecretSealed, row.mailSenderName]).toEqual(["default", null, studio.mailSenderName]);
+  });
+
+  it("the team actions refuse a role that doesn't exist and an empty member or invitation", async () => {
+    const { changeRoleAction, removeMemberAction, revokeInvitationAction } = await import("@/app/studio/team/actions");
+    await signInMember("admin");
+    expect(await changeRoleAction({ membershipId: "m1", role: "boss" as never })).toMatchObject({ ok: false, fieldErrors: { role: ["Pick a role."] } });
+    expect(await removeMemberAction({ membershipId: " " })).toMatchObject({ ok: false, fieldErrors: { membershipId: ["Pick a member."] } });
+    expect(await revokeInvitationAction({ invitationId: "" })).toMatchObject({ ok: false, fieldErrors: { invitationId: ["Pick an invitation."] } });
+  });
+
+  it("starting a studio: a time zone that doesn't exist comes back beside its field; no studio is made", async () => {
+    const { startStudioAction } = await import("@/app/(public)/start/actions");
+    const user = await createUser();
+    await signIn(user.id);
+    const before = getDb().select().from(studios).all().length;
+    const r = await startStudioAction({ name: "Typed Start (invented)", timeZone: "Mars/Olympus", currency: "EUR", unitSystem: "metric" });
+    expect(r).toMatchObject({ ok: false, fieldErrors: { timeZone: ["Use a time zone name like America/Los_Angeles or Europe/Berlin."] } });
+    expect(getDb().select().from(studios).all()).toHaveLength(before);
+  });
+});
+
+describe("reminders: the staff view's query, pause and resend are parsed at the boundary", () => {
+  it("GET /api/reminders: a ledger status we don't have is a 400 naming the field", async () => {
+    const { GET } = await import("@/app/api/reminders/route");
+    await signInMember("staff");
+    const r = await call(GET, "GET", "/api/reminders?view=ledger&status=nonsense&days=5");
+    expect(r.status).toBe(400);
+    expect(Object.keys(r.json?.error?.fieldErrors ?? {})).toEqual(["status"]);
+    expect((await call(GET, "GET", "/api/reminders?view=upcoming&days=91")).json?.error?.fieldErrors).toHaveProperty("days");
+    const ok = await call(GET, "GET", "/api/reminders?view=ledger");
+    expect([ok.status, (ok.json as { view?: string } | null)?.view]).toEqual([200, "ledger"]);
+  });
+
+  it("POST /api/reminders/pause: no piece and a word for `paused` are a 400 with both fields; an id that is too long to be one is a 400 before any lookup", async () => {
+    const pause = (await import("@/app/api/reminders/pause/route")).POST;
+    const resend = (await import("@/app/api/reminders/[id]/resend/route")).POST;
+    await signInMember("staff");
+    const r = await call(pause, "POST", "/api/reminders/pause", { body: { pieceId: " ", paused: "yes" } });
+    expect(r.status).toBe(400);
+    expect(Object.keys(r.json?.error?.fieldErrors ?? {}).sort()).toEqual(["paused", "pieceId"]);
+    const long = "x".repeat(65);
+    const again = await call(resend, "POST", `/api/reminders/${long}/resend`, { params: { id: long } });
+    expect([again.status, Object.keys(again.json?.error?.fieldErrors ?? {})]).toEqual([400, ["id"]]);
+    expect((await call(resend, "POST", "/api/reminders/nope/resend", { params: { id: "nope" } })).status).toBe(404);
+  });
+});
