@@ -9,7 +9,7 @@ import { CARE_TASK_LABELS, type ReminderStep } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
 import { containsText } from "@/lib/text-match";
 import { scheduleFromColumns, toCatalog, topShape } from "@/lib/pieces/care-inputs";
-import { ledgerIdSchema, pauseSchema, remindersQuerySchema } from "@/lib/validation/reminders";
+import type { PauseValues, RemindersQuery } from "@/lib/validation/reminders";
 import { currentStepIndex, OwnerClocks, timingFromColumns, withEnabledSteps, type SendTiming } from "./plan";
 import { deliverLease, LEASE_PREFIX } from "./deliver";
 
@@ -51,8 +51,7 @@ function groupByPiece<T extends { pieceId: string }>(rows: T[]) {
   return m;
 }
 
-export function listUpcoming(ctx: StudioContext, raw: unknown, now = new Date()): UpcomingRow[] {
-  const q = remindersQuerySchema.parse(raw);
+export function listUpcoming(ctx: StudioContext, q: RemindersQuery, now = new Date()): UpcomingRow[] {
   const db = getDb();
   const studioId = ctx.studio.id;
   const scope = and(eq(pieces.studioId, studioId), isNotNull(pieces.ownerId), isNull(pieces.archivedAt));
@@ -105,8 +104,7 @@ export function listUpcoming(ctx: StudioContext, raw: unknown, now = new Date())
   return out.slice(0, q.limit);
 }
 
-export function listLedger(ctx: StudioContext, raw: unknown) {
-  const q = remindersQuerySchema.parse(raw);
+export function listLedger(ctx: StudioContext, q: RemindersQuery) {
   const where: SQL[] = [eq(reminderSends.studioId, ctx.studio.id)];
   if (q.status) where.push(eq(reminderSends.status, q.status));
   if (q.kind) where.push(eq(reminderSends.taskKind, q.kind));
@@ -145,8 +143,7 @@ export function listLedger(ctx: StudioContext, raw: unknown) {
 export type LedgerListRow = ReturnType<typeof listLedger>[number];
 
 /** Pauses or resumes a piece's care reminders. */
-export function setPiecePaused(ctx: StudioContext, raw: unknown): { pieceId: string; remindersPaused: boolean } {
-  const { pieceId, paused } = pauseSchema.parse(raw);
+export function setPiecePaused(ctx: StudioContext, { pieceId, paused }: PauseValues): { pieceId: string; remindersPaused: boolean } {
   const changed = getDb()
     .update(pieces)
     .set({ remindersPaused: paused, updatedAt: new Date() })
@@ -161,8 +158,7 @@ export function setPiecePaused(ctx: StudioContext, raw: unknown): { pieceId: str
  * row of the task's current cycle and step (as the pass finds it: the studio's steps, at its send hour);
  * an older one would be stale news for the owner, and a step the studio turned off is not sent.
  */
-export async function resendReminder(ctx: StudioContext, rawId: unknown, now = new Date()) {
-  const { id } = ledgerIdSchema.parse({ id: rawId });
+export async function resendReminder(ctx: StudioContext, id: string, now = new Date()) {
   const db = getDb();
   const row = db.select().from(reminderSends).where(and(eq(reminderSends.id, id), eq(reminderSends.studioId, ctx.studio.id))).get();
   if (!row) throw notFound("No reminder with that id in this studio.");

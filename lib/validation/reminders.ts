@@ -28,4 +28,5 @@ export const remindersQuerySchema = z.object({
 export type RemindersQuery = z.output<typeof remindersQuerySchema>;
 
 export const pauseSchema = z.object({ pieceId: z.string().trim().min(1).max(64), paused: z.boolean() });
+export type PauseValues = z.output<typeof pauseSchema>;
 export const ledgerIdSchema = z.object({ id: z.string().trim().min(1).max(64) });

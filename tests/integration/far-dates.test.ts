@@ -5,8 +5,10 @@ import { getDb } from "@/db/client";
 import { careLogEntries, claims, finishLayers } from "@/db/schema";
 import { listMyPieces } from "@/lib/owner/pieces";
 import { listUpcoming } from "@/lib/reminders/staff";
+import { remindersQuerySchema } from "@/lib/validation/reminders";
 import { claimRatesCsv } from "@/lib/reports";
 import { listAudit } from "@/lib/studio/audit";
+import { auditQuerySchema } from "@/lib/studio/audit-query";
 import { calendarWeek } from "@/lib/visits/list";
 import { technicianDay } from "@/lib/visits/technician-day";
 import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
@@ -27,9 +29,9 @@ describe("far dates already in the database", () => {
 
     const mine = listMyPieces({ id: owner.id, timeZone: "UTC", unitSystem: "metric" } as never, NOW);
     expect(mine.map((p) => p.id).sort()).toEqual([far.id, old.id, normal.id].sort());
-    expect(Array.isArray(listUpcoming(staff, {}, NOW))).toBe(true);
+    expect(Array.isArray(listUpcoming(staff, remindersQuerySchema.parse({}), NOW))).toBe(true);
     expect(claimRatesCsv(staff, {}, NOW).csv).toContain("species");
-    expect(listAudit(staff, {}).rows.length).toBeGreaterThanOrEqual(0);
+    expect(listAudit(staff, auditQuerySchema.parse({})).rows.length).toBeGreaterThanOrEqual(0);
     expect(technicianDay(staff, { date: "9999-12-31" }, NOW.getTime()).date).not.toBe("9999-12-31");
     expect(calendarWeek(staff, "9999-12-31", NOW.getTime()).monday < "2100-01-01").toBe(true);
   });
