@@ -2,11 +2,11 @@
 // due date — a repair job priced at the plan's share (zero when included in full), recorded once per
 // plan and due date — and proposes free times to the owner. Plans paid by other means end here at their period's end.
 import { and, eq, inArray, lte } from "drizzle-orm";
-import type { User } from "lucia";
 import { getDb } from "@/db/client";
 import { finishProducts, planSubscriptions, planTemplates, planVisits, pieces, repairJobs, studios, users, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanVisitEmail, planVisitSubject } from "@/emails/plan-visit";
 import { recordAudit } from "@/lib/audit";
+import { ownerActor } from "@/lib/auth/actor";
 import { addDays, localDate } from "@/lib/care/dates";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { formatDate, formatInstant } from "@/lib/format/dates";
@@ -80,7 +80,7 @@ async function proposeSlots(live: Live, jobId: string, dueOn: string) {
   let slots: string[] = [];
   if (job.state === "covered") {
     const from = new Date(Math.max(Date.now(), Date.parse(`${addDays(dueOn, -7)}T00:00:00Z`)));
-    const found = listJobSlots({ kind: "owner", user: owner as unknown as User }, job.id, { from: from.toISOString(), to: new Date(from.getTime() + 14 * 86_400_000).toISOString() });
+    const found = listJobSlots(ownerActor(owner), job.id, { from: from.toISOString(), to: new Date(from.getTime() + 14 * 86_400_000).toISOString() });
     slots = found.slots.slice(0, 3).map((s) => formatInstant(s.start, owner.timeZone || studio.timeZone, { time: true }));
   }
   await sendMail({

@@ -2,11 +2,12 @@ import "server-only";
 import { and, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { repairJobs, users, visits } from "@/db/schema";
-import { ownerVisitWhere } from "./access";
+import type { Actor } from "@/lib/auth/actor";
 import { jobDurationMin, visitRulesFor } from "./availability";
 import { formatVisitWhen } from "@/lib/format";
 import { visitPhotosOf } from "./photos";
-import { iso, jobForActor, liveVisitOfJob, visitJson, type VisitActor } from "./visit-row";
+import { iso, jobForActor, liveVisitOfJob, visitJson } from "./visit-row";
+import { visitVisibleTo } from "./visible";
 
 // A job's visit as its pages show it: the job page's visit card, and the booking page's context.
 
@@ -14,13 +15,13 @@ import { iso, jobForActor, liveVisitOfJob, visitJson, type VisitActor } from "./
  * The live (or last) visit of a job for its page: owners and staff. A former owner who still sees a
  * job they paid for (lib/repairs/owner-reach) gets no visit: it may be at the new owner's address.
  */
-export function visitOfJob(actor: VisitActor, jobId: string) {
-  if (actor.kind === "owner" && !getDb().select({ id: repairJobs.id }).from(repairJobs).where(and(eq(repairJobs.id, jobId), ownerVisitWhere(actor.user.id))).get()) {
+export function visitOfJob(actor: Actor, jobId: string) {
+  if (actor.role === "owner" && !getDb().select({ id: repairJobs.id }).from(repairJobs).where(and(eq(repairJobs.id, jobId), visitVisibleTo(actor))).get()) {
     return { visit: null, job: null, studio: null };
   }
   const { job, studio } = jobForActor(actor, jobId);
   const db = getDb();
-  const v = db.select().from(visits).where(eq(visits.jobId, job.id)).orderBy(sql`${visits.createdAt} desc`).get();
+  const v = db.select({ visit: visits }).from(visits).innerJoin(repairJobs, eq(repairJobs.id, visits.jobId)).where(and(eq(visits.jobId, job.id), visitVisibleTo(actor))).orderBy(sql`${visits.createdAt} desc`).get()?.visit;
   if (!v) return { visit: null, job, studio };
   const tech = db.select({ name: users.name }).from(users).where(eq(users.id, v.technicianId)).get();
   const rules = visitRulesFor(db, studio.id);
@@ -39,7 +40,7 @@ export function visitOfJob(actor: VisitActor, jobId: string) {
 }
 
 /** The booking page's data: the job, its duration, where the visit can be, the live visit if any. */
-export function bookingContext(actor: VisitActor, jobId: string) {
+export function bookingContext(actor: Actor, jobId: string) {
   const { job, piece, studio } = jobForActor(actor, jobId);
   const live = liveVisitOfJob(job.id);
   const rules = visitRulesFor(getDb(), studio.id);
@@ -48,7 +49,7 @@ export function bookingContext(actor: VisitActor, jobId: string) {
     piece: { id: piece.id, title: piece.title, address: piece.deliveryAddress },
     studio: { name: studio.name, address: studio.address, timeZone: studio.timeZone },
     durationMin: jobDurationMin(job, piece),
-    rules: { leadTimeHours: actor.kind === "owner" ? rules.leadTimeHours : 0, ownerChangeCutoffHours: rules.ownerChangeCutoffHours },
+    rules: { leadTimeHours: actor.role === "owner" ? rules.leadTimeHours : 0, ownerChangeCutoffHours: rules.ownerChangeCutoffHours },
     visit: live ? { ...visitJson(live), when: formatVisitWhen(live.startAt.getTime(), live.endAt.getTime(), studio.timeZone) } : null,
     bookable: Boolean(live) || job.state === "paid" || job.state === "covered",
   };

@@ -3,27 +3,28 @@ import { and, asc, eq, gte, inArray, lt } from "drizzle-orm";
 import type { z } from "zod";
 import { getDb } from "@/db/client";
 import { pieces, repairJobs, studios, users, visits } from "@/db/schema";
+import { isStaff, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { addDays, isoWeekday, localDate } from "@/lib/care/dates";
 import { notFound } from "@/lib/errors";
 import { visitDay } from "@/lib/validation/dates";
 import type { listVisitsQuerySchema } from "@/lib/validation/visits";
-import { ownerVisitWhere } from "./access";
 import { isStudioTechnician, studioTechnicians } from "./availability";
-import { visitJson, type VisitActor } from "./visit-row";
+import { visitJson } from "./visit-row";
+import { visitVisibleTo } from "./visible";
 
 // The calendar's lists: the visits of a range (the week view), the jobs waiting for a visit, the week to open on.
 
 export type ListVisitsQuery = z.output<typeof listVisitsQuerySchema>;
 
 /** GET /api/visits?technician&from&to: staff see the team (or one technician), a technician their own, an owner theirs. */
-export function listVisits(actor: VisitActor, q: ListVisitsQuery) {
+export function listVisits(actor: Actor, q: ListVisitsQuery) {
   const db = getDb();
   const from = new Date(q.from);
   const to = new Date(q.to);
-  if (actor.kind === "technician" && q.technician && q.technician !== actor.ctx.user.id) throw notFound("No such technician.");
-  const technician = actor.kind === "technician" ? actor.ctx.user.id : q.technician;
-  if (actor.kind === "staff" && technician && !isStudioTechnician(db, actor.ctx.studio.id, technician)) throw notFound("No such technician.");
+  if (actor.role === "technician" && q.technician && q.technician !== actor.user.id) throw notFound("No such technician.");
+  const technician = actor.role === "technician" ? actor.user.id : q.technician;
+  if (isStaff(actor) && technician && !isStudioTechnician(db, actor.studio.id, technician)) throw notFound("No such technician.");
   const rows = db
     .select({ visit: visits, jobTitle: repairJobs.title, jobState: repairJobs.state, claimId: repairJobs.claimId, pieceTitle: pieces.title, ownerName: users.name, studioTz: studios.timeZone })
     .from(visits)
@@ -33,7 +34,7 @@ export function listVisits(actor: VisitActor, q: ListVisitsQuery) {
     .leftJoin(users, eq(users.id, repairJobs.ownerId))
     .where(
       and(
-        actor.kind === "owner" ? ownerVisitWhere(actor.user.id) : eq(visits.studioId, actor.ctx.studio.id),
+        visitVisibleTo(actor),
         technician ? eq(visits.technicianId, technician) : undefined,
         lt(visits.startAt, to),
         gte(visits.endAt, from),
@@ -43,18 +44,18 @@ export function listVisits(actor: VisitActor, q: ListVisitsQuery) {
     .orderBy(asc(visits.startAt))
     .limit(1000)
     .all();
-  const techs = actor.kind === "owner" ? [] : studioTechnicians(db, actor.ctx.studio.id);
+  const techs = actor.studio ? studioTechnicians(db, actor.studio.id) : [];
   const names = new Map(db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, [...new Set(rows.map((r) => r.visit.technicianId)), "-"])).all().map((u) => [u.id, u.name]));
   return {
-    timeZone: actor.kind === "owner" ? (rows[0]?.studioTz ?? "UTC") : actor.ctx.studio.timeZone,
-    technicians: actor.kind === "technician" ? techs.filter((t) => t.id === actor.ctx.user.id).map(({ id, name }) => ({ id, name })) : techs.map(({ id, name }) => ({ id, name })),
+    timeZone: actor.studio?.timeZone ?? rows[0]?.studioTz ?? "UTC",
+    technicians: actor.role === "technician" ? techs.filter((t) => t.id === actor.user.id).map(({ id, name }) => ({ id, name })) : techs.map(({ id, name }) => ({ id, name })),
     visits: rows.map((r) =>
       visitJson(r.visit, {
         jobTitle: r.jobTitle,
         jobState: r.jobState,
         pieceTitle: r.pieceTitle,
-        ownerName: actor.kind === "owner" ? undefined : (r.ownerName ?? null),
-        claimId: actor.kind === "staff" ? r.claimId : undefined,
+        ownerName: actor.role === "owner" ? undefined : (r.ownerName ?? null),
+        claimId: isStaff(actor) ? r.claimId : undefined,
         technicianName: names.get(r.visit.technicianId) ?? "",
       }),
     ),

@@ -1,8 +1,9 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { files, pieces, studios, visitPhotos, visits } from "@/db/schema";
+import { files, pieces, repairJobs, studios, visitPhotos, visits } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
+import type { Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { fileUrl } from "@/lib/claims/claim-row";
@@ -10,7 +11,8 @@ import { conflict } from "@/lib/errors";
 import { formatDate } from "@/lib/format";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
 import { visitPhotoKindSchema } from "@/lib/validation/visits";
-import { memberActor, visitForActor, type VisitActor } from "./visit-row";
+import { visitForActor } from "./visit-row";
+import { visitVisibleTo } from "./visible";
 
 // Before and after photos of visits: taken by the technician (or staff), shown on the job's and the piece's pages.
 
@@ -19,7 +21,7 @@ import { memberActor, visitForActor, type VisitActor } from "./visit-row";
  * `read` (the bounded upload reader) is called only once the visit is known to be the actor's.
  */
 export async function addVisitPhoto(ctx: StudioContext, visitId: string, read: () => Promise<{ data: Uint8Array; fields: Record<string, string> }>) {
-  const { visit } = visitForActor(memberActor(ctx), visitId);
+  const { visit } = visitForActor(ctx, visitId);
   if (visit.state === "cancelled") throw conflict("This visit was cancelled.");
   const upload = await read();
   const kind = visitPhotoKindSchema.parse(upload.fields.kind);
@@ -45,18 +47,21 @@ export type VisitPhotoView = { id: string; url: string; thumbUrl: string; kind: 
  * studio's; an owner sees those of a piece they hold now (a former owner none: the photos may show
  * the new owner's home), the same rule as the file route (lib/files/access).
  */
-export function visitPhotosOf(actor: VisitActor, of: { jobId: string } | { pieceId: string }): VisitPhotoView[] {
+export function visitPhotosOf(actor: Actor, of: { jobId: string } | { pieceId: string }): VisitPhotoView[] {
   const rows = getDb()
     .select({ id: visitPhotos.fileId, kind: visitPhotos.kind, visitId: visits.id, startAt: visits.startAt, timeZone: studios.timeZone })
     .from(visitPhotos)
     .innerJoin(visits, eq(visits.id, visitPhotos.visitId))
+    .innerJoin(repairJobs, eq(repairJobs.id, visits.jobId))
     .innerJoin(pieces, eq(pieces.id, visits.pieceId))
     .innerJoin(studios, eq(studios.id, visits.studioId))
     .where(
       and(
         "jobId" in of ? eq(visits.jobId, of.jobId) : eq(visits.pieceId, of.pieceId),
         eq(visitPhotos.studioId, visits.studioId),
-        actor.kind === "owner" ? eq(pieces.ownerId, actor.user.id) : eq(visits.studioId, actor.ctx.studio.id),
+        // Photos follow the piece (the file route's rule): an owner sees those of a piece they hold now,
+        // whoever's job the visit was; studio members through the visit rule (lib/visits/visible.ts).
+        actor.role === "owner" ? eq(pieces.ownerId, actor.user.id) : visitVisibleTo(actor),
       ),
     )
     .orderBy(asc(visits.startAt), asc(visitPhotos.createdAt))

@@ -23,7 +23,7 @@ import type { VisitReportValues } from "@/lib/validation/visits";
 import { formatVisitWhen } from "@/lib/format";
 import { jobUrl, sendVisitSummary } from "./mail";
 import { SIGN_OFF_TTL_MS, signOffUrl } from "./sign-off";
-import { memberActor, visitForActor, visitJson } from "./visit-row";
+import { visitForActor, visitJson } from "./visit-row";
 
 /**
  * POST /api/visits/[id]/report: what was done, the new finish layers (appended to the piece's stack,
@@ -31,14 +31,13 @@ import { memberActor, visitForActor, visitJson } from "./visit-row";
  * "visit"), the owner's sign-off; the job becomes done and the owner gets a summary.
  */
 export async function submitReport(ctx: StudioContext, visitId: string, input: VisitReportValues, now = new Date()) {
-  const actor = memberActor(ctx);
-  const { visit, studio } = visitForActor(actor, visitId);
+  const { visit, studio } = visitForActor(ctx, visitId);
   if (visit.state === "done") throw conflict("This visit's report is already filed.");
   if (visit.state === "cancelled") throw conflict("This visit was cancelled.");
   const early = now.getTime() < visit.startAt.getTime();
   if (early) {
     const starts = `${formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), studio.timeZone)} (${studio.timeZone})`;
-    if (actor.kind === "technician") throw conflict(`This visit starts ${starts}. File the report once it has started; the studio office can file it early with a reason.`);
+    if (ctx.role === "technician") throw conflict(`This visit starts ${starts}. File the report once it has started; the studio office can file it early with a reason.`);
     if (!input.earlyReason) {
       const msg = "The visit hasn't started yet. Say why the report is filed early; the reason goes in the audit log.";
       throw unprocessable("report_before_visit", msg, { earlyReason: [msg] });

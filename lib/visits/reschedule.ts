@@ -2,6 +2,7 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import type { z } from "zod";
 import { getDb } from "@/db/client";
+import type { Actor } from "@/lib/auth/actor";
 import { pieces } from "@/db/schema";
 import { badRequest } from "@/lib/errors";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
@@ -10,15 +11,15 @@ import { isStudioTechnician, visitRulesFor } from "./availability";
 import { reserveVisit } from "./core";
 import { sendVisitInvite } from "./mail";
 import { leadFor, refusedWithSlots } from "./slots";
-import { actorId, ownerMayChange, visitForActor, visitJson, type VisitActor } from "./visit-row";
+import { ownerMayChange, visitForActor, visitJson } from "./visit-row";
 
 export type MoveVisitValues = z.output<typeof moveVisitSchema>;
 
 /** PATCH /api/visits/[id]: a new time (and maybe technician), with the same checks as booking; a taken time is a 409 with fresh slots. */
-export async function moveVisit(actor: VisitActor, visitId: string, input: MoveVisitValues, now = Date.now()) {
+export async function moveVisit(actor: Actor, visitId: string, input: MoveVisitValues, now = Date.now()) {
   const { visit, job, studio } = visitForActor(actor, visitId);
   ownerMayChange(actor, visit, studio.id, now, "moved");
-  if (actor.kind === "owner" && input.technicianId && input.technicianId !== visit.technicianId && !isStudioTechnician(getDb(), studio.id, input.technicianId)) {
+  if (actor.role === "owner" && input.technicianId && input.technicianId !== visit.technicianId && !isStudioTechnician(getDb(), studio.id, input.technicianId)) {
     throw badRequest("Pick one of the studio's technicians.", { technicianId: ["Pick one of the studio's technicians."] });
   }
   const piece = getDb().select().from(pieces).where(eq(pieces.id, visit.pieceId)).get()!;
@@ -32,7 +33,7 @@ export async function moveVisit(actor: VisitActor, visitId: string, input: MoveV
       startMs,
       location: input.location,
       leadTimeHours: leadFor(actor, visitRulesFor(getDb(), studio.id)),
-      actorId: actorId(actor),
+      actorId: actor.user.id,
       now,
       visitId: visit.id,
       visitVersion: visit.version,

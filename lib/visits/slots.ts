@@ -5,7 +5,8 @@ import { conflict, isAppError } from "@/lib/errors";
 import type { slotsQuerySchema } from "@/lib/validation/visits";
 import { jobDurationMin, studioTechnicians, teamSlots, visitRulesFor } from "./availability";
 import { SLOT_UNAVAILABLE } from "./core";
-import { DAY, jobForActor, liveVisitOfJob, type VisitActor } from "./visit-row";
+import type { Actor } from "@/lib/auth/actor";
+import { DAY, jobForActor, liveVisitOfJob } from "./visit-row";
 
 // The free slots of a job's visit: every technician of the studio, from their hours, time off and
 // booked visits (lib/visits/availability teamSlots: a fixed number of statements for the whole team).
@@ -15,8 +16,8 @@ export type SlotsQuery = z.output<typeof slotsQuerySchema>;
 type Rules = Omit<VisitRulesRow, "studioId">;
 
 /** Owners book at least the studio's lead time ahead; staff may book at shorter notice. */
-export function leadFor(actor: VisitActor, rules: Rules): number {
-  return actor.kind === "owner" ? rules.leadTimeHours : 0;
+export function leadFor(actor: Actor, rules: Rules): number {
+  return actor.role === "owner" ? rules.leadTimeHours : 0;
 }
 
 function slotsFor(studio: Studio, job: RepairJob, piece: Piece, rules: Rules, opts: { fromMs: number; toMs: number; leadTimeHours: number; excludeVisitId?: string; now: number }): SlotView[] {
@@ -39,7 +40,7 @@ function slotsFor(studio: Studio, job: RepairJob, piece: Piece, rules: Rules, op
 }
 
 /** GET /api/jobs/[id]/slots?from&to: free slots of every technician for this job's visit. */
-export function listJobSlots(actor: VisitActor, jobId: string, q: SlotsQuery, now = Date.now()) {
+export function listJobSlots(actor: Actor, jobId: string, q: SlotsQuery, now = Date.now()) {
   const { job, piece, studio } = jobForActor(actor, jobId);
   const live = liveVisitOfJob(job.id);
   if (!live && job.state !== "paid" && job.state !== "covered") throw conflict("Visits can be booked once the job is paid or covered.");
@@ -55,7 +56,7 @@ export function listJobSlots(actor: VisitActor, jobId: string, q: SlotsQuery, no
  * A refused time as the 409 the caller sees: the same words, with what is free now beside the error
  * (`slots`: the next two weeks from a day before the time asked for, at most 60).
  */
-export function refusedWithSlots(e: unknown, actor: VisitActor, target: { job: RepairJob; piece: Piece; studio: Studio }, aroundMs: number, now: number, excludeVisitId?: string): unknown {
+export function refusedWithSlots(e: unknown, actor: Actor, target: { job: RepairJob; piece: Piece; studio: Studio }, aroundMs: number, now: number, excludeVisitId?: string): unknown {
   if (!isAppError(e) || e.code !== SLOT_UNAVAILABLE) return e;
   const { job, piece, studio } = target;
   const rules = visitRulesFor(getDb(), studio.id);

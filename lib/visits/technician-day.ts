@@ -20,6 +20,7 @@ import { isStudioTechnician } from "./availability";
 import { formatVisitWhen } from "@/lib/format";
 import { claimPhotosByClaim, layersByPiece, photosByVisit } from "./visits-sql";
 import { iso, visitJson } from "./visit-row";
+import { visitVisibleTo } from "./visible";
 
 // The technician's day: each visit of one technician on one local date with what it needs.
 
@@ -88,7 +89,7 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
     .leftJoin(users, eq(users.id, repairJobs.ownerId))
     .leftJoin(clients, and(eq(clients.studioId, visits.studioId), eq(clients.userId, repairJobs.ownerId)))
     .leftJoin(claims, and(eq(claims.id, repairJobs.claimId), eq(claims.studioId, visits.studioId)))
-    .where(and(eq(visits.studioId, ctx.studio.id), eq(visits.technicianId, technicianId), inArray(visits.state, ["booked", "done"]), gte(visits.startAt, from), lt(visits.startAt, to)))
+    .where(and(visitVisibleTo(ctx), eq(visits.technicianId, technicianId), inArray(visits.state, ["booked", "done"]), gte(visits.startAt, from), lt(visits.startAt, to)))
     .orderBy(asc(visits.startAt))
     .all();
   const products = studioProducts(ctx.studio.id);

@@ -4,10 +4,10 @@ import type { User } from "lucia";
 import { ZodError } from "zod";
 import { getDb } from "@/db/client";
 import { repairJobs, users, type Studio } from "@/db/schema";
+import { ownerActor as ownerOf, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import type { CareTaskKind } from "@/lib/care/vocabulary";
 import { AppError } from "@/lib/errors";
-import type { VisitActor } from "@/lib/visits/visit-row";
 import { putTechnicianHours } from "@/lib/visits/technicians";
 import { visitReportSchema, type VisitReportInput } from "@/lib/validation/visits";
 import { createPiece, createProduct, createStudio, createUser, memberContext } from "../support/fixtures";
@@ -16,9 +16,10 @@ export function luciaUser(u: typeof users.$inferSelect): User {
   return { id: u.id, email: u.email, name: u.name, emailVerifiedAt: u.emailVerifiedAt, timeZone: u.timeZone, unitSystem: u.unitSystem, remindersEnabled: u.remindersEnabled };
 }
 
-export const staffActor = (ctx: StudioContext): VisitActor => ({ kind: "staff", ctx });
-export const techActor = (ctx: StudioContext): VisitActor => ({ kind: "technician", ctx });
-export const ownerActor = (u: User): VisitActor => ({ kind: "owner", user: u });
+/** The request's Actor (lib/auth/actor.ts) as the visit routes pass it: a member acts in their role. */
+export const staffActor = (ctx: StudioContext): Actor => ctx;
+export const techActor = (ctx: StudioContext): Actor => ctx;
+export const ownerActor = (u: User): Actor => ownerOf(u);
 
 export const WEEKDAYS_9_TO_5 = [1, 2, 3, 4, 5].map((weekday) => ({ weekday, start: "09:00", end: "17:00" }));
 

@@ -16,6 +16,7 @@ import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import Link from "next/link";
+import { ownerActor } from "@/lib/auth/actor";
 
 export const metadata: Metadata = { title: "Repair" };
 
@@ -28,7 +29,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
     await syncReturnedCheckout(user, id, query.session_id).catch((e: unknown) => console.error("checkout sync failed", e));
   }
   const { job, piece, studio, payments } = await forPage(async () => getOwnerJob(user, id));
-  const { visit } = visitOfJob({ kind: "owner", user }, id);
+  const { visit } = visitOfJob(ownerActor(user), id);
   const paid = payments.some(paymentCounts);
   const autoRefunded = payments.flatMap((p) => (isAutomaticRefund(p.refundReason) ? [{ ...p, reason: p.refundReason }] : []));
   const returnedRefunded = autoRefunded.some((p) => p.checkoutSessionId === query.session_id);

@@ -17,6 +17,7 @@ import { visitPhotosOf } from "@/lib/visits/photos";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import type { CautionKey } from "@/lib/care/cautions";
 import { exclusionLabel, WARRANTY_STATUS_LABELS, type WarrantyLineStatus } from "@/lib/owner/warranty";
+import { ownerActor } from "@/lib/auth/actor";
 
 export const metadata: Metadata = { title: "Piece" };
 
@@ -49,7 +50,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
   const { id } = await params;
   const user = await forPage(requireUser);
   const piece = await forPage(async () => getMyPiece(user, id));
-  const visitPhotos = visitPhotosOf({ kind: "owner", user }, { pieceId: id });
+  const visitPhotos = visitPhotosOf(ownerActor(user), { pieceId: id });
   const wood = piece.species.secondary ? `${piece.species.primary} and ${piece.species.secondary}` : piece.species.primary;
   const facts: [string, string][] = [
     ["Wood", wood],

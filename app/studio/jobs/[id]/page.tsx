@@ -27,7 +27,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const { id } = await params;
   const ctx = await forPage(requireStaff);
   const view = await forPage(async () => getStudioJob(ctx, id));
-  const { visit } = visitOfJob({ kind: "staff", ctx }, id);
+  const { visit } = visitOfJob(ctx, id);
   const { job, piece, owner, payments, products, studio } = view;
   const q = job.quoteInput;
   const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes };

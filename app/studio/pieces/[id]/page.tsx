@@ -38,7 +38,7 @@ function Row({ label, children }: { label: string; children: React.ReactNode }) 
 export default async function StudioPiecePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const d = await forPage(() => piecePage(id));
-  const visitPhotos = await forPage(async () => visitPhotosOf({ kind: "staff", ctx: await requireStudioMember() }, { pieceId: id }));
+  const visitPhotos = await forPage(async () => visitPhotosOf(await requireStudioMember(), { pieceId: id }));
   const handover = await forPage(async () => handoverStatus(await requireStaff(), id));
   const card = await forPage(async () => {
     const ctx = await requireStaff();

@@ -8,5 +8,5 @@ export const metadata: Metadata = { title: "Book a visit" };
 
 export default async function StaffBookVisitPage({ params }: { params: Promise<{ jobId: string }> }) {
   const { jobId } = await params;
-  return <BookVisit b={await forPage(async () => bookingContext({ kind: "staff", ctx: await requireStaff() }, jobId))} audience="staff" />;
+  return <BookVisit b={await forPage(async () => bookingContext(await requireStaff(), jobId))} audience="staff" />;
 }
