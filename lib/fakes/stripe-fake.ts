@@ -53,7 +53,17 @@ export type StripeFakeOptions = {
   webhookUrl?: string;
   /** Waits between webhook attempts; the number of entries + 1 is the number of tries. */
   retryDelaysMs?: number[];
+  /**
+   * Further Stripe accounts (a studio's own), each with its key, signing secret and webhook endpoint.
+   * As at Stripe, a Checkout Session or charge made under one key is not found under another, and its
+   * events are signed with and sent to its own account's secret and endpoint.
+   */
+  accounts?: FakeAccount[];
 };
+
+export type FakeAccount = { secretKey: string; webhookSecret: string; webhookUrl?: string };
+/** One API request as the fake received it: which key it came with. */
+export type FakeRequest = { method: string; path: string; key: string };
 
 export type StripeFake = {
   port: number;
@@ -62,6 +72,10 @@ export type StripeFake = {
   /** Every captured charge with what has been refunded of it: the money that really moved. */
   charges(): FakeCharge[];
   events(): FakeEvent[];
+  /** Every API request with the key it used, oldest first. */
+  requests(): FakeRequest[];
+  /** The key the Checkout Session was created under. */
+  sessionKey(sessionId: string): string | undefined;
   subscriptions(): FakeSubscription[];
   invoices(): FakeInvoice[];
   deliveries(): Delivery[];
@@ -139,21 +153,27 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   const retryDelays = options.retryDelaysMs ?? [1000, 3000, 10000, 30000];
   const timers = new Set<NodeJS.Timeout>();
   let baseUrl = "";
+  const install: FakeAccount = { secretKey: options.secretKey, webhookSecret: options.webhookSecret, webhookUrl: options.webhookUrl };
+  const accounts = new Map<string, FakeAccount>([install, ...(options.accounts ?? [])].map((a) => [a.secretKey, a]));
+  const requests: FakeRequest[] = [];
+  /** The account (its key) each session, charge and event belongs to. */
+  const ownerOf = new Map<string, string>();
 
-  function sign(payload: string): string {
+  function sign(payload: string, account: FakeAccount): string {
     const t = now();
-    const v1 = createHmac("sha256", options.webhookSecret).update(`${t}.${payload}`).digest("hex");
+    const v1 = createHmac("sha256", account.webhookSecret).update(`${t}.${payload}`).digest("hex");
     return `t=${t},v1=${v1}`;
   }
 
   async function deliverOnce(event: FakeEvent, attempt: number): Promise<number | null> {
-    if (!options.webhookUrl) return null;
+    const account = accounts.get(ownerOf.get(event.id) ?? options.secretKey)!;
+    if (!account.webhookUrl) return null;
     const payload = JSON.stringify(event, null, 2);
     let status: number | null = null;
     try {
-      const res = await fetch(options.webhookUrl, {
+      const res = await fetch(account.webhookUrl, {
         method: "POST",
-        headers: { "content-type": "application/json", "stripe-signature": sign(payload), "user-agent": "Stripe/1.0 (+local fake)" },
+        headers: { "content-type": "application/json", "stripe-signature": sign(payload, account), "user-agent": "Stripe/1.0 (+local fake)" },
         body: payload,
         signal: AbortSignal.timeout(10_000),
       });
@@ -169,7 +189,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   async function deliver(event: FakeEvent, attempt = 1) {
     const status = await deliverOnce(event, attempt);
     const ok = status !== null && status >= 200 && status < 300;
-    if (!ok && attempt <= retryDelays.length && options.webhookUrl) {
+    if (!ok && attempt <= retryDelays.length && accounts.get(ownerOf.get(event.id) ?? options.secretKey)!.webhookUrl) {
       const timer = setTimeout(() => {
         timers.delete(timer);
         void deliver(event, attempt + 1);
@@ -178,8 +198,9 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     }
   }
 
-  function emit(type: string, object: Json) {
+  function emit(type: string, object: Json, accountKey?: string) {
     const event: FakeEvent = { id: id("evt"), object: "event", type, created: now(), api_version: "2025-01-01", livemode: false, data: { object: structuredClone(object) }, pending_webhooks: 1 };
+    if (accountKey) ownerOf.set(event.id, accountKey);
     events.push(event);
     void deliver(event);
     return event;
@@ -277,7 +298,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     if (s.status !== "open") throw new StripeError(400, "invalid_request_error", `Only Checkout Sessions with a status of open can be expired (this one is ${s.status}).`);
     s.status = "expired";
     s.url = null;
-    emit("checkout.session.expired", publicSession(s));
+    emit("checkout.session.expired", publicSession(s), ownerOf.get(s.id));
   }
 
   function pay(s: FakeSession) {
@@ -294,17 +315,22 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     const pi = id("pi");
     const charge = { id: id("ch"), payment_intent: pi, amount: s.amount_total, amount_refunded: 0, currency: s.currency };
     charges.set(pi, charge);
+    const owner = ownerOf.get(s.id);
+    if (owner) ownerOf.set(charge.id, owner);
     s.status = "complete";
     s.payment_status = "paid";
     s.payment_intent = pi;
     s.url = null;
-    emit("checkout.session.completed", publicSession(s));
+    emit("checkout.session.completed", publicSession(s), owner);
   }
 
-  function refund(params: Json): Json {
+  /** Stripe keeps accounts apart: another account's object reads as missing. */
+  const mine = (objectId: string, key: string) => (ownerOf.get(objectId) ?? options.secretKey) === key;
+
+  function refund(params: Json, key: string): Json {
     const pi = requireString(params, "payment_intent");
     const charge = charges.get(pi);
-    if (!charge) throw new StripeError(404, "invalid_request_error", `No such payment_intent: '${pi}'`, "payment_intent", "resource_missing");
+    if (!charge || !mine(charge.id, key)) throw new StripeError(404, "invalid_request_error", `No such payment_intent: '${pi}'`, "payment_intent", "resource_missing");
     const remaining = charge.amount - charge.amount_refunded;
     const amount = params.amount === undefined ? remaining : requireInteger(params.amount, "amount");
     if (amount <= 0 || amount > remaining) {
@@ -312,7 +338,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     }
     charge.amount_refunded += amount;
     const refundObj = { id: id("re"), object: "refund", amount, currency: charge.currency, payment_intent: pi, charge: charge.id, status: "succeeded", created: now() };
-    emit("charge.refunded", { id: charge.id, object: "charge", amount: charge.amount, amount_refunded: charge.amount_refunded, currency: charge.currency, payment_intent: pi, refunded: charge.amount_refunded === charge.amount });
+    emit("charge.refunded", { id: charge.id, object: "charge", amount: charge.amount, amount_refunded: charge.amount_refunded, currency: charge.currency, payment_intent: pi, refunded: charge.amount_refunded === charge.amount }, ownerOf.get(charge.id));
     return refundObj;
   }
 
@@ -357,21 +383,23 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
     const auth = req.headers.authorization ?? "";
     const key = auth.startsWith("Bearer ") ? auth.slice(7) : auth.startsWith("Basic ") ? Buffer.from(auth.slice(6), "base64").toString().split(":")[0] : "";
     if (!key) throw new StripeError(401, "invalid_request_error", "You did not provide an API key.");
-    if (key !== options.secretKey) throw new StripeError(401, "invalid_request_error", `Invalid API Key provided: ${key.slice(0, 8)}…`);
+    if (!accounts.has(key)) throw new StripeError(401, "invalid_request_error", `Invalid API Key provided: ${key.slice(0, 8)}…`);
+    return key;
   }
 
-  function session(sessionId: string): FakeSession {
+  function session(sessionId: string, key?: string): FakeSession {
     const s = sessions.get(sessionId);
-    if (!s) throw new StripeError(404, "invalid_request_error", `No such checkout.session: '${sessionId}'`, "id", "resource_missing");
+    if (!s || (key !== undefined && !mine(s.id, key))) throw new StripeError(404, "invalid_request_error", `No such checkout.session: '${sessionId}'`, "id", "resource_missing");
     if (s.status === "open" && s.expires_at <= now()) expire(s);
     return s;
   }
 
   async function handleApi(req: http.IncomingMessage, res: http.ServerResponse, path: string[]) {
-    checkKey(req);
+    const apiKey = checkKey(req);
+    requests.push({ method: req.method ?? "GET", path: `/v1/${path.join("/")}`, key: apiKey });
     const body = req.method === "POST" || req.method === "DELETE" ? await readBody(req) : "";
     const key = req.headers["idempotency-key"];
-    const idemKey = typeof key === "string" ? `${path.join("/")}:${key}` : null;
+    const idemKey = typeof key === "string" ? `${apiKey}:${path.join("/")}:${key}` : null;
     if (idemKey) {
       const seen = idempotency.get(idemKey);
       if (seen) {
@@ -383,17 +411,20 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
     const params = parseStripeForm(body);
     let out: Json;
     const [resource, a, b] = path;
-    if (req.method === "POST" && resource === "checkout" && a === "sessions" && !b) out = publicSession(createSession(params));
-    else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b && path[3] === "line_items") out = lineItemList(session(b));
-    else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b && !path[3]) out = publicSession(session(b));
+    if (req.method === "POST" && resource === "checkout" && a === "sessions" && !b) {
+      const s = createSession(params);
+      if (apiKey !== options.secretKey) ownerOf.set(s.id, apiKey);
+      out = publicSession(s);
+    } else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b && path[3] === "line_items") out = lineItemList(session(b, apiKey));
+    else if (req.method === "GET" && resource === "checkout" && a === "sessions" && b && !path[3]) out = publicSession(session(b, apiKey));
     else if (req.method === "POST" && resource === "checkout" && a === "sessions" && b && path[3] === "expire") {
-      const s = session(b);
+      const s = session(b, apiKey);
       expire(s);
       out = publicSession(s);
-    } else if (req.method === "POST" && resource === "refunds" && !a) out = refund(params);
+    } else if (req.method === "POST" && resource === "refunds" && !a) out = refund(params, apiKey);
     else if (req.method === "GET" && resource === "charges" && a) {
       const charge = [...charges.values()].find((c) => c.id === a);
-      if (!charge) throw new StripeError(404, "invalid_request_error", `No such charge: '${a}'`, "id", "resource_missing");
+      if (!charge || !mine(charge.id, apiKey)) throw new StripeError(404, "invalid_request_error", `No such charge: '${a}'`, "id", "resource_missing");
       out = { ...charge, object: "charge", refunded: charge.amount_refunded === charge.amount };
     } else if (req.method === "GET" && resource === "events" && a) {
       const e = events.find((x) => x.id === a);
@@ -472,6 +503,8 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
     sessions: () => [...sessions.values()],
     charges: () => [...charges.values()].map((c) => ({ ...c })),
     events: () => [...events],
+    requests: () => [...requests],
+    sessionKey: (sessionId) => (sessions.has(sessionId) ? (ownerOf.get(sessionId) ?? options.secretKey) : undefined),
     subscriptions: () => billing.subscriptions(),
     invoices: () => billing.invoices(),
     deliveries: () => [...deliveries],

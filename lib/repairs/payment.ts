@@ -5,12 +5,12 @@ import { getDb } from "@/db/client";
 import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
 import { JobQuoteEmail } from "@/emails/job-quote";
 import { recordAudit } from "@/lib/audit";
+import { isStudioActor, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
-import { env } from "@/lib/env";
 import { AppError, badRequest, conflict, notFound, rephrased } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
-import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
+import { callStripe, verifyStripeEvent } from "@/lib/payments/stripe";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
 import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
@@ -97,7 +97,7 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
   }
   const open = view.payments.find((p) => p.quoteVersion === job.quoteVersion && p.amountMinor === job.totalMinor && p.status === "open");
   if (open?.checkoutUrl) {
-    const live = await callStripe("check the open payment", (s) => s.checkout.sessions.retrieve(open.checkoutSessionId));
+    const live = await callStripe("check the open payment", (s) => s.checkout.sessions.retrieve(open.checkoutSessionId), job.studioId);
     if (live.status === "open" && live.url) return { checkoutUrl: live.url, job };
     await applySession(live);
     if (jobRow(job.id).state !== AWAITING_PAYMENT) throw conflict("This job is already paid.");
@@ -114,7 +114,7 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
       cancel_url: jobUrl(job.id, "?checkout=cancelled"),
     },
     { idempotencyKey: `job-${job.id}-v${job.quoteVersion}-a${attempt}` },
-  ));
+  ), job.studioId);
   getDb()
     .insert(payments)
     .values({ studioId: job.studioId, jobId: job.id, quoteVersion: job.quoteVersion, checkoutSessionId: session.id, checkoutUrl: session.url, amountMinor: session.amount_total ?? job.totalMinor, currency: job.currency })
@@ -134,7 +134,7 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
 export async function syncReturnedCheckout(user: Pick<User, "id">, jobId: string, sessionId: string): Promise<void> {
   const view = getOwnerJob(user, jobId);
   if (!view.payments.some((p) => p.checkoutSessionId === sessionId)) return;
-  await applySession(await callStripe("confirm the payment", (s) => s.checkout.sessions.retrieve(sessionId)));
+  await applySession(await callStripe("confirm the payment", (s) => s.checkout.sessions.retrieve(sessionId), view.job.studioId));
 }
 
 const HANDLED = new Set(["checkout.session.completed", "checkout.session.expired", "checkout.session.async_payment_succeeded", "charge.refunded"]);
@@ -144,13 +144,8 @@ const HANDLED = new Set(["checkout.session.completed", "checkout.session.expired
  * once; the object's truth is re-read from the API and written, so duplicates and out-of-order
  * events end in the same state.
  */
-export async function handleStripeWebhook(rawBody: string, signature: string | null): Promise<{ received: true; duplicate?: boolean; ignored?: boolean }> {
-  let event: Stripe.Event;
-  try {
-    event = getStripe().webhooks.constructEvent(rawBody, signature ?? "", env.STRIPE_WEBHOOK_SECRET);
-  } catch {
-    throw badRequest("The Stripe-Signature header doesn't match this payload.");
-  }
+export async function handleStripeWebhook(rawBody: string, signature: string | null, studioId?: string): Promise<{ received: true; duplicate?: boolean; ignored?: boolean }> {
+  const event = verifyStripeEvent(rawBody, signature, studioId);
   const db = getDb();
   if (db.select({ id: stripeEvents.id }).from(stripeEvents).where(eq(stripeEvents.id, event.id)).get()) return { received: true, duplicate: true };
   if (!HANDLED.has(event.type)) {
@@ -158,8 +153,8 @@ export async function handleStripeWebhook(rawBody: string, signature: string | n
     return { received: true, ignored: true };
   }
   const object = event.data.object as { id: string };
-  if (event.type === "charge.refunded") await applyRefund(object.id);
-  else await applySession(await callStripe("read the checkout session", (s) => s.checkout.sessions.retrieve(object.id)));
+  if (event.type === "charge.refunded") await applyRefund(object.id, studioId);
+  else await applySession(await callStripe("read the checkout session", (s) => s.checkout.sessions.retrieve(object.id), studioId));
   db.insert(stripeEvents).values({ id: event.id, type: event.type, objectId: object.id }).onConflictDoNothing().run();
   return { received: true };
 }
@@ -170,15 +165,15 @@ export async function handleStripeWebhook(rawBody: string, signature: string | n
  * be refunded in the same transaction, and the refunds are asked of Stripe. If Stripe can't be reached
  * for a refund, cancelling the (already cancelled) job again asks for what is still owed.
  */
-export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User, "id"> }, jobId: string): Promise<RepairJob> {
-  const load = () => (actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner!, jobId, "act"));
+export async function cancelJob(actor: Actor, jobId: string): Promise<RepairJob> {
+  const load = () => (isStudioActor(actor) ? getStudioJob(actor, jobId) : getOwnerJob(actor.user, jobId, "act"));
   const check = (job: RepairJob) => {
-    if (actor.owner && !OWNER_CAN_DECLINE.includes(job.state)) throw conflict("Ask the studio to cancel a job that is already paid or booked.");
+    if (actor.role === "owner" && !OWNER_CAN_DECLINE.includes(job.state)) throw conflict("Ask the studio to cancel a job that is already paid or booked.");
     // Refuse a job that can't be cancelled (done, already cancelled) before any checkout is closed or payment refunded.
     assertMove(job.state, "cancelled");
   };
   const before = load();
-  if (before.job.state === "cancelled" && actor.ctx && before.payments.some((p) => p.refundReason && !p.refundRequestedAt && p.status !== "refunded")) {
+  if (before.job.state === "cancelled" && isStudioActor(actor) && before.payments.some((p) => p.refundReason && !p.refundRequestedAt && p.status !== "refunded")) {
     await settleRefundsOf(jobId, "The job stays cancelled, but");
     return before.job;
   }
@@ -190,7 +185,7 @@ export async function cancelJob(actor: { ctx?: StudioContext; owner?: Pick<User,
   const cancelled = getDb().transaction((tx) => {
     const next = moveJob(tx, job, "cancelled", { cancelledAt: new Date() });
     for (const p of toRefund) tx.update(payments).set({ refundReason: "job_cancelled", updatedAt: new Date() }).where(and(eq(payments.id, p.id), isNull(payments.refundReason))).run();
-    recordAudit(tx, { studioId: job.studioId, actorId: actor.ctx?.user.id ?? actor.owner?.id ?? null, action: "job.cancelled", subjectType: "repair_job", subjectId: job.id, data: { refunded: toRefund.length } });
+    recordAudit(tx, { studioId: job.studioId, actorId: actor.user.id, action: "job.cancelled", subjectType: "repair_job", subjectId: job.id, data: { refunded: toRefund.length } });
     return next;
   });
   await settleRefundsOf(jobId, "The job is cancelled, but");

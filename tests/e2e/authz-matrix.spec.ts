@@ -244,6 +244,8 @@ const ROUTES: RouteRow[] = [
     send: ({ api }) => api.post("/api/unsubscribe?t=matrix-not-a-real-token", { form: { "List-Unsubscribe": "One-Click" } }),
   },
   { route: "POST /api/webhooks/stripe", expect: "400 ".repeat(8), send: ({ api }) => api.post("/api/webhooks/stripe", { data: { id: "evt_matrix" }, headers: { "stripe-signature": "t=1,v1=00" } }) },
+  // A studio's own endpoint: the demo studios saved no signing secret, so it answers 404 to everyone.
+  { route: "POST /api/webhooks/stripe/studio/[studioId]", expect: "404 ".repeat(8), send: ({ api }) => api.post("/api/webhooks/stripe/studio/matrix-no-such-studio", { data: { id: "evt_matrix" }, headers: { "stripe-signature": "t=1,v1=00" } }) },
 
   // The signed-in person's own data.
   { route: "GET /api/me", expect: "401 200 200 200 200 200 200 200", send: ({ api }) => api.get("/api/me") },
@@ -632,6 +634,8 @@ const ACTIONS: ActionRow[] = [
     messages: { "422": /^Stripe did not accept that key/ },
     args: () => ({ json: [{ secretKey: "sk_test_matrix_not_the_fakes_key" }] }),
   },
+  // A well-formed signing secret: admins keep it for their own studio.
+  { action: "app/studio/setup/actions.ts#saveStripeWebhookSecretAction", expect: "401 403 403 403 403 ok 403 ok", args: () => ({ json: [{ webhookSecret: "whsec_matrix_invented" }] }) },
   // Admins save their studio's name as the sender and the reply address it has.
   {
     action: "app/studio/setup/actions.ts#saveMailSenderAction",

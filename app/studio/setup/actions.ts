@@ -6,6 +6,8 @@ import { z } from "zod";
 import { accentSchema, mailSenderSchema, stripeKeySchema } from "@/lib/studio/setup-schema";
 import { saveAccent, saveMailSender, saveStripeKey, sendTestMessage, startCatalog } from "@/lib/studio/setup-steps";
 import { ACCENTS, type AccentName } from "@/lib/studio/brand";
+import { saveStripeWebhookSecret } from "@/lib/studio/setup-payments";
+import { stripeWebhookSecretSchema } from "@/lib/studio/setup-payments-schema";
 
 // The set-up's own steps; the others reuse the settings, catalog and team actions.
 
@@ -27,6 +29,12 @@ export const saveStripeKeyAction = action({ roles: ["admin"], schema: stripeKeyS
   await saveStripeKey(ctx, input);
   revalidatePath("/studio/setup/payments");
   return { ok: true as const, data: undefined, message: "Stripe accepted the key; it is saved." };
+});
+
+export const saveStripeWebhookSecretAction = action({ roles: ["admin"], schema: stripeWebhookSecretSchema }, async (input, ctx) => {
+  saveStripeWebhookSecret(ctx, input);
+  revalidatePath("/studio/setup/payments");
+  return { ok: true as const, data: undefined, message: "Signing secret saved; events from your Stripe account are checked with it." };
 });
 
 export const saveMailSenderAction = action({ roles: ["admin"], schema: mailSenderSchema }, async (input, ctx) => {

@@ -11,6 +11,7 @@ import { MailSenderForm } from "@/components/setup/mail-sender-form";
 import { SetupStepList } from "@/components/setup/setup-step-list";
 import { StartCatalogButton } from "@/components/setup/start-catalog-button";
 import { StripeKeyForm } from "@/components/setup/stripe-key-form";
+import { StripeWebhookForm } from "@/components/setup/stripe-webhook-form";
 import { InviteForm } from "@/components/team/invite-form";
 import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
@@ -23,12 +24,13 @@ import { formatInstant } from "@/lib/format";
 import { freshStudio, policyEditorValues, profileFormValues, reminderTiming, visitRules } from "@/lib/settings";
 import { ACCENT_NAMES, ACCENTS, logoPath } from "@/lib/studio/brand";
 import { SETUP_STEP_WORDS, isSetupStep, setupChecklist, type SetupStep } from "@/lib/studio/setup";
-import { mailSenderValues, stripeKeyStatus, warrantyStartValues } from "@/lib/studio/setup-steps";
+import { stripeAccountStatus } from "@/lib/studio/setup-payments";
+import { mailSenderValues, warrantyStartValues } from "@/lib/studio/setup-steps";
 import { listMembers, listOpenInvitations } from "@/lib/studio/team";
 import { listTechnicians } from "@/lib/visits/technicians";
 import { createPolicyVersionAction, saveProfileAction, saveReminderTimingAction, saveVisitRulesAction } from "../../settings/actions";
 import { inviteAction } from "../../team/actions";
-import { saveAccentAction, saveMailSenderAction, saveStripeKeyAction, sendTestMessageAction, startCatalogAction } from "../actions";
+import { saveAccentAction, saveMailSenderAction, saveStripeKeyAction, saveStripeWebhookSecretAction, sendTestMessageAction, startCatalogAction } from "../actions";
 
 type Props = { params: Promise<{ step: string }> };
 
@@ -200,13 +202,23 @@ function StepBody({ step, ctx }: { step: SetupStep; ctx: Ctx }): ReactNode {
       );
     }
     case "payments": {
-      const status = stripeKeyStatus(ctx);
+      const status = stripeAccountStatus(ctx);
       return (
         <>
-          {status.saved && status.checkedAt ? (
-            <Notice tone="ok">A key is saved; Stripe accepted it on {formatInstant(status.checkedAt, ctx.studio.timeZone, { time: true })}. Paste a new one to replace it.</Notice>
-          ) : null}
+          {status.keyEnding && status.checkedAt ? (
+            <Notice tone="ok">
+              Your key ending {status.keyEnding} is saved; Stripe accepted it on {formatInstant(status.checkedAt, ctx.studio.timeZone, { time: true })}. Owners now pay into your own Stripe account. Paste a new key to replace it.
+            </Notice>
+          ) : (
+            <p className="text-sm">Until you save a key, owners pay through this installation&apos;s Stripe account.</p>
+          )}
           <StripeKeyForm action={saveStripeKeyAction} />
+          {status.keyEnding ? (
+            <>
+              {status.webhookSecretEnding ? <Notice tone="ok">A signing secret ending {status.webhookSecretEnding} is saved. Paste a new one to replace it.</Notice> : null}
+              <StripeWebhookForm action={saveStripeWebhookSecretAction} endpoint={status.webhookUrl} />
+            </>
+          ) : null}
           <p className="text-sm">
             Owners pay repair quotes priced from your{" "}
             <Link href="/studio/settings/repairs" className="font-medium text-resin underline underline-offset-2">
