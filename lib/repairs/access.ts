@@ -1,17 +1,7 @@
 import { and, eq, type SQL } from "drizzle-orm";
-import type { User } from "lucia";
 import { repairJobs } from "@/db/schema";
-import type { Actor, ActorRef } from "@/lib/auth/actor";
-import type { StudioContext } from "@/lib/auth/guards";
+import type { ActorRef } from "@/lib/auth/actor";
 import { ownerJobWhere, type OwnerReach } from "./owner-reach";
-
-/** The job functions' view of an Actor: staff act on the studio's jobs; everyone else on their own. */
-export type JobActor = { ctx: StudioContext; owner?: undefined } | { ctx?: undefined; owner: User };
-
-/** Routes name roles ["admin", "staff", "owner"]: a technician then acts as an owner (lib/auth/actor.ts). */
-export function jobActorOf(actor: Actor): JobActor {
-  return actor.role === "owner" ? { owner: actor.user } : { ctx: actor };
-}
 
 /**
  * The repair jobs an actor sees, written once as a WHERE over repair_jobs: staff and technicians

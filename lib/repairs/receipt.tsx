@@ -4,7 +4,7 @@ import { conflict } from "@/lib/errors";
 import { formatInstant } from "@/lib/format";
 import { readStoredFile } from "@/lib/storage";
 import { accentOf } from "@/lib/studio/brand";
-import type { JobActor } from "./access";
+import { isStudioActor, type Actor } from "@/lib/auth/actor";
 import { jobFigures, type JobFigures } from "./figures";
 import { getOwnerJob, getStudioJob, type JobView } from "./jobs";
 import { paymentCounts } from "./states";
@@ -123,12 +123,12 @@ export function ReceiptDocument({ d, logo = null }: { d: ReceiptData; logo?: Buf
 }
 
 /** The receipt's data for a job the actor reaches; 409 while nothing has been paid that counts. */
-export function receiptData(actor: JobActor, jobId: string): ReceiptData {
-  const view: JobView = actor.ctx ? getStudioJob(actor.ctx, jobId) : getOwnerJob(actor.owner, jobId);
+export function receiptData(actor: Actor, jobId: string): ReceiptData {
+  const view: JobView = isStudioActor(actor) ? getStudioJob(actor, jobId) : getOwnerJob(actor.user, jobId);
   const payment = view.payments.find(paymentCounts);
   if (!payment) throw conflict("This job has no payment yet, so there is no receipt.");
   // Staff read the time in the studio's zone, the owner in theirs; the zone is printed beside it.
-  const tz = actor.ctx || !view.owner ? view.studio.timeZone : view.owner.timeZone;
+  const tz = isStudioActor(actor) || !view.owner ? view.studio.timeZone : view.owner.timeZone;
   return {
     studio: { name: view.studio.name, address: view.studio.address, phone: view.studio.phone, accent: accentOf(view.studio.accent).hex, logoKey: view.studio.logoKey },
     ownerName: view.owner?.name ?? "—",
@@ -141,7 +141,7 @@ export function receiptData(actor: JobActor, jobId: string): ReceiptData {
   };
 }
 
-export async function receiptPdf(actor: JobActor, jobId: string): Promise<{ buffer: Buffer; filename: string; data: ReceiptData }> {
+export async function receiptPdf(actor: Actor, jobId: string): Promise<{ buffer: Buffer; filename: string; data: ReceiptData }> {
   const data = receiptData(actor, jobId);
   const logo = data.studio.logoKey ? await readStoredFile(data.studio.logoKey).catch(() => null) : null;
   const buffer = await renderToBuffer(<ReceiptDocument d={data} logo={logo} />);

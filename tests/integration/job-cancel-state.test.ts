@@ -29,7 +29,7 @@ describe("cancelling a job in a state that can't be cancelled", () => {
   it.each(["done", "cancelled"] as const)("a %s job: 409 from the state machine, the payment stays paid", async (state) => {
     const { staff, job } = await paidJobIn(state);
     const label = state === "done" ? "Done" : "Cancelled";
-    await expect(cancelJob({ ctx: staff }, job.id)).rejects.toMatchObject({ status: 409, message: `A job that is "${label}" can't become "Cancelled".` });
+    await expect(cancelJob(staff, job.id)).rejects.toMatchObject({ status: 409, message: `A job that is "${label}" can't become "Cancelled".` });
     const payment = getDb().select().from(payments).where(eq(payments.jobId, job.id)).get()!;
     expect(payment.status).toBe("paid");
     expect(payment.refundedMinor).toBe(0);

@@ -186,7 +186,7 @@ describe("repair job payment through the Stripe fake", () => {
     const { checkoutUrl } = await approveJob(owner, job.id);
     await payOnPage(checkoutUrl!, SUCCESS_CARD);
     await until(() => getDb().select().from(repairJobs).where(eq(repairJobs.id, job.id)).get()?.state === "paid");
-    const cancelled = await cancelJob({ ctx: staff }, job.id);
+    const cancelled = await cancelJob(staff, job.id);
     expect(cancelled.state).toBe("cancelled");
     const refunded = await until(() => getDb().select().from(payments).where(eq(payments.jobId, job.id)).get()?.status === "refunded" && true);
     expect(refunded).toBe(true);
@@ -344,7 +344,7 @@ describe("a checkout that no longer matches its job never pays it", () => {
     await waitForMail({ to: studio.email, subject: /refunded automatically/i, since });
     expect(staffPaymentsHtml(job.id)).toContain("Refunded automatically: the job was already paid");
 
-    const cancelled = await cancelJob({ ctx: staff }, job.id);
+    const cancelled = await cancelJob(staff, job.id);
     expect(cancelled.state).toBe("cancelled");
     await until(() => paymentRows(job.id).every((p) => p.status === "refunded"));
     expect(netCharged(job.id)).toMatchObject({ count: 2, net: 0, refunded: 2 });
@@ -359,7 +359,7 @@ describe("a checkout that no longer matches its job never pays it", () => {
     holdWebhooks();
     await payOnPage(first.checkoutUrl!, SUCCESS_CARD);
     await payOnPage(extra.url!, SUCCESS_CARD);
-    const cancelled = await cancelJob({ ctx: staff }, job.id);
+    const cancelled = await cancelJob(staff, job.id);
     expect(cancelled.state).toBe("cancelled");
     release();
 
@@ -393,11 +393,11 @@ describe("a checkout that no longer matches its job never pays it", () => {
       .insert(payments)
       .values({ studioId: job.studioId, jobId: job.id, quoteVersion: job.quoteVersion, checkoutSessionId: `cs_test_unknown_${job.id}`, amountMinor: job.totalMinor, currency: job.currency, status: "paid", paymentIntentId: `pi_test_unknown_${job.id}`, paidAt: new Date() })
       .run();
-    await expect(cancelJob({ ctx: staff }, job.id)).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^The job is cancelled, but its refund has not gone through yet\. .*Send the refund again/) });
+    await expect(cancelJob(staff, job.id)).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^The job is cancelled, but its refund has not gone through yet\. .*Send the refund again/) });
     expect(jobRow(job.id).state).toBe("cancelled");
     expect(paymentRows(job.id)[0]).toMatchObject({ status: "paid", refundReason: "job_cancelled", refundRequestedAt: null });
     expect(staffPaymentsHtml(job.id)).toContain("Refund not sent yet");
     // Asking again goes to the payment service again (still refused here), rather than "can't cancel a cancelled job".
-    await expect(cancelJob({ ctx: staff }, job.id)).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^The job stays cancelled, but/) });
+    await expect(cancelJob(staff, job.id)).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^The job stays cancelled, but/) });
   });
 });

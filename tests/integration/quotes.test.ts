@@ -20,6 +20,7 @@ import { jobDurationMin } from "@/lib/visits/availability";
 import { jobQuoteSchema, type QuoteLineInput } from "@/lib/validation/jobs";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
+import { ownerActor } from "@/lib/auth/actor";
 
 let fake: StripeFake;
 
@@ -126,12 +127,12 @@ describe("a crack claim's repair quote, checkout and receipt", () => {
     }
 
     // The PDF, for the owner and for staff: the same lines, tax and total, and the payment reference.
-    const forOwner = await receiptPdf({ owner: { ...owner, id: owner.id } as never }, job.id);
+    const forOwner = await receiptPdf(ownerActor(owner), job.id);
     expect(forOwner.buffer.subarray(0, 5).toString()).toBe("%PDF-");
     expect(forOwner.data.figures.text).toMatchObject({ tax: "$12.63", total: "$165.63", covered: "−$102.00" });
     expect(forOwner.data.reference).toMatch(/^pi_test_/);
     expect(forOwner.data.figures.taxNumber).toBe("TX-000-123 (invented)");
-    const forStaff = await receiptPdf({ ctx: staff }, job.id);
+    const forStaff = await receiptPdf(staff, job.id);
     expect(forStaff.data.figures.lines.map((l) => l.amount)).toEqual(["$127.50", "$70.00", "$12.50", "$45.00"]);
   });
 
@@ -158,11 +159,11 @@ describe("a crack claim's repair quote, checkout and receipt", () => {
     const elsewhere = await memberContext(createStudio({ email: `${unique("other")}@test.example` }), "staff");
     // Quoted, not paid yet: no receipt, even for its owner.
     await sendQuote(staff, job.id);
-    await expect(receiptPdf({ owner: owner as never }, job.id)).rejects.toMatchObject({ status: 409 });
-    await expect(receiptPdf({ ctx: staff }, job.id)).rejects.toMatchObject({ status: 409 });
+    await expect(receiptPdf(ownerActor(owner), job.id)).rejects.toMatchObject({ status: 409 });
+    await expect(receiptPdf(staff, job.id)).rejects.toMatchObject({ status: 409 });
     // Someone else's: a 404, not a 403.
-    await expect(receiptPdf({ owner: stranger as never }, job.id)).rejects.toMatchObject({ status: 404 });
-    await expect(receiptPdf({ ctx: elsewhere }, job.id)).rejects.toMatchObject({ status: 404 });
+    await expect(receiptPdf(ownerActor(stranger), job.id)).rejects.toMatchObject({ status: 404 });
+    await expect(receiptPdf(elsewhere, job.id)).rejects.toMatchObject({ status: 404 });
     expect(() => getOwnerJob(stranger, job.id)).toThrow();
     // Only admins change the price list, rounding and tax.
     expect(() => updateRepairSettings(staff, SETTINGS_BASE)).toThrow(expect.objectContaining({ status: 403 }));
