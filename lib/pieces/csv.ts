@@ -21,7 +21,7 @@ import {
 import { ft2ToM2, inchesToMm } from "@/lib/care/units";
 import { attachImportedBuyer, newBuyerTally, readBuyerColumns, type ImportBuyer } from "@/lib/clients/import-buyers";
 import { AppError, unprocessable } from "@/lib/errors";
-import { createPieceSchema, importSchema } from "@/lib/validation/pieces";
+import { createPieceSchema, type CreatePieceValues, type ImportValues, type PieceListQuery } from "@/lib/validation/pieces";
 import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./registry";
 import { formatCount } from "@/lib/format";
 
@@ -69,8 +69,8 @@ function uncell(s: string): string {
 }
 
 /** GET /api/pieces/export.csv with the same query as the registry table (every page). */
-export function exportPiecesCsv(ctx: StudioContext, raw: unknown, now = new Date()): string {
-  const { rows } = queryRegistry(ctx, raw, now, true);
+export function exportPiecesCsv(ctx: StudioContext, q: PieceListQuery, now = new Date()): string {
+  const { rows } = queryRegistry(ctx, q, now, true);
   const full = loadFullPieces(rows.map((r) => r.id));
   const data = rows.map((r) => {
     const l = full.get(r.id)!;
@@ -281,8 +281,7 @@ const FIELD_TO_COLUMN: Record<string, string> = {
 const MAX_ROWS = 5000;
 
 /** POST /api/pieces/import: preview (commit false) or write (commit true) a CSV of earlier deliveries. */
-export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult {
-  const { csv, commit } = importSchema.parse(raw);
+export function importPiecesCsv(ctx: StudioContext, { csv, commit }: Pick<ImportValues, "csv" | "commit">): ImportResult {
   const parsed = Papa.parse<Record<string, string>>(csv.replace(/^\uFEFF/, ""), { header: true, skipEmptyLines: "greedy", transformHeader: (h) => norm(h).replace(/ /g, "_") });
   const errors: ImportError[] = [];
   for (const e of parsed.errors.slice(0, 20)) errors.push({ row: (e.row ?? 0) + 2, field: "file", message: e.message });
@@ -294,7 +293,7 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
   if (parsed.data.length > MAX_ROWS) throw unprocessable("too_many_rows", `The file has ${parsed.data.length} rows; import at most ${MAX_ROWS} at a time.`);
 
   const products = studioProducts(ctx.studio.id).map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass }));
-  const inputs: unknown[] = [];
+  const inputs: (CreatePieceValues | null)[] = [];
   const buyers: (ImportBuyer | null)[] = [];
   const rows: ImportPreviewRow[] = [];
   if (errors.length === 0) {
@@ -357,7 +356,7 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
       }
       errors.push(...rowErrors);
       rows.push({ row: rowNo, title: candidate.title, kind: String(candidate.kind), primarySpecies: getSpecies(candidate.primarySpeciesId)?.commonName ?? candidate.primarySpeciesId, deliveredOn: candidate.deliveredOn, layers: stack.layers.length, ok: rowErrors.length === 0 });
-      inputs.push(candidate);
+      inputs.push(result.success ? result.data : null);
     });
   }
   if (errors.length > 0 || !commit) return { ok: errors.length === 0, committed: false, rows, errors, created: 0 };
@@ -367,7 +366,7 @@ export function importPiecesCsv(ctx: StudioContext, raw: unknown): ImportResult 
   try {
     db.transaction((tx) => {
       inputs.forEach((input, i) => {
-        const { piece } = insertPiece(ctx, tx, input, "import");
+        const { piece } = insertPiece(ctx, tx, input!, "import"); // every row parsed: one that didn't is an error, and errors return above
         if (buyers[i]) attachImportedBuyer(ctx, tx, piece.id, buyers[i], tally);
       });
       recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "pieces.imported", subjectType: "studio", subjectId: ctx.studio.id, data: { rows: inputs.length } });

@@ -7,7 +7,7 @@ import { recordAudit } from "@/lib/audit";
 import type { CareSchedule } from "@/lib/care/schedule";
 import type { Surface } from "@/lib/care/vocabulary";
 import { notFound } from "@/lib/errors";
-import { layerPatchSchema, layerSchema, type LayerValues } from "@/lib/validation/pieces";
+import { layerSchema, type LayerPatch, type LayerValues } from "@/lib/validation/pieces";
 import { scheduleFromRows } from "./care-inputs";
 import { checkLayerRefs, loadPiece, studioProducts } from "./registry";
 import { indexPiece, type DbOrTx } from "./search-index";
@@ -78,8 +78,7 @@ function snapshot(l: FinishLayer) {
 }
 
 /** POST /api/pieces/[id]/layers: adds a layer on top of its surface's stack; returns the recomputed care schedule. */
-export function addLayer(ctx: StudioContext, pieceId: string, raw: unknown) {
-  const input = layerSchema.parse(raw);
+export function addLayer(ctx: StudioContext, pieceId: string, input: LayerValues) {
   const layer = getDb().transaction((tx) => {
     loadPiece(ctx, pieceId, tx);
     checkLayerRefs(ctx, tx, input);
@@ -100,8 +99,7 @@ function loadLayer(ctx: StudioContext, tx: DbOrTx, pieceId: string, layerId: str
 }
 
 /** PATCH /api/pieces/[id]/layers/[layerId]: edits a layer, moves it within its stack, or to another surface. */
-export function updateLayer(ctx: StudioContext, pieceId: string, layerId: string, raw: unknown) {
-  const patch = layerPatchSchema.parse(raw);
+export function updateLayer(ctx: StudioContext, pieceId: string, layerId: string, patch: LayerPatch) {
   const layer = getDb().transaction((tx) => {
     const current = loadLayer(ctx, tx, pieceId, layerId);
     const { position, ...fields } = patch;

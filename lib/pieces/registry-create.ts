@@ -8,7 +8,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
 import type { FinishClass } from "@/lib/care/vocabulary";
 import { badRequest } from "@/lib/errors";
-import { createPieceSchema, type pieceSchema } from "@/lib/validation/pieces";
+import type { CreatePieceValues, pieceSchema } from "@/lib/validation/pieces";
 import { insertLayers } from "./layers";
 import { publicPiece, type PublicPiece } from "./registry-common";
 import { newRegistrationCode } from "./registration";
@@ -72,8 +72,7 @@ function policyAt(db: DbOrTx, studioId: string, deliveredOn: string): string | n
 }
 
 /** Inserts one piece (and its layers) inside a transaction: index row and audit entry included. */
-export function insertPiece(ctx: StudioContext, tx: DbOrTx, raw: unknown, via: "form" | "import" = "form"): { piece: Piece; code: string } {
-  const input = createPieceSchema.parse(raw);
+export function insertPiece(ctx: StudioContext, tx: DbOrTx, input: CreatePieceValues, via: "form" | "import" = "form"): { piece: Piece; code: string } {
   const { code, hash, enc } = newRegistrationCode();
   const piece = tx
     .insert(pieces)
@@ -96,7 +95,7 @@ export function insertPiece(ctx: StudioContext, tx: DbOrTx, raw: unknown, via: "
 }
 
 /** POST /api/pieces: the new piece with its registration code (shown once here and on the drawer card). */
-export function createPiece(ctx: StudioContext, raw: unknown): { piece: PublicPiece; registrationCode: string } {
-  const { piece, code } = getDb().transaction((tx) => insertPiece(ctx, tx, raw));
+export function createPiece(ctx: StudioContext, input: CreatePieceValues): { piece: PublicPiece; registrationCode: string } {
+  const { piece, code } = getDb().transaction((tx) => insertPiece(ctx, tx, input));
   return { piece: publicPiece(piece), registrationCode: code };
 }

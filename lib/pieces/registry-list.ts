@@ -8,7 +8,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import type { CareSchedule, CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { getSpecies } from "@/lib/care/species";
 import type { FinishClass } from "@/lib/care/vocabulary";
-import { pieceListQuerySchema, type PieceListQuery } from "@/lib/validation/pieces";
+import type { PieceListQuery } from "@/lib/validation/pieces";
 import { scheduleFromColumns, toCatalog } from "./care-inputs";
 import { studioProducts, today } from "./registry-common";
 import {
@@ -83,13 +83,12 @@ function filterKey(ctx: StudioContext, q: PieceListQuery, useCode: boolean, t: s
 }
 
 /** GET /api/pieces: search, filters, sorting and pagination of the studio's registry. */
-export function listPieces(ctx: StudioContext, raw: unknown, now = new Date()): RegistryPage {
-  return queryRegistry(ctx, raw, now, false);
+export function listPieces(ctx: StudioContext, q: PieceListQuery, now = new Date()): RegistryPage {
+  return queryRegistry(ctx, q, now, false);
 }
 
 /** The registry query; `all` ignores pagination (CSV export of the current filter). */
-export function queryRegistry(ctx: StudioContext, raw: unknown, now: Date, all: boolean): RegistryPage {
-  const q = pieceListQuerySchema.parse(raw);
+export function queryRegistry(ctx: StudioContext, q: PieceListQuery, now: Date, all: boolean): RegistryPage {
   const db = getDb();
   ensureSqlFunctions(db);
   const version = databaseVersion(db); // before any read: see nextCareFor

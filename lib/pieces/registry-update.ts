@@ -6,14 +6,13 @@ import { getDb } from "@/db/client";
 import { pieces } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { recordAudit } from "@/lib/audit";
-import { piecePatchSchema, pieceSchema } from "@/lib/validation/pieces";
+import { pieceSchema, type PiecePatch } from "@/lib/validation/pieces";
 import { loadPiece, publicPiece, type PublicPiece } from "./registry-common";
 import { pieceColumns } from "./registry-create";
 import { indexPiece } from "./search-index";
 
 /** PATCH /api/pieces/[id]: merges the change into the record and checks the whole record again. */
-export function updatePiece(ctx: StudioContext, pieceId: string, raw: unknown): PublicPiece {
-  const patch = piecePatchSchema.parse(raw);
+export function updatePiece(ctx: StudioContext, pieceId: string, patch: PiecePatch): PublicPiece {
   const db = getDb();
   return db.transaction((tx) => {
     const current = loadPiece(ctx, pieceId, tx);

@@ -114,6 +114,7 @@ export const createPieceSchema = pieceFields
   .extend({ layers: z.array(layerFields).max(30, "At most 30 layers.").optional() })
   .superRefine(checkPieceConsistency);
 export type CreatePieceInput = z.input<typeof createPieceSchema>;
+export type CreatePieceValues = z.output<typeof createPieceSchema>;
 
 export const PAGE_SIZES = [10, 25, 50, 100] as const;
 export const SORTS = ["relevance", "delivered", "title", "next_due", "created"] as const;
@@ -148,6 +149,7 @@ export const importSchema = z.object({
   /** Send the imported buyers their hand-over mail once the rows are written (those who can get it). */
   sendHandover: z.boolean().default(false),
 });
+export type ImportValues = z.output<typeof importSchema>;
 
 export const catalogProductSchema = z.object({
   name: text(120).min(1, "Give the product a name."),

@@ -2,7 +2,7 @@
 // intervals drive the care schedule, archiving keeps layers' labels.
 import { describe, expect, it } from "vitest";
 import { archiveCatalogProduct, createCatalogProduct, listCatalog, updateCatalogProduct } from "@/lib/catalog";
-import { catalogProductSchema } from "@/lib/validation/pieces";
+import { catalogProductSchema, createPieceSchema, layerSchema } from "@/lib/validation/pieces";
 import { addLayer } from "@/lib/pieces/layers";
 import { createPiece, getPieceDetail } from "@/lib/pieces/registry";
 import { createStudio, memberContext } from "../support/fixtures";
@@ -14,8 +14,8 @@ describe("finish catalog", () => {
     const p = createCatalogProduct(admin, { name: "Test oil (invented)", finishClass: "hardwax_oil", coverageM2PerL: 24, containers: [{ ml: 250, priceMinor: 1900 }], intervalHeavyMonths: 12, intervalModerateMonths: 20, intervalLightMonths: null });
     expect([p.intervalHeavyMonths, p.intervalModerateMonths, p.intervalLightMonths]).toEqual([null, 20, null]);
     expect(listCatalog(admin)[0]!.defaults).toEqual({ heavy: 12, moderate: 24, light: 36 });
-    const { piece } = createPiece(admin, { kind: "desk", title: "Desk (invented)", shapeKind: "rectangle", lengthMm: 1200, widthMm: 600, primarySpeciesId: "white_ash", use: "moderate", deliveredOn: "2025-01-10" });
-    addLayer(admin, piece.id, { surface: "top", finishClass: "hardwax_oil", productId: p.id, coats: 2, appliedOn: "2025-01-10" });
+    const { piece } = createPiece(admin, createPieceSchema.parse({ kind: "desk", title: "Desk (invented)", shapeKind: "rectangle", lengthMm: 1200, widthMm: 600, primarySpeciesId: "white_ash", use: "moderate", deliveredOn: "2025-01-10" }));
+    addLayer(admin, piece.id, layerSchema.parse({ surface: "top", finishClass: "hardwax_oil", productId: p.id, coats: 2, appliedOn: "2025-01-10" }));
     const reoil = getPieceDetail(admin, piece.id, new Date("2025-02-01T12:00:00Z")).schedule!.tasks.find((t) => t.kind === "reoil")!;
     expect(reoil.dueOn).toBe("2026-09-10");
     expect(reoil.reasons.join(" ")).toContain("Test oil (invented)");

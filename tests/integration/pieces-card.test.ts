@@ -21,6 +21,7 @@ import { certificatePdf } from "@/lib/owner/certificate";
 import { renderDrawerCard, renderDrawerCards, type CardLayout } from "@/lib/pieces/card";
 import { CARE_RECORDS_BY, CODE_WHEN_PIECE_CHANGES_HANDS } from "@/lib/pieces/card-words";
 import { createPiece, reissueRegistrationCode } from "@/lib/pieces/registry";
+import { createPieceSchema } from "@/lib/validation/pieces";
 import { storeImage } from "@/lib/storage";
 import { createStudio, createUser, memberContext } from "../support/fixtures";
 
@@ -82,7 +83,7 @@ const ZONE = "America/Los_Angeles";
 
 /** A piece whose card says as much as a card can: long names, four finishes, resin, curing, a schedule. */
 function crowdedPiece(ctx: Awaited<ReturnType<typeof memberContext>>, title = "Bookmatched live-edge walnut river dining table with a waterfall end and a charred base (invented)") {
-  return createPiece(ctx, {
+  return createPiece(ctx, createPieceSchema.parse({
     kind: "dining_table",
     title,
     shapeKind: "oval",
@@ -98,11 +99,11 @@ function crowdedPiece(ctx: Awaited<ReturnType<typeof memberContext>>, title = "B
       { surface: "base", finishClass: "charred_oiled", coats: 1, appliedOn: "2026-11-20" },
       { surface: "base", finishClass: "paste_wax", coats: 1, appliedOn: "2026-11-21" },
     ],
-  });
+  }));
 }
 
 function plainPiece(ctx: Awaited<ReturnType<typeof memberContext>>, title: string) {
-  return createPiece(ctx, {
+  return createPiece(ctx, createPieceSchema.parse({
     kind: "coffee_table",
     title,
     shapeKind: "rectangle",
@@ -112,7 +113,7 @@ function plainPiece(ctx: Awaited<ReturnType<typeof memberContext>>, title: strin
     use: "moderate",
     deliveredOn: "2024-05-01",
     layers: [{ surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2024-04-28" }],
-  });
+  }));
 }
 
 async function studioWithStaff(name = "The Long-Named Riverside Workshop of Fine Furniture and Joinery (invented)") {
@@ -198,7 +199,7 @@ describe("one drawer card per page", () => {
 
 it("leaves the oily-rag and product cautions off a stack without oil that an owner never recoats", async () => {
   const { ctx } = await studioWithStaff("Varnish Shop (invented)");
-  const { piece, registrationCode } = createPiece(ctx, {
+  const { piece, registrationCode } = createPiece(ctx, createPieceSchema.parse({
     kind: "countertop",
     title: "Varnished top (invented)",
     shapeKind: "rectangle",
@@ -208,7 +209,7 @@ it("leaves the oily-rag and product cautions off a stack without oil that an own
     use: "heavy",
     deliveredOn: "2025-05-01",
     layers: [{ surface: "top", finishClass: "film_finish", coats: 3, appliedOn: "2025-04-28" }],
-  });
+  }));
   const { text } = readPdf((await renderDrawerCard(ctx, piece.id, "4x6", PRINTED)).pdf);
   expect(text).toContain(registrationCode);
   expect(text).not.toMatch(/Oily rags/);

@@ -12,6 +12,7 @@ import { exportPiecesCsv } from "@/lib/pieces/csv";
 import { addLayer, removeLayer, updateLayer } from "@/lib/pieces/layers";
 import { addPiecePhoto } from "@/lib/pieces/photos";
 import { createPiece, deletePiece, getPieceDetail, layerHistory, listPieces, reissueRegistrationCode, revealRegistrationCode, updatePiece } from "@/lib/pieces/registry";
+import { createPieceSchema, layerSchema, pieceListQuerySchema } from "@/lib/validation/pieces";
 import { createStudio, memberContext } from "../support/fixtures";
 
 async function status(fn: () => unknown): Promise<number | "ok"> {
@@ -30,7 +31,7 @@ describe("registry tenancy", () => {
     const b = createStudio({ name: "Studio B (invented)" });
     const staffA = await memberContext(a, "staff");
     const adminB = await memberContext(b, "admin");
-    const { piece, registrationCode } = createPiece(staffA, {
+    const { piece, registrationCode } = createPiece(staffA, createPieceSchema.parse({
       kind: "desk",
       title: "Studio A desk (invented)",
       shapeKind: "rectangle",
@@ -40,7 +41,7 @@ describe("registry tenancy", () => {
       use: "moderate",
       deliveredOn: "2025-02-01",
       layers: [{ surface: "top", finishClass: "paste_wax", coats: 2, appliedOn: "2025-01-30" }],
-    });
+    }));
     const layer = getDb().select().from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).get()!;
     const product = getDb().insert(finishProducts).values({ studioId: a.id, name: "A's wax (invented)", finishClass: "paste_wax", coverageM2PerL: 20 }).returning().get();
     const photo = new Uint8Array(await sharp({ create: { width: 8, height: 8, channels: 3, background: "#806040" } }).png().toBuffer());
@@ -48,7 +49,7 @@ describe("registry tenancy", () => {
       ["getPieceDetail", () => getPieceDetail(adminB, piece.id)],
       ["updatePiece", () => updatePiece(adminB, piece.id, { title: "taken" })],
       ["deletePiece", () => deletePiece(adminB, piece.id)],
-      ["addLayer", () => addLayer(adminB, piece.id, { surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2025-03-01" })],
+      ["addLayer", () => addLayer(adminB, piece.id, layerSchema.parse({ surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2025-03-01" }))],
       ["updateLayer", () => updateLayer(adminB, piece.id, layer.id, { coats: 5 })],
       ["removeLayer", () => removeLayer(adminB, piece.id, layer.id)],
       ["layerHistory", () => layerHistory(adminB, piece.id)],
@@ -66,13 +67,13 @@ describe("registry tenancy", () => {
     expect(await status(() => updateLayer(staffA, piece.id, layer.id, { coats: 3 }))).toBe("ok");
 
     // A layer id of studio A's piece used under B's own piece is a 404 too.
-    const mine = createPiece(adminB, { kind: "shelf", title: "B shelf (invented)", shapeKind: "measured", measuredAreaM2: 0.3, primarySpeciesId: "red_oak", use: "light", deliveredOn: "2025-02-01" }).piece;
+    const mine = createPiece(adminB, createPieceSchema.parse({ kind: "shelf", title: "B shelf (invented)", shapeKind: "measured", measuredAreaM2: 0.3, primarySpeciesId: "red_oak", use: "light", deliveredOn: "2025-02-01" })).piece;
     expect(await status(() => updateLayer(adminB, mine.id, layer.id, { coats: 5 }))).toBe(404);
     expect(await status(() => removeLayer(adminB, mine.id, layer.id))).toBe(404);
 
-    expect(listPieces(adminB, {}).rows.map((r) => r.id)).toEqual([mine.id]);
-    expect(listPieces(adminB, { q: registrationCode }).rows).toHaveLength(0);
-    expect(exportPiecesCsv(adminB, {})).not.toContain("Studio A desk");
+    expect(listPieces(adminB, pieceListQuerySchema.parse({})).rows.map((r) => r.id)).toEqual([mine.id]);
+    expect(listPieces(adminB, pieceListQuerySchema.parse({ q: registrationCode })).rows).toHaveLength(0);
+    expect(exportPiecesCsv(adminB, pieceListQuerySchema.parse({}))).not.toContain("Studio A desk");
     expect(listCatalog(adminB).map((p) => p.id)).not.toContain(product.id);
     const after = getDb().select().from(pieces).where(eq(pieces.id, piece.id)).get()!;
     expect(after.title).toBe("Studio A desk (invented)");

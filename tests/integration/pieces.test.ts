@@ -8,8 +8,8 @@ import { AppError } from "@/lib/errors";
 import { importPiecesCsv, exportPiecesCsv } from "@/lib/pieces/csv";
 import { addLayer, removeLayer, updateLayer } from "@/lib/pieces/layers";
 import { createPiece, deletePiece, findByTypedCode, getPieceDetail, layerHistory, listPieces, reissueRegistrationCode, SEARCH_COUNT_CAP, updatePiece } from "@/lib/pieces/registry";
+import { createPieceSchema, layerSchema, pieceListQuerySchema, type CreatePieceInput } from "@/lib/validation/pieces";
 import { ftsQuery, indexPiece } from "@/lib/pieces/search-index";
-import type { CreatePieceInput } from "@/lib/validation/pieces";
 import { createStudio, createUser, memberContext, unique } from "../support/fixtures";
 
 const base = (over: Partial<CreatePieceInput> = {}): CreatePieceInput => ({
@@ -49,13 +49,13 @@ describe("piece records", () => {
   it("creates a piece with layers, a sealed registration code and its computed area and schedule", async () => {
     const studio = createStudio();
     const ctx = await memberContext(studio, "staff");
-    const { piece, registrationCode } = createPiece(ctx, {
+    const { piece, registrationCode } = createPiece(ctx, createPieceSchema.parse({
       ...base(),
       layers: [
         { surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-04-28" },
         { surface: "top", finishClass: "ceramic_topcoat", coats: 1, appliedOn: "2025-04-30" },
       ],
-    });
+    }));
     expect(registrationCode).toMatch(/^[0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z*~$=]$/);
     expect(piece).not.toHaveProperty("registrationCodeHash");
     const row = getDb().select().from(pieces).where(eq(pieces.id, piece.id)).get()!;
@@ -81,7 +81,7 @@ describe("piece records", () => {
     const ctx = await memberContext(createStudio(), "staff");
     let caught: unknown;
     try {
-      createPiece(ctx, { ...base(), shapeKind: "round", diameterMm: null, primarySpeciesId: "unobtainium" });
+      createPiece(ctx, createPieceSchema.parse({ ...base(), shapeKind: "round", diameterMm: null, primarySpeciesId: "unobtainium" }));
     } catch (e) {
       caught = e;
     }
@@ -92,7 +92,7 @@ describe("piece records", () => {
   it("edits a record, checks the merged record and keeps the change in the audit log", async () => {
     const studio = createStudio();
     const ctx = await memberContext(studio, "staff");
-    const { piece } = createPiece(ctx, base());
+    const { piece } = createPiece(ctx, createPieceSchema.parse(base()));
     const updated = updatePiece(ctx, piece.id, { title: "Walnut river table, renamed", shapeKind: "oval" });
     expect(updated.title).toBe("Walnut river table, renamed");
     expect(updated.shapeKind).toBe("oval");
@@ -102,22 +102,22 @@ describe("piece records", () => {
     const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, piece.id), eq(auditLog.action, "piece.updated"))).all();
     expect(audit).toHaveLength(1);
     expect(audit[0]!.data).toMatchObject({ before: { title: "Walnut river table (invented)" }, after: { title: "Walnut river table, renamed" } });
-    expect(listPieces(ctx, { q: "renamed" }).rows.map((r) => r.id)).toEqual([piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "renamed" })).rows.map((r) => r.id)).toEqual([piece.id]);
   });
 
   it("deletes an unregistered piece, and archives a registered one instead", async () => {
     const studio = createStudio();
     const ctx = await memberContext(studio, "staff");
-    const a = createPiece(ctx, base()).piece;
+    const a = createPiece(ctx, createPieceSchema.parse(base())).piece;
     const owner = await createUser();
-    const b = createPiece(ctx, base()).piece;
+    const b = createPiece(ctx, createPieceSchema.parse(base())).piece;
     getDb().update(pieces).set({ ownerId: owner.id, registeredAt: new Date() }).where(eq(pieces.id, b.id)).run();
     expect(await deletePiece(ctx, a.id)).toEqual({ deleted: true, archived: false });
     expect(getDb().select().from(pieces).where(eq(pieces.id, a.id)).get()).toBeUndefined();
     expect(await deletePiece(ctx, b.id)).toEqual({ deleted: false, archived: true });
     expect(getDb().select().from(pieces).where(eq(pieces.id, b.id)).get()!.archivedAt).not.toBeNull();
-    expect(listPieces(ctx, {}).rows.map((r) => r.id)).not.toContain(b.id);
-    expect(listPieces(ctx, { archived: "only" }).rows.map((r) => r.id)).toEqual([b.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({})).rows.map((r) => r.id)).not.toContain(b.id);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ archived: "only" })).rows.map((r) => r.id)).toEqual([b.id]);
   });
 });
 
@@ -126,11 +126,11 @@ describe("finish stack", () => {
     const studio = createStudio();
     const ctx = await memberContext(studio, "staff");
     const product = getDb().insert(finishProducts).values({ studioId: studio.id, name: "Test topcoat (invented)", finishClass: "ceramic_topcoat", coverageM2PerL: 180, intervalHeavyMonths: 7 }).returning().get();
-    const { piece } = createPiece(ctx, base());
+    const { piece } = createPiece(ctx, createPieceSchema.parse(base()));
     const now = new Date("2025-06-01T12:00:00Z");
-    const first = addLayer(ctx, piece.id, { surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-04-28", batchLot: "LOT-1" });
+    const first = addLayer(ctx, piece.id, layerSchema.parse({ surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-04-28", batchLot: "LOT-1" }));
     expect(first.schedule!.tasks.map((t) => t.kind)).toContain("reoil");
-    const second = addLayer(ctx, piece.id, { surface: "top", finishClass: "ceramic_topcoat", productId: product.id, coats: 1, appliedOn: "2025-04-30", appliedById: ctx.user.id });
+    const second = addLayer(ctx, piece.id, layerSchema.parse({ surface: "top", finishClass: "ceramic_topcoat", productId: product.id, coats: 1, appliedOn: "2025-04-30", appliedById: ctx.user.id }));
     // The topcoat takes over the oil's care. Its clock runs on the longer of its catalog's 7 months and
     // the oil's own 12 (hardwax oil, heavy use): a topcoat never shortens the care of what it covers
     // (stackedLayerInterval in lib/care/schedule.ts). 2025-04-30 + 12 months.
@@ -138,8 +138,8 @@ describe("finish stack", () => {
     expect(second.schedule!.tasks.map((t) => t.kind)).not.toContain("reoil");
     expect(topcoat.dueOn).toBe("2026-04-30");
     expect(second.layer.productLabel).toBe("Test topcoat (invented)");
-    const third = addLayer(ctx, piece.id, { surface: "base", finishClass: "hardwax_oil", coats: 1, appliedOn: "2025-04-28" });
-    const fourth = addLayer(ctx, piece.id, { surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2025-04-30" });
+    const third = addLayer(ctx, piece.id, layerSchema.parse({ surface: "base", finishClass: "hardwax_oil", coats: 1, appliedOn: "2025-04-28" }));
+    const fourth = addLayer(ctx, piece.id, layerSchema.parse({ surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2025-04-30" }));
     expect(layerRows(piece.id).map((l) => `${l.surface}${l.position}:${l.finishClass}`)).toEqual(["base0:hardwax_oil", "top0:hardwax_oil", "top1:ceramic_topcoat", "top2:paste_wax"]);
 
     updateLayer(ctx, piece.id, fourth.layer.id, { position: 0 });
@@ -161,7 +161,7 @@ describe("finish stack", () => {
     expect(removed.data).toMatchObject({ before: { finishClass: "paste_wax" } });
     expect(getPieceDetail(ctx, piece.id, now).schedule!.tasks.map((t) => t.kind)).toContain("topcoat_refresh");
     // The lot number is searchable.
-    expect(listPieces(ctx, { q: "LOT-1" }).rows.map((r) => r.id)).toEqual([piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "LOT-1" })).rows.map((r) => r.id)).toEqual([piece.id]);
   });
 
   it("refuses a product of another class or another studio, and an applier who is not a member", async () => {
@@ -171,11 +171,11 @@ describe("finish stack", () => {
     const mine = getDb().insert(finishProducts).values({ studioId: studio.id, name: "Wax (invented)", finishClass: "paste_wax", coverageM2PerL: 20 }).returning().get();
     const theirs = getDb().insert(finishProducts).values({ studioId: other.id, name: "Oil (invented)", finishClass: "hardwax_oil", coverageM2PerL: 20 }).returning().get();
     const stranger = await createUser();
-    const { piece } = createPiece(ctx, base());
+    const { piece } = createPiece(ctx, createPieceSchema.parse(base()));
     const layer = { surface: "top" as const, finishClass: "hardwax_oil" as const, coats: 1, appliedOn: "2025-04-28" };
-    await expectStatus(() => addLayer(ctx, piece.id, { ...layer, productId: mine.id }), 400);
-    await expectStatus(() => addLayer(ctx, piece.id, { ...layer, productId: theirs.id }), 400);
-    await expectStatus(() => addLayer(ctx, piece.id, { ...layer, appliedById: stranger.id }), 400);
+    await expectStatus(() => addLayer(ctx, piece.id, layerSchema.parse({ ...layer, productId: mine.id })), 400);
+    await expectStatus(() => addLayer(ctx, piece.id, layerSchema.parse({ ...layer, productId: theirs.id })), 400);
+    await expectStatus(() => addLayer(ctx, piece.id, layerSchema.parse({ ...layer, appliedById: stranger.id })), 400);
     expect(layerRows(piece.id)).toHaveLength(0);
   });
 });
@@ -184,12 +184,12 @@ describe("registration codes", () => {
   it("reissuing a code makes the old one stop working at once", async () => {
     const studio = createStudio();
     const ctx = await memberContext(studio, "staff");
-    const { piece, registrationCode: old } = createPiece(ctx, base());
+    const { piece, registrationCode: old } = createPiece(ctx, createPieceSchema.parse(base()));
     expect(findByTypedCode(ctx, old)).toBe(piece.id);
     const { registrationCode: fresh } = reissueRegistrationCode(ctx, piece.id);
     expect(fresh).not.toBe(old);
     expect(findByTypedCode(ctx, old)).toBeNull();
-    expect(listPieces(ctx, { q: old }).rows).toHaveLength(0);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: old })).rows).toHaveLength(0);
     expect(findByTypedCode(ctx, fresh)).toBe(piece.id);
     expect(getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, piece.id), eq(auditLog.action, "piece.code_reissued"))).all()).toHaveLength(1);
   });
@@ -201,39 +201,39 @@ describe("registry search", () => {
     const ctx = await memberContext(studio, "staff");
     const surname = `Quillfeather${Date.now().toString(36)}`;
     const owner = await createUser({ name: `Ada ${surname}`, email: `${unique("ada")}@owners.example` });
-    const walnut = createPiece(ctx, base({ title: "Long table (invented)" }));
-    const cherry = createPiece(ctx, base({ title: "Small desk (invented)", kind: "desk", primarySpeciesId: "black_cherry", resinKind: "none" }));
+    const walnut = createPiece(ctx, createPieceSchema.parse(base({ title: "Long table (invented)" })));
+    const cherry = createPiece(ctx, createPieceSchema.parse(base({ title: "Small desk (invented)", kind: "desk", primarySpeciesId: "black_cherry", resinKind: "none" })));
     getDb().update(pieces).set({ ownerId: owner.id, registeredAt: new Date() }).where(eq(pieces.id, cherry.piece.id)).run();
     indexPiece(getDb(), cherry.piece.id);
 
-    expect(listPieces(ctx, { q: surname }).rows.map((r) => r.id)).toEqual([cherry.piece.id]);
-    expect(listPieces(ctx, { q: surname.toLowerCase().slice(0, 8) }).rows.map((r) => r.id)).toEqual([cherry.piece.id]); // prefix
-    expect(listPieces(ctx, { q: owner.email }).rows.map((r) => r.id)).toEqual([cherry.piece.id]);
-    expect(listPieces(ctx, { q: "walnut" }).rows.map((r) => r.id)).toEqual([walnut.piece.id]);
-    expect(listPieces(ctx, { q: "Juglans" }).rows.map((r) => r.id)).toEqual([walnut.piece.id]);
-    expect(listPieces(ctx, { q: "american cherry" }).rows.map((r) => r.id)).toEqual([cherry.piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: surname })).rows.map((r) => r.id)).toEqual([cherry.piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: surname.toLowerCase().slice(0, 8) })).rows.map((r) => r.id)).toEqual([cherry.piece.id]); // prefix
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: owner.email })).rows.map((r) => r.id)).toEqual([cherry.piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "walnut" })).rows.map((r) => r.id)).toEqual([walnut.piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "Juglans" })).rows.map((r) => r.id)).toEqual([walnut.piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "american cherry" })).rows.map((r) => r.id)).toEqual([cherry.piece.id]);
 
     const typed = walnut.registrationCode.toLowerCase().replace(/-/g, " ");
-    const byCode = listPieces(ctx, { q: typed });
+    const byCode = listPieces(ctx, pieceListQuerySchema.parse({ q: typed }));
     expect(byCode.matchedBy).toBe("code");
     expect(byCode.rows.map((r) => r.id)).toEqual([walnut.piece.id]);
-    expect(listPieces(ctx, { q: ` ${walnut.registrationCode.toLowerCase().replace(/-/g, "")} ` }).rows.map((r) => r.id)).toEqual([walnut.piece.id]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: ` ${walnut.registrationCode.toLowerCase().replace(/-/g, "")} ` })).rows.map((r) => r.id)).toEqual([walnut.piece.id]);
     // Another studio's staff do not find it by its code.
     const strangers = await memberContext(createStudio(), "staff");
-    expect(listPieces(strangers, { q: walnut.registrationCode }).rows).toHaveLength(0);
-    expect(listPieces(strangers, { q: "walnut" }).rows).toHaveLength(0);
+    expect(listPieces(strangers, pieceListQuerySchema.parse({ q: walnut.registrationCode })).rows).toHaveLength(0);
+    expect(listPieces(strangers, pieceListQuerySchema.parse({ q: "walnut" })).rows).toHaveLength(0);
   });
 
   it("never errors on FTS5 syntax characters", async () => {
     const ctx = await memberContext(createStudio(), "staff");
-    createPiece(ctx, base({ title: "Quote \"test\" table (invented)" }));
+    createPiece(ctx, createPieceSchema.parse(base({ title: "Quote \"test\" table (invented)" })));
     const inputs = ['"', '""', '"walnut', "walnut\"", "*", "walnut*", "**", "NEAR", "NEAR(walnut table)", "walnut NEAR/2 table", "-", "-walnut", "walnut -table", "AND", "OR", "NOT", "walnut OR", "title:walnut", "owner:", "^walnut", "(", ")", "walnut)", "{title}: x", "'; DROP TABLE pieces; --", "\\", "\u0000", "·", "🙂", "   "];
     for (const q of inputs) {
-      const res = listPieces(ctx, { q });
+      const res = listPieces(ctx, pieceListQuerySchema.parse({ q }));
       expect(Array.isArray(res.rows), q).toBe(true);
     }
-    expect(listPieces(ctx, { q: '"test"' }).rows).toHaveLength(1);
-    expect(listPieces(ctx, { q: "walnut -table" }).total).toBe(1); // "-table" is a word to find, not an exclusion
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: '"test"' })).rows).toHaveLength(1);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "walnut -table" })).total).toBe(1); // "-table" is a word to find, not an exclusion
     expect(ftsQuery("a\"b NEAR")).toBe('"a""b"* "NEAR"*');
     expect(ftsQuery("* - ()")).toBeNull();
   });
@@ -242,11 +242,11 @@ describe("registry search", () => {
     const studio = createStudio({ timeZone: "UTC" });
     const ctx = await memberContext(studio, "staff");
     const policy = getDb().insert(warrantyPolicies).values({ studioId: studio.id, version: 1, effectiveFrom: "2000-01-01", policy: DEFAULT_WARRANTY_POLICY }).returning().get();
-    const recent = createPiece(ctx, { ...base({ title: "A recent table", deliveredOn: "2026-01-10", resinPouredOn: null }), layers: [{ surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2026-01-10" }] }).piece;
-    const old = createPiece(ctx, { ...base({ title: "B old bench", kind: "bench", primarySpeciesId: "white_oak", deliveredOn: "2019-03-01", resinPouredOn: null }), layers: [{ surface: "top", finishClass: "film_finish", coats: 3, appliedOn: "2019-03-01" }] }).piece;
+    const recent = createPiece(ctx, createPieceSchema.parse({ ...base({ title: "A recent table", deliveredOn: "2026-01-10", resinPouredOn: null }), layers: [{ surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2026-01-10" }] })).piece;
+    const old = createPiece(ctx, createPieceSchema.parse({ ...base({ title: "B old bench", kind: "bench", primarySpeciesId: "white_oak", deliveredOn: "2019-03-01", resinPouredOn: null }), layers: [{ surface: "top", finishClass: "film_finish", coats: 3, appliedOn: "2019-03-01" }] })).piece;
     expect(recent.warrantyPolicyId).toBe(policy.id);
     const now = new Date("2026-03-01T12:00:00Z");
-    const ids = (q: Record<string, unknown>) => listPieces(ctx, q, now).rows.map((r) => r.id);
+    const ids = (q: Record<string, unknown>) => listPieces(ctx, pieceListQuerySchema.parse(q), now).rows.map((r) => r.id);
     expect(ids({ kind: "bench" })).toEqual([old.id]);
     expect(ids({ species: "white_oak" })).toEqual([old.id]);
     expect(ids({ finishClass: "paste_wax" })).toEqual([recent.id]);
@@ -261,12 +261,12 @@ describe("registry search", () => {
     expect(ids({ sort: "title", dir: "desc" })).toEqual([old.id, recent.id]);
     expect(ids({ sort: "delivered", dir: "asc" })).toEqual([old.id, recent.id]);
     expect(ids({ sort: "next_due", dir: "asc" })).toEqual([old.id, recent.id]);
-    const page2 = listPieces(ctx, { pageSize: "10", page: "2" }, now);
+    const page2 = listPieces(ctx, pieceListQuerySchema.parse({ pageSize: "10", page: "2" }), now);
     expect(page2.total).toBe(2);
     expect(page2.rows).toHaveLength(0);
-    expect(() => listPieces(ctx, { pageSize: "7" })).toThrow();
-    expect(() => listPieces(ctx, { dueBefore: "2026-02-30" })).toThrow();
-    const row = listPieces(ctx, { kind: "bench" }, now).rows[0]!;
+    expect(() => listPieces(ctx, pieceListQuerySchema.parse({ pageSize: "7" }))).toThrow();
+    expect(() => listPieces(ctx, pieceListQuerySchema.parse({ dueBefore: "2026-02-30" }))).toThrow();
+    const row = listPieces(ctx, pieceListQuerySchema.parse({ kind: "bench" }), now).rows[0]!;
     expect(row.nextCare).toMatchObject({ status: "overdue" });
     expect(row.underWarranty).toBe(false);
   });
@@ -276,25 +276,25 @@ describe("registry search", () => {
     const ctx = await memberContext(studio, "staff");
     const made: string[] = [];
     getDb().transaction(() => {
-      for (let i = 0; i < SEARCH_COUNT_CAP + 10; i++) made.push(createPiece(ctx, base({ title: `Quillback stool ${i}`, kind: "other", resinKind: "none", resinPouredOn: null, resinVolumeMl: null, resinTint: null })).piece.id);
+      for (let i = 0; i < SEARCH_COUNT_CAP + 10; i++) made.push(createPiece(ctx, createPieceSchema.parse(base({ title: `Quillback stool ${i}`, kind: "other", resinKind: "none", resinPouredOn: null, resinVolumeMl: null, resinTint: null }))).piece.id);
     });
-    for (let i = 0; i < 130; i++) createPiece(ctx, base({ title: `Fernlight shelf ${i}`, kind: "other", resinKind: "none", resinPouredOn: null, resinVolumeMl: null, resinTint: null }));
+    for (let i = 0; i < 130; i++) createPiece(ctx, createPieceSchema.parse(base({ title: `Fernlight shelf ${i}`, kind: "other", resinKind: "none", resinPouredOn: null, resinVolumeMl: null, resinTint: null })));
     const seen: string[] = [];
     for (let page = 1; page <= 6; page++) {
-      const res = listPieces(ctx, { q: "quillback", pageSize: "100", page: String(page) });
+      const res = listPieces(ctx, pieceListQuerySchema.parse({ q: "quillback", pageSize: "100", page: String(page) }));
       expect(res.total).toBe(SEARCH_COUNT_CAP);
       expect(res.totalIsCapped).toBe(true);
       seen.push(...res.rows.map((r) => r.id));
     }
     // Newest recorded first, every match once, the last page partly full.
     expect(seen).toEqual([...made].reverse());
-    expect(listPieces(ctx, { q: "quillback", pageSize: "100", page: "7" }).rows).toEqual([]);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "quillback", pageSize: "100", page: "7" })).rows).toEqual([]);
     // Under the cap the count is exact on every page, full or not.
     for (const page of ["1", "2"]) {
-      const res = listPieces(ctx, { q: "fernlight", pageSize: "100", page });
+      const res = listPieces(ctx, pieceListQuerySchema.parse({ q: "fernlight", pageSize: "100", page }));
       expect([res.total, res.totalIsCapped, res.rows.length]).toEqual([130, false, page === "1" ? 100 : 30]);
     }
-    expect(listPieces(ctx, { q: "fernlight quillback" }).total).toBe(0);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "fernlight quillback" })).total).toBe(0);
   });
 });
 
@@ -330,7 +330,7 @@ describe("CSV import and export", () => {
     expect(getDb().select().from(pieces).where(eq(pieces.studioId, studio.id)).all().length).toBe(before);
     const done = importPiecesCsv(ctx, { csv: good, commit: true });
     expect(done).toMatchObject({ ok: true, committed: true, created: 2 });
-    const round = listPieces(ctx, { q: "round" }).rows[0]!;
+    const round = listPieces(ctx, pieceListQuerySchema.parse({ q: "round" })).rows[0]!;
     expect(round.primarySpecies).toBe("Black walnut");
     expect(round.finishClasses).toEqual(["epoxy_surface"]);
   });
@@ -346,9 +346,9 @@ describe("CSV import and export", () => {
   it("exports the current filter, neutralising formulas, and the export imports again", async () => {
     const studio = createStudio();
     const ctx = await memberContext(studio, "staff");
-    createPiece(ctx, { ...base({ title: "=HYPERLINK(\"x\") table" }), layers: [{ surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-04-28", productLabel: "Some oil" }] });
-    createPiece(ctx, base({ title: "Desk (invented)", kind: "desk" }));
-    const csv = exportPiecesCsv(ctx, { kind: "dining_table" });
+    createPiece(ctx, createPieceSchema.parse({ ...base({ title: "=HYPERLINK(\"x\") table" }), layers: [{ surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-04-28", productLabel: "Some oil" }] }));
+    createPiece(ctx, createPieceSchema.parse(base({ title: "Desk (invented)", kind: "desk" })));
+    const csv = exportPiecesCsv(ctx, pieceListQuerySchema.parse({ kind: "dining_table" }));
     const lines = csv.trim().split(/\r?\n/);
     expect(lines).toHaveLength(2);
     expect(csv).toContain("'=HYPERLINK");
@@ -357,6 +357,6 @@ describe("CSV import and export", () => {
     const target = await memberContext(createStudio(), "staff");
     const again = importPiecesCsv(target, { csv, commit: true });
     expect(again).toMatchObject({ ok: true, created: 1 });
-    expect(listPieces(target, {}).rows[0]!.title).toBe("=HYPERLINK(\"x\") table");
+    expect(listPieces(target, pieceListQuerySchema.parse({})).rows[0]!.title).toBe("=HYPERLINK(\"x\") table");
   });
 });

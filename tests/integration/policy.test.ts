@@ -9,6 +9,7 @@ import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { claimCoverage } from "@/lib/claims/coverage";
 import { AppError } from "@/lib/errors";
 import { createPiece as registryCreatePiece } from "@/lib/pieces/registry";
+import { createPieceSchema } from "@/lib/validation/pieces";
 import { createPolicyVersion, listPolicyVersions, policyEditorValues, policyInForce } from "@/lib/settings";
 import { blankLine, describePolicyChanges, formToPolicy, policyToForm } from "@/lib/settings/policy";
 import { policyVersionSchema, type PolicyVersionInput } from "@/lib/validation/settings";
@@ -72,7 +73,7 @@ describe("warranty policy versions", () => {
     expect(v1.version).toBe(1);
 
     // Recorded through the registry (lib/pieces), which stamps the version in force at delivery.
-    const { piece } = registryCreatePiece(staff, pieceInput("2025-06-01"));
+    const { piece } = registryCreatePiece(staff, createPieceSchema.parse(pieceInput("2025-06-01")));
     const stamped = getDb().select({ w: pieces.warrantyPolicyId }).from(pieces).where(eq(pieces.id, piece.id)).get()!.w;
     expect(stamped).toBe(v1.id);
     expect(policyInForce(studio.id, "2025-06-01")?.id).toBe(v1.id);
@@ -108,7 +109,7 @@ describe("warranty policy versions", () => {
     getDb().update(pieces).set({ warrantyPolicyId: v1.id }).where(eq(pieces.id, piece.id)).run();
 
     // A piece delivered after the change gets v2.
-    const later = registryCreatePiece(staff, pieceInput("2026-03-15")).piece;
+    const later = registryCreatePiece(staff, createPieceSchema.parse(pieceInput("2026-03-15"))).piece;
     expect(getDb().select({ w: pieces.warrantyPolicyId }).from(pieces).where(eq(pieces.id, later.id)).get()!.w).toBe(v2.id);
 
     const list = listPolicyVersions(admin, new Date("2026-03-02T15:00:00Z"));

@@ -9,6 +9,7 @@ import { getOverview } from "@/lib/overview";
 import { getMyPiece, listMyPieces } from "@/lib/owner/pieces";
 import { releasePiece } from "@/lib/owner/transfer";
 import { createPiece as recordPiece, getPieceDetail, listPieces } from "@/lib/pieces/registry";
+import { createPieceSchema, pieceListQuerySchema } from "@/lib/validation/pieces";
 import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
 
@@ -33,7 +34,7 @@ describe("studio scoping", () => {
     const staffB = await memberContext(b, "staff");
     // Recorded the way staff record a piece, so it is in the search index too.
     const record = (ctx: typeof staffA, title: string) =>
-      recordPiece(ctx, { kind: "console", title, shapeKind: "rectangle", lengthMm: 1800, widthMm: 450, primarySpeciesId: "black_cherry", use: "moderate", deliveredOn: "2025-02-01", layers: [{ surface: "top", finishClass: "paste_wax", coats: 2, appliedOn: "2025-01-30" }] });
+      recordPiece(ctx, createPieceSchema.parse({ kind: "console", title, shapeKind: "rectangle", lengthMm: 1800, widthMm: 450, primarySpeciesId: "black_cherry", use: "moderate", deliveredOn: "2025-02-01", layers: [{ surface: "top", finishClass: "paste_wax", coats: 2, appliedOn: "2025-01-30" }] }));
     const { piece, registrationCode: code } = record(staffA, "Quillfern sideboard (invented)");
     record(staffB, "Studio B bench (invented)");
 
@@ -42,10 +43,10 @@ describe("studio scoping", () => {
 
     // The registry: the plain list, the full-text search, the typed registration code.
     for (const q of ["", "Quillfern", code]) {
-      expect(listPieces(staffA, { q }, NOW).rows.map((r) => r.id)).toContain(piece.id);
-      expect(listPieces(staffB, { q }, NOW).rows.map((r) => r.id)).not.toContain(piece.id);
+      expect(listPieces(staffA, pieceListQuerySchema.parse({ q }), NOW).rows.map((r) => r.id)).toContain(piece.id);
+      expect(listPieces(staffB, pieceListQuerySchema.parse({ q }), NOW).rows.map((r) => r.id)).not.toContain(piece.id);
     }
-    expect(listPieces(staffB, { q: "Quillfern" }, NOW).total).toBe(0);
+    expect(listPieces(staffB, pieceListQuerySchema.parse({ q: "Quillfern" }), NOW).total).toBe(0);
 
     expect(getOverview(staffA, NOW).pieces.delivered).toBe(1);
     expect(getOverview(staffB, NOW).pieces.delivered).toBe(1);
@@ -59,7 +60,7 @@ describe("studio scoping", () => {
     expect(read).not.toContain(piece.registrationCodeHash);
     expect(read).not.toContain(piece.registrationCodeEnc);
     expect(read).not.toContain(code);
-    const listed = JSON.stringify(listPieces(staff, {}, NOW));
+    const listed = JSON.stringify(listPieces(staff, pieceListQuerySchema.parse({}), NOW));
     expect(listed).not.toContain(piece.registrationCodeHash);
     expect(listed).not.toContain(code);
   });

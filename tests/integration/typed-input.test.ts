@@ -148,3 +148,33 @@ describe("reminders: the staff view's query, pause and resend are parsed at the 
     expect((await call(resend, "POST", "/api/reminders/nope/resend", { params: { id: "nope" } })).status).toBe(404);
   });
 });
+
+describe("pieces: the registry query, its CSV export, edits, layers and the CSV import are parsed at the boundary", () => {
+  it("GET /api/pieces and /api/pieces/export.csv: a page size we don't offer and a date that doesn't exist are 400s naming the field", async () => {
+    const { GET: list } = await import("@/app/api/pieces/route");
+    const { GET: exportCsv } = await import("@/app/api/pieces/export.csv/route");
+    await signInMember("staff");
+    const size = await call(list, "GET", "/api/pieces?pageSize=7");
+    expect([size.status, size.json?.error?.fieldErrors]).toEqual([400, { pageSize: ["Page size is 10, 25, 50 or 100."] }]);
+    const due = await call(exportCsv, "GET", "/api/pieces/export.csv?dueBefore=2026-02-30");
+    expect([due.status, Object.keys(due.json?.error?.fieldErrors ?? {})]).toEqual([400, ["dueBefore"]]);
+    // Empty values count as absent, as the registry table's links send them.
+    const ok = await call(list, "GET", "/api/pieces?q=&kind=&pageSize=10");
+    expect([ok.status, (ok.json as { total?: number } | null)?.total]).toEqual([200, 0]);
+  });
+
+  it("PATCH /api/pieces/[id], POST its layers and POST /api/pieces/import: bad fields are 400s before any piece is looked up", async () => {
+    const { PATCH } = await import("@/app/api/pieces/[id]/route");
+    const { POST: addLayerRoute } = await import("@/app/api/pieces/[id]/layers/route");
+    const { POST: importRoute } = await import("@/app/api/pieces/import/route");
+    await signInMember("staff");
+    const params = { id: "no-such-piece" };
+    const patch = await call(PATCH, "PATCH", "/api/pieces/no-such-piece", { body: { kind: "spaceship" }, params });
+    expect([patch.status, Object.keys(patch.json?.error?.fieldErrors ?? {})]).toEqual([400, ["kind"]]);
+    const layer = await call(addLayerRoute, "POST", "/api/pieces/no-such-piece/layers", { body: { surface: "top", finishClass: "hardwax_oil", coats: 0, appliedOn: "2025-01-01" }, params });
+    expect([layer.status, Object.keys(layer.json?.error?.fieldErrors ?? {})]).toEqual([400, ["coats"]]);
+    expect((await call(PATCH, "PATCH", "/api/pieces/no-such-piece", { body: { title: "Fine (invented)" }, params })).status).toBe(404);
+    const empty = await call(importRoute, "POST", "/api/pieces/import", { body: { csv: "", commit: true } });
+    expect([empty.status, empty.json?.error?.fieldErrors]).toEqual([400, { csv: ["The file is empty."] }]);
+  });
+});

@@ -1,9 +1,10 @@
 import { route } from "@/lib/http/route";
 import { exportPiecesCsv } from "@/lib/pieces/csv";
+import { pieceListQuerySchema } from "@/lib/validation/pieces";
 
-/** The registry's current filter (same query string as GET /api/pieces, parsed by lib/pieces) as CSV, every page. */
-export const GET = route({ roles: ["admin", "staff"] }, ({ req, actor }) => {
-  const csv = exportPiecesCsv(actor, Object.fromEntries(req.nextUrl.searchParams));
+/** The registry's current filter (same query string as GET /api/pieces) as CSV, every page. */
+export const GET = route({ roles: ["admin", "staff"], query: pieceListQuerySchema }, ({ actor, query }) => {
+  const csv = exportPiecesCsv(actor, query);
   const day = new Date().toISOString().slice(0, 10);
   return new Response("\uFEFF" + csv, {
     headers: {
