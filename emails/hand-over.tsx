@@ -1,5 +1,6 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { ActionButton, LinkFallback } from "./components/button";
+import { PlanOffers, type PlanOfferLine } from "./components/plan-offers";
 
 export type HandOverEmailProps = {
   name: string;
@@ -21,6 +22,8 @@ export type HandOverEmailProps = {
   url: string;
   /** When the link stops working, written out. */
   linkExpiresOn: string;
+  /** The studio's care plans that fit the piece (lib/plans/offer-lines); none: no plan section. */
+  plans?: PlanOfferLine[];
 };
 
 export function handOverSubject({ pieceTitle, studioName }: Pick<HandOverEmailProps, "pieceTitle" | "studioName">): string {
@@ -69,6 +72,7 @@ export function HandOverEmail(p: HandOverEmailProps) {
       <ActionButton href={p.url}>Register my piece</ActionButton>
       <LinkFallback href={p.url} />
       <Note>The link works once, until {p.linkExpiresOn}. The card in the drawer carries the piece&apos;s registration code too — keep it with the piece for whoever owns it next.</Note>
+      <PlanOffers plans={p.plans ?? []} studioName={p.studioName} howToBuy="Once the piece is registered, you can start a plan from its page in Grainward. Nothing is charged unless you choose one." />
       {p.cautions.length ? (
         <>
           <Paragraph>
@@ -97,6 +101,14 @@ HandOverEmail.PreviewProps = {
   warranty: ["Cracks and splits: 24 months, until 12 November 2028 (passes to a later owner)"],
   url: "https://grainward.example/hand-over/example-token",
   linkExpiresOn: "10 February 2027",
+  plans: [
+    {
+      name: "Oiled top care (invented)",
+      price: "$240.00 a year, including $21.82 tax",
+      includes: ["Re-oil done by the studio, no reminders to act on", "1 studio visit a year", "Crack or gap: covered 12 months longer while the plan runs", "10% off paid repairs"],
+      lastYear: null,
+    },
+  ],
 } satisfies HandOverEmailProps;
 
 export default HandOverEmail;

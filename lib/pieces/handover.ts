@@ -15,6 +15,7 @@ import { sendMail } from "@/lib/mail";
 import { formatDate, formatInstant, formatMonth } from "@/lib/format";
 import { registerPiece } from "@/lib/owner/registration";
 import { warrantyLinesFor } from "@/lib/owner/warranty";
+import { planLinesForMail } from "@/lib/plans/offers";
 import { drawerCardData } from "./card";
 import { openRegistrationCode } from "./registration";
 import { loadPiece } from "./registry";
@@ -138,6 +139,8 @@ async function composeHandover(ctx: StudioContext, piece: Piece, client: Client,
     warranty,
     url,
     linkExpiresOn: formatInstant(expiresAt, client.timeZone ?? ctx.studio.timeZone),
+    // Not registered yet: no care log of theirs, so the plans go without a saving.
+    plans: planLinesForMail(ctx.studio, piece, null, now),
   });
 }
 

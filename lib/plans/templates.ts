@@ -1,6 +1,6 @@
 // Plan templates: versions, the price with the studio's tax, and which pieces a template fits.
 import { and, desc, eq, isNull } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Db } from "@/db/client";
 import { finishLayers, planTemplates, type Piece, type PlanTemplate } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioActor } from "@/lib/auth/actor";
@@ -10,8 +10,8 @@ import { toCarePiece } from "@/lib/pieces/care-inputs";
 import type { PlanTemplateInput } from "./validation";
 
 /** The current version of every template of the studio (withdrawn ones too, for staff), newest first. */
-export function listTemplates(studioId: string): PlanTemplate[] {
-  return getDb().select().from(planTemplates).where(and(eq(planTemplates.studioId, studioId), isNull(planTemplates.supersededAt))).orderBy(desc(planTemplates.createdAt)).all();
+export function listTemplates(studioId: string, db: Db = getDb()): PlanTemplate[] {
+  return db.select().from(planTemplates).where(and(eq(planTemplates.studioId, studioId), isNull(planTemplates.supersededAt))).orderBy(desc(planTemplates.createdAt)).all();
 }
 
 /** One template version of the studio, or a 404. */
@@ -73,7 +73,7 @@ export function fitsPiece(t: Pick<PlanTemplate, "fits">, piece: Piece, finishCla
 }
 
 /** The studio's offered templates that fit the piece. */
-export function templatesFitting(piece: Piece): PlanTemplate[] {
-  const classes = getDb().select({ c: finishLayers.finishClass }).from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).all().map((r) => r.c);
-  return listTemplates(piece.studioId).filter((t) => t.offered && fitsPiece(t, piece, classes));
+export function templatesFitting(piece: Piece, db: Db = getDb()): PlanTemplate[] {
+  const classes = db.select({ c: finishLayers.finishClass }).from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).all().map((r) => r.c);
+  return listTemplates(piece.studioId, db).filter((t) => t.offered && fitsPiece(t, piece, classes));
 }

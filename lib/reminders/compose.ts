@@ -6,6 +6,7 @@ import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import type { ReminderStep, SunExposure, Use } from "@/lib/care/vocabulary";
 import type { SendMailInput } from "@/lib/mail";
 import { CareReminder, type CareReminderProps } from "@/emails/care-reminder";
+import type { PlanOfferLine } from "@/emails/components/plan-offers";
 import { cautionsFor, daysUntil, leadFor, longDate, offerView, quantityText, stepHeadline, subjectFor, SURFACE_WORDS, TASK_STEPS, whyNow } from "./content";
 import { logCareUrl, offerUrl, pieceUrl, preferencesUrl, oneClickUnsubscribeUrl, unsubscribeHeaders } from "./tokens";
 
@@ -20,6 +21,8 @@ export interface ReminderMail {
   studio: { id?: string; name: string; country: string };
   product: CatalogEntry | undefined;
   offer?: { id: string; quote: Quote };
+  /** The care plans that fit the piece, printed under the refresh offer (lib/plans/offers planLinesForMail). */
+  plans?: PlanOfferLine[];
   /** The owner's calendar date when the message goes out (reminders can go out late). */
   ownerToday: string;
 }
@@ -46,7 +49,7 @@ export function reminderProps(m: ReminderMail): CareReminderProps {
     logUrl: logCareUrl(piece.id, task.key),
     preferencesUrl: preferencesUrl(owner.id),
     unsubscribeUrl: oneClickUnsubscribeUrl(owner.id),
-    offer: m.offer ? offerView(m.offer.quote, offerUrl(m.offer.id), owner.unitSystem, m.studio.country) : undefined,
+    offer: m.offer ? { ...offerView(m.offer.quote, offerUrl(m.offer.id), owner.unitSystem, m.studio.country), plans: m.plans } : undefined,
   };
 }
 

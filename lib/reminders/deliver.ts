@@ -3,6 +3,7 @@
 // (staff.ts) leases a failed row the same way and calls it too.
 import type { Db } from "@/db/client";
 import { sendMailNow } from "@/lib/mail";
+import { planLinesForPieceMail } from "@/lib/plans/offers";
 import { composeReminder, type ReminderMail } from "./compose";
 import { passStatements } from "./pass-sql";
 import { MAX_ATTEMPTS, RETRY_BACKOFF_MS } from "./plan";
@@ -28,7 +29,8 @@ export async function deliverLease(
   const s = passStatements(db.$client);
   if (s.handoff.run(nowMs, nowMs, lease.rowId, lease.token).changes === 0) return { kind: "lost" };
   try {
-    const mail = composeReminder(lease);
+    // A refresh offer carries the care plans that fit the piece, with the owner's own last year against each.
+    const mail = composeReminder(lease.offer ? { ...lease, plans: planLinesForPieceMail(lease.piece.id, lease.owner.id, new Date(nowMs), db) } : lease);
     const { messageId } = await sendMailNow(mail);
     s.markSent.run(messageId, nowMs, nowMs, lease.rowId);
     return { kind: "sent", item: { reminderKey: lease.reminderKey, to: lease.owner.email, subject: mail.subject, messageId, offerId: lease.offer?.id } };
