@@ -15,6 +15,8 @@ export type FakeSubscription = {
   customer: string;
   status: "active" | "past_due" | "canceled";
   cancel_at_period_end: boolean;
+  /** A set end (epoch seconds) before the period's end; null when none. */
+  cancel_at: number | null;
   canceled_at: number | null;
   ended_at: number | null;
   cancellation_details: { reason: "cancellation_requested" | "payment_failed" | null };
@@ -40,6 +42,8 @@ export type FakeInvoice = {
   parent: { type: "subscription_details"; subscription_details: { subscription: string; metadata: Record<string, string> } };
   lines: { object: "list"; data: { id: string; amount: number; currency: string; period: { start: number; end: number }; pricing: { price_details: { price: string } } }[] };
   status_transitions: { paid_at: number | null };
+  /** The payment that settled the invoice (a payment intent refunds can name), as current API versions list it. */
+  payments: { object: "list"; data: { id: string; object: "invoice_payment"; amount_paid: number; status: "paid"; payment: { type: "payment_intent"; payment_intent: string } }[] };
   created: number;
   livemode: false;
 };
@@ -51,7 +55,11 @@ export function addInterval(epochSec: number, interval: "year" | "month"): numbe
   return Math.floor(d.getTime() / 1000);
 }
 
-export function createSubscriptionBilling(deps: { id: (prefix: string) => string; now: () => number; emit: (type: string, object: Json) => void; fail: FakeFail }) {
+/**
+ * deps.charge records a captured charge in the fake's charge book and returns its payment intent, so a
+ * paid invoice can be refunded through POST /v1/refunds like any other payment.
+ */
+export function createSubscriptionBilling(deps: { id: (prefix: string) => string; now: () => number; emit: (type: string, object: Json) => void; fail: FakeFail; charge?: (amount: number, currency: string) => string }) {
   const { id, now, emit, fail } = deps;
   const prices = new Map<string, FakePrice>();
   const customers = new Map<string, FakeCustomer>();
@@ -94,30 +102,38 @@ export function createSubscriptionBilling(deps: { id: (prefix: string) => string
     return { currency: p.currency, lines: [{ name: `Plan (${p.recurring.interval}ly)`, unit_amount: p.unit_amount, quantity: 1, price: p.id }] };
   }
 
-  function newInvoice(sub: FakeSubscription, reason: FakeInvoice["billing_reason"], paid: boolean): FakeInvoice {
+  function newInvoice(sub: FakeSubscription, reason: FakeInvoice["billing_reason"], paid: boolean, amount?: number): FakeInvoice {
     const item = sub.items.data[0]!;
     const at = now();
+    const due = amount ?? item.price.unit_amount;
     const inv: FakeInvoice = {
       id: id("in"),
       object: "invoice",
       customer: sub.customer,
       status: paid ? "paid" : "open",
       billing_reason: reason,
-      amount_due: item.price.unit_amount,
-      amount_paid: paid ? item.price.unit_amount : 0,
+      amount_due: due,
+      amount_paid: paid ? due : 0,
       currency: item.price.currency,
       attempt_count: 1,
       period_start: item.current_period_start,
       period_end: item.current_period_end,
       parent: { type: "subscription_details", subscription_details: { subscription: sub.id, metadata: { ...sub.metadata } } },
-      lines: { object: "list", data: [{ id: id("il"), amount: item.price.unit_amount, currency: item.price.currency, period: { start: item.current_period_start, end: item.current_period_end }, pricing: { price_details: { price: item.price.id } } }] },
+      lines: { object: "list", data: [{ id: id("il"), amount: due, currency: item.price.currency, period: { start: item.current_period_start, end: item.current_period_end }, pricing: { price_details: { price: item.price.id } } }] },
       status_transitions: { paid_at: paid ? at : null },
+      payments: { object: "list", data: [] },
       created: at,
       livemode: false,
     };
+    if (paid) markPaid(inv);
     invoices.set(inv.id, inv);
     sub.latest_invoice = inv.id;
     return inv;
+  }
+
+  function markPaid(inv: FakeInvoice) {
+    const pi = deps.charge?.(inv.amount_paid, inv.currency);
+    if (pi) inv.payments.data.push({ id: id("inpay"), object: "invoice_payment", amount_paid: inv.amount_paid, status: "paid", payment: { type: "payment_intent", payment_intent: pi } });
   }
 
   /** A subscription-mode session was paid: the customer, the subscription and its first invoice. */
@@ -131,6 +147,7 @@ export function createSubscriptionBilling(deps: { id: (prefix: string) => string
       customer,
       status: "active",
       cancel_at_period_end: false,
+      cancel_at: null,
       canceled_at: null,
       ended_at: null,
       cancellation_details: { reason: null },
@@ -168,24 +185,50 @@ export function createSubscriptionBilling(deps: { id: (prefix: string) => string
       sub.cancel_at_period_end = flag === "true";
       sub.canceled_at = sub.cancel_at_period_end ? now() : null;
       sub.cancellation_details = { reason: sub.cancel_at_period_end ? "cancellation_requested" : null };
+      if (sub.cancel_at_period_end) sub.cancel_at = null;
+    }
+    const at = params.cancel_at;
+    if (at !== undefined) {
+      // As Stripe: an end date before the period's end; "" clears it (the plan renews again).
+      if (at === "") {
+        sub.cancel_at = null;
+        if (!sub.cancel_at_period_end) {
+          sub.canceled_at = null;
+          sub.cancellation_details = { reason: null };
+        }
+      } else {
+        const when = Number(str(at));
+        const periodEnd = sub.items.data[0]!.current_period_end;
+        if (!Number.isInteger(when) || when <= now() || when > periodEnd) fail(400, "cancel_at must be a time in the future, no later than the current period's end.", "cancel_at");
+        sub.cancel_at_period_end = when === periodEnd;
+        sub.cancel_at = when === periodEnd ? null : when;
+        sub.canceled_at = now();
+        sub.cancellation_details = { reason: "cancellation_requested" };
+      }
     }
     if (params.metadata) sub.metadata = { ...sub.metadata, ...meta(params.metadata) };
     emit("customer.subscription.updated", snapshot(sub));
     return sub;
   }
 
-  /** Test knob: the period ends. Paid → a new period and a paid invoice; failed → a new period, an open invoice, past_due; cancel at period end → canceled. */
-  function renew(sub: FakeSubscription, outcome: string) {
+  /**
+   * Test knob: the period ends. Paid → a new period and a paid invoice; failed → a new period, an open
+   * invoice, past_due; cancel at period end (or at a set end) → canceled then. `amount` bills another
+   * amount than the price (as an edited price or a coupon would), to test what the app accepts.
+   */
+  function renew(sub: FakeSubscription, outcome: string, amount?: string) {
     if (sub.status === "canceled") fail(400, "This subscription has ended.", "id");
     const item = sub.items.data[0]!;
-    if (sub.cancel_at_period_end) {
-      end(sub, "cancellation_requested", item.current_period_end);
+    if (sub.cancel_at_period_end || sub.cancel_at) {
+      end(sub, "cancellation_requested", sub.cancel_at ?? item.current_period_end);
       return;
     }
     if (outcome !== "pay" && outcome !== "fail") fail(400, "outcome must be pay or fail.", "outcome");
+    const billed = amount === undefined ? undefined : Number(amount);
+    if (billed !== undefined && (!Number.isInteger(billed) || billed <= 0)) fail(400, "amount must be a whole number above 0.", "amount");
     item.current_period_start = item.current_period_end;
     item.current_period_end = addInterval(item.current_period_start, item.price.recurring.interval);
-    const inv = newInvoice(sub, "subscription_cycle", outcome === "pay");
+    const inv = newInvoice(sub, "subscription_cycle", outcome === "pay", billed);
     sub.status = outcome === "pay" ? "active" : "past_due";
     emit(outcome === "pay" ? "invoice.paid" : "invoice.payment_failed", snapshot(inv));
     emit("customer.subscription.updated", snapshot(sub));
@@ -199,6 +242,7 @@ export function createSubscriptionBilling(deps: { id: (prefix: string) => string
     inv.amount_paid = inv.amount_due;
     inv.attempt_count += 1;
     inv.status_transitions.paid_at = now();
+    markPaid(inv);
     sub.status = "active";
     emit("invoice.paid", snapshot(inv));
     emit("customer.subscription.updated", snapshot(sub));
@@ -235,7 +279,7 @@ export function createSubscriptionBilling(deps: { id: (prefix: string) => string
     const [resource, subId, action] = path;
     if (resource !== "subscriptions" || !subId) fail(404, "Unknown test knob.");
     const sub = subscription(subId!);
-    if (action === "renew") renew(sub, str(params.outcome) ?? "pay");
+    if (action === "renew") renew(sub, str(params.outcome) ?? "pay", str(params.amount));
     else if (action === "settle") settle(sub);
     else if (action === "lapse") lapse(sub);
     else fail(404, "Unknown test knob.");

@@ -213,6 +213,12 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     fail: (status, message, param) => {
       throw new StripeError(status, "invalid_request_error", message, param, status === 404 ? "resource_missing" : undefined);
     },
+    // A paid subscription invoice is a captured charge like a Checkout payment, so it can be refunded.
+    charge: (amount, currency) => {
+      const pi = id("pi");
+      charges.set(pi, { id: id("ch"), payment_intent: pi, amount, amount_refunded: 0, currency });
+      return pi;
+    },
   });
 
   function createSession(params: Json): FakeSession {

@@ -5,6 +5,7 @@ import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { planInvoices, planSubscriptions, pieces, studios, stripeEvents, users, type PlanSubscription } from "@/db/schema";
 import { PlanGraceEmail, planGraceSubject } from "@/emails/plan-grace";
+import { recordAudit } from "@/lib/audit";
 import { env } from "@/lib/env";
 import { badRequest } from "@/lib/errors";
 import { formatInstant } from "@/lib/format/dates";
@@ -20,10 +21,12 @@ const PLAN_EVENTS = new Set(["customer.subscription.created", "customer.subscrip
 const STRIPE = { actorId: null, source: "stripe" } as const;
 const DAY_MS = 86_400_000;
 
-// One sync per Stripe subscription at a time in this process: each reads Stripe after the one before
-// it has written, so an older answer can never be written over a newer one.
+// One sync (or staff/owner cancellation) per plan at a time in this process: each reads Stripe after
+// the one before it has written, so an older answer can never be written over a newer one. Across
+// processes the plan's version column (moveSubscription) and the one refund claim per plan hold.
 const queues = new Map<string, Promise<unknown>>();
-function serial<T>(key: string, fn: () => Promise<T>): Promise<T> {
+/** Runs `fn` after every earlier call with the same key (a Stripe subscription id, or the plan's id when it has none) has settled. */
+export function withPlanLock<T>(key: string, fn: () => Promise<T>): Promise<T> {
   const run = (queues.get(key) ?? Promise.resolve()).then(fn, fn);
   const settled = run.catch(() => undefined);
   queues.set(key, settled);
@@ -40,7 +43,7 @@ function stateOf(s: Stripe.Subscription): PlanState {
   switch (s.status) {
     case "active":
     case "trialing":
-      return s.cancel_at_period_end ? "ending" : "running";
+      return s.cancel_at_period_end || s.cancel_at ? "ending" : "running";
     case "past_due":
     case "unpaid":
       return "grace";
@@ -62,11 +65,22 @@ function findRow(s: Stripe.Subscription): PlanSubscription | undefined {
   return db.select().from(planSubscriptions).where(and(eq(planSubscriptions.id, planSubscriptionId), eq(planSubscriptions.studioId, studioId))).get();
 }
 
-/** Writes one Stripe invoice of the plan: paid or failed, and whether it counts (the plan's amount and template version). */
+/** Whether a paid invoice is the plan's: the amount, currency and template version it was bought at. */
+function matchesPlan(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
+  const meta = inv.parent?.subscription_details?.metadata ?? {};
+  return inv.amount_paid === sub.amountMinor && meta.templateId === sub.templateId && inv.currency.toUpperCase() === sub.currency.toUpperCase();
+}
+
+/** A paid invoice that isn't the plan's price: not accepted as a payment of the plan; held for staff. */
+const isHeld = (sub: PlanSubscription, inv: Stripe.Invoice | null) => inv?.status === "paid" && !matchesPlan(sub, inv);
+
+/**
+ * Writes one Stripe invoice of the plan: paid or failed, and whether it counts (the plan's amount and
+ * template version). A paid invoice that doesn't count is audited once, when first written, for staff.
+ */
 function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
   const paid = inv.status === "paid";
-  const meta = inv.parent?.subscription_details?.metadata ?? {};
-  const counts = paid && inv.amount_paid === sub.amountMinor && meta.templateId === sub.templateId && inv.currency.toUpperCase() === sub.currency.toUpperCase();
+  const counts = paid && matchesPlan(sub, inv);
   const template = templateOf(sub.studioId, sub.templateId);
   const studio = getDb().select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
   const price = planPrice(studio, template);
@@ -84,11 +98,17 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
     periodEnd: ms(inv.lines?.data?.[0]?.period?.end ?? inv.period_end),
     at: ms(inv.status_transitions?.paid_at ?? inv.created)!,
   };
-  getDb()
-    .insert(planInvoices)
-    .values(values)
-    .onConflictDoUpdate({ target: planInvoices.stripeInvoiceId, set: { status: values.status, amountMinor: values.amountMinor, taxMinor, counts, at: values.at } })
-    .run();
+  getDb().transaction((tx) => {
+    const before = tx.select({ counts: planInvoices.counts, status: planInvoices.status }).from(planInvoices).where(eq(planInvoices.stripeInvoiceId, inv.id!)).get();
+    tx.insert(planInvoices)
+      .values(values)
+      .onConflictDoUpdate({ target: planInvoices.stripeInvoiceId, set: { status: values.status, amountMinor: values.amountMinor, taxMinor, counts, at: values.at } })
+      .run();
+    if (paid && !counts && !(before?.status === "paid" && !before.counts)) {
+      const data = { stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, expectedMinor: sub.amountMinor, currency: values.currency, templateId: inv.parent?.subscription_details?.metadata?.templateId ?? null };
+      recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_held", subjectType: "plan_subscription", subjectId: sub.id, data });
+    }
+  });
 }
 
 /**
@@ -96,26 +116,33 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
  * plan's state and period, the invoice, and the grace mail when the plan has just entered grace.
  */
 export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: string): Promise<PlanSubscription | null> {
-  return serial(stripeSubscriptionId, async () => {
+  return withPlanLock(stripeSubscriptionId, async () => {
     const s = await callStripe("read the plan's subscription", (stripe) => stripe.subscriptions.retrieve(stripeSubscriptionId));
     const row = findRow(s);
     if (!row) return null;
     const invoice = invoiceId ? await callStripe("read the plan's invoice", (stripe) => stripe.invoices.retrieve(invoiceId)) : null;
-    const overdue = stateOf(s) === "grace" && s.latest_invoice ? await callStripe("read the overdue invoice", (stripe) => stripe.invoices.retrieve(typeof s.latest_invoice === "string" ? s.latest_invoice : s.latest_invoice!.id!)) : null;
+    const latestId = typeof s.latest_invoice === "string" ? s.latest_invoice : (s.latest_invoice?.id ?? null);
+    const latest = latestId ? (latestId === invoice?.id ? invoice : await callStripe("read the plan's latest invoice", (stripe) => stripe.invoices.retrieve(latestId))) : null;
+    const stripeState = stateOf(s);
+    const overdue = stripeState === "grace" ? latest : null;
+    // The latest invoice paid at an amount that isn't the plan's is not a renewal: the plan keeps the
+    // period (and state) it had, and the payment is held for staff (recordInvoice audits it).
+    const held = isHeld(row, latest);
     const item = s.items.data[0];
-    const target = stateOf(s);
     const db = getDb();
     const { before, after } = db.transaction((tx) => {
       const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, row.id)).get()!;
+      const target: PlanState = held && stripeState === "running" ? fresh.state : stripeState;
       const set: Partial<PlanSubscription> = {
         stripeSubscriptionId: s.id,
         stripeCustomerId: typeof s.customer === "string" ? s.customer : s.customer.id,
-        periodStart: ms(item?.current_period_start),
-        periodEnd: ms(item?.current_period_end),
+        ...(held ? {} : { periodStart: ms(item?.current_period_start), periodEnd: ms(item?.current_period_end) }),
       };
+      if (target === "ending") set.endsAt = ms(s.cancel_at) ?? (held ? fresh.periodEnd : ms(item?.current_period_end));
+      if (target === "running") set.endsAt = null;
       if (target === "lapsed") set.lapsedAt = ms(s.ended_at ?? s.canceled_at);
       if (target === "ended") set.endedAt = ms(s.ended_at ?? s.canceled_at);
-      if (target === "grace") set.graceEndsAt = new Date((overdue?.created ?? Math.floor(Date.now() / 1000)) * 1000 + PLAN_GRACE_DAYS * DAY_MS);
+      if (target === "grace" && stripeState === "grace") set.graceEndsAt = new Date((overdue?.created ?? Math.floor(Date.now() / 1000)) * 1000 + PLAN_GRACE_DAYS * DAY_MS);
       if (target === "running" || target === "ending") set.graceEndsAt = null;
       if (!fresh.startedAt && target !== "awaiting_payment") set.startedAt = ms(s.start_date);
       // A final plan stays as it is: Stripe can't bring back a lapsed or ended plan.
@@ -123,6 +150,7 @@ export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: s
       return { before: fresh, after: moveSubscription(tx, fresh, target, set, STRIPE) };
     });
     if (invoice) recordInvoice(after, invoice);
+    if (latest && latest.id !== invoice?.id && latest.status === "paid") recordInvoice(after, latest);
     if (before.state !== "grace" && after.state === "grace") await mailGrace(after);
     return after;
   });

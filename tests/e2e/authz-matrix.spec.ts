@@ -441,7 +441,12 @@ const ROUTES: RouteRow[] = [
   { route: "PUT /api/plans/[id]", expect: "401 403 403 403 403 400 403 400", send: ({ api }) => api.put("/api/plans/missing", { data: {} }) },
   { route: "POST /api/plans/checkout", expect: "401 404 404 404 404 404 404 404", send: ({ api }) => api.post("/api/plans/checkout", { data: { pieceId: X.ownerPieceId, templateId: "missing" } }) },
   { route: "POST /api/plans/subscriptions", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions", { data: { pieceId: X.ownerPieceId, templateId: "missing", paidByNote: "Matrix check" } }) },
-  { route: "POST /api/plans/subscriptions/[id]/cancel", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/cancel") },
+  { route: "GET /api/plans/subscriptions/[id]", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.get("/api/plans/subscriptions/missing") },
+  { route: "POST /api/plans/subscriptions/[id]/cancel", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/cancel", { data: { version: 0, refundMinor: 0 } }) },
+  { route: "POST /api/plans/subscriptions/[id]/keep", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/keep", { data: { version: 0 } }) },
+  // An owner's own plan: every signed-in person acts as an owner here; a plan that isn't theirs is a 404.
+  { route: "POST /api/me/plans/[id]/cancel", expect: "401 404 404 404 404 404 404 404", send: ({ api }) => api.post("/api/me/plans/missing/cancel", { data: { version: 0, refundMinor: 0 } }) },
+  { route: "POST /api/me/plans/[id]/keep", expect: "401 404 404 404 404 404 404 404", send: ({ api }) => api.post("/api/me/plans/missing/keep", { data: { version: 0 } }) },
 
   // Reminders (staff). The reminder was sent, so resending is a 409; pausing sets the value it already has.
   { route: "GET /api/reminders", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/reminders") },

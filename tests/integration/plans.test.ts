@@ -232,7 +232,7 @@ describe("buying and running a plan through the Stripe fake", () => {
   it("cancel at period end: ending until the period is over, then ended", async () => {
     const { admin, owner, piece, plan } = await setup();
     const sub = await buy(owner, piece, plan.id);
-    const ending = await cancelPlanAtPeriodEnd(admin, sub.id);
+    const ending = await cancelPlanAtPeriodEnd(admin, sub.id, { version: subRow(sub.id).version, refundMinor: 0 });
     expect(ending.state).toBe("ending");
     expect(livePlanOfPiece(piece.id)?.sub.id).toBe(sub.id);
     await knob(sub.stripeSubscriptionId!, "renew", "outcome=pay");
@@ -242,7 +242,7 @@ describe("buying and running a plan through the Stripe fake", () => {
     expect(getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).all()).toHaveLength(1);
     // Another studio's staff can't cancel it.
     const other = await memberContext(createStudio({ email: `${unique("s")}@test.example` }), "admin");
-    await expect(cancelPlanAtPeriodEnd(other, sub.id)).rejects.toMatchObject({ status: 404 });
+    await expect(cancelPlanAtPeriodEnd(other, sub.id, { version: sub.version, refundMinor: 0 })).rejects.toMatchObject({ status: 404 });
   });
 
   it("replayed and out-of-order events leave one state", async () => {

@@ -1,8 +1,7 @@
-import { z } from "zod";
 import { route } from "@/lib/http/route";
-import { cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
+import { cancelAskSchema, cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
+import { idParam } from "@/lib/validation/pieces";
 
-const params = z.object({ id: z.string().min(1).max(64) });
-
-// Staff cancel a plan: it runs to the end of the period already paid.
-export const POST = route({ roles: ["admin", "staff"], params }, async ({ actor, params }) => ({ subscription: await cancelPlanAtPeriodEnd(actor, params.id) }));
+// Staff cancel a plan: POST { version, refundMinor } — the plan version and refund they were shown
+// (GET /api/plans/subscriptions/[id]); 409 when either has changed. The refund follows the template's rule.
+export const POST = route({ roles: ["admin", "staff"], params: idParam, body: cancelAskSchema, bodyLimit: 1024 }, async ({ actor, params, body }) => ({ subscription: await cancelPlanAtPeriodEnd(actor, params.id, body) }));

@@ -1,0 +1,211 @@
+// Money back when a plan ends early, by the studio's refund rule on the plan's template version:
+//  - "none": a cancelled plan runs to the end of the period paid; nothing is paid back.
+//  - "unused_share": a cancelled plan runs to the end of the plan month in progress (that month counts
+//    as used); the whole months left of the period paid are paid back, pro rata.
+// Two rules on purpose: each can be said to an owner in one sentence before they confirm, and each
+// gives one end date and one amount; a monthly plan never has whole months left, so it never refunds.
+// The refund is claimed (a plan_refunds row) in the transaction that checks the plan's version, then
+// paid through Stripe with an idempotency key, audited, and mailed to the owner after commit.
+import { and, desc, eq, isNotNull } from "drizzle-orm";
+import { getDb, type Db } from "@/db/client";
+import { planInvoices, planRefunds, pieces, studios, users, type PlanRefund, type PlanSubscription, type PlanTemplate } from "@/db/schema";
+import { PlanEndedEmail, planEndedSubject } from "@/emails/plan-ended";
+import { recordAudit } from "@/lib/audit";
+import { conflict } from "@/lib/errors";
+import { formatInstant, formatZone } from "@/lib/format/dates";
+import { formatMoney } from "@/lib/format/money";
+import { sendMail } from "@/lib/mail";
+import { mailAfterCommit } from "@/lib/mail/after-commit";
+import { callStripe } from "@/lib/payments/stripe";
+import { addPeriod } from "./periods";
+import { pieceUrl } from "./subscriptions";
+import { templateOf } from "./templates";
+import type { PlanRefundRule } from "./terms";
+
+type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+
+export type RefundQuote = {
+  rule: PlanRefundRule;
+  /** When the plan stops covering. */
+  endsAt: Date;
+  /** Whole months of the period paid left after the plan ends, and the months the period has. */
+  months: number;
+  monthsInPeriod: number;
+  refundMinor: number;
+  currency: string;
+};
+
+/** The months a plan's period has: 12 for a yearly plan, 1 for a monthly one. */
+const monthsIn = (t: Pick<PlanTemplate, "interval">) => (t.interval === "year" ? 12 : 1);
+
+/**
+ * What ending `sub` at `at` gives: its end date and the refund by its template's rule. `endsNow` (the
+ * piece changed hands) ends it at `at`; a cancellation ends it by the rule. Only a paid period refunds:
+ * a plan in grace (its renewal unpaid) or paid for no period gets nothing back.
+ */
+export function refundQuote(sub: PlanSubscription, template: Pick<PlanTemplate, "interval" | "refundRule">, at: Date, endsNow = false): RefundQuote {
+  const monthsInPeriod = monthsIn(template);
+  const base = {
+    rule: template.refundRule,
+    monthsInPeriod,
+    currency: sub.currency,
+  };
+  const { periodStart, periodEnd } = sub;
+  if (!periodStart || !periodEnd || periodEnd <= at)
+    return {
+      ...base,
+      endsAt: endsNow || !periodEnd ? at : periodEnd,
+      months: 0,
+      refundMinor: 0,
+    };
+  if (template.refundRule === "none" || sub.state === "grace")
+    return {
+      ...base,
+      endsAt: endsNow ? at : periodEnd,
+      months: 0,
+      refundMinor: 0,
+    };
+  // The plan month in progress: the first month boundary after `at` (counted from the period's start).
+  let k = 1;
+  while (k < monthsInPeriod && addPeriod(periodStart, "month", k) <= at) k++;
+  const monthEnd = k >= monthsInPeriod ? periodEnd : addPeriod(periodStart, "month", k);
+  const months = monthsInPeriod - k;
+  // Pro rata by whole months, rounded down to the minor unit (common practice, no published source).
+  const refundMinor = Math.floor((sub.amountMinor * months) / monthsInPeriod);
+  return { ...base, endsAt: endsNow ? at : monthEnd, months, refundMinor };
+}
+
+/** The refund of a plan, if one was claimed. */
+export function refundOf(subscriptionId: string, db: Db | Tx = getDb()): PlanRefund | undefined {
+  return db.select().from(planRefunds).where(eq(planRefunds.subscriptionId, subscriptionId)).get();
+}
+
+/**
+ * Claims the refund inside the caller's transaction (the one that checked the plan's version and moved
+ * it): one per plan — a second claim, from a cancellation racing this one, is a 409 and moves no money.
+ * A plan paid by other means is recorded as the studio's to pay back.
+ */
+export function claimRefund(tx: Tx, sub: PlanSubscription, quote: RefundQuote, reason: PlanRefund["reason"], actorId: string | null): PlanRefund | null {
+  if (quote.refundMinor <= 0) return null;
+  if (refundOf(sub.id, tx)) throw conflict("This plan has already been refunded.");
+  const row = tx
+    .insert(planRefunds)
+    .values({
+      studioId: sub.studioId,
+      subscriptionId: sub.id,
+      subscriptionVersion: sub.version,
+      amountMinor: quote.refundMinor,
+      currency: quote.currency,
+      months: quote.months,
+      reason,
+      status: sub.paidBy === "card" ? "requested" : "other_means",
+      requestedById: actorId,
+    })
+    .returning()
+    .get();
+  recordAudit(tx, {
+    studioId: sub.studioId,
+    actorId,
+    action: "plan.refund_claimed",
+    subjectType: "plan_subscription",
+    subjectId: sub.id,
+    data: {
+      refundId: row.id,
+      amountMinor: row.amountMinor,
+      months: row.months,
+      of: quote.monthsInPeriod,
+      rule: quote.rule,
+      reason,
+      version: sub.version,
+    },
+  });
+  return row;
+}
+
+/** The payment intent that paid the plan's current period (its latest counted Stripe invoice). */
+async function paymentOfPeriod(sub: PlanSubscription): Promise<string> {
+  const inv = getDb()
+    .select()
+    .from(planInvoices)
+    .where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.status, "paid"), eq(planInvoices.counts, true), isNotNull(planInvoices.stripeInvoiceId)))
+    .orderBy(desc(planInvoices.at))
+    .get();
+  if (!inv?.stripeInvoiceId) throw conflict("No card payment of this plan was found to refund. Refund it by other means.");
+  const invoice = await callStripe("read the plan's payment", (s) => s.invoices.retrieve(inv.stripeInvoiceId!, { expand: ["payments"] }));
+  const pi = invoice.payments?.data?.[0]?.payment?.payment_intent;
+  const id = typeof pi === "string" ? pi : pi?.id;
+  if (!id) throw conflict("The plan's payment can't be refunded by card. Refund it by other means.");
+  return id;
+}
+
+/**
+ * Pays a claimed refund through Stripe (idempotent: the key is the claim's id, so a retry can't pay
+ * twice), marks it refunded and audits it. A refund already paid, or owed by other means, is returned as is.
+ */
+export async function payRefund(refund: PlanRefund, sub: PlanSubscription): Promise<PlanRefund> {
+  if (refund.status !== "requested") return refund;
+  const paymentIntent = await paymentOfPeriod(sub);
+  const r = await callStripe("pay the refund", (s) =>
+    s.refunds.create(
+      {
+        payment_intent: paymentIntent,
+        amount: refund.amountMinor,
+        metadata: { planSubscriptionId: sub.id, planRefundId: refund.id },
+      },
+      { idempotencyKey: `plan-refund-${refund.id}` },
+    ),
+  );
+  return getDb().transaction((tx) => {
+    const done = tx
+      .update(planRefunds)
+      .set({ status: "refunded", stripeRefundId: r.id, refundedAt: new Date() })
+      .where(and(eq(planRefunds.id, refund.id), eq(planRefunds.status, "requested")))
+      .returning()
+      .get();
+    if (!done) return refundOf(sub.id, tx)!;
+    recordAudit(tx, {
+      studioId: sub.studioId,
+      actorId: null,
+      action: "plan.refunded",
+      subjectType: "plan_subscription",
+      subjectId: sub.id,
+      data: {
+        refundId: done.id,
+        stripeRefundId: r.id,
+        amountMinor: done.amountMinor,
+      },
+    });
+    return done;
+  });
+}
+
+/** Mails the owner, after the change is committed, when their plan ends and what (if anything) comes back. */
+export async function mailPlanEnding(sub: PlanSubscription, quote: RefundQuote, refund: PlanRefund | null, reason: PlanRefund["reason"]): Promise<void> {
+  await mailAfterCommit("plan ending", async () => {
+    const db = getDb();
+    const owner = sub.ownerId ? db.select().from(users).where(eq(users.id, sub.ownerId)).get() : undefined;
+    if (!owner) return;
+    const piece = db.select().from(pieces).where(eq(pieces.id, sub.pieceId)).get()!;
+    const studio = db.select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
+    const zone = owner.timeZone || studio.timeZone;
+    const template = templateOf(sub.studioId, sub.templateId);
+    const props = {
+      ownerName: owner.name,
+      studioName: studio.name,
+      planName: template.name,
+      pieceTitle: piece.title,
+      reason,
+      endsOn: `${formatInstant(quote.endsAt, zone)} (${formatZone(zone)})`,
+      refund: refund ? formatMoney(refund.amountMinor, refund.currency, studio.country) : null,
+      refundByOtherMeans: refund?.status === "other_means",
+      months: quote.months,
+      url: pieceUrl(piece.id),
+    };
+    await sendMail({
+      studioId: sub.studioId,
+      to: owner.email,
+      subject: planEndedSubject(props),
+      email: PlanEndedEmail(props),
+    });
+  });
+}
