@@ -13,7 +13,7 @@ import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, FINISH_CLASSES, RESIN_KINDS, RES
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import { notFound } from "@/lib/errors";
 import { careLoggedAfter, monthStart, REMINDER_STEP_LABELS, WINDOW_MONTHS } from "@/lib/overview";
-import { claimRatesQuerySchema, reportListQuerySchema, type ClaimRatesQuery, type ReportListQuery } from "./query";
+import type { ClaimRatesQuery, ReportListQuery } from "./query";
 
 function assertStaff(ctx: StudioContext) {
   assertRole(ctx, STAFF_ROLES, "Reports are for the studio's admins and staff.");
@@ -41,9 +41,8 @@ export function per100(claimCount: number, pieceCount: number): number | null {
  * or before `to`, grouped by the piece's primary species, by each finish class in its stack (a piece
  * with oil under a topcoat counts in both) and by its resin. Archived pieces are left out of both.
  */
-export function claimRates(ctx: StudioContext, raw: unknown, now: Date = new Date()): ClaimRates {
+export function claimRates(ctx: StudioContext, q: ClaimRatesQuery, now: Date = new Date()): ClaimRates {
   assertStaff(ctx);
-  const q: ClaimRatesQuery = claimRatesQuerySchema.parse(raw ?? {});
   const tz = ctx.studio.timeZone;
   const today = localDate(now, tz);
   const to = q.to ?? today;
@@ -106,8 +105,8 @@ export function claimRates(ctx: StudioContext, raw: unknown, now: Date = new Dat
 }
 
 /** The same figures as CSV (papaparse), one row per group, with the period on every row. */
-export function claimRatesCsv(ctx: StudioContext, raw: unknown, now: Date = new Date()): { csv: string; rates: ClaimRates } {
-  const r = claimRates(ctx, raw, now);
+export function claimRatesCsv(ctx: StudioContext, q: ClaimRatesQuery, now: Date = new Date()): { csv: string; rates: ClaimRates } {
+  const r = claimRates(ctx, q, now);
   const category = r.category === "all" ? "all" : CLAIM_CATEGORY_LABELS[r.category];
   const data = [
     ...r.bySpecies.map((x) => ["species", x]),
@@ -140,9 +139,8 @@ export type ReportListResult =
   | { list: "revenue"; since: string; rows: RevenueRow[] }
   | { list: "answers"; since: string; rows: AnswerRow[] };
 
-export function reportList(ctx: StudioContext, list: string, raw: unknown, now: Date = new Date()): ReportListResult {
+export function reportList(ctx: StudioContext, list: string, q: ReportListQuery, now: Date = new Date()): ReportListResult {
   assertStaff(ctx);
-  const q: ReportListQuery = reportListQuerySchema.parse(raw ?? {});
   const { since, sinceMs } = windowStart(ctx, now);
   const tz = ctx.studio.timeZone;
   const db = getDb();

@@ -4,7 +4,7 @@ import { z } from "zod";
 import { CLAIM_CATEGORIES, REMINDER_STEPS } from "@/lib/care/vocabulary";
 import { filterDate } from "@/lib/validation/dates";
 
-const dropEmpty = (raw: unknown) => (raw && typeof raw === "object" ? Object.fromEntries(Object.entries(raw).filter(([, v]) => v !== "" && v != null)) : raw);
+const dropEmpty = (query: unknown) => (query && typeof query === "object" ? Object.fromEntries(Object.entries(query).filter(([, v]) => v !== "" && v != null)) : query);
 
 export const claimRatesQuerySchema = z.preprocess(
   dropEmpty,

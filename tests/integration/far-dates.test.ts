@@ -7,6 +7,7 @@ import { listMyPieces } from "@/lib/owner/pieces";
 import { listUpcoming } from "@/lib/reminders/staff";
 import { remindersQuerySchema } from "@/lib/validation/reminders";
 import { claimRatesCsv } from "@/lib/reports";
+import { claimRatesQuerySchema } from "@/lib/reports/query";
 import { listAudit } from "@/lib/studio/audit";
 import { auditQuerySchema } from "@/lib/studio/audit-query";
 import { calendarWeek } from "@/lib/visits/list";
@@ -30,7 +31,7 @@ describe("far dates already in the database", () => {
     const mine = listMyPieces({ id: owner.id, timeZone: "UTC", unitSystem: "metric" } as never, NOW);
     expect(mine.map((p) => p.id).sort()).toEqual([far.id, old.id, normal.id].sort());
     expect(Array.isArray(listUpcoming(staff, remindersQuerySchema.parse({}), NOW))).toBe(true);
-    expect(claimRatesCsv(staff, {}, NOW).csv).toContain("species");
+    expect(claimRatesCsv(staff, claimRatesQuerySchema.parse({}), NOW).csv).toContain("species");
     expect(listAudit(staff, auditQuerySchema.parse({})).rows.length).toBeGreaterThanOrEqual(0);
     expect(technicianDay(staff, { date: "9999-12-31" }, NOW.getTime()).date).not.toBe("9999-12-31");
     expect(calendarWeek(staff, "9999-12-31", NOW.getTime()).monday < "2100-01-01").toBe(true);

@@ -9,6 +9,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import type { ClaimCategory } from "@/lib/care/vocabulary";
 import { AppError } from "@/lib/errors";
 import { claimRates, claimRatesCsv, per100, reportList } from "@/lib/reports";
+import { claimRatesQuerySchema, reportListQuerySchema } from "@/lib/reports/query";
 import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
 
 const NOW = new Date("2026-07-20T16:00:00Z");
@@ -48,7 +49,7 @@ const byKey = (rows: { key: string; pieces: number; claims: number; per100: numb
 
 describe("claims per 100 pieces", () => {
   it("by species, finish class and resin (hand-counted)", () => {
-    const r = claimRates(staff, PERIOD, NOW);
+    const r = claimRates(staff, claimRatesQuerySchema.parse(PERIOD), NOW);
     // Pieces delivered by 2026-06-30, not archived: A1 A2 A3 A6 = 4. Claims in the period on them: K1 K2 K4 = 3.
     expect([r.totalPieces, r.totalClaims]).toEqual([4, 3]);
     // Walnut A1 A2: 2 claims / 2 pieces = 100.0; white oak A3 A6: 1 / 2 = 50.0.
@@ -61,14 +62,14 @@ describe("claims per 100 pieces", () => {
   });
 
   it("one kind of claim only", () => {
-    const r = claimRates(staff, { ...PERIOD, category: "crack_gap" }, NOW);
+    const r = claimRates(staff, claimRatesQuerySchema.parse({ ...PERIOD, category: "crack_gap" }), NOW);
     // Only K2 (K3 before the period, K6 archived): walnut 1 / 2 = 50.0, white oak 0 / 2 = 0.
     expect(byKey(r.bySpecies)).toEqual({ black_walnut: [2, 1, 50], white_oak: [2, 0, 0] });
     expect(r.totalClaims).toBe(1);
   });
 
   it("defaults to the 365 days up to today", () => {
-    const r = claimRates(staff, {}, NOW);
+    const r = claimRates(staff, claimRatesQuerySchema.parse({}), NOW);
     expect([r.from, r.to]).toEqual(["2025-07-21", "2026-07-20"]);
     // A4 is delivered by 07-20 now; K3 (2025-12-31), K4 and K5 fall in: walnut 3 claims on 2, oak 2 on 3 (A3 A4 A6).
     expect(byKey(r.bySpecies).white_oak).toEqual([3, 2, 66.7]);
@@ -76,7 +77,7 @@ describe("claims per 100 pieces", () => {
   });
 
   it("exports the same figures as CSV", () => {
-    const { csv } = claimRatesCsv(staff, PERIOD, NOW);
+    const { csv } = claimRatesCsv(staff, claimRatesQuerySchema.parse(PERIOD), NOW);
     const parsed = Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
     expect(parsed.meta.fields).toEqual(["dimension", "group", "pieces", "claims", "claims_per_100_pieces", "from", "to", "claim_kind"]);
@@ -85,18 +86,18 @@ describe("claims per 100 pieces", () => {
   });
 
   it("refuses a backwards period and unknown kinds, and technicians", async () => {
-    expect(() => claimRates(staff, { from: "2026-06-30", to: "2026-01-01" }, NOW)).toThrow(ZodError);
-    expect(() => claimRates(staff, { category: "termites" }, NOW)).toThrow(ZodError);
-    expect(() => claimRates(staff, { from: "2026-02-30" }, NOW)).toThrow(ZodError);
+    expect(() => claimRates(staff, claimRatesQuerySchema.parse({ from: "2026-06-30", to: "2026-01-01" }), NOW)).toThrow(ZodError);
+    expect(() => claimRates(staff, claimRatesQuerySchema.parse({ category: "termites" }), NOW)).toThrow(ZodError);
+    expect(() => claimRates(staff, claimRatesQuerySchema.parse({ from: "2026-02-30" }), NOW)).toThrow(ZodError);
     const tech = await memberContext(studio, "technician");
-    expect(() => claimRates(tech, PERIOD, NOW)).toThrow(AppError);
+    expect(() => claimRates(tech, claimRatesQuerySchema.parse(PERIOD), NOW)).toThrow(AppError);
   });
 
   it("another studio's report is empty", async () => {
     const other = await memberContext(createStudio(), "admin");
-    const r = claimRates(other, PERIOD, NOW);
+    const r = claimRates(other, claimRatesQuerySchema.parse(PERIOD), NOW);
     expect([r.totalPieces, r.totalClaims, r.bySpecies.length]).toEqual([0, 0, 0]);
-    expect(reportList(other, "answers", {}, NOW).rows).toEqual([]);
+    expect(reportList(other, "answers", reportListQuerySchema.parse({}), NOW).rows).toEqual([]);
   });
 
   it("per100 rounds to one decimal and has no rate without pieces", () => {
@@ -107,7 +108,7 @@ describe("claims per 100 pieces", () => {
 
   it("the report lists: unknown names are a 404", () => {
     try {
-      reportList(staff, "secrets", {}, NOW);
+      reportList(staff, "secrets", reportListQuerySchema.parse({}), NOW);
       throw new Error("expected a 404");
     } catch (e) {
       expect((e as AppError).status).toBe(404);

@@ -178,3 +178,16 @@ describe("pieces: the registry query, its CSV export, edits, layers and the CSV 
     expect([empty.status, empty.json?.error?.fieldErrors]).toEqual([400, { csv: ["The file is empty."] }]);
   });
 });
+
+describe("reports: the claims CSV's query is parsed at the boundary", () => {
+  it("GET /api/studio/reports/claims.csv: a period that ends before it starts and a kind of claim we don't have are 400s naming the fields", async () => {
+    const { GET } = await import("@/app/api/studio/reports/claims.csv/route");
+    await signInMember("staff");
+    const r = await call(GET, "GET", "/api/studio/reports/claims.csv?from=2026-06-30&to=2026-01-01");
+    expect([r.status, r.json?.error?.fieldErrors]).toEqual([400, { to: ["The period must start on or before its end."] }]);
+    const kind = await call(GET, "GET", "/api/studio/reports/claims.csv?category=termites");
+    expect([kind.status, kind.json?.error?.fieldErrors]).toEqual([400, { category: ["Pick a kind of claim from the list."] }]);
+    const ok = await call(GET, "GET", "/api/studio/reports/claims.csv?from=2026-01-01&to=2026-06-30&category=");
+    expect(ok.status).toBe(200);
+  });
+});

@@ -29,7 +29,7 @@ export default async function ReportsPage({ searchParams }: { searchParams: Sear
   const raw = flat(await searchParams);
   const parsed = claimRatesQuerySchema.safeParse(raw);
   const errors = parsed.success ? null : z.flattenError(parsed.error).fieldErrors;
-  const r = claimRates(ctx, parsed.success ? raw : {});
+  const r = claimRates(ctx, parsed.success ? parsed.data : claimRatesQuerySchema.parse({}));
   const csvHref = `/api/studio/reports/claims.csv?${new URLSearchParams({ from: r.from, to: r.to, category: r.category }).toString()}`;
   const dims: { id: string; title: string; rows: RateRow[]; href?: (k: string) => string }[] = [
     { id: "species", title: "By species (primary)", rows: r.bySpecies, href: (k) => `/studio/pieces?species=${encodeURIComponent(k)}` },

@@ -61,7 +61,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
   if (!(REPORT_LISTS as readonly string[]).includes(list)) notFound();
   const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v]));
   const parsed = reportListQuerySchema.safeParse(raw);
-  const q = parsed.success ? parsed.data : {};
+  const q = parsed.success ? parsed.data : reportListQuerySchema.parse({});
   const result = reportList(ctx, list, q);
   const t = TITLES[list as ReportList];
   const money = (m: number, c: string) => formatMoney(m, c, ctx.studio.country);
