@@ -10,8 +10,8 @@ import { claimAnswersSchema, type ClaimAnswers } from "@/lib/validation/claims";
 import type { ClaimSuggestion } from "./suggestion";
 
 /** The stored answers, read back through the same schema (rows written before a change fall back to "not sure"). */
-export function readAnswers(raw: unknown): ClaimAnswers {
-  const parsed = claimAnswersSchema.safeParse(raw);
+export function readAnswers(stored: unknown): ClaimAnswers {
+  const parsed = claimAnswersSchema.safeParse(stored);
   if (parsed.success) return parsed.data;
   return { heat: "unsure", chemicals: "unsure", impact: "unsure", usedOutdoors: "unsure", directSun: "unsure" };
 }
