@@ -12,6 +12,7 @@ import { env } from "@/lib/env";
 import { notFound } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { newRegistrationCode } from "@/lib/pieces/registration";
+import { planFollowsTransfer } from "@/lib/plans/transfer";
 import { releaseSchema } from "@/lib/validation/owner";
 import { formatDate } from "@/lib/format";
 import { getMyPiece } from "./pieces";
@@ -43,6 +44,7 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
     indexPiece(tx, pieceId);
     return tx.select().from(studios).where(eq(studios.id, studioId)).get()!;
   });
+  await planFollowsTransfer(pieceId, user.id, now); // the piece's care plan moves or ends by the studio's setting (lib/plans/transfer.ts)
 
   const transferring = before.warranty.lines.filter((l) => l.transfersToNewOwner && l.status !== "not_transferred").map((l) => l.label);
   const staying = before.warranty.lines.filter((l) => !l.transfersToNewOwner).map((l) => l.label);
