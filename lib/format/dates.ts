@@ -123,13 +123,13 @@ export function formatTimeLeft(days: number): string {
 
 /**
  * A zone as people say it: its generic name from CLDR and the place the IANA name is after,
- * "Pacific Time (Los Angeles)", "Central European Time (Berlin)"; "UTC" for UTC itself.
+ * "Pacific Time, Los Angeles", "Central European Time, Berlin"; "UTC" for UTC itself.
  */
 export function formatZone(timeZone: string): string {
   if (timeZone === "UTC" || timeZone === "Etc/UTC") return "UTC";
   const generic = dtf({ timeZone, timeZoneName: "longGeneric" }).formatToParts(0).find((p) => p.type === "timeZoneName")?.value;
   const place = timeZone.split("/").pop()!.replace(/_/g, " ");
-  return generic && !generic.startsWith("GMT") ? `${generic.replace(/ Standard Time$/, " Time")} (${place})` : place;
+  return generic && !generic.startsWith("GMT") ? `${generic.replace(/ Standard Time$/, " Time")}, ${place}` : place;
 }
 
 /** Whether `timeZone` is an IANA zone this runtime knows ("Europe/Berlin"). */

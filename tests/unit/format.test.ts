@@ -99,9 +99,9 @@ describe("dates and times", () => {
 
   it("names a zone as people say it, never as its IANA identifier", () => {
     // Generic zone names from Unicode CLDR through ECMA-402 (timeZoneName: "longGeneric").
-    expect(formatZone("America/Los_Angeles")).toBe("Pacific Time (Los Angeles)");
-    expect(formatZone("America/New_York")).toBe("Eastern Time (New York)");
-    expect(formatZone("Europe/Berlin")).toBe("Central European Time (Berlin)");
+    expect(formatZone("America/Los_Angeles")).toBe("Pacific Time, Los Angeles");
+    expect(formatZone("America/New_York")).toBe("Eastern Time, New York");
+    expect(formatZone("Europe/Berlin")).toBe("Central European Time, Berlin");
     expect(formatZone("UTC")).toBe("UTC");
     for (const z of ["America/Los_Angeles", "America/Argentina/Buenos_Aires", "Pacific/Auckland"]) expect(formatZone(z)).not.toMatch(/[_/]/);
   });
