@@ -19,8 +19,7 @@ const GUARD_MESSAGE = "Name the roles in route({ roles }) or action({ roles }) (
 const guardCalls = [
   { group: ["@/lib/auth/guards"], importNames: ["requireUser", "requireStaff", "requireAdmin", "requireStudioMember", "requireStudioRole"], message: GUARD_MESSAGE },
   { group: ["@/lib/auth/session"], importNames: ["getCurrentSession"], message: GUARD_MESSAGE },
-  { group: ["@/lib/claims/viewer"], importNames: ["currentViewer"], message: GUARD_MESSAGE },
-  { group: ["@/lib/visits/access"], importNames: ["requireVisitActor"], message: GUARD_MESSAGE },
+  { group: ["@/lib/auth/actor"], importNames: ["requireActor"], message: GUARD_MESSAGE },
 ];
 
 const oneAppError = [

@@ -1,22 +1,25 @@
 import "server-only";
-import { and, eq } from "drizzle-orm";
+import { and, eq, or } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { claims, studios, type Claim, type Studio } from "@/db/schema";
 import { notFound } from "@/lib/errors";
 import { readAnswers } from "./coverage";
-import type { ClaimViewer } from "./viewer";
+import type { ActorRef } from "@/lib/auth/actor";
+import { claimVisibleTo } from "./visible";
 
 // Loading one claim for whoever asks, and the claim's public shape. Every operation in lib/claims
 // starts here: the claim's owner, or staff of the claim's studio; anyone else gets a 404 so a claim's
 // existence is not revealed.
 
-/** The claim row, if the viewer may see it (owner, or staff of its studio); otherwise 404. */
-export function loadVisibleClaim(viewer: ClaimViewer, claimId: string): { claim: Claim; asStaff: boolean } {
-  const claim = getDb().select().from(claims).where(eq(claims.id, claimId)).get();
+/**
+ * The claim row, if the actor may see it (lib/claims/visible.ts: staff of its studio, or its owner —
+ * a studio member's own claim too, seen as its owner); otherwise 404. `asStaff`: seen as the studio.
+ */
+export function loadVisibleClaim(actor: ActorRef, claimId: string): { claim: Claim; asStaff: boolean } {
+  const reach = actor.studio ? or(claimVisibleTo(actor), claimVisibleTo({ role: "owner", user: actor.user, studio: null })) : claimVisibleTo(actor);
+  const claim = getDb().select().from(claims).where(and(eq(claims.id, claimId), reach)).get();
   if (!claim) throw notFound("No claim with that id.");
-  if (viewer.staff && viewer.staff.studio.id === claim.studioId) return { claim, asStaff: true };
-  if (claim.ownerId === viewer.user.id) return { claim, asStaff: false };
-  throw notFound("No claim with that id.");
+  return { claim, asStaff: actor.role !== "owner" && claim.studioId === actor.studio?.id };
 }
 
 /** A claim of the studio's, for staff operations; another studio's claim is a 404. */

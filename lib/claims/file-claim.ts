@@ -5,12 +5,12 @@ import type { z } from "zod";
 import { getDb } from "@/db/client";
 import { claims, pieces, studios } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
+import type { Actor } from "@/lib/auth/actor";
 import { localDate } from "@/lib/care/dates";
 import { notFound, unprocessable } from "@/lib/errors";
 import type { createClaimSchema } from "@/lib/validation/claims";
 import { studioOf } from "./claim-row";
 import { mailClaimReceived } from "./mail";
-import type { ClaimViewer } from "./viewer";
 
 // An owner files a claim on one of their pieces: the form's context, then the claim itself.
 
@@ -29,12 +29,12 @@ export function claimFormContext(user: Pick<User, "id" | "unitSystem">, pieceId:
   return { piece: row, today: localDate(Date.now(), row.timeZone), unit: user.unitSystem === "imperial" ? ("F" as const) : ("C" as const) };
 }
 
-export async function createClaim(viewer: ClaimViewer, input: FileClaimInput) {
+export async function createClaim(actor: Actor, input: FileClaimInput) {
   const db = getDb();
   const piece = db
     .select()
     .from(pieces)
-    .where(and(eq(pieces.id, input.pieceId), eq(pieces.ownerId, viewer.user.id), isNull(pieces.archivedAt)))
+    .where(and(eq(pieces.id, input.pieceId), eq(pieces.ownerId, actor.user.id), isNull(pieces.archivedAt)))
     .get();
   if (!piece) throw notFound("No piece of yours with that id.");
   const studio = studioOf(piece.studioId);
@@ -50,7 +50,7 @@ export async function createClaim(viewer: ClaimViewer, input: FileClaimInput) {
       .values({
         studioId: piece.studioId,
         pieceId: piece.id,
-        ownerId: viewer.user.id,
+        ownerId: actor.user.id,
         category: input.category,
         noticedOn: input.noticedOn,
         description: input.description,
@@ -59,9 +59,9 @@ export async function createClaim(viewer: ClaimViewer, input: FileClaimInput) {
       })
       .returning()
       .get();
-    recordAudit(tx, { studioId: piece.studioId, actorId: viewer.user.id, action: "claim.submitted", subjectType: "claim", subjectId: row.id, data: { pieceId: piece.id, category: input.category } });
+    recordAudit(tx, { studioId: piece.studioId, actorId: actor.user.id, action: "claim.submitted", subjectType: "claim", subjectId: row.id, data: { pieceId: piece.id, category: input.category } });
     return row;
   });
-  await mailClaimReceived({ claim, piece, studio, owner: viewer.user });
+  await mailClaimReceived({ claim, piece, studio, owner: actor.user });
   return { id: claim.id, state: claim.state, version: claim.version, category: claim.category, pieceId: claim.pieceId, createdAt: claim.createdAt.toISOString() };
 }

@@ -4,6 +4,7 @@ import type { z } from "zod";
 import { getDb } from "@/db/client";
 import { claims, pieces, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
+import type { Actor } from "@/lib/auth/actor";
 import { conflict, forbidden } from "@/lib/errors";
 import { appendMessage, ownerMayWrite, threadFor } from "@/lib/messages/store";
 import type { claimMessageSchema } from "@/lib/validation/claims";
@@ -11,7 +12,6 @@ import { loadVisibleClaim, studioOf } from "./claim-row";
 import { mailClaimMessage } from "./mail";
 import { moveState } from "./move-state";
 import { ownerAnswered } from "./owner-answer";
-import type { ClaimViewer } from "./viewer";
 
 export type ClaimMessageValues = z.output<typeof claimMessageSchema>;
 
@@ -20,10 +20,10 @@ export type ClaimMessageValues = z.output<typeof claimMessageSchema>;
  * (the claim waits on the owner); the owner's answer puts it back in review; the studio's first answer
  * is stamped for the queue's wait times.
  */
-export async function postClaimMessage(viewer: ClaimViewer, claimId: string, input: ClaimMessageValues) {
-  const { claim, asStaff } = loadVisibleClaim(viewer, claimId);
+export async function postClaimMessage(actor: Actor, claimId: string, input: ClaimMessageValues) {
+  const { claim, asStaff } = loadVisibleClaim(actor, claimId);
   if (claim.state === "closed") throw conflict("This claim is closed. Start a new claim if something else needs the studio's attention.");
-  if (!asStaff && !ownerMayWrite(getDb(), viewer.user.id, { kind: "claim", id: claim.id })) throw forbidden("The piece has a new owner now, so this claim takes no more messages from you.");
+  if (!asStaff && !ownerMayWrite(getDb(), actor.user.id, { kind: "claim", id: claim.id })) throw forbidden("The piece has a new owner now, so this claim takes no more messages from you.");
   if (input.requestInfo && !asStaff) throw forbidden("Only the studio asks for more information.");
   const now = new Date();
   const result = getDb().transaction((tx) => {
@@ -33,11 +33,11 @@ export async function postClaimMessage(viewer: ClaimViewer, claimId: string, inp
     else if (asStaff && !claim.firstAnsweredAt) {
       tx.update(claims).set({ firstAnsweredAt: now, updatedAt: now }).where(and(eq(claims.id, claim.id), isNull(claims.firstAnsweredAt))).run();
     }
-    const added = appendMessage(tx, threadFor(tx, { kind: "claim", id: claim.id }, now), { author: asStaff ? "staff" : "owner", authorId: viewer.user.id, body: input.body, now })!;
+    const added = appendMessage(tx, threadFor(tx, { kind: "claim", id: claim.id }, now), { author: asStaff ? "staff" : "owner", authorId: actor.user.id, body: input.body, now })!;
     const message = { ...added, body: input.body, fromStudio: asStaff };
     recordAudit(tx, {
       studioId: claim.studioId,
-      actorId: viewer.user.id,
+      actorId: actor.user.id,
       action: input.requestInfo ? "claim.info_requested" : "claim.message",
       subjectType: "claim",
       subjectId: claim.id,
@@ -48,9 +48,9 @@ export async function postClaimMessage(viewer: ClaimViewer, claimId: string, inp
   const studio = studioOf(claim.studioId);
   const piece = getDb().select().from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
   const owner = getDb().select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, claim.ownerId)).get()!;
-  await mailClaimMessage({ claim, piece, studio, owner, fromStudio: asStaff, authorName: viewer.user.name, body: input.body, requestInfo: !!input.requestInfo });
+  await mailClaimMessage({ claim, piece, studio, owner, fromStudio: asStaff, authorName: actor.user.name, body: input.body, requestInfo: !!input.requestInfo });
   return {
-    message: { id: result.message.id, body: result.message.body, fromStudio: result.message.fromStudio, createdAt: result.message.createdAt.toISOString(), authorName: viewer.user.name },
+    message: { id: result.message.id, body: result.message.body, fromStudio: result.message.fromStudio, createdAt: result.message.createdAt.toISOString(), authorName: actor.user.name },
     state: result.state,
     version: result.version,
   };

@@ -4,6 +4,7 @@ import type { User } from "lucia";
 import { getDb } from "@/db/client";
 import { subjectMessages } from "@/lib/messages/store";
 import { clients, files, pieces, repairJobs, users, visits, type Claim } from "@/db/schema";
+import { ownerActor, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { formatDate } from "@/lib/format";
@@ -11,7 +12,6 @@ import { JOB_STATE_LABELS } from "@/lib/repairs/states";
 import { formatVisitWhen, ownerTimeZone } from "@/lib/format";
 import { claimCore, fileUrl, loadStudioClaim, loadVisibleClaim, photoView, studioOf } from "./claim-row";
 import { coverageOf } from "./claim-piece";
-import type { ClaimViewer } from "./viewer";
 
 // One claim as its owner sees it (state, photos, messages, the decision, where the repair stands) or as
 // staff see it (all of that plus the piece record, its care log and the coverage check).
@@ -117,14 +117,14 @@ function staffView(claim: Claim) {
 export type OwnerClaimView = ReturnType<typeof ownerView>;
 export type StaffClaimView = ReturnType<typeof staffView>;
 
-export function getClaim(viewer: ClaimViewer, claimId: string): OwnerClaimView | StaffClaimView {
-  const { claim, asStaff } = loadVisibleClaim(viewer, claimId);
+export function getClaim(actor: Actor, claimId: string): OwnerClaimView | StaffClaimView {
+  const { claim, asStaff } = loadVisibleClaim(actor, claimId);
   return asStaff ? staffView(claim) : ownerView(claim);
 }
 
-/** For the owner pages: the claim only if it is the viewer's own (staff of the studio use getStaffClaim). */
-export function getOwnerClaim(user: Pick<User, "id" | "name" | "email">, claimId: string): OwnerClaimView {
-  const { claim } = loadVisibleClaim({ user, staff: null }, claimId);
+/** For the owner pages: the claim only if it is the user's own (staff of the studio use getStaffClaim). */
+export function getOwnerClaim(user: User, claimId: string): OwnerClaimView {
+  const { claim } = loadVisibleClaim(ownerActor(user), claimId);
   return ownerView(claim);
 }
 

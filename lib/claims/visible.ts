@@ -1,8 +1,7 @@
 import "server-only";
 import { eq, type SQL } from "drizzle-orm";
 import { claims } from "@/db/schema";
-import type { Actor, ActorRef } from "@/lib/auth/actor";
-import { ownerViewer, staffViewer, type ClaimViewer } from "./viewer";
+import type { ActorRef } from "@/lib/auth/actor";
 
 /**
  * The claims an actor sees, written once as a WHERE over claims: a studio member their studio's, an
@@ -10,9 +9,4 @@ import { ownerViewer, staffViewer, type ClaimViewer } from "./viewer";
  */
 export function claimVisibleTo(actor: ActorRef): SQL {
   return actor.role === "owner" || !actor.studio ? eq(claims.ownerId, actor.user.id) : eq(claims.studioId, actor.studio.id);
-}
-
-/** The claim functions' view of the request's Actor (roles ["admin", "staff", "owner"]). */
-export function claimViewerOf(actor: Actor): ClaimViewer {
-  return actor.role === "owner" ? ownerViewer(actor.user) : staffViewer(actor);
 }

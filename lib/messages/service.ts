@@ -4,9 +4,9 @@ import type { User } from "lucia";
 import { getDb } from "@/db/client";
 import { claims, memberships, pieces, repairJobs, studios, threadMessages, threads, unmatchedMail, users, visits, type Thread } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
+import { ownerActor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { postClaimMessage } from "@/lib/claims/reply";
-import { ownerViewer, staffViewer } from "@/lib/claims/viewer";
 import { notFound, unprocessable } from "@/lib/errors";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
 import { inboxQuerySchema, messageFormSchema, messageSubjectSchema, threadUpdateSchema } from "@/lib/validation/messages";
@@ -36,13 +36,13 @@ function mailFacts(thread: Thread): ThreadMailFacts {
 }
 
 /** An owner writes to the studio about a claim, repair job or visit of theirs (decided or not). */
-export async function postOwnerMessage(user: Pick<User, "id" | "name" | "email">, raw: unknown): Promise<{ threadId: string; message: MessageView }> {
+export async function postOwnerMessage(user: User, raw: unknown): Promise<{ threadId: string; message: MessageView }> {
   const subject = messageSubjectSchema.parse(raw);
   const ref: SubjectRef = { kind: subject.about, id: subject.id };
   ownerSubject(user, ref);
   const input = messageFormSchema.parse(raw);
   if (ref.kind === "claim") {
-    const out = await postClaimMessage(ownerViewer(user), ref.id, { body: input.body });
+    const out = await postClaimMessage(ownerActor(user), ref.id, { body: input.body });
     const thread = findThread(getDb(), ref)!;
     return { threadId: thread.id, message: { id: out.message.id, author: "owner", authorName: user.name, source: "web", body: out.message.body, createdAt: out.message.createdAt } };
   }
@@ -252,7 +252,7 @@ export async function replyToThread(ctx: StudioContext, threadId: string, raw: u
   const thread = studioThread(ctx, threadId);
   const { body } = messageFormSchema.parse(raw);
   if (thread.claimId) {
-    await postClaimMessage(staffViewer(ctx), thread.claimId, { body });
+    await postClaimMessage(ctx, thread.claimId, { body });
     return getThread(ctx, threadId);
   }
   if (!thread.ownerId) throw unprocessable("no_owner", "This piece has no owner on record any more, so there is nobody to answer.");

@@ -6,10 +6,10 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { claims, memberships, ownerships, type Piece, type Studio } from "@/db/schema";
 import { createClaim } from "@/lib/claims/file-claim";
-import { ownerViewer, staffViewer, type ClaimViewer } from "@/lib/claims/viewer";
 import type { ClaimState } from "@/lib/claims/states";
 import { decideClaim } from "@/lib/claims/decide-claim";
 import { listStudioClaims } from "@/lib/claims/list";
+import { ownerActor, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { claimDecisionSchema, claimListQuerySchema, createClaimSchema, type ClaimDecisionInput, type CreateClaimInput } from "@/lib/validation/claims";
 import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
@@ -24,14 +24,13 @@ export function todayUtc(): string {
 export async function claimWorld(opts: { piece?: Partial<Piece>; studio?: Partial<Studio> } = {}) {
   const studio = createStudio({ timeZone: "UTC", email: `studio-${Math.random().toString(36).slice(2)}@test.example`, ...opts.studio });
   const staffCtx = await memberContext(studio, "staff");
-  const ownerRow = await createUser({ name: "Test Owner (invented)" });
-  const owner = { id: ownerRow.id, name: ownerRow.name, email: ownerRow.email };
+  const owner = await createUser({ name: "Test Owner (invented)" });
   const { piece } = createPiece(studio, { ownerId: owner.id, registeredAt: new Date(), ...opts.piece });
   getDb().insert(ownerships).values({ studioId: studio.id, pieceId: piece.id, userId: owner.id, via: "registration", startedAt: new Date(`${piece.deliveredOn}T12:00:00Z`) }).run();
-  return { studio, staffCtx, staff: staffViewer(staffCtx), owner, ownerV: ownerViewer(owner), piece };
+  return { studio, staffCtx, staff: staffCtx as Actor, owner, ownerV: ownerActor(owner), piece };
 }
 
-export async function fileClaim(viewer: ClaimViewer, pieceId: string, over: Partial<CreateClaimInput> = {}) {
+export async function fileClaim(actor: Actor, pieceId: string, over: Partial<CreateClaimInput> = {}) {
   // As POST /api/claims does: the form's values parsed once by the route's schema (°F readings become °C).
   const input = createClaimSchema.parse({
     pieceId,
@@ -41,7 +40,7 @@ export async function fileClaim(viewer: ClaimViewer, pieceId: string, over: Part
     answers: { ...NO_ANSWERS, room: { unit: "C", driestTemp: 20, driestRh: 45, dampestTemp: 22, dampestRh: 55 } },
     ...over,
   });
-  return createClaim(viewer, input);
+  return createClaim(actor, input);
 }
 
 /** As POST /api/claims/[id]/decision does: the body parsed by the route's schema, then the decision. */
@@ -61,12 +60,12 @@ export function forceState(claimId: string, state: ClaimState) {
 
 export async function otherStudioStaff() {
   const other = createStudio({ name: "Another studio (invented)" });
-  return staffViewer(await memberContext(other, "admin"));
+  return memberContext(other, "admin");
 }
 
 export async function otherOwner() {
   const u = await createUser({ name: "Another owner (invented)" });
-  return ownerViewer({ id: u.id, name: u.name, email: u.email });
+  return ownerActor(u);
 }
 
 export function addMember(studioId: string, userId: string, role: "admin" | "staff" | "technician") {

@@ -9,7 +9,7 @@ import { getDb } from "@/db/client";
 import { auditLog, claims, repairJobs, users } from "@/db/schema";
 import { createJobFromClaim } from "@/lib/claims/open-job";
 import { getClaim } from "@/lib/claims/view-claim";
-import { ownerViewer, staffViewer } from "@/lib/claims/viewer";
+import { ownerActor } from "@/lib/auth/actor";
 import { bookVisit } from "@/lib/visits/book";
 import { cancelVisit } from "@/lib/visits/cancel";
 import { listJobSlots } from "@/lib/visits/slots";
@@ -43,11 +43,11 @@ describe("POST /api/claims/[id]/job: the repair job of an accepted claim", () =>
     expect(job).toMatchObject({ claimId: w.claim.id, state: "draft" });
     expect(getDb().select().from(repairJobs).where(eq(repairJobs.id, job.id)).get()).toMatchObject({ claimId: w.claim.id, pieceId: w.piece.id, ownerId: w.owner.id, origin: "claim" });
 
-    const asStaff = getClaim(staffViewer(w.staff), w.claim.id);
+    const asStaff = getClaim(w.staff, w.claim.id);
     expect(asStaff.claim.jobId).toBe(job.id);
     expect(asStaff.view === "staff" && asStaff.repair).toMatchObject({ jobId: job.id, stateLabel: "Being priced", visit: null });
     // The owner hears about the job once the studio has priced it; until then the claim says so.
-    const asOwner = getClaim(ownerViewer(w.owner), w.claim.id);
+    const asOwner = getClaim(ownerActor(w.owner), w.claim.id);
     expect(asOwner.claim.jobId).toBeNull();
     expect(asOwner.view === "owner" && asOwner.repair?.stage).toMatch(/pricing the repair/);
 
@@ -70,15 +70,15 @@ describe("the claim follows the work", () => {
     // Quote, approval and payment stood in for: the job is covered by the warranty.
     getDb().update(repairJobs).set({ state: "covered" }).where(eq(repairJobs.id, jobId)).run();
     expect(claimState(w.claim.id)).toBe("accepted");
-    expect((getClaim(ownerViewer(w.owner), w.claim.id) as { repair: { stage: string; jobId: string | null } }).repair).toMatchObject({ jobId, stage: expect.stringMatching(/Pick a time/) });
+    expect((getClaim(ownerActor(w.owner), w.claim.id) as { repair: { stage: string; jobId: string | null } }).repair).toMatchObject({ jobId, stage: expect.stringMatching(/Pick a time/) });
 
     const slots = listJobSlots(staffActor(w.staff), jobId, { from: "2027-05-04T12:00:00Z", to: "2027-05-07T00:00:00Z" }, NOW).slots;
     const first = await bookVisit(staffActor(w.staff), { jobId, technicianId: slots[0]!.technicianId, start: slots[0]!.start }, NOW);
     expect(claimState(w.claim.id)).toBe("repair_booked");
-    const owned = getClaim(ownerViewer(w.owner), w.claim.id) as { repair: { stage: string } };
+    const owned = getClaim(ownerActor(w.owner), w.claim.id) as { repair: { stage: string } };
     // 09:00 in New York, read on the owner's own clock and named: Europe/Berlin.
     expect(owned.repair.stage).toBe("Repair visit booked: Tuesday, 4 May 2027, 15:00–16:30 (Europe/Berlin).");
-    const staffView = getClaim(staffViewer(w.staff), w.claim.id);
+    const staffView = getClaim(w.staff, w.claim.id);
     expect(staffView.view === "staff" && staffView.repair?.visit).toMatchObject({ id: first.id, state: "booked" });
 
     await cancelVisit(staffActor(w.staff), first.id, { reason: "Owner away (invented)" }, NOW + HOUR);
@@ -88,7 +88,7 @@ describe("the claim follows the work", () => {
     expect(claimState(w.claim.id)).toBe("repair_booked");
     await submitReport(w.tech, second.id, reportInput({ work: "Cleaned and re-oiled the ring marks (invented).", layers: [] }), new Date(Date.parse(second.start) + HOUR));
     expect(claimState(w.claim.id)).toBe("closed");
-    expect((getClaim(ownerViewer(w.owner), w.claim.id) as { repair: { stage: string } }).repair.stage).toMatch(/^The repair is done, \d+ May 2027\.$/);
+    expect((getClaim(ownerActor(w.owner), w.claim.id) as { repair: { stage: string } }).repair.stage).toMatch(/^The repair is done, \d+ May 2027\.$/);
 
     expect(claimAudit(w.claim.id).map((a) => [a.action, a.data.from, a.data.to, a.data.jobId])).toEqual([
       ["claim.repair_booked", "accepted", "repair_booked", jobId],

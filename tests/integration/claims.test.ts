@@ -15,7 +15,7 @@ import { listOwnerClaims } from "@/lib/claims/list";
 import { postClaimMessage } from "@/lib/claims/reply";
 import { transitionClaim } from "@/lib/claims/transition";
 import { allStatePairs, CLAIM_TRANSITIONS, type ClaimState } from "@/lib/claims/states";
-import { ownerViewer } from "@/lib/claims/viewer";
+import { ownerActor } from "@/lib/auth/actor";
 import { AppError } from "@/lib/errors";
 import { canViewFile, getFileForViewer } from "@/lib/files/access";
 import { storeImage } from "@/lib/storage";
@@ -149,10 +149,10 @@ describe("claim authorization", () => {
         expect(await status(getFileForViewer(viewer.user.id, p.id, { thumb: true }))).toBe(404);
       }
     }
-    expect(await status(() => getStaffClaim(rival.staff!, claim.id))).toBe(404);
-    expect(await status(decide(rival.staff!, claim.id, { decision: "covered", reason: "" }))).toBe(404);
-    expect(await status(() => transitionClaim(rival.staff!, claim.id, { to: "in_review" }))).toBe(404);
-    expect(listQueue(rival.staff!, {}).claims.map((c) => c.id)).not.toContain(claim.id);
+    expect(await status(() => getStaffClaim(rival, claim.id))).toBe(404);
+    expect(await status(decide(rival, claim.id, { decision: "covered", reason: "" }))).toBe(404);
+    expect(await status(() => transitionClaim(rival, claim.id, { to: "in_review" }))).toBe(404);
+    expect(listQueue(rival, {}).claims.map((c) => c.id)).not.toContain(claim.id);
     expect(listOwnerClaims(stranger.user).map((c) => c.id)).not.toContain(claim.id);
     // The owner and the studio's staff do see them.
     expect(getClaim(w.ownerV, claim.id).view).toBe("owner");
@@ -293,7 +293,7 @@ describe("the coverage check beside each claim", () => {
     const buyer = await createUser({ name: "Second owner (invented)" });
     getDb().update((await import("@/db/schema")).pieces).set({ ownerId: buyer.id }).where(eq((await import("@/db/schema")).pieces.id, w.piece.id)).run();
     getDb().insert(ownerships).values({ studioId: w.studio.id, pieceId: w.piece.id, userId: buyer.id, via: "transfer", startedAt: new Date() }).run();
-    const later = await fileClaim(ownerViewer(buyer), w.piece.id, { category: "finish_wear" });
+    const later = await fileClaim(ownerActor(buyer), w.piece.id, { category: "finish_wear" });
     const l = coverageOf(getClaim(w.staff, later.id));
     expect(l.check!.suggestion).toBe("not_covered");
     expect(l.check!.reasons).toContain("this line does not transfer to a new owner");

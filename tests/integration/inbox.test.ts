@@ -166,10 +166,10 @@ describe("owner messages and the inbox", () => {
     const w = await jobWorld();
     const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });
     const other = await otherStudioStaff();
-    expect(await status(() => getThread(other.staff!, threadId))).toBe(404);
-    expect(await status(replyToThread(other.staff!, threadId, { body: "Not my studio." }))).toBe(404);
-    expect(await status(() => updateThread(other.staff!, threadId, { state: "done" }))).toBe(404);
-    expect(listInbox(other.staff!).threads.map((t) => t.id)).not.toContain(threadId);
+    expect(await status(() => getThread(other, threadId))).toBe(404);
+    expect(await status(replyToThread(other, threadId, { body: "Not my studio." }))).toBe(404);
+    expect(await status(() => updateThread(other, threadId, { state: "done" }))).toBe(404);
+    expect(listInbox(other).threads.map((t) => t.id)).not.toContain(threadId);
 
     // The owner is allowed, so a blank message is a 400 (checked after who may write).
     expect(await status(postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "   " }))).toBe(400);
@@ -274,7 +274,7 @@ describe("replies by e-mail through the inbound listener", () => {
     const listed = listInbox(w.staffCtx, { view: "unmatched" }).unmatched;
     expect(listed.map((u) => u.body).sort()).toEqual(["Forged address (invented).", "Not the owner (invented)."]);
     const other = await otherStudioStaff();
-    expect(listInbox(other.staff!, { view: "unmatched" }).unmatched.map((u) => u.threadId)).not.toContain(threadId);
+    expect(listInbox(other, { view: "unmatched" }).unmatched.map((u) => u.threadId)).not.toContain(threadId);
   });
 
   it("a reply from a former owner is kept as unmatched, not added", async () => {

@@ -28,7 +28,7 @@ describe("import directions", () => {
     ["jobs never import lib/fakes", "jobs/x.ts", 'import { startSmtpSink } from "@/lib/fakes/smtp-sink";\nexport const x = startSmtpSink;\n'],
     ["a route handler never calls a guard (it names roles in route())", "app/api/x/route.ts", 'import { requireStaff } from "@/lib/auth/guards";\nexport const x = requireStaff;\n'],
     ["a server action never reads the session itself (it names roles in action())", "app/x/actions.ts", 'import { getCurrentSession } from "@/lib/auth/session";\nexport const x = getCurrentSession;\n'],
-    ["a route handler never works out the claim viewer itself", "app/api/x/route.ts", 'import { currentViewer } from "@/lib/claims/viewer";\nexport const x = currentViewer;\n'],
+    ["a route handler never resolves the actor itself", "app/api/x/route.ts", 'import { requireActor } from "@/lib/auth/actor";\nexport const x = requireActor;\n'],
     ["route handlers still never import db", "app/api/x/route.ts", 'import { getDb } from "@/db/client";\nexport const x = getDb;\n'],
   ])("%s", async (_rule, filePath, code) => {
     expect(await restricted(filePath, code)).toBe(true);

@@ -1,6 +1,5 @@
 import { createClaim } from "@/lib/claims/file-claim";
 import { listOwnerClaims, listStudioClaims } from "@/lib/claims/list";
-import { claimViewerOf } from "@/lib/claims/visible";
 import { route } from "@/lib/http/route";
 import { claimListQuerySchema, createClaimSchema } from "@/lib/validation/claims";
 
@@ -11,4 +10,4 @@ export const GET = route({ roles: ["admin", "staff", "owner"], query: claimListQ
   actor.role === "owner" ? { claims: listOwnerClaims(actor.user) } : listStudioClaims(actor, query),
 );
 
-export const POST = route({ roles: ["admin", "staff", "owner"], body: createClaimSchema, status: 201 }, async ({ actor, body }) => ({ claim: await createClaim(claimViewerOf(actor), body) }));
+export const POST = route({ roles: ["admin", "staff", "owner"], body: createClaimSchema, status: 201 }, async ({ actor, body }) => ({ claim: await createClaim(actor, body) }));
