@@ -1,16 +1,19 @@
-// The registry's performance-tuned SQL, all of it (one style: hand-written SQL through drizzle's `sql`
-// and statements prepared once per connection). The operations (registry-list.ts and the others)
-// call these and read top to bottom.
-//
-// The registry's fixed-shape reads are prepared once per connection: a list page runs them on every
-// request, and building and parsing them each time cost more than running them. Id lists travel as
-// one JSON array (json_each), so the statement text never changes with the page size. The list's own
-// reads are plain better-sqlite3 statements with only the columns a row shows and the care engine
-// reads (like the reminder pass's bulk reads): mapping whole drizzle rows cost more than the query.
+// The registry's performance-tuned SQL, all of it, in one style: hand-written SQL text run through
+// better-sqlite3 statements, each prepared once per connection (statementFor keeps them by text).
+// Why this style and not drizzle's builder or its `sql` template: the list query is assembled from
+// optional filters, an FTS5 join and a chosen order, which the builder cannot say without `sql` pieces
+// anyway; and a search request paid more for building drizzle's query and mapping its rows (a new
+// statement, parsed again, on every request) than for running the query. Reads return only the columns
+// a row shows and the care engine reads, like the reminder pass's bulk reads. The few whole-row reads
+// (the CSV export, the studio's products and policies) decode their columns with the schema's own
+// column mappers (wholeRows), so dates, JSON and flags read as they do everywhere else.
+// Id lists travel as one JSON array (json_each), so the statement text never changes with the page size.
+// The operations (registry-list.ts and the others) call these and read top to bottom.
 import "server-only";
-import { asc, eq, sql, type SQL } from "drizzle-orm";
+import { getTableColumns, type Table } from "drizzle-orm";
+import type Database from "better-sqlite3";
 import { getDb, perConnection, type Db } from "@/db/client";
-import { finishLayers, finishProducts, pieces, warrantyPolicies, type CareLogRow, type FinishLayer, type Piece } from "@/db/schema";
+import { finishLayers, finishProducts, pieces, warrantyPolicies, type CareLogRow, type FinishLayer, type FinishProduct, type Piece, type WarrantyPolicyRow } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { addMonths } from "@/lib/care/dates";
 import type { PieceListQuery } from "@/lib/validation/pieces";
@@ -40,16 +43,46 @@ export function ensureSqlFunctions(db: Db): void {
   withFunctions.add(client);
 }
 
+/** One statement per distinct SQL text and connection (the list query has a few shapes: its filters and order). */
+const statementCache = perConnection(() => new Map<string, Database.Statement>());
+
+function statementFor(db: Db, text: string): Database.Statement {
+  const cache = statementCache(db);
+  let st = cache.get(text);
+  if (!st) {
+    st = db.$client.prepare(text);
+    if (cache.size >= 200) cache.delete(cache.keys().next().value!);
+    cache.set(text, st);
+  }
+  return st;
+}
+
+/** Decodes raw rows of `table` (SELECT *) into the schema's row type: column names, dates, JSON, flags. */
+function wholeRows<T>(table: Table, raw: Record<string, unknown>[]): T[] {
+  const cols = Object.entries(getTableColumns(table));
+  return raw.map((r) => {
+    const out: Record<string, unknown> = {};
+    for (const [key, col] of cols) {
+      const v = r[col.name];
+      out[key] = v === null || v === undefined ? null : col.mapFromDriverValue(v);
+    }
+    return out as T;
+  });
+}
+
 const IDS = `(SELECT value FROM json_each(?))`;
 // A registry row's piece columns, read by the list query itself (joined with users as u).
-export const LIST_COLUMNS = sql.raw(`p.id, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
+const LIST_COLUMNS = `p.id, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
   p.primary_species_id AS primarySpeciesId, p.secondary_species_id AS secondarySpeciesId, p.shape_kind AS shapeKind,
   p.length_mm AS lengthMm, p.width_mm AS widthMm, p.diameter_mm AS diameterMm, p.measured_area_m2 AS measuredAreaM2,
   p.owner_id AS ownerId, p.archived_at AS archivedAt, p.warranty_policy_id AS warrantyPolicyId,
-  u.name AS ownerName, u.email AS ownerEmail`);
+  u.name AS ownerName, u.email AS ownerEmail`;
+
 export const registryStatements = perConnection((db) => {
-  const ids = sql`(SELECT value FROM json_each(${sql.placeholder("ids")}))`;
   const sqlite = db.$client;
+  const productsRaw = sqlite.prepare<[string], Record<string, unknown>>(`SELECT * FROM finish_products WHERE studio_id = ?`);
+  const policiesRaw = sqlite.prepare<[string], { id: string; policy: string }>(`SELECT id, policy FROM warranty_policies WHERE studio_id = ?`);
+  const policyColumn = getTableColumns(warrantyPolicies).policy;
   return {
     listLayers: sqlite.prepare<[string], CareLayerColumns & { pieceId: string }>(
       `SELECT piece_id AS pieceId, id, surface, finish_class AS finishClass, product_id AS productId, coats, applied_on AS appliedOn
@@ -58,10 +91,13 @@ export const registryStatements = perConnection((db) => {
     careLog: sqlite.prepare<[string], CareLogColumns & { pieceId: string }>(
       `SELECT piece_id AS pieceId, task_kind AS taskKind, done_on AS doneOn, surface FROM care_log_entries WHERE piece_id IN ${IDS}`,
     ),
-    fullPieces: db.select().from(pieces).where(sql`${pieces.id} IN ${ids}`).prepare(),
-    fullLayers: db.select().from(finishLayers).where(sql`${finishLayers.pieceId} IN ${ids}`).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).prepare(),
-    products: db.select().from(finishProducts).where(eq(finishProducts.studioId, sql.placeholder("studioId"))).prepare(),
-    policies: db.select({ id: warrantyPolicies.id, policy: warrantyPolicies.policy }).from(warrantyPolicies).where(eq(warrantyPolicies.studioId, sql.placeholder("studioId"))).prepare(),
+    fullPieces: sqlite.prepare<[string], Record<string, unknown>>(`SELECT * FROM pieces WHERE id IN ${IDS}`),
+    fullLayers: sqlite.prepare<[string], Record<string, unknown>>(`SELECT * FROM finish_layers WHERE piece_id IN ${IDS} ORDER BY surface, position`),
+    products: { all: ({ studioId }: { studioId: string }): FinishProduct[] => wholeRows<FinishProduct>(finishProducts, productsRaw.all(studioId)) },
+    policies: {
+      all: ({ studioId }: { studioId: string }): Pick<WarrantyPolicyRow, "id" | "policy">[] =>
+        policiesRaw.all(studioId).map((r) => ({ id: r.id, policy: policyColumn.mapFromDriverValue(r.policy) as WarrantyPolicyRow["policy"] })),
+    },
   };
 });
 
@@ -76,63 +112,78 @@ export function warrantyEndsOn(piece: Pick<Piece, "warrantyPolicyId" | "delivere
   return term ? addMonths(piece.deliveredOn, term) : null;
 }
 
+/** A piece of SQL text and the values of its `?` placeholders, in order. */
+type Fragment = { text: string; params: unknown[] };
+
+const frag = (text: string, ...params: unknown[]): Fragment => ({ text, params });
+
+function joinFragments(parts: Fragment[], sep: string): Fragment {
+  return { text: parts.map((p) => p.text).join(sep), params: parts.flatMap((p) => p.params) };
+}
+
 /** `where` checks each FTS row's piece id too (safe even if a VACUUM renumbered rowids before a reindex); `count` skips that read. */
-export type Filter = { where: SQL; count: SQL; fts: string | null; codeHash: string | null };
+export type Filter = { where: Fragment; count: Fragment; fts: string | null; codeHash: string | null };
 
 export function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<string, number>, useCode: boolean, t: string): Filter {
-  const conds: SQL[] = [sql`p.studio_id = ${ctx.studio.id}`];
-  conds.push(q.archived === "only" ? sql`p.archived_at IS NOT NULL` : sql`p.archived_at IS NULL`);
-  if (q.kind) conds.push(sql`p.kind = ${q.kind}`);
-  if (q.species) conds.push(sql`(p.primary_species_id = ${q.species} OR p.secondary_species_id = ${q.species})`);
-  if (q.finishClass) conds.push(sql`EXISTS (SELECT 1 FROM finish_layers l WHERE l.piece_id = p.id AND l.finish_class = ${q.finishClass})`);
-  if (q.registered === "yes") conds.push(sql`p.owner_id IS NOT NULL`);
-  if (q.registered === "no") conds.push(sql`p.owner_id IS NULL`);
+  const conds: Fragment[] = [frag(`p.studio_id = ?`, ctx.studio.id)];
+  conds.push(q.archived === "only" ? frag(`p.archived_at IS NOT NULL`) : frag(`p.archived_at IS NULL`));
+  if (q.kind) conds.push(frag(`p.kind = ?`, q.kind));
+  if (q.species) conds.push(frag(`(p.primary_species_id = ? OR p.secondary_species_id = ?)`, q.species, q.species));
+  if (q.finishClass) conds.push(frag(`EXISTS (SELECT 1 FROM finish_layers l WHERE l.piece_id = p.id AND l.finish_class = ?)`, q.finishClass));
+  if (q.registered === "yes") conds.push(frag(`p.owner_id IS NOT NULL`));
+  if (q.registered === "no") conds.push(frag(`p.owner_id IS NULL`));
   if (q.warranty) {
-    const cases = [...terms].filter(([, m]) => m > 0).map(([id, m]) => sql`WHEN ${id} THEN gw_add_months(p.delivered_on, ${m})`);
-    const ends = cases.length ? sql`(CASE p.warranty_policy_id ${sql.join(cases, sql` `)} END)` : sql`NULL`;
-    conds.push(q.warranty === "active" ? sql`${ends} >= ${t}` : sql`(${ends} IS NULL OR ${ends} < ${t})`);
+    const cases = [...terms].filter(([, m]) => m > 0).map(([id, m]) => frag(`WHEN ? THEN gw_add_months(p.delivered_on, ?)`, id, m));
+    const ends = cases.length ? joinFragments([frag(`(CASE p.warranty_policy_id`), ...cases, frag(`END)`)], " ") : frag(`NULL`);
+    conds.push(
+      q.warranty === "active"
+        ? joinFragments([ends, frag(`>= ?`, t)], " ")
+        : joinFragments([frag("("), ends, frag(`IS NULL OR`), ends, frag(`< ?)`, t)], " "),
+    );
   }
   let fts: string | null = null;
   let codeHash: string | null = null;
   const typed = q.q.trim();
   if (typed) {
     codeHash = useCode ? hashTypedCode(typed) : null;
-    if (codeHash) conds.push(sql`p.registration_code_hash = ${codeHash}`);
+    if (codeHash) conds.push(frag(`p.registration_code_hash = ?`, codeHash));
     else {
       fts = ftsQuery(typed);
       // Nothing searchable (only punctuation): no piece matches.
-      conds.push(fts ? sql`pieces_fts MATCH ${fts}` : sql`0`);
+      conds.push(fts ? frag(`pieces_fts MATCH ?`, fts) : frag(`0`));
     }
   }
-  const count = sql.join(conds, sql` AND `);
-  return { where: fts ? sql`${count} AND pieces_fts.piece_id = p.id` : count, count, fts, codeHash };
+  const count = joinFragments(conds, " AND ");
+  return { where: fts ? joinFragments([count, frag(`pieces_fts.piece_id = p.id`)], " AND ") : count, count, fts, codeHash };
 }
 
 // Ties break on rowid (insertion order), which the (studio_id, delivered_on) index carries, so the
 // default orders read straight off an index; with a search, "newest recorded" reads the FTS index
 // backwards and stops at the page (bm25 relevance ranks every match, so it is a choice, not the default).
-export function orderBy(q: PieceListQuery, hasFts: boolean): SQL {
+// Only fixed words go into the text, never what was typed.
+export function orderBy(q: PieceListQuery, hasFts: boolean): string {
   const sort = q.sort ?? (hasFts ? "created" : "delivered");
-  const dir = q.dir === "asc" ? sql`ASC` : q.dir === "desc" ? sql`DESC` : sort === "title" ? sql`ASC` : sql`DESC`;
+  const dir = q.dir === "asc" ? "ASC" : q.dir === "desc" ? "DESC" : sort === "title" ? "ASC" : "DESC";
   switch (sort) {
     case "relevance":
-      return hasFts ? sql`pieces_fts.rank ASC, p.rowid DESC` : sql`p.delivered_on DESC, p.rowid DESC`;
+      return hasFts ? `pieces_fts.rank ASC, p.rowid DESC` : `p.delivered_on DESC, p.rowid DESC`;
     case "title":
-      return sql`p.title COLLATE NOCASE ${dir}, p.rowid ${dir}`;
+      return `p.title COLLATE NOCASE ${dir}, p.rowid ${dir}`;
     case "created":
-      return hasFts ? sql`pieces_fts.rowid ${dir}` : sql`p.rowid ${dir}`;
+      return hasFts ? `pieces_fts.rowid ${dir}` : `p.rowid ${dir}`;
     default:
-      return sql`p.delivered_on ${dir}, p.rowid ${dir}`;
+      return `p.delivered_on ${dir}, p.rowid ${dir}`;
   }
 }
 
-function fromClause(f: Filter): SQL {
-  return f.fts ? sql`pieces_fts CROSS JOIN pieces p ON p.rowid = pieces_fts.rowid` : sql`pieces p`;
+function fromClause(f: Filter): string {
+  return f.fts ? `pieces_fts CROSS JOIN pieces p ON p.rowid = pieces_fts.rowid` : `pieces p`;
 }
 
 /** A page of registry rows for the filter (limit -1: all of them). */
 export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offset: number): ListPieceRow[] {
-  return getDb().all<ListPieceRow>(sql`SELECT ${LIST_COLUMNS} FROM ${fromClause(f)} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${limit} OFFSET ${offset}`);
+  const text = `SELECT ${LIST_COLUMNS} FROM ${fromClause(f)} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where.text} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ? OFFSET ?`;
+  return statementFor(getDb(), text).all(...f.where.params, limit, offset) as ListPieceRow[];
 }
 
 /**
@@ -148,7 +199,8 @@ export function countMatches(f: Filter, upTo: number, key: string): number {
   const cacheKey = `${upTo}|${key}`;
   const hit = counts.get(cacheKey);
   if (hit && hit.version === version) return hit.n;
-  const n = db.get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.count} LIMIT ${upTo})`)?.n ?? 0;
+  const text = `SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.count.text} LIMIT ?)`;
+  const n = (statementFor(db, text).get(...f.count.params, upTo) as { n: number } | undefined)?.n ?? 0;
   if (counts.size >= 1000) counts.delete(counts.keys().next().value!);
   counts.set(cacheKey, { version, n });
   return n;
@@ -196,9 +248,9 @@ export function loadFullPieces(ids: string[]): Map<string, { piece: Piece; layer
   const st = registryStatements(getDb());
   const out = new Map<string, { piece: Piece; layers: FinishLayer[] }>();
   for (let i = 0; i < ids.length; i += 500) {
-    const chunk = { ids: JSON.stringify(ids.slice(i, i + 500)) };
-    for (const piece of st.fullPieces.all(chunk)) out.set(piece.id, { piece, layers: [] });
-    for (const l of st.fullLayers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
+    const chunk = JSON.stringify(ids.slice(i, i + 500));
+    for (const piece of wholeRows<Piece>(pieces, st.fullPieces.all(chunk))) out.set(piece.id, { piece, layers: [] });
+    for (const l of wholeRows<FinishLayer>(finishLayers, st.fullLayers.all(chunk))) out.get(l.pieceId)?.layers.push(l);
   }
   return out;
 }

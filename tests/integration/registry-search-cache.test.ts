@@ -1,0 +1,63 @@
+// The registry search keeps two per-process caches (lib/pieces/registry-sql.ts countMatches: the count
+// of a filter's matches; lib/pieces/registry-list.ts: each row's next care), both tied to the
+// database's version. A search repeated after a piece is created, edited or deleted must show the
+// change at once: the same query, asked again in the same process, against a real SQLite file.
+import { describe, expect, it } from "vitest";
+import { createPiece, deletePiece, listPieces, updatePiece } from "@/lib/pieces/registry";
+import { createPieceSchema, pieceListQuerySchema, type CreatePieceInput } from "@/lib/validation/pieces";
+import { createStudio, memberContext } from "../support/fixtures";
+
+const base = (title: string, over: Partial<CreatePieceInput> = {}): CreatePieceInput => ({
+  kind: "coffee_table",
+  title,
+  shapeKind: "rectangle",
+  lengthMm: 1200,
+  widthMm: 600,
+  thicknessMm: 40,
+  primarySpeciesId: "white_oak",
+  resinKind: "none",
+  use: "light",
+  sun: "indirect",
+  deliveredOn: "2025-03-01",
+  layers: [{ surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-02-27" }],
+  ...over,
+});
+
+describe("registry search caches", () => {
+  it("a repeated search counts again after a piece is created, edited or deleted", async () => {
+    const ctx = await memberContext(createStudio(), "staff");
+    // A page of 10 with more matches than that: the total comes from the (cached) count, not the page.
+    const search = () => listPieces(ctx, pieceListQuerySchema.parse({ q: "quillback", pageSize: 10 }));
+    const made = Array.from({ length: 11 }, (_, i) => createPiece(ctx, createPieceSchema.parse(base(`Quillback stool ${i + 1} (invented)`))).piece);
+    expect(search().total).toBe(11);
+    expect(search().total).toBe(11); // asked again: served from the cache
+
+    const added = createPiece(ctx, createPieceSchema.parse(base("Quillback desk (invented)"))).piece;
+    expect(search().total).toBe(12);
+
+    updatePiece(ctx, made[0]!.id, { title: "Plain bench (invented)" });
+    expect(search().total).toBe(11);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "quillback", pageSize: 100 })).rows.map((r) => r.id)).not.toContain(made[0]!.id);
+
+    expect(await deletePiece(ctx, added.id)).toEqual({ deleted: true, archived: false });
+    // Ten left: a full first page of 10 still asks the count.
+    expect(search().total).toBe(10);
+    expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "quillback", pageSize: 100 })).rows.map((r) => r.id).sort()).toEqual(made.slice(1).map((p) => p.id).sort());
+  });
+
+  it("a row's next care date follows an edit of the piece it depends on", async () => {
+    const ctx = await memberContext(createStudio(), "staff");
+    const { piece } = createPiece(ctx, createPieceSchema.parse(base("Sallowmere side table (invented)")));
+    const row = () => listPieces(ctx, pieceListQuerySchema.parse({ q: "sallowmere" })).rows.find((r) => r.id === piece.id)!;
+    const before = row().nextCare;
+    expect(before).not.toBeNull();
+    expect(row().nextCare).toEqual(before); // asked again: served from the cache
+    // Delivered a year later: the warranty end moves with it, and with no care logged the first
+    // oil refresh counts from the layer's new date, so the next care date moves too.
+    updatePiece(ctx, piece.id, { deliveredOn: "2026-03-01", layers: [{ surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2026-02-27" }] });
+    const after = row();
+    expect(after.deliveredOn).toBe("2026-03-01");
+    expect(after.nextCare).not.toBeNull();
+    expect(after.nextCare!.dueOn).not.toBe(before!.dueOn);
+  });
+});
