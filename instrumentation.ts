@@ -7,4 +7,6 @@ export async function register() {
   // Per-address rate limits need the socket's address, which route handlers never see.
   const [{ stampClientAddresses }, { env }] = await Promise.all([import("./lib/auth/client-address"), import("./lib/env")]);
   stampClientAddresses(env.TRUST_PROXY);
+  // Not awaited: the server answers at once while the PDF renderer starts for the first drawer card.
+  void import("./lib/pieces/card-warm").then((m) => m.warmCardRenderer());
 }

@@ -12,8 +12,9 @@ const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
   pageExtensions,
-  // Native modules stay outside the server bundle.
-  serverExternalPackages: ["better-sqlite3", "@node-rs/argon2", "sharp", "@react-email/render", "@react-email/components", "nodemailer"],
+  // Native modules stay outside the server bundle; qrcode too, so the renderer warmed at start
+  // (lib/pieces/card-warm.tsx) and the card routes share one instance.
+  serverExternalPackages: ["better-sqlite3", "@node-rs/argon2", "sharp", "@react-email/render", "@react-email/components", "nodemailer", "qrcode"],
   experimental: {
     // Server actions here take short forms (no files: uploads go to the API routes, read by
     // lib/http/body.ts), so a body over 256 kB is refused with a 413. The proxy's copy of a page

@@ -28,8 +28,11 @@ import { openRegistrationCode } from "./registration";
 // tighter level is tried (the last level is the floor). The level found is kept per body and size for
 // the process, dates written as the widest date, so a batch of cards with the same finishes measures once.
 
-// Whole words only: hyphenated "some- where" reads badly on a small card.
-Font.registerHyphenationCallback((word) => [word]);
+// Whole words only: hyphenated "some- where" reads badly on a small card. A word longer than any line
+// can hold (a 60-letter title or studio name with no space) may break after any letter instead, so it
+// wraps inside the card rather than running off its edge.
+const LONGEST_UNBROKEN_WORD = 18;
+Font.registerHyphenationCallback((word) => (word.length > LONGEST_UNBROKEN_WORD ? [...word] : [word]));
 
 export const CARD_SIZES = { "4x6": [288, 432] as [number, number], a6: [297.64, 419.53] as [number, number] };
 export type CardSize = keyof typeof CARD_SIZES;

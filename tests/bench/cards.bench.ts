@@ -1,9 +1,11 @@
 // Drawer cards (lib/pieces/card.tsx) rendered in this process, as the card routes do after their
 // session check: targets one card < 500 ms and a batch of 100 < 15 s (the issue's targets).
+//   - the first card after start-up: the renderer warmed as the server's start does it
+//     (lib/pieces/card-warm.tsx, from instrumentation.ts; its time is reported), then the card module
+//     loaded and one crowded 4 × 6 in card rendered, timed together as the first request pays them;
 //   - one card: the median of 10 renders of one 4 × 6 in card, each a piece with its own code;
-//     the process's very first card (module loading, first layout) is reported, not judged;
 //   - a batch: 100 pieces with mixed finishes on Letter sheets (two cards a sheet, with cut marks),
-//     the first batch in the process (no card body measured before); also reported for one card a page.
+//     the first batch in the process (only the first card's body measured before); also reported for one card a page.
 // The floor: react-pdf alone rendering a one-page document with a few lines of text.
 // Seeds its own SQLite file in the OS temp dir; data are synthetic and invented.
 // Standalone: npx tsx tests/bench/cards.bench.ts
@@ -86,11 +88,19 @@ try {
   }
   const now = new Date("2026-12-03T15:00:00Z");
 
+  // As the server's start does, before any request.
+  const { warmCardRenderer } = await import("../../lib/pieces/card-warm");
+  const warmMs = await warmCardRenderer();
+
   const t0 = performance.now();
   const card = await import("../../lib/pieces/card");
   const importMs = performance.now() - t0;
+  // The first card after start-up: nothing measured before it.
+  const first = await card.renderDrawerCard(ctx, ids[BATCH + RUNS]!, "4x6", now);
+  const firstMs = performance.now() - t0;
+  if (first.pdf.subarray(0, 5).toString() !== "%PDF-") throw new Error("not a PDF");
 
-  // The first batch runs first, so that no card body has been measured in this process before it.
+  // The first batch runs next, so that no other card body has been measured in this process before it.
   let t = performance.now();
   const batch = await card.renderDrawerCards(ctx, { ids: ids.slice(0, BATCH) }, "letter", now);
   const batchMs = performance.now() - t;
@@ -118,8 +128,10 @@ try {
   }
   const floorMs = median(floorTimes);
 
-  console.log(`module load ${importMs.toFixed(0)} ms; batch of ${batch.count} on Letter sheets ${batchMs.toFixed(0)} ms (${(batch.pdf.length / 1024).toFixed(0)} kB); one card a page ${batchSingleMs.toFixed(0)} ms (${single.count} pages)`);
+  console.log(`renderer warmed at start ${warmMs.toFixed(0)} ms; first card after start-up ${firstMs.toFixed(0)} ms (of which module load ${importMs.toFixed(0)} ms)`);
+  console.log(`batch of ${batch.count} on Letter sheets ${batchMs.toFixed(0)} ms (${(batch.pdf.length / 1024).toFixed(0)} kB); one card a page ${batchSingleMs.toFixed(0)} ms (${single.count} pages)`);
   console.log(`one card, runs (ms): ${times.map((x) => x.toFixed(0)).join(", ")}; median ${oneMs.toFixed(0)} ms; floor (react-pdf, one page of text) ${floorMs.toFixed(0)} ms`);
+  result({ figure: "drawer card, the first after start-up (renderer warmed at server start)", target: `< ${ONE_CARD_MS} ms`, measured: `${firstMs.toFixed(0)} ms`, floor: `react-pdf one page of text ${floorMs.toFixed(0)} ms`, ratio: firstMs / floorMs, ok: firstMs < ONE_CARD_MS });
   result({ figure: "drawer card, one 4×6 in card (median of 10)", target: `< ${ONE_CARD_MS} ms`, measured: `${oneMs.toFixed(0)} ms`, floor: `react-pdf one page of text ${floorMs.toFixed(0)} ms`, ratio: oneMs / floorMs, ok: oneMs < ONE_CARD_MS });
   result({
     figure: `drawer cards, batch of ${BATCH} on Letter sheets (first batch in the process)`,

@@ -147,6 +147,28 @@ describe("one drawer card per page", () => {
     });
   }
 
+  it("a single over-wide word (a title or studio name without spaces) is broken so every line stays inside the page, on the card and on a sheet", async () => {
+    // 60+ characters without a space: wider than the card at any of its type sizes.
+    const word = "Bookmatchedwalnutriverdiningtablewithawaterfallendandcharredbase";
+    const { ctx } = await studioWithStaff("Riversideworkshopoffinefurnitureandjoineryandturnery(invented)");
+    const { piece, registrationCode } = crowdedPiece(ctx, word);
+    for (const size of ["4x6", "a6"] as const) {
+      const { pdf } = await renderDrawerCard(ctx, piece.id, size, PRINTED);
+      const { pages, file, text } = readPdf(pdf);
+      expect(pages).toHaveLength(1);
+      const [w, h] = [pages[0]!.width, pages[0]!.height];
+      expect(outside(pages[0]!.words, [0, 0, w, h]), `${size}: words outside the page`).toEqual([]);
+      // The title is still there, broken over its lines, not dropped.
+      expect(text.replace(/[\s\u2026-]+/g, "")).toContain(word.slice(0, 40));
+      expect(text).toContain(registrationCode);
+      expect(qrOf(file, 1, 200)).toBe(`${APP_URL}/r/${registrationCode}`);
+    }
+    const sheet = readPdf((await renderDrawerCards(ctx, { ids: [piece.id] }, "letter", PRINTED)).pdf);
+    const x0 = (612 - 2 * 288) / 2;
+    const y0 = (792 - 432) / 2;
+    expect(outside(sheet.pages[0]!.words, [x0, y0, x0 + 288, y0 + 432]), "letter sheet: words outside the card").toEqual([]);
+  });
+
   it("an everyday card keeps its full type and its care basics", async () => {
     const { ctx } = await studioWithStaff("Small Shop (invented)");
     const { piece, registrationCode } = plainPiece(ctx, "Oak coffee table (invented)");
