@@ -9,10 +9,11 @@ import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
-import { FINISH_CLASS_LABELS, SURFACES, type FinishClass, type Surface } from "@/lib/care/vocabulary";
+import { FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import type { LayerInput } from "@/lib/validation/pieces";
 import { callApi } from "@/components/api-client";
-import { LayerFields, SURFACE_LABELS, type MemberOption, type ProductOption } from "./layer-fields";
+import { formatDate } from "@/lib/format";
+import { LayerFields, type MemberOption, type ProductOption } from "./layer-fields";
 
 export type StackLayer = {
   id: string;
@@ -116,7 +117,7 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                         <span className="font-normal"> · {l.productName ?? (l.productLabel || "unlabelled product")}</span>
                       </p>
                       <p className="text-sm opacity-80">
-                        {l.coats} coat{l.coats === 1 ? "" : "s"} · {l.appliedOn}
+                        {l.coats} coat{l.coats === 1 ? "" : "s"} · {formatDate(l.appliedOn, { short: true })}
                         {l.appliedByName ? ` · ${l.appliedByName}` : ""}
                         {l.batchLot ? ` · lot ${l.batchLot}` : ""}
                         {l.notes ? ` · ${l.notes}` : ""}

@@ -2,13 +2,12 @@
 
 import type { FieldErrors, FieldValues, UseFormRegister, UseFormSetValue } from "react-hook-form";
 import { SelectField, TextField } from "@/components/ui/field";
-import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
+import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
 import { emptyToNull, numberOrNull } from "@/components/forms/field-values";
 
 export type ProductOption = { id: string; name: string; finishClass: FinishClass };
 export type MemberOption = { id: string; name: string };
 
-export const SURFACE_LABELS = { top: "Top", base: "Base", edges: "Edges" } as const;
 
 type Errs = Partial<Record<"surface" | "finishClass" | "productId" | "productLabel" | "coats" | "appliedOn" | "appliedById" | "batchLot" | "notes", { message?: string }>>;
 

@@ -14,7 +14,7 @@ import { FINISH_CLASSES, FINISH_CLASS_LABELS, PIECE_KINDS, PIECE_KIND_LABELS } f
 import type { RegistryPage, RegistryRow } from "@/lib/pieces/registry";
 import { CardPrintBar } from "./card-print-bar";
 import { CareStatus, RegistrationStatus } from "./status";
-import { formatCount } from "@/lib/format";
+import { formatCount, formatDate } from "@/lib/format";
 
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
 
@@ -240,7 +240,7 @@ export function RegistryTable() {
                     <p>{[r.primarySpecies, r.secondarySpecies].filter(Boolean).join(" + ")}</p>
                     <p className="text-muted">{r.finishClasses.map((c) => FINISH_CLASS_LABELS[c]).join(", ") || "No finish layers yet"}</p>
                   </td>
-                  <td className="text-sm whitespace-nowrap">{r.deliveredOn}</td>
+                  <td className="text-sm whitespace-nowrap">{formatDate(r.deliveredOn, { short: true })}</td>
                   <td className="text-sm">
                     <RegistrationStatus registered={r.registered} />
                     {r.owner ? <p className="text-muted">{r.owner.name}</p> : null}
@@ -259,7 +259,7 @@ export function RegistryTable() {
                 <Link href={`/studio/pieces/${r.id}`} className="block flex-1 rounded-xl border border-line bg-card p-4 hover:border-resin">
                   <p className="font-semibold">{r.title}</p>
                   <p className="text-sm text-muted">
-                    {PIECE_KIND_LABELS[r.kind]} · {r.primarySpecies} · delivered {r.deliveredOn}
+                    {PIECE_KIND_LABELS[r.kind]} · {r.primarySpecies} · delivered {formatDate(r.deliveredOn, { short: true })}
                   </p>
                   <div className="mt-2 flex flex-wrap items-center gap-x-4 gap-y-1">
                     <RegistrationStatus registered={r.registered} />
@@ -313,7 +313,7 @@ function NextCare({ row }: { row: RegistryRow }) {
     <span className="inline-flex flex-wrap items-center gap-x-2">
       <CareStatus status={row.nextCare.status} />
       <span>
-        {row.nextCare.label} · {row.nextCare.dueOn}
+        {row.nextCare.label} · {formatDate(row.nextCare.dueOn, { short: true })}
       </span>
     </span>
   );

@@ -10,7 +10,7 @@ import { Card } from "@/components/ui/card";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
 import type { LedgerListRow, UpcomingRow } from "@/lib/reminders/staff";
-import { formatInstant } from "@/lib/format";
+import { formatDate, formatInstant } from "@/lib/format";
 
 type View = "upcoming" | "ledger";
 type Filters = { status: string; kind: string; step: string; q: string };
@@ -165,12 +165,12 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
               {view === "upcoming"
                 ? (query.data.rows as UpcomingRow[]).map((r) => (
                     <tr key={`${r.taskKey}:${r.step}`}>
-                      <td className="px-3 py-2 tabular-nums">{r.on}</td>
+                      <td className="px-3 py-2 tabular-nums">{formatDate(r.on, { short: true })}</td>
                       <td className="px-3 py-2">
                         <span className="font-medium">{r.pieceTitle}</span>
                         <span className="block text-muted">{r.ownerName}</span>
                       </td>
-                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {r.dueOn}</span></td>
+                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {formatDate(r.dueOn, { short: true })}</span></td>
                       <td className="px-3 py-2">{STEP_WORDS[r.step]}</td>
                       <td className="px-3 py-2"><StatusBadge status={r.state} /></td>
                       <td className="px-3 py-2 text-right">
@@ -185,7 +185,7 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
                         <span className="font-medium">{r.pieceTitle}</span>
                         <span className="block text-muted">{r.ownerName} · {r.ownerEmail}</span>
                       </td>
-                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {r.dueOn}</span></td>
+                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {formatDate(r.dueOn, { short: true })}</span></td>
                       <td className="px-3 py-2">{STEP_WORDS[r.step]}</td>
                       <td className="px-3 py-2">
                         <StatusBadge status={r.status} />

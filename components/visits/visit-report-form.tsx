@@ -8,7 +8,7 @@ import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
+import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
 import type { visitReportSchema, VisitReportInput, VisitReportValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError, uploadForm } from "@/components/api-client";
@@ -16,7 +16,6 @@ import { apiJson, isApiError, uploadForm } from "@/components/api-client";
 type Product = { id: string; name: string; finishClass: FinishClass };
 type Photo = { id: string; kind: "before" | "after"; thumbUrl: string };
 
-const SURFACE_LABELS: Record<string, string> = { top: "Top", edges: "Edges", base: "Base" };
 
 /** Uploads one before/after photo; `onProgress` gets whole percent. */
 async function uploadPhoto(visitId: string, file: File, kind: "before" | "after", onProgress: (pct: number) => void): Promise<Photo> {

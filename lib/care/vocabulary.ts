@@ -32,6 +32,7 @@ export type SunExposure = (typeof SUN_EXPOSURES)[number];
 
 export const SURFACES = ["top", "base", "edges"] as const;
 export type Surface = (typeof SURFACES)[number];
+export const SURFACE_LABELS: Record<Surface, string> = { top: "Top", base: "Base", edges: "Edges" };
 
 export const RESIN_KINDS = ["none", "deep_pour", "tabletop_coat"] as const;
 export type ResinKind = (typeof RESIN_KINDS)[number];

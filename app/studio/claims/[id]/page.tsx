@@ -3,7 +3,7 @@ import Link from "next/link";
 import { CoveragePanel } from "@/components/claims/coverage-panel";
 import { CreateRepairJobButton } from "@/components/claims/create-job-button";
 import { MessageThread } from "@/components/claims/message-thread";
-import { formatInstant, formatZone, formatSize, formatThickness, type TopShape, type UnitSystem } from "@/lib/format";
+import { formatDate, formatInstant, formatZone, formatSize, formatThickness, type TopShape, type UnitSystem } from "@/lib/format";
 import { PhotoGallery } from "@/components/claims/photo-gallery";
 import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
 import { StateBadge } from "@/components/claims/state-badge";
@@ -11,7 +11,7 @@ import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, SURFACE_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { getSpecies } from "@/lib/care/species";
 import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, decisionText, formatWait } from "@/lib/claims/labels";
@@ -175,7 +175,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                 {USE_LABELS[piece.use]} · {SUN_LABELS[piece.sun]}
               </dd>
               <dt className="text-muted">Delivered</dt>
-              <dd>{piece.deliveredOn}</dd>
+              <dd>{formatDate(piece.deliveredOn)}</dd>
               {piece.internalNotes ? (
                 <>
                   <dt className="text-muted">Notes</dt>
@@ -195,7 +195,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               <ol className="space-y-1">
                 {[...v.layers].reverse().map((l) => (
                   <li key={l.id} className="rounded-md border border-line bg-paper px-3 py-2 text-sm">
-                    <span className="font-medium">{FINISH_CLASS_LABELS[l.finishClass]}</span> · {l.surface} · {l.coats} coat{l.coats === 1 ? "" : "s"} · {l.appliedOn}
+                    <span className="font-medium">{FINISH_CLASS_LABELS[l.finishClass]}</span> · {SURFACE_LABELS[l.surface]} · {l.coats} coat{l.coats === 1 ? "" : "s"} · {formatDate(l.appliedOn, { short: true })}
                     {l.productLabel ? <span className="block text-muted">{l.productLabel}{l.batchLot ? `, lot ${l.batchLot}` : ""}</span> : null}
                   </li>
                 ))}
@@ -210,7 +210,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               <ul className="space-y-1 text-sm">
                 {v.careLog.map((e) => (
                   <li key={e.id}>
-                    {e.doneOn} · {CARE_TASK_LABELS[e.taskKind]}
+                    {formatDate(e.doneOn, { short: true })} · {CARE_TASK_LABELS[e.taskKind]}
                     {e.surface ? ` (${e.surface})` : ""} · by {e.source}
                     {e.productUsed ? ` · ${e.productUsed}` : ""}
                   </li>

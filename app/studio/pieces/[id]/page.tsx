@@ -59,7 +59,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
     <>
       <PageHeader
         title={p.title}
-        lead={`${PIECE_KIND_LABELS[p.kind]} · delivered ${p.deliveredOn}${p.archivedAt ? " · archived" : ""}`}
+        lead={`${PIECE_KIND_LABELS[p.kind]} · delivered ${formatDate(p.deliveredOn)}${p.archivedAt ? " · archived" : ""}`}
         actions={
           <ButtonLink href={`/studio/pieces/${p.id}/edit`} variant="secondary">
             <Pencil aria-hidden className="size-4" /> Edit record
@@ -84,7 +84,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                 {USE_LABELS[p.use]} · {SUN_LABELS[p.sun]}
               </Row>
               <Row label="Delivered">
-                {p.deliveredOn}
+                {formatDate(p.deliveredOn)}
                 {p.deliveryAddress ? ` · ${p.deliveryAddress}` : ""}
               </Row>
               {p.internalNotes ? <Row label="Internal notes">{p.internalNotes}</Row> : null}
@@ -154,7 +154,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
               {d.timeline.map((e, i) => (
                 <li key={i} className="text-sm">
                   <span className="absolute -left-[7px] mt-1.5 size-3 rounded-full border-2 border-card bg-resin" aria-hidden />
-                  <span className="font-medium">{e.on}</span> · <span className="text-muted">{e.kind === "layer" ? "finish" : e.kind}</span> · {e.text}
+                  <span className="font-medium">{formatDate(e.on, { short: true })}</span> · <span className="text-muted">{e.kind === "layer" ? "finish" : e.kind}</span> · {e.text}
                 </li>
               ))}
             </ol>
