@@ -77,7 +77,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
               <Row label="Species">{species.join(" + ")}</Row>
               <Row label="Resin">
                 {RESIN_LABELS[p.resinKind]}
-                {p.resinKind !== "none" ? ` · poured ${p.resinPouredOn ?? "—"} · ${formatLargeVolume(p.resinVolumeMl, u)}${p.resinTint ? ` · ${p.resinTint}` : ""}` : ""}
+                {p.resinKind !== "none" ? ` · poured ${p.resinPouredOn ? formatDate(p.resinPouredOn) : "—"} · ${formatLargeVolume(p.resinVolumeMl, u)}${p.resinTint ? ` · ${p.resinTint}` : ""}` : ""}
               </Row>
               <Row label="Base">{[p.baseMaterial, p.baseFinish].filter((x) => x && x !== "—").join(", ") || "—"}</Row>
               <Row label="Use and sun">
