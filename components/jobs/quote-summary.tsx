@@ -36,6 +36,12 @@ export function QuoteSummary({ figures, totalLabel = "To pay", showProposed = fa
               <td className="text-right tabular-nums">{f.text.covered}</td>
             </tr>
           ) : null}
+          {f.text.discount ? (
+            <tr>
+              <td>{f.discountLabel}</td>
+              <td className="text-right tabular-nums">{f.text.discount}</td>
+            </tr>
+          ) : null}
           <tr>
             <td>Net</td>
             <td className="text-right tabular-nums">{f.text.net}</td>

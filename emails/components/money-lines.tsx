@@ -6,6 +6,8 @@ export type MoneyLinesProps = {
   lines: { description: string; detail: string; amount: string }[];
   subtotal: string;
   covered: { label: string; amount: string } | null;
+  /** A running care plan's discount on the repair; absent or null: none. */
+  discount?: { label: string; amount: string } | null;
   net: string;
   taxLabel: string;
   tax: string;
@@ -31,7 +33,7 @@ function Pair({ label, amount, strong = false }: { label: string; amount: string
   );
 }
 
-export function MoneyLines({ lines, subtotal, covered, net, taxLabel, tax, total, totalLabel, roundingNote, taxNumber }: MoneyLinesProps) {
+export function MoneyLines({ lines, subtotal, covered, discount, net, taxLabel, tax, total, totalLabel, roundingNote, taxNumber }: MoneyLinesProps) {
   return (
     <Section style={{ margin: "0 0 16px" }}>
       {lines.map((l, i) => (
@@ -47,6 +49,7 @@ export function MoneyLines({ lines, subtotal, covered, net, taxLabel, tax, total
       ))}
       <Pair label="Subtotal" amount={subtotal} />
       {covered ? <Pair label={covered.label} amount={covered.amount} /> : null}
+      {discount ? <Pair label={discount.label} amount={discount.amount} /> : null}
       <Pair label="Net" amount={net} />
       <Pair label={taxLabel} amount={tax} />
       <Pair label={totalLabel} amount={total} strong />

@@ -21,11 +21,18 @@ function taxLabel(lines: JobLine[], rules: PricingRules | null): string {
 
 export type JobFigures = ReturnType<typeof jobFigures>;
 
+/** "Care plan “Wax keeping”: 10 % off repairs" — the discount row's words, or null without a plan discount. */
+function discountLabel(rules: PricingRules | null): string | null {
+  const d = rules?.planDiscount;
+  return d ? `Care plan “${d.planName}”: ${d.pct} % off repairs` : null;
+}
+
 /** Lines and totals, each amount also written out for the studio's country. */
 export function jobFigures(job: JobMoney, studio: Pick<Studio, "country" | "taxNumber">) {
   const lines = readLines(job.lines);
   const rules = rulesOf(job);
   const money = (minor: number) => formatMoney(minor, job.currency, studio.country);
+  const discountMinor = lines.reduce((s, l) => s + (l.discountMinor ?? 0), 0);
   return {
     currency: job.currency,
     lines: lines.map((l) => ({
@@ -38,11 +45,13 @@ export function jobFigures(job: JobMoney, studio: Pick<Studio, "country" | "taxN
     subtotalMinor: job.subtotalMinor,
     coveredMinor: job.coveredMinor,
     coveredPct: job.coveredPct,
+    discountMinor,
     netMinor: job.netMinor,
     taxMinor: job.taxMinor,
     totalMinor: job.totalMinor,
-    text: { subtotal: money(job.subtotalMinor), covered: job.coveredMinor ? `−${money(job.coveredMinor)}` : null, net: money(job.netMinor), tax: money(job.taxMinor), total: money(job.totalMinor) },
+    text: { subtotal: money(job.subtotalMinor), covered: job.coveredMinor ? `−${money(job.coveredMinor)}` : null, discount: discountMinor ? `−${money(discountMinor)}` : null, net: money(job.netMinor), tax: money(job.taxMinor), total: money(job.totalMinor) },
     coveredLabel: `Covered by the warranty (${job.coveredPct} %)`,
+    discountLabel: discountLabel(rules) ?? "Care plan discount",
     taxLabel: taxLabel(lines, rules),
     roundingNote: rules ? roundingWords(rules.rounding, job.currency) : null,
     taxNumber: studio.taxNumber || null,
@@ -63,6 +72,7 @@ export function jobApiMoney(job: JobMoney) {
       unitPriceMinor: l.unitPriceMinor,
       amountMinor: l.amountMinor,
       coveredMinor: l.coveredMinor,
+      discountMinor: l.discountMinor ?? 0,
       taxRateBp: l.taxRateBp,
       taxMinor: l.taxMinor,
       lineTotalMinor: l.totalMinor,
@@ -86,7 +96,7 @@ export function checkoutLineItems(job: JobMoney) {
       price_data: {
         currency: job.currency.toLowerCase(),
         unit_amount: l.totalMinor,
-        product_data: { name: `${l.description} — ${l.quantity} ${LINE_UNIT_LABELS[l.unit]}${l.coveredMinor ? ", after the warranty share" : ""}${l.taxMinor ? ", tax included" : ""}` },
+        product_data: { name: `${l.description} — ${l.quantity} ${LINE_UNIT_LABELS[l.unit]}${l.coveredMinor ? ", after the warranty share" : ""}${l.discountMinor ? ", after the care plan discount" : ""}${l.taxMinor ? ", tax included" : ""}` },
       },
     }));
   // Lines stored before each line carried its own share (or none at all): one item for the total.

@@ -6,6 +6,7 @@ import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
+import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { jobVisibleTo, jobWhere } from "./access";
 import type { OwnerReach } from "./owner-reach";
@@ -71,7 +72,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       const piece = tx.select().from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
       const coveredPct = claim.decision === "covered" ? 100 : claim.decision === "partly_covered" ? (claim.coveredPct ?? 0) : 0;
       const input = defaultQuoteInput(`Repair: ${piece.title}`, CLAIM_WORK[claim.category] ?? { tasks: ["annual_check"] }, products, coveredPct);
-      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products)) };
+      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products, [], planRepairDiscount(piece.id, new Date()))) };
     } else {
       const offer = tx.select().from(refreshOffers).where(and(eq(refreshOffers.id, sourceId), eq(refreshOffers.studioId, ctx.studio.id))).get();
       if (!offer) throw notFound("No such refresh offer in this studio.");
@@ -80,7 +81,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       const piece = tx.select().from(pieces).where(eq(pieces.id, offer.pieceId)).get()!;
       const kind = offer.taskKey.split(":")[1] as CareTaskKind | undefined;
       const input = defaultQuoteInput(`Refresh visit: ${piece.title}`, { tasks: kind ? [kind] : ["annual_check"] }, products, 0);
-      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products)) };
+      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products, [], planRepairDiscount(piece.id, new Date()))) };
     }
     const job = tx.insert(repairJobs).values(values).returning().get();
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.created", subjectType: "repair_job", subjectId: job.id, data: { from, sourceId } });

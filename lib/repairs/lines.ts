@@ -37,6 +37,15 @@ export interface PricingRules {
   rounding: RoundingRule;
   taxMode: TaxMode;
   taxInclusive: boolean;
+  /** The care plan whose repair discount the quote applies; absent: none. */
+  planDiscount?: PlanDiscount;
+}
+
+/** A running care plan's discount on paid repairs, as the quote names it. */
+export interface PlanDiscount {
+  pct: number;
+  planName: string;
+  planVersion: number;
 }
 
 /** A line as staff send it: what, how much, at what unit price, from where. */
@@ -59,6 +68,8 @@ export interface JobLine extends LineDraft {
   amountMinor: number;
   /** The warranty's share of this line. */
   coveredMinor: number;
+  /** The care plan's discount on what the warranty leaves (absent on lines priced before plans). */
+  discountMinor?: number;
   taxRateBp: number;
   taxMinor: number;
   /** The owner's part before tax. */
@@ -71,6 +82,8 @@ export interface PricedLines {
   lines: JobLine[];
   subtotalMinor: number;
   coveredMinor: number;
+  /** The care plan's discount, summed over the lines. */
+  discountMinor: number;
   netMinor: number;
   taxMinor: number;
   totalMinor: number;
@@ -119,30 +132,34 @@ export function taxRateFor(tax: StudioTax, kind: LineKind): number {
 
 /**
  * Prices the lines. Per line: amount = quantity × unit price rounded by the rule; the warranty's share
- * = amount × covered % (half up); the owner's part = amount − share; tax on the owner's part at the
+ * = amount × covered % (half up); a care plan's discount = (amount − share) × discount % (half up);
+ * the owner's part = amount − share − discount; tax on the owner's part at the
  * line kind's rate (exclusive: added on top; inclusive: the part already holds it, tax = part × r/(1+r)).
  * Each is rounded once per line, and the totals are the sums, so the checkout's lines add up to the
  * quote's total to the minor unit.
  */
 export function priceLines(
   drafts: readonly (LineDraft & { proposed?: JobLine["proposed"] })[],
-  opts: { currency: string; rounding: RoundingRule; tax: StudioTax; coveredPct: number },
+  opts: { currency: string; rounding: RoundingRule; tax: StudioTax; coveredPct: number; discountPct?: number },
 ): PricedLines {
   const step = roundingStep(opts.rounding, opts.currency);
   const pct = Math.round(opts.coveredPct);
   if (pct < 0 || pct > 100) throw new RangeError(`coveredPct must be 0–100, got ${opts.coveredPct}`);
+  const off = Math.round(opts.discountPct ?? 0);
+  if (off < 0 || off > 100) throw new RangeError(`discountPct must be 0–100, got ${opts.discountPct}`);
   const lines = drafts.map((d): JobLine => {
     if (!Number.isSafeInteger(d.unitPriceMinor) || d.unitPriceMinor < 0) throw new RangeError(`unit price must be whole minor units, got ${d.unitPriceMinor}`);
     const amountMinor = lineAmount(d.quantity, d.unitPriceMinor, step);
     const coveredMinor = mulDivHalfUp(amountMinor, pct, 100);
-    const part = amountMinor - coveredMinor;
+    const discountMinor = mulDivHalfUp(amountMinor - coveredMinor, off, 100);
+    const part = amountMinor - coveredMinor - discountMinor;
     const taxRateBp = taxRateFor(opts.tax, d.kind);
     const taxMinor = opts.tax.inclusive ? mulDivHalfUp(part, taxRateBp, 10_000 + taxRateBp) : mulDivHalfUp(part, taxRateBp, 10_000);
     const netMinor = opts.tax.inclusive ? part - taxMinor : part;
-    return { ...d, proposed: d.proposed ?? null, amountMinor, coveredMinor, taxRateBp, taxMinor, netMinor, totalMinor: netMinor + taxMinor };
+    return { ...d, proposed: d.proposed ?? null, amountMinor, coveredMinor, ...(off ? { discountMinor } : {}), taxRateBp, taxMinor, netMinor, totalMinor: netMinor + taxMinor };
   });
-  const sum = (k: "amountMinor" | "coveredMinor" | "netMinor" | "taxMinor" | "totalMinor") => lines.reduce((s, l) => s + l[k], 0);
-  return { lines, subtotalMinor: sum("amountMinor"), coveredMinor: sum("coveredMinor"), netMinor: sum("netMinor"), taxMinor: sum("taxMinor"), totalMinor: sum("totalMinor") };
+  const sum = (k: "amountMinor" | "coveredMinor" | "discountMinor" | "netMinor" | "taxMinor" | "totalMinor") => lines.reduce((s, l) => s + (l[k] ?? 0), 0);
+  return { lines, subtotalMinor: sum("amountMinor"), coveredMinor: sum("coveredMinor"), discountMinor: sum("discountMinor"), netMinor: sum("netMinor"), taxMinor: sum("taxMinor"), totalMinor: sum("totalMinor") };
 }
 
 /**

@@ -24,6 +24,7 @@ export function quoteFigures(job: JobView["job"], studio: JobView["studio"]) {
     lines: f.lines.map((l) => ({ description: l.description, detail: l.quantityText, amount: l.amount })),
     subtotal: f.text.subtotal,
     covered: f.text.covered ? { label: f.coveredLabel, amount: f.text.covered } : null,
+    discount: f.text.discount ? { label: f.discountLabel, amount: f.text.discount } : null,
     net: f.text.net,
     taxLabel: f.taxLabel,
     tax: f.text.tax,

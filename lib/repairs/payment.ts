@@ -11,6 +11,7 @@ import { AppError, badRequest, conflict, notFound, rephrased } from "@/lib/error
 import { sendMail } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
 import { callStripe, verifyStripeEvent } from "@/lib/payments/stripe";
+import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
 import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
@@ -30,7 +31,8 @@ export async function updateJobQuote(ctx: StudioContext, jobId: string, input: J
   if (!QUOTE_EDITABLE.includes(job.state)) throw conflict("This job's quote can no longer be changed.");
   const unknown = input.productIds.filter((p) => !products.some((x) => x.id === p));
   if (unknown.length) throw notFound("One of those products is not in this studio's catalog.");
-  const priced = priceJob(studio, piece, input, products, job.lines);
+  // A running care plan's repair discount, as it stands when the quote is priced.
+  const priced = priceJob(studio, piece, input, products, job.lines, planRepairDiscount(piece.id, new Date()));
   if (priced.lines.length === 0) throw badRequest("A quote needs at least one line.", { lines: ["Add a line, or pick a task to propose lines from."] });
   await closeOpenCheckouts(job.id);
   // The owner may have finished paying the old quote a moment ago: that payment stands.

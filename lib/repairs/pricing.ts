@@ -8,7 +8,7 @@ import { TASK_KIND_BY_FINISH_CLASS } from "@/lib/care/vocabulary";
 import { formatVolume } from "@/lib/format";
 import { topShape, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
-import { priceLines, type JobLine, type LineDraft, type PricedLines, type PricingRules, type StudioTax } from "./lines";
+import { priceLines, type JobLine, type LineDraft, type PlanDiscount, type PricedLines, type PricingRules, type StudioTax } from "./lines";
 import { priceListOf, proposedQuantity } from "./price-list";
 
 type Product = typeof finishProducts.$inferSelect;
@@ -17,8 +17,8 @@ export function studioTax(studio: Pick<Studio, "taxMode" | "taxInclusive" | "tax
   return { mode: studio.taxMode, inclusive: studio.taxInclusive, rateBp: studio.taxRateBp, ratesBp: studio.taxRatesBp, number: studio.taxNumber };
 }
 
-export function pricingRulesOf(studio: Studio): PricingRules {
-  return { rounding: studio.roundingRule, taxMode: studio.taxMode, taxInclusive: studio.taxInclusive };
+export function pricingRulesOf(studio: Studio, planDiscount: PlanDiscount | null = null): PricingRules {
+  return { rounding: studio.roundingRule, taxMode: studio.taxMode, taxInclusive: studio.taxInclusive, ...(planDiscount ? { planDiscount } : {}) };
 }
 
 /**
@@ -82,10 +82,12 @@ export interface PricedJob extends PricedLines {
 /**
  * Prices a job: the proposal, and the lines as sent — `input.lines` when staff edited them, else the
  * proposal plus the typed lines the job already had (`keepTyped`). Each sent line carries what was
- * proposed for it (matched by ref), so the quote keeps both.
+ * proposed for it (matched by ref), so the quote keeps both. A paid repair on a piece under a running
+ * care plan with a repair discount (`planDiscount`, lib/plans/repair-discount) takes it off every line
+ * after the warranty's share; the pricing rules name the plan so the quote can say so.
  */
-export function priceJob(studio: Studio, piece: typeof pieces.$inferSelect, input: JobQuoteInput, products: Product[], keepTyped: readonly LineDraft[] = []): PricedJob {
-  const opts = { currency: studio.currency, rounding: studio.roundingRule, tax: studioTax(studio), coveredPct: input.coveredPct };
+export function priceJob(studio: Studio, piece: typeof pieces.$inferSelect, input: JobQuoteInput, products: Product[], keepTyped: readonly LineDraft[] = [], planDiscount: PlanDiscount | null = null): PricedJob {
+  const opts = { currency: studio.currency, rounding: studio.roundingRule, tax: studioTax(studio), coveredPct: input.coveredPct, discountPct: planDiscount?.pct ?? 0 };
   const proposal = proposeLines(studio, piece, input, products);
   const proposedLines = priceLines(proposal, opts).lines;
   const sent = input.lines ?? [...proposal, ...keepTyped.filter((l) => l.source === "typed")];
@@ -94,7 +96,7 @@ export function priceJob(studio: Studio, piece: typeof pieces.$inferSelect, inpu
     const { kind, source, ref, description, quantity, unit, unitPriceMinor } = l;
     return { kind, source, ...(ref ? { ref } : {}), description, quantity, unit, unitPriceMinor, proposed: p ? { quantity: p.quantity, unitPriceMinor: p.unitPriceMinor } : null };
   });
-  return { ...priceLines(withProposed, opts), proposedLines, pricingRules: pricingRulesOf(studio) };
+  return { ...priceLines(withProposed, opts), proposedLines, pricingRules: pricingRulesOf(studio, planDiscount) };
 }
 
 /** The job's money columns from a priced job. */

@@ -64,7 +64,7 @@ function pdfFigures(f: JobFigures): JobFigures {
   return {
     ...f,
     lines: f.lines.map((l) => ({ ...l, amount: winAnsi(l.amount), quantityText: winAnsi(l.quantityText) })),
-    text: { subtotal: winAnsi(f.text.subtotal), covered: f.text.covered && winAnsi(f.text.covered), net: winAnsi(f.text.net), tax: winAnsi(f.text.tax), total: winAnsi(f.text.total) },
+    text: { subtotal: winAnsi(f.text.subtotal), covered: f.text.covered && winAnsi(f.text.covered), discount: f.text.discount && winAnsi(f.text.discount), net: winAnsi(f.text.net), tax: winAnsi(f.text.tax), total: winAnsi(f.text.total) },
   };
 }
 
@@ -111,6 +111,7 @@ export function ReceiptDocument({ d, logo = null }: { d: ReceiptData; logo?: Buf
         <View style={{ marginTop: 8 }}>
           <Total label="Subtotal" amount={f.text.subtotal} />
           {f.text.covered ? <Total label={f.coveredLabel} amount={f.text.covered} /> : null}
+          {f.text.discount ? <Total label={f.discountLabel} amount={f.text.discount} /> : null}
           <Total label="Net" amount={f.text.net} />
           <Total label={f.taxLabel} amount={f.text.tax} />
           <Total label="Total paid" amount={f.text.total} strong />
