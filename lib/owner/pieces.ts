@@ -40,17 +40,21 @@ import { warrantyLinesFor, type OwnerWarrantyLine } from "./warranty";
 
 type Owner = Pick<User, "id" | "timeZone" | "unitSystem">;
 
-/** The piece row if `owner` holds it now, else a 404. */
+/** The piece row if `owner` holds it now, else a 404. Prepared once per connection: the piece pages' layout and sections each ask. */
 export function ownedPieceRow(owner: Pick<User, "id">, pieceId: string): Piece {
   if (typeof pieceId !== "string" || pieceId.length === 0 || pieceId.length > 64) throw notFound("No piece with that id among yours.");
-  const row = getDb()
-    .select()
-    .from(pieces)
-    .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, owner.id), isNull(pieces.archivedAt)))
-    .get();
+  const row = ownedRead(getDb()).get({ pieceId, ownerId: owner.id });
   if (!row) throw notFound("No piece with that id among yours.");
   return row;
 }
+
+const ownedRead = perConnection((db) =>
+  db
+    .select()
+    .from(pieces)
+    .where(and(eq(pieces.id, sql.placeholder("pieceId")), eq(pieces.ownerId, sql.placeholder("ownerId")), isNull(pieces.archivedAt)))
+    .prepare(),
+);
 
 /** Today's date for the owner: care logged "today" must never look like the future. */
 export function ownerToday(owner: Pick<User, "timeZone">, now: Date): string {
