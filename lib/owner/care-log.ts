@@ -8,7 +8,7 @@ import type { CareSchedule } from "@/lib/care/schedule";
 import { CARE_TASK_LABELS, type CareTaskKind, type Surface } from "@/lib/care/vocabulary";
 import { badRequest, notFound } from "@/lib/errors";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
-import { careLogPatchSchema, careLogSchema, type CareLogValues } from "@/lib/validation/owner";
+import type { CareLogPatch, CareLogValues } from "@/lib/validation/owner";
 import { formatDate } from "@/lib/format";
 import { myPieceSchedule, ownedPieceRow, ownerToday, taskView, type TaskView } from "./pieces";
 
@@ -56,8 +56,7 @@ export type CareLogResult = { entry: Pick<CareLogRow, "id" | "taskKind" | "surfa
  * stored by lib/storage as a "care_log_photo" file). Returns the entry and the task's new due date
  * and reasons.
  */
-export async function addCareLogEntry(owner: Owner, pieceId: string, raw: unknown, photo?: Uint8Array | null, now = new Date()): Promise<CareLogResult> {
-  const values = careLogSchema.parse(raw);
+export async function addCareLogEntry(owner: Owner, pieceId: string, values: CareLogValues, photo?: Uint8Array | null, now = new Date()): Promise<CareLogResult> {
   const piece = ownedPieceRow(owner, pieceId);
   const { surface } = checkAgainstPiece(owner, piece, values, now);
   const stored = photo && photo.byteLength > 0 ? await storeImage(photo, owner.id) : null;
@@ -117,8 +116,7 @@ export function ownEntry(owner: Pick<User, "id">, pieceId: string, entryId: stri
   return { piece, entry };
 }
 
-export async function updateCareLogEntry(owner: Owner, pieceId: string, entryId: string, raw: unknown, now = new Date()): Promise<CareLogResult> {
-  const patch = careLogPatchSchema.parse(raw);
+export async function updateCareLogEntry(owner: Owner, pieceId: string, entryId: string, patch: CareLogPatch, now = new Date()): Promise<CareLogResult> {
   const { piece, entry } = ownEntry(owner, pieceId, entryId);
   const merged = {
     taskKind: patch.taskKind ?? entry.taskKind,

@@ -4,7 +4,7 @@ import type { User } from "lucia";
 import { getDb } from "@/db/client";
 import { ownerships, studios, users } from "@/db/schema";
 import { type UnitSystem } from "@/lib/format";
-import { preferencesPatchSchema } from "@/lib/validation/owner";
+import type { PreferencesPatch } from "@/lib/validation/owner";
 
 // The owner's preferences: care reminder e-mails on or off, time zone, metric or imperial. Until the
 // owner picks their units here, their first registration sets them (adoptStudioUnits, deciding with
@@ -21,8 +21,7 @@ export function getPreferences(user: Pick<User, "id">) {
   return { ...row, createdAt: row.createdAt.getTime() };
 }
 
-export function updatePreferences(user: Pick<User, "id">, raw: unknown) {
-  const patch = preferencesPatchSchema.parse(raw);
+export function updatePreferences(user: Pick<User, "id">, patch: PreferencesPatch) {
   const row = getDb()
     .update(users)
     .set({ ...patch, ...(patch.unitSystem ? { unitSystemChosenAt: new Date() } : {}) })

@@ -11,7 +11,7 @@ import { PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import { AppError, conflict, forbidden, isAppError, notFound } from "@/lib/errors";
 import { linkPieceToOwner } from "@/lib/clients/link";
 import { hashTypedCode } from "@/lib/pieces/registration";
-import { registrationSchema } from "@/lib/validation/owner";
+import type { RegistrationValues } from "@/lib/validation/owner";
 import { formatMonth } from "@/lib/format";
 import { adoptStudioUnits } from "./preferences";
 
@@ -79,13 +79,12 @@ export async function lookupCard(typed: string, ip: string, viewer: Viewer): Pro
  */
 export async function registerPiece(
   user: Pick<User, "id" | "emailVerifiedAt">,
-  raw: unknown,
+  { code }: RegistrationValues,
   ip: string,
   now = new Date(),
   /** The request's Accept-Language: an owner who has not chosen units gets them from its region (lib/owner/preferences). */
   { acceptLanguage }: { acceptLanguage?: string | null } = {},
 ): Promise<{ pieceId: string }> {
-  const { code } = registrationSchema.parse(raw);
   if (!user.emailVerifiedAt) throw forbidden("Confirm your e-mail address first — open the link we sent you, then register the piece.");
   await consumeAttempt([
     ["codeIp", ip],

@@ -13,7 +13,7 @@ import { notFound } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { newRegistrationCode } from "@/lib/pieces/registration";
 import { planFollowsTransfer } from "@/lib/plans/transfer";
-import { releaseSchema } from "@/lib/validation/owner";
+import type { ReleaseValues } from "@/lib/validation/owner";
 import { formatDate } from "@/lib/format";
 import { getMyPiece } from "./pieces";
 
@@ -23,9 +23,9 @@ const link = (path: string) => new URL(path, env.APP_URL).href;
  * Releases a piece the owner holds, for a new owner: the piece loses its owner, gets a fresh
  * registration code (the old card's code stops working), the ownership ends, and the fresh code is
  * returned once and e-mailed to the releasing owner; the studio is told. Someone else's piece is a 404.
+ * `_confirmed` is the owner's ticked confirmation (releaseSchema), checked by the route or action.
  */
-export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "timeZone" | "unitSystem">, pieceId: string, raw: unknown, now = new Date()) {
-  releaseSchema.parse(raw);
+export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "timeZone" | "unitSystem">, pieceId: string, _confirmed: ReleaseValues, now = new Date()) {
   // Read what the mail needs while the piece is still theirs (this also 404s a stranger).
   const before = getMyPiece(user, pieceId, now);
   const fresh = newRegistrationCode();

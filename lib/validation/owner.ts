@@ -29,6 +29,7 @@ export const registrationCodeField = z
 
 export const registrationSchema = z.object({ code: registrationCodeField });
 export type RegistrationInput = z.input<typeof registrationSchema>;
+export type RegistrationValues = z.output<typeof registrationSchema>;
 
 
 /** "top" and "base" for a surface's task, "whole_piece" (stored as no surface) for the annual check. */
@@ -60,4 +61,5 @@ export const releaseSchema = z.object({
   confirm: z.literal(true, { message: "Tick the box to confirm you are handing this piece on." }),
 });
 export type ReleaseInput = z.input<typeof releaseSchema>;
+export type ReleaseValues = z.output<typeof releaseSchema>;
 

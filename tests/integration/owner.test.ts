@@ -15,6 +15,7 @@ import { addCareLogEntry, deleteCareLogEntry, updateCareLogEntry } from "@/lib/o
 import { certificatePdf } from "@/lib/owner/certificate";
 import { getMyPiece, listMyPieces } from "@/lib/owner/pieces";
 import { updatePreferences } from "@/lib/owner/preferences";
+import { careLogPatchSchema, careLogSchema, preferencesPatchSchema, releaseSchema } from "@/lib/validation/owner";
 import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { toCareLayers, toCarePiece } from "@/lib/pieces/care-inputs";
@@ -108,7 +109,7 @@ describe("care log", () => {
     const before = getMyPiece(me, piece.id, NOW).schedule.tasks.find((t) => t.kind === "reoil")!;
     expect(before.dueOn).toBe("2026-06-01");
 
-    const r = await addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-10", productUsed: "Hardwax oil", notes: "Two thin coats" }, null, NOW);
+    const r = await addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-03-10", productUsed: "Hardwax oil", notes: "Two thin coats" }), null, NOW);
     const layers = getDb().select().from(finishLayers).where(eq(finishLayers.pieceId, piece.id)).all();
     const expected = careSchedule({
       piece: toCarePiece(getDb().select().from(pieces).where(eq(pieces.id, piece.id)).get()!),
@@ -129,7 +130,7 @@ describe("care log", () => {
     const { me, piece } = await ownedPiece({ deliveredOn: "2025-02-01" });
     const check = () => getMyPiece(me, piece.id, NOW).schedule.tasks.find((t) => t.kind === "annual_check")!;
     expect(check()).toMatchObject({ dueOn: "2026-02-01", status: "overdue" });
-    const r = await addCareLogEntry(me, piece.id, { taskKind: "annual_check", surface: "whole_piece", doneOn: "2026-03-01" }, null, NOW);
+    const r = await addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "annual_check", surface: "whole_piece", doneOn: "2026-03-01" }), null, NOW);
     expect(r.task).toMatchObject({ dueOn: "2027-03-01", status: "done" });
     expect(getDb().select().from(careLogEntries).where(eq(careLogEntries.id, r.entry.id)).get()!.surface).toBeNull();
   });
@@ -138,23 +139,23 @@ describe("care log", () => {
     const { me, piece } = await ownedPiece();
     // 2026-03-16 is already tomorrow's date in UTC at 2026-03-16T02:00Z but still the 15th in New York.
     const lateNight = new Date("2026-03-16T02:00:00Z");
-    const future = await expectAppError(addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-16" }, null, lateNight), 400);
+    const future = await expectAppError(addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-03-16" }), null, lateNight), 400);
     expect(future.fieldErrors?.doneOn?.[0]).toMatch(/today/);
-    const early = await expectAppError(addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2025-05-01" }, null, NOW), 400);
+    const early = await expectAppError(addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2025-05-01" }), null, NOW), 400);
     expect(early.fieldErrors?.doneOn?.[0]).toMatch(/delivered/);
-    const wrong = await expectAppError(addCareLogEntry(me, piece.id, { taskKind: "rewax", surface: "top", doneOn: "2026-03-01" }, null, NOW), 400);
+    const wrong = await expectAppError(addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "rewax", surface: "top", doneOn: "2026-03-01" }), null, NOW), 400);
     expect(wrong.fieldErrors?.taskKind?.[0]).toMatch(/re-oil/);
-    await expect(addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-02-30" }, null, NOW)).rejects.toThrow(ZodError);
+    expect(() => careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-02-30" })).toThrow(ZodError); // the route parses it before addCareLogEntry
   });
 
   it("owners correct and delete their own entries; the due date follows; others get 404", async () => {
     const { me, piece } = await ownedPiece();
     const stranger = await owner();
-    const r = await addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-10" }, null, NOW);
-    const fixed = await updateCareLogEntry(me, piece.id, r.entry.id, { doneOn: "2026-02-20", productUsed: "Oil from the studio" }, NOW);
+    const r = await addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-03-10" }), null, NOW);
+    const fixed = await updateCareLogEntry(me, piece.id, r.entry.id, careLogPatchSchema.parse({ doneOn: "2026-02-20", productUsed: "Oil from the studio" }), NOW);
     expect(fixed.entry).toMatchObject({ doneOn: "2026-02-20", productUsed: "Oil from the studio" });
     expect(fixed.task!.dueOn).toBe("2027-02-20");
-    await expectAppError(updateCareLogEntry(stranger, piece.id, r.entry.id, { notes: "x" }, NOW), 404);
+    await expectAppError(updateCareLogEntry(stranger, piece.id, r.entry.id, careLogPatchSchema.parse({ notes: "x" }), NOW), 404);
     await expectAppError(deleteCareLogEntry(stranger, piece.id, r.entry.id, NOW), 404);
     const gone = await deleteCareLogEntry(me, piece.id, r.entry.id, NOW);
     expect(gone.task!.dueOn).toBe("2026-06-01");
@@ -163,23 +164,23 @@ describe("care log", () => {
 
   it("a correction changes only the fields it sends: the notes and product stay when only the date is sent", async () => {
     const { me, piece } = await ownedPiece();
-    const r = await addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-10", productUsed: "Hardwax oil", notes: "Two thin coats" }, null, NOW);
-    const fixed = await updateCareLogEntry(me, piece.id, r.entry.id, { doneOn: "2026-03-08" }, NOW);
+    const r = await addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-03-10", productUsed: "Hardwax oil", notes: "Two thin coats" }), null, NOW);
+    const fixed = await updateCareLogEntry(me, piece.id, r.entry.id, careLogPatchSchema.parse({ doneOn: "2026-03-08" }), NOW);
     expect(fixed.entry).toMatchObject({ doneOn: "2026-03-08", productUsed: "Hardwax oil", notes: "Two thin coats" });
     const stored = getDb().select().from(careLogEntries).where(eq(careLogEntries.id, r.entry.id)).get()!;
     expect(stored).toMatchObject({ doneOn: "2026-03-08", productUsed: "Hardwax oil", notes: "Two thin coats" });
     // Sending a field empty on purpose still clears it.
-    expect((await updateCareLogEntry(me, piece.id, r.entry.id, { notes: "" }, NOW)).entry).toMatchObject({ notes: "", productUsed: "Hardwax oil" });
+    expect((await updateCareLogEntry(me, piece.id, r.entry.id, careLogPatchSchema.parse({ notes: "" }), NOW)).entry).toMatchObject({ notes: "", productUsed: "Hardwax oil" });
   });
 
   it("stores an optional photo as a care_log_photo file, linked to the file route, and removes it with the entry", async () => {
     const { me, piece } = await ownedPiece();
     const png = await sharp({ create: { width: 64, height: 48, channels: 3, background: "#8a6a4a" } }).png().toBuffer();
-    const r = await addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-01" }, new Uint8Array(png), NOW);
+    const r = await addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-03-01" }), new Uint8Array(png), NOW);
     const file = getDb().select().from(files).where(eq(files.id, r.entry.photoFileId!)).get()!;
     expect(file).toMatchObject({ purpose: "care_log_photo", pieceId: piece.id, contentType: "image/jpeg", width: 64, height: 48 });
     expect(getMyPiece(me, piece.id, NOW).careLog[0]!.photoUrl).toBe(`/api/files/${file.id}`);
-    await expectAppError(addCareLogEntry(me, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-01" }, new TextEncoder().encode("not an image"), NOW), 415);
+    await expectAppError(addCareLogEntry(me, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-03-01" }), new TextEncoder().encode("not an image"), NOW), 415);
     await deleteCareLogEntry(me, piece.id, r.entry.id, NOW);
     expect(getDb().select().from(files).where(eq(files.id, file.id)).get()).toBeUndefined();
   });
@@ -193,10 +194,10 @@ describe("release and re-registration", () => {
     const second = await owner({ name: "Second Owner (invented)" });
     const { piece, code: oldCode } = createPiece(studio, { title: `Handover table ${unique("t")}`, warrantyPolicyId: policy.id });
     expect(await registerPiece(first, { code: oldCode }, "203.0.113.10")).toEqual({ pieceId: piece.id });
-    await addCareLogEntry(first, piece.id, { taskKind: "reoil", surface: "top", doneOn: "2026-03-01", notes: "private note" }, null, NOW);
+    await addCareLogEntry(first, piece.id, careLogSchema.parse({ taskKind: "reoil", surface: "top", doneOn: "2026-03-01", notes: "private note" }), null, NOW);
 
     await expectAppError(releasePiece(second, piece.id, { confirm: true }, NOW), 404);
-    await expect(releasePiece(first, piece.id, {}, NOW)).rejects.toThrow(ZodError);
+    expect(() => releaseSchema.parse({})).toThrow(ZodError); // the route and the action parse the confirmation
     const since = new Date();
     const released = await releasePiece(first, piece.id, { confirm: true }, NOW);
     expect(released.code).toMatch(/^[0-9A-Z]{4}-[0-9A-Z]{4}-[0-9A-Z]{4}-.$/);
@@ -230,7 +231,7 @@ describe("release and re-registration", () => {
     // The first owner's care still counts for the piece; their notes stay theirs.
     expect(view.careLog[0]).toMatchObject({ doneOn: "2026-03-01", mine: false, notes: "", byLabel: "A previous owner" });
     expect(view.schedule.tasks.find((t) => t.kind === "reoil")!.dueOn).toBe("2027-03-01");
-    await expectAppError(updateCareLogEntry(second, piece.id, view.careLog[0]!.id, { notes: "mine now" }, NOW), 404);
+    await expectAppError(updateCareLogEntry(second, piece.id, view.careLog[0]!.id, careLogPatchSchema.parse({ notes: "mine now" }), NOW), 404);
   });
 });
 
@@ -241,7 +242,7 @@ describe("preferences", () => {
     expect(updatePreferences(me, { unitSystem: "metric" })).toMatchObject({ unitSystem: "metric", timeZone: "Europe/Lisbon" });
     let caught: unknown;
     try {
-      updatePreferences(me, { timeZone: "Mars/Olympus_Mons" });
+      updatePreferences(me, preferencesPatchSchema.parse({ timeZone: "Mars/Olympus_Mons" }));
     } catch (e) {
       caught = e;
     }

@@ -3,7 +3,6 @@
 import { eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import { describe, expect, it } from "vitest";
-import { z } from "zod";
 import { getDb } from "@/db/client";
 import { ownerships, pieces, users } from "@/db/schema";
 import { rateLimits } from "@/lib/auth/rate-limit";
@@ -11,7 +10,7 @@ import { CROCKFORD_CHECK_ALPHABET, generateRegistrationCode } from "@/lib/care/r
 import { parseJson, route } from "@/lib/http/route";
 import { lookupCard, registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
-import { CODE_TYPO_MESSAGE } from "@/lib/validation/owner";
+import { CODE_TYPO_MESSAGE, registrationSchema } from "@/lib/validation/owner";
 import { createPiece, createStudio, createUser, unique } from "../support/fixtures";
 
 let ipCounter = 0;
@@ -24,7 +23,7 @@ async function verifiedUser() {
 /** The same wiring as app/api/registrations/route.ts, with the user and IP given instead of read from the request. */
 function handlerFor(user: Awaited<ReturnType<typeof createUser>>, ip: string) {
   return route(async (req) => {
-    const body = await parseJson(req, z.unknown());
+    const body = await parseJson(req, registrationSchema);
     return Response.json(await registerPiece(user, body, ip), { status: 201 });
   });
 }

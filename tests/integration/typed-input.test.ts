@@ -191,3 +191,43 @@ describe("reports: the claims CSV's query is parsed at the boundary", () => {
     expect(ok.status).toBe(200);
   });
 });
+
+describe("owner: registering, handing on, care-log entries and preferences are parsed at the boundary", () => {
+  it("a malformed code, an unticked hand-on, an impossible care date and an empty preferences patch are 400s with their fields, before any lookup", async () => {
+    const { POST: register } = await import("@/app/api/registrations/route");
+    const { POST: release } = await import("@/app/api/me/pieces/[id]/release/route");
+    const { POST: addEntry } = await import("@/app/api/me/pieces/[id]/care-log/route");
+    const { PATCH: fixEntry } = await import("@/app/api/me/pieces/[id]/care-log/[entryId]/route");
+    const { PATCH: preferences } = await import("@/app/api/me/preferences/route");
+    const user = await createUser({ emailVerifiedAt: new Date() });
+    await signIn(user.id);
+    const code = await call(register, "POST", "/api/registrations", { body: { code: "not-a-code" } });
+    expect([code.status, code.json?.error?.fieldErrors]).toEqual([400, { code: ["A registration code has 13 symbols, like 7K3M-Q9XD-2HRT-P. Check the card in the piece's drawer."] }]);
+    const params = { id: "no-such-piece", entryId: "no-such-entry" };
+    const handOn = await call(release, "POST", "/api/me/pieces/no-such-piece/release", { body: { confirm: false }, params });
+    expect([handOn.status, handOn.json?.error?.fieldErrors]).toEqual([400, { confirm: ["Tick the box to confirm you are handing this piece on."] }]);
+    const added = await call(addEntry, "POST", "/api/me/pieces/no-such-piece/care-log", { body: { taskKind: "polish", surface: "top", doneOn: "2026-02-30" }, params });
+    expect([added.status, Object.keys(added.json?.error?.fieldErrors ?? {}).sort()]).toEqual([400, ["doneOn", "taskKind"]]);
+    const fixed = await call(fixEntry, "PATCH", "/api/me/pieces/no-such-piece/care-log/no-such-entry", { body: { doneOn: "2026-02-30" }, params });
+    expect([fixed.status, Object.keys(fixed.json?.error?.fieldErrors ?? {})]).toEqual([400, ["doneOn"]]);
+    const nothing = await call(preferences, "PATCH", "/api/me/preferences", { body: {} });
+    expect([nothing.status, nothing.json?.error?.message]).toEqual([400, "Nothing to change."]);
+    const zone = await call(preferences, "PATCH", "/api/me/preferences", { body: { timeZone: "Mars/Olympus_Mons" } });
+    expect([zone.status, zone.json?.error?.fieldErrors]).toEqual([400, { timeZone: ["That isn't a time zone we know — pick one from the list."] }]);
+    // Well-formed input gets past the boundary to the lookup: someone else's (or no) piece is a 404.
+    expect((await call(addEntry, "POST", "/api/me/pieces/no-such-piece/care-log", { body: { taskKind: "annual_check", surface: "whole_piece", doneOn: "2025-01-01" }, params })).status).toBe(404);
+    expect((await call(release, "POST", "/api/me/pieces/no-such-piece/release", { body: { confirm: true }, params })).status).toBe(404);
+  });
+
+  it("the register, hand-on and preferences actions answer the same field errors", async () => {
+    const { registerAction } = await import("@/app/(owner)/register/actions");
+    const { savePreferencesAction } = await import("@/app/(owner)/account/actions");
+    const user = await createUser({ emailVerifiedAt: new Date() });
+    await signIn(user.id);
+    expect(await registerAction({ code: "not-a-code" })).toMatchObject({ ok: false, fieldErrors: { code: ["A registration code has 13 symbols, like 7K3M-Q9XD-2HRT-P. Check the card in the piece's drawer."] } });
+    expect(await savePreferencesAction({ remindersEnabled: true, timeZone: "Mars/Olympus_Mons", unitSystem: "metric" })).toMatchObject({
+      ok: false,
+      fieldErrors: { timeZone: ["That isn't a time zone we know — pick one from the list."] },
+    });
+  });
+});

@@ -1,8 +1,7 @@
-import { z } from "zod";
 import { route } from "@/lib/http/route";
 import { getPreferences, updatePreferences } from "@/lib/owner/preferences";
+import { preferencesPatchSchema } from "@/lib/validation/owner";
 
 export const GET = route({ roles: ["owner"] }, ({ actor }) => ({ preferences: getPreferences(actor.user) }));
 
-// lib/owner/preferences.ts parses the patch (preferencesPatchSchema).
-export const PATCH = route({ roles: ["owner"], body: z.unknown() }, ({ actor, body }) => ({ preferences: updatePreferences(actor.user, body) }));
+export const PATCH = route({ roles: ["owner"], body: preferencesPatchSchema }, ({ actor, body }) => ({ preferences: updatePreferences(actor.user, body) }));
