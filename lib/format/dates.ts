@@ -56,19 +56,37 @@ export type InstantOptions = { time?: boolean; viewerZone?: string };
 export function formatInstant(at: Date | number | string, timeZone: string, { time = false, viewerZone }: InstantOptions = {}): string {
   const ms = typeof at === "string" ? Date.parse(at) : typeof at === "number" ? at : at.getTime();
   const named = time && viewerZone !== timeZone;
-  return dtf({
-    timeZone,
-    day: "numeric",
-    month: "long",
-    year: "numeric",
-    ...(time ? { hour: "2-digit", minute: "2-digit" } : {}),
-    ...(named ? { timeZoneName: "short" } : {}),
-  }).format(ms);
+  const text = dtf({ timeZone, day: "numeric", month: "long", year: "numeric", ...(time ? { hour: "2-digit", minute: "2-digit" } : {}) }).format(ms);
+  return named ? `${text} ${zoneAbbreviation(ms, timeZone)}` : text;
+}
+
+/**
+ * The zone's short name at that instant as its own region writes it: "CET" for Berlin (from en-GB),
+ * "PST"/"PDT" for Los Angeles (from en-US, where en-GB only has "GMT-8"); the offset where neither has a name.
+ */
+export function zoneAbbreviation(ms: number, timeZone: string): string {
+  const short = (locale: string) => zoneNamer(locale, timeZone).formatToParts(ms).find((p) => p.type === "timeZoneName")?.value ?? "";
+  const gb = short(DATE_LOCALE);
+  if (!gb.startsWith("GMT")) return gb;
+  const us = short("en-US");
+  return us && !us.startsWith("GMT") ? us : gb;
+}
+
+const namers = new Map<string, Intl.DateTimeFormat>();
+function zoneNamer(locale: string, timeZone: string): Intl.DateTimeFormat {
+  const key = `${locale} ${timeZone}`;
+  let f = namers.get(key);
+  if (!f) {
+    f = new Intl.DateTimeFormat(locale, { timeZone, timeZoneName: "short" });
+    namers.set(key, f);
+  }
+  return f;
 }
 
 /** A time of day on the 24-hour clock in `timeZone`: "09:00"; with `named`, "09:00 CET". */
 export function formatClock(ms: number, timeZone: string, { named = false }: { named?: boolean } = {}): string {
-  return dtf({ hour: "2-digit", minute: "2-digit", hourCycle: "h23", timeZone, ...(named ? { timeZoneName: "short" } : {}) }).format(ms);
+  const clock = dtf({ hour: "2-digit", minute: "2-digit", hourCycle: "h23", timeZone }).format(ms);
+  return named ? `${clock} ${zoneAbbreviation(ms, timeZone)}` : clock;
 }
 
 /** A visit's slot: "Thursday, 3 December 2026, 09:00–11:00" in `timeZone`. */

@@ -303,7 +303,7 @@ describe("the timeline", () => {
     expect(byKind("handover")).toMatchObject({ title: "Hand-over mail sent for “Timeline table (invented)” (2 times)", href: `/studio/pieces/${piece.id}` });
     expect(byKind("job_quoted")).toMatchObject({ title: "Quote sent for “Re-oil the top (invented)”: $125.00", href: `/studio/jobs/${job.id}` });
     expect(byKind("claim_decided")).toMatchObject({ title: "Claim on “Timeline table (invented)” decided: partly covered (50 %)", href: `/studio/claims/${claim.id}` });
-    expect(byKind("visit_done").title).toBe("Visit of 12 January 2026 at 09:00 GMT-8 done (Re-oil the top (invented))");
+    expect(byKind("visit_done").title).toBe("Visit of 12 January 2026 at 09:00 PST done (Re-oil the top (invented))");
     expect(byKind("released")).toMatchObject({ title: "Handed “Handed-on bench (invented)” on to a new owner", href: `/studio/pieces/${former.id}` });
     expect(byKind("delivered")).toMatchObject({ allDay: true, at: "2025-12-20T12:00:00.000Z" });
 

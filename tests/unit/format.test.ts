@@ -84,8 +84,11 @@ describe("dates and times", () => {
     expect(formatInstant(at, "Europe/Berlin", { time: true })).toBe("4 December 2026 at 00:30 CET");
     expect(formatInstant(at, "Europe/Berlin", { time: true, viewerZone: "Europe/Berlin" })).toBe("4 December 2026 at 00:30");
     expect(formatInstant(at, "Europe/Berlin", { time: true, viewerZone: "America/New_York" })).toBe("4 December 2026 at 00:30 CET");
-    // CLDR en-GB carries short names for the European metazones only; elsewhere it writes the offset.
-    expect(formatInstant(new Date(at).toISOString(), "America/New_York", { time: true })).toBe("3 December 2026 at 18:30 GMT-5");
+    // CLDR en-GB carries short names for the European metazones only ("GMT-5" for New York); en-US
+    // carries the North American ones, so those come from there; elsewhere the offset stays.
+    expect(formatInstant(new Date(at).toISOString(), "America/New_York", { time: true })).toBe("3 December 2026 at 18:30 EST");
+    expect(formatInstant(Date.parse("2026-07-01T16:00:00Z"), "America/Los_Angeles", { time: true })).toBe("1 July 2026 at 09:00 PDT");
+    expect(formatInstant(at, "Asia/Tokyo", { time: true })).toBe("4 December 2026 at 08:30 GMT+9");
   });
 
   it("writes a visit's slot on the 24-hour clock", () => {
