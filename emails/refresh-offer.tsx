@@ -45,4 +45,24 @@ export function RefreshOfferSection({ studioName, taskLabel, total, lines, tax, 
   );
 }
 
+// Invented example values: a refresh offer with a plan that fits, for the previews of the care reminder.
+export const REFRESH_OFFER_PREVIEW = {
+  total: "$138.29",
+  lines: [
+    { description: "Re-oil — labour (0.75 h)", amount: "$63.75" },
+    { description: "Studio hardwax oil, 4.3 US fl oz (125 mL)", amount: "$19.00" },
+    { description: "Travel", amount: "$45.00" },
+  ],
+  tax: "Tax (8.25 %) $10.54",
+  acceptUrl: "https://grainward.example/offers/example",
+  plans: [
+    {
+      name: "Oiled top care (invented)",
+      price: "$259.80 a year, including $19.80 tax",
+      includes: ["Re-oil done by the studio, no reminders to act on", "1 studio visit a year", "10% off paid repairs"],
+      lastYear: "The care you logged over the last year (2 tasks) would have cost $276.58 from Larchmere Slab & Resin (invented); a year of this plan is $259.80, so it would have saved you $16.78.",
+    },
+  ],
+} satisfies Omit<RefreshOfferProps, "studioName" | "taskLabel">;
+
 export default RefreshOfferSection;

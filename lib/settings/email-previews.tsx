@@ -3,14 +3,18 @@ import "server-only";
 // for the settings page. Rendering is the same @react-email/render call lib/mail makes for real mail.
 import { render } from "@react-email/render";
 import type { ComponentType } from "react";
-import CareReminder from "@/emails/care-reminder";
+import CareReminder, { type CareReminderProps } from "@/emails/care-reminder";
 import ClaimDecisionEmail from "@/emails/claim-decision";
 import ClaimMessageEmail from "@/emails/claim-message";
 import ClaimReceivedEmail from "@/emails/claim-received";
+import HandOverEmail from "@/emails/hand-over";
 import JobQuoteEmail from "@/emails/job-quote";
 import PasswordResetEmail from "@/emails/password-reset";
 import PaymentReceiptEmail from "@/emails/payment-receipt";
 import PieceReleasedEmail from "@/emails/piece-released";
+import PlanGraceEmail from "@/emails/plan-grace";
+import PlanVisitEmail from "@/emails/plan-visit";
+import { REFRESH_OFFER_PREVIEW } from "@/emails/refresh-offer";
 import RefundIssuedEmail from "@/emails/refund-issued";
 import StaffInvitationEmail from "@/emails/staff-invitation";
 import TransferCodeEmail from "@/emails/transfer-code";
@@ -25,8 +29,17 @@ import { assertAdmin } from "./index";
 
 type Template = ComponentType<never> & { PreviewProps?: Record<string, unknown> };
 
+/** The care reminder as a refresh task's first step sends it: with the refresh offer and the plans that fit. */
+const CareReminderWithOffer = Object.assign((p: CareReminderProps) => <CareReminder {...p} />, {
+  PreviewProps: { ...CareReminder.PreviewProps, offer: REFRESH_OFFER_PREVIEW } satisfies CareReminderProps,
+});
+
 const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "anyone"; when: string; component: Template }[] = [
   { slug: "care-reminder", name: "Care reminder", audience: "owner", when: "Before, on and after a care task's due date (with a refresh offer on refresh tasks).", component: CareReminder as Template },
+  { slug: "care-reminder-offer", name: "Care reminder with a refresh offer", audience: "owner", when: "The first reminder of a refresh task: the priced refresh visit, and your care plans that fit the piece with what each would have saved over the owner's last year of logged care.", component: CareReminderWithOffer as Template },
+  { slug: "hand-over", name: "Hand-over", audience: "owner", when: "At delivery, to the buyer: the piece's finish, first care, warranty, a one-tap link to register it, and your care plans that fit it.", component: HandOverEmail as Template },
+  { slug: "plan-grace", name: "Care plan payment failed", audience: "owner", when: "When a care plan's renewal payment fails: the grace period before the plan lapses.", component: PlanGraceEmail as Template },
+  { slug: "plan-visit", name: "Care plan visit", audience: "owner", when: "Ahead of a care plan's included visit: its price under the plan and the times offered.", component: PlanVisitEmail as Template },
   { slug: "claim-received", name: "Claim received", audience: "anyone", when: "When an owner files a claim (to the owner and to the studio).", component: ClaimReceivedEmail as Template },
   { slug: "claim-message", name: "Claim message", audience: "anyone", when: "When the studio or the owner writes on a claim.", component: ClaimMessageEmail as Template },
   { slug: "claim-decision", name: "Claim decision", audience: "owner", when: "When staff accept or decline a claim.", component: ClaimDecisionEmail as Template },
