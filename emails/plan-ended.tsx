@@ -28,8 +28,8 @@ const monthsWord = (n: number) => (n === 1 ? "one unused month" : `${n} unused m
 export function PlanEndedEmail({ ownerName, studioName, planName, pieceTitle, reason, endsOn, refund, refundByOtherMeans, months, url }: PlanEndedEmailProps) {
   const ends =
     reason === "changed_hands"
-      ? `As your ${pieceTitle} has passed to a new owner, the ${planName} care plan on it ended on ${endsOn}.`
-      : `The ${planName} care plan on your ${pieceTitle} is cancelled. It keeps working until ${endsOn} and isn't renewed after that.`;
+      ? `as your ${pieceTitle} has passed to a new owner, the ${planName} care plan on it ended on ${endsOn}.`
+      : `the ${planName} care plan on your ${pieceTitle} is cancelled. It keeps working until ${endsOn} and isn't renewed after that.`;
   return (
     <EmailLayout
       preview={refund ? `${planName}: ${refund} back to you.` : `${planName} ends on ${endsOn}.`}

@@ -1,7 +1,7 @@
 // Included visits: the scheduler turns each visit a running plan includes into studio work ahead of its
 // due date — a repair job priced at the plan's share (zero when included in full), recorded once per
 // plan and due date — and proposes free times to the owner. Plans paid by other means end here at their period's end.
-import { and, eq, inArray, lte } from "drizzle-orm";
+import { and, eq, inArray, lte, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { finishProducts, planSubscriptions, planTemplates, planVisits, pieces, repairJobs, studios, users, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanVisitEmail, planVisitSubject } from "@/emails/plan-visit";
@@ -120,7 +120,7 @@ export async function runPlanVisits(now = new Date()): Promise<{ jobs: string[];
     if (!sub.startedAt || !sub.periodEnd || template.included.visitsPerYear <= 0) continue;
     const today = localDate(now, row.timeZone);
     // A visit is the plan's only while the plan covers its due date.
-    const until = new Date(Math.min(horizon.getTime(), sub.periodEnd.getTime()));
+    const until = new Date(Math.min(horizon.getTime(), (sub.endsAt ?? sub.periodEnd).getTime()));
     for (const dueOn of visitDueDates(sub.startedAt, template.included.visitsPerYear, until, row.timeZone)) {
       if (dueOn < today) continue;
       const made = createVisitJob({ sub, template }, dueOn);
@@ -132,10 +132,11 @@ export async function runPlanVisits(now = new Date()): Promise<{ jobs: string[];
   const over = db
     .select()
     .from(planSubscriptions)
-    .where(and(eq(planSubscriptions.paidBy, "other"), inArray(planSubscriptions.state, ["running", "ending"]), lte(planSubscriptions.periodEnd, now)))
+    .where(and(eq(planSubscriptions.paidBy, "other"), inArray(planSubscriptions.state, ["running", "ending"]), lte(sql`coalesce(${planSubscriptions.endsAt}, ${planSubscriptions.periodEnd})`, now.getTime())))
     .all();
   for (const sub of over) {
-    db.transaction((tx) => moveSubscription(tx, sub, sub.state === "ending" ? "ended" : "lapsed", sub.state === "ending" ? { endedAt: sub.periodEnd } : { lapsedAt: sub.periodEnd }, { actorId: null, source: "scheduler" }));
+    // A cancelled plan ends when its refund rule said (endsAt); an unrenewed one lapses at its period's end.
+    db.transaction((tx) => moveSubscription(tx, sub, sub.state === "ending" ? "ended" : "lapsed", sub.state === "ending" ? { endedAt: sub.endsAt ?? sub.periodEnd } : { lapsedAt: sub.periodEnd }, { actorId: null, source: "scheduler" }));
   }
   return { jobs, ended: over.length };
 }
