@@ -166,9 +166,9 @@ export function priceLines(
  * Lines stored before lines carried their own money (the care engine's labour/materials/travel lines):
  * read as typed-in-full lines, their amounts kept, no tax of their own.
  */
-export function readLines(raw: unknown): JobLine[] {
-  if (!Array.isArray(raw)) return [];
-  return raw.map((l: Partial<JobLine> & { amountMinor?: number; unit?: string }) => {
+export function readLines(stored: unknown): JobLine[] {
+  if (!Array.isArray(stored)) return [];
+  return stored.map((l: Partial<JobLine> & { amountMinor?: number; unit?: string }) => {
     if (typeof l.totalMinor === "number" && typeof l.netMinor === "number") return l as JobLine;
     const amount = l.amountMinor ?? 0;
     const unit = (LINE_UNITS as readonly string[]).includes(l.unit ?? "") ? (l.unit as LineUnit) : "each";
