@@ -9,7 +9,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { postClaimMessage } from "@/lib/claims/reply";
 import { notFound, unprocessable } from "@/lib/errors";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
-import { inboxQuerySchema, messageFormSchema, messageSubjectSchema, threadUpdateSchema } from "@/lib/validation/messages";
+import { messageFormSchema, messageSubjectSchema, threadUpdateSchema, type InboxQuery } from "@/lib/validation/messages";
 import { mailOwner, mailStudio, type ThreadMailFacts } from "./mail";
 import { appendMessage, findThread, ownerMayWrite, subjectOf, threadFor, threadMessagesOf, type MessageView, type SubjectRef } from "./store";
 import { threadVisibleTo } from "./access";
@@ -133,8 +133,7 @@ export type UnmatchedRow = { id: string; reason: (typeof unmatchedMail.$inferSel
 const lastBody = sql<string>`(select ${threadMessages.body} from ${threadMessages} where ${threadMessages.threadId} = ${threads.id} order by ${threadMessages.createdAt} desc limit 1)`;
 
 /** The inbox: open threads (oldest waiting first), mine, all, done, or the e-mail that matched no thread. */
-export function listInbox(ctx: StudioContext, raw: unknown = {}, now = Date.now()) {
-  const { view } = inboxQuerySchema.parse(raw);
+export function listInbox(ctx: StudioContext, { view }: InboxQuery = { view: "waiting" }, now = Date.now()) {
   const db = getDb();
   const base = { studioId: ctx.studio.id, timeZone: ctx.studio.timeZone, view, unread: unreadCount(ctx), staff: studioStaff(ctx) };
   if (view === "unmatched") {

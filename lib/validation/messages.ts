@@ -19,6 +19,7 @@ export const threadIdParam = z.object({ id: z.string().min(1).max(64) });
 
 export const INBOX_VIEWS = ["waiting", "mine", "all", "done", "unmatched"] as const;
 export const inboxQuerySchema = z.object({ view: z.enum(INBOX_VIEWS).catch("waiting") });
+export type InboxQuery = z.output<typeof inboxQuerySchema>;
 
 export const threadUpdateSchema = z
   .object({

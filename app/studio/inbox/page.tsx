@@ -10,7 +10,7 @@ import { formatWait } from "@/lib/claims/labels";
 import { listInbox } from "@/lib/messages/service";
 import { ABOUT_LABELS, THREAD_STATE_WORDS, UNMATCHED_WORDS } from "@/lib/messages/words";
 import { formatInstant } from "@/lib/format";
-import { INBOX_VIEWS } from "@/lib/validation/messages";
+import { INBOX_VIEWS, inboxQuerySchema } from "@/lib/validation/messages";
 
 export const metadata: Metadata = { title: "Inbox" };
 export const dynamic = "force-dynamic";
@@ -27,7 +27,7 @@ const EMPTY: Record<(typeof INBOX_VIEWS)[number], string> = {
 export default async function InboxPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const query = await searchParams;
   const ctx = await forPage(requireStaff);
-  const inbox = listInbox(ctx, query);
+  const inbox = listInbox(ctx, inboxQuerySchema.parse(query));
   const at = (iso: string) => formatInstant(new Date(iso), inbox.timeZone, { time: true });
   return (
     <>
