@@ -2,8 +2,10 @@
 
 import { redirect } from "next/navigation";
 import { endCurrentSession } from "@/lib/auth/session";
+import { action } from "@/lib/http/action";
 
-export async function signOutAction(): Promise<void> {
+/** Anyone may post it: signed out already, it just goes home. */
+export const signOutAction = action({ refused: "/" }, async () => {
   await endCurrentSession();
   redirect("/");
-}
+});

@@ -1,4 +1,5 @@
 import "server-only";
+import { redirect } from "next/navigation";
 import { z } from "zod";
 import { requireActor, type ActorFor, type ActorRole } from "@/lib/auth/actor";
 import type { FieldErrors } from "@/lib/errors";
@@ -12,6 +13,11 @@ import { asAppError } from "@/lib/validation/care-input";
 //
 //   export const saveProfileAction = action({ roles: ["admin"], schema: profileSchema }, (input, actor) =>
 //     updateStudioProfile(actor, input));
+//
+// A plain <form action> (a mailed link's token form, sign-out) works without JavaScript, so it can show
+// no result: it names `refused`, the page a refusal goes to, and its action ends in a redirect.
+//
+//   export const confirmSignOffAction = action({ schema: signOffSchema, refused: "/visit-sign-off?failed=1" }, ...);
 
 export type { ActionResult };
 
@@ -25,10 +31,29 @@ export type ActionSpec<R extends ActorRole, S> = {
   schema?: S;
 };
 
+/** A <form action> posted without JavaScript: a refusal (bad input, no access, an AppError) redirects to `refused`. */
+export type FormActionSpec<R extends ActorRole, S> = ActionSpec<R, S> & { refused: string };
+
+type ActionFn<R extends ActorRole, S, T> = (input: Out<S>, actor: [R] extends [never] ? null : ActorFor<R>) => Promise<T | ActionResult<T>> | T | ActionResult<T>;
+
+export function action<R extends ActorRole = never, S extends z.ZodType | undefined = undefined>(
+  spec: FormActionSpec<R, S>,
+  fn: ActionFn<R, S, void>,
+): (data: FormData) => Promise<void>;
 export function action<R extends ActorRole = never, S extends z.ZodType | undefined = undefined, T = undefined>(
   spec: ActionSpec<R, S>,
-  fn: (input: Out<S>, actor: [R] extends [never] ? null : ActorFor<R>) => Promise<T | ActionResult<T>> | T | ActionResult<T>,
-) {
+  fn: ActionFn<R, S, T>,
+): (raw: In<S>) => Promise<ActionResult<T>>;
+export function action<R extends ActorRole, S extends z.ZodType | undefined, T>(spec: ActionSpec<R, S> & { refused?: string }, fn: ActionFn<R, S, T>) {
+  const run = answer(spec, fn);
+  const refused = spec.refused;
+  if (refused === undefined) return run;
+  return async (data: FormData): Promise<void> => {
+    if (!(await run(data as In<S>)).ok) redirect(refused);
+  };
+}
+
+function answer<R extends ActorRole, S extends z.ZodType | undefined, T>(spec: ActionSpec<R, S>, fn: ActionFn<R, S, T>) {
   return async (raw: In<S>): Promise<ActionResult<T>> => {
     try {
       const actor = (spec.roles ? await requireActor(spec.roles) : null) as [R] extends [never] ? null : ActorFor<R>;

@@ -4,7 +4,7 @@ import { z } from "zod";
 import { requireActor, type ActorFor, type ActorRole } from "@/lib/auth/actor";
 import { AppError, badRequest } from "@/lib/errors";
 import { asAppError } from "@/lib/validation/care-input";
-import { BODY_LIMITS, readJson } from "./body";
+import { BODY_LIMITS, readForm, readJson } from "./body";
 import { checkOrigin } from "./origin";
 
 // The one request boundary of the JSON API. A route names who may call it and what its input is, as
@@ -35,13 +35,21 @@ export type RouteSpec<R extends ActorRole, P, Q, B> = {
   roles?: readonly R[];
   params?: P;
   query?: Q;
-  /** A JSON body's schema; read through lib/http/body.ts (at most `bodyLimit`, 1 MB unless given). */
+  /** The body's schema; read through lib/http/body.ts (at most `bodyLimit`: 1 MB of JSON, 64 KB of form unless given). */
   body?: B;
+  /** "form": the body is a form (urlencoded or multipart, its text fields) instead of JSON. */
+  bodyKind?: "json" | "form";
   bodyLimit?: number;
   /** An empty body reaches the schema as `undefined` instead of being a 400. */
   optionalBody?: boolean;
   /** The status of a value answered as JSON. */
   status?: number;
+  /**
+   * Writes from any site are accepted: only for a route whose authority is a signed token in the
+   * request itself (RFC 8058 one-click unsubscribe, where the mail provider posts). Everything else
+   * refuses other sites' writes (lib/http/origin.ts).
+   */
+  anyOrigin?: boolean;
 };
 
 export type RouteInput<R extends ActorRole, P, Q, B> = {
@@ -71,7 +79,7 @@ export function route(
       : async (req: NextRequest, params: unknown) => answerValue(await handler!(await parseInput(specOrHandler, req, params)), specOrHandler.status);
   return async (req: NextRequest, ctx: NextContext): Promise<Response> => {
     try {
-      checkOrigin(req, req.nextUrl.origin);
+      if (typeof specOrHandler === "function" || !specOrHandler.anyOrigin) checkOrigin(req, req.nextUrl.origin);
       return privateJson(await run(req, await ctx.params));
     } catch (e) {
       return privateJson(errorAnswer(e));
@@ -84,8 +92,15 @@ async function parseInput(spec: RouteSpec<ActorRole, AnySchema | undefined, AnyS
   const actor = spec.roles ? await requireActor(spec.roles) : null;
   const params = spec.params ? spec.params.parse(rawParams) : undefined;
   const query = spec.query ? spec.query.parse(Object.fromEntries(req.nextUrl.searchParams)) : undefined;
-  const body = spec.body ? spec.body.parse(await readJson(req, { limit: spec.bodyLimit ?? BODY_LIMITS.json, optional: spec.optionalBody })) : undefined;
+  const body = spec.body ? spec.body.parse(await readBodyOf(spec, req)) : undefined;
   return { req, actor, params, query, body } as RouteInput<ActorRole, AnySchema, AnySchema, AnySchema>;
+}
+
+function readBodyOf(spec: RouteSpec<ActorRole, unknown, unknown, unknown>, req: NextRequest): Promise<unknown> {
+  if (spec.bodyKind !== "form") return readJson(req, { limit: spec.bodyLimit ?? BODY_LIMITS.json, optional: spec.optionalBody });
+  return readForm(req, spec.bodyLimit ?? BODY_LIMITS.form, ["urlencoded", "multipart"]).then((form) =>
+    Object.fromEntries([...form.entries()].map(([k, v]) => [k, typeof v === "string" ? v : ""])),
+  );
 }
 
 function answerValue(value: unknown, status = 200): Response {

@@ -68,3 +68,9 @@ export const changePasswordSchema = z
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." })
   .refine((v) => v.password !== v.current, { path: ["password"], message: "Choose a password different from the current one." });
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
+
+/** The e-mail confirmation form: the token of the mailed link, and where the person was going. */
+export const confirmEmailSchema = z.object({
+  token: z.string({ message: "This link is incomplete." }).min(10, "This link is incomplete.").max(200, "This link is not one of ours."),
+  next: z.string().max(500).optional(),
+});

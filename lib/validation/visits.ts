@@ -127,3 +127,6 @@ export const visitEditFormSchema = z.object({
   technicianId: id,
 });
 export type VisitEditFormValues = z.output<typeof visitEditFormSchema>;
+
+/** The owner's sign-off form: the token of the link in the report mail. */
+export const signOffSchema = z.object({ token: z.string({ message: "This link is incomplete." }).min(10, "This link is incomplete.").max(200, "This link is not one of ours.") });

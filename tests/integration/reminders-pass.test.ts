@@ -190,7 +190,10 @@ describe("one-click unsubscribe (RFC 8058)", () => {
     const parsed = await simpleParser((await getMail(mail!.id)).raw);
     const url = (parsed.headers.get("list") as { unsubscribe: { url: string } }).unsubscribe.url;
 
-    const { POST, GET } = await import("@/app/api/unsubscribe/route");
+    const route = await import("@/app/api/unsubscribe/route");
+    const ctx = { params: Promise.resolve({}) };
+    const POST = (req: NextRequest) => route.POST(req, ctx);
+    const GET = (req: NextRequest) => route.GET(req, ctx);
     const bad = await POST(new NextRequest(url, { method: "POST", body: new URLSearchParams({ "List-Unsubscribe": "Yes" }) }));
     expect(bad.status).toBe(400);
     const forged = await POST(new NextRequest(url.replace(/\.[^.]+$/, ".forged0000000000"), { method: "POST", body: new URLSearchParams({ "List-Unsubscribe": "One-Click" }) }));
@@ -206,7 +209,7 @@ describe("one-click unsubscribe (RFC 8058)", () => {
     form.set("List-Unsubscribe", "One-Click");
     expect((await POST(new NextRequest(url, { method: "POST", body: form }))).status).toBe(200);
     // Opening the URL shows the confirmation page instead.
-    const page = GET(new NextRequest(url));
+    const page = await GET(new NextRequest(url));
     expect(page.status).toBe(303);
     expect(page.headers.get("location")).toMatch(/\/unsubscribe\?t=/);
 

@@ -1,19 +1,19 @@
 "use server";
 
 import { redirect } from "next/navigation";
-import { z } from "zod";
 import { verifyEmail } from "@/lib/auth/accounts";
 import { homePathFor } from "@/lib/auth/guards";
 import { safeNextPath } from "@/lib/auth/next-path";
 import { startSession } from "@/lib/auth/session";
+import { action } from "@/lib/http/action";
+import { confirmEmailSchema } from "@/lib/validation/auth";
 
-const confirmSchema = z.object({ token: z.string().min(10).max(200), next: z.string().max(500).optional() });
+const FAILED = "/verify-email/sent?failed=1";
 
 /** Takes the verification token (single use), signs its owner in and carries on to where they were going. */
-export async function confirmEmailAction(formData: FormData): Promise<void> {
-  const parsed = confirmSchema.safeParse({ token: formData.get("token"), next: formData.get("next") ?? undefined });
-  const userId = parsed.success ? verifyEmail(parsed.data.token) : null;
-  if (!userId) redirect("/verify-email/sent?failed=1");
+export const confirmEmailAction = action({ schema: confirmEmailSchema, refused: FAILED }, async ({ token, next }) => {
+  const userId = verifyEmail(token);
+  if (!userId) redirect(FAILED);
   await startSession(userId);
-  redirect(safeNextPath(parsed.data?.next) ?? `${await homePathFor(userId)}?verified=1`);
-}
+  redirect(safeNextPath(next) ?? `${await homePathFor(userId)}?verified=1`);
+});

@@ -1,14 +1,13 @@
 "use server";
 
 import { redirect } from "next/navigation";
-import { z } from "zod";
+import { action } from "@/lib/http/action";
 import { confirmSignOff } from "@/lib/visits/sign-off";
+import { signOffSchema } from "@/lib/validation/visits";
 
-const signOffSchema = z.object({ token: z.string().min(10).max(200) });
+const FAILED = "/visit-sign-off?failed=1";
 
 /** Takes the sign-off link (single use) and says so; an unknown, used or expired link changes nothing. */
-export async function confirmSignOffAction(formData: FormData): Promise<void> {
-  const parsed = signOffSchema.safeParse({ token: formData.get("token") });
-  const done = parsed.success ? confirmSignOff(parsed.data.token) : null;
-  redirect(done ? "/visit-sign-off?done=1" : "/visit-sign-off?failed=1");
-}
+export const confirmSignOffAction = action({ schema: signOffSchema, refused: FAILED }, ({ token }) => {
+  redirect(confirmSignOff(token) ? "/visit-sign-off?done=1" : FAILED);
+});

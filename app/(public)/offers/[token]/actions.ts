@@ -2,18 +2,18 @@
 
 import { redirect } from "next/navigation";
 import { isAppError } from "@/lib/errors";
+import { action } from "@/lib/http/action";
 import { acceptOfferByToken } from "@/lib/reminders/offers";
 import { offerAcceptSchema } from "@/lib/validation/reminders";
 
-export async function acceptOfferAction(formData: FormData): Promise<void> {
-  const parsed = offerAcceptSchema.safeParse({ token: formData.get("token") });
-  if (!parsed.success) redirect("/");
+/** The offer link's token is the authority: anyone holding it accepts, signed in or not. */
+export const acceptOfferAction = action({ schema: offerAcceptSchema, refused: "/" }, ({ token }) => {
   let outcome = "accepted";
   try {
-    acceptOfferByToken(parsed.data.token);
+    acceptOfferByToken(token);
   } catch (e) {
     if (!isAppError(e)) throw e;
     outcome = e.status === 409 ? "closed" : "invalid";
   }
-  redirect(`/offers/${encodeURIComponent(parsed.data.token)}?result=${outcome}`);
-}
+  redirect(`/offers/${encodeURIComponent(token)}?result=${outcome}`);
+});
