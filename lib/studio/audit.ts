@@ -76,6 +76,7 @@ const ACTION_LABELS: Record<string, string> = {
   "settings.logo_changed": "Studio logo changed",
   "settings.accent_changed": "Studio colour changed",
   "settings.stripe_key_saved": "Stripe key checked and saved",
+  "settings.stripe_webhook_secret_saved": "Stripe webhook signing secret saved",
   "settings.mail_sender_saved": "E-mail sender name or reply address changed",
   "policy.version_created": "New warranty policy version",
   "finish_product.created": "Finish product added",

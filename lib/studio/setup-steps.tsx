@@ -12,6 +12,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { createCatalogProduct } from "@/lib/catalog";
 import { encrypt } from "@/lib/crypto";
 import { env } from "@/lib/env";
+import { SEALED } from "@/lib/payments/stripe";
 import { conflict, serviceUnavailable, unprocessable } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { assertAdmin, freshStudio, studioToday } from "@/lib/settings";
@@ -126,17 +127,10 @@ export async function saveStripeKey(ctx: StudioContext, { secretKey }: StripeKey
     throw serviceUnavailable("payment_service_unavailable", "Stripe can't be reached right now, so the key could not be checked. Nothing was saved; try again in a minute.");
   }
   getDb().transaction((tx) => {
-    tx.update(studios).set({ stripeSecretSealed: encrypt("stripe-key", secretKey), stripeCheckedAt: now }).where(eq(studios.id, ctx.studio.id)).run();
+    tx.update(studios).set({ stripeSecretSealed: encrypt(SEALED.secretKey, secretKey), stripeCheckedAt: now }).where(eq(studios.id, ctx.studio.id)).run();
     markSetupStep(tx, ctx.studio.id, "payments");
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "settings.stripe_key_saved", subjectType: "studio", subjectId: ctx.studio.id, data: { mode: secretKey.includes("_live_") ? "live" : "test", last4: secretKey.slice(-4) } });
   });
-}
-
-/** What the payments step shows about the stored key: never the key itself. */
-export function stripeKeyStatus(ctx: StudioContext): { saved: boolean; checkedAt: Date | null } {
-  assertAdmin(ctx);
-  const s = freshStudio(ctx);
-  return { saved: s.stripeSecretSealed !== null, checkedAt: s.stripeCheckedAt };
 }
 
 // ---- mail ----
