@@ -1,6 +1,8 @@
 // The one state machine of a plan subscription. Every move goes through assertPlanMove and is written
-// with an audit row (lib/plans/store.ts moveSubscription); only verified Stripe events (lib/plans/webhook.ts)
-// and staff actions (lib/plans/service.ts) call it.
+// with an audit row and a version check (lib/plans/subscriptions.ts moveSubscription); only verified
+// Stripe events (lib/plans/stripe-sync.ts), staff and owner actions (lib/plans/cancel.ts, a piece
+// changing hands in lib/plans/transfer.ts, starting a plan in lib/plans/subscriptions.ts) and the
+// scheduler for plans paid by other means (lib/plans/visits.ts) call it.
 
 export const PLAN_STATES = ["awaiting_payment", "running", "grace", "lapsed", "ending", "ended"] as const;
 export type PlanState = (typeof PLAN_STATES)[number];
