@@ -9,7 +9,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { postClaimMessage } from "@/lib/claims/reply";
 import { notFound, unprocessable } from "@/lib/errors";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
-import { messageFormSchema, messageSubjectSchema, threadUpdateSchema, type InboxQuery } from "@/lib/validation/messages";
+import { messageFormSchema, messageSubjectSchema, type InboxQuery, type ThreadUpdate } from "@/lib/validation/messages";
 import { mailOwner, mailStudio, type ThreadMailFacts } from "./mail";
 import { appendMessage, findThread, ownerMayWrite, subjectOf, threadFor, threadMessagesOf, type MessageView, type SubjectRef } from "./store";
 import { threadVisibleTo } from "./access";
@@ -225,9 +225,8 @@ export function getThread(ctx: StudioContext, threadId: string, { markRead = fal
 }
 
 /** Assign a thread to a staff member (or nobody), mark it done, or open it again. */
-export function updateThread(ctx: StudioContext, threadId: string, raw: unknown) {
+export function updateThread(ctx: StudioContext, threadId: string, input: ThreadUpdate) {
   const thread = studioThread(ctx, threadId);
-  const input = threadUpdateSchema.parse(raw);
   if (input.assignedToId && !studioStaff(ctx).some((s) => s.id === input.assignedToId)) {
     throw unprocessable("not_staff", "Pick someone on the studio's staff.", { assignedToId: ["Pick someone on the studio's staff."] });
   }

@@ -28,3 +28,4 @@ export const threadUpdateSchema = z
     state: z.enum(["open", "done"]).optional(),
   })
   .refine((v) => v.assignedToId !== undefined || v.state !== undefined, "Say what to change: the assignee or the state.");
+export type ThreadUpdate = z.output<typeof threadUpdateSchema>;

@@ -241,4 +241,15 @@ describe("messages: the inbox's view is parsed at the boundary", () => {
     const done = await call(GET, "GET", "/api/threads?view=done");
     expect((done.json as { view?: string } | null)?.view).toBe("done");
   });
+
+  it("PATCH /api/threads/[id]: nothing to change and a state we don't have are 400s before any lookup; a well-formed change of no thread is a 404", async () => {
+    const { PATCH } = await import("@/app/api/threads/[id]/route");
+    await signInMember("staff");
+    const params = { id: "no-such-thread" };
+    const nothing = await call(PATCH, "PATCH", "/api/threads/no-such-thread", { body: {}, params });
+    expect([nothing.status, nothing.json?.error?.message]).toEqual([400, "Say what to change: the assignee or the state."]);
+    const state = await call(PATCH, "PATCH", "/api/threads/no-such-thread", { body: { state: "closed" }, params });
+    expect([state.status, Object.keys(state.json?.error?.fieldErrors ?? {})]).toEqual([400, ["state"]]);
+    expect((await call(PATCH, "PATCH", "/api/threads/no-such-thread", { body: { state: "done" }, params })).status).toBe(404);
+  });
 });
