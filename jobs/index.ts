@@ -9,6 +9,7 @@ import { getDb } from "@/db/client";
 import { closeMailTransport, retryQueuedMail } from "@/lib/mail";
 import { describePass, remindersJob } from "./reminders";
 import { planVisitsJob } from "./plan-visits";
+import { describeHandoverMailings, handoverMailingsJob } from "./handover-mailings";
 import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 
 const log = (line: string) => console.log(`${new Date().toISOString()} ${line}`);
@@ -65,6 +66,8 @@ const visitTask = cron.schedule("*/15 * * * *", visitTick, { name: "visit-remind
 const mailTask = cron.schedule("* * * * *", mailTick, { name: "mail-retry", noOverlap: true });
 // Care plans: included visits become jobs ahead of their due date, hourly at minute 25.
 const planTask = cron.schedule("25 * * * *", () => planVisitsJob(new Date()).then((lines) => lines.forEach(log), (e: unknown) => log(`plan visit pass failed: ${e instanceof Error ? e.message : String(e)}`)), { name: "plan-visits", noOverlap: true });
+// Bulk hand-over mailings left half-sent (the server stopped): finished every 5 minutes, each piece once.
+cron.schedule("*/5 * * * *", () => handoverMailingsJob(new Date(), shutdown.signal).then((r) => describeHandoverMailings(r).forEach(log), (e: unknown) => log(`hand-over mailing pass failed: ${e instanceof Error ? e.message : String(e)}`)), { name: "handover-mailings", noOverlap: true });
 void visitTick();
 log("scheduler: care reminders hourly at minute 5; running one pass now");
 void tick();

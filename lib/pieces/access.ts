@@ -1,4 +1,3 @@
-import "server-only";
 import { and, eq, isNull, type SQL } from "drizzle-orm";
 import { pieces } from "@/db/schema";
 import type { ActorRef } from "@/lib/auth/actor";

@@ -1,4 +1,3 @@
-import "server-only";
 import { Image, Text, View } from "@react-pdf/renderer";
 import sharp from "sharp";
 import { accentOf } from "@/lib/studio/brand";

@@ -1,4 +1,3 @@
-import "server-only";
 import { Canvas, Document, Font, Page, Path, StyleSheet, Svg, Text, View, renderToBuffer } from "@react-pdf/renderer";
 import { and, eq, inArray, isNull } from "drizzle-orm";
 import QRCode from "qrcode";
@@ -14,7 +13,7 @@ import { careBasics } from "./care-basics";
 import { pdfBrandOf, PdfBrandHeader, type PdfBrand } from "./card-brand";
 import { CARE_RECORDS_BY, CODE_WHEN_PIECE_CHANGES_HANDS } from "./card-words";
 import { scheduleFromRows } from "./care-inputs";
-import { loadPiece, studioProducts } from "./registry";
+import { loadPiece, studioProducts } from "./registry-common";
 import { openRegistrationCode } from "./registration";
 
 // The drawer card: a printable card that travels in the piece's drawer, 4 × 6 in (288 × 432 pt) or

@@ -1,4 +1,3 @@
-import "server-only";
 import { and, asc, count, desc, eq, inArray, isNull, ne, notExists, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { clients, handoverBatches, handoverBatchItems, memberships, ownerships, pieceHandovers, pieces, studios, users } from "@/db/schema";
@@ -7,7 +6,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import type { HandoverItemOutcome } from "@/lib/clients/vocabulary";
 import { notFound, unprocessable } from "@/lib/errors";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
-import { HANDOVER_BLOCK_MESSAGES, handoverBlockOf, mailHandover, type HandoverBlock } from "./handover";
+import { HANDOVER_BLOCK_MESSAGES, handoverBlockOf, mailHandover, type HandoverBlock } from "./handover-mail";
 import { formatCount } from "@/lib/format";
 
 // Bulk hand-over mail: staff pick pieces whose buyer never had the hand-over mail (or all of them),
@@ -17,6 +16,8 @@ import { formatCount } from "@/lib/format";
 // server stopped mid-way) is taken up again when its progress is next read. Each piece is mailed at
 // most once across every mailing (mailHandover firstOnly); a resend stays a single action on the
 // piece's page. Skipped: no e-mail, no consent to service mail, already registered, already sent.
+// No server-only import: the scheduler's pass (jobs/handover-mailings.ts) finishes stalled mailings
+// through runHandoverBatch under plain Node.
 
 /** A running mailing not touched for this long is taken up again (a runner touches it every piece). */
 export const STALE_BATCH_MS = 60_000;
@@ -104,9 +105,10 @@ const settle = (itemId: string, outcome: HandoverItemOutcome, reason: string | n
 /**
  * Sends a mailing's pieces one by one. Only one runner works a mailing: it takes the mailing (queued,
  * or running but untouched for STALE_BATCH_MS) with a conditional update, and each item with another.
- * Never throws for one piece: a failure is recorded on its item with the reason.
+ * Never throws for one piece: a failure is recorded on its item with the reason. True when this call
+ * took the mailing (and worked it to the end), false when it was done or another runner had it.
  */
-export async function runHandoverBatch(batchId: string, now = () => new Date()): Promise<void> {
+export async function runHandoverBatch(batchId: string, now = () => new Date()): Promise<boolean> {
   const db = getDb();
   const start = now();
   const taken = db
@@ -115,7 +117,7 @@ export async function runHandoverBatch(batchId: string, now = () => new Date()):
     .where(and(eq(handoverBatches.id, batchId), sql`(${handoverBatches.state} = 'queued' OR (${handoverBatches.state} = 'running' AND ${handoverBatches.updatedAt} < ${start.getTime() - STALE_BATCH_MS}))`))
     .returning()
     .get();
-  if (!taken) return;
+  if (!taken) return false;
   const ctx = batchContext(taken);
   // An item left "sending" by a runner that stopped: its mail went out if the piece's hand-over row says so.
   for (const item of db.select().from(handoverBatchItems).where(and(eq(handoverBatchItems.batchId, batchId), eq(handoverBatchItems.outcome, "sending"))).all()) {
@@ -150,6 +152,7 @@ export async function runHandoverBatch(batchId: string, now = () => new Date()):
   }
   const end = now();
   db.update(handoverBatches).set({ state: "done", finishedAt: end, updatedAt: end }).where(and(eq(handoverBatches.id, batchId), ne(handoverBatches.state, "done"))).run();
+  return true;
 }
 
 /** Starts a mailing after the caller has answered; its failures are logged, never thrown. */

@@ -1,6 +1,5 @@
 // What every registry operation shares: the piece as the API hands it out, the studio-scoped piece
 // read (someone else's piece is a 404), the studio's catalog and members, and the studio's "today".
-import "server-only";
 import { asc, eq } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
 import { finishProducts, memberships, pieces, users, type FinishProduct, type Piece } from "@/db/schema";

@@ -9,7 +9,6 @@
 // column mappers (wholeRows), so dates, JSON and flags read as they do everywhere else.
 // Id lists travel as one JSON array (json_each), so the statement text never changes with the page size.
 // The operations (registry-list.ts and the others) call these and read top to bottom.
-import "server-only";
 import { getTableColumns, type Table } from "drizzle-orm";
 import type Database from "better-sqlite3";
 import { getDb, perConnection, type Db } from "@/db/client";
