@@ -1,113 +1,147 @@
 "use client";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
-import { apiJson, isApiError } from "@/components/api-client";
+import { useForm } from "react-hook-form";
+import { toast } from "sonner";
+import { ApiError, apiJson } from "@/components/api-client";
+import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { Button } from "@/components/ui/button";
-import { CARE_TASK_LABELS, CLAIM_CATEGORIES, REFRESH_TASK_KINDS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
+import { SelectField, TextField } from "@/components/ui/field";
+import { CARE_TASK_KINDS, CARE_TASK_LABELS, CLAIM_CATEGORIES, FINISH_CLASS_LABELS, FINISH_CLASSES, PIECE_KIND_LABELS, PIECE_KINDS, type ClaimCategory } from "@/lib/care/vocabulary";
+import { templateFormValues, templateInputOf, type TemplateFormValues } from "@/lib/validation/plan-template-form";
+import type { PlanTemplateInput } from "@/lib/plans/validation";
 
-const field = "w-full rounded-lg border border-line bg-card px-3 py-2";
+const box = "inline-flex min-h-11 items-center gap-2 mr-4";
+const legend = "text-sm font-medium text-ink";
+const textarea = "block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger";
 
-/** A new care plan template (admin). Sent to POST /api/plans; the price is typed in the studio's currency. */
-export function PlanTemplateForm({ currency, exponent, categoryLabels }: { currency: string; exponent: number; categoryLabels: Record<ClaimCategory, string> }) {
+function Problem({ message }: { message?: string }) {
+  return message ? (
+    <p role="alert" className="text-sm font-medium text-danger">
+      {message}
+    </p>
+  ) : null;
+}
+
+/**
+ * A plan template: a new plan (POST /api/plans) or a change to one (PUT /api/plans/[id], which saves
+ * the next version; plans already running keep theirs). Checked field by field with the schema of
+ * lib/plans/template-form, loaded while the form is filled in; the server checks again.
+ */
+export function PlanTemplateForm({
+  template,
+  currency,
+  exponent,
+  taxNote,
+  categoryLabels,
+}: {
+  /** The version to change; none for a new plan. */
+  template?: PlanTemplateInput & { id: string; version: number };
+  currency: string;
+  exponent: number;
+  /** How the studio's tax settings add tax to the price, in words. */
+  taxNote: string;
+  categoryLabels: Record<ClaimCategory, string>;
+}) {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  async function submit(form: FormData) {
-    setBusy(true);
-    setError(null);
-    const num = (k: string) => Number(form.get(k) ?? 0);
-    const category = String(form.get("extendCategory") ?? "");
-    const months = num("extendMonths");
+  const form = useForm<TemplateFormValues>({
+    resolver: useLazyZodResolver(() => import("@/lib/validation/plan-template-form").then((m) => m.templateFormSchema(exponent))),
+    defaultValues: templateFormValues(template ?? null, exponent),
+  });
+  const errors = form.formState.errors;
+  const onSubmit = form.handleSubmit(async (values) => {
+    const json = templateInputOf(values, exponent);
     try {
-      await apiJson("/api/plans", {
-        method: "POST",
-        json: {
-          name: String(form.get("name") ?? ""),
-          summary: String(form.get("summary") ?? ""),
-          priceMinor: Math.round(num("price") * 10 ** exponent),
-          interval: form.get("interval") === "month" ? "month" : "year",
-          included: {
-            tasks: form.getAll("tasks").map(String),
-            visitsPerYear: num("visitsPerYear"),
-            visitSharePct: num("visitSharePct"),
-            extendedLines: category && months > 0 ? [{ category, extraMonths: months }] : [],
-            repairDiscountPct: num("repairDiscountPct"),
-          },
-          fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
-        },
-      });
+      if (template) {
+        const { plan } = await apiJson<{ plan: { version: number } }>(`/api/plans/${template.id}`, { method: "PUT", json });
+        toast.success(`Saved as version ${plan.version}. Plans already running keep the version they were bought under.`);
+      } else {
+        await apiJson("/api/plans", { method: "POST", json });
+        toast.success("Plan added.");
+        form.reset(templateFormValues(null, exponent));
+      }
       router.refresh();
-      (document.getElementById("plan-template-form") as HTMLFormElement | null)?.reset();
     } catch (e) {
-      setError(isApiError(e) ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : "The plan couldn't be saved. Try again.");
+      const message = e instanceof ApiError ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : "The plan wasn't saved. Check your connection and try again.";
+      form.setError("root", { type: "server", message });
     }
-    setBusy(false);
-  }
+  });
+  const id = template?.id ?? "new";
   return (
-    <form id="plan-template-form" action={submit} className="grid gap-3 sm:grid-cols-2">
-      <label className="space-y-1 sm:col-span-2">
-        <span className="font-semibold">Name</span>
-        <input name="name" required minLength={2} maxLength={80} className={field} />
-      </label>
-      <label className="space-y-1 sm:col-span-2">
-        <span className="font-semibold">What owners read about it</span>
-        <textarea name="summary" maxLength={600} rows={2} className={field} />
-      </label>
-      <label className="space-y-1">
-        <span className="font-semibold">Price ({currency}, before tax as your settings apply it)</span>
-        <input name="price" type="number" min={0} step={10 ** -exponent} required className={field} />
-      </label>
-      <label className="space-y-1">
-        <span className="font-semibold">Billed</span>
-        <select name="interval" className={field} defaultValue="year">
-          <option value="year">Every year</option>
-          <option value="month">Every month</option>
-        </select>
-      </label>
+    <form onSubmit={onSubmit} noValidate className="grid gap-4 sm:grid-cols-2" aria-label={template ? `Change ${template.name}` : "New care plan"}>
+      <div className="sm:col-span-2">
+        <TextField label="Name" autoComplete="off" error={errors.name?.message} {...form.register("name")} />
+      </div>
+      <div className="space-y-1.5 sm:col-span-2">
+        <label htmlFor={`summary-${id}`} className={legend}>
+          What owners read about it
+        </label>
+        <textarea id={`summary-${id}`} rows={2} className={textarea} aria-invalid={errors.summary ? true : undefined} {...form.register("summary")} />
+        <Problem message={errors.summary?.message} />
+      </div>
+      <TextField label={`Price (${currency}, before tax)`} inputMode="decimal" autoComplete="off" hint={taxNote} error={errors.price?.message} {...form.register("price")} />
+      <SelectField label="Billed" error={errors.interval?.message} {...form.register("interval")}>
+        <option value="year">Every year</option>
+        <option value="month">Every month</option>
+      </SelectField>
+
       <fieldset className="space-y-1 sm:col-span-2">
-        <legend className="font-semibold">Care tasks the studio does (no reminders to the owner)</legend>
-        {REFRESH_TASK_KINDS.map((t: CareTaskKind) => (
-          <label key={t} className="mr-4 inline-flex min-h-11 items-center gap-2">
-            <input type="checkbox" name="tasks" value={t} /> {CARE_TASK_LABELS[t]}
+        <legend className={legend}>Care tasks the studio does (the owner gets no reminders for them)</legend>
+        {CARE_TASK_KINDS.map((t) => (
+          <label key={t} className={box}>
+            <input type="checkbox" value={t} {...form.register("tasks")} /> {CARE_TASK_LABELS[t]}
           </label>
         ))}
       </fieldset>
-      <label className="space-y-1">
-        <span className="font-semibold">Studio visits a year</span>
-        <input name="visitsPerYear" type="number" min={0} max={12} defaultValue={1} className={field} />
-      </label>
-      <label className="space-y-1">
-        <span className="font-semibold">Owner pays of each visit (%)</span>
-        <input name="visitSharePct" type="number" min={0} max={100} defaultValue={0} className={field} />
-      </label>
-      <label className="space-y-1">
-        <span className="font-semibold">Longer warranty for</span>
-        <select name="extendCategory" className={field} defaultValue="">
-          <option value="">No line</option>
+      <TextField label="Studio visits a year" inputMode="numeric" error={errors.visitsPerYear?.message} {...form.register("visitsPerYear")} />
+      <TextField label="Owner pays of each visit (%)" inputMode="numeric" hint="0: visits are included at no charge." error={errors.visitSharePct?.message} {...form.register("visitSharePct")} />
+      <TextField label="Discount on paid repairs (%)" inputMode="numeric" error={errors.repairDiscountPct?.message} {...form.register("repairDiscountPct")} />
+
+      <fieldset className="space-y-2 sm:col-span-2">
+        <legend className={legend}>Longer warranty while the plan runs (extra months; empty for none)</legend>
+        <div className="grid gap-3 sm:grid-cols-2">
           {CLAIM_CATEGORIES.map((c) => (
-            <option key={c} value={c}>
-              {categoryLabels[c]}
-            </option>
+            <TextField key={c} label={categoryLabels[c]} inputMode="numeric" error={errors.extraMonths?.[c]?.message} {...form.register(`extraMonths.${c}`)} />
           ))}
-        </select>
-      </label>
-      <label className="space-y-1">
-        <span className="font-semibold">By (months)</span>
-        <input name="extendMonths" type="number" min={0} max={120} defaultValue={12} className={field} />
-      </label>
-      <label className="space-y-1">
-        <span className="font-semibold">Discount on paid repairs (%)</span>
-        <input name="repairDiscountPct" type="number" min={0} max={100} defaultValue={0} className={field} />
-      </label>
-      <div className="sm:col-span-2 space-y-2">
-        <Button type="submit" disabled={busy}>
-          {busy ? "Saving…" : "Add the plan"}
+        </div>
+      </fieldset>
+
+      <fieldset className="space-y-1 sm:col-span-2">
+        <legend className={legend}>Fits these finishes (none ticked: any)</legend>
+        {FINISH_CLASSES.map((f) => (
+          <label key={f} className={box}>
+            <input type="checkbox" value={f} {...form.register("finishClasses")} /> {FINISH_CLASS_LABELS[f]}
+          </label>
+        ))}
+      </fieldset>
+      <fieldset className="space-y-1 sm:col-span-2">
+        <legend className={legend}>Fits these pieces (none ticked: any)</legend>
+        {PIECE_KINDS.map((k) => (
+          <label key={k} className={box}>
+            <input type="checkbox" value={k} {...form.register("pieceKinds")} /> {PIECE_KIND_LABELS[k]}
+          </label>
+        ))}
+      </fieldset>
+      <TextField label="Smallest top (m²)" inputMode="decimal" hint="Empty: no lower bound." error={errors.minTopArea?.message} {...form.register("minTopArea")} />
+      <TextField label="Largest top (m²)" inputMode="decimal" hint="Empty: no upper bound." error={errors.maxTopArea?.message} {...form.register("maxTopArea")} />
+
+      <SelectField label="Money back when an owner cancels" error={errors.refundRule?.message} {...form.register("refundRule")}>
+        <option value="none">None; the plan runs to the end of the period</option>
+        <option value="unused_share">The unused part of the period</option>
+      </SelectField>
+      <div className="space-y-1">
+        <label className={box}>
+          <input type="checkbox" {...form.register("transfers")} /> The plan moves with the piece to a new owner
+        </label>
+        <label className={box}>
+          <input type="checkbox" {...form.register("offered")} /> Offered to owners
+        </label>
+      </div>
+
+      <div className="space-y-2 sm:col-span-2">
+        <Button type="submit" disabled={form.formState.isSubmitting}>
+          {form.formState.isSubmitting ? "Saving…" : template ? "Save as a new version" : "Add the plan"}
         </Button>
-        {error ? (
-          <p role="alert" className="text-sm text-danger">
-            {error}
-          </p>
-        ) : null}
+        <Problem message={errors.root?.message} />
       </div>
     </form>
   );
