@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { ArrowRight } from "lucide-react";
-import { HandoverRegisterButton } from "@/components/clients/handover-register-button";
+import { HandoverRegisterButton } from "@/components/owner/register-form";
+import { RegisterPanel } from "@/components/owner/register-panel";
 import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
@@ -38,63 +38,51 @@ export default async function HandoverPage({ params }: { params: Promise<{ token
   }
 
   const wrongAccount = user && user.email.toLowerCase() !== landing.email.toLowerCase();
+  const closed =
+    landing.state === "taken" ? (
+      <Notice tone="warn" title="Already registered">
+        This link has been used and the piece is registered. If that wasn&apos;t you, ask {landing.studioName}.
+      </Notice>
+    ) : landing.state === "expired" ? (
+      <Notice tone="warn" title="This link has expired">
+        Ask {landing.studioName} to send the mail again, or <Link className="underline" href="/register">type the code from the drawer card</Link>.
+      </Notice>
+    ) : wrongAccount ? (
+      <Notice tone="warn" title="Signed in with another address">
+        This link was sent to <span className="break-all">{landing.email}</span>; you are signed in as <span className="break-all">{user.email}</span>. Sign out and sign in (or sign up) with {landing.email} to register the piece, or type the code from the drawer card.
+      </Notice>
+    ) : null;
   return (
     <div className="mx-auto max-w-md px-4 py-8">
-      <Card className="space-y-5">
-        <div className="space-y-1">
-          <p className="text-sm font-medium text-muted">{landing.studioName}</p>
-          <h1 className="font-display text-2xl font-semibold leading-tight">{landing.title}</h1>
-          <p className="text-muted">
-            {landing.kindLabel} · delivered {landing.deliveredMonth}
-          </p>
-        </div>
-        {landing.state === "yours" ? (
-          <div className="space-y-3">
-            <Notice tone="ok" title="This piece is yours">
-              It is registered to your account.
-            </Notice>
-            <ButtonLink href={`/pieces/${landing.pieceId}`} className="w-full">
-              Open its care plan
-              <ArrowRight aria-hidden className="size-4" />
-            </ButtonLink>
-          </div>
-        ) : landing.state === "taken" ? (
-          <Notice tone="warn" title="Already registered">
-            This link has been used and the piece is registered. If that wasn&apos;t you, ask {landing.studioName}.
-          </Notice>
-        ) : landing.state === "expired" ? (
-          <Notice tone="warn" title="This link has expired">
-            Ask {landing.studioName} to send the mail again, or <Link className="underline" href="/register">type the code from the drawer card</Link>.
-          </Notice>
-        ) : !user ? (
-          <div className="space-y-3">
-            <p>
-              Register this piece to get its care schedule, reminders when care is due, and its warranty. Use <span className="break-all font-medium">{landing.email}</span>, the address this mail went to — no code to type.
-            </p>
-            <ButtonLink href={`/sign-up?next=${encodeURIComponent(here)}`} className="w-full">
-              Create an account and register
-              <ArrowRight aria-hidden className="size-4" />
-            </ButtonLink>
-            <ButtonLink href={`/sign-in?next=${encodeURIComponent(here)}`} variant="secondary" className="w-full">
-              I have an account — sign in
-            </ButtonLink>
-          </div>
-        ) : wrongAccount ? (
-          <Notice tone="warn" title="Signed in with another address">
-            This link was sent to <span className="break-all">{landing.email}</span>; you are signed in as <span className="break-all">{user.email}</span>. Sign out and sign in (or sign up) with {landing.email} to register the piece, or type the code from the drawer card.
-          </Notice>
-        ) : !user.emailVerifiedAt ? (
-          <Notice tone="warn" title="Confirm your e-mail first">
-            Open the link we sent to <span className="break-all">{user.email}</span>; it brings you back here to register. <Link className="underline" href={`/verify-email/sent?next=${encodeURIComponent(here)}`}>Need a new link?</Link>
-          </Notice>
-        ) : (
-          <div className="space-y-3">
-            <p>
-              Signed in as <span className="break-all">{user.email}</span>. One tap puts this piece on your account.
-            </p>
-            <HandoverRegisterButton action={registerByHandoverAction} token={token} />
-          </div>
-        )}
+      <Card>
+        <RegisterPanel
+          piece={landing}
+          heading="h1"
+          here={here}
+          user={user}
+          state={
+            landing.state === "yours"
+              ? { kind: "yours", pieceId: landing.pieceId, note: "It is registered to your account." }
+              : closed
+                ? { kind: "closed", notice: closed }
+                : {
+                    kind: "open",
+                    signUpLead: (
+                      <>
+                        Register this piece to get its care schedule, reminders when care is due, and its warranty. Use <span className="break-all font-medium">{landing.email}</span>, the address this mail went to — no code to type.
+                      </>
+                    ),
+                    ready: (
+                      <>
+                        <p>
+                          Signed in as <span className="break-all">{user?.email}</span>. One tap puts this piece on your account.
+                        </p>
+                        <HandoverRegisterButton action={registerByHandoverAction} token={token} />
+                      </>
+                    ),
+                  }
+          }
+        />
       </Card>
     </div>
   );
