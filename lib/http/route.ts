@@ -61,26 +61,19 @@ export type RouteInput<R extends ActorRole, P, Q, B> = {
 };
 
 type NextContext = { params: Promise<unknown> };
-type LegacyHandler<P> = (req: NextRequest, ctx: { params: P }) => Promise<Response>;
 
 export function route<R extends ActorRole = never, P extends AnySchema | undefined = undefined, Q extends AnySchema | undefined = undefined, B extends AnySchema | undefined = undefined>(
   spec: RouteSpec<R, P, Q, B>,
   handler: (input: RouteInput<R, P, Q, B>) => Promise<unknown> | unknown,
 ): (req: NextRequest, ctx: NextContext) => Promise<Response>;
-/** @deprecated The older form: the handler reads and checks everything itself. Name roles and schemas instead. */
-export function route<P = Record<string, never>>(handler: LegacyHandler<P>): (req: NextRequest, ctx: NextContext) => Promise<Response>;
 export function route(
-  specOrHandler: RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined> | LegacyHandler<unknown>,
-  handler?: (input: RouteInput<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>) => unknown,
+  spec: RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>,
+  handler: (input: RouteInput<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>) => unknown,
 ) {
-  const run =
-    typeof specOrHandler === "function"
-      ? async (req: NextRequest, params: unknown) => specOrHandler(req, { params })
-      : async (req: NextRequest, params: unknown) => answerValue(await handler!(await parseInput(specOrHandler, req, params)), specOrHandler.status);
   return async (req: NextRequest, ctx: NextContext): Promise<Response> => {
     try {
-      if (typeof specOrHandler === "function" || !specOrHandler.anyOrigin) checkOrigin(req, req.nextUrl.origin);
-      return privateJson(await run(req, await ctx.params));
+      if (!spec.anyOrigin) checkOrigin(req, req.nextUrl.origin);
+      return privateJson(answerValue(await handler(await parseInput(spec, req, await ctx.params)), spec.status));
     } catch (e) {
       return privateJson(errorAnswer(e));
     }
@@ -133,16 +126,4 @@ function privateJson(res: Response): Response {
   const vary = res.headers.get("Vary");
   if (!vary || !/(^|,)\s*cookie\s*(,|$)/i.test(vary)) res.headers.set("Vary", vary ? `${vary}, Cookie` : "Cookie");
   return res;
-}
-
-/**
- * Parses a JSON body with a zod schema (for the older route form; name `body` in the spec instead).
- * Read through lib/http/body.ts: at most `limit` bytes (1 MB unless given), else a 413; not JSON is a 400.
- */
-export async function parseJson<S extends z.ZodType>(req: Request, schema: S, opts?: { limit?: number; optional?: boolean }): Promise<z.output<S>> {
-  return schema.parse(await readJson(req, opts));
-}
-
-export function parseQuery<S extends z.ZodType>(req: NextRequest, schema: S): z.output<S> {
-  return schema.parse(Object.fromEntries(req.nextUrl.searchParams));
 }

@@ -7,7 +7,7 @@ import { getDb } from "@/db/client";
 import { ownerships, pieces, users } from "@/db/schema";
 import { rateLimits } from "@/lib/auth/rate-limit";
 import { CROCKFORD_CHECK_ALPHABET, generateRegistrationCode } from "@/lib/care/registration-code";
-import { parseJson, route } from "@/lib/http/route";
+import { route } from "@/lib/http/route";
 import { lookupCard, registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { CODE_TYPO_MESSAGE, registrationSchema } from "@/lib/validation/owner";
@@ -22,10 +22,7 @@ async function verifiedUser() {
 
 /** The same wiring as app/api/registrations/route.ts, with the user and IP given instead of read from the request. */
 function handlerFor(user: Awaited<ReturnType<typeof createUser>>, ip: string) {
-  return route(async (req) => {
-    const body = await parseJson(req, registrationSchema);
-    return Response.json(await registerPiece(user, body, ip), { status: 201 });
-  });
+  return route({ body: registrationSchema, status: 201 }, ({ body }) => registerPiece(user, body, ip));
 }
 
 async function post(user: Awaited<ReturnType<typeof createUser>>, ip: string, body: unknown) {
