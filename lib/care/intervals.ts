@@ -26,6 +26,7 @@ export const DEFAULT_WEAR_INTERVALS: Record<FinishClass, WearIntervals> = {
   charred_oiled: { heavy: 12, moderate: 36, light: 36 }, // from memory, common practice — no published source
 };
 
+/** Where each default interval comes from: a record for code and tests, never put in words shown to people. */
 export const DEFAULT_INTERVAL_SOURCE: Record<FinishClass, string> = {
   hardwax_oil: "default interval, from memory, common practice — no published source",
   ceramic_topcoat: "default interval, from memory, common practice — no published source",

@@ -3,7 +3,6 @@ import { addDays, addMonths, assertTimeZone, diffDays, fromDayNumber, localDate,
 import { CareInputError } from "./errors";
 import {
   ANNUAL_CHECK_MONTHS,
-  DEFAULT_INTERVAL_SOURCE,
   DEFAULT_WEAR_INTERVALS,
   effectiveInterval,
   bandForUse,
@@ -106,6 +105,17 @@ export interface CareTask {
   layerId: string | null;
   productId: string | null;
   interval: EffectiveInterval;
+  /**
+   * Where the interval came from, as data for the words a page builds: the studio's catalog product,
+   * or the usual interval for the finish class (intervals.ts DEFAULT_INTERVAL_SOURCE keeps the sources
+   * of those; they stay in code, never in words shown to people). `unknownProductId`: the layer names a
+   * product the catalog no longer holds.
+   */
+  intervalFrom:
+    | { kind: "catalog"; productId: string; productName: string | null }
+    | { kind: "usual"; finishClass: FinishClass | null; unknownProductId: string | null };
+  /** A topcoat over hardwax oil: the oil is cared for through this task, on the longer of the two intervals. */
+  oilBeneath: { topcoat: EffectiveInterval; oil: EffectiveInterval } | null;
   /** The date the clock runs from and why. */
   clockFrom: IsoDate;
   clockSource: "layer" | "care_log" | "delivery";
@@ -373,19 +383,25 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
     const usePhrase = group === "base" && taskBand === "light" ? "base, light wear" : USE_PHRASE[piece.use];
     const reasons = [`${label.toLowerCase()} (${group}) due ${dueOn}: ${since}, ${usePhrase}, ${SUN_PHRASE[piece.sun]} (${interval.text})`];
     const intervalLayer = setBy === "beneath" ? beneath! : layer;
+    const unknownProductId = intervalLayer.productId !== undefined && !product ? intervalLayer.productId : null;
+    const intervalFrom: CareTask["intervalFrom"] =
+      catalogMonths !== undefined && product
+        ? { kind: "catalog", productId: product.id, productName: product.name ?? null }
+        : { kind: "usual", finishClass: intervalClass, unknownProductId };
     reasons.push(
-      catalogMonths !== undefined
+      intervalFrom.kind === "catalog"
         ? `interval from catalog product ${product?.name ?? product?.id}`
-        : DEFAULT_INTERVAL_SOURCE[intervalClass] + (intervalLayer.productId !== undefined && !product ? `; product ${intervalLayer.productId} is not in the catalog` : ""),
+        : `default interval for ${intervalClass}` + (unknownProductId !== null ? `; product ${unknownProductId} is not in the catalog` : ""),
     );
-    if (beneath) {
+    const stacked = beneath ? { topcoat: layerInterval(piece, layer, catalog).interval, oil: beneathInterval! } : null;
+    if (stacked) {
       reasons.push(
         `the hardwax oil beneath is protected by the topcoat; refreshing the topcoat is its care, on the longer of the two intervals ` +
-          `(topcoat alone ${layerInterval(piece, layer, catalog).interval.text}, oil alone ${beneathInterval!.text})`,
+          `(topcoat alone ${stacked.topcoat.text}, oil alone ${stacked.oil.text})`,
       );
     }
     tasks.push(
-      makeTask(piece.id, kind, group, cls, layer.id, layer.productId ?? null, interval, clockFrom, byLog ? "care_log" : "layer", dueOn, today, startedByCare, reasons),
+      makeTask(piece.id, kind, group, cls, layer.id, layer.productId ?? null, interval, intervalFrom, stacked, clockFrom, byLog ? "care_log" : "layer", dueOn, today, startedByCare, reasons),
     );
   }
 
@@ -396,9 +412,9 @@ export function careSchedule(input: CareScheduleInput): CareSchedule {
   const checkInterval = cachedInterval(ANNUAL_CHECK_MONTHS, band, "none");
   const checkDue = addMonths(checkFrom, checkInterval.months);
   tasks.push(
-    makeTask(piece.id, "annual_check", "whole_piece", null, null, null, checkInterval, checkFrom, checkByLog ? "care_log" : "delivery", checkDue, today, checkByLog, [
+    // The yearly interval's source is on ANNUAL_CHECK_MONTHS (intervals.ts); it stays in code.
+    makeTask(piece.id, "annual_check", "whole_piece", null, null, null, checkInterval, { kind: "usual", finishClass: null, unknownProductId: null }, null, checkFrom, checkByLog ? "care_log" : "delivery", checkDue, today, checkByLog, [
       `annual clean and check due ${checkDue}: ${checkByLog ? `last logged check ${checkFrom}` : `delivered ${checkFrom}`} (every 12 mo)`,
-      "yearly check: from memory, common practice — no published source",
     ]),
   );
 
@@ -414,6 +430,8 @@ function makeTask(
   layerId: string | null,
   productId: string | null,
   interval: EffectiveInterval,
+  intervalFrom: CareTask["intervalFrom"],
+  oilBeneath: CareTask["oilBeneath"],
   clockFrom: IsoDate,
   clockSource: CareTask["clockSource"],
   dueOn: IsoDate,
@@ -437,6 +455,8 @@ function makeTask(
     layerId,
     productId,
     interval,
+    intervalFrom,
+    oilBeneath,
     clockFrom,
     clockSource,
     dueOn,

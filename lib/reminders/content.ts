@@ -7,7 +7,7 @@ import type { Quote } from "@/lib/care/quote";
 import type { CareTask, CatalogEntry } from "@/lib/care/schedule";
 import { cautionLine, cautionsFor as catalogueCautions } from "@/lib/care/cautions";
 import { formatArea, formatDate, formatDistance, formatMoney, formatVolume, type UnitSystem } from "@/lib/format";
-import type { CareTaskKind, ReminderStep } from "@/lib/care/vocabulary";
+import { FINISH_CLASS_LABELS, type CareTaskKind, type ReminderStep } from "@/lib/care/vocabulary";
 
 /** "2 May 2026": lib/format's date, under the name lib/reminders/compose.ts imports. */
 export const longDate = (iso: string) => formatDate(iso);
@@ -135,6 +135,36 @@ export function whyNow(task: CareTask, piece?: { use: keyof typeof USE_WORDS; su
   const sunWords = piece ? `, ${SUN_WORDS[piece.sun]}` : task.interval.factor !== 1 ? ", in direct sun" : "";
   const band = task.surface === "base" && task.interval.band === "light" ? "a base, which sees light wear" : useWords;
   return [since, `For ${band}${sunWords}, this finish lasts about ${interval}, so it is due on ${formatDate(task.dueOn)}.`];
+}
+
+/**
+ * How a task's date was worked out, in words for the studio's staff (the piece page's "How this was
+ * worked out"): where the interval came from, what direct sun did to it, the topcoat-over-oil rule, and
+ * how far past due it is. Built from the task's data; the engine's own `reasons` (ISO dates, source
+ * notes) stay for the API and the tests.
+ */
+export function howWorkedOut(task: CareTask): string[] {
+  const lines: string[] = [];
+  const from = task.intervalFrom;
+  const finish = from.kind === "usual" && from.finishClass ? FINISH_CLASS_LABELS[from.finishClass].toLowerCase() : null;
+  const base = monthsText(task.interval.baseMonths, 0);
+  if (task.kind === "annual_check") lines.push(`A clean and check every ${base} is our usual interval for every piece.`);
+  else if (from.kind === "catalog") lines.push(`The interval, ${base} for ${BAND_WORDS[task.interval.band]}, comes from the studio's catalog product ${from.productName ?? "for this layer"}.`);
+  else lines.push(`The interval, ${base} for ${BAND_WORDS[task.interval.band]}, is our usual one for ${finish ?? "this finish"}.`);
+  if (from.kind === "usual" && from.unknownProductId !== null) lines.push("The layer names a product that is no longer in the studio's catalog, so the usual interval applies.");
+  if (task.interval.factor !== 1) lines.push(`Direct sun shortens it to ${monthsText(task.interval.months, task.interval.days)}.`);
+  if (task.oilBeneath) {
+    const t = task.oilBeneath.topcoat;
+    const o = task.oilBeneath.oil;
+    lines.push(
+      `The hardwax oil beneath is protected by the topcoat, so refreshing the topcoat is its care, on the longer of the two intervals ` +
+        `(topcoat alone ${monthsText(t.months, t.days)}, oil alone ${monthsText(o.months, o.days)}).`,
+    );
+  }
+  const counted = task.clockSource === "care_log" ? "the care log's last entry" : task.clockSource === "delivery" ? "delivery" : "when the layer went on";
+  lines.push(`Counted from ${formatDate(task.clockFrom)} (${counted}), it falls due on ${formatDate(task.dueOn)}.`);
+  if (task.status === "overdue") lines.push(`It is ${-task.daysUntilDue} day${task.daysUntilDue === -1 ? "" : "s"} overdue.`);
+  return lines;
 }
 
 /** How much product a refresh of this top takes, in the owner's units first. */

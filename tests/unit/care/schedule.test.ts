@@ -4,6 +4,7 @@ import {
   CARE_TASK_KINDS,
   CareInputError,
   careSchedule,
+  DEFAULT_INTERVAL_SOURCE,
   effectiveInterval,
   FINISH_CLASSES,
   reminderKey,
@@ -31,7 +32,10 @@ describe("careSchedule", () => {
     expect(t.isRefresh).toBe(true);
     expect(t.key).toBe("pc_demo_1:reoil:top");
     expect(t.reasons[0]).toBe("re-oil (top) due 2025-12-02: last oil coat 2025-03-02, heavy use, direct sun (12 mo × 0.75 = 9 mo)");
-    expect(t.reasons[1]).toMatch(/from memory, common practice/);
+    // The interval's source is data on the task; its label stays in code (intervals.ts), never in the reasons.
+    expect(t.intervalFrom).toEqual({ kind: "usual", finishClass: "hardwax_oil", unknownProductId: null });
+    expect(DEFAULT_INTERVAL_SOURCE.hardwax_oil).toMatch(/from memory, common practice/);
+    expect(t.reasons[1]).toBe("default interval for hardwax_oil");
     expect(t.reminders).toEqual([
       { step: "before_14d", on: "2025-11-18" },
       { step: "due_day", on: "2025-12-02" },
@@ -97,7 +101,8 @@ describe("careSchedule", () => {
     });
     const t = find(r, "rewax");
     expect(t.dueOn).toBe("2024-02-29");
-    expect(t.reasons[1]).toMatch(/Conserve O Gram 7\/2/);
+    expect(t.intervalFrom).toEqual({ kind: "usual", finishClass: "paste_wax", unknownProductId: null });
+    expect(DEFAULT_INTERVAL_SOURCE.paste_wax).toMatch(/Conserve O Gram 7\/2/);
   });
 
   it("outdoor covered uses the heavy interval; catalog intervals override the defaults", () => {
@@ -108,8 +113,10 @@ describe("careSchedule", () => {
     expect(t.interval.band).toBe("heavy");
     expect(t.dueOn).toBe("2026-01-01");
     expect(t.reasons[1]).toBe("interval from catalog product Demo charred-wood oil (invented)");
+    expect(t.intervalFrom).toEqual({ kind: "catalog", productId: "p1", productName: "Demo charred-wood oil (invented)" });
     const noCatalog = find(careSchedule({ piece: bench, finishLayers: layers, careLog: [], catalog: [], now: "2025-05-02T00:00:00Z" }), "reoil_charred");
     expect(noCatalog.dueOn).toBe("2026-05-01");
+    expect(noCatalog.intervalFrom).toEqual({ kind: "usual", finishClass: "charred_oiled", unknownProductId: "p1" });
   });
 
   it("oil under a newer (or same-day) ceramic topcoat gives a topcoat task, not a re-oil task", () => {
@@ -134,6 +141,7 @@ describe("careSchedule", () => {
     const t = find(stack, "topcoat_refresh");
     expect(t.dueOn).toBe("2027-03-02"); // was 2026-09-02 (18 months), sooner than bare oil
     expect(t.reasons.join("\n")).toMatch(/longer of the two intervals \(topcoat alone 18 mo, oil alone 24 mo\)/);
+    expect([t.oilBeneath?.topcoat.months, t.oilBeneath?.oil.months]).toEqual([18, 24]);
     // a catalog topcoat rated longer than the oil keeps its own interval
     const long = careSchedule({
       piece: { ...piece, use: "moderate", sun: "none" },

@@ -3,7 +3,7 @@ import { Pencil } from "lucide-react";
 import Link from "next/link";
 import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
 import { formatAreaBoth, formatDate, formatInstant, formatLargeVolume, formatLengthBoth } from "@/lib/format";
-import { whyNow } from "@/lib/reminders/content";
+import { howWorkedOut, whyNow } from "@/lib/reminders/content";
 import { PhotoUploader, PieceActions } from "@/components/pieces/piece-actions";
 import { CareStatus, RegistrationStatus, WarrantyStatus } from "@/components/pieces/status";
 import { ButtonLink } from "@/components/ui/button";
@@ -136,7 +136,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                     <details className="mt-1 text-sm">
                       <summary className="flex min-h-11 cursor-pointer items-center font-medium text-resin">How this was worked out</summary>
                       <ul className="list-disc pl-5 text-muted">
-                        {t.reasons.map((r, i) => (
+                        {howWorkedOut(t).map((r, i) => (
                           <li key={i}>{r}</li>
                         ))}
                       </ul>
@@ -145,7 +145,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                 ))}
               </ol>
             ) : null}
-            {d.schedule?.notes.length ? <p className="mt-2 text-sm text-muted">{d.schedule.notes.join("; ")}</p> : null}
+            {d.schedule?.notes.length ? <p className="mt-2 text-sm text-muted">A finish layer or care log entry dated after today was left out of this schedule.</p> : null}
           </Card>
 
           <Card>
