@@ -12,7 +12,7 @@ import { and, eq } from "drizzle-orm";
 import type { User } from "lucia";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { planInvoices, planRefunds, planSubscriptions, type PlanSubscription } from "@/db/schema";
+import { planInvoices, planRefunds, planSubscriptions, studios, type PlanSubscription } from "@/db/schema";
 import type { StudioActor } from "@/lib/auth/actor";
 import { conflict, notFound } from "@/lib/errors";
 import { formatMoney } from "@/lib/format/money";
@@ -187,6 +187,8 @@ export type OwnerPlanControl = {
   canUndo: boolean;
   refundedMinor: number | null;
   paidBy: PlanSubscription["paidBy"];
+  /** The studio's country, for writing money. */
+  country: string;
 };
 
 /** For the owner's piece page: their live plan on the piece (else null) with what cancelling it now gives. */
@@ -206,5 +208,6 @@ export function myPlanControl(user: Pick<User, "id">, pieceId: string, now = new
     canUndo: preview.canUndo,
     refundedMinor: refundOf(sub.id)?.amountMinor ?? null,
     paidBy: sub.paidBy,
+    country: getDb().select({ country: studios.country }).from(studios).where(eq(studios.id, sub.studioId)).get()!.country,
   };
 }

@@ -69,4 +69,29 @@ test.describe("care plans", () => {
     expect(running).toBeGreaterThanOrEqual(2);
     await noAxeViolations(page);
   });
+
+  test("the owner cancels the plan at 375 px: the confirm step names the end date with its zone and the refund; then keeps it after all", async ({ browser }) => {
+    const context = await browser.newContext({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
+    const page = await context.newPage();
+    await signIn(page, ACCOUNTS.owner);
+    const { pieces } = (await (await page.request.get("/api/me/pieces")).json()) as { pieces: { id: string; title: string }[] };
+    const piece = pieces.find((p) => p.title === pieceTitle)!;
+    await page.goto(`/pieces/${piece.id}`);
+    await page.getByRole("button", { name: "Cancel this plan" }).click();
+    const confirm = page.getByRole("group", { name: /^Cancel / });
+    // The demo plans pay nothing back on cancelling: it runs to the end of the period paid.
+    await expect(confirm.getByText(/keeps working until \d{1,2} \w+ \d{4} \(.+\) and isn't renewed/)).toBeVisible();
+    await expect(confirm.getByText(/Nothing is paid back under the studio's terms/)).toBeVisible();
+    await noAxeViolations(page);
+    await confirm.getByRole("button", { name: "Yes, cancel the plan" }).click();
+    await expect(page.getByText(/You cancelled this plan\. It keeps working until \d{1,2} \w+ \d{4} \(.+\)/)).toBeVisible();
+    const me = (await (await page.request.get(`/api/me/pieces/${piece.id}`)).json()) as { plan: { state: string } | null };
+    expect(me.plan).toMatchObject({ state: "ending" });
+    await noAxeViolations(page);
+    await page.getByRole("button", { name: "Keep my plan after all" }).click();
+    await expect(page.getByRole("button", { name: "Cancel this plan" })).toBeVisible();
+    const after = (await (await page.request.get(`/api/me/pieces/${piece.id}`)).json()) as { plan: { state: string } | null };
+    expect(after.plan).toMatchObject({ state: "running" });
+    await context.close();
+  });
 });
