@@ -134,7 +134,7 @@ describe("a studio's own Stripe account", () => {
 
     // Cancelling refunds under A's key too.
     const mark = fake.requests().length;
-    await cancelJob({ ctx: staff }, job.id);
+    await cancelJob(staff, job.id);
     const refundCall = fake.requests().slice(mark).find((r) => r.path === "/v1/refunds")!;
     expect(refundCall.key).toBe(A.secretKey);
     await until(() => getDb().select().from(payments).where(eq(payments.jobId, job.id)).get()?.status === "refunded");
