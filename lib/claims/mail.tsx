@@ -5,6 +5,7 @@ import { ClaimDecisionEmail, claimDecisionSubject } from "@/emails/claim-decisio
 import { ClaimMessageEmail, claimMessageSubject } from "@/emails/claim-message";
 import { ClaimReceivedEmail, claimReceivedSubject } from "@/emails/claim-received";
 import { env } from "@/lib/env";
+import { formatDate } from "@/lib/format";
 import { sendMail, type SendMailInput } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
@@ -45,7 +46,7 @@ export async function mailClaimReceived({ claim, piece, studio, owner }: { claim
     studioName: studio.name,
     pieceTitle: piece.title,
     categoryLabel: CLAIM_CATEGORY_LABELS[claim.category],
-    noticedOn: claim.noticedOn,
+    noticedOn: formatDate(claim.noticedOn),
     description: claim.description,
   };
   await send({

@@ -21,6 +21,7 @@ import { canViewFile, getFileForViewer } from "@/lib/files/access";
 import { storeImage } from "@/lib/storage";
 import { createPiece, createUser } from "../support/fixtures";
 import { extractLinks, getMail, waitForMail } from "../support/mail";
+import { formatDate } from "@/lib/format";
 import { addMember, claimWorld, decide, fileClaim, listQueue, forceState, NO_ANSWERS, otherOwner, otherStudioStaff, photoJpeg, todayUtc } from "./claims-helpers";
 
 async function status(p: Promise<unknown> | (() => unknown)): Promise<number> {
@@ -392,7 +393,12 @@ describe("claim mail", () => {
     const since = new Date(Date.now() - 1000);
     const claim = await fileClaim(w.ownerV, w.piece.id);
     const toOwner = await waitForMail({ to: w.owner.email, subject: /received your claim/, since });
-    expect(extractLinks((await getMail(toOwner.id)).text).some((l) => l.endsWith(`/claims/${claim.id}`))).toBe(true);
+    const ownerText = (await getMail(toOwner.id)).text;
+    expect(extractLinks(ownerText).some((l) => l.endsWith(`/claims/${claim.id}`))).toBe(true);
+    // The noticed date in words (lib/format), never the stored ISO date.
+    const { noticedOn } = getDb().select({ noticedOn: claims.noticedOn }).from(claims).where(eq(claims.id, claim.id)).get()!;
+    expect(ownerText).toContain(`noticed on ${formatDate(noticedOn)}`);
+    expect(ownerText).not.toMatch(/\d{4}-\d{2}-\d{2}/);
     const toStudio = await waitForMail({ to: w.studio.email, subject: /^New claim:/, since });
     expect(extractLinks((await getMail(toStudio.id)).text).some((l) => l.endsWith(`/studio/claims/${claim.id}`))).toBe(true);
 
