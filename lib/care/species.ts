@@ -90,7 +90,9 @@ export const SPECIES: readonly Species[] = [
   }),
   fromTable135("red_oak", "Red oak (commercial)", "Quercus spp. (red oak group)", [0.00158, 0.00369], {
     aliases: ["American red oak"],
-    note: "commercial red oak of Table 13-5; northern red oak alone shrinks less (Table 4-3 4.0 / 8.6 %, from memory), so the larger-moving group figure is used",
+    // Northern red oak alone: Table 4-3 4.0 / 8.6 % (from memory). Notes reach the claim page's reasons, so
+    // source labels stay here in code.
+    note: "commercial red oak of Table 13-5; northern red oak alone shrinks less, so the larger-moving group figure is used",
   }),
   fromTable135("sugar_maple", "Sugar maple", "Acer saccharum", [0.00165, 0.00353], { aliases: ["hard maple", "rock maple"] }),
   fromTable135("red_maple", "Red maple", "Acer rubrum", [0.00137, 0.00289], {
@@ -124,13 +126,11 @@ export const SPECIES: readonly Species[] = [
   }),
   fromTable43("western_redcedar", "Western redcedar", "Thuja plicata", [2.4, 5.0, 6.8], null, {
     aliases: ["western red cedar"],
-    fromMemory: true,
-    note: "for outdoor benches; not among the sources listed in lib/care/SOURCES.md, so this row is from memory",
+    fromMemory: true, // for outdoor benches; not among the sources listed in lib/care/SOURCES.md, so this row is from memory
   }),
   fromTable43("eastern_redcedar", "Eastern redcedar", "Juniperus virginiana", [3.1, 4.7, 7.8], null, {
     aliases: ["eastern red cedar", "aromatic cedar"],
-    fromMemory: true,
-    note: "not among the sources listed in lib/care/SOURCES.md, so this row is from memory",
+    fromMemory: true, // not among the sources listed in lib/care/SOURCES.md, so this row is from memory
   }),
 ];
 

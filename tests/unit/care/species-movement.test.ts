@@ -28,6 +28,15 @@ describe("species table", () => {
     expect(getSpecies("true_hickory")!.table13_5!.source).toMatch(/from memory/);
     expect(getSpecies("black_walnut")!.shrinkageSource).not.toMatch(/from memory/);
   });
+
+  // A species' note is one of the movement reasons the staff claim page shows under "How this was worked
+  // out"; whether a row is from memory is kept in its source fields (above), never in those words.
+  it("no species' movement reasons carry a source label", () => {
+    for (const s of SPECIES) {
+      const { reasons } = slabMovement({ speciesId: s.id, widthMm: 900, grain: "flat", from: { tempC: 21, rhPct: 30 }, to: { tempC: 21, rhPct: 60 } });
+      expect(reasons.join("\n"), s.id).not.toMatch(/from memory|SOURCES\.md|no published source|common practice/);
+    }
+  });
 });
 
 describe("trade names that hide bigger movement", () => {
