@@ -9,7 +9,7 @@ import { Notice } from "@/components/ui/notice";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
-import { formatInstant } from "@/lib/format";
+import { formatDate, formatInstant } from "@/lib/format";
 import { getOwnerClaim } from "@/lib/claims/view-claim";
 import { MAX_CLAIM_PHOTOS, OPEN_STATES } from "@/lib/claims/states";
 
@@ -81,7 +81,7 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
       </section>
       <Card className="space-y-1">
         <h2 className="font-semibold">What you reported</h2>
-        <p className="text-sm text-muted">Noticed {claim.noticedOn}</p>
+        <p className="text-sm text-muted">Noticed {formatDate(claim.noticedOn)}</p>
         <p className="whitespace-pre-wrap">{claim.description}</p>
       </Card>
       <MessageThread claimId={claim.id} messages={messages} audience="owner" studioName={studio.name} timeZone={user.timeZone} canWrite={claim.state !== "closed"} />

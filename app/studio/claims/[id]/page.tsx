@@ -81,7 +81,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
           </section>
           <Card className="space-y-3">
             <h2 className="font-semibold">The owner&apos;s report</h2>
-            <p className="text-sm text-muted">Noticed {claim.noticedOn}</p>
+            <p className="text-sm text-muted">Noticed {formatDate(claim.noticedOn)}</p>
             <p className="whitespace-pre-wrap">{claim.description}</p>
             <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
               {(Object.keys(QUESTION_WORD) as (keyof typeof QUESTION_WORD)[]).map((k) => (
@@ -168,7 +168,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               <dd>
                 {RESIN_LABELS[piece.resinKind]}
                 {piece.resinTint ? `, ${piece.resinTint}` : ""}
-                {piece.resinPouredOn ? `, poured ${piece.resinPouredOn}` : ""}
+                {piece.resinPouredOn ? `, poured ${formatDate(piece.resinPouredOn)}` : ""}
               </dd>
               <dt className="text-muted">Use</dt>
               <dd>
