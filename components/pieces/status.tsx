@@ -1,6 +1,7 @@
 import { AlarmClock, CircleCheck, Clock, ShieldCheck, ShieldOff, TriangleAlert, UserCheck, UserRound } from "lucide-react";
 import type { CareTaskStatus } from "@/lib/care/vocabulary";
 import { cn } from "@/components/ui/cn";
+import { formatDate } from "@/lib/format";
 
 // States are a word and an icon, never colour alone.
 
@@ -36,7 +37,7 @@ export function WarrantyStatus({ active, endsOn, className }: { active: boolean;
   return (
     <span className={cn("inline-flex items-center gap-1 text-sm", active ? "text-ink" : "text-muted", className)}>
       <Icon aria-hidden className="size-4 shrink-0" />
-      {endsOn ? (active ? `Warranty to ${endsOn}` : `Warranty ended ${endsOn}`) : "No warranty on record"}
+      {endsOn ? (active ? `Warranty to ${formatDate(endsOn)}` : `Warranty ended ${formatDate(endsOn)}`) : "No warranty on record"}
     </span>
   );
 }
