@@ -6,13 +6,19 @@
 //    and is not renewed on the former owner's card (Stripe: cancel at the period's end).
 // Either way the move goes through moveSubscription under the plan's lock and is audited.
 import { eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Db } from "@/db/client";
 import { planSubscriptions, type PlanSubscription } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import { callStripe } from "@/lib/payments/stripe";
 import { claimRefund, mailPlanEnding, payRefund, refundQuote } from "./refund";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { livePlanOfPiece, moveSubscription } from "./subscriptions";
+
+type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+
+function auditChangedHands(tx: Tx, sub: PlanSubscription, fromOwnerId: string, data: Record<string, unknown>) {
+  recordAudit(tx, { studioId: sub.studioId, actorId: fromOwnerId, action: "plan.changed_hands", subjectType: "plan_subscription", subjectId: sub.id, data: { ...data, fromOwnerId } });
+}
 
 export type PlanAfterTransfer = {
   outcome: "none" | "moved" | "ended";
@@ -31,18 +37,7 @@ export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, 
         const moved = getDb().transaction((tx) => {
           const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, live.sub.id)).get()!;
           const next = moveSubscription(tx, fresh, fresh.state === "grace" ? "grace" : "ending", { ownerId: null, endsAt: fresh.endsAt ?? fresh.periodEnd }, by);
-          recordAudit(tx, {
-            studioId: fresh.studioId,
-            actorId: fromOwnerId,
-            action: "plan.changed_hands",
-            subjectType: "plan_subscription",
-            subjectId: fresh.id,
-            data: {
-              moves: true,
-              fromOwnerId,
-              endsAt: next.endsAt?.toISOString() ?? null,
-            },
-          });
+          auditChangedHands(tx, fresh, fromOwnerId, { moves: true, endsAt: next.endsAt?.toISOString() ?? null });
           return next;
         });
         // A plan already cancelled keeps the end it was given; otherwise it isn't renewed on the former owner's card.
@@ -56,14 +51,7 @@ export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, 
         const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, live.sub.id)).get()!;
         const quote = refundQuote(fresh, template, now, true);
         const sub = moveSubscription(tx, fresh, "ended", { endedAt: now, endsAt: now }, by);
-        recordAudit(tx, {
-          studioId: fresh.studioId,
-          actorId: fromOwnerId,
-          action: "plan.changed_hands",
-          subjectType: "plan_subscription",
-          subjectId: fresh.id,
-          data: { moves: false, fromOwnerId, refundMinor: quote.refundMinor },
-        });
+        auditChangedHands(tx, fresh, fromOwnerId, { moves: false, refundMinor: quote.refundMinor });
         return {
           sub,
           quote,

@@ -1,70 +1,36 @@
 // Care plans' money edges through the real stripe SDK against the local Stripe fake over HTTP: the
 // refund rule on cancellation, the owner's cancel and keep, a piece changing hands, concurrent
-// cancellations and events, and a renewal paid at an amount that isn't the plan's. The fake's signed
-// webhooks arrive at a small receiver that hands the raw body to the webhook route's handlers.
-import http from "node:http";
-import type { AddressInfo } from "node:net";
+// cancellations and events, and a renewal paid at an amount that isn't the plan's (tests/support/plans-stripe.ts
+// starts the fake and the receiver of its signed webhooks).
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, planInvoices, planRefunds, planSubscriptions, pieces, type Piece, type PlanSubscription } from "@/db/schema";
+import { auditLog, planInvoices, planRefunds, pieces, type Piece, type PlanSubscription } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
-import { env } from "@/lib/env";
-import { AppError } from "@/lib/errors";
-import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import { SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
 import { cancelMyPlan, cancelPlanAtPeriodEnd, cancelPreview, keepMyPlan, myPlanControl, studioPlanDetail } from "@/lib/plans/cancel";
 import { addPeriod } from "@/lib/plans/periods";
 import { payRefund, refundOf, refundQuote } from "@/lib/plans/refund";
-import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
 import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
 import { createTemplate } from "@/lib/plans/templates";
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { runPlanVisits } from "@/lib/plans/visits";
-import { handleStripeWebhook } from "@/lib/repairs/payment";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
+import { knob as stripeKnob, startPlansStripe, subRow, until } from "../support/plans-stripe";
 
 let fake: StripeFake;
-let receiver: http.Server;
+let closeStripe: () => Promise<void>;
 
 beforeAll(async () => {
-  receiver = http.createServer(async (req, res) => {
-    const chunks: Buffer[] = [];
-    for await (const c of req) chunks.push(c as Buffer);
-    const raw = Buffer.concat(chunks).toString("utf8");
-    const sig = (req.headers["stripe-signature"] as string) ?? null;
-    try {
-      const out = (await handlePlanWebhook(raw, sig)) ?? (await handleStripeWebhook(raw, sig));
-      res.writeHead(200).end(JSON.stringify(out));
-    } catch (e) {
-      res.writeHead(e instanceof AppError ? e.status : 500).end();
-    }
-  });
-  await new Promise<void>((r) => receiver.listen(0, "127.0.0.1", () => r()));
-  fake = await startStripeFake({ port: 0, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET, webhookUrl: `http://127.0.0.1:${(receiver.address() as AddressInfo).port}/`, retryDelaysMs: [200, 400] });
-  env.STRIPE_API_PORT = fake.port;
+  ({ fake, close: closeStripe } = await startPlansStripe());
 });
 
-afterAll(async () => {
-  await fake.close();
-  await new Promise((r) => receiver.close(r));
-});
+afterAll(() => closeStripe());
 
-async function until<T>(fn: () => T | undefined | null | false, ms = 8000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = fn();
-    if (v) return v;
-    if (Date.now() > end) throw new Error("timed out waiting");
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
-
-const subRow = (id: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, id)).get()!;
+const knob = (subId: string, action: string, body = "") => stripeKnob(fake, subId, action, body);
 const fakeSub = (id: string) => fake.subscriptions().find((s) => s.id === id)!;
-const knob = (subId: string, action: string, body = "") =>
-  fetch(`${fake.url}/_test/subscriptions/${subId}/${action}`, { method: "POST", headers: { authorization: `Bearer ${env.STRIPE_SECRET_KEY}`, "content-type": "application/x-www-form-urlencoded" }, body });
 const audits = (subId: string, action: string) => getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, subId), eq(auditLog.action, action))).all();
 /** What the fake's charge book says was refunded of the plan's first payment. */
 const refundedOfFirstPayment = (stripeSubId: string) => {

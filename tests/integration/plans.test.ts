@@ -1,17 +1,13 @@
-// Care plans through the real stripe SDK against the local Stripe fake over HTTP: the fake's signed
-// webhooks arrive at a small receiver here that hands the raw body to the webhook route's handlers
-// (plans first, then repair payments, as app/api/webhooks/stripe/route.ts does).
-import http from "node:http";
-import type { AddressInfo } from "node:net";
+// Care plans through the real stripe SDK against the local Stripe fake over HTTP (tests/support/plans-stripe.ts
+// starts the fake and a receiver that hands its signed webhooks to the webhook route's handlers).
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, careLogEntries, reminderSends, planInvoices, planSubscriptions, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
+import { auditLog, careLogEntries, reminderSends, planInvoices, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { claimCoverage } from "@/lib/claims/coverage";
 import { env } from "@/lib/env";
-import { AppError } from "@/lib/errors";
-import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import { SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
 import { canMovePlan, PLAN_STATES } from "@/lib/plans/states";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
@@ -23,50 +19,21 @@ import { createTemplate, templatesFitting, updateTemplate } from "@/lib/plans/te
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/visits";
 import { runReminderPass } from "@/lib/reminders/pass";
-import { handleStripeWebhook } from "@/lib/repairs/payment";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
+import { knob as stripeKnob, startPlansStripe, subRow, until } from "../support/plans-stripe";
 
 let fake: StripeFake;
-let receiver: http.Server;
+let closeStripe: () => Promise<void>;
 const DAY = 86_400_000;
 
 beforeAll(async () => {
-  receiver = http.createServer(async (req, res) => {
-    const chunks: Buffer[] = [];
-    for await (const c of req) chunks.push(c as Buffer);
-    const raw = Buffer.concat(chunks).toString("utf8");
-    const sig = (req.headers["stripe-signature"] as string) ?? null;
-    try {
-      const out = (await handlePlanWebhook(raw, sig)) ?? (await handleStripeWebhook(raw, sig));
-      res.writeHead(200).end(JSON.stringify(out));
-    } catch (e) {
-      res.writeHead(e instanceof AppError ? e.status : 500).end();
-    }
-  });
-  await new Promise<void>((r) => receiver.listen(0, "127.0.0.1", () => r()));
-  fake = await startStripeFake({ port: 0, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET, webhookUrl: `http://127.0.0.1:${(receiver.address() as AddressInfo).port}/`, retryDelaysMs: [200, 400] });
-  env.STRIPE_API_PORT = fake.port;
+  ({ fake, close: closeStripe } = await startPlansStripe());
 });
 
-afterAll(async () => {
-  await fake.close();
-  await new Promise((r) => receiver.close(r));
-});
+afterAll(() => closeStripe());
 
-async function until<T>(fn: () => T | undefined | null | false, ms = 8000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = fn();
-    if (v) return v;
-    if (Date.now() > end) throw new Error("timed out waiting");
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
-
-const subRow = (id: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, id)).get()!;
-const knob = (subId: string, action: string, body = "") =>
-  fetch(`${fake.url}/_test/subscriptions/${subId}/${action}`, { method: "POST", headers: { authorization: `Bearer ${env.STRIPE_SECRET_KEY}`, "content-type": "application/x-www-form-urlencoded" }, body });
+const knob = (subId: string, action: string, body = "") => stripeKnob(fake, subId, action, body);
 
 const template = (over: Partial<Record<string, unknown>> = {}) =>
   planTemplateSchema.parse({
