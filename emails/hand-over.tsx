@@ -105,7 +105,7 @@ HandOverEmail.PreviewProps = {
     {
       name: "Oiled top care (invented)",
       price: "$240.00 a year, including $21.82 tax",
-      includes: ["Re-oil done by the studio, no reminders to act on", "1 studio visit a year", "Crack or gap: covered 12 months longer while the plan runs", "10% off paid repairs"],
+      includes: ["Re-oil done by the studio, no reminders to act on", "1 studio visit a year", "Crack or gap: covered 12 months longer while the plan runs", "10 % off paid repairs"],
       lastYear: null,
     },
   ],

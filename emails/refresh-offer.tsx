@@ -59,7 +59,7 @@ export const REFRESH_OFFER_PREVIEW = {
     {
       name: "Oiled top care (invented)",
       price: "$259.80 a year, including $19.80 tax",
-      includes: ["Re-oil done by the studio, no reminders to act on", "1 studio visit a year", "10% off paid repairs"],
+      includes: ["Re-oil done by the studio, no reminders to act on", "1 studio visit a year", "10 % off paid repairs"],
       lastYear: "The care you logged over the last year (2 tasks) would have cost $276.58 from Larchmere Slab & Resin (invented); a year of this plan is $259.80, so it would have saved you $16.78.",
     },
   ],

@@ -37,7 +37,7 @@ export function planOfferLines(
         : []),
       ...(i.visitsPerYear
         ? [
-            `${plural(i.visitsPerYear, "studio visit", "studio visits")} a year${i.visitSharePct ? `, you pay ${i.visitSharePct}% of each` : ""}`,
+            `${plural(i.visitsPerYear, "studio visit", "studio visits")} a year${i.visitSharePct ? `, you pay ${i.visitSharePct} % of each` : ""}`,
           ]
         : []),
       ...i.extendedLines.map(
@@ -45,7 +45,7 @@ export function planOfferLines(
           `${CLAIM_CATEGORY_LABELS[l.category]}: covered ${plural(l.extraMonths, "month", "months")} longer while the plan runs`,
       ),
       ...(i.repairDiscountPct
-        ? [`${i.repairDiscountPct}% off paid repairs`]
+        ? [`${i.repairDiscountPct} % off paid repairs`]
         : []),
     ];
     const y = o.lastYear;

@@ -87,7 +87,7 @@ describe("the refresh-offer mail lists the plans that fit, with the owner's own 
     expect(saved).toBeGreaterThan(0);
     expect(mail.text).toContain(`Wax keeping (invented) · ${money(studio, 10_717)} a year, including ${money(studio, 817)} tax`);
     expect(mail.text).toContain("Re-wax done by the studio");
-    expect(mail.text).toContain("10% off paid repairs");
+    expect(mail.text).toContain("10 % off paid repairs");
     expect(mail.text).toContain(`The care you logged over the last year (2 tasks) would have cost ${money(studio, 2 * visit)} from ${studio.name}; a year of this plan is ${money(studio, 10_717)}, so it would have saved you ${money(studio, saved)}.`);
     expect(mail.text).not.toContain("Oil keeping");
 
