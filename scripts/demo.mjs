@@ -30,7 +30,9 @@ supervise(
     { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "inbound", cmd: "tsx", args: ["lib/mail/inbound-cli.ts"] },
     { name: "app", cmd: "next", args: ["start", "-p", port] },
-    { name: "jobs", cmd: "tsx", args: ["jobs/index.ts"] },
+    // The scheduler runs in Node itself with tsx as a loader, not under the tsx CLI: the CLI relays SIGTERM
+    // and kills its child if a busy pass has not answered within 30 ms, which cut passes off mid-message.
+    { name: "jobs", cmd: "node", args: ["--import", "tsx", "jobs/index.ts"] },
   ],
   env,
 );

@@ -1,7 +1,7 @@
 // The scheduler stops cleanly on SIGTERM in the middle of a reminder pass, and the next pass finishes
 // the work without sending anything twice. For real: this file's own freshly
 // migrated SQLite file, its own SMTP sink (the real one, so the counts are this file's alone), the real
-// scheduler process (`tsx jobs/index.ts`, which runs a pass at start-up on the real clock) and then the
+// scheduler process (`node --import tsx jobs/index.ts`, which runs a pass at start-up on the real clock) and then the
 // real `jobs/run-once.ts`. Invented studio, owners and pieces.
 //
 // The seed is dated from the real clock: every piece's first reminder (14 days before its due date)
@@ -62,7 +62,8 @@ const reminderKeyOf = (m: { headers: Record<string, string> }) => m.headers["x-g
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 function startScheduler(): { child: ChildProcess; output: () => string; exited: Promise<{ code: number | null; signal: NodeJS.Signals | null; at: number }> } {
-  const child = spawn(path.resolve("node_modules/.bin/tsx"), ["jobs/index.ts"], {
+  // As `npm run jobs` starts it: Node with tsx as a loader, so SIGTERM reaches the scheduler itself.
+  const child = spawn(process.execPath, ["--import", "tsx", "jobs/index.ts"], {
     cwd: path.resolve("."),
     env: { ...process.env, ...childEnv },
     stdio: ["ignore", "pipe", "pipe"],
