@@ -84,6 +84,10 @@ const ACTION_LABELS: Record<string, string> = {
   "finish_product.archived": "Finish product archived",
   "handover_batch.created": "Hand-over mailing started",
   "plan.checkout_started": "Care plan checkout started by the owner",
+  "plan.changed_hands": "Care plan moved to the piece's new owner",
+  "plan.payment_held": "Care plan payment held: its amount isn't the plan's price",
+  "plan.refund_claimed": "Care plan refund set aside on cancellation",
+  "plan.refunded": "Care plan refund paid",
   "plan_template.created": "Care plan added",
   "plan_template.changed": "Care plan changed (new version)",
 };
