@@ -8,7 +8,7 @@ import { Notice } from "@/components/ui/notice";
 import { StatusBadge, type StatusTone } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatInstant, formatMoney } from "@/lib/format";
+import { formatDate, formatInstant, formatMoney } from "@/lib/format";
 import { REMINDER_STEPS } from "@/lib/care/vocabulary";
 import { formatWait } from "@/lib/claims/labels";
 import { ACTED_WITHIN_DAYS, REMINDER_STEP_LABELS } from "@/lib/overview";
@@ -100,8 +100,8 @@ export default async function ReportListPage({ params, searchParams }: { params:
           owner: r.ownerName,
           task: r.task,
           step: r.step,
-          sent: r.sentOn,
-          cared: r.caredOn ? <StatusBadge tone="ok" label={`Yes, ${r.caredOn}`} /> : <StatusBadge tone="stopped" label="Not yet" />,
+          sent: formatDate(r.sentOn, { short: true }),
+          cared: r.caredOn ? <StatusBadge tone="ok" label={`Yes, ${formatDate(r.caredOn, { short: true })}`} /> : <StatusBadge tone="stopped" label="Not yet" />,
         },
       }));
       const acted = result.rows.filter((r) => r.caredOn).length;
@@ -123,9 +123,9 @@ export default async function ReportListPage({ params, searchParams }: { params:
         cells: {
           piece: pieceLink(r.pieceId, r.pieceTitle),
           owner: r.ownerName,
-          sent: r.sentOn,
+          sent: formatDate(r.sentOn, { short: true }),
           price: money(r.priceMinor, r.currency),
-          status: <StatusBadge tone={OFFER_LOOK[r.status]?.tone ?? "neutral"} label={`${OFFER_LOOK[r.status]?.label ?? r.status}${r.acceptedOn ? `, ${r.acceptedOn}` : ""}`} />,
+          status: <StatusBadge tone={OFFER_LOOK[r.status]?.tone ?? "neutral"} label={`${OFFER_LOOK[r.status]?.label ?? r.status}${r.acceptedOn ? `, ${formatDate(r.acceptedOn, { short: true })}` : ""}`} />,
         },
       }));
       summary = `${result.rows.length} offer${result.rows.length === 1 ? "" : "s"}.`;
@@ -153,7 +153,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
               {r.jobTitle} <span className="text-muted">· {r.pieceTitle}</span>
             </Link>
           ),
-          paid: r.paidOn,
+          paid: formatDate(r.paidOn, { short: true }),
           amount: money(r.amountMinor, r.currency),
           refunded: r.refundedMinor ? money(r.refundedMinor, r.currency) : "—",
           net: money(r.netMinor, r.currency),
