@@ -74,6 +74,7 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   expect([...seen].some((v) => v > 0 && v < 100), `progress values seen: ${[...seen].join(", ")}`).toBe(true);
   const claimId = page.url().split("/").pop()!;
   await expect(page.getByText("Sent to the studio")).toBeVisible();
+  await expect(page.getByText(/^Noticed \d{1,2} [A-Z][a-z]+ \d{4}$/)).toBeVisible();
   await expect(page.getByRole("list", { name: "Photos" }).getByRole("img")).toHaveCount(2);
   const noScroll = await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth);
   expect(noScroll).toBe(true);
@@ -95,6 +96,7 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   await expect(desk).toHaveURL(new RegExp(`/studio/claims/${claimId}$`));
   await expect(desk.getByRole("heading", { name: "Coverage check" })).toBeVisible();
   await expect(desk.getByText(/Suggests: Covered/)).toBeVisible();
+  await expect(desk.getByText(/^Noticed \d{1,2} [A-Z][a-z]+ \d{4}$/)).toBeVisible();
   await expect(desk.getByText(description)).toBeVisible();
   await desk.getByRole("list", { name: "Photos" }).getByRole("button").first().click();
   await expect(desk.getByRole("img", { name: "Photo 1, full size" })).toBeVisible();
