@@ -176,7 +176,7 @@ test("settings: profile, warranty versions (a date before today is refused next 
 
   await page.goto("/studio/settings/emails");
   await noSeriousAxe(page, "e-mail list");
-  await page.getByRole("link", { name: "Care reminder" }).click();
+  await page.getByRole("link", { name: "Care reminder", exact: true }).click();
   const frame = page.frameLocator('iframe[title="Care reminder, HTML version"]');
   await expect(frame.getByText("Walnut river dining table").filter({ visible: true }).first()).toBeVisible();
   // No axe run here: the preview is a sandboxed frame without scripts, which axe cannot enter.
