@@ -9,6 +9,7 @@ import { sha256Hex } from "@/lib/crypto";
 import { AppError, conflict, forbidden, notFound } from "@/lib/errors";
 import { formatMonth } from "@/lib/format";
 import { registerPiece } from "@/lib/owner/registration";
+import { registrationSchema } from "@/lib/validation/owner";
 import { blockFor, buyerOf, everRegistered, HANDOVER_BLOCK_MESSAGES, mailHandover, type HandoverBlock } from "./handover-mail";
 import { openRegistrationCode } from "./registration";
 import { loadPiece } from "./registry";
@@ -143,7 +144,7 @@ export async function registerByHandover(user: Pick<User, "id" | "email" | "emai
   if (h.usedAt || piece.ownerId || everRegistered(getDb(), piece.id)) throw conflict("This link has been used: the piece is registered. If it should be yours, ask the studio.");
   if (!h.expiresAt || h.expiresAt <= now) throw conflict("This link has expired. Ask the studio to send the hand-over mail again, or type the code from the drawer card.");
   if (user.email.toLowerCase() !== sentTo.toLowerCase()) throw forbidden(`This link was sent to ${sentTo}. Sign in with that address to register the piece.`);
-  const result = await registerPiece(user, { code: openRegistrationCode(piece.registrationCodeEnc) }, ip, now);
+  const result = await registerPiece(user, registrationSchema.parse({ code: openRegistrationCode(piece.registrationCodeEnc) }), ip, now);
   getDb().update(pieceHandovers).set({ usedAt: now, registeredAt: now, openedAt: sql`coalesce(${pieceHandovers.openedAt}, ${now.getTime()})`, updatedAt: now }).where(eq(pieceHandovers.id, h.id)).run();
   return result;
 }
