@@ -46,7 +46,8 @@ function stateOf(s: Stripe.Subscription): PlanState {
       return s.cancel_at_period_end || s.cancel_at ? "ending" : "running";
     case "past_due":
     case "unpaid":
-      return "grace";
+      // Cancelled while a renewal is overdue: it ends as asked (at cancel_at), no longer waits in grace.
+      return s.cancel_at_period_end || s.cancel_at ? "ending" : "grace";
     case "canceled":
       return s.cancellation_details?.reason === "payment_failed" ? "lapsed" : "ended";
     case "incomplete_expired":

@@ -207,7 +207,8 @@ describe("two at once leave one state and move money once", () => {
       expect(await fake.redeliver(e.id)).toBe(200);
     }
     const s = fakeSub(sub.stripeSubscriptionId!);
-    const expected = s.status === "canceled" ? "ended" : s.status === "past_due" ? "grace" : s.cancel_at || s.cancel_at_period_end ? "ending" : "running";
+    // Cancelled wins over an overdue renewal: a past-due subscription set to cancel is ending, not in grace.
+    const expected = s.status === "canceled" ? "ended" : s.cancel_at || s.cancel_at_period_end ? "ending" : s.status === "past_due" ? "grace" : "running";
     const row = await until(() => subRow(sub.id).state === expected && subRow(sub.id));
     // Money moved at most once, and only with a cancellation that went through.
     const refunds = getDb().select().from(planRefunds).where(eq(planRefunds.subscriptionId, sub.id)).all();
@@ -216,6 +217,23 @@ describe("two at once leave one state and move money once", () => {
     // Replaying once more changes nothing.
     for (const e of events) await fake.redeliver(e.id);
     expect(subRow(sub.id)).toMatchObject({ state: row.state, version: row.version });
+  });
+});
+
+describe("cancelled while a renewal is overdue", () => {
+  it("stays ending: Stripe's past-due subscription set to cancel does not put it back in grace, replayed or not", async () => {
+    const { admin, owner, piece, plan } = await setup({ refundRule: "unused_share" });
+    const sub = await buy(owner, piece, plan.id);
+    await knob(sub.stripeSubscriptionId!, "renew", "outcome=fail");
+    const inGrace = await until(() => subRow(sub.id).state === "grace" && subRow(sub.id));
+    // In grace nothing is paid back (the period in hand is the unpaid one).
+    await cancelPlanAtPeriodEnd(admin, sub.id, { version: inGrace.version, refundMinor: 0 });
+    expect(subRow(sub.id).state).toBe("ending");
+    await until(() => fake.deliveries().length >= fake.events().length);
+    for (const e of fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!))) expect(await fake.redeliver(e.id)).toBe(200);
+    expect(fakeSub(sub.stripeSubscriptionId!).status).toBe("past_due");
+    expect(subRow(sub.id).state).toBe("ending");
+    expect(getDb().select().from(planRefunds).where(eq(planRefunds.subscriptionId, sub.id)).all().filter((r) => r.amountMinor > 0)).toEqual([]);
   });
 });
 
