@@ -94,4 +94,23 @@ test.describe("care plans", () => {
     expect(after.plan).toMatchObject({ state: "running" });
     await context.close();
   });
+
+  test("staff cancel the plan from its page at 1280 px, with the end date and refund shown, then take it back", async ({ page }) => {
+    await signIn(page, ACCOUNTS.staff);
+    await page.goto("/studio/plans");
+    await page.getByRole("link", { name: pieceTitle }).first().click();
+    await expect(page).toHaveURL(/\/studio\/plans\/[^/]+$/);
+    await expect(page.getByText(/^Running · /)).toBeVisible();
+    await expect(page.getByRole("heading", { name: "Payments held" })).toBeVisible();
+    await noAxeViolations(page);
+    await page.getByRole("button", { name: "Cancel this plan" }).click();
+    const confirm = page.getByRole("group", { name: "Cancel this plan?" });
+    await expect(confirm.getByText(/keeps working until \d{1,2} \w+ \d{4} \(.+\) and isn't renewed\. Nothing is paid back/)).toBeVisible();
+    await noAxeViolations(page);
+    await confirm.getByRole("button", { name: "Cancel the plan" }).click();
+    await expect(page.getByText(/^Ends at the end of the period · /)).toBeVisible();
+    await expect(page.getByText(/Cancelled: it ends on \d{1,2} \w+ \d{4} \(.+\)\./)).toBeVisible();
+    await page.getByRole("button", { name: "Take the cancellation back" }).click();
+    await expect(page.getByText(/^Running · /)).toBeVisible();
+  });
 });

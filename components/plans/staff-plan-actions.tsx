@@ -1,0 +1,76 @@
+"use client";
+// Staff cancel a plan (at the end of its paid time, with the refund the template's rule gives) or take a
+// cancellation back — the same confirm-what-you-were-shown rule as the owner's control: the plan version
+// and refund shown here go with the request, and a plan that changed since answers 409 with words.
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { apiJson, isApiError } from "@/components/api-client";
+import { Button } from "@/components/ui/button";
+
+export type StaffPlanAction =
+  | { kind: "cancel"; subscriptionId: string; version: number; refundMinor: number; endsOn: string; refundWords: string }
+  | { kind: "keep"; subscriptionId: string; version: number }
+  | { kind: "none" };
+
+export function StaffPlanActions({ action }: { action: StaffPlanAction }) {
+  const router = useRouter();
+  const [confirming, setConfirming] = useState(false);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  if (action.kind === "none") return null;
+
+  async function send(path: "cancel" | "keep", json: Record<string, number>) {
+    setBusy(true);
+    setError(null);
+    try {
+      await apiJson(`/api/plans/subscriptions/${action.kind === "none" ? "" : action.subscriptionId}/${path}`, { method: "POST", json });
+      setConfirming(false);
+      router.refresh();
+    } catch (e) {
+      setError(isApiError(e) ? e.message : "That didn't go through. Check your connection and try again.");
+    }
+    setBusy(false);
+  }
+  const alert = error ? (
+    <p role="alert" className="text-sm text-danger">
+      {error}
+    </p>
+  ) : null;
+
+  if (action.kind === "keep") {
+    return (
+      <div className="space-y-2">
+        <Button variant="secondary" disabled={busy} onClick={() => send("keep", { version: action.version })}>
+          {busy ? "Keeping the plan…" : "Take the cancellation back"}
+        </Button>
+        {alert}
+      </div>
+    );
+  }
+  if (!confirming) {
+    return (
+      <Button variant="secondary" onClick={() => setConfirming(true)}>
+        Cancel this plan
+      </Button>
+    );
+  }
+  return (
+    <div role="group" aria-labelledby="staff-plan-cancel-title" className="space-y-3 rounded-lg border border-line p-3">
+      <p id="staff-plan-cancel-title" className="font-semibold">
+        Cancel this plan?
+      </p>
+      <p className="text-sm">
+        It keeps working until {action.endsOn} and isn&apos;t renewed. {action.refundWords}
+      </p>
+      <div className="flex flex-wrap gap-2">
+        <Button disabled={busy} onClick={() => send("cancel", { version: action.version, refundMinor: action.refundMinor })}>
+          {busy ? "Cancelling…" : "Cancel the plan"}
+        </Button>
+        <Button variant="secondary" disabled={busy} onClick={() => setConfirming(false)}>
+          Keep it running
+        </Button>
+      </div>
+      {alert}
+    </div>
+  );
+}
