@@ -206,17 +206,27 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     return event;
   }
 
+  /** The account a subscription is being started for (its events and first charge belong to it). */
+  let acting: string | undefined;
   const billing = createSubscriptionBilling({
     id,
     now,
-    emit,
+    // A subscription's events go to the account it was bought under: known by the subscription's id
+    // (its own events) or the invoice's subscription.
+    emit: (type, object) => {
+      const o = object as { id?: unknown; subscription?: unknown };
+      const key = acting ?? (typeof o.subscription === "string" ? ownerOf.get(o.subscription) : undefined) ?? (typeof o.id === "string" ? ownerOf.get(o.id) : undefined);
+      emit(type, object, key);
+    },
     fail: (status, message, param) => {
       throw new StripeError(status, "invalid_request_error", message, param, status === 404 ? "resource_missing" : undefined);
     },
     // A paid subscription invoice is a captured charge like a Checkout payment, so it can be refunded.
     charge: (amount, currency) => {
       const pi = id("pi");
-      charges.set(pi, { id: id("ch"), payment_intent: pi, amount, amount_refunded: 0, currency });
+      const charge = { id: id("ch"), payment_intent: pi, amount, amount_refunded: 0, currency };
+      charges.set(pi, charge);
+      if (acting) ownerOf.set(charge.id, acting);
       return pi;
     },
   });
@@ -309,13 +319,21 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
 
   function pay(s: FakeSession) {
     if (s.mode === "subscription") {
-      const started = billing.startFromSession(s);
+      acting = ownerOf.get(s.id);
+      let started: ReturnType<typeof billing.startFromSession>;
+      try {
+        started = billing.startFromSession(s);
+      } finally {
+        acting = undefined;
+      }
+      const owner = ownerOf.get(s.id);
+      if (owner) ownerOf.set(started.subscription, owner);
       s.customer = started.customer;
       s.subscription = started.subscription;
       s.status = "complete";
       s.payment_status = "paid";
       s.url = null;
-      emit("checkout.session.completed", publicSession(s));
+      emit("checkout.session.completed", publicSession(s), owner);
       return;
     }
     const pi = id("pi");

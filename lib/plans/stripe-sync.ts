@@ -6,12 +6,10 @@ import { getDb } from "@/db/client";
 import { planInvoices, planSubscriptions, pieces, studios, stripeEvents, users, type PlanSubscription } from "@/db/schema";
 import { PlanGraceEmail, planGraceSubject } from "@/emails/plan-grace";
 import { recordAudit } from "@/lib/audit";
-import { env } from "@/lib/env";
-import { badRequest } from "@/lib/errors";
 import { formatInstant } from "@/lib/format/dates";
 import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
-import { callStripe, getStripe, type Stripe } from "@/lib/payments/stripe";
+import { callStripe, verifyStripeEvent, type Stripe } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
 import { planPrice } from "./price";
@@ -116,14 +114,15 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
  * Re-reads a Stripe subscription (and, when given, one of its invoices) and writes what it says: the
  * plan's state and period, the invoice, and the grace mail when the plan has just entered grace.
  */
-export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: string): Promise<PlanSubscription | null> {
+export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: string, studioId?: string): Promise<PlanSubscription | null> {
   return withPlanLock(stripeSubscriptionId, async () => {
-    const s = await callStripe("read the plan's subscription", (stripe) => stripe.subscriptions.retrieve(stripeSubscriptionId));
+    const s = await callStripe("read the plan's subscription", (stripe) => stripe.subscriptions.retrieve(stripeSubscriptionId), studioId);
     const row = findRow(s);
-    if (!row) return null;
-    const invoice = invoiceId ? await callStripe("read the plan's invoice", (stripe) => stripe.invoices.retrieve(invoiceId)) : null;
+    // Read under a studio's own key (its own webhook endpoint), a subscription moves only that studio's plan.
+    if (!row || (studioId !== undefined && row.studioId !== studioId)) return null;
+    const invoice = invoiceId ? await callStripe("read the plan's invoice", (stripe) => stripe.invoices.retrieve(invoiceId), studioId) : null;
     const latestId = typeof s.latest_invoice === "string" ? s.latest_invoice : (s.latest_invoice?.id ?? null);
-    const latest = latestId ? (latestId === invoice?.id ? invoice : await callStripe("read the plan's latest invoice", (stripe) => stripe.invoices.retrieve(latestId))) : null;
+    const latest = latestId ? (latestId === invoice?.id ? invoice : await callStripe("read the plan's latest invoice", (stripe) => stripe.invoices.retrieve(latestId), studioId)) : null;
     const stripeState = stateOf(s);
     const overdue = stripeState === "grace" ? latest : null;
     // The latest invoice paid at an amount that isn't the plan's is not a renewal: the plan keeps the
@@ -203,18 +202,13 @@ function subscriptionOfEvent(event: Stripe.Event): { subscriptionId: string; inv
  * A Stripe webhook for plans: verified on the raw body like every event; null when it is not a plan's
  * event (the payments code handles it then). Each event id is recorded once.
  */
-export async function handlePlanWebhook(rawBody: string, signature: string | null): Promise<{ received: true; duplicate?: boolean } | null> {
-  let event: Stripe.Event;
-  try {
-    event = getStripe().webhooks.constructEvent(rawBody, signature ?? "", env.STRIPE_WEBHOOK_SECRET);
-  } catch {
-    throw badRequest("The Stripe-Signature header doesn't match this payload.");
-  }
+export async function handlePlanWebhook(rawBody: string, signature: string | null, studioId?: string): Promise<{ received: true; duplicate?: boolean } | null> {
+  const event = verifyStripeEvent(rawBody, signature, studioId);
   const about = subscriptionOfEvent(event);
   if (!about) return null;
   const db = getDb();
   if (db.select({ id: stripeEvents.id }).from(stripeEvents).where(eq(stripeEvents.id, event.id)).get()) return { received: true, duplicate: true };
-  await syncPlanSubscription(about.subscriptionId, about.invoiceId);
+  await syncPlanSubscription(about.subscriptionId, about.invoiceId, studioId);
   db.insert(stripeEvents).values({ id: event.id, type: event.type, objectId: about.invoiceId ?? about.subscriptionId }).onConflictDoNothing().run();
   return { received: true };
 }

@@ -83,7 +83,7 @@ export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name"
     .where(and(eq(planSubscriptions.pieceId, piece.id), eq(planSubscriptions.ownerId, user.id), eq(planSubscriptions.templateId, template.id), eq(planSubscriptions.amountMinor, totalMinor), eq(planSubscriptions.state, "awaiting_payment")))
     .get();
   if (waiting?.checkoutSessionId) {
-    const live = await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!));
+    const live = await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!), piece.studioId);
     if (live.status === "open" && live.url) return { checkoutUrl: live.url, subscriptionId: waiting.id };
   }
   const sub =
@@ -113,7 +113,7 @@ export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name"
       },
       { idempotencyKey: `plan-checkout-${sub.id}-${sub.version}-${Date.now()}` },
     );
-  });
+  }, piece.studioId);
   db.update(planSubscriptions).set({ checkoutSessionId: session.id, checkoutUrl: session.url, stripeCustomerId: typeof session.customer === "string" ? session.customer : null, updatedAt: new Date() }).where(eq(planSubscriptions.id, sub.id)).run();
   return { checkoutUrl: session.url!, subscriptionId: sub.id };
 }
