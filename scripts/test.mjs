@@ -31,15 +31,25 @@ const buildId = path.join(root, ".next", "BUILD_ID");
 const built = fs.existsSync(buildId) && process.env.GRAINWARD_BUILD_FRESH === "1";
 if (!built) failed ||= run("Production build for the end-to-end tests", "next", ["build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" });
 failed = run("End-to-end tests (Playwright, Chromium)", "playwright", ["test"], { ...process.env, PLAYWRIGHT_JSON_OUTPUT_NAME: playwrightJson }) || failed;
+// Then a server on an empty database (no seed, sign-up closed): a stranger starts the first studio and
+// walks every studio page empty and populated (tests/e2e/studio-setup.spec.ts, which the seeded run skips).
+const emptyInstallJson = path.join(tmp, "playwright-empty-install.json");
+fs.rmSync(emptyInstallJson, { force: true });
+failed =
+  run("End-to-end from an empty install (Playwright, Chromium)", "playwright", ["test", "tests/e2e/studio-setup.spec.ts"], { ...process.env, E2E_EMPTY_DATABASE: "1", PLAYWRIGHT_JSON_OUTPUT_NAME: emptyInstallJson }) || failed;
 
-// One closing line over both runners.
+// One closing line over both runners (the two Playwright runs counted together).
 const read = (f) => (fs.existsSync(f) ? JSON.parse(fs.readFileSync(f, "utf8")) : null);
 const v = read(vitestJson);
 const p = read(playwrightJson);
+const e = read(emptyInstallJson);
+// The empty-install run's one test counts with the seeded run's (where the same test is skipped).
+if (p && e) for (const k of ["expected", "unexpected", "flaky"]) p.stats[k] = (p.stats[k] ?? 0) + (e.stats?.[k] ?? 0);
+if (p && e && e.stats?.expected) p.stats.skipped = Math.max(0, (p.stats.skipped ?? 0) - e.stats.expected);
 const passed = (v?.numPassedTests ?? 0) + (p?.stats?.expected ?? 0) + (p?.stats?.flaky ?? 0);
 const failedCount = (v?.numFailedTests ?? 0) + (p?.stats?.unexpected ?? 0);
 const skipped = (v?.numPendingTests ?? 0) + (v?.numTodoTests ?? 0) + (p?.stats?.skipped ?? 0);
 console.log(`\nVitest: ${v?.numPassedTests ?? 0} passed, ${v?.numFailedTests ?? 0} failed; Playwright: ${p?.stats?.expected ?? 0} passed, ${p?.stats?.unexpected ?? 0} failed`);
 console.log(`${passed} passed, ${failedCount} failed, ${skipped} skipped`);
-if (!v || !p) console.error("A runner wrote no results (see above).");
-process.exit(failed || !v || !p || failedCount > 0 ? 1 : 0);
+if (!v || !p || !e) console.error("A runner wrote no results (see above).");
+process.exit(failed || !v || !p || !e || failedCount > 0 ? 1 : 0);
