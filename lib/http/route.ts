@@ -15,6 +15,13 @@ import { checkOrigin } from "./origin";
 //     ({ product: updateCatalogProduct(actor, params.id, body) }));
 //
 // A handler returns a Response, or a value answered as JSON (with `status`, 200 unless given).
+//
+// Where the object a write is about must be found before its body is judged (someone else's object is a
+// 404 whatever they sent, the owner's with a bad body a 400), `load` finds it from the actor, params and
+// query, between those and the body; the handler gets what it returned as `loaded`:
+//
+//   export const POST = route({ roles: ["staff"], params: idParams, load: ({ actor, params }) => loadThread(actor, params.id), body: messageForm },
+//     ({ actor, loaded, body }) => reply(actor, loaded, body));
 
 export type ErrorBody = { error: { code: string; message: string; fieldErrors?: Record<string, string[]> } };
 
@@ -30,7 +37,7 @@ export function errorResponse(e: AppError): NextResponse<ErrorBody> {
 type AnySchema = z.ZodType;
 type Out<S> = S extends AnySchema ? z.output<S> : undefined;
 
-export type RouteSpec<R extends ActorRole, P, Q, B> = {
+export type RouteSpec<R extends ActorRole, P, Q, B, L = undefined> = {
   /** Who may call: studio roles and/or "owner" (every signed-in person, on their own things). Omitted: anyone, no actor. */
   roles?: readonly R[];
   params?: P;
@@ -50,26 +57,26 @@ export type RouteSpec<R extends ActorRole, P, Q, B> = {
    * refuses other sites' writes (lib/http/origin.ts).
    */
   anyOrigin?: boolean;
+  /** Finds what the request is about after the actor, params and query and before the body (see above). */
+  load?: (input: Omit<RouteInput<R, P, Q, B>, "body" | "loaded">) => L | Promise<L>;
 };
 
-export type RouteInput<R extends ActorRole, P, Q, B> = {
+export type RouteInput<R extends ActorRole, P, Q, B, L = undefined> = {
   req: NextRequest;
   actor: [R] extends [never] ? null : ActorFor<R>;
   params: Out<P>;
   query: Out<Q>;
   body: Out<B>;
+  loaded: L;
 };
 
 type NextContext = { params: Promise<unknown> };
 
-export function route<R extends ActorRole = never, P extends AnySchema | undefined = undefined, Q extends AnySchema | undefined = undefined, B extends AnySchema | undefined = undefined>(
-  spec: RouteSpec<R, P, Q, B>,
-  handler: (input: RouteInput<R, P, Q, B>) => Promise<unknown> | unknown,
+export function route<R extends ActorRole = never, P extends AnySchema | undefined = undefined, Q extends AnySchema | undefined = undefined, B extends AnySchema | undefined = undefined, L = undefined>(
+  spec: RouteSpec<R, P, Q, B, L>,
+  handler: (input: RouteInput<R, P, Q, B, L>) => Promise<unknown> | unknown,
 ): (req: NextRequest, ctx: NextContext) => Promise<Response>;
-export function route(
-  spec: RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>,
-  handler: (input: RouteInput<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>) => unknown,
-) {
+export function route(spec: AnySpec, handler: (input: RouteInput<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined, unknown>) => unknown) {
   return async (req: NextRequest, ctx: NextContext): Promise<Response> => {
     try {
       if (!spec.anyOrigin) checkOrigin(req, req.nextUrl.origin);
@@ -80,16 +87,20 @@ export function route(
   };
 }
 
-/** Actor first (401/403 before anything about the input), then params, query and body, each parsed once. */
-async function parseInput(spec: RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined>, req: NextRequest, rawParams: unknown) {
+type AnySpec = RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined, AnySchema | undefined, unknown>;
+
+/** Actor first (401/403 before anything about the input), then params and query, the loaded object, and the body, each once. */
+async function parseInput(spec: AnySpec, req: NextRequest, rawParams: unknown) {
   const actor = spec.roles ? await requireActor(spec.roles) : null;
   const params = spec.params ? spec.params.parse(rawParams) : undefined;
   const query = spec.query ? spec.query.parse(Object.fromEntries(req.nextUrl.searchParams)) : undefined;
+  const found = { req, actor, params, query } as Omit<RouteInput<ActorRole, AnySchema, AnySchema, AnySchema, unknown>, "body" | "loaded">;
+  const loaded = spec.load ? await spec.load(found) : undefined;
   const body = spec.body ? spec.body.parse(await readBodyOf(spec, req)) : undefined;
-  return { req, actor, params, query, body } as RouteInput<ActorRole, AnySchema, AnySchema, AnySchema>;
+  return { ...found, loaded, body } as RouteInput<ActorRole, AnySchema, AnySchema, AnySchema, unknown>;
 }
 
-function readBodyOf(spec: RouteSpec<ActorRole, unknown, unknown, unknown>, req: NextRequest): Promise<unknown> {
+function readBodyOf(spec: AnySpec, req: NextRequest): Promise<unknown> {
   if (spec.bodyKind !== "form") return readJson(req, { limit: spec.bodyLimit ?? BODY_LIMITS.json, optional: spec.optionalBody });
   return readForm(req, spec.bodyLimit ?? BODY_LIMITS.form, ["urlencoded", "multipart"]).then((form) =>
     Object.fromEntries([...form.entries()].map(([k, v]) => [k, typeof v === "string" ? v : ""])),

@@ -9,7 +9,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { postClaimMessage } from "@/lib/claims/reply";
 import { notFound, unprocessable } from "@/lib/errors";
 import { ownerJobWhere } from "@/lib/repairs/owner-reach";
-import { messageFormSchema, messageSubjectSchema, type InboxQuery, type ThreadUpdate } from "@/lib/validation/messages";
+import type { InboxQuery, MessageForm, MessageSubject, ThreadUpdate } from "@/lib/validation/messages";
 import { mailOwner, mailStudio, type ThreadMailFacts } from "./mail";
 import { appendMessage, findThread, ownerMayWrite, subjectOf, threadFor, threadMessagesOf, type MessageView, type SubjectRef } from "./store";
 import { threadVisibleTo } from "./access";
@@ -21,9 +21,14 @@ import { threadVisibleTo } from "./access";
 
 // ---------------------------------------------------------------- owners
 
+/** A claim, job or visit this owner was found allowed to write about; only `ownerSubject` makes one. */
+export type OwnedSubject = SubjectRef & { readonly ownerId: string; readonly __checked: unique symbol };
+
 /** The claim, job or visit, if this owner may write about it now (lib/messages/store: ownerMayWrite); otherwise 404. */
-function ownerSubject(user: Pick<User, "id">, ref: SubjectRef): void {
+export function ownerSubject(user: Pick<User, "id">, subject: MessageSubject): OwnedSubject {
+  const ref: SubjectRef = { kind: subject.about, id: subject.id };
   if (!ownerMayWrite(getDb(), user.id, ref)) throw notFound(`No ${ref.kind === "job" ? "repair job" : ref.kind} of yours with that id.`);
+  return { ...ref, ownerId: user.id } as OwnedSubject;
 }
 
 function mailFacts(thread: Thread): ThreadMailFacts {
@@ -35,12 +40,9 @@ function mailFacts(thread: Thread): ThreadMailFacts {
   return { threadId: thread.id, kind: thread.subject === "visit" ? "visit" : "job", jobId, studio, pieceTitle: piece.title, owner: owner ?? { name: "", email: "" } };
 }
 
-/** An owner writes to the studio about a claim, repair job or visit of theirs (decided or not). */
-export async function postOwnerMessage(user: User, raw: unknown): Promise<{ threadId: string; message: MessageView }> {
-  const subject = messageSubjectSchema.parse(raw);
-  const ref: SubjectRef = { kind: subject.about, id: subject.id };
-  ownerSubject(user, ref);
-  const input = messageFormSchema.parse(raw);
+/** An owner writes to the studio about a claim, repair job or visit of theirs (decided or not), found by `ownerSubject`. */
+export async function postOwnerMessage(user: User, ref: OwnedSubject, input: MessageForm): Promise<{ threadId: string; message: MessageView }> {
+  if (ref.ownerId !== user.id) throw notFound("No such conversation of yours.");
   if (ref.kind === "claim") {
     const out = await postClaimMessage(ownerActor(user), ref.id, { body: input.body });
     const thread = findThread(getDb(), ref)!;
@@ -98,7 +100,8 @@ export function ownerJobConversation(user: Pick<User, "id">, jobId: string) {
 
 // ---------------------------------------------------------------- the studio's inbox
 
-function studioThread(ctx: StudioContext, threadId: string): Thread {
+/** One of this studio's threads; another studio's, or none, is a 404. */
+export function studioThread(ctx: StudioContext, threadId: string): Thread {
   const thread = getDb().select().from(threads).where(and(eq(threads.id, threadId), threadVisibleTo(ctx))).get();
   if (!thread) throw notFound("No conversation with that id in this studio.");
   return thread;
@@ -246,12 +249,12 @@ export function updateThread(ctx: StudioContext, threadId: string, input: Thread
 }
 
 /** A staff reply on the same thread; the owner gets it by e-mail with the thread's Reply-To. */
-export async function replyToThread(ctx: StudioContext, threadId: string, raw: unknown) {
-  const thread = studioThread(ctx, threadId);
-  const { body } = messageFormSchema.parse(raw);
+/** A staff reply on a thread found by `studioThread`. */
+export async function replyToThread(ctx: StudioContext, thread: Thread, { body }: MessageForm) {
+  if (thread.studioId !== ctx.studio.id) throw notFound("No conversation with that id in this studio.");
   if (thread.claimId) {
     await postClaimMessage(ctx, thread.claimId, { body });
-    return getThread(ctx, threadId);
+    return getThread(ctx, thread.id);
   }
   if (!thread.ownerId) throw unprocessable("no_owner", "This piece has no owner on record any more, so there is nobody to answer.");
   const now = new Date();
@@ -260,7 +263,7 @@ export async function replyToThread(ctx: StudioContext, threadId: string, raw: u
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "thread.message", subjectType: thread.subject, subjectId: subjectOf(thread).id, data: { threadId: thread.id, messageId: message.id, fromStudio: true } });
   });
   await mailOwner(mailFacts(thread), ctx.user.name, body);
-  return getThread(ctx, threadId);
+  return getThread(ctx, thread.id);
 }
 
 /** Staff set aside an unmatched e-mail once they have dealt with it. */

@@ -8,12 +8,14 @@ export const messageBody = z.string().trim().min(1, "Write a message first.").ma
 
 export const messageFormSchema = z.object({ body: messageBody });
 export type MessageFormInput = z.input<typeof messageFormSchema>;
+export type MessageForm = z.output<typeof messageFormSchema>;
 
-/** What an owner's message is about; the body is read after the owner is found to be allowed. */
+/** What an owner's message is about (the query of POST /api/threads); the body is read after the owner is found to be allowed. */
 export const messageSubjectSchema = z.object({
   about: z.enum(["claim", "job", "visit"], "Say what the message is about."),
-  id: z.string().min(1).max(64),
+  id: z.string().min(1, "Say which one the message is about.").max(64),
 });
+export type MessageSubject = z.output<typeof messageSubjectSchema>;
 
 export const threadIdParam = z.object({ id: z.string().min(1).max(64) });
 

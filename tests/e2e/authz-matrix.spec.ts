@@ -341,7 +341,7 @@ const ROUTES: RouteRow[] = [
   // Conversations: owners write on their own claims, jobs and visits (others get 404 before the
   // message is read, so a blank one is the owner's 400); the inbox is the studio's staff's alone.
   { route: "GET /api/threads", expect: "401 403 403 403 200 200 200 200", send: ({ api }) => api.get("/api/threads?view=all") },
-  { route: "POST /api/threads", expect: "401 400 404 404 404 404 404 404", send: ({ api }) => api.post("/api/threads", { data: { about: "claim", id: X.ownerClaimId, body: "" } }) },
+  { route: "POST /api/threads", expect: "401 400 404 404 404 404 404 404", send: ({ api }) => api.post(`/api/threads?about=claim&id=${X.ownerClaimId}`, { data: { body: "" } }) },
   { route: "GET /api/threads/[id]", expect: "401 403 403 403 200 200 404 404", before: threadRow, send: ({ api }) => api.get(`/api/threads/${S.threadId}`) },
   { route: "PATCH /api/threads/[id]", expect: "401 403 403 403 200 200 404 404", before: threadRow, send: ({ api }) => api.patch(`/api/threads/${S.threadId}`, { data: { assignedToId: null } }) },
   { route: "POST /api/threads/[id]/messages", expect: "401 403 403 403 400 400 404 404", before: threadRow, send: ({ api }) => api.post(`/api/threads/${S.threadId}/messages`, { data: { body: "" } }) },

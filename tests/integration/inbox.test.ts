@@ -18,7 +18,10 @@ import { AppError } from "@/lib/errors";
 import { startInboundListener, replyText, type InboundListener } from "@/lib/mail/inbound";
 import { checkReplyAddress, replyAddress } from "@/lib/messages/reply-address";
 import { findThread } from "@/lib/messages/store";
-import { getThread, listInbox, ownerConversations, postOwnerMessage, replyToThread, unreadCount, updateThread } from "@/lib/messages/service";
+import { getThread, listInbox, ownerConversations, ownerSubject, postOwnerMessage, replyToThread, studioThread, unreadCount, updateThread } from "@/lib/messages/service";
+import type { User } from "lucia";
+import type { StudioContext } from "@/lib/auth/guards";
+import { messageFormSchema } from "@/lib/validation/messages";
 import { createUser } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
 import { bookVisit } from "@/lib/visits/book";
@@ -66,6 +69,12 @@ async function jobWorld() {
   return { ...w, job };
 }
 
+/** As POST /api/threads does: what it is about found first (404 if not the owner's), then the parsed body. */
+const post = (owner: User, about: "claim" | "job" | "visit", id: string, body: string) =>
+  Promise.resolve().then(() => postOwnerMessage(owner, ownerSubject(owner, { about, id }), messageFormSchema.parse({ body })));
+/** As POST /api/threads/[id]/messages does: the studio's thread found first, then the parsed body. */
+const staffReply = (ctx: StudioContext, threadId: string, body: string) => Promise.resolve().then(() => replyToThread(ctx, studioThread(ctx, threadId), messageFormSchema.parse({ body })));
+
 const messagesIn = (threadId: string) => getDb().select().from(threadMessages).where(eq(threadMessages.threadId, threadId)).all();
 
 describe("reply addresses", () => {
@@ -99,7 +108,7 @@ describe("owner messages and the inbox", () => {
     await decideClaim(w.staffCtx, claim.id, { decision: "declined", reason: "Heat marks are not covered (invented)." });
     expect(unreadCount(w.staffCtx)).toBe(0);
 
-    const out = await postOwnerMessage(w.owner, { about: "claim", id: claim.id, body: "The top still feels tacky; when can the children use it?" });
+    const out = await post(w.owner, "claim", claim.id, "The top still feels tacky; when can the children use it?");
     expect(unreadCount(w.staffCtx)).toBe(1);
     const inbox = listInbox(w.staffCtx);
     expect(inbox.threads).toHaveLength(1);
@@ -114,7 +123,7 @@ describe("owner messages and the inbox", () => {
 
     // The answer from the inbox goes on the claim's own thread and mails the owner with its Reply-To.
     const since = new Date();
-    const after = await replyToThread(w.staffCtx, out.threadId, { body: "Give it two more weeks before daily use." });
+    const after = await staffReply(w.staffCtx, out.threadId, "Give it two more weeks before daily use.");
     expect(after.thread.waitingSince).toBeNull();
     expect(getOwnerClaim(w.owner, claim.id).messages.at(-1)).toMatchObject({ fromStudio: true, body: "Give it two more weeks before daily use." });
     const mail = await waitForMail({ to: w.owner.email, since, subject: /New message from/ });
@@ -123,9 +132,9 @@ describe("owner messages and the inbox", () => {
 
   it("staff reply from the inbox: the owner gets it by mail with the thread's Reply-To, and nothing waits any more", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Can you come before the holidays?" });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Can you come before the holidays?");
     const since = new Date();
-    const after = await replyToThread(w.staffCtx, threadId, { body: "Yes, Thursday morning works for us." });
+    const after = await staffReply(w.staffCtx, threadId, "Yes, Thursday morning works for us.");
     expect(after.thread.waitingSince).toBeNull();
     expect(after.messages.map((m) => [m.author, m.body])).toEqual([
       ["owner", "Can you come before the holidays?"],
@@ -138,7 +147,7 @@ describe("owner messages and the inbox", () => {
 
   it("assign to a staff member and mark done; a new owner message makes it unread again", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Question about the oil (invented)." });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Question about the oil (invented).");
     expect(updateThread(w.staffCtx, threadId, { assignedToId: w.staffCtx.user.id }).thread.assignedToId).toBe(w.staffCtx.user.id);
     expect(listInbox(w.staffCtx, { view: "mine" }).threads.map((t) => t.id)).toEqual([threadId]);
     const stranger = await createUser();
@@ -146,15 +155,15 @@ describe("owner messages and the inbox", () => {
     expect(updateThread(w.staffCtx, threadId, { state: "done" }).thread.state).toBe("done");
     expect(listInbox(w.staffCtx).threads).toHaveLength(0);
     expect(listInbox(w.staffCtx, { view: "done" }).threads.map((t) => t.id)).toEqual([threadId]);
-    await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "One more thing (invented)." });
+    await post(w.owner, "job", w.job.id, "One more thing (invented).");
     expect(getThread(w.staffCtx, threadId).thread.state).toBe("unread");
   });
 
   it("the client's timeline shows the messages, linking to the conversation", async () => {
     const w = await jobWorld();
     const client = getDb().insert(clients).values({ studioId: w.studio.id, name: w.owner.name, email: w.owner.email, userId: w.owner.id }).returning().get();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });
-    await replyToThread(w.staffCtx, threadId, { body: "Hello back (invented)." });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Hello (invented).");
+    await staffReply(w.staffCtx, threadId, "Hello back (invented).");
     const entries = clientTimeline(w.staffCtx, client.id, 20).entries.filter((e) => e.kind === "message");
     expect(entries.map((e) => [e.title, e.href])).toEqual([
       [`The studio wrote to them about a repair job on “${w.piece.title}”`, `/studio/inbox/${threadId}`],
@@ -164,22 +173,22 @@ describe("owner messages and the inbox", () => {
 
   it("another studio's staff get 404s; a stranger or a former owner cannot post", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Hello (invented).");
     const other = await otherStudioStaff();
     expect(await status(() => getThread(other, threadId))).toBe(404);
-    expect(await status(replyToThread(other, threadId, { body: "Not my studio." }))).toBe(404);
+    expect(await status(staffReply(other, threadId, "Not my studio."))).toBe(404);
     expect(await status(() => updateThread(other, threadId, { state: "done" }))).toBe(404);
     expect(listInbox(other).threads.map((t) => t.id)).not.toContain(threadId);
 
     // The owner is allowed, so a blank message is a 400 (checked after who may write).
-    expect(await status(postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "   " }))).toBe(400);
+    expect(await status(post(w.owner, "job", w.job.id, "   "))).toBe(400);
     const stranger = await createUser();
-    expect(await status(postOwnerMessage(stranger, { about: "job", id: w.job.id, body: "Hi" }))).toBe(404);
+    expect(await status(post(stranger, "job", w.job.id, "Hi"))).toBe(404);
     // The piece is transferred away: its former owner writes no more, on the job or the claim.
     const claim = await fileClaim(w.ownerV, w.piece.id);
     getDb().update(pieces).set({ ownerId: stranger.id }).where(eq(pieces.id, w.piece.id)).run();
-    expect(await status(postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Still me" }))).toBe(404);
-    expect(await status(postOwnerMessage(w.owner, { about: "claim", id: claim.id, body: "Still me" }))).toBe(404);
+    expect(await status(post(w.owner, "job", w.job.id, "Still me"))).toBe(404);
+    expect(await status(post(w.owner, "claim", claim.id, "Still me"))).toBe(404);
     expect(ownerConversations(w.owner, { pieceId: w.piece.id })).toEqual([]);
   });
 });
@@ -200,8 +209,8 @@ describe("replies by e-mail through the inbound listener", () => {
 
   it("lands in the thread and the inbox exactly once, quotes stripped (sent twice: once)", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "When can you come?" });
-    await replyToThread(w.staffCtx, threadId, { body: "Thursday at nine?" });
+    const { threadId } = await post(w.owner, "job", w.job.id, "When can you come?");
+    await staffReply(w.staffCtx, threadId, "Thursday at nine?");
     getThread(w.staffCtx, threadId, { markRead: true });
     expect(unreadCount(w.staffCtx)).toBe(0);
 
@@ -250,9 +259,9 @@ describe("replies by e-mail through the inbound listener", () => {
 
   it("the reply to the mail the owner actually received lands in its thread", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Is the quote final?" });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Is the quote final?");
     const since = new Date();
-    await replyToThread(w.staffCtx, threadId, { body: "It is, unless the top needs more than one coat." });
+    await staffReply(w.staffCtx, threadId, "It is, unless the top needs more than one coat.");
     const got = await getMail((await waitForMail({ to: w.owner.email, since })).id);
     const replyTo = got.headers["reply-to"]!.match(/reply\+[^>\s,]+/)![0];
     await sendToListener({ from: w.owner.email, to: replyTo, text: `Understood, go ahead.\n\n> ${got.text.split("\n").join("\n> ")}` });
@@ -261,7 +270,7 @@ describe("replies by e-mail through the inbound listener", () => {
 
   it("a wrong sender or a bad token is kept as unmatched for the studio, not added to the thread", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Hello (invented).");
     const before = messagesIn(threadId).length;
     await sendToListener({ from: "someone-else@test.example", to: replyAddress(threadId), text: "Not the owner (invented).", messageId: `<wrong-${threadId}@test.example>` });
     const forged = replyAddress(threadId).replace(/\.([0-9a-f])/, (_, c: string) => `.${c === "0" ? "1" : "0"}`);
@@ -279,7 +288,7 @@ describe("replies by e-mail through the inbound listener", () => {
 
   it("a reply from a former owner is kept as unmatched, not added", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Hello (invented).");
     getDb().update(pieces).set({ ownerId: null }).where(eq(pieces.id, w.piece.id)).run();
     await sendToListener({ from: w.owner.email, to: replyAddress(threadId), text: "Released it, but still writing.", messageId: `<former-${threadId}@test.example>` });
     expect(messagesIn(threadId).map((m) => m.body)).not.toContain("Released it, but still writing.");
@@ -296,7 +305,7 @@ describe("replies by e-mail through the inbound listener", () => {
 
   it("refuses a message over the size limit at the SMTP level", async () => {
     const w = await jobWorld();
-    const { threadId } = await postOwnerMessage(w.owner, { about: "job", id: w.job.id, body: "Hello (invented)." });
+    const { threadId } = await post(w.owner, "job", w.job.id, "Hello (invented).");
     await expect(sendToListener({ from: w.owner.email, to: replyAddress(threadId), text: "x".repeat(11 * 1024 * 1024) })).rejects.toThrow(/552|too large|size/i);
     expect(getDb().select().from(threads).where(eq(threads.id, threadId)).get()!.state).toBe("unread");
   });

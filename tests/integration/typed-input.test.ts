@@ -9,11 +9,14 @@ import { eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
-import { memberships, studios } from "@/db/schema";
+import { memberships, studios, threadMessages } from "@/db/schema";
 import type { StudioRole } from "@/lib/care/vocabulary";
 import { sha256Hex, randomToken } from "@/lib/crypto";
 import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
+import { postClaimMessage } from "@/lib/claims/reply";
+import { findThread } from "@/lib/messages/store";
 import { createStudio, createUser } from "../support/fixtures";
+import { claimWorld, fileClaim } from "./claims-helpers";
 
 // next/headers outside a Next.js request: the cookie jar holds the session token of whoever the
 // test signed in; headers are empty (no client address, no Accept-Language).
@@ -251,5 +254,53 @@ describe("messages: the inbox's view is parsed at the boundary", () => {
     const state = await call(PATCH, "PATCH", "/api/threads/no-such-thread", { body: { state: "closed" }, params });
     expect([state.status, Object.keys(state.json?.error?.fieldErrors ?? {})]).toEqual([400, ["state"]]);
     expect((await call(PATCH, "PATCH", "/api/threads/no-such-thread", { body: { state: "done" }, params })).status).toBe(404);
+  });
+});
+
+describe("conversations: what a message is about is found before its body is judged (route()'s `load`)", () => {
+  it("POST /api/threads: someone else's claim is a 404 whatever was sent; the owner's blank message a 400; nothing is written until both pass", async () => {
+    const { POST } = await import("@/app/api/threads/route");
+    const w = await claimWorld();
+    const claim = await fileClaim(w.ownerV, w.piece.id);
+    const path = `/api/threads?about=claim&id=${claim.id}`;
+    const written = () => getDb().select().from(threadMessages).all().filter((m) => m.body.includes("(typed-input)")).length;
+
+    const stranger = await createUser();
+    await signIn(stranger.id);
+    expect((await call(POST, "POST", path, { body: { body: "" } })).status).toBe(404);
+    expect((await call(POST, "POST", path, { body: { body: "Not my claim (typed-input)." } })).status).toBe(404);
+
+    await signIn(w.owner.id);
+    const blank = await call(POST, "POST", path, { body: { body: "   " } });
+    expect(blank.status).toBe(400);
+    expect(blank.json?.error?.fieldErrors?.body).toEqual(["Write a message first."]);
+    const unsaid = await call(POST, "POST", "/api/threads", { body: { body: "About what? (typed-input)" } });
+    expect(unsaid.status).toBe(400);
+    expect(Object.keys(unsaid.json?.error?.fieldErrors ?? {}).sort()).toEqual(["about", "id"]);
+    expect(written()).toBe(0);
+
+    expect((await call(POST, "POST", path, { body: { body: "Still tacky after a week (typed-input)." } })).status).toBe(201);
+    expect(written()).toBe(1);
+  });
+
+  it("POST /api/threads/[id]/messages: another studio's thread is a 404 whatever was sent; this studio's blank reply a 400", async () => {
+    const { POST } = await import("@/app/api/threads/[id]/messages/route");
+    const w = await claimWorld();
+    const claim = await fileClaim(w.ownerV, w.piece.id);
+    await postClaimMessage(w.ownerV, claim.id, { body: "A question (typed-input)." });
+    const thread = findThread(getDb(), { kind: "claim", id: claim.id })!;
+    const params = { id: thread.id };
+    const before = getDb().select().from(threadMessages).where(eq(threadMessages.threadId, thread.id)).all().length;
+
+    await signInMember("admin");
+    expect((await call(POST, "POST", `/api/threads/${thread.id}/messages`, { body: {}, params })).status).toBe(404);
+    const staff = await createUser();
+    getDb().insert(memberships).values({ studioId: w.studio.id, userId: staff.id, role: "staff" }).run();
+    await signIn(staff.id);
+    const blank = await call(POST, "POST", `/api/threads/${thread.id}/messages`, { body: {}, params });
+    expect(blank.status).toBe(400);
+    expect(getDb().select().from(threadMessages).where(eq(threadMessages.threadId, thread.id)).all().length).toBe(before);
+    expect((await call(POST, "POST", `/api/threads/${thread.id}/messages`, { body: { body: "Two more weeks (typed-input)." }, params })).status).toBe(201);
+    expect(getDb().select().from(threadMessages).where(eq(threadMessages.threadId, thread.id)).all().length).toBe(before + 1);
   });
 });

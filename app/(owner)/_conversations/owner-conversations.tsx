@@ -31,7 +31,7 @@ export async function JobConversation({ jobId, studioName }: { jobId: string; st
         Messages with {studioName}
       </h2>
       <MessageList messages={shown(messages, user.timeZone, studioName)} empty="No messages yet. Ask the studio anything about this repair." />
-      {canWrite ? <MessageForm endpoint="/api/threads" extra={{ about: "job", id: jobId }} label={`Message to ${studioName}`} sentText={`Message sent to ${studioName}.`} /> : null}
+      {canWrite ? <MessageForm endpoint={`/api/threads?about=job&id=${encodeURIComponent(jobId)}`} label={`Message to ${studioName}`} sentText={`Message sent to ${studioName}.`} /> : null}
       {canWrite ? <p className="text-sm text-muted">You can also answer the studio&apos;s e-mails by replying to them.</p> : null}
     </section>
   );
