@@ -14,8 +14,8 @@ const SUGGESTION_LOOK: Record<string, { Icon: LucideIcon; tone: string }> = {
 
 /**
  * The coverage check: a one-line summary a front desk can read aloud, the findings as labels, the
- * questions still to ask, and every reason of the engine (with its sources) in "How this was worked
- * out". Staff decide; the suggestion is only a suggestion.
+ * questions still to ask, and "How this was worked out" in plain lines (lib/claims/coverage-words; the
+ * engine's own reasons, with their sources, stay in the stored suggestion). Staff decide.
  */
 export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
   const c = coverage.check;
@@ -43,7 +43,7 @@ export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
           </p>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
             <dt className="text-muted">Warranty terms</dt>
-            <dd>{coverage.policyVersion}</dd>
+            <dd>{coverage.termsName}</dd>
             <dt className="text-muted">Line</dt>
             <dd>{c.line ? `${c.line.label} (${c.line.termMonths} months from delivery)` : "None for this kind of damage"}</dd>
             {c.termEndsOn ? (
@@ -81,24 +81,9 @@ export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
           ) : null}
           <details className="rounded-lg border border-line bg-paper p-3 text-sm">
             <summary className="flex min-h-11 cursor-pointer items-center font-medium text-resin">How this was worked out</summary>
-            {c.climate?.reported ? (
-              <div className="mt-2 space-y-1">
-                <p className="font-semibold">Seasonal movement of this slab</p>
-                <p>
-                  {Math.abs(c.climate.reported.changeMm).toFixed(1)} mm ({Math.abs(c.climate.reported.changeIn).toFixed(2)} in) between the owner&apos;s driest and dampest readings
-                  {c.climate.careGuide ? `; ${Math.abs(c.climate.careGuide.changeMm).toFixed(1)} mm across the care guide's range.` : "."}
-                </p>
-                <ul className="list-disc pl-5 text-muted">
-                  {c.climate.reported.reasons.map((r) => (
-                    <li key={r}>{r}</li>
-                  ))}
-                </ul>
-              </div>
-            ) : null}
-            <p className="mt-2 font-semibold">Every reason</p>
-            <ol className="list-decimal space-y-1 pl-5">
-              {c.reasons.map((r, i) => (
-                <li key={i}>{r}</li>
+            <ol data-testid="coverage-worked-out" className="mt-2 list-decimal space-y-1 pl-5">
+              {coverage.workedOut.map((line, i) => (
+                <li key={i}>{line}</li>
               ))}
             </ol>
           </details>

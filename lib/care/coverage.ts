@@ -142,7 +142,13 @@ export interface CoverageCheck {
   /** Days of term left on the claim date (negative: expired that many days ago); null with no line. */
   daysLeft: number | null;
   exclusionsTriggered: ClaimExclusion[];
+  /** Exclusions the piece record answered, whatever the owner said, with why (words). */
+  excludedByRecord: Partial<Record<ClaimExclusion, string>>;
+  /** The line does not pass to a later owner, and a later owner filed the claim. */
+  notTransferred: boolean;
   careLogCondition: "met" | "missed" | "not_required" | "unknown";
+  /** The first care the log missed (its task, due date and the care before it), when the condition was missed. */
+  missedCare: { kind: CareTaskKind; dueOn: IsoDate; lastCare: IsoDate } | null;
   climate: {
     insideCareGuide: boolean;
     reported?: SlabMovement;
@@ -257,7 +263,7 @@ export function checkCoverage(input: CoverageInput): CoverageCheck {
 
   const reasons: string[] = [];
   const questions: string[] = [];
-  const base = { claimDate, exclusionsTriggered: [] as ClaimExclusion[], climate: null, questions, reasons };
+  const base = { claimDate, exclusionsTriggered: [] as ClaimExclusion[], excludedByRecord: {}, notTransferred: false, missedCare: null, climate: null, questions, reasons };
   const lineDef = policy.lines[claim.category];
   if (!lineDef) {
     reasons.push(`the warranty (${policy.version}) has no line for ${claim.category.replace(/_/g, " ")}`);
@@ -275,23 +281,27 @@ export function checkCoverage(input: CoverageInput): CoverageCheck {
     reasons.push(`${line.label}: the ${line.termMonths}-month term from delivery ${piece.deliveredOn} ended ${termEndsOn}, ${-daysLeft} days before the claim`);
   }
 
-  if (claim.filedByOriginalOwner === false && !line.transfersToNewOwner) {
+  const notTransferred = claim.filedByOriginalOwner === false && !line.transfersToNewOwner;
+  if (notTransferred) {
     blocked = true;
     reasons.push(`this line does not transfer to a new owner`);
   }
 
   const exclusionsTriggered: ClaimExclusion[] = [];
+  const excludedByRecord: CoverageCheck["excludedByRecord"] = {};
   for (const ex of line.exclusions) {
     const { applies, answer, byRecord } = exclusionAnswer(ex, piece, claim.answers ?? {});
     if (!applies) continue;
     if (answer === true) {
       exclusionsTriggered.push(ex);
+      if (byRecord) excludedByRecord[ex] = byRecord;
       blocked = true;
       reasons.push(`${byRecord ?? "owner answered yes"}: ${EXCLUSION_TEXT[ex].excluded}`);
     } else if (answer === undefined) questions.push(EXCLUSION_TEXT[ex].question);
   }
 
   let careLogCondition: CoverageCheck["careLogCondition"] = "not_required";
+  let missedCare: CoverageCheck["missedCare"] = null;
   if (line.careLog) {
     if (!input.finishLayers || input.finishLayers.length === 0) {
       careLogCondition = "unknown";
@@ -300,6 +310,7 @@ export function checkCoverage(input: CoverageInput): CoverageCheck {
       const miss = firstMissedCare(piece, input.finishLayers, careLog, input.catalog ?? [], claimDate, line.careLog.graceDays);
       if (miss) {
         careLogCondition = "missed";
+        missedCare = miss;
         reasons.push(
           `care-log condition missed: ${CARE_TASK_LABELS[miss.kind].toLowerCase()} was due ${miss.dueOn} (after care on ${miss.lastCare}) and was not logged within ${line.careLog.graceDays} days`,
         );
@@ -376,5 +387,5 @@ export function checkCoverage(input: CoverageInput): CoverageCheck {
   else suggestion = "covered";
   const suggestedCoveredPct = suggestion === "covered" ? 100 : suggestion === "partly_covered" ? line.partlyCoveredPct : suggestion === "not_covered" ? 0 : null;
   reasons.push(`suggestion: ${suggestion.replace("_", " ")}${suggestedCoveredPct === null ? " — answers needed" : ` (${suggestedCoveredPct} % covered)`}; staff decide`);
-  return { suggestion, line, claimDate, termEndsOn, daysLeft, exclusionsTriggered, careLogCondition, climate, suggestedCoveredPct, questions, reasons };
+  return { suggestion, line, claimDate, termEndsOn, daysLeft, exclusionsTriggered, excludedByRecord, notTransferred, careLogCondition, missedCare, climate, suggestedCoveredPct, questions, reasons };
 }

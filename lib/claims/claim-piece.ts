@@ -15,6 +15,6 @@ export function coverageOf(claim: Claim, studio: Studio): { coverage: ClaimCover
     ? (db.select().from(warrantyPolicies).where(and(eq(warrantyPolicies.id, piece.warrantyPolicyId), eq(warrantyPolicies.studioId, claim.studioId))).get() ?? null)
     : null;
   const owns = db.select({ userId: ownerships.userId, startedAt: ownerships.startedAt }).from(ownerships).where(eq(ownerships.pieceId, piece.id)).all();
-  const coverage = claimCoverage({ claim, piece, layers, careLog, products, policyRow, ownerships: owns, timeZone: studio.timeZone });
+  const coverage = claimCoverage({ claim, piece, layers, careLog, products, policyRow, ownerships: owns, timeZone: studio.timeZone, unitSystem: studio.unitSystem });
   return { coverage, piece, layers, careLog };
 }

@@ -4,9 +4,12 @@ import type { CareLogRow, Claim, FinishLayer, FinishProduct, Ownership, Piece, W
 import { checkCoverage, DEFAULT_WARRANTY_POLICY, type CoverageCheck, type OwnerAnswers, type RoomClimateReport, type WarrantyPolicy } from "@/lib/care/coverage";
 import { localDate } from "@/lib/care/dates";
 import { CareInputError } from "@/lib/care/errors";
+import { topWidthMm } from "@/lib/care/area";
+import { formatDate, formatInstant, type UnitSystem } from "@/lib/format";
 import { toCareLayers, toCareLog, toCarePiece, toCatalog } from "@/lib/pieces/care-inputs";
 import { planOnDay, withPlanTerms, type PlanOnDay } from "@/lib/plans/coverage-terms";
 import { claimAnswersSchema, type ClaimAnswers } from "@/lib/validation/claims";
+import { coverageWorkedOut } from "./coverage-words";
 import type { ClaimSuggestion } from "./suggestion";
 
 /** The stored answers, read back through the same schema (rows written before a change fall back to "not sure"). */
@@ -35,6 +38,10 @@ export function roomClimate(a: ClaimAnswers): RoomClimateReport | undefined {
 
 export type ClaimCoverage = {
   check: CoverageCheck | null;
+  /** "How this was worked out" in plain lines for staff (empty when the check could not run). */
+  workedOut: string[];
+  /** The warranty terms by name, with the care plan that lengthened them, in words. */
+  termsName: string;
   /** Why the check could not run (bad piece record), shown instead of a suggestion. */
   error: string | null;
   policyVersion: string;
@@ -50,20 +57,25 @@ export function claimCoverage(input: {
   policyRow: Pick<WarrantyPolicyRow, "policy" | "version"> | null;
   ownerships: readonly Pick<Ownership, "userId" | "startedAt">[];
   timeZone: string;
+  /** The studio's units for the worked-out lines; metric when left out. */
+  unitSystem?: UnitSystem;
   /** The care plan on the claim's day; read from the piece's plans when left out. */
   plan?: PlanOnDay | null;
 }): ClaimCoverage {
   const notes: string[] = [];
   let policy: WarrantyPolicy;
+  let termsName: string;
   if (input.policyRow) policy = input.policyRow.policy;
   else {
     policy = DEFAULT_WARRANTY_POLICY;
     notes.push(`The piece record names no warranty version; checked against the default terms (${DEFAULT_WARRANTY_POLICY.version}).`);
   }
+  termsName = `“${policy.version}”`;
   // A running care plan lengthens (or adds) warranty lines; from the day it lapsed or ended, the base terms apply.
   const plan = input.plan !== undefined ? input.plan : planOnDay(input.piece.id, input.claim.createdAt);
   const planTerms = plan ? withPlanTerms(policy, plan, input.timeZone) : null;
   if (planTerms) policy = planTerms.policy;
+  if (plan?.covers) termsName += `, with the care plan “${plan.template.name}”`;
   const first = [...input.ownerships].sort((a, b) => a.startedAt.getTime() - b.startedAt.getTime())[0];
   const filedByOriginalOwner = first ? first.userId === input.claim.ownerId : true;
   if (!first) notes.push("No ownership history recorded; treated as filed by the original owner.");
@@ -88,11 +100,28 @@ export function claimCoverage(input: {
       timeZone: input.timeZone,
     });
     if (planTerms) check.reasons.unshift(...planTerms.reasons);
-    return { check, error: null, policyVersion: policy.version, notes };
+    const carePiece = toCarePiece(input.piece);
+    const workedOut = coverageWorkedOut(check, {
+      deliveredOn: input.piece.deliveredOn,
+      room: roomClimateReport,
+      widthMm: carePiece.shape ? topWidthMm(carePiece.shape) : undefined,
+      units: input.unitSystem ?? "metric",
+      plan: plan
+        ? { name: plan.template.name, covers: plan.covers, lapsed: plan.sub.state === "lapsed", endedOn: plan.endedAt ? formatInstant(plan.endedAt, input.timeZone) : null, changes: planTerms?.changes ?? [] }
+        : null,
+    });
+    return { check, workedOut, termsName, error: null, policyVersion: policy.version, notes };
   } catch (e) {
-    if (e instanceof CareInputError) return { check: null, error: `The coverage check could not run: ${e.message}.`, policyVersion: policy.version, notes };
+    if (e instanceof CareInputError) return { check: null, workedOut: [], termsName, error: couldNotRun(e, input.piece.deliveredOn), policyVersion: policy.version, notes };
     throw e;
   }
+}
+
+/** Why the check could not run, in words (the engine's message names fields and ISO dates). */
+function couldNotRun(e: CareInputError, deliveredOn: string): string {
+  if (e.field === "claim.filedOn") return `The coverage check could not run: the claim was filed before the piece's delivery on ${formatDate(deliveredOn)}. Check the delivery date on the piece record.`;
+  if (e.field === "piece.deliveredOn") return "The coverage check could not run: the piece record's delivery date is not a date. Correct it on the piece record.";
+  return `The coverage check could not run: ${e.message}.`;
 }
 
 /** What a decision records beside itself: the suggestion, its share and every reason. */
