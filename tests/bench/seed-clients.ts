@@ -3,6 +3,10 @@
 // every piece linked to its buyer, each owned piece's registration, a consent each, and a little
 // history (care logged, client record changes) so a timeline has several kinds to merge. Synthetic,
 // invented data only. Used by tests/bench/clients.bench.ts.
+// Fast: one transaction, and the clients' two search indexes (migration 0025's clients_fts and
+// client_titles_fts) are filled once at the end instead of by their triggers row by row (linking
+// 100,000 pieces rebuilt a client's title row, a delete and an insert in the index, for each one);
+// the triggers are set aside for the inserts and put back, unchanged, in the same transaction.
 import { randomUUID } from "node:crypto";
 import Database from "better-sqlite3";
 
@@ -23,6 +27,10 @@ export function seedClients(dbFile: string, studioId: string, staffUserId: strin
   const clientIds: string[] = [];
   let historyClientId = "";
   db.transaction(() => {
+    const triggers = db
+      .prepare("SELECT name, sql FROM sqlite_master WHERE type = 'trigger' AND (sql LIKE '%clients_fts%' OR sql LIKE '%client_titles_fts%')")
+      .all() as { name: string; sql: string }[];
+    for (const t of triggers) db.exec(`DROP TRIGGER "${t.name}"`);
     for (let i = 0; i < count; i++) {
       const id = randomUUID();
       const owner = owners[i];
@@ -48,6 +56,12 @@ export function seedClients(dbFile: string, studioId: string, staffUserId: strin
     const unowned = db.prepare("SELECT id FROM pieces WHERE owner_id IS NULL AND studio_id = ? ORDER BY rowid").pluck().all(studioId) as string[];
     const link = db.prepare("UPDATE pieces SET client_id = ? WHERE id = ?");
     if (buyers.length) unowned.forEach((pieceId, j) => link.run(buyers[j % buyers.length], pieceId));
+    // Both indexes filled as migration 0025 fills them, then their triggers back.
+    db.exec(`DELETE FROM clients_fts; DELETE FROM client_titles_fts;
+      INSERT INTO clients_fts (rowid, name, email, phone) SELECT rowid, name, coalesce(email, ''), coalesce(phone, '') FROM clients;
+      INSERT INTO client_titles_fts (rowid, titles)
+        SELECT c.rowid, group_concat(p.title, char(10)) FROM clients c JOIN pieces p ON p.client_id = c.id AND p.studio_id = c.studio_id GROUP BY c.rowid;`);
+    for (const t of triggers) db.exec(t.sql);
   })();
   db.exec("ANALYZE; PRAGMA optimize;");
   db.close();
