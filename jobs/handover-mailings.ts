@@ -14,9 +14,10 @@ import { runHandoverBatch } from "@/lib/pieces/handover-batch";
 /** A mailing untouched for this long is stalled (well past STALE_BATCH_MS, so a slow runner keeps its own). */
 export const STALLED_MAILING_MS = 5 * 60_000;
 
-export type HandoverMailingsResult = { resumed: string[] };
+/** Mailings taken up and finished, and one stopped part-way by the signal (the next pass goes on with it). */
+export type HandoverMailingsResult = { resumed: string[]; stopped: string[] };
 
-/** One pass at `now`: finishes each stalled mailing in turn (oldest first); stops between mailings on `signal`. */
+/** One pass at `now`: finishes each stalled mailing in turn (oldest first); on `signal` it stops after the mail in hand. */
 export async function handoverMailingsJob(now = new Date(), signal?: AbortSignal): Promise<HandoverMailingsResult> {
   const before = new Date(now.getTime() - STALLED_MAILING_MS);
   const stalled = getDb()
@@ -25,15 +26,17 @@ export async function handoverMailingsJob(now = new Date(), signal?: AbortSignal
     .where(or(and(eq(handoverBatches.state, "running"), lt(handoverBatches.updatedAt, before)), and(eq(handoverBatches.state, "queued"), lt(handoverBatches.createdAt, before))))
     .orderBy(asc(handoverBatches.createdAt))
     .all();
-  const resumed: string[] = [];
+  const out: HandoverMailingsResult = { resumed: [], stopped: [] };
   for (const { id } of stalled) {
     if (signal?.aborted) break;
-    if (await runHandoverBatch(id)) resumed.push(id);
+    const outcome = await runHandoverBatch(id, { signal });
+    if (outcome === "finished") out.resumed.push(id);
+    if (outcome === "stopped") out.stopped.push(id);
   }
-  return { resumed };
+  return out;
 }
 
 /** The pass's log lines. */
 export function describeHandoverMailings(r: HandoverMailingsResult): string[] {
-  return r.resumed.length ? r.resumed.map((id) => `hand-over mailing ${id}: taken up again and finished`) : [];
+  return [...r.resumed.map((id) => `hand-over mailing ${id}: taken up again and finished`), ...r.stopped.map((id) => `hand-over mailing ${id}: stopped after the mail in hand; the next pass goes on with it`)];
 }

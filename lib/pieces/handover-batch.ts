@@ -105,10 +105,12 @@ const settle = (itemId: string, outcome: HandoverItemOutcome, reason: string | n
 /**
  * Sends a mailing's pieces one by one. Only one runner works a mailing: it takes the mailing (queued,
  * or running but untouched for STALE_BATCH_MS) with a conditional update, and each item with another.
- * Never throws for one piece: a failure is recorded on its item with the reason. True when this call
- * took the mailing (and worked it to the end), false when it was done or another runner had it.
+ * Never throws for one piece: a failure is recorded on its item with the reason. "finished" when this
+ * call took the mailing and worked it to the end, "stopped" when `signal` stopped it after the mail in
+ * hand, null when it was done or another runner had it.
  */
-export async function runHandoverBatch(batchId: string, now = () => new Date()): Promise<boolean> {
+export async function runHandoverBatch(batchId: string, opts: { signal?: AbortSignal; now?: () => Date } = {}): Promise<"finished" | "stopped" | null> {
+  const now = opts.now ?? (() => new Date());
   const db = getDb();
   const start = now();
   const taken = db
@@ -117,7 +119,7 @@ export async function runHandoverBatch(batchId: string, now = () => new Date()):
     .where(and(eq(handoverBatches.id, batchId), sql`(${handoverBatches.state} = 'queued' OR (${handoverBatches.state} = 'running' AND ${handoverBatches.updatedAt} < ${start.getTime() - STALE_BATCH_MS}))`))
     .returning()
     .get();
-  if (!taken) return false;
+  if (!taken) return null;
   const ctx = batchContext(taken);
   // An item left "sending" by a runner that stopped: its mail went out if the piece's hand-over row says so.
   for (const item of db.select().from(handoverBatchItems).where(and(eq(handoverBatchItems.batchId, batchId), eq(handoverBatchItems.outcome, "sending"))).all()) {
@@ -125,6 +127,9 @@ export async function runHandoverBatch(batchId: string, now = () => new Date()):
     settle(item.id, went?.n ? "sent" : "pending", null);
   }
   for (;;) {
+    // Stopping (the scheduler's SIGTERM): the mail in hand has gone; the rest stay pending and the
+    // mailing stays "running" until its lease runs out, when the next pass takes it up again.
+    if (opts.signal?.aborted) return "stopped";
     const item = db.select().from(handoverBatchItems).where(and(eq(handoverBatchItems.batchId, batchId), eq(handoverBatchItems.outcome, "pending"))).orderBy(asc(handoverBatchItems.id)).limit(1).get();
     if (!item) break;
     const mine = db
@@ -152,7 +157,7 @@ export async function runHandoverBatch(batchId: string, now = () => new Date()):
   }
   const end = now();
   db.update(handoverBatches).set({ state: "done", finishedAt: end, updatedAt: end }).where(and(eq(handoverBatches.id, batchId), ne(handoverBatches.state, "done"))).run();
-  return true;
+  return "finished";
 }
 
 /** Starts a mailing after the caller has answered; its failures are logged, never thrown. */

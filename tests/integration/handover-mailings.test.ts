@@ -2,17 +2,17 @@
 // SQLite file and the real SMTP sink: a bulk mailing left half-sent when the server stopped is
 // finished by the pass, every remaining buyer gets exactly one hand-over mail and those already
 // mailed none; two passes at once send nothing twice; a mailing someone is still working, or one
-// just queued, is left alone. All data is invented.
+// just queued, is left alone; a stop ends a pass after the mail in hand. All data is invented.
 import { and, eq, inArray } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { handoverBatches, handoverBatchItems, warrantyPolicies } from "@/db/schema";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { sendHandover } from "@/lib/pieces/handover";
-import { createHandoverBatch, handoverBatchProgress } from "@/lib/pieces/handover-batch";
+import { createHandoverBatch, handoverBatchProgress, runHandoverBatch } from "@/lib/pieces/handover-batch";
 import { deliverPiece } from "@/lib/pieces/handover-delivery";
 import { deliverPieceSchema } from "@/lib/validation/clients";
-import { handoverMailingsJob, STALLED_MAILING_MS } from "../../jobs/handover-mailings";
+import { describeHandoverMailings, handoverMailingsJob, STALLED_MAILING_MS } from "../../jobs/handover-mailings";
 import { createStudio, memberContext, unique } from "../support/fixtures";
 import { listMail } from "../support/mail";
 
@@ -103,5 +103,31 @@ describe("the stalled hand-over mailing pass", () => {
     const states = getDb().select({ id: handoverBatches.id, state: handoverBatches.state }).from(handoverBatches).where(inArray(handoverBatches.id, [working.id, justQueued.id])).all();
     expect(Object.fromEntries(states.map((s) => [s.id, s.state]))).toEqual({ [working.id]: "running", [justQueued.id]: "queued" });
     expect([await mailsTo(early), await mailsTo(busy), await mailsTo(fresh)]).toEqual([1, 0, 0]);
+  });
+
+  it("a stop (the scheduler's SIGTERM) ends the pass after the mail in hand; the next pass sends the rest, each buyer once", async () => {
+    const { staff } = await world();
+    const emails = [0, 1, 2, 3].map((i) => `${unique(`stop${i}`)}@test.example`);
+    const ids: string[] = [];
+    for (const email of emails) ids.push(await delivered(staff, email));
+    const batch = createHandoverBatch(staff, { pieceIds: ids });
+    const stalledSince = ago(STALLED_MAILING_MS + 60_000);
+    getDb().update(handoverBatches).set({ createdAt: stalledSince, updatedAt: stalledSince }).where(eq(handoverBatches.id, batch.id)).run();
+    const sentItems = () => getDb().select().from(handoverBatchItems).where(and(eq(handoverBatchItems.batchId, batch.id), eq(handoverBatchItems.outcome, "sent"))).all().length;
+
+    // The signal comes while the first buyer's mail is going out.
+    const shutdown = new AbortController();
+    const first = await runHandoverBatch(batch.id, { signal: shutdown.signal, now: () => (sentItems() === 1 && shutdown.abort(), new Date()) });
+
+    expect(first).toBe("stopped");
+    expect(handoverBatchProgress(staff, batch.id)).toMatchObject({ state: "running", total: 4, sent: 1, finished: 1 });
+    expect((await Promise.all(emails.map(mailsTo))).reduce((a, b) => a + b)).toBe(1);
+    expect(describeHandoverMailings({ resumed: [], stopped: [batch.id] })).toEqual([`hand-over mailing ${batch.id}: stopped after the mail in hand; the next pass goes on with it`]);
+
+    // Once its hold has run out, the next pass finishes it.
+    getDb().update(handoverBatches).set({ updatedAt: stalledSince }).where(eq(handoverBatches.id, batch.id)).run();
+    expect((await handoverMailingsJob()).resumed).toContain(batch.id);
+    expect(handoverBatchProgress(staff, batch.id)).toMatchObject({ state: "done", total: 4, sent: 4, failed: [], skipped: [] });
+    for (const email of emails) expect(await mailsTo(email), email).toBe(1);
   });
 });
