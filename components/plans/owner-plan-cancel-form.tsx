@@ -2,9 +2,9 @@
 // The owner's cancel control for the plan on their piece (data from lib/plans/cancel myPlanControl):
 // a confirm step that names the day the plan ends, with its zone, and the refund that applies; and,
 // while a cancelled plan hasn't ended and nothing was paid back, a way to keep it.
-import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { apiJson, isApiError } from "@/components/api-client";
+import { apiJson } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { formatInstant, formatMoney, formatZone } from "@/lib/format";
 import type { OwnerPlanControl } from "@/lib/plans/cancel";
@@ -12,25 +12,14 @@ import type { OwnerPlanControl } from "@/lib/plans/cancel";
 const monthsWord = (n: number) => (n === 1 ? "one unused month" : `${n} unused months`);
 
 export function OwnerPlanCancelForm({ control, timeZone, country }: { control: OwnerPlanControl; timeZone: string; country: string }) {
-  const router = useRouter();
   const [confirming, setConfirming] = useState(false);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { run, busy, error } = useRefreshingMutation(
+    ({ path, json }: { path: "cancel" | "keep"; json: Record<string, number> }) => apiJson(`/api/me/plans/${control.subscriptionId}/${path}`, { method: "POST", json }),
+    { onSuccess: () => setConfirming(false) },
+  );
+  const send = (path: "cancel" | "keep", json: Record<string, number>) => run({ path, json });
   const day = (ms: number) => `${formatInstant(ms, timeZone)} (${formatZone(timeZone)})`;
   const money = (minor: number) => formatMoney(minor, control.quote?.currency ?? "USD", country);
-
-  async function send(path: "cancel" | "keep", json: Record<string, number>) {
-    setBusy(true);
-    setError(null);
-    try {
-      await apiJson(`/api/me/plans/${control.subscriptionId}/${path}`, { method: "POST", json });
-      setConfirming(false);
-      router.refresh();
-    } catch (e) {
-      setError(isApiError(e) ? e.message : "That didn't go through. Check your connection and try again.");
-    }
-    setBusy(false);
-  }
 
   const alert = error ? (
     <p role="alert" className="text-sm text-danger">

@@ -2,9 +2,9 @@
 // Staff cancel a plan (at the end of its paid time, with the refund the template's rule gives) or take a
 // cancellation back — the same confirm-what-you-were-shown rule as the owner's control: the plan version
 // and refund shown here go with the request, and a plan that changed since answers 409 with words.
-import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { apiJson, isApiError } from "@/components/api-client";
+import { apiJson } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 
 export type StaffPlanAction =
@@ -13,24 +13,13 @@ export type StaffPlanAction =
   | { kind: "none" };
 
 export function StaffPlanActions({ action }: { action: StaffPlanAction }) {
-  const router = useRouter();
   const [confirming, setConfirming] = useState(false);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { run, busy, error } = useRefreshingMutation(
+    ({ path, json }: { path: "cancel" | "keep"; json: Record<string, number> }) => apiJson(`/api/plans/subscriptions/${action.kind === "none" ? "" : action.subscriptionId}/${path}`, { method: "POST", json }),
+    { onSuccess: () => setConfirming(false) },
+  );
   if (action.kind === "none") return null;
-
-  async function send(path: "cancel" | "keep", json: Record<string, number>) {
-    setBusy(true);
-    setError(null);
-    try {
-      await apiJson(`/api/plans/subscriptions/${action.kind === "none" ? "" : action.subscriptionId}/${path}`, { method: "POST", json });
-      setConfirming(false);
-      router.refresh();
-    } catch (e) {
-      setError(isApiError(e) ? e.message : "That didn't go through. Check your connection and try again.");
-    }
-    setBusy(false);
-  }
+  const send = (path: "cancel" | "keep", json: Record<string, number>) => run({ path, json });
   const alert = error ? (
     <p role="alert" className="text-sm text-danger">
       {error}

@@ -1,27 +1,17 @@
 "use client";
-import { useRouter } from "next/navigation";
-import { useState } from "react";
-import { apiJson, isApiError } from "@/components/api-client";
+import { apiJson } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 
 const field = "w-full rounded-lg border border-line bg-card px-3 py-2";
 
 /** Staff start a plan for a client who paid by other means (POST /api/plans/subscriptions). */
 export function StartPlanForm({ pieceId, pieceTitle, options }: { pieceId: string; pieceTitle: string; options: { id: string; label: string }[] }) {
-  const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  async function submit(form: FormData) {
-    setBusy(true);
-    setError(null);
-    try {
-      await apiJson("/api/plans/subscriptions", { method: "POST", json: { pieceId, templateId: String(form.get("templateId")), paidByNote: String(form.get("paidByNote") ?? "") } });
-      router.refresh();
-    } catch (e) {
-      setError(isApiError(e) ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : "The plan couldn't be started. Try again.");
-    }
-    setBusy(false);
-  }
+  const { run, busy, error } = useRefreshingMutation(
+    (form: FormData) => apiJson("/api/plans/subscriptions", { method: "POST", json: { pieceId, templateId: String(form.get("templateId")), paidByNote: String(form.get("paidByNote") ?? "") } }),
+    { withFieldErrors: true },
+  );
+  const submit = (form: FormData) => run(form);
   return (
     <form action={submit} className="space-y-2" aria-label={`Start a plan for ${pieceTitle}`}>
       <label className="block space-y-1 text-sm">
