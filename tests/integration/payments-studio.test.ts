@@ -3,14 +3,11 @@
 // request came with, and keeps accounts apart as Stripe does), a studio without one under the
 // install's key; events from the studio's account reach its own endpoint and are verified with the
 // signing secret it saved, so one signed with another studio's secret is refused.
-import http from "node:http";
-import type { AddressInfo } from "node:net";
 import { eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { auditLog, payments, repairJobs, studios } from "@/db/schema";
-import { AppError } from "@/lib/errors";
 import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { getStripe } from "@/lib/payments/stripe";
 import { createJob, getStudioJob } from "@/lib/repairs/jobs";
@@ -18,6 +15,7 @@ import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote }
 import { saveStripeWebhookSecret, stripeAccountStatus } from "@/lib/studio/setup-payments";
 import { saveStripeKey } from "@/lib/studio/setup-steps";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { startWebhookReceiver, until, type WebhookReceiver } from "../support/stripe-receiver";
 
 // Invented keys of two studios' own (test-mode) Stripe accounts.
 const A = { secretKey: "sk_test_studio_a_invented_4e1f", webhookSecret: "whsec_studio_a_invented_77aa" };
@@ -26,27 +24,17 @@ const INSTALL_KEY = process.env.STRIPE_SECRET_KEY!;
 
 let fake: StripeFake;
 let studioA: ReturnType<typeof createStudio>;
-let receiver: http.Server;
+let receiver: WebhookReceiver;
 const answers: { path: string; status: number }[] = [];
 
 beforeAll(async () => {
   // Stands in for the app's endpoints: /install → the install's endpoint, /studio/:id → a studio's.
-  receiver = http.createServer(async (req, res) => {
-    const chunks: Buffer[] = [];
-    for await (const c of req) chunks.push(c as Buffer);
-    const studioId = req.url?.startsWith("/studio/") ? req.url.slice("/studio/".length) : undefined;
-    let status = 200;
-    try {
-      await handleStripeWebhook(Buffer.concat(chunks).toString("utf8"), (req.headers["stripe-signature"] as string) ?? null, studioId);
-    } catch (e) {
-      status = e instanceof AppError ? e.status : 500;
-    }
-    answers.push({ path: req.url ?? "", status });
-    res.writeHead(status).end("{}");
-  });
-  await new Promise<void>((r) => receiver.listen(0, "127.0.0.1", () => r()));
+  receiver = await startWebhookReceiver(
+    (raw, sig, path) => handleStripeWebhook(raw, sig, path.startsWith("/studio/") ? path.slice("/studio/".length) : undefined),
+    (status, path) => answers.push({ path, status }),
+  );
   studioA = createStudio({ email: `${unique("a")}@test.example`, currency: "USD", labourRateMinor: 8000, taxRateBp: 0 });
-  const base = `http://127.0.0.1:${(receiver.address() as AddressInfo).port}`;
+  const base = receiver.url;
   fake = await startStripeFake({
     port: Number(process.env.STRIPE_API_PORT),
     secretKey: INSTALL_KEY,
@@ -59,18 +47,8 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await fake.close();
-  await new Promise((r) => receiver.close(r));
+  await receiver.close();
 });
-
-async function until<T>(fn: () => T | undefined | null | false, ms = 8000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = fn();
-    if (v) return v;
-    if (Date.now() > end) throw new Error("timed out waiting");
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
 
 async function quotedJob(studio: ReturnType<typeof createStudio>) {
   const staff = await memberContext(studio, "staff");

@@ -1,7 +1,5 @@
 // Repair jobs paid through the real stripe SDK against the local Stripe fake over HTTP. The fake's
 // webhooks arrive at a small receiver in this test that hands the raw body to the product's handler.
-import http from "node:http";
-import type { AddressInfo } from "node:net";
 import { eq } from "drizzle-orm";
 import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
@@ -10,7 +8,6 @@ import { JobPayments } from "@/components/jobs/job-payments";
 import { getDb } from "@/db/client";
 import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
 import { DECLINE_CARD, startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
-import { AppError } from "@/lib/errors";
 import { getStudioJob, createJob } from "@/lib/repairs/jobs";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { getStripe } from "@/lib/payments/stripe";
@@ -20,9 +17,10 @@ import { createAcceptedClaim, createPiece, createProduct, createStudio, createUs
 import { replyAddress } from "@/lib/messages/reply-address";
 import { findThread } from "@/lib/messages/store";
 import { listMail, waitForMail } from "../support/mail";
+import { startWebhookReceiver, until, type WebhookReceiver } from "../support/stripe-receiver";
 
 let fake: StripeFake;
-let receiver: http.Server;
+let receiver: WebhookReceiver;
 const webhookAnswers: number[] = [];
 // While held, deliveries wait at the receiver (the fake waits up to 10 s for an answer): the app has
 // not yet heard of payments the fake has already taken, as when webhooks are slow or out of order.
@@ -38,44 +36,26 @@ function holdWebhooks() {
 }
 
 beforeAll(async () => {
-  receiver = http.createServer(async (req, res) => {
-    const chunks: Buffer[] = [];
-    for await (const c of req) chunks.push(c as Buffer);
-    if (held) await held;
-    try {
-      await handleStripeWebhook(Buffer.concat(chunks).toString("utf8"), (req.headers["stripe-signature"] as string) ?? null);
-      res.writeHead(200).end("{}");
-      webhookAnswers.push(200);
-    } catch (e) {
-      const status = e instanceof AppError ? e.status : 500;
-      webhookAnswers.push(status);
-      res.writeHead(status).end();
-    }
-  });
-  await new Promise<void>((r) => receiver.listen(0, "127.0.0.1", () => r()));
+  receiver = await startWebhookReceiver(
+    async (raw, sig) => {
+      if (held) await held;
+      return handleStripeWebhook(raw, sig);
+    },
+    (status) => webhookAnswers.push(status),
+  );
   fake = await startStripeFake({
     port: Number(process.env.STRIPE_API_PORT),
     secretKey: process.env.STRIPE_SECRET_KEY!,
     webhookSecret: process.env.STRIPE_WEBHOOK_SECRET!,
-    webhookUrl: `http://127.0.0.1:${(receiver.address() as AddressInfo).port}/`,
+    webhookUrl: `${receiver.url}/`,
     retryDelaysMs: [200, 400],
   });
 });
 
 afterAll(async () => {
   await fake.close();
-  await new Promise((r) => receiver.close(r));
+  await receiver.close();
 });
-
-async function until<T>(fn: () => T | undefined | null | false, ms = 8000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = fn();
-    if (v) return v;
-    if (Date.now() > end) throw new Error("timed out waiting");
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
 
 /** Pays on the fake's hosted page as a browser would: a form POST with the card number. */
 async function payOnPage(url: string, card: string) {
