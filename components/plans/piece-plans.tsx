@@ -5,9 +5,8 @@ import { CARE_TASK_LABELS } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { formatInstant, formatMoney } from "@/lib/format";
 import type { PiecePlan, PlanOffer } from "@/lib/plans/offers";
+import { formatPlanPrice } from "@/lib/plans/price-words";
 import { BuyPlanButton } from "./buy-plan-button";
-
-const per = (o: Pick<PlanOffer, "interval">) => (o.interval === "year" ? "a year" : "a month");
 
 function included(o: PlanOffer): string[] {
   const out: string[] = [];
@@ -43,7 +42,7 @@ export function PiecePlans({ pieceId, timeZone, current, offers, country }: { pi
               <Card className="space-y-2 p-4">
                 <p className="font-semibold">{o.name}</p>
                 <p>
-                  {formatMoney(o.priceMinor, o.currency, country)} {per(o)}
+                  {formatPlanPrice(o.priceMinor, o.currency, o.interval, country)}
                   {o.taxMinor > 0 ? ` (including ${formatMoney(o.taxMinor, o.currency, country)} tax)` : ""}
                 </p>
                 {o.summary ? <p className="text-sm text-muted">{o.summary}</p> : null}

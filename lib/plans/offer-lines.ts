@@ -6,6 +6,7 @@ import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { formatMoney } from "@/lib/format";
 import type { PlanOfferLine } from "@/emails/components/plan-offers";
 import type { PlanOffer } from "./offers";
+import { formatPlanPrice } from "./price-words";
 
 export type { PlanOfferLine };
 
@@ -57,7 +58,7 @@ export function planOfferLines(
       : null;
     return {
       name: o.name,
-      price: `${money(o.priceMinor)} ${o.interval === "month" ? "a month" : "a year"}${o.taxMinor ? `, including ${money(o.taxMinor)} tax` : ""}`,
+      price: `${formatPlanPrice(o.priceMinor, o.currency, o.interval, country)}${o.taxMinor ? `, including ${money(o.taxMinor)} tax` : ""}`,
       includes,
       lastYear,
     };

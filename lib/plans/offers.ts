@@ -13,6 +13,7 @@ import { priceJob } from "@/lib/repairs/pricing";
 import { PLAN_STATE_LABELS, type PlanState } from "./states";
 import { livePlanOfPiece } from "./subscriptions";
 import { planOfferLines, type PlanOfferLine } from "./offer-lines";
+import type { PricedPlan } from "./price-words";
 import { planPrice } from "./price";
 import { LAST_YEAR_DAYS, lastYearSavings, type LastYearSavings, type LoggedCare } from "./savings";
 import { templatesFitting } from "./templates";
@@ -33,7 +34,7 @@ export type PlanOffer = {
   lastYear: LastYearSavings | null;
 };
 
-export type PiecePlan = { subscriptionId: string; name: string; version: number; state: PlanState; stateLabel: string; periodEnd: number | null; paidBy: "card" | "other" };
+export type PiecePlan = PricedPlan & { subscriptionId: string; name: string; version: number; state: PlanState; stateLabel: string; periodEnd: number | null; paidBy: "card" | "other" };
 
 /** The one-off price of a studio visit doing `kind`, priced as a repair job would be (tax included). */
 function visitPrice(studio: Studio, piece: Piece, kind: CareTaskKind, products: (typeof finishProducts.$inferSelect)[]): number {
@@ -89,7 +90,20 @@ export function piecePlan(pieceId: string): PiecePlan | null {
   const live = livePlanOfPiece(pieceId);
   if (!live) return null;
   const { sub, template } = live;
-  return { subscriptionId: sub.id, name: template.name, version: template.version, state: sub.state, stateLabel: PLAN_STATE_LABELS[sub.state], periodEnd: sub.periodEnd?.getTime() ?? null, paidBy: sub.paidBy };
+  return {
+    subscriptionId: sub.id,
+    name: template.name,
+    version: template.version,
+    state: sub.state,
+    stateLabel: PLAN_STATE_LABELS[sub.state],
+    periodEnd: sub.periodEnd?.getTime() ?? null,
+    paidBy: sub.paidBy,
+    amountMinor: sub.amountMinor,
+    currency: sub.currency,
+    interval: template.interval,
+    pricedAt: template.createdAt.getTime(),
+    superseded: template.supersededAt !== null,
+  };
 }
 
 /** For the owner's own piece (else 404): the plan it is under, and the plans that fit it. */

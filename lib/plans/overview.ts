@@ -38,7 +38,7 @@ export function planOverview(ctx: StudioActor, now = new Date()) {
 /** Every plan of the studio for the plans list (staff), newest first. */
 export function listStudioPlans(ctx: StudioActor, filter: { renewalsDue?: boolean } = {}, now = new Date()) {
   const rows = getDb()
-    .select({ id: planSubscriptions.id, state: planSubscriptions.state, paidBy: planSubscriptions.paidBy, periodEnd: planSubscriptions.periodEnd, amountMinor: planSubscriptions.amountMinor, currency: planSubscriptions.currency, planName: planTemplates.name, version: planTemplates.version, pieceId: pieces.id, pieceTitle: pieces.title, ownerName: users.name })
+    .select({ id: planSubscriptions.id, state: planSubscriptions.state, paidBy: planSubscriptions.paidBy, periodEnd: planSubscriptions.periodEnd, amountMinor: planSubscriptions.amountMinor, currency: planSubscriptions.currency, planName: planTemplates.name, interval: planTemplates.interval, pricedAt: planTemplates.createdAt, supersededAt: planTemplates.supersededAt, pieceId: pieces.id, pieceTitle: pieces.title, ownerName: users.name })
     .from(planSubscriptions)
     .innerJoin(planTemplates, eq(planTemplates.id, planSubscriptions.templateId))
     .innerJoin(pieces, eq(pieces.id, planSubscriptions.pieceId))
@@ -52,5 +52,5 @@ export function listStudioPlans(ctx: StudioActor, filter: { renewalsDue?: boolea
     .orderBy(planSubscriptions.createdAt)
     .limit(500)
     .all();
-  return rows.reverse().map((r) => ({ ...r, stateLabel: PLAN_STATE_LABELS[r.state] }));
+  return rows.reverse().map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null, stateLabel: PLAN_STATE_LABELS[r.state] }));
 }

@@ -2,7 +2,8 @@
 import { StartPlanForm } from "@/components/plans/start-plan-form";
 import { Card } from "@/components/ui/card";
 import type { StudioActor } from "@/lib/auth/actor";
-import { formatInstant, formatMoney } from "@/lib/format";
+import { formatInstant } from "@/lib/format";
+import { formatPlanPrice, planPriceWords } from "@/lib/plans/price-words";
 import { clientPiecePlans } from "@/lib/plans/staff";
 
 export function ClientPlansSection({ ctx, pieceIds }: { ctx: StudioActor; pieceIds: string[] }) {
@@ -19,7 +20,7 @@ export function ClientPlansSection({ ctx, pieceIds }: { ctx: StudioActor; pieceI
             <p className="font-medium">{r.title}</p>
             {r.plan ? (
               <p className="text-sm" data-testid="client-piece-plan">
-                {r.plan.name} (version {r.plan.version}) · {r.plan.stateLabel}
+                {r.plan.name} · {planPriceWords(r.plan, ctx.studio.country, ctx.studio.timeZone)} · {r.plan.stateLabel}
                 {r.plan.periodEnd ? ` · paid to ${formatInstant(r.plan.periodEnd, ctx.studio.timeZone)}` : ""} · {r.plan.paidBy === "card" ? "paid by card" : "paid by other means"}
               </p>
             ) : !r.hasOwner ? (
@@ -28,7 +29,7 @@ export function ClientPlansSection({ ctx, pieceIds }: { ctx: StudioActor; pieceI
               <StartPlanForm
                 pieceId={r.pieceId}
                 pieceTitle={r.title}
-                options={r.fitting.map((f) => ({ id: f.id, label: `${f.name} — ${formatMoney(f.priceMinor, f.currency, ctx.studio.country)} ${f.interval === "year" ? "a year" : "a month"}` }))}
+                options={r.fitting.map((f) => ({ id: f.id, label: `${f.name} — ${formatPlanPrice(f.priceMinor, f.currency, f.interval, ctx.studio.country)}` }))}
               />
             ) : (
               <p className="text-sm text-muted">No plan fits this piece.</p>

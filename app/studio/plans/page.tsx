@@ -3,8 +3,9 @@ import Link from "next/link";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatInstant, formatMoney } from "@/lib/format";
+import { formatInstant } from "@/lib/format";
 import { listStudioPlans } from "@/lib/plans/overview";
+import { planPriceWords } from "@/lib/plans/price-words";
 
 export const metadata: Metadata = { title: "Care plans" };
 
@@ -26,7 +27,7 @@ export default async function StudioPlansPage({ searchParams }: { searchParams: 
                   {p.pieceTitle}
                 </Link>
                 <p className="text-sm text-muted">
-                  {p.planName} (version {p.version}) · {p.stateLabel} · {p.ownerName ?? "no owner"} · {formatMoney(p.amountMinor, p.currency, ctx.studio.country)}
+                  {p.planName} · {p.stateLabel} · {p.ownerName ?? "no owner"} · {planPriceWords(p, ctx.studio.country, ctx.studio.timeZone)}
                   {p.periodEnd ? ` · paid to ${formatInstant(p.periodEnd, ctx.studio.timeZone)}` : ""} · {p.paidBy === "card" ? "by card" : "paid by other means"}
                 </p>
               </li>

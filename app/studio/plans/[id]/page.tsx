@@ -7,6 +7,7 @@ import { forPage } from "@/lib/auth/page";
 import { formatInstant, formatMoney, formatZone } from "@/lib/format";
 import { studioPlanDetail } from "@/lib/plans/cancel";
 import { listStudioPlans } from "@/lib/plans/overview";
+import { planPriceWords } from "@/lib/plans/price-words";
 
 export const metadata: Metadata = { title: "Care plan" };
 
@@ -47,7 +48,7 @@ export default async function StudioPlanPage({ params }: { params: Promise<{ id:
         <Card className="space-y-2">
           <h2 className="font-display text-xl font-semibold">The plan</h2>
           <p className="text-sm">
-            {money(sub.amountMinor)} {row ? `(version ${row.version})` : ""}
+            {row ? planPriceWords(row, ctx.studio.country, tz) : money(sub.amountMinor)}
           </p>
           {sub.periodEnd ? <p className="text-sm">Paid to {day(sub.periodEnd)}.</p> : null}
           {sub.state === "ending" && (sub.endsAt ?? sub.periodEnd) ? <p className="text-sm">Cancelled: it ends on {day((sub.endsAt ?? sub.periodEnd)!)}.</p> : null}
