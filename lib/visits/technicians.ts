@@ -4,8 +4,8 @@ import type { z } from "zod";
 import { getDb } from "@/db/client";
 import { technicianHours, technicianTimeOff } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
-import type { StudioContext } from "@/lib/auth/guards";
-import { forbidden, notFound } from "@/lib/errors";
+import { assertRole, type StudioContext } from "@/lib/auth/guards";
+import { notFound } from "@/lib/errors";
 import type { technicianHoursSchema } from "@/lib/validation/visits";
 import { isStudioTechnician, studioTechnicians, timeOffRows, weeklyHours } from "./availability";
 import { hoursByTechnician, timeOffByTechnician } from "./visits-sql";
@@ -15,10 +15,8 @@ import { hoursByTechnician, timeOffByTechnician } from "./visits-sql";
 export type TechnicianHoursValues = z.output<typeof technicianHoursSchema>;
 
 function technicianFor(ctx: StudioContext, technicianId: string, write: boolean) {
-  if (ctx.role === "technician" && (write || technicianId !== ctx.user.id)) {
-    if (technicianId !== ctx.user.id) throw notFound("No such technician.");
-    throw forbidden("The studio office sets working hours.");
-  }
+  if (ctx.role === "technician" && technicianId !== ctx.user.id) throw notFound("No such technician.");
+  if (write) assertRole(ctx, ["admin", "staff"], "The studio office sets working hours.");
   if (!isStudioTechnician(getDb(), ctx.studio.id, technicianId)) throw notFound("No such technician.");
 }
 

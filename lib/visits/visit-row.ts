@@ -1,8 +1,9 @@
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { pieces, repairJobs, studios, visits, type Piece, type RepairJob, type Studio, type Visit } from "@/db/schema";
-import type { Actor } from "@/lib/auth/actor";
-import { conflict, forbidden, notFound } from "@/lib/errors";
+import { isStudioActor, type Actor } from "@/lib/auth/actor";
+import { assertRole } from "@/lib/auth/guards";
+import { conflict, notFound } from "@/lib/errors";
 import { visitRulesFor } from "./availability";
 import { visitVisibleTo } from "./visible";
 
@@ -50,7 +51,7 @@ export function liveVisitOfJob(jobId: string): Visit | undefined {
 /** Moving and cancelling: a booked visit that has not started; owners until the studio's cut-off; never a technician. */
 export function ownerMayChange(actor: Actor, visit: Visit, studioId: string, now: number, verb: string) {
   if (visit.state !== "booked") throw conflict(visit.state === "done" ? `This visit is done and can't be ${verb}.` : "This visit was cancelled.");
-  if (actor.role === "technician") throw forbidden(`Ask the studio office to ${verb === "moved" ? "move" : "cancel"} a visit.`);
+  if (isStudioActor(actor)) assertRole(actor, ["admin", "staff"], `Ask the studio office to ${verb === "moved" ? "move" : "cancel"} a visit.`);
   if (visit.startAt.getTime() <= now) throw conflict(`This visit has started and can't be ${verb}.`);
   if (actor.role === "owner") {
     const cutoff = visitRulesFor(getDb(), studioId).ownerChangeCutoffHours;

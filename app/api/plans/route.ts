@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { isStudioActor } from "@/lib/auth/actor";
+import { isStaff } from "@/lib/auth/actor";
 import { badRequest } from "@/lib/errors";
 import { route } from "@/lib/http/route";
 import { plansForMyPiece } from "@/lib/plans/offers";
@@ -11,7 +11,7 @@ const query = z.object({ pieceId: z.string().min(1).max(64).optional() });
 // Staff: the studio's plan templates (current versions). An owner, with ?pieceId=: the plans that fit
 // that piece of theirs (another owner's piece is a 404), or the plan it is under.
 export const GET = route({ roles: ["admin", "staff", "owner"], query }, ({ actor, query }) => {
-  if (isStudioActor(actor) && (actor.role === "admin" || actor.role === "staff")) return { plans: listTemplates(actor.studio.id) };
+  if (isStaff(actor)) return { plans: listTemplates(actor.studio.id) };
   if (!query.pieceId) throw badRequest("Say which piece: ?pieceId=…", { pieceId: ["Required."] });
   return plansForMyPiece(actor.user, query.pieceId);
 });
