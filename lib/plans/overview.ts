@@ -1,6 +1,6 @@
 // The overview's care plan figures: plans running, renewals due in the next 30 days, plans lapsed in
 // the last 12 months, and plan revenue by month (counted payments only, by the month paid, studio zone).
-import { and, eq, gte, inArray, lte } from "drizzle-orm";
+import { and, desc, eq, gte, inArray, lte, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { pieces, planInvoices, planSubscriptions, planTemplates, users } from "@/db/schema";
 import type { StudioActor } from "@/lib/auth/actor";
@@ -35,22 +35,31 @@ export function planOverview(ctx: StudioActor, now = new Date()) {
   return { running, renewalsDue, lapsed, inGrace, revenue, totalMinor: revenue.reduce((s, r) => s + r.amountMinor, 0), currency: ctx.studio.currency };
 }
 
-/** Every plan of the studio for the plans list (staff), newest first. */
-export function listStudioPlans(ctx: StudioActor, filter: { renewalsDue?: boolean } = {}, now = new Date()) {
+function studioPlanRows(ctx: StudioActor, where: SQL | undefined, limit: number) {
   const rows = getDb()
     .select({ id: planSubscriptions.id, state: planSubscriptions.state, paidBy: planSubscriptions.paidBy, periodEnd: planSubscriptions.periodEnd, amountMinor: planSubscriptions.amountMinor, currency: planSubscriptions.currency, planName: planTemplates.name, interval: planTemplates.interval, pricedAt: planTemplates.createdAt, supersededAt: planTemplates.supersededAt, pieceId: pieces.id, pieceTitle: pieces.title, ownerName: users.name })
     .from(planSubscriptions)
     .innerJoin(planTemplates, eq(planTemplates.id, planSubscriptions.templateId))
     .innerJoin(pieces, eq(pieces.id, planSubscriptions.pieceId))
     .leftJoin(users, eq(users.id, planSubscriptions.ownerId))
-    .where(
-      and(
-        eq(planSubscriptions.studioId, ctx.studio.id),
-        filter.renewalsDue ? and(eq(planSubscriptions.state, "running"), lte(planSubscriptions.periodEnd, new Date(now.getTime() + RENEWAL_WINDOW_DAYS * DAY))) : inArray(planSubscriptions.state, ["running", "grace", "ending", "lapsed", "ended"]),
-      ),
-    )
-    .orderBy(planSubscriptions.createdAt)
-    .limit(500)
+    .where(and(eq(planSubscriptions.studioId, ctx.studio.id), where))
+    .orderBy(desc(planSubscriptions.createdAt), desc(planSubscriptions.id))
+    .limit(limit)
     .all();
-  return rows.reverse().map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null, stateLabel: PLAN_STATE_LABELS[r.state] }));
+  return rows.map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null, stateLabel: PLAN_STATE_LABELS[r.state] }));
+}
+
+export type StudioPlanRow = ReturnType<typeof studioPlanRows>[number];
+
+/** Every plan of the studio for the plans list (staff), newest first (the newest 500). */
+export function listStudioPlans(ctx: StudioActor, filter: { renewalsDue?: boolean } = {}, now = new Date()): StudioPlanRow[] {
+  const which = filter.renewalsDue
+    ? and(eq(planSubscriptions.state, "running"), lte(planSubscriptions.periodEnd, new Date(now.getTime() + RENEWAL_WINDOW_DAYS * DAY)))
+    : inArray(planSubscriptions.state, ["running", "grace", "ending", "lapsed", "ended"]);
+  return studioPlanRows(ctx, which, 500);
+}
+
+/** One plan of the studio, as the list shows it (its own page); another studio's is undefined. */
+export function studioPlanRow(ctx: StudioActor, subscriptionId: string): StudioPlanRow | undefined {
+  return studioPlanRows(ctx, eq(planSubscriptions.id, subscriptionId), 1)[0];
 }

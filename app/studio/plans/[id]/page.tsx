@@ -6,7 +6,7 @@ import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatInstant, formatMoney, formatZone } from "@/lib/format";
 import { studioPlanDetail } from "@/lib/plans/cancel";
-import { listStudioPlans } from "@/lib/plans/overview";
+import { studioPlanRow } from "@/lib/plans/overview";
 import { planPriceWords } from "@/lib/plans/price-words";
 
 export const metadata: Metadata = { title: "Care plan" };
@@ -19,7 +19,7 @@ export default async function StudioPlanPage({ params }: { params: Promise<{ id:
     const ctx = await requireStaff();
     return { ctx, detail: studioPlanDetail(ctx, id) };
   });
-  const row = listStudioPlans(ctx, {}).find((p) => p.id === id);
+  const row = studioPlanRow(ctx, id);
   const sub = detail.subscription;
   const tz = ctx.studio.timeZone;
   const money = (minor: number) => formatMoney(minor, sub.currency, ctx.studio.country);
