@@ -1,4 +1,5 @@
 import { defineConfig } from "@playwright/test";
+import { E2E_APP_URL, E2E_EMPTY_DATABASE } from "./scripts/e2e-config.mjs";
 import { shiftBrowserClocks, withoutFaketime } from "./tests/support/browser-clock";
 
 // Set by scripts/e2e-week.mjs, which runs this suite under libfaketime: Chromium is kept off it and its
@@ -15,9 +16,11 @@ export default defineConfig({
   timeout: 60_000,
   expect: { timeout: 10_000 },
   reporter: [["list"], ["json", { outputFile: process.env.PLAYWRIGHT_JSON_OUTPUT_NAME ?? "test-results/results.json" }]],
-  outputDir: "test-results",
+  // The empty-install run keeps its traces apart: it may run beside the seeded one (scripts/test.mjs),
+  // and each run empties its output folder when it starts.
+  outputDir: E2E_EMPTY_DATABASE ? "tests/.tmp/test-results-empty-install" : "test-results",
   use: {
-    baseURL: "http://localhost:3100",
+    baseURL: E2E_APP_URL,
     trace: "retain-on-failure",
     screenshot: "only-on-failure",
     launchOptions: {
@@ -29,7 +32,7 @@ export default defineConfig({
   projects: [{ name: "chromium", use: { browserName: "chromium" } }],
   webServer: {
     command: "node scripts/e2e-server.mjs",
-    url: "http://localhost:3100/api/health",
+    url: `${E2E_APP_URL}/api/health`,
     reuseExistingServer: false,
     timeout: 120_000,
     stdout: "pipe",

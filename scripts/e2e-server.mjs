@@ -1,23 +1,23 @@
 // The server Playwright tests run against: a production build over a fresh, seeded database, with
-// the SMTP sink. Ports are fixed and differ from the demo's, so both can run at once.
+// the SMTP sink. Ports differ from the demo's, so both can run at once (scripts/e2e-config.mjs: fixed by
+// default, E2E_PORT_BASE moves them).
+import { E2E_APP_URL, E2E_DATA_DIR, E2E_DATABASE, E2E_EMPTY_DATABASE, E2E_PORTS, E2E_SINK_URL } from "./e2e-config.mjs";
 import { removeDatabase, runStep, supervise } from "./services.mjs";
 
 // E2E_EMPTY_DATABASE=1: no seed, and STUDIO_SIGNUP closed, so only the first-studio rule lets a stranger
 // start one (tests/e2e/studio-setup.spec.ts: E2E_EMPTY_DATABASE=1 npx playwright test tests/e2e/studio-setup.spec.ts).
-const emptyDatabase = process.env.E2E_EMPTY_DATABASE === "1";
-
-export const E2E = { appPort: "3100", smtpPort: "2625", sinkPort: "2626", stripePort: "12112", inboundPort: "2627" };
+const emptyDatabase = E2E_EMPTY_DATABASE;
 
 const env = {
   ...process.env,
   NODE_ENV: "production",
   NEXT_TELEMETRY_DISABLED: "1",
-  DATABASE_URL: "tests/.tmp/e2e.db",
-  DATA_DIR: "tests/.tmp/e2e-data",
-  APP_URL: `http://localhost:${E2E.appPort}`,
-  SMTP_PORT: E2E.smtpPort,
-  MAIL_SINK_HTTP_PORT: E2E.sinkPort,
-  MAIL_SINK_URL: `http://127.0.0.1:${E2E.sinkPort}`,
+  DATABASE_URL: E2E_DATABASE,
+  DATA_DIR: E2E_DATA_DIR,
+  APP_URL: E2E_APP_URL,
+  SMTP_PORT: String(E2E_PORTS.smtp),
+  MAIL_SINK_HTTP_PORT: String(E2E_PORTS.sink),
+  MAIL_SINK_URL: E2E_SINK_URL,
   OUTBOX_ENABLED: "true",
   // Short rate-limit windows, so specs that trip a limit don't starve the ones after them.
   RATE_LIMIT_WINDOW_SEC: "20",
@@ -25,8 +25,8 @@ const env = {
   // rightmost entry) so that each gets rate-limit buckets of its own.
   TRUST_PROXY: "1",
   STRIPE_API_HOST: "127.0.0.1",
-  STRIPE_API_PORT: E2E.stripePort,
-  INBOUND_SMTP_PORT: E2E.inboundPort,
+  STRIPE_API_PORT: String(E2E_PORTS.stripe),
+  INBOUND_SMTP_PORT: String(E2E_PORTS.inbound),
   STUDIO_SIGNUP: emptyDatabase ? "closed" : "open",
 };
 
@@ -38,7 +38,7 @@ supervise(
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
     { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "inbound", cmd: "tsx", args: ["lib/mail/inbound-cli.ts"] },
-    { name: "app", cmd: "next", args: ["start", "-p", E2E.appPort] },
+    { name: "app", cmd: "next", args: ["start", "-p", String(E2E_PORTS.app)] },
   ],
   env,
 );

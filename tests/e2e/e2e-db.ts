@@ -2,9 +2,10 @@
 // a visit's day coming (the server's clock is the real one, and a report can't be filed before the
 // visit starts), or a step another spec covers. Everything else goes through the app.
 import Database from "better-sqlite3";
+import { DATABASE_FILE } from "./helpers";
 
 function withDb<T>(fn: (db: Database.Database) => T): T {
-  const db = new Database("tests/.tmp/e2e.db", {
+  const db = new Database(DATABASE_FILE, {
     fileMustExist: true,
     timeout: 10_000,
   });

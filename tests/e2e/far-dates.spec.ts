@@ -5,7 +5,7 @@
 import { randomUUID } from "node:crypto";
 import Database from "better-sqlite3";
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, DATABASE_FILE, signIn } from "./helpers";
 
 const FAR = "9999-12-31";
 const suffix = randomUUID().slice(0, 8);
@@ -13,7 +13,7 @@ const OWNER = `far-owner-${suffix}@owners.example`;
 const ADMIN = `far-admin-${suffix}@far-studio.example`;
 
 function seedFarRows() {
-  const db = new Database("tests/.tmp/e2e.db", { fileMustExist: true, timeout: 10_000 });
+  const db = new Database(DATABASE_FILE, { fileMustExist: true, timeout: 10_000 });
   try {
     const now = Date.now();
     const hash = (db.prepare("SELECT password_hash AS h FROM users WHERE email = ?").get(ACCOUNTS.admin) as { h: string }).h;

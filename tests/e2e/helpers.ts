@@ -1,7 +1,13 @@
 import fs from "node:fs";
 import { expect, type Page } from "@playwright/test";
+import { E2E_APP_URL, E2E_DATABASE, E2E_PORTS, E2E_SINK_URL } from "../../scripts/e2e-config.mjs";
 
-export const SINK_URL = "http://127.0.0.1:2626";
+/** Where the e2e server and its fakes listen (scripts/e2e-config.mjs; E2E_PORT_BASE moves them). */
+export const APP_URL = E2E_APP_URL;
+export const SINK_URL = E2E_SINK_URL;
+export const PORTS = E2E_PORTS;
+/** The e2e server's SQLite file (the empty-install run has one of its own). */
+export const DATABASE_FILE = E2E_DATABASE;
 export const PASSWORD = "grainward-demo";
 
 export const ACCOUNTS = {

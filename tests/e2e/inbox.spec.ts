@@ -5,9 +5,9 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import nodemailer from "nodemailer";
-import { ACCOUNTS, fixture, signIn, SINK_URL } from "./helpers";
+import { ACCOUNTS, fixture, PORTS, signIn, SINK_URL } from "./helpers";
 
-const INBOUND_PORT = 2627; // scripts/e2e-server.mjs
+const INBOUND_PORT = PORTS.inbound; // scripts/e2e-config.mjs
 const STUDIO = "Larchmere Slab & Resin";
 
 async function axe(page: Page, what: string) {

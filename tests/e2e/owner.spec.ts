@@ -6,7 +6,7 @@ import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, SINK_URL, fixture, signIn } from "./helpers";
+import { ACCOUNTS, APP_URL, SINK_URL, fixture, signIn } from "./helpers";
 
 test.use({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
 
@@ -246,7 +246,7 @@ test("the API answers with the documented status codes; simultaneous registratio
   await signIn(pb, ACCOUNTS.otherOwner);
   const card = fixture().unregistered[2]!;
 
-  const anon = await (await browser.newContext()).request.post("http://localhost:3100/api/registrations", { data: { code: card.code } });
+  const anon = await (await browser.newContext()).request.post(`${APP_URL}/api/registrations`, { data: { code: card.code } });
   expect(anon.status()).toBe(401);
   const typo = await pa.request.post("/api/registrations", { data: { code: card.code.slice(0, -1) + (card.code.endsWith("0") ? "1" : "0") } });
   expect(typo.status()).toBe(400);

@@ -1,7 +1,7 @@
 // The owner approves a quote and pays on the Stripe fake's hosted page with a test card.
 import { expect, test } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, SINK_URL, fixture, signIn } from "./helpers";
+import { ACCOUNTS, PORTS, SINK_URL, fixture, signIn } from "./helpers";
 
 test("owner approves a quote, pays with the success card, returns and sees the job paid", async ({ page }) => {
   const jobId = fixture().jobs.quoted!;
@@ -11,7 +11,7 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await expect(page.getByText("Quote sent")).toBeVisible();
   await page.getByRole("button", { name: "Approve and pay" }).click();
 
-  await expect(page).toHaveURL(/127\.0\.0\.1:12112\/pay\/cs_test_/);
+  await expect(page).toHaveURL(new RegExp(`127\\.0\\.0\\.1:${PORTS.stripe}/pay/cs_test_`));
   await expect(page.getByRole("heading", { name: /Pay .* USD/ })).toBeVisible();
   // A declined card first: the page says so and the job stays unpaid.
   await page.getByLabel("Card number").fill("4000 0000 0000 0002");

@@ -3,7 +3,7 @@
 // client's page and on the overview. Axe checks each page.
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, PORTS, signIn } from "./helpers";
 
 async function noAxeViolations(page: Page) {
   const axe = await new AxeBuilder({ page }).analyze();
@@ -36,7 +36,7 @@ test.describe("care plans", () => {
     await noAxeViolations(page);
     await section.getByRole("button", { name: `Start ${target!.plan}` }).click();
 
-    await expect(page).toHaveURL(/127\.0\.0\.1:12112\/pay\/cs_test_/);
+    await expect(page).toHaveURL(new RegExp(`127\\.0\\.0\\.1:${PORTS.stripe}/pay/cs_test_`));
     await page.getByLabel("Card number").fill("4242 4242 4242 4242");
     await page.getByRole("button", { name: "Pay", exact: true }).click();
     await expect(page).toHaveURL(new RegExp(`/pieces/${target!.id}\\?plan=started`));

@@ -2,18 +2,18 @@
 // no cookies (then back on through the page, so other specs see the demo owner as seeded).
 import Database from "better-sqlite3";
 import { expect, test } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, APP_URL, DATABASE_FILE, signIn } from "./helpers";
 import { oneClickUnsubscribeUrl, preferencesUrl } from "../../lib/reminders/tokens";
 
 function ownerId(email: string): string {
-  const db = new Database("tests/.tmp/e2e.db", { readonly: true, fileMustExist: true });
+  const db = new Database(DATABASE_FILE, { readonly: true, fileMustExist: true });
   try {
     return (db.prepare("SELECT id FROM users WHERE email = ?").get(email) as { id: string }).id;
   } finally {
     db.close();
   }
 }
-// The tokens module builds links from APP_URL; the e2e server's is http://localhost:3100.
+// The tokens module builds links from APP_URL; the e2e server's is helpers' APP_URL.
 const onServer = (url: string) => url.replace(/^https?:\/\/[^/]+/, "");
 
 test("staff see upcoming reminders and the ledger, filter them, and pause and resume a piece", async ({ page }) => {
@@ -46,7 +46,7 @@ test("owners are refused the staff reminders API", async ({ page }) => {
 
 test("one-click unsubscribe: POST without cookies → 200, no redirect; the page turns reminders back on", async ({ playwright, page }) => {
   const id = ownerId(ACCOUNTS.otherOwner);
-  const api = await playwright.request.newContext({ baseURL: "http://localhost:3100" });
+  const api = await playwright.request.newContext({ baseURL: APP_URL });
   try {
     const url = onServer(oneClickUnsubscribeUrl(id));
     expect((await api.post(url, { form: { "List-Unsubscribe": "Nope" } })).status()).toBe(400);

@@ -5,9 +5,9 @@
 import fs from "node:fs";
 import http from "node:http";
 import { expect, test, type Browser } from "@playwright/test";
-import { ACCOUNTS, fixture, signIn } from "./helpers";
+import { ACCOUNTS, PORTS, fixture, signIn } from "./helpers";
 
-const PORT = 3100;
+const PORT = PORTS.app;
 const MB = 1024 * 1024;
 /** What each over-limit request offers to send: far past every limit (the largest is a photo's 15 MB). */
 const OFFERED = 96 * MB;

@@ -1,7 +1,7 @@
 // Session cookies, security headers, cross-site writes and brute-force limits against the production build.
 import { expect, test } from "@playwright/test";
 import { generateRegistrationCode } from "@/lib/care/registration-code";
-import { ACCOUNTS, fixture, signIn } from "./helpers";
+import { ACCOUNTS, APP_URL, fixture, signIn } from "./helpers";
 
 test("the session cookie is HttpOnly and SameSite=Lax, and a new id is issued at every sign-in", async ({ browser }) => {
   const context = await browser.newContext();
@@ -44,9 +44,9 @@ test("state-changing requests from another origin are refused", async ({ browser
   expect(forged.status()).toBe(403);
   // The refusal names the address to use (APP_URL), not just "another site".
   expect((await forged.json()).error.message).toBe(
-    "This was sent from a page at https://elsewhere.example, which isn't an address of this Grainward. Open http://localhost:3100 and try again there.",
+    `This was sent from a page at https://elsewhere.example, which isn't an address of this Grainward. Open ${APP_URL} and try again there.`,
   );
-  const same = await context.request.post("/api/registrations", { headers: { origin: "http://localhost:3100", "content-type": "application/json" }, data: { code: "0000-0000-0000-0" } });
+  const same = await context.request.post("/api/registrations", { headers: { origin: APP_URL, "content-type": "application/json" }, data: { code: "0000-0000-0000-0" } });
   expect(same.status()).toBeLessThan(500);
   expect(same.status()).not.toBe(403);
   await context.close();

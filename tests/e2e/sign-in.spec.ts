@@ -1,5 +1,5 @@
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, PASSWORD, signIn } from "./helpers";
+import { ACCOUNTS, APP_URL, PASSWORD, signIn } from "./helpers";
 
 const HOMES = [
   { email: ACCOUNTS.admin, path: "/studio", heading: "Larchmere Slab & Resin" },
@@ -84,7 +84,7 @@ for (const [what, next] of [
       if (r.status() >= 500) errors.push(r.status());
     });
     const url = await signInWithNext(page, next);
-    expect(url.host).toBe("localhost:3100");
+    expect(url.origin).toBe(APP_URL);
     expect(url.pathname).toBe("/pieces");
     await expect(page.getByRole("heading", { level: 1, name: "My pieces" })).toBeVisible();
     expect(errors).toEqual([]);
@@ -93,7 +93,7 @@ for (const [what, next] of [
 
 test("a same-site return path is kept", async ({ page }) => {
   const url = await signInWithNext(page, "/account");
-  expect(`${url.host}${url.pathname}`).toBe("localhost:3100/account");
+  expect(`${url.origin}${url.pathname}`).toBe(`${APP_URL}/account`);
 });
 
 // ---- per-address limits believe only the proxies they are told to ----

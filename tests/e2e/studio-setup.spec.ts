@@ -16,7 +16,7 @@ import Database from "better-sqlite3";
 import sharp from "sharp";
 import { expect, test, type Browser, type Page } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { SINK_URL } from "./helpers";
+import { DATABASE_FILE, SINK_URL } from "./helpers";
 
 test.use({ viewport: { width: 1280, height: 900 }, timezoneId: "America/Halifax" });
 
@@ -108,7 +108,7 @@ test("a stranger starts a studio, sets it up step by step, records a piece whose
   const problems: string[] = [];
   watch(page, problems);
 
-  const db = new Database("tests/.tmp/e2e.db", { readonly: true, fileMustExist: true });
+  const db = new Database(DATABASE_FILE, { readonly: true, fileMustExist: true });
   const studios = (db.prepare("SELECT count(*) AS n FROM studios").get() as { n: number }).n;
   db.close();
   expect(studios, "the e2e database starts with no studio at all").toBe(0);
