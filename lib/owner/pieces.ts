@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
+import { cache } from "react";
 import { getDb, perConnection } from "@/db/client";
 import {
   careLogEntries,
@@ -33,6 +34,7 @@ import { scheduleFromRows, topShape, toCatalog } from "@/lib/pieces/care-inputs"
 import { monthsText, whyNow } from "@/lib/reminders/content";
 import { buildCareGuide, type CareGuide } from "./care-guide";
 import { formatSize, formatThickness, isTimeZone, type UnitSystem } from "@/lib/format";
+import { brandOf, type StudioBrand } from "@/lib/studio/brand";
 import { warrantyLinesFor, type OwnerWarrantyLine } from "./warranty";
 
 // The owner's reads. Every query filters by the signed-in owner's id; someone else's piece is a 404
@@ -54,6 +56,36 @@ const ownedRead = perConnection((db) =>
     .from(pieces)
     .where(and(eq(pieces.id, sql.placeholder("pieceId")), eq(pieces.ownerId, sql.placeholder("ownerId")), isNull(pieces.archivedAt)))
     .prepare(),
+);
+
+/**
+ * What the piece's pages show around the piece, in one read shared by the layout and the page (once
+ * per request): the brand of the studio that made it, and whether the piece has anything at all for
+ * the sections that are often empty — a conversation, a studio visit, a care plan (or its studio any
+ * plan template). Each flag is a superset of its section's own rule; a section whose flag is false
+ * would render nothing, so its full query is skipped. Null when `owner` does not hold the piece.
+ */
+export type OwnedPieceShell = { brand: StudioBrand; has: { conversations: boolean; visits: boolean; plans: boolean } };
+
+export const ownedPieceShell = cache((owner: Pick<User, "id">, pieceId: string): OwnedPieceShell | null => {
+  if (typeof pieceId !== "string" || pieceId.length === 0 || pieceId.length > 64) return null;
+  const row = shellRead(getDb()).get({ pieceId, ownerId: owner.id }) as ShellRow | undefined;
+  if (!row) return null;
+  return {
+    brand: brandOf({ id: row.studioId, name: row.name, logoKey: row.logoKey, accent: row.accent }),
+    has: { conversations: row.conversations === 1, visits: row.visits === 1, plans: row.plans === 1 },
+  };
+});
+
+type ShellRow = { studioId: string; name: string; logoKey: string | null; accent: string; conversations: number; visits: number; plans: number };
+
+const shellRead = perConnection((db) =>
+  db.$client.prepare(`SELECT s.id AS studioId, s.name, s.logo_key AS logoKey, s.accent,
+      EXISTS (SELECT 1 FROM threads t WHERE t.piece_id = p.id) AS conversations,
+      EXISTS (SELECT 1 FROM visits v WHERE v.piece_id = p.id) AS visits,
+      (EXISTS (SELECT 1 FROM plan_subscriptions ps WHERE ps.piece_id = p.id) OR EXISTS (SELECT 1 FROM plan_templates pt WHERE pt.studio_id = p.studio_id)) AS plans
+    FROM pieces p JOIN studios s ON s.id = p.studio_id
+    WHERE p.id = @pieceId AND p.owner_id = @ownerId AND p.archived_at IS NULL`),
 );
 
 /** Today's date for the owner: care logged "today" must never look like the future. */

@@ -12,7 +12,7 @@ import { CarePlanSection } from "./care-plan-section";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatDate, formatInstant, formatTimeLeft } from "@/lib/format";
-import { getMyPiece } from "@/lib/owner/pieces";
+import { getMyPiece, ownedPieceShell } from "@/lib/owner/pieces";
 import { visitPhotosOf } from "@/lib/visits/photos";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import type { CautionKey } from "@/lib/care/cautions";
@@ -50,7 +50,9 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
   const { id } = await params;
   const user = await forPage(requireUser);
   const piece = await forPage(async () => getMyPiece(user, id));
-  const visitPhotos = visitPhotosOf(ownerActor(user), { pieceId: id });
+  // Sections that are empty for most pieces ask their full queries only when the piece has something for them.
+  const has = ownedPieceShell(user, id)?.has;
+  const visitPhotos = has?.visits ? visitPhotosOf(ownerActor(user), { pieceId: id }) : [];
   const wood = piece.species.secondary ? `${piece.species.primary} and ${piece.species.secondary}` : piece.species.primary;
   const facts: [string, string][] = [
     ["Wood", wood],
@@ -288,7 +290,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
         )}
       </Section>
 
-      <CarePlanSection user={user} pieceId={piece.id} timeZone={piece.timeZone} />
+      {has?.plans ? <CarePlanSection user={user} pieceId={piece.id} timeZone={piece.timeZone} /> : null}
 
       {visitPhotos.length ? (
         <Section id="visit-photos" title="Photos from studio visits">
@@ -335,7 +337,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
           </ul>
         )}
       </Section>
-      <PieceConversations pieceId={piece.id} studioName={piece.studio.name} />
+      {has?.conversations ? <PieceConversations pieceId={piece.id} studioName={piece.studio.name} /> : null}
     </article>
   );
 }
