@@ -18,8 +18,10 @@ const OFFERED = 96 * MB;
  */
 const NOISE = 24 * MB;
 
-/** The pid of the process listening on PORT (Linux /proc: the socket inode of the listener). */
-function serverPid(): number {
+/** The pid of the process listening on PORT (Linux /proc: the socket inode of the listener), looked up once. */
+let listener: number | undefined;
+const serverPid = (): number => (listener ??= findServerPid());
+function findServerPid(): number {
   const hexPort = PORT.toString(16).toUpperCase().padStart(4, "0");
   const inodes = new Set<string>();
   for (const table of ["/proc/net/tcp", "/proc/net/tcp6"]) {
@@ -93,6 +95,10 @@ async function post(path: string, headers: Record<string, string>, prefix: strin
         sent += piece.length;
         if (!req.write(piece)) return void req.once("drain", pump);
       }
+      // A declared body sent in full ends the request (else Node would hold even the headers back
+      // and the server would never answer: the warm-up below, which declares 0 bytes, waited out its
+      // 30 s). The held-back case (maxSend under the declared length) keeps it open on purpose.
+      if (declared !== undefined && sent >= declared && !req.destroyed) req.end();
     };
     pump();
   });
