@@ -17,12 +17,13 @@ import {
   databaseVersion,
   ensureSqlFunctions,
   LIST_COUNT_CAP,
-  loadForRows,
+  loadCareInputs,
   policyTerms,
   SEARCH_COUNT_CAP,
   selectListRows,
   warrantyEndsOn,
-  type Loaded,
+  type CareInputs,
+  type ListPieceRow,
 } from "./registry-sql";
 
 export type RegistryRow = {
@@ -55,20 +56,22 @@ function nextCareOf(schedule: CareSchedule | null): RegistryRow["nextCare"] {
 
 // A row's next care depends only on the piece's record, the studio's catalog and the day: kept per
 // process for the last 10,000 rows shown, each with the database version it was computed at (taken
-// before the request read anything), so any change anywhere recomputes it.
+// before the request read anything), so any change anywhere recomputes it. Only the rows without a
+// kept one read the care engine's inputs (loadCareInputs).
 const nextCares = new Map<string, { version: string; nextCare: RegistryRow["nextCare"] }>();
 
-function nextCareFor(pieceId: string, timeZone: string, day: string, version: string, schedule: () => CareSchedule | null): RegistryRow["nextCare"] {
-  const key = `${pieceId}|${timeZone}|${day}`;
+function keptNextCare(key: string, version: string): { nextCare: RegistryRow["nextCare"] } | undefined {
   const hit = nextCares.get(key);
-  if (hit && hit.version === version) return hit.nextCare;
-  const nextCare = nextCareOf(schedule());
+  return hit && hit.version === version ? hit : undefined;
+}
+
+function keepNextCare(key: string, version: string, nextCare: RegistryRow["nextCare"]): RegistryRow["nextCare"] {
   if (nextCares.size >= 10_000) nextCares.delete(nextCares.keys().next().value!);
   nextCares.set(key, { version, nextCare });
   return nextCare;
 }
 
-function safeSchedule(l: Loaded, catalog: CatalogEntry[], timeZone: string, now: Date): CareSchedule | null {
+function safeSchedule(l: CareInputs, catalog: CatalogEntry[], timeZone: string, now: Date): CareSchedule | null {
   try {
     return scheduleFromColumns({ piece: l.piece, layers: l.layers, careLog: l.careLog, catalog, timeZone, now });
   } catch {
@@ -91,7 +94,7 @@ export function listPieces(ctx: StudioContext, q: PieceListQuery, now = new Date
 export function queryRegistry(ctx: StudioContext, q: PieceListQuery, now: Date, all: boolean): RegistryPage {
   const db = getDb();
   ensureSqlFunctions(db);
-  const version = databaseVersion(db); // before any read: see nextCareFor
+  const version = databaseVersion(db); // before any read: see keptNextCare
   const terms = policyTerms(ctx.studio.id);
   const t = today(ctx, now);
   let catalog: CatalogEntry[] | null = null;
@@ -107,29 +110,28 @@ export function queryRegistry(ctx: StudioContext, q: PieceListQuery, now: Date, 
       // A page that is not full tells the total without counting.
       const n = all || (page.length < q.pageSize && (page.length > 0 || q.page === 1)) ? offset + page.length : countMatches(f, limit + 1, filterKey(ctx, q, useCode, t));
       const capped = !all && n > limit;
-      return { f, ids: page.map((r) => r.id), total: capped ? limit : n, capped, loaded: loadForRows(page), schedules: null as Map<string, CareSchedule | null> | null };
+      return { f, rows: page, total: capped ? limit : n, capped, schedules: null as Map<string, CareSchedule | null> | null };
     }
     // Next care due is computed by the care engine, so filter and sort on it in memory.
-    const rows = selectListRows(f, q, -1, 0);
-    const candidates = rows.map((r) => r.id);
-    const loaded = loadForRows(rows);
-    const schedules = new Map(candidates.map((id) => [id, safeSchedule(loaded.get(id)!, studioCatalog(), ctx.studio.timeZone, now)]));
-    let ids = candidates;
+    const candidates = selectListRows(f, q, -1, 0);
+    const inputs = loadCareInputs(candidates.map((r) => r.id));
+    const schedules = new Map(candidates.map((r) => [r.id, safeSchedule(inputs.get(r.id)!, studioCatalog(), ctx.studio.timeZone, now)]));
+    let rows = candidates;
     const firstDue = (id: string) => schedules.get(id)?.tasks.find((x) => x.status !== "done")?.dueOn ?? schedules.get(id)?.tasks[0]?.dueOn ?? null;
-    if (q.dueBefore) ids = ids.filter((id) => {
-      const d = firstDue(id);
+    if (q.dueBefore) rows = rows.filter((r) => {
+      const d = firstDue(r.id);
       return d !== null && d <= q.dueBefore!;
     });
     if (q.sort === "next_due") {
       const sign = q.dir === "desc" ? -1 : 1;
-      ids = [...ids].sort((a, b) => {
-        const da = firstDue(a) ?? "9999-12-31";
-        const dbb = firstDue(b) ?? "9999-12-31";
+      rows = [...rows].sort((a, b) => {
+        const da = firstDue(a.id) ?? "9999-12-31";
+        const dbb = firstDue(b.id) ?? "9999-12-31";
         return da < dbb ? -sign : da > dbb ? sign : 0;
       });
     }
     const start = all ? 0 : (q.page - 1) * q.pageSize;
-    return { f, ids: all ? ids : ids.slice(start, start + q.pageSize), total: ids.length, capped: false, loaded, schedules };
+    return { f, rows: all ? rows : rows.slice(start, start + q.pageSize), total: rows.length, capped: false, schedules };
   };
 
   let result = run(true);
@@ -140,28 +142,40 @@ export function queryRegistry(ctx: StudioContext, q: PieceListQuery, now: Date, 
     matchedBy = result.f.fts ? "text" : null;
   }
 
-  const loaded = result.loaded;
-  const rows: RegistryRow[] = [];
-  for (const id of result.ids) {
-    const l = loaded.get(id);
-    if (!l) continue;
-    const nextCare = result.schedules ? nextCareOf(result.schedules.get(id) ?? null) : nextCareFor(id, ctx.studio.timeZone, t, version, () => safeSchedule(l, studioCatalog(), ctx.studio.timeZone, now));
-    const ends = warrantyEndsOn(l.piece, terms);
-    rows.push({
-      id,
-      title: l.piece.title,
-      kind: l.piece.kind,
-      primarySpecies: speciesName(l.piece.primarySpeciesId)!,
-      secondarySpecies: speciesName(l.piece.secondarySpeciesId),
-      deliveredOn: l.piece.deliveredOn,
-      owner: l.piece.ownerName != null ? { name: l.piece.ownerName, email: l.piece.ownerEmail ?? "" } : null,
-      registered: l.piece.ownerId !== null,
-      archived: l.piece.archivedAt !== null,
-      finishClasses: [...new Set(l.layers.map((x) => x.finishClass))],
-      nextCare,
+  const tz = ctx.studio.timeZone;
+  const nextCare = new Map<string, RegistryRow["nextCare"]>();
+  if (result.schedules) for (const r of result.rows) nextCare.set(r.id, nextCareOf(result.schedules.get(r.id) ?? null));
+  else {
+    const missing: ListPieceRow[] = [];
+    for (const r of result.rows) {
+      const kept = keptNextCare(`${r.id}|${tz}|${t}`, version);
+      if (kept) nextCare.set(r.id, kept.nextCare);
+      else missing.push(r);
+    }
+    const inputs = missing.length ? loadCareInputs(missing.map((r) => r.id)) : null;
+    for (const r of missing) {
+      const input = inputs!.get(r.id);
+      nextCare.set(r.id, keepNextCare(`${r.id}|${tz}|${t}`, version, nextCareOf(input ? safeSchedule(input, studioCatalog(), tz, now) : null)));
+    }
+  }
+
+  const rows: RegistryRow[] = result.rows.map((r) => {
+    const ends = warrantyEndsOn(r, terms);
+    return {
+      id: r.id,
+      title: r.title,
+      kind: r.kind,
+      primarySpecies: speciesName(r.primarySpeciesId)!,
+      secondarySpecies: speciesName(r.secondarySpeciesId),
+      deliveredOn: r.deliveredOn,
+      owner: r.ownerName != null ? { name: r.ownerName, email: r.ownerEmail ?? "" } : null,
+      registered: r.ownerId !== null,
+      archived: r.archivedAt !== null,
+      finishClasses: r.finishClasses,
+      nextCare: nextCare.get(r.id) ?? null,
       warrantyEndsOn: ends,
       underWarranty: ends !== null && ends >= t,
-    });
-  }
+    };
+  });
   return { rows, total: result.total, totalIsCapped: result.capped, page: q.page, pageSize: q.pageSize, query: q, matchedBy };
 }

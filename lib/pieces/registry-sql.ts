@@ -15,6 +15,7 @@ import { getDb, perConnection, type Db } from "@/db/client";
 import { finishLayers, finishProducts, pieces, warrantyPolicies, type CareLogRow, type FinishLayer, type FinishProduct, type Piece, type WarrantyPolicyRow } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { addMonths } from "@/lib/care/dates";
+import type { FinishClass } from "@/lib/care/vocabulary";
 import type { PieceListQuery } from "@/lib/validation/pieces";
 import type { CareLayerColumns, CarePieceColumns } from "./care-inputs";
 import { hashTypedCode } from "./registration";
@@ -70,12 +71,30 @@ function wholeRows<T>(table: Table, raw: Record<string, unknown>[]): T[] {
 }
 
 const IDS = `(SELECT value FROM json_each(?))`;
-// A registry row's piece columns, read by the list query itself (joined with users as u).
-const LIST_COLUMNS = `p.id, p.title, p.kind, p.use, p.sun, p.delivered_on AS deliveredOn, p.resin_kind AS resinKind,
-  p.primary_species_id AS primarySpeciesId, p.secondary_species_id AS secondarySpeciesId, p.shape_kind AS shapeKind,
-  p.length_mm AS lengthMm, p.width_mm AS widthMm, p.diameter_mm AS diameterMm, p.measured_area_m2 AS measuredAreaM2,
-  p.owner_id AS ownerId, p.archived_at AS archivedAt, p.warranty_policy_id AS warrantyPolicyId,
-  u.name AS ownerName, u.email AS ownerEmail`;
+// What a registry row shows, read by the list query itself (joined with users as u), in this order
+// (the statement answers arrays: building an object per row in SQLite's binding cost more than the
+// read). A row's finish classes come as one JSON array, in layer order. The care engine's columns,
+// layers and care log are read only for the rows whose next care is not kept (loadCareInputs).
+const LIST_COLUMNS = `p.id, p.title, p.kind, p.delivered_on, p.primary_species_id, p.secondary_species_id,
+  p.owner_id, p.archived_at, p.warranty_policy_id, u.name, u.email,
+  (SELECT json_group_array(l.finish_class ORDER BY l.surface, l.position) FROM finish_layers l WHERE l.piece_id = p.id)`;
+
+function listRow(r: unknown[]): ListPieceRow {
+  return {
+    id: r[0] as string,
+    title: r[1] as string,
+    kind: r[2] as Piece["kind"],
+    deliveredOn: r[3] as string,
+    primarySpeciesId: r[4] as string,
+    secondarySpeciesId: r[5] as string | null,
+    ownerId: r[6] as string | null,
+    archivedAt: r[7] as number | null,
+    warrantyPolicyId: r[8] as string | null,
+    ownerName: r[9] as string | null,
+    ownerEmail: r[10] as string | null,
+    finishClasses: [...new Set(JSON.parse(r[11] as string) as FinishClass[])],
+  };
+}
 
 export const registryStatements = perConnection((db) => {
   const sqlite = db.$client;
@@ -83,6 +102,10 @@ export const registryStatements = perConnection((db) => {
   const policiesRaw = sqlite.prepare<[string], { id: string; policy: string }>(`SELECT id, policy FROM warranty_policies WHERE studio_id = ?`);
   const policyColumn = getTableColumns(warrantyPolicies).policy;
   return {
+    carePieces: sqlite.prepare<[string], CarePieceColumns>(
+      `SELECT id, kind, use, sun, delivered_on AS deliveredOn, resin_kind AS resinKind, primary_species_id AS primarySpeciesId, shape_kind AS shapeKind,
+         length_mm AS lengthMm, width_mm AS widthMm, diameter_mm AS diameterMm, measured_area_m2 AS measuredAreaM2 FROM pieces WHERE id IN ${IDS}`,
+    ),
     listLayers: sqlite.prepare<[string], CareLayerColumns & { pieceId: string }>(
       `SELECT piece_id AS pieceId, id, surface, finish_class AS finishClass, product_id AS productId, coats, applied_on AS appliedOn
          FROM finish_layers WHERE piece_id IN ${IDS} ORDER BY surface, position`,
@@ -182,7 +205,7 @@ function fromClause(f: Filter): string {
 /** A page of registry rows for the filter (limit -1: all of them). */
 export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offset: number): ListPieceRow[] {
   const text = `SELECT ${LIST_COLUMNS} FROM ${fromClause(f)} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where.text} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ? OFFSET ?`;
-  return statementFor(getDb(), text).all(...f.where.params, limit, offset) as ListPieceRow[];
+  return (statementFor(getDb(), text).raw(true).all(...f.where.params, limit, offset) as unknown[][]).map(listRow);
 }
 
 /**
@@ -225,17 +248,24 @@ export const LIST_COUNT_CAP = 10_000;
 
 export type CareLogColumns = Pick<CareLogRow, "taskKind" | "doneOn" | "surface">;
 
-/** What a registry row needs of a piece: what the row shows, and the columns the care engine reads. */
-export type ListPieceRow = CarePieceColumns &
-  Pick<Piece, "title" | "secondarySpeciesId" | "ownerId" | "warrantyPolicyId"> & { archivedAt: number | null; ownerName: string | null; ownerEmail: string | null };
+/** What a registry row shows of a piece (the list query's columns). */
+export type ListPieceRow = Pick<Piece, "id" | "title" | "kind" | "deliveredOn" | "primarySpeciesId" | "secondarySpeciesId" | "ownerId" | "warrantyPolicyId"> & {
+  archivedAt: number | null;
+  ownerName: string | null;
+  ownerEmail: string | null;
+  finishClasses: FinishClass[];
+};
 
-export type Loaded = { piece: ListPieceRow; layers: CareLayerColumns[]; careLog: CareLogColumns[] };
+/** What the care engine reads of a piece, its layers and its care log. */
+export type CareInputs = { piece: CarePieceColumns; layers: CareLayerColumns[]; careLog: CareLogColumns[] };
 
-export function loadForRows(rows: ListPieceRow[]): Map<string, Loaded> {
+/** The care engine's inputs for these pieces (ids of the caller's studio's rows), 500 at a time. */
+export function loadCareInputs(ids: string[]): Map<string, CareInputs> {
   const st = registryStatements(getDb());
-  const out = new Map<string, Loaded>(rows.map((piece) => [piece.id, { piece, layers: [], careLog: [] }]));
-  for (let i = 0; i < rows.length; i += 500) {
-    const chunk = JSON.stringify(rows.slice(i, i + 500).map((p) => p.id));
+  const out = new Map<string, CareInputs>();
+  for (let i = 0; i < ids.length; i += 500) {
+    const chunk = JSON.stringify(ids.slice(i, i + 500));
+    for (const piece of st.carePieces.all(chunk)) out.set(piece.id, { piece, layers: [], careLog: [] });
     for (const l of st.listLayers.all(chunk)) out.get(l.pieceId)?.layers.push(l);
     for (const c of st.careLog.all(chunk)) out.get(c.pieceId)?.careLog.push(c);
   }

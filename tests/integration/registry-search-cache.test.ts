@@ -60,4 +60,23 @@ describe("registry search caches", () => {
     expect(after.nextCare).not.toBeNull();
     expect(after.nextCare!.dueOn).not.toBe(before!.dueOn);
   });
+
+  it("a row reads its finish classes from its layers (in layer order, each once) and its next care from the care engine's inputs once per change", async () => {
+    const ctx = await memberContext(createStudio(), "staff");
+    const layers: CreatePieceInput["layers"] = [
+      { surface: "top", finishClass: "hardwax_oil", coats: 2, appliedOn: "2025-02-27" },
+      { surface: "base", finishClass: "film_finish", coats: 1, appliedOn: "2025-02-27" },
+      { surface: "edges", finishClass: "hardwax_oil", coats: 1, appliedOn: "2025-02-27" },
+    ];
+    const { piece } = createPiece(ctx, createPieceSchema.parse(base("Marrowbrook hall bench (invented)", { layers })));
+    const row = () => listPieces(ctx, pieceListQuerySchema.parse({ q: "marrowbrook" })).rows.find((r) => r.id === piece.id)!;
+    const first = row();
+    // Layers in surface order (base, edges, top), each class once.
+    expect(first.finishClasses).toEqual(["film_finish", "hardwax_oil"]);
+    expect(first.nextCare).not.toBeNull();
+    // Computed from the same inputs, the list sorted by next care agrees with the kept value.
+    const sorted = listPieces(ctx, pieceListQuerySchema.parse({ q: "marrowbrook", sort: "next_due" })).rows.find((r) => r.id === piece.id)!;
+    expect(sorted.nextCare).toEqual(first.nextCare);
+    expect(row()).toEqual(first); // asked again: the kept next care, the same row
+  });
 });
