@@ -48,10 +48,13 @@ for (const who of WHO) {
     for (const entry of pages()) {
       const outcome = entry.expect[who];
       await page.goto(entry.path);
-      // Redirects from inside a streamed page finish on the client; let them settle.
+      // Redirects from inside a streamed page finish on the client: wait (polling) for where each
+      // outcome ends, rather than a fixed pause after the load.
       await page.waitForLoadState("load");
-      await page.waitForTimeout(300);
       if (outcome === "denied") await expect(page).toHaveURL(/denied=1/);
+      if (outcome === "sign-in") await expect(page).toHaveURL(/\/sign-in\?/);
+      if (outcome === "404") await expect(page.getByText("We couldn't find that page")).toBeVisible();
+      if (outcome === "ok") await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
       const url = new URL(page.url());
       const where = `${who} → ${entry.path} (ended at ${url.pathname}${url.search})`;
       if (outcome === "ok") {

@@ -1,6 +1,6 @@
 import { expect, test, type Page } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, SINK_URL, signIn } from "./helpers";
+import { ACCOUNTS, SINK_URL, signIn, signInTo } from "./helpers";
 
 async function signUp(page: Page, email: string, name = "Avery Test (invented)") {
   await page.goto("/sign-up");
@@ -116,8 +116,7 @@ test("password reset end to end through the sink; the link works once", async ({
 
 test("an admin invites a technician, who joins from the e-mail", async ({ page, browser }) => {
   const email = `tech-${Date.now()}@larchmere.example`;
-  await signIn(page, ACCOUNTS.admin);
-  await page.goto("/studio/team");
+  await signInTo(page, ACCOUNTS.admin, "/studio/team");
   await page.getByLabel("Email", { exact: true }).fill(email);
   await page.getByLabel("Role", { exact: true }).selectOption("technician");
   await page.getByRole("button", { name: "Send invitation" }).click();
@@ -136,8 +135,7 @@ test("an admin invites a technician, who joins from the e-mail", async ({ page, 
 
 test("an admin withdraws a pending invitation; its link no longer works", async ({ page, browser }) => {
   const email = `withdrawn-${Date.now()}@larchmere.example`;
-  await signIn(page, ACCOUNTS.admin);
-  await page.goto("/studio/team");
+  await signInTo(page, ACCOUNTS.admin, "/studio/team");
   await page.getByLabel("Email", { exact: true }).fill(email);
   await page.getByLabel("Role", { exact: true }).selectOption("admin");
   await page.getByRole("button", { name: "Send invitation" }).click();

@@ -6,13 +6,12 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
 import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
 import fs from "node:fs";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, signInTo } from "./helpers";
 
 test.use({ viewport: { width: 1280, height: 900 } });
 
 test("staff choose two pieces in the registry and download their drawer cards as one PDF", async ({ page }) => {
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio/pieces");
+  await signInTo(page, ACCOUNTS.staff, "/studio/pieces");
   const ticks = page.getByRole("checkbox", { name: /^Choose (?!every piece)/ });
   await expect(ticks.first()).toBeVisible();
   const names: string[] = [];

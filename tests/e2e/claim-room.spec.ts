@@ -2,7 +2,7 @@
 // owner picks (their preference by default), checked in the browser with the unit named. Nothing is
 // sent (the form is refused before any request), so the demo data is unchanged. All data is invented.
 import { expect, test } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, signInTo } from "./helpers";
 
 const PHONE = { viewport: { width: 375, height: 812 }, deviceScaleFactor: 2, isMobile: true, hasTouch: true };
 const PIECE = "Charred cedar garden bench"; // owned by the demo Holloway household
@@ -10,8 +10,7 @@ const PIECE = "Charred cedar garden bench"; // owned by the demo Holloway househ
 test("owner gives the daily temperature change in °F or °C; out of range is refused naming the unit", async ({ browser }) => {
   const context = await browser.newContext(PHONE);
   const page = await context.newPage();
-  await signIn(page, ACCOUNTS.owner);
-  await page.goto("/claims");
+  await signInTo(page, ACCOUNTS.owner, "/claims");
   await page.getByRole("link", { name: new RegExp(PIECE) }).click();
   await expect(page.getByRole("heading", { name: "Report damage" })).toBeVisible();
 

@@ -6,13 +6,12 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, SINK_URL, signIn } from "./helpers";
+import { ACCOUNTS, SINK_URL, signIn, signInTo } from "./helpers";
 
 test.use({ viewport: { width: 1280, height: 900 } });
 
 test("staff find a client, edit the phone and see it on the timeline", async ({ page }) => {
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio/clients");
+  await signInTo(page, ACCOUNTS.staff, "/studio/clients");
   await expect(page.getByRole("heading", { name: "Clients", level: 1 })).toBeVisible();
   // The demo's owners are the studio's clients from the start.
   await expect(page.getByRole("link", { name: "Jonah Reyes" })).toBeVisible();
@@ -62,8 +61,7 @@ test("a piece recorded with a new buyer sends the hand-over mail; the export lis
   const title = `${word} hall bench (e2e)`;
   const buyer = `Tamsin ${word} (invented)`;
   const email = `${word.toLowerCase()}@buyer.example`;
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio/pieces/new");
+  await signInTo(page, ACCOUNTS.staff, "/studio/pieces/new");
   await page.getByLabel("Title").fill(title);
   await page.getByLabel("Kind").selectOption("bench");
   // The demo studio works in inches.

@@ -26,7 +26,20 @@ export function fixture(): { demoPieceId: string; otherPieceId: string; unregist
 }
 
 export async function signIn(page: Page, email: string, password = PASSWORD) {
-  await page.goto("/sign-in");
+  await submitSignIn(page, "/sign-in", email, password);
+}
+
+/**
+ * Signs in with `next`, so the first page after signing in is `path` (as `signIn` and then
+ * `page.goto(path)`, without rendering the account's home page on the way), and waits for its load.
+ */
+export async function signInTo(page: Page, email: string, path: string) {
+  await submitSignIn(page, `/sign-in?next=${encodeURIComponent(path)}`, email, PASSWORD);
+  await page.waitForLoadState();
+}
+
+async function submitSignIn(page: Page, signInPath: string, email: string, password: string) {
+  await page.goto(signInPath);
   await page.getByLabel("Email").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();

@@ -5,7 +5,7 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import nodemailer from "nodemailer";
-import { ACCOUNTS, fixture, PORTS, signIn, SINK_URL } from "./helpers";
+import { ACCOUNTS, fixture, PORTS, SINK_URL, signInTo } from "./helpers";
 
 const INBOUND_PORT = PORTS.inbound; // scripts/e2e-config.mjs
 const STUDIO = "Larchmere Slab & Resin";
@@ -39,8 +39,7 @@ test("an owner's message reaches the inbox; the answer goes back on the same thr
   // The owner on a phone writes on the job page.
   const ownerCtx = await browser.newContext({ viewport: { width: 375, height: 812 } });
   const owner = await ownerCtx.newPage();
-  await signIn(owner, ACCOUNTS.owner);
-  await owner.goto(`/jobs/${jobId}`);
+  await signInTo(owner, ACCOUNTS.owner, `/jobs/${jobId}`);
   await expect(owner.getByRole("heading", { name: `Messages with ${STUDIO}` })).toBeVisible();
   await owner.getByLabel(`Message to ${STUDIO}`).fill(question);
   await owner.getByRole("button", { name: "Send message" }).click();
@@ -53,8 +52,7 @@ test("an owner's message reaches the inbox; the answer goes back on the same thr
   // The front desk sees it unread, with who, which piece and how long it has waited.
   const deskCtx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
   const desk = await deskCtx.newPage();
-  await signIn(desk, ACCOUNTS.staff);
-  await desk.goto("/studio/inbox");
+  await signInTo(desk, ACCOUNTS.staff, "/studio/inbox");
   await expect(desk.getByRole("heading", { name: "Inbox", level: 1 })).toBeVisible();
   await expect(desk.getByRole("link", { name: /^Inbox \d+ unread$/ })).toBeVisible();
   const row = desk.getByRole("list", { name: "Conversations" }).getByRole("listitem").filter({ hasText: question });

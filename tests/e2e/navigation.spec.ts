@@ -4,7 +4,7 @@
 import fs from "node:fs";
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, signInTo } from "./helpers";
 
 const SHOTS = "test-results/nav-shots";
 fs.mkdirSync(SHOTS, { recursive: true });
@@ -81,8 +81,7 @@ for (const width of [1280, 375]) {
       await page.setViewportSize({ width, height: width === 375 ? 812 : 900 });
       const errors: string[] = [];
       page.on("pageerror", (e) => errors.push(String(e)));
-      await signIn(page, ACCOUNTS[role]);
-      await page.goto(r.home);
+      await signInTo(page, ACCOUNTS[role], r.home);
       await expect(nav(page)).toBeVisible();
       // The menu's script (Escape, outside click, focus leaving) is attached once the page has hydrated.
       await expect(nav(page)).toHaveAttribute("data-enhanced", "true");
