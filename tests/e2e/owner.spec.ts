@@ -6,7 +6,7 @@ import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, APP_URL, SINK_URL, fixture, signIn } from "./helpers";
+import { ACCOUNTS, APP_URL, SINK_URL, fixture, signIn, signInTo } from "./helpers";
 
 test.use({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
 
@@ -147,8 +147,7 @@ test("scan a drawer card, sign up, confirm by e-mail, register, log care and dow
 
 test("the demo owner sees their pieces with schedules, a lived-in care log and the care guide", async ({ page, context }) => {
   await context.setExtraHTTPHeaders({ "x-forwarded-for": ownIp() });
-  await signIn(page, ACCOUNTS.owner);
-  await page.goto("/pieces");
+  await signInTo(page, ACCOUNTS.owner, "/pieces");
   const walnut = page.getByRole("link", { name: /Walnut river dining table/ });
   await expect(walnut).toContainText("Next:");
   await expect(page.getByRole("link", { name: /Charred cedar garden bench/ })).toBeVisible();
@@ -220,8 +219,7 @@ test("an owner hands a piece on: release with a fresh code, and a second owner r
   expect((await page.request.get(`/api/me/pieces/${card.pieceId}`)).status()).toBe(404);
 
   const next = await (await browser.newContext({ viewport: { width: 375, height: 812 }, extraHTTPHeaders: { "x-forwarded-for": ip } })).newPage();
-  await signIn(next, ACCOUNTS.owner);
-  await next.goto("/register");
+  await signInTo(next, ACCOUNTS.owner, "/register");
   await next.getByLabel("Registration code").fill(fresh.toLowerCase().replace(/-/g, " "));
   await next.getByRole("button", { name: "Find the piece" }).click();
   // A typed code shows which piece it is, and asks, as the card's QR code does.

@@ -1,12 +1,11 @@
 // The owner approves a quote and pays on the Stripe fake's hosted page with a test card.
 import { expect, test } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, PORTS, SINK_URL, fixture, signIn } from "./helpers";
+import { ACCOUNTS, PORTS, SINK_URL, fixture, signIn, signInTo } from "./helpers";
 
 test("owner approves a quote, pays with the success card, returns and sees the job paid", async ({ page }) => {
   const jobId = fixture().jobs.quoted!;
-  await signIn(page, ACCOUNTS.otherOwner);
-  await page.goto("/jobs");
+  await signInTo(page, ACCOUNTS.otherOwner, "/jobs");
   await page.getByRole("link", { name: /Re-wax the desk top/ }).click();
   await expect(page.getByText("Quote sent")).toBeVisible();
   await page.getByRole("button", { name: "Approve and pay" }).click();
@@ -30,8 +29,7 @@ test("owner approves a quote, pays with the success card, returns and sees the j
 
 test("cancelling on the payment page comes back with a clear message and nothing charged", async ({ page }) => {
   const jobId = fixture().jobs.approved!;
-  await signIn(page, ACCOUNTS.otherOwner);
-  await page.goto(`/jobs/${jobId}`);
+  await signInTo(page, ACCOUNTS.otherOwner, `/jobs/${jobId}`);
   await page.getByRole("button", { name: "Pay now" }).click();
   await expect(page).toHaveURL(/\/pay\/cs_test_/);
   await page.getByRole("button", { name: "Cancel and go back" }).click();
@@ -41,8 +39,7 @@ test("cancelling on the payment page comes back with a clear message and nothing
 });
 
 test("staff see the studio's jobs by state and another owner cannot open a job", async ({ page, browser }) => {
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio/jobs?state=draft");
+  await signInTo(page, ACCOUNTS.staff, "/studio/jobs?state=draft");
   await expect(page.getByRole("link", { name: /Inspect the island's film finish/ })).toBeVisible();
   await expect(page.getByRole("link", { name: /Re-wax the desk top/ })).toHaveCount(0);
 

@@ -3,12 +3,11 @@
 // page has no axe violations. The new plan is not offered to owners, so other specs never meet it.
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, signInTo } from "./helpers";
 
 test("an admin adds a care plan, then changes it into version 2", async ({ page }) => {
   await page.setViewportSize({ width: 1280, height: 900 });
-  await signIn(page, ACCOUNTS.admin);
-  await page.goto("/studio/settings/plans");
+  await signInTo(page, ACCOUNTS.admin, "/studio/settings/plans");
   const name = `Edge keeping ${Date.now().toString(36)} (invented)`;
 
   const add = page.getByRole("form", { name: "New care plan" });
