@@ -4,7 +4,7 @@
 import fs from "node:fs";
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, signIn, signInTo } from "./helpers";
 
 const SHOTS = "test-results/overview-shots";
 fs.mkdirSync(SHOTS, { recursive: true });
@@ -33,8 +33,7 @@ for (const width of [1280, 375]) {
   test(`overview at ${width} px: figures, charts with tables, links, no console errors, no serious axe violations`, async ({ page }) => {
     await page.setViewportSize({ width, height: width === 375 ? 812 : 900 });
     const errors = watchConsole(page);
-    await signIn(page, ACCOUNTS.admin);
-    await page.goto("/studio");
+    await signInTo(page, ACCOUNTS.admin, "/studio");
     await expect(page.getByRole("heading", { level: 1, name: "Larchmere Slab & Resin" })).toBeVisible();
     for (const title of ["Care coming due and overdue, by task", "Reminders sent, and care logged in return", "Claims by state", "Claims by kind of damage", "Repair revenue by month", "What became of the refresh offers", "Visits this week"]) {
       await expect(page.getByRole("heading", { name: title })).toBeVisible();
@@ -60,8 +59,7 @@ for (const width of [1280, 375]) {
 
 test("the figures' lists: reminders followed by care, offers, revenue, answers", async ({ page }) => {
   const errors = watchConsole(page);
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio");
+  await signInTo(page, ACCOUNTS.staff, "/studio");
   await page.getByRole("link", { name: "Reminders followed by care" }).click();
   await expect(page).toHaveURL(/\/studio\/reports\/reminders\?acted=yes/);
   await expect(page.getByRole("heading", { level: 1, name: "Reminders and the care that followed" })).toBeVisible();
@@ -82,8 +80,7 @@ test("the figures' lists: reminders followed by care, offers, revenue, answers",
 });
 
 test("reports: claims per 100 pieces for a period, CSV export, bad periods are a 400", async ({ page }) => {
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio/reports");
+  await signInTo(page, ACCOUNTS.staff, "/studio/reports");
   await page.getByLabel("From").fill("2020-01-01");
   await page.getByRole("button", { name: "Show" }).click();
   await expect(page).toHaveURL(/from=2020-01-01/);
@@ -129,8 +126,7 @@ test("roles: staff get reports and audit but not settings or team; a technician 
 
 test("settings: profile, warranty versions (a date before today is refused next to the field), reminder timing, e-mail previews", async ({ page }) => {
   const errors = watchConsole(page);
-  await signIn(page, ACCOUNTS.admin);
-  await page.goto("/studio/settings");
+  await signInTo(page, ACCOUNTS.admin, "/studio/settings");
   await expect(page.getByLabel("Studio name")).toHaveValue("Larchmere Slab & Resin");
   await expect(page.getByLabel("Labour rate per hour (USD)")).toHaveValue("85.00");
   // A bad amount is caught next to its field and nothing else typed is lost.
@@ -188,8 +184,7 @@ test("settings: profile, warranty versions (a date before today is refused next 
 
 test("team: the only admin can't be demoted or removed; removing asks first", async ({ page }) => {
   await page.setViewportSize({ width: 375, height: 812 });
-  await signIn(page, ACCOUNTS.admin);
-  await page.goto("/studio/team");
+  await signInTo(page, ACCOUNTS.admin, "/studio/team");
   await expect(page.getByLabel("Role for Maren Okafor")).toBeDisabled();
   const teo = page.getByRole("listitem").filter({ hasText: "teo@larchmere.example" });
   await teo.getByRole("button", { name: "Remove" }).click();

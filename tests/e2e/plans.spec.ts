@@ -3,7 +3,7 @@
 // client's page and on the overview. Axe checks each page.
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, PORTS, signIn } from "./helpers";
+import { ACCOUNTS, PORTS, signIn, signInTo } from "./helpers";
 
 async function noAxeViolations(page: Page) {
   const axe = await new AxeBuilder({ page }).analyze();
@@ -96,8 +96,7 @@ test.describe("care plans", () => {
   });
 
   test("staff cancel the plan from its page at 1280 px, with the end date and refund shown, then take it back", async ({ page }) => {
-    await signIn(page, ACCOUNTS.staff);
-    await page.goto("/studio/plans");
+    await signInTo(page, ACCOUNTS.staff, "/studio/plans");
     await page.getByRole("link", { name: pieceTitle }).first().click();
     await expect(page).toHaveURL(/\/studio\/plans\/[^/]+$/);
     await expect(page.getByText(/^Running · /)).toBeVisible();

@@ -3,7 +3,7 @@
 // page and the repair price settings.
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, fixture, signIn } from "./helpers";
+import { ACCOUNTS, fixture, signInTo } from "./helpers";
 
 test.use({ viewport: { width: 1280, height: 900 } });
 
@@ -22,8 +22,7 @@ async function lineWith(page: Page, text: string) {
 
 test("staff propose a crack fill, change its hours, add a typed line and save; the totals are the API's", async ({ page }) => {
   const jobId = fixture().jobs.draft!;
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto(`/studio/jobs/${jobId}`);
+  await signInTo(page, ACCOUNTS.staff, `/studio/jobs/${jobId}`);
   await expect(page.getByRole("heading", { name: "Inspect the island's film finish", level: 1 })).toBeVisible();
 
   await page.getByText("What the lines are proposed from").click();
@@ -68,8 +67,7 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
 });
 
 test("admins read the repair price list, rounding and tax settings", async ({ page }) => {
-  await signIn(page, ACCOUNTS.admin);
-  await page.goto("/studio/settings/repairs");
+  await signInTo(page, ACCOUNTS.admin, "/studio/settings/repairs");
   await expect(page.getByRole("heading", { name: "Repair prices and tax" })).toBeVisible();
   await expect(page.getByLabel("Round each quote line")).toHaveValue("cent");
   await expect(page.getByRole("textbox", { name: "Task" }).first()).toHaveValue("Crack or check fill");

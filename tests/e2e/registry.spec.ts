@@ -4,7 +4,7 @@
 import path from "node:path";
 import { expect, test } from "@playwright/test";
 import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
-import { ACCOUNTS, fixture, signIn } from "./helpers";
+import { ACCOUNTS, fixture, signIn, signInTo } from "./helpers";
 
 async function pdfText(bytes: Buffer): Promise<string> {
   const doc = await getDocument({ data: new Uint8Array(bytes), isEvalSupported: false, standardFontDataUrl: path.resolve("node_modules/pdfjs-dist/standard_fonts") + "/" }).promise;
@@ -15,8 +15,7 @@ async function pdfText(bytes: Buffer): Promise<string> {
 
 test("staff record a piece with three layers, find it by search and by code, and open its drawer card", async ({ page }) => {
   const word = `Zephyrwood${Date.now().toString(36)}`;
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio/pieces/new");
+  await signInTo(page, ACCOUNTS.staff, "/studio/pieces/new");
   await page.getByLabel("Title").fill(`${word} river table (e2e)`);
   await page.getByLabel("Kind").selectOption("dining_table");
   // The demo studio works in inches; switch to metric for this record.
@@ -109,8 +108,7 @@ test("staff record a piece with three layers, find it by search and by code, and
 });
 
 test("the URL holds filters and sorting, and the CSV export follows them", async ({ page }) => {
-  await signIn(page, ACCOUNTS.staff);
-  await page.goto("/studio/pieces?kind=bench&sort=title&dir=asc");
+  await signInTo(page, ACCOUNTS.staff, "/studio/pieces?kind=bench&sort=title&dir=asc");
   await expect(page.getByLabel("Kind")).toHaveValue("bench");
   const titles = page.locator("table tbody tr td:nth-child(2) a"); // the first column holds the print checkboxes
   await expect(titles.first()).toBeVisible();
