@@ -8,6 +8,8 @@ import { ApiError, apiJson } from "@/components/api-client";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
+import { ZoneSelect } from "@/components/ui/zone-select";
+import { zoneLabel, type ZoneChoices } from "@/lib/format";
 import type { ClientDetail } from "@/lib/clients/get";
 import { CONTACT_METHOD_LABELS, CONTACT_METHODS } from "@/lib/clients/vocabulary";
 import type { ClientFormInput } from "@/lib/validation/clients";
@@ -16,7 +18,7 @@ const FIELDS = ["name", "email", "phone", "address", "preferredContact", "timeZo
 const textarea = "block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger";
 
 /** A client's contact details: a new client (POST) or changes to one (PATCH). The schema loads while the form is filled in. */
-export function ClientForm({ client, studioZone, zones }: { client?: ClientDetail["client"]; studioZone: string; zones: string[] }) {
+export function ClientForm({ client, studioZone, zones }: { client?: ClientDetail["client"]; studioZone: string; zones: ZoneChoices }) {
   const router = useRouter();
   const queries = useQueryClient();
   const form = useForm<ClientFormInput>({
@@ -73,14 +75,9 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
             </option>
           ))}
         </SelectField>
-        <SelectField label="Time zone" error={errors.timeZone?.message} {...form.register("timeZone")}>
-          <option value="">The studio’s ({studioZone.replace(/_/g, " ")})</option>
-          {zones.map((z) => (
-            <option key={z} value={z}>
-              {z.replace(/_/g, " ")}
-            </option>
-          ))}
-        </SelectField>
+        <ZoneSelect label="Time zone" choices={zones} error={errors.timeZone?.message} {...form.register("timeZone")}>
+          <option value="">The studio’s ({zoneLabel(zones, studioZone)})</option>
+        </ZoneSelect>
       </div>
       <div className="space-y-1.5">
         <label htmlFor="client-address" className="block text-sm font-medium">

@@ -2,12 +2,12 @@
 
 import { useEffect, useSyncExternalStore } from "react";
 import { Button } from "@/components/ui/button";
-import { SelectField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { ZoneSelect } from "@/components/ui/zone-select";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
 import type { PreferencesInput } from "@/lib/validation/owner";
-import { runtimeTimeZone } from "@/lib/format";
+import { runtimeTimeZone, type ZoneChoices } from "@/lib/format";
 
 const noSubscribe = () => () => {};
 
@@ -19,7 +19,8 @@ export function PreferencesForm({
 }: {
   action: (v: PreferencesInput) => Promise<ActionResult<unknown>>;
   defaults: PreferencesInput;
-  zones: string[];
+  /** The zones in words, named by the page (lib/format zoneChoices). */
+  zones: ZoneChoices;
   /** The account still has the default zone: offer the browser's. */
   zoneNeverSet: boolean;
 }) {
@@ -27,10 +28,10 @@ export function PreferencesForm({
   const { register, formState, setValue } = form;
   const browserZone = useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null);
   useEffect(() => {
-    if (zoneNeverSet && browserZone && zones.includes(browserZone) && browserZone !== defaults.timeZone) {
+    if (zoneNeverSet && browserZone && browserZone !== defaults.timeZone) {
       setValue("timeZone", browserZone, { shouldDirty: true });
     }
-  }, [zoneNeverSet, browserZone, zones, defaults.timeZone, setValue]);
+  }, [zoneNeverSet, browserZone, defaults.timeZone, setValue]);
   const fromBrowser = zoneNeverSet && browserZone !== null && browserZone !== defaults.timeZone && form.watch("timeZone") === browserZone;
 
   return (
@@ -50,18 +51,14 @@ export function PreferencesForm({
           </span>
         </label>
       </fieldset>
-      <SelectField
+      <ZoneSelect
         label="Time zone"
+        choices={zones}
+        browserZone={zoneNeverSet ? browserZone : null}
         {...register("timeZone")}
         error={formState.errors.timeZone?.message}
         hint={fromBrowser ? "Filled in from this device — save to keep it." : "Dates and reminder times follow this zone."}
-      >
-        {zones.map((z) => (
-          <option key={z} value={z}>
-            {z.replace(/_/g, " ")}
-          </option>
-        ))}
-      </SelectField>
+      />
       <fieldset className="space-y-2">
         <legend className="text-sm font-medium">Units</legend>
         <div className="grid grid-cols-2 gap-2">

@@ -1,14 +1,17 @@
 "use client";
 
-import { useEffect } from "react";
+import { useEffect, useSyncExternalStore } from "react";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { ZoneSelect } from "@/components/ui/zone-select";
 import type { ActionResult } from "@/lib/validation/action";
 import { CURRENCIES } from "@/lib/care/quote";
 import type { ProfileInput } from "@/lib/validation/settings";
-import { runtimeTimeZone } from "@/lib/format";
+import { runtimeTimeZone, type ZoneChoices } from "@/lib/format";
+
+const noSubscribe = () => () => {};
 
 /**
  * The studio's profile and rates (settings and the set-up's first step). With `guessTimeZone`, a studio
@@ -22,7 +25,7 @@ export function ProfileForm({
   submitLabel = "Save profile and rates",
 }: {
   values: ProfileInput;
-  timeZones: string[];
+  timeZones: ZoneChoices;
   action: (v: ProfileInput) => Promise<ActionResult<unknown>>;
   guessTimeZone?: boolean;
   submitLabel?: string;
@@ -34,11 +37,12 @@ export function ProfileForm({
     onSuccess: () => form.reset(form.getValues()),
   });
   const { register, formState, watch, setValue } = form;
+  // Read after hydration (null on the server), so the guessed zone is an option before it is chosen.
+  const guessed = useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null);
   useEffect(() => {
     if (!guessTimeZone || values.timeZone !== "UTC") return;
-    const guess = runtimeTimeZone();
-    if (guess && guess !== "UTC") setValue("timeZone", guess, { shouldDirty: true });
-  }, [guessTimeZone, values.timeZone, setValue]);
+    if (guessed && guessed !== "UTC") setValue("timeZone", guessed, { shouldDirty: true });
+  }, [guessTimeZone, values.timeZone, guessed, setValue]);
   const e = formState.errors;
   const currency = watch("currency");
   return (
@@ -52,12 +56,7 @@ export function ProfileForm({
           <TextField label="Address" autoComplete="street-address" {...register("address")} error={e.address?.message} />
         </div>
         <TextField label="Phone" type="tel" autoComplete="tel" {...register("phone")} error={e.phone?.message} hint="Printed on receipts; optional." />
-        <TextField label="Time zone" list="gw-time-zones" autoComplete="off" {...register("timeZone")} error={e.timeZone?.message} hint="Dates, the overview's months and visit hours follow it." />
-        <datalist id="gw-time-zones">
-          {timeZones.map((z) => (
-            <option key={z} value={z} />
-          ))}
-        </datalist>
+        <ZoneSelect label="Time zone" choices={timeZones} browserZone={guessTimeZone ? guessed : null} {...register("timeZone")} error={e.timeZone?.message} hint="Dates, the overview's months and visit hours follow it." />
         <SelectField label="Measurements" {...register("unitSystem")} error={e.unitSystem?.message}>
           <option value="metric">Metric (mm, m², mL)</option>
           <option value="imperial">Imperial (in, ft², US fl oz)</option>

@@ -1,14 +1,17 @@
 "use client";
 
-import { useEffect } from "react";
+import { useEffect, useSyncExternalStore } from "react";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { ZoneSelect } from "@/components/ui/zone-select";
 import { CURRENCIES } from "@/lib/care/quote";
 import type { StartStudioInput } from "@/lib/studio/create-schema";
 import type { ActionResult } from "@/lib/validation/action";
-import { runtimeTimeZone } from "@/lib/format";
+import { runtimeTimeZone, type ZoneChoices } from "@/lib/format";
+
+const noSubscribe = () => () => {};
 
 /** Name, time zone (guessed from this browser until changed), currency and measurements of a new studio. */
 export function StartStudioForm({
@@ -18,7 +21,7 @@ export function StartStudioForm({
 }: {
   action: (v: StartStudioInput) => Promise<ActionResult<unknown>>;
   invite?: string;
-  timeZones: string[];
+  timeZones: ZoneChoices;
 }) {
   const { form, onSubmit, formError } = useActionForm({
     schema: () => import("@/lib/studio/create-schema").then((m) => m.startStudioSchema),
@@ -34,10 +37,11 @@ export function StartStudioForm({
   const { register, formState, setValue, getFieldState } = form;
   const e = formState.errors;
 
+  // Read after hydration (null on the server), so the guessed zone is an option before it is chosen.
+  const guessed = useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null);
   useEffect(() => {
-    const guess = runtimeTimeZone();
-    if (guess && !getFieldState("timeZone").isDirty) setValue("timeZone", guess);
-  }, [getFieldState, setValue]);
+    if (guessed && !getFieldState("timeZone").isDirty) setValue("timeZone", guessed);
+  }, [guessed, getFieldState, setValue]);
 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
@@ -47,19 +51,14 @@ export function StartStudioForm({
         </Notice>
       ) : null}
       <TextField label="Studio name" autoComplete="organization" {...register("name")} error={e.name?.message} />
-      <TextField
+      <ZoneSelect
         label="Time zone"
-        list="gw-start-time-zones"
-        autoComplete="off"
+        choices={timeZones}
+        browserZone={guessed}
         {...register("timeZone")}
         error={e.timeZone?.message}
         hint="Taken from this device; change it if the workshop is elsewhere. Dates and visit hours follow it."
       />
-      <datalist id="gw-start-time-zones">
-        {timeZones.map((z) => (
-          <option key={z} value={z} />
-        ))}
-      </datalist>
       <SelectField label="Currency" {...register("currency")} error={e.currency?.message} hint="Quotes and payments use it.">
         {CURRENCIES.map((c) => (
           <option key={c} value={c}>

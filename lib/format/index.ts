@@ -4,3 +4,4 @@
 export * from "./dates";
 export * from "./money";
 export * from "./units";
+export * from "./zones";

@@ -4,15 +4,11 @@ import { PreferencesForm } from "@/components/owner/preferences-form";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
+import { zoneChoices } from "@/lib/format";
 import { getPreferences } from "@/lib/owner/preferences";
 import { savePreferencesAction } from "./actions";
 
 export const metadata: Metadata = { title: "Account" };
-
-const zones = (() => {
-  const all = Intl.supportedValuesOf("timeZone");
-  return all.includes("UTC") ? all : ["UTC", ...all];
-})();
 
 export default async function AccountPage() {
   const prefs = await forPage(async () => getPreferences(await requireUser()));
@@ -22,7 +18,7 @@ export default async function AccountPage() {
       <Card>
         <PreferencesForm
           action={savePreferencesAction}
-          zones={zones.includes(prefs.timeZone) ? zones : [prefs.timeZone, ...zones]}
+          zones={zoneChoices([prefs.timeZone])}
           zoneNeverSet={prefs.timeZone === "UTC"}
           defaults={{ remindersEnabled: prefs.remindersEnabled, timeZone: prefs.timeZone, unitSystem: prefs.unitSystem }}
         />

@@ -6,6 +6,7 @@ import { Notice } from "@/components/ui/notice";
 import { studioMemberships } from "@/lib/auth/guards";
 import { safeNextPath } from "@/lib/auth/next-path";
 import { getCurrentSession } from "@/lib/auth/session";
+import { zoneChoices } from "@/lib/format";
 import { REFUSALS, startGate } from "@/lib/studio/create";
 import { startStudioAction } from "./actions";
 
@@ -55,7 +56,7 @@ export default async function StartStudioPage({ searchParams }: { searchParams: 
           You&apos;re already in {current.map((m) => m.studio.name).join(", ")}. This starts a separate studio with its own pieces and team.
         </Notice>
       ) : null}
-      <StartStudioForm action={startStudioAction} invite={invite} timeZones={Intl.supportedValuesOf("timeZone")} />
+      <StartStudioForm action={startStudioAction} invite={invite} timeZones={zoneChoices()} />
     </AuthCard>
   );
 }

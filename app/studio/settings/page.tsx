@@ -3,6 +3,7 @@ import { ProfileForm } from "@/components/settings/profile-form";
 import { Card } from "@/components/ui/card";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
+import { zoneChoices } from "@/lib/format";
 import { profileFormValues } from "@/lib/settings";
 import { saveProfileAction } from "./actions";
 
@@ -11,7 +12,7 @@ export const metadata: Metadata = { title: "Settings" };
 export default async function SettingsProfilePage() {
   const ctx = await forPage(requireAdmin);
   const values = profileFormValues(ctx);
-  const timeZones = Intl.supportedValuesOf("timeZone");
+  const timeZones = zoneChoices([values.timeZone]);
   return (
     <Card className="space-y-4">
       <div>

@@ -4,7 +4,7 @@ import { ClientForm } from "@/components/clients/client-form";
 import { ClientTimeline } from "@/components/clients/client-timeline";
 import { ConsentForm } from "@/components/clients/consent-form";
 import { PersonalDataCard } from "@/components/clients/personal-data-card";
-import { formatDate, formatInstant } from "@/lib/format";
+import { formatDate, formatInstant, zoneChoices } from "@/lib/format";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
@@ -42,7 +42,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
         <div className="space-y-6">
           <Card className="space-y-3">
             <h2 className="font-display text-xl font-semibold">Contact details</h2>
-            <ClientForm client={client} studioZone={studioZone} zones={Intl.supportedValuesOf("timeZone")} />
+            <ClientForm client={client} studioZone={studioZone} zones={zoneChoices([studioZone, client.timeZone])} />
           </Card>
           <ClientTimeline clientId={client.id} viewerZone={viewerZone} />
         </div>

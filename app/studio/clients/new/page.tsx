@@ -4,6 +4,7 @@ import { ClientForm } from "@/components/clients/client-form";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
+import { zoneChoices } from "@/lib/format";
 
 export const metadata: Metadata = { title: "New client" };
 export const dynamic = "force-dynamic";
@@ -19,7 +20,7 @@ export default async function NewClientPage() {
       </p>
       <PageHeader title="New client" lead="Someone you sold to or serve. They don't need a Grainward account; if they sign up later with this e-mail, the two are linked." />
       <Card>
-        <ClientForm studioZone={ctx.studio.timeZone} zones={Intl.supportedValuesOf("timeZone")} />
+        <ClientForm studioZone={ctx.studio.timeZone} zones={zoneChoices([ctx.studio.timeZone])} />
       </Card>
     </>
   );

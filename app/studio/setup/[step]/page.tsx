@@ -20,7 +20,7 @@ import { HoursEditor } from "@/components/visits/hours-editor";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { listCatalog } from "@/lib/catalog";
-import { formatInstant } from "@/lib/format";
+import { formatInstant, zoneChoices } from "@/lib/format";
 import { freshStudio, policyEditorValues, profileFormValues, reminderTiming, visitRules } from "@/lib/settings";
 import { ACCENT_NAMES, ACCENTS, logoPath } from "@/lib/studio/brand";
 import { SETUP_STEP_WORDS, isSetupStep, setupChecklist, type SetupStep } from "@/lib/studio/setup";
@@ -91,7 +91,7 @@ type Ctx = Awaited<ReturnType<typeof requireAdmin>>;
 function StepBody({ step, ctx }: { step: SetupStep; ctx: Ctx }): ReactNode {
   switch (step) {
     case "details":
-      return <ProfileForm values={profileFormValues(ctx)} timeZones={Intl.supportedValuesOf("timeZone")} action={saveProfileAction} guessTimeZone submitLabel="Save studio details" />;
+      return <ProfileForm values={profileFormValues(ctx)} timeZones={zoneChoices([ctx.studio.timeZone])} action={saveProfileAction} guessTimeZone submitLabel="Save studio details" />;
     case "brand": {
       const s = freshStudio(ctx);
       return <BrandForm studioName={s.name} logoUrl={logoPath(s)} accent={s.accent} accents={ACCENT_NAMES.map((name) => ({ name, ...ACCENTS[name] }))} action={saveAccentAction} />;

@@ -1,0 +1,44 @@
+"use client";
+
+import { forwardRef, type ReactNode, type SelectHTMLAttributes } from "react";
+import { hasZone, zoneOption, type ZoneChoices } from "@/lib/format";
+import { SelectField } from "./field";
+
+type Props = SelectHTMLAttributes<HTMLSelectElement> & {
+  label: string;
+  error?: string;
+  hint?: ReactNode;
+  /** The zones in words, named by the page on the server (lib/format zoneChoices). */
+  choices: ZoneChoices;
+  /**
+   * A zone known only in the browser (its own, guessed after hydration) to offer when the choices lack
+   * it; named here, which is safe as it never appears in the server's render.
+   */
+  browserZone?: string | null;
+  /** Options before the zones (e.g. "The studio's"). */
+  children?: ReactNode;
+};
+
+/**
+ * The one time-zone picker: a native select (keyboard and type-ahead by the zone's name work as
+ * everywhere), each zone in words and grouped by region; the IANA id is the value saved.
+ */
+export const ZoneSelect = forwardRef<HTMLSelectElement, Props>(function ZoneSelect({ choices, browserZone, children, ...props }, ref) {
+  const extra = browserZone && !hasZone(choices, browserZone) ? zoneOption(browserZone) : null;
+  return (
+    <SelectField ref={ref} {...props}>
+      {children}
+      <option value={choices.utc.value}>{choices.utc.label}</option>
+      {extra ? <option value={extra.value}>{extra.label} (this device)</option> : null}
+      {choices.groups.map((g) => (
+        <optgroup key={g.region} label={g.region}>
+          {g.zones.map((z) => (
+            <option key={z.value} value={z.value}>
+              {z.label}
+            </option>
+          ))}
+        </optgroup>
+      ))}
+    </SelectField>
+  );
+});
