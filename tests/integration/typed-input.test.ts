@@ -10,7 +10,7 @@ import { NextRequest } from "next/server";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { memberships, studios, threadMessages } from "@/db/schema";
-import type { StudioRole } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORIES, type StudioRole } from "@/lib/care/vocabulary";
 import { sha256Hex, randomToken } from "@/lib/crypto";
 import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
 import { postClaimMessage } from "@/lib/claims/reply";
@@ -28,6 +28,9 @@ vi.mock("next/headers", () => ({
   }),
   headers: async () => new Headers(),
 }));
+
+// Outside a Next.js request there is no page cache to revalidate; a saved setting's action still answers.
+vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 
 beforeEach(() => jar.clear());
 
@@ -89,6 +92,14 @@ describe("settings: the profile, reminder timing, visit rules and warranty versi
     });
     const row = getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!;
     expect([row.timeZone, row.reminderSendHour]).toEqual([studio.timeZone, studio.reminderSendHour]);
+  });
+
+  it("a saved warranty version says from when it applies, as a date in words", async () => {
+    const { createPolicyVersionAction } = await import("@/app/studio/settings/actions");
+    await signInMember("admin");
+    const line = { covered: true, label: "Test line (invented)", termMonths: 24, exclusions: [], careLogRequired: false, graceDays: 30, onMissed: "partly_covered", climateCheck: false, partlyCoveredPct: 50, transfersToNewOwner: true };
+    const saved = await createPolicyVersionAction({ effectiveFrom: "2027-03-01", lines: Object.fromEntries(CLAIM_CATEGORIES.map((c) => [c, line])) });
+    expect(saved).toMatchObject({ ok: true, message: "Version 1 saved; it applies to pieces delivered from 1 March 2027." });
   });
 });
 
