@@ -5,7 +5,7 @@ import ICAL from "ical.js";
 import sharp from "sharp";
 import { expect, test, type Locator, type Page } from "@playwright/test";
 import { getMail, waitForMail } from "../support/mail";
-import { ACCOUNTS, SINK_URL, fixture, signIn } from "./helpers";
+import { ACCOUNTS, SINK_URL, fixture, signIn, signInTo } from "./helpers";
 import { startVisitNow } from "./e2e-db";
 
 const SOL = "sol@larchmere.example";
@@ -68,8 +68,7 @@ test("10 simultaneous bookings of one slot → one 201, nine 409 with fresh slot
 test("owner books a slot; the technician files the report on a phone; the owner gets the summary", async ({ browser }) => {
   const jobId = fixture().jobs.paid!;
   const owner = await browser.newPage();
-  await signIn(owner, ACCOUNTS.owner);
-  await owner.goto(`/jobs/${jobId}`);
+  await signInTo(owner, ACCOUNTS.owner, `/jobs/${jobId}`);
   await owner.getByRole("link", { name: "Book your visit" }).click();
   await expect(owner).toHaveURL(new RegExp(`/jobs/${jobId}/book`));
   // Days are chips; the first day with a time of Ines's is picked.
@@ -101,8 +100,7 @@ test("owner books a slot; the technician files the report on a phone; the owner 
 
   const ctx = await browser.newContext({ viewport: { width: 375, height: 812 }, hasTouch: true, isMobile: true });
   const tech = await ctx.newPage();
-  await signIn(tech, ACCOUNTS.technician);
-  await tech.goto(`/studio/today?date=${date}`);
+  await signInTo(tech, ACCOUNTS.technician, `/studio/today?date=${date}`);
   const card = tech.getByRole("listitem").filter({ has: tech.getByRole("heading", { name: "Walnut river dining table" }) }).filter({ hasText: "Topcoat refresh, dining table" });
   await expect(card).toBeVisible();
   await expect(card.getByText("14 Quarry Lane, Port Alder")).toBeVisible();
