@@ -11,6 +11,7 @@ import { beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { memberships, studios, threadMessages } from "@/db/schema";
 import { CLAIM_CATEGORIES, type StudioRole } from "@/lib/care/vocabulary";
+import type { PolicyVersionInput } from "@/lib/validation/settings";
 import { sha256Hex, randomToken } from "@/lib/crypto";
 import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
 import { postClaimMessage } from "@/lib/claims/reply";
@@ -97,8 +98,9 @@ describe("settings: the profile, reminder timing, visit rules and warranty versi
   it("a saved warranty version says from when it applies, as a date in words", async () => {
     const { createPolicyVersionAction } = await import("@/app/studio/settings/actions");
     await signInMember("admin");
-    const line = { covered: true, label: "Test line (invented)", termMonths: 24, exclusions: [], careLogRequired: false, graceDays: 30, onMissed: "partly_covered", climateCheck: false, partlyCoveredPct: 50, transfersToNewOwner: true };
-    const saved = await createPolicyVersionAction({ effectiveFrom: "2027-03-01", lines: Object.fromEntries(CLAIM_CATEGORIES.map((c) => [c, line])) });
+    const line: PolicyVersionInput["lines"]["other"] = { covered: true, label: "Test line (invented)", termMonths: 24, exclusions: [], careLogRequired: false, graceDays: 30, onMissed: "partly_covered", climateCheck: false, partlyCoveredPct: 50, transfersToNewOwner: true };
+    const lines = Object.fromEntries(CLAIM_CATEGORIES.map((c) => [c, line])) as PolicyVersionInput["lines"];
+    const saved = await createPolicyVersionAction({ effectiveFrom: "2027-03-01", lines });
     expect(saved).toMatchObject({ ok: true, message: "Version 1 saved; it applies to pieces delivered from 1 March 2027." });
   });
 });
