@@ -10,18 +10,8 @@ import { formatPlanPrice, planPriceWords } from "@/lib/plans/price-words";
 import { clientPiecePlans } from "@/lib/plans/staff";
 import { startPlanByOtherMeans } from "@/lib/plans/subscriptions";
 import { createTemplate, updateTemplate } from "@/lib/plans/templates";
-import { planTemplateSchema } from "@/lib/plans/validation";
-import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
+import { createPiece, createStudio, createUser, memberContext, planTemplateInput } from "../support/fixtures";
 
-const template = (over: Record<string, unknown>) =>
-  planTemplateSchema.parse({
-    name: "Finish keeping (invented)",
-    included: { tasks: ["reoil"], visitsPerYear: 1, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
-    fits: { finishClasses: ["hardwax_oil"], pieceKinds: ["dining_table"], minTopAreaM2: 0.5, maxTopAreaM2: 4 },
-    priceMinor: 15_190,
-    interval: "year",
-    ...over,
-  });
 
 describe("care plan prices in words", () => {
   it("formats the amount with its period", () => {
@@ -36,8 +26,8 @@ describe("care plan prices in words", () => {
     const studio = createStudio({ taxRateBp: 0 });
     const admin = await memberContext(studio, "admin");
     const owner = await createUser();
-    const yearly = createTemplate(admin, template({}));
-    const monthly = createTemplate(admin, template({ name: "Monthly keeping (invented)", priceMinor: 1_450, interval: "month" }));
+    const yearly = createTemplate(admin, planTemplateInput({}));
+    const monthly = createTemplate(admin, planTemplateInput({ name: "Monthly keeping (invented)", priceMinor: 1_450, interval: "month" }));
     const { piece: a } = createPiece(studio, { ownerId: owner.id });
     const { piece: b } = createPiece(studio, { ownerId: owner.id });
 
@@ -54,7 +44,7 @@ describe("care plan prices in words", () => {
     expect([...words().values()].join(" ")).not.toMatch(/version|\(v\d/i);
 
     // The yearly plan is changed: the running plan keeps its price, now dated so staff can compare.
-    updateTemplate(admin, yearly.id, template({ priceMinor: 16_500 }));
+    updateTemplate(admin, yearly.id, planTemplateInput({ priceMinor: 16_500 }));
     const asOf = `$151.90 a year (price as of ${formatInstant(yearly.createdAt, studio.timeZone)})`;
     expect(words().get(subA.id)).toBe(asOf);
     expect(planPriceWords(clientPiecePlans(admin, [a.id])[0]!.plan!, studio.country, studio.timeZone)).toBe(asOf);

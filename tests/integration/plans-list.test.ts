@@ -8,23 +8,13 @@ import { planSubscriptions } from "@/db/schema";
 import { listStudioPlans, studioPlanRow } from "@/lib/plans/overview";
 import { startPlanByOtherMeans } from "@/lib/plans/subscriptions";
 import { createTemplate } from "@/lib/plans/templates";
-import { planTemplateSchema } from "@/lib/plans/validation";
-import { createPiece, createStudio, createUser, memberContext } from "../support/fixtures";
+import { createPiece, createStudio, createUser, memberContext, planTemplateInput } from "../support/fixtures";
 
 describe("the staff plans list and a plan's page", () => {
   it("lists the newest 500 newest first; a plan's page finds an old plan beyond them; another studio's plan is undefined", async () => {
     const studio = createStudio({ taxRateBp: 0 });
     const admin = await memberContext(studio, "admin");
-    const template = createTemplate(
-      admin,
-      planTemplateSchema.parse({
-        name: "Finish keeping (invented)",
-        included: { tasks: ["reoil"], visitsPerYear: 1, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
-        fits: { finishClasses: ["hardwax_oil"], pieceKinds: ["dining_table"], minTopAreaM2: 0.5, maxTopAreaM2: 4 },
-        priceMinor: 15_190,
-        interval: "year",
-      }),
-    );
+    const template = createTemplate(admin, planTemplateInput());
     const { piece } = createPiece(studio, { ownerId: (await createUser()).id });
     const first = startPlanByOtherMeans(admin, { pieceId: piece.id, templateId: template.id, paidByNote: "bank transfer (test)" });
     const t0 = Date.UTC(2025, 0, 1);

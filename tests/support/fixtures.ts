@@ -6,6 +6,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { hashPassword } from "@/lib/auth/password";
 import type { StudioRole } from "@/lib/care/vocabulary";
 import { newRegistrationCode } from "@/lib/pieces/registration";
+import { planTemplateSchema } from "@/lib/plans/validation";
 
 let counter = 0;
 export const unique = (prefix: string) => `${prefix}-${process.pid}-${Date.now().toString(36)}-${++counter}`;
@@ -97,4 +98,16 @@ export function createProduct(studio: Studio, overrides: Partial<typeof finishPr
     .values({ studioId: studio.id, name: "Test hardwax oil (invented)", finishClass: "hardwax_oil", coverageM2PerL: 24, containers: [{ ml: 125, priceMinor: 1900 }], ...overrides })
     .returning()
     .get();
+}
+
+/** A care plan template's form values, as POST /api/plans parses them: a yearly re-oiling plan for oiled dining tables unless overridden. */
+export function planTemplateInput(overrides: Record<string, unknown> = {}) {
+  return planTemplateSchema.parse({
+    name: "Finish keeping (invented)",
+    included: { tasks: ["reoil"], visitsPerYear: 1, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
+    fits: { finishClasses: ["hardwax_oil"], pieceKinds: ["dining_table"], minTopAreaM2: 0.5, maxTopAreaM2: 4 },
+    priceMinor: 15_190,
+    interval: "year",
+    ...overrides,
+  });
 }
