@@ -25,6 +25,14 @@ export function fixture(): { demoPieceId: string; otherPieceId: string; unregist
   return JSON.parse(fs.readFileSync("tests/.tmp/e2e-fixture.json", "utf8"));
 }
 
+/**
+ * A pattern for a URL whose path ends in `path`, taken literally: a card code's check symbol may be
+ * one of Crockford's `*~$=U` (lib/care/registration-code.ts), which a bare RegExp would read as syntax.
+ */
+export function urlEndingWith(path: string): RegExp {
+  return new RegExp(`${path.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}$`);
+}
+
 export async function signIn(page: Page, email: string, password = PASSWORD) {
   await submitSignIn(page, "/sign-in", email, password);
 }

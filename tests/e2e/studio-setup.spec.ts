@@ -16,7 +16,7 @@ import Database from "better-sqlite3";
 import sharp from "sharp";
 import { expect, test, type Browser, type Page } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { DATABASE_FILE, SINK_URL } from "./helpers";
+import { DATABASE_FILE, SINK_URL, urlEndingWith } from "./helpers";
 
 test.use({ viewport: { width: 1280, height: 900 }, timezoneId: "America/Halifax" });
 
@@ -244,7 +244,7 @@ test("a stranger starts a studio, sets it up step by step, records a piece whose
   await expect(owner.getByRole("heading", { name: pieceTitle })).toBeVisible();
   await owner.getByRole("link", { name: "Create an account and register" }).click();
   await signUpAndConfirm(owner, buyer);
-  await expect(owner).toHaveURL(new RegExp(`${link.pathname}$`));
+  await expect(owner).toHaveURL(urlEndingWith(link.pathname));
   await owner.getByRole("button", { name: "Register this piece to my account" }).click();
   await expect(owner).toHaveURL(new RegExp(`/pieces/${pieceId}`));
   await expect(owner.getByRole("heading", { level: 1, name: pieceTitle })).toBeVisible();
