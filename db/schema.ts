@@ -638,6 +638,13 @@ export const repairJobsRelations = relations(repairJobs, ({ one, many }) => ({
 }));
 
 /** One Stripe Checkout Session for a job's quote version, and what Stripe last reported about it. */
+/**
+ * Which Stripe account an object (a Checkout Session, charge or subscription) was made under: the
+ * install's (STRIPE_SECRET_KEY) or the studio's own saved key. Every later call about it uses that
+ * account's key (lib/payments/stripe.ts); null on rows made before this was recorded (the studio's current key).
+ */
+export const STRIPE_ACCOUNTS = ["install", "studio"] as const;
+
 export const payments = sqliteTable(
   "payments",
   {
@@ -653,6 +660,8 @@ export const payments = sqliteTable(
     currency: text("currency").notNull(),
     status: text("status", { enum: PAYMENT_STATUSES }).notNull().default("open"),
     paymentIntentId: text("payment_intent_id"),
+    /** The Stripe account the Checkout Session (and so its charge) was made under. */
+    stripeAccount: text("stripe_account", { enum: STRIPE_ACCOUNTS }),
     refundedMinor: integer("refunded_minor").notNull().default(0),
     /** Set when this payment is to be refunded in full; null while it counts (or is still open). */
     refundReason: text("refund_reason", { enum: PAYMENT_REFUND_REASONS }),
@@ -1239,6 +1248,13 @@ export const planSubscriptions = sqliteTable(
     stripeSubscriptionId: text("stripe_subscription_id").unique(),
     checkoutSessionId: text("checkout_session_id").unique(),
     checkoutUrl: text("checkout_url"),
+    /** The Stripe account the plan's checkout, subscription and invoices were made under. */
+    stripeAccount: text("stripe_account", { enum: STRIPE_ACCOUNTS }),
+    /**
+     * A change of hands not yet finished at Stripe (lib/plans/transfer.ts): "stripe" — Stripe is still
+     * to be told; "refund" — the refund is still to be paid and the owner mailed. Null when nothing is left.
+     */
+    transferStep: text("transfer_step", { enum: ["stripe", "refund"] }),
     /** Gross amount per interval the plan was bought at (tax as the studio set it then). */
     amountMinor: integer("amount_minor").notNull(),
     currency: text("currency").notNull(),
