@@ -4,18 +4,10 @@
 import { describe, expect, it } from "vitest";
 import { checkCoverage, DEFAULT_WARRANTY_POLICY, type CarePiece } from "@/lib/care";
 import { coverageWorkedOut, type CoverageFacts } from "@/lib/claims/coverage-words";
+import { noExclusionAnswers, walnutTable } from "../support/care-pieces";
 
-const piece: CarePiece = {
-  id: "pc_words",
-  kind: "dining_table",
-  use: "heavy",
-  sun: "indirect",
-  deliveredOn: "2025-03-02",
-  resin: "deep_pour",
-  shape: { kind: "rectangle", lengthMm: 2400, widthMm: 1000 },
-  primarySpeciesId: "black_walnut",
-};
-const no = { heat: false, chemicals: false, impact: false, usedOutdoors: false, directSun: false };
+const piece: CarePiece = { ...walnutTable, id: "pc_words" };
+const no = noExclusionAnswers;
 const facts = (over: Partial<CoverageFacts> = {}): CoverageFacts => ({ deliveredOn: piece.deliveredOn, units: "metric", plan: null, ...over });
 const MACHINE = /\d{4}-\d{2}-\d{2}|from memory|common practice|no published source|Wood Handbook|Eq\. ?\d|Table \d|\b[a-z]+_[a-z_]+\b|version/i;
 

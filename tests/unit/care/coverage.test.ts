@@ -1,18 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { CareInputError, checkCoverage, DEFAULT_WARRANTY_POLICY, type CareFinishLayer, type CarePiece, type CoverageClaim } from "@/lib/care";
+import { noExclusionAnswers, walnutTable } from "../../support/care-pieces";
 
-// Invented demo pieces.
-const table: CarePiece = {
-  id: "pc_walnut",
-  kind: "dining_table",
-  use: "heavy",
-  sun: "indirect",
-  deliveredOn: "2025-03-02",
-  resin: "deep_pour",
-  shape: { kind: "rectangle", lengthMm: 2400, widthMm: 1000 },
-  primarySpeciesId: "black_walnut",
-};
-const noAnswers = { heat: false, chemicals: false, impact: false, usedOutdoors: false, directSun: false };
+const table = walnutTable;
+const noAnswers = noExclusionAnswers;
 const now = "2025-11-01T12:00:00Z";
 const run = (claim: CoverageClaim, extra: Partial<Parameters<typeof checkCoverage>[0]> = {}) =>
   checkCoverage({ claim, piece: table, policy: DEFAULT_WARRANTY_POLICY, careLog: [], now, ...extra });
