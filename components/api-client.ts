@@ -9,7 +9,8 @@ import type { ActionResult } from "@/lib/validation/action";
 type FieldErrors = Record<string, string[]>;
 
 /**
- * A refused request: `status` is the HTTP status (0 when the server could not be reached), `body` the
+ * A refused request: `status` is the HTTP status (0 when the server could not be reached, 400 for a
+ * server action's refusal, which has no status of its own), `body` the
  * whole answer, for the routes that send more than the error (fresh free times with a visit's 409,
  * the checked rows of a CSV import).
  */
@@ -61,6 +62,16 @@ export async function callApi<T>(url: string, init: ApiInit = {}): Promise<Actio
     if (!isApiError(e)) throw e;
     return { ok: false, message: e.message, fieldErrors: e.fieldErrors };
   }
+}
+
+/**
+ * A server action's answer taken like a route's: its data and message on success, an ApiError carrying its
+ * message and field messages otherwise, so useRefreshingMutation shows both kinds of call the same way.
+ */
+export async function actionData<T>(answer: Promise<ActionResult<T>>): Promise<{ data: T; message?: string }> {
+  const r = await answer;
+  if (!r.ok) throw new ApiError(400, r.message, "", r.fieldErrors ?? {});
+  return { data: r.data, message: r.message };
 }
 
 /**

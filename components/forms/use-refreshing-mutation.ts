@@ -1,25 +1,56 @@
 "use client";
-// The one way a button or small form on a server-rendered page changes something through the JSON API
-// and shows the result: TanStack Query's useMutation runs the call (its pending state disables the
-// button), the page's server components are fetched again on success (router.refresh()), and a refusal
-// becomes one sentence for the person — the API's own message (with its field messages where asked),
-// or a plain line when the request never got an answer.
+// The one way a button or small form on a server-rendered page changes something and shows the result:
+// TanStack Query's useMutation runs the call (a JSON route through components/api-client, or a server
+// action through actionData), its pending state disables the button, the page's server components are
+// fetched again on success (router.refresh()) or the page moves on (`goTo`), and a refusal becomes one
+// sentence for the person — the API's own message (with its field messages where asked), or a plain
+// line when the request never got an answer.
 import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { isApiError } from "@/components/api-client";
 
 const OFFLINE = "That didn't go through. Check your connection and try again.";
 
-export function useRefreshingMutation<V, T>(call: (vars: V) => Promise<T>, opts: { onSuccess?: (result: T, vars: V) => void; withFieldErrors?: boolean } = {}) {
+/** The sentence shown for a failed call: the API's message (and its field messages, when asked), or a plain line. */
+export function refusalWords(e: unknown, withFieldErrors = false): string {
+  if (!isApiError(e)) return OFFLINE;
+  return withFieldErrors ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : e.message;
+}
+
+export type RefreshingMutationOptions<V, T> = {
+  onSuccess?: (result: T, vars: V) => void;
+  /** Told the sentence shown for a refusal (e.g. to toast it), with the error itself for its field messages. */
+  onError?: (words: string, error: unknown, vars: V) => void;
+  withFieldErrors?: boolean;
+  /** When to fetch the page again: after a success (the default), or after a refusal too, when part of the change can stand. */
+  refresh?: "success" | "always";
+  /** Where the page goes after a success instead of staying (a path in the app, or a full address); null stays. The button stays busy while it goes. */
+  goTo?: (result: T, vars: V) => string | null;
+};
+
+export function useRefreshingMutation<V, T>(call: (vars: V) => Promise<T>, opts: RefreshingMutationOptions<V, T> = {}) {
   const router = useRouter();
   const m = useMutation({
     mutationFn: call,
     onSuccess: (result, vars) => {
       opts.onSuccess?.(result, vars);
+      const to = opts.goTo?.(result, vars);
+      if (to && /^https?:/.test(to)) return window.location.assign(to);
+      if (to) router.push(to);
       router.refresh();
     },
+    onError: (e, vars) => {
+      opts.onError?.(refusalWords(e, opts.withFieldErrors), e, vars);
+      if (opts.refresh === "always") router.refresh();
+    },
   });
-  const e = m.error;
-  const error = !e ? null : !isApiError(e) ? OFFLINE : opts.withFieldErrors ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : e.message;
-  return { run: m.mutate, busy: m.isPending, error, reset: m.reset };
+  const leaving = m.isSuccess && !!opts.goTo?.(m.data, m.variables);
+  return {
+    run: m.mutate,
+    busy: m.isPending || leaving,
+    /** The last call's input, while it runs and after it fails: which row or which button a busy state or an error belongs to. */
+    vars: m.variables,
+    error: m.error ? refusalWords(m.error, opts.withFieldErrors) : null,
+    reset: m.reset,
+  };
 }

@@ -1,0 +1,33 @@
+// The one way a page's button changes something (components/forms/use-refreshing-mutation.ts): what a
+// refusal reads as, and a server action's answer taken like a route's (components/api-client.ts
+// actionData), so the hook shows both kinds of call the same way.
+import { describe, expect, it } from "vitest";
+import { ApiError, actionData, isApiError } from "@/components/api-client";
+import { refusalWords } from "@/components/forms/use-refreshing-mutation";
+
+describe("refusalWords", () => {
+  it("shows the API's own message, with its field messages only when asked", () => {
+    const e = new ApiError(422, "Check the highlighted fields.", "invalid", { email: ["Enter an e-mail address."], name: ["Enter a name."] });
+    expect(refusalWords(e)).toBe("Check the highlighted fields.");
+    expect(refusalWords(e, true)).toBe("Check the highlighted fields. Enter an e-mail address. Enter a name.");
+  });
+
+  it("gives one plain line for anything that is not an answer from the API", () => {
+    expect(refusalWords(new TypeError("Failed to fetch"))).toBe("That didn't go through. Check your connection and try again.");
+    expect(refusalWords(undefined)).toBe("That didn't go through. Check your connection and try again.");
+  });
+});
+
+describe("actionData", () => {
+  it("answers a server action's data and message on success", async () => {
+    await expect(actionData(Promise.resolve({ ok: true as const, data: { id: "m1" }, message: "Role changed." }))).resolves.toEqual({ data: { id: "m1" }, message: "Role changed." });
+  });
+
+  it("turns a server action's refusal into an ApiError with its message and field messages", async () => {
+    const refused = await actionData(Promise.resolve({ ok: false as const, message: "The studio needs at least one admin.", fieldErrors: { role: ["Pick another role."] } })).catch((e: unknown) => e);
+    expect(isApiError(refused)).toBe(true);
+    const e = refused as ApiError;
+    expect([e.status, e.message, e.fieldErrors]).toEqual([400, "The studio needs at least one admin.", { role: ["Pick another role."] }]);
+    expect(refusalWords(e, true)).toBe("The studio needs at least one admin. Pick another role.");
+  });
+});
