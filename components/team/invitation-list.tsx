@@ -1,8 +1,9 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
+import { actionData } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { Notice } from "@/components/ui/notice";
@@ -13,24 +14,14 @@ export type InvitationView = { id: string; email: string; roleLabel: string; unt
 
 /** Invitations still waiting to be accepted, each of which an admin can withdraw. */
 export function InvitationList({ invitations, revoke }: { invitations: InvitationView[]; revoke: (v: RevokeInvitationInput) => Promise<ActionResult<unknown>> }) {
-  const router = useRouter();
   const [pending, setPending] = useState<InvitationView | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-
-  async function withdraw(invitation: InvitationView) {
-    setBusy(true);
-    setError(null);
-    const result = await revoke({ invitationId: invitation.id });
-    setBusy(false);
-    setPending(null);
-    if (result.ok) {
-      toast.success(result.message ?? "Invitation withdrawn.");
-      router.refresh();
-    } else {
-      setError(result.message);
-    }
-  }
+  const { run: withdraw, busy, error } = useRefreshingMutation((invitation: InvitationView) => actionData(revoke({ invitationId: invitation.id })), {
+    onSuccess: (r) => {
+      setPending(null);
+      toast.success(r.message ?? "Invitation withdrawn.");
+    },
+    onError: () => setPending(null),
+  });
 
   return (
     <>
@@ -56,7 +47,7 @@ export function InvitationList({ invitations, revoke }: { invitations: Invitatio
         confirmLabel="Withdraw the invitation"
         busy={busy}
         onCancel={() => setPending(null)}
-        onConfirm={() => pending && void withdraw(pending)}
+        onConfirm={() => pending && withdraw(pending)}
       >
         <p>The link in their e-mail stops working at once. You can invite them again later.</p>
       </ConfirmDialog>

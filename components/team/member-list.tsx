@@ -1,9 +1,10 @@
 "use client";
 
 import { ShieldCheck, User, Wrench, type LucideIcon } from "lucide-react";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
+import { actionData } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import type { StudioRole } from "@/lib/care/vocabulary";
@@ -33,25 +34,20 @@ export function MemberList({
   changeRole: (v: ChangeRoleInput) => Promise<ActionResult<unknown>>;
   remove: (v: RemoveMemberInput) => Promise<ActionResult<unknown>>;
 }) {
-  const router = useRouter();
   const [choice, setChoice] = useState<Record<string, StudioRole>>({});
   const [pending, setPending] = useState<Pending | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<{ id: string; message: string } | null>(null);
-
-  async function run(p: Pending) {
-    setBusy(true);
-    setError(null);
-    const result = p.kind === "role" ? await changeRole({ membershipId: p.member.id, role: p.role }) : await remove({ membershipId: p.member.id });
-    setBusy(false);
-    setPending(null);
-    if (result.ok) {
-      toast.success(result.message ?? "Saved.");
-      router.refresh();
-    } else {
-      setError({ id: p.member.id, message: result.message });
-    }
-  }
+  const { run, busy, vars, error } = useRefreshingMutation(
+    (p: Pending) => actionData(p.kind === "role" ? changeRole({ membershipId: p.member.id, role: p.role }) : remove({ membershipId: p.member.id })),
+    {
+      onSuccess: (r) => {
+        setPending(null);
+        toast.success(r.message ?? "Saved.");
+      },
+      onError: () => setPending(null),
+    },
+  );
+  // The refusal shows under the member it was about.
+  const errorFor = error && vars ? vars.member.id : null;
 
   function askRole(m: MemberView) {
     const role = choice[m.id] ?? m.role;
@@ -59,7 +55,7 @@ export function MemberList({
     const p: Pending = { kind: "role", member: m, role };
     // Taking rights away asks first; giving more does not.
     if (RANK[role] < RANK[m.role]) setPending(p);
-    else void run(p);
+    else run(p);
   }
 
   return (
@@ -81,9 +77,9 @@ export function MemberList({
                   <strong>{look.label}</strong> <span className="text-muted">— {look.note}</span>
                 </p>
                 {lastAdmin ? <p className="text-sm text-muted">The studio&apos;s only admin: make someone else an admin before changing this role.</p> : null}
-                {error?.id === m.id ? (
+                {errorFor === m.id ? (
                   <Notice tone="error" className="mt-2">
-                    {error.message}
+                    {error}
                   </Notice>
                 ) : null}
               </div>
@@ -112,7 +108,7 @@ export function MemberList({
           );
         })}
       </ul>
-      <ConfirmDialogFor pending={pending} busy={busy} onCancel={() => setPending(null)} onConfirm={() => pending && void run(pending)} />
+      <ConfirmDialogFor pending={pending} busy={busy} onCancel={() => setPending(null)} onConfirm={() => pending && run(pending)} />
     </>
   );
 }
