@@ -11,7 +11,8 @@ import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
 import { FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import type { LayerInput } from "@/lib/validation/pieces";
-import { callApi } from "@/components/api-client";
+import { apiJson, callApi, type ApiInit } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { formatDate } from "@/lib/format";
 import { LayerFields, type MemberOption, type ProductOption } from "./layer-fields";
 
@@ -76,21 +77,14 @@ function LayerForm({ pieceId, products, members, onDone, ...target }: { pieceId:
 
 /** The finish stack of each surface, drawn as layers (first applied at the bottom, on the wood). */
 export function FinishStackEditor({ pieceId, layers, products, members, today }: { pieceId: string; layers: StackLayer[]; products: ProductOption[]; members: MemberOption[]; today: string }) {
-  const router = useRouter();
   const [adding, setAdding] = useState<Surface | null>(null);
   const [editing, setEditing] = useState<string | null>(null);
   const [confirming, setConfirming] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  const act = async (fn: () => ReturnType<typeof callApi>, ok: string) => {
-    setBusy(true);
-    const r = await fn();
-    setBusy(false);
-    if (r.ok) {
-      toast.success(ok);
-      router.refresh();
-    } else toast.error(r.message);
-  };
+  const { run, busy } = useRefreshingMutation(({ url, init }: { url: string; init: ApiInit; done: string }) => apiJson(url, init), {
+    onSuccess: (_, { done }) => toast.success(done),
+    onError: (words) => toast.error(words),
+  });
+  const layerUrl = (l: StackLayer) => `/api/pieces/${pieceId}/layers/${l.id}`;
 
   return (
     <div className="space-y-6">
@@ -124,10 +118,10 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                       </p>
                     </div>
                     <div className="flex flex-wrap gap-1">
-                      <button type="button" disabled={busy || l.position === stack.length - 1} onClick={() => act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, { method: "PATCH", json: { position: l.position + 1 } }), "Layer moved outward.")} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer outward`}>
+                      <button type="button" disabled={busy || l.position === stack.length - 1} onClick={() => run({ url: layerUrl(l), init: { method: "PATCH", json: { position: l.position + 1 } }, done: "Layer moved outward." })} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer outward`}>
                         <ArrowUp aria-hidden className="size-4" />
                       </button>
-                      <button type="button" disabled={busy || l.position === 0} onClick={() => act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, { method: "PATCH", json: { position: l.position - 1 } }), "Layer moved toward the wood.")} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer toward the wood`}>
+                      <button type="button" disabled={busy || l.position === 0} onClick={() => run({ url: layerUrl(l), init: { method: "PATCH", json: { position: l.position - 1 } }, done: "Layer moved toward the wood." })} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer toward the wood`}>
                         <ArrowDown aria-hidden className="size-4" />
                       </button>
                       <button type="button" onClick={() => setEditing(editing === l.id ? null : l.id)} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white" aria-label={`Edit ${FINISH_CLASS_LABELS[l.finishClass]} layer`}>
@@ -141,7 +135,7 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                   {confirming === l.id ? (
                     <div role="alertdialog" aria-label="Remove this layer?" className="flex flex-wrap items-center gap-2 bg-danger-soft px-3 py-2 text-sm">
                       <span className="font-semibold">Remove this layer? The care schedule will be recomputed; the audit log keeps a record.</span>
-                      <Button variant="danger" disabled={busy} onClick={() => (setConfirming(null), act(() => callApi(`/api/pieces/${pieceId}/layers/${l.id}`, { method: "DELETE" }), "Finish layer removed."))}>
+                      <Button variant="danger" disabled={busy} onClick={() => (setConfirming(null), run({ url: layerUrl(l), init: { method: "DELETE" }, done: "Finish layer removed." }))}>
                         Remove layer
                       </Button>
                       <Button variant="secondary" onClick={() => setConfirming(null)}>

@@ -5,7 +5,8 @@ import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
-import { apiJson, callApi, isApiError } from "@/components/api-client";
+import { apiJson, isApiError } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 
 function Confirm({ text, action, onYes, onNo, busy }: { text: string; action: string; onYes: () => void; onNo: () => void; busy: boolean }) {
   return (
@@ -25,37 +26,36 @@ function Confirm({ text, action, onYes, onNo, busy }: { text: string; action: st
 
 /** Drawer card links, code reissue and delete/archive, each destructive one asked first. */
 export function PieceActions({ pieceId, registered, archived }: { pieceId: string; registered: boolean; archived: boolean }) {
-  const router = useRouter();
   const [ask, setAsk] = useState<null | "reissue" | "delete">(null);
-  const [busy, setBusy] = useState(false);
   const [code, setCode] = useState<string | null>(null);
+  // A confirmed step closes its question either way; a refusal is toasted.
+  const asked = {
+    onError: (words: string) => {
+      setAsk(null);
+      toast.error(words);
+    },
+  };
 
-  const reissue = async () => {
-    setBusy(true);
-    const r = await callApi<{ registrationCode: string }>(`/api/pieces/${pieceId}/registration-code`, { method: "POST" });
-    setBusy(false);
-    setAsk(null);
-    if (!r.ok) return toast.error(r.message);
-    setCode(r.data.registrationCode);
-    toast.success("New registration code issued; the old one no longer works. Print a new drawer card.");
-    router.refresh();
-  };
-  const remove = async () => {
-    setBusy(true);
-    const r = await callApi<{ deleted: boolean; archived: boolean }>(`/api/pieces/${pieceId}`, { method: "DELETE" });
-    setBusy(false);
-    setAsk(null);
-    if (!r.ok) return toast.error(r.message);
-    toast.success(r.data.deleted ? "Piece record deleted." : "The piece is registered, so it was archived instead of deleted.");
-    if (r.data.deleted) router.push("/studio/pieces");
-    else router.refresh();
-  };
-  const unarchive = async () => {
-    const r = await callApi(`/api/pieces/${pieceId}`, { method: "PATCH", json: { archived: false } });
-    if (!r.ok) return toast.error(r.message);
-    toast.success("Piece taken out of the archive.");
-    router.refresh();
-  };
+  const reissue = useRefreshingMutation(() => apiJson<{ registrationCode: string }>(`/api/pieces/${pieceId}/registration-code`, { method: "POST" }), {
+    ...asked,
+    onSuccess: (r) => {
+      setAsk(null);
+      setCode(r.registrationCode);
+      toast.success("New registration code issued; the old one no longer works. Print a new drawer card.");
+    },
+  });
+  const remove = useRefreshingMutation(() => apiJson<{ deleted: boolean; archived: boolean }>(`/api/pieces/${pieceId}`, { method: "DELETE" }), {
+    ...asked,
+    onSuccess: (r) => {
+      setAsk(null);
+      toast.success(r.deleted ? "Piece record deleted." : "The piece is registered, so it was archived instead of deleted.");
+    },
+    goTo: (r) => (r.deleted ? "/studio/pieces" : null),
+  });
+  const unarchive = useRefreshingMutation(() => apiJson(`/api/pieces/${pieceId}`, { method: "PATCH", json: { archived: false } }), {
+    onError: (words) => toast.error(words),
+    onSuccess: () => toast.success("Piece taken out of the archive."),
+  });
 
   return (
     <div className="space-y-3">
@@ -70,7 +70,7 @@ export function PieceActions({ pieceId, registered, archived }: { pieceId: strin
           <KeyRound aria-hidden className="size-4" /> Reissue code
         </Button>
         {archived ? (
-          <Button variant="secondary" onClick={unarchive}>
+          <Button variant="secondary" onClick={() => unarchive.run(undefined)}>
             <Archive aria-hidden className="size-4" /> Take out of archive
           </Button>
         ) : (
@@ -80,14 +80,14 @@ export function PieceActions({ pieceId, registered, archived }: { pieceId: strin
         )}
       </div>
       {ask === "reissue" ? (
-        <Confirm text="Issue a new registration code? The code on the printed card stops working at once." action="Issue a new code" busy={busy} onYes={reissue} onNo={() => setAsk(null)} />
+        <Confirm text="Issue a new registration code? The code on the printed card stops working at once." action="Issue a new code" busy={reissue.busy} onYes={() => reissue.run(undefined)} onNo={() => setAsk(null)} />
       ) : null}
       {ask === "delete" ? (
         <Confirm
           text={registered ? "This piece is registered to its owner, so it will be archived (kept, hidden from the registry)." : "Delete this piece record, its finish stack and photos? This cannot be undone."}
           action={registered ? "Archive piece" : "Delete piece"}
-          busy={busy}
-          onYes={remove}
+          busy={remove.busy}
+          onYes={() => remove.run(undefined)}
           onNo={() => setAsk(null)}
         />
       ) : null}
