@@ -1,6 +1,5 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
@@ -9,7 +8,8 @@ import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import type { claimMessageSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { formatInstant } from "@/lib/format";
 
 export type ThreadMessage = { id: string; body: string; fromStudio: boolean; createdAt: string; authorName: string };
@@ -33,20 +33,17 @@ export function MessageThread({
   /** The reader's zone (the studio's for staff, the owner's for owners); times name it. */
   timeZone: string;
 }) {
-  const router = useRouter();
   const [askForInfo, setAskForInfo] = useState(false);
   const form = useForm<z.input<typeof claimMessageSchema>>({ resolver: useLazyZodResolver(() => import("@/lib/validation/claims").then((m) => m.claimMessageSchema)), defaultValues: { body: "" } });
-  const onSubmit = form.handleSubmit(async (values) => {
-    try {
-      await apiJson(`/api/claims/${claimId}/messages`, { method: "POST", body: JSON.stringify({ body: values.body, ...(askForInfo ? { requestInfo: true } : {}) }) });
+  const { run, busy } = useRefreshingMutation(({ body, requestInfo }: { body: string; requestInfo: boolean }) => apiJson(`/api/claims/${claimId}/messages`, { method: "POST", json: { body, ...(requestInfo ? { requestInfo: true } : {}) } }), {
+    onSuccess: (_, { requestInfo }) => {
       form.reset({ body: "" });
       setAskForInfo(false);
-      toast.success(askForInfo ? "Asked the owner; the claim now waits on their reply." : audience === "staff" ? "Message sent to the owner." : `Message sent to ${studioName}.`);
-      router.refresh();
-    } catch (e) {
-      form.setError("body", { type: "server", message: e instanceof ApiError ? e.message : "The message wasn't sent. Try again." });
-    }
+      toast.success(requestInfo ? "Asked the owner; the claim now waits on their reply." : audience === "staff" ? "Message sent to the owner." : `Message sent to ${studioName}.`);
+    },
+    onError: (words) => form.setError("body", { type: "server", message: words }),
   });
+  const onSubmit = form.handleSubmit((values) => run({ body: values.body, requestInfo: askForInfo }));
   const mine = (m: ThreadMessage) => (audience === "staff" ? m.fromStudio : !m.fromStudio);
   return (
     <section aria-labelledby="thread-heading" className="space-y-3">
@@ -88,8 +85,8 @@ export function MessageThread({
                 Ask for more information (waits on the owner)
               </label>
             ) : null}
-            <Button type="submit" disabled={form.formState.isSubmitting}>
-              {form.formState.isSubmitting ? "Sending…" : askForInfo ? "Ask the owner" : "Send message"}
+            <Button type="submit" disabled={busy || form.formState.isSubmitting}>
+              {busy || form.formState.isSubmitting ? "Sending…" : askForInfo ? "Ask the owner" : "Send message"}
             </Button>
           </div>
         </form>

@@ -1,7 +1,6 @@
 "use client";
 
 import { Gavel, ScanSearch } from "lucide-react";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
@@ -14,32 +13,21 @@ import { CLAIM_DECISION_LABELS, decisionText } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
 import type { claimDecisionSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson, isApiError } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 
 type Values = z.input<typeof claimDecisionSchema>;
 const DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
 
 /** Start or resume the review of a claim (not a decision). */
 export function ReviewButton({ claimId, state, version }: { claimId: string; state: ClaimState; version: number }) {
-  const router = useRouter();
-  const [busy, setBusy] = useState(false);
+  const { run, busy } = useRefreshingMutation(() => apiJson(`/api/claims/${claimId}/state`, { method: "POST", json: { to: "in_review", expectedVersion: version } }), {
+    onSuccess: () => toast.success(state === "submitted" ? "Review started." : "Back in review."),
+    onError: (words) => toast.error(words),
+  });
   if (state !== "submitted" && state !== "awaiting_owner") return null;
   return (
-    <Button
-      disabled={busy}
-      onClick={async () => {
-        setBusy(true);
-        try {
-          await apiJson(`/api/claims/${claimId}/state`, { method: "POST", body: JSON.stringify({ to: "in_review", expectedVersion: version }) });
-          toast.success(state === "submitted" ? "Review started." : "Back in review.");
-          router.refresh();
-        } catch (e) {
-          toast.error(e instanceof Error ? e.message : "That didn't work.");
-        } finally {
-          setBusy(false);
-        }
-      }}
-    >
+    <Button disabled={busy} onClick={() => run(undefined)}>
       <ScanSearch aria-hidden className="size-5" /> {state === "submitted" ? "Start review" : "Resume review without waiting"}
     </Button>
   );
@@ -47,7 +35,6 @@ export function ReviewButton({ claimId, state, version }: { claimId: string; sta
 
 /** The decision: covered, partly covered (a share), chargeable, or declined with a reason the owner sees. */
 export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { claimId: string; version: number; suggestion: string | null; suggestedPct: number | null }) {
-  const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const defaultDecision = suggestion === "covered" ? "covered" : suggestion === "partly_covered" ? "partly_covered" : undefined;
   const form = useForm<Values, unknown, z.output<typeof claimDecisionSchema>>({
@@ -58,28 +45,21 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
   const errors = form.formState.errors;
   // The app's own dialog asks before the decision goes out, not the browser's confirm().
   const [pending, setPending] = useState<z.output<typeof claimDecisionSchema> | null>(null);
-  const [sending, setSending] = useState(false);
+  const { run: send, busy: sending } = useRefreshingMutation((values: z.output<typeof claimDecisionSchema>) => apiJson(`/api/claims/${claimId}/decision`, { method: "POST", json: { ...values, expectedVersion: version } }), {
+    onSuccess: (_, values) => {
+      setPending(null);
+      toast.success(`Decided: ${CLAIM_DECISION_LABELS[values.decision]}. The owner has been e-mailed.`);
+    },
+    onError: (words, e) => {
+      setPending(null);
+      setFormError(words);
+      if (isApiError(e)) for (const [f, m] of Object.entries(e.fieldErrors)) if (m[0]) form.setError(f as FieldPath<Values>, { type: "server", message: m[0] });
+    },
+  });
   const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
     setPending(values);
   });
-  const send = async (values: z.output<typeof claimDecisionSchema>) => {
-    const label = CLAIM_DECISION_LABELS[values.decision];
-    setSending(true);
-    try {
-      await apiJson(`/api/claims/${claimId}/decision`, { method: "POST", body: JSON.stringify({ ...values, expectedVersion: version }) });
-      toast.success(`Decided: ${label}. The owner has been e-mailed.`);
-      router.refresh();
-    } catch (e) {
-      if (e instanceof ApiError) {
-        setFormError(e.message);
-        for (const [f, m] of Object.entries(e.fieldErrors)) if (m[0]) form.setError(f as FieldPath<Values>, { type: "server", message: m[0] });
-      } else setFormError("The decision wasn't saved. Try again.");
-    } finally {
-      setSending(false);
-      setPending(null);
-    }
-  };
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
       <ConfirmDialog
@@ -87,7 +67,7 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
         title={pending ? `Decide: ${decisionText(pending.decision, pending.coveredPct ?? null)}?` : "Decide this claim?"}
         confirmLabel="Send the decision"
         busy={sending}
-        onConfirm={() => pending && void send(pending)}
+        onConfirm={() => pending && send(pending)}
         onCancel={() => setPending(null)}
       >
         <p>The owner is e-mailed straight away, and the decision can&apos;t be changed here afterwards.</p>
