@@ -348,6 +348,9 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
     emit("checkout.session.completed", publicSession(s), owner);
   }
 
+  /** The subscription an invoice bills (its account is the invoice's). */
+  const invoiceSubscription = (invoiceId: string) => billing.invoices().find((i) => i.id === invoiceId)?.parent.subscription_details.subscription;
+
   /** Stripe keeps accounts apart: another account's object reads as missing. */
   const mine = (objectId: string, key: string) => (ownerOf.get(objectId) ?? options.secretKey) === key;
 
@@ -456,6 +459,10 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
       out = e as unknown as Json;
     } else if (req.method === "GET" && resource === "balance" && !a) out = { object: "balance", livemode: false, available: [], pending: [] };
     else {
+      // A subscription (and its invoices) belongs to the account it was bought under, as at Stripe.
+      if ((resource === "subscriptions" || resource === "invoices") && a && !mine(resource === "invoices" ? (invoiceSubscription(a) ?? a) : a, apiKey)) {
+        throw new StripeError(404, "invalid_request_error", `No such ${resource === "invoices" ? "invoice" : "subscription"}: '${a}'`, "id", "resource_missing");
+      }
       const recurring = billing.handle(req.method ?? "GET", path, params);
       if (!recurring) throw new StripeError(404, "invalid_request_error", `Unrecognized request URL (${req.method}: /v1/${path.join("/")}).`);
       out = recurring;
@@ -472,7 +479,14 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
       // Fake-only test knob (no such endpoint at Stripe): renew, settle or lapse a subscription.
       if (path[0] === "_test" && req.method === "POST") {
         checkKey(req);
-        return sendJson(res, 200, billing.knob(path.slice(1), parseStripeForm(await readBody(req))));
+        const body = parseStripeForm(await readBody(req));
+        // A renewal's charge and events belong to the account the subscription was bought under.
+        acting = path[1] === "subscriptions" && path[2] ? ownerOf.get(path[2]) : undefined;
+        try {
+          return sendJson(res, 200, billing.knob(path.slice(1), body));
+        } finally {
+          acting = undefined;
+        }
       }
       if (path[0] === "pay" && path[1]) {
         const s = session(path[1]);

@@ -2,15 +2,17 @@
 // fake (lib/fakes/stripe-fake.ts); in production leave it empty to reach Stripe itself.
 //
 // Whose account: a studio that saved its own secret key in set-up (lib/studio/setup-steps.tsx) is
-// charged, refunded and read under that key; every other studio under the install's
-// STRIPE_SECRET_KEY. Events from a studio's own account arrive at its own webhook endpoint
+// charged under that key; every other studio under the install's STRIPE_SECRET_KEY. Each payment and
+// plan row records the account it was made under (stripeAccount), and every later call about it
+// (refund, cancellation, renewal read) uses that account's key, so saving a key later leaves the
+// install's objects reachable. Events from a studio's own account arrive at its own webhook endpoint
 // (/api/webhooks/stripe/studio/:studioId) and are verified with the signing secret it saved; the
 // install's endpoint (/api/webhooks/stripe) keeps STRIPE_WEBHOOK_SECRET. Keys are stored sealed
 // (lib/crypto.ts), are never logged, and are shown back by their last four characters only.
 import Stripe from "stripe";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { studios } from "@/db/schema";
+import { STRIPE_ACCOUNTS, studios } from "@/db/schema";
 import { decrypt } from "@/lib/crypto";
 import { env } from "@/lib/env";
 import { badRequest, conflict, notFound, serviceUnavailable } from "@/lib/errors";
@@ -38,12 +40,30 @@ function studioSecrets(studioId: string) {
   return getDb().select({ key: studios.stripeSecretSealed, webhook: studios.stripeWebhookSecretSealed }).from(studios).where(eq(studios.id, studioId)).get();
 }
 
+export type StripeAccount = (typeof STRIPE_ACCOUNTS)[number];
+
 /**
- * The Stripe client for a studio: under its own key when it saved one, else the install's key
- * (also when no studio is named).
+ * Where a Stripe object lives: its studio and the account it was made under (a payment or plan row has
+ * both fields). A bare studio id means the studio's account as it is now: its own key when it saved
+ * one, else the install's; nothing means the install's.
  */
-export function getStripe(studioId?: string | null): Stripe {
-  const sealed = studioId ? studioSecrets(studioId)?.key : null;
+export type StripeHome = { studioId: string; stripeAccount: StripeAccount | null };
+export type StripeScope = string | StripeHome | null | undefined;
+
+/** The account a new Checkout Session or subscription of the studio is made under now. */
+export function accountFor(studioId: string): StripeAccount {
+  return studioSecrets(studioId)?.key ? "studio" : "install";
+}
+
+/**
+ * The Stripe client for a scope. An object made under the install's key is read and changed under it
+ * even after the studio saved its own key (Stripe would answer "not found" under the studio's); a
+ * studio-made object, a row made before the account was recorded, and a bare studio id use the
+ * studio's key when it has one.
+ */
+export function getStripe(scope?: StripeScope): Stripe {
+  const home = typeof scope === "string" ? { studioId: scope, stripeAccount: null } : scope;
+  const sealed = home && home.stripeAccount !== "install" ? studioSecrets(home.studioId)?.key : null;
   return clientFor(sealed ? decrypt(SEALED.secretKey, sealed) : env.STRIPE_SECRET_KEY);
 }
 
@@ -53,13 +73,14 @@ export function lastFour(secret: string): string {
 }
 
 /**
- * Runs a call to Stripe (under the studio's own key when `studioId` names a studio that saved one)
+ * Runs a call to Stripe under the scope's account (getStripe: the account a row was made under, or a
+ * studio's own key when it saved one)
  * and turns its failures into answers a person can act on: a refusal is a 409 with Stripe's message,
  * an unreachable service a 503. Nothing of ours has changed at that point.
  */
-export async function callStripe<T>(what: string, fn: (stripe: Stripe) => Promise<T>, studioId?: string | null): Promise<T> {
+export async function callStripe<T>(what: string, fn: (stripe: Stripe) => Promise<T>, scope?: StripeScope): Promise<T> {
   try {
-    return await fn(getStripe(studioId));
+    return await fn(getStripe(scope));
   } catch (e) {
     if (e instanceof Stripe.errors.StripeConnectionError || e instanceof Stripe.errors.StripeAPIError) {
       throw serviceUnavailable("payment_service_unavailable", `The payment service can't be reached right now, so we couldn't ${what}. Nothing was charged; try again in a minute.`);
@@ -95,7 +116,7 @@ export function verifyStripeEvent(rawBody: string, signature: string | null, stu
  * Stripe then holds it: expired, or (when the owner finished paying first) complete. Expiring a
  * session that is no longer open is refused by Stripe; the session is read back instead.
  */
-export async function expireCheckoutSession(sessionId: string, studioId?: string | null): Promise<Stripe.Checkout.Session> {
+export async function expireCheckoutSession(sessionId: string, scope?: StripeScope): Promise<Stripe.Checkout.Session> {
   return callStripe(
     "close the open payment page",
     async (stripe) => {
@@ -106,7 +127,7 @@ export async function expireCheckoutSession(sessionId: string, studioId?: string
         throw e;
       }
     },
-    studioId,
+    scope,
   );
 }
 

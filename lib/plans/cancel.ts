@@ -83,7 +83,7 @@ async function cancel(subId: string, ask: CancelAsk, by: PlanMover, now: Date): 
           s.subscriptions.update(sub.stripeSubscriptionId!, endsAtPeriodEnd ? { cancel_at_period_end: true } : { cancel_at: Math.floor(quote.endsAt.getTime() / 1000) }, {
             idempotencyKey: `plan-cancel-${sub.id}-${before.version}`,
           }),
-          sub.studioId,
+          sub,
         );
       } catch (e) {
         getDb().transaction((tx) => {
@@ -98,7 +98,7 @@ async function cancel(subId: string, ask: CancelAsk, by: PlanMover, now: Date): 
     const paid = refund ? await payRefund(refund, sub) : null;
     await mailPlanEnding(sub, quote, paid, "cancelled");
     return reread(sub.id);
-  }).then(async (sub) => (sub.stripeSubscriptionId ? ((await syncPlanSubscription(sub.stripeSubscriptionId, undefined, sub.studioId)) ?? sub) : sub));
+  }).then(async (sub) => (sub.stripeSubscriptionId ? ((await syncPlanSubscription(sub.stripeSubscriptionId, undefined, sub)) ?? sub) : sub));
 }
 
 /** Takes a cancellation back before the plan ends: only while nothing has been refunded for it. */
@@ -120,7 +120,7 @@ async function undo(subId: string, ask: Pick<CancelAsk, "version">, by: PlanMove
       try {
         await callStripe("keep the plan", (s) =>
           s.subscriptions.update(sub.stripeSubscriptionId!, { cancel_at_period_end: false, cancel_at: "" }, { idempotencyKey: `plan-keep-${sub.id}-${before.version}` }),
-          sub.studioId,
+          sub,
         );
       } catch (e) {
         getDb().transaction((tx) => {
@@ -131,7 +131,7 @@ async function undo(subId: string, ask: Pick<CancelAsk, "version">, by: PlanMove
       }
     }
     return reread(sub.id);
-  }).then(async (sub) => (sub.stripeSubscriptionId ? ((await syncPlanSubscription(sub.stripeSubscriptionId, undefined, sub.studioId)) ?? sub) : sub));
+  }).then(async (sub) => (sub.stripeSubscriptionId ? ((await syncPlanSubscription(sub.stripeSubscriptionId, undefined, sub)) ?? sub) : sub));
 }
 
 /** The owner's own plan by id (a plan of a piece they no longer hold, or someone else's, is a 404). */

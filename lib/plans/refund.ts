@@ -131,7 +131,7 @@ async function paymentOfPeriod(sub: PlanSubscription): Promise<string> {
     .orderBy(desc(planInvoices.at))
     .get();
   if (!inv?.stripeInvoiceId) throw conflict("No card payment of this plan was found to refund. Refund it by other means.");
-  const invoice = await callStripe("read the plan's payment", (s) => s.invoices.retrieve(inv.stripeInvoiceId!, { expand: ["payments"] }), sub.studioId);
+  const invoice = await callStripe("read the plan's payment", (s) => s.invoices.retrieve(inv.stripeInvoiceId!, { expand: ["payments"] }), sub);
   const pi = invoice.payments?.data?.[0]?.payment?.payment_intent;
   const id = typeof pi === "string" ? pi : pi?.id;
   if (!id) throw conflict("The plan's payment can't be refunded by card. Refund it by other means.");
@@ -154,7 +154,7 @@ export async function payRefund(refund: PlanRefund, sub: PlanSubscription): Prom
       },
       { idempotencyKey: `plan-refund-${refund.id}` },
     ),
-    sub.studioId,
+    sub,
   );
   return getDb().transaction((tx) => {
     const done = tx

@@ -9,7 +9,7 @@ import { recordAudit } from "@/lib/audit";
 import { formatInstant } from "@/lib/format/dates";
 import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
-import { callStripe, verifyStripeEvent, type Stripe } from "@/lib/payments/stripe";
+import { callStripe, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
 import { planPrice } from "./price";
@@ -113,16 +113,19 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
 /**
  * Re-reads a Stripe subscription (and, when given, one of its invoices) and writes what it says: the
  * plan's state and period, the invoice, and the grace mail when the plan has just entered grace.
+ * `scope` is whose account to read it under: the studio whose endpoint the event came to, the plan
+ * row itself (the account it was bought under), or nothing for the install's endpoint.
  */
-export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: string, studioId?: string): Promise<PlanSubscription | null> {
+export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: string, scope?: StripeScope): Promise<PlanSubscription | null> {
+  const studioId = typeof scope === "string" ? scope : scope?.studioId;
   return withPlanLock(stripeSubscriptionId, async () => {
-    const s = await callStripe("read the plan's subscription", (stripe) => stripe.subscriptions.retrieve(stripeSubscriptionId), studioId);
+    const s = await callStripe("read the plan's subscription", (stripe) => stripe.subscriptions.retrieve(stripeSubscriptionId), scope);
     const row = findRow(s);
     // Read under a studio's own key (its own webhook endpoint), a subscription moves only that studio's plan.
     if (!row || (studioId !== undefined && row.studioId !== studioId)) return null;
-    const invoice = invoiceId ? await callStripe("read the plan's invoice", (stripe) => stripe.invoices.retrieve(invoiceId), studioId) : null;
+    const invoice = invoiceId ? await callStripe("read the plan's invoice", (stripe) => stripe.invoices.retrieve(invoiceId), scope) : null;
     const latestId = typeof s.latest_invoice === "string" ? s.latest_invoice : (s.latest_invoice?.id ?? null);
-    const latest = latestId ? (latestId === invoice?.id ? invoice : await callStripe("read the plan's latest invoice", (stripe) => stripe.invoices.retrieve(latestId), studioId)) : null;
+    const latest = latestId ? (latestId === invoice?.id ? invoice : await callStripe("read the plan's latest invoice", (stripe) => stripe.invoices.retrieve(latestId), scope)) : null;
     const stripeState = stateOf(s);
     const overdue = stripeState === "grace" ? latest : null;
     // The latest invoice paid at an amount that isn't the plan's is not a renewal: the plan keeps the

@@ -9,7 +9,7 @@ import type { StudioActor } from "@/lib/auth/actor";
 import { env } from "@/lib/env";
 import { conflict, notFound } from "@/lib/errors";
 import { ownedPieceRow } from "@/lib/owner/pieces";
-import { callStripe } from "@/lib/payments/stripe";
+import { accountFor, callStripe } from "@/lib/payments/stripe";
 import { assertPlanMove, PLAN_COVERS, type PlanState } from "./states";
 import { addPeriod } from "./periods";
 import { planPrice } from "./price";
@@ -83,7 +83,7 @@ export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name"
     .where(and(eq(planSubscriptions.pieceId, piece.id), eq(planSubscriptions.ownerId, user.id), eq(planSubscriptions.templateId, template.id), eq(planSubscriptions.amountMinor, totalMinor), eq(planSubscriptions.state, "awaiting_payment")))
     .get();
   if (waiting?.checkoutSessionId) {
-    const live = await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!), piece.studioId);
+    const live = await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!), waiting);
     if (live.status === "open" && live.url) return { checkoutUrl: live.url, subscriptionId: waiting.id };
   }
   const sub =
@@ -94,6 +94,8 @@ export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name"
       return row;
     });
   const metadata = { planSubscriptionId: sub.id, studioId: piece.studioId, templateId: template.id, amountMinor: String(totalMinor) };
+  // The account the plan is bought under now; every later call about it uses the same one.
+  const home = { studioId: piece.studioId, stripeAccount: accountFor(piece.studioId) };
   const session = await callStripe("start the payment", async (stripe) => {
     const price = await stripe.prices.create(
       { currency: template.currency.toLowerCase(), unit_amount: totalMinor, recurring: { interval: template.interval }, product_data: { name: `${template.name} (care plan)` }, metadata: { templateId: template.id } },
@@ -113,8 +115,8 @@ export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name"
       },
       { idempotencyKey: `plan-checkout-${sub.id}-${sub.version}-${Date.now()}` },
     );
-  }, piece.studioId);
-  db.update(planSubscriptions).set({ checkoutSessionId: session.id, checkoutUrl: session.url, stripeCustomerId: typeof session.customer === "string" ? session.customer : null, updatedAt: new Date() }).where(eq(planSubscriptions.id, sub.id)).run();
+  }, home);
+  db.update(planSubscriptions).set({ checkoutSessionId: session.id, checkoutUrl: session.url, stripeAccount: home.stripeAccount, stripeCustomerId: typeof session.customer === "string" ? session.customer : null, updatedAt: new Date() }).where(eq(planSubscriptions.id, sub.id)).run();
   return { checkoutUrl: session.url!, subscriptionId: sub.id };
 }
 

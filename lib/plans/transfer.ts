@@ -42,7 +42,7 @@ export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, 
         });
         // A plan already cancelled keeps the end it was given; otherwise it isn't renewed on the former owner's card.
         if (moved.paidBy === "card" && moved.stripeSubscriptionId && live.sub.state !== "ending") {
-          await callStripe("stop renewing the plan", (s) => s.subscriptions.update(moved.stripeSubscriptionId!, { cancel_at_period_end: true }, { idempotencyKey: `plan-transfer-${moved.id}` }), moved.studioId);
+          await callStripe("stop renewing the plan", (s) => s.subscriptions.update(moved.stripeSubscriptionId!, { cancel_at_period_end: true }, { idempotencyKey: `plan-transfer-${moved.id}` }), moved);
         }
         return { outcome: "moved" as const, subscription: reread() };
       }
@@ -59,13 +59,13 @@ export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, 
         };
       });
       if (sub.paidBy === "card" && sub.stripeSubscriptionId) {
-        await callStripe("end the plan", (s) => s.subscriptions.cancel(sub.stripeSubscriptionId!, {}, { idempotencyKey: `plan-transfer-${sub.id}` }), sub.studioId);
+        await callStripe("end the plan", (s) => s.subscriptions.cancel(sub.stripeSubscriptionId!, {}, { idempotencyKey: `plan-transfer-${sub.id}` }), sub);
       }
       const paid = refund ? await payRefund(refund, sub) : null;
       await mailPlanEnding(sub, quote, paid, "changed_hands");
       return { outcome: "ended" as const, subscription: reread() };
     }).then(async (r) => {
-      if (r.subscription?.stripeSubscriptionId) await syncPlanSubscription(r.subscription.stripeSubscriptionId, undefined, r.subscription.studioId);
+      if (r.subscription?.stripeSubscriptionId) await syncPlanSubscription(r.subscription.stripeSubscriptionId, undefined, r.subscription);
       return { ...r, subscription: reread() };
     });
   } catch (e) {

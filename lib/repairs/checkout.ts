@@ -6,7 +6,7 @@ import { and, eq, inArray, isNotNull, isNull, ne } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { payments, repairJobs, type Payment, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
-import { callStripe, expireCheckoutSession, type Stripe } from "@/lib/payments/stripe";
+import { callStripe, expireCheckoutSession, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { moveJob } from "./jobs";
 import { mailAutomaticRefund, mailReceipt, mailRefundIssued } from "./mail";
 import { AWAITING_PAYMENT, CAPTURED, isAutomaticRefund, paymentCounts, REFUND_REASON_LABELS, type RefundReason } from "./states";
@@ -88,7 +88,7 @@ export async function applySession(session: Stripe.Checkout.Session): Promise<{ 
  */
 export async function closeOpenCheckouts(jobId: string): Promise<void> {
   const open = getDb().select().from(payments).where(and(eq(payments.jobId, jobId), eq(payments.status, "open"))).all();
-  for (const p of open) await applySession(await expireCheckoutSession(p.checkoutSessionId, p.studioId));
+  for (const p of open) await applySession(await expireCheckoutSession(p.checkoutSessionId, p));
 }
 
 /** Asks Stripe for every refund the job owes and hasn't asked for yet; each payment is refunded once. */
@@ -103,7 +103,7 @@ export async function settleRefunds(jobId: string): Promise<void> {
 
 async function refundPayment(payment: Payment) {
   // One key per payment: a retry, a replayed webhook and a cancellation racing it make one refund.
-  const refund = await callStripe("refund the payment", (s) => s.refunds.create({ payment_intent: payment.paymentIntentId! }, { idempotencyKey: `refund-${payment.id}` }), payment.studioId);
+  const refund = await callStripe("refund the payment", (s) => s.refunds.create({ payment_intent: payment.paymentIntentId! }, { idempotencyKey: `refund-${payment.id}` }), payment);
   const first =
     getDb()
       .update(payments)
@@ -112,16 +112,16 @@ async function refundPayment(payment: Payment) {
       .run().changes === 1;
   const chargeId = typeof refund.charge === "string" ? refund.charge : refund.charge?.id;
   // The refund shows on the payment now, whether or not charge.refunded arrives before the session's own event.
-  if (chargeId) await applyRefund(chargeId, payment.studioId);
+  if (chargeId) await applyRefund(chargeId, payment);
   if (first && isAutomaticRefund(payment.refundReason)) await mailAutomaticRefund(payment, payment.refundReason);
 }
 
 /**
  * Records what Stripe says has been refunded of a charge (from charge.refunded, or right after asking),
- * read under the studio's own key when the event came from its account.
+ * read under the account the event came from, or the one the payment was made under.
  */
-export async function applyRefund(chargeId: string, studioId?: string | null): Promise<void> {
-  const charge = await callStripe("read the refunded charge", (s) => s.charges.retrieve(chargeId), studioId);
+export async function applyRefund(chargeId: string, scope?: StripeScope): Promise<void> {
+  const charge = await callStripe("read the refunded charge", (s) => s.charges.retrieve(chargeId), scope);
   const pi = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
   if (!pi) return;
   const refundedNow = getDb().transaction((tx) => {

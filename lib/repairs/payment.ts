@@ -10,7 +10,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { AppError, badRequest, conflict, notFound, rephrased } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
-import { callStripe, verifyStripeEvent } from "@/lib/payments/stripe";
+import { accountFor, callStripe, verifyStripeEvent } from "@/lib/payments/stripe";
 import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
@@ -99,12 +99,14 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
   }
   const open = view.payments.find((p) => p.quoteVersion === job.quoteVersion && p.amountMinor === job.totalMinor && p.status === "open");
   if (open?.checkoutUrl) {
-    const live = await callStripe("check the open payment", (s) => s.checkout.sessions.retrieve(open.checkoutSessionId), job.studioId);
+    const live = await callStripe("check the open payment", (s) => s.checkout.sessions.retrieve(open.checkoutSessionId), open);
     if (live.status === "open" && live.url) return { checkoutUrl: live.url, job };
     await applySession(live);
     if (jobRow(job.id).state !== AWAITING_PAYMENT) throw conflict("This job is already paid.");
   }
   const attempt = view.payments.filter((p) => p.quoteVersion === job.quoteVersion).length + 1;
+  // The account the payment is taken under now; its refund later uses the same one.
+  const home = { studioId: job.studioId, stripeAccount: accountFor(job.studioId) };
   const session = await callStripe("start the payment", (stripe) => stripe.checkout.sessions.create(
     {
       mode: "payment",
@@ -116,10 +118,10 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
       cancel_url: jobUrl(job.id, "?checkout=cancelled"),
     },
     { idempotencyKey: `job-${job.id}-v${job.quoteVersion}-a${attempt}` },
-  ), job.studioId);
+  ), home);
   getDb()
     .insert(payments)
-    .values({ studioId: job.studioId, jobId: job.id, quoteVersion: job.quoteVersion, checkoutSessionId: session.id, checkoutUrl: session.url, amountMinor: session.amount_total ?? job.totalMinor, currency: job.currency })
+    .values({ studioId: job.studioId, jobId: job.id, quoteVersion: job.quoteVersion, checkoutSessionId: session.id, checkoutUrl: session.url, stripeAccount: home.stripeAccount, amountMinor: session.amount_total ?? job.totalMinor, currency: job.currency })
     .onConflictDoNothing()
     .run();
   // The quote may have changed (or the job been paid or cancelled) while the session was being opened:
@@ -135,8 +137,9 @@ export async function approveJob(user: Pick<User, "id" | "email">, jobId: string
 /** The owner came back from checkout: converge now rather than wait for the webhook. */
 export async function syncReturnedCheckout(user: Pick<User, "id">, jobId: string, sessionId: string): Promise<void> {
   const view = getOwnerJob(user, jobId);
-  if (!view.payments.some((p) => p.checkoutSessionId === sessionId)) return;
-  await applySession(await callStripe("confirm the payment", (s) => s.checkout.sessions.retrieve(sessionId), view.job.studioId));
+  const payment = view.payments.find((p) => p.checkoutSessionId === sessionId);
+  if (!payment) return;
+  await applySession(await callStripe("confirm the payment", (s) => s.checkout.sessions.retrieve(sessionId), payment));
 }
 
 const HANDLED = new Set(["checkout.session.completed", "checkout.session.expired", "checkout.session.async_payment_succeeded", "charge.refunded"]);
