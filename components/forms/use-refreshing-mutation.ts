@@ -17,16 +17,28 @@ export function refusalWords(e: unknown, withFieldErrors = false): string {
   return withFieldErrors ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : e.message;
 }
 
+type Refresh = "success" | "always" | "never";
+
 export type RefreshingMutationOptions<V, T> = {
   onSuccess?: (result: T, vars: V) => void;
   /** Told the sentence shown for a refusal (e.g. to toast it), with the error itself for its field messages. */
   onError?: (words: string, error: unknown, vars: V) => void;
   withFieldErrors?: boolean;
-  /** When to fetch the page again: after a success (the default), or after a refusal too, when part of the change can stand. */
-  refresh?: "success" | "always";
+  /**
+   * When to fetch the page again: after a success (the default); after a refusal too, when part of the
+   * change can stand; or never, when the component follows the change itself (a mailing's progress).
+   */
+  refresh?: Refresh;
   /** Where the page goes after a success instead of staying (a path in the app, or a full address); null stays. The button stays busy while it goes. */
   goTo?: (result: T, vars: V) => string | null;
 };
+
+/** What the page does after a success: open an address outside the app, go to a path in it, and/or fetch itself again. */
+export function afterSuccess(to: string | null | undefined, refresh: Refresh = "success"): { open?: string; push?: string; refresh: boolean } {
+  if (to && /^https?:/.test(to)) return { open: to, refresh: false };
+  if (to) return { push: to, refresh: true };
+  return { refresh: refresh !== "never" };
+}
 
 export function useRefreshingMutation<V, T>(call: (vars: V) => Promise<T>, opts: RefreshingMutationOptions<V, T> = {}) {
   const router = useRouter();
@@ -34,10 +46,10 @@ export function useRefreshingMutation<V, T>(call: (vars: V) => Promise<T>, opts:
     mutationFn: call,
     onSuccess: (result, vars) => {
       opts.onSuccess?.(result, vars);
-      const to = opts.goTo?.(result, vars);
-      if (to && /^https?:/.test(to)) return window.location.assign(to);
-      if (to) router.push(to);
-      router.refresh();
+      const next = afterSuccess(opts.goTo?.(result, vars), opts.refresh);
+      if (next.open) window.location.assign(next.open);
+      if (next.push) router.push(next.push);
+      if (next.refresh) router.refresh();
     },
     onError: (e, vars) => {
       opts.onError?.(refusalWords(e, opts.withFieldErrors), e, vars);

@@ -3,7 +3,7 @@
 // actionData), so the hook shows both kinds of call the same way.
 import { describe, expect, it } from "vitest";
 import { ApiError, actionData, isApiError } from "@/components/api-client";
-import { refusalWords } from "@/components/forms/use-refreshing-mutation";
+import { afterSuccess, refusalWords } from "@/components/forms/use-refreshing-mutation";
 
 describe("refusalWords", () => {
   it("shows the API's own message, with its field messages only when asked", () => {
@@ -29,5 +29,18 @@ describe("actionData", () => {
     const e = refused as ApiError;
     expect([e.status, e.message, e.fieldErrors]).toEqual([400, "The studio needs at least one admin.", { role: ["Pick another role."] }]);
     expect(refusalWords(e, true)).toBe("The studio needs at least one admin. Pick another role.");
+  });
+});
+
+describe("afterSuccess", () => {
+  it("fetches the page again by default, and not when the component follows the change itself", () => {
+    expect(afterSuccess(null)).toEqual({ refresh: true });
+    expect(afterSuccess(undefined, "always")).toEqual({ refresh: true });
+    expect(afterSuccess(null, "never")).toEqual({ refresh: false });
+  });
+
+  it("goes to a path in the app (and reads it fresh), or opens an address outside it", () => {
+    expect(afterSuccess("/studio/pieces", "never")).toEqual({ push: "/studio/pieces", refresh: true });
+    expect(afterSuccess("http://127.0.0.1:4801/pay/cs_1")).toEqual({ open: "http://127.0.0.1:4801/pay/cs_1", refresh: false });
   });
 });
