@@ -2,10 +2,9 @@
 
 import { Mail } from "lucide-react";
 import Link from "next/link";
-import { useRouter } from "next/navigation";
-import { useState } from "react";
 import { toast } from "sonner";
 import { apiJson } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import type { HandoverStatus } from "@/lib/pieces/handover";
@@ -13,24 +12,12 @@ import { formatInstant } from "@/lib/format";
 
 /** The piece page's hand-over mail: to whom, sent when (and how often), link opened, registered; send or resend. */
 export function HandoverCard({ pieceId, status }: { pieceId: string; status: HandoverStatus }) {
-  const router = useRouter();
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { run, busy, error } = useRefreshingMutation(() => apiJson(`/api/pieces/${pieceId}/handover`, { method: "POST" }), {
+    onSuccess: () => toast.success(status.sendCount ? "Sent again, with a fresh link. The earlier link no longer works." : "Hand-over mail sent."),
+  });
+  const send = () => run(undefined);
   // Always with the zone's name: staff may read this from anywhere.
   const at = (iso: string) => formatInstant(iso, status.timeZone, { time: true });
-  const send = async () => {
-    setBusy(true);
-    setError(null);
-    try {
-      await apiJson(`/api/pieces/${pieceId}/handover`, { method: "POST" });
-      toast.success(status.sendCount ? "Sent again, with a fresh link. The earlier link no longer works." : "Hand-over mail sent.");
-      router.refresh();
-    } catch (e) {
-      setError(e instanceof Error ? e.message : "Not sent. Try again.");
-    } finally {
-      setBusy(false);
-    }
-  };
   const steps: [string, string | null][] = [
     ["Sent", status.lastSentAt ? `${at(status.lastSentAt)}${status.sendCount > 1 ? ` (sent ${status.sendCount} times, first ${at(status.firstSentAt!)})` : ""}` : null],
     ["Link opened", status.openedAt ? at(status.openedAt) : null],

@@ -7,6 +7,7 @@ import { useRouter } from "next/navigation";
 import { useEffect, useRef, useState } from "react";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
@@ -22,21 +23,17 @@ export function HandoverMailing({ candidates, batches, initialBatchId, timeZone 
   const router = useRouter();
   const [picked, setPicked] = useState<Set<string>>(new Set());
   const [active, setActive] = useState<string | null>(initialBatchId ?? (batches[0] && batches[0].state !== "done" ? batches[0].id : null));
-  const [busy, setBusy] = useState(false);
   const sendable = candidates.filter((c) => !c.block).length;
 
-  const start = async (json: { all: true } | { pieceIds: string[] }) => {
-    setBusy(true);
-    try {
-      const { batch } = await apiJson<{ batch: { id: string; total: number } }>("/api/clients/handover-batches", { method: "POST", json });
+  // The page is read again when the mailing is done (MailingProgress), not when it starts.
+  const { run: start, busy } = useRefreshingMutation((json: { all: true } | { pieceIds: string[] }) => apiJson<{ batch: { id: string; total: number } }>("/api/clients/handover-batches", { method: "POST", json }), {
+    refresh: "never",
+    onSuccess: ({ batch }) => {
       setActive(batch.id);
       setPicked(new Set());
-    } catch (e) {
-      toast.error(isApiError(e) ? e.message : "The mailing could not be started. Try again.");
-    } finally {
-      setBusy(false);
-    }
-  };
+    },
+    onError: (words) => toast.error(words),
+  });
 
   const toggle = (id: string) =>
     setPicked((prev) => {

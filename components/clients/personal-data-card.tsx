@@ -1,10 +1,10 @@
 "use client";
 
 import { Download, Trash2 } from "lucide-react";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson, isApiError } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 
@@ -12,24 +12,17 @@ type Erased = { erased: { pieces: number; photos: number; claims: number; messag
 
 /** Admins: download everything held about the client, or erase them on their request (POST …/erase). */
 export function PersonalDataCard({ clientId, name, erased }: { clientId: string; name: string; erased: boolean }) {
-  const router = useRouter();
   const [confirm, setConfirm] = useState(false);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-  const erase = async () => {
-    setError(null);
-    setBusy(true);
-    try {
-      const { erased: r } = await apiJson<Erased>(`/api/clients/${clientId}/erase`, { method: "POST", body: JSON.stringify({ confirm }) });
+  const [confirmError, setConfirmError] = useState<string | null>(null);
+  const { run, busy, error } = useRefreshingMutation((confirmed: boolean) => apiJson<Erased>(`/api/clients/${clientId}/erase`, { method: "POST", json: { confirm: confirmed } }), {
+    onSuccess: ({ erased: r }) => {
       toast.success(`Erased. ${r.pieces} piece${r.pieces === 1 ? "" : "s"} kept for the warranty record without them; ${r.photos} photo${r.photos === 1 ? "" : "s"} deleted.`);
       setConfirm(false);
-      router.refresh();
-    } catch (e) {
-      setError((e instanceof ApiError && e.fieldErrors.confirm?.[0]) || (e instanceof Error ? e.message : "Not erased. Try again."));
-    } finally {
-      setBusy(false);
-    }
-  };
+    },
+    // The unticked box's own sentence reads better than the form's general one.
+    onError: (_, e) => setConfirmError(isApiError(e) ? (e.fieldErrors.confirm?.[0] ?? null) : null),
+  });
+  const erase = () => run(confirm);
   return (
     <Card className="space-y-3">
       <h2 className="font-display text-xl font-semibold">Personal data</h2>
@@ -50,7 +43,7 @@ export function PersonalDataCard({ clientId, name, erased }: { clientId: string;
           </label>
           {error ? (
             <p role="alert" className="text-sm font-medium text-danger">
-              {error}
+              {confirmError ?? error}
             </p>
           ) : null}
           <Button variant="danger" onClick={erase} disabled={busy}>
