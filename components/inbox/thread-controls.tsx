@@ -1,27 +1,17 @@
 "use client";
 
-import { useRouter } from "next/navigation";
-import { useState } from "react";
 import { toast } from "sonner";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 
 /** Assign the thread to someone on the staff, mark it done, or open it again. */
 export function ThreadControls({ threadId, state, assignedToId, staff }: { threadId: string; state: "unread" | "open" | "done"; assignedToId: string | null; staff: { id: string; name: string }[] }) {
-  const router = useRouter();
-  const [busy, setBusy] = useState(false);
-  const patch = async (json: Record<string, unknown>, done: string) => {
-    setBusy(true);
-    try {
-      await apiJson(`/api/threads/${threadId}`, { method: "PATCH", json });
-      toast.success(done);
-      router.refresh();
-    } catch (e) {
-      toast.error(e instanceof ApiError ? e.message : "That didn't work. Try again.");
-    } finally {
-      setBusy(false);
-    }
-  };
+  const { run, busy } = useRefreshingMutation(({ json }: { json: Record<string, unknown>; done: string }) => apiJson(`/api/threads/${threadId}`, { method: "PATCH", json }), {
+    onSuccess: (_, { done }) => toast.success(done),
+    onError: (words) => toast.error(words),
+  });
+  const patch = (json: Record<string, unknown>, done: string) => run({ json, done });
   return (
     <div className="flex flex-wrap items-end gap-3">
       <label className="flex flex-col gap-1 text-sm font-medium">
@@ -32,7 +22,7 @@ export function ThreadControls({ threadId, state, assignedToId, staff }: { threa
           disabled={busy}
           onChange={(e) => {
             const id = e.target.value || null;
-            void patch({ assignedToId: id }, id ? `Assigned to ${staff.find((s) => s.id === id)?.name ?? "them"}.` : "No one is assigned now.");
+            patch({ assignedToId: id }, id ? `Assigned to ${staff.find((s) => s.id === id)?.name ?? "them"}.` : "No one is assigned now.");
           }}
         >
           <option value="">Nobody</option>
@@ -44,11 +34,11 @@ export function ThreadControls({ threadId, state, assignedToId, staff }: { threa
         </select>
       </label>
       {state === "done" ? (
-        <Button variant="secondary" disabled={busy} onClick={() => void patch({ state: "open" }, "Opened again.")}>
+        <Button variant="secondary" disabled={busy} onClick={() => patch({ state: "open" }, "Opened again.")}>
           Open again
         </Button>
       ) : (
-        <Button variant="secondary" disabled={busy} onClick={() => void patch({ state: "done" }, "Marked done.")}>
+        <Button variant="secondary" disabled={busy} onClick={() => patch({ state: "done" }, "Marked done.")}>
           Mark done
         </Button>
       )}
@@ -58,25 +48,12 @@ export function ThreadControls({ threadId, state, assignedToId, staff }: { threa
 
 /** Set aside an e-mail that matched no conversation, once dealt with. */
 export function ResolveUnmatched({ id }: { id: string }) {
-  const router = useRouter();
-  const [busy, setBusy] = useState(false);
+  const { run, busy } = useRefreshingMutation(() => apiJson(`/api/threads/unmatched/${id}/resolve`, { method: "POST" }), {
+    onSuccess: () => toast.success("Set aside."),
+    onError: (words) => toast.error(words),
+  });
   return (
-    <Button
-      variant="secondary"
-      disabled={busy}
-      onClick={async () => {
-        setBusy(true);
-        try {
-          await apiJson(`/api/threads/unmatched/${id}/resolve`, { method: "POST" });
-          toast.success("Set aside.");
-          router.refresh();
-        } catch (e) {
-          toast.error(e instanceof ApiError ? e.message : "That didn't work. Try again.");
-        } finally {
-          setBusy(false);
-        }
-      }}
-    >
+    <Button variant="secondary" disabled={busy} onClick={() => run(undefined)}>
       Dealt with
     </Button>
   );
