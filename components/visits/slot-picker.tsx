@@ -2,7 +2,6 @@
 
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { CalendarCheck, ChevronLeft, ChevronRight, MapPin } from "lucide-react";
-import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { toast } from "sonner";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
@@ -10,6 +9,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { cn } from "@/components/ui/cn";
 import { apiJson, isApiError } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import type { SlotView } from "@/lib/visits/slots";
 import { formatDate } from "@/lib/format";
 
@@ -35,12 +35,10 @@ const dayHeading = (date: string) => formatDate(date, { weekday: "long", year: f
 
 /** Free times for a job's visit, day by day, two weeks at a time; book (or move) with one tap. */
 export function SlotPicker(p: Props) {
-  const router = useRouter();
   const client = useQueryClient();
   const [page, setPage] = useState(0);
   const [location, setLocation] = useState<"owner" | "studio">(p.visit?.locationKind ?? (p.pieceAddress ? "owner" : "studio"));
   const [chosen, setChosen] = useState<SlotView | null>(null);
-  const [busy, setBusy] = useState(false);
   const [confirmCancel, setConfirmCancel] = useState(false);
   const [fresh, setFresh] = useState<string | null>(null);
   const [day, setDay] = useState<string | null>(null);
@@ -59,46 +57,39 @@ export function SlotPicker(p: Props) {
   }, [slots.data]);
   const shownDay = byDay.find(([d]) => d === day) ?? byDay[0];
 
-  async function confirm() {
-    if (!chosen) return;
-    setBusy(true);
-    try {
-      if (p.visit) await apiJson(`/api/visits/${p.visit.id}`, { method: "PATCH", json: { start: chosen.start, technicianId: chosen.technicianId, location } });
-      else await apiJson("/api/visits", { method: "POST", json: { jobId: p.jobId, technicianId: chosen.technicianId, start: chosen.start, location } });
-      toast.success(p.visit ? "Visit moved. The updated invite is on its way by e-mail." : "Visit booked. The invite is on its way by e-mail.");
-      router.push(p.doneHref);
-      router.refresh();
-    } catch (e) {
-      setBusy(false);
-      // A 409 carries the times that are free now.
-      const freshSlots = isApiError(e) && e.status === 409 ? (e.body.slots as SlotView[] | undefined) : undefined;
-      if (isApiError(e) && freshSlots) {
-        // Someone else took the time: show what is free now.
+  const book = useRefreshingMutation(
+    (c: SlotView) =>
+      p.visit
+        ? apiJson(`/api/visits/${p.visit.id}`, { method: "PATCH", json: { start: c.start, technicianId: c.technicianId, location } })
+        : apiJson("/api/visits", { method: "POST", json: { jobId: p.jobId, technicianId: c.technicianId, start: c.start, location } }),
+    {
+      onSuccess: () => toast.success(p.visit ? "Visit moved. The updated invite is on its way by e-mail." : "Visit booked. The invite is on its way by e-mail."),
+      goTo: () => p.doneHref,
+      onError: (words, e) => {
+        toast.error(words);
+        // A 409 carries the times that are free now: someone else took the time, so show what is free.
+        const freshSlots = isApiError(e) && e.status === 409 ? (e.body.slots as SlotView[] | undefined) : undefined;
+        if (!freshSlots) return;
         client.setQueryData(key, freshSlots.filter((s) => s.start >= from && s.start < to));
         setChosen(null);
-        setFresh(e.message);
-        toast.error(e.message);
-        return;
-      }
-      toast.error(isApiError(e) ? e.message : "Something went wrong.");
-    }
-  }
-
-  async function cancel() {
-    if (!p.visit) return;
-    setBusy(true);
-    try {
-      await apiJson(`/api/visits/${p.visit.id}/cancel`, { method: "POST", json: {} });
+        setFresh(words);
+      },
+    },
+  );
+  const cancelVisit = useRefreshingMutation((visitId: string) => apiJson(`/api/visits/${visitId}/cancel`, { method: "POST", json: {} }), {
+    onSuccess: () => {
       toast.success("Visit cancelled. The cancellation is on its way by e-mail.");
       setConfirmCancel(false);
-      router.push(p.doneHref);
-      router.refresh();
-    } catch (e) {
-      setBusy(false);
+    },
+    goTo: () => p.doneHref,
+    onError: (words) => {
       setConfirmCancel(false);
-      toast.error(isApiError(e) ? e.message : "Something went wrong.");
-    }
-  }
+      toast.error(words);
+    },
+  });
+  const busy = book.busy || cancelVisit.busy;
+  const confirm = () => chosen && book.run(chosen);
+  const cancel = () => p.visit && cancelVisit.run(p.visit.id);
 
   return (
     <div className="space-y-5">
