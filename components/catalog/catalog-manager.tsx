@@ -6,7 +6,8 @@ import { useId, useState } from "react";
 import { Controller, useFieldArray } from "react-hook-form";
 import { toast } from "sonner";
 import { useActionForm } from "@/components/forms/use-action-form";
-import { callApi } from "@/components/api-client";
+import { apiJson, callApi } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { numberOrNull } from "@/components/forms/field-values";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -155,16 +156,22 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
 }
 
 export function CatalogManager({ products, currency, country }: { products: CatalogRow[]; currency: string; country: string }) {
-  const router = useRouter();
   const [editing, setEditing] = useState<string | "new" | null>(null);
   const [confirm, setConfirm] = useState<string | null>(null);
-  const setArchived = async (p: CatalogRow, archived: boolean) => {
-    const r = archived ? await callApi(`/api/catalog/${p.id}`, { method: "DELETE" }) : await callApi(`/api/catalog/${p.id}`, { method: "PATCH", json: { archived: false } });
-    setConfirm(null);
-    if (!r.ok) return toast.error(r.message);
-    toast.success(archived ? `${p.name} archived; layers that used it keep its name.` : `${p.name} is back in the pickers.`);
-    router.refresh();
-  };
+  const archive = useRefreshingMutation(
+    ({ p, archived }: { p: CatalogRow; archived: boolean }) => (archived ? apiJson(`/api/catalog/${p.id}`, { method: "DELETE" }) : apiJson(`/api/catalog/${p.id}`, { method: "PATCH", json: { archived: false } })),
+    {
+      onSuccess: (_, { p, archived }) => {
+        setConfirm(null);
+        toast.success(archived ? `${p.name} archived; layers that used it keep its name.` : `${p.name} is back in the pickers.`);
+      },
+      onError: (words) => {
+        setConfirm(null);
+        toast.error(words);
+      },
+    },
+  );
+  const setArchived = (p: CatalogRow, archived: boolean) => archive.run({ p, archived });
   const months = (v: number | null, d: number) => (v == null ? `${d}` : <strong>{v}</strong>);
   return (
     <div className="space-y-4">
