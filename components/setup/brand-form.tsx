@@ -5,6 +5,7 @@ import { useState } from "react";
 import { toast } from "sonner";
 import { apiJson, isApiError, uploadForm } from "@/components/api-client";
 import { useActionForm } from "@/components/forms/use-action-form";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import type { AccentInput } from "@/lib/studio/setup-schema";
@@ -35,11 +36,10 @@ export function BrandForm({ studioName, logoUrl, accent, accents, action }: { st
     }
   }
 
-  async function remove() {
-    await apiJson("/api/studio/logo", { method: "DELETE" });
-    toast.success("Logo removed; your studio's name shows alone.");
-    router.refresh();
-  }
+  const removeLogo = useRefreshingMutation(() => apiJson("/api/studio/logo", { method: "DELETE" }), {
+    onSuccess: () => toast.success("Logo removed; your studio's name shows alone."),
+    onError: (words) => setLogoError(words),
+  });
 
   return (
     <div className="space-y-6">
@@ -69,7 +69,7 @@ export function BrandForm({ studioName, logoUrl, accent, accents, action }: { st
             />
           </label>
           {logoUrl ? (
-            <Button variant="ghost" onClick={() => void remove()}>
+            <Button variant="ghost" disabled={removeLogo.busy} onClick={() => removeLogo.run(undefined)}>
               Remove the logo
             </Button>
           ) : null}

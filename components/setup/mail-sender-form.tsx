@@ -1,8 +1,9 @@
 "use client";
 
-import { useState } from "react";
 import { toast } from "sonner";
+import { actionData } from "@/components/api-client";
 import { useActionForm } from "@/components/forms/use-action-form";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
@@ -22,18 +23,12 @@ export function MailSenderForm({
   sendTest: (v: Record<string, never>) => Promise<ActionResult<unknown>>;
 }) {
   const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/studio/setup-schema").then((m) => m.mailSenderSchema), action, defaultValues: values, onSuccess: () => form.reset(form.getValues()) });
-  const [sending, setSending] = useState(false);
-  const [testError, setTestError] = useState<string | null>(null);
   const e = form.formState.errors;
-
-  async function test() {
-    setSending(true);
-    setTestError(null);
-    const r = await sendTest({});
-    setSending(false);
-    if (r.ok) toast.success(r.message ?? "Test message sent.");
-    else setTestError(r.message);
-  }
+  // Sending a test changes nothing on the page.
+  const { run: test, busy: sending, error: testError } = useRefreshingMutation(() => actionData(sendTest({})), {
+    refresh: "never",
+    onSuccess: (r) => toast.success(r.message ?? "Test message sent."),
+  });
 
   return (
     <div className="space-y-6">
@@ -49,7 +44,7 @@ export function MailSenderForm({
       </form>
       <div className="space-y-2 border-t border-line pt-4">
         <p className="text-sm text-muted">Send yourself a message to see your e-mails as owners will, with your name, logo and colour. It goes to {yourEmail}.</p>
-        <Button variant="secondary" disabled={sending} onClick={() => void test()}>
+        <Button variant="secondary" disabled={sending} onClick={() => test(undefined)}>
           {sending ? "Sending…" : "Send a test message"}
         </Button>
         {testError ? <Notice tone="error">{testError}</Notice> : null}
