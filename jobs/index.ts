@@ -1,6 +1,6 @@
 // `npm run jobs`: the scheduler process. node-cron runs the reminder pass at minute 5 of every hour
 // (and once at start), visit reminders every 15 minutes (and once at start), the retry of queued mail
-// every minute, the care-plan visit pass at minute 25 and stalled hand-over mailings every 5 minutes,
+// every minute, the care-plan visit pass at minute 25, unfinished plan changes of hands and stalled hand-over mailings every 5 minutes,
 // never two of a kind at once in this process; the ledger keeps passes in other processes
 // from sending anything twice. SIGTERM/SIGINT stop the schedule and abort the running passes, and
 // the process waits for each of them: each finishes the message in hand, puts back what it had claimed but not sent, and returns at once (see
@@ -10,6 +10,7 @@ import { getDb } from "@/db/client";
 import { closeMailTransport, retryQueuedMail } from "@/lib/mail";
 import { describePass, remindersJob } from "./reminders";
 import { planVisitsJob } from "./plan-visits";
+import { planTransfersJob } from "./plan-transfers";
 import { describeHandoverMailings, handoverMailingsJob } from "./handover-mailings";
 import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 
@@ -49,6 +50,8 @@ const passes = [
   ),
   // Care plans: included visits become jobs ahead of their due date.
   pass("plan visit pass", "25 * * * *", (now) => planVisitsJob(now)),
+  // Care plans whose change of hands Stripe couldn't be told of at the time: finished.
+  pass("plan transfer pass", "*/5 * * * *", () => planTransfersJob()),
   // Bulk hand-over mailings left half-sent (the server stopped): finished, each piece once.
   pass("hand-over mailing pass", "*/5 * * * *", (now, signal) => handoverMailingsJob(now, signal).then(describeHandoverMailings)),
 ];

@@ -81,6 +81,11 @@ export type StripeFake = {
   deliveries(): Delivery[];
   /** Sends an event to the webhook again, as Stripe's "resend" does. */
   redeliver(eventId: string): Promise<number | null>;
+  /**
+   * Tests only (in-process, no HTTP route): the next `times` API requests with this method and path
+   * answer 500 as a Stripe outage would (marked not to be retried by the SDK), and change nothing.
+   */
+  failNext(method: string, path: string, times?: number): void;
   close(): Promise<void>;
 };
 
@@ -156,6 +161,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   const install: FakeAccount = { secretKey: options.secretKey, webhookSecret: options.webhookSecret, webhookUrl: options.webhookUrl };
   const accounts = new Map<string, FakeAccount>([install, ...(options.accounts ?? [])].map((a) => [a.secretKey, a]));
   const requests: FakeRequest[] = [];
+  const failures: { method: string; path: string; times: number }[] = [];
   /** The account (its key) each session, charge and event belongs to. */
   const ownerOf = new Map<string, string>();
 
@@ -424,6 +430,13 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
   async function handleApi(req: http.IncomingMessage, res: http.ServerResponse, path: string[]) {
     const apiKey = checkKey(req);
     requests.push({ method: req.method ?? "GET", path: `/v1/${path.join("/")}`, key: apiKey });
+    const outage = failures.find((f) => f.times > 0 && f.method === req.method && f.path === `/v1/${path.join("/")}`);
+    if (outage) {
+      outage.times--;
+      await readBody(req);
+      res.setHeader("stripe-should-retry", "false");
+      throw new StripeError(500, "api_error", "An error occurred with our connection to Stripe (a failure set by the test).");
+    }
     const body = req.method === "POST" || req.method === "DELETE" ? await readBody(req) : "";
     const key = req.headers["idempotency-key"];
     const idemKey = typeof key === "string" ? `${apiKey}:${path.join("/")}:${key}` : null;
@@ -550,6 +563,9 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
       const e = events.find((x) => x.id === eventId);
       if (!e) throw new Error(`no event ${eventId}`);
       return deliverOnce(e, 0);
+    },
+    failNext: (method, path, times = 1) => {
+      failures.push({ method: method.toUpperCase(), path, times });
     },
     close: () =>
       new Promise<void>((resolve) => {

@@ -22,6 +22,7 @@ import { PLAN_STATE_LABELS } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { livePlanOfPiece, moveSubscription, studioSubscription, type PlanMover } from "./subscriptions";
 import { templateOf } from "./templates";
+import { transferPendingWords } from "./transfer";
 
 /** What the person confirmed: the plan's version and the refund they were shown (minor units). */
 export const cancelAskSchema = z.object({
@@ -176,7 +177,7 @@ export function studioPlanDetail(ctx: StudioActor, subscriptionId: string, now =
     .where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.status, "paid"), eq(planInvoices.counts, false)))
     .all()
     .map((r) => ({ ...r, at: r.at.getTime() }));
-  return { subscription: sub, cancel: cancelPreview(sub, now), refund: refundOf(sub.id) ?? null, heldPayments: held };
+  return { subscription: sub, cancel: cancelPreview(sub, now), refund: refundOf(sub.id) ?? null, heldPayments: held, transferPending: transferPendingWords(sub) };
 }
 
 export type OwnerPlanControl = {

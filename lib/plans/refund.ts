@@ -36,7 +36,7 @@ export type RefundQuote = {
 };
 
 /** The months a plan's period has: 12 for a yearly plan, 1 for a monthly one. */
-const monthsIn = (t: Pick<PlanTemplate, "interval">) => (t.interval === "year" ? 12 : 1);
+export const monthsIn = (t: Pick<PlanTemplate, "interval">) => (t.interval === "year" ? 12 : 1);
 
 /**
  * What ending `sub` at `at` gives: its end date and the refund by its template's rule. `endsNow` (the

@@ -5,16 +5,27 @@
 //  - on: the plan stays with the piece for the rest of the period paid, for whoever registers it next,
 //    and is not renewed on the former owner's card (Stripe: cancel at the period's end).
 // Either way the move goes through moveSubscription under the plan's lock and is audited.
-import { eq } from "drizzle-orm";
+//
+// Safe to retry: the move, the refund claim and the step still to do at Stripe (transferStep: "stripe",
+// then "refund" for a plan that ends) are written in one transaction first; finishPlanTransfer then
+// does what is left, each Stripe call with an idempotency key of the plan, and moves the step on only
+// after Stripe answered. If Stripe fails, the plan shows what is left in plain words, and the next try
+// (staff's "try again", or the scheduled pass every few minutes) finishes it: one move, one Stripe
+// subscription, one refund, one mail.
+import { and, eq, isNotNull } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
 import { planSubscriptions, type PlanSubscription } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
+import type { StudioActor } from "@/lib/auth/actor";
 import { callStripe } from "@/lib/payments/stripe";
-import { claimRefund, mailPlanEnding, payRefund, refundQuote } from "./refund";
+import { claimRefund, mailPlanEnding, monthsIn, payRefund, refundOf, refundQuote } from "./refund";
+import { PLAN_FINAL } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
-import { livePlanOfPiece, moveSubscription } from "./subscriptions";
+import { livePlanOfPiece, moveSubscription, studioSubscription } from "./subscriptions";
+import { templateOf } from "./templates";
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+type TransferStep = NonNullable<PlanSubscription["transferStep"]>;
 
 function auditChangedHands(tx: Tx, sub: PlanSubscription, fromOwnerId: string, data: Record<string, unknown>) {
   recordAudit(tx, { studioId: sub.studioId, actorId: fromOwnerId, action: "plan.changed_hands", subjectType: "plan_subscription", subjectId: sub.id, data: { ...data, fromOwnerId } });
@@ -23,58 +34,128 @@ function auditChangedHands(tx: Tx, sub: PlanSubscription, fromOwnerId: string, d
 export type PlanAfterTransfer = {
   outcome: "none" | "moved" | "ended";
   subscription: PlanSubscription | null;
+  /** Plain words for the people involved while part of the change is still to finish at Stripe; null when done. */
+  pending: string | null;
 };
+
+const reread = (id: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, id)).get()!;
+const lockKey = (sub: PlanSubscription) => sub.stripeSubscriptionId ?? sub.id;
 
 export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, now = new Date()): Promise<PlanAfterTransfer> {
   const live = livePlanOfPiece(pieceId);
-  if (!live || live.sub.ownerId !== fromOwnerId) return { outcome: "none", subscription: null };
+  if (!live || live.sub.ownerId !== fromOwnerId) return { outcome: "none", subscription: null, pending: null };
   const { template } = live;
   const by = { actorId: fromOwnerId, source: "owner" } as const;
-  const reread = () => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, live.sub.id)).get()!;
-  try {
-    return await withPlanLock(live.sub.stripeSubscriptionId ?? live.sub.id, async () => {
+  // 1. The move, the refund claim and what is left to tell Stripe: one transaction.
+  const recorded = await withPlanLock(lockKey(live.sub), async () =>
+    getDb().transaction((tx) => {
+      const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, live.sub.id)).get()!;
+      const byCard = fresh.paidBy === "card" && Boolean(fresh.stripeSubscriptionId);
       if (template.transfers) {
-        const moved = getDb().transaction((tx) => {
-          const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, live.sub.id)).get()!;
-          const next = moveSubscription(tx, fresh, fresh.state === "grace" ? "grace" : "ending", { ownerId: null, endsAt: fresh.endsAt ?? fresh.periodEnd }, by);
-          auditChangedHands(tx, fresh, fromOwnerId, { moves: true, endsAt: next.endsAt?.toISOString() ?? null });
-          return next;
-        });
         // A plan already cancelled keeps the end it was given; otherwise it isn't renewed on the former owner's card.
-        if (moved.paidBy === "card" && moved.stripeSubscriptionId && live.sub.state !== "ending") {
-          await callStripe("stop renewing the plan", (s) => s.subscriptions.update(moved.stripeSubscriptionId!, { cancel_at_period_end: true }, { idempotencyKey: `plan-transfer-${moved.id}` }), moved);
-        }
-        return { outcome: "moved" as const, subscription: reread() };
+        const transferStep = byCard && fresh.state !== "ending" ? ("stripe" as const) : null;
+        const next = moveSubscription(tx, fresh, fresh.state === "grace" ? "grace" : "ending", { ownerId: null, endsAt: fresh.endsAt ?? fresh.periodEnd, transferStep }, by);
+        auditChangedHands(tx, fresh, fromOwnerId, { moves: true, endsAt: next.endsAt?.toISOString() ?? null });
+        return next;
       }
       // The plan ends today, with the refund its rule gives for the months left.
-      const { sub, quote, refund } = getDb().transaction((tx) => {
-        const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, live.sub.id)).get()!;
-        const quote = refundQuote(fresh, template, now, true);
-        const sub = moveSubscription(tx, fresh, "ended", { endedAt: now, endsAt: now }, by);
-        auditChangedHands(tx, fresh, fromOwnerId, { moves: false, refundMinor: quote.refundMinor });
-        return {
-          sub,
-          quote,
-          refund: claimRefund(tx, fresh, quote, "changed_hands", fromOwnerId),
-        };
-      });
-      if (sub.paidBy === "card" && sub.stripeSubscriptionId) {
-        await callStripe("end the plan", (s) => s.subscriptions.cancel(sub.stripeSubscriptionId!, {}, { idempotencyKey: `plan-transfer-${sub.id}` }), sub);
-      }
-      const paid = refund ? await payRefund(refund, sub) : null;
-      await mailPlanEnding(sub, quote, paid, "changed_hands");
-      return { outcome: "ended" as const, subscription: reread() };
-    }).then(async (r) => {
-      if (r.subscription?.stripeSubscriptionId) await syncPlanSubscription(r.subscription.stripeSubscriptionId, undefined, r.subscription);
-      return { ...r, subscription: reread() };
-    });
+      const quote = refundQuote(fresh, template, now, true);
+      const next = moveSubscription(tx, fresh, "ended", { endedAt: now, endsAt: now, transferStep: byCard ? "stripe" : "refund" }, by);
+      auditChangedHands(tx, fresh, fromOwnerId, { moves: false, refundMinor: quote.refundMinor });
+      claimRefund(tx, fresh, quote, "changed_hands", fromOwnerId);
+      return next;
+    }),
+  );
+  // 2. What is left at Stripe; a failure leaves the step recorded for the next try.
+  let subscription: PlanSubscription;
+  try {
+    subscription = await finishPlanTransfer(recorded.id);
   } catch (e) {
-    // The piece has changed hands already; what Stripe couldn't be told is in the log and the audit
-    // trail (the plan's state and any refund claim are written), for staff to finish by hand.
-    console.error("plan after transfer: Stripe step failed", e);
-    return {
-      outcome: template.transfers ? "moved" : "ended",
-      subscription: reread(),
-    };
+    console.error("plan after transfer: Stripe step failed; it is tried again by the plan transfer pass", e);
+    subscription = reread(recorded.id);
   }
+  return { outcome: template.transfers ? "moved" : "ended", subscription, pending: transferPendingWords(subscription) };
+}
+
+/** Moves the step on only from the one it was at (a racing try in another process moves it once). */
+function advance(sub: PlanSubscription, from: TransferStep, to: TransferStep | null): PlanSubscription | undefined {
+  return getDb().transaction((tx) => {
+    const next = tx
+      .update(planSubscriptions)
+      .set({ transferStep: to, updatedAt: new Date() })
+      .where(and(eq(planSubscriptions.id, sub.id), eq(planSubscriptions.transferStep, from)))
+      .returning()
+      .get();
+    if (next && to === null) recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.transfer_finished", subjectType: "plan_subscription", subjectId: sub.id, data: {} });
+    return next;
+  });
+}
+
+/**
+ * Does what is left of a plan's change of hands: tells Stripe (stop renewing a plan that moves, end one
+ * that ends), then pays the refund claimed and mails the former owner. Each step runs once: Stripe calls
+ * carry the plan's idempotency key, the refund is keyed by its claim, and the step moves on only from
+ * where it was. Throws (503/409, plain words) when Stripe fails; the step stays for the next try.
+ */
+export async function finishPlanTransfer(subId: string): Promise<PlanSubscription> {
+  const first = reread(subId);
+  if (!first.transferStep) return first;
+  const template = templateOf(first.studioId, first.templateId);
+  await withPlanLock(lockKey(first), async () => {
+    let sub: PlanSubscription | undefined = reread(subId);
+    if (sub.transferStep === "stripe") {
+      const id = sub.stripeSubscriptionId!;
+      const key = { idempotencyKey: `plan-transfer-${sub.id}` };
+      if (!template.transfers) await callStripe("end the plan", (s) => s.subscriptions.cancel(id, {}, key), sub);
+      // A moved plan that has ended at Stripe meanwhile has nothing left to stop.
+      else if (!PLAN_FINAL.includes(sub.state)) await callStripe("stop renewing the plan", (s) => s.subscriptions.update(id, { cancel_at_period_end: true }, key), sub);
+      sub = advance(sub, "stripe", template.transfers ? null : "refund");
+    }
+    if (sub?.transferStep === "refund") {
+      const claim = refundOf(sub.id);
+      const paid = claim ? await payRefund(claim, sub) : null;
+      const done = advance(sub, "refund", null);
+      if (done) {
+        const endsAt = done.endsAt ?? done.endedAt ?? new Date();
+        const quote = { rule: template.refundRule, endsAt, months: paid?.months ?? 0, monthsInPeriod: monthsIn(template), refundMinor: paid?.amountMinor ?? 0, currency: done.currency };
+        await mailPlanEnding(done, quote, paid, "changed_hands");
+      }
+    }
+  });
+  const after = reread(subId);
+  if (!after.transferStep && after.stripeSubscriptionId) await syncPlanSubscription(after.stripeSubscriptionId, undefined, after);
+  return reread(subId);
+}
+
+/** Plain words for staff (and the people involved) while a change of hands is unfinished; null when nothing is left. */
+export function transferPendingWords(sub: Pick<PlanSubscription, "transferStep" | "state">): string | null {
+  if (sub.transferStep === "stripe" && sub.state !== "ended")
+    return "This plan is moving with its piece to the next owner, but the payment service hasn't confirmed yet that it will stop renewing on the former owner's card. We try again every few minutes; nothing is charged twice.";
+  if (sub.transferStep === "stripe") return "This plan ended when its piece changed hands, but the payment service hasn't confirmed the end yet. We try again every few minutes; nothing is charged or paid back twice.";
+  if (sub.transferStep === "refund") return "This plan ended when its piece changed hands; the refund to the former owner is still being paid. We try again every few minutes; it is paid once.";
+  return null;
+}
+
+/** Staff try again now to finish a plan's change of hands. */
+export async function finishStudioPlanTransfer(ctx: StudioActor, subscriptionId: string): Promise<{ subscription: PlanSubscription; pending: string | null }> {
+  const sub = studioSubscription(ctx.studio.id, subscriptionId);
+  const subscription = await finishPlanTransfer(sub.id);
+  return { subscription, pending: transferPendingWords(subscription) };
+}
+
+/** The scheduled pass: finishes every change of hands left unfinished (each on its own; one failing doesn't stop the rest). */
+export async function finishPlanTransfers(): Promise<{ finished: string[]; failed: string[] }> {
+  const open = getDb().select({ id: planSubscriptions.id }).from(planSubscriptions).where(isNotNull(planSubscriptions.transferStep)).all();
+  const finished: string[] = [];
+  const failed: string[] = [];
+  for (const { id } of open) {
+    try {
+      if (!(await finishPlanTransfer(id)).transferStep) finished.push(id);
+      else failed.push(id);
+    } catch (e) {
+      console.error(`plan transfer pass: ${id} not finished yet`, e);
+      failed.push(id);
+    }
+  }
+  return { finished, failed };
 }
