@@ -1298,6 +1298,16 @@ export const planInvoices = sqliteTable(
     currency: text("currency").notNull(),
     /** false when the amount or the template version is not the plan's current one (kept, not counted). */
     counts: integer("counts", { mode: "boolean" }).notNull().default(true),
+    /**
+     * What staff decided about a paid invoice held because its amount or version wasn't the plan's
+     * (lib/plans/held.ts): taken as the period's payment, taken with the difference paid back, or paid
+     * back in full with the plan ended. Null while it waits for staff (or when nothing was held).
+     */
+    heldResolution: text("held_resolution", { enum: ["accepted", "difference_refunded", "refunded_and_ended"] }),
+    /** What was paid back of a held invoice (minor units). */
+    heldRefundedMinor: integer("held_refunded_minor").notNull().default(0),
+    heldResolvedAt: integer("held_resolved_at", { mode: "timestamp_ms" }),
+    heldResolvedById: text("held_resolved_by_id").references(() => users.id, { onDelete: "set null" }),
     periodStart: integer("period_start", { mode: "timestamp_ms" }),
     periodEnd: integer("period_end", { mode: "timestamp_ms" }),
     at: integer("at", { mode: "timestamp_ms" }).notNull(),
