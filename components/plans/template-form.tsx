@@ -52,8 +52,8 @@ export function PlanTemplateForm({
     const json = templateInputOf(values, exponent);
     try {
       if (template) {
-        const { plan } = await apiJson<{ plan: { version: number } }>(`/api/plans/${template.id}`, { method: "PUT", json });
-        toast.success(`Saved as version ${plan.version}. Plans already running keep the version they were bought under.`);
+        await apiJson(`/api/plans/${template.id}`, { method: "PUT", json });
+        toast.success("Saved. Plans already running keep the terms they were bought under.");
       } else {
         await apiJson("/api/plans", { method: "POST", json });
         toast.success("Plan added.");

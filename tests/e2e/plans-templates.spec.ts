@@ -1,11 +1,11 @@
 // The plan template form in a real browser: an admin adds a plan (a missing price is answered on its
-// field and what was typed stays), then changes it; the change is saved as version 2. At 375 px the
+// field and what was typed stays), then changes it; the change is saved as new terms. At 375 px the
 // page has no axe violations. The new plan is not offered to owners, so other specs never meet it.
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
 import { ACCOUNTS, signInTo } from "./helpers";
 
-test("an admin adds a care plan, then changes it into version 2", async ({ page }) => {
+test("an admin adds a care plan, then changes its terms", async ({ page }) => {
   await page.setViewportSize({ width: 1280, height: 900 });
   await signInTo(page, ACCOUNTS.admin, "/studio/settings/plans");
   const name = `Edge keeping ${Date.now().toString(36)} (invented)`;
@@ -26,7 +26,9 @@ test("an admin adds a care plan, then changes it into version 2", async ({ page 
   await add.getByLabel("Discount on paid repairs (%)").fill("10");
   await add.getByRole("button", { name: "Add the plan" }).click();
   const item = page.getByRole("listitem").filter({ hasText: name });
-  await expect(item.getByText("version 1")).toBeVisible();
+  // Terms are named by the day they were saved, never by a version number.
+  await expect(item.getByText(/· terms as of \d{1,2} [A-Z][a-z]+ \d{4}/)).toBeVisible();
+  await expect(item.getByText("These terms replaced earlier ones", { exact: false })).toHaveCount(0);
   await expect(item.getByText("10 % off paid repairs", { exact: false })).toBeVisible();
 
   await item.getByText("Change this plan").click();
@@ -42,7 +44,8 @@ test("an admin adds a care plan, then changes it into version 2", async ({ page 
   await edit.getByRole("button", { name: "Save as a new version" }).click();
 
   const changed = page.getByRole("listitem").filter({ hasText: name });
-  await expect(changed.getByText("version 2")).toBeVisible();
+  await expect(changed.getByText("These terms replaced earlier ones", { exact: false })).toBeVisible();
+  await expect(changed.getByText(/version \d/)).toHaveCount(0);
   await expect(changed.getByText("20 % off paid repairs", { exact: false })).toBeVisible();
   await expect(page.getByRole("listitem").filter({ hasText: name })).toHaveCount(1);
 

@@ -7,11 +7,12 @@ import { currencyExponent } from "@/lib/care/quote";
 import { CARE_TASK_LABELS } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { FINISH_CLASS_LABELS, PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
-import { formatInstant, formatMoney, formatPercentBp } from "@/lib/format";
+import { formatMoney, formatPercentBp } from "@/lib/format";
 import { planPrice } from "@/lib/plans/price";
 import { listTemplates } from "@/lib/plans/templates";
 import { taxRateFor } from "@/lib/repairs/lines";
 import { studioTax } from "@/lib/repairs/pricing";
+import { termsAsOf, termsChangedNote } from "./template-words";
 
 export const metadata: Metadata = { title: "Care plans" };
 
@@ -36,7 +37,7 @@ export default async function PlanSettingsPage() {
         <div>
           <h2 className="font-display text-xl font-semibold">Care plans</h2>
           <p className="text-sm text-muted">
-            A yearly (or monthly) plan owners can buy for a piece: the care tasks you do for them, studio visits, a longer warranty on some lines and a discount on repairs. Changing a plan makes a new version; plans already running keep the version they were bought under.
+            A yearly (or monthly) plan owners can buy for a piece: the care tasks you do for them, studio visits, a longer warranty on some lines and a discount on repairs. Changing a plan saves new terms from that day; plans already running keep the terms they were bought under.
           </p>
         </div>
         {templates.length ? (
@@ -46,7 +47,7 @@ export default async function PlanSettingsPage() {
               return (
                 <li key={t.id} className="space-y-1 py-3">
                   <p className="font-semibold">
-                    {t.name} <span className="text-sm font-normal text-muted">· version {t.version}{t.offered ? "" : " · not offered"}</span>
+                    {t.name} <span className="text-sm font-normal text-muted">· {termsAsOf(t.createdAt, ctx.studio.timeZone)}{t.offered ? "" : " · not offered"}</span>
                   </p>
                   <p className="text-sm">
                     {formatMoney(price.totalMinor, t.currency, ctx.studio.country)} {t.interval === "year" ? "a year" : "a month"}
@@ -61,7 +62,7 @@ export default async function PlanSettingsPage() {
                     {t.fits.maxTopAreaM2 != null ? ` · tops up to ${t.fits.maxTopAreaM2} m²` : ""}
                     {t.included.repairDiscountPct ? ` · ${t.included.repairDiscountPct} % off paid repairs` : ""}
                   </p>
-                  <p className="text-sm text-muted">Saved {formatInstant(t.createdAt, ctx.studio.timeZone)}</p>
+                  {termsChangedNote(t.version) ? <p className="text-sm text-muted">{termsChangedNote(t.version)}</p> : null}
                   <details className="pt-1">
                     <summary className="min-h-11 cursor-pointer py-2 font-medium text-resin underline underline-offset-2">Change this plan</summary>
                     <PlanTemplateForm template={t} currency={ctx.studio.currency} exponent={exponent} taxNote={taxNote} categoryLabels={CLAIM_CATEGORY_LABELS} />
