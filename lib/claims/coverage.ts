@@ -48,13 +48,16 @@ export type ClaimCoverage = {
   notes: string[];
 };
 
+/** "Warranty terms for deliveries from 3 March 2026": a version of the studio's terms as its settings list them. */
+export const warrantyTermsName = (effectiveFrom: string) => `Warranty terms for deliveries from ${formatDate(effectiveFrom)}`;
+
 export function claimCoverage(input: {
   claim: Pick<Claim, "category" | "answers" | "createdAt" | "ownerId">;
   piece: Piece;
   layers: readonly FinishLayer[];
   careLog: readonly CareLogRow[];
   products: readonly FinishProduct[];
-  policyRow: Pick<WarrantyPolicyRow, "policy" | "version"> | null;
+  policyRow: Pick<WarrantyPolicyRow, "policy" | "version" | "effectiveFrom"> | null;
   ownerships: readonly Pick<Ownership, "userId" | "startedAt">[];
   timeZone: string;
   /** The studio's units for the worked-out lines; metric when left out. */
@@ -65,12 +68,16 @@ export function claimCoverage(input: {
   const notes: string[] = [];
   let policy: WarrantyPolicy;
   let termsName: string;
-  if (input.policyRow) policy = input.policyRow.policy;
-  else {
+  // The terms are named as the studio's warranty settings name them, by the deliveries they apply from,
+  // never by the label stored inside them (a version string, or the demo's "(invented)" id).
+  if (input.policyRow) {
+    policy = input.policyRow.policy;
+    termsName = warrantyTermsName(input.policyRow.effectiveFrom);
+  } else {
     policy = DEFAULT_WARRANTY_POLICY;
-    notes.push(`The piece record names no warranty version; checked against the default terms (${DEFAULT_WARRANTY_POLICY.version}).`);
+    termsName = "The standard terms";
+    notes.push("This piece has no warranty terms on record, so it was checked against the standard terms.");
   }
-  termsName = `“${policy.version}”`;
   // A running care plan lengthens (or adds) warranty lines; from the day it lapsed or ended, the base terms apply.
   const plan = input.plan !== undefined ? input.plan : planOnDay(input.piece.id, input.claim.createdAt);
   const planTerms = plan ? withPlanTerms(policy, plan, input.timeZone) : null;

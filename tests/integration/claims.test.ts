@@ -215,7 +215,10 @@ describe("the coverage check beside each claim", () => {
     expect(c.check!.reasons.some((r) => /24-month term/.test(r) && /days left/.test(r))).toBe(true);
     expect(c.check!.reasons.some((r) => r.startsWith("expected seasonal movement of this 900 mm top"))).toBe(true);
     expect(c.check!.climate?.reported?.changeMm).toBeGreaterThan(0);
-    expect(c.notes[0]).toMatch(/names no warranty version; checked against the default terms/);
+    // No terms on record: named in words, never by the stored id of the fallback terms.
+    expect(c.notes[0]).toBe("This piece has no warranty terms on record, so it was checked against the standard terms.");
+    expect(c.termsName).toBe("The standard terms");
+    expect([c.termsName, ...c.notes].join(" ")).not.toContain(DEFAULT_WARRANTY_POLICY.version);
   });
 
   it("gives exactly what checkCoverage gives for the same inputs (default terms, noted)", async () => {
