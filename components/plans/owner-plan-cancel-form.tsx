@@ -45,10 +45,16 @@ export function OwnerPlanCancelForm({ control, timeZone, country }: { control: O
   }
 
   const q = control.quote;
-  if (!q) return null;
+  const held = control.held ? (
+    <p className="text-sm" data-testid="plan-payment-held">
+      {control.held}
+    </p>
+  ) : null;
+  if (!q) return held;
   if (!confirming) {
     return (
       <div className="space-y-2">
+        {held}
         <Button variant="secondary" onClick={() => setConfirming(true)}>
           Cancel this plan
         </Button>

@@ -12,7 +12,7 @@ import { and, eq } from "drizzle-orm";
 import type { User } from "lucia";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { planInvoices, planRefunds, planSubscriptions, studios, type PlanSubscription } from "@/db/schema";
+import { planInvoices, planRefunds, planSubscriptions, studios, users, type PlanSubscription } from "@/db/schema";
 import type { StudioActor } from "@/lib/auth/actor";
 import { conflict, notFound } from "@/lib/errors";
 import { formatMoney } from "@/lib/format/money";
@@ -23,6 +23,7 @@ import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { livePlanOfPiece, moveSubscription, studioSubscription, type PlanMover } from "./subscriptions";
 import { templateOf } from "./templates";
 import { transferPendingWords } from "./transfer";
+import { heldForOwner, heldForStaff } from "./held";
 
 /** What the person confirmed: the plan's version and the refund they were shown (minor units). */
 export const cancelAskSchema = z.object({
@@ -177,7 +178,7 @@ export function studioPlanDetail(ctx: StudioActor, subscriptionId: string, now =
     .where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.status, "paid"), eq(planInvoices.counts, false)))
     .all()
     .map((r) => ({ ...r, at: r.at.getTime() }));
-  return { subscription: sub, cancel: cancelPreview(sub, now), refund: refundOf(sub.id) ?? null, heldPayments: held, transferPending: transferPendingWords(sub) };
+  return { subscription: sub, cancel: cancelPreview(sub, now), refund: refundOf(sub.id) ?? null, heldPayments: held, held: heldForStaff(sub, ctx.studio.timeZone), transferPending: transferPendingWords(sub) };
 }
 
 export type OwnerPlanControl = {
@@ -190,9 +191,17 @@ export type OwnerPlanControl = {
   canUndo: boolean;
   refundedMinor: number | null;
   paidBy: PlanSubscription["paidBy"];
+  /** Plain words when a renewal payment is held for the studio to check (what happened, what happens next); else null. */
+  held: string | null;
   /** The studio's country, for writing money. */
   country: string;
 };
+
+/** The owner's time zone, else their studio's. */
+function ownerZone(userId: string, studioId: string): string {
+  const db = getDb();
+  return db.select({ zone: users.timeZone }).from(users).where(eq(users.id, userId)).get()?.zone || db.select({ zone: studios.timeZone }).from(studios).where(eq(studios.id, studioId)).get()!.zone;
+}
 
 /** For the owner's piece page: their live plan on the piece (else null) with what cancelling it now gives. */
 export function myPlanControl(user: Pick<User, "id">, pieceId: string, now = new Date()): OwnerPlanControl | null {
@@ -211,6 +220,7 @@ export function myPlanControl(user: Pick<User, "id">, pieceId: string, now = new
     canUndo: preview.canUndo,
     refundedMinor: refundOf(sub.id)?.amountMinor ?? null,
     paidBy: sub.paidBy,
+    held: heldForOwner(sub, ownerZone(user.id, sub.studioId)),
     country: getDb().select({ country: studios.country }).from(studios).where(eq(studios.id, sub.studioId)).get()!.country,
   };
 }

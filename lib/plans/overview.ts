@@ -5,7 +5,8 @@ import { getDb } from "@/db/client";
 import { pieces, planInvoices, planSubscriptions, planTemplates, users } from "@/db/schema";
 import type { StudioActor } from "@/lib/auth/actor";
 import { addMonths, localDate } from "@/lib/care/dates";
-import { PLAN_STATE_LABELS } from "./states";
+import { plansWithHeldPayment } from "./held";
+import { PLAN_FINAL, PLAN_STATE_LABELS } from "./states";
 
 const DAY = 86_400_000;
 export const RENEWAL_WINDOW_DAYS = 30;
@@ -46,7 +47,8 @@ function studioPlanRows(ctx: StudioActor, where: SQL | undefined, limit: number)
     .orderBy(desc(planSubscriptions.createdAt), desc(planSubscriptions.id))
     .limit(limit)
     .all();
-  return rows.map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null, stateLabel: PLAN_STATE_LABELS[r.state] }));
+  const held = plansWithHeldPayment(rows.map((r) => r.id));
+  return rows.map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null, stateLabel: held.has(r.id) && !PLAN_FINAL.includes(r.state) ? `${PLAN_STATE_LABELS[r.state]}, renewal payment held for you to check` : PLAN_STATE_LABELS[r.state] }));
 }
 
 export type StudioPlanRow = ReturnType<typeof studioPlanRows>[number];

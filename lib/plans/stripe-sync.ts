@@ -70,8 +70,15 @@ function matchesPlan(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
   return inv.amount_paid === sub.amountMinor && meta.templateId === sub.templateId && inv.currency.toUpperCase() === sub.currency.toUpperCase();
 }
 
-/** A paid invoice that isn't the plan's price: not accepted as a payment of the plan; held for staff. */
-const isHeld = (sub: PlanSubscription, inv: Stripe.Invoice | null) => inv?.status === "paid" && !matchesPlan(sub, inv);
+/** Whether staff took a held invoice as the period's payment (lib/plans/held.ts): it counts from then on. */
+function takenByStaff(invoiceId: string | undefined): boolean {
+  if (!invoiceId) return false;
+  const row = getDb().select({ resolution: planInvoices.heldResolution }).from(planInvoices).where(eq(planInvoices.stripeInvoiceId, invoiceId)).get();
+  return row?.resolution === "accepted" || row?.resolution === "difference_refunded";
+}
+
+/** A paid invoice that isn't the plan's price: not accepted as a payment of the plan; held for staff (unless staff took it). */
+const isHeld = (sub: PlanSubscription, inv: Stripe.Invoice | null) => inv?.status === "paid" && !matchesPlan(sub, inv) && !takenByStaff(inv.id);
 
 /**
  * Writes one Stripe invoice of the plan: paid or failed, and whether it counts (the plan's amount and
@@ -79,7 +86,7 @@ const isHeld = (sub: PlanSubscription, inv: Stripe.Invoice | null) => inv?.statu
  */
 function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
   const paid = inv.status === "paid";
-  const counts = paid && matchesPlan(sub, inv);
+  const counts = paid && (matchesPlan(sub, inv) || takenByStaff(inv.id));
   const template = templateOf(sub.studioId, sub.templateId);
   const studio = getDb().select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
   const price = planPrice(studio, template);

@@ -444,6 +444,7 @@ const ROUTES: RouteRow[] = [
   { route: "GET /api/plans/subscriptions/[id]", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.get("/api/plans/subscriptions/missing") },
   { route: "POST /api/plans/subscriptions/[id]/cancel", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/cancel", { data: { version: 0, refundMinor: 0 } }) },
   { route: "POST /api/plans/subscriptions/[id]/keep", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/keep", { data: { version: 0 } }) },
+  { route: "POST /api/plans/subscriptions/[id]/held", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/held", { data: { invoiceId: "missing", resolution: "accept", version: 0, amountMinor: 0, refundMinor: 0 } }) },
   { route: "POST /api/plans/subscriptions/[id]/finish-transfer", expect: "401 403 403 403 404 404 404 404", send: ({ api }) => api.post("/api/plans/subscriptions/missing/finish-transfer") },
   // An owner's own plan: every signed-in person acts as an owner here; a plan that isn't theirs is a 404.
   { route: "POST /api/me/plans/[id]/cancel", expect: "401 404 404 404 404 404 404 404", send: ({ api }) => api.post("/api/me/plans/missing/cancel", { data: { version: 0, refundMinor: 0 } }) },

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { StaffPlanActions, type StaffPlanAction } from "@/components/plans/staff-plan-actions";
+import { FinishTransferButton, HeldPaymentActions } from "@/components/plans/staff-plan-money";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
@@ -60,20 +61,15 @@ export default async function StudioPlanPage({ params }: { params: Promise<{ id:
               </Link>
             </p>
           ) : null}
+          {detail.transferPending ? <FinishTransferButton subscriptionId={sub.id} words={detail.transferPending} /> : null}
           <StaffPlanActions action={action} />
         </Card>
         <Card className="space-y-2">
           <h2 className="font-display text-xl font-semibold">Payments held</h2>
-          {detail.heldPayments.length === 0 ? (
-            <p className="text-sm text-muted">None. A card payment whose amount isn&apos;t the plan&apos;s price is held here instead of renewing the plan.</p>
+          {detail.held ? (
+            <HeldPaymentActions subscriptionId={sub.id} held={detail.held} />
           ) : (
-            <ul className="divide-y divide-line text-sm">
-              {detail.heldPayments.map((h) => (
-                <li key={h.stripeInvoiceId ?? h.at} className="py-1.5">
-                  {money(h.amountMinor)} paid {day(h.at)}: not the plan&apos;s {money(sub.amountMinor)}, so the plan was not renewed by it. Refund it or settle it with the owner.
-                </li>
-              ))}
-            </ul>
+            <p className="text-sm text-muted">None waiting. A card payment whose amount isn&apos;t the plan&apos;s price is held here for you to check instead of renewing the plan.</p>
           )}
         </Card>
       </div>

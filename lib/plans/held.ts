@@ -1,0 +1,179 @@
+// A renewal held because Stripe charged an amount (or a template version) that isn't the plan's: the
+// payment is kept but not counted, and the plan's new period doesn't start (lib/plans/stripe-sync.ts).
+// Here: how that is said to staff and to the owner, and what staff can do about it —
+//  - accept: the payment is taken as the new period's payment as charged (no money moves);
+//  - refund the difference (only when more than the plan's price was charged, in its currency): the
+//    excess goes back to the owner's card and the rest is the new period's payment;
+//  - refund and end: the whole payment goes back, Stripe stops the subscription, and the plan ends.
+// As with cancelling (lib/plans/cancel.ts), money moves only when the plan version, the held amount and
+// the refund the person was shown are still the current ones: they are checked and the decision claimed
+// in one transaction under the plan's lock; Stripe is asked after (idempotency key of the held payment);
+// if it refuses, the claim is undone and the payment waits as before.
+import { and, desc, eq, inArray, isNull } from "drizzle-orm";
+import { z } from "zod";
+import { getDb } from "@/db/client";
+import { planInvoices, planSubscriptions, studios, type PlanInvoice, type PlanSubscription } from "@/db/schema";
+import { recordAudit } from "@/lib/audit";
+import type { StudioActor } from "@/lib/auth/actor";
+import { conflict, notFound } from "@/lib/errors";
+import { formatInstant, formatMoney, formatZone } from "@/lib/format";
+import { callStripe } from "@/lib/payments/stripe";
+import { PLAN_FINAL } from "./states";
+import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
+import { moveSubscription, studioSubscription } from "./subscriptions";
+
+export const HELD_RESOLUTIONS = ["accept", "refund_difference", "refund_and_end"] as const;
+export type HeldResolution = (typeof HELD_RESOLUTIONS)[number];
+
+/** What staff confirmed: the decision, and the plan version, held amount and refund they were shown. */
+export const heldAskSchema = z.object({
+  invoiceId: z.string({ error: "Reload the page: the held payment is missing." }).min(1).max(64),
+  resolution: z.enum(HELD_RESOLUTIONS, { error: "Choose what to do with the held payment." }),
+  version: z.number({ error: "Reload the page: the plan's version is missing." }).int().min(0),
+  amountMinor: z.number({ error: "Reload the page: the held amount is missing." }).int().min(0),
+  refundMinor: z.number({ error: "Reload the page: the refund shown is missing." }).int().min(0),
+});
+export type HeldAsk = z.infer<typeof heldAskSchema>;
+
+const STORED: Record<HeldResolution, NonNullable<PlanInvoice["heldResolution"]>> = { accept: "accepted", refund_difference: "difference_refunded", refund_and_end: "refunded_and_ended" };
+
+/** The plan's payment waiting for staff (paid, not counted, not yet decided), newest first; undefined when none. */
+export function heldPaymentOf(subscriptionId: string): PlanInvoice | undefined {
+  return getDb()
+    .select()
+    .from(planInvoices)
+    .where(and(eq(planInvoices.subscriptionId, subscriptionId), eq(planInvoices.status, "paid"), eq(planInvoices.counts, false), isNull(planInvoices.heldResolution)))
+    .orderBy(desc(planInvoices.at))
+    .get();
+}
+
+/** Of these plans, the ones with a payment waiting for staff. */
+export function plansWithHeldPayment(subscriptionIds: readonly string[]): Set<string> {
+  if (subscriptionIds.length === 0) return new Set();
+  const rows = getDb()
+    .selectDistinct({ id: planInvoices.subscriptionId })
+    .from(planInvoices)
+    .where(and(inArray(planInvoices.subscriptionId, [...subscriptionIds]), eq(planInvoices.status, "paid"), eq(planInvoices.counts, false), isNull(planInvoices.heldResolution)))
+    .all();
+  return new Set(rows.map((r) => r.id));
+}
+
+/** What each decision would pay back (null: not possible for this payment). */
+function refundFor(sub: PlanSubscription, held: PlanInvoice, resolution: HeldResolution): number | null {
+  if (resolution === "accept") return 0;
+  if (resolution === "refund_and_end") return held.amountMinor;
+  const sameCurrency = held.currency.toUpperCase() === sub.currency.toUpperCase();
+  return sameCurrency && held.amountMinor > sub.amountMinor ? held.amountMinor - sub.amountMinor : null;
+}
+
+export type HeldOption = { resolution: HeldResolution; refundMinor: number; label: string; words: string };
+export type HeldView = { invoiceId: string; amountMinor: number; version: number; words: string; options: HeldOption[] };
+
+function wordsParts(sub: PlanSubscription, held: PlanInvoice, timeZone: string) {
+  const country = getDb().select({ country: studios.country }).from(studios).where(eq(studios.id, sub.studioId)).get()!.country;
+  return {
+    money: (minor: number, currency = sub.currency) => formatMoney(minor, currency, country),
+    on: `${formatInstant(held.at, timeZone)} (${formatZone(timeZone)})`,
+  };
+}
+
+/** Staff's view of the held payment: what happened and what happens next, and the decisions open to them. */
+export function heldForStaff(sub: PlanSubscription, timeZone: string): HeldView | null {
+  const held = heldPaymentOf(sub.id);
+  if (!held || PLAN_FINAL.includes(sub.state)) return null;
+  const { money, on } = wordsParts(sub, held, timeZone);
+  const charged = money(held.amountMinor, held.currency);
+  const words = `The renewal on ${on} charged ${charged}, but this plan costs ${money(sub.amountMinor)}. The payment is held: the plan's new period hasn't started, and it keeps covering as before until you decide. Nothing more is charged meanwhile.`;
+  const options: HeldOption[] = [];
+  for (const resolution of HELD_RESOLUTIONS) {
+    const refundMinor = refundFor(sub, held, resolution);
+    if (refundMinor === null) continue;
+    if (resolution === "accept") options.push({ resolution, refundMinor, label: `Keep ${charged} as this period's payment`, words: `The new period starts, paid at ${charged}. No money moves.` });
+    if (resolution === "refund_difference") options.push({ resolution, refundMinor, label: `Pay back the ${money(refundMinor)} difference`, words: `${money(refundMinor)} goes back to the owner's card and the new period starts, paid at the plan's ${money(sub.amountMinor)}.` });
+    if (resolution === "refund_and_end") options.push({ resolution, refundMinor, label: "Pay it all back and end the plan", words: `${charged} goes back to the owner's card, the plan isn't renewed, and it ends now.` });
+  }
+  return { invoiceId: held.id, amountMinor: held.amountMinor, version: sub.version, words, options };
+}
+
+/** The owner's words for their plan's held renewal; null when nothing is held. */
+export function heldForOwner(sub: PlanSubscription, timeZone: string): string | null {
+  const held = heldPaymentOf(sub.id);
+  if (!held || PLAN_FINAL.includes(sub.state)) return null;
+  const { money, on } = wordsParts(sub, held, timeZone);
+  return `Your renewal on ${on} was charged ${money(held.amountMinor, held.currency)}, not the plan's ${money(sub.amountMinor)}. The studio is checking it and will either keep it as this period's payment or pay back what isn't owed. Your plan keeps covering your piece meanwhile, and nothing more is charged.`;
+}
+
+/** The payment intent of one of the plan's Stripe invoices, read under the account the plan was bought under. */
+async function paymentIntentOf(sub: PlanSubscription, stripeInvoiceId: string): Promise<string> {
+  const invoice = await callStripe("read the held payment", (s) => s.invoices.retrieve(stripeInvoiceId, { expand: ["payments"] }), sub);
+  const pi = invoice.payments?.data?.[0]?.payment?.payment_intent;
+  const id = typeof pi === "string" ? pi : pi?.id;
+  if (!id) throw conflict("This payment can't be paid back by card. Settle it with the owner by other means.");
+  return id;
+}
+
+const reread = (id: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, id)).get()!;
+
+/** Staff decide what happens to a held renewal payment, confirming what they were shown. */
+export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: string, ask: HeldAsk): Promise<PlanSubscription> {
+  const first = studioSubscription(ctx.studio.id, subscriptionId);
+  const by = { actorId: ctx.user.id, source: "staff" } as const;
+  return withPlanLock(first.stripeSubscriptionId ?? first.id, async () => {
+    // 1. Check what was confirmed and claim the decision: one transaction.
+    const { sub, held, refundMinor } = getDb().transaction((tx) => {
+      const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, first.id)).get()!;
+      const held = tx.select().from(planInvoices).where(and(eq(planInvoices.id, ask.invoiceId), eq(planInvoices.subscriptionId, fresh.id))).get();
+      if (held?.heldResolution) throw conflict("This payment has already been settled. Reload to see it as it is now.", { code: "held_settled" });
+      if (!held || held.status !== "paid" || held.counts) throw notFound("This plan has no such held payment.");
+      if (fresh.version !== ask.version) throw conflict("The plan changed since this page was opened. Reload to see it as it is now.", { code: "plan_changed" });
+      if (PLAN_FINAL.includes(fresh.state)) throw conflict("This plan has already ended; settle the payment with the owner by other means.");
+      if (held.amountMinor !== ask.amountMinor) throw conflict("The held payment isn't the amount shown. Reload and confirm again.", { code: "held_changed" });
+      const refundMinor = refundFor(fresh, held, ask.resolution);
+      if (refundMinor === null) throw conflict("Only a payment above the plan's price has a difference to pay back. Keep it, or pay it all back and end the plan.");
+      if (refundMinor !== ask.refundMinor) throw conflict("The amount to pay back isn't what was shown. Reload and confirm again.", { code: "refund_changed" });
+      const claimed = tx
+        .update(planInvoices)
+        .set({ heldResolution: STORED[ask.resolution], heldRefundedMinor: refundMinor, heldResolvedAt: new Date(), heldResolvedById: ctx.user.id })
+        .where(and(eq(planInvoices.id, held.id), isNull(planInvoices.heldResolution)))
+        .returning()
+        .get();
+      if (!claimed) throw conflict("This payment has already been settled. Reload to see it as it is now.", { code: "held_settled" });
+      // The version moves on with the claim, so a second decision made on the same page is refused.
+      const sub = moveSubscription(tx, fresh, fresh.state, { updatedAt: new Date() }, by);
+      return { sub, held: claimed, refundMinor };
+    });
+    // 2. Stripe: stop the subscription (refund and end) and pay back; if it refuses, undo the claim.
+    const key = (what: string) => ({ idempotencyKey: `plan-held-${what}-${held.id}` });
+    try {
+      if (ask.resolution === "refund_and_end" && sub.paidBy === "card" && sub.stripeSubscriptionId) {
+        await callStripe("end the plan", (s) => s.subscriptions.cancel(sub.stripeSubscriptionId!, {}, key("end")), sub);
+      }
+      if (refundMinor > 0) {
+        const paymentIntent = await paymentIntentOf(sub, held.stripeInvoiceId!);
+        await callStripe("pay back the held payment", (s) => s.refunds.create({ payment_intent: paymentIntent, amount: refundMinor, metadata: { planSubscriptionId: sub.id, planInvoiceId: held.id } }, key("refund")), sub);
+      }
+    } catch (e) {
+      getDb().update(planInvoices).set({ heldResolution: null, heldRefundedMinor: 0, heldResolvedAt: null, heldResolvedById: null }).where(eq(planInvoices.id, held.id)).run();
+      throw e;
+    }
+    // 3. Write the outcome: the payment counts and the new period starts, or the plan ends.
+    getDb().transaction((tx) => {
+      const cur = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, sub.id)).get()!;
+      if (ask.resolution === "refund_and_end") {
+        if (!PLAN_FINAL.includes(cur.state)) moveSubscription(tx, cur, "ended", { endedAt: new Date(), endsAt: new Date() }, by);
+      } else {
+        tx.update(planInvoices).set({ counts: true }).where(eq(planInvoices.id, held.id)).run();
+        if (held.periodEnd && (!cur.periodEnd || held.periodEnd > cur.periodEnd)) moveSubscription(tx, cur, cur.state, { periodStart: held.periodStart, periodEnd: held.periodEnd }, by);
+      }
+      recordAudit(tx, {
+        studioId: sub.studioId,
+        actorId: ctx.user.id,
+        action: "plan.held_payment_settled",
+        subjectType: "plan_subscription",
+        subjectId: sub.id,
+        data: { invoiceId: held.id, stripeInvoiceId: held.stripeInvoiceId, amountMinor: held.amountMinor, refundMinor, resolution: STORED[ask.resolution], version: ask.version },
+      });
+    });
+    return reread(sub.id);
+  }).then(async (sub) => (sub.stripeSubscriptionId ? ((await syncPlanSubscription(sub.stripeSubscriptionId, undefined, sub)) ?? sub) : sub));
+}

@@ -1,0 +1,151 @@
+// A renewal Stripe charged at another amount than the plan's price: the plan isn't shown as simply
+// running — staff and the owner are told in plain words what happened and what happens next — and staff
+// settle it (keep it, pay back the difference, or pay it all back and end the plan). Money moves only
+// when the plan version, held amount and refund confirmed are the current ones. Real stripe SDK against
+// the local Stripe fake over HTTP (its renew knob bills another amount). Invented studio and owners.
+import { and, eq } from "drizzle-orm";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { auditLog, planInvoices, type Piece, type PlanSubscription } from "@/db/schema";
+import { addDays, localDate } from "@/lib/care/dates";
+import { AppError } from "@/lib/errors";
+import { SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import { myPlanControl, studioPlanDetail } from "@/lib/plans/cancel";
+import { resolveHeldPayment, type HeldAsk } from "@/lib/plans/held";
+import { studioPlanRow } from "@/lib/plans/overview";
+import { syncPlanSubscription } from "@/lib/plans/stripe-sync";
+import { startPlanCheckout } from "@/lib/plans/subscriptions";
+import { createTemplate } from "@/lib/plans/templates";
+import { planTemplateSchema } from "@/lib/plans/validation";
+import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { knob, startPlansStripe, subRow, until } from "../support/plans-stripe";
+
+let fake: StripeFake;
+let closeStripe: () => Promise<void>;
+
+beforeAll(async () => {
+  ({ fake, close: closeStripe } = await startPlansStripe());
+});
+
+afterAll(() => closeStripe());
+
+const audits = (subId: string, action: string) => getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, subId), eq(auditLog.action, action))).all();
+const invoiceRow = (id: string) => getDb().select().from(planInvoices).where(eq(planInvoices.id, id)).get()!;
+/** What the fake's charge book says was refunded of a Stripe invoice's payment. */
+const refundedOf = (stripeInvoiceId: string) => {
+  const pi = fake.invoices().find((i) => i.id === stripeInvoiceId)!.payments.data[0]!.payment.payment_intent;
+  return fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded;
+};
+const settle = (admin: Awaited<ReturnType<typeof memberContext>>, subId: string, ask: HeldAsk) => resolveHeldPayment(admin, subId, ask).catch((e: unknown) => e);
+
+/** A studio (no tax: the plan costs 120.00 a year, in its Berlin zone), an owner's plan bought and running, and a renewal charged at `amount`. */
+async function heldRenewal(amount: number) {
+  const studio = createStudio({ email: `${unique("held")}@test.example`, taxRateBp: 0, timeZone: "Europe/Berlin" });
+  const admin = await memberContext(studio, "admin");
+  const owner = await createUser({ timeZone: "America/Chicago" });
+  const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn: addDays(localDate(new Date(), "UTC"), -60) });
+  const plan = createTemplate(
+    admin,
+    planTemplateSchema.parse({
+      name: "Yearly keeping (invented)",
+      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
+      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
+      priceMinor: 12_000,
+      interval: "year",
+      refundRule: "none",
+      transfers: false,
+    }),
+  );
+  const sub = await buy(owner, piece, plan.id);
+  await knob(fake, sub.stripeSubscriptionId!, "renew", `outcome=pay&amount=${amount}`);
+  await until(() => studioPlanDetail(admin, sub.id).held);
+  await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
+  return { admin, owner, piece, sub: subRow(sub.id), before: sub };
+}
+
+async function buy(owner: { id: string; email: string; name: string }, piece: Piece, templateId: string): Promise<PlanSubscription> {
+  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, templateId);
+  await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
+  await until(() => subRow(subscriptionId).state === "running" && getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, subscriptionId)).all().length === 1);
+  await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
+  return subRow(subscriptionId);
+}
+
+describe("a renewal held because Stripe charged another amount", () => {
+  it("is shown to staff and the owner in plain words, not as simply running", async () => {
+    const { admin, owner, piece, sub, before } = await heldRenewal(15_000);
+    // The plan's period didn't move on.
+    expect(sub.periodEnd).toEqual(before.periodEnd);
+    const held = studioPlanDetail(admin, sub.id).held!;
+    expect(held.words).toMatch(/^The renewal on \d{1,2} \w+ \d{4} \(.*Berlin.*\) charged €?\$?150\.00, but this plan costs \$?120\.00\. The payment is held/);
+    expect(held.words).toMatch(/keeps covering as before until you decide/);
+    expect(held.options.map((o) => [o.resolution, o.refundMinor])).toEqual([
+      ["accept", 0],
+      ["refund_difference", 3_000],
+      ["refund_and_end", 15_000],
+    ]);
+    expect(studioPlanRow(admin, sub.id)!.stateLabel).toBe("Running, renewal payment held for you to check");
+    const ownerWords = myPlanControl(owner, piece.id)!.held!;
+    expect(ownerWords).toMatch(/^Your renewal on \d{1,2} \w+ \d{4} \(.*Chicago.*\) was charged \$?150\.00, not the plan's \$?120\.00\. The studio is checking it/);
+    for (const words of [held.words, ownerWords, ...held.options.flatMap((o) => [o.label, o.words])]) expect(words).not.toMatch(/refund_|_and_|difference_refunded|running|\d{4}-\d{2}-\d{2}/);
+  });
+
+  it("pays back the difference only for the version and amounts confirmed; then the new period starts and stays started", async () => {
+    const { admin, sub } = await heldRenewal(15_000);
+    const held = studioPlanDetail(admin, sub.id).held!;
+    const stripeInvoiceId = invoiceRow(held.invoiceId).stripeInvoiceId!;
+    const ask: HeldAsk = { invoiceId: held.invoiceId, resolution: "refund_difference", version: held.version, amountMinor: 15_000, refundMinor: 3_000 };
+
+    // Stale version, wrong amount, wrong refund: 409 each, no money moves.
+    for (const wrong of [{ ...ask, version: held.version - 1 }, { ...ask, amountMinor: 14_000 }, { ...ask, refundMinor: 2_000 }]) {
+      const e = await settle(admin, sub.id, wrong);
+      expect(e).toBeInstanceOf(AppError);
+      expect((e as AppError).status).toBe(409);
+    }
+    expect(refundedOf(stripeInvoiceId)).toBe(0);
+
+    const after = (await resolveHeldPayment(admin, sub.id, ask)) as PlanSubscription;
+    expect(refundedOf(stripeInvoiceId)).toBe(3_000);
+    expect(invoiceRow(held.invoiceId)).toMatchObject({ counts: true, heldResolution: "difference_refunded", heldRefundedMinor: 3_000 });
+    expect(after.state).toBe("running");
+    expect(after.periodEnd!.getTime()).toBeGreaterThan(sub.periodEnd!.getTime());
+    expect(studioPlanDetail(admin, sub.id).held).toBeNull();
+    expect(studioPlanRow(admin, sub.id)!.stateLabel).toBe("Running");
+    expect(audits(sub.id, "plan.held_payment_settled")).toHaveLength(1);
+
+    // The same confirmation again (a double click): refused, nothing paid twice.
+    const again = await settle(admin, sub.id, ask);
+    expect((again as AppError).status).toBe(409);
+    // Stripe's events replayed: the payment stays counted and the period stays.
+    await syncPlanSubscription(sub.stripeSubscriptionId!, stripeInvoiceId, subRow(sub.id));
+    for (const e of fake.events().filter((x) => x.type === "invoice.paid")) await fake.redeliver(e.id);
+    expect(invoiceRow(held.invoiceId).counts).toBe(true);
+    expect(subRow(sub.id).periodEnd).toEqual(after.periodEnd);
+    expect(refundedOf(stripeInvoiceId)).toBe(3_000);
+  });
+
+  it("a lower amount can be kept as it is (no money moves) but has no difference to pay back", async () => {
+    const { admin, sub } = await heldRenewal(9_900);
+    const held = studioPlanDetail(admin, sub.id).held!;
+    expect(held.options.map((o) => o.resolution)).toEqual(["accept", "refund_and_end"]);
+    const noDiff = await settle(admin, sub.id, { invoiceId: held.invoiceId, resolution: "refund_difference", version: held.version, amountMinor: 9_900, refundMinor: 0 });
+    expect((noDiff as AppError).status).toBe(409);
+    const charges = fake.charges().map((c) => c.amount_refunded).reduce((a, b) => a + b, 0);
+    const after = (await resolveHeldPayment(admin, sub.id, { invoiceId: held.invoiceId, resolution: "accept", version: held.version, amountMinor: 9_900, refundMinor: 0 })) as PlanSubscription;
+    expect(fake.charges().map((c) => c.amount_refunded).reduce((a, b) => a + b, 0)).toBe(charges);
+    expect(after.periodEnd!.getTime()).toBeGreaterThan(sub.periodEnd!.getTime());
+    expect(invoiceRow(held.invoiceId)).toMatchObject({ counts: true, heldResolution: "accepted" });
+  });
+
+  it("paying it all back ends the plan at Stripe and here", async () => {
+    const { admin, owner, piece, sub } = await heldRenewal(15_000);
+    const held = studioPlanDetail(admin, sub.id).held!;
+    const stripeInvoiceId = invoiceRow(held.invoiceId).stripeInvoiceId!;
+    const after = (await resolveHeldPayment(admin, sub.id, { invoiceId: held.invoiceId, resolution: "refund_and_end", version: held.version, amountMinor: 15_000, refundMinor: 15_000 })) as PlanSubscription;
+    expect(after.state).toBe("ended");
+    expect(refundedOf(stripeInvoiceId)).toBe(15_000);
+    expect(fake.subscriptions().find((s) => s.id === sub.stripeSubscriptionId)!.status).toBe("canceled");
+    expect(invoiceRow(held.invoiceId)).toMatchObject({ counts: false, heldResolution: "refunded_and_ended" });
+    expect(myPlanControl(owner, piece.id)).toBeNull();
+  });
+});
