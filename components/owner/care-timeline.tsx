@@ -38,8 +38,8 @@ export function CareTimeline({ tasks, careLog = [] }: { tasks: TaskView[]; careL
             <details className="mt-2 text-sm">
               <summary className="flex min-h-11 cursor-pointer items-center font-medium text-resin">Why this date</summary>
               <ul className="list-disc space-y-1 pl-5 text-muted">
-                {t.reasons.map((r) => (
-                  <li key={r}>{r}</li>
+                {t.reasons.map((r, i) => (
+                  <li key={i}>{r}</li>
                 ))}
               </ul>
             </details>

@@ -34,6 +34,8 @@ const CAUTION_ICON: Record<CautionKey, typeof Flame> = {
   electrics: Zap,
 };
 const SURFACE_WORDS: Record<string, string> = { top: "top", base: "base", edges: "edges", whole_piece: "whole piece" };
+// The guide's lists are fixed texts, never reordered on the page: their items are keyed by position. A
+// text as its own key would travel twice in the page's payload (the key and the words).
 
 function Section({ id, title, children }: { id: string; title: string; children: React.ReactNode }) {
   return (
@@ -112,8 +114,8 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             <Hourglass aria-hidden className="size-5 shrink-0 text-resin" /> {piece.guide.curing.title}
           </p>
           <ul className="list-disc space-y-1 pl-5 text-sm">
-            {piece.guide.curing.lines.map((l) => (
-              <li key={l}>{l}</li>
+            {piece.guide.curing.lines.map((l, i) => (
+              <li key={i}>{l}</li>
             ))}
           </ul>
           <p className="text-sm text-muted">{piece.guide.curing.closing}</p>
@@ -165,8 +167,8 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             {piece.guide.outdoor ? "Outdoors, day to day" : "Where it stands"}
           </h3>
           <ul className="list-disc space-y-1 pl-5 text-sm">
-            {piece.guide.placement.map((x) => (
-              <li key={x}>{x}</li>
+            {piece.guide.placement.map((x, i) => (
+              <li key={i}>{x}</li>
             ))}
           </ul>
         </Card>
@@ -181,24 +183,24 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             <div>
               <h4 className="text-sm font-semibold">Every day</h4>
               <ul className="list-disc space-y-1 pl-5 text-sm">
-                {s.everyday.map((x) => (
-                  <li key={x}>{x}</li>
+                {s.everyday.map((x, i) => (
+                  <li key={i}>{x}</li>
                 ))}
               </ul>
             </div>
             <div>
               <h4 className="text-sm font-semibold">When the {s.task.toLowerCase()} is due</h4>
               <ol className="list-decimal space-y-1 pl-5 text-sm">
-                {s.steps.map((x) => (
-                  <li key={x}>{x}</li>
+                {s.steps.map((x, i) => (
+                  <li key={i}>{x}</li>
                 ))}
               </ol>
             </div>
             <div>
               <h4 className="text-sm font-semibold">What to use</h4>
               <ul className="list-disc space-y-1 pl-5 text-sm">
-                {s.use.map((x) => (
-                  <li key={x}>{x}</li>
+                {s.use.map((x, i) => (
+                  <li key={i}>{x}</li>
                 ))}
               </ul>
               <p className="mt-2 rounded-lg bg-resin-soft px-3 py-2 text-sm">
@@ -209,8 +211,8 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             <div>
               <h4 className="text-sm font-semibold">Avoid</h4>
               <ul className="list-disc space-y-1 pl-5 text-sm">
-                {s.avoid.map((x) => (
-                  <li key={x}>{x}</li>
+                {s.avoid.map((x, i) => (
+                  <li key={i}>{x}</li>
                 ))}
               </ul>
             </div>
@@ -219,8 +221,8 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
         <Card className="space-y-2">
           <h3 className="text-lg font-semibold">The yearly clean and check</h3>
           <ol className="list-decimal space-y-1 pl-5 text-sm">
-            {piece.guide.annualCheck.map((x) => (
-              <li key={x}>{x}</li>
+            {piece.guide.annualCheck.map((x, i) => (
+              <li key={i}>{x}</li>
             ))}
           </ol>
         </Card>
