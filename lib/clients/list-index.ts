@@ -37,9 +37,11 @@ export type ClientsIndex = {
   version: string;
   /** Clients in name order (name, case-blind as SQLite's NOCASE, then id); a client's slot is its place here. */
   clients: IndexedClient[];
-  /** Slots by created_at then id, and by updated_at then id, both ascending. */
+  /** Slots by created_at then id, and by updated_at then id, both ascending; and each slot's place in them. */
   byCreated: Int32Array;
   byUpdated: Int32Array;
+  createdRank: Int32Array;
+  updatedRank: Int32Array;
   /** Name and e-mail lower-cased (the trigram index's case-blind match) and ASCII-lower-cased (LIKE's). */
   nameFold: string[];
   emailFold: string[];
@@ -92,6 +94,13 @@ function addGrams(map: Map<number, number[]>, text: string, slot: number) {
     if (!list) map.set(g, [slot]);
     else if (list[list.length - 1] !== slot) list.push(slot);
   }
+}
+
+/** Each slot's place in an order of slots. */
+function rankOf(order: Int32Array): Int32Array {
+  const rank = new Int32Array(order.length);
+  order.forEach((s, i) => (rank[s] = i));
+  return rank;
 }
 
 function slotsOf<K>(map: Map<K, number[]>): Map<K, Int32Array> {
@@ -171,11 +180,15 @@ function build(studioId: string, country: string, version: string): ClientsIndex
     }
   });
   const words = [...wordMap.keys()].sort();
+  const byCreated = order((c) => c.createdAt);
+  const byUpdated = order((c) => c.updatedAt);
   return {
     version,
     clients,
-    byCreated: order((c) => c.createdAt),
-    byUpdated: order((c) => c.updatedAt),
+    byCreated,
+    byUpdated,
+    createdRank: rankOf(byCreated),
+    updatedRank: rankOf(byUpdated),
     nameFold,
     emailFold,
     nameAscii: clients.map((c) => asciiLower(c.name)),

@@ -89,28 +89,52 @@ function eachMatch(ix: ClientsIndex, w: string, mark: (slot: number) => void) {
 }
 
 /**
- * The slots the search finds (null: no search): every word (up to 8) must match (eachMatch); or the
- * whole text is one phone number typed with spaces or a trunk prefix ("0412 555 019"), matched by its
- * E.164 or its digits.
+ * The slots the search finds, ascending (name order), or null when there is no search: every word (up
+ * to 8) must match (eachMatch); or the whole text is one phone number typed with spaces or a trunk
+ * prefix ("0412 555 019"), matched by its E.164 or its digits.
  */
-function searchSlots(ix: ClientsIndex, q: string): Uint8Array | null {
+function searchSlots(ix: ClientsIndex, q: string): Int32Array | null {
   const words = q.split(/\s+/).filter(Boolean).slice(0, 8);
   if (!words.length) return null;
-  // hits[s] = how many of the words so far found slot s; a word found twice through two fields counts once.
+  // hits[s] = how many of the words so far found slot s (a word found twice through two fields counts
+  // once); only what the first word finds can be found by all of them.
   const hits = new Uint8Array(ix.clients.length);
+  // Few finds are kept in a list and sorted; past this many they are read off hits in slot order.
+  const listed = ix.clients.length >> 4;
+  const finds: number[] = [];
+  let first = 0;
   words.forEach((w, k) =>
-    eachMatch(ix, w, (s) => {
-      if (hits[s] === k) hits[s] = k + 1;
-    }),
+    eachMatch(
+      ix,
+      w,
+      k === 0
+        ? (s) => {
+            if (hits[s] !== 0) return;
+            hits[s] = 1;
+            if (++first <= listed) finds.push(s);
+          }
+        : (s) => {
+            if (hits[s] === k) hits[s] = k + 1;
+          },
+    ),
   );
-  const found = hits.map((h) => (h === words.length ? 1 : 0));
+  const all = words.length;
+  const add = (s: number) => {
+    if (hits[s] === all) return;
+    hits[s] = all;
+    if (++first <= listed) finds.push(s);
+  };
   const phone = phoneSearchKeys(q, ix.country);
   if (phone.e164) {
-    for (let s = 0; s < ix.phones.length; s++) if (ix.phones[s] === phone.e164) found[s] = 1;
+    for (let s = 0; s < ix.phones.length; s++) if (ix.phones[s] === phone.e164) add(s);
   } else if (phone.digits.length >= 6 && words.length > 1) {
-    eachContaining(ix.phoneGrams, phone.digits, (s) => ix.phones[s]!.includes(phone.digits), (s) => (found[s] = 1));
+    eachContaining(ix.phoneGrams, phone.digits, (s) => ix.phones[s]!.includes(phone.digits), add);
   }
-  return found;
+  if (first <= listed) return Int32Array.from(finds.filter((s) => hits[s] === all)).sort();
+  const found = new Int32Array(first);
+  let m = 0;
+  for (let s = 0; s < hits.length; s++) if (hits[s] === all) found[m++] = s;
+  return found.subarray(0, m);
 }
 
 /**
@@ -119,18 +143,25 @@ function searchSlots(ix: ClientsIndex, q: string): Uint8Array | null {
  */
 function select(ix: ClientsIndex, query: ClientListQuery, page: { limit: number; offset: number } | "all"): { total: number; slots: number[] } {
   const found = searchSlots(ix, query.q);
-  const filter = query.filter ? FILTERS[query.filter] : null;
   const order = query.sort === "newest" ? ix.byCreated : query.sort === "updated" ? ix.byUpdated : null;
   const desc = (query.dir ?? (query.sort === "name" ? "asc" : "desc")) === "desc";
-  const n = ix.clients.length;
+  // Places in the sort order (ascending) of the clients the search found, or of all of them.
+  const rank = query.sort === "newest" ? ix.createdRank : query.sort === "updated" ? ix.updatedRank : null;
+  const places = found && rank ? found.map((s) => rank[s]!).sort() : found;
+  const count = places ? places.length : ix.clients.length;
+  const slotAt = (i: number) => {
+    const place = places ? places[desc ? count - 1 - i : i]! : desc ? count - 1 - i : i;
+    return order ? order[place]! : place;
+  };
   const from = page === "all" ? 0 : page.offset;
-  const to = page === "all" ? Infinity : page.offset + page.limit;
+  const to = page === "all" ? count : page.offset + page.limit;
+  const filter = query.filter ? FILTERS[query.filter] : null;
+  if (!filter) return { total: count, slots: Array.from({ length: Math.max(0, Math.min(to, count) - from) }, (_, i) => slotAt(from + i)) };
   const slots: number[] = [];
   let total = 0;
-  for (let i = 0; i < n; i++) {
-    const at = desc ? n - 1 - i : i;
-    const s = order ? order[at]! : at;
-    if ((found && !found[s]) || (filter && !filter(ix.clients[s]!))) continue;
+  for (let i = 0; i < count; i++) {
+    const s = slotAt(i);
+    if (!filter(ix.clients[s]!)) continue;
     if (total >= from && total < to) slots.push(s);
     total++;
   }

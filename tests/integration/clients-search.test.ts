@@ -136,4 +136,30 @@ describe("clients list search, kept in step with every write", () => {
     // Not an empty agreement: what each kind of word finds here.
     expect(counts).toMatchObject({ zoë: 1, chene: 1, "oak-leaf": 1, burl: 2, "o'br": 1, ケヤキ: 1, ōmura: 1, "%": 1, al: 1, "5550199": 1, "7946": 1, [tag]: 5 });
   });
+
+  it("orders and pages a search as SQL orders the rows: by name (case-blind), newest or last changed, either way, then id", async () => {
+    const { admin } = await studioWithAdmin();
+    const tag = unique("or").replace(/\W/g, "").slice(-6).toLowerCase();
+    const names = ["adler", "Birchall", "birchall", "Cobb", "d'Arcy", "Eames", "éclair", "Zander", "zed"];
+    for (let i = 0; i < 62; i++) {
+      const at = new Date(NOW.getTime() + ((i * 7919) % 61) * 60_000); // created out of name order, two at one instant
+      const c = createClient(admin, createClientSchema.parse({ name: `${names[i % names.length]} ${i % 3 ? "Rowan" : "Hale"} ${tag} (invented)` }), at);
+      if (i % 4 === 0) updateClient(admin, c.id, clientPatchSchema.parse({ notes: "changed" }), new Date(at.getTime() + 3_600_000));
+    }
+    const columns = { name: sql`name COLLATE NOCASE`, newest: sql`created_at`, updated: sql`updated_at` } as const;
+    for (const q of [tag, `rowan ${tag}`]) {
+      for (const sort of ["name", "newest", "updated"] as const) {
+        for (const dir of [undefined, "asc", "desc"] as const) {
+          const d = sql.raw((dir ?? (sort === "name" ? "asc" : "desc")).toUpperCase());
+          const like = `%${q.split(" ")[0]}%`;
+          const expected = getDb()
+            .all<{ id: string }>(sql`SELECT id FROM clients WHERE studio_id = ${admin.studio.id} AND name LIKE ${like} AND name LIKE ${`%${tag}%`} ORDER BY ${columns[sort]} ${d}, id ${d}`)
+            .map((r) => r.id);
+          const pages = [1, 2].map((page) => listClients(admin, clientListQuerySchema.parse({ q, sort, dir, page: String(page) })));
+          expect(pages[0]!.total, `${q} ${sort} ${dir}`).toBe(expected.length);
+          expect([...pages[0]!.rows, ...pages[1]!.rows].map((r) => r.id), `${q} ${sort} ${dir}`).toEqual(expected);
+        }
+      }
+    }
+  });
 });
