@@ -4,7 +4,7 @@ import { Card } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatInstant } from "@/lib/format";
+import { formatDate, formatInstant } from "@/lib/format";
 import { listPolicyVersions, policyEditorValues } from "@/lib/settings";
 import { createPolicyVersionAction } from "../actions";
 
@@ -33,7 +33,7 @@ export default async function WarrantySettingsPage() {
               <li key={v.id} className="py-3">
                 <p className="flex flex-wrap items-center gap-2">
                   <strong>Version {v.version}</strong>
-                  <span className="text-sm text-muted">for deliveries from {v.effectiveFrom}</span>
+                  <span className="text-sm text-muted">for deliveries from {formatDate(v.effectiveFrom)}</span>
                   {v.current ? <StatusBadge tone="ok" label="In force for new deliveries" /> : v.upcoming ? <StatusBadge tone="waiting" label="Starts later" /> : <StatusBadge tone="stopped" label="Earlier deliveries" />}
                 </p>
                 <p className="text-sm text-muted">
