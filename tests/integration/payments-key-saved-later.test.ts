@@ -13,15 +13,12 @@ import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stri
 import { addDays, localDate } from "@/lib/care/dates";
 import { cancelMyPlan, myPlanControl } from "@/lib/plans/cancel";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
-import { startPlanCheckout } from "@/lib/plans/subscriptions";
-import { createTemplate } from "@/lib/plans/templates";
-import { planTemplateSchema } from "@/lib/plans/validation";
 import { createJob, getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { saveStripeWebhookSecret } from "@/lib/studio/setup-payments";
 import { saveStripeKey } from "@/lib/studio/setup-steps";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
-import { knob, subRow } from "../support/plans-stripe";
+import { buyPlan, knob, subRow, yearlyPlan } from "../support/plans-stripe";
 import { startWebhookReceiver, until, type WebhookReceiver } from "../support/stripe-receiver";
 
 const A = { secretKey: "sk_test_later_key_invented_61c3", webhookSecret: "whsec_later_key_invented_0d9e" };
@@ -65,22 +62,8 @@ async function paidPlan() {
   const admin = await memberContext(studio, "admin");
   const owner = await createUser();
   const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn: addDays(localDate(new Date(), "UTC"), -30) });
-  const plan = createTemplate(
-    admin,
-    planTemplateSchema.parse({
-      name: "Yearly keeping (invented)",
-      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
-      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
-      priceMinor: 12_000,
-      interval: "year",
-      refundRule: "unused_share",
-      transfers: false,
-    }),
-  );
-  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, plan.id);
-  const paid = await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
-  expect(paid.status).toBe(303);
-  await until(() => subRow(subscriptionId).state === "running");
+  const plan = yearlyPlan(admin, { refundRule: "unused_share", transfers: false });
+  const { id: subscriptionId } = await buyPlan(fake, owner, piece.id, plan.id);
   return { admin, owner, piece, subscriptionId };
 }
 

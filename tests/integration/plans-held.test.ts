@@ -6,19 +6,16 @@
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, planInvoices, type Piece, type PlanSubscription } from "@/db/schema";
+import { auditLog, planInvoices, type PlanSubscription } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { AppError } from "@/lib/errors";
-import { SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import type { StripeFake } from "@/lib/fakes/stripe-fake";
 import { myPlanControl, studioPlanDetail } from "@/lib/plans/cancel";
 import { resolveHeldPayment, type HeldAsk } from "@/lib/plans/held";
 import { studioPlanRow } from "@/lib/plans/overview";
 import { syncPlanSubscription } from "@/lib/plans/stripe-sync";
-import { startPlanCheckout } from "@/lib/plans/subscriptions";
-import { createTemplate } from "@/lib/plans/templates";
-import { planTemplateSchema } from "@/lib/plans/validation";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
-import { knob, startPlansStripe, subRow, until } from "../support/plans-stripe";
+import { buyPlan, knob, startPlansStripe, subRow, until, yearlyPlan } from "../support/plans-stripe";
 
 let fake: StripeFake;
 let closeStripe: () => Promise<void>;
@@ -44,32 +41,14 @@ async function heldRenewal(amount: number) {
   const admin = await memberContext(studio, "admin");
   const owner = await createUser({ timeZone: "America/Chicago" });
   const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn: addDays(localDate(new Date(), "UTC"), -60) });
-  const plan = createTemplate(
-    admin,
-    planTemplateSchema.parse({
-      name: "Yearly keeping (invented)",
-      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
-      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
-      priceMinor: 12_000,
-      interval: "year",
-      refundRule: "none",
-      transfers: false,
-    }),
-  );
-  const sub = await buy(owner, piece, plan.id);
+  const plan = yearlyPlan(admin, { refundRule: "none", transfers: false });
+  const sub = await buyPlan(fake, owner, piece.id, plan.id);
   await knob(fake, sub.stripeSubscriptionId!, "renew", `outcome=pay&amount=${amount}`);
   await until(() => studioPlanDetail(admin, sub.id).held);
   await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
   return { admin, owner, piece, sub: subRow(sub.id), before: sub };
 }
 
-async function buy(owner: { id: string; email: string; name: string }, piece: Piece, templateId: string): Promise<PlanSubscription> {
-  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, templateId);
-  await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
-  await until(() => subRow(subscriptionId).state === "running" && getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, subscriptionId)).all().length === 1);
-  await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
-  return subRow(subscriptionId);
-}
 
 describe("a renewal held because Stripe charged another amount", () => {
   it("is shown to staff and the owner in plain words, not as simply running", async () => {

@@ -6,21 +6,18 @@
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, planSubscriptions, type Piece, type PlanSubscription } from "@/db/schema";
+import { auditLog, planSubscriptions } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { AppError } from "@/lib/errors";
-import { SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import type { StripeFake } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
 import { studioPlanDetail } from "@/lib/plans/cancel";
 import { refundOf } from "@/lib/plans/refund";
-import { startPlanCheckout } from "@/lib/plans/subscriptions";
-import { createTemplate } from "@/lib/plans/templates";
 import { finishPlanTransfer, finishStudioPlanTransfer } from "@/lib/plans/transfer";
-import { planTemplateSchema } from "@/lib/plans/validation";
 import { planTransfersJob } from "@/jobs/plan-transfers";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
-import { startPlansStripe, subRow, until } from "../support/plans-stripe";
+import { buyPlan, startPlansStripe, subRow, yearlyPlan } from "../support/plans-stripe";
 
 let fake: StripeFake;
 let closeStripe: () => Promise<void>;
@@ -45,33 +42,15 @@ async function setup(over: { refundRule: "none" | "unused_share"; transfers: boo
   const admin = await memberContext(studio, "admin");
   const owner = await createUser();
   const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn: addDays(localDate(new Date(), "UTC"), -60) });
-  const plan = createTemplate(
-    admin,
-    planTemplateSchema.parse({
-      name: "Yearly keeping (invented)",
-      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
-      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
-      priceMinor: 12_000,
-      interval: "year",
-      refundRule: over.refundRule,
-      transfers: over.transfers,
-    }),
-  );
+  const plan = yearlyPlan(admin, { refundRule: over.refundRule, transfers: over.transfers });
   return { admin, owner, piece, plan };
 }
 
-async function buy(owner: { id: string; email: string; name: string }, piece: Piece, templateId: string): Promise<PlanSubscription> {
-  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, templateId);
-  await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
-  await until(() => subRow(subscriptionId).state === "running");
-  await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
-  return subRow(subscriptionId);
-}
 
 describe("a plan's change of hands when Stripe fails during it", () => {
   it("a plan that moves: recorded with the step left, plain words for staff, finished once by the retry", async () => {
     const { admin, owner, piece, plan } = await setup({ refundRule: "none", transfers: true });
-    const sub = await buy(owner, piece, plan.id);
+    const sub = await buyPlan(fake, owner, piece.id, plan.id);
     const sid = sub.stripeSubscriptionId!;
     fake.failNext("POST", `/v1/subscriptions/${sid}`);
 
@@ -115,7 +94,7 @@ describe("a plan's change of hands when Stripe fails during it", () => {
 
   it("a plan that ends: the refund that failed is paid once by the retry, and the former owner is mailed", async () => {
     const { admin, owner, piece, plan } = await setup({ refundRule: "unused_share", transfers: false });
-    const sub = await buy(owner, piece, plan.id);
+    const sub = await buyPlan(fake, owner, piece.id, plan.id);
     const sid = sub.stripeSubscriptionId!;
     fake.failNext("POST", "/v1/refunds");
 

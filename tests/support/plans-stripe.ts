@@ -3,14 +3,19 @@
 // handlers (plans first, then repair payments, as app/api/webhooks/stripe/route.ts does).
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { planSubscriptions } from "@/db/schema";
+import type { User } from "lucia";
+import { planInvoices, planSubscriptions, type PlanSubscription } from "@/db/schema";
+import type { StudioActor } from "@/lib/auth/actor";
 import { env } from "@/lib/env";
-import { startStripeFake, type StripeFake } from "@/lib/fakes/stripe-fake";
+import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
+import { startPlanCheckout } from "@/lib/plans/subscriptions";
+import { createTemplate } from "@/lib/plans/templates";
 import { handleStripeWebhook } from "@/lib/repairs/payment";
-import { startWebhookReceiver } from "./stripe-receiver";
+import { planTemplateInput } from "./fixtures";
+import { startWebhookReceiver, until } from "./stripe-receiver";
 
-export { until } from "./stripe-receiver";
+export { until };
 
 /** Starts the fake and the webhook receiver, and points the app's Stripe client at the fake. */
 export async function startPlansStripe(): Promise<{ fake: StripeFake; close: () => Promise<void> }> {
@@ -31,3 +36,27 @@ export const subRow = (id: string) => getDb().select().from(planSubscriptions).w
 /** The fake's test knob: renew (outcome=pay|fail, amount=…), settle or lapse a subscription. */
 export const knob = (fake: StripeFake, subId: string, action: string, body = "") =>
   fetch(`${fake.url}/_test/subscriptions/${subId}/${action}`, { method: "POST", headers: { authorization: `Bearer ${env.STRIPE_SECRET_KEY}`, "content-type": "application/x-www-form-urlencoded" }, body });
+
+/** A yearly plan (120.00 before the studio's tax) that fits every piece, with no visits; invented. */
+export function yearlyPlan(admin: StudioActor, over: { refundRule: "none" | "unused_share"; transfers: boolean }) {
+  return createTemplate(
+    admin,
+    planTemplateInput({
+      name: "Yearly keeping (invented)",
+      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
+      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
+      priceMinor: 12_000,
+      ...over,
+    }),
+  );
+}
+
+/** The owner buys the plan on the fake's payment page; resolves once it runs and every event of the purchase has landed. */
+export async function buyPlan(fake: StripeFake, owner: Pick<User, "id" | "email" | "name">, pieceId: string, templateId: string): Promise<PlanSubscription> {
+  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, pieceId, templateId);
+  const paid = await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
+  if (paid.status !== 303) throw new Error(`the fake's payment page answered ${paid.status}`);
+  await until(() => subRow(subscriptionId).state === "running" && getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, subscriptionId)).all().length === 1);
+  await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
+  return subRow(subscriptionId);
+}
