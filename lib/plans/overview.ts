@@ -1,5 +1,6 @@
 // The overview's care plan figures: plans running, renewals due in the next 30 days, plans lapsed in
-// the last 12 months, and plan revenue by month (counted payments only, by the month paid, studio zone).
+// the last 12 months, and plan revenue by month (counted payments only, less what was paid back of a
+// held payment staff kept; by the month paid, studio zone).
 import { and, desc, eq, gte, inArray, lte, type SQL } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { pieces, planInvoices, planSubscriptions, planTemplates, users } from "@/db/schema";
@@ -23,14 +24,15 @@ export function planOverview(ctx: StudioActor, now = new Date()) {
   const today = localDate(now, ctx.studio.timeZone);
   const months = Array.from({ length: 12 }, (_, i) => addMonths(`${today.slice(0, 7)}-01`, i - 11).slice(0, 7));
   const paid = db
-    .select({ amountMinor: planInvoices.amountMinor, at: planInvoices.at })
+    .select({ amountMinor: planInvoices.amountMinor, refundedMinor: planInvoices.heldRefundedMinor, at: planInvoices.at })
     .from(planInvoices)
     .where(and(eq(planInvoices.studioId, studioId), eq(planInvoices.status, "paid"), eq(planInvoices.counts, true), gte(planInvoices.at, new Date(Date.parse(`${months[0]}-01T00:00:00Z`) - 2 * DAY))))
     .all();
   const byMonth = new Map(months.map((m) => [m, 0]));
   for (const p of paid) {
     const m = localDate(p.at, ctx.studio.timeZone).slice(0, 7);
-    if (byMonth.has(m)) byMonth.set(m, byMonth.get(m)! + p.amountMinor);
+    // A held payment staff kept with the difference paid back counts at what was kept.
+    if (byMonth.has(m)) byMonth.set(m, byMonth.get(m)! + p.amountMinor - p.refundedMinor);
   }
   const revenue = months.map((month) => ({ month, amountMinor: byMonth.get(month)! }));
   return { running, renewalsDue, lapsed, inGrace, revenue, totalMinor: revenue.reduce((s, r) => s + r.amountMinor, 0), currency: ctx.studio.currency };

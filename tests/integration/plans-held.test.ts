@@ -12,7 +12,7 @@ import { AppError } from "@/lib/errors";
 import type { StripeFake } from "@/lib/fakes/stripe-fake";
 import { myPlanControl, studioPlanDetail } from "@/lib/plans/cancel";
 import { resolveHeldPayment, type HeldAsk } from "@/lib/plans/held";
-import { studioPlanRow } from "@/lib/plans/overview";
+import { planOverview, studioPlanRow } from "@/lib/plans/overview";
 import { syncPlanSubscription } from "@/lib/plans/stripe-sync";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { buyPlan, knob, startPlansStripe, subRow, until, yearlyPlan } from "../support/plans-stripe";
@@ -91,6 +91,8 @@ describe("a renewal held because Stripe charged another amount", () => {
     expect(studioPlanDetail(admin, sub.id).held).toBeNull();
     expect(studioPlanRow(admin, sub.id)!.stateLabel).toBe("Running");
     expect(audits(sub.id, "plan.held_payment_settled")).toHaveLength(1);
+    // The overview's plan revenue counts what was kept: the first year's 120.00 and the renewal's 150.00 less the 30.00 paid back.
+    expect(planOverview(admin).totalMinor).toBe(12_000 + 12_000);
 
     // The same confirmation again (a double click): refused, nothing paid twice.
     const again = await settle(admin, sub.id, ask);
