@@ -18,9 +18,27 @@ export function publicPiece(p: Piece): PublicPiece {
   return rest;
 }
 
+/**
+ * The studio's calendar date at `now`. Every registry page asks, and the time-zone conversion costs more
+ * than the page's own arithmetic, so the last answer is kept per zone for the rest of its UTC minute (a
+ * zone's date changes only on whole minutes of UTC: every zone's offset, and each change of it, has been
+ * a whole number of minutes since 1972; earlier instants are converted every time).
+ */
 export function today(ctx: StudioContext, now = new Date()): string {
-  return localDate(now.getTime(), ctx.studio.timeZone);
+  const ms = now.getTime();
+  const minute = Math.floor(ms / 60_000);
+  const tz = ctx.studio.timeZone;
+  if (ms < WHOLE_MINUTE_OFFSETS_SINCE) return localDate(ms, tz);
+  const kept = todayKept.get(tz);
+  if (kept && kept.minute === minute) return kept.date;
+  const date = localDate(ms, tz);
+  if (todayKept.size >= 100) todayKept.clear();
+  todayKept.set(tz, { minute, date });
+  return date;
 }
+
+const WHOLE_MINUTE_OFFSETS_SINCE = Date.UTC(1973, 0, 1);
+const todayKept = new Map<string, { minute: number; date: string }>();
 
 /** The piece row of the caller's studio, or 404 (also for another studio's piece). */
 export function loadPiece(ctx: StudioContext, pieceId: string, db: DbOrTx = getDb()): Piece {

@@ -123,11 +123,24 @@ export const registryStatements = perConnection((db) => {
   };
 });
 
-/** Each warranty policy of the studio with its longest line in months (a piece is under warranty while it runs). */
+/**
+ * Each warranty policy of the studio with its longest line in months (a piece is under warranty while it
+ * runs). Every registry page needs them and they rarely change: kept per studio until the database's
+ * version moves (databaseVersion), so a page reads and decodes the policies only after a write.
+ */
 export function policyTerms(studioId: string): Map<string, number> {
-  const rows = registryStatements(getDb()).policies.all({ studioId });
-  return new Map(rows.map((r) => [r.id, Math.max(0, ...Object.values(r.policy.lines ?? {}).map((l) => l?.termMonths ?? 0))]));
+  const db = getDb();
+  const version = databaseVersion(db);
+  const kept = termsKept.get(studioId);
+  if (kept && kept.version === version) return kept.terms;
+  const rows = registryStatements(db).policies.all({ studioId });
+  const terms = new Map(rows.map((r) => [r.id, Math.max(0, ...Object.values(r.policy.lines ?? {}).map((l) => l?.termMonths ?? 0))]));
+  if (termsKept.size >= 100) termsKept.delete(termsKept.keys().next().value!);
+  termsKept.set(studioId, { version, terms });
+  return terms;
 }
+
+const termsKept = new Map<string, { version: string; terms: Map<string, number> }>();
 
 export function warrantyEndsOn(piece: Pick<Piece, "warrantyPolicyId" | "deliveredOn">, terms: Map<string, number>): string | null {
   const term = piece.warrantyPolicyId ? terms.get(piece.warrantyPolicyId) : undefined;
@@ -209,26 +222,14 @@ export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offs
 }
 
 /**
- * How many pieces match the filter, counting no further than `upTo`. Counting walks up to `upTo`
- * matches (the most expensive read of a search page), and the pager asks again for every page and
- * every repeat of a search, so counts are kept per process until the database changes: `key` names
- * the filter, and the database's version (PRAGMA data_version moves when another connection commits;
- * total_changes() when this one writes) must be the one the count was taken at.
+ * How many pieces match the filter, counting no further than `upTo` (the list then says "more than 500").
+ * Counted afresh for every request: a count kept by the filter's text would answer a repeated search
+ * from memory, which is not what searching costs.
  */
-export function countMatches(f: Filter, upTo: number, key: string): number {
-  const db = getDb();
-  const version = databaseVersion(db);
-  const cacheKey = `${upTo}|${key}`;
-  const hit = counts.get(cacheKey);
-  if (hit && hit.version === version) return hit.n;
+export function countMatches(f: Filter, upTo: number): number {
   const text = `SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.count.text} LIMIT ?)`;
-  const n = (statementFor(db, text).get(...f.count.params, upTo) as { n: number } | undefined)?.n ?? 0;
-  if (counts.size >= 1000) counts.delete(counts.keys().next().value!);
-  counts.set(cacheKey, { version, n });
-  return n;
+  return (statementFor(getDb(), text).get(...f.count.params, upTo) as { n: number } | undefined)?.n ?? 0;
 }
-
-const counts = new Map<string, { version: string; n: number }>();
 
 const versionStatements = perConnection((db) => ({
   dataVersion: db.$client.prepare("PRAGMA data_version").pluck(),
@@ -241,7 +242,7 @@ export function databaseVersion(db: Db): string {
   return `${db.$client.name}|${st.dataVersion.get() as number}|${st.totalChanges.get() as number}`;
 }
 
-/** A text search counts its matches up to this many ("1,000+"); counting further would read every match. */
+/** A text search counts its matches up to this many (the list says "more than 500"); counting further would read every match. */
 export const SEARCH_COUNT_CAP = 500;
 /** Without a text search, counts stop here ("10,000+"). */
 export const LIST_COUNT_CAP = 10_000;
