@@ -9,9 +9,13 @@
 // server benchmarks do; the verdict is the absolute p95 against the target, and the ratio to the
 // floor stands beside it (no bound: the issue gives none), so a miss on a loaded machine can be told
 // from a cost of the route itself.
+// The list keeps each studio's clients in memory until the database changes (lib/clients/list-index.ts):
+// the first search after a write rebuilds it, timed here too (one request alone, after a client edit
+// by another connection; reported, no target).
 // Standalone: npx tsx tests/bench/clients.bench.ts   (BENCH_SKIP_BUILD=1 reuses .next)
 import fs from "node:fs";
 import { fileURLToPath } from "node:url";
+import Database from "better-sqlite3";
 import { result } from "./result";
 import { seedClients } from "./seed-clients";
 import { benchDir, buildOnce, fmt, holdBuildLock, load, paired, PIECES, seededCopy, sessionCookie, startServer } from "./server-harness";
@@ -49,6 +53,32 @@ async function measure(base: string, cookie: string, f: Figure) {
   });
 }
 
+/** One search alone right after a client is edited by another connection (the list's index is rebuilt), then one more: median of 5. */
+async function firstSearchAfterWrite(base: string, cookie: string, dbFile: string) {
+  const db = new Database(dbFile);
+  const edit = db.prepare("UPDATE clients SET updated_at = updated_at + 1 WHERE rowid = (SELECT min(rowid) FROM clients)");
+  const timed = async () => {
+    const t = performance.now();
+    const res = await fetch(`${base}/api/clients?q=${SEARCHES[0]}`, { headers: { cookie } });
+    await res.text();
+    if (!res.ok) throw new Error(`the search after a write answered ${res.status}`);
+    return performance.now() - t;
+  };
+  const after: number[] = [];
+  const next: number[] = [];
+  try {
+    for (let i = 0; i < 5; i++) {
+      edit.run();
+      after.push(await timed());
+      next.push(await timed());
+    }
+  } finally {
+    db.close();
+  }
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+  console.log(`clients list search q=${SEARCHES[0]} alone, the first after a write (index rebuilt): median of 5 ${median(after).toFixed(0)} ms; the next one ${median(next).toFixed(1)} ms`);
+}
+
 async function main() {
   const dir = benchDir("clients");
   const { dbFile, seeded } = seededCopy(dir);
@@ -61,6 +91,7 @@ async function main() {
   try {
     await load(`${server.base}/api/me`, { connections: CONNECTIONS, seconds: 3, headers: { cookie } });
     for (const q of SEARCHES) await measure(server.base, cookie, { label: `clients list search q=${q}`, path: `/api/clients?q=${encodeURIComponent(q)}`, target: LIST_P95_MS });
+    await firstSearchAfterWrite(server.base, cookie, dbFile);
     await measure(server.base, cookie, { label: "client timeline (50 newest entries)", path: `/api/clients/${historyClientId}/timeline?limit=50`, target: TIMELINE_P95_MS });
   } finally {
     await server.stop();
