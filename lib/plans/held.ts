@@ -12,15 +12,19 @@
 import { and, desc, eq, inArray, isNull } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { planInvoices, planSubscriptions, studios, type PlanInvoice, type PlanSubscription } from "@/db/schema";
+import { pieces, planInvoices, planSubscriptions, studios, users, type PlanInvoice, type PlanSubscription } from "@/db/schema";
+import { PlanHeldSettledEmail, planHeldSettledSubject } from "@/emails/plan-held-settled";
 import { recordAudit } from "@/lib/audit";
 import type { StudioActor } from "@/lib/auth/actor";
 import { conflict, notFound } from "@/lib/errors";
 import { formatInstant, formatMoney, formatZone } from "@/lib/format";
+import { sendMail } from "@/lib/mail";
+import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { callStripe } from "@/lib/payments/stripe";
 import { PLAN_FINAL } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
-import { moveSubscription, studioSubscription } from "./subscriptions";
+import { moveSubscription, pieceUrl, studioSubscription } from "./subscriptions";
+import { templateOf } from "./templates";
 
 export const HELD_RESOLUTIONS = ["accept", "refund_difference", "refund_and_end"] as const;
 export type HeldResolution = (typeof HELD_RESOLUTIONS)[number];
@@ -174,6 +178,36 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
         data: { invoiceId: held.id, stripeInvoiceId: held.stripeInvoiceId, amountMinor: held.amountMinor, refundMinor, resolution: STORED[ask.resolution], version: ask.version },
       });
     });
-    return reread(sub.id);
-  }).then(async (sub) => (sub.stripeSubscriptionId ? ((await syncPlanSubscription(sub.stripeSubscriptionId, undefined, sub)) ?? sub) : sub));
+    return { settled: reread(sub.id), held, refundMinor };
+  }).then(async ({ settled, held, refundMinor }) => {
+    const sub = settled.stripeSubscriptionId ? ((await syncPlanSubscription(settled.stripeSubscriptionId, undefined, settled)) ?? settled) : settled;
+    await mailHeldSettled(sub, held, ask.resolution, refundMinor);
+    return sub;
+  });
+}
+
+/** Tells the owner, after the decision is committed, what was charged, what the studio decided, what comes back and the plan's next date. */
+async function mailHeldSettled(sub: PlanSubscription, held: PlanInvoice, decision: HeldResolution, refundMinor: number): Promise<void> {
+  await mailAfterCommit("held payment settled", async () => {
+    const db = getDb();
+    const owner = sub.ownerId ? db.select().from(users).where(eq(users.id, sub.ownerId)).get() : undefined;
+    if (!owner) return;
+    const piece = db.select().from(pieces).where(eq(pieces.id, sub.pieceId)).get()!;
+    const studio = db.select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
+    const zone = owner.timeZone || studio.timeZone;
+    const next = decision === "refund_and_end" ? (sub.endedAt ?? new Date()) : sub.periodEnd;
+    const props = {
+      ownerName: owner.name,
+      studioName: studio.name,
+      planName: templateOf(sub.studioId, sub.templateId).name,
+      pieceTitle: piece.title,
+      charged: formatMoney(held.amountMinor, held.currency, studio.country),
+      price: formatMoney(sub.amountMinor, sub.currency, studio.country),
+      decision,
+      refund: refundMinor > 0 ? formatMoney(refundMinor, held.currency, studio.country) : null,
+      nextOn: next ? `${formatInstant(next, zone)} (${formatZone(zone)})` : "the day shown on your piece's page",
+      url: pieceUrl(piece.id),
+    };
+    await sendMail({ studioId: sub.studioId, to: owner.email, subject: planHeldSettledSubject(props), email: PlanHeldSettledEmail(props), replyTo: studio.email || undefined });
+  });
 }

@@ -15,6 +15,7 @@ import { resolveHeldPayment, type HeldAsk } from "@/lib/plans/held";
 import { planOverview, studioPlanRow } from "@/lib/plans/overview";
 import { syncPlanSubscription } from "@/lib/plans/stripe-sync";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { listMail, waitForMail } from "../support/mail";
 import { buyPlan, knob, startPlansStripe, subRow, until, yearlyPlan } from "../support/plans-stripe";
 
 let fake: StripeFake;
@@ -128,5 +129,39 @@ describe("a renewal held because Stripe charged another amount", () => {
     expect(fake.subscriptions().find((s) => s.id === sub.stripeSubscriptionId)!.status).toBe("canceled");
     expect(invoiceRow(held.invoiceId)).toMatchObject({ counts: false, heldResolution: "refunded_and_ended" });
     expect(myPlanControl(owner, piece.id)).toBeNull();
+  });
+
+  it("tells the owner once, in plain words, what was charged, what the studio decided, what comes back and the next renewal with its zone", async () => {
+    const { admin, owner, sub } = await heldRenewal(15_000);
+    const held = studioPlanDetail(admin, sub.id).held!;
+    const ask: HeldAsk = { invoiceId: held.invoiceId, resolution: "refund_difference", version: held.version, amountMinor: 15_000, refundMinor: 3_000 };
+    const since = new Date();
+    await resolveHeldPayment(admin, sub.id, ask);
+    const mail = await waitForMail({ to: owner.email, subject: /renewal is settled/, since });
+    const text = mail.text.replace(/\s+/g, " ");
+    expect(text).toMatch(/charged \$?150\.00, while the plan costs \$?120\.00/);
+    expect(text).toMatch(/kept the plan's \$?120\.00 as the payment for this renewal and is paying back the \$?30\.00 above it/);
+    expect(text).toMatch(/\$?30\.00 is on its way back to the card you paid with\. Banks usually take 5 to 10 days/);
+    expect(text).toMatch(/next renewal is on \d{1,2} \w+ \d{4} \(.*Chicago.*\)/);
+    expect(text).not.toMatch(/\d{4}-\d{2}-\d{2}|refund_|difference_refunded|_and_|running|held_/);
+    expect(mail.from).toContain(admin.studio.name);
+    expect(mail.headers["reply-to"]).toContain(admin.studio.email);
+
+    // A second submit of the same confirmation: 409, and no second mail.
+    const again = await settle(admin, sub.id, ask);
+    expect((again as AppError).status).toBe(409);
+    await new Promise((r) => setTimeout(r, 300));
+    expect((await listMail({ to: owner.email })).filter((m) => /renewal is settled/.test(m.subject))).toHaveLength(1);
+  });
+
+  it("keeping a lower amount as charged mails no refund sentence", async () => {
+    const { admin, owner, sub } = await heldRenewal(9_900);
+    const held = studioPlanDetail(admin, sub.id).held!;
+    const since = new Date();
+    await resolveHeldPayment(admin, sub.id, { invoiceId: held.invoiceId, resolution: "accept", version: held.version, amountMinor: 9_900, refundMinor: 0 });
+    const text = (await waitForMail({ to: owner.email, subject: /renewal is settled/, since })).text.replace(/\s+/g, " ");
+    expect(text).toMatch(/kept the \$?99\.00 as the payment for this renewal/);
+    expect(text).not.toMatch(/back to the card|paying back|Banks/);
+    expect(text).toMatch(/next renewal is on \d{1,2} \w+ \d{4} \(.*Chicago.*\)/);
   });
 });
