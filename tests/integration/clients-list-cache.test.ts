@@ -1,7 +1,7 @@
-// The clients list keeps each studio's clients in memory until the database changes (lib/clients/list-index.ts,
-// tied to the database's version as the registry's counts are). The same search, asked again in the same
-// process after a client is created, changed or erased, or a piece moves to another client, must show
-// the new total at once: against a real SQLite file.
+// The clients list keeps each search's total per process until the database changes (lib/clients/list.ts
+// countClients, tied to the database's version as the registry's counts are). The same search, asked
+// again in the same process after a client is created, changed or erased, or a piece moves to another
+// client, must show the new total at once: against a real SQLite file.
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
