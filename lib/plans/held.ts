@@ -9,7 +9,7 @@
 // the refund the person was shown are still the current ones: they are checked and the decision claimed
 // in one transaction under the plan's lock; Stripe is asked after (idempotency key of the held payment);
 // if it refuses, the claim is undone and the payment waits as before.
-import { and, desc, eq, inArray, isNull } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import { pieces, planInvoices, planSubscriptions, studios, users, type PlanInvoice, type PlanSubscription } from "@/db/schema";
@@ -97,6 +97,23 @@ export function heldForStaff(sub: PlanSubscription, timeZone: string): HeldView 
     if (resolution === "refund_and_end") options.push({ resolution, refundMinor, label: "Pay it all back and end the plan", words: `${charged} goes back to the owner's card, the plan isn't renewed, and it ends now.` });
   }
   return { invoiceId: held.id, amountMinor: held.amountMinor, version: sub.version, words, options };
+}
+
+/** Staff's words for the plan's last settled held payment (when, and what was decided); null when none was settled. */
+export function heldSettledForStaff(sub: PlanSubscription, timeZone: string): string | null {
+  const last = getDb()
+    .select()
+    .from(planInvoices)
+    .where(and(eq(planInvoices.subscriptionId, sub.id), isNotNull(planInvoices.heldResolvedAt)))
+    .orderBy(desc(planInvoices.heldResolvedAt))
+    .get();
+  if (!last?.heldResolution || !last.heldResolvedAt) return null;
+  const { money } = wordsParts(sub, last, timeZone);
+  const on = `${formatInstant(last.heldResolvedAt, timeZone)} (${formatZone(timeZone)})`;
+  const charged = money(last.amountMinor, last.currency);
+  if (last.heldResolution === "accepted") return `Settled on ${on}: the ${charged} charged was kept as the period's payment.`;
+  if (last.heldResolution === "difference_refunded") return `Settled on ${on}: ${money(last.heldRefundedMinor)} paid back to the owner's card; ${money(last.amountMinor - last.heldRefundedMinor)} of the ${charged} charged was kept as the period's payment.`;
+  return `Settled on ${on}: all ${charged} paid back to the owner's card, and the plan ended.`;
 }
 
 /** The owner's words for their plan's held renewal; null when nothing is held. */

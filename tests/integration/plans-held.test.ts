@@ -11,7 +11,7 @@ import { addDays, localDate } from "@/lib/care/dates";
 import { AppError } from "@/lib/errors";
 import type { StripeFake } from "@/lib/fakes/stripe-fake";
 import { myPlanControl, studioPlanDetail } from "@/lib/plans/cancel";
-import { resolveHeldPayment, type HeldAsk } from "@/lib/plans/held";
+import { heldSettledForStaff, resolveHeldPayment, type HeldAsk } from "@/lib/plans/held";
 import { planOverview, studioPlanRow } from "@/lib/plans/overview";
 import { syncPlanSubscription } from "@/lib/plans/stripe-sync";
 import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
@@ -146,6 +146,8 @@ describe("a renewal held because Stripe charged another amount", () => {
     expect(text).not.toMatch(/\d{4}-\d{2}-\d{2}|refund_|difference_refunded|_and_|running|held_/);
     expect(mail.from).toContain(admin.studio.name);
     expect(mail.headers["reply-to"]).toContain(admin.studio.email);
+    // Staff's page says it was settled, and how, in words.
+    expect(heldSettledForStaff(subRow(sub.id), "Europe/Berlin")).toMatch(/^Settled on \d{1,2} \w+ \d{4} \(.*Berlin.*\): \$?30\.00 paid back to the owner's card; \$?120\.00 of the \$?150\.00 charged was kept as the period's payment\.$/);
 
     // A second submit of the same confirmation: 409, and no second mail.
     const again = await settle(admin, sub.id, ask);

@@ -7,6 +7,7 @@ import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatInstant, formatMoney, formatZone } from "@/lib/format";
 import { studioPlanDetail } from "@/lib/plans/cancel";
+import { heldSettledForStaff } from "@/lib/plans/held";
 import { studioPlanRow } from "@/lib/plans/overview";
 import { planPriceWords } from "@/lib/plans/price-words";
 
@@ -25,6 +26,7 @@ export default async function StudioPlanPage({ params }: { params: Promise<{ id:
   const tz = ctx.studio.timeZone;
   const money = (minor: number) => formatMoney(minor, sub.currency, ctx.studio.country);
   const day = (at: Date | number) => `${formatInstant(at, tz)} (${formatZone(tz)})`;
+  const settled = detail.held ? null : heldSettledForStaff(sub, tz);
   const q = detail.cancel.quote;
   const action: StaffPlanAction = q
     ? {
@@ -68,6 +70,8 @@ export default async function StudioPlanPage({ params }: { params: Promise<{ id:
           <h2 className="font-display text-xl font-semibold">Payments held</h2>
           {detail.held ? (
             <HeldPaymentActions subscriptionId={sub.id} held={detail.held} />
+          ) : settled ? (
+            <p className="text-sm">{settled}</p>
           ) : (
             <p className="text-sm text-muted">None waiting. A card payment whose amount isn&apos;t the plan&apos;s price is held here for you to check instead of renewing the plan.</p>
           )}
