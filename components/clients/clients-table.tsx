@@ -99,7 +99,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
       </form>
 
       <div aria-live="polite" className="text-sm text-muted">
-        {query.isPending ? "Loading clients…" : data && data.total > 0 ? `${from}–${to} of ${formatCount(data.total)} client${data.total === 1 ? "" : "s"}` : null}
+        {query.isPending ? "Loading clients…" : data && data.total > 0 ? `${from}–${to} of ${data.totalIsCapped ? `more than ${formatCount(data.total)}` : formatCount(data.total)} client${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}` : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
       </div>
 

@@ -6,7 +6,7 @@ import Papa from "papaparse";
 import { localDate } from "@/lib/care/dates";
 import { OPEN_STATES } from "@/lib/claims/states";
 import { cell } from "@/lib/pieces/csv";
-import { databaseVersion } from "@/lib/pieces/registry-sql";
+import { LIST_COUNT_CAP, SEARCH_COUNT_CAP } from "@/lib/pieces/registry-sql";
 import { ftsQuery } from "@/lib/pieces/search-index";
 import { CLIENT_PAGE_SIZE, type ClientListQuery } from "@/lib/validation/clients";
 import { displayPhone, phoneSearchKeys } from "./phone";
@@ -23,7 +23,7 @@ export type ClientRow = {
   openClaims: number;
   updatedAt: string;
 };
-export type ClientPage = { rows: ClientRow[]; total: number; page: number; pageSize: number };
+export type ClientPage = { rows: ClientRow[]; total: number; /** true: more than `total` match (the count stops there). */ totalIsCapped: boolean; page: number; pageSize: number };
 
 const likeEscape = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 const OPEN = sql.raw(OPEN_STATES.map((s) => `'${s}'`).join(", "));
@@ -109,7 +109,7 @@ function clientsWhere(ctx: StudioContext, query: ClientListQuery): SQL {
 }
 
 /**
- * Past this many matches a page in name order is read along clients_studio_name_nocase_idx, testing
+ * Past this many matches (or a search's count cap, SEARCH_COUNT_CAP) a page in name order is read along clients_studio_name_nocase_idx, testing
  * each entry against the search's match sets and stopping at the page; below it, the matches are read
  * by rowid and sorted, which SQLite's planner picks by itself. Measured on the bench seed (20,000
  * clients): 8,486 matches, 11 ms by rowid and sort vs 2 ms along the index; 25 matches, 0.5 vs 3.5 ms.
@@ -135,24 +135,13 @@ function queryClients(query: ClientListQuery, where: SQL, page: { limit: number;
 }
 
 /**
- * How many clients the search and filter find. Counting reads every match (8,486 clients for a common
- * title word on the bench seed: most of the request), and the pager and every repeat of a search ask
- * again, so totals are kept per process until the database changes, as the registry's counts are
- * (lib/pieces/registry-sql.ts countMatches): the version is taken before the count reads anything.
+ * How many clients the search and filter find, counted up to `cap` + 1: past it the list says "more than"
+ * (as the registry does, lib/pieces/registry-list.ts). Counting every match read all 8,486 clients of a
+ * common title word on the bench seed, most of the request.
  */
-function countClients(ctx: StudioContext, query: ClientListQuery, where: SQL): number {
-  const db = getDb();
-  const version = databaseVersion(db);
-  const key = JSON.stringify([ctx.studio.id, ctx.studio.country, query.q, query.filter ?? null]);
-  const hit = totals.get(key);
-  if (hit && hit.version === version) return hit.n;
-  const n = db.get<{ n: number }>(sql`SELECT count(*) AS n FROM clients c WHERE ${where}`)!.n;
-  if (totals.size >= 1000) totals.delete(totals.keys().next().value!);
-  totals.set(key, { version, n });
-  return n;
+function countClients(where: SQL, cap: number): number {
+  return getDb().get<{ n: number }>(sql`SELECT count(*) AS n FROM (SELECT 1 FROM clients c WHERE ${where} LIMIT ${cap + 1})`)!.n;
 }
-
-const totals = new Map<string, { version: string; n: number }>();
 
 /** A stored number as shown (libphonenumber's parse and format cost more than the page's SQL for 50 rows); kept for the last 10,000 numbers. */
 function shownPhone(e164: string | null, country: string): string {
@@ -171,8 +160,10 @@ const shownPhones = new Map<string, string>();
 /** One page (50) of the caller's studio's clients, searched, filtered and sorted, with the total. */
 export function listClients(ctx: StudioContext, query: ClientListQuery): ClientPage {
   const where = clientsWhere(ctx, query);
-  const total = countClients(ctx, query, where);
-  const rows = queryClients(query, where, { limit: CLIENT_PAGE_SIZE, offset: (query.page - 1) * CLIENT_PAGE_SIZE }, total >= READ_IN_NAME_ORDER_FROM);
+  const cap = query.q.trim() ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
+  const counted = countClients(where, cap);
+  const totalIsCapped = counted > cap;
+  const rows = queryClients(query, where, { limit: CLIENT_PAGE_SIZE, offset: (query.page - 1) * CLIENT_PAGE_SIZE }, totalIsCapped || counted >= READ_IN_NAME_ORDER_FROM);
   return {
     rows: rows.map((r) => ({
       id: r.id,
@@ -185,7 +176,8 @@ export function listClients(ctx: StudioContext, query: ClientListQuery): ClientP
       openClaims: r.openClaims,
       updatedAt: new Date(r.updatedAt).toISOString(),
     })),
-    total,
+    total: totalIsCapped ? cap : counted,
+    totalIsCapped,
     page: query.page,
     pageSize: CLIENT_PAGE_SIZE,
   };

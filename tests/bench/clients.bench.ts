@@ -9,9 +9,8 @@
 // server benchmarks do; the verdict is the absolute p95 against the target, and the ratio to the
 // floor stands beside it (no bound: the issue gives none), so a miss on a loaded machine can be told
 // from a cost of the route itself.
-// The list keeps each studio's clients in memory until the database changes (lib/clients/list-index.ts):
-// the first search after a write rebuilds it, timed here too (one request alone, after a client edit
-// by another connection; reported, no target).
+// The first search after a write is timed too (one request alone, after a client edit by another
+// connection; reported, no target): nothing the list keeps may make a search after a write slow.
 // Standalone: npx tsx tests/bench/clients.bench.ts   (BENCH_SKIP_BUILD=1 reuses .next)
 import fs from "node:fs";
 import { fileURLToPath } from "node:url";
@@ -53,7 +52,7 @@ async function measure(base: string, cookie: string, f: Figure) {
   });
 }
 
-/** One search alone right after a client is edited by another connection (the list's index is rebuilt), then one more: median of 5. */
+/** One search alone right after a client is edited by another connection, then one more: median of 5. */
 async function firstSearchAfterWrite(base: string, cookie: string, dbFile: string) {
   const db = new Database(dbFile);
   const edit = db.prepare("UPDATE clients SET updated_at = updated_at + 1 WHERE rowid = (SELECT min(rowid) FROM clients)");
@@ -76,7 +75,7 @@ async function firstSearchAfterWrite(base: string, cookie: string, dbFile: strin
     db.close();
   }
   const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
-  console.log(`clients list search q=${SEARCHES[0]} alone, the first after a write (index rebuilt): median of 5 ${median(after).toFixed(0)} ms; the next one ${median(next).toFixed(1)} ms`);
+  console.log(`clients list search q=${SEARCHES[0]} alone, the first after a write: median of 5 ${median(after).toFixed(0)} ms; the next one ${median(next).toFixed(1)} ms`);
 }
 
 async function main() {
