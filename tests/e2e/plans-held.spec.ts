@@ -1,0 +1,86 @@
+// A renewal the Stripe fake bills above the plan's price is held: staff at 1280 px read it in words on
+// the plan's page, pay back the difference and see it settled; the owner's piece page (375 px) no
+// longer says it is held, and the owner is mailed what was decided. The plan is bought on the fake's
+// payment page; the fake's renew knob bills the other amount. Axe checks the staff page.
+import AxeBuilder from "@axe-core/playwright";
+import { expect, test, type Page } from "@playwright/test";
+import { waitForMail } from "../support/mail";
+import { ACCOUNTS, PORTS, SINK_URL, signIn, signInTo } from "./helpers";
+
+// The fake's own key (lib/fakes/stripe-fake-cli.ts; the e2e server leaves STRIPE_SECRET_KEY at its default).
+const FAKE_KEY = process.env.STRIPE_SECRET_KEY ?? "sk_test_grainward_demo";
+
+async function noAxeViolations(page: Page) {
+  const axe = await new AxeBuilder({ page }).analyze();
+  expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
+}
+
+test("a renewal charged above the plan's price: staff pay back the difference, the owner is told", async ({ browser }) => {
+  const owner = await browser.newContext({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
+  const ownerPage = await owner.newPage();
+  await signIn(ownerPage, ACCOUNTS.owner);
+  // The last of the owner's pieces that plans fit and that runs under none (plans.spec takes the first).
+  const { pieces } = (await (await ownerPage.request.get("/api/me/pieces")).json()) as { pieces: { id: string }[] };
+  let pieceId = "";
+  for (const p of [...pieces].reverse()) {
+    const res = (await (await ownerPage.request.get(`/api/plans?pieceId=${p.id}`)).json()) as { current: unknown; offers: { name: string }[] };
+    if (!res.current && res.offers.length) {
+      pieceId = p.id;
+      await ownerPage.goto(`/pieces/${p.id}`);
+      await ownerPage.getByRole("region", { name: "Care plan" }).getByRole("button", { name: `Start ${res.offers[0]!.name}` }).click();
+      break;
+    }
+  }
+  expect(pieceId, "an owner's piece with a fitting plan").not.toBe("");
+  await ownerPage.getByLabel("Card number").fill("4242 4242 4242 4242");
+  await ownerPage.getByRole("button", { name: "Pay", exact: true }).click();
+  await expect(ownerPage).toHaveURL(new RegExp(`/pieces/${pieceId}\\?plan=started`));
+  let plan: { subscriptionId: string; state: string } | null = null;
+  await expect(async () => {
+    plan = ((await (await ownerPage.request.get(`/api/plans?pieceId=${pieceId}`)).json()) as { current: { subscriptionId: string; state: string } | null }).current;
+    expect(plan?.state).toBe("running");
+  }).toPass({ timeout: 15_000 });
+  const subscriptionId = plan!.subscriptionId;
+
+  // Staff: the plan's Stripe subscription and price; the fake renews it 30.00 above the price.
+  const staff = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+  const page = await staff.newPage();
+  await signInTo(page, ACCOUNTS.staff, `/studio/plans/${subscriptionId}`);
+  const { subscription } = (await (await page.request.get(`/api/plans/subscriptions/${subscriptionId}`)).json()) as { subscription: { stripeSubscriptionId: string; amountMinor: number } };
+  const renewed = await fetch(`http://127.0.0.1:${PORTS.stripe}/_test/subscriptions/${subscription.stripeSubscriptionId}/renew`, {
+    method: "POST",
+    headers: { authorization: `Bearer ${FAKE_KEY}`, "content-type": "application/x-www-form-urlencoded" },
+    body: `outcome=pay&amount=${subscription.amountMinor + 3_000}`,
+  });
+  expect(renewed.status).toBe(200);
+
+  const card = page.getByRole("heading", { name: "Payments held" }).locator("xpath=..");
+  await expect(async () => {
+    await page.reload();
+    await expect(card.getByText(/^The renewal on \d{1,2} \w+ \d{4} \(.+\) charged .+, but this plan costs .+\. The payment is held/)).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 15_000 });
+  await expect(page.getByText(/renewal payment held for you to check/)).toBeVisible();
+  await noAxeViolations(page);
+  await card.getByRole("button", { name: /^Pay back the .*30\.00 difference$/ }).click();
+  const confirm = card.getByRole("group", { name: /^Pay back the .*30\.00 difference\?$/ });
+  await expect(confirm.getByText(/30\.00 goes back to the owner's card and the new period starts/)).toBeVisible();
+  await noAxeViolations(page);
+  const since = new Date();
+  await confirm.getByRole("button", { name: "Confirm" }).click();
+  await expect(card.getByText(/^Settled on \d{1,2} \w+ \d{4} \(.+\): .*30\.00 paid back to the owner's card/)).toBeVisible();
+  await expect(card.getByRole("button", { name: /difference/ })).toHaveCount(0);
+  await expect(page.getByText(/renewal payment held/)).toHaveCount(0);
+
+  await ownerPage.goto(`/pieces/${pieceId}`);
+  await expect(ownerPage.getByRole("region", { name: "Care plan" }).getByText("Running")).toBeVisible();
+  await expect(ownerPage.getByTestId("plan-payment-held")).toHaveCount(0);
+  const mail = await waitForMail({ to: ACCOUNTS.owner, subject: /renewal is settled/, sinkUrl: SINK_URL, since });
+  expect(mail.text).toMatch(/30\.00 is on its way back to the card you paid with/);
+  expect(mail.text).toMatch(/next renewal is on \d{1,2} \w+ \d{4} \(.+\)/);
+  // Leave the owner's pieces as plans.spec expects them (one running card plan, the one it buys): this one is cancelled.
+  const detail = (await (await page.request.get(`/api/plans/subscriptions/${subscriptionId}`)).json()) as { subscription: { version: number }; cancel: { quote: { refundMinor: number } | null } };
+  const cancelled = await page.request.post(`/api/plans/subscriptions/${subscriptionId}/cancel`, { headers: { origin: new URL(page.url()).origin }, data: { version: detail.subscription.version, refundMinor: detail.cancel.quote!.refundMinor } });
+  expect(cancelled.status()).toBe(200);
+  await owner.close();
+  await staff.close();
+});
