@@ -62,7 +62,7 @@ export function CertificateDocument({ piece, ownerName, issuedAt, brand }: { pie
         <Row k="Delivered on" v={formatDate(piece.deliveredOn)} />
         <Row k="Registered to" v={ownerName} />
         <Row k="Registered on" v={piece.registeredAt ? formatInstant(piece.registeredAt, piece.timeZone) : "—"} />
-        <Row k="Warranty terms" v={piece.warranty.version ? `Version ${piece.warranty.version}${piece.warranty.policyName ? ` (${piece.warranty.policyName})` : ""}` : "None recorded"} />
+        <Row k="Terms" v={piece.warranty.termsName ?? "None recorded"} />
         <Row k="Certificate for piece" v={piece.id} />
 
         <Text style={s.h2}>Warranty lines</Text>

@@ -35,6 +35,7 @@ import { monthsText, whyNow } from "@/lib/reminders/content";
 import { buildCareGuide, type CareGuide } from "./care-guide";
 import { formatSize, formatThickness, isTimeZone, type UnitSystem } from "@/lib/format";
 import { brandOf, type StudioBrand } from "@/lib/studio/brand";
+import { warrantyTermsName } from "@/lib/claims/coverage";
 import { warrantyLinesFor, type OwnerWarrantyLine } from "./warranty";
 
 // The owner's reads. Every query filters by the signed-in owner's id; someone else's piece is a 404
@@ -272,7 +273,8 @@ export type PieceDetail = {
   schedule: { today: string; tasks: TaskView[]; notes: string[] };
   careLog: CareLogView[];
   guide: CareGuide;
-  warranty: { version: number | null; policyName: string | null; isOriginalOwner: boolean; lines: OwnerWarrantyLine[] };
+  /** `termsName`: the studio's terms the piece carries, in words ("Warranty terms for deliveries from 1 January 2024"), or null. */
+  warranty: { termsName: string | null; isOriginalOwner: boolean; lines: OwnerWarrantyLine[] };
   certificateUrl: string;
 };
 
@@ -289,6 +291,7 @@ const pageReads = perConnection((db) => {
         studioName: studios.name,
         studioEmail: studios.email,
         policyVersion: warrantyPolicies.version,
+        policyEffectiveFrom: warrantyPolicies.effectiveFrom,
         policy: warrantyPolicies.policy,
         firstOwnerId: sql<string | null>`(SELECT o.user_id FROM ownerships o WHERE o.piece_id = ${pieces.id} ORDER BY o.started_at LIMIT 1)`,
       })
@@ -345,7 +348,7 @@ export function getMyPiece(owner: Owner, pieceId: string, now = new Date()): Pie
   const timeZone = safeZone(owner.timeZone);
   const schedule = scheduleFromRows({ piece, layers, careLog: log, products, timeZone, now });
   // The policy version the piece carries, else the studio's version in force at delivery, else none.
-  const policy = row.policyVersion !== null ? { version: row.policyVersion, policy: row.policy ?? DEFAULT_WARRANTY_POLICY } : null;
+  const policy = row.policyVersion !== null ? { effectiveFrom: row.policyEffectiveFrom!, policy: row.policy ?? DEFAULT_WARRANTY_POLICY } : null;
   // The first owner keeps the warranty lines that do not pass to a new owner.
   const original = row.firstOwnerId === null || row.firstOwnerId === owner.id;
   const primary = getSpecies(piece.primarySpeciesId);
@@ -384,8 +387,7 @@ export function getMyPiece(owner: Owner, pieceId: string, now = new Date()): Pie
       units,
     }),
     warranty: {
-      version: policy?.version ?? null,
-      policyName: policy?.policy.version ?? null,
+      termsName: policy ? warrantyTermsName(policy.effectiveFrom) : null,
       isOriginalOwner: original,
       lines: policy
         ? warrantyLinesFor(policy.policy, piece.deliveredOn, schedule.today, original, { resin: piece.resinKind, use: piece.use, hasEpoxyLayer: layers.some((l) => l.finishClass === "epoxy_surface") })

@@ -143,6 +143,9 @@ test("scan a drawer card, sign up, confirm by e-mail, register, log care and dow
   expect(text).toContain(card.title);
   expect(text).toContain("Rowan Ash (invented)");
   expect(text).toContain("Larchmere Slab & Resin");
+  // The terms are named in words, never by their stored label.
+  expect(text).toMatch(/Warranty terms for deliveries from \d{1,2} [A-Z][a-z]+ \d{4}/);
+  expect(text).not.toMatch(/Version \d|demo-\d{4}/);
 });
 
 test("the demo owner sees their pieces with schedules, a lived-in care log and the care guide", async ({ page, context }) => {

@@ -94,7 +94,7 @@ describe("owner pieces", () => {
     expect(view.guide.cautions.map((c) => c.key)).toEqual(["oily_rags", "heat_on_resin", "ventilation", "product_label", "heavy_top"]);
     expect(view.guide.cautions[0]!.text).toMatch(/metal can, cover them with water and a squirt of washing-up detergent/);
 
-    expect(view.warranty.version).toBe(3);
+    expect(view.warranty.termsName).toBe("Warranty terms for deliveries from 1 January 2024"); // in words, never the stored version label
     const structural = view.warranty.lines.find((l) => l.category === "structural")!;
     // 60 months from 2025-06-01 is 2030-06-01; today in New York on NOW is 2026-03-15.
     expect(structural).toMatchObject({ endsOn: "2030-06-01", status: "active", daysLeft: 1539 });
@@ -273,7 +273,8 @@ describe("warranty certificate", () => {
     expect(flat).toContain("Certificate Owner (invented)");
     expect(flat).toContain("Structure and joinery");
     expect(flat).toContain("1 June 2030");
-    expect(flat).toContain("Version 2");
+    expect(flat).toContain("Terms Warranty terms for deliveries from 1 January 2024");
+    expect(flat).not.toMatch(/Version \d/);
     await expectAppError(certificatePdf(await owner(), piece.id, NOW), 404);
   });
 });

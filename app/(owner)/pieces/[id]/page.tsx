@@ -236,7 +236,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
         ) : (
           <>
             <p className="text-sm text-muted">
-              {piece.studio.name}&apos;s terms, version {piece.warranty.version}, as they stood when the piece was delivered. Terms run from the delivery date.
+              {piece.warranty.termsName}: {piece.studio.name}&apos;s terms as they stood when the piece was delivered. Terms run from the delivery date.
               {piece.warranty.isOriginalOwner ? "" : " You are not the first owner: lines that don't pass to a new owner have ended for the piece."}
             </p>
             <ul className="space-y-3">
