@@ -86,6 +86,8 @@ const ACTION_LABELS: Record<string, string> = {
   "plan.checkout_started": "Care plan checkout started by the owner",
   "plan.changed_hands": "Care plan moved to the piece's new owner",
   "plan.payment_held": "Care plan payment held: its amount isn't the plan's price",
+  "plan.held_payment_settled": "Held care plan payment settled by staff",
+  "plan.transfer_finished": "Care plan move finished with the payment service",
   "plan.refund_claimed": "Care plan refund set aside on cancellation",
   "plan.refunded": "Care plan refund paid",
   "plan_template.created": "Care plan added",

@@ -11,6 +11,7 @@ import { AppRouterContext } from "next/dist/shared/lib/app-router-context.shared
 import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { Providers } from "@/components/providers";
 import type { StudioContext } from "@/lib/auth/guards";
 import { createJob } from "@/lib/repairs/jobs";
 import { sendQuote } from "@/lib/repairs/payment";
@@ -52,7 +53,8 @@ async function renderPage(staff: StudioContext, page: () => Promise<React.ReactE
   asStaff = staff;
   // Client components on the page (charts, the message form) ask for the App Router; none navigates here.
   const router = { back() {}, forward() {}, refresh() {}, push() {}, replace() {}, prefetch() {}, bfcacheId: "test" };
-  return renderToStaticMarkup(createElement(AppRouterContext.Provider, { value: router }, await page())).replace(/<[^>]+>/g, " ").replace(/&amp;/g, "&").replace(/&#x27;|&#39;/g, "'").replace(/\s+/g, " ");
+  // The root layout's providers (TanStack Query, the toaster) wrap every page in the app; they do here too.
+  return renderToStaticMarkup(createElement(AppRouterContext.Provider, { value: router }, createElement(Providers, null, await page()))).replace(/<[^>]+>/g, " ").replace(/&amp;/g, "&").replace(/&#x27;|&#39;/g, "'").replace(/\s+/g, " ");
 }
 
 describe.each(["us", "de"] as const)("a %s studio", (kind) => {
