@@ -1,11 +1,8 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
+import { AskStudioForHelp, PLAN_MAIL_PREVIEW_NAMES, type PlanMailNames } from "./components/plan-mail";
 
-export type PlanEndedEmailProps = {
-  ownerName: string;
-  studioName: string;
-  planName: string;
-  pieceTitle: string;
+export type PlanEndedEmailProps = PlanMailNames & {
   /** Cancelled by the owner or the studio, or ended because the piece changed hands. */
   reason: "cancelled" | "changed_hands";
   /** The day the plan stops covering, already written out with its zone ("14 January 2027 (Central European Time (Berlin))"). */
@@ -47,19 +44,14 @@ export function PlanEndedEmail({ ownerName, studioName, planName, pieceTitle, re
       ) : (
         <Paragraph>Under {studioName}&apos;s terms for this plan, nothing is paid back.</Paragraph>
       )}
-      <ActionButton href={url}>See your piece</ActionButton>
-      <LinkFallback href={url} />
-      <Note>Reply to this mail if you&apos;d like {studioName} to help.</Note>
+      <ActionClose href={url} label="See your piece" note={<AskStudioForHelp studioName={studioName} />} />
     </EmailLayout>
   );
 }
 
 // Invented example values for the React Email preview.
 PlanEndedEmail.PreviewProps = {
-  ownerName: "Jonah Reyes",
-  studioName: "Larchmere Slab & Resin",
-  planName: "Yearly finish keeping",
-  pieceTitle: "Cherry writing desk",
+  ...PLAN_MAIL_PREVIEW_NAMES,
   reason: "cancelled",
   endsOn: "14 January 2027 (Pacific Time (Los Angeles))",
   refund: "$99.00",

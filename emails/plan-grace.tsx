@@ -1,11 +1,8 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
+import { AskStudioForHelp, PLAN_MAIL_PREVIEW_NAMES, type PlanMailNames } from "./components/plan-mail";
 
-export type PlanGraceEmailProps = {
-  ownerName: string;
-  studioName: string;
-  planName: string;
-  pieceTitle: string;
+export type PlanGraceEmailProps = PlanMailNames & {
   /** The renewal amount, already written out ("$132.00"). */
   amount: string;
   /** The last day of the grace period, already written out ("17 December 2026"). */
@@ -28,19 +25,22 @@ export function PlanGraceEmail({ ownerName, studioName, planName, pieceTitle, am
         Your plan keeps working until {graceEndsOn} while the payment is tried again. If it still can&apos;t be paid by then, the plan
         ends: included visits stop and the warranty goes back to {studioName}&apos;s standard terms from that day.
       </Paragraph>
-      <ActionButton href={url}>See your piece and plan</ActionButton>
-      <LinkFallback href={url} />
-      <Note>Nothing else changes on your piece record. Reply to this mail if you&apos;d like {studioName} to help.</Note>
+      <ActionClose
+        href={url}
+        label="See your piece and plan"
+        note={
+          <>
+            Nothing else changes on your piece record. <AskStudioForHelp studioName={studioName} />
+          </>
+        }
+      />
     </EmailLayout>
   );
 }
 
 // Invented example values for the React Email preview.
 PlanGraceEmail.PreviewProps = {
-  ownerName: "Jonah Reyes",
-  studioName: "Larchmere Slab & Resin",
-  planName: "Yearly finish keeping",
-  pieceTitle: "Cherry writing desk",
+  ...PLAN_MAIL_PREVIEW_NAMES,
   amount: "$132.00",
   graceEndsOn: "17 December 2026",
   url: "https://grainward.example/pieces/00000000-0000-4000-8000-000000000000",

@@ -1,11 +1,8 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
+import { AskStudioForHelp, PLAN_MAIL_PREVIEW_NAMES, type PlanMailNames } from "./components/plan-mail";
 
-export type PlanHeldSettledEmailProps = {
-  ownerName: string;
-  studioName: string;
-  planName: string;
-  pieceTitle: string;
+export type PlanHeldSettledEmailProps = PlanMailNames & {
   /** What the renewal charged, already written out ("$150.00"). */
   charged: string;
   /** The plan's price, already written out ("$120.00"). */
@@ -38,19 +35,14 @@ export function PlanHeldSettledEmail({ ownerName, studioName, planName, pieceTit
       </Paragraph>
       {refund ? <Paragraph>{refund} is on its way back to the card you paid with. Banks usually take 5 to 10 days to show it.</Paragraph> : null}
       <Paragraph>{next}</Paragraph>
-      <ActionButton href={url}>See your piece and plan</ActionButton>
-      <LinkFallback href={url} />
-      <Note>Reply to this mail if you&apos;d like {studioName} to help.</Note>
+      <ActionClose href={url} label="See your piece and plan" note={<AskStudioForHelp studioName={studioName} />} />
     </EmailLayout>
   );
 }
 
 // Invented example values for the React Email preview.
 PlanHeldSettledEmail.PreviewProps = {
-  ownerName: "Jonah Reyes",
-  studioName: "Larchmere Slab & Resin",
-  planName: "Yearly finish keeping",
-  pieceTitle: "Cherry writing desk",
+  ...PLAN_MAIL_PREVIEW_NAMES,
   charged: "$150.00",
   price: "$120.00",
   decision: "refund_difference",

@@ -1,11 +1,8 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
+import { PLAN_MAIL_PREVIEW_NAMES, type PlanMailNames } from "./components/plan-mail";
 
-export type PlanVisitEmailProps = {
-  ownerName: string;
-  studioName: string;
-  planName: string;
-  pieceTitle: string;
+export type PlanVisitEmailProps = PlanMailNames & {
   /** The visit's due date, written out ("3 June 2027"). */
   dueOn: string;
   /** What the owner pays for it, written out ("Included in your plan" or "$40.00"). */
@@ -33,19 +30,14 @@ export function PlanVisitEmail({ ownerName, studioName, planName, pieceTitle, du
       ) : (
         <Paragraph>Pick a time that suits you on the visit page.</Paragraph>
       )}
-      <ActionButton href={url}>Choose a time</ActionButton>
-      <LinkFallback href={url} />
-      <Note>The studio does the plan&apos;s care tasks at this visit, so you won&apos;t get reminders for them.</Note>
+      <ActionClose href={url} label="Choose a time" note="The studio does the plan's care tasks at this visit, so you won't get reminders for them." />
     </EmailLayout>
   );
 }
 
 // Invented example values for the React Email preview.
 PlanVisitEmail.PreviewProps = {
-  ownerName: "Jonah Reyes",
-  studioName: "Larchmere Slab & Resin",
-  planName: "Yearly finish keeping",
-  pieceTitle: "Cherry writing desk",
+  ...PLAN_MAIL_PREVIEW_NAMES,
   dueOn: "3 June 2027",
   price: "Included in your plan",
   slots: ["Tuesday 1 June 2027 at 09:00 BST", "Wednesday 2 June 2027 at 13:00 BST"],

@@ -1,3 +1,4 @@
+import type { ReactNode } from "react";
 import { Button as EmailButton, Link, Section } from "@react-email/components";
 import { Note } from "./layout";
 import { accentColor, colors } from "./theme";
@@ -34,6 +35,17 @@ export function LinkFallback({ href }: { href: string }) {
         {href}
       </Link>
     </Note>
+  );
+}
+
+/** The close of a message: its one action, the link spelled out below it, and a last note when there is one. */
+export function ActionClose({ href, label, note }: { href: string; label: string; note?: ReactNode }) {
+  return (
+    <>
+      <ActionButton href={href}>{label}</ActionButton>
+      <LinkFallback href={href} />
+      {note ? <Note>{note}</Note> : null}
+    </>
   );
 }
 

@@ -12,7 +12,7 @@
 import { and, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { pieces, planInvoices, planSubscriptions, studios, users, type PlanInvoice, type PlanSubscription } from "@/db/schema";
+import { planInvoices, planSubscriptions, studios, type PlanInvoice, type PlanSubscription } from "@/db/schema";
 import { PlanHeldSettledEmail, planHeldSettledSubject } from "@/emails/plan-held-settled";
 import { recordAudit } from "@/lib/audit";
 import type { StudioActor } from "@/lib/auth/actor";
@@ -21,10 +21,10 @@ import { formatInstant, formatMoney, formatZone } from "@/lib/format";
 import { sendMail } from "@/lib/mail";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { callStripe } from "@/lib/payments/stripe";
+import { planMailContext } from "./plan-mail";
 import { PLAN_FINAL } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { moveSubscription, pieceUrl, studioSubscription } from "./subscriptions";
-import { templateOf } from "./templates";
 
 export const HELD_RESOLUTIONS = ["accept", "refund_difference", "refund_and_end"] as const;
 export type HeldResolution = (typeof HELD_RESOLUTIONS)[number];
@@ -206,18 +206,12 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
 /** Tells the owner, after the decision is committed, what was charged, what the studio decided, what comes back and the plan's next date. */
 async function mailHeldSettled(sub: PlanSubscription, held: PlanInvoice, decision: HeldResolution, refundMinor: number): Promise<void> {
   await mailAfterCommit("held payment settled", async () => {
-    const db = getDb();
-    const owner = sub.ownerId ? db.select().from(users).where(eq(users.id, sub.ownerId)).get() : undefined;
-    if (!owner) return;
-    const piece = db.select().from(pieces).where(eq(pieces.id, sub.pieceId)).get()!;
-    const studio = db.select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
-    const zone = owner.timeZone || studio.timeZone;
+    const context = planMailContext(sub);
+    if (!context) return;
+    const { owner, studio, piece, zone } = context;
     const next = decision === "refund_and_end" ? (sub.endedAt ?? new Date()) : sub.periodEnd;
     const props = {
-      ownerName: owner.name,
-      studioName: studio.name,
-      planName: templateOf(sub.studioId, sub.templateId).name,
-      pieceTitle: piece.title,
+      ...context.names,
       charged: formatMoney(held.amountMinor, held.currency, studio.country),
       price: formatMoney(sub.amountMinor, sub.currency, studio.country),
       decision,

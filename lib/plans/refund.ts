@@ -8,7 +8,7 @@
 // paid through Stripe with an idempotency key, audited, and mailed to the owner after commit.
 import { and, desc, eq, isNotNull } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
-import { planInvoices, planRefunds, pieces, studios, users, type PlanRefund, type PlanSubscription, type PlanTemplate } from "@/db/schema";
+import { planInvoices, planRefunds, type PlanRefund, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanEndedEmail, planEndedSubject } from "@/emails/plan-ended";
 import { recordAudit } from "@/lib/audit";
 import { conflict } from "@/lib/errors";
@@ -18,8 +18,8 @@ import { sendMail } from "@/lib/mail";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { callStripe } from "@/lib/payments/stripe";
 import { addPeriod } from "./periods";
+import { planMailContext } from "./plan-mail";
 import { pieceUrl } from "./subscriptions";
-import { templateOf } from "./templates";
 import type { PlanRefundRule } from "./terms";
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
@@ -183,18 +183,11 @@ export async function payRefund(refund: PlanRefund, sub: PlanSubscription): Prom
 /** Mails the owner, after the change is committed, when their plan ends and what (if anything) comes back. */
 export async function mailPlanEnding(sub: PlanSubscription, quote: RefundQuote, refund: PlanRefund | null, reason: PlanRefund["reason"]): Promise<void> {
   await mailAfterCommit("plan ending", async () => {
-    const db = getDb();
-    const owner = sub.ownerId ? db.select().from(users).where(eq(users.id, sub.ownerId)).get() : undefined;
-    if (!owner) return;
-    const piece = db.select().from(pieces).where(eq(pieces.id, sub.pieceId)).get()!;
-    const studio = db.select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
-    const zone = owner.timeZone || studio.timeZone;
-    const template = templateOf(sub.studioId, sub.templateId);
+    const context = planMailContext(sub);
+    if (!context) return;
+    const { owner, studio, piece, zone } = context;
     const props = {
-      ownerName: owner.name,
-      studioName: studio.name,
-      planName: template.name,
-      pieceTitle: piece.title,
+      ...context.names,
       reason,
       endsOn: `${formatInstant(quote.endsAt, zone)} (${formatZone(zone)})`,
       refund: refund ? formatMoney(refund.amountMinor, refund.currency, studio.country) : null,

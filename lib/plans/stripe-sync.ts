@@ -3,7 +3,7 @@
 // out-of-order events end in the one state Stripe holds. Event ids are recorded as the payments code does.
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { planInvoices, planSubscriptions, pieces, studios, stripeEvents, users, type PlanSubscription } from "@/db/schema";
+import { planInvoices, planSubscriptions, studios, stripeEvents, type PlanSubscription } from "@/db/schema";
 import { PlanGraceEmail, planGraceSubject } from "@/emails/plan-grace";
 import { recordAudit } from "@/lib/audit";
 import { formatInstant } from "@/lib/format/dates";
@@ -12,6 +12,7 @@ import { sendMail } from "@/lib/mail";
 import { callStripe, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
+import { planMailContext } from "./plan-mail";
 import { planPrice } from "./price";
 import { templateOf } from "./templates";
 
@@ -167,23 +168,17 @@ export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: s
 }
 
 async function mailGrace(sub: PlanSubscription) {
-  const db = getDb();
-  const owner = sub.ownerId ? db.select().from(users).where(eq(users.id, sub.ownerId)).get() : undefined;
-  if (!owner) return;
-  const piece = db.select().from(pieces).where(eq(pieces.id, sub.pieceId)).get()!;
-  const studio = db.select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
-  const template = templateOf(sub.studioId, sub.templateId);
+  const context = planMailContext(sub);
+  if (!context) return;
+  const { owner, studio, piece, zone, names } = context;
   await sendMail({
     studioId: sub.studioId,
     to: owner.email,
-    subject: planGraceSubject({ planName: template.name }),
+    subject: planGraceSubject(names),
     email: PlanGraceEmail({
-      ownerName: owner.name,
-      studioName: studio.name,
-      planName: template.name,
-      pieceTitle: piece.title,
+      ...names,
       amount: formatMoney(sub.amountMinor, sub.currency, studio.country),
-      graceEndsOn: formatInstant(sub.graceEndsAt ?? new Date(), owner.timeZone || studio.timeZone),
+      graceEndsOn: formatInstant(sub.graceEndsAt ?? new Date(), zone),
       url: pieceUrl(piece.id),
     }),
   });

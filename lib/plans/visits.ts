@@ -3,7 +3,7 @@
 // plan and due date — and proposes free times to the owner. Plans paid by other means end here at their period's end.
 import { and, eq, inArray, lte, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { finishProducts, planSubscriptions, planTemplates, planVisits, pieces, repairJobs, studios, users, type PlanSubscription, type PlanTemplate } from "@/db/schema";
+import { finishProducts, planSubscriptions, planTemplates, planVisits, pieces, repairJobs, studios, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanVisitEmail, planVisitSubject } from "@/emails/plan-visit";
 import { recordAudit } from "@/lib/audit";
 import { ownerActor } from "@/lib/auth/actor";
@@ -15,6 +15,7 @@ import { sendMail } from "@/lib/mail";
 import { jobUrl } from "@/lib/repairs/mail";
 import { priceJob, totals } from "@/lib/repairs/pricing";
 import { listJobSlots } from "@/lib/visits/slots";
+import { planMailContext } from "./plan-mail";
 import { PLAN_COVERS } from "./states";
 import { moveSubscription } from "./subscriptions";
 
@@ -71,27 +72,22 @@ function createVisitJob({ sub, template }: Live, dueOn: string): { jobId: string
 }
 
 async function proposeSlots(live: Live, jobId: string, dueOn: string) {
-  const db = getDb();
-  const owner = live.sub.ownerId ? db.select().from(users).where(eq(users.id, live.sub.ownerId)).get() : undefined;
-  if (!owner) return;
-  const job = db.select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
-  const piece = db.select().from(pieces).where(eq(pieces.id, live.sub.pieceId)).get()!;
-  const studio = db.select().from(studios).where(eq(studios.id, live.sub.studioId)).get()!;
+  const context = planMailContext(live.sub, live.template);
+  if (!context) return;
+  const { owner, studio, zone, names } = context;
+  const job = getDb().select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
   let slots: string[] = [];
   if (job.state === "covered") {
     const from = new Date(Math.max(Date.now(), Date.parse(`${addDays(dueOn, -7)}T00:00:00Z`)));
     const found = listJobSlots(ownerActor(owner), job.id, { from: from.toISOString(), to: new Date(from.getTime() + 14 * 86_400_000).toISOString() });
-    slots = found.slots.slice(0, 3).map((s) => formatInstant(s.start, owner.timeZone || studio.timeZone, { time: true }));
+    slots = found.slots.slice(0, 3).map((s) => formatInstant(s.start, zone, { time: true }));
   }
   await sendMail({
     studioId: studio.id,
     to: owner.email,
-    subject: planVisitSubject({ pieceTitle: piece.title }),
+    subject: planVisitSubject(names),
     email: PlanVisitEmail({
-      ownerName: owner.name,
-      studioName: studio.name,
-      planName: live.template.name,
-      pieceTitle: piece.title,
+      ...names,
       dueOn: formatDate(dueOn),
       price: job.totalMinor === 0 ? "It is included in your plan" : `Your share is ${formatMoney(job.totalMinor, job.currency, studio.country)}`,
       slots,
