@@ -3,10 +3,12 @@
 import { useRouter } from "next/navigation";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { CLAIM_CATEGORIES, CLAIM_EXCLUSION_LABELS, CLAIM_EXCLUSIONS, type ClaimCategory } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
+import { formatDate } from "@/lib/format";
 import type { ActionResult } from "@/lib/validation/action";
 import type { PolicyVersionInput } from "@/lib/validation/settings";
 
@@ -28,7 +30,7 @@ export function PolicyEditor({ values, earliest, latestVersion, action }: { valu
           min={earliest || undefined}
           {...register("effectiveFrom")}
           error={formState.errors.effectiveFrom?.message}
-          hint={latestVersion ? `Pieces delivered before ${effectiveFrom || "this date"} keep the version they were delivered with.` : "Pieces delivered on or after this date get these terms."}
+          hint={latestVersion ? `Pieces delivered before ${effectiveFrom ? formatDate(effectiveFrom) : "this date"} keep the terms they were delivered with.` : "Pieces delivered on or after this date get these terms."}
         />
       </div>
       {CLAIM_CATEGORIES.map((c) => {
@@ -56,7 +58,7 @@ export function PolicyEditor({ values, earliest, latestVersion, action }: { valu
                       </label>
                     ))}
                   </div>
-                  {e?.exclusions?.message ? <p className="text-sm text-danger">{e.exclusions.message}</p> : null}
+                  <ErrorLine>{e?.exclusions?.message}</ErrorLine>
                 </fieldset>
                 <div className="space-y-2 sm:col-span-2">
                   <p className="text-sm font-medium">Conditions</p>
@@ -91,7 +93,7 @@ export function PolicyEditor({ values, earliest, latestVersion, action }: { valu
         );
       })}
       <Button type="submit" disabled={formState.isSubmitting}>
-        {formState.isSubmitting ? "Saving…" : latestVersion ? `Save as version ${latestVersion + 1}` : "Save the first version"}
+        {formState.isSubmitting ? "Saving…" : latestVersion ? "Save as new terms" : "Save the warranty terms"}
       </Button>
     </form>
   );

@@ -10,6 +10,7 @@ import { assertRole, type StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { CURRENCY_EXPONENTS, formatMinorUnits } from "@/lib/care/quote";
 import { CLAIM_CATEGORIES, REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
+import { formatDate } from "@/lib/format";
 import { badRequest, unprocessable } from "@/lib/errors";
 import type {
   ProfileInput,
@@ -233,10 +234,10 @@ export function createPolicyVersion(ctx: StudioContext, v: PolicyVersionValues, 
     if (latest) {
       const earliest = latest.effectiveFrom > today ? latest.effectiveFrom : today;
       if (v.effectiveFrom < earliest) {
-        throw unprocessable("effective_too_early", "A new version can't start before today or before the newest version.", {
+        throw unprocessable("effective_too_early", "New terms can't start before today or before the newest terms.", {
           effectiveFrom: [
             latest.effectiveFrom > today
-              ? `Version ${latest.version} starts ${latest.effectiveFrom}; start this one on that day or later.`
+              ? `The newest terms are for deliveries from ${formatDate(latest.effectiveFrom)}; start these on that day or later.`
               : `Start on ${today} (today) or later: pieces already delivered keep the terms they were delivered with.`,
           ],
         });

@@ -138,10 +138,10 @@ test("settings: profile, warranty versions (a date before today is refused next 
   await noSeriousAxe(page, "settings profile");
 
   await page.goto("/studio/settings/warranty");
-  await expect(page.getByRole("heading", { name: "Versions" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Saved terms" })).toBeVisible();
   await expect(page.getByText("In force for new deliveries")).toBeVisible();
   await page.getByLabel("Effective from (delivery date)").fill("2020-01-01");
-  await page.getByRole("button", { name: /Save as version 2/ }).click();
+  await page.getByRole("button", { name: "Save as new terms" }).click();
   await expect(page.getByText(/Start on \d{4}-\d{2}-\d{2} \(today\) or later/)).toBeVisible();
   await noSeriousAxe(page, "warranty editor");
   await page.screenshot({ path: `${SHOTS}/warranty-1280.png`, fullPage: true });

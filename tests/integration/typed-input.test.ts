@@ -101,7 +101,7 @@ describe("settings: the profile, reminder timing, visit rules and warranty versi
     const line: PolicyVersionInput["lines"]["other"] = { covered: true, label: "Test line (invented)", termMonths: 24, exclusions: [], careLogRequired: false, graceDays: 30, onMissed: "partly_covered", climateCheck: false, partlyCoveredPct: 50, transfersToNewOwner: true };
     const lines = Object.fromEntries(CLAIM_CATEGORIES.map((c) => [c, line])) as PolicyVersionInput["lines"];
     const saved = await createPolicyVersionAction({ effectiveFrom: "2027-03-01", lines });
-    expect(saved).toMatchObject({ ok: true, message: "Version 1 saved; it applies to pieces delivered from 1 March 2027." });
+    expect(saved).toMatchObject({ ok: true, message: "Warranty terms for deliveries from 1 March 2027 saved. Pieces delivered before then keep the terms they had." });
   });
 });
 

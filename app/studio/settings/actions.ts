@@ -2,7 +2,7 @@
 
 import { action } from "@/lib/http/action";
 import { revalidatePath } from "next/cache";
-import { formatDate } from "@/lib/format";
+import { warrantyTermsName } from "@/lib/claims/coverage";
 import { createPolicyVersion, updateProfile, updateReminderTiming, updateVisitRules } from "@/lib/settings";
 import { policyVersionSchema, profileSchema, reminderTimingSchema, visitRulesSchema } from "@/lib/validation/settings";
 
@@ -21,7 +21,7 @@ export const saveReminderTimingAction = action({ roles: ["admin"], schema: remin
 export const createPolicyVersionAction = action({ roles: ["admin"], schema: policyVersionSchema }, async (input, ctx) => {
   const row = createPolicyVersion(ctx, input);
   revalidatePath("/studio/settings/warranty");
-  return { ok: true as const, data: { version: row.version }, message: `Version ${row.version} saved; it applies to pieces delivered from ${formatDate(row.effectiveFrom)}.` };
+  return { ok: true as const, data: { version: row.version }, message: `${warrantyTermsName(row.effectiveFrom)} saved. Pieces delivered before then keep the terms they had.` };
 });
 
 export const saveVisitRulesAction = action({ roles: ["admin"], schema: visitRulesSchema }, async (input, ctx) => {

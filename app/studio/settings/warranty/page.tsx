@@ -4,7 +4,8 @@ import { Card } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
 import { requireAdmin } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatDate, formatInstant } from "@/lib/format";
+import { warrantyTermsName } from "@/lib/claims/coverage";
+import { formatInstant } from "@/lib/format";
 import { listPolicyVersions, policyEditorValues } from "@/lib/settings";
 import { createPolicyVersionAction } from "../actions";
 
@@ -20,20 +21,19 @@ export default async function WarrantySettingsPage() {
         <div>
           <h2 className="font-display text-xl font-semibold">Warranty policy</h2>
           <p className="text-sm text-muted">
-            Saving makes a new version that applies from the date you choose. Every piece keeps the version in force on its delivery date, so changes never reach back to pieces already delivered. The coverage check on each claim reads the piece&apos;s own version.
+            Saving makes new terms for pieces delivered from the date you choose. Every piece keeps the terms in force on its delivery date, so changes never reach back to pieces already delivered. The coverage check on each claim reads the piece&apos;s own terms.
           </p>
         </div>
         <PolicyEditor values={editor.values} earliest={editor.earliest} latestVersion={editor.latestVersion} action={createPolicyVersionAction} />
       </Card>
       <Card>
-        <h2 className="mb-3 font-semibold">Versions</h2>
+        <h2 className="mb-3 font-semibold">Saved terms</h2>
         {versions.length ? (
           <ol className="divide-y divide-line">
             {versions.map((v) => (
               <li key={v.id} className="py-3">
                 <p className="flex flex-wrap items-center gap-2">
-                  <strong>Version {v.version}</strong>
-                  <span className="text-sm text-muted">for deliveries from {formatDate(v.effectiveFrom)}</span>
+                  <strong>{warrantyTermsName(v.effectiveFrom)}</strong>
                   {v.current ? <StatusBadge tone="ok" label="In force for new deliveries" /> : v.upcoming ? <StatusBadge tone="waiting" label="Starts later" /> : <StatusBadge tone="stopped" label="Earlier deliveries" />}
                 </p>
                 <p className="text-sm text-muted">
@@ -49,7 +49,7 @@ export default async function WarrantySettingsPage() {
             ))}
           </ol>
         ) : (
-          <p className="text-sm text-muted">No version yet. Pieces recorded now carry no warranty terms until the first version is saved.</p>
+          <p className="text-sm text-muted">No warranty terms yet. Pieces recorded now carry none until the first terms are saved.</p>
         )}
       </Card>
     </div>

@@ -106,7 +106,7 @@ function StepBody({ step, ctx }: { step: SetupStep; ctx: Ctx }): ReactNode {
               These terms are a starting point we wrote, not advice for your studio. Read every line, change what does not fit your work and your local consumer law, then save.
             </Notice>
           ) : (
-            <p className="text-sm text-muted">Version {editor.latestVersion} is saved. Saving again makes a new version for later deliveries; the full history is in Settings.</p>
+            <p className="text-sm text-muted">Your warranty terms are saved. Saving again makes new terms for later deliveries; every set you saved is listed in Settings.</p>
           )}
           <PolicyEditor values={start.values} earliest={editor.earliest} latestVersion={editor.latestVersion} action={createPolicyVersionAction} />
         </>
