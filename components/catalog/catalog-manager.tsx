@@ -10,6 +10,7 @@ import { apiJson, callApi } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { numberOrNull } from "@/components/forms/field-values";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
@@ -57,7 +58,7 @@ function MoneyField({ label, currency, value, onChange, error }: { label: string
         }}
         className="block min-h-11 w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
       />
-      {error ? <p className="text-sm font-medium text-danger">{error}</p> : null}
+      <ErrorLine>{error}</ErrorLine>
     </div>
   );
 }

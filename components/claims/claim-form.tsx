@@ -7,6 +7,7 @@ import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button, ButtonLink } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
@@ -126,11 +127,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
           queue.add(f);
         }}
       />
-      {photoError ? (
-        <p role="alert" className="text-sm font-medium text-danger">
-          {photoError}
-        </p>
-      ) : null}
+      <ErrorLine>{photoError}</ErrorLine>
       <PhotoQueueList
         items={queue.items}
         busy={busy}
@@ -199,9 +196,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
             {...register("description")}
           />
           {errors.description ? (
-            <p role="alert" className="text-sm font-medium text-danger">
-              {errors.description.message}
-            </p>
+            <ErrorLine>{errors.description.message}</ErrorLine>
           ) : (
             <p id="claim-description-hint" className="text-sm text-muted">
               Where on the piece, how big, and whether it has changed since you first saw it.
@@ -230,11 +225,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
                   </label>
                 ))}
               </div>
-              {err ? (
-                <p role="alert" className="text-sm font-medium text-danger">
-                  {err}
-                </p>
-              ) : null}
+              <ErrorLine>{err}</ErrorLine>
             </fieldset>
           );
         })}

@@ -5,6 +5,7 @@ import { useForm } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { cn } from "@/components/ui/cn";
 import type { claimMessageSchema } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
@@ -73,11 +74,7 @@ export function MessageThread({
             className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
             {...form.register("body")}
           />
-          {form.formState.errors.body ? (
-            <p role="alert" className="text-sm font-medium text-danger">
-              {form.formState.errors.body.message}
-            </p>
-          ) : null}
+          <ErrorLine>{form.formState.errors.body?.message}</ErrorLine>
           <div className="flex flex-wrap items-center gap-3">
             {canAskForInfo ? (
               <label className="flex min-h-11 items-center gap-2 text-sm">

@@ -6,6 +6,7 @@ import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
@@ -84,11 +85,7 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
             </label>
           ))}
         </div>
-        {errors.decision ? (
-          <p role="alert" className="text-sm font-medium text-danger">
-            {errors.decision.message}
-          </p>
-        ) : null}
+        <ErrorLine>{errors.decision?.message}</ErrorLine>
       </fieldset>
       {decision === "partly_covered" ? (
         <TextField
@@ -112,11 +109,7 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
           className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
           {...form.register("reason")}
         />
-        {errors.reason ? (
-          <p role="alert" className="text-sm font-medium text-danger">
-            {errors.reason.message}
-          </p>
-        ) : null}
+        <ErrorLine>{errors.reason?.message}</ErrorLine>
       </div>
       <Button type="submit" disabled={form.formState.isSubmitting}>
         <Gavel aria-hidden className="size-5" /> {form.formState.isSubmitting ? "Saving…" : "Record the decision"}

@@ -7,6 +7,7 @@ import type { FieldValues, UseFormRegister, UseFormSetValue } from "react-hook-f
 import { apiJson } from "@/components/api-client";
 import { TextField } from "@/components/ui/field";
 import type { ClientPage } from "@/lib/clients/list";
+import { ErrorLine } from "@/components/ui/error-line";
 
 type Errors = Record<string, { message?: string } | undefined>;
 
@@ -103,11 +104,7 @@ export function BuyerFields({ register, setValue, watch, errors }: { register: U
             </p>
           ) : null}
           <input type="hidden" {...register("buyerClientId")} />
-          {errors.buyerClientId?.message ? (
-            <p role="alert" className="text-sm font-medium text-danger">
-              {errors.buyerClientId.message}
-            </p>
-          ) : null}
+          <ErrorLine>{errors.buyerClientId?.message}</ErrorLine>
         </div>
       ) : null}
 

@@ -7,6 +7,7 @@ import { toast } from "sonner";
 import { ApiError, apiJson } from "@/components/api-client";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { ZoneSelect } from "@/components/ui/zone-select";
 import { zoneLabel, type ZoneChoices } from "@/lib/format";
@@ -84,20 +85,16 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
           Postal address
         </label>
         <textarea id="client-address" rows={3} className={textarea} aria-invalid={errors.address ? true : undefined} {...form.register("address")} />
-        {errors.address ? <p role="alert" className="text-sm font-medium text-danger">{errors.address.message}</p> : null}
+        <ErrorLine>{errors.address?.message}</ErrorLine>
       </div>
       <div className="space-y-1.5">
         <label htmlFor="client-notes" className="block text-sm font-medium">
           Notes for the studio
         </label>
         <textarea id="client-notes" rows={3} className={textarea} aria-invalid={errors.notes ? true : undefined} {...form.register("notes")} />
-        {errors.notes ? <p role="alert" className="text-sm font-medium text-danger">{errors.notes.message}</p> : null}
+        <ErrorLine>{errors.notes?.message}</ErrorLine>
       </div>
-      {errors.root ? (
-        <p role="alert" className="text-sm font-medium text-danger">
-          {errors.root.message}
-        </p>
-      ) : null}
+      <ErrorLine>{errors.root?.message}</ErrorLine>
       <Button type="submit" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting ? "Saving…" : client ? "Save contact details" : "Add client"}
       </Button>

@@ -6,6 +6,7 @@ import { useForm } from "react-hook-form";
 import { toast } from "sonner";
 import { ApiError, apiJson } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { CONSENT_KIND_LABELS, CONSENT_KINDS, CONSENT_SOURCE_LABELS, CONSENT_SOURCES, type ConsentKind, type ConsentSource } from "@/lib/clients/vocabulary";
 
@@ -56,11 +57,7 @@ export function ConsentForm({ clientId, current, today }: { clientId: string; cu
         </SelectField>
       </div>
       <TextField label="Note (optional)" maxLength={500} {...form.register("note")} />
-      {errors.root ? (
-        <p role="alert" className="text-sm font-medium text-danger">
-          {errors.root.message}
-        </p>
-      ) : null}
+      <ErrorLine>{errors.root?.message}</ErrorLine>
       <Button type="submit" variant="secondary" disabled={form.formState.isSubmitting}>
         Record
       </Button>

@@ -6,6 +6,7 @@ import { toast } from "sonner";
 import { apiJson } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { Card } from "@/components/ui/card";
 import type { HandoverStatus } from "@/lib/pieces/handover";
 import { formatInstant } from "@/lib/format";
@@ -52,11 +53,7 @@ export function HandoverCard({ pieceId, status }: { pieceId: string; status: Han
         <p className="text-sm text-muted">Not sent.</p>
       )}
       {status.blockMessage ? <p className="text-sm text-muted">{status.blockMessage}</p> : null}
-      {error ? (
-        <p role="alert" className="text-sm font-medium text-danger">
-          {error}
-        </p>
-      ) : null}
+      <ErrorLine>{error}</ErrorLine>
       {!status.block ? (
         <Button variant="secondary" onClick={send} disabled={busy}>
           <Mail aria-hidden className="size-4" /> {busy ? "Sending…" : status.sendCount ? "Send it again" : "Send the hand-over mail"}

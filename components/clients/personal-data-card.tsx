@@ -6,6 +6,7 @@ import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { Card } from "@/components/ui/card";
 
 type Erased = { erased: { pieces: number; photos: number; claims: number; messages: number } };
@@ -41,11 +42,7 @@ export function PersonalDataCard({ clientId, name, erased }: { clientId: string;
             <input type="checkbox" checked={confirm} onChange={(e) => setConfirm(e.target.checked)} className="size-5" />
             They asked to be erased, and I understand this can&apos;t be undone
           </label>
-          {error ? (
-            <p role="alert" className="text-sm font-medium text-danger">
-              {confirmError ?? error}
-            </p>
-          ) : null}
+          <ErrorLine>{error ? confirmError ?? error : null}</ErrorLine>
           <Button variant="danger" onClick={erase} disabled={busy}>
             <Trash2 aria-hidden className="size-4" /> {busy ? "Erasing…" : "Erase this client"}
           </Button>

@@ -8,6 +8,7 @@ import type { MessageFormInput } from "@/lib/validation/messages";
 import { ApiError, apiJson } from "@/components/api-client";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 
 /**
  * Writes one message: an owner's about their claim, job or visit (`/api/threads` with `about`), or a
@@ -42,11 +43,7 @@ export function MessageForm({ endpoint, extra, label, sentText, submitText = "Se
         className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
         {...form.register("body")}
       />
-      {error ? (
-        <p id={`${id}-error`} role="alert" className="text-sm font-medium text-danger">
-          {error.message}
-        </p>
-      ) : null}
+      <ErrorLine id={`${id}-error`}>{error?.message}</ErrorLine>
       <Button type="submit" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting ? "Sending…" : submitText}
       </Button>

@@ -6,6 +6,7 @@ import { useFieldArray, useForm } from "react-hook-form";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { formatMinorUnits } from "@/lib/care/quote";
@@ -119,7 +120,7 @@ export function QuoteBuilder({
                   </label>
                 ))}
               </div>
-              {formState.errors.tasks ? <p role="alert" className="text-sm text-danger">{formState.errors.tasks.message}</p> : null}
+              <ErrorLine>{formState.errors.tasks?.message}</ErrorLine>
             </fieldset>
             <fieldset className="space-y-2">
               <legend className="text-sm font-medium">Products from the catalog</legend>

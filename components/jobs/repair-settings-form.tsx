@@ -3,6 +3,7 @@
 import { useFieldArray } from "react-hook-form";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import type { ActionResult } from "@/lib/validation/action";
@@ -69,7 +70,7 @@ export function RepairSettingsForm({
       <fieldset className="space-y-3">
         <legend className="font-semibold">Repair price list</legend>
         <p className="text-sm text-muted">Default prices in {currency}. Leave the price of an hourly task empty to charge your labour rate.</p>
-        {e.priceList?.message ? <p role="alert" className="text-sm text-danger">{e.priceList.message}</p> : null}
+        <ErrorLine>{e.priceList?.message}</ErrorLine>
         <ol className="space-y-3">
           {list.fields.map((f, i) => (
             <li key={f.id} className="grid gap-3 rounded-lg border border-line bg-white p-3 sm:grid-cols-[2fr_1fr_1fr_1fr_auto] sm:items-end">

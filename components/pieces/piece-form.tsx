@@ -8,6 +8,7 @@ import { toast } from "sonner";
 import { BuyerFields } from "@/components/clients/buyer-fields";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { PIECE_KINDS, PIECE_KIND_LABELS, RESIN_KINDS, RESIN_LABELS, SHAPE_KINDS, SUN_EXPOSURES, SUN_LABELS, USES, USE_LABELS } from "@/lib/care/vocabulary";
@@ -186,7 +187,7 @@ export function PieceForm({
             Internal notes <span className="font-normal text-muted">(staff only)</span>
           </label>
           <textarea id="internal-notes" rows={3} {...reg("internalNotes")} className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin" />
-          {errors.internalNotes?.message ? <p className="text-sm font-medium text-danger">{errors.internalNotes.message}</p> : null}
+          <ErrorLine>{errors.internalNotes?.message}</ErrorLine>
         </div>
       </Section>
 

@@ -4,6 +4,7 @@ import { Check } from "lucide-react";
 import { useId, useMemo, useState } from "react";
 import { cn } from "@/components/ui/cn";
 import { SPECIES } from "@/lib/care/species";
+import { ErrorLine } from "@/components/ui/error-line";
 
 const key = (s: string) => s.toLowerCase().replace(/[\s_-]+/g, "");
 
@@ -110,11 +111,7 @@ export function SpeciesPicker({
           ))}
         </ul>
       ) : null}
-      {error ? (
-        <p role="alert" className="text-sm font-medium text-danger">
-          {error}
-        </p>
-      ) : null}
+      <ErrorLine>{error}</ErrorLine>
     </div>
   );
 }

@@ -2,6 +2,7 @@
 
 import { useId, useState } from "react";
 import { cn } from "@/components/ui/cn";
+import { ErrorLine } from "@/components/ui/error-line";
 
 export type UnitSystem = "metric" | "imperial";
 
@@ -95,11 +96,7 @@ export function UnitNumberField({
           {hint}
         </p>
       ) : null}
-      {error ? (
-        <p id={`${id}-e`} role="alert" className="text-sm font-medium text-danger">
-          {error}
-        </p>
-      ) : null}
+      <ErrorLine id={`${id}-e`}>{error}</ErrorLine>
     </div>
   );
 }

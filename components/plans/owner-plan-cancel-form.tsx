@@ -6,6 +6,7 @@ import { useState } from "react";
 import { apiJson } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { formatInstant, formatMoney, formatZone } from "@/lib/format";
 import type { OwnerPlanControl } from "@/lib/plans/cancel";
 
@@ -21,11 +22,7 @@ export function OwnerPlanCancelForm({ control, timeZone, country }: { control: O
   const day = (ms: number) => `${formatInstant(ms, timeZone)} (${formatZone(timeZone)})`;
   const money = (minor: number) => formatMoney(minor, control.quote?.currency ?? "USD", country);
 
-  const alert = error ? (
-    <p role="alert" className="text-sm text-danger">
-      {error}
-    </p>
-  ) : null;
+  const alert = <ErrorLine>{error}</ErrorLine>;
 
   if (control.state === "ending") {
     return (

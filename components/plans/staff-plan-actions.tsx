@@ -6,6 +6,7 @@ import { useState } from "react";
 import { apiJson } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 
 export type StaffPlanAction =
   | { kind: "cancel"; subscriptionId: string; version: number; refundMinor: number; endsOn: string; refundWords: string }
@@ -20,11 +21,7 @@ export function StaffPlanActions({ action }: { action: StaffPlanAction }) {
   );
   if (action.kind === "none") return null;
   const send = (path: "cancel" | "keep", json: Record<string, number>) => run({ path, json });
-  const alert = error ? (
-    <p role="alert" className="text-sm text-danger">
-      {error}
-    </p>
-  ) : null;
+  const alert = <ErrorLine>{error}</ErrorLine>;
 
   if (action.kind === "keep") {
     return (

@@ -2,6 +2,7 @@
 import { apiJson } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 
 const field = "w-full rounded-lg border border-line bg-card px-3 py-2";
 
@@ -31,11 +32,7 @@ export function StartPlanForm({ pieceId, pieceTitle, options }: { pieceId: strin
       <Button type="submit" variant="secondary" disabled={busy}>
         {busy ? "Starting…" : "Start the plan (paid by other means)"}
       </Button>
-      {error ? (
-        <p role="alert" className="text-sm text-danger">
-          {error}
-        </p>
-      ) : null}
+      <ErrorLine>{error}</ErrorLine>
     </form>
   );
 }

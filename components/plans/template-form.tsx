@@ -5,6 +5,7 @@ import { toast } from "sonner";
 import { ApiError, apiJson } from "@/components/api-client";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS, CLAIM_CATEGORIES, FINISH_CLASS_LABELS, FINISH_CLASSES, PIECE_KIND_LABELS, PIECE_KINDS, type ClaimCategory } from "@/lib/care/vocabulary";
 import { templateFormValues, templateInputOf, type TemplateFormValues } from "@/lib/validation/plan-template-form";
@@ -13,14 +14,6 @@ import type { PlanTemplateInput } from "@/lib/plans/validation";
 const box = "inline-flex min-h-11 items-center gap-2 mr-4";
 const legend = "text-sm font-medium text-ink";
 const textarea = "block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger";
-
-function Problem({ message }: { message?: string }) {
-  return message ? (
-    <p role="alert" className="text-sm font-medium text-danger">
-      {message}
-    </p>
-  ) : null;
-}
 
 /**
  * A plan template: a new plan (POST /api/plans) or a change to one (PUT /api/plans/[id], which saves
@@ -76,7 +69,7 @@ export function PlanTemplateForm({
           What owners read about it
         </label>
         <textarea id={`summary-${id}`} rows={2} className={textarea} aria-invalid={errors.summary ? true : undefined} {...form.register("summary")} />
-        <Problem message={errors.summary?.message} />
+        <ErrorLine>{errors.summary?.message}</ErrorLine>
       </div>
       <TextField label={`Price (${currency}, before tax)`} inputMode="decimal" autoComplete="off" hint={taxNote} error={errors.price?.message} {...form.register("price")} />
       <SelectField label="Billed" error={errors.interval?.message} {...form.register("interval")}>
@@ -141,7 +134,7 @@ export function PlanTemplateForm({
         <Button type="submit" disabled={form.formState.isSubmitting}>
           {form.formState.isSubmitting ? "Saving…" : template ? "Save as a new version" : "Add the plan"}
         </Button>
-        <Problem message={errors.root?.message} />
+        <ErrorLine>{errors.root?.message}</ErrorLine>
       </div>
     </form>
   );

@@ -1,5 +1,6 @@
 import { forwardRef, useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
 import { cn } from "./cn";
+import { ErrorLine } from "./error-line";
 
 const control =
   "block w-full min-h-11 rounded-lg border border-line bg-white px-3 py-2 text-base text-ink placeholder:text-muted/70 focus:border-resin aria-[invalid=true]:border-danger";
@@ -18,11 +19,7 @@ function FieldShell({ id, label, error, hint, children }: FieldProps & { id: str
           {hint}
         </p>
       ) : null}
-      {error ? (
-        <p id={`${id}-error`} role="alert" className="text-sm font-medium text-danger">
-          {error}
-        </p>
-      ) : null}
+      <ErrorLine id={`${id}-error`}>{error}</ErrorLine>
     </div>
   );
 }

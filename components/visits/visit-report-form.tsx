@@ -6,6 +6,7 @@ import { useState } from "react";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
+import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
@@ -106,7 +107,7 @@ export function VisitReportForm({
           className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base aria-[invalid=true]:border-danger"
           {...form.register("work")}
         />
-        {errors.work ? <p role="alert" className="text-sm font-medium text-danger">{errors.work.message}</p> : null}
+        <ErrorLine>{errors.work?.message}</ErrorLine>
       </div>
 
       <fieldset className="space-y-3">

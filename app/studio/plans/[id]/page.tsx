@@ -63,7 +63,7 @@ export default async function StudioPlanPage({ params }: { params: Promise<{ id:
               </Link>
             </p>
           ) : null}
-          {detail.transferPending ? <FinishTransferButton subscriptionId={sub.id} words={detail.transferPending} /> : null}
+          <FinishTransferButton subscriptionId={sub.id} words={detail.transferPending} timeZone={tz} />
           <StaffPlanActions action={action} />
         </Card>
         <Card className="space-y-2">
