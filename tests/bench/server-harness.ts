@@ -11,9 +11,9 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
 import Database from "better-sqlite3";
-import journal from "../../db/migrations/meta/_journal.json";
 import { openDatabase } from "../../db/client";
 import { applyMigrations } from "../../db/migrate";
+import { keptSeed } from "./seed-cache";
 import { seedRegistry } from "./seed-registry";
 
 export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
@@ -38,38 +38,20 @@ export function buildOnce(): void {
 
 export type Seeded = { studioId: string; staffUserId: string; pieces: number; owners: number };
 
-/** A fresh copy of the seeded registry in `dir`; the seed itself is made once per migration set and size. */
+/** A fresh copy of the seeded registry in `dir`; the seed itself is made once per migration set and size (tests/bench/seed-cache.ts). */
 export function seededCopy(dir: string, size = PIECES): { dbFile: string; seeded: Seeded } {
-  const cacheDir = path.join(root, "tests/.tmp");
-  const cache = path.join(cacheDir, `bench-seed-${size}-m${journal.entries.length}.db`);
-  if (!fs.existsSync(`${cache}.json`)) {
-    fs.mkdirSync(cacheDir, { recursive: true });
-    for (const f of [cache, `${cache}-wal`, `${cache}-shm`]) fs.rmSync(f, { force: true });
-    const t = performance.now();
-    // A seed made before the newest migrations is brought forward (much faster than seeding again).
-    const older = fs
-      .readdirSync(cacheDir)
-      .map((f) => new RegExp(`^bench-seed-${size}-m(\\d+)\\.db\\.json$`).exec(f))
-      .filter((m): m is RegExpExecArray => !!m && Number(m[1]) < journal.entries.length)
-      .sort((a, b) => Number(b[1]) - Number(a[1]))[0];
-    if (older) {
-      const from = path.join(cacheDir, older[0].replace(/\.json$/, ""));
-      fs.copyFileSync(from, cache);
-      const db = openDatabase(cache);
-      applyMigrations(db);
-      db.$client.pragma("wal_checkpoint(TRUNCATE)");
-      db.$client.close();
-      fs.copyFileSync(`${from}.json`, `${cache}.json`);
-      console.log(`brought the ${size.toLocaleString("en")}-piece seed from migration ${older[1]} to ${journal.entries.length} in ${((performance.now() - t) / 1000).toFixed(1)} s`);
-    } else {
-      const s = seedRegistry(cache, size);
-      fs.writeFileSync(`${cache}.json`, JSON.stringify(s));
-      console.log(`seeded ${s.pieces.toLocaleString("en")} pieces (${s.owners} owners) in ${((performance.now() - t) / 1000).toFixed(1)} s`);
-    }
-  }
+  const t = performance.now();
+  const migrate = (file: string) => {
+    const db = openDatabase(file);
+    applyMigrations(db);
+    db.$client.pragma("wal_checkpoint(TRUNCATE)");
+    db.$client.close();
+  };
+  const kept = keptSeed("bench-seed", size, (file) => seedRegistry(file, size), migrate);
+  if (kept.how !== "kept") console.log(`${kept.how} the ${size.toLocaleString("en")}-piece seed (${kept.meta.owners} owners) in ${((performance.now() - t) / 1000).toFixed(1)} s`);
   const dbFile = path.join(dir, `bench-${size}.db`);
-  fs.copyFileSync(cache, dbFile);
-  return { dbFile, seeded: JSON.parse(fs.readFileSync(`${cache}.json`, "utf8")) as Seeded };
+  fs.copyFileSync(kept.file, dbFile);
+  return { dbFile, seeded: kept.meta };
 }
 
 /** A session row as lucia stores it (the id is the cookie token's SHA-256); returns the cookie header. */
