@@ -13,12 +13,12 @@ import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stri
 import { addDays, localDate } from "@/lib/care/dates";
 import { cancelMyPlan, myPlanControl } from "@/lib/plans/cancel";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
-import { createJob, getStudioJob } from "@/lib/repairs/jobs";
-import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
+import { approveJob, cancelJob, handleStripeWebhook } from "@/lib/repairs/payment";
 import { saveStripeWebhookSecret } from "@/lib/studio/setup-payments";
 import { saveStripeKey } from "@/lib/studio/setup-steps";
-import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { buyPlan, knob, subRow, yearlyPlan } from "../support/plans-stripe";
+import { quotedRepairJob } from "../support/repair-quote";
 import { startWebhookReceiver, until, type WebhookReceiver } from "../support/stripe-receiver";
 
 const A = { secretKey: "sk_test_later_key_invented_61c3", webhookSecret: "whsec_later_key_invented_0d9e" };
@@ -68,15 +68,8 @@ async function paidPlan() {
 }
 
 async function paidRepair() {
-  const staff = await memberContext(studio, "staff");
-  const owner = await createUser();
-  const { piece } = createPiece(studio, { ownerId: owner.id });
-  const product = createProduct(studio, { containers: [{ ml: 125, priceMinor: 1900 }] });
-  const claim = createAcceptedClaim(studio, piece.id, owner.id, "chargeable", 0);
-  const job = createJob(staff, "claim", claim.id);
-  await updateJobQuote(staff, job.id, { title: "Refresh the top", tasks: ["reoil"], productIds: [product.id], coats: 1, travel: false, coveredPct: job.coveredPct, notes: "" });
-  await sendQuote(staff, job.id);
-  const { checkoutUrl } = await approveJob(owner, getStudioJob(staff, job.id).job.id);
+  const { staff, owner, job } = await quotedRepairJob(studio);
+  const { checkoutUrl } = await approveJob(owner, job.id);
   await fetch(checkoutUrl!, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
   await until(() => jobState(job.id) === "paid");
   return { staff, job };

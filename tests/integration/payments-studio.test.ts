@@ -10,11 +10,11 @@ import { getDb } from "@/db/client";
 import { auditLog, payments, repairJobs, studios } from "@/db/schema";
 import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { getStripe } from "@/lib/payments/stripe";
-import { createJob, getStudioJob } from "@/lib/repairs/jobs";
-import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
+import { approveJob, cancelJob, handleStripeWebhook } from "@/lib/repairs/payment";
 import { saveStripeWebhookSecret, stripeAccountStatus } from "@/lib/studio/setup-payments";
 import { saveStripeKey } from "@/lib/studio/setup-steps";
-import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { createStudio, memberContext, unique } from "../support/fixtures";
+import { quotedRepairJob } from "../support/repair-quote";
 import { startWebhookReceiver, until, type WebhookReceiver } from "../support/stripe-receiver";
 
 // Invented keys of two studios' own (test-mode) Stripe accounts.
@@ -50,18 +50,6 @@ afterAll(async () => {
   await receiver.close();
 });
 
-async function quotedJob(studio: ReturnType<typeof createStudio>) {
-  const staff = await memberContext(studio, "staff");
-  const owner = await createUser();
-  const { piece } = createPiece(studio, { ownerId: owner.id });
-  const product = createProduct(studio, { containers: [{ ml: 125, priceMinor: 1900 }] });
-  const claim = createAcceptedClaim(studio, piece.id, owner.id, "chargeable", 0);
-  const job = createJob(staff, "claim", claim.id);
-  await updateJobQuote(staff, job.id, { title: "Refresh the top", tasks: ["reoil"], productIds: [product.id], coats: 1, travel: false, coveredPct: job.coveredPct, notes: "" });
-  await sendQuote(staff, job.id);
-  return { staff, owner, job: getStudioJob(staff, job.id).job };
-}
-
 const jobState = (id: string) => getDb().select({ s: repairJobs.state }).from(repairJobs).where(eq(repairJobs.id, id)).get()!.s;
 
 /** Posts to the studio's webhook route as Stripe would. */
@@ -92,7 +80,7 @@ describe("a studio's own Stripe account", () => {
   });
 
   it("checkout, its webhook and the refund of a studio with its own key all run under that key", async () => {
-    const { owner, job, staff } = await quotedJob(studioA);
+    const { owner, job, staff } = await quotedRepairJob(studioA);
     const before = fake.requests().length;
     const { checkoutUrl } = await approveJob(owner, job.id);
     const session = fake.sessions().find((s) => s.client_reference_id === job.id)!;
@@ -120,7 +108,7 @@ describe("a studio's own Stripe account", () => {
 
   it("a studio without its own key is charged under the install's key", async () => {
     const studioB = createStudio({ email: `${unique("b")}@test.example`, currency: "USD", labourRateMinor: 8000, taxRateBp: 0 });
-    const { owner, job } = await quotedJob(studioB);
+    const { owner, job } = await quotedRepairJob(studioB);
     await approveJob(owner, job.id);
     const session = fake.sessions().find((s) => s.client_reference_id === job.id)!;
     expect(fake.sessionKey(session.id)).toBe(INSTALL_KEY);
@@ -128,7 +116,7 @@ describe("a studio's own Stripe account", () => {
   });
 
   it("a webhook signed with another studio's secret is refused at the studio's endpoint, and nothing changes", async () => {
-    const { owner, job } = await quotedJob(studioA);
+    const { owner, job } = await quotedRepairJob(studioA);
     await approveJob(owner, job.id);
     const session = fake.sessions().find((s) => s.client_reference_id === job.id)!;
     const payload = JSON.stringify({ id: `evt_${unique("forged")}`, object: "event", type: "checkout.session.completed", data: { object: { id: session.id } } });

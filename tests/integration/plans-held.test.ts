@@ -3,36 +3,26 @@
 // settle it (keep it, pay back the difference, or pay it all back and end the plan). Money moves only
 // when the plan version, held amount and refund confirmed are the current ones. Real stripe SDK against
 // the local Stripe fake over HTTP (its renew knob bills another amount). Invented studio and owners.
-import { and, eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, planInvoices, type PlanSubscription } from "@/db/schema";
+import { planInvoices, type PlanSubscription } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { AppError } from "@/lib/errors";
-import type { StripeFake } from "@/lib/fakes/stripe-fake";
 import { myPlanControl, studioPlanDetail } from "@/lib/plans/cancel";
 import { heldSettledForStaff, resolveHeldPayment, type HeldAsk } from "@/lib/plans/held";
 import { planOverview, studioPlanRow } from "@/lib/plans/overview";
 import { syncPlanSubscription } from "@/lib/plans/stripe-sync";
-import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
-import { buyPlan, knob, startPlansStripe, subRow, until, yearlyPlan } from "../support/plans-stripe";
+import { buyPlan, knob, plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
 
-let fake: StripeFake;
-let closeStripe: () => Promise<void>;
-
-beforeAll(async () => {
-  ({ fake, close: closeStripe } = await startPlansStripe());
-});
-
-afterAll(() => closeStripe());
-
-const audits = (subId: string, action: string) => getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, subId), eq(auditLog.action, action))).all();
+const stripe = plansStripeForFile();
 const invoiceRow = (id: string) => getDb().select().from(planInvoices).where(eq(planInvoices.id, id)).get()!;
 /** What the fake's charge book says was refunded of a Stripe invoice's payment. */
 const refundedOf = (stripeInvoiceId: string) => {
-  const pi = fake.invoices().find((i) => i.id === stripeInvoiceId)!.payments.data[0]!.payment.payment_intent;
-  return fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded;
+  const pi = stripe.fake.invoices().find((i) => i.id === stripeInvoiceId)!.payments.data[0]!.payment.payment_intent;
+  return stripe.fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded;
 };
 const settle = (admin: Awaited<ReturnType<typeof memberContext>>, subId: string, ask: HeldAsk) => resolveHeldPayment(admin, subId, ask).catch((e: unknown) => e);
 
@@ -43,11 +33,11 @@ async function heldRenewal(amount: number) {
   const owner = await createUser({ timeZone: "America/Chicago" });
   const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn: addDays(localDate(new Date(), "UTC"), -60) });
   const plan = yearlyPlan(admin, { refundRule: "none", transfers: false });
-  const sub = await buyPlan(fake, owner, piece.id, plan.id);
-  await knob(fake, sub.stripeSubscriptionId!, "renew", `outcome=pay&amount=${amount}`);
+  const sub = await buyPlan(stripe.fake, owner, piece.id, plan.id);
+  await knob(stripe.fake, sub.stripeSubscriptionId!, "renew", `outcome=pay&amount=${amount}`);
   await until(() => studioPlanDetail(admin, sub.id).held);
-  await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
-  return { admin, owner, piece, sub: subRow(sub.id), before: sub };
+  await until(() => stripe.fake.deliveries().length >= stripe.fake.events().length && stripe.fake.deliveries().every((d) => d.status === 200));
+  return { admin, owner, piece, plan, sub: subRow(sub.id), before: sub };
 }
 
 
@@ -91,7 +81,7 @@ describe("a renewal held because Stripe charged another amount", () => {
     expect(after.periodEnd!.getTime()).toBeGreaterThan(sub.periodEnd!.getTime());
     expect(studioPlanDetail(admin, sub.id).held).toBeNull();
     expect(studioPlanRow(admin, sub.id)!.stateLabel).toBe("Running");
-    expect(audits(sub.id, "plan.held_payment_settled")).toHaveLength(1);
+    expect(auditsOf(sub.id, "plan.held_payment_settled")).toHaveLength(1);
     // The overview's plan revenue counts what was kept: the first year's 120.00 and the renewal's 150.00 less the 30.00 paid back.
     expect(planOverview(admin).totalMinor).toBe(12_000 + 12_000);
 
@@ -100,7 +90,7 @@ describe("a renewal held because Stripe charged another amount", () => {
     expect((again as AppError).status).toBe(409);
     // Stripe's events replayed: the payment stays counted and the period stays.
     await syncPlanSubscription(sub.stripeSubscriptionId!, stripeInvoiceId, subRow(sub.id));
-    for (const e of fake.events().filter((x) => x.type === "invoice.paid")) await fake.redeliver(e.id);
+    for (const e of stripe.fake.events().filter((x) => x.type === "invoice.paid")) await stripe.fake.redeliver(e.id);
     expect(invoiceRow(held.invoiceId).counts).toBe(true);
     expect(subRow(sub.id).periodEnd).toEqual(after.periodEnd);
     expect(refundedOf(stripeInvoiceId)).toBe(3_000);
@@ -112,9 +102,9 @@ describe("a renewal held because Stripe charged another amount", () => {
     expect(held.options.map((o) => o.resolution)).toEqual(["accept", "refund_and_end"]);
     const noDiff = await settle(admin, sub.id, { invoiceId: held.invoiceId, resolution: "refund_difference", version: held.version, amountMinor: 9_900, refundMinor: 0 });
     expect((noDiff as AppError).status).toBe(409);
-    const charges = fake.charges().map((c) => c.amount_refunded).reduce((a, b) => a + b, 0);
+    const charges = stripe.fake.charges().map((c) => c.amount_refunded).reduce((a, b) => a + b, 0);
     const after = (await resolveHeldPayment(admin, sub.id, { invoiceId: held.invoiceId, resolution: "accept", version: held.version, amountMinor: 9_900, refundMinor: 0 })) as PlanSubscription;
-    expect(fake.charges().map((c) => c.amount_refunded).reduce((a, b) => a + b, 0)).toBe(charges);
+    expect(stripe.fake.charges().map((c) => c.amount_refunded).reduce((a, b) => a + b, 0)).toBe(charges);
     expect(after.periodEnd!.getTime()).toBeGreaterThan(sub.periodEnd!.getTime());
     expect(invoiceRow(held.invoiceId)).toMatchObject({ counts: true, heldResolution: "accepted" });
   });
@@ -126,24 +116,28 @@ describe("a renewal held because Stripe charged another amount", () => {
     const after = (await resolveHeldPayment(admin, sub.id, { invoiceId: held.invoiceId, resolution: "refund_and_end", version: held.version, amountMinor: 15_000, refundMinor: 15_000 })) as PlanSubscription;
     expect(after.state).toBe("ended");
     expect(refundedOf(stripeInvoiceId)).toBe(15_000);
-    expect(fake.subscriptions().find((s) => s.id === sub.stripeSubscriptionId)!.status).toBe("canceled");
+    expect(stripe.fake.subscriptions().find((s) => s.id === sub.stripeSubscriptionId)!.status).toBe("canceled");
     expect(invoiceRow(held.invoiceId)).toMatchObject({ counts: false, heldResolution: "refunded_and_ended" });
     expect(myPlanControl(owner, piece.id)).toBeNull();
   });
 
   it("tells the owner once, in plain words, what was charged, what the studio decided, what comes back and the next renewal with its zone", async () => {
-    const { admin, owner, sub } = await heldRenewal(15_000);
+    const { admin, owner, piece, plan, sub } = await heldRenewal(15_000);
     const held = studioPlanDetail(admin, sub.id).held!;
     const ask: HeldAsk = { invoiceId: held.invoiceId, resolution: "refund_difference", version: held.version, amountMinor: 15_000, refundMinor: 3_000 };
     const since = new Date();
     await resolveHeldPayment(admin, sub.id, ask);
     const mail = await waitForMail({ to: owner.email, subject: /renewal is settled/, since });
     const text = mail.text.replace(/\s+/g, " ");
+    expect(text).toContain(`Hello ${owner.name}, the renewal of the ${plan.name} care plan on your ${piece.title} charged`);
     expect(text).toMatch(/charged \$?150\.00, while the plan costs \$?120\.00/);
     expect(text).toMatch(/kept the plan's \$?120\.00 as the payment for this renewal and is paying back the \$?30\.00 above it/);
     expect(text).toMatch(/\$?30\.00 is on its way back to the card you paid with\. Banks usually take 5 to 10 days/);
     expect(text).toMatch(/next renewal is on \d{1,2} \w+ \d{4} \(.*Chicago.*\)/);
     expect(text).not.toMatch(/\d{4}-\d{2}-\d{2}|refund_|difference_refunded|_and_|running|held_/);
+    // It closes with the piece's page (a button and the link spelled out) and the studio's offer of help.
+    expect(text).toMatch(new RegExp(`See your piece and plan \\S*${piece.id}.*copy this link into your browser: \\S*${piece.id}`));
+    expect(text).toContain(`Reply to this mail if you'd like ${admin.studio.name} to help.`);
     expect(mail.from).toContain(admin.studio.name);
     expect(mail.headers["reply-to"]).toContain(admin.studio.email);
     // Staff's page says it was settled, and how, in words.

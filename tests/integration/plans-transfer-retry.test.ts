@@ -3,39 +3,29 @@
 // "try again" or the scheduled pass — finishes it once: one moved plan, one Stripe subscription, one
 // charge, one refund. Real stripe SDK against the local Stripe fake over HTTP; the fake's failNext
 // switch (tests only) makes one call answer as an outage would. Invented studio and owners.
-import { and, eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, planSubscriptions } from "@/db/schema";
+import { planSubscriptions } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { AppError } from "@/lib/errors";
-import type { StripeFake } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
 import { studioPlanDetail } from "@/lib/plans/cancel";
 import { refundOf } from "@/lib/plans/refund";
 import { finishPlanTransfer, finishStudioPlanTransfer } from "@/lib/plans/transfer";
 import { planTransfersJob } from "@/jobs/plan-transfers";
-import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
-import { buyPlan, startPlansStripe, subRow, yearlyPlan } from "../support/plans-stripe";
+import { buyPlan, plansStripeForFile, subRow, yearlyPlan } from "../support/plans-stripe";
 
-let fake: StripeFake;
-let closeStripe: () => Promise<void>;
-
-beforeAll(async () => {
-  ({ fake, close: closeStripe } = await startPlansStripe());
-});
-
-afterAll(() => closeStripe());
-
-const audits = (subId: string, action: string) => getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, subId), eq(auditLog.action, action))).all();
+const stripe = plansStripeForFile();
 const plansOfPiece = (pieceId: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.pieceId, pieceId)).all();
 /** The money the fake says moved for a Stripe subscription: its charges and what was refunded of them. */
 const chargesOf = (stripeSubId: string) => {
-  const intents = fake.invoices().filter((i) => i.parent.subscription_details.subscription === stripeSubId).flatMap((i) => i.payments.data.map((p) => p.payment.payment_intent));
-  return fake.charges().filter((c) => intents.includes(c.payment_intent));
+  const intents = stripe.fake.invoices().filter((i) => i.parent.subscription_details.subscription === stripeSubId).flatMap((i) => i.payments.data.map((p) => p.payment.payment_intent));
+  return stripe.fake.charges().filter((c) => intents.includes(c.payment_intent));
 };
-const subscriptionCalls = (stripeSubId: string) => fake.requests().filter((r) => r.path === `/v1/subscriptions/${stripeSubId}` && r.method !== "GET").length;
+const subscriptionCalls = (stripeSubId: string) => stripe.fake.requests().filter((r) => r.path === `/v1/subscriptions/${stripeSubId}` && r.method !== "GET").length;
 
 async function setup(over: { refundRule: "none" | "unused_share"; transfers: boolean }) {
   const studio = createStudio({ email: `${unique("transfer-retry")}@test.example`, taxRateBp: 0 });
@@ -50,21 +40,21 @@ async function setup(over: { refundRule: "none" | "unused_share"; transfers: boo
 describe("a plan's change of hands when Stripe fails during it", () => {
   it("a plan that moves: recorded with the step left, plain words for staff, finished once by the retry", async () => {
     const { admin, owner, piece, plan } = await setup({ refundRule: "none", transfers: true });
-    const sub = await buyPlan(fake, owner, piece.id, plan.id);
+    const sub = await buyPlan(stripe.fake, owner, piece.id, plan.id);
     const sid = sub.stripeSubscriptionId!;
-    fake.failNext("POST", `/v1/subscriptions/${sid}`);
+    stripe.fake.failNext("POST", `/v1/subscriptions/${sid}`);
 
     // The release itself goes through; the plan is moved, with Stripe still to be told.
     await releasePiece(owner, piece.id, { confirm: true });
     expect(subRow(sub.id)).toMatchObject({ state: "ending", ownerId: null, transferStep: "stripe", endsAt: sub.periodEnd });
-    expect(fake.subscriptions().find((s) => s.id === sid)!.cancel_at_period_end).toBe(false);
+    expect(stripe.fake.subscriptions().find((s) => s.id === sid)!.cancel_at_period_end).toBe(false);
     const words = studioPlanDetail(admin, sub.id).transferPending!;
     expect(words).toMatch(/moving with its piece to the next owner/);
     expect(words).toMatch(/try again every few minutes/);
     expect(words).not.toMatch(/transfer_step|stripe"|ending|_/);
 
     // Staff try again while Stripe still fails: a plain 503, and nothing moves twice.
-    fake.failNext("POST", `/v1/subscriptions/${sid}`);
+    stripe.fake.failNext("POST", `/v1/subscriptions/${sid}`);
     const refused = await finishStudioPlanTransfer(admin, sub.id).catch((e: unknown) => e);
     expect(refused).toBeInstanceOf(AppError);
     expect((refused as AppError).status).toBe(503);
@@ -76,14 +66,14 @@ describe("a plan's change of hands when Stripe fails during it", () => {
     expect(lines).toContain(`finished plan change of hands ${sub.id}`);
     expect(subRow(sub.id)).toMatchObject({ state: "ending", ownerId: null, transferStep: null });
     expect(studioPlanDetail(admin, sub.id).transferPending).toBeNull();
-    expect(fake.subscriptions().find((s) => s.id === sid)!).toMatchObject({ status: "active", cancel_at_period_end: true });
+    expect(stripe.fake.subscriptions().find((s) => s.id === sid)!).toMatchObject({ status: "active", cancel_at_period_end: true });
 
     // Exactly one moved plan, one Stripe subscription, one charge; the move audited once.
     expect(plansOfPiece(piece.id)).toHaveLength(1);
-    expect(fake.subscriptions().filter((s) => s.metadata.planSubscriptionId === sub.id)).toHaveLength(1);
+    expect(stripe.fake.subscriptions().filter((s) => s.metadata.planSubscriptionId === sub.id)).toHaveLength(1);
     expect(chargesOf(sid)).toHaveLength(1);
-    expect(audits(sub.id, "plan.changed_hands")).toHaveLength(1);
-    expect(audits(sub.id, "plan.transfer_finished")).toHaveLength(1);
+    expect(auditsOf(sub.id, "plan.changed_hands")).toHaveLength(1);
+    expect(auditsOf(sub.id, "plan.transfer_finished")).toHaveLength(1);
 
     // Another try finds nothing left and tells Stripe nothing more.
     const calls = subscriptionCalls(sid);
@@ -94,13 +84,13 @@ describe("a plan's change of hands when Stripe fails during it", () => {
 
   it("a plan that ends: the refund that failed is paid once by the retry, and the former owner is mailed", async () => {
     const { admin, owner, piece, plan } = await setup({ refundRule: "unused_share", transfers: false });
-    const sub = await buyPlan(fake, owner, piece.id, plan.id);
+    const sub = await buyPlan(stripe.fake, owner, piece.id, plan.id);
     const sid = sub.stripeSubscriptionId!;
-    fake.failNext("POST", "/v1/refunds");
+    stripe.fake.failNext("POST", "/v1/refunds");
 
     await releasePiece(owner, piece.id, { confirm: true });
     expect(subRow(sub.id)).toMatchObject({ state: "ended", transferStep: "refund" });
-    expect(fake.subscriptions().find((s) => s.id === sid)!.status).toBe("canceled");
+    expect(stripe.fake.subscriptions().find((s) => s.id === sid)!.status).toBe("canceled");
     const claim = refundOf(sub.id)!;
     expect(claim).toMatchObject({ status: "requested", reason: "changed_hands" });
     expect(claim.amountMinor).toBeGreaterThan(0);
@@ -110,7 +100,10 @@ describe("a plan's change of hands when Stripe fails during it", () => {
     const done = await finishStudioPlanTransfer(admin, sub.id);
     expect(done.pending).toBeNull();
     expect(refundOf(sub.id)).toMatchObject({ status: "refunded" });
-    await waitForMail({ to: owner.email, subject: /has ended with the piece's new owner/ });
+    const ended = (await waitForMail({ to: owner.email, subject: /has ended with the piece's new owner/ })).text.replace(/\s+/g, " ");
+    expect(ended).toContain(`Hello ${owner.name}, as your ${piece.title} has passed to a new owner, the ${plan.name} care plan on it ended on `);
+    expect(ended).toMatch(new RegExp(`See your piece \\S*${piece.id}.*copy this link into your browser: \\S*${piece.id}`));
+    expect(ended).toContain(`Reply to this mail if you'd like ${admin.studio.name} to help.`);
 
     // Retried again (a second click, the pass): no second refund.
     await finishPlanTransfer(sub.id);
@@ -118,8 +111,8 @@ describe("a plan's change of hands when Stripe fails during it", () => {
     const charges = chargesOf(sid);
     expect(charges).toHaveLength(1);
     expect(charges[0]!.amount_refunded).toBe(claim.amountMinor);
-    expect(fake.requests().filter((r) => r.path === "/v1/refunds").length).toBe(2); // the failed call and the one that paid
-    expect(audits(sub.id, "plan.refunded")).toHaveLength(1);
+    expect(stripe.fake.requests().filter((r) => r.path === "/v1/refunds").length).toBe(2); // the failed call and the one that paid
+    expect(auditsOf(sub.id, "plan.refunded")).toHaveLength(1);
     expect(plansOfPiece(piece.id)).toHaveLength(1);
   });
 });

@@ -1,7 +1,8 @@
 // Test data made through the same tables the product writes. Invented, like all test data.
+import { and, eq } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { claims, finishLayers, finishProducts, memberships, pieces, studios, users, type Studio } from "@/db/schema";
+import { auditLog, claims, finishLayers, finishProducts, memberships, pieces, studios, users, type Studio } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { hashPassword } from "@/lib/auth/password";
 import type { StudioRole } from "@/lib/care/vocabulary";
@@ -10,6 +11,9 @@ import { planTemplateSchema } from "@/lib/plans/validation";
 
 let counter = 0;
 export const unique = (prefix: string) => `${prefix}-${process.pid}-${Date.now().toString(36)}-${++counter}`;
+
+/** The audit log's rows about one subject (a plan, a claim, …) for one action. */
+export const auditsOf = (subjectId: string, action: string) => getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, subjectId), eq(auditLog.action, action))).all();
 
 export function createStudio(overrides: Partial<typeof studios.$inferInsert> = {}): Studio {
   return getDb()

@@ -2,6 +2,7 @@
 // signed webhooks arrive at a small receiver here that hands the raw body to the webhook route's
 // handlers (plans first, then repair payments, as app/api/webhooks/stripe/route.ts does).
 import { eq } from "drizzle-orm";
+import { afterAll, beforeAll } from "vitest";
 import { getDb } from "@/db/client";
 import type { User } from "lucia";
 import { planInvoices, planSubscriptions, type PlanSubscription } from "@/db/schema";
@@ -27,6 +28,21 @@ export async function startPlansStripe(): Promise<{ fake: StripeFake; close: () 
     close: async () => {
       await fake.close();
       await receiver.close();
+    },
+  };
+}
+
+/** For a test file: the fake and its receiver start before the file's tests and close after them; `.fake` is the fake while they run. */
+export function plansStripeForFile(): { readonly fake: StripeFake } {
+  let started: Awaited<ReturnType<typeof startPlansStripe>> | undefined;
+  beforeAll(async () => {
+    started = await startPlansStripe();
+  });
+  afterAll(() => started?.close());
+  return {
+    get fake() {
+      if (!started) throw new Error("The Stripe fake starts before the file's tests (beforeAll).");
+      return started.fake;
     },
   };
 }
