@@ -341,7 +341,7 @@ export const finishLayers = sqliteTable(
     notes: text("notes").notNull().default(""),
     createdAt: createdAt(),
   },
-  (t) => [index("finish_layers_piece_idx").on(t.pieceId, t.surface, t.position)],
+  (t) => [index("finish_layers_piece_idx").on(t.pieceId, t.surface, t.position, t.finishClass)],
 );
 
 export const finishLayersRelations = relations(finishLayers, ({ one }) => ({
