@@ -4,7 +4,8 @@
 // row per figure (target, measured, floor, ratio to the floor) and each benchmark's output, and exits
 // non-zero if any figure missed its target. `npm run bench -- server` runs only the files whose names
 // match (and leaves REPORT.md alone); `npm run bench -- --large` adds the sweep's largest sizes
-// (BENCH_LARGE=1 in each benchmark: 1,000,000 pieces).
+// (BENCH_LARGE=1 in each benchmark: 1,000,000 pieces). The largest points alone, without the rest:
+// `BENCH_PIECES=1000000 npm run bench -- reminder-pass` and `BENCH_SWEEP=1000000 npm run bench -- server`.
 import { spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
 import { readdirSync, writeFileSync } from "node:fs";

@@ -10,7 +10,8 @@
 //     1.25× a blank page of the same build (app/bench/blank/page.bench.ts: the framework and root layout);
 //   - the app's peak resident memory through all of the above at most 5× its memory once started and idle.
 //   - size sweep: the registry search at 10,000 pieces (and 1,000,000 with `npm run bench -- --large`),
-//     against /api/me on the same server.
+//     against /api/me on the same server. BENCH_SWEEP=1000000 (sizes, comma-separated) runs only those
+//     sweep points, without the figures above.
 // The ratio targets are our choices (issue-stated where the issue gives them: 3×, 1.5×, 0.5).
 // Prints one RESULT line per figure for tests/bench/run.ts's report.
 // Standalone: npx tsx tests/bench/server.bench.ts   (BENCH_SKIP_BUILD=1 reuses .next)
@@ -34,7 +35,8 @@ const THROUGHPUT_MIN = 0.5;
 const PAGE_RATIO_MAX = 3;
 const JS_RATIO_MAX = 1.25;
 const MEMORY_RATIO_MAX = 5;
-const SWEEP = [10_000, ...(process.env.BENCH_LARGE === "1" ? [1_000_000] : [])];
+const SWEEP_ONLY = process.env.BENCH_SWEEP?.split(",").map(Number);
+const SWEEP = SWEEP_ONLY ?? [10_000, ...(process.env.BENCH_LARGE === "1" ? [1_000_000] : [])];
 
 async function scriptBytes(base: string, pagePath: string, cookie: string): Promise<{ raw: number; gzip: number; scripts: number }> {
   const res = await fetch(`${base}${pagePath}`, { headers: { cookie }, redirect: "manual" });
@@ -138,7 +140,6 @@ async function main() {
     result({ figure: "app peak resident memory under the loads above", target: `≤ ${MEMORY_RATIO_MAX}× floor`, measured: `${(peak / 2 ** 20).toFixed(0)} MB`, floor: `idle after start ${(idleRss / 2 ** 20).toFixed(0)} MB`, ratio: peak / idleRss, ok: peak / idleRss <= MEMORY_RATIO_MAX });
     fs.rmSync(dir, { recursive: true, force: true });
   }
-  for (const size of SWEEP) await sweepPoint(size);
 }
 
 /** One more size of the sweep: its own seeded registry and server, the search against /api/me beside it. */
@@ -147,7 +148,9 @@ async function sweepPoint(size: number) {
   try {
     const { dbFile, seeded } = seededCopy(dir, size);
     const staff = sessionCookie(dbFile, seeded.staffUserId);
+    const t = performance.now();
     const server = await startServer(dbFile, dir);
+    console.log(`${size.toLocaleString("en")} pieces: the server answered in ${((performance.now() - t) / 1000).toFixed(1)} s`);
     try {
       const me = { url: `${server.base}/api/me`, headers: { cookie: staff } };
       const search = { url: `${server.base}/api/pieces?q=walnut`, headers: { cookie: staff } };
@@ -164,4 +167,6 @@ async function sweepPoint(size: number) {
   }
 }
 
-await main();
+if (SWEEP_ONLY) buildOnce();
+else await main();
+for (const size of SWEEP) await sweepPoint(size);
