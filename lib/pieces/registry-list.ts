@@ -89,7 +89,7 @@ export function queryRegistry(ctx: StudioContext, q: PieceListQuery, now: Date, 
   const db = getDb();
   ensureSqlFunctions(db);
   const version = databaseVersion(db); // before any read: see keptNextCare
-  const terms = policyTerms(ctx.studio.id);
+  const terms = policyTerms(ctx.studio.id, version);
   const t = today(ctx, now);
   let catalog: CatalogEntry[] | null = null;
   const studioCatalog = () => (catalog ??= toCatalog(studioProducts(ctx.studio.id)));

@@ -72,8 +72,10 @@ function wholeRows<T>(table: Table, raw: Record<string, unknown>[]): T[] {
 const IDS = `(SELECT value FROM json_each(?))`;
 // What a registry row shows, read by the list query itself (joined with users as u), in this order
 // (the statement answers arrays: building an object per row in SQLite's binding cost more than the
-// read). A row's finish classes come as one JSON array, in layer order. The care engine's columns,
-// layers and care log are read only for the rows whose next care is not kept (loadCareInputs).
+// read). A row's finish classes come as one JSON array, in layer order, read from the layers' piece
+// index alone (piece, surface, position, class: migration 0029), not from each layer's row. The care
+// engine's columns, layers and care log are read only for the rows whose next care is not kept
+// (loadCareInputs).
 const LIST_COLUMNS = `p.id, p.title, p.kind, p.delivered_on, p.primary_species_id, p.secondary_species_id,
   p.owner_id, p.archived_at, p.warranty_policy_id, u.name, u.email,
   (SELECT json_group_array(l.finish_class ORDER BY l.surface, l.position) FROM finish_layers l WHERE l.piece_id = p.id)`;
@@ -125,11 +127,11 @@ export const registryStatements = perConnection((db) => {
 /**
  * Each warranty policy of the studio with its longest line in months (a piece is under warranty while it
  * runs). Every registry page needs them and they rarely change: kept per studio until the database's
- * version moves (databaseVersion), so a page reads and decodes the policies only after a write.
+ * version moves (databaseVersion), so a page reads and decodes the policies only after a write. A caller
+ * that has just asked for the version passes it (the registry list: one version read per page, not two).
  */
-export function policyTerms(studioId: string): Map<string, number> {
+export function policyTerms(studioId: string, version = databaseVersion(getDb())): Map<string, number> {
   const db = getDb();
-  const version = databaseVersion(db);
   const kept = termsKept.get(studioId);
   if (kept && kept.version === version) return kept.terms;
   const rows = registryStatements(db).policies.all({ studioId });
