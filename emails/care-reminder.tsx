@@ -1,5 +1,5 @@
 import { Link, Section, Text } from "@react-email/components";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 import { CareFooter } from "./components/care-footer";
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { colors } from "./components/theme";
@@ -65,8 +65,7 @@ export function CareReminder(p: CareReminderProps) {
         </Section>
       ) : null}
       <Paragraph>Done it? Log it, and the next reminder moves to the right date.</Paragraph>
-      <ActionButton href={p.logUrl}>Log it as done</ActionButton>
-      <LinkFallback href={p.logUrl} />
+      <ActionClose href={p.logUrl} label="Log it as done" />
       <Note>
         The care record of your piece:{" "}
         <Link href={p.pieceUrl} style={{ color: colors.accent }}>

@@ -1,5 +1,5 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
 
 export type ClaimDecisionEmailProps = {
   ownerName: string;
@@ -34,9 +34,7 @@ export function ClaimDecisionEmail(p: ClaimDecisionEmailProps) {
         {p.studioName} has looked at your claim about the {p.pieceTitle}. {WORDS[p.decision](p.coveredPct)}
       </Paragraph>
       {p.reason ? <Paragraph>The studio wrote: “{p.reason}”</Paragraph> : null}
-      <ActionButton href={p.url}>See the decision</ActionButton>
-      <LinkFallback href={p.url} />
-      <Note>Questions about it? Reply with a message on the claim page.</Note>
+      <ActionClose href={p.url} label="See the decision" note="Questions about it? Reply with a message on the claim page." />
     </EmailLayout>
   );
 }

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type ClaimMessageEmailProps = {
   audience: "owner" | "studio";
@@ -29,8 +29,7 @@ export function ClaimMessageEmail(p: ClaimMessageEmailProps) {
         {owner ? `${p.authorName} at ${p.studioName}` : p.authorName} wrote about the {p.pieceTitle}:
       </Paragraph>
       <Paragraph>“{p.body}”</Paragraph>
-      <ActionButton href={p.url}>{owner ? "Reply on the claim page" : "Open the claim"}</ActionButton>
-      <LinkFallback href={p.url} />
+      <ActionClose href={p.url} label={owner ? "Reply on the claim page" : "Open the claim"} />
       {owner && p.requestInfo ? <Note>The studio will carry on once you reply.</Note> : null}
     </EmailLayout>
   );

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type ClaimReceivedEmailProps = {
   audience: "owner" | "studio";
@@ -38,8 +38,7 @@ export function ClaimReceivedEmail(p: ClaimReceivedEmailProps) {
       <Paragraph>
         {p.categoryLabel}, noticed on {p.noticedOn}: “{p.description}”
       </Paragraph>
-      <ActionButton href={p.url}>{owner ? "See your claim" : "Open the claim"}</ActionButton>
-      <LinkFallback href={p.url} />
+      <ActionClose href={p.url} label={owner ? "See your claim" : "Open the claim"} />
       {owner ? <Note>Photos you add later and the studio&apos;s questions appear on the claim page.</Note> : null}
     </EmailLayout>
   );

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 import { PlanOffers, type PlanOfferLine } from "./components/plan-offers";
 
 export type HandOverEmailProps = {
@@ -69,9 +69,7 @@ export function HandOverEmail(p: HandOverEmailProps) {
       <Paragraph>
         Register the piece and Grainward reminds you when care is due, keeps the care you log, and holds its warranty. No code to type: this link does it once you have signed up or signed in with this address.
       </Paragraph>
-      <ActionButton href={p.url}>Register my piece</ActionButton>
-      <LinkFallback href={p.url} />
-      <Note>The link works once, until {p.linkExpiresOn}. The card in the drawer carries the piece&apos;s registration code too — keep it with the piece for whoever owns it next.</Note>
+      <ActionClose href={p.url} label="Register my piece" note={<>The link works once, until {p.linkExpiresOn}. The card in the drawer carries the piece&apos;s registration code too — keep it with the piece for whoever owns it next.</>} />
       <PlanOffers plans={p.plans ?? []} studioName={p.studioName} howToBuy="Once the piece is registered, you can start a plan from its page in Grainward. Nothing is charged unless you choose one." />
       {p.cautions.length ? (
         <>

@@ -1,5 +1,5 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
 import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
 
 export type JobQuoteEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
@@ -21,9 +21,7 @@ export function JobQuoteEmail({ ownerName, studioName, pieceTitle, fullyCovered,
       <Paragraph>
         <strong>{fullyCovered ? "You pay nothing." : `To pay: ${money.total}`}</strong>
       </Paragraph>
-      <ActionButton href={url}>{fullyCovered ? "See the job and book a visit" : "Review, approve and pay"}</ActionButton>
-      <LinkFallback href={url} />
-      <Note>Questions about the quote? Reply to the studio before you approve it.</Note>
+      <ActionClose href={url} label={fullyCovered ? "See the job and book a visit" : "Review, approve and pay"} note="Questions about the quote? Reply to the studio before you approve it." />
     </EmailLayout>
   );
 }

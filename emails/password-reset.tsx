@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type PasswordResetEmailProps = {
   name: string;
@@ -25,8 +25,7 @@ export function PasswordResetEmail({ name, url, expiresInMinutes }: PasswordRese
     <EmailLayout preview={`Your password reset link works for ${expiry}.`} heading="Choose a new password">
       <Paragraph>Hi {name},</Paragraph>
       <Paragraph>Someone asked to reset the password of your Grainward account. If it was you, choose a new one here:</Paragraph>
-      <ActionButton href={url}>Choose a new password</ActionButton>
-      <LinkFallback href={url} />
+      <ActionClose href={url} label="Choose a new password" />
       <Note>
         The link expires in {expiry} and can be used once. If you did not ask for this, you can safely ignore this email:
         your password stays as it is.

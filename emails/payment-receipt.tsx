@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
 
 export type PaymentReceiptEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
@@ -27,9 +27,7 @@ export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, piec
         {studioName}
         {studioAddress ? `, ${studioAddress}` : ""}
       </Note>
-      <ActionButton href={url}>Book your visit</ActionButton>
-      <LinkFallback href={url} />
-      <Note>Keep this e-mail as your receipt. A PDF copy is on your job page (sign in first): {pdfUrl}</Note>
+      <ActionClose href={url} label="Book your visit" note={<>Keep this e-mail as your receipt. A PDF copy is on your job page (sign in first): {pdfUrl}</>} />
     </EmailLayout>
   );
 }

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type AutomaticRefundReason = "older_quote" | "already_paid" | "not_awaiting_payment";
 
@@ -58,8 +58,7 @@ export function PaymentRefundedAutomaticallyEmail(p: PaymentRefundedAutomaticall
           owner has been told by e-mail; nothing else needs doing unless they ask.
         </Paragraph>
       )}
-      <ActionButton href={p.url}>{owner ? "See your repair" : "Open the job"}</ActionButton>
-      <LinkFallback href={p.url} />
+      <ActionClose href={p.url} label={owner ? "See your repair" : "Open the job"} />
       {owner ? <Note>Refunds usually show on your statement within 5–10 business days, depending on your bank.</Note> : null}
     </EmailLayout>
   );

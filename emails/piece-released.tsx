@@ -1,5 +1,5 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
 
 export type PieceReleasedEmailProps = {
   studioName: string;
@@ -26,9 +26,7 @@ export function PieceReleasedEmail({ studioName, pieceTitle, ownerName, released
         Until the next owner registers, the piece has no owner and no care reminders go out. The warranty passes on as {studioName}&apos;s
         policy says for each line.
       </Paragraph>
-      <ActionButton href={url}>Open the piece record</ActionButton>
-      <LinkFallback href={url} />
-      <Note>You can print a fresh drawer card with the new code from the piece record.</Note>
+      <ActionClose href={url} label="Open the piece record" note="You can print a fresh drawer card with the new code from the piece record." />
     </EmailLayout>
   );
 }

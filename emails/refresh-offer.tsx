@@ -1,6 +1,5 @@
 import { Column, Row, Section, Text } from "@react-email/components";
-import { ActionButton, LinkFallback } from "./components/button";
-import { Note } from "./components/layout";
+import { ActionClose } from "./components/button";
 import { PlanOffers, type PlanOfferLine } from "./components/plan-offers";
 import { colors, serifStack } from "./components/theme";
 
@@ -36,9 +35,7 @@ export function RefreshOfferSection({ studioName, taskLabel, total, lines, tax, 
         <Text style={{ fontSize: "14px", lineHeight: "22px", color: colors.muted, margin: "4px 0 16px" }}>
           {tax}. Total: {total}.
         </Text>
-        <ActionButton href={acceptUrl}>Accept the refresh offer</ActionButton>
-        <LinkFallback href={acceptUrl} />
-        <Note>Accepting asks the studio to get in touch and book a visit with you. Nothing is charged now.</Note>
+        <ActionClose href={acceptUrl} label="Accept the refresh offer" note="Accepting asks the studio to get in touch and book a visit with you. Nothing is charged now." />
       </Section>
       <PlanOffers plans={plans} studioName={studioName} howToBuy="Or have it done every time: you can start a plan from the piece's page in Grainward." />
     </>

@@ -1,6 +1,6 @@
 import { Link } from "@react-email/components";
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 import { colors } from "./components/theme";
 
 export type SignUpAttemptEmailProps = {
@@ -23,8 +23,7 @@ export function SignUpAttemptEmail({ name, signInUrl, resetUrl }: SignUpAttemptE
         nothing was created and nothing about your account changed.
       </Paragraph>
       <Paragraph>If it was you, sign in instead:</Paragraph>
-      <ActionButton href={signInUrl}>Sign in</ActionButton>
-      <LinkFallback href={signInUrl} />
+      <ActionClose href={signInUrl} label="Sign in" />
       <Paragraph>
         Forgotten your password?{" "}
         <Link href={resetUrl} style={{ color: colors.accent }}>

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type StaffRole = "admin" | "staff" | "technician";
 
@@ -40,8 +40,7 @@ export function StaffInvitationEmail({ studioName, role, inviterName, url, expir
         {inviterName} invited you to join {studioName} on Grainward as {words.title}.
       </Paragraph>
       <Paragraph>As {words.title}, you can {words.does}.</Paragraph>
-      <ActionButton href={url}>Accept the invitation</ActionButton>
-      <LinkFallback href={url} />
+      <ActionClose href={url} label="Accept the invitation" />
       <Note>
         The invitation is valid for {days}. If you were not expecting it, you can ignore this email and no account will be
         set up.

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 import { VisitTime } from "./components/visit-time";
 
 export type TechnicianVisitEmailProps = {
@@ -43,9 +43,7 @@ export function TechnicianVisitEmail(p: TechnicianVisitEmailProps) {
           </Note>
         </>
       )}
-      <ActionButton href={p.url}>See your day</ActionButton>
-      <LinkFallback href={p.url} />
-      <Note>Sent by {p.studioName} through Grainward.</Note>
+      <ActionClose href={p.url} label="See your day" note={<>Sent by {p.studioName} through Grainward.</>} />
     </EmailLayout>
   );
 }

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type ThreadMessageEmailProps = {
   audience: "owner" | "studio";
@@ -29,8 +29,7 @@ export function ThreadMessageEmail(p: ThreadMessageEmailProps) {
         {owner ? `${p.authorName} at ${p.studioName}` : p.authorName} wrote about the {p.about} for the {p.pieceTitle}:
       </Paragraph>
       <Paragraph>“{p.body}”</Paragraph>
-      <ActionButton href={p.url}>{owner ? "Open the conversation" : "Open it in the inbox"}</ActionButton>
-      <LinkFallback href={p.url} />
+      <ActionClose href={p.url} label={owner ? "Open the conversation" : "Open it in the inbox"} />
       {owner ? <Note>You can also answer by replying to this e-mail; your reply goes to the studio.</Note> : null}
     </EmailLayout>
   );

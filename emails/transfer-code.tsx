@@ -1,6 +1,6 @@
 import { Section, Text } from "@react-email/components";
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 import { colors } from "./components/theme";
 
 export type TransferCodeEmailProps = {
@@ -33,8 +33,7 @@ export function TransferCodeEmail({ name, pieceTitle, studioName, code, url, tra
           {code}
         </Text>
       </Section>
-      <ActionButton href={url}>Register with this code</ActionButton>
-      <LinkFallback href={url} />
+      <ActionClose href={url} label="Register with this code" />
       {transferring.length ? <Paragraph>Warranty that passes to the next owner: {transferring.join("; ")}.</Paragraph> : null}
       {staying.length ? <Paragraph>Warranty that stays with you as the first owner and ends for the piece: {staying.join("; ")}.</Paragraph> : null}
       <Note>Keep this message until the code has been used. If you did not release this piece, tell {studioName} straight away.</Note>

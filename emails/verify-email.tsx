@@ -1,5 +1,5 @@
-import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { EmailLayout, Paragraph } from "./components/layout";
+import { ActionClose } from "./components/button";
 
 export type VerifyEmailProps = {
   name: string;
@@ -17,9 +17,7 @@ export function VerifyEmail({ name, url }: VerifyEmailProps) {
         Please confirm that this address is yours. Once it is, we can send you the care reminders for your pieces and
         keep you posted on any claim or visit.
       </Paragraph>
-      <ActionButton href={url}>Confirm email address</ActionButton>
-      <LinkFallback href={url} />
-      <Note>If you did not create a Grainward account, you can ignore this message; nothing will happen.</Note>
+      <ActionClose href={url} label="Confirm email address" note="If you did not create a Grainward account, you can ignore this message; nothing will happen." />
     </EmailLayout>
   );
 }

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 import { VisitTime } from "./components/visit-time";
 
 export type VisitInviteEmailProps = {
@@ -42,9 +42,7 @@ export function VisitInviteEmail(p: VisitInviteEmailProps) {
           <Note>Please clear the top before the visit and keep pets and children away from fresh finish for the day. Lifting a heavy top takes two people; the technician will ask for help rather than lift it alone.</Note>
         </>
       )}
-      <ActionButton href={p.url}>{p.kind === "cancelled" ? "Book another time" : "See or change the visit"}</ActionButton>
-      <LinkFallback href={p.url} />
-      <Note>Sent by {p.studioName} through Grainward.</Note>
+      <ActionClose href={p.url} label={p.kind === "cancelled" ? "Book another time" : "See or change the visit"} note={<>Sent by {p.studioName} through Grainward.</>} />
     </EmailLayout>
   );
 }

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type VisitReminderEmailProps = {
   /** "today", "tomorrow" or "on Friday 4 June 2027", by the owner's calendar day. */
@@ -28,8 +28,7 @@ export function VisitReminderEmail(p: VisitReminderEmailProps) {
         At: {p.location}
       </Paragraph>
       <Note>Please clear the top and make room around the piece. Finishing needs fresh air: we will ask to open a window.</Note>
-      <ActionButton href={p.url}>See the visit</ActionButton>
-      <LinkFallback href={p.url} />
+      <ActionClose href={p.url} label="See the visit" />
     </EmailLayout>
   );
 }

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionButton, LinkFallback } from "./components/button";
+import { ActionClose } from "./components/button";
 
 export type VisitSummaryEmailProps = {
   ownerName: string;
@@ -73,8 +73,7 @@ export function VisitSummaryEmail(p: VisitSummaryEmailProps) {
       <Paragraph>
         <strong>Happy with the work?</strong> Sign it off: the link opens a page with a button, and works once.
       </Paragraph>
-      <ActionButton href={p.signOffUrl}>Sign off the work</ActionButton>
-      <LinkFallback href={p.signOffUrl} />
+      <ActionClose href={p.signOffUrl} label="Sign off the work" />
       <Paragraph>
         Not happy with it? Don&apos;t sign off; write to the studio. The piece&apos;s care record: <a href={p.url}>{p.url}</a>
       </Paragraph>
