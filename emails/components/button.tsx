@@ -4,7 +4,7 @@ import { Note } from "./layout";
 import { accentColor, colors } from "./theme";
 
 /** The one call to action of a message: a large button in the accent colour. */
-export function ActionButton({ href, children }: { href: string; children: string }) {
+function ActionButton({ href, children }: { href: string; children: string }) {
   return (
     <Section style={{ margin: "8px 0 24px" }}>
       <EmailButton
@@ -27,7 +27,7 @@ export function ActionButton({ href, children }: { href: string; children: strin
 }
 
 /** The same link spelled out, for clients that hide buttons and for the plain-text part. */
-export function LinkFallback({ href }: { href: string }) {
+function LinkFallback({ href }: { href: string }) {
   return (
     <Note>
       If the button does not work, copy this link into your browser:{" "}
@@ -48,5 +48,3 @@ export function ActionClose({ href, label, note }: { href: string; label: string
     </>
   );
 }
-
-export default ActionButton;
