@@ -1,11 +1,11 @@
 "use client";
 
 import { useQueryClient } from "@tanstack/react-query";
-import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson, isApiError } from "@/components/api-client";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -20,7 +20,6 @@ const textarea = "block w-full rounded-lg border border-line bg-white px-3 py-2 
 
 /** A client's contact details: a new client (POST) or changes to one (PATCH). The schema loads while the form is filled in. */
 export function ClientForm({ client, studioZone, zones }: { client?: ClientDetail["client"]; studioZone: string; zones: ZoneChoices }) {
-  const router = useRouter();
   const queries = useQueryClient();
   const form = useForm<ClientFormInput>({
     resolver: useLazyZodResolver(() => import("@/lib/validation/clients").then((m) => m.clientFormSchema)),
@@ -35,34 +34,38 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
     },
   });
   const errors = form.formState.errors;
-  const onSubmit = form.handleSubmit(async (values) => {
-    try {
-      if (client) {
-        const dirty = Object.fromEntries(FIELDS.filter((f) => form.formState.dirtyFields[f]).map((f) => [f, values[f]]));
-        if (Object.keys(dirty).length === 0) return void toast.info("Nothing changed.");
-        const saved = await apiJson<ClientDetail>(`/api/clients/${client.id}`, { method: "PATCH", body: JSON.stringify(dirty) });
+  // A change sends only the fields touched and stays on the page; a new client opens its own page.
+  const { run, busy } = useRefreshingMutation(
+    async ({ values, changed }: { values: ClientFormInput; changed: Partial<ClientFormInput> }) =>
+      client
+        ? { saved: await apiJson<ClientDetail>(`/api/clients/${client.id}`, { method: "PATCH", body: JSON.stringify(changed) }) }
+        : { createdId: (await apiJson<{ client: { id: string } }>("/api/clients", { method: "POST", body: JSON.stringify(values) })).client.id },
+    {
+      onSuccess: ({ saved }, { values }) => {
+        if (!saved) return void toast.success("Client added.");
         form.reset({ ...values, phone: saved.client.phoneDisplay, email: saved.client.email });
         toast.success("Contact details saved.");
-        void queries.invalidateQueries({ queryKey: ["client-timeline", client.id] });
-        router.refresh();
-      } else {
-        const { client: created } = await apiJson<{ client: { id: string } }>("/api/clients", { method: "POST", body: JSON.stringify(values) });
-        toast.success("Client added.");
-        router.push(`/studio/clients/${created.id}`);
-      }
-    } catch (e) {
-      if (e instanceof ApiError) {
+        void queries.invalidateQueries({ queryKey: ["client-timeline", saved.client.id] });
+      },
+      goTo: ({ createdId }) => (createdId ? `/studio/clients/${createdId}` : null),
+      onError: (words, e) => {
         let placed = false;
-        for (const [field, messages] of Object.entries(e.fieldErrors)) {
+        for (const [field, messages] of Object.entries(isApiError(e) ? e.fieldErrors : {})) {
           if ((FIELDS as readonly string[]).includes(field) && messages[0]) {
             form.setError(field as (typeof FIELDS)[number], { type: "server", message: messages[0] });
             placed = true;
           }
         }
-        if (!placed) form.setError("root", { type: "server", message: e.message });
-      } else form.setError("root", { type: "server", message: "The details weren't saved. Check your connection and try again." });
-    }
+        if (!placed) form.setError("root", { type: "server", message: words });
+      },
+    },
+  );
+  const onSubmit = form.handleSubmit((values) => {
+    const changed = Object.fromEntries(FIELDS.filter((f) => form.formState.dirtyFields[f]).map((f) => [f, values[f]]));
+    if (client && Object.keys(changed).length === 0) return void toast.info("Nothing changed.");
+    run({ values, changed });
   });
+  const saving = busy || form.formState.isSubmitting;
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label={client ? "Contact details" : "New client"}>
       <div className="grid gap-4 md:grid-cols-2">
@@ -95,8 +98,8 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
         <ErrorLine>{errors.notes?.message}</ErrorLine>
       </div>
       <ErrorLine>{errors.root?.message}</ErrorLine>
-      <Button type="submit" disabled={form.formState.isSubmitting}>
-        {form.formState.isSubmitting ? "Saving…" : client ? "Save contact details" : "Add client"}
+      <Button type="submit" disabled={saving}>
+        {saving ? "Saving…" : client ? "Save contact details" : "Add client"}
       </Button>
     </form>
   );

@@ -1,10 +1,10 @@
 "use client";
 
 import { useQueryClient } from "@tanstack/react-query";
-import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson, isApiError } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -14,24 +14,29 @@ type Values = { kind: ConsentKind; granted: "yes" | "no"; givenOn: string; sourc
 
 /** Records that the client gave or withdrew one consent, when and how (PATCH …/clients/[id] with consent). */
 export function ConsentForm({ clientId, current, today }: { clientId: string; current: Record<ConsentKind, boolean>; today: string }) {
-  const router = useRouter();
   const queries = useQueryClient();
   const form = useForm<Values>({ defaultValues: { kind: "service", granted: current.service ? "no" : "yes", givenOn: today, source: "in_person", note: "" } });
   const errors = form.formState.errors;
-  const onSubmit = form.handleSubmit(async (v) => {
+  const { run, busy } = useRefreshingMutation(
+    (v: Values) => apiJson(`/api/clients/${clientId}`, { method: "PATCH", body: JSON.stringify({ consent: { [v.kind]: { granted: v.granted === "yes", givenOn: v.givenOn || undefined, source: v.source, note: v.note } } }) }),
+    {
+      onSuccess: (_, v) => {
+        const granted = v.granted === "yes";
+        toast.success(granted ? "Consent recorded." : "Withdrawal recorded.");
+        void queries.invalidateQueries({ queryKey: ["client-timeline", clientId] });
+        form.reset({ ...v, granted: granted ? "no" : "yes", note: "" });
+      },
+      onError: (words, e) => {
+        const fe = isApiError(e) ? e.fieldErrors : {};
+        const field = Object.keys(fe).find((k) => k.startsWith("consent"));
+        form.setError("root", { type: "server", message: (field && fe[field]?.[0]) || words });
+      },
+    },
+  );
+  const onSubmit = form.handleSubmit((v) => {
     const granted = v.granted === "yes";
     if (granted === current[v.kind]) return void form.setError("granted", { type: "manual", message: granted ? "They have already agreed to this." : "They haven't agreed to this." });
-    try {
-      await apiJson(`/api/clients/${clientId}`, { method: "PATCH", body: JSON.stringify({ consent: { [v.kind]: { granted, givenOn: v.givenOn || undefined, source: v.source, note: v.note } } }) });
-      toast.success(granted ? "Consent recorded." : "Withdrawal recorded.");
-      void queries.invalidateQueries({ queryKey: ["client-timeline", clientId] });
-      form.reset({ ...v, granted: granted ? "no" : "yes", note: "" });
-      router.refresh();
-    } catch (e) {
-      const fe = e instanceof ApiError ? e.fieldErrors : {};
-      const field = Object.keys(fe).find((k) => k.startsWith("consent"));
-      form.setError("root", { type: "server", message: (field && fe[field]?.[0]) || (e instanceof Error ? e.message : "Not saved. Try again.") });
-    }
+    run(v);
   });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label="Record a consent change">
@@ -58,7 +63,7 @@ export function ConsentForm({ clientId, current, today }: { clientId: string; cu
       </div>
       <TextField label="Note (optional)" maxLength={500} {...form.register("note")} />
       <ErrorLine>{errors.root?.message}</ErrorLine>
-      <Button type="submit" variant="secondary" disabled={form.formState.isSubmitting}>
+      <Button type="submit" variant="secondary" disabled={busy || form.formState.isSubmitting}>
         Record
       </Button>
     </form>

@@ -1,12 +1,12 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useId } from "react";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
 import type { MessageFormInput } from "@/lib/validation/messages";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson } from "@/components/api-client";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 
@@ -15,20 +15,18 @@ import { ErrorLine } from "@/components/ui/error-line";
  * staff reply on a thread (`/api/threads/[id]/messages`). What was typed stays when sending fails.
  */
 export function MessageForm({ endpoint, extra, label, sentText, submitText = "Send message" }: { endpoint: string; extra?: Record<string, string>; label: string; sentText: string; submitText?: string }) {
-  const router = useRouter();
   const id = useId();
   const form = useForm<MessageFormInput>({ resolver: useLazyZodResolver(() => import("@/lib/validation/messages").then((m) => m.messageFormSchema)), defaultValues: { body: "" } });
   const error = form.formState.errors.body;
-  const onSubmit = form.handleSubmit(async (values) => {
-    try {
-      await apiJson(endpoint, { method: "POST", json: { ...extra, body: values.body } });
+  const { run, busy } = useRefreshingMutation((body: string) => apiJson(endpoint, { method: "POST", json: { ...extra, body } }), {
+    onSuccess: () => {
       form.reset({ body: "" });
       toast.success(sentText);
-      router.refresh();
-    } catch (e) {
-      form.setError("body", { type: "server", message: e instanceof ApiError ? e.message : "The message wasn't sent. Try again." });
-    }
+    },
+    onError: (words) => form.setError("body", { type: "server", message: words }),
   });
+  const onSubmit = form.handleSubmit((values) => run(values.body));
+  const sending = busy || form.formState.isSubmitting;
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-2">
       <label htmlFor={`${id}-body`} className="block text-sm font-medium">
@@ -44,8 +42,8 @@ export function MessageForm({ endpoint, extra, label, sentText, submitText = "Se
         {...form.register("body")}
       />
       <ErrorLine id={`${id}-error`}>{error?.message}</ErrorLine>
-      <Button type="submit" disabled={form.formState.isSubmitting}>
-        {form.formState.isSubmitting ? "Sending…" : submitText}
+      <Button type="submit" disabled={sending}>
+        {sending ? "Sending…" : submitText}
       </Button>
     </form>
   );

@@ -1,10 +1,10 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useFieldArray, useForm } from "react-hook-form";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -52,15 +52,31 @@ export function QuoteBuilder({
   exponent: number;
   editable: boolean;
 }) {
-  const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
   const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm) } });
   const { register, handleSubmit, formState, control, setError } = form;
   const fields = useFieldArray({ control, name: "lines" });
+  const { run, busy } = useRefreshingMutation(
+    ({ body }: { body: Record<string, unknown>; v: FormValues; withLines: boolean }) => apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body }),
+    {
+      onSuccess: ({ job }, { v, withLines }) => {
+        form.reset({ ...v, lines: job.lines.map(toForm) });
+        toast.success(withLines ? "Quote saved." : "Lines proposed from the tasks. Change hours or quantities, then save.");
+      },
+      onError: (words, e, { v }) => {
+        if (!isApiError(e)) return setFormError(words);
+        setFormError([e.message, ...(e.fieldErrors.lines ?? [])].join(" "));
+        for (const [field, msgs] of Object.entries(e.fieldErrors)) {
+          if (field !== "lines" && msgs[0] && field in v) setError(field as keyof FormValues, { message: msgs[0] });
+        }
+      },
+    },
+  );
+  const saving = busy || formState.isSubmitting;
 
   const submit = (withLines: boolean) =>
-    handleSubmit(async (v) => {
+    handleSubmit((v) => {
       setFormError(null);
       let bad = false;
       const sent = v.lines.map((l, i) => {
@@ -74,26 +90,14 @@ export function QuoteBuilder({
       });
       if (withLines && bad) return;
       const body = { title: v.title, notes: v.notes, tasks: list(v.tasks), repairs: list(v.repairs), productIds: list(v.productIds), coats: v.coats, travel: v.travel, coveredPct: v.coveredPct, ...(withLines ? { lines: sent } : {}) };
-      try {
-        const { job } = await apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body });
-        form.reset({ ...v, lines: job.lines.map(toForm) });
-        toast.success(withLines ? "Quote saved." : "Lines proposed from the tasks. Change hours or quantities, then save.");
-        router.refresh();
-      } catch (e) {
-        if (!isApiError(e)) return setFormError("Couldn't save the quote.");
-        const lineMessages = e.fieldErrors.lines ?? [];
-        setFormError([e.message, ...lineMessages].join(" "));
-        for (const [field, msgs] of Object.entries(e.fieldErrors)) {
-          if (field !== "lines" && msgs[0] && field in v) setError(field as keyof FormValues, { message: msgs[0] });
-        }
-      }
+      run({ body, v, withLines });
     });
 
   const lineErrors = formState.errors.lines;
   return (
     <form onSubmit={submit(true)} noValidate className="space-y-5">
       {formError ? <Notice tone="error">{formError}</Notice> : null}
-      <fieldset disabled={!editable || formState.isSubmitting} className="space-y-5">
+      <fieldset disabled={!editable || saving} className="space-y-5">
         <TextField label="Job title" {...register("title")} error={formState.errors.title?.message} />
 
         <details className="rounded-lg border border-line bg-white p-3" open={lines.length === 0}>
@@ -143,7 +147,7 @@ export function QuoteBuilder({
                 Charge the travel fee
               </label>
             </div>
-            <Button type="button" variant="secondary" disabled={formState.isSubmitting} onClick={submit(false)}>
+            <Button type="button" variant="secondary" disabled={saving} onClick={submit(false)}>
               Propose lines
             </Button>
             <p className="text-sm text-muted">Proposing replaces the proposed lines with fresh ones; lines you typed yourself stay.</p>
@@ -202,8 +206,8 @@ export function QuoteBuilder({
           <textarea rows={3} {...register("notes")} className="block w-full rounded-lg border border-line bg-white px-3 py-2" />
         </label>
         {editable ? (
-          <Button type="submit" disabled={formState.isSubmitting}>
-            {formState.isSubmitting ? "Saving…" : "Save the quote"}
+          <Button type="submit" disabled={saving}>
+            {saving ? "Saving…" : "Save the quote"}
           </Button>
         ) : (
           <p className="text-sm text-muted">This quote can no longer be changed.</p>

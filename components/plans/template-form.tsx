@@ -1,9 +1,9 @@
 "use client";
-import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
-import { ApiError, apiJson } from "@/components/api-client";
+import { apiJson } from "@/components/api-client";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -35,29 +35,25 @@ export function PlanTemplateForm({
   taxNote: string;
   categoryLabels: Record<ClaimCategory, string>;
 }) {
-  const router = useRouter();
   const form = useForm<TemplateFormValues>({
     resolver: useLazyZodResolver(() => import("@/lib/validation/plan-template-form").then((m) => m.templateFormSchema(exponent))),
     defaultValues: templateFormValues(template ?? null, exponent),
   });
   const errors = form.formState.errors;
-  const onSubmit = form.handleSubmit(async (values) => {
-    const json = templateInputOf(values, exponent);
-    try {
-      if (template) {
-        await apiJson(`/api/plans/${template.id}`, { method: "PUT", json });
-        toast.success("Saved. Plans already running keep the terms they were bought under.");
-      } else {
-        await apiJson("/api/plans", { method: "POST", json });
+  const { run, busy } = useRefreshingMutation(
+    (json: ReturnType<typeof templateInputOf>) => (template ? apiJson(`/api/plans/${template.id}`, { method: "PUT", json }) : apiJson("/api/plans", { method: "POST", json })),
+    {
+      withFieldErrors: true,
+      onSuccess: () => {
+        if (template) return void toast.success("Saved. Plans already running keep the terms they were bought under.");
         toast.success("Plan added.");
         form.reset(templateFormValues(null, exponent));
-      }
-      router.refresh();
-    } catch (e) {
-      const message = e instanceof ApiError ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : "The plan wasn't saved. Check your connection and try again.";
-      form.setError("root", { type: "server", message });
-    }
-  });
+      },
+      onError: (words) => form.setError("root", { type: "server", message: words }),
+    },
+  );
+  const onSubmit = form.handleSubmit((values) => run(templateInputOf(values, exponent)));
+  const saving = busy || form.formState.isSubmitting;
   const id = template?.id ?? "new";
   return (
     <form onSubmit={onSubmit} noValidate className="grid gap-4 sm:grid-cols-2" aria-label={template ? `Change ${template.name}` : "New care plan"}>
@@ -131,8 +127,8 @@ export function PlanTemplateForm({
       </div>
 
       <div className="space-y-2 sm:col-span-2">
-        <Button type="submit" disabled={form.formState.isSubmitting}>
-          {form.formState.isSubmitting ? "Saving…" : template ? "Save as a new version" : "Add the plan"}
+        <Button type="submit" disabled={saving}>
+          {saving ? "Saving…" : template ? "Save as a new version" : "Add the plan"}
         </Button>
         <ErrorLine>{errors.root?.message}</ErrorLine>
       </div>

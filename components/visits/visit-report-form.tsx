@@ -1,7 +1,6 @@
 "use client";
 
 import { Camera, Plus, Trash2 } from "lucide-react";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { toast } from "sonner";
@@ -13,6 +12,7 @@ import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type Fin
 import type { visitReportSchema, VisitReportInput, VisitReportValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError, uploadForm } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 
 type Product = { id: string; name: string; finishClass: FinishClass };
 type Photo = { id: string; kind: "before" | "after"; thumbUrl: string };
@@ -52,7 +52,6 @@ export function VisitReportForm({
   initialPhotos: Photo[];
   early: { startsAt: string; asStaff: boolean } | null;
 }) {
-  const router = useRouter();
   const defaultClass = defaultLayers[0]?.finishClass;
   const form = useForm<VisitReportInput, unknown, VisitReportValues>({
     resolver: useLazyZodResolver<typeof visitReportSchema, VisitReportInput, VisitReportValues>(() => import("@/lib/validation/visits").then((m) => m.visitReportSchema)),
@@ -80,20 +79,23 @@ export function VisitReportForm({
     setUploading(null);
   }
 
-  const onSubmit = form.handleSubmit(async (values) => {
+  const { run, busy } = useRefreshingMutation(
+    (values: VisitReportValues) => apiJson(`/api/visits/${visitId}/report`, { method: "POST", json: { ...values, layers: values.layers.map((l) => ({ ...l, productId: l.productId || null })) } }),
+    {
+      onSuccess: () => toast.success("Report filed. The owner gets a summary by e-mail."),
+      onError: (words, e) => {
+        setFormError(words);
+        for (const [field, messages] of Object.entries(isApiError(e) ? e.fieldErrors : {})) {
+          if (messages?.[0]) form.setError(field as never, { type: "server", message: messages[0] });
+        }
+      },
+    },
+  );
+  const onSubmit = form.handleSubmit((values) => {
     setFormError(null);
-    try {
-      await apiJson(`/api/visits/${visitId}/report`, { method: "POST", json: { ...values, layers: values.layers.map((l) => ({ ...l, productId: l.productId || null })) } });
-      toast.success("Report filed. The owner gets a summary by e-mail.");
-      router.refresh();
-    } catch (e) {
-      if (!isApiError(e)) return setFormError("Something went wrong.");
-      setFormError(e.message);
-      for (const [field, messages] of Object.entries(e.fieldErrors ?? {})) {
-        if (messages?.[0]) form.setError(field as never, { type: "server", message: messages[0] });
-      }
-    }
+    run(values);
   });
+  const filing = busy || form.formState.isSubmitting;
 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label={`Visit report: ${name}`}>
@@ -203,8 +205,8 @@ export function VisitReportForm({
         )
       ) : null}
 
-      <Button type="submit" className="w-full" disabled={form.formState.isSubmitting || uploading !== null}>
-        {form.formState.isSubmitting ? "Filing the report…" : "File the report and close the job"}
+      <Button type="submit" className="w-full" disabled={filing || uploading !== null}>
+        {filing ? "Filing the report…" : "File the report and close the job"}
       </Button>
     </form>
   );
