@@ -1,8 +1,9 @@
 // What the server benchmarks share: one seeded copy of the 100,000-piece registry (seeded once, then
 // copied for each benchmark), a production build (built once unless BENCH_SKIP_BUILD is set — `npm run
-// bench` builds first and sets it), `next start` on a free port with its own database, signed-in
-// sessions for a staff member and an owner, autocannon runs with exact percentiles, and the server's
-// memory high-water mark. Holds /tmp/gw-e2e.lock (the shared .next directory) for the build and runs.
+// bench` builds first and sets it), the server started as package.json's `start` script starts it (on a
+// free port, with its own database), signed-in sessions for a staff member and an owner, autocannon runs
+// with exact percentiles, and the server's memory once idle and its high-water mark. Holds
+// /tmp/gw-e2e.lock (the shared .next directory) for the build and runs.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import fs from "node:fs";
@@ -77,10 +78,23 @@ function freePort(): Promise<number> {
 
 export type Server = { base: string; pid: number; stop: () => Promise<void> };
 
+/**
+ * The command of package.json's `start` script, so that the benchmarks' server runs as production's does
+ * (with the same Node.js flags): `next start …` or `node <flags> node_modules/next/dist/bin/next start …`.
+ */
+function startCommand(): { command: string; args: string[] } {
+  const pkg = JSON.parse(fs.readFileSync(path.join(root, "package.json"), "utf8")) as { scripts: Record<string, string> };
+  const [first, ...args] = pkg.scripts.start!.trim().split(/\s+/);
+  if (first === "node") return { command: process.execPath, args };
+  if (first === "next") return { command: bin("next"), args };
+  throw new Error(`package.json's start script (${pkg.scripts.start}) should begin with \`next\` or \`node\`; the benchmarks start the server with it`);
+}
+
 export async function startServer(dbFile: string, dir: string, env: Record<string, string> = {}): Promise<Server> {
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
-  const child: ChildProcess = spawn(bin("next"), ["start", "-p", String(port), "-H", "127.0.0.1"], {
+  const start = startCommand();
+  const child: ChildProcess = spawn(start.command, [...start.args, "-p", String(port), "-H", "127.0.0.1"], {
     cwd: root,
     env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", DATABASE_URL: dbFile, DATA_DIR: dir, APP_URL: base, SMTP_PORT: "1", MAIL_SINK_URL: "http://127.0.0.1:1", ...env },
     stdio: ["ignore", "ignore", "inherit"],
@@ -177,9 +191,21 @@ function treeRss(pid: number): number {
   return total;
 }
 
-/** The server's resident memory now (with its child processes), in bytes. */
-export function residentMemory(pid: number): number {
-  return treeRss(pid);
+/**
+ * The server's resident memory once it has finished starting, with no request in flight: `next start`
+ * answers its first request while it is still loading every route's modules in the background (Next's
+ * preloadEntriesOnStart), so on a busy machine memory read at the first answer can be tens of MB short
+ * of what it settles at, and varies with timing. Samples every 500 ms until two readings a second apart
+ * differ by under 1 MB (at most 20 s); returns the settled figure and the one at the first answer.
+ */
+export async function idleMemory(pid: number): Promise<{ settled: number; atFirstAnswer: number }> {
+  const readings = [treeRss(pid)];
+  for (let i = 0; i < 40; i++) {
+    await new Promise((r) => setTimeout(r, 500));
+    readings.push(treeRss(pid));
+    if (readings.length >= 3 && Math.abs(readings.at(-1)! - readings.at(-3)!) < 2 ** 20) break;
+  }
+  return { settled: readings.at(-1)!, atFirstAnswer: readings[0]! };
 }
 
 /** Samples the server's resident memory every 100 ms until stopped; returns the peak. */
