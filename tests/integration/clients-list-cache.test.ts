@@ -1,4 +1,4 @@
-// The clients list's totals (lib/clients/list.ts countClients), against a real SQLite file: the same
+// The clients list's totals (lib/clients/list.ts), against a real SQLite file: the same
 // search, asked again in the same process after a client is created, changed or erased, or a piece
 // moves to another client, shows the new total at once; a search counts its matches only up to 500 and
 // then says "more than", as the registry does.
