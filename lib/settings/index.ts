@@ -238,7 +238,7 @@ export function createPolicyVersion(ctx: StudioContext, v: PolicyVersionValues, 
           effectiveFrom: [
             latest.effectiveFrom > today
               ? `The newest terms are for deliveries from ${formatDate(latest.effectiveFrom)}; start these on that day or later.`
-              : `Start on ${today} (today) or later: pieces already delivered keep the terms they were delivered with.`,
+              : `Start on ${formatDate(today)} (today) or later: pieces already delivered keep the terms they were delivered with.`,
           ],
         });
       }
