@@ -3,40 +3,31 @@
 // cancellations and events, and a renewal paid at an amount that isn't the plan's (tests/support/plans-stripe.ts
 // starts the fake and the receiver of its signed webhooks).
 import { and, eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, planInvoices, planRefunds, pieces, type Piece, type PlanSubscription } from "@/db/schema";
+import { planInvoices, planRefunds, pieces, type Piece, type PlanSubscription } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
-import { SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
 import { cancelMyPlan, cancelPlanAtPeriodEnd, cancelPreview, keepMyPlan, myPlanControl, studioPlanDetail } from "@/lib/plans/cancel";
 import { addPeriod } from "@/lib/plans/periods";
 import { payRefund, refundOf, refundQuote } from "@/lib/plans/refund";
-import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
+import { startPlanByOtherMeans } from "@/lib/plans/subscriptions";
 import { createTemplate } from "@/lib/plans/templates";
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { runPlanVisits } from "@/lib/plans/visits";
-import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
-import { knob as stripeKnob, startPlansStripe, subRow, until } from "../support/plans-stripe";
+import { buyPlan, knob as stripeKnob, plansStripeForFile, subRow, until } from "../support/plans-stripe";
 
-let fake: StripeFake;
-let closeStripe: () => Promise<void>;
+const stripe = plansStripeForFile();
 
-beforeAll(async () => {
-  ({ fake, close: closeStripe } = await startPlansStripe());
-});
-
-afterAll(() => closeStripe());
-
-const knob = (subId: string, action: string, body = "") => stripeKnob(fake, subId, action, body);
-const fakeSub = (id: string) => fake.subscriptions().find((s) => s.id === id)!;
-const audits = (subId: string, action: string) => getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, subId), eq(auditLog.action, action))).all();
+const knob = (subId: string, action: string, body = "") => stripeKnob(stripe.fake, subId, action, body);
+const fakeSub = (id: string) => stripe.fake.subscriptions().find((s) => s.id === id)!;
 /** What the fake's charge book says was refunded of the plan's first payment. */
 const refundedOfFirstPayment = (stripeSubId: string) => {
-  const inv = fake.invoices().find((i) => i.parent.subscription_details.subscription === stripeSubId && i.billing_reason === "subscription_create")!;
+  const inv = stripe.fake.invoices().find((i) => i.parent.subscription_details.subscription === stripeSubId && i.billing_reason === "subscription_create")!;
   const pi = inv.payments.data[0]!.payment.payment_intent;
-  return fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded;
+  return stripe.fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded;
 };
 
 /** A studio with 8.25 % tax on top (a 120.00 plan costs 129.90 a year) and an owner's piece. */
@@ -60,18 +51,7 @@ async function setup(over: { refundRule?: "none" | "unused_share"; transfers?: b
   return { studio, admin, owner, piece, plan };
 }
 
-async function buy(owner: { id: string; email: string; name: string }, piece: Piece, templateId: string): Promise<PlanSubscription> {
-  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, templateId);
-  const paid = await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
-  expect(paid.status).toBe(303);
-  await until(() => {
-    const s = subRow(subscriptionId);
-    return s.state === "running" && getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, s.id)).all().length === 1;
-  });
-  // Let the remaining events of the purchase land before a test reads the plan's version.
-  await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200));
-  return subRow(subscriptionId);
-}
+const buy = (owner: { id: string; email: string; name: string }, piece: Piece, templateId: string) => buyPlan(stripe.fake, owner, piece.id, templateId);
 
 describe("the refund rule", () => {
   // Pro rata by whole unused months, the month in progress counted as used, rounded down to the cent:
@@ -120,9 +100,9 @@ describe("the owner cancels", () => {
     expect(refundOf(sub.id)).toMatchObject({ status: "refunded", amountMinor: 11_907, months: 11, reason: "cancelled", subscriptionVersion: sub.version });
     expect(refundedOfFirstPayment(sub.stripeSubscriptionId!)).toBe(11_907);
     expect(fakeSub(sub.stripeSubscriptionId!)).toMatchObject({ cancel_at: Math.floor(control.quote!.endsAt / 1000), cancel_at_period_end: false });
-    expect(audits(sub.id, "plan.ending")[0]!.data).toMatchObject({ source: "owner" });
-    expect(audits(sub.id, "plan.refund_claimed")).toHaveLength(1);
-    expect(audits(sub.id, "plan.refunded")).toHaveLength(1);
+    expect(auditsOf(sub.id, "plan.ending")[0]!.data).toMatchObject({ source: "owner" });
+    expect(auditsOf(sub.id, "plan.refund_claimed")).toHaveLength(1);
+    expect(auditsOf(sub.id, "plan.refunded")).toHaveLength(1);
     const mail = await waitForMail({ to: owner.email, subject: /Your care plan is cancelled/ });
     expect(mail.text).toMatch(/\$119\.07 for 11 unused months/);
     // The end date in the owner's zone, with the zone named.
@@ -154,7 +134,7 @@ describe("the owner cancels", () => {
     const kept = await keepMyPlan(owner, sub.id, { version: ending.version });
     expect(kept).toMatchObject({ state: "running", endsAt: null });
     expect(fakeSub(sub.stripeSubscriptionId!)).toMatchObject({ cancel_at_period_end: false, cancel_at: null, status: "active" });
-    expect(audits(sub.id, "plan.running").map((a) => (a.data as { source: string }).source)).toContain("owner");
+    expect(auditsOf(sub.id, "plan.running").map((a) => (a.data as { source: string }).source)).toContain("owner");
     // Renewed as usual afterwards.
     await knob(sub.stripeSubscriptionId!, "renew", "outcome=pay");
     await until(() => subRow(sub.id).periodEnd!.getTime() > sub.periodEnd!.getTime());
@@ -171,7 +151,7 @@ describe("staff cancel a plan paid by other means", () => {
     const ending = await cancelPlanAtPeriodEnd(admin, sub.id, { version: preview.version, refundMinor: 11_907 });
     expect(ending).toMatchObject({ state: "ending", endsAt: addPeriod(sub.periodStart!, "month") });
     expect(refundOf(sub.id)).toMatchObject({ status: "other_means", amountMinor: 11_907, stripeRefundId: null });
-    expect(audits(sub.id, "plan.ending")[0]!.data).toMatchObject({ source: "staff" });
+    expect(auditsOf(sub.id, "plan.ending")[0]!.data).toMatchObject({ source: "staff" });
     const mail = await waitForMail({ to: owner.email, subject: /Your care plan is cancelled/ });
     expect(mail.text).toMatch(/will pay you back \$119\.07 for 11 unused months/);
     // Before the end it still covers; the day after, the scheduler ends it on the day it was given.
@@ -200,11 +180,11 @@ describe("two at once leave one state and move money once", () => {
     const sub = await buy(owner, piece, plan.id);
     const [renewal, cancel] = await Promise.allSettled([knob(sub.stripeSubscriptionId!, "renew", "outcome=fail"), cancelPlanAtPeriodEnd(admin, sub.id, { version: sub.version, refundMinor: 11_907 })]);
     expect(renewal.status).toBe("fulfilled");
-    await until(() => fake.deliveries().length >= fake.events().length);
-    const events = fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!));
+    await until(() => stripe.fake.deliveries().length >= stripe.fake.events().length);
+    const events = stripe.fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!));
     for (const e of [...events].reverse()) {
-      expect(await fake.redeliver(e.id)).toBe(200);
-      expect(await fake.redeliver(e.id)).toBe(200);
+      expect(await stripe.fake.redeliver(e.id)).toBe(200);
+      expect(await stripe.fake.redeliver(e.id)).toBe(200);
     }
     const s = fakeSub(sub.stripeSubscriptionId!);
     // Cancelled wins over an overdue renewal: a past-due subscription set to cancel is ending, not in grace.
@@ -215,7 +195,7 @@ describe("two at once leave one state and move money once", () => {
     expect(refunds.length).toBe(cancel.status === "fulfilled" ? 1 : 0);
     expect(refundedOfFirstPayment(sub.stripeSubscriptionId!)).toBe(refunds[0]?.amountMinor ?? 0);
     // Replaying once more changes nothing.
-    for (const e of events) await fake.redeliver(e.id);
+    for (const e of events) await stripe.fake.redeliver(e.id);
     expect(subRow(sub.id)).toMatchObject({ state: row.state, version: row.version });
   });
 });
@@ -229,8 +209,8 @@ describe("cancelled while a renewal is overdue", () => {
     // In grace nothing is paid back (the period in hand is the unpaid one).
     await cancelPlanAtPeriodEnd(admin, sub.id, { version: inGrace.version, refundMinor: 0 });
     expect(subRow(sub.id).state).toBe("ending");
-    await until(() => fake.deliveries().length >= fake.events().length);
-    for (const e of fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!))) expect(await fake.redeliver(e.id)).toBe(200);
+    await until(() => stripe.fake.deliveries().length >= stripe.fake.events().length);
+    for (const e of stripe.fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!))) expect(await stripe.fake.redeliver(e.id)).toBe(200);
     expect(fakeSub(sub.stripeSubscriptionId!).status).toBe("past_due");
     expect(subRow(sub.id).state).toBe("ending");
     expect(getDb().select().from(planRefunds).where(eq(planRefunds.subscriptionId, sub.id)).all().filter((r) => r.amountMinor > 0)).toEqual([]);
@@ -244,12 +224,12 @@ describe("a renewal paid at an amount that isn't the plan's", () => {
     await knob(sub.stripeSubscriptionId!, "renew", "outcome=pay&amount=999");
     const held = await until(() => getDb().select().from(planInvoices).where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.counts, false))).get());
     expect(held).toMatchObject({ status: "paid", amountMinor: 999 });
-    await until(() => fake.deliveries().length >= fake.events().length);
+    await until(() => stripe.fake.deliveries().length >= stripe.fake.events().length);
     expect(subRow(sub.id)).toMatchObject({ state: "running", periodStart: sub.periodStart, periodEnd: sub.periodEnd });
-    for (const e of fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!))) await fake.redeliver(e.id);
+    for (const e of stripe.fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!))) await stripe.fake.redeliver(e.id);
     expect(subRow(sub.id).periodEnd).toEqual(sub.periodEnd);
-    expect(audits(sub.id, "plan.payment_held")).toHaveLength(1);
-    expect(audits(sub.id, "plan.payment_held")[0]!.data).toMatchObject({ amountMinor: 999, expectedMinor: 12_990 });
+    expect(auditsOf(sub.id, "plan.payment_held")).toHaveLength(1);
+    expect(auditsOf(sub.id, "plan.payment_held")[0]!.data).toMatchObject({ amountMinor: 999, expectedMinor: 12_990 });
     expect(studioPlanDetail(admin, sub.id).heldPayments).toEqual([expect.objectContaining({ amountMinor: 999, stripeInvoiceId: held.stripeInvoiceId })]);
     // A renewal at the plan's amount is accepted as before.
     await knob(sub.stripeSubscriptionId!, "renew", "outcome=pay");
@@ -267,7 +247,7 @@ describe("a piece that changes hands", () => {
     expect(refundOf(sub.id)).toMatchObject({ status: "refunded", reason: "changed_hands", amountMinor: 11_907, months: 11 });
     expect(refundedOfFirstPayment(sub.stripeSubscriptionId!)).toBe(11_907);
     expect(fakeSub(sub.stripeSubscriptionId!).status).toBe("canceled");
-    expect(audits(sub.id, "plan.changed_hands")[0]!.data).toMatchObject({ moves: false, refundMinor: 11_907 });
+    expect(auditsOf(sub.id, "plan.changed_hands")[0]!.data).toMatchObject({ moves: false, refundMinor: 11_907 });
     await waitForMail({ to: owner.email, subject: /has ended with the piece's new owner/ });
   });
 
@@ -279,7 +259,7 @@ describe("a piece that changes hands", () => {
     expect(moved).toMatchObject({ state: "ending", endsAt: sub.periodEnd, pieceId: piece.id });
     expect(refundOf(sub.id)).toBeUndefined();
     expect(fakeSub(sub.stripeSubscriptionId!)).toMatchObject({ status: "active", cancel_at_period_end: true });
-    expect(audits(sub.id, "plan.changed_hands")[0]!.data).toMatchObject({ moves: true });
+    expect(auditsOf(sub.id, "plan.changed_hands")[0]!.data).toMatchObject({ moves: true });
     expect(getDb().select().from(pieces).where(eq(pieces.id, piece.id)).get()!.ownerId).toBeNull();
   });
 });

@@ -1,13 +1,13 @@
 // Care plans through the real stripe SDK against the local Stripe fake over HTTP (tests/support/plans-stripe.ts
 // starts the fake and a receiver that hands its signed webhooks to the webhook route's handlers).
 import { and, eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, careLogEntries, reminderSends, planInvoices, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
+import { careLogEntries, reminderSends, planInvoices, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { claimCoverage } from "@/lib/claims/coverage";
 import { env } from "@/lib/env";
-import { SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
 import { canMovePlan, PLAN_STATES } from "@/lib/plans/states";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
@@ -19,21 +19,14 @@ import { createTemplate, templatesFitting, updateTemplate } from "@/lib/plans/te
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/visits";
 import { runReminderPass } from "@/lib/reminders/pass";
-import { createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
-import { knob as stripeKnob, startPlansStripe, subRow, until } from "../support/plans-stripe";
+import { knob as stripeKnob, plansStripeForFile, subRow, until } from "../support/plans-stripe";
 
-let fake: StripeFake;
-let closeStripe: () => Promise<void>;
+const stripe = plansStripeForFile();
 const DAY = 86_400_000;
 
-beforeAll(async () => {
-  ({ fake, close: closeStripe } = await startPlansStripe());
-});
-
-afterAll(() => closeStripe());
-
-const knob = (subId: string, action: string, body = "") => stripeKnob(fake, subId, action, body);
+const knob = (subId: string, action: string, body = "") => stripeKnob(stripe.fake, subId, action, body);
 
 const template = (over: Partial<Record<string, unknown>> = {}) =>
   planTemplateSchema.parse({
@@ -123,7 +116,7 @@ describe("buying and running a plan through the Stripe fake", () => {
     const invoice = getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).get()!;
     expect(invoice).toMatchObject({ status: "paid", amountMinor: 12_990, taxMinor: 990, counts: true });
     expect(livePlanOfPiece(piece.id)?.sub.id).toBe(sub.id);
-    const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, sub.id), eq(auditLog.action, "plan.running"))).all();
+    const audit = auditsOf(sub.id, "plan.running");
     expect(audit).toHaveLength(1);
     expect(audit[0]!.data).toMatchObject({ from: "awaiting_payment", source: "stripe" });
 
@@ -220,12 +213,12 @@ describe("buying and running a plan through the Stripe fake", () => {
     await knob(sub.stripeSubscriptionId!, "settle");
     await until(() => subRow(sub.id).state === "running");
     const settled = subRow(sub.id);
-    const events = fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!));
+    const events = stripe.fake.events().filter((e) => JSON.stringify(e.data.object).includes(sub.stripeSubscriptionId!));
     expect(events.map((e) => e.type)).toContain("invoice.payment_failed");
     // Every event again, oldest last (out of order), each twice.
     for (const e of [...events].reverse()) {
-      expect(await fake.redeliver(e.id)).toBe(200);
-      expect(await fake.redeliver(e.id)).toBe(200);
+      expect(await stripe.fake.redeliver(e.id)).toBe(200);
+      expect(await stripe.fake.redeliver(e.id)).toBe(200);
     }
     const after = subRow(sub.id);
     expect(after).toMatchObject({ state: "running", version: settled.version, periodEnd: settled.periodEnd });
@@ -238,7 +231,7 @@ describe("buying and running a plan through the Stripe fake", () => {
     expect(getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).all()).toHaveLength(2);
     expect(getDb().select().from(stripeEvents).where(eq(stripeEvents.id, `evt_late_${sub.id}`)).all()).toHaveLength(1);
     // One grace mail for the one failed renewal.
-    const grace = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, sub.id), eq(auditLog.action, "plan.grace"))).all();
+    const grace = auditsOf(sub.id, "plan.grace");
     expect(grace).toHaveLength(1);
   });
 
