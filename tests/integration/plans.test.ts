@@ -3,11 +3,10 @@
 import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { careLogEntries, reminderSends, planInvoices, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type PlanSubscription, type Studio } from "@/db/schema";
+import { careLogEntries, reminderSends, planInvoices, planVisits, repairJobs, stripeEvents, users as usersTable, type Piece, type Studio } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { claimCoverage } from "@/lib/claims/coverage";
 import { env } from "@/lib/env";
-import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { cancelPlanAtPeriodEnd } from "@/lib/plans/cancel";
 import { canMovePlan, PLAN_STATES } from "@/lib/plans/states";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
@@ -21,7 +20,7 @@ import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/
 import { runReminderPass } from "@/lib/reminders/pass";
 import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
-import { knob as stripeKnob, plansStripeForFile, subRow, until } from "../support/plans-stripe";
+import { buyPlan, knob as stripeKnob, plansStripeForFile, subRow, until } from "../support/plans-stripe";
 
 const stripe = plansStripeForFile();
 const DAY = 86_400_000;
@@ -49,15 +48,7 @@ async function setup(studioOver: Partial<Studio> = {}) {
   return { studio, admin, owner, piece, plan };
 }
 
-async function buy(owner: Awaited<ReturnType<typeof createUser>>, piece: Piece, templateId: string): Promise<PlanSubscription> {
-  const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, templateId);
-  const paid = await fetch(checkoutUrl, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
-  expect(paid.status).toBe(303);
-  return until(() => {
-    const s = subRow(subscriptionId);
-    return s.state === "running" && getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, s.id)).all().length === 1 && s;
-  });
-}
+const buy = (owner: Awaited<ReturnType<typeof createUser>>, piece: Piece, templateId: string) => buyPlan(stripe.fake, owner, piece.id, templateId);
 
 function coverageOn(piece: Piece, ownerId: string, at: Date) {
   return claimCoverage({
