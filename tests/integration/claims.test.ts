@@ -1,11 +1,11 @@
 // Claims against a real SQLite file and the real SMTP sink: the state machine, concurrent decisions,
 // authorization (someone else's claim or photo is a 404), the coverage check beside each decision,
 // and the claim mail. All data is invented.
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { ZodError } from "zod";
 import { getDb } from "@/db/client";
-import { auditLog, careLogEntries, claims, files, finishLayers, ownerships, users, warrantyPolicies } from "@/db/schema";
+import { careLogEntries, claims, files, finishLayers, ownerships, users, warrantyPolicies } from "@/db/schema";
 import { checkCoverage, DEFAULT_WARRANTY_POLICY, type WarrantyPolicy } from "@/lib/care/coverage";
 import { addMonths } from "@/lib/care/dates";
 import { CLAIM_STATES } from "@/lib/care/vocabulary";
@@ -19,7 +19,7 @@ import { ownerActor } from "@/lib/auth/actor";
 import { AppError } from "@/lib/errors";
 import { canViewFile, getFileForViewer } from "@/lib/files/access";
 import { storeImage } from "@/lib/storage";
-import { createPiece, createUser } from "../support/fixtures";
+import { auditsOf, createPiece, createUser } from "../support/fixtures";
 import { extractLinks, getMail, waitForMail } from "../support/mail";
 import { formatDate } from "@/lib/format";
 import { addMember, claimWorld, decide, fileClaim, listQueue, forceState, NO_ANSWERS, otherOwner, otherStudioStaff, photoJpeg, todayUtc } from "./claims-helpers";
@@ -102,7 +102,7 @@ describe("claim state machine", () => {
     const rejected = results.filter((r): r is PromiseRejectedResult => r.status === "rejected");
     expect(rejected).toHaveLength(1);
     expect((rejected[0]!.reason as AppError).status).toBe(409);
-    const decided = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, claim.id), eq(auditLog.action, "claim.decided"))).all();
+    const decided = auditsOf(claim.id, "claim.decided");
     expect(decided).toHaveLength(1);
     const row = getDb().select().from(claims).where(eq(claims.id, claim.id)).get()!;
     expect(row.decision).toBe((decided[0]!.data as { decision: string }).decision);
@@ -313,7 +313,7 @@ describe("the coverage check beside each claim", () => {
     expect(row).toMatchObject({ state: "accepted", decision: "chargeable", coveredPct: 0, decidedById: w.staffCtx.user.id });
     expect(row.suggestion).toMatchObject({ suggestion: "not_covered", suggestedCoveredPct: 0 });
     expect((row.suggestion as { reasons: string[] }).reasons.some((r) => /ended/.test(r))).toBe(true);
-    const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, claim.id), eq(auditLog.action, "claim.decided"))).get()!;
+    const audit = auditsOf(claim.id, "claim.decided")[0]!;
     expect(audit.data).toMatchObject({ decision: "chargeable", suggestion: { suggestion: "not_covered" } });
     expect(audit.actorId).toBe(w.staffCtx.user.id);
   });

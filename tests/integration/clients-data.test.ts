@@ -11,7 +11,6 @@ import sharp from "sharp";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import {
-  auditLog,
   careLogEntries,
   claims,
   clientConsents,
@@ -43,7 +42,7 @@ import { sendHandover } from "@/lib/pieces/handover";
 import { createHandoverBatch, handoverBatchProgress, runHandoverBatch } from "@/lib/pieces/handover-batch";
 import { storeImage } from "@/lib/storage";
 import { clientListQuerySchema, createClientSchema } from "@/lib/validation/clients";
-import { createAcceptedClaim, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { auditsOf, createAcceptedClaim, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
 
 const NOW = new Date("2026-11-20T18:00:00Z");
@@ -128,7 +127,7 @@ describe("a client's personal data", () => {
     // Another studio's admin gets a 404; the export was recorded without its contents.
     const other = await memberContext(createStudio(), "admin");
     await expect(exportClientData(other, p.client.id, NOW)).rejects.toMatchObject({ status: 404 });
-    const audit = db.select().from(auditLog).where(and(eq(auditLog.subjectId, p.client.id), eq(auditLog.action, "client.exported"))).all();
+    const audit = auditsOf(p.client.id, "client.exported");
     expect(audit).toHaveLength(1);
     expect(JSON.stringify(audit[0]!.data)).not.toContain(p.email);
   });
@@ -170,7 +169,7 @@ describe("a client's personal data", () => {
     }
     expect(traces).toEqual([]);
     // The audit log keeps that it happened, not the data.
-    const erased = db.select().from(auditLog).where(and(eq(auditLog.subjectId, p.client.id), eq(auditLog.action, "client.erased"))).get()!;
+    const erased = auditsOf(p.client.id, "client.erased")[0]!;
     expect(erased.data).toEqual({ pieces: 2, photos: 2, claims: 1, messages: 1 });
     expect(erased.actorId).toBe(p.admin.user.id);
     // After erasure, the export holds nothing personal.

@@ -3,12 +3,12 @@
 // reply mails the owner with the thread's own Reply-To; the owner's e-mailed answer lands in the
 // thread once however often it is delivered; mail that matches no thread is kept; other studios and
 // former owners get 404s. All data is invented.
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import nodemailer from "nodemailer";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { ZodError } from "zod";
 import { getDb } from "@/db/client";
-import { auditLog, claims, clients, pieces, repairJobs, threadMessages, threads, unmatchedMail } from "@/db/schema";
+import { claims, clients, pieces, repairJobs, threadMessages, threads, unmatchedMail } from "@/db/schema";
 import { clientTimeline } from "@/lib/clients/timeline";
 import { decideClaim } from "@/lib/claims/decide-claim";
 import { getOwnerClaim } from "@/lib/claims/view-claim";
@@ -22,7 +22,7 @@ import { getThread, listInbox, ownerConversations, ownerSubject, postOwnerMessag
 import type { User } from "lucia";
 import type { StudioContext } from "@/lib/auth/guards";
 import { messageFormSchema } from "@/lib/validation/messages";
-import { createUser } from "../support/fixtures";
+import { auditsOf, createUser } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
 import { bookVisit } from "@/lib/visits/book";
 import { listJobSlots } from "@/lib/visits/slots";
@@ -249,7 +249,7 @@ describe("replies by e-mail through the inbound listener", () => {
     expect(after.state).toBe("in_review");
     expect(after.version).toBe(version + 1); // one move, not two
     expect(getOwnerClaim(w.owner, claim.id).messages.filter((m) => m.body === "It opened a little more; photo to follow. (invented)")).toHaveLength(1);
-    const audits = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, claim.id), eq(auditLog.action, "claim.message"))).all().filter((a) => (a.data as { via?: string }).via === "email");
+    const audits = auditsOf(claim.id, "claim.message").filter((a) => (a.data as { via?: string }).via === "email");
     expect(audits).toHaveLength(1);
     expect(audits[0]!.data).toMatchObject({ from: "awaiting_owner", to: "in_review", fromStudio: false });
     // The same move the web page makes: staff can decide it now, and a second e-mail moves nothing.

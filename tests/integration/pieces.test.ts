@@ -1,8 +1,8 @@
 // The piece registry against a real SQLite file: create, edit, the finish stack, codes, search, CSV.
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, finishLayers, finishProducts, pieces, warrantyPolicies } from "@/db/schema";
+import { finishLayers, finishProducts, pieces, warrantyPolicies } from "@/db/schema";
 import { DEFAULT_WARRANTY_POLICY } from "@/lib/care/coverage";
 import { AppError } from "@/lib/errors";
 import { importPiecesCsv, exportPiecesCsv } from "@/lib/pieces/csv";
@@ -10,7 +10,7 @@ import { addLayer, removeLayer, updateLayer } from "@/lib/pieces/layers";
 import { createPiece, deletePiece, findByTypedCode, getPieceDetail, layerHistory, listPieces, reissueRegistrationCode, SEARCH_COUNT_CAP, updatePiece } from "@/lib/pieces/registry";
 import { createPieceSchema, layerSchema, pieceListQuerySchema, type CreatePieceInput } from "@/lib/validation/pieces";
 import { ftsQuery, indexPiece } from "@/lib/pieces/search-index";
-import { createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { auditsOf, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 
 const base = (over: Partial<CreatePieceInput> = {}): CreatePieceInput => ({
   kind: "dining_table",
@@ -99,7 +99,7 @@ describe("piece records", () => {
     expect(updated.resinKind).toBe("deep_pour"); // fields not sent keep their value
     expect(updated.resinTint).toBe("clear");
     expect(() => updatePiece(ctx, piece.id, { shapeKind: "measured" })).toThrow(); // no measured area
-    const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, piece.id), eq(auditLog.action, "piece.updated"))).all();
+    const audit = auditsOf(piece.id, "piece.updated");
     expect(audit).toHaveLength(1);
     expect(audit[0]!.data).toMatchObject({ before: { title: "Walnut river table (invented)" }, after: { title: "Walnut river table, renamed" } });
     expect(listPieces(ctx, pieceListQuerySchema.parse({ q: "renamed" })).rows.map((r) => r.id)).toEqual([piece.id]);
@@ -157,7 +157,7 @@ describe("finish stack", () => {
     const history = layerHistory(ctx, piece.id).map((h) => h.action);
     expect(history.filter((a) => a === "layer.added")).toHaveLength(4);
     expect(history).toEqual(expect.arrayContaining(["layer.moved", "layer.updated", "layer.removed"]));
-    const removed = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, piece.id), eq(auditLog.action, "layer.removed"))).get()!;
+    const removed = auditsOf(piece.id, "layer.removed")[0]!;
     expect(removed.data).toMatchObject({ before: { finishClass: "paste_wax" } });
     expect(getPieceDetail(ctx, piece.id, now).schedule!.tasks.map((t) => t.kind)).toContain("topcoat_refresh");
     // The lot number is searchable.
@@ -191,7 +191,7 @@ describe("registration codes", () => {
     expect(findByTypedCode(ctx, old)).toBeNull();
     expect(listPieces(ctx, pieceListQuerySchema.parse({ q: old })).rows).toHaveLength(0);
     expect(findByTypedCode(ctx, fresh)).toBe(piece.id);
-    expect(getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, piece.id), eq(auditLog.action, "piece.code_reissued"))).all()).toHaveLength(1);
+    expect(auditsOf(piece.id, "piece.code_reissued")).toHaveLength(1);
   });
 });
 

@@ -3,11 +3,11 @@
 // a reason, audited); the owner signs off from a single-use link in the report mail; visit photos
 // reach the right people only; visit mail says today / tomorrow / the date by the owner's own calendar
 // day, across a daylight-saving change and for an owner in another zone than the studio.
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import sharp from "sharp";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, clients, files, pieces, repairJobs, users, visits } from "@/db/schema";
+import { clients, files, pieces, repairJobs, users, visits } from "@/db/schema";
 import { createJobFromClaim } from "@/lib/claims/open-job";
 import { AppError } from "@/lib/errors";
 import { canViewFile } from "@/lib/files/access";
@@ -20,7 +20,7 @@ import { submitReport } from "@/lib/visits/report";
 import { technicianDay } from "@/lib/visits/technician-day";
 import { visitOfJob } from "@/lib/visits/job-visit";
 import { confirmSignOff, signOffPreview } from "@/lib/visits/sign-off";
-import { createAcceptedClaim, createStudio, createUser, memberContext } from "../support/fixtures";
+import { auditsOf, createAcceptedClaim, createStudio, createUser, memberContext } from "../support/fixtures";
 import { listMail, waitForMail } from "../support/mail";
 import { luciaUser, ownerActor, reportInput, staffActor, visitWorld } from "./visits-helpers";
 
@@ -94,7 +94,7 @@ describe("a report before the visit's start", () => {
 
     await submitReport(w.staff, w.visit.id, reportInput({ ...report, earlyReason: "Owner called: done at the shop the evening before (invented)." }), before);
     expect(getDb().select().from(visits).where(eq(visits.id, w.visit.id)).get()).toMatchObject({ state: "done", reportEarlyReason: "Owner called: done at the shop the evening before (invented)." });
-    const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, w.visit.id), eq(auditLog.action, "visit.reported"))).get()!;
+    const audit = auditsOf(w.visit.id, "visit.reported")[0]!;
     expect(audit.actorId).toBe(w.staff.user.id);
     expect(audit.data).toMatchObject({ beforeStart: true, start: w.visit.start, reason: "Owner called: done at the shop the evening before (invented)." });
   });
@@ -127,7 +127,7 @@ describe("the owner's sign-off", () => {
     expect(confirmSignOff(token)).toBeNull();
     expect(signOffPreview(token)).toBeNull();
     expect(confirmSignOff("not-a-real-token-at-all")).toBeNull();
-    expect(getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, w.visit.id), eq(auditLog.action, "visit.signed_off"))).get()).toMatchObject({ actorId: w.owner.id });
+    expect(auditsOf(w.visit.id, "visit.signed_off")[0]).toMatchObject({ actorId: w.owner.id });
   });
 
   it("an expired link signs off nothing", async () => {
