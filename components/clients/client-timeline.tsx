@@ -12,7 +12,7 @@ import { formatInstant } from "@/lib/format";
 const PAGE = 50;
 
 /** Everything that happened with the client, newest first: 50 at a time, "Show more" adds 50. */
-export function ClientTimeline({ clientId, viewerZone }: { clientId: string; viewerZone: string }) {
+export function ClientTimeline({ clientId }: { clientId: string }) {
   const [limit, setLimit] = useState(PAGE);
   const query = useQuery({
     queryKey: ["client-timeline", clientId, limit],
@@ -33,7 +33,7 @@ export function ClientTimeline({ clientId, viewerZone }: { clientId: string; vie
           {data.entries.map((e) => (
             <li key={e.key} className="grid gap-1 px-4 py-3 md:grid-cols-[14rem_1fr]">
               <time dateTime={e.at} className="text-sm text-muted">
-                {formatInstant(e.at, e.allDay ? "UTC" : data.timeZone, { time: !e.allDay, viewerZone: e.allDay ? "UTC" : viewerZone })}
+                {formatInstant(e.at, e.allDay ? "UTC" : data.timeZone, { time: !e.allDay })}
               </time>
               {e.href ? (
                 <Link href={e.href} className="text-ink underline-offset-2 hover:text-resin hover:underline">

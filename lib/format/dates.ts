@@ -47,17 +47,16 @@ export function formatMonth(iso: string, { short = false }: { short?: boolean } 
   return short ? `${name} ’${String(y).slice(2)}` : `${name} ${y}`;
 }
 
-export type InstantOptions = { time?: boolean; viewerZone?: string };
+export type InstantOptions = { time?: boolean };
 
 /**
  * An instant as a date (and time) in `timeZone`: "3 December 2026" or "3 December 2026 at 09:00 CET".
- * With a time the zone is named, unless `viewerZone` is given and is the same zone.
+ * With a time the zone is always named: a time is never shown without its zone.
  */
-export function formatInstant(at: Date | number | string, timeZone: string, { time = false, viewerZone }: InstantOptions = {}): string {
+export function formatInstant(at: Date | number | string, timeZone: string, { time = false }: InstantOptions = {}): string {
   const ms = typeof at === "string" ? Date.parse(at) : typeof at === "number" ? at : at.getTime();
-  const named = time && viewerZone !== timeZone;
   const text = dtf({ timeZone, day: "numeric", month: "long", year: "numeric", ...(time ? { hour: "2-digit", minute: "2-digit" } : {}) }).format(ms);
-  return named ? `${text} ${zoneAbbreviation(ms, timeZone)}` : text;
+  return time ? `${text} ${zoneAbbreviation(ms, timeZone)}` : text;
 }
 
 /**

@@ -44,6 +44,8 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   // What happened before, from the studio's records: deliveries and registrations of their pieces.
   await expect(timeline.getByText(/^Delivered “/).first()).toBeVisible();
   await expect(timeline.getByText(/^Registered “.*” in Grainward$/).first()).toBeVisible();
+  // A time on the timeline names its zone, the viewer's own included ("… at 10:23 PST").
+  await expect(timeline.locator("time").filter({ hasText: /\d{2}:\d{2}/ }).first()).toHaveText(/\d{2}:\d{2} [A-Z][A-Za-z0-9+\-]*$/);
 
   // Search by the new number's digits finds them.
   await page.goto("/studio/clients?q=5550147");

@@ -25,7 +25,6 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
   });
   const { client, consentHistory, pieces } = detail;
   const studioZone = ctx.studio.timeZone;
-  const viewerZone = ctx.user.timeZone;
   const reach = [client.email, client.phoneDisplay].filter(Boolean).join(" · ");
   return (
     <div className="space-y-6">
@@ -44,7 +43,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
             <h2 className="font-display text-xl font-semibold">Contact details</h2>
             <ClientForm client={client} studioZone={studioZone} zones={zoneChoices([studioZone, client.timeZone])} />
           </Card>
-          <ClientTimeline clientId={client.id} viewerZone={viewerZone} />
+          <ClientTimeline clientId={client.id} />
         </div>
         <div className="space-y-6">
           <Card className="space-y-3">
@@ -84,7 +83,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
                   <li key={h.id}>
                     <p>
                       <span className="font-medium">{h.granted ? "Agreed to" : "Withdrew"}</span> {CONSENT_KIND_LABELS[h.kind].split(" (")[0]!.toLowerCase()} —{" "}
-                      {CONSENT_SOURCE_LABELS[h.source].toLowerCase()}, {formatInstant(h.givenAt, studioZone, { time: true, viewerZone })}
+                      {CONSENT_SOURCE_LABELS[h.source].toLowerCase()}, {formatInstant(h.givenAt, studioZone, { time: true })}
                     </p>
                     {h.note || h.recordedBy ? (
                       <p className="text-muted">
