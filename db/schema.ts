@@ -306,7 +306,8 @@ export const pieces = sqliteTable(
   (t) => [
     index("pieces_studio_idx").on(t.studioId, t.deliveredOn),
     index("pieces_owner_idx").on(t.ownerId),
-    index("pieces_client_idx").on(t.clientId),
+    // The clients list's per-row counts and filters (lib/clients/list.ts) read a client's pieces from this index alone.
+    index("pieces_client_idx").on(t.clientId, t.archivedAt, t.ownerId, t.remindersPaused),
   ],
 );
 
