@@ -1,6 +1,9 @@
 // Server CPU per request (user + system time of the `next start` process, from /proc), for GET /api/me and
-// the owner's piece page, plus any paths given as arguments (PIECE stands for the benched piece's id):
+// the owner's piece page, plus any paths given as arguments (PIECE stands for the benched piece's id),
+// requested as that piece's owner, or as the studio's staff member when prefixed `staff:`:
 //   npx tsx tests/bench/page-cpu.ts /pieces/PIECE/log
+// CLIENTS=20000 adds the clients seed of tests/bench/clients.bench.ts (tests/bench/seed-clients.ts) first:
+//   CLIENTS=20000 npx tsx tests/bench/page-cpu.ts staff:/api/clients?q=Thornwick staff:/api/clients?q=burl
 // Needs a production build in .next (`npx next build`). Requests go one at a time, without compression (as
 // autocannon sends them), in alternating rounds so that every path sees the same load from the rest of the
 // machine; each round's figure is printed, and the lowest, which is the least disturbed. On a shared machine
@@ -9,11 +12,13 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import Database from "better-sqlite3";
+import { seedClients } from "./seed-clients";
 import { seededCopy, sessionCookie, startServer } from "./server-harness";
 
 const TICK_MS = 10; // /proc/<pid>/stat counts CPU time in clock ticks of 1/100 s
 const N = Number(process.env.N ?? 200);
 const ROUNDS = Number(process.env.ROUNDS ?? 5);
+const CLIENTS = Number(process.env.CLIENTS ?? 0);
 
 function cpuMs(pid: number): number {
   const fields = fs.readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
@@ -28,13 +33,14 @@ const piece = db
   .prepare("SELECT p.id, p.owner_id AS ownerId FROM pieces p WHERE p.owner_id IS NOT NULL AND p.studio_id = ? ORDER BY p.rowid LIMIT 1 OFFSET ?")
   .get(seeded.studioId, Math.floor(seeded.pieces / 40)) as { id: string; ownerId: string };
 db.close();
+if (CLIENTS) seedClients(dbFile, seeded.studioId, seeded.staffUserId, CLIENTS);
 const staff = sessionCookie(dbFile, seeded.staffUserId);
 const owner = sessionCookie(dbFile, piece.ownerId);
 const server = await startServer(dbFile, dir);
 const paths: [string, string][] = [
   ["/api/me", staff],
   [`/pieces/${piece.id}`, owner],
-  ...process.argv.slice(2).map((p): [string, string] => [p.replace("PIECE", piece.id), owner]),
+  ...process.argv.slice(2).map((p): [string, string] => (p.startsWith("staff:") ? [p.slice("staff:".length), staff] : [p.replace("PIECE", piece.id), owner])),
 ];
 
 async function run(url: string, cookie: string, n: number): Promise<void> {
