@@ -1,6 +1,7 @@
 // `npm run demo`: a fresh demo database with the invented studio, a production build, then the app,
 // the local SMTP sink, the scheduler (care reminders, hourly) and the other local services, until Ctrl-C.
 import { removeDatabase, runStep, supervise } from "./services.mjs";
+import { startCommand } from "./start-command.mjs";
 
 const port = process.env.PORT ?? "3000";
 const env = {
@@ -23,13 +24,14 @@ runStep("Migrating a fresh demo database", "tsx", ["db/migrate.ts"], env);
 runStep("Seeding the invented demo studio", "tsx", ["db/seed/index.ts"], env);
 if (!process.env.SKIP_BUILD) runStep("Building the app", "next", ["build"], env);
 
+const start = startCommand();
 console.log(`\n▸ Starting Grainward on ${env.APP_URL} (outbox at ${env.APP_URL}/studio/outbox). Ctrl-C stops everything.\n`);
 supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
     { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "inbound", cmd: "tsx", args: ["lib/mail/inbound-cli.ts"] },
-    { name: "app", cmd: "next", args: ["start", "-p", port] },
+    { name: "app", cmd: start.command, args: [...start.args, "-p", port] },
     // The scheduler runs in Node itself with tsx as a loader, not under the tsx CLI: the CLI relays SIGTERM
     // and kills its child if a busy pass has not answered within 30 ms, which cut passes off mid-message.
     { name: "jobs", cmd: "node", args: ["--import", "tsx", "jobs/index.ts"] },

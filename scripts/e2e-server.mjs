@@ -3,6 +3,7 @@
 // default, E2E_PORT_BASE moves them).
 import { E2E_APP_URL, E2E_DATA_DIR, E2E_DATABASE, E2E_EMPTY_DATABASE, E2E_PORTS, E2E_SINK_URL } from "./e2e-config.mjs";
 import { removeDatabase, runStep, supervise } from "./services.mjs";
+import { startCommand } from "./start-command.mjs";
 
 // E2E_EMPTY_DATABASE=1: no seed, and STUDIO_SIGNUP closed, so only the first-studio rule lets a stranger
 // start one (tests/e2e/studio-setup.spec.ts: E2E_EMPTY_DATABASE=1 npx playwright test tests/e2e/studio-setup.spec.ts).
@@ -33,12 +34,13 @@ const env = {
 removeDatabase(env.DATABASE_URL);
 runStep("Migrating the e2e database", "tsx", ["db/migrate.ts"], env);
 if (!emptyDatabase) runStep("Seeding the e2e database", "tsx", ["tests/support/seed-e2e.ts"], env);
+const start = startCommand();
 supervise(
   [
     { name: "mail", cmd: "tsx", args: ["lib/fakes/smtp-sink-cli.ts"] },
     { name: "payments", cmd: "tsx", args: ["lib/fakes/stripe-fake-cli.ts"] },
     { name: "inbound", cmd: "tsx", args: ["lib/mail/inbound-cli.ts"] },
-    { name: "app", cmd: "next", args: ["start", "-p", String(E2E_PORTS.app)] },
+    { name: "app", cmd: start.command, args: [...start.args, "-p", String(E2E_PORTS.app)] },
   ],
   env,
 );

@@ -4,8 +4,8 @@ import fs from "node:fs";
 import path from "node:path";
 
 export const root = path.resolve(import.meta.dirname, "..");
-/** A local package binary, or Node itself for "node". */
-const bin = (name) => (name === "node" ? process.execPath : path.join(root, "node_modules", ".bin", name));
+/** A local package binary, or Node itself for "node"; a path (scripts/start-command.mjs gives one) as it is. */
+export const bin = (name) => (name === "node" ? process.execPath : path.isAbsolute(name) ? name : path.join(root, "node_modules", ".bin", name));
 
 /** Runs a command to completion with the given environment; exits the script if it fails. */
 export function runStep(label, cmd, args, env) {

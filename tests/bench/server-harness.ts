@@ -16,6 +16,7 @@ import { openDatabase } from "../../db/client";
 import { applyMigrations } from "../../db/migrate";
 import { keptSeed } from "./seed-cache";
 import { seedRegistry } from "./seed-registry";
+import { startCommand } from "../../scripts/start-command.mjs";
 
 export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
 export const bin = (n: string) => path.join(root, "node_modules", ".bin", n);
@@ -77,18 +78,6 @@ function freePort(): Promise<number> {
 }
 
 export type Server = { base: string; pid: number; stop: () => Promise<void> };
-
-/**
- * The command of package.json's `start` script, so that the benchmarks' server runs as production's does
- * (with the same Node.js flags): `next start …` or `node <flags> node_modules/next/dist/bin/next start …`.
- */
-function startCommand(): { command: string; args: string[] } {
-  const pkg = JSON.parse(fs.readFileSync(path.join(root, "package.json"), "utf8")) as { scripts: Record<string, string> };
-  const [first, ...args] = pkg.scripts.start!.trim().split(/\s+/);
-  if (first === "node") return { command: process.execPath, args };
-  if (first === "next") return { command: bin("next"), args };
-  throw new Error(`package.json's start script (${pkg.scripts.start}) should begin with \`next\` or \`node\`; the benchmarks start the server with it`);
-}
 
 export async function startServer(dbFile: string, dir: string, env: Record<string, string> = {}): Promise<Server> {
   const port = await freePort();
