@@ -82,8 +82,9 @@ export type StripeFake = {
   /** Sends an event to the webhook again, as Stripe's "resend" does. */
   redeliver(eventId: string): Promise<number | null>;
   /**
-   * Tests only (in-process, no HTTP route): the next `times` API requests with this method and path
-   * answer 500 as a Stripe outage would (marked not to be retried by the SDK), and change nothing.
+   * Tests only: the next `times` API requests with this method and path answer 500 as a Stripe outage
+   * would (marked not to be retried by the SDK), and change nothing. Over HTTP, for a fake in its own
+   * process (the e2e server's): POST /_test/fail-next with method, path and times (a form body).
    */
   failNext(method: string, path: string, times?: number): void;
   close(): Promise<void>;
@@ -162,6 +163,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   const accounts = new Map<string, FakeAccount>([install, ...(options.accounts ?? [])].map((a) => [a.secretKey, a]));
   const requests: FakeRequest[] = [];
   const failures: { method: string; path: string; times: number }[] = [];
+  const failNext = (method: string, path: string, times = 1) => void failures.push({ method: method.toUpperCase(), path, times });
   /** The account (its key) each session, charge and event belongs to. */
   const ownerOf = new Map<string, string>();
 
@@ -489,10 +491,15 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
     const path = url.pathname.split("/").filter(Boolean);
     try {
       if (path[0] === "v1") return await handleApi(req, res, path.slice(1));
-      // Fake-only test knob (no such endpoint at Stripe): renew, settle or lapse a subscription.
+      // Fake-only test knobs (no such endpoints at Stripe): an outage of the next calls to one path (failNext);
+      // renew, settle or lapse a subscription.
       if (path[0] === "_test" && req.method === "POST") {
         checkKey(req);
         const body = parseStripeForm(await readBody(req));
+        if (path[1] === "fail-next" && typeof body.method === "string" && typeof body.path === "string") {
+          failNext(body.method, body.path, Number(body.times ?? 1));
+          return sendJson(res, 200, { failing: { method: body.method, path: body.path } });
+        }
         // A renewal's charge and events belong to the account the subscription was bought under.
         acting = path[1] === "subscriptions" && path[2] ? ownerOf.get(path[2]) : undefined;
         try {
@@ -564,9 +571,7 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
       if (!e) throw new Error(`no event ${eventId}`);
       return deliverOnce(e, 0);
     },
-    failNext: (method, path, times = 1) => {
-      failures.push({ method: method.toUpperCase(), path, times });
-    },
+    failNext,
     close: () =>
       new Promise<void>((resolve) => {
         for (const t of timers) clearTimeout(t);
