@@ -1,7 +1,6 @@
 "use client";
 
 import { Send } from "lucide-react";
-import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
@@ -14,10 +13,12 @@ import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import type { createClaimSchema, CreateClaimInput } from "@/lib/validation/claims";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
-import { ApiError, apiJson } from "@/components/api-client";
+import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
+import { apiJson, isApiError } from "@/components/api-client";
 import { clearDraftPhotos, PhotoPicker, PhotoQueueList, usePhotoQueue } from "./photo-queue";
 
 type Values = z.input<typeof createClaimSchema>;
+type Sent = { id: string; uploaded: boolean };
 type Draft = { values?: Values; claimId?: string };
 
 const QUESTIONS: { name: keyof Values["answers"] & string; label: string }[] = [
@@ -32,12 +33,9 @@ const num = { setValueAs: (v: unknown) => (v === "" || v == null ? null : Number
 
 /** The owner's claim form: phone first, draft kept in this browser until the claim and its photos are sent. */
 export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: string; pieceTitle: string; today: string; unit: "C" | "F" }) {
-  const router = useRouter();
   const draftKey = `grainward-claim-draft:${pieceId}`;
   const [claimId, setClaimId] = useState<string | null>(null);
   const [photoError, setPhotoError] = useState<string | null>(null);
-  const [formError, setFormError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
   const queue = usePhotoQueue(draftKey);
   const form = useForm<Values, unknown, z.output<typeof createClaimSchema>>({
     resolver: useLazyZodResolver<typeof createClaimSchema, Values, z.output<typeof createClaimSchema>>(() => import("@/lib/validation/claims").then((m) => m.createClaimSchema)),
@@ -75,26 +73,10 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
     });
   }, [draftKey, form, pieceId]);
 
-  async function finish(id: string) {
-    const ok = await queue.uploadAll(id);
-    if (!ok) {
-      toast.error("Some photos didn't upload. Retry them below, or go to the claim and add them there.");
-      return;
-    }
-    localStorage.removeItem(draftKey);
-    await clearDraftPhotos(draftKey);
-    toast.success("Your claim is with the studio.");
-    router.push(`/claims/${id}`);
-  }
-
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    if (queue.items.length === 0) {
-      setPhotoError("Add at least one photo of the damage.");
-      return;
-    }
-    setBusy(true);
-    try {
+  // The claim is sent once (its id is kept with the draft), then its photos go up one by one. All up: the
+  // draft is forgotten and the page goes to the claim. One failed: the page stays, to retry the photos.
+  const send = useRefreshingMutation(
+    async (values: z.output<typeof createClaimSchema> | null): Promise<Sent> => {
       let id = claimId;
       if (!id) {
         const { claim } = await apiJson<{ claim: { id: string } }>("/api/claims", { method: "POST", body: JSON.stringify(values) });
@@ -103,15 +85,32 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
         const prev = JSON.parse(localStorage.getItem(draftKey) ?? "{}") as Draft;
         localStorage.setItem(draftKey, JSON.stringify({ ...prev, claimId: id }));
       }
-      await finish(id);
-    } catch (e) {
-      if (e instanceof ApiError) {
-        setFormError(e.message);
-        for (const [field, msgs] of Object.entries(e.fieldErrors)) if (msgs[0]) form.setError(field as FieldPath<Values>, { type: "server", message: msgs[0] });
-      } else setFormError("Something went wrong. Your draft is kept; try again.");
-    } finally {
-      setBusy(false);
+      if (!(await queue.uploadAll(id))) return { id, uploaded: false };
+      localStorage.removeItem(draftKey);
+      await clearDraftPhotos(draftKey);
+      return { id, uploaded: true };
+    },
+    {
+      refresh: "never",
+      goTo: ({ id, uploaded }) => (uploaded ? `/claims/${id}` : null),
+      onSuccess: ({ uploaded }) => {
+        if (uploaded) toast.success("Your claim is with the studio.");
+        else toast.error("Some photos didn't upload. Retry them below, or go to the claim and add them there.");
+      },
+      onError: (_words, e) => {
+        for (const [field, msgs] of Object.entries(isApiError(e) ? e.fieldErrors : {})) if (msgs[0]) form.setError(field as FieldPath<Values>, { type: "server", message: msgs[0] });
+      },
+    },
+  );
+  const busy = send.busy;
+
+  const onSubmit = form.handleSubmit((values) => {
+    if (queue.items.length === 0) {
+      send.reset();
+      setPhotoError("Add at least one photo of the damage.");
+      return;
     }
+    send.run(values);
   });
 
   const photos = (
@@ -147,7 +146,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
         {photos}
         <div className="flex flex-col gap-2 sm:flex-row">
           {pending > 0 ? (
-            <Button onClick={() => void (setBusy(true), finish(claimId).finally(() => setBusy(false)))} disabled={busy}>
+            <Button onClick={() => send.run(null)} disabled={busy}>
               Upload the remaining photos
             </Button>
           ) : null}
@@ -169,7 +168,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-8">
       <input type="hidden" {...register("pieceId")} />
-      {formError ? <Notice tone="error" title="The claim wasn't sent">{formError}</Notice> : null}
+      {send.error ? <Notice tone="error" title="The claim wasn't sent">{send.error}</Notice> : null}
       <section className="space-y-4" aria-labelledby="what-heading">
         <h2 id="what-heading" className="font-display text-xl font-semibold">
           What happened to the {pieceTitle}?
