@@ -5,32 +5,21 @@
 // worked by hand beside each check; rounding half up once per line — common practice, no published
 // source. Invented studios, owners and pieces.
 import { eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { claims, planSubscriptions, studios } from "@/db/schema";
-import { env } from "@/lib/env";
-import { startStripeFake, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { getStripe } from "@/lib/payments/stripe";
 import { startPlanByOtherMeans } from "@/lib/plans/subscriptions";
 import { createTemplate } from "@/lib/plans/templates";
-import { planTemplateSchema } from "@/lib/plans/validation";
 import { jobFigures } from "@/lib/repairs/figures";
 import { createJob } from "@/lib/repairs/jobs";
 import { approveJob, sendQuote } from "@/lib/repairs/payment";
 import { updateRepairSettings } from "@/lib/repairs/settings";
-import { createAcceptedClaim, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { createAcceptedClaim, createPiece, createStudio, createUser, memberContext, planTemplateInput, unique } from "../support/fixtures";
 import { waitForMail } from "../support/mail";
+import { plansStripeForFile } from "../support/plans-stripe";
 
-let fake: StripeFake;
-
-beforeAll(async () => {
-  fake = await startStripeFake({ port: 0, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET });
-  env.STRIPE_API_PORT = fake.port;
-});
-
-afterAll(async () => {
-  await fake.close();
-});
+const stripe = plansStripeForFile();
 
 const DAY = 86_400_000;
 const PLAN_NAME = "Finish keeping (invented)";
@@ -53,12 +42,11 @@ async function pieceUnderPlan() {
   const staff = await memberContext(getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!, "staff");
   const plan = createTemplate(
     admin,
-    planTemplateSchema.parse({
+    planTemplateInput({
       name: PLAN_NAME,
       included: { tasks: [], visitsPerYear: 1, visitSharePct: 0, extendedLines: [], repairDiscountPct: 10 },
       fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
       priceMinor: 12_000,
-      interval: "year",
     }),
   );
   const owner = await createUser();
@@ -93,7 +81,7 @@ describe("a repair quote on a piece under a care plan", () => {
     for (const words of [`Care plan “${PLAN_NAME}”: 10 % off repairs`, "−$7.80", "Covered by the warranty (40 %)", "To pay", "$75.99"]) expect(quoteMail.text).toContain(words);
 
     const { checkoutUrl } = await approveJob(owner, job.id);
-    const session = fake.sessions().find((s) => s.url === checkoutUrl)!;
+    const session = stripe.fake.sessions().find((s) => s.url === checkoutUrl)!;
     expect(session.amount_total).toBe(7_599);
     const items = await getStripe().checkout.sessions.listLineItems(session.id);
     expect(items.data.map((i) => i.amount_total)).toEqual([4969, 2630]);
@@ -118,6 +106,6 @@ describe("a repair quote on a piece under a care plan", () => {
     expect(quoteMail.text).not.toContain("Care plan");
 
     const { checkoutUrl } = await approveJob(owner, job.id);
-    expect(fake.sessions().find((s) => s.url === checkoutUrl)!.amount_total).toBe(8_444);
+    expect(stripe.fake.sessions().find((s) => s.url === checkoutUrl)!.amount_total).toBe(8_444);
   });
 });

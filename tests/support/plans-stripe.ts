@@ -1,6 +1,7 @@
 // Care plan tests against the local Stripe fake over HTTP, through the real stripe SDK: the fake's
 // signed webhooks arrive at a small receiver here that hands the raw body to the webhook route's
-// handlers (plans first, then repair payments, as app/api/webhooks/stripe/route.ts does).
+// handlers (plans first, then repair payments, as app/api/webhooks/stripe/route.ts does). A studio's own
+// account (`accounts`) posts to the receiver's /studio/<id>, which stands in for that studio's endpoint.
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll } from "vitest";
 import { getDb } from "@/db/client";
@@ -8,7 +9,7 @@ import type { User } from "lucia";
 import { planInvoices, planSubscriptions, type PlanSubscription } from "@/db/schema";
 import type { StudioActor } from "@/lib/auth/actor";
 import { env } from "@/lib/env";
-import { startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
+import { startStripeFake, SUCCESS_CARD, type FakeAccount, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { handlePlanWebhook } from "@/lib/plans/stripe-sync";
 import { startPlanCheckout } from "@/lib/plans/subscriptions";
 import { createTemplate } from "@/lib/plans/templates";
@@ -18,13 +19,36 @@ import { startWebhookReceiver, until } from "./stripe-receiver";
 
 export { until };
 
+export type PlansStripeOptions = {
+  /** Studios' own Stripe accounts, given the receiver's address: each posts its events to `${url}/studio/<studio id>`. */
+  accounts?: (url: string) => FakeAccount[];
+};
+
+/** What the receiver answered each event with, and where it was posted (`/` for the install's endpoint). */
+export type WebhookAnswer = { path: string; status: number };
+
 /** Starts the fake and the webhook receiver, and points the app's Stripe client at the fake. */
-export async function startPlansStripe(): Promise<{ fake: StripeFake; close: () => Promise<void> }> {
-  const receiver = await startWebhookReceiver(async (raw, sig) => (await handlePlanWebhook(raw, sig)) ?? (await handleStripeWebhook(raw, sig)));
-  const fake = await startStripeFake({ port: 0, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET, webhookUrl: `${receiver.url}/`, retryDelaysMs: [200, 400] });
+export async function startPlansStripe(opts: PlansStripeOptions = {}): Promise<{ fake: StripeFake; answers: WebhookAnswer[]; close: () => Promise<void> }> {
+  const answers: WebhookAnswer[] = [];
+  const receiver = await startWebhookReceiver(
+    async (raw, sig, path) => {
+      const studioId = path.startsWith("/studio/") ? path.slice("/studio/".length) : undefined;
+      return (await handlePlanWebhook(raw, sig, studioId)) ?? (await handleStripeWebhook(raw, sig, studioId));
+    },
+    (status, path) => answers.push({ path, status }),
+  );
+  const fake = await startStripeFake({
+    port: 0,
+    secretKey: env.STRIPE_SECRET_KEY,
+    webhookSecret: env.STRIPE_WEBHOOK_SECRET,
+    webhookUrl: `${receiver.url}/`,
+    retryDelaysMs: [200, 400],
+    accounts: opts.accounts?.(receiver.url),
+  });
   env.STRIPE_API_PORT = fake.port;
   return {
     fake,
+    answers,
     close: async () => {
       await fake.close();
       await receiver.close();
@@ -32,17 +56,26 @@ export async function startPlansStripe(): Promise<{ fake: StripeFake; close: () 
   };
 }
 
-/** For a test file: the fake and its receiver start before the file's tests and close after them; `.fake` is the fake while they run. */
-export function plansStripeForFile(): { readonly fake: StripeFake } {
+/**
+ * For a test file: the fake and its receiver start before the file's tests and close after them; `.fake` is
+ * the fake while they run, `.answers` the receiver's answers so far.
+ */
+export function plansStripeForFile(opts: PlansStripeOptions = {}): { readonly fake: StripeFake; readonly answers: WebhookAnswer[] } {
   let started: Awaited<ReturnType<typeof startPlansStripe>> | undefined;
   beforeAll(async () => {
-    started = await startPlansStripe();
+    started = await startPlansStripe(opts);
   });
   afterAll(() => started?.close());
+  const running = () => {
+    if (!started) throw new Error("The Stripe fake starts before the file's tests (beforeAll).");
+    return started;
+  };
   return {
     get fake() {
-      if (!started) throw new Error("The Stripe fake starts before the file's tests (beforeAll).");
-      return started.fake;
+      return running().fake;
+    },
+    get answers() {
+      return running().answers;
     },
   };
 }
