@@ -9,6 +9,7 @@
 // the triggers are set aside for the inserts and put back, unchanged, in the same transaction.
 import { randomUUID } from "node:crypto";
 import Database from "better-sqlite3";
+import { mergeSearchIndexesAtOnce } from "../../db/search-indexes";
 
 export type SeededClients = { clients: number; historyClientId: string };
 
@@ -64,6 +65,7 @@ export function seedClients(dbFile: string, studioId: string, staffUserId: strin
     for (const t of triggers) db.exec(t.sql);
   })();
   db.exec("ANALYZE; PRAGMA optimize;");
+  mergeSearchIndexesAtOnce(db); // as the scheduler's nightly merge leaves them
   db.close();
   return { clients: count, historyClientId };
 }

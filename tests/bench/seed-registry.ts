@@ -5,6 +5,7 @@
 import { randomUUID } from "node:crypto";
 import { openDatabase } from "../../db/client";
 import { applyMigrations } from "../../db/migrate";
+import { mergeSearchIndexesAtOnce } from "../../db/search-indexes";
 import { FINISH_CLASSES, PIECE_KINDS, USES, SUN_EXPOSURES, type FinishClass } from "../../lib/care/vocabulary";
 import { SPECIES } from "../../lib/care/species";
 import { searchDocument } from "../../lib/pieces/search-index";
@@ -80,7 +81,7 @@ export function seedRegistry(databaseUrl: string, count = 100_000): SeededRegist
     }
   })();
   c.exec("ANALYZE; PRAGMA optimize;");
-  c.prepare("INSERT INTO pieces_fts (pieces_fts) VALUES ('optimize')").run();
+  mergeSearchIndexesAtOnce(c); // as the scheduler's nightly merge leaves them
   c.close();
   return { studioId, staffUserId, pieces: count, owners: owners.length };
 }

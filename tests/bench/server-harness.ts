@@ -14,6 +14,7 @@ import autocannon from "autocannon";
 import Database from "better-sqlite3";
 import { openDatabase } from "../../db/client";
 import { applyMigrations } from "../../db/migrate";
+import { mergeSearchIndexesAtOnce } from "../../db/search-indexes";
 import { keptSeed } from "./seed-cache";
 import { seedRegistry } from "./seed-registry";
 import { startCommand } from "../../scripts/start-command.mjs";
@@ -46,6 +47,7 @@ export function seededCopy(dir: string, size = PIECES): { dbFile: string; seeded
   const migrate = (file: string) => {
     const db = openDatabase(file);
     applyMigrations(db);
+    mergeSearchIndexesAtOnce(db.$client); // as the scheduler's nightly merge leaves them
     db.$client.pragma("wal_checkpoint(TRUNCATE)");
     db.$client.close();
   };
