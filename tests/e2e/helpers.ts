@@ -26,11 +26,20 @@ export function fixture(): { demoPieceId: string; otherPieceId: string; unregist
 }
 
 /**
- * A pattern for a URL whose path ends in `path`, taken literally: a card code's check symbol may be
- * one of Crockford's `*~$=U` (lib/care/registration-code.ts), which a bare RegExp would read as syntax.
+ * The page's address ends with `path`, taken literally, as written or with its %-escapes decoded: a
+ * card code's check symbol may be one of Crockford's `*~$=U` (lib/care/registration-code.ts), and the
+ * address may carry "=" and "$" as %3D and %24.
  */
-export function urlEndingWith(path: string): RegExp {
-  return new RegExp(`${path.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}$`);
+export function urlEndingWith(path: string): (url: URL) => boolean {
+  return (url) => {
+    let decoded = url.href;
+    try {
+      decoded = decodeURIComponent(url.href);
+    } catch {
+      // not decodable: compared as written only
+    }
+    return url.href.endsWith(path) || decoded.endsWith(path);
+  };
 }
 
 export async function signIn(page: Page, email: string, password = PASSWORD) {
