@@ -11,7 +11,7 @@ import { cn } from "@/components/ui/cn";
 import { apiJson, isApiError } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import type { SlotView } from "@/lib/visits/slots";
-import { formatDate } from "@/lib/format";
+import { formatDate, formatZone } from "@/lib/format";
 
 type Props = {
   jobId: string;
@@ -130,7 +130,7 @@ export function SlotPicker(p: Props) {
           <ChevronLeft aria-hidden className="size-4" /> Earlier
         </Button>
         <p className="text-center text-sm text-muted">
-          Visits take about {Math.round(p.durationMin / 15) / 4} h. Times in {p.timeZone.replace("_", " ")}.
+          Visits take about {Math.round(p.durationMin / 15) / 4} h. Times in {formatZone(p.timeZone)}.
         </p>
         <Button variant="secondary" aria-label="Later dates" disabled={page >= 4} onClick={() => setPage((n) => n + 1)}>
           Later <ChevronRight aria-hidden className="size-4" />

@@ -15,7 +15,7 @@ import { addDays, localDateTime, parseHhMm, zonedTimeToEpochMs } from "@/lib/car
 import type { VisitEditFormValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError } from "@/components/api-client";
-import { formatDate } from "@/lib/format";
+import { formatDate, formatZone } from "@/lib/format";
 
 type CalVisit = { id: string; jobId: string; technicianId: string; technicianName: string; start: string; end: string; state: "booked" | "done" | "cancelled"; jobTitle: string; pieceTitle: string; ownerName: string | null; location: string; version: number; claimId?: string | null };
 type Tech = { id: string; name: string };
@@ -186,7 +186,7 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
           ))}
         </div>
       </div>
-      <p className="text-sm text-muted">Drag a visit to a new time, or open it to edit. Moves go through the same checks as booking: working hours, time off, travel buffer and other visits. Times in {timeZone.replace("_", " ")}.</p>
+      <p className="text-sm text-muted">Drag a visit to a new time, or open it to edit. Moves go through the same checks as booking: working hours, time off, travel buffer and other visits. Times in {formatZone(timeZone)}.</p>
       {editing ? <EditVisit key={editing.id} visit={editing} technicians={technicians} timeZone={timeZone} onClose={() => setEditing(null)} onCancel={() => setCancelling(editing)} onMoved={() => client.invalidateQueries({ queryKey: ["visits"] })} /> : null}
       <ConfirmDialog open={cancelling !== null} title="Cancel this visit?" confirmLabel="Cancel the visit" busy={cancel.isPending} onConfirm={() => cancelling && cancel.mutate(cancelling.id)} onCancel={() => setCancelling(null)}>
         <p>{cancelling ? `${cancelling.jobTitle} — ${cancelling.ownerName ?? "no owner"}. ` : ""}The owner gets a cancellation for their calendar, and the job is open for a new booking.</p>

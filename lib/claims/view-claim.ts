@@ -48,7 +48,7 @@ function jobOfClaim(claimId: string) {
 function ownerRepair(claimId: string, timeZone: string) {
   const job = jobOfClaim(claimId);
   if (!job) return null;
-  const when = job.visit ? `${formatVisitWhen(job.visit.startAt.getTime(), job.visit.endAt.getTime(), timeZone)} (${timeZone})` : "";
+  const when = job.visit ? formatVisitWhen(job.visit.startAt.getTime(), job.visit.endAt.getTime(), timeZone) : "";
   const STAGE: Record<typeof job.state, string> = {
     draft: job.quoteVersion === 0 ? "The studio is pricing the repair. You get the quote by e-mail." : "The studio is revising the quote.",
     quoted: "Your repair quote is ready: look it over and approve it.",

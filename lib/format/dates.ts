@@ -88,10 +88,14 @@ export function formatClock(ms: number, timeZone: string, { named = false }: { n
   return named ? `${clock} ${zoneAbbreviation(ms, timeZone)}` : clock;
 }
 
-/** A visit's slot: "Thursday, 3 December 2026, 09:00–11:00" in `timeZone`. */
+/**
+ * A visit's slot in `timeZone`, naming the zone as every time shown to a person does:
+ * "Thursday, 3 December 2026, 09:00–11:00 EST" (the zone of its end, the same as its start's but
+ * across a clock change).
+ */
 export function formatVisitWhen(startMs: number, endMs: number, timeZone: string): string {
   const day = dtf({ weekday: "long", day: "numeric", month: "long", year: "numeric", timeZone }).format(startMs);
-  return `${day}, ${formatClock(startMs, timeZone)}–${formatClock(endMs, timeZone)}`;
+  return `${day}, ${formatClock(startMs, timeZone)}–${formatClock(endMs, timeZone, { named: true })}`;
 }
 
 /**

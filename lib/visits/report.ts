@@ -36,7 +36,7 @@ export async function submitReport(ctx: StudioContext, visitId: string, input: V
   if (visit.state === "cancelled") throw conflict("This visit was cancelled.");
   const early = now.getTime() < visit.startAt.getTime();
   if (early) {
-    const starts = `${formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), studio.timeZone)} (${studio.timeZone})`;
+    const starts = formatVisitWhen(visit.startAt.getTime(), visit.endAt.getTime(), studio.timeZone);
     if (ctx.role === "technician") throw conflict(`This visit starts ${starts}. File the report once it has started; the studio office can file it early with a reason.`);
     if (!input.earlyReason) {
       const msg = "The visit hasn't started yet. Say why the report is filed early; the reason goes in the audit log.";

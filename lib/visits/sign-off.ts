@@ -28,7 +28,7 @@ export function signOffPreview(token: string, now = new Date()) {
     .where(usable(token, now))
     .get();
   if (!row) return null;
-  return { jobTitle: row.jobTitle, pieceTitle: row.pieceTitle, studioName: row.studioName, work: row.work ?? "", when: `${formatVisitWhen(row.startAt.getTime(), row.endAt.getTime(), row.timeZone)} (${row.timeZone})` };
+  return { jobTitle: row.jobTitle, pieceTitle: row.pieceTitle, studioName: row.studioName, work: row.work ?? "", when: formatVisitWhen(row.startAt.getTime(), row.endAt.getTime(), row.timeZone) };
 }
 
 /** Takes the link (once): the visit is signed off by the job's owner. Null when the link is unknown, used or expired. */

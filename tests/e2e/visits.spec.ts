@@ -74,6 +74,8 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   // Days are chips; the first day with a time of Ines's is picked.
   const days = owner.getByRole("group", { name: "Days with free times" }).getByRole("button");
   await expect(days.first()).toBeVisible();
+  // The zone of the free times in words, not its IANA name.
+  await expect(owner.getByText("Times in Pacific Time, Los Angeles.")).toBeVisible();
   const first = owner.getByRole("region", { name: "Free times" }).getByRole("button", { name: /with Ines Varga/ }).first();
   for (let i = 0; i < (await days.count()) && !(await first.isVisible()); i++) await days.nth(i).click();
   await first.click();
@@ -82,6 +84,8 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   await expect(owner).toHaveURL(new RegExp(`/jobs/${jobId}$`));
   await expect(owner.getByText("Your visit")).toBeVisible();
   await expect(owner.getByText(/with Ines Varga/)).toBeVisible();
+  // The booked time names its zone (the demo studio's, Los Angeles).
+  await expect(owner.getByText(/\d{2}:\d{2}–\d{2}:\d{2} P[SD]T$/)).toBeVisible();
 
   const invite = await waitForMail({ to: ACCOUNTS.owner, subject: /^Visit booked/, since, sinkUrl: SINK_URL });
   const full = await getMail(invite.id, { sinkUrl: SINK_URL });
@@ -104,6 +108,7 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   const card = tech.getByRole("listitem").filter({ has: tech.getByRole("heading", { name: "Walnut river dining table" }) }).filter({ hasText: "Topcoat refresh, dining table" });
   await expect(card).toBeVisible();
   await expect(card.getByText("14 Quarry Lane, Port Alder")).toBeVisible();
+  await expect(card.getByText(/^1\. \d{2}:\d{2}–\d{2}:\d{2} P[SD]T$/)).toBeVisible(); // the visit's time names its zone
   await expect(card.getByRole("list", { name: /Top finish layers/ })).toBeVisible();
   await expect(card.getByText(/Ceramic-type topcoat, matte/).first()).toBeVisible();
   await expect(card.getByText(/US fl oz \(.* mL\) for 1 coat on this top/)).toBeVisible(); // the studio's units (imperial)

@@ -77,7 +77,7 @@ describe("the claim follows the work", () => {
     expect(claimState(w.claim.id)).toBe("repair_booked");
     const owned = getClaim(ownerActor(w.owner), w.claim.id) as { repair: { stage: string } };
     // 09:00 in New York, read on the owner's own clock and named: Europe/Berlin.
-    expect(owned.repair.stage).toBe("Repair visit booked: Tuesday, 4 May 2027, 15:00–16:30 (Europe/Berlin).");
+    expect(owned.repair.stage).toBe("Repair visit booked: Tuesday, 4 May 2027, 15:00–16:30 CEST.");
     const staffView = getClaim(w.staff, w.claim.id);
     expect(staffView.view === "staff" && staffView.repair?.visit).toMatchObject({ id: first.id, state: "booked" });
 

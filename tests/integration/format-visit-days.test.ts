@@ -43,27 +43,27 @@ describe("visit reminders by the owner's calendar day", () => {
     const eve = await booked("2027-11-07T05:00:00Z", "America/New_York", ALL_WEEK);
     expect(eve.visit.start).toBe("2027-11-07T15:00:00.000Z"); // Sunday 7 November 2027, 10:00 EST
     // 03:30 UTC = Saturday 23:30 EDT, 11.5 h ahead: under a day, but tomorrow.
-    expect(await subjectAfterPass(eve, "2027-11-07T03:30:00Z")).toEqual(["Tomorrow: your visit, Sunday, 7 November 2027, 10:00–11:30"]);
+    expect(await subjectAfterPass(eve, "2027-11-07T03:30:00Z")).toEqual(["Tomorrow: your visit, Sunday, 7 November 2027, 10:00–11:30 EST"]);
 
     const midnight = await booked("2027-11-07T05:00:00Z", "America/New_York", ALL_WEEK);
     // 04:30 UTC = Sunday 00:30 EDT, 10.5 h ahead.
-    expect(await subjectAfterPass(midnight, "2027-11-07T04:30:00Z")).toEqual(["Today: your visit, Sunday, 7 November 2027, 10:00–11:30"]);
+    expect(await subjectAfterPass(midnight, "2027-11-07T04:30:00Z")).toEqual(["Today: your visit, Sunday, 7 November 2027, 10:00–11:30 EST"]);
 
     const repeated = await booked("2027-11-07T05:00:00Z", "America/New_York", ALL_WEEK);
     // 06:30 UTC = 01:30 EST, the second time the clocks read 01:30 that night.
-    expect(await subjectAfterPass(repeated, "2027-11-07T06:30:00Z")).toEqual(["Today: your visit, Sunday, 7 November 2027, 10:00–11:30"]);
+    expect(await subjectAfterPass(repeated, "2027-11-07T06:30:00Z")).toEqual(["Today: your visit, Sunday, 7 November 2027, 10:00–11:30 EST"]);
   });
 
   it("between the US and European changes: a Berlin owner of a New York studio reads Berlin's day and hours (5 h ahead that fortnight, not 6)", async () => {
     const berlin = await booked("2027-03-23T04:00:00Z", "Europe/Berlin");
     expect(berlin.visit.start).toBe("2027-03-23T13:00:00.000Z"); // Tuesday 23 March 2027, 09:00 EDT = 14:00 CET
     // 23:30 UTC on the 22nd: 19:30 on Monday in New York (the studio's "tomorrow"), 00:30 on Tuesday in Berlin.
-    expect(await subjectAfterPass(berlin, "2027-03-22T23:30:00Z")).toEqual(["Today: your visit, Tuesday, 23 March 2027, 14:00–15:30"]);
+    expect(await subjectAfterPass(berlin, "2027-03-22T23:30:00Z")).toEqual(["Today: your visit, Tuesday, 23 March 2027, 14:00–15:30 CET"]);
   });
 
   it("an owner west of the studio: Los Angeles reads 'tomorrow' when it is already the visit's day in New York", async () => {
     const west = await booked("2027-03-23T04:00:00Z", "America/Los_Angeles");
     // 04:30 UTC on the 23rd: 00:30 Tuesday in New York, 21:30 Monday in Los Angeles; the visit is 06:00 PDT.
-    expect(await subjectAfterPass(west, "2027-03-23T04:30:00Z")).toEqual(["Tomorrow: your visit, Tuesday, 23 March 2027, 06:00–07:30"]);
+    expect(await subjectAfterPass(west, "2027-03-23T04:30:00Z")).toEqual(["Tomorrow: your visit, Tuesday, 23 March 2027, 06:00–07:30 PDT"]);
   });
 });

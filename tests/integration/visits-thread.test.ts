@@ -86,7 +86,7 @@ describe("a report before the visit's start", () => {
     const report = { work: "Re-oiled the ring marks (invented).", layers: [] };
     const byTech = await errorOf(submitReport(w.tech, w.visit.id, reportInput(report), before));
     expect(byTech.status).toBe(409);
-    expect(byTech.message).toMatch(/^This visit starts Tuesday, 4 May 2027, 09:00–10:30 \(America\/New_York\)\. File the report once it has started/);
+    expect(byTech.message).toMatch(/^This visit starts Tuesday, 4 May 2027, 09:00–10:30 EDT\. File the report once it has started/);
     const noReason = await errorOf(submitReport(w.staff, w.visit.id, reportInput(report), before));
     expect(noReason.status).toBe(422);
     expect(noReason.fieldErrors).toHaveProperty("earlyReason");
@@ -204,7 +204,7 @@ describe("today, tomorrow or the date, by the owner's own calendar day", () => {
     expect(sunday.visit.start).toBe("2027-03-14T14:00:00.000Z");
     getDb().update(users).set({ timeZone: ny }).where(eq(users.id, sunday.owner.id)).run();
     expect(await pass(sunday, Date.parse("2027-03-14T12:42:00Z"))).toHaveLength(1);
-    expect(await subjects(sunday.owner.email)).toEqual(["Today: your visit, Sunday, 14 March 2027, 10:00–11:30"]);
+    expect(await subjects(sunday.owner.email)).toEqual(["Today: your visit, Sunday, 14 March 2027, 10:00–11:30 EDT"]);
 
     // The day before, 22 hours ahead across the change: "tomorrow" in New York — but "today" for an owner in Tokyo.
     const ahead = await bookedThread({ from: "2027-03-14T05:00:00Z", hours, bookAt });
@@ -214,8 +214,8 @@ describe("today, tomorrow or the date, by the owner's own calendar day", () => {
     const dayBefore = Date.parse("2027-03-13T16:00:00Z"); // Saturday 11:00 EST, Sunday 01:00 JST
     const sent = (await runVisitReminderPass({ now: new Date(dayBefore) })).sent.map((x) => x.visitId);
     expect(sent).toEqual(expect.arrayContaining([ahead.visit.id, tokyo.visit.id]));
-    expect(await subjects(ahead.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 10:00–11:30"]);
-    expect(await subjects(tokyo.owner.email)).toEqual(["Today: your visit, Sunday, 14 March 2027, 23:00–00:30"]);
+    expect(await subjects(ahead.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 10:00–11:30 EDT"]);
+    expect(await subjects(tokyo.owner.email)).toEqual(["Today: your visit, Sunday, 14 March 2027, 23:00–00:30 GMT+9"]);
     const body = await waitForMail({ to: tokyo.owner.email, subject: /your visit/ });
     expect(body.text).toMatch(/your visit is today/i);
     expect(body.text).toContain("(Asia/Tokyo)");
@@ -227,8 +227,8 @@ describe("today, tomorrow or the date, by the owner's own calendar day", () => {
     getDb().insert(clients).values({ studioId: chicago.studio.id, name: chicago.owner.name, email: chicago.owner.email, userId: chicago.owner.id, timeZone: "America/Chicago" }).run();
     const sentToo = (await runVisitReminderPass({ now: new Date(dayBefore) })).sent.map((x) => x.visitId);
     expect(sentToo).toEqual(expect.arrayContaining([unset.visit.id, chicago.visit.id]));
-    expect(await subjects(unset.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 10:00–11:30"]);
-    expect(await subjects(chicago.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 09:00–10:30"]);
+    expect(await subjects(unset.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 10:00–11:30 EDT"]);
+    expect(await subjects(chicago.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 09:00–10:30 CDT"]);
 
     // A visit already under way gets no reminder.
     const started = await bookedThread({ from: "2027-03-14T05:00:00Z", hours, bookAt });

@@ -89,8 +89,12 @@ describe("dates and times", () => {
     expect(formatInstant(at, "Asia/Tokyo", { time: true })).toBe("4 December 2026 at 08:30 GMT+9");
   });
 
-  it("writes a visit's slot on the 24-hour clock", () => {
-    expect(formatVisitWhen(Date.parse("2026-12-03T14:00:00Z"), Date.parse("2026-12-03T16:00:00Z"), "America/New_York")).toBe("Thursday, 3 December 2026, 09:00–11:00");
+  it("writes a visit's slot on the 24-hour clock, naming its zone", () => {
+    // Zone short names as CLDR writes them (en-US for North America, en-GB for Europe), as above.
+    expect(formatVisitWhen(Date.parse("2026-12-03T14:00:00Z"), Date.parse("2026-12-03T16:00:00Z"), "America/New_York")).toBe("Thursday, 3 December 2026, 09:00–11:00 EST");
+    expect(formatVisitWhen(Date.parse("2027-05-04T13:00:00Z"), Date.parse("2027-05-04T14:30:00Z"), "Europe/Berlin")).toBe("Tuesday, 4 May 2027, 15:00–16:30 CEST");
+    // Across the spring-forward hour (New York, 14 March 2027 at 02:00 EST becomes 03:00 EDT) the end's zone is named.
+    expect(formatVisitWhen(Date.parse("2027-03-14T06:30:00Z"), Date.parse("2027-03-14T07:30:00Z"), "America/New_York")).toBe("Sunday, 14 March 2027, 01:30–03:30 EDT");
   });
 
   it("knows IANA zones", () => {

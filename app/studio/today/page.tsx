@@ -12,7 +12,7 @@ import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
-import { formatClock, formatDate, formatVolume, formatZone } from "@/lib/format";
+import { formatClock, formatDate, formatVolume } from "@/lib/format";
 import { technicianDay } from "@/lib/visits/technician-day";
 
 export const metadata: Metadata = { title: "My day" };
@@ -59,7 +59,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                     <div>
                       <p className="flex items-center gap-1.5 text-sm font-semibold text-resin">
                         <Clock aria-hidden className="size-4" />
-                        {i + 1}. {formatClock(Date.parse(item.visit.start), tz)}–{formatClock(Date.parse(item.visit.end), tz)}
+                        {i + 1}. {formatClock(Date.parse(item.visit.start), tz)}–{formatClock(Date.parse(item.visit.end), tz, { named: true })}
                       </p>
                       <h2 className="font-display text-xl font-semibold">{item.piece.title}</h2>
                       <p className="text-sm text-muted">
@@ -187,7 +187,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                         products={day.products}
                         today={day.today}
                         defaultLayers={item.defaultLayers}
-                        early={item.visit.started ? null : { startsAt: `${item.visit.when} (${formatZone(tz)})`, asStaff: staff }}
+                        early={item.visit.started ? null : { startsAt: item.visit.when, asStaff: staff }}
                         initialPhotos={item.photos.map((p) => ({ id: p.id, kind: p.kind, thumbUrl: `/api/files/${p.id}?thumb=1` }))}
                       />
                     ) : null}

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { CoveragePanel } from "@/components/claims/coverage-panel";
 import { CreateRepairJobButton } from "@/components/claims/create-job-button";
 import { MessageThread } from "@/components/claims/message-thread";
-import { formatDate, formatInstant, formatZone, formatSize, formatThickness, type TopShape, type UnitSystem } from "@/lib/format";
+import { formatDate, formatInstant, formatSize, formatThickness, type TopShape, type UnitSystem } from "@/lib/format";
 import { PhotoGallery } from "@/components/claims/photo-gallery";
 import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
 import { StateBadge } from "@/components/claims/state-badge";
@@ -138,7 +138,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                     </p>
                     {v.repair.visit ? (
                       <p className="text-sm text-muted">
-                        {v.repair.visit.state === "done" ? "Visit done" : "Visit booked"}: {v.repair.visit.when} ({formatZone(v.studio.timeZone)})
+                        {v.repair.visit.state === "done" ? "Visit done" : "Visit booked"}: {v.repair.visit.when}
                       </p>
                     ) : null}
                   </>
