@@ -5,11 +5,11 @@ import { and, count, desc, eq, gte, like, lt, or, sql, type SQL } from "drizzle-
 import { getDb } from "@/db/client";
 import { auditLog, memberships, users } from "@/db/schema";
 import { assertRole, STAFF_ROLES, type StudioContext } from "@/lib/auth/guards";
-import { addDays, localDateTime, zonedTimeToEpochMs } from "@/lib/care/dates";
+import { addDays, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, CLAIM_DECISION_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
-import { formatDate, formatMoney } from "@/lib/format";
+import { formatDate, formatInstant, formatMoney } from "@/lib/format";
 import { JOB_STATE_LABELS } from "@/lib/repairs/states";
 import { PLAN_STATE_LABELS, type PlanState } from "@/lib/plans/states";
 import { AUDIT_GROUPS, type AuditQuery } from "./audit-query";
@@ -200,6 +200,7 @@ function valueWords(key: string, v: unknown, currency: string, action = "", coun
   if (DATE_KEYS.has(key) && /^\d{4}-\d{2}-\d{2}$/.test(v)) return formatDate(v);
   if ((key === "from" || key === "to") && action.startsWith("claim.")) return CLAIM_STATE_LABELS_STAFF[v as keyof typeof CLAIM_STATE_LABELS_STAFF] ?? v.replace(/_/g, " ");
   if ((key === "from" || key === "to") && (action.startsWith("job.") || action.startsWith("repair_job."))) return JOB_STATE_LABELS[v as keyof typeof JOB_STATE_LABELS] ?? v.replace(/_/g, " ");
+  if ((key === "from" || key === "to") && action.startsWith("plan.")) return PLAN_STATE_LABELS[v as PlanState] ?? v.replace(/_/g, " ");
   const map = VALUE_WORDS[key];
   if (map) return map[v] ?? v.replace(/_/g, " ");
   return v;
@@ -219,10 +220,6 @@ export function describe(data: Record<string, unknown>, currency = "USD", action
     }
   }
   return out;
-}
-
-function pad(n: number) {
-  return String(n).padStart(2, "0");
 }
 
 export function listAudit(ctx: StudioContext, q: AuditQuery) {
@@ -247,12 +244,11 @@ export function listAudit(ctx: StudioContext, q: AuditQuery) {
     .offset((q.page - 1) * AUDIT_PAGE_SIZE)
     .all()
     .map(({ e, actor }): AuditRow => {
-      const l = localDateTime(e.createdAt.getTime(), tz);
       const base = SUBJECT_PATHS[e.subjectType];
       return {
         id: e.id,
         at: e.createdAt,
-        local: `${l.year}-${pad(l.month)}-${pad(l.day)} ${pad(l.hour)}:${pad(l.minute)}`,
+        local: formatInstant(e.createdAt, tz, { time: true }),
         actor,
         action: e.action,
         label: actionLabel(e.action),

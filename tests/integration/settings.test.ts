@@ -183,7 +183,8 @@ describe("audit log", () => {
     expect(all.total).toBe(3);
     expect(all.rows.map((r) => r.label)).toEqual(["Reminder timing changed", "Role changed", "Refund issued"]);
     expect(all.rows[1]!.details).toContain("staff → technician");
-    expect(all.rows[2]!.local).toBe("2026-03-04 14:05");
+    // 19:05 UTC is 14:05 in New York (EST, UTC−5 in March before the 8 March 2026 change); the zone is named.
+    expect(all.rows[2]!.local).toBe("4 March 2026 at 14:05 EST");
 
     expect(listAudit(staff, auditQuerySchema.parse({ group: "team" })).rows.map((r) => r.action)).toEqual(["member.role_changed"]);
     expect(listAudit(staff, auditQuerySchema.parse({ group: "payments" })).rows.map((r) => r.action)).toEqual(["payment.refunded"]);

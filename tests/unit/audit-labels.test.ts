@@ -25,6 +25,11 @@ describe("audit labels", async () => {
     expect([...written].filter((a) => !AUDIT_ACTION_LABELS[a]).sort()).toEqual([]);
   });
 
+  it("a care plan's move reads with the plan state labels, not their stored names", async () => {
+    const { describe: describeEntry } = await import("@/lib/studio/audit");
+    expect(describeEntry({ from: "awaiting_payment", to: "running" }, "USD", "plan.running")).toEqual(["Waiting for the first payment → Running"]);
+  });
+
   it("a claim moved to any state reads with the staff's words for that state", () => {
     for (const [state, label] of Object.entries(CLAIM_STATE_LABELS_STAFF)) {
       const text = actionLabel(`claim.${state}`);

@@ -69,7 +69,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         {log.rows.length ? (
           <ol className="divide-y divide-line">
             {log.rows.map((r) => (
-              <li key={r.id} className="grid gap-1 py-3 sm:grid-cols-[10rem_1fr]">
+              <li key={r.id} className="grid gap-1 py-3 sm:grid-cols-[12rem_1fr] sm:gap-3">
                 <time dateTime={r.at.toISOString()} className="text-sm tabular-nums text-muted">
                   {r.local}
                 </time>
