@@ -69,6 +69,7 @@ test("the figures' lists: reminders followed by care, offers, revenue, answers",
   for (const path of ["/studio/reports/offers", "/studio/reports/revenue", "/studio/reports/answers?answered=no"]) {
     await page.goto(path);
     await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
+    await expect(page.getByText(/Since \d{1,2} [A-Z][a-z]+ \d{4}\./)).toBeVisible();
     await noSeriousAxe(page, path);
   }
   const bad = await page.goto("/studio/reports/reminders?step=weekly");
@@ -85,7 +86,8 @@ test("reports: claims per 100 pieces for a period, CSV export, bad periods are a
   await page.getByRole("button", { name: "Show" }).click();
   await expect(page).toHaveURL(/from=2020-01-01/);
   await expect(page.getByRole("heading", { name: "By species (primary)" })).toBeVisible();
-  await expect(page.getByText(/claims? on \d+ pieces/)).toBeVisible();
+  // The period in words (lib/format), not the stored ISO dates.
+  await expect(page.getByText(/^1 January 2020 to \d{1,2} [A-Z][a-z]+ \d{4}: \d+ claims? on \d+ pieces/)).toBeVisible();
   await noSeriousAxe(page, "reports");
   await page.screenshot({ path: `${SHOTS}/reports-1280.png`, fullPage: true });
 
@@ -115,6 +117,11 @@ test("roles: staff get reports and audit but not settings or team; a technician 
   expect((await page.request.get("/api/studio/settings")).status()).toBe(403);
   await page.goto("/studio/audit");
   await expect(page.getByRole("heading", { level: 1, name: "Audit log" })).toBeVisible();
+  // Entries read in words: a time with its zone ("4 December 2026 at 07:40 PST"), states by their labels.
+  const times = await page.locator("main ol time").allInnerTexts();
+  expect(times.length).toBeGreaterThan(0);
+  for (const t of times) expect(t).toMatch(/^\d{1,2} [A-Z][a-z]+ \d{4} at \d{2}:\d{2} (P[SD]T|[A-Z]{3,4}|GMT[+-]\d+)$/);
+  expect(await page.locator("main").innerText()).not.toMatch(/\b[a-z]+_[a-z_]+\b/);
   await noSeriousAxe(page, "audit");
 
   await page.context().clearCookies();

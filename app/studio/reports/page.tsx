@@ -14,6 +14,7 @@ import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { claimRates, type RateRow } from "@/lib/reports";
 import { claimRatesQuerySchema } from "@/lib/reports/query";
+import { formatDate } from "@/lib/format";
 import { z } from "zod";
 
 export const metadata: Metadata = { title: "Reports" };
@@ -71,7 +72,7 @@ export default async function ReportsPage({ searchParams }: { searchParams: Sear
         ) : null}
       </Card>
       <p className="mb-4 text-sm text-muted">
-        {r.from} to {r.to}: {r.totalClaims} claim{r.totalClaims === 1 ? "" : "s"} on {r.totalPieces} piece{r.totalPieces === 1 ? "" : "s"}
+        {formatDate(r.from)} to {formatDate(r.to)}: {r.totalClaims} claim{r.totalClaims === 1 ? "" : "s"} on {r.totalPieces} piece{r.totalPieces === 1 ? "" : "s"}
         {r.category === "all" ? "" : ` (${CLAIM_CATEGORY_LABELS[r.category]} only)`}. Groups with few pieces swing a lot; read them with care.
       </p>
       <div className="grid gap-6">

@@ -194,7 +194,7 @@ export default async function ReportListPage({ params, searchParams }: { params:
 
   return (
     <>
-      <PageHeader title={t.title} lead={`${t.lead} Since ${result.since}.`} />
+      <PageHeader title={t.title} lead={`${t.lead} Since ${formatDate(result.since)}.`} />
       <p className="mb-4 text-sm">
         <Link className="text-resin underline underline-offset-2" href="/studio">
           ← Overview
