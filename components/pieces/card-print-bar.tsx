@@ -24,11 +24,11 @@ export function CardPrintBar({ selected, onClear }: { selected: string[]; onClea
   const tooMany = n > MAX_CARDS;
   return (
     <section aria-label="Print drawer cards" className="flex flex-wrap items-end gap-3 rounded-xl border border-line bg-card p-4">
-      <div className="space-y-1">
+      <div className="min-w-0 max-w-full space-y-1">
         <label htmlFor={`${id}-layout`} className="block text-sm font-medium">
           Print drawer cards on
         </label>
-        <select id={`${id}-layout`} value={layout} onChange={(e) => setLayout(e.target.value as typeof layout)} className="min-h-11 rounded-lg border border-line bg-white px-3 py-2 text-sm text-ink focus:border-resin">
+        <select id={`${id}-layout`} value={layout} onChange={(e) => setLayout(e.target.value as typeof layout)} className="min-h-11 max-w-full rounded-lg border border-line bg-white px-3 py-2 text-sm text-ink focus:border-resin">
           {LAYOUTS.map((l) => (
             <option key={l.value} value={l.value}>
               {l.label}

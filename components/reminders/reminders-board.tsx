@@ -149,7 +149,7 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
       {query.isPending ? <Card aria-busy="true">Loading…</Card> : null}
       {query.data && query.data.rows.length === 0 ? <Card>{view === "upcoming" ? "Nothing goes out in the next 30 days." : "No reminders match."}</Card> : null}
       {query.data && query.data.rows.length > 0 ? (
-        <div className="overflow-x-auto rounded-xl border border-line bg-card">
+        <div className="relative overflow-x-auto rounded-xl border border-line bg-card">
           <table className="w-full min-w-[48rem] text-left text-sm">
             <thead className="border-b border-line text-muted">
               <tr>

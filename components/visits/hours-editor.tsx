@@ -41,7 +41,7 @@ export function HoursEditor({ technicianId, name, initial, editable }: { technic
       <fieldset className="space-y-2" disabled={!editable}>
         <legend className="text-sm font-semibold">Weekly hours</legend>
         {hours.fields.map((f, i) => (
-          <div key={f.id} className="grid grid-cols-[1fr_1fr_1fr_auto] items-end gap-2">
+          <div key={f.id} className="grid grid-cols-[minmax(0,1.3fr)_minmax(0,1fr)_minmax(0,1fr)_auto] items-end gap-2">
             <SelectField label="Day" error={e.hours?.[i]?.weekday?.message} {...form.register(`hours.${i}.weekday`, { valueAsNumber: true })}>
               {WEEKDAYS.map((d, n) => (
                 <option key={d} value={n + 1}>{d}</option>

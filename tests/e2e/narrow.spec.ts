@@ -1,0 +1,33 @@
+// Studio pages at 375 px that once scrolled sideways: the registry's card-print bar (its layout select
+// was as wide as its longest option), the reminders board (the table's visually hidden "Actions" header
+// escaped its scrolling box), the technicians' weekly hours (three time fields and a button in fixed
+// columns). Each page is read as seeded; nothing here changes the demo studio's data.
+import { expect, test, type Page } from "@playwright/test";
+import { ACCOUNTS, signIn } from "./helpers";
+
+test.use({ viewport: { width: 375, height: 812 } });
+
+async function noSideways(page: Page, label: string) {
+  const { scroll, width } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, width: window.innerWidth }));
+  expect(scroll, `${label}: the page scrolls sideways at 375 px`).toBeLessThanOrEqual(width);
+}
+
+test("registry, reminders, working hours and audit fit a 375 px phone", async ({ page }) => {
+  await signIn(page, ACCOUNTS.admin);
+
+  await page.goto("/studio/pieces");
+  await expect(page.getByLabel("Print drawer cards on")).toBeVisible();
+  await noSideways(page, "/studio/pieces");
+
+  await page.goto("/studio/reminders");
+  await expect(page.getByRole("table").or(page.getByText("Nothing goes out in the next 30 days."))).toBeVisible();
+  await noSideways(page, "/studio/reminders");
+
+  await page.goto("/studio/technicians");
+  await expect(page.getByRole("group", { name: "Weekly hours" }).first()).toBeVisible();
+  await noSideways(page, "/studio/technicians");
+
+  await page.goto("/studio/audit");
+  await expect(page.getByRole("heading", { level: 1, name: "Audit log" })).toBeVisible();
+  await noSideways(page, "/studio/audit");
+});
