@@ -82,7 +82,7 @@ export function QuoteBuilder({
       const sent = v.lines.map((l, i) => {
         const unitPriceMinor = parseMajorAmount(l.unitPrice, exponent);
         if (unitPriceMinor === null) setError(`lines.${i}.unitPrice`, { message: `Enter a price like ${formatMinorUnits(8550, currency)}.` });
-        if (!QUANTITY.test(l.quantity) || Number(l.quantity) <= 0) setError(`lines.${i}.quantity`, { message: "A number above 0, at most three decimals (0.75)." });
+        if (!QUANTITY.test(l.quantity) || Number(l.quantity) <= 0) setError(`lines.${i}.quantity`, { message: "A number above 0 and up to 100,000, at most three decimals (0.75)." });
         if (!l.description.trim()) setError(`lines.${i}.description`, { message: "Describe the line." });
         bad ||= unitPriceMinor === null || !QUANTITY.test(l.quantity) || Number(l.quantity) <= 0 || !l.description.trim();
         const { unitPrice: _p, proposed: _x, ...rest } = l;

@@ -54,7 +54,7 @@ export type RevokeInvitationValues = z.output<typeof revokeInvitationSchema>;
 
 export const acceptInvitationSchema = z.object({
   token: z.string().min(10).max(200),
-  name: z.string().trim().min(1, "Tell us your name.").max(120),
+  name: z.string().trim().min(1, "Tell us your name.").max(120, "Use at most 120 characters."),
   password: newPasswordField,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;

@@ -30,14 +30,14 @@ export const quoteLineSchema = z.object({
  */
 export const jobQuoteSchema = z
   .object({
-    title: z.string().trim().min(1, "Give the job a title.").max(160),
+    title: z.string().trim().min(1, "Give the job a title.").max(160, "Keep the title under 160 characters."),
     tasks: z.array(z.enum(CARE_TASK_KINDS)).max(10),
     /** Keys of the studio's repair price list. */
     repairs: z.array(z.string().min(1).max(64)).max(20).optional(),
     productIds: z.array(id).max(10, "At most 10 products."),
     coats: z.coerce.number().int().min(1, "At least one coat.").max(6, "At most six coats."),
     travel: z.boolean(),
-    coveredPct: z.coerce.number().int().min(0).max(100),
+    coveredPct: z.coerce.number({ error: "Enter the warranty share as a number from 0 to 100." }).int("Use a whole percent, from 0 to 100.").min(0, "The warranty share is 0 to 100 %.").max(100, "The warranty share is 0 to 100 %."),
     notes: z.string().max(4000, "Keep notes under 4,000 characters.").default(""),
     lines: z.array(quoteLineSchema).max(40, "At most 40 lines.").optional(),
   })

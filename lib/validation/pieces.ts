@@ -158,15 +158,15 @@ export const catalogProductSchema = z.object({
   containers: z
     .array(
       z.object({
-        ml: z.number({ error: "Size must be a number." }).int("Whole millilitres.").positive("Size must be more than 0.").max(100_000),
-        priceMinor: z.number({ error: "Price must be a number." }).int("Price in whole cents.").min(0, "Price can't be negative.").max(100_000_000),
+        ml: z.number({ error: "Size must be a number." }).int("Whole millilitres.").positive("Size must be more than 0.").max(100_000, "At most 100,000 mL (100 L) a container."),
+        priceMinor: z.number({ error: "Price must be a number." }).int("Price in whole cents.").min(0, "Price can't be negative.").max(100_000_000, "That price is too large."),
       }),
     )
     .max(10, "At most 10 container sizes.")
     .default([]),
-  intervalHeavyMonths: z.number().int("Whole months.").min(1, "At least 1 month.").max(240).nullable().optional(),
-  intervalModerateMonths: z.number().int("Whole months.").min(1, "At least 1 month.").max(240).nullable().optional(),
-  intervalLightMonths: z.number().int("Whole months.").min(1, "At least 1 month.").max(240).nullable().optional(),
+  intervalHeavyMonths: z.number({ error: "Months must be a number." }).int("Whole months.").min(1, "At least 1 month.").max(240, "At most 240 months (20 years).").nullable().optional(),
+  intervalModerateMonths: z.number({ error: "Months must be a number." }).int("Whole months.").min(1, "At least 1 month.").max(240, "At most 240 months (20 years).").nullable().optional(),
+  intervalLightMonths: z.number({ error: "Months must be a number." }).int("Whole months.").min(1, "At least 1 month.").max(240, "At most 240 months (20 years).").nullable().optional(),
   safetyNotes: text(2000).default(""),
   /** From the product's label; empty keeps the finish class's default (lib/care/cure.ts). */
   cureLightUseHours: z.number({ error: "Hours must be a number." }).int("Whole hours.").min(1, "At least 1 hour.").max(24 * 60, "At most 60 days in hours.").nullable().optional(),

@@ -22,7 +22,7 @@ export const profileSchema = z
   .object({
     name: z.string({ error: "Enter the studio's name." }).trim().min(1, "Enter the studio's name.").max(120, "Use at most 120 characters."),
     address: z.string().trim().max(300, "Use at most 300 characters."),
-    email: z.union([z.literal(""), z.email("Enter an e-mail address like studio@example.com.").max(200)]),
+    email: z.union([z.literal(""), z.email("Enter an e-mail address like studio@example.com.").max(200, "Use at most 200 characters.")]),
     /** Optional so callers that predate it keep the stored number. */
     phone: z.string().trim().max(40, "Use at most 40 characters.").regex(/^[0-9+()./\- ]*(ext\.? ?\d+)?$/i, "A phone number: digits, spaces and + ( ) - . only.").optional(),
     timeZone: z.string({ error: "Enter a time zone." }).trim().refine(isStudioZone, "Use a time zone name like America/Los_Angeles or Europe/Berlin."),

@@ -102,10 +102,10 @@ export const reportLayerSchema = z.object({
   surface: z.enum(SURFACES, { error: "Pick a surface." }).default("top"),
   finishClass: z.enum(FINISH_CLASSES, { error: "Pick a finish class." }),
   productId: z.string().trim().max(64).nullable().optional(),
-  productLabel: z.string().trim().max(200).default(""),
+  productLabel: z.string().trim().max(200, "Keep the product under 200 characters.").default(""),
   coats: z.coerce.number({ error: "Coats must be a number." }).int("Whole coats.").min(1, "At least one coat.").max(20, "At most 20 coats."),
   appliedOn: visitRecordDate(),
-  batchLot: z.string().trim().max(100).default(""),
+  batchLot: z.string().trim().max(100, "Keep the batch or lot under 100 characters.").default(""),
 });
 
 /** POST /api/visits/[id]/report */

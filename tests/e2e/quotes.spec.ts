@@ -35,7 +35,7 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   // Hours edited; a bad quantity is refused on the spot and nothing is sent.
   await crack.getByLabel("Quantity").fill("1.0005");
   await page.getByRole("button", { name: "Save the quote" }).click();
-  await expect(crack.getByText("A number above 0, at most three decimals (0.75).")).toBeVisible();
+  await expect(crack.getByText("A number above 0 and up to 100,000, at most three decimals (0.75).")).toBeVisible();
   await crack.getByLabel("Quantity").fill("1.5");
 
   await page.getByRole("button", { name: "Add a typed line" }).click();
@@ -43,6 +43,16 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   await expect(typed.getByText("Typed", { exact: true })).toBeVisible();
   await typed.getByLabel(/^Line \d+: description$/).fill("Colour-match the fill (invented)");
   await typed.getByLabel("Unit price (USD)").fill("12.50");
+  // A warranty share over 100 % is a 400 with words under the field (not zod's "Too big: …"), and the typing stays.
+  const share = await page.getByLabel("Warranty share (%)").inputValue();
+  await page.getByLabel("Warranty share (%)").fill("250");
+  const refused = page.waitForResponse((r) => r.url().endsWith(`/api/jobs/${jobId}`) && r.request().method() === "PATCH");
+  await page.getByRole("button", { name: "Save the quote" }).click();
+  expect((await refused).status()).toBe(400);
+  await expect(page.getByText("The warranty share is 0 to 100 %.")).toBeVisible();
+  await expect(page.getByText(/Too big|expected number/)).toHaveCount(0);
+  await expect(typed.getByLabel(/^Line \d+: description$/)).toHaveValue("Colour-match the fill (invented)");
+  await page.getByLabel("Warranty share (%)").fill(share);
   await page.getByRole("button", { name: "Save the quote" }).click();
   await expect(page.getByText("Quote saved.")).toBeVisible();
 

@@ -89,3 +89,26 @@ describe("PATCH schemas", () => {
     expect(ownerSchemas.preferencesPatchSchema.parse({ unitSystem: "imperial" })).toEqual({ unitSystem: "imperial" });
   });
 });
+
+describe("out-of-range values a person types read in words", () => {
+  // zod's built-in messages ("Too big: expected number to be <=100") are machine sentences; every field
+  // a person fills carries its own. Each case: the schema, a value past its bound, the field, the words.
+  const zodDefault = /^(Too (big|small)|Invalid|Expected|expected)/;
+  const cases: [string, z.ZodType, unknown, string, RegExp][] = [
+    ["warranty share over 100 %", jobsSchemas.jobQuoteSchema, { title: "Fix", tasks: ["annual_check"], productIds: [], coats: 1, travel: false, coveredPct: 250 }, "coveredPct", /0 to 100 %/],
+    ["warranty share not a number", jobsSchemas.jobQuoteSchema, { title: "Fix", tasks: ["annual_check"], productIds: [], coats: 1, travel: false, coveredPct: "lots" }, "coveredPct", /number from 0 to 100/],
+    ["job title of 161 characters", jobsSchemas.jobQuoteSchema, { title: "x".repeat(161), tasks: ["annual_check"], productIds: [], coats: 1, travel: false, coveredPct: 0 }, "title", /160 characters/],
+    ["catalog interval of 241 months", piecesSchemas.catalogProductSchema, { name: "Oil", finishClass: "hardwax_oil", coverageM2PerL: 10, intervalHeavyMonths: 241 }, "intervalHeavyMonths", /240 months/],
+    ["catalog container of 200 L", piecesSchemas.catalogProductSchema, { name: "Oil", finishClass: "hardwax_oil", coverageM2PerL: 10, containers: [{ ml: 200_000, priceMinor: 100 }] }, "containers.0.ml", /100,000 mL/],
+    ["visit layer batch of 101 characters", visitsSchemas.reportLayerSchema, { finishClass: "hardwax_oil", coats: 1, appliedOn: utcToday(), batchLot: "x".repeat(101) }, "batchLot", /100 characters/],
+    ["visit layer product of 201 characters", visitsSchemas.reportLayerSchema, { finishClass: "hardwax_oil", coats: 1, appliedOn: utcToday(), productLabel: "x".repeat(201) }, "productLabel", /200 characters/],
+  ];
+  it.each(cases)("%s", (_label, schema, input, path, words) => {
+    const r = schema.safeParse(input);
+    expect(r.success).toBe(false);
+    const mine = r.error!.issues.filter((i) => i.path.join(".") === path).map((i) => i.message);
+    expect(mine.length).toBeGreaterThan(0);
+    for (const m of mine) expect(m).not.toMatch(zodDefault);
+    expect(mine.join(" ")).toMatch(words);
+  });
+});
