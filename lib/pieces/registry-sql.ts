@@ -73,12 +73,16 @@ const IDS = `(SELECT value FROM json_each(?))`;
 // What a registry row shows, read by the list query itself (joined with users as u), in this order
 // (the statement answers arrays: building an object per row in SQLite's binding cost more than the
 // read). A row's finish classes come as one JSON array, in layer order, read from the layers' piece
-// index alone (piece, surface, position, class: migration 0029), not from each layer's row. The care
-// engine's columns, layers and care log are read only for the rows whose next care is not kept
-// (loadCareInputs).
+// index alone (piece, surface, position, class: migration 0029), not from each layer's row. The order
+// comes from a subquery that reads that index in its own order, not from json_group_array(… ORDER BY …),
+// which opened a sorter for every row of the page (with the rowid-only join of Filter below, the page
+// query went from 1.12–1.39 M to 0.93 M instructions under cachegrind on the 100,000-piece bench seed).
+// SQLite keeps a FROM-clause subquery's ORDER BY when the query around it aggregates with anything but
+// count/min/max, and registry-results.test.ts checks every row's classes in layer order. The care engine's columns, layers and care log are read
+// only for the rows whose next care is not kept (loadCareInputs).
 const LIST_COLUMNS = `p.id, p.title, p.kind, p.delivered_on, p.primary_species_id, p.secondary_species_id,
   p.owner_id, p.archived_at, p.warranty_policy_id, u.name, u.email,
-  (SELECT json_group_array(l.finish_class ORDER BY l.surface, l.position) FROM finish_layers l WHERE l.piece_id = p.id)`;
+  (SELECT json_group_array(c) FROM (SELECT l.finish_class AS c FROM finish_layers l WHERE l.piece_id = p.id ORDER BY l.surface, l.position))`;
 
 function listRow(r: unknown[]): ListPieceRow {
   return {
@@ -157,8 +161,15 @@ function joinFragments(parts: Fragment[], sep: string): Fragment {
   return { text: parts.map((p) => p.text).join(sep), params: parts.flatMap((p) => p.params) };
 }
 
-/** `where` checks each FTS row's piece id too (safe even if a VACUUM renumbered rowids before a reindex); `count` skips that read. */
-export type Filter = { where: Fragment; count: Fragment; fts: string | null; codeHash: string | null };
+/**
+ * The WHERE clause of the list and its count. A search joins pieces_fts to pieces by rowid alone (the
+ * page and the count alike): the app never runs VACUUM (the one thing that may renumber the pieces'
+ * rowids), and a deleted piece's index row goes in the same transaction as the piece
+ * (registry-delete.ts, unindexPiece), so an index row's rowid is its piece's. Checking each index row's
+ * piece id as well cost a read of the index's content row for every row of the page (about a twelfth
+ * of the page query's instructions). After a VACUUM run by hand, rebuild the index (rebuildSearchIndex).
+ */
+export type Filter = { where: Fragment; fts: string | null; codeHash: string | null };
 
 export function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<string, number>, useCode: boolean, t: string): Filter {
   const conds: Fragment[] = [frag(`p.studio_id = ?`, ctx.studio.id)];
@@ -189,8 +200,7 @@ export function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<st
       conds.push(fts ? frag(`pieces_fts MATCH ?`, fts) : frag(`0`));
     }
   }
-  const count = joinFragments(conds, " AND ");
-  return { where: fts ? joinFragments([count, frag(`pieces_fts.piece_id = p.id`)], " AND ") : count, count, fts, codeHash };
+  return { where: joinFragments(conds, " AND "), fts, codeHash };
 }
 
 // Ties break on rowid (insertion order), which the (studio_id, delivered_on) index carries, so the
@@ -228,8 +238,8 @@ export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offs
  * from memory, which is not what searching costs.
  */
 export function countMatches(f: Filter, upTo: number): number {
-  const text = `SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.count.text} LIMIT ?)`;
-  return (statementFor(getDb(), text).get(...f.count.params, upTo) as { n: number } | undefined)?.n ?? 0;
+  const text = `SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.where.text} LIMIT ?)`;
+  return (statementFor(getDb(), text).get(...f.where.params, upTo) as { n: number } | undefined)?.n ?? 0;
 }
 
 const versionStatements = perConnection((db) => ({
