@@ -12,6 +12,7 @@ export type TechnicianVisitEmailProps = {
   jobTitle: string;
   when: string;
   previousWhen?: string;
+  /** The zone in words (formatZone): "Pacific Time, Los Angeles". */
   timeZone: string;
   location: string;
   reason?: string;
@@ -55,8 +56,8 @@ TechnicianVisitEmail.PreviewProps = {
   ownerName: "The Holloway household",
   pieceTitle: "Walnut river dining table",
   jobTitle: "Topcoat refresh, dining table",
-  when: "Tuesday 8 December 2026, 09:00–10:30",
-  timeZone: "America/Los_Angeles",
+  when: "Tuesday, 8 December 2026, 09:00–10:30 PST",
+  timeZone: "Pacific Time, Los Angeles",
   location: "14 Quarry Lane, Port Alder",
   url: "http://localhost:3000/studio/today?date=2026-12-08",
 } satisfies TechnicianVisitEmailProps;

@@ -8,10 +8,11 @@ export type VisitInviteEmailProps = {
   studioName: string;
   pieceTitle: string;
   jobTitle: string;
-  /** e.g. "Tuesday 8 December 2026, 09:00–10:30" in the studio's time zone */
+  /** e.g. "Tuesday, 8 December 2026, 09:00–10:30 PST" (formatVisitWhen) in the reader's time zone */
   when: string;
   /** The time before a move, for "moved". */
   previousWhen?: string;
+  /** The zone in words (formatZone): "Pacific Time, Los Angeles". */
   timeZone: string;
   /** "today", "tomorrow" or "on Friday 4 June 2027", by the owner's calendar day (not for a cancellation). */
   dayWord?: string;
@@ -53,8 +54,8 @@ VisitInviteEmail.PreviewProps = {
   studioName: "Larchmere Slab & Resin (invented)",
   pieceTitle: "Walnut river dining table",
   jobTitle: "Topcoat refresh, dining table",
-  when: "Tuesday 8 December 2026, 09:00–10:30",
-  timeZone: "America/Los_Angeles",
+  when: "Tuesday, 8 December 2026, 09:00–10:30 PST",
+  timeZone: "Pacific Time, Los Angeles",
   dayWord: "on Tuesday 8 December 2026",
   location: "14 Quarry Lane, Port Alder",
   technicianName: "Ines Varga",

@@ -9,6 +9,7 @@ export type VisitReminderEmailProps = {
   pieceTitle: string;
   jobTitle: string;
   when: string;
+  /** The zone in words (formatZone): "Pacific Time, Los Angeles". */
   timeZone: string;
   location: string;
   technicianName: string;
@@ -40,7 +41,7 @@ VisitReminderEmail.PreviewProps = {
   pieceTitle: "Walnut and maple resin coffee table",
   jobTitle: "Polish the resin river",
   when: "Wednesday 9 December 2026, 13:00–14:30",
-  timeZone: "America/Los_Angeles",
+  timeZone: "Pacific Time, Los Angeles",
   location: "3 Ferry Row, Port Alder",
   technicianName: "Sol Amberly",
   url: "http://localhost:3000/jobs/example",

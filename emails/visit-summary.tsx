@@ -86,7 +86,7 @@ VisitSummaryEmail.PreviewProps = {
   studioName: "Larchmere Slab & Resin (invented)",
   pieceTitle: "Walnut river dining table",
   jobTitle: "Topcoat refresh, dining table",
-  when: "Tuesday 8 December 2026, 09:00–10:30",
+  when: "Tuesday, 8 December 2026, 09:00–10:30 PST",
   technicianName: "Ines Varga",
   work: "Cleaned, keyed the topcoat, one fresh coat of ceramic-type topcoat.",
   layers: ["Top: Ceramic-type topcoat over oil — Ceramic-type topcoat, matte, 1 coat, 8 December 2026"],

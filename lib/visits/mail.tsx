@@ -13,7 +13,7 @@ import { sendMail, sendMailNow } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
 import { ownerActsOnJob } from "@/lib/repairs/owner-reach";
 import { buildInvite, inviteAttachment } from "./ics";
-import { formatVisitWhen, ownerTimeZone, visitDayWord } from "@/lib/format";
+import { formatVisitWhen, formatZone, ownerTimeZone, visitDayWord } from "@/lib/format";
 
 export function loadVisitMailView(visitId: string) {
   const db = getDb();
@@ -99,7 +99,7 @@ export async function sendVisitInvite(
       jobTitle: v.job.title,
       when,
       previousWhen: extra.previous ? formatVisitWhen(extra.previous.startAt.getTime(), extra.previous.endAt.getTime(), tz) : undefined,
-      timeZone: tz,
+      timeZone: formatZone(tz),
       dayWord: kind === "cancelled" ? undefined : visitDayWord(v.visit.startAt.getTime(), nowMs, tz),
       location: v.visit.location,
       technicianName: v.technician.name,
@@ -138,7 +138,7 @@ async function sendTechnicianInvites(v: VisitMailView, kind: "booked" | "moved" 
         jobTitle: v.job.title,
         when: k === "cancelled" ? (props.previousWhen ?? when) : when,
         previousWhen: k === "moved" ? props.previousWhen : undefined,
-        timeZone: tz,
+        timeZone: formatZone(tz),
         location: v.visit.location,
         reason: props.reason,
         url: dayUrl(props.dayMs),
@@ -173,7 +173,7 @@ export async function sendVisitReminder(v: VisitMailView, nowMs: number): Promis
       pieceTitle: v.piece.title,
       jobTitle: v.job.title,
       when,
-      timeZone: tz,
+      timeZone: formatZone(tz),
       location: v.visit.location,
       technicianName: v.technician.name,
       url: jobUrl(v.job.id),
