@@ -76,10 +76,11 @@ const IDS = `(SELECT value FROM json_each(?))`;
 // index alone (piece, surface, position, class: migration 0029), not from each layer's row. The order
 // comes from a subquery that reads that index in its own order, not from json_group_array(… ORDER BY …),
 // which opened a sorter for every row of the page (with the rowid-only join of Filter below, the page
-// query went from 1.12–1.39 M to 0.93 M instructions under cachegrind on the 100,000-piece bench seed).
+// query went from 1.32 M to 1.10 M instructions under cachegrind on the 100,000-piece bench seed).
 // SQLite keeps a FROM-clause subquery's ORDER BY when the query around it aggregates with anything but
-// count/min/max, and registry-results.test.ts checks every row's classes in layer order. The care engine's columns, layers and care log are read
-// only for the rows whose next care is not kept (loadCareInputs).
+// count/min/max, and registry-results.test.ts checks every row's classes in layer order. The care
+// engine's columns, layers and care log are read only for the rows whose next care is not kept
+// (loadCareInputs).
 const LIST_COLUMNS = `p.id, p.title, p.kind, p.delivered_on, p.primary_species_id, p.secondary_species_id,
   p.owner_id, p.archived_at, p.warranty_policy_id, u.name, u.email,
   (SELECT json_group_array(c) FROM (SELECT l.finish_class AS c FROM finish_layers l WHERE l.piece_id = p.id ORDER BY l.surface, l.position))`;
@@ -166,8 +167,8 @@ function joinFragments(parts: Fragment[], sep: string): Fragment {
  * page and the count alike): the app never runs VACUUM (the one thing that may renumber the pieces'
  * rowids), and a deleted piece's index row goes in the same transaction as the piece
  * (registry-delete.ts, unindexPiece), so an index row's rowid is its piece's. Checking each index row's
- * piece id as well cost a read of the index's content row for every row of the page (about a twelfth
- * of the page query's instructions). After a VACUUM run by hand, rebuild the index (rebuildSearchIndex).
+ * piece id as well cost a read of the index's content row for every row of the page. After a VACUUM
+ * run by hand, rebuild the index (rebuildSearchIndex).
  */
 export type Filter = { where: Fragment; fts: string | null; codeHash: string | null };
 
