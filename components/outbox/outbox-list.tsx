@@ -3,8 +3,10 @@
 import { useState } from "react";
 import type { OutboxMessage } from "@/lib/mail/outbox";
 import { cn } from "@/components/ui/cn";
+import { formatInstant } from "@/lib/format";
 
-export function OutboxList({ messages }: { messages: OutboxMessage[] }) {
+/** The studio's sent mail, newest first; times in the studio's zone. */
+export function OutboxList({ messages, timeZone }: { messages: OutboxMessage[]; timeZone: string }) {
   const [openId, setOpenId] = useState<string | null>(messages[0]?.id ?? null);
   const [view, setView] = useState<"html" | "text">("html");
   const open = messages.find((m) => m.id === openId);
@@ -21,7 +23,7 @@ export function OutboxList({ messages }: { messages: OutboxMessage[] }) {
             >
               <span className="block truncate font-medium">{m.subject}</span>
               <span className="block truncate text-sm text-muted">
-                {m.to.join(", ")} · {new Date(m.receivedAt).toISOString().slice(0, 16).replace("T", " ")} UTC
+                {m.to.join(", ")} · {formatInstant(m.receivedAt, timeZone, { time: true })}
               </span>
             </button>
           </li>

@@ -162,7 +162,7 @@ export function SlotPicker(p: Props) {
           </div>
           {[shownDay!].map(([date, list]) => (
             <section key={date} className="space-y-2" aria-label="Free times">
-              <h3 className="font-semibold">{dayHeading(date)}</h3>
+              <h2 className="font-semibold">{dayHeading(date)}</h2>
               <ul className="grid grid-cols-2 gap-2 sm:grid-cols-4">
                 {list.map((s) => {
                   const on = chosen?.start === s.start && chosen.technicianId === s.technicianId;

@@ -76,6 +76,8 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   await expect(days.first()).toBeVisible();
   // The zone of the free times in words, not its IANA name.
   await expect(owner.getByText("Times in Pacific Time, Los Angeles.")).toBeVisible();
+  // The day's heading sits one level under the page's (h1 → h2), so the headings read in order.
+  await expect(owner.getByRole("region", { name: "Free times" }).getByRole("heading", { level: 2 })).toBeVisible();
   const first = owner.getByRole("region", { name: "Free times" }).getByRole("button", { name: /with Ines Varga/ }).first();
   for (let i = 0; i < (await days.count()) && !(await first.isVisible()); i++) await days.nth(i).click();
   await first.click();

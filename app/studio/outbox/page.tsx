@@ -10,9 +10,9 @@ export const metadata: Metadata = { title: "Outbox" };
 export const dynamic = "force-dynamic";
 
 export default async function OutboxPage() {
-  const { messages, reachable, studioName } = await forPage(async () => {
+  const { messages, reachable, studioName, timeZone } = await forPage(async () => {
     const ctx = await requireAdmin();
-    return { ...(await listOutbox(ctx)), studioName: ctx.studio.name };
+    return { ...(await listOutbox(ctx)), studioName: ctx.studio.name, timeZone: ctx.studio.timeZone };
   });
   return (
     <>
@@ -25,7 +25,7 @@ export default async function OutboxPage() {
       ) : messages.length === 0 ? (
         <Card>No e-mail sent for this studio yet.</Card>
       ) : (
-        <OutboxList messages={messages} />
+        <OutboxList messages={messages} timeZone={timeZone} />
       )}
     </>
   );

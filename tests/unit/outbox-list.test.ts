@@ -1,0 +1,16 @@
+// The development outbox's list (components/outbox/outbox-list.tsx): a message's time reads in words in
+// the studio's zone, with the zone named, not as an ISO stamp.
+import { createElement } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
+import { describe, expect, it } from "vitest";
+import { OutboxList } from "@/components/outbox/outbox-list";
+
+const message = { id: "m1", receivedAt: "2026-12-04T15:40:00.000Z", subject: "Your table's first oiling", to: ["owner@owners.example"], text: "", html: "", headers: {}, attachments: [] };
+
+describe("OutboxList", () => {
+  it("gives a message's time in the studio's zone, zone named", () => {
+    const html = renderToStaticMarkup(createElement(OutboxList, { messages: [message], timeZone: "America/Los_Angeles" }));
+    expect(html).toContain("owner@owners.example · 4 December 2026 at 07:40 PST");
+    expect(html).not.toMatch(/2026-12-04|UTC/);
+  });
+});
