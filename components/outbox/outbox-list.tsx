@@ -22,9 +22,8 @@ export function OutboxList({ messages, timeZone }: { messages: OutboxMessage[]; 
               className={cn("block w-full px-4 py-3 text-left hover:bg-resin-soft", m.id === openId && "bg-resin-soft")}
             >
               <span className="block truncate font-medium">{m.subject}</span>
-              <span className="block truncate text-sm text-muted">
-                {m.to.join(", ")} · {formatInstant(m.receivedAt, timeZone, { time: true })}
-              </span>
+              <span className="block truncate text-sm text-muted">{m.to.join(", ")}</span>
+              <span className="block text-sm text-muted">{formatInstant(m.receivedAt, timeZone, { time: true })}</span>
             </button>
           </li>
         ))}
