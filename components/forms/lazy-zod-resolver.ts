@@ -17,8 +17,8 @@ export function useLazyZodResolver<S extends z.ZodType, TIn extends FieldValues 
   const [state] = useState(() => {
     let ready: Promise<Resolver<TIn, unknown, TOut> | null> | undefined;
     const get = () =>
-      (ready ??= Promise.all([load(), import("@hookform/resolvers/zod")]).then(
-        ([schema, { zodResolver }]) => zodResolver(schema as never) as unknown as Resolver<TIn, unknown, TOut>,
+      (ready ??= Promise.all([load(), import("@hookform/resolvers/zod"), import("@/lib/validation/words")]).then(
+        ([schema, { zodResolver }, { inWords }]) => zodResolver(schema as never, { error: inWords }) as unknown as Resolver<TIn, unknown, TOut>,
         () => null,
       ));
     const resolver: Resolver<TIn, unknown, TOut> = async (values, context, options) => {

@@ -8,6 +8,7 @@ import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { notFound } from "@/lib/errors";
 import { catalogProductSchema, type CatalogPatch, type CatalogProductInput } from "@/lib/validation/pieces";
+import { inWords } from "@/lib/validation/words";
 
 // The studio's finish catalog: staff read it (layer pickers), admins change it. Wear intervals left empty — or equal to the care engine's
 // default for the class — are stored as null, so the care engine's default (lib/care/intervals.ts) applies and
@@ -63,7 +64,7 @@ export function updateCatalogProduct(ctx: StudioContext, id: string, patch: Cata
     const merged = catalogProductSchema.parse({
       ...current,
       ...Object.fromEntries(Object.entries(fields).filter(([, x]) => x !== undefined)),
-    });
+    }, { error: inWords });
     const archivedAt = archived === undefined ? current.archivedAt : archived ? (current.archivedAt ?? new Date()) : null;
     const row = tx
       .update(finishProducts)

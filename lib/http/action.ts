@@ -5,6 +5,7 @@ import { requireActor, type ActorFor, type ActorRole } from "@/lib/auth/actor";
 import type { FieldErrors } from "@/lib/errors";
 import type { ActionResult } from "@/lib/validation/action";
 import { asAppError } from "@/lib/validation/care-input";
+import { inWords } from "@/lib/validation/words";
 
 // The one boundary of server actions, the twin of route() (lib/http/route.ts): an action names who
 // may call it and its input's zod schema (the one its form uses) as data; the wrapper resolves the
@@ -59,7 +60,7 @@ function answer<R extends ActorRole, S extends z.ZodType | undefined, T>(spec: A
       const actor = (spec.roles ? await requireActor(spec.roles) : null) as [R] extends [never] ? null : ActorFor<R>;
       let input: Out<S> = undefined as Out<S>;
       if (spec.schema) {
-        const parsed = spec.schema.safeParse(raw instanceof FormData ? Object.fromEntries(raw) : raw);
+        const parsed = spec.schema.safeParse(raw instanceof FormData ? Object.fromEntries(raw) : raw, { error: inWords });
         if (!parsed.success) return fieldProblems(parsed.error);
         input = parsed.data as Out<S>;
       }

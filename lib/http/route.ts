@@ -4,6 +4,7 @@ import { z } from "zod";
 import { requireActor, type ActorFor, type ActorRole } from "@/lib/auth/actor";
 import { AppError, badRequest } from "@/lib/errors";
 import { asAppError } from "@/lib/validation/care-input";
+import { inWords } from "@/lib/validation/words";
 import { BODY_LIMITS, readForm, readJson } from "./body";
 import { checkOrigin } from "./origin";
 
@@ -92,11 +93,11 @@ type AnySpec = RouteSpec<ActorRole, AnySchema | undefined, AnySchema | undefined
 /** Actor first (401/403 before anything about the input), then params and query, the loaded object, and the body, each once. */
 async function parseInput(spec: AnySpec, req: NextRequest, rawParams: unknown) {
   const actor = spec.roles ? await requireActor(spec.roles) : null;
-  const params = spec.params ? spec.params.parse(rawParams) : undefined;
-  const query = spec.query ? spec.query.parse(Object.fromEntries(req.nextUrl.searchParams)) : undefined;
+  const params = spec.params ? spec.params.parse(rawParams, { error: inWords }) : undefined;
+  const query = spec.query ? spec.query.parse(Object.fromEntries(req.nextUrl.searchParams), { error: inWords }) : undefined;
   const found = { req, actor, params, query } as Omit<RouteInput<ActorRole, AnySchema, AnySchema, AnySchema, unknown>, "body" | "loaded">;
   const loaded = spec.load ? await spec.load(found) : undefined;
-  const body = spec.body ? spec.body.parse(await readBodyOf(spec, req)) : undefined;
+  const body = spec.body ? spec.body.parse(await readBodyOf(spec, req), { error: inWords }) : undefined;
   return { ...found, loaded, body } as RouteInput<ActorRole, AnySchema, AnySchema, AnySchema, unknown>;
 }
 

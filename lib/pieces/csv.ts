@@ -24,6 +24,7 @@ import { AppError, unprocessable } from "@/lib/errors";
 import { createPieceSchema, type CreatePieceValues, type ImportValues, type PieceListQuery } from "@/lib/validation/pieces";
 import { insertPiece, loadFullPieces, queryRegistry, studioProducts } from "./registry";
 import { formatCount } from "@/lib/format";
+import { inWords } from "@/lib/validation/words";
 
 // CSV export of the registry's current filter, and import of earlier deliveries. The import checks
 // every row first and writes nothing unless the whole file is valid, then writes it in one transaction.
@@ -331,7 +332,7 @@ export function importPiecesCsv(ctx: StudioContext, { csv, commit }: Pick<Import
         internalNotes: r.notes ?? "",
         layers: stack.layers,
       };
-      const result = createPieceSchema.safeParse(candidate);
+      const result = createPieceSchema.safeParse(candidate, { error: inWords });
       const rowErrors: ImportError[] = [];
       if (stack.error) rowErrors.push({ row: rowNo, field: "finish_stack", message: stack.error });
       const buyer = readBuyerColumns(r, ctx.studio.country);

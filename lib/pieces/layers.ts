@@ -11,6 +11,7 @@ import { layerSchema, type LayerPatch, type LayerValues } from "@/lib/validation
 import { scheduleFromRows } from "./care-inputs";
 import { checkLayerRefs, loadPiece, studioProducts } from "./registry";
 import { indexPiece, type DbOrTx } from "./search-index";
+import { inWords } from "@/lib/validation/words";
 
 // The finish stack: ordered layers per surface (position 0 = closest to the wood). Every change is
 // written to the audit log with the layer before and after, so the stack's history is kept.
@@ -103,7 +104,7 @@ export function updateLayer(ctx: StudioContext, pieceId: string, layerId: string
   const layer = getDb().transaction((tx) => {
     const current = loadLayer(ctx, tx, pieceId, layerId);
     const { position, ...fields } = patch;
-    const merged = layerSchema.parse({ ...current, ...Object.fromEntries(Object.entries(fields).filter(([, v]) => v !== undefined)) });
+    const merged = layerSchema.parse({ ...current, ...Object.fromEntries(Object.entries(fields).filter(([, v]) => v !== undefined)) }, { error: inWords });
     checkLayerRefs(ctx, tx, merged);
     const surfaceChanged = merged.surface !== current.surface;
     tx.update(finishLayers)

@@ -10,6 +10,7 @@ import { pieceSchema, type PiecePatch } from "@/lib/validation/pieces";
 import { loadPiece, publicPiece, type PublicPiece } from "./registry-common";
 import { pieceColumns } from "./registry-create";
 import { indexPiece } from "./search-index";
+import { inWords } from "@/lib/validation/words";
 
 /** PATCH /api/pieces/[id]: merges the change into the record and checks the whole record again. */
 export function updatePiece(ctx: StudioContext, pieceId: string, patch: PiecePatch): PublicPiece {
@@ -17,7 +18,7 @@ export function updatePiece(ctx: StudioContext, pieceId: string, patch: PiecePat
   return db.transaction((tx) => {
     const current = loadPiece(ctx, pieceId, tx);
     const { archived, ...fields } = patch;
-    const merged = pieceSchema.parse({ ...current, ...Object.fromEntries(Object.entries(fields).filter(([, v]) => v !== undefined)) });
+    const merged = pieceSchema.parse({ ...current, ...Object.fromEntries(Object.entries(fields).filter(([, v]) => v !== undefined)) }, { error: inWords });
     const columns = pieceColumns(merged);
     const changed = Object.fromEntries(Object.entries(columns).filter(([k, v]) => (current as Record<string, unknown>)[k] !== v));
     const archivedAt = archived === undefined ? current.archivedAt : archived ? (current.archivedAt ?? new Date()) : null;

@@ -11,6 +11,7 @@ import { assertAdmin, formatBasisPoints, freshStudio, toBasisPoints, toMinorUnit
 import { repairSettingsSchema, type RepairSettingsInput } from "@/lib/validation/repair-settings";
 import { LINE_KINDS, type PriceListEntry } from "./lines";
 import { priceListOf } from "./price-list";
+import { inWords } from "@/lib/validation/words";
 
 /** The form's values from what the studio has saved. */
 export function repairSettingsValues(ctx: StudioContext): RepairSettingsInput & { singleRatePct: string; currency: string } {
@@ -40,7 +41,7 @@ function keyFor(label: string, taken: Set<string>): string {
 /** Saves the repair price list, rounding and tax; quotes priced from now on follow them (sent quotes keep theirs). */
 export function updateRepairSettings(ctx: StudioContext, raw: RepairSettingsInput): Studio {
   assertAdmin(ctx);
-  const input = repairSettingsSchema.parse(raw);
+  const input = repairSettingsSchema.parse(raw, { error: inWords });
   const s = freshStudio(ctx);
   const taken = new Set<string>();
   const list: PriceListEntry[] = input.priceList.map((e) => {

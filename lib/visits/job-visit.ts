@@ -1,10 +1,10 @@
 import "server-only";
 import { and, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { repairJobs, users, visits } from "@/db/schema";
+import { clients, repairJobs, users, visits } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
 import { jobDurationMin, visitRulesFor } from "./availability";
-import { formatVisitWhen } from "@/lib/format";
+import { formatVisitWhen, ownerTimeZone } from "@/lib/format";
 import { visitPhotosOf } from "./photos";
 import { iso, jobForActor, liveVisitOfJob, visitJson } from "./visit-row";
 import { visitVisibleTo } from "./visible";
@@ -31,12 +31,27 @@ export function visitOfJob(actor: Actor, jobId: string) {
     visit: {
       ...visitJson(v),
       technicianName: tech?.name ?? "",
-      when: formatVisitWhen(v.startAt.getTime(), v.endAt.getTime(), studio.timeZone),
+      when: formatVisitWhen(v.startAt.getTime(), v.endAt.getTime(), shownZone(actor, studio)),
       ownerCutoffHours: rules.ownerChangeCutoffHours,
       signedOffAt: v.signedOffAt ? iso(v.signedOffAt) : null,
       photos: visitPhotosOf(actor, { jobId: job.id }),
     },
   };
+}
+
+/**
+ * The zone a visit's time is shown in: the owner's own (their account's, else the studio's client record
+ * of them, else the studio's, as their visit mails and claim page say it: lib/format ownerTimeZone);
+ * the studio's for its members.
+ */
+function shownZone(actor: Actor, studio: { id: string; timeZone: string }): string {
+  if (actor.role !== "owner") return studio.timeZone;
+  const client = getDb()
+    .select({ timeZone: clients.timeZone })
+    .from(clients)
+    .where(and(eq(clients.userId, actor.user.id), eq(clients.studioId, studio.id)))
+    .get();
+  return ownerTimeZone(actor.user.timeZone, client?.timeZone, studio.timeZone);
 }
 
 /** The booking page's data: the job, its duration, where the visit can be, the live visit if any. */
@@ -50,7 +65,7 @@ export function bookingContext(actor: Actor, jobId: string) {
     studio: { name: studio.name, address: studio.address, timeZone: studio.timeZone },
     durationMin: jobDurationMin(job, piece),
     rules: { leadTimeHours: actor.role === "owner" ? rules.leadTimeHours : 0, ownerChangeCutoffHours: rules.ownerChangeCutoffHours },
-    visit: live ? { ...visitJson(live), when: formatVisitWhen(live.startAt.getTime(), live.endAt.getTime(), studio.timeZone) } : null,
+    visit: live ? { ...visitJson(live), when: formatVisitWhen(live.startAt.getTime(), live.endAt.getTime(), shownZone(actor, studio)) } : null,
     bookable: Boolean(live) || job.state === "paid" || job.state === "covered",
   };
 }

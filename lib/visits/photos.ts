@@ -13,6 +13,7 @@ import { removeStoredFiles, storeImage } from "@/lib/storage";
 import { visitPhotoKindSchema } from "@/lib/validation/visits";
 import { visitForActor } from "./visit-row";
 import { visitVisibleTo } from "./visible";
+import { inWords } from "@/lib/validation/words";
 
 // Before and after photos of visits: taken by the technician (or staff), shown on the job's and the piece's pages.
 
@@ -24,7 +25,7 @@ export async function addVisitPhoto(ctx: StudioContext, visitId: string, read: (
   const { visit } = visitForActor(ctx, visitId);
   if (visit.state === "cancelled") throw conflict("This visit was cancelled.");
   const upload = await read();
-  const kind = visitPhotoKindSchema.parse(upload.fields.kind);
+  const kind = visitPhotoKindSchema.parse(upload.fields.kind, { error: inWords });
   const stored = await storeImage(upload.data, ctx.user.id);
   try {
     const file = getDb().transaction((tx) => {

@@ -174,6 +174,9 @@ describe("pieces: the registry query, its CSV export, edits, layers and the CSV 
     expect([size.status, size.json?.error?.fieldErrors]).toEqual([400, { pageSize: ["Page size is 10, 25, 50 or 100."] }]);
     const due = await call(exportCsv, "GET", "/api/pieces/export.csv?dueBefore=2026-02-30");
     expect([due.status, Object.keys(due.json?.error?.fieldErrors ?? {})]).toEqual([400, ["dueBefore"]]);
+    // A kind we don't have is named in words (lib/validation/words.ts), not zod's "Invalid option: expected one of …".
+    const kind = await call(exportCsv, "GET", "/api/pieces/export.csv?kind=zzz");
+    expect([kind.status, kind.json?.error?.fieldErrors]).toEqual([400, { kind: ["Choose one of: dining_table, coffee_table, desk, bench, countertop, console, shelf, other."] }]);
     // Empty values count as absent, as the registry table's links send them.
     const ok = await call(list, "GET", "/api/pieces?q=&kind=&pageSize=10");
     expect([ok.status, (ok.json as { total?: number } | null)?.total]).toEqual([200, 0]);

@@ -231,6 +231,13 @@ describe("today, tomorrow or the date, by the owner's own calendar day", () => {
     expect(await subjects(unset.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 10:00–11:30 EDT"]);
     expect(await subjects(chicago.owner.email)).toEqual(["Tomorrow: your visit, Sunday, 14 March 2027, 09:00–10:30 CDT"]);
 
+    // The job page's visit card says the same time as their mail: in the owner's zone for the owner, the studio's for its staff.
+    const signedIn = (id: string) => ownerActor(luciaUser(getDb().select().from(users).where(eq(users.id, id)).get()!));
+    expect(visitOfJob(signedIn(tokyo.owner.id), tokyo.jobId).visit!.when).toBe("Sunday, 14 March 2027, 23:00–00:30 GMT+9");
+    expect(visitOfJob(signedIn(chicago.owner.id), chicago.jobId).visit!.when).toMatch(/09:00–10:30 CDT/);
+    expect(visitOfJob(signedIn(unset.owner.id), unset.jobId).visit!.when).toMatch(/10:00–11:30 EDT/);
+    expect(visitOfJob(staffActor(tokyo.staff), tokyo.jobId).visit!.when).toMatch(/10:00–11:30 EDT/);
+
     // A visit already under way gets no reminder.
     const started = await bookedThread({ from: "2027-03-14T05:00:00Z", hours, bookAt });
     expect(await pass(started, Date.parse(started.visit.start) + 10 * 60_000)).toHaveLength(0);

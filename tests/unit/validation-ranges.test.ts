@@ -1,7 +1,7 @@
 // The shared date helper (lib/validation/dates.ts) in every schema that takes a date a person enters,
 // and the PATCH pattern (lib/validation/patch.ts): a field a PATCH does not send stays absent.
 import { describe, expect, it } from "vitest";
-import type { z } from "zod";
+import { z } from "zod";
 import { CareInputError } from "@/lib/care/errors";
 import { addDays } from "@/lib/care/dates";
 import { claimRatesQuerySchema } from "@/lib/reports/query";
@@ -15,6 +15,18 @@ import * as piecesSchemas from "@/lib/validation/pieces";
 import * as remindersSchemas from "@/lib/validation/reminders";
 import * as settingsSchemas from "@/lib/validation/settings";
 import * as visitsSchemas from "@/lib/validation/visits";
+import { inWords } from "@/lib/validation/words";
+
+// Schemas with no words of their own, for the error map's cases.
+const inWordsSchemas = {
+  one: z.enum(["a"]),
+  n: z.number().positive().max(1000),
+  obj: z.object({ name: z.string() }),
+  s: z.string().min(1).max(10),
+  list: z.array(z.number()).max(2),
+  email: z.email(),
+  strict: z.strictObject({ a: z.number() }),
+};
 
 const issues = (r: { success: boolean; error?: z.ZodError }) => (r.success ? [] : r.error!.issues.map((i) => `${i.path.join(".")}: ${i.message}`));
 
@@ -110,5 +122,38 @@ describe("out-of-range values a person types read in words", () => {
     expect(mine.length).toBeGreaterThan(0);
     for (const m of mine) expect(m).not.toMatch(zodDefault);
     expect(mine.join(" ")).toMatch(words);
+  });
+});
+
+describe("checks a schema gives no words of its own read in words (lib/validation/words.ts, the boundaries' error map)", () => {
+  const zodDefault = /^(Too (big|small)|Invalid|Expected|expected|Unrecognized)/;
+  // Each case: a schema parsed as the boundaries parse (route(), action(), the forms' resolver), the input, the words.
+  const cases: [string, z.ZodType, unknown, RegExp][] = [
+    ["a kind of piece we don't have (registry query)", piecesSchemas.pieceListQuerySchema, { kind: "zzz" }, /^Choose one of: dining_table, coffee_table, desk, bench, countertop, console, shelf, other\.$/],
+    ["an enumeration of one value", inWordsSchemas.one, "b", /^Use a\.$/],
+    ["a number given as text", inWordsSchemas.n, "lots", /^Enter a number\.$/],
+    ["a missing field", inWordsSchemas.obj, {}, /^This is required\.$/],
+    ["too long a string", inWordsSchemas.s, "x".repeat(11), /^At most 10 characters\.$/],
+    ["an empty required string", inWordsSchemas.s, "", /^Fill this in\.$/],
+    ["too big a number", inWordsSchemas.n, 1001, /^At most 1,000\.$/],
+    ["too small a number (exclusive)", inWordsSchemas.n, 0, /^More than 0\.$/],
+    ["too many items", inWordsSchemas.list, [1, 2, 3], /^At most 2 items\.$/],
+    ["an e-mail without an @", inWordsSchemas.email, "nobody", /^Enter an e-mail address/],
+    ["an unknown key on a strict object", inWordsSchemas.strict, { a: 1, b: 2 }, /^Unknown field: b\.$/],
+  ];
+  it.each(cases)("%s", (_label, schema, input, words) => {
+    const plain = schema.safeParse(input);
+    expect(plain.success).toBe(false);
+    // Without the map zod answers in its own English (the reason for the map); with it, in ours.
+    expect(plain.error!.issues[0]!.message).toMatch(zodDefault);
+    const r = schema.safeParse(input, { error: inWords });
+    expect(r.success).toBe(false);
+    expect(r.error!.issues[0]!.message).not.toMatch(zodDefault);
+    expect(r.error!.issues[0]!.message).toMatch(words);
+  });
+
+  it("a message written on the schema still wins over the map", () => {
+    const r = piecesSchemas.pieceListQuerySchema.safeParse({ pageSize: "7" }, { error: inWords });
+    expect(issues(r)).toEqual(["pageSize: Page size is 10, 25, 50 or 100."]);
   });
 });
