@@ -9,7 +9,6 @@ import { recordAudit } from "@/lib/audit";
 import { conflict } from "@/lib/errors";
 import { removeStoredFiles } from "@/lib/storage";
 import { loadPiece } from "./registry-common";
-import { unindexPiece } from "./search-index";
 
 /** DELETE /api/pieces/[id]: removes a piece nobody has registered; a registered piece is archived instead. */
 export async function deletePiece(ctx: StudioContext, pieceId: string): Promise<{ deleted: boolean; archived: boolean }> {
@@ -26,7 +25,7 @@ export async function deletePiece(ctx: StudioContext, pieceId: string): Promise<
     const claimCount = tx.select({ id: claims.id }).from(claims).where(eq(claims.pieceId, pieceId)).all().length;
     if (claimCount > 0) throw conflict("This piece has claims on record; archive it instead.");
     const keys = tx.select({ a: files.storageKey, b: files.thumbKey }).from(files).where(eq(files.pieceId, pieceId)).all().flatMap((f) => [f.a, f.b]);
-    unindexPiece(tx, pieceId);
+    // Its search index row goes with it (the pieces_fts_ad trigger, db/migrations/0031).
     tx.delete(pieces).where(and(eq(pieces.id, pieceId), eq(pieces.studioId, ctx.studio.id))).run();
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "piece.deleted", subjectType: "piece", subjectId: pieceId, data: { title: piece.title } });
     return { deleted: true, archived: false, keys };

@@ -13,6 +13,7 @@ import { scheduleFromColumns, toCatalog } from "./care-inputs";
 import { studioProducts, today } from "./registry-common";
 import {
   buildFilter,
+  countBy,
   countMatches,
   databaseVersion,
   ensureSqlFunctions,
@@ -102,7 +103,7 @@ export function queryRegistry(ctx: StudioContext, q: PieceListQuery, now: Date, 
       const limit = f.fts ? SEARCH_COUNT_CAP : LIST_COUNT_CAP;
       const page = selectListRows(f, q, all ? -1 : q.pageSize, offset);
       // A page that is not full tells the total without counting.
-      const n = all || (page.length < q.pageSize && (page.length > 0 || q.page === 1)) ? offset + page.length : countMatches(f, limit + 1);
+      const n = all || (page.length < q.pageSize && (page.length > 0 || q.page === 1)) ? offset + page.length : countMatches(f, limit + 1, countBy(f, q, page));
       const capped = !all && n > limit;
       return { f, rows: page, total: capped ? limit : n, capped, schedules: null as Map<string, CareSchedule | null> | null };
     }

@@ -19,7 +19,7 @@ import type { FinishClass } from "@/lib/care/vocabulary";
 import type { PieceListQuery } from "@/lib/validation/pieces";
 import type { CareLayerColumns, CarePieceColumns } from "./care-inputs";
 import { hashTypedCode } from "./registration";
-import { ftsQuery } from "./search-index";
+import { pieceTextMatch, searchScope } from "./search-index";
 
 const withFunctions = new WeakSet<object>();
 
@@ -83,7 +83,7 @@ const IDS = `(SELECT value FROM json_each(?))`;
 // (loadCareInputs).
 const LIST_COLUMNS = `p.id, p.title, p.kind, p.delivered_on, p.primary_species_id, p.secondary_species_id,
   p.owner_id, p.archived_at, p.warranty_policy_id, u.name, u.email,
-  (SELECT json_group_array(c) FROM (SELECT l.finish_class AS c FROM finish_layers l WHERE l.piece_id = p.id ORDER BY l.surface, l.position))`;
+  (SELECT json_group_array(c) FROM (SELECT l.finish_class AS c FROM finish_layers l WHERE l.piece_id = p.id ORDER BY l.surface, l.position)), p.rowid`;
 
 function listRow(r: unknown[]): ListPieceRow {
   return {
@@ -99,6 +99,7 @@ function listRow(r: unknown[]): ListPieceRow {
     ownerName: r[9] as string | null,
     ownerEmail: r[10] as string | null,
     finishClasses: [...new Set(JSON.parse(r[11] as string) as FinishClass[])],
+    rowid: r[12] as number,
   };
 }
 
@@ -165,12 +166,14 @@ function joinFragments(parts: Fragment[], sep: string): Fragment {
 /**
  * The WHERE clause of the list and its count. A search joins pieces_fts to pieces by rowid alone (the
  * page and the count alike): the app never runs VACUUM (the one thing that may renumber the pieces'
- * rowids), and a deleted piece's index row goes in the same transaction as the piece
- * (registry-delete.ts, unindexPiece), so an index row's rowid is its piece's. Checking each index row's
+ * rowids), and a deleted piece's index row goes in the same statement as the piece (the pieces_fts_ad
+ * trigger, db/migrations/0031), so an index row's rowid is its piece's. Checking each index row's
  * piece id as well cost a read of the index's content row for every row of the page. After a VACUUM
  * run by hand, rebuild the index (rebuildSearchIndex).
+ * `scope` is the studio's scope word for the archived state asked for (searchScope), set when the
+ * filter is that and typed text alone: the count may then be answered by the index (countMatches).
  */
-export type Filter = { where: Fragment; fts: string | null; codeHash: string | null };
+export type Filter = { where: Fragment; fts: string | null; codeHash: string | null; scope: string | null };
 
 export function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<string, number>, useCode: boolean, t: string): Filter {
   const conds: Fragment[] = [frag(`p.studio_id = ?`, ctx.studio.id)];
@@ -196,12 +199,15 @@ export function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<st
     codeHash = useCode ? hashTypedCode(typed) : null;
     if (codeHash) conds.push(frag(`p.registration_code_hash = ?`, codeHash));
     else {
-      fts = ftsQuery(typed);
+      fts = pieceTextMatch(typed);
       // Nothing searchable (only punctuation): no piece matches.
       conds.push(fts ? frag(`pieces_fts MATCH ?`, fts) : frag(`0`));
     }
   }
-  return { where: joinFragments(conds, " AND "), fts, codeHash };
+  // Only the studio, the archived state and the text (whatever else is asked is in the piece's row).
+  const textOnly = fts !== null && conds.length === 3;
+  const scope = textOnly ? searchScope(ctx.studio.id, q.archived === "only") : null;
+  return { where: joinFragments(conds, " AND "), fts, codeHash, scope };
 }
 
 // Ties break on rowid (insertion order), which the (studio_id, delivered_on) index carries, so the
@@ -237,10 +243,41 @@ export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offs
  * How many pieces match the filter, counting no further than `upTo` (the list then says "more than 500").
  * Counted afresh for every request: a count kept by the filter's text would answer a repeated search
  * from memory, which is not what searching costs.
+ * "index" (only for a filter with a scope word): the index alone answers, its scope word ANDed with the
+ * typed text, so no match's piece is read. "rows": each match's piece is read for its studio and
+ * archived state. Both count the same pieces (registry-results.test.ts); countBy chooses.
  */
-export function countMatches(f: Filter, upTo: number): number {
+export function countMatches(f: Filter, upTo: number, by: "index" | "rows"): number {
+  if (by === "index" && f.scope && f.fts) {
+    const st = statementFor(getDb(), `SELECT count(*) AS n FROM (SELECT 1 FROM pieces_fts WHERE pieces_fts MATCH ? LIMIT ?)`);
+    return (st.get(`scope : "${f.scope}" AND ${f.fts}`, upTo) as { n: number }).n;
+  }
   const text = `SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.where.text} LIMIT ?)`;
   return (statementFor(getDb(), text).get(...f.where.params, upTo) as { n: number } | undefined)?.n ?? 0;
+}
+
+/**
+ * Matches at most this many rowids apart, on average, are counted by the index ("index"): FTS5 ANDs the
+ * typed words' list with the scope word's, stepping the scope word's list along to each match, so its
+ * cost grows with the rowids stepped over, where reading each match's piece ("rows") costs the same
+ * however far apart they lie. Measured with cachegrind on the 100,000-piece bench seed (one studio,
+ * tests/bench/seed-registry.ts), per count of up to 501: q=walnut (matches about 10 rowids apart) 1.16 M
+ * instructions by the index against 1.65 M by the rows, q=burl (about 7) 1.13 M against 1.40 M,
+ * q=Thornwood (about 256) 7.65 M against 1.48 M; by instructions the two meet near 23 apart. The index
+ * reads far less memory (L1 data read misses for walnut 1.8 k against 6.1 k), and by process CPU of
+ * repeated counts the two met between 20 and 50 apart.
+ */
+const INDEX_COUNT_SPREAD = 32;
+
+/**
+ * How countMatches should count, from the page just read: a page in rowid order (a search's default,
+ * "newest recorded") shows how far apart the matches lie; any other order, or a filter without a scope
+ * word, counts by the rows.
+ */
+export function countBy(f: Filter, q: PieceListQuery, page: ListPieceRow[]): "index" | "rows" {
+  if (!f.scope || (q.sort ?? "created") !== "created" || page.length < 2) return "rows";
+  const spread = Math.abs(page[0]!.rowid - page[page.length - 1]!.rowid) / (page.length - 1);
+  return spread <= INDEX_COUNT_SPREAD ? "index" : "rows";
 }
 
 const versionStatements = perConnection((db) => ({
@@ -267,6 +304,8 @@ export type ListPieceRow = Pick<Piece, "id" | "title" | "kind" | "deliveredOn" |
   ownerName: string | null;
   ownerEmail: string | null;
   finishClasses: FinishClass[];
+  /** The piece's rowid (its search index row's too): countBy reads how far apart a page's matches lie. */
+  rowid: number;
 };
 
 /** What the care engine reads of a piece, its layers and its care log. */

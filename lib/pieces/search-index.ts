@@ -4,6 +4,9 @@
 // the seed scripts and the scheduler may reindex too.
 //
 // Anyone who changes a piece's owner (registration, transfer) calls indexPiece in the same transaction.
+// Each row also carries the piece's scope word (searchScope: its studio and archived state), which
+// db/migrations/0031's triggers keep right whatever changes a piece's studio or archived state, and
+// remove with the piece whatever deletes it.
 import { sql } from "drizzle-orm";
 import type { Db } from "@/db/client";
 import { getSpecies } from "@/lib/care/species";
@@ -51,10 +54,36 @@ export function searchDocument(p: SearchDocumentInput): { title: string; species
   };
 }
 
+/**
+ * The word in a piece's index row (column `scope`) that names its studio and whether it is archived:
+ * 's', the studio id's UTF-8 bytes in hex, then 'live' or 'arch'. Letters and digits only, so the
+ * tokenizer keeps it one word; the hex makes it one studio's alone (the tokenizer folds case, which
+ * would merge ids differing only in case). The migration and triggers of db/migrations/0031 write the
+ * same word in SQL ('s' || lower(hex(studio_id)) || ...).
+ */
+export function searchScope(studioId: string, archived: boolean): string {
+  return `s${Buffer.from(studioId, "utf8").toString("hex")}${archived ? "arch" : "live"}`;
+}
+
+/** The index's text columns: what a person types is looked for in these, never in `scope`. */
+const TEXT_COLUMNS = "{title species owner notes}";
+
+/**
+ * The MATCH expression for what a person typed (ftsQuery), limited to the text columns, or null when
+ * nothing searchable is left; with `scope`, only the rows of that scope word (searchScope) match.
+ */
+export function pieceTextMatch(input: string, scope?: string): string | null {
+  const typed = ftsQuery(input);
+  if (!typed) return null;
+  const text = `${TEXT_COLUMNS} : (${typed})`;
+  return scope ? `scope : "${scope}" AND ${text}` : text;
+}
+
 type PieceRow = {
   rowid: number;
   id: string;
   studio_id: string;
+  archived_at: number | null;
   title: string;
   kind: PieceKind;
   primary_species_id: string;
@@ -71,7 +100,7 @@ type PieceRow = {
 /** Rewrites the index row of one piece (or removes it when the piece is gone). Pass the transaction. */
 export function indexPiece(db: DbOrTx, pieceId: string): void {
   const row = db.get<PieceRow | undefined>(sql`
-    SELECT p.rowid AS rowid, p.id, p.studio_id, p.title, p.kind, p.primary_species_id, p.secondary_species_id,
+    SELECT p.rowid AS rowid, p.id, p.studio_id, p.archived_at, p.title, p.kind, p.primary_species_id, p.secondary_species_id,
            p.internal_notes, p.delivery_address, p.base_material, p.base_finish, p.resin_tint,
            u.name AS owner_name, u.email AS owner_email
     FROM pieces p LEFT JOIN users u ON u.id = p.owner_id WHERE p.id = ${pieceId}`);
@@ -96,13 +125,8 @@ export function indexPiece(db: DbOrTx, pieceId: string): void {
     layers: layers.map((l) => ({ finishClass: l.finish_class, productLabel: l.product_label, batchLot: l.batch_lot, notes: l.notes })),
   });
   db.run(sql`DELETE FROM pieces_fts WHERE rowid = ${row.rowid}`);
-  db.run(sql`INSERT INTO pieces_fts (rowid, piece_id, studio_id, title, species, owner, notes)
-             VALUES (${row.rowid}, ${row.id}, ${row.studio_id}, ${doc.title}, ${doc.species}, ${doc.owner}, ${doc.notes})`);
-}
-
-/** Removes a piece's index row; call before deleting the piece (its rowid is needed). */
-export function unindexPiece(db: DbOrTx, pieceId: string): void {
-  db.run(sql`DELETE FROM pieces_fts WHERE rowid = (SELECT rowid FROM pieces WHERE id = ${pieceId})`);
+  db.run(sql`INSERT INTO pieces_fts (rowid, scope, piece_id, studio_id, title, species, owner, notes)
+             VALUES (${row.rowid}, ${searchScope(row.studio_id, row.archived_at !== null)}, ${row.id}, ${row.studio_id}, ${doc.title}, ${doc.species}, ${doc.owner}, ${doc.notes})`);
 }
 
 /** Rebuilds the whole index (after a VACUUM, which may renumber the pieces' rowids, or a bulk load). */

@@ -8,7 +8,7 @@ import { applyMigrations } from "../../db/migrate";
 import { mergeSearchIndexesAtOnce } from "../../db/search-indexes";
 import { FINISH_CLASSES, PIECE_KINDS, USES, SUN_EXPOSURES, type FinishClass } from "../../lib/care/vocabulary";
 import { SPECIES } from "../../lib/care/species";
-import { searchDocument } from "../../lib/pieces/search-index";
+import { searchDocument, searchScope } from "../../lib/pieces/search-index";
 
 const FIRST = ["Ada", "Bram", "Cleo", "Dario", "Edda", "Fenn", "Gita", "Hugo", "Ines", "Jory", "Kaia", "Lev", "Mira", "Nico", "Orla", "Pim", "Quin", "Rosa", "Sven", "Tove", "Uma", "Vito", "Wren", "Yara", "Zeno"];
 const LAST = Array.from({ length: 400 }, (_, i) => `${["Ash", "Birch", "Cove", "Dale", "Elm", "Fern", "Glen", "Holt", "Isle", "Jett", "Kerr", "Lund", "Moss", "Nash", "Oak", "Pike", "Quay", "Reed", "Stone", "Thorn"][i % 20]}${["ford", "wick", "by", "ton", "field", "more", "ley", "worth", "dale", "croft", "stead", "well", "brook", "wood", "gate", "holm", "shaw", "combe", "ridge", "hurst"][Math.floor(i / 20) % 20]}`);
@@ -34,7 +34,7 @@ export function seedRegistry(databaseUrl: string, count = 100_000): SeededRegist
     VALUES (?, ?, ?, ?, 'rectangle', ?, ?, 45, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'synthetic', ?, ?)`);
   const insLayer = c.prepare(`INSERT INTO finish_layers (id, studio_id, piece_id, surface, position, finish_class, product_label, coats, applied_on, batch_lot, notes, created_at)
     VALUES (?, ?, ?, ?, 0, ?, ?, ?, ?, ?, '', ?)`);
-  const insFts = c.prepare("INSERT INTO pieces_fts (rowid, piece_id, studio_id, title, species, owner, notes) VALUES (?, ?, ?, ?, ?, ?, ?)");
+  const insFts = c.prepare("INSERT INTO pieces_fts (rowid, scope, piece_id, studio_id, title, species, owner, notes) VALUES (?, ?, ?, ?, ?, ?, ?, ?)");
 
   const owners: { id: string; name: string; email: string }[] = [];
   c.transaction(() => {
@@ -77,7 +77,7 @@ export function seedRegistry(databaseUrl: string, count = 100_000): SeededRegist
           { finishClass: classes[1], productLabel: "", batchLot: "", notes: "" },
         ],
       });
-      insFts.run(r.lastInsertRowid, id, studioId, doc.title, doc.species, doc.owner, doc.notes);
+      insFts.run(r.lastInsertRowid, searchScope(studioId, false), id, studioId, doc.title, doc.species, doc.owner, doc.notes);
     }
   })();
   c.exec("ANALYZE; PRAGMA optimize;");

@@ -4,7 +4,9 @@
 // order, that the reference below finds by reading every piece, layer and index row of the studio and
 // filtering and sorting them in JavaScript. The SQL is tuned for speed (registry-sql.ts, its indexes); this
 // says the tuning changed nothing that anyone sees. Also: archiving and unarchiving a piece is seen by the
-// very next search, its count included. All against a real SQLite file; every name below is invented.
+// very next search, its count included; a search's count read from the index alone (its scope words,
+// db/migrations/0031) equals the count read from the pieces' rows, whatever archives, unarchives, moves or
+// deletes a piece. All against a real SQLite file; every name below is invented.
 import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
@@ -12,8 +14,8 @@ import { finishLayers, pieces } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { FINISH_CLASSES, PIECE_KINDS, type FinishClass, type PieceKind, type Surface } from "@/lib/care/vocabulary";
 import { createPiece, deletePiece, listPieces, updatePiece } from "@/lib/pieces/registry";
-import { LIST_COUNT_CAP, SEARCH_COUNT_CAP } from "@/lib/pieces/registry-sql";
-import { ftsQuery, indexPiece } from "@/lib/pieces/search-index";
+import { buildFilter, countMatches, LIST_COUNT_CAP, SEARCH_COUNT_CAP } from "@/lib/pieces/registry-sql";
+import { ftsQuery, indexPiece, searchScope } from "@/lib/pieces/search-index";
 import { createPieceSchema, pieceListQuerySchema, type CreatePieceInput, type PieceListQuery } from "@/lib/validation/pieces";
 import { createStudio, createUser, memberContext } from "../support/fixtures";
 
@@ -128,6 +130,8 @@ describe("registry list results", () => {
   let ctx: StudioContext;
   let all: Ref[];
 
+  let otherCtx: StudioContext;
+
   beforeAll(async () => {
     ctx = await memberContext(createStudio(), "staff");
     const owner = await createUser({ name: "Odile Fenwright (invented)" });
@@ -142,8 +146,8 @@ describe("registry list results", () => {
       if (i % 7 === 0) updatePiece(ctx, p.id, { archived: true });
     });
     // Another studio's pieces with the same words never show.
-    const other = await memberContext(createStudio(), "staff");
-    for (let i = 0; i < 30; i++) createPiece(other, createPieceSchema.parse(input(i, title(i))));
+    otherCtx = await memberContext(createStudio(), "staff");
+    for (let i = 0; i < 30; i++) createPiece(otherCtx, createPieceSchema.parse(input(i, title(i))));
     all = readStudio(ctx.studio.id);
     matched.clear();
   }, 120_000);
@@ -211,5 +215,70 @@ describe("registry list results", () => {
     expect(search("only").rows.map((r) => r.id)).toContain(registered);
     updatePiece(ctx, registered, { archived: false });
     expect(search().total).toBe(before.total);
+  });
+
+  it("what is typed is never looked for in the index's scope words", () => {
+    for (const word of [searchScope(ctx.studio.id, false), searchScope(ctx.studio.id, true)])
+      for (const q of [word, word.slice(0, 8), word.slice(0, 12), word.slice(-12)]) {
+        const page = listPieces(ctx, pieceListQuerySchema.parse({ q }));
+        expect({ q, total: page.total, rows: page.rows.length }).toEqual({ q, total: 0, rows: 0 });
+      }
+  });
+
+  it("a search's count by the index alone equals its count by the pieces' rows, whatever archives, unarchives, moves or deletes a piece", async () => {
+    const db = getDb();
+    const count = (c: StudioContext, q: string, archived: "only" | undefined, by: "index" | "rows") => {
+      const f = buildFilter(c, pieceListQuerySchema.parse({ q, archived }), new Map(), false, "2026-01-01");
+      expect(f.scope, q).not.toBeNull();
+      return countMatches(f, SEARCH_COUNT_CAP + 1, by);
+    };
+    const words = SEARCHES.filter((q) => ftsQuery(q) !== null);
+    /** Each word's counts in both studios, live and archived, after checking that both ways agree. */
+    const counts = () =>
+      Object.fromEntries(
+        [ctx, otherCtx].flatMap((c) =>
+          words.flatMap((q) =>
+            [undefined, "only" as const].map((a) => {
+              const byIndex = count(c, q, a, "index");
+              expect(byIndex, `${q} ${a} ${c.studio.id}`).toBe(count(c, q, a, "rows"));
+              return [`${c === ctx ? "ours" : "theirs"} ${q} ${a ?? "live"}`, byIndex];
+            }),
+          ),
+        ),
+      );
+    const start = counts();
+    expect(start["ours quill live"]).toBeGreaterThan(10);
+    expect(start["ours quill only"]).toBeGreaterThan(0);
+    expect(start["theirs quill live"]).toBeGreaterThan(0);
+    expect(start["ours larkspar live"]).toBe(SEARCH_COUNT_CAP + 1); // counting stops one past the cap
+
+    const quill = (c: StudioContext, archived?: "only") => listPieces(c, pieceListQuerySchema.parse({ q: "quill", pageSize: "100", archived })).rows.map((r) => r.id);
+    const unregistered = quill(ctx).filter((id) => db.select({ o: pieces.ownerId }).from(pieces).where(eq(pieces.id, id)).get()!.o === null);
+    const [a, b, c, d] = unregistered;
+    // The pieces changed below carry other words too: those counts are only checked to agree both ways.
+    const quillCounts = (all: Record<string, number>) => Object.fromEntries(Object.entries(all).filter(([k]) => k.includes(" quill ")));
+    const shifted = (changes: Record<string, number>) => ({ ...quillCounts(start), ...Object.fromEntries(Object.entries(changes).map(([k, n]) => [k, start[k]! + n])) });
+
+    // Archived and unarchived by a plain UPDATE (no indexPiece): the trigger keeps the scope word right.
+    db.update(pieces).set({ archivedAt: new Date() }).where(eq(pieces.id, a!)).run();
+    expect(quillCounts(counts())).toEqual(shifted({ "ours quill live": -1, "ours quill only": 1 }));
+    expect(quill(ctx, "only")).toContain(a);
+    db.update(pieces).set({ archivedAt: null }).where(eq(pieces.id, a!)).run();
+    expect(counts()).toEqual(start);
+
+    // A piece moved to another studio is counted there, and no longer here.
+    db.update(pieces).set({ studioId: otherCtx.studio.id }).where(eq(pieces.id, b!)).run();
+    expect(quillCounts(counts())).toEqual(shifted({ "ours quill live": -1, "theirs quill live": 1 }));
+    expect(quill(otherCtx)).toContain(b);
+    db.update(pieces).set({ studioId: ctx.studio.id }).where(eq(pieces.id, b!)).run();
+    expect(counts()).toEqual(start);
+
+    // Deleted through the registry, and by a plain DELETE: the index row goes with the piece.
+    expect(await deletePiece(ctx, c!)).toEqual({ deleted: true, archived: false });
+    db.delete(pieces).where(eq(pieces.id, d!)).run();
+    expect(quillCounts(counts())).toEqual(shifted({ "ours quill live": -2 }));
+    expect(db.$client.prepare("SELECT count(*) AS n FROM pieces_fts WHERE piece_id IN (?, ?)").get(c, d)).toEqual({ n: 0 });
+    expect(quill(ctx)).not.toContain(c);
+    expect(quill(ctx)).not.toContain(d);
   });
 });
