@@ -1,6 +1,6 @@
 import Link from "next/link";
-import { ClipboardCheck } from "lucide-react";
 import { cn } from "@/components/ui/cn";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { formatDate, relativeDays } from "@/lib/format";
 import type { CareLogView, TaskView } from "@/lib/owner/pieces";
 import { TaskStatus, statusDotClass } from "./task-status";
@@ -47,7 +47,7 @@ export function CareTimeline({ tasks, careLog = [] }: { tasks: TaskView[]; careL
               href={t.logUrl}
               className="mt-2 inline-flex min-h-11 w-full items-center justify-center gap-2 rounded-lg border border-line bg-paper px-4 text-sm font-semibold text-ink hover:border-resin hover:text-resin sm:w-auto"
             >
-              <ClipboardCheck aria-hidden className="size-4" />
+              <SpriteIcon name="clipboard-check" className="size-4" />
               I did this
               <span className="sr-only">: {t.label.toLowerCase()}, {t.surfaceLabel.toLowerCase()}</span>
             </Link>

@@ -171,6 +171,15 @@ test("the demo owner sees their pieces with schedules, a lived-in care log and t
   await shot(page, "11-demo-piece");
   await checkPhoneLayout(page, "demo piece page");
   await axe(page, "demo piece page");
+  // Its icons are drawn from the sprite (components/ui/sprite-icon.tsx): the file is served as SVG and
+  // holds every symbol the page names.
+  const refs = await page.locator("svg > use").evaluateAll((uses) => uses.map((u) => u.getAttribute("href") ?? ""));
+  expect(refs.length).toBeGreaterThan(10);
+  const sprite = await page.request.get(refs[0]!.split("#")[0]!);
+  expect(sprite.status()).toBe(200);
+  expect(sprite.headers()["content-type"]).toContain("image/svg+xml");
+  const symbols = await sprite.text();
+  for (const ref of new Set(refs)) expect(symbols, ref).toContain(`<symbol id="${ref.split("#")[1]}"`);
 
   await page.goto("/account");
   await expect(page.getByLabel("Time zone")).toHaveValue("America/Los_Angeles");

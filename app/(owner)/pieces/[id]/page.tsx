@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { Suspense } from "react";
-import { ClipboardCheck, Droplets, FileDown, Flame, Hand, Handshake, HardHat, Hourglass, Pencil, ShieldCheck, ShieldOff, ShieldX, ThermometerSun, TriangleAlert, Wind, Zap } from "lucide-react";
 import { PieceConversations } from "@/app/(owner)/_conversations/owner-conversations";
 import { CareTimeline } from "@/components/owner/care-timeline";
 import { FinishStack } from "@/components/ui/finish-stack";
 import { FlashToast } from "@/components/owner/flash-toast";
 import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { CarePlanSection } from "./care-plan-section";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
@@ -16,22 +16,25 @@ import { getMyPiece, ownedPieceShell } from "@/lib/owner/pieces";
 import { visitPhotosOf } from "@/lib/visits/photos";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import type { CautionKey } from "@/lib/care/cautions";
+import type { SpriteIconName } from "@/components/ui/sprite-names";
 import { exclusionLabel, WARRANTY_STATUS_LABELS, type WarrantyLineStatus } from "@/lib/owner/warranty";
 import { ownerActor } from "@/lib/auth/actor";
 
 export const metadata: Metadata = { title: "Piece" };
 
-const WARRANTY_ICON: Record<WarrantyLineStatus, typeof ShieldCheck> = { active: ShieldCheck, ended: ShieldX, not_transferred: ShieldOff };
-const CAUTION_ICON: Record<CautionKey, typeof Flame> = {
-  oily_rags: Flame,
-  fine_dust: Wind,
-  epoxy_skin: Hand,
-  polishing_heat: ThermometerSun,
-  heat_on_resin: ThermometerSun,
-  ventilation: Wind,
-  product_label: TriangleAlert,
-  heavy_top: HardHat,
-  electrics: Zap,
+// Icons come from the sprite (components/ui/sprite-icon.tsx): this page shows about twenty, and as
+// lucide-react components they were a quarter of its elements.
+const WARRANTY_ICON: Record<WarrantyLineStatus, SpriteIconName> = { active: "shield-check", ended: "shield-x", not_transferred: "shield-off" };
+const CAUTION_ICON: Record<CautionKey, SpriteIconName> = {
+  oily_rags: "flame",
+  fine_dust: "wind",
+  epoxy_skin: "hand",
+  polishing_heat: "thermometer-sun",
+  heat_on_resin: "thermometer-sun",
+  ventilation: "wind",
+  product_label: "triangle-alert",
+  heavy_top: "hard-hat",
+  electrics: "zap",
 };
 const SURFACE_WORDS: Record<string, string> = { top: "top", base: "base", edges: "edges", whole_piece: "whole piece" };
 // The guide's lists are fixed texts, never reordered on the page: their items are keyed by position. A
@@ -87,7 +90,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
         {/* Actions on this piece. The claims area adds its "Report damage" link here. */}
         <div data-slot="piece-actions" className="grid grid-cols-1 gap-2 pt-1 sm:grid-cols-3">
           <ButtonLink href={piece.schedule.tasks[0] ? piece.schedule.tasks.find((t) => t.status !== "done")?.logUrl ?? piece.schedule.tasks[0].logUrl : `/pieces/${piece.id}/log`}>
-            <ClipboardCheck aria-hidden className="size-4" />
+            <SpriteIcon name="clipboard-check" className="size-4" />
             Log care
           </ButtonLink>
           <a
@@ -95,11 +98,11 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             download
             className="inline-flex min-h-11 items-center justify-center gap-2 rounded-lg border border-line bg-card px-4 py-2 text-sm font-semibold text-ink hover:border-resin hover:text-resin"
           >
-            <FileDown aria-hidden className="size-4" />
+            <SpriteIcon name="file-down" className="size-4" />
             Warranty certificate (PDF)
           </a>
           <ButtonLink href={`/pieces/${piece.id}/transfer`} variant="secondary">
-            <Handshake aria-hidden className="size-4" />
+            <SpriteIcon name="handshake" className="size-4" />
             Selling or giving it away?
           </ButtonLink>
           <ButtonLink href={`/pieces/${piece.id}/claim/new`} variant="secondary">
@@ -111,7 +114,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
       {piece.guide.curing ? (
         <section role="status" aria-label="Curing" className="space-y-2 rounded-xl border border-resin/30 bg-resin-soft p-4">
           <p className="flex items-center gap-2 font-semibold">
-            <Hourglass aria-hidden className="size-5 shrink-0 text-resin" /> {piece.guide.curing.title}
+            <SpriteIcon name="hourglass" className="size-5 shrink-0 text-resin" /> {piece.guide.curing.title}
           </p>
           <ul className="list-disc space-y-1 pl-5 text-sm">
             {piece.guide.curing.lines.map((l, i) => (
@@ -145,14 +148,13 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
       <Section id="guide" title="Care guide for this piece">
         <div role="note" aria-label="Cautions" className="space-y-2 rounded-xl border border-warn/30 bg-warn-soft p-4">
           <p className="flex items-center gap-2 font-semibold">
-            <TriangleAlert aria-hidden className="size-5 text-warn" /> Cautions
+            <SpriteIcon name="triangle-alert" className="size-5 text-warn" /> Cautions
           </p>
           <ul className="space-y-3 text-sm">
             {piece.guide.cautions.map((c) => {
-              const Icon = CAUTION_ICON[c.key];
               return (
                 <li key={c.key} className="flex gap-2">
-                  <Icon aria-hidden className="mt-0.5 size-4 shrink-0 text-warn" />
+                  <SpriteIcon name={CAUTION_ICON[c.key]} className="mt-0.5 size-4 shrink-0 text-warn" />
                   <span>
                     <strong>{c.title}.</strong> {c.text}
                   </span>
@@ -163,7 +165,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
         </div>
         <Card className="space-y-2">
           <h3 className="flex items-center gap-2 text-lg font-semibold">
-            <Droplets aria-hidden className="size-5 text-resin" />
+            <SpriteIcon name="droplets" className="size-5 text-resin" />
             {piece.guide.outdoor ? "Outdoors, day to day" : "Where it stands"}
           </h3>
           <ul className="list-disc space-y-1 pl-5 text-sm">
@@ -241,7 +243,6 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             </p>
             <ul className="space-y-3">
               {piece.warranty.lines.map((l) => {
-                const Icon = WARRANTY_ICON[l.status];
                 return (
                   <li key={l.category} className="rounded-xl border border-line bg-card p-4">
                     <div className="flex flex-wrap items-start gap-2">
@@ -249,7 +250,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                       <span
                         className={`inline-flex items-center gap-1 rounded-full border px-2 py-0.5 text-xs font-semibold ${l.status === "active" ? "border-ok/30 bg-ok-soft text-ok" : "border-line bg-paper text-muted"}`}
                       >
-                        <Icon aria-hidden className="size-3.5" />
+                        <SpriteIcon name={WARRANTY_ICON[l.status]} className="size-3.5" />
                         {WARRANTY_STATUS_LABELS[l.status]}
                       </span>
                     </div>
@@ -330,7 +331,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                     href={`/pieces/${piece.id}/log/${e.id}`}
                     className="inline-flex min-h-11 min-w-11 items-center justify-center gap-1 rounded-lg border border-line px-3 text-sm font-medium hover:border-resin hover:text-resin"
                   >
-                    <Pencil aria-hidden className="size-4" />
+                    <SpriteIcon name="pencil" className="size-4" />
                     Edit<span className="sr-only"> the {e.label.toLowerCase()} entry of {formatDate(e.doneOn)}</span>
                   </Link>
                 ) : null}
