@@ -26,14 +26,15 @@ export function CareTimeline({ tasks, careLog = [] }: { tasks: TaskView[]; careL
           <div className="rounded-xl border border-line bg-card p-4">
             <div className="flex flex-wrap items-center gap-2">
               <h3 className="font-semibold">{t.label}</h3>
-              <span className="text-sm text-muted">· {t.surfaceLabel}</span>
+              <span className="text-sm text-muted">{`· ${t.surfaceLabel}`}</span>
               <TaskStatus status={t.status} daysUntilDue={t.daysUntilDue} className="ml-auto" />
             </div>
             <p className="mt-1 text-sm">
-              {t.status === "overdue" ? "Was due" : "Due"} <strong>{formatDate(t.dueOn)}</strong> <span className="text-muted">({relativeDays(t.daysUntilDue)})</span>
+              {t.status === "overdue" ? "Was due " : "Due "}
+              <strong>{formatDate(t.dueOn)}</strong> <span className="text-muted">{`(${relativeDays(t.daysUntilDue)})`}</span>
             </p>
             <p className="mt-1 text-sm text-muted">
-              Every {t.interval}; counted from {formatDate(t.clockFrom)} ({clockWords(t, careLog)}).
+              {`Every ${t.interval}; counted from ${formatDate(t.clockFrom)} (${clockWords(t, careLog)}).`}
             </p>
             <details className="mt-2 text-sm">
               <summary className="flex min-h-11 cursor-pointer items-center font-medium text-resin">Why this date</summary>
@@ -49,7 +50,7 @@ export function CareTimeline({ tasks, careLog = [] }: { tasks: TaskView[]; careL
             >
               <SpriteIcon name="clipboard-check" className="size-4" />
               I did this
-              <span className="sr-only">: {t.label.toLowerCase()}, {t.surfaceLabel.toLowerCase()}</span>
+              <span className="sr-only">{`: ${t.label.toLowerCase()}, ${t.surfaceLabel.toLowerCase()}`}</span>
             </Link>
           </div>
         </li>

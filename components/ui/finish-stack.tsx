@@ -31,12 +31,11 @@ export function FinishStack({ layers, wood, empty, compact = false }: { layers: 
               {stack.map((l, i) => (
                 <li key={l.id} className={`${CLASS_FILL[l.finishClass] ?? "bg-card"} border-b border-line/80 px-3 ${compact ? "py-2" : "py-2.5"} text-sm`}>
                   <p className="font-semibold">
-                    <span className="sr-only">Layer {stack.length - i}: </span>
+                    <span className="sr-only">{`Layer ${stack.length - i}: `}</span>
                     {l.classLabel}
                   </p>
                   <p className="text-ink/80">
-                    {l.productLabel ? `${l.productLabel} · ` : ""}
-                    {l.coats} coat{l.coats === 1 ? "" : "s"} · applied {formatDate(l.appliedOn)}
+                    {`${l.productLabel ? `${l.productLabel} · ` : ""}${l.coats} coat${l.coats === 1 ? "" : "s"} · applied ${formatDate(l.appliedOn)}`}
                   </p>
                   {l.notes && !compact ? <p className="text-ink/70">{l.notes}</p> : null}
                 </li>

@@ -38,7 +38,9 @@ const CAUTION_ICON: Record<CautionKey, SpriteIconName> = {
 };
 const SURFACE_WORDS: Record<string, string> = { top: "top", base: "base", edges: "edges", whole_piece: "whole piece" };
 // The guide's lists are fixed texts, never reordered on the page: their items are keyed by position. A
-// text as its own key would travel twice in the page's payload (the key and the words).
+// text as its own key would travel twice in the page's payload (the key and the words). Sentences built
+// from parts are one template string: each separate text part is a value of its own in the payload and
+// a text node (with a <!-- --> between neighbours) in the HTML.
 
 function Section({ id, title, children }: { id: string; title: string; children: React.ReactNode }) {
   return (
@@ -85,7 +87,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
         </p>
         <h1 className="font-display text-3xl font-semibold leading-tight tracking-tight">{piece.title}</h1>
         <p className="text-muted">
-          {piece.kindLabel} · made by {piece.studio.name}
+          {`${piece.kindLabel} · made by ${piece.studio.name}`}
         </p>
         {/* Actions on this piece. The claims area adds its "Report damage" link here. */}
         <div data-slot="piece-actions" className="grid grid-cols-1 gap-2 pt-1 sm:grid-cols-3">
@@ -114,7 +116,8 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
       {piece.guide.curing ? (
         <section role="status" aria-label="Curing" className="space-y-2 rounded-xl border border-resin/30 bg-resin-soft p-4">
           <p className="flex items-center gap-2 font-semibold">
-            <SpriteIcon name="hourglass" className="size-5 shrink-0 text-resin" /> {piece.guide.curing.title}
+            <SpriteIcon name="hourglass" className="size-5 shrink-0 text-resin" />
+            {` ${piece.guide.curing.title}`}
           </p>
           <ul className="list-disc space-y-1 pl-5 text-sm">
             {piece.guide.curing.lines.map((l, i) => (
@@ -126,7 +129,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
       ) : null}
 
       <Section id="schedule" title="Care schedule">
-        <p className="text-sm text-muted">Today is {formatDate(piece.schedule.today)} where you are. Each date counts from the last care of that kind.</p>
+        <p className="text-sm text-muted">{`Today is ${formatDate(piece.schedule.today)} where you are. Each date counts from the last care of that kind.`}</p>
         <CareTimeline tasks={piece.schedule.tasks} careLog={piece.careLog} />
       </Section>
 
@@ -156,7 +159,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                 <li key={c.key} className="flex gap-2">
                   <SpriteIcon name={CAUTION_ICON[c.key]} className="mt-0.5 size-4 shrink-0 text-warn" />
                   <span>
-                    <strong>{c.title}.</strong> {c.text}
+                    <strong>{`${c.title}.`}</strong>{` ${c.text}`}
                   </span>
                 </li>
               );
@@ -179,7 +182,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
             <div>
               <h3 className="text-lg font-semibold">{s.title}</h3>
               <p className="text-sm text-muted">
-                On the {s.surfaces.join(" and ")} · care task: {s.task.toLowerCase()}
+                {`On the ${s.surfaces.join(" and ")} · care task: ${s.task.toLowerCase()}`}
               </p>
             </div>
             <div>
@@ -191,7 +194,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
               </ul>
             </div>
             <div>
-              <h4 className="text-sm font-semibold">When the {s.task.toLowerCase()} is due</h4>
+              <h4 className="text-sm font-semibold">{`When the ${s.task.toLowerCase()} is due`}</h4>
               <ol className="list-decimal space-y-1 pl-5 text-sm">
                 {s.steps.map((x, i) => (
                   <li key={i}>{x}</li>
@@ -233,13 +236,12 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
       <Section id="warranty" title="Warranty">
         {piece.warranty.lines.length === 0 ? (
           <Card>
-            <p>No warranty terms were recorded for this piece. Ask {piece.studio.name}{piece.studio.email ? ` (${piece.studio.email})` : ""}.</p>
+            <p>{`No warranty terms were recorded for this piece. Ask ${piece.studio.name}${piece.studio.email ? ` (${piece.studio.email})` : ""}.`}</p>
           </Card>
         ) : (
           <>
             <p className="text-sm text-muted">
-              {piece.warranty.termsName}: {piece.studio.name}&apos;s terms as they stood when the piece was delivered. Terms run from the delivery date.
-              {piece.warranty.isOriginalOwner ? "" : " You are not the first owner: lines that don't pass to a new owner have ended for the piece."}
+              {`${piece.warranty.termsName}: ${piece.studio.name}'s terms as they stood when the piece was delivered. Terms run from the delivery date.${piece.warranty.isOriginalOwner ? "" : " You are not the first owner: lines that don't pass to a new owner have ended for the piece."}`}
             </p>
             <ul className="space-y-3">
               {piece.warranty.lines.map((l) => {
@@ -257,14 +259,15 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                     <p className="mt-1 text-sm">
                       {l.status === "active" ? (
                         <>
-                          <strong>{formatTimeLeft(l.daysLeft)} left</strong> · until {formatDate(l.endsOn)}
+                          <strong>{`${formatTimeLeft(l.daysLeft)} left`}</strong>
+                          {` · until ${formatDate(l.endsOn)} `}
                         </>
                       ) : l.status === "ended" ? (
-                        <>Ended {formatDate(l.endsOn)}</>
+                        `Ended ${formatDate(l.endsOn)} `
                       ) : (
-                        <>Covered the first owner until {formatDate(l.endsOn)}</>
-                      )}{" "}
-                      <span className="text-muted">({l.termMonths} months from delivery)</span>
+                        `Covered the first owner until ${formatDate(l.endsOn)} `
+                      )}
+                      <span className="text-muted">{`(${l.termMonths} months from delivery)`}</span>
                     </p>
                     {l.status === "active" ? (
                       <div
@@ -281,9 +284,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                       </div>
                     ) : null}
                     <p className="mt-2 text-sm text-muted">
-                      {l.transfersToNewOwner ? "Passes to a new owner." : "Stays with the first owner."}
-                      {l.exclusions.length ? ` Not covered: ${l.exclusions.map(exclusionLabel).join(", ")}.` : ""}
-                      {l.careLogRequired ? " Logging care when it falls due keeps this line whole." : ""}
+                      {`${l.transfersToNewOwner ? "Passes to a new owner." : "Stays with the first owner."}${l.exclusions.length ? ` Not covered: ${l.exclusions.map(exclusionLabel).join(", ")}.` : ""}${l.careLogRequired ? " Logging care when it falls due keeps this line whole." : ""}`}
                     </p>
                   </li>
                 );
@@ -312,12 +313,10 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
               <li key={e.id} className="flex items-start gap-3 rounded-xl border border-line bg-card p-3">
                 <div className="min-w-0 flex-1 text-sm">
                   <p className="font-semibold">
-                    {e.label} <span className="font-normal text-muted">· {formatDate(e.doneOn)}</span>
+                    {`${e.label} `}<span className="font-normal text-muted">{`· ${formatDate(e.doneOn)}`}</span>
                   </p>
                   <p className="text-muted">
-                    {e.byLabel}
-                    {e.surface ? ` · ${SURFACE_WORDS[e.surface] ?? e.surface}` : ""}
-                    {e.productUsed ? ` · ${e.productUsed}` : ""}
+                    {`${e.byLabel}${e.surface ? ` · ${SURFACE_WORDS[e.surface] ?? e.surface}` : ""}${e.productUsed ? ` · ${e.productUsed}` : ""}`}
                   </p>
                   {e.notes ? <p className="mt-1 break-words">{e.notes}</p> : null}
                   {e.photoUrl ? (
@@ -332,7 +331,7 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
                     className="inline-flex min-h-11 min-w-11 items-center justify-center gap-1 rounded-lg border border-line px-3 text-sm font-medium hover:border-resin hover:text-resin"
                   >
                     <SpriteIcon name="pencil" className="size-4" />
-                    Edit<span className="sr-only"> the {e.label.toLowerCase()} entry of {formatDate(e.doneOn)}</span>
+                    Edit<span className="sr-only">{` the ${e.label.toLowerCase()} entry of ${formatDate(e.doneOn)}`}</span>
                   </Link>
                 ) : null}
               </li>
