@@ -7,7 +7,7 @@ import { localDate } from "@/lib/care/dates";
 import { OPEN_STATES } from "@/lib/claims/states";
 import { cell } from "@/lib/pieces/csv";
 import { LIST_COUNT_CAP, SEARCH_COUNT_CAP } from "@/lib/pieces/registry-sql";
-import { ftsQuery, searchScope } from "@/lib/pieces/search-index";
+import { ftsQuery } from "@/lib/pieces/search-index";
 import { CLIENT_PAGE_SIZE, type ClientListQuery } from "@/lib/validation/clients";
 import { displayPhone, phoneSearchKeys } from "./phone";
 
@@ -38,10 +38,9 @@ const TRIGRAM = 3;
  * their pieces' titles. Name, e-mail and phone match anywhere inside them, through the trigram index
  * clients_fts (case-blind, as LIKE was); a word under three characters, which that index cannot look up,
  * is matched by LIKE. A title matches by the start of one of its words, through client_titles_fts
- * (tokenised like the registry's index, lib/pieces/search-index.ts; its `scope` column holds the client's
- * studio word, migration 0032, which typed words never reach: they are looked for in `titles`). Both
- * indexes are kept by triggers (migrations 0025, 0026, 0032) and keyed by the client's rowid. A whole
- * number typed with spaces or a trunk prefix ("0412 555 019") also matches by its E.164 or its digits.
+ * (tokenised like the registry's index, lib/pieces/search-index.ts). Both indexes are kept by triggers
+ * (migration 0025) and keyed by the client's rowid. A whole number typed with spaces or a trunk prefix
+ * ("0412 555 019") also matches by its E.164 or its digits.
  */
 function searchTerms(q: string, country: string) {
   const words = q.split(/\s+/).filter(Boolean).slice(0, 8);
@@ -56,7 +55,7 @@ function searchTerms(q: string, country: string) {
     return {
       like: short ? `%${likeEscape(w)}%` : null,
       trigram: trigram.length ? trigram.join(" OR ") : null,
-      title: title ? `titles : (${title})` : null,
+      title: title ? `titles : ${title}` : null,
       // A word of ASCII letters and digits is one token to the index (lowercased): it can be tested on a client's titles text (titleOnRow).
       titleWord: title && ASCII_WORD.test(w) ? w.toLowerCase() : null,
     };
@@ -72,7 +71,7 @@ const ASCII_WORD = /^[A-Za-z0-9]+$/;
 /**
  * Whether one of the client's piece titles has a word starting with `word` (ASCII letters and digits,
  * lowercased), tested on their row of client_titles_fts, joined as `t` (its stored text, in the table
- * SQLite keeps for it, client_titles_fts_content, column c1, after the scope word: read by rowid it costs half what the
+ * SQLite keeps for it, client_titles_fts_content, column c0: read by rowid it costs half what the
  * virtual table's lookup does), instead of through the index: the page past the count cap reads a few
  * hundred clients in name order and stops, where the index's set of a common word is every match
  * (8,486 on the bench seed), all read before the first row.
@@ -86,11 +85,11 @@ const ASCII_WORD = /^[A-Za-z0-9]+$/;
  * words was checked against the SQLite this project links (tests/integration/clients-search-walk.test.ts).
  */
 function titleOnRow(word: string, title: string): SQL {
-  return sql`CASE WHEN t.c1 IS NULL THEN 0
-    WHEN length(t.c1) <> octet_length(t.c1) THEN c.rowid IN (SELECT rowid FROM client_titles_fts WHERE client_titles_fts MATCH ${title})
-    WHEN NOT t.c1 LIKE ${`%${word}%`} THEN 0
-    WHEN t.c1 LIKE ${`${word}%`} OR t.c1 LIKE ${`% ${word}%`} OR t.c1 LIKE ${`%\n${word}%`} THEN 1
-    ELSE char(10) || lower(t.c1) GLOB ${`*[^a-z0-9]${word}*`} END`;
+  return sql`CASE WHEN t.c0 IS NULL THEN 0
+    WHEN length(t.c0) <> octet_length(t.c0) THEN c.rowid IN (SELECT rowid FROM client_titles_fts WHERE client_titles_fts MATCH ${title})
+    WHEN NOT t.c0 LIKE ${`%${word}%`} THEN 0
+    WHEN t.c0 LIKE ${`${word}%`} OR t.c0 LIKE ${`% ${word}%`} OR t.c0 LIKE ${`%\n${word}%`} THEN 1
+    ELSE char(10) || lower(t.c0) GLOB ${`*[^a-z0-9]${word}*`} END`;
 }
 
 /**
@@ -120,30 +119,17 @@ function searchWhere({ perWord, wholePhone }: SearchTerms, onRow = false): SQL {
 }
 
 /**
- * The search as the client rowids it finds, one compound SELECT of `rid` in rowid order (the studio,
- * unless `inStudio`, and the filter are checked by the reader): each word's matches are the union of what it finds in each index,
+ * The search as the client rowids it finds, one compound SELECT of `rid` in rowid order (the studio and
+ * filter are checked by the reader): each word's matches are the union of what it finds in each index,
  * the words' sets are intersected. In rowid order, as both indexes return them, SQLite merges the sets
  * as it reads them, so a reader that stops early (the capped count) reads only the start of each.
- * `inStudio` (one word, no filter: a reader that stops at the cap and reads no client row otherwise): a
- * title word's matches are the studio's from the index alone (its scope word ANDed in, migration 0032),
- * name, e-mail and phone matches (clients_fts, a few for most words) are checked against their client's
- * row; burl's count (8,486 matches on the bench seed) no longer reads the client row of each of its first
- * 501: 2.56 M -> 2.33 M SQLite instructions (cachegrind). Otherwise the reader checks the studio on each
- * client row it reads anyway: the scope word's list, which holds every client of the studio with pieces,
- * costs more to step along than that check when a word's whole set is read (INTERSECT) or rows are read
- * for a filter (burl + account filter 2.76 M -> 3.15 M, "burl walnut" 34.8 M -> 45.5 M with it).
  */
-function searchRowids({ perWord, wholePhone }: SearchTerms, studioId: string, inStudio: boolean): SQL {
-  const scope = inStudio ? `scope : "${searchScope(studioId, false)}" AND ` : "";
-  const trigramSet = (match: string) =>
-    inStudio
-      ? sql`SELECT clients_fts.rowid AS rid FROM clients_fts JOIN clients c ON c.rowid = clients_fts.rowid WHERE clients_fts MATCH ${match} AND c.studio_id = ${studioId}`
-      : sql`SELECT rowid AS rid FROM clients_fts WHERE clients_fts MATCH ${match}`;
+function searchRowids({ perWord, wholePhone }: SearchTerms, studioId: string): SQL {
   const words = perWord.map(({ like, trigram, title }) => {
     const parts = [
       like ? sql`SELECT rowid AS rid FROM clients WHERE studio_id = ${studioId} AND (name LIKE ${like} ESCAPE '\\' OR email LIKE ${like} ESCAPE '\\')` : null,
-      trigram ? trigramSet(trigram) : null,
-      title ? sql`SELECT rowid AS rid FROM client_titles_fts WHERE client_titles_fts MATCH ${scope + title}` : null,
+      trigram ? sql`SELECT rowid AS rid FROM clients_fts WHERE clients_fts MATCH ${trigram}` : null,
+      title ? sql`SELECT rowid AS rid FROM client_titles_fts WHERE client_titles_fts MATCH ${title}` : null,
     ].filter(Boolean) as SQL[];
     return parts.length ? sql`SELECT rid FROM (${sql.join(parts, sql` UNION `)} ORDER BY rid)` : sql`SELECT NULL AS rid WHERE 0`;
   });
@@ -151,7 +137,7 @@ function searchRowids({ perWord, wholePhone }: SearchTerms, studioId: string, in
     ? sql``
     : "e164" in wholePhone
       ? sql` UNION SELECT rowid AS rid FROM clients WHERE studio_id = ${studioId} AND phone = ${wholePhone.e164}`
-      : sql` UNION ${trigramSet(wholePhone.trigram)}`;
+      : sql` UNION SELECT rowid AS rid FROM clients_fts WHERE clients_fts MATCH ${wholePhone.trigram}`;
   return sql`${sql.join(words, sql` INTERSECT `)}${whole} ORDER BY rid`;
 }
 
@@ -266,23 +252,17 @@ function pageOnRows(ctx: StudioContext, query: ClientListQuery, terms: SearchTer
 
 /**
  * A search's capped count and, when it is under the cap, its page, in one statement that reads the
- * matches once: the search's rowids (searchRowids, merged in rowid order; with one word and no filter,
- * only the studio's) are taken (otherwise joined to their clients, the studio and the filter checked
- * there) until `cap` + 1 are found; when no more than `cap` are, the
+ * matches once: the search's rowids (searchRowids, merged in rowid order) are joined to their clients
+ * (the studio and the filter checked there) until `cap` + 1 are found; when no more than `cap` are, the
  * page is those sorted. Past the cap `rows` is empty and the caller reads the page another way.
  * Before, a search counted and then paged with `c.rowid IN (...)` tests, which SQLite answered by
  * walking all of the studio's clients along the name index twice (20,000 on the bench seed) even for a
  * surname with 25 matches.
  */
-function searchFirst(query: ClientListQuery, studioId: string, terms: SearchTerms, cap: number, page: { limit: number; offset: number }): { counted: number; rows: ListedRow[] } {
-  const inStudio = !query.filter && terms.perWord.length === 1;
-  const rowids = searchRowids(terms, studioId, inStudio);
+function searchFirst(query: ClientListQuery, studioId: string, rowids: SQL, cap: number, page: { limit: number; offset: number }): { counted: number; rows: ListedRow[] } {
   const filter = query.filter ? sql` AND ${FILTERS[query.filter]}` : sql``;
-  const matches = inStudio
-    ? sql`SELECT rid FROM (${rowids})`
-    : sql`SELECT c.rowid AS rid FROM (${rowids}) s CROSS JOIN clients c ON c.rowid = s.rid WHERE c.studio_id = ${studioId}${filter}`;
   const found = getDb().all<ListedRow & { counted: number }>(sql`
-    WITH m AS MATERIALIZED (${matches} LIMIT ${cap + 1}),
+    WITH m AS MATERIALIZED (SELECT c.rowid AS rid FROM (${rowids}) s CROSS JOIN clients c ON c.rowid = s.rid WHERE c.studio_id = ${studioId}${filter} LIMIT ${cap + 1}),
       n AS MATERIALIZED (SELECT count(*) AS counted FROM m),
       pg AS (SELECT c.* FROM clients c WHERE c.rowid IN (SELECT rid FROM m) ${orderBy(query)}
         LIMIT CASE WHEN (SELECT counted FROM n) <= ${cap} THEN ${page.limit} ELSE 0 END OFFSET ${page.offset})
@@ -322,7 +302,7 @@ export function listClients(ctx: StudioContext, query: ClientListQuery): ClientP
   let cap: number;
   if (terms) {
     cap = SEARCH_COUNT_CAP;
-    ({ counted, rows } = searchFirst(query, ctx.studio.id, terms, cap, page));
+    ({ counted, rows } = searchFirst(query, ctx.studio.id, searchRowids(terms, ctx.studio.id), cap, page));
     if (counted > cap) rows = pageOnRows(ctx, query, terms, page) ?? queryClients(query, clientsWhere(ctx, query, terms), page, true);
   } else {
     cap = LIST_COUNT_CAP;

@@ -57,11 +57,11 @@ export function seedClients(dbFile: string, studioId: string, staffUserId: strin
     const unowned = db.prepare("SELECT id FROM pieces WHERE owner_id IS NULL AND studio_id = ? ORDER BY rowid").pluck().all(studioId) as string[];
     const link = db.prepare("UPDATE pieces SET client_id = ? WHERE id = ?");
     if (buyers.length) unowned.forEach((pieceId, j) => link.run(buyers[j % buyers.length], pieceId));
-    // Both indexes filled as migrations 0025 and 0032 fill them, then their triggers back.
+    // Both indexes filled as migration 0025 fills them, then their triggers back.
     db.exec(`DELETE FROM clients_fts; DELETE FROM client_titles_fts;
       INSERT INTO clients_fts (rowid, name, email, phone) SELECT rowid, name, coalesce(email, ''), coalesce(phone, '') FROM clients;
-      INSERT INTO client_titles_fts (rowid, scope, titles)
-        SELECT c.rowid, 's' || lower(hex(c.studio_id)) || 'live', group_concat(p.title, char(10)) FROM clients c JOIN pieces p ON p.client_id = c.id AND p.studio_id = c.studio_id GROUP BY c.rowid;`);
+      INSERT INTO client_titles_fts (rowid, titles)
+        SELECT c.rowid, group_concat(p.title, char(10)) FROM clients c JOIN pieces p ON p.client_id = c.id AND p.studio_id = c.studio_id GROUP BY c.rowid;`);
     for (const t of triggers) db.exec(t.sql);
   })();
   db.exec("ANALYZE; PRAGMA optimize;");
