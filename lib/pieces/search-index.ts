@@ -70,18 +70,17 @@ const TEXT_COLUMNS = "{title species owner notes}";
 
 /**
  * The MATCH expression for what a person typed (ftsQuery), limited to the text columns, or null when
- * nothing searchable is left; with `scope`, only the rows of that scope word (searchScope) match.
+ * nothing searchable is left (countMatches in registry-sql.ts ANDs a scope word to it).
  * Typed text reaches a scope word only through a word that starts with "s" once the tokenizer has
  * folded its case and diacritics; ASCII text without an "s" cannot, and is matched without the
  * column filter (the same rows and ranks: the scope column holds nothing else), which FTS5 would
  * otherwise apply to every match's position list: about 0.07 M instructions less per pass for
  * q=walnut and burl (cachegrind, 100,000-piece bench seed; a search makes two passes, page and count).
  */
-export function pieceTextMatch(input: string, scope?: string): string | null {
+export function pieceTextMatch(input: string): string | null {
   const typed = ftsQuery(input);
   if (!typed) return null;
-  const text = /^[\x20-\x7e\s]*$/.test(input) && !/s/i.test(input) ? typed : `${TEXT_COLUMNS} : (${typed})`;
-  return scope ? `scope : "${scope}" AND ${text}` : text;
+  return /^[\x20-\x7e\s]*$/.test(input) && !/s/i.test(input) ? typed : `${TEXT_COLUMNS} : (${typed})`;
 }
 
 type PieceRow = {
