@@ -3,7 +3,13 @@ import nextTs from "eslint-config-next/typescript";
 
 // The directions imports may run (DEVELOPERS.md, "Imports run one way"). A new crossing fails
 // `npm run lint`, and so CI. tests/unit/import-rules.test.ts checks that each rule bites.
-const restrict = (...patterns) => ({ "no-restricted-imports": ["error", { patterns }] });
+// Icons have one way too (DEVELOPERS.md, "Rules of the house"): every block's list carries noLucide, since
+// a later block's no-restricted-imports replaces an earlier one's for the same file.
+const noLucide = {
+  group: ["lucide-react", "lucide-react/**"],
+  message: "Draw icons with <SpriteIcon name=…> (components/ui/sprite-icon.tsx); lucide-react is read only by scripts/icon-sprite.ts, which writes public/icons/sprite.svg.",
+};
+const restrict = (...patterns) => ({ "no-restricted-imports": ["error", { patterns: [noLucide, ...patterns] }] });
 
 const noDb = { group: ["@/db", "@/db/**"], message: "Only lib/ (and jobs, seeds, tests) reach the database: call a function in lib/<area>." };
 const noApp = { group: ["@/app", "@/app/**"], message: "lib/, db/, jobs/ and emails/ never import app/." };
@@ -38,6 +44,8 @@ const config = [
   ...nextTs,
   { rules: { "@typescript-eslint/no-unused-vars": ["warn", { argsIgnorePattern: "^_", varsIgnorePattern: "^_", ignoreRestSiblings: true }] } },
   { ignores: [".next/**", "node_modules/**", "data/**", "test-results/**", "playwright-report/**", "tests/.tmp/**", "next-env.d.ts"] },
+  // Everywhere but scripts/ (where scripts/icon-sprite.ts reads lucide-react's shapes); the blocks below add their directions.
+  { files: ["**/*.{js,mjs,cjs,jsx,ts,mts,cts,tsx}"], ignores: ["scripts/**"], rules: restrict() },
   { files: ["app/**"], rules: restrict(noDb, noFakes) },
   // Route handlers and server actions name their roles in route({ roles }) / action({ roles })
   // (lib/http), which resolve the request's Actor once; they never call a guard themselves.

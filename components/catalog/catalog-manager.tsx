@@ -1,6 +1,5 @@
 "use client";
 
-import { Archive, ArchiveRestore, Pencil, Plus, Trash2 } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import { Controller, useFieldArray } from "react-hook-form";
@@ -13,6 +12,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, type FinishClass } from "@/lib/care/vocabulary";
@@ -135,12 +135,12 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
             <TextField label="Size (mL)" inputMode="numeric" {...register(`containers.${i}.ml`, { setValueAs: numberOrNull })} error={e.containers?.[i]?.ml?.message} />
             <Controller control={control} name={`containers.${i}.priceMinor`} render={({ field }) => <MoneyField label="Price" currency={currency} value={field.value as number | undefined} onChange={field.onChange} error={e.containers?.[i]?.priceMinor?.message} />} />
             <Button variant="ghost" onClick={() => containers.remove(i)} aria-label={`Remove container ${i + 1}`}>
-              <Trash2 aria-hidden className="size-4" /> Remove
+              <SpriteIcon name="trash" className="size-4" /> Remove
             </Button>
           </div>
         ))}
         <Button variant="secondary" onClick={() => containers.append({ ml: 250, priceMinor: 0 })}>
-          <Plus aria-hidden className="size-4" /> Add a container size
+          <SpriteIcon name="plus" className="size-4" /> Add a container size
         </Button>
       </fieldset>
       <TextField label="Safety notes" {...register("safetyNotes")} error={e.safetyNotes?.message} placeholder="e.g. oily rags: dry flat outdoors or in a water-filled metal can" />
@@ -180,7 +180,7 @@ export function CatalogManager({ products, currency, country }: { products: Cata
         <ProductForm currency={currency} onDone={() => setEditing(null)} />
       ) : (
         <Button onClick={() => setEditing("new")}>
-          <Plus aria-hidden className="size-4" /> New finish product
+          <SpriteIcon name="plus" className="size-4" /> New finish product
         </Button>
       )}
       {products.length === 0 ? <p className="rounded-xl border border-dashed border-line bg-card p-6 text-center text-muted">No finish products yet. Add the products the studio finishes with.</p> : null}
@@ -196,7 +196,7 @@ export function CatalogManager({ products, currency, country }: { products: Cata
                     {p.name}
                     {p.archivedAt ? (
                       <span className="ml-2 inline-flex items-center gap-1 text-sm font-normal text-muted">
-                        <Archive aria-hidden className="size-4" /> Archived
+                        <SpriteIcon name="archive" className="size-4" /> Archived
                       </span>
                     ) : null}
                   </p>
@@ -216,15 +216,15 @@ export function CatalogManager({ products, currency, country }: { products: Cata
                 </div>
                 <div className="flex gap-2">
                   <Button variant="secondary" onClick={() => setEditing(p.id)} aria-label={`Edit ${p.name}`}>
-                    <Pencil aria-hidden className="size-4" /> Edit
+                    <SpriteIcon name="pencil" className="size-4" /> Edit
                   </Button>
                   {p.archivedAt ? (
                     <Button variant="secondary" onClick={() => setArchived(p, false)}>
-                      <ArchiveRestore aria-hidden className="size-4" /> Restore
+                      <SpriteIcon name="archive-arrow-up" className="size-4" /> Restore
                     </Button>
                   ) : (
                     <Button variant="secondary" onClick={() => setConfirm(p.id)}>
-                      <Archive aria-hidden className="size-4" /> Archive
+                      <SpriteIcon name="archive" className="size-4" /> Archive
                     </Button>
                   )}
                 </div>

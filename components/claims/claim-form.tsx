@@ -1,6 +1,5 @@
 "use client";
 
-import { Send } from "lucide-react";
 import { useEffect, useState } from "react";
 import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
@@ -9,6 +8,7 @@ import { Button, ButtonLink } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import type { createClaimSchema, CreateClaimInput } from "@/lib/validation/claims";
@@ -279,7 +279,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
 
       <div className="space-y-2">
         <Button type="submit" className="w-full sm:w-auto" disabled={busy || !queue.loaded}>
-          <Send aria-hidden className="size-5" /> {busy ? "Sending…" : "Send the claim"}
+          <SpriteIcon name="send" className="size-5" /> {busy ? "Sending…" : "Send the claim"}
         </Button>
         <p className="text-sm text-muted">Your answers are kept on this device until the claim is sent.</p>
       </div>

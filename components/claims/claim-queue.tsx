@@ -1,11 +1,11 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
-import { Camera, Clock, Search } from "lucide-react";
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF, formatWait } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
@@ -43,7 +43,7 @@ export function ClaimQueue() {
     <div className="space-y-4">
       <div className="relative">
         <TextField label="Search claims" placeholder="Piece title, owner name or e-mail" value={typed} onChange={(e) => setTyped(e.target.value)} className="pl-10" type="search" maxLength={100} />
-        <Search aria-hidden className="pointer-events-none absolute bottom-3 left-3 size-5 text-muted" />
+        <SpriteIcon name="search" className="pointer-events-none absolute bottom-3 left-3 size-5 text-muted" />
       </div>
       <div className="grid grid-cols-2 gap-3 md:grid-cols-5">
         <SelectField label="State" value={get("state") || "open"} onChange={(e) => set({ state: e.target.value === "open" ? "" : e.target.value })}>
@@ -109,11 +109,11 @@ export function ClaimQueue() {
                     {CLAIM_CATEGORY_LABELS[c.category]} · {c.pieceTitle}
                   </span>
                   <span className="block truncate text-sm text-muted">
-                    {c.ownerName} · filed {formatWait(now - Date.parse(c.createdAt))} ago · <Camera aria-hidden className="inline size-4" /> {c.photos} photo{c.photos === 1 ? "" : "s"}
+                    {c.ownerName} · filed {formatWait(now - Date.parse(c.createdAt))} ago · <SpriteIcon name="camera" className="inline size-4" /> {c.photos} photo{c.photos === 1 ? "" : "s"}
                   </span>
                 </span>
                 <span className={`flex items-center gap-1 text-sm ${c.answered ? "text-muted" : "font-semibold text-warn"}`}>
-                  <Clock aria-hidden className="size-4" />
+                  <SpriteIcon name="clock" className="size-4" />
                   {c.answered ? `first answer after ${formatWait(c.waitMs)}` : `waiting ${formatWait(c.waitMs)} for a first answer`}
                 </span>
               </Link>

@@ -1,15 +1,16 @@
-import { CircleCheck, CircleHelp, CircleMinus, CircleX, type LucideIcon } from "lucide-react";
 import type { ClaimCoverage } from "@/lib/claims/coverage";
 import { CARE_LOG_CONDITION_LABELS, coverageSummary, SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { formatDate, formatTimeLeft } from "@/lib/format";
 import { exclusionLabel } from "@/lib/owner/warranty";
 import { Card } from "@/components/ui/card";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
+import type { SpriteIconName } from "@/components/ui/sprite-names";
 
-const SUGGESTION_LOOK: Record<string, { Icon: LucideIcon; tone: string }> = {
-  covered: { Icon: CircleCheck, tone: "text-ok" },
-  partly_covered: { Icon: CircleMinus, tone: "text-warn" },
-  not_covered: { Icon: CircleX, tone: "text-danger" },
-  needs_info: { Icon: CircleHelp, tone: "text-resin" },
+const SUGGESTION_LOOK: Record<string, { icon: SpriteIconName; tone: string }> = {
+  covered: { icon: "circle-check", tone: "text-ok" },
+  partly_covered: { icon: "circle-minus", tone: "text-warn" },
+  not_covered: { icon: "circle-x", tone: "text-danger" },
+  needs_info: { icon: "circle-question-mark", tone: "text-resin" },
 };
 
 /**
@@ -32,7 +33,7 @@ export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
             const look = SUGGESTION_LOOK[c.suggestion]!;
             return (
               <p className={`flex items-center gap-2 text-lg font-semibold ${look.tone}`}>
-                <look.Icon aria-hidden className="size-6 shrink-0" />
+                <SpriteIcon name={look.icon} className="size-6 shrink-0" />
                 Suggests: {SUGGESTION_LABELS[c.suggestion]}
                 {c.suggestedCoveredPct !== null && c.suggestion === "partly_covered" ? <span className="text-base font-normal text-ink">({c.suggestedCoveredPct} % covered)</span> : null}
               </p>

@@ -1,8 +1,8 @@
 "use client";
 
-import { Hammer } from "lucide-react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { apiJson } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 
@@ -15,7 +15,7 @@ export function CreateRepairJobButton({ claimId }: { claimId: string }) {
   });
   return (
     <Button disabled={busy} onClick={() => run(undefined)}>
-      <Hammer aria-hidden className="size-5" /> {busy ? "Creating…" : "Create repair job"}
+      <SpriteIcon name="hammer" className="size-5" /> {busy ? "Creating…" : "Create repair job"}
     </Button>
   );
 }

@@ -1,7 +1,7 @@
 "use client";
 
-import { ChevronLeft, ChevronRight, X } from "lucide-react";
 import { useEffect, useRef, useState } from "react";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 export type GalleryPhoto = { id: string; url: string; thumbUrl: string; width: number; height: number };
 
@@ -49,7 +49,7 @@ export function PhotoGallery({ photos, label = "Photos" }: { photos: GalleryPhot
                   Open original
                 </a>
                 <button type="button" onClick={() => setOpen(null)} className="flex min-h-11 min-w-11 items-center justify-center rounded-md hover:bg-white/10" aria-label="Close the photo">
-                  <X aria-hidden className="size-6" />
+                  <SpriteIcon name="x" className="size-6" />
                 </button>
               </div>
             </div>
@@ -59,10 +59,10 @@ export function PhotoGallery({ photos, label = "Photos" }: { photos: GalleryPhot
               {photos.length > 1 ? (
                 <>
                   <button type="button" onClick={() => step(-1)} className="absolute left-2 flex size-12 items-center justify-center rounded-full bg-ink/60 hover:bg-ink" aria-label="Previous photo">
-                    <ChevronLeft aria-hidden className="size-7" />
+                    <SpriteIcon name="chevron-left" className="size-7" />
                   </button>
                   <button type="button" onClick={() => step(1)} className="absolute right-2 flex size-12 items-center justify-center rounded-full bg-ink/60 hover:bg-ink" aria-label="Next photo">
-                    <ChevronRight aria-hidden className="size-7" />
+                    <SpriteIcon name="chevron-right" className="size-7" />
                   </button>
                 </>
               ) : null}

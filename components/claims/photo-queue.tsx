@@ -1,10 +1,10 @@
 "use client";
 
-import { ImagePlus, RotateCcw, Trash2 } from "lucide-react";
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { ApiError, apiJson, uploadForm } from "@/components/api-client";
 
 type UploadedPhoto = { id: string; url: string; thumbUrl: string; width: number; height: number };
@@ -191,7 +191,7 @@ export function PhotoPicker({ onFiles, disabled, count }: { onFiles: (f: FileLis
         }}
       />
       <Button variant="secondary" className="w-full sm:w-auto" disabled={disabled || count >= MAX_PHOTOS} onClick={() => ref.current?.click()}>
-        <ImagePlus aria-hidden className="size-5" /> Add photos ({count} of {MAX_PHOTOS})
+        <SpriteIcon name="image-plus" className="size-5" /> Add photos ({count} of {MAX_PHOTOS})
       </Button>
       <p className="text-sm text-muted">JPEG, PNG or WebP, up to 15 MB each. One close-up and one of the whole piece help most.</p>
     </div>
@@ -233,11 +233,11 @@ export function PhotoQueueList({ items, onRetry, onRemove, busy }: { items: Queu
           </div>
           {item.status === "error" && onRetry ? (
             <Button variant="ghost" className="px-2" aria-label={`Retry ${item.name}`} onClick={() => onRetry(item)} disabled={busy}>
-              <RotateCcw aria-hidden className="size-5" />
+              <SpriteIcon name="rotate-ccw" className="size-5" />
             </Button>
           ) : null}
           <Button variant="ghost" className="px-2" aria-label={`Remove ${item.name}`} onClick={() => onRemove(item)} disabled={busy || item.status === "uploading"}>
-            <Trash2 aria-hidden className="size-5" />
+            <SpriteIcon name="trash" className="size-5" />
           </Button>
         </li>
       ))}

@@ -1,6 +1,5 @@
 "use client";
 
-import { Gavel, ScanSearch } from "lucide-react";
 import { useState } from "react";
 import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
@@ -10,6 +9,7 @@ import { ErrorLine } from "@/components/ui/error-line";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { CLAIM_DECISION_LABELS, decisionText } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
 import type { claimDecisionSchema } from "@/lib/validation/claims";
@@ -29,7 +29,7 @@ export function ReviewButton({ claimId, state, version }: { claimId: string; sta
   if (state !== "submitted" && state !== "awaiting_owner") return null;
   return (
     <Button disabled={busy} onClick={() => run(undefined)}>
-      <ScanSearch aria-hidden className="size-5" /> {state === "submitted" ? "Start review" : "Resume review without waiting"}
+      <SpriteIcon name="scan-search" className="size-5" /> {state === "submitted" ? "Start review" : "Resume review without waiting"}
     </Button>
   );
 }
@@ -112,7 +112,7 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
         <ErrorLine>{errors.reason?.message}</ErrorLine>
       </div>
       <Button type="submit" disabled={form.formState.isSubmitting}>
-        <Gavel aria-hidden className="size-5" /> {form.formState.isSubmitting ? "Saving…" : "Record the decision"}
+        <SpriteIcon name="gavel" className="size-5" /> {form.formState.isSubmitting ? "Saving…" : "Record the decision"}
       </Button>
       <p className="text-xs text-muted">The coverage check&apos;s suggestion is recorded beside your decision.</p>
     </form>

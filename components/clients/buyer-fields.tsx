@@ -1,13 +1,13 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
-import { Search } from "lucide-react";
 import { useEffect, useState } from "react";
 import type { FieldValues, UseFormRegister, UseFormSetValue } from "react-hook-form";
 import { apiJson } from "@/components/api-client";
 import { TextField } from "@/components/ui/field";
 import type { ClientPage } from "@/lib/clients/list";
 import { ErrorLine } from "@/components/ui/error-line";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 type Errors = Record<string, { message?: string } | undefined>;
 
@@ -61,7 +61,7 @@ export function BuyerFields({ register, setValue, watch, errors }: { register: U
             Find the client
           </label>
           <div className="relative">
-            <Search aria-hidden className="pointer-events-none absolute left-3 top-1/2 size-5 -translate-y-1/2 text-muted" />
+            <SpriteIcon name="search" className="pointer-events-none absolute left-3 top-1/2 size-5 -translate-y-1/2 text-muted" />
             <input
               id="buyer-search"
               type="search"

@@ -1,7 +1,6 @@
 "use client";
 
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight, Download, Search, X } from "lucide-react";
 import Link from "next/link";
 import { useMemo } from "react";
 import { apiJson } from "@/components/api-client";
@@ -10,6 +9,7 @@ import { Button, ButtonLink } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { SelectField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import type { ClientPage } from "@/lib/clients/list";
 import { formatCount, formatInstant } from "@/lib/format";
 
@@ -36,7 +36,6 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
 
   const sortButton = (key: string, label: string) => {
     const active = sort === key;
-    const Icon = active && dir === "asc" ? ArrowUp : ArrowDown;
     return (
       <button
         type="button"
@@ -45,7 +44,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
         aria-label={`Sort by ${label.toLowerCase()}${active ? (dir === "asc" ? ", now ascending" : ", now descending") : ""}`}
       >
         {label}
-        <Icon aria-hidden className={cn("size-4", active ? "opacity-100" : "opacity-30")} />
+        <SpriteIcon name={active && dir === "asc" ? "arrow-up" : "arrow-down"} className={cn("size-4", active ? "opacity-100" : "opacity-30")} />
       </button>
     );
   };
@@ -57,7 +56,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
           Search clients
         </label>
         <div className="relative">
-          <Search aria-hidden className="pointer-events-none absolute left-3 top-1/2 size-5 -translate-y-1/2 text-muted" />
+          <SpriteIcon name="search" className="pointer-events-none absolute left-3 top-1/2 size-5 -translate-y-1/2 text-muted" />
           <input
             id="client-search"
             type="search"
@@ -85,13 +84,13 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
           <div className="flex items-end">
             {/* The export takes the search and filter, not the page: every client they find. */}
             <a href={`/api/clients/export.csv${exportQs ? `?${exportQs}` : ""}`} className="inline-flex min-h-11 items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
-              <Download aria-hidden className="size-4" /> Export these as CSV
+              <SpriteIcon name="download" className="size-4" /> Export these as CSV
             </a>
           </div>
           {filtersOn ? (
             <div className="flex items-end">
               <Button variant="ghost" onClick={clear}>
-                <X aria-hidden className="size-4" /> Clear search and filter
+                <SpriteIcon name="x" className="size-4" /> Clear search and filter
               </Button>
             </div>
           ) : null}
@@ -186,13 +185,13 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
           {lastPage > 1 ? (
             <nav aria-label="Pages of clients" className="flex items-center justify-between gap-2">
               <Button variant="secondary" disabled={data.page <= 1} onClick={() => set({ page: data.page - 1 > 1 ? String(data.page - 1) : null })}>
-                <ChevronLeft aria-hidden className="size-4" /> Previous
+                <SpriteIcon name="chevron-left" className="size-4" /> Previous
               </Button>
               <span className="text-sm text-muted">
                 Page {data.page} of {lastPage}
               </span>
               <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set({ page: String(data.page + 1) })}>
-                Next <ChevronRight aria-hidden className="size-4" />
+                Next <SpriteIcon name="chevron-right" className="size-4" />
               </Button>
             </nav>
           ) : null}

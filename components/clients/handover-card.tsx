@@ -1,6 +1,5 @@
 "use client";
 
-import { Mail } from "lucide-react";
 import Link from "next/link";
 import { toast } from "sonner";
 import { apiJson } from "@/components/api-client";
@@ -8,6 +7,7 @@ import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutatio
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { Card } from "@/components/ui/card";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import type { HandoverStatus } from "@/lib/pieces/handover";
 import { formatInstant } from "@/lib/format";
 
@@ -56,7 +56,7 @@ export function HandoverCard({ pieceId, status }: { pieceId: string; status: Han
       <ErrorLine>{error}</ErrorLine>
       {!status.block ? (
         <Button variant="secondary" onClick={send} disabled={busy}>
-          <Mail aria-hidden className="size-4" /> {busy ? "Sending…" : status.sendCount ? "Send it again" : "Send the hand-over mail"}
+          <SpriteIcon name="mail" className="size-4" /> {busy ? "Sending…" : status.sendCount ? "Send it again" : "Send the hand-over mail"}
         </Button>
       ) : null}
       <p className="text-xs text-muted">The drawer card keeps its code for whoever owns the piece later.</p>

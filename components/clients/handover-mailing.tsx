@@ -1,7 +1,6 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
-import { Mail } from "lucide-react";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useEffect, useRef, useState } from "react";
@@ -11,6 +10,7 @@ import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutatio
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { formatDate, formatInstant } from "@/lib/format";
 import type { HandoverBatchProgress, HandoverCandidate } from "@/lib/pieces/handover-batch";
 
@@ -59,7 +59,7 @@ export function HandoverMailing({ candidates, batches, initialBatchId, timeZone 
             </p>
             <div className="mt-4 flex flex-wrap gap-3">
               <Button disabled={busy || picked.size === 0} onClick={() => start({ pieceIds: [...picked] })}>
-                <Mail aria-hidden className="size-4" /> Send to the {picked.size || ""} picked
+                <SpriteIcon name="mail" className="size-4" /> Send to the {picked.size || ""} picked
               </Button>
               <Button variant="secondary" disabled={busy} onClick={() => start({ all: true })}>
                 Send to all not yet sent ({candidates.length})

@@ -1,6 +1,5 @@
 "use client";
 
-import { Download, Trash2 } from "lucide-react";
 import { useState } from "react";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
@@ -8,6 +7,7 @@ import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutatio
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { Card } from "@/components/ui/card";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 type Erased = { erased: { pieces: number; photos: number; claims: number; messages: number } };
 
@@ -29,7 +29,7 @@ export function PersonalDataCard({ clientId, name, erased }: { clientId: string;
       <h2 className="font-display text-xl font-semibold">Personal data</h2>
       <p className="text-sm text-muted">When someone asks what you hold about them, or asks you to forget them.</p>
       <a href={`/api/clients/${clientId}/personal-data`} className="inline-flex min-h-11 items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
-        <Download aria-hidden className="size-4" /> Download everything we hold (zip)
+        <SpriteIcon name="download" className="size-4" /> Download everything we hold (zip)
       </a>
       {erased ? (
         <p className="text-sm">This client has been erased. Their pieces stay on record without them.</p>
@@ -44,7 +44,7 @@ export function PersonalDataCard({ clientId, name, erased }: { clientId: string;
           </label>
           <ErrorLine>{error ? confirmError ?? error : null}</ErrorLine>
           <Button variant="danger" onClick={erase} disabled={busy}>
-            <Trash2 aria-hidden className="size-4" /> {busy ? "Erasing…" : "Erase this client"}
+            <SpriteIcon name="trash" className="size-4" /> {busy ? "Erasing…" : "Erase this client"}
           </Button>
         </div>
       )}

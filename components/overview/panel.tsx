@@ -1,8 +1,8 @@
-import { ChevronRight, Table2 } from "lucide-react";
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { Card } from "@/components/ui/card";
 import { cn } from "@/components/ui/cn";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 /** A headline figure that links to the list behind it. */
 export function Figure({ label, value, href, note, className }: { label: string; value: ReactNode; href: string; note?: ReactNode; className?: string }) {
@@ -12,7 +12,7 @@ export function Figure({ label, value, href, note, className }: { label: string;
         <p className="text-sm text-muted">{label}</p>
         <p className="mt-1 flex items-baseline gap-1 font-display text-3xl font-semibold sm:text-4xl">
           {value}
-          <ChevronRight aria-hidden className="size-5 self-center text-muted group-hover:text-resin" />
+          <SpriteIcon name="chevron-right" className="size-5 self-center text-muted group-hover:text-resin" />
         </p>
         {note ? <p className="mt-1 text-sm text-muted">{note}</p> : null}
       </Card>
@@ -34,7 +34,7 @@ export function ChartPanel({ title, lead, children, table, className, id }: { ti
       {children}
       <details className="group rounded-lg border border-line bg-paper/60 px-3 py-2 text-sm">
         <summary className="flex min-h-11 cursor-pointer list-none items-center gap-2 font-medium text-resin">
-          <Table2 aria-hidden className="size-4" />
+          <SpriteIcon name="table-2" className="size-4" />
           <span className="group-open:hidden">Show as a table</span>
           <span className="hidden group-open:inline">Hide the table</span>
         </summary>

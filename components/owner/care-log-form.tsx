@@ -1,12 +1,12 @@
 "use client";
 
-import { Camera } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { useActionForm } from "@/components/forms/use-action-form";
 import { formatDate } from "@/lib/format";
 import type { TaskView } from "@/lib/owner/pieces";
@@ -121,7 +121,7 @@ export function CareLogForm({
             htmlFor={photoId}
             className="flex min-h-11 cursor-pointer items-center gap-2 rounded-lg border border-dashed border-line bg-white px-3 py-2 text-sm text-ink hover:border-resin"
           >
-            <Camera aria-hidden className="size-4 shrink-0" />
+            <SpriteIcon name="camera" className="size-4 shrink-0" />
             <span className="min-w-0 truncate">{photo ? photo.name : "Take or choose a photo (JPEG, PNG or WebP, up to 15 MB)"}</span>
           </label>
           <input id={photoId} type="file" accept="image/jpeg,image/png,image/webp" className="sr-only" onChange={(e) => setPhoto(e.target.files?.[0] ?? null)} />

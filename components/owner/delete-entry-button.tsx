@@ -1,12 +1,12 @@
 "use client";
 
-import { Trash2 } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { callApi } from "@/components/api-client";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 export function DeleteEntryButton({ pieceId, entryId }: { pieceId: string; entryId: string }) {
   const router = useRouter();
@@ -15,7 +15,7 @@ export function DeleteEntryButton({ pieceId, entryId }: { pieceId: string; entry
   return (
     <>
       <Button variant="secondary" className="w-full text-danger sm:w-auto" onClick={() => setOpen(true)}>
-        <Trash2 aria-hidden className="size-4" />
+        <SpriteIcon name="trash" className="size-4" />
         Delete this entry
       </Button>
       <ConfirmDialog

@@ -1,9 +1,9 @@
 "use client";
 
 import type { FormEventHandler, ReactNode } from "react";
-import { KeyRound } from "lucide-react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
 import type { RegistrationInput } from "@/lib/validation/owner";
@@ -31,7 +31,7 @@ function OneTap({ onSubmit, formError, submitting, hidden }: { onSubmit: FormEve
       ) : null}
       {hidden}
       <Button type="submit" className="w-full" disabled={submitting}>
-        <KeyRound aria-hidden className="size-4" />
+        <SpriteIcon name="key-round" className="size-4" />
         {submitting ? "Registering…" : "Register this piece to my account"}
       </Button>
     </form>

@@ -1,9 +1,9 @@
 import type { ReactNode } from "react";
 import Link from "next/link";
-import { ArrowRight } from "lucide-react";
 import type { User } from "lucia";
 import { ButtonLink } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 export type RegisterPanelPiece = { studioName: string; title: string; kindLabel: string; deliveredMonth: string };
 
@@ -44,7 +44,7 @@ export function RegisterPanel({ piece, heading: Heading, detail, here, user, sta
           </Notice>
           <ButtonLink href={`/pieces/${state.pieceId}`} className="w-full">
             Open its care plan
-            <ArrowRight aria-hidden className="size-4" />
+            <SpriteIcon name="arrow-right" className="size-4" />
           </ButtonLink>
         </div>
       ) : state.kind === "closed" ? (
@@ -54,7 +54,7 @@ export function RegisterPanel({ piece, heading: Heading, detail, here, user, sta
           <p>{state.signUpLead}</p>
           <ButtonLink href={`/sign-up?next=${encodeURIComponent(here)}`} className="w-full">
             Create an account and register
-            <ArrowRight aria-hidden className="size-4" />
+            <SpriteIcon name="arrow-right" className="size-4" />
           </ButtonLink>
           <ButtonLink href={`/sign-in?next=${encodeURIComponent(here)}`} variant="secondary" className="w-full">
             I have an account — sign in

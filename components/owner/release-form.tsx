@@ -1,6 +1,5 @@
 "use client";
 
-import { Copy, Handshake } from "lucide-react";
 import Link from "next/link";
 import { useState } from "react";
 import { toast } from "sonner";
@@ -10,6 +9,7 @@ import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
 import type { ReleaseInput } from "@/lib/validation/owner";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 type Released = { code: string; pieceId: string };
 
@@ -49,7 +49,7 @@ export function ReleaseForm({ action, pieceTitle }: { action: (v: ReleaseInput) 
             }
           }}
         >
-          <Copy aria-hidden className="size-4" />
+          <SpriteIcon name="copy" className="size-4" />
           Copy the code
         </Button>
         <p className="text-sm text-muted">The next owner opens Grainward, chooses “Register a piece” and types it in. The code on the old drawer card no longer works.</p>
@@ -81,7 +81,7 @@ export function ReleaseForm({ action, pieceTitle }: { action: (v: ReleaseInput) 
         </p>
       ) : null}
       <Button type="submit" variant="danger" className="w-full">
-        <Handshake aria-hidden className="size-4" />
+        <SpriteIcon name="handshake" className="size-4" />
         Release this piece
       </Button>
       <ConfirmDialog

@@ -1,9 +1,9 @@
 "use client";
 
-import { Printer, X } from "lucide-react";
 import { useId, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 /** Kept in step with CARD_LAYOUTS and MAX_CARDS_PER_PDF in lib/pieces/card.tsx (a server module). */
 const LAYOUTS = [
@@ -38,15 +38,15 @@ export function CardPrintBar({ selected, onClear }: { selected: string[]; onClea
       </div>
       {n > 0 && !tooMany ? (
         <a href={`/api/pieces/cards?layout=${layout}&ids=${selected.map(encodeURIComponent).join(",")}`} download className={cn(linkCls, "bg-resin text-white hover:bg-resin-dark")}>
-          <Printer aria-hidden className="size-4" /> Cards for the {n} chosen piece{n === 1 ? "" : "s"} (PDF)
+          <SpriteIcon name="printer" className="size-4" /> Cards for the {n} chosen piece{n === 1 ? "" : "s"} (PDF)
         </a>
       ) : null}
       <a href={`/api/pieces/cards?layout=${layout}&all=unregistered`} download className={cn(linkCls, "border border-line bg-card hover:border-resin hover:text-resin")}>
-        <Printer aria-hidden className="size-4" /> Cards for all pieces not yet registered (PDF)
+        <SpriteIcon name="printer" className="size-4" /> Cards for all pieces not yet registered (PDF)
       </a>
       {n > 0 ? (
         <Button variant="ghost" onClick={onClear}>
-          <X aria-hidden className="size-4" /> Clear the {n} chosen
+          <SpriteIcon name="x" className="size-4" /> Clear the {n} chosen
         </Button>
       ) : null}
       <p className="w-full text-sm text-muted" aria-live="polite">

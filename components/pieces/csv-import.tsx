@@ -1,12 +1,12 @@
 "use client";
 
-import { CircleAlert, CircleCheck, Upload } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import type { ImportResult } from "@/lib/pieces/csv";
 
 async function send(csv: string, commit: boolean, sendHandover = false): Promise<ImportResult | { message: string }> {
@@ -72,7 +72,7 @@ export function CsvImport({ columns }: { columns: readonly string[] }) {
           Buyers (optional): <span className="font-mono text-xs">buyer_name, buyer_email, buyer_phone, buyer_service_mail_on</span> (the day they agreed to service mail). A buyer already among your clients is matched by e-mail, then phone; nobody is added twice.
         </p>
         <label className="mt-4 inline-flex min-h-11 cursor-pointer items-center gap-2 rounded-lg bg-resin px-4 font-semibold text-white hover:bg-resin-dark">
-          <Upload aria-hidden className="size-4" /> Choose a CSV file
+          <SpriteIcon name="upload" className="size-4" /> Choose a CSV file
           <input type="file" accept=".csv,text/csv" className="sr-only" onChange={(e) => pick(e.target.files?.[0])} />
         </label>
         {name ? <span className="ml-3 text-muted">{name}</span> : null}
@@ -120,12 +120,12 @@ export function CsvImport({ columns }: { columns: readonly string[] }) {
                   <td>
                     {r.ok ? (
                       <span className="inline-flex items-center gap-1 text-ok">
-                        <CircleCheck aria-hidden className="size-4" /> Valid
+                        <SpriteIcon name="circle-check" className="size-4" /> Valid
                       </span>
                     ) : (
                       <div className="space-y-1 text-danger">
                         <span className="inline-flex items-center gap-1 font-semibold">
-                          <CircleAlert aria-hidden className="size-4" /> Problem
+                          <SpriteIcon name="circle-exclamation-point" className="size-4" /> Problem
                         </span>
                         {byRow.get(r.row)?.map((e, i) => (
                           <p key={i}>

@@ -1,6 +1,5 @@
 "use client";
 
-import { ArrowDown, ArrowUp, Pencil, Plus, Trash2 } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import type { FieldValues, UseFormRegister, UseFormSetValue } from "react-hook-form";
@@ -9,6 +8,7 @@ import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import type { LayerInput } from "@/lib/validation/pieces";
 import { apiJson, callApi, type ApiInit } from "@/components/api-client";
@@ -96,7 +96,7 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
             <div className="flex items-center justify-between">
               <h3 className="font-semibold">{SURFACE_LABELS[surface]}</h3>
               <Button variant="ghost" onClick={() => setAdding(surface)} disabled={adding === surface}>
-                <Plus aria-hidden className="size-4" /> Add layer to the {surface}
+                <SpriteIcon name="plus" className="size-4" /> Add layer to the {surface}
               </Button>
             </div>
             {adding === surface ? <LayerForm pieceId={pieceId} products={products} members={members} today={today} surface={surface} onDone={() => setAdding(null)} /> : null}
@@ -119,16 +119,16 @@ export function FinishStackEditor({ pieceId, layers, products, members, today }:
                     </div>
                     <div className="flex flex-wrap gap-1">
                       <button type="button" disabled={busy || l.position === stack.length - 1} onClick={() => run({ url: layerUrl(l), init: { method: "PATCH", json: { position: l.position + 1 } }, done: "Layer moved outward." })} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer outward`}>
-                        <ArrowUp aria-hidden className="size-4" />
+                        <SpriteIcon name="arrow-up" className="size-4" />
                       </button>
                       <button type="button" disabled={busy || l.position === 0} onClick={() => run({ url: layerUrl(l), init: { method: "PATCH", json: { position: l.position - 1 } }, done: "Layer moved toward the wood." })} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white disabled:opacity-40" aria-label={`Move ${FINISH_CLASS_LABELS[l.finishClass]} layer toward the wood`}>
-                        <ArrowDown aria-hidden className="size-4" />
+                        <SpriteIcon name="arrow-down" className="size-4" />
                       </button>
                       <button type="button" onClick={() => setEditing(editing === l.id ? null : l.id)} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-ink hover:bg-white" aria-label={`Edit ${FINISH_CLASS_LABELS[l.finishClass]} layer`}>
-                        <Pencil aria-hidden className="size-4" />
+                        <SpriteIcon name="pencil" className="size-4" />
                       </button>
                       <button type="button" onClick={() => setConfirming(l.id)} className="inline-flex size-11 items-center justify-center rounded-md bg-white/70 text-danger hover:bg-white" aria-label={`Remove ${FINISH_CLASS_LABELS[l.finishClass]} layer`}>
-                        <Trash2 aria-hidden className="size-4" />
+                        <SpriteIcon name="trash" className="size-4" />
                       </button>
                     </div>
                   </div>

@@ -1,10 +1,10 @@
 "use client";
 
-import { Archive, FileDown, ImagePlus, KeyRound, Trash2 } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { apiJson, isApiError } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 
@@ -61,21 +61,21 @@ export function PieceActions({ pieceId, registered, archived }: { pieceId: strin
     <div className="space-y-3">
       <div className="flex flex-wrap gap-2">
         <a href={`/api/pieces/${pieceId}/card.pdf`} target="_blank" rel="noopener" className="inline-flex min-h-11 items-center gap-2 rounded-lg bg-resin px-4 text-sm font-semibold text-white hover:bg-resin-dark">
-          <FileDown aria-hidden className="size-4" /> Drawer card (4×6 in)
+          <SpriteIcon name="file-down" className="size-4" /> Drawer card (4×6 in)
         </a>
         <a href={`/api/pieces/${pieceId}/card.pdf?size=a6`} target="_blank" rel="noopener" className="inline-flex min-h-11 items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
-          <FileDown aria-hidden className="size-4" /> A6
+          <SpriteIcon name="file-down" className="size-4" /> A6
         </a>
         <Button variant="secondary" onClick={() => setAsk("reissue")}>
-          <KeyRound aria-hidden className="size-4" /> Reissue code
+          <SpriteIcon name="key-round" className="size-4" /> Reissue code
         </Button>
         {archived ? (
           <Button variant="secondary" onClick={() => unarchive.run(undefined)}>
-            <Archive aria-hidden className="size-4" /> Take out of archive
+            <SpriteIcon name="archive" className="size-4" /> Take out of archive
           </Button>
         ) : (
           <Button variant="secondary" onClick={() => setAsk("delete")}>
-            {registered ? <Archive aria-hidden className="size-4" /> : <Trash2 aria-hidden className="size-4" />} {registered ? "Archive" : "Delete"}
+            {registered ? <SpriteIcon name="archive" className="size-4" /> : <SpriteIcon name="trash" className="size-4" />} {registered ? "Archive" : "Delete"}
           </Button>
         )}
       </div>
@@ -126,7 +126,7 @@ export function PhotoUploader({ pieceId }: { pieceId: string }) {
   return (
     <div className="space-y-2">
       <label className="inline-flex min-h-11 cursor-pointer items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
-        <ImagePlus aria-hidden className="size-4" /> Add photos
+        <SpriteIcon name="image-plus" className="size-4" /> Add photos
         <input ref={input} type="file" accept="image/jpeg,image/png,image/webp" multiple className="sr-only" onChange={(e) => upload(e.target.files)} disabled={progress !== null} />
       </label>
       {progress ? (

@@ -1,6 +1,5 @@
 "use client";
 
-import { Plus, Trash2 } from "lucide-react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Controller, useFieldArray, type FieldValues, type UseFormRegister, type UseFormSetValue } from "react-hook-form";
@@ -11,6 +10,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { PIECE_KINDS, PIECE_KIND_LABELS, RESIN_KINDS, RESIN_LABELS, SHAPE_KINDS, SUN_EXPOSURES, SUN_LABELS, USES, USE_LABELS } from "@/lib/care/vocabulary";
 import type { CreatePieceInput } from "@/lib/validation/pieces";
 import { callApi } from "@/components/api-client";
@@ -199,7 +199,7 @@ export function PieceForm({
               variant="secondary"
               onClick={() => layers.append({ surface: "top", finishClass: "hardwax_oil", productId: null, productLabel: "", coats: 1, appliedOn: (watch("deliveredOn" as never) as unknown as string) || today, appliedById: null, batchLot: "", notes: "" } as never)}
             >
-              <Plus aria-hidden className="size-4" /> Add a layer
+              <SpriteIcon name="plus" className="size-4" /> Add a layer
             </Button>
           }
         >
@@ -210,7 +210,7 @@ export function PieceForm({
                 <div className="mb-2 flex items-center justify-between">
                   <p className="text-sm font-semibold">Layer {i + 1}</p>
                   <Button variant="ghost" onClick={() => layers.remove(i)} aria-label={`Remove layer ${i + 1}`}>
-                    <Trash2 aria-hidden className="size-4" /> Remove
+                    <SpriteIcon name="trash" className="size-4" /> Remove
                   </Button>
                 </div>
                 <LayerFields prefix={`layers.${i}.`} register={reg} setValue={setValue as unknown as UseFormSetValue<FieldValues>} errors={errors.layers?.[i]} products={products} members={members} />

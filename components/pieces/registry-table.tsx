@@ -1,7 +1,6 @@
 "use client";
 
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight, Download, Search, X } from "lucide-react";
 import Link from "next/link";
 import { useState } from "react";
 import { ApiError, apiJson, isApiError } from "@/components/api-client";
@@ -9,6 +8,7 @@ import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { SPECIES } from "@/lib/care/species";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, PIECE_KINDS, PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import type { RegistryPage, RegistryRow } from "@/lib/pieces/registry";
@@ -62,7 +62,6 @@ export function RegistryTable() {
 
   const sortButton = (key: string, label: string) => {
     const active = sort === key;
-    const Icon = active && dir === "asc" ? ArrowUp : ArrowDown;
     return (
       <button
         type="button"
@@ -71,7 +70,7 @@ export function RegistryTable() {
         aria-label={`Sort by ${label.toLowerCase()}${active ? (dir === "asc" ? ", now ascending" : ", now descending") : ""}`}
       >
         {label}
-        <Icon aria-hidden className={cn("size-4", active ? "opacity-100" : "opacity-30")} />
+        <SpriteIcon name={active && dir === "asc" ? "arrow-up" : "arrow-down"} className={cn("size-4", active ? "opacity-100" : "opacity-30")} />
       </button>
     );
   };
@@ -87,7 +86,7 @@ export function RegistryTable() {
           Search pieces
         </label>
         <div className="relative">
-          <Search aria-hidden className="pointer-events-none absolute left-3 top-1/2 size-5 -translate-y-1/2 text-muted" />
+          <SpriteIcon name="search" className="pointer-events-none absolute left-3 top-1/2 size-5 -translate-y-1/2 text-muted" />
           <input
             id="registry-search"
             type="search"
@@ -153,11 +152,11 @@ export function RegistryTable() {
         <div className="flex flex-wrap items-center gap-2">
           {filtersOn ? (
             <Button variant="ghost" onClick={clear}>
-              <X aria-hidden className="size-4" /> Clear search and filters
+              <SpriteIcon name="x" className="size-4" /> Clear search and filters
             </Button>
           ) : null}
           <a href={`/api/pieces/export.csv${exportQs.size ? `?${exportQs}` : ""}`} className="ml-auto inline-flex min-h-11 items-center gap-2 rounded-lg border border-line bg-card px-4 text-sm font-semibold hover:border-resin hover:text-resin">
-            <Download aria-hidden className="size-4" /> Export these as CSV
+            <SpriteIcon name="download" className="size-4" /> Export these as CSV
           </a>
         </div>
       </form>
@@ -271,7 +270,7 @@ export function RegistryTable() {
           </ul>
           <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-2">
             <Button variant="secondary" disabled={data.page <= 1} onClick={() => set({ page: String(data.page - 1) })}>
-              <ChevronLeft aria-hidden className="size-4" /> Previous
+              <SpriteIcon name="chevron-left" className="size-4" /> Previous
             </Button>
             <span className="text-sm text-muted">
               Page {data.page} of {lastPage}
@@ -288,7 +287,7 @@ export function RegistryTable() {
                 ))}
               </select>
               <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set({ page: String(data.page + 1) })}>
-                Next <ChevronRight aria-hidden className="size-4" />
+                Next <SpriteIcon name="chevron-right" className="size-4" />
               </Button>
             </div>
           </nav>

@@ -1,10 +1,10 @@
 "use client";
 
-import { Check } from "lucide-react";
 import { useId, useMemo, useState } from "react";
 import { cn } from "@/components/ui/cn";
 import { SPECIES } from "@/lib/care/species";
 import { ErrorLine } from "@/components/ui/error-line";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 const key = (s: string) => s.toLowerCase().replace(/[\s_-]+/g, "");
 
@@ -106,7 +106,12 @@ export function SpeciesPicker({
                 <span className="font-medium">{s.commonName}</span> <span className="italic text-muted">{s.botanicalName}</span>
                 {s.aliases.length ? <span className="block text-xs text-muted">also {s.aliases.join(", ")}</span> : null}
               </span>
-              {s.id === value ? <Check aria-label="selected" className="size-4 text-resin" /> : null}
+              {s.id === value ? (
+                <span className="text-resin">
+                  <SpriteIcon name="check" className="size-4" />
+                  <span className="sr-only">selected</span>
+                </span>
+              ) : null}
             </li>
           ))}
         </ul>

@@ -1,14 +1,15 @@
 "use client";
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { Ban, CircleAlert, CircleCheck, Clock, Hourglass, PauseCircle, PlayCircle, RotateCw, SkipForward, UserX } from "lucide-react";
-import { useState, type ComponentType } from "react";
+import { useState } from "react";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { cn } from "@/components/ui/cn";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
+import type { SpriteIconName } from "@/components/ui/sprite-names";
 import type { LedgerListRow, UpcomingRow } from "@/lib/reminders/staff";
 import { formatDate, formatInstant } from "@/lib/format";
 
@@ -31,24 +32,24 @@ const STEPS: [string, string][] = [
 ];
 const STEP_WORDS = Object.fromEntries(STEPS) as Record<string, string>;
 
-type Badge = { Icon: ComponentType<{ className?: string; "aria-hidden"?: boolean }>; word: string; tone: string };
+type Badge = { icon: SpriteIconName; word: string; tone: string };
 const STATUS: Record<string, Badge> = {
-  queued: { Icon: Hourglass, word: "Sending", tone: "text-resin" },
-  sent: { Icon: CircleCheck, word: "Sent", tone: "text-ok" },
-  failed: { Icon: CircleAlert, word: "Failed", tone: "text-danger" },
-  skipped: { Icon: SkipForward, word: "Skipped", tone: "text-muted" },
-  cancelled: { Icon: Ban, word: "Cancelled", tone: "text-muted" },
-  scheduled: { Icon: Clock, word: "Scheduled", tone: "text-resin" },
-  piece_paused: { Icon: PauseCircle, word: "Paused for this piece", tone: "text-warn" },
-  owner_unsubscribed: { Icon: UserX, word: "Owner unsubscribed", tone: "text-warn" },
-  address_unconfirmed: { Icon: UserX, word: "Address not confirmed", tone: "text-warn" },
+  queued: { icon: "hourglass", word: "Sending", tone: "text-resin" },
+  sent: { icon: "circle-check", word: "Sent", tone: "text-ok" },
+  failed: { icon: "circle-exclamation-point", word: "Failed", tone: "text-danger" },
+  skipped: { icon: "skip-forward", word: "Skipped", tone: "text-muted" },
+  cancelled: { icon: "ban", word: "Cancelled", tone: "text-muted" },
+  scheduled: { icon: "clock", word: "Scheduled", tone: "text-resin" },
+  piece_paused: { icon: "circle-pause", word: "Paused for this piece", tone: "text-warn" },
+  owner_unsubscribed: { icon: "user-x", word: "Owner unsubscribed", tone: "text-warn" },
+  address_unconfirmed: { icon: "user-x", word: "Address not confirmed", tone: "text-warn" },
 };
 
 function StatusBadge({ status }: { status: string }) {
-  const b = STATUS[status] ?? { Icon: Clock, word: status, tone: "text-ink" };
+  const b = STATUS[status] ?? { icon: "clock", word: status, tone: "text-ink" };
   return (
     <span className={cn("inline-flex items-center gap-1.5 text-sm font-medium", b.tone)}>
-      <b.Icon aria-hidden className="size-4" />
+      <SpriteIcon name={b.icon} className="size-4" />
       {b.word}
     </span>
   );
@@ -200,7 +201,7 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
                       <td className="space-y-1 px-3 py-2 text-right">
                         {r.status === "failed" ? (
                           <Button variant="secondary" disabled={resend.isPending} onClick={() => resend.mutate(r.id)}>
-                            <RotateCw aria-hidden className="size-4" /> Resend
+                            <SpriteIcon name="rotate-cw" className="size-4" /> Resend
                           </Button>
                         ) : null}
                         <PauseButton paused={r.remindersPaused} busy={pause.isPending} onClick={() => pause.mutate({ pieceId: r.pieceId, paused: !r.remindersPaused })} />
@@ -218,7 +219,7 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
 function PauseButton({ paused, busy, onClick }: { paused: boolean; busy: boolean; onClick: () => void }) {
   return (
     <Button variant="ghost" disabled={busy} onClick={onClick}>
-      {paused ? <PlayCircle aria-hidden className="size-4" /> : <PauseCircle aria-hidden className="size-4" />}
+      {paused ? <SpriteIcon name="circle-play" className="size-4" /> : <SpriteIcon name="circle-pause" className="size-4" />}
       {paused ? "Resume reminders" : "Pause reminders"}
     </Button>
   );

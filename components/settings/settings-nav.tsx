@@ -1,9 +1,9 @@
 "use client";
 
-import { ExternalLink } from "lucide-react";
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { cn } from "@/components/ui/cn";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 const ITEMS = [
   { href: "/studio/settings", label: "Profile and rates" },
@@ -34,7 +34,7 @@ export function SettingsNav() {
             className={cn("flex min-h-11 items-center gap-1.5 whitespace-nowrap rounded-lg px-3 text-sm font-medium", active ? "bg-resin-soft text-resin-dark" : "text-ink hover:bg-resin-soft/60")}
           >
             {i.label}
-            {i.away ? <ExternalLink aria-hidden className="size-3.5 text-muted" /> : null}
+            {i.away ? <SpriteIcon name="external-link" className="size-3.5 text-muted" /> : null}
           </Link>
         );
       })}

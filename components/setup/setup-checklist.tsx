@@ -1,7 +1,7 @@
-import { Circle, CircleCheck } from "lucide-react";
 import Link from "next/link";
 import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import type { SetupItem } from "@/lib/studio/setup";
 
 /** The overview's "what is left to set up" (lib/studio/setup.ts), until every item is done; each item links to its step. */
@@ -25,9 +25,9 @@ export function SetupChecklist({ items }: { items: SetupItem[] }) {
           {items.map((i) => (
             <li key={i.key} className="flex items-start gap-3 py-2">
               {i.done ? (
-                <CircleCheck aria-hidden className="mt-0.5 size-5 shrink-0 text-ok" />
+                <SpriteIcon name="circle-check" className="mt-0.5 size-5 shrink-0 text-ok" />
               ) : (
-                <Circle aria-hidden className="mt-0.5 size-5 shrink-0 text-muted" />
+                <SpriteIcon name="circle" className="mt-0.5 size-5 shrink-0 text-muted" />
               )}
               <div>
                 {i.done ? (

@@ -1,10 +1,10 @@
 "use client";
 
-import { ChevronDown } from "lucide-react";
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { useEffect, useRef } from "react";
 import { clsx } from "clsx";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { groupNav, isCurrent, type NavItem } from "./nav-groups";
 
 const linkClass = "flex min-h-11 items-center whitespace-nowrap rounded-md px-3 text-sm font-medium text-ink hover:bg-resin-soft";
@@ -70,7 +70,7 @@ export function MainNav({ items }: { items: NavItem[] }) {
             <details ref={details} className="group sm:relative">
               <summary className={clsx(linkClass, "cursor-pointer list-none gap-1 [&::-webkit-details-marker]:hidden", moreIsCurrent && currentClass)}>
                 More
-                <ChevronDown aria-hidden className="size-4 transition-transform group-open:rotate-180" />
+                <SpriteIcon name="chevron-down" className="size-4 transition-transform group-open:rotate-180" />
               </summary>
               <ul className="absolute inset-x-0 top-full z-30 mt-1 rounded-md border border-line bg-card p-1 shadow-lg sm:left-auto sm:right-0 sm:w-56">
                 {more.map((item) => (

@@ -1,6 +1,5 @@
 "use client";
 
-import { ShieldCheck, User, Wrench, type LucideIcon } from "lucide-react";
 import { useState } from "react";
 import { toast } from "sonner";
 import { actionData } from "@/components/api-client";
@@ -11,13 +10,15 @@ import type { StudioRole } from "@/lib/care/vocabulary";
 import type { ActionResult } from "@/lib/validation/action";
 import type { ChangeRoleInput, RemoveMemberInput } from "@/lib/validation/settings";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
+import type { SpriteIconName } from "@/components/ui/sprite-names";
 
 export type MemberView = { id: string; name: string; email: string; role: StudioRole; isYou: boolean };
 
-const ROLE_LOOK: Record<StudioRole, { label: string; Icon: LucideIcon; note: string }> = {
-  admin: { label: "Admin", Icon: ShieldCheck, note: "everything, plus team and settings" },
-  staff: { label: "Staff", Icon: User, note: "pieces, claims, quotes and bookings" },
-  technician: { label: "Technician", Icon: Wrench, note: "their visits and visit reports" },
+const ROLE_LOOK: Record<StudioRole, { label: string; icon: SpriteIconName; note: string }> = {
+  admin: { label: "Admin", icon: "shield-check", note: "everything, plus team and settings" },
+  staff: { label: "Staff", icon: "user", note: "pieces, claims, quotes and bookings" },
+  technician: { label: "Technician", icon: "wrench", note: "their visits and visit reports" },
 };
 const RANK: Record<StudioRole, number> = { admin: 3, staff: 2, technician: 1 };
 
@@ -73,7 +74,7 @@ export function MemberList({
                 </p>
                 <p className="text-sm text-muted break-all">{m.email}</p>
                 <p className="mt-1 inline-flex items-center gap-1.5 text-sm">
-                  <look.Icon aria-hidden className="size-4 text-resin" />
+                  <SpriteIcon name={look.icon} className="size-4 text-resin" />
                   <strong>{look.label}</strong> <span className="text-muted">— {look.note}</span>
                 </p>
                 {lastAdmin ? <p className="text-sm text-muted">The studio&apos;s only admin: make someone else an admin before changing this role.</p> : null}

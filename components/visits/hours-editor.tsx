@@ -1,12 +1,12 @@
 "use client";
 
-import { Plus, Trash2 } from "lucide-react";
 import { useState } from "react";
 import { useFieldArray, useForm } from "react-hook-form";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import type { technicianHoursSchema, TechnicianHoursInput } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError } from "@/components/api-client";
@@ -50,12 +50,12 @@ export function HoursEditor({ technicianId, name, initial, editable }: { technic
             <TextField label="From" type="time" step={1800} error={e.hours?.[i]?.start?.message} {...form.register(`hours.${i}.start`)} />
             <TextField label="To" type="time" step={1800} error={e.hours?.[i]?.end?.message} {...form.register(`hours.${i}.end`)} />
             <Button variant="ghost" aria-label={`Remove range ${i + 1}`} onClick={() => hours.remove(i)}>
-              <Trash2 aria-hidden className="size-4" />
+              <SpriteIcon name="trash" className="size-4" />
             </Button>
           </div>
         ))}
         <Button variant="secondary" onClick={() => hours.append({ weekday: 1, start: "09:00", end: "17:00" })}>
-          <Plus aria-hidden className="size-4" /> Add hours
+          <SpriteIcon name="plus" className="size-4" /> Add hours
         </Button>
       </fieldset>
       <fieldset className="space-y-2" disabled={!editable}>
@@ -68,12 +68,12 @@ export function HoursEditor({ technicianId, name, initial, editable }: { technic
             <TextField label="To" type="time" error={e.timeOff?.[i]?.end?.message} {...form.register(`timeOff.${i}.end`, { setValueAs: (v) => (v === "" ? null : v) })} />
             <TextField label="Note" error={e.timeOff?.[i]?.note?.message} {...form.register(`timeOff.${i}.note`)} />
             <Button variant="ghost" aria-label={`Remove day off ${i + 1}`} onClick={() => off.remove(i)}>
-              <Trash2 aria-hidden className="size-4" />
+              <SpriteIcon name="trash" className="size-4" />
             </Button>
           </div>
         ))}
         <Button variant="secondary" onClick={() => off.append({ date: "", start: null, end: null, note: "" })}>
-          <Plus aria-hidden className="size-4" /> Add a day off
+          <SpriteIcon name="plus" className="size-4" /> Add a day off
         </Button>
       </fieldset>
       {editable ? (

@@ -1,13 +1,13 @@
 "use client";
 
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { CalendarCheck, ChevronLeft, ChevronRight, MapPin } from "lucide-react";
 import { useMemo, useState } from "react";
 import { toast } from "sonner";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { cn } from "@/components/ui/cn";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { apiJson, isApiError } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import type { SlotView } from "@/lib/visits/slots";
@@ -115,7 +115,7 @@ export function SlotPicker(p: Props) {
               <input type="radio" name="location" value={value} checked={location === value} disabled={value === "owner" && !p.pieceAddress} onChange={() => setLocation(value)} className="mt-1 size-5 accent-[var(--color-resin)]" />
               <span>
                 <span className="flex items-center gap-1.5 font-medium">
-                  <MapPin aria-hidden className="size-4" />
+                  <SpriteIcon name="map-pin" className="size-4" />
                   {label}
                 </span>
                 <span className="block text-sm text-muted">{hint}</span>
@@ -127,13 +127,13 @@ export function SlotPicker(p: Props) {
 
       <div className="flex items-center justify-between gap-2">
         <Button variant="secondary" aria-label="Earlier dates" disabled={page === 0} onClick={() => setPage((n) => n - 1)}>
-          <ChevronLeft aria-hidden className="size-4" /> Earlier
+          <SpriteIcon name="chevron-left" className="size-4" /> Earlier
         </Button>
         <p className="text-center text-sm text-muted">
           Visits take about {Math.round(p.durationMin / 15) / 4} h. Times in {formatZone(p.timeZone)}.
         </p>
         <Button variant="secondary" aria-label="Later dates" disabled={page >= 4} onClick={() => setPage((n) => n + 1)}>
-          Later <ChevronRight aria-hidden className="size-4" />
+          Later <SpriteIcon name="chevron-right" className="size-4" />
         </Button>
       </div>
 
@@ -190,7 +190,7 @@ export function SlotPicker(p: Props) {
 
       <div className="sticky bottom-0 -mx-4 border-t border-line bg-paper/95 px-4 py-3 backdrop-blur sm:static sm:mx-0 sm:border-0 sm:bg-transparent sm:p-0">
         <Button className="w-full sm:w-auto" disabled={!chosen || busy} onClick={confirm}>
-          <CalendarCheck aria-hidden className="size-4" />
+          <SpriteIcon name="calendar-check" className="size-4" />
           {busy ? "Booking…" : chosen ? `${p.visit ? "Move to" : "Book"} ${dayHeading(chosen.localDate)}, ${chosen.localStart}` : "Pick a time"}
         </Button>
       </div>

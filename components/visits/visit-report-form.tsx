@@ -1,6 +1,5 @@
 "use client";
 
-import { Camera, Plus, Trash2 } from "lucide-react";
 import { useState } from "react";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { toast } from "sonner";
@@ -8,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
 import type { visitReportSchema, VisitReportInput, VisitReportValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
@@ -123,7 +123,7 @@ export function VisitReportForm({
               <div className="flex items-center justify-between">
                 <p className="text-sm font-semibold">Layer {i + 1}</p>
                 <Button variant="ghost" aria-label={`Remove layer ${i + 1}`} onClick={() => layers.remove(i)}>
-                  <Trash2 aria-hidden className="size-4" /> Remove
+                  <SpriteIcon name="trash" className="size-4" /> Remove
                 </Button>
               </div>
               <div className="grid grid-cols-2 gap-3">
@@ -154,7 +154,7 @@ export function VisitReportForm({
           );
         })}
         <Button variant="secondary" onClick={() => layers.append({ surface: "top", finishClass: defaultClass ?? "hardwax_oil", productId: "", coats: 1, appliedOn: today, productLabel: "", batchLot: "" })}>
-          <Plus aria-hidden className="size-4" /> Add a layer
+          <SpriteIcon name="plus" className="size-4" /> Add a layer
         </Button>
       </fieldset>
 
@@ -163,7 +163,7 @@ export function VisitReportForm({
         <div className="grid grid-cols-2 gap-2">
           {(["before", "after"] as const).map((kind) => (
             <label key={kind} className="flex min-h-11 cursor-pointer items-center justify-center gap-2 rounded-lg border border-line bg-card px-3 text-sm font-semibold text-resin hover:border-resin">
-              <Camera aria-hidden className="size-4" /> {kind === "before" ? "Before photo" : "After photo"}
+              <SpriteIcon name="camera" className="size-4" /> {kind === "before" ? "Before photo" : "After photo"}
               <input type="file" accept="image/jpeg,image/png,image/webp" capture="environment" multiple className="sr-only" onChange={(e) => void addPhotos(kind, e.target.files)} disabled={uploading !== null} />
             </label>
           ))}

@@ -1,7 +1,6 @@
 "use client";
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { ChevronLeft, ChevronRight, GripVertical } from "lucide-react";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { useForm } from "react-hook-form";
@@ -11,6 +10,7 @@ import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { addDays, localDateTime, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
 import type { VisitEditFormValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
@@ -80,13 +80,13 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div className="flex items-center gap-2">
           <Button variant="secondary" aria-label="Previous week" onClick={() => setMonday(addDays(monday, -7))}>
-            <ChevronLeft aria-hidden className="size-4" />
+            <SpriteIcon name="chevron-left" className="size-4" />
           </Button>
           <p className="min-w-44 text-center font-semibold" aria-live="polite">
             Week of {weekdayLabel(monday)}
           </p>
           <Button variant="secondary" aria-label="Next week" onClick={() => setMonday(addDays(monday, 7))}>
-            <ChevronRight aria-hidden className="size-4" />
+            <SpriteIcon name="chevron-right" className="size-4" />
           </Button>
         </div>
         <label className="flex flex-col gap-1.5 text-sm font-medium">
@@ -171,7 +171,7 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
                       aria-label={`${v.jobTitle}, ${hm(p.startMin)}, ${v.technicianName}${v.state === "done" ? ", done" : ""}. Open to move or cancel.`}
                     >
                       <span className="flex min-w-0 items-center gap-1">
-                        {movable ? <GripVertical aria-hidden className="size-3 shrink-0" /> : null}
+                        {movable ? <SpriteIcon name="grip-vertical" className="size-3 shrink-0" /> : null}
                         <span className="shrink-0 font-semibold">
                           {hm(p.startMin)} {initials(v.technicianName)}
                           {v.state === "done" ? " · done" : ""}

@@ -59,6 +59,11 @@ describe("one way for each chore", () => {
     ["a subclass of AppError", "lib/x/y.ts", 'import { AppError } from "@/lib/errors";\nexport class TakenError extends AppError {}\n', "no-restricted-syntax"],
     ["fetch in a component", "components/x/y.tsx", 'export const load = () => fetch("/api/pieces");\n', "no-restricted-globals"],
     ["XMLHttpRequest in a component", "components/x/y.tsx", "export const xhr = () => new XMLHttpRequest();\n", "no-restricted-globals"],
+    ["a lucide-react icon in a page", "app/studio/x/page.tsx", 'import { Plus } from "lucide-react";\nexport const x = Plus;\n', "no-restricted-imports"],
+    ["a lucide-react icon in a component", "components/x/y.tsx", 'import { Plus } from "lucide-react";\nexport const x = Plus;\n', "no-restricted-imports"],
+    ["a lucide-react icon in lib", "lib/x/y.ts", 'import { Plus } from "lucide-react";\nexport const x = Plus;\n', "no-restricted-imports"],
+    ["a lucide-react icon file in an e-mail", "emails/x.tsx", 'import Plus from "lucide-react/dist/esm/icons/plus.mjs";\nexport const x = Plus;\n', "no-restricted-imports"],
+    ["a lucide-react type in a test", "tests/unit/x.test.ts", 'import type { LucideIcon } from "lucide-react";\nexport type X = LucideIcon;\n', "no-restricted-imports"],
   ])("refused: %s", async (_what, filePath, code, rule) => {
     expect(await ruleHits(filePath, code, rule)).toBe(true);
   });
@@ -66,6 +71,7 @@ describe("one way for each chore", () => {
   it.each([
     ["lib/errors.ts makes AppErrors", "lib/errors.ts", 'export class AppError extends Error {}\nexport const e = new AppError();\n', "no-restricted-syntax"],
     ["the client API module calls fetch", "components/api-client.ts", 'export const load = () => fetch("/api/pieces");\n', "no-restricted-globals"],
+    ["the sprite script reads lucide-react", "scripts/icon-sprite.ts", 'import { Plus } from "lucide-react";\nexport const x = Plus;\n', "no-restricted-imports"],
     ["tests make AppErrors", "tests/unit/x.test.ts", 'import { AppError } from "@/lib/errors";\nexport const e = new AppError(409, "conflict", "Taken.");\n', "no-restricted-syntax"],
   ])("allowed: %s", async (_what, filePath, code, rule) => {
     expect(await ruleHits(filePath, code, rule)).toBe(false);

@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { ChevronRight, Plus } from "lucide-react";
 import { TaskStatus } from "@/components/owner/task-status";
 import { ButtonLink } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { formatDate, relativeDays } from "@/lib/format";
@@ -20,7 +20,7 @@ export default async function OwnerPiecesPage() {
         lead="Everything you've registered, from every studio, with the next care each one needs."
         actions={
           <ButtonLink href="/register" variant="secondary">
-            <Plus aria-hidden className="size-4" />
+            <SpriteIcon name="plus" className="size-4" />
             Register a piece
           </ButtonLink>
         }
@@ -42,7 +42,7 @@ export default async function OwnerPiecesPage() {
                       {p.kindLabel} · {p.studioName} · delivered {formatDate(p.deliveredOn, { short: true })}
                     </p>
                   </div>
-                  <ChevronRight aria-hidden className="mt-1 size-5 shrink-0 text-muted" />
+                  <SpriteIcon name="chevron-right" className="mt-1 size-5 shrink-0 text-muted" />
                 </div>
                 {p.nextTask ? (
                   <div className="mt-3 flex flex-wrap items-center gap-x-2 gap-y-1 border-t border-line pt-3 text-sm">

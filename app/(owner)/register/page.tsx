@@ -1,10 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { Search } from "lucide-react";
 import { Button } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { clientIp, getCurrentSession } from "@/lib/auth/session";
 import { lookupCard } from "@/lib/owner/registration";
 import { CardConfirm } from "../../(public)/r/card-confirm";
@@ -58,7 +58,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
             hint="13 symbols from the card in the drawer. Capitals, spaces and dashes don't matter."
           />
           <Button type="submit" className="w-full">
-            <Search aria-hidden className="size-4" />
+            <SpriteIcon name="search" className="size-4" />
             Find the piece
           </Button>
         </form>

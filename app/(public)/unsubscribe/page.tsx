@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
-import { BellOff, BellRing } from "lucide-react";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { isAppError } from "@/lib/errors";
 import { reminderPreferencesByToken } from "@/lib/reminders/unsubscribe";
 import { setRemindersAction } from "./actions";
@@ -34,7 +34,7 @@ export default async function UnsubscribePage({ searchParams }: { searchParams: 
           {done === "off" ? <Notice tone="ok" title="Unsubscribed">No more care reminders or refresh offers will be sent to {prefs.email}.</Notice> : null}
           {done === "on" ? <Notice tone="ok" title="Reminders are back on">Care reminders will be sent to {prefs.email} again.</Notice> : null}
           <p className="flex items-center gap-2">
-            {prefs.remindersEnabled ? <BellRing aria-hidden className="size-5 text-resin" /> : <BellOff aria-hidden className="size-5 text-muted" />}
+            {prefs.remindersEnabled ? <SpriteIcon name="bell-ring" className="size-5 text-resin" /> : <SpriteIcon name="bell-off" className="size-5 text-muted" />}
             <span>
               Care reminders for <strong>{prefs.email}</strong> are <strong>{prefs.remindersEnabled ? "on" : "off"}</strong>.
             </span>

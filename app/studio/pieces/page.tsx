@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
 import { Suspense } from "react";
-import { Plus, Upload } from "lucide-react";
 import { RegistryTable } from "@/components/pieces/registry-table";
 import { ButtonLink } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/card";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 
@@ -19,10 +19,10 @@ export default async function StudioPiecesPage() {
         actions={
           <>
             <ButtonLink href="/studio/pieces/new">
-              <Plus aria-hidden className="size-4" /> New piece
+              <SpriteIcon name="plus" className="size-4" /> New piece
             </ButtonLink>
             <ButtonLink href="/studio/pieces/import" variant="secondary">
-              <Upload aria-hidden className="size-4" /> Import CSV
+              <SpriteIcon name="upload" className="size-4" /> Import CSV
             </ButtonLink>
           </>
         }

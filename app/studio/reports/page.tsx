@@ -1,4 +1,3 @@
-import { Download } from "lucide-react";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { OverviewBarChart } from "@/components/overview/bar-chart";
@@ -8,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
@@ -45,7 +45,7 @@ export default async function ReportsPage({ searchParams }: { searchParams: Sear
         actions={
           // A plain link: a file download is not a page for the router to prefetch.
           <a href={csvHref} download className="inline-flex min-h-11 items-center justify-center gap-2 rounded-lg border border-line bg-card px-4 py-2 text-sm font-semibold text-ink hover:border-resin hover:text-resin">
-            <Download aria-hidden className="size-4" /> Download CSV
+            <SpriteIcon name="download" className="size-4" /> Download CSV
           </a>
         }
       />

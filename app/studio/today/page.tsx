@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { ChevronLeft, ChevronRight, Clock, MapPin, PackageCheck, Phone, TriangleAlert } from "lucide-react";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { StatusBadge } from "@/components/ui/status";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import { VisitReportForm } from "@/components/visits/visit-report-form";
@@ -32,7 +32,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
       <PageHeader title={day.date === day.today ? "My day" : "Visits"} lead={dayTitle(day.date)} />
       <nav aria-label="Day" className="mb-5 flex items-center justify-between gap-2">
         <Link href={nav(addDays(day.date, -1))} className="inline-flex min-h-11 items-center gap-1 rounded-lg border border-line bg-card px-3 text-sm font-semibold">
-          <ChevronLeft aria-hidden className="size-4" /> Previous day
+          <SpriteIcon name="chevron-left" className="size-4" /> Previous day
         </Link>
         {day.date !== day.today ? (
           <Link href={nav(day.today)} className="inline-flex min-h-11 items-center px-2 text-sm font-semibold text-resin underline">
@@ -40,7 +40,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
           </Link>
         ) : null}
         <Link href={nav(addDays(day.date, 1))} className="inline-flex min-h-11 items-center gap-1 rounded-lg border border-line bg-card px-3 text-sm font-semibold">
-          Next day <ChevronRight aria-hidden className="size-4" />
+          Next day <SpriteIcon name="chevron-right" className="size-4" />
         </Link>
       </nav>
       {day.items.length === 0 ? (
@@ -58,7 +58,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                   <div className="flex flex-wrap items-start justify-between gap-2">
                     <div>
                       <p className="flex items-center gap-1.5 text-sm font-semibold text-resin">
-                        <Clock aria-hidden className="size-4" />
+                        <SpriteIcon name="clock" className="size-4" />
                         {i + 1}. {formatClock(Date.parse(item.visit.start), tz)}–{formatClock(Date.parse(item.visit.end), tz, { named: true })}
                       </p>
                       <h2 className="font-display text-xl font-semibold">{item.piece.title}</h2>
@@ -83,7 +83,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                     <StatusBadge label={item.visit.state === "done" ? "Report filed" : "To do"} tone={item.visit.state === "done" ? "ok" : "progress"} />
                   </div>
                   <p className="flex gap-2 break-words">
-                    <MapPin aria-hidden className="mt-0.5 size-5 shrink-0 text-resin" />
+                    <SpriteIcon name="map-pin" className="mt-0.5 size-5 shrink-0 text-resin" />
                     <span>
                       <span className="font-semibold">{item.visit.locationKind === "studio" ? "At the studio: " : ""}</span>
                       <a href={item.visit.mapsUrl} className="text-resin underline" target="_blank" rel="noopener noreferrer">
@@ -94,7 +94,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                   </p>
                   {item.ownerName ? (
                     <p className="flex flex-wrap items-center gap-x-2 gap-y-1">
-                      <Phone aria-hidden className="size-5 shrink-0 text-resin" />
+                      <SpriteIcon name="phone" className="size-5 shrink-0 text-resin" />
                       <span className="font-semibold">{item.ownerName}</span>
                       {item.ownerPhone ? (
                         <a href={`tel:${item.ownerPhone.tel}`} className="inline-flex min-h-11 items-center text-resin underline" aria-label={`Call ${item.ownerName}, ${item.ownerPhone.display}`}>
@@ -130,7 +130,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
 
                   <section className="space-y-2">
                     <h3 className="flex items-center gap-1.5 font-semibold">
-                      <PackageCheck aria-hidden className="size-5" /> What to bring
+                      <SpriteIcon name="package-check" className="size-5" /> What to bring
                     </h3>
                     {item.bring.length ? (
                       <ul className="space-y-1 text-sm">
@@ -151,7 +151,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
 
                   <section className="space-y-2">
                     <h3 className="flex items-center gap-1.5 font-semibold">
-                      <TriangleAlert aria-hidden className="size-5 text-warn" /> Cautions
+                      <SpriteIcon name="triangle-alert" className="size-5 text-warn" /> Cautions
                     </h3>
                     <ul className="list-disc space-y-1 pl-5 text-sm">
                       {item.cautions.map((c) => (

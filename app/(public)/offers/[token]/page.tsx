@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
-import { CalendarCheck, CircleSlash, Hourglass } from "lucide-react";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
+import type { SpriteIconName } from "@/components/ui/sprite-names";
 import { isAppError } from "@/lib/errors";
 import { getOfferByToken } from "@/lib/reminders/offers";
 import { acceptOfferAction } from "./actions";
@@ -10,12 +11,12 @@ import { acceptOfferAction } from "./actions";
 export const metadata: Metadata = { title: "Refresh visit offer", robots: { index: false } };
 export const dynamic = "force-dynamic";
 
-const STATE = {
-  offered: { Icon: Hourglass, word: "Open" },
-  accepted: { Icon: CalendarCheck, word: "Accepted" },
-  declined: { Icon: CircleSlash, word: "Declined" },
-  expired: { Icon: CircleSlash, word: "No longer open" },
-} as const;
+const STATE: Record<"offered" | "accepted" | "declined" | "expired", { icon: SpriteIconName; word: string }> = {
+  offered: { icon: "hourglass", word: "Open" },
+  accepted: { icon: "calendar-check", word: "Accepted" },
+  declined: { icon: "circle-slash", word: "Declined" },
+  expired: { icon: "circle-slash", word: "No longer open" },
+};
 
 function load(token: string) {
   try {
@@ -38,7 +39,7 @@ export default async function OfferPage({ params, searchParams }: { params: Prom
       </div>
     );
   }
-  const { Icon, word } = STATE[offer.status];
+  const { icon, word } = STATE[offer.status];
   return (
     <div className="mx-auto max-w-xl space-y-4 px-4 py-10 sm:py-16">
       <h1 className="font-display text-3xl font-semibold tracking-tight">Refresh visit offer</h1>
@@ -50,7 +51,7 @@ export default async function OfferPage({ params, searchParams }: { params: Prom
       ) : null}
       <Card className="space-y-3">
         <p className="flex items-center gap-2 text-sm font-medium">
-          <Icon aria-hidden className="size-4" /> {word}
+          <SpriteIcon name={icon} className="size-4" /> {word}
         </p>
         <p>
           {offer.studioName} offers to do the <strong>{offer.taskLabel.toLowerCase()}</strong> of your <strong>{offer.pieceTitle}</strong> at your home,

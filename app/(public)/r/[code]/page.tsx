@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
-import { KeyRound } from "lucide-react";
 import { ButtonLink } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { clientIp, getCurrentSession } from "@/lib/auth/session";
 import { lookupCard } from "@/lib/owner/registration";
 import { CardConfirm } from "../card-confirm";
@@ -32,7 +32,7 @@ export default async function CardLandingPage({ params }: { params: Promise<{ co
             {card.message}
           </Notice>
           <ButtonLink href={`/register?code=${encodeURIComponent(card.code)}`} variant="secondary" className="w-full">
-            <KeyRound aria-hidden className="size-4" />
+            <SpriteIcon name="key-round" className="size-4" />
             Type the code from the card
           </ButtonLink>
         </Card>

@@ -1,5 +1,4 @@
 import type { Metadata } from "next";
-import { Pencil } from "lucide-react";
 import Link from "next/link";
 import { FinishStackEditor } from "@/components/pieces/finish-stack-editor";
 import { formatAreaBoth, formatDate, formatInstant, formatLargeVolume, formatLengthBoth } from "@/lib/format";
@@ -10,6 +9,7 @@ import { ButtonLink } from "@/components/ui/button";
 import { HandoverCard } from "@/components/clients/handover-card";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
+import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import { requireStaff, requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
@@ -62,7 +62,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
         lead={`${PIECE_KIND_LABELS[p.kind]} · delivered ${formatDate(p.deliveredOn)}${p.archivedAt ? " · archived" : ""}`}
         actions={
           <ButtonLink href={`/studio/pieces/${p.id}/edit`} variant="secondary">
-            <Pencil aria-hidden className="size-4" /> Edit record
+            <SpriteIcon name="pencil" className="size-4" /> Edit record
           </ButtonLink>
         }
       />
