@@ -49,6 +49,12 @@ export function canViewFile(userId: string, file: Pick<StoredFile, "purpose" | "
 export async function getFileForViewer(userId: string, fileId: string, { thumb = false } = {}): Promise<{ data: Buffer; contentType: string; etag: string }> {
   const file = getDb().select().from(files).where(eq(files.id, fileId)).get();
   if (!file || !canViewFile(userId, file)) throw notFound("No such file.");
-  const data = await readStoredFile(thumb ? file.thumbKey : file.storageKey);
+  const data = await readStoredFile(thumb ? file.thumbKey : file.storageKey).catch((e: unknown) => {
+    // The row outlived its bytes (a restore without the data folder, or an erasure between the read of
+    // the row and the file): the viewer gets a 404 that says so, the operator the error in the log.
+    if ((e as NodeJS.ErrnoException).code !== "ENOENT") throw e;
+    console.error(`stored file ${file.id} is missing from DATA_DIR`, e);
+    throw notFound("This photo is no longer stored.");
+  });
   return { data, contentType: file.contentType, etag: `"${file.id}${thumb ? "-t" : ""}"` };
 }

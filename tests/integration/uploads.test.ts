@@ -11,8 +11,9 @@ import { files } from "@/db/schema";
 import { addClaimPhoto, removeClaimPhoto } from "@/lib/claims/photos";
 import { getClaim } from "@/lib/claims/view-claim";
 import { AppError } from "@/lib/errors";
+import { getFileForViewer } from "@/lib/files/access";
 import { MAX_UPLOAD_REQUEST_BYTES, readUpload } from "@/lib/files/upload";
-import { MAX_INPUT_PIXELS, MAX_UPLOAD_BYTES, readStoredFile, storeImage } from "@/lib/storage";
+import { MAX_INPUT_PIXELS, MAX_UPLOAD_BYTES, readStoredFile, removeStoredFiles, storeImage } from "@/lib/storage";
 import { IMAGE_QUEUE } from "@/lib/storage/image-queue";
 import { claimWorld, fileClaim, forceState, hugeBlankPng, photoJpeg } from "./claims-helpers";
 
@@ -176,6 +177,18 @@ describe("claim photo uploads: accepted photos are cleaned", () => {
     const thumb = await sharp(await readStoredFile(row.thumbKey)).metadata();
     expect(Math.max(thumb.width!, thumb.height!)).toBeLessThanOrEqual(480);
     expect(getClaim(w.staff, claim.id).photos.map((p) => p.id)).toEqual([photo.id]);
+  });
+
+  it("a photo whose stored file is gone answers 404 with words, not a 500; its thumbnail still serves", async () => {
+    const { result, w } = await uploadVia(multipart(await photoJpeg(), "crack.jpg"));
+    const photo = await result;
+    const row = getDb().select().from(files).all().find((f) => f.id === photo.id)!;
+    expect((await getFileForViewer(w.owner.id, photo.id)).data.byteLength).toBeGreaterThan(100);
+    await removeStoredFiles(row.storageKey);
+    const e = await caught(getFileForViewer(w.owner.id, photo.id));
+    expect(e.status).toBe(404);
+    expect(e.message).toBe("This photo is no longer stored.");
+    expect((await getFileForViewer(w.owner.id, photo.id, { thumb: true })).contentType).toBe("image/jpeg");
   });
 
   it("rotates by the EXIF orientation before dropping it", async () => {
