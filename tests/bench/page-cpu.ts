@@ -1,13 +1,15 @@
 // Server CPU per request (user + system time of the `next start` process, from /proc), for GET /api/me and
-// the owner's piece page, plus any paths given as arguments (PIECE stands for the benched piece's id),
-// requested as that piece's owner, or as the studio's staff member when prefixed `staff:`:
+// the owner's piece page; in a benchmark build (GRAINWARD_BENCH_BUILD=1 npx next build) also the blank page,
+// signed out (app/bench/blank/page.bench.ts: what any page of the build costs before its content); plus any
+// paths given as arguments (PIECE stands for the benched piece's id), requested as that piece's owner, or as
+// the studio's staff member when prefixed `staff:`:
 //   npx tsx tests/bench/page-cpu.ts /pieces/PIECE/log
 // CLIENTS=20000 adds the clients seed of tests/bench/clients.bench.ts (tests/bench/seed-clients.ts) first:
 //   CLIENTS=20000 npx tsx tests/bench/page-cpu.ts staff:/api/clients?q=Thornwick staff:/api/clients?q=burl
 // Needs a production build in .next (`npx next build`). Requests go one at a time, without compression (as
 // autocannon sends them), in alternating rounds so that every path sees the same load from the rest of the
-// machine; each round's figure is printed, and the lowest, which is the least disturbed. On a shared machine
-// compare paths of the same run only. Not a *.bench.ts file: `npm run bench` does not run it.
+// machine; each round's figure is printed, and the lowest (the least disturbed) and the median. On a shared
+// machine compare paths of the same run only. Not a *.bench.ts file: `npm run bench` does not run it.
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -37,15 +39,17 @@ if (CLIENTS) seedClients(dbFile, seeded.studioId, seeded.staffUserId, CLIENTS);
 const staff = sessionCookie(dbFile, seeded.staffUserId);
 const owner = sessionCookie(dbFile, piece.ownerId);
 const server = await startServer(dbFile, dir);
+const blank = await fetch(`${server.base}/bench/blank`).then((r) => r.status === 200, () => false);
 const paths: [string, string][] = [
   ["/api/me", staff],
   [`/pieces/${piece.id}`, owner],
+  ...(blank ? ([["/bench/blank", ""]] as [string, string][]) : []),
   ...process.argv.slice(2).map((p): [string, string] => (p.startsWith("staff:") ? [p.slice("staff:".length), staff] : [p.replace("PIECE", piece.id), owner])),
 ];
 
 async function run(url: string, cookie: string, n: number): Promise<void> {
   for (let i = 0; i < n; i++) {
-    const res = await fetch(server.base + url, { headers: { cookie, "accept-encoding": "identity" }, redirect: "manual" });
+    const res = await fetch(server.base + url, { headers: { ...(cookie ? { cookie } : {}), "accept-encoding": "identity" }, redirect: "manual" });
     await res.arrayBuffer();
     if (i === 0 && res.status !== 200) console.log(`${url} answered ${res.status}`);
   }
@@ -61,7 +65,8 @@ try {
       perRound.set(url, [...(perRound.get(url) ?? []), (cpuMs(server.pid) - before) / N]);
     }
   }
-  for (const [url, ms] of perRound) console.log(`${url.padEnd(52)} ${ms.map((x) => x.toFixed(2)).join("  ")}   lowest ${Math.min(...ms).toFixed(2)} ms CPU a request`);
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor((xs.length - 1) / 2)]!;
+  for (const [url, ms] of perRound) console.log(`${url.padEnd(52)} ${ms.map((x) => x.toFixed(2)).join("  ")}   lowest ${Math.min(...ms).toFixed(2)}, median ${median(ms).toFixed(2)} ms CPU a request`);
 } finally {
   await server.stop();
   fs.rmSync(dir, { recursive: true, force: true });
