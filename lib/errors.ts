@@ -1,6 +1,8 @@
 // Errors that lib/ raises for a person to act on. Route handlers and server actions turn them into
 // answers (lib/http/route.ts, lib/http/action.ts); anything else is a bug and a 500.
 
+import { formatRetryWait } from "@/lib/format/dates";
+
 export type FieldErrors = Record<string, string[]>;
 
 // Build these with the constructors below (one per status), never with `new AppError` elsewhere:
@@ -43,7 +45,7 @@ export const tooManyRequests = (retryAfterSec: number, message?: string) =>
   new AppError(
     429,
     "rate_limited",
-    message ?? `Too many attempts. Try again in ${formatWait(retryAfterSec)}.`,
+    message ?? `Too many attempts. Try again in ${formatRetryWait(retryAfterSec)}.`,
     undefined,
     retryAfterSec,
   );
@@ -58,11 +60,6 @@ export const rephrased = (e: AppError, message: string, fieldErrors: FieldErrors
 function formatSize(bytes: number): string {
   const mb = bytes / (1024 * 1024);
   return mb >= 1 ? `${Math.floor(mb)} MB` : `${Math.max(1, Math.floor(bytes / 1024))} KB`;
-}
-
-function formatWait(sec: number): string {
-  if (sec < 90) return `${Math.max(1, Math.ceil(sec))} seconds`;
-  return `${Math.ceil(sec / 60)} minutes`;
 }
 
 export function isAppError(e: unknown): e is AppError {

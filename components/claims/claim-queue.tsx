@@ -7,12 +7,12 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
-import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF, formatWait } from "@/lib/claims/labels";
+import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
 import { apiJson } from "@/components/api-client";
 import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { StateBadge } from "./state-badge";
-import { formatCount } from "@/lib/format";
+import { formatCount, formatWait } from "@/lib/format";
 
 type Row = {
   id: string;

@@ -45,12 +45,3 @@ export const CLAIM_DECISION_LABELS: Record<ClaimDecision, string> = {
 export function decisionText(decision: ClaimDecision, coveredPct: number | null): string {
   return decision === "partly_covered" && coveredPct != null ? `Partly covered (${coveredPct} %)` : CLAIM_DECISION_LABELS[decision];
 }
-
-/** "3 h", "2 d 4 h", "12 d" — for the time a claim has waited. */
-export function formatWait(ms: number): string {
-  const h = Math.max(0, Math.floor(ms / 3_600_000));
-  if (h < 1) return `${Math.max(0, Math.floor(ms / 60_000))} min`;
-  if (h < 48) return `${h} h`;
-  const d = Math.floor(h / 24);
-  return d < 10 ? `${d} d ${h % 24} h` : `${d} d`;
-}

@@ -129,6 +129,21 @@ export function relativeDays(days: number): string {
   return ago < 60 ? `${ago} days ago` : `about ${Math.round(ago / 30.44)} months ago`;
 }
 
+/** How long something has waited, short for lists: "40 min", "3 h", "2 d 4 h", "4 d", "12 d". */
+export function formatWait(ms: number): string {
+  const h = Math.max(0, Math.floor(ms / 3_600_000));
+  if (h < 1) return `${Math.max(0, Math.floor(ms / 60_000))} min`;
+  if (h < 48) return `${h} h`;
+  const d = Math.floor(h / 24);
+  return d < 10 && h % 24 ? `${d} d ${h % 24} h` : `${d} d`;
+}
+
+/** When to try again, in a sentence: "1 second", "20 seconds", "3 minutes". */
+export function formatRetryWait(sec: number): string {
+  const [n, unit] = sec < 90 ? [Math.max(1, Math.ceil(sec)), "second"] : [Math.ceil(sec / 60), "minute"];
+  return `${n} ${unit}${n === 1 ? "" : "s"}`;
+}
+
 /** Time left on a warranty line: "1 year 3 months", "24 days", or "ended". */
 export function formatTimeLeft(days: number): string {
   if (days < 0) return "ended";

@@ -14,7 +14,9 @@ import {
   formatMoney,
   formatMonth,
   formatPercentBp,
+  formatRetryWait,
   formatVisitWhen,
+  formatWait,
   formatZone,
   isTimeZone,
   moneyLocale,
@@ -118,6 +120,24 @@ describe("today and tomorrow by the reader's own calendar", () => {
     expect(visitDayWord(nine, Date.parse("2026-12-03T13:42:00Z"), "America/New_York")).toBe("today"); // 08:42 that day
     expect(visitDayWord(nine, Date.parse("2026-12-02T14:30:00Z"), "America/New_York")).toBe("tomorrow"); // 09:30 the day before: under 24 h
     expect(visitDayWord(nine, Date.parse("2026-12-01T23:00:00Z"), "America/New_York")).toBe("on Thursday, 3 December 2026");
+  });
+});
+
+describe("waits (house style, no published source)", () => {
+  const H = 3_600_000;
+  it("short for lists: minutes, then hours to two days, then days and hours, then days", () => {
+    expect(formatWait(-5_000)).toBe("0 min");
+    expect(formatWait(40 * 60_000)).toBe("40 min");
+    expect(formatWait(3 * H + 59 * 60_000)).toBe("3 h");
+    expect(formatWait(47 * H)).toBe("47 h");
+    expect(formatWait(52 * H)).toBe("2 d 4 h");
+    expect(formatWait(96 * H + 30 * 60_000)).toBe("4 d"); // no "4 d 0 h"
+    expect(formatWait(12 * 24 * H + 5 * H)).toBe("12 d");
+  });
+  it("when to try again, in a sentence", () => {
+    expect(formatRetryWait(0.2)).toBe("1 second");
+    expect(formatRetryWait(20)).toBe("20 seconds");
+    expect(formatRetryWait(150)).toBe("3 minutes");
   });
 });
 

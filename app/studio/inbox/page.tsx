@@ -6,10 +6,9 @@ import { cn } from "@/components/ui/cn";
 import { StatusBadge } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatWait } from "@/lib/claims/labels";
 import { listInbox } from "@/lib/messages/service";
 import { ABOUT_LABELS, THREAD_STATE_WORDS, UNMATCHED_WORDS } from "@/lib/messages/words";
-import { formatInstant } from "@/lib/format";
+import { formatInstant, formatWait } from "@/lib/format";
 import { INBOX_VIEWS, inboxQuerySchema } from "@/lib/validation/messages";
 
 export const metadata: Metadata = { title: "Inbox" };

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { CoveragePanel } from "@/components/claims/coverage-panel";
 import { CreateRepairJobButton } from "@/components/claims/create-job-button";
 import { MessageThread } from "@/components/claims/message-thread";
-import { formatDate, formatInstant, formatSize, formatThickness, type TopShape, type UnitSystem } from "@/lib/format";
+import { formatDate, formatInstant, formatSize, formatThickness, type TopShape, type UnitSystem, formatWait } from "@/lib/format";
 import { PhotoGallery } from "@/components/claims/photo-gallery";
 import { DecisionForm, ReviewButton } from "@/components/claims/staff-actions";
 import { StateBadge } from "@/components/claims/state-badge";
@@ -14,7 +14,7 @@ import { forPage } from "@/lib/auth/page";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, SURFACE_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { getSpecies } from "@/lib/care/species";
 import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
-import { CLAIM_CATEGORY_LABELS, decisionText, formatWait } from "@/lib/claims/labels";
+import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import { getStaffClaim } from "@/lib/claims/view-claim";
 import { clientIdForOwner } from "@/lib/clients/get";
 

@@ -8,10 +8,9 @@ import { Card } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatWait } from "@/lib/claims/labels";
 import { getThread } from "@/lib/messages/service";
 import { ABOUT_LABELS, THREAD_STATE_WORDS } from "@/lib/messages/words";
-import { formatInstant } from "@/lib/format";
+import { formatInstant, formatWait } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Conversation" };
 export const dynamic = "force-dynamic";
