@@ -32,7 +32,12 @@ export function formatMoney(minor: number, currency: string, country = "US"): st
 
 /** "8.25 %" from basis points (a tax rate), trailing zeros dropped: 2000 → "20 %". */
 export function formatPercentBp(bp: number): string {
-  return `${(bp / 100).toFixed(2).replace(/\.?0+$/, "") || "0"} %`;
+  return `${formatBasisPoints(bp)} %`;
+}
+
+/** Basis points as the percent a form field holds: 725 → "7.25", 1000 → "10", 0 → "0". */
+export function formatBasisPoints(bp: number): string {
+  return (bp / 100).toFixed(2).replace(/\.?0+$/, "") || "0";
 }
 
 /** A count in running text: "12,345". */

@@ -10,7 +10,7 @@ import { assertRole, type StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { CURRENCY_EXPONENTS, formatMinorUnits } from "@/lib/care/quote";
 import { CLAIM_CATEGORIES, REMINDER_STEPS, type ReminderStep } from "@/lib/care/vocabulary";
-import { formatDate } from "@/lib/format";
+import { formatBasisPoints, formatDate } from "@/lib/format";
 import { badRequest, unprocessable } from "@/lib/errors";
 import type {
   ProfileInput,
@@ -44,11 +44,6 @@ export function toMinorUnits(amount: string, currency: string): number {
 export function toBasisPoints(pct: string): number {
   const [whole = "0", frac = ""] = pct.split(".");
   return Number(whole) * 100 + Number(frac.padEnd(2, "0").slice(0, 2));
-}
-
-export function formatBasisPoints(bp: number): string {
-  const s = (bp / 100).toFixed(2);
-  return s.replace(/\.?0+$/, "") || "0";
 }
 
 export function freshStudio(ctx: StudioContext): Studio {

@@ -8,6 +8,7 @@ import path from "node:path";
 import { ESLint } from "eslint";
 import { describe, expect, it } from "vitest";
 import {
+  formatBasisPoints,
   formatCount,
   formatDate,
   formatInstant,
@@ -60,6 +61,7 @@ describe("money from minor units", () => {
   it("writes rates and counts", () => {
     expect(formatPercentBp(825)).toBe("8.25 %");
     expect(formatPercentBp(2000)).toBe("20 %");
+    expect([formatBasisPoints(725), formatBasisPoints(1000), formatBasisPoints(0), formatBasisPoints(5)]).toEqual(["7.25", "10", "0", "0.05"]); // a form field's value
     expect(formatPercentBp(0)).toBe("0 %");
     expect(formatCount(12345)).toBe("12,345");
   });
