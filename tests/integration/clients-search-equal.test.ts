@@ -62,8 +62,25 @@ function expectSameAsReference(ctx: StudioContext, q: string, pages: number[], w
           const label = `q=${q} filter=${filter} sort=${sort} dir=${dir} page=${page}`;
           expect(got.rows.map((r) => r.id), label).toEqual(all.slice((page - 1) * 50, page * 50));
           expect({ total: got.total, totalIsCapped: got.totalIsCapped }, label).toEqual({ total: Math.min(all.length, 500), totalIsCapped: all.length > 500 });
+          expect(
+            got.rows.map((r) => [r.id, r.pieces, r.unregistered, r.openClaims]),
+            label,
+          ).toEqual(got.rows.map((r) => [r.id, ...referenceCounts(r.id)]));
         }
       }
+}
+
+/** A listed client's counts as the list defines them: pieces not archived, of those the ones nobody registered, open claims of their account in the studio. */
+function referenceCounts(clientId: string): [number, number, number] {
+  const row = getDb()
+    .$client.prepare(
+      `SELECT (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL) AS pieces,
+        (SELECT count(*) FROM pieces p WHERE p.client_id = c.id AND p.archived_at IS NULL AND p.owner_id IS NULL) AS unregistered,
+        (SELECT count(*) FROM claims k WHERE c.user_id IS NOT NULL AND k.owner_id = c.user_id AND k.studio_id = c.studio_id AND k.state IN (${OPEN})) AS openClaims
+      FROM clients c WHERE c.id = ?`,
+    )
+    .get(clientId) as { pieces: number; unregistered: number; openClaims: number };
+  return [row.pieces, row.unregistered, row.openClaims];
 }
 
 describe("clients list search equals a plain reference query", () => {
@@ -115,6 +132,51 @@ describe("clients list search equals a plain reference query", () => {
     many();
     expectSameAsReference(admin, "quillon", [1, 2, 10, 11, 12]);
     expectSameAsReference(admin, "invented", [1, 11]);
+  }, 120_000);
+
+  it("a title word of more than 500 clients: counted from its title matches alone only when those pass the cap in the studio, with the filter and every word", async () => {
+    // lib/clients/list.ts counts a search's title matches alone first (titlesPassCap) and, when more than
+    // 500 of the studio's clients pass the filter that way, says "more than 500" without merging the other
+    // indexes' matches. Here exactly 500 of the studio's clients have a "Gimlet" title, another studio has
+    // more, a few have accounts, some pieces are registered, paused or archived, and a second word is rare.
+    const studio = createStudio({ timeZone: "America/Los_Angeles", country: "US", currency: "USD" });
+    const admin = await memberContext(studio, "admin");
+    const raw = getDb().$client;
+    const owner = await createUser();
+    const other = createStudio({ country: "US" });
+    const templates = new Map([studio, other].map((s) => [s.id, createPiece(s, { title: "Template (invented)" }).piece.id]));
+    const columns = (raw.pragma("table_info(pieces)") as { name: string }[]).map((c) => c.name);
+    const fresh: Record<string, string> = { id: "@id", title: "@title", client_id: "@clientId", owner_id: "@ownerId", reminders_paused: "@paused", archived_at: "@archivedAt", registration_code_hash: "lower(hex(randomblob(16)))" };
+    const copy = raw.prepare(`INSERT INTO pieces (${columns.join(", ")}) SELECT ${columns.map((c) => fresh[c] ?? c).join(", ")} FROM pieces WHERE id = @template`);
+    const copyPiece = (studioId: string, clientId: string, title: string, ownerId: string | null, paused: number, archivedAt: number | null) =>
+      copy.run({ id: randomUUID(), title, clientId, ownerId, paused, archivedAt, template: templates.get(studioId) });
+    const insert = raw.prepare("INSERT INTO clients (id, studio_id, name, email, phone, user_id, created_at, updated_at) VALUES (?, ?, ?, NULL, NULL, ?, ?, ?)");
+    const accounts = [owner, await createUser(), await createUser({ remindersEnabled: false })];
+    const base = Date.UTC(2026, 0, 1);
+    const addGimlet = (studioId: string, i: number) => {
+      const id = randomUUID();
+      const account = studioId === studio.id && i % 150 === 7 && i < 450 ? accounts[Math.floor(i / 150)]!.id : null;
+      insert.run(id, studioId, `Patron ${String((i * 37) % 503).padStart(3, "0")} (invented)`, account, base + (i % 13) * 1000, base + (i % 17) * 1000);
+      const title = i % 50 === 3 ? "Gimlet zebrawood stool (invented)" : "Gimlet oak stool (invented)";
+      copyPiece(studioId, id, title, i % 7 === 0 ? owner.id : null, i % 11 === 0 ? 1 : 0, i % 13 === 5 ? base : null);
+      if (i % 4 === 0) copyPiece(studioId, id, "Ash bench (invented)", null, 0, null);
+      return id;
+    };
+    raw.transaction(() => {
+      for (let i = 0; i < 500; i++) addGimlet(studio.id, i);
+      for (let i = 0; i < 8; i++) addGimlet(other.id, i);
+    })();
+    const first = raw.prepare("SELECT id FROM clients WHERE studio_id = ? AND user_id = ?").pluck().get(studio.id, owner.id) as string;
+    getDb()
+      .insert(claims)
+      .values({ studioId: studio.id, pieceId: raw.prepare("SELECT id FROM pieces WHERE client_id = ?").pluck().get(first) as string, ownerId: owner.id, category: "finish_wear", noticedOn: "2026-10-01", description: "Rings (invented test claim).", answers: {}, state: "submitted" })
+      .run();
+
+    // 500 in the studio (the other studio's 8 not counted): exact, not capped; the rare word with it, few.
+    for (const q of ["gimlet", "zebrawood gimlet"]) expectSameAsReference(admin, q, [1, 2]);
+    // One more: past the cap by the title matches alone, the filters (a few with an account, some paused) under it.
+    raw.transaction(() => addGimlet(studio.id, 500))();
+    for (const q of ["gimlet", "GIMLET oak", "gimlet zebrawood", "gimlet patron"]) expectSameAsReference(admin, q, [1, 2, 4, 11]);
   }, 120_000);
 
   it("a client written through another connection is found by the next search, and its old words no longer find it", async () => {
