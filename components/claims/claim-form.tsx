@@ -120,6 +120,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
       </h2>
       <PhotoPicker
         count={queue.items.length}
+        refused={queue.refused}
         disabled={busy}
         onFiles={(f) => {
           setPhotoError(null);

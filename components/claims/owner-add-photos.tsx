@@ -12,6 +12,7 @@ export function OwnerAddPhotos({ claimId, existing }: { claimId: string; existin
     <div className="space-y-3">
       <PhotoPicker
         count={existing + pending.length}
+        refused={queue.refused}
         onFiles={async (files) => {
           const added = queue.add(files);
           let any = false;

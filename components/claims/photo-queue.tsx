@@ -72,6 +72,9 @@ export async function clearDraftPhotos(draftKey: string) {
 export function usePhotoQueue(draftKey: string) {
   const [items, setItems] = useState<QueueItem[]>([]);
   const [loaded, setLoaded] = useState(false);
+  // Why the last pick left files out, shown under the picker until the next pick (a toast at the bottom
+  // of a phone's screen would cover the form's send button while it showed).
+  const [refused, setRefused] = useState<string[]>([]);
   const itemsRef = useRef(items);
   useEffect(() => {
     itemsRef.current = items;
@@ -96,12 +99,13 @@ export function usePhotoQueue(draftKey: string) {
     (files: FileList | File[]) => {
       const list = Array.from(files);
       const room = MAX_PHOTOS - itemsRef.current.length;
-      if (list.length > room) toast.error(`A claim holds at most ${MAX_PHOTOS} photos; ${room <= 0 ? "remove one first" : `only the first ${room} were added`}.`);
+      const problems: string[] = [];
+      if (list.length > room) problems.push(`A claim holds at most ${MAX_PHOTOS} photos; ${room <= 0 ? "remove one first" : `only the first ${room} were added`}.`);
       const added: QueueItem[] = [];
       for (const file of list.slice(0, Math.max(0, room))) {
         const problem = photoProblem(file);
         if (problem) {
-          toast.error(problem, { duration: 12_000 });
+          problems.push(problem);
           continue;
         }
         const key = `${draftKey}:${crypto.randomUUID()}`;
@@ -109,6 +113,7 @@ export function usePhotoQueue(draftKey: string) {
         void idbSafe(() => idb("readwrite", (s) => s.put({ key, draftKey, name: file.name, blob: file, order: Date.now() + added.length } satisfies StoredPhoto)));
       }
       setItems((cur) => [...cur, ...added]);
+      setRefused(problems);
       return added;
     },
     [draftKey],
@@ -169,10 +174,10 @@ export function usePhotoQueue(draftKey: string) {
     [],
   );
 
-  return { items, loaded, add, uploadOne, uploadAll, remove, pruneDone };
+  return { items, loaded, refused, add, uploadOne, uploadAll, remove, pruneDone };
 }
 
-export function PhotoPicker({ onFiles, disabled, count }: { onFiles: (f: FileList) => void; disabled?: boolean; count: number }) {
+export function PhotoPicker({ onFiles, disabled, count, refused = [] }: { onFiles: (f: FileList) => void; disabled?: boolean; count: number; refused?: string[] }) {
   const ref = useRef<HTMLInputElement>(null);
   return (
     <div className="space-y-1.5">
@@ -194,6 +199,13 @@ export function PhotoPicker({ onFiles, disabled, count }: { onFiles: (f: FileLis
         <SpriteIcon name="image-plus" className="size-5" /> Add photos ({count} of {MAX_PHOTOS})
       </Button>
       <p className="text-sm text-muted">JPEG, PNG or WebP, up to 15 MB each. One close-up and one of the whole piece help most.</p>
+      {refused.length ? (
+        <div role="alert" className="space-y-1 text-sm font-medium text-danger">
+          {refused.map((r, i) => (
+            <p key={i}>{r}</p>
+          ))}
+        </div>
+      ) : null}
     </div>
   );
 }

@@ -51,7 +51,10 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   await expect(page.getByRole("progressbar")).toHaveCount(2);
   // A HEIC file is refused in the browser with how to send a JPEG.
   await page.locator("#claim-photos").setInputFiles({ name: "IMG_0042.HEIC", mimeType: "image/heic", buffer: Buffer.from("not really heic") });
-  await expect(page.getByText(/HEIC photo, which we can't read\. Send it as a JPEG/)).toBeVisible();
+  // Said under the picker, not in a toast: at the bottom of the screen a toast covered "Send the claim"
+  // (and kept it covered while the pointer rested on it).
+  await expect(page.getByRole("alert").filter({ hasText: /HEIC photo, which we can't read\. Send it as a JPEG/ })).toBeVisible();
+  await expect(page.locator("[data-sonner-toast]")).toHaveCount(0);
   await expect(page.getByRole("progressbar")).toHaveCount(2);
 
   // Slow the upload down so the progress bars have something to show.
