@@ -2,6 +2,7 @@
 // answers (lib/http/route.ts, lib/http/action.ts); anything else is a bug and a 500.
 
 import { formatRetryWait } from "@/lib/format/dates";
+import { formatBytes } from "@/lib/format/units";
 
 export type FieldErrors = Record<string, string[]>;
 
@@ -36,7 +37,7 @@ export const conflict = (message: string, opts: { code?: string; fieldErrors?: F
   new AppError(409, opts.code ?? "conflict", message, opts.fieldErrors, undefined, opts.extra);
 /** A request body over its route's limit (lib/http/body.ts); `limitBytes` is the limit a person can act on. */
 export const payloadTooLarge = (limitBytes: number) =>
-  new AppError(413, "payload_too_large", `That is too large: we take up to ${formatSize(limitBytes)} at a time. Send a smaller one.`);
+  new AppError(413, "payload_too_large", `That is too large: we take up to ${formatBytes(limitBytes)} at a time. Send a smaller one.`);
 /** A body or file of a kind this place does not take; the message says what to send instead. */
 export const unsupportedMediaType = (whatToSend: string) => new AppError(415, "unsupported_media_type", whatToSend);
 /** Well-formed input that cannot be used as it is (a damaged image, a date out of range); `code` names the case. */
@@ -56,11 +57,6 @@ export const serviceUnavailable = (code: string, message: string) => new AppErro
 /** The same error (status, code, wait) told in other words, e.g. with what the caller had already done. */
 export const rephrased = (e: AppError, message: string, fieldErrors: FieldErrors | undefined = e.fieldErrors) =>
   new AppError(e.status, e.code, message, fieldErrors, e.retryAfterSec, e.extra);
-
-function formatSize(bytes: number): string {
-  const mb = bytes / (1024 * 1024);
-  return mb >= 1 ? `${Math.floor(mb)} MB` : `${Math.max(1, Math.floor(bytes / 1024))} KB`;
-}
 
 export function isAppError(e: unknown): e is AppError {
   return e instanceof AppError;

@@ -113,3 +113,9 @@ export function formatSize(shape: TopShape, units: UnitSystem): string {
   if (shape.shapeKind === "measured" && shape.measuredAreaM2) return `Live-edge top, ${formatArea(shape.measuredAreaM2, units)} measured`;
   return "Size not recorded";
 }
+
+/** A size limit in a sentence, rounded down: "15 MB", "256 KB". */
+export function formatBytes(bytes: number): string {
+  const mb = bytes / (1024 * 1024);
+  return mb >= 1 ? `${Math.floor(mb)} MB` : `${Math.max(1, Math.floor(bytes / 1024))} KB`;
+}

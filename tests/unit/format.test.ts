@@ -9,6 +9,7 @@ import { ESLint } from "eslint";
 import { describe, expect, it } from "vitest";
 import {
   formatBasisPoints,
+  formatBytes,
   formatCount,
   formatDate,
   formatInstant,
@@ -140,6 +141,9 @@ describe("waits (house style, no published source)", () => {
     expect(formatRetryWait(0.2)).toBe("1 second");
     expect(formatRetryWait(20)).toBe("20 seconds");
     expect(formatRetryWait(150)).toBe("3 minutes");
+  });
+  it("size limits, rounded down", () => {
+    expect([formatBytes(15 * 1024 * 1024), formatBytes(256 * 1024), formatBytes(1_500_000), formatBytes(10)]).toEqual(["15 MB", "256 KB", "1 MB", "1 KB"]);
   });
 });
 
