@@ -37,7 +37,7 @@ export type CatalogRow = {
 };
 
 /** A price typed in the currency's major unit, kept in minor units. */
-function MoneyField({ label, currency, value, onChange, error }: { label: string; currency: string; value: number | undefined; onChange: (v: number) => void; error?: string }) {
+function MoneyField({ label, currency, value, onChange, error, ref }: { label: string; currency: string; value: number | undefined; onChange: (v: number) => void; error?: string; ref?: React.Ref<HTMLInputElement> }) {
   const exp = currencyDigits(currency);
   const id = useId();
   const [text, setText] = useState(value == null ? "" : (value / 10 ** exp).toFixed(exp));
@@ -47,6 +47,7 @@ function MoneyField({ label, currency, value, onChange, error }: { label: string
         {label} <span className="font-normal text-muted">({currency})</span>
       </label>
       <input
+        ref={ref}
         id={id}
         inputMode="decimal"
         value={text}
@@ -133,7 +134,7 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
         {containers.fields.map((f, i) => (
           <div key={f.id} className="grid items-end gap-3 sm:grid-cols-[1fr_1fr_auto]">
             <TextField label="Size (mL)" inputMode="numeric" {...register(`containers.${i}.ml`, { setValueAs: numberOrNull })} error={e.containers?.[i]?.ml?.message} />
-            <Controller control={control} name={`containers.${i}.priceMinor`} render={({ field }) => <MoneyField label="Price" currency={currency} value={field.value as number | undefined} onChange={field.onChange} error={e.containers?.[i]?.priceMinor?.message} />} />
+            <Controller control={control} name={`containers.${i}.priceMinor`} render={({ field }) => <MoneyField ref={field.ref} label="Price" currency={currency} value={field.value as number | undefined} onChange={field.onChange} error={e.containers?.[i]?.priceMinor?.message} />} />
             <Button variant="ghost" onClick={() => containers.remove(i)} aria-label={`Remove container ${i + 1}`}>
               <SpriteIcon name="trash" className="size-4" /> Remove
             </Button>

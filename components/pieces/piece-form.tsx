@@ -120,29 +120,29 @@ export function PieceForm({
           </SelectField>
           {shape === "rectangle" || shape === "oval" ? (
             <>
-              <Controller control={control} name={"lengthMm" as never} render={({ field }) => <UnitNumberField label="Length" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.lengthMm?.message} />} />
-              <Controller control={control} name={"widthMm" as never} render={({ field }) => <UnitNumberField label="Width" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.widthMm?.message} />} />
+              <Controller control={control} name={"lengthMm" as never} render={({ field }) => <UnitNumberField ref={field.ref} label="Length" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.lengthMm?.message} />} />
+              <Controller control={control} name={"widthMm" as never} render={({ field }) => <UnitNumberField ref={field.ref} label="Width" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.widthMm?.message} />} />
             </>
           ) : shape === "round" ? (
-            <Controller control={control} name={"diameterMm" as never} render={({ field }) => <UnitNumberField label="Diameter" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.diameterMm?.message} />} />
+            <Controller control={control} name={"diameterMm" as never} render={({ field }) => <UnitNumberField ref={field.ref} label="Diameter" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.diameterMm?.message} />} />
           ) : (
             <Controller
               control={control}
               name={"measuredAreaM2" as never}
-              render={({ field }) => <UnitNumberField label="Measured area" kind="area" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.measuredAreaM2?.message} hint="One face of the top, as measured." />}
+              render={({ field }) => <UnitNumberField ref={field.ref} label="Measured area" kind="area" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.measuredAreaM2?.message} hint="One face of the top, as measured." />}
             />
           )}
-          <Controller control={control} name={"thicknessMm" as never} render={({ field }) => <UnitNumberField label="Thickness" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.thicknessMm?.message} />} />
+          <Controller control={control} name={"thicknessMm" as never} render={({ field }) => <UnitNumberField ref={field.ref} label="Thickness" kind="length" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.thicknessMm?.message} />} />
         </div>
       </Section>
 
       <Section title="Wood and resin">
         <div className="grid gap-4 sm:grid-cols-2">
-          <Controller control={control} name={"primarySpeciesId" as never} render={({ field }) => <SpeciesPicker label="Primary species" value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.primarySpeciesId?.message} />} />
+          <Controller control={control} name={"primarySpeciesId" as never} render={({ field }) => <SpeciesPicker ref={field.ref} label="Primary species" value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.primarySpeciesId?.message} />} />
           <Controller
             control={control}
             name={"secondarySpeciesId" as never}
-            render={({ field }) => <SpeciesPicker label="Secondary species" optional value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.secondarySpeciesId?.message} />}
+            render={({ field }) => <SpeciesPicker ref={field.ref} label="Secondary species" optional value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.secondarySpeciesId?.message} />}
           />
           <SelectField label="Resin" {...reg("resinKind")} error={errors.resinKind?.message}>
             {RESIN_KINDS.map((r) => (
@@ -154,7 +154,7 @@ export function PieceForm({
           {resin !== "none" ? (
             <>
               <TextField label="Pour date" type="date" {...reg("resinPouredOn", { setValueAs: emptyToNull })} error={errors.resinPouredOn?.message} />
-              <Controller control={control} name={"resinVolumeMl" as never} render={({ field }) => <UnitNumberField label="Resin volume" kind="volume" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.resinVolumeMl?.message} />} />
+              <Controller control={control} name={"resinVolumeMl" as never} render={({ field }) => <UnitNumberField ref={field.ref} label="Resin volume" kind="volume" system={system} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.resinVolumeMl?.message} />} />
               <TextField label="Tint" {...reg("resinTint", { setValueAs: emptyToNull })} error={errors.resinTint?.message} placeholder="e.g. clear, ocean blue" />
             </>
           ) : null}

@@ -16,6 +16,7 @@ export function SpeciesPicker({
   onBlur,
   error,
   optional,
+  ref,
 }: {
   label: string;
   value: string | null | undefined;
@@ -23,6 +24,8 @@ export function SpeciesPicker({
   onBlur?: () => void;
   error?: string;
   optional?: boolean;
+  /** The form's handle on the input (react-hook-form's `field.ref`): a failed submit focuses it. */
+  ref?: React.Ref<HTMLInputElement>;
 }) {
   const id = useId();
   const selected = SPECIES.find((s) => s.id === value);
@@ -48,6 +51,7 @@ export function SpeciesPicker({
         {optional ? <span className="font-normal text-muted"> (optional)</span> : null}
       </label>
       <input
+        ref={ref}
         id={id}
         role="combobox"
         aria-expanded={open}

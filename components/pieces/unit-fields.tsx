@@ -45,6 +45,7 @@ export function UnitNumberField({
   error,
   hint,
   name,
+  ref,
 }: {
   label: string;
   kind: keyof typeof UNITS;
@@ -55,6 +56,8 @@ export function UnitNumberField({
   error?: string;
   hint?: string;
   name?: string;
+  /** The form's handle on the input (react-hook-form's `field.ref`): a failed submit focuses it. */
+  ref?: React.Ref<HTMLInputElement>;
 }) {
   const unit: Unit = UNITS[kind][system];
   const id = useId();
@@ -71,6 +74,7 @@ export function UnitNumberField({
         {label} <span className="font-normal text-muted">({unit.suffix})</span>
       </label>
       <input
+        ref={ref}
         id={id}
         name={name}
         inputMode="decimal"

@@ -22,7 +22,16 @@ test("staff record a piece with three layers, find it by search and by code, and
   await page.getByRole("radio", { name: "Metric (mm)" }).click();
   await page.getByLabel("Length").fill("2200");
   await page.getByLabel("Width").fill("950");
+  // A failed submit takes the person to its first field in error (on a phone the button sits far below
+  // it), the fields drawn by hand included: a length in the chosen unit, then the species picker.
+  await page.getByLabel("Thickness").fill("5o");
+  await page.getByRole("button", { name: "Record piece" }).click();
+  await expect(page.getByText("Thickness must be a number.")).toBeVisible();
+  await expect(page.getByLabel("Thickness")).toBeFocused();
   await page.getByLabel("Thickness").fill("50");
+  await page.getByRole("button", { name: "Record piece" }).click();
+  await expect(page.getByText("Pick a species.")).toBeVisible();
+  await expect(page.getByRole("combobox", { name: "Primary species" })).toBeFocused();
   // Switching back shows the same lengths in inches (stored in mm).
   await page.getByRole("radio", { name: "Imperial (in)" }).click();
   await expect(page.getByLabel("Length")).toHaveValue("86.61");
