@@ -44,6 +44,10 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   // What happened before, from the studio's records: deliveries and registrations of their pieces.
   await expect(timeline.getByText(/^Delivered “/).first()).toBeVisible();
   await expect(timeline.getByText(/^Registered “.*” in Grainward$/).first()).toBeVisible();
+  // The consent Jonah gave when registering reads as a sentence: the source's label is lower-cased
+  // at its first letter only, so the product's name keeps its capital.
+  const consents = page.getByRole("list", { name: "Consent history, newest first" });
+  await expect(consents.getByText(/^Agreed to service mail — in their Grainward account, /)).toBeVisible();
   // A time on the timeline names its zone, the viewer's own included ("… at 10:23 PST").
   await expect(timeline.locator("time").filter({ hasText: /\d{2}:\d{2}/ }).first()).toHaveText(/\d{2}:\d{2} [A-Z][A-Za-z0-9+\-]*$/);
 

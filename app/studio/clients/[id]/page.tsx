@@ -83,7 +83,8 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
                   <li key={h.id}>
                     <p>
                       <span className="font-medium">{h.granted ? "Agreed to" : "Withdrew"}</span> {CONSENT_KIND_LABELS[h.kind].split(" (")[0]!.toLowerCase()} —{" "}
-                      {CONSENT_SOURCE_LABELS[h.source].toLowerCase()}, {formatInstant(h.givenAt, studioZone, { time: true })}
+                      {/* Only the first letter: the label goes mid-sentence, and "Grainward" keeps its capital. */}
+                      {CONSENT_SOURCE_LABELS[h.source].replace(/^./, (c) => c.toLowerCase())}, {formatInstant(h.givenAt, studioZone, { time: true })}
                     </p>
                     {h.note || h.recordedBy ? (
                       <p className="text-muted">
