@@ -1,7 +1,7 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { Bar, BarChart, CartesianGrid, LabelList, Legend, pattern, patterns, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { Bar, BarChart, CartesianGrid, LabelList, Legend, pattern, patterns, ResponsiveContainer, Tooltip, XAxis, YAxis, type LabelProps } from "recharts";
 import { formatMoney } from "@/lib/format";
 
 // Our palette (app/globals.css). Series are told apart by pattern and by their labels too, never by
@@ -32,6 +32,38 @@ type Props = {
 /** Whether any bar would be drawn: a chart of nothing but zeros says so in words instead (a new studio's overview). */
 export function hasBars(data: readonly BarDatum[], series: readonly BarSeries[]): boolean {
   return data.some((d) => series.some((s) => Number(d[s.key] ?? 0) !== 0));
+}
+
+type Props_ = LabelProps;
+const LABEL_FONT = 12;
+
+/**
+ * A column's value, above it. Where the column is narrower than its label (twelve months of money on a
+ * phone), the label stands on end instead, so neighbours never write over each other: inside the column,
+ * reading upwards, when the column is tall enough and plain (`onColumn`, a colour that reads on it), else
+ * above it. The width is estimated from the characters (tabular digits of a 12 px sans are about 7 px).
+ */
+function ColumnLabel({ viewBox, text, onColumn }: Props_ & { text: string; onColumn: string | null }) {
+  const box = viewBox as { x?: number; y?: number; width?: number; height?: number } | undefined;
+  if (!text || !box || box.x == null || box.y == null || box.width == null || box.height == null) return null;
+  const { x, y, width, height } = box;
+  const cx = x + width / 2;
+  const textWidth = text.length * LABEL_FONT * 0.6;
+  if (textWidth <= width + 4) {
+    return (
+      <text x={cx} y={y - 6} textAnchor="middle" fill="#1f2328" fontSize={LABEL_FONT}>
+        {text}
+      </text>
+    );
+  }
+  const inside = onColumn !== null && Math.abs(height) >= textWidth + 8;
+  // Rotated a quarter turn back about its anchor: "start" runs upwards from it, "end" ends at it.
+  const ay = inside ? y + 4 : y - 4;
+  return (
+    <text x={cx} y={ay} transform={`rotate(-90 ${cx} ${ay})`} textAnchor={inside ? "end" : "start"} dominantBaseline="central" fill={inside ? onColumn : "#1f2328"} fontSize={LABEL_FONT}>
+      {text}
+    </text>
+  );
 }
 
 export function OverviewBarChart({ data, series, layout = "horizontal", format = "count", currency = "USD", country = "US", title, height }: Props) {
@@ -79,7 +111,11 @@ export function OverviewBarChart({ data, series, layout = "horizontal", format =
                 onClick={open}
                 style={{ cursor: "pointer" }}
               >
-                <LabelList dataKey={s.key} position={rows ? "right" : "top"} formatter={(v: unknown) => (format === "money" && !v ? "" : fmt(v))} style={{ fill: "#1f2328", fontSize: 12 }} />
+                {rows ? (
+                  <LabelList dataKey={s.key} position="right" formatter={(v: unknown) => (format === "money" && !v ? "" : fmt(v))} style={{ fill: "#1f2328", fontSize: 12 }} />
+                ) : (
+                  <LabelList dataKey={s.key} content={(p: Props_) => <ColumnLabel {...p} text={format === "money" && !p.value ? "" : fmt(p.value)} onColumn={look.definition ? null : "#ffffff"} />} />
+                )}
               </Bar>
             );
           })}

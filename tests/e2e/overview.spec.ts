@@ -50,6 +50,17 @@ for (const width of [1280, 375]) {
     await expect(page.getByRole("link", { name: /Under warranty today/ })).toHaveAttribute("href", "/studio/pieces?warranty=active");
     await expect(page.getByText(/owners reminded logged the task within 30 days/)).toBeVisible();
 
+    // Each month's revenue label fits the month's column (twelve to the plot), so two neighbouring months
+    // never write over each other: at 375 px a money label is wider than its column and stands on end.
+    const revenue = page.getByRole("region", { name: "Repair revenue by month" });
+    const fit = await revenue.locator(".recharts-surface").evaluate((svg) => {
+      const plot = svg.querySelector(".recharts-cartesian-grid")!.getBoundingClientRect();
+      const labels = [...svg.querySelectorAll(".recharts-label-list text")].filter((t) => t.textContent);
+      return { band: plot.width / 12, widths: labels.map((t) => t.getBoundingClientRect().width) };
+    });
+    expect(fit.widths.length, "the seeded revenue draws at least one labelled month").toBeGreaterThan(0);
+    for (const w of fit.widths) expect(w, `a revenue label in a ${fit.band.toFixed(1)} px month`).toBeLessThanOrEqual(fit.band);
+
     await noSideways(page, `overview ${width}`);
     await noSeriousAxe(page, `overview ${width}`);
     await page.screenshot({ path: `${SHOTS}/overview-${width}.png`, fullPage: true });
