@@ -80,7 +80,8 @@ export function DecisionForm({ claimId, version, suggestion, suggestedPct }: { c
         <div className="grid grid-cols-2 gap-2">
           {DECISIONS.map((d) => (
             <label key={d} className="flex min-h-11 cursor-pointer items-center gap-2 rounded-lg border border-line bg-white px-3 text-sm has-[:checked]:border-resin has-[:checked]:bg-resin-soft has-[:checked]:font-semibold">
-              <input type="radio" value={d} className="size-4" {...form.register("decision")} />
+              {/* After a failed submit, a new decision checks the note again: a declined claim's "tell the owner why" goes once another decision makes the note optional. */}
+              <input type="radio" value={d} className="size-4" {...form.register("decision", { deps: "reason" })} />
               {CLAIM_DECISION_LABELS[d]}
             </label>
           ))}

@@ -118,7 +118,15 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
     browserDialog = d.message();
     void d.dismiss();
   });
+  // Declined with no reason is refused on the field; choosing another decision, whose note is optional,
+  // takes that message away rather than leaving it under a field that no longer asks for anything.
+  const reasonRequired = desk.getByText("Tell the owner why (they will see this).");
+  await desk.getByText("Declined", { exact: true }).click();
+  await desk.getByRole("button", { name: "Record the decision" }).click();
+  await expect(reasonRequired).toBeVisible();
+  await expect(desk.getByRole("dialog")).toHaveCount(0);
   await desk.getByText("Partly covered", { exact: true }).click();
+  await expect(reasonRequired).toHaveCount(0);
   await desk.getByLabel("Covered share, %").fill("60");
   await desk.getByLabel("Note to the owner (they see this)").fill("The joint is covered; the patio wear on the feet is not. (e2e)");
   await desk.getByRole("button", { name: "Record the decision" }).click();
