@@ -32,7 +32,8 @@ export default async function OwnerClaimsPage() {
                 </div>
                 <p className="mt-1 text-sm text-muted">
                   {CLAIM_CATEGORY_LABELS[c.category]} · {c.studioName} · filed {formatInstant(c.createdAt, timeZone)} · {c.photos} photo{c.photos === 1 ? "" : "s"}
-                  {c.decision ? ` · ${decisionText(c.decision, c.coveredPct)}` : ""}
+                  {/* A declined claim's badge already says so; an accepted one's says only "Accepted", so the line adds how. */}
+                  {c.decision && c.decision !== "declined" ? ` · ${decisionText(c.decision, c.coveredPct)}` : ""}
                 </p>
               </Link>
             </li>
