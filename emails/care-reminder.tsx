@@ -1,5 +1,5 @@
-import { Link, Section, Text } from "@react-email/components";
-import { ActionClose } from "./components/button";
+import { Section, Text } from "@react-email/components";
+import { ActionClose, SpelledLink } from "./components/button";
 import { CareFooter } from "./components/care-footer";
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { colors } from "./components/theme";
@@ -67,10 +67,7 @@ export function CareReminder(p: CareReminderProps) {
       <Paragraph>Done it? Log it, and the next reminder moves to the right date.</Paragraph>
       <ActionClose href={p.logUrl} label="Log it as done" />
       <Note>
-        The care record of your piece:{" "}
-        <Link href={p.pieceUrl} style={{ color: colors.accent }}>
-          {p.pieceUrl}
-        </Link>
+        The care record of your piece: <SpelledLink href={p.pieceUrl} />
       </Note>
       {p.offer ? <RefreshOfferSection studioName={p.studioName} taskLabel={p.taskLabel} {...p.offer} /> : null}
     </EmailLayout>

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionClose } from "./components/button";
+import { ActionClose, SpelledLink } from "./components/button";
 import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
 
 export type PaymentReceiptEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
@@ -27,7 +27,7 @@ export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, piec
         {studioName}
         {studioAddress ? `, ${studioAddress}` : ""}
       </Note>
-      <ActionClose href={url} label="Book your visit" note={<>Keep this e-mail as your receipt. A PDF copy is on your job page (sign in first): {pdfUrl}</>} />
+      <ActionClose href={url} label="Book your visit" note={<>Keep this e-mail as your receipt. A PDF copy is on your job page (sign in first): <SpelledLink href={pdfUrl} /></>} />
     </EmailLayout>
   );
 }

@@ -1,5 +1,5 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionClose } from "./components/button";
+import { ActionClose, SpelledLink } from "./components/button";
 
 export type VisitSummaryEmailProps = {
   ownerName: string;
@@ -75,7 +75,7 @@ export function VisitSummaryEmail(p: VisitSummaryEmailProps) {
       </Paragraph>
       <ActionClose href={p.signOffUrl} label="Sign off the work" />
       <Paragraph>
-        Not happy with it? Don&apos;t sign off; write to the studio. The piece&apos;s care record: <a href={p.url}>{p.url}</a>
+        Not happy with it? Don&apos;t sign off; write to the studio. The piece&apos;s care record: <SpelledLink href={p.url} />
       </Paragraph>
     </EmailLayout>
   );

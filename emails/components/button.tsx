@@ -26,14 +26,23 @@ function ActionButton({ href, children }: { href: string; children: string }) {
   );
 }
 
+/**
+ * An address written out in the text. It may break anywhere: as one long word it would push the
+ * message past a phone's edge (tests/integration/email-narrow.test.ts).
+ */
+export function SpelledLink({ href }: { href: string }) {
+  return (
+    <Link href={href} style={{ color: accentColor(), wordBreak: "break-all" }}>
+      {href}
+    </Link>
+  );
+}
+
 /** The same link spelled out, for clients that hide buttons and for the plain-text part. */
 function LinkFallback({ href }: { href: string }) {
   return (
     <Note>
-      If the button does not work, copy this link into your browser:{" "}
-      <Link href={href} style={{ color: accentColor(), wordBreak: "break-all" }}>
-        {href}
-      </Link>
+      If the button does not work, copy this link into your browser: <SpelledLink href={href} />
     </Note>
   );
 }
