@@ -150,9 +150,11 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
       {query.isPending ? <Card aria-busy="true">Loading…</Card> : null}
       {query.data && query.data.rows.length === 0 ? <Card>{view === "upcoming" ? "Nothing goes out in the next 30 days." : "No reminders match."}</Card> : null}
       {query.data && query.data.rows.length > 0 ? (
+        // Below md each row is a card of stacked lines (DESIGN.md: tables stay readable on a phone); the
+        // table's columns come back from md up.
         <div className="relative overflow-x-auto rounded-xl border border-line bg-card">
-          <table className="w-full min-w-[48rem] text-left text-sm">
-            <thead className="border-b border-line text-muted">
+          <table className="block w-full text-left text-sm md:table md:min-w-[48rem]">
+            <thead className="hidden border-b border-line text-muted md:table-header-group">
               <tr>
                 <th scope="col" className="px-3 py-2 font-medium">{view === "upcoming" ? "Goes out" : "Updated"}</th>
                 <th scope="col" className="px-3 py-2 font-medium">Piece · owner</th>
@@ -162,33 +164,33 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
                 <th scope="col" className="px-3 py-2 font-medium"><span className="sr-only">Actions</span></th>
               </tr>
             </thead>
-            <tbody className="divide-y divide-line">
+            <tbody className="block divide-y divide-line md:table-row-group">
               {view === "upcoming"
                 ? (query.data.rows as UpcomingRow[]).map((r) => (
-                    <tr key={`${r.taskKey}:${r.step}`}>
-                      <td className="px-3 py-2 tabular-nums">{formatDate(r.on, { short: true })}</td>
-                      <td className="px-3 py-2">
+                    <tr key={`${r.taskKey}:${r.step}`} className={ROW}>
+                      <td className={cn(CELL, "tabular-nums")}><span className="md:hidden">Goes out </span>{formatDate(r.on, { short: true })}</td>
+                      <td className={CELL}>
                         <span className="font-medium">{r.pieceTitle}</span>
                         <span className="block text-muted">{r.ownerName}</span>
                       </td>
-                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {formatDate(r.dueOn, { short: true })}</span></td>
-                      <td className="px-3 py-2">{STEP_WORDS[r.step]}</td>
-                      <td className="px-3 py-2"><StatusBadge status={r.state} /></td>
-                      <td className="px-3 py-2 text-right">
+                      <td className={CELL}>{r.taskLabel} <span className="block text-muted">due {formatDate(r.dueOn, { short: true })}</span></td>
+                      <td className={CELL}>{STEP_WORDS[r.step]}</td>
+                      <td className={CELL}><StatusBadge status={r.state} /></td>
+                      <td className={cn(CELL, "md:text-right")}>
                         <PauseButton paused={r.remindersPaused} busy={pause.isPending} onClick={() => pause.mutate({ pieceId: r.pieceId, paused: !r.remindersPaused })} />
                       </td>
                     </tr>
                   ))
                 : (query.data.rows as LedgerListRow[]).map((r) => (
-                    <tr key={r.id}>
-                      <td className="px-3 py-2 tabular-nums">{when(r.updatedAt)}</td>
-                      <td className="px-3 py-2">
+                    <tr key={r.id} className={ROW}>
+                      <td className={cn(CELL, "tabular-nums")}><span className="md:hidden">Updated </span>{when(r.updatedAt)}</td>
+                      <td className={CELL}>
                         <span className="font-medium">{r.pieceTitle}</span>
                         <span className="block text-muted">{r.ownerName} · {r.ownerEmail}</span>
                       </td>
-                      <td className="px-3 py-2">{r.taskLabel} <span className="block text-muted">due {formatDate(r.dueOn, { short: true })}</span></td>
-                      <td className="px-3 py-2">{STEP_WORDS[r.step]}</td>
-                      <td className="px-3 py-2">
+                      <td className={CELL}>{r.taskLabel} <span className="block text-muted">due {formatDate(r.dueOn, { short: true })}</span></td>
+                      <td className={CELL}>{STEP_WORDS[r.step]}</td>
+                      <td className={CELL}>
                         <StatusBadge status={r.status} />
                         {r.status === "failed" ? (
                           <span className="block max-w-xs text-xs text-muted">
@@ -198,7 +200,7 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
                         ) : null}
                         {r.status === "sent" ? <span className="block text-xs text-muted">{when(r.sentAt)}</span> : null}
                       </td>
-                      <td className="space-y-1 px-3 py-2 text-right">
+                      <td className={cn(CELL, "space-y-1 md:text-right")}>
                         {r.status === "failed" ? (
                           <Button variant="secondary" disabled={resend.isPending} onClick={() => resend.mutate(r.id)}>
                             <SpriteIcon name="rotate-cw" className="size-4" /> Resend
@@ -215,6 +217,10 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
     </div>
   );
 }
+
+/** A row: a card of stacked lines below md, a table row from md up. */
+const ROW = "block py-2 md:table-row md:py-0";
+const CELL = "block px-3 py-0.5 md:table-cell md:py-2";
 
 function PauseButton({ paused, busy, onClick }: { paused: boolean; busy: boolean; onClick: () => void }) {
   return (

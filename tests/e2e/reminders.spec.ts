@@ -36,6 +36,21 @@ test("staff see upcoming reminders and the ledger, filter them, and pause and re
   }
 });
 
+test("at 375 px each reminder is a card: nothing scrolls sideways and its pause button is in view", async ({ page }) => {
+  await page.setViewportSize({ width: 375, height: 812 });
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto("/studio/reminders");
+  await page.getByRole("tab", { name: "Sent, failed and skipped" }).click();
+  const table = page.getByRole("table");
+  await expect(table.getByText(/^Updated /).first()).toBeVisible();
+  const box = table.locator("xpath=..");
+  const { scroll, client } = await box.evaluate((el) => ({ scroll: el.scrollWidth, client: el.clientWidth }));
+  expect(scroll, "the reminders scroll sideways").toBeLessThanOrEqual(client);
+  const pause = table.getByRole("button", { name: "Pause reminders" }).first();
+  const at = (await pause.boundingBox())!;
+  expect(at.x + at.width).toBeLessThanOrEqual(375);
+});
+
 test("owners are refused the staff reminders API", async ({ page }) => {
   await signIn(page, ACCOUNTS.owner);
   expect((await page.request.get("/api/reminders?view=ledger")).status()).toBe(403);
