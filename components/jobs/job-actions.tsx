@@ -1,9 +1,11 @@
 "use client";
 
+import { useState } from "react";
 import { toast } from "sonner";
 import { apiJson } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 
 const post = (url: string) => apiJson<{ checkoutUrl?: string }>(url, { method: "POST" });
 
@@ -15,13 +17,29 @@ export function StaffJobActions({ jobId, canSend, canCancel, paid, refundOwed = 
     onError: (words) => toast.error(words),
     onSuccess: (_, kind) => toast.success(kind === "quote" ? "Quote sent to the owner." : refundOwed ? "The refund is on its way." : paid ? "Job cancelled; the refund is on its way." : "Job cancelled."),
   });
+  // Cancelling asks first in the app's own dialog (as a claim's decision does), never the browser's confirm().
+  const [asking, setAsking] = useState(false);
   const start = (kind: "quote" | "cancel") => {
-    if (kind === "cancel" && !refundOwed && !window.confirm(paid ? "Cancel this job and refund the owner's payment in full?" : "Cancel this job? The owner will no longer be able to approve it.")) return;
+    if (kind === "cancel" && !refundOwed) return setAsking(true);
     run(kind);
   };
   const doing = busy ? vars : null;
   return (
     <div className="flex flex-wrap gap-2">
+      <ConfirmDialog
+        open={asking}
+        title={paid ? "Cancel this job and refund the owner?" : "Cancel this job?"}
+        confirmLabel={paid ? "Cancel and refund" : "Cancel the job"}
+        cancelLabel="Keep the job"
+        busy={busy}
+        onConfirm={() => {
+          setAsking(false);
+          run("cancel");
+        }}
+        onCancel={() => setAsking(false)}
+      >
+        <p>{paid ? "The owner's payment is refunded in full, and they are told by e-mail." : "The owner will no longer be able to approve it."}</p>
+      </ConfirmDialog>
       {canSend ? (
         <Button onClick={() => start("quote")} disabled={busy}>
           {doing === "quote" ? "Sending…" : "Send quote to owner"}
@@ -59,16 +77,26 @@ export function OwnerCancelJob({ jobId }: { jobId: string }) {
     onError: (words) => toast.error(words),
     onSuccess: () => toast.success("Quote declined."),
   });
+  const [asking, setAsking] = useState(false);
   return (
-    <Button
-      variant="secondary"
-      className="w-full sm:w-auto"
-      disabled={busy}
-      onClick={() => {
-        if (window.confirm("Decline this quote? The studio will be told.")) run(undefined);
-      }}
-    >
-      Decline the quote
-    </Button>
+    <>
+      <ConfirmDialog
+        open={asking}
+        title="Decline this quote?"
+        confirmLabel="Decline the quote"
+        cancelLabel="Keep the quote"
+        busy={busy}
+        onConfirm={() => {
+          setAsking(false);
+          run(undefined);
+        }}
+        onCancel={() => setAsking(false)}
+      >
+        <p>The studio will be told.</p>
+      </ConfirmDialog>
+      <Button variant="secondary" className="w-full sm:w-auto" disabled={busy} onClick={() => setAsking(true)}>
+        Decline the quote
+      </Button>
+    </>
   );
 }

@@ -4,7 +4,7 @@ import { useEffect, useId, useRef, type ReactNode } from "react";
 import { Button } from "@/components/ui/button";
 
 /** Asks before a destructive change, with the consequence spelled out. */
-export function ConfirmDialog({ open, title, children, confirmLabel, busy, onConfirm, onCancel }: { open: boolean; title: string; children: ReactNode; confirmLabel: string; busy?: boolean; onConfirm: () => void; onCancel: () => void }) {
+export function ConfirmDialog({ open, title, children, confirmLabel, cancelLabel = "Cancel", busy, onConfirm, onCancel }: { open: boolean; title: string; children: ReactNode; confirmLabel: string; /** The way back; name it when the action is itself a cancelling ("Keep the job"). */ cancelLabel?: string; busy?: boolean; onConfirm: () => void; onCancel: () => void }) {
   const ref = useRef<HTMLDialogElement>(null);
   const titleId = useId();
   useEffect(() => {
@@ -29,7 +29,7 @@ export function ConfirmDialog({ open, title, children, confirmLabel, busy, onCon
       <div className="mt-2 space-y-2 text-sm">{children}</div>
       <div className="mt-5 flex flex-col-reverse gap-2 sm:flex-row sm:justify-end">
         <Button variant="secondary" onClick={onCancel} disabled={busy}>
-          Cancel
+          {cancelLabel}
         </Button>
         <Button variant="danger" onClick={onConfirm} disabled={busy}>
           {busy ? "Working…" : confirmLabel}

@@ -3,7 +3,7 @@ import { expect, test } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
 import { ACCOUNTS, PORTS, SINK_URL, fixture, signIn, signInTo } from "./helpers";
 
-test("owner approves a quote, pays with the success card, returns and sees the job paid", async ({ page }) => {
+test("owner approves a quote, pays with the success card, returns and sees the job paid; staff cancel and refund it", async ({ page, browser }) => {
   const jobId = fixture().jobs.quoted!;
   await signInTo(page, ACCOUNTS.otherOwner, "/jobs");
   await page.getByRole("link", { name: /Re-wax the desk top/ }).click();
@@ -25,6 +25,27 @@ test("owner approves a quote, pays with the success card, returns and sees the j
 
   const receipt = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /receipt/i, sinkUrl: SINK_URL });
   expect(extractLinks(receipt.text).some((l) => l.includes(`/jobs/${jobId}`))).toBe(true);
+
+  // Staff cancel the paid job: the app's own dialog asks first (a browser confirm() box would be
+  // dismissed here and the button would seem dead), saying the payment is refunded.
+  const desk = await (await browser.newContext()).newPage();
+  let browserDialog = "";
+  desk.on("dialog", (d) => {
+    browserDialog = d.message();
+    void d.dismiss();
+  });
+  await signInTo(desk, ACCOUNTS.staff, `/studio/jobs/${jobId}`);
+  await desk.getByRole("button", { name: "Cancel and refund" }).click();
+  const ask = desk.getByRole("dialog", { name: "Cancel this job and refund the owner?" });
+  await expect(ask).toBeVisible();
+  await ask.getByRole("button", { name: "Keep the job" }).click();
+  await expect(ask).toBeHidden();
+  await desk.getByRole("button", { name: "Cancel and refund" }).click();
+  await ask.getByRole("button", { name: "Cancel and refund" }).click();
+  await expect(desk.getByText("Job cancelled; the refund is on its way.")).toBeVisible();
+  expect(browserDialog).toBe("");
+  await waitForMail({ to: ACCOUNTS.otherOwner, subject: /refund/i, sinkUrl: SINK_URL });
+  await desk.context().close();
 });
 
 test("cancelling on the payment page comes back with a clear message and nothing charged", async ({ page }) => {
@@ -36,6 +57,17 @@ test("cancelling on the payment page comes back with a clear message and nothing
   await expect(page).toHaveURL(new RegExp(`/jobs/${jobId}\\?checkout=cancelled`));
   await expect(page.getByText("Payment not completed")).toBeVisible();
   await expect(page.getByText("Your card was not charged.")).toBeVisible();
+
+  // Declining the quote asks first in the app's own dialog; "Keep the quote" leaves it as it was.
+  page.on("dialog", (d) => void d.dismiss());
+  await page.getByRole("button", { name: "Decline the quote" }).click();
+  const ask = page.getByRole("dialog", { name: "Decline this quote?" });
+  await expect(ask).toBeVisible();
+  await ask.getByRole("button", { name: "Keep the quote" }).click();
+  await expect(ask).toBeHidden();
+  await page.getByRole("button", { name: "Decline the quote" }).click();
+  await ask.getByRole("button", { name: "Decline the quote" }).click();
+  await expect(page.getByText("Quote declined.")).toBeVisible();
 });
 
 test("staff see the studio's jobs by state and another owner cannot open a job", async ({ page, browser }) => {
