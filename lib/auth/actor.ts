@@ -2,6 +2,7 @@ import { asc, eq, sql } from "drizzle-orm";
 import { cookies } from "next/headers";
 import { cache } from "react";
 import type { User } from "lucia";
+import { bound } from "@/db/bound";
 import { getDb, perConnection } from "@/db/client";
 import { memberships, studios, type Studio } from "@/db/schema";
 import type { StudioRole } from "@/lib/care/vocabulary";
@@ -29,13 +30,14 @@ export type ActorFor<R extends ActorRole> = [Exclude<R, "owner">] extends [never
 /** The cookie naming the studio a member of several works in. */
 export const STUDIO_COOKIE = "gw_studio";
 
-// Every signed-in request runs this.
+// Every signed-in request runs this. The user id is bound as `+?` (db/bound.ts): a person's memberships
+// are a few rows of memberships_user_idx whoever they are, so the plan never needs the value.
 const membershipsQuery = perConnection((db) =>
   db
     .select({ role: memberships.role, studio: studios })
     .from(memberships)
     .innerJoin(studios, eq(studios.id, memberships.studioId))
-    .where(eq(memberships.userId, sql.placeholder("userId")))
+    .where(eq(memberships.userId, bound(sql.placeholder("userId"))))
     .orderBy(asc(memberships.createdAt))
     .prepare(),
 );

@@ -1,6 +1,7 @@
 import { DrizzleSQLiteAdapter } from "@lucia-auth/adapter-drizzle";
 import { eq, sql } from "drizzle-orm";
 import { Lucia, TimeSpan, type DatabaseSession, type DatabaseUser } from "lucia";
+import { bound } from "@/db/bound";
 import { getDb, type Db } from "@/db/client";
 import { sessions, users } from "@/db/schema";
 import { env } from "@/lib/env";
@@ -11,13 +12,14 @@ let instance: ReturnType<typeof createLucia> | undefined;
 
 /**
  * The package's adapter, except that the lookup every signed-in request makes is one prepared join
- * instead of two queries built afresh each time (that building cost more than the reads).
+ * instead of two queries built afresh each time (that building cost more than the reads). The id is
+ * bound as `+?` (db/bound.ts): by the sessions' primary key, one row whatever the id, planned once.
  */
 class SessionAdapter extends DrizzleSQLiteAdapter {
   private readonly lookup;
   constructor(db: Db) {
     super(db, sessions, users);
-    this.lookup = db.select({ session: sessions, user: users }).from(sessions).innerJoin(users, eq(users.id, sessions.userId)).where(eq(sessions.id, sql.placeholder("id"))).prepare();
+    this.lookup = db.select({ session: sessions, user: users }).from(sessions).innerJoin(users, eq(users.id, sessions.userId)).where(eq(sessions.id, bound(sql.placeholder("id")))).prepare();
   }
   override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
     const row = this.lookup.get({ id: sessionId });

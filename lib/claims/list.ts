@@ -1,6 +1,7 @@
 import "server-only";
 import { and, asc, count, desc, eq, gte, inArray, isNull, lt, type SQL } from "drizzle-orm";
 import type { User } from "lucia";
+import { bound } from "@/db/bound";
 import { getDb } from "@/db/client";
 import { claims, pieces, studios, users } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
@@ -38,13 +39,13 @@ export function listOwnerClaims(user: Pick<User, "id">) {
     .map((r) => ({ ...r, createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt.toISOString() }));
 }
 
-/** The owner's claims, and their pieces to report damage on. */
+/** The owner's claims, and their pieces to report damage on (the owner bound as `+?`, as in claimVisibleTo). */
 export function ownerClaimsOverview(user: Pick<User, "id">) {
   const myPieces = getDb()
     .select({ id: pieces.id, title: pieces.title, studioName: studios.name })
     .from(pieces)
     .innerJoin(studios, eq(studios.id, pieces.studioId))
-    .where(and(eq(pieces.ownerId, user.id), isNull(pieces.archivedAt)))
+    .where(and(eq(pieces.ownerId, bound(user.id)), isNull(pieces.archivedAt)))
     .orderBy(asc(pieces.title))
     .all();
   return { claims: listOwnerClaims(user), pieces: myPieces };

@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
 import { cache } from "react";
+import { bound } from "@/db/bound";
 import { getDb, perConnection } from "@/db/client";
 import {
   careLogEntries,
@@ -55,7 +56,7 @@ const ownedRead = perConnection((db) =>
   db
     .select()
     .from(pieces)
-    .where(and(eq(pieces.id, sql.placeholder("pieceId")), eq(pieces.ownerId, sql.placeholder("ownerId")), isNull(pieces.archivedAt)))
+    .where(and(eq(pieces.id, bound(sql.placeholder("pieceId"))), eq(pieces.ownerId, bound(sql.placeholder("ownerId"))), isNull(pieces.archivedAt)))
     .prepare(),
 );
 
@@ -86,7 +87,7 @@ const shellRead = perConnection((db) =>
       EXISTS (SELECT 1 FROM visits v WHERE v.piece_id = p.id) AS visits,
       (EXISTS (SELECT 1 FROM plan_subscriptions ps WHERE ps.piece_id = p.id) OR EXISTS (SELECT 1 FROM plan_templates pt WHERE pt.studio_id = p.studio_id)) AS plans
     FROM pieces p JOIN studios s ON s.id = p.studio_id
-    WHERE p.id = @pieceId AND p.owner_id = @ownerId AND p.archived_at IS NULL`),
+    WHERE p.id = +@pieceId AND p.owner_id = +@ownerId AND p.archived_at IS NULL`),
 );
 
 /** Today's date for the owner: care logged "today" must never look like the future. */
@@ -281,8 +282,12 @@ export type PieceDetail = {
 // The piece page's reads, built and prepared once per connection (the page owners open most: building
 // a drizzle query costs about as much as running it). Four reads: the piece with its studio, its
 // warranty policy and its first owner; its layers; its care log; the studio's catalog.
+// The piece's id and its owner's are bound as `+?` here, in ownedRead and as `+@…` in shellRead
+// (db/bound.ts): by the piece's primary key, or the few rows of one piece in its own index, whichever
+// piece, so these are planned once per connection instead of on every read. The studio's catalog keeps
+// `?`: how much of the table one studio holds may rightly change its plan.
 const pageReads = perConnection((db) => {
-  const id = sql.placeholder("pieceId");
+  const id = bound(sql.placeholder("pieceId"));
   const policyId = sql`coalesce(${pieces.warrantyPolicyId}, (SELECT wp.id FROM warranty_policies wp WHERE wp.studio_id = ${pieces.studioId} AND wp.effective_from <= ${pieces.deliveredOn} ORDER BY wp.version DESC LIMIT 1))`;
   return {
     piece: db
@@ -298,7 +303,7 @@ const pageReads = perConnection((db) => {
       .from(pieces)
       .innerJoin(studios, eq(studios.id, pieces.studioId))
       .leftJoin(warrantyPolicies, and(eq(warrantyPolicies.id, policyId), eq(warrantyPolicies.studioId, pieces.studioId)))
-      .where(and(eq(pieces.id, id), eq(pieces.ownerId, sql.placeholder("ownerId")), isNull(pieces.archivedAt)))
+      .where(and(eq(pieces.id, id), eq(pieces.ownerId, bound(sql.placeholder("ownerId"))), isNull(pieces.archivedAt)))
       .prepare(),
     layers: db.select().from(finishLayers).where(eq(finishLayers.pieceId, id)).orderBy(asc(finishLayers.surface), asc(finishLayers.position)).prepare(),
     careLog: db

@@ -11,6 +11,7 @@
 // The operations (registry-list.ts and the others) call these and read top to bottom.
 import { getTableColumns, type Table } from "drizzle-orm";
 import type Database from "better-sqlite3";
+import { bound } from "@/db/bound";
 import { getDb, perConnection, type Db } from "@/db/client";
 import { finishLayers, finishProducts, pieces, warrantyPolicies, type CareLogRow, type FinishLayer, type FinishProduct, type Piece, type WarrantyPolicyRow } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
@@ -155,18 +156,16 @@ export function warrantyEndsOn(piece: Pick<Piece, "warrantyPolicyId" | "delivere
 }
 
 /**
- * A text search binds the studio, LIMIT and OFFSET as `+?`, not `?` (the same values and results): the
- * planner of this build of SQLite (STAT4) looks at a bare placeholder's bound value when planning, for
- * `studio_id = ?` (the pieces_studio_idx statistics) and for LIMIT/OFFSET, and then marks the statement
- * to be prepared again whenever that placeholder is bound anew: every search re-parsed and re-planned its
- * page and count. A unary plus keeps the value out of planning, so the statement is planned once per
- * connection (statementFor); a search's plan does not need the value (it starts from pieces_fts, CROSS
- * JOIN). Lists without text keep `?`: their plan (which index, sort or not) may rightly follow the
- * studio's size and the page's LIMIT. Measured with callgrind (instructions inside sqlite3_step,
- * 100,000-piece bench seed): the page for q=walnut 0.60 M, of which 0.25 M re-preparing.
+ * A text search binds the studio, LIMIT and OFFSET as `+?` (db/bound.ts), not `?`: the same values and
+ * results, but the statement is planned once per connection (statementFor) instead of on every search
+ * (the planner read the studio's value against the pieces_studio_idx statistics, and LIMIT/OFFSET's); a
+ * search's plan does not need the values (it starts from pieces_fts, CROSS JOIN). Lists without text keep
+ * `?`: their plan (which index, sort or not) may rightly follow the studio's size and the page's LIMIT.
+ * Measured with callgrind (instructions inside sqlite3_step, 100,000-piece bench seed): the page for
+ * q=walnut 0.60 M, of which 0.25 M re-preparing.
  */
-function bound(f: Pick<Filter, "fts">): string {
-  return f.fts ? "+?" : "?";
+function searchBound(f: Pick<Filter, "fts">): string {
+  return f.fts ? bound() : "?";
 }
 
 /** A piece of SQL text and the values of its `?` placeholders, in order. */
@@ -199,7 +198,7 @@ export function buildFilter(ctx: StudioContext, q: PieceListQuery, terms: Map<st
     // Nothing searchable (only punctuation): no piece matches (the `0` below).
     if (!codeHash) fts = pieceTextMatch(typed);
   }
-  const conds: Fragment[] = [frag(`p.studio_id = ${bound({ fts })}`, ctx.studio.id)];
+  const conds: Fragment[] = [frag(`p.studio_id = ${searchBound({ fts })}`, ctx.studio.id)];
   conds.push(q.archived === "only" ? frag(`p.archived_at IS NOT NULL`) : frag(`p.archived_at IS NULL`));
   if (q.kind) conds.push(frag(`p.kind = ?`, q.kind));
   if (q.species) conds.push(frag(`(p.primary_species_id = ? OR p.secondary_species_id = ?)`, q.species, q.species));
@@ -250,7 +249,7 @@ function fromClause(f: Filter): string {
 
 /** A page of registry rows for the filter (limit -1: all of them). */
 export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offset: number): ListPieceRow[] {
-  const text = `SELECT ${LIST_COLUMNS} FROM ${fromClause(f)} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where.text} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${bound(f)} OFFSET ${bound(f)}`;
+  const text = `SELECT ${LIST_COLUMNS} FROM ${fromClause(f)} LEFT JOIN users u ON u.id = p.owner_id WHERE ${f.where.text} ORDER BY ${orderBy(q, !!f.fts)} LIMIT ${searchBound(f)} OFFSET ${searchBound(f)}`;
   return (statementFor(getDb(), text).raw(true).all(...f.where.params, limit, offset) as unknown[][]).map(listRow);
 }
 
@@ -264,10 +263,10 @@ export function selectListRows(f: Filter, q: PieceListQuery, limit: number, offs
  */
 export function countMatches(f: Filter, upTo: number, by: "index" | "rows"): number {
   if (by === "index" && f.scope && f.fts) {
-    const st = statementFor(getDb(), `SELECT count(*) AS n FROM (SELECT 1 FROM pieces_fts WHERE pieces_fts MATCH ? LIMIT +?)`);
+    const st = statementFor(getDb(), `SELECT count(*) AS n FROM (SELECT 1 FROM pieces_fts WHERE pieces_fts MATCH ? LIMIT ${bound()})`);
     return (st.get(`scope : "${f.scope}" AND ${f.fts}`, upTo) as { n: number }).n;
   }
-  const text = `SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.where.text} LIMIT ${bound(f)})`;
+  const text = `SELECT count(*) AS n FROM (SELECT 1 FROM ${fromClause(f)} WHERE ${f.where.text} LIMIT ${searchBound(f)})`;
   return (statementFor(getDb(), text).get(...f.where.params, upTo) as { n: number } | undefined)?.n ?? 0;
 }
 
