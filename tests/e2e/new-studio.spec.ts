@@ -41,6 +41,9 @@ test("a new account starts a studio at /start; every studio page works while it 
   await expect(page).toHaveURL(/\/start$/);
   await page.getByRole("link", { name: "Create an account" }).click();
   await expect(page).toHaveURL(/\/sign-up\?next=%2Fstart/);
+  // The sign-up speaks to someone starting a studio, not to an owner with a drawer card.
+  await expect(page.getByText(/as the studio's admin/)).toBeVisible();
+  await expect(page.getByText(/For owners of a piece/)).toHaveCount(0);
   await page.getByLabel("Your name").fill("Ottilie Marsh (invented)");
   await page.getByLabel("Email").fill(email);
   await page.getByLabel("Password").fill("a sentence for a password");
