@@ -56,7 +56,8 @@ export function MessageThread({
         {messages.map((m) => (
           <li key={m.id} className={cn("max-w-[90%] rounded-xl border p-3", mine(m) ? "ml-auto border-resin/30 bg-resin-soft" : "border-line bg-card")}>
             <p className="text-xs text-muted">
-              {m.fromStudio ? `${m.authorName} · ${studioName}` : `${m.authorName} · owner`} · {formatInstant(new Date(m.createdAt), timeZone, { time: true })}
+              {/* Owner pages say "you" (as the job and piece pages' conversations do); staff read the owner's name. */}
+              {m.fromStudio ? `${m.authorName} · ${studioName}` : audience === "owner" ? "You" : `${m.authorName} · owner`} · {formatInstant(new Date(m.createdAt), timeZone, { time: true })}
             </p>
             <p className="mt-1 whitespace-pre-wrap break-words">{m.body}</p>
           </li>

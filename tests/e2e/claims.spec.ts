@@ -36,6 +36,11 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   const declined = page.getByRole("link", { name: /Walnut river dining table/ }).filter({ hasText: "Declined" });
   await expect(declined).toHaveCount(1);
   expect((await declined.innerText()).match(/Declined/g)).toHaveLength(1);
+  // On the claim, the owner's own message is theirs ("You"), as on their job and piece pages.
+  await declined.click();
+  await expect(page.getByText(/^You · \d{1,2} [A-Z][a-z]+ \d{4} at \d{2}:\d{2} [A-Z]/)).toBeVisible();
+  await expect(page.getByText(/· owner ·/)).toHaveCount(0);
+  await page.goto("/claims");
   await page.getByRole("link", { name: new RegExp(PIECE) }).click();
   await expect(page.getByRole("heading", { name: "Report damage" })).toBeVisible();
   await page.getByLabel("Kind of damage").selectOption("structural");
