@@ -105,10 +105,11 @@ export function ClaimQueue() {
               <Link href={`/studio/claims/${c.id}`} className="grid gap-2 px-4 py-3 hover:bg-resin-soft md:grid-cols-[11rem_1fr_auto] md:items-center">
                 <StateBadge state={c.state} audience="staff" className="justify-self-start" />
                 <span className="min-w-0">
-                  <span className="block truncate font-medium">
+                  {/* One line each from md up; on a phone they wrap rather than lose the piece's name and the photo count. */}
+                  <span className="block font-medium md:truncate">
                     {CLAIM_CATEGORY_LABELS[c.category]} · {c.pieceTitle}
                   </span>
-                  <span className="block truncate text-sm text-muted">
+                  <span className="block text-sm text-muted md:truncate">
                     {c.ownerName} · filed {formatWait(now - Date.parse(c.createdAt))} ago · <SpriteIcon name="camera" className="inline size-4" /> {c.photos} photo{c.photos === 1 ? "" : "s"}
                   </span>
                 </span>

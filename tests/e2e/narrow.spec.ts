@@ -1,7 +1,8 @@
 // Studio pages at 375 px that once scrolled sideways: the registry's card-print bar (its layout select
 // was as wide as its longest option), the reminders board (the table's visually hidden "Actions" header
 // escaped its scrolling box), the technicians' weekly hours (three time fields and a button in fixed
-// columns). Each page is read as seeded; nothing here changes the demo studio's data.
+// columns). And the claims list, whose rows cut the piece's name and the photo count short with an
+// ellipsis. Each page is read as seeded; nothing here changes the demo studio's data.
 import { expect, test, type Page } from "@playwright/test";
 import { ACCOUNTS, signIn } from "./helpers";
 
@@ -30,4 +31,18 @@ test("registry, reminders, working hours and audit fit a 375 px phone", async ({
   await page.goto("/studio/audit");
   await expect(page.getByRole("heading", { level: 1, name: "Audit log" })).toBeVisible();
   await noSideways(page, "/studio/audit");
+});
+
+test("the claims list on a phone shows each claim's whole line: piece, owner, age and photos", async ({ page }) => {
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto("/studio/claims");
+  const rows = page.getByRole("list", { name: "Claims" }).getByRole("link");
+  await expect(rows.first()).toBeVisible();
+  // No line of a row is cut short with an ellipsis: everything it holds is laid out inside it.
+  const clipped = await rows.evaluateAll((links) =>
+    links.flatMap((a) => [...a.querySelectorAll("span")].filter((s) => s.scrollWidth > s.clientWidth + 1).map((s) => s.textContent ?? "")),
+  );
+  expect(clipped).toEqual([]);
+  await expect(rows.first()).toContainText(/\d+ photos?/);
+  await noSideways(page, "/studio/claims");
 });
