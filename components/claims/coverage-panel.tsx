@@ -34,8 +34,11 @@ export function CoveragePanel({ coverage }: { coverage: ClaimCoverage }) {
             return (
               <p className={`flex items-center gap-2 text-lg font-semibold ${look.tone}`}>
                 <SpriteIcon name={look.icon} className="size-6 shrink-0" />
-                Suggests: {SUGGESTION_LABELS[c.suggestion]}
-                {c.suggestedCoveredPct !== null && c.suggestion === "partly_covered" ? <span className="text-base font-normal text-ink">({c.suggestedCoveredPct} % covered)</span> : null}
+                {/* One flex item beside the icon, so the share wraps under the words instead of standing in a column of its own. */}
+                <span data-testid="coverage-suggestion">
+                  Suggests: {SUGGESTION_LABELS[c.suggestion]}
+                  {c.suggestedCoveredPct !== null && c.suggestion === "partly_covered" ? <> <span className="whitespace-nowrap text-base font-normal text-ink">({c.suggestedCoveredPct} % covered)</span></> : null}
+                </span>
               </p>
             );
           })()}

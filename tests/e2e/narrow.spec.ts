@@ -46,3 +46,16 @@ test("the claims list on a phone shows each claim's whole line: piece, owner, ag
   await expect(rows.first()).toContainText(/\d+ photos?/);
   await noSideways(page, "/studio/claims");
 });
+
+test("a claim's coverage suggestion on a phone: the covered share wraps under the words, not in a column of its own", async ({ page }) => {
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto("/studio/claims");
+  // The seeded crack in the cherry desk is suggested as partly covered.
+  await page.getByRole("list", { name: "Claims" }).getByRole("link", { name: /Cherry writing desk/ }).first().click();
+  const suggestion = page.getByTestId("coverage-suggestion");
+  await expect(suggestion).toContainText(/^Suggests: Partly covered \(\d+ % covered\)$/);
+  const share = suggestion.getByText(/% covered\)$/);
+  const [a, b] = [(await suggestion.boundingBox())!, (await share.boundingBox())!];
+  expect(Math.abs(b.x - a.x), "the share starts at the words' left edge, on its own line").toBeLessThan(2);
+  await noSideways(page, "claim page");
+});
