@@ -1,7 +1,7 @@
 // `npm run jobs`: the scheduler process. node-cron runs the reminder pass at minute 5 of every hour
 // (and once at start), visit reminders every 15 minutes (and once at start), the retry of queued mail
 // every minute, the care-plan visit pass at minute 25, unfinished plan changes of hands and stalled hand-over mailings every 5 minutes,
-// the merge of the search indexes at 03:40 (server time) every night,
+// the merge of the search indexes and then the refresh of the query planner's statistics at 03:40 (server time) every night,
 // never two of a kind at once in this process; the ledger keeps passes in other processes
 // from sending anything twice. SIGTERM/SIGINT stop the schedule and abort the running passes, and
 // the process waits for each of them: each finishes the message in hand, puts back what it had claimed but not sent, and returns at once (see
@@ -56,7 +56,8 @@ const passes = [
   pass("plan transfer pass", "*/5 * * * *", () => planTransfersJob()),
   // Bulk hand-over mailings left half-sent (the server stopped): finished, each piece once.
   pass("hand-over mailing pass", "*/5 * * * *", (now, signal) => handoverMailingsJob(now, signal).then(describeHandoverMailings)),
-  // The registry's and the clients list's search indexes merged to one segment each (db/search-indexes.ts).
+  // The registry's and the clients list's search indexes merged to one segment each (db/search-indexes.ts),
+  // then the planner's statistics of the tables that grew or shrank tenfold analyzed again (db/client.ts).
   pass("search index merge", "40 3 * * *", (_now, signal) => searchIndexesJob(signal)),
 ];
 const [reminders, visitReminders] = passes;

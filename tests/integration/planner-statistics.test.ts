@@ -1,0 +1,83 @@
+// The query planner's statistics (refreshPlannerStatistics, db/client.ts): the hot reads were planned
+// on analyzed bench seeds, so a database the product opens must have statistics too. A connection that
+// opens a database whose tables hold rows but were never analyzed analyzes them (the server and the
+// scheduler at start); the scheduler's nightly pass (jobs/search-indexes.ts) analyzes a table again once
+// it has grown tenfold, and does nothing when nothing grew. Its own SQLite file (ANALYZE changes the
+// plans of the statements other test files run); invented studio, owners and pieces.
+import { beforeAll, describe, expect, it } from "vitest";
+import { getDb, openDatabase } from "@/db/client";
+import { getLucia } from "@/lib/auth/lucia";
+import { randomToken, sha256Hex } from "@/lib/crypto";
+import { searchIndexesJob } from "@/jobs/search-indexes";
+import type { Studio } from "@/db/schema";
+import { createPiece, createStudio, createUser } from "../support/fixtures";
+import { ownDatabaseFile } from "./reminders-helpers";
+
+let file: string;
+let studio: Studio;
+let owners: { id: string }[];
+
+/** Pieces of the test's studio, each held by one of its owners in turn, in one transaction. */
+function addPieces(n: number, from: number): void {
+  getDb().$client.transaction(() => {
+    for (let i = from; i < from + n; i++) createPiece(studio, { ownerId: owners[i % owners.length]!.id, title: `Planner table ${i} (invented)` });
+  })();
+}
+
+/** sqlite_stat1's row count of `index` (its first number), or null if it has none. */
+function analyzedRows(index: string): number | null {
+  const stat = getDb().$client.prepare("SELECT stat FROM sqlite_stat1 WHERE idx = ?").pluck().get(index) as string | undefined;
+  return stat === undefined ? null : Number(stat.split(" ")[0]);
+}
+
+beforeAll(async () => {
+  file = ownDatabaseFile("planner-statistics");
+  studio = createStudio({ name: "Planner Statistics Studio (invented)" });
+  owners = [];
+  for (let i = 0; i < 5; i++) owners.push(await createUser({ name: `Planner owner ${i} (invented)` }));
+  for (const owner of owners) await getLucia().createSession(owner.id, {}, { sessionId: sha256Hex(randomToken(24)) });
+  addPieces(60, 0);
+});
+
+describe("planner statistics", () => {
+  it("a connection opened on a database never analyzed analyzes its tables", () => {
+    // getDb() opened the file when the studio's tables were still empty (only the migrations' own
+    // rows were there to analyze).
+    const analyzedTables = () => getDb().$client.prepare("SELECT DISTINCT tbl FROM sqlite_stat1 WHERE tbl NOT LIKE '%fts%' ORDER BY tbl").pluck().all();
+    expect(analyzedTables()).not.toEqual(expect.arrayContaining(["pieces"]));
+    expect(analyzedRows("pieces_owner_idx")).toBeNull();
+
+    const opened = openDatabase(file); // as the server and the scheduler open it at start
+    opened.$client.close();
+    const tables = analyzedTables();
+    expect(tables).toEqual(expect.arrayContaining(["pieces", "finish_layers", "sessions", "users", "studios"]));
+    // 60 pieces over 5 owners: 12 to an owner, as ANALYZE counts them.
+    const ownerIdx = getDb().$client.prepare("SELECT stat FROM sqlite_stat1 WHERE idx = 'pieces_owner_idx'").pluck().get();
+    expect(ownerIdx).toBe("60 12");
+    expect(getDb().$client.prepare("SELECT count(*) FROM sqlite_stat4 WHERE tbl = 'pieces'").pluck().get()).toBeGreaterThan(0);
+
+    // Opened again with nothing changed: nothing more to analyze.
+    const again = openDatabase(file);
+    const before = getDb().$client.prepare("SELECT tbl, idx, stat FROM sqlite_stat1 ORDER BY tbl, idx").all();
+    again.$client.close();
+    expect(getDb().$client.prepare("SELECT tbl, idx, stat FROM sqlite_stat1 ORDER BY tbl, idx").all()).toEqual(before);
+  });
+
+  it("the nightly pass analyzes a table again once it has grown tenfold, and only then", async () => {
+    expect(analyzedRows("pieces_owner_idx")).toBe(60);
+    // Twice as many pieces: the statistics still hold, nothing to do.
+    addPieces(60, 60);
+    expect((await searchIndexesJob()).filter((l) => l.startsWith("planner statistics"))).toEqual([]);
+    expect(analyzedRows("pieces_owner_idx")).toBe(60);
+
+    // Over ten times as many: analyzed again, and the pass says so.
+    addPieces(540, 120);
+    const lines = (await searchIndexesJob()).filter((l) => l.startsWith("planner statistics"));
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(/^planner statistics: (.+, )?pieces(, .+)? analyzed in \d+ ms$/);
+    expect(analyzedRows("pieces_owner_idx")).toBe(660);
+    expect(analyzedRows("finish_layers_piece_idx")).toBe(660);
+
+    expect((await searchIndexesJob()).filter((l) => l.startsWith("planner statistics"))).toEqual([]);
+  });
+});
