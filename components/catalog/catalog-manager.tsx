@@ -37,7 +37,7 @@ export type CatalogRow = {
 };
 
 /** A price typed in the currency's major unit, kept in minor units. */
-function MoneyField({ label, currency, value, onChange, error, ref }: { label: string; currency: string; value: number | undefined; onChange: (v: number) => void; error?: string; ref?: React.Ref<HTMLInputElement> }) {
+function MoneyField({ label, currency, value, onChange, error, ref }: { label: string; currency: string; value: number | null | undefined; onChange: (v: number | null) => void; error?: string; ref?: React.Ref<HTMLInputElement> }) {
   const exp = currencyDigits(currency);
   const id = useId();
   const [text, setText] = useState(value == null ? "" : (value / 10 ** exp).toFixed(exp));
@@ -55,7 +55,7 @@ function MoneyField({ label, currency, value, onChange, error, ref }: { label: s
         onChange={(e) => {
           setText(e.target.value);
           const n = Number(e.target.value.replace(",", "."));
-          onChange(e.target.value.trim() === "" ? Number.NaN : Math.round(n * 10 ** exp));
+          onChange(e.target.value.trim() === "" ? null : Math.round(n * 10 ** exp));
         }}
         className="block min-h-11 w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
       />
@@ -134,7 +134,7 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
         {containers.fields.map((f, i) => (
           <div key={f.id} className="grid items-end gap-3 sm:grid-cols-[1fr_1fr_auto]">
             <TextField label="Size (mL)" inputMode="numeric" {...register(`containers.${i}.ml`, { setValueAs: numberOrNull })} error={e.containers?.[i]?.ml?.message} />
-            <Controller control={control} name={`containers.${i}.priceMinor`} render={({ field }) => <MoneyField ref={field.ref} label="Price" currency={currency} value={field.value as number | undefined} onChange={field.onChange} error={e.containers?.[i]?.priceMinor?.message} />} />
+            <Controller control={control} name={`containers.${i}.priceMinor`} render={({ field }) => <MoneyField ref={field.ref} label="Price" currency={currency} value={field.value as number | null | undefined} onChange={field.onChange} error={e.containers?.[i]?.priceMinor?.message} />} />
             <Button variant="ghost" onClick={() => containers.remove(i)} aria-label={`Remove container ${i + 1}`}>
               <SpriteIcon name="trash" className="size-4" /> Remove
             </Button>

@@ -151,15 +151,18 @@ export const importSchema = z.object({
 });
 export type ImportValues = z.output<typeof importSchema>;
 
+/** A number the form needs: left empty (the forms send null) it asks for it; anything else not a number says so. */
+const neededNumber = (empty: string, notNumber: string) => z.number({ error: (issue) => (issue.input == null ? empty : notNumber) });
+
 export const catalogProductSchema = z.object({
   name: text(120).min(1, "Give the product a name."),
   finishClass: z.enum(FINISH_CLASSES, { error: "Pick a finish class." }),
-  coverageM2PerL: z.number({ error: "Coverage must be a number." }).positive("Coverage must be more than 0.").max(1000, "Coverage above 1,000 m²/L; check the unit."),
+  coverageM2PerL: neededNumber("Enter the coverage.", "Coverage must be a number.").positive("Coverage must be more than 0.").max(1000, "Coverage above 1,000 m²/L; check the unit."),
   containers: z
     .array(
       z.object({
-        ml: z.number({ error: "Size must be a number." }).int("Whole millilitres.").positive("Size must be more than 0.").max(100_000, "At most 100,000 mL (100 L) a container."),
-        priceMinor: z.number({ error: "Price must be a number." }).int("Price in whole cents.").min(0, "Price can't be negative.").max(100_000_000, "That price is too large."),
+        ml: neededNumber("Enter the size.", "Size must be a number.").int("Whole millilitres.").positive("Size must be more than 0.").max(100_000, "At most 100,000 mL (100 L) a container."),
+        priceMinor: neededNumber("Enter the price.", "Price must be a number.").int("Price in whole cents.").min(0, "Price can't be negative.").max(100_000_000, "That price is too large."),
       }),
     )
     .max(10, "At most 10 container sizes.")

@@ -157,3 +157,29 @@ describe("checks a schema gives no words of its own read in words (lib/validatio
     expect(issues(r)).toEqual(["pageSize: Page size is 10, 25, 50 or 100."]);
   });
 });
+
+describe("the finish catalog's needed numbers: empty asks for the value, anything else not a number says so", () => {
+  // The catalog form sends an empty number field as null (components/forms/field-values.ts numberOrNull,
+  // the price field in components/catalog/catalog-manager.tsx), typed words as NaN; an API caller may send text.
+  const base = { name: "Oil", finishClass: "hardwax_oil", coverageM2PerL: 10, containers: [{ ml: 250, priceMinor: 100 }] };
+  const cases: [string, Record<string, unknown>, string, string][] = [
+    ["coverage left empty", { ...base, coverageM2PerL: null }, "coverageM2PerL", "Enter the coverage."],
+    ["coverage not sent", { ...base, coverageM2PerL: undefined }, "coverageM2PerL", "Enter the coverage."],
+    ["coverage typed as words", { ...base, coverageM2PerL: Number("lots") }, "coverageM2PerL", "Coverage must be a number."],
+    ["coverage sent as text", { ...base, coverageM2PerL: "ten" }, "coverageM2PerL", "Coverage must be a number."],
+    ["container size left empty", { ...base, containers: [{ ml: null, priceMinor: 100 }] }, "containers.0.ml", "Enter the size."],
+    ["container size typed as words", { ...base, containers: [{ ml: Number("big"), priceMinor: 100 }] }, "containers.0.ml", "Size must be a number."],
+    ["price left empty", { ...base, containers: [{ ml: 250, priceMinor: null }] }, "containers.0.priceMinor", "Enter the price."],
+    ["price typed as words", { ...base, containers: [{ ml: 250, priceMinor: Number.NaN }] }, "containers.0.priceMinor", "Price must be a number."],
+  ];
+  it.each(cases)("%s", (_label, input, path, words) => {
+    const r = piecesSchemas.catalogProductSchema.safeParse(input);
+    expect(r.success).toBe(false);
+    expect(r.error!.issues.filter((i) => i.path.join(".") === path).map((i) => i.message)).toEqual([words]);
+  });
+  it("an emptied coverage in an edit asks for it too", () => {
+    const r = piecesSchemas.catalogPatchSchema.safeParse({ coverageM2PerL: null });
+    expect(r.success).toBe(false);
+    expect(r.error!.issues.map((i) => i.message)).toEqual(["Enter the coverage."]);
+  });
+});
