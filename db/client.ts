@@ -17,7 +17,17 @@ export function openDatabase(file: string): Db {
   // Writers wait for each other instead of failing with SQLITE_BUSY.
   sqlite.pragma("busy_timeout = 5000");
   sqlite.pragma("synchronous = NORMAL");
-  if (file !== ":memory:") refreshPlannerStatistics(sqlite);
+  if (file !== ":memory:") {
+    // Statistics only help the planner: a database kept busy past the timeout above (another process
+    // writing a long transaction) opens without fresh ones rather than not at all; the nightly pass
+    // and the next open try again.
+    try {
+      refreshPlannerStatistics(sqlite);
+    } catch (e) {
+      if (!(e instanceof Database.SqliteError && e.code.startsWith("SQLITE_BUSY"))) throw e;
+      console.error(`planner statistics not refreshed at open (${e.code}); the nightly pass refreshes them`);
+    }
+  }
   cacheStatements(sqlite);
   return drizzle(sqlite, { schema });
 }

@@ -80,4 +80,23 @@ describe("planner statistics", () => {
 
     expect((await searchIndexesJob()).filter((l) => l.startsWith("planner statistics"))).toEqual([]);
   });
+
+  it("a database kept busy past the timeout still opens, without fresh statistics", () => {
+    // The pieces' statistics gone, so opening wants to analyze them; another connection holds the
+    // write lock all the while (as a long write in another process would).
+    const sqlite = getDb().$client;
+    sqlite.exec("DELETE FROM sqlite_stat1 WHERE tbl = 'pieces'");
+    sqlite.exec("BEGIN IMMEDIATE");
+    try {
+      const opened = openDatabase(file); // waits out busy_timeout (5 s), then opens anyway
+      expect(opened.$client.prepare("SELECT count(*) FROM pieces").pluck().get()).toBe(660);
+      opened.$client.close();
+    } finally {
+      sqlite.exec("ROLLBACK");
+    }
+    expect(analyzedRows("pieces_owner_idx")).toBeNull();
+    // Once the lock is free, the next open analyzes them.
+    openDatabase(file).$client.close();
+    expect(analyzedRows("pieces_owner_idx")).toBe(660);
+  }, 20_000);
 });
