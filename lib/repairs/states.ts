@@ -1,5 +1,6 @@
 import type { Payment, RepairJob } from "@/db/schema";
 import { conflict } from "@/lib/errors";
+import { formatMoney } from "@/lib/format";
 
 type JobState = RepairJob["state"];
 
@@ -90,3 +91,17 @@ export const OWNER_REFUND_REASON_LABELS: Record<RefundReason, string> = {
 
 /** The product refunds these on its own; staff see a flag on the job. */
 export const isAutomaticRefund = (reason: Payment["refundReason"]): reason is Exclude<RefundReason, "job_cancelled"> => reason !== null && reason !== "job_cancelled";
+
+/**
+ * A job's amount in a line of a list: its total for the studio's country, or "Covered by the warranty"
+ * when the warranty takes all of it (a share but nothing left to pay). A partly covered job shows what
+ * the owner pays.
+ */
+export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency">, country: string): string {
+  return jobIsCovered(job) ? "Covered by the warranty" : formatMoney(job.totalMinor, job.currency, country);
+}
+
+/** The warranty pays for all of the job: the owner owes nothing. */
+export function jobIsCovered(job: Pick<RepairJob, "totalMinor" | "coveredPct">): boolean {
+  return job.totalMinor === 0 && job.coveredPct > 0;
+}

@@ -35,6 +35,8 @@ import { getClient } from "@/lib/clients/get";
 import { linkAccountToClients } from "@/lib/clients/link";
 import { listClients } from "@/lib/clients/list";
 import { clientTimeline, TIMELINE_KINDS } from "@/lib/clients/timeline";
+import { jobAmountText } from "@/lib/repairs/states";
+import { listOwnerJobs, listStudioJobs } from "@/lib/repairs/jobs";
 import { updateClient } from "@/lib/clients/update";
 import { AppError } from "@/lib/errors";
 import { registerPiece } from "@/lib/owner/registration";
@@ -311,6 +313,34 @@ describe("the timeline", () => {
     const page = clientTimeline(staff, c.id, 5);
     expect(page.entries.map((e) => e.key)).toEqual(all.entries.slice(0, 5).map((e) => e.key));
     expect(page.hasMore).toBe(true);
+  });
+});
+
+describe("a covered repair job's amount", () => {
+  it("reads 'Covered by the warranty' in the timeline and the job lists, never $0.00; a partly covered job shows what the owner pays", async () => {
+    const { studio, staff } = await studioWithStaff();
+    const owner = await createUser({ emailVerifiedAt: NOW, name: "Covered Owner (invented)" });
+    const c = create(staff, { name: "Covered Owner (invented)", email: owner.email });
+    const { piece } = createPiece(studio, { title: "Covered table (invented)", deliveredOn: "2025-12-20", clientId: c.id, ownerId: owner.id, registeredAt: NOW });
+    const db = getDb();
+    db.insert(ownerships).values({ studioId: studio.id, pieceId: piece.id, userId: owner.id, via: "registration", startedAt: NOW }).run();
+    const job = (title: string, coveredPct: number, coveredMinor: number, totalMinor: number) =>
+      db
+        .insert(repairJobs)
+        .values({ studioId: studio.id, pieceId: piece.id, ownerId: owner.id, origin: "studio", state: coveredPct === 100 ? "covered" : "quoted", title, quoteInput: {}, lines: [], currency: "USD", coveredPct, subtotalMinor: 9_000, coveredMinor, netMinor: totalMinor, totalMinor, quotedAt: NOW })
+        .returning()
+        .get();
+    const covered = job("Fill the crack (invented)", 100, 9_000, 0);
+    const partly = job("Mend the edge (invented)", 40, 3_600, 5_400);
+
+    const quoted = clientTimeline(staff, c.id, 100).entries.filter((e) => e.kind === "job_quoted").map((e) => e.title);
+    expect(quoted).toContain("Quote sent for “Fill the crack (invented)”: Covered by the warranty");
+    expect(quoted).toContain("Quote sent for “Mend the edge (invented)”: $54.00");
+    for (const rows of [listStudioJobs(staff, {}), listOwnerJobs(owner)]) {
+      const amount = (id: string) => jobAmountText(rows.find((r) => r.id === id)!, studio.country);
+      expect(amount(covered.id)).toBe("Covered by the warranty");
+      expect(amount(partly.id)).toBe("$54.00");
+    }
   });
 });
 

@@ -4,9 +4,8 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { StatusBadge } from "@/components/ui/status";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { formatMoney } from "@/lib/format";
 import { listOwnerJobs } from "@/lib/repairs/jobs";
-import { JOB_STATE_LABELS, JOB_STATE_TONES } from "@/lib/repairs/states";
+import { JOB_STATE_LABELS, JOB_STATE_TONES, jobAmountText } from "@/lib/repairs/states";
 
 export const metadata: Metadata = { title: "Repairs" };
 
@@ -27,7 +26,7 @@ export default async function OwnerJobsPage() {
                   <StatusBadge label={JOB_STATE_LABELS[j.state]} tone={JOB_STATE_TONES[j.state]} />
                 </span>
                 <span className="mt-1 block text-sm text-muted">
-                  {j.studioName} · {formatMoney(j.totalMinor, j.currency, j.studioCountry)}
+                  {j.studioName} · {jobAmountText(j, j.studioCountry)}
                 </span>
               </Link>
             </li>

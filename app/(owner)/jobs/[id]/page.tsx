@@ -9,7 +9,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
-import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, paymentCounts } from "@/lib/repairs/states";
+import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, paymentCounts } from "@/lib/repairs/states";
 import { formatMoney } from "@/lib/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
@@ -93,7 +93,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
             <OwnerCancelJob jobId={job.id} />
           </div>
         ) : null}
-        <p className="text-sm text-muted">Payment is handled by Stripe; Grainward never sees your card number.</p>
+        {jobIsCovered(job) ? null : <p className="text-sm text-muted">Payment is handled by Stripe; Grainward never sees your card number.</p>}
         <JobConversation jobId={job.id} studioName={studio.name} />
       </div>
     </>
