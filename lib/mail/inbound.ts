@@ -31,7 +31,7 @@ export type InboundMail = {
   messageId: string;
   /** Envelope MAIL FROM and the From header's address (either may be the owner's). */
   senders: string[];
-  /** Envelope RCPT TO, then the To and Cc headers. */
+  /** Envelope RCPT TO, then the To and Cc headers; each address once (the envelope repeats the To header). */
   recipients: string[];
   subject: string;
   text: string;
@@ -120,11 +120,17 @@ function addresses(field: AddressObject | AddressObject[] | undefined): string[]
   return list.flatMap((a) => a.value.map((v) => v.address ?? "")).filter(Boolean);
 }
 
+/** Each address once, in first-seen order and spelling; the same address in other case is the same. */
+function onceEach(list: string[]): string[] {
+  const seen = new Set<string>();
+  return list.filter((a) => !seen.has(lower(a)) && seen.add(lower(a)));
+}
+
 export function inboundFromParsed(parsed: ParsedMail, raw: Buffer, envelope: { from: string; to: string[] }, receivedAt = new Date()): InboundMail {
   return {
     messageId: (parsed.messageId ?? `<sha256-${createHash("sha256").update(raw).digest("hex")}@no-message-id>`).slice(0, 500),
     senders: [...addresses(parsed.from), envelope.from].filter(Boolean),
-    recipients: [...envelope.to, ...addresses(parsed.to), ...addresses(parsed.cc)],
+    recipients: onceEach([...envelope.to, ...addresses(parsed.to), ...addresses(parsed.cc)]),
     subject: parsed.subject ?? "",
     text: parsed.text ?? "",
     receivedAt,

@@ -280,6 +280,8 @@ describe("replies by e-mail through the inbound listener", () => {
     const kept = getDb().select().from(unmatchedMail).where(eq(unmatchedMail.threadId, threadId)).all();
     expect(kept.map((k) => k.reason).sort()).toEqual(["bad_token", "wrong_sender"]);
     expect(kept.every((k) => k.studioId === w.studio.id)).toBe(true);
+    // The envelope's recipient and the To header name the same address: it is kept once, not "x, x".
+    expect(kept.map((k) => k.toEmail).sort()).toEqual([forged, replyAddress(threadId)].sort());
     const listed = listInbox(w.staffCtx, { view: "unmatched" }).unmatched;
     expect(listed.map((u) => u.body).sort()).toEqual(["Forged address (invented).", "Not the owner (invented)."]);
     const other = await otherStudioStaff();
@@ -300,7 +302,7 @@ describe("replies by e-mail through the inbound listener", () => {
     await expect(sendToListener({ from: w.owner.email, to: "someone@elsewhere.test.example", text: "Not for us." })).rejects.toThrow(/550|recipient/i);
     const messageId = `<to-studio-${w.studio.id}@test.example>`;
     await sendToListener({ from: w.owner.email, to: w.studio.email, text: "Written to the studio's address (invented).", messageId });
-    expect(getDb().select().from(unmatchedMail).where(eq(unmatchedMail.emailMessageId, messageId)).get()).toMatchObject({ studioId: w.studio.id, reason: "no_token" });
+    expect(getDb().select().from(unmatchedMail).where(eq(unmatchedMail.emailMessageId, messageId)).get()).toMatchObject({ studioId: w.studio.id, reason: "no_token", toEmail: w.studio.email });
   });
 
   it("refuses a message over the size limit at the SMTP level", async () => {
