@@ -1,6 +1,6 @@
 "use client";
 
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState, type FormEvent } from "react";
 import { useForm, useWatch, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import type { z } from "zod";
@@ -30,6 +30,10 @@ const QUESTIONS: { name: keyof Values["answers"] & string; label: string }[] = [
 ];
 
 const num = { setValueAs: (v: unknown) => (v === "" || v == null ? null : Number(v)) };
+// The four readings are checked together ("all four or none"): once the form has been sent, a change to one
+// checks the others again, so their errors go as soon as the set is whole (or empty) again.
+const READINGS = ["answers.room.driestTemp", "answers.room.driestRh", "answers.room.dampestTemp", "answers.room.dampestRh"] as const;
+const reading = (name: (typeof READINGS)[number]) => ({ ...num, deps: READINGS.filter((r) => r !== name) });
 
 /** The owner's claim form: phone first, draft kept in this browser until the claim and its photos are sent. */
 export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: string; pieceTitle: string; today: string; unit: "C" | "F" }) {
@@ -39,7 +43,10 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
   const queue = usePhotoQueue(draftKey);
   const form = useForm<Values, unknown, z.output<typeof createClaimSchema>>({
     resolver: useLazyZodResolver<typeof createClaimSchema, Values, z.output<typeof createClaimSchema>>(() => import("@/lib/validation/claims").then((m) => m.createClaimSchema)),
-    mode: "onTouched",
+    // Checked when the owner presses Send, then again as they fix a field. Checking on leaving a field put
+    // an error line under it during the press of "Send the claim", moving the button from under the finger.
+    mode: "onSubmit",
+    reValidateMode: "onChange",
     defaultValues: {
       pieceId,
       category: "" as Values["category"],
@@ -104,17 +111,26 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
   );
   const busy = send.busy;
 
-  const onSubmit = form.handleSubmit((values) => {
-    if (queue.items.length === 0) {
-      send.reset();
-      setPhotoError("Add at least one photo of the damage.");
-      return;
-    }
-    send.run(values);
-  });
+  // One press shows every problem at once: the photos are checked in the same pass as the fields. The first
+  // field with an error takes the focus (react-hook-form); with only the photos missing, their button does.
+  const photosRef = useRef<HTMLElement>(null);
+  const noPhotos = () => {
+    if (queue.items.length > 0) return false;
+    send.reset();
+    setPhotoError("Add at least one photo of the damage.");
+    return true;
+  };
+  const onSubmit = (e: FormEvent<HTMLFormElement>) =>
+    form.handleSubmit(
+      (values) => {
+        if (noPhotos()) photosRef.current?.querySelector<HTMLButtonElement>("button:not([disabled])")?.focus();
+        else send.run(values);
+      },
+      () => void noPhotos(),
+    )(e);
 
   const photos = (
-    <section className="space-y-3" aria-labelledby="photos-heading">
+    <section ref={photosRef} className="space-y-3" aria-labelledby="photos-heading">
       <h2 id="photos-heading" className="font-display text-xl font-semibold">
         Photos
       </h2>
@@ -251,10 +267,10 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
           ))}
         </fieldset>
         <div className="grid grid-cols-2 gap-3">
-          <TextField label={`Driest: temp. (°${roomUnit})`} inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestTemp?.message} {...register("answers.room.driestTemp", num)} />
-          <TextField label="Driest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestRh?.message} {...register("answers.room.driestRh", num)} />
-          <TextField label={`Dampest: temp. (°${roomUnit})`} inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestTemp?.message} {...register("answers.room.dampestTemp", num)} />
-          <TextField label="Dampest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestRh?.message} {...register("answers.room.dampestRh", num)} />
+          <TextField label={`Driest: temp. (°${roomUnit})`} inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestTemp?.message} {...register("answers.room.driestTemp", reading("answers.room.driestTemp"))} />
+          <TextField label="Driest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.driestRh?.message} {...register("answers.room.driestRh", reading("answers.room.driestRh"))} />
+          <TextField label={`Dampest: temp. (°${roomUnit})`} inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestTemp?.message} {...register("answers.room.dampestTemp", reading("answers.room.dampestTemp"))} />
+          <TextField label="Dampest: % RH" inputMode="decimal" type="number" step="any" error={errors.answers?.room?.dampestRh?.message} {...register("answers.room.dampestRh", reading("answers.room.dampestRh"))} />
         </div>
         <TextField
           label="Largest change within one day, % RH (optional)"

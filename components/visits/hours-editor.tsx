@@ -19,7 +19,10 @@ export function HoursEditor({ technicianId, name, initial, editable }: { technic
   const form = useForm<TechnicianHoursInput, unknown, Values>({
     resolver: useLazyZodResolver<typeof technicianHoursSchema, TechnicianHoursInput, Values>(() => import("@/lib/validation/visits").then((m) => m.technicianHoursSchema)),
     defaultValues: { hours: initial.hours, timeOff: initial.timeOff.map((t) => ({ ...t, start: t.start ?? "", end: t.end ?? "" })) },
-    mode: "onTouched",
+    // Checked on pressing the button, then as fields are fixed: an error shown on leaving a field moved the
+    // button during the press (the same choice as components/claims/claim-form.tsx).
+    mode: "onSubmit",
+    reValidateMode: "onChange",
   });
   const hours = useFieldArray({ control: form.control, name: "hours" });
   const off = useFieldArray({ control: form.control, name: "timeOff" });

@@ -56,7 +56,10 @@ export function VisitReportForm({
   const form = useForm<VisitReportInput, unknown, VisitReportValues>({
     resolver: useLazyZodResolver<typeof visitReportSchema, VisitReportInput, VisitReportValues>(() => import("@/lib/validation/visits").then((m) => m.visitReportSchema)),
     defaultValues: { work: "", earlyReason: "", layers: defaultLayers.map((l) => ({ surface: "top", finishClass: l.finishClass, productId: l.productId, coats: l.coats, appliedOn: today, productLabel: "", batchLot: "" })) },
-    mode: "onTouched",
+    // Checked on pressing the button, then as fields are fixed: an error shown on leaving a field moved the
+    // button during the press (the same choice as components/claims/claim-form.tsx).
+    mode: "onSubmit",
+    reValidateMode: "onChange",
   });
   const layers = useFieldArray({ control: form.control, name: "layers" });
   const layerValues = useWatch({ control: form.control, name: "layers" });

@@ -200,7 +200,10 @@ function EditVisit({ visit, technicians, timeZone, onClose, onCancel, onMoved }:
   const form = useForm<VisitEditFormValues>({
     resolver: useLazyZodResolver(() => import("@/lib/validation/visits").then((m) => m.visitEditFormSchema)),
     defaultValues: { date: `${s.year}-${pad(s.month)}-${pad(s.day)}`, time: `${pad(s.hour)}:${pad(s.minute)}`, technicianId: visit.technicianId },
-    mode: "onTouched",
+    // Checked on pressing the button, then as fields are fixed: an error shown on leaving a field moved the
+    // button during the press (the same choice as components/claims/claim-form.tsx).
+    mode: "onSubmit",
+    reValidateMode: "onChange",
   });
   const [error, setError] = useState<string | null>(null);
   const errors = form.formState.errors;
