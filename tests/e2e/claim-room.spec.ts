@@ -38,3 +38,22 @@ test("owner gives the daily temperature change in °F or °C; out of range is re
   await expect(page.getByText(/Enter a change within a day/)).toHaveCount(0);
   await context.close();
 });
+
+test("the claim form's back link returns where the owner came from: the piece, or the claims list", async ({ browser }) => {
+  const context = await browser.newContext(PHONE);
+  const page = await context.newPage();
+  await signInTo(page, ACCOUNTS.owner, "/claims");
+  await page.getByRole("link", { name: new RegExp(PIECE) }).click();
+  await expect(page.getByRole("heading", { name: "Report damage" })).toBeVisible();
+  await expect(page.getByRole("link", { name: "← My claims" })).toHaveAttribute("href", "/claims");
+  const pieceId = new URL(page.url()).pathname.split("/")[2]!;
+
+  // From the piece's own page, "Report damage" leads to a form whose back link names the piece and goes to it.
+  await page.goto(`/pieces/${pieceId}`);
+  await page.getByRole("link", { name: "Report damage" }).click();
+  await expect(page.getByRole("heading", { name: "Report damage" })).toBeVisible();
+  await expect(page.getByRole("link", { name: "← My claims" })).toHaveCount(0);
+  await page.getByRole("link", { name: `← ${PIECE}` }).click();
+  await expect(page).toHaveURL(new RegExp(`/pieces/${pieceId}$`));
+  await context.close();
+});

@@ -48,7 +48,7 @@ export default async function OwnerClaimsPage() {
           <ul className="space-y-2">
             {pieces.map((p) => (
               <li key={p.id}>
-                <Link href={`/pieces/${p.id}/claim/new`} className="flex min-h-11 items-center justify-between rounded-lg border border-line bg-card px-4 py-3 hover:border-resin">
+                <Link href={`/pieces/${p.id}/claim/new?from=claims`} className="flex min-h-11 items-center justify-between rounded-lg border border-line bg-card px-4 py-3 hover:border-resin">
                   <span>
                     {p.title} <span className="text-sm text-muted">· {p.studioName}</span>
                   </span>
