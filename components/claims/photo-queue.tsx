@@ -3,6 +3,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { toast } from "sonner";
 import { Button } from "@/components/ui/button";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { cn } from "@/components/ui/cn";
 import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { ApiError, apiJson, uploadForm } from "@/components/api-client";
@@ -159,7 +160,6 @@ export function usePhotoQueue(draftKey: string) {
   const remove = useCallback(
     async (item: QueueItem, claimId?: string) => {
       if (item.status === "done" && item.photo && claimId) {
-        if (!window.confirm(`Remove ${item.name} from the claim?`)) return;
         try {
           await apiJson(`/api/claims/${claimId}/photos/${item.photo.id}`, { method: "DELETE" });
         } catch (e) {
@@ -218,41 +218,58 @@ function Preview({ blob, alt }: { blob: Blob; alt: string }) {
 }
 
 export function PhotoQueueList({ items, onRetry, onRemove, busy }: { items: QueueItem[]; onRetry?: (i: QueueItem) => void; onRemove: (i: QueueItem) => void; busy?: boolean }) {
+  // An uploaded photo is on the claim already: removing it is asked first, in the app's own dialog.
+  const [asking, setAsking] = useState<QueueItem | null>(null);
   if (items.length === 0) return null;
   return (
-    <ul className="space-y-2" aria-label="Photos">
-      {items.map((item) => (
-        <li key={item.key} className="flex items-center gap-3 rounded-lg border border-line bg-white p-2">
-          <Preview blob={item.blob} alt={item.name} />
-          <div className="min-w-0 flex-1 space-y-1">
-            <p className="truncate text-sm font-medium">{item.name}</p>
-            <div
-              role="progressbar"
-              aria-label={`Upload of ${item.name}`}
-              aria-valuemin={0}
-              aria-valuemax={100}
-              aria-valuenow={Math.round(item.progress * 100)}
-              className="h-2 overflow-hidden rounded-full bg-line"
-            >
-              <div className={cn("h-full transition-[width]", item.status === "error" ? "bg-danger" : "bg-resin")} style={{ width: `${Math.round(item.progress * 100)}%` }} />
+    <>
+      <ConfirmDialog
+        open={asking !== null}
+        title={`Remove ${asking?.name ?? "the photo"} from the claim?`}
+        confirmLabel="Remove the photo"
+        cancelLabel="Keep the photo"
+        onCancel={() => setAsking(null)}
+        onConfirm={() => {
+          if (asking) onRemove(asking);
+          setAsking(null);
+        }}
+      >
+        <p>The studio will no longer see it with your claim.</p>
+      </ConfirmDialog>
+      <ul className="space-y-2" aria-label="Photos">
+        {items.map((item) => (
+          <li key={item.key} className="flex items-center gap-3 rounded-lg border border-line bg-white p-2">
+            <Preview blob={item.blob} alt={item.name} />
+            <div className="min-w-0 flex-1 space-y-1">
+              <p className="truncate text-sm font-medium">{item.name}</p>
+              <div
+                role="progressbar"
+                aria-label={`Upload of ${item.name}`}
+                aria-valuemin={0}
+                aria-valuemax={100}
+                aria-valuenow={Math.round(item.progress * 100)}
+                className="h-2 overflow-hidden rounded-full bg-line"
+              >
+                <div className={cn("h-full transition-[width]", item.status === "error" ? "bg-danger" : "bg-resin")} style={{ width: `${Math.round(item.progress * 100)}%` }} />
+              </div>
+              <p className={cn("text-xs", item.status === "error" ? "font-medium text-danger" : "text-muted")}>
+                {item.status === "waiting" && "Waiting to upload"}
+                {item.status === "uploading" && `Uploading… ${Math.round(item.progress * 100)} %`}
+                {item.status === "done" && "Uploaded"}
+                {item.status === "error" && item.error}
+              </p>
             </div>
-            <p className={cn("text-xs", item.status === "error" ? "font-medium text-danger" : "text-muted")}>
-              {item.status === "waiting" && "Waiting to upload"}
-              {item.status === "uploading" && `Uploading… ${Math.round(item.progress * 100)} %`}
-              {item.status === "done" && "Uploaded"}
-              {item.status === "error" && item.error}
-            </p>
-          </div>
-          {item.status === "error" && onRetry ? (
-            <Button variant="ghost" className="px-2" aria-label={`Retry ${item.name}`} onClick={() => onRetry(item)} disabled={busy}>
-              <SpriteIcon name="rotate-ccw" className="size-5" />
+            {item.status === "error" && onRetry ? (
+              <Button variant="ghost" className="px-2" aria-label={`Retry ${item.name}`} onClick={() => onRetry(item)} disabled={busy}>
+                <SpriteIcon name="rotate-ccw" className="size-5" />
+              </Button>
+            ) : null}
+            <Button variant="ghost" className="px-2" aria-label={`Remove ${item.name}`} onClick={() => (item.status === "done" && item.photo ? setAsking(item) : onRemove(item))} disabled={busy || item.status === "uploading"}>
+              <SpriteIcon name="trash" className="size-5" />
             </Button>
-          ) : null}
-          <Button variant="ghost" className="px-2" aria-label={`Remove ${item.name}`} onClick={() => onRemove(item)} disabled={busy || item.status === "uploading"}>
-            <SpriteIcon name="trash" className="size-5" />
-          </Button>
-        </li>
-      ))}
-    </ul>
+          </li>
+        ))}
+      </ul>
+    </>
   );
 }

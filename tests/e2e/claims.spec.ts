@@ -197,6 +197,54 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   await Promise.all([owner.close(), staff.close()]);
 });
 
+test("an uploaded photo is removed from a sent claim through the app's own dialog: kept once, then removed", async ({ browser }) => {
+  const owner = await phone(browser, ACCOUNTS.owner);
+  const page = await owner.newPage();
+  // A browser confirm() box would be dismissed here and the remove button would seem dead.
+  let browserDialog = "";
+  page.on("dialog", (d) => {
+    browserDialog = d.message();
+    void d.dismiss();
+  });
+  await page.goto("/claims");
+  await page.locator('a[href$="/claim/new"]', { hasText: PIECE }).click();
+  await page.getByLabel("Kind of damage").selectOption("structural");
+  await page.getByLabel("Describe it").fill(`A slat has split along the grain (e2e ${Date.now()}).`);
+  for (const q of ["hot near the damage", "spill, cleaner", "knocked, dropped", "used or stored outdoors", "direct sun"]) {
+    await page.getByRole("group", { name: new RegExp(q) }).getByText("No", { exact: true }).click();
+  }
+  await page.locator("#claim-photos").setInputFiles([
+    { name: "split-slat.jpg", mimeType: "image/jpeg", buffer: await photo(4) },
+    { name: "bench-side.jpg", mimeType: "image/jpeg", buffer: await photo(5) },
+  ]);
+  // The first photo goes up, the second is cut off: the form stays, the claim sent, one photo on it.
+  let uploads = 0;
+  await page.route("**/api/claims/*/photos", (route) => (++uploads === 1 ? route.continue() : route.abort()));
+  await page.getByRole("button", { name: "Send the claim" }).click();
+  await expect(page.getByText("Your claim was sent")).toBeVisible({ timeout: 30_000 });
+  const list = page.getByRole("list", { name: "Photos" });
+  await expect(list.getByText("Uploaded")).toHaveCount(1);
+  const claimId = await page.getByRole("link", { name: "Go to the claim" }).getAttribute("href").then((h) => h!.split("/").pop()!);
+  const photoCount = async () => ((await (await owner.request.get(`/api/claims/${claimId}`)).json()) as { photos: unknown[] }).photos.length;
+  expect(await photoCount()).toBe(1);
+
+  const ask = page.getByRole("dialog", { name: "Remove split-slat.jpg from the claim?" });
+  await page.getByRole("button", { name: "Remove split-slat.jpg" }).click();
+  await expect(ask).toBeVisible();
+  await ask.getByRole("button", { name: "Keep the photo" }).click();
+  await expect(ask).toBeHidden();
+  await expect(list.getByText("split-slat.jpg")).toBeVisible();
+  expect(await photoCount()).toBe(1);
+
+  await page.getByRole("button", { name: "Remove split-slat.jpg" }).click();
+  await ask.getByRole("button", { name: "Remove the photo" }).click();
+  await expect(page.getByText("Photo removed.")).toBeVisible();
+  await expect(list.getByText("split-slat.jpg")).toHaveCount(0);
+  expect(await photoCount()).toBe(0);
+  expect(browserDialog).toBe("");
+  await owner.close();
+});
+
 test("the photo route refuses an oversize body with 413 and a non-image with 415, over real HTTP", async ({ browser }) => {
   const owner = await phone(browser, ACCOUNTS.otherOwner); // Jonah: files on his own piece
   const page = await owner.newPage();
