@@ -245,6 +245,33 @@ test("an uploaded photo is removed from a sent claim through the app's own dialo
   await owner.close();
 });
 
+test("a covered repair job reads 'Covered by the warranty', not $0.00, and asks for no payment", async ({ browser }) => {
+  // The demo's "Polish the resin river" is covered in full (db/seed/jobs.ts); Jonah owns its piece.
+  const desk = await (await browser.newContext()).newPage();
+  await signIn(desk, ACCOUNTS.staff);
+  await desk.goto("/studio/jobs");
+  const staffRow = desk.getByRole("link", { name: /Polish the resin river/ });
+  await expect(staffRow).toContainText("Covered by the warranty");
+  await expect(staffRow).not.toContainText("$0.00");
+  // A quoted job still shows its amount.
+  await expect(desk.getByRole("link", { name: /Re-wax the desk top/ })).toContainText(/\$\d/);
+
+  const owner = await phone(browser, ACCOUNTS.otherOwner);
+  const page = await owner.newPage();
+  await page.goto("/jobs");
+  const row = page.getByRole("link", { name: /Polish the resin river/ });
+  await expect(row).toContainText("Covered by the warranty");
+  await expect(row).not.toContainText("$0.00");
+  await row.click();
+  await expect(page.getByRole("heading", { name: "Polish the resin river" })).toBeVisible();
+  await expect(page.getByText(/Payment is handled by Stripe/)).toHaveCount(0);
+  // Where there is something to pay, the page still says how it is paid.
+  await page.goto("/jobs");
+  await page.getByRole("link", { name: /Re-wax the desk top/ }).click();
+  await expect(page.getByText(/Payment is handled by Stripe/)).toBeVisible();
+  await Promise.all([owner.close(), desk.context().close()]);
+});
+
 test("the photo route refuses an oversize body with 413 and a non-image with 415, over real HTTP", async ({ browser }) => {
   const owner = await phone(browser, ACCOUNTS.otherOwner); // Jonah: files on his own piece
   const page = await owner.newPage();
