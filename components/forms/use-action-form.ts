@@ -28,7 +28,11 @@ export function useActionForm<S extends z.ZodType<FieldValues, FieldValues>, T>(
   const form = useForm<z.input<S>, unknown, z.output<S>>({
     resolver: useLazyZodResolver<S, z.input<S>, z.output<S>>(schema),
     defaultValues,
-    mode: "onTouched",
+    // Checked when the person presses the button, then again as they fix each field. Not on leaving a
+    // field: an error line appearing above the button as the press blurs the field moves the button
+    // away from the pointer, and the press does nothing (components/claims/claim-form.tsx chose the same).
+    mode: "onSubmit",
+    reValidateMode: "onChange",
   });
   const [formError, setFormError] = useState<string | null>(null);
 
