@@ -150,8 +150,8 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
       {query.isPending ? <Card aria-busy="true">Loading…</Card> : null}
       {query.data && query.data.rows.length === 0 ? <Card>{view === "upcoming" ? "Nothing goes out in the next 30 days." : "No reminders match."}</Card> : null}
       {query.data && query.data.rows.length > 0 ? (
-        // Below md each row is a card of stacked lines (DESIGN.md: tables stay readable on a phone); the
-        // table's columns come back from md up.
+        // Below md each row is a card of stacked lines, so a phone reads it without scrolling sideways;
+        // the table's columns come back from md up.
         <div className="relative overflow-x-auto rounded-xl border border-line bg-card">
           <table className="block w-full text-left text-sm md:table md:min-w-[48rem]">
             <thead className="hidden border-b border-line text-muted md:table-header-group">
