@@ -10,6 +10,9 @@ import { patchOf } from "./patch";
 const pastOn = pastDate();
 const optionalDate = pastOn.nullable().optional();
 
+/** A number the form needs: left empty (the forms send null) it asks for it; anything else not a number says so. */
+const neededNumber = (empty: string, notNumber: string) => z.number({ error: (issue) => (issue.input == null ? empty : notNumber) });
+
 const lengthMm = (label: string, max = 20_000) =>
   z
     .number({ error: `${label} must be a number.` })
@@ -95,7 +98,7 @@ export const layerFields = z.object({
   finishClass: z.enum(FINISH_CLASSES, { error: "Pick a finish class." }),
   productId: z.string().trim().max(64).nullable().optional(),
   productLabel: text(200).default(""),
-  coats: z.number({ error: "Coats must be a number." }).int("Whole coats.").min(1, "At least one coat.").max(20, "At most 20 coats."),
+  coats: neededNumber("Enter the number of coats.", "Coats must be a number.").int("Whole coats.").min(1, "At least one coat.").max(20, "At most 20 coats."),
   appliedOn: pastOn,
   appliedById: z.string().trim().max(64).nullable().optional(),
   batchLot: text(100).default(""),
@@ -150,9 +153,6 @@ export const importSchema = z.object({
   sendHandover: z.boolean().default(false),
 });
 export type ImportValues = z.output<typeof importSchema>;
-
-/** A number the form needs: left empty (the forms send null) it asks for it; anything else not a number says so. */
-const neededNumber = (empty: string, notNumber: string) => z.number({ error: (issue) => (issue.input == null ? empty : notNumber) });
 
 export const catalogProductSchema = z.object({
   name: text(120).min(1, "Give the product a name."),

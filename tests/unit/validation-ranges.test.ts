@@ -183,3 +183,19 @@ describe("the finish catalog's needed numbers: empty asks for the value, anythin
     expect(r.error!.issues.map((i) => i.message)).toEqual(["Enter the coverage."]);
   });
 });
+
+describe("a finish layer's coats: empty asks for them, anything else not a number says so", () => {
+  // The layer fields send an empty coats box as null (components/pieces/layer-fields.tsx, numberOrNull).
+  const layer = { surface: "top", finishClass: "hardwax_oil", appliedOn: "2026-01-10" };
+  const cases: [string, Record<string, unknown>, string][] = [
+    ["coats left empty", { ...layer, coats: null }, "Enter the number of coats."],
+    ["coats not sent", { ...layer }, "Enter the number of coats."],
+    ["coats typed as words", { ...layer, coats: Number("two") }, "Coats must be a number."],
+    ["no coat", { ...layer, coats: 0 }, "At least one coat."],
+  ];
+  it.each(cases)("%s", (_label, input, words) => {
+    const r = piecesSchemas.layerSchema.safeParse(input);
+    expect(r.success).toBe(false);
+    expect(r.error!.issues.filter((i) => i.path.join(".") === "coats").map((i) => i.message)).toEqual([words]);
+  });
+});
