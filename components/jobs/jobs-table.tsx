@@ -6,10 +6,10 @@ import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { apiJson } from "@/components/api-client";
 import { StatusBadge } from "@/components/ui/status";
 import { Notice } from "@/components/ui/notice";
-import { JOB_STATE_LABELS, JOB_STATE_TONES, jobAmountText } from "@/lib/repairs/states";
-import { JOB_STATES } from "@/lib/care/vocabulary";
+import { JOB_STATE_LABELS, JOB_STATE_TONES, jobAmountText, jobStateLabel } from "@/lib/repairs/states";
+import { JOB_STATES, type JOB_ORIGINS } from "@/lib/care/vocabulary";
 
-type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: string; totalMinor: number; coveredPct: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null };
+type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: (typeof JOB_ORIGINS)[number]; totalMinor: number; coveredPct: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null };
 
 export function JobsTable({ country }: { country: string }) {
   const { get, set } = useUrlFilters(["state"]);
@@ -52,7 +52,7 @@ export function JobsTable({ country }: { country: string }) {
                     {j.pieceTitle} · {j.ownerName ?? "no owner"}
                   </span>
                 </span>
-                <StatusBadge label={JOB_STATE_LABELS[j.state]} tone={JOB_STATE_TONES[j.state]} />
+                <StatusBadge label={jobStateLabel(j)} tone={JOB_STATE_TONES[j.state]} />
                 <span className="text-sm font-semibold sm:text-right">{jobAmountText(j, country)}</span>
               </Link>
             </li>

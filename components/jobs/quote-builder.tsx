@@ -41,6 +41,7 @@ export function QuoteBuilder({
   country,
   exponent,
   editable,
+  coveredField,
 }: {
   jobId: string;
   initial: BuilderInitial;
@@ -51,6 +52,8 @@ export function QuoteBuilder({
   country: string;
   exponent: number;
   editable: boolean;
+  /** The covered percentage's label: whose share it is (coverWords in lib/repairs/states.ts). */
+  coveredField: string;
 }) {
   const [formError, setFormError] = useState<string | null>(null);
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
@@ -200,7 +203,7 @@ export function QuoteBuilder({
           </Button>
         </fieldset>
 
-        <TextField label="Warranty share (%)" type="number" min={0} max={100} {...register("coveredPct")} error={formState.errors.coveredPct?.message} />
+        <TextField label={coveredField} type="number" min={0} max={100} {...register("coveredPct")} error={formState.errors.coveredPct?.message} />
         <label className="block space-y-1.5">
           <span className="text-sm font-medium">Notes for the technician</span>
           <textarea rows={3} {...register("notes")} className="block w-full rounded-lg border border-line bg-white px-3 py-2" />

@@ -1,10 +1,13 @@
 // Demo care plans (invented, like all demo data): two plan templates of the demo studio, and one
-// owner's piece running under the first, started by staff as paid at the studio.
+// owner's piece running under the first, started by staff as paid at the studio, whose included visit
+// falls due in about two weeks and so already has its job (made as the scheduler makes it).
 import { and, asc, eq, isNotNull } from "drizzle-orm";
 import type { Db } from "../client";
 import { auditLog, memberships, pieces, planInvoices, planSubscriptions, planTemplates, studios } from "../schema";
+import { localDate } from "../../lib/care/dates";
 import { addPeriod } from "../../lib/plans/periods";
 import { planPrice } from "../../lib/plans/price";
+import { createVisitJob, PLAN_VISIT_LEAD_DAYS, visitDueDates } from "../../lib/plans/visits";
 
 export function seedPlans(db: Db, studioId: string, today: Date): { templates: number; running: string } {
   const studio = db.select().from(studios).where(eq(studios.id, studioId)).get()!;
@@ -31,7 +34,8 @@ export function seedPlans(db: Db, studioId: string, today: Date): { templates: n
   });
   const piece = db.select().from(pieces).where(and(eq(pieces.studioId, studioId), isNotNull(pieces.ownerId))).orderBy(asc(pieces.deliveredOn)).get()!;
   const { totalMinor, taxMinor } = planPrice(studio, keeping);
-  const start = new Date(today.getTime() - 40 * 86_400_000);
+  // One visit a year falls due half a year after the start (lib/plans/visits.ts): about two weeks from today.
+  const start = new Date(today.getTime() - 169 * 86_400_000);
   const periodEnd = addPeriod(start, "year");
   const sub = db
     .insert(planSubscriptions)
@@ -40,5 +44,9 @@ export function seedPlans(db: Db, studioId: string, today: Date): { templates: n
     .get();
   db.insert(planInvoices).values({ studioId, subscriptionId: sub.id, status: "paid", amountMinor: totalMinor, taxMinor, currency: studio.currency, periodStart: start, periodEnd, at: start }).run();
   db.insert(auditLog).values({ studioId, actorId: admin?.userId ?? null, action: "plan.running", subjectType: "plan_subscription", subjectId: sub.id, data: { from: "awaiting_payment", to: "running", source: "staff" } }).run();
+  const todayIso = localDate(today, studio.timeZone);
+  for (const dueOn of visitDueDates(start, keeping.included.visitsPerYear, new Date(today.getTime() + PLAN_VISIT_LEAD_DAYS * 86_400_000), studio.timeZone)) {
+    if (dueOn >= todayIso) createVisitJob({ sub, template: keeping }, dueOn, db);
+  }
   return { templates: 2, running: piece.id };
 }

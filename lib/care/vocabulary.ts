@@ -185,7 +185,8 @@ export const OFFER_STATUSES = ["offered", "accepted", "declined", "expired"] as 
 /** Claim states (lib/claims/states.ts): submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
 export const CLAIM_STATES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
 export const CLAIM_DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
-export const JOB_ORIGINS = ["claim", "refresh_offer", "studio"] as const;
+/** Where a repair job came from; "plan" is an included visit of a care plan (lib/plans/visits.ts), whose covered part the plan pays, not the warranty. */
+export const JOB_ORIGINS = ["claim", "refresh_offer", "studio", "plan"] as const;
 export const PAYMENT_STATUSES = ["open", "paid", "expired", "refunded", "partially_refunded"] as const;
 /**
  * Why a captured payment is (being) given back in full: the first three the product decides on its

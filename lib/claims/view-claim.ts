@@ -8,7 +8,7 @@ import { ownerActor, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { formatDate } from "@/lib/format";
-import { JOB_STATE_LABELS } from "@/lib/repairs/states";
+import { jobStateLabel } from "@/lib/repairs/states";
 import { formatVisitWhen, ownerTimeZone } from "@/lib/format";
 import { claimCore, fileUrl, loadStudioClaim, loadVisibleClaim, photoView, studioOf } from "./claim-row";
 import { coverageOf } from "./claim-piece";
@@ -29,7 +29,7 @@ function photosOf(claimId: string) {
 function jobOfClaim(claimId: string) {
   const db = getDb();
   const job = db
-    .select({ id: repairJobs.id, state: repairJobs.state, title: repairJobs.title, quoteVersion: repairJobs.quoteVersion, doneAt: repairJobs.doneAt })
+    .select({ id: repairJobs.id, state: repairJobs.state, origin: repairJobs.origin, coveredPct: repairJobs.coveredPct, title: repairJobs.title, quoteVersion: repairJobs.quoteVersion, doneAt: repairJobs.doneAt })
     .from(repairJobs)
     .where(eq(repairJobs.claimId, claimId))
     .orderBy(desc(repairJobs.createdAt))
@@ -71,7 +71,7 @@ function staffRepair(claimId: string, timeZone: string) {
     jobId: job.id,
     title: job.title,
     state: job.state,
-    stateLabel: JOB_STATE_LABELS[job.state],
+    stateLabel: jobStateLabel(job),
     visit: job.visit ? { id: job.visit.id, state: job.visit.state, when: formatVisitWhen(job.visit.startAt.getTime(), job.visit.endAt.getTime(), timeZone) } : null,
   };
 }

@@ -7,6 +7,7 @@ import type { ClaimDecision } from "@/lib/claims/states";
 import { loadClient } from "./access";
 import { CONSENT_KIND_LABELS, type ConsentKind } from "./vocabulary";
 import { formatDate, formatInstant, formatMoney } from "@/lib/format";
+import type { RepairJob } from "@/db/schema";
 import { jobAmountText } from "@/lib/repairs/states";
 
 // One list of everything that happened with a client, newest first, read from the tables that
@@ -93,7 +94,7 @@ SELECT * FROM (
   SELECT 'message', m.created_at, t.id, p.title, m.author, m.source, NULL, t.subject
     FROM threads t JOIN thread_messages m ON m.thread_id = t.id JOIN pieces p ON p.id = t.piece_id WHERE t.owner_id = :user AND t.studio_id = :studio
   UNION ALL
-  SELECT 'job_quoted', j.quoted_at, j.id, j.title, j.covered_pct, NULL, j.total_minor, j.currency FROM repair_jobs j WHERE j.owner_id = :user AND j.studio_id = :studio AND j.quoted_at IS NOT NULL
+  SELECT 'job_quoted', j.quoted_at, j.id, j.title, j.covered_pct, j.origin, j.total_minor, j.currency FROM repair_jobs j WHERE j.owner_id = :user AND j.studio_id = :studio AND j.quoted_at IS NOT NULL
   UNION ALL
   SELECT 'job_paid', j.paid_at, j.id, j.title, NULL, NULL, j.total_minor, j.currency FROM repair_jobs j WHERE j.owner_id = :user AND j.studio_id = :studio AND j.paid_at IS NOT NULL
   UNION ALL
@@ -197,7 +198,7 @@ function titleOf(r: Row, tz: string, country: string): string {
     case "message":
       return `${r.a === "staff" ? "The studio wrote to them" : "They wrote to the studio"}${r.b === "email" ? " by e-mail" : ""} about ${r.cur === "claim" ? "the claim on" : r.cur === "visit" ? "a visit for" : "a repair job on"} ${q(r.title)}`;
     case "job_quoted":
-      return `Quote sent for “${r.title}”: ${r.n == null || !r.cur ? "" : jobAmountText({ totalMinor: r.n, coveredPct: Number(r.a ?? 0), currency: r.cur }, country)}`;
+      return `Quote sent for “${r.title}”: ${r.n == null || !r.cur ? "" : jobAmountText({ totalMinor: r.n, coveredPct: Number(r.a ?? 0), currency: r.cur, origin: r.b as RepairJob["origin"] }, country)}`;
     case "job_paid":
       return `Paid ${money(r.n, r.cur, country)} for “${r.title}”`;
     case "job_done":

@@ -2,7 +2,7 @@
 // due date — a repair job priced at the plan's share (zero when included in full), recorded once per
 // plan and due date — and proposes free times to the owner. Plans paid by other means end here at their period's end.
 import { and, eq, inArray, lte, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Db } from "@/db/client";
 import { finishProducts, planSubscriptions, planTemplates, planVisits, pieces, repairJobs, studios, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanVisitEmail, planVisitSubject } from "@/emails/plan-visit";
 import { recordAudit } from "@/lib/audit";
@@ -37,9 +37,12 @@ export function visitDueDates(startedAt: Date, visitsPerYear: number, until: Dat
 
 type Live = { sub: PlanSubscription; template: PlanTemplate };
 
-/** Creates the job of one included visit (once per plan and due date); null when it exists already. */
-function createVisitJob({ sub, template }: Live, dueOn: string): { jobId: string } | null {
-  const db = getDb();
+/**
+ * Creates the job of one included visit (once per plan and due date); null when it exists already.
+ * Its origin "plan" makes every reader of the job say the plan pays its covered part, not the
+ * warranty (coverWords in lib/repairs/states.ts). The demo seed (db/seed/plans.ts) makes one too.
+ */
+export function createVisitJob({ sub, template }: Live, dueOn: string, db: Db = getDb()): { jobId: string } | null {
   return db.transaction((tx) => {
     const claimed = tx.insert(planVisits).values({ studioId: sub.studioId, subscriptionId: sub.id, dueOn }).onConflictDoNothing().returning().get();
     if (!claimed) return null;
@@ -62,7 +65,7 @@ function createVisitJob({ sub, template }: Live, dueOn: string): { jobId: string
     const now = new Date();
     const job = tx
       .insert(repairJobs)
-      .values({ studioId: sub.studioId, pieceId: piece.id, ownerId: sub.ownerId, origin: "studio", title: input.title, quoteInput: input, currency: studio.currency, coveredPct: input.coveredPct, ...priced, state: priced.totalMinor === 0 ? "covered" : "quoted", quoteVersion: 1, quotedAt: now })
+      .values({ studioId: sub.studioId, pieceId: piece.id, ownerId: sub.ownerId, origin: "plan", title: input.title, quoteInput: input, currency: studio.currency, coveredPct: input.coveredPct, ...priced, state: priced.totalMinor === 0 ? "covered" : "quoted", quoteVersion: 1, quotedAt: now })
       .returning()
       .get();
     tx.update(planVisits).set({ jobId: job.id }).where(eq(planVisits.id, claimed.id)).run();

@@ -4,8 +4,9 @@
 import type { RepairJob, Studio } from "@/db/schema";
 import { formatMoney, formatPercentBp } from "@/lib/format";
 import { LINE_UNIT_LABELS, readLines, roundingWords, type JobLine, type PricingRules } from "./lines";
+import { coverWords } from "./states";
 
-type JobMoney = Pick<RepairJob, "currency" | "coveredPct" | "subtotalMinor" | "coveredMinor" | "netMinor" | "taxMinor" | "totalMinor" | "title"> & { lines: unknown; pricingRules: RepairJob["pricingRules"] };
+type JobMoney = Pick<RepairJob, "origin" | "currency" | "coveredPct" | "subtotalMinor" | "coveredMinor" | "netMinor" | "taxMinor" | "totalMinor" | "title"> & { lines: unknown; pricingRules: RepairJob["pricingRules"] };
 
 function rulesOf(job: JobMoney): PricingRules | null {
   const r = job.pricingRules as Partial<PricingRules>;
@@ -50,7 +51,7 @@ export function jobFigures(job: JobMoney, studio: Pick<Studio, "country" | "taxN
     taxMinor: job.taxMinor,
     totalMinor: job.totalMinor,
     text: { subtotal: money(job.subtotalMinor), covered: job.coveredMinor ? `−${money(job.coveredMinor)}` : null, discount: discountMinor ? `−${money(discountMinor)}` : null, net: money(job.netMinor), tax: money(job.taxMinor), total: money(job.totalMinor) },
-    coveredLabel: `Covered by the warranty (${job.coveredPct} %)`,
+    coveredLabel: coverWords(job).share,
     discountLabel: discountLabel(rules) ?? "Care plan discount",
     taxLabel: taxLabel(lines, rules),
     roundingNote: rules ? roundingWords(rules.rounding, job.currency) : null,
@@ -84,11 +85,13 @@ export function jobApiMoney(job: JobMoney) {
 
 /**
  * The Checkout Session's line items: one per quote line, each the owner's part of it with its tax, so
- * they add up to the quote's total (Stripe takes no negative line, hence the warranty share is taken
- * off each line rather than charged as a line of its own).
+ * they add up to the quote's total (Stripe takes no negative line, hence the covered share — the
+ * warranty's, or the care plan's for a plan visit — is taken off each line rather than charged as a line
+ * of its own).
  */
 export function checkoutLineItems(job: JobMoney) {
   const lines = readLines(job.lines);
+  const after = coverWords(job).after;
   const items = lines
     .filter((l) => l.totalMinor > 0)
     .map((l) => ({
@@ -96,13 +99,13 @@ export function checkoutLineItems(job: JobMoney) {
       price_data: {
         currency: job.currency.toLowerCase(),
         unit_amount: l.totalMinor,
-        product_data: { name: `${l.description} — ${l.quantity} ${LINE_UNIT_LABELS[l.unit]}${l.coveredMinor ? ", after the warranty share" : ""}${l.discountMinor ? ", after the care plan discount" : ""}${l.taxMinor ? ", tax included" : ""}` },
+        product_data: { name: `${l.description} — ${l.quantity} ${LINE_UNIT_LABELS[l.unit]}${l.coveredMinor ? `, after ${after}` : ""}${l.discountMinor ? ", after the care plan discount" : ""}${l.taxMinor ? ", tax included" : ""}` },
       },
     }));
   // Lines stored before each line carried its own share (or none at all): one item for the total.
   const sum = items.reduce((s, i) => s + i.price_data.unit_amount, 0);
   if (sum !== job.totalMinor) {
-    return [{ quantity: 1, price_data: { currency: job.currency.toLowerCase(), unit_amount: job.totalMinor, product_data: { name: `${job.title} (after warranty share, tax included)` } } }];
+    return [{ quantity: 1, price_data: { currency: job.currency.toLowerCase(), unit_amount: job.totalMinor, product_data: { name: `${job.title} (after ${after}, tax included)` } } }];
   }
   return items;
 }

@@ -103,7 +103,7 @@ export function listStudioJobs(ctx: StudioContext, filter: { state?: RepairJob["
 
 export function listOwnerJobs(user: Pick<User, "id">, filter: { state?: RepairJob["state"] } = {}) {
   return getDb()
-    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, studioName: studios.name, studioCountry: studios.country })
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, studioName: studios.name, studioCountry: studios.country })
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .innerJoin(studios, eq(studios.id, repairJobs.studioId))

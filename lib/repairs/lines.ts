@@ -115,7 +115,7 @@ export function roundingStep(rule: RoundingRule, currency: string): number {
 export function roundingWords(rule: RoundingRule, currency: string): string {
   if (rule === "cent") return currencyExponent(currency) === 0 ? "Amounts are exact to the unit." : "Amounts are exact to the cent.";
   const what = { whole: "whole amount", five: "multiple of 5", ten: "multiple of 10" }[rule];
-  return `Each line's amount is rounded to the nearest ${what} (halves round up); warranty share and tax are then worked out exactly.`;
+  return `Each line's amount is rounded to the nearest ${what} (halves round up); the covered share and tax are then worked out exactly.`;
 }
 
 /** A line's amount: quantity × unit price, rounded half up to the rule's step. */

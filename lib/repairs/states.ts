@@ -22,7 +22,8 @@ export const JOB_STATE_LABELS: Record<JobState, string> = {
   quoted: "Quote sent",
   approved: "Approved, awaiting payment",
   paid: "Paid",
-  covered: "Covered by warranty",
+  // Who covers it is the job's to say (jobStateLabel): the warranty, or the care plan for a plan visit.
+  covered: "Covered, nothing to pay",
   scheduled: "Visit booked",
   done: "Done",
   cancelled: "Cancelled",
@@ -92,16 +93,45 @@ export const OWNER_REFUND_REASON_LABELS: Record<RefundReason, string> = {
 /** The product refunds these on its own; staff see a flag on the job. */
 export const isAutomaticRefund = (reason: Payment["refundReason"]): reason is Exclude<RefundReason, "job_cancelled"> => reason !== null && reason !== "job_cancelled";
 
+type Cover = Pick<RepairJob, "origin" | "coveredPct">;
+
 /**
- * A job's amount in a line of a list: its total for the studio's country, or "Covered by the warranty"
- * when the warranty takes all of it (a share but nothing left to pay). A partly covered job shows what
- * the owner pays.
+ * Who pays a job's covered part, in the words every reader of the job gets (the quote page, both job
+ * lists, the client's timeline, the quote and receipt mail, the receipt, the checkout's lines): the
+ * owner's care plan for an included visit of a plan (origin "plan", lib/plans/visits.ts), the warranty
+ * for any other job. The one place these words are written.
  */
-export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency">, country: string): string {
-  return jobIsCovered(job) ? "Covered by the warranty" : formatMoney(job.totalMinor, job.currency, country);
+export function coverWords(job: Cover) {
+  const plan = job.origin === "plan";
+  return {
+    /** The totals row of the covered part. */
+    share: plan ? `Paid by the care plan (${job.coveredPct} %)` : `Covered by the warranty (${job.coveredPct} %)`,
+    /** A job whose covered part leaves nothing to pay, in a line of a list and as its state. */
+    whole: plan ? "Included in the care plan" : "Covered by the warranty",
+    /** The owner's notice on such a job. */
+    yours: plan ? "Included in your care plan" : "Covered by your warranty",
+    /** A checkout line's amount is what is left "after …". */
+    after: plan ? "the care plan's share" : "the warranty share",
+    /** The quote form's field for the covered percentage. */
+    field: plan ? "Care plan share (%)" : "Warranty share (%)",
+  };
 }
 
-/** The warranty pays for all of the job: the owner owes nothing. */
+/** A job's state for people, naming who covers a covered job: a plan visit is included in the plan, not warranty work. */
+export function jobStateLabel(job: Pick<RepairJob, "state" | "origin" | "coveredPct">): string {
+  return job.state === "covered" ? coverWords(job).whole : JOB_STATE_LABELS[job.state];
+}
+
+/**
+ * A job's amount in a line of a list: its total for the studio's country, or who covers it ("Covered by
+ * the warranty", "Included in the care plan", coverWords) when that takes all of it (a share but nothing
+ * left to pay). A partly covered job shows what the owner pays.
+ */
+export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency" | "origin">, country: string): string {
+  return jobIsCovered(job) ? coverWords(job).whole : formatMoney(job.totalMinor, job.currency, country);
+}
+
+/** The warranty (or, for a plan visit, the care plan) pays for all of the job: the owner owes nothing. */
 export function jobIsCovered(job: Pick<RepairJob, "totalMinor" | "coveredPct">): boolean {
   return job.totalMinor === 0 && job.coveredPct > 0;
 }

@@ -65,7 +65,7 @@ export function listVisits(actor: Actor, q: ListVisitsQuery) {
 /** Jobs waiting for a visit (paid or covered, none booked), for staff booking from the calendar. */
 export function jobsAwaitingVisit(ctx: StudioContext) {
   return getDb()
-    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, pieceTitle: pieces.title, ownerName: users.name })
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, coveredPct: repairJobs.coveredPct, pieceTitle: pieces.title, ownerName: users.name })
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .leftJoin(users, eq(users.id, repairJobs.ownerId))

@@ -49,7 +49,7 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   const refused = page.waitForResponse((r) => r.url().endsWith(`/api/jobs/${jobId}`) && r.request().method() === "PATCH");
   await page.getByRole("button", { name: "Save the quote" }).click();
   expect((await refused).status()).toBe(400);
-  await expect(page.getByText("The warranty share is 0 to 100 %.")).toBeVisible();
+  await expect(page.getByText("The covered share is 0 to 100 %.")).toBeVisible();
   await expect(page.getByText(/Too big|expected number/)).toHaveCount(0);
   await expect(typed.getByLabel(/^Line \d+: description$/)).toHaveValue("Colour-match the fill (invented)");
   await page.getByLabel("Warranty share (%)").fill(share);

@@ -18,8 +18,9 @@ import { createTemplate, templatesFitting, updateTemplate } from "@/lib/plans/te
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/visits";
 import { runReminderPass } from "@/lib/reminders/pass";
+import { sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
-import { waitForMail } from "../support/mail";
+import { getMail, waitForMail } from "../support/mail";
 import { buyPlan, knob as stripeKnob, plansStripeForFile, subRow, until } from "../support/plans-stripe";
 
 const stripe = plansStripeForFile();
@@ -118,7 +119,7 @@ describe("buying and running a plan through the Stripe fake", () => {
     const ahead = await runPlanVisits(new Date(dueMs - 10 * DAY));
     const mine = ahead.jobs.filter((j) => jobOf(j).pieceId === piece.id);
     expect(mine).toHaveLength(1);
-    expect(jobOf(mine[0]!)).toMatchObject({ state: "covered", totalMinor: 0, coveredPct: 100, origin: "studio", ownerId: owner.id });
+    expect(jobOf(mine[0]!)).toMatchObject({ state: "covered", totalMinor: 0, coveredPct: 100, origin: "plan", ownerId: owner.id });
     // A second pass makes no second job for the same visit.
     expect((await runPlanVisits(new Date(dueMs - 9 * DAY))).jobs.filter((j) => jobOf(j).pieceId === piece.id)).toHaveLength(0);
     expect(getDb().select().from(planVisits).where(eq(planVisits.subscriptionId, sub.id)).all()).toHaveLength(1);
@@ -137,8 +138,29 @@ describe("buying and running a plan through the Stripe fake", () => {
     const [due] = visitDueDates(sub.startedAt!, 2, new Date(sub.startedAt!.getTime() + 365 * DAY), studio.timeZone);
     const jobs = (await runPlanVisits(new Date(Date.parse(`${due}T12:00:00Z`) - 5 * DAY))).jobs.map(jobOf).filter((j) => j.pieceId === piece.id);
     expect(jobs).toHaveLength(1);
-    expect(jobs[0]).toMatchObject({ coveredPct: 60, state: "quoted" });
+    expect(jobs[0]).toMatchObject({ coveredPct: 60, state: "quoted", origin: "plan" });
     expect(jobs[0]!.coveredMinor).toBe(Math.round((jobs[0]!.subtotalMinor * 60) / 100));
+  });
+
+  it("a plan visit's quote, changed by staff and sent again, says the plan pays its part, not the warranty (quote mail through the SMTP sink)", async () => {
+    const { admin, owner, studio } = await setup();
+    const shared = createTemplate(admin, template({ name: "Shared visits (quote words)", included: { tasks: [], visitsPerYear: 2, visitSharePct: 40, extendedLines: [], repairDiscountPct: 0 } }));
+    const { piece } = createPiece(studio, { ownerId: owner.id });
+    const sub = await buy(owner, piece, shared.id);
+    const [due] = visitDueDates(sub.startedAt!, 2, new Date(sub.startedAt!.getTime() + 365 * DAY), studio.timeZone);
+    const [job] = (await runPlanVisits(new Date(Date.parse(`${due}T12:00:00Z`) - 5 * DAY))).jobs.map(jobOf).filter((j) => j.pieceId === piece.id);
+    expect(job).toMatchObject({ origin: "plan", coveredPct: 60, state: "quoted" });
+
+    // Staff add a coat and send the quote again: the job stays the plan's visit.
+    const q = job!.quoteInput;
+    await updateJobQuote(admin, job!.id, { title: job!.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: 2, travel: q.travel ?? true, coveredPct: job!.coveredPct, notes: job!.notes });
+    const since = new Date();
+    await sendQuote(admin, job!.id);
+    expect(jobOf(job!.id)).toMatchObject({ origin: "plan", coveredPct: 60, state: "quoted", quoteVersion: 2 });
+    const mail = await getMail((await waitForMail({ to: owner.email, subject: `Your repair quote from ${studio.name}`, since })).id);
+    expect(mail.text).toContain("Paid by the care plan (60 %)");
+    expect(mail.html).toContain("Paid by the care plan (60 %)");
+    expect(`${mail.subject}\n${mail.text}\n${mail.html}`).not.toMatch(/warranty/i);
   });
 
   it("renewal paid: a new period and a second counted invoice; the plan keeps running", async () => {

@@ -282,8 +282,14 @@ describe("tax: none, one rate, per line kind; exclusive and inclusive", () => {
 
   it("the checkout's items add up to the total, and money reads one way per locale", () => {
     const priced = priceLines([line(1.5, 8500), line(1, 1250, "other")], { currency: "USD", rounding: "cent", tax: EXCLUSIVE, coveredPct: 40 });
-    const items = checkoutLineItems({ ...priced, currency: "USD", coveredPct: 40, title: "t", pricingRules: {} });
+    const items = checkoutLineItems({ ...priced, origin: "claim", currency: "USD", coveredPct: 40, title: "t", pricingRules: {} });
     expect(items.reduce((s, i) => s + i.price_data.unit_amount, 0)).toBe(priced.totalMinor);
+    expect(items[0]!.price_data.product_data.name).toBe("x — 1.5 h, after the warranty share, tax included");
+    // A care plan's included visit: the plan, not the warranty, took its share off (lib/plans/visits.ts).
+    const planItems = checkoutLineItems({ ...priced, origin: "plan", currency: "USD", coveredPct: 40, title: "t", pricingRules: {} });
+    expect(planItems.map((i) => i.price_data.unit_amount)).toEqual(items.map((i) => i.price_data.unit_amount));
+    expect(planItems.map((i) => i.price_data.product_data.name).join("; ")).not.toMatch(/warranty/);
+    expect(planItems[0]!.price_data.product_data.name).toBe("x — 1.5 h, after the care plan's share, tax included");
     // Intl (ECMA-402) for the studio's country: en-US "$85.00", de-DE "85,00 €", ja-JP "￥1,235".
     expect(formatMoney(8500, "USD", "US")).toBe("$85.00");
     expect(formatMoney(8500, "EUR", "DE")).toBe("85,00\u00a0€");

@@ -6,14 +6,14 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { eq } from "drizzle-orm";
-import { migrate } from "drizzle-orm/better-sqlite3/migrator";
 import { describe, expect, it } from "vitest";
-import { getDb, openDatabase, type Db } from "@/db/client";
-import { applyMigrations, MIGRATIONS_FOLDER } from "@/db/migrate";
+import { getDb, type Db } from "@/db/client";
+import { applyMigrations } from "@/db/migrate";
 import { users, visits } from "@/db/schema";
 import { bookVisit } from "@/lib/visits/book";
 import { listJobSlots } from "@/lib/visits/slots";
 import { createUser } from "../support/fixtures";
+import { databaseBefore, fillRow } from "../support/migrated-before";
 import { staffActor, visitWorld } from "./visits-helpers";
 
 const NOW = Date.parse("2027-05-03T12:00:00Z");
@@ -45,36 +45,13 @@ describe(`migration ${REBUILD}`, () => {
   it("rebuilds visits keeping every row and what refers to them (photos, mail sends, threads), with the rule in place", () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "gw-fk-"));
     // The migrations before the rebuild (the later ones run after it, in applyMigrations below).
-    const before = path.join(dir, "migrations");
-    fs.cpSync(MIGRATIONS_FOLDER, before, { recursive: true });
-    const journalFile = path.join(before, "meta", "_journal.json");
-    const journal = JSON.parse(fs.readFileSync(journalFile, "utf8")) as { entries: { tag: string }[] };
-    const at = journal.entries.findIndex((e) => e.tag === REBUILD);
-    expect(at).toBeGreaterThan(0);
-    journal.entries = journal.entries.slice(0, at);
-    fs.writeFileSync(journalFile, JSON.stringify(journal));
-
-    const db = openDatabase(path.join(dir, "old.db"));
+    const db = databaseBefore(dir, REBUILD);
     try {
-      migrate(db, { migrationsFolder: before });
       expect(signedOffFk(db)?.on_delete).toBe("NO ACTION");
       // One row in each table on the way to a visit and in each that refers to a visit: every NOT NULL
       // column without a default gets a value, every reference the row it names.
       const sqlite = db.$client;
-      const fill = (table: string, id: string, set: Record<string, string> = {}) => {
-        const cols = sqlite.pragma(`table_info(${table})`) as { name: string; type: string; notnull: number; dflt_value: unknown; pk: number }[];
-        const fks = sqlite.pragma(`foreign_key_list(${table})`) as { from: string; table: string }[];
-        const row: Record<string, unknown> = {};
-        for (const c of cols) {
-          const fk = fks.find((f) => f.from === c.name);
-          if (c.name in set) row[c.name] = set[c.name];
-          else if (c.pk) row[c.name] = id;
-          else if (fk && c.notnull) row[c.name] = `row-${fk.table}`;
-          else if (c.notnull && c.dflt_value === null) row[c.name] = c.type.toLowerCase() === "integer" || c.type.toLowerCase() === "real" ? 1 : `${table}-${c.name}`;
-        }
-        const names = Object.keys(row);
-        sqlite.prepare(`INSERT INTO ${table} (${names.map((n) => `"${n}"`).join(", ")}) VALUES (${names.map(() => "?").join(", ")})`).run(...names.map((n) => row[n]));
-      };
+      const fill = (table: string, id: string, set: Record<string, string> = {}) => fillRow(db, table, id, set);
       fill("users", "row-users", { email: "rebuild@test.example" });
       fill("users", "row-signer", { email: "signer@test.example" });
       fill("studios", "row-studios");

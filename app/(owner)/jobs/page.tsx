@@ -5,7 +5,7 @@ import { StatusBadge } from "@/components/ui/status";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { listOwnerJobs } from "@/lib/repairs/jobs";
-import { JOB_STATE_LABELS, JOB_STATE_TONES, jobAmountText } from "@/lib/repairs/states";
+import { JOB_STATE_TONES, jobAmountText, jobStateLabel } from "@/lib/repairs/states";
 
 export const metadata: Metadata = { title: "Repairs" };
 
@@ -23,7 +23,7 @@ export default async function OwnerJobsPage() {
               <Link href={`/jobs/${j.id}`} className="block rounded-xl border border-line bg-card p-4 hover:border-resin">
                 <span className="flex flex-wrap items-center justify-between gap-2">
                   <span className="font-semibold">{j.title}</span>
-                  <StatusBadge label={JOB_STATE_LABELS[j.state]} tone={JOB_STATE_TONES[j.state]} />
+                  <StatusBadge label={jobStateLabel(j)} tone={JOB_STATE_TONES[j.state]} />
                 </span>
                 <span className="mt-1 block text-sm text-muted">
                   {j.studioName} · {jobAmountText(j, j.studioCountry)}

@@ -5,7 +5,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { WeekCalendar } from "@/components/visits/week-calendar";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { JOB_STATE_LABELS } from "@/lib/repairs/states";
+import { jobStateLabel } from "@/lib/repairs/states";
 import { calendarWeek, jobsAwaitingVisit } from "@/lib/visits/list";
 import { listTechnicians } from "@/lib/visits/technicians";
 
@@ -31,7 +31,7 @@ export default async function StudioVisitsPage({ searchParams }: { searchParams:
                   <span>
                     <Link className="font-medium text-resin underline" href={`/studio/jobs/${j.id}`}>{j.title}</Link>
                     <span className="block text-sm text-muted">
-                      {j.pieceTitle} · {j.ownerName ?? "no owner"} · {JOB_STATE_LABELS[j.state]}
+                      {j.pieceTitle} · {j.ownerName ?? "no owner"} · {jobStateLabel(j)}
                     </span>
                   </span>
                   <ButtonLink href={`/studio/visits/book/${j.id}`}>Book a visit</ButtonLink>

@@ -9,7 +9,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
-import { isAutomaticRefund, JOB_STATE_LABELS, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, paymentCounts } from "@/lib/repairs/states";
+import { coverWords, isAutomaticRefund, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, jobStateLabel, paymentCounts } from "@/lib/repairs/states";
 import { formatMoney } from "@/lib/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
@@ -35,7 +35,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   const returnedRefunded = autoRefunded.some((p) => p.checkoutSessionId === query.session_id);
   return (
     <>
-      <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />} />
+      <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={jobStateLabel(job)} tone={JOB_STATE_TONES[job.state]} />} />
       <div className="space-y-4">
         {job.claimId ? (
           <Link href={`/claims/${job.claimId}`} className="inline-flex min-h-11 items-center text-resin underline">
@@ -57,7 +57,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         {query.checkout === "cancelled" && job.state === "approved" ? (
           <Notice tone="warn" title="Payment not completed">Your card was not charged. You can try again, with the same card or another one.</Notice>
         ) : null}
-        {job.state === "covered" ? <Notice tone="ok" title="Covered by your warranty">There is nothing to pay. You can book your visit below.</Notice> : null}
+        {job.state === "covered" ? <Notice tone="ok" title={coverWords(job).yours}>There is nothing to pay. You can book your visit below.</Notice> : null}
         {job.state === "paid" || job.state === "covered" || job.state === "scheduled" || visit?.state === "done" ? (
           <Card className="space-y-3">
             <h2 className="font-semibold">Your visit</h2>

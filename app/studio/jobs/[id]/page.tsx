@@ -16,7 +16,7 @@ import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { priceListOf } from "@/lib/repairs/price-list";
-import { canMove, JOB_STATE_LABELS, JOB_STATE_TONES, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
+import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
@@ -41,7 +41,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
       <PageHeader
         title={job.title}
         lead={`${piece.title} · ${owner ? owner.name : "no registered owner"}`}
-        actions={<StatusBadge label={JOB_STATE_LABELS[job.state]} tone={JOB_STATE_TONES[job.state]} />}
+        actions={<StatusBadge label={jobStateLabel(job)} tone={JOB_STATE_TONES[job.state]} />}
       />
       {job.claimId ? (
         <p className="-mt-4 mb-4 text-sm">
@@ -58,6 +58,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             initial={initial}
             lines={job.lines.map(({ kind, source, ref, description, quantity, unit, unitPriceMinor, proposed }) => ({ kind, source, ...(ref ? { ref } : {}), description, quantity, unit, unitPriceMinor, proposed }))}
             editable={editable}
+            coveredField={coverWords(job).field}
             currency={job.currency}
             country={studio.country}
             exponent={currencyExponent(job.currency)}
