@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { claims, finishProducts, payments, pieces, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
+import { claims, finishProducts, payments, pieces, planSubscriptions, planTemplates, planVisits, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
@@ -124,7 +124,19 @@ function loadJob(where: ReturnType<typeof and>) {
   if (!row) throw notFound("No such repair job.");
   row.job = { ...row.job, lines: readLines(row.job.lines), proposedLines: readLines(row.job.proposedLines) };
   const jobPayments = getDb().select().from(payments).where(eq(payments.jobId, row.job.id)).orderBy(desc(payments.createdAt)).all();
-  return { ...row, payments: jobPayments };
+  return { ...row, payments: jobPayments, planName: row.job.origin === "plan" ? visitPlanName(row.job) : null };
+}
+
+/** The name of the care plan whose included visit a job is (the plan version it was bought under). */
+function visitPlanName(job: Pick<RepairJob, "id" | "studioId">): string | null {
+  const row = getDb()
+    .select({ name: planTemplates.name })
+    .from(planVisits)
+    .innerJoin(planSubscriptions, eq(planSubscriptions.id, planVisits.subscriptionId))
+    .innerJoin(planTemplates, eq(planTemplates.id, planSubscriptions.templateId))
+    .where(and(eq(planVisits.studioId, job.studioId), eq(planVisits.jobId, job.id)))
+    .get();
+  return row?.name ?? null;
 }
 
 export type JobView = ReturnType<typeof loadJob>;

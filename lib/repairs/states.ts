@@ -101,15 +101,15 @@ type Cover = Pick<RepairJob, "origin" | "coveredPct">;
  * owner's care plan for an included visit of a plan (origin "plan", lib/plans/visits.ts), the warranty
  * for any other job. The one place these words are written.
  */
-export function coverWords(job: Cover) {
+export function coverWords(job: Cover, planName: string | null = null) {
   const plan = job.origin === "plan";
   return {
     /** The totals row of the covered part. */
     share: plan ? `Paid by the care plan (${job.coveredPct} %)` : `Covered by the warranty (${job.coveredPct} %)`,
     /** A job whose covered part leaves nothing to pay, in a line of a list and as its state. */
     whole: plan ? "Included in the care plan" : "Covered by the warranty",
-    /** The owner's notice on such a job. */
-    yours: plan ? "Included in your care plan" : "Covered by your warranty",
+    /** The owner's notice on such a job, naming their plan where it is known. */
+    yours: plan ? (planName ? `Included in your care plan “${planName}”` : "Included in your care plan") : "Covered by your warranty",
     /** A checkout line's amount is what is left "after …". */
     after: plan ? "the care plan's share" : "the warranty share",
     /** The quote form's field for the covered percentage. */

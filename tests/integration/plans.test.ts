@@ -18,6 +18,7 @@ import { createTemplate, templatesFitting, updateTemplate } from "@/lib/plans/te
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/visits";
 import { runReminderPass } from "@/lib/reminders/pass";
+import { getOwnerJob } from "@/lib/repairs/jobs";
 import { sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
@@ -157,6 +158,8 @@ describe("buying and running a plan through the Stripe fake", () => {
     const since = new Date();
     await sendQuote(admin, job!.id);
     expect(jobOf(job!.id)).toMatchObject({ origin: "plan", coveredPct: 60, state: "quoted", quoteVersion: 2 });
+    // The owner's page names the plan.
+    expect(getOwnerJob(owner, job!.id).planName).toBe("Shared visits (quote words)");
     const mail = await getMail((await waitForMail({ to: owner.email, subject: `Your repair quote from ${studio.name}`, since })).id);
     expect(mail.text).toContain("Paid by the care plan (60 %)");
     expect(mail.html).toContain("Paid by the care plan (60 %)");

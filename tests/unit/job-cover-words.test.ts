@@ -31,6 +31,8 @@ describe("who pays the covered part", () => {
     expect(jobAmountText(job("plan", { totalMinor: 0, coveredPct: 100 }), "US")).toBe("Included in the care plan");
     expect(jobStateLabel(job("plan", { state: "covered", totalMinor: 0, coveredPct: 100 }))).toBe("Included in the care plan");
     expect(coverWords(plan).yours).toBe("Included in your care plan");
+    expect(coverWords(plan, "Slab keeping (invented)").yours).toBe("Included in your care plan “Slab keeping (invented)”");
+    expect(coverWords(job("claim"), "Slab keeping (invented)").yours).toBe("Covered by your warranty");
     expect(coverWords(plan).field).toBe("Care plan share (%)");
     expect(checkoutLineItems(plan)[0]!.price_data.product_data.name).toBe("Care visit — 2 h, after the care plan's share");
     const everything = [...Object.values(coverWords(plan)), jobFigures(plan, US).coveredLabel, ...checkoutLineItems(plan).map((i) => i.price_data.product_data.name)];

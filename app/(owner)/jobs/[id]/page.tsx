@@ -28,7 +28,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   if (query.checkout === "success" && query.session_id && query.session_id.length < 200) {
     await syncReturnedCheckout(user, id, query.session_id).catch((e: unknown) => console.error("checkout sync failed", e));
   }
-  const { job, piece, studio, payments } = await forPage(async () => getOwnerJob(user, id));
+  const { job, piece, studio, payments, planName } = await forPage(async () => getOwnerJob(user, id));
   const { visit } = visitOfJob(ownerActor(user), id);
   const paid = payments.some(paymentCounts);
   const autoRefunded = payments.flatMap((p) => (isAutomaticRefund(p.refundReason) ? [{ ...p, reason: p.refundReason }] : []));
@@ -57,7 +57,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         {query.checkout === "cancelled" && job.state === "approved" ? (
           <Notice tone="warn" title="Payment not completed">Your card was not charged. You can try again, with the same card or another one.</Notice>
         ) : null}
-        {job.state === "covered" ? <Notice tone="ok" title={coverWords(job).yours}>There is nothing to pay. You can book your visit below.</Notice> : null}
+        {job.state === "covered" ? <Notice tone="ok" title={coverWords(job, planName).yours}>There is nothing to pay. You can book your visit below.</Notice> : null}
         {job.state === "paid" || job.state === "covered" || job.state === "scheduled" || visit?.state === "done" ? (
           <Card className="space-y-3">
             <h2 className="font-semibold">Your visit</h2>
