@@ -36,15 +36,27 @@ export type CalendarDateOptions = { short?: boolean; weekday?: "long" | "short";
 export function formatDate(iso: string, { short = false, weekday, year = true }: CalendarDateOptions = {}): string {
   const ms = noonUtc(iso);
   if (ms === null) return iso;
-  return dtf({ timeZone: "UTC", day: "numeric", month: short ? "short" : "long", ...(year ? { year: "numeric" } : {}), ...(weekday ? { weekday } : {}) }).format(ms);
+  const f = dtf({ timeZone: "UTC", day: "numeric", month: short ? "short" : "long", ...(year ? { year: "numeric" } : {}), ...(weekday ? { weekday } : {}) });
+  return short ? withShortMonth(f, ms) : f.format(ms);
 }
 
-/** "March 2026" for YYYY-MM or YYYY-MM-DD; short "Mar ’26" for chart axes. */
+/** "March 2026" for YYYY-MM or YYYY-MM-DD; short "Mar 2026" (chart axes), written as a short date writes its month. */
 export function formatMonth(iso: string, { short = false }: { short?: boolean } = {}): string {
   const [y, m] = iso.split("-").map(Number);
   if (!y || !m) return iso;
-  const name = dtf({ timeZone: "UTC", month: short ? "short" : "long" }).format(Date.UTC(y, m - 1, 15));
-  return short ? `${name} ’${String(y).slice(2)}` : `${name} ${y}`;
+  const ms = Date.UTC(y, m - 1, 15);
+  return short ? withShortMonth(dtf({ timeZone: "UTC", month: "short", year: "numeric" }), ms) : dtf({ timeZone: "UTC", month: "long", year: "numeric" }).format(ms);
+}
+
+/**
+ * A short form with its month as the first three letters of the month's name, "Sep" like "Dec": CLDR
+ * en-GB alone shortens September to "Sept" (and only September), so a chart axis read "Aug, Sept, Oct".
+ */
+function withShortMonth(f: Intl.DateTimeFormat, ms: number): string {
+  return f
+    .formatToParts(ms)
+    .map((p) => (p.type === "month" ? dtf({ timeZone: "UTC", month: "long" }).format(ms).slice(0, 3) : p.value))
+    .join("");
 }
 
 export type InstantOptions = { time?: boolean };

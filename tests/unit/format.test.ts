@@ -75,7 +75,14 @@ describe("dates and times", () => {
     expect(formatDate("2026-12-03", { weekday: "long" })).toBe("Thursday, 3 December 2026");
     expect(formatDate("2026-12-03", { weekday: "short", short: true, year: false })).toBe("Thu 3 Dec");
     expect(formatMonth("2026-03")).toBe("March 2026");
-    expect(formatMonth("2026-03", { short: true })).toBe("Mar ’26");
+    expect(formatMonth("2026-03", { short: true })).toBe("Mar 2026");
+    // Short months are the month's first three letters, September included: CLDR en-GB, as Node's ICU carries it, writes
+    // "Sept" for its abbreviated September alone, which put "Sept ’26" among "Aug" and "Oct" on a chart axis.
+    expect(formatMonth("2026-09", { short: true })).toBe("Sep 2026");
+    expect(formatDate("2026-09-03", { short: true })).toBe("3 Sep 2026");
+    expect(formatDate("2026-09-03", { weekday: "short", short: true, year: false })).toBe("Thu 3 Sep");
+    expect(Array.from({ length: 12 }, (_, i) => formatMonth(`2026-${String(i + 1).padStart(2, "0")}`, { short: true }).split(" ")[0])).toEqual(["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"]);
+    expect(formatMonth("2026-09")).toBe("September 2026");
     // A calendar date is the same day in every zone: 1 January stays 1 January.
     expect(formatDate("2027-01-01")).toBe("1 January 2027");
     expect(formatDate("not a date")).toBe("not a date");

@@ -16,6 +16,6 @@ describe("hasBars", () => {
 
   it("is true as soon as one value of one series is not zero", () => {
     expect(hasBars([{ label: "14 days before", sent: 0, acted: 0 }, { label: "On the due date", sent: 0, acted: 1 }], series)).toBe(true);
-    expect(hasBars([{ label: "Mar ’26", net: -4500 }], [{ key: "net", name: "Net revenue" }])).toBe(true);
+    expect(hasBars([{ label: "Mar 2026", net: -4500 }], [{ key: "net", name: "Net revenue" }])).toBe(true);
   });
 });
