@@ -8,7 +8,7 @@ import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { SpriteIcon } from "@/components/ui/sprite-icon";
-import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass } from "@/lib/care/vocabulary";
+import { FINISH_CLASSES, FINISH_CLASS_LABELS, SURFACE_LABELS, SURFACES, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import type { visitReportSchema, VisitReportInput, VisitReportValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError, uploadForm } from "@/components/api-client";
@@ -27,7 +27,11 @@ async function uploadPhoto(visitId: string, file: File, kind: "before" | "after"
   return { id: body.id, kind, thumbUrl: body.thumbUrl };
 }
 
-type DefaultLayer = { finishClass: FinishClass; productId: string; coats: number };
+/** `surface` is the one the layer refreshes where the piece's stack says (lib/visits/technician-day.ts), else null. */
+type DefaultLayer = { surface: Surface | null; finishClass: FinishClass; productId: string; coats: number };
+
+/** A surface not yet chosen: the select shows "Choose a surface" and the schema refuses it on filing. */
+const NO_SURFACE = "" as Surface;
 
 /**
  * The visit report: what was done, new finish layers (proposed from the quote's products and coats),
@@ -55,7 +59,7 @@ export function VisitReportForm({
   const defaultClass = defaultLayers[0]?.finishClass;
   const form = useForm<VisitReportInput, unknown, VisitReportValues>({
     resolver: useLazyZodResolver<typeof visitReportSchema, VisitReportInput, VisitReportValues>(() => import("@/lib/validation/visits").then((m) => m.visitReportSchema)),
-    defaultValues: { work: "", earlyReason: "", layers: defaultLayers.map((l) => ({ surface: "top", finishClass: l.finishClass, productId: l.productId, coats: l.coats, appliedOn: today, productLabel: "", batchLot: "" })) },
+    defaultValues: { work: "", earlyReason: "", layers: defaultLayers.map((l) => ({ surface: l.surface ?? NO_SURFACE, finishClass: l.finishClass, productId: l.productId, coats: l.coats, appliedOn: today, productLabel: "", batchLot: "" })) },
     // Checked on pressing the button, then as fields are fixed: an error shown on leaving a field moved the
     // button during the press (the same choice as components/claims/claim-form.tsx).
     mode: "onSubmit",
@@ -131,6 +135,7 @@ export function VisitReportForm({
               </div>
               <div className="grid grid-cols-2 gap-3">
                 <SelectField label="Surface" error={e?.surface?.message} {...form.register(`layers.${i}.surface`)}>
+                  <option value="">Choose a surface</option>
                   {SURFACES.map((s) => (
                     <option key={s} value={s}>{SURFACE_LABELS[s]}</option>
                   ))}
@@ -156,7 +161,7 @@ export function VisitReportForm({
             </div>
           );
         })}
-        <Button variant="secondary" onClick={() => layers.append({ surface: "top", finishClass: defaultClass ?? "hardwax_oil", productId: "", coats: 1, appliedOn: today, productLabel: "", batchLot: "" })}>
+        <Button variant="secondary" onClick={() => layers.append({ surface: NO_SURFACE, finishClass: defaultClass ?? "hardwax_oil", productId: "", coats: 1, appliedOn: today, productLabel: "", batchLot: "" })}>
           <SpriteIcon name="plus" className="size-4" /> Add a layer
         </Button>
       </fieldset>

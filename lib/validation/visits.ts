@@ -97,9 +97,13 @@ export const technicianHoursSchema = z
   });
 export type TechnicianHoursInput = z.input<typeof technicianHoursSchema>;
 
-/** One new finish layer recorded at a visit. */
+/**
+ * One new finish layer recorded at a visit. Its surface has no default: a layer logged on the top when
+ * the base was refreshed moves the wrong stack's next care date (the form proposes the surface of the
+ * layer it refreshes, lib/visits/technician-day.ts, and leaves an added layer's to be chosen).
+ */
 export const reportLayerSchema = z.object({
-  surface: z.enum(SURFACES, { error: "Pick a surface." }).default("top"),
+  surface: z.enum(SURFACES, { error: "Choose the surface this layer went on." }),
   finishClass: z.enum(FINISH_CLASSES, { error: "Pick a finish class." }),
   productId: z.string().trim().max(64).nullable().optional(),
   productLabel: z.string().trim().max(200, "Keep the product under 200 characters.").default(""),

@@ -1,14 +1,14 @@
 import "server-only";
 import { and, asc, eq, gte, inArray, lt } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { claims, clients, pieces, repairJobs, users, visits, type FinishProduct, type Piece, type RepairJob } from "@/db/schema";
+import { claims, clients, pieces, repairJobs, users, visits, type FinishLayer, type FinishProduct, type Piece, type RepairJob } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
 import { topArea } from "@/lib/care/area";
 import { cautionsFor } from "@/lib/care/cautions";
 import { cureWindow } from "@/lib/care/cure";
 import { addDays, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";
-import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type FinishClass } from "@/lib/care/vocabulary";
+import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import { fileUrl } from "@/lib/claims/claim-row";
 import { displayPhone } from "@/lib/clients/phone";
 import { notFound } from "@/lib/errors";
@@ -63,6 +63,18 @@ function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], ap
       cure: { lightUseHours: cure.lightUseHours, fullCureDays: cure.fullCureDays },
     };
   });
+}
+
+/**
+ * The surface a proposed layer of `finishClass` goes on: the one surface whose outermost layer (the
+ * highest position of its stack) is of that class, the layer it refreshes. Null where no surface's
+ * outermost layer is, or more than one's (an oiled top and base): the technician chooses.
+ */
+export function refreshedSurface(layers: readonly Pick<FinishLayer, "surface" | "position" | "finishClass">[], finishClass: FinishClass): Surface | null {
+  const outermost = new Map<Surface, Pick<FinishLayer, "position" | "finishClass">>();
+  for (const l of layers) if ((outermost.get(l.surface)?.position ?? -1) < l.position) outermost.set(l.surface, l);
+  const surfaces = [...outermost].filter(([, l]) => l.finishClass === finishClass).map(([surface]) => surface);
+  return surfaces.length === 1 ? surfaces[0]! : null;
 }
 
 const mapsUrl = (address: string) => `https://www.openstreetmap.org/search?${new URLSearchParams({ query: address })}`;
@@ -120,8 +132,8 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
       ownerPhone: ownerPhone ? { tel: ownerPhone, display: displayPhone(ownerPhone, ctx.studio.country) } : null,
       layers: layers.map((l) => ({ id: l.id, surface: l.surface, position: l.position, finishClass: l.finishClass, classLabel: FINISH_CLASS_LABELS[l.finishClass], productLabel: l.productLabel, coats: l.coats, appliedOn: l.appliedOn, notes: l.notes })),
       bring,
-      /** The report's proposed layers: the quote's products and coats. */
-      defaultLayers: bring.map((b) => ({ finishClass: b.finishClass, productId: b.productId, coats: b.coats })),
+      /** The report's proposed layers: the quote's products and coats, on the surface each refreshes where the stack says. */
+      defaultLayers: bring.map((b) => ({ surface: refreshedSurface(layers, b.finishClass), finishClass: b.finishClass, productId: b.productId, coats: b.coats })),
       cautions,
       photos,
       report: visit.reportedAt

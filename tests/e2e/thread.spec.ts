@@ -150,6 +150,10 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   await expect(card.getByText(/^Cure: light use after \d+ h, full use after \d+ days/).first()).toBeVisible();
   await expect(card.getByText("Not started yet")).toBeVisible();
   await card.getByLabel("What was done").fill("Too early (e2e).");
+  // The proposed layer's surface: no stack of this piece (varnish on the top and the edges) ends in the
+  // finish the quote brings, so the form leaves it at "Choose a surface" and she chooses.
+  await expect(card.getByLabel("Surface")).toHaveValue("");
+  await card.getByLabel("Surface").selectOption("top");
   await card.getByRole("button", { name: "File the report and close the job" }).click();
   await expect(card.getByText(/The report was not filed/)).toBeVisible();
   await expect(card.getByText(/File the report once it has started/).first()).toBeVisible();
@@ -162,6 +166,7 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   await expect(card).toBeVisible();
   await expect(card.getByText("Not started yet")).toHaveCount(0);
   await card.getByLabel("What was done").fill("Cleaned the ring, keyed and recoated the patch by the sink (e2e).");
+  await card.getByLabel("Surface").selectOption("top");
   const jpeg = await sharp({
     create: { width: 320, height: 240, channels: 3, background: "#b9925e" },
   })

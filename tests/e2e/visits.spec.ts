@@ -128,6 +128,19 @@ test("owner books a slot; the technician files the report on a phone; the owner 
     const box = await b.boundingBox();
     expect(box!.height).toBeGreaterThanOrEqual(44);
   }
+  // The proposed layer sits on the surface it refreshes (the top's outermost layer is the topcoat); a
+  // layer she adds has no surface until she chooses one, and filing says so with the field focused.
+  await expect(card.getByRole("group", { name: "New finish layers" }).getByLabel("Surface")).toHaveValue("top");
+  await card.getByRole("button", { name: "Add a layer" }).click();
+  const added = card.getByRole("group", { name: "New finish layers" }).getByLabel("Surface").nth(1);
+  await expect(added).toHaveValue("");
+  await expect(added.locator("option:checked")).toHaveText("Choose a surface");
+  await submit.click();
+  await expect(card.getByText("Choose the surface this layer went on.")).toBeVisible();
+  await expect(added).toBeFocused();
+  await added.selectOption("edges");
+  await expect(card.getByText("Choose the surface this layer went on.")).toHaveCount(0);
+  await card.getByRole("button", { name: "Remove layer 2" }).click();
   const sent = Date.now();
   await submit.click();
   await expect(card.getByRole("status").getByText("Report filed")).toBeVisible();

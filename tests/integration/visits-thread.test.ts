@@ -7,7 +7,7 @@ import { eq } from "drizzle-orm";
 import sharp from "sharp";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { clients, files, pieces, repairJobs, users, visits } from "@/db/schema";
+import { clients, files, finishLayers, pieces, repairJobs, users, visits } from "@/db/schema";
 import { createJobFromClaim } from "@/lib/claims/open-job";
 import { AppError } from "@/lib/errors";
 import { canViewFile } from "@/lib/files/access";
@@ -69,13 +69,36 @@ describe("the technician's day", () => {
     const maps = new URL(item.visit.mapsUrl);
     expect([maps.origin, maps.pathname, maps.searchParams.get("query")]).toEqual(["https://www.openstreetmap.org", "/search", w.visit.location]);
     expect(item.bring).toEqual([expect.objectContaining({ productId: w.product.id, coats: 1, cure: { lightUseHours: 24, fullCureDays: 14 } })]); // hardwax oil class default (lib/care/cure)
-    expect(item.defaultLayers).toEqual([{ finishClass: "hardwax_oil", productId: w.product.id, coats: 1 }]);
+    // The piece's one stack is an oiled top (tests/support/fixtures createPiece): the proposed oil layer goes there.
+    expect(item.defaultLayers).toEqual([{ surface: "top", finishClass: "hardwax_oil", productId: w.product.id, coats: 1 }]);
     expect(item.visit.started).toBe(false);
 
     // Only the technician of a visit for the claim's job sees the owner's claim photos.
     expect(canViewFile(w.tech.user.id, photo)).toBe(true);
     const otherTech = await memberContext(w.studio, "technician");
     expect(canViewFile(otherTech.user.id, photo)).toBe(false);
+  });
+});
+
+describe("the report's proposed layers", () => {
+  const proposedSurface = (w: Awaited<ReturnType<typeof bookedThread>>) => technicianDay(w.tech, { date: w.slot.localDate }, NOW).items.find((i) => i.visit.id === w.visit.id)!.defaultLayers.map((l) => l.surface);
+  const addLayer = (w: Awaited<ReturnType<typeof bookedThread>>, surface: "top" | "base" | "edges", position: number, finishClass: "hardwax_oil" | "film_finish") =>
+    getDb().insert(finishLayers).values({ studioId: w.studio.id, pieceId: w.piece.id, surface, position, finishClass, coats: 1, appliedOn: w.piece.deliveredOn }).run();
+
+  it("sit on the surface whose outermost layer they refresh, and on none where the stack does not say which", async () => {
+    // Film over the oiled top: the oil the quote brings refreshes the base, whose outermost layer is oil.
+    const w = await bookedThread();
+    addLayer(w, "top", 1, "film_finish");
+    addLayer(w, "base", 0, "hardwax_oil");
+    expect(proposedSurface(w)).toEqual(["base"]);
+    // Oil outermost on the top and on the base: the technician chooses (the form shows "Choose a surface").
+    const both = await bookedThread();
+    addLayer(both, "base", 0, "hardwax_oil");
+    expect(proposedSurface(both)).toEqual([null]);
+    // No stack ends in oil: no surface is proposed either.
+    const none = await bookedThread();
+    addLayer(none, "top", 1, "film_finish");
+    expect(proposedSurface(none)).toEqual([null]);
   });
 });
 

@@ -274,9 +274,9 @@ describe("the visit report", () => {
         () => ({ fieldErrors: undefined }),
         (e: AppError) => e,
       );
-    expect((await errOf([{ finishClass: "hardwax_oil", coats: 1, appliedOn: "2027-06-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
-    expect((await errOf([{ finishClass: "hardwax_oil", coats: 1, appliedOn: "2020-01-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
-    expect((await errOf([{ finishClass: "paste_wax", productId: w.product.id, coats: 1, appliedOn: "2027-05-04" }])).fieldErrors).toHaveProperty(["layers.0.finishClass"]);
+    expect((await errOf([{ surface: "top", finishClass: "hardwax_oil", coats: 1, appliedOn: "2027-06-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
+    expect((await errOf([{ surface: "top", finishClass: "hardwax_oil", coats: 1, appliedOn: "2020-01-01" }])).fieldErrors).toHaveProperty(["layers.0.appliedOn"]);
+    expect((await errOf([{ surface: "top", finishClass: "paste_wax", productId: w.product.id, coats: 1, appliedOn: "2027-05-04" }])).fieldErrors).toHaveProperty(["layers.0.finishClass"]);
     expect(await statusOf(async () => submitReport(w.tech, v.id, visitReportSchema.parse({ work: "", layers: [] }), at))).toBe(400);
     expect(getDb().select().from(visits).where(eq(visits.id, v.id)).get()!.state).toBe("booked");
     expect(getDb().select().from(finishLayers).where(eq(finishLayers.pieceId, w.piece.id)).all()).toHaveLength(1);

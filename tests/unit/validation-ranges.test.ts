@@ -68,7 +68,7 @@ describe("date ranges", () => {
     expect(issues(visitsSchemas.technicianHoursSchema.safeParse({ hours: [], timeOff: [{ date: "9999-12-31" }] }))).toEqual([expect.stringMatching(/^timeOff\.0\.date:/)]);
     expect(issues(visitsSchemas.bookVisitSchema.safeParse({ jobId: "j", technicianId: "t", start: "9999-12-31T10:00:00Z" }))).toEqual([expect.stringMatching(/^start:/)]);
     expect(issues(visitsSchemas.listVisitsQuerySchema.safeParse({ from: "9999-12-20T00:00:00Z", to: "9999-12-31T00:00:00Z" })).some((i) => i.startsWith("from:"))).toBe(true);
-    expect(issues(visitsSchemas.visitReportSchema.safeParse({ work: "Oiled", signOffName: "Invented Owner", layers: [{ finishClass: "hardwax_oil", coats: 1, appliedOn: "9999-12-31" }] }))).toEqual([expect.stringMatching(/^layers\.0\.appliedOn:/)]);
+    expect(issues(visitsSchemas.visitReportSchema.safeParse({ work: "Oiled", signOffName: "Invented Owner", layers: [{ surface: "top", finishClass: "hardwax_oil", coats: 1, appliedOn: "9999-12-31" }] }))).toEqual([expect.stringMatching(/^layers\.0\.appliedOn:/)]);
     expect(issues(auditQuerySchema.safeParse({ to: "9999-12-31" }))).toEqual([expect.stringMatching(/^to:/)]);
     expect(issues(claimRatesQuerySchema.safeParse({ to: "9999-12-31" }))).toEqual([expect.stringMatching(/^to:/)]);
   });
@@ -114,6 +114,9 @@ describe("out-of-range values a person types read in words", () => {
     ["catalog container of 200 L", piecesSchemas.catalogProductSchema, { name: "Oil", finishClass: "hardwax_oil", coverageM2PerL: 10, containers: [{ ml: 200_000, priceMinor: 100 }] }, "containers.0.ml", /100,000 mL/],
     ["visit layer batch of 101 characters", visitsSchemas.reportLayerSchema, { finishClass: "hardwax_oil", coats: 1, appliedOn: utcToday(), batchLot: "x".repeat(101) }, "batchLot", /100 characters/],
     ["visit layer product of 201 characters", visitsSchemas.reportLayerSchema, { finishClass: "hardwax_oil", coats: 1, appliedOn: utcToday(), productLabel: "x".repeat(201) }, "productLabel", /200 characters/],
+    // A layer's surface has no default: the report form leaves an added layer's at "Choose a surface".
+    ["visit layer with its surface not chosen", visitsSchemas.reportLayerSchema, { surface: "", finishClass: "hardwax_oil", coats: 1, appliedOn: utcToday() }, "surface", /Choose the surface this layer went on/],
+    ["visit layer sent without a surface", visitsSchemas.reportLayerSchema, { finishClass: "hardwax_oil", coats: 1, appliedOn: utcToday() }, "surface", /Choose the surface this layer went on/],
   ];
   it.each(cases)("%s", (_label, schema, input, path, words) => {
     const r = schema.safeParse(input);
