@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { useFieldArray, useForm } from "react-hook-form";
+import { useFieldArray, useForm, type FieldPath } from "react-hook-form";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
@@ -25,6 +25,9 @@ const list = (x: unknown): string[] => (Array.isArray(x) ? x : typeof x === "str
 
 type FormLine = Omit<BuilderLine, "quantity" | "unitPriceMinor"> & { quantity: string; unitPrice: string };
 type FormValues = Omit<BuilderInitial, "coats" | "coveredPct"> & { coats: string; coveredPct: string; lines: FormLine[] };
+/** The fields the schema checks, above the lines and below them, in the order the form shows them. */
+const ABOVE_LINES = ["title", "tasks", "coats"] as const;
+const BELOW_LINES = ["coveredPct", "notes"] as const;
 
 /**
  * The quote builder: maintenance tasks and repairs the care engine and the price list propose lines
@@ -58,7 +61,7 @@ export function QuoteBuilder({
   const [formError, setFormError] = useState<string | null>(null);
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
   const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm) } });
-  const { register, handleSubmit, formState, control, setError } = form;
+  const { register, handleSubmit, formState, control, setError, setFocus } = form;
   const fields = useFieldArray({ control, name: "lines" });
   const { run, busy } = useRefreshingMutation(
     ({ body }: { body: Record<string, unknown>; v: FormValues; withLines: boolean }) => apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body }),
@@ -79,20 +82,28 @@ export function QuoteBuilder({
   const saving = busy || formState.isSubmitting;
 
   const submit = (withLines: boolean) =>
-    handleSubmit((v) => {
+    handleSubmit(async (v) => {
       setFormError(null);
-      let bad = false;
+      const badLines: FieldPath<FormValues>[] = [];
+      const wrong = (field: `lines.${number}.${"description" | "quantity" | "unitPrice"}`, message: string) => {
+        badLines.push(field);
+        setError(field, { message });
+      };
       const sent = v.lines.map((l, i) => {
         const unitPriceMinor = parseMajorAmount(l.unitPrice, exponent);
-        if (unitPriceMinor === null) setError(`lines.${i}.unitPrice`, { message: `Enter a price like ${formatMinorUnits(8550, currency)}.` });
-        if (!QUANTITY.test(l.quantity) || Number(l.quantity) <= 0) setError(`lines.${i}.quantity`, { message: "A number above 0 and up to 100,000, at most three decimals (0.75)." });
-        if (!l.description.trim()) setError(`lines.${i}.description`, { message: "Describe the line." });
-        bad ||= unitPriceMinor === null || !QUANTITY.test(l.quantity) || Number(l.quantity) <= 0 || !l.description.trim();
+        if (!l.description.trim()) wrong(`lines.${i}.description`, "Describe the line.");
+        if (!QUANTITY.test(l.quantity) || Number(l.quantity) <= 0) wrong(`lines.${i}.quantity`, "A number above 0 and up to 100,000, at most three decimals (0.75).");
+        if (unitPriceMinor === null) wrong(`lines.${i}.unitPrice`, `Enter a price like ${formatMinorUnits(8550, currency)}.`);
         const { unitPrice: _p, proposed: _x, ...rest } = l;
         return { ...rest, quantity: l.quantity.trim(), unitPriceMinor: unitPriceMinor ?? 0 };
       });
-      if (withLines && bad) return;
       const body = { title: v.title, notes: v.notes, tasks: list(v.tasks), repairs: list(v.repairs), productIds: list(v.productIds), coats: v.coats, travel: v.travel, coveredPct: v.coveredPct, ...(withLines ? { lines: sent } : {}) };
+      // The server's own schema, checked on the same press: every field's problem shows at once, the first focused.
+      const problems = (await import("@/lib/validation/jobs")).quoteProblems(body);
+      const [above, below] = [ABOVE_LINES.filter((f) => problems[f]), BELOW_LINES.filter((f) => problems[f])];
+      for (const f of [...above, ...below]) setError(f, { message: problems[f] });
+      const first = [...above, ...(withLines ? badLines : []), ...below][0];
+      if (first) return setFocus(first);
       run({ body, v, withLines });
     });
 
@@ -100,10 +111,11 @@ export function QuoteBuilder({
   return (
     <form onSubmit={submit(true)} noValidate className="space-y-5">
       {formError ? <Notice tone="error">{formError}</Notice> : null}
-      <fieldset disabled={!editable || saving} className="space-y-5">
+      {/* Disabled while the quote is sent, not while the press is checked: the first field to fix takes the focus (the buttons stay disabled throughout). */}
+      <fieldset disabled={!editable || busy} className="space-y-5">
         <TextField label="Job title" {...register("title")} error={formState.errors.title?.message} />
 
-        <details className="rounded-lg border border-line bg-white p-3" open={lines.length === 0}>
+        <details className="rounded-lg border border-line bg-white p-3" open={lines.length === 0 || Boolean(formState.errors.tasks ?? formState.errors.coats)}>
           <summary className="cursor-pointer font-medium">What the lines are proposed from</summary>
           <div className="mt-3 space-y-4">
             <fieldset className="space-y-2">

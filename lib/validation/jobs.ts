@@ -2,6 +2,7 @@ import { z } from "zod";
 import { CARE_TASK_KINDS } from "@/lib/care/vocabulary";
 import { JOB_STATES } from "@/lib/care/vocabulary";
 import { LINE_KINDS, LINE_SOURCES, LINE_UNITS } from "@/lib/repairs/lines";
+import { inWords } from "@/lib/validation/words";
 
 const id = z.string().min(1).max(64);
 
@@ -44,6 +45,17 @@ export const jobQuoteSchema = z
   .refine((v) => v.tasks.length + (v.repairs?.length ?? 0) + (v.lines?.length ?? 0) > 0, { message: "Pick at least one task or add a line.", path: ["tasks"] });
 export type JobQuoteInput = z.infer<typeof jobQuoteSchema>;
 export type QuoteLineInput = z.infer<typeof quoteLineSchema>;
+
+/**
+ * What PATCH /api/jobs/[id] would refuse in a quote, the first message of each field by its path
+ * ("coveredPct", "lines.0.quantity"): the quote builder checks the same schema on the press, so the
+ * warranty share's bound shows beside the lines' problems rather than after they are fixed.
+ */
+export function quoteProblems(body: unknown): Record<string, string> {
+  const problems: Record<string, string> = {};
+  for (const issue of jobQuoteSchema.safeParse(body, { error: inWords }).error?.issues ?? []) problems[issue.path.join(".")] ??= issue.message;
+  return problems;
+}
 
 export const createJobSchema = z.object({
   from: z.enum(["claim", "refresh_offer"]),

@@ -32,27 +32,38 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   const crack = await lineWith(page, "Crack or check fill");
   await expect(crack.getByText("Labour rate · proposed 1 h at $85.00")).toBeVisible();
 
-  // Hours edited; a bad quantity is refused on the spot and nothing is sent.
+  // Hours edited, and a warranty share over 100 %: one press shows both problems at once (the share's
+  // in words, not zod's "Too big: …"), focuses the first, and sends nothing.
+  const patches: string[] = [];
+  page.on("request", (r) => {
+    if (r.url().endsWith(`/api/jobs/${jobId}`) && r.method() === "PATCH") patches.push(r.url());
+  });
+  const share = await page.getByLabel("Warranty share (%)").inputValue();
   await crack.getByLabel("Quantity").fill("1.0005");
+  await page.getByLabel("Warranty share (%)").fill("250");
   await page.getByRole("button", { name: "Save the quote" }).click();
   await expect(crack.getByText("A number above 0 and up to 100,000, at most three decimals (0.75).")).toBeVisible();
+  await expect(page.getByText("The covered share is 0 to 100 %.")).toBeVisible();
+  await expect(crack.getByLabel("Quantity")).toBeFocused();
+  await expect(page.getByText(/Too big|expected number/)).toHaveCount(0);
+  expect(patches).toEqual([]);
+  // The share alone wrong: it is refused on the press too, focused, and nothing is sent.
   await crack.getByLabel("Quantity").fill("1.5");
+  await page.getByRole("button", { name: "Save the quote" }).click();
+  await expect(page.getByLabel("Warranty share (%)")).toBeFocused();
+  await expect(page.getByText("The covered share is 0 to 100 %.")).toBeVisible();
+  expect(patches).toEqual([]);
+  // The server checks the same bound with the same words.
+  const refused = await page.request.patch(`/api/jobs/${jobId}`, { data: { title: "Share check (e2e)", tasks: [], repairs: ["crack_fill"], productIds: [], coats: 1, travel: true, coveredPct: 250, notes: "" } });
+  expect(refused.status()).toBe(400);
+  expect(((await refused.json()) as { error: { fieldErrors: Record<string, string[]> } }).error.fieldErrors.coveredPct).toEqual(["The covered share is 0 to 100 %."]);
+  await page.getByLabel("Warranty share (%)").fill(share);
 
   await page.getByRole("button", { name: "Add a typed line" }).click();
   const typed = quoteLines(page).last();
   await expect(typed.getByText("Typed", { exact: true })).toBeVisible();
   await typed.getByLabel(/^Line \d+: description$/).fill("Colour-match the fill (invented)");
   await typed.getByLabel("Unit price (USD)").fill("12.50");
-  // A warranty share over 100 % is a 400 with words under the field (not zod's "Too big: …"), and the typing stays.
-  const share = await page.getByLabel("Warranty share (%)").inputValue();
-  await page.getByLabel("Warranty share (%)").fill("250");
-  const refused = page.waitForResponse((r) => r.url().endsWith(`/api/jobs/${jobId}`) && r.request().method() === "PATCH");
-  await page.getByRole("button", { name: "Save the quote" }).click();
-  expect((await refused).status()).toBe(400);
-  await expect(page.getByText("The covered share is 0 to 100 %.")).toBeVisible();
-  await expect(page.getByText(/Too big|expected number/)).toHaveCount(0);
-  await expect(typed.getByLabel(/^Line \d+: description$/)).toHaveValue("Colour-match the fill (invented)");
-  await page.getByLabel("Warranty share (%)").fill(share);
   await page.getByRole("button", { name: "Save the quote" }).click();
   await expect(page.getByText("Quote saved.")).toBeVisible();
 
