@@ -47,8 +47,8 @@ export function openDatabase(file: string): Db {
  * (bit 0x10) skips sqlite_stat4 and estimates sqlite_stat1 from a sample; on a copy of the
  * 100,000-piece bench seed that estimated one studio's pieces at 1,059 rows instead of 100,000. A full
  * analysis of the tables that need one took 0.16-0.31 s there. Other open connections (the server's)
- * keep the statistics they loaded until they are opened again or run this. Says the tables whose
- * statistics it changed (none: nothing to do).
+ * keep the statistics they loaded until they reload them (reloadPlannerStatistics below, hourly in
+ * the process's own connection). Says the tables whose statistics it changed (none: nothing to do).
  */
 export function refreshPlannerStatistics(sqlite: Database.Database): string[] {
   const before = plannerStatistics(sqlite);
@@ -57,7 +57,63 @@ export function refreshPlannerStatistics(sqlite: Database.Database): string[] {
   if (before.size > 0) sqlite.exec("ANALYZE sqlite_schema");
   sqlite.pragma("optimize = 0x10002");
   const after = plannerStatistics(sqlite);
+  loadedStatistics.set(sqlite, statisticsKey(after));
   return [...after.keys()].filter((table) => after.get(table) !== before.get(table));
+}
+
+/** How often the process's connection looks for statistics another process wrote (getDb below). */
+export const STATISTICS_CHECK_MS = 60 * 60_000;
+
+/** sqlite_stat1 as each connection's planner last loaded it (statisticsKey), where that is known. */
+const loadedStatistics = new WeakMap<Database.Database, string>();
+const statisticsKey = (stats: Map<string, string>) => JSON.stringify([...stats]);
+
+/**
+ * Makes this connection's planner use the statistics another connection wrote since it loaded its own:
+ * SQLite reads sqlite_stat1/sqlite_stat4 when a connection opens or analyzes, never when another one
+ * writes them (https://sqlite.org/lang_analyze.html: "ANALYZE sqlite_schema" reloads them). The
+ * nightly pass analyzes in the scheduler's process (jobs/search-indexes.ts), so without this the
+ * server planned with the statistics of its start until it restarted.
+ *
+ * It compares sqlite_stat1 (a row per index, read without a lock) with what this connection loaded and
+ * reloads only when it differs: every analysis our passes run changes it (optimize analyzes a table
+ * that was never analyzed or has grown or shrunk tenfold, and the full analysis counts its rows
+ * exactly). The reload takes the write lock for a moment, so it does not wait for it: while another
+ * connection writes it says false, and the next check tries again. Says whether it reloaded.
+ */
+export function reloadPlannerStatistics(sqlite: Database.Database): boolean {
+  if (sqlite.inTransaction) return false;
+  const current = statisticsKey(plannerStatistics(sqlite));
+  if (loadedStatistics.get(sqlite) === current) return false;
+  const timeout = sqlite.pragma("busy_timeout", { simple: true }) as number;
+  sqlite.pragma("busy_timeout = 0");
+  try {
+    sqlite.exec("ANALYZE sqlite_schema");
+  } catch (e) {
+    if (e instanceof Database.SqliteError && e.code.startsWith("SQLITE_BUSY")) return false;
+    throw e;
+  } finally {
+    sqlite.pragma(`busy_timeout = ${timeout}`);
+  }
+  loadedStatistics.set(sqlite, current);
+  return true;
+}
+
+/**
+ * Runs reloadPlannerStatistics on `sqlite` every `everyMs`, between requests, never in one: a timer
+ * that does not keep the process alive and stops once the connection is closed. Returns its stop.
+ */
+export function watchPlannerStatistics(sqlite: Database.Database, everyMs = STATISTICS_CHECK_MS): () => void {
+  const timer = setInterval(() => {
+    if (!sqlite.open) return clearInterval(timer);
+    try {
+      reloadPlannerStatistics(sqlite);
+    } catch (e) {
+      console.error("planner statistics not reloaded", e);
+    }
+  }, everyMs);
+  timer.unref();
+  return () => clearInterval(timer);
 }
 
 /** sqlite_stat1's rows by table, one string each (none before the first ANALYZE creates it). */
@@ -134,7 +190,7 @@ export function databaseFile(): string {
 
 const globalForDb = globalThis as unknown as { grainwardDb?: Db };
 
-/** The process's one connection, opened on first use; refuses an unmigrated database. */
+/** The process's one connection, opened on first use; refuses an unmigrated database; reloads the planner statistics others write. */
 export function getDb(): Db {
   if (globalForDb.grainwardDb) return globalForDb.grainwardDb;
   const file = databaseFile();
@@ -145,6 +201,8 @@ export function getDb(): Db {
     throw new UnmigratedDatabaseError(file, applied, expected);
   }
   globalForDb.grainwardDb = db;
+  // The nightly pass analyzes in the scheduler's process; this connection picks that up within the hour.
+  watchPlannerStatistics(db.$client);
   return db;
 }
 

@@ -2,10 +2,11 @@
 // on analyzed bench seeds, so a database the product opens must have statistics too. A connection that
 // opens a database whose tables hold rows but were never analyzed analyzes them (the server and the
 // scheduler at start); the scheduler's nightly pass (jobs/search-indexes.ts) analyzes a table again once
-// it has grown tenfold, and does nothing when nothing grew. Its own SQLite file (ANALYZE changes the
-// plans of the statements other test files run); invented studio, owners and pieces.
-import { beforeAll, describe, expect, it } from "vitest";
-import { getDb, openDatabase } from "@/db/client";
+// it has grown tenfold, and does nothing when nothing grew; another connection (the server's) plans with
+// what that pass wrote once it reloads them (reloadPlannerStatistics, hourly). Its own SQLite file
+// (ANALYZE changes the plans of the statements other test files run); invented studio, owners and pieces.
+import { beforeAll, describe, expect, it, vi } from "vitest";
+import { getDb, openDatabase, reloadPlannerStatistics, watchPlannerStatistics } from "@/db/client";
 import { getLucia } from "@/lib/auth/lucia";
 import { randomToken, sha256Hex } from "@/lib/crypto";
 import { searchIndexesJob } from "@/jobs/search-indexes";
@@ -99,4 +100,62 @@ describe("planner statistics", () => {
     openDatabase(file).$client.close();
     expect(analyzedRows("pieces_owner_idx")).toBe(660);
   }, 20_000);
+
+  it("another connection plans with the statistics the nightly pass wrote once it reloads them, hourly, without waiting for a writer", async () => {
+    // A probe table (only in this test's file) with two indexes; the planner picks the one its loaded
+    // statistics call the more selective. Made before the second connection opens: a schema change
+    // would make that connection reload everything, statistics included, and hide what is tested.
+    const first = getDb().$client;
+    first.exec("CREATE TABLE planner_probe (a INTEGER, b INTEGER); CREATE INDEX planner_probe_a ON planner_probe (a); CREATE INDEX planner_probe_b ON planner_probe (b)");
+    const insert = first.prepare("INSERT INTO planner_probe (a, b) VALUES (?, ?)");
+    first.transaction(() => {
+      for (let i = 0; i < 100; i++) insert.run(i, i % 10); // a: 1 row a value, b: 10
+    })();
+    first.exec("ANALYZE planner_probe");
+    const plan = (db: typeof first) => (db.prepare("EXPLAIN QUERY PLAN SELECT * FROM planner_probe WHERE a = ? AND b = ?").all(1, 1) as { detail: string }[]).map((r) => r.detail).join("; ");
+
+    const server = openDatabase(file).$client; // as the server opens it at start
+    try {
+      expect(plan(server)).toMatch(/USING INDEX planner_probe_a\b/);
+      // Eleven times as many rows, now 110 to each a and one to each b (evenly: sqlite_stat4 would see
+      // through a skew): the nightly pass (run here, in the "scheduler's" connection) analyzes the
+      // table again, and its own plans turn to b.
+      first.transaction(() => {
+        for (let i = 0; i < 1000; i++) insert.run(0, 0);
+        first.exec("UPDATE planner_probe SET a = rowid % 10, b = rowid");
+      })();
+      expect((await searchIndexesJob()).filter((l) => l.startsWith("planner statistics"))).toEqual([expect.stringMatching(/planner_probe/)]);
+      expect(plan(first)).toMatch(/USING INDEX planner_probe_b\b/);
+      // The server's connection still plans with what it loaded at open, though sqlite_stat1 says otherwise.
+      expect(plan(server)).toMatch(/USING INDEX planner_probe_a\b/);
+      expect(reloadPlannerStatistics(server)).toBe(true);
+      expect(plan(server)).toMatch(/USING INDEX planner_probe_b\b/);
+      // Nothing new: nothing reloaded (no lock taken).
+      expect(reloadPlannerStatistics(server)).toBe(false);
+
+      // Back the other way (each a its own value, 110 to each b), analyzed; while another connection
+      // holds the write lock the reload does not wait for it (busy_timeout is 5 s) and the plan stays.
+      first.exec("UPDATE planner_probe SET a = rowid, b = rowid % 10");
+      first.exec("ANALYZE planner_probe");
+      first.exec("BEGIN IMMEDIATE");
+      try {
+        const started = performance.now();
+        expect(reloadPlannerStatistics(server)).toBe(false);
+        expect(performance.now() - started).toBeLessThan(1000);
+        expect(plan(server)).toMatch(/USING INDEX planner_probe_b\b/);
+      } finally {
+        first.exec("ROLLBACK");
+      }
+      expect(server.pragma("busy_timeout", { simple: true })).toBe(5000);
+      // The watch getDb() keeps (hourly, here every 20 ms) picks it up once the lock is free.
+      const stop = watchPlannerStatistics(server, 20);
+      try {
+        await vi.waitFor(() => expect(plan(server)).toMatch(/USING INDEX planner_probe_a\b/), { timeout: 5000, interval: 20 });
+      } finally {
+        stop();
+      }
+    } finally {
+      server.close();
+    }
+  });
 });
