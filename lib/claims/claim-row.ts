@@ -2,7 +2,8 @@ import "server-only";
 import { and, eq, or } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { claims, studios, type Claim, type Studio } from "@/db/schema";
-import { notFound } from "@/lib/errors";
+import { forbidden, notFound } from "@/lib/errors";
+import { ownerMayWrite } from "@/lib/messages/store";
 import { readAnswers } from "./coverage";
 import type { ActorRef } from "@/lib/auth/actor";
 import { claimVisibleTo } from "./visible";
@@ -20,6 +21,15 @@ export function loadVisibleClaim(actor: ActorRef, claimId: string): { claim: Cla
   const claim = getDb().select().from(claims).where(and(eq(claims.id, claimId), reach)).get();
   if (!claim) throw notFound("No claim with that id.");
   return { claim, asStaff: actor.role !== "owner" && claim.studioId === actor.studio?.id };
+}
+
+/**
+ * The one rule for an owner's writes on their claim (messages, photos): they act on it only while
+ * they hold its piece (lib/messages/store.ts ownerMayWrite). After a hand-over the former owner still
+ * reads the claim as their history, but adds or removes nothing; `refusal` says what they tried.
+ */
+export function requireOwnerActsOnClaim(actor: ActorRef, claim: Claim, refusal: string): void {
+  if (!ownerMayWrite(getDb(), actor.user.id, { kind: "claim", id: claim.id })) throw forbidden(refusal);
 }
 
 /** A claim of the studio's, for staff operations; another studio's claim is a 404. */

@@ -6,7 +6,7 @@ import { recordAudit } from "@/lib/audit";
 import type { Actor } from "@/lib/auth/actor";
 import { conflict, forbidden, notFound } from "@/lib/errors";
 import { removeStoredFiles, storeImage } from "@/lib/storage";
-import { loadVisibleClaim, photoView, type ClaimPhoto } from "./claim-row";
+import { loadVisibleClaim, photoView, requireOwnerActsOnClaim, type ClaimPhoto } from "./claim-row";
 import { MAX_CLAIM_PHOTOS, OPEN_STATES } from "./states";
 
 // The owner adds photos to an open claim and removes them while the claim is still new.
@@ -22,6 +22,7 @@ function photoCount(claimId: string): number {
 export async function addClaimPhoto(actor: Actor, claimId: string, read: () => Promise<Uint8Array>): Promise<ClaimPhoto> {
   const { claim } = loadVisibleClaim(actor, claimId);
   if (claim.ownerId !== actor.user.id) throw forbidden("Only the owner who filed the claim adds photos to it.");
+  requireOwnerActsOnClaim(actor, claim, "The piece has a new owner now, so this claim takes no more photos from you.");
   if (!OPEN_STATES.includes(claim.state)) throw conflict("This claim has been decided; photos can no longer be added. Send the studio a message instead.");
   if (photoCount(claim.id) >= MAX_CLAIM_PHOTOS) throw conflict(`A claim holds at most ${MAX_CLAIM_PHOTOS} photos. Remove one to add another.`);
   const stored = await storeImage(await read(), actor.user.id);
@@ -49,6 +50,7 @@ export async function removeClaimPhoto(actor: Actor, claimId: string, fileId: st
   const file = getDb().select().from(files).where(and(eq(files.id, fileId), eq(files.claimId, claim.id))).get();
   if (!file) throw notFound("No such photo on this claim.");
   if (claim.ownerId !== actor.user.id) throw forbidden("Only the owner who filed the claim removes its photos.");
+  requireOwnerActsOnClaim(actor, claim, "The piece has a new owner now, so the photos on this claim stay as they are.");
   if (claim.state !== "submitted") throw conflict("The studio has started reviewing this claim, so its photos stay. Send a message if one was a mistake.");
   getDb().transaction((tx) => {
     tx.delete(files).where(eq(files.id, file.id)).run();

@@ -6,9 +6,9 @@ import { claims, pieces, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { Actor } from "@/lib/auth/actor";
 import { conflict, forbidden } from "@/lib/errors";
-import { appendMessage, ownerMayWrite, threadFor } from "@/lib/messages/store";
+import { appendMessage, threadFor } from "@/lib/messages/store";
 import type { claimMessageSchema } from "@/lib/validation/claims";
-import { loadVisibleClaim, studioOf } from "./claim-row";
+import { loadVisibleClaim, requireOwnerActsOnClaim, studioOf } from "./claim-row";
 import { mailClaimMessage } from "./mail";
 import { moveState } from "./move-state";
 import { ownerAnswered } from "./owner-answer";
@@ -23,7 +23,7 @@ export type ClaimMessageValues = z.output<typeof claimMessageSchema>;
 export async function postClaimMessage(actor: Actor, claimId: string, input: ClaimMessageValues) {
   const { claim, asStaff } = loadVisibleClaim(actor, claimId);
   if (claim.state === "closed") throw conflict("This claim is closed. Start a new claim if something else needs the studio's attention.");
-  if (!asStaff && !ownerMayWrite(getDb(), actor.user.id, { kind: "claim", id: claim.id })) throw forbidden("The piece has a new owner now, so this claim takes no more messages from you.");
+  if (!asStaff) requireOwnerActsOnClaim(actor, claim, "The piece has a new owner now, so this claim takes no more messages from you.");
   if (input.requestInfo && !asStaff) throw forbidden("Only the studio asks for more information.");
   const now = new Date();
   const result = getDb().transaction((tx) => {
