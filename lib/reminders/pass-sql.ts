@@ -98,7 +98,8 @@ function statements(sqlite: Database.Database) {
       `INSERT INTO refresh_offers (id, studio_id, piece_id, user_id, task_key, due_on, price_minor, currency, quote, status, reminder_send_id, created_at)
        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, 'offered', ?, ?) ON CONFLICT(task_key, due_on) DO NOTHING`,
     ),
-    relinkOffer: sqlite.prepare(`UPDATE refresh_offers SET reminder_send_id = ? WHERE id = ? AND status = 'offered' RETURNING quote`),
+    // A relinked offer goes out to the piece's owner of today, who may not be the one it was first made for.
+    relinkOffer: sqlite.prepare(`UPDATE refresh_offers SET reminder_send_id = ?, user_id = ? WHERE id = ? AND status = 'offered' RETURNING quote`),
     expireOffer: sqlite.prepare(`UPDATE refresh_offers SET status = 'expired' WHERE id = ? AND status = 'offered'`),
     handoff: sqlite.prepare(
       `UPDATE reminder_sends SET attempts = attempts + 1, sent_at = ?, updated_at = ? WHERE id = ? AND status = 'queued' AND message_id = ?`,

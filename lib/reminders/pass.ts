@@ -431,7 +431,7 @@ function refreshOfferFor(pass: Pass, studio: Studio, piece: ReminderPieceRow, ta
     return { id: offerId, quote: q };
   }
   if (existing.status === "offered" && (existing.reminderSendId === rowId || existing.sendStatus !== "sent")) {
-    const relinked = s.relinkOffer.get(rowId, existing.id) as { quote: string } | undefined;
+    const relinked = s.relinkOffer.get(rowId, piece.ownerId, existing.id) as { quote: string } | undefined;
     if (relinked) return { id: existing.id, quote: JSON.parse(relinked.quote) as Quote };
   }
   return undefined;

@@ -1,13 +1,19 @@
-// After a hand-over the former owner reads their claims as history but changes nothing on them.
+// After a hand-over the former owner reads their claims as history but changes nothing on them, and a
+// link from a mail they were sent while they held the piece (a refresh offer) no longer accepts.
 // All data is invented.
 import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { files } from "@/db/schema";
+import { files, refreshOffers } from "@/db/schema";
+import type { Quote } from "@/lib/care/quote";
 import { addClaimPhoto, removeClaimPhoto } from "@/lib/claims/photos";
 import { postClaimMessage } from "@/lib/claims/reply";
 import { getOwnerClaim } from "@/lib/claims/view-claim";
+import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
+import { acceptOfferByToken, getOfferByToken } from "@/lib/reminders/offers";
+import { offerToken } from "@/lib/reminders/tokens";
+import { createUser } from "../support/fixtures";
 import { claimWorld, fileClaim, photoJpeg } from "./claims-helpers";
 
 async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
@@ -20,6 +26,14 @@ async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> 
 }
 
 const photosOf = (claimId: string) => getDb().select({ id: files.id }).from(files).where(and(eq(files.claimId, claimId), eq(files.purpose, "claim_photo"))).all();
+
+function offerFor(studioId: string, pieceId: string, userId: string) {
+  return getDb()
+    .insert(refreshOffers)
+    .values({ studioId, pieceId, userId, taskKey: `${pieceId}:topcoat_refresh:top`, dueOn: "2027-03-01", priceMinor: 12_000, currency: "USD", quote: { lines: [], subtotalMinor: 12_000, taxMinor: 0, totalMinor: 12_000, currency: "USD" } as unknown as Quote, status: "offered" })
+    .returning()
+    .get();
+}
 
 describe("a former owner after the hand-over", () => {
   it("adds and removes no photos on their open claim (403, nothing stored or deleted), and reads it still", async () => {
@@ -37,5 +51,27 @@ describe("a former owner after the hand-over", () => {
     expect(photosOf(claim.id).map((f) => f.id)).toEqual([kept.id]);
     // History: the claim and its photo are still theirs to read.
     expect(getOwnerClaim(w.owner, claim.id).photos.map((p) => p.id)).toEqual([kept.id]);
+  });
+
+  it("accepts no refresh offer from a mail sent before the hand-over; the new owner's relinked offer is theirs", async () => {
+    const w = await claimWorld();
+    const offer = offerFor(w.studio.id, w.piece.id, w.owner.id);
+    const token = offerToken(offer.id);
+    expect(getOfferByToken(token).status).toBe("offered");
+
+    const { code } = await releasePiece({ ...w.owner }, w.piece.id, { confirm: true });
+    // The link now reads as no longer open, and accepting it records nothing.
+    expect(getOfferByToken(token).status).toBe("expired");
+    expect(await statusOf(() => acceptOfferByToken(token))).toBe(409);
+    expect(getDb().select().from(refreshOffers).where(eq(refreshOffers.id, offer.id)).get()!.status).toBe("offered");
+
+    // Registered by someone else: still closed to the former owner's link.
+    const next = await createUser({ emailVerifiedAt: new Date(), name: "Next Owner (invented)" });
+    await registerPiece(next, { code }, "203.0.113.31");
+    expect(await statusOf(() => acceptOfferByToken(token))).toBe(409);
+
+    // An offer the reminder pass hands to the new owner (user_id moved to them) accepts as before.
+    getDb().update(refreshOffers).set({ userId: next.id }).where(eq(refreshOffers.id, offer.id)).run();
+    expect(acceptOfferByToken(token).status).toBe("accepted");
   });
 });
