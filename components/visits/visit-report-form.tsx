@@ -133,7 +133,8 @@ export function VisitReportForm({
                   <SpriteIcon name="trash" className="size-4" /> Remove
                 </Button>
               </div>
-              <div className="grid grid-cols-2 gap-3">
+              {/* One column on a phone too: half of a 375 px screen clipped "Choose a surface" to "Choose a s". */}
+              <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
                 <SelectField label="Surface" error={e?.surface?.message} {...form.register(`layers.${i}.surface`)}>
                   <option value="">Choose a surface</option>
                   {SURFACES.map((s) => (

@@ -135,6 +135,14 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   const added = card.getByRole("group", { name: "New finish layers" }).getByLabel("Surface").nth(1);
   await expect(added).toHaveValue("");
   await expect(added.locator("option:checked")).toHaveText("Choose a surface");
+  // Wide enough at 375 px to read it whole: its text, the side paddings and about 24 px for the arrow.
+  const room = await added.evaluate((el: HTMLSelectElement) => {
+    const cs = getComputedStyle(el);
+    const pen = document.createElement("canvas").getContext("2d")!;
+    pen.font = `${cs.fontWeight} ${cs.fontSize} ${cs.fontFamily}`;
+    return el.clientWidth - (pen.measureText(el.selectedOptions[0]!.text).width + parseFloat(cs.paddingLeft) + parseFloat(cs.paddingRight) + 24);
+  });
+  expect(room).toBeGreaterThanOrEqual(0);
   await submit.click();
   await expect(card.getByText("Choose the surface this layer went on.")).toBeVisible();
   await expect(added).toBeFocused();
