@@ -38,7 +38,7 @@ export const jobQuoteSchema = z
     productIds: z.array(id).max(10, "At most 10 products."),
     coats: z.coerce.number().int().min(1, "At least one coat.").max(6, "At most six coats."),
     travel: z.boolean(),
-    coveredPct: z.coerce.number({ error: "Enter the covered share as a number from 0 to 100." }).int("Use a whole percent, from 0 to 100.").min(0, "The covered share is 0 to 100 %.").max(100, "The covered share is 0 to 100 %."),
+    coveredPct: z.coerce.number({ error: "Enter the share as a number from 0 to 100." }).int("Use a whole percent, from 0 to 100.").min(0, "Enter a share from 0 to 100 %.").max(100, "Enter a share from 0 to 100 %."),
     notes: z.string().max(4000, "Keep notes under 4,000 characters.").default(""),
     lines: z.array(quoteLineSchema).max(40, "At most 40 lines.").optional(),
   })

@@ -43,7 +43,7 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   await page.getByLabel("Warranty share (%)").fill("250");
   await page.getByRole("button", { name: "Save the quote" }).click();
   await expect(crack.getByText("A number above 0 and up to 100,000, at most three decimals (0.75).")).toBeVisible();
-  await expect(page.getByText("The covered share is 0 to 100 %.")).toBeVisible();
+  await expect(page.getByText("Enter a share from 0 to 100 %.")).toBeVisible();
   await expect(crack.getByLabel("Quantity")).toBeFocused();
   await expect(page.getByText(/Too big|expected number/)).toHaveCount(0);
   expect(patches).toEqual([]);
@@ -51,12 +51,12 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   await crack.getByLabel("Quantity").fill("1.5");
   await page.getByRole("button", { name: "Save the quote" }).click();
   await expect(page.getByLabel("Warranty share (%)")).toBeFocused();
-  await expect(page.getByText("The covered share is 0 to 100 %.")).toBeVisible();
+  await expect(page.getByText("Enter a share from 0 to 100 %.")).toBeVisible();
   expect(patches).toEqual([]);
   // The server checks the same bound with the same words.
   const refused = await page.request.patch(`/api/jobs/${jobId}`, { data: { title: "Share check (e2e)", tasks: [], repairs: ["crack_fill"], productIds: [], coats: 1, travel: true, coveredPct: 250, notes: "" } });
   expect(refused.status()).toBe(400);
-  expect(((await refused.json()) as { error: { fieldErrors: Record<string, string[]> } }).error.fieldErrors.coveredPct).toEqual(["The covered share is 0 to 100 %."]);
+  expect(((await refused.json()) as { error: { fieldErrors: Record<string, string[]> } }).error.fieldErrors.coveredPct).toEqual(["Enter a share from 0 to 100 %."]);
   await page.getByLabel("Warranty share (%)").fill(share);
 
   await page.getByRole("button", { name: "Add a typed line" }).click();
