@@ -1,3 +1,4 @@
+import { coverWords } from "@/lib/repairs/states";
 import { EmailLayout, Paragraph } from "./components/layout";
 import { ActionClose } from "./components/button";
 import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
@@ -7,12 +8,14 @@ export type JobQuoteEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
   studioName: string;
   pieceTitle: string;
   fullyCovered: boolean;
+  /** The heading of a quote that leaves nothing to pay: who covers it says (coverWords in lib/repairs/states.ts). */
+  coveredHeading: string;
   url: string;
 };
 
-export function JobQuoteEmail({ ownerName, studioName, pieceTitle, fullyCovered, url, ...money }: JobQuoteEmailProps) {
+export function JobQuoteEmail({ ownerName, studioName, pieceTitle, fullyCovered, coveredHeading, url, ...money }: JobQuoteEmailProps) {
   return (
-    <EmailLayout preview={fullyCovered ? `Your repair is covered: ${pieceTitle}` : `Your quote from ${studioName}: ${money.total}`} heading={fullyCovered ? "Your repair is covered" : "Your repair quote"}>
+    <EmailLayout preview={fullyCovered ? `${coveredHeading}: ${pieceTitle}` : `Your quote from ${studioName}: ${money.total}`} heading={fullyCovered ? coveredHeading : "Your repair quote"}>
       <Paragraph>Hi {ownerName},</Paragraph>
       <Paragraph>
         {studioName} has priced the work on <strong>{pieceTitle}</strong>:
@@ -40,6 +43,7 @@ JobQuoteEmail.PreviewProps = {
   roundingNote: "Amounts are exact to the cent.",
   taxNumber: null,
   fullyCovered: false,
+  coveredHeading: coverWords({ origin: "studio", coveredPct: 100 }).mailHeading,
   url: "http://localhost:3000/jobs/example",
 } satisfies JobQuoteEmailProps;
 

@@ -18,7 +18,7 @@ import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
 import { jobUrl, quoteFigures } from "./mail";
 import { checkoutLineItems } from "./figures";
 import { priceJob, totals } from "./pricing";
-import { assertMove, AWAITING_PAYMENT, OWNER_CAN_DECLINE, paymentCounts, QUOTE_EDITABLE } from "./states";
+import { assertMove, AWAITING_PAYMENT, coverWords, OWNER_CAN_DECLINE, paymentCounts, QUOTE_EDITABLE } from "./states";
 
 const jobRow = (jobId: string) => getDb().select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
 
@@ -70,13 +70,14 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
     to: view.owner.email,
     // An answer by e-mail lands in the job's conversation (lib/messages).
     replyTo: replyToFor(getDb(), { kind: "job", id: job.id }),
-    subject: fullyCovered ? `Your repair is covered — ${view.piece.title}` : `Your repair quote from ${view.studio.name}`,
+    subject: fullyCovered ? `${coverWords(job).mailHeading} — ${view.piece.title}` : `Your repair quote from ${view.studio.name}`,
     email: JobQuoteEmail({
       ownerName: view.owner.name,
       studioName: view.studio.name,
       pieceTitle: view.piece.title,
       ...quoteFigures(job, view.studio),
       fullyCovered,
+      coveredHeading: coverWords(job).mailHeading,
       url: jobUrl(job.id),
     }),
   });

@@ -114,6 +114,8 @@ export function coverWords(job: Cover, planName: string | null = null) {
     after: plan ? "the care plan's share" : "the warranty share",
     /** The quote form's field for the covered percentage. */
     field: plan ? "Care plan share (%)" : "Warranty share (%)",
+    /** The quote mail's heading (and, with the piece's title, its subject) when nothing is left to pay: a plan visit is no repair. */
+    mailHeading: plan ? "Your care plan visit is included" : "Your repair is covered",
   };
 }
 

@@ -18,9 +18,9 @@ import { createTemplate, templatesFitting, updateTemplate } from "@/lib/plans/te
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { PLAN_VISIT_LEAD_DAYS, runPlanVisits, visitDueDates } from "@/lib/plans/visits";
 import { runReminderPass } from "@/lib/reminders/pass";
-import { getOwnerJob } from "@/lib/repairs/jobs";
+import { createJob, getOwnerJob } from "@/lib/repairs/jobs";
 import { sendQuote, updateJobQuote } from "@/lib/repairs/payment";
-import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { auditsOf, createAcceptedClaim, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { getMail, waitForMail } from "../support/mail";
 import { buyPlan, knob as stripeKnob, plansStripeForFile, subRow, until } from "../support/plans-stripe";
 
@@ -164,6 +164,39 @@ describe("buying and running a plan through the Stripe fake", () => {
     expect(mail.text).toContain("Paid by the care plan (60 %)");
     expect(mail.html).toContain("Paid by the care plan (60 %)");
     expect(`${mail.subject}\n${mail.text}\n${mail.html}`).not.toMatch(/warranty/i);
+  });
+
+  it("a plan visit re-quoted to leave nothing to pay: its quote mail says the visit is included, not a covered repair; a warranty job keeps its words (SMTP sink)", async () => {
+    const { admin, owner, studio } = await setup();
+    const shared = createTemplate(admin, template({ name: "Shared visits (included words)", included: { tasks: [], visitsPerYear: 2, visitSharePct: 40, extendedLines: [], repairDiscountPct: 0 } }));
+    const { piece } = createPiece(studio, { ownerId: owner.id, title: "Ash sideboard (invented)" });
+    const sub = await buy(owner, piece, shared.id);
+    const [due] = visitDueDates(sub.startedAt!, 2, new Date(sub.startedAt!.getTime() + 365 * DAY), studio.timeZone);
+    const [job] = (await runPlanVisits(new Date(Date.parse(`${due}T12:00:00Z`) - 5 * DAY))).jobs.map(jobOf).filter((j) => j.pieceId === piece.id);
+    expect(job).toMatchObject({ origin: "plan", coveredPct: 60, state: "quoted" });
+
+    // The studio waives the owner's share: the plan now pays all of the visit.
+    const q = job!.quoteInput;
+    await updateJobQuote(admin, job!.id, { title: job!.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? true, coveredPct: 100, notes: job!.notes });
+    const since = new Date();
+    await sendQuote(admin, job!.id);
+    expect(jobOf(job!.id)).toMatchObject({ origin: "plan", state: "covered", totalMinor: 0 });
+    const mail = await getMail((await waitForMail({ to: owner.email, subject: /Ash sideboard/, since })).id);
+    expect(mail.subject).toBe("Your care plan visit is included — Ash sideboard (invented)");
+    expect(mail.html).toContain("Your care plan visit is included");
+    expect(mail.text).toMatch(/your care plan visit is included/i);
+    expect(`${mail.subject}\n${mail.text}\n${mail.html}`).not.toMatch(/repair is covered|warranty/i);
+
+    // A claim's job the warranty covers in full keeps "Your repair is covered".
+    const { piece: claimed } = createPiece(studio, { ownerId: owner.id, title: "Oak bench (invented)" });
+    const claim = createAcceptedClaim(studio, claimed.id, owner.id, "covered");
+    const warranty = createJob(admin, "claim", claim.id);
+    await sendQuote(admin, warranty.id);
+    expect(jobOf(warranty.id)).toMatchObject({ origin: "claim", state: "covered", totalMinor: 0 });
+    const kept = await getMail((await waitForMail({ to: owner.email, subject: /Oak bench/, since })).id);
+    expect(kept.subject).toBe("Your repair is covered — Oak bench (invented)");
+    expect(kept.html).toContain("Your repair is covered");
+    expect(kept.html).not.toMatch(/care plan/i);
   });
 
   it("renewal paid: a new period and a second counted invoice; the plan keeps running", async () => {

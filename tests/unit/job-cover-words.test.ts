@@ -22,6 +22,7 @@ describe("who pays the covered part", () => {
       expect(jobAmountText(job(origin, { totalMinor: 0, coveredPct: 100 }), "US")).toBe("Covered by the warranty");
       expect(jobStateLabel(job(origin, { state: "covered", totalMinor: 0, coveredPct: 100 }))).toBe("Covered by the warranty");
       expect(coverWords(job(origin)).field).toBe("Warranty share (%)");
+      expect(coverWords(job(origin)).mailHeading).toBe("Your repair is covered");
     }
   });
 
@@ -34,6 +35,7 @@ describe("who pays the covered part", () => {
     expect(coverWords(plan, "Slab keeping (invented)").yours).toBe("Included in your care plan “Slab keeping (invented)”");
     expect(coverWords(job("claim"), "Slab keeping (invented)").yours).toBe("Covered by your warranty");
     expect(coverWords(plan).field).toBe("Care plan share (%)");
+    expect(coverWords(plan).mailHeading).toBe("Your care plan visit is included");
     expect(checkoutLineItems(plan)[0]!.price_data.product_data.name).toBe("Care visit — 2 h, after the care plan's share");
     const everything = [...Object.values(coverWords(plan)), jobFigures(plan, US).coveredLabel, ...checkoutLineItems(plan).map((i) => i.price_data.product_data.name)];
     expect(everything.filter((w) => /warranty/i.test(w))).toEqual([]);
