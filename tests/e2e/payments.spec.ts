@@ -46,6 +46,13 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   expect(browserDialog).toBe("");
   await waitForMail({ to: ACCOUNTS.otherOwner, subject: /refund/i, sinkUrl: SINK_URL });
   await desk.context().close();
+
+  // The owner's page says the studio refunded them, and no longer asks them to pay the cancelled job.
+  await page.goto(`/jobs/${jobId}`);
+  await expect(page.getByText("Cancelled", { exact: true })).toBeVisible();
+  await expect(page.getByRole("status").filter({ hasText: "Payment refunded" })).toContainText(/We refunded your payment of \$[\d,.]+ in full: the job was cancelled\./);
+  await expect(page.getByText("To pay", { exact: true })).toHaveCount(0);
+  await expect(page.getByText("Quoted (nothing to pay)", { exact: true })).toBeVisible();
 });
 
 test("cancelling on the payment page comes back with a clear message and nothing charged", async ({ page }) => {

@@ -9,7 +9,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
-import { coverWords, isAutomaticRefund, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, jobStateLabel, paymentCounts } from "@/lib/repairs/states";
+import { coverWords, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, jobStateLabel, paymentCounts } from "@/lib/repairs/states";
 import { formatMoney } from "@/lib/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
@@ -31,8 +31,9 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   const { job, piece, studio, payments, planName } = await forPage(async () => getOwnerJob(user, id));
   const { visit } = visitOfJob(ownerActor(user), id);
   const paid = payments.some(paymentCounts);
-  const autoRefunded = payments.flatMap((p) => (isAutomaticRefund(p.refundReason) ? [{ ...p, reason: p.refundReason }] : []));
-  const returnedRefunded = autoRefunded.some((p) => p.checkoutSessionId === query.session_id);
+  // Every payment given back, whoever started it: the product's own refunds and the studio's when it cancels a paid job.
+  const refunded = payments.flatMap((p) => (p.refundReason !== null ? [{ ...p, reason: p.refundReason }] : []));
+  const returnedRefunded = refunded.some((p) => p.checkoutSessionId === query.session_id);
   return (
     <>
       <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={jobStateLabel(job)} tone={JOB_STATE_TONES[job.state]} />} />
@@ -45,7 +46,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         {query.checkout === "success" && job.state === "paid" ? (
           <Notice tone="ok" title="Paid — thank you">Your receipt is on its way by e-mail. You can book your visit below.</Notice>
         ) : null}
-        {autoRefunded.map((p) => (
+        {refunded.map((p) => (
           <Notice key={p.id} tone="info" title="Payment refunded">
             We refunded your payment of {formatMoney(p.amountMinor, p.currency, studio.country)} in full: {OWNER_REFUND_REASON_LABELS[p.reason]}. Refunds usually show on
             your statement within 5–10 business days.
@@ -80,7 +81,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
           </Card>
         ) : null}
         <Card className="space-y-3">
-          <QuoteSummary figures={jobFigures(job, studio)} totalLabel={paid ? "Paid" : "To pay"} />
+          <QuoteSummary figures={jobFigures(job, studio)} totalLabel={paid ? "Paid" : job.state === "cancelled" ? "Quoted (nothing to pay)" : "To pay"} />
           {paid ? (
             <a className="inline-block text-sm text-resin underline" href={`/api/jobs/${job.id}/receipt`}>
               Download your receipt (PDF)
