@@ -39,7 +39,9 @@ test.describe("care plans", () => {
     await expect(page).toHaveURL(new RegExp(`127\\.0\\.0\\.1:${PORTS.stripe}/pay/cs_test_`));
     await page.getByLabel("Card number").fill("4242 4242 4242 4242");
     await page.getByRole("button", { name: "Pay", exact: true }).click();
-    await expect(page).toHaveURL(new RegExp(`/pieces/${target!.id}\\?plan=started`));
+    // Back on the piece page: a word that the plan is paid, and the address tidied of the payment's parameters.
+    await expect(page.getByText("Thank you — your care plan is paid. It shows as running below once the payment is confirmed.")).toBeVisible();
+    await expect(page).toHaveURL(new RegExp(`/pieces/${target!.id}$`));
     // The webhook makes it run; the page says so once it has arrived.
     await expect(async () => {
       await page.reload();
