@@ -146,6 +146,8 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
     today: localDate(now, tz),
     timeZone: tz,
     technicianId,
+    /** Whose day it is when a studio member opens another's (`?technician=`); null on one's own day. */
+    otherTechnicianName: technicianId === ctx.user.id ? null : (db.select({ name: users.name }).from(users).where(eq(users.id, technicianId)).get()?.name ?? null),
     items,
     products: products.map((p) => ({ id: p.id, name: p.name, finishClass: p.finishClass })),
   };

@@ -163,6 +163,23 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   await ctx.close();
 });
 
+test("staff reach a booked visit's sheet from its job page, headed with the technician's name", async ({ page }) => {
+  await signIn(page, ACCOUNTS.staff);
+  const now = Date.now();
+  const res = await page.request.get(`/api/visits?from=${encodeURIComponent(new Date(now).toISOString())}&to=${encodeURIComponent(new Date(now + 20 * 86_400_000).toISOString())}`);
+  const visit = ((await res.json()).visits as Visit[]).find((v) => v.jobTitle === "Polish a scuff in the blue resin" && v.state === "booked")!;
+  expect(visit).toBeTruthy();
+  await page.goto(`/studio/jobs/${visit.jobId}`);
+  await page.getByRole("link", { name: "Open the visit sheet to file the report" }).click();
+  await expect(page).toHaveURL(new RegExp(`/studio/today\\?date=${studioDate(visit.start)}&technician=${visit.technicianId}$`));
+  // Another's day, named: not "My day", and the report form is there for the office to file.
+  const heading = page.getByRole("heading", { level: 1 });
+  await expect(heading).toHaveText(`${visit.technicianName}'s visits`);
+  await expect(page.getByRole("heading", { name: "My day" })).toHaveCount(0);
+  const card = page.getByRole("listitem").filter({ hasText: "Polish a scuff in the blue resin" });
+  await expect(card.getByRole("button", { name: "File the report and close the job" })).toBeVisible();
+});
+
 test("staff move a visit with the edit form and by dragging, then cancel it after confirming", async ({ page }) => {
   // A desk-sized window, so the whole working day of the week grid is on screen while dragging.
   await page.setViewportSize({ width: 1280, height: 1400 });

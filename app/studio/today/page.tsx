@@ -29,7 +29,10 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
   const nav = (date: string) => `/studio/today?date=${date}${q.technician ? `&technician=${q.technician}` : ""}`;
   return (
     <div className="mx-auto max-w-2xl">
-      <PageHeader title={day.date === day.today ? "My day" : "Visits"} lead={dayTitle(day.date)} />
+      <PageHeader
+        title={day.otherTechnicianName ? `${day.otherTechnicianName}'s visits` : day.date === day.today ? "My day" : "Visits"}
+        lead={dayTitle(day.date)}
+      />
       <nav aria-label="Day" className="mb-5 flex items-center justify-between gap-2">
         <Link href={nav(addDays(day.date, -1))} className="inline-flex min-h-11 items-center gap-1 rounded-lg border border-line bg-card px-3 text-sm font-semibold">
           <SpriteIcon name="chevron-left" className="size-4" /> Previous day
@@ -45,7 +48,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
       </nav>
       {day.items.length === 0 ? (
         <Card>
-          <p className="font-semibold">No visits booked for you on this day.</p>
+          <p className="font-semibold">No visits booked for {day.otherTechnicianName ?? "you"} on this day.</p>
           <p className="text-muted">Booked touch-up visits are listed here in order, with the address and what to bring.</p>
         </Card>
       ) : (

@@ -19,6 +19,7 @@ import { priceListOf } from "@/lib/repairs/price-list";
 import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
+import { localDate } from "@/lib/care/dates";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 
 export const metadata: Metadata = { title: "Repair job" };
@@ -108,6 +109,12 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
               ) : (
                 <p className="text-sm text-muted">No visit booked.</p>
               )}
+              {visit?.state === "booked" ? (
+                // The technician's sheet for that day: where the report is filed (the office may file it before the visit starts, with a reason).
+                <Link className="inline-flex min-h-11 items-center text-sm text-resin underline" href={`/studio/today?date=${localDate(Date.parse(visit.start), studio.timeZone)}&technician=${visit.technicianId}`}>
+                  Open the visit sheet to file the report
+                </Link>
+              ) : null}
               {visit?.state === "done" ? <p className="text-sm text-muted">{visit.signedOffAt ? "The owner signed off the work." : "Waiting for the owner's sign-off (a link in the report mail)."}</p> : null}
               {visit?.photos.length ? <VisitPhotoGrid photos={visit.photos} label="Photos from the visit" /> : null}
               {["paid", "covered", "scheduled"].includes(job.state) ? (
