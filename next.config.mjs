@@ -1,4 +1,4 @@
-import { actionOrigins } from "./lib/http/action-origins.mjs";
+import { ACTION_BODY_LIMIT_BYTES, actionOrigins } from "./lib/http/action-origins.mjs";
 import { securityHeaders } from "./lib/http/security-headers.mjs";
 
 const dev = process.env.NODE_ENV !== "production";
@@ -17,10 +17,10 @@ const nextConfig = {
   serverExternalPackages: ["better-sqlite3", "@node-rs/argon2", "sharp", "@react-email/render", "@react-email/components", "nodemailer", "qrcode"],
   experimental: {
     // Server actions here take short forms (no files: uploads go to the API routes, read by
-    // lib/http/body.ts), so a body over 256 kB is refused with a 413. The proxy's copy of a page
-    // request's body must stay above it: a body cut off at the proxy's limit would reach the action
-    // truncated instead of refused.
-    serverActions: { bodySizeLimit: "256kb", allowedOrigins: actionOrigins() },
+    // lib/http/body.ts): a body over ACTION_BODY_LIMIT_BYTES (256 kB) is refused, with a 413 by
+    // proxy.ts when its length is declared. The proxy's copy of a page request's body must stay above
+    // it: a body cut off at the proxy's limit would reach the action truncated instead of refused.
+    serverActions: { bodySizeLimit: ACTION_BODY_LIMIT_BYTES, allowedOrigins: actionOrigins() },
     proxyClientMaxBodySize: "512kb",
   },
   async headers() {

@@ -1,9 +1,13 @@
 import { NextResponse, type NextRequest } from "next/server";
+import { payloadTooLarge } from "@/lib/errors";
+import { ACTION_BODY_LIMIT_BYTES } from "@/lib/http/action-origins.mjs";
 import { securityHeaders } from "@/lib/http/security-headers.mjs";
 
 // Thin on purpose: a cookie-presence redirect for the signed-in areas and the current path for the
 // sign-in return link. The real checks are in lib/auth, next to the queries. It also answers a path
-// with broken %-encoding (which names no page or record) with a 404 before Next.js tries to decode it.
+// with broken %-encoding (which names no page or record) with a 404 before Next.js tries to decode it,
+// and a server-action call that declares a body over the actions' limit with a 413 (Next.js would
+// read up to the limit, then answer a 500).
 const SIGNED_IN_AREAS = ["/studio", "/pieces", "/account"];
 
 /** Whether every %-escape in the path decodes to UTF-8. */
@@ -16,13 +20,23 @@ function decodable(pathname: string): boolean {
   }
 }
 
+/** The one error shape (lib/http/route.ts errorResponse), with the headers every answer carries. */
+function refusal(status: number, error: { code: string; message: string }): NextResponse {
+  const res = NextResponse.json({ error }, { status });
+  for (const { key, value } of securityHeaders({ appUrl: process.env.APP_URL, dev: process.env.NODE_ENV !== "production" })) res.headers.set(key, value);
+  res.headers.set("Cache-Control", "no-store");
+  return res;
+}
+
+/** A server-action call (a POST naming its action) whose declared body is over the actions' limit. */
+function oversizedAction(req: NextRequest): boolean {
+  if (req.method !== "POST" || !req.headers.has("next-action")) return false;
+  const length = Number(req.headers.get("content-length"));
+  return Number.isFinite(length) && length > ACTION_BODY_LIMIT_BYTES;
+}
+
 function malformed(req: NextRequest): NextResponse {
-  if (req.nextUrl.pathname.startsWith("/api/")) {
-    const res = NextResponse.json({ error: { code: "not_found", message: "Not found." } }, { status: 404 });
-    for (const { key, value } of securityHeaders({ appUrl: process.env.APP_URL, dev: process.env.NODE_ENV !== "production" })) res.headers.set(key, value);
-    res.headers.set("Cache-Control", "no-store");
-    return res;
-  }
+  if (req.nextUrl.pathname.startsWith("/api/")) return refusal(404, { code: "not_found", message: "Not found." });
   // A path no page has: Next.js renders app/not-found.tsx with a 404 and the usual headers.
   const url = req.nextUrl.clone();
   url.pathname = "/_malformed-path";
@@ -33,6 +47,10 @@ function malformed(req: NextRequest): NextResponse {
 export function proxy(req: NextRequest) {
   const { pathname, search } = req.nextUrl;
   if (!decodable(pathname)) return malformed(req);
+  if (oversizedAction(req)) {
+    const e = payloadTooLarge(ACTION_BODY_LIMIT_BYTES);
+    return refusal(e.status, { code: e.code, message: e.message });
+  }
   if (pathname.startsWith("/api/")) return NextResponse.next();
   const needsSession = SIGNED_IN_AREAS.some((p) => pathname === p || pathname.startsWith(`${p}/`));
   if (needsSession && !req.cookies.has("gw_session")) {

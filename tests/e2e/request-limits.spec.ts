@@ -6,6 +6,7 @@ import fs from "node:fs";
 import http from "node:http";
 import { expect, test, type Browser } from "@playwright/test";
 import { ACCOUNTS, PORTS, fixture, signIn } from "./helpers";
+import { manifestActions } from "./routes";
 
 const PORT = PORTS.app;
 const MB = 1024 * 1024;
@@ -146,4 +147,22 @@ test("over-limit bodies get a 413 before the server buffers them, with or withou
     const early = await post(kind.path, kind.headers, kind.prefix, 10_000 * MB, 256 * 1024);
     expect(early.status, `${kind.name}, declared over the limit, body held back: ${early.body.slice(0, 200)}`).toBe(413);
   }
+});
+
+test("a server action declaring a body over the actions' 256 kB is a 413 in the one error shape, not a 500", async () => {
+  const signIn = manifestActions().find((a) => a.file === "app/(public)/sign-in/actions.ts" && a.name === "signInAction")!;
+  const headers = { "next-action": signIn.id, accept: "text/x-component", "content-type": "text/plain;charset=UTF-8", origin: `http://127.0.0.1:${PORT}` };
+  const prefix = '[{"email":"limit@test.example","next":"/","password":"';
+  // Just over the limit, and 2 MB (past the 512 kB Next.js copies of a page request's body for the
+  // proxy, next.config.mjs proxyClientMaxBodySize), each sent whole: whole 256 kB chunks after the prefix.
+  const whole = (chunks: number) => Buffer.byteLength(prefix) + chunks * 256 * 1024;
+  for (const [how, declared] of [["just over", whole(1)], ["2 MB", whole(8)]] as const) {
+    const r = await post("/sign-in", headers, prefix, declared);
+    expect(r.status, `${how}: ${r.body.slice(0, 200)}`).toBe(413);
+    expect(JSON.parse(r.body).error, how).toEqual({ code: "payload_too_large", message: "That is too large: we take up to 256 KB at a time. Send a smaller one." });
+  }
+  // Under the limit the action answers as usual: a refusal of the sign-in, not an error.
+  const res = await fetch(`http://127.0.0.1:${PORT}/sign-in`, { method: "POST", headers, body: `${prefix}${"a".repeat(200 * 1024)}"}]` });
+  expect(res.status).toBe(200);
+  expect(await res.text()).toContain('"ok":false');
 });
