@@ -8,6 +8,8 @@ import { ownerActor, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
 import { localDate } from "@/lib/care/dates";
 import { formatDate } from "@/lib/format";
+import { jobWhere } from "@/lib/repairs/access";
+import type { OwnerReach } from "@/lib/repairs/owner-reach";
 import { jobStateLabel } from "@/lib/repairs/states";
 import { formatVisitWhen, ownerTimeZone } from "@/lib/format";
 import { claimCore, fileUrl, loadStudioClaim, loadVisibleClaim, photoView, studioOf } from "./claim-row";
@@ -44,10 +46,22 @@ function jobOfClaim(claimId: string) {
   return { ...job, visit: visit ?? null };
 }
 
-/** Where the repair stands, in the owner's words; the job's page is theirs to open once a quote was sent. */
-function ownerRepair(claimId: string, timeZone: string) {
-  const job = jobOfClaim(claimId);
-  if (!job) return null;
+/** Whether the owner reaches the job ("act": they hold the piece; "history": also a former owner's paid job), lib/repairs/owner-reach.ts. */
+function ownerReaches(ownerId: string, jobId: string, reach: OwnerReach): boolean {
+  return !!getDb().select({ id: repairJobs.id }).from(repairJobs).where(jobWhere({ role: "owner", user: { id: ownerId }, studio: null }, jobId, reach)).get();
+}
+
+/**
+ * Where the repair stands, in the owner's words; the job's page is theirs to open once a quote was sent.
+ * After a hand-over the former owner reads only a job they paid for, as history, and never its visit
+ * (the same rule as their job and visit pages, lib/repairs/owner-reach.ts).
+ */
+function ownerRepair(claim: Claim, timeZone: string) {
+  const found = jobOfClaim(claim.id);
+  if (!found) return null;
+  const acts = ownerReaches(claim.ownerId, found.id, "act");
+  if (!acts && !ownerReaches(claim.ownerId, found.id, "history")) return null;
+  const job = acts ? found : { ...found, visit: null };
   const when = job.visit ? formatVisitWhen(job.visit.startAt.getTime(), job.visit.endAt.getTime(), timeZone) : "";
   const STAGE: Record<typeof job.state, string> = {
     draft: job.quoteVersion === 0 ? "The studio is pricing the repair. You get the quote by e-mail." : "The studio is revising the quote.",
@@ -55,7 +69,7 @@ function ownerRepair(claimId: string, timeZone: string) {
     approved: "You approved the quote; the repair is waiting for your payment.",
     paid: "Paid. Pick a time for the repair visit.",
     covered: "Covered by your warranty. Pick a time for the repair visit.",
-    scheduled: `Repair visit booked: ${when}.`,
+    scheduled: when ? `Repair visit booked: ${when}.` : "Repair visit booked.",
     done: `The repair is done${job.doneAt ? `, ${formatDate(localDate(job.doneAt.getTime(), timeZone))}` : ""}.`,
     cancelled: "The repair job was cancelled. Write to the studio if that is unexpected.",
   };
@@ -86,7 +100,7 @@ function ownerView(claim: Claim) {
     .leftJoin(clients, and(eq(clients.userId, users.id), eq(clients.studioId, claim.studioId)))
     .where(eq(users.id, claim.ownerId))
     .get();
-  const repair = ownerRepair(claim.id, ownerTimeZone(owner?.timeZone ?? "UTC", owner?.clientZone, studio.timeZone));
+  const repair = ownerRepair(claim, ownerTimeZone(owner?.timeZone ?? "UTC", owner?.clientZone, studio.timeZone));
   return { view: "owner" as const, claim: { ...claimCore(claim), jobId: repair?.jobId ?? null }, repair, piece, studio: { name: studio.name }, photos: photosOf(claim.id), messages: messagesOf(claim.id) };
 }
 

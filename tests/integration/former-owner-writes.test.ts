@@ -1,10 +1,14 @@
-// After a hand-over the former owner reads their claims as history but changes nothing on them, and a
-// link from a mail they were sent while they held the piece (a refresh offer) no longer accepts.
+// After a hand-over the former owner reads their claims as history but changes nothing on them, sees
+// no visit of the repair (a paid repair job stays theirs to read, as on their job pages), and a link
+// from a mail they were sent while they held the piece (a refresh offer) no longer accepts.
 // All data is invented.
 import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { files, refreshOffers } from "@/db/schema";
+import { files, payments, refreshOffers, repairJobs } from "@/db/schema";
+import { createJobFromClaim } from "@/lib/claims/open-job";
+import { bookVisit } from "@/lib/visits/book";
+import { listJobSlots } from "@/lib/visits/slots";
 import type { Quote } from "@/lib/care/quote";
 import { addClaimPhoto, removeClaimPhoto } from "@/lib/claims/photos";
 import { postClaimMessage } from "@/lib/claims/reply";
@@ -13,8 +17,9 @@ import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { acceptOfferByToken, getOfferByToken } from "@/lib/reminders/offers";
 import { offerToken } from "@/lib/reminders/tokens";
-import { createUser } from "../support/fixtures";
+import { createAcceptedClaim, createUser } from "../support/fixtures";
 import { claimWorld, fileClaim, photoJpeg } from "./claims-helpers";
+import { staffActor, visitWorld } from "./visits-helpers";
 
 async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
   try {
@@ -73,5 +78,26 @@ describe("a former owner after the hand-over", () => {
     // An offer the reminder pass hands to the new owner (user_id moved to them) accepts as before.
     getDb().update(refreshOffers).set({ userId: next.id }).where(eq(refreshOffers.id, offer.id)).run();
     expect(acceptOfferByToken(token).status).toBe("accepted");
+  });
+
+  it("reads no visit time of the claim's repair; the repair itself only if they paid for it", async () => {
+    const NOW = Date.parse("2027-05-03T12:00:00Z"); // a Monday
+    const w = await visitWorld();
+    const claim = createAcceptedClaim(w.studio, w.piece.id, w.owner.id, "chargeable");
+    const { id: jobId } = createJobFromClaim(w.staff, claim.id);
+    // Quote, approval and payment stood in for (their own tests are the repair job tests): the job is paid.
+    getDb().update(repairJobs).set({ state: "paid", quoteVersion: 1 }).where(eq(repairJobs.id, jobId)).run();
+    const slot = listJobSlots(staffActor(w.staff), jobId, { from: "2027-05-04T12:00:00Z", to: "2027-05-07T00:00:00Z" }, NOW).slots[0]!;
+    await bookVisit(staffActor(w.staff), { jobId, technicianId: slot.technicianId, start: slot.start }, NOW);
+    const ownerView = () => getOwnerClaim(w.owner, claim.id);
+    expect(ownerView().repair).toMatchObject({ jobId, stage: expect.stringMatching(/^Repair visit booked: .*2027/) });
+
+    await releasePiece({ ...w.owner }, w.piece.id, { confirm: true });
+    // Not paid (the state was set by hand, no payment): nothing of the repair is theirs any more.
+    expect(ownerView().repair).toBeNull();
+    expect(getOwnerClaim(w.owner, claim.id).claim.jobId).toBeNull();
+    // Paid: the job is their history; the visit (now at the next owner's) is not.
+    getDb().insert(payments).values({ studioId: w.studio.id, jobId, quoteVersion: 1, checkoutSessionId: `cs_test_former_${jobId}`, amountMinor: 9_000, currency: "USD", status: "paid", paidAt: new Date() }).run();
+    expect(ownerView().repair).toEqual({ jobId, state: "scheduled", stage: "Repair visit booked." });
   });
 });
