@@ -4,7 +4,8 @@ import { getDb } from "@/db/client";
 import { claims, finishProducts, payments, pieces, planSubscriptions, planTemplates, planVisits, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
-import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
+import { CARE_TASK_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { conflict, notFound } from "@/lib/errors";
 import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
@@ -59,6 +60,16 @@ const CLAIM_WORK: Record<string, { tasks: CareTaskKind[]; repairs?: string[] }> 
   scratch_dent: { tasks: ["reoil"], repairs: ["spot_refinish"] },
 };
 
+/**
+ * A new job's title names the work, not the piece: every page, mail and receipt shows the job beside its
+ * piece ("Repair: crack or gap · Cherry writing desk"), so a title of "Repair: <piece>" read the piece twice.
+ */
+function defaultJobTitle(source: { claim: ClaimCategory } | { refresh: CareTaskKind | undefined }): string {
+  if ("claim" in source) return `Repair: ${CLAIM_CATEGORY_LABELS[source.claim].toLowerCase()}`;
+  const task = source.refresh ? CARE_TASK_LABELS[source.refresh] : undefined;
+  return task ? `Refresh visit: ${task.toLowerCase()}` : "Refresh visit";
+}
+
 export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", sourceId: string): RepairJob {
   const db = getDb();
   const products = studioProducts(ctx.studio.id);
@@ -71,7 +82,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.claimId, claim.id)).get()) throw conflict("This claim already has a repair job.");
       const piece = tx.select().from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
       const coveredPct = claim.decision === "covered" ? 100 : claim.decision === "partly_covered" ? (claim.coveredPct ?? 0) : 0;
-      const input = defaultQuoteInput(`Repair: ${piece.title}`, CLAIM_WORK[claim.category] ?? { tasks: ["annual_check"] }, products, coveredPct);
+      const input = defaultQuoteInput(defaultJobTitle({ claim: claim.category }), CLAIM_WORK[claim.category] ?? { tasks: ["annual_check"] }, products, coveredPct);
       values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products, [], planRepairDiscount(piece.id, new Date()))) };
     } else {
       const offer = tx.select().from(refreshOffers).where(and(eq(refreshOffers.id, sourceId), eq(refreshOffers.studioId, ctx.studio.id))).get();
@@ -80,7 +91,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.refreshOfferId, offer.id)).get()) throw conflict("This offer already has a repair job.");
       const piece = tx.select().from(pieces).where(eq(pieces.id, offer.pieceId)).get()!;
       const kind = offer.taskKey.split(":")[1] as CareTaskKind | undefined;
-      const input = defaultQuoteInput(`Refresh visit: ${piece.title}`, { tasks: kind ? [kind] : ["annual_check"] }, products, 0);
+      const input = defaultQuoteInput(defaultJobTitle({ refresh: kind }), { tasks: kind ? [kind] : ["annual_check"] }, products, 0);
       values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products, [], planRepairDiscount(piece.id, new Date()))) };
     }
     const job = tx.insert(repairJobs).values(values).returning().get();

@@ -96,7 +96,7 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   // A second job for the same claim is refused.
   expect((await desk.request.post(`/api/claims/${claimId}/job`)).status()).toBe(409);
   await desk.goto(`/studio/claims/${claimId}`);
-  await expect(desk.getByRole("region", { name: "Repair" }).getByRole("link", { name: `Repair: ${PIECE}` })).toHaveAttribute("href", `/studio/jobs/${jobId}`);
+  await expect(desk.getByRole("region", { name: "Repair" }).getByRole("link", { name: "Repair: finish wear, rings or marks" })).toHaveAttribute("href", `/studio/jobs/${jobId}`);
 
   // Stood in for: the quote sent and the job covered by the warranty, with a note for the technician;
   // the owner's client record carries a phone number (stored E.164).
