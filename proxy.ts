@@ -1,13 +1,14 @@
 import { NextResponse, type NextRequest } from "next/server";
-import { payloadTooLarge } from "@/lib/errors";
+import { badRequest, payloadTooLarge, type AppError } from "@/lib/errors";
 import { ACTION_BODY_LIMIT_BYTES } from "@/lib/http/action-origins.mjs";
 import { securityHeaders } from "@/lib/http/security-headers.mjs";
 
 // Thin on purpose: a cookie-presence redirect for the signed-in areas and the current path for the
 // sign-in return link. The real checks are in lib/auth, next to the queries. It also answers a path
 // with broken %-encoding (which names no page or record) with a 404 before Next.js tries to decode it,
-// and a server-action call that declares a body over the actions' limit with a 413 (Next.js would
-// read up to the limit, then answer a 500).
+// and a server-action call that declares a body over the actions' limit with a 413, or whose arguments
+// are not what React sends (a JSON array, alone or as the multipart reply's root field "0") with a
+// 400: Next.js answers both with a 500.
 const SIGNED_IN_AREAS = ["/studio", "/pieces", "/account"];
 
 /** Whether every %-escape in the path decodes to UTF-8. */
@@ -28,11 +29,23 @@ function refusal(status: number, error: { code: string; message: string }): Next
   return res;
 }
 
-/** A server-action call (a POST naming its action) whose declared body is over the actions' limit. */
-function oversizedAction(req: NextRequest): boolean {
-  if (req.method !== "POST" || !req.headers.has("next-action")) return false;
+/**
+ * What is wrong with a server-action call (a POST naming its action), if anything: a declared body
+ * over the actions' limit, or arguments React's client never sends. Next.js has copied the body for
+ * the proxy (next.config.mjs proxyClientMaxBodySize), so reading it here leaves it for the action.
+ */
+async function refusedAction(req: NextRequest): Promise<AppError | null> {
+  if (req.method !== "POST" || !req.headers.has("next-action")) return null;
   const length = Number(req.headers.get("content-length"));
-  return Number.isFinite(length) && length > ACTION_BODY_LIMIT_BYTES;
+  if (Number.isFinite(length) && length > ACTION_BODY_LIMIT_BYTES) return payloadTooLarge(ACTION_BODY_LIMIT_BYTES);
+  try {
+    const multipart = (req.headers.get("content-type") ?? "").startsWith("multipart/form-data");
+    const root: unknown = JSON.parse(multipart ? String((await req.formData()).get("0")) : await req.text());
+    if (Array.isArray(root)) return null;
+  } catch {
+    // not JSON, or not a form: refused below
+  }
+  return badRequest("We could not read that request. Reload the page and try again.");
 }
 
 function malformed(req: NextRequest): NextResponse {
@@ -44,13 +57,11 @@ function malformed(req: NextRequest): NextResponse {
   return NextResponse.rewrite(url);
 }
 
-export function proxy(req: NextRequest) {
+export async function proxy(req: NextRequest) {
   const { pathname, search } = req.nextUrl;
   if (!decodable(pathname)) return malformed(req);
-  if (oversizedAction(req)) {
-    const e = payloadTooLarge(ACTION_BODY_LIMIT_BYTES);
-    return refusal(e.status, { code: e.code, message: e.message });
-  }
+  const refused = await refusedAction(req);
+  if (refused) return refusal(refused.status, { code: refused.code, message: refused.message });
   if (pathname.startsWith("/api/")) return NextResponse.next();
   const needsSession = SIGNED_IN_AREAS.some((p) => pathname === p || pathname.startsWith(`${p}/`));
   if (needsSession && !req.cookies.has("gw_session")) {

@@ -166,3 +166,41 @@ test("a server action declaring a body over the actions' 256 kB is a 413 in the 
   expect(res.status).toBe(200);
   expect(await res.text()).toContain('"ok":false');
 });
+
+test("a server action sent arguments React never sends is a 400 in the one error shape, not a 500; what React sends still works", async () => {
+  const signIn = manifestActions().find((a) => a.file === "app/(public)/sign-in/actions.ts" && a.name === "signInAction")!;
+  const call = (body: string | FormData, contentType?: string) =>
+    fetch(`http://127.0.0.1:${PORT}/sign-in`, {
+      method: "POST",
+      redirect: "manual",
+      headers: { "next-action": signIn.id, accept: "text/x-component", origin: `http://127.0.0.1:${PORT}`, ...(contentType ? { "content-type": contentType } : {}) },
+      body,
+    });
+  const junkForm = new FormData();
+  junkForm.append("0", "{");
+  const noRoot = new FormData();
+  noRoot.append("_1_email", "limit@test.example");
+  for (const [what, body, type] of [
+    ["broken JSON", "{", "text/plain;charset=UTF-8"],
+    ["a string", '"x"', "text/plain;charset=UTF-8"],
+    ["null", "null", "text/plain;charset=UTF-8"],
+    ["a broken multipart body", "--b\r\nx\r\n--b--", "multipart/form-data; boundary=b"],
+    ["a form whose root is broken JSON", junkForm, undefined],
+    ["a form without its root", noRoot, undefined],
+  ] as const) {
+    const res = await call(body, type);
+    expect(res.status, what).toBe(400);
+    expect((await res.json()).error, what).toEqual({ code: "bad_request", message: "We could not read that request. Reload the page and try again." });
+  }
+  // React's own encodings: a JSON array, and a form with its root field; the action answers (a refused sign-in).
+  const asJson = await call(JSON.stringify([{ email: "limit@test.example", password: "not-the-password", next: "/" }]), "text/plain;charset=UTF-8");
+  expect(asJson.status).toBe(200);
+  expect(await asJson.text()).toContain('"ok":false');
+  const form = new FormData();
+  form.append("_1_email", "limit@test.example");
+  form.append("_1_password", "not-the-password");
+  form.append("0", JSON.stringify(["$K1"]));
+  const asForm = await call(form);
+  expect(asForm.status).toBe(200);
+  expect(await asForm.text()).toContain('"ok":false');
+});
