@@ -122,7 +122,8 @@ export function CareLogForm({
             className="flex min-h-11 cursor-pointer items-center gap-2 rounded-lg border border-dashed border-line bg-white px-3 py-2 text-sm text-ink hover:border-resin"
           >
             <SpriteIcon name="camera" className="size-4 shrink-0" />
-            <span className="min-w-0 truncate">{photo ? photo.name : "Take or choose a photo (JPEG, PNG or WebP, up to 15 MB)"}</span>
+            {/* A chosen file's name may be long and is cut; the instruction wraps, so a phone reads which photos it takes. */}
+            <span className={photo ? "min-w-0 truncate" : "min-w-0"}>{photo ? photo.name : "Take or choose a photo (JPEG, PNG or WebP, up to 15 MB)"}</span>
           </label>
           <input id={photoId} type="file" accept="image/jpeg,image/png,image/webp" className="sr-only" onChange={(e) => setPhoto(e.target.files?.[0] ?? null)} />
         </div>

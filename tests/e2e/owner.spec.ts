@@ -44,6 +44,20 @@ async function checkPhoneLayout(page: Page, label: string) {
   expect(small, `${label}: tap targets under 44 px`).toEqual([]);
 }
 
+/** No words in the page's main part are cut short with an ellipsis or hidden overflow at this width. */
+async function noClippedText(page: Page, label: string) {
+  const clipped = await page.evaluate(() =>
+    [...document.querySelectorAll<HTMLElement>("main span, main p, main label, main h1, main h2, main h3")]
+      .filter((el) => el.children.length === 0 && (el.textContent ?? "").trim() !== "" && !el.closest(".sr-only"))
+      .filter((el) => {
+        const style = getComputedStyle(el);
+        return (style.textOverflow === "ellipsis" || style.overflowX === "hidden") && el.scrollWidth > el.clientWidth + 1;
+      })
+      .map((el) => (el.textContent ?? "").trim()),
+  );
+  expect(clipped, `${label}: text cut short`).toEqual([]);
+}
+
 async function axe(page: Page, label: string) {
   const results = await new AxeBuilder({ page }).analyze();
   const bad = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
@@ -115,6 +129,7 @@ test("scan a drawer card, sign up, confirm by e-mail, register, log care and dow
   await page.getByLabel("What was done (optional)").fill("Polished the top in small circles and wiped it clean.");
   await shot(page, "06-log-form");
   await checkPhoneLayout(page, "log form");
+  await noClippedText(page, "log form");
   await axe(page, "log form");
   // The date field is wide enough on a phone for its whole value and picker (Chromium's "mm/dd/yyyy"
   // at 16 px and the calendar button take about 140 px; the year was clipped once in a narrow column).
