@@ -137,3 +137,8 @@ export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" |
 export function jobIsCovered(job: Pick<RepairJob, "totalMinor" | "coveredPct">): boolean {
   return job.totalMinor === 0 && job.coveredPct > 0;
 }
+
+/** The quote's total line on a job page: what was paid, what is still to pay, or, once cancelled unpaid or refunded, what was quoted. */
+export function jobTotalLabel(state: JobState, paid: boolean): string {
+  return paid ? "Paid" : state === "cancelled" ? "Quoted (nothing to pay)" : "To pay";
+}

@@ -45,6 +45,10 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await expect(desk.getByText("Job cancelled; the refund is on its way.")).toBeVisible();
   expect(browserDialog).toBe("");
   await waitForMail({ to: ACCOUNTS.otherOwner, subject: /refund/i, sinkUrl: SINK_URL });
+  // Staff read the cancelled job's total as quoted, not as still to pay.
+  await desk.reload();
+  await expect(desk.getByText("Quoted (nothing to pay)", { exact: true })).toBeVisible();
+  await expect(desk.getByText("To pay", { exact: true })).toHaveCount(0);
   await desk.context().close();
 
   // The owner's page says the studio refunded them, and no longer asks them to pay the cancelled job.

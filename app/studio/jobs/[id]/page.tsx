@@ -16,7 +16,7 @@ import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { priceListOf } from "@/lib/repairs/price-list";
-import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
+import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, jobTotalLabel, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
 import { localDate } from "@/lib/care/dates";
@@ -83,7 +83,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
         </Card>
         <div className="space-y-6">
           <Card className="space-y-4">
-            <QuoteSummary figures={figures} showProposed totalLabel={paid ? "Paid" : "To pay"} />
+            <QuoteSummary figures={figures} showProposed totalLabel={jobTotalLabel(job.state, paid)} />
             <StaffJobActions
               jobId={job.id}
               canSend={["draft", "quoted"].includes(job.state) && Boolean(owner)}
