@@ -24,7 +24,7 @@ import { callStripe } from "@/lib/payments/stripe";
 import { planMailContext } from "./plan-mail";
 import { PLAN_FINAL } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
-import { moveSubscription, pieceUrl, studioSubscription } from "./subscriptions";
+import { buyerHoldsPiece, moveSubscription, pieceUrl, studioSubscription } from "./subscriptions";
 
 export const HELD_RESOLUTIONS = ["accept", "refund_difference", "refund_and_end"] as const;
 export type HeldResolution = (typeof HELD_RESOLUTIONS)[number];
@@ -62,6 +62,9 @@ export function plansWithHeldPayment(subscriptionIds: readonly string[]): Set<st
   return new Set(rows.map((r) => r.id));
 }
 
+/** A held first payment of a checkout opened before its buyer handed the piece on: the plan never started; it can only be paid back. */
+const paidAfterHandOn = (sub: PlanSubscription) => sub.state === "awaiting_payment" && !buyerHoldsPiece(sub);
+
 /** What each decision would pay back (null: not possible for this payment). */
 function refundFor(sub: PlanSubscription, held: PlanInvoice, resolution: HeldResolution): number | null {
   if (resolution === "accept") return 0;
@@ -87,9 +90,12 @@ export function heldForStaff(sub: PlanSubscription, timeZone: string): HeldView 
   if (!held || PLAN_FINAL.includes(sub.state)) return null;
   const { money, on } = wordsParts(sub, held, timeZone);
   const charged = money(held.amountMinor, held.currency);
-  const words = `The renewal on ${on} charged ${charged}, but this plan costs ${money(sub.amountMinor)}. The payment is held: the plan's new period hasn't started, and it keeps covering as before until you decide. Nothing more is charged meanwhile.`;
+  const handedOn = paidAfterHandOn(sub);
+  const words = handedOn
+    ? `The first payment, ${charged} on ${on}, came after the person who bought this plan had handed the piece on. The payment is held and the plan hasn't started. Pay it back to end the plan.`
+    : `The renewal on ${on} charged ${charged}, but this plan costs ${money(sub.amountMinor)}. The payment is held: the plan's new period hasn't started, and it keeps covering as before until you decide. Nothing more is charged meanwhile.`;
   const options: HeldOption[] = [];
-  for (const resolution of HELD_RESOLUTIONS) {
+  for (const resolution of handedOn ? (["refund_and_end"] as const) : HELD_RESOLUTIONS) {
     const refundMinor = refundFor(sub, held, resolution);
     if (refundMinor === null) continue;
     if (resolution === "accept") options.push({ resolution, refundMinor, label: `Keep ${charged} as this period's payment`, words: `The new period starts, paid at ${charged}. No money moves.` });
@@ -141,7 +147,7 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
   const by = { actorId: ctx.user.id, source: "staff" } as const;
   return withPlanLock(first.stripeSubscriptionId ?? first.id, async () => {
     // 1. Check what was confirmed and claim the decision: one transaction.
-    const { sub, held, refundMinor } = getDb().transaction((tx) => {
+    const { sub, held, refundMinor, handedOn } = getDb().transaction((tx) => {
       const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, first.id)).get()!;
       const held = tx.select().from(planInvoices).where(and(eq(planInvoices.id, ask.invoiceId), eq(planInvoices.subscriptionId, fresh.id))).get();
       if (held?.heldResolution) throw conflict("This payment has already been settled. Reload to see it as it is now.", { code: "held_settled" });
@@ -149,6 +155,8 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
       if (fresh.version !== ask.version) throw conflict("The plan changed since this page was opened. Reload to see it as it is now.", { code: "plan_changed" });
       if (PLAN_FINAL.includes(fresh.state)) throw conflict("This plan has already ended; settle the payment with the owner by other means.");
       if (held.amountMinor !== ask.amountMinor) throw conflict("The held payment isn't the amount shown. Reload and confirm again.", { code: "held_changed" });
+      const handedOn = paidAfterHandOn(fresh);
+      if (ask.resolution !== "refund_and_end" && handedOn) throw conflict("This plan's buyer handed the piece on before paying, so the plan can't start: pay it all back and end the plan.");
       const refundMinor = refundFor(fresh, held, ask.resolution);
       if (refundMinor === null) throw conflict("Only a payment above the plan's price has a difference to pay back. Keep it, or pay it all back and end the plan.");
       if (refundMinor !== ask.refundMinor) throw conflict("The amount to pay back isn't what was shown. Reload and confirm again.", { code: "refund_changed" });
@@ -161,7 +169,7 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
       if (!claimed) throw conflict("This payment has already been settled. Reload to see it as it is now.", { code: "held_settled" });
       // The version moves on with the claim, so a second decision made on the same page is refused.
       const sub = moveSubscription(tx, fresh, fresh.state, { updatedAt: new Date() }, by);
-      return { sub, held: claimed, refundMinor };
+      return { sub, held: claimed, refundMinor, handedOn };
     });
     // 2. Stripe: stop the subscription (refund and end) and pay back; if it refuses, undo the claim.
     const key = (what: string) => ({ idempotencyKey: `plan-held-${what}-${held.id}` });
@@ -195,10 +203,11 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
         data: { invoiceId: held.id, stripeInvoiceId: held.stripeInvoiceId, amountMinor: held.amountMinor, refundMinor, resolution: STORED[ask.resolution], version: ask.version },
       });
     });
-    return { settled: reread(sub.id), held, refundMinor };
-  }).then(async ({ settled, held, refundMinor }) => {
+    return { settled: reread(sub.id), held, refundMinor, handedOn };
+  }).then(async ({ settled, held, refundMinor, handedOn }) => {
     const sub = settled.stripeSubscriptionId ? ((await syncPlanSubscription(settled.stripeSubscriptionId, undefined, settled)) ?? settled) : settled;
-    await mailHeldSettled(sub, held, ask.resolution, refundMinor);
+    // Its words are a renewal's; a payment made after the hand-over is not one (the studio writes to them itself).
+    if (!handedOn) await mailHeldSettled(sub, held, ask.resolution, refundMinor);
     return sub;
   });
 }

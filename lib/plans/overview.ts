@@ -50,7 +50,7 @@ function studioPlanRows(ctx: StudioActor, where: SQL | undefined, limit: number)
     .limit(limit)
     .all();
   const held = plansWithHeldPayment(rows.map((r) => r.id));
-  return rows.map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null, stateLabel: held.has(r.id) && !PLAN_FINAL.includes(r.state) ? `${PLAN_STATE_LABELS[r.state]}, renewal payment held for you to check` : PLAN_STATE_LABELS[r.state] }));
+  return rows.map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null, stateLabel: held.has(r.id) && !PLAN_FINAL.includes(r.state) ? `${PLAN_STATE_LABELS[r.state]}, ${r.state === "awaiting_payment" ? "a payment" : "renewal payment"} held for you to check` : PLAN_STATE_LABELS[r.state] }));
 }
 
 export type StudioPlanRow = ReturnType<typeof studioPlanRows>[number];

@@ -11,7 +11,7 @@ import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
 import { callStripe, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
-import { moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
+import { buyerHoldsPiece, moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
 import { planMailContext } from "./plan-mail";
 import { planPrice } from "./price";
 import { templateOf } from "./templates";
@@ -65,10 +65,15 @@ function findRow(s: Stripe.Subscription): PlanSubscription | undefined {
   return db.select().from(planSubscriptions).where(and(eq(planSubscriptions.id, planSubscriptionId), eq(planSubscriptions.studioId, studioId))).get();
 }
 
-/** Whether a paid invoice is the plan's: the amount, currency and template version it was bought at. */
+/**
+ * Whether a paid invoice is the plan's: the amount, currency and template version it was bought at,
+ * and, for the first payment, paid while its buyer holds the piece (a checkout opened before they
+ * handed it on and paid after is held for staff like a wrong amount, lib/plans/held.ts; a running
+ * plan's hand-over is lib/plans/transfer.ts's).
+ */
 function matchesPlan(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
   const meta = inv.parent?.subscription_details?.metadata ?? {};
-  return inv.amount_paid === sub.amountMinor && meta.templateId === sub.templateId && inv.currency.toUpperCase() === sub.currency.toUpperCase();
+  return inv.amount_paid === sub.amountMinor && meta.templateId === sub.templateId && inv.currency.toUpperCase() === sub.currency.toUpperCase() && (sub.state !== "awaiting_payment" || buyerHoldsPiece(sub));
 }
 
 /** Whether staff took a held invoice as the period's payment (lib/plans/held.ts): it counts from then on. */

@@ -48,6 +48,15 @@ function same(a: unknown, b: unknown): boolean {
   return a === b;
 }
 
+/**
+ * Whether the plan's buyer still holds its piece. A plan that moved with the piece has no owner
+ * (lib/plans/transfer.ts) and is not renewed, so it is not asked.
+ */
+export function buyerHoldsPiece(sub: Pick<PlanSubscription, "ownerId" | "pieceId">): boolean {
+  if (sub.ownerId === null) return true;
+  return !!getDb().select({ id: pieces.id }).from(pieces).where(and(eq(pieces.id, sub.pieceId), eq(pieces.ownerId, sub.ownerId))).get();
+}
+
 const LIVE: PlanState[] = [...PLAN_COVERS];
 
 /** The plan a piece is under now (running, in grace, or ending), with its template version; null if none. */
