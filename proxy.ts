@@ -39,8 +39,11 @@ async function refusedAction(req: NextRequest): Promise<AppError | null> {
   const length = Number(req.headers.get("content-length"));
   if (Number.isFinite(length) && length > ACTION_BODY_LIMIT_BYTES) return payloadTooLarge(ACTION_BODY_LIMIT_BYTES);
   try {
-    const multipart = (req.headers.get("content-type") ?? "").startsWith("multipart/form-data");
-    const root: unknown = JSON.parse(multipart ? String((await req.formData()).get("0")) : await req.text());
+    // Sent without a length (chunked), the body is measured here.
+    const body = await req.arrayBuffer();
+    if (body.byteLength > ACTION_BODY_LIMIT_BYTES) return payloadTooLarge(ACTION_BODY_LIMIT_BYTES);
+    const type = req.headers.get("content-type") ?? "";
+    const root: unknown = JSON.parse(type.startsWith("multipart/form-data") ? String((await new Response(body, { headers: { "content-type": type } }).formData()).get("0")) : new TextDecoder().decode(body));
     if (Array.isArray(root)) return null;
   } catch {
     // not JSON, or not a form: refused below
