@@ -2,7 +2,8 @@
 // pages, the owner pages and the scheduler all compute the same schedule. No server-only import:
 // the scheduler process uses it too.
 import type { CareLogRow, FinishLayer, FinishProduct, Piece } from "@/db/schema";
-import type { TopShape } from "@/lib/care/area";
+import { topArea, type TopShape } from "@/lib/care/area";
+import type { Surface } from "@/lib/care/vocabulary";
 import { careSchedule, type CareFinishLayer, type CareLogEntry, type CarePiece, type CareSchedule, type CatalogEntry } from "@/lib/care/schedule";
 import { clampStoredDate } from "@/lib/validation/dates";
 
@@ -22,6 +23,18 @@ export function topShape(row: PieceShapeRow): TopShape | undefined {
     case "measured":
       return row.measuredAreaM2 ? { kind: "measured", areaM2: row.measuredAreaM2 } : undefined;
   }
+}
+
+/**
+ * The area of one face of a surface as the piece's record gives it, m²: the top's from its shape
+ * (lib/care/area.ts topArea). The record keeps no size for the base or the edges (db/schema.ts pieces),
+ * so they have none here, and neither has a top whose sizes are missing: null, never the top's figure
+ * for another surface.
+ */
+export function recordedAreaM2(row: PieceShapeRow, surface: Surface): number | null {
+  if (surface !== "top") return null;
+  const shape = topShape(row);
+  return shape ? topArea(shape).m2 : null;
 }
 
 export function toCarePiece(row: Piece): CarePiece {

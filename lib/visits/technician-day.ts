@@ -3,17 +3,17 @@ import { and, asc, eq, gte, inArray, lt } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { claims, clients, pieces, repairJobs, users, visits, type FinishLayer, type FinishProduct, type Piece, type RepairJob } from "@/db/schema";
 import type { StudioContext } from "@/lib/auth/guards";
-import { topArea } from "@/lib/care/area";
 import { cautionsFor } from "@/lib/care/cautions";
 import { cureWindow } from "@/lib/care/cure";
 import { addDays, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { productNeeded } from "@/lib/care/quantity";
+import { M2_PER_FT2 } from "@/lib/care/units";
 import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, TASK_KIND_BY_FINISH_CLASS, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import { fileUrl } from "@/lib/claims/claim-row";
 import { displayPhone } from "@/lib/clients/phone";
 import { notFound } from "@/lib/errors";
 import { formatVolume, type UnitSystem } from "@/lib/format";
-import { topShape } from "@/lib/pieces/care-inputs";
+import { recordedAreaM2 } from "@/lib/pieces/care-inputs";
 import { studioProducts } from "@/lib/pieces/registry";
 import { visitDay } from "@/lib/validation/dates";
 import { isStudioTechnician } from "./availability";
@@ -30,26 +30,41 @@ export type BringItem = {
   finishClass: FinishClass;
   classLabel: string;
   coats: number;
-  /** The engine's exact amount (formatVolume rounds it once, for display); `ml` is that rounding in mL. */
-  exactMl: number;
-  ml: number;
-  /** Containers to open, their sizes in the studio's units ("2 × 3.4 US fl oz (100 mL)"). */
-  containers: string;
+  /** The surface the layer goes on: the one it refreshes (refreshedSurface), null where the technician chooses. */
+  surface: Surface | null;
+  /** The surface the amount is for: the layer's, or the top where the stack does not say which. */
+  amountFor: Surface;
+  /** One coat on a round area in the studio's units (1 m², or 10 ft²), to work an amount out on site where `amount` is null. */
+  perArea: { areaM2: number; exactMl: number };
+  /**
+   * What to bring for `amountFor`'s area on the piece's record (recordedAreaM2), or null where the
+   * record has no area for that surface (the base, the edges, a top without its sizes): never the top's
+   * figure for another surface.
+   */
+  amount: {
+    areaM2: number;
+    /** The engine's exact amount (formatVolume rounds it once, for display); `ml` is that rounding in mL. */
+    exactMl: number;
+    ml: number;
+    /** Containers to open, their sizes in the studio's units ("2 × 3.4 US fl oz (100 mL)"). */
+    containers: string;
+  } | null;
   /** How long what she applies keeps water and objects off, and until full use (lib/care/cure). */
   cure: { lightUseHours: number; fullCureDays: number };
 };
 
-function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], appliedOn: string, units: UnitSystem): BringItem[] {
-  const shape = topShape(piece);
-  const areaM2 = shape ? topArea(shape).m2 : 0;
-  if (!areaM2) return [];
+function whatToBring(job: RepairJob, piece: Piece, layers: readonly FinishLayer[], products: FinishProduct[], appliedOn: string, units: UnitSystem): BringItem[] {
   const input = job.quoteInput;
   const coats = Math.max(1, Number(input.coats) || 1);
   const tasks = new Set(input.tasks ?? []);
   const chosen = products.filter((p) => (input.productIds ?? []).includes(p.id));
   const list = chosen.length ? chosen : products.filter((p) => tasks.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).slice(0, 1);
   return list.map((p) => {
-    const need = productNeeded({ areaM2, coats, coverageM2PerL: p.coverageM2PerL, containerSizesMl: p.containers.map((c) => c.ml) });
+    const surface = refreshedSurface(layers, p.finishClass);
+    const amountFor = surface ?? "top";
+    const areaM2 = recordedAreaM2(piece, amountFor);
+    const need = areaM2 ? productNeeded({ areaM2, coats, coverageM2PerL: p.coverageM2PerL, containerSizesMl: p.containers.map((c) => c.ml) }) : null;
+    const unitArea = units === "metric" ? 1 : 10 * M2_PER_FT2;
     const cure = cureWindow({ finishClass: p.finishClass, appliedOn, productId: p.id }, products);
     return {
       productId: p.id,
@@ -57,9 +72,13 @@ function whatToBring(job: RepairJob, piece: Piece, products: FinishProduct[], ap
       finishClass: p.finishClass,
       classLabel: FINISH_CLASS_LABELS[p.finishClass],
       coats,
-      exactMl: need.exactMl,
-      ml: need.ml,
-      containers: need.containers.map((c) => `${c.count} × ${formatVolume(c.sizeMl, units)}`).join(" + "),
+      surface,
+      amountFor,
+      perArea: { areaM2: unitArea, exactMl: productNeeded({ areaM2: unitArea, coats: 1, coverageM2PerL: p.coverageM2PerL }).exactMl },
+      amount:
+        areaM2 && need
+          ? { areaM2, exactMl: need.exactMl, ml: need.ml, containers: need.containers.map((c) => `${c.count} × ${formatVolume(c.sizeMl, units)}`).join(" + ") }
+          : null,
       cure: { lightUseHours: cure.lightUseHours, fullCureDays: cure.fullCureDays },
     };
   });
@@ -110,7 +129,7 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
   const claimPhotosOf = claimPhotosByClaim(db, ctx.studio.id, rows.map((r) => r.claim?.id));
   const items = rows.map(({ visit, job, piece, ownerName, ownerPhone, claim }) => {
     const layers = layersOf.get(piece.id) ?? [];
-    const bring = whatToBring(job, piece, products, localDate(visit.startAt.getTime(), tz), ctx.studio.unitSystem);
+    const bring = whatToBring(job, piece, layers, products, localDate(visit.startAt.getTime(), tz), ctx.studio.unitSystem);
     const jobTasks = job.quoteInput.tasks ?? [];
     // The cautions for this visit's tasks and the products brought, once each (lib/care/cautions).
     const cautions = cautionsFor({
@@ -133,7 +152,7 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
       layers: layers.map((l) => ({ id: l.id, surface: l.surface, position: l.position, finishClass: l.finishClass, classLabel: FINISH_CLASS_LABELS[l.finishClass], productLabel: l.productLabel, coats: l.coats, appliedOn: l.appliedOn, notes: l.notes })),
       bring,
       /** The report's proposed layers: the quote's products and coats, on the surface each refreshes where the stack says. */
-      defaultLayers: bring.map((b) => ({ surface: refreshedSurface(layers, b.finishClass), finishClass: b.finishClass, productId: b.productId, coats: b.coats })),
+      defaultLayers: bring.map((b) => ({ surface: b.surface, finishClass: b.finishClass, productId: b.productId, coats: b.coats })),
       cautions,
       photos,
       report: visit.reportedAt

@@ -6,7 +6,7 @@ import sharp from "sharp";
 import { expect, test, type Locator, type Page } from "@playwright/test";
 import { getMail, waitForMail } from "../support/mail";
 import { ACCOUNTS, SINK_URL, fixture, signIn, signInTo } from "./helpers";
-import { startVisitNow } from "./e2e-db";
+import { startVisitNow, writeE2eDb } from "./e2e-db";
 
 const SOL = "sol@larchmere.example";
 type Slot = { technicianId: string; technicianName: string; start: string; localDate: string; localStart: string };
@@ -117,6 +117,22 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   await expect(card.getByText(/metal can, cover them with water/)).toBeVisible();
   await expect(card.getByText(/licensed electrician/)).toBeVisible();
   await noHorizontalScroll(tech);
+
+  // The piece's stacks swapped (topcoat on the base, oil on the top) for a moment: the topcoat now goes
+  // on the base, and the demo piece's record has no base size, so no amount from the top's is shown.
+  const swap = () => writeE2eDb("UPDATE finish_layers SET surface = CASE surface WHEN 'top' THEN 'base' ELSE 'top' END WHERE piece_id = (SELECT piece_id FROM repair_jobs WHERE id = ?) AND surface IN ('top', 'base')", jobId);
+  expect(swap()).toBe(4); // three layers on the top, one on the base (db/seed/demo.ts)
+  try {
+    await tech.reload();
+    await expect(card.getByText(/Ceramic-type topcoat, matte \(.*\) — for 1 coat on the base/)).toBeVisible();
+    await expect(card.getByText(/The piece's record has no size for the base, so no amount is worked out\. Measure it on site: one coat takes about .* US fl oz \(.* mL\) for each 10\.0 ft²\./)).toBeVisible();
+    await expect(card.getByText(/US fl oz \(.* mL\) for 1 coat/)).toHaveCount(0);
+    await noHorizontalScroll(tech);
+  } finally {
+    swap();
+  }
+  await tech.reload();
+  await expect(card.getByText(/US fl oz \(.* mL\) for 1 coat on this top/)).toBeVisible();
 
   await card.getByLabel("What was done").fill("Cleaned the top, keyed the old topcoat, one fresh coat of ceramic-type topcoat (e2e).");
   const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: "#86603b" } }).jpeg().toBuffer();

@@ -229,7 +229,7 @@ describe("the visit report", () => {
     const day = technicianDay(w.tech, { date: slot.localDate }, NOW);
     expect(day.items.map((i) => i.visit.id)).toEqual([v.id]);
     expect(day.items[0]!.bring[0]).toMatchObject({ product: w.product.name, coats: 1 });
-    expect(day.items[0]!.bring[0]!.ml).toBe(Math.ceil(((2 * 0.9 * 1) / 24) * 1000)); // 1.8 m² × 1 coat ÷ 24 m²/L
+    expect(day.items[0]!.bring[0]!.amount!.ml).toBe(Math.ceil(((2 * 0.9 * 1) / 24) * 1000)); // 1.8 m² × 1 coat ÷ 24 m²/L
     expect(day.items[0]!.cautions.map((c) => c.text).join(" ")).toMatch(/metal can, cover them with water/);
     expect(day.items[0]!.cautions.map((c) => c.text).join(" ")).toMatch(/licensed electrician/);
 

@@ -11,12 +11,16 @@ import { requireStudioMember } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
+import type { Surface } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
-import { formatClock, formatDate, formatVolume } from "@/lib/format";
+import { formatArea, formatClock, formatDate, formatVolume } from "@/lib/format";
 import { technicianDay } from "@/lib/visits/technician-day";
 
 export const metadata: Metadata = { title: "My day" };
 export const dynamic = "force-dynamic";
+
+/** Where a product goes, completing "for 2 coats on …". */
+const ON_SURFACE: Record<Surface, string> = { top: "this top", base: "the base", edges: "the edges" };
 
 const dayTitle = (date: string) => formatDate(date, { weekday: "long" });
 
@@ -139,8 +143,14 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                       <ul className="space-y-1 text-sm">
                         {item.bring.map((b) => (
                           <li key={b.product} className="rounded-lg bg-paper px-3 py-2">
-                            <span className="font-semibold">{b.product}</span> ({b.classLabel}) — {formatVolume(b.exactMl, ctx.studio.unitSystem)} for {b.coats} coat{b.coats === 1 ? "" : "s"} on this top
-                            {b.containers ? <span className="block text-muted">Open: {b.containers}</span> : null}
+                            <span className="font-semibold">{b.product}</span> ({b.classLabel}) —{" "}
+                            {b.amount ? `${formatVolume(b.amount.exactMl, ctx.studio.unitSystem)} for` : "for"} {b.coats} coat{b.coats === 1 ? "" : "s"} on {ON_SURFACE[b.amountFor]}
+                            {b.amount?.containers ? <span className="block text-muted">Open: {b.amount.containers}</span> : null}
+                            {b.amount ? null : (
+                              <span className="block text-muted">
+                                The piece&apos;s record has no size for {ON_SURFACE[b.amountFor]}, so no amount is worked out. Measure it on site: one coat takes about {formatVolume(b.perArea.exactMl, ctx.studio.unitSystem)} for each {formatArea(b.perArea.areaM2, ctx.studio.unitSystem)}.
+                              </span>
+                            )}
                             <span className="block text-muted">
                               Cure: light use after {b.cure.lightUseHours} h, full use after {b.cure.fullCureDays} days. Tell the owner.
                             </span>
