@@ -12,7 +12,7 @@ import type { ClaimState } from "@/lib/claims/states";
 import { apiJson } from "@/components/api-client";
 import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { StateBadge } from "./state-badge";
-import { formatCount, formatWait } from "@/lib/format";
+import { formatAgo, formatCount, formatWait } from "@/lib/format";
 
 type Row = {
   id: string;
@@ -110,12 +110,12 @@ export function ClaimQueue() {
                     {CLAIM_CATEGORY_LABELS[c.category]} · {c.pieceTitle}
                   </span>
                   <span className="block text-sm text-muted md:truncate">
-                    {c.ownerName} · filed {formatWait(now - Date.parse(c.createdAt))} ago · <SpriteIcon name="camera" className="inline size-4" /> {c.photos} photo{c.photos === 1 ? "" : "s"}
+                    {c.ownerName} · filed {formatAgo(now - Date.parse(c.createdAt))} · <SpriteIcon name="camera" className="inline size-4" /> {c.photos} photo{c.photos === 1 ? "" : "s"}
                   </span>
                 </span>
                 <span className={`flex items-center gap-1 text-sm ${c.answered ? "text-muted" : "font-semibold text-warn"}`}>
                   <SpriteIcon name="clock" className="size-4" />
-                  {c.answered ? `first answer after ${formatWait(c.waitMs)}` : `waiting ${formatWait(c.waitMs)} for a first answer`}
+                  {c.answered ? `first answer in ${formatWait(c.waitMs)}` : `waiting ${formatWait(c.waitMs)} for a first answer`}
                 </span>
               </Link>
             </li>

@@ -141,13 +141,24 @@ export function relativeDays(days: number): string {
   return ago < 60 ? `${ago} days ago` : `about ${Math.round(ago / 30.44)} months ago`;
 }
 
-/** How long something has waited, short for lists: "40 min", "3 h", "2 d 4 h", "4 d", "12 d". */
+/**
+ * How long something has waited, short for lists: "under a minute", "40 min", "3 h", "2 d 4 h", "4 d",
+ * "12 d". Under a minute is said in words, never "0 min" ("waiting 0 min for a first answer").
+ */
 export function formatWait(ms: number): string {
   const h = Math.max(0, Math.floor(ms / 3_600_000));
-  if (h < 1) return `${Math.max(0, Math.floor(ms / 60_000))} min`;
+  if (h < 1) {
+    const min = Math.floor(ms / 60_000);
+    return min < 1 ? "under a minute" : `${min} min`;
+  }
   if (h < 48) return `${h} h`;
   const d = Math.floor(h / 24);
   return d < 10 && h % 24 ? `${d} d ${h % 24} h` : `${d} d`;
+}
+
+/** How long ago something happened, short for lists: "just now" under a minute, else "40 min ago", "2 d 4 h ago". */
+export function formatAgo(ms: number): string {
+  return ms < 60_000 ? "just now" : `${formatWait(ms)} ago`;
 }
 
 /** When to try again, in a sentence: "1 second", "20 seconds", "3 minutes". */

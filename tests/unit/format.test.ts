@@ -11,6 +11,7 @@ import {
   formatBasisPoints,
   formatBytes,
   formatCount,
+  formatAgo,
   formatDate,
   formatInstant,
   formatMoney,
@@ -136,13 +137,22 @@ describe("today and tomorrow by the reader's own calendar", () => {
 describe("waits (house style, no published source)", () => {
   const H = 3_600_000;
   it("short for lists: minutes, then hours to two days, then days and hours, then days", () => {
-    expect(formatWait(-5_000)).toBe("0 min");
+    expect(formatWait(-5_000)).toBe("under a minute"); // a clock a little behind: never "0 min"
+    expect(formatWait(0)).toBe("under a minute");
+    expect(formatWait(59_999)).toBe("under a minute");
+    expect(formatWait(60_000)).toBe("1 min");
     expect(formatWait(40 * 60_000)).toBe("40 min");
     expect(formatWait(3 * H + 59 * 60_000)).toBe("3 h");
     expect(formatWait(47 * H)).toBe("47 h");
     expect(formatWait(52 * H)).toBe("2 d 4 h");
     expect(formatWait(96 * H + 30 * 60_000)).toBe("4 d"); // no "4 d 0 h"
     expect(formatWait(12 * 24 * H + 5 * H)).toBe("12 d");
+  });
+  it("how long ago, for lists: 'just now' under a minute, never '0 min ago'", () => {
+    expect(formatAgo(-5_000)).toBe("just now");
+    expect(formatAgo(59_999)).toBe("just now");
+    expect(formatAgo(60_000)).toBe("1 min ago");
+    expect(formatAgo(52 * H)).toBe("2 d 4 h ago");
   });
   it("when to try again, in a sentence", () => {
     expect(formatRetryWait(0.2)).toBe("1 second");

@@ -65,7 +65,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               owner.name
             )}{" "}
             ({owner.email}) · filed {formatInstant(new Date(claim.createdAt), v.studio.timeZone, { time: true })} ·{" "}
-            {claim.firstAnsweredAt ? `first answer after ${formatWait(waited)}` : `waiting ${formatWait(waited)} for a first answer`}
+            {claim.firstAnsweredAt ? `first answer in ${formatWait(waited)}` : `waiting ${formatWait(waited)} for a first answer`}
           </p>
         </div>
         <StateBadge state={claim.state} audience="staff" />
