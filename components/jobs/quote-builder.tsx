@@ -107,12 +107,15 @@ export function QuoteBuilder({
       run({ body, v, withLines });
     });
 
+  // A closed quote shows what was quoted, with no controls that could not act (lib/repairs/states.ts QUOTE_EDITABLE).
+  if (!editable) return <ClosedQuote initial={initial} lines={lines} products={products} repairs={repairs} currency={currency} country={country} coveredField={coveredField} />;
+
   const lineErrors = formState.errors.lines;
   return (
     <form onSubmit={submit(true)} noValidate className="space-y-5">
       {formError ? <Notice tone="error">{formError}</Notice> : null}
       {/* Disabled while the quote is sent, not while the press is checked: the first field to fix takes the focus (the buttons stay disabled throughout). */}
-      <fieldset disabled={!editable || busy} className="space-y-5">
+      <fieldset disabled={busy} className="space-y-5">
         <TextField label="Job title" {...register("title")} error={formState.errors.title?.message} />
 
         <details className="rounded-lg border border-line bg-white p-3" open={lines.length === 0 || Boolean(formState.errors.tasks ?? formState.errors.coats)}>
@@ -220,14 +223,66 @@ export function QuoteBuilder({
           <span className="text-sm font-medium">Notes for the technician</span>
           <textarea rows={3} {...register("notes")} className="block w-full rounded-lg border border-line bg-white px-3 py-2" />
         </label>
-        {editable ? (
-          <Button type="submit" disabled={saving}>
-            {saving ? "Saving…" : "Save the quote"}
-          </Button>
-        ) : (
-          <p className="text-sm text-muted">This quote can no longer be changed.</p>
-        )}
+        <Button type="submit" disabled={saving}>
+          {saving ? "Saving…" : "Save the quote"}
+        </Button>
       </fieldset>
     </form>
+  );
+}
+
+/** The quote of a job past approval, read only: the same facts the builder edits, as text. */
+function ClosedQuote({
+  initial,
+  lines,
+  products,
+  repairs,
+  currency,
+  country,
+  coveredField,
+}: {
+  initial: BuilderInitial;
+  lines: BuilderLine[];
+  products: Product[];
+  repairs: Repair[];
+  currency: string;
+  country: string;
+  coveredField: string;
+}) {
+  const from = [
+    ...repairs.filter((r) => initial.repairs.includes(r.key)).map((r) => r.label),
+    ...initial.tasks.filter((t): t is keyof typeof CARE_TASK_LABELS => t in CARE_TASK_LABELS).map((t) => CARE_TASK_LABELS[t]),
+    ...products.filter((p) => initial.productIds.includes(p.id)).map((p) => `${p.name} (${p.finishClassLabel})`),
+  ];
+  return (
+    <div className="space-y-4 text-sm">
+      <p className="text-muted">This quote can no longer be changed.</p>
+      <dl className="grid gap-x-4 gap-y-2 sm:grid-cols-[auto_1fr]">
+        <dt className="font-medium">Job title</dt>
+        <dd>{initial.title}</dd>
+        <dt className="font-medium">Proposed from</dt>
+        <dd>{from.length ? from.join(" · ") : "Typed lines only"}{initial.travel ? " · travel fee" : ""}</dd>
+        <dt className="font-medium">{coveredField}</dt>
+        <dd>{initial.coveredPct}%</dd>
+        {initial.notes ? (
+          <>
+            <dt className="font-medium">Notes for the technician</dt>
+            <dd className="whitespace-pre-line">{initial.notes}</dd>
+          </>
+        ) : null}
+      </dl>
+      <h3 className="font-medium">Lines</h3>
+      {lines.length === 0 ? <p className="text-muted">No lines.</p> : null}
+      <ol className="space-y-2">
+        {lines.map((l, i) => (
+          <li key={i} className="rounded-lg border border-line bg-white p-3">
+            <p>{l.description}</p>
+            <p className="text-xs text-muted">
+              {l.quantity} {LINE_UNIT_LABELS[l.unit]} at {formatMoney(l.unitPriceMinor, currency, country)} · {LINE_KIND_LABELS[l.kind]} · {LINE_SOURCE_LABELS[l.source]}
+            </p>
+          </li>
+        ))}
+      </ol>
+    </div>
   );
 }

@@ -49,6 +49,12 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await desk.reload();
   await expect(desk.getByText("Quoted (nothing to pay)", { exact: true })).toBeVisible();
   await expect(desk.getByText("To pay", { exact: true })).toHaveCount(0);
+  // The closed quote is read only: no edit controls that could not act beside that sentence.
+  await expect(desk.getByText("This quote can no longer be changed.")).toBeVisible();
+  await expect(desk.getByRole("button", { name: /^Remove line/ })).toHaveCount(0);
+  await expect(desk.getByRole("button", { name: "Add a typed line" })).toHaveCount(0);
+  await expect(desk.getByRole("button", { name: "Propose lines" })).toHaveCount(0);
+  await expect(desk.getByRole("textbox", { name: "Job title" })).toHaveCount(0);
   await desk.context().close();
 
   // The owner's page says the studio refunded them, and no longer asks them to pay the cancelled job.
