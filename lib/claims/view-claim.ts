@@ -14,6 +14,7 @@ import { jobStateLabel } from "@/lib/repairs/states";
 import { formatVisitWhen, ownerTimeZone } from "@/lib/format";
 import { claimCore, fileUrl, loadStudioClaim, loadVisibleClaim, photoView, studioOf } from "./claim-row";
 import { coverageOf } from "./claim-piece";
+import { ownerDecisionWords, type RepairStep } from "./labels";
 
 // One claim as its owner sees it (state, photos, messages, the decision, where the repair stands) or as
 // staff see it (all of that plus the piece record, its care log and the coverage check).
@@ -54,13 +55,14 @@ function ownerReaches(ownerId: string, jobId: string, reach: OwnerReach): boolea
 /**
  * Where the repair stands, in the owner's words; the job's page is theirs to open once a quote was sent.
  * After a hand-over the former owner reads only a job they paid for, as history, and never its visit
- * (the same rule as their job and visit pages, lib/repairs/owner-reach.ts).
+ * (the same rule as their job and visit pages, lib/repairs/owner-reach.ts). Also the step the decision's
+ * words follow (ownerDecisionWords, lib/claims/labels.ts).
  */
 function ownerRepair(claim: Claim, timeZone: string) {
   const found = jobOfClaim(claim.id);
-  if (!found) return null;
+  if (!found) return { repair: null, step: claim.state === "closed" ? ("closed" as const) : ("none" as const) };
   const acts = ownerReaches(claim.ownerId, found.id, "act");
-  if (!acts && !ownerReaches(claim.ownerId, found.id, "history")) return null;
+  if (!acts && !ownerReaches(claim.ownerId, found.id, "history")) return { repair: null, step: "unseen" as const };
   const job = acts ? found : { ...found, visit: null };
   const when = job.visit ? formatVisitWhen(job.visit.startAt.getTime(), job.visit.endAt.getTime(), timeZone) : "";
   const STAGE: Record<typeof job.state, string> = {
@@ -74,7 +76,9 @@ function ownerRepair(claim: Claim, timeZone: string) {
     cancelled: "The repair job was cancelled. Write to the studio if that is unexpected.",
   };
   const visible = !(job.state === "draft" && job.quoteVersion === 0);
-  return { jobId: visible ? job.id : null, state: job.state, stage: STAGE[job.state] };
+  // A quote revised back to draft was still sent; approved is a sent quote not yet paid.
+  const step: RepairStep = job.state === "draft" ? (visible ? "quoted" : "none") : job.state === "approved" ? "quoted" : job.state;
+  return { repair: { jobId: visible ? job.id : null, state: job.state, stage: STAGE[job.state] }, step };
 }
 
 /** The repair job of the claim as staff see it: its state in the studio's words and its visit. */
@@ -100,8 +104,9 @@ function ownerView(claim: Claim) {
     .leftJoin(clients, and(eq(clients.userId, users.id), eq(clients.studioId, claim.studioId)))
     .where(eq(users.id, claim.ownerId))
     .get();
-  const repair = ownerRepair(claim, ownerTimeZone(owner?.timeZone ?? "UTC", owner?.clientZone, studio.timeZone));
-  return { view: "owner" as const, claim: { ...claimCore(claim), jobId: repair?.jobId ?? null }, repair, piece, studio: { name: studio.name }, photos: photosOf(claim.id), messages: messagesOf(claim.id) };
+  const { repair, step } = ownerRepair(claim, ownerTimeZone(owner?.timeZone ?? "UTC", owner?.clientZone, studio.timeZone));
+  const decisionWords = claim.decision ? ownerDecisionWords(claim.decision, step) : null;
+  return { view: "owner" as const, claim: { ...claimCore(claim), jobId: repair?.jobId ?? null, decisionWords }, repair, piece, studio: { name: studio.name }, photos: photosOf(claim.id), messages: messagesOf(claim.id) };
 }
 
 /** The claim as staff see it: all of the owner's view plus the piece record, care log and coverage check. */

@@ -98,6 +98,45 @@ describe("the claim follows the work", () => {
     ]);
   });
 
+  it("the decision's words on the owner's claim page follow the claim and its job: a quote is promised only until it is sent, and a done repair is told in the past tense", async () => {
+    const w = await visitWorld();
+    const claim = createAcceptedClaim(w.studio, w.piece.id, w.owner.id, "chargeable");
+    const words = () => {
+      const v = getClaim(ownerActor(w.owner), claim.id);
+      return v.view === "owner" ? v.claim.decisionWords : null;
+    };
+    expect(words()).toBe("The repair isn't covered by your warranty, but the studio can do it as a paid repair. The studio will send you a quote.");
+    const { id: jobId } = createJobFromClaim(w.staff, claim.id);
+    expect(words()).toMatch(/will send you a quote\.$/); // still being priced
+    // Quote, approval and payment stood in for, as above: each state set on the job.
+    const jobState = (state: "quoted" | "approved" | "paid", quoteVersion = 1) => getDb().update(repairJobs).set({ state, quoteVersion }).where(eq(repairJobs.id, jobId)).run();
+    jobState("quoted");
+    expect(words()).toBe("The repair isn't covered by your warranty, but the studio can do it as a paid repair. The studio sent you a quote.");
+    jobState("approved");
+    expect(words()).toMatch(/The studio sent you a quote\.$/);
+    jobState("paid");
+    expect(words()).toMatch(/ You paid for the repair\.$/);
+    const slot = listJobSlots(staffActor(w.staff), jobId, { from: "2027-05-04T12:00:00Z", to: "2027-05-07T00:00:00Z" }, NOW).slots[0]!;
+    const visit = await bookVisit(staffActor(w.staff), { jobId, technicianId: slot.technicianId, start: slot.start }, NOW);
+    expect(words()).toMatch(/ The repair visit is booked\.$/);
+    await submitReport(w.tech, visit.id, reportInput({ work: "Filled and refinished the split (invented).", layers: [] }), new Date(Date.parse(visit.start) + HOUR));
+    expect(claimState(claim.id)).toBe("closed");
+    expect(words()).toBe("The repair wasn't covered by your warranty; the studio did it as a paid repair.");
+
+    // Partly covered, its job cancelled; and a claim closed with no job promises nothing.
+    const partly = createAcceptedClaim(w.studio, w.piece.id, w.owner.id, "partly_covered", 40);
+    const partlyWords = () => (getClaim(ownerActor(w.owner), partly.id) as { claim: { decisionWords: string } }).claim.decisionWords;
+    expect(partlyWords()).toBe("The warranty covers part of the repair. The studio will quote you the rest.");
+    const { id: partlyJob } = createJobFromClaim(w.staff, partly.id);
+    getDb().update(repairJobs).set({ state: "cancelled", quoteVersion: 1 }).where(eq(repairJobs.id, partlyJob)).run();
+    expect(partlyWords()).toBe("The warranty covers part of the repair. The repair job was cancelled.");
+    const closed = createAcceptedClaim(w.studio, w.piece.id, w.owner.id, "chargeable");
+    getDb().update(claims).set({ state: "closed" }).where(eq(claims.id, closed.id)).run();
+    expect((getClaim(ownerActor(w.owner), closed.id) as { claim: { decisionWords: string } }).claim.decisionWords).toBe(
+      "The repair isn't covered by your warranty, but the studio can do it as a paid repair.",
+    );
+  });
+
   it("a job that did not come from a claim moves no claim", async () => {
     const w = await claimThreadWorld();
     const slot = listJobSlots(staffActor(w.staff), w.job.id, { from: "2027-05-04T12:00:00Z", to: "2027-05-07T00:00:00Z" }, NOW).slots[0]!;

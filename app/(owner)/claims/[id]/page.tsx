@@ -16,13 +16,6 @@ import { MAX_CLAIM_PHOTOS, OPEN_STATES } from "@/lib/claims/states";
 export const metadata: Metadata = { title: "Claim" };
 export const dynamic = "force-dynamic";
 
-const DECISION_WORDS = {
-  covered: "The repair is covered by your warranty.",
-  partly_covered: "The warranty covers part of the repair; the studio will quote you the rest.",
-  chargeable: "The repair isn't covered, but the studio can do it as a paid repair and will send a quote.",
-  declined: "The studio declined this claim.",
-} as const;
-
 export default async function OwnerClaimPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await forPage(requireUser);
@@ -52,7 +45,7 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
       {claim.decision ? (
         <Card className="space-y-1" aria-label="Decision">
           <p className="font-display text-xl font-semibold">{decisionText(claim.decision, claim.coveredPct)}</p>
-          <p>{DECISION_WORDS[claim.decision]}</p>
+          <p>{claim.decisionWords}</p>
           {claim.decisionReason ? <p className="whitespace-pre-wrap">“{claim.decisionReason}”</p> : null}
           <p className="text-sm text-muted">Decided {claim.decidedAt ? formatInstant(claim.decidedAt, user.timeZone) : "—"}</p>
         </Card>
