@@ -100,9 +100,15 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
   });
 }
 
+/**
+ * What was given back on a job, in one subquery of the list (payments_job_idx): every payment with a
+ * refund reason, as the owner's job page (app/(owner)/jobs/[id]/page.tsx) counts them as refunded.
+ */
+const refundedMinor = sql<number>`(select coalesce(sum(${payments.amountMinor}), 0) from ${payments} where ${payments.jobId} = ${repairJobs.id} and ${payments.refundReason} is not null)`.mapWith(Number);
+
 export function listStudioJobs(ctx: StudioContext, filter: { state?: RepairJob["state"] }) {
   return getDb()
-    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, ownerName: users.name })
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, ownerName: users.name, refundedMinor })
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .leftJoin(users, eq(users.id, repairJobs.ownerId))
@@ -114,7 +120,7 @@ export function listStudioJobs(ctx: StudioContext, filter: { state?: RepairJob["
 
 export function listOwnerJobs(user: Pick<User, "id">, filter: { state?: RepairJob["state"] } = {}) {
   return getDb()
-    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, studioName: studios.name, studioCountry: studios.country })
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, studioName: studios.name, studioCountry: studios.country, refundedMinor })
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .innerJoin(studios, eq(studios.id, repairJobs.studioId))

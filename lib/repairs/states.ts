@@ -127,9 +127,11 @@ export function jobStateLabel(job: Pick<RepairJob, "state" | "origin" | "covered
 /**
  * A job's amount in a line of a list: its total for the studio's country, or who covers it ("Covered by
  * the warranty", "Included in the care plan", coverWords) when that takes all of it (a share but nothing
- * left to pay). A partly covered job shows what the owner pays.
+ * left to pay). A partly covered job shows what the owner pays. A job whose payments were given back
+ * (refundedMinor, summed by the list queries in lib/repairs/jobs.ts) says so with the amount refunded.
  */
-export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency" | "origin">, country: string): string {
+export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency" | "origin"> & { refundedMinor?: number }, country: string): string {
+  if (job.refundedMinor) return `Refunded ${formatMoney(job.refundedMinor, job.currency, country)}`;
   return jobIsCovered(job) ? coverWords(job).whole : formatMoney(job.totalMinor, job.currency, country);
 }
 

@@ -8,7 +8,8 @@ import { JobPayments } from "@/components/jobs/job-payments";
 import { getDb } from "@/db/client";
 import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
 import { DECLINE_CARD, startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
-import { getStudioJob, createJob } from "@/lib/repairs/jobs";
+import { getStudioJob, createJob, listOwnerJobs, listStudioJobs } from "@/lib/repairs/jobs";
+import { jobAmountText } from "@/lib/repairs/states";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { getStripe } from "@/lib/payments/stripe";
 import { formatMoney } from "@/lib/format";
@@ -171,6 +172,10 @@ describe("repair job payment through the Stripe fake", () => {
     const refunded = await until(() => getDb().select().from(payments).where(eq(payments.jobId, job.id)).get()?.status === "refunded" && true);
     expect(refunded).toBe(true);
     await waitForMail({ to: owner.email, subject: /refund/i });
+    // Both lists of jobs say the money went back, not the bare total beside the Cancelled badge.
+    for (const rows of [listOwnerJobs(owner), listStudioJobs(staff, {})]) {
+      expect(jobAmountText(rows.find((r) => r.id === job.id)!, "US")).toBe(`Refunded ${formatMoney(job.totalMinor, "USD", "US")}`);
+    }
   });
 
   it.each([
