@@ -1,13 +1,13 @@
 import "server-only";
 import { Document, Image, Page, StyleSheet, Text, View, renderToBuffer } from "@react-pdf/renderer";
 import { conflict } from "@/lib/errors";
-import { formatInstant } from "@/lib/format";
+import { formatInstant, formatMoney } from "@/lib/format";
 import { readStoredFile } from "@/lib/storage";
 import { accentOf } from "@/lib/studio/brand";
 import { isStudioActor, type Actor } from "@/lib/auth/actor";
 import { jobFigures, type JobFigures } from "./figures";
 import { getOwnerJob, getStudioJob, type JobView } from "./jobs";
-import { paymentCounts } from "./states";
+import { receiptPayment } from "./states";
 
 // A repair job's receipt as a PDF, for the job's owner and the studio's staff: the studio's name,
 // address and tax number, the lines, the warranty's share, tax, the total paid and the payment
@@ -41,6 +41,8 @@ export type ReceiptData = {
   jobTitle: string;
   paidOn: string;
   reference: string;
+  /** The payment given back in full: how much, and when it was asked of the payment service (null while still owed). */
+  refund?: { amount: string; on: string | null } | null;
   figures: JobFigures;
   letter: boolean;
 };
@@ -98,6 +100,12 @@ export function ReceiptDocument({ d, logo = null }: { d: ReceiptData; logo?: Buf
           <Text style={s.key}>Payment reference</Text>
           <Text style={s.val}>{d.reference}</Text>
         </View>
+        {d.refund ? (
+          <View style={s.row}>
+            <Text style={s.key}>Refunded</Text>
+            <Text style={s.val}>{winAnsi(d.refund.amount)} · {d.refund.on ? `on ${d.refund.on}` : "being paid back"}</Text>
+          </View>
+        ) : null}
         <Text style={s.h2}>Lines</Text>
         {f.lines.map((l, i) => (
           <View key={i} style={s.line} wrap={false}>
@@ -123,10 +131,10 @@ export function ReceiptDocument({ d, logo = null }: { d: ReceiptData; logo?: Buf
   );
 }
 
-/** The receipt's data for a job the actor reaches; 409 while nothing has been paid that counts. */
+/** The receipt's data for a job the actor reaches, with the refund of a payment given back; 409 while nothing has been paid. */
 export function receiptData(actor: Actor, jobId: string): ReceiptData {
   const view: JobView = isStudioActor(actor) ? getStudioJob(actor, jobId) : getOwnerJob(actor.user, jobId);
-  const payment = view.payments.find(paymentCounts);
+  const payment = receiptPayment(view.payments);
   if (!payment) throw conflict("This job has no payment yet, so there is no receipt.");
   // Staff read the time in the studio's zone, the owner in theirs; the zone is printed beside it.
   const tz = isStudioActor(actor) || !view.owner ? view.studio.timeZone : view.owner.timeZone;
@@ -137,6 +145,13 @@ export function receiptData(actor: Actor, jobId: string): ReceiptData {
     jobTitle: view.job.title,
     paidOn: formatInstant(payment.paidAt ?? payment.updatedAt, tz, { time: true }),
     reference: payment.paymentIntentId ?? payment.checkoutSessionId,
+    refund:
+      payment.refundReason === null
+        ? null
+        : {
+            amount: formatMoney(payment.refundedMinor || payment.amountMinor, payment.currency, view.studio.country),
+            on: payment.refundRequestedAt ? formatInstant(payment.refundRequestedAt, tz, { time: true }) : null,
+          },
     figures: jobFigures(view.job, view.studio),
     letter: view.studio.unitSystem === "imperial",
   };

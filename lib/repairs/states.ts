@@ -66,6 +66,14 @@ export function paymentCounts(p: Pick<Payment, "status" | "refundReason">): bool
   return CAPTURED.includes(p.status) && p.refundReason === null;
 }
 
+/**
+ * The payment a job's receipt is for: the one that counts, else one that was taken and then given back in
+ * full (a paid job cancelled and refunded still had a payment). Undefined while nothing was ever taken.
+ */
+export function receiptPayment<P extends Pick<Payment, "status" | "refundReason" | "paidAt">>(payments: readonly P[]): P | undefined {
+  return payments.find(paymentCounts) ?? payments.find((p) => p.paidAt !== null && p.refundReason !== null);
+}
+
 export const PAYMENT_STATUS_LABELS: Record<PaymentStatus, string> = {
   open: "Payment page open",
   paid: "Paid",

@@ -10,6 +10,8 @@ import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema"
 import { DECLINE_CARD, startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { getStudioJob, createJob, listOwnerJobs, listStudioJobs } from "@/lib/repairs/jobs";
 import { jobAmountText } from "@/lib/repairs/states";
+import { receiptPdf } from "@/lib/repairs/receipt";
+import { ownerActor } from "@/lib/auth/actor";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { getStripe } from "@/lib/payments/stripe";
 import { formatMoney } from "@/lib/format";
@@ -175,6 +177,15 @@ describe("repair job payment through the Stripe fake", () => {
     // Both lists of jobs say the money went back, not the bare total beside the Cancelled badge.
     for (const rows of [listOwnerJobs(owner), listStudioJobs(staff, {})]) {
       expect(jobAmountText(rows.find((r) => r.id === job.id)!, "US")).toBe(`Refunded ${formatMoney(job.totalMinor, "USD", "US")}`);
+    }
+    // The job had a payment: its receipt is still there, for the owner and for staff, with the payment and its refund (time with its zone).
+    for (const actor of [ownerActor(owner), staff]) {
+      const { buffer, data } = await receiptPdf(actor, job.id);
+      expect(buffer.subarray(0, 5).toString()).toBe("%PDF-");
+      expect(data.reference).toMatch(/^pi_test_/);
+      expect(data.figures.text.total).toBe(formatMoney(job.totalMinor, "USD", "US"));
+      expect(data.refund?.amount).toBe(formatMoney(job.totalMinor, "USD", "US"));
+      expect(data.refund?.on).toMatch(/^\d{1,2} [A-Z][a-z]+ \d{4}(,| at) \d{2}:\d{2} \S+$/);
     }
   });
 

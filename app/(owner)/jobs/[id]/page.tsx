@@ -9,7 +9,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
-import { coverWords, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, jobStateLabel, jobTotalLabel, paymentCounts } from "@/lib/repairs/states";
+import { coverWords, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, jobStateLabel, jobTotalLabel, paymentCounts, receiptPayment } from "@/lib/repairs/states";
 import { formatMoney } from "@/lib/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
@@ -82,7 +82,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         ) : null}
         <Card className="space-y-3">
           <QuoteSummary figures={jobFigures(job, studio)} totalLabel={jobTotalLabel(job.state, paid)} />
-          {paid ? (
+          {receiptPayment(payments) ? (
             <a className="inline-block text-sm text-resin underline" href={`/api/jobs/${job.id}/receipt`}>
               Download your receipt (PDF)
             </a>

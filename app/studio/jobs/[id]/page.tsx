@@ -16,7 +16,7 @@ import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { priceListOf } from "@/lib/repairs/price-list";
-import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, jobTotalLabel, paymentCounts, QUOTE_EDITABLE } from "@/lib/repairs/states";
+import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, jobTotalLabel, paymentCounts, QUOTE_EDITABLE, receiptPayment } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
 import { localDate } from "@/lib/care/dates";
@@ -92,7 +92,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
               refundOwed={refundOwed}
             />
             {job.quoteVersion ? <p className="text-sm text-muted">Quote sent {job.quoteVersion} time{job.quoteVersion === 1 ? "" : "s"}.</p> : null}
-            {paid ? (
+            {receiptPayment(payments) ? (
               <a className="text-sm text-resin underline" href={`/api/jobs/${job.id}/receipt`}>
                 Download the receipt (PDF)
               </a>
