@@ -99,6 +99,8 @@ test.describe("care plans", () => {
 
   test("staff cancel the plan from its page at 1280 px, with the end date and refund shown, then take it back", async ({ page }) => {
     await signInTo(page, ACCOUNTS.staff, "/studio/plans");
+    // Each plan's link reads as a link before it is hovered, underlined as the other staff lists' links are.
+    await expect(page.getByRole("link", { name: pieceTitle }).first()).toHaveCSS("text-decoration-line", "underline");
     await page.getByRole("link", { name: pieceTitle }).first().click();
     await expect(page).toHaveURL(/\/studio\/plans\/[^/]+$/);
     await expect(page.getByText(/^Running · /)).toBeVisible();

@@ -23,7 +23,7 @@ export default async function StudioPlansPage({ searchParams }: { searchParams: 
           <ul className="divide-y divide-line">
             {plans.map((p) => (
               <li key={p.id} className="py-2">
-                <Link href={`/studio/plans/${p.id}`} className="font-medium underline-offset-2 hover:text-resin hover:underline">
+                <Link href={`/studio/plans/${p.id}`} className="font-medium text-resin underline underline-offset-2">
                   {p.pieceTitle}
                 </Link>
                 <p className="text-sm text-muted">
