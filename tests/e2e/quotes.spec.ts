@@ -31,6 +31,20 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   await expect(page.getByText(/Lines proposed from the tasks/)).toBeVisible();
   const crack = await lineWith(page, "Crack or check fill");
   await expect(crack.getByText("Labour rate · proposed 1 h at $85.00")).toBeVisible();
+  // Every kind for tax reads whole in its select, at 1280 px and at 375 px: the longest option's text, the
+  // side paddings and about 24 px for the arrow fit inside the select ('Delivery and travel' was cut to 'Delivery and').
+  for (const width of [1280, 375]) {
+    await page.setViewportSize({ width, height: 900 });
+    const room = await crack.getByLabel("Kind (for tax)").evaluate((el: HTMLSelectElement) => {
+      const cs = getComputedStyle(el);
+      const pen = document.createElement("canvas").getContext("2d")!;
+      pen.font = `${cs.fontWeight} ${cs.fontSize} ${cs.fontFamily}`;
+      const widest = Math.max(...[...el.options].map((o) => pen.measureText(o.text).width));
+      return el.clientWidth - (widest + parseFloat(cs.paddingLeft) + parseFloat(cs.paddingRight) + 24);
+    });
+    expect(room, `room at ${width} px`).toBeGreaterThanOrEqual(0);
+  }
+  await page.setViewportSize({ width: 1280, height: 900 });
 
   // Hours edited, and a warranty share over 100 %: one press shows both problems at once (the share's
   // in words, not zod's "Too big: …"), focuses the first, and sends nothing.
