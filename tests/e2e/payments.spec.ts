@@ -63,6 +63,13 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await expect(page.getByRole("status").filter({ hasText: "Payment refunded" })).toContainText(/We refunded your payment of \$[\d,.]+ in full: the job was cancelled\./);
   await expect(page.getByText("To pay", { exact: true })).toHaveCount(0);
   await expect(page.getByText("Quoted (nothing to pay)", { exact: true })).toBeVisible();
+  // The job had a payment: its receipt is still offered, and the list of repairs says the money went back.
+  await expect(page.getByRole("link", { name: "Download your receipt (PDF)" })).toBeVisible();
+  const receiptPdf = await page.request.get(`/api/jobs/${jobId}/receipt`);
+  expect(receiptPdf.status()).toBe(200);
+  expect(receiptPdf.headers()["content-type"]).toBe("application/pdf");
+  await page.goto("/jobs");
+  await expect(page.getByRole("link", { name: /Re-wax the desk top/ })).toContainText(/Refunded \$[\d,.]+/);
 });
 
 test("cancelling on the payment page comes back with a clear message and nothing charged", async ({ page }) => {
