@@ -138,9 +138,11 @@ export function jobStateLabel(job: Pick<RepairJob, "state" | "origin" | "covered
  * left to pay). A partly covered job shows what the owner pays. A job whose payments were given back
  * (refundedMinor, summed by the list queries in lib/repairs/jobs.ts) says so with the amount refunded.
  */
-export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency" | "origin"> & { refundedMinor?: number }, country: string): string {
+export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency" | "origin"> & { state?: RepairJob["state"]; refundedMinor?: number }, country: string): string {
   if (job.refundedMinor) return `Refunded ${formatMoney(job.refundedMinor, job.currency, country)}`;
-  return jobIsCovered(job) ? coverWords(job).whole : formatMoney(job.totalMinor, job.currency, country);
+  if (!jobIsCovered(job)) return formatMoney(job.totalMinor, job.currency, country);
+  // In the "covered" state the job's badge already names who covers it (jobStateLabel).
+  return job.state === "covered" ? "Nothing to pay" : coverWords(job).whole;
 }
 
 /** The warranty (or, for a plan visit, the care plan) pays for all of the job: the owner owes nothing. */

@@ -35,7 +35,7 @@ import { getClient } from "@/lib/clients/get";
 import { linkAccountToClients } from "@/lib/clients/link";
 import { listClients } from "@/lib/clients/list";
 import { clientTimeline, TIMELINE_KINDS } from "@/lib/clients/timeline";
-import { jobAmountText } from "@/lib/repairs/states";
+import { jobAmountText, jobStateLabel } from "@/lib/repairs/states";
 import { listOwnerJobs, listStudioJobs } from "@/lib/repairs/jobs";
 import { updateClient } from "@/lib/clients/update";
 import { AppError } from "@/lib/errors";
@@ -338,7 +338,9 @@ describe("a covered repair job's amount", () => {
     expect(quoted).toContain("Quote sent for “Mend the edge (invented)”: $54.00");
     for (const rows of [listStudioJobs(staff, {}), listOwnerJobs(owner)]) {
       const amount = (id: string) => jobAmountText(rows.find((r) => r.id === id)!, studio.country);
-      expect(amount(covered.id)).toBe("Covered by the warranty");
+      // The covered job's badge names the warranty; its amount says there is nothing to pay, never $0.00.
+      expect(jobStateLabel(rows.find((r) => r.id === covered.id)!)).toBe("Covered by the warranty");
+      expect(amount(covered.id)).toBe("Nothing to pay");
       expect(amount(partly.id)).toBe("$54.00");
     }
   });

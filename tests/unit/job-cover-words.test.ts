@@ -31,6 +31,10 @@ describe("who pays the covered part", () => {
     expect(jobFigures(plan, US).coveredLabel).toBe("Paid by the care plan (60 %)");
     expect(jobAmountText(job("plan", { totalMinor: 0, coveredPct: 100 }), "US")).toBe("Included in the care plan");
     expect(jobStateLabel(job("plan", { state: "covered", totalMinor: 0, coveredPct: 100 }))).toBe("Included in the care plan");
+    // Beside that badge in a list, the amount does not say it a second time.
+    expect(jobAmountText(job("plan", { state: "covered", totalMinor: 0, coveredPct: 100 }), "US")).toBe("Nothing to pay");
+    expect(jobAmountText(job("claim", { state: "covered", totalMinor: 0, coveredPct: 100 }), "US")).toBe("Nothing to pay");
+    expect(jobAmountText(job("plan", { state: "scheduled", totalMinor: 0, coveredPct: 100 }), "US")).toBe("Included in the care plan");
     expect(coverWords(plan).yours).toBe("Included in your care plan");
     expect(coverWords(plan, "Slab keeping (invented)").yours).toBe("Included in your care plan “Slab keeping (invented)”");
     expect(coverWords(job("claim"), "Slab keeping (invented)").yours).toBe("Covered by your warranty");
