@@ -29,6 +29,20 @@ type FormValues = Omit<BuilderInitial, "coats" | "coveredPct"> & { coats: string
 const ABOVE_LINES = ["title", "tasks", "coats"] as const;
 const BELOW_LINES = ["coveredPct", "notes"] as const;
 
+type QuoteBuilderProps = {
+  jobId: string;
+  initial: BuilderInitial;
+  lines: BuilderLine[];
+  products: Product[];
+  repairs: Repair[];
+  currency: string;
+  country: string;
+  exponent: number;
+  editable: boolean;
+  /** The covered percentage's label: whose share it is (coverWords in lib/repairs/states.ts). */
+  coveredField: string;
+};
+
 /**
  * The quote builder: maintenance tasks and repairs the care engine and the price list propose lines
  * from ("Propose lines"), then every line's description, quantity and unit price editable, typed lines
@@ -45,19 +59,7 @@ export function QuoteBuilder({
   exponent,
   editable,
   coveredField,
-}: {
-  jobId: string;
-  initial: BuilderInitial;
-  lines: BuilderLine[];
-  products: Product[];
-  repairs: Repair[];
-  currency: string;
-  country: string;
-  exponent: number;
-  editable: boolean;
-  /** The covered percentage's label: whose share it is (coverWords in lib/repairs/states.ts). */
-  coveredField: string;
-}) {
+}: QuoteBuilderProps) {
   const [formError, setFormError] = useState<string | null>(null);
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
   const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm) } });
@@ -241,15 +243,7 @@ function ClosedQuote({
   currency,
   country,
   coveredField,
-}: {
-  initial: BuilderInitial;
-  lines: BuilderLine[];
-  products: Product[];
-  repairs: Repair[];
-  currency: string;
-  country: string;
-  coveredField: string;
-}) {
+}: Omit<QuoteBuilderProps, "jobId" | "exponent" | "editable">) {
   const from = [
     ...repairs.filter((r) => initial.repairs.includes(r.key)).map((r) => r.label),
     ...initial.tasks.filter((t): t is keyof typeof CARE_TASK_LABELS => t in CARE_TASK_LABELS).map((t) => CARE_TASK_LABELS[t]),
