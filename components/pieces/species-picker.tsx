@@ -63,8 +63,13 @@ export function SpeciesPicker({
         value={text}
         placeholder="Type to search, e.g. walnut or Juglans"
         onFocus={() => setOpen(true)}
-        onBlur={() => {
-          setTimeout(() => setOpen(false), 150);
+        onBlur={(e) => {
+          // Closed a moment later (an option's press lands first), unless the field has focus again by
+          // then: a stale close shut the list the person had just reopened by typing.
+          const input = e.currentTarget;
+          setTimeout(() => {
+            if (document.activeElement !== input) setOpen(false);
+          }, 150);
           if (!text.trim() && optional) onChange(null);
           else if (selected && text !== selected.commonName) setText(selected.commonName);
           onBlur?.();
