@@ -36,7 +36,7 @@ export function ClientTimeline({ clientId }: { clientId: string }) {
                 {formatInstant(e.at, e.allDay ? "UTC" : data.timeZone, { time: !e.allDay })}
               </time>
               {e.href ? (
-                <Link href={e.href} className="text-ink underline-offset-2 hover:text-resin hover:underline">
+                <Link href={e.href} className="text-resin underline underline-offset-2">
                   {e.title}
                 </Link>
               ) : (

@@ -149,7 +149,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
               {data.rows.map((r) => (
                 <tr key={r.id} className="align-top hover:bg-resin-soft/60 [&>td]:border-b [&>td]:border-line [&>td]:px-4 [&>td]:py-3">
                   <td>
-                    <Link href={`/studio/clients/${r.id}`} className="font-semibold text-ink underline-offset-2 hover:text-resin hover:underline">
+                    <Link href={`/studio/clients/${r.id}`} className="font-semibold text-resin underline underline-offset-2">
                       {r.name}
                     </Link>
                     <p className="text-sm text-muted">

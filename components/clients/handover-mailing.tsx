@@ -86,12 +86,12 @@ export function HandoverMailing({ candidates, batches, initialBatchId, timeZone 
                         <input type="checkbox" className="size-5" aria-label={`Pick ${c.title}`} checked={picked.has(c.pieceId)} onChange={() => toggle(c.pieceId)} />
                       </td>
                       <td className="py-2 pr-3">
-                        <Link className="text-resin underline-offset-2 hover:underline" href={`/studio/pieces/${c.pieceId}`}>
+                        <Link className="text-resin underline underline-offset-2" href={`/studio/pieces/${c.pieceId}`}>
                           {c.title}
                         </Link>
                       </td>
                       <td className="py-2 pr-3">
-                        <Link className="text-resin underline-offset-2 hover:underline" href={`/studio/clients/${c.clientId}`}>
+                        <Link className="text-resin underline underline-offset-2" href={`/studio/clients/${c.clientId}`}>
                           {c.clientName}
                         </Link>
                         {c.email ? <span className="block text-xs text-muted">{c.email}</span> : null}
@@ -115,7 +115,7 @@ export function HandoverMailing({ candidates, batches, initialBatchId, timeZone 
               .filter((b) => b.id !== active)
               .map((b) => (
                 <li key={b.id}>
-                  <button type="button" className="min-h-11 text-left text-resin underline-offset-2 hover:underline" onClick={() => setActive(b.id)}>
+                  <button type="button" className="min-h-11 text-left text-resin underline underline-offset-2" onClick={() => setActive(b.id)}>
                     {formatInstant(b.createdAt, timeZone, { time: true })}: {b.sent} sent, {b.skipped.reduce((a, s) => a + s.count, 0)} skipped, {b.failed.length} failed{b.state === "done" ? "" : " (still going)"}
                   </button>
                 </li>
@@ -181,7 +181,7 @@ function MailingProgress({ batchId, timeZone, onDone }: { batchId: string; timeZ
               <ul className="mt-1 text-muted">
                 {data.failed.map((f) => (
                   <li key={f.pieceId}>
-                    <Link className="text-resin underline-offset-2 hover:underline" href={`/studio/pieces/${f.pieceId}`}>
+                    <Link className="text-resin underline underline-offset-2" href={`/studio/pieces/${f.pieceId}`}>
                       {f.title}
                     </Link>
                     : {f.reason}

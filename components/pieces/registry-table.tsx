@@ -227,7 +227,7 @@ export function RegistryTable() {
                     <Tick label={`Choose ${r.title}`} checked={chosen.has(r.id)} onChange={(on) => toggle([r.id], on)} />
                   </td>
                   <td>
-                    <Link href={`/studio/pieces/${r.id}`} className="font-semibold text-ink underline-offset-2 hover:text-resin hover:underline">
+                    <Link href={`/studio/pieces/${r.id}`} className="font-semibold text-resin underline underline-offset-2">
                       {r.title}
                     </Link>
                     <p className="text-sm text-muted">

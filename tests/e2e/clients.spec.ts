@@ -15,6 +15,9 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   await expect(page.getByRole("heading", { name: "Clients", level: 1 })).toBeVisible();
   // The demo's owners are the studio's clients from the start.
   await expect(page.getByRole("link", { name: "Jonah Reyes" })).toBeVisible();
+  // Links in the list, the client's pieces and the timeline read as links before any hover: underlined,
+  // as the other lists' links are (app/studio/plans/page.tsx).
+  await expect(page.getByRole("link", { name: "Jonah Reyes" })).toHaveCSS("text-decoration-line", "underline");
   const listAxe = await new AxeBuilder({ page }).analyze();
   expect(listAxe.violations, JSON.stringify(listAxe.violations, null, 2)).toEqual([]);
 
@@ -44,6 +47,9 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   // What happened before, from the studio's records: deliveries and registrations of their pieces.
   await expect(timeline.getByText(/^Delivered “/).first()).toBeVisible();
   await expect(timeline.getByText(/^Registered “.*” in Grainward$/).first()).toBeVisible();
+  await expect(timeline.getByRole("link").first()).toHaveCSS("text-decoration-line", "underline");
+  const theirPieces = page.getByRole("heading", { name: "Their pieces" }).locator("..");
+  await expect(theirPieces.getByRole("link").first()).toHaveCSS("text-decoration-line", "underline");
   // The consent Jonah gave when registering reads as a sentence: the source's label is lower-cased
   // at its first letter only, so the product's name keeps its capital.
   const consents = page.getByRole("list", { name: "Consent history, newest first" });
@@ -168,6 +174,7 @@ test("bulk hand-over mail: staff pick imported pieces, follow the mailing, and r
   await page.getByRole("link", { name: "Hand-over mail" }).click();
   await expect(page.getByRole("heading", { name: "Hand-over mail", level: 1 })).toBeVisible();
   await expect(page.getByRole("row", { name: new RegExp(`${word} stool`) })).toContainText("No consent to service mail");
+  await expect(page.getByRole("row", { name: new RegExp(`${word} stool`) }).getByRole("link").first()).toHaveCSS("text-decoration-line", "underline");
   const listAxe = await new AxeBuilder({ page }).analyze();
   expect(listAxe.violations, JSON.stringify(listAxe.violations, null, 2)).toEqual([]);
 

@@ -54,7 +54,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
               <ul className="divide-y divide-line">
                 {pieces.map((p) => (
                   <li key={p.id} className="py-2">
-                    <Link href={`/studio/pieces/${p.id}`} className="font-medium text-ink underline-offset-2 hover:text-resin hover:underline">
+                    <Link href={`/studio/pieces/${p.id}`} className="font-medium text-resin underline underline-offset-2">
                       {p.title}
                     </Link>
                     <p className="text-sm text-muted">
