@@ -89,6 +89,8 @@ test("staff record a piece with three layers, find it by search and by code, and
   await expect(page).toHaveURL(new RegExp(`q=${word.slice(0, 12).toLowerCase()}`));
   await expect(page.getByRole("link", { name: `${word} river table (e2e)` }).first()).toBeVisible();
   await expect(page.getByText(/1–1 of 1 piece/)).toBeVisible();
+  // The piece's link reads as a link before it is hovered: resin and underlined, as every other list's links.
+  await expect(page.getByRole("link", { name: `${word} river table (e2e)` }).first()).toHaveCSS("text-decoration-line", "underline");
   // The view survives a reload (state in the URL).
   await page.reload();
   await expect(page.getByLabel("Search pieces")).toHaveValue(word.slice(0, 12).toLowerCase());
@@ -114,6 +116,37 @@ test("staff record a piece with three layers, find it by search and by code, and
   expect(text).toContain(code);
   expect(text).toContain(`${word} river table (e2e)`);
   expect(text).toMatch(/Oily rags can catch fire by themselves/);
+});
+
+test("the species picker still lets a species be picked after the field is left and come back to", async ({ page }) => {
+  // The picker closes its list a moment after the field loses focus (components/pieces/species-picker.tsx),
+  // so that a press on an option lands first. The page's timers are held here so that close is still
+  // waiting when the person is back in the field and typing: it must then leave the reopened list alone.
+  await page.clock.install();
+  await signInTo(page, ACCOUNTS.staff, "/studio/pieces/new");
+  const species = page.getByRole("combobox", { name: "Primary species" });
+  const list = page.getByRole("listbox", { name: "Primary species" });
+  await species.click();
+  await expect(list).toBeVisible();
+  await page.clock.pauseAt(await page.evaluate(() => Date.now() + 1_000));
+  await species.press("Tab");
+  await expect(species).not.toBeFocused();
+  await species.click();
+  await species.fill("juglans");
+  await expect(list.getByRole("option", { name: /Black walnut/ })).toBeVisible();
+  await page.clock.runFor(1_000); // the close set when the field was left comes due
+  await expect(list).toBeVisible();
+  await list.getByRole("option", { name: /Black walnut/ }).click();
+  await expect(species).toHaveValue("Black walnut");
+  await expect(list).toBeHidden();
+  // Left for good, the list does close once its moment has passed.
+  await species.press("ArrowDown");
+  await expect(list).toBeVisible();
+  await species.press("Tab");
+  await page.clock.runFor(1_000);
+  await expect(list).toBeHidden();
+  await expect(species).toHaveValue("Black walnut");
+  await page.clock.resume();
 });
 
 test("the URL holds filters and sorting, and the CSV export follows them", async ({ page }) => {
