@@ -11,20 +11,21 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { formatMinorUnits } from "@/lib/care/quote";
 import { formatMoney } from "@/lib/format";
-import { CARE_TASK_KINDS, CARE_TASK_LABELS } from "@/lib/care/vocabulary";
+import { M2_PER_FT2 } from "@/lib/care/units";
+import { CARE_TASK_KINDS, CARE_TASK_LABELS, SURFACE_LABELS, type Surface } from "@/lib/care/vocabulary";
 import { LINE_KIND_LABELS, LINE_KINDS, LINE_SOURCE_LABELS, LINE_UNIT_LABELS, LINE_UNITS, parseMajorAmount, type LineDraft } from "@/lib/repairs/lines";
 
 type Product = { id: string; name: string; finishClassLabel: string };
 type Repair = { key: string; label: string };
 export type BuilderLine = LineDraft & { proposed: { quantity: number; unitPriceMinor: number } | null };
-export type BuilderInitial = { title: string; tasks: string[]; repairs: string[]; productIds: string[]; coats: number; travel: boolean; coveredPct: number; notes: string };
+export type BuilderInitial = { title: string; tasks: string[]; repairs: string[]; productIds: string[]; coats: number; travel: boolean; coveredPct: number; notes: string; areasM2?: Partial<Record<Surface, number>> };
 
 const QUANTITY = /^\s*\d{1,6}(\.\d{1,3})?\s*$/;
 /** A checkbox group reads as a list whether one box or several exist. */
 const list = (x: unknown): string[] => (Array.isArray(x) ? x : typeof x === "string" ? [x] : []);
 
 type FormLine = Omit<BuilderLine, "quantity" | "unitPriceMinor"> & { quantity: string; unitPrice: string };
-type FormValues = Omit<BuilderInitial, "coats" | "coveredPct"> & { coats: string; coveredPct: string; lines: FormLine[] };
+type FormValues = Omit<BuilderInitial, "coats" | "coveredPct" | "areasM2"> & { coats: string; coveredPct: string; lines: FormLine[]; areas: Partial<Record<Surface, string>> };
 /** The fields the schema checks, above the lines and below them, in the order the form shows them. */
 const ABOVE_LINES = ["title", "tasks", "coats"] as const;
 const BELOW_LINES = ["coveredPct", "notes"] as const;
@@ -41,7 +42,15 @@ type QuoteBuilderProps = {
   editable: boolean;
   /** The covered percentage's label: whose share it is (coverWords in lib/repairs/states.ts). */
   coveredField: string;
+  /** Work the proposal priced nothing for, its surface having no size on the piece's record, in words (lib/repairs/pricing unsizedWords). */
+  unsized: string[];
+  /** The surfaces the record has no size for, whose area staff may type on this quote. */
+  sizeFields: Surface[];
+  units: "metric" | "imperial";
 };
+
+/** A surface's area in the studio's units, as the size field shows it and sends it back (m²). */
+const areaUnit = (units: QuoteBuilderProps["units"]) => (units === "metric" ? { label: "m²", perM2: 1 } : { label: "ft²", perM2: 1 / M2_PER_FT2 });
 
 /**
  * The quote builder: maintenance tasks and repairs the care engine and the price list propose lines
@@ -59,10 +68,15 @@ export function QuoteBuilder({
   exponent,
   editable,
   coveredField,
+  unsized,
+  sizeFields,
+  units,
 }: QuoteBuilderProps) {
+  const unit = areaUnit(units);
+  const typedAreas = Object.fromEntries(Object.entries(initial.areasM2 ?? {}).map(([s, m2]) => [s, String(Number((m2 * unit.perM2).toFixed(2)))]));
   const [formError, setFormError] = useState<string | null>(null);
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
-  const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm) } });
+  const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm), areas: typedAreas } });
   const { register, handleSubmit, formState, control, setError, setFocus } = form;
   const fields = useFieldArray({ control, name: "lines" });
   const { run, busy } = useRefreshingMutation(
@@ -99,9 +113,14 @@ export function QuoteBuilder({
         const { unitPrice: _p, proposed: _x, ...rest } = l;
         return { ...rest, quantity: l.quantity.trim(), unitPriceMinor: unitPriceMinor ?? 0 };
       });
-      const body = { title: v.title, notes: v.notes, tasks: list(v.tasks), repairs: list(v.repairs), productIds: list(v.productIds), coats: v.coats, travel: v.travel, coveredPct: v.coveredPct, ...(withLines ? { lines: sent } : {}) };
+      // Sizes typed in the studio's units go to the server in m² (an empty field: no size).
+      const areasM2 = Object.fromEntries(sizeFields.flatMap((s) => (v.areas?.[s]?.trim() ? [[s, Number(v.areas[s]) / unit.perM2]] : [])));
+      const body = { title: v.title, notes: v.notes, tasks: list(v.tasks), repairs: list(v.repairs), productIds: list(v.productIds), coats: v.coats, travel: v.travel, coveredPct: v.coveredPct, areasM2, ...(withLines ? { lines: sent } : {}) };
       // The server's own schema, checked on the same press: every field's problem shows at once, the first focused.
       const problems = (await import("@/lib/validation/jobs")).quoteProblems(body);
+      const badArea = sizeFields.find((s) => problems[`areasM2.${s}`]);
+      for (const s of sizeFields) if (problems[`areasM2.${s}`]) setError(`areas.${s}`, { message: problems[`areasM2.${s}`] });
+      if (badArea) return setFocus(`areas.${badArea}`);
       const [above, below] = [ABOVE_LINES.filter((f) => problems[f]), BELOW_LINES.filter((f) => problems[f])];
       for (const f of [...above, ...below]) setError(f, { message: problems[f] });
       const first = [...above, ...(withLines ? badLines : []), ...below][0];
@@ -120,7 +139,18 @@ export function QuoteBuilder({
       <fieldset disabled={busy} className="space-y-5">
         <TextField label="Job title" {...register("title")} error={formState.errors.title?.message} />
 
-        <details className="rounded-lg border border-line bg-white p-3" open={lines.length === 0 || Boolean(formState.errors.tasks ?? formState.errors.coats)}>
+        {unsized.length ? (
+          <Notice tone="warn" title="Some work has no size to price it from">
+            <ul className="list-disc space-y-1 pl-5">
+              {unsized.map((words) => (
+                <li key={words}>{words}</li>
+              ))}
+            </ul>
+            <p className="mt-1">Type its area under “What the lines are proposed from” and press “Propose lines”, or add typed lines with the hours and amounts.</p>
+          </Notice>
+        ) : null}
+
+        <details className="rounded-lg border border-line bg-white p-3" open={lines.length === 0 || unsized.length > 0 || Boolean(formState.errors.tasks ?? formState.errors.coats ?? formState.errors.areas)}>
           <summary className="cursor-pointer font-medium">What the lines are proposed from</summary>
           <div className="mt-3 space-y-4">
             <fieldset className="space-y-2">
@@ -167,6 +197,20 @@ export function QuoteBuilder({
                 Charge the travel fee
               </label>
             </div>
+            {sizeFields.length ? (
+              <div className="grid gap-4 sm:grid-cols-2">
+                {sizeFields.map((s) => (
+                  <TextField
+                    key={s}
+                    label={`${SURFACE_LABELS[s]} area for this quote (${unit.label})`}
+                    hint={`Optional: one face, for work on the ${SURFACE_LABELS[s].toLowerCase()}. The piece's record has no size for it.`}
+                    inputMode="decimal"
+                    {...register(`areas.${s}`)}
+                    error={formState.errors.areas?.[s]?.message}
+                  />
+                ))}
+              </div>
+            ) : null}
             <Button type="button" variant="secondary" disabled={saving} onClick={submit(false)}>
               Propose lines
             </Button>
@@ -243,7 +287,7 @@ function ClosedQuote({
   currency,
   country,
   coveredField,
-}: Omit<QuoteBuilderProps, "jobId" | "exponent" | "editable">) {
+}: Omit<QuoteBuilderProps, "jobId" | "exponent" | "editable" | "unsized" | "sizeFields" | "units">) {
   const from = [
     ...repairs.filter((r) => initial.repairs.includes(r.key)).map((r) => r.label),
     ...initial.tasks.filter((t): t is keyof typeof CARE_TASK_LABELS => t in CARE_TASK_LABELS).map((t) => CARE_TASK_LABELS[t]),

@@ -7,6 +7,7 @@ import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import type { ActionResult } from "@/lib/validation/action";
+import { SURFACE_LABELS, SURFACES } from "@/lib/care/vocabulary";
 import { LINE_KIND_LABELS, LINE_KINDS, LINE_UNIT_LABELS, LINE_UNITS } from "@/lib/repairs/lines";
 import type { RepairSettingsInput } from "@/lib/validation/repair-settings";
 
@@ -69,11 +70,11 @@ export function RepairSettingsForm({
 
       <fieldset className="space-y-3">
         <legend className="font-semibold">Repair price list</legend>
-        <p className="text-sm text-muted">Default prices in {currency}. Leave the price of an hourly task empty to charge your labour rate.</p>
+        <p className="text-sm text-muted">Default prices in {currency}. Leave the price of an hourly task empty to charge your labour rate. “Size from” is the surface a quote reads the size of for a task priced per area.</p>
         <ErrorLine>{e.priceList?.message}</ErrorLine>
         <ol className="space-y-3">
           {list.fields.map((f, i) => (
-            <li key={f.id} className="grid gap-3 rounded-lg border border-line bg-white p-3 sm:grid-cols-[2fr_1fr_1fr_1fr_auto] sm:items-end">
+            <li key={f.id} className="grid gap-3 rounded-lg border border-line bg-white p-3 sm:grid-cols-[2fr_1fr_1fr_1fr_1fr_auto] sm:items-end">
               <input type="hidden" {...register(`priceList.${i}.key`)} />
               <TextField label="Task" {...register(`priceList.${i}.label`)} error={e.priceList?.[i]?.label?.message} />
               <SelectField label="Kind (for tax)" {...register(`priceList.${i}.kind`)}>
@@ -90,6 +91,13 @@ export function RepairSettingsForm({
                   </option>
                 ))}
               </SelectField>
+              <SelectField label="Size from" {...register(`priceList.${i}.surface`)}>
+                {SURFACES.map((x) => (
+                  <option key={x} value={x}>
+                    {SURFACE_LABELS[x]}
+                  </option>
+                ))}
+              </SelectField>
               <TextField label={`Price (${currency})`} inputMode="decimal" {...register(`priceList.${i}.price`)} error={e.priceList?.[i]?.price?.message} />
               <Button type="button" variant="secondary" onClick={() => list.remove(i)} aria-label={`Remove ${f.label || `task ${i + 1}`}`}>
                 Remove
@@ -97,7 +105,7 @@ export function RepairSettingsForm({
             </li>
           ))}
         </ol>
-        <Button type="button" variant="secondary" onClick={() => list.append({ key: "", label: "", kind: "labour", unit: "h", price: "" })}>
+        <Button type="button" variant="secondary" onClick={() => list.append({ key: "", label: "", kind: "labour", unit: "h", surface: "top", price: "" })}>
           Add a task
         </Button>
       </fieldset>

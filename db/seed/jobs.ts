@@ -3,7 +3,7 @@
 import { and, eq, isNotNull } from "drizzle-orm";
 import type { CareTaskKind } from "@/lib/care/vocabulary";
 import { TASK_KIND_BY_FINISH_CLASS } from "@/lib/care/vocabulary";
-import { priceJob, totals } from "@/lib/repairs/pricing";
+import { priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
 import type { Db } from "../client";
 import { finishProducts, payments, pieces, repairJobs, studios, type RepairJob } from "../schema";
 
@@ -38,7 +38,7 @@ export function seedJobs(db: Db, studioId: string, today: Date): Record<string, 
         coveredPct: spec.coveredPct ?? 0,
         notes: "",
       };
-      const priced = totals(priceJob(studio, piece, input, products));
+      const priced = totals(priceJob(studio, pricedPiece(tx, piece), input, products));
       const at = new Date(today.getTime() - (20 - i * 3) * day);
       const sent = spec.state !== "draft";
       const job = tx

@@ -6,7 +6,7 @@ import { and, eq, inArray } from "drizzle-orm";
 import { hashPassword } from "@/lib/auth/password";
 import { addDays, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
-import { priceJob, totals } from "@/lib/repairs/pricing";
+import { priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
 import { jobDurationMin } from "@/lib/visits/availability";
 import { visitUid } from "@/lib/visits/ics";
 import type { Db } from "../client";
@@ -66,7 +66,7 @@ export async function seedVisits(db: Db, studioId: string, today: Date, doneJobI
       if (!piece?.ownerId) return;
       const wanted = new Set(spec.tasks);
       const input = { title: spec.title, tasks: spec.tasks, productIds: products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1), coats: 1, travel: true, coveredPct: spec.state === "covered" ? 100 : 0, notes: "" };
-      const priced = totals(priceJob(studio, piece, input, products));
+      const priced = totals(priceJob(studio, pricedPiece(tx, piece), input, products));
       const paidAt = new Date(today.getTime() - (6 - i) * 86_400_000);
       const job = tx
         .insert(repairJobs)

@@ -3,7 +3,7 @@
 // the scheduler process uses it too.
 import type { CareLogRow, FinishLayer, FinishProduct, Piece } from "@/db/schema";
 import { topArea, type TopShape } from "@/lib/care/area";
-import type { Surface } from "@/lib/care/vocabulary";
+import type { FinishClass, Surface } from "@/lib/care/vocabulary";
 import { careSchedule, type CareFinishLayer, type CareLogEntry, type CarePiece, type CareSchedule, type CatalogEntry } from "@/lib/care/schedule";
 import { clampStoredDate } from "@/lib/validation/dates";
 
@@ -35,6 +35,18 @@ export function recordedAreaM2(row: PieceShapeRow, surface: Surface): number | n
   if (surface !== "top") return null;
   const shape = topShape(row);
   return shape ? topArea(shape).m2 : null;
+}
+
+/**
+ * The surface a proposed layer of `finishClass` goes on: the one surface whose outermost layer (the
+ * highest position of its stack) is of that class, the layer it refreshes. Null where no surface's
+ * outermost layer is, or more than one's (an oiled top and base): the technician chooses.
+ */
+export function refreshedSurface(layers: readonly Pick<FinishLayer, "surface" | "position" | "finishClass">[], finishClass: FinishClass): Surface | null {
+  const outermost = new Map<Surface, Pick<FinishLayer, "position" | "finishClass">>();
+  for (const l of layers) if ((outermost.get(l.surface)?.position ?? -1) < l.position) outermost.set(l.surface, l);
+  const surfaces = [...outermost].filter(([, l]) => l.finishClass === finishClass).map(([surface]) => surface);
+  return surfaces.length === 1 ? surfaces[0]! : null;
 }
 
 export function toCarePiece(row: Piece): CarePiece {

@@ -9,7 +9,7 @@ import { careLogEntries, finishProducts, pieces, studios, type Piece, type Studi
 import { addDays, localDate } from "@/lib/care/dates";
 import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { ownedPieceRow } from "@/lib/owner/pieces";
-import { priceJob } from "@/lib/repairs/pricing";
+import { priceJob, pricedPiece, type PricedPiece } from "@/lib/repairs/pricing";
 import { PLAN_STATE_LABELS, type PlanState } from "./states";
 import { livePlanOfPiece } from "./subscriptions";
 import { planOfferLines, type PlanOfferLine } from "./offer-lines";
@@ -36,10 +36,14 @@ export type PlanOffer = {
 
 export type PiecePlan = PricedPlan & { subscriptionId: string; name: string; version: number; state: PlanState; stateLabel: string; periodEnd: number | null; paidBy: "card" | "other" };
 
-/** The one-off price of a studio visit doing `kind`, priced as a repair job would be (tax included). */
-function visitPrice(studio: Studio, piece: Piece, kind: CareTaskKind, products: (typeof finishProducts.$inferSelect)[]): number {
+/**
+ * The one-off price of a studio visit doing `kind`, priced as a repair job would be (tax included); null
+ * where the work is on a surface the piece's record has no size for (no price is made up for it).
+ */
+function visitPrice(studio: Studio, piece: PricedPiece, kind: CareTaskKind, products: (typeof finishProducts.$inferSelect)[]): number | null {
   const productIds = products.filter((p) => TASK_KIND_BY_FINISH_CLASS[p.finishClass] === kind).map((p) => p.id).slice(0, 1);
-  return priceJob(studio, piece, { title: "Care visit", tasks: [kind], repairs: [], productIds, coats: 1, travel: true, coveredPct: 0, notes: "" }, products).totalMinor;
+  const priced = priceJob(studio, piece, { title: "Care visit", tasks: [kind], repairs: [], productIds, coats: 1, travel: true, coveredPct: 0, notes: "" }, products);
+  return priced.unsized.length ? null : priced.totalMinor;
 }
 
 /** The owner's own care log of the piece since `since` (lib/plans/savings reads the window). */
@@ -62,7 +66,8 @@ export function fittingOffers(studio: Studio, piece: Piece, ownerId: string | nu
   const today = localDate(now, studio.timeZone);
   const log = ownerId ? ownerLogSince(db, piece, ownerId, addDays(today, -LAST_YEAR_DAYS)) : [];
   let products: (typeof finishProducts.$inferSelect)[] | null = null;
-  const priceOfTask = (kind: CareTaskKind) => visitPrice(studio, piece, kind, (products ??= db.select().from(finishProducts).where(eq(finishProducts.studioId, studio.id)).all()));
+  let priced: PricedPiece | null = null;
+  const priceOfTask = (kind: CareTaskKind) => visitPrice(studio, (priced ??= pricedPiece(db, piece)), kind, (products ??= db.select().from(finishProducts).where(eq(finishProducts.studioId, studio.id)).all()));
   return templates.map((t): PlanOffer => {
     const price = planPrice(studio, t);
     const lastYear = lastYearSavings({ log, today, includedTasks: t.included.tasks, priceOfTask, planPerIntervalMinor: price.totalMinor, interval: t.interval });

@@ -13,7 +13,7 @@ import { formatDate, formatInstant } from "@/lib/format/dates";
 import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
 import { jobUrl } from "@/lib/repairs/mail";
-import { priceJob, totals } from "@/lib/repairs/pricing";
+import { priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
 import { listJobSlots } from "@/lib/visits/slots";
 import { planMailContext } from "./plan-mail";
 import { PLAN_COVERS } from "./states";
@@ -61,7 +61,7 @@ export function createVisitJob({ sub, template }: Live, dueOn: string, db: Db = 
       coveredPct: 100 - template.included.visitSharePct,
       notes: `Included in the care plan “${template.name}”; due ${dueOn}.`,
     };
-    const priced = totals(priceJob(studio, piece, input, products));
+    const priced = totals(priceJob(studio, pricedPiece(tx, piece), input, products));
     const now = new Date();
     const job = tx
       .insert(repairJobs)

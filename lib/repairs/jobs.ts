@@ -4,15 +4,16 @@ import { getDb } from "@/db/client";
 import { claims, finishProducts, payments, pieces, planSubscriptions, planTemplates, planVisits, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
-import { CARE_TASK_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
+import { CARE_TASK_LABELS, SURFACES, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { conflict, notFound } from "@/lib/errors";
+import { recordedAreaM2 } from "@/lib/pieces/care-inputs";
 import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { jobVisibleTo, jobWhere } from "./access";
 import type { OwnerReach } from "./owner-reach";
 import { readLines } from "./lines";
-import { priceJob, totals } from "./pricing";
+import { priceJob, pricedPiece, proposeLines, totals } from "./pricing";
 import { assertMove } from "./states";
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
@@ -83,7 +84,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       const piece = tx.select().from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
       const coveredPct = claim.decision === "covered" ? 100 : claim.decision === "partly_covered" ? (claim.coveredPct ?? 0) : 0;
       const input = defaultQuoteInput(defaultJobTitle({ claim: claim.category }), CLAIM_WORK[claim.category] ?? { tasks: ["annual_check"] }, products, coveredPct);
-      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products, [], planRepairDiscount(piece.id, new Date()))) };
+      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, pricedPiece(tx, piece), input, products, [], planRepairDiscount(piece.id, new Date()))) };
     } else {
       const offer = tx.select().from(refreshOffers).where(and(eq(refreshOffers.id, sourceId), eq(refreshOffers.studioId, ctx.studio.id))).get();
       if (!offer) throw notFound("No such refresh offer in this studio.");
@@ -92,7 +93,7 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       const piece = tx.select().from(pieces).where(eq(pieces.id, offer.pieceId)).get()!;
       const kind = offer.taskKey.split(":")[1] as CareTaskKind | undefined;
       const input = defaultQuoteInput(defaultJobTitle({ refresh: kind }), { tasks: kind ? [kind] : ["annual_check"] }, products, 0);
-      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, piece, input, products, [], planRepairDiscount(piece.id, new Date()))) };
+      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, pricedPiece(tx, piece), input, products, [], planRepairDiscount(piece.id, new Date()))) };
     }
     const job = tx.insert(repairJobs).values(values).returning().get();
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.created", subjectType: "repair_job", subjectId: job.id, data: { from, sourceId } });
@@ -158,9 +159,19 @@ function visitPlanName(job: Pick<RepairJob, "id" | "studioId">): string | null {
 
 export type JobView = ReturnType<typeof loadJob>;
 
+/**
+ * A job of the studio's for staff: with the piece's finish stack (the quote prices each line from the
+ * surface its work is on, lib/repairs/pricing) and the work its quote's proposal could not size.
+ */
 export function getStudioJob(ctx: StudioContext, jobId: string) {
   const view = loadJob(jobWhere(ctx, jobId));
-  return { ...view, products: studioProducts(ctx.studio.id) };
+  const products = studioProducts(ctx.studio.id);
+  const piece = pricedPiece(getDb(), view.piece);
+  const input = { title: view.job.title, tasks: [], repairs: [], productIds: [], coats: 1, travel: false, coveredPct: view.job.coveredPct, notes: "", ...view.job.quoteInput };
+  const { unsized } = proposeLines(view.studio, piece, input, products);
+  // The quote may carry a size for each surface the record has none for (always the base and the edges).
+  const sizeFields = SURFACES.filter((s) => recordedAreaM2(piece, s) === null);
+  return { ...view, piece, products, unsized, sizeFields };
 }
 
 /**

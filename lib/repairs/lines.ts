@@ -2,6 +2,7 @@
 // warranty's share and tax, all in integer minor units (never a float amount). Pure, no server-only
 // import: the schema types its JSON columns with it, the demo seed and the editor's client use it too.
 import { currencyExponent } from "@/lib/care/quote";
+import type { Surface } from "@/lib/care/vocabulary";
 
 /** What a line is, for tax "per line kind". */
 export const LINE_KINDS = ["labour", "materials", "travel", "other"] as const;
@@ -185,6 +186,11 @@ export interface PriceListEntry {
   unit: LineUnit;
   /** null: an hourly task priced at the studio's labour rate. */
   unitPriceMinor: number | null;
+  /**
+   * The surface whose size an area-priced task is worked from (lib/repairs/price-list.ts entrySurface);
+   * absent on lists saved before it could be said.
+   */
+  surface?: Surface;
 }
 
 /** "85.5" typed in a currency with `exponent` decimals → 8550; null when it is not an amount. String math, no float. */

@@ -17,7 +17,7 @@ import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./
 import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
 import { jobUrl, quoteFigures } from "./mail";
 import { checkoutLineItems } from "./figures";
-import { priceJob, totals } from "./pricing";
+import { priceJob, totals, unsizedWords } from "./pricing";
 import { assertMove, AWAITING_PAYMENT, coverWords, OWNER_CAN_DECLINE, paymentCounts, QUOTE_EDITABLE } from "./states";
 
 const jobRow = (jobId: string) => getDb().select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
@@ -33,7 +33,11 @@ export async function updateJobQuote(ctx: StudioContext, jobId: string, input: J
   if (unknown.length) throw notFound("One of those products is not in this studio's catalog.");
   // A running care plan's repair discount, as it stands when the quote is priced.
   const priced = priceJob(studio, piece, input, products, job.lines, planRepairDiscount(piece.id, new Date()));
-  if (priced.lines.length === 0) throw badRequest("A quote needs at least one line.", { lines: ["Add a line, or pick a task to propose lines from."] });
+  if (priced.lines.length === 0) {
+    // Work on a surface with no size proposes nothing (lib/repairs/pricing): say which, and what to do.
+    const sizes = priced.unsized.map(unsizedWords).join(" ");
+    throw badRequest(sizes ? `${sizes} Type its area for this quote, or add a line.` : "A quote needs at least one line.", { lines: ["Add a line, or pick a task to propose lines from."] });
+  }
   await closeOpenCheckouts(job.id);
   // The owner may have finished paying the old quote a moment ago: that payment stands.
   const fresh = getStudioJob(ctx, jobId).job;

@@ -1,15 +1,16 @@
 // Pricing of a repair job: the care engine's quote() and the studio's repair price list propose the
 // lines, staff may change them, and lib/repairs/lines prices what is sent. The one place a job's money
 // is computed. No server-only import: the demo seed prices its jobs with it too.
-import type { finishProducts, pieces, Studio } from "@/db/schema";
-import { topArea } from "@/lib/care/area";
-import { quote, quoteProductFromCatalog } from "@/lib/care/quote";
-import { TASK_KIND_BY_FINISH_CLASS } from "@/lib/care/vocabulary";
+import { and, eq } from "drizzle-orm";
+import { finishLayers, type FinishLayer, type finishProducts, type Piece, type Studio } from "@/db/schema";
+import type { DbOrTx } from "@/lib/pieces/search-index";
+import { DEFAULT_LABOUR, quote, quoteProductFromCatalog } from "@/lib/care/quote";
+import { CARE_TASK_LABELS, SURFACE_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import { formatVolume } from "@/lib/format";
-import { topShape, toCatalog } from "@/lib/pieces/care-inputs";
+import { recordedAreaM2, refreshedSurface, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { priceLines, type JobLine, type LineDraft, type PlanDiscount, type PricedLines, type PricingRules, type StudioTax } from "./lines";
-import { priceListOf, proposedQuantity } from "./price-list";
+import { entryNeedsArea, entrySurface, priceListOf, proposedQuantity } from "./price-list";
 
 type Product = typeof finishProducts.$inferSelect;
 
@@ -21,19 +22,71 @@ export function pricingRulesOf(studio: Studio, planDiscount: PlanDiscount | null
   return { rounding: studio.roundingRule, taxMode: studio.taxMode, taxInclusive: studio.taxInclusive, ...(planDiscount ? { planDiscount } : {}) };
 }
 
+/** A piece as a quote prices it: its record and the finish stack that says which surface a task is on. */
+export type PricedPiece = Piece & { layers: readonly Pick<FinishLayer, "surface" | "position" | "finishClass">[] };
+
+/** The piece with its finish stack (every layer of every surface), read in the caller's transaction. */
+export function pricedPiece(db: DbOrTx, piece: Piece): PricedPiece {
+  const layers = db.select({ surface: finishLayers.surface, position: finishLayers.position, finishClass: finishLayers.finishClass }).from(finishLayers).where(and(eq(finishLayers.studioId, piece.studioId), eq(finishLayers.pieceId, piece.id))).all();
+  return { ...piece, layers };
+}
+
+/** Work the proposal priced nothing for: its size depends on a surface the piece's record has no size for. */
+export interface UnsizedWork {
+  /** The task or price-list entry, as the quote builder names it ("Re-oil", "Refinish the base"). */
+  label: string;
+  surface: Surface;
+}
+
+/** One unsized piece of work in staff's words, for the quote builder's notice and a refused quote. */
+export function unsizedWords(u: UnsizedWork): string {
+  const surface = SURFACE_LABELS[u.surface].toLowerCase();
+  return `${u.label}: the work is on the ${surface}, and the piece's record has no size for the ${surface}, so no lines were proposed for it.`;
+}
+
+const CLASS_BY_TASK = Object.fromEntries(Object.entries(TASK_KIND_BY_FINISH_CLASS).map(([cls, task]) => [task, cls])) as Partial<Record<CareTaskKind, FinishClass>>;
+
 /**
- * The lines the care engine and the price list propose for the input's tasks: labour from the top's
- * area and the task (at the labour rate), product from area × coats ÷ coverage in whole containers
- * (catalog prices), the travel fee, and each chosen repair from the studio's price list.
+ * The surface a maintenance task works on: the one whose outermost layer is of the task's finish class
+ * (lib/pieces/care-inputs refreshedSurface, as the technician's "What to bring" reads it), else the top
+ * where the stack does not say which.
  */
-export function proposeLines(studio: Studio, piece: typeof pieces.$inferSelect, input: JobQuoteInput, products: Product[]): LineDraft[] {
-  const shape = topShape(piece);
-  const areaM2 = shape ? topArea(shape).m2 : 0;
-  const out: LineDraft[] = [];
-  if (input.tasks.length) {
-    const chosen = toCatalog(products.filter((p) => input.productIds.includes(p.id)));
+export function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): Surface {
+  const cls = CLASS_BY_TASK[kind];
+  return (cls && refreshedSurface(layers, cls)) || "top";
+}
+
+/**
+ * The size of one face of a surface for a quote, m²: the piece's record's (recordedAreaM2: the top's,
+ * from its shape), else the size staff typed on this quote for a surface the record has none for; null
+ * where neither is known. Never one surface's size for another.
+ */
+export function quoteAreaM2(piece: Piece, input: Pick<JobQuoteInput, "areasM2">, surface: Surface): number | null {
+  return recordedAreaM2(piece, surface) ?? input.areasM2?.[surface] ?? null;
+}
+
+/**
+ * The lines the care engine and the price list propose for the input's tasks, each from the size of the
+ * surface its work is on (taskSurface, entrySurface; quoteAreaM2): labour from that area and the task (at
+ * the labour rate), product from area × coats ÷ coverage in whole containers (catalog prices), the travel
+ * fee, and each chosen repair from the studio's price list. Work whose size depends on a surface with no
+ * known size gets no line (a made-up size would be a made-up price) and is listed in `unsized`, for staff
+ * to type the size or the lines.
+ */
+export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuoteInput, products: Product[]): { lines: LineDraft[]; unsized: UnsizedWork[] } {
+  const labour: LineDraft[] = [];
+  const materials: LineDraft[] = [];
+  const unsized: UnsizedWork[] = [];
+  const chosen = toCatalog(products.filter((p) => input.productIds.includes(p.id)));
+  for (const task of input.tasks) {
+    const surface = taskSurface(piece.layers, task);
+    const areaM2 = DEFAULT_LABOUR[task].hoursPerM2 > 0 || chosen.some((e) => TASK_KIND_BY_FINISH_CLASS[e.finishClass] === task) ? quoteAreaM2(piece, input, surface) : 0;
+    if (areaM2 === null) {
+      unsized.push({ label: CARE_TASK_LABELS[task], surface });
+      continue;
+    }
     const q = quote({
-      tasks: input.tasks,
+      tasks: [task],
       areaM2,
       rates: { labourPerHourMinor: studio.labourRateMinor },
       products: chosen.map((entry) => ({ ...quoteProductFromCatalog(entry, TASK_KIND_BY_FINISH_CLASS[entry.finishClass]), label: entry.id, coats: input.coats })),
@@ -42,7 +95,7 @@ export function proposeLines(studio: Studio, piece: typeof pieces.$inferSelect, 
       currency: studio.currency,
     });
     for (const l of q.lines) {
-      if (l.kind === "labour") out.push({ kind: "labour", source: "labour_rate", ref: `task:${l.taskKind}`, description: l.description, quantity: l.quantity, unit: "h", unitPriceMinor: l.unitPriceMinor });
+      if (l.kind === "labour") labour.push({ kind: "labour", source: "labour_rate", ref: `task:${l.taskKind}`, description: l.description, quantity: l.quantity, unit: "h", unitPriceMinor: l.unitPriceMinor });
       else if (l.kind === "materials") {
         // The engine's line reads "<label>, <size> mL"; the label is the product's id (set above).
         const cut = l.description.lastIndexOf(", ");
@@ -51,32 +104,41 @@ export function proposeLines(studio: Studio, piece: typeof pieces.$inferSelect, 
         const name = products.find((p) => p.id === productId)?.name ?? productId;
         const sizeMl = Number(size.replace(" mL", ""));
         // The container size in the studio's units (the quote is the studio's document): "4.3 US fl oz (125 mL)".
-        out.push({ kind: "materials", source: "catalog", ref: `product:${productId}:${sizeMl}`, description: `${name}, ${formatVolume(sizeMl, studio.unitSystem)}`, quantity: l.quantity, unit: "container", unitPriceMinor: l.unitPriceMinor });
+        materials.push({ kind: "materials", source: "catalog", ref: `product:${productId}:${sizeMl}`, description: `${name}, ${formatVolume(sizeMl, studio.unitSystem)}`, quantity: l.quantity, unit: "container", unitPriceMinor: l.unitPriceMinor });
       }
     }
   }
+  const out: LineDraft[] = [...labour, ...materials];
   const list = priceListOf(studio);
   for (const key of input.repairs ?? []) {
     const entry = list.find((e) => e.key === key);
     if (!entry) continue;
+    const surface = entrySurface(entry);
+    const quantity = proposedQuantity(entry, entryNeedsArea(entry) ? quoteAreaM2(piece, input, surface) : null);
+    if (quantity === null) {
+      unsized.push({ label: entry.label, surface });
+      continue;
+    }
     const hourly = entry.unitPriceMinor === null;
     out.push({
       kind: entry.kind,
       source: hourly ? "labour_rate" : "price_list",
       ref: `list:${entry.key}`,
       description: entry.label,
-      quantity: proposedQuantity(entry, areaM2),
+      quantity,
       unit: entry.unit,
       unitPriceMinor: hourly ? studio.labourRateMinor : entry.unitPriceMinor!,
     });
   }
   if (input.travel && studio.travelFeeMinor > 0) out.push({ kind: "travel", source: "price_list", ref: "travel", description: "Travel", quantity: 1, unit: "trip", unitPriceMinor: studio.travelFeeMinor });
-  return out;
+  return { lines: out, unsized };
 }
 
 export interface PricedJob extends PricedLines {
   proposedLines: JobLine[];
   pricingRules: PricingRules;
+  /** Work the proposal could not size (proposeLines). */
+  unsized: UnsizedWork[];
 }
 
 /**
@@ -86,9 +148,9 @@ export interface PricedJob extends PricedLines {
  * care plan with a repair discount (`planDiscount`, lib/plans/repair-discount) takes it off every line
  * after the warranty's share; the pricing rules name the plan so the quote can say so.
  */
-export function priceJob(studio: Studio, piece: typeof pieces.$inferSelect, input: JobQuoteInput, products: Product[], keepTyped: readonly LineDraft[] = [], planDiscount: PlanDiscount | null = null): PricedJob {
+export function priceJob(studio: Studio, piece: PricedPiece, input: JobQuoteInput, products: Product[], keepTyped: readonly LineDraft[] = [], planDiscount: PlanDiscount | null = null): PricedJob {
   const opts = { currency: studio.currency, rounding: studio.roundingRule, tax: studioTax(studio), coveredPct: input.coveredPct, discountPct: planDiscount?.pct ?? 0 };
-  const proposal = proposeLines(studio, piece, input, products);
+  const { lines: proposal, unsized } = proposeLines(studio, piece, input, products);
   const proposedLines = priceLines(proposal, opts).lines;
   const sent = input.lines ?? [...proposal, ...keepTyped.filter((l) => l.source === "typed")];
   const withProposed = sent.map((l) => {
@@ -96,7 +158,7 @@ export function priceJob(studio: Studio, piece: typeof pieces.$inferSelect, inpu
     const { kind, source, ref, description, quantity, unit, unitPriceMinor } = l;
     return { kind, source, ...(ref ? { ref } : {}), description, quantity, unit, unitPriceMinor, proposed: p ? { quantity: p.quantity, unitPriceMinor: p.unitPriceMinor } : null };
   });
-  return { ...priceLines(withProposed, opts), proposedLines, pricingRules: pricingRulesOf(studio, planDiscount) };
+  return { ...priceLines(withProposed, opts), proposedLines, pricingRules: pricingRulesOf(studio, planDiscount), unsized };
 }
 
 /** The job's money columns from a priced job. */

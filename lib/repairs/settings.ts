@@ -11,7 +11,7 @@ import { formatBasisPoints } from "@/lib/format";
 import { assertAdmin, freshStudio, toBasisPoints, toMinorUnits } from "@/lib/settings";
 import { repairSettingsSchema, type RepairSettingsInput } from "@/lib/validation/repair-settings";
 import { LINE_KINDS, type PriceListEntry } from "./lines";
-import { priceListOf } from "./price-list";
+import { entrySurface, priceListOf } from "./price-list";
 import { inWords } from "@/lib/validation/words";
 
 /** The form's values from what the studio has saved. */
@@ -24,7 +24,7 @@ export function repairSettingsValues(ctx: StudioContext): RepairSettingsInput & 
     taxInclusive: s.taxInclusive,
     taxRates: Object.fromEntries(LINE_KINDS.map((k) => [k, formatBasisPoints(s.taxRatesBp[k] ?? 0)])) as RepairSettingsInput["taxRates"],
     taxNumber: s.taxNumber,
-    priceList: priceListOf(s).map((e) => ({ key: e.key, label: e.label, kind: e.kind, unit: e.unit, price: e.unitPriceMinor === null ? "" : formatMinorUnits(e.unitPriceMinor, s.currency) })),
+    priceList: priceListOf(s).map((e) => ({ key: e.key, label: e.label, kind: e.kind, unit: e.unit, surface: entrySurface(e), price: e.unitPriceMinor === null ? "" : formatMinorUnits(e.unitPriceMinor, s.currency) })),
     singleRatePct: formatBasisPoints(s.taxRateBp),
     currency: s.currency,
   };
@@ -56,7 +56,7 @@ export function updateRepairSettings(ctx: StudioContext, raw: RepairSettingsInpu
         throw badRequest(`${e.label}: ${why}`, { priceList: [`${e.label}: ${why}`] });
       }
     }
-    return { key, label: e.label, kind: e.kind, unit: e.unit, unitPriceMinor };
+    return { key, label: e.label, kind: e.kind, unit: e.unit, unitPriceMinor, ...(e.surface ? { surface: e.surface } : {}) };
   });
   const ratesBp = Object.fromEntries(LINE_KINDS.map((k) => [k, toBasisPoints(input.taxRates[k])]));
   return getDb().transaction((tx) => {

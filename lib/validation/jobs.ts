@@ -1,10 +1,16 @@
 import { z } from "zod";
-import { CARE_TASK_KINDS } from "@/lib/care/vocabulary";
+import { CARE_TASK_KINDS, SURFACES } from "@/lib/care/vocabulary";
 import { JOB_STATES } from "@/lib/care/vocabulary";
 import { LINE_KINDS, LINE_SOURCES, LINE_UNITS } from "@/lib/repairs/lines";
 import { inWords } from "@/lib/validation/words";
 
 const id = z.string().min(1).max(64);
+
+/** A surface's area as typed on a quote, m²: up to 50 m² (a very long dining top is under 4 m²). */
+const area = z.coerce
+  .number({ message: "Enter the area as a number." })
+  .positive("The area must be more than 0.")
+  .max(50, "That area is too large for one surface of a piece.");
 
 /** Up to three decimals: 0.75 h, 1.5 m², 120 mL. */
 const quantity = z.coerce
@@ -40,6 +46,11 @@ export const jobQuoteSchema = z
     travel: z.boolean(),
     coveredPct: z.coerce.number({ error: "Enter the share as a number from 0 to 100." }).int("Use a whole percent, from 0 to 100.").min(0, "Enter a share from 0 to 100 %.").max(100, "Enter a share from 0 to 100 %."),
     notes: z.string().max(4000, "Keep notes under 4,000 characters.").default(""),
+    /**
+     * Sizes staff typed for surfaces the piece's record has no size for (m², one face), so the work on
+     * them can be proposed (lib/repairs/pricing quoteAreaM2); the record's own size always wins.
+     */
+    areasM2: z.partialRecord(z.enum(SURFACES), area).optional(),
     lines: z.array(quoteLineSchema).max(40, "At most 40 lines.").optional(),
   })
   .refine((v) => v.tasks.length + (v.repairs?.length ?? 0) + (v.lines?.length ?? 0) > 0, { message: "Pick at least one task or add a line.", path: ["tasks"] });

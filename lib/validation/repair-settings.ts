@@ -1,6 +1,7 @@
 // The studio's repair prices, rounding and tax (settings → Repair prices and tax). Strings as typed;
 // lib/repairs/settings turns them into minor units and basis points.
 import { z } from "zod";
+import { SURFACES } from "@/lib/care/vocabulary";
 import { LINE_KINDS, LINE_UNITS, ROUNDING_RULES, TAX_MODES } from "@/lib/repairs/lines";
 
 const pct = z
@@ -14,6 +15,8 @@ export const priceListEntrySchema = z.object({
   label: z.string({ error: "Name the task." }).trim().min(1, "Name the task.").max(120, "Use at most 120 characters."),
   kind: z.enum(LINE_KINDS, { error: "Pick a kind." }),
   unit: z.enum(LINE_UNITS, { error: "Pick a unit." }),
+  /** The surface an area-priced task's size is read from (lib/repairs/price-list entrySurface); empty: not said. */
+  surface: z.enum(["", ...SURFACES], { error: "Pick a surface." }).default(""),
   /** Major units as typed; empty on an hourly task means "at the labour rate". */
   price: z
     .string()

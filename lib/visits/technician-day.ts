@@ -13,7 +13,7 @@ import { fileUrl } from "@/lib/claims/claim-row";
 import { displayPhone } from "@/lib/clients/phone";
 import { notFound } from "@/lib/errors";
 import { formatVolume, type UnitSystem } from "@/lib/format";
-import { recordedAreaM2 } from "@/lib/pieces/care-inputs";
+import { recordedAreaM2, refreshedSurface } from "@/lib/pieces/care-inputs";
 import { studioProducts } from "@/lib/pieces/registry";
 import { visitDay } from "@/lib/validation/dates";
 import { isStudioTechnician } from "./availability";
@@ -82,18 +82,6 @@ function whatToBring(job: RepairJob, piece: Piece, layers: readonly FinishLayer[
       cure: { lightUseHours: cure.lightUseHours, fullCureDays: cure.fullCureDays },
     };
   });
-}
-
-/**
- * The surface a proposed layer of `finishClass` goes on: the one surface whose outermost layer (the
- * highest position of its stack) is of that class, the layer it refreshes. Null where no surface's
- * outermost layer is, or more than one's (an oiled top and base): the technician chooses.
- */
-export function refreshedSurface(layers: readonly Pick<FinishLayer, "surface" | "position" | "finishClass">[], finishClass: FinishClass): Surface | null {
-  const outermost = new Map<Surface, Pick<FinishLayer, "position" | "finishClass">>();
-  for (const l of layers) if ((outermost.get(l.surface)?.position ?? -1) < l.position) outermost.set(l.surface, l);
-  const surfaces = [...outermost].filter(([, l]) => l.finishClass === finishClass).map(([surface]) => surface);
-  return surfaces.length === 1 ? surfaces[0]! : null;
 }
 
 const mapsUrl = (address: string) => `https://www.openstreetmap.org/search?${new URLSearchParams({ query: address })}`;

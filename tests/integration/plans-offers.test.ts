@@ -15,7 +15,7 @@ import { planPrice } from "@/lib/plans/price";
 import { createTemplate } from "@/lib/plans/templates";
 import { planTemplateSchema } from "@/lib/plans/validation";
 import { runReminderPass } from "@/lib/reminders/pass";
-import { priceJob } from "@/lib/repairs/pricing";
+import { priceJob, pricedPiece } from "@/lib/repairs/pricing";
 import { deliverPieceSchema } from "@/lib/validation/clients";
 import { memberContext, unique } from "../support/fixtures";
 import { getMail, listMail, waitForMail } from "../support/mail";
@@ -52,7 +52,7 @@ async function studioWithPlans() {
 function rewaxVisitMinor(studio: Studio, piece: Piece) {
   const products = getDb().select().from(finishProducts).all().filter((p) => p.studioId === studio.id);
   const wax = products.filter((p) => p.finishClass === "paste_wax").map((p) => p.id);
-  return priceJob(studio, piece, { title: "Care visit", tasks: ["rewax"], repairs: [], productIds: wax.slice(0, 1), coats: 1, travel: true, coveredPct: 0, notes: "" }, products).totalMinor;
+  return priceJob(studio, pricedPiece(getDb(), piece), { title: "Care visit", tasks: ["rewax"], repairs: [], productIds: wax.slice(0, 1), coats: 1, travel: true, coveredPct: 0, notes: "" }, products).totalMinor;
 }
 
 const money = (studio: Studio, minor: number) => formatMoney(minor, studio.currency, studio.country);

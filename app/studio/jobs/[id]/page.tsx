@@ -16,6 +16,7 @@ import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { priceListOf } from "@/lib/repairs/price-list";
+import { unsizedWords } from "@/lib/repairs/pricing";
 import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, jobTotalLabel, paymentCounts, QUOTE_EDITABLE, receiptPayment } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
@@ -29,9 +30,9 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const ctx = await forPage(requireStaff);
   const view = await forPage(async () => getStudioJob(ctx, id));
   const { visit } = visitOfJob(ctx, id);
-  const { job, piece, owner, payments, products, studio } = view;
+  const { job, piece, owner, payments, products, studio, unsized, sizeFields } = view;
   const q = job.quoteInput;
-  const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes };
+  const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes, areasM2: q.areasM2 ?? {} };
   const figures = jobFigures(job, studio);
   const editable = QUOTE_EDITABLE.includes(job.state);
   const paid = payments.some(paymentCounts);
@@ -60,6 +61,9 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             lines={job.lines.map(({ kind, source, ref, description, quantity, unit, unitPriceMinor, proposed }) => ({ kind, source, ...(ref ? { ref } : {}), description, quantity, unit, unitPriceMinor, proposed }))}
             editable={editable}
             coveredField={coverWords(job).field}
+            unsized={unsized.map(unsizedWords)}
+            sizeFields={sizeFields}
+            units={studio.unitSystem}
             currency={job.currency}
             country={studio.country}
             exponent={currencyExponent(job.currency)}

@@ -1,0 +1,120 @@
+// A quote prices each line from the size of the surface its work is on, against a real SQLite file: a
+// re-oil of an oiled base under a topcoated top is not priced from the top's area, the price list's
+// per-area tasks read the size of the surface they name, and where the piece's record has no size for
+// that surface nothing is proposed (staff are told, and may type the size for this quote).
+// Labour hours: lib/care/quote DEFAULT_LABOUR and lib/repairs/price-list REPAIR_HOURS (invented for the
+// demo — common practice, no published source). Product: area × coats ÷ coverage in whole containers
+// (lib/care/quantity.ts). Prices per m² and per hour are the invented studio's own.
+import { eq } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { claims, finishLayers, pieces, studios } from "@/db/schema";
+import { createJob, getStudioJob } from "@/lib/repairs/jobs";
+import { updateJobQuote } from "@/lib/repairs/payment";
+import { updateRepairSettings } from "@/lib/repairs/settings";
+import { jobQuoteSchema } from "@/lib/validation/jobs";
+import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+
+const SETTINGS = {
+  roundingRule: "cent" as const,
+  taxMode: "none" as const,
+  taxInclusive: false,
+  taxRates: { labour: "0", materials: "0", travel: "0", other: "0" },
+  taxNumber: "",
+  priceList: [
+    { key: "flatten_refinish", label: "Flatten and refinish the top", kind: "labour" as const, unit: "m2" as const, surface: "top" as const, price: "30.00" },
+    { key: "", label: "Strip and refinish the base (invented)", kind: "labour" as const, unit: "m2" as const, surface: "base" as const, price: "40.00" },
+  ],
+};
+
+/**
+ * A studio at $85.00/h, no travel, no tax; a 2000 × 900 mm top (1.8 m², L × W) under a ceramic topcoat
+ * over oil, on an oiled base; an oil at 24 m²/L in 125 mL tins at $19.00; a claim's job on it.
+ */
+async function pieceWithOiledBase(overrides: Partial<typeof pieces.$inferInsert> = {}) {
+  const studio = createStudio({ email: `${unique("studio")}@test.example`, currency: "USD", labourRateMinor: 8500, travelFeeMinor: 0 });
+  const admin = await memberContext(studio, "admin");
+  updateRepairSettings(admin, SETTINGS);
+  const staff = await memberContext(getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!, "staff");
+  const owner = await createUser();
+  const { piece } = createPiece(studio, { ownerId: owner.id, ...overrides });
+  getDb()
+    .insert(finishLayers)
+    .values([
+      { studioId: studio.id, pieceId: piece.id, surface: "top", position: 1, finishClass: "ceramic_topcoat", coats: 1, appliedOn: piece.deliveredOn },
+      { studioId: studio.id, pieceId: piece.id, surface: "base", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn },
+    ])
+    .run();
+  const oil = createProduct(studio, { containers: [{ ml: 125, priceMinor: 1900 }] });
+  const claim = createAcceptedClaim(studio, piece.id, owner.id, "chargeable");
+  getDb().update(claims).set({ category: "crack_gap" }).where(eq(claims.id, claim.id)).run();
+  const job = createJob(staff, "claim", claim.id);
+  return { staff, job, oil };
+}
+
+const quote = (fields: Record<string, unknown>) => jobQuoteSchema.parse({ title: "Base work", tasks: [], repairs: [], productIds: [], coats: 2, travel: false, coveredPct: 0, notes: "", ...fields });
+
+describe("each quote line is priced from the surface its work is on", () => {
+  it("a re-oil of the base gets no line from the top's 1.8 m², and staff are told the base has no size", async () => {
+    const { staff, job, oil } = await pieceWithOiledBase();
+    // Before: labour 0.5 h + 0.5 h/m² × 1.8 m² (the top's) = 1.4 → 1.5 h, and 1.8 m² × 2 ÷ 24 m²/L = 150 mL → 2 tins.
+    // Now nothing is proposed; a quote of that alone is refused in words that say why and what to do (400).
+    const refused = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id] })).catch((e: unknown) => e);
+    expect(refused).toMatchObject({ status: 400, message: "Re-oil: the work is on the base, and the piece's record has no size for the base, so no lines were proposed for it. Type its area for this quote, or add a line." });
+    const updated = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil", "annual_check"], productIds: [oil.id] }));
+    // The annual check needs no size: 0.5 h × $85.00 = $42.50; the re-oil gets no line.
+    expect(updated.lines).toEqual([expect.objectContaining({ ref: "task:annual_check", quantity: 0.5, amountMinor: 4250 })]);
+    const view = getStudioJob(staff, job.id);
+    expect(view.unsized).toEqual([{ label: "Re-oil", surface: "base" }]);
+    // The record has the top's size; the base's and the edges' may be typed on the quote.
+    expect(view.sizeFields).toEqual(["base", "edges"]);
+  });
+
+  it("with the base's size typed on the quote, labour and product are worked from it", async () => {
+    const { staff, job, oil } = await pieceWithOiledBase();
+    const updated = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], areasM2: { base: 0.6 } }));
+    // Labour: 0.5 h + 0.5 h/m² × 0.6 m² = 0.8 h → 1.0 h (quarter hours, rounded up) × $85.00 = $85.00
+    // (lib/care/quote DEFAULT_LABOUR, common practice, no published source).
+    expect(updated.lines.find((l) => l.kind === "labour")).toMatchObject({ ref: "task:reoil", quantity: 1, unitPriceMinor: 8500, amountMinor: 8500 });
+    // Product: 0.6 m² × 2 coats ÷ 24 m²/L = 0.05 L = 50 mL → one 125 mL tin at $19.00 (lib/care/quantity.ts).
+    expect(updated.lines.find((l) => l.kind === "materials")).toMatchObject({ quantity: 1, unitPriceMinor: 1900, amountMinor: 1900 });
+    expect(updated.totalMinor).toBe(8500 + 1900);
+    const view = getStudioJob(staff, job.id);
+    expect(view.unsized).toEqual([]);
+    expect(view.job.quoteInput.areasM2).toEqual({ base: 0.6 });
+  });
+
+  it("the price list's per-area tasks read the area of the surface they name: area × rate", async () => {
+    const { staff, job } = await pieceWithOiledBase();
+    const repairs = ["flatten_refinish", "strip_and_refinish_the_base_invented"];
+    const without = await updateJobQuote(staff, job.id, quote({ repairs }));
+    // The top: 2.0 m × 0.9 m = 1.80 m² × $30.00/m² = $54.00. The base has no size: no line (before: 1.8 m² × $40.00 = $72.00).
+    expect(without.lines).toEqual([expect.objectContaining({ ref: "list:flatten_refinish", quantity: 1.8, unit: "m2", unitPriceMinor: 3000, amountMinor: 5400 })]);
+    expect(getStudioJob(staff, job.id).unsized).toEqual([{ label: "Strip and refinish the base (invented)", surface: "base" }]);
+    const typed = await updateJobQuote(staff, job.id, quote({ repairs, areasM2: { base: 0.75 } }));
+    // The base as typed: 0.75 m² × $40.00/m² = $30.00.
+    expect(typed.lines.find((l) => l.ref === "list:strip_and_refinish_the_base_invented")).toMatchObject({ quantity: 0.75, unitPriceMinor: 4000, amountMinor: 3000 });
+    expect(typed.totalMinor).toBe(5400 + 3000);
+  });
+
+  it("the record's top size wins over a typed one; a top with no size on record gets no made-up 1 m²", async () => {
+    const sized = await pieceWithOiledBase();
+    const kept = await updateJobQuote(sized.staff, sized.job.id, quote({ repairs: ["flatten_refinish"], areasM2: { top: 3 } }));
+    expect(kept.lines[0]).toMatchObject({ quantity: 1.8, amountMinor: 5400 });
+    // A live-edge top whose measured area was never recorded.
+    const { staff, job } = await pieceWithOiledBase({ shapeKind: "measured", lengthMm: null, widthMm: null, measuredAreaM2: null });
+    const none = await updateJobQuote(staff, job.id, quote({ repairs: ["flatten_refinish"], tasks: ["annual_check"] }));
+    // Before: 1 m² × $30.00 = $30.00 from no size at all. The annual check needs no size: 0.5 h × $85.00 = $42.50.
+    expect(none.lines).toEqual([expect.objectContaining({ ref: "task:annual_check", quantity: 0.5, amountMinor: 4250 })]);
+    expect(getStudioJob(staff, job.id).unsized).toEqual([{ label: "Flatten and refinish the top", surface: "top" }]);
+    const typed = await updateJobQuote(staff, job.id, quote({ repairs: ["flatten_refinish"], areasM2: { top: 1.25 } }));
+    // 1.25 m² × $30.00/m² = $37.50.
+    expect(typed.lines[0]).toMatchObject({ quantity: 1.25, amountMinor: 3750 });
+  });
+
+  it("refuses a typed size that is no area, naming the field", () => {
+    const bad = jobQuoteSchema.safeParse({ title: "x", tasks: ["reoil"], productIds: [], coats: 1, travel: false, coveredPct: 0, areasM2: { base: -1 } });
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues[0]!.path).toEqual(["areasM2", "base"]);
+  });
+});
