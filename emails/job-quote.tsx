@@ -1,4 +1,4 @@
-import { coverWords } from "@/lib/repairs/states";
+import { quoteMailWords } from "@/lib/repairs/states";
 import { EmailLayout, Paragraph } from "./components/layout";
 import { ActionClose } from "./components/button";
 import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
@@ -8,14 +8,14 @@ export type JobQuoteEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
   studioName: string;
   pieceTitle: string;
   fullyCovered: boolean;
-  /** The heading of a quote that leaves nothing to pay: who covers it says (coverWords in lib/repairs/states.ts). */
-  coveredHeading: string;
+  /** The heading: who pays says (quoteMailWords in lib/repairs/states.ts), as in the subject. */
+  heading: string;
   url: string;
 };
 
-export function JobQuoteEmail({ ownerName, studioName, pieceTitle, fullyCovered, coveredHeading, url, ...money }: JobQuoteEmailProps) {
+export function JobQuoteEmail({ ownerName, studioName, pieceTitle, fullyCovered, heading, url, ...money }: JobQuoteEmailProps) {
   return (
-    <EmailLayout preview={fullyCovered ? `${coveredHeading}: ${pieceTitle}` : `Your quote from ${studioName}: ${money.total}`} heading={fullyCovered ? coveredHeading : "Your repair quote"}>
+    <EmailLayout preview={fullyCovered ? `${heading}: ${pieceTitle}` : `${heading} from ${studioName}: ${money.total}`} heading={heading}>
       <Paragraph>Hi {ownerName},</Paragraph>
       <Paragraph>
         {studioName} has priced the work on <strong>{pieceTitle}</strong>:
@@ -43,7 +43,7 @@ JobQuoteEmail.PreviewProps = {
   roundingNote: "Amounts are exact to the cent.",
   taxNumber: null,
   fullyCovered: false,
-  coveredHeading: coverWords({ origin: "studio", coveredPct: 100 }).mailHeading,
+  heading: quoteMailWords({ origin: "studio", coveredPct: 0, totalMinor: 9223 }, "Larchmere Slab & Resin (invented)", "Cherry writing desk").heading,
   url: "http://localhost:3000/jobs/example",
 } satisfies JobQuoteEmailProps;
 

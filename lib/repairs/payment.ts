@@ -18,7 +18,7 @@ import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
 import { jobUrl, quoteFigures } from "./mail";
 import { checkoutLineItems } from "./figures";
 import { priceJob, totals, unsizedWords } from "./pricing";
-import { assertMove, AWAITING_PAYMENT, coverWords, OWNER_CAN_DECLINE, paymentCounts, QUOTE_EDITABLE } from "./states";
+import { assertMove, AWAITING_PAYMENT, OWNER_CAN_DECLINE, paymentCounts, QUOTE_EDITABLE, quoteMailWords } from "./states";
 
 const jobRow = (jobId: string) => getDb().select().from(repairJobs).where(eq(repairJobs.id, jobId)).get()!;
 
@@ -64,6 +64,7 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
   const { job } = view;
   if (!view.owner) throw conflict("This piece has no registered owner to send the quote to.");
   const fullyCovered = job.totalMinor === 0;
+  const words = quoteMailWords(job, view.studio.name, view.piece.title);
   const updated = getDb().transaction((tx) => {
     const next = moveJob(tx, job, fullyCovered ? "covered" : "quoted", { quoteVersion: job.quoteVersion + 1, quotedAt: new Date() });
     recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.quote_sent", subjectType: "repair_job", subjectId: job.id, data: { quoteVersion: next.quoteVersion, totalMinor: job.totalMinor } });
@@ -74,14 +75,14 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
     to: view.owner.email,
     // An answer by e-mail lands in the job's conversation (lib/messages).
     replyTo: replyToFor(getDb(), { kind: "job", id: job.id }),
-    subject: fullyCovered ? `${coverWords(job).mailHeading} — ${view.piece.title}` : `Your repair quote from ${view.studio.name}`,
+    subject: words.subject,
     email: JobQuoteEmail({
       ownerName: view.owner.name,
       studioName: view.studio.name,
       pieceTitle: view.piece.title,
       ...quoteFigures(job, view.studio),
       fullyCovered,
-      coveredHeading: coverWords(job).mailHeading,
+      heading: words.heading,
       url: jobUrl(job.id),
     }),
   });

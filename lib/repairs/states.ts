@@ -124,7 +124,21 @@ export function coverWords(job: Cover, planName: string | null = null) {
     field: plan ? "Care plan share (%)" : "Warranty share (%)",
     /** The quote mail's heading (and, with the piece's title, its subject) when nothing is left to pay: a plan visit is no repair. */
     mailHeading: plan ? "Your care plan visit is included" : "Your repair is covered",
+    /** The quote mail's heading when the owner has something to pay: for a plan visit, their share of it (quoteMailWords). */
+    quoteHeading: plan ? "Your care plan visit: your share" : "Your repair quote",
   };
+}
+
+/**
+ * The quote mail's subject and heading, by who pays (coverWords): nothing left to pay reads as covered or
+ * included, with the piece's title; a plan visit with a share names the visit and the piece; any other
+ * job is the studio's repair quote.
+ */
+export function quoteMailWords(job: Cover & Pick<RepairJob, "totalMinor">, studioName: string, pieceTitle: string): { subject: string; heading: string } {
+  const words = coverWords(job);
+  if (job.totalMinor === 0) return { subject: `${words.mailHeading} — ${pieceTitle}`, heading: words.mailHeading };
+  if (job.origin === "plan") return { subject: `${words.quoteHeading} — ${pieceTitle}`, heading: words.quoteHeading };
+  return { subject: `${words.quoteHeading} from ${studioName}`, heading: words.quoteHeading };
 }
 
 /** A job's state for people, naming who covers a covered job: a plan visit is included in the plan, not warranty work. */

@@ -160,10 +160,26 @@ describe("buying and running a plan through the Stripe fake", () => {
     expect(jobOf(job!.id)).toMatchObject({ origin: "plan", coveredPct: 60, state: "quoted", quoteVersion: 2 });
     // The owner's page names the plan.
     expect(getOwnerJob(owner, job!.id).planName).toBe("Shared visits (quote words)");
-    const mail = await getMail((await waitForMail({ to: owner.email, subject: `Your repair quote from ${studio.name}`, since })).id);
+    const mail = await getMail((await waitForMail({ to: owner.email, subject: new RegExp(piece.title.replace(/[()]/g, "\\$&")), since })).id);
+    // Titled as the visit and the owner's share of it (coverWords, lib/repairs/states.ts), not a repair quote.
+    expect(mail.subject).toBe(`Your care plan visit: your share — ${piece.title}`);
+    expect(mail.html).toContain("Your care plan visit: your share");
     expect(mail.text).toContain("Paid by the care plan (60 %)");
     expect(mail.html).toContain("Paid by the care plan (60 %)");
-    expect(`${mail.subject}\n${mail.text}\n${mail.html}`).not.toMatch(/warranty/i);
+    expect(`${mail.subject}\n${mail.text}\n${mail.html}`).not.toMatch(/warranty|repair quote/i);
+
+    // A claim's job the warranty covers in part, and one the owner pays in full, keep "Your repair quote".
+    for (const [decision, title] of [["partly_covered", "Elm console (invented)"], ["chargeable", "Beech stool (invented)"]] as const) {
+      const { piece: claimed } = createPiece(studio, { ownerId: owner.id, title });
+      const claimJob = createJob(admin, "claim", createAcceptedClaim(studio, claimed.id, owner.id, decision, 40).id);
+      const sentAt = new Date();
+      await sendQuote(admin, claimJob.id);
+      expect(jobOf(claimJob.id)).toMatchObject({ origin: "claim", state: "quoted" });
+      const kept = await getMail((await waitForMail({ to: owner.email, subject: `Your repair quote from ${studio.name}`, since: sentAt })).id);
+      expect(kept.html).toContain(title);
+      expect(kept.html).toContain("Your repair quote");
+      expect(kept.html).not.toMatch(/care plan/i);
+    }
   });
 
   it("a plan visit re-quoted to leave nothing to pay: its quote mail says the visit is included, not a covered repair; a warranty job keeps its words (SMTP sink)", async () => {

@@ -5,7 +5,7 @@
 import { describe, expect, it } from "vitest";
 import type { RepairJob } from "@/db/schema";
 import { checkoutLineItems, jobFigures } from "@/lib/repairs/figures";
-import { coverWords, jobAmountText, jobStateLabel } from "@/lib/repairs/states";
+import { coverWords, jobAmountText, jobStateLabel, quoteMailWords } from "@/lib/repairs/states";
 
 const US = { country: "US", taxNumber: "" };
 
@@ -40,6 +40,11 @@ describe("who pays the covered part", () => {
     expect(coverWords(job("claim"), "Slab keeping (invented)").yours).toBe("Covered by your warranty");
     expect(coverWords(plan).field).toBe("Care plan share (%)");
     expect(coverWords(plan).mailHeading).toBe("Your care plan visit is included");
+    // A share left to pay: the quote mail names the visit and the owner's share, not a repair quote.
+    expect(quoteMailWords(plan, "Larchmere (invented)", "Walnut table (invented)")).toEqual({ subject: "Your care plan visit: your share — Walnut table (invented)", heading: "Your care plan visit: your share" });
+    for (const origin of ["claim", "studio", "refresh_offer"] as const) {
+      expect(quoteMailWords(job(origin), "Larchmere (invented)", "Walnut table (invented)")).toEqual({ subject: "Your repair quote from Larchmere (invented)", heading: "Your repair quote" });
+    }
     expect(checkoutLineItems(plan)[0]!.price_data.product_data.name).toBe("Care visit — 2 h, after the care plan's share");
     const everything = [...Object.values(coverWords(plan)), jobFigures(plan, US).coveredLabel, ...checkoutLineItems(plan).map((i) => i.price_data.product_data.name)];
     expect(everything.filter((w) => /warranty/i.test(w))).toEqual([]);
