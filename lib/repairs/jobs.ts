@@ -11,7 +11,7 @@ import { recordedAreaM2 } from "@/lib/pieces/care-inputs";
 import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { jobVisibleTo, jobWhere } from "./access";
-import type { OwnerReach } from "./owner-reach";
+import { ownerActsOnJob, type OwnerReach } from "./owner-reach";
 import { readLines } from "./lines";
 import { priceJob, pricedPiece, proposeLines, totals } from "./pricing";
 import { assertMove } from "./states";
@@ -29,7 +29,10 @@ function defaultQuoteInput(title: string, work: { tasks: CareTaskKind[]; repairs
   return { title, tasks: work.tasks, repairs: work.repairs ?? [], productIds, coats: 1, travel: true, coveredPct, notes: "" };
 }
 
-/** Accepted claims and accepted refresh offers of the studio that have no job yet. */
+/**
+ * Accepted claims and accepted refresh offers of the studio that have no job yet and can have one: the
+ * owner who asked still holds the piece (handedOnRefusal; the staff claim page says why when not).
+ */
 export function jobsToCreate(ctx: StudioContext) {
   const db = getDb();
   const fromClaims = db
@@ -38,7 +41,7 @@ export function jobsToCreate(ctx: StudioContext) {
     .innerJoin(pieces, eq(pieces.id, claims.pieceId))
     .innerJoin(users, eq(users.id, claims.ownerId))
     .leftJoin(repairJobs, eq(repairJobs.claimId, claims.id))
-    .where(and(eq(claims.studioId, ctx.studio.id), eq(claims.state, "accepted"), isNull(repairJobs.id)))
+    .where(and(eq(claims.studioId, ctx.studio.id), eq(claims.state, "accepted"), isNull(repairJobs.id), eq(pieces.ownerId, claims.ownerId)))
     .all();
   const fromOffers = db
     .select({ id: refreshOffers.id, taskKey: refreshOffers.taskKey, priceMinor: refreshOffers.priceMinor, currency: refreshOffers.currency, pieceTitle: pieces.title, ownerName: users.name, at: refreshOffers.acceptedAt })
@@ -46,7 +49,7 @@ export function jobsToCreate(ctx: StudioContext) {
     .innerJoin(pieces, eq(pieces.id, refreshOffers.pieceId))
     .innerJoin(users, eq(users.id, refreshOffers.userId))
     .leftJoin(repairJobs, eq(repairJobs.refreshOfferId, refreshOffers.id))
-    .where(and(eq(refreshOffers.studioId, ctx.studio.id), eq(refreshOffers.status, "accepted"), isNull(repairJobs.id)))
+    .where(and(eq(refreshOffers.studioId, ctx.studio.id), eq(refreshOffers.status, "accepted"), isNull(repairJobs.id), eq(pieces.ownerId, refreshOffers.userId)))
     .all();
   return { fromClaims, fromOffers };
 }
@@ -71,6 +74,20 @@ function defaultJobTitle(source: { claim: ClaimCategory } | { refresh: CareTaskK
   return task ? `Refresh visit: ${task.toLowerCase()}` : "Refresh visit";
 }
 
+/**
+ * Why an accepted claim or refresh offer can't become a repair job now, in staff's words, or null when it
+ * can. A job is the owner's to approve, pay and book, and an owner acts on a job only while they hold its
+ * piece (lib/repairs/owner-reach.ts ownerActsOnJob; for the claim itself, lib/claims/claim-row.ts
+ * requireOwnerActsOnClaim). After the piece changed hands — released, or registered by someone else — the
+ * former owner could do nothing with the job, and the piece's new owner never asked for it.
+ */
+export function handedOnRefusal(source: "claim" | "refresh_offer", askedBy: { ownerId: string | null }, piece: { ownerId: string | null }): string | null {
+  if (ownerActsOnJob(askedBy, piece)) return null;
+  return source === "claim"
+    ? "This piece changed hands after the claim was filed. The owner who filed it no longer holds the piece and can't approve, pay or book a repair, so no repair job can be opened from this claim. If the piece's new owner wants the repair, they can file a claim of their own."
+    : "This piece changed hands after the refresh offer was accepted. The owner who accepted it no longer holds the piece and can't approve, pay or book the visit, so no job can be opened from this offer.";
+}
+
 export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", sourceId: string): RepairJob {
   const db = getDb();
   const products = studioProducts(ctx.studio.id);
@@ -82,6 +99,8 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       if (claim.state !== "accepted") throw conflict("Only an accepted claim becomes a repair job.");
       if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.claimId, claim.id)).get()) throw conflict("This claim already has a repair job.");
       const piece = tx.select().from(pieces).where(eq(pieces.id, claim.pieceId)).get()!;
+      const handedOn = handedOnRefusal("claim", claim, piece);
+      if (handedOn) throw conflict(handedOn);
       const coveredPct = claim.decision === "covered" ? 100 : claim.decision === "partly_covered" ? (claim.coveredPct ?? 0) : 0;
       const input = defaultQuoteInput(defaultJobTitle({ claim: claim.category }), CLAIM_WORK[claim.category] ?? { tasks: ["annual_check"] }, products, coveredPct);
       values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, pricedPiece(tx, piece), input, products, [], planRepairDiscount(piece.id, new Date()))) };
@@ -91,6 +110,8 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       if (offer.status !== "accepted") throw conflict("Only an accepted refresh offer becomes a repair job.");
       if (tx.select({ id: repairJobs.id }).from(repairJobs).where(eq(repairJobs.refreshOfferId, offer.id)).get()) throw conflict("This offer already has a repair job.");
       const piece = tx.select().from(pieces).where(eq(pieces.id, offer.pieceId)).get()!;
+      const handedOn = handedOnRefusal("refresh_offer", { ownerId: offer.userId }, piece);
+      if (handedOn) throw conflict(handedOn);
       const kind = offer.taskKey.split(":")[1] as CareTaskKind | undefined;
       const input = defaultQuoteInput(defaultJobTitle({ refresh: kind }), { tasks: kind ? [kind] : ["annual_check"] }, products, 0);
       values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: offer.userId, origin: "refresh_offer", refreshOfferId: offer.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, pricedPiece(tx, piece), input, products, [], planRepairDiscount(piece.id, new Date()))) };

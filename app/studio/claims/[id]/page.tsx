@@ -17,6 +17,7 @@ import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import { getStaffClaim } from "@/lib/claims/view-claim";
 import { clientIdForOwner } from "@/lib/clients/get";
+import { handedOnRefusal } from "@/lib/repairs/jobs";
 
 export const metadata: Metadata = { title: "Claim" };
 export const dynamic = "force-dynamic";
@@ -41,6 +42,8 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
     return { ...found, ownerClientId: clientIdForOwner(ctx, found.owner.id) };
   });
   const { claim, piece, owner, coverage } = v;
+  // The piece changed hands since the claim was filed: no job can be opened from it (lib/repairs/jobs.ts).
+  const handedOn = handedOnRefusal("claim", { ownerId: owner.id }, piece);
   const a = claim.answers;
   const room = a.room;
   const waited = claim.waitMs;
@@ -142,6 +145,10 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                       </p>
                     ) : null}
                   </>
+                ) : claim.state === "accepted" && handedOn ? (
+                  <Notice tone="warn" title="No repair job for this claim">
+                    {handedOn}
+                  </Notice>
                 ) : claim.state === "accepted" ? (
                   <>
                     <p className="text-sm text-muted">Open the repair job to price the work and send the owner a quote.</p>
