@@ -21,7 +21,7 @@ import { formatInstant, formatMoney, formatZone } from "@/lib/format";
 import { sendMail } from "@/lib/mail";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { callStripe } from "@/lib/payments/stripe";
-import { planMailContext } from "./plan-mail";
+import { mailPaidAfterHandOn, planMailContext } from "./plan-mail";
 import { PLAN_FINAL } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { buyerHoldsPiece, moveSubscription, pieceUrl, studioSubscription } from "./subscriptions";
@@ -206,8 +206,9 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
     return { settled: reread(sub.id), held, refundMinor, handedOn };
   }).then(async ({ settled, held, refundMinor, handedOn }) => {
     const sub = settled.stripeSubscriptionId ? ((await syncPlanSubscription(settled.stripeSubscriptionId, undefined, settled)) ?? settled) : settled;
-    // Its words are a renewal's; a payment made after the hand-over is not one (the studio writes to them itself).
-    if (!handedOn) await mailHeldSettled(sub, held, ask.resolution, refundMinor);
+    // The settled mail's words are a renewal's; a payment made after the hand-over is not one and has its own.
+    if (handedOn) await mailPaidAfterHandOn(sub, held, "paid_back");
+    else await mailHeldSettled(sub, held, ask.resolution, refundMinor);
     return sub;
   });
 }

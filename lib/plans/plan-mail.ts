@@ -3,8 +3,12 @@
 // (emails/components/plan-mail.tsx). Read once here for the held-payment, ending, grace and visit mails.
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { pieces, studios, users, type Piece, type PlanSubscription, type PlanTemplate, type Studio, type User } from "@/db/schema";
+import { pieces, studios, users, type Piece, type PlanInvoice, type PlanSubscription, type PlanTemplate, type Studio, type User } from "@/db/schema";
 import type { PlanMailNames } from "@/emails/components/plan-mail";
+import { PlanPaidAfterHandOnEmail, planPaidAfterHandOnSubject } from "@/emails/plan-paid-after-hand-on";
+import { formatInstant, formatMoney } from "@/lib/format";
+import { sendMail } from "@/lib/mail";
+import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { templateOf } from "./templates";
 
 export type PlanMailContext = {
@@ -30,4 +34,19 @@ export function planMailContext(sub: PlanSubscription, template?: Pick<PlanTempl
     zone: owner.timeZone || studio.timeZone,
     names: { ownerName: owner.name, studioName: studio.name, planName: (template ?? templateOf(sub.studioId, sub.templateId)).name, pieceTitle: piece.title },
   };
+}
+
+/**
+ * Tells the person who paid for a plan after handing its piece on (lib/plans/held.ts) that the payment is
+ * held, or, once staff have paid it back, that it is on its way back. After the change is committed; a
+ * failed send never undoes it.
+ */
+export async function mailPaidAfterHandOn(sub: PlanSubscription, held: Pick<PlanInvoice, "amountMinor" | "currency" | "at">, stage: "held" | "paid_back"): Promise<void> {
+  await mailAfterCommit(stage === "held" ? "plan payment held" : "held plan payment paid back", async () => {
+    const context = planMailContext(sub);
+    if (!context) return;
+    const { owner, studio, zone } = context;
+    const props = { ...context.names, stage, amount: formatMoney(held.amountMinor, held.currency, studio.country), paidOn: formatInstant(held.at, zone, { time: true }) };
+    await sendMail({ studioId: sub.studioId, to: owner.email, subject: planPaidAfterHandOnSubject(props), email: PlanPaidAfterHandOnEmail(props), replyTo: studio.email || undefined });
+  });
 }

@@ -12,7 +12,7 @@ import { sendMail } from "@/lib/mail";
 import { callStripe, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { buyerHoldsPiece, moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
-import { planMailContext } from "./plan-mail";
+import { mailPaidAfterHandOn, planMailContext } from "./plan-mail";
 import { planPrice } from "./price";
 import { templateOf } from "./templates";
 
@@ -88,9 +88,10 @@ const isHeld = (sub: PlanSubscription, inv: Stripe.Invoice | null) => inv?.statu
 
 /**
  * Writes one Stripe invoice of the plan: paid or failed, and whether it counts (the plan's amount and
- * template version). A paid invoice that doesn't count is audited once, when first written, for staff.
+ * template version). A paid invoice that doesn't count is audited once, when first written, for staff;
+ * then it is answered (what was held), else null.
  */
-function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
+function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice): { amountMinor: number; currency: string; at: Date } | null {
   const paid = inv.status === "paid";
   const counts = paid && (matchesPlan(sub, inv) || takenByStaff(inv.id));
   const template = templateOf(sub.studioId, sub.templateId);
@@ -110,7 +111,7 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
     periodEnd: ms(inv.lines?.data?.[0]?.period?.end ?? inv.period_end),
     at: ms(inv.status_transitions?.paid_at ?? inv.created)!,
   };
-  getDb().transaction((tx) => {
+  return getDb().transaction((tx) => {
     const before = tx.select({ counts: planInvoices.counts, status: planInvoices.status }).from(planInvoices).where(eq(planInvoices.stripeInvoiceId, inv.id!)).get();
     tx.insert(planInvoices)
       .values(values)
@@ -119,7 +120,9 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice) {
     if (paid && !counts && !(before?.status === "paid" && !before.counts)) {
       const data = { stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, expectedMinor: sub.amountMinor, currency: values.currency, templateId: inv.parent?.subscription_details?.metadata?.templateId ?? null };
       recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_held", subjectType: "plan_subscription", subjectId: sub.id, data });
+      return { amountMinor: values.amountMinor, currency: values.currency, at: values.at };
     }
+    return null;
   });
 }
 
@@ -165,9 +168,10 @@ export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: s
       if (PLAN_FINAL.includes(fresh.state)) return { before: fresh, after: fresh };
       return { before: fresh, after: moveSubscription(tx, fresh, target, set, STRIPE) };
     });
-    if (invoice) recordInvoice(after, invoice);
-    if (latest && latest.id !== invoice?.id && latest.status === "paid") recordInvoice(after, latest);
+    const heldNow = [invoice ? recordInvoice(after, invoice) : null, latest && latest.id !== invoice?.id && latest.status === "paid" ? recordInvoice(after, latest) : null].find(Boolean);
     if (before.state !== "grace" && after.state === "grace") await mailGrace(after);
+    // A first payment held because its buyer had handed the piece on: they are told (lib/plans/held.ts).
+    if (heldNow && after.state === "awaiting_payment" && !buyerHoldsPiece(after)) await mailPaidAfterHandOn(after, heldNow, "held");
     return after;
   });
 }

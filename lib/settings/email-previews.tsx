@@ -16,6 +16,7 @@ import PlanGraceEmail from "@/emails/plan-grace";
 import PlanVisitEmail from "@/emails/plan-visit";
 import { REFRESH_OFFER_PREVIEW } from "@/emails/refresh-offer";
 import RefundIssuedEmail from "@/emails/refund-issued";
+import PlanPaidAfterHandOnEmail from "@/emails/plan-paid-after-hand-on";
 import StaffInvitationEmail from "@/emails/staff-invitation";
 import TransferCodeEmail from "@/emails/transfer-code";
 import TechnicianVisitEmail from "@/emails/technician-visit";
@@ -39,6 +40,7 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "care-reminder-offer", name: "Care reminder with a refresh offer", audience: "owner", when: "The first reminder of a refresh task: the priced refresh visit, and your care plans that fit the piece with what each would have saved over the owner's last year of logged care.", component: CareReminderWithOffer as Template },
   { slug: "hand-over", name: "Hand-over", audience: "owner", when: "At delivery, to the buyer: the piece's finish, first care, warranty, a one-tap link to register it, and your care plans that fit it.", component: HandOverEmail as Template },
   { slug: "plan-grace", name: "Care plan payment failed", audience: "owner", when: "When a care plan's renewal payment fails: the grace period before the plan lapses.", component: PlanGraceEmail as Template },
+  { slug: "plan-paid-after-hand-on", name: "Care plan payment held", audience: "owner", when: "When a care plan is paid after its buyer handed the piece on (the plan can't start), and again when the studio pays it back.", component: PlanPaidAfterHandOnEmail as Template },
   { slug: "plan-visit", name: "Care plan visit", audience: "owner", when: "Ahead of a care plan's included visit: its price under the plan and the times offered.", component: PlanVisitEmail as Template },
   { slug: "claim-received", name: "Claim received", audience: "anyone", when: "When an owner files a claim (to the owner and to the studio).", component: ClaimReceivedEmail as Template },
   { slug: "claim-message", name: "Claim message", audience: "anyone", when: "When the studio or the owner writes on a claim.", component: ClaimMessageEmail as Template },

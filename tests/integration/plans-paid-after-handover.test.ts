@@ -13,6 +13,7 @@ import { resolveHeldPayment } from "@/lib/plans/held";
 import { livePlanOfPiece, startPlanCheckout } from "@/lib/plans/subscriptions";
 import { studioPlanRow } from "@/lib/plans/overview";
 import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { listMail, waitForMail } from "../support/mail";
 import { plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
 
 const stripe = plansStripeForFile();
@@ -25,6 +26,7 @@ describe("a care plan paid after its buyer handed the piece on", () => {
     const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn: addDays(localDate(new Date(), "UTC"), -60) });
     const plan = yearlyPlan(admin, { refundRule: "none", transfers: false });
 
+    const since = new Date();
     const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, piece.id, plan.id);
     await releasePiece({ ...owner }, piece.id, { confirm: true });
     // The payment page was still open: the card is charged after the hand-over.
@@ -39,6 +41,10 @@ describe("a care plan paid after its buyer handed the piece on", () => {
     const invoice = getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, subscriptionId)).get()!;
     expect(invoice).toMatchObject({ status: "paid", counts: false, amountMinor: 12_000 });
     expect(auditsOf(subscriptionId, "plan.payment_held")).toHaveLength(1);
+    // The person who paid is told, once, that the payment is held and will be paid back (time with its zone).
+    const heldMail = await waitForMail({ to: owner.email, subject: /^Your care plan payment is held — /, since });
+    expect(heldMail.text).toMatch(/You paid \$120\.00 on \d{1,2} [A-Z][a-z]+ \d{4}(,| at) \d{2}:\d{2} [A-Z]+ for the .* care plan on your .*\. The payment came in after you had handed the piece on/);
+    expect(heldMail.text).toContain("will pay it back to the card you paid with");
 
     const held = studioPlanDetail(admin, subscriptionId).held!;
     expect(held.words).toMatch(/^The first payment, \$120\.00 on .*, came after the person who bought this plan had handed the piece on\. The payment is held and the plan hasn't started\./);
@@ -54,5 +60,11 @@ describe("a care plan paid after its buyer handed the piece on", () => {
     expect(stripe.fake.subscriptions().find((s) => s.id === sub.stripeSubscriptionId)!.status).toBe("canceled");
     const pi = stripe.fake.invoices().find((i) => i.id === invoice.stripeInvoiceId)!.payments.data[0]!.payment.payment_intent;
     expect(stripe.fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded).toBe(12_000);
+    // Then that it is paid back; never the renewal's "settled" words, and no second "held" mail (each event replayed changes nothing).
+    const back = await waitForMail({ to: owner.email, subject: /^Your care plan payment is on its way back — /, since });
+    expect(back.text).toMatch(/has paid back the \$120\.00 you paid on .* The plan never started, since the piece\s+had been handed on/);
+    const mails = (await listMail({ to: owner.email })).filter((m) => Date.parse(m.receivedAt) >= since.getTime());
+    expect(mails.filter((m) => /payment is held/.test(m.subject))).toHaveLength(1);
+    expect(mails.filter((m) => /renewal/i.test(m.subject))).toHaveLength(0);
   });
 });
