@@ -1368,7 +1368,12 @@ export const planVisits = sqliteTable(
     jobId: text("job_id").references(() => repairJobs.id, { onDelete: "set null" }),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex("plan_visits_subscription_due_uq").on(t.subscriptionId, t.dueOn), index("plan_visits_studio_idx").on(t.studioId)],
+  (t) => [
+    uniqueIndex("plan_visits_subscription_due_uq").on(t.subscriptionId, t.dueOn),
+    index("plan_visits_studio_idx").on(t.studioId),
+    // A job's page finds the plan visit it is by job (lib/repairs/jobs.ts visitPlanName); a deleted job nulls its job_id through it.
+    index("plan_visits_job_idx").on(t.jobId),
+  ],
 );
 
 export const planVisitsRelations = relations(planVisits, ({ one }) => ({

@@ -166,16 +166,19 @@ function loadJob(where: ReturnType<typeof and>) {
   return { ...row, payments: jobPayments, planName: row.job.origin === "plan" ? visitPlanName(row.job) : null };
 }
 
-/** The name of the care plan whose included visit a job is (the plan version it was bought under). */
-function visitPlanName(job: Pick<RepairJob, "id" | "studioId">): string | null {
-  const row = getDb()
+/** The plan visit a job is, with its plan's name (the version it was bought under): found by job (plan_visits_job_idx). */
+export function planVisitOfJob(job: Pick<RepairJob, "id" | "studioId">) {
+  return getDb()
     .select({ name: planTemplates.name })
     .from(planVisits)
     .innerJoin(planSubscriptions, eq(planSubscriptions.id, planVisits.subscriptionId))
     .innerJoin(planTemplates, eq(planTemplates.id, planSubscriptions.templateId))
-    .where(and(eq(planVisits.studioId, job.studioId), eq(planVisits.jobId, job.id)))
-    .get();
-  return row?.name ?? null;
+    .where(and(eq(planVisits.studioId, job.studioId), eq(planVisits.jobId, job.id)));
+}
+
+/** The name of the care plan whose included visit a job is. */
+function visitPlanName(job: Pick<RepairJob, "id" | "studioId">): string | null {
+  return planVisitOfJob(job).get()?.name ?? null;
 }
 
 export type JobView = ReturnType<typeof loadJob>;
