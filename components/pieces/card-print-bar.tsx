@@ -6,11 +6,13 @@ import { cn } from "@/components/ui/cn";
 import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 /** Kept in step with CARD_LAYOUTS and MAX_CARDS_PER_PDF in lib/pieces/card.tsx (a server module). */
+// The option names stay short enough to read whole in the select on a 375 px phone (tests/e2e/narrow.spec.ts);
+// what each prints is said under it.
 const LAYOUTS = [
-  { value: "letter", label: "Letter sheets — 2 cards a sheet, with cut marks" },
-  { value: "a4", label: "A4 sheets — 4 A6 cards a sheet, with cut marks" },
-  { value: "4x6", label: "Card printer — one 4×6 in card a page" },
-  { value: "a6", label: "Card printer — one A6 card a page" },
+  { value: "letter", label: "Letter sheets", detail: "Two cards on each Letter sheet, with cut marks." },
+  { value: "a4", label: "A4 sheets", detail: "Four A6 cards on each A4 sheet, with cut marks." },
+  { value: "4x6", label: "Card printer, 4×6 in", detail: "One 4×6 in card a page, for a card printer." },
+  { value: "a6", label: "Card printer, A6", detail: "One A6 card a page, for a card printer." },
 ] as const;
 const MAX_CARDS = 200;
 
@@ -24,11 +26,17 @@ export function CardPrintBar({ selected, onClear }: { selected: string[]; onClea
   const tooMany = n > MAX_CARDS;
   return (
     <section aria-label="Print drawer cards" className="flex flex-wrap items-end gap-3 rounded-xl border border-line bg-card p-4">
-      <div className="min-w-0 max-w-full space-y-1">
+      <div className="w-full min-w-0 space-y-1 sm:w-auto">
         <label htmlFor={`${id}-layout`} className="block text-sm font-medium">
           Print drawer cards on
         </label>
-        <select id={`${id}-layout`} value={layout} onChange={(e) => setLayout(e.target.value as typeof layout)} className="min-h-11 max-w-full rounded-lg border border-line bg-white px-3 py-2 text-sm text-ink focus:border-resin">
+        <select
+          id={`${id}-layout`}
+          value={layout}
+          onChange={(e) => setLayout(e.target.value as typeof layout)}
+          aria-describedby={`${id}-layout-detail`}
+          className="min-h-11 w-full rounded-lg border border-line bg-white px-3 py-2 text-sm text-ink focus:border-resin sm:w-auto"
+        >
           {LAYOUTS.map((l) => (
             <option key={l.value} value={l.value}>
               {l.label}
@@ -49,7 +57,10 @@ export function CardPrintBar({ selected, onClear }: { selected: string[]; onClea
           <SpriteIcon name="x" className="size-4" /> Clear the {n} chosen
         </Button>
       ) : null}
-      <p className="w-full text-sm text-muted" aria-live="polite">
+      <p id={`${id}-layout-detail`} className="w-full text-sm text-muted">
+        {LAYOUTS.find((l) => l.value === layout)!.detail}
+      </p>
+      <p className="-mt-2 w-full text-sm text-muted" aria-live="polite">
         {tooMany ? `${n} pieces chosen: print at most ${MAX_CARDS} cards at a time.` : n ? `${n} piece${n === 1 ? "" : "s"} chosen for printing.` : "Tick pieces in the list to print their cards together."}
       </p>
     </section>

@@ -260,7 +260,7 @@ export function RegistryTable() {
                   <p className="text-sm text-muted">
                     {PIECE_KIND_LABELS[r.kind]} · {r.primarySpecies} · delivered {formatDate(r.deliveredOn, { short: true })}
                   </p>
-                  <div className="mt-2 flex flex-wrap items-center gap-x-4 gap-y-1">
+                  <div className="mt-2 flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
                     <RegistrationStatus registered={r.registered} />
                     <NextCare row={r} />
                   </div>

@@ -61,7 +61,7 @@ export function SpeciesPicker({
         aria-invalid={error ? true : undefined}
         autoComplete="off"
         value={text}
-        placeholder="Type to search, e.g. walnut or Juglans"
+        placeholder="Search, e.g. walnut or Juglans"
         onFocus={() => setOpen(true)}
         onBlur={(e) => {
           // Closed a moment later (an option's press lands first), unless the field has focus again by

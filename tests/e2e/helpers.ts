@@ -1,5 +1,5 @@
 import fs from "node:fs";
-import { expect, type Page } from "@playwright/test";
+import { expect, type Locator, type Page } from "@playwright/test";
 import { E2E_APP_URL, E2E_DATABASE, E2E_PORTS, E2E_SINK_URL } from "../../scripts/e2e-config.mjs";
 
 /** Where the e2e server and its fakes listen (scripts/e2e-config.mjs; E2E_PORT_BASE moves them). */
@@ -61,4 +61,24 @@ async function submitSignIn(page: Page, signInPath: string, email: string, passw
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();
   await expect(page).not.toHaveURL(/\/sign-in/);
+}
+
+/**
+ * The selects under `scope` whose words do not fit: the chosen option's text ("selected") or the longest
+ * option's ("widest"), measured in the select's own font, plus its side paddings and about 24 px for the
+ * arrow, against its inner width. Each as "label: -N px" (N px short), so a failure says which and by how much.
+ */
+export async function selectsCutShort(scope: Locator, which: "selected" | "widest"): Promise<string[]> {
+  return scope.locator("select").evaluateAll((selects: HTMLSelectElement[], which) => {
+    const pen = document.createElement("canvas").getContext("2d")!;
+    return selects.flatMap((el) => {
+      const cs = getComputedStyle(el);
+      pen.font = `${cs.fontWeight} ${cs.fontSize} ${cs.fontFamily}`;
+      const texts = which === "selected" ? [el.selectedOptions[0]?.text ?? ""] : [...el.options].map((o) => o.text);
+      const room = el.clientWidth - (Math.max(...texts.map((t) => pen.measureText(t).width)) + parseFloat(cs.paddingLeft) + parseFloat(cs.paddingRight) + 24);
+      // A label may wrap the select: its words less the options'.
+      const label = (el.labels?.[0]?.textContent ?? "").replace(el.textContent ?? "", "").trim() || el.name || "select";
+      return room < 0 ? [`${label}: ${Math.round(room)} px`] : [];
+    });
+  }, which);
 }

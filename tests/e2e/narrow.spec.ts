@@ -4,7 +4,7 @@
 // columns). And the claims list, whose rows cut the piece's name and the photo count short with an
 // ellipsis. Each page is read as seeded; nothing here changes the demo studio's data.
 import { expect, test, type Page } from "@playwright/test";
-import { ACCOUNTS, signIn } from "./helpers";
+import { ACCOUNTS, selectsCutShort, signIn } from "./helpers";
 
 test.use({ viewport: { width: 375, height: 812 } });
 
@@ -19,6 +19,28 @@ test("registry, reminders, working hours and audit fit a 375 px phone", async ({
   await page.goto("/studio/pieces");
   await expect(page.getByLabel("Print drawer cards on")).toBeVisible();
   await noSideways(page, "/studio/pieces");
+  // Every layout's name reads whole in the select ('Letter sheets — 2 cards a sheet, with cut marks' was cut
+  // to '…with cu'); what the chosen one prints is said under it.
+  const bar = page.getByRole("region", { name: "Print drawer cards" });
+  expect(await selectsCutShort(bar, "widest")).toEqual([]);
+  await expect(bar.getByLabel("Print drawer cards on")).toHaveAccessibleDescription("Two cards on each Letter sheet, with cut marks.");
+  await bar.getByLabel("Print drawer cards on").selectOption("a6");
+  await expect(bar.getByText("One A6 card a page, for a card printer.")).toBeVisible();
+  // A piece's card reads its next care in the same size as its other details, not larger.
+  const card = page.getByRole("link", { name: /Annual clean and check · / }).first();
+  const sizes = await Promise.all([card.getByText(/ · delivered /), card.getByText(/^Annual clean and check · /)].map((l) => l.evaluate((el) => getComputedStyle(el).fontSize)));
+  expect(sizes[1]).toBe(sizes[0]);
+
+  // The species picker's hint reads whole in its field ('Type to search, e.g. walnut or Juglans' was cut to '…Juglar').
+  await page.goto("/studio/pieces/new");
+  const picker = page.getByRole("combobox", { name: "Primary species" });
+  const spare = await picker.evaluate((el: HTMLInputElement) => {
+    const cs = getComputedStyle(el);
+    const pen = document.createElement("canvas").getContext("2d")!;
+    pen.font = `${cs.fontWeight} ${cs.fontSize} ${cs.fontFamily}`;
+    return el.clientWidth - parseFloat(cs.paddingLeft) - parseFloat(cs.paddingRight) - pen.measureText(el.placeholder).width;
+  });
+  expect(spare, "px to spare beside the species picker's placeholder").toBeGreaterThanOrEqual(0);
 
   await page.goto("/studio/reminders");
   await expect(page.getByRole("table").or(page.getByText("Nothing goes out in the next 30 days."))).toBeVisible();
