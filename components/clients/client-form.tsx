@@ -79,8 +79,8 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
             </option>
           ))}
         </SelectField>
-        <ZoneSelect label="Time zone" choices={zones} error={errors.timeZone?.message} {...form.register("timeZone")}>
-          <option value="">The studio’s ({zoneLabel(zones, studioZone)})</option>
+        <ZoneSelect label="Time zone" choices={zones} hint={`The studio’s is ${zoneLabel(zones, studioZone)}.`} error={errors.timeZone?.message} {...form.register("timeZone")}>
+          <option value="">The studio’s</option>
         </ZoneSelect>
       </div>
       <div className="space-y-1.5">

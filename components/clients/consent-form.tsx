@@ -8,7 +8,7 @@ import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutatio
 import { Button } from "@/components/ui/button";
 import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
-import { CONSENT_KIND_LABELS, CONSENT_KINDS, CONSENT_SOURCE_LABELS, CONSENT_SOURCES, type ConsentKind, type ConsentSource } from "@/lib/clients/vocabulary";
+import { CONSENT_KIND_NAMES, CONSENT_KINDS, CONSENT_SOURCE_LABELS, CONSENT_SOURCES, type ConsentKind, type ConsentSource } from "@/lib/clients/vocabulary";
 
 type Values = { kind: ConsentKind; granted: "yes" | "no"; givenOn: string; source: ConsentSource; note: string };
 
@@ -40,11 +40,12 @@ export function ConsentForm({ clientId, current, today }: { clientId: string; cu
   });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label="Record a consent change">
-      <div className="grid gap-3 md:grid-cols-2">
+      {/* One field a row: the form sits in the client page's side column, where two selects a row cut their words. */}
+      <div className="space-y-3">
         <SelectField label="Which" {...form.register("kind")}>
           {CONSENT_KINDS.map((k) => (
             <option key={k} value={k}>
-              {CONSENT_KIND_LABELS[k]}
+              {CONSENT_KIND_NAMES[k]}
             </option>
           ))}
         </SelectField>

@@ -15,16 +15,16 @@ export function StartPlanForm({ pieceId, pieceTitle, options }: { pieceId: strin
   const submit = (form: FormData) => run(form);
   return (
     <form action={submit} className="space-y-2" aria-label={`Start a plan for ${pieceTitle}`}>
-      <label className="block space-y-1 text-sm">
-        <span className="font-semibold">Plan</span>
-        <select name="templateId" className={field}>
-          {options.map((o) => (
-            <option key={o.id} value={o.id}>
-              {o.label}
-            </option>
-          ))}
-        </select>
-      </label>
+      {/* A choice each plan, whose name and price wrap: a select cut them short in the client page's side column. */}
+      <fieldset className="text-sm">
+        <legend className="font-semibold">Plan</legend>
+        {options.map((o, i) => (
+          <label key={o.id} className="flex min-h-11 items-center gap-2">
+            <input type="radio" name="templateId" value={o.id} defaultChecked={i === 0} className="size-5 shrink-0 accent-resin" />
+            <span>{o.label}</span>
+          </label>
+        ))}
+      </fieldset>
       <label className="block space-y-1 text-sm">
         <span className="font-semibold">How the client paid</span>
         <input name="paidByNote" required minLength={2} maxLength={200} placeholder="Bank transfer, cash at the studio…" className={field} />

@@ -5,7 +5,7 @@ import { CARE_TASK_LABELS, type CareTaskKind, type ClaimCategory } from "@/lib/c
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import type { ClaimDecision } from "@/lib/claims/states";
 import { loadClient } from "./access";
-import { CONSENT_KIND_LABELS, type ConsentKind } from "./vocabulary";
+import { CONSENT_KIND_NAMES, type ConsentKind } from "./vocabulary";
 import { formatDate, formatInstant, formatMoney } from "@/lib/format";
 import type { RepairJob } from "@/db/schema";
 import { jobAmountText } from "@/lib/repairs/states";
@@ -159,7 +159,7 @@ function noteTitle(r: Row): string {
   }
   const parts: string[] = [];
   if (data.fields?.length) parts.push(data.fields.map((f) => FIELD_WORDS[f] ?? f).join(", "));
-  if (data.consent?.length) parts.push(`consent: ${data.consent.map((k) => CONSENT_KIND_LABELS[k].split(" (")[0]!.toLowerCase()).join(", ")}`);
+  if (data.consent?.length) parts.push(`consent: ${data.consent.map((k) => CONSENT_KIND_NAMES[k].toLowerCase()).join(", ")}`);
   return `${NOTE_WORDS[r.a ?? ""] ?? "Client record noted"}${who}${parts.length ? ` — ${parts.join("; ")}` : ""}`;
 }
 

@@ -14,6 +14,8 @@ export const CONSENT_KIND_LABELS: Record<ConsentKind, string> = {
   service: "Service mail (care reminders, visit mail)",
   offers: "Offers (refresh offers)",
 };
+/** The same, in a word or two: in a sentence ("Agreed to service mail") and in the consent form's narrow select. */
+export const CONSENT_KIND_NAMES: Record<ConsentKind, string> = { service: "Service mail", offers: "Offers" };
 export const CONSENT_SOURCE_LABELS: Record<ConsentSource, string> = {
   in_person: "In person",
   phone: "On the phone",

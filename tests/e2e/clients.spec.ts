@@ -6,7 +6,7 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, SINK_URL, signIn, signInTo, urlEndingWith } from "./helpers";
+import { ACCOUNTS, SINK_URL, selectsCutShort, signIn, signInTo, urlEndingWith } from "./helpers";
 
 test.use({ viewport: { width: 1280, height: 900 } });
 
@@ -64,6 +64,15 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   await page.goto(page.url().replace(/\/studio\/clients.*/, "/studio/clients"));
   await page.getByRole("link", { name: "Jonah Reyes" }).click();
   await expect(timeline.first()).toBeVisible();
+  // Every select on the client page shows its chosen words whole, at 1280 px (in the side column) and at
+  // 375 px: the studio's zone, the consent form's, and no select cutting a plan's price ("…$151.90 a ye").
+  await expect(page.getByRole("group", { name: "Plan" }).first().getByRole("radio").first()).toBeChecked();
+  for (const width of [1280, 375]) {
+    await page.setViewportSize({ width, height: 900 });
+    expect(await selectsCutShort(page.locator("main"), "selected"), `at ${width} px`).toEqual([]);
+  }
+  await page.setViewportSize({ width: 1280, height: 900 });
+  await expect(page.getByRole("form", { name: "Contact details" }).getByText(/^The studio’s is .+\.$/)).toBeVisible();
   const pageAxe = await new AxeBuilder({ page }).analyze();
   expect(pageAxe.violations, JSON.stringify(pageAxe.violations, null, 2)).toEqual([]);
 });

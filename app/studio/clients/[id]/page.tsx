@@ -11,7 +11,7 @@ import { forPage } from "@/lib/auth/page";
 import { PIECE_KIND_LABELS } from "@/lib/care/vocabulary";
 import { getClient } from "@/lib/clients/get";
 import { ERASED_NAME } from "@/lib/clients/personal-data";
-import { CONSENT_KIND_LABELS, CONSENT_SOURCE_LABELS, CONTACT_METHOD_LABELS } from "@/lib/clients/vocabulary";
+import { CONSENT_KIND_LABELS, CONSENT_KIND_NAMES, CONSENT_SOURCE_LABELS, CONTACT_METHOD_LABELS } from "@/lib/clients/vocabulary";
 import { ClientPlansSection } from "@/app/studio/plans/client-plans-section";
 
 export const metadata: Metadata = { title: "Client" };
@@ -82,7 +82,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
                 {consentHistory.map((h) => (
                   <li key={h.id}>
                     <p>
-                      <span className="font-medium">{h.granted ? "Agreed to" : "Withdrew"}</span> {CONSENT_KIND_LABELS[h.kind].split(" (")[0]!.toLowerCase()} —{" "}
+                      <span className="font-medium">{h.granted ? "Agreed to" : "Withdrew"}</span> {CONSENT_KIND_NAMES[h.kind].toLowerCase()} —{" "}
                       {/* Only the first letter: the label goes mid-sentence, and "Grainward" keeps its capital. */}
                       {CONSENT_SOURCE_LABELS[h.source].replace(/^./, (c) => c.toLowerCase())}, {formatInstant(h.givenAt, studioZone, { time: true })}
                     </p>
