@@ -14,7 +14,8 @@ import { finishProducts, memberships, payments, pieces, repairJobs, studios, tec
 
 export const SOL = { email: "sol@larchmere.example", name: "Sol Amberly" } as const;
 
-type VisitSpec = { piece: string; title: string; tasks: CareTaskKind[]; state: "paid" | "covered"; tech: "ines" | "sol"; dayOffset: number; at: string; location?: "owner" | "studio" };
+/** areasM2: a size staff typed on the quote for a surface the piece's record has none for (lib/repairs/pricing quoteAreaM2). */
+type VisitSpec = { piece: string; title: string; tasks: CareTaskKind[]; state: "paid" | "covered"; tech: "ines" | "sol"; dayOffset: number; at: string; location?: "owner" | "studio"; areasM2?: { base?: number } };
 
 // dayOffset counts working days of that technician from today (0 = today or the next working day); local times.
 const WEEK: VisitSpec[] = [
@@ -23,7 +24,7 @@ const WEEK: VisitSpec[] = [
   { piece: "Charred cedar garden bench", title: "Inspect the bench after the storm", tasks: ["annual_check"], state: "covered", tech: "sol", dayOffset: 1, at: "10:00" },
   { piece: "Spalted maple coffee table, blue resin", title: "Polish a scuff in the blue resin", tasks: ["resin_polish"], state: "paid", tech: "sol", dayOffset: 2, at: "14:00" },
   { piece: "Walnut river dining table", title: "Check the resin edge, dining table", tasks: ["annual_check"], state: "covered", tech: "ines", dayOffset: 3, at: "10:30" },
-  { piece: "Walnut and maple resin coffee table", title: "Re-oil the coffee table base", tasks: ["reoil"], state: "paid", tech: "sol", dayOffset: 4, at: "09:30", location: "studio" },
+  { piece: "Walnut and maple resin coffee table", title: "Re-oil the coffee table base", tasks: ["reoil"], state: "paid", tech: "sol", dayOffset: 4, at: "09:30", location: "studio", areasM2: { base: 0.6 } },
 ];
 
 export async function seedVisits(db: Db, studioId: string, today: Date, doneJobId?: string): Promise<{ visits: number; solId: string }> {
@@ -65,7 +66,7 @@ export async function seedVisits(db: Db, studioId: string, today: Date, doneJobI
       const piece = owned.find((p) => p.title === spec.piece);
       if (!piece?.ownerId) return;
       const wanted = new Set(spec.tasks);
-      const input = { title: spec.title, tasks: spec.tasks, productIds: products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1), coats: 1, travel: true, coveredPct: spec.state === "covered" ? 100 : 0, notes: "" };
+      const input = { title: spec.title, tasks: spec.tasks, productIds: products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1), coats: 1, travel: true, coveredPct: spec.state === "covered" ? 100 : 0, notes: "", ...(spec.areasM2 ? { areasM2: spec.areasM2 } : {}) };
       const priced = totals(priceJob(studio, pricedPiece(tx, piece), input, products));
       const paidAt = new Date(today.getTime() - (6 - i) * 86_400_000);
       const job = tx
