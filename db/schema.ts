@@ -679,6 +679,36 @@ export const paymentsRelations = relations(payments, ({ one }) => ({
   job: one(repairJobs, { fields: [payments.jobId], references: [repairJobs.id] }),
 }));
 
+/**
+ * Money the studio gives back on a paid job that stays as it is (done, booked or paid): all of a
+ * payment or a part, with the reason the owner reads (lib/repairs/refunds.ts). A row is the claim,
+ * written with the job's version moved on before Stripe is asked; `refundedAt` is set once Stripe took it.
+ */
+export const jobRefunds = sqliteTable(
+  "job_refunds",
+  {
+    id: id(),
+    studioId: studioRef(),
+    jobId: text("job_id")
+      .notNull()
+      .references(() => repairJobs.id, { onDelete: "cascade" }),
+    paymentId: text("payment_id")
+      .notNull()
+      .references(() => payments.id, { onDelete: "cascade" }),
+    amountMinor: integer("amount_minor").notNull(),
+    currency: text("currency").notNull(),
+    /** In the staff member's words; the owner reads it in the refund mail, on the job page and the receipt. */
+    reason: text("reason").notNull(),
+    byId: text("by_id").references(() => users.id, { onDelete: "set null" }),
+    stripeRefundId: text("stripe_refund_id"),
+    refundedAt: integer("refunded_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("job_refunds_studio_job_idx").on(t.studioId, t.jobId)],
+);
+
+export type JobRefund = typeof jobRefunds.$inferSelect;
+
 /** Every Stripe webhook event recorded once by its id; a replay changes nothing. */
 export const stripeEvents = sqliteTable("stripe_events", {
   id: text("id").primaryKey(),

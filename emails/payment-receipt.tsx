@@ -1,6 +1,7 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { ActionClose, SpelledLink } from "./components/button";
 import { MoneyLines, type MoneyLinesProps } from "./components/money-lines";
+import { RefundRows, type RefundRowText } from "./components/refund-rows";
 
 export type PaymentReceiptEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
   ownerName: string;
@@ -12,9 +13,11 @@ export type PaymentReceiptEmailProps = Omit<MoneyLinesProps, "totalLabel"> & {
   reference: string;
   url: string;
   pdfUrl: string;
+  /** Every refund on the job when the receipt is sent (another payment for it given back, say); empty or absent: none. */
+  refunds?: RefundRowText[];
 };
 
-export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, pieceTitle, amount, paidOn, reference, url, pdfUrl, ...money }: PaymentReceiptEmailProps) {
+export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, pieceTitle, amount, paidOn, reference, url, pdfUrl, refunds = [], ...money }: PaymentReceiptEmailProps) {
   return (
     <EmailLayout preview={`Receipt: ${amount} paid to ${studioName}`} heading="Payment received">
       <Paragraph>Hi {ownerName},</Paragraph>
@@ -22,6 +25,7 @@ export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, piec
         Thank you — {studioName} received <strong>{amount}</strong> on {paidOn} for the work on <strong>{pieceTitle}</strong>.
       </Paragraph>
       <MoneyLines {...money} totalLabel="Paid" />
+      <RefundRows refunds={refunds} />
       <Paragraph>Payment reference: {reference}</Paragraph>
       <Note>
         {studioName}

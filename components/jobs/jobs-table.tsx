@@ -9,7 +9,7 @@ import { Notice } from "@/components/ui/notice";
 import { JOB_STATE_LABELS, JOB_STATE_TONES, jobAmountText, jobStateLabel } from "@/lib/repairs/states";
 import { JOB_STATES, type JOB_ORIGINS } from "@/lib/care/vocabulary";
 
-type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: (typeof JOB_ORIGINS)[number]; totalMinor: number; coveredPct: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null; refundedMinor?: number };
+type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: (typeof JOB_ORIGINS)[number]; totalMinor: number; coveredPct: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null; paidMinor?: number; refundedMinor?: number };
 
 export function JobsTable({ country }: { country: string }) {
   const { get, set } = useUrlFilters(["state"]);

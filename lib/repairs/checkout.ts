@@ -2,9 +2,9 @@ import "server-only";
 // Where a repair job's money moves: Checkout Sessions are closed, completed sessions are weighed
 // against the job's current quote, and payments that don't count are refunded. Every function here
 // converges on what Stripe reports, so a webhook replayed, late or out of order leaves one state.
-import { and, eq, inArray, isNotNull, isNull, ne } from "drizzle-orm";
+import { and, eq, inArray, isNotNull, isNull, ne, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { payments, repairJobs, type Payment, type RepairJob } from "@/db/schema";
+import { jobRefunds, payments, repairJobs, type Payment, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import { callStripe, expireCheckoutSession, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { moveJob } from "./jobs";
@@ -130,8 +130,12 @@ export async function applyRefund(chargeId: string, scope?: StripeScope): Promis
     const status: Payment["status"] = charge.amount_refunded >= payment.amountMinor ? "refunded" : "partially_refunded";
     tx.update(payments).set({ refundedMinor: charge.amount_refunded, status, updatedAt: new Date() }).where(eq(payments.id, payment.id)).run();
     recordAudit(tx, { studioId: payment.studioId, actorId: null, action: "payment.refunded", subjectType: "payment", subjectId: payment.id, data: { refundedMinor: charge.amount_refunded, ...(payment.refundReason ? { reason: REFUND_REASON_LABELS[payment.refundReason], reasonCode: payment.refundReason } : {}) } });
-    return { payment, amount: charge.amount_refunded - payment.refundedMinor };
+    // Staff's refunds on a job that stays as it is (lib/repairs/refunds.ts) are claimed before Stripe is
+    // asked and have a mail of their own: only what is beyond them was given back here (a cancellation's
+    // refund of the rest, or one made at Stripe by hand).
+    const staff = tx.select({ sum: sql<number>`coalesce(sum(${jobRefunds.amountMinor}), 0)` }).from(jobRefunds).where(eq(jobRefunds.paymentId, payment.id)).get()!.sum;
+    return { payment, amount: charge.amount_refunded - Math.max(payment.refundedMinor, staff) };
   });
   // An automatic refund was announced when it was asked for; this mail is for cancellations and refunds made by hand.
-  if (refundedNow && !isAutomaticRefund(refundedNow.payment.refundReason)) await mailRefundIssued(refundedNow.payment, refundedNow.amount);
+  if (refundedNow && refundedNow.amount > 0 && !isAutomaticRefund(refundedNow.payment.refundReason)) await mailRefundIssued(refundedNow.payment, refundedNow.amount);
 }

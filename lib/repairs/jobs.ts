@@ -123,14 +123,18 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
 }
 
 /**
- * What was given back on a job, in one subquery of the list (payments_job_idx): every payment with a
- * refund reason, as the owner's job page (app/(owner)/jobs/[id]/page.tsx) counts them as refunded.
+ * What the owner paid for a job and what was given back of it, in subqueries of the list
+ * (payments_job_idx): the job's own payments (the one that counts, or the one refunded when the job
+ * was cancelled; not a second payment refunded on its own, which never paid for it); a payment set
+ * aside for refund counts as given back in full, else what Stripe reports refunded (lib/repairs/refunds.ts).
  */
-const refundedMinor = sql<number>`(select coalesce(sum(${payments.amountMinor}), 0) from ${payments} where ${payments.jobId} = ${repairJobs.id} and ${payments.refundReason} is not null)`.mapWith(Number);
+const ownPayment = sql`${payments.jobId} = ${repairJobs.id} and ${payments.paidAt} is not null and (${payments.refundReason} is null or ${payments.refundReason} = 'job_cancelled')`;
+const paidMinor = sql<number>`(select coalesce(sum(${payments.amountMinor}), 0) from ${payments} where ${ownPayment})`.mapWith(Number);
+const refundedMinor = sql<number>`(select coalesce(sum(case when ${payments.refundReason} is null then ${payments.refundedMinor} else ${payments.amountMinor} end), 0) from ${payments} where ${ownPayment})`.mapWith(Number);
 
 export function listStudioJobs(ctx: StudioContext, filter: { state?: RepairJob["state"] }) {
   return getDb()
-    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, ownerName: users.name, refundedMinor })
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, ownerName: users.name, paidMinor, refundedMinor })
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .leftJoin(users, eq(users.id, repairJobs.ownerId))
@@ -142,7 +146,7 @@ export function listStudioJobs(ctx: StudioContext, filter: { state?: RepairJob["
 
 export function listOwnerJobs(user: Pick<User, "id">, filter: { state?: RepairJob["state"] } = {}) {
   return getDb()
-    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, studioName: studios.name, studioCountry: studios.country, refundedMinor })
+    .select({ id: repairJobs.id, title: repairJobs.title, state: repairJobs.state, origin: repairJobs.origin, totalMinor: repairJobs.totalMinor, coveredPct: repairJobs.coveredPct, currency: repairJobs.currency, updatedAt: repairJobs.updatedAt, pieceTitle: pieces.title, studioName: studios.name, studioCountry: studios.country, paidMinor, refundedMinor })
     .from(repairJobs)
     .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
     .innerJoin(studios, eq(studios.id, repairJobs.studioId))

@@ -1,6 +1,7 @@
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { payments, repairJobs, type Payment } from "@/db/schema";
+import { payments, repairJobs, type JobRefund, type Payment } from "@/db/schema";
+import { JobRefundEmail, jobRefundSubject } from "@/emails/job-refund";
 import { PaymentReceiptEmail } from "@/emails/payment-receipt";
 import { PaymentRefundedAutomaticallyEmail, paymentRefundedAutomaticallySubject, type AutomaticRefundReason } from "@/emails/payment-refunded-automatically";
 import { RefundIssuedEmail } from "@/emails/refund-issued";
@@ -11,6 +12,7 @@ import { replyToFor } from "@/lib/messages/store";
 import { formatInstant, formatMoney } from "@/lib/format";
 import { jobFigures } from "./figures";
 import { getOwnerJob, type JobView } from "./jobs";
+import { asSentence, givenBackOf, refundRows, refundsOfJob } from "./refund-rows";
 
 // Payment mail is sent after the change it reports is committed; sendMail queues what SMTP refuses.
 
@@ -67,8 +69,34 @@ export async function mailReceipt(paymentId: string) {
       ...quoteFigures(view.job, view.studio),
       url: jobUrl(payment.jobId),
       pdfUrl: receiptUrl(payment.jobId),
+      // Refunds already made on the job (another payment for it given back), as the PDF lists them.
+      refunds: refundRows(view.payments, refundsOfJob(payment.jobId), view.owner.timeZone, view.studio.country),
     }),
   });
+}
+
+/** Staff gave back money on a job that stays as it is (lib/repairs/refunds.ts): what, when, why, and every refund so far. */
+export async function mailJobRefund(refund: JobRefund) {
+  const view = ownerView(refund.jobId);
+  if (!view) return;
+  const refunds = refundsOfJob(refund.jobId);
+  const payment = view.payments.find((p) => p.id === refund.paymentId)!;
+  const money = (minor: number) => formatMoney(minor, refund.currency, view.studio.country);
+  const props = {
+    ownerName: view.owner.name,
+    studioName: view.studio.name,
+    pieceTitle: view.piece.title,
+    jobTitle: view.job.title,
+    amount: money(refund.amountMinor),
+    on: formatInstant(refund.refundedAt ?? refund.createdAt, view.owner.timeZone, { time: true }),
+    reason: asSentence(refund.reason),
+    paid: money(payment.amountMinor),
+    kept: money(payment.amountMinor - givenBackOf(payment, refunds)),
+    refunds: refundRows(view.payments, refunds, view.owner.timeZone, view.studio.country),
+    url: jobUrl(refund.jobId),
+    pdfUrl: receiptUrl(refund.jobId),
+  };
+  await sendMail({ studioId: view.studio.id, to: view.owner.email, replyTo: jobReplyTo(refund.jobId), subject: jobRefundSubject(props), email: <JobRefundEmail {...props} /> });
 }
 
 /** A refund of a cancelled job (or one made at Stripe by hand) reached the charge. */

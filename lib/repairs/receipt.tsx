@@ -7,6 +7,7 @@ import { accentOf } from "@/lib/studio/brand";
 import { isStudioActor, type Actor } from "@/lib/auth/actor";
 import { jobFigures, type JobFigures } from "./figures";
 import { getOwnerJob, getStudioJob, type JobView } from "./jobs";
+import { givenBackOf, refundRows, refundsOfJob, type RefundRow } from "./refund-rows";
 import { receiptPayment } from "./states";
 
 // A repair job's receipt as a PDF, for the job's owner and the studio's staff: the studio's name,
@@ -41,8 +42,14 @@ export type ReceiptData = {
   jobTitle: string;
   paidOn: string;
   reference: string;
-  /** The payment given back in full: how much, and when it was asked of the payment service (null while still owed). */
-  refund?: { amount: string; on: string | null } | null;
+  /**
+   * Every refund on the job (lib/repairs/refunds.ts refundRows): the studio's, with its reason; the
+   * payment given back when the job was cancelled; a second payment refunded on its own. `on` names
+   * the zone; null while it is still being paid back.
+   */
+  refunds: RefundRow[];
+  /** What stays paid of this receipt's payment after its refunds; null when none of it was given back. */
+  kept: string | null;
   figures: JobFigures;
   letter: boolean;
 };
@@ -100,12 +107,6 @@ export function ReceiptDocument({ d, logo = null }: { d: ReceiptData; logo?: Buf
           <Text style={s.key}>Payment reference</Text>
           <Text style={s.val}>{d.reference}</Text>
         </View>
-        {d.refund ? (
-          <View style={s.row}>
-            <Text style={s.key}>Refunded</Text>
-            <Text style={s.val}>{winAnsi(d.refund.amount)} · {d.refund.on ? `on ${d.refund.on}` : "being paid back"}</Text>
-          </View>
-        ) : null}
         <Text style={s.h2}>Lines</Text>
         {f.lines.map((l, i) => (
           <View key={i} style={s.line} wrap={false}>
@@ -124,6 +125,21 @@ export function ReceiptDocument({ d, logo = null }: { d: ReceiptData; logo?: Buf
           <Total label={f.taxLabel} amount={f.text.tax} />
           <Total label="Total paid" amount={f.text.total} strong />
         </View>
+        {d.refunds.length ? (
+          <>
+            <Text style={s.h2}>Refunded</Text>
+            {d.refunds.map((r, i) => (
+              <View key={i} style={s.line} wrap={false}>
+                <View style={s.desc}>
+                  <Text>{r.on ? `On ${r.on}` : "Being paid back"}</Text>
+                  <Text style={s.small}>{r.why}</Text>
+                </View>
+                <Text style={s.amount}>{winAnsi(r.amount)}</Text>
+              </View>
+            ))}
+            {d.kept ? <Total label="Paid after refunds" amount={winAnsi(d.kept)} strong /> : null}
+          </>
+        ) : null}
         {f.roundingNote ? <Text style={s.small}>{f.roundingNote}</Text> : null}
         <Text style={[s.small, { marginTop: 24, fontSize: 7 }]}>care records by Grainward</Text>
       </Page>
@@ -136,6 +152,8 @@ export function receiptData(actor: Actor, jobId: string): ReceiptData {
   const view: JobView = isStudioActor(actor) ? getStudioJob(actor, jobId) : getOwnerJob(actor.user, jobId);
   const payment = receiptPayment(view.payments);
   if (!payment) throw conflict("This job has no payment yet, so there is no receipt.");
+  const refunds = refundsOfJob(view.job.id);
+  const keptMinor = payment.amountMinor - givenBackOf(payment, refunds);
   // Staff read the time in the studio's zone, the owner in theirs; the zone is printed beside it.
   const tz = isStudioActor(actor) || !view.owner ? view.studio.timeZone : view.owner.timeZone;
   return {
@@ -145,13 +163,8 @@ export function receiptData(actor: Actor, jobId: string): ReceiptData {
     jobTitle: view.job.title,
     paidOn: formatInstant(payment.paidAt ?? payment.updatedAt, tz, { time: true }),
     reference: payment.paymentIntentId ?? payment.checkoutSessionId,
-    refund:
-      payment.refundReason === null
-        ? null
-        : {
-            amount: formatMoney(payment.refundedMinor || payment.amountMinor, payment.currency, view.studio.country),
-            on: payment.refundRequestedAt ? formatInstant(payment.refundRequestedAt, tz, { time: true }) : null,
-          },
+    refunds: refundRows(view.payments, refunds, tz, view.studio.country),
+    kept: keptMinor === payment.amountMinor ? null : formatMoney(keptMinor, payment.currency, view.studio.country),
     figures: jobFigures(view.job, view.studio),
     letter: view.studio.unitSystem === "imperial",
   };

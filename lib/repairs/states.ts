@@ -61,9 +61,12 @@ export type RefundReason = NonNullable<Payment["refundReason"]>;
 /** Money taken and not (fully) given back: the statuses a payment can count toward its job in. */
 export const CAPTURED: readonly PaymentStatus[] = ["paid", "partially_refunded"];
 
-/** A captured payment that pays for the job: not set aside to be refunded. */
+/**
+ * A captured payment that pays for the job: not set aside to be refunded. Money the studio gave back of
+ * it on a job that stays as it is (lib/repairs/refunds.ts), even all of it, does not undo that it paid.
+ */
 export function paymentCounts(p: Pick<Payment, "status" | "refundReason">): boolean {
-  return CAPTURED.includes(p.status) && p.refundReason === null;
+  return (CAPTURED.includes(p.status) || p.status === "refunded") && p.refundReason === null;
 }
 
 /**
@@ -71,7 +74,8 @@ export function paymentCounts(p: Pick<Payment, "status" | "refundReason">): bool
  * full (a paid job cancelled and refunded still had a payment). Undefined while nothing was ever taken.
  */
 export function receiptPayment<P extends Pick<Payment, "status" | "refundReason" | "paidAt">>(payments: readonly P[]): P | undefined {
-  return payments.find(paymentCounts) ?? payments.find((p) => p.paidAt !== null && p.refundReason !== null);
+  const givenBack = (p: P) => p.paidAt !== null && p.refundReason !== null;
+  return payments.find(paymentCounts) ?? payments.find((p) => givenBack(p) && p.refundReason === "job_cancelled") ?? payments.find(givenBack);
 }
 
 export const PAYMENT_STATUS_LABELS: Record<PaymentStatus, string> = {
@@ -149,11 +153,15 @@ export function jobStateLabel(job: Pick<RepairJob, "state" | "origin" | "covered
 /**
  * A job's amount in a line of a list: its total for the studio's country, or who covers it ("Covered by
  * the warranty", "Included in the care plan", coverWords) when that takes all of it (a share but nothing
- * left to pay). A partly covered job shows what the owner pays. A job whose payments were given back
- * (refundedMinor, summed by the list queries in lib/repairs/jobs.ts) says so with the amount refunded.
+ * left to pay). A partly covered job shows what the owner pays. A job whose payment was given back
+ * (paidMinor and refundedMinor, summed by the list queries in lib/repairs/jobs.ts) says so with the
+ * amount refunded: "Refunded $X" when all of it was, "$X paid, $Y refunded" for a part.
  */
-export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency" | "origin"> & { state?: RepairJob["state"]; refundedMinor?: number }, country: string): string {
-  if (job.refundedMinor) return `Refunded ${formatMoney(job.refundedMinor, job.currency, country)}`;
+export function jobAmountText(job: Pick<RepairJob, "totalMinor" | "coveredPct" | "currency" | "origin"> & { state?: RepairJob["state"]; paidMinor?: number; refundedMinor?: number }, country: string): string {
+  if (job.refundedMinor) {
+    const refunded = formatMoney(job.refundedMinor, job.currency, country);
+    return job.paidMinor && job.refundedMinor < job.paidMinor ? `${formatMoney(job.paidMinor, job.currency, country)} paid, ${refunded} refunded` : `Refunded ${refunded}`;
+  }
   if (!jobIsCovered(job)) return formatMoney(job.totalMinor, job.currency, country);
   // In the "covered" state the job's badge already names who covers it (jobStateLabel).
   return job.state === "covered" ? "Nothing to pay" : coverWords(job).whole;

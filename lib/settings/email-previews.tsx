@@ -16,6 +16,7 @@ import PlanGraceEmail from "@/emails/plan-grace";
 import PlanVisitEmail from "@/emails/plan-visit";
 import { REFRESH_OFFER_PREVIEW } from "@/emails/refresh-offer";
 import RefundIssuedEmail from "@/emails/refund-issued";
+import JobRefundEmail from "@/emails/job-refund";
 import PlanPaidAfterHandOnEmail from "@/emails/plan-paid-after-hand-on";
 import StaffInvitationEmail from "@/emails/staff-invitation";
 import TransferCodeEmail from "@/emails/transfer-code";
@@ -48,6 +49,7 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "job-quote", name: "Repair quote", audience: "owner", when: "When staff send a repair job's quote.", component: JobQuoteEmail as Template },
   { slug: "payment-receipt", name: "Payment receipt", audience: "owner", when: "When a repair is paid online.", component: PaymentReceiptEmail as Template },
   { slug: "refund-issued", name: "Refund issued", audience: "owner", when: "When the studio refunds a payment.", component: RefundIssuedEmail as Template },
+  { slug: "job-refund", name: "Money given back", audience: "owner", when: "When staff give back all or part of a paid repair's payment; the job stays as it is.", component: JobRefundEmail as Template },
   { slug: "transfer-code", name: "Transfer code", audience: "owner", when: "When an owner passes a piece on.", component: TransferCodeEmail as Template },
   { slug: "piece-released", name: "Piece released", audience: "owner", when: "When a piece leaves an owner's account.", component: PieceReleasedEmail as Template },
   { slug: "visit-invite", name: "Visit booked, moved or cancelled", audience: "owner", when: "When a visit is booked, moved or cancelled (with a calendar file).", component: VisitInviteEmail as Template },

@@ -47,6 +47,7 @@ const ACTION_LABELS: Record<string, string> = {
   "job.quote_sent": "Quote sent",
   "job.paid": "Repair paid",
   "job.cancelled": "Repair job cancelled",
+  "job.refunded": "Money given back on a repair",
   "payment.refunded": "Refund issued",
   "payment.refund_due": "Refund owed: the payment service refused it",
   "client.created": "Client added",

@@ -26,15 +26,34 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   const receipt = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /receipt/i, sinkUrl: SINK_URL });
   expect(extractLinks(receipt.text).some((l) => l.includes(`/jobs/${jobId}`))).toBe(true);
 
+  // Staff give back a part of the payment while the job stays paid: the amount and a reason the owner reads, confirmed first.
+  const desk = await (await browser.newContext()).newPage();
+  await signInTo(desk, ACCOUNTS.staff, `/studio/jobs/${jobId}`);
+  const giveBack = desk.getByRole("heading", { name: "Money given back" }).locator("..");
+  await expect(giveBack).toContainText(/Up to \$[\d,.]+ can still be given back\. The job stays “Paid”\./);
+  await giveBack.getByLabel("Amount to give back (USD)").fill("10");
+  await giveBack.getByRole("button", { name: "Give money back…" }).click();
+  await expect(giveBack.getByRole("alert")).toHaveText("Say why the money is given back: the owner reads it.");
+  await giveBack.getByLabel("Reason (the owner reads it)").fill("The wax was applied to the top only, not the legs.");
+  await giveBack.getByRole("button", { name: "Give money back…" }).click();
+  await giveBack.getByRole("button", { name: "Give back $10.00" }).click();
+  await expect(desk.getByText("$10.00 is on its way back to the owner's card.")).toBeVisible();
+  await expect(giveBack.getByRole("listitem").first()).toContainText(/\d{4}(,| at) \d{2}:\d{2} [A-Z]{3,4}\s*The wax was applied to the top only, not the legs\.\s*\$10\.00/);
+  await expect(desk.getByText("Paid", { exact: true }).first()).toBeVisible();
+  const refundMail = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /gave back \$10\.00/, sinkUrl: SINK_URL });
+  expect(refundMail.text).toContain("The wax was applied to the top only, not the legs.");
+  await page.goto(`/jobs/${jobId}`);
+  await expect(page.getByRole("status").filter({ hasText: "gave back $10.00" })).toContainText("Their reason: The wax was applied to the top only, not the legs. Refunds usually show");
+  await page.goto("/jobs");
+  await expect(page.getByRole("link", { name: /Re-wax the desk top/ })).toContainText(/\$[\d,.]+ paid, \$10\.00 refunded/);
+
   // Staff cancel the paid job: the app's own dialog asks first (a browser confirm() box would be
   // dismissed here and the button would seem dead), saying the payment is refunded.
-  const desk = await (await browser.newContext()).newPage();
   let browserDialog = "";
   desk.on("dialog", (d) => {
     browserDialog = d.message();
     void d.dismiss();
   });
-  await signInTo(desk, ACCOUNTS.staff, `/studio/jobs/${jobId}`);
   await desk.getByRole("button", { name: "Cancel and refund" }).click();
   const ask = desk.getByRole("dialog", { name: "Cancel this job and refund the owner?" });
   await expect(ask).toBeVisible();
@@ -44,7 +63,7 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await ask.getByRole("button", { name: "Cancel and refund" }).click();
   await expect(desk.getByText("Job cancelled; the refund is on its way.")).toBeVisible();
   expect(browserDialog).toBe("");
-  await waitForMail({ to: ACCOUNTS.otherOwner, subject: /refund/i, sinkUrl: SINK_URL });
+  await waitForMail({ to: ACCOUNTS.otherOwner, subject: /^Refund from/, sinkUrl: SINK_URL });
   // Staff read the cancelled job's total as quoted, not as still to pay.
   await desk.reload();
   await expect(desk.getByText("Quoted (nothing to pay)", { exact: true })).toBeVisible();
@@ -60,7 +79,7 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   // The owner's page says the studio refunded them, and no longer asks them to pay the cancelled job.
   await page.goto(`/jobs/${jobId}`);
   await expect(page.getByText("Cancelled", { exact: true })).toBeVisible();
-  await expect(page.getByRole("status").filter({ hasText: "Payment refunded" })).toContainText(/We refunded your payment of \$[\d,.]+ in full: the job was cancelled\./);
+  await expect(page.getByRole("status").filter({ hasText: "Payment refunded" })).toContainText(/We refunded the rest of your payment, \$[\d,.]+: the job was cancelled\./);
   await expect(page.getByText("To pay", { exact: true })).toHaveCount(0);
   await expect(page.getByText("Quoted (nothing to pay)", { exact: true })).toBeVisible();
   // The job had a payment: its receipt is still offered, and the list of repairs says the money went back.

@@ -6,7 +6,7 @@ import { renderToStaticMarkup } from "react-dom/server";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { JobPayments } from "@/components/jobs/job-payments";
 import { getDb } from "@/db/client";
-import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
+import { payments, repairJobs, stripeEvents } from "@/db/schema";
 import { DECLINE_CARD, startStripeFake, SUCCESS_CARD, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { getStudioJob, createJob, listOwnerJobs, listStudioJobs } from "@/lib/repairs/jobs";
 import { jobAmountText } from "@/lib/repairs/states";
@@ -20,28 +20,20 @@ import { createAcceptedClaim, createPiece, createProduct, createStudio, createUs
 import { replyAddress } from "@/lib/messages/reply-address";
 import { findThread } from "@/lib/messages/store";
 import { listMail, waitForMail } from "../support/mail";
-import { startWebhookReceiver, until, type WebhookReceiver } from "../support/stripe-receiver";
+import { extraCheckout } from "../support/repair-quote";
+import { startWebhookReceiver, until, webhookGate, type WebhookReceiver } from "../support/stripe-receiver";
 
 let fake: StripeFake;
 let receiver: WebhookReceiver;
 const webhookAnswers: number[] = [];
-// While held, deliveries wait at the receiver (the fake waits up to 10 s for an answer): the app has
-// not yet heard of payments the fake has already taken, as when webhooks are slow or out of order.
-let held: Promise<void> | null = null;
-let release = () => {};
-function holdWebhooks() {
-  held = new Promise<void>((r) => {
-    release = () => {
-      held = null;
-      r();
-    };
-  });
-}
+const gate = webhookGate();
+const holdWebhooks = gate.hold;
+const release = gate.release;
 
 beforeAll(async () => {
   receiver = await startWebhookReceiver(
     async (raw, sig) => {
-      if (held) await held;
+      await gate.passed();
       return handleStripeWebhook(raw, sig);
     },
     (status) => webhookAnswers.push(status),
@@ -184,8 +176,11 @@ describe("repair job payment through the Stripe fake", () => {
       expect(buffer.subarray(0, 5).toString()).toBe("%PDF-");
       expect(data.reference).toMatch(/^pi_test_/);
       expect(data.figures.text.total).toBe(formatMoney(job.totalMinor, "USD", "US"));
-      expect(data.refund?.amount).toBe(formatMoney(job.totalMinor, "USD", "US"));
-      expect(data.refund?.on).toMatch(/^\d{1,2} [A-Z][a-z]+ \d{4}(,| at) \d{2}:\d{2} \S+$/);
+      expect(data.refunds).toHaveLength(1);
+      expect(data.refunds[0]!.amount).toBe(formatMoney(job.totalMinor, "USD", "US"));
+      expect(data.refunds[0]!.why).toBe("The job was cancelled.");
+      expect(data.refunds[0]!.on).toMatch(/^\d{1,2} [A-Z][a-z]+ \d{4}(,| at) \d{2}:\d{2} \S+$/);
+      expect(data.kept).toBe(formatMoney(0, "USD", "US"));
     }
   });
 
@@ -246,24 +241,6 @@ async function requote(staff: Awaited<ReturnType<typeof quotedJob>>["staff"], jo
   await updateJobQuote(staff, jobId, { title: "Refresh the top", tasks: ["reoil"], productIds: [productId], coats: 2, travel: true, coveredPct: before.coveredPct, notes: "" });
   await sendQuote(staff, jobId);
   return getStudioJob(staff, jobId).job;
-}
-
-/**
- * A second Checkout Session for the job, opened through the SDK with the metadata and payments row an
- * approval writes: what a checkout opened in the instant a quote changed (or on a second device at
- * once) leaves behind, so that two completed payments can reach the app.
- */
-async function extraCheckout(job: RepairJob, quoteVersion: number, amountMinor: number) {
-  const session = await getStripe().checkout.sessions.create({
-    mode: "payment",
-    client_reference_id: job.id,
-    metadata: { jobId: job.id, studioId: job.studioId, quoteVersion: String(quoteVersion) },
-    line_items: [{ quantity: 1, price_data: { currency: job.currency.toLowerCase(), unit_amount: amountMinor, product_data: { name: job.title } } }],
-    success_url: `http://localhost:3999/jobs/${job.id}?checkout=success&session_id={CHECKOUT_SESSION_ID}`,
-    cancel_url: `http://localhost:3999/jobs/${job.id}?checkout=cancelled`,
-  });
-  getDb().insert(payments).values({ studioId: job.studioId, jobId: job.id, quoteVersion, checkoutSessionId: session.id, checkoutUrl: session.url, amountMinor, currency: job.currency }).run();
-  return session;
 }
 
 describe("a checkout that no longer matches its job never pays it", () => {

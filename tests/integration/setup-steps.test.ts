@@ -358,6 +358,8 @@ describe("set-up steps", () => {
       ownerName: "An Owner (invented)",
       pieceTitle: "Invented table",
       jobTitle: "Invented repair",
+      refunds: [],
+      kept: null,
       paidOn: "2026-06-01 10:00 EDT",
       reference: "pi_test_invented",
       figures,

@@ -46,3 +46,25 @@ export async function until<T>(fn: () => T | undefined | null | false, ms = 8000
     await new Promise((r) => setTimeout(r, 50));
   }
 }
+
+/**
+ * A gate for the receiver's deliveries: while held, `passed()` waits (the fake waits up to 10 s for an
+ * answer), so the app has not yet heard of payments the fake has already taken, as when webhooks are
+ * slow or out of order; `release()` lets them through.
+ */
+export function webhookGate() {
+  let held: Promise<void> | null = null;
+  let open = () => {};
+  return {
+    hold() {
+      held = new Promise<void>((r) => {
+        open = () => {
+          held = null;
+          r();
+        };
+      });
+    },
+    release: () => open(),
+    passed: () => held ?? Promise.resolve(),
+  };
+}

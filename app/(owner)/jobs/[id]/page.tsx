@@ -8,9 +8,10 @@ import { StatusBadge } from "@/components/ui/status";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { getOwnerJob } from "@/lib/repairs/jobs";
+import { asSentence, refundsOfJob } from "@/lib/repairs/refund-rows";
 import { syncReturnedCheckout } from "@/lib/repairs/payment";
 import { coverWords, JOB_STATE_TONES, OWNER_CAN_DECLINE, OWNER_REFUND_REASON_LABELS, jobIsCovered, jobStateLabel, jobTotalLabel, paymentCounts, receiptPayment } from "@/lib/repairs/states";
-import { formatMoney } from "@/lib/format";
+import { formatInstant, formatMoney } from "@/lib/format";
 import { jobFigures } from "@/lib/repairs/figures";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
@@ -29,6 +30,8 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
     await syncReturnedCheckout(user, id, query.session_id).catch((e: unknown) => console.error("checkout sync failed", e));
   }
   const { job, piece, studio, payments, planName } = await forPage(async () => getOwnerJob(user, id));
+  // Money the studio gave back on a job that stays as it is, each with its reason (lib/repairs/refunds.ts).
+  const givenBack = refundsOfJob(job.id);
   const { visit } = visitOfJob(ownerActor(user), id);
   const paid = payments.some(paymentCounts);
   // Every payment given back, whoever started it: the product's own refunds and the studio's when it cancels a paid job.
@@ -48,8 +51,17 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         ) : null}
         {refunded.map((p) => (
           <Notice key={p.id} tone="info" title="Payment refunded">
-            We refunded your payment of {formatMoney(p.amountMinor, p.currency, studio.country)} in full: {OWNER_REFUND_REASON_LABELS[p.reason]}. Refunds usually show on
+            {givenBack.some((r) => r.paymentId === p.id)
+              ? `We refunded the rest of your payment, ${formatMoney(p.amountMinor - givenBack.filter((r) => r.paymentId === p.id).reduce((sum, r) => sum + r.amountMinor, 0), p.currency, studio.country)}`
+              : `We refunded your payment of ${formatMoney(p.amountMinor, p.currency, studio.country)} in full`}
+            : {OWNER_REFUND_REASON_LABELS[p.reason]}. Refunds usually show on
             your statement within 5–10 business days.
+          </Notice>
+        ))}
+        {givenBack.map((r) => (
+          <Notice key={r.id} tone="info" title={`${studio.name} gave back ${formatMoney(r.amountMinor, r.currency, studio.country)}`}>
+            {r.refundedAt ? `On ${formatInstant(r.refundedAt, user.timeZone || studio.timeZone, { time: true })}, to the card you paid with` : "It is on its way to the card you paid with"}. Their reason: {asSentence(r.reason)} Refunds usually show on your statement within 5–10
+            business days.
           </Notice>
         ))}
         {query.checkout === "success" && job.state !== "paid" && !returnedRefunded ? (

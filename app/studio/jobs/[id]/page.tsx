@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { StaffJobActions } from "@/components/jobs/job-actions";
 import { JobPayments } from "@/components/jobs/job-payments";
+import { JobRefundForm } from "@/components/jobs/job-refund";
 import { QuoteBuilder } from "@/components/jobs/quote-builder";
 import { QuoteSummary } from "@/components/jobs/quote-summary";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -17,6 +18,7 @@ import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { priceListOf } from "@/lib/repairs/price-list";
 import { unsizedWords } from "@/lib/repairs/pricing";
+import { refundableOf, refundRows, refundsOfJob } from "@/lib/repairs/refund-rows";
 import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, jobTotalLabel, paymentCounts, QUOTE_EDITABLE, receiptPayment } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
 import { visitOfJob } from "@/lib/visits/job-visit";
@@ -38,6 +40,9 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const paid = payments.some(paymentCounts);
   // A refund marked but not yet taken by the payment service (it could not be reached): staff can ask again.
   const refundOwed = job.state === "cancelled" && payments.some((p) => p.refundReason && !p.refundRequestedAt && p.status !== "refunded");
+  const refunds = refundsOfJob(job.id);
+  const refundable = refundableOf(job, payments, refunds);
+  const refunded = refundRows(payments, refunds, studio.timeZone, studio.country);
   return (
     <>
       <PageHeader
@@ -125,6 +130,38 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
                 <ButtonLink variant={job.state === "scheduled" ? "secondary" : "primary"} href={`/studio/visits/book/${job.id}`}>
                   {job.state === "scheduled" ? "Move or cancel the visit" : "Book a visit"}
                 </ButtonLink>
+              ) : null}
+            </Card>
+          ) : null}
+          {refundable || refunded.length ? (
+            <Card className="space-y-3">
+              <h2 className="font-semibold">Money given back</h2>
+              {refunded.length ? (
+                <ul className="space-y-2 text-sm">
+                  {refunded.map((r, i) => (
+                    <li key={i} className="flex justify-between gap-3">
+                      <span>
+                        {r.on ? r.on : "Being paid back"}
+                        <br />
+                        <span className="text-muted">{r.why}</span>
+                      </span>
+                      <span className="shrink-0 font-semibold">{r.amount}</span>
+                    </li>
+                  ))}
+                </ul>
+              ) : null}
+              {refundable && refundable.refundableMinor > 0 ? (
+                <JobRefundForm
+                  jobId={job.id}
+                  version={job.version}
+                  refundableMinor={refundable.refundableMinor}
+                  currency={refundable.payment.currency}
+                  exponent={currencyExponent(refundable.payment.currency)}
+                  country={studio.country}
+                  stateLabel={jobStateLabel(job)}
+                />
+              ) : refundable ? (
+                <p className="text-sm text-muted">Everything paid for this job has been given back.</p>
               ) : null}
             </Card>
           ) : null}
