@@ -40,6 +40,13 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await expect(desk.getByText("$10.00 is on its way back to the owner's card.")).toBeVisible();
   await expect(giveBack.getByRole("listitem").first()).toContainText(/\d{4}(,| at) \d{2}:\d{2} [A-Z]{3,4}\s*The wax was applied to the top only, not the legs\.\s*\$10\.00/);
   await expect(desk.getByText("Paid", { exact: true }).first()).toBeVisible();
+  // Through the route itself: a body that isn't a refund is a 400 in words, a stale confirmation a 409; neither moves money.
+  const bad = await desk.request.post(`/api/jobs/${jobId}/refund`, { data: { version: 1, refundableMinor: 100, amountMinor: "ten", reason: "" } });
+  expect(bad.status()).toBe(400);
+  expect((await bad.json()).error.fieldErrors).toMatchObject({ amountMinor: ["Enter the amount to give back."], reason: ["Say why the money is given back: the owner reads it."] });
+  const stale = await desk.request.post(`/api/jobs/${jobId}/refund`, { data: { version: 0, refundableMinor: 100, amountMinor: 100, reason: "Sent from a page left open." } });
+  expect(stale.status()).toBe(409);
+  expect((await stale.json()).error.message).toMatch(/^(The job changed since this page was opened|What can still be given back isn't the amount shown), so nothing was given back\. Reload to see it as it is now\.$/);
   const refundMail = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /gave back \$10\.00/, sinkUrl: SINK_URL });
   expect(refundMail.text).toContain("The wax was applied to the top only, not the legs.");
   await page.goto(`/jobs/${jobId}`);
