@@ -74,9 +74,16 @@ export function RepairSettingsForm({
         <ErrorLine>{e.priceList?.message}</ErrorLine>
         <ol className="space-y-3">
           {list.fields.map((f, i) => (
-            <li key={f.id} className="grid gap-3 rounded-lg border border-line bg-white p-3 sm:grid-cols-[2fr_1fr_1fr_1fr_1fr_auto] sm:items-end">
+            // Two rows from sm up, the task's name and Remove above its four settings: in one row of six the
+            // kind select cut "Delivery and travel" and "Other work" short at 1280 px.
+            <li key={f.id} className="grid gap-3 rounded-lg border border-line bg-white p-3 sm:grid-cols-[1.6fr_0.8fr_0.9fr_1fr] sm:items-end">
               <input type="hidden" {...register(`priceList.${i}.key`)} />
-              <TextField label="Task" {...register(`priceList.${i}.label`)} error={e.priceList?.[i]?.label?.message} />
+              <div className="sm:col-span-3">
+                <TextField label="Task" {...register(`priceList.${i}.label`)} error={e.priceList?.[i]?.label?.message} />
+              </div>
+              <Button type="button" variant="secondary" className="order-last sm:order-none sm:justify-self-end" onClick={() => list.remove(i)} aria-label={`Remove ${f.label || `task ${i + 1}`}`}>
+                Remove
+              </Button>
               <SelectField label="Kind (for tax)" {...register(`priceList.${i}.kind`)}>
                 {LINE_KINDS.map((k) => (
                   <option key={k} value={k}>
@@ -99,9 +106,6 @@ export function RepairSettingsForm({
                 ))}
               </SelectField>
               <TextField label={`Price (${currency})`} inputMode="decimal" {...register(`priceList.${i}.price`)} error={e.priceList?.[i]?.price?.message} />
-              <Button type="button" variant="secondary" onClick={() => list.remove(i)} aria-label={`Remove ${f.label || `task ${i + 1}`}`}>
-                Remove
-              </Button>
             </li>
           ))}
         </ol>
