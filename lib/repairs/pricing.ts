@@ -51,7 +51,7 @@ const CLASS_BY_TASK = Object.fromEntries(Object.entries(TASK_KIND_BY_FINISH_CLAS
  * (lib/pieces/care-inputs refreshedSurface, as the technician's "What to bring" reads it), else the top
  * where the stack does not say which.
  */
-export function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): Surface {
+function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): Surface {
   const cls = CLASS_BY_TASK[kind];
   return (cls && refreshedSurface(layers, cls)) || "top";
 }
@@ -61,7 +61,7 @@ export function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): 
  * from its shape), else the size staff typed on this quote for a surface the record has none for; null
  * where neither is known. Never one surface's size for another.
  */
-export function quoteAreaM2(piece: Piece, input: Pick<JobQuoteInput, "areasM2">, surface: Surface): number | null {
+function quoteAreaM2(piece: Piece, input: Pick<JobQuoteInput, "areasM2">, surface: Surface): number | null {
   return recordedAreaM2(piece, surface) ?? input.areasM2?.[surface] ?? null;
 }
 
