@@ -2,7 +2,7 @@
 
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { useMemo } from "react";
+import { useEffect, useMemo } from "react";
 import { apiJson } from "@/components/api-client";
 import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { Button, ButtonLink } from "@/components/ui/button";
@@ -12,13 +12,16 @@ import { Notice } from "@/components/ui/notice";
 import { SpriteIcon } from "@/components/ui/sprite-icon";
 import type { ClientPage } from "@/lib/clients/list";
 import { formatCount, formatInstant } from "@/lib/format";
+import { CLIENT_FILTERS, CLIENT_SORTS } from "@/lib/clients/vocabulary";
 
 const KEYS = ["q", "filter", "sort", "dir", "page"] as const;
+/** The values each listed key can take (lib/validation/clients.ts clientListQuerySchema); others in a link read as unset. */
+const KNOWN = { filter: CLIENT_FILTERS, sort: CLIENT_SORTS, dir: ["asc", "desc"] } as const;
 
 /** The studio's clients: search, filters, sort and page live in the URL; rows come from GET /api/clients. */
 /** `timeZone`: the studio's, in which the last-change dates are read. */
 export function ClientsTable({ timeZone }: { timeZone: string }) {
-  const { qs, get, set, clear, typed, setTyped } = useUrlFilters(KEYS);
+  const { qs, get, set, clear, typed, setTyped } = useUrlFilters(KEYS, KNOWN);
 
   const query = useQuery({ queryKey: ["clients", qs], queryFn: () => apiJson<ClientPage>(`/api/clients${qs ? `?${qs}` : ""}`), placeholderData: keepPreviousData });
   const data = query.data;
@@ -33,6 +36,12 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
     return p.toString();
   }, [qs]);
   const lastPage = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
+  // A page past the end (an old link, or clients merged since): go to the last page, never "No clients yet".
+  const pastEnd = !!data && data.rows.length === 0 && data.total > 0 && data.page > 1;
+  useEffect(() => {
+    if (pastEnd) set({ page: lastPage > 1 ? String(lastPage) : null });
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only a page found past the end moves the URL
+  }, [pastEnd, lastPage]);
 
   const sortButton = (key: string, label: string) => {
     const active = sort === key;
@@ -98,7 +107,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
       </form>
 
       <div aria-live="polite" className="text-sm text-muted">
-        {query.isPending ? "Loading clients…" : data && data.total > 0 ? `${from}–${to} of ${data.totalIsCapped ? `more than ${formatCount(data.total)}` : formatCount(data.total)} client${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}` : null}
+        {query.isPending || pastEnd ? "Loading clients…" : data && data.total > 0 ? `${from}–${to} of ${data.totalIsCapped ? `more than ${formatCount(data.total)}` : formatCount(data.total)} client${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}` : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
       </div>
 
@@ -109,7 +118,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
             Try again
           </Button>
         </Notice>
-      ) : data && data.rows.length === 0 ? (
+      ) : pastEnd ? null : data && data.rows.length === 0 ? (
         <div className="rounded-xl border border-dashed border-line bg-card p-8 text-center">
           {filtersOn ? (
             <>

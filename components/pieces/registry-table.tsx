@@ -2,7 +2,7 @@
 
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { ApiError, apiJson, isApiError } from "@/components/api-client";
 import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { Button, ButtonLink } from "@/components/ui/button";
@@ -15,14 +15,27 @@ import type { RegistryPage, RegistryRow } from "@/lib/pieces/registry";
 import { CardPrintBar } from "./card-print-bar";
 import { CareStatus, RegistrationStatus } from "./status";
 import { formatCount, formatDate } from "@/lib/format";
+import { PAGE_SIZES, SORTS } from "@/lib/validation/piece-list-keys";
 
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
+/** The values each listed key can take (lib/validation/pieces.ts pieceListQuerySchema); others in a link read as unset. */
+const KNOWN = {
+  kind: PIECE_KINDS,
+  species: SPECIES.map((s) => s.id),
+  finishClass: FINISH_CLASSES,
+  registered: ["yes", "no"],
+  warranty: ["active", "ended"],
+  archived: ["hide", "only"],
+  sort: SORTS,
+  dir: ["asc", "desc"],
+  pageSize: PAGE_SIZES,
+} as const;
 
 const selectCls = "min-h-11 rounded-lg border border-line bg-white px-3 py-2 text-sm text-ink focus:border-resin";
 
 /** The registry: all table state lives in the URL, so a view can be shared and survives a reload. */
 export function RegistryTable() {
-  const { qs, get: v, set, clear, anySetBut, typed, setTyped } = useUrlFilters(FILTER_KEYS);
+  const { qs, get: v, set, clear, anySetBut, typed, setTyped } = useUrlFilters(FILTER_KEYS, KNOWN);
 
   // Pieces ticked for printing their drawer cards; kept across pages and filters until cleared.
   const [chosen, setChosen] = useState<ReadonlySet<string>>(new Set());
@@ -78,6 +91,12 @@ export function RegistryTable() {
   const from = data ? (data.page - 1) * data.pageSize + 1 : 0;
   const to = data ? Math.min(data.total, from + data.rows.length - 1) : 0;
   const lastPage = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
+  // A page past the end (an old link, or pieces archived since): go to the last page, never "No pieces recorded yet".
+  const pastEnd = !!data && data.rows.length === 0 && data.total > 0 && data.page > 1;
+  useEffect(() => {
+    if (pastEnd) set({ page: lastPage > 1 ? String(lastPage) : null });
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only a page found past the end moves the URL
+  }, [pastEnd, lastPage]);
 
   return (
     <div className="space-y-4">
@@ -164,7 +183,7 @@ export function RegistryTable() {
       <CardPrintBar selected={[...chosen]} onClear={() => setChosen(new Set())} />
 
       <div aria-live="polite" className="text-sm text-muted">
-        {query.isPending ? "Loading pieces…" : data ? (data.total === 0 ? (filtersOn ? "No pieces match." : null) : `${from}–${to} of ${data.totalIsCapped ? `more than ${formatCount(data.total)}` : formatCount(data.total)} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
+        {query.isPending || pastEnd ? "Loading pieces…" : data ? (data.total === 0 ? (filtersOn ? "No pieces match." : null) : `${from}–${to} of ${data.totalIsCapped ? `more than ${formatCount(data.total)}` : formatCount(data.total)} piece${data.total === 1 ? "" : "s"}${data.totalIsCapped ? " — add a word or a filter to narrow the search" : ""}${data.matchedBy === "code" ? " · found by registration code" : ""}`) : null}
         {query.isFetching && !query.isPending ? " · updating…" : null}
       </div>
 
@@ -175,7 +194,7 @@ export function RegistryTable() {
             Try again
           </Button>
         </Notice>
-      ) : query.isPending ? (
+      ) : query.isPending || pastEnd ? (
         <ul aria-hidden className="space-y-2">
           {Array.from({ length: 5 }, (_, i) => (
             <li key={i} className="h-16 animate-pulse rounded-xl border border-line bg-card" />

@@ -23,9 +23,24 @@ export type UrlFilters<K extends string> = {
   setTyped: (text: string) => void;
 };
 
-export function useUrlFilters<K extends string>(keys: readonly (K | "q")[]): UrlFilters<K | "q"> {
+/**
+ * `known`: for keys whose values come from a list (a sort, a filter), the values there are; any other
+ * value in the URL (an old or mistyped link) reads as unset, so the link opens the list's default view
+ * instead of an error about a value nobody typed.
+ */
+export function useUrlFilters<K extends string>(keys: readonly (K | "q")[], known: Partial<Record<K, readonly (string | number)[]>> = {}): UrlFilters<K | "q"> {
   type Key = K | "q";
-  const params = useSearchParams();
+  const searchParams = useSearchParams();
+  const params = useMemo(() => {
+    const p = new URLSearchParams(searchParams.toString());
+    for (const [k, values] of Object.entries(known) as [string, readonly (string | number)[]][]) {
+      const v = p.get(k);
+      if (v && !values.map(String).includes(v)) p.delete(k);
+    }
+    return p;
+    // known is a module constant in every caller
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [searchParams]);
   const router = useRouter();
   const pathname = usePathname();
   const qs = useMemo(() => {

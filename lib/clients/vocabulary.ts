@@ -9,6 +9,10 @@ export type ConsentKind = (typeof CONSENT_KINDS)[number];
 export const CONSENT_SOURCES = ["in_person", "phone", "email", "paper", "account", "imported"] as const;
 export type ConsentSource = (typeof CONSENT_SOURCES)[number];
 
+/** The clients list's filters and sorts (its URL's `filter` and `sort`). */
+export const CLIENT_FILTERS = ["account", "invited", "unregistered", "open_claims", "paused"] as const;
+export const CLIENT_SORTS = ["name", "newest", "updated"] as const;
+
 export const CONTACT_METHOD_LABELS: Record<ContactMethod, string> = { email: "E-mail", phone: "Phone", post: "Post" };
 export const CONSENT_KIND_LABELS: Record<ConsentKind, string> = {
   service: "Service mail (care reminders, visit mail)",

@@ -2,7 +2,7 @@
 // route handlers and lib/clients. The phone is checked here for its characters only; lib/clients
 // reads it with the studio's country and answers a number that can't be read with a field error.
 import { z } from "zod";
-import { CONSENT_SOURCES, CONTACT_METHODS } from "@/lib/clients/vocabulary";
+import { CLIENT_FILTERS, CLIENT_SORTS, CONSENT_SOURCES, CONTACT_METHODS } from "@/lib/clients/vocabulary";
 import { pastDate } from "./dates";
 import { createPieceSchema } from "./pieces";
 import { patchOf } from "./patch";
@@ -61,8 +61,7 @@ export type ClientPatch = z.output<typeof clientPatchSchema>;
 export const clientFormSchema = clientFields;
 export type ClientFormInput = z.input<typeof clientFormSchema>;
 
-export const CLIENT_FILTERS = ["account", "invited", "unregistered", "open_claims", "paused"] as const;
-export const CLIENT_SORTS = ["name", "newest", "updated"] as const;
+export { CLIENT_FILTERS, CLIENT_SORTS };
 export const CLIENT_PAGE_SIZE = 50;
 
 /** The clients list's state, also its URL's query string. Empty strings count as absent. */

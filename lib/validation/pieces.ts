@@ -5,6 +5,7 @@ import { getSpecies } from "@/lib/care/species";
 import { FINISH_CLASSES, PIECE_KINDS, RESIN_KINDS, SHAPE_KINDS, SUN_EXPOSURES, SURFACES, USES } from "@/lib/care/vocabulary";
 import { filterDate, pastDate } from "./dates";
 import { patchOf } from "./patch";
+import { PAGE_SIZES, SORTS } from "./piece-list-keys";
 
 /** A delivery, pour or finish-layer date: it has happened (1900 to tomorrow). */
 const pastOn = pastDate();
@@ -119,8 +120,7 @@ export const createPieceSchema = pieceFields
 export type CreatePieceInput = z.input<typeof createPieceSchema>;
 export type CreatePieceValues = z.output<typeof createPieceSchema>;
 
-export const PAGE_SIZES = [10, 25, 50, 100] as const;
-export const SORTS = ["relevance", "delivered", "title", "next_due", "created"] as const;
+export { PAGE_SIZES, SORTS };
 
 /** The registry table's state: also its URL's query string. Empty strings count as absent. */
 export const pieceListQuerySchema = z.preprocess(

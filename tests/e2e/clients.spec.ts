@@ -57,6 +57,16 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   // A time on the timeline names its zone, the viewer's own included ("… at 10:23 PST").
   await expect(timeline.locator("time").filter({ hasText: /\d{2}:\d{2}/ }).first()).toHaveText(/\d{2}:\d{2} [A-Z][A-Za-z0-9+\-]*$/);
 
+  // A link with a filter the list does not have opens the whole list; a page past the end goes to the
+  // last page (was "Some fields need a second look." and "4901–4900 of 2 clients · No clients yet.").
+  await page.goto("/studio/clients?filter=bogus&sort=sideways");
+  await expect(page.getByRole("link", { name: "Jonah Reyes" })).toBeVisible();
+  await page.goto("/studio/clients?page=99");
+  await expect(page.getByRole("link", { name: "Jonah Reyes" })).toBeVisible();
+  await expect(page).toHaveURL(/\/studio\/clients$/);
+  await expect(page.getByText(/^1–\d+ of \d+ clients?$/)).toBeVisible();
+  await expect(page.getByText("No clients yet.")).toHaveCount(0);
+
   // Search by the new number's digits finds them.
   await page.goto("/studio/clients?q=5550147");
   await expect(page.getByRole("link", { name: "Jonah Reyes" })).toBeVisible();

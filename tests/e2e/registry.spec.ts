@@ -167,6 +167,20 @@ test("the URL holds filters and sorting, and the CSV export follows them", async
   expect((await bad.json()).error.fieldErrors).toHaveProperty("pageSize");
   const fts = await page.request.get(`/api/pieces?q=${encodeURIComponent('" * NEAR( - AND title:x ^')}`);
   expect(fts.status()).toBe(200);
+
+  // A link with a sort, kind or page size the registry does not have (an old or mistyped one) opens the
+  // registry as usual, the kind filter kept: no "Choose one of: relevance, …, next_due" from the API.
+  await page.goto("/studio/pieces?kind=bench&sort=bogus&dir=sideways&pageSize=7&registered=maybe");
+  await expect(titles.first()).toBeVisible();
+  await expect(page.getByText("Check the search")).toHaveCount(0);
+  await expect(page.getByLabel("Kind")).toHaveValue("bench");
+  expect(await titles.count()).toBe(seen.length);
+  // A page past the end (a link kept while pieces were archived) goes to the last page, not to "No pieces recorded yet".
+  await page.goto("/studio/pieces?page=99");
+  await expect(titles.first()).toBeVisible();
+  await expect(page).toHaveURL(/\/studio\/pieces$/);
+  await expect(page.getByText(/^1–\d+ of \d+ pieces?/)).toBeVisible();
+  await expect(page.getByText("No pieces recorded yet.")).toHaveCount(0);
 });
 
 test("another studio's staff get 404 on every registry route", async ({ page, browser }) => {
