@@ -133,7 +133,7 @@ export async function applyRefund(chargeId: string, scope?: StripeScope): Promis
     // Staff's refunds on a job that stays as it is (lib/repairs/refunds.ts) are claimed before Stripe is
     // asked and have a mail of their own: only what is beyond them was given back here (a cancellation's
     // refund of the rest, or one made at Stripe by hand).
-    const staff = tx.select({ sum: sql<number>`coalesce(sum(${jobRefunds.amountMinor}), 0)` }).from(jobRefunds).where(eq(jobRefunds.paymentId, payment.id)).get()!.sum;
+    const staff = tx.select({ sum: sql<number>`coalesce(sum(${jobRefunds.amountMinor}), 0)` }).from(jobRefunds).where(and(eq(jobRefunds.studioId, payment.studioId), eq(jobRefunds.jobId, payment.jobId), eq(jobRefunds.paymentId, payment.id))).get()!.sum;
     return { payment, amount: charge.amount_refunded - Math.max(payment.refundedMinor, staff) };
   });
   // An automatic refund was announced when it was asked for; this mail is for cancellations and refunds made by hand.

@@ -70,7 +70,7 @@ export async function mailReceipt(paymentId: string) {
       url: jobUrl(payment.jobId),
       pdfUrl: receiptUrl(payment.jobId),
       // Refunds already made on the job (another payment for it given back), as the PDF lists them.
-      refunds: refundRows(view.payments, refundsOfJob(payment.jobId), view.owner.timeZone, view.studio.country),
+      refunds: refundRows(view.payments, refundsOfJob(view.job), view.owner.timeZone, view.studio.country),
     }),
   });
 }
@@ -79,7 +79,7 @@ export async function mailReceipt(paymentId: string) {
 export async function mailJobRefund(refund: JobRefund) {
   const view = ownerView(refund.jobId);
   if (!view) return;
-  const refunds = refundsOfJob(refund.jobId);
+  const refunds = refundsOfJob(view.job);
   const payment = view.payments.find((p) => p.id === refund.paymentId)!;
   const money = (minor: number) => formatMoney(minor, refund.currency, view.studio.country);
   const props = {

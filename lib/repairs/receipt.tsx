@@ -152,7 +152,7 @@ export function receiptData(actor: Actor, jobId: string): ReceiptData {
   const view: JobView = isStudioActor(actor) ? getStudioJob(actor, jobId) : getOwnerJob(actor.user, jobId);
   const payment = receiptPayment(view.payments);
   if (!payment) throw conflict("This job has no payment yet, so there is no receipt.");
-  const refunds = refundsOfJob(view.job.id);
+  const refunds = refundsOfJob(view.job);
   const keptMinor = payment.amountMinor - givenBackOf(payment, refunds);
   // Staff read the time in the studio's zone, the owner in theirs; the zone is printed beside it.
   const tz = isStudioActor(actor) || !view.owner ? view.studio.timeZone : view.owner.timeZone;

@@ -3,7 +3,7 @@
 // payment set aside to be refunded in full (payments.refundReason: the job was cancelled, or the
 // payment did not count and was refunded on its own, lib/repairs/checkout.ts). No server-only: the
 // scheduler loads lib/repairs/mail.tsx, which reads these.
-import { asc, eq } from "drizzle-orm";
+import { and, asc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { jobRefunds, type JobRefund, type Payment, type RepairJob } from "@/db/schema";
 import { formatInstant, formatMoney } from "@/lib/format";
@@ -15,8 +15,9 @@ const REFUNDABLE_STATES: readonly RepairJob["state"][] = ["paid", "scheduled", "
 /** A reason as staff typed it, ended as a sentence ("… the legs" → "… the legs."), for "Their reason: …". */
 export const asSentence = (text: string) => (/[.!?…]$/.test(text.trim()) ? text.trim() : `${text.trim()}.`);
 
-export function refundsOfJob(jobId: string): JobRefund[] {
-  return getDb().select().from(jobRefunds).where(eq(jobRefunds.jobId, jobId)).orderBy(asc(jobRefunds.createdAt)).all();
+/** Staff's refunds on a job the caller has already reached (its studio and id: job_refunds_studio_job_idx), oldest first. */
+export function refundsOfJob(job: Pick<RepairJob, "id" | "studioId">): JobRefund[] {
+  return getDb().select().from(jobRefunds).where(and(eq(jobRefunds.studioId, job.studioId), eq(jobRefunds.jobId, job.id))).orderBy(asc(jobRefunds.createdAt)).all();
 }
 
 const staffShareOf = (payment: Pick<Payment, "id">, refunds: readonly JobRefund[]) => refunds.filter((r) => r.paymentId === payment.id).reduce((sum, r) => sum + r.amountMinor, 0);

@@ -42,7 +42,7 @@ export async function refundJob(ctx: StudioActor, jobId: string, ask: JobRefundA
     if (job.state === "cancelled") throw conflict("This job is cancelled: its payment was given back when it was cancelled.");
     if (job.version !== ask.version) throw conflict("The job changed since this page was opened, so nothing was given back. Reload to see it as it is now.", { code: "job_changed" });
     const jobPayments = tx.select().from(payments).where(eq(payments.jobId, job.id)).all();
-    const refunds = tx.select().from(jobRefunds).where(eq(jobRefunds.jobId, job.id)).all();
+    const refunds = tx.select().from(jobRefunds).where(and(eq(jobRefunds.studioId, job.studioId), eq(jobRefunds.jobId, job.id))).all();
     const open = refundableOf(job, jobPayments, refunds);
     if (!open) throw conflict("This job has no card payment to give money back from.");
     if (open.refundableMinor !== ask.refundableMinor) throw conflict("What can still be given back isn't the amount shown, so nothing was given back. Reload to see it as it is now.", { code: "refundable_changed" });

@@ -31,7 +31,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   }
   const { job, piece, studio, payments, planName } = await forPage(async () => getOwnerJob(user, id));
   // Money the studio gave back on a job that stays as it is, each with its reason (lib/repairs/refunds.ts).
-  const givenBack = refundsOfJob(job.id);
+  const givenBack = refundsOfJob(job);
   const { visit } = visitOfJob(ownerActor(user), id);
   const paid = payments.some(paymentCounts);
   // Every payment given back, whoever started it: the product's own refunds and the studio's when it cancels a paid job.

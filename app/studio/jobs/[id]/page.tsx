@@ -40,7 +40,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const paid = payments.some(paymentCounts);
   // A refund marked but not yet taken by the payment service (it could not be reached): staff can ask again.
   const refundOwed = job.state === "cancelled" && payments.some((p) => p.refundReason && !p.refundRequestedAt && p.status !== "refunded");
-  const refunds = refundsOfJob(job.id);
+  const refunds = refundsOfJob(job);
   const refundable = refundableOf(job, payments, refunds);
   const refunded = refundRows(payments, refunds, studio.timeZone, studio.country);
   return (
