@@ -117,6 +117,12 @@ test("password reset end to end through the sink; the link works once", async ({
 test("an admin invites a technician, who joins from the e-mail", async ({ page, browser }) => {
   const email = `tech-${Date.now()}@larchmere.example`;
   await signInTo(page, ACCOUNTS.admin, "/studio/team");
+  // The only admin's own buttons cannot be pressed and look it: faded, where another member's are not.
+  const members = page.getByRole("main").getByRole("listitem");
+  const ownRemove = members.filter({ hasText: "(you)" }).getByRole("button", { name: "Remove" });
+  await expect(ownRemove).toBeDisabled();
+  await expect(ownRemove).toHaveCSS("opacity", "0.5");
+  await expect(members.filter({ hasText: "Teo Lindqvist" }).getByRole("button", { name: "Remove" })).toHaveCSS("opacity", "1");
   await page.getByLabel("Email", { exact: true }).fill(email);
   await page.getByLabel("Role", { exact: true }).selectOption("technician");
   await page.getByRole("button", { name: "Send invitation" }).click();
