@@ -77,3 +77,22 @@ export function JobRefundForm({ jobId, version, refundableMinor, currency, expon
     </div>
   );
 }
+
+/**
+ * A refund the payment service did not confirm (it did not answer): asked again with the same
+ * idempotency key (lib/repairs/refunds.ts finishJobRefund), so the money goes back at most once.
+ */
+export function FinishRefundButton({ jobId, refundId }: { jobId: string; refundId: string }) {
+  const { run, busy, error } = useRefreshingMutation(() => apiJson(`/api/jobs/${jobId}/refund/${refundId}`, { method: "POST" }), {
+    refresh: "always",
+    onSuccess: () => toast.success("The payment service confirmed the refund."),
+  });
+  return (
+    <span className="mt-1 block">
+      <Button variant="secondary" disabled={busy} onClick={() => run()}>
+        {busy ? "Asking the payment service…" : "Finish giving back"}
+      </Button>
+      <ErrorLine>{error}</ErrorLine>
+    </span>
+  );
+}

@@ -85,6 +85,10 @@ export async function callStripe<T>(what: string, fn: (stripe: Stripe) => Promis
     if (e instanceof Stripe.errors.StripeConnectionError || e instanceof Stripe.errors.StripeAPIError) {
       throw serviceUnavailable("payment_service_unavailable", `The payment service can't be reached right now, so we couldn't ${what}. Nothing was charged; try again in a minute.`);
     }
+    // Not a refusal: a request under the same key reached Stripe before (a refund may have been made).
+    if (e instanceof Stripe.errors.StripeIdempotencyError) {
+      throw conflict(`The payment service already has a request like this one, so we couldn't ${what} again. Reload the page to see where it stands.`, { code: "payment_service_key_reused" });
+    }
     if (e instanceof Stripe.errors.StripeError) {
       throw conflict(`The payment service refused to ${what}: ${e.message}`, { code: "payment_service_refused" });
     }

@@ -47,6 +47,8 @@ export type RefundRow = {
   /** Why, in the owner's words. */
   why: string;
   at: number;
+  /** A staff refund the payment service has not confirmed yet (lib/repairs/refunds.ts finishJobRefund). */
+  pendingId: string | null;
 };
 
 /**
@@ -56,14 +58,14 @@ export type RefundRow = {
 export function refundRows(jobPayments: readonly Payment[], refunds: readonly JobRefund[], timeZone: string, country: string): RefundRow[] {
   const rows: RefundRow[] = [];
   for (const r of refunds) {
-    rows.push({ amount: formatMoney(r.amountMinor, r.currency, country), on: r.refundedAt ? formatInstant(r.refundedAt, timeZone, { time: true }) : null, why: asSentence(r.reason), at: (r.refundedAt ?? r.createdAt).getTime() });
+    rows.push({ amount: formatMoney(r.amountMinor, r.currency, country), on: r.refundedAt ? formatInstant(r.refundedAt, timeZone, { time: true }) : null, why: asSentence(r.reason), at: (r.refundedAt ?? r.createdAt).getTime(), pendingId: r.refundedAt ? null : r.id });
   }
   for (const p of jobPayments) {
     if (p.refundReason === null) continue;
     const amountMinor = p.amountMinor - staffShareOf(p, refunds);
     if (amountMinor <= 0) continue;
     const why = OWNER_REFUND_REASON_LABELS[p.refundReason];
-    rows.push({ amount: formatMoney(amountMinor, p.currency, country), on: p.refundRequestedAt ? formatInstant(p.refundRequestedAt, timeZone, { time: true }) : null, why: asSentence(why.charAt(0).toUpperCase() + why.slice(1)), at: (p.refundRequestedAt ?? p.updatedAt).getTime() });
+    rows.push({ amount: formatMoney(amountMinor, p.currency, country), on: p.refundRequestedAt ? formatInstant(p.refundRequestedAt, timeZone, { time: true }) : null, why: asSentence(why.charAt(0).toUpperCase() + why.slice(1)), at: (p.refundRequestedAt ?? p.updatedAt).getTime(), pendingId: null });
   }
   return rows.sort((a, b) => a.at - b.at);
 }

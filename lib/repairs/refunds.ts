@@ -6,16 +6,17 @@ import "server-only";
 //  - a refund staff give on a paid job that stays as it is (job_refunds): all of the payment or a part,
 //    with a reason the owner reads. As with a held plan payment (lib/plans/held.ts), money moves only
 //    when the job version and the amount still refundable that staff were shown are the current ones:
-//    both are checked and the refund claimed (a job_refunds row, the job's version moved on) in one
-//    transaction, so a second click made on the same page is refused; Stripe is asked after, with the
-//    claim's id as idempotency key; if Stripe refuses, the claim is removed and nothing was given back.
-import { and, eq } from "drizzle-orm";
+//    both are checked and the amount set aside (a pending job_refunds row, the job's version moved on)
+//    in one transaction, so a second click made on the same page is refused; Stripe is asked after, with
+//    the row's id as idempotency key. If Stripe refuses, the row goes and nothing was given back; if it
+//    does not answer, the row stays pending until staff ask again with the same key (finishJobRefund).
+import { and, eq, isNull } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { jobRefunds, payments, repairJobs, type JobRefund, type RepairJob } from "@/db/schema";
+import { jobRefunds, payments, repairJobs, type JobRefund, type Payment, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioActor } from "@/lib/auth/actor";
-import { badRequest, conflict } from "@/lib/errors";
+import { badRequest, conflict, isAppError, notFound, serviceUnavailable } from "@/lib/errors";
 import { formatMoney } from "@/lib/format";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { callStripe } from "@/lib/payments/stripe";
@@ -36,8 +37,8 @@ export type JobRefundAsk = z.infer<typeof jobRefundSchema>;
 /** Staff give back all or part of a paid job's payment; the job stays as it is. */
 export async function refundJob(ctx: StudioActor, jobId: string, ask: JobRefundAsk): Promise<{ job: RepairJob; refund: JobRefund }> {
   const first = getStudioJob(ctx, jobId).job;
-  // 1. Check what was confirmed and claim the refund: one transaction.
-  const { claim, payment } = getDb().transaction((tx) => {
+  // 1. Check what was confirmed and set the amount aside: one transaction.
+  const { pending, payment } = getDb().transaction((tx) => {
     const job = tx.select().from(repairJobs).where(and(eq(repairJobs.id, first.id), eq(repairJobs.studioId, ctx.studio.id))).get()!;
     if (job.state === "cancelled") throw conflict("This job is cancelled: its payment was given back when it was cancelled.");
     if (job.version !== ask.version) throw conflict("The job changed since this page was opened, so nothing was given back. Reload to see it as it is now.", { code: "job_changed" });
@@ -51,41 +52,74 @@ export async function refundJob(ctx: StudioActor, jobId: string, ask: JobRefundA
       const most = formatMoney(open.refundableMinor, open.payment.currency, ctx.studio.country);
       throw badRequest(`At most ${most} can be given back.`, { amountMinor: [`Enter ${most} or less.`] });
     }
-    const claim = tx.insert(jobRefunds).values({ studioId: job.studioId, jobId: job.id, paymentId: open.payment.id, amountMinor: ask.amountMinor, currency: open.payment.currency, reason: ask.reason, byId: ctx.user.id }).returning().get();
-    // The version moves on with the claim, so the same confirmation sent twice is refused.
+    const pending = tx.insert(jobRefunds).values({ studioId: job.studioId, jobId: job.id, paymentId: open.payment.id, amountMinor: ask.amountMinor, currency: open.payment.currency, reason: ask.reason, byId: ctx.user.id }).returning().get();
+    // The version moves on with the pending refund, so the same confirmation sent twice is refused.
     tx.update(repairJobs).set({ version: job.version + 1, updatedAt: new Date() }).where(and(eq(repairJobs.id, job.id), eq(repairJobs.version, job.version))).run();
-    return { claim, payment: open.payment };
+    return { pending, payment: open.payment };
   });
-  // 2. Stripe; if it refuses, nothing was given back and the claim goes.
+  const refund = await giveBack(ctx, pending, payment, { jobVersion: ask.version, part: pending.amountMinor < ask.refundableMinor });
+  return { job: getStudioJob(ctx, jobId).job, refund };
+}
+
+/**
+ * Asks Stripe again for a refund left pending because the payment service did not answer (or the server
+ * stopped before writing its answer): the same idempotency key, so Stripe makes it at most once whether
+ * or not the first request reached it. One already finished is returned as it is.
+ */
+export async function finishJobRefund(ctx: StudioActor, jobId: string, refundId: string): Promise<{ job: RepairJob; refund: JobRefund }> {
+  const { job } = getStudioJob(ctx, jobId);
+  const pending = getDb().select().from(jobRefunds).where(and(eq(jobRefunds.studioId, job.studioId), eq(jobRefunds.jobId, job.id), eq(jobRefunds.id, refundId))).get();
+  if (!pending) throw notFound("This refund isn't on this job: reload the page.");
+  if (pending.refundedAt) return { job, refund: pending };
+  const payment = getDb().select().from(payments).where(and(eq(payments.jobId, job.id), eq(payments.id, pending.paymentId))).get()!;
+  const refund = await giveBack(ctx, pending, payment, { finishedLater: true, askedBy: pending.byId });
+  return { job: getStudioJob(ctx, jobId).job, refund };
+}
+
+/**
+ * 2. Stripe, with the pending refund's id as idempotency key. A refusal (Stripe answered no) means no
+ * money moved: the pending refund goes. No answer at all is not a refusal: Stripe may have made the
+ * refund, so it stays pending (its amount set aside, nothing given back twice) for finishJobRefund.
+ * 3. The outcome, who gave what back, and the owner's mail, once, whichever request writes it first.
+ */
+async function giveBack(ctx: StudioActor, pending: JobRefund, payment: Payment, auditData: Record<string, unknown>): Promise<JobRefund> {
   let chargeId: string | undefined;
   let refundId: string;
   try {
     const refund = await callStripe(
       "give back the payment",
-      (s) => s.refunds.create({ payment_intent: payment.paymentIntentId!, amount: claim.amountMinor, metadata: { jobId: claim.jobId, jobRefundId: claim.id } }, { idempotencyKey: `job-refund-${claim.id}` }),
+      (s) => s.refunds.create({ payment_intent: payment.paymentIntentId!, amount: pending.amountMinor, metadata: { jobId: pending.jobId, jobRefundId: pending.id } }, { idempotencyKey: `job-refund-${pending.id}` }),
       payment,
     );
     refundId = refund.id;
     chargeId = typeof refund.charge === "string" ? refund.charge : refund.charge?.id;
   } catch (e) {
-    getDb().delete(jobRefunds).where(eq(jobRefunds.id, claim.id)).run();
-    throw e;
+    if (isAppError(e) && e.code === "payment_service_refused") {
+      getDb().delete(jobRefunds).where(and(eq(jobRefunds.id, pending.id), isNull(jobRefunds.refundedAt))).run();
+      throw e;
+    }
+    throw serviceUnavailable(
+      "refund_pending",
+      `The payment service didn't answer, so we can't tell yet whether ${formatMoney(pending.amountMinor, pending.currency, ctx.studio.country)} went back. It stays listed as being given back, and it can't be given back twice: press “Finish giving back” in a minute.`,
+    );
   }
-  // 3. Write the outcome and who gave what back.
-  const refund = getDb().transaction((tx) => {
-    const done = tx.update(jobRefunds).set({ stripeRefundId: refundId, refundedAt: new Date() }).where(eq(jobRefunds.id, claim.id)).returning().get()!;
+  const done = getDb().transaction((tx) => {
+    const row = tx.update(jobRefunds).set({ stripeRefundId: refundId, refundedAt: new Date() }).where(and(eq(jobRefunds.id, pending.id), isNull(jobRefunds.refundedAt))).returning().get();
+    // Another request finished it first: it wrote the audit and sends the mail.
+    if (!row) return null;
     recordAudit(tx, {
-      studioId: claim.studioId,
+      studioId: pending.studioId,
       actorId: ctx.user.id,
       action: "job.refunded",
       subjectType: "repair_job",
-      subjectId: claim.jobId,
-      data: { amountMinor: claim.amountMinor, currency: claim.currency, reason: claim.reason, paymentId: payment.id, stripeRefundId: refundId, jobVersion: ask.version, part: claim.amountMinor < ask.refundableMinor },
+      subjectId: pending.jobId,
+      data: { amountMinor: pending.amountMinor, currency: pending.currency, reason: pending.reason, paymentId: payment.id, stripeRefundId: refundId, ...auditData },
     });
-    return done;
+    return row;
   });
+  if (!done) return getDb().select().from(jobRefunds).where(eq(jobRefunds.id, pending.id)).get()!;
   // The payment's refunded amount as Stripe now has it (also when charge.refunded arrives later).
   if (chargeId) await applyRefund(chargeId, payment).catch((e: unknown) => console.error("refund: reading the charge back failed; charge.refunded will bring it", e));
-  await mailAfterCommit("job refunded", () => mailJobRefund(refund));
-  return { job: getStudioJob(ctx, jobId).job, refund };
+  await mailAfterCommit("job refunded", () => mailJobRefund(done));
+  return done;
 }

@@ -78,3 +78,5 @@ export const jobListQuerySchema = z.object({
 });
 
 export const jobIdParams = z.object({ id });
+/** A staff refund on a job: /api/jobs/[id]/refund/[refundId]. */
+export const jobRefundParams = z.object({ id, refundId: id });

@@ -371,6 +371,13 @@ const ROUTES: RouteRow[] = [
     messages: { "409": /^(The job changed since this page was opened, so nothing was given back\. Reload to see it as it is now\.|This job has no card payment to give money back from\.)$/ },
     send: ({ api }) => api.post(`/api/jobs/${J.done}/refund`, { data: { version: 999_999, refundableMinor: 0, amountMinor: 1, reason: "Checking who may give money back." } }),
   },
+  // Finishing a refund the payment service did not confirm: the studio's staff and admins only; none is pending on the done job.
+  {
+    route: "POST /api/jobs/[id]/refund/[refundId]",
+    expect: "401 403 403 403 404 404 404 404",
+    messages: { "404": /^(This refund isn't on this job: reload the page\.|No such repair job\.)$/ },
+    send: ({ api }) => api.post(`/api/jobs/${J.done}/refund/missing-refund`),
+  },
   { route: "POST /api/jobs/[id]/quote", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post(`/api/jobs/${J.done}/quote`) },
   // The receipt PDF of the owner's paid job: its owner and the studio's staff; a technician is neither.
   { route: "GET /api/jobs/[id]/receipt", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/jobs/${J.paid}/receipt`) },

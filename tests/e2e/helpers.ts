@@ -6,6 +6,18 @@ import { E2E_APP_URL, E2E_DATABASE, E2E_PORTS, E2E_SINK_URL } from "../../script
 export const APP_URL = E2E_APP_URL;
 export const SINK_URL = E2E_SINK_URL;
 export const PORTS = E2E_PORTS;
+
+// The fake's own key (lib/fakes/stripe-fake-cli.ts; the e2e server leaves STRIPE_SECRET_KEY at its default).
+const STRIPE_FAKE_KEY = process.env.STRIPE_SECRET_KEY ?? "sk_test_grainward_demo";
+
+/** One of the Stripe fake's test knobs (POST /_test/…, lib/fakes/stripe-fake.ts), with a form body. */
+export function fakeKnob(path: string, form: Record<string, string>) {
+  return fetch(`http://127.0.0.1:${PORTS.stripe}/_test/${path}`, {
+    method: "POST",
+    headers: { authorization: `Bearer ${STRIPE_FAKE_KEY}`, "content-type": "application/x-www-form-urlencoded" },
+    body: new URLSearchParams(form).toString(),
+  });
+}
 /** The e2e server's SQLite file (the empty-install run has one of its own). */
 export const DATABASE_FILE = E2E_DATABASE;
 export const PASSWORD = "grainward-demo";

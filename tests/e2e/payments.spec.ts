@@ -1,7 +1,7 @@
 // The owner approves a quote and pays on the Stripe fake's hosted page with a test card.
 import { expect, test } from "@playwright/test";
 import { extractLinks, waitForMail } from "../support/mail";
-import { ACCOUNTS, PORTS, SINK_URL, fixture, signIn, signInTo } from "./helpers";
+import { ACCOUNTS, PORTS, SINK_URL, fakeKnob, fixture, signIn, signInTo } from "./helpers";
 
 test("owner approves a quote, pays with the success card, returns and sees the job paid; staff cancel and refund it", async ({ page, browser }) => {
   const jobId = fixture().jobs.quoted!;
@@ -53,6 +53,22 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await expect(page.getByRole("status").filter({ hasText: "gave back $10.00" })).toContainText("Their reason: The wax was applied to the top only, not the legs. Refunds usually show");
   await page.goto("/jobs");
   await expect(page.getByRole("link", { name: /Re-wax the desk top/ })).toContainText(/\$[\d,.]+ paid, \$10\.00 refunded/);
+
+  // The payment service does not answer a second refund: the page says it can't tell yet, keeps the $5.00
+  // set aside as being paid back, and "Finish giving back" asks again with the same key.
+  expect((await fakeKnob("fail-next", { method: "POST", path: "/v1/refunds" })).status).toBe(200);
+  await giveBack.getByLabel("Amount to give back (USD)").fill("5");
+  await giveBack.getByLabel("Reason (the owner reads it)").fill("Delivery came a day late.");
+  await giveBack.getByRole("button", { name: "Give money back…" }).click();
+  await giveBack.getByRole("button", { name: "Give back $5.00" }).click();
+  await expect(giveBack.getByRole("alert")).toContainText("The payment service didn't answer, so we can't tell yet whether $5.00 went back.");
+  const pendingRow = giveBack.getByRole("listitem").filter({ hasText: "Delivery came a day late." });
+  await expect(pendingRow).toContainText("Being paid back");
+  await pendingRow.getByRole("button", { name: "Finish giving back" }).click();
+  await expect(desk.getByText("The payment service confirmed the refund.")).toBeVisible();
+  await expect(pendingRow).toContainText(/\d{4}(,| at) \d{2}:\d{2} [A-Z]{3,4}\s*Delivery came a day late\.\s*\$5\.00/);
+  await expect(pendingRow.getByRole("button", { name: "Finish giving back" })).toHaveCount(0);
+  await waitForMail({ to: ACCOUNTS.otherOwner, subject: /gave back \$5\.00/, sinkUrl: SINK_URL });
 
   // Staff cancel the paid job: the app's own dialog asks first (a browser confirm() box would be
   // dismissed here and the button would seem dead), saying the payment is refunded.

@@ -8,25 +8,14 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { formatInstant } from "../../lib/format";
 import { waitForMail } from "../support/mail";
-import { ACCOUNTS, fixture, PORTS, SINK_URL, signIn, signInTo } from "./helpers";
+import { ACCOUNTS, fakeKnob, fixture, SINK_URL, signIn, signInTo } from "./helpers";
 
-// The fake's own key (lib/fakes/stripe-fake-cli.ts; the e2e server leaves STRIPE_SECRET_KEY at its default).
-const FAKE_KEY = process.env.STRIPE_SECRET_KEY ?? "sk_test_grainward_demo";
 // The demo studio's zone (db/seed/demo.ts), in which staff read times.
 const STUDIO_ZONE = "America/Los_Angeles";
 
 async function noAxeViolations(page: Page) {
   const axe = await new AxeBuilder({ page }).analyze();
   expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
-}
-
-/** One of the Stripe fake's test knobs (POST /_test/…, lib/fakes/stripe-fake.ts), with a form body. */
-function fakeKnob(path: string, form: Record<string, string>) {
-  return fetch(`http://127.0.0.1:${PORTS.stripe}/_test/${path}`, {
-    method: "POST",
-    headers: { authorization: `Bearer ${FAKE_KEY}`, "content-type": "application/x-www-form-urlencoded" },
-    body: new URLSearchParams(form).toString(),
-  });
 }
 
 /** On the owner's piece page: starts the first plan offered, pays on the fake's page, and answers the plan once it runs. */

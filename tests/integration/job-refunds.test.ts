@@ -13,7 +13,8 @@ import { formatMoney } from "@/lib/format";
 import { listOwnerJobs, listStudioJobs, moveJob } from "@/lib/repairs/jobs";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { receiptPdf } from "@/lib/repairs/receipt";
-import { refundJob } from "@/lib/repairs/refunds";
+import { finishJobRefund, refundJob } from "@/lib/repairs/refunds";
+import { getStripe } from "@/lib/payments/stripe";
 import { jobAmountText } from "@/lib/repairs/states";
 import { createStudio, memberContext, unique } from "../support/fixtures";
 import { extraCheckout, quotedRepairJob } from "../support/repair-quote";
@@ -152,14 +153,57 @@ describe("staff give money back on a job that stays done", () => {
     expect(studio.id).not.toBe(other.id);
   });
 
-  it("when Stripe refuses, nothing is given back and nothing is claimed; asked again on the reloaded page, it goes through once", async () => {
+  it("when Stripe answers no, nothing is given back and nothing stays set aside; asked again on the reloaded page, it goes through once", async () => {
     const { staff, job } = await doneJob();
-    stripe.fake.failNext("POST", "/v1/refunds");
-    await expect(refundJob(staff, job.id, ask(job, job.totalMinor, 2500))).rejects.toMatchObject({ status: 503 });
+    // Stripe refuses a refund of a payment it does not know (resource_missing): a definite no.
+    const paid = paymentRows(job.id).find((p) => p.paymentIntentId)!;
+    getDb().update(payments).set({ paymentIntentId: "pi_not_at_stripe" }).where(eq(payments.id, paid.id)).run();
+    await expect(refundJob(staff, job.id, ask(job, job.totalMinor, 2500))).rejects.toMatchObject({ status: 409, code: "payment_service_refused" });
     expect(getDb().select().from(jobRefunds).where(eq(jobRefunds.jobId, job.id)).all()).toHaveLength(0);
+    getDb().update(payments).set({ paymentIntentId: paid.paymentIntentId }).where(eq(payments.id, paid.id)).run();
     expect(charged(job.id).refunded).toBe(0);
     await refundJob(staff, job.id, ask(jobRow(job.id), job.totalMinor, 2500));
     expect(charged(job.id).refunded).toBe(2500);
+  });
+
+  it("when the payment service does not answer, the refund stays pending with its amount set aside; finishing it asks with the same key, so the money goes back once and the owner is mailed once", async () => {
+    const { owner, staff, job } = await doneJob();
+    const since = new Date();
+    stripe.fake.failNext("POST", "/v1/refunds"); // the fake says not to retry: the SDK gives up at once
+    await expect(refundJob(staff, job.id, ask(job, job.totalMinor, 2500))).rejects.toMatchObject({ status: 503, code: "refund_pending", message: expect.stringMatching(/can't tell yet whether \$25\.00 went back/) });
+    const [pending] = getDb().select().from(jobRefunds).where(eq(jobRefunds.jobId, job.id)).all();
+    expect(pending).toMatchObject({ amountMinor: 2500, refundedAt: null, stripeRefundId: null });
+    expect(charged(job.id).refunded).toBe(0);
+    // Set aside: another refund on the same page can't give the same money back again.
+    await expect(refundJob(staff, job.id, ask(jobRow(job.id), job.totalMinor, job.totalMinor))).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/^What can still be given back isn't the amount shown/) });
+    // Two presses of "Finish giving back" at once: one refund at Stripe, one audit row, one mail.
+    const both = await Promise.all([finishJobRefund(staff, job.id, pending!.id), finishJobRefund(staff, job.id, pending!.id)]);
+    expect(both.map((b) => b.refund.stripeRefundId)).toEqual([expect.stringMatching(/^re_/), both[0].refund.stripeRefundId]);
+    expect(charged(job.id)).toEqual({ count: 1, refunded: 2500 });
+    expect(getDb().select().from(auditLog).where(and(eq(auditLog.action, "job.refunded"), eq(auditLog.subjectId, job.id))).all()).toHaveLength(1);
+    await waitForMail({ to: owner.email, subject: /gave back \$25\.00/, since });
+    await new Promise((r) => setTimeout(r, 300));
+    expect((await listMail({ to: owner.email })).filter((m) => /gave back \$25\.00/.test(m.subject) && Date.parse(m.receivedAt) >= since.getTime())).toHaveLength(1);
+    // Finishing one already finished changes nothing.
+    expect((await finishJobRefund(staff, job.id, pending!.id)).refund.stripeRefundId).toBe(both[0].refund.stripeRefundId);
+    expect(charged(job.id).refunded).toBe(2500);
+    // Another studio can't reach it.
+    const other = await memberContext(createStudio({ email: `${unique("other")}@test.example` }), "admin");
+    await expect(finishJobRefund(other, job.id, pending!.id)).rejects.toMatchObject({ status: 404 });
+  });
+
+  it("a refund Stripe made whose answer was lost is not made twice when it is finished", async () => {
+    const { staff, job } = await doneJob();
+    stripe.fake.failNext("POST", "/v1/refunds");
+    await expect(refundJob(staff, job.id, ask(job, job.totalMinor, 1200))).rejects.toMatchObject({ status: 503 });
+    const [pending] = getDb().select().from(jobRefunds).where(eq(jobRefunds.jobId, job.id)).all();
+    // The request reached Stripe after all (as when the answer is lost on the way back): the same key.
+    const paid = paymentRows(job.id).find((p) => p.paymentIntentId)!;
+    const made = await getStripe(paid).refunds.create({ payment_intent: paid.paymentIntentId!, amount: 1200, metadata: { jobId: job.id, jobRefundId: pending!.id } }, { idempotencyKey: `job-refund-${pending!.id}` });
+    expect(charged(job.id).refunded).toBe(1200);
+    const { refund } = await finishJobRefund(staff, job.id, pending!.id);
+    expect(refund.stripeRefundId).toBe(made.id);
+    expect(charged(job.id).refunded).toBe(1200);
   });
 
   it("a booked job given a part back and then cancelled refunds only the rest, and the owner reads the rest", async () => {

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { StaffJobActions } from "@/components/jobs/job-actions";
 import { JobPayments } from "@/components/jobs/job-payments";
-import { JobRefundForm } from "@/components/jobs/job-refund";
+import { FinishRefundButton, JobRefundForm } from "@/components/jobs/job-refund";
 import { QuoteBuilder } from "@/components/jobs/quote-builder";
 import { QuoteSummary } from "@/components/jobs/quote-summary";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -144,6 +144,12 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
                         {r.on ? r.on : "Being paid back"}
                         <br />
                         <span className="text-muted">{r.why}</span>
+                        {r.pendingId ? (
+                          <>
+                            <span className="block text-muted">The payment service hasn’t confirmed this refund yet. Asking again can’t give it back twice.</span>
+                            <FinishRefundButton jobId={job.id} refundId={r.pendingId} />
+                          </>
+                        ) : null}
                       </span>
                       <span className="shrink-0 font-semibold">{r.amount}</span>
                     </li>
