@@ -261,6 +261,8 @@ test("a covered repair job reads 'Covered by the warranty', not $0.00, and asks 
   await page.goto("/jobs");
   const row = page.getByRole("link", { name: /Polish the resin river/ });
   await expect(row).toContainText("Covered by the warranty");
+  // Each repair names its piece, as the staff list does (the title names only the work).
+  await expect(row).toContainText("Walnut and maple resin coffee table · Larchmere Slab & Resin");
   await expect(row).not.toContainText("$0.00");
   await row.click();
   await expect(page.getByRole("heading", { name: "Polish the resin river" })).toBeVisible();

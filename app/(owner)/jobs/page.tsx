@@ -26,7 +26,8 @@ export default async function OwnerJobsPage() {
                   <StatusBadge label={jobStateLabel(j)} tone={JOB_STATE_TONES[j.state]} />
                 </span>
                 <span className="mt-1 block text-sm text-muted">
-                  {j.studioName} · {jobAmountText(j, j.studioCountry)}
+                  {/* The piece, as the staff jobs list shows it: a job's title names the work ("Repair: crack or gap"), not the piece. */}
+                  {j.pieceTitle} · {j.studioName} · {jobAmountText(j, j.studioCountry)}
                 </span>
               </Link>
             </li>
