@@ -99,7 +99,7 @@ export async function mailJobRefund(refund: JobRefund) {
   await sendMail({ studioId: view.studio.id, to: view.owner.email, replyTo: jobReplyTo(refund.jobId), subject: jobRefundSubject(props), email: <JobRefundEmail {...props} /> });
 }
 
-/** A refund of a cancelled job (or one made at Stripe by hand) reached the charge. */
+/** A refund of a cancelled job, or one made at Stripe by hand on a job that stands, reached the charge. */
 export async function mailRefundIssued(payment: Payment, amountMinor: number) {
   const view = ownerView(payment.jobId);
   if (!view) return;
@@ -108,7 +108,7 @@ export async function mailRefundIssued(payment: Payment, amountMinor: number) {
     to: view.owner.email,
     replyTo: jobReplyTo(payment.jobId),
     subject: `Refund from ${view.studio.name}`,
-    email: RefundIssuedEmail({ ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, amount: formatMoney(amountMinor, payment.currency, view.studio.country) }),
+    email: RefundIssuedEmail({ ownerName: view.owner.name, studioName: view.studio.name, pieceTitle: view.piece.title, amount: formatMoney(amountMinor, payment.currency, view.studio.country), jobTitle: view.job.title, cancelled: view.job.state === "cancelled" }),
   });
 }
 

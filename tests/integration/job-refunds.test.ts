@@ -220,6 +220,17 @@ describe("staff give money back on a job that stays done", () => {
     const { data } = await receiptPdf(staff, job.id);
     expect(data.refunds.map((r) => r.amount)).toEqual(["$30.00", formatMoney(job.totalMinor - 3000, "USD", "US")]);
   });
+
+  it("a refund made at Stripe by hand on a job that stands tells the owner what was refunded, not that the work was cancelled", async () => {
+    const { owner, job } = await doneJob();
+    const since = new Date();
+    const paid = paymentRows(job.id).find((p) => p.paymentIntentId)!;
+    await getStripe(paid).refunds.create({ payment_intent: paid.paymentIntentId!, amount: 700 });
+    const mail = await waitForMail({ to: owner.email, subject: /^Refund from/, since });
+    expect(mail.text).toContain(`refunded $7.00 of your payment for “${job.title}”`);
+    expect(mail.text).not.toContain("cancelled the work");
+    expect(jobRow(job.id).state).toBe("done");
+  });
 });
 
 describe("every refund on the receipt", () => {
