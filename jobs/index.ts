@@ -1,6 +1,6 @@
 // `npm run jobs`: the scheduler process. node-cron runs the reminder pass at minute 5 of every hour
 // (and once at start), visit reminders every 15 minutes (and once at start), the retry of queued mail
-// every minute, the care-plan visit pass at minute 25, unfinished plan changes of hands and stalled hand-over mailings every 5 minutes,
+// every minute, the care-plan visit pass at minute 25, unfinished plan changes of hands, job refunds left pending and stalled hand-over mailings every 5 minutes,
 // the merge of the search indexes and then the refresh of the query planner's statistics at 03:40 (server time) every night,
 // never two of a kind at once in this process; the ledger keeps passes in other processes
 // from sending anything twice. SIGTERM/SIGINT stop the schedule and abort the running passes, and
@@ -12,6 +12,7 @@ import { closeMailTransport, retryQueuedMail } from "@/lib/mail";
 import { describePass, remindersJob } from "./reminders";
 import { planVisitsJob } from "./plan-visits";
 import { planTransfersJob } from "./plan-transfers";
+import { jobRefundsJob } from "./job-refunds";
 import { describeHandoverMailings, handoverMailingsJob } from "./handover-mailings";
 import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 import { searchIndexesJob } from "./search-indexes";
@@ -54,6 +55,8 @@ const passes = [
   pass("plan visit pass", "25 * * * *", (now) => planVisitsJob(now)),
   // Care plans whose change of hands Stripe couldn't be told of at the time: finished.
   pass("plan transfer pass", "*/5 * * * *", () => planTransfersJob()),
+  // Refunds on repair jobs the payment service didn't answer and nobody finished: asked again, same key.
+  pass("job refund pass", "*/5 * * * *", (now) => jobRefundsJob(now)),
   // Bulk hand-over mailings left half-sent (the server stopped): finished, each piece once.
   pass("hand-over mailing pass", "*/5 * * * *", (now, signal) => handoverMailingsJob(now, signal).then(describeHandoverMailings)),
   // The registry's and the clients list's search indexes merged to one segment each (db/search-indexes.ts),

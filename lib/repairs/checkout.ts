@@ -1,4 +1,3 @@
-import "server-only";
 // Where a repair job's money moves: Checkout Sessions are closed, completed sessions are weighed
 // against the job's current quote, and payments that don't count are refunded. Every function here
 // converges on what Stripe reports, so a webhook replayed, late or out of order leaves one state.

@@ -1,4 +1,3 @@
-import "server-only";
 // Money given back on a repair job. Two kinds, one list for every reader (the receipt PDF and mail,
 // both job pages, the refund mail):
 //  - a payment set aside to be refunded in full (payments.refundReason): the job was cancelled, or the
@@ -9,11 +8,12 @@ import "server-only";
 //    both are checked and the amount set aside (a pending job_refunds row, the job's version moved on)
 //    in one transaction, so a second click made on the same page is refused; Stripe is asked after, with
 //    the row's id as idempotency key. If Stripe refuses, the row goes and nothing was given back; if it
-//    does not answer, the row stays pending until staff ask again with the same key (finishJobRefund).
-import { and, eq, isNull } from "drizzle-orm";
+//    does not answer, the row stays pending until staff ask again with the same key (finishJobRefund), or
+//    the scheduler does (finishPendingJobRefunds, jobs/job-refunds.ts) once nobody has for a few minutes.
+import { and, eq, isNull, lt } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { jobRefunds, payments, repairJobs, type JobRefund, type Payment, type RepairJob } from "@/db/schema";
+import { jobRefunds, payments, repairJobs, studios, type JobRefund, type Payment, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioActor } from "@/lib/auth/actor";
 import { badRequest, conflict, isAppError, notFound, serviceUnavailable } from "@/lib/errors";
@@ -57,7 +57,7 @@ export async function refundJob(ctx: StudioActor, jobId: string, ask: JobRefundA
     tx.update(repairJobs).set({ version: job.version + 1, updatedAt: new Date() }).where(and(eq(repairJobs.id, job.id), eq(repairJobs.version, job.version))).run();
     return { pending, payment: open.payment };
   });
-  const refund = await giveBack(ctx, pending, payment, { jobVersion: ask.version, part: pending.amountMinor < ask.refundableMinor });
+  const refund = await giveBack(staffOf(ctx), pending, payment, { jobVersion: ask.version, part: pending.amountMinor < ask.refundableMinor });
   return { job: getStudioJob(ctx, jobId).job, refund };
 }
 
@@ -72,9 +72,50 @@ export async function finishJobRefund(ctx: StudioActor, jobId: string, refundId:
   if (!pending) throw notFound("This refund isn't on this job: reload the page.");
   if (pending.refundedAt) return { job, refund: pending };
   const payment = getDb().select().from(payments).where(and(eq(payments.jobId, job.id), eq(payments.id, pending.paymentId))).get()!;
-  const refund = await giveBack(ctx, pending, payment, { finishedLater: true, askedBy: pending.byId });
+  const refund = await giveBack(staffOf(ctx), pending, payment, { finishedLater: true, askedBy: pending.byId });
   return { job: getStudioJob(ctx, jobId).job, refund };
 }
+
+/**
+ * How long a refund stays pending before the scheduler asks Stripe again. Longer than any request of
+ * refundJob can still be waiting on Stripe (lib/payments/stripe.ts: 10 s timeout, 2 retries), so the pass
+ * never asks alongside the first request, and staff have had the time to press "Finish giving back".
+ * Asking alongside would still be safe (the same key; the first answer written wins), only wasted.
+ */
+export const PENDING_REFUND_WAIT_MS = 5 * 60_000;
+
+export type PendingRefundsPass = { finished: string[]; refused: string[]; waiting: string[] };
+
+/**
+ * The scheduler's pass (jobs/job-refunds.ts): every refund left pending for longer than
+ * PENDING_REFUND_WAIT_MS is asked again as finishJobRefund asks it, with the same key; the audit names
+ * no actor and says the scheduler finished it. A refusal removes the row (nothing was given back); no
+ * answer leaves it for the next pass.
+ */
+export async function finishPendingJobRefunds(now = new Date()): Promise<PendingRefundsPass> {
+  const cutoff = new Date(now.getTime() - PENDING_REFUND_WAIT_MS);
+  const open = getDb().select().from(jobRefunds).where(and(isNull(jobRefunds.refundedAt), lt(jobRefunds.createdAt, cutoff))).all();
+  const out: PendingRefundsPass = { finished: [], refused: [], waiting: [] };
+  for (const pending of open) {
+    const payment = getDb().select().from(payments).where(and(eq(payments.studioId, pending.studioId), eq(payments.jobId, pending.jobId), eq(payments.id, pending.paymentId))).get()!;
+    const { country } = getDb().select({ country: studios.country }).from(studios).where(eq(studios.id, pending.studioId)).get()!;
+    try {
+      await giveBack({ actorId: null, country }, pending, payment, { finishedLater: true, askedBy: pending.byId, source: "scheduler" });
+      out.finished.push(pending.id);
+    } catch (e) {
+      if (isAppError(e) && e.code === "payment_service_refused") out.refused.push(pending.id);
+      else {
+        if (!(isAppError(e) && e.code === "refund_pending")) console.error(`job refund pass: ${pending.id} not finished yet`, e);
+        out.waiting.push(pending.id);
+      }
+    }
+  }
+  return out;
+}
+
+/** Who asks Stripe: a staff member, or the scheduler (no actor). `country` writes the amount in words. */
+type Asker = { actorId: string | null; country: string };
+const staffOf = (ctx: StudioActor): Asker => ({ actorId: ctx.user.id, country: ctx.studio.country });
 
 /**
  * 2. Stripe, with the pending refund's id as idempotency key. A refusal (Stripe answered no) means no
@@ -82,7 +123,7 @@ export async function finishJobRefund(ctx: StudioActor, jobId: string, refundId:
  * refund, so it stays pending (its amount set aside, nothing given back twice) for finishJobRefund.
  * 3. The outcome, who gave what back, and the owner's mail, once, whichever request writes it first.
  */
-async function giveBack(ctx: StudioActor, pending: JobRefund, payment: Payment, auditData: Record<string, unknown>): Promise<JobRefund> {
+async function giveBack(by: Asker, pending: JobRefund, payment: Payment, auditData: Record<string, unknown>): Promise<JobRefund> {
   let chargeId: string | undefined;
   let refundId: string;
   try {
@@ -100,7 +141,7 @@ async function giveBack(ctx: StudioActor, pending: JobRefund, payment: Payment, 
     }
     throw serviceUnavailable(
       "refund_pending",
-      `The payment service didn't answer, so we can't tell yet whether ${formatMoney(pending.amountMinor, pending.currency, ctx.studio.country)} went back. It stays listed as being given back, and it can't be given back twice: press “Finish giving back” in a minute.`,
+      `The payment service didn't answer, so we can't tell yet whether ${formatMoney(pending.amountMinor, pending.currency, by.country)} went back. It stays listed as being given back, and it can't be given back twice: press “Finish giving back” in a minute.`,
     );
   }
   const done = getDb().transaction((tx) => {
@@ -109,7 +150,7 @@ async function giveBack(ctx: StudioActor, pending: JobRefund, payment: Payment, 
     if (!row) return null;
     recordAudit(tx, {
       studioId: pending.studioId,
-      actorId: ctx.user.id,
+      actorId: by.actorId,
       action: "job.refunded",
       subjectType: "repair_job",
       subjectId: pending.jobId,

@@ -13,7 +13,8 @@ import { formatMoney } from "@/lib/format";
 import { listOwnerJobs, listStudioJobs, moveJob } from "@/lib/repairs/jobs";
 import { approveJob, cancelJob, handleStripeWebhook, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { receiptPdf } from "@/lib/repairs/receipt";
-import { finishJobRefund, refundJob } from "@/lib/repairs/refunds";
+import { finishJobRefund, PENDING_REFUND_WAIT_MS, refundJob } from "@/lib/repairs/refunds";
+import { jobRefundsJob } from "@/jobs/job-refunds";
 import { getStripe } from "@/lib/payments/stripe";
 import { jobAmountText } from "@/lib/repairs/states";
 import { createStudio, memberContext, unique } from "../support/fixtures";
@@ -230,6 +231,83 @@ describe("staff give money back on a job that stays done", () => {
     expect(mail.text).toContain(`refunded $7.00 of your payment for “${job.title}”`);
     expect(mail.text).not.toContain("cancelled the work");
     expect(jobRow(job.id).state).toBe("done");
+  });
+});
+
+describe("the scheduled pass finishes a refund nobody finished", () => {
+  /** A done job with a refund of `amount` the payment service didn't answer, pending for `ageMs`. */
+  async function leftPending(amount: number, ageMs = PENDING_REFUND_WAIT_MS + 60_000) {
+    const made = await doneJob();
+    stripe.fake.failNext("POST", "/v1/refunds");
+    await expect(refundJob(made.staff, made.job.id, ask(made.job, made.job.totalMinor, amount))).rejects.toMatchObject({ status: 503, code: "refund_pending" });
+    const [row] = getDb().select().from(jobRefunds).where(eq(jobRefunds.jobId, made.job.id)).all();
+    getDb().update(jobRefunds).set({ createdAt: new Date(Date.now() - ageMs) }).where(eq(jobRefunds.id, row!.id)).run();
+    return { ...made, pending: row! };
+  }
+  const refundRow = (id: string) => getDb().select().from(jobRefunds).where(eq(jobRefunds.id, id)).get();
+  const refundAudits = (jobId: string) => getDb().select().from(auditLog).where(and(eq(auditLog.action, "job.refunded"), eq(auditLog.subjectId, jobId))).all();
+  const refundMails = async (to: string, subject: RegExp, since: Date) => (await listMail({ to })).filter((m) => subject.test(m.subject) && Date.parse(m.receivedAt) >= since.getTime());
+
+  it("leaves a refund pending for less than the wait alone; then finishes it once, audited as the scheduler's, and mails the owner once", async () => {
+    const since = new Date();
+    const { owner, staff, job, pending } = await leftPending(1800, 60_000);
+    expect((await jobRefundsJob()).some((l) => l.includes(pending.id))).toBe(false);
+    expect(refundRow(pending.id)!.refundedAt).toBeNull();
+    expect(charged(job.id).refunded).toBe(0);
+
+    // Still no answer from the payment service: it stays pending for the next pass.
+    getDb().update(jobRefunds).set({ createdAt: new Date(Date.now() - PENDING_REFUND_WAIT_MS - 60_000) }).where(eq(jobRefunds.id, pending.id)).run();
+    stripe.fake.failNext("POST", "/v1/refunds");
+    expect((await jobRefundsJob()).some((l) => l.includes(pending.id))).toBe(false);
+    expect(refundRow(pending.id)).toMatchObject({ refundedAt: null, stripeRefundId: null });
+
+    const lines = await jobRefundsJob();
+    expect(lines).toContain(`finished job refund ${pending.id}`);
+    expect(refundRow(pending.id)).toMatchObject({ stripeRefundId: expect.stringMatching(/^re_/), refundedAt: expect.any(Date) });
+    expect(charged(job.id)).toEqual({ count: 1, refunded: 1800 });
+    const audit = refundAudits(job.id);
+    expect(audit).toHaveLength(1);
+    expect(audit[0]).toMatchObject({ actorId: null, data: expect.objectContaining({ amountMinor: 1800, source: "scheduler", finishedLater: true, askedBy: staff.user.id }) });
+    await waitForMail({ to: owner.email, subject: /gave back \$18\.00/, since });
+
+    // A later pass and a late press of "Finish giving back" change nothing.
+    expect((await jobRefundsJob()).some((l) => l.includes(pending.id))).toBe(false);
+    expect((await finishJobRefund(staff, job.id, pending.id)).refund.stripeRefundId).toBe(refundRow(pending.id)!.stripeRefundId);
+    await new Promise((r) => setTimeout(r, 300));
+    expect(charged(job.id).refunded).toBe(1800);
+    expect(refundAudits(job.id)).toHaveLength(1);
+    expect(await refundMails(owner.email, /gave back \$18\.00/, since)).toHaveLength(1);
+  });
+
+  it("a staff press and the pass at the same moment give back once, audit once and mail once", async () => {
+    const since = new Date();
+    const { owner, staff, job, pending } = await leftPending(2200);
+    const [pressed] = await Promise.all([finishJobRefund(staff, job.id, pending.id), jobRefundsJob()]);
+    expect(pressed.refund.stripeRefundId).toMatch(/^re_/);
+    expect(refundRow(pending.id)!.stripeRefundId).toBe(pressed.refund.stripeRefundId);
+    expect(charged(job.id)).toEqual({ count: 1, refunded: 2200 });
+    expect(refundAudits(job.id)).toHaveLength(1);
+    await waitForMail({ to: owner.email, subject: /gave back \$22\.00/, since });
+    await new Promise((r) => setTimeout(r, 300));
+    expect(await refundMails(owner.email, /gave back \$22\.00/, since)).toHaveLength(1);
+  });
+
+  it("a refusal removes the pending refund: nothing given back, nothing set aside, no mail", async () => {
+    const since = new Date();
+    const { owner, job, pending } = await leftPending(900);
+    const paid = paymentRows(job.id).find((p) => p.paymentIntentId)!;
+    getDb().update(payments).set({ paymentIntentId: "pi_not_at_stripe" }).where(eq(payments.id, paid.id)).run();
+    try {
+      const lines = await jobRefundsJob();
+      expect(lines.some((l) => l.includes(pending.id) && /refused/.test(l))).toBe(true);
+    } finally {
+      getDb().update(payments).set({ paymentIntentId: paid.paymentIntentId }).where(eq(payments.id, paid.id)).run();
+    }
+    expect(refundRow(pending.id)).toBeUndefined();
+    expect(charged(job.id).refunded).toBe(0);
+    expect(refundAudits(job.id)).toHaveLength(0);
+    await new Promise((r) => setTimeout(r, 300));
+    expect(await refundMails(owner.email, /gave back/, since)).toHaveLength(0);
   });
 });
 
