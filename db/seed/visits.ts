@@ -80,7 +80,7 @@ export async function seedVisits(db: Db, studioId: string, today: Date, doneJobI
       const date = nthWorkday(spec.tech, spec.dayOffset);
       const [h, m] = spec.at.split(":").map(Number) as [number, number];
       const start = zonedTimeToEpochMs(date, h * 60 + m, tz);
-      const end = start + jobDurationMin(job, piece) * 60_000;
+      const end = start + jobDurationMin(job, pricedPiece(tx, piece)) * 60_000;
       const location = spec.location === "studio" ? `${studio.name}, ${studio.address}` : piece.deliveryAddress;
       const visitId = crypto.randomUUID();
       tx.insert(visits)
@@ -99,7 +99,7 @@ export async function seedVisits(db: Db, studioId: string, today: Date, doneJobI
         const start = zonedTimeToEpochMs(date, 10 * 60, tz);
         const visitId = crypto.randomUUID();
         tx.insert(visits)
-          .values({ id: visitId, studioId, jobId: job.id, pieceId: piece.id, technicianId: ines.id, startAt: new Date(start), endAt: new Date(start + jobDurationMin(job, piece) * 60_000), locationKind: "owner", location: piece.deliveryAddress, icsUid: visitUid(visitId), sequence: 0, state: "done", jobStateBefore: "paid", reportWork: "Brushed down, washed, one coat of exterior oil on the seat (invented demo report).", reportSignOffName: "The Holloway household", reportLayerIds: [], reportedAt: new Date(start + 90 * 60_000), reportedById: ines.id, createdAt: at, updatedAt: at })
+          .values({ id: visitId, studioId, jobId: job.id, pieceId: piece.id, technicianId: ines.id, startAt: new Date(start), endAt: new Date(start + jobDurationMin(job, pricedPiece(tx, piece)) * 60_000), locationKind: "owner", location: piece.deliveryAddress, icsUid: visitUid(visitId), sequence: 0, state: "done", jobStateBefore: "paid", reportWork: "Brushed down, washed, one coat of exterior oil on the seat (invented demo report).", reportSignOffName: "The Holloway household", reportLayerIds: [], reportedAt: new Date(start + 90 * 60_000), reportedById: ines.id, createdAt: at, updatedAt: at })
           .run();
         count++;
       }

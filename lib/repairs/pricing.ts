@@ -49,9 +49,9 @@ const CLASS_BY_TASK = Object.fromEntries(Object.entries(TASK_KIND_BY_FINISH_CLAS
 /**
  * The surface a maintenance task works on: the one whose outermost layer is of the task's finish class
  * (lib/pieces/care-inputs refreshedSurface, as the technician's "What to bring" reads it), else the top
- * where the stack does not say which.
+ * where the stack does not say which. The visit's booked length uses it too (lib/visits/availability.ts).
  */
-function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): Surface {
+export function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): Surface {
   const cls = CLASS_BY_TASK[kind];
   return (cls && refreshedSurface(layers, cls)) || "top";
 }
@@ -59,9 +59,10 @@ function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): Surface
 /**
  * The size of one face of a surface for a quote, m²: the piece's record's (recordedAreaM2: the top's,
  * from its shape), else the size staff typed on this quote for a surface the record has none for; null
- * where neither is known. Never one surface's size for another.
+ * where neither is known. Never one surface's size for another. The visit's booked length reads it too
+ * (lib/visits/availability.ts jobDurationMin).
  */
-function quoteAreaM2(piece: Piece, input: Pick<JobQuoteInput, "areasM2">, surface: Surface): number | null {
+export function quoteAreaM2(piece: Piece, input: Pick<JobQuoteInput, "areasM2">, surface: Surface): number | null {
   return recordedAreaM2(piece, surface) ?? input.areasM2?.[surface] ?? null;
 }
 

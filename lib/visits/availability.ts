@@ -4,13 +4,12 @@
 // concurrency test's processes too.
 import { and, asc, eq } from "drizzle-orm";
 import type { Db } from "@/db/client";
-import { memberships, users, visitRules, type Piece, type RepairJob, type Studio, type TechnicianTimeOffRow, type VisitRulesRow } from "@/db/schema";
-import { topArea } from "@/lib/care/area";
+import { memberships, users, visitRules, type RepairJob, type Studio, type TechnicianTimeOffRow, type VisitRulesRow } from "@/db/schema";
 import { addDays, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
-import { taskDurationMinutes, type QuotedTask } from "@/lib/care/quote";
+import { taskDurationMinutes } from "@/lib/care/quote";
 import { availableSlots, type BusyInterval, type Slot } from "@/lib/care/slots";
-import { topShape } from "@/lib/pieces/care-inputs";
 import { readLines } from "@/lib/repairs/lines";
+import { quoteAreaM2, taskSurface, type PricedPiece } from "@/lib/repairs/pricing";
 import type { DbOrTx } from "@/lib/pieces/search-index";
 import { bookedByTechnician, hoursByTechnician, timeOffByTechnician, type WeeklyRange } from "./visits-sql";
 
@@ -65,15 +64,25 @@ export function timeOffInterval(t: { date: string; start: string | null; end: st
 }
 
 /**
- * Minutes on site for a job: the quote's hours as sent (edited hours and repair lines included), else
- * the quote's tasks on the piece's top (lib/care taskDurationMinutes).
+ * The area a visit is booked for when the surface a task works on has no size, on the record or typed
+ * on the quote: 1 m², about one face of a dining top or of a table's base (legs and apron) — common
+ * practice, no published source. Only the booking uses it: the quote prices no line from a size nobody
+ * gave (lib/repairs/pricing.ts proposeLines), but a visit must be booked for some length, and one that
+ * runs a little long costs the technician less than one cut short.
  */
-export function jobDurationMin(job: Pick<RepairJob, "quoteInput" | "lines">, piece: Piece): number {
+export const UNSIZED_BOOKING_AREA_M2 = 1;
+
+/**
+ * Minutes on site for a job: the quote's hours as sent (edited hours and repair lines included), else
+ * the quote's tasks, each on the surface its work is on and at that surface's size, as the quote prices
+ * it (lib/repairs/pricing.ts taskSurface, quoteAreaM2), or UNSIZED_BOOKING_AREA_M2 where none is known
+ * (lib/care taskDurationMinutes).
+ */
+export function jobDurationMin(job: Pick<RepairJob, "quoteInput" | "lines">, piece: PricedPiece): number {
   const quotedHours = readLines(job.lines).reduce((h, l) => h + (l.unit === "h" ? l.quantity : 0), 0);
-  const tasks: readonly QuotedTask[] = job.quoteInput.tasks ?? [];
-  const shape = topShape(piece);
-  const areaM2 = shape ? topArea(shape).m2 : 0;
-  const minutes = quotedHours > 0 ? Math.round(quotedHours * 60) : tasks.length ? taskDurationMinutes(tasks, areaM2) : 60;
+  const tasks = job.quoteInput.tasks ?? [];
+  const taskMinutes = () => tasks.reduce((m, task) => m + taskDurationMinutes([task], quoteAreaM2(piece, job.quoteInput, taskSurface(piece.layers, task)) ?? UNSIZED_BOOKING_AREA_M2), 0);
+  const minutes = quotedHours > 0 ? Math.round(quotedHours * 60) : tasks.length ? taskMinutes() : 60;
   return Math.max(30, minutes);
 }
 

@@ -10,6 +10,7 @@ import { followJob } from "@/lib/claims/follow-job";
 import type { VisitLocation } from "@/lib/care/vocabulary";
 import { badRequest, conflict, notFound } from "@/lib/errors";
 import { moveJob } from "@/lib/repairs/jobs";
+import { pricedPiece } from "@/lib/repairs/pricing";
 import { isStudioTechnician, jobDurationMin, technicianSlots, visitRulesFor } from "./availability";
 import { visitUid } from "./ics";
 
@@ -66,7 +67,7 @@ export function reserveVisit(db: Db, input: ReserveInput): Reserved {
       if (!location) throw badRequest("The piece has no address on record; book the visit at the studio, or ask the studio to add the address.", { location: ["No address on record for the piece."] });
 
       const rules = visitRulesFor(tx, studio.id);
-      const durationMin = jobDurationMin(job, piece);
+      const durationMin = jobDurationMin(job, pricedPiece(tx, piece));
       const endMs = input.startMs + durationMin * 60_000;
       if (input.startMs <= input.now) throw slotUnavailable("That time has passed. Pick one of the free slots.");
       const args = { studio, technicianId: input.technicianId, durationMin, fromMs: input.startMs, toMs: endMs, leadTimeHours: input.leadTimeHours, rules, excludeVisitId: previous?.id, now: input.now };

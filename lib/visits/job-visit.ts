@@ -3,6 +3,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { clients, repairJobs, users, visits } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
+import { pricedPiece } from "@/lib/repairs/pricing";
 import { jobDurationMin, visitRulesFor } from "./availability";
 import { formatVisitWhen, ownerTimeZone } from "@/lib/format";
 import { visitPhotosOf } from "./photos";
@@ -63,7 +64,7 @@ export function bookingContext(actor: Actor, jobId: string) {
     job: { id: job.id, title: job.title, state: job.state },
     piece: { id: piece.id, title: piece.title, address: piece.deliveryAddress },
     studio: { name: studio.name, address: studio.address, timeZone: studio.timeZone },
-    durationMin: jobDurationMin(job, piece),
+    durationMin: jobDurationMin(job, pricedPiece(getDb(), piece)),
     rules: { leadTimeHours: actor.role === "owner" ? rules.leadTimeHours : 0, ownerChangeCutoffHours: rules.ownerChangeCutoffHours },
     visit: live ? { ...visitJson(live), when: formatVisitWhen(live.startAt.getTime(), live.endAt.getTime(), shownZone(actor, studio)) } : null,
     bookable: Boolean(live) || job.state === "paid" || job.state === "covered",

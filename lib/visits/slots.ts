@@ -3,6 +3,7 @@ import { getDb } from "@/db/client";
 import type { Piece, RepairJob, Studio, VisitRulesRow } from "@/db/schema";
 import { conflict, isAppError } from "@/lib/errors";
 import type { slotsQuerySchema } from "@/lib/validation/visits";
+import { pricedPiece } from "@/lib/repairs/pricing";
 import { jobDurationMin, studioTechnicians, teamSlots, visitRulesFor } from "./availability";
 import { SLOT_UNAVAILABLE } from "./core";
 import type { Actor } from "@/lib/auth/actor";
@@ -23,7 +24,7 @@ export function leadFor(actor: Actor, rules: Rules): number {
 function slotsFor(studio: Studio, job: RepairJob, piece: Piece, rules: Rules, opts: { fromMs: number; toMs: number; leadTimeHours: number; excludeVisitId?: string; now: number }): SlotView[] {
   const db = getDb();
   const techs = studioTechnicians(db, studio.id);
-  const byTech = teamSlots(db, { studio, technicianIds: techs.map((t) => t.id), durationMin: jobDurationMin(job, piece), rules, ...opts });
+  const byTech = teamSlots(db, { studio, technicianIds: techs.map((t) => t.id), durationMin: jobDurationMin(job, pricedPiece(db, piece)), rules, ...opts });
   return techs
     .flatMap((t) =>
       (byTech.get(t.id) ?? []).map((s) => ({
@@ -46,10 +47,11 @@ export function listJobSlots(actor: Actor, jobId: string, q: SlotsQuery, now = D
   if (!live && job.state !== "paid" && job.state !== "covered") throw conflict("Visits can be booked once the job is paid or covered.");
   const fromMs = Math.max(q.from ? Date.parse(q.from) : now, now);
   const toMs = q.to ? Date.parse(q.to) : fromMs + 14 * DAY;
-  if (toMs <= fromMs) return { timeZone: studio.timeZone, durationMin: jobDurationMin(job, piece), slots: [] as SlotView[], visitId: live?.id ?? null };
+  const durationMin = jobDurationMin(job, pricedPiece(getDb(), piece));
+  if (toMs <= fromMs) return { timeZone: studio.timeZone, durationMin, slots: [] as SlotView[], visitId: live?.id ?? null };
   const rules = visitRulesFor(getDb(), studio.id);
   const slots = slotsFor(studio, job, piece, rules, { fromMs, toMs, leadTimeHours: leadFor(actor, rules), excludeVisitId: live?.id, now });
-  return { timeZone: studio.timeZone, durationMin: jobDurationMin(job, piece), slots, visitId: live?.id ?? null };
+  return { timeZone: studio.timeZone, durationMin, slots, visitId: live?.id ?? null };
 }
 
 /**

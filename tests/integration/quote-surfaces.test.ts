@@ -4,15 +4,19 @@
 // that surface nothing is proposed (staff are told, and may type the size for this quote).
 // Labour hours: lib/care/quote DEFAULT_LABOUR and lib/repairs/price-list REPAIR_HOURS (invented for the
 // demo — common practice, no published source). Product: area × coats ÷ coverage in whole containers
-// (lib/care/quantity.ts). Prices per m² and per hour are the invented studio's own.
+// (lib/care/quantity.ts). Prices per m² and per hour are the invented studio's own. A visit whose quote has
+// no hour lines is booked from the same surfaces and sizes, or 1 m² where none is known
+// (lib/visits/availability.ts UNSIZED_BOOKING_AREA_M2 — common practice, no published source).
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { claims, finishLayers, pieces, studios } from "@/db/schema";
 import { createJob, getStudioJob } from "@/lib/repairs/jobs";
 import { updateJobQuote } from "@/lib/repairs/payment";
+import { pricedPiece } from "@/lib/repairs/pricing";
 import { updateRepairSettings } from "@/lib/repairs/settings";
 import { jobQuoteSchema } from "@/lib/validation/jobs";
+import { jobDurationMin, UNSIZED_BOOKING_AREA_M2 } from "@/lib/visits/availability";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 
 const SETTINGS = {
@@ -49,7 +53,7 @@ async function pieceWithOiledBase(overrides: Partial<typeof pieces.$inferInsert>
   const claim = createAcceptedClaim(studio, piece.id, owner.id, "chargeable");
   getDb().update(claims).set({ category: "crack_gap" }).where(eq(claims.id, claim.id)).run();
   const job = createJob(staff, "claim", claim.id);
-  return { staff, job, oil };
+  return { staff, job, oil, piece };
 }
 
 const quote = (fields: Record<string, unknown>) => jobQuoteSchema.parse({ title: "Base work", tasks: [], repairs: [], productIds: [], coats: 2, travel: false, coveredPct: 0, notes: "", ...fields });
@@ -116,5 +120,56 @@ describe("each quote line is priced from the surface its work is on", () => {
     const bad = jobQuoteSchema.safeParse({ title: "x", tasks: ["reoil"], productIds: [], coats: 1, travel: false, coveredPct: 0, areasM2: { base: -1 } });
     expect(bad.success).toBe(false);
     expect(bad.error!.issues[0]!.path).toEqual(["areasM2", "base"]);
+  });
+});
+
+/** A quote from these tasks whose only line is a flat typed one: no hours, so the tasks set the visit's length. */
+const flatQuote = (fields: Record<string, unknown>) =>
+  jobQuoteSchema.parse({
+    title: "Base work",
+    repairs: [],
+    productIds: [],
+    coats: 2,
+    travel: false,
+    coveredPct: 0,
+    notes: "",
+    lines: [{ kind: "other", source: "typed", description: "Agreed flat price (invented)", quantity: 1, unit: "each", unitPriceMinor: 12000 }],
+    ...fields,
+  });
+
+async function bookedMinutes(fields: Record<string, unknown>, overrides: Partial<typeof pieces.$inferInsert> = {}) {
+  const { staff, job, piece } = await pieceWithOiledBase(overrides);
+  const saved = await updateJobQuote(staff, job.id, flatQuote(fields));
+  expect(saved.lines.some((l) => l.unit === "h")).toBe(false);
+  // Read back from the file: the stored quote input and the piece's finish stack.
+  const stored = getStudioJob(staff, job.id).job;
+  return jobDurationMin(stored, pricedPiece(getDb(), getDb().select().from(pieces).where(eq(pieces.id, piece.id)).get()!));
+}
+
+describe("a visit is booked for the surface its work is on", () => {
+  it("a re-oil of a base with no size is booked at the plain 1 m², not the top's 1.8 m²", async () => {
+    expect(UNSIZED_BOOKING_AREA_M2).toBe(1);
+    // Before: 0.5 h + 0.5 h/m² × 1.8 m² (the top's) = 1.4 → 1.5 h = 90 minutes.
+    // Now: 0.5 h + 0.5 h/m² × 1 m² = 1.0 h = 60 minutes.
+    expect(await bookedMinutes({ tasks: ["reoil"] })).toBe(60);
+  });
+
+  it("a base area typed on the quote sets the re-oil's length", async () => {
+    // 0.5 h + 0.5 h/m² × 0.3 m² = 0.65 → 0.75 h = 45 minutes.
+    expect(await bookedMinutes({ tasks: ["reoil"], areasM2: { base: 0.3 } })).toBe(45);
+  });
+
+  it("each task takes its own surface: the top's topcoat at 1.8 m², the base's re-oil at its typed size", async () => {
+    // Topcoat refresh on the top: 0.5 h + 0.4 h/m² × 1.8 m² = 1.22 → 1.25 h = 75 minutes;
+    // re-oil on the base: 0.5 h + 0.5 h/m² × 0.3 m² = 0.65 → 0.75 h = 45 minutes; 75 + 45 = 120.
+    expect(await bookedMinutes({ tasks: ["topcoat_refresh", "reoil"], areasM2: { base: 0.3 } })).toBe(120);
+  });
+
+  it("a top with no size on record is booked at the plain 1 m², or at the size typed for it", async () => {
+    const unmeasured = { shapeKind: "measured" as const, lengthMm: null, widthMm: null, measuredAreaM2: null };
+    // Topcoat refresh at 1 m²: 0.5 h + 0.4 h = 0.9 → 1.0 h = 60 minutes (before: the top's 0 m², 30 minutes).
+    expect(await bookedMinutes({ tasks: ["topcoat_refresh"] }, unmeasured)).toBe(60);
+    // Typed 2.5 m²: 0.5 h + 0.4 h/m² × 2.5 m² = 1.5 h = 90 minutes.
+    expect(await bookedMinutes({ tasks: ["topcoat_refresh"], areasM2: { top: 2.5 } }, unmeasured)).toBe(90);
   });
 });

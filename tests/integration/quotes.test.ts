@@ -16,6 +16,7 @@ import { lineAmount, priceLines, roundingStep, type LineDraft, type StudioTax } 
 import { approveJob, sendQuote, syncReturnedCheckout, updateJobQuote } from "@/lib/repairs/payment";
 import { receiptPdf } from "@/lib/repairs/receipt";
 import { updateRepairSettings } from "@/lib/repairs/settings";
+import { pricedPiece } from "@/lib/repairs/pricing";
 import { jobDurationMin } from "@/lib/visits/availability";
 import { jobQuoteSchema, type QuoteLineInput } from "@/lib/validation/jobs";
 import { createAcceptedClaim, createPiece, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
@@ -96,7 +97,7 @@ describe("a crack claim's repair quote, checkout and receipt", () => {
     expect(edited.lines[2]!.proposed).toBeNull();
     expect(edited.proposedLines.find((l) => l.ref === "list:crack_fill")).toMatchObject({ quantity: 1, amountMinor: 8500 });
     // The visit is booked for the hours quoted (1.5 h of crack fill = 90 minutes), not a maintenance default.
-    expect(jobDurationMin(edited, piece)).toBe(90);
+    expect(jobDurationMin(edited, pricedPiece(getDb(), piece))).toBe(90);
 
     await sendQuote(staff, job.id);
     const quoteMail = await waitForMail({ to: owner.email, subject: /quote/i });
