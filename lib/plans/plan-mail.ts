@@ -6,9 +6,11 @@ import { getDb } from "@/db/client";
 import { pieces, studios, users, type Piece, type PlanInvoice, type PlanSubscription, type PlanTemplate, type Studio, type User } from "@/db/schema";
 import type { PlanMailNames } from "@/emails/components/plan-mail";
 import { PlanPaidAfterHandOnEmail, planPaidAfterHandOnSubject } from "@/emails/plan-paid-after-hand-on";
+import { PlanRenewalHeldEmail, planRenewalHeldSubject } from "@/emails/plan-renewal-held";
 import { formatInstant, formatMoney } from "@/lib/format";
 import { sendMail } from "@/lib/mail";
 import { mailAfterCommit } from "@/lib/mail/after-commit";
+import { pieceUrl } from "./subscriptions";
 import { templateOf } from "./templates";
 
 export type PlanMailContext = {
@@ -48,5 +50,26 @@ export async function mailPaidAfterHandOn(sub: PlanSubscription, held: Pick<Plan
     const { owner, studio, zone } = context;
     const props = { ...context.names, stage, amount: formatMoney(held.amountMinor, held.currency, studio.country), paidOn: formatInstant(held.at, zone, { time: true }) };
     await sendMail({ studioId: sub.studioId, to: owner.email, subject: planPaidAfterHandOnSubject(props), email: PlanPaidAfterHandOnEmail(props), replyTo: studio.email || undefined });
+  });
+}
+
+/**
+ * Tells the owner that a renewal charged at another amount than the plan's price is held for the studio
+ * to check (lib/plans/held.ts); the decision has its own mail. After the hold is committed; a failed send
+ * never undoes it.
+ */
+export async function mailRenewalHeld(sub: PlanSubscription, held: Pick<PlanInvoice, "amountMinor" | "currency" | "at">): Promise<void> {
+  await mailAfterCommit("plan renewal held", async () => {
+    const context = planMailContext(sub);
+    if (!context) return;
+    const { owner, studio, piece, zone } = context;
+    const props = {
+      ...context.names,
+      charged: formatMoney(held.amountMinor, held.currency, studio.country),
+      price: formatMoney(sub.amountMinor, sub.currency, studio.country),
+      paidOn: formatInstant(held.at, zone, { time: true }),
+      url: pieceUrl(piece.id),
+    };
+    await sendMail({ studioId: sub.studioId, to: owner.email, subject: planRenewalHeldSubject(props), email: PlanRenewalHeldEmail(props), replyTo: studio.email || undefined });
   });
 }

@@ -12,7 +12,7 @@ import { sendMail } from "@/lib/mail";
 import { callStripe, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { buyerHoldsPiece, moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
-import { mailPaidAfterHandOn, planMailContext } from "./plan-mail";
+import { mailPaidAfterHandOn, mailRenewalHeld, planMailContext } from "./plan-mail";
 import { planPrice } from "./price";
 import { templateOf } from "./templates";
 
@@ -172,6 +172,10 @@ export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: s
     if (before.state !== "grace" && after.state === "grace") await mailGrace(after);
     // A first payment held because its buyer had handed the piece on: they are told (lib/plans/held.ts).
     if (heldNow && after.state === "awaiting_payment" && !buyerHoldsPiece(after)) await mailPaidAfterHandOn(after, heldNow, "held");
+    // A renewal held because it was charged at another amount than the plan's price: the owner is told
+    // it is being checked (once: recordInvoice answers a hold only when it first writes it). A hold for a
+    // template version alone charged the right amount and has no words for the owner beyond the settling.
+    else if (heldNow && after.state !== "awaiting_payment" && (heldNow.amountMinor !== after.amountMinor || heldNow.currency !== after.currency.toUpperCase())) await mailRenewalHeld(after, heldNow);
     return after;
   });
 }

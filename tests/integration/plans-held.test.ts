@@ -60,6 +60,23 @@ describe("a renewal held because Stripe charged another amount", () => {
     for (const words of [held.words, ownerWords, ...held.options.flatMap((o) => [o.label, o.words])]) expect(words).not.toMatch(/refund_|_and_|difference_refunded|running|\d{4}-\d{2}-\d{2}/);
   });
 
+  it("mails the owner once when the renewal is held, in plain words with the day and zone; replayed events send nothing more", async () => {
+    const { owner, piece, plan, sub } = await heldRenewal(15_000);
+    const mail = await waitForMail({ to: owner.email, subject: /renewal payment is being checked/ });
+    expect(mail.subject).toBe(`Your care plan renewal payment is being checked — ${plan.name}`);
+    const text = mail.text.replace(/\s+/g, " ");
+    expect(text).toContain(`Hello ${owner.name}, the renewal of the ${plan.name} care plan on your ${piece.title} charged $150.00 on `);
+    expect(text).toMatch(/charged \$150\.00 on \d{1,2} \w+ \d{4},? (at )?\d{2}:\d{2} [A-Z][A-Za-z0-9+\-:]+, while the plan costs \$120\.00\./);
+    expect(text).toContain("keep it as this renewal's payment or pay back what isn't owed");
+    expect(text).toContain("Your plan keeps covering your piece meanwhile, and nothing more is charged.");
+    expect(text).toContain(piece.id);
+    expect(text).not.toMatch(/refund_|_and_|held_|\d{4}-\d{2}-\d{2}/);
+    for (const e of stripe.fake.events().filter((x) => x.type === "invoice.paid")) await stripe.fake.redeliver(e.id);
+    await syncPlanSubscription(sub.stripeSubscriptionId!, undefined, subRow(sub.id));
+    await new Promise((r) => setTimeout(r, 300));
+    expect((await listMail({ to: owner.email })).filter((m) => /renewal payment is being checked/.test(m.subject))).toHaveLength(1);
+  });
+
   it("pays back the difference only for the version and amounts confirmed; then the new period starts and stays started", async () => {
     const { admin, sub } = await heldRenewal(15_000);
     const held = studioPlanDetail(admin, sub.id).held!;
