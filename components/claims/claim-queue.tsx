@@ -1,12 +1,13 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
+import { useEffect } from "react";
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { SpriteIcon } from "@/components/ui/sprite-icon";
-import { CLAIM_CATEGORIES } from "@/lib/care/vocabulary";
+import { CLAIM_AGE_FILTERS, CLAIM_CATEGORIES, CLAIM_STATES } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import type { ClaimState } from "@/lib/claims/states";
 import { apiJson } from "@/components/api-client";
@@ -28,17 +29,25 @@ type Row = {
 };
 type List = { claims: Row[]; total: number; page: number; pageSize: number; pieces: { id: string; title: string }[]; now: string };
 
-const STATES: ClaimState[] = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"];
+const STATES: readonly ClaimState[] = CLAIM_STATES;
 const FILTERS = ["q", "state", "category", "age", "pieceId", "sort", "page"] as const;
+/** The values each listed key can take (lib/validation/claims.ts claimListQuerySchema); others in a link read as unset. */
+const KNOWN = { state: [...CLAIM_STATES, "open", "all"], category: [...CLAIM_CATEGORIES, "all"], age: CLAIM_AGE_FILTERS, sort: ["oldest", "newest"] } as const;
 
 /** The triage queue: filters live in the URL, the list comes from GET /api/claims through TanStack Query. */
 export function ClaimQueue() {
-  const { qs: key, get, set, anySetBut, typed, setTyped } = useUrlFilters(FILTERS);
+  const { qs: key, get, set, anySetBut, typed, setTyped } = useUrlFilters(FILTERS, KNOWN);
   const { data, isPending, isError, error } = useQuery({ queryKey: ["claims", key], queryFn: () => apiJson<List>(`/api/claims?${key}`), refetchInterval: 60_000 });
   const now = data ? Date.parse(data.now) : 0;
   const lastPage = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
   const from = data && data.total > 0 ? (data.page - 1) * data.pageSize + 1 : 0;
   const to = data ? Math.min(data.total, data.page * data.pageSize) : 0;
+  // A page past the end (an old link, or claims closed since): go to the last page, never "No claims match".
+  const pastEnd = !!data && data.claims.length === 0 && data.total > 0 && data.page > 1;
+  useEffect(() => {
+    if (pastEnd) set({ page: lastPage > 1 ? String(lastPage) : "" });
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only a page found past the end moves the URL
+  }, [pastEnd, lastPage]);
   return (
     <div className="space-y-4">
       <div className="relative">
@@ -82,14 +91,14 @@ export function ClaimQueue() {
           <option value="newest">Newest first</option>
         </SelectField>
       </div>
-      {isPending ? <p className="text-muted">Loading claims…</p> : null}
+      {isPending || pastEnd ? <p className="text-muted">Loading claims…</p> : null}
       {isError ? <Notice tone="error" title="The queue didn't load">{error.message}</Notice> : null}
-      {data ? (
+      {data && !pastEnd ? (
         <p className="text-sm text-muted" aria-live="polite">
           {data.total === 0 ? "" : `${from}–${to} of ${formatCount(data.total)} claim${data.total === 1 ? "" : "s"}`}
         </p>
       ) : null}
-      {data && data.claims.length === 0 ? (
+      {data && data.claims.length === 0 && !pastEnd ? (
         <p className="rounded-xl border border-line bg-card p-5 text-muted">
           {get("q")
             ? `No claims match “${get("q")}” with these filters.`

@@ -12,7 +12,8 @@ import { JOB_STATES, type JOB_ORIGINS } from "@/lib/care/vocabulary";
 type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: (typeof JOB_ORIGINS)[number]; totalMinor: number; coveredPct: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null; paidMinor?: number; refundedMinor?: number };
 
 export function JobsTable({ country }: { country: string }) {
-  const { get, set } = useUrlFilters(["state"]);
+  // A state not in JOB_STATES (an old or mistyped link) reads as none: all jobs, not "Some fields need a second look."
+  const { get, set } = useUrlFilters(["state"], { state: JOB_STATES });
   const state = get("state");
   const query = useQuery({
     queryKey: ["jobs", state],

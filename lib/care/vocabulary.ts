@@ -184,6 +184,8 @@ export const SEND_STATUSES = ["queued", "sent", "failed", "skipped", "cancelled"
 export const OFFER_STATUSES = ["offered", "accepted", "declined", "expired"] as const;
 /** Claim states (lib/claims/states.ts): submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */
 export const CLAIM_STATES = ["submitted", "in_review", "awaiting_owner", "accepted", "declined", "repair_booked", "closed"] as const;
+/** The claims queue's "Filed" filter (lib/validation/claims.ts claimListQuerySchema, components/claims/claim-queue.tsx). */
+export const CLAIM_AGE_FILTERS = ["any", "under_2d", "2_to_7d", "over_7d"] as const;
 export const CLAIM_DECISIONS = ["covered", "partly_covered", "chargeable", "declined"] as const;
 /** Where a repair job came from; "plan" is an included visit of a care plan (lib/plans/visits.ts), whose covered part the plan pays, not the warranty. */
 export const JOB_ORIGINS = ["claim", "refresh_offer", "studio", "plan"] as const;

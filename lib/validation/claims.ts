@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { CLAIM_CATEGORIES, CLAIM_DECISIONS, CLAIM_STATES } from "@/lib/care/vocabulary";
+import { CLAIM_AGE_FILTERS, CLAIM_CATEGORIES, CLAIM_DECISIONS, CLAIM_STATES } from "@/lib/care/vocabulary";
 import { pastDate } from "./dates";
 
 // Shared by the claim forms (react-hook-form's zod resolver) and the claim route handlers.
@@ -124,7 +124,7 @@ export const claimStateSchema = z.object({
   expectedVersion: z.number().int().min(0).optional(),
 });
 
-export const CLAIM_AGE_FILTERS = ["any", "under_2d", "2_to_7d", "over_7d"] as const;
+export { CLAIM_AGE_FILTERS };
 
 export const claimListQuerySchema = z.object({
   state: z.enum([...CLAIM_STATES, "open", "all"]).default("open"),

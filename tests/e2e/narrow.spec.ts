@@ -67,6 +67,15 @@ test("the claims list on a phone shows each claim's whole line: piece, owner, ag
   expect(clipped).toEqual([]);
   await expect(rows.first()).toContainText(/\d+ photos?/);
   await noSideways(page, "/studio/claims");
+  // A link with a state the queue does not have opens the open claims (was "The queue didn't load — Some
+  // fields need a second look."); a page past the end goes to the last page (was "4901–2 of 2 claims").
+  await page.goto("/studio/claims?state=bogus&sort=sideways");
+  await expect(rows.first()).toBeVisible();
+  await expect(page.getByText("The queue didn't load")).toHaveCount(0);
+  await page.goto("/studio/claims?page=99");
+  await expect(rows.first()).toBeVisible();
+  await expect(page).toHaveURL(/\/studio\/claims$/);
+  await expect(page.getByText("No claims match these filters.")).toHaveCount(0);
 });
 
 test("a claim's coverage suggestion on a phone: the covered share wraps under the words, not in a column of its own", async ({ page }) => {
