@@ -1,6 +1,6 @@
 import { Link } from "@react-email/components";
 import { EmailLayout, Note, Paragraph } from "./components/layout";
-import { ActionClose } from "./components/button";
+import { ActionClose, SpelledLink } from "./components/button";
 import { colors } from "./components/theme";
 
 export type SignUpAttemptEmailProps = {
@@ -29,7 +29,7 @@ export function SignUpAttemptEmail({ name, signInUrl, resetUrl }: SignUpAttemptE
         <Link href={resetUrl} style={{ color: colors.accent }}>
           Choose a new one
         </Link>{" "}
-        ({resetUrl}).
+        (<SpelledLink href={resetUrl} />).
       </Paragraph>
       <Note>If it wasn&apos;t you, you can ignore this message: your password and your pieces stay as they are.</Note>
     </EmailLayout>

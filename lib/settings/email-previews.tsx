@@ -18,6 +18,13 @@ import { REFRESH_OFFER_PREVIEW } from "@/emails/refresh-offer";
 import RefundIssuedEmail from "@/emails/refund-issued";
 import JobRefundEmail from "@/emails/job-refund";
 import PlanPaidAfterHandOnEmail from "@/emails/plan-paid-after-hand-on";
+import { PaymentRefundedAutomaticallyEmail } from "@/emails/payment-refunded-automatically";
+import { PlanEndedEmail } from "@/emails/plan-ended";
+import { PlanHeldSettledEmail } from "@/emails/plan-held-settled";
+import { PlanRenewalHeldEmail } from "@/emails/plan-renewal-held";
+import { SignUpAttemptEmail } from "@/emails/sign-up-attempt";
+import { StudioTestMessage } from "@/emails/studio-test-message";
+import { ThreadMessageEmail } from "@/emails/thread-message";
 import StaffInvitationEmail from "@/emails/staff-invitation";
 import TransferCodeEmail from "@/emails/transfer-code";
 import TechnicianVisitEmail from "@/emails/technician-visit";
@@ -43,6 +50,9 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "plan-grace", name: "Care plan payment failed", audience: "owner", when: "When a care plan's renewal payment fails: the grace period before the plan lapses.", component: PlanGraceEmail as Template },
   { slug: "plan-paid-after-hand-on", name: "Care plan payment held", audience: "owner", when: "When a care plan is paid after its buyer handed the piece on (the plan can't start), and again when the studio pays it back.", component: PlanPaidAfterHandOnEmail as Template },
   { slug: "plan-visit", name: "Care plan visit", audience: "owner", when: "Ahead of a care plan's included visit: its price under the plan and the times offered.", component: PlanVisitEmail as Template },
+  { slug: "plan-renewal-held", name: "Care plan renewal being checked", audience: "owner", when: "When a care plan's renewal is charged at an amount that isn't the plan's price: the studio checks it before it counts.", component: PlanRenewalHeldEmail as Template },
+  { slug: "plan-held-settled", name: "Care plan payment settled", audience: "owner", when: "When staff keep a held care plan payment or pay back what isn't owed.", component: PlanHeldSettledEmail as Template },
+  { slug: "plan-ended", name: "Care plan ended", audience: "owner", when: "When a care plan is cancelled, lapses or ends because the piece changed hands, with any refund.", component: PlanEndedEmail as Template },
   { slug: "claim-received", name: "Claim received", audience: "anyone", when: "When an owner files a claim (to the owner and to the studio).", component: ClaimReceivedEmail as Template },
   { slug: "claim-message", name: "Claim message", audience: "anyone", when: "When the studio or the owner writes on a claim.", component: ClaimMessageEmail as Template },
   { slug: "claim-decision", name: "Claim decision", audience: "owner", when: "When staff accept or decline a claim.", component: ClaimDecisionEmail as Template },
@@ -50,6 +60,8 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "payment-receipt", name: "Payment receipt", audience: "owner", when: "When a repair is paid online.", component: PaymentReceiptEmail as Template },
   { slug: "refund-issued", name: "Refund issued", audience: "owner", when: "When the studio refunds a payment.", component: RefundIssuedEmail as Template },
   { slug: "job-refund", name: "Money given back", audience: "owner", when: "When staff give back all or part of a paid repair's payment; the job stays as it is.", component: JobRefundEmail as Template },
+  { slug: "payment-refunded-automatically", name: "Extra payment refunded", audience: "anyone", when: "When a payment for an older quote or a second payment for the same repair is refunded on its own (to the owner and to the studio).", component: PaymentRefundedAutomaticallyEmail as Template },
+  { slug: "thread-message", name: "Message", audience: "anyone", when: "When the studio or an owner writes in a conversation that isn't about a claim.", component: ThreadMessageEmail as Template },
   { slug: "transfer-code", name: "Transfer code", audience: "owner", when: "When an owner passes a piece on.", component: TransferCodeEmail as Template },
   { slug: "piece-released", name: "Piece released", audience: "owner", when: "When a piece leaves an owner's account.", component: PieceReleasedEmail as Template },
   { slug: "visit-invite", name: "Visit booked, moved or cancelled", audience: "owner", when: "When a visit is booked, moved or cancelled (with a calendar file).", component: VisitInviteEmail as Template },
@@ -58,6 +70,8 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "technician-visit", name: "Technician's visit", audience: "staff", when: "To the technician when a visit is booked, moved, handed to them or taken off their calendar (with a calendar file).", component: TechnicianVisitEmail as Template },
   { slug: "staff-invitation", name: "Team invitation", audience: "staff", when: "When an admin invites someone to the studio.", component: StaffInvitationEmail as Template },
   { slug: "verify-email", name: "Verify e-mail", audience: "anyone", when: "After sign-up, to confirm the address.", component: VerifyEmail as Template },
+  { slug: "sign-up-attempt", name: "Sign-up with a known address", audience: "anyone", when: "When someone signs up with an e-mail address that already has an account.", component: SignUpAttemptEmail as Template },
+  { slug: "studio-test-message", name: "Test message", audience: "staff", when: "When an admin sends a test message from the mail settings.", component: StudioTestMessage as Template },
   { slug: "password-reset", name: "Password reset", audience: "anyone", when: "When someone asks to reset their password.", component: PasswordResetEmail as Template },
 ];
 

@@ -1,6 +1,8 @@
 // Studio settings: profile and rates in minor units, reminder timing, visit booking rules, e-mail
 // previews, the audit log.
 // All data invented.
+import fs from "node:fs";
+import path from "node:path";
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { ZodError } from "zod";
@@ -161,6 +163,9 @@ describe("e-mail previews", () => {
       expect(p.html, t.slug).not.toMatch(/<script/i);
       expect(p.text.length, t.slug).toBeGreaterThan(40);
     }
+    // Every template with example values (emails/*.tsx, PreviewProps) can be previewed, under its file's name.
+    const withExamples = fs.readdirSync(path.join(process.cwd(), "emails")).filter((f) => f.endsWith(".tsx") && fs.readFileSync(path.join(process.cwd(), "emails", f), "utf8").includes(".PreviewProps =")).map((f) => f.replace(/\.tsx$/, ""));
+    expect(withExamples.filter((slug) => !templates.some((t) => t.slug === slug))).toEqual([]);
     const reminder = await renderEmailPreview(admin, "care-reminder");
     expect(reminder.text).toContain("Walnut river dining table");
     await expect(renderEmailPreview(admin, "nope")).rejects.toMatchObject({ status: 404 });
