@@ -53,7 +53,7 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HT
           ref={ref}
           id={fieldId}
           aria-invalid={error ? true : undefined}
-          aria-describedby={error ? `${fieldId}-error` : undefined}
+          aria-describedby={error ? `${fieldId}-error` : hint ? `${fieldId}-hint` : undefined}
           className={cn(control, className)}
           {...props}
         >

@@ -83,6 +83,8 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   }
   await page.setViewportSize({ width: 1280, height: 900 });
   await expect(page.getByRole("form", { name: "Contact details" }).getByText(/^The studio’s is .+\.$/)).toBeVisible();
+  // A select's hint is read out with it, as a text field's is (components/ui/field.tsx).
+  await expect(page.getByRole("form", { name: "Contact details" }).getByLabel("Time zone")).toHaveAccessibleDescription(/^The studio’s is .+\.$/);
   const pageAxe = await new AxeBuilder({ page }).analyze();
   expect(pageAxe.violations, JSON.stringify(pageAxe.violations, null, 2)).toEqual([]);
 });
