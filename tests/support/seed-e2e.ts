@@ -4,11 +4,12 @@ import fs from "node:fs";
 import path from "node:path";
 import { and, eq, isNotNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { careLogEntries, claims, files, memberships, pieces, reminderSends, repairJobs, studios, users, visits } from "@/db/schema";
+import { careLogEntries, claims, files, finishProducts, memberships, pieces, reminderSends, repairJobs, studios, users, visits } from "@/db/schema";
 import { DEMO_PASSWORD, DEMO_STUDIO_SLUG, seedDemo } from "@/db/seed/demo";
 import { hashPassword } from "@/lib/auth/password";
 import { newRegistrationCode } from "@/lib/pieces/registration";
 import { indexPiece } from "@/lib/pieces/search-index";
+import { priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
 
 const db = getDb();
 const demoSeed = await seedDemo(db);
@@ -108,8 +109,27 @@ const matrix = {
   sentReminderId: sentReminder.id,
   spare: { pieceId: spare.id, code: spareCode.code },
 };
+// For the quote builder's unsized-work notice (tests/e2e/quote-unsized.spec.ts): a draft job re-oiling the
+// oiled base of Jonah's resin coffee table, whose top is polished resin, so the work is on the base and
+// the piece's record has no size for it: nothing is proposed until staff type the base's area.
+const coffeeTable = db.select().from(pieces).where(and(eq(pieces.studioId, demo.id), eq(pieces.title, "Walnut and maple resin coffee table"))).get()!;
+const demoProducts = db.select().from(finishProducts).where(eq(finishProducts.studioId, demo.id)).all();
+const baseInput = {
+  title: "Re-oil the waterfall legs (invented)",
+  tasks: ["reoil" as const],
+  productIds: demoProducts.filter((p) => p.finishClass === "hardwax_oil").map((p) => p.id).slice(0, 1),
+  coats: 1,
+  travel: false,
+  coveredPct: 0,
+  notes: "",
+};
+const unsizedBase = db
+  .insert(repairJobs)
+  .values({ studioId: demo.id, pieceId: coffeeTable.id, ownerId: coffeeTable.ownerId, origin: "studio", title: baseInput.title, quoteInput: baseInput, currency: demo.currency, state: "draft", notes: "Invented e2e job.", ...totals(priceJob(demo, pricedPiece(db, coffeeTable), baseInput, demoProducts)) })
+  .returning({ id: repairJobs.id })
+  .get();
 // E2E_FIXTURE_FILE: another place for the ids, for a second e2e server on other ports and its own database.
 const fixtureFile = process.env.E2E_FIXTURE_FILE ?? "tests/.tmp/e2e-fixture.json";
 fs.mkdirSync(path.dirname(fixtureFile), { recursive: true });
-fs.writeFileSync(fixtureFile, JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: demoSeed.jobs, matrix }, null, 2));
+fs.writeFileSync(fixtureFile, JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: { ...demoSeed.jobs, unsizedBase: unsizedBase.id }, matrix }, null, 2));
 console.log("Seeded the e2e database (invented data).");
