@@ -18,6 +18,8 @@ const env = {
   STRIPE_API_HOST: "127.0.0.1",
   STRIPE_API_PORT: process.env.STRIPE_API_PORT ?? "12111",
 };
+// The Stripe fake starts knowing the seed's invented payments, so they can be refunded (lib/fakes/seeded-charges.ts).
+env.STRIPE_FAKE_SEEDED_FROM = env.DATABASE_URL;
 
 removeDatabase(env.DATABASE_URL);
 runStep("Migrating a fresh demo database", "tsx", ["db/migrate.ts"], env);

@@ -44,7 +44,12 @@ export type FakeCharge = { id: string; payment_intent: string; amount: number; a
 export type FakeEvent = { id: string; object: "event"; type: string; created: number; api_version: string; livemode: false; data: { object: Json }; pending_webhooks: number };
 export type Delivery = { eventId: string; type: string; attempt: number; status: number | null; at: string };
 
+/** A charge made before the fake started (lib/fakes/seeded-charges.ts: the demo seed's invented payments). */
+export type FakeChargeSeed = { paymentIntent: string; amount: number; currency: string; amountRefunded: number };
+
 export type StripeFakeOptions = {
+  /** Charges it knows from the start, under the install's key, so they can be refunded. */
+  charges?: FakeChargeSeed[];
   host?: string;
   port?: number;
   secretKey: string;
@@ -154,7 +159,9 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   const sessions = new Map<string, FakeSession>();
   const events: FakeEvent[] = [];
   const deliveries: Delivery[] = [];
-  const charges = new Map<string, FakeCharge>();
+  const charges = new Map<string, FakeCharge>(
+    (options.charges ?? []).map((c) => [c.paymentIntent, { id: id("ch"), payment_intent: c.paymentIntent, amount: c.amount, amount_refunded: c.amountRefunded, currency: c.currency.toLowerCase() }]),
+  );
   const idempotency = new Map<string, { body: string; status: number; response: Json }>();
   const retryDelays = options.retryDelaysMs ?? [1000, 3000, 10000, 30000];
   const timers = new Set<NodeJS.Timeout>();
