@@ -13,6 +13,7 @@ import { formatDate, formatInstant } from "@/lib/format/dates";
 import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
 import { jobUrl } from "@/lib/repairs/mail";
+import { defaultJobTitle } from "@/lib/repairs/states";
 import { priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
 import { listJobSlots } from "@/lib/visits/slots";
 import { planMailContext } from "./plan-mail";
@@ -52,7 +53,7 @@ export function createVisitJob({ sub, template }: Live, dueOn: string, db: Db = 
     const tasks: CareTaskKind[] = [...new Set<CareTaskKind>([...template.included.tasks, "annual_check"])];
     const wanted = new Set(tasks);
     const input = {
-      title: `Care plan visit: ${piece.title}`,
+      title: defaultJobTitle({ plan: tasks }),
       tasks,
       repairs: [],
       productIds: products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1),

@@ -4,8 +4,7 @@ import { getDb } from "@/db/client";
 import { claims, finishProducts, payments, pieces, planSubscriptions, planTemplates, planVisits, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
-import { CARE_TASK_LABELS, SURFACES, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
-import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
+import { SURFACES, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
 import { recordedAreaM2 } from "@/lib/pieces/care-inputs";
 import { planRepairDiscount } from "@/lib/plans/repair-discount";
@@ -14,7 +13,7 @@ import { jobVisibleTo, jobWhere } from "./access";
 import { ownerActsOnJob, type OwnerReach } from "./owner-reach";
 import { readLines } from "./lines";
 import { priceJob, pricedPiece, proposeLines, totals } from "./pricing";
-import { assertMove } from "./states";
+import { assertMove, defaultJobTitle } from "./states";
 
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
@@ -64,15 +63,6 @@ const CLAIM_WORK: Record<string, { tasks: CareTaskKind[]; repairs?: string[] }> 
   scratch_dent: { tasks: ["reoil"], repairs: ["spot_refinish"] },
 };
 
-/**
- * A new job's title names the work, not the piece: every page, mail and receipt shows the job beside its
- * piece ("Repair: crack or gap · Cherry writing desk"), so a title of "Repair: <piece>" read the piece twice.
- */
-function defaultJobTitle(source: { claim: ClaimCategory } | { refresh: CareTaskKind | undefined }): string {
-  if ("claim" in source) return `Repair: ${CLAIM_CATEGORY_LABELS[source.claim].toLowerCase()}`;
-  const task = source.refresh ? CARE_TASK_LABELS[source.refresh] : undefined;
-  return task ? `Refresh visit: ${task.toLowerCase()}` : "Refresh visit";
-}
 
 /**
  * Why an accepted claim or refresh offer can't become a repair job now, in staff's words, or null when it

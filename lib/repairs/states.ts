@@ -1,5 +1,7 @@
 import type { Payment, RepairJob } from "@/db/schema";
 import { conflict } from "@/lib/errors";
+import { CARE_TASK_LABELS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
+import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { formatMoney } from "@/lib/format";
 
 type JobState = RepairJob["state"];
@@ -175,4 +177,16 @@ export function jobIsCovered(job: Pick<RepairJob, "totalMinor" | "coveredPct">):
 /** The quote's total line on a job page: what was paid, what is still to pay, or, once cancelled unpaid or refunded, what was quoted. */
 export function jobTotalLabel(state: JobState, paid: boolean): string {
   return paid ? "Paid" : state === "cancelled" ? "Quoted (nothing to pay)" : "To pay";
+}
+
+/**
+ * A new job's title names the work, not the piece: every page, mail and receipt shows the job beside its
+ * piece ("Repair: crack or gap · Cherry writing desk"), so a title of "Repair: <piece>" read the piece
+ * twice. A care plan's visit names the tasks it includes ("Care plan visit: re-oil, annual check").
+ */
+export function defaultJobTitle(source: { claim: ClaimCategory } | { refresh: CareTaskKind | undefined } | { plan: readonly CareTaskKind[] }): string {
+  if ("claim" in source) return `Repair: ${CLAIM_CATEGORY_LABELS[source.claim].toLowerCase()}`;
+  if ("plan" in source) return `Care plan visit: ${source.plan.map((t) => CARE_TASK_LABELS[t].toLowerCase()).join(", ")}`;
+  const task = source.refresh ? CARE_TASK_LABELS[source.refresh] : undefined;
+  return task ? `Refresh visit: ${task.toLowerCase()}` : "Refresh visit";
 }

@@ -121,6 +121,9 @@ describe("buying and running a plan through the Stripe fake", () => {
     const mine = ahead.jobs.filter((j) => jobOf(j).pieceId === piece.id);
     expect(mine).toHaveLength(1);
     expect(jobOf(mine[0]!)).toMatchObject({ state: "covered", totalMinor: 0, coveredPct: 100, origin: "plan", ownerId: owner.id });
+    // Its title names the work the plan includes, not the piece every page shows beside it.
+    expect(jobOf(mine[0]!).title).toBe("Care plan visit: re-oil, annual clean and check");
+    expect(jobOf(mine[0]!).title).not.toContain(piece.title);
     // A second pass makes no second job for the same visit.
     expect((await runPlanVisits(new Date(dueMs - 9 * DAY))).jobs.filter((j) => jobOf(j).pieceId === piece.id)).toHaveLength(0);
     expect(getDb().select().from(planVisits).where(eq(planVisits.subscriptionId, sub.id)).all()).toHaveLength(1);
