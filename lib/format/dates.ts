@@ -31,7 +31,7 @@ export type CalendarDateOptions = { short?: boolean; weekday?: "long" | "short";
 
 /**
  * A calendar date YYYY-MM-DD: "3 December 2026"; short "3 Dec 2026"; with a weekday "Thursday,
- * 3 December 2026" or "Thu 3 Dec". A calendar date has no zone: it is the same day everywhere.
+ * 3 December 2026", or short "Thu 3 Dec" and "Thu 3 Dec 2026". A calendar date has no zone: it is the same day everywhere.
  */
 export function formatDate(iso: string, { short = false, weekday, year = true }: CalendarDateOptions = {}): string {
   const ms = noonUtc(iso);
@@ -53,9 +53,14 @@ export function formatMonth(iso: string, { short = false }: { short?: boolean } 
  * en-GB alone shortens September to "Sept" (and only September), so a chart axis read "Aug, Sept, Oct".
  */
 function withShortMonth(f: Intl.DateTimeFormat, ms: number): string {
-  return f
-    .formatToParts(ms)
-    .map((p) => (p.type === "month" ? dtf({ timeZone: "UTC", month: "long" }).format(ms).slice(0, 3) : p.value))
+  const parts = f.formatToParts(ms);
+  return parts
+    .map((p, i) => {
+      if (p.type === "month") return dtf({ timeZone: "UTC", month: "long" }).format(ms).slice(0, 3);
+      // "Sun 6 Dec 2026" as "Mon 30 Nov": Intl puts a comma after the weekday only when a year follows.
+      if (p.type === "literal" && parts[i - 1]?.type === "weekday") return " ";
+      return p.value;
+    })
     .join("");
 }
 

@@ -75,6 +75,8 @@ describe("dates and times", () => {
     expect(formatDate("2026-12-03", { short: true })).toBe("3 Dec 2026");
     expect(formatDate("2026-12-03", { weekday: "long" })).toBe("Thursday, 3 December 2026");
     expect(formatDate("2026-12-03", { weekday: "short", short: true, year: false })).toBe("Thu 3 Dec");
+    // With its year too, the same form: no comma after the weekday (Intl's en-GB puts one there only then).
+    expect(formatDate("2026-12-06", { weekday: "short", short: true })).toBe("Sun 6 Dec 2026");
     expect(formatMonth("2026-03")).toBe("March 2026");
     expect(formatMonth("2026-03", { short: true })).toBe("Mar 2026");
     // Short months are the month's first three letters, September included: CLDR en-GB, as Node's ICU carries it, writes
