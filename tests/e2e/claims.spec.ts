@@ -128,6 +128,8 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   await expect(desk.getByText(/Suggests: Covered/)).toBeVisible();
   await expect(desk.getByText(/^Noticed \d{1,2} [A-Z][a-z]+ \d{4}$/)).toBeVisible();
   await expect(desk.getByText(description)).toBeVisible();
+  // Each answer of the report starts with a capital, the room's like the others ("Not known", "Driest …").
+  for (const answer of await desk.getByRole("heading", { name: "The owner's report" }).locator("..").locator("dd").allInnerTexts()) expect(answer.trim()).toMatch(/^[A-Z0-9—]/);
   await desk.getByRole("list", { name: "Photos" }).getByRole("button").first().click();
   await expect(desk.getByRole("img", { name: "Photo 1, full size" })).toBeVisible();
   await desk.getByRole("button", { name: "Close the photo" }).click();

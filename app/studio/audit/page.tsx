@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { formatZone } from "@/lib/format";
 import Link from "next/link";
+import { redirect } from "next/navigation";
 import { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -27,6 +28,8 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
     const s = p.toString();
     return `/studio/audit${s ? `?${s}` : ""}`;
   };
+  // An old link or a page past the end (entries moved on): the last page, not an empty one.
+  if (q.page > pages) redirect(pageHref(pages));
   return (
     <>
       <PageHeader title="Audit log" lead={`Who did what and when in ${ctx.studio.name}: decisions, finish-layer edits, role changes, refunds and settings. Times in ${formatZone(ctx.studio.timeZone)}.`} />

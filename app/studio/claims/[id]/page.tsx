@@ -96,8 +96,8 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               <dt className="text-muted">Room</dt>
               <dd>
                 {room && room.driestRh != null
-                  ? `driest ${room.driestTemp} °${room.unit} / ${room.driestRh} % RH, dampest ${room.dampestTemp} °${room.unit} / ${room.dampestRh} % RH${room.dailySwingPct != null ? `, up to ${room.dailySwingPct} % RH in a day` : ""}`
-                  : "not known"}
+                  ? `Driest ${room.driestTemp} °${room.unit} / ${room.driestRh} % RH, dampest ${room.dampestTemp} °${room.unit} / ${room.dampestRh} % RH${room.dailySwingPct != null ? `, up to ${room.dailySwingPct} % RH in a day` : ""}`
+                  : "Not known"}
               </dd>
             </dl>
           </Card>
