@@ -37,11 +37,13 @@ export function formatLength(mm: number, units: UnitSystem): string {
 }
 
 /**
- * A board's thickness: in imperial, inches and — where it is a whole number of quarter inches from
- * 4/4 to 16/4 within 1/32 in — the lumber trade's quarters ("2 in (8/4)"). Metric: "51 mm".
+ * A board's thickness: in imperial, inches and — for staff, where it is a whole number of quarter
+ * inches from 4/4 to 16/4 within 1/32 in — the lumber trade's quarters ("2 in (8/4)"); owners read
+ * the inches alone (`quarters: false`), the quarters being the trade's shorthand. Metric: "51 mm".
  */
-export function formatThickness(mm: number, units: UnitSystem): string {
+export function formatThickness(mm: number, units: UnitSystem, { quarters: withQuarters = true }: { quarters?: boolean } = {}): string {
   if (units === "metric") return formatLength(mm, units);
+  if (!withQuarters) return formatInchesTape(mm);
   const inches = mm / MM_PER_INCH;
   const quarters = Math.round(inches * 4);
   const fits = quarters >= 4 && quarters <= 16 && Math.abs(inches - quarters / 4) <= 1 / 32;

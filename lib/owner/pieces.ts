@@ -367,7 +367,7 @@ export function getMyPiece(owner: Owner, pieceId: string, now = new Date()): Pie
     deliveredOn: piece.deliveredOn,
     registeredAt: piece.registeredAt ? piece.registeredAt.getTime() : null,
     size: formatSize(piece, units),
-    thickness: piece.thicknessMm ? formatThickness(piece.thicknessMm, units) : null,
+    thickness: piece.thicknessMm ? formatThickness(piece.thicknessMm, units, { quarters: false }) : null,
     species: {
       primary: primary?.commonName ?? piece.primarySpeciesId.replace(/_/g, " "),
       secondary: piece.secondarySpeciesId ? (secondary?.commonName ?? piece.secondarySpeciesId.replace(/_/g, " ")) : null,

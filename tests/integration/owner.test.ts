@@ -76,13 +76,15 @@ describe("owner pieces", () => {
       .returning()
       .get();
     const policy = getDb().insert(warrantyPolicies).values({ studioId: studio.id, version: 3, effectiveFrom: "2024-01-01", policy: DEFAULT_WARRANTY_POLICY }).returning().get();
-    const { piece } = createPiece(studio, { ownerId: me.id, resinKind: "deep_pour", warrantyPolicyId: policy.id });
+    const { piece } = createPiece(studio, { ownerId: me.id, resinKind: "deep_pour", warrantyPolicyId: policy.id, thicknessMm: 51 });
     getDb().update(finishLayers).set({ productId: product.id, productLabel: product.name }).where(eq(finishLayers.pieceId, piece.id)).run();
 
     const view = getMyPiece(me, piece.id, NOW);
     expect(view.layers).toHaveLength(1);
     expect(view.layers[0]).toMatchObject({ classLabel: "Hardwax oil", appliedOn: "2025-06-01", productLabel: "Test hardwax oil (invented)" });
     expect(view.size).toBe("78 3/4 × 35 7/16 in"); // 2000 mm = 78.74 in, 900 mm = 35.43 in, to the nearest 1/16 in
+    // The thickness in inches, without the lumber trade's quarters ("(8/4)"), which staff read.
+    expect(view.thickness).toBe("2 in");
     const reoil = view.schedule.tasks.find((t) => t.kind === "reoil")!;
     expect(reoil.reasons[0]).toBe("The last oil coat on the top went on 1 June 2025.");
 

@@ -16,6 +16,7 @@ describe("imperial lengths", () => {
   it("give board thickness in quarters where it is a whole number of quarter inches", () => {
     expect(formatThickness(50.8, "imperial")).toBe("2 in (8/4)"); // 2 in = 8/4
     expect(formatThickness(44.45, "imperial")).toBe("1 3/4 in (7/4)");
+    expect(formatThickness(44.45, "imperial", { quarters: false })).toBe("1 3/4 in"); // owners: no trade shorthand
     expect(formatThickness(51, "imperial")).toBe("2 in (8/4)"); // 2.008 in: within 1/32 in of 2
     expect(formatThickness(30, "imperial")).toBe("1 3/16 in"); // 1.181 in: 0.069 in from 1 1/4, not a quarter
     expect(formatThickness(12.7, "imperial")).toBe("1/2 in"); // below 4/4: no quarters
