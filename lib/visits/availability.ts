@@ -8,6 +8,7 @@ import { memberships, users, visitRules, type RepairJob, type Studio, type Techn
 import { addDays, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { taskDurationMinutes } from "@/lib/care/quote";
 import { availableSlots, type BusyInterval, type Slot } from "@/lib/care/slots";
+import type { CareTaskKind } from "@/lib/care/vocabulary";
 import { readLines } from "@/lib/repairs/lines";
 import { quoteAreaM2, taskSurface, type PricedPiece } from "@/lib/repairs/pricing";
 import type { DbOrTx } from "@/lib/pieces/search-index";
@@ -79,11 +80,17 @@ export const UNSIZED_BOOKING_AREA_M2 = 1;
  * (lib/care taskDurationMinutes).
  */
 export function jobDurationMin(job: Pick<RepairJob, "quoteInput" | "lines">, piece: PricedPiece): number {
-  const quotedHours = readLines(job.lines).reduce((h, l) => h + (l.unit === "h" ? l.quantity : 0), 0);
+  const lines = readLines(job.lines);
+  const quotedHours = lines.reduce((h, l) => h + (l.unit === "h" ? l.quantity : 0), 0);
   const tasks = job.quoteInput.tasks ?? [];
-  const taskMinutes = () => tasks.reduce((m, task) => m + taskDurationMinutes([task], quoteAreaM2(piece, job.quoteInput, taskSurface(piece.layers, task)) ?? UNSIZED_BOOKING_AREA_M2), 0);
-  const minutes = quotedHours > 0 ? Math.round(quotedHours * 60) : tasks.length ? taskMinutes() : 60;
-  return Math.max(30, minutes);
+  const areaOf = (task: CareTaskKind) => quoteAreaM2(piece, job.quoteInput, taskSurface(piece.layers, task));
+  const minutesOf = (some: readonly CareTaskKind[]) => some.reduce((m, task) => m + taskDurationMinutes([task], areaOf(task) ?? UNSIZED_BOOKING_AREA_M2), 0);
+  if (quotedHours <= 0) return Math.max(30, tasks.length ? minutesOf(tasks) : 60);
+  // A task the quote has no hours for because its surface has no size (no line was proposed for it)
+  // still takes its time on site, beside the hours quoted for the rest.
+  const hourRefs = new Set(lines.filter((l) => l.unit === "h").map((l) => l.ref));
+  const unpriced = tasks.filter((task) => areaOf(task) === null && !hourRefs.has(`task:${task}`));
+  return Math.max(30, Math.round(quotedHours * 60) + minutesOf(unpriced));
 }
 
 export type TechnicianSlot = Slot & { technicianId: string };

@@ -165,6 +165,17 @@ describe("a visit is booked for the surface its work is on", () => {
     expect(await bookedMinutes({ tasks: ["topcoat_refresh", "reoil"], areasM2: { base: 0.3 } })).toBe(120);
   });
 
+  it("a quote with hours for some tasks still books time for a task it priced nothing for (no size for its surface)", async () => {
+    const { staff, job, piece } = await pieceWithOiledBase();
+    const saved = await updateJobQuote(staff, job.id, jobQuoteSchema.parse({ title: "Check and base", tasks: ["annual_check", "reoil"], repairs: [], productIds: [], coats: 1, travel: false, coveredPct: 0, notes: "" }));
+    const hours = saved.lines.filter((l) => l.unit === "h");
+    expect(hours.map((l) => l.ref)).toEqual(["task:annual_check"]);
+    const stored = getStudioJob(staff, job.id).job;
+    // The check's quoted hours, plus the base's re-oil at the plain 1 m²: 0.5 h + 0.5 h/m² × 1 m² = 60 minutes
+    // (before: the check's hours alone).
+    expect(jobDurationMin(stored, pricedPiece(getDb(), getDb().select().from(pieces).where(eq(pieces.id, piece.id)).get()!))).toBe(Math.round(hours[0]!.quantity * 60) + 60);
+  });
+
   it("a top with no size on record is booked at the plain 1 m², or at the size typed for it", async () => {
     const unmeasured = { shapeKind: "measured" as const, lengthMm: null, widthMm: null, measuredAreaM2: null };
     // Topcoat refresh at 1 m²: 0.5 h + 0.4 h = 0.9 → 1.0 h = 60 minutes (before: the top's 0 m², 30 minutes).
