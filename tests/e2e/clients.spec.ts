@@ -67,6 +67,11 @@ test("staff find a client, edit the phone and see it on the timeline", async ({ 
   await expect(page.getByText(/^1–\d+ of \d+ clients?$/)).toBeVisible();
   await expect(page.getByText("No clients yet.")).toHaveCount(0);
 
+  // A search too long to run says why, in the field's words.
+  await page.goto(`/studio/clients?q=${"a".repeat(201)}`);
+  await expect(page.getByText("Check the search")).toBeVisible();
+  await expect(page.getByText(/Search for at most 200 characters\./)).toBeVisible();
+
   // Search by the new number's digits finds them.
   await page.goto("/studio/clients?q=5550147");
   await expect(page.getByRole("link", { name: "Jonah Reyes" })).toBeVisible();
