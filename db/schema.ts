@@ -704,7 +704,11 @@ export const jobRefunds = sqliteTable(
     refundedAt: integer("refunded_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
   },
-  (t) => [index("job_refunds_studio_job_idx").on(t.studioId, t.jobId)],
+  (t) => [
+    index("job_refunds_studio_job_idx").on(t.studioId, t.jobId),
+    // The scheduler's pass (jobs/job-refunds.ts) reads only the refunds Stripe has not taken yet.
+    index("job_refunds_pending_idx").on(t.createdAt).where(sql`refunded_at IS NULL`),
+  ],
 );
 
 export type JobRefund = typeof jobRefunds.$inferSelect;

@@ -86,6 +86,11 @@ export const PENDING_REFUND_WAIT_MS = 5 * 60_000;
 
 export type PendingRefundsPass = { finished: string[]; refused: string[]; waiting: string[] };
 
+/** Refunds Stripe has not taken yet, asked before `cutoff`: read through job_refunds_pending_idx. */
+export function refundsPendingBefore(cutoff: Date) {
+  return getDb().select().from(jobRefunds).where(and(isNull(jobRefunds.refundedAt), lt(jobRefunds.createdAt, cutoff)));
+}
+
 /**
  * The scheduler's pass (jobs/job-refunds.ts): every refund left pending for longer than
  * PENDING_REFUND_WAIT_MS is asked again as finishJobRefund asks it, with the same key; the audit names
@@ -93,8 +98,7 @@ export type PendingRefundsPass = { finished: string[]; refused: string[]; waitin
  * answer leaves it for the next pass.
  */
 export async function finishPendingJobRefunds(now = new Date()): Promise<PendingRefundsPass> {
-  const cutoff = new Date(now.getTime() - PENDING_REFUND_WAIT_MS);
-  const open = getDb().select().from(jobRefunds).where(and(isNull(jobRefunds.refundedAt), lt(jobRefunds.createdAt, cutoff))).all();
+  const open = refundsPendingBefore(new Date(now.getTime() - PENDING_REFUND_WAIT_MS)).all();
   const out: PendingRefundsPass = { finished: [], refused: [], waiting: [] };
   for (const pending of open) {
     const payment = getDb().select().from(payments).where(and(eq(payments.studioId, pending.studioId), eq(payments.jobId, pending.jobId), eq(payments.id, pending.paymentId))).get()!;
