@@ -1,7 +1,7 @@
 import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { ActionClose } from "./components/button";
 
-export type AutomaticRefundReason = "older_quote" | "already_paid" | "not_awaiting_payment";
+export type AutomaticRefundReason = "older_quote" | "already_paid" | "not_awaiting_payment" | "piece_handed_on";
 
 export type PaymentRefundedAutomaticallyEmailProps = {
   audience: "owner" | "studio";
@@ -20,12 +20,14 @@ const OWNER_REASON: Record<AutomaticRefundReason, string> = {
   older_quote: "it was for an earlier version of the quote — the studio changed the quote after you opened the payment page",
   already_paid: "the work had already been paid for by another payment of yours",
   not_awaiting_payment: "the job was no longer waiting for payment when it went through (the studio was changing the quote, or the job had been closed)",
+  piece_handed_on: "it went through after you had handed the piece on, so the repair was no longer yours to pay for",
 };
 
 const STUDIO_REASON: Record<AutomaticRefundReason, string> = {
   older_quote: "it was for an older quote than the one the job has now",
   already_paid: "the job had already been paid by another payment",
   not_awaiting_payment: "the job was no longer waiting for payment when it went through",
+  piece_handed_on: "the owner had handed the piece on before paying (a payment page opened before the hand-over)",
 };
 
 export function paymentRefundedAutomaticallySubject({ audience, amount, studioName, pieceTitle, ownerName }: Pick<PaymentRefundedAutomaticallyEmailProps, "audience" | "amount" | "studioName" | "pieceTitle" | "ownerName">): string {
@@ -48,6 +50,8 @@ export function PaymentRefundedAutomaticallyEmail(p: PaymentRefundedAutomaticall
           </Paragraph>
           {p.reason === "already_paid" ? (
             <Paragraph>Your other payment stands, and the work goes ahead as planned.</Paragraph>
+          ) : p.reason === "piece_handed_on" ? (
+            <Paragraph>Nothing is left for you to pay for this repair.</Paragraph>
           ) : (
             <Paragraph>Open the job to see where it stands and what, if anything, is left to pay.</Paragraph>
           )}

@@ -191,10 +191,10 @@ export const CLAIM_DECISIONS = ["covered", "partly_covered", "chargeable", "decl
 export const JOB_ORIGINS = ["claim", "refresh_offer", "studio", "plan"] as const;
 export const PAYMENT_STATUSES = ["open", "paid", "expired", "refunded", "partially_refunded"] as const;
 /**
- * Why a captured payment is (being) given back in full: the first three the product decides on its
- * own (the payment does not count toward its job), the last is a cancelled job.
+ * Why a captured payment is (being) given back in full: all but "job_cancelled" the product decides on
+ * its own (the payment does not count toward its job); "job_cancelled" is a cancelled job.
  */
-export const PAYMENT_REFUND_REASONS = ["older_quote", "already_paid", "not_awaiting_payment", "job_cancelled"] as const;
+export const PAYMENT_REFUND_REASONS = ["older_quote", "already_paid", "not_awaiting_payment", "job_cancelled", "piece_handed_on"] as const;
 export const VISIT_PHOTO_KINDS = ["before", "after"] as const;
 /**
  * Mail that could not be handed to SMTP when it was sent (lib/mail sendMail), kept as rendered so the

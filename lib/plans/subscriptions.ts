@@ -1,6 +1,6 @@
 // Plan subscriptions: starting one (Checkout in subscription mode, or by staff for a client who paid
 // by other means), cancelling at the period's end, and the one function every state move goes through.
-import { and, desc, eq, inArray } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb, type Db } from "@/db/client";
 import { planInvoices, planSubscriptions, pieces, studios, type PlanSubscription, type PlanTemplate } from "@/db/schema";
@@ -9,9 +9,10 @@ import type { StudioActor } from "@/lib/auth/actor";
 import { env } from "@/lib/env";
 import { conflict, notFound } from "@/lib/errors";
 import { ownedPieceRow } from "@/lib/owner/pieces";
-import { accountFor, callStripe } from "@/lib/payments/stripe";
+import { accountFor, callStripe, expireCheckoutSession } from "@/lib/payments/stripe";
 import { assertPlanMove, PLAN_COVERS, type PlanState } from "./states";
 import { addPeriod } from "./periods";
+import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { planPrice } from "./price";
 import { templateOf, templatesFitting } from "./templates";
 
@@ -77,8 +78,34 @@ function refuseIfCovered(pieceId: string) {
  * The owner buys a plan for one of their pieces: a plan row waiting for payment, a Stripe Price and
  * Customer, and a Checkout Session in subscription mode carrying the plan's id, template version and
  * amount. An open checkout for the same plan version is reused.
+ *
+ * One piece, one plan: starts for a piece run one at a time in this process (two clicks, two tabs), and
+ * every other payment page still open for the piece (another plan, another price, a former owner's) is
+ * closed at Stripe first, so only the page handed out last can take money. A page completed meanwhile is
+ * written as Stripe reports it; if that started a plan, this start is refused as any start on a covered
+ * piece is.
  */
 export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name">, pieceId: string, templateId: string): Promise<{ checkoutUrl: string; subscriptionId: string }> {
+  const piece = ownedPieceRow(user, pieceId);
+  return withPlanLock(`piece-checkout:${piece.id}`, () => startPlanCheckoutNow(user, piece.id, templateId));
+}
+
+/** Closes every open plan payment page of the piece at Stripe except `keep`'s; one completed meanwhile is synced. */
+async function closeOtherPlanCheckouts(pieceId: string, keep: string | undefined): Promise<void> {
+  const open = getDb()
+    .select()
+    .from(planSubscriptions)
+    .where(and(eq(planSubscriptions.pieceId, pieceId), eq(planSubscriptions.state, "awaiting_payment"), isNotNull(planSubscriptions.checkoutSessionId)))
+    .all()
+    .filter((s) => s.checkoutSessionId !== keep);
+  for (const sub of open) {
+    const session = await expireCheckoutSession(sub.checkoutSessionId!, sub);
+    const subscription = typeof session.subscription === "string" ? session.subscription : session.subscription?.id;
+    if (session.status === "complete" && subscription) await syncPlanSubscription(subscription, undefined, sub);
+  }
+}
+
+async function startPlanCheckoutNow(user: Pick<User, "id" | "email" | "name">, pieceId: string, templateId: string): Promise<{ checkoutUrl: string; subscriptionId: string }> {
   const piece = ownedPieceRow(user, pieceId);
   const template = templatesFitting(piece).find((t) => t.id === templateId);
   if (!template) throw notFound("That plan isn't offered for this piece. Reload to see the current plans.");
@@ -91,10 +118,12 @@ export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name"
     .from(planSubscriptions)
     .where(and(eq(planSubscriptions.pieceId, piece.id), eq(planSubscriptions.ownerId, user.id), eq(planSubscriptions.templateId, template.id), eq(planSubscriptions.amountMinor, totalMinor), eq(planSubscriptions.state, "awaiting_payment")))
     .get();
-  if (waiting?.checkoutSessionId) {
-    const live = await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!), waiting);
-    if (live.status === "open" && live.url) return { checkoutUrl: live.url, subscriptionId: waiting.id };
-  }
+  const live = waiting?.checkoutSessionId ? await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!), waiting) : null;
+  const reuse = live?.status === "open" && live.url ? live.id : undefined;
+  await closeOtherPlanCheckouts(piece.id, reuse);
+  // A page closed just now may have been paid first, and started a plan.
+  refuseIfCovered(piece.id);
+  if (reuse) return { checkoutUrl: live!.url!, subscriptionId: waiting!.id };
   const sub =
     waiting ??
     db.transaction((tx) => {

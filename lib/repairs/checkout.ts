@@ -3,21 +3,23 @@
 // converges on what Stripe reports, so a webhook replayed, late or out of order leaves one state.
 import { and, eq, inArray, isNotNull, isNull, ne, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { jobRefunds, payments, repairJobs, type Payment, type RepairJob } from "@/db/schema";
+import { jobRefunds, payments, pieces, repairJobs, type Payment, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import { callStripe, expireCheckoutSession, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { moveJob } from "./jobs";
 import { mailAutomaticRefund, mailReceipt, mailRefundIssued } from "./mail";
+import { ownerActsOnJob } from "./owner-reach";
 import { AWAITING_PAYMENT, CAPTURED, isAutomaticRefund, paymentCounts, REFUND_REASON_LABELS, type RefundReason } from "./states";
 
 const intentOf = (session: Stripe.Checkout.Session) => (typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null));
 
 /**
  * A completed session pays the job only while the job awaits payment for exactly the quote version,
- * amount and currency the session was opened for, and nothing else has paid it; otherwise the reason
- * it is to be refunded.
+ * amount and currency the session was opened for, nothing else has paid it, and its owner still holds
+ * the piece (lib/repairs/owner-reach.ts: a page opened before the hand-over and paid after is not
+ * theirs to pay any more); otherwise the reason it is to be refunded.
  */
-function refundReasonFor(job: RepairJob, payment: Payment, session: Stripe.Checkout.Session, others: Payment[]): Exclude<RefundReason, "job_cancelled"> | null {
+function refundReasonFor(job: RepairJob, payment: Payment, session: Stripe.Checkout.Session, others: Payment[], holderId: string | null): Exclude<RefundReason, "job_cancelled"> | null {
   const current =
     payment.quoteVersion === job.quoteVersion &&
     session.metadata?.quoteVersion === String(job.quoteVersion) &&
@@ -27,6 +29,7 @@ function refundReasonFor(job: RepairJob, payment: Payment, session: Stripe.Check
   if (!current) return "older_quote";
   if (others.some(paymentCounts)) return "already_paid";
   if (job.state !== AWAITING_PAYMENT) return "not_awaiting_payment";
+  if (!ownerActsOnJob(job, { ownerId: holderId })) return "piece_handed_on";
   return null;
 }
 
@@ -46,7 +49,8 @@ export async function applySession(session: Stripe.Checkout.Session): Promise<{ 
       if (taken === 0) return { jobId: payment.jobId };
       const job = tx.select().from(repairJobs).where(eq(repairJobs.id, payment.jobId)).get()!;
       const others = tx.select().from(payments).where(and(eq(payments.jobId, job.id), ne(payments.id, payment.id))).all();
-      const reason = refundReasonFor(job, payment, session, others);
+      const holder = tx.select({ ownerId: pieces.ownerId }).from(pieces).where(eq(pieces.id, job.pieceId)).get();
+      const reason = refundReasonFor(job, payment, session, others, holder?.ownerId ?? null);
       if (reason === null) {
         moveJob(tx, job, "paid", { paidAt: now });
         recordAudit(tx, { studioId: job.studioId, actorId: null, action: "job.paid", subjectType: "repair_job", subjectId: job.id, data: { checkoutSessionId: session.id, amountMinor: payment.amountMinor, quoteVersion: payment.quoteVersion } });

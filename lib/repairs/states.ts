@@ -94,6 +94,7 @@ export const REFUND_REASON_LABELS: Record<RefundReason, string> = {
   already_paid: "the job was already paid",
   not_awaiting_payment: "paid after the job stopped waiting for payment",
   job_cancelled: "the job was cancelled",
+  piece_handed_on: "paid after the owner had handed the piece on",
 };
 
 /** The same, in the owner's words, completing "We refunded your payment of 12.00 USD: …". */
@@ -102,6 +103,7 @@ export const OWNER_REFUND_REASON_LABELS: Record<RefundReason, string> = {
   already_paid: "the work had already been paid by another payment of yours",
   not_awaiting_payment: "it came in after the job had stopped waiting for payment",
   job_cancelled: "the job was cancelled",
+  piece_handed_on: "it came in after you had handed the piece on, so the repair was no longer yours to pay for",
 };
 
 /** The product refunds these on its own; staff see a flag on the job. */

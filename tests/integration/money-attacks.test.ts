@@ -1,0 +1,126 @@
+// Where money moves, tried as someone who shouldn't move it would: a former owner paying a checkout
+// opened before they handed the piece on, two plan checkouts paid for one piece, a plan checkout
+// opened twice at once. Real SQLite file, the real stripe SDK against the local Stripe fake over HTTP
+// (its signed webhooks reach the handlers through tests/support/plans-stripe.ts), the SMTP sink.
+// Invented studios, owners and pieces.
+import { and, eq } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { payments, planInvoices, planSubscriptions } from "@/db/schema";
+import { addDays, localDate } from "@/lib/care/dates";
+import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
+import { releasePiece } from "@/lib/owner/transfer";
+import { createTemplate } from "@/lib/plans/templates";
+import { startPlanCheckout } from "@/lib/plans/subscriptions";
+import { getStudioJob } from "@/lib/repairs/jobs";
+import { approveJob } from "@/lib/repairs/payment";
+import { AWAITING_PAYMENT } from "@/lib/repairs/states";
+import { createPiece, createStudio, createUser, memberContext, planTemplateInput, unique } from "../support/fixtures";
+import { plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
+import { listMail, waitForMail } from "../support/mail";
+import { quotedRepairJob } from "../support/repair-quote";
+
+const stripe = plansStripeForFile();
+
+const payOnPage = (url: string) => fetch(url, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
+/** Every event the fake has made so far has reached the handlers and been answered 200. */
+const settled = () => until(() => stripe.fake.deliveries().length >= stripe.fake.events().length && stripe.fake.deliveries().every((d) => d.status === 200), 15_000);
+
+describe("a former owner and a repair checkout opened before the hand-over", () => {
+  it("paying it after handing the piece on does not pay the job: the money goes back automatically", async () => {
+    const studio = createStudio({ email: `${unique("handon-job")}@test.example`, taxRateBp: 0 });
+    const { staff, owner, job } = await quotedRepairJob(studio);
+    const since = new Date();
+    const { checkoutUrl } = await approveJob(owner, job.id);
+    await releasePiece({ ...owner }, job.pieceId, { confirm: true });
+    // The payment page was still open in a tab.
+    expect((await payOnPage(checkoutUrl!)).status).toBe(303);
+    await until(() => getDb().select().from(payments).where(and(eq(payments.jobId, job.id), eq(payments.status, "refunded"))).get(), 15_000);
+    await settled();
+    const after = getStudioJob(staff, job.id);
+    expect(after.job.state).toBe(AWAITING_PAYMENT);
+    expect(after.payments).toHaveLength(1);
+    expect(after.payments[0]).toMatchObject({ status: "refunded", refundedMinor: after.payments[0]!.amountMinor });
+    expect(stripe.fake.charges().find((c) => c.payment_intent === after.payments[0]!.paymentIntentId)!.amount_refunded).toBe(after.payments[0]!.amountMinor);
+    expect(after.payments[0]!.refundReason).toBe("piece_handed_on");
+    // The person who paid is told why, once.
+    const mail = await waitForMail({ to: owner.email, subject: /^Refund of /, since });
+    expect(mail.text).toContain("after you had handed the piece on");
+    expect((await listMail({ to: owner.email })).filter((m) => /^Refund of /.test(m.subject))).toHaveLength(1);
+  });
+});
+
+/** A second plan that fits every piece, at another price; invented. */
+const monthlyPlan = (admin: Awaited<ReturnType<typeof memberContext>>) =>
+  createTemplate(
+    admin,
+    planTemplateInput({
+      name: "Monthly keeping (invented)",
+      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
+      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
+      priceMinor: 1_500,
+      interval: "month",
+    }),
+  );
+
+async function ownerWithPiece(prefix: string) {
+  const studio = createStudio({ email: `${unique(prefix)}@test.example`, taxRateBp: 0 });
+  const admin = await memberContext(studio, "admin");
+  const owner = await createUser();
+  const { piece } = createPiece(studio, { ownerId: owner.id, deliveredOn: addDays(localDate(new Date(), "UTC"), -60) });
+  return { studio, admin, owner, piece };
+}
+
+const invoicesOf = (subscriptionId: string) => getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, subscriptionId)).all();
+
+describe("one piece, one plan", () => {
+  it("two plan checkouts opened in two tabs: opening the second closes the first, so only one can be paid and one plan covers the piece", async () => {
+    const { admin, owner, piece } = await ownerWithPiece("two-plans");
+    const yearly = yearlyPlan(admin, { refundRule: "none", transfers: false });
+    const monthly = monthlyPlan(admin);
+    const first = await startPlanCheckout(owner, piece.id, yearly.id);
+    const second = await startPlanCheckout(owner, piece.id, monthly.id);
+    // The first tab's page no longer takes the card.
+    expect((await payOnPage(first.checkoutUrl)).status).not.toBe(303);
+    expect((await payOnPage(second.checkoutUrl)).status).toBe(303);
+    await until(() => subRow(second.subscriptionId).state === "running", 15_000);
+    await settled();
+
+    const covering = getDb().select().from(planSubscriptions).where(eq(planSubscriptions.pieceId, piece.id)).all().filter((s) => ["running", "grace", "ending"].includes(s.state));
+    expect(covering.map((s) => s.id)).toEqual([second.subscriptionId]);
+    expect(invoicesOf(first.subscriptionId)).toEqual([]);
+    expect(stripe.fake.subscriptions().filter((s) => s.metadata.planSubscriptionId === first.subscriptionId)).toEqual([]);
+  });
+
+  it("a plan paid a moment ago whose webhook hasn't been written yet: starting another plan for the piece is refused, and one plan covers it", async () => {
+    const { admin, owner, piece } = await ownerWithPiece("paid-then-other");
+    const yearly = yearlyPlan(admin, { refundRule: "none", transfers: false });
+    const monthly = monthlyPlan(admin);
+    const first = await startPlanCheckout(owner, piece.id, yearly.id);
+    expect((await payOnPage(first.checkoutUrl)).status).toBe(303);
+    // Straight after paying, before (or while) the webhook is handled.
+    const again = await startPlanCheckout(owner, piece.id, monthly.id).catch((e: unknown) => e);
+    expect(again).toMatchObject({ status: 409, message: "This piece is already under a care plan." });
+    await until(() => subRow(first.subscriptionId).state === "running", 15_000);
+    await settled();
+    const rows = getDb().select().from(planSubscriptions).where(eq(planSubscriptions.pieceId, piece.id)).all();
+    expect(rows.map((r) => [r.id, r.state])).toEqual([[first.subscriptionId, "running"]]);
+    expect(stripe.fake.subscriptions().filter((s) => s.customer === subRow(first.subscriptionId).stripeCustomerId && s.status !== "canceled")).toHaveLength(1);
+  });
+
+  it("the same plan's checkout opened twice at once gives one payment page; a second subscription paid anyway is not taken as the plan's", async () => {
+    const { admin, owner, piece } = await ownerWithPiece("twice-at-once");
+    const yearly = yearlyPlan(admin, { refundRule: "none", transfers: false });
+    // The second click lands while the first is still talking to Stripe.
+    const [a, b] = await Promise.all([startPlanCheckout(owner, piece.id, yearly.id), new Promise((r) => setTimeout(r, 3)).then(() => startPlanCheckout(owner, piece.id, yearly.id))]);
+    expect(a.subscriptionId).toBe(b.subscriptionId);
+    expect(b.checkoutUrl).toBe(a.checkoutUrl);
+    // Whatever the pages were, both are paid.
+    for (const url of new Set([a.checkoutUrl, b.checkoutUrl])) expect((await payOnPage(url)).status).toBe(303);
+    await until(() => subRow(a.subscriptionId).state === "running", 15_000);
+    await settled();
+    const row = subRow(a.subscriptionId);
+    const live = stripe.fake.subscriptions().filter((s) => s.metadata.planSubscriptionId === a.subscriptionId && s.status !== "canceled");
+    expect(live.map((s) => s.id)).toEqual([row.stripeSubscriptionId]);
+  });
+});
