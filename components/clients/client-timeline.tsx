@@ -8,6 +8,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import type { Timeline } from "@/lib/clients/timeline";
 import { formatInstant } from "@/lib/format";
+import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 
 const PAGE = 50;
 
@@ -26,7 +27,7 @@ export function ClientTimeline({ clientId }: { clientId: string }) {
         Timeline
       </h2>
       {query.isPending ? <p className="text-muted">Loading the timeline…</p> : null}
-      {query.isError ? <Notice tone="error" title="The timeline didn't load">{query.error.message}</Notice> : null}
+      {query.isError ? <Notice tone="error" title="The timeline didn't load">{loadRefusalWords(query.error)}</Notice> : null}
       {data && data.entries.length === 0 ? <p className="text-muted">Nothing has happened with this client yet. Deliveries, care, claims, repairs and visits will appear here.</p> : null}
       {data && data.entries.length > 0 ? (
         <ol className="divide-y divide-line overflow-hidden rounded-xl border border-line bg-card" aria-label="Timeline, newest first">

@@ -4,7 +4,7 @@ import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useEffect, useMemo } from "react";
 import { apiJson, isApiError } from "@/components/api-client";
-import { refusalWords } from "@/components/forms/use-refreshing-mutation";
+import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
@@ -115,7 +115,7 @@ export function ClientsTable({ timeZone }: { timeZone: string }) {
       {query.isError ? (
         <Notice tone="error" title={isApiError(query.error) && query.error.status === 400 ? "Check the search" : "The clients could not be loaded"}>
           {/* What is wrong with the search ("Search for at most 200 characters."), not only that something is. */}
-          <p>{refusalWords(query.error, true)}</p>
+          <p>{loadRefusalWords(query.error)}</p>
           <Button variant="secondary" className="mt-2" onClick={() => query.refetch()}>
             Try again
           </Button>

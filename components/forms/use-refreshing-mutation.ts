@@ -17,6 +17,17 @@ export function refusalWords(e: unknown, withFieldErrors = false): string {
   return withFieldErrors ? [e.message, ...Object.values(e.fieldErrors).flat()].join(" ") : e.message;
 }
 
+/**
+ * The sentence shown when a list or a panel could not be loaded: what is wrong with what was asked (its
+ * field messages, e.g. "Search for at most 200 characters."), else the API's message, else a plain line
+ * when no answer came ("Failed to fetch" is never shown to a person).
+ */
+export function loadRefusalWords(e: unknown): string {
+  if (!isApiError(e)) return OFFLINE;
+  const fields = Object.values(e.fieldErrors).flat();
+  return fields.length ? fields.join(" ") : e.message;
+}
+
 type Refresh = "success" | "always" | "never";
 
 export type RefreshingMutationOptions<V, T> = {

@@ -8,6 +8,7 @@ import { StatusBadge } from "@/components/ui/status";
 import { Notice } from "@/components/ui/notice";
 import { JOB_STATE_LABELS, JOB_STATE_TONES, jobAmountText, jobStateLabel } from "@/lib/repairs/states";
 import { JOB_STATES, type JOB_ORIGINS } from "@/lib/care/vocabulary";
+import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 
 type JobRow = { id: string; title: string; state: (typeof JOB_STATES)[number]; origin: (typeof JOB_ORIGINS)[number]; totalMinor: number; coveredPct: number; currency: string; updatedAt: string; pieceTitle: string; ownerName: string | null; paidMinor?: number; refundedMinor?: number };
 
@@ -39,7 +40,7 @@ export function JobsTable({ country }: { country: string }) {
       {query.isPending ? (
         <p role="status" className="text-muted">Loading jobs…</p>
       ) : query.isError ? (
-        <Notice tone="error" title="Couldn't load the jobs">{query.error.message}</Notice>
+        <Notice tone="error" title="Couldn't load the jobs">{loadRefusalWords(query.error)}</Notice>
       ) : query.data.length === 0 ? (
         <p className="rounded-xl border border-line bg-card p-5 text-muted">No repair jobs {state ? "in this state" : "yet"}.</p>
       ) : (

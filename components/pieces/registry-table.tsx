@@ -3,7 +3,7 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useEffect, useState } from "react";
-import { ApiError, apiJson, isApiError } from "@/components/api-client";
+import { apiJson, isApiError } from "@/components/api-client";
 import { useUrlFilters } from "@/components/tables/use-url-filters";
 import { Button, ButtonLink } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
@@ -16,6 +16,7 @@ import { CardPrintBar } from "./card-print-bar";
 import { CareStatus, RegistrationStatus } from "./status";
 import { formatCount, formatDate } from "@/lib/format";
 import { PAGE_SIZES, SORTS } from "@/lib/validation/piece-list-keys";
+import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 
 const FILTER_KEYS = ["q", "kind", "species", "finishClass", "registered", "dueBefore", "warranty", "archived", "sort", "dir", "page", "pageSize"] as const;
 /** The values each listed key can take (lib/validation/pieces.ts pieceListQuerySchema); others in a link read as unset. */
@@ -52,16 +53,7 @@ export function RegistryTable() {
 
   const query = useQuery({
     queryKey: ["pieces", qs],
-    queryFn: async ({ signal }): Promise<RegistryPage> => {
-      try {
-        return await apiJson<RegistryPage>(`/api/pieces${qs ? `?${qs}` : ""}`, { signal });
-      } catch (e) {
-        // Say what is wrong (e.g. "Search for at most 200 characters."), not only that something is.
-        const fields = isApiError(e) ? Object.values(e.fieldErrors).flat() : [];
-        if (isApiError(e) && fields.length) throw new ApiError(e.status, fields.join(" "), e.code, e.fieldErrors, e.body);
-        throw e;
-      }
-    },
+    queryFn: ({ signal }) => apiJson<RegistryPage>(`/api/pieces${qs ? `?${qs}` : ""}`, { signal }),
     placeholderData: keepPreviousData,
   });
 
@@ -189,7 +181,7 @@ export function RegistryTable() {
 
       {query.isError ? (
         <Notice tone="error" title={isApiError(query.error) && query.error.status === 400 ? "Check the search" : "The registry could not be loaded"}>
-          <p>{query.error.message}</p>
+          <p>{loadRefusalWords(query.error)}</p>
           <Button variant="secondary" className="mt-2" onClick={() => query.refetch()}>
             Try again
           </Button>

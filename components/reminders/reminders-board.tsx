@@ -12,6 +12,7 @@ import { SpriteIcon } from "@/components/ui/sprite-icon";
 import type { SpriteIconName } from "@/components/ui/sprite-names";
 import type { LedgerListRow, UpcomingRow } from "@/lib/reminders/staff";
 import { formatDate, formatInstant } from "@/lib/format";
+import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 
 type View = "upcoming" | "ledger";
 type Filters = { status: string; kind: string; step: string; q: string };
@@ -146,7 +147,7 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
         </label>
       </form>
 
-      {query.isError ? <Notice tone="error" title="Couldn't load reminders">{query.error.message}</Notice> : null}
+      {query.isError ? <Notice tone="error" title="Couldn't load reminders">{loadRefusalWords(query.error)}</Notice> : null}
       {query.isPending ? <Card aria-busy="true">Loading…</Card> : null}
       {query.data && query.data.rows.length === 0 ? <Card>{view === "upcoming" ? "Nothing goes out in the next 30 days." : "No reminders match."}</Card> : null}
       {query.data && query.data.rows.length > 0 ? (

@@ -12,6 +12,7 @@ import { apiJson, isApiError } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import type { SlotView } from "@/lib/visits/slots";
 import { formatDate, formatZone } from "@/lib/format";
+import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 
 type Props = {
   jobId: string;
@@ -141,7 +142,7 @@ export function SlotPicker(p: Props) {
       {slots.isPending ? (
         <p role="status" className="text-muted">Looking for free times…</p>
       ) : slots.isError ? (
-        <Notice tone="error" title="Couldn't load the free times">{isApiError(slots.error) ? slots.error.message : "Try again in a moment."}</Notice>
+        <Notice tone="error" title="Couldn't load the free times">{loadRefusalWords(slots.error)}</Notice>
       ) : byDay.length === 0 ? (
         <Notice tone="info" title="No free times in these two weeks">Try later dates{p.audience === "owner" ? `; visits are booked at least ${p.leadTimeHours} hours ahead` : ""}.</Notice>
       ) : (

@@ -16,6 +16,7 @@ import type { VisitEditFormValues } from "@/lib/validation/visits";
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { apiJson, isApiError } from "@/components/api-client";
 import { formatDate, formatZone } from "@/lib/format";
+import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 
 type CalVisit = { id: string; jobId: string; technicianId: string; technicianName: string; start: string; end: string; state: "booked" | "done" | "cancelled"; jobTitle: string; pieceTitle: string; ownerName: string | null; location: string; version: number; claimId?: string | null };
 type Tech = { id: string; name: string };
@@ -109,7 +110,7 @@ export function WeekCalendar({ timeZone, technicians, initialMonday, today }: { 
           </li>
         ))}
       </ul>
-      {visits.isError ? <Notice tone="error" title="Couldn't load the visits">{isApiError(visits.error) ? visits.error.message : ""}</Notice> : null}
+      {visits.isError ? <Notice tone="error" title="Couldn't load the visits">{loadRefusalWords(visits.error)}</Notice> : null}
       <div className="overflow-x-auto rounded-xl border border-line bg-card">
         <div className="grid min-w-[760px]" style={{ gridTemplateColumns: `3.5rem repeat(7, minmax(0, 1fr))` }} role="group" aria-label="Week of visits" aria-busy={visits.isPending}>
           <div />

@@ -3,7 +3,7 @@
 // actionData), so the hook shows both kinds of call the same way.
 import { describe, expect, it } from "vitest";
 import { ApiError, actionData, isApiError } from "@/components/api-client";
-import { afterSuccess, refusalWords } from "@/components/forms/use-refreshing-mutation";
+import { afterSuccess, loadRefusalWords, refusalWords } from "@/components/forms/use-refreshing-mutation";
 
 describe("refusalWords", () => {
   it("shows the API's own message, with its field messages only when asked", () => {
@@ -15,6 +15,18 @@ describe("refusalWords", () => {
   it("gives one plain line for anything that is not an answer from the API", () => {
     expect(refusalWords(new TypeError("Failed to fetch"))).toBe("That didn't go through. Check your connection and try again.");
     expect(refusalWords(undefined)).toBe("That didn't go through. Check your connection and try again.");
+  });
+});
+
+describe("loadRefusalWords", () => {
+  it("says what is wrong with what a list asked for, not only that something is", () => {
+    const e = new ApiError(400, "Some fields need a second look.", "invalid", { q: ["Search for at most 200 characters."] });
+    expect(loadRefusalWords(e)).toBe("Search for at most 200 characters.");
+    expect(loadRefusalWords(new ApiError(404, "That client isn't in this studio.", "not_found"))).toBe("That client isn't in this studio.");
+  });
+
+  it("never shows the browser's own words when no answer came", () => {
+    expect(loadRefusalWords(new TypeError("Failed to fetch"))).toBe("That didn't go through. Check your connection and try again.");
   });
 });
 
