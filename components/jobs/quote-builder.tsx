@@ -44,6 +44,8 @@ type QuoteBuilderProps = {
   coveredField: string;
   /** Work the proposal priced nothing for, its surface having no size on the piece's record, in words (lib/repairs/pricing unsizedWords). */
   unsized: string[];
+  /** Work priced on the top although its finish ends another surface too (lib/repairs/pricing topOnlyWords). */
+  topOnly: string[];
   /** The surfaces the record has no size for, whose area staff may type on this quote. */
   sizeFields: Surface[];
   units: "metric" | "imperial";
@@ -69,6 +71,7 @@ export function QuoteBuilder({
   editable,
   coveredField,
   unsized,
+  topOnly,
   sizeFields,
   units,
 }: QuoteBuilderProps) {
@@ -147,6 +150,16 @@ export function QuoteBuilder({
               ))}
             </ul>
             <p className="mt-1">Type its area under “What the lines are proposed from” and press “Propose lines”, or add typed lines with the hours and amounts.</p>
+          </Notice>
+        ) : null}
+
+        {topOnly.length ? (
+          <Notice title="Priced for the top only">
+            <ul className="list-disc space-y-1 pl-5">
+              {topOnly.map((words) => (
+                <li key={words}>{words}</li>
+              ))}
+            </ul>
           </Notice>
         ) : null}
 
@@ -287,7 +300,7 @@ function ClosedQuote({
   currency,
   country,
   coveredField,
-}: Omit<QuoteBuilderProps, "jobId" | "exponent" | "editable" | "unsized" | "sizeFields" | "units">) {
+}: Omit<QuoteBuilderProps, "jobId" | "exponent" | "editable" | "unsized" | "topOnly" | "sizeFields" | "units">) {
   const from = [
     ...repairs.filter((r) => initial.repairs.includes(r.key)).map((r) => r.label),
     ...initial.tasks.filter((t): t is keyof typeof CARE_TASK_LABELS => t in CARE_TASK_LABELS).map((t) => CARE_TASK_LABELS[t]),

@@ -37,15 +37,20 @@ export function recordedAreaM2(row: PieceShapeRow, surface: Surface): number | n
   return shape ? topArea(shape).m2 : null;
 }
 
-/**
- * The surface a proposed layer of `finishClass` goes on: the one surface whose outermost layer (the
- * highest position of its stack) is of that class, the layer it refreshes. Null where no surface's
- * outermost layer is, or more than one's (an oiled top and base): the technician chooses.
- */
-export function refreshedSurface(layers: readonly Pick<FinishLayer, "surface" | "position" | "finishClass">[], finishClass: FinishClass): Surface | null {
+/** The surfaces whose outermost layer (the highest position of its stack) is of `finishClass`. */
+export function surfacesEndingIn(layers: readonly Pick<FinishLayer, "surface" | "position" | "finishClass">[], finishClass: FinishClass): Surface[] {
   const outermost = new Map<Surface, Pick<FinishLayer, "position" | "finishClass">>();
   for (const l of layers) if ((outermost.get(l.surface)?.position ?? -1) < l.position) outermost.set(l.surface, l);
-  const surfaces = [...outermost].filter(([, l]) => l.finishClass === finishClass).map(([surface]) => surface);
+  return [...outermost].filter(([, l]) => l.finishClass === finishClass).map(([surface]) => surface);
+}
+
+/**
+ * The surface a proposed layer of `finishClass` goes on: the one surface whose outermost layer is of
+ * that class, the layer it refreshes. Null where no surface's outermost layer is, or more than one's
+ * (an oiled top and base): the technician chooses.
+ */
+export function refreshedSurface(layers: readonly Pick<FinishLayer, "surface" | "position" | "finishClass">[], finishClass: FinishClass): Surface | null {
+  const surfaces = surfacesEndingIn(layers, finishClass);
   return surfaces.length === 1 ? surfaces[0]! : null;
 }
 

@@ -186,10 +186,10 @@ export function getStudioJob(ctx: StudioContext, jobId: string) {
   const products = studioProducts(ctx.studio.id);
   const piece = pricedPiece(getDb(), view.piece);
   const input = { title: view.job.title, tasks: [], repairs: [], productIds: [], coats: 1, travel: false, coveredPct: view.job.coveredPct, notes: "", ...view.job.quoteInput };
-  const { unsized } = proposeLines(view.studio, piece, input, products);
+  const { unsized, topOnly } = proposeLines(view.studio, piece, input, products);
   // The quote may carry a size for each surface the record has none for (always the base and the edges).
   const sizeFields = SURFACES.filter((s) => recordedAreaM2(piece, s) === null);
-  return { ...view, piece, products, unsized, sizeFields };
+  return { ...view, piece, products, unsized, topOnly, sizeFields };
 }
 
 /**

@@ -7,7 +7,7 @@ import type { DbOrTx } from "@/lib/pieces/search-index";
 import { DEFAULT_LABOUR, quote, quoteProductFromCatalog } from "@/lib/care/quote";
 import { CARE_TASK_LABELS, SURFACE_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import { formatVolume } from "@/lib/format";
-import { recordedAreaM2, refreshedSurface, toCatalog } from "@/lib/pieces/care-inputs";
+import { recordedAreaM2, refreshedSurface, surfacesEndingIn, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { priceLines, type JobLine, type LineDraft, type PlanDiscount, type PricedLines, type PricingRules, type StudioTax } from "./lines";
 import { entryNeedsArea, entrySurface, priceListOf, proposedQuantity } from "./price-list";
@@ -44,6 +44,20 @@ export function unsizedWords(u: UnsizedWork): string {
   return `${u.label}: the work is on the ${surface}, and the piece's record has no size for the ${surface}, so no lines were proposed for it.`;
 }
 
+/** Work the proposal priced on the top although its finish also ends another surface (an oiled top and base). */
+export interface TopOnlyWork {
+  label: string;
+  /** Every surface whose outermost layer is the task's finish, the top first. */
+  surfaces: Surface[];
+}
+
+/** One such piece of work in staff's words, for the quote builder's notice. */
+export function topOnlyWords(w: TopOnlyWork): string {
+  const others = w.surfaces.filter((s) => s !== "top").map((s) => `the ${SURFACE_LABELS[s].toLowerCase()}`);
+  const ending = others.length === 1 ? `the top and ${others[0]} both end` : `the top, ${others.join(" and ")} all end`;
+  return `${w.label}: ${ending} in this finish; the lines price the top only. If the work covers ${others.length === 1 ? others[0] : "them"} too, add its hours and product as lines.`;
+}
+
 const CLASS_BY_TASK = Object.fromEntries(Object.entries(TASK_KIND_BY_FINISH_CLASS).map(([cls, task]) => [task, cls])) as Partial<Record<CareTaskKind, FinishClass>>;
 
 /**
@@ -74,10 +88,11 @@ export function quoteAreaM2(piece: Piece, input: Pick<JobQuoteInput, "areasM2">,
  * known size gets no line (a made-up size would be a made-up price) and is listed in `unsized`, for staff
  * to type the size or the lines.
  */
-export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuoteInput, products: Product[]): { lines: LineDraft[]; unsized: UnsizedWork[] } {
+export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuoteInput, products: Product[]): { lines: LineDraft[]; unsized: UnsizedWork[]; topOnly: TopOnlyWork[] } {
   const labour: LineDraft[] = [];
   const materials: LineDraft[] = [];
   const unsized: UnsizedWork[] = [];
+  const topOnly: TopOnlyWork[] = [];
   const chosen = toCatalog(products.filter((p) => input.productIds.includes(p.id)));
   for (const task of input.tasks) {
     const surface = taskSurface(piece.layers, task);
@@ -86,6 +101,9 @@ export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuote
       unsized.push({ label: CARE_TASK_LABELS[task], surface });
       continue;
     }
+    const cls = CLASS_BY_TASK[task];
+    const ending = cls ? surfacesEndingIn(piece.layers, cls) : [];
+    if (areaM2 > 0 && ending.length > 1 && ending.includes("top")) topOnly.push({ label: CARE_TASK_LABELS[task], surfaces: ["top", ...ending.filter((s) => s !== "top")] });
     const q = quote({
       tasks: [task],
       areaM2,
@@ -132,7 +150,7 @@ export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuote
     });
   }
   if (input.travel && studio.travelFeeMinor > 0) out.push({ kind: "travel", source: "price_list", ref: "travel", description: "Travel", quantity: 1, unit: "trip", unitPriceMinor: studio.travelFeeMinor });
-  return { lines: out, unsized };
+  return { lines: out, unsized, topOnly };
 }
 
 export interface PricedJob extends PricedLines {

@@ -13,7 +13,7 @@ import { getDb } from "@/db/client";
 import { claims, finishLayers, pieces, studios } from "@/db/schema";
 import { createJob, getStudioJob } from "@/lib/repairs/jobs";
 import { updateJobQuote } from "@/lib/repairs/payment";
-import { pricedPiece } from "@/lib/repairs/pricing";
+import { pricedPiece, topOnlyWords } from "@/lib/repairs/pricing";
 import { updateRepairSettings } from "@/lib/repairs/settings";
 import { jobQuoteSchema } from "@/lib/validation/jobs";
 import { jobDurationMin, UNSIZED_BOOKING_AREA_M2 } from "@/lib/visits/availability";
@@ -114,6 +114,32 @@ describe("each quote line is priced from the surface its work is on", () => {
     const typed = await updateJobQuote(staff, job.id, quote({ repairs: ["flatten_refinish"], areasM2: { top: 1.25 } }));
     // 1.25 m² × $30.00/m² = $37.50.
     expect(typed.lines[0]).toMatchObject({ quantity: 1.25, amountMinor: 3750 });
+  });
+
+  it("a re-oil where the top and the base both end in oil prices the top, and staff are told the base is not in it", async () => {
+    const { staff, job, oil, piece } = await pieceWithOiledBase();
+    // The top's ceramic topcoat taken off the record: the top's outermost layer is now its oil, as the base's is.
+    getDb().delete(finishLayers).where(eq(finishLayers.pieceId, piece.id)).run();
+    getDb()
+      .insert(finishLayers)
+      .values([
+        { studioId: piece.studioId, pieceId: piece.id, surface: "top", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn },
+        { studioId: piece.studioId, pieceId: piece.id, surface: "base", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn },
+      ])
+      .run();
+    const updated = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil", "annual_check"], productIds: [oil.id] }));
+    // The top's 1.8 m²: 0.5 h + 0.5 h/m² × 1.8 m² = 1.4 → 1.5 h (lib/care/quote DEFAULT_LABOUR, common practice, no published source).
+    expect(updated.lines.find((l) => l.ref === "task:reoil")).toMatchObject({ quantity: 1.5, amountMinor: 12750 });
+    const view = getStudioJob(staff, job.id);
+    expect(view.unsized).toEqual([]);
+    // Before: nothing said the base's oil was left out of the price. The annual check needs no size, so no note.
+    expect(view.topOnly).toEqual([{ label: "Re-oil", surfaces: ["top", "base"] }]);
+    expect(topOnlyWords(view.topOnly[0]!)).toBe("Re-oil: the top and the base both end in this finish; the lines price the top only. If the work covers the base too, add its hours and product as lines.");
+    expect(topOnlyWords({ label: "Re-oil", surfaces: ["top", "base", "edges"] })).toBe("Re-oil: the top, the base and the edges all end in this finish; the lines price the top only. If the work covers them too, add its hours and product as lines.");
+    // A piece whose base ends in another finish gets no note (the first case's piece: topcoat over the top's oil).
+    const other = await pieceWithOiledBase();
+    await updateJobQuote(other.staff, other.job.id, quote({ tasks: ["topcoat_refresh"] }));
+    expect(getStudioJob(other.staff, other.job.id).topOnly).toEqual([]);
   });
 
   it("refuses a typed size that is no area, naming the field", () => {

@@ -17,7 +17,7 @@ import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { priceListOf } from "@/lib/repairs/price-list";
-import { unsizedWords } from "@/lib/repairs/pricing";
+import { topOnlyWords, unsizedWords } from "@/lib/repairs/pricing";
 import { refundableOf, refundRows, refundsOfJob } from "@/lib/repairs/refund-rows";
 import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, jobTotalLabel, paymentCounts, QUOTE_EDITABLE, receiptPayment } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
@@ -32,7 +32,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const ctx = await forPage(requireStaff);
   const view = await forPage(async () => getStudioJob(ctx, id));
   const { visit } = visitOfJob(ctx, id);
-  const { job, piece, owner, payments, products, studio, unsized, sizeFields } = view;
+  const { job, piece, owner, payments, products, studio, unsized, topOnly, sizeFields } = view;
   const q = job.quoteInput;
   const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes, areasM2: q.areasM2 ?? {} };
   const figures = jobFigures(job, studio);
@@ -67,6 +67,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             editable={editable}
             coveredField={coverWords(job).field}
             unsized={unsized.map(unsizedWords)}
+            topOnly={topOnly.map(topOnlyWords)}
             sizeFields={sizeFields}
             units={studio.unitSystem}
             currency={job.currency}
