@@ -24,6 +24,9 @@ export default defineConfig({
     baseURL: E2E_APP_URL,
     trace: "retain-on-failure",
     screenshot: "only-on-failure",
+    // Toasts appear and fade without animation (sonner honours prefers-reduced-motion): an accessibility
+    // check that ran while one was half faded measured its text's contrast at half opacity and failed.
+    contextOptions: { reducedMotion: "reduce" },
     launchOptions: {
       executablePath: "/usr/bin/chromium",
       args: ["--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run", "--disable-quic"],
