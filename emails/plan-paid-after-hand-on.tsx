@@ -2,8 +2,11 @@ import { EmailLayout, Note, Paragraph } from "./components/layout";
 import { AskStudioForHelp, PLAN_MAIL_PREVIEW_NAMES, type PlanMailNames } from "./components/plan-mail";
 
 export type PlanPaidAfterHandOnEmailProps = PlanMailNames & {
-  /** "held": the payment has just come in and is held; "paid_back": the studio has paid it all back. */
-  stage: "held" | "paid_back";
+  /**
+   * "held": the payment has just come in and is held; "paid_back": the studio has paid it all back;
+   * "renewal_paid_back": a renewal charged for a period after the plan's end was paid back at once.
+   */
+  stage: "held" | "paid_back" | "renewal_paid_back";
   /** What was paid, already written out ("$120.00"). */
   amount: string;
   /** When it was paid, already written out with its zone ("3 December 2026, 14:05 PST"). */
@@ -16,7 +19,8 @@ export function planPaidAfterHandOnSubject({ stage, planName }: Pick<PlanPaidAft
 
 /**
  * To the person who paid for a care plan after handing its piece on (lib/plans/held.ts): the plan can't
- * start for a piece they no longer hold, so the payment is held, then paid back by the studio.
+ * start for a piece they no longer hold, so the payment is held, then paid back by the studio. Also to
+ * one charged for a renewal after the plan's end, which is paid back at once (lib/plans/stripe-sync.ts).
  */
 export function PlanPaidAfterHandOnEmail({ ownerName, studioName, planName, pieceTitle, stage, amount, paidOn }: PlanPaidAfterHandOnEmailProps) {
   return (
@@ -34,6 +38,14 @@ export function PlanPaidAfterHandOnEmail({ ownerName, studioName, planName, piec
           <Paragraph>
             {studioName} holds the payment and will pay it back to the card you paid with. You&apos;ll get another e-mail when they do. Nothing more will be charged for this plan.
           </Paragraph>
+        </>
+      ) : stage === "renewal_paid_back" ? (
+        <>
+          <Paragraph>
+            Your card was charged <strong>{amount}</strong> on {paidOn} to renew the {planName} care plan on your {pieceTitle}. The plan had already been set to end before
+            that renewal, so nothing was owed for it, and {studioName} has paid it all back. Nothing more will be charged for this plan.
+          </Paragraph>
+          <Paragraph>Banks usually take 5 to 10 days to show the money back on your statement.</Paragraph>
         </>
       ) : (
         <>

@@ -23,7 +23,7 @@ import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { callStripe } from "@/lib/payments/stripe";
 import { mailPaidAfterHandOn, planMailContext } from "./plan-mail";
 import { PLAN_FINAL } from "./states";
-import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
+import { invoicePaymentIntent, syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { buyerHoldsPiece, moveSubscription, pieceUrl, studioSubscription } from "./subscriptions";
 
 export const HELD_RESOLUTIONS = ["accept", "refund_difference", "refund_and_end"] as const;
@@ -118,6 +118,7 @@ export function heldSettledForStaff(sub: PlanSubscription, timeZone: string): st
   const on = `${formatInstant(last.heldResolvedAt, timeZone)} (${formatZone(timeZone)})`;
   const charged = money(last.amountMinor, last.currency);
   if (last.heldResolution === "accepted") return `Settled on ${on}: the ${charged} charged was kept as the period's payment.`;
+  if (last.heldResolution === "refunded_after_end") return `Paid back on ${on}: ${charged} charged for a renewal after the plan's end went back to the card it came from. Nobody needed to decide.`;
   if (last.heldResolution === "difference_refunded") return `Settled on ${on}: ${money(last.heldRefundedMinor)} paid back to the owner's card; ${money(last.amountMinor - last.heldRefundedMinor)} of the ${charged} charged was kept as the period's payment.`;
   return `Settled on ${on}: all ${charged} paid back to the owner's card, and the plan ended.`;
 }
@@ -128,15 +129,6 @@ export function heldForOwner(sub: PlanSubscription, timeZone: string): string | 
   if (!held || PLAN_FINAL.includes(sub.state)) return null;
   const { money, on } = wordsParts(sub, held, timeZone);
   return `Your renewal on ${on} was charged ${money(held.amountMinor, held.currency)}, not the plan's ${money(sub.amountMinor)}. The studio is checking it and will either keep it as this period's payment or pay back what isn't owed. Your plan keeps covering your piece meanwhile, and nothing more is charged.`;
-}
-
-/** The payment intent of one of the plan's Stripe invoices, read under the account the plan was bought under. */
-async function paymentIntentOf(sub: PlanSubscription, stripeInvoiceId: string): Promise<string> {
-  const invoice = await callStripe("read the held payment", (s) => s.invoices.retrieve(stripeInvoiceId, { expand: ["payments"] }), sub);
-  const pi = invoice.payments?.data?.[0]?.payment?.payment_intent;
-  const id = typeof pi === "string" ? pi : pi?.id;
-  if (!id) throw conflict("This payment can't be paid back by card. Settle it with the owner by other means.");
-  return id;
 }
 
 const reread = (id: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, id)).get()!;
@@ -178,7 +170,7 @@ export async function resolveHeldPayment(ctx: StudioActor, subscriptionId: strin
         await callStripe("end the plan", (s) => s.subscriptions.cancel(sub.stripeSubscriptionId!, {}, key("end")), sub);
       }
       if (refundMinor > 0) {
-        const paymentIntent = await paymentIntentOf(sub, held.stripeInvoiceId!);
+        const paymentIntent = await invoicePaymentIntent(sub, held.stripeInvoiceId!);
         await callStripe("pay back the held payment", (s) => s.refunds.create({ payment_intent: paymentIntent, amount: refundMinor, metadata: { planSubscriptionId: sub.id, planInvoiceId: held.id } }, key("refund")), sub);
       }
     } catch (e) {

@@ -1,18 +1,19 @@
 // Plan subscriptions as Stripe reports them. A webhook event only says "look again": the subscription
 // (and the invoice) are re-read from Stripe and written, one subscription at a time, so replayed and
 // out-of-order events end in the one state Stripe holds. Event ids are recorded as the payments code does.
-import { and, eq } from "drizzle-orm";
+import { and, eq, isNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { planInvoices, planSubscriptions, studios, stripeEvents, type PlanSubscription } from "@/db/schema";
 import { PlanGraceEmail, planGraceSubject } from "@/emails/plan-grace";
 import { recordAudit } from "@/lib/audit";
 import { formatInstant } from "@/lib/format/dates";
+import { conflict } from "@/lib/errors";
 import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
 import { callStripe, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { buyerHoldsPiece, moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
-import { mailPaidAfterHandOn, mailRenewalHeld, planMailContext } from "./plan-mail";
+import { mailPaidAfterHandOn, mailRenewalHeld, mailRenewalPaidBack, planMailContext } from "./plan-mail";
 import { planPrice } from "./price";
 import { templateOf } from "./templates";
 
@@ -66,25 +67,92 @@ function findRow(s: Stripe.Subscription): PlanSubscription | undefined {
 }
 
 /**
+ * Whether an invoice bills a period nobody owes: one that starts at or after the end the plan was given
+ * (cancelled, or its piece changed hands, lib/plans/transfer.ts), or any new one after the plan passed on
+ * with its piece (no buyer: it isn't renewed on the former owner's card). Stripe charges one only when it
+ * renewed before it was told of the end (the hand-over's Stripe step failed and waits for its retry).
+ */
+function billsAfterEnd(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
+  if (sub.ownerId === null) return true;
+  const end = sub.endsAt ?? sub.endedAt;
+  const start = ms(inv.lines?.data?.[0]?.period?.start ?? inv.period_start);
+  return Boolean(end && start && start >= end);
+}
+
+/**
  * Whether a paid invoice is the plan's: the amount, currency and template version it was bought at,
- * and, for the first payment, paid while its buyer holds the piece (a checkout opened before they
- * handed it on and paid after is held for staff like a wrong amount, lib/plans/held.ts; a running
- * plan's hand-over is lib/plans/transfer.ts's).
+ * for a period that is owed (billsAfterEnd), and, for the first payment, paid while its buyer holds the
+ * piece (a checkout opened before they handed it on and paid after is held for staff like a wrong
+ * amount, lib/plans/held.ts; a running plan's hand-over is lib/plans/transfer.ts's).
  */
 function matchesPlan(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
   const meta = inv.parent?.subscription_details?.metadata ?? {};
-  return inv.amount_paid === sub.amountMinor && meta.templateId === sub.templateId && inv.currency.toUpperCase() === sub.currency.toUpperCase() && (sub.state !== "awaiting_payment" || buyerHoldsPiece(sub));
+  return (
+    inv.amount_paid === sub.amountMinor &&
+    meta.templateId === sub.templateId &&
+    inv.currency.toUpperCase() === sub.currency.toUpperCase() &&
+    (sub.state !== "awaiting_payment" || buyerHoldsPiece(sub)) &&
+    !billsAfterEnd(sub, inv)
+  );
 }
 
-/** Whether staff took a held invoice as the period's payment (lib/plans/held.ts): it counts from then on. */
+/**
+ * Whether an invoice already counts: written as the plan's payment before (a payment that counted keeps
+ * counting when it is read again after the plan ended or moved on), or taken by staff as the period's
+ * payment though it was held (lib/plans/held.ts).
+ */
 function takenByStaff(invoiceId: string | undefined): boolean {
   if (!invoiceId) return false;
-  const row = getDb().select({ resolution: planInvoices.heldResolution }).from(planInvoices).where(eq(planInvoices.stripeInvoiceId, invoiceId)).get();
-  return row?.resolution === "accepted" || row?.resolution === "difference_refunded";
+  const row = getDb().select({ counts: planInvoices.counts, resolution: planInvoices.heldResolution }).from(planInvoices).where(eq(planInvoices.stripeInvoiceId, invoiceId)).get();
+  return row?.counts === true || row?.resolution === "accepted" || row?.resolution === "difference_refunded";
 }
 
 /** A paid invoice that isn't the plan's price: not accepted as a payment of the plan; held for staff (unless staff took it). */
 const isHeld = (sub: PlanSubscription, inv: Stripe.Invoice | null) => inv?.status === "paid" && !matchesPlan(sub, inv) && !takenByStaff(inv.id);
+
+/** The payment intent of one of the plan's Stripe invoices, read under the account the plan was bought under. */
+export async function invoicePaymentIntent(sub: PlanSubscription, stripeInvoiceId: string): Promise<string> {
+  const invoice = await callStripe("read the held payment", (s) => s.invoices.retrieve(stripeInvoiceId, { expand: ["payments"] }), sub);
+  const pi = invoice.payments?.data?.[0]?.payment?.payment_intent;
+  const id = typeof pi === "string" ? pi : pi?.id;
+  if (!id) throw conflict("This payment can't be paid back by card. Settle it with the owner by other means.");
+  return id;
+}
+
+/** The user a plan's Stripe customer was made for (lib/plans/subscriptions.ts startPlanCheckout); null when it can't be read. */
+async function payerOf(sub: PlanSubscription): Promise<string | null> {
+  const customer = await callStripe("read who paid", (s) => s.customers.retrieve(sub.stripeCustomerId!), sub).catch(() => null);
+  return customer && !customer.deleted ? (customer.metadata?.userId ?? null) : null;
+}
+
+/**
+ * A paid invoice for a period nobody owes (billsAfterEnd) is not held for staff: there is nothing to
+ * decide. It is paid back in full at once: claimed on its row first (one claim per invoice, so a replayed
+ * event pays back once), Stripe asked with the invoice row's idempotency key, audited, and the person
+ * who paid told. If Stripe fails, the claim is undone and the error stands, so Stripe sends the event again.
+ */
+async function payBackUnowed(sub: PlanSubscription, inv: Stripe.Invoice): Promise<void> {
+  if (inv.status !== "paid" || !billsAfterEnd(sub, inv)) return;
+  const db = getDb();
+  const claimed = db
+    .update(planInvoices)
+    .set({ heldResolution: "refunded_after_end", heldRefundedMinor: inv.amount_paid, heldResolvedAt: new Date(), heldResolvedById: null })
+    .where(and(eq(planInvoices.stripeInvoiceId, inv.id!), eq(planInvoices.counts, false), isNull(planInvoices.heldResolution)))
+    .returning()
+    .get();
+  if (!claimed) return;
+  try {
+    const paymentIntent = await invoicePaymentIntent(sub, inv.id!);
+    await callStripe("pay back a renewal charged after the plan's end", (s) => s.refunds.create({ payment_intent: paymentIntent, metadata: { planSubscriptionId: sub.id, planInvoiceId: claimed.id } }, { idempotencyKey: `plan-after-end-${claimed.id}` }), sub);
+  } catch (e) {
+    db.update(planInvoices).set({ heldResolution: null, heldRefundedMinor: 0, heldResolvedAt: null }).where(eq(planInvoices.id, claimed.id)).run();
+    throw e;
+  }
+  db.transaction((tx) => recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_refunded_automatically", subjectType: "plan_subscription", subjectId: sub.id, data: { invoiceId: claimed.id, stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, currency: claimed.currency, periodStart: claimed.periodStart?.toISOString() ?? null } }));
+  // The person charged: the plan's owner, or (a plan that passed on with its piece has none) the Stripe customer's.
+  const payerId = sub.ownerId ?? (sub.stripeCustomerId ? await payerOf(sub) : null);
+  await mailRenewalPaidBack(sub, payerId, claimed);
+}
 
 /**
  * Writes one Stripe invoice of the plan: paid or failed, and whether it counts (the plan's amount and
@@ -117,7 +185,8 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice): { amountMino
       .values(values)
       .onConflictDoUpdate({ target: planInvoices.stripeInvoiceId, set: { status: values.status, amountMinor: values.amountMinor, taxMinor, counts, at: values.at } })
       .run();
-    if (paid && !counts && !(before?.status === "paid" && !before.counts)) {
+    // A payment for a period nobody owes is not held for staff: payBackUnowed pays it back.
+    if (paid && !counts && !billsAfterEnd(sub, inv) && !(before?.status === "paid" && !before.counts)) {
       const data = { stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, expectedMinor: sub.amountMinor, currency: values.currency, templateId: inv.parent?.subscription_details?.metadata?.templateId ?? null };
       recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_held", subjectType: "plan_subscription", subjectId: sub.id, data });
       return { amountMinor: values.amountMinor, currency: values.currency, at: values.at };
@@ -169,6 +238,7 @@ export function syncPlanSubscription(stripeSubscriptionId: string, invoiceId?: s
       return { before: fresh, after: moveSubscription(tx, fresh, target, set, STRIPE) };
     });
     const heldNow = [invoice ? recordInvoice(after, invoice) : null, latest && latest.id !== invoice?.id && latest.status === "paid" ? recordInvoice(after, latest) : null].find(Boolean);
+    for (const inv of new Set([invoice, latest])) if (inv) await payBackUnowed(after, inv);
     if (before.state !== "grace" && after.state === "grace") await mailGrace(after);
     // A first payment held because its buyer had handed the piece on: they are told (lib/plans/held.ts).
     if (heldNow && after.state === "awaiting_payment" && !buyerHoldsPiece(after)) await mailPaidAfterHandOn(after, heldNow, "held");

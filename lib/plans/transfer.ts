@@ -107,7 +107,10 @@ export async function finishPlanTransfer(subId: string): Promise<PlanSubscriptio
       const id = sub.stripeSubscriptionId!;
       const key = { idempotencyKey: `plan-transfer-${sub.id}` };
       if (!template.transfers) await callStripe("end the plan", (s) => s.subscriptions.cancel(id, {}, key), sub);
-      // A moved plan that has ended at Stripe meanwhile has nothing left to stop.
+      // A moved plan that has ended at Stripe meanwhile has nothing left to stop. One whose end has
+      // passed (Stripe renewed before it was told; that renewal is paid back, lib/plans/stripe-sync.ts)
+      // ends at Stripe now rather than at the end of a period nobody paid for.
+      else if (!PLAN_FINAL.includes(sub.state) && sub.endsAt && sub.endsAt <= new Date()) await callStripe("end the plan", (s) => s.subscriptions.cancel(id, {}, key), sub);
       else if (!PLAN_FINAL.includes(sub.state)) await callStripe("stop renewing the plan", (s) => s.subscriptions.update(id, { cancel_at_period_end: true }, key), sub);
       sub = advance(sub, "stripe", template.transfers ? null : "refund");
     }

@@ -11,12 +11,13 @@ import { addDays, localDate } from "@/lib/care/dates";
 import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
 import { createTemplate } from "@/lib/plans/templates";
+import { finishPlanTransfer } from "@/lib/plans/transfer";
 import { startPlanCheckout } from "@/lib/plans/subscriptions";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob } from "@/lib/repairs/payment";
 import { AWAITING_PAYMENT } from "@/lib/repairs/states";
-import { createPiece, createStudio, createUser, memberContext, planTemplateInput, unique } from "../support/fixtures";
-import { plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
+import { auditsOf, createPiece, createStudio, createUser, memberContext, planTemplateInput, unique } from "../support/fixtures";
+import { buyPlan, knob, plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
 import { listMail, waitForMail } from "../support/mail";
 import { quotedRepairJob } from "../support/repair-quote";
 
@@ -123,4 +124,50 @@ describe("one piece, one plan", () => {
     const live = stripe.fake.subscriptions().filter((s) => s.metadata.planSubscriptionId === a.subscriptionId && s.status !== "canceled");
     expect(live.map((s) => s.id)).toEqual([row.stripeSubscriptionId]);
   });
+});
+
+describe("a renewal charged on the former owner's card after the hand-over, before Stripe was told", () => {
+  const chargesOf = (stripeSubId: string) => {
+    const intents = stripe.fake.invoices().filter((i) => i.parent.subscription_details.subscription === stripeSubId).flatMap((i) => i.payments.data.map((p) => p.payment.payment_intent));
+    return stripe.fake.charges().filter((c) => intents.includes(c.payment_intent));
+  };
+
+  for (const transfers of [true, false]) {
+    it(`${transfers ? "a plan that moves with the piece" : "a plan that ends at the hand-over"}: the renewal does not count, the plan gets no new period, and the money goes back`, async () => {
+      const { admin, owner, piece } = await ownerWithPiece(transfers ? "renew-moved" : "renew-ended");
+      const plan = yearlyPlan(admin, { refundRule: "none", transfers });
+      const sub = await buyPlan(stripe.fake, owner, piece.id, plan.id);
+      const sid = sub.stripeSubscriptionId!;
+      stripe.fake.failNext(transfers ? "POST" : "DELETE", `/v1/subscriptions/${sid}`);
+      await releasePiece({ ...owner }, piece.id, { confirm: true });
+      expect(subRow(sub.id).transferStep).toBe("stripe");
+      const before = subRow(sub.id);
+      const since = new Date();
+      // The period ends before the retry reaches Stripe: Stripe renews on the card it has.
+      expect((await knob(stripe.fake, sid, "renew", "outcome=pay")).status).toBe(200);
+      await until(() => getDb().select().from(planInvoices).where(eq(planInvoices.subscriptionId, sub.id)).all().length === 2, 15_000);
+      await settled();
+      const after = subRow(sub.id);
+      expect(after.state).toBe(before.state);
+      expect(after.periodEnd).toEqual(before.periodEnd);
+      const renewal = invoicesOf(sub.id).find((i) => i.stripeInvoiceId !== invoicesOf(sub.id)[0]!.stripeInvoiceId && i.at >= before.updatedAt) ?? invoicesOf(sub.id)[1]!;
+      expect(renewal.counts).toBe(false);
+      // The retry finishes the hand-over at Stripe; the renewal's money is back on the former owner's card.
+      await finishPlanTransfer(sub.id);
+      await settled();
+      const charges = chargesOf(sid);
+      expect(charges).toHaveLength(2);
+      expect(charges.map((c) => c.amount - c.amount_refunded).sort()).toEqual([0, 12_000]);
+      // Once, audited once, whatever is replayed; the former owner is told in plain words; Stripe charges nothing more.
+      for (const e of stripe.fake.events()) await stripe.fake.redeliver(e.id);
+      await settled();
+      expect(chargesOf(sid).map((c) => c.amount_refunded).sort()).toEqual([0, 12_000]);
+      expect(auditsOf(sub.id, "plan.payment_refunded_automatically")).toHaveLength(1);
+      expect(auditsOf(sub.id, "plan.payment_held")).toHaveLength(0);
+      const mail = await waitForMail({ to: owner.email, subject: /^Your care plan payment is on its way back — /, since });
+      expect(mail.text).toMatch(/Your card was charged \$120\.00 on .* to renew the .* care plan on your .*\. The plan had already been set to end before that renewal/);
+      const atStripe = stripe.fake.subscriptions().find((s) => s.id === sid)!;
+      expect(atStripe.status === "canceled" || atStripe.cancel_at_period_end).toBe(true);
+    });
+  }
 });
