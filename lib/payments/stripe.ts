@@ -11,6 +11,7 @@
 // (lib/crypto.ts), are never logged, and are shown back by their last four characters only.
 import Stripe from "stripe";
 import { eq } from "drizzle-orm";
+import { z } from "zod";
 import { getDb } from "@/db/client";
 import { STRIPE_ACCOUNTS, studios } from "@/db/schema";
 import { decrypt } from "@/lib/crypto";
@@ -97,9 +98,28 @@ export async function callStripe<T>(what: string, fn: (stripe: Stripe) => Promis
 }
 
 /**
+ * What every event must carry: its id, its type, and the object it is about, whose id (when it has one:
+ * a balance has none) is text. A studio's signing secret is its own admin's to know, so a correctly
+ * signed body is still checked before it is read.
+ */
+const eventShape = z.object({
+  id: z.string().min(1).max(255),
+  type: z.string().min(1).max(255),
+  data: z.object({ object: z.object({ id: z.string().min(1).max(255).optional() }) }),
+});
+
+/** The id of the object an event the app handles is about (it is re-read from Stripe by that id); a 400 when it has none. */
+export function eventObjectId(event: Stripe.Event): string {
+  const id = (event.data.object as { id?: string }).id;
+  if (!id) throw badRequest("This event names no object to read, so nothing was done with it.");
+  return id;
+}
+
+/**
  * Verifies a webhook's Stripe-Signature on the raw body: with the studio's own signing secret when the
  * event came to that studio's endpoint, else with the install's STRIPE_WEBHOOK_SECRET. A studio that
- * saved no signing secret has no endpoint (404); a signature that doesn't match is a 400.
+ * saved no signing secret has no endpoint (404); a signature that doesn't match is a 400, and so is a
+ * signed body that isn't an event about one object.
  */
 export function verifyStripeEvent(rawBody: string, signature: string | null, studioId?: string): Stripe.Event {
   let secret = env.STRIPE_WEBHOOK_SECRET;
@@ -108,11 +128,15 @@ export function verifyStripeEvent(rawBody: string, signature: string | null, stu
     if (!sealed) throw notFound("This studio has no Stripe webhook endpoint.");
     secret = decrypt(SEALED.webhookSecret, sealed);
   }
+  let event: Stripe.Event;
   try {
-    return getStripe().webhooks.constructEvent(rawBody, signature ?? "", secret);
-  } catch {
-    throw badRequest("The Stripe-Signature header doesn't match this payload.");
+    event = getStripe().webhooks.constructEvent(rawBody, signature ?? "", secret);
+  } catch (e) {
+    if (e instanceof Stripe.errors.StripeSignatureVerificationError) throw badRequest("The Stripe-Signature header doesn't match this payload.");
+    throw badRequest("This isn't a Stripe event: its body isn't JSON.");
   }
+  if (!eventShape.safeParse(event).success) throw badRequest("This isn't a Stripe event we can read: it needs an id, a type and the object it is about.");
+  return event;
 }
 
 /**

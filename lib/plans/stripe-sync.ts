@@ -10,7 +10,7 @@ import { formatInstant } from "@/lib/format/dates";
 import { conflict } from "@/lib/errors";
 import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
-import { callStripe, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
+import { callStripe, eventObjectId, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
 import { buyerHoldsPiece, moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
 import { mailPaidAfterHandOn, mailRenewalHeld, mailRenewalPaidBack, planMailContext } from "./plan-mail";
@@ -273,11 +273,15 @@ type EventObject = { id: string; object?: string; mode?: string; subscription?: 
 function subscriptionOfEvent(event: Stripe.Event): { subscriptionId: string; invoiceId?: string } | null {
   if (!PLAN_EVENTS.has(event.type)) return null;
   const o = event.data.object as unknown as EventObject;
-  const idOf = (v: string | { id: string } | null | undefined) => (typeof v === "string" ? v : (v?.id ?? null));
-  if (event.type.startsWith("customer.subscription.")) return { subscriptionId: o.id };
+  // Text ids only: a signed body of another shape names no subscription.
+  const idOf = (v: string | { id: string } | null | undefined) => {
+    const id: unknown = typeof v === "string" ? v : v?.id;
+    return typeof id === "string" && id !== "" ? id : null;
+  };
+  if (event.type.startsWith("customer.subscription.")) return { subscriptionId: eventObjectId(event) };
   if (event.type.startsWith("invoice.")) {
     const sid = idOf(o.parent?.subscription_details?.subscription);
-    return sid ? { subscriptionId: sid, invoiceId: o.id } : null;
+    return sid ? { subscriptionId: sid, invoiceId: eventObjectId(event) } : null;
   }
   if (event.type === "checkout.session.completed" && o.mode === "subscription") {
     const sid = idOf(o.subscription);

@@ -33,11 +33,15 @@ function refundReasonFor(job: RepairJob, payment: Payment, session: Stripe.Check
   return null;
 }
 
-/** Brings our payment and job to what Stripe says of the session; safe to call any number of times. */
-export async function applySession(session: Stripe.Checkout.Session): Promise<{ paidNow: boolean }> {
+/**
+ * Brings our payment and job to what Stripe says of the session; safe to call any number of times.
+ * `studioId`: the studio whose own webhook endpoint the event came to, which moves that studio's
+ * payments only (another studio's session named there is left for that studio's own event).
+ */
+export async function applySession(session: Stripe.Checkout.Session, studioId?: string): Promise<{ paidNow: boolean }> {
   const outcome = getDb().transaction((tx): { jobId: string; countedPaymentId?: string } | null => {
     const payment = tx.select().from(payments).where(eq(payments.checkoutSessionId, session.id)).get();
-    if (!payment) return null;
+    if (!payment || (studioId !== undefined && payment.studioId !== studioId)) return null;
     // "expired" too: our row may say so before Stripe does (a close that raced the owner's payment).
     if (session.payment_status === "paid" && (payment.status === "open" || payment.status === "expired")) {
       const now = new Date();
@@ -121,15 +125,17 @@ async function refundPayment(payment: Payment) {
 
 /**
  * Records what Stripe says has been refunded of a charge (from charge.refunded, or right after asking),
- * read under the account the event came from, or the one the payment was made under.
+ * read under the account the event came from, or the one the payment was made under. Either names a
+ * studio: only that studio's payment moves (as applySession).
  */
 export async function applyRefund(chargeId: string, scope?: StripeScope): Promise<void> {
   const charge = await callStripe("read the refunded charge", (s) => s.charges.retrieve(chargeId), scope);
   const pi = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
   if (!pi) return;
+  const studioId = typeof scope === "string" ? scope : scope?.studioId;
   const refundedNow = getDb().transaction((tx) => {
     const payment = tx.select().from(payments).where(eq(payments.paymentIntentId, pi)).get();
-    if (!payment || charge.amount_refunded <= payment.refundedMinor) return null;
+    if (!payment || (studioId !== undefined && payment.studioId !== studioId) || charge.amount_refunded <= payment.refundedMinor) return null;
     const status: Payment["status"] = charge.amount_refunded >= payment.amountMinor ? "refunded" : "partially_refunded";
     tx.update(payments).set({ refundedMinor: charge.amount_refunded, status, updatedAt: new Date() }).where(eq(payments.id, payment.id)).run();
     recordAudit(tx, { studioId: payment.studioId, actorId: null, action: "payment.refunded", subjectType: "payment", subjectId: payment.id, data: { refundedMinor: charge.amount_refunded, ...(payment.refundReason ? { reason: REFUND_REASON_LABELS[payment.refundReason], reasonCode: payment.refundReason } : {}) } });

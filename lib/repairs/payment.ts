@@ -10,7 +10,7 @@ import type { StudioContext } from "@/lib/auth/guards";
 import { AppError, badRequest, conflict, notFound, rephrased } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { replyToFor } from "@/lib/messages/store";
-import { accountFor, callStripe, verifyStripeEvent } from "@/lib/payments/stripe";
+import { accountFor, callStripe, eventObjectId, verifyStripeEvent } from "@/lib/payments/stripe";
 import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
@@ -163,10 +163,10 @@ export async function handleStripeWebhook(rawBody: string, signature: string | n
     db.insert(stripeEvents).values({ id: event.id, type: event.type }).onConflictDoNothing().run();
     return { received: true, ignored: true };
   }
-  const object = event.data.object as { id: string };
-  if (event.type === "charge.refunded") await applyRefund(object.id, studioId);
-  else await applySession(await callStripe("read the checkout session", (s) => s.checkout.sessions.retrieve(object.id), studioId));
-  db.insert(stripeEvents).values({ id: event.id, type: event.type, objectId: object.id }).onConflictDoNothing().run();
+  const objectId = eventObjectId(event);
+  if (event.type === "charge.refunded") await applyRefund(objectId, studioId);
+  else await applySession(await callStripe("read the checkout session", (s) => s.checkout.sessions.retrieve(objectId), studioId), studioId);
+  db.insert(stripeEvents).values({ id: event.id, type: event.type, objectId }).onConflictDoNothing().run();
   return { received: true };
 }
 
