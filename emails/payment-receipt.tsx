@@ -22,7 +22,7 @@ export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, piec
     <EmailLayout preview={`Receipt: ${amount} paid to ${studioName}`} heading="Payment received">
       <Paragraph>Hi {ownerName},</Paragraph>
       <Paragraph>
-        Thank you — {studioName} received <strong>{amount}</strong> on {paidOn} for the work on <strong>{pieceTitle}</strong>.
+        Thank you — {studioName} received <strong>{amount}</strong> on {paidOn} for the work on your <strong>{pieceTitle}</strong>.
       </Paragraph>
       <MoneyLines {...money} totalLabel="Paid" />
       <RefundRows refunds={refunds} />
@@ -31,7 +31,7 @@ export function PaymentReceiptEmail({ ownerName, studioName, studioAddress, piec
         {studioName}
         {studioAddress ? `, ${studioAddress}` : ""}
       </Note>
-      <ActionClose href={url} label="Book your visit" note={<>Keep this e-mail as your receipt. A PDF copy is on your job page (sign in first): <SpelledLink href={pdfUrl} /></>} />
+      <ActionClose href={url} label="Book your visit" note={<>Keep this e-mail as your receipt. A PDF copy, once you are signed in: <SpelledLink href={pdfUrl} /></>} />
     </EmailLayout>
   );
 }

@@ -13,6 +13,7 @@ export type PlanEndedEmailProps = PlanMailNames & {
   refundByOtherMeans: boolean;
   /** Whole unused months the refund is for. */
   months: number;
+  /** The piece's page; the owner's list of pieces when the piece changed hands (it is no longer theirs). */
   url: string;
 };
 
@@ -44,7 +45,7 @@ export function PlanEndedEmail({ ownerName, studioName, planName, pieceTitle, re
       ) : (
         <Paragraph>Under {studioName}&apos;s terms for this plan, nothing is paid back.</Paragraph>
       )}
-      <ActionClose href={url} label="See your piece" note={<AskStudioForHelp studioName={studioName} />} />
+      <ActionClose href={url} label={reason === "changed_hands" ? "See your pieces" : "See your piece"} note={<AskStudioForHelp studioName={studioName} />} />
     </EmailLayout>
   );
 }

@@ -15,7 +15,7 @@ import type { createClaimSchema, CreateClaimInput } from "@/lib/validation/claim
 import { useLazyZodResolver } from "@/components/forms/lazy-zod-resolver";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { apiJson, isApiError } from "@/components/api-client";
-import { clearDraftPhotos, PhotoPicker, PhotoQueueList, usePhotoQueue } from "./photo-queue";
+import { clearDraftPhotos, PhotoPicker, PhotoQueueList, stillToUpload, usePhotoQueue } from "./photo-queue";
 
 type Values = z.input<typeof createClaimSchema>;
 type Sent = { id: string; uploaded: boolean };
@@ -100,9 +100,10 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
     {
       refresh: "never",
       goTo: ({ id, uploaded }) => (uploaded ? `/claims/${id}` : null),
+      // With photos left behind the page stays and its notice says what is left; a toast said it again at the
+      // bottom of a phone's screen, over the "Go to the claim" button.
       onSuccess: ({ uploaded }) => {
         if (uploaded) toast.success("Your claim is with the studio.");
-        else toast.error("Some photos didn't upload. Retry them below, or go to the claim and add them there.");
       },
       onError: (_words, e) => {
         for (const [field, msgs] of Object.entries(isApiError(e) ? e.fieldErrors : {})) if (msgs[0]) form.setError(field as FieldPath<Values>, { type: "server", message: msgs[0] });
@@ -135,7 +136,7 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
         Photos
       </h2>
       <PhotoPicker
-        count={queue.items.length}
+        count={queue.items.filter((i) => i.status !== "refused").length}
         refused={queue.refused}
         disabled={busy}
         onFiles={(f) => {
@@ -154,11 +155,17 @@ export function ClaimForm({ pieceId, pieceTitle, today, unit }: { pieceId: strin
   );
 
   if (claimId) {
-    const pending = queue.items.filter((i) => i.status !== "done").length;
+    const pending = stillToUpload(queue.items).length;
+    const refused = queue.items.filter((i) => i.status === "refused").length;
+    // A photo the server refused for good (not an image it can read, too large) can't be uploaded by trying again.
+    const left = [
+      pending > 0 ? `${pending} photo${pending === 1 ? " is" : "s are"} still to upload.` : "",
+      refused > 0 ? `${refused === 1 ? "One file" : `${refused} files`} couldn't be added: see why below.` : "",
+    ].filter(Boolean);
     return (
       <div className="space-y-6">
         <Notice tone="ok" title="Your claim was sent">
-          {pending > 0 ? `${pending} photo${pending === 1 ? " is" : "s are"} still to upload.` : "All photos are uploaded."} The studio can already read your report.
+          {left.length ? left.join(" ") : "All photos are uploaded."} The studio can already read your report.
         </Notice>
         {photos}
         <div className="flex flex-col gap-2 sm:flex-row">

@@ -21,13 +21,20 @@ export type QueueItem = {
   key: string;
   name: string;
   blob: Blob;
-  status: "waiting" | "uploading" | "done" | "error";
+  /** "refused": the server will never take this file (not an image it can read, too large, no room left); retrying can't help, removing it can. */
+  status: "waiting" | "uploading" | "done" | "error" | "refused";
   progress: number;
   error?: string;
   photo?: UploadedPhoto;
 };
 
 /** The browser-side first look at a file; the server checks the content again. */
+/** Answers that stay the same however often the photo is sent again (lib/errors statuses). */
+const REFUSED_FOR_GOOD = new Set([409, 413, 415, 422]);
+
+/** The photos still to send: neither uploaded nor refused for good. */
+export const stillToUpload = (items: QueueItem[]) => items.filter((i) => i.status !== "done" && i.status !== "refused");
+
 export function photoProblem(file: File): string | null {
   if (/\.(heic|heif)$/i.test(file.name) || /heic|heif/i.test(file.type)) {
     return `${file.name} is a HEIC photo, which we can't read. Send it as a JPEG: on an iPhone choose Settings → Camera → Formats → Most Compatible, or share the photo to yourself by e-mail (iPhones convert it to JPEG), or take a screenshot of it.`;
@@ -96,10 +103,11 @@ export function usePhotoQueue(draftKey: string) {
 
   const patch = useCallback((key: string, p: Partial<QueueItem>) => setItems((cur) => cur.map((i) => (i.key === key ? { ...i, ...p } : i))), []);
 
+  /** `taken`: photos already on the claim, outside this queue (a sent claim's page); they use up room too. */
   const add = useCallback(
-    (files: FileList | File[]) => {
+    (files: FileList | File[], taken = 0) => {
       const list = Array.from(files);
-      const room = MAX_PHOTOS - itemsRef.current.length;
+      const room = MAX_PHOTOS - taken - itemsRef.current.filter((i) => i.status !== "refused").length;
       const problems: string[] = [];
       if (list.length > room) problems.push(`A claim holds at most ${MAX_PHOTOS} photos; ${room <= 0 ? "remove one first" : `only the first ${room} were added`}.`);
       const added: QueueItem[] = [];
@@ -140,7 +148,8 @@ export function usePhotoQueue(draftKey: string) {
         void idbSafe(() => idb("readwrite", (s) => s.put({ key: item.key, draftKey, name: item.name, blob: item.blob, photo, order: Date.now() } satisfies StoredPhoto)));
         return true;
       } catch (e) {
-        patch(item.key, { status: "error", error: e instanceof ApiError ? e.message : "The upload failed. Try again." });
+        const forGood = e instanceof ApiError && REFUSED_FOR_GOOD.has(e.status);
+        patch(item.key, { status: forGood ? "refused" : "error", error: e instanceof ApiError ? e.message : "The upload failed. Try again." });
         return false;
       }
     },
@@ -151,7 +160,7 @@ export function usePhotoQueue(draftKey: string) {
   const uploadAll = useCallback(
     async (claimId: string) => {
       let ok = true;
-      for (const item of itemsRef.current) if (item.status !== "done") ok = (await uploadOne(item, claimId)) && ok;
+      for (const item of stillToUpload(itemsRef.current)) ok = (await uploadOne(item, claimId)) && ok;
       return ok;
     },
     [uploadOne],
@@ -212,9 +221,18 @@ export function PhotoPicker({ onFiles, disabled, count, refused = [] }: { onFile
 
 function Preview({ blob, alt }: { blob: Blob; alt: string }) {
   const url = useMemo(() => URL.createObjectURL(blob), [blob]);
+  // A file the browser can't draw showed its broken-image sign with the file name spilling out of the square.
+  const [unreadable, setUnreadable] = useState(false);
   useEffect(() => () => URL.revokeObjectURL(url), [url]);
+  if (!url || unreadable) {
+    return (
+      <span className="flex size-16 shrink-0 items-center justify-center rounded-md bg-line text-muted" data-testid="no-preview">
+        <SpriteIcon name="image-plus" className="size-6" />
+      </span>
+    );
+  }
   // eslint-disable-next-line @next/next/no-img-element -- a local blob preview, not a served image
-  return url ? <img src={url} alt={alt} className="size-16 shrink-0 rounded-md object-cover" /> : <span className="size-16 shrink-0 rounded-md bg-line" />;
+  return <img src={url} alt={alt} onError={() => setUnreadable(true)} className="size-16 shrink-0 overflow-hidden rounded-md object-cover" />;
 }
 
 export function PhotoQueueList({ items, onRetry, onRemove, busy }: { items: QueueItem[]; onRetry?: (i: QueueItem) => void; onRemove: (i: QueueItem) => void; busy?: boolean }) {
@@ -250,13 +268,13 @@ export function PhotoQueueList({ items, onRetry, onRemove, busy }: { items: Queu
                 aria-valuenow={Math.round(item.progress * 100)}
                 className="h-2 overflow-hidden rounded-full bg-line"
               >
-                <div className={cn("h-full transition-[width]", item.status === "error" ? "bg-danger" : "bg-resin")} style={{ width: `${Math.round(item.progress * 100)}%` }} />
+                <div className={cn("h-full transition-[width]", item.status === "error" || item.status === "refused" ? "bg-danger" : "bg-resin")} style={{ width: `${Math.round(item.progress * 100)}%` }} />
               </div>
-              <p className={cn("text-xs", item.status === "error" ? "font-medium text-danger" : "text-muted")}>
+              <p className={cn("text-xs", item.status === "error" || item.status === "refused" ? "font-medium text-danger" : "text-muted")}>
                 {item.status === "waiting" && "Waiting to upload"}
                 {item.status === "uploading" && `Uploading… ${Math.round(item.progress * 100)} %`}
                 {item.status === "done" && "Uploaded"}
-                {item.status === "error" && item.error}
+                {(item.status === "error" || item.status === "refused") && item.error}
               </p>
             </div>
             {item.status === "error" && onRetry ? (

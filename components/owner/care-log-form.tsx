@@ -13,6 +13,8 @@ import type { TaskView } from "@/lib/owner/pieces";
 import type { CareLogInput } from "@/lib/validation/owner";
 import { callApi } from "@/components/api-client";
 import { DeleteEntryButton } from "./delete-entry-button";
+import { ErrorLine } from "@/components/ui/error-line";
+import { photoProblem } from "@/components/claims/photo-queue";
 
 type Result = { task: TaskView | null };
 
@@ -32,6 +34,7 @@ export function CareLogForm({
 }) {
   const router = useRouter();
   const [photo, setPhoto] = useState<File | null>(null);
+  const [photoError, setPhotoError] = useState<string | null>(null);
   const photoId = useId();
   const { form, onSubmit, formError } = useActionForm({
     schema: () => import("@/lib/validation/owner").then((m) => m.careLogSchema),
@@ -125,7 +128,29 @@ export function CareLogForm({
             {/* A chosen file's name may be long and is cut; the instruction wraps, so a phone reads which photos it takes. */}
             <span className={photo ? "min-w-0 truncate" : "min-w-0"}>{photo ? photo.name : "Take or choose a photo (JPEG, PNG or WebP, up to 15 MB)"}</span>
           </label>
-          <input id={photoId} type="file" accept="image/jpeg,image/png,image/webp" className="sr-only" onChange={(e) => setPhoto(e.target.files?.[0] ?? null)} />
+          <input
+            id={photoId}
+            type="file"
+            accept="image/jpeg,image/png,image/webp"
+            className="sr-only"
+            aria-describedby={photoError ? `${photoId}-error` : undefined}
+            onChange={(e) => {
+              const file = e.target.files?.[0] ?? null;
+              e.target.value = "";
+              // Checked as it is picked (the server checks again): a 20 MB photo was sent whole before being refused.
+              const problem = file ? photoProblem(file) : null;
+              setPhotoError(problem);
+              setPhoto(problem ? null : file);
+            }}
+          />
+          <ErrorLine id={`${photoId}-error`}>{photoError}</ErrorLine>
+          {photo ? (
+            // Once picked, a photo could only be swapped for another: a refused one kept the entry from being logged without it.
+            <Button variant="ghost" className="px-2 text-sm" onClick={() => setPhoto(null)} disabled={formState.isSubmitting}>
+              <SpriteIcon name="trash" className="size-4" />
+              Remove the photo
+            </Button>
+          ) : null}
         </div>
       )}
       <input type="hidden" {...register("taskKind")} />

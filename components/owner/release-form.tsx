@@ -13,7 +13,8 @@ import { SpriteIcon } from "@/components/ui/sprite-icon";
 
 type Released = { code: string; pieceId: string };
 
-export function ReleaseForm({ action, pieceTitle }: { action: (v: ReleaseInput) => Promise<ActionResult<Released>>; pieceTitle: string }) {
+/** `planNote`: what releasing does to the care plan the owner pays for on the piece, said again in the confirm step. */
+export function ReleaseForm({ action, pieceTitle, planNote = null }: { action: (v: ReleaseInput) => Promise<ActionResult<Released>>; pieceTitle: string; planNote?: string | null }) {
   const [asking, setAsking] = useState(false);
   const [released, setReleased] = useState<Released | null>(null);
   const { form, onSubmit, formError } = useActionForm({
@@ -94,6 +95,7 @@ export function ReleaseForm({ action, pieceTitle }: { action: (v: ReleaseInput) 
       >
         <p>The {pieceTitle} leaves your account straight away: no more reminders, and you can&apos;t log care or file claims for it.</p>
         <p>You get a new registration code to hand over. Only the next owner registering with it brings it back onto an account.</p>
+        {planNote ? <p>{planNote}</p> : null}
       </ConfirmDialog>
     </form>
   );

@@ -5,19 +5,31 @@ import { CARE_TASK_LABELS } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
 import { formatInstant, formatMoney } from "@/lib/format";
 import type { PiecePlan, PlanOffer } from "@/lib/plans/offers";
-import { formatPlanPrice } from "@/lib/plans/price-words";
+import { formatPlanPrice, planPriceWords } from "@/lib/plans/price-words";
+import type { PlanIncluded } from "@/lib/plans/terms";
 import { BuyPlanButton } from "./buy-plan-button";
 
-function included(o: PlanOffer): string[] {
+/** What a plan gives, one line each: on an offer, and on the plan the piece is under (what the owner is paying for). */
+function included(i: PlanIncluded): string[] {
   const out: string[] = [];
-  if (o.included.visitsPerYear > 0) {
-    const visits = o.included.visitsPerYear === 1 ? "One studio visit a year" : `${o.included.visitsPerYear} studio visits a year`;
-    out.push(o.included.visitSharePct === 0 ? `${visits}, included` : `${visits}, you pay ${o.included.visitSharePct} % of each`);
+  if (i.visitsPerYear > 0) {
+    const visits = i.visitsPerYear === 1 ? "One studio visit a year" : `${i.visitsPerYear} studio visits a year`;
+    out.push(i.visitSharePct === 0 ? `${visits}, included` : `${visits}, you pay ${i.visitSharePct} % of each`);
   }
-  if (o.included.tasks.length) out.push(`Done for you: ${o.included.tasks.map((t) => CARE_TASK_LABELS[t].toLowerCase()).join(", ")}`);
-  for (const l of o.included.extendedLines) out.push(`${CLAIM_CATEGORY_LABELS[l.category]}: warranty ${l.extraMonths} months longer while the plan runs`);
-  if (o.included.repairDiscountPct > 0) out.push(`${o.included.repairDiscountPct} % off paid repairs`);
+  if (i.tasks.length) out.push(`Done for you: ${i.tasks.map((t) => CARE_TASK_LABELS[t].toLowerCase()).join(", ")}`);
+  for (const l of i.extendedLines) out.push(`${CLAIM_CATEGORY_LABELS[l.category]}: warranty ${l.extraMonths} months longer while the plan runs`);
+  if (i.repairDiscountPct > 0) out.push(`${i.repairDiscountPct} % off paid repairs`);
   return out;
+}
+
+function IncludedList({ lines }: { lines: string[] }) {
+  return (
+    <ul className="list-disc space-y-1 pl-5 text-sm">
+      {lines.map((line) => (
+        <li key={line}>{line}</li>
+      ))}
+    </ul>
+  );
 }
 
 export function PiecePlans({ pieceId, timeZone, current, offers, country }: { pieceId: string; timeZone: string; current: PiecePlan | null; offers: PlanOffer[]; country: string }) {
@@ -28,12 +40,14 @@ export function PiecePlans({ pieceId, timeZone, current, offers, country }: { pi
         Care plan
       </h2>
       {current ? (
-        <Card className="space-y-1 p-4">
+        <Card className="space-y-2 p-4" data-testid="current-plan">
           <p className="font-semibold">{current.name}</p>
           <p>
             {current.stateLabel}
             {current.periodEnd ? ` · ${current.state === "ending" ? "ends" : "renews"} on ${formatInstant(current.periodEnd, timeZone)}` : ""}
           </p>
+          <p className="text-sm">{planPriceWords(current, country, timeZone)}</p>
+          <IncludedList lines={included(current.included)} />
         </Card>
       ) : (
         <ul className="space-y-3">
@@ -46,11 +60,7 @@ export function PiecePlans({ pieceId, timeZone, current, offers, country }: { pi
                   {o.taxMinor > 0 ? ` (including ${formatMoney(o.taxMinor, o.currency, country)} tax)` : ""}
                 </p>
                 {o.summary ? <p className="text-sm text-muted">{o.summary}</p> : null}
-                <ul className="list-disc space-y-1 pl-5 text-sm">
-                  {included(o).map((line) => (
-                    <li key={line}>{line}</li>
-                  ))}
-                </ul>
+                <IncludedList lines={included(o.included)} />
                 {o.lastYear ? (
                   <p className="text-sm">
                     Over the last year you logged {o.lastYear.entries === 1 ? "one task" : `${o.lastYear.entries} tasks`} this plan includes. As studio visits

@@ -34,7 +34,7 @@ export type PlanOffer = {
   lastYear: LastYearSavings | null;
 };
 
-export type PiecePlan = PricedPlan & { subscriptionId: string; name: string; version: number; state: PlanState; stateLabel: string; periodEnd: number | null; paidBy: "card" | "other" };
+export type PiecePlan = PricedPlan & { subscriptionId: string; name: string; version: number; state: PlanState; stateLabel: string; periodEnd: number | null; paidBy: "card" | "other"; included: PlanIncluded };
 
 /**
  * The one-off price of a studio visit doing `kind`, priced as a repair job would be (tax included); null
@@ -108,6 +108,7 @@ export function piecePlan(pieceId: string): PiecePlan | null {
     interval: template.interval,
     pricedAt: template.createdAt.getTime(),
     superseded: template.supersededAt !== null,
+    included: template.included,
   };
 }
 

@@ -19,7 +19,7 @@ import { mailAfterCommit } from "@/lib/mail/after-commit";
 import { callStripe } from "@/lib/payments/stripe";
 import { addPeriod } from "./periods";
 import { planMailContext } from "./plan-mail";
-import { pieceUrl } from "./subscriptions";
+import { myPiecesUrl, pieceUrl } from "./subscriptions";
 import type { PlanRefundRule } from "./terms";
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
@@ -193,7 +193,8 @@ export async function mailPlanEnding(sub: PlanSubscription, quote: RefundQuote, 
       refund: refund ? formatMoney(refund.amountMinor, refund.currency, studio.country) : null,
       refundByOtherMeans: refund?.status === "other_means",
       months: quote.months,
-      url: pieceUrl(piece.id),
+      // The piece that changed hands is no longer theirs: its page would answer "not found".
+      url: reason === "changed_hands" ? myPiecesUrl() : pieceUrl(piece.id),
     };
     await sendMail({
       studioId: sub.studioId,

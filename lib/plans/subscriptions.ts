@@ -69,6 +69,8 @@ export function livePlanOfPiece(pieceId: string): { sub: PlanSubscription; templ
 }
 
 export const pieceUrl = (pieceId: string, query = "") => new URL(`/pieces/${pieceId}${query}`, env.APP_URL).href;
+/** The owner's list of pieces: where mail about a piece they no longer hold sends them (its own page is gone for them). */
+export const myPiecesUrl = () => new URL("/pieces", env.APP_URL).href;
 
 function refuseIfCovered(pieceId: string) {
   if (livePlanOfPiece(pieceId)) throw conflict("This piece is already under a care plan.");

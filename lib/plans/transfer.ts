@@ -14,8 +14,9 @@
 // subscription, one refund, one mail.
 import { and, eq, isNotNull } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
-import { planSubscriptions, type PlanSubscription } from "@/db/schema";
+import { planSubscriptions, studios, type PlanSubscription } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
+import type { User } from "lucia";
 import type { StudioActor } from "@/lib/auth/actor";
 import { callStripe } from "@/lib/payments/stripe";
 import { claimRefund, mailPlanEnding, monthsIn, payRefund, refundOf, refundQuote } from "./refund";
@@ -40,6 +41,31 @@ export type PlanAfterTransfer = {
 
 const reread = (id: string) => getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, id)).get()!;
 const lockKey = (sub: PlanSubscription) => sub.stripeSubscriptionId ?? sub.id;
+
+/** What releasing the piece now does to the plan its owner pays for on it, told before they release it. */
+export type PlanOnRelease = {
+  planName: string;
+  /** The plan stays with the piece until `endsAt` for its next owner (not renewed); else it ends at the release. */
+  moves: boolean;
+  endsAt: number | null;
+  refundMinor: number;
+  months: number;
+  currency: string;
+  paidBy: PlanSubscription["paidBy"];
+  country: string;
+};
+
+/** For the owner's release page: planFollowsTransfer's rule, read without changing anything; null when they pay for no plan on the piece. */
+export function planOnRelease(owner: Pick<User, "id">, pieceId: string, now = new Date()): PlanOnRelease | null {
+  const live = livePlanOfPiece(pieceId);
+  if (!live || live.sub.ownerId !== owner.id) return null;
+  const { sub, template } = live;
+  const country = getDb().select({ country: studios.country }).from(studios).where(eq(studios.id, sub.studioId)).get()!.country;
+  const base = { planName: template.name, currency: sub.currency, paidBy: sub.paidBy, country };
+  if (template.transfers) return { ...base, moves: true, endsAt: (sub.endsAt ?? sub.periodEnd)?.getTime() ?? null, refundMinor: 0, months: 0 };
+  const q = refundQuote(sub, template, now, true);
+  return { ...base, moves: false, endsAt: q.endsAt.getTime(), refundMinor: q.refundMinor, months: q.months };
+}
 
 export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, now = new Date()): Promise<PlanAfterTransfer> {
   const live = livePlanOfPiece(pieceId);

@@ -34,6 +34,11 @@ test.describe("care plans", () => {
     const section = page.getByRole("region", { name: "Care plan" });
     await expect(section.getByText(target!.plan).first()).toBeVisible();
     await noAxeViolations(page);
+    // What the offer says it costs and gives, to find again on the plan once it runs.
+    const offer = section.getByRole("listitem").filter({ has: page.getByRole("button", { name: `Start ${target!.plan}` }) });
+    const price = (await offer.getByText(/^\$[\d,.]+ a (year|month)/).innerText()).replace(/ \(including .*\)$/, "");
+    const gives = await offer.locator("ul li").allInnerTexts();
+    expect(gives.length).toBeGreaterThan(0);
     await section.getByRole("button", { name: `Start ${target!.plan}` }).click();
 
     await expect(page).toHaveURL(new RegExp(`127\\.0\\.0\\.1:${PORTS.stripe}/pay/cs_test_`));
@@ -49,6 +54,10 @@ test.describe("care plans", () => {
     }).toPass({ timeout: 20_000 });
     const me = (await (await page.request.get(`/api/me/pieces/${target!.id}`)).json()) as { plan: { name: string; state: string } | null };
     expect(me.plan).toMatchObject({ name: target!.plan, state: "running" });
+    // The running plan still says what the owner pays and what it gives them (it showed only its name and state).
+    const mine = page.getByTestId("current-plan");
+    await expect(mine).toContainText(price);
+    for (const line of gives) await expect(mine).toContainText(line);
     await noAxeViolations(page);
     await context.close();
   });
@@ -78,6 +87,15 @@ test.describe("care plans", () => {
     await signIn(page, ACCOUNTS.owner);
     const { pieces } = (await (await page.request.get("/api/me/pieces")).json()) as { pieces: { id: string; title: string }[] };
     const piece = pieces.find((p) => p.title === pieceTitle)!;
+    // Before releasing the piece, the owner is told what happens to the plan they pay for on it, on the page and in the confirm step.
+    await page.goto(`/pieces/${piece.id}/transfer`);
+    const planWords = /Your care plan “.+” (ends the moment you release the piece\. (You get .+ back|Nothing is paid back)|stays with the piece until .+ for its next owner)/;
+    await expect(page.getByRole("heading", { name: "Your care plan" })).toBeVisible();
+    await expect(page.getByText(planWords).first()).toBeVisible();
+    await page.getByRole("checkbox").check();
+    await page.getByRole("button", { name: "Release this piece" }).click();
+    await expect(page.getByRole("dialog").getByText(planWords)).toBeVisible();
+    await page.getByRole("dialog").getByRole("button", { name: "Cancel" }).click();
     await page.goto(`/pieces/${piece.id}`);
     await page.getByRole("button", { name: "Cancel this plan" }).click();
     const confirm = page.getByRole("group", { name: /^Cancel / });

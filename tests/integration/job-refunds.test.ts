@@ -354,6 +354,8 @@ describe("every refund on the receipt", () => {
     await payOnPage(checkoutUrl!);
     const receipt = await waitForMail({ to: owner.email, subject: /^Receipt from/, since });
     expect(receipt.text).toContain(formatMoney(requoted.totalMinor, "USD", "US"));
+    // The owner's piece, as theirs ("for the work on Cherry writing desk" read as a machine's fill-in).
+    expect(receipt.text).toMatch(/for the work on your \S/);
     expect(receipt.text).toMatch(/Refunded/);
     expect(receipt.text).toContain("It was for an earlier version of the quote, which the studio has changed since");
     expect(receipt.text).toContain(formatMoney(job.totalMinor, "USD", "US"));

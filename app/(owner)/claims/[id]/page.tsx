@@ -11,7 +11,7 @@ import { forPage } from "@/lib/auth/page";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import { formatDate, formatInstant } from "@/lib/format";
 import { getOwnerClaim } from "@/lib/claims/view-claim";
-import { MAX_CLAIM_PHOTOS, OPEN_STATES } from "@/lib/claims/states";
+import { OPEN_STATES } from "@/lib/claims/states";
 
 export const metadata: Metadata = { title: "Claim" };
 export const dynamic = "force-dynamic";
@@ -70,7 +70,9 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
           Photos
         </h2>
         <PhotoGallery photos={photos} />
-        {open && photos.length < MAX_CLAIM_PHOTOS ? <OwnerAddPhotos claimId={claim.id} existing={photos.length} /> : null}
+        {/* Kept while the claim is open, full or not: its button says when there is no room left, and why the last
+            pick left photos out stays on screen (it went with the picker when the claim filled up). */}
+        {open ? <OwnerAddPhotos claimId={claim.id} existing={photos.length} /> : null}
       </section>
       <Card className="space-y-1">
         <h2 className="font-semibold">What you reported</h2>
