@@ -59,9 +59,9 @@ export function StaffJobActions({ jobId, canSend, canCancel, paid, refundOwed = 
   );
 }
 
-/** The owner approves a quote and is sent to the payment page. */
-export function ApproveAndPay({ jobId, label }: { jobId: string; label: string }) {
-  const { run, busy } = useRefreshingMutation(() => post(`/api/jobs/${jobId}/approve`), {
+/** The owner approves the quote the page shows (its version and total: a quote changed since is refused) and is sent to the payment page. */
+export function ApproveAndPay({ jobId, label, quoteVersion, totalMinor }: { jobId: string; label: string; quoteVersion: number; totalMinor: number }) {
+  const { run, busy } = useRefreshingMutation(() => apiJson<{ checkoutUrl?: string }>(`/api/jobs/${jobId}/approve`, { method: "POST", json: { quoteVersion, totalMinor } }), {
     onError: (words) => toast.error(words),
     goTo: (r) => String(r.checkoutUrl),
   });

@@ -89,14 +89,21 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
   return updated;
 }
 
+/** The quote an owner's page showed when they pressed approve: its version and total (minor units). */
+export type ShownQuote = { quoteVersion: number; totalMinor: number };
+
 /**
  * The owner approves the quote. A chargeable job gets a Checkout Session (one per job, quote version
  * and attempt, so retries of the same click reuse it), opened for the job's current quote version and
- * amount, and the owner is sent to its URL.
+ * amount, and the owner is sent to its URL. `shown` (what the owner's page showed, sent by it) must be
+ * the current quote: a page opened before the studio changed and sent the quote again approves nothing.
  */
-export async function approveJob(user: Pick<User, "id" | "email">, jobId: string): Promise<{ checkoutUrl: string | null; job: RepairJob }> {
+export async function approveJob(user: Pick<User, "id" | "email">, jobId: string, shown?: ShownQuote): Promise<{ checkoutUrl: string | null; job: RepairJob }> {
   const view = getOwnerJob(user, jobId, "act");
   let { job } = view;
+  if (shown && (shown.quoteVersion !== job.quoteVersion || shown.totalMinor !== job.totalMinor)) {
+    throw conflict("The quote changed since you opened this page, so nothing was approved. Reload the page to see the current quote.", { code: "quote_changed" });
+  }
   if (job.totalMinor === 0) throw conflict("This job is fully covered: there is nothing to pay.");
   if (job.state === "quoted") {
     job = getDb().transaction((tx) => moveJob(tx, job, AWAITING_PAYMENT, { approvedAt: new Date() }));

@@ -14,7 +14,7 @@ import { createTemplate } from "@/lib/plans/templates";
 import { finishPlanTransfer } from "@/lib/plans/transfer";
 import { startPlanCheckout } from "@/lib/plans/subscriptions";
 import { getStudioJob } from "@/lib/repairs/jobs";
-import { approveJob } from "@/lib/repairs/payment";
+import { approveJob, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { AWAITING_PAYMENT } from "@/lib/repairs/states";
 import { auditsOf, createPiece, createStudio, createUser, memberContext, planTemplateInput, unique } from "../support/fixtures";
 import { buyPlan, knob, plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
@@ -48,6 +48,28 @@ describe("a former owner and a repair checkout opened before the hand-over", () 
     const mail = await waitForMail({ to: owner.email, subject: /^Refund of /, since });
     expect(mail.text).toContain("after you had handed the piece on");
     expect((await listMail({ to: owner.email })).filter((m) => /^Refund of /.test(m.subject))).toHaveLength(1);
+  });
+});
+
+describe("an owner approving a quote from a page opened before the studio changed it", () => {
+  it("is refused with words while the version or total shown isn't the current one: the job stays quoted and no payment page is opened; the current one goes through", async () => {
+    const studio = createStudio({ email: `${unique("stale-approve")}@test.example`, taxRateBp: 0, travelFeeMinor: 4500 });
+    const { staff, owner, job } = await quotedRepairJob(studio);
+    const shown = { quoteVersion: job.quoteVersion, totalMinor: job.totalMinor };
+    // The studio adds travel and sends the quote again while the owner's page is open.
+    await updateJobQuote(staff, job.id, { title: "Refresh the top", tasks: ["reoil"], productIds: getStudioJob(staff, job.id).products.map((p) => p.id).slice(0, 1), coats: 1, travel: true, coveredPct: job.coveredPct, notes: "" });
+    await sendQuote(staff, job.id);
+    const now = getStudioJob(staff, job.id).job;
+    expect(now.totalMinor).not.toBe(shown.totalMinor);
+    const sessionsBefore = stripe.fake.sessions().length;
+    const stale = await approveJob(owner, job.id, shown).catch((e: unknown) => e);
+    expect(stale).toMatchObject({ status: 409, message: expect.stringMatching(/^The quote changed since you opened this page/) });
+    expect(getStudioJob(staff, job.id).job.state).toBe("quoted");
+    expect(stripe.fake.sessions().length).toBe(sessionsBefore);
+    // Only the version with the old total is refused as well.
+    expect(await approveJob(owner, job.id, { quoteVersion: now.quoteVersion, totalMinor: shown.totalMinor }).catch((e: unknown) => (e as { status: number }).status)).toBe(409);
+    const { checkoutUrl } = await approveJob(owner, job.id, { quoteVersion: now.quoteVersion, totalMinor: now.totalMinor });
+    expect(stripe.fake.sessions().find((s) => s.url === checkoutUrl)!.amount_total).toBe(now.totalMinor);
   });
 });
 

@@ -102,7 +102,7 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         </Card>
         {OWNER_CAN_DECLINE.includes(job.state) ? (
           <div className="flex flex-col gap-3 sm:flex-row">
-            <ApproveAndPay jobId={job.id} label={job.state === "quoted" ? "Approve and pay" : "Pay now"} />
+            <ApproveAndPay jobId={job.id} label={job.state === "quoted" ? "Approve and pay" : "Pay now"} quoteVersion={job.quoteVersion} totalMinor={job.totalMinor} />
             <OwnerCancelJob jobId={job.id} />
           </div>
         ) : null}
