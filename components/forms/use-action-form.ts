@@ -36,8 +36,7 @@ export function useActionForm<S extends z.ZodType<FieldValues, FieldValues>, T>(
   });
   const [formError, setFormError] = useState<string | null>(null);
 
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
+  const submit = form.handleSubmit(async (values) => {
     const result = await action(values as z.input<S>);
     if (!result) return; // the action redirected
     if (result.ok) {
@@ -51,6 +50,13 @@ export function useActionForm<S extends z.ZodType<FieldValues, FieldValues>, T>(
       if (messages?.[0]) form.setError(field as Path<z.input<S>>, { type: "server", message: messages[0] });
     }
   });
+
+  // The last refusal goes at every press, also one the client's own checks stop: it stayed above the form
+  // ("That isn't your current password.") while the person fixed something else it no longer applied to.
+  const onSubmit: typeof submit = (e) => {
+    setFormError(null);
+    return submit(e);
+  };
 
   return { form, onSubmit, formError };
 }

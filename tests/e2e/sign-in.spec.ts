@@ -36,7 +36,9 @@ test("a wrong password keeps what was typed and says so next to the form", async
 test("signing out ends the session", async ({ page }) => {
   await signIn(page, ACCOUNTS.otherOwner);
   await page.getByRole("button", { name: "Sign out" }).click();
-  await expect(page).toHaveURL(/\/$/);
+  // Said where one signs in again (the landing page it went to said nothing).
+  await expect(page).toHaveURL(/\/sign-in\?signed-out=1$/);
+  await expect(page.getByText("You are signed out on this device.")).toBeVisible();
   await page.goto("/pieces");
   await expect(page).toHaveURL(/\/sign-in\?next=%2Fpieces/);
 });

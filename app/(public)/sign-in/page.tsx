@@ -13,6 +13,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
   return (
     <AuthCard title="Sign in" lead="Owners, studio staff and technicians all sign in here.">
       {params.verified === "1" ? <Notice tone="ok" title="E-mail confirmed">Sign in to carry on.</Notice> : null}
+      {params["signed-out"] === "1" ? <Notice tone="ok" title="Signed out">You are signed out on this device.</Notice> : null}
       <SignInForm action={signInAction} next={next} />
     </AuthCard>
   );

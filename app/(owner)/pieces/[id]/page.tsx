@@ -90,7 +90,8 @@ export default async function OwnerPiecePage({ params }: { params: Promise<{ id:
           {`${piece.kindLabel} · made by ${piece.studio.name}`}
         </p>
         {/* Actions on this piece. The claims area adds its "Report damage" link here. */}
-        <div data-slot="piece-actions" className="grid grid-cols-1 gap-2 pt-1 sm:grid-cols-3">
+        {/* Four actions: two by two from a tablet up (three across left the fourth alone on a row of its own). */}
+        <div data-slot="piece-actions" className="grid grid-cols-1 gap-2 pt-1 sm:grid-cols-2">
           <ButtonLink href={piece.schedule.tasks[0] ? piece.schedule.tasks.find((t) => t.status !== "done")?.logUrl ?? piece.schedule.tasks[0].logUrl : `/pieces/${piece.id}/log`}>
             <SpriteIcon name="clipboard-check" className="size-4" />
             Log care
