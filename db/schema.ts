@@ -1336,11 +1336,12 @@ export const planInvoices = sqliteTable(
     /**
      * What staff decided about a paid invoice held because its amount or version wasn't the plan's
      * (lib/plans/held.ts): taken as the period's payment, taken with the difference paid back, or paid
-     * back in full with the plan ended; or, with no one deciding, "refunded_after_end": a renewal charged for
-     * a period after the plan's end, paid back at once (lib/plans/stripe-sync.ts). Null while it waits for
-     * staff (or when nothing was held).
+     * back in full with the plan ended; or, with no one deciding (lib/plans/stripe-sync.ts), paid back at
+     * once: "refunded_after_end", a renewal charged for a period after the plan's end; "refunded_not_owed",
+     * the first payment of a plan for a piece another plan already covered. Null while it waits for staff
+     * (or when nothing was held).
      */
-    heldResolution: text("held_resolution", { enum: ["accepted", "difference_refunded", "refunded_and_ended", "refunded_after_end"] }),
+    heldResolution: text("held_resolution", { enum: ["accepted", "difference_refunded", "refunded_and_ended", "refunded_after_end", "refunded_not_owed"] }),
     /** What was paid back of a held invoice (minor units). */
     heldRefundedMinor: integer("held_refunded_minor").notNull().default(0),
     heldResolvedAt: integer("held_resolved_at", { mode: "timestamp_ms" }),

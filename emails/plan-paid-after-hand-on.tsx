@@ -4,9 +4,10 @@ import { AskStudioForHelp, PLAN_MAIL_PREVIEW_NAMES, type PlanMailNames } from ".
 export type PlanPaidAfterHandOnEmailProps = PlanMailNames & {
   /**
    * "held": the payment has just come in and is held; "paid_back": the studio has paid it all back;
-   * "renewal_paid_back": a renewal charged for a period after the plan's end was paid back at once.
+   * "renewal_paid_back": a renewal charged for a period after the plan's end was paid back at once;
+   * "covered_paid_back": the first payment of a plan for a piece already under another plan, paid back at once.
    */
-  stage: "held" | "paid_back" | "renewal_paid_back";
+  stage: "held" | "paid_back" | "renewal_paid_back" | "covered_paid_back";
   /** What was paid, already written out ("$120.00"). */
   amount: string;
   /** When it was paid, already written out with its zone ("3 December 2026, 14:05 PST"). */
@@ -20,7 +21,8 @@ export function planPaidAfterHandOnSubject({ stage, planName }: Pick<PlanPaidAft
 /**
  * To the person who paid for a care plan after handing its piece on (lib/plans/held.ts): the plan can't
  * start for a piece they no longer hold, so the payment is held, then paid back by the studio. Also to
- * one charged for a renewal after the plan's end, which is paid back at once (lib/plans/stripe-sync.ts).
+ * one charged for a renewal after the plan's end, or for a plan whose piece another plan already covered,
+ * which is paid back at once (lib/plans/stripe-sync.ts).
  */
 export function PlanPaidAfterHandOnEmail({ ownerName, studioName, planName, pieceTitle, stage, amount, paidOn }: PlanPaidAfterHandOnEmailProps) {
   return (
@@ -38,6 +40,14 @@ export function PlanPaidAfterHandOnEmail({ ownerName, studioName, planName, piec
           <Paragraph>
             {studioName} holds the payment and will pay it back to the card you paid with. You&apos;ll get another e-mail when they do. Nothing more will be charged for this plan.
           </Paragraph>
+        </>
+      ) : stage === "covered_paid_back" ? (
+        <>
+          <Paragraph>
+            Your card was charged <strong>{amount}</strong> on {paidOn} for the {planName} care plan on your {pieceTitle}. The piece was already under a care plan by then,
+            so this one didn&apos;t start, and {studioName} has paid it all back. Nothing more will be charged for it.
+          </Paragraph>
+          <Paragraph>Banks usually take 5 to 10 days to show the money back on your statement.</Paragraph>
         </>
       ) : stage === "renewal_paid_back" ? (
         <>

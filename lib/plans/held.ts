@@ -118,6 +118,7 @@ export function heldSettledForStaff(sub: PlanSubscription, timeZone: string): st
   const on = `${formatInstant(last.heldResolvedAt, timeZone)} (${formatZone(timeZone)})`;
   const charged = money(last.amountMinor, last.currency);
   if (last.heldResolution === "accepted") return `Settled on ${on}: the ${charged} charged was kept as the period's payment.`;
+  if (last.heldResolution === "refunded_not_owed") return `Paid back on ${on}: ${charged}, the first payment of this plan, went back to the card it came from, since the piece was already under another plan; this plan didn't start. Nobody needed to decide.`;
   if (last.heldResolution === "refunded_after_end") return `Paid back on ${on}: ${charged} charged for a renewal after the plan's end went back to the card it came from. Nobody needed to decide.`;
   if (last.heldResolution === "difference_refunded") return `Settled on ${on}: ${money(last.heldRefundedMinor)} paid back to the owner's card; ${money(last.amountMinor - last.heldRefundedMinor)} of the ${charged} charged was kept as the period's payment.`;
   return `Settled on ${on}: all ${charged} paid back to the owner's card, and the plan ended.`;

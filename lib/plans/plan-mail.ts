@@ -55,15 +55,17 @@ export async function mailPaidAfterHandOn(sub: PlanSubscription, held: Pick<Plan
 
 /**
  * Tells the person who paid (`payerId`: the plan's owner, or its former owner once the plan passed on
- * with its piece) that a renewal charged for a period after the plan's end was paid back at once
- * (lib/plans/stripe-sync.ts). After the refund is made; a failed send never undoes it.
+ * with its piece) that a payment nobody owed was paid back at once (lib/plans/stripe-sync.ts): a renewal
+ * charged after the plan's end, or the first payment of a plan for a piece another plan already covers.
+ * After the refund is made; a failed send never undoes it.
  */
-export async function mailRenewalPaidBack(sub: PlanSubscription, payerId: string | null, paid: Pick<PlanInvoice, "amountMinor" | "currency" | "at">): Promise<void> {
-  await mailAfterCommit("renewal after the plan's end paid back", async () => {
+export async function mailPaidBackUnowed(sub: PlanSubscription, payerId: string | null, paid: Pick<PlanInvoice, "amountMinor" | "currency" | "at">, why: "after_end" | "piece_covered"): Promise<void> {
+  await mailAfterCommit("payment nobody owed paid back", async () => {
     const context = planMailContext({ ...sub, ownerId: payerId });
     if (!context) return;
     const { owner, studio, zone } = context;
-    const props = { ...context.names, stage: "renewal_paid_back" as const, amount: formatMoney(paid.amountMinor, paid.currency, studio.country), paidOn: formatInstant(paid.at, zone, { time: true }) };
+    const stage = why === "after_end" ? ("renewal_paid_back" as const) : ("covered_paid_back" as const);
+    const props = { ...context.names, stage, amount: formatMoney(paid.amountMinor, paid.currency, studio.country), paidOn: formatInstant(paid.at, zone, { time: true }) };
     await sendMail({ studioId: sub.studioId, to: owner.email, subject: planPaidAfterHandOnSubject(props), email: PlanPaidAfterHandOnEmail(props), replyTo: studio.email || undefined });
   });
 }

@@ -12,8 +12,8 @@ import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
 import { callStripe, eventObjectId, verifyStripeEvent, type Stripe, type StripeScope } from "@/lib/payments/stripe";
 import { PLAN_FINAL, type PlanState } from "./states";
-import { buyerHoldsPiece, moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
-import { mailPaidAfterHandOn, mailRenewalHeld, mailRenewalPaidBack, planMailContext } from "./plan-mail";
+import { buyerHoldsPiece, livePlanOfPiece, moveSubscription, PLAN_GRACE_DAYS, pieceUrl } from "./subscriptions";
+import { mailPaidAfterHandOn, mailPaidBackUnowed, mailRenewalHeld, planMailContext } from "./plan-mail";
 import { planPrice } from "./price";
 import { templateOf } from "./templates";
 
@@ -67,23 +67,32 @@ function findRow(s: Stripe.Subscription): PlanSubscription | undefined {
 }
 
 /**
- * Whether an invoice bills a period nobody owes: one that starts at or after the end the plan was given
- * (cancelled, or its piece changed hands, lib/plans/transfer.ts), or any new one after the plan passed on
- * with its piece (no buyer: it isn't renewed on the former owner's card). Stripe charges one only when it
- * renewed before it was told of the end (the hand-over's Stripe step failed and waits for its retry).
+ * Why a paid invoice is owed by nobody, or null when it is owed:
+ *  - "after_end": it bills a period that starts at or after the end the plan was given (cancelled, or its
+ *    piece changed hands, lib/plans/transfer.ts), or any new one after the plan passed on with its piece
+ *    (no buyer: it isn't renewed on the former owner's card). Stripe charges one only when it renewed
+ *    before it was told of the end (the hand-over's Stripe step failed and waits for its retry).
+ *  - "piece_covered": the first payment of a plan for a piece another plan already covers (one piece,
+ *    one plan: staff started one paid by other means, or another checkout was paid first, while this
+ *    payment page was open).
  */
-function billsAfterEnd(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
-  if (sub.ownerId === null) return true;
+type NotOwed = "after_end" | "piece_covered";
+function notOwed(sub: PlanSubscription, inv: Stripe.Invoice): NotOwed | null {
   const end = sub.endsAt ?? sub.endedAt;
   const start = ms(inv.lines?.data?.[0]?.period?.start ?? inv.period_start);
-  return Boolean(end && start && start >= end);
+  if (sub.ownerId === null || (end && start && start >= end)) return "after_end";
+  if (sub.state === "awaiting_payment") {
+    const live = livePlanOfPiece(sub.pieceId);
+    if (live && live.sub.id !== sub.id) return "piece_covered";
+  }
+  return null;
 }
 
 /**
  * Whether a paid invoice is the plan's: the amount, currency and template version it was bought at,
- * for a period that is owed (billsAfterEnd), and, for the first payment, paid while its buyer holds the
- * piece (a checkout opened before they handed it on and paid after is held for staff like a wrong
- * amount, lib/plans/held.ts; a running plan's hand-over is lib/plans/transfer.ts's).
+ * owed by someone (notOwed), and, for the first payment, paid while its buyer holds the piece (a
+ * checkout opened before they handed it on and paid after is held for staff like a wrong amount,
+ * lib/plans/held.ts; a running plan's hand-over is lib/plans/transfer.ts's).
  */
 function matchesPlan(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
   const meta = inv.parent?.subscription_details?.metadata ?? {};
@@ -92,20 +101,31 @@ function matchesPlan(sub: PlanSubscription, inv: Stripe.Invoice): boolean {
     meta.templateId === sub.templateId &&
     inv.currency.toUpperCase() === sub.currency.toUpperCase() &&
     (sub.state !== "awaiting_payment" || buyerHoldsPiece(sub)) &&
-    !billsAfterEnd(sub, inv)
+    notOwed(sub, inv) === null
   );
 }
 
+/** Held or unowed payments paid back in full (by staff, lib/plans/held.ts, or at once here): they never count. */
+const PAID_BACK_IN_FULL: readonly (string | null)[] = ["refunded_and_ended", "refunded_after_end", "refunded_not_owed"];
+
+/** What was written of an invoice before: whether it counted, and what was decided about it if it was held. */
+function writtenBefore(invoiceId: string | undefined) {
+  if (!invoiceId) return undefined;
+  return getDb().select({ counts: planInvoices.counts, resolution: planInvoices.heldResolution }).from(planInvoices).where(eq(planInvoices.stripeInvoiceId, invoiceId)).get();
+}
+
 /**
- * Whether an invoice already counts: written as the plan's payment before (a payment that counted keeps
- * counting when it is read again after the plan ended or moved on), or taken by staff as the period's
- * payment though it was held (lib/plans/held.ts).
+ * Whether an invoice counts whatever it is compared with now: one that counted keeps counting when it is
+ * read again after the plan ended or moved on, and one staff took as the period's payment though it was
+ * held (lib/plans/held.ts) counts; one paid back in full never does.
  */
 function takenByStaff(invoiceId: string | undefined): boolean {
-  if (!invoiceId) return false;
-  const row = getDb().select({ counts: planInvoices.counts, resolution: planInvoices.heldResolution }).from(planInvoices).where(eq(planInvoices.stripeInvoiceId, invoiceId)).get();
-  return row?.counts === true || row?.resolution === "accepted" || row?.resolution === "difference_refunded";
+  const row = writtenBefore(invoiceId);
+  if (!row || PAID_BACK_IN_FULL.includes(row.resolution)) return false;
+  return row.counts || row.resolution === "accepted" || row.resolution === "difference_refunded";
 }
+
+const paidBackInFull = (invoiceId: string | undefined) => PAID_BACK_IN_FULL.includes(writtenBefore(invoiceId)?.resolution ?? null);
 
 /** A paid invoice that isn't the plan's price: not accepted as a payment of the plan; held for staff (unless staff took it). */
 const isHeld = (sub: PlanSubscription, inv: Stripe.Invoice | null) => inv?.status === "paid" && !matchesPlan(sub, inv) && !takenByStaff(inv.id);
@@ -126,32 +146,43 @@ async function payerOf(sub: PlanSubscription): Promise<string | null> {
 }
 
 /**
- * A paid invoice for a period nobody owes (billsAfterEnd) is not held for staff: there is nothing to
- * decide. It is paid back in full at once: claimed on its row first (one claim per invoice, so a replayed
- * event pays back once), Stripe asked with the invoice row's idempotency key, audited, and the person
- * who paid told. If Stripe fails, the claim is undone and the error stands, so Stripe sends the event again.
+ * A paid invoice owed by nobody (notOwed) is not held for staff: there is nothing to decide. It is paid
+ * back in full at once: claimed on its row first (one claim per invoice, so a replayed event pays back
+ * once); for a plan that must not start (its piece is covered), its Stripe subscription is ended so
+ * nothing more is charged; the refund is asked with the invoice row's idempotency key; then the plan
+ * ends (that case), it is audited, and the person who paid is told. If Stripe fails, the claim is undone
+ * and the error stands, so Stripe sends the event again.
  */
 async function payBackUnowed(sub: PlanSubscription, inv: Stripe.Invoice): Promise<void> {
-  if (inv.status !== "paid" || !billsAfterEnd(sub, inv)) return;
+  const why = inv.status === "paid" ? notOwed(sub, inv) : null;
+  if (!why) return;
   const db = getDb();
   const claimed = db
     .update(planInvoices)
-    .set({ heldResolution: "refunded_after_end", heldRefundedMinor: inv.amount_paid, heldResolvedAt: new Date(), heldResolvedById: null })
+    .set({ heldResolution: why === "after_end" ? "refunded_after_end" : "refunded_not_owed", heldRefundedMinor: inv.amount_paid, heldResolvedAt: new Date(), heldResolvedById: null })
     .where(and(eq(planInvoices.stripeInvoiceId, inv.id!), eq(planInvoices.counts, false), isNull(planInvoices.heldResolution)))
     .returning()
     .get();
   if (!claimed) return;
   try {
+    if (why === "piece_covered" && sub.stripeSubscriptionId) {
+      await callStripe("end the plan that can't start", (s) => s.subscriptions.cancel(sub.stripeSubscriptionId!, {}, { idempotencyKey: `plan-not-owed-end-${claimed.id}` }), sub);
+    }
     const paymentIntent = await invoicePaymentIntent(sub, inv.id!);
-    await callStripe("pay back a renewal charged after the plan's end", (s) => s.refunds.create({ payment_intent: paymentIntent, metadata: { planSubscriptionId: sub.id, planInvoiceId: claimed.id } }, { idempotencyKey: `plan-after-end-${claimed.id}` }), sub);
+    await callStripe("pay back a payment nobody owed", (s) => s.refunds.create({ payment_intent: paymentIntent, metadata: { planSubscriptionId: sub.id, planInvoiceId: claimed.id } }, { idempotencyKey: `plan-after-end-${claimed.id}` }), sub);
   } catch (e) {
     db.update(planInvoices).set({ heldResolution: null, heldRefundedMinor: 0, heldResolvedAt: null }).where(eq(planInvoices.id, claimed.id)).run();
     throw e;
   }
-  db.transaction((tx) => recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_refunded_automatically", subjectType: "plan_subscription", subjectId: sub.id, data: { invoiceId: claimed.id, stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, currency: claimed.currency, periodStart: claimed.periodStart?.toISOString() ?? null } }));
+  db.transaction((tx) => {
+    const cur = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, sub.id)).get()!;
+    if (why === "piece_covered" && !PLAN_FINAL.includes(cur.state)) moveSubscription(tx, cur, "ended", { endedAt: new Date(), endsAt: new Date() }, STRIPE);
+    const data = { invoiceId: claimed.id, stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, currency: claimed.currency, reason: why, periodStart: claimed.periodStart?.toISOString() ?? null };
+    recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_refunded_automatically", subjectType: "plan_subscription", subjectId: sub.id, data });
+  });
   // The person charged: the plan's owner, or (a plan that passed on with its piece has none) the Stripe customer's.
   const payerId = sub.ownerId ?? (sub.stripeCustomerId ? await payerOf(sub) : null);
-  await mailRenewalPaidBack(sub, payerId, claimed);
+  await mailPaidBackUnowed(sub, payerId, claimed, why);
 }
 
 /**
@@ -161,7 +192,7 @@ async function payBackUnowed(sub: PlanSubscription, inv: Stripe.Invoice): Promis
  */
 function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice): { amountMinor: number; currency: string; at: Date } | null {
   const paid = inv.status === "paid";
-  const counts = paid && (matchesPlan(sub, inv) || takenByStaff(inv.id));
+  const counts = paid && !paidBackInFull(inv.id) && (matchesPlan(sub, inv) || takenByStaff(inv.id));
   const template = templateOf(sub.studioId, sub.templateId);
   const studio = getDb().select().from(studios).where(eq(studios.id, sub.studioId)).get()!;
   const price = planPrice(studio, template);
@@ -185,8 +216,8 @@ function recordInvoice(sub: PlanSubscription, inv: Stripe.Invoice): { amountMino
       .values(values)
       .onConflictDoUpdate({ target: planInvoices.stripeInvoiceId, set: { status: values.status, amountMinor: values.amountMinor, taxMinor, counts, at: values.at } })
       .run();
-    // A payment for a period nobody owes is not held for staff: payBackUnowed pays it back.
-    if (paid && !counts && !billsAfterEnd(sub, inv) && !(before?.status === "paid" && !before.counts)) {
+    // A payment nobody owes is not held for staff: payBackUnowed pays it back.
+    if (paid && !counts && notOwed(sub, inv) === null && !(before?.status === "paid" && !before.counts)) {
       const data = { stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, expectedMinor: sub.amountMinor, currency: values.currency, templateId: inv.parent?.subscription_details?.metadata?.templateId ?? null };
       recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_held", subjectType: "plan_subscription", subjectId: sub.id, data });
       return { amountMinor: values.amountMinor, currency: values.currency, at: values.at };

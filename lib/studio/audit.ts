@@ -88,7 +88,7 @@ const ACTION_LABELS: Record<string, string> = {
   "plan.changed_hands": "Care plan moved to the piece's new owner",
   "plan.payment_held": "Care plan payment held: its amount isn't the plan's price",
   "plan.held_payment_settled": "Held care plan payment settled by staff",
-  "plan.payment_refunded_automatically": "Care plan renewal charged after the plan's end, paid back automatically",
+  "plan.payment_refunded_automatically": "Care plan payment nobody owed paid back automatically (a renewal after the plan's end, or a second plan for a piece already covered)",
   "plan.transfer_finished": "Care plan move finished with the payment service",
   "plan.refund_claimed": "Care plan refund set aside on cancellation",
   "plan.refunded": "Care plan refund paid",

@@ -12,7 +12,7 @@ import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
 import { createTemplate } from "@/lib/plans/templates";
 import { finishPlanTransfer } from "@/lib/plans/transfer";
-import { startPlanCheckout } from "@/lib/plans/subscriptions";
+import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
 import { AWAITING_PAYMENT } from "@/lib/repairs/states";
@@ -192,4 +192,35 @@ describe("a renewal charged on the former owner's card after the hand-over, befo
       expect(atStripe.status === "canceled" || atStripe.cancel_at_period_end).toBe(true);
     });
   }
+});
+
+describe("one piece, one plan, whoever starts the other", () => {
+  it("staff start a plan paid by other means while the owner's payment page is open; the owner pays it anyway: it doesn't start, is paid back in full and ends, and Stripe charges nothing more", async () => {
+    const { admin, owner, piece } = await ownerWithPiece("other-means-race");
+    const yearly = yearlyPlan(admin, { refundRule: "none", transfers: false });
+    const since = new Date();
+    const page = await startPlanCheckout(owner, piece.id, yearly.id);
+    const byOtherMeans = startPlanByOtherMeans(admin, { pieceId: piece.id, templateId: yearly.id, paidByNote: "Paid at the studio counter (invented)" });
+    expect((await payOnPage(page.checkoutUrl)).status).toBe(303);
+    await until(() => invoicesOf(page.subscriptionId).some((i) => i.status === "paid"), 15_000);
+    await settled();
+    await until(() => subRow(page.subscriptionId).state === "ended", 15_000);
+    await settled();
+
+    const covering = getDb().select().from(planSubscriptions).where(eq(planSubscriptions.pieceId, piece.id)).all().filter((s) => ["running", "grace", "ending"].includes(s.state));
+    expect(covering.map((s) => s.id)).toEqual([byOtherMeans.id]);
+    expect(invoicesOf(page.subscriptionId)).toMatchObject([{ status: "paid", counts: false, heldResolution: "refunded_not_owed" }]);
+    const stripeSub = stripe.fake.subscriptions().find((s) => s.metadata.planSubscriptionId === page.subscriptionId)!;
+    expect(stripeSub.status).toBe("canceled");
+    const intents = stripe.fake.invoices().filter((i) => i.parent.subscription_details.subscription === stripeSub.id).flatMap((i) => i.payments.data.map((p) => p.payment.payment_intent));
+    expect(stripe.fake.charges().filter((c) => intents.includes(c.payment_intent)).map((c) => c.amount - c.amount_refunded)).toEqual([0]);
+    expect(auditsOf(page.subscriptionId, "plan.payment_refunded_automatically")).toHaveLength(1);
+    const mail = await waitForMail({ to: owner.email, subject: /^Your care plan payment is on its way back — /, since });
+    expect(mail.text).toMatch(/already under a care plan/);
+    // Replayed, nothing more moves.
+    for (const e of stripe.fake.events()) await stripe.fake.redeliver(e.id);
+    await settled();
+    expect(stripe.fake.charges().filter((c) => intents.includes(c.payment_intent)).map((c) => c.amount_refunded)).toEqual([12_000]);
+    expect(invoicesOf(page.subscriptionId)).toMatchObject([{ counts: false }]);
+  });
 });
