@@ -47,7 +47,8 @@ const CANCELLABLE: readonly PlanSubscription["state"][] = ["running", "grace"];
 export function cancelPreview(sub: PlanSubscription, now = new Date()): CancelPreview {
   const template = templateOf(sub.studioId, sub.templateId);
   const quote = CANCELLABLE.includes(sub.state) ? refundQuote(sub, template, now) : null;
-  const canUndo = sub.state === "ending" && !refundOf(sub.id) && (sub.endsAt ?? sub.periodEnd ?? now) > now;
+  // A plan that passed on with its piece (no owner, lib/plans/transfer.ts) isn't renewed on the former owner's card: it can't be kept.
+  const canUndo = sub.state === "ending" && sub.ownerId !== null && !refundOf(sub.id) && (sub.endsAt ?? sub.periodEnd ?? now) > now;
   return {
     subscriptionId: sub.id,
     version: sub.version,
@@ -112,6 +113,7 @@ async function undo(subId: string, ask: Pick<CancelAsk, "version">, by: PlanMove
       if (fresh.version !== ask.version) throw conflict("The plan changed since this page was opened. Reload to see it as it is now.", { code: "plan_changed" });
       if (fresh.state !== "ending") throw conflict("Only a cancelled plan that hasn't ended yet can be kept.");
       if ((fresh.endsAt ?? fresh.periodEnd ?? now) <= now) throw conflict("This plan has already ended.");
+      if (fresh.ownerId === null) throw conflict("This plan passed on with its piece when it changed hands: it runs to the end of the period paid and can't be renewed on the former owner's card. Once it ends, the new owner can start a plan of their own.");
       if (refundOf(fresh.id, tx)) throw conflict("Part of this plan has been paid back, so the cancellation can't be taken back. A new plan can be started instead.");
       return {
         before: fresh,

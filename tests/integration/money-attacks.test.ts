@@ -10,6 +10,7 @@ import { payments, planInvoices, planSubscriptions } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
+import { keepStudioPlan, studioPlanDetail } from "@/lib/plans/cancel";
 import { createTemplate } from "@/lib/plans/templates";
 import { finishPlanTransfer } from "@/lib/plans/transfer";
 import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
@@ -222,5 +223,22 @@ describe("one piece, one plan, whoever starts the other", () => {
     await settled();
     expect(stripe.fake.charges().filter((c) => intents.includes(c.payment_intent)).map((c) => c.amount_refunded)).toEqual([12_000]);
     expect(invoicesOf(page.subscriptionId)).toMatchObject([{ counts: false }]);
+  });
+});
+
+describe("a plan that passed on with its piece", () => {
+  it("can't be kept by staff after the hand-over: that would renew it on the former owner's card", async () => {
+    const { admin, owner, piece } = await ownerWithPiece("keep-moved");
+    const plan = yearlyPlan(admin, { refundRule: "none", transfers: true });
+    const sub = await buyPlan(stripe.fake, owner, piece.id, plan.id);
+    await releasePiece({ ...owner }, piece.id, { confirm: true });
+    await settled();
+    const moved = subRow(sub.id);
+    expect(moved).toMatchObject({ state: "ending", ownerId: null, transferStep: null });
+    expect(studioPlanDetail(admin, sub.id).cancel.canUndo).toBe(false);
+    const kept = await keepStudioPlan(admin, sub.id, { version: moved.version }).catch((e: unknown) => e);
+    expect(kept).toMatchObject({ status: 409, message: expect.stringMatching(/passed on with its piece/) });
+    expect(subRow(sub.id).state).toBe("ending");
+    expect(stripe.fake.subscriptions().find((s) => s.id === moved.stripeSubscriptionId)!.cancel_at_period_end).toBe(true);
   });
 });
