@@ -475,6 +475,12 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Go back</a></p>` : ""
       const charge = [...charges.values()].find((c) => c.id === a);
       if (!charge || !mine(charge.id, apiKey)) throw new StripeError(404, "invalid_request_error", `No such charge: '${a}'`, "id", "resource_missing");
       out = { ...charge, object: "charge", refunded: charge.amount_refunded === charge.amount };
+    } else if (req.method === "GET" && resource === "payment_intents" && a && !b) {
+      // A payment intent with its charge: as Stripe answers with expand[]=latest_charge (the app's only read of one).
+      const charge = charges.get(a);
+      if (!charge || !mine(charge.id, apiKey)) throw new StripeError(404, "invalid_request_error", `No such payment_intent: '${a}'`, "id", "resource_missing");
+      const latest = { ...charge, object: "charge", refunded: charge.amount_refunded === charge.amount };
+      out = { id: a, object: "payment_intent", amount: charge.amount, currency: charge.currency, status: "succeeded", latest_charge: latest };
     } else if (req.method === "GET" && resource === "events" && a) {
       const e = events.find((x) => x.id === a);
       if (!e) throw new StripeError(404, "invalid_request_error", `No such event: '${a}'`, "id", "resource_missing");

@@ -39,7 +39,7 @@ function refundReasonFor(job: RepairJob, payment: Payment, session: Stripe.Check
  * payments only (another studio's session named there is left for that studio's own event).
  */
 export async function applySession(session: Stripe.Checkout.Session, studioId?: string): Promise<{ paidNow: boolean }> {
-  const outcome = getDb().transaction((tx): { jobId: string; countedPaymentId?: string } | null => {
+  const outcome = getDb().transaction((tx): { jobId: string; countedPaymentId?: string; paymentIntentId?: string; scope?: Payment } | null => {
     const payment = tx.select().from(payments).where(eq(payments.checkoutSessionId, session.id)).get();
     if (!payment || (studioId !== undefined && payment.studioId !== studioId)) return null;
     // "expired" too: our row may say so before Stripe does (a close that raced the owner's payment).
@@ -51,6 +51,7 @@ export async function applySession(session: Stripe.Checkout.Session, studioId?: 
         .where(and(eq(payments.id, payment.id), eq(payments.status, payment.status)))
         .run().changes;
       if (taken === 0) return { jobId: payment.jobId };
+      const written = { paymentIntentId: intentOf(session) ?? undefined, scope: payment };
       const job = tx.select().from(repairJobs).where(eq(repairJobs.id, payment.jobId)).get()!;
       const others = tx.select().from(payments).where(and(eq(payments.jobId, job.id), ne(payments.id, payment.id))).all();
       const holder = tx.select({ ownerId: pieces.ownerId }).from(pieces).where(eq(pieces.id, job.pieceId)).get();
@@ -58,7 +59,7 @@ export async function applySession(session: Stripe.Checkout.Session, studioId?: 
       if (reason === null) {
         moveJob(tx, job, "paid", { paidAt: now });
         recordAudit(tx, { studioId: job.studioId, actorId: null, action: "job.paid", subjectType: "repair_job", subjectId: job.id, data: { checkoutSessionId: session.id, amountMinor: payment.amountMinor, quoteVersion: payment.quoteVersion } });
-        return { jobId: job.id, countedPaymentId: payment.id };
+        return { jobId: job.id, countedPaymentId: payment.id, ...written };
       }
       tx.update(payments).set({ refundReason: reason }).where(eq(payments.id, payment.id)).run();
       recordAudit(tx, {
@@ -70,7 +71,7 @@ export async function applySession(session: Stripe.Checkout.Session, studioId?: 
         // The audit page shows "reason" as written: plain words, the code beside it for queries.
         data: { reason: REFUND_REASON_LABELS[reason], reasonCode: reason, quoteVersion: payment.quoteVersion, amountMinor: payment.amountMinor, jobQuoteVersion: job.quoteVersion, jobTotalMinor: job.totalMinor, jobState: job.state },
       });
-      return { jobId: job.id };
+      return { jobId: job.id, ...written };
     }
     if (session.status === "expired" && payment.status === "open") {
       tx.update(payments).set({ status: "expired", updatedAt: new Date() }).where(and(eq(payments.id, payment.id), eq(payments.status, "open"))).run();
@@ -78,6 +79,10 @@ export async function applySession(session: Stripe.Checkout.Session, studioId?: 
     return { jobId: payment.jobId };
   });
   if (!outcome) return { paidNow: false };
+  // A refund made at Stripe before this session was written here (its charge.refunded came first and
+  // found no payment with this intent yet) shows on the payment now.
+  // Not a reason to fail the payment's own write (the receipt below is sent once, on this first write).
+  if (outcome.paymentIntentId) await applyRefundsMadeBefore(outcome.paymentIntentId, outcome.scope).catch((e: unknown) => console.error("checkout: reading refunds made before the payment was written failed", e));
   if (outcome.countedPaymentId) await mailReceipt(outcome.countedPaymentId);
   const job = getDb().select({ state: repairJobs.state }).from(repairJobs).where(eq(repairJobs.id, outcome.jobId)).get();
   // A job that no longer awaits payment keeps no open checkout (done here again on every replay, so
@@ -129,7 +134,17 @@ async function refundPayment(payment: Payment) {
  * studio: only that studio's payment moves (as applySession).
  */
 export async function applyRefund(chargeId: string, scope?: StripeScope): Promise<void> {
-  const charge = await callStripe("read the refunded charge", (s) => s.charges.retrieve(chargeId), scope);
+  await recordRefunded(await callStripe("read the refunded charge", (s) => s.charges.retrieve(chargeId), scope), scope);
+}
+
+/** What was refunded of a payment intent's charge before its session was written here (usually nothing: no write then). */
+async function applyRefundsMadeBefore(paymentIntentId: string, scope?: StripeScope): Promise<void> {
+  const intent = await callStripe("read the payment", (s) => s.paymentIntents.retrieve(paymentIntentId, { expand: ["latest_charge"] }), scope);
+  const charge = intent.latest_charge;
+  if (charge && typeof charge !== "string" && charge.amount_refunded > 0) await recordRefunded(charge, scope);
+}
+
+async function recordRefunded(charge: Stripe.Charge, scope?: StripeScope): Promise<void> {
   const pi = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
   if (!pi) return;
   const studioId = typeof scope === "string" ? scope : scope?.studioId;

@@ -92,6 +92,31 @@ describe("a studio's own endpoint and another studio's money", () => {
   });
 });
 
+describe("events out of order", () => {
+  it("a refund made at Stripe whose charge.refunded arrives before the checkout's own event is not lost: the payment shows it once the checkout is written", async () => {
+    const b = createStudio({ email: `${unique("b")}@test.example`, taxRateBp: 0 });
+    const { owner, job } = await quotedRepairJob(b);
+    const { checkoutUrl } = await approveJob(owner, job.id);
+    const session = fake.sessions().find((s) => s.client_reference_id === job.id)!;
+    gate.hold();
+    try {
+      expect((await fetch(checkoutUrl!, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" })).status).toBe(303);
+      // Someone refunds it at Stripe by hand at once; its event is the first to reach the app.
+      const pi = fake.sessions().find((s) => s.id === session.id)!.payment_intent!;
+      await getStripe().refunds.create({ payment_intent: pi });
+      const refundedEvent = fake.events().find((e) => e.type === "charge.refunded" && (e.data.object as { payment_intent?: string }).payment_intent === pi)!;
+      const payload = JSON.stringify(refundedEvent);
+      expect((await post(null, payload, sign(payload, process.env.STRIPE_WEBHOOK_SECRET!))).status).toBe(200);
+    } finally {
+      gate.release();
+    }
+    await until(() => jobState(job.id) === "paid", 15_000);
+    await until(() => fake.deliveries().length >= fake.events().length && fake.deliveries().every((d) => d.status === 200), 15_000);
+    const payment = getDb().select().from(payments).where(eq(payments.jobId, job.id)).get()!;
+    expect(payment).toMatchObject({ status: "refunded", refundedMinor: payment.amountMinor });
+  });
+});
+
 describe("signed events of any shape", () => {
   it("an event with no object, an object with no id, a number for an id, no type, or not JSON at all is a 400 with words, and nothing is recorded", async () => {
     const x = await studioWithOwnSecret();
