@@ -11,7 +11,7 @@ import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { apiJson, isApiError } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import type { SlotView } from "@/lib/visits/slots";
-import { formatDate, formatZone } from "@/lib/format";
+import { formatDate, formatDuration, formatZone, zoneAbbreviation } from "@/lib/format";
 import { loadRefusalWords } from "@/components/forms/use-refreshing-mutation";
 
 type Props = {
@@ -131,7 +131,7 @@ export function SlotPicker(p: Props) {
           <SpriteIcon name="chevron-left" className="size-4" /> Earlier
         </Button>
         <p className="text-center text-sm text-muted">
-          Visits take about {Math.round(p.durationMin / 15) / 4} h. Times in {formatZone(p.timeZone)}.
+          Visits take about {formatDuration(p.durationMin)}. Times in {formatZone(p.timeZone)}.
         </p>
         <Button variant="secondary" aria-label="Later dates" disabled={page >= 4} onClick={() => setPage((n) => n + 1)}>
           Later <SpriteIcon name="chevron-right" className="size-4" />
@@ -192,7 +192,8 @@ export function SlotPicker(p: Props) {
       <div className="sticky bottom-0 -mx-4 border-t border-line bg-paper/95 px-4 py-3 backdrop-blur sm:static sm:mx-0 sm:border-0 sm:bg-transparent sm:p-0">
         <Button className="w-full sm:w-auto" disabled={!chosen || busy} onClick={confirm}>
           <SpriteIcon name="calendar-check" className="size-4" />
-          {busy ? "Booking…" : chosen ? `${p.visit ? "Move to" : "Book"} ${dayHeading(chosen.localDate)}, ${chosen.localStart}` : "Pick a time"}
+          {/* The time names its zone, as every time shown does ("08:00 PST"). */}
+          {busy ? "Booking…" : chosen ? `${p.visit ? "Move to" : "Book"} ${dayHeading(chosen.localDate)}, ${chosen.localStart} ${zoneAbbreviation(Date.parse(chosen.start), p.timeZone)}` : "Pick a time"}
         </Button>
       </div>
 

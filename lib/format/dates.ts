@@ -172,6 +172,16 @@ export function formatRetryWait(sec: number): string {
   return `${n} ${unit}${n === 1 ? "" : "s"}`;
 }
 
+/** How long a visit takes, in a sentence, to the quarter hour: "30 minutes", "1 hour", "1 hour 30 minutes", "2 hours". */
+export function formatDuration(minutes: number): string {
+  const total = Math.max(15, Math.round(minutes / 15) * 15);
+  const h = Math.floor(total / 60);
+  const m = total % 60;
+  const hours = h === 0 ? "" : `${h} hour${h === 1 ? "" : "s"}`;
+  const mins = m === 0 ? "" : `${m} minutes`;
+  return [hours, mins].filter(Boolean).join(" ");
+}
+
 /** Time left on a warranty line: "1 year 3 months", "24 days", or "ended". */
 export function formatTimeLeft(days: number): string {
   if (days < 0) return "ended";

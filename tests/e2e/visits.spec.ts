@@ -76,13 +76,16 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   await expect(days.first()).toBeVisible();
   // The zone of the free times in words, not its IANA name.
   await expect(owner.getByText("Times in Pacific Time, Los Angeles.")).toBeVisible();
+  // How long in words ("about 1 hour", not "about 1 h" or "0.5 h").
+  await expect(owner.getByText(/^Visits take about \d+ (hours?|minutes)( \d+ minutes)?\./)).toBeVisible();
   // The day's heading sits one level under the page's (h1 → h2), so the headings read in order.
   await expect(owner.getByRole("region", { name: "Free times" }).getByRole("heading", { level: 2 })).toBeVisible();
   const first = owner.getByRole("region", { name: "Free times" }).getByRole("button", { name: /with Ines Varga/ }).first();
   for (let i = 0; i < (await days.count()) && !(await first.isVisible()); i++) await days.nth(i).click();
   await first.click();
   const since = Date.now();
-  await owner.getByRole("button", { name: /^Book / }).click();
+  // The button's time names its zone too.
+  await owner.getByRole("button", { name: /^Book \w+ \d{1,2} \w+, \d{2}:\d{2} P[SD]T$/ }).click();
   await expect(owner).toHaveURL(new RegExp(`/jobs/${jobId}$`));
   await expect(owner.getByText("Your visit")).toBeVisible();
   await expect(owner.getByText(/with Ines Varga/)).toBeVisible();

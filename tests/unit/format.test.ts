@@ -18,6 +18,7 @@ import {
   formatMonth,
   formatPercentBp,
   formatRetryWait,
+  formatDuration,
   formatVisitWhen,
   formatWait,
   formatZone,
@@ -155,6 +156,9 @@ describe("waits (house style, no published source)", () => {
     expect(formatAgo(59_999)).toBe("just now");
     expect(formatAgo(60_000)).toBe("1 min ago");
     expect(formatAgo(52 * H)).toBe("2 d 4 h ago");
+  });
+  it("how long a visit takes, in a sentence, to the quarter hour (it read '0.5 h')", () => {
+    expect([30, 60, 90, 120, 45, 5].map(formatDuration)).toEqual(["30 minutes", "1 hour", "1 hour 30 minutes", "2 hours", "45 minutes", "15 minutes"]);
   });
   it("when to try again, in a sentence", () => {
     expect(formatRetryWait(0.2)).toBe("1 second");
