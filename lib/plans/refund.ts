@@ -70,8 +70,10 @@ export function refundQuote(sub: PlanSubscription, template: Pick<PlanTemplate, 
   while (k < monthsInPeriod && addPeriod(periodStart, "month", k) <= at) k++;
   const monthEnd = k >= monthsInPeriod ? periodEnd : addPeriod(periodStart, "month", k);
   const months = monthsInPeriod - k;
-  // Pro rata by whole months, rounded down to the minor unit (common practice, no published source).
-  const refundMinor = Math.floor((sub.amountMinor * months) / monthsInPeriod);
+  // Pro rata by whole months of what was paid for the period, rounded down to the minor unit (common
+  // practice, no published source): a renewal staff kept at another amount (lib/plans/held.ts) is
+  // shared as paid, less what was paid back of it.
+  const refundMinor = Math.floor((paidForPeriod(sub) * months) / monthsInPeriod);
   return { ...base, endsAt: endsNow ? at : monthEnd, months, refundMinor };
 }
 
@@ -122,14 +124,26 @@ export function claimRefund(tx: Tx, sub: PlanSubscription, quote: RefundQuote, r
   return row;
 }
 
-/** The payment intent that paid the plan's current period (its latest counted Stripe invoice). */
-async function paymentOfPeriod(sub: PlanSubscription): Promise<string> {
-  const inv = getDb()
+/** The payment that paid the plan's current period: its latest counted invoice (by card, or recorded for other means). */
+function periodInvoice(sub: Pick<PlanSubscription, "id">, byCard = false) {
+  return getDb()
     .select()
     .from(planInvoices)
-    .where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.status, "paid"), eq(planInvoices.counts, true), isNotNull(planInvoices.stripeInvoiceId)))
-    .orderBy(desc(planInvoices.at))
+    .where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.status, "paid"), eq(planInvoices.counts, true), byCard ? isNotNull(planInvoices.stripeInvoiceId) : undefined))
+    // The latest period first (two payments can carry the same second), then the latest payment.
+    .orderBy(desc(planInvoices.periodStart), desc(planInvoices.at))
     .get();
+}
+
+/** What was paid for the plan's current period, less what was paid back of it; the plan's price when no payment is recorded. */
+function paidForPeriod(sub: PlanSubscription): number {
+  const inv = periodInvoice(sub);
+  return inv ? inv.amountMinor - inv.heldRefundedMinor : sub.amountMinor;
+}
+
+/** The payment intent that paid the plan's current period (its latest counted Stripe invoice). */
+async function paymentOfPeriod(sub: PlanSubscription): Promise<string> {
+  const inv = periodInvoice(sub, true);
   if (!inv?.stripeInvoiceId) throw conflict("No card payment of this plan was found to refund. Refund it by other means.");
   const invoice = await callStripe("read the plan's payment", (s) => s.invoices.retrieve(inv.stripeInvoiceId!, { expand: ["payments"] }), sub);
   const pi = invoice.payments?.data?.[0]?.payment?.payment_intent;

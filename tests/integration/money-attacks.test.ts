@@ -10,7 +10,8 @@ import { payments, planInvoices, planSubscriptions } from "@/db/schema";
 import { addDays, localDate } from "@/lib/care/dates";
 import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
-import { keepStudioPlan, studioPlanDetail } from "@/lib/plans/cancel";
+import { cancelPlanAtPeriodEnd, keepStudioPlan, studioPlanDetail } from "@/lib/plans/cancel";
+import { resolveHeldPayment } from "@/lib/plans/held";
 import { createTemplate } from "@/lib/plans/templates";
 import { finishPlanTransfer } from "@/lib/plans/transfer";
 import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
@@ -240,5 +241,28 @@ describe("a plan that passed on with its piece", () => {
     expect(kept).toMatchObject({ status: 409, message: expect.stringMatching(/passed on with its piece/) });
     expect(subRow(sub.id).state).toBe("ending");
     expect(stripe.fake.subscriptions().find((s) => s.id === moved.stripeSubscriptionId)!.cancel_at_period_end).toBe(true);
+  });
+});
+
+describe("a plan's refund on cancelling", () => {
+  it("is a share of what was paid for the period: a renewal kept by staff at a lower amount is not paid back as if the full price had been", async () => {
+    const { admin, owner, piece } = await ownerWithPiece("refund-of-lower");
+    const plan = yearlyPlan(admin, { refundRule: "unused_share", transfers: false });
+    const sub = await buyPlan(stripe.fake, owner, piece.id, plan.id);
+    expect((await knob(stripe.fake, sub.stripeSubscriptionId!, "renew", "outcome=pay&amount=6000")).status).toBe(200);
+    await until(() => studioPlanDetail(admin, sub.id).held, 15_000);
+    await settled();
+    const held = studioPlanDetail(admin, sub.id).held!;
+    await resolveHeldPayment(admin, sub.id, { invoiceId: held.invoiceId, resolution: "accept", version: held.version, amountMinor: 6_000, refundMinor: 0 });
+    await settled();
+    const { cancel } = studioPlanDetail(admin, sub.id);
+    const q = cancel.quote!;
+    expect(q.months).toBeGreaterThan(0);
+    // Whole months left of 6,000 paid, rounded down (lib/plans/refund.ts; common practice, no published source).
+    expect(q.refundMinor).toBe(Math.floor((6_000 * q.months) / q.monthsInPeriod));
+    await cancelPlanAtPeriodEnd(admin, sub.id, { version: cancel.version, refundMinor: q.refundMinor });
+    const renewal = getDb().select().from(planInvoices).where(eq(planInvoices.id, held.invoiceId)).get()!;
+    const pi = stripe.fake.invoices().find((i) => i.id === renewal.stripeInvoiceId)!.payments.data[0]!.payment.payment_intent;
+    expect(stripe.fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded).toBe(q.refundMinor);
   });
 });
