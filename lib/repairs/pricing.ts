@@ -54,8 +54,8 @@ export interface TopOnlyWork {
 /** One such piece of work in staff's words, for the quote builder's notice. */
 export function topOnlyWords(w: TopOnlyWork): string {
   const others = w.surfaces.filter((s) => s !== "top").map((s) => `the ${SURFACE_LABELS[s].toLowerCase()}`);
-  const ending = others.length === 1 ? `the top and ${others[0]} both end` : `the top, ${others.join(" and ")} all end`;
-  return `${w.label}: ${ending} in this finish; the lines price the top only. If the work covers ${others.length === 1 ? others[0] : "them"} too, add its hours and product as lines.`;
+  const which = others.length === 1 ? `the top and ${others[0]} both have` : `the top, ${others.join(" and ")} all have`;
+  return `${w.label}: ${which} this finish as their outer coat; the lines price the top only. If the work covers ${others.length === 1 ? others[0] : "them"} too, add lines for it.`;
 }
 
 const CLASS_BY_TASK = Object.fromEntries(Object.entries(TASK_KIND_BY_FINISH_CLASS).map(([cls, task]) => [task, cls])) as Partial<Record<CareTaskKind, FinishClass>>;

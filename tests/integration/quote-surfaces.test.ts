@@ -134,8 +134,8 @@ describe("each quote line is priced from the surface its work is on", () => {
     expect(view.unsized).toEqual([]);
     // Before: nothing said the base's oil was left out of the price. The annual check needs no size, so no note.
     expect(view.topOnly).toEqual([{ label: "Re-oil", surfaces: ["top", "base"] }]);
-    expect(topOnlyWords(view.topOnly[0]!)).toBe("Re-oil: the top and the base both end in this finish; the lines price the top only. If the work covers the base too, add its hours and product as lines.");
-    expect(topOnlyWords({ label: "Re-oil", surfaces: ["top", "base", "edges"] })).toBe("Re-oil: the top, the base and the edges all end in this finish; the lines price the top only. If the work covers them too, add its hours and product as lines.");
+    expect(topOnlyWords(view.topOnly[0]!)).toBe("Re-oil: the top and the base both have this finish as their outer coat; the lines price the top only. If the work covers the base too, add lines for it.");
+    expect(topOnlyWords({ label: "Re-oil", surfaces: ["top", "base", "edges"] })).toBe("Re-oil: the top, the base and the edges all have this finish as their outer coat; the lines price the top only. If the work covers them too, add lines for it.");
     // A piece whose base ends in another finish gets no note (the first case's piece: topcoat over the top's oil).
     const other = await pieceWithOiledBase();
     await updateJobQuote(other.staff, other.job.id, quote({ tasks: ["topcoat_refresh"] }));
