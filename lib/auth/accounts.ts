@@ -211,6 +211,14 @@ export async function inviteMember(ctx: StudioContext, input: InviteInput) {
   if (member) throw conflict("That person is already a member of this studio.");
   const token = randomToken();
   const invitation = db.transaction((tx) => {
+    // One waiting invitation per address: a new one (a lost mail sent again, or another role) replaces
+    // what was waiting, so the person never holds two links that would make them members in two roles.
+    const replaced = tx
+      .update(invitations)
+      .set({ revokedAt: new Date() })
+      .where(and(eq(invitations.studioId, ctx.studio.id), eq(invitations.email, input.email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date())))
+      .returning({ id: invitations.id, role: invitations.role })
+      .all();
     const row = tx
       .insert(invitations)
       .values({
@@ -229,9 +237,9 @@ export async function inviteMember(ctx: StudioContext, input: InviteInput) {
       action: "member.invited",
       subjectType: "invitation",
       subjectId: row.id,
-      data: { email: input.email, role: input.role },
+      data: { email: input.email, role: input.role, ...(replaced.length ? { replaced: replaced.length } : {}) },
     });
-    return row;
+    return { ...row, replaced: replaced.map((r) => r.role) };
   });
   await sendMail({
     studioId: ctx.studio.id,

@@ -136,6 +136,24 @@ describe("invitations", () => {
     expect(audit.map((a) => a.subjectId)).toEqual([invitation.id]);
   });
 
+  it("a second invitation to the same address replaces the one waiting: one link works, with the new role", async () => {
+    const studio = createStudio();
+    const admin = await memberContext(studio, "admin");
+    const email = `${unique("twice")}@test.example`;
+    const first = await invite(admin, email, "technician");
+    const second = await invite(admin, email, "staff");
+    expect(second.invitation.replaced).toEqual(["technician"]);
+    expect(listOpenInvitations(admin).map((i) => [i.id, i.role])).toEqual([[second.invitation.id, "staff"]]);
+    await expectStatus(() => acceptInvitation({ token: first.token, name: "Old Link (invented)", password: "a long enough password" }, null), 404);
+    await acceptInvitation({ token: second.token, name: "New Link (invented)", password: "a long enough password" }, null);
+    expect(membershipsOf(studio, email)).toEqual([{ role: "staff" }]);
+    // Another studio's invitation to the same address is left alone.
+    const otherAdmin = await memberContext(createStudio(), "admin");
+    const elsewhere = await invite(otherAdmin, `${unique("kept")}@test.example`, "staff");
+    await invite(admin, elsewhere.invitation.email, "staff");
+    expect(listOpenInvitations(otherAdmin).map((i) => i.id)).toEqual([elsewhere.invitation.id]);
+  });
+
   it("only the studio's admins withdraw its invitations; another studio's admin gets a 404", async () => {
     const studio = createStudio();
     const admin = await memberContext(studio, "admin");
@@ -152,10 +170,18 @@ describe("invitations", () => {
     const studio = createStudio();
     const admin = await memberContext(studio, "admin");
     const email = `${unique("former")}@test.example`;
-    // They joined as staff, and had also been sent an admin invitation they never used.
+    // They joined as staff, and an admin invitation they never used is still waiting for their address
+    // (written here as a row: a new invitation now replaces a waiting one, but rows from before stay).
     const joined = await invite(admin, email, "staff");
-    const spare = await invite(admin, email, "admin");
     const { userId } = await acceptInvitation({ token: joined.token, name: "Former Staff (invented)", password: "a long enough password" }, null);
+    const spare = {
+      token: "spare-invitation-token-invented",
+      invitation: getDb()
+        .insert(invitations)
+        .values({ studioId: studio.id, email, role: "admin", tokenHash: sha256Hex("spare-invitation-token-invented"), invitedById: admin.user.id, expiresAt: new Date(Date.now() + 86_400_000) })
+        .returning()
+        .get(),
+    };
     const other = createStudio();
     const otherAdmin = await memberContext(other, "admin");
     const elsewhere = await invite(otherAdmin, email, "technician");

@@ -8,9 +8,10 @@ import { inviteSchema, revokeInvitationSchema } from "@/lib/validation/auth";
 import { changeRoleSchema, removeMemberSchema } from "@/lib/validation/settings";
 
 export const inviteAction = action({ roles: ["admin"], schema: inviteSchema }, async (input, ctx) => {
-  await inviteMember(ctx, input);
+  const sent = await inviteMember(ctx, input);
   revalidatePath("/studio/team");
-  return { ok: true as const, data: undefined, message: `Invitation sent to ${input.email}.` };
+  const before = sent.replaced.length ? ` The link sent before (as ${sent.replaced.join(", ")}) no longer works.` : "";
+  return { ok: true as const, data: undefined, message: `Invitation sent to ${input.email}.${before}` };
 });
 
 export const changeRoleAction = action({ roles: ["admin"], schema: changeRoleSchema }, async (input, ctx) => {
