@@ -6,6 +6,7 @@ import { apiJson } from "@/components/api-client";
 import { useRefreshingMutation } from "@/components/forms/use-refreshing-mutation";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { useQuoteDraftUnsaved } from "@/components/jobs/quote-draft";
 
 const post = (url: string) => apiJson<{ checkoutUrl?: string }>(url, { method: "POST" });
 
@@ -24,6 +25,8 @@ export function StaffJobActions({ jobId, canSend, canCancel, paid, refundOwed = 
     run(kind);
   };
   const doing = busy ? vars : null;
+  // The owner is sent the quote as last saved: while the form beside holds other figures, saving comes first.
+  const unsaved = useQuoteDraftUnsaved() && canSend;
   return (
     <div className="flex flex-wrap gap-2">
       <ConfirmDialog
@@ -41,7 +44,7 @@ export function StaffJobActions({ jobId, canSend, canCancel, paid, refundOwed = 
         <p>{paid ? "The owner's payment is refunded in full, and they are told by e-mail." : "The owner will no longer be able to approve it."}</p>
       </ConfirmDialog>
       {canSend ? (
-        <Button onClick={() => start("quote")} disabled={busy}>
+        <Button onClick={() => start("quote")} disabled={busy || unsaved} aria-describedby={unsaved ? "quote-unsaved" : undefined}>
           {doing === "quote" ? "Sending…" : "Send quote to owner"}
         </Button>
       ) : null}
@@ -54,6 +57,11 @@ export function StaffJobActions({ jobId, canSend, canCancel, paid, refundOwed = 
         <Button onClick={() => start("cancel")} disabled={busy}>
           {doing === "cancel" ? "Sending…" : "Send the refund again"}
         </Button>
+      ) : null}
+      {unsaved ? (
+        <p id="quote-unsaved" className="w-full text-sm text-warn">
+          The quote has changes not saved yet. Save the quote first: the owner is sent the quote as last saved.
+        </p>
       ) : null}
     </div>
   );

@@ -13,6 +13,7 @@ import { formatMinorUnits } from "@/lib/care/quote";
 import { formatMoney } from "@/lib/format";
 import { M2_PER_FT2 } from "@/lib/care/units";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS, SURFACE_LABELS, type Surface } from "@/lib/care/vocabulary";
+import { useReportQuoteDraft } from "@/components/jobs/quote-draft";
 import { LINE_KIND_LABELS, LINE_KINDS, LINE_SOURCE_LABELS, LINE_UNIT_LABELS, LINE_UNITS, parseMajorAmount, type LineDraft } from "@/lib/repairs/lines";
 
 type Product = { id: string; name: string; finishClassLabel: string };
@@ -81,6 +82,7 @@ export function QuoteBuilder({
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
   const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm), areas: typedAreas } });
   const { register, handleSubmit, formState, control, setError, setFocus } = form;
+  useReportQuoteDraft(editable && formState.isDirty);
   const fields = useFieldArray({ control, name: "lines" });
   const { run, busy } = useRefreshingMutation(
     ({ body }: { body: Record<string, unknown>; v: FormValues; withLines: boolean }) => apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body }),

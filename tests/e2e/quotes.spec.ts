@@ -24,6 +24,11 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   const jobId = fixture().jobs.draft!;
   await signInTo(page, ACCOUNTS.staff, `/studio/jobs/${jobId}`);
   await expect(page.getByRole("heading", { name: "Inspect the island's film finish", level: 1 })).toBeVisible();
+  // The owner is sent the quote as last saved: the send button waits while the form holds unsaved changes.
+  const send = page.getByRole("button", { name: "Send quote to owner" });
+  const unsaved = page.getByText("The quote has changes not saved yet. Save the quote first: the owner is sent the quote as last saved.");
+  await expect(send).toBeEnabled();
+  await expect(unsaved).toHaveCount(0);
 
   await page.getByText("What the lines are proposed from").click();
   await page.getByLabel("Crack or check fill").check();
@@ -54,6 +59,8 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   });
   const share = await page.getByLabel("Warranty share (%)").inputValue();
   await crack.getByLabel("Quantity").fill("1.0005");
+  await expect(send).toBeDisabled();
+  await expect(unsaved).toBeVisible();
   await page.getByLabel("Warranty share (%)").fill("250");
   await page.getByRole("button", { name: "Save the quote" }).click();
   await expect(crack.getByText("A number above 0 and up to 100,000, at most three decimals (0.75).")).toBeVisible();
@@ -80,6 +87,8 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   await typed.getByLabel("Unit price (USD)").fill("12.50");
   await page.getByRole("button", { name: "Save the quote" }).click();
   await expect(page.getByText("Quote saved.")).toBeVisible();
+  await expect(send).toBeEnabled();
+  await expect(unsaved).toHaveCount(0);
 
   // The summary shows the sent hours beside the proposed ones, and the server's totals.
   const summary = page.getByRole("table", { name: "Quote lines and totals" });

@@ -4,6 +4,7 @@ import { StaffJobActions } from "@/components/jobs/job-actions";
 import { JobPayments } from "@/components/jobs/job-payments";
 import { FinishRefundButton, JobRefundForm } from "@/components/jobs/job-refund";
 import { QuoteBuilder } from "@/components/jobs/quote-builder";
+import { QuoteDraftProvider } from "@/components/jobs/quote-draft";
 import { QuoteSummary } from "@/components/jobs/quote-summary";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
@@ -57,6 +58,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
           </Link>
         </p>
       ) : null}
+      <QuoteDraftProvider>
       <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
         <Card className="space-y-4">
           <h2 className="font-semibold">Quote</h2>
@@ -181,6 +183,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
           </p>
         </div>
       </div>
+      </QuoteDraftProvider>
     </>
   );
 }
