@@ -65,7 +65,8 @@ export function SlotPicker(p: Props) {
         : apiJson("/api/visits", { method: "POST", json: { jobId: p.jobId, technicianId: c.technicianId, start: c.start, location } }),
     {
       onSuccess: () => toast.success(p.visit ? "Visit moved. The updated invite is on its way by e-mail." : "Visit booked. The invite is on its way by e-mail."),
-      goTo: () => p.doneHref,
+      // Staff land on the week calendar at the visit's week, where the visit now is.
+      goTo: (_, c) => (p.audience === "staff" ? `${p.doneHref}?week=${c.localDate}` : p.doneHref),
       onError: (words, e) => {
         toast.error(words);
         // A 409 carries the times that are free now: someone else took the time, so show what is free.

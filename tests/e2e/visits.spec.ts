@@ -182,6 +182,28 @@ test("owner books a slot; the technician files the report on a phone; the owner 
   await ctx.close();
 });
 
+test("staff book a visit two weeks out and land on that week of the calendar, with the visit on it", async ({ page }) => {
+  const jobId = fixture().jobs.covered!;
+  await signInTo(page, ACCOUNTS.staff, `/studio/visits/book/${jobId}`);
+  const days = page.getByRole("group", { name: "Days with free times" }).getByRole("button");
+  await expect(days.first()).toBeVisible();
+  // The last day offered is more than a week ahead: never in the week the calendar opens on by itself.
+  await days.last().click();
+  const slot = page.getByRole("region", { name: "Free times" }).getByRole("button", { name: /with / }).first();
+  const time = (await slot.innerText()).match(/\d{2}:\d{2}/)![0];
+  await slot.click();
+  await page.getByRole("button", { name: /^Book / }).click();
+  await expect(page).toHaveURL(/\/studio\/visits\?week=\d{4}-\d{2}-\d{2}$/);
+  const date = new URL(page.url()).searchParams.get("week")!;
+  const block = page.getByRole("button", { name: new RegExp(`^Polish the resin river, ${time}`) });
+  await expect(block).toBeVisible();
+  await expect(cellAt(page, date, "09:00")).toBeAttached();
+  // Leave the job as we found it, for anyone else who books it.
+  const res = await page.request.get(`/api/visits?from=${encodeURIComponent(new Date().toISOString())}&to=${encodeURIComponent(new Date(Date.now() + 20 * 86_400_000).toISOString())}`);
+  const booked = ((await res.json()).visits as Visit[]).find((v) => v.jobId === jobId && v.state === "booked")!;
+  expect((await page.request.post(`/api/visits/${booked.id}/cancel`, { data: {} })).status()).toBe(200);
+});
+
 test("staff reach a booked visit's sheet from its job page, headed with the technician's name", async ({ page }) => {
   await signIn(page, ACCOUNTS.staff);
   const now = Date.now();
