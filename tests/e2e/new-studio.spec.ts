@@ -95,6 +95,16 @@ test("a new account starts a studio at /start; every studio page works while it 
   }
   expect(problems, problems.join("\n")).toEqual([]);
 
+  // Without technicians the visits calendar can only stay empty: both pages say why and lead to the team page.
+  for (const [path, link] of [
+    ["/studio/visits", "Invite a technician"],
+    ["/studio/technicians", "Invite one on the Team page."],
+  ] as const) {
+    await page.goto(path);
+    await expect(page.locator("main").getByText(/No technicians (yet|in this studio yet)/).first()).toBeVisible();
+    await expect(page.locator("main").getByRole("link", { name: link })).toHaveAttribute("href", "/studio/team");
+  }
+
   // The same account (STUDIO_SIGNUP=open) starts a second studio; it becomes the one it works in.
   await page.goto("/start");
   await expect(page.getByText(`You're already in ${studioName}`)).toBeVisible();

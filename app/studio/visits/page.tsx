@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { ButtonLink } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
+import { Notice } from "@/components/ui/notice";
 import { WeekCalendar } from "@/components/visits/week-calendar";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
@@ -22,6 +23,21 @@ export default async function StudioVisitsPage({ searchParams }: { searchParams:
     <>
       <PageHeader title="Visits" lead="The team's week of touch-up visits." actions={<ButtonLink variant="secondary" href="/studio/technicians">Working hours</ButtonLink>} />
       <div className="space-y-6">
+        {technicians.length === 0 ? (
+          <Notice tone="info" title="No technicians yet">
+            Visits are booked with a technician, at times their working hours leave free.{" "}
+            {ctx.role === "admin" ? (
+              <>
+                <Link className="font-medium text-resin underline" href="/studio/team">
+                  Invite a technician
+                </Link>
+                ; once they have joined, set their hours on the Working hours page.
+              </>
+            ) : (
+              "Ask an admin to invite one; once they have joined, set their hours on the Working hours page."
+            )}
+          </Notice>
+        ) : null}
         {waiting.length ? (
           <Card className="space-y-2">
             <h2 className="font-semibold">Waiting for a visit</h2>
