@@ -22,7 +22,20 @@ const MODES = [
  * client typed here; then whether to send them the hand-over mail. Fields of the piece form
  * (deliverPieceSchema in lib/validation/clients).
  */
-export function BuyerFields({ register, setValue, watch, errors }: { register: UseFormRegister<FieldValues>; setValue: UseFormSetValue<FieldValues>; watch: (name: string) => unknown; errors: Errors }) {
+export function BuyerFields({
+  picked = null,
+  register,
+  setValue,
+  watch,
+  errors,
+}: {
+  /** The client already picked when the form opens (from their client page). */
+  picked?: { id: string; name: string; email: string } | null;
+  register: UseFormRegister<FieldValues>;
+  setValue: UseFormSetValue<FieldValues>;
+  watch: (name: string) => unknown;
+  errors: Errors;
+}) {
   const mode = (watch("buyer") as string) || "none";
   const chosenId = (watch("buyerClientId") as string) || "";
   const [typed, setTyped] = useState("");
@@ -36,7 +49,7 @@ export function BuyerFields({ register, setValue, watch, errors }: { register: U
     queryFn: () => apiJson<ClientPage>(`/api/clients?${new URLSearchParams({ q })}`),
     enabled: mode === "existing" && q.length >= 2,
   });
-  const [chosen, setChosen] = useState<{ id: string; name: string; email: string } | null>(null);
+  const [chosen, setChosen] = useState<{ id: string; name: string; email: string } | null>(picked);
 
   return (
     <div className="space-y-4">

@@ -44,6 +44,7 @@ export function PieceForm({
   products,
   members,
   today,
+  buyer = null,
 }: {
   mode: "create" | "edit";
   pieceId?: string;
@@ -52,6 +53,8 @@ export function PieceForm({
   products: ProductOption[];
   members: MemberOption[];
   today: string;
+  /** A new piece opened from a client's page: that client is the buyer, already picked. */
+  buyer?: { id: string; name: string; email: string } | null;
 }) {
   const router = useRouter();
   const [system, setSystem] = useState<UnitSystem>(unitSystem);
@@ -71,7 +74,7 @@ export function PieceForm({
       baseFinish: "",
       deliveryAddress: "",
       internalNotes: "",
-      ...(mode === "create" ? { layers: [], buyer: "none", buyerClientId: "", buyerName: "", buyerEmail: "", buyerPhone: "", buyerServiceMail: false, sendHandover: true } : {}),
+      ...(mode === "create" ? { layers: [], buyer: buyer ? "existing" : "none", buyerClientId: buyer?.id ?? "", buyerName: "", buyerEmail: "", buyerPhone: "", buyerServiceMail: false, sendHandover: true } : {}),
       ...initial,
     } as never,
     onSuccess: (data) => {
@@ -222,7 +225,7 @@ export function PieceForm({
 
       {mode === "create" ? (
         <Section title="Buyer">
-          <BuyerFields register={reg} setValue={setValue as unknown as UseFormSetValue<FieldValues>} watch={(name) => watch(name as never)} errors={errors} />
+          <BuyerFields picked={buyer} register={reg} setValue={setValue as unknown as UseFormSetValue<FieldValues>} watch={(name) => watch(name as never)} errors={errors} />
         </Section>
       ) : null}
 

@@ -223,3 +223,34 @@ test("bulk hand-over mail: staff pick imported pieces, follow the mailing, and r
   await expect(page.getByRole("row", { name: new RegExp(`${word} settle`) })).toHaveCount(0);
   await expect(page.getByRole("row", { name: new RegExp(`${word} stool`) })).toBeVisible();
 });
+
+test("a client added at the desk: their page leads to recording a piece with them already picked as the buyer", async ({ page }) => {
+  const word = `Rowan${Date.now().toString(36)}`;
+  const name = `Ilse ${word} (invented)`;
+  const title = `${word} side table (e2e)`;
+  await signInTo(page, ACCOUNTS.staff, "/studio/clients/new");
+  await page.getByLabel("Name").fill(name);
+  await page.getByLabel("E-mail").fill(`${word.toLowerCase()}@desk.example`);
+  await page.getByRole("button", { name: "Add client" }).click();
+  await expect(page.getByRole("heading", { name, level: 1 })).toBeVisible();
+  const theirs = page.getByRole("heading", { name: "Their pieces" }).locator("..");
+  await expect(theirs.getByText(/once you record it with them as the buyer/)).toBeVisible();
+  await theirs.getByRole("link", { name: "Record a piece they bought" }).click();
+
+  await expect(page).toHaveURL(/\/studio\/pieces\/new\?client=/);
+  await expect(page.getByRole("radio", { name: /A client already on record/ })).toBeChecked();
+  await expect(page.getByText(`Buyer: ${name}`)).toBeVisible();
+  await page.getByLabel("Title").fill(title);
+  await page.getByLabel("Length").fill("20");
+  await page.getByLabel("Width").fill("20");
+  await page.getByRole("combobox", { name: "Primary species" }).fill("juglans");
+  await page.getByRole("option", { name: /Black walnut/ }).click();
+  await page.getByRole("button", { name: "Record piece" }).click();
+  await expect(page).toHaveURL(/\/studio\/pieces\/[0-9a-f-]{36}$/);
+  await page.getByRole("heading", { name: "Hand-over mail" }).locator("..").getByRole("link", { name }).click();
+  await expect(page.getByRole("heading", { name: "Their pieces" }).locator("..").getByRole("link", { name: title })).toBeVisible();
+
+  // An id of no client of this studio picks nobody: the form opens as for any new piece.
+  await page.goto("/studio/pieces/new?client=00000000-0000-4000-8000-000000000000");
+  await expect(page.getByRole("radio", { name: /Not recorded yet/ })).toBeChecked();
+});

@@ -49,7 +49,7 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
           <Card className="space-y-3">
             <h2 className="font-display text-xl font-semibold">Their pieces</h2>
             {pieces.length === 0 ? (
-              <p className="text-muted">No pieces yet. A piece is theirs once they register it.</p>
+              <p className="text-muted">No pieces yet. A piece is theirs once you record it with them as the buyer, or once they register it with its drawer card.</p>
             ) : (
               <ul className="divide-y divide-line">
                 {pieces.map((p) => (
@@ -65,6 +65,9 @@ export default async function StudioClientPage({ params }: { params: Promise<{ i
                 ))}
               </ul>
             )}
+            <Link href={`/studio/pieces/new?client=${client.id}`} className="inline-flex min-h-11 items-center text-sm font-medium text-resin underline">
+              Record a piece they bought
+            </Link>
           </Card>
           <ClientPlansSection ctx={ctx} pieceIds={pieces.map((p) => p.id)} />
           <Card className="space-y-3">
