@@ -180,6 +180,8 @@ export const TOKEN_PURPOSES = ["verify_email", "password_reset"] as const;
 export const OWNERSHIP_VIA = ["registration", "transfer"] as const;
 export const FILE_PURPOSES = ["piece_photo", "claim_photo", "care_log_photo", "visit_photo"] as const;
 export const CARE_LOG_SOURCES = ["owner", "visit", "studio"] as const;
+/** Who logged the care, as staff read it after the task: "Re-oil (top) · by the owner". */
+export const CARE_LOG_SOURCE_WORDS: Record<(typeof CARE_LOG_SOURCES)[number], string> = { owner: "by the owner", visit: "at a visit", studio: "by the studio" };
 export const SEND_STATUSES = ["queued", "sent", "failed", "skipped", "cancelled"] as const;
 export const OFFER_STATUSES = ["offered", "accepted", "declined", "expired"] as const;
 /** Claim states (lib/claims/states.ts): submitted → in_review → (awaiting_owner ↔ in_review) → accepted | declined; accepted → repair_booked → closed. */

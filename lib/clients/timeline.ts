@@ -1,7 +1,7 @@
 import "server-only";
 import { getDb, perConnection } from "@/db/client";
 import type { StudioContext } from "@/lib/auth/guards";
-import { CARE_TASK_LABELS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
+import { CARE_LOG_SOURCE_WORDS, CARE_TASK_LABELS, type CareTaskKind, type ClaimCategory } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import type { ClaimDecision } from "@/lib/claims/states";
 import { loadClient } from "./access";
@@ -140,7 +140,6 @@ const money = (minor: number | null, currency: string | null, country: string) =
 const when = (ms: number | null, timeZone: string) => (ms == null ? "" : formatInstant(ms, timeZone, { time: true }));
 const day = (iso: string | null) => (iso ? formatDate(iso) : "");
 
-const CARE_SOURCE_WORDS: Record<string, string> = { owner: "by the owner", visit: "at a visit", studio: "by the studio" };
 
 const NOTE_WORDS: Record<string, string> = {
   "client.created": "Client record created",
@@ -186,7 +185,7 @@ function titleOf(r: Row, tz: string, country: string): string {
     case "handover":
       return `Hand-over mail sent for ${q(r.title)}${r.n && r.n > 1 ? ` (${r.n} times)` : ""}`;
     case "care":
-      return `${CARE_TASK_LABELS[r.a as CareTaskKind] ?? "Care"} on ${q(r.title)}, done ${day(r.b)}, logged ${CARE_SOURCE_WORDS[r.cur ?? ""] ?? ""}`.trim();
+      return `${CARE_TASK_LABELS[r.a as CareTaskKind] ?? "Care"} on ${q(r.title)}, done ${day(r.b)}, logged ${CARE_LOG_SOURCE_WORDS[r.cur as keyof typeof CARE_LOG_SOURCE_WORDS] ?? ""}`.trim();
     case "reminder":
       return `Care reminder sent: ${(CARE_TASK_LABELS[r.a as CareTaskKind] ?? "care").toLowerCase()} on ${q(r.title)}, due ${day(r.b)}`;
     case "visit_reminder":

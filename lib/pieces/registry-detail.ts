@@ -7,7 +7,7 @@ import { auditLog, careLogEntries, claims, files, finishLayers, finishProducts, 
 import { requireStaff, type StudioContext } from "@/lib/auth/guards";
 import { topArea, type TopArea } from "@/lib/care/area";
 import { localDate } from "@/lib/care/dates";
-import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, SURFACE_LABELS, type CARE_LOG_SOURCES } from "@/lib/care/vocabulary";
+import { CARE_LOG_SOURCE_WORDS, CARE_TASK_LABELS, FINISH_CLASS_LABELS, SURFACE_LABELS } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
 import { formatDate } from "@/lib/format";
 import { REMINDER_STEP_LABELS } from "@/lib/overview";
@@ -18,7 +18,6 @@ import { policyTerms, warrantyEndsOn } from "./registry-sql";
 
 export type TimelineEvent = { on: string; at?: number; kind: "delivered" | "layer" | "care" | "reminder" | "claim" | "registered" | "record"; text: string };
 
-const CARE_SOURCE_WORDS: Record<(typeof CARE_LOG_SOURCES)[number], string> = { owner: "by the owner", visit: "at a visit", studio: "by the studio" };
 
 const AUDIT_TEXT: Record<string, string> = {
   "piece.created": "Piece record created",
@@ -77,7 +76,7 @@ export function getPieceDetail(ctx: StudioContext, pieceId: string, now = new Da
   for (const { layer, productName } of layers) {
     timeline.push({ on: layer.appliedOn, kind: "layer", text: `${SURFACE_LABELS[layer.surface]}: ${productName ?? (layer.productLabel || FINISH_CLASS_LABELS[layer.finishClass])} applied, ${layer.coats} coat${layer.coats === 1 ? "" : "s"}` });
   }
-  for (const c of careLog) timeline.push({ on: c.doneOn, kind: "care", text: `Care logged ${CARE_SOURCE_WORDS[c.source]}: ${CARE_TASK_LABELS[c.taskKind as keyof typeof CARE_TASK_LABELS] ?? c.taskKind}${c.notes ? ` — ${c.notes}` : ""}` });
+  for (const c of careLog) timeline.push({ on: c.doneOn, kind: "care", text: `Care logged ${CARE_LOG_SOURCE_WORDS[c.source]}: ${CARE_TASK_LABELS[c.taskKind as keyof typeof CARE_TASK_LABELS] ?? c.taskKind}${c.notes ? ` — ${c.notes}` : ""}` });
   if (piece.registeredAt) timeline.push({ on: day(piece.registeredAt), at: piece.registeredAt.getTime(), kind: "registered", text: `Registered by ${owner?.name ?? "its owner"}` });
   for (const r of db.select().from(reminderSends).where(and(eq(reminderSends.pieceId, pieceId), eq(reminderSends.studioId, ctx.studio.id), eq(reminderSends.status, "sent"))).all()) {
     if (r.sentAt) timeline.push({ on: day(r.sentAt), at: r.sentAt.getTime(), kind: "reminder", text: `Care reminder sent: ${CARE_TASK_LABELS[r.taskKind as keyof typeof CARE_TASK_LABELS] ?? r.taskKind} (${REMINDER_STEP_LABELS[r.step].toLowerCase()}), due ${formatDate(r.dueOn)}` });

@@ -134,6 +134,8 @@ test("owner files a claim with two photos, staff message and decide, owner sees 
   await expect(desk.getByRole("img", { name: "Photo 1, full size" })).toBeVisible();
   await desk.getByRole("button", { name: "Close the photo" }).click();
 
+  // A new claim says what starting the review is for: the message box works before it too.
+  await expect(desk.getByText("Start the review to decide, or to ask the owner something and wait for their answer. A message sent now leaves the claim new.")).toBeVisible();
   await desk.getByRole("button", { name: "Start review" }).click();
   await expect(desk.getByText("Review started.")).toBeVisible();
   await desk.getByLabel("Message to the owner").fill("Thanks — we'll tighten the joint at a visit. (e2e)");
@@ -307,4 +309,14 @@ test("the photo route refuses an oversize body with 413 and a non-image with 415
   expect(good.status()).toBe(201);
   expect(((await good.json()) as { photo: { url: string } }).photo.url).toMatch(/^\/api\/files\//);
   await owner.close();
+});
+
+test("the claim page's care log says who logged each task in words, not the stored value", async ({ page }) => {
+  await page.setViewportSize({ width: 1280, height: 900 });
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto("/studio/claims?state=all&q=island");
+  await page.getByRole("link", { name: /White oak kitchen island top/ }).first().click();
+  const log = page.getByRole("heading", { name: "Care log" }).locator("..");
+  await expect(log.getByText(/ \(top\) · by the owner$/).first()).toBeVisible();
+  expect(await log.innerText()).not.toMatch(/· by (owner|visit|studio)\b/);
 });

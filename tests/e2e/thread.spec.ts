@@ -85,7 +85,7 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   // Staff, 1280 px: the accepted claim offers its repair job.
   await desk.goto(`/studio/claims/${claimId}`);
   const repair = desk.getByRole("region", { name: "Repair" });
-  await expect(repair.getByText("Open the repair job to price the work and send the owner a quote.")).toBeVisible();
+  await expect(repair.getByText("Create the repair job to price the work and send the owner a quote.")).toBeVisible();
   await axe(desk, "staff claim page, accepted");
   await repair.getByRole("button", { name: "Create repair job" }).click();
   await expect(desk).toHaveURL(/\/studio\/jobs\/[0-9a-f-]{36}$/);

@@ -11,7 +11,7 @@ import { Card } from "@/components/ui/card";
 import { Notice } from "@/components/ui/notice";
 import { requireStaff } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
-import { CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, SURFACE_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
+import { CARE_LOG_SOURCE_WORDS, CARE_TASK_LABELS, FINISH_CLASS_LABELS, PIECE_KIND_LABELS, RESIN_LABELS, SUN_LABELS, SURFACE_LABELS, USE_LABELS } from "@/lib/care/vocabulary";
 import { getSpecies } from "@/lib/care/species";
 import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
@@ -118,7 +118,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                 </p>
               </div>
             ) : null}
-            {claim.state === "submitted" ? <p className="text-sm text-muted">Start the review to message the owner with questions or to decide.</p> : null}
+            {claim.state === "submitted" ? <p className="text-sm text-muted">Start the review to decide, or to ask the owner something and wait for their answer. A message sent now leaves the claim new.</p> : null}
             {claim.state === "awaiting_owner" ? <p className="text-sm text-muted">Waiting for the owner&apos;s reply; their reply puts the claim back in review.</p> : null}
             <ReviewButton claimId={claim.id} state={claim.state} version={claim.version} />
             {claim.state === "in_review" ? (
@@ -151,7 +151,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                   </Notice>
                 ) : claim.state === "accepted" ? (
                   <>
-                    <p className="text-sm text-muted">Open the repair job to price the work and send the owner a quote.</p>
+                    <p className="text-sm text-muted">Create the repair job to price the work and send the owner a quote.</p>
                     <CreateRepairJobButton claimId={claim.id} />
                   </>
                 ) : null}
@@ -218,7 +218,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                 {v.careLog.map((e) => (
                   <li key={e.id}>
                     {formatDate(e.doneOn, { short: true })} · {CARE_TASK_LABELS[e.taskKind]}
-                    {e.surface ? ` (${e.surface})` : ""} · by {e.source}
+                    {e.surface ? ` (${SURFACE_LABELS[e.surface].toLowerCase()})` : ""} · {CARE_LOG_SOURCE_WORDS[e.source]}
                     {e.productUsed ? ` · ${e.productUsed}` : ""}
                   </li>
                 ))}
