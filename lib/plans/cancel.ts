@@ -14,7 +14,7 @@ import { z } from "zod";
 import { getDb } from "@/db/client";
 import { planInvoices, planRefunds, planSubscriptions, studios, users, type PlanSubscription } from "@/db/schema";
 import type { StudioActor } from "@/lib/auth/actor";
-import { conflict, notFound } from "@/lib/errors";
+import { conflict, isAppError, notFound } from "@/lib/errors";
 import { formatMoney } from "@/lib/format/money";
 import { callStripe } from "@/lib/payments/stripe";
 import { claimRefund, mailPlanEnding, payRefund, refundOf, refundQuote, type RefundQuote } from "./refund";
@@ -97,8 +97,16 @@ async function cancel(subId: string, ask: CancelAsk, by: PlanMover, now: Date): 
         throw e;
       }
     }
-    // 3. Pay the refund (idempotent on the claim) and mail the owner once it is all committed.
-    const paid = refund ? await payRefund(refund, sub) : null;
+    // 3. Pay the refund (idempotent on the claim) and mail the owner once it is all committed. The plan
+    // is cancelled at Stripe by now: if the refund can't be asked for, the cancellation stands and the
+    // claim stays owed for the scheduled pass (lib/plans/refund.ts finishRequestedPlanRefunds).
+    const paid = refund
+      ? await payRefund(refund, sub).catch((e: unknown) => {
+          if (!isAppError(e)) throw e;
+          console.error("plan cancel: the refund is left for the refund pass", e);
+          return refund;
+        })
+      : null;
     await mailPlanEnding(sub, quote, paid, "cancelled");
     return reread(sub.id);
   }).then(async (sub) => (sub.stripeSubscriptionId ? ((await syncPlanSubscription(sub.stripeSubscriptionId, undefined, sub)) ?? sub) : sub));

@@ -6,9 +6,9 @@
 // gives one end date and one amount; a monthly plan never has whole months left, so it never refunds.
 // The refund is claimed (a plan_refunds row) in the transaction that checks the plan's version, then
 // paid through Stripe with an idempotency key, audited, and mailed to the owner after commit.
-import { and, desc, eq, isNotNull } from "drizzle-orm";
+import { and, desc, eq, isNotNull, lt } from "drizzle-orm";
 import { getDb, type Db } from "@/db/client";
-import { planInvoices, planRefunds, type PlanRefund, type PlanSubscription, type PlanTemplate } from "@/db/schema";
+import { planInvoices, planRefunds, planSubscriptions, type PlanRefund, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanEndedEmail, planEndedSubject } from "@/emails/plan-ended";
 import { recordAudit } from "@/lib/audit";
 import { conflict } from "@/lib/errors";
@@ -217,4 +217,34 @@ export async function mailPlanEnding(sub: PlanSubscription, quote: RefundQuote, 
       email: PlanEndedEmail(props),
     });
   });
+}
+
+/**
+ * How long a claimed card refund waits before the scheduled pass asks Stripe for it: longer than a
+ * cancellation can still be asking (lib/payments/stripe.ts: 10 s timeout, 2 retries). Asking alongside
+ * would still pay once (the claim's idempotency key; the first answer written wins).
+ */
+export const REQUESTED_REFUND_WAIT_MS = 5 * 60_000;
+
+/**
+ * The scheduled pass (jobs/plan-transfers.ts): pays every card refund claimed on a cancellation that
+ * Stripe didn't take at the time (an outage): the cancellation stood, the refund stayed owed. A plan
+ * whose change of hands is unfinished is left to lib/plans/transfer.ts, which pays its refund itself.
+ */
+export async function finishRequestedPlanRefunds(now = new Date()): Promise<{ finished: string[]; failed: string[] }> {
+  const cutoff = new Date(now.getTime() - REQUESTED_REFUND_WAIT_MS);
+  const open = getDb().select().from(planRefunds).where(and(eq(planRefunds.status, "requested"), lt(planRefunds.createdAt, cutoff))).all();
+  const out = { finished: [] as string[], failed: [] as string[] };
+  for (const refund of open) {
+    const sub = getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, refund.subscriptionId)).get();
+    if (!sub || sub.transferStep) continue;
+    try {
+      await payRefund(refund, sub);
+      out.finished.push(refund.id);
+    } catch (e) {
+      console.error(`plan refund pass: ${refund.id} not paid yet`, e);
+      out.failed.push(refund.id);
+    }
+  }
+  return out;
 }

@@ -12,6 +12,7 @@ import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { releasePiece } from "@/lib/owner/transfer";
 import { cancelPlanAtPeriodEnd, keepStudioPlan, studioPlanDetail } from "@/lib/plans/cancel";
 import { resolveHeldPayment } from "@/lib/plans/held";
+import { finishRequestedPlanRefunds, refundOf } from "@/lib/plans/refund";
 import { createTemplate } from "@/lib/plans/templates";
 import { finishPlanTransfer } from "@/lib/plans/transfer";
 import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
@@ -264,5 +265,32 @@ describe("a plan's refund on cancelling", () => {
     const renewal = getDb().select().from(planInvoices).where(eq(planInvoices.id, held.invoiceId)).get()!;
     const pi = stripe.fake.invoices().find((i) => i.id === renewal.stripeInvoiceId)!.payments.data[0]!.payment.payment_intent;
     expect(stripe.fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded).toBe(q.refundMinor);
+  });
+});
+
+describe("a plan's refund when the payment service fails during the cancellation", () => {
+  it("the cancellation stands, the refund stays owed, and the scheduled pass pays it once", async () => {
+    const { admin, owner, piece } = await ownerWithPiece("refund-outage");
+    const plan = yearlyPlan(admin, { refundRule: "unused_share", transfers: false });
+    const sub = await buyPlan(stripe.fake, owner, piece.id, plan.id);
+    const { cancel } = studioPlanDetail(admin, sub.id);
+    stripe.fake.failNext("POST", "/v1/refunds");
+    const since = new Date();
+    const cancelled = await cancelPlanAtPeriodEnd(admin, sub.id, { version: cancel.version, refundMinor: cancel.quote!.refundMinor }).catch((e: unknown) => e);
+    expect(cancelled).toMatchObject({ state: "ending" });
+    expect(refundOf(sub.id)).toMatchObject({ status: "requested", amountMinor: cancel.quote!.refundMinor });
+    const pi = stripe.fake.invoices().find((i) => i.parent.subscription_details.subscription === sub.stripeSubscriptionId)!.payments.data[0]!.payment.payment_intent;
+    const refundedAtStripe = () => stripe.fake.charges().find((c) => c.payment_intent === pi)!.amount_refunded;
+    expect(refundedAtStripe()).toBe(0);
+    await waitForMail({ to: owner.email, subject: /./, since });
+    // Not yet: the pass leaves a claim alone for a few minutes.
+    expect((await finishRequestedPlanRefunds(new Date())).finished).not.toContain(refundOf(sub.id)!.id);
+    const later = new Date(Date.now() + 10 * 60_000);
+    expect((await finishRequestedPlanRefunds(later)).finished).toContain(refundOf(sub.id)!.id);
+    expect(refundOf(sub.id)).toMatchObject({ status: "refunded" });
+    expect(refundedAtStripe()).toBe(cancel.quote!.refundMinor);
+    await finishRequestedPlanRefunds(later);
+    expect(refundedAtStripe()).toBe(cancel.quote!.refundMinor);
+    expect(auditsOf(sub.id, "plan.refunded")).toHaveLength(1);
   });
 });
