@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { subjectMessages } from "@/lib/messages/store";
+import { ownerMayWrite, subjectMessages } from "@/lib/messages/store";
 import { clients, files, pieces, repairJobs, users, visits, type Claim } from "@/db/schema";
 import { ownerActor, type Actor } from "@/lib/auth/actor";
 import type { StudioContext } from "@/lib/auth/guards";
@@ -106,7 +106,9 @@ function ownerView(claim: Claim) {
     .get();
   const { repair, step } = ownerRepair(claim, ownerTimeZone(owner?.timeZone ?? "UTC", owner?.clientZone, studio.timeZone));
   const decisionWords = claim.decision ? ownerDecisionWords(claim.decision, step) : null;
-  return { view: "owner" as const, claim: { ...claimCore(claim), jobId: repair?.jobId ?? null, decisionWords }, repair, piece, studio: { name: studio.name }, photos: photosOf(claim.id), messages: messagesOf(claim.id) };
+  // Whether the owner still holds the piece: after a hand-over the claim is their history, read only (the writes' rule, lib/claims/claim-row.ts).
+  const mayWrite = ownerMayWrite(getDb(), claim.ownerId, { kind: "claim", id: claim.id });
+  return { view: "owner" as const, claim: { ...claimCore(claim), jobId: repair?.jobId ?? null, decisionWords }, repair, piece, studio: { name: studio.name, email: studio.email }, photos: photosOf(claim.id), messages: messagesOf(claim.id), mayWrite };
 }
 
 /** The claim as staff see it: all of the owner's view plus the piece record, care log and coverage check. */

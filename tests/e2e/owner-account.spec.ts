@@ -1,8 +1,9 @@
 // Owner pages found wanting on a walk through them as a customer: a refusal that outlived the mistake it
-// was about (the password form), the piece's four actions at 1280 px (the fourth alone on a row), and
-// signing out without a word that it happened. Invented data.
+// was about (the password form), the piece's four actions at 1280 px (the fourth alone on a row),
+// signing out without a word that it happened, and a handed-on piece's claim offering writes that are
+// refused. Invented data.
 import { expect, test } from "@playwright/test";
-import { ACCOUNTS, PASSWORD, signIn } from "./helpers";
+import { ACCOUNTS, fixture, PASSWORD, signIn } from "./helpers";
 
 test("changing the password: the server's refusal goes at the next press, also when the form's own checks stop that one", async ({ page }) => {
   await signIn(page, ACCOUNTS.otherOwner);
@@ -47,4 +48,37 @@ test("signing out says so where one signs in again", async ({ page }) => {
   await expect(page.getByText("You are signed out on this device.")).toBeVisible();
   await page.goto("/pieces");
   await expect(page).toHaveURL(/\/sign-in\?next=%2Fpieces/);
+});
+
+test("a claim on a piece its owner has handed on is theirs to read: no photo picker, no message box, and why", async ({ browser }) => {
+  const context = await browser.newContext({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
+  await context.setExtraHTTPHeaders({ "x-forwarded-for": "203.0.113.141" });
+  const page = await context.newPage();
+  await signIn(page, ACCOUNTS.otherOwner);
+  // A demo piece no other spec registers (owner.spec uses the first three, plans-held the last).
+  const card = fixture().unregistered[4]!;
+  expect((await page.request.post("/api/registrations", { data: { code: card.code } })).status()).toBe(201);
+  const created = await page.request.post("/api/claims", {
+    data: {
+      pieceId: card.pieceId,
+      category: "other",
+      noticedOn: new Date(Date.now() - 3 * 86_400_000).toISOString().slice(0, 10),
+      description: "A claim filed just before the piece was sold (e2e, invented).",
+      answers: { heat: "no", chemicals: "no", impact: "no", usedOutdoors: "no", directSun: "no" },
+    },
+  });
+  expect(created.status()).toBe(201);
+  const { claim } = (await created.json()) as { claim: { id: string } };
+  await page.goto(`/claims/${claim.id}`);
+  await expect(page.getByRole("button", { name: "Send message" })).toBeVisible();
+  await expect(page.getByRole("button", { name: /^Add photos \(/ })).toBeVisible();
+
+  expect((await page.request.post(`/api/me/pieces/${card.pieceId}/release`, { data: { confirm: true } })).status()).toBe(200);
+  await page.reload();
+  await expect(page.getByText("You handed this piece on")).toBeVisible();
+  await expect(page.getByText("A claim filed just before the piece was sold")).toBeVisible();
+  // Both were offered and answered 403 at every try.
+  await expect(page.getByRole("button", { name: "Send message" })).toHaveCount(0);
+  await expect(page.getByRole("button", { name: /^Add photos \(/ })).toHaveCount(0);
+  await context.close();
 });

@@ -46,7 +46,10 @@ describe("a former owner after the hand-over", () => {
     const jpeg = await photoJpeg();
     const claim = await fileClaim(w.ownerV, w.piece.id);
     const kept = await addClaimPhoto(w.ownerV, claim.id, async () => jpeg);
+    expect(getOwnerClaim(w.owner, claim.id).mayWrite).toBe(true);
     await releasePiece({ ...w.owner }, w.piece.id, { confirm: true });
+    // The claim's page reads this and offers no photo picker or message box (they answered 403 at every try).
+    expect(getOwnerClaim(w.owner, claim.id).mayWrite).toBe(false);
 
     let read = false;
     expect(await statusOf(addClaimPhoto(w.ownerV, claim.id, async () => ((read = true), jpeg)))).toBe(403);

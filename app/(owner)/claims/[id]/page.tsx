@@ -19,7 +19,7 @@ export const dynamic = "force-dynamic";
 export default async function OwnerClaimPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await forPage(requireUser);
-  const { claim, piece, studio, photos, messages, repair } = await forPage(async () => getOwnerClaim(user, id));
+  const { claim, piece, studio, photos, messages, repair, mayWrite } = await forPage(async () => getOwnerClaim(user, id));
   const open = OPEN_STATES.includes(claim.state);
   return (
     <div className="space-y-6">
@@ -37,7 +37,21 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
           </span>
         </div>
       </header>
-      {claim.state === "awaiting_owner" ? (
+      {!mayWrite ? (
+        // Handed on: the photo picker and the message box were offered and refused every try (403).
+        <Notice tone="info" title="You handed this piece on">
+          This claim stays here for you to read. Only the piece&apos;s owner adds photos or messages; to reach {studio.name} about it, write to them
+          {studio.email ? (
+            <>
+              {" at "}
+              <a className="break-all underline" href={`mailto:${studio.email}`}>
+                {studio.email}
+              </a>
+            </>
+          ) : null}
+          .
+        </Notice>
+      ) : claim.state === "awaiting_owner" ? (
         <Notice tone="warn" title="The studio needs your reply">
           Read their question below and answer with a message — add photos if they asked for them.
         </Notice>
@@ -72,14 +86,14 @@ export default async function OwnerClaimPage({ params }: { params: Promise<{ id:
         <PhotoGallery photos={photos} />
         {/* Kept while the claim is open, full or not: its button says when there is no room left, and why the last
             pick left photos out stays on screen (it went with the picker when the claim filled up). */}
-        {open ? <OwnerAddPhotos claimId={claim.id} existing={photos.length} /> : null}
+        {open && mayWrite ? <OwnerAddPhotos claimId={claim.id} existing={photos.length} /> : null}
       </section>
       <Card className="space-y-1">
         <h2 className="font-semibold">What you reported</h2>
         <p className="text-sm text-muted">Noticed {formatDate(claim.noticedOn)}</p>
         <p className="whitespace-pre-wrap">{claim.description}</p>
       </Card>
-      <MessageThread claimId={claim.id} messages={messages} audience="owner" studioName={studio.name} timeZone={user.timeZone} canWrite={claim.state !== "closed"} />
+      <MessageThread claimId={claim.id} messages={messages} audience="owner" studioName={studio.name} timeZone={user.timeZone} canWrite={mayWrite && claim.state !== "closed"} />
     </div>
   );
 }
