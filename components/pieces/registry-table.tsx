@@ -279,14 +279,18 @@ export function RegistryTable() {
               </li>
             ))}
           </ul>
-          <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-2">
+          {/* Previous, the page and Next share one row on a phone; the page size takes the next row there. */}
+          <nav aria-label="Pages" className="flex flex-wrap items-center gap-2">
             <Button variant="secondary" disabled={data.page <= 1} onClick={() => set({ page: String(data.page - 1) })}>
               <SpriteIcon name="chevron-left" className="size-4" /> Previous
             </Button>
-            <span className="text-sm text-muted">
+            <span className="flex-1 text-center text-sm text-muted sm:flex-none sm:px-2">
               Page {data.page} of {lastPage}
             </span>
-            <div className="flex items-center gap-2">
+            <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set({ page: String(data.page + 1) })}>
+              Next <SpriteIcon name="chevron-right" className="size-4" />
+            </Button>
+            <div className="w-full sm:ml-auto sm:w-auto">
               <label htmlFor="page-size" className="sr-only">
                 Rows per page
               </label>
@@ -297,9 +301,6 @@ export function RegistryTable() {
                   </option>
                 ))}
               </select>
-              <Button variant="secondary" disabled={data.page >= lastPage} onClick={() => set({ page: String(data.page + 1) })}>
-                Next <SpriteIcon name="chevron-right" className="size-4" />
-              </Button>
             </div>
           </nav>
         </>

@@ -2,7 +2,7 @@
 // was as wide as its longest option), the reminders board (the table's visually hidden "Actions" header
 // escaped its scrolling box), the technicians' weekly hours (three time fields and a button in fixed
 // columns). And the claims list, whose rows cut the piece's name and the photo count short with an
-// ellipsis. Each page is read as seeded; nothing here changes the demo studio's data.
+// ellipsis; the registry's pager, whose Next wrapped under Previous. Each page is read as seeded; nothing here changes the demo studio's data.
 import { expect, test, type Page } from "@playwright/test";
 import { ACCOUNTS, selectsCutShort, signIn } from "./helpers";
 
@@ -30,6 +30,13 @@ test("registry, reminders, working hours and audit fit a 375 px phone", async ({
   const card = page.getByRole("link", { name: /Annual clean and check · / }).first();
   const sizes = await Promise.all([card.getByText(/ · delivered /), card.getByText(/^Annual clean and check · /)].map((l) => l.evaluate((el) => getComputedStyle(el).fontSize)));
   expect(sizes[1]).toBe(sizes[0]);
+
+  // Previous, the page and Next share one row (Next had wrapped under Previous beside the page-size select).
+  await page.goto("/studio/pieces?pageSize=10");
+  const pager = page.getByRole("navigation", { name: "Pages" });
+  const tops = await Promise.all([pager.getByRole("button", { name: "Previous" }), pager.getByText(/^Page 1 of \d+$/), pager.getByRole("button", { name: "Next" })].map(async (l) => Math.round((await l.boundingBox())!.y + (await l.boundingBox())!.height / 2)));
+  expect(Math.max(...tops) - Math.min(...tops), "Previous, the page and Next on one row").toBeLessThanOrEqual(2);
+  await noSideways(page, "/studio/pieces?pageSize=10");
 
   // The species picker's hint reads whole in its field ('Type to search, e.g. walnut or Juglans' was cut to '…Juglar').
   await page.goto("/studio/pieces/new");
