@@ -92,8 +92,11 @@ export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name"
   return withPlanLock(`piece-checkout:${piece.id}`, () => startPlanCheckoutNow(user, piece.id, templateId));
 }
 
-/** Closes every open plan payment page of the piece at Stripe except `keep`'s; one completed meanwhile is synced. */
-async function closeOtherPlanCheckouts(pieceId: string, keep: string | undefined): Promise<void> {
+/**
+ * Closes every open plan payment page of the piece at Stripe except `keep`'s; one completed meanwhile is
+ * synced. A plan whose page is closed unpaid ends (it was never paid), so it isn't asked about again.
+ */
+async function closeOtherPlanCheckouts(pieceId: string, keep: string | undefined, by: PlanMover): Promise<void> {
   const open = getDb()
     .select()
     .from(planSubscriptions)
@@ -104,6 +107,12 @@ async function closeOtherPlanCheckouts(pieceId: string, keep: string | undefined
     const session = await expireCheckoutSession(sub.checkoutSessionId!, sub);
     const subscription = typeof session.subscription === "string" ? session.subscription : session.subscription?.id;
     if (session.status === "complete" && subscription) await syncPlanSubscription(subscription, undefined, sub);
+    else if (session.status === "expired") {
+      getDb().transaction((tx) => {
+        const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, sub.id)).get()!;
+        if (fresh.state === "awaiting_payment" && fresh.checkoutSessionId === session.id) moveSubscription(tx, fresh, "ended", { endedAt: new Date() }, by);
+      });
+    }
   }
 }
 
@@ -122,7 +131,7 @@ async function startPlanCheckoutNow(user: Pick<User, "id" | "email" | "name">, p
     .get();
   const live = waiting?.checkoutSessionId ? await callStripe("check the open payment page", (s) => s.checkout.sessions.retrieve(waiting.checkoutSessionId!), waiting) : null;
   const reuse = live?.status === "open" && live.url ? live.id : undefined;
-  await closeOtherPlanCheckouts(piece.id, reuse);
+  await closeOtherPlanCheckouts(piece.id, reuse, { actorId: user.id, source: "owner" });
   // A page closed just now may have been paid first, and started a plan.
   refuseIfCovered(piece.id);
   if (reuse) return { checkoutUrl: live!.url!, subscriptionId: waiting!.id };

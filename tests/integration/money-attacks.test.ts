@@ -116,6 +116,8 @@ describe("one piece, one plan", () => {
     expect(covering.map((s) => s.id)).toEqual([second.subscriptionId]);
     expect(invoicesOf(first.subscriptionId)).toEqual([]);
     expect(stripe.fake.subscriptions().filter((s) => s.metadata.planSubscriptionId === first.subscriptionId)).toEqual([]);
+    // The closed page's plan was never paid: it ended, and isn't asked about again.
+    expect(subRow(first.subscriptionId).state).toBe("ended");
   });
 
   it("a plan paid a moment ago whose webhook hasn't been written yet: starting another plan for the piece is refused, and one plan covers it", async () => {
