@@ -3,7 +3,7 @@
 // signing out without a word that it happened, and a handed-on piece's claim offering writes that are
 // refused. Invented data.
 import { expect, test } from "@playwright/test";
-import { ACCOUNTS, fixture, PASSWORD, signIn } from "./helpers";
+import { ACCOUNTS, fixture, PASSWORD, PORTS, signIn } from "./helpers";
 
 test("changing the password: the server's refusal goes at the next press, also when the form's own checks stop that one", async ({ page }) => {
   await signIn(page, ACCOUNTS.otherOwner);
@@ -80,5 +80,57 @@ test("a claim on a piece its owner has handed on is theirs to read: no photo pic
   // Both were offered and answered 403 at every try.
   await expect(page.getByRole("button", { name: "Send message" })).toHaveCount(0);
   await expect(page.getByRole("button", { name: /^Add photos \(/ })).toHaveCount(0);
+  await context.close();
+});
+
+test("a repair its owner paid for, then handed the piece on: a record with its receipt, no visit to book, no invitation to write", async ({ browser }) => {
+  test.setTimeout(120_000);
+  const context = await browser.newContext({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
+  await context.setExtraHTTPHeaders({ "x-forwarded-for": "203.0.113.142" });
+  const page = await context.newPage();
+  await signIn(page, ACCOUNTS.otherOwner);
+  // A demo piece no other spec registers; a claim on it, made chargeable, quoted, paid.
+  const card = fixture().unregistered[5]!;
+  expect((await page.request.post("/api/registrations", { data: { code: card.code } })).status()).toBe(201);
+  const filed = await page.request.post("/api/claims", {
+    data: {
+      pieceId: card.pieceId,
+      category: "other",
+      noticedOn: new Date(Date.now() - 3 * 86_400_000).toISOString().slice(0, 10),
+      description: "A scuff to be buffed out and paid for (e2e, invented).",
+      answers: { heat: "no", chemicals: "no", impact: "yes", usedOutdoors: "no", directSun: "no" },
+    },
+  });
+  expect(filed.status()).toBe(201);
+  const { claim } = (await filed.json()) as { claim: { id: string } };
+
+  const desk = await (await browser.newContext()).newPage();
+  await signIn(desk, ACCOUNTS.staff);
+  expect((await desk.request.post(`/api/claims/${claim.id}/state`, { data: { to: "in_review" } })).status()).toBe(200);
+  expect((await desk.request.post(`/api/claims/${claim.id}/decision`, { data: { decision: "chargeable", reason: "A knock is not covered (invented)." } })).status()).toBe(200);
+  const made = await desk.request.post("/api/jobs", { data: { from: "claim", id: claim.id } });
+  expect(made.status()).toBe(201);
+  const { job } = (await made.json()) as { job: { id: string } };
+  const quoted = await desk.request.patch(`/api/jobs/${job.id}`, { data: { title: "Buff out the scuff (e2e)", tasks: ["annual_check"], repairs: [], productIds: [], coats: 1, travel: true, coveredPct: 0, notes: "" } });
+  expect(quoted.status(), await quoted.text()).toBe(200);
+  expect((await desk.request.post(`/api/jobs/${job.id}/quote`)).status()).toBe(200);
+  await desk.context().close();
+
+  await page.goto(`/jobs/${job.id}`);
+  await page.getByRole("button", { name: "Approve and pay" }).click();
+  await expect(page).toHaveURL(new RegExp(`127\\.0\\.0\\.1:${PORTS.stripe}/pay/cs_test_`));
+  await page.getByLabel("Card number").fill("4242 4242 4242 4242");
+  await page.getByRole("button", { name: "Pay", exact: true }).click();
+  await expect(page.getByText("Paid — thank you")).toBeVisible();
+  await expect(page.getByRole("link", { name: "Book your visit" })).toBeVisible();
+
+  expect((await page.request.post(`/api/me/pieces/${card.pieceId}/release`, { data: { confirm: true } })).status()).toBe(200);
+  await page.goto(`/jobs/${job.id}`);
+  await expect(page.getByText("You handed this piece on")).toBeVisible();
+  await expect(page.getByRole("link", { name: "Download your receipt (PDF)" })).toBeVisible();
+  // Booking answered "not found" to them; the empty messages no longer invite a question they can't send.
+  await expect(page.getByRole("link", { name: "Book your visit" })).toHaveCount(0);
+  await expect(page.getByText("No visit booked yet")).toHaveCount(0);
+  await expect(page.getByText("Ask the studio anything")).toHaveCount(0);
   await context.close();
 });

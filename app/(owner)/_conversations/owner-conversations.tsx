@@ -30,7 +30,8 @@ export async function JobConversation({ jobId, studioName }: { jobId: string; st
       <h2 id="job-messages-heading" className="font-display text-xl font-semibold">
         Messages with {studioName}
       </h2>
-      <MessageList messages={shown(messages, user.timeZone, studioName)} empty="No messages yet. Ask the studio anything about this repair." />
+      {/* Without the form (a former owner's record), the empty list doesn't invite them to ask. */}
+      <MessageList messages={shown(messages, user.timeZone, studioName)} empty={canWrite ? "No messages yet. Ask the studio anything about this repair." : "No messages."} />
       {canWrite ? <MessageForm endpoint={`/api/threads?about=job&id=${encodeURIComponent(jobId)}`} label={`Message to ${studioName}`} sentText={`Message sent to ${studioName}.`} /> : null}
       {canWrite ? <p className="text-sm text-muted">You can also answer the studio&apos;s e-mails by replying to them.</p> : null}
     </section>

@@ -18,6 +18,7 @@ import { visitOfJob } from "@/lib/visits/job-visit";
 import { VisitPhotoGrid } from "@/components/visits/visit-photo-grid";
 import Link from "next/link";
 import { ownerActor } from "@/lib/auth/actor";
+import { ownerActsOnJob } from "@/lib/repairs/owner-reach";
 
 export const metadata: Metadata = { title: "Repair" };
 
@@ -33,6 +34,8 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   // Money the studio gave back on a job that stays as it is, each with its reason (lib/repairs/refunds.ts).
   const givenBack = refundsOfJob(job);
   const { visit } = visitOfJob(ownerActor(user), id);
+  // A former owner's paid repair is their record only (lib/repairs/owner-reach.ts): booking answered "not found".
+  const acts = ownerActsOnJob(job, piece);
   const paid = payments.some(paymentCounts);
   // Every payment given back, whoever started it: the product's own refunds and the studio's when it cancels a paid job.
   const refunded = payments.flatMap((p) => (p.refundReason !== null ? [{ ...p, reason: p.refundReason }] : []));
@@ -70,8 +73,13 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
         {query.checkout === "cancelled" && job.state === "approved" ? (
           <Notice tone="warn" title="Payment not completed">Your card was not charged. You can try again, with the same card or another one.</Notice>
         ) : null}
-        {job.state === "covered" ? <Notice tone="ok" title={coverWords(job, planName).yours}>There is nothing to pay. You can book your visit below.</Notice> : null}
-        {job.state === "paid" || job.state === "covered" || job.state === "scheduled" || visit?.state === "done" ? (
+        {!acts ? (
+          <Notice tone="info" title="You handed this piece on">
+            This repair and its receipt stay here for you. Its visits are for the piece&apos;s new owner to book.
+          </Notice>
+        ) : null}
+        {acts && job.state === "covered" ? <Notice tone="ok" title={coverWords(job, planName).yours}>There is nothing to pay. You can book your visit below.</Notice> : null}
+        {acts && (job.state === "paid" || job.state === "covered" || job.state === "scheduled" || visit?.state === "done") ? (
           <Card className="space-y-3">
             <h2 className="font-semibold">Your visit</h2>
             {visit && visit.state !== "cancelled" ? (
