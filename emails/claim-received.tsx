@@ -51,7 +51,7 @@ ClaimReceivedEmail.PreviewProps = {
   studioName: "Larchmere Slab & Resin",
   pieceTitle: "Cherry writing desk",
   categoryLabel: "Crack or gap",
-  noticedOn: "2026-02-02",
+  noticedOn: "2 February 2026",
   description: "A hairline crack opened along the left edge over the winter.",
   url: "https://grainward.example/claims/example",
 } satisfies ClaimReceivedEmailProps;

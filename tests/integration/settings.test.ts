@@ -162,6 +162,8 @@ describe("e-mail previews", () => {
       expect(p.html, t.slug).toMatch(/<html/i);
       expect(p.html, t.slug).not.toMatch(/<script/i);
       expect(p.text.length, t.slug).toBeGreaterThan(40);
+      // A date reads as the real mail writes it (lib/format), never as a stored "2026-02-02" (links aside).
+      expect(p.text.replace(/https?:\/\/\S+/g, ""), t.slug).not.toMatch(/\b\d{4}-\d{2}-\d{2}\b/);
     }
     // Every template with example values (emails/*.tsx, PreviewProps) can be previewed, under its file's name.
     const withExamples = fs.readdirSync(path.join(process.cwd(), "emails")).filter((f) => f.endsWith(".tsx") && fs.readFileSync(path.join(process.cwd(), "emails", f), "utf8").includes(".PreviewProps =")).map((f) => f.replace(/\.tsx$/, ""));
