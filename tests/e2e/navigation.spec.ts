@@ -146,3 +146,17 @@ for (const width of [1280, 375]) {
     });
   }
 }
+
+test("studio pages: the first Tab shows 'Skip to the page', and Enter takes the keyboard past the header", async ({ page }) => {
+  await page.setViewportSize({ width: 1280, height: 900 });
+  await signInTo(page, ACCOUNTS.staff, "/studio/claims");
+  await page.keyboard.press("Tab");
+  const skip = page.getByRole("link", { name: "Skip to the page" });
+  await expect(skip).toBeFocused();
+  await expect(skip).toBeInViewport();
+  await page.keyboard.press("Enter");
+  await expect(page.locator("main")).toBeFocused();
+  // The next Tab lands in the page, not on the header's first link.
+  await page.keyboard.press("Tab");
+  expect(await page.evaluate(() => Boolean(document.activeElement?.closest("main")))).toBe(true);
+});
