@@ -54,7 +54,9 @@ export function JobRefundForm({ jobId, version, refundableMinor, currency, expon
           <p id="refund-confirm-title" className="font-semibold">
             Give back {money(asking)}{asking === refundableMinor ? " (all that is left)" : ""}?
           </p>
-          <p className="text-sm">It goes back to the card the owner paid with, and they get an e-mail with your reason: “{reason.trim()}”.</p>
+          <p className="text-sm">It goes back to the card the owner paid with, and they get an e-mail with your reason:</p>
+          {/* The reason on a line of its own, so its own full stop isn't followed by a second one. */}
+          <p className="break-words text-sm text-muted">“{reason.trim()}”</p>
           <div className="flex flex-wrap gap-2">
             <Button disabled={busy} onClick={() => run(asking)}>
               {busy ? "Giving back…" : `Give back ${money(asking)}`}

@@ -36,6 +36,8 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   await expect(giveBack.getByRole("alert")).toHaveText("Say why the money is given back: the owner reads it.");
   await giveBack.getByLabel("Reason (the owner reads it)").fill("The wax was applied to the top only, not the legs.");
   await giveBack.getByRole("button", { name: "Give money back…" }).click();
+  // The confirmation quotes the reason as typed, its own full stop the last mark ('… legs.”.' before).
+  await expect(giveBack.getByText("“The wax was applied to the top only, not the legs.”", { exact: true })).toBeVisible();
   await giveBack.getByRole("button", { name: "Give back $10.00" }).click();
   await expect(desk.getByText("$10.00 is on its way back to the owner's card.")).toBeVisible();
   await expect(giveBack.getByRole("listitem").first()).toContainText(/\d{4}(,| at) \d{2}:\d{2} [A-Z]{3,4}\s*The wax was applied to the top only, not the legs\.\s*\$10\.00/);
