@@ -4,7 +4,7 @@ import { redirect } from "next/navigation";
 import { endCurrentSession } from "@/lib/auth/session";
 import { action } from "@/lib/http/action";
 
-/** Anyone may post it: signed out already, it just goes home. Signed out, the sign-in page says so (on a shared computer, that is what one checks for). */
+/** Anyone may post it, signed in or not: it lands on the sign-in page saying the device is signed out (on a shared computer, that is what one checks for). */
 export const signOutAction = action({ refused: "/" }, async () => {
   await endCurrentSession();
   redirect("/sign-in?signed-out=1");

@@ -96,14 +96,14 @@ describe("token forms work signed out; the token is the authority", () => {
 });
 
 describe("sign-out", () => {
-  it("ends this session (its row is gone, the cookie blanked) and goes home; signed out already, it just goes home", async () => {
+  it("ends this session (its row is gone, the cookie blanked) and lands on the sign-in page that says so; signed out already, the same", async () => {
     const { signOutAction } = await import("@/app/actions/session");
     const user = await createUser();
     const sessionId = await signIn(user.id);
-    expect(await redirectOf(signOutAction(form({})))).toBe("/");
+    expect(await redirectOf(signOutAction(form({})))).toBe("/sign-in?signed-out=1");
     expect(getDb().select().from(sessions).where(eq(sessions.id, sessionId)).get()).toBeUndefined();
     expect(jar.has(SESSION_COOKIE)).toBe(false);
-    expect(await redirectOf(signOutAction(form({})))).toBe("/");
+    expect(await redirectOf(signOutAction(form({})))).toBe("/sign-in?signed-out=1");
   });
 });
 
