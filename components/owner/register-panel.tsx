@@ -43,7 +43,8 @@ export function RegisterPanel({ piece, heading: Heading, detail, here, user, sta
             {state.note}
           </Notice>
           <ButtonLink href={`/pieces/${state.pieceId}`} className="w-full">
-            Open its care plan
+            {/* Not "its care plan": a care plan is something the owner buys (components/plans). */}
+            Open the piece
             <SpriteIcon name="arrow-right" className="size-4" />
           </ButtonLink>
         </div>

@@ -1,7 +1,7 @@
 // Owner pages found wanting on a walk through them as a customer: a refusal that outlived the mistake it
 // was about (the password form), the piece's four actions at 1280 px (the fourth alone on a row),
-// signing out without a word that it happened, and a handed-on piece's claim offering writes that are
-// refused. Invented data.
+// signing out without a word that it happened, a handed-on piece's claim and repair offering writes that
+// are refused, and a card of one's own piece sending one to "its care plan". Invented data.
 import { expect, test } from "@playwright/test";
 import { ACCOUNTS, fixture, PASSWORD, PORTS, signIn } from "./helpers";
 
@@ -132,5 +132,20 @@ test("a repair its owner paid for, then handed the piece on: a record with its r
   await expect(page.getByRole("link", { name: "Book your visit" })).toHaveCount(0);
   await expect(page.getByText("No visit booked yet")).toHaveCount(0);
   await expect(page.getByText("Ask the studio anything")).toHaveCount(0);
+  await context.close();
+});
+
+test("scanning the card of a piece already on one's account opens the piece, in words that don't promise a care plan", async ({ browser }) => {
+  const context = await browser.newContext({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
+  await context.setExtraHTTPHeaders({ "x-forwarded-for": "203.0.113.143" });
+  const page = await context.newPage();
+  await signIn(page, ACCOUNTS.otherOwner);
+  const card = fixture().unregistered[3]!;
+  expect((await page.request.post("/api/registrations", { data: { code: card.code } })).status()).toBe(201);
+  await page.goto(`/r/${encodeURIComponent(card.code)}`);
+  await expect(page.getByText("It is already registered to your account.")).toBeVisible();
+  await expect(page.getByText(/care plan/i)).toHaveCount(0);
+  await page.getByRole("link", { name: "Open the piece" }).click();
+  await expect(page).toHaveURL(new RegExp(`/pieces/${card.pieceId}$`));
   await context.close();
 });
