@@ -696,7 +696,7 @@ const ACTIONS: ActionRow[] = [
   },
 
   // Last: signing out ends each of this spec's sessions (checked with /api/me afterwards).
-  { action: "app/actions/session.ts#signOutAction", expect: "→/ ".repeat(8), args: () => ({ json: [] }), last: true },
+  { action: "app/actions/session.ts#signOutAction", expect: "→/sign-in ".repeat(8), args: () => ({ json: [] }), last: true },
 ];
 
 const SIGNED_IN_AREAS = ["/studio", "/pieces", "/account"]; // proxy.ts
