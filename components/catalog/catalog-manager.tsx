@@ -16,7 +16,7 @@ import { SpriteIcon } from "@/components/ui/sprite-icon";
 import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, type FinishClass } from "@/lib/care/vocabulary";
-import { currencyDigits, formatMoney } from "@/lib/format";
+import { currencyDigits, formatCoverage, formatMoney, formatVolume, type UnitSystem } from "@/lib/format";
 import type { CatalogProductInput } from "@/lib/validation/pieces";
 
 export type CatalogRow = {
@@ -64,7 +64,7 @@ function MoneyField({ label, currency, value, onChange, error, ref }: { label: s
   );
 }
 
-function ProductForm({ product, currency, onDone }: { product?: CatalogRow; currency: string; onDone: () => void }) {
+function ProductForm({ product, currency, units, onDone }: { product?: CatalogRow; currency: string; units: UnitSystem; onDone: () => void }) {
   const router = useRouter();
   const { form, onSubmit, formError } = useActionForm({
     schema: () => import("@/lib/validation/pieces").then((m) => m.catalogProductSchema),
@@ -108,7 +108,11 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
             </option>
           ))}
         </SelectField>
-        <TextField label="Coverage per coat (m²/L)" inputMode="decimal" {...register("coverageM2PerL", { setValueAs: numberOrNull })} error={e.coverageM2PerL?.message} />
+        <TextField
+          label="Coverage per coat (m²/L)"
+          hint={units === "imperial" ? "A label in ft² per US gallon: divide by 40.7 (400 ft²/US gal is 9.8 m²/L)." : undefined}
+          inputMode="decimal"
+          {...register("coverageM2PerL", { setValueAs: numberOrNull })} error={e.coverageM2PerL?.message} />
       </div>
       <fieldset className="space-y-2">
         <legend className="text-sm font-semibold">Wear intervals, months</legend>
@@ -157,7 +161,7 @@ function ProductForm({ product, currency, onDone }: { product?: CatalogRow; curr
   );
 }
 
-export function CatalogManager({ products, currency, country }: { products: CatalogRow[]; currency: string; country: string }) {
+export function CatalogManager({ products, currency, country, units }: { products: CatalogRow[]; currency: string; country: string; units: UnitSystem }) {
   const [editing, setEditing] = useState<string | "new" | null>(null);
   const [confirm, setConfirm] = useState<string | null>(null);
   const archive = useRefreshingMutation(
@@ -178,7 +182,7 @@ export function CatalogManager({ products, currency, country }: { products: Cata
   return (
     <div className="space-y-4">
       {editing === "new" ? (
-        <ProductForm currency={currency} onDone={() => setEditing(null)} />
+        <ProductForm currency={currency} units={units} onDone={() => setEditing(null)} />
       ) : (
         <Button onClick={() => setEditing("new")}>
           <SpriteIcon name="plus" className="size-4" /> New finish product
@@ -189,7 +193,7 @@ export function CatalogManager({ products, currency, country }: { products: Cata
         {products.map((p) => (
           <li key={p.id} className="rounded-xl border border-line bg-card p-4">
             {editing === p.id ? (
-              <ProductForm product={p} currency={currency} onDone={() => setEditing(null)} />
+              <ProductForm product={p} currency={currency} units={units} onDone={() => setEditing(null)} />
             ) : (
               <div className="flex flex-wrap items-start justify-between gap-3">
                 <div className="min-w-0 space-y-1">
@@ -202,13 +206,13 @@ export function CatalogManager({ products, currency, country }: { products: Cata
                     ) : null}
                   </p>
                   <p className="text-sm text-muted">
-                    {FINISH_CLASS_LABELS[p.finishClass]} · {p.coverageM2PerL} m²/L per coat
+                    {FINISH_CLASS_LABELS[p.finishClass]} · {formatCoverage(p.coverageM2PerL, units)} per coat
                   </p>
                   <p className="text-sm">
                     Wear intervals (heavy / moderate / light): {months(p.intervalHeavyMonths, p.defaults.heavy)} / {months(p.intervalModerateMonths, p.defaults.moderate)} / {months(p.intervalLightMonths, p.defaults.light)} months
                     {p.intervalHeavyMonths ?? p.intervalModerateMonths ?? p.intervalLightMonths ? <span className="text-muted"> (bold: the studio&apos;s own)</span> : <span className="text-muted"> (defaults)</span>}
                   </p>
-                  <p className="text-sm">{p.containers.length ? p.containers.map((c) => `${c.ml} mL at ${formatMoney(c.priceMinor, currency, country)}`).join(" · ") : <span className="text-muted">No container sizes</span>}</p>
+                  <p className="text-sm">{p.containers.length ? p.containers.map((c) => `${formatVolume(c.ml, units)} at ${formatMoney(c.priceMinor, currency, country)}`).join(" · ") : <span className="text-muted">No container sizes</span>}</p>
                   <p className="text-sm">
                     Cure: {p.cureLightUseHours ?? p.cureDefaults.lightUseHours} hours to light use, {p.cureFullDays ?? p.cureDefaults.fullCureDays} days to full use
                     <span className="text-muted">{p.cureLightUseHours != null || p.cureFullDays != null ? " (from the label)" : " (usual for the class)"}</span>

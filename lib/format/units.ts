@@ -77,6 +77,16 @@ export function formatVolume(exactMl: number, units: UnitSystem): string {
   return `${displayFlOz(exactMl)} US fl oz (${ml} mL)`;
 }
 
+/**
+ * A finish's coverage per coat, stored in m²/L: as metric data sheets print it, or in ft² per US gallon
+ * (as US labels print it) with m²/L in brackets: "7,579 ft²/US gal (186 m²/L)".
+ */
+export function formatCoverage(m2PerL: number, units: UnitSystem): string {
+  const metric = `${oneDecimal(m2PerL)} m²/L`;
+  if (units === "metric") return metric;
+  return `${grouped(Math.round((m2PerL / M2_PER_FT2) * L_PER_US_GALLON))} ft²/US gal (${metric})`;
+}
+
 /** A large volume (resin pours) for staff records: litres or US gallons, the other in brackets. */
 export function formatLargeVolume(ml: number | null | undefined, units: UnitSystem): string {
   if (ml == null) return "—";

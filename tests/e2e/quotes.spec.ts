@@ -120,3 +120,14 @@ test("admins read the repair price list, rounding and tax settings", async ({ pa
   const axe = await new AxeBuilder({ page }).analyze();
   expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
 });
+
+test("the finish catalog of a studio in inches reads coverage and containers as US labels print them, metric beside", async ({ page }) => {
+  await signInTo(page, ACCOUNTS.admin, "/studio/catalog");
+  const topcoat = page.getByText(/^Ceramic-type topcoat over oil · /).first();
+  // 186 m²/L × 40.745853 ft²/US gal per m²/L = 7,579 (tests/reference/nist-units-area.test.ts).
+  await expect(topcoat).toHaveText("Ceramic-type topcoat over oil · 7,579 ft²/US gal (186 m²/L) per coat");
+  await expect(page.getByText(/^1\.7 US fl oz \(50 mL\) at \$34\.00 · /)).toBeVisible();
+  await expect(page.getByText(/\b\d+ mL at /)).toHaveCount(0);
+  await page.getByRole("button", { name: "New finish product" }).click();
+  await expect(page.getByText("A label in ft² per US gallon: divide by 40.7 (400 ft²/US gal is 9.8 m²/L).")).toBeVisible();
+});

@@ -49,3 +49,14 @@ describe("top areas against closed forms", () => {
     expect(topArea({ kind: "oval", lengthMm: 2000, widthMm: 1000 }).m2).toBeCloseTo(1.570796, 6);
   });
 });
+
+// Coverage per coat as a US label prints it (lib/format formatCoverage), from the same exact definitions:
+// 1 m²/L = (1 / 0.09290304) ft² per (1 / 3.785411784) US gal = 40.745853… ft²/US gal, worked by hand.
+describe("coverage per coat in ft² per US gallon (NIST HB 44 App. C / NIST SP 811 App. B)", () => {
+  it("186 m²/L = 7,578.73 ft²/US gal → '7,579 ft²/US gal (186 m²/L)'; metric studios read m²/L alone", async () => {
+    const { formatCoverage } = await import("@/lib/format");
+    expect(formatCoverage(186, "imperial")).toBe("7,579 ft²/US gal (186 m²/L)");
+    expect(formatCoverage(9.8, "imperial")).toBe("399 ft²/US gal (9.8 m²/L)"); // 9.8 × 40.745853 = 399.31
+    expect(formatCoverage(150, "metric")).toBe("150 m²/L");
+  });
+});

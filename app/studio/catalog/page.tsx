@@ -13,7 +13,7 @@ export default async function CatalogPage() {
   return (
     <>
       <PageHeader title="Finish catalog" lead="The finish products the studio uses: coverage, containers, prices and how long each lasts by use. The care schedules follow these intervals." />
-      <CatalogManager products={products} currency={ctx.studio.currency} country={ctx.studio.country} />
+      <CatalogManager products={products} currency={ctx.studio.currency} country={ctx.studio.country} units={ctx.studio.unitSystem} />
     </>
   );
 }
