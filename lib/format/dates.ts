@@ -195,14 +195,33 @@ export function formatTimeLeft(days: number): string {
   return parts.join(" ");
 }
 
+/** Places the runtime still lists under an old name (IANA keeps the old ids as links), as they are called now. */
+const PLACE_NOW: Record<string, string> = {
+  Kiev: "Kyiv",
+  Calcutta: "Kolkata",
+  Saigon: "Ho Chi Minh City",
+  Rangoon: "Yangon",
+  Katmandu: "Kathmandu",
+  Godthab: "Nuuk",
+  Asmera: "Asmara",
+  Truk: "Chuuk",
+  Ponape: "Pohnpei",
+  Enderbury: "Kanton",
+  Faeroe: "Faroe Islands",
+  DumontDUrville: "Dumont d’Urville",
+};
+
 /**
  * A zone as people say it: its generic name from CLDR and the place the IANA name is after,
  * "Pacific Time, Los Angeles", "Central European Time, Berlin"; "UTC" for UTC itself.
  */
 export function formatZone(timeZone: string): string {
   if (timeZone === "UTC" || timeZone === "Etc/UTC") return "UTC";
-  const generic = dtf({ timeZone, timeZoneName: "longGeneric" }).formatToParts(0).find((p) => p.type === "timeZoneName")?.value;
-  const place = timeZone.split("/").pop()!.replace(/_/g, " ");
+  // The name the zone has now: read at 1970 (formatToParts(0)) Kyiv, Riga, Vilnius and Tallinn were
+  // "Moscow Time", Lisbon "Central European Time" and Istanbul "Eastern European Time".
+  const generic = dtf({ timeZone, timeZoneName: "longGeneric" }).formatToParts(Date.now()).find((p) => p.type === "timeZoneName")?.value;
+  const last = timeZone.split("/").pop()!;
+  const place = PLACE_NOW[last] ?? last.replace(/_/g, " ");
   return generic && !generic.startsWith("GMT") ? `${generic.replace(/ Standard Time$/, " Time")}, ${place}` : place;
 }
 
