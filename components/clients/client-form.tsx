@@ -1,6 +1,8 @@
 "use client";
 
 import { useQueryClient } from "@tanstack/react-query";
+import Link from "next/link";
+import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
 import { apiJson, isApiError } from "@/components/api-client";
@@ -34,6 +36,8 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
     },
   });
   const errors = form.formState.errors;
+  // The client who already has the e-mail typed, when the server says so: one tap opens their record.
+  const [holder, setHolder] = useState<{ id: string; name: string } | null>(null);
   // A change sends only the fields touched and stays on the page; a new client opens its own page.
   const { run, busy } = useRefreshingMutation(
     async ({ values, changed }: { values: ClientFormInput; changed: Partial<ClientFormInput> }) =>
@@ -49,6 +53,8 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
       },
       goTo: ({ createdId }) => (createdId ? `/studio/clients/${createdId}` : null),
       onError: (words, e) => {
+        const other = isApiError(e) ? (e.body.client as { id?: unknown; name?: unknown } | undefined) : undefined;
+        setHolder(other && typeof other.id === "string" && typeof other.name === "string" ? { id: other.id, name: other.name } : null);
         let placed = false;
         for (const [field, messages] of Object.entries(isApiError(e) ? e.fieldErrors : {})) {
           if ((FIELDS as readonly string[]).includes(field) && messages[0]) {
@@ -70,7 +76,14 @@ export function ClientForm({ client, studioZone, zones }: { client?: ClientDetai
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label={client ? "Contact details" : "New client"}>
       <div className="grid gap-4 md:grid-cols-2">
         <TextField label="Name" autoComplete="off" error={errors.name?.message} {...form.register("name")} />
-        <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...form.register("email")} />
+        <div className="space-y-1">
+          <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...form.register("email")} />
+          {holder && errors.email ? (
+            <Link href={`/studio/clients/${holder.id}`} className="inline-flex min-h-11 items-center text-sm font-medium text-resin underline">
+              Open {holder.name}&apos;s record
+            </Link>
+          ) : null}
+        </div>
         <TextField label="Phone" type="tel" autoComplete="off" hint="Without a + country code, read as a number of the studio's country." error={errors.phone?.message} {...form.register("phone")} />
         <SelectField label="Preferred contact" error={errors.preferredContact?.message} {...form.register("preferredContact")}>
           {CONTACT_METHODS.map((m) => (

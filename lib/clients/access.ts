@@ -21,8 +21,8 @@ export function loadClient(ctx: StudioContext, clientId: string, db: DbOrTx = ge
   return row;
 }
 
-/** A stored e-mail is unique per studio: this one's taken by another client of the studio. */
-export function emailTaken(studioId: string, email: string, exceptId: string | null, db: DbOrTx = getDb()): boolean {
-  const row = db.select({ id: clients.id }).from(clients).where(and(eq(clients.studioId, studioId), eq(clients.email, email))).get();
-  return !!row && row.id !== exceptId;
+/** A stored e-mail is unique per studio: the other client of the studio who has this one, or null. */
+export function emailTaken(studioId: string, email: string, exceptId: string | null, db: DbOrTx = getDb()): { id: string; name: string } | null {
+  const row = db.select({ id: clients.id, name: clients.name }).from(clients).where(and(eq(clients.studioId, studioId), eq(clients.email, email))).get();
+  return row && row.id !== exceptId ? row : null;
 }

@@ -12,7 +12,8 @@ import { applyConsentChanges } from "./consent";
 import { toE164 } from "./phone";
 
 const EMAIL_TAKEN = "Another client of this studio has that e-mail address.";
-export const emailTakenError = () => conflict(EMAIL_TAKEN, { fieldErrors: { email: [EMAIL_TAKEN] } });
+/** The form names the client who has the address and links to them (`extra.client`), so the desk opens that record. */
+export const emailTakenError = (other: { id: string; name: string }) => conflict(EMAIL_TAKEN, { fieldErrors: { email: [EMAIL_TAKEN] }, extra: { client: other } });
 
 /**
  * A new client of the caller's studio. When a confirmed account has the same e-mail and no client
@@ -26,7 +27,8 @@ export function createClient(ctx: StudioContext, values: CreateClientValues, now
 export function insertClient(ctx: StudioContext, tx: DbOrTx, values: CreateClientValues, now = new Date()): Client {
   const phone = toE164(values.phone, ctx.studio.country);
   const email = values.email || null;
-  if (email && emailTaken(ctx.studio.id, email, null, tx)) throw emailTakenError();
+  const holder = email ? emailTaken(ctx.studio.id, email, null, tx) : null;
+  if (holder) throw emailTakenError(holder);
   const account = email
     ? tx
         .select({ id: users.id })

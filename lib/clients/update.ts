@@ -24,7 +24,8 @@ export function updateClient(ctx: StudioContext, clientId: string, patch: Client
     if (patch.timeZone !== undefined) set.timeZone = patch.timeZone || null;
     if (patch.notes !== undefined) set.notes = patch.notes;
     const changed = (Object.keys(set) as (keyof Client)[]).filter((k) => set[k] !== current[k]);
-    if (set.email && changed.includes("email") && emailTaken(ctx.studio.id, set.email, current.id, tx)) throw emailTakenError();
+    const holder = set.email && changed.includes("email") ? emailTaken(ctx.studio.id, set.email, current.id, tx) : null;
+    if (holder) throw emailTakenError(holder);
     if (changed.length) tx.update(clients).set({ ...set, updatedAt: now }).where(eq(clients.id, current.id)).run();
     const consent = applyConsentChanges(tx, current, patch.consent, { userId: ctx.user.id, timeZone: ctx.studio.timeZone, now });
     if (changed.length || consent.length) {

@@ -253,4 +253,14 @@ test("a client added at the desk: their page leads to recording a piece with the
   // An id of no client of this studio picks nobody: the form opens as for any new piece.
   await page.goto("/studio/pieces/new?client=00000000-0000-4000-8000-000000000000");
   await expect(page.getByRole("radio", { name: /Not recorded yet/ })).toBeChecked();
+
+  // The same address typed again for a "new" client: refused on the field, with the client who has it one tap away.
+  await page.goto("/studio/clients/new");
+  await page.getByLabel("Name").fill(`Ilse ${word} again (invented)`);
+  await page.getByLabel("E-mail").fill(`${word.toLowerCase()}@desk.example`);
+  await page.getByRole("button", { name: "Add client" }).click();
+  await expect(page.getByText("Another client of this studio has that e-mail address.")).toBeVisible();
+  await expect(page.getByLabel("Name")).toHaveValue(`Ilse ${word} again (invented)`);
+  await page.getByRole("link", { name: `Open ${name}'s record` }).click();
+  await expect(page.getByRole("heading", { name, level: 1 })).toBeVisible();
 });
