@@ -13,6 +13,7 @@ import { notFound } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { newRegistrationCode } from "@/lib/pieces/registration";
 import { planFollowsTransfer } from "@/lib/plans/transfer";
+import { closeHandedOnCheckouts, jobsBackToStudio } from "@/lib/repairs/handed-on";
 import type { ReleaseValues } from "@/lib/validation/owner";
 import { formatDate } from "@/lib/format";
 import { getMyPiece } from "./pieces";
@@ -30,7 +31,7 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
   const before = getMyPiece(user, pieceId, now);
   const fresh = newRegistrationCode();
   const db = getDb();
-  const studio = db.transaction((tx) => {
+  const { studio, jobsSetBack } = db.transaction((tx) => {
     const released = tx
       .update(pieces)
       .set({ ownerId: null, clientId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
@@ -42,8 +43,12 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
     tx.update(ownerships).set({ endedAt: now }).where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.userId, user.id), isNull(ownerships.endedAt))).run();
     recordAudit(tx, { studioId, actorId: user.id, action: "piece.released", subjectType: "piece", subjectId: pieceId, data: {} });
     indexPiece(tx, pieceId);
-    return tx.select().from(studios).where(eq(studios.id, studioId)).get()!;
+    // Repair jobs waiting for this owner's payment go back to the studio (lib/repairs/handed-on.ts).
+    const jobsSetBack = jobsBackToStudio(tx, { id: pieceId, studioId }, user.id);
+    return { studio: tx.select().from(studios).where(eq(studios.id, studioId)).get()!, jobsSetBack };
   });
+  // Their payment pages close at Stripe; this never fails the release (checkout.ts refunds a late payment).
+  await closeHandedOnCheckouts(jobsSetBack);
   await planFollowsTransfer(pieceId, user.id, now); // the piece's care plan moves or ends by the studio's setting (lib/plans/transfer.ts)
 
   const transferring = before.warranty.lines.filter((l) => l.transfersToNewOwner && l.status !== "not_transferred").map((l) => l.label);

@@ -28,8 +28,9 @@ function refundReasonFor(job: RepairJob, payment: Payment, session: Stripe.Check
     session.currency?.toUpperCase() === job.currency.toUpperCase();
   if (!current) return "older_quote";
   if (others.some(paymentCounts)) return "already_paid";
-  if (job.state !== AWAITING_PAYMENT) return "not_awaiting_payment";
+  // Before the state: a hand-over also takes the job out of awaiting payment (lib/repairs/handed-on.ts), and is the reason the payer is told.
   if (!ownerActsOnJob(job, { ownerId: holderId })) return "piece_handed_on";
+  if (job.state !== AWAITING_PAYMENT) return "not_awaiting_payment";
   return null;
 }
 

@@ -2,7 +2,7 @@ import "server-only";
 import { and, eq, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { payments, repairJobs, stripeEvents, type RepairJob } from "@/db/schema";
+import { payments, repairJobs, stripeEvents, users, type RepairJob } from "@/db/schema";
 import { JobQuoteEmail } from "@/emails/job-quote";
 import { recordAudit } from "@/lib/audit";
 import { isStudioActor, type Actor } from "@/lib/auth/actor";
@@ -15,6 +15,7 @@ import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { applyRefund, applySession, closeOpenCheckouts, settleRefunds } from "./checkout";
 import { getOwnerJob, getStudioJob, moveJob } from "./jobs";
+import { jobHandedOn } from "./handed-on";
 import { jobUrl, quoteFigures } from "./mail";
 import { checkoutLineItems } from "./figures";
 import { priceJob, totals, unsizedWords } from "./pricing";
@@ -62,22 +63,25 @@ export async function sendQuote(ctx: StudioContext, jobId: string): Promise<Repa
   await closeOpenCheckouts(jobId);
   const view = getStudioJob(ctx, jobId);
   const { job } = view;
-  if (!view.owner) throw conflict("This piece has no registered owner to send the quote to.");
+  // A job set back because its piece changed hands (lib/repairs/handed-on.ts) goes to whoever holds the piece now.
+  const handedOn = jobHandedOn(job, view.piece);
+  const owner = handedOn ? (view.piece.ownerId ? (getDb().select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, view.piece.ownerId)).get() ?? null) : null) : view.owner;
+  if (!owner) throw conflict(handedOn ? "The piece changed hands and nobody has registered it since, so there is no one to send the quote to. Send it once the new owner has registered the piece, or cancel the job." : "This piece has no registered owner to send the quote to.");
   const fullyCovered = job.totalMinor === 0;
   const words = quoteMailWords(job, view.studio.name, view.piece.title);
   const updated = getDb().transaction((tx) => {
-    const next = moveJob(tx, job, fullyCovered ? "covered" : "quoted", { quoteVersion: job.quoteVersion + 1, quotedAt: new Date() });
-    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.quote_sent", subjectType: "repair_job", subjectId: job.id, data: { quoteVersion: next.quoteVersion, totalMinor: job.totalMinor } });
+    const next = moveJob(tx, job, fullyCovered ? "covered" : "quoted", { quoteVersion: job.quoteVersion + 1, quotedAt: new Date(), ...(handedOn ? { ownerId: owner.id } : {}) });
+    recordAudit(tx, { studioId: ctx.studio.id, actorId: ctx.user.id, action: "job.quote_sent", subjectType: "repair_job", subjectId: job.id, data: { quoteVersion: next.quoteVersion, totalMinor: job.totalMinor, ...(handedOn ? { toNewOwner: true } : {}) } });
     return next;
   });
   await sendMail({
     studioId: view.studio.id,
-    to: view.owner.email,
+    to: owner.email,
     // An answer by e-mail lands in the job's conversation (lib/messages).
     replyTo: replyToFor(getDb(), { kind: "job", id: job.id }),
     subject: words.subject,
     email: JobQuoteEmail({
-      ownerName: view.owner.name,
+      ownerName: owner.name,
       studioName: view.studio.name,
       pieceTitle: view.piece.title,
       ...quoteFigures(job, view.studio),

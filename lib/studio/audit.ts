@@ -45,6 +45,7 @@ const ACTION_LABELS: Record<string, string> = {
   "job.created": "Repair job created",
   "job.quote_edited": "Quote edited",
   "job.quote_sent": "Quote sent",
+  "job.handed_on": "Quote set back: the piece changed hands before it was paid",
   "job.paid": "Repair paid",
   "job.cancelled": "Repair job cancelled",
   "job.refunded": "Money given back on a repair",

@@ -18,7 +18,6 @@ import { finishPlanTransfer } from "@/lib/plans/transfer";
 import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
-import { AWAITING_PAYMENT } from "@/lib/repairs/states";
 import { auditsOf, createPiece, createStudio, createUser, memberContext, planTemplateInput, unique } from "../support/fixtures";
 import { buyPlan, knob, plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
 import { listMail, waitForMail } from "../support/mail";
@@ -31,18 +30,22 @@ const payOnPage = (url: string) => fetch(url, { method: "POST", body: new URLSea
 const settled = () => until(() => stripe.fake.deliveries().length >= stripe.fake.events().length && stripe.fake.deliveries().every((d) => d.status === 200), 15_000);
 
 describe("a former owner and a repair checkout opened before the hand-over", () => {
-  it("paying it after handing the piece on does not pay the job: the money goes back automatically", async () => {
+  it("paying it after handing the piece on, when Stripe did not answer the page's closing at the hand-over, does not pay the job: the money goes back automatically", async () => {
     const studio = createStudio({ email: `${unique("handon-job")}@test.example`, taxRateBp: 0 });
     const { staff, owner, job } = await quotedRepairJob(studio);
     const since = new Date();
     const { checkoutUrl } = await approveJob(owner, job.id);
+    // The hand-over closes the page at Stripe (lib/repairs/handed-on.ts); here Stripe is down for that call.
+    const sessionId = getDb().select().from(payments).where(eq(payments.jobId, job.id)).get()!.checkoutSessionId;
+    stripe.fake.failNext("POST", `/v1/checkout/sessions/${sessionId}/expire`);
     await releasePiece({ ...owner }, job.pieceId, { confirm: true });
+    expect(getStudioJob(staff, job.id).job.state).toBe("draft");
     // The payment page was still open in a tab.
     expect((await payOnPage(checkoutUrl!)).status).toBe(303);
     await until(() => getDb().select().from(payments).where(and(eq(payments.jobId, job.id), eq(payments.status, "refunded"))).get(), 15_000);
     await settled();
     const after = getStudioJob(staff, job.id);
-    expect(after.job.state).toBe(AWAITING_PAYMENT);
+    expect(after.job.state).toBe("draft");
     expect(after.payments).toHaveLength(1);
     expect(after.payments[0]).toMatchObject({ status: "refunded", refundedMinor: after.payments[0]!.amountMinor });
     expect(stripe.fake.charges().find((c) => c.payment_intent === after.payments[0]!.paymentIntentId)!.amount_refunded).toBe(after.payments[0]!.amountMinor);

@@ -17,6 +17,7 @@ import { FINISH_CLASS_LABELS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
+import { HANDED_ON_WORDS, jobHandedOn } from "@/lib/repairs/handed-on";
 import { priceListOf } from "@/lib/repairs/price-list";
 import { topOnlyWords, unsizedWords } from "@/lib/repairs/pricing";
 import { refundableOf, refundRows, refundsOfJob } from "@/lib/repairs/refund-rows";
@@ -57,6 +58,11 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             The claim this repair is for
           </Link>
         </p>
+      ) : null}
+      {jobHandedOn(job, piece) ? (
+        <Notice tone="info" title="The piece changed hands" className="mb-4">
+          {HANDED_ON_WORDS}
+        </Notice>
       ) : null}
       <QuoteDraftProvider>
       <div className="grid gap-6 lg:grid-cols-[3fr_2fr]">
