@@ -3,7 +3,8 @@
 // signing out without a word that it happened, a handed-on piece's claim and repair offering writes that
 // are refused, and a card of one's own piece sending one to "its care plan". Invented data.
 import { expect, test } from "@playwright/test";
-import { ACCOUNTS, fixture, PASSWORD, PORTS, signIn } from "./helpers";
+import { waitForMail, extractLinks } from "../support/mail";
+import { ACCOUNTS, fixture, PASSWORD, PORTS, SINK_URL, signIn, signInTo } from "./helpers";
 
 test("changing the password: the server's refusal goes at the next press, also when the form's own checks stop that one", async ({ page }) => {
   await signIn(page, ACCOUNTS.otherOwner);
@@ -148,4 +149,39 @@ test("scanning the card of a piece already on one's account opens the piece, in 
   await page.getByRole("link", { name: "Open the piece" }).click();
   await expect(page).toHaveURL(new RegExp(`/pieces/${card.pieceId}$`));
   await context.close();
+});
+
+test("a hand-over link opened while signed in with another address: one button signs out and comes back to the link", async ({ page, browser }) => {
+  const word = `Wren${Date.now().toString(36)}`;
+  const title = `${word} side table (e2e)`;
+  const email = `${word.toLowerCase()}@buyer.example`;
+  await signInTo(page, ACCOUNTS.staff, "/studio/pieces/new");
+  await page.getByLabel("Title").fill(title);
+  await page.getByLabel("Kind").selectOption("bench");
+  await page.getByLabel("Length").fill("40");
+  await page.getByLabel("Width").fill("16");
+  await page.getByRole("combobox", { name: "Primary species" }).fill("juglans");
+  await page.getByRole("option", { name: /Black walnut/ }).click();
+  await page.getByRole("button", { name: "Add a layer" }).click();
+  await page.getByRole("radio", { name: /A new client/ }).check();
+  await page.getByLabel("Buyer's name").fill(`Robin ${word} (invented)`);
+  await page.getByLabel("Buyer's e-mail").fill(email);
+  await page.getByLabel(/They agreed to service mail/).check();
+  await page.getByRole("button", { name: "Record piece" }).click();
+  await expect(page.getByText(/The hand-over mail is on its way to the buyer/)).toBeVisible();
+  const mail = await waitForMail({ to: email, subject: /its care and warranty/, sinkUrl: SINK_URL });
+  const path = new URL(extractLinks(mail.text).find((l) => l.includes("/hand-over/"))!).pathname;
+
+  // Someone signed in as another owner opens it (a shared computer).
+  const phone = await browser.newContext({ viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true });
+  const owner = await phone.newPage();
+  await signIn(owner, ACCOUNTS.otherOwner);
+  await owner.goto(path);
+  await expect(owner.getByText("Signed in with another address")).toBeVisible();
+  await owner.getByRole("button", { name: "Sign out, then use this link" }).click();
+  await expect(owner.getByText("You are signed out on this device.")).toBeVisible();
+  // Signing up (or in) from here comes back to the link.
+  await expect(owner.getByRole("link", { name: "Create an account" })).toHaveAttribute("href", `/sign-up?next=${encodeURIComponent(path)}`);
+  expect(new URL(owner.url()).searchParams.get("next")).toBe(path);
+  await phone.close();
 });

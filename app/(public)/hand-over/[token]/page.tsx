@@ -8,6 +8,8 @@ import { Notice } from "@/components/ui/notice";
 import { getCurrentSession } from "@/lib/auth/session";
 import { openHandover } from "@/lib/pieces/handover";
 import { registerByHandoverAction } from "./actions";
+import { signOutAction } from "@/app/actions/session";
+import { Button } from "@/components/ui/button";
 
 export const metadata: Metadata = { title: "Your new piece", robots: { index: false } };
 
@@ -50,6 +52,13 @@ export default async function HandoverPage({ params }: { params: Promise<{ token
     ) : wrongAccount ? (
       <Notice tone="warn" title="Signed in with another address">
         This link was sent to <span className="break-all">{landing.email}</span>; you are signed in as <span className="break-all">{user.email}</span>. Sign out and sign in (or sign up) with {landing.email} to register the piece, or type the code from the drawer card.
+        {/* Signing out from the header lost this link; this comes back to it after signing in. */}
+        <form action={signOutAction} className="mt-3">
+          <input type="hidden" name="next" value={here} />
+          <Button type="submit" variant="secondary" className="w-full">
+            Sign out, then use this link
+          </Button>
+        </form>
       </Notice>
     ) : null;
   return (
