@@ -46,6 +46,7 @@ export function VisitReportForm({
   defaultLayers,
   initialPhotos,
   early,
+  addLayerClass = null,
 }: {
   visitId: string;
   /** Which visit, for the form's accessible name (a day has several reports). */
@@ -55,8 +56,10 @@ export function VisitReportForm({
   defaultLayers: DefaultLayer[];
   initialPhotos: Photo[];
   early: { startsAt: string; asStaff: boolean } | null;
+  /** The finish class a layer added by hand starts with when the job brings no product: the piece's outer coat. */
+  addLayerClass?: FinishClass | null;
 }) {
-  const defaultClass = defaultLayers[0]?.finishClass;
+  const defaultClass = defaultLayers[0]?.finishClass ?? addLayerClass ?? undefined;
   const form = useForm<VisitReportInput, unknown, VisitReportValues>({
     resolver: useLazyZodResolver<typeof visitReportSchema, VisitReportInput, VisitReportValues>(() => import("@/lib/validation/visits").then((m) => m.visitReportSchema)),
     defaultValues: { work: "", earlyReason: "", layers: defaultLayers.map((l) => ({ surface: l.surface ?? NO_SURFACE, finishClass: l.finishClass, productId: l.productId, coats: l.coats, appliedOn: today, productLabel: "", batchLot: "" })) },

@@ -141,6 +141,8 @@ export function technicianDay(ctx: StudioContext, opts: { date?: string; technic
       bring,
       /** The report's proposed layers: the quote's products and coats, on the surface each refreshes where the stack says. */
       defaultLayers: bring.map((b) => ({ surface: b.surface, finishClass: b.finishClass, productId: b.productId, coats: b.coats })),
+      /** A layer added by hand starts as the piece's outer coat on the top (else any surface's), the finish a touch-up usually renews. */
+      addLayerClass: (layers.filter((l) => l.surface === "top").sort((a, b) => b.position - a.position)[0] ?? [...layers].sort((a, b) => b.position - a.position)[0])?.finishClass ?? null,
       cautions,
       photos,
       report: visit.reportedAt

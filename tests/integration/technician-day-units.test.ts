@@ -67,6 +67,8 @@ describe("technician's day: what to bring", () => {
     expect(oil!.perArea.exactMl).toBeCloseTo(16.2602, 4);
     expect([formatVolume(oil!.perArea.exactMl, "metric"), formatArea(oil!.perArea.areaM2, "metric")]).toEqual(["17 mL", "1.00 m²"]);
     expect(item.defaultLayers).toEqual([{ surface: "base", finishClass: "hardwax_oil", productId: w.product.id, coats: 1 }]);
+    // A layer the technician adds by hand starts as the top's outer coat (the film over the oil), not as oil.
+    expect(item.addLayerClass).toBe("film_finish");
     // The oil's cautions still come with it.
     expect(item.cautions.map((c) => c.text).join(" ")).toMatch(/metal can, cover them with water/);
   });

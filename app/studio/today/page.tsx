@@ -200,6 +200,7 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                         products={day.products}
                         today={day.today}
                         defaultLayers={item.defaultLayers}
+                        addLayerClass={item.addLayerClass}
                         early={item.visit.started ? null : { startsAt: item.visit.when, asStaff: staff }}
                         initialPhotos={item.photos.map((p) => ({ id: p.id, kind: p.kind, thumbUrl: `/api/files/${p.id}?thumb=1` }))}
                       />
