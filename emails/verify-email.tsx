@@ -7,17 +7,17 @@ export type VerifyEmailProps = {
   url: string;
 };
 
-export const verifyEmailSubject = "Confirm your email address for Grainward";
+export const verifyEmailSubject = "Confirm your e-mail address for Grainward";
 
 export function VerifyEmail({ name, url }: VerifyEmailProps) {
   return (
-    <EmailLayout preview="One tap to confirm your email address." heading="Confirm your email address">
+    <EmailLayout preview="One tap to confirm your e-mail address." heading="Confirm your e-mail address">
       <Paragraph>Hi {name},</Paragraph>
       <Paragraph>
         Please confirm that this address is yours. Once it is, we can send you the care reminders for your pieces and
         keep you posted on any claim or visit.
       </Paragraph>
-      <ActionClose href={url} label="Confirm email address" note="If you did not create a Grainward account, you can ignore this message; nothing will happen." />
+      <ActionClose href={url} label="Confirm e-mail address" note="If you did not create a Grainward account, you can ignore this message; nothing will happen." />
     </EmailLayout>
   );
 }

@@ -63,7 +63,7 @@ export function CertificateDocument({ piece, ownerName, issuedAt, brand }: { pie
         <Row k="Registered to" v={ownerName} />
         <Row k="Registered on" v={piece.registeredAt ? formatInstant(piece.registeredAt, piece.timeZone) : "—"} />
         <Row k="Terms" v={piece.warranty.termsName ?? "None recorded"} />
-        <Row k="Certificate for piece" v={piece.id} />
+        <Row k="Studio record number" v={piece.id} />
 
         <Text style={s.h2}>Warranty lines</Text>
         {piece.warranty.lines.length === 0 ? <Text>No warranty terms were recorded for this piece. Ask {piece.studio.name}.</Text> : null}

@@ -53,7 +53,9 @@ test("owner approves a quote, pays with the success card, returns and sees the j
   expect(refundMail.text).toContain("The wax was applied to the top only, not the legs.");
   await page.goto(`/jobs/${jobId}`);
   await expect(page.getByRole("status").filter({ hasText: "gave back $10.00" })).toContainText("Their reason: The wax was applied to the top only, not the legs. Refunds usually show");
-  await page.goto("/jobs");
+  // A repair's page leads back to the list, as a claim's does (it had no way back but the menu).
+  await page.getByRole("link", { name: "← My repairs" }).click();
+  await expect(page).toHaveURL(/\/jobs$/);
   await expect(page.getByRole("link", { name: /Re-wax the desk top/ })).toContainText(/\$[\d,.]+ paid, \$10\.00 refunded/);
 
   // The payment service does not answer a second refund: the page says it can't tell yet, keeps the $5.00

@@ -107,6 +107,8 @@ describe("lines that cannot apply are not shown (item 8)", () => {
     expect(view.guide.cautions.map((c) => c.key)).not.toContain("heat_on_resin");
     const cert = await pdfText((await certificatePdf({ ...me, unitSystem: "metric" }, piece.id, NOW)).buffer);
     expect(cert).toContain("Warranty certificate");
+    // The record's id is labelled as what it is for (it read "Certificate for piece <id>").
+    expect(cert).toContain(`Studio record number ${piece.id}`);
     expect(cert).not.toMatch(/Resin clouding|on indoor resin/i);
   });
 

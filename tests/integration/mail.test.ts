@@ -51,6 +51,9 @@ describe("templates through lib/mail to the sink", () => {
     expect(m.headers["message-id"]).toBe(messageId);
     expect(m.text.length).toBeGreaterThan(0);
     expect(m.text).toContain("Hi Jonah Reyes");
+    // The product's word is "e-mail" (it said "email" here alone).
+    expect(m.subject).toBe("Confirm your e-mail address for Grainward");
+    expect(m.text.replace(/https?:\/\/\S+/g, "")).not.toMatch(/\bemail\b/i);
     expect(extractLinks(m.text)).toContain(url);
     expect(extractLinks(m.html)).toContain(url);
     expect(m.html).toContain("#0f5e5e");

@@ -42,6 +42,11 @@ export default async function OwnerJobPage({ params, searchParams }: { params: P
   const returnedRefunded = refunded.some((p) => p.checkoutSessionId === query.session_id);
   return (
     <>
+      <p className="mb-2 text-sm">
+        <Link href="/jobs" className="inline-flex min-h-11 items-center text-resin underline">
+          ← My repairs
+        </Link>
+      </p>
       <PageHeader title={job.title} lead={`${piece.title} · ${studio.name}`} actions={<StatusBadge label={jobStateLabel(job)} tone={JOB_STATE_TONES[job.state]} />} />
       <div className="space-y-4">
         {job.claimId ? (
