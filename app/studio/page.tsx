@@ -97,12 +97,17 @@ export default async function StudioOverviewPage() {
         <ChartPanel
           title="Reminders sent, and care logged in return"
           lead={
-            <>
-              <strong className="text-ink">
-                {o.reminders.ownersActed} of {o.reminders.owners}
-              </strong>{" "}
-              owners reminded logged the task within {o.reminders.withinDays} days; {o.reminders.acted} of {o.reminders.sent} reminders ({pct(o.reminders.acted, o.reminders.sent)}) were followed by care, {sinceWords}.
-            </>
+            o.reminders.sent === 0 ? (
+              // A sentence of noughts ("0 of 0 … (—)") says nothing to a studio that has sent none yet.
+              <>No care reminders sent {sinceWords}. Owners get them before, on and after each care task&apos;s due date; this shows how many then logged the care.</>
+            ) : (
+              <>
+                <strong className="text-ink">
+                  {o.reminders.ownersActed} of {o.reminders.owners}
+                </strong>{" "}
+                owners reminded logged the task within {o.reminders.withinDays} days; {o.reminders.acted} of {o.reminders.sent} reminders ({pct(o.reminders.acted, o.reminders.sent)}) were followed by care, {sinceWords}.
+              </>
+            )
           }
           table={
             <FigureTable

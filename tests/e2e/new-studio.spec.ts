@@ -67,6 +67,9 @@ test("a new account starts a studio at /start; every studio page works while it 
     name: "Finish setting up your studio",
   });
   await expect(checklist.getByText("0 of 9 done.", { exact: false })).toBeVisible();
+  // An empty studio's reminders panel says what it will show, not "0 of 0 owners … 0 of 0 reminders (—)".
+  await expect(page.getByText(/^No care reminders sent since .+\. Owners get them before, on and after each care task's due date/)).toBeVisible();
+  await expect(page.getByText(/0 of 0 owners reminded/)).toHaveCount(0);
   const steps = ["Studio details", "Logo and colour", "Warranty terms", "Finish catalog", "Reminder timing", "Visits and technicians' hours", "Team invitations", "Online payments", "E-mail sender"];
   for (const s of steps) await expect(checklist.getByRole("link", { name: s })).toBeVisible();
   const checklistPages = await checklist.getByRole("link").evaluateAll((links) => links.map((l) => l.getAttribute("href")!));
