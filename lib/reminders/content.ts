@@ -116,15 +116,16 @@ export function monthsText(months: number, days: number): string {
 const BAND_WORDS = { heavy: "heavy use", moderate: "moderate use", light: "light use" } as const;
 
 /**
- * Why a task falls when it does, in owner words: when its clock started, the use and sun it was
- * judged for, the interval. With the piece, its use and sun are named; without it, the task's own
- * interval says the band and whether direct sun shortened it.
+ * Why a task falls when it does, in owner words (or the studio's, on its piece page: "The piece", not
+ * "Your piece"): when its clock started, the use and sun it was judged for, the interval. With the
+ * piece, its use and sun are named; without it, the task's own interval says the band and whether
+ * direct sun shortened it.
  */
-export function whyNow(task: CareTask, piece?: { use: keyof typeof USE_WORDS; sun: keyof typeof SUN_WORDS }): string[] {
+export function whyNow(task: CareTask, piece?: { use: keyof typeof USE_WORDS; sun: keyof typeof SUN_WORDS }, reader: "owner" | "studio" = "owner"): string[] {
   const interval = monthsText(task.interval.months, task.interval.days);
   const where = task.surface === "whole_piece" ? "" : ` on the ${SURFACE_WORDS[task.surface]}`;
   if (task.kind === "annual_check") {
-    const from = task.clockSource === "care_log" ? `The last check was on ${formatDate(task.clockFrom)}` : `Your piece was delivered on ${formatDate(task.clockFrom)}`;
+    const from = task.clockSource === "care_log" ? `The last check was on ${formatDate(task.clockFrom)}` : `${reader === "owner" ? "Your piece" : "The piece"} was delivered on ${formatDate(task.clockFrom)}`;
     return [`${from}; we suggest a clean and check every ${interval}, so the next one is due on ${formatDate(task.dueOn)}.`];
   }
   const since =

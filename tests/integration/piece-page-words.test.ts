@@ -39,8 +39,10 @@ describe("staff piece page: how each care date was worked out", () => {
     expect(tasks.map((t) => t.kind).sort()).toEqual(["annual_check", "reoil", "topcoat_refresh"]);
 
     for (const t of tasks) {
-      const shown = [...whyNow(t, { use: "heavy", sun: "direct" }), ...howWorkedOut(t)];
+      const shown = [...whyNow(t, { use: "heavy", sun: "direct" }, "studio"), ...howWorkedOut(t)];
       for (const line of shown) expect(line, `${t.key}: ${line}`).not.toMatch(MACHINE);
+      // The studio's page speaks of the piece, not to its owner ("Your piece was delivered…" was shown to staff).
+      for (const line of shown) expect(line, `${t.key}: ${line}`).not.toMatch(/\byour\b/i);
       // The engine's own notation keeps its ISO dates for the API and the tests, but no source labels.
       expect(t.reasons.join(" ")).not.toMatch(/from memory|common practice|no published source/);
     }
@@ -52,6 +54,9 @@ describe("staff piece page: how each care date was worked out", () => {
     expect(topcoat).toContain(`Counted from 30 April 2025 (when the layer went on), it falls due on ${formatDate(tasks.find((t) => t.kind === "topcoat_refresh")!.dueOn)}.`);
     expect(topcoat.at(-1)).toMatch(/^It is \d+ days overdue\.$/);
 
+    const annual = tasks.find((t) => t.kind === "annual_check")!;
+    expect(whyNow(annual, { use: "heavy", sun: "direct" }, "studio")[0]).toMatch(/^The piece was delivered on 1 May 2025; /);
+    expect(whyNow(annual, { use: "heavy", sun: "direct" })[0]).toMatch(/^Your piece was delivered on 1 May 2025; /);
     const check = howWorkedOut(tasks.find((t) => t.kind === "annual_check")!);
     expect(check[0]).toBe("A clean and check every 12 months is our usual interval for every piece.");
     expect(check).toContain("Counted from 1 May 2025 (delivery), it falls due on 1 May 2026.");

@@ -129,7 +129,7 @@ export default async function StudioPiecePage({ params }: { params: Promise<{ id
                       </span>
                     </div>
                     <ul className="mt-1 list-disc pl-5 text-sm text-muted">
-                      {whyNow(t, { use: p.use, sun: p.sun }).map((r) => (
+                      {whyNow(t, { use: p.use, sun: p.sun }, "studio").map((r) => (
                         <li key={r}>{r}</li>
                       ))}
                     </ul>
