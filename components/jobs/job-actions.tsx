@@ -100,7 +100,7 @@ export function OwnerCancelJob({ jobId }: { jobId: string }) {
         }}
         onCancel={() => setAsking(false)}
       >
-        <p>The studio will be told.</p>
+        <p>The repair is closed and nothing is charged. The studio is told, and you can still write to them about the piece or ask for another quote.</p>
       </ConfirmDialog>
       <Button variant="secondary" className="w-full sm:w-auto" disabled={busy} onClick={() => setAsking(true)}>
         Decline the quote

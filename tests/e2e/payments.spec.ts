@@ -133,6 +133,8 @@ test("cancelling on the payment page comes back with a clear message and nothing
   await page.getByRole("button", { name: "Decline the quote" }).click();
   const ask = page.getByRole("dialog", { name: "Decline this quote?" });
   await expect(ask).toBeVisible();
+  // It says what follows (it said only "The studio will be told.").
+  await expect(ask).toContainText("The repair is closed and nothing is charged.");
   await ask.getByRole("button", { name: "Keep the quote" }).click();
   await expect(ask).toBeHidden();
   await page.getByRole("button", { name: "Decline the quote" }).click();
