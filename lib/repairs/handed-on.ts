@@ -18,7 +18,7 @@ import { AWAITING_PAYMENT } from "./states";
 type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
 /** What the staff job page says on a quoted job set back because its piece changed hands (jobHandedOn). */
-export const HANDED_ON_WORDS = "The piece changed hands before this quote was paid; send the quote again to reach the new owner, or cancel the job.";
+export const HANDED_ON_WORDS = "It changed hands before this quote was paid. Once the new owner has registered the piece, send the quote again to reach them, or cancel the job.";
 
 /**
  * Inside the release's transaction (after the piece has lost its owner): every job of the studio's on the

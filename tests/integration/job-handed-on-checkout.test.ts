@@ -60,7 +60,7 @@ describe("a repair job awaiting payment when its owner hands the piece on", () =
     expect(audit[0]).toMatchObject({ studioId: handed.studio.id, actorId: handed.owner.id });
     // The staff job page's notice (app/studio/jobs/[id]/page.tsx shows it when this holds).
     expect(jobHandedOn(view.job, view.piece)).toBe(true);
-    expect(HANDED_ON_WORDS).toBe("The piece changed hands before this quote was paid; send the quote again to reach the new owner, or cancel the job.");
+    expect(HANDED_ON_WORDS).toBe("It changed hands before this quote was paid. Once the new owner has registered the piece, send the quote again to reach them, or cancel the job.");
     // The former owner can no longer act on it.
     expect(await approveJob(handed.owner, handed.job.id).catch((e: unknown) => (e as { status: number }).status)).toBe(404);
 
