@@ -66,3 +66,18 @@ export function jobHandedOn(job: Pick<RepairJob, "state" | "quoteVersion" | "own
   return job.state === "draft" && job.quoteVersion > 0 && !ownerActsOnJob(job, piece);
 }
 
+/**
+ * What the staff job page says about a job whose owner no longer holds its piece, if anything: set back
+ * by the hand-over (HANDED_ON_WORDS); a quote sent to the former owner, who can no longer approve it; or
+ * work paid for or covered, whose visit the former owner no longer sees (lib/repairs/owner-reach.ts).
+ */
+export function handedOnWords(job: Pick<RepairJob, "state" | "quoteVersion" | "ownerId">, piece: { ownerId: string | null }, formerOwnerName: string | null): string | null {
+  if (jobHandedOn(job, piece)) return HANDED_ON_WORDS;
+  if (ownerActsOnJob(job, piece)) return null;
+  const who = formerOwnerName ?? "The former owner";
+  if (job.state === "quoted") return `It changed hands after this quote was sent, and ${who} can no longer approve it. Edit the quote and send it again once the new owner has registered the piece, or cancel the job.`;
+  if (job.state === "paid" || job.state === "covered" || job.state === "scheduled")
+    return `It changed hands before this work was done. ${who} no longer sees this job's visit or gets its reminders: agree with them and the new owner where and when the work is done, then book or move the visit.`;
+  return null;
+}
+

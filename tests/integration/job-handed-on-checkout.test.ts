@@ -8,11 +8,11 @@
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { payments } from "@/db/schema";
+import { payments, type RepairJob } from "@/db/schema";
 import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
-import { HANDED_ON_WORDS, jobHandedOn } from "@/lib/repairs/handed-on";
+import { HANDED_ON_WORDS, handedOnWords, jobHandedOn } from "@/lib/repairs/handed-on";
 import { getOwnerJob, getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob, sendQuote } from "@/lib/repairs/payment";
 import { AWAITING_PAYMENT } from "@/lib/repairs/states";
@@ -105,5 +105,26 @@ describe("a repair job awaiting payment when its owner hands the piece on", () =
     // Their own job elsewhere is as it was.
     expect(getStudioJob(theirs.staff, theirs.job.id).job.state).toBe(AWAITING_PAYMENT);
     expect(sessionAtFake(theirs.sessionId).status).toBe("open");
+  });
+});
+
+describe("what the staff job page says about a job whose piece changed hands", () => {
+  const held = { ownerId: "owner-a" };
+  const handedOn = { ownerId: null };
+  const job = (state: RepairJob["state"], quoteVersion = 1) => ({ state, quoteVersion, ownerId: "owner-a" });
+
+  it("names the state the job is in: set back, a quote the former owner can't approve, or work whose visit they no longer see", () => {
+    expect(handedOnWords(job("draft"), handedOn, "Jonah Reyes")).toBe(HANDED_ON_WORDS);
+    // Before, a sent quote or booked work on a handed-on piece said nothing to staff.
+    expect(handedOnWords(job("quoted"), handedOn, "Jonah Reyes")).toBe(
+      "It changed hands after this quote was sent, and Jonah Reyes can no longer approve it. Edit the quote and send it again once the new owner has registered the piece, or cancel the job.",
+    );
+    for (const state of ["paid", "covered", "scheduled"] as const) {
+      expect(handedOnWords(job(state), { ownerId: "owner-b" }, "Jonah Reyes")).toMatch(/^It changed hands before this work was done\. Jonah Reyes no longer sees this job's visit/);
+    }
+    // Nothing while the owner holds the piece, and nothing on a job that is over or never sent.
+    for (const state of ["draft", "quoted", "approved", "paid", "scheduled", "done", "cancelled"] as const) expect(handedOnWords(job(state), held, "Jonah Reyes")).toBeNull();
+    for (const state of ["done", "cancelled"] as const) expect(handedOnWords(job(state), handedOn, "Jonah Reyes")).toBeNull();
+    expect(handedOnWords(job("draft", 0), handedOn, "Jonah Reyes")).toBeNull();
   });
 });

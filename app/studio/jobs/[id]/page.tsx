@@ -17,7 +17,7 @@ import { FINISH_CLASS_LABELS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
-import { HANDED_ON_WORDS, jobHandedOn } from "@/lib/repairs/handed-on";
+import { handedOnWords } from "@/lib/repairs/handed-on";
 import { priceListOf } from "@/lib/repairs/price-list";
 import { topOnlyWords, unsizedWords } from "@/lib/repairs/pricing";
 import { refundableOf, refundRows, refundsOfJob } from "@/lib/repairs/refund-rows";
@@ -45,6 +45,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const refunds = refundsOfJob(job);
   const refundable = refundableOf(job, payments, refunds);
   const refunded = refundRows(payments, refunds, studio.timeZone, studio.country);
+  const handedOn = handedOnWords(job, piece, owner?.name ?? null);
   return (
     <>
       <PageHeader
@@ -59,9 +60,9 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
           </Link>
         </p>
       ) : null}
-      {jobHandedOn(job, piece) ? (
+      {handedOn ? (
         <Notice tone="info" title="The piece changed hands" className="mb-4">
-          {HANDED_ON_WORDS}
+          {handedOn}
         </Notice>
       ) : null}
       <QuoteDraftProvider>
