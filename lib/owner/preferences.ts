@@ -31,6 +31,11 @@ export function updatePreferences(user: Pick<User, "id">, patch: PreferencesPatc
   return row;
 }
 
+/** The signed-in person's own name, as mails and pages greet them (they read users.name when they send or render). */
+export function updateName(user: Pick<User, "id">, name: string) {
+  return getDb().update(users).set({ name }).where(eq(users.id, user.id)).returning({ name: users.name }).get()!;
+}
+
 /**
  * Regions whose everyday lengths and volumes are US customary: the United States, Liberia and Myanmar
  * (common practice, no published source: the usual list of countries not metricated in daily life).

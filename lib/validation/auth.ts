@@ -15,6 +15,9 @@ export const newPasswordField = z
   .min(10, "Use at least 10 characters.")
   .max(200, "Use at most 200 characters.");
 
+/** A person's own name, as they sign up, accept an invitation or change it on their account. */
+export const personNameField = z.string().trim().min(1, "Tell us your name.").max(120, "Use at most 120 characters.");
+
 export const signInSchema = z.object({
   email: emailField,
   password: z.string().min(1, "Enter your password.").max(200, "That password is too long."),
@@ -23,7 +26,7 @@ export const signInSchema = z.object({
 export type SignInInput = z.infer<typeof signInSchema>;
 
 export const signUpSchema = z.object({
-  name: z.string().trim().min(1, "Tell us your name.").max(120, "Use at most 120 characters."),
+  name: personNameField,
   email: emailField,
   password: newPasswordField,
   next: z.string().max(500).optional(),
@@ -54,7 +57,7 @@ export type RevokeInvitationValues = z.output<typeof revokeInvitationSchema>;
 
 export const acceptInvitationSchema = z.object({
   token: z.string().min(10).max(200),
-  name: z.string().trim().min(1, "Tell us your name.").max(120, "Use at most 120 characters."),
+  name: personNameField,
   password: newPasswordField,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
@@ -68,6 +71,10 @@ export const changePasswordSchema = z
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." })
   .refine((v) => v.password !== v.current, { path: ["password"], message: "Choose a password different from the current one." });
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
+
+/** The account page's name form (app/(owner)/account/actions.ts). */
+export const changeNameSchema = z.object({ name: personNameField });
+export type ChangeNameInput = z.infer<typeof changeNameSchema>;
 
 /** The e-mail confirmation form: the token of the mailed link, and where the person was going. */
 export const confirmEmailSchema = z.object({

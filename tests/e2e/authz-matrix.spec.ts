@@ -93,6 +93,7 @@ type State = {
   pieceToDelete: Record<"staff" | "admin", string>;
   careEntryToDelete: string;
   prefs: Record<Who, unknown>;
+  names: Record<Who, string>;
   studio: Record<"admin" | "otherStudioAdmin", { profile: unknown; reminders: unknown; visits: unknown }>;
   inesHours: unknown;
   clients: { demo: { id: string; name: string }; other: { id: string; name: string } };
@@ -577,6 +578,7 @@ const ACTIONS: ActionRow[] = [
 
   // Signed-in person's own account.
   { action: "app/(owner)/account/actions.ts#savePreferencesAction", expect: "401 ok ok ok ok ok ok ok", args: (who) => ({ json: [S.prefs[who] ?? anyPrefs] }) },
+  { action: "app/(owner)/account/actions.ts#saveNameAction", expect: "401 ok ok ok ok ok ok ok", args: (who) => ({ json: [{ name: S.names[who] ?? "Nobody (invented)" }] }) },
   {
     action: "app/(owner)/account/password/actions.ts#changePasswordAction",
     expect: "401 400 400 400 400 400 400 400",
@@ -782,9 +784,11 @@ test.beforeAll(async ({ playwright, baseURL }) => {
 
   // The values already stored, for the rows that save them back.
   S.prefs = {} as Record<Who, unknown>;
+  S.names = {} as Record<Who, string>;
   for (const who of WHO.filter((w) => w !== "anonymous")) {
     const p = (await json<{ preferences: { remindersEnabled: boolean; timeZone: string; unitSystem: string } }>(await api[who].get("/api/me/preferences"), `${who}'s preferences`, 200)).preferences;
     S.prefs[who] = { remindersEnabled: p.remindersEnabled, timeZone: p.timeZone, unitSystem: p.unitSystem };
+    S.names[who] = (await json<{ user: { name: string } }>(await api[who].get("/api/me"), `${who}'s account`, 200)).user.name;
   }
   S.studio = {
     admin: await json(await api.admin.get("/api/studio/settings"), "the demo studio's settings", 200),

@@ -4,7 +4,8 @@
 // are refused, and a card of one's own piece sending one to "its care plan". Invented data.
 import { expect, test } from "@playwright/test";
 import { waitForMail, extractLinks } from "../support/mail";
-import { ACCOUNTS, fixture, PASSWORD, PORTS, SINK_URL, signIn, signInTo } from "./helpers";
+import { ACCOUNTS, APP_URL, fixture, PASSWORD, PORTS, SINK_URL, signIn, signInTo } from "./helpers";
+import { manifestActions } from "./routes";
 
 test("changing the password: the server's refusal goes at the next press, also when the form's own checks stop that one", async ({ page }) => {
   await signIn(page, ACCOUNTS.otherOwner);
@@ -184,4 +185,64 @@ test("a hand-over link opened while signed in with another address: one button s
   await expect(owner.getByRole("link", { name: "Create an account" })).toHaveAttribute("href", `/sign-up?next=${encodeURIComponent(path)}`);
   expect(new URL(owner.url()).searchParams.get("next")).toBe(path);
   await phone.close();
+});
+
+test("changing one's name on the account page: saved for this account, greeted by it in pages and mail; a blank or overlong name gets a word beside the field", async ({ browser }) => {
+  const context = await browser.newContext({ viewport: { width: 1600, height: 900 } });
+  await context.setExtraHTTPHeaders({ "x-forwarded-for": "203.0.113.144" });
+  const page = await context.newPage();
+  await signInTo(page, ACCOUNTS.otherOwner, "/account");
+  const field = page.getByLabel("Your name");
+  const before = await field.inputValue();
+  const lead = page.getByText(`· ${ACCOUNTS.otherOwner}`);
+  await expect(lead).toHaveText(`${before} · ${ACCOUNTS.otherOwner}`);
+
+  // Blank (spaces only) and 201 characters: the form says why, nothing is saved.
+  for (const [typed, message] of [["   ", "Tell us your name."], ["x".repeat(201), "Use at most 120 characters."]] as const) {
+    await field.fill(typed);
+    await page.getByRole("button", { name: "Save name" }).click();
+    await expect(page.getByText(message)).toBeVisible();
+  }
+  // The server answers the same without the form's own checks: a field message, not a 500.
+  const saveName = manifestActions().find((a) => a.file === "app/(owner)/account/actions.ts" && a.name === "saveNameAction")!;
+  for (const [name, message] of [["   ", "Tell us your name."], ["x".repeat(201), "Use at most 120 characters."]] as const) {
+    const res = await page.request.post("/account", {
+      headers: { "Next-Action": saveName.id, Accept: "text/x-component", Origin: new URL(APP_URL).origin, "Content-Type": "text/plain;charset=UTF-8" },
+      data: JSON.stringify([{ name }]),
+    });
+    expect(res.status()).toBe(200);
+    const body = await res.text();
+    expect(body).toContain(message);
+    expect(body).toContain('"fieldErrors"');
+  }
+  await page.reload();
+  await expect(field).toHaveValue(before);
+
+  // Surrounding spaces go; the page, its header and the next mail use the new name.
+  const renamed = `Marlo Quince ${Date.now().toString(36)} (invented)`;
+  await field.fill(`  ${renamed}  `);
+  await page.getByRole("button", { name: "Save name" }).click();
+  await expect(page.getByText("Name saved.")).toBeVisible();
+  await expect(lead).toHaveText(`${renamed} · ${ACCOUNTS.otherOwner}`);
+  await page.reload();
+  await expect(field).toHaveValue(renamed);
+  await expect(page.locator("header").getByText(renamed)).toBeVisible();
+
+  const asked = await browser.newContext();
+  await asked.setExtraHTTPHeaders({ "x-forwarded-for": "203.0.113.144" });
+  const forgot = await asked.newPage();
+  await forgot.goto("/forgot-password");
+  await forgot.getByLabel("Email").fill(ACCOUNTS.otherOwner);
+  const since = new Date().toISOString();
+  await forgot.getByRole("button", { name: "Send me a reset link" }).click();
+  await expect(forgot.getByText("Check your inbox")).toBeVisible();
+  const mail = await waitForMail({ to: ACCOUNTS.otherOwner, subject: /reset/i, sinkUrl: SINK_URL, since });
+  expect(mail.text).toContain(`Hi ${renamed},`);
+  await asked.close();
+
+  // Back to the name the other specs know.
+  await field.fill(before);
+  await page.getByRole("button", { name: "Save name" }).click();
+  await expect(lead).toHaveText(`${before} · ${ACCOUNTS.otherOwner}`);
+  await context.close();
 });

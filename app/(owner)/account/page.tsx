@@ -1,12 +1,13 @@
 import Link from "next/link";
 import type { Metadata } from "next";
+import { NameForm } from "@/components/owner/name-form";
 import { PreferencesForm } from "@/components/owner/preferences-form";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { forPage } from "@/lib/auth/page";
 import { zoneChoices } from "@/lib/format";
 import { getPreferences } from "@/lib/owner/preferences";
-import { savePreferencesAction } from "./actions";
+import { saveNameAction, savePreferencesAction } from "./actions";
 
 export const metadata: Metadata = { title: "Account" };
 
@@ -15,6 +16,9 @@ export default async function AccountPage() {
   return (
     <>
       <PageHeader title="Account" lead={`${prefs.name} · ${prefs.email}`} />
+      <Card className="mb-6">
+        <NameForm action={saveNameAction} name={prefs.name} />
+      </Card>
       <Card>
         <PreferencesForm
           action={savePreferencesAction}
