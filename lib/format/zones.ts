@@ -36,7 +36,15 @@ export function zoneOption(value: string): ZoneOption {
  * differently), so the current choice is always an option.
  */
 export function zoneGroups(zones: readonly string[], include: readonly (string | null | undefined)[] = []): ZoneChoices {
-  const all = new Set([...zones, ...include.filter((z): z is string => Boolean(z))]);
+  const all = new Set(zones);
+  for (const z of include) {
+    if (!z) continue;
+    // A saved zone under another name of one listed (Asia/Kolkata where the runtime lists Asia/Calcutta)
+    // takes that one's place, so the zone is offered once, under the name that is saved.
+    const runtimeId = runtimeZoneId(z);
+    if (runtimeId !== z) all.delete(runtimeId);
+    all.add(z);
+  }
   all.delete("UTC");
   all.delete("Etc/UTC");
   const byRegion = new Map<string, ZoneOption[]>();
@@ -48,6 +56,15 @@ export function zoneGroups(zones: readonly string[], include: readonly (string |
     .sort(([a], [b]) => (a === "Other" ? 1 : b === "Other" ? -1 : a.localeCompare(b, "en")))
     .map(([region, list]) => ({ region, zones: list.sort((a, b) => a.label.localeCompare(b.label, "en")) }));
   return { utc: zoneOption("UTC"), groups };
+}
+
+/** The runtime's own id for a zone ("Asia/Kolkata" → "Asia/Calcutta" where its ICU lists the old name); an unknown zone as it is. */
+function runtimeZoneId(zone: string): string {
+  try {
+    return new Intl.DateTimeFormat("en", { timeZone: zone }).resolvedOptions().timeZone;
+  } catch {
+    return zone;
+  }
 }
 
 let every: ZoneChoices | null = null;

@@ -50,6 +50,23 @@ describe("time-zone picker options", () => {
     expect(zoneLabel(c, "UTC")).toBe("UTC (Coordinated Universal Time)");
   });
 
+  it("a saved zone under another name of a zone the list has is offered once, under the saved name", () => {
+    // Asia/Kolkata and Asia/Calcutta are one zone (IANA tz database, file "backward": Calcutta links to
+    // Kolkata; from memory); which of the two the runtime lists depends on its ICU. Either saved, "India Time, Kolkata" shows once.
+    for (const saved of ["Asia/Kolkata", "Asia/Calcutta"]) {
+      const c = zoneChoices([saved]);
+      const options = [c.utc, ...c.groups.flatMap((g) => g.zones)];
+      expect(options.filter((o) => o.label === "India Time, Kolkata").map((o) => o.value), saved).toEqual([saved]);
+      expect(new Set(options.map((o) => o.label)).size, saved).toBe(options.length);
+      expect(zoneLabel(c, saved)).toBe("India Time, Kolkata");
+    }
+    // The same for the other renamed zones this runtime may list under their old names.
+    for (const saved of ["Europe/Kyiv", "Asia/Ho_Chi_Minh"]) {
+      const options = zoneChoices([saved]).groups.flatMap((g) => g.zones);
+      expect(options.filter((o) => o.label === formatZone(saved)).map((o) => o.value), saved).toEqual([saved]);
+    }
+  });
+
   it("renders one labelled select with optgroups whose options show words and submit the IANA id", () => {
     const choices = zoneGroups(["America/Los_Angeles", "Europe/Berlin"]);
     const html = renderToStaticMarkup(createElement(ZoneSelect, { label: "Time zone", choices, name: "timeZone", defaultValue: "America/Los_Angeles" }));
