@@ -17,7 +17,7 @@ import { DEFAULT_CURE_TIMES } from "@/lib/care/cure";
 import { DEFAULT_WEAR_INTERVALS } from "@/lib/care/intervals";
 import { FINISH_CLASSES, FINISH_CLASS_LABELS, type FinishClass } from "@/lib/care/vocabulary";
 import { currencyDigits, formatCoverage, formatMoney, formatVolume, type UnitSystem } from "@/lib/format";
-import type { CatalogProductInput } from "@/lib/validation/pieces";
+import { catalogFormFieldErrors, catalogFormToProduct, catalogProductToForm, type CatalogFormValues } from "@/lib/validation/catalog-form";
 
 export type CatalogRow = {
   id: string;
@@ -67,14 +67,18 @@ function MoneyField({ label, currency, value, onChange, error, ref }: { label: s
 function ProductForm({ product, currency, units, onDone }: { product?: CatalogRow; currency: string; units: UnitSystem; onDone: () => void }) {
   const router = useRouter();
   const { form, onSubmit, formError } = useActionForm({
-    schema: () => import("@/lib/validation/pieces").then((m) => m.catalogProductSchema),
-    action: (v: CatalogProductInput) => (product ? callApi(`/api/catalog/${product.id}`, { method: "PATCH", json: v }) : callApi("/api/catalog", { method: "POST", json: v })),
+    schema: () => import("@/lib/validation/catalog-form").then((m) => m.catalogFormSchema(units)),
+    // Coverage and sizes are typed in the studio's units; the API takes the stored metric (lib/validation/catalog-form.ts).
+    action: async (v: CatalogFormValues) => {
+      const json = catalogFormToProduct(v, units, product);
+      const r = await (product ? callApi(`/api/catalog/${product.id}`, { method: "PATCH", json }) : callApi("/api/catalog", { method: "POST", json }));
+      return r.ok ? r : { ...r, fieldErrors: catalogFormFieldErrors(r.fieldErrors) };
+    },
     defaultValues: product
       ? {
           name: product.name,
           finishClass: product.finishClass,
-          coverageM2PerL: product.coverageM2PerL,
-          containers: product.containers,
+          ...catalogProductToForm(product, units),
           intervalHeavyMonths: product.intervalHeavyMonths ?? product.defaults.heavy,
           intervalModerateMonths: product.intervalModerateMonths ?? product.defaults.moderate,
           intervalLightMonths: product.intervalLightMonths ?? product.defaults.light,
@@ -109,10 +113,10 @@ function ProductForm({ product, currency, units, onDone }: { product?: CatalogRo
           ))}
         </SelectField>
         <TextField
-          label="Coverage per coat (m²/L)"
-          hint={units === "imperial" ? "A label in ft² per US gallon: divide by 40.7 (400 ft²/US gal is 9.8 m²/L)." : undefined}
+          label={units === "imperial" ? "Coverage per coat (ft²/US gal)" : "Coverage per coat (m²/L)"}
+          hint={units === "imperial" ? "As US labels print it, in square feet per US gallon." : undefined}
           inputMode="decimal"
-          {...register("coverageM2PerL", { setValueAs: numberOrNull })} error={e.coverageM2PerL?.message} />
+          {...register("coverage", { setValueAs: numberOrNull })} error={e.coverage?.message} />
       </div>
       <fieldset className="space-y-2">
         <legend className="text-sm font-semibold">Wear intervals, months</legend>
@@ -137,14 +141,14 @@ function ProductForm({ product, currency, units, onDone }: { product?: CatalogRo
         <legend className="text-sm font-semibold">Container sizes and unit prices</legend>
         {containers.fields.map((f, i) => (
           <div key={f.id} className="grid items-end gap-3 sm:grid-cols-[1fr_1fr_auto]">
-            <TextField label="Size (mL)" inputMode="numeric" {...register(`containers.${i}.ml`, { setValueAs: numberOrNull })} error={e.containers?.[i]?.ml?.message} />
+            <TextField label={units === "imperial" ? "Size (US fl oz)" : "Size (mL)"} inputMode={units === "imperial" ? "decimal" : "numeric"} {...register(`containers.${i}.size`, { setValueAs: numberOrNull })} error={e.containers?.[i]?.size?.message} />
             <Controller control={control} name={`containers.${i}.priceMinor`} render={({ field }) => <MoneyField ref={field.ref} label="Price" currency={currency} value={field.value as number | null | undefined} onChange={field.onChange} error={e.containers?.[i]?.priceMinor?.message} />} />
             <Button variant="ghost" onClick={() => containers.remove(i)} aria-label={`Remove container ${i + 1}`}>
               <SpriteIcon name="trash" className="size-4" /> Remove
             </Button>
           </div>
         ))}
-        <Button variant="secondary" onClick={() => containers.append({ ml: 250, priceMinor: 0 })}>
+        <Button variant="secondary" onClick={() => containers.append({ size: units === "imperial" ? 8 : 250, priceMinor: 0 })}>
           <SpriteIcon name="plus" className="size-4" /> Add a container size
         </Button>
       </fieldset>

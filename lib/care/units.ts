@@ -26,3 +26,6 @@ export const m2ToFt2 = (m2: number): number => m2 / M2_PER_FT2;
 export const ft2ToM2 = (ft2: number): number => ft2 * M2_PER_FT2;
 export const mlToUsFlOz = (ml: number): number => ml / ML_PER_US_FL_OZ;
 export const usFlOzToMl = (flOz: number): number => flOz * ML_PER_US_FL_OZ;
+/** Coverage: m² per litre → ft² per US gallon (× L/US gal ÷ m²/ft²), the figure US labels print. */
+export const m2PerLToFt2PerUsGal = (m2PerL: number): number => (m2PerL / M2_PER_FT2) * L_PER_US_GALLON;
+export const ft2PerUsGalToM2PerL = (ft2PerGal: number): number => (ft2PerGal * M2_PER_FT2) / L_PER_US_GALLON;

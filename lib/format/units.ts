@@ -3,7 +3,7 @@
 // 1 mi = 1.609344 km exactly (lib/care/units). Numbers group with English separators ("2,440 mm"):
 // the product's words are English in every region.
 import { displayFlOz, displayMl } from "@/lib/care/quantity";
-import { KM_PER_MILE, L_PER_US_GALLON, M2_PER_FT2, MM_PER_INCH } from "@/lib/care/units";
+import { KM_PER_MILE, L_PER_US_GALLON, M2_PER_FT2, MM_PER_INCH, m2PerLToFt2PerUsGal } from "@/lib/care/units";
 
 export type UnitSystem = "metric" | "imperial";
 
@@ -84,7 +84,7 @@ export function formatVolume(exactMl: number, units: UnitSystem): string {
 export function formatCoverage(m2PerL: number, units: UnitSystem): string {
   const metric = `${oneDecimal(m2PerL)} m²/L`;
   if (units === "metric") return metric;
-  return `${grouped(Math.round((m2PerL / M2_PER_FT2) * L_PER_US_GALLON))} ft²/US gal (${metric})`;
+  return `${grouped(Math.round(m2PerLToFt2PerUsGal(m2PerL)))} ft²/US gal (${metric})`;
 }
 
 /** A large volume (resin pours) for staff records: litres or US gallons, the other in brackets. */

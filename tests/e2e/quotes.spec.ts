@@ -128,6 +128,29 @@ test("the finish catalog of a studio in inches reads coverage and containers as 
   await expect(topcoat).toHaveText("Ceramic-type topcoat over oil · 7,579 ft²/US gal (186 m²/L) per coat");
   await expect(page.getByText(/^1\.7 US fl oz \(50 mL\) at \$34\.00 · /)).toBeVisible();
   await expect(page.getByText(/\b\d+ mL at /)).toHaveCount(0);
+  // The form takes the studio's units too (lib/validation/catalog-form.ts): editing shows the stored
+  // 186 m²/L and 50 / 100 mL as the list prints them (100 mL = 3.3814 US fl oz, rounded up to 3.4).
+  await page.getByRole("button", { name: "Edit Ceramic-type topcoat, matte" }).click();
+  const form = page.getByRole("form", { name: "Edit Ceramic-type topcoat, matte" });
+  await expect(form.getByLabel("Coverage per coat (ft²/US gal)")).toHaveValue("7579");
+  await expect(form.getByLabel("Size (US fl oz)")).toHaveCount(2);
+  await expect(form.getByLabel("Size (US fl oz)").nth(0)).toHaveValue("1.7");
+  await expect(form.getByLabel("Size (US fl oz)").nth(1)).toHaveValue("3.4");
+  await expect(form.getByText(/m²\/L|\bmL\b/)).toHaveCount(0);
+  // Saved unchanged, the stored metric values stay exactly as they were (7,579 ft²/US gal alone is 186.0067 m²/L).
+  const before = (await (await page.request.get("/api/catalog")).json()).products.find((p: { name: string }) => p.name === "Ceramic-type topcoat, matte");
+  await form.getByRole("button", { name: "Save product" }).click();
+  await expect(page.getByText("Finish product saved.")).toBeVisible();
+  const after = (await (await page.request.get("/api/catalog")).json()).products.find((p: { name: string }) => p.name === "Ceramic-type topcoat, matte");
+  expect([after.coverageM2PerL, after.containers]).toEqual([before.coverageM2PerL, before.containers]);
+  expect(after.coverageM2PerL).toBe(186);
+  await expect(topcoat).toHaveText("Ceramic-type topcoat over oil · 7,579 ft²/US gal (186 m²/L) per coat");
+
   await page.getByRole("button", { name: "New finish product" }).click();
-  await expect(page.getByText("A label in ft² per US gallon: divide by 40.7 (400 ft²/US gal is 9.8 m²/L).")).toBeVisible();
+  const fresh = page.getByRole("form", { name: "New finish product" });
+  await expect(fresh.getByLabel("Coverage per coat (ft²/US gal)")).toBeVisible();
+  await expect(fresh.getByText("As US labels print it, in square feet per US gallon.")).toBeVisible();
+  await fresh.getByRole("button", { name: "Add a container size" }).click();
+  await expect(fresh.getByLabel("Size (US fl oz)")).toHaveValue("8");
+  await fresh.getByRole("button", { name: "Cancel" }).click();
 });
