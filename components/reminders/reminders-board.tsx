@@ -184,6 +184,8 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
                   ))
                 : (query.data.rows as LedgerListRow[]).map((r) => (
                     <tr key={r.id} className={ROW}>
+                      {/* The row's one time: for a sent reminder its sending (lib/reminders/deliver.ts stamps sent_at and
+                          updated_at alike), so it is not written again under the status. */}
                       <td className={cn(CELL, "tabular-nums")}><span className="md:hidden">Updated </span>{when(r.updatedAt)}</td>
                       <td className={CELL}>
                         <span className="font-medium">{r.pieceTitle}</span>
@@ -199,7 +201,6 @@ export function RemindersBoard({ timeZone }: { timeZone: string }) {
                             {r.nextAttemptAt ? ` Next try ${when(r.nextAttemptAt)}.` : " No automatic retry."}
                           </span>
                         ) : null}
-                        {r.status === "sent" ? <span className="block text-xs text-muted">{when(r.sentAt)}</span> : null}
                       </td>
                       <td className={cn(CELL, "space-y-1 md:text-right")}>
                         {r.status === "failed" ? (

@@ -51,6 +51,23 @@ test("at 375 px each reminder is a card: nothing scrolls sideways and its pause 
   expect(at.x + at.width).toBeLessThanOrEqual(375);
 });
 
+test("the ledger writes a sent reminder's time once, in its time column, with its zone", async ({ page }) => {
+  await signIn(page, ACCOUNTS.staff);
+  await page.goto("/studio/reminders");
+  await page.getByRole("tab", { name: "Sent, failed and skipped" }).click();
+  await page.getByLabel("Status").selectOption("sent");
+  // The demo seed's history (db/seed/aftercare-history.ts) holds sent reminders.
+  const rows = page.getByRole("table").getByRole("row").filter({ has: page.getByText("Sent", { exact: true }) });
+  await expect(rows.first()).toBeVisible();
+  for (const row of (await rows.all()).slice(0, 3)) {
+    const time = (await row.getByRole("cell").first().innerText()).trim();
+    // "3 December 2026, 09:04 PST": the studio's zone (America/Los_Angeles in the demo) named.
+    expect(time).toMatch(/\d{2}:\d{2} P[SD]T$/);
+    const text = await row.innerText();
+    expect(text.split(time).length - 1, `"${time}" appears once in: ${text}`).toBe(1);
+  }
+});
+
 test("owners are refused the staff reminders API", async ({ page }) => {
   await signIn(page, ACCOUNTS.owner);
   expect((await page.request.get("/api/reminders?view=ledger")).status()).toBe(403);
