@@ -72,6 +72,7 @@ export default async function StudioOverviewPage() {
         <ChartPanel
           title="Care coming due and overdue, by task"
           lead={<>From each piece&apos;s finish stack and care log: due from today to {formatDate(o.care.until)}, and past due.</>}
+          figures={o.care.byKind.flatMap((k) => [k.count, k.overdue])}
           table={
             <FigureTable
               caption="Care tasks due in the next 30 days and overdue, by task"
@@ -96,6 +97,7 @@ export default async function StudioOverviewPage() {
 
         <ChartPanel
           title="Reminders sent, and care logged in return"
+          figures={[o.reminders.sent, o.reminders.acted, ...o.reminders.byStep.flatMap((s) => [s.sent, s.acted])]}
           lead={
             o.reminders.sent === 0 ? (
               // A sentence of noughts ("0 of 0 … (—)") says nothing to a studio that has sent none yet.
@@ -145,6 +147,7 @@ export default async function StudioOverviewPage() {
 
         <ChartPanel
           title="Claims by state"
+          figures={o.claims.byState.map((s) => s.count)}
           lead={
             <>
               {o.claims.total} claim{o.claims.total === 1 ? "" : "s"} in all, <Link className="text-resin underline underline-offset-2" href="/studio/claims?state=open">{o.claims.open} open</Link>.
@@ -163,6 +166,7 @@ export default async function StudioOverviewPage() {
 
         <ChartPanel
           title="Claims by kind of damage"
+          figures={o.claims.byCategory.map((c) => c.count)}
           lead={<>Every claim filed, by the category the owner chose. The <Link className="text-resin underline underline-offset-2" href="/studio/reports">claims report</Link> relates them to species, finish and resin.</>}
           table={
             <FigureTable
@@ -208,6 +212,7 @@ export default async function StudioOverviewPage() {
             </>
           }
           className="lg:col-span-2"
+          figures={o.revenue.months.flatMap((m) => [m.paidMinor, m.refundedMinor, m.netMinor])}
           table={
             <FigureTable
               caption="Repair revenue by month"
@@ -233,6 +238,7 @@ export default async function StudioOverviewPage() {
         <ChartPanel
           title="What became of the refresh offers"
           lead={sinceWords}
+          figures={o.offers.byStatus.map((s) => s.count)}
           table={
             <FigureTable
               caption="Refresh offers by outcome"
@@ -250,6 +256,7 @@ export default async function StudioOverviewPage() {
 
         <ChartPanel
           title="Visits this week"
+          figures={o.visits.byDay.flatMap((d) => [d.booked, d.done])}
           lead={
             <>
               <Link className="text-resin underline underline-offset-2" href="/studio/visits">

@@ -20,8 +20,28 @@ export function Figure({ label, value, href, note, className }: { label: string;
   );
 }
 
-/** A chart with its numbers as a table underneath (open the details), for screen readers and for reading exact values. */
-export function ChartPanel({ title, lead, children, table, className, id }: { title: string; lead?: ReactNode; children: ReactNode; table: ReactNode; className?: string; id?: string }) {
+/**
+ * A chart with its numbers as a table underneath (open the details), for screen readers and for reading exact values.
+ * `figures` are the numbers that table holds: when none is other than 0 (a new studio) no table is offered, since a
+ * table of noughts says nothing and the chart already says so in words. Without `figures` the table is always offered.
+ */
+export function ChartPanel({
+  title,
+  lead,
+  children,
+  table,
+  figures,
+  className,
+  id,
+}: {
+  title: string;
+  lead?: ReactNode;
+  children: ReactNode;
+  table: ReactNode;
+  figures?: readonly number[];
+  className?: string;
+  id?: string;
+}) {
   const headingId = `${id ?? title.toLowerCase().replace(/[^a-z0-9]+/g, "-")}-title`;
   return (
     <Card className={cn("flex flex-col gap-3", className)} id={id} role="region" aria-labelledby={headingId}>
@@ -32,14 +52,16 @@ export function ChartPanel({ title, lead, children, table, className, id }: { ti
         {lead ? <p className="text-sm text-muted">{lead}</p> : null}
       </div>
       {children}
-      <details className="group rounded-lg border border-line bg-paper/60 px-3 py-2 text-sm">
-        <summary className="flex min-h-11 cursor-pointer list-none items-center gap-2 font-medium text-resin">
-          <SpriteIcon name="table-2" className="size-4" />
-          <span className="group-open:hidden">Show as a table</span>
-          <span className="hidden group-open:inline">Hide the table</span>
-        </summary>
-        <div className="pb-2">{table}</div>
-      </details>
+      {figures && !figures.some((n) => n !== 0) ? null : (
+        <details className="group rounded-lg border border-line bg-paper/60 px-3 py-2 text-sm">
+          <summary className="flex min-h-11 cursor-pointer list-none items-center gap-2 font-medium text-resin">
+            <SpriteIcon name="table-2" className="size-4" />
+            <span className="group-open:hidden">Show as a table</span>
+            <span className="hidden group-open:inline">Hide the table</span>
+          </summary>
+          <div className="pb-2">{table}</div>
+        </details>
+      )}
     </Card>
   );
 }

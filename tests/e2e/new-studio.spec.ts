@@ -70,6 +70,10 @@ test("a new account starts a studio at /start; every studio page works while it 
   // An empty studio's reminders panel says what it will show, not "0 of 0 owners … 0 of 0 reminders (—)".
   await expect(page.getByText(/^No care reminders sent since .+\. Owners get them before, on and after each care task's due date/)).toBeVisible();
   await expect(page.getByText(/0 of 0 owners reminded/)).toHaveCount(0);
+  // Nor does any panel offer its figures as a table when all of them are 0 (components/overview/panel.tsx);
+  // tests/e2e/overview.spec.ts opens one where the demo studio has claims.
+  await expect(page.getByRole("region", { name: "Claims by state" })).toBeVisible();
+  await expect(page.locator("main").getByText("Show as a table")).toHaveCount(0);
   const steps = ["Studio details", "Logo and colour", "Warranty terms", "Finish catalog", "Reminder timing", "Visits and technicians' hours", "Team invitations", "Online payments", "E-mail sender"];
   for (const s of steps) await expect(checklist.getByRole("link", { name: s })).toBeVisible();
   const checklistPages = await checklist.getByRole("link").evaluateAll((links) => links.map((l) => l.getAttribute("href")!));

@@ -22,6 +22,7 @@ export function PlanOverviewSection({ ctx }: { ctx: StudioActor }) {
       <ChartPanel
         title="Plan revenue by month"
         lead="Plan payments that count (the plan's amount and version), by the month paid."
+        figures={p.revenue.map((r) => r.amountMinor)}
         table={<FigureTable caption="Plan revenue by month" columns={["Month", "Revenue"]} rows={p.revenue.map((r) => ({ label: formatMonth(r.month), href: "/studio/plans", cells: [money(r.amountMinor)] }))} />}
       >
         <OverviewBarChart title="Plan revenue by month" layout="vertical" format="money" currency={p.currency} country={ctx.studio.country} data={p.revenue.map((r) => ({ label: formatMonth(r.month, { short: true }), amount: r.amountMinor, href: "/studio/plans" }))} series={[{ key: "amount", name: "Plan revenue" }]} />
