@@ -7,6 +7,8 @@ import journal from "./migrations/meta/_journal.json";
 import * as schema from "./schema";
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
+/** A transaction of `Db`, as `getDb().transaction((tx) => …)` hands it over. */
+export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 /** Opens a SQLite file with the settings every process of the product uses. */
 export function openDatabase(file: string): Db {

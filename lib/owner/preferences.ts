@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq, isNull, ne } from "drizzle-orm";
 import type { User } from "lucia";
-import { getDb } from "@/db/client";
+import { getDb, type Tx } from "@/db/client";
 import { ownerships, studios, users } from "@/db/schema";
 import { type UnitSystem } from "@/lib/format";
 import type { PreferencesPatch } from "@/lib/validation/owner";
@@ -75,7 +75,6 @@ export function defaultUnitSystem({ acceptLanguage, studioUnits }: { acceptLangu
   return IMPERIAL_REGIONS.has(region.toUpperCase()) ? "imperial" : "metric";
 }
 
-type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
 /**
  * At a first registration: an owner who has not chosen units yet takes the default (defaultUnitSystem)

@@ -7,7 +7,7 @@
 // The refund is claimed (a plan_refunds row) in the transaction that checks the plan's version, then
 // paid through Stripe with an idempotency key, audited, and mailed to the owner after commit.
 import { and, desc, eq, isNotNull, lt } from "drizzle-orm";
-import { getDb, type Db } from "@/db/client";
+import { getDb, type Db, type Tx } from "@/db/client";
 import { planInvoices, planRefunds, planSubscriptions, type PlanRefund, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanEndedEmail, planEndedSubject } from "@/emails/plan-ended";
 import { recordAudit } from "@/lib/audit";
@@ -22,7 +22,6 @@ import { planMailContext } from "./plan-mail";
 import { myPiecesUrl, pieceUrl } from "./subscriptions";
 import type { PlanRefundRule } from "./terms";
 
-type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 export type RefundQuote = {
   rule: PlanRefundRule;

@@ -2,7 +2,7 @@
 // by other means), cancelling at the period's end, and the one function every state move goes through.
 import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import type { User } from "lucia";
-import { getDb, type Db } from "@/db/client";
+import { getDb, type Tx } from "@/db/client";
 import { planInvoices, planSubscriptions, pieces, studios, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioActor } from "@/lib/auth/actor";
@@ -16,7 +16,6 @@ import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { planPrice } from "./price";
 import { templateOf, templatesFitting } from "./templates";
 
-type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 /** Days a plan keeps covering after a failed renewal (the owner is mailed the last day). Common practice, no published source. */
 export const PLAN_GRACE_DAYS = 14;

@@ -13,7 +13,7 @@
 // (staff's "try again", or the scheduled pass every few minutes) finishes it: one move, one Stripe
 // subscription, one refund, one mail.
 import { and, eq, isNotNull } from "drizzle-orm";
-import { getDb, type Db } from "@/db/client";
+import { getDb, type Tx } from "@/db/client";
 import { planSubscriptions, studios, type PlanSubscription } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { User } from "lucia";
@@ -25,7 +25,6 @@ import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { livePlanOfPiece, moveSubscription, studioSubscription } from "./subscriptions";
 import { templateOf } from "./templates";
 
-type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 type TransferStep = NonNullable<PlanSubscription["transferStep"]>;
 
 function auditChangedHands(tx: Tx, sub: PlanSubscription, fromOwnerId: string, data: Record<string, unknown>) {

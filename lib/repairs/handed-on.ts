@@ -7,7 +7,7 @@
 // After the release has committed, the payment pages the former owner opened for these jobs are closed at
 // Stripe (closeHandedOnCheckouts), so they can't take money that would only be given back.
 import { and, eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import type { Tx } from "@/db/client";
 import { repairJobs, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import { closeOpenCheckouts } from "./checkout";
@@ -15,7 +15,6 @@ import { moveJob } from "./jobs";
 import { ownerActsOnJob } from "./owner-reach";
 import { AWAITING_PAYMENT } from "./states";
 
-type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
 /** What the staff job page says on a quoted job set back because its piece changed hands (jobHandedOn). */
 export const HANDED_ON_WORDS = "It changed hands before this quote was paid. Once the new owner has registered the piece, send the quote again to reach them, or cancel the job.";

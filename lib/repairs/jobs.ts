@@ -1,6 +1,6 @@
 import { and, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
-import { getDb } from "@/db/client";
+import { getDb, type Tx } from "@/db/client";
 import { claims, finishProducts, payments, pieces, planSubscriptions, planTemplates, planVisits, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
@@ -15,7 +15,6 @@ import { readLines } from "./lines";
 import { priceJob, pricedPiece, proposeLines, totals } from "./pricing";
 import { assertMove, defaultJobTitle } from "./states";
 
-type Tx = Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0];
 
 function studioProducts(studioId: string) {
   return getDb().select().from(finishProducts).where(and(eq(finishProducts.studioId, studioId), isNull(finishProducts.archivedAt))).all();
