@@ -150,6 +150,10 @@ for (const width of [1280, 375]) {
 test("studio pages: the first Tab shows 'Skip to the page', and Enter takes the keyboard past the header", async ({ page }) => {
   await page.setViewportSize({ width: 1280, height: 900 });
   await signInTo(page, ACCOUNTS.staff, "/studio/claims");
+  // The claims list loads in the browser: let it finish, so a re-render cannot drop the focus mid-test
+  // (seen once on a clean clone: the Tab after the skip landed on a row that was then replaced).
+  await expect(page.locator("main a[href^='/studio/claims/']").first()).toBeVisible();
+  await page.waitForLoadState("networkidle");
   await page.keyboard.press("Tab");
   const skip = page.getByRole("link", { name: "Skip to the page" });
   await expect(skip).toBeFocused();
