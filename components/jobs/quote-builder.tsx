@@ -10,7 +10,7 @@ import { ErrorLine } from "@/components/ui/error-line";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { formatMinorUnits } from "@/lib/care/quote";
-import { formatMoney } from "@/lib/format";
+import { formatAndList, formatMoney } from "@/lib/format";
 import { M2_PER_FT2 } from "@/lib/care/units";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS, SURFACE_LABELS, type Surface } from "@/lib/care/vocabulary";
 import { useReportQuoteDraft } from "@/components/jobs/quote-draft";
@@ -19,14 +19,37 @@ import { LINE_KIND_LABELS, LINE_KINDS, LINE_SOURCE_LABELS, LINE_UNIT_LABELS, LIN
 type Product = { id: string; name: string; finishClassLabel: string };
 type Repair = { key: string; label: string };
 export type BuilderLine = LineDraft & { proposed: { quantity: number; unitPriceMinor: number } | null };
-export type BuilderInitial = { title: string; tasks: string[]; repairs: string[]; productIds: string[]; coats: number; travel: boolean; coveredPct: number; notes: string; areasM2?: Partial<Record<Surface, number>> };
+export type BuilderInitial = {
+  title: string;
+  tasks: string[];
+  repairs: string[];
+  productIds: string[];
+  coats: number;
+  travel: boolean;
+  coveredPct: number;
+  notes: string;
+  areasM2?: Partial<Record<Surface, number>>;
+  /** By task, the surfaces besides the top priced too (lib/validation/jobs.ts alsoSurfaces). */
+  alsoSurfaces?: Partial<Record<string, Surface[]>>;
+};
+/** A task whose finish ends the top and other surfaces, in words, with a choice for each other surface ("Also price the base (6.5 ft²)"). */
+export type TopOnlyChoice = { task: string; words: string; choices: { surface: Surface; label: string }[] };
 
 const QUANTITY = /^\s*\d{1,6}(\.\d{1,3})?\s*$/;
+/** Two form lines alike in everything staff can change. */
+const sameLine = (a: FormLine, b: FormLine) => a.description === b.description && a.quantity === b.quantity && a.unit === b.unit && a.unitPrice === b.unitPrice && a.kind === b.kind;
 /** A checkbox group reads as a list whether one box or several exist. */
 const list = (x: unknown): string[] => (Array.isArray(x) ? x : typeof x === "string" ? [x] : []);
 
 type FormLine = Omit<BuilderLine, "quantity" | "unitPriceMinor"> & { quantity: string; unitPrice: string };
-type FormValues = Omit<BuilderInitial, "coats" | "coveredPct" | "areasM2"> & { coats: string; coveredPct: string; lines: FormLine[]; areas: Partial<Record<Surface, string>> };
+type FormValues = Omit<BuilderInitial, "coats" | "coveredPct" | "areasM2" | "alsoSurfaces"> & {
+  coats: string;
+  coveredPct: string;
+  lines: FormLine[];
+  areas: Partial<Record<Surface, string>>;
+  /** By task, the "Also price the …" boxes ticked (a list, or one box's value or false). */
+  also: Record<string, unknown>;
+};
 /** The fields the schema checks, above the lines and below them, in the order the form shows them. */
 const ABOVE_LINES = ["title", "tasks", "coats"] as const;
 const BELOW_LINES = ["coveredPct", "notes"] as const;
@@ -45,8 +68,8 @@ type QuoteBuilderProps = {
   coveredField: string;
   /** Work the proposal priced nothing for, its surface having no size on the piece's record, in words (lib/repairs/pricing unsizedWords). */
   unsized: string[];
-  /** Work priced on the top although its finish ends another surface too (lib/repairs/pricing topOnlyWords). */
-  topOnly: string[];
+  /** Work whose finish ends the top and other surfaces too, each other surface a box to price it as well (lib/repairs/pricing topOnlyWords). */
+  topOnly: TopOnlyChoice[];
   /** The surfaces the record has no size for, whose area staff may type on this quote. */
   sizeFields: Surface[];
   units: "metric" | "imperial";
@@ -80,7 +103,8 @@ export function QuoteBuilder({
   const typedAreas = Object.fromEntries(Object.entries(initial.areasM2 ?? {}).map(([s, m2]) => [s, String(Number((m2 * unit.perM2).toFixed(2)))]));
   const [formError, setFormError] = useState<string | null>(null);
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
-  const form = useForm<FormValues>({ defaultValues: { ...initial, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm), areas: typedAreas } });
+  const { alsoSurfaces, ...rest } = initial;
+  const form = useForm<FormValues>({ defaultValues: { ...rest, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm), areas: typedAreas, also: { ...alsoSurfaces } } });
   const { register, handleSubmit, formState, control, setError, setFocus } = form;
   useReportQuoteDraft(editable && formState.isDirty);
   const fields = useFieldArray({ control, name: "lines" });
@@ -88,8 +112,16 @@ export function QuoteBuilder({
     ({ body }: { body: Record<string, unknown>; v: FormValues; withLines: boolean }) => apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body }),
     {
       onSuccess: ({ job }, { v, withLines }) => {
-        form.reset({ ...v, lines: job.lines.map(toForm) });
-        toast.success(withLines ? "Quote saved." : "Lines proposed from the tasks. Change hours or quantities, then save.");
+        const saved = job.lines.map(toForm);
+        form.reset({ ...v, lines: saved });
+        if (withLines) return void toast.success("Quote saved.");
+        // Proposing sends no lines, so the server keeps the typed lines last saved: typed lines added or
+        // changed here since stay in the form (unsaved, so the quote can't be sent before they are).
+        const typed = v.lines.filter((l) => l.source === "typed");
+        const savedTyped = saved.filter((l) => l.source === "typed");
+        const same = typed.length === savedTyped.length && typed.every((l, i) => sameLine(l, savedTyped[i]!));
+        if (!same) fields.replace([...saved.filter((l) => l.source !== "typed"), ...typed]);
+        toast.success(same ? "Lines proposed from the tasks. Change hours or quantities, then save." : "Lines proposed from the tasks. Your typed lines are kept: save the quote to keep them.");
       },
       onError: (words, e, { v }) => {
         if (!isApiError(e)) return setFormError(words);
@@ -120,7 +152,10 @@ export function QuoteBuilder({
       });
       // Sizes typed in the studio's units go to the server in m² (an empty field: no size).
       const areasM2 = Object.fromEntries(sizeFields.flatMap((s) => (v.areas?.[s]?.trim() ? [[s, Number(v.areas[s]) / unit.perM2]] : [])));
-      const body = { title: v.title, notes: v.notes, tasks: list(v.tasks), repairs: list(v.repairs), productIds: list(v.productIds), coats: v.coats, travel: v.travel, coveredPct: v.coveredPct, areasM2, ...(withLines ? { lines: sent } : {}) };
+      // The surfaces priced besides the top, for the tasks still chosen, among those the note offers.
+      const tasks = list(v.tasks);
+      const alsoSurfaces = Object.fromEntries(topOnly.filter((w) => tasks.includes(w.task)).map((w) => [w.task, list(v.also?.[w.task]).filter((s) => w.choices.some((c) => c.surface === s))]));
+      const body = { title: v.title, notes: v.notes, tasks, repairs: list(v.repairs), productIds: list(v.productIds), coats: v.coats, travel: v.travel, coveredPct: v.coveredPct, areasM2, alsoSurfaces, ...(withLines ? { lines: sent } : {}) };
       // The server's own schema, checked on the same press: every field's problem shows at once, the first focused.
       const problems = (await import("@/lib/validation/jobs")).quoteProblems(body);
       const badArea = sizeFields.find((s) => problems[`areasM2.${s}`]);
@@ -156,12 +191,22 @@ export function QuoteBuilder({
         ) : null}
 
         {topOnly.length ? (
-          <Notice title="Priced for the top only">
-            <ul className="list-disc space-y-1 pl-5">
-              {topOnly.map((words) => (
-                <li key={words}>{words}</li>
+          <Notice title="This finish is on more than the top">
+            <ul className="space-y-3">
+              {topOnly.map((w) => (
+                <li key={w.task} className="space-y-2">
+                  <p>{w.words}</p>
+                  {w.choices.map((c) => (
+                    <label key={c.surface} className="flex min-h-11 items-center gap-2 rounded-lg border border-line bg-white px-3">
+                      {/* Ticking proposes the lines again at once, so the lines and the choice never disagree. */}
+                      <input type="checkbox" value={c.surface} {...register(`also.${w.task}`, { onChange: () => void submit(false)() })} className="size-4" />
+                      {c.label}
+                    </label>
+                  ))}
+                </li>
               ))}
             </ul>
+            <p className="mt-2">Ticking or clearing a box proposes the lines again; lines you typed yourself stay.</p>
           </Notice>
         ) : null}
 
@@ -305,7 +350,10 @@ function ClosedQuote({
 }: Omit<QuoteBuilderProps, "jobId" | "exponent" | "editable" | "unsized" | "topOnly" | "sizeFields" | "units">) {
   const from = [
     ...repairs.filter((r) => initial.repairs.includes(r.key)).map((r) => r.label),
-    ...initial.tasks.filter((t): t is keyof typeof CARE_TASK_LABELS => t in CARE_TASK_LABELS).map((t) => CARE_TASK_LABELS[t]),
+    // A task priced on other surfaces beside the top names them: "Re-wax (top and base)".
+    ...initial.tasks
+      .filter((t): t is keyof typeof CARE_TASK_LABELS => t in CARE_TASK_LABELS)
+      .map((t) => (initial.alsoSurfaces?.[t]?.length ? `${CARE_TASK_LABELS[t]} (${formatAndList(["top", ...initial.alsoSurfaces[t]!].map((s) => SURFACE_LABELS[s as Surface].toLowerCase()))})` : CARE_TASK_LABELS[t])),
     ...products.filter((p) => initial.productIds.includes(p.id)).map((p) => `${p.name} (${p.finishClassLabel})`),
   ];
   return (

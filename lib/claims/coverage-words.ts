@@ -5,7 +5,7 @@ import { CARE_GUIDE_CLIMATE, type CoverageCheck, type CoverageSuggestion, type R
 import type { IsoDate } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import { CARE_TASK_LABELS, type ClaimExclusion } from "@/lib/care/vocabulary";
-import { formatDate, formatLength, formatTemperature, formatTemperatureChange, formatTimeLeft, type UnitSystem } from "@/lib/format";
+import { formatAndList, formatDate, formatLength, formatTemperature, formatTemperatureChange, formatTimeLeft, type UnitSystem } from "@/lib/format";
 import { exclusionLabel } from "@/lib/owner/warranty";
 import type { PlanTermChange } from "@/lib/plans/coverage-terms";
 
@@ -23,10 +23,6 @@ export const CARE_LOG_CONDITION_LABELS: Record<CoverageCheck["careLogCondition"]
   unknown: "Can't tell yet from the care log",
 };
 
-function list(items: string[]): string {
-  return items.length <= 1 ? (items[0] ?? "") : `${items.slice(0, -1).join(", ")} and ${items.at(-1)}`;
-}
-
 /** One sentence: the suggestion and the one or two facts that decide it. */
 export function coverageSummary(c: CoverageCheck): string {
   const line = c.line ? `the “${c.line.label}” line` : null;
@@ -40,14 +36,14 @@ export function coverageSummary(c: CoverageCheck): string {
         ...(c.careLogCondition === "missed" ? ["care was not logged when it fell due"] : []),
         ...(c.climate && !c.climate.insideCareGuide ? ["the room's climate was outside the care guide's range"] : []),
       ];
-      return `Suggested: partly covered (${c.suggestedCoveredPct} %) under ${line}${term}${why.length ? `, because ${list(why)}` : ""}.`;
+      return `Suggested: partly covered (${c.suggestedCoveredPct} %) under ${line}${term}${why.length ? `, because ${formatAndList(why)}` : ""}.`;
     }
     case "needs_info":
       return `Suggested: ask the owner ${c.questions.length === 1 ? "one question" : `${c.questions.length} questions`} before deciding${line ? ` (${line})` : ""}.`;
     case "not_covered": {
       if (!c.line) return "Suggested: not covered — no line of the warranty terms covers this kind of damage.";
       if (c.daysLeft != null && c.daysLeft < 0) return `Suggested: not covered — ${line}${term}.`;
-      if (c.exclusionsTriggered.length) return `Suggested: not covered — ${line} excludes ${list(c.exclusionsTriggered.map(exclusionLabel))}.`;
+      if (c.exclusionsTriggered.length) return `Suggested: not covered — ${line} excludes ${formatAndList(c.exclusionsTriggered.map(exclusionLabel))}.`;
       if (c.careLogCondition === "missed") return `Suggested: not covered — ${line} asks for care to be logged when due, and it was not.`;
       return `Suggested: not covered under ${line}.`;
     }

@@ -4,4 +4,5 @@
 export * from "./dates";
 export * from "./money";
 export * from "./units";
+export * from "./words";
 export * from "./zones";

@@ -4,15 +4,15 @@ import { getDb, type Tx } from "@/db/client";
 import { claims, finishProducts, payments, pieces, planSubscriptions, planTemplates, planVisits, refreshOffers, repairJobs, studios, users, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { StudioContext } from "@/lib/auth/guards";
-import { SURFACES, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
+import { FINISH_CLASSES, SURFACES, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { conflict, notFound } from "@/lib/errors";
-import { recordedAreaM2 } from "@/lib/pieces/care-inputs";
+import { recordedAreaM2, surfacesEndingIn } from "@/lib/pieces/care-inputs";
 import { planRepairDiscount } from "@/lib/plans/repair-discount";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { jobVisibleTo, jobWhere } from "./access";
 import { ownerActsOnJob, type OwnerReach } from "./owner-reach";
 import { readLines } from "./lines";
-import { priceJob, pricedPiece, proposeLines, totals } from "./pricing";
+import { priceJob, pricedPiece, proposeLines, totals, type PricedPiece } from "./pricing";
 import { assertMove, defaultJobTitle } from "./states";
 
 
@@ -52,15 +52,26 @@ export function jobsToCreate(ctx: StudioContext) {
   return { fromClaims, fromOffers };
 }
 
-/** The work a claim's first quote proposes, by the claim's category (staff change it on the quote). */
-const CLAIM_WORK: Record<string, { tasks: CareTaskKind[]; repairs?: string[] }> = {
+/**
+ * The work a claim's first quote proposes, by the claim's category (staff change it on the quote).
+ * "refresh" is the task that renews the top's outer finish (worn or scratched wax is re-waxed, a worn
+ * film finish inspected, not re-oiled), else the task named beside it where the finish stack says nothing.
+ */
+const CLAIM_WORK: Record<string, { tasks: (CareTaskKind | { refresh: CareTaskKind })[]; repairs?: string[] }> = {
   crack_gap: { tasks: [], repairs: ["crack_fill"] },
   resin_clouding: { tasks: ["resin_polish"] },
-  finish_wear: { tasks: ["reoil"] },
-  finish_peeling: { tasks: ["topcoat_refresh"], repairs: ["spot_refinish"] },
+  finish_wear: { tasks: [{ refresh: "reoil" }] },
+  finish_peeling: { tasks: [{ refresh: "topcoat_refresh" }], repairs: ["spot_refinish"] },
   structural: { tasks: [], repairs: ["base_fix"] },
-  scratch_dent: { tasks: ["reoil"], repairs: ["spot_refinish"] },
+  scratch_dent: { tasks: [{ refresh: "reoil" }], repairs: ["spot_refinish"] },
 };
+
+/** A claim's first work on this piece: each "refresh" read from the top's outermost layer (lib/pieces/care-inputs surfacesEndingIn). */
+function claimWork(category: string, layers: PricedPiece["layers"]): { tasks: CareTaskKind[]; repairs?: string[] } {
+  const work = CLAIM_WORK[category] ?? { tasks: ["annual_check"] };
+  const top = FINISH_CLASSES.find((c) => surfacesEndingIn(layers, c).includes("top"));
+  return { ...work, tasks: work.tasks.map((t) => (typeof t === "string" ? t : top ? TASK_KIND_BY_FINISH_CLASS[top] : t.refresh)) };
+}
 
 
 /**
@@ -91,8 +102,9 @@ export function createJob(ctx: StudioContext, from: "claim" | "refresh_offer", s
       const handedOn = handedOnRefusal("claim", claim, piece);
       if (handedOn) throw conflict(handedOn);
       const coveredPct = claim.decision === "covered" ? 100 : claim.decision === "partly_covered" ? (claim.coveredPct ?? 0) : 0;
-      const input = defaultQuoteInput(defaultJobTitle({ claim: claim.category }), CLAIM_WORK[claim.category] ?? { tasks: ["annual_check"] }, products, coveredPct);
-      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, pricedPiece(tx, piece), input, products, [], planRepairDiscount(piece.id, new Date()))) };
+      const priced = pricedPiece(tx, piece);
+      const input = defaultQuoteInput(defaultJobTitle({ claim: claim.category }), claimWork(claim.category, priced.layers), products, coveredPct);
+      values = { studioId: ctx.studio.id, pieceId: piece.id, ownerId: claim.ownerId, origin: "claim", claimId: claim.id, title: input.title, quoteInput: input, currency: ctx.studio.currency, coveredPct, createdById: ctx.user.id, ...totals(priceJob(ctx.studio, priced, input, products, [], planRepairDiscount(piece.id, new Date()))) };
     } else {
       const offer = tx.select().from(refreshOffers).where(and(eq(refreshOffers.id, sourceId), eq(refreshOffers.studioId, ctx.studio.id))).get();
       if (!offer) throw notFound("No such refresh offer in this studio.");

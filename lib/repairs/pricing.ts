@@ -6,7 +6,7 @@ import { finishLayers, type FinishLayer, type finishProducts, type Piece, type S
 import type { DbOrTx } from "@/lib/pieces/search-index";
 import { DEFAULT_LABOUR, quote, quoteProductFromCatalog } from "@/lib/care/quote";
 import { CARE_TASK_LABELS, SURFACE_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass, type Surface } from "@/lib/care/vocabulary";
-import { formatVolume } from "@/lib/format";
+import { formatAndList, formatArea, formatVolume } from "@/lib/format";
 import { recordedAreaM2, refreshedSurface, surfacesEndingIn, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { priceLines, type JobLine, type LineDraft, type PlanDiscount, type PricedLines, type PricingRules, type StudioTax } from "./lines";
@@ -44,18 +44,38 @@ export function unsizedWords(u: UnsizedWork): string {
   return `${u.label}: the work is on the ${surface}, and the piece's record has no size for the ${surface}, so no lines were proposed for it.`;
 }
 
-/** Work the proposal priced on the top although its finish also ends another surface (an oiled top and base). */
+/**
+ * A task whose finish is the outer coat of the top and of other surfaces too (an oiled top and base): the
+ * proposal prices the top, and each other surface staff chose (JobQuoteInput.alsoSurfaces).
+ */
 export interface TopOnlyWork {
+  task: CareTaskKind;
   label: string;
   /** Every surface whose outermost layer is the task's finish, the top first. */
   surfaces: Surface[];
+  /** The other surfaces staff chose to price too. */
+  also: Surface[];
+  /** Each of those surfaces' size for this quote (quoteAreaM2), m², null where none is known: the top's too. */
+  areasM2: Partial<Record<Surface, number | null>>;
 }
 
-/** One such piece of work in staff's words, for the quote builder's notice. */
-export function topOnlyWords(w: TopOnlyWork): string {
-  const others = w.surfaces.filter((s) => s !== "top").map((s) => `the ${SURFACE_LABELS[s].toLowerCase()}`);
-  const which = others.length === 1 ? `the top and ${others[0]} both have` : `the top, ${others.join(" and ")} all have`;
-  return `${w.label}: ${which} this finish as their outer coat; the lines price the top only. If the work covers ${others.length === 1 ? others[0] : "them"} too, add lines for it.`;
+/** "the top", "the top and the base", "the top, the base and the edges". */
+function surfaceList(surfaces: readonly Surface[]): string {
+  return formatAndList(surfaces.map((s) => `the ${SURFACE_LABELS[s].toLowerCase()}`));
+}
+
+/** One such task in staff's words, for the quote builder's note: which surfaces share the finish, which the lines price. */
+export function topOnlyWords(w: Pick<TopOnlyWork, "label" | "surfaces" | "also" | "areasM2">): string {
+  const priced = w.surfaces.filter((s) => (s === "top" || w.also.includes(s)) && w.areasM2[s] != null);
+  const left = w.surfaces.filter((s) => s !== "top" && !w.also.includes(s));
+  const share = `${w.label}: ${surfaceList(w.surfaces)} ${w.surfaces.length === 2 ? "both" : "all"} have this finish as their outer coat`;
+  const lines = priced.length === 0 ? "no surface is priced yet" : priced.length === 1 ? `the lines price ${surfaceList(priced)} only` : `the lines price ${surfaceList(priced)}`;
+  return `${share}, and ${lines}.${left.length ? ` If the work covers ${surfaceList(left)} too, tick ${left.length === 1 ? "it" : "them"} below.` : ""}`;
+}
+
+/** The note's choice for one other surface, its size in the studio's units: "Also price the base (6.5 ft²)". */
+export function alsoSurfaceLabel(surface: Surface, areaM2: number | null | undefined, units: Studio["unitSystem"]): string {
+  return `Also price the ${SURFACE_LABELS[surface].toLowerCase()} (${areaM2 == null ? "no size yet" : formatArea(areaM2, units)})`;
 }
 
 const CLASS_BY_TASK = Object.fromEntries(Object.entries(TASK_KIND_BY_FINISH_CLASS).map(([cls, task]) => [task, cls])) as Partial<Record<CareTaskKind, FinishClass>>;
@@ -87,6 +107,12 @@ export function quoteAreaM2(piece: Piece, input: Pick<JobQuoteInput, "areasM2">,
  * fee, and each chosen repair from the studio's price list. Work whose size depends on a surface with no
  * known size gets no line (a made-up size would be a made-up price) and is listed in `unsized`, for staff
  * to type the size or the lines.
+ *
+ * A task whose finish is the outer coat of the top and of other surfaces (an oiled top and base) is
+ * priced on the top, and on each other surface staff chose (`alsoSurfaces`), by the same rules: one
+ * labour line a surface, named for it ("Re-oil — base"), its hours from that surface's size; the product
+ * once, on the surfaces' summed area, so a tin opened for the top serves the base and the containers are
+ * rounded up once for the visit, not once a surface. Those it is not priced on are listed in `topOnly`.
  */
 export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuoteInput, products: Product[]): { lines: LineDraft[]; unsized: UnsizedWork[]; topOnly: TopOnlyWork[] } {
   const labour: LineDraft[] = [];
@@ -94,37 +120,51 @@ export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuote
   const unsized: UnsizedWork[] = [];
   const topOnly: TopOnlyWork[] = [];
   const chosen = toCatalog(products.filter((p) => input.productIds.includes(p.id)));
-  for (const task of input.tasks) {
-    const surface = taskSurface(piece.layers, task);
-    const areaM2 = DEFAULT_LABOUR[task].hoursPerM2 > 0 || chosen.some((e) => TASK_KIND_BY_FINISH_CLASS[e.finishClass] === task) ? quoteAreaM2(piece, input, surface) : 0;
-    if (areaM2 === null) {
-      unsized.push({ label: CARE_TASK_LABELS[task], surface });
-      continue;
-    }
-    const cls = CLASS_BY_TASK[task];
-    const ending = cls ? surfacesEndingIn(piece.layers, cls) : [];
-    if (areaM2 > 0 && ending.length > 1 && ending.includes("top")) topOnly.push({ label: CARE_TASK_LABELS[task], surfaces: ["top", ...ending.filter((s) => s !== "top")] });
-    const q = quote({
+  const engine = (task: CareTaskKind, areaM2: number, withProducts: boolean) =>
+    quote({
       tasks: [task],
       areaM2,
       rates: { labourPerHourMinor: studio.labourRateMinor },
-      products: chosen.map((entry) => ({ ...quoteProductFromCatalog(entry, TASK_KIND_BY_FINISH_CLASS[entry.finishClass]), label: entry.id, coats: input.coats })),
+      products: withProducts ? chosen.map((entry) => ({ ...quoteProductFromCatalog(entry, TASK_KIND_BY_FINISH_CLASS[entry.finishClass]), label: entry.id, coats: input.coats })) : [],
       taxRatePct: 0,
       coveredPct: 0,
       currency: studio.currency,
+    }).lines;
+  for (const task of input.tasks) {
+    const label = CARE_TASK_LABELS[task];
+    const needsArea = DEFAULT_LABOUR[task].hoursPerM2 > 0 || chosen.some((e) => TASK_KIND_BY_FINISH_CLASS[e.finishClass] === task);
+    const surface = taskSurface(piece.layers, task);
+    const cls = CLASS_BY_TASK[task];
+    const ending = cls ? surfacesEndingIn(piece.layers, cls) : [];
+    // The top and other surfaces end in this finish: the top, and the others staff chose, in the stack's order.
+    const shared = needsArea && ending.length > 1 && ending.includes("top");
+    const also = shared ? ending.filter((s) => s !== "top" && (input.alsoSurfaces?.[task] ?? []).includes(s)) : [];
+    const surfaces: Surface[] = [surface, ...also];
+    const areas = surfaces.map((s) => (needsArea ? quoteAreaM2(piece, input, s) : 0));
+    if (shared) topOnly.push({ task, label, surfaces: ["top", ...ending.filter((s) => s !== "top")], also, areasM2: Object.fromEntries(ending.map((s) => [s, quoteAreaM2(piece, input, s)])) });
+    const sized = surfaces.flatMap((s, i) => {
+      const areaM2 = areas[i]!;
+      if (areaM2 === null) unsized.push({ label, surface: s });
+      return areaM2 === null ? [] : [{ surface: s, areaM2 }];
     });
-    for (const l of q.lines) {
-      if (l.kind === "labour") labour.push({ kind: "labour", source: "labour_rate", ref: `task:${l.taskKind}`, description: l.description, quantity: l.quantity, unit: "h", unitPriceMinor: l.unitPriceMinor });
-      else if (l.kind === "materials") {
-        // The engine's line reads "<label>, <size> mL"; the label is the product's id (set above).
-        const cut = l.description.lastIndexOf(", ");
-        const productId = l.description.slice(0, cut);
-        const size = l.description.slice(cut + 2);
-        const name = products.find((p) => p.id === productId)?.name ?? productId;
-        const sizeMl = Number(size.replace(" mL", ""));
-        // The container size in the studio's units (the quote is the studio's document): "4.3 US fl oz (125 mL)".
-        materials.push({ kind: "materials", source: "catalog", ref: `product:${productId}:${sizeMl}`, description: `${name}, ${formatVolume(sizeMl, studio.unitSystem)}`, quantity: l.quantity, unit: "container", unitPriceMinor: l.unitPriceMinor });
+    if (sized.length === 0) continue;
+    // Lines name their surface once more than the top is chosen: "Re-oil — top", "Re-oil — base".
+    const named = also.length > 0;
+    for (const { surface: s, areaM2 } of sized) {
+      for (const l of engine(task, areaM2, false)) {
+        const ref = s === surface ? `task:${l.taskKind}` : `task:${l.taskKind}:${s}`;
+        labour.push({ kind: "labour", source: "labour_rate", ref, description: named ? `${label} — ${SURFACE_LABELS[s].toLowerCase()}` : l.description, quantity: l.quantity, unit: "h", unitPriceMinor: l.unitPriceMinor });
       }
+    }
+    const totalM2 = sized.reduce((t, x) => t + x.areaM2, 0);
+    const on = named ? ` — ${formatAndList(sized.map((x) => SURFACE_LABELS[x.surface].toLowerCase()))}` : "";
+    for (const l of totalM2 > 0 ? engine(task, totalM2, true) : []) {
+      if (l.kind !== "materials" || !l.product || l.sizeMl === undefined) continue;
+      // The engine's product label is the product's id (set above).
+      const productId = l.product;
+      const name = products.find((p) => p.id === productId)?.name ?? productId;
+      // The container size in the studio's units (the quote is the studio's document): "4.3 US fl oz (125 mL)".
+      materials.push({ kind: "materials", source: "catalog", ref: `product:${productId}:${l.sizeMl}`, description: `${name}, ${formatVolume(l.sizeMl, studio.unitSystem)}${on}`, quantity: l.quantity, unit: "container", unitPriceMinor: l.unitPriceMinor });
     }
   }
   const out: LineDraft[] = [...labour, ...materials];

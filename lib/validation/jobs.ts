@@ -51,6 +51,12 @@ export const jobQuoteSchema = z
      * them can be proposed (lib/repairs/pricing quoteAreaM2); the record's own size always wins.
      */
     areasM2: z.partialRecord(z.enum(SURFACES), area).optional(),
+    /**
+     * For a task whose finish is the outer coat of the top and of other surfaces too (an oiled top and
+     * base), the other surfaces staff chose to price as well, by task (lib/repairs/pricing proposeLines).
+     * Without it (quotes saved before it existed) the top alone is priced.
+     */
+    alsoSurfaces: z.partialRecord(z.enum(CARE_TASK_KINDS), z.array(z.enum(SURFACES).exclude(["top"])).max(SURFACES.length - 1)).optional(),
     lines: z.array(quoteLineSchema).max(40, "At most 40 lines.").optional(),
   })
   .refine((v) => v.tasks.length + (v.repairs?.length ?? 0) + (v.lines?.length ?? 0) > 0, { message: "Pick at least one task or add a line.", path: ["tasks"] });

@@ -110,6 +110,76 @@ test("staff propose a crack fill, change its hours, add a typed line and save; t
   expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
 });
 
+test("staff price the desk's waxed base beside its top: a typed line kept, the base's area in ft², the choice kept and sent", async ({ page }) => {
+  const jobId = fixture().jobs.waxTopAndBase!;
+  await signInTo(page, ACCOUNTS.staff, `/studio/jobs/${jobId}`);
+  await expect(page.getByRole("heading", { name: "Re-wax the desk, top and legs (invented)", level: 1 })).toBeVisible();
+  const note = page.getByRole("status").filter({ hasText: "This finish is on more than the top" });
+  await expect(note).toContainText("Re-wax: the top and the base both have this finish as their outer coat, and the lines price the top only. If the work covers the base too, tick it below.");
+  const base = note.getByRole("checkbox", { name: /^Also price the base/ });
+  await expect(note.getByText("Also price the base (no size yet)")).toBeVisible();
+  await expect(base).not.toBeChecked();
+
+  // A typed line not saved yet survives the proposal the box sets off (it was lost on "Propose lines").
+  await page.getByRole("button", { name: "Add a typed line" }).click();
+  const typed = quoteLines(page).last();
+  await typed.getByLabel(/^Line \d+: description$/).fill("Carry the desk from the window (invented)");
+  await typed.getByLabel("Unit price (USD)").fill("20.00");
+  // Ticked with no size for the base: the top alone is priced, named for it, and the base is listed as unsized.
+  await base.check();
+  await expect(page.getByText("Your typed lines are kept: save the quote to keep them.")).toBeVisible();
+  await expect(page.getByRole("status").filter({ hasText: "Some work has no size to price it from" })).toContainText("Re-wax: the work is on the base, and the piece's record has no size for the base, so no lines were proposed for it.");
+  await lineWith(page, "Re-wax — top");
+  await lineWith(page, "Carry the desk from the window (invented)");
+  const send = page.getByRole("button", { name: "Send quote to owner" });
+  await expect(send).toBeDisabled();
+
+  // The base's area in the studio's unit: 6 ft² × 0.09290304 m²/ft² (1 ft = 0.3048 m exactly, NIST SP 811 (2008), App. B.9) = 0.5574 m².
+  await page.getByLabel("Base area for this quote (ft²)").fill("6");
+  await page.getByRole("button", { name: "Propose lines" }).click();
+  await expect(note.getByText("Also price the base (6.0 ft²)")).toBeVisible();
+  await expect(page.getByText("Some work has no size to price it from")).toHaveCount(0);
+  // Labour, by the top's rule for each surface: 0.25 h + 0.5 h/m² (lib/care/quote DEFAULT_LABOUR, invented for the
+  // demo — common practice, no published source), rounded up to the quarter hour, at the demo's $85.00/h.
+  // Top 1,500 × 700 mm = 1.05 m²: 0.775 → 1 h. Base 0.5574 m²: 0.5287 → 0.75 h.
+  await expect((await lineWith(page, "Re-wax — top")).getByText("Labour rate · proposed 1 h at $85.00")).toBeVisible();
+  await expect((await lineWith(page, "Re-wax — base")).getByText("Labour rate · proposed 0.75 h at $85.00")).toBeVisible();
+  // Wax: (1.05 + 0.5574) m² × 1 coat ÷ 20 m²/L = 80.4 mL → one 200 mL tin at $16.00 (lib/care/quantity.ts); a tin
+  // a surface (52.5 mL and 27.9 mL) would have been two.
+  await expect((await lineWith(page, "Clear paste wax, 6.8 US fl oz (200 mL) — top and base")).getByText("Catalog product · proposed 1 container at $16.00")).toBeVisible();
+  await page.getByRole("button", { name: "Save the quote" }).click();
+  await expect(page.getByText("Quote saved.")).toBeVisible();
+  await expect(send).toBeEnabled();
+
+  // Re-opened, at 375 px: the box is still ticked, the lines as saved, nothing sideways.
+  await page.setViewportSize({ width: 375, height: 800 });
+  await page.reload();
+  await expect(note.getByRole("checkbox", { name: "Also price the base (6.0 ft²)" })).toBeChecked();
+  expect(await page.getByLabel(/^Line \d+: description$/).evaluateAll((els) => els.map((e) => (e as HTMLInputElement).value))).toEqual([
+    "Re-wax — top",
+    "Re-wax — base",
+    "Clear paste wax, 6.8 US fl oz (200 mL) — top and base",
+    "Carry the desk from the window (invented)",
+  ]);
+  expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+  await page.setViewportSize({ width: 1280, height: 900 });
+
+  // Sent as shown: $85.00 + $63.75 + $16.00 + $20.00 = $184.75 before tax.
+  await send.click();
+  await expect(page.getByText("Quote sent to the owner.")).toBeVisible();
+  const { job } = (await (await page.request.get(`/api/jobs/${jobId}`)).json()) as { job: { state: string; lines: { description: string; quantity: number; amountMinor: number }[]; totals: { subtotalMinor: number } } };
+  expect(job.state).toBe("quoted");
+  expect(job.lines.map((l) => [l.description, l.quantity, l.amountMinor])).toEqual([
+    ["Re-wax — top", 1, 8500],
+    ["Re-wax — base", 0.75, 6375],
+    ["Clear paste wax, 6.8 US fl oz (200 mL) — top and base", 1, 1600],
+    ["Carry the desk from the window (invented)", 1, 2000],
+  ]);
+  expect(job.totals.subtotalMinor).toBe(18_475);
+  const axe = await new AxeBuilder({ page }).analyze();
+  expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
+});
+
 test("admins read the repair price list, rounding and tax settings", async ({ page }) => {
   await signInTo(page, ACCOUNTS.admin, "/studio/settings/repairs");
   await expect(page.getByRole("heading", { name: "Repair prices and tax" })).toBeVisible();

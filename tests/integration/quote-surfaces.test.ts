@@ -13,7 +13,7 @@ import { getDb } from "@/db/client";
 import { claims, finishLayers, pieces, studios } from "@/db/schema";
 import { createJob, getStudioJob } from "@/lib/repairs/jobs";
 import { updateJobQuote } from "@/lib/repairs/payment";
-import { pricedPiece, topOnlyWords } from "@/lib/repairs/pricing";
+import { alsoSurfaceLabel, pricedPiece, topOnlyWords } from "@/lib/repairs/pricing";
 import { updateRepairSettings } from "@/lib/repairs/settings";
 import { jobQuoteSchema } from "@/lib/validation/jobs";
 import { jobDurationMin, UNSIZED_BOOKING_AREA_M2 } from "@/lib/visits/availability";
@@ -42,13 +42,11 @@ async function pieceWithOiledBase(overrides: Partial<typeof pieces.$inferInsert>
   const staff = await memberContext(getDb().select().from(studios).where(eq(studios.id, studio.id)).get()!, "staff");
   const owner = await createUser();
   const { piece } = createPiece(studio, { ownerId: owner.id, ...overrides });
-  getDb()
-    .insert(finishLayers)
-    .values([
-      { studioId: studio.id, pieceId: piece.id, surface: "top", position: 1, finishClass: "ceramic_topcoat", coats: 1, appliedOn: piece.deliveredOn },
-      { studioId: studio.id, pieceId: piece.id, surface: "base", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn },
-    ])
-    .run();
+  // The fixture's oiled top (position 0) under a ceramic topcoat; an oiled base.
+  addLayers(piece, [
+    { surface: "top", position: 1, finishClass: "ceramic_topcoat", coats: 1 },
+    { surface: "base", position: 0, finishClass: "hardwax_oil", coats: 2 },
+  ]);
   const oil = createProduct(studio, { containers: [{ ml: 125, priceMinor: 1900 }] });
   const claim = createAcceptedClaim(studio, piece.id, owner.id, "chargeable");
   getDb().update(claims).set({ category: "crack_gap" }).where(eq(claims.id, claim.id)).run();
@@ -118,24 +116,19 @@ describe("each quote line is priced from the surface its work is on", () => {
 
   it("a re-oil where the top and the base both end in oil prices the top, and staff are told the base is not in it", async () => {
     const { staff, job, oil, piece } = await pieceWithOiledBase();
-    // The top's ceramic topcoat taken off the record: the top's outermost layer is now its oil, as the base's is.
-    getDb().delete(finishLayers).where(eq(finishLayers.pieceId, piece.id)).run();
-    getDb()
-      .insert(finishLayers)
-      .values([
-        { studioId: piece.studioId, pieceId: piece.id, surface: "top", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn },
-        { studioId: piece.studioId, pieceId: piece.id, surface: "base", position: 0, finishClass: "hardwax_oil", coats: 2, appliedOn: piece.deliveredOn },
-      ])
-      .run();
+    oilTopAndBase(piece);
     const updated = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil", "annual_check"], productIds: [oil.id] }));
     // The top's 1.8 m²: 0.5 h + 0.5 h/m² × 1.8 m² = 1.4 → 1.5 h (lib/care/quote DEFAULT_LABOUR, common practice, no published source).
     expect(updated.lines.find((l) => l.ref === "task:reoil")).toMatchObject({ quantity: 1.5, amountMinor: 12750 });
     const view = getStudioJob(staff, job.id);
     expect(view.unsized).toEqual([]);
     // Before: nothing said the base's oil was left out of the price. The annual check needs no size, so no note.
-    expect(view.topOnly).toEqual([{ label: "Re-oil", surfaces: ["top", "base"] }]);
-    expect(topOnlyWords(view.topOnly[0]!)).toBe("Re-oil: the top and the base both have this finish as their outer coat; the lines price the top only. If the work covers the base too, add lines for it.");
-    expect(topOnlyWords({ label: "Re-oil", surfaces: ["top", "base", "edges"] })).toBe("Re-oil: the top, the base and the edges all have this finish as their outer coat; the lines price the top only. If the work covers them too, add lines for it.");
+    // The base has no size yet (the record keeps none for it): null, the top's 2.0 m × 0.9 m = 1.8 m².
+    expect(view.topOnly).toEqual([{ task: "reoil", label: "Re-oil", surfaces: ["top", "base"], also: [], areasM2: { top: 1.8, base: null } }]);
+    expect(topOnlyWords(view.topOnly[0]!)).toBe("Re-oil: the top and the base both have this finish as their outer coat, and the lines price the top only. If the work covers the base too, tick it below.");
+    expect(topOnlyWords({ label: "Re-oil", surfaces: ["top", "base", "edges"], also: [], areasM2: { top: 1.8 } })).toBe(
+      "Re-oil: the top, the base and the edges all have this finish as their outer coat, and the lines price the top only. If the work covers the base and the edges too, tick them below.",
+    );
     // A piece whose base ends in another finish gets no note (the first case's piece: topcoat over the top's oil).
     const other = await pieceWithOiledBase();
     await updateJobQuote(other.staff, other.job.id, quote({ tasks: ["topcoat_refresh"] }));
@@ -146,6 +139,135 @@ describe("each quote line is priced from the surface its work is on", () => {
     const bad = jobQuoteSchema.safeParse({ title: "x", tasks: ["reoil"], productIds: [], coats: 1, travel: false, coveredPct: 0, areasM2: { base: -1 } });
     expect(bad.success).toBe(false);
     expect(bad.error!.issues[0]!.path).toEqual(["areasM2", "base"]);
+  });
+});
+
+/** Layers added to a piece's finish stack, applied on its delivery day. */
+function addLayers(piece: typeof pieces.$inferSelect, layers: Pick<typeof finishLayers.$inferInsert, "surface" | "position" | "finishClass" | "coats">[]) {
+  getDb().insert(finishLayers).values(layers.map((l) => ({ ...l, studioId: piece.studioId, pieceId: piece.id, appliedOn: piece.deliveredOn }))).run();
+}
+
+/** The top's ceramic topcoat taken off the record: the top's outermost layer is its oil, as the base's is. */
+function oilTopAndBase(piece: typeof pieces.$inferSelect) {
+  getDb().delete(finishLayers).where(eq(finishLayers.pieceId, piece.id)).run();
+  addLayers(piece, [
+    { surface: "top", position: 0, finishClass: "hardwax_oil", coats: 2 },
+    { surface: "base", position: 0, finishClass: "hardwax_oil", coats: 2 },
+  ]);
+}
+
+// Pricing the base beside the top. Labour on each surface by the same rule as the top's: 0.5 h + 0.5 h/m²,
+// rounded up to the quarter hour (lib/care/quote DEFAULT_LABOUR and LABOUR_INCREMENT_HOURS, invented for
+// the demo — common practice, no published source). Product: area × coats ÷ coverage per coat (lib/care/quantity.ts,
+// lib/care/SOURCES.md) in whole containers, worked once on the surfaces' summed area (our choice: one tin
+// opened on the visit serves both surfaces — common practice, no published source).
+describe("staff price the base too where it ends in the top's finish", () => {
+  it("the base's typed 0.6 m² adds its own labour line, and the oil is worked on 1.8 + 0.6 m² at once", async () => {
+    const { staff, job, oil, piece } = await pieceWithOiledBase();
+    oilTopAndBase(piece);
+    const updated = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], areasM2: { base: 0.6 }, alsoSurfaces: { reoil: ["base"] } }));
+    // Top: 0.5 h + 0.5 h/m² × 1.8 m² = 1.4 → 1.5 h × $85.00 = $127.50. Base: 0.5 h + 0.5 h/m² × 0.6 m² = 0.8 → 1.0 h × $85.00 = $85.00.
+    expect(updated.lines.filter((l) => l.kind === "labour")).toEqual([
+      expect.objectContaining({ ref: "task:reoil", description: "Re-oil — top", quantity: 1.5, unitPriceMinor: 8500, amountMinor: 12750 }),
+      expect.objectContaining({ ref: "task:reoil:base", description: "Re-oil — base", quantity: 1, unitPriceMinor: 8500, amountMinor: 8500 }),
+    ]);
+    // Oil: (1.8 + 0.6) m² × 2 coats ÷ 24 m²/L = 0.2 L = 200 mL → two 125 mL tins (250 mL) × $19.00 = $38.00.
+    // Rounded up a surface at a time it would be 150 mL → 2 tins and 50 mL → 1 tin: 3 tins, $57.00.
+    expect(updated.lines.filter((l) => l.kind === "materials")).toEqual([expect.objectContaining({ ref: `product:${oil.id}:125`, description: "Test hardwax oil (invented), 125 mL — top and base", quantity: 2, unitPriceMinor: 1900, amountMinor: 3800 })]);
+    expect(updated.totalMinor).toBe(12750 + 8500 + 3800);
+    // Read back: the choice is kept with the quote's input, and the note says both surfaces are priced.
+    const view = getStudioJob(staff, job.id);
+    expect(view.job.quoteInput.alsoSurfaces).toEqual({ reoil: ["base"] });
+    expect(view.topOnly).toEqual([{ task: "reoil", label: "Re-oil", surfaces: ["top", "base"], also: ["base"], areasM2: { top: 1.8, base: 0.6 } }]);
+    expect(topOnlyWords(view.topOnly[0]!)).toBe("Re-oil: the top and the base both have this finish as their outer coat, and the lines price the top and the base.");
+    expect(view.unsized).toEqual([]);
+  });
+
+  it("where pooling saves no tin the containers match the per-surface count; a larger base takes the next tin", async () => {
+    const { staff, job, oil, piece } = await pieceWithOiledBase();
+    oilTopAndBase(piece);
+    // One coat: (1.8 + 0.6) m² ÷ 24 m²/L = 100 mL → one 125 mL tin (alone: 75 mL and 25 mL, a tin each: 2 tins).
+    const one = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], coats: 1, areasM2: { base: 0.6 }, alsoSurfaces: { reoil: ["base"] } }));
+    expect(one.lines.find((l) => l.kind === "materials")).toMatchObject({ quantity: 1, amountMinor: 1900 });
+    // One coat, base 1.2 m²: (1.8 + 1.2) ÷ 24 = 125 mL exactly → one tin, no float overshoot to a second.
+    const exact = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], coats: 1, areasM2: { base: 1.2 }, alsoSurfaces: { reoil: ["base"] } }));
+    expect(exact.lines.find((l) => l.kind === "materials")).toMatchObject({ quantity: 1, amountMinor: 1900 });
+    // Base 1.3 m²: (1.8 + 1.3) ÷ 24 = 129.17 mL → two tins. Base labour 0.5 + 0.65 = 1.15 → 1.25 h = $106.25.
+    const more = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], coats: 1, areasM2: { base: 1.3 }, alsoSurfaces: { reoil: ["base"] } }));
+    expect(more.lines.find((l) => l.kind === "materials")).toMatchObject({ quantity: 2, amountMinor: 3800 });
+    expect(more.lines.find((l) => l.ref === "task:reoil:base")).toMatchObject({ quantity: 1.25, amountMinor: 10625 });
+  });
+
+  it("a chosen base with no size is listed as unsized; the top alone is priced", async () => {
+    const { staff, job, oil, piece } = await pieceWithOiledBase();
+    oilTopAndBase(piece);
+    const updated = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], alsoSurfaces: { reoil: ["base"] } }));
+    // The top's 1.8 m² only: 1.5 h = $127.50; 1.8 × 2 ÷ 24 = 150 mL → two tins, $38.00. Named for the top, as the base was asked for.
+    expect(updated.lines.map((l) => [l.description, l.quantity, l.amountMinor])).toEqual([
+      ["Re-oil — top", 1.5, 12750],
+      ["Test hardwax oil (invented), 125 mL — top", 2, 3800],
+    ]);
+    const view = getStudioJob(staff, job.id);
+    expect(view.unsized).toEqual([{ label: "Re-oil", surface: "base" }]);
+    expect(topOnlyWords(view.topOnly[0]!)).toBe("Re-oil: the top and the base both have this finish as their outer coat, and the lines price the top only.");
+    // Cleared again: back to the top's lines as before, unnamed.
+    const cleared = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], alsoSurfaces: { reoil: [] } }));
+    expect(cleared.lines.map((l) => l.description)).toEqual(["Re-oil — labour", "Test hardwax oil (invented), 125 mL"]);
+    expect(getStudioJob(staff, job.id).unsized).toEqual([]);
+  });
+
+  it("a choice for a surface that does not end in the task's finish prices nothing more", async () => {
+    // The first piece: a topcoated top over oil and an oiled base. The re-oil is on the base alone; asking for the edges changes nothing.
+    const { staff, job, oil } = await pieceWithOiledBase();
+    const updated = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], areasM2: { base: 0.6, edges: 0.2 }, alsoSurfaces: { reoil: ["edges"], topcoat_refresh: ["base"] } }));
+    // Base: 0.8 → 1.0 h = $85.00; 0.6 × 2 ÷ 24 = 50 mL → one tin, $19.00 (as in "with the base's size typed on the quote").
+    expect(updated.lines.map((l) => [l.description, l.quantity, l.amountMinor])).toEqual([
+      ["Re-oil — labour", 1, 8500],
+      ["Test hardwax oil (invented), 125 mL", 1, 1900],
+    ]);
+    expect(getStudioJob(staff, job.id).topOnly).toEqual([]);
+  });
+
+  it("a quote saved before the choice existed reads as the top alone", async () => {
+    const { staff, job, oil, piece } = await pieceWithOiledBase();
+    oilTopAndBase(piece);
+    await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], areasM2: { base: 0.6 } }));
+    const stored = getStudioJob(staff, job.id);
+    expect("alsoSurfaces" in stored.job.quoteInput).toBe(false);
+    expect(stored.topOnly[0]).toMatchObject({ also: [], areasM2: { top: 1.8, base: 0.6 } });
+  });
+
+  it("the choice is bounded: another surface than the top, at most two, for a known task", () => {
+    const parse = (alsoSurfaces: unknown) => jobQuoteSchema.safeParse({ title: "x", tasks: ["reoil"], productIds: [], coats: 1, travel: false, coveredPct: 0, alsoSurfaces });
+    expect(parse({ reoil: ["base", "edges"] }).success).toBe(true);
+    expect(parse({ reoil: ["top"] }).error!.issues[0]!.path).toEqual(["alsoSurfaces", "reoil", 0]);
+    expect(parse({ reoil: ["base", "edges", "base"] }).error!.issues[0]!.path).toEqual(["alsoSurfaces", "reoil"]);
+    expect(parse({ sand_everything: ["base"] }).success).toBe(false);
+  });
+
+  it("a worn or scratched finish's first quote renews the top's own finish: a waxed desk is re-waxed, not re-oiled", async () => {
+    const studio = createStudio({ email: `${unique("studio")}@test.example`, currency: "USD", labourRateMinor: 8500, travelFeeMinor: 0 });
+    const staff = await memberContext(studio, "staff");
+    const owner = await createUser();
+    const { piece } = createPiece(studio, { ownerId: owner.id });
+    getDb().update(finishLayers).set({ finishClass: "paste_wax" }).where(eq(finishLayers.pieceId, piece.id)).run();
+    addLayers(piece, [{ surface: "base", position: 0, finishClass: "paste_wax", coats: 1 }]);
+    const wax = createProduct(studio, { name: "Test paste wax (invented)", finishClass: "paste_wax", coverageM2PerL: 20, containers: [{ ml: 200, priceMinor: 1600 }] });
+    for (const category of ["finish_wear", "scratch_dent", "finish_peeling"] as const) {
+      const claim = createAcceptedClaim(studio, piece.id, owner.id, "chargeable");
+      getDb().update(claims).set({ category }).where(eq(claims.id, claim.id)).run();
+      const job = createJob(staff, "claim", claim.id);
+      // Before: "reoil" (or "topcoat_refresh" for peeling) whatever the finish, and an oil from the catalog.
+      expect([category, job.quoteInput.tasks, job.quoteInput.productIds]).toEqual([category, ["rewax"], [wax.id]]);
+      expect(getStudioJob(staff, job.id).topOnly).toMatchObject([{ task: "rewax", surfaces: ["top", "base"], also: [] }]);
+    }
+  });
+
+  it("the note's choice reads the area in the studio's units", () => {
+    expect(alsoSurfaceLabel("base", 0.6, "metric")).toBe("Also price the base (0.60 m²)");
+    // 0.6 m² ÷ 0.09290304 m²/ft² (1 ft = 0.3048 m exactly, NIST SP 811 (2008), App. B.9) = 6.458 ft² → 6.5 ft².
+    expect(alsoSurfaceLabel("base", 0.6, "imperial")).toBe("Also price the base (6.5 ft²)");
+    expect(alsoSurfaceLabel("edges", null, "imperial")).toBe("Also price the edges (no size yet)");
   });
 });
 

@@ -128,8 +128,17 @@ const unsizedBase = db
   .values({ studioId: demo.id, pieceId: coffeeTable.id, ownerId: coffeeTable.ownerId, origin: "studio", title: baseInput.title, quoteInput: baseInput, currency: demo.currency, state: "draft", notes: "Invented e2e job.", ...totals(priceJob(demo, pricedPiece(db, coffeeTable), baseInput, demoProducts)) })
   .returning({ id: repairJobs.id })
   .get();
+// For the quote builder's "Also price the base" choice (tests/e2e/quotes.spec.ts): a draft re-wax of Jonah's
+// cherry writing desk, whose top and base both end in paste wax, priced on the top alone until staff tick the base.
+const desk = db.select().from(pieces).where(and(eq(pieces.studioId, demo.id), eq(pieces.title, "Cherry writing desk"))).get()!;
+const deskInput = { ...baseInput, title: "Re-wax the desk, top and legs (invented)", tasks: ["rewax" as const], productIds: demoProducts.filter((p) => p.finishClass === "paste_wax").map((p) => p.id).slice(0, 1) };
+const waxTopAndBase = db
+  .insert(repairJobs)
+  .values({ studioId: demo.id, pieceId: desk.id, ownerId: desk.ownerId, origin: "studio", title: deskInput.title, quoteInput: deskInput, currency: demo.currency, state: "draft", notes: "Invented e2e job.", ...totals(priceJob(demo, pricedPiece(db, desk), deskInput, demoProducts)) })
+  .returning({ id: repairJobs.id })
+  .get();
 // E2E_FIXTURE_FILE: another place for the ids, for a second e2e server on other ports and its own database.
 const fixtureFile = process.env.E2E_FIXTURE_FILE ?? "tests/.tmp/e2e-fixture.json";
 fs.mkdirSync(path.dirname(fixtureFile), { recursive: true });
-fs.writeFileSync(fixtureFile, JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: { ...demoSeed.jobs, unsizedBase: unsizedBase.id }, matrix }, null, 2));
+fs.writeFileSync(fixtureFile, JSON.stringify({ demoPieceId: demoPiece.id, otherPieceId: otherPiece.id, unregistered: demoSeed.codes, jobs: { ...demoSeed.jobs, unsizedBase: unsizedBase.id, waxTopAndBase: waxTopAndBase.id }, matrix }, null, 2));
 console.log("Seeded the e2e database (invented data).");

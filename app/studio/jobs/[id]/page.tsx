@@ -19,7 +19,7 @@ import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { handedOnWords } from "@/lib/repairs/handed-on";
 import { priceListOf } from "@/lib/repairs/price-list";
-import { topOnlyWords, unsizedWords } from "@/lib/repairs/pricing";
+import { alsoSurfaceLabel, topOnlyWords, unsizedWords } from "@/lib/repairs/pricing";
 import { refundableOf, refundRows, refundsOfJob } from "@/lib/repairs/refund-rows";
 import { canMove, coverWords, JOB_STATE_TONES, jobStateLabel, jobTotalLabel, paymentCounts, QUOTE_EDITABLE, receiptPayment } from "@/lib/repairs/states";
 import { ButtonLink } from "@/components/ui/button";
@@ -36,7 +36,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const { visit } = visitOfJob(ctx, id);
   const { job, piece, owner, payments, products, studio, unsized, topOnly, sizeFields } = view;
   const q = job.quoteInput;
-  const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes, areasM2: q.areasM2 ?? {} };
+  const initial = { title: job.title, tasks: q.tasks ?? [], repairs: q.repairs ?? [], productIds: q.productIds ?? [], coats: q.coats ?? 1, travel: q.travel ?? false, coveredPct: job.coveredPct, notes: job.notes, areasM2: q.areasM2 ?? {}, alsoSurfaces: q.alsoSurfaces ?? {} };
   const figures = jobFigures(job, studio);
   const editable = QUOTE_EDITABLE.includes(job.state);
   const paid = payments.some(paymentCounts);
@@ -76,7 +76,7 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
             editable={editable}
             coveredField={coverWords(job).field}
             unsized={unsized.map(unsizedWords)}
-            topOnly={topOnly.map(topOnlyWords)}
+            topOnly={topOnly.map((w) => ({ task: w.task, words: topOnlyWords(w), choices: w.surfaces.filter((s) => s !== "top").map((s) => ({ surface: s, label: alsoSurfaceLabel(s, w.areasM2[s], studio.unitSystem) })) }))}
             sizeFields={sizeFields}
             units={studio.unitSystem}
             currency={job.currency}
