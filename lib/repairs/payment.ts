@@ -101,6 +101,7 @@ export type ShownQuote = { quoteVersion: number; totalMinor: number };
  * and attempt, so retries of the same click reuse it), opened for the job's current quote version and
  * amount, and the owner is sent to its URL. `shown` (what the owner's page showed, sent by it) must be
  * the current quote: a page opened before the studio changed and sent the quote again approves nothing.
+ * The approve route (app/api/jobs/[id]/approve/route.ts) always has it: a request without it is a 400.
  */
 export async function approveJob(user: Pick<User, "id" | "email">, jobId: string, shown?: ShownQuote): Promise<{ checkoutUrl: string | null; job: RepairJob }> {
   const view = getOwnerJob(user, jobId, "act");

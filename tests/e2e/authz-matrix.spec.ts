@@ -357,7 +357,8 @@ const ROUTES: RouteRow[] = [
   { route: "POST /api/jobs", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.post("/api/jobs", { data: { from: "claim", id: X.ownerClaimId } }) },
   { route: "GET /api/jobs/[id]", expect: "401 200 404 404 200 200 404 404", send: ({ api }) => api.get(`/api/jobs/${J.paid}`) },
   { route: "PATCH /api/jobs/[id]", expect: "401 403 403 403 409 409 404 404", send: ({ api }) => api.patch(`/api/jobs/${J.done}`, { data: jobQuote }) },
-  { route: "POST /api/jobs/[id]/approve", expect: "401 409 404 404 404 404 404 404", send: ({ api }) => api.post(`/api/jobs/${J.paid}/approve`) },
+  // The body is the quote the page showed (required); on the paid job it is stale, so the owner's is a 409.
+  { route: "POST /api/jobs/[id]/approve", expect: "401 409 404 404 404 404 404 404", send: ({ api }) => api.post(`/api/jobs/${J.paid}/approve`, { data: { quoteVersion: 0, totalMinor: 0 } }) },
   // A done job can't be cancelled, by its owner or by staff, and the refusal comes before any refund is asked for.
   {
     route: "POST /api/jobs/[id]/cancel",

@@ -13,7 +13,7 @@ import { memberships, type Studio } from "@/db/schema";
 import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
 import { sha256Hex, randomToken } from "@/lib/crypto";
 import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
-import { getStudioJob } from "@/lib/repairs/jobs";
+import { getOwnerJob, getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob } from "@/lib/repairs/payment";
 import { createStudio, memberContext, unique } from "../support/fixtures";
 import { plansStripeForFile, until } from "../support/plans-stripe";
@@ -107,6 +107,16 @@ describe("approving a quote with a body nobody's page sends", () => {
     for (const body of [{ quoteVersion: "1", totalMinor: job.totalMinor }, { quoteVersion: 1.5, totalMinor: job.totalMinor }, { quoteVersion: job.quoteVersion, totalMinor: -1 }, { quoteVersion: job.quoteVersion, totalMinor: 19.99 }]) {
       expect((await call(approveRoute, `/api/jobs/${job.id}/approve`, { id: job.id }, body)).status, JSON.stringify(body)).toBe(400);
     }
+    // No body at all (a client that skips the stale-quote check): a 400 that says to reload, and nothing approved.
+    for (const body of ["", "null"]) {
+      const bare = await call(approveRoute, `/api/jobs/${job.id}/approve`, { id: job.id }, body);
+      expect(bare.status, JSON.stringify(body)).toBe(400);
+      expect(bare.json.error?.message, JSON.stringify(body)).toMatch(/^Reload the page and approve again/);
+    }
+    const empty = (await call(approveRoute, `/api/jobs/${job.id}/approve`, { id: job.id }, {})) as { status: number; json: { error?: { fieldErrors?: Record<string, string[]> } } };
+    expect(empty.status).toBe(400);
+    expect(empty.json.error?.fieldErrors?.quoteVersion?.[0]).toMatch(/^Reload the page/);
+    expect(getOwnerJob(owner, job.id).job.state).toBe("quoted");
     const someoneElse = await quotedRepairJob(studio);
     const theirs = await call(approveRoute, `/api/jobs/${someoneElse.job.id}/approve`, { id: someoneElse.job.id }, { quoteVersion: someoneElse.job.quoteVersion, totalMinor: someoneElse.job.totalMinor });
     expect(theirs.status).toBe(404);
