@@ -1275,6 +1275,11 @@ export const planSubscriptions = sqliteTable(
       .notNull()
       .references(() => pieces.id, { onDelete: "cascade" }),
     ownerId: text("owner_id").references(() => users.id, { onDelete: "set null" }),
+    /**
+     * The person the plan was bought for, who pays it: kept when the plan passes on with its piece and
+     * ownerId becomes null (lib/plans/transfer.ts), so mail about their money finds them from our records.
+     */
+    payerId: text("payer_id").references(() => users.id, { onDelete: "set null" }),
     state: text("state", { enum: PLAN_STATES }).notNull().default("awaiting_payment"),
     paidBy: text("paid_by", { enum: PLAN_PAID_BY }).notNull().default("card"),
     /** What a staff-started plan was paid with ("bank transfer", "cash at the studio"). */
@@ -1283,6 +1288,12 @@ export const planSubscriptions = sqliteTable(
     stripeSubscriptionId: text("stripe_subscription_id").unique(),
     checkoutSessionId: text("checkout_session_id").unique(),
     checkoutUrl: text("checkout_url"),
+    /**
+     * Set while this plan's payment page may be open (from just before it is asked of Stripe until it is
+     * known closed, paid or the plan leaves awaiting_payment): at most one plan of a piece has it, across
+     * processes (plan_subscriptions_one_open_checkout_uq; lib/plans/subscriptions.ts startPlanCheckout).
+     */
+    checkoutClaimedAt: integer("checkout_claimed_at", { mode: "timestamp_ms" }),
     /** The Stripe account the plan's checkout, subscription and invoices were made under. */
     stripeAccount: text("stripe_account", { enum: STRIPE_ACCOUNTS }),
     /**
@@ -1306,7 +1317,12 @@ export const planSubscriptions = sqliteTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index("plan_subscriptions_studio_idx").on(t.studioId, t.state), index("plan_subscriptions_piece_idx").on(t.pieceId), index("plan_subscriptions_owner_idx").on(t.ownerId)],
+  (t) => [
+    index("plan_subscriptions_studio_idx").on(t.studioId, t.state),
+    index("plan_subscriptions_piece_idx").on(t.pieceId),
+    index("plan_subscriptions_owner_idx").on(t.ownerId),
+    uniqueIndex("plan_subscriptions_one_open_checkout_uq").on(t.pieceId).where(sql`checkout_claimed_at IS NOT NULL`),
+  ],
 );
 
 export const planSubscriptionsRelations = relations(planSubscriptions, ({ one }) => ({
@@ -1380,8 +1396,15 @@ export const planRefunds = sqliteTable(
     /** Whole unused months refunded, of monthsInPeriod. */
     months: integer("months").notNull(),
     reason: text("reason", { enum: ["cancelled", "changed_hands"] }).notNull(),
-    /** requested: claimed, not yet confirmed by Stripe; refunded: Stripe confirmed; other_means: a plan paid by other means, paid back by the studio. */
-    status: text("status", { enum: ["requested", "refunded", "other_means"] }).notNull().default("requested"),
+    /**
+     * requested: claimed, not yet confirmed by Stripe; refunded: Stripe confirmed; other_means: a plan paid
+     * by other means, paid back by the studio; refused: Stripe answered no (nothing moved; not asked again,
+     * refusedWords says why, for staff).
+     */
+    status: text("status", { enum: ["requested", "refunded", "other_means", "refused"] }).notNull().default("requested"),
+    /** Why the payment service refused the refund, in staff's words (lib/plans/refund.ts); null unless refused. */
+    refusedWords: text("refused_words"),
+    refusedAt: integer("refused_at", { mode: "timestamp_ms" }),
     stripeRefundId: text("stripe_refund_id"),
     requestedById: text("requested_by_id").references(() => users.id, { onDelete: "set null" }),
     refundedAt: integer("refunded_at", { mode: "timestamp_ms" }),

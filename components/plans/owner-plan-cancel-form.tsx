@@ -29,7 +29,7 @@ export function OwnerPlanCancelForm({ control, timeZone, country }: { control: O
       <div className="space-y-2" data-testid="plan-cancelled">
         <p className="text-sm">
           You cancelled this plan. It keeps working until {control.endsAt ? day(control.endsAt) : "the end of the period you paid for"} and isn&apos;t renewed.
-          {control.refundedMinor ? ` ${money(control.refundedMinor)} ${control.paidBy === "card" ? "is on its way back to your card" : "is being paid back to you by the studio"}.` : ""}
+          {control.refundedMinor ? ` ${money(control.refundedMinor)} ${control.refundBy === "card" ? "is on its way back to your card" : "is being paid back to you by the studio"}.` : ""}
         </p>
         {control.canUndo ? (
           <Button variant="secondary" disabled={busy} onClick={() => send("keep", { version: control.version })}>

@@ -39,7 +39,7 @@ export function seedPlans(db: Db, studioId: string, today: Date): { templates: n
   const periodEnd = addPeriod(start, "year");
   const sub = db
     .insert(planSubscriptions)
-    .values({ studioId, templateId: keeping.id, pieceId: piece.id, ownerId: piece.ownerId, state: "running", paidBy: "other", paidByNote: "Paid at the studio (demo, invented)", amountMinor: totalMinor, currency: studio.currency, periodStart: start, periodEnd, startedAt: start, createdById: admin?.userId ?? null, version: 1 })
+    .values({ studioId, templateId: keeping.id, pieceId: piece.id, ownerId: piece.ownerId, payerId: piece.ownerId, state: "running", paidBy: "other", paidByNote: "Paid at the studio (demo, invented)", amountMinor: totalMinor, currency: studio.currency, periodStart: start, periodEnd, startedAt: start, createdById: admin?.userId ?? null, version: 1 })
     .returning()
     .get();
   db.insert(planInvoices).values({ studioId, subscriptionId: sub.id, status: "paid", amountMinor: totalMinor, taxMinor, currency: studio.currency, periodStart: start, periodEnd, at: start }).run();

@@ -12,7 +12,7 @@ import { env } from "@/lib/env";
 import { notFound } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { newRegistrationCode } from "@/lib/pieces/registration";
-import { planFollowsTransfer } from "@/lib/plans/transfer";
+import { finishPlanHandOver, recordPlanHandOver, underPiecePlanLock } from "@/lib/plans/transfer";
 import { closeHandedOnCheckouts, jobsBackToStudio } from "@/lib/repairs/handed-on";
 import type { ReleaseValues } from "@/lib/validation/owner";
 import { formatDate } from "@/lib/format";
@@ -29,27 +29,13 @@ const link = (path: string) => new URL(path, env.APP_URL).href;
 export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "timeZone" | "unitSystem">, pieceId: string, _confirmed: ReleaseValues, now = new Date()) {
   // Read what the mail needs while the piece is still theirs (this also 404s a stranger).
   const before = getMyPiece(user, pieceId, now);
-  const fresh = newRegistrationCode();
-  const db = getDb();
-  const { studio, jobsSetBack } = db.transaction((tx) => {
-    const released = tx
-      .update(pieces)
-      .set({ ownerId: null, clientId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
-      .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, user.id)))
-      .returning({ studioId: pieces.studioId })
-      .all();
-    if (released.length !== 1) throw notFound("No piece with that id among yours.");
-    const studioId = released[0]!.studioId;
-    tx.update(ownerships).set({ endedAt: now }).where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.userId, user.id), isNull(ownerships.endedAt))).run();
-    recordAudit(tx, { studioId, actorId: user.id, action: "piece.released", subjectType: "piece", subjectId: pieceId, data: {} });
-    indexPiece(tx, pieceId);
-    // Repair jobs waiting for this owner's payment go back to the studio (lib/repairs/handed-on.ts).
-    const jobsSetBack = jobsBackToStudio(tx, { id: pieceId, studioId }, user.id);
-    return { studio: tx.select().from(studios).where(eq(studios.id, studioId)).get()!, jobsSetBack };
-  });
+  const { fresh, studio, jobsSetBack, plan } = await commitRelease(user, pieceId, now);
+  // After the commit: nothing below undoes the release. The plan's hand-over was written with it, so if the
+  // process stops here, the plan transfer pass (jobs/plan-transfers.ts) finishes it.
   // Their payment pages close at Stripe; this never fails the release (checkout.ts refunds a late payment).
   await closeHandedOnCheckouts(jobsSetBack);
-  await planFollowsTransfer(pieceId, user.id, now); // the piece's care plan moves or ends by the studio's setting (lib/plans/transfer.ts)
+  await finishPlanHandOver(plan); // the piece's care plan moves or ends by the studio's setting (lib/plans/transfer.ts)
+  const db = getDb();
 
   const transferring = before.warranty.lines.filter((l) => l.transfersToNewOwner && l.status !== "not_transferred").map((l) => l.label);
   const staying = before.warranty.lines.filter((l) => !l.transfersToNewOwner).map((l) => l.label);
@@ -91,4 +77,34 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
     });
   }
   return { pieceId, code: fresh.code, transferring, staying };
+}
+
+/**
+ * The release itself: one transaction, run under the piece's plan lock (lib/plans/transfer.ts
+ * underPiecePlanLock). The piece loses its owner and gets a fresh code, the ownership ends, the jobs
+ * waiting for this owner's payment go back to the studio, and the hand-over of the care plan they pay
+ * for on it is recorded (recordPlanHandOver), so none of it is lost if the process stops after the commit.
+ */
+export function commitRelease(user: Pick<User, "id">, pieceId: string, now = new Date()) {
+  const fresh = newRegistrationCode();
+  return underPiecePlanLock(pieceId, () =>
+    getDb().transaction((tx) => {
+      const released = tx
+        .update(pieces)
+        .set({ ownerId: null, clientId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
+        .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, user.id)))
+        .returning({ studioId: pieces.studioId })
+        .all();
+      if (released.length !== 1) throw notFound("No piece with that id among yours.");
+      const studioId = released[0]!.studioId;
+      tx.update(ownerships).set({ endedAt: now }).where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.userId, user.id), isNull(ownerships.endedAt))).run();
+      recordAudit(tx, { studioId, actorId: user.id, action: "piece.released", subjectType: "piece", subjectId: pieceId, data: {} });
+      indexPiece(tx, pieceId);
+      // Repair jobs waiting for this owner's payment go back to the studio (lib/repairs/handed-on.ts).
+      const jobsSetBack = jobsBackToStudio(tx, { id: pieceId, studioId }, user.id);
+      // The piece's care plan: its move or end, refund claim and Stripe step, written with the release.
+      const plan = recordPlanHandOver(tx, pieceId, user.id, now);
+      return { fresh, studio: tx.select().from(studios).where(eq(studios.id, studioId)).get()!, jobsSetBack, plan };
+    }),
+  );
 }

@@ -17,7 +17,7 @@ import type { StudioActor } from "@/lib/auth/actor";
 import { conflict, isAppError, notFound } from "@/lib/errors";
 import { formatMoney } from "@/lib/format/money";
 import { callStripe } from "@/lib/payments/stripe";
-import { claimRefund, mailPlanEnding, payRefund, refundOf, refundQuote, type RefundQuote } from "./refund";
+import { claimRefund, mailPlanEnding, payRefund, refundByStudio, refundOf, refundQuote, refundRefusedForStaff, type RefundQuote } from "./refund";
 import { PLAN_STATE_LABELS } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { livePlanOfPiece, moveSubscription, studioSubscription, type PlanMover } from "./subscriptions";
@@ -188,7 +188,16 @@ export function studioPlanDetail(ctx: StudioActor, subscriptionId: string, now =
     .where(and(eq(planInvoices.subscriptionId, sub.id), eq(planInvoices.status, "paid"), eq(planInvoices.counts, false)))
     .all()
     .map((r) => ({ ...r, at: r.at.getTime() }));
-  return { subscription: sub, cancel: cancelPreview(sub, now), refund: refundOf(sub.id) ?? null, heldPayments: held, held: heldForStaff(sub, ctx.studio.timeZone), transferPending: transferPendingWords(sub) };
+  const refund = refundOf(sub.id) ?? null;
+  return {
+    subscription: sub,
+    cancel: cancelPreview(sub, now),
+    refund,
+    refundRefused: refundRefusedForStaff(refund, ctx.studio.country, ctx.studio.timeZone),
+    heldPayments: held,
+    held: heldForStaff(sub, ctx.studio.timeZone),
+    transferPending: transferPendingWords(sub),
+  };
 }
 
 export type OwnerPlanControl = {
@@ -200,6 +209,8 @@ export type OwnerPlanControl = {
   quote: { endsAt: number; refundMinor: number; months: number; monthsInPeriod: number; currency: string; rule: RefundQuote["rule"] } | null;
   canUndo: boolean;
   refundedMinor: number | null;
+  /** Who pays the refund back: the card it was paid with, or the studio (a plan paid by other means, or a card refund the payment service refused). */
+  refundBy: "card" | "studio" | null;
   paidBy: PlanSubscription["paidBy"];
   /** Plain words when a renewal payment is held for the studio to check (what happened, what happens next); else null. */
   held: string | null;
@@ -220,6 +231,7 @@ export function myPlanControl(user: Pick<User, "id">, pieceId: string, now = new
   const { sub, template } = live;
   const preview = cancelPreview(sub, now);
   const q = preview.quote;
+  const refund = refundOf(sub.id);
   return {
     subscriptionId: sub.id,
     planName: template.name,
@@ -228,7 +240,8 @@ export function myPlanControl(user: Pick<User, "id">, pieceId: string, now = new
     endsAt: (sub.endsAt ?? sub.periodEnd)?.getTime() ?? null,
     quote: q ? { endsAt: q.endsAt.getTime(), refundMinor: q.refundMinor, months: q.months, monthsInPeriod: q.monthsInPeriod, currency: q.currency, rule: q.rule } : null,
     canUndo: preview.canUndo,
-    refundedMinor: refundOf(sub.id)?.amountMinor ?? null,
+    refundedMinor: refund?.amountMinor ?? null,
+    refundBy: refund ? (refundByStudio(refund) ? "studio" : "card") : null,
     paidBy: sub.paidBy,
     held: heldForOwner(sub, ownerZone(user.id, sub.studioId)),
     country: getDb().select({ country: studios.country }).from(studios).where(eq(studios.id, sub.studioId)).get()!.country,

@@ -11,7 +11,7 @@ import { getDb, type Db, type Tx } from "@/db/client";
 import { planInvoices, planRefunds, planSubscriptions, type PlanRefund, type PlanSubscription, type PlanTemplate } from "@/db/schema";
 import { PlanEndedEmail, planEndedSubject } from "@/emails/plan-ended";
 import { recordAudit } from "@/lib/audit";
-import { conflict } from "@/lib/errors";
+import { conflict, isAppError } from "@/lib/errors";
 import { formatInstant, formatZone } from "@/lib/format/dates";
 import { formatMoney } from "@/lib/format/money";
 import { sendMail } from "@/lib/mail";
@@ -143,55 +143,80 @@ function paidForPeriod(sub: PlanSubscription): number {
 /** The payment intent that paid the plan's current period (its latest counted Stripe invoice). */
 async function paymentOfPeriod(sub: PlanSubscription): Promise<string> {
   const inv = periodInvoice(sub, true);
-  if (!inv?.stripeInvoiceId) throw conflict("No card payment of this plan was found to refund. Refund it by other means.");
+  if (!inv?.stripeInvoiceId) throw conflict("No card payment of this plan was found to refund. Refund it by other means.", { code: NO_CARD_PAYMENT });
   const invoice = await callStripe("read the plan's payment", (s) => s.invoices.retrieve(inv.stripeInvoiceId!, { expand: ["payments"] }), sub);
   const pi = invoice.payments?.data?.[0]?.payment?.payment_intent;
   const id = typeof pi === "string" ? pi : pi?.id;
-  if (!id) throw conflict("The plan's payment can't be refunded by card. Refund it by other means.");
+  if (!id) throw conflict("The plan's payment can't be refunded by card. Refund it by other means.", { code: NO_CARD_PAYMENT });
   return id;
 }
 
+const NO_CARD_PAYMENT = "plan_refund_no_card_payment";
+
+/** Staff's words for a refund the payment service refused (kept on the claim, plan_refunds.refused_words). */
+const REFUSED_WORDS =
+  "The payment service refused this refund, so nothing went back to the owner's card. Usually the card payment was already paid back, in part or in full, at the payment service, or can no longer take a refund. It won't be asked again: check the payment in the payment service, and pay the owner back by other means if it is still owed.";
+
 /**
  * Pays a claimed refund through Stripe (idempotent: the key is the claim's id, so a retry can't pay
- * twice), marks it refunded and audits it. A refund already paid, or owed by other means, is returned as is.
+ * twice), marks it refunded and audits it. A refund already paid, refused, or owed by other means, is
+ * returned as is. A refusal (Stripe answered no, or the plan has no card payment to refund) is not an
+ * outage: nothing moved, and asking again would be refused again, so the claim is marked refused with
+ * words for staff, audited, and not asked again (finishRequestedPlanRefunds reads only requested ones).
+ * No answer at all still throws: Stripe may have made it, and the retry with the same key finds out.
  */
 export async function payRefund(refund: PlanRefund, sub: PlanSubscription): Promise<PlanRefund> {
   if (refund.status !== "requested") return refund;
-  const paymentIntent = await paymentOfPeriod(sub);
-  const r = await callStripe("pay the refund", (s) =>
-    s.refunds.create(
-      {
-        payment_intent: paymentIntent,
-        amount: refund.amountMinor,
-        metadata: { planSubscriptionId: sub.id, planRefundId: refund.id },
-      },
-      { idempotencyKey: `plan-refund-${refund.id}` },
-    ),
-    sub,
-  );
+  let r: { id: string };
+  try {
+    const paymentIntent = await paymentOfPeriod(sub);
+    r = await callStripe("pay the refund", (s) =>
+      s.refunds.create(
+        {
+          payment_intent: paymentIntent,
+          amount: refund.amountMinor,
+          metadata: { planSubscriptionId: sub.id, planRefundId: refund.id },
+        },
+        { idempotencyKey: `plan-refund-${refund.id}` },
+      ),
+      sub,
+    );
+  } catch (e) {
+    if (isAppError(e) && (e.code === "payment_service_refused" || e.code === NO_CARD_PAYMENT)) return markRefused(refund, sub, e.message);
+    throw e;
+  }
+  return settleClaim(refund, sub, { status: "refunded", stripeRefundId: r.id, refundedAt: new Date() }, "plan.refunded", (done) => ({ refundId: done.id, stripeRefundId: r.id, amountMinor: done.amountMinor }));
+}
+
+/** Writes a claimed refund's outcome once (whichever request writes it first) and audits it; returns the claim as it then stands. */
+function settleClaim(refund: PlanRefund, sub: PlanSubscription, set: Partial<PlanRefund>, action: string, data: (done: PlanRefund) => Record<string, unknown>): PlanRefund {
   return getDb().transaction((tx) => {
     const done = tx
       .update(planRefunds)
-      .set({ status: "refunded", stripeRefundId: r.id, refundedAt: new Date() })
+      .set(set)
       .where(and(eq(planRefunds.id, refund.id), eq(planRefunds.status, "requested")))
       .returning()
       .get();
     if (!done) return refundOf(sub.id, tx)!;
-    recordAudit(tx, {
-      studioId: sub.studioId,
-      actorId: null,
-      action: "plan.refunded",
-      subjectType: "plan_subscription",
-      subjectId: sub.id,
-      data: {
-        refundId: done.id,
-        stripeRefundId: r.id,
-        amountMinor: done.amountMinor,
-      },
-    });
+    recordAudit(tx, { studioId: sub.studioId, actorId: null, action, subjectType: "plan_subscription", subjectId: sub.id, data: data(done) });
     return done;
   });
 }
+
+/** Marks a claimed refund refused (once, whichever request writes it first) and audits it with the payment service's answer. */
+function markRefused(refund: PlanRefund, sub: PlanSubscription, answer: string): PlanRefund {
+  return settleClaim(refund, sub, { status: "refused", refusedWords: REFUSED_WORDS, refusedAt: new Date() }, "plan.refund_refused", (done) => ({ refundId: done.id, amountMinor: done.amountMinor, currency: done.currency, answer }));
+}
+
+/** Staff's words for the plan's refused refund, with when it was refused (in `timeZone`, named); null unless refused. */
+export function refundRefusedForStaff(refund: PlanRefund | null | undefined, country: string, timeZone: string): string | null {
+  if (refund?.status !== "refused" || !refund.refusedAt) return null;
+  const amount = formatMoney(refund.amountMinor, refund.currency, country);
+  return `Refund of ${amount} refused on ${formatInstant(refund.refusedAt, timeZone)} (${formatZone(timeZone)}). ${refund.refusedWords ?? REFUSED_WORDS}`;
+}
+
+/** Whether the studio, not the card, pays the refund back: a plan paid by other means, or a card refund the payment service refused. */
+export const refundByStudio = (refund: Pick<PlanRefund, "status">) => refund.status === "other_means" || refund.status === "refused";
 
 /** Mails the owner, after the change is committed, when their plan ends and what (if anything) comes back. */
 export async function mailPlanEnding(sub: PlanSubscription, quote: RefundQuote, refund: PlanRefund | null, reason: PlanRefund["reason"]): Promise<void> {
@@ -204,7 +229,8 @@ export async function mailPlanEnding(sub: PlanSubscription, quote: RefundQuote, 
       reason,
       endsOn: `${formatInstant(quote.endsAt, zone)} (${formatZone(zone)})`,
       refund: refund ? formatMoney(refund.amountMinor, refund.currency, studio.country) : null,
-      refundByOtherMeans: refund?.status === "other_means",
+      // A refused card refund is the studio's to pay back, as for a plan paid by other means.
+      refundByOtherMeans: refund ? refundByStudio(refund) : false,
       months: quote.months,
       // The piece that changed hands is no longer theirs: its page would answer "not found".
       url: reason === "changed_hands" ? myPiecesUrl() : pieceUrl(piece.id),
@@ -230,16 +256,16 @@ export const REQUESTED_REFUND_WAIT_MS = 5 * 60_000;
  * Stripe didn't take at the time (an outage): the cancellation stood, the refund stayed owed. A plan
  * whose change of hands is unfinished is left to lib/plans/transfer.ts, which pays its refund itself.
  */
-export async function finishRequestedPlanRefunds(now = new Date()): Promise<{ finished: string[]; failed: string[] }> {
+export async function finishRequestedPlanRefunds(now = new Date()): Promise<{ finished: string[]; refused: string[]; failed: string[] }> {
   const cutoff = new Date(now.getTime() - REQUESTED_REFUND_WAIT_MS);
   const open = getDb().select().from(planRefunds).where(and(eq(planRefunds.status, "requested"), lt(planRefunds.createdAt, cutoff))).all();
-  const out = { finished: [] as string[], failed: [] as string[] };
+  const out = { finished: [] as string[], refused: [] as string[], failed: [] as string[] };
   for (const refund of open) {
     const sub = getDb().select().from(planSubscriptions).where(eq(planSubscriptions.id, refund.subscriptionId)).get();
     if (!sub || sub.transferStep) continue;
     try {
-      await payRefund(refund, sub);
-      out.finished.push(refund.id);
+      const after = await payRefund(refund, sub);
+      (after.status === "refused" ? out.refused : out.finished).push(refund.id);
     } catch (e) {
       console.error(`plan refund pass: ${refund.id} not paid yet`, e);
       out.failed.push(refund.id);

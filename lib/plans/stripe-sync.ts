@@ -139,12 +139,6 @@ export async function invoicePaymentIntent(sub: PlanSubscription, stripeInvoiceI
   return id;
 }
 
-/** The user a plan's Stripe customer was made for (lib/plans/subscriptions.ts startPlanCheckout); null when it can't be read. */
-async function payerOf(sub: PlanSubscription): Promise<string | null> {
-  const customer = await callStripe("read who paid", (s) => s.customers.retrieve(sub.stripeCustomerId!), sub).catch(() => null);
-  return customer && !customer.deleted ? (customer.metadata?.userId ?? null) : null;
-}
-
 /**
  * A paid invoice owed by nobody (notOwed) is not held for staff: there is nothing to decide. It is paid
  * back in full at once: claimed on its row first (one claim per invoice, so a replayed event pays back
@@ -180,9 +174,9 @@ async function payBackUnowed(sub: PlanSubscription, inv: Stripe.Invoice): Promis
     const data = { invoiceId: claimed.id, stripeInvoiceId: inv.id, amountMinor: inv.amount_paid, currency: claimed.currency, reason: why, periodStart: claimed.periodStart?.toISOString() ?? null };
     recordAudit(tx, { studioId: sub.studioId, actorId: null, action: "plan.payment_refunded_automatically", subjectType: "plan_subscription", subjectId: sub.id, data });
   });
-  // The person charged: the plan's owner, or (a plan that passed on with its piece has none) the Stripe customer's.
-  const payerId = sub.ownerId ?? (sub.stripeCustomerId ? await payerOf(sub) : null);
-  await mailPaidBackUnowed(sub, payerId, claimed, why);
+  // The person charged, from our own records: the plan's owner, or (a plan that passed on with its piece
+  // has none) the person who paid for it, kept on the plan (payerId) — no call to Stripe that could fail.
+  await mailPaidBackUnowed(sub, sub.ownerId ?? sub.payerId, claimed, why);
 }
 
 /**

@@ -1,6 +1,6 @@
 // Plan subscriptions: starting one (Checkout in subscription mode, or by staff for a client who paid
 // by other means), cancelling at the period's end, and the one function every state move goes through.
-import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull, isNull, lt } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb, type Tx } from "@/db/client";
 import { planInvoices, planSubscriptions, pieces, studios, type PlanSubscription, type PlanTemplate } from "@/db/schema";
@@ -28,6 +28,8 @@ export type PlanMover = { actorId: string | null; source: "staff" | "stripe" | "
  * fields that go with it only if nobody moved the row meanwhile (version), and audits it.
  */
 export function moveSubscription(tx: Tx, sub: PlanSubscription, to: PlanState, set: Partial<PlanSubscription>, by: PlanMover): PlanSubscription {
+  // A plan past awaiting_payment has no payment page left open: it gives up the piece's one (startPlanCheckout).
+  if (to !== "awaiting_payment" && sub.checkoutClaimedAt) set = { ...set, checkoutClaimedAt: null };
   if (sub.state !== to) assertPlanMove(sub.state, to);
   else if (Object.entries(set).every(([k, v]) => same(sub[k as keyof PlanSubscription], v))) return sub; // nothing new: no write
   const next = tx
@@ -85,6 +87,12 @@ function refuseIfCovered(pieceId: string) {
  * closed at Stripe first, so only the page handed out last can take money. A page completed meanwhile is
  * written as Stripe reports it; if that started a plan, this start is refused as any start on a covered
  * piece is.
+ *
+ * Across processes, the plan whose page is asked of Stripe first claims the piece's one open payment page
+ * (checkoutClaimedAt; a partial unique index on the piece, migration 0036) in an immediate transaction. A
+ * start that finds another plan's claim whose page is still being opened is refused with a 409 that says
+ * so (it doesn't wait for that page or reuse it: it can't know the page yet); one that finds the page
+ * already open closes it first, as above.
  */
 export async function startPlanCheckout(user: Pick<User, "id" | "email" | "name">, pieceId: string, templateId: string): Promise<{ checkoutUrl: string; subscriptionId: string }> {
   const piece = ownedPieceRow(user, pieceId);
@@ -112,8 +120,55 @@ async function closeOtherPlanCheckouts(pieceId: string, keep: string | undefined
         if (fresh.state === "awaiting_payment" && fresh.checkoutSessionId === session.id) moveSubscription(tx, fresh, "ended", { endedAt: new Date() }, by);
       });
     }
+    // Its page is closed or paid now: it no longer holds the piece's one open page.
+    if (session.status !== "open") releaseCheckoutClaim(sub.id, session.id);
   }
+  // A claim whose page was never made (the process stopped while asking Stripe) is let go once it is old.
+  getDb()
+    .update(planSubscriptions)
+    .set({ checkoutClaimedAt: null })
+    .where(and(eq(planSubscriptions.pieceId, pieceId), isNull(planSubscriptions.checkoutSessionId), lt(planSubscriptions.checkoutClaimedAt, new Date(Date.now() - CHECKOUT_CLAIM_STALE_MS))))
+    .run();
 }
+
+/**
+ * How long a plan's claim on the piece's payment page may stand with no page made: longer than asking
+ * Stripe for one can take (three calls, each up to 10 s with 2 retries, lib/payments/stripe.ts).
+ */
+const CHECKOUT_CLAIM_STALE_MS = 3 * 60_000;
+
+/** Lets go of the plan's claim on the piece's open payment page (only the claim of `sessionId`'s page, when given). */
+function releaseCheckoutClaim(subId: string, sessionId?: string | null) {
+  getDb()
+    .update(planSubscriptions)
+    .set({ checkoutClaimedAt: null })
+    .where(and(eq(planSubscriptions.id, subId), sessionId === undefined ? undefined : sessionId === null ? isNull(planSubscriptions.checkoutSessionId) : eq(planSubscriptions.checkoutSessionId, sessionId)))
+    .run();
+}
+
+/**
+ * Claims the piece's one open payment page for `waiting` (still waiting for payment) or a new plan row,
+ * in one immediate transaction: refused when another plan of the piece holds it (its page is being
+ * opened now, in another tab or process). The partial unique index makes a second claim impossible
+ * whatever the order.
+ */
+function claimCheckout(user: Pick<User, "id">, piece: { id: string; studioId: string }, template: PlanTemplate, totalMinor: number, waiting: PlanSubscription | undefined): PlanSubscription {
+  return getDb().transaction(
+    (tx) => {
+      const now = new Date();
+      const again = waiting ? tx.select().from(planSubscriptions).where(and(eq(planSubscriptions.id, waiting.id), eq(planSubscriptions.state, "awaiting_payment"))).get() : undefined;
+      const holder = tx.select({ id: planSubscriptions.id }).from(planSubscriptions).where(and(eq(planSubscriptions.pieceId, piece.id), isNotNull(planSubscriptions.checkoutClaimedAt))).get();
+      if (holder && holder.id !== again?.id) throw conflict(CHECKOUT_OPENING, { code: "plan_checkout_opening" });
+      if (again) return tx.update(planSubscriptions).set({ checkoutClaimedAt: now }).where(eq(planSubscriptions.id, again.id)).returning().get()!;
+      const row = tx.insert(planSubscriptions).values({ studioId: piece.studioId, templateId: template.id, pieceId: piece.id, ownerId: user.id, payerId: user.id, amountMinor: totalMinor, currency: template.currency, paidBy: "card", checkoutClaimedAt: now }).returning().get();
+      recordAudit(tx, { studioId: piece.studioId, actorId: user.id, action: "plan.checkout_started", subjectType: "plan_subscription", subjectId: row.id, data: { templateId: template.id, version: template.version, amountMinor: totalMinor } });
+      return row;
+    },
+    { behavior: "immediate" },
+  );
+}
+
+const CHECKOUT_OPENING = "A payment page for a care plan on this piece is being opened right now, in another tab or window. Finish there, or try again in a minute.";
 
 async function startPlanCheckoutNow(user: Pick<User, "id" | "email" | "name">, pieceId: string, templateId: string): Promise<{ checkoutUrl: string; subscriptionId: string }> {
   const piece = ownedPieceRow(user, pieceId);
@@ -134,13 +189,7 @@ async function startPlanCheckoutNow(user: Pick<User, "id" | "email" | "name">, p
   // A page closed just now may have been paid first, and started a plan.
   refuseIfCovered(piece.id);
   if (reuse) return { checkoutUrl: live!.url!, subscriptionId: waiting!.id };
-  const sub =
-    waiting ??
-    db.transaction((tx) => {
-      const row = tx.insert(planSubscriptions).values({ studioId: piece.studioId, templateId: template.id, pieceId: piece.id, ownerId: user.id, amountMinor: totalMinor, currency: template.currency, paidBy: "card" }).returning().get();
-      recordAudit(tx, { studioId: piece.studioId, actorId: user.id, action: "plan.checkout_started", subjectType: "plan_subscription", subjectId: row.id, data: { templateId: template.id, version: template.version, amountMinor: totalMinor } });
-      return row;
-    });
+  const sub = claimCheckout(user, piece, template, totalMinor, waiting);
   const metadata = { planSubscriptionId: sub.id, studioId: piece.studioId, templateId: template.id, amountMinor: String(totalMinor) };
   // The account the plan is bought under now; every later call about it uses the same one.
   const home = { studioId: piece.studioId, stripeAccount: accountFor(piece.studioId) };
@@ -163,7 +212,11 @@ async function startPlanCheckoutNow(user: Pick<User, "id" | "email" | "name">, p
       },
       { idempotencyKey: `plan-checkout-${sub.id}-${sub.version}-${Date.now()}` },
     );
-  }, home);
+  }, home).catch((e: unknown) => {
+    // No page was made for this claim (or none we know of): the next start may make one.
+    releaseCheckoutClaim(sub.id, sub.checkoutSessionId);
+    throw e;
+  });
   db.update(planSubscriptions).set({ checkoutSessionId: session.id, checkoutUrl: session.url, stripeAccount: home.stripeAccount, stripeCustomerId: typeof session.customer === "string" ? session.customer : null, updatedAt: new Date() }).where(eq(planSubscriptions.id, sub.id)).run();
   return { checkoutUrl: session.url!, subscriptionId: sub.id };
 }
@@ -182,7 +235,7 @@ export function startPlanByOtherMeans(ctx: StudioActor, input: { pieceId: string
   return db.transaction((tx) => {
     const sub = tx
       .insert(planSubscriptions)
-      .values({ studioId: ctx.studio.id, templateId: template.id, pieceId: piece.id, ownerId: piece.ownerId, amountMinor: totalMinor, currency: template.currency, paidBy: "other", paidByNote: input.paidByNote, createdById: ctx.user.id })
+      .values({ studioId: ctx.studio.id, templateId: template.id, pieceId: piece.id, ownerId: piece.ownerId, payerId: piece.ownerId, amountMinor: totalMinor, currency: template.currency, paidBy: "other", paidByNote: input.paidByNote, createdById: ctx.user.id })
       .returning()
       .get();
     tx.insert(planInvoices).values({ studioId: ctx.studio.id, subscriptionId: sub.id, status: "paid", amountMinor: totalMinor, taxMinor, currency: template.currency, periodStart: now, periodEnd, at: now }).run();

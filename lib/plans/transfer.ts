@@ -1,18 +1,21 @@
-// A piece under a plan changes hands (its owner releases it for a new owner; lib/owner/transfer.ts
-// calls this once, after the release is committed). The template's `transfers` setting decides:
+// A piece under a plan changes hands (its owner releases it for a new owner, lib/owner/transfer.ts).
+// The template's `transfers` setting decides:
 //  - off (the default): the plan ends at the transfer; the refund rule applies as to a cancellation
 //    made that day (lib/plans/refund.ts), paid back to the owner who paid, who is mailed.
 //  - on: the plan stays with the piece for the rest of the period paid, for whoever registers it next,
 //    and is not renewed on the former owner's card (Stripe: cancel at the period's end).
 // Either way the move goes through moveSubscription under the plan's lock and is audited.
 //
-// Safe to retry: the move, the refund claim and the step still to do at Stripe (transferStep: "stripe",
-// then "refund" for a plan that ends) are written in one transaction first; finishPlanTransfer then
+// Durable and safe to retry: the move, the refund claim and the step still to do at Stripe (transferStep:
+// "stripe", then "refund" for a plan that ends) are written in the release's own transaction
+// (recordPlanHandOver), so a crash right after the release commits leaves the work recorded for the
+// scheduled pass, and a renewal Stripe charges meanwhile is paid back, not counted (lib/plans/stripe-sync.ts
+// notOwed: the plan has ended, or has no owner). After the commit, finishPlanTransfer
 // does what is left, each Stripe call with an idempotency key of the plan, and moves the step on only
 // after Stripe answered. If Stripe fails, the plan shows what is left in plain words, and the next try
 // (staff's "try again", or the scheduled pass every few minutes) finishes it: one move, one Stripe
 // subscription, one refund, one mail.
-import { and, eq, isNotNull } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import { getDb, type Tx } from "@/db/client";
 import { planSubscriptions, studios, type PlanSubscription } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
@@ -20,7 +23,7 @@ import type { User } from "lucia";
 import type { StudioActor } from "@/lib/auth/actor";
 import { callStripe } from "@/lib/payments/stripe";
 import { claimRefund, mailPlanEnding, monthsIn, payRefund, refundOf, refundQuote } from "./refund";
-import { PLAN_FINAL } from "./states";
+import { PLAN_COVERS, PLAN_FINAL } from "./states";
 import { syncPlanSubscription, withPlanLock } from "./stripe-sync";
 import { livePlanOfPiece, moveSubscription, studioSubscription } from "./subscriptions";
 import { templateOf } from "./templates";
@@ -54,7 +57,7 @@ export type PlanOnRelease = {
   country: string;
 };
 
-/** For the owner's release page: planFollowsTransfer's rule, read without changing anything; null when they pay for no plan on the piece. */
+/** For the owner's release page: recordPlanHandOver's rule, read without changing anything; null when they pay for no plan on the piece. */
 export function planOnRelease(owner: Pick<User, "id">, pieceId: string, now = new Date()): PlanOnRelease | null {
   const live = livePlanOfPiece(pieceId);
   if (!live || live.sub.ownerId !== owner.id) return null;
@@ -66,32 +69,52 @@ export function planOnRelease(owner: Pick<User, "id">, pieceId: string, now = ne
   return { ...base, moves: false, endsAt: q.endsAt.getTime(), refundMinor: q.refundMinor, months: q.months };
 }
 
-export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, now = new Date()): Promise<PlanAfterTransfer> {
+/**
+ * Runs `release` (the release's transaction, which calls recordPlanHandOver) once no sync, cancellation
+ * or hand-over of the piece's plan is in flight in this process (lib/plans/stripe-sync.ts withPlanLock),
+ * so none of them reads the plan before the release and writes after it. Across processes the plan's
+ * version column holds (moveSubscription).
+ */
+export function underPiecePlanLock<T>(pieceId: string, release: () => T): Promise<T> {
   const live = livePlanOfPiece(pieceId);
-  if (!live || live.sub.ownerId !== fromOwnerId) return { outcome: "none", subscription: null, pending: null };
-  const { template } = live;
+  return live ? withPlanLock(lockKey(live.sub), async () => release()) : Promise.resolve().then(release);
+}
+
+/**
+ * Written inside the release's transaction (lib/owner/transfer.ts): the plan `fromOwnerId` pays for on
+ * the piece moves or ends by its template's setting, the refund its rule gives is claimed (unless a
+ * cancellation already claimed one: one refund per plan), and the step left at Stripe is recorded.
+ * Null when they pay for no plan on the piece. finishPlanHandOver does the rest after the commit.
+ */
+export function recordPlanHandOver(tx: Tx, pieceId: string, fromOwnerId: string, now = new Date()): PlanSubscription | null {
+  const fresh = tx
+    .select()
+    .from(planSubscriptions)
+    .where(and(eq(planSubscriptions.pieceId, pieceId), eq(planSubscriptions.ownerId, fromOwnerId), inArray(planSubscriptions.state, [...PLAN_COVERS])))
+    .orderBy(desc(planSubscriptions.createdAt))
+    .get();
+  if (!fresh) return null;
+  const template = templateOf(fresh.studioId, fresh.templateId);
   const by = { actorId: fromOwnerId, source: "owner" } as const;
-  // 1. The move, the refund claim and what is left to tell Stripe: one transaction.
-  const recorded = await withPlanLock(lockKey(live.sub), async () =>
-    getDb().transaction((tx) => {
-      const fresh = tx.select().from(planSubscriptions).where(eq(planSubscriptions.id, live.sub.id)).get()!;
-      const byCard = fresh.paidBy === "card" && Boolean(fresh.stripeSubscriptionId);
-      if (template.transfers) {
-        // A plan already cancelled keeps the end it was given; otherwise it isn't renewed on the former owner's card.
-        const transferStep = byCard && fresh.state !== "ending" ? ("stripe" as const) : null;
-        const next = moveSubscription(tx, fresh, fresh.state === "grace" ? "grace" : "ending", { ownerId: null, endsAt: fresh.endsAt ?? fresh.periodEnd, transferStep }, by);
-        auditChangedHands(tx, fresh, fromOwnerId, { moves: true, endsAt: next.endsAt?.toISOString() ?? null });
-        return next;
-      }
-      // The plan ends today, with the refund its rule gives for the months left.
-      const quote = refundQuote(fresh, template, now, true);
-      const next = moveSubscription(tx, fresh, "ended", { endedAt: now, endsAt: now, transferStep: byCard ? "stripe" : "refund" }, by);
-      auditChangedHands(tx, fresh, fromOwnerId, { moves: false, refundMinor: quote.refundMinor });
-      claimRefund(tx, fresh, quote, "changed_hands", fromOwnerId);
-      return next;
-    }),
-  );
-  // 2. What is left at Stripe; a failure leaves the step recorded for the next try.
+  const byCard = fresh.paidBy === "card" && Boolean(fresh.stripeSubscriptionId);
+  if (template.transfers) {
+    // A plan already cancelled keeps the end it was given; otherwise it isn't renewed on the former owner's card.
+    const transferStep = byCard && fresh.state !== "ending" ? ("stripe" as const) : null;
+    const next = moveSubscription(tx, fresh, fresh.state === "grace" ? "grace" : "ending", { ownerId: null, endsAt: fresh.endsAt ?? fresh.periodEnd, transferStep }, by);
+    auditChangedHands(tx, fresh, fromOwnerId, { moves: true, endsAt: next.endsAt?.toISOString() ?? null });
+    return next;
+  }
+  // The plan ends today, with the refund its rule gives for the months left.
+  const quote = refundQuote(fresh, template, now, true);
+  const next = moveSubscription(tx, fresh, "ended", { endedAt: now, endsAt: now, transferStep: byCard ? "stripe" : "refund" }, by);
+  auditChangedHands(tx, fresh, fromOwnerId, { moves: false, refundMinor: quote.refundMinor });
+  if (!refundOf(fresh.id, tx)) claimRefund(tx, fresh, quote, "changed_hands", fromOwnerId);
+  return next;
+}
+
+/** After the release committed: what is left at Stripe, the refund and the mail; a failure leaves the step recorded for the pass. */
+export async function finishPlanHandOver(recorded: PlanSubscription | null): Promise<PlanAfterTransfer> {
+  if (!recorded) return { outcome: "none", subscription: null, pending: null };
   let subscription: PlanSubscription;
   try {
     subscription = await finishPlanTransfer(recorded.id);
@@ -99,7 +122,7 @@ export async function planFollowsTransfer(pieceId: string, fromOwnerId: string, 
     console.error("plan after transfer: Stripe step failed; it is tried again by the plan transfer pass", e);
     subscription = reread(recorded.id);
   }
-  return { outcome: template.transfers ? "moved" : "ended", subscription, pending: transferPendingWords(subscription) };
+  return { outcome: recorded.state === "ended" ? "ended" : "moved", subscription, pending: transferPendingWords(subscription) };
 }
 
 /** Moves the step on only from the one it was at (a racing try in another process moves it once). */

@@ -13,13 +13,12 @@ import { releasePiece } from "@/lib/owner/transfer";
 import { cancelPlanAtPeriodEnd, keepStudioPlan, studioPlanDetail } from "@/lib/plans/cancel";
 import { resolveHeldPayment } from "@/lib/plans/held";
 import { finishRequestedPlanRefunds, refundOf } from "@/lib/plans/refund";
-import { createTemplate } from "@/lib/plans/templates";
 import { finishPlanTransfer } from "@/lib/plans/transfer";
 import { startPlanByOtherMeans, startPlanCheckout } from "@/lib/plans/subscriptions";
 import { getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob, sendQuote, updateJobQuote } from "@/lib/repairs/payment";
-import { auditsOf, createPiece, createStudio, createUser, memberContext, planTemplateInput, unique } from "../support/fixtures";
-import { buyPlan, knob, plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
+import { auditsOf, createPiece, createStudio, createUser, memberContext, unique } from "../support/fixtures";
+import { buyPlan, knob, monthlyPlan, plansStripeForFile, subRow, until, yearlyPlan } from "../support/plans-stripe";
 import { listMail, waitForMail } from "../support/mail";
 import { quotedRepairJob } from "../support/repair-quote";
 
@@ -78,19 +77,6 @@ describe("an owner approving a quote from a page opened before the studio change
     expect(stripe.fake.sessions().find((s) => s.url === checkoutUrl)!.amount_total).toBe(now.totalMinor);
   });
 });
-
-/** A second plan that fits every piece, at another price; invented. */
-const monthlyPlan = (admin: Awaited<ReturnType<typeof memberContext>>) =>
-  createTemplate(
-    admin,
-    planTemplateInput({
-      name: "Monthly keeping (invented)",
-      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
-      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
-      priceMinor: 1_500,
-      interval: "month",
-    }),
-  );
 
 async function ownerWithPiece(prefix: string) {
   const studio = createStudio({ email: `${unique(prefix)}@test.example`, taxRateBp: 0 });

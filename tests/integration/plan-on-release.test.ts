@@ -1,5 +1,5 @@
 // Before an owner releases a piece they pay a care plan on, the release page tells them what happens to
-// the plan (lib/plans/transfer.ts planOnRelease, the rule planFollowsTransfer then applies); after it, the
+// the plan (lib/plans/transfer.ts planOnRelease, the rule recordPlanHandOver then applies); after it, the
 // "plan ended" mail sends them to their list of pieces, not to the piece's page, which is no longer theirs.
 // Real stripe SDK against the local Stripe fake over HTTP, real SMTP sink. Invented studio and owners.
 import { describe, expect, it } from "vitest";

@@ -100,6 +100,20 @@ export function yearlyPlan(admin: StudioActor, over: { refundRule: "none" | "unu
   );
 }
 
+/** A second plan that fits every piece, monthly at another price (15.00 before the studio's tax), with no visits; invented. */
+export function monthlyPlan(admin: StudioActor) {
+  return createTemplate(
+    admin,
+    planTemplateInput({
+      name: "Monthly keeping (invented)",
+      included: { tasks: ["reoil"], visitsPerYear: 0, visitSharePct: 0, extendedLines: [], repairDiscountPct: 0 },
+      fits: { finishClasses: [], pieceKinds: [], minTopAreaM2: null, maxTopAreaM2: null },
+      priceMinor: 1_500,
+      interval: "month",
+    }),
+  );
+}
+
 /** The owner buys the plan on the fake's payment page; resolves once it runs and every event of the purchase has landed. */
 export async function buyPlan(fake: StripeFake, owner: Pick<User, "id" | "email" | "name">, pieceId: string, templateId: string): Promise<PlanSubscription> {
   const { checkoutUrl, subscriptionId } = await startPlanCheckout(owner, pieceId, templateId);

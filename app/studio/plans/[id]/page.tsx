@@ -56,6 +56,7 @@ export default async function StudioPlanPage({ params }: { params: Promise<{ id:
           {sub.periodEnd ? <p className="text-sm">Paid to {day(sub.periodEnd)}.</p> : null}
           {sub.state === "ending" && (sub.endsAt ?? sub.periodEnd) ? <p className="text-sm">Cancelled: it ends on {day((sub.endsAt ?? sub.periodEnd)!)}.</p> : null}
           {detail.refund ? <p className="text-sm">Refund on cancellation: {money(detail.refund.amountMinor)}.</p> : null}
+          {detail.refundRefused ? <p className="text-sm" data-testid="plan-refund-refused">{detail.refundRefused}</p> : null}
           {row ? (
             <p className="text-sm">
               <Link href={`/studio/pieces/${row.pieceId}`} className="underline underline-offset-2 hover:text-resin">
