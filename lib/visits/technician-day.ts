@@ -13,7 +13,8 @@ import { fileUrl } from "@/lib/claims/claim-row";
 import { displayPhone } from "@/lib/clients/phone";
 import { notFound } from "@/lib/errors";
 import { formatVolume, type UnitSystem } from "@/lib/format";
-import { recordedAreaM2, refreshedSurface } from "@/lib/pieces/care-inputs";
+import { refreshedSurface, surfacesEndingIn } from "@/lib/pieces/care-inputs";
+import { quoteAreaM2 } from "@/lib/repairs/pricing";
 import { studioProducts } from "@/lib/pieces/registry";
 import { visitDay } from "@/lib/validation/dates";
 import { isStudioTechnician } from "./availability";
@@ -34,12 +35,16 @@ export type BringItem = {
   surface: Surface | null;
   /** The surface the amount is for: the layer's, or the top where the stack does not say which. */
   amountFor: Surface;
+  /** The other surfaces the quote priced this finish's task on beside the top (JobQuoteInput.alsoSurfaces): the amount is for them too. */
+  alsoFor: Surface[];
+  /** Of `amountFor` and `alsoFor`, those with no size on the record or typed on the quote. */
+  unsized: Surface[];
   /** One coat on a round area in the studio's units (1 m², or 10 ft²), to work an amount out on site where `amount` is null. */
   perArea: { areaM2: number; exactMl: number };
   /**
-   * What to bring for `amountFor`'s area on the piece's record (recordedAreaM2), or null where the
-   * record has no area for that surface (the base, the edges, a top without its sizes): never the top's
-   * figure for another surface.
+   * What to bring for the area of `amountFor` and `alsoFor` as the quote priced them (lib/repairs/pricing
+   * quoteAreaM2: the piece's record's, else the size typed on the quote), summed; null where one has no
+   * size (the base, the edges, a top without its sizes, none typed): never the top's figure for another surface.
    */
   amount: {
     areaM2: number;
@@ -62,7 +67,12 @@ function whatToBring(job: RepairJob, piece: Piece, layers: readonly FinishLayer[
   return list.map((p) => {
     const surface = refreshedSurface(layers, p.finishClass);
     const amountFor = surface ?? "top";
-    const areaM2 = recordedAreaM2(piece, amountFor);
+    const ending = surfacesEndingIn(layers, p.finishClass);
+    const chosen = input.alsoSurfaces?.[TASK_KIND_BY_FINISH_CLASS[p.finishClass]] ?? [];
+    const alsoFor = !surface && ending.includes("top") ? ending.filter((s) => s !== "top" && chosen.includes(s)) : [];
+    const areas = [amountFor, ...alsoFor].map((s) => ({ s, m2: quoteAreaM2(piece, input, s) }));
+    const unsized = areas.filter((a) => a.m2 === null).map((a) => a.s);
+    const areaM2 = unsized.length ? null : areas.reduce((t, a) => t + a.m2!, 0);
     const need = areaM2 ? productNeeded({ areaM2, coats, coverageM2PerL: p.coverageM2PerL, containerSizesMl: p.containers.map((c) => c.ml) }) : null;
     const unitArea = units === "metric" ? 1 : 10 * M2_PER_FT2;
     const cure = cureWindow({ finishClass: p.finishClass, appliedOn, productId: p.id }, products);
@@ -74,6 +84,8 @@ function whatToBring(job: RepairJob, piece: Piece, layers: readonly FinishLayer[
       coats,
       surface,
       amountFor,
+      alsoFor,
+      unsized,
       perArea: { areaM2: unitArea, exactMl: productNeeded({ areaM2: unitArea, coats: 1, coverageM2PerL: p.coverageM2PerL }).exactMl },
       amount:
         areaM2 && need

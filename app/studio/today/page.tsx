@@ -13,7 +13,7 @@ import { addDays } from "@/lib/care/dates";
 import { getSpecies } from "@/lib/care/species";
 import type { Surface } from "@/lib/care/vocabulary";
 import { CLAIM_CATEGORY_LABELS } from "@/lib/claims/labels";
-import { formatArea, formatClock, formatDate, formatVolume } from "@/lib/format";
+import { formatAndList, formatArea, formatClock, formatDate, formatVolume } from "@/lib/format";
 import { technicianDay } from "@/lib/visits/technician-day";
 
 export const metadata: Metadata = { title: "My day" };
@@ -144,11 +144,11 @@ export default async function TechnicianDayPage({ searchParams }: { searchParams
                         {item.bring.map((b) => (
                           <li key={b.product} className="rounded-lg bg-paper px-3 py-2">
                             <span className="font-semibold">{b.product}</span> ({b.classLabel}) —{" "}
-                            {b.amount ? `${formatVolume(b.amount.exactMl, ctx.studio.unitSystem)} for` : "for"} {b.coats} coat{b.coats === 1 ? "" : "s"} on {ON_SURFACE[b.amountFor]}
+                            {b.amount ? `${formatVolume(b.amount.exactMl, ctx.studio.unitSystem)} for` : "for"} {b.coats} coat{b.coats === 1 ? "" : "s"} on {formatAndList([b.amountFor, ...b.alsoFor].map((s) => ON_SURFACE[s]))}
                             {b.amount?.containers ? <span className="block text-muted">Open: {b.amount.containers}</span> : null}
                             {b.amount ? null : (
                               <span className="block text-muted">
-                                The piece&apos;s record has no size for {ON_SURFACE[b.amountFor]}, so no amount is worked out. Measure it on site: one coat takes about {formatVolume(b.perArea.exactMl, ctx.studio.unitSystem)} for each {formatArea(b.perArea.areaM2, ctx.studio.unitSystem)}.
+                                The piece&apos;s record has no size for {formatAndList(b.unsized.map((s) => ON_SURFACE[s]))}, so no amount is worked out. Measure it on site: one coat takes about {formatVolume(b.perArea.exactMl, ctx.studio.unitSystem)} for each {formatArea(b.perArea.areaM2, ctx.studio.unitSystem)}.
                               </span>
                             )}
                             <span className="block text-muted">
