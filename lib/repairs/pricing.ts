@@ -90,6 +90,27 @@ export function taskSurface(layers: PricedPiece["layers"], kind: CareTaskKind): 
   return (cls && refreshedSurface(layers, cls)) || "top";
 }
 
+/** Where the task's finish is the outer coat of the top and of other surfaces too: all of them, the top first; else none. */
+export function sharedFinishSurfaces(layers: PricedPiece["layers"], kind: CareTaskKind): Surface[] {
+  const cls = CLASS_BY_TASK[kind];
+  const ending = cls ? surfacesEndingIn(layers, cls) : [];
+  return ending.length > 1 && ending.includes("top") ? ["top", ...ending.filter((s) => s !== "top")] : [];
+}
+
+/**
+ * The surfaces a task is priced on: the one its work is on (taskSurface), then each other surface staff
+ * chose to price beside the top where they share its finish (JobQuoteInput.alsoSurfaces). The visit's
+ * booked length (lib/visits/availability.ts) and the technician's "What to bring"
+ * (lib/visits/technician-day.ts) read the same surfaces.
+ */
+export function taskSurfaces(layers: PricedPiece["layers"], kind: CareTaskKind, input: Pick<JobQuoteInput, "alsoSurfaces">): Surface[] {
+  const chosen = input.alsoSurfaces?.[kind] ?? [];
+  return [taskSurface(layers, kind), ...sharedFinishSurfaces(layers, kind).filter((s) => s !== "top" && chosen.includes(s))];
+}
+
+/** The ref of a task's labour line on a surface: the first surface's plain (as before surfaces could be added), the others' named. */
+export const taskLineRef = (kind: CareTaskKind, surface: Surface, first: Surface) => (surface === first ? `task:${kind}` : `task:${kind}:${surface}`);
+
 /**
  * The size of one face of a surface for a quote, m²: the piece's record's (recordedAreaM2: the top's,
  * from its shape), else the size staff typed on this quote for a surface the record has none for; null
@@ -133,15 +154,13 @@ export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuote
   for (const task of input.tasks) {
     const label = CARE_TASK_LABELS[task];
     const needsArea = DEFAULT_LABOUR[task].hoursPerM2 > 0 || chosen.some((e) => TASK_KIND_BY_FINISH_CLASS[e.finishClass] === task);
-    const surface = taskSurface(piece.layers, task);
-    const cls = CLASS_BY_TASK[task];
-    const ending = cls ? surfacesEndingIn(piece.layers, cls) : [];
-    // The top and other surfaces end in this finish: the top, and the others staff chose, in the stack's order.
-    const shared = needsArea && ending.length > 1 && ending.includes("top");
-    const also = shared ? ending.filter((s) => s !== "top" && (input.alsoSurfaces?.[task] ?? []).includes(s)) : [];
-    const surfaces: Surface[] = [surface, ...also];
+    // Where the top and other surfaces end in this finish: the top, and the others staff chose.
+    const shared = sharedFinishSurfaces(piece.layers, task);
+    const surfaces = taskSurfaces(piece.layers, task, input);
+    const [surface] = surfaces as [Surface, ...Surface[]];
+    const also = surfaces.slice(1);
     const areas = surfaces.map((s) => (needsArea ? quoteAreaM2(piece, input, s) : 0));
-    if (shared) topOnly.push({ task, label, surfaces: ["top", ...ending.filter((s) => s !== "top")], also, areasM2: Object.fromEntries(ending.map((s) => [s, quoteAreaM2(piece, input, s)])) });
+    if (needsArea && shared.length) topOnly.push({ task, label, surfaces: shared, also, areasM2: Object.fromEntries(shared.map((s) => [s, quoteAreaM2(piece, input, s)])) });
     const sized = surfaces.flatMap((s, i) => {
       const areaM2 = areas[i]!;
       if (areaM2 === null) unsized.push({ label, surface: s });
@@ -152,7 +171,7 @@ export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuote
     const named = also.length > 0;
     for (const { surface: s, areaM2 } of sized) {
       for (const l of engine(task, areaM2, false)) {
-        const ref = s === surface ? `task:${l.taskKind}` : `task:${l.taskKind}:${s}`;
+        const ref = taskLineRef(task, s, surface);
         labour.push({ kind: "labour", source: "labour_rate", ref, description: named ? `${label} — ${SURFACE_LABELS[s].toLowerCase()}` : l.description, quantity: l.quantity, unit: "h", unitPriceMinor: l.unitPriceMinor });
       }
     }

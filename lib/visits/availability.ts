@@ -8,9 +8,8 @@ import { memberships, users, visitRules, type RepairJob, type Studio, type Techn
 import { addDays, parseHhMm, zonedTimeToEpochMs } from "@/lib/care/dates";
 import { taskDurationMinutes } from "@/lib/care/quote";
 import { availableSlots, type BusyInterval, type Slot } from "@/lib/care/slots";
-import type { CareTaskKind } from "@/lib/care/vocabulary";
 import { readLines } from "@/lib/repairs/lines";
-import { quoteAreaM2, taskSurface, type PricedPiece } from "@/lib/repairs/pricing";
+import { quoteAreaM2, taskLineRef, taskSurfaces, type PricedPiece } from "@/lib/repairs/pricing";
 import type { DbOrTx } from "@/lib/pieces/search-index";
 import { bookedByTechnician, hoursByTechnician, timeOffByTechnician, type WeeklyRange } from "./visits-sql";
 
@@ -75,21 +74,25 @@ export const UNSIZED_BOOKING_AREA_M2 = 1;
 
 /**
  * Minutes on site for a job: the quote's hours as sent (edited hours and repair lines included), else
- * the quote's tasks, each on the surface its work is on and at that surface's size, as the quote prices
- * it (lib/repairs/pricing.ts taskSurface, quoteAreaM2), or UNSIZED_BOOKING_AREA_M2 where none is known
+ * the quote's tasks, each on the surfaces it is priced on and at their sizes, as the quote prices it
+ * (lib/repairs/pricing.ts taskSurfaces, quoteAreaM2), or UNSIZED_BOOKING_AREA_M2 where none is known
  * (lib/care taskDurationMinutes).
  */
 export function jobDurationMin(job: Pick<RepairJob, "quoteInput" | "lines">, piece: PricedPiece): number {
   const lines = readLines(job.lines);
   const quotedHours = lines.reduce((h, l) => h + (l.unit === "h" ? l.quantity : 0), 0);
   const tasks = job.quoteInput.tasks ?? [];
-  const areaOf = (task: CareTaskKind) => quoteAreaM2(piece, job.quoteInput, taskSurface(piece.layers, task));
-  const minutesOf = (some: readonly CareTaskKind[]) => some.reduce((m, task) => m + taskDurationMinutes([task], areaOf(task) ?? UNSIZED_BOOKING_AREA_M2), 0);
-  if (quotedHours <= 0) return Math.max(30, tasks.length ? minutesOf(tasks) : 60);
-  // A task the quote has no hours for because its surface has no size (no line was proposed for it)
+  // Each task on each surface it is priced on (the base too, where staff priced it beside the top).
+  const work = tasks.flatMap((task) => {
+    const surfaces = taskSurfaces(piece.layers, task, job.quoteInput);
+    return surfaces.map((surface) => ({ task, ref: taskLineRef(task, surface, surfaces[0]!), areaM2: quoteAreaM2(piece, job.quoteInput, surface) }));
+  });
+  const minutesOf = (some: typeof work) => some.reduce((m, w) => m + taskDurationMinutes([w.task], w.areaM2 ?? UNSIZED_BOOKING_AREA_M2), 0);
+  if (quotedHours <= 0) return Math.max(30, tasks.length ? minutesOf(work) : 60);
+  // Work the quote has no hours for because its surface has no size (no line was proposed for it)
   // still takes its time on site, beside the hours quoted for the rest.
   const hourRefs = new Set(lines.filter((l) => l.unit === "h").map((l) => l.ref));
-  const unpriced = tasks.filter((task) => areaOf(task) === null && !hourRefs.has(`task:${task}`));
+  const unpriced = work.filter((w) => w.areaM2 === null && !hourRefs.has(w.ref));
   return Math.max(30, Math.round(quotedHours * 60) + minutesOf(unpriced));
 }
 

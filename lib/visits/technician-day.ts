@@ -13,8 +13,8 @@ import { fileUrl } from "@/lib/claims/claim-row";
 import { displayPhone } from "@/lib/clients/phone";
 import { notFound } from "@/lib/errors";
 import { formatVolume, type UnitSystem } from "@/lib/format";
-import { refreshedSurface, surfacesEndingIn } from "@/lib/pieces/care-inputs";
-import { quoteAreaM2 } from "@/lib/repairs/pricing";
+import { refreshedSurface } from "@/lib/pieces/care-inputs";
+import { quoteAreaM2, taskSurfaces } from "@/lib/repairs/pricing";
 import { studioProducts } from "@/lib/pieces/registry";
 import { visitDay } from "@/lib/validation/dates";
 import { isStudioTechnician } from "./availability";
@@ -66,10 +66,8 @@ function whatToBring(job: RepairJob, piece: Piece, layers: readonly FinishLayer[
   const list = chosen.length ? chosen : products.filter((p) => tasks.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).slice(0, 1);
   return list.map((p) => {
     const surface = refreshedSurface(layers, p.finishClass);
-    const amountFor = surface ?? "top";
-    const ending = surfacesEndingIn(layers, p.finishClass);
-    const chosen = input.alsoSurfaces?.[TASK_KIND_BY_FINISH_CLASS[p.finishClass]] ?? [];
-    const alsoFor = !surface && ending.includes("top") ? ending.filter((s) => s !== "top" && chosen.includes(s)) : [];
+    // The layer's surface, or the top where the stack does not say which, and those priced beside it (lib/repairs/pricing taskSurfaces).
+    const [amountFor, ...alsoFor] = taskSurfaces(layers, TASK_KIND_BY_FINISH_CLASS[p.finishClass], input) as [Surface, ...Surface[]];
     const areas = [amountFor, ...alsoFor].map((s) => ({ s, m2: quoteAreaM2(piece, input, s) }));
     const unsized = areas.filter((a) => a.m2 === null).map((a) => a.s);
     const areaM2 = unsized.length ? null : areas.reduce((t, a) => t + a.m2!, 0);

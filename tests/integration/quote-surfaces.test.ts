@@ -324,6 +324,25 @@ describe("a visit is booked for the surface its work is on", () => {
     expect(jobDurationMin(stored, pricedPiece(getDb(), getDb().select().from(pieces).where(eq(pieces.id, piece.id)).get()!))).toBe(Math.round(hours[0]!.quantity * 60) + 60);
   });
 
+  it("a base priced beside the top is booked too: at its typed size, or at the plain 1 m² where it has none", async () => {
+    // No hour lines (a flat typed line): the re-oil on the top's 1.8 m², 0.5 + 0.9 = 1.4 → 1.5 h = 90 minutes, and on the
+    // base's typed 0.3 m², 0.5 + 0.15 = 0.65 → 0.75 h = 45 minutes: 135 (before: the top's 90 alone).
+    const flat = await pieceWithOiledBase();
+    oilTopAndBase(flat.piece);
+    await updateJobQuote(flat.staff, flat.job.id, flatQuote({ tasks: ["reoil"], areasM2: { base: 0.3 }, alsoSurfaces: { reoil: ["base"] } }));
+    expect(jobDurationMin(getStudioJob(flat.staff, flat.job.id).job, pricedPiece(getDb(), flat.piece))).toBe(135);
+    // Proposed lines: the top's 1.5 h quoted; the base chosen with no size has no line, so it is booked at
+    // 1 m²: 0.5 + 0.5 = 1.0 h = 60 minutes; 90 + 60 = 150 (before: 90).
+    const { staff, job, piece } = await pieceWithOiledBase();
+    oilTopAndBase(piece);
+    const saved = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], alsoSurfaces: { reoil: ["base"] } }));
+    expect(saved.lines.filter((l) => l.unit === "h").map((l) => [l.ref, l.quantity])).toEqual([["task:reoil", 1.5]]);
+    expect(jobDurationMin(getStudioJob(staff, job.id).job, pricedPiece(getDb(), piece))).toBe(150);
+    // Sized: both hour lines are quoted (1.5 h + 0.5 + 0.3 = 0.8 → 1.0 h), and nothing more is added: 150 minutes.
+    await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], areasM2: { base: 0.6 }, alsoSurfaces: { reoil: ["base"] } }));
+    expect(jobDurationMin(getStudioJob(staff, job.id).job, pricedPiece(getDb(), piece))).toBe(150);
+  });
+
   it("a top with no size on record is booked at the plain 1 m², or at the size typed for it", async () => {
     const unmeasured = { shapeKind: "measured" as const, lengthMm: null, widthMm: null, measuredAreaM2: null };
     // Topcoat refresh at 1 m²: 0.5 h + 0.4 h = 0.9 → 1.0 h = 60 minutes (before: the top's 0 m², 30 minutes).
