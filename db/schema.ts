@@ -143,6 +143,8 @@ export const users = sqliteTable("users", {
   /** When the person chose their units themselves; until then the first studio they register a piece from sets them (lib/owner/preferences). */
   unitSystemChosenAt: integer("unit_system_chosen_at", { mode: "timestamp_ms" }),
   remindersEnabled: integer("reminders_enabled", { mode: "boolean" }).notNull().default(true),
+  /** When the owner deleted their account (lib/owner/account-delete.ts): the row stays, its name, e-mail and password gone, for the studios' books. */
+  deletedAt: integer("deleted_at", { mode: "timestamp_ms" }),
   createdAt: createdAt(),
 });
 
@@ -197,6 +199,8 @@ export const userTokens = sqliteTable(
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
     purpose: text("purpose", { enum: TOKEN_PURPOSES }).notNull(),
+    /** change_email: the address the account moves to when the link is opened (lib/owner/account-email.ts). */
+    newEmail: text("new_email"),
     tokenHash: text("token_hash").notNull().unique(),
     expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
     usedAt: integer("used_at", { mode: "timestamp_ms" }),

@@ -186,6 +186,12 @@ export function usePhotoQueue(draftKey: string) {
   return { items, loaded, refused, add, uploadOne, uploadAll, remove, pruneDone };
 }
 
+/** The picker's button: how many are added and how many a claim takes, in words. */
+function photoButtonWords(count: number): string {
+  if (count >= MAX_PHOTOS) return `${MAX_PHOTOS} photos added — the most a claim takes`;
+  return count === 0 ? `Add photos — up to ${MAX_PHOTOS}` : `Add photos — ${count} added, up to ${MAX_PHOTOS}`;
+}
+
 export function PhotoPicker({ onFiles, disabled, count, refused = [] }: { onFiles: (f: FileList) => void; disabled?: boolean; count: number; refused?: string[] }) {
   const ref = useRef<HTMLInputElement>(null);
   return (
@@ -205,7 +211,7 @@ export function PhotoPicker({ onFiles, disabled, count, refused = [] }: { onFile
         }}
       />
       <Button variant="secondary" className="w-full sm:w-auto" disabled={disabled || count >= MAX_PHOTOS} onClick={() => ref.current?.click()}>
-        <SpriteIcon name="image-plus" className="size-5" /> Add photos ({count} of {MAX_PHOTOS})
+        <SpriteIcon name="image-plus" className="size-5" /> {photoButtonWords(count)}
       </Button>
       <p className="text-sm text-muted">JPEG, PNG or WebP, up to 15 MB each. One close-up and one of the whole piece help most.</p>
       {refused.length ? (

@@ -3,7 +3,7 @@
 import { useEffect, useSyncExternalStore } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
-import { ZoneSelect } from "@/components/ui/zone-select";
+import { listedZone, ZoneSelect } from "@/components/ui/zone-select";
 import { useActionForm } from "@/components/forms/use-action-form";
 import type { ActionResult } from "@/lib/validation/action";
 import type { PreferencesInput } from "@/lib/validation/owner";
@@ -26,7 +26,8 @@ export function PreferencesForm({
 }) {
   const { form, onSubmit, formError } = useActionForm({ schema: () => import("@/lib/validation/owner").then((m) => m.preferencesSchema), action, defaultValues: defaults, successMessage: "Preferences saved." });
   const { register, formState, setValue } = form;
-  const browserZone = useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null);
+  // The browser's zone under the id the server's list uses (Asia/Kolkata → Asia/Calcutta), so it is offered once.
+  const browserZone = listedZone(zones, useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null));
   useEffect(() => {
     if (zoneNeverSet && browserZone && browserZone !== defaults.timeZone) {
       setValue("timeZone", browserZone, { shouldDirty: true });

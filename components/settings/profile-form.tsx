@@ -5,7 +5,7 @@ import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { ZoneSelect } from "@/components/ui/zone-select";
+import { listedZone, ZoneSelect } from "@/components/ui/zone-select";
 import type { ActionResult } from "@/lib/validation/action";
 import { CURRENCIES } from "@/lib/care/quote";
 import type { ProfileInput } from "@/lib/validation/settings";
@@ -38,7 +38,7 @@ export function ProfileForm({
   });
   const { register, formState, watch, setValue } = form;
   // Read after hydration (null on the server), so the guessed zone is an option before it is chosen.
-  const guessed = useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null);
+  const guessed = listedZone(timeZones, useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null));
   useEffect(() => {
     if (!guessTimeZone || values.timeZone !== "UTC") return;
     if (guessed && guessed !== "UTC") setValue("timeZone", guessed, { shouldDirty: true });

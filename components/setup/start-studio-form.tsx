@@ -5,7 +5,7 @@ import { useActionForm } from "@/components/forms/use-action-form";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { ZoneSelect } from "@/components/ui/zone-select";
+import { listedZone, ZoneSelect } from "@/components/ui/zone-select";
 import { CURRENCIES } from "@/lib/care/quote";
 import type { StartStudioInput } from "@/lib/studio/create-schema";
 import type { ActionResult } from "@/lib/validation/action";
@@ -38,7 +38,7 @@ export function StartStudioForm({
   const e = formState.errors;
 
   // Read after hydration (null on the server), so the guessed zone is an option before it is chosen.
-  const guessed = useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null);
+  const guessed = listedZone(timeZones, useSyncExternalStore(noSubscribe, runtimeTimeZone, () => null));
   useEffect(() => {
     if (guessed && !getFieldState("timeZone").isDirty) setValue("timeZone", guessed);
   }, [guessed, getFieldState, setValue]);

@@ -20,11 +20,24 @@ type Props = SelectHTMLAttributes<HTMLSelectElement> & {
 };
 
 /**
+ * The choices' own id for `zone`: `zone` itself when listed, else the listed zone named the same
+ * (one zone under an old and a new id, e.g. a browser's Asia/Kolkata against a server list that has
+ * Asia/Calcutta: both read "India Time, Kolkata"), else `zone` unchanged. Null stays null.
+ */
+export function listedZone(choices: ZoneChoices, zone: string | null): string | null {
+  if (!zone || hasZone(choices, zone)) return zone;
+  const label = zoneOption(zone).label;
+  for (const g of choices.groups) for (const z of g.zones) if (z.label === label) return z.value;
+  return zone;
+}
+
+/**
  * The one time-zone picker: a native select (keyboard and type-ahead by the zone's name work as
  * everywhere), each zone in words and grouped by region; the IANA id is the value saved.
  */
 export const ZoneSelect = forwardRef<HTMLSelectElement, Props>(function ZoneSelect({ choices, browserZone, children, ...props }, ref) {
-  const extra = browserZone && !hasZone(choices, browserZone) ? zoneOption(browserZone) : null;
+  const own = listedZone(choices, browserZone ?? null);
+  const extra = own && !hasZone(choices, own) ? zoneOption(own) : null;
   return (
     <SelectField ref={ref} {...props}>
       {children}

@@ -83,18 +83,18 @@ export async function signIn(input: SignInInput, ip: string) {
   return user;
 }
 
-type TokenPurpose = "verify_email" | "password_reset";
+export type TokenPurpose = (typeof userTokens.$inferSelect)["purpose"];
 
-function issueToken(userId: string, purpose: TokenPurpose, ttlMs: number): string {
+/** A fresh single-use link token; only its hash is stored. `newEmail` travels with a change_email token. */
+export function issueToken(userId: string, purpose: TokenPurpose, ttlMs: number, { newEmail = null, tx = getDb() }: { newEmail?: string | null; tx?: Pick<Db, "insert"> } = {}): string {
   const token = randomToken();
-  getDb()
-    .insert(userTokens)
-    .values({ userId, purpose, tokenHash: sha256Hex(token), expiresAt: new Date(Date.now() + ttlMs) })
+  tx.insert(userTokens)
+    .values({ userId, purpose, newEmail, tokenHash: sha256Hex(token), expiresAt: new Date(Date.now() + ttlMs) })
     .run();
   return token;
 }
 
-const usable = (token: string, purpose: TokenPurpose) =>
+export const usable = (token: string, purpose: TokenPurpose) =>
   and(eq(userTokens.tokenHash, sha256Hex(token)), eq(userTokens.purpose, purpose), isNull(userTokens.usedAt), gt(userTokens.expiresAt, new Date()));
 
 /** Takes a single-use token: it must exist for this purpose, be unused and unexpired. */
@@ -109,12 +109,18 @@ export function isTokenUsable(token: string, purpose: TokenPurpose): boolean {
   return getDb().select({ id: userTokens.id }).from(userTokens).where(usable(token, purpose)).get() !== undefined;
 }
 
+/** Every unused link of this purpose the account was sent stops working (marked used). Returns how many. */
+export function retireTokens(tx: Pick<Db, "update">, userId: string, purpose: TokenPurpose): number {
+  return tx
+    .update(userTokens)
+    .set({ usedAt: new Date() })
+    .where(and(eq(userTokens.userId, userId), eq(userTokens.purpose, purpose), isNull(userTokens.usedAt)))
+    .run().changes;
+}
+
 /** After a reset or a password change, no reset link sent before it works any more. */
 function retireResetLinks(tx: Pick<Db, "update">, userId: string) {
-  tx.update(userTokens)
-    .set({ usedAt: new Date() })
-    .where(and(eq(userTokens.userId, userId), eq(userTokens.purpose, "password_reset"), isNull(userTokens.usedAt)))
-    .run();
+  retireTokens(tx, userId, "password_reset");
 }
 
 export async function sendVerificationEmail(userId: string, next?: string) {
@@ -153,7 +159,7 @@ export async function requestPasswordReset(input: ForgotPasswordInput, ip: strin
 
 async function sendPasswordResetEmail(email: string) {
   const user = getDb().select().from(users).where(eq(users.email, email)).get();
-  if (!user) return;
+  if (!user || user.deletedAt) return;
   const token = issueToken(user.id, "password_reset", RESET_TOKEN_TTL_MS);
   await sendMail({
     to: user.email,

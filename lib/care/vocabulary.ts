@@ -176,7 +176,7 @@ export const SLOT_STEPS = [15, 30, 60] as const;
 // ---- values the records store (db/schema.ts columns) ----
 
 export const UNIT_SYSTEMS = ["metric", "imperial"] as const;
-export const TOKEN_PURPOSES = ["verify_email", "password_reset"] as const;
+export const TOKEN_PURPOSES = ["verify_email", "password_reset", "change_email"] as const;
 export const OWNERSHIP_VIA = ["registration", "transfer"] as const;
 export const FILE_PURPOSES = ["piece_photo", "claim_photo", "care_log_photo", "visit_photo"] as const;
 export const CARE_LOG_SOURCES = ["owner", "visit", "studio"] as const;

@@ -23,6 +23,9 @@ import { PlanEndedEmail } from "@/emails/plan-ended";
 import { PlanHeldSettledEmail } from "@/emails/plan-held-settled";
 import { PlanRenewalHeldEmail } from "@/emails/plan-renewal-held";
 import { SignUpAttemptEmail } from "@/emails/sign-up-attempt";
+import { EmailChangeConfirmEmail } from "@/emails/email-change-confirm";
+import { EmailChangeNoticeEmail } from "@/emails/email-change-notice";
+import { EmailChangeTakenEmail } from "@/emails/email-change-taken";
 import { StudioTestMessage } from "@/emails/studio-test-message";
 import { ThreadMessageEmail } from "@/emails/thread-message";
 import StaffInvitationEmail from "@/emails/staff-invitation";
@@ -71,6 +74,9 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "staff-invitation", name: "Team invitation", audience: "staff", when: "When an admin invites someone to the studio.", component: StaffInvitationEmail as Template },
   { slug: "verify-email", name: "Verify e-mail", audience: "anyone", when: "After sign-up, to confirm the address.", component: VerifyEmail as Template },
   { slug: "sign-up-attempt", name: "Sign-up with a known address", audience: "anyone", when: "When someone signs up with an e-mail address that already has an account.", component: SignUpAttemptEmail as Template },
+  { slug: "email-change-confirm", name: "New e-mail address: confirm", audience: "anyone", when: "When an owner asks to move their account to another address; sent to that address.", component: EmailChangeConfirmEmail as Template },
+  { slug: "email-change-notice", name: "New e-mail address: notice", audience: "anyone", when: "To the old address, when a change of address is asked for and when it is made.", component: EmailChangeNoticeEmail as Template },
+  { slug: "email-change-taken", name: "New e-mail address: already in use", audience: "anyone", when: "To an address that already has an account, when another account asks to move to it.", component: EmailChangeTakenEmail as Template },
   { slug: "studio-test-message", name: "Test message", audience: "staff", when: "When an admin sends a test message from the mail settings.", component: StudioTestMessage as Template },
   { slug: "password-reset", name: "Password reset", audience: "anyone", when: "When someone asks to reset their password.", component: PasswordResetEmail as Template },
 ];

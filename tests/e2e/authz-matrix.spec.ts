@@ -586,6 +586,24 @@ const ACTIONS: ActionRow[] = [
     messages: { "400": /^That isn't your current password\.$/ },
     args: () => ({ json: [{ current: "matrix-wrong-password", password: newPassword, confirm: newPassword }] }),
   },
+  // Moving one's own account to another address: a wrong current password stops everyone signed in before anything is sent.
+  {
+    action: "app/(owner)/account/email/actions.ts#requestEmailChangeAction",
+    expect: "401 400 400 400 400 400 400 400",
+    messages: { "400": /^That isn't your current password\.$/ },
+    args: () => ({ json: [{ email: "matrix-moved@owners.example", current: "matrix-wrong-password" }] }),
+  },
+  // Nothing waiting: each signed-in person cancels nothing of their own.
+  { action: "app/(owner)/account/email/actions.ts#cancelEmailChangeAction", expect: "401 ok ok ok ok ok ok ok", args: () => ({ json: [] }) },
+  // The mailed link's page posts this; a made-up token changes no one's address.
+  { action: "app/(owner)/account/email/confirm/actions.ts#confirmEmailChangeAction", expect: "→/account/email/confirm ".repeat(8), args: () => ({ form: { token: "matrix-not-a-real-change-token" } }) },
+  // Deleting one's own account: a wrong password stops it for everyone (staff would be refused after it: team accounts aren't deleted here).
+  {
+    action: "app/(owner)/account/delete/actions.ts#deleteAccountAction",
+    expect: "401 400 400 400 400 400 400 400",
+    messages: { "400": /^That isn't your current password\.$/ },
+    args: () => ({ json: [{ current: "matrix-wrong-password" }] }),
+  },
   { action: "app/(public)/verify-email/sent/actions.ts#resendVerificationAction", expect: "401 ok ok ok ok ok ok ok", args: () => ({ json: [{}] }) },
   // A well-formed code that matches no piece: the signed-in get past the guard to the lookup.
   { action: "app/(owner)/register/actions.ts#registerAction", expect: "401 404 404 404 404 404 404 404", args: () => ({ json: [{ code: generateRegistrationCode() }] }) },

@@ -2,7 +2,8 @@
 // was about (the password form), the piece's four actions at 1280 px (the fourth alone on a row),
 // signing out without a word that it happened, a handed-on piece's claim and repair offering writes that
 // are refused, and a card of one's own piece sending one to "its care plan". Invented data.
-import { expect, test } from "@playwright/test";
+import AxeBuilder from "@axe-core/playwright";
+import { expect, test, type Page } from "@playwright/test";
 import { waitForMail, extractLinks } from "../support/mail";
 import { ACCOUNTS, APP_URL, fixture, PASSWORD, PORTS, SINK_URL, signIn, signInTo } from "./helpers";
 import { manifestActions } from "./routes";
@@ -73,7 +74,7 @@ test("a claim on a piece its owner has handed on is theirs to read: no photo pic
   const { claim } = (await created.json()) as { claim: { id: string } };
   await page.goto(`/claims/${claim.id}`);
   await expect(page.getByRole("button", { name: "Send message" })).toBeVisible();
-  await expect(page.getByRole("button", { name: /^Add photos \(/ })).toBeVisible();
+  await expect(page.getByRole("button", { name: /^Add photos — / })).toBeVisible();
 
   expect((await page.request.post(`/api/me/pieces/${card.pieceId}/release`, { data: { confirm: true } })).status()).toBe(200);
   await page.reload();
@@ -81,7 +82,7 @@ test("a claim on a piece its owner has handed on is theirs to read: no photo pic
   await expect(page.getByText("A claim filed just before the piece was sold")).toBeVisible();
   // Both were offered and answered 403 at every try.
   await expect(page.getByRole("button", { name: "Send message" })).toHaveCount(0);
-  await expect(page.getByRole("button", { name: /^Add photos \(/ })).toHaveCount(0);
+  await expect(page.getByRole("button", { name: /^Add photos — / })).toHaveCount(0);
   await context.close();
 });
 
@@ -245,4 +246,153 @@ test("changing one's name on the account page: saved for this account, greeted b
   await page.getByRole("button", { name: "Save name" }).click();
   await expect(lead).toHaveText(`${before} · ${ACCOUNTS.otherOwner}`);
   await context.close();
+});
+
+/** A new owner (invented), signed up and confirmed through the sink, signed in on `page`. */
+async function newOwner(page: Page, word: string) {
+  const email = `${word}-${Date.now().toString(36)}@owners.example`;
+  await page.goto("/sign-up");
+  await page.getByLabel("Your name").fill(`Sasha ${word} (invented)`);
+  await page.getByLabel("Email").fill(email);
+  await page.getByLabel("Password").fill("a sentence for a password");
+  await page.getByRole("button", { name: "Create account" }).click();
+  await expect(page).toHaveURL(/\/verify-email\/sent/);
+  const mail = await waitForMail({ to: email, subject: /confirm/i, sinkUrl: SINK_URL });
+  await page.goto(extractLinks(mail.text).find((l) => l.includes("/verify-email?"))!);
+  await expect(page).toHaveURL(/\/pieces\?verified=1/);
+  return email;
+}
+
+const phoneSize = { viewport: { width: 375, height: 812 }, isMobile: true, hasTouch: true } as const;
+const shot = (page: Page, name: string) => page.screenshot({ path: `tests/.tmp/screens/owner-account-${name}.png`, fullPage: true });
+
+/** No serious or critical axe findings, and no sideways scrolling, on the page as it is. */
+async function looksRight(page: Page, label: string) {
+  const results = await new AxeBuilder({ page }).analyze();
+  expect(results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => v.id), `${label}: axe`).toEqual([]);
+  expect(await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth), `${label}: horizontal scroll`).toBeLessThanOrEqual(0);
+}
+
+test("changing one's e-mail address at 375 px: a link to the new address, a note to the old, the change only when the link is opened by the same account", async ({ browser }) => {
+  test.setTimeout(90_000);
+  const context = await browser.newContext(phoneSize);
+  await context.setExtraHTTPHeaders({ "x-forwarded-for": "203.0.113.151" });
+  const page = await context.newPage();
+  const oldEmail = await newOwner(page, "mover");
+  const newEmail = oldEmail.replace("mover-", "moved-");
+  // A second device, signed in before the change.
+  const second = await browser.newContext(phoneSize);
+  const secondPage = await second.newPage();
+  await signIn(secondPage, oldEmail, "a sentence for a password");
+
+  await page.goto("/account");
+  await page.getByRole("link", { name: "Change e-mail address" }).click();
+  await expect(page).toHaveURL(/\/account\/email$/);
+  await page.getByLabel("New e-mail address").fill(newEmail);
+  await page.getByLabel("Current password").fill("not my password");
+  await page.getByRole("button", { name: "Send the link" }).click();
+  await expect(page.getByText("That isn't your current password.").first()).toBeVisible();
+  const since = new Date().toISOString();
+  await page.getByLabel("Current password").fill("a sentence for a password");
+  await page.getByRole("button", { name: "Send the link" }).click();
+  await expect(page.getByText("A change is waiting for its link")).toBeVisible();
+  await expect(page.getByText(`Your account uses ${oldEmail}.`)).toBeVisible();
+  await shot(page, "email-waiting-375");
+  await looksRight(page, "e-mail page with a change waiting");
+
+  const notice = await waitForMail({ to: oldEmail, subject: /asked to change your Grainward e-mail address/, sinkUrl: SINK_URL, since });
+  expect(notice.text).toContain(newEmail);
+  const mail = await waitForMail({ to: newEmail, subject: /Confirm your new e-mail address/, sinkUrl: SINK_URL, since });
+  const link = extractLinks(mail.text).find((l) => l.includes("/account/email/confirm?token="))!;
+
+  // Someone else signed in opens it (a shared computer): nothing changes, and they're told why.
+  const stranger = await browser.newContext(phoneSize);
+  const strangerPage = await stranger.newPage();
+  await signIn(strangerPage, ACCOUNTS.otherOwner);
+  await strangerPage.goto(link);
+  await expect(strangerPage.getByText("This link is for another account")).toBeVisible();
+  await stranger.close();
+
+  await page.goto(link);
+  await expect(page).toHaveURL(/\/account\?email=changed$/);
+  await expect(page.getByText("E-mail address changed")).toBeVisible();
+  await expect(page.getByText(`· ${newEmail}`)).toBeVisible();
+  await shot(page, "email-changed-375");
+  await looksRight(page, "account page");
+  // The same pages on a wide screen.
+  await page.setViewportSize({ width: 1280, height: 900 });
+  await shot(page, "account-1280");
+  await page.goto("/account/email");
+  await shot(page, "email-1280");
+  await page.goto("/account/delete");
+  await shot(page, "delete-1280");
+  await looksRight(page, "delete page at 1280 px");
+  await page.setViewportSize({ width: 375, height: 812 });
+  // Opened again: spent.
+  await page.goto(link);
+  await expect(page.getByText("This link doesn't work any more")).toBeVisible();
+  // The other device was signed out by the change.
+  await secondPage.goto("/account");
+  await expect(secondPage).toHaveURL(/\/sign-in/);
+  await second.close();
+  await context.close();
+});
+
+test("deleting one's account at 375 px: what happens is said first, the password confirms it, pieces go back to the studio and the claim is withdrawn", async ({ browser }) => {
+  test.setTimeout(120_000);
+  const desk = await browser.newContext();
+  const deskPage = await desk.newPage();
+  await signIn(deskPage, ACCOUNTS.staff);
+  const title = `Leaving owner's stool ${Date.now().toString(36)} (e2e, invented)`;
+  const created = await deskPage.request.post("/api/pieces", {
+    data: { kind: "bench", title, shapeKind: "rectangle", lengthMm: 400, widthMm: 400, primarySpeciesId: "red_oak", use: "light", deliveredOn: "2026-02-01", layers: [{ surface: "top", finishClass: "paste_wax", coats: 1, appliedOn: "2026-02-01" }] },
+  });
+  expect(created.status()).toBe(201);
+  const { piece, registrationCode } = (await created.json()) as { piece: { id: string }; registrationCode: string };
+
+  const context = await browser.newContext(phoneSize);
+  await context.setExtraHTTPHeaders({ "x-forwarded-for": "203.0.113.152" });
+  const page = await context.newPage();
+  const email = await newOwner(page, "leaver");
+  expect((await page.request.post("/api/registrations", { data: { code: registrationCode } })).status()).toBe(201);
+  const filed = await page.request.post("/api/claims", {
+    data: { pieceId: piece.id, category: "other", noticedOn: new Date(Date.now() - 86_400_000).toISOString().slice(0, 10), description: "A wobble in one leg (e2e, invented).", answers: { heat: "no", chemicals: "no", impact: "no", usedOutdoors: "no", directSun: "no" } },
+  });
+  expect(filed.status()).toBe(201);
+  const { claim } = (await filed.json()) as { claim: { id: string } };
+
+  await page.goto("/account");
+  await page.getByRole("link", { name: "Delete my account…" }).click();
+  await expect(page).toHaveURL(/\/account\/delete$/);
+  await expect(page.getByText("Your pieces are released")).toBeVisible();
+  await expect(page.getByText(title)).toBeVisible();
+  await expect(page.getByText(/Open claims are withdrawn and the studio is told \(1 now\)\. Quotes waiting for your answer are declined \(none now\)/)).toBeVisible();
+  await shot(page, "delete-375");
+  await looksRight(page, "delete page");
+  await page.getByLabel("Your password").fill("not my password");
+  await page.getByRole("button", { name: "Delete my account" }).click();
+  await expect(page.getByText("That isn't your current password.").first()).toBeVisible();
+  await page.getByLabel("Your password").fill("a sentence for a password");
+  await page.getByRole("button", { name: "Delete my account" }).click();
+  await expect(page).toHaveURL(/\/account-deleted$/);
+  await expect(page.getByRole("heading", { name: "Your account is deleted" })).toBeVisible();
+  // The page's title arrives with the navigation's metadata, a beat after its heading.
+  await expect(page).toHaveTitle(/Account deleted/);
+  await shot(page, "deleted-375");
+  await looksRight(page, "account deleted page");
+  await page.goto("/account");
+  await expect(page).toHaveURL(/\/sign-in/);
+  await page.getByLabel("Email").fill(email);
+  await page.getByLabel("Password").fill("a sentence for a password");
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page.getByText("That e-mail and password don't match an account.")).toBeVisible();
+  await context.close();
+
+  // The studio: the piece is theirs to hand on, the claim withdrawn with a note from the nameless former owner.
+  const detail = (await (await deskPage.request.get(`/api/pieces/${piece.id}`)).json()) as { owner: unknown };
+  expect(detail.owner).toBeNull();
+  await deskPage.goto(`/studio/claims/${claim.id}`);
+  await expect(deskPage.getByText("I deleted my Grainward account, so this claim is withdrawn.", { exact: false })).toBeVisible();
+  await expect(deskPage.getByText("Former owner (account deleted)").first()).toBeVisible();
+  await desk.close();
 });

@@ -49,15 +49,15 @@ test("a claim with a file that isn't a picture: sent with the photo that is, the
   await expect(page.getByRole("button", { name: "Upload the remaining photos" })).toHaveCount(0);
   await expect(page.getByText(/still to upload/)).toHaveCount(0);
   // The refused file takes none of the claim's room.
-  await expect(page.getByRole("button", { name: "Add photos (1 of 10)" })).toBeVisible();
+  await expect(page.getByRole("button", { name: "Add photos — 1 added, up to 10" })).toBeVisible();
   await page.getByRole("link", { name: "Go to the claim" }).click();
   await expect(page).toHaveURL(/\/claims\/[0-9a-f-]{36}$/);
 
   // The claim holds one photo; ten more are picked: nine fit, and the page says so before sending any.
-  await expect(page.getByRole("button", { name: "Add photos (1 of 10)" })).toBeVisible();
+  await expect(page.getByRole("button", { name: "Add photos — 1 added, up to 10" })).toBeVisible();
   const ten = await Promise.all(Array.from({ length: 10 }, async (_, i) => ({ name: `more-${i + 1}.jpg`, mimeType: "image/jpeg", buffer: await jpeg(i + 2) })));
   await page.getByLabel("Add photos").setInputFiles(ten);
-  const full = page.getByRole("button", { name: "Add photos (10 of 10)" });
+  const full = page.getByRole("button", { name: "10 photos added — the most a claim takes" });
   await expect(full).toBeVisible({ timeout: 60_000 });
   await expect(full).toBeDisabled();
   // Once full, why the last one was left out is still on screen (it went away with the picker).

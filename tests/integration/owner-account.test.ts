@@ -1,0 +1,291 @@
+// The owner's own account: moving it to another e-mail address (a link to the new address, a notice to
+// the old, the change made only when the link is opened by the same account) and deleting it (pieces
+// released, open claims withdrawn with a note, quotes declined, name/e-mail/password gone, the books
+// kept). Real SQLite file, real SMTP sink; actions called as Next.js calls them, with a session in the
+// test database. All data invented.
+import { and, eq } from "drizzle-orm";
+import { beforeEach, describe, expect, it, vi } from "vitest";
+import { getDb } from "@/db/client";
+import { auditLog, claims, clients, memberships, pieces, repairJobs, sessions, threadMessages, threads, userTokens, users } from "@/db/schema";
+import { ownerActor } from "@/lib/auth/actor";
+import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
+import { settleAfterAnswer } from "@/lib/auth/after-answer";
+import { signIn as signInWithPassword } from "@/lib/auth/accounts";
+import { randomToken, sha256Hex } from "@/lib/crypto";
+import { receiveInboundMail } from "@/lib/mail/inbound";
+import { threadFor } from "@/lib/messages/store";
+import { confirmEmailChange, emailChangeLink, pendingEmailChange, requestEmailChange } from "@/lib/owner/account-email";
+import { DELETED_NAME, deleteAccount, deletionPreview } from "@/lib/owner/account-delete";
+import { changeEmailSchema } from "@/lib/validation/account";
+import { createStudio, createUser, unique } from "../support/fixtures";
+import { extractLinks, listMail, waitForMail } from "../support/mail";
+import { claimWorld, fileClaim } from "./claims-helpers";
+
+// next/headers outside a Next.js request: the cookie jar holds the session token of whoever signed in.
+const jar = vi.hoisted(() => new Map<string, string>());
+vi.mock("next/headers", () => ({
+  cookies: async () => ({
+    get: (name: string) => (jar.has(name) ? { name, value: jar.get(name)! } : undefined),
+    set: (name: string, value: string) => (value ? jar.set(name, value) : jar.delete(name)),
+  }),
+  headers: async () => new Headers(),
+}));
+beforeEach(() => jar.clear());
+
+const PASSWORD = "correct horse battery"; // tests/support/fixtures.ts createUser
+let ipCounter = 0;
+const ip = () => `198.51.100.${++ipCounter % 250}`;
+
+async function session(userId: string, inJar = true) {
+  const token = randomToken(24);
+  await getLucia().createSession(userId, {}, { sessionId: sha256Hex(token) });
+  if (inJar) jar.set(SESSION_COOKIE, token);
+  return sha256Hex(token);
+}
+
+/** Where a form action sent the browser (Next.js's redirect() throws with the target in its digest). */
+async function redirectOf(run: Promise<unknown>): Promise<string> {
+  const e = (await run.then(
+    () => null,
+    (err: unknown) => err,
+  )) as { digest?: string } | null;
+  expect(e?.digest, "the action should end in a redirect").toMatch(/^NEXT_REDIRECT;/);
+  return e!.digest!.split(";")[2]!;
+}
+
+const form = (fields: Record<string, string>) => {
+  const f = new FormData();
+  for (const [k, v] of Object.entries(fields)) f.set(k, v);
+  return f;
+};
+
+const ask = (userId: string, email: string, current = PASSWORD) => requestEmailChange({ id: userId }, changeEmailSchema.parse({ email, current }), ip());
+
+/** The link in the newest confirmation mail to `to`, as the owner would open it. */
+async function linkSentTo(to: string, since: Date): Promise<string> {
+  const mail = await waitForMail({ to, subject: /Confirm your new e-mail address/, since });
+  const url = extractLinks(mail.text).find((l) => l.includes("/account/email/confirm?token="));
+  expect(url, mail.text).toBeTruthy();
+  return new URL(url!).searchParams.get("token")!;
+}
+
+const emailOf = (userId: string) => getDb().select({ email: users.email }).from(users).where(eq(users.id, userId)).get()!.email;
+
+describe("changing the e-mail address", () => {
+  it("asks with the password; the new address gets a link and the old a notice; only the link changes it, once", async () => {
+    const owner = await createUser({ name: "Mirela Oakes (invented)" });
+    const newEmail = `${unique("moved")}@test.example`;
+
+    await expect(ask(owner.id, newEmail, "not the password")).rejects.toMatchObject({ status: 400, fieldErrors: { current: ["That isn't your current password."] } });
+    await expect(ask(owner.id, owner.email)).rejects.toMatchObject({ status: 400, fieldErrors: { email: ["That is already your address."] } });
+
+    const since = new Date();
+    const pending = await ask(owner.id, newEmail);
+    await settleAfterAnswer();
+    expect(pending.newEmail).toBe(newEmail);
+    expect(pending.expiresAt - pending.requestedAt).toBe(24 * 60 * 60 * 1000);
+    const token = await linkSentTo(newEmail, since);
+    const notice = await waitForMail({ to: owner.email, subject: "Someone asked to change your Grainward e-mail address", since });
+    expect(notice.text).toContain(newEmail);
+    expect(extractLinks(notice.text).some((l) => l.endsWith("/account/email"))).toBe(true);
+    // Nothing changes until the link is opened; the waiting change is on the account page.
+    expect(emailOf(owner.id)).toBe(owner.email);
+    expect(pendingEmailChange(owner)).toMatchObject({ newEmail });
+    // Stored hashed, like every mailed token.
+    expect(getDb().select().from(userTokens).where(eq(userTokens.tokenHash, token)).get()).toBeUndefined();
+
+    const outcome = await confirmEmailChange(owner, token);
+    expect(outcome).toEqual({ kind: "changed", newEmail });
+    expect(emailOf(owner.id)).toBe(newEmail);
+    await waitForMail({ to: owner.email, subject: "Your Grainward e-mail address was changed", since });
+    // A replay changes nothing.
+    expect(await confirmEmailChange(owner, token)).toEqual({ kind: "gone" });
+    expect(pendingEmailChange(owner)).toBeNull();
+    // The new address signs in; the old one no longer does.
+    await expect(signInWithPassword({ email: newEmail, password: PASSWORD }, ip())).resolves.toMatchObject({ id: owner.id });
+    await expect(signInWithPassword({ email: owner.email, password: PASSWORD }, ip())).rejects.toMatchObject({ status: 401 });
+  });
+
+  it("an address another account uses gets the same answer; that address is told instead of sent a link, and nothing changes", async () => {
+    const owner = await createUser();
+    const holder = await createUser({ name: "Address Holder (invented)" });
+    const since = new Date();
+    const pending = await ask(owner.id, holder.email);
+    await settleAfterAnswer();
+    expect(pending).toMatchObject({ newEmail: holder.email });
+    const told = await waitForMail({ to: holder.email, since });
+    expect(told.subject).toBe("Someone tried to move a Grainward account to your address");
+    expect(extractLinks(told.text).some((l) => l.includes("token="))).toBe(false);
+    await waitForMail({ to: owner.email, subject: /asked to change/, since });
+    expect((await listMail({ to: holder.email })).filter((m) => Date.parse(m.receivedAt) >= since.getTime())).toHaveLength(1);
+    // Even the token (never mailed) would not take the address.
+    const row = getDb().select().from(userTokens).where(and(eq(userTokens.userId, owner.id), eq(userTokens.purpose, "change_email"))).get()!;
+    expect(row.newEmail).toBe(holder.email);
+    expect(emailOf(owner.id)).toBe(owner.email);
+  });
+
+  it("a new request replaces the waiting one; a link expires; the address taken meanwhile is refused at the link", async () => {
+    const owner = await createUser();
+    const first = `${unique("first")}@test.example`;
+    const second = `${unique("second")}@test.example`;
+    const since = new Date();
+    await ask(owner.id, first);
+    await settleAfterAnswer();
+    const oldLink = await linkSentTo(first, since);
+    await ask(owner.id, second);
+    await settleAfterAnswer();
+    const newLink = await linkSentTo(second, since);
+    expect(await confirmEmailChange(owner, oldLink)).toEqual({ kind: "gone" });
+    expect(pendingEmailChange(owner)).toMatchObject({ newEmail: second });
+
+    // 24 hours on, the link is gone.
+    getDb().update(userTokens).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(userTokens.tokenHash, sha256Hex(newLink))).run();
+    expect(emailChangeLink(newLink)).toBeNull();
+    expect(await confirmEmailChange(owner, newLink)).toEqual({ kind: "gone" });
+    expect(emailOf(owner.id)).toBe(owner.email);
+
+    // Asked again; someone signs up with that address before the link is opened.
+    const third = `${unique("third")}@test.example`;
+    await ask(owner.id, third);
+    await settleAfterAnswer();
+    const thirdLink = await linkSentTo(third, since);
+    await createUser({ email: third });
+    expect(await confirmEmailChange(owner, thirdLink)).toEqual({ kind: "taken" });
+    expect(emailOf(owner.id)).toBe(owner.email);
+  });
+
+  it("a link opened by another signed-in account changes nothing and stays the asker's; the asker's opening ends their other sessions and keeps this one", async () => {
+    const { confirmEmailChangeAction } = await import("@/app/(owner)/account/email/confirm/actions");
+    const owner = await createUser();
+    const stranger = await createUser();
+    const newEmail = `${unique("mine")}@test.example`;
+    const since = new Date();
+    await ask(owner.id, newEmail);
+    await settleAfterAnswer();
+    const token = await linkSentTo(newEmail, since);
+    expect(emailChangeLink(token)).toEqual({ userId: owner.id, newEmail });
+
+    await session(stranger.id);
+    expect(await redirectOf(confirmEmailChangeAction(form({ token })))).toBe("/account/email/confirm?failed=1");
+    expect(emailOf(stranger.id)).toBe(stranger.email);
+    expect(emailOf(owner.id)).toBe(owner.email);
+    expect(emailChangeLink(token)).toEqual({ userId: owner.id, newEmail });
+
+    // Signed out: the action's guard refuses before anything is read.
+    jar.clear();
+    expect(await redirectOf(confirmEmailChangeAction(form({ token })))).toBe("/account/email/confirm?failed=1");
+
+    const elsewhere = await session(owner.id, false);
+    const here = await session(owner.id);
+    // A reset link mailed to the old address before the change stops working with it.
+    const resetHash = sha256Hex(randomToken());
+    getDb().insert(userTokens).values({ userId: owner.id, purpose: "password_reset", tokenHash: resetHash, expiresAt: new Date(Date.now() + 3_600_000) }).run();
+    expect(await redirectOf(confirmEmailChangeAction(form({ token })))).toBe("/account?email=changed");
+    expect(emailOf(owner.id)).toBe(newEmail);
+    const left = getDb().select({ id: sessions.id }).from(sessions).where(eq(sessions.userId, owner.id)).all().map((s) => s.id);
+    expect(left).not.toContain(elsewhere);
+    expect(left).not.toContain(here);
+    expect(left).toHaveLength(1); // the fresh one this browser carries on in
+    expect(sha256Hex(jar.get(SESSION_COOKIE)!)).toBe(left[0]);
+    expect(getDb().select({ usedAt: userTokens.usedAt }).from(userTokens).where(eq(userTokens.tokenHash, resetHash)).get()!.usedAt).not.toBeNull();
+  });
+
+  it("staff see the new address on the client record, and replies by mail from it reach the thread", async () => {
+    const w = await claimWorld();
+    const client = getDb().insert(clients).values({ studioId: w.studio.id, name: w.owner.name, email: w.owner.email, userId: w.owner.id }).returning().get();
+    getDb().update(pieces).set({ clientId: client.id }).where(eq(pieces.id, w.piece.id)).run();
+    const claim = await fileClaim(w.ownerV, w.piece.id);
+    const thread = getDb().transaction((tx) => threadFor(tx, { kind: "claim", id: claim.id }, new Date()));
+    const newEmail = `${unique("reply")}@test.example`;
+    const since = new Date();
+    await ask(w.owner.id, newEmail);
+    await settleAfterAnswer();
+    expect(await confirmEmailChange(w.owner, await linkSentTo(newEmail, since))).toMatchObject({ kind: "changed" });
+
+    const { getClient } = await import("@/lib/clients/get");
+    const seen = getClient(w.staffCtx, client.id);
+    expect(seen.client.email).toBe(newEmail);
+    expect(seen.client.account?.email).toBe(newEmail);
+
+    const { replyAddress } = await import("@/lib/messages/reply-address");
+    const mail = (from: string, n: number) => ({ messageId: `<${unique("m")}@owner.test.example>`, senders: [from], recipients: [replyAddress(thread.id)], subject: "Re: your claim", text: `Reply ${n} (invented).`, receivedAt: new Date() });
+    expect(receiveInboundMail(mail(newEmail, 1))).toMatchObject({ kind: "added", threadId: thread.id });
+    // From the old address: kept for the studio as unmatched mail, never dropped.
+    expect(receiveInboundMail(mail(w.owner.email, 2))).toMatchObject({ kind: "unmatched", reason: "wrong_sender", studioId: w.studio.id });
+    expect(getDb().select().from(threadMessages).where(eq(threadMessages.threadId, thread.id)).all().map((m) => m.body)).toContain("Reply 1 (invented).");
+  });
+});
+
+describe("deleting the account", () => {
+  it("releases pieces, withdraws open claims with a note for the studio, declines quotes, removes name, e-mail and password, keeps the books", async () => {
+    const { deleteAccountAction } = await import("@/app/(owner)/account/delete/actions");
+    const w = await claimWorld({ piece: { title: "Deletion test table (invented)" } });
+    const claim = await fileClaim(w.ownerV, w.piece.id);
+    const quoted = getDb()
+      .insert(repairJobs)
+      .values({ studioId: w.studio.id, pieceId: w.piece.id, ownerId: w.owner.id, origin: "studio", state: "quoted", quoteVersion: 1, title: "Re-oil the top (invented)", quoteInput: {}, lines: [], currency: "USD", totalMinor: 9_000 })
+      .returning()
+      .get();
+    const done = getDb()
+      .insert(repairJobs)
+      .values({ studioId: w.studio.id, pieceId: w.piece.id, ownerId: w.owner.id, origin: "studio", state: "done", quoteVersion: 1, title: "Earlier repair (invented)", quoteInput: {}, lines: [], currency: "USD", totalMinor: 4_000 })
+      .returning()
+      .get();
+    expect(deletionPreview(w.owner)).toMatchObject({ blocks: [], openClaims: 1, quotes: 1, pieces: [{ id: w.piece.id, title: "Deletion test table (invented)" }] });
+
+    await session(w.owner.id, false); // another device
+    await session(w.owner.id);
+    expect(await deleteAccountAction({ current: "not the password" })).toMatchObject({ ok: false, fieldErrors: { current: ["That isn't your current password."] } });
+    expect(getDb().select().from(users).where(eq(users.id, w.owner.id)).get()!.deletedAt).toBeNull();
+
+    const since = new Date();
+    expect(await redirectOf(deleteAccountAction({ current: PASSWORD }))).toBe("/account-deleted");
+
+    const row = getDb().select().from(users).where(eq(users.id, w.owner.id)).get()!;
+    expect(row.name).toBe(DELETED_NAME);
+    expect(row.email).not.toContain(w.owner.email.split("@")[0]);
+    expect(row.email).toMatch(/@deleted\.invalid$/);
+    expect(row.deletedAt).not.toBeNull();
+    expect(row.remindersEnabled).toBe(false);
+    await expect(signInWithPassword({ email: w.owner.email, password: PASSWORD }, ip())).rejects.toMatchObject({ status: 401 });
+    await expect(signInWithPassword({ email: row.email, password: PASSWORD }, ip())).rejects.toMatchObject({ status: 401 });
+    expect(getDb().select().from(sessions).where(eq(sessions.userId, w.owner.id)).all()).toEqual([]);
+    expect(jar.has(SESSION_COOKIE)).toBe(false);
+
+    // The piece is released for the studio to hand on; its new code went to the old address.
+    expect(getDb().select({ ownerId: pieces.ownerId }).from(pieces).where(eq(pieces.id, w.piece.id)).get()!.ownerId).toBeNull();
+    await waitForMail({ to: w.owner.email, subject: /Deletion test table/, since });
+    // The claim is withdrawn and the studio's inbox has the note, unread.
+    expect(getDb().select({ state: claims.state }).from(claims).where(eq(claims.id, claim.id)).get()!.state).toBe("closed");
+    const thread = getDb().select().from(threads).where(eq(threads.claimId, claim.id)).get()!;
+    expect(thread.state).toBe("unread");
+    const notes = getDb().select().from(threadMessages).where(eq(threadMessages.threadId, thread.id)).all();
+    expect(notes.at(-1)!.body).toMatch(/^I deleted my Grainward account, so this claim is withdrawn\./);
+    // The quote is declined; the finished repair stays, its owner the nameless account.
+    expect(getDb().select({ state: repairJobs.state }).from(repairJobs).where(eq(repairJobs.id, quoted.id)).get()!.state).toBe("cancelled");
+    expect(getDb().select({ ownerId: repairJobs.ownerId }).from(repairJobs).where(eq(repairJobs.id, done.id)).get()!.ownerId).toBe(w.owner.id);
+    expect(getDb().select().from(auditLog).where(and(eq(auditLog.action, "account.deleted"), eq(auditLog.studioId, w.studio.id))).all()).toHaveLength(1);
+    // Nothing of the person's name or address in the account's audit rows.
+    const audits = JSON.stringify(getDb().select().from(auditLog).where(eq(auditLog.actorId, w.owner.id)).all());
+    expect(audits).not.toContain(w.owner.email);
+  });
+
+  it("is refused in words while a paid repair is not done, a plan's first payment is under way, or the account is on a studio's team; nothing changes", async () => {
+    const w = await claimWorld();
+    getDb()
+      .insert(repairJobs)
+      .values({ studioId: w.studio.id, pieceId: w.piece.id, ownerId: w.owner.id, origin: "studio", state: "paid", quoteVersion: 1, title: "Paid, not done (invented)", quoteInput: {}, lines: [], currency: "USD", totalMinor: 9_000 })
+      .run();
+    await expect(deleteAccount(ownerActor(w.owner), PASSWORD, ip())).rejects.toMatchObject({ status: 409, message: expect.stringContaining("Your repair “Paid, not done (invented)” is paid for or booked and not done yet.") });
+    expect(getDb().select({ ownerId: pieces.ownerId }).from(pieces).where(eq(pieces.id, w.piece.id)).get()!.ownerId).toBe(w.owner.id);
+    expect(getDb().select().from(users).where(eq(users.id, w.owner.id)).get()!.deletedAt).toBeNull();
+
+    const member = await createUser();
+    const studio = createStudio({ name: "Team Studio (invented)" });
+    getDb().insert(memberships).values({ studioId: studio.id, userId: member.id, role: "staff" }).run();
+    expect(deletionPreview(member).blocks.map((b) => b.kind)).toEqual(["team"]);
+    await expect(deleteAccount(ownerActor(member), PASSWORD, ip())).rejects.toMatchObject({ status: 409, message: expect.stringContaining("Team Studio (invented)") });
+    // The password is checked first: a wrong one says only that.
+    await expect(deleteAccount(ownerActor(member), "wrong password", ip())).rejects.toMatchObject({ status: 400 });
+  });
+});
