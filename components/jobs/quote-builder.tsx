@@ -109,11 +109,12 @@ export function QuoteBuilder({
   useReportQuoteDraft(editable && formState.isDirty);
   const fields = useFieldArray({ control, name: "lines" });
   const { run, busy } = useRefreshingMutation(
-    ({ body }: { body: Record<string, unknown>; v: FormValues; withLines: boolean }) => apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body }),
+    ({ body }: { body: Record<string, unknown> & { alsoSurfaces: Record<string, string[]> }; v: FormValues; withLines: boolean }) => apiJson<{ job: { lines: BuilderLine[] } }>(`/api/jobs/${jobId}`, { method: "PATCH", json: body }),
     {
-      onSuccess: ({ job }, { v, withLines }) => {
+      onSuccess: ({ job }, { body, v, withLines }) => {
         const saved = job.lines.map(toForm);
-        form.reset({ ...v, lines: saved });
+        // The boxes as saved: a task cleared since drops its choice, so ticking it again starts from the top alone.
+        form.reset({ ...v, also: body.alsoSurfaces, lines: saved });
         if (withLines) return void toast.success("Quote saved.");
         // Proposing sends no lines, so the server keeps the typed lines last saved: typed lines added or
         // changed here since stay in the form (unsaved, so the quote can't be sent before they are).
@@ -206,7 +207,7 @@ export function QuoteBuilder({
                 </li>
               ))}
             </ul>
-            <p className="mt-2">Ticking or clearing a box proposes the lines again; lines you typed yourself stay.</p>
+            <p className="mt-2">Ticking or clearing a box proposes the lines again: proposed lines go back to the proposal, and lines you typed yourself stay.</p>
           </Notice>
         ) : null}
 

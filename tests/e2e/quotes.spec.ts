@@ -176,6 +176,18 @@ test("staff price the desk's waxed base beside its top: a typed line kept, the b
     ["Carry the desk from the window (invented)", 1, 2000],
   ]);
   expect(job.totals.subtotalMinor).toBe(18_475);
+
+  // Re-wax cleared and proposed, then chosen again: its base box starts cleared, as the lines do (the
+  // box stayed ticked over a top-only proposal before).
+  await page.getByText("What the lines are proposed from", { exact: true }).click();
+  await page.getByRole("checkbox", { name: "Re-wax", exact: true }).uncheck();
+  await page.getByRole("checkbox", { name: "Crack or check fill" }).check();
+  await page.getByRole("button", { name: "Propose lines" }).click();
+  await expect(note).toHaveCount(0);
+  await page.getByRole("checkbox", { name: "Re-wax", exact: true }).check();
+  await page.getByRole("button", { name: "Propose lines" }).click();
+  await expect(note.getByRole("checkbox", { name: "Also price the base (6.0 ft²)" })).not.toBeChecked();
+  await lineWith(page, "Re-wax — labour");
   const axe = await new AxeBuilder({ page }).analyze();
   expect(axe.violations, JSON.stringify(axe.violations, null, 2)).toEqual([]);
 });
