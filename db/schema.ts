@@ -717,6 +717,38 @@ export const jobRefunds = sqliteTable(
 
 export type JobRefund = typeof jobRefunds.$inferSelect;
 
+/**
+ * A payment page that must be closed at Stripe because its job no longer waits for that payment: its
+ * piece changed hands (lib/repairs/handed-on.ts). Written in the release's own transaction, before Stripe
+ * is asked, so a close Stripe didn't answer is tried again by the scheduler's pass (jobs/checkout-closes.ts)
+ * until Stripe confirms it (`outcome` "closed") or the page has expired on its own ("expired").
+ */
+export const checkoutCloses = sqliteTable(
+  "checkout_closes",
+  {
+    id: id(),
+    studioId: studioRef(),
+    paymentId: text("payment_id")
+      .notNull()
+      .references(() => payments.id, { onDelete: "cascade" }),
+    /** When Stripe closes the page itself (lib/repairs/handed-on.ts CHECKOUT_PAGE_LIFETIME_MS after it was opened). */
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    tries: integer("tries").notNull().default(0),
+    lastTriedAt: integer("last_tried_at", { mode: "timestamp_ms" }),
+    outcome: text("outcome", { enum: ["closed", "expired"] }),
+    settledAt: integer("settled_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("checkout_closes_payment_uq").on(t.paymentId),
+    index("checkout_closes_studio_idx").on(t.studioId, t.createdAt),
+    // The scheduler's pass reads only the closes Stripe has not confirmed yet.
+    index("checkout_closes_due_idx").on(t.createdAt).where(sql`settled_at IS NULL`),
+  ],
+);
+
+export type CheckoutClose = typeof checkoutCloses.$inferSelect;
+
 /** Every Stripe webhook event recorded once by its id; a replay changes nothing. */
 export const stripeEvents = sqliteTable("stripe_events", {
   id: text("id").primaryKey(),

@@ -1,6 +1,7 @@
 // `npm run jobs`: the scheduler process. node-cron runs the reminder pass at minute 5 of every hour
 // (and once at start), visit reminders every 15 minutes (and once at start), the retry of queued mail
-// every minute, the care-plan visit pass at minute 25, unfinished plan changes of hands, job refunds left pending and stalled hand-over mailings every 5 minutes,
+// every minute, the care-plan visit pass at minute 25, unfinished plan changes of hands, job refunds left pending, payment pages left open by a
+// release and stalled hand-over mailings every 5 minutes,
 // the merge of the search indexes and then the refresh of the query planner's statistics at 03:40 (server time) every night,
 // never two of a kind at once in this process; the ledger keeps passes in other processes
 // from sending anything twice. SIGTERM/SIGINT stop the schedule and abort the running passes, and
@@ -13,6 +14,7 @@ import { describePass, remindersJob } from "./reminders";
 import { planVisitsJob } from "./plan-visits";
 import { planTransfersJob } from "./plan-transfers";
 import { jobRefundsJob } from "./job-refunds";
+import { checkoutClosesJob } from "./checkout-closes";
 import { describeHandoverMailings, handoverMailingsJob } from "./handover-mailings";
 import { describeVisitPass, visitRemindersJob } from "./visit-reminders";
 import { searchIndexesJob } from "./search-indexes";
@@ -57,6 +59,8 @@ const passes = [
   pass("plan transfer pass", "*/5 * * * *", () => planTransfersJob()),
   // Refunds on repair jobs the payment service didn't answer and nobody finished: asked again, same key.
   pass("job refund pass", "*/5 * * * *", (now) => jobRefundsJob(now)),
+  // Payment pages a release couldn't close at Stripe: asked again until closed or expired.
+  pass("payment page close pass", "*/5 * * * *", (now) => checkoutClosesJob(now)),
   // Bulk hand-over mailings left half-sent (the server stopped): finished, each piece once.
   pass("hand-over mailing pass", "*/5 * * * *", (now, signal) => handoverMailingsJob(now, signal).then(describeHandoverMailings)),
   // The registry's and the clients list's search indexes merged to one segment each (db/search-indexes.ts),

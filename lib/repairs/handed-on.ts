@@ -5,15 +5,27 @@
 // lib/repairs/states.ts) with an audit row, and the staff job page says why (HANDED_ON_WORDS); staff send
 // the quote again, which reaches the piece's new owner (lib/repairs/payment.ts sendQuote), or cancel it.
 // After the release has committed, the payment pages the former owner opened for these jobs are closed at
-// Stripe (closeHandedOnCheckouts), so they can't take money that would only be given back.
-import { and, eq } from "drizzle-orm";
-import type { Tx } from "@/db/client";
-import { repairJobs, type RepairJob } from "@/db/schema";
+// Stripe (closeDueCheckouts), so they can't take money that would only be given back.
+//
+// The close is durable: in the same transaction each open page of those jobs is written to checkout_closes
+// (recordCheckoutCloses), so a close Stripe didn't answer is tried again by the scheduler's pass
+// (jobs/checkout-closes.ts, closeDueCheckouts) until Stripe confirms it or the page has expired on its own.
+//
+// The studio is told at the release what open work the piece leaves behind (openWorkAtRelease: the former
+// owner's undecided or accepted claims, their quoted, approved, paid, covered or booked jobs and booked
+// visits), in the one staff mail the release sends (lib/owner/transfer.ts, emails/piece-released.tsx).
+import { and, asc, eq, inArray, isNull, notInArray, or } from "drizzle-orm";
+import { getDb, type Tx } from "@/db/client";
+import { checkoutCloses, claims, payments, repairJobs, users, visits, type Claim, type RepairJob } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
-import { closeOpenCheckouts } from "./checkout";
+import { OPEN_STATES, type ClaimState } from "@/lib/claims/states";
+import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
+import { formatVisitWhen } from "@/lib/format";
+import { expireCheckoutSession } from "@/lib/payments/stripe";
+import { applySession } from "./checkout";
 import { moveJob } from "./jobs";
 import { ownerActsOnJob } from "./owner-reach";
-import { AWAITING_PAYMENT } from "./states";
+import { AWAITING_PAYMENT, JOB_STATE_LABELS, jobStateLabel } from "./states";
 
 
 /** What the staff job page says on a quoted job set back because its piece changed hands (jobHandedOn). */
@@ -45,19 +57,76 @@ export function jobsBackToStudio(tx: Tx, piece: { id: string; studioId: string }
 }
 
 /**
- * After the release has committed: expires at Stripe every payment page still open for these jobs. Never
- * fails the release: when Stripe can't be reached the page stays open for now, and a payment made on it
- * is not counted but refunded automatically with the reason piece_handed_on (lib/repairs/checkout.ts
- * refundReasonFor), mailed to the payer; staff editing or sending the quote again closes it as well.
+ * How long a payment page stays open at Stripe when nobody closes it: we open Checkout Sessions without
+ * expires_at (lib/payments/stripe.ts), so Stripe's default of 24 hours applies (the fake does the same,
+ * lib/fakes/stripe-fake.ts). From memory of Stripe's API reference (Checkout Session, expires_at).
  */
-export async function closeHandedOnCheckouts(jobIds: readonly string[]): Promise<void> {
-  for (const jobId of jobIds) {
+export const CHECKOUT_PAGE_LIFETIME_MS = 24 * 3600_000;
+
+/**
+ * Inside the release's transaction, after jobsBackToStudio: writes down every payment page still open for
+ * those jobs as one to close at Stripe (once per page). Returns the rows' ids for closeDueCheckouts.
+ */
+export function recordCheckoutCloses(tx: Tx, jobIds: readonly string[]): string[] {
+  if (jobIds.length === 0) return [];
+  const open = tx.select().from(payments).where(and(inArray(payments.jobId, [...jobIds]), eq(payments.status, "open"))).all();
+  const ids: string[] = [];
+  for (const p of open) {
+    const row = tx
+      .insert(checkoutCloses)
+      .values({ studioId: p.studioId, paymentId: p.id, expiresAt: new Date(p.createdAt.getTime() + CHECKOUT_PAGE_LIFETIME_MS) })
+      .onConflictDoNothing()
+      .returning({ id: checkoutCloses.id })
+      .get();
+    if (row) ids.push(row.id);
+  }
+  return ids;
+}
+
+/** What one run of closeDueCheckouts did: pages Stripe closed, pages that expired on their own, and closes Stripe didn't answer (tried again later). */
+export type CheckoutClosesResult = { closed: string[]; expired: string[]; failed: string[] };
+
+/**
+ * Closes at Stripe each recorded page not yet settled (`ids`: only those, as the release does; the
+ * scheduler's pass: all of them). A page already settled here (paid, expired by its webhook) is just marked; one past its expiry is
+ * marked expired without asking Stripe; otherwise Stripe is asked to expire it, and what it answers is
+ * applied to the payment (lib/repairs/checkout.ts applySession: a page the owner paid first is refunded
+ * automatically). Never throws: a close Stripe didn't answer stays due, and is counted in `failed`.
+ */
+export async function closeDueCheckouts({ now = new Date(), ids }: { now?: Date; ids?: readonly string[] } = {}): Promise<CheckoutClosesResult> {
+  const db = getDb();
+  const due = db
+    .select({ close: checkoutCloses, payment: payments })
+    .from(checkoutCloses)
+    .innerJoin(payments, eq(payments.id, checkoutCloses.paymentId))
+    .where(and(isNull(checkoutCloses.settledAt), ids ? inArray(checkoutCloses.id, [...ids]) : undefined))
+    .orderBy(asc(checkoutCloses.createdAt))
+    .all();
+  const out: CheckoutClosesResult = { closed: [], expired: [], failed: [] };
+  const settle = (id: string, outcome: "closed" | "expired") =>
+    db.update(checkoutCloses).set({ outcome, settledAt: new Date() }).where(and(eq(checkoutCloses.id, id), isNull(checkoutCloses.settledAt))).run();
+  for (const { close, payment } of due) {
+    if (payment.status !== "open") {
+      settle(close.id, "closed");
+      out.closed.push(close.id);
+      continue;
+    }
+    if (close.expiresAt.getTime() <= now.getTime()) {
+      settle(close.id, "expired");
+      out.expired.push(close.id);
+      continue;
+    }
+    db.update(checkoutCloses).set({ tries: close.tries + 1, lastTriedAt: new Date() }).where(eq(checkoutCloses.id, close.id)).run();
     try {
-      await closeOpenCheckouts(jobId);
+      await applySession(await expireCheckoutSession(payment.checkoutSessionId, payment));
+      settle(close.id, "closed");
+      out.closed.push(close.id);
     } catch (e) {
-      console.error("release: closing a repair job's open payment page at Stripe failed; a payment made there is refunded automatically", e);
+      console.error(`closing payment page ${payment.checkoutSessionId} at Stripe failed (try ${close.tries + 1}); the scheduler's pass tries again, and a payment made there meanwhile is refunded automatically`, e);
+      out.failed.push(close.id);
     }
   }
+  return out;
 }
 
 /** The job was set back by a hand-over and waits for staff: a sent quote being priced again, its owner no longer holding the piece. */
@@ -80,3 +149,89 @@ export function handedOnWords(job: Pick<RepairJob, "state" | "quoteVersion" | "o
   return null;
 }
 
+
+/**
+ * What the staff claim page says about a claim whose owner no longer holds its piece, if anything. The
+ * claim stays with the studio: the former owner reads it as history (lib/claims/view-claim.ts, read
+ * only) and the piece's new owner never sees it (lib/claims/visible.ts, lib/files/access.ts).
+ */
+export function claimHandedOnWords(claim: Pick<Claim, "state" | "ownerId">, piece: { ownerId: string | null }, formerOwnerName: string, hasJob: boolean): string | null {
+  if (ownerActsOnJob(claim, piece) || SETTLED_CLAIM_STATES.includes(claim.state)) return null;
+  const who = formerOwnerName;
+  const reach = `${who} can still read it but can no longer add to it or approve, pay for or book a repair, and the new owner does not see it.`;
+  if (OPEN_STATES.includes(claim.state)) {
+    const waiting = claim.state === "awaiting_owner" ? ` The answer you asked ${who} for may not come: resume the review without waiting.` : "";
+    return `It changed hands while this claim was open. The claim stays with the studio: ${reach}${waiting} Decide it on what you have (declining it, with your reason, closes it), or once the new owner has registered the piece, ask them whether the fault still needs seeing to: they can file a claim of their own.`;
+  }
+  return `It changed hands after this claim was accepted. ${reach} ${hasJob ? "Its repair job's page says what to do next." : "Once the new owner has registered the piece, they can file a claim of their own for the repair."}`;
+}
+
+/** Claims that need nothing more from the studio. */
+const SETTLED_CLAIM_STATES: readonly ClaimState[] = ["declined", "closed"];
+/** Jobs the release leaves with the studio besides those it set back: a sent quote, and work paid for, covered or booked. */
+const OPEN_JOB_STATES: readonly RepairJob["state"][] = ["quoted", "paid", "covered", "scheduled"];
+
+/** One claim, job or visit a release leaves with the studio, written out for the staff mail. */
+export type OpenWorkLine = { kind: "Claim" | "Repair job" | "Visit"; title: string; state: string; next: string; path: string };
+
+/**
+ * Inside the release's transaction, after jobsBackToStudio (the piece has no owner now): the open work of
+ * the former owner's on the piece, in the studio's words with times in its zone. A claim not declined or
+ * closed; a job set back (`setBack`), or quoted, paid, covered or booked; and each booked visit of those
+ * jobs. Empty when there is none.
+ */
+export function openWorkAtRelease(tx: Tx, piece: { id: string; studioId: string }, formerOwner: { id: string; name: string }, setBack: readonly string[], timeZone: string): OpenWorkLine[] {
+  const handedOn = { ownerId: null };
+  const claimRows = tx
+    .select()
+    .from(claims)
+    .where(and(eq(claims.studioId, piece.studioId), eq(claims.pieceId, piece.id), eq(claims.ownerId, formerOwner.id), notInArray(claims.state, [...SETTLED_CLAIM_STATES])))
+    .orderBy(asc(claims.createdAt))
+    .all();
+  const jobRows = tx
+    .select()
+    .from(repairJobs)
+    .where(
+      and(
+        eq(repairJobs.studioId, piece.studioId),
+        eq(repairJobs.pieceId, piece.id),
+        eq(repairJobs.ownerId, formerOwner.id),
+        or(inArray(repairJobs.state, [...OPEN_JOB_STATES]), setBack.length ? inArray(repairJobs.id, [...setBack]) : undefined),
+      ),
+    )
+    .orderBy(asc(repairJobs.createdAt))
+    .all();
+  const visitRows = jobRows.length
+    ? tx
+        .select({ id: visits.id, jobId: visits.jobId, startAt: visits.startAt, endAt: visits.endAt, technician: users.name })
+        .from(visits)
+        .innerJoin(users, eq(users.id, visits.technicianId))
+        .where(and(eq(visits.studioId, piece.studioId), inArray(visits.jobId, jobRows.map((j) => j.id)), eq(visits.state, "booked")))
+        .orderBy(asc(visits.startAt))
+        .all()
+    : [];
+  const jobTitle = new Map(jobRows.map((j) => [j.id, j.title]));
+  return [
+    ...claimRows.map((c) => ({
+      kind: "Claim" as const,
+      title: CLAIM_CATEGORY_LABELS[c.category],
+      state: CLAIM_STATE_LABELS_STAFF[c.state],
+      next: claimHandedOnWords(c, handedOn, formerOwner.name, jobRows.some((j) => j.claimId === c.id))!,
+      path: `/studio/claims/${c.id}`,
+    })),
+    ...jobRows.map((j) => ({
+      kind: "Repair job" as const,
+      title: j.title,
+      state: setBack.includes(j.id) ? `${JOB_STATE_LABELS.draft} again (it was ${JOB_STATE_LABELS[AWAITING_PAYMENT].toLowerCase()})` : jobStateLabel(j),
+      next: handedOnWords(j, handedOn, formerOwner.name)!,
+      path: `/studio/jobs/${j.id}`,
+    })),
+    ...visitRows.map((v) => ({
+      kind: "Visit" as const,
+      title: `${jobTitle.get(v.jobId)} with ${v.technician}`,
+      state: `Booked for ${formatVisitWhen(v.startAt.getTime(), v.endAt.getTime(), timeZone)}`,
+      next: `${formerOwner.name} no longer sees this visit or gets its reminders. Agree with them and the new owner whether it goes ahead, then move or cancel it on the job's page.`,
+      path: `/studio/jobs/${v.jobId}`,
+    })),
+  ];
+}

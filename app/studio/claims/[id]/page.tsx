@@ -17,6 +17,7 @@ import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import { getStaffClaim } from "@/lib/claims/view-claim";
 import { clientIdForOwner } from "@/lib/clients/get";
+import { claimHandedOnWords } from "@/lib/repairs/handed-on";
 import { handedOnRefusal } from "@/lib/repairs/jobs";
 
 export const metadata: Metadata = { title: "Claim" };
@@ -44,6 +45,8 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
   const { claim, piece, owner, coverage } = v;
   // The piece changed hands since the claim was filed: no job can be opened from it (lib/repairs/jobs.ts).
   const handedOn = handedOnRefusal("claim", { ownerId: owner.id }, piece);
+  // Who follows the claim up once its owner has handed the piece on (lib/repairs/handed-on.ts): the studio.
+  const changedHands = claimHandedOnWords({ state: claim.state, ownerId: owner.id }, piece, owner.name, !!v.repair);
   const a = claim.answers;
   const room = a.room;
   const waited = claim.waitMs;
@@ -73,6 +76,11 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
         </div>
         <StateBadge state={claim.state} audience="staff" />
       </header>
+      {changedHands ? (
+        <Notice tone="info" title="The piece changed hands">
+          {changedHands}
+        </Notice>
+      ) : null}
 
       <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <div className="space-y-6">
