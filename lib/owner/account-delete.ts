@@ -9,6 +9,7 @@ import { endAllSessions } from "@/lib/auth/session";
 import { writeState } from "@/lib/claims/move-state";
 import { OPEN_STATES } from "@/lib/claims/states";
 import { conflict, isAppError, rephrased } from "@/lib/errors";
+import { formatAndList, formatCount } from "@/lib/format";
 import { appendMessage, threadFor } from "@/lib/messages/store";
 import { releasePiece } from "@/lib/owner/transfer";
 import { cancelJob } from "@/lib/repairs/payment";
@@ -70,9 +71,12 @@ function deletionBlocks(userId: string): DeletionBlock[] {
     .select({ title: repairJobs.title })
     .from(repairJobs)
     .where(and(eq(repairJobs.ownerId, userId), inArray(repairJobs.state, ["paid", "covered", "scheduled"])))
+    .orderBy(asc(repairJobs.title))
     .all();
-  for (const j of owed) {
-    blocks.push({ kind: "repair", words: `Your repair “${j.title}” is paid for or booked and not done yet. Once the studio has done it, or cancelled it (a paid repair that is cancelled is refunded), you can delete your account.` });
+  if (owed.length === 1) {
+    blocks.push({ kind: "repair", words: `Your repair “${owed[0]!.title}” is paid for or booked and not done yet. Once the studio has done it, or cancelled it (a paid repair that is cancelled is refunded), you can delete your account.` });
+  } else if (owed.length > 1) {
+    blocks.push({ kind: "repair", words: `${formatCount(owed.length)} repairs of yours are paid for or booked and not done yet: ${formatAndList(owed.map((j) => `“${j.title}”`))}. Once the studio has done them, or cancelled them (a paid repair that is cancelled is refunded), you can delete your account.` });
   }
   const paying = db
     .select({ title: pieces.title })

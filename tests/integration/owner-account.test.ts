@@ -289,3 +289,18 @@ describe("deleting the account", () => {
     await expect(deleteAccount(ownerActor(member), "wrong password", ip())).rejects.toMatchObject({ status: 400 });
   });
 });
+
+describe("what the delete page says stops it", () => {
+  it("several unfinished repairs are named in one sentence", async () => {
+    const w = await claimWorld();
+    for (const [title, state] of [["Buff the top (invented)", "paid"], ["Re-glue a leg (invented)", "scheduled"], ["Polish the resin (invented)", "covered"]] as const) {
+      getDb().insert(repairJobs).values({ studioId: w.studio.id, pieceId: w.piece.id, ownerId: w.owner.id, origin: "studio", state, quoteVersion: 1, title, quoteInput: {}, lines: [], currency: "USD" }).run();
+    }
+    expect(deletionPreview(w.owner).blocks).toEqual([
+      {
+        kind: "repair",
+        words: "3 repairs of yours are paid for or booked and not done yet: “Buff the top (invented)”, “Polish the resin (invented)” and “Re-glue a leg (invented)”. Once the studio has done them, or cancelled them (a paid repair that is cancelled is refunded), you can delete your account.",
+      },
+    ]);
+  });
+});
