@@ -66,7 +66,7 @@ const TEMPLATES: { slug: string; name: string; audience: "owner" | "staff" | "an
   { slug: "payment-refunded-automatically", name: "Extra payment refunded", audience: "anyone", when: "When a payment for an older quote or a second payment for the same repair is refunded on its own (to the owner and to the studio).", component: PaymentRefundedAutomaticallyEmail as Template },
   { slug: "thread-message", name: "Message", audience: "anyone", when: "When the studio or an owner writes in a conversation that isn't about a claim.", component: ThreadMessageEmail as Template },
   { slug: "transfer-code", name: "Transfer code", audience: "owner", when: "When an owner passes a piece on.", component: TransferCodeEmail as Template },
-  { slug: "piece-released", name: "Piece released", audience: "owner", when: "When a piece leaves an owner's account.", component: PieceReleasedEmail as Template },
+  { slug: "piece-released", name: "Piece released", audience: "staff", when: "When an owner releases a piece, to the studio's address or its admins: who released it, and any claim, repair or visit left open on it.", component: PieceReleasedEmail as Template },
   { slug: "visit-invite", name: "Visit booked, moved or cancelled", audience: "owner", when: "When a visit is booked, moved or cancelled (with a calendar file).", component: VisitInviteEmail as Template },
   { slug: "visit-reminder", name: "Visit tomorrow", audience: "owner", when: "About 24 hours before a booked visit.", component: VisitReminderEmail as Template },
   { slug: "visit-summary", name: "Visit report", audience: "owner", when: "When the technician files the visit's report.", component: VisitSummaryEmail as Template },
