@@ -23,6 +23,7 @@ export function MessageThread({
   studioName,
   canWrite,
   canAskForInfo,
+  writeNote,
   timeZone,
 }: {
   claimId: string;
@@ -31,6 +32,8 @@ export function MessageThread({
   studioName: string;
   canWrite: boolean;
   canAskForInfo?: boolean;
+  /** A line under the message box, e.g. that the other side can no longer reply. */
+  writeNote?: string;
   /** The reader's zone (the studio's for staff, the owner's for owners); times name it. */
   timeZone: string;
 }) {
@@ -73,8 +76,14 @@ export function MessageThread({
             rows={3}
             aria-invalid={form.formState.errors.body ? true : undefined}
             className="block w-full rounded-lg border border-line bg-white px-3 py-2 text-base focus:border-resin aria-[invalid=true]:border-danger"
+            aria-describedby={writeNote ? "message-note" : undefined}
             {...form.register("body")}
           />
+          {writeNote ? (
+            <p id="message-note" className="text-sm text-muted">
+              {writeNote}
+            </p>
+          ) : null}
           <ErrorLine>{form.formState.errors.body?.message}</ErrorLine>
           <div className="flex flex-wrap items-center gap-3">
             {canAskForInfo ? (

@@ -6,7 +6,7 @@ import { claims, pieces, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { Actor } from "@/lib/auth/actor";
 import { conflict, forbidden } from "@/lib/errors";
-import { appendMessage, threadFor } from "@/lib/messages/store";
+import { appendMessage, ownerMayWrite, threadFor } from "@/lib/messages/store";
 import type { claimMessageSchema } from "@/lib/validation/claims";
 import { loadVisibleClaim, requireOwnerActsOnClaim, studioOf } from "./claim-row";
 import { mailClaimMessage } from "./mail";
@@ -25,6 +25,9 @@ export async function postClaimMessage(actor: Actor, claimId: string, input: Cla
   if (claim.state === "closed") throw conflict("This claim is closed. Start a new claim if something else needs the studio's attention.");
   if (!asStaff) requireOwnerActsOnClaim(actor, claim, "The piece has a new owner now, so this claim takes no more messages from you.");
   if (input.requestInfo && !asStaff) throw forbidden("Only the studio asks for more information.");
+  // A former owner reads the claim but can no longer answer on it: a question would leave it waiting for good.
+  if (input.requestInfo && !ownerMayWrite(getDb(), claim.ownerId, { kind: "claim", id: claim.id }))
+    throw conflict("The owner has handed this piece on and can no longer answer on this claim. Send your message without asking for more, and decide the claim on what you have, or ask the new owner once they have registered the piece.");
   const now = new Date();
   const result = getDb().transaction((tx) => {
     let current = claim;

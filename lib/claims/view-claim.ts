@@ -132,6 +132,9 @@ function staffView(claim: Claim) {
     coverage,
     photos: photosOf(claim.id),
     messages: messagesOf(claim.id),
+    // Whether the claim's owner can still answer on it (they hold the piece; lib/claims/reply.ts refuses
+    // asking a former owner for more).
+    ownerMayAnswer: ownerMayWrite(getDb(), claim.ownerId, { kind: "claim", id: claim.id }),
   };
 }
 

@@ -125,6 +125,13 @@ async function deliver(m: Rendered): Promise<string> {
   return info.messageId;
 }
 
+/**
+ * An address under the reserved top-level domain ".invalid" (RFC 2606, section 2) can receive nothing: a
+ * deleted account's (lib/owner/account-delete.ts). Mail to it is dropped here, not handed to SMTP and
+ * queued for a day of retries.
+ */
+const receivesNothing = (address: string) => /\.invalid>?\s*$/i.test(address);
+
 const errorText = (e: unknown) => (e instanceof Error ? e.message : String(e)).slice(0, 500);
 
 /** Renders and hands the message to SMTP; throws when SMTP refuses it. For senders with their own retries. */
@@ -135,10 +142,13 @@ export async function sendMailNow(input: SendMailInput): Promise<{ messageId: st
 /**
  * Renders and hands the message to SMTP. When SMTP refuses it, the rendered message is queued for the
  * scheduler to try again (`queued: true`); it never throws for that, so the change the mail reports
- * stands. A template that fails to render still throws: that is a bug, not an outage.
+ * stands. A template that fails to render still throws: that is a bug, not an outage. Addresses that
+ * receive nothing (a deleted account's) are left out; with none left, nothing is sent or queued.
  */
 export async function sendMail(input: SendMailInput): Promise<{ messageId: string | null; queued: boolean }> {
-  const m = await renderMessage(input);
+  const to = (Array.isArray(input.to) ? input.to : [input.to]).filter((address) => !receivesNothing(address));
+  if (to.length === 0) return { messageId: null, queued: false };
+  const m = await renderMessage({ ...input, to });
   try {
     return { messageId: await deliver(m), queued: false };
   } catch (e) {

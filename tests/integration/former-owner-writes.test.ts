@@ -12,7 +12,8 @@ import { listJobSlots } from "@/lib/visits/slots";
 import type { Quote } from "@/lib/care/quote";
 import { addClaimPhoto, removeClaimPhoto } from "@/lib/claims/photos";
 import { postClaimMessage } from "@/lib/claims/reply";
-import { getOwnerClaim } from "@/lib/claims/view-claim";
+import { transitionClaim } from "@/lib/claims/transition";
+import { getOwnerClaim, getStaffClaim } from "@/lib/claims/view-claim";
 import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { acceptOfferByToken, getOfferByToken } from "@/lib/reminders/offers";
@@ -59,6 +60,20 @@ describe("a former owner after the hand-over", () => {
     expect(photosOf(claim.id).map((f) => f.id)).toEqual([kept.id]);
     // History: the claim and its photo are still theirs to read.
     expect(getOwnerClaim(w.owner, claim.id).photos.map((p) => p.id)).toEqual([kept.id]);
+  });
+
+  it("is not asked for more by the studio (409, the claim stays in review); a plain message from the studio still goes, and staff are told they can't reply", async () => {
+    const w = await claimWorld();
+    const claim = await fileClaim(w.ownerV, w.piece.id);
+    transitionClaim(w.staffCtx, claim.id, { to: "in_review" });
+    expect(getStaffClaim(w.staffCtx, claim.id).ownerMayAnswer).toBe(true);
+    await releasePiece({ ...w.owner }, w.piece.id, { confirm: true });
+
+    expect(getStaffClaim(w.staffCtx, claim.id).ownerMayAnswer).toBe(false);
+    expect(await statusOf(postClaimMessage(w.staff, claim.id, { body: "Could you measure the gap? (invented)", requestInfo: true }))).toBe(409);
+    expect(getStaffClaim(w.staffCtx, claim.id).claim.state).toBe("in_review");
+    const sent = await postClaimMessage(w.staff, claim.id, { body: "We are closing this as the table has a new home. (invented)" });
+    expect(sent.state).toBe("in_review");
   });
 
   it("accepts no refresh offer from a mail sent before the hand-over; the new owner's relinked offer is theirs", async () => {

@@ -38,6 +38,24 @@ beforeEach(() => {
 const queued = () => getDb().select().from(mailQueue).all();
 const note = (subject: string, extra: Partial<Parameters<typeof sendMail>[0]> = {}) => ({ to: "someone@owners.example", subject, email: createElement("p", null, `Body of ${subject}`), ...extra });
 
+describe("mail to a deleted account", () => {
+  // A deleted account's address is on the reserved ".invalid" domain (RFC 2606, section 2;
+  // lib/owner/account-delete.ts). Mail for it is dropped: not handed to SMTP, not queued for retries.
+  it("is not sent or queued, and the other recipients of the same message still get it", async () => {
+    const s = await up();
+    s.clear();
+    const dead = "deleted-0b7e@deleted.invalid";
+    expect(await sendMail(note("To a deleted account", { to: dead }))).toEqual({ messageId: null, queued: false });
+    expect(queued()).toEqual([]);
+    expect(s.messages()).toEqual([]);
+
+    const sent = await sendMail(note("To a studio and a deleted account", { to: ["studio@larchmere.example", dead] }));
+    expect(sent.queued).toBe(false);
+    expect(s.messages().map((m) => m.to)).toEqual([["studio@larchmere.example"]]);
+    expect(queued()).toEqual([]);
+  });
+});
+
 describe("mail SMTP refuses", () => {
   it("a password reset asked for while SMTP is down is kept, goes out once SMTP is back, and its link works", async () => {
     const user = await createUser({ email: `reset-${Date.now()}@owners.example`, name: "Queue Owner (invented)" });

@@ -109,7 +109,7 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
               </dd>
             </dl>
           </Card>
-          <MessageThread claimId={claim.id} messages={v.messages} audience="staff" studioName={v.studio.name} timeZone={v.studio.timeZone} canWrite={claim.state !== "closed"} canAskForInfo={claim.state === "in_review"} />
+          <MessageThread claimId={claim.id} messages={v.messages} audience="staff" studioName={v.studio.name} timeZone={v.studio.timeZone} canWrite={claim.state !== "closed"} canAskForInfo={claim.state === "in_review" && v.ownerMayAnswer} writeNote={v.ownerMayAnswer ? undefined : `${owner.name} no longer holds the piece: they get your message by e-mail and can read it here, but can't reply.`} />
         </div>
 
         <div className="space-y-6">
