@@ -18,7 +18,7 @@ export default async function DeleteAccountPage() {
   const piecesWords =
     preview.pieces.length === 0
       ? "You hold no pieces now."
-      : `You hold ${formatCount(preview.pieces.length)} ${preview.pieces.length === 1 ? "piece" : "pieces"}: ${preview.pieces.map((p) => `${p.title} (${p.studioName})`).join(", ")}. We e-mail you each piece's new registration code, in case someone else has it now.`;
+      : `You hold ${formatCount(preview.pieces.length)} ${preview.pieces.length === 1 ? "piece" : "pieces"}: ${preview.pieces.map((p) => `${p.title} (${p.studioName})`).join(", ")}. We e-mail you each piece's new registration code: give it to whoever has the piece next, so they can register it.`;
   const now = (n: number) => (n === 0 ? "none now" : `${formatCount(n)} now`);
   return (
     <>
