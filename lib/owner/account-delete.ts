@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { User } from "lucia";
 import { getDb } from "@/db/client";
-import { claims, memberships, pieces, planSubscriptions, repairJobs, sessions, studios, userTokens, users } from "@/db/schema";
+import { claims, memberships, pieces, planSubscriptions, refreshOffers, repairJobs, sessions, studios, userTokens, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit";
 import type { OwnerActor } from "@/lib/auth/actor";
 import { endAllSessions } from "@/lib/auth/session";
@@ -11,7 +11,9 @@ import { OPEN_STATES } from "@/lib/claims/states";
 import { conflict, isAppError, rephrased } from "@/lib/errors";
 import { formatAndList, formatCount } from "@/lib/format";
 import { appendMessage, threadFor } from "@/lib/messages/store";
-import { releasePiece } from "@/lib/owner/transfer";
+import { getMyPiece } from "@/lib/owner/pieces";
+import { finishRelease, releaseInTx } from "@/lib/owner/transfer";
+import { underPiecePlanLock } from "@/lib/plans/transfer";
 import { cancelJob } from "@/lib/repairs/payment";
 import { OWNER_CAN_DECLINE } from "@/lib/repairs/states";
 import { checkCurrentPassword } from "./account-email";
@@ -23,13 +25,18 @@ import { checkCurrentPassword } from "./account-email";
 //    done, or a care plan's first payment is under way.
 // 2. Quotes waiting on their answer or payment are declined (cancelJob as the owner, which first closes
 //    any payment page at Stripe; a payment that came through meanwhile stops the deletion there).
-// 3. Open claims are withdrawn (closed), with a note in each claim's thread that the studio's inbox shows.
-// 4. Every piece they hold is released (releasePiece, lib/owner/transfer.ts): a fresh registration code
-//    mailed to them, the studio told, a care plan moved or ended by the studio's transfer setting.
-// 5. The account row stays, because payments, receipts, claims and the audit trail the studios keep
+// 3. Then, in one transaction (nothing of it stands unless all of it does): open claims are withdrawn
+//    (closed), with a note in each claim's thread that the studio's inbox shows; every piece they hold is
+//    released (releaseInTx, lib/owner/transfer.ts): a fresh registration code, the studio's open work on it
+//    set back, a care plan moved or ended by the studio's transfer setting; a piece the studio archived is
+//    released the same way, so it no longer points at the account; refresh offers still open for them
+//    are expired; the account is made nameless (rule 4) and the studios' audit rows written.
+// 4. The account row stays, because payments, receipts, claims and the audit trail the studios keep
 //    for their books point at it, but its name becomes "Former owner (account deleted)", its e-mail an
 //    address that receives nothing, its password unusable; its links and sessions are gone. The
 //    studios' own client records (their customer list) are theirs and stay as they are.
+// 5. After the commit (finishRelease): payment pages and care plans at Stripe, then each piece's fresh code
+//    mailed to their old address and the studio told, through mailAfterCommit; archived pieces send no mail.
 
 export const DELETED_NAME = "Former owner (account deleted)";
 const deletedEmail = (userId: string) => `deleted-${userId}@deleted.invalid`;
@@ -120,38 +127,58 @@ export async function deleteAccount(actor: OwnerActor, current: string, ip: stri
     }
   }
 
+  // Read while the pieces are still theirs: what the release mails say (getMyPiece). Archived pieces are
+  // unlinked by the same release, without mail: the studio has put them away, there is nothing to hand on.
   const db = getDb();
-  db.transaction((tx) => {
-    const open = tx.select().from(claims).where(and(eq(claims.ownerId, user.id), inArray(claims.state, [...OPEN_STATES]))).all();
-    for (const claim of open) {
-      // Closing an open claim is not a staff move (lib/claims/states.ts); it is checked here: the claim is open and theirs.
-      writeState(tx, claim, "closed", undefined);
-      appendMessage(tx, threadFor(tx, { kind: "claim", id: claim.id }, now), { author: "owner", authorId: user.id, body: CLAIM_WITHDRAWN_NOTE, now });
-      recordAudit(tx, { studioId: claim.studioId, actorId: user.id, action: "claim.withdrawn", subjectType: "claim", subjectId: claim.id, data: { from: claim.state, reason: "account_deleted" } });
-    }
-  });
+  const held = db.select({ id: pieces.id, archivedAt: pieces.archivedAt }).from(pieces).where(eq(pieces.ownerId, user.id)).orderBy(asc(pieces.id)).all();
+  const before = new Map(held.filter((p) => !p.archivedAt).map((p) => [p.id, getMyPiece(owner, p.id, now)]));
 
-  // A piece the studio has archived can't be handed on; it keeps pointing at the (nameless) account.
-  const held = db.select({ id: pieces.id }).from(pieces).where(and(eq(pieces.ownerId, user.id), isNull(pieces.archivedAt))).all();
-  for (const p of held) await releasePiece(owner, p.id, { confirm: true }, now);
+  // Everything else in one transaction, under the plan lock of every piece they hold: nothing of it is
+  // written unless all of it is.
+  const releases = await underPlanLocks(
+    held.map((p) => p.id),
+    () =>
+      db.transaction((tx) => {
+        const open = tx.select().from(claims).where(and(eq(claims.ownerId, user.id), inArray(claims.state, [...OPEN_STATES]))).all();
+        for (const claim of open) {
+          // Closing an open claim is not a staff move (lib/claims/states.ts); it is checked here: the claim is open and theirs.
+          writeState(tx, claim, "closed", undefined);
+          appendMessage(tx, threadFor(tx, { kind: "claim", id: claim.id }, now), { author: "owner", authorId: user.id, body: CLAIM_WITHDRAWN_NOTE, now });
+          recordAudit(tx, { studioId: claim.studioId, actorId: user.id, action: "claim.withdrawn", subjectType: "claim", subjectId: claim.id, data: { from: claim.state, reason: "account_deleted" } });
+        }
+        const released = held.map((p) => ({ pieceId: p.id, committed: releaseInTx(tx, owner, p.id, now) }));
+        // Refresh offers made to them: a released piece's offer already reads as closed (lib/reminders/offers.ts),
+        // an archived one's too; here every one still open is expired, so none stays open for the account.
+        const offersExpired = tx.update(refreshOffers).set({ status: "expired" }).where(and(eq(refreshOffers.userId, user.id), eq(refreshOffers.status, "offered"))).run().changes;
+        tx.update(users)
+          .set({ name: DELETED_NAME, email: deletedEmail(user.id), passwordHash: NO_PASSWORD, emailVerifiedAt: null, remindersEnabled: false, deletedAt: now })
+          .where(eq(users.id, user.id))
+          .run();
+        tx.delete(userTokens).where(eq(userTokens.userId, user.id)).run();
+        tx.delete(sessions).where(eq(sessions.userId, user.id)).run();
+        // Every studio that keeps a record of this person: what they held, claimed, were quoted or subscribed to.
+        const touched = tx.all<{ studioId: string }>(sql`
+          SELECT studio_id AS studioId FROM ownerships WHERE user_id = ${user.id}
+          UNION SELECT studio_id FROM claims WHERE owner_id = ${user.id}
+          UNION SELECT studio_id FROM repair_jobs WHERE owner_id = ${user.id}
+          UNION SELECT studio_id FROM plan_subscriptions WHERE owner_id = ${user.id}
+          UNION SELECT studio_id FROM clients WHERE user_id = ${user.id}`);
+        for (const { studioId } of touched) {
+          recordAudit(tx, { studioId, actorId: user.id, action: "account.deleted", subjectType: "user", subjectId: user.id, data: { piecesReleased: held.length, offersExpired } });
+        }
+        return released;
+      }),
+  );
 
-  db.transaction((tx) => {
-    tx.update(users)
-      .set({ name: DELETED_NAME, email: deletedEmail(user.id), passwordHash: NO_PASSWORD, emailVerifiedAt: null, remindersEnabled: false, deletedAt: now })
-      .where(eq(users.id, user.id))
-      .run();
-    tx.delete(userTokens).where(eq(userTokens.userId, user.id)).run();
-    tx.delete(sessions).where(eq(sessions.userId, user.id)).run();
-    // Every studio that keeps a record of this person: what they held, claimed, were quoted or subscribed to.
-    const touched = tx.all<{ studioId: string }>(sql`
-      SELECT studio_id AS studioId FROM ownerships WHERE user_id = ${user.id}
-      UNION SELECT studio_id FROM claims WHERE owner_id = ${user.id}
-      UNION SELECT studio_id FROM repair_jobs WHERE owner_id = ${user.id}
-      UNION SELECT studio_id FROM plan_subscriptions WHERE owner_id = ${user.id}
-      UNION SELECT studio_id FROM clients WHERE user_id = ${user.id}`);
-    for (const { studioId } of touched) {
-      recordAudit(tx, { studioId, actorId: user.id, action: "account.deleted", subjectType: "user", subjectId: user.id, data: { piecesReleased: held.length } });
-    }
-  });
+  // After the commit: payment pages and care plans at Stripe (recorded with the release, so the scheduled
+  // passes finish what fails here), then the codes and the studios' notices through mailAfterCommit.
+  for (const r of releases) await finishRelease(owner, r.pieceId, r.committed, before.get(r.pieceId) ?? null, now);
   await endAllSessions(user.id);
+}
+
+/** Runs `run` holding the plan lock of each piece (underPiecePlanLock, lib/plans/transfer.ts), taken in the order given. */
+function underPlanLocks<T>(pieceIds: string[], run: () => T): Promise<T> {
+  const [first, ...rest] = pieceIds;
+  if (first === undefined) return Promise.resolve().then(run);
+  return underPiecePlanLock(first, () => underPlanLocks(rest, run)).then((inner) => inner);
 }

@@ -2,7 +2,7 @@ import "server-only";
 import { indexPiece } from "@/lib/pieces/search-index";
 import { and, eq, isNull } from "drizzle-orm";
 import type { User } from "lucia";
-import { getDb } from "@/db/client";
+import { getDb, type Tx } from "@/db/client";
 import { memberships, ownerships, pieces, studios, users } from "@/db/schema";
 import { PieceReleasedEmail, pieceReleasedSubject } from "@/emails/piece-released";
 import { TransferCodeEmail, transferCodeSubject } from "@/emails/transfer-code";
@@ -31,7 +31,22 @@ const link = (path: string) => new URL(path, env.APP_URL).href;
 export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "timeZone" | "unitSystem">, pieceId: string, _confirmed: ReleaseValues, now = new Date()) {
   // Read what the mail needs while the piece is still theirs (this also 404s a stranger).
   const before = getMyPiece(user, pieceId, now);
-  const { fresh, studio, closes, openWork, plan } = await commitRelease(user, pieceId, now);
+  return finishRelease(user, pieceId, await commitRelease(user, pieceId, now), before, now);
+}
+
+/**
+ * What follows a committed release (commitRelease or releaseInTx): the payment pages and care plan's
+ * Stripe steps, then the code to the owner and the word to the studio, each through mailAfterCommit.
+ * `before` is the piece as its owner saw it before the release (getMyPiece); null sends no mail (a piece
+ * the studio archived, unlinked when its owner deletes their account, lib/owner/account-delete.ts).
+ */
+export async function finishRelease(
+  user: Pick<User, "id" | "name" | "email">,
+  pieceId: string,
+  { fresh, studio, closes, openWork, plan }: ReturnType<typeof releaseInTx>,
+  before: ReturnType<typeof getMyPiece> | null,
+  now = new Date(),
+) {
   // After the commit: nothing below undoes the release. The plan's hand-over was written with it, so if the
   // process stops here, the plan transfer pass (jobs/plan-transfers.ts) finishes it.
   // Their payment pages close at Stripe; this never fails the release: a page Stripe didn't close now is
@@ -39,6 +54,7 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
   // (lib/repairs/checkout.ts).
   await closeDueCheckouts({ ids: closes });
   await finishPlanHandOver(plan); // the piece's care plan moves or ends by the studio's setting (lib/plans/transfer.ts)
+  if (!before) return { pieceId, code: fresh.code, transferring: [] as string[], staying: [] as string[] };
   const db = getDb();
 
   const transferring = before.warranty.lines.filter((l) => l.transfersToNewOwner && l.status !== "not_transferred").map((l) => l.label);
@@ -97,29 +113,30 @@ export async function releasePiece(user: Pick<User, "id" | "name" | "email" | "t
  * piece leaves with the studio is read for its mail (openWorkAtRelease).
  */
 export function commitRelease(user: Pick<User, "id" | "name">, pieceId: string, now = new Date()) {
+  return underPiecePlanLock(pieceId, () => getDb().transaction((tx) => releaseInTx(tx, user, pieceId, now)));
+}
+
+/** commitRelease's writes inside a transaction the caller holds (and under the piece's plan lock). */
+export function releaseInTx(tx: Tx, user: Pick<User, "id" | "name">, pieceId: string, now = new Date()) {
   const fresh = newRegistrationCode();
-  return underPiecePlanLock(pieceId, () =>
-    getDb().transaction((tx) => {
-      const released = tx
-        .update(pieces)
-        .set({ ownerId: null, clientId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
-        .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, user.id)))
-        .returning({ studioId: pieces.studioId })
-        .all();
-      if (released.length !== 1) throw notFound("No piece with that id among yours.");
-      const studioId = released[0]!.studioId;
-      tx.update(ownerships).set({ endedAt: now }).where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.userId, user.id), isNull(ownerships.endedAt))).run();
-      recordAudit(tx, { studioId, actorId: user.id, action: "piece.released", subjectType: "piece", subjectId: pieceId, data: {} });
-      indexPiece(tx, pieceId);
-      const studio = tx.select().from(studios).where(eq(studios.id, studioId)).get()!;
-      // Repair jobs waiting for this owner's payment go back to the studio, and their payment pages are
-      // written down to be closed at Stripe (lib/repairs/handed-on.ts).
-      const jobsSetBack = jobsBackToStudio(tx, { id: pieceId, studioId }, user.id);
-      const closes = recordCheckoutCloses(tx, jobsSetBack);
-      const openWork = openWorkAtRelease(tx, { id: pieceId, studioId }, user, jobsSetBack, studio.timeZone);
-      // The piece's care plan: its move or end, refund claim and Stripe step, written with the release.
-      const plan = recordPlanHandOver(tx, pieceId, user.id, now);
-      return { fresh, studio, closes, openWork, plan };
-    }),
-  );
+  const released = tx
+    .update(pieces)
+    .set({ ownerId: null, clientId: null, registeredAt: null, registrationCodeHash: fresh.hash, registrationCodeEnc: fresh.enc, updatedAt: now })
+    .where(and(eq(pieces.id, pieceId), eq(pieces.ownerId, user.id)))
+    .returning({ studioId: pieces.studioId })
+    .all();
+  if (released.length !== 1) throw notFound("No piece with that id among yours.");
+  const studioId = released[0]!.studioId;
+  tx.update(ownerships).set({ endedAt: now }).where(and(eq(ownerships.pieceId, pieceId), eq(ownerships.userId, user.id), isNull(ownerships.endedAt))).run();
+  recordAudit(tx, { studioId, actorId: user.id, action: "piece.released", subjectType: "piece", subjectId: pieceId, data: {} });
+  indexPiece(tx, pieceId);
+  const studio = tx.select().from(studios).where(eq(studios.id, studioId)).get()!;
+  // Repair jobs waiting for this owner's payment go back to the studio, and their payment pages are
+  // written down to be closed at Stripe (lib/repairs/handed-on.ts).
+  const jobsSetBack = jobsBackToStudio(tx, { id: pieceId, studioId }, user.id);
+  const closes = recordCheckoutCloses(tx, jobsSetBack);
+  const openWork = openWorkAtRelease(tx, { id: pieceId, studioId }, user, jobsSetBack, studio.timeZone);
+  // The piece's care plan: its move or end, refund claim and Stripe step, written with the release.
+  const plan = recordPlanHandOver(tx, pieceId, user.id, now);
+  return { fresh, studio, closes, openWork, plan };
 }

@@ -3,10 +3,11 @@
 // released, open claims withdrawn with a note, quotes declined, name/e-mail/password gone, the books
 // kept). Real SQLite file, real SMTP sink; actions called as Next.js calls them, with a session in the
 // test database. All data invented.
-import { and, eq } from "drizzle-orm";
+import { and, eq, inArray, isNull } from "drizzle-orm";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
-import { auditLog, claims, clients, memberships, pieces, repairJobs, sessions, threadMessages, threads, userTokens, users } from "@/db/schema";
+import { auditLog, claims, clients, memberships, ownerships, pieces, refreshOffers, repairJobs, sessions, threadMessages, threads, userTokens, users } from "@/db/schema";
+import type { Quote } from "@/lib/care/quote";
 import { ownerActor } from "@/lib/auth/actor";
 import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
 import { settleAfterAnswer } from "@/lib/auth/after-answer";
@@ -17,7 +18,7 @@ import { threadFor } from "@/lib/messages/store";
 import { confirmEmailChange, emailChangeLink, pendingEmailChange, requestEmailChange } from "@/lib/owner/account-email";
 import { DELETED_NAME, deleteAccount, deletionPreview } from "@/lib/owner/account-delete";
 import { changeEmailSchema } from "@/lib/validation/account";
-import { createStudio, createUser, unique } from "../support/fixtures";
+import { createPiece, createStudio, createUser, unique } from "../support/fixtures";
 import { extractLinks, listMail, waitForMail } from "../support/mail";
 import { claimWorld, fileClaim } from "./claims-helpers";
 
@@ -32,6 +33,7 @@ vi.mock("next/headers", () => ({
 }));
 beforeEach(() => jar.clear());
 
+const CLAIM_NOTE = "I deleted my Grainward account, so this claim is withdrawn. (Written by Grainward when the account was deleted.)";
 const PASSWORD = "correct horse battery"; // tests/support/fixtures.ts createUser
 let ipCounter = 0;
 const ip = () => `198.51.100.${++ipCounter % 250}`;
@@ -287,6 +289,73 @@ describe("deleting the account", () => {
     await expect(deleteAccount(ownerActor(member), PASSWORD, ip())).rejects.toMatchObject({ status: 409, message: expect.stringContaining("Team Studio (invented)") });
     // The password is checked first: a wrong one says only that.
     await expect(deleteAccount(ownerActor(member), "wrong password", ip())).rejects.toMatchObject({ status: 400 });
+  });
+});
+
+describe("deleting the account: one transaction", () => {
+  function offerFor(studioId: string, pieceId: string, userId: string) {
+    return getDb()
+      .insert(refreshOffers)
+      .values({ studioId, pieceId, userId, taskKey: `${pieceId}:topcoat_refresh:top`, dueOn: "2027-03-01", priceMinor: 12_000, currency: "USD", quote: { lines: [], subtotalMinor: 12_000, taxMinor: 0, totalMinor: 12_000, currency: "USD" } as unknown as Quote, status: "offered" })
+      .returning()
+      .get();
+  }
+  /** A piece of theirs the studio has archived, with its ownership and an open refresh offer. */
+  function archivedPiece(w: Awaited<ReturnType<typeof claimWorld>>) {
+    const { piece } = createPiece(w.studio, { ownerId: w.owner.id, registeredAt: new Date(), archivedAt: new Date(), title: "Archived stool (invented)" });
+    getDb().insert(ownerships).values({ studioId: w.studio.id, pieceId: piece.id, userId: w.owner.id, via: "registration", startedAt: new Date() }).run();
+    return piece;
+  }
+  const ownerOf = (pieceId: string) => getDb().select({ ownerId: pieces.ownerId }).from(pieces).where(eq(pieces.id, pieceId)).get()!.ownerId;
+  const offerStatus = (id: string) => getDb().select({ status: refreshOffers.status }).from(refreshOffers).where(eq(refreshOffers.id, id)).get()!.status;
+
+  it("a failure at its last write (the studios' audit rows) leaves claims, pieces, offers and the account as they were, and mails nothing; a second try deletes", async () => {
+    const w = await claimWorld({ piece: { title: "Rollback test bench (invented)" } });
+    const claim = await fileClaim(w.ownerV, w.piece.id);
+    const archived = archivedPiece(w);
+    const offer = offerFor(w.studio.id, w.piece.id, w.owner.id);
+    const before = new Date();
+    // A real failure of the database file at the last step: the audit row that says the account is deleted.
+    const sqlite = getDb().$client;
+    sqlite.exec(`CREATE TRIGGER fail_account_deleted BEFORE INSERT ON audit_log WHEN NEW.action = 'account.deleted' BEGIN SELECT RAISE(ABORT, 'forced failure (test)'); END`);
+    try {
+      await expect(deleteAccount(ownerActor(w.owner), PASSWORD, ip())).rejects.toThrow(/forced failure/);
+    } finally {
+      sqlite.exec(`DROP TRIGGER fail_account_deleted`);
+    }
+    expect(getDb().select({ state: claims.state }).from(claims).where(eq(claims.id, claim.id)).get()!.state).toBe(claim.state);
+    expect(ownerOf(w.piece.id)).toBe(w.owner.id);
+    expect(ownerOf(archived.id)).toBe(w.owner.id);
+    expect(getDb().select().from(ownerships).where(and(eq(ownerships.userId, w.owner.id), isNull(ownerships.endedAt))).all()).toHaveLength(2);
+    expect(offerStatus(offer.id)).toBe("offered");
+    const row = getDb().select().from(users).where(eq(users.id, w.owner.id)).get()!;
+    expect(row).toMatchObject({ name: w.owner.name, email: w.owner.email, deletedAt: null });
+    expect(getDb().select().from(auditLog).where(and(eq(auditLog.actorId, w.owner.id), inArray(auditLog.action, ["claim.withdrawn", "piece.released", "account.deleted"]))).all()).toEqual([]);
+    expect(getDb().select().from(threadMessages).where(eq(threadMessages.body, CLAIM_NOTE)).all().filter((m) => m.authorId === w.owner.id)).toEqual([]);
+    expect((await listMail({ to: w.owner.email })).filter((m) => new Date(m.receivedAt) >= before)).toEqual([]);
+
+    await deleteAccount(ownerActor(w.owner), PASSWORD, ip());
+    expect(getDb().select().from(users).where(eq(users.id, w.owner.id)).get()!.name).toBe(DELETED_NAME);
+    expect(getDb().select({ state: claims.state }).from(claims).where(eq(claims.id, claim.id)).get()!.state).toBe("closed");
+    expect(ownerOf(w.piece.id)).toBeNull();
+    await waitForMail({ to: w.owner.email, subject: /Rollback test bench/, since: before });
+  });
+
+  it("unlinks the pieces the studio archived too (no code mailed for them), and leaves no refresh offer open for the account", async () => {
+    const w = await claimWorld({ piece: { title: "Offer test desk (invented)" } });
+    const archived = archivedPiece(w);
+    const offers = [offerFor(w.studio.id, w.piece.id, w.owner.id), offerFor(w.studio.id, archived.id, w.owner.id)];
+    const since = new Date();
+    await deleteAccount(ownerActor(w.owner), PASSWORD, ip());
+
+    expect(ownerOf(archived.id)).toBeNull();
+    expect(getDb().select().from(ownerships).where(and(eq(ownerships.userId, w.owner.id), isNull(ownerships.endedAt))).all()).toEqual([]);
+    expect(getDb().select().from(auditLog).where(and(eq(auditLog.action, "piece.released"), eq(auditLog.subjectId, archived.id))).all()).toHaveLength(1);
+    expect(offers.map((o) => offerStatus(o.id))).toEqual(["expired", "expired"]);
+    expect(getDb().select().from(refreshOffers).where(and(eq(refreshOffers.userId, w.owner.id), eq(refreshOffers.status, "offered"))).all()).toEqual([]);
+    // The held piece's code went to the old address; the archived one's did not.
+    await waitForMail({ to: w.owner.email, subject: /Offer test desk/, since });
+    expect((await listMail()).filter((m) => new Date(m.receivedAt) >= since && /Archived stool/.test(m.subject))).toEqual([]);
   });
 });
 
