@@ -4,7 +4,8 @@ import zlib from "node:zlib";
 import sharp from "sharp";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { claims, memberships, ownerships, type Piece, type Studio } from "@/db/schema";
+import { claims, memberships, ownerships, refreshOffers, type Piece, type Studio } from "@/db/schema";
+import type { Quote } from "@/lib/care/quote";
 import { createClaim } from "@/lib/claims/file-claim";
 import type { ClaimState } from "@/lib/claims/states";
 import { decideClaim } from "@/lib/claims/decide-claim";
@@ -109,4 +110,13 @@ export function hugeBlankPng(width = 20_000, height = 20_000): Buffer {
   const rowBytes = 1 + Math.ceil(width / 8);
   const idat = zlib.deflateSync(Buffer.alloc(rowBytes * height), { level: 9 });
   return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), pngChunk("IHDR", ihdr), pngChunk("IDAT", idat), pngChunk("IEND", Buffer.alloc(0))]);
+}
+
+/** An open refresh offer made to `userId` on the piece, as the reminder pass writes one (its quote stood in for). */
+export function offerFor(studioId: string, pieceId: string, userId: string) {
+  return getDb()
+    .insert(refreshOffers)
+    .values({ studioId, pieceId, userId, taskKey: `${pieceId}:topcoat_refresh:top`, dueOn: "2027-03-01", priceMinor: 12_000, currency: "USD", quote: { lines: [], subtotalMinor: 12_000, taxMinor: 0, totalMinor: 12_000, currency: "USD" } as unknown as Quote, status: "offered" })
+    .returning()
+    .get();
 }

@@ -9,7 +9,6 @@ import { files, payments, refreshOffers, repairJobs } from "@/db/schema";
 import { createJobFromClaim } from "@/lib/claims/open-job";
 import { bookVisit } from "@/lib/visits/book";
 import { listJobSlots } from "@/lib/visits/slots";
-import type { Quote } from "@/lib/care/quote";
 import { addClaimPhoto, removeClaimPhoto } from "@/lib/claims/photos";
 import { postClaimMessage } from "@/lib/claims/reply";
 import { transitionClaim } from "@/lib/claims/transition";
@@ -19,7 +18,7 @@ import { releasePiece } from "@/lib/owner/transfer";
 import { acceptOfferByToken, getOfferByToken } from "@/lib/reminders/offers";
 import { offerToken } from "@/lib/reminders/tokens";
 import { createAcceptedClaim, createUser } from "../support/fixtures";
-import { claimWorld, fileClaim, photoJpeg } from "./claims-helpers";
+import { claimWorld, fileClaim, offerFor, photoJpeg } from "./claims-helpers";
 import { staffActor, visitWorld } from "./visits-helpers";
 
 async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> {
@@ -32,14 +31,6 @@ async function statusOf(p: Promise<unknown> | (() => unknown)): Promise<number> 
 }
 
 const photosOf = (claimId: string) => getDb().select({ id: files.id }).from(files).where(and(eq(files.claimId, claimId), eq(files.purpose, "claim_photo"))).all();
-
-function offerFor(studioId: string, pieceId: string, userId: string) {
-  return getDb()
-    .insert(refreshOffers)
-    .values({ studioId, pieceId, userId, taskKey: `${pieceId}:topcoat_refresh:top`, dueOn: "2027-03-01", priceMinor: 12_000, currency: "USD", quote: { lines: [], subtotalMinor: 12_000, taxMinor: 0, totalMinor: 12_000, currency: "USD" } as unknown as Quote, status: "offered" })
-    .returning()
-    .get();
-}
 
 describe("a former owner after the hand-over", () => {
   it("adds and removes no photos on their open claim (403, nothing stored or deleted), and reads it still", async () => {

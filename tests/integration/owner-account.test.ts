@@ -7,7 +7,6 @@ import { and, eq, inArray, isNull } from "drizzle-orm";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { auditLog, claims, clients, memberships, ownerships, pieces, refreshOffers, repairJobs, sessions, threadMessages, threads, userTokens, users } from "@/db/schema";
-import type { Quote } from "@/lib/care/quote";
 import { ownerActor } from "@/lib/auth/actor";
 import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
 import { settleAfterAnswer } from "@/lib/auth/after-answer";
@@ -20,7 +19,7 @@ import { DELETED_NAME, deleteAccount, deletionPreview } from "@/lib/owner/accoun
 import { changeEmailSchema } from "@/lib/validation/account";
 import { createPiece, createStudio, createUser, unique } from "../support/fixtures";
 import { extractLinks, listMail, waitForMail } from "../support/mail";
-import { claimWorld, fileClaim } from "./claims-helpers";
+import { claimWorld, fileClaim, offerFor } from "./claims-helpers";
 
 // next/headers outside a Next.js request: the cookie jar holds the session token of whoever signed in.
 const jar = vi.hoisted(() => new Map<string, string>());
@@ -293,13 +292,6 @@ describe("deleting the account", () => {
 });
 
 describe("deleting the account: one transaction", () => {
-  function offerFor(studioId: string, pieceId: string, userId: string) {
-    return getDb()
-      .insert(refreshOffers)
-      .values({ studioId, pieceId, userId, taskKey: `${pieceId}:topcoat_refresh:top`, dueOn: "2027-03-01", priceMinor: 12_000, currency: "USD", quote: { lines: [], subtotalMinor: 12_000, taxMinor: 0, totalMinor: 12_000, currency: "USD" } as unknown as Quote, status: "offered" })
-      .returning()
-      .get();
-  }
   /** A piece of theirs the studio has archived, with its ownership and an open refresh offer. */
   function archivedPiece(w: Awaited<ReturnType<typeof claimWorld>>) {
     const { piece } = createPiece(w.studio, { ownerId: w.owner.id, registeredAt: new Date(), archivedAt: new Date(), title: "Archived stool (invented)" });
