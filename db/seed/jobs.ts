@@ -2,8 +2,7 @@
 // from the care engine through lib/repairs/pricing, like any job's.
 import { and, eq, isNotNull } from "drizzle-orm";
 import type { CareTaskKind } from "@/lib/care/vocabulary";
-import { TASK_KIND_BY_FINISH_CLASS } from "@/lib/care/vocabulary";
-import { priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
+import { defaultProductIds, priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
 import type { Db } from "../client";
 import { finishProducts, payments, pieces, repairJobs, studios, type RepairJob } from "../schema";
 
@@ -28,11 +27,10 @@ export function seedJobs(db: Db, studioId: string, today: Date): Record<string, 
     SPECS.forEach((spec, i) => {
       const piece = owned.find((p) => p.title === spec.piece);
       if (!piece) return;
-      const wanted = new Set(spec.tasks);
       const input = {
         title: spec.title,
         tasks: spec.tasks,
-        productIds: products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1),
+        productIds: defaultProductIds(spec.tasks, products),
         coats: 1,
         travel: true,
         coveredPct: spec.coveredPct ?? 0,

@@ -5,8 +5,8 @@
 import { and, eq, inArray } from "drizzle-orm";
 import { hashPassword } from "@/lib/auth/password";
 import { addDays, isoWeekday, localDate, zonedTimeToEpochMs } from "@/lib/care/dates";
-import { TASK_KIND_BY_FINISH_CLASS, type CareTaskKind } from "@/lib/care/vocabulary";
-import { priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
+import type { CareTaskKind } from "@/lib/care/vocabulary";
+import { defaultProductIds, priceJob, pricedPiece, totals } from "@/lib/repairs/pricing";
 import { jobDurationMin } from "@/lib/visits/availability";
 import { visitUid } from "@/lib/visits/ics";
 import type { Db } from "../client";
@@ -14,13 +14,19 @@ import { finishProducts, memberships, payments, pieces, repairJobs, studios, tec
 
 export const SOL = { email: "sol@larchmere.example", name: "Sol Amberly" } as const;
 
-/** areasM2: a size staff typed on the quote for a surface the piece's record has none for (lib/repairs/pricing quoteAreaM2). */
-type VisitSpec = { piece: string; title: string; tasks: CareTaskKind[]; state: "paid" | "covered"; tech: "ines" | "sol"; dayOffset: number; at: string; location?: "owner" | "studio"; areasM2?: { base?: number } };
+/**
+ * areasM2: a size staff typed on the quote for a surface the piece's record has none for (lib/repairs/pricing
+ * quoteAreaM2); alsoSurfaces: the surfaces priced beside the top where they share the task's finish
+ * (JobQuoteInput.alsoSurfaces), so the technician's "What to bring" names them too.
+ */
+type VisitSpec = { piece: string; title: string; tasks: CareTaskKind[]; state: "paid" | "covered"; tech: "ines" | "sol"; dayOffset: number; at: string; location?: "owner" | "studio"; areasM2?: { base?: number }; alsoSurfaces?: { rewax?: "base"[] } };
 
 // dayOffset counts working days of that technician from today (0 = today or the next working day); local times.
 const WEEK: VisitSpec[] = [
   { piece: "White oak kitchen island top", title: "Annual check, island top", tasks: ["annual_check"], state: "covered", tech: "ines", dayOffset: 0, at: "09:00" },
-  { piece: "Cherry writing desk", title: "Re-wax the desk legs", tasks: ["rewax"], state: "paid", tech: "ines", dayOffset: 0, at: "13:00" },
+  // The desk's top and legs are both waxed (db/seed/demo.ts), so the re-wax prices the top and, ticked, the
+  // base: its legs and rails, one face 0.5 m² as staff typed it (invented).
+  { piece: "Cherry writing desk", title: "Re-wax the desk top and legs", tasks: ["rewax"], state: "paid", tech: "ines", dayOffset: 0, at: "13:00", areasM2: { base: 0.5 }, alsoSurfaces: { rewax: ["base"] } },
   { piece: "Charred cedar garden bench", title: "Inspect the bench after the storm", tasks: ["annual_check"], state: "covered", tech: "sol", dayOffset: 1, at: "10:00" },
   { piece: "Spalted maple coffee table, blue resin", title: "Polish a scuff in the blue resin", tasks: ["resin_polish"], state: "paid", tech: "sol", dayOffset: 2, at: "14:00" },
   { piece: "Walnut river dining table", title: "Check the resin edge, dining table", tasks: ["annual_check"], state: "covered", tech: "ines", dayOffset: 3, at: "10:30" },
@@ -65,8 +71,7 @@ export async function seedVisits(db: Db, studioId: string, today: Date, doneJobI
     WEEK.forEach((spec, i) => {
       const piece = owned.find((p) => p.title === spec.piece);
       if (!piece?.ownerId) return;
-      const wanted = new Set(spec.tasks);
-      const input = { title: spec.title, tasks: spec.tasks, productIds: products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1), coats: 1, travel: true, coveredPct: spec.state === "covered" ? 100 : 0, notes: "", ...(spec.areasM2 ? { areasM2: spec.areasM2 } : {}) };
+      const input = { title: spec.title, tasks: spec.tasks, productIds: defaultProductIds(spec.tasks, products), coats: 1, travel: true, coveredPct: spec.state === "covered" ? 100 : 0, notes: "", ...(spec.areasM2 ? { areasM2: spec.areasM2 } : {}), ...(spec.alsoSurfaces ? { alsoSurfaces: spec.alsoSurfaces } : {}) };
       const priced = totals(priceJob(studio, pricedPiece(tx, piece), input, products));
       const paidAt = new Date(today.getTime() - (6 - i) * 86_400_000);
       const job = tx

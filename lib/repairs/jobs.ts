@@ -12,7 +12,7 @@ import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { jobVisibleTo, jobWhere } from "./access";
 import { ownerActsOnJob, type OwnerReach } from "./owner-reach";
 import { readLines } from "./lines";
-import { priceJob, pricedPiece, proposeLines, totals, type PricedPiece } from "./pricing";
+import { defaultProductIds, priceJob, pricedPiece, proposeLines, totals, type PricedPiece } from "./pricing";
 import { assertMove, defaultJobTitle } from "./states";
 
 
@@ -20,11 +20,9 @@ function studioProducts(studioId: string) {
   return getDb().select().from(finishProducts).where(and(eq(finishProducts.studioId, studioId), isNull(finishProducts.archivedAt))).all();
 }
 
-/** A first quote: maintenance tasks with the studio's products of their finish class, repairs from the price list, one coat, travel on. */
+/** A first quote: maintenance tasks with a product of their finish class where the task uses one (an inspection uses none), repairs from the price list, one coat, travel on. */
 function defaultQuoteInput(title: string, work: { tasks: CareTaskKind[]; repairs?: string[] }, products: (typeof finishProducts.$inferSelect)[], coveredPct: number): JobQuoteInput {
-  const wanted = new Set(work.tasks);
-  const productIds = products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1);
-  return { title, tasks: work.tasks, repairs: work.repairs ?? [], productIds, coats: 1, travel: true, coveredPct, notes: "" };
+  return { title, tasks: work.tasks, repairs: work.repairs ?? [], productIds: defaultProductIds(work.tasks, products), coats: 1, travel: true, coveredPct, notes: "" };
 }
 
 /**

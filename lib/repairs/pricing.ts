@@ -5,7 +5,7 @@ import { and, eq } from "drizzle-orm";
 import { finishLayers, type FinishLayer, type finishProducts, type Piece, type Studio } from "@/db/schema";
 import type { DbOrTx } from "@/lib/pieces/search-index";
 import { DEFAULT_LABOUR, quote, quoteProductFromCatalog } from "@/lib/care/quote";
-import { CARE_TASK_LABELS, SURFACE_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass, type Surface } from "@/lib/care/vocabulary";
+import { CARE_TASK_LABELS, REFRESH_TASK_KINDS, SURFACE_LABELS, TASK_KIND_BY_FINISH_CLASS, type CareTaskKind, type FinishClass, type Surface } from "@/lib/care/vocabulary";
 import { formatAndList, formatArea, formatVolume } from "@/lib/format";
 import { recordedAreaM2, refreshedSurface, surfacesEndingIn, toCatalog } from "@/lib/pieces/care-inputs";
 import type { JobQuoteInput } from "@/lib/validation/jobs";
@@ -76,6 +76,22 @@ export function topOnlyWords(w: Pick<TopOnlyWork, "label" | "surfaces" | "also" 
 /** The note's choice for one other surface, its size in the studio's units: "Also price the base (6.5 ft²)". */
 export function alsoSurfaceLabel(surface: Surface, areaM2: number | null | undefined, units: Studio["unitSystem"]): string {
   return `Also price the ${SURFACE_LABELS[surface].toLowerCase()} (${areaM2 == null ? "no size yet" : formatArea(areaM2, units)})`;
+}
+
+/**
+ * Whether a task puts product on the piece: a refresh renews its finish and uses the finish's product
+ * (REFRESH_TASK_KINDS in lib/care/vocabulary.ts); an inspection of a film finish and the yearly check
+ * look and clean, and use none. A product of the task's finish class chosen on the quote is priced only
+ * for a task that uses it.
+ */
+export function taskUsesProduct(kind: CareTaskKind): boolean {
+  return REFRESH_TASK_KINDS.includes(kind);
+}
+
+/** The products a first quote starts with for its tasks: one of a finish class whose task is quoted and uses product. */
+export function defaultProductIds(tasks: readonly CareTaskKind[], products: readonly Pick<Product, "id" | "finishClass">[]): string[] {
+  const wanted = new Set(tasks.filter(taskUsesProduct));
+  return products.filter((p) => wanted.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).map((p) => p.id).slice(0, 1);
 }
 
 const CLASS_BY_TASK = Object.fromEntries(Object.entries(TASK_KIND_BY_FINISH_CLASS).map(([cls, task]) => [task, cls])) as Partial<Record<CareTaskKind, FinishClass>>;
@@ -153,7 +169,9 @@ export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuote
     }).lines;
   for (const task of input.tasks) {
     const label = CARE_TASK_LABELS[task];
-    const needsArea = DEFAULT_LABOUR[task].hoursPerM2 > 0 || chosen.some((e) => TASK_KIND_BY_FINISH_CLASS[e.finishClass] === task);
+    // An inspection prices no product even where one of its finish class is chosen (taskUsesProduct).
+    const withProduct = taskUsesProduct(task);
+    const needsArea = DEFAULT_LABOUR[task].hoursPerM2 > 0 || (withProduct && chosen.some((e) => TASK_KIND_BY_FINISH_CLASS[e.finishClass] === task));
     // Where the top and other surfaces end in this finish: the top, and the others staff chose.
     const shared = sharedFinishSurfaces(piece.layers, task);
     const surfaces = taskSurfaces(piece.layers, task, input);
@@ -177,7 +195,7 @@ export function proposeLines(studio: Studio, piece: PricedPiece, input: JobQuote
     }
     const totalM2 = sized.reduce((t, x) => t + x.areaM2, 0);
     const on = named ? ` — ${formatAndList(sized.map((x) => SURFACE_LABELS[x.surface].toLowerCase()))}` : "";
-    for (const l of totalM2 > 0 ? engine(task, totalM2, true) : []) {
+    for (const l of totalM2 > 0 && withProduct ? engine(task, totalM2, true) : []) {
       if (l.kind !== "materials" || !l.product || l.sizeMl === undefined) continue;
       // The engine's product label is the product's id (set above).
       const productId = l.product;

@@ -12,6 +12,7 @@ import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { claims, finishLayers, pieces, studios } from "@/db/schema";
 import { createJob, getStudioJob } from "@/lib/repairs/jobs";
+import { readLines } from "@/lib/repairs/lines";
 import { updateJobQuote } from "@/lib/repairs/payment";
 import { alsoSurfaceLabel, pricedPiece, topOnlyWords } from "@/lib/repairs/pricing";
 import { updateRepairSettings } from "@/lib/repairs/settings";
@@ -351,3 +352,49 @@ describe("a visit is booked for the surface its work is on", () => {
     expect(await bookedMinutes({ tasks: ["topcoat_refresh"], areasM2: { top: 2.5 } }, unmeasured)).toBe(90);
   });
 });
+
+// Which tasks use product: a refresh (re-oil, re-wax, topcoat refresh, resin polish, charred re-oil) puts the
+// finish's product on the piece; an inspection of a film finish looks along it and uses none (lib/repairs/pricing
+// taskUsesProduct; common practice, no published source).
+describe("an inspection proposes no product, a refresh does", () => {
+  /** The oiled-base piece's finish stack replaced by a film-finished top (a varnished island), with a conversion varnish in the catalog. */
+  async function varnishedTop() {
+    const made = await pieceWithOiledBase();
+    getDb().delete(finishLayers).where(eq(finishLayers.pieceId, made.piece.id)).run();
+    addLayers(made.piece, [{ surface: "top", position: 0, finishClass: "film_finish", coats: 2 }]);
+    const studio = getDb().select().from(studios).where(eq(studios.id, made.piece.studioId)).get()!;
+    const varnish = createProduct(studio, { name: "Test conversion varnish (invented)", finishClass: "film_finish", coverageM2PerL: 12, containers: [{ ml: 1000, priceMinor: 4800 }] });
+    return { ...made, studio, varnish };
+  }
+
+  it("a worn film finish's first quote inspects it with no tin of varnish", async () => {
+    const { studio, piece, varnish } = await varnishedTop();
+    const staff = await memberContext(studio, "staff");
+    const claim = createAcceptedClaim(studio, piece.id, piece.ownerId!, "chargeable");
+    getDb().update(claims).set({ category: "finish_wear" }).where(eq(claims.id, claim.id)).run();
+    const job = createJob(staff, "claim", claim.id);
+    expect(job.quoteInput.tasks).toEqual(["film_inspect"]);
+    // Before: the varnish was chosen by its finish class, and 1.8 m² × 1 coat ÷ 12 m²/L = 150 mL → one 1 L tin at $48.00 was proposed.
+    expect(job.quoteInput.productIds).not.toContain(varnish.id);
+    expect(job.quoteInput.productIds).toEqual([]);
+    // Labour only: 0.5 h + 0.1 h/m² × 1.8 m² = 0.68 → 0.75 h × $85.00 = $63.75 (lib/care/quote DEFAULT_LABOUR).
+    expect(readLines(job.lines).map((l) => [l.ref, l.quantity, l.amountMinor])).toEqual([["task:film_inspect", 0.75, 6375]]);
+  });
+
+  it("a varnish ticked on an inspection is not priced; an oil ticked beside it for a re-oil is", async () => {
+    const { staff, job, oil, varnish } = await varnishedTop();
+    const inspect = await updateJobQuote(staff, job.id, quote({ tasks: ["film_inspect"], productIds: [varnish.id], coats: 1 }));
+    // Before: a 1 L tin of varnish at $48.00 beside the 0.75 h.
+    expect(inspect.lines.map((l) => [l.ref, l.quantity, l.amountMinor])).toEqual([["task:film_inspect", 0.75, 6375]]);
+    expect(inspect.totalMinor).toBe(6375);
+    const both = await updateJobQuote(staff, job.id, quote({ tasks: ["film_inspect", "reoil"], productIds: [varnish.id, oil.id], coats: 1 }));
+    // The re-oil, on the top (no surface ends in oil): 0.5 h + 0.5 h/m² × 1.8 m² = 1.4 → 1.5 h × $85.00 = $127.50; the oil,
+    // 1.8 m² × 1 coat ÷ 24 m²/L = 75 mL → one 125 mL tin at $19.00 (lib/care/quantity.ts). No varnish.
+    expect(both.lines.map((l) => [l.ref, l.quantity, l.amountMinor])).toEqual([
+      ["task:film_inspect", 0.75, 6375],
+      ["task:reoil", 1.5, 12750],
+      [`product:${oil.id}:125`, 1, 1900],
+    ]);
+  });
+});
+

@@ -1,0 +1,63 @@
+// The demo's (invented) quotes read right: the island's film-finish inspection proposes no product (an
+// inspection uses none: common practice, no published source; lib/repairs/pricing taskUsesProduct), and
+// the desk's re-wax visit is priced on the waxed top and legs both, so the technician's "What to bring"
+// names the base beside the top instead of saying "on this top" alone.
+import { and, eq } from "drizzle-orm";
+import { beforeAll, describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { memberships, pieces, repairJobs, studios, users, visits } from "@/db/schema";
+import { AlreadySeededError, DEMO_STUDIO_SLUG, seedDemo } from "@/db/seed/demo";
+import type { StudioContext } from "@/lib/auth/guards";
+import { localDate } from "@/lib/care/dates";
+import { readLines } from "@/lib/repairs/lines";
+import { technicianDay } from "@/lib/visits/technician-day";
+
+let studio: typeof studios.$inferSelect;
+
+beforeAll(async () => {
+  const db = getDb();
+  try {
+    await seedDemo(db);
+  } catch (e) {
+    if (!(e instanceof AlreadySeededError)) throw e;
+  }
+  studio = db.select().from(studios).where(eq(studios.slug, DEMO_STUDIO_SLUG)).get()!;
+}, 60_000);
+
+const jobOn = (pieceTitle: string, title: string) =>
+  getDb()
+    .select({ job: repairJobs })
+    .from(repairJobs)
+    .innerJoin(pieces, eq(pieces.id, repairJobs.pieceId))
+    .where(and(eq(repairJobs.studioId, studio.id), eq(pieces.title, pieceTitle), eq(repairJobs.title, title)))
+    .get()!.job;
+
+describe("the demo's quotes", () => {
+  it("the island's film-finish inspection proposes labour and travel, no tin of varnish", () => {
+    const job = jobOn("White oak kitchen island top", "Inspect the island's film finish");
+    expect(job.quoteInput.tasks).toEqual(["film_inspect"]);
+    expect(job.quoteInput.productIds).toEqual([]);
+    // Before: a 1 L tin of the demo's conversion varnish was proposed beside the inspection's hours.
+    expect(readLines(job.lines).map((l) => l.kind)).toEqual(["labour", "travel"]);
+  });
+
+  it("the desk's re-wax visit prices the top and the legs, and the technician's sheet names both", () => {
+    const job = jobOn("Cherry writing desk", "Re-wax the desk top and legs");
+    // Re-wax labour: 0.25 h + 0.5 h/m² (lib/care/quote DEFAULT_LABOUR, invented for the demo — common practice, no
+    // published source), quarter hours rounded up. Top 1,500 × 700 mm = 1.05 m²: 0.775 → 1 h. Base as typed, 0.5 m²: 0.5 h.
+    expect(readLines(job.lines).filter((l) => l.kind === "labour").map((l) => [l.description, l.quantity])).toEqual([
+      ["Re-wax — top", 1],
+      ["Re-wax — base", 0.5],
+    ]);
+    const visit = getDb().select().from(visits).where(eq(visits.jobId, job.id)).get()!;
+    const tech = getDb().select().from(users).where(eq(users.id, visit.technicianId)).get()!;
+    const role = getDb().select().from(memberships).where(and(eq(memberships.userId, tech.id), eq(memberships.studioId, studio.id))).get()!.role;
+    const ctx = { user: { id: tech.id, email: tech.email, name: tech.name, emailVerifiedAt: tech.emailVerifiedAt, timeZone: tech.timeZone, unitSystem: tech.unitSystem, remindersEnabled: tech.remindersEnabled }, studio, role } satisfies StudioContext;
+    const day = technicianDay(ctx, { date: localDate(visit.startAt.getTime(), studio.timeZone) });
+    const item = day.items.find((i) => i.job.id === job.id)!;
+    // Before: amountFor "top" alone ("for 1 coat on this top"), the legs left out.
+    expect(item.bring.map((b) => [b.amountFor, b.alsoFor, b.unsized])).toEqual([["top", ["base"], []]]);
+    // Wax for (1.05 + 0.5) m² × 1 coat (lib/care/quantity.ts).
+    expect(item.bring[0]!.amount?.areaM2).toBeCloseTo(1.55, 6);
+  });
+});
