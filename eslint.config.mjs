@@ -16,7 +16,7 @@ const noApp = { group: ["@/app", "@/app/**"], message: "lib/, db/, jobs/ and ema
 const noFakes = { group: ["@/lib/fakes", "@/lib/fakes/**", "**/fakes/*"], message: "The local fakes are reached over the network; only tests and scripts import lib/fakes." };
 // Modules that a client component may import as values: pure ones without `server-only`.
 const serverLib = {
-  regex: "^@/lib/(?!care/|format$|validation/|claims/labels$|claims/states$|repairs/states$|repairs/lines$|owner/format$|owner/warranty$|claims/coverage-words$|clients/vocabulary$|plans/price-words$)",
+  regex: "^@/lib/(?!care/|format$|validation/|claims/labels$|claims/states$|repairs/states$|repairs/lines$|repairs/repropose$|owner/format$|owner/warranty$|claims/coverage-words$|clients/vocabulary$|plans/price-words$)",
   allowTypeImports: true,
   message: "components/ import server modules as types only (`import type`); pure helpers live in lib/care or the allowed list in eslint.config.mjs.",
 };

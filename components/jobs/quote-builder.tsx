@@ -15,6 +15,7 @@ import { M2_PER_FT2 } from "@/lib/care/units";
 import { CARE_TASK_KINDS, CARE_TASK_LABELS, SURFACE_LABELS, type Surface } from "@/lib/care/vocabulary";
 import { useReportQuoteDraft } from "@/components/jobs/quote-draft";
 import { LINE_KIND_LABELS, LINE_KINDS, LINE_SOURCE_LABELS, LINE_UNIT_LABELS, LINE_UNITS, parseMajorAmount, type LineDraft } from "@/lib/repairs/lines";
+import { reproposeLines } from "@/lib/repairs/repropose";
 
 type Product = { id: string; name: string; finishClassLabel: string };
 type Repair = { key: string; label: string };
@@ -38,6 +39,8 @@ export type TopOnlyChoice = { task: string; words: string; choices: { surface: S
 const QUANTITY = /^\s*\d{1,6}(\.\d{1,3})?\s*$/;
 /** Two form lines alike in everything staff can change. */
 const sameLine = (a: FormLine, b: FormLine) => a.description === b.description && a.quantity === b.quantity && a.unit === b.unit && a.unitPrice === b.unitPrice && a.kind === b.kind;
+/** What the last proposal did to a proposed line: kept staff's quantity and price, or changed them from these. */
+type LineMark = { was: "kept" } | { was: "changed"; quantity: number; unitPriceMinor: number };
 /** A checkbox group reads as a list whether one box or several exist. */
 const list = (x: unknown): string[] => (Array.isArray(x) ? x : typeof x === "string" ? [x] : []);
 
@@ -102,6 +105,8 @@ export function QuoteBuilder({
   const unit = areaUnit(units);
   const typedAreas = Object.fromEntries(Object.entries(initial.areasM2 ?? {}).map(([s, m2]) => [s, String(Number((m2 * unit.perM2).toFixed(2)))]));
   const [formError, setFormError] = useState<string | null>(null);
+  // After a proposal, by ref: the lines that kept staff's quantity and price, and those the proposal changed (with what they were).
+  const [marks, setMarks] = useState<Record<string, LineMark>>({});
   const toForm = (l: BuilderLine): FormLine => ({ ...l, quantity: String(l.quantity), unitPrice: formatMinorUnits(l.unitPriceMinor, currency) });
   const { alsoSurfaces, ...rest } = initial;
   const form = useForm<FormValues>({ defaultValues: { ...rest, coats: String(initial.coats), coveredPct: String(initial.coveredPct), lines: lines.map(toForm), areas: typedAreas, also: { ...alsoSurfaces } } });
@@ -115,14 +120,36 @@ export function QuoteBuilder({
         const saved = job.lines.map(toForm);
         // The boxes as saved: a task cleared since drops its choice, so ticking it again starts from the top alone.
         form.reset({ ...v, also: body.alsoSurfaces, lines: saved });
-        if (withLines) return void toast.success("Quote saved.");
-        // Proposing sends no lines, so the server keeps the typed lines last saved: typed lines added or
-        // changed here since stay in the form (unsaved, so the quote can't be sent before they are).
+        if (withLines) {
+          setMarks({});
+          return void toast.success("Quote saved.");
+        }
+        // Proposing sends no lines: the server lays the proposal over the lines last saved. Here it is laid
+        // over the form's lines as they stand (lib/repairs/repropose.ts, the server's rule), so a quantity or
+        // price changed since and not saved stays too, as typed lines added or changed here do (unsaved, so
+        // the quote can't be sent before they are).
+        const fresh = job.lines.filter((l) => l.source !== "typed").map((l) => ({ ...l, quantity: l.proposed?.quantity ?? l.quantity, unitPriceMinor: l.proposed?.unitPriceMinor ?? l.unitPriceMinor }));
+        const before = v.lines.map((l) => ({ ...l, quantity: Number(l.quantity), unitPriceMinor: parseMajorAmount(l.unitPrice, exponent) ?? Number.NaN }));
+        const merged = reproposeLines(before, fresh);
+        const proposedLines = merged.map(({ line, was }) => {
+          const mine = was === "kept" ? v.lines.find((l) => l.source !== "typed" && l.ref === line.ref) : undefined;
+          // A kept line keeps what staff typed in its two fields, as typed; the rest is the proposal's.
+          return mine ? { ...toForm(line), quantity: mine.quantity, unitPrice: mine.unitPrice } : toForm(line);
+        });
+        setMarks(Object.fromEntries(merged.flatMap(({ line, was, before: b }): [string, LineMark][] => (was === "kept" ? [[line.ref!, { was }]] : was === "changed" && b ? [[line.ref!, { was, quantity: b.quantity, unitPriceMinor: b.unitPriceMinor }]] : []))));
+        const next = [...proposedLines, ...v.lines.filter((l) => l.source === "typed")];
+        const same = next.length === saved.length && next.every((l, i) => sameLine(l, saved[i]!));
+        if (!same) fields.replace(next);
+        const kept = merged.some((m) => m.was === "kept");
         const typed = v.lines.filter((l) => l.source === "typed");
         const savedTyped = saved.filter((l) => l.source === "typed");
-        const same = typed.length === savedTyped.length && typed.every((l, i) => sameLine(l, savedTyped[i]!));
-        if (!same) fields.replace([...saved.filter((l) => l.source !== "typed"), ...typed]);
-        toast.success(same ? "Lines proposed from the tasks. Change hours or quantities, then save." : "Lines proposed from the tasks. Your typed lines are kept: save the quote to keep them.");
+        const typedSame = typed.length === savedTyped.length && typed.every((l, i) => sameLine(l, savedTyped[i]!));
+        const keptWords = [typedSame ? "" : "Your typed lines are kept", kept ? "Lines you changed keep your quantity and price" : ""].filter(Boolean).join(". ");
+        toast.success(
+          same
+            ? `Lines proposed from the tasks. ${kept ? "Lines you changed keep your quantity and price." : "Change hours or quantities, then save."}`
+            : `Lines proposed from the tasks. ${keptWords || "Your changes are kept"}: save the quote to keep them.`,
+        );
       },
       onError: (words, e, { v }) => {
         if (!isApiError(e)) return setFormError(words);
@@ -207,7 +234,7 @@ export function QuoteBuilder({
                 </li>
               ))}
             </ul>
-            <p className="mt-2">Ticking or clearing a box proposes the lines again: proposed lines go back to the proposal, and lines you typed yourself stay.</p>
+            <p className="mt-2">Ticking or clearing a box proposes the lines again: a proposed line whose quantity or price you changed keeps your change, and lines you typed yourself stay.</p>
           </Notice>
         ) : null}
 
@@ -275,7 +302,7 @@ export function QuoteBuilder({
             <Button type="button" variant="secondary" disabled={saving} onClick={submit(false)}>
               Propose lines
             </Button>
-            <p className="text-sm text-muted">Proposing replaces the proposed lines with fresh ones; lines you typed yourself stay.</p>
+            <p className="text-sm text-muted">Proposing replaces the proposed lines with fresh ones, keeping the quantity and price you changed on a line proposed again (remove the line first to take the proposal&apos;s); lines you typed yourself stay.</p>
           </div>
         </details>
 
@@ -289,6 +316,15 @@ export function QuoteBuilder({
                   <span>
                     {LINE_SOURCE_LABELS[f.source]}
                     {f.proposed ? ` · proposed ${f.proposed.quantity} ${LINE_UNIT_LABELS[f.unit]} at ${formatMoney(f.proposed.unitPriceMinor, currency, country)}` : ""}
+                    {(() => {
+                      const mark = f.ref ? marks[f.ref] : undefined;
+                      if (!mark) return null;
+                      return mark.was === "kept" ? (
+                        <span className="block font-medium text-ink">Your quantity and price kept</span>
+                      ) : (
+                        <span className="block font-medium text-ink">Changed by the proposal from {mark.quantity} {LINE_UNIT_LABELS[f.unit]} at {formatMoney(mark.unitPriceMinor, currency, country)}</span>
+                      );
+                    })()}
                   </span>
                   <Button type="button" variant="secondary" onClick={() => fields.remove(i)} aria-label={`Remove line ${i + 1}`}>
                     Remove

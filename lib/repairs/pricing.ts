@@ -11,6 +11,7 @@ import { recordedAreaM2, refreshedSurface, surfacesEndingIn, toCatalog } from "@
 import type { JobQuoteInput } from "@/lib/validation/jobs";
 import { priceLines, type JobLine, type LineDraft, type PlanDiscount, type PricedLines, type PricingRules, type StudioTax } from "./lines";
 import { entryNeedsArea, entrySurface, priceListOf, proposedQuantity } from "./price-list";
+import { reproposeLines, type LineBefore } from "./repropose";
 
 type Product = typeof finishProducts.$inferSelect;
 
@@ -239,16 +240,17 @@ export interface PricedJob extends PricedLines {
 
 /**
  * Prices a job: the proposal, and the lines as sent — `input.lines` when staff edited them, else the
- * proposal plus the typed lines the job already had (`keepTyped`). Each sent line carries what was
- * proposed for it (matched by ref), so the quote keeps both. A paid repair on a piece under a running
+ * proposal over the lines the job already had (`before`): a proposed line staff had edited keeps their
+ * quantity and price where its ref is proposed again (lib/repairs/repropose.ts), and the typed lines stay.
+ * Each sent line carries what was proposed for it (matched by ref), so the quote keeps both. A paid repair on a piece under a running
  * care plan with a repair discount (`planDiscount`, lib/plans/repair-discount) takes it off every line
  * after the warranty's share; the pricing rules name the plan so the quote can say so.
  */
-export function priceJob(studio: Studio, piece: PricedPiece, input: JobQuoteInput, products: Product[], keepTyped: readonly LineDraft[] = [], planDiscount: PlanDiscount | null = null): PricedJob {
+export function priceJob(studio: Studio, piece: PricedPiece, input: JobQuoteInput, products: Product[], before: readonly (LineDraft & LineBefore)[] = [], planDiscount: PlanDiscount | null = null): PricedJob {
   const opts = { currency: studio.currency, rounding: studio.roundingRule, tax: studioTax(studio), coveredPct: input.coveredPct, discountPct: planDiscount?.pct ?? 0 };
   const { lines: proposal, unsized } = proposeLines(studio, piece, input, products);
   const proposedLines = priceLines(proposal, opts).lines;
-  const sent = input.lines ?? [...proposal, ...keepTyped.filter((l) => l.source === "typed")];
+  const sent = input.lines ?? [...reproposeLines(before, proposal).map((r) => r.line), ...before.filter((l) => l.source === "typed")];
   const withProposed = sent.map((l) => {
     const p = l.ref ? proposal.find((x) => x.ref === l.ref) : undefined;
     const { kind, source, ref, description, quantity, unit, unitPriceMinor } = l;

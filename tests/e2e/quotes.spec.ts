@@ -125,9 +125,15 @@ test("staff price the desk's waxed base beside its top: a typed line kept, the b
   const typed = quoteLines(page).last();
   await typed.getByLabel(/^Line \d+: description$/).fill("Carry the desk from the window (invented)");
   await typed.getByLabel("Unit price (USD)").fill("20.00");
+  // The top's proposed 1 h changed to 1.5 h, not saved yet: the proposal the box sets off keeps it, and says
+  // so (it went back to 1 h before; lib/repairs/repropose.ts).
+  await (await lineWith(page, "Re-wax — labour")).getByLabel("Quantity").fill("1.5");
   // Ticked with no size for the base: the top alone is priced, named for it, and the base is listed as unsized.
   await base.check();
-  await expect(page.getByText("Your typed lines are kept: save the quote to keep them.")).toBeVisible();
+  await expect(page.getByText("Your typed lines are kept. Lines you changed keep your quantity and price: save the quote to keep them.")).toBeVisible();
+  const top = await lineWith(page, "Re-wax — top");
+  await expect(top.getByLabel("Quantity")).toHaveValue("1.5");
+  await expect(top.getByText("Your quantity and price kept")).toBeVisible();
   await expect(page.getByRole("status").filter({ hasText: "Some work has no size to price it from" })).toContainText("Re-wax: the work is on the base, and the piece's record has no size for the base, so no lines were proposed for it.");
   await lineWith(page, "Re-wax — top");
   await lineWith(page, "Carry the desk from the window (invented)");
@@ -143,7 +149,9 @@ test("staff price the desk's waxed base beside its top: a typed line kept, the b
   // demo — common practice, no published source), rounded up to the quarter hour, at the demo's $85.00/h.
   // Top 1,500 × 700 mm = 1.05 m²: 0.775 → 1 h. Base 0.5574 m²: 0.5287 → 0.75 h.
   await expect((await lineWith(page, "Re-wax — top")).getByText("Labour rate · proposed 1 h at $85.00")).toBeVisible();
+  await expect((await lineWith(page, "Re-wax — top")).getByLabel("Quantity")).toHaveValue("1.5");
   await expect((await lineWith(page, "Re-wax — base")).getByText("Labour rate · proposed 0.75 h at $85.00")).toBeVisible();
+  await expect((await lineWith(page, "Re-wax — base")).getByText("Your quantity and price kept")).toHaveCount(0);
   // Wax: (1.05 + 0.5574) m² × 1 coat ÷ 20 m²/L = 80.4 mL → one 200 mL tin at $16.00 (lib/care/quantity.ts); a tin
   // a surface (52.5 mL and 27.9 mL) would have been two.
   await expect((await lineWith(page, "Clear paste wax, 6.8 US fl oz (200 mL) — top and base")).getByText("Catalog product · proposed 1 container at $16.00")).toBeVisible();
@@ -164,18 +172,18 @@ test("staff price the desk's waxed base beside its top: a typed line kept, the b
   expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
   await page.setViewportSize({ width: 1280, height: 900 });
 
-  // Sent as shown: $85.00 + $63.75 + $16.00 + $20.00 = $184.75 before tax.
+  // Sent as shown: 1.5 h × $85.00 = $127.50, + $63.75 + $16.00 + $20.00 = $227.25 before tax.
   await send.click();
   await expect(page.getByText("Quote sent to the owner.")).toBeVisible();
   const { job } = (await (await page.request.get(`/api/jobs/${jobId}`)).json()) as { job: { state: string; lines: { description: string; quantity: number; amountMinor: number }[]; totals: { subtotalMinor: number } } };
   expect(job.state).toBe("quoted");
   expect(job.lines.map((l) => [l.description, l.quantity, l.amountMinor])).toEqual([
-    ["Re-wax — top", 1, 8500],
+    ["Re-wax — top", 1.5, 12750],
     ["Re-wax — base", 0.75, 6375],
     ["Clear paste wax, 6.8 US fl oz (200 mL) — top and base", 1, 1600],
     ["Carry the desk from the window (invented)", 1, 2000],
   ]);
-  expect(job.totals.subtotalMinor).toBe(18_475);
+  expect(job.totals.subtotalMinor).toBe(22_725);
 
   // Re-wax cleared and proposed, then chosen again: its base box starts cleared, as the lines do (the
   // box stayed ticked over a top-only proposal before).

@@ -398,3 +398,25 @@ describe("an inspection proposes no product, a refresh does", () => {
   });
 });
 
+// Proposing again (no lines sent) lays the proposal over the lines last saved (lib/repairs/repropose.ts).
+describe("proposing again keeps the hours and prices staff changed", () => {
+  it("the base ticked after the top's hours were changed and saved: the top keeps them, the base is proposed", async () => {
+    const { staff, job, oil, piece } = await pieceWithOiledBase();
+    oilTopAndBase(piece);
+    const first = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id] }));
+    // Top: 0.5 h + 0.5 h/m² × 1.8 m² = 1.4 → 1.5 h proposed; staff make it 2 h and the tin $17.50, and save.
+    const edited = first.lines.map(({ kind, source, ref, description, quantity, unit, unitPriceMinor }) => ({ kind, source, ref, description, unit, quantity: ref === "task:reoil" ? 2 : quantity, unitPriceMinor: kind === "materials" ? 1750 : unitPriceMinor }));
+    await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], lines: edited }));
+    const again = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], areasM2: { base: 0.6 }, alsoSurfaces: { reoil: ["base"] } }));
+    // Before: the top went back to 1.5 h and the tin to $19.00. Base: 0.5 + 0.3 = 0.8 → 1 h. Oil: (1.8 + 0.6) m² × 2 ÷ 24 = 200 mL → 2 tins, at staff's $17.50.
+    expect(again.lines.map((l) => [l.ref, l.description, l.quantity, l.unitPriceMinor, l.proposed])).toEqual([
+      ["task:reoil", "Re-oil — top", 2, 8500, { quantity: 1.5, unitPriceMinor: 8500 }],
+      ["task:reoil:base", "Re-oil — base", 1, 8500, { quantity: 1, unitPriceMinor: 8500 }],
+      [`product:${oil.id}:125`, "Test hardwax oil (invented), 125 mL — top and base", 2, 1750, { quantity: 2, unitPriceMinor: 1900 }],
+    ]);
+    expect(again.totalMinor).toBe(17_000 + 8500 + 3500);
+    // Lines left as proposed follow the proposal: the base's 1 h goes to 1.25 h at a typed 1.2 m² (0.5 + 0.6 = 1.1 → 1.25 h).
+    const bigger = await updateJobQuote(staff, job.id, quote({ tasks: ["reoil"], productIds: [oil.id], areasM2: { base: 1.2 }, alsoSurfaces: { reoil: ["base"] } }));
+    expect(bigger.lines.filter((l) => l.kind === "labour").map((l) => [l.ref, l.quantity])).toEqual([["task:reoil", 2], ["task:reoil:base", 1.25]]);
+  });
+});
