@@ -26,7 +26,7 @@ const WEEK: VisitSpec[] = [
   { piece: "White oak kitchen island top", title: "Annual check, island top", tasks: ["annual_check"], state: "covered", tech: "ines", dayOffset: 0, at: "09:00" },
   // The desk's top and legs are both waxed (db/seed/demo.ts), so the re-wax prices the top and, ticked, the
   // base: its legs and rails, one face 0.5 m² as staff typed it (invented).
-  { piece: "Cherry writing desk", title: "Re-wax the desk top and legs", tasks: ["rewax"], state: "paid", tech: "ines", dayOffset: 0, at: "13:00", areasM2: { base: 0.5 }, alsoSurfaces: { rewax: ["base"] } },
+  { piece: "Cherry writing desk", title: "Re-wax the desk legs and top", tasks: ["rewax"], state: "paid", tech: "ines", dayOffset: 0, at: "13:00", areasM2: { base: 0.5 }, alsoSurfaces: { rewax: ["base"] } },
   { piece: "Charred cedar garden bench", title: "Inspect the bench after the storm", tasks: ["annual_check"], state: "covered", tech: "sol", dayOffset: 1, at: "10:00" },
   { piece: "Spalted maple coffee table, blue resin", title: "Polish a scuff in the blue resin", tasks: ["resin_polish"], state: "paid", tech: "sol", dayOffset: 2, at: "14:00" },
   { piece: "Walnut river dining table", title: "Check the resin edge, dining table", tasks: ["annual_check"], state: "covered", tech: "ines", dayOffset: 3, at: "10:30" },

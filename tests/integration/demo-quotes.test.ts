@@ -42,7 +42,7 @@ describe("the demo's quotes", () => {
   });
 
   it("the desk's re-wax visit prices the top and the legs, and the technician's sheet names both", () => {
-    const job = jobOn("Cherry writing desk", "Re-wax the desk top and legs");
+    const job = jobOn("Cherry writing desk", "Re-wax the desk legs and top");
     // Re-wax labour: 0.25 h + 0.5 h/m² (lib/care/quote DEFAULT_LABOUR, invented for the demo — common practice, no
     // published source), quarter hours rounded up. Top 1,500 × 700 mm = 1.05 m²: 0.775 → 1 h. Base as typed, 0.5 m²: 0.5 h.
     expect(readLines(job.lines).filter((l) => l.kind === "labour").map((l) => [l.description, l.quantity])).toEqual([
