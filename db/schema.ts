@@ -721,7 +721,8 @@ export type JobRefund = typeof jobRefunds.$inferSelect;
  * A payment page that must be closed at Stripe because its job no longer waits for that payment: its
  * piece changed hands (lib/repairs/handed-on.ts). Written in the release's own transaction, before Stripe
  * is asked, so a close Stripe didn't answer is tried again by the scheduler's pass (jobs/checkout-closes.ts)
- * until Stripe confirms it (`outcome` "closed") or the page has expired on its own ("expired").
+ * until Stripe confirms it (`outcome` "closed"; "paid" when the owner paid first), the page has expired on its own ("expired"),
+ * or Stripe refused the close ("refused", not asked again).
  */
 export const checkoutCloses = sqliteTable(
   "checkout_closes",
@@ -735,7 +736,7 @@ export const checkoutCloses = sqliteTable(
     expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
     tries: integer("tries").notNull().default(0),
     lastTriedAt: integer("last_tried_at", { mode: "timestamp_ms" }),
-    outcome: text("outcome", { enum: ["closed", "expired"] }),
+    outcome: text("outcome", { enum: ["closed", "expired", "paid", "refused"] }),
     settledAt: integer("settled_at", { mode: "timestamp_ms" }),
     createdAt: createdAt(),
   },

@@ -16,11 +16,12 @@
 // visits), in the one staff mail the release sends (lib/owner/transfer.ts, emails/piece-released.tsx).
 import { and, asc, eq, inArray, isNull, notInArray, or } from "drizzle-orm";
 import { getDb, type Tx } from "@/db/client";
-import { checkoutCloses, claims, payments, repairJobs, users, visits, type Claim, type RepairJob } from "@/db/schema";
+import { checkoutCloses, claims, payments, repairJobs, users, visits, type CheckoutClose, type Claim, type Payment, type RepairJob } from "@/db/schema";
+import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit";
 import { OPEN_STATES, type ClaimState } from "@/lib/claims/states";
 import { CLAIM_CATEGORY_LABELS, CLAIM_STATE_LABELS_STAFF } from "@/lib/claims/labels";
-import { formatVisitWhen } from "@/lib/format";
+import { formatInstant, formatVisitWhen } from "@/lib/format";
 import { expireCheckoutSession } from "@/lib/payments/stripe";
 import { applySession } from "./checkout";
 import { moveJob } from "./jobs";
@@ -83,15 +84,25 @@ export function recordCheckoutCloses(tx: Tx, jobIds: readonly string[]): string[
   return ids;
 }
 
-/** What one run of closeDueCheckouts did: pages Stripe closed, pages that expired on their own, and closes Stripe didn't answer (tried again later). */
-export type CheckoutClosesResult = { closed: string[]; expired: string[]; failed: string[] };
+/**
+ * What one run of closeDueCheckouts did: pages Stripe closed, pages that expired on their own, pages the
+ * former owner paid before the close (refunded automatically, lib/repairs/checkout.ts applySession),
+ * closes Stripe refused (a 4xx: asked no more) and closes Stripe didn't answer (tried again later).
+ */
+export type CheckoutClosesResult = { closed: string[]; expired: string[]; paid: string[]; refused: string[]; failed: string[] };
+
+/** A payment row the owner paid at Stripe (whatever became of it after: refunded or not). */
+const PAID_STATUSES: readonly Payment["status"][] = ["paid", "partially_refunded", "refunded"];
 
 /**
  * Closes at Stripe each recorded page not yet settled (`ids`: only those, as the release does; the
  * scheduler's pass: all of them). A page already settled here (paid, expired by its webhook) is just marked; one past its expiry is
  * marked expired without asking Stripe; otherwise Stripe is asked to expire it, and what it answers is
  * applied to the payment (lib/repairs/checkout.ts applySession: a page the owner paid first is refunded
- * automatically). Never throws: a close Stripe didn't answer stays due, and is counted in `failed`.
+ * automatically, and the close settles as "paid"). A close Stripe refuses (a 4xx: no such page under
+ * this key, a key it no longer accepts) would be refused again on every pass: it settles as "refused",
+ * with an audit row in words, and the staff job page says so (checkoutCloseWords). Never throws: a close
+ * Stripe didn't answer stays due, and is counted in `failed`.
  */
 export async function closeDueCheckouts({ now = new Date(), ids }: { now?: Date; ids?: readonly string[] } = {}): Promise<CheckoutClosesResult> {
   const db = getDb();
@@ -102,31 +113,73 @@ export async function closeDueCheckouts({ now = new Date(), ids }: { now?: Date;
     .where(and(isNull(checkoutCloses.settledAt), ids ? inArray(checkoutCloses.id, [...ids]) : undefined))
     .orderBy(asc(checkoutCloses.createdAt))
     .all();
-  const out: CheckoutClosesResult = { closed: [], expired: [], failed: [] };
-  const settle = (id: string, outcome: "closed" | "expired") =>
+  const out: CheckoutClosesResult = { closed: [], expired: [], paid: [], refused: [], failed: [] };
+  const settle = (id: string, outcome: NonNullable<CheckoutClose["outcome"]>) => {
     db.update(checkoutCloses).set({ outcome, settledAt: new Date() }).where(and(eq(checkoutCloses.id, id), isNull(checkoutCloses.settledAt))).run();
+    out[outcome].push(id);
+  };
+  /** Closed, or paid first, as the payment row reads now. */
+  const settleAsRead = (close: CheckoutClose) => {
+    const status = db.select({ status: payments.status }).from(payments).where(eq(payments.id, close.paymentId)).get()?.status;
+    settle(close.id, status && PAID_STATUSES.includes(status) ? "paid" : "closed");
+  };
   for (const { close, payment } of due) {
     if (payment.status !== "open") {
-      settle(close.id, "closed");
-      out.closed.push(close.id);
+      settleAsRead(close);
       continue;
     }
     if (close.expiresAt.getTime() <= now.getTime()) {
       settle(close.id, "expired");
-      out.expired.push(close.id);
       continue;
     }
-    db.update(checkoutCloses).set({ tries: close.tries + 1, lastTriedAt: new Date() }).where(eq(checkoutCloses.id, close.id)).run();
+    const tries = close.tries + 1;
+    db.update(checkoutCloses).set({ tries, lastTriedAt: new Date() }).where(eq(checkoutCloses.id, close.id)).run();
     try {
       await applySession(await expireCheckoutSession(payment.checkoutSessionId, payment));
-      settle(close.id, "closed");
-      out.closed.push(close.id);
+      settleAsRead(close);
     } catch (e) {
-      console.error(`closing payment page ${payment.checkoutSessionId} at Stripe failed (try ${close.tries + 1}); the scheduler's pass tries again, and a payment made there meanwhile is refunded automatically`, e);
+      // A refusal (lib/payments/stripe.ts callStripe: a 409 with Stripe's words) will not change on asking again.
+      if (e instanceof AppError && e.status !== 503) {
+        db.transaction((tx) =>
+          recordAudit(tx, {
+          studioId: payment.studioId,
+          actorId: null,
+          action: "payment.close_refused",
+          subjectType: "payment",
+          subjectId: payment.id,
+          data: { reason: `${e.message} Not asked again; the page closes on its own when it expires.`, checkoutSessionId: payment.checkoutSessionId, jobId: payment.jobId, tries },
+          }),
+        );
+        settle(close.id, "refused");
+        continue;
+      }
+      console.error(`closing payment page ${payment.checkoutSessionId} at Stripe failed (try ${tries}); the scheduler's pass tries again, and a payment made there meanwhile is refunded automatically`, e);
       out.failed.push(close.id);
     }
   }
   return out;
+}
+
+/**
+ * What the staff job page says about the payment pages a release of the piece asked Stripe to close, if
+ * anything: one the former owner paid before it closed (the payment goes back to them automatically,
+ * the payments list shows it), and one Stripe refused to close (closeDueCheckouts), with when it expires
+ * on its own in the studio's zone.
+ */
+export function checkoutCloseWords(studioId: string, jobId: string, timeZone: string, formerOwnerName: string | null): string[] {
+  const rows = getDb()
+    .select({ outcome: checkoutCloses.outcome, expiresAt: checkoutCloses.expiresAt, openedAt: payments.createdAt })
+    .from(checkoutCloses)
+    .innerJoin(payments, eq(payments.id, checkoutCloses.paymentId))
+    .where(and(eq(checkoutCloses.studioId, studioId), eq(payments.studioId, studioId), eq(payments.jobId, jobId), inArray(checkoutCloses.outcome, ["paid", "refused"])))
+    .orderBy(asc(checkoutCloses.createdAt))
+    .all();
+  const who = formerOwnerName ?? "the former owner";
+  return rows.map((r) => {
+    const opened = formatInstant(r.openedAt, timeZone, { time: true });
+    if (r.outcome === "paid") return `${formerOwnerName ?? "The former owner"} paid on the payment page opened ${opened} before it could be closed. That payment does not count toward this job and goes back to them automatically: see Payments.`;
+    return `The payment service refused to close the payment page opened ${opened}, so it is not asked again. The page stays open until ${formatInstant(r.expiresAt, timeZone, { time: true })}; if ${who} pays on it before then, the payment goes back to them automatically.`;
+  });
 }
 
 /** The job was set back by a hand-over and waits for staff: a sent quote being priced again, its owner no longer holding the piece. */

@@ -52,6 +52,7 @@ const ACTION_LABELS: Record<string, string> = {
   "job.refunded": "Money given back on a repair",
   "payment.refunded": "Refund issued",
   "payment.refund_due": "Refund owed: the payment service refused it",
+  "payment.close_refused": "Payment page close refused by the payment service: not asked again, the page expires on its own",
   "client.created": "Client added",
   "client.updated": "Client details changed",
   "client.exported": "Client's data exported",

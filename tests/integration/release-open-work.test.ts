@@ -4,12 +4,13 @@
 // that when nothing is open); a payment page Stripe didn't close at the release is closed by the
 // scheduler's pass (jobs/checkout-closes.ts) or left to expire; and an open claim stays with the studio,
 // the new owner never seeing its words or photos. Real SQLite file, the real stripe SDK against the local
-// Stripe fake over HTTP (its failNext switch makes one call answer as an outage would), the SMTP sink.
+// Stripe fake over HTTP (its failNext switch makes one call answer as an outage would; a page it doesn't
+// know under the key is a 404 refusal), the SMTP sink.
 // Invented studios, owners and pieces.
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { checkoutCloses, claims, payments, repairJobs, studios, type Studio } from "@/db/schema";
+import { auditLog, checkoutCloses, claims, payments, repairJobs, studios, type Studio } from "@/db/schema";
 import { checkoutClosesJob } from "@/jobs/checkout-closes";
 import { addClaimPhoto } from "@/lib/claims/photos";
 import { postClaimMessage } from "@/lib/claims/reply";
@@ -19,14 +20,15 @@ import { canViewFile, getFileForViewer } from "@/lib/files/access";
 import { ownerConversations } from "@/lib/messages/service";
 import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
-import { claimHandedOnWords, closeDueCheckouts } from "@/lib/repairs/handed-on";
+import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
+import { checkoutCloseWords, claimHandedOnWords, closeDueCheckouts } from "@/lib/repairs/handed-on";
 import { approveJob } from "@/lib/repairs/payment";
 import { bookVisit } from "@/lib/visits/book";
 import { listJobSlots } from "@/lib/visits/slots";
 import { putTechnicianHours } from "@/lib/visits/technicians";
 import { createAcceptedClaim, createProduct, createStudio, createUser, memberContext, unique } from "../support/fixtures";
 import { extractLinks, listMail, waitForMail } from "../support/mail";
-import { plansStripeForFile } from "../support/plans-stripe";
+import { plansStripeForFile, until } from "../support/plans-stripe";
 import { quotedRepairJob } from "../support/repair-quote";
 import { fileClaim, claimWorld, photoJpeg } from "./claims-helpers";
 import { addJob, statusOf, WEEKDAYS_9_TO_5 } from "./visits-helpers";
@@ -139,7 +141,7 @@ describe("a payment page Stripe didn't close at the release", () => {
     await releasePiece(w.owner, w.job.pieceId, { confirm: true });
     const due = closeOf(w.payment.id)!;
     const later = new Date(w.payment.createdAt.getTime() + 24 * 3600_000 + 1);
-    expect(await closeDueCheckouts({ now: later, ids: [due.id] })).toEqual({ closed: [], expired: [due.id], failed: [] });
+    expect(await closeDueCheckouts({ now: later, ids: [due.id] })).toEqual({ closed: [], expired: [due.id], paid: [], refused: [], failed: [] });
     expect(closeOf(w.payment.id)).toMatchObject({ tries: 1, outcome: "expired" });
     expect(expireCalls(sid)).toBe(1);
   });
@@ -149,6 +151,60 @@ describe("a payment page Stripe didn't close at the release", () => {
     await releasePiece(w.owner, w.job.pieceId, { confirm: true });
     expect(sessionAtFake(w.payment.checkoutSessionId).status).toBe("expired");
     expect(closeOf(w.payment.id)).toMatchObject({ tries: 1, outcome: "closed" });
+  });
+});
+
+describe("a payment page close Stripe refuses, or a page paid before it closed", () => {
+  it("a refusal (a 4xx) settles at the release as refused, in words in the audit log and on the job page, and the pass asks no more", async () => {
+    const w = await approvedWorld("release-close-refused");
+    // A page Stripe no longer knows under this key: the fake answers 404 "No such checkout.session".
+    const gone = `cs_test_gone${unique("x").replace(/[^a-z0-9]/gi, "")}`;
+    getDb().update(payments).set({ checkoutSessionId: gone }).where(eq(payments.id, w.payment.id)).run();
+
+    await releasePiece(w.owner, w.job.pieceId, { confirm: true });
+    const close = closeOf(w.payment.id)!;
+    expect(close).toMatchObject({ tries: 1, outcome: "refused", settledAt: expect.any(Date) });
+    expect(expireCalls(gone)).toBe(1);
+    const audit = getDb().select().from(auditLog).where(and(eq(auditLog.subjectId, w.payment.id), eq(auditLog.action, "payment.close_refused"))).all();
+    expect(audit).toHaveLength(1);
+    expect((audit[0]!.data as { reason: string }).reason).toMatch(/^The payment service refused to close the open payment page: No such checkout\.session: .+ Not asked again; the page closes on its own when it expires\.$/);
+
+    // The scheduler's passes (every 5 minutes) leave it alone: no second ask, no second audit row.
+    expect((await checkoutClosesJob()).filter((l) => l.includes(close.id))).toEqual([]);
+    expect((await checkoutClosesJob(new Date(Date.now() + 3600_000))).filter((l) => l.includes(close.id))).toEqual([]);
+    expect(expireCalls(gone)).toBe(1);
+    expect(closeOf(w.payment.id)).toMatchObject({ tries: 1, outcome: "refused" });
+
+    // The staff job page says so, the page's times in the studio's zone.
+    const words = checkoutCloseWords(w.studio.id, w.job.id, w.studio.timeZone, "Test Person");
+    expect(words).toHaveLength(1);
+    expect(words[0]).toMatch(/^The payment service refused to close the payment page opened \d{1,2} [A-Z][a-z]+ \d{4}(?:,| at) \d\d:\d\d P[DS]T, so it is not asked again\. The page stays open until .+ P[DS]T; if Test Person pays on it before then, the payment goes back to them automatically\.$/);
+    // Scoped to the studio: another studio's id reads nothing.
+    expect(checkoutCloseWords(createStudio().id, w.job.id, "UTC", null)).toEqual([]);
+  });
+
+  it("a page the former owner paid before the pass closed it settles as paid, the staff job page says so, and the payment is refunded automatically", async () => {
+    const w = await approvedWorld("release-close-paid");
+    const sid = w.payment.checkoutSessionId;
+    stripe.fake.failNext("POST", `/v1/checkout/sessions/${sid}/expire`);
+    await releasePiece(w.owner, w.job.pieceId, { confirm: true });
+    const due = closeOf(w.payment.id)!;
+    expect(due).toMatchObject({ tries: 1, outcome: null });
+
+    // The former owner pays on the page still open at Stripe; its webhook gives the money back.
+    const paid = await fetch(w.payment.checkoutUrl!, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
+    expect(paid.status).toBe(303);
+    const refunded = await until(() => paymentsOf(w.job.id).find((p) => p.status === "refunded"));
+    expect(refunded.refundReason).not.toBeNull();
+    expect(refunded.refundRequestedAt).toEqual(expect.any(Date));
+
+    const lines = await checkoutClosesJob();
+    expect(lines).toContain(`payment page close ${due.id}: the former owner paid first; the payment is refunded automatically`);
+    expect(closeOf(w.payment.id)).toMatchObject({ outcome: "paid", settledAt: expect.any(Date) });
+    expect(expireCalls(sid)).toBe(1);
+    expect(checkoutCloseWords(w.studio.id, w.job.id, w.studio.timeZone, "Test Person")).toEqual([
+      expect.stringMatching(/^Test Person paid on the payment page opened .+ P[DS]T before it could be closed\. That payment does not count toward this job and goes back to them automatically: see Payments\.$/),
+    ]);
   });
 });
 

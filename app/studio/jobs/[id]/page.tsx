@@ -17,7 +17,7 @@ import { FINISH_CLASS_LABELS, type CareTaskKind } from "@/lib/care/vocabulary";
 import { currencyExponent } from "@/lib/care/quote";
 import { jobFigures } from "@/lib/repairs/figures";
 import { getStudioJob } from "@/lib/repairs/jobs";
-import { handedOnWords } from "@/lib/repairs/handed-on";
+import { checkoutCloseWords, handedOnWords } from "@/lib/repairs/handed-on";
 import { priceListOf } from "@/lib/repairs/price-list";
 import { alsoSurfaceLabel, topOnlyWords, unsizedWords } from "@/lib/repairs/pricing";
 import { refundableOf, refundRows, refundsOfJob } from "@/lib/repairs/refund-rows";
@@ -46,6 +46,8 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
   const refundable = refundableOf(job, payments, refunds);
   const refunded = refundRows(payments, refunds, studio.timeZone, studio.country);
   const handedOn = handedOnWords(job, piece, owner?.name ?? null);
+  // Payment pages a release of the piece asked Stripe to close: one paid first, or one Stripe refused to close.
+  const closeWords = checkoutCloseWords(studio.id, job.id, studio.timeZone, owner?.name ?? null);
   return (
     <>
       <PageHeader
@@ -60,9 +62,12 @@ export default async function StudioJobPage({ params }: { params: Promise<{ id: 
           </Link>
         </p>
       ) : null}
-      {handedOn ? (
-        <Notice tone="info" title="The piece changed hands" className="mb-4">
-          {handedOn}
+      {handedOn || closeWords.length ? (
+        <Notice tone={closeWords.length ? "warn" : "info"} title="The piece changed hands" className="mb-4">
+          {handedOn ? <p>{handedOn}</p> : null}
+          {closeWords.map((w) => (
+            <p key={w}>{w}</p>
+          ))}
         </Notice>
       ) : null}
       <QuoteDraftProvider>
