@@ -219,6 +219,28 @@ export function claimHandedOnWords(claim: Pick<Claim, "state" | "ownerId">, piec
   return `It changed hands after this claim was accepted. ${reach} ${hasJob ? "Its repair job's page says what to do next." : "Once the new owner has registered the piece, they can file a claim of their own for the repair."}`;
 }
 
+/**
+ * The staff claim page's two notes on a claim whose owner no longer holds its piece: "The piece changed
+ * hands" (claimHandedOnWords: why, and what to do next) and, on an accepted claim with no repair job, the
+ * "No repair job for this claim" box, which then says only that no job can be opened, so the two don't
+ * say the same thing twice. `refusal` is the box's words when a job can't be opened (lib/repairs/jobs.ts
+ * handedOnRefusal), shown whole only when there is no note above to say the rest.
+ */
+export function claimHandedOnNotes(
+  claim: Pick<Claim, "state" | "ownerId">,
+  piece: { ownerId: string | null },
+  formerOwnerName: string,
+  hasJob: boolean,
+  refusal: string | null,
+): { changedHands: string | null; noJob: string | null } {
+  const changedHands = claimHandedOnWords(claim, piece, formerOwnerName, hasJob);
+  const noJob = claim.state === "accepted" && !hasJob && refusal ? (changedHands ? CLAIM_NO_JOB_WORDS : refusal) : null;
+  return { changedHands, noJob };
+}
+
+/** The "No repair job for this claim" box under "The piece changed hands" (claimHandedOnNotes). */
+export const CLAIM_NO_JOB_WORDS = "A repair job can't be opened from this claim now that its piece has changed hands.";
+
 /** Claims that need nothing more from the studio. */
 const SETTLED_CLAIM_STATES: readonly ClaimState[] = ["declined", "closed"];
 /** Jobs the release leaves with the studio besides those it set back: a sent quote, and work paid for, covered or booked. */

@@ -21,7 +21,8 @@ import { ownerConversations } from "@/lib/messages/service";
 import { registerPiece } from "@/lib/owner/registration";
 import { releasePiece } from "@/lib/owner/transfer";
 import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
-import { checkoutCloseWords, claimHandedOnWords, closeDueCheckouts } from "@/lib/repairs/handed-on";
+import { checkoutCloseWords, claimHandedOnNotes, claimHandedOnWords, closeDueCheckouts } from "@/lib/repairs/handed-on";
+import { handedOnRefusal } from "@/lib/repairs/jobs";
 import { approveJob } from "@/lib/repairs/payment";
 import { bookVisit } from "@/lib/visits/book";
 import { listJobSlots } from "@/lib/visits/slots";
@@ -241,5 +242,24 @@ describe("an open claim on a piece that changed hands", () => {
     const former = getOwnerClaim(w.owner, claim.id);
     expect(former.mayWrite).toBe(false);
     expect(former.photos.map((p) => p.id)).toEqual([photo.id]);
+  });
+
+  it("accepted with no repair job: the claim page's notice and its 'No repair job' box say each thing once", async () => {
+    const w = await claimWorld({ studio: { email: `${unique("release-accepted-nojob")}@test.example` } });
+    const accepted = createAcceptedClaim(w.studio, w.piece.id, w.owner.id, "chargeable");
+    await releasePiece(w.owner, w.piece.id, { confirm: true });
+    const v = getStaffClaim(w.staffCtx, accepted.id);
+    const claim = { state: v.claim.state, ownerId: v.owner.id };
+    const notes = claimHandedOnNotes(claim, v.piece, v.owner.name, !!v.repair, handedOnRefusal("claim", claim, v.piece));
+    expect(notes.changedHands).toMatch(/^It changed hands after this claim was accepted\. .+ can no longer add to it or approve, pay for or book a repair.+file a claim of their own for the repair\.$/);
+    expect(notes.noJob).toBe("A repair job can't be opened from this claim now that its piece has changed hands.");
+    // No run of four words of the box is in the notice (the box used to repeat "can't approve, pay or book
+    // a repair" and "file a claim of their own").
+    const runs = (t: string) => { const w4 = t.toLowerCase().replace(/[^a-z' ]/g, " ").split(/\s+/).filter(Boolean); return w4.slice(3).map((_, i) => w4.slice(i, i + 4).join(" ")); };
+    const notice = runs(notes.changedHands!).join("|");
+    expect(runs(notes.noJob!).filter((r) => notice.includes(r))).toEqual([]);
+    // With a job, or while its owner still holds the piece, there is no box.
+    expect(claimHandedOnNotes(claim, v.piece, v.owner.name, true, handedOnRefusal("claim", claim, v.piece)).noJob).toBeNull();
+    expect(claimHandedOnNotes(claim, { ownerId: v.owner.id }, v.owner.name, false, handedOnRefusal("claim", claim, { ownerId: v.owner.id }))).toEqual({ changedHands: null, noJob: null });
   });
 });

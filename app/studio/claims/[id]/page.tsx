@@ -17,7 +17,7 @@ import { SUGGESTION_LABELS } from "@/lib/claims/coverage-words";
 import { CLAIM_CATEGORY_LABELS, decisionText } from "@/lib/claims/labels";
 import { getStaffClaim } from "@/lib/claims/view-claim";
 import { clientIdForOwner } from "@/lib/clients/get";
-import { claimHandedOnWords } from "@/lib/repairs/handed-on";
+import { claimHandedOnNotes } from "@/lib/repairs/handed-on";
 import { handedOnRefusal } from "@/lib/repairs/jobs";
 
 export const metadata: Metadata = { title: "Claim" };
@@ -46,7 +46,8 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
   // The piece changed hands since the claim was filed: no job can be opened from it (lib/repairs/jobs.ts).
   const handedOn = handedOnRefusal("claim", { ownerId: owner.id }, piece);
   // Who follows the claim up once its owner has handed the piece on (lib/repairs/handed-on.ts): the studio.
-  const changedHands = claimHandedOnWords({ state: claim.state, ownerId: owner.id }, piece, owner.name, !!v.repair);
+  // The "No repair job" box then says only that no job can be opened; the notice says the rest.
+  const { changedHands, noJob } = claimHandedOnNotes({ state: claim.state, ownerId: owner.id }, piece, owner.name, !!v.repair, handedOn);
   const a = claim.answers;
   const room = a.room;
   const waited = claim.waitMs;
@@ -153,9 +154,9 @@ export default async function StudioClaimPage({ params }: { params: Promise<{ id
                       </p>
                     ) : null}
                   </>
-                ) : claim.state === "accepted" && handedOn ? (
+                ) : noJob ? (
                   <Notice tone="warn" title="No repair job for this claim">
-                    {handedOn}
+                    {noJob}
                   </Notice>
                 ) : claim.state === "accepted" ? (
                   <>
