@@ -2,7 +2,7 @@
 // people who shouldn't move money or with bodies nobody should send: a staff member removed from the
 // studio, another studio's admin, amounts that are zero, negative, fractional, text or huge. Each is a
 // 4xx with words and no request reaches Stripe. A real session in the test database (next/headers holds
-// its cookie, as in tests/integration/request-actions.test.ts); the real Stripe fake over HTTP. Invented.
+// its cookie: tests/support/session-jar.ts); the real Stripe fake over HTTP. Invented.
 import { and, eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import { beforeEach, describe, expect, it, vi } from "vitest";
@@ -10,32 +10,18 @@ import { POST as approveRoute } from "@/app/api/jobs/[id]/approve/route";
 import { POST as refundRoute } from "@/app/api/jobs/[id]/refund/route";
 import { getDb } from "@/db/client";
 import { memberships, type Studio } from "@/db/schema";
-import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
-import { sha256Hex, randomToken } from "@/lib/crypto";
 import { SUCCESS_CARD } from "@/lib/fakes/stripe-fake";
 import { getOwnerJob, getStudioJob } from "@/lib/repairs/jobs";
 import { approveJob } from "@/lib/repairs/payment";
+import { jar, signInToJar } from "../support/session-jar";
 import { createStudio, memberContext, unique } from "../support/fixtures";
 import { plansStripeForFile, until } from "../support/plans-stripe";
 import { quotedRepairJob } from "../support/repair-quote";
 
-const jar = vi.hoisted(() => new Map<string, string>());
-vi.mock("next/headers", () => ({
-  cookies: async () => ({
-    get: (name: string) => (jar.has(name) ? { name, value: jar.get(name)! } : undefined),
-    set: (name: string, value: string) => (value ? jar.set(name, value) : jar.delete(name)),
-  }),
-  headers: async () => new Headers(),
-}));
+vi.mock("next/headers", () => import("../support/session-jar").then((m) => m.nextHeaders));
 beforeEach(() => jar.clear());
 
 const stripe = plansStripeForFile();
-
-async function signIn(userId: string) {
-  const token = randomToken(24);
-  await getLucia().createSession(userId, {}, { sessionId: sha256Hex(token) });
-  jar.set(SESSION_COOKIE, token);
-}
 
 async function call(handler: typeof refundRoute, path: string, params: Record<string, string>, body: unknown) {
   const req = new NextRequest(`http://localhost:3999${path}`, { method: "POST", body: typeof body === "string" ? body : JSON.stringify(body), headers: { "content-type": "application/json" } });
@@ -62,13 +48,13 @@ describe("giving money back on a job, by the wrong people or with the wrong amou
     const before = refundCalls();
 
     // Removed from the studio after the page was opened: the same session is refused.
-    await signIn(staff.user.id);
+    await signInToJar(staff.user.id);
     getDb().delete(memberships).where(and(eq(memberships.userId, staff.user.id), eq(memberships.studioId, studio.id))).run();
     const removed = await call(refundRoute, `/api/jobs/${job.id}/refund`, { id: job.id }, ask);
     expect([401, 403, 404]).toContain(removed.status);
 
     const other = await memberContext(createStudio({ email: `${unique("other")}@test.example` }), "admin");
-    await signIn(other.user.id);
+    await signInToJar(other.user.id);
     const stranger = await call(refundRoute, `/api/jobs/${job.id}/refund`, { id: job.id }, ask);
     expect(stranger.status).toBe(404);
     expect(refundCalls()).toBe(before);
@@ -77,7 +63,7 @@ describe("giving money back on a job, by the wrong people or with the wrong amou
   it("zero, negative, fractional, text, huge or missing amounts are a 400 with words; nothing reaches Stripe", async () => {
     const studio = createStudio({ email: `${unique("refund-what")}@test.example`, taxRateBp: 0 });
     const { staff, job } = await paidJob(studio);
-    await signIn(staff.user.id);
+    await signInToJar(staff.user.id);
     const base = { version: job.version, refundableMinor: job.totalMinor, reason: "A scratch we left on the leg" };
     const before = refundCalls();
     for (const amountMinor of [0, -100, 0.5, "100", 1e30, null, Number.MAX_SAFE_INTEGER + 2]) {
@@ -103,7 +89,7 @@ describe("approving a quote with a body nobody's page sends", () => {
     const studio = createStudio({ email: `${unique("approve-what")}@test.example`, taxRateBp: 0 });
     const { owner, job } = await quotedRepairJob(studio);
     const sessions = () => stripe.fake.sessions().filter((s) => s.client_reference_id === job.id).length;
-    await signIn(owner.id);
+    await signInToJar(owner.id);
     for (const body of [{ quoteVersion: "1", totalMinor: job.totalMinor }, { quoteVersion: 1.5, totalMinor: job.totalMinor }, { quoteVersion: job.quoteVersion, totalMinor: -1 }, { quoteVersion: job.quoteVersion, totalMinor: 19.99 }]) {
       expect((await call(approveRoute, `/api/jobs/${job.id}/approve`, { id: job.id }, body)).status, JSON.stringify(body)).toBe(400);
     }

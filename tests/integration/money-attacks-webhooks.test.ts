@@ -62,19 +62,28 @@ async function studioWithOwnSecret() {
   return studio;
 }
 
+/** Studio B's owner approves a quote: the job, its payment page's address and its session at the fake. */
+async function approvedAtB() {
+  const b = createStudio({ email: `${unique("b")}@test.example`, taxRateBp: 0 });
+  const { owner, job } = await quotedRepairJob(b);
+  const { checkoutUrl } = await approveJob(owner, job.id);
+  const session = fake.sessions().find((s) => s.client_reference_id === job.id)!;
+  return { job, checkoutUrl, session };
+}
+
+/** Pays on the fake's payment page with its card that succeeds, as the owner's browser posts it. */
+const payOnPage = (url: string) => fetch(url, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" });
+
 const jobState = (id: string) => getDb().select({ s: repairJobs.state }).from(repairJobs).where(eq(repairJobs.id, id)).get()!.s;
 
 describe("a studio's own endpoint and another studio's money", () => {
   it("an event about another studio's paid checkout, signed with studio X's own secret, moves nothing; the other studio's own event then pays its job once", async () => {
     const x = await studioWithOwnSecret();
-    const b = createStudio({ email: `${unique("b")}@test.example`, taxRateBp: 0 });
-    const { owner, job } = await quotedRepairJob(b);
-    const { checkoutUrl } = await approveJob(owner, job.id);
-    const session = fake.sessions().find((s) => s.client_reference_id === job.id)!;
+    const { job, checkoutUrl, session } = await approvedAtB();
     gate.hold();
     try {
       // B's owner pays; the install's endpoint hasn't heard of it yet.
-      expect((await fetch(checkoutUrl!, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" })).status).toBe(303);
+      expect((await payOnPage(checkoutUrl!)).status).toBe(303);
       const forged = JSON.stringify({ id: `evt_${unique("forged")}`, object: "event", type: "checkout.session.completed", data: { object: { id: session.id, object: "checkout.session" } } });
       const answer = await post(x.id, forged, sign(forged, X_SECRET));
       expect(answer.status).toBeLessThan(500);
@@ -94,13 +103,10 @@ describe("a studio's own endpoint and another studio's money", () => {
 
 describe("events out of order", () => {
   it("a refund made at Stripe whose charge.refunded arrives before the checkout's own event is not lost: the payment shows it once the checkout is written", async () => {
-    const b = createStudio({ email: `${unique("b")}@test.example`, taxRateBp: 0 });
-    const { owner, job } = await quotedRepairJob(b);
-    const { checkoutUrl } = await approveJob(owner, job.id);
-    const session = fake.sessions().find((s) => s.client_reference_id === job.id)!;
+    const { job, checkoutUrl, session } = await approvedAtB();
     gate.hold();
     try {
-      expect((await fetch(checkoutUrl!, { method: "POST", body: new URLSearchParams({ card: SUCCESS_CARD }), redirect: "manual" })).status).toBe(303);
+      expect((await payOnPage(checkoutUrl!)).status).toBe(303);
       // Someone refunds it at Stripe by hand at once; its event is the first to reach the app.
       const pi = fake.sessions().find((s) => s.id === session.id)!.payment_intent!;
       await getStripe().refunds.create({ payment_intent: pi });

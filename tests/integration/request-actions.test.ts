@@ -10,34 +10,20 @@ import { z } from "zod";
 import { getDb } from "@/db/client";
 import { auditLog, memberships, sessions, users } from "@/db/schema";
 import type { StudioRole } from "@/lib/care/vocabulary";
-import { sha256Hex, randomToken } from "@/lib/crypto";
-import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
+import { SESSION_COOKIE } from "@/lib/auth/lucia";
 import { unsubscribeToken } from "@/lib/reminders/tokens";
+import { jar, signInToJar } from "../support/session-jar";
 import { createStudio, createUser } from "../support/fixtures";
 
-// next/headers outside a Next.js request: the cookie jar holds the session token of whoever signed in.
-const jar = vi.hoisted(() => new Map<string, string>());
-vi.mock("next/headers", () => ({
-  cookies: async () => ({
-    get: (name: string) => (jar.has(name) ? { name, value: jar.get(name)! } : undefined),
-    set: (name: string, value: string) => (value ? jar.set(name, value) : jar.delete(name)),
-  }),
-  headers: async () => new Headers(),
-}));
+// next/headers outside a Next.js request: the cookie jar holds the session token of whoever signed in (tests/support/session-jar.ts).
+vi.mock("next/headers", () => import("../support/session-jar").then((m) => m.nextHeaders));
 
 beforeEach(() => jar.clear());
-
-async function signIn(userId: string) {
-  const token = randomToken(24);
-  await getLucia().createSession(userId, {}, { sessionId: sha256Hex(token) });
-  jar.set(SESSION_COOKIE, token);
-  return sha256Hex(token);
-}
 
 async function signInMember(role: StudioRole) {
   const user = await createUser();
   getDb().insert(memberships).values({ studioId: createStudio().id, userId: user.id, role }).run();
-  await signIn(user.id);
+  await signInToJar(user.id);
   return user;
 }
 
@@ -99,7 +85,7 @@ describe("sign-out", () => {
   it("ends this session (its row is gone, the cookie blanked) and lands on the sign-in page that says so; signed out already, the same", async () => {
     const { signOutAction } = await import("@/app/actions/session");
     const user = await createUser();
-    const sessionId = await signIn(user.id);
+    const sessionId = await signInToJar(user.id);
     expect(await redirectOf(signOutAction(form({})))).toBe("/sign-in?signed-out=1");
     expect(getDb().select().from(sessions).where(eq(sessions.id, sessionId)).get()).toBeUndefined();
     expect(jar.has(SESSION_COOKIE)).toBe(false);
