@@ -76,6 +76,18 @@ async function submitSignIn(page: Page, signInPath: string, email: string, passw
 }
 
 /**
+ * Signs out with the header's button (someone signed in, on any page): it says so where one signs in
+ * again, and an owner's page then asks for signing in.
+ */
+export async function signOutSaysSo(page: Page) {
+  await page.getByRole("button", { name: "Sign out" }).click();
+  await expect(page).toHaveURL(/\/sign-in\?signed-out=1$/);
+  await expect(page.getByText("You are signed out on this device.")).toBeVisible();
+  await page.goto("/pieces");
+  await expect(page).toHaveURL(/\/sign-in\?next=%2Fpieces/);
+}
+
+/**
  * The selects under `scope` whose words do not fit: the chosen option's text ("selected") or the longest
  * option's ("widest"), measured in the select's own font, plus its side paddings and about 24 px for the
  * arrow, against its inner width. Each as "label: -N px" (N px short), so a failure says which and by how much.

@@ -5,7 +5,7 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { waitForMail, extractLinks } from "../support/mail";
-import { ACCOUNTS, APP_URL, fixture, PASSWORD, PORTS, SINK_URL, signIn, signInTo } from "./helpers";
+import { ACCOUNTS, APP_URL, fixture, PASSWORD, PORTS, SINK_URL, signIn, signInTo, signOutSaysSo } from "./helpers";
 import { manifestActions } from "./routes";
 
 test("changing the password: the server's refusal goes at the next press, also when the form's own checks stop that one", async ({ page }) => {
@@ -46,11 +46,7 @@ test("a piece's four actions sit two by two at 1280 px, one under another at 375
 
 test("signing out says so where one signs in again", async ({ page }) => {
   await signIn(page, ACCOUNTS.otherOwner);
-  await page.getByRole("button", { name: "Sign out" }).click();
-  await expect(page).toHaveURL(/\/sign-in\?signed-out=1$/);
-  await expect(page.getByText("You are signed out on this device.")).toBeVisible();
-  await page.goto("/pieces");
-  await expect(page).toHaveURL(/\/sign-in\?next=%2Fpieces/);
+  await signOutSaysSo(page);
 });
 
 test("a claim on a piece its owner has handed on is theirs to read: no photo picker, no message box, and why", async ({ browser }) => {
