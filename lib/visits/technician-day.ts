@@ -14,7 +14,7 @@ import { displayPhone } from "@/lib/clients/phone";
 import { notFound } from "@/lib/errors";
 import { formatVolume, type UnitSystem } from "@/lib/format";
 import { refreshedSurface } from "@/lib/pieces/care-inputs";
-import { quoteAreaM2, taskSurfaces } from "@/lib/repairs/pricing";
+import { quoteAreaM2, taskSurfaces, taskUsesProduct } from "@/lib/repairs/pricing";
 import { studioProducts } from "@/lib/pieces/registry";
 import { visitDay } from "@/lib/validation/dates";
 import { isStudioTechnician } from "./availability";
@@ -63,7 +63,8 @@ function whatToBring(job: RepairJob, piece: Piece, layers: readonly FinishLayer[
   const coats = Math.max(1, Number(input.coats) || 1);
   const tasks = new Set(input.tasks ?? []);
   const chosen = products.filter((p) => (input.productIds ?? []).includes(p.id));
-  const list = chosen.length ? chosen : products.filter((p) => tasks.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).slice(0, 1);
+  // None chosen: one of a quoted task's finish class, where the task uses product (an inspection uses none).
+  const list = chosen.length ? chosen : products.filter((p) => tasks.has(TASK_KIND_BY_FINISH_CLASS[p.finishClass]) && taskUsesProduct(TASK_KIND_BY_FINISH_CLASS[p.finishClass])).slice(0, 1);
   return list.map((p) => {
     const surface = refreshedSurface(layers, p.finishClass);
     // The layer's surface, or the top where the stack does not say which, and those priced beside it (lib/repairs/pricing taskSurfaces).

@@ -13,13 +13,15 @@ import { bookVisit } from "@/lib/visits/book";
 import { listJobSlots } from "@/lib/visits/slots";
 import { technicianDay } from "@/lib/visits/technician-day";
 import type { StoredJobQuote } from "@/db/schema";
+import { createProduct } from "../support/fixtures";
 import { staffActor, visitWorld } from "./visits-helpers";
 
 const NOW = Date.parse("2027-05-03T12:00:00Z"); // Monday 3 May 2027, 08:00 in New York
 
 /** The visit world's oiled-top piece, its quote changed as given, booked in its first free slot: what the technician is told to bring. */
-async function bringFor(quote: Partial<StoredJobQuote>, stack: "oiled base" | "film top over oiled base") {
+async function bringFor(quote: Partial<StoredJobQuote>, stack: "oiled base" | "film top over oiled base", catalog?: (w: Awaited<ReturnType<typeof visitWorld>>) => void) {
   const w = await visitWorld();
+  catalog?.(w);
   if (stack === "oiled base") getDb().insert(finishLayers).values({ studioId: w.studio.id, pieceId: w.piece.id, surface: "base", position: 0, finishClass: "hardwax_oil", coats: 1, appliedOn: w.piece.deliveredOn }).run();
   else
     getDb().insert(finishLayers).values([
@@ -56,5 +58,14 @@ describe("what to bring covers the surfaces the quote priced", () => {
     const [oil] = await bringFor({ areasM2: { base: 0.6 } }, "film top over oiled base");
     // The oil refreshes the base (the top ends in film): 0.6 m² ÷ 24 m²/L = 25 mL. Before: no amount, "measure it on site".
     expect(oil).toMatchObject({ surface: "base", amountFor: "base", alsoFor: [], unsized: [], amount: { ml: 25, containers: "1 × 125 mL" } });
+  });
+
+  // An inspection uses no product (common practice, no published source; lib/repairs/pricing taskUsesProduct).
+  it("an inspection of the film top with no product chosen: nothing to bring, not the catalog's varnish", async () => {
+    const bring = await bringFor({ tasks: ["film_inspect"], productIds: [] }, "film top over oiled base", (w) => {
+      createProduct(w.studio, { name: "Test conversion varnish (invented)", finishClass: "film_finish", coverageM2PerL: 12, containers: [{ ml: 1000, priceMinor: 4800 }] });
+    });
+    // Before: the varnish, found by the top's finish class, "for 1 coat on this top".
+    expect(bring).toEqual([]);
   });
 });
