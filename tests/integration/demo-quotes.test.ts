@@ -5,23 +5,16 @@
 import { and, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { memberships, pieces, repairJobs, studios, users, visits } from "@/db/schema";
-import { AlreadySeededError, DEMO_STUDIO_SLUG, seedDemo } from "@/db/seed/demo";
-import type { StudioContext } from "@/lib/auth/guards";
+import { pieces, repairJobs, studios, visits } from "@/db/schema";
 import { localDate } from "@/lib/care/dates";
 import { readLines } from "@/lib/repairs/lines";
 import { technicianDay } from "@/lib/visits/technician-day";
+import { memberContextOf, seededDemoStudio } from "../support/demo-studio";
 
 let studio: typeof studios.$inferSelect;
 
 beforeAll(async () => {
-  const db = getDb();
-  try {
-    await seedDemo(db);
-  } catch (e) {
-    if (!(e instanceof AlreadySeededError)) throw e;
-  }
-  studio = db.select().from(studios).where(eq(studios.slug, DEMO_STUDIO_SLUG)).get()!;
+  studio = await seededDemoStudio();
 }, 60_000);
 
 const jobOn = (pieceTitle: string, title: string) =>
@@ -50,9 +43,7 @@ describe("the demo's quotes", () => {
       ["Re-wax — base", 0.5],
     ]);
     const visit = getDb().select().from(visits).where(eq(visits.jobId, job.id)).get()!;
-    const tech = getDb().select().from(users).where(eq(users.id, visit.technicianId)).get()!;
-    const role = getDb().select().from(memberships).where(and(eq(memberships.userId, tech.id), eq(memberships.studioId, studio.id))).get()!.role;
-    const ctx = { user: { id: tech.id, email: tech.email, name: tech.name, emailVerifiedAt: tech.emailVerifiedAt, timeZone: tech.timeZone, unitSystem: tech.unitSystem, remindersEnabled: tech.remindersEnabled }, studio, role } satisfies StudioContext;
+    const ctx = memberContextOf(studio, visit.technicianId);
     const day = technicianDay(ctx, { date: localDate(visit.startAt.getTime(), studio.timeZone) });
     const item = day.items.find((i) => i.job.id === job.id)!;
     // Before: amountFor "top" alone ("for 1 coat on this top"), the legs left out.

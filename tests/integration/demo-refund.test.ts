@@ -6,20 +6,17 @@ import { and, eq, inArray, like } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { payments, repairJobs, studios } from "@/db/schema";
-import { AlreadySeededError, DEMO_STUDIO_SLUG, seedDemo } from "@/db/seed/demo";
+import { DEMO_STUDIO_SLUG } from "@/db/seed/demo";
 import { env } from "@/lib/env";
 import { seededCharges } from "@/lib/fakes/seeded-charges";
 import { startStripeFake, type StripeFake } from "@/lib/fakes/stripe-fake";
 import { refundJob } from "@/lib/repairs/refunds";
+import { seededDemoStudio } from "../support/demo-studio";
 import { memberContext } from "../support/fixtures";
 
 let fake: StripeFake;
 beforeAll(async () => {
-  try {
-    await seedDemo(getDb());
-  } catch (e) {
-    if (!(e instanceof AlreadySeededError)) throw e;
-  }
+  await seededDemoStudio();
   // Webhooks go nowhere: the test reads the fake's charges, not the app's payment rows.
   fake = await startStripeFake({ port: 0, secretKey: env.STRIPE_SECRET_KEY, webhookSecret: env.STRIPE_WEBHOOK_SECRET, webhookUrl: "http://127.0.0.1:9/", charges: seededCharges(env.DATABASE_URL) });
   env.STRIPE_API_PORT = fake.port;

@@ -3,27 +3,19 @@
 import { eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { claims, memberships, reminderSends, studios, users } from "@/db/schema";
-import { AlreadySeededError, DEMO_ACCOUNTS, DEMO_STUDIO_SLUG, seedDemo } from "@/db/seed/demo";
-import type { StudioContext } from "@/lib/auth/guards";
+import { claims, reminderSends, users } from "@/db/schema";
+import { DEMO_ACCOUNTS } from "@/db/seed/demo";
 import { getOverview, type Overview } from "@/lib/overview";
+import { memberContextOf, seededDemoStudio } from "../support/demo-studio";
 
 let o: Overview;
 let studioId: string;
 
 beforeAll(async () => {
-  const db = getDb();
-  try {
-    await seedDemo(db);
-  } catch (e) {
-    if (!(e instanceof AlreadySeededError)) throw e;
-  }
-  const studio = db.select().from(studios).where(eq(studios.slug, DEMO_STUDIO_SLUG)).get()!;
+  const studio = await seededDemoStudio();
   studioId = studio.id;
-  const maren = db.select().from(users).where(eq(users.email, DEMO_ACCOUNTS.maren.email)).get()!;
-  const role = db.select().from(memberships).where(eq(memberships.userId, maren.id)).get()!.role;
-  const ctx = { user: { id: maren.id, email: maren.email, name: maren.name, emailVerifiedAt: maren.emailVerifiedAt, timeZone: maren.timeZone, unitSystem: maren.unitSystem, remindersEnabled: maren.remindersEnabled }, studio, role } satisfies StudioContext;
-  o = getOverview(ctx);
+  const maren = getDb().select().from(users).where(eq(users.email, DEMO_ACCOUNTS.maren.email)).get()!;
+  o = getOverview(memberContextOf(studio, maren.id));
   if (process.env.GW_PRINT_OVERVIEW) console.log(JSON.stringify({ ...o, revenue: { ...o.revenue, months: o.revenue.months.filter((m) => m.paidMinor) } }, null, 1));
 }, 60_000);
 

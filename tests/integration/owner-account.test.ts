@@ -8,7 +8,7 @@ import { beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { auditLog, claims, clients, memberships, ownerships, pieces, refreshOffers, repairJobs, sessions, threadMessages, threads, userTokens, users } from "@/db/schema";
 import { ownerActor } from "@/lib/auth/actor";
-import { getLucia, SESSION_COOKIE } from "@/lib/auth/lucia";
+import { SESSION_COOKIE } from "@/lib/auth/lucia";
 import { settleAfterAnswer } from "@/lib/auth/after-answer";
 import { signIn as signInWithPassword } from "@/lib/auth/accounts";
 import { randomToken, sha256Hex } from "@/lib/crypto";
@@ -19,17 +19,11 @@ import { DELETED_NAME, deleteAccount, deletionPreview } from "@/lib/owner/accoun
 import { changeEmailSchema } from "@/lib/validation/account";
 import { createPiece, createStudio, createUser, unique } from "../support/fixtures";
 import { extractLinks, listMail, waitForMail } from "../support/mail";
+import { form, jar, redirectOf, signInToJar } from "../support/session-jar";
 import { claimWorld, fileClaim, offerFor } from "./claims-helpers";
 
-// next/headers outside a Next.js request: the cookie jar holds the session token of whoever signed in.
-const jar = vi.hoisted(() => new Map<string, string>());
-vi.mock("next/headers", () => ({
-  cookies: async () => ({
-    get: (name: string) => (jar.has(name) ? { name, value: jar.get(name)! } : undefined),
-    set: (name: string, value: string) => (value ? jar.set(name, value) : jar.delete(name)),
-  }),
-  headers: async () => new Headers(),
-}));
+// next/headers outside a Next.js request: the cookie jar holds the session token of whoever signed in (tests/support/session-jar.ts).
+vi.mock("next/headers", () => import("../support/session-jar").then((m) => m.nextHeaders));
 beforeEach(() => jar.clear());
 
 const CLAIM_NOTE = "I deleted my Grainward account, so this claim is withdrawn. (Written by Grainward when the account was deleted.)";
@@ -37,28 +31,7 @@ const PASSWORD = "correct horse battery"; // tests/support/fixtures.ts createUse
 let ipCounter = 0;
 const ip = () => `198.51.100.${++ipCounter % 250}`;
 
-async function session(userId: string, inJar = true) {
-  const token = randomToken(24);
-  await getLucia().createSession(userId, {}, { sessionId: sha256Hex(token) });
-  if (inJar) jar.set(SESSION_COOKIE, token);
-  return sha256Hex(token);
-}
-
-/** Where a form action sent the browser (Next.js's redirect() throws with the target in its digest). */
-async function redirectOf(run: Promise<unknown>): Promise<string> {
-  const e = (await run.then(
-    () => null,
-    (err: unknown) => err,
-  )) as { digest?: string } | null;
-  expect(e?.digest, "the action should end in a redirect").toMatch(/^NEXT_REDIRECT;/);
-  return e!.digest!.split(";")[2]!;
-}
-
-const form = (fields: Record<string, string>) => {
-  const f = new FormData();
-  for (const [k, v] of Object.entries(fields)) f.set(k, v);
-  return f;
-};
+const session = (userId: string, inJar = true) => signInToJar(userId, { inJar });
 
 const ask = (userId: string, email: string, current = PASSWORD) => requestEmailChange({ id: userId }, changeEmailSchema.parse({ email, current }), ip());
 

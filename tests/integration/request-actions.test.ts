@@ -12,7 +12,7 @@ import { auditLog, memberships, sessions, users } from "@/db/schema";
 import type { StudioRole } from "@/lib/care/vocabulary";
 import { SESSION_COOKIE } from "@/lib/auth/lucia";
 import { unsubscribeToken } from "@/lib/reminders/tokens";
-import { jar, signInToJar } from "../support/session-jar";
+import { form, jar, redirectOf, signInToJar } from "../support/session-jar";
 import { createStudio, createUser } from "../support/fixtures";
 
 // next/headers outside a Next.js request: the cookie jar holds the session token of whoever signed in (tests/support/session-jar.ts).
@@ -25,22 +25,6 @@ async function signInMember(role: StudioRole) {
   getDb().insert(memberships).values({ studioId: createStudio().id, userId: user.id, role }).run();
   await signInToJar(user.id);
   return user;
-}
-
-const form = (fields: Record<string, string>) => {
-  const f = new FormData();
-  for (const [k, v] of Object.entries(fields)) f.set(k, v);
-  return f;
-};
-
-/** Where a form action sent the browser (Next.js's redirect() throws with the target in its digest). */
-async function redirectOf(run: Promise<unknown>): Promise<string> {
-  const e = (await run.then(
-    () => null,
-    (err: unknown) => err,
-  )) as { digest?: string } | null;
-  expect(e?.digest, "the action should end in a redirect").toMatch(/^NEXT_REDIRECT;/);
-  return e!.digest!.split(";")[2]!;
 }
 
 const remindersOn = (userId: string) => getDb().select({ on: users.remindersEnabled }).from(users).where(eq(users.id, userId)).get()!.on;
