@@ -101,6 +101,14 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   // Stood in for: the quote sent and the job covered by the warranty, with a note for the technician;
   // the owner's client record carries a phone number (stored E.164).
   expect(writeE2eDb("UPDATE repair_jobs SET state = 'covered', quote_version = 1, notes = ? WHERE id = ?", NOTES, jobId)).toBe(1);
+  // The claim's first quote on this film-finished top is an inspection, which brings no product
+  // (lib/repairs/pricing.ts taskUsesProduct); staff chose the studio's conversion varnish for the patch.
+  expect(
+    writeE2eDb(
+      "UPDATE repair_jobs SET quote_input = json_set(quote_input, '$.productIds', json_array((SELECT id FROM finish_products WHERE studio_id = repair_jobs.studio_id AND name = 'Conversion varnish, satin'))) WHERE id = ?",
+      jobId,
+    ),
+  ).toBe(1);
   writeE2eDb(
     "UPDATE clients SET phone = '+15035550188' WHERE user_id = (SELECT id FROM users WHERE email = ?) AND studio_id = (SELECT studio_id FROM repair_jobs WHERE id = ?)",
     ACCOUNTS.owner,
@@ -150,8 +158,8 @@ test("claim accepted → repair job → visit booked → report filed → claim 
   await expect(card.getByText(/^Cure: light use after \d+ h, full use after \d+ days/).first()).toBeVisible();
   await expect(card.getByText("Not started yet")).toBeVisible();
   await card.getByLabel("What was done").fill("Too early (e2e).");
-  // The proposed layer's surface: no stack of this piece (varnish on the top and the edges) ends in the
-  // finish the quote brings, so the form leaves it at "Choose a surface" and she chooses.
+  // The proposed layer's surface: the varnish the quote brings is the outer coat of two of this piece's
+  // stacks (the top and the edges), so the form leaves it at "Choose a surface" and she chooses.
   await expect(card.getByLabel("Surface")).toHaveValue("");
   await card.getByLabel("Surface").selectOption("top");
   await card.getByRole("button", { name: "File the report and close the job" }).click();
